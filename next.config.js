@@ -1,0 +1,12 @@
+// Next.js settings: Sequelize stays outside the server bundle (it loads dialects dynamically).
+/** @type {import('next').NextConfig} */
+const nextConfig = {
+  serverExternalPackages: ["sequelize", "argon2", "smtp-server", "mailparser", "nodemailer"],
+  allowedDevOrigins: ["127.0.0.1"],
+  poweredByHeader: false,
+  experimental: {
+    serverActions: { bodySizeLimit: "2mb" },
+  },
+};
+
+module.exports = nextConfig;
