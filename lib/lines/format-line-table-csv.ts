@@ -1,0 +1,75 @@
+// Writes line-table rows as Emberline's CSV (release export, the starter table); parseLineTableCsv reads it back unchanged.
+
+import Papa from "papaparse";
+
+import { LINE_TABLE_COLUMNS, LINE_TABLE_COLUMN_NAMES } from "./line-table-columns";
+import type { LineTableRow } from "./types";
+
+export interface FormatLineTableCsvOptions {
+  /**
+   * Free comment lines for the top of the file (title, release, sources); each becomes a "# " line.
+   * @default []
+   */
+  comments?: readonly string[];
+  /**
+   * Write the meaning of every column into the comment header, so the file documents itself.
+   * @default true
+   */
+  describeColumns?: boolean;
+}
+
+/** Shortest text that reads back as the same number; blank for null. */
+function numberCell(value: number | null | undefined): string {
+  return value === null || value === undefined ? "" : String(value);
+}
+
+function rowCells(row: LineTableRow): string[] {
+  const cells: Record<string, string> = {
+    species: row.species,
+    air_nm: numberCell(row.airNm),
+    vacuum_nm: numberCell(row.vacuumNm),
+    uncertainty_nm: numberCell(row.uncertaintyNm),
+    intensity_flame: numberCell(row.intensities.flame),
+    intensity_arc: numberCell(row.intensities.arc),
+    intensity_spark: numberCell(row.intensities.spark),
+    intensity_plasma: numberCell(row.intensities.plasma),
+    intensity_lamp: numberCell(row.intensities.lamp),
+    lower_ev: numberCell(row.lowerEv),
+    upper_ev: numberCell(row.upperEv),
+    g_upper: numberCell(row.gUpper),
+    a_per_s: numberCell(row.aPerS),
+    flags: row.flags.join(";"),
+    band_extent_nm: numberCell(row.band?.extentNm),
+    band_degrades_to: row.band?.degradesTo ?? "",
+    source: row.source,
+    verified: row.verified ? "true" : "false",
+    note: row.note,
+  };
+  return LINE_TABLE_COLUMN_NAMES.map((name) => cells[name]);
+}
+
+/** Formats rows as CSV text: comment header, header row, one line per row, "\n" line ends. */
+export function formatLineTableCsv(
+  rows: readonly LineTableRow[],
+  options: FormatLineTableCsvOptions = {},
+): string {
+  const { comments = [], describeColumns = true } = options;
+  if (!Array.isArray(rows)) throw new RangeError("rows must be an array");
+  const header: string[] = [];
+  for (const comment of comments) {
+    for (const line of comment.split(/\r?\n/)) header.push(line === "" ? "#" : `# ${line}`);
+  }
+  if (describeColumns) {
+    header.push("# Columns:");
+    for (const column of LINE_TABLE_COLUMNS) {
+      header.push(
+        `#   ${column.name}${column.required ? " (required)" : ""}: ${column.description}`,
+      );
+    }
+  }
+  const body = Papa.unparse(
+    { fields: [...LINE_TABLE_COLUMN_NAMES], data: rows.map(rowCells) },
+    { newline: "\n", quotes: false },
+  );
+  return [...header, body].join("\n") + "\n";
+}
