@@ -1,0 +1,15 @@
+// POST accepts an invitation: sets the new person's password (or checks an existing one) and joins.
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
+import { getSession } from "@/lib/auth/session";
+import { acceptInvitation } from "@/lib/services/teams";
+import { acceptInvitationSchema } from "@/lib/validation/account-schemas";
+
+export const POST = apiRoute(async (request) => {
+  const input = await parseJson(request, acceptInvitationSchema);
+  const userId = await acceptInvitation(input);
+  const session = await getSession();
+  session.userId = userId;
+  session.signedInAt = Date.now();
+  await session.save();
+  return Response.json({ userId }, { status: 201 });
+});

@@ -1,0 +1,5 @@
+// GET the signed-in person and their teams with the role in each.
+import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { toMe } from "./to-me";
+
+export const GET = apiRoute(async () => Response.json(toMe(await requireActor())));

@@ -1,0 +1,9 @@
+// POST sets a new password with a reset link's token.
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
+import { resetPassword } from "@/lib/services/accounts";
+import { passwordResetSchema } from "@/lib/validation/account-schemas";
+
+export const POST = apiRoute(async (request) => {
+  await resetPassword(await parseJson(request, passwordResetSchema));
+  return new Response(null, { status: 204 });
+});

@@ -1,0 +1,12 @@
+// GET the person's active access tokens; POST creates one and returns its secret once.
+import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { createAccessToken, fetchAccessTokens } from "@/lib/services/access-tokens";
+import { tokenCreateSchema } from "@/lib/validation/account-schemas";
+
+export const GET = apiRoute(async () => Response.json(await fetchAccessTokens(await requireActor())));
+
+export const POST = apiRoute(async (request) => {
+  const actor = await requireActor();
+  const input = await parseJson(request, tokenCreateSchema);
+  return Response.json(await createAccessToken(actor, input), { status: 201 });
+});

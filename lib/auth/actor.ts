@@ -1,0 +1,19 @@
+// The signed-in person as every service sees them: identity and role per team.
+import type { TeamRole } from "./roles";
+
+export interface TeamMembership {
+  teamId: string;
+  teamName: string;
+  role: TeamRole;
+}
+
+export interface Actor {
+  id: string;
+  email: string;
+  name: string;
+  memberships: TeamMembership[];
+}
+
+export function roleIn(actor: Actor, teamId: string): TeamRole | undefined {
+  return actor.memberships.find((m) => m.teamId === teamId)?.role;
+}

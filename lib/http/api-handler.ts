@@ -1,0 +1,64 @@
+// The shape of every JSON route handler: authenticate, check Origin on cookie mutations,
+// parse the body with its zod schema, call a service, and map errors in one place.
+import "server-only";
+import { headers } from "next/headers";
+import type { z } from "zod";
+import { AppError, toResponse, unauthenticated } from "@/lib/errors";
+import type { Actor } from "@/lib/auth/actor";
+import { currentActor, usesBearerToken } from "@/lib/auth/session";
+import { zodFieldErrors } from "@/lib/validation/field-errors";
+
+type RouteContext = { params: Promise<Record<string, string>> };
+
+export function apiRoute(
+  handler: (request: Request, context: RouteContext) => Promise<Response>,
+): (request: Request, context: RouteContext) => Promise<Response> {
+  return async (request, context) => {
+    try {
+      if (request.method !== "GET" && request.method !== "HEAD") await assertSameOrigin(request);
+      return await handler(request, context);
+    } catch (error) {
+      return toResponse(error);
+    }
+  };
+}
+
+/** Cookie-authenticated mutations must come from our own pages; tokens need no such check. */
+async function assertSameOrigin(request: Request): Promise<void> {
+  if (await usesBearerToken()) return;
+  const origin = request.headers.get("origin");
+  if (!origin) return;
+  const host = (await headers()).get("host");
+  let originHost: string;
+  try {
+    originHost = new URL(origin).host;
+  } catch {
+    throw new AppError("forbidden", "The request's Origin header is not valid.");
+  }
+  if (originHost !== host) throw new AppError("forbidden", "Cross-site requests are not accepted.");
+}
+
+export async function requireActor(): Promise<Actor> {
+  const actor = await currentActor();
+  if (!actor) throw unauthenticated();
+  return actor;
+}
+
+export async function parseJson<T extends z.ZodType>(request: Request, schema: T): Promise<z.infer<T>> {
+  let body: unknown;
+  try {
+    body = await request.json();
+  } catch {
+    throw new AppError("validation", "The request body must be JSON.");
+  }
+  const parsed = schema.safeParse(body);
+  if (!parsed.success) {
+    throw new AppError("validation", "Some fields are not right.", { fieldErrors: zodFieldErrors(parsed.error) });
+  }
+  return parsed.data;
+}
+
+export function clientAddress(request: Request): string {
+  const forwarded = request.headers.get("x-forwarded-for");
+  return forwarded?.split(",")[0]?.trim() || request.headers.get("x-real-ip") || "local";
+}

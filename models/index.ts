@@ -1,0 +1,22 @@
+// All models and their associations; import models from here so associations are always set.
+import { AccessToken } from "./access-token";
+import { AuditEvent } from "./audit-event";
+import { Invitation } from "./invitation";
+import { Membership } from "./membership";
+import { PasswordResetToken } from "./password-reset-token";
+import { SignInAttempt } from "./sign-in-attempt";
+import { Team } from "./team";
+import { User } from "./user";
+
+User.hasMany(Membership, { foreignKey: "userId", as: "memberships" });
+Membership.belongsTo(User, { foreignKey: "userId", as: "user" });
+Team.hasMany(Membership, { foreignKey: "teamId", as: "memberships" });
+Membership.belongsTo(Team, { foreignKey: "teamId", as: "team" });
+Invitation.belongsTo(Team, { foreignKey: "teamId", as: "team" });
+Invitation.belongsTo(User, { foreignKey: "invitedById", as: "invitedBy" });
+AccessToken.belongsTo(User, { foreignKey: "userId", as: "user" });
+PasswordResetToken.belongsTo(User, { foreignKey: "userId", as: "user" });
+AuditEvent.belongsTo(User, { foreignKey: "actorId", as: "actor" });
+
+export { AccessToken, AuditEvent, Invitation, Membership, PasswordResetToken, SignInAttempt, Team, User };
+export { sequelize } from "../db/sequelize";

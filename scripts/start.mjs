@@ -1,0 +1,59 @@
+// `npm start`: a fresh clone to the running app with demo data; `npm run dev` for hot reload.
+// Idempotent: a second run reuses the cluster, the database and the demo data.
+import path from "node:path";
+import { spawnSync } from "node:child_process";
+import { bootstrap, log, root, startChild, stopChildren, waitForPort } from "./bootstrap.mjs";
+
+const dev = process.argv.includes("--dev");
+const port = Number(process.env.PORT ?? 3000);
+const host = process.env.HOST ?? "127.0.0.1";
+
+async function main() {
+  const { env, stopCluster } = await bootstrap({
+    database: process.env.EMBERLINE_DB_NAME ?? "emberline",
+    mailPort: Number(process.env.EMBERLINE_SMTP_PORT ?? 2525),
+    mailDir: "mail",
+  });
+  const appEnv = { ...env, APP_URL: process.env.APP_URL ?? `http://${host}:${port}` };
+  const next = path.join(root, "node_modules", ".bin", "next");
+
+  if (!dev) {
+    log("Building the app (next build)…");
+    const build = spawnSync(next, ["build"], { cwd: root, stdio: "inherit", env: { ...appEnv, NODE_ENV: "production" } });
+    if (build.status !== 0) throw new Error("next build failed");
+  }
+  const app = startChild(next, [dev ? "dev" : "start", "-H", host, "-p", String(port)], {
+    env: { ...appEnv, NODE_ENV: dev ? "development" : "production" },
+  });
+
+  const shutdown = () => {
+    log("Stopping…");
+    stopChildren();
+    stopCluster();
+    process.exit(0);
+  };
+  process.on("SIGINT", shutdown);
+  process.on("SIGTERM", shutdown);
+  app.once("exit", (code) => {
+    log(`The app exited (${code}).`);
+    stopChildren();
+    stopCluster();
+    process.exit(code ?? 1);
+  });
+
+  await waitForPort(port, 180_000, host);
+  {
+    log(`Emberline is running at ${appEnv.APP_URL}`);
+    log("Demo sign-ins (password emberline-demo):");
+    log("  chem@demo.emberline.example   chemist");
+    log("  super@demo.emberline.example  supervisor");
+    log("  lead@demo.emberline.example   lab lead");
+    log("Press Ctrl-C to stop; the data stays in .data/.");
+  }
+}
+
+main().catch((error) => {
+  process.stderr.write(`[emberline] ${error instanceof Error ? error.message : error}\n`);
+  stopChildren();
+  process.exit(1);
+});
