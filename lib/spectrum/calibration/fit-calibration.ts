@@ -1,0 +1,232 @@
+// Fits a wavelength calibration to lamp pairs with iterative outlier rejection: the calibration step
+// a chemist runs once per instrument and date.
+import type { CalibrationPair } from "../types";
+import { assertDomain, assertPairs } from "./assertions";
+import { assertMonotonicCalibration } from "./assert-monotonic-calibration";
+import { CalibrationError } from "./calibration-error";
+import type {
+  CalibrationModel,
+  CalibrationModelKind,
+  CalibrationWarning,
+  FittedCalibrationPair,
+} from "./calibration-model";
+import { fitHartmannModel } from "./fit-hartmann-model";
+import { fitPolynomialModel } from "./fit-polynomial-model";
+import { fitPrismModel } from "./fit-prism-model";
+import { GLASS_NAMES, type GlassName } from "./glass-catalogue";
+import { informationCriteria } from "./information-criteria";
+import { modelEvaluation } from "./model-evaluation";
+import type { CovarianceScaling, ModelFitInput } from "./model-fit-input";
+
+export interface FitCalibrationOptions {
+  /**
+   * Which dispersion relation to fit.
+   * @default "polynomial"
+   */
+  model?: CalibrationModelKind;
+  /**
+   * Polynomial degree, 1–5 (polynomial model only).
+   * @default 3
+   */
+  degree?: number;
+  /**
+   * The array's extent on the input axis [xMin, xMax]; the solution must be monotonic over all of it.
+   * @default the extent of the pairs
+   */
+  domain?: [number, number];
+  /**
+   * Glass of the prism (prism model). When omitted every catalogue glass is tried and the one with the
+   * lowest AICc is kept; all glasses have the same parameter count, so AICc and BIC rank them alike
+   * (by χ²) and the choice of criterion only matters across models.
+   * @default undefined (try the catalogue)
+   */
+  glass?: GlassName;
+  /**
+   * Apex angle of the prism in degrees (prism model).
+   * @default 60
+   */
+  apexDeg?: number;
+  /**
+   * Fit the apex angle too (it is strongly correlated with the incidence angle; expect a wide covariance).
+   * @default false
+   */
+  fitApex?: boolean;
+  /**
+   * Reject outliers one at a time while the worst residual exceeds clipSigma robust standard deviations.
+   * @default true
+   */
+  rejectOutliers?: boolean;
+  /**
+   * Clipping threshold in robust standard deviations (1.4826 × median absolute residual).
+   * @default 4
+   */
+  clipSigma?: number;
+  /**
+   * At most this many pairs are rejected.
+   * @default floor(0.25 × number of pairs)
+   */
+  maxRejections?: number;
+  /**
+   * Floor of the robust residual scale in nm, so exact synthetic data or a lucky fit does not reject
+   * good pairs; lamp tables themselves differ by 0.001–0.002 nm between conventions (common practice).
+   * @default 0.002
+   */
+  minResidualScaleNm?: number;
+  /**
+   * "residual": scale the covariance by χ²/dof (the spread of the residuals sets the error scale);
+   * "absolute": trust the given x uncertainties as they are.
+   * @default "residual"
+   */
+  covarianceScaling?: CovarianceScaling;
+  /**
+   * "x-uncertainty": weight each pair by 1/(σx·dλ/dx)² (σx = 1 when not given);
+   * "uniform": ordinary unweighted least squares in nm.
+   * @default "x-uncertainty"
+   */
+  weighting?: "x-uncertainty" | "uniform";
+}
+
+export interface FitCalibrationResult {
+  model: CalibrationModel;
+  /** Every input pair, in input order, with its residual under the final model and whether it was used. */
+  pairs: FittedCalibrationPair[];
+  /** The pairs the outlier rejection removed, worst first. */
+  rejected: FittedCalibrationPair[];
+  rmsNm: number;
+  dof: number;
+  warnings: CalibrationWarning[];
+}
+
+/** Parameters each model fits, so the too-few-pairs error can say what is needed. */
+export function parameterCount(kind: CalibrationModelKind, degree = 3, fitApex = false): number {
+  if (kind === "polynomial") return degree + 1;
+  if (kind === "hartmann") return 4;
+  return fitApex ? 4 : 3;
+}
+
+function median(values: number[]): number {
+  const sorted = values.slice().sort((a, b) => a - b);
+  const middle = sorted.length >> 1;
+  return sorted.length % 2 ? sorted[middle] : (sorted[middle - 1] + sorted[middle]) / 2;
+}
+
+/** Fits one model kind to the given subset; the glass search lives here. */
+function fitOnce(input: ModelFitInput, options: Required<Omit<FitCalibrationOptions, "glass" | "domain">> & { glass?: GlassName }): CalibrationModel {
+  const uniform = options.weighting === "uniform";
+  if (options.model === "polynomial") return fitPolynomialModel(input, options.degree, options.covarianceScaling, uniform);
+  if (options.model === "hartmann") return fitHartmannModel(input, options.covarianceScaling, uniform);
+  const glasses = options.glass ? [options.glass] : GLASS_NAMES;
+  let best: { model: CalibrationModel; aicc: number } | undefined;
+  let lastError: unknown;
+  for (const glass of glasses) {
+    try {
+      const model = fitPrismModel(input, {
+        glass,
+        apexDeg: options.apexDeg,
+        fitApex: options.fitApex,
+        scaling: options.covarianceScaling,
+      });
+      const { aicc } = informationCriteria(model.chiSquare, model.pairCount, model.parameters.length);
+      if (!best || aicc < best.aicc) best = { model, aicc };
+    } catch (error) {
+      lastError = error;
+    }
+  }
+  if (!best) throw lastError ?? new CalibrationError("fit-failed", "no catalogue glass fits the pairs");
+  return best.model;
+}
+
+/** Fits `pairs` with the chosen model, rejecting outliers one at a time. */
+export function fitCalibration(pairs: CalibrationPair[], options: FitCalibrationOptions = {}): FitCalibrationResult {
+  assertPairs(pairs);
+  const {
+    model: kind = "polynomial",
+    degree = 3,
+    apexDeg = 60,
+    fitApex = false,
+    rejectOutliers = true,
+    clipSigma = 4,
+    maxRejections = Math.floor(0.25 * pairs.length),
+    minResidualScaleNm = 0.002,
+    covarianceScaling = "residual",
+    weighting = "x-uncertainty",
+    glass,
+  } = options;
+  if (kind === "polynomial" && !(Number.isInteger(degree) && degree >= 1 && degree <= 5)) {
+    throw new RangeError(`degree must be an integer from 1 to 5, got ${degree}`);
+  }
+  if (!(clipSigma > 0)) throw new RangeError(`clipSigma must be positive, got ${clipSigma}`);
+  if (!(apexDeg > 0 && apexDeg < 90)) throw new RangeError(`apexDeg must be in (0, 90), got ${apexDeg}`);
+  const needed = parameterCount(kind, degree, fitApex) + 1;
+  if (pairs.length < needed) {
+    throw new CalibrationError(
+      "too-few-pairs",
+      `a ${kind === "polynomial" ? `degree-${degree} polynomial` : `${kind} model`} needs at least ${needed} pairs ` +
+        `(parameters + 1), got ${pairs.length}`,
+      { needed, given: pairs.length },
+    );
+  }
+  const xs = pairs.map((p) => p.x);
+  const domain = options.domain ?? [Math.min(...xs), Math.max(...xs)];
+  assertDomain(domain);
+  // Pairs without an uncertainty take the median of the given ones (or 1 when none is given).
+  const given = pairs.map((p) => p.xUncertainty).filter((s): s is number => s !== undefined);
+  const fallbackSigma = given.length > 0 ? median(given) : 1;
+  const settings = { model: kind, degree, apexDeg, fitApex, rejectOutliers, clipSigma, maxRejections, minResidualScaleNm, covarianceScaling, weighting, glass };
+
+  const used = pairs.map(() => true);
+  const rejectedOrder: number[] = [];
+  const fitUsed = () => {
+    const indices = used.flatMap((u, i) => (u ? [i] : []));
+    const input: ModelFitInput = {
+      x: indices.map((i) => pairs[i].x),
+      wavelengthNm: indices.map((i) => pairs[i].wavelengthNm),
+      xUncertainty: indices.map((i) => pairs[i].xUncertainty ?? fallbackSigma),
+      domain: [domain[0], domain[1]],
+    };
+    return fitOnce(input, settings);
+  };
+  let model = fitUsed();
+  const residualsOf = (m: CalibrationModel) => {
+    const fitted = modelEvaluation(m, xs).wavelengthNm;
+    return pairs.map((p, i) => p.wavelengthNm - fitted[i]);
+  };
+  let residuals = residualsOf(model);
+  while (rejectOutliers && rejectedOrder.length < maxRejections && used.filter(Boolean).length > needed) {
+    const usedResiduals = residuals.filter((_, i) => used[i]);
+    const scale = Math.max(1.4826 * median(usedResiduals.map(Math.abs)), minResidualScaleNm);
+    let worst = -1;
+    for (let i = 0; i < pairs.length; i++) {
+      if (used[i] && (worst < 0 || Math.abs(residuals[i]) > Math.abs(residuals[worst]))) worst = i;
+    }
+    if (Math.abs(residuals[worst]) <= clipSigma * scale) break;
+    used[worst] = false;
+    rejectedOrder.push(worst);
+    model = fitUsed();
+    residuals = residualsOf(model);
+  }
+  assertMonotonicCalibration(model);
+
+  const fittedPairs: FittedCalibrationPair[] = pairs.map((p, i) => ({ ...p, residualNm: residuals[i], used: used[i] }));
+  const warnings: CalibrationWarning[] = [];
+  if (rejectedOrder.length > 0) {
+    warnings.push({
+      code: "outliers-rejected",
+      message: `${rejectedOrder.length} of ${pairs.length} pairs were rejected as outliers (|residual| > ${clipSigma} robust σ)`,
+    });
+  }
+  if (model.dof < 3) {
+    warnings.push({
+      code: "few-degrees-of-freedom",
+      message: `only ${model.dof} degrees of freedom: the residuals say little about the calibration's quality`,
+    });
+  }
+  return {
+    model,
+    pairs: fittedPairs,
+    rejected: rejectedOrder.map((i) => fittedPairs[i]),
+    rmsNm: model.rmsNm,
+    dof: model.dof,
+    warnings,
+  };
+}

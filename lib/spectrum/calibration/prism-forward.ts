@@ -1,0 +1,108 @@
+// Forward model of a prism spectrometer, x(λ), and its numerical inverse λ(x) for the prism calibration.
+//
+// The forward direction is closed-form (Snell's law at both faces); the inverse has none, so λ(x) is
+// found on a bracket by Newton steps safeguarded with bisection, which always converges because x(λ)
+// is monotonic wherever the fit is accepted.
+import { refractiveIndex } from "./refractive-index";
+import type { GlassName } from "./glass-catalogue";
+
+/** Geometry of a prism spectrometer in the units the calibration fits it in. */
+export interface PrismGeometry {
+  glass: GlassName;
+  /** Angle of incidence on the first face, rad. */
+  incidenceRad: number;
+  /** Apex (refracting) angle, rad. */
+  apexRad: number;
+  /** Focal length of the camera in x units per radian (positive). */
+  focalX: number;
+  /** x where the ray of the reference wavelength lands. */
+  axisX: number;
+  /** +1 when λ grows with x. */
+  direction: 1 | -1;
+  referenceWavelengthNm: number;
+}
+
+/** Deviation angle (rad) of a ray through a prism of index n; NaN when the ray is totally reflected. */
+export function prismDeviationRad(n: number, incidenceRad: number, apexRad: number): number {
+  const insideFirst = Math.asin(Math.sin(incidenceRad) / n);
+  const sinExit = n * Math.sin(apexRad - insideFirst);
+  if (!(Math.abs(sinExit) < 1)) return Number.NaN;
+  return incidenceRad + Math.asin(sinExit) - apexRad;
+}
+
+/** x at which a wavelength lands; NaN where the ray cannot leave the prism or the glass has no index. */
+export function prismForwardX(geometry: PrismGeometry, wavelengthNm: number): number {
+  let n: number;
+  let nRef: number;
+  try {
+    n = refractiveIndex(geometry.glass, wavelengthNm);
+    nRef = refractiveIndex(geometry.glass, geometry.referenceWavelengthNm);
+  } catch {
+    return Number.NaN;
+  }
+  const deviation = prismDeviationRad(n, geometry.incidenceRad, geometry.apexRad);
+  const deviationRef = prismDeviationRad(nRef, geometry.incidenceRad, geometry.apexRad);
+  // Red light is deviated less, so δref − δ grows with λ and `direction` says which way x runs.
+  return geometry.axisX + geometry.direction * geometry.focalX * Math.tan(deviationRef - deviation);
+}
+
+/** The wavelength span over which the inverse is searched, nm. */
+const SEARCH_RANGE_NM: [number, number] = [200, 2500];
+const GRID_POINTS = 400;
+
+/**
+ * λ(x) for each x by inverting prismForwardX; NaN for an x the forward model never reaches on the
+ * search range (200–2500 nm, clipped to where the glass's formula and the ray exist).
+ */
+export function prismInverseWavelengths(geometry: PrismGeometry, x: ArrayLike<number>): Float64Array {
+  // Tabulate x(λ) on a grid even in 1/λ (where prism dispersion is roughly uniform) to bracket each root.
+  const gridNm: number[] = [];
+  const gridX: number[] = [];
+  const [lo, hi] = SEARCH_RANGE_NM;
+  for (let i = 0; i < GRID_POINTS; i++) {
+    const inverse = 1 / lo + ((1 / hi - 1 / lo) * i) / (GRID_POINTS - 1);
+    const wavelengthNm = 1 / inverse;
+    const xAt = prismForwardX(geometry, wavelengthNm);
+    if (Number.isFinite(xAt)) {
+      gridNm.push(wavelengthNm);
+      gridX.push(xAt);
+    }
+  }
+  const result = new Float64Array(x.length).fill(Number.NaN);
+  if (gridNm.length < 2) return result;
+  // gridNm runs from blue to red; orient the search so x increases along the arrays.
+  const increasing = gridX[gridX.length - 1] > gridX[0];
+  for (let k = 0; k < x.length; k++) {
+    const target = x[k];
+    let low = 0;
+    let high = gridX.length - 1;
+    const value = (i: number) => (increasing ? gridX[i] : -gridX[i]);
+    const goal = increasing ? target : -target;
+    if (goal < value(low) || goal > value(high)) continue;
+    while (high - low > 1) {
+      const mid = (low + high) >> 1;
+      if (value(mid) <= goal) low = mid;
+      else high = mid;
+    }
+    let a = gridNm[low];
+    let b = gridNm[high];
+    let lambda = a + ((b - a) * (goal - value(low))) / (value(high) - value(low) || 1);
+    for (let iteration = 0; iteration < 40; iteration++) {
+      const f = prismForwardX(geometry, lambda) - target;
+      const step = 1e-4 * lambda;
+      const slope = (prismForwardX(geometry, lambda + step) - prismForwardX(geometry, lambda - step)) / (2 * step);
+      const fA = prismForwardX(geometry, a) - target;
+      if (Math.sign(f) === Math.sign(fA)) a = lambda;
+      else b = lambda;
+      let next = lambda - f / slope;
+      if (!(next > Math.min(a, b) && next < Math.max(a, b))) next = (a + b) / 2;
+      if (Math.abs(next - lambda) < 1e-10 * lambda) {
+        lambda = next;
+        break;
+      }
+      lambda = next;
+    }
+    result[k] = lambda;
+  }
+  return result;
+}
