@@ -1,0 +1,26 @@
+// Entry checks for the readers' options: a caller's mistake is a RangeError, not a file error.
+import type { SpectrumReadOptions } from "./spectrum-read-options";
+
+const AXIS_UNITS = new Set(["pixel", "nm", "angstrom", "wavenumber"]);
+const MEDIA = new Set(["air", "vacuum"]);
+
+/** Throws a RangeError for an unknown unit or medium, or limits that are not positive integers. */
+export function assertReadOptions(options: SpectrumReadOptions): void {
+  const { xUnit, medium, maxPoints, minPoints, maxBytes } = options;
+  if (xUnit !== undefined && !AXIS_UNITS.has(xUnit)) {
+    throw new RangeError(`xUnit must be "pixel", "nm", "angstrom" or "wavenumber", got ${JSON.stringify(xUnit)}`);
+  }
+  if (medium !== undefined && !MEDIA.has(medium)) {
+    throw new RangeError(`medium must be "air" or "vacuum", got ${JSON.stringify(medium)}`);
+  }
+  for (const [name, value] of [
+    ["maxPoints", maxPoints],
+    ["minPoints", minPoints],
+    ["maxBytes", maxBytes],
+  ] as const) {
+    if (value !== undefined && (!Number.isInteger(value) || value < 1)) {
+      throw new RangeError(`${name} must be a positive integer, got ${String(value)}`);
+    }
+  }
+  if (minPoints !== undefined && minPoints < 2) throw new RangeError(`minPoints must be at least 2, got ${minPoints}`);
+}
