@@ -1,0 +1,73 @@
+// Candidate peak tops: downward zero-crossings of the slope, above a height floor, separated by real dips.
+
+export interface FindCandidateMaximaOptions {
+  /**
+   * Smallest accepted top, in signal units (the caller passes minSnr × noise).
+   * @default 0
+   */
+  minHeight?: number;
+  /**
+   * Two tops count as separate only if the signal between them falls this far below the lower top;
+   * otherwise the lower one is merged into the higher (noise wiggles on one line are not two lines).
+   * @default 0
+   */
+  minDip?: number;
+}
+
+export interface CandidateMaxima {
+  /** Sample indices of the tops, increasing, never the first or last sample. */
+  tops: number[];
+  /** valleys[j] is the index of the lowest sample between tops[j] and tops[j + 1]. */
+  valleys: number[];
+}
+
+/**
+ * Finds tops of `signal` where `slope` (its smoothed derivative) changes from positive to
+ * non-positive, moves each onto the local maximum of `signal`, and merges tops not separated by a
+ * dip of `minDip`. One left-to-right pass: O(n).
+ */
+export function findCandidateMaxima(
+  data: { signal: Float64Array; slope: Float64Array },
+  options: FindCandidateMaximaOptions = {},
+): CandidateMaxima {
+  const { signal, slope } = data;
+  const { minHeight = 0, minDip = 0 } = options;
+  const n = signal.length;
+  if (slope.length !== n) throw new RangeError(`slope and signal differ in length (${slope.length} vs ${n})`);
+  const tops: number[] = [];
+  const valleys: number[] = [];
+  let last = -1;
+  let lowest = -1;
+  let scanFrom = 0;
+  let previousRaw = -1;
+  for (let i = 1; i < n; i++) {
+    if (!(slope[i - 1] > 0 && slope[i] <= 0)) continue;
+    let top = signal[i] >= signal[i - 1] ? i : i - 1;
+    // The slope is smoother than the signal; climb to the signal's own local maximum.
+    while (top > 1 && signal[top - 1] > signal[top]) top--;
+    while (top < n - 2 && signal[top + 1] > signal[top]) top++;
+    if (top < 1 || top > n - 2 || top === previousRaw || signal[top] < minHeight) continue;
+    previousRaw = top;
+    if (last < 0 || top <= last) {
+      if (last < 0) {
+        last = top;
+        scanFrom = top + 1;
+      }
+      continue;
+    }
+    for (let j = scanFrom; j < top; j++) if (lowest < 0 || signal[j] < signal[lowest]) lowest = j;
+    scanFrom = top + 1;
+    if (lowest < 0) lowest = last;
+    if (Math.min(signal[last], signal[top]) - signal[lowest] >= minDip && lowest !== last) {
+      tops.push(last);
+      valleys.push(lowest);
+      last = top;
+      lowest = -1;
+    } else if (signal[top] > signal[last]) {
+      last = top;
+      lowest = -1;
+    }
+  }
+  if (last >= 0) tops.push(last);
+  return { tops, valleys };
+}
