@@ -4,7 +4,15 @@ import crypto from "node:crypto";
 
 const production = process.env.NODE_ENV === "production" && process.env.EMBERLINE_ALLOW_DEV_SECRET !== "1";
 
-function sessionSecret(): string {
+let secret: string | undefined;
+
+/** The session secret, read when first needed (a build must not require it). */
+export function sessionSecret(): string {
+  secret ??= readSessionSecret();
+  return secret;
+}
+
+function readSessionSecret(): string {
   const value = process.env.SESSION_SECRET;
   if (value && value.length >= 32) return value;
   if (value) throw new Error("SESSION_SECRET must be at least 32 characters long.");
@@ -21,7 +29,6 @@ function readEnv() {
   return {
     databaseUrl: process.env.DATABASE_URL ?? "postgres://postgres@127.0.0.1:54329/emberline",
     databasePoolMax: Number(process.env.DATABASE_POOL_MAX ?? 10),
-    sessionSecret: sessionSecret(),
     /** Cookies marked Secure: on in production unless the app is served over plain HTTP on loopback. */
     secureCookies: process.env.SECURE_COOKIES
       ? process.env.SECURE_COOKIES === "true"

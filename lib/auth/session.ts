@@ -2,9 +2,12 @@
 import "server-only";
 import { getIronSession, type SessionOptions } from "iron-session";
 import { cookies, headers } from "next/headers";
-import { env } from "@/lib/env";
+import { env, sessionSecret } from "@/lib/env";
 import { actorFromAccessToken, loadActor } from "@/lib/services/accounts";
 import type { Actor } from "./actor";
+import { SESSION_COOKIE } from "./session-cookie";
+
+export { SESSION_COOKIE };
 
 export interface SessionData {
   userId?: string;
@@ -13,13 +16,12 @@ export interface SessionData {
   signedInAt?: number;
 }
 
-export const SESSION_COOKIE = "emberline_session";
 const SESSION_HOURS = 12;
 
 function sessionOptions(): SessionOptions {
   const settings = env();
   return {
-    password: settings.sessionSecret,
+    password: sessionSecret(),
     cookieName: SESSION_COOKIE,
     ttl: SESSION_HOURS * 3600,
     cookieOptions: { httpOnly: true, sameSite: "lax", secure: settings.secureCookies, path: "/" },

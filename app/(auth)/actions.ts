@@ -1,0 +1,74 @@
+"use server";
+// Server actions of the signed-out pages: sign in, ask for a reset link, reset, accept an invitation.
+import { headers } from "next/headers";
+import { redirect } from "next/navigation";
+import { z } from "zod";
+import { getSession } from "@/lib/auth/session";
+import { requestPasswordReset, resetPassword, signIn } from "@/lib/services/accounts";
+import { acceptInvitation } from "@/lib/services/teams";
+import {
+  acceptInvitationSchema,
+  passwordResetRequestSchema,
+  passwordResetSchema,
+  signInSchema,
+} from "@/lib/validation/account-schemas";
+import { formError, parseForm, type FormState } from "@/lib/validation/form-state";
+
+async function address(): Promise<string> {
+  const h = await headers();
+  return h.get("x-forwarded-for")?.split(",")[0]?.trim() || h.get("x-real-ip") || "local";
+}
+
+function safeNext(value: FormDataEntryValue | null): string {
+  const next = typeof value === "string" ? value : "/";
+  return next.startsWith("/") && !next.startsWith("//") ? next : "/";
+}
+
+export async function signInAction(_state: FormState, formData: FormData): Promise<FormState> {
+  const { data, state } = parseForm(signInSchema, formData);
+  if (state) return state;
+  try {
+    const actor = await signIn({ ...data, address: await address() });
+    const session = await getSession();
+    session.userId = actor.id;
+    session.teamId = actor.memberships[0]?.teamId;
+    session.signedInAt = Date.now();
+    await session.save();
+  } catch (error) {
+    return formError(error);
+  }
+  redirect(safeNext(formData.get("next")));
+}
+
+export async function requestResetAction(_state: FormState, formData: FormData): Promise<FormState> {
+  const { data, state } = parseForm(passwordResetRequestSchema, formData);
+  if (state) return state;
+  await requestPasswordReset(data);
+  return { ok: true, message: "If that address has an account, a reset link is on its way. It works for one hour." };
+}
+
+export async function resetPasswordAction(_state: FormState, formData: FormData): Promise<FormState> {
+  const { data, state } = parseForm(passwordResetSchema, formData);
+  if (state) return state;
+  try {
+    await resetPassword(data);
+  } catch (error) {
+    return formError(error);
+  }
+  redirect("/sign-in?reset=1");
+}
+
+export async function acceptInvitationAction(_state: FormState, formData: FormData): Promise<FormState> {
+  const { data, state } = parseForm(acceptInvitationSchema.extend({ name: z.string().trim().max(120).optional() }), formData);
+  if (state) return state;
+  try {
+    const userId = await acceptInvitation(data);
+    const session = await getSession();
+    session.userId = userId;
+    session.signedInAt = Date.now();
+    await session.save();
+  } catch (error) {
+    return formError(error);
+  }
+  redirect("/");
+}

@@ -1,0 +1,83 @@
+"use server";
+// Server actions of the signed-in shell and the account and team pages.
+import { revalidatePath } from "next/cache";
+import { redirect } from "next/navigation";
+import { z } from "zod";
+import { currentActor, getSession } from "@/lib/auth/session";
+import { unauthenticated } from "@/lib/errors";
+import { changePassword } from "@/lib/services/accounts";
+import { createAccessToken, revokeAccessToken } from "@/lib/services/access-tokens";
+import { recordAudit } from "@/lib/services/audit";
+import { inviteMember } from "@/lib/services/teams";
+import { invitationSchema, passwordChangeSchema, tokenCreateSchema } from "@/lib/validation/account-schemas";
+import { formError, parseForm, type FormState } from "@/lib/validation/form-state";
+
+async function actorOrThrow() {
+  const actor = await currentActor();
+  if (!actor) throw unauthenticated();
+  return actor;
+}
+
+export async function signOutAction(): Promise<void> {
+  const session = await getSession();
+  if (session.userId) {
+    await recordAudit({ actorId: session.userId, action: "session.delete", entity: "user", entityId: session.userId });
+  }
+  session.destroy();
+  redirect("/sign-in");
+}
+
+export async function switchTeamAction(formData: FormData): Promise<void> {
+  const actor = await actorOrThrow();
+  const teamId = String(formData.get("teamId") ?? "");
+  if (actor.memberships.some((m) => m.teamId === teamId)) {
+    const session = await getSession();
+    session.teamId = teamId;
+    await session.save();
+  }
+  revalidatePath("/", "layout");
+}
+
+export async function changePasswordAction(_state: FormState, formData: FormData): Promise<FormState> {
+  const { data, state } = parseForm(passwordChangeSchema, formData);
+  if (state) return state;
+  try {
+    await changePassword(await actorOrThrow(), data);
+  } catch (error) {
+    return formError(error);
+  }
+  return { ok: true, message: "Your password is changed." };
+}
+
+export async function createTokenAction(
+  _state: FormState & { token?: string },
+  formData: FormData,
+): Promise<FormState & { token?: string }> {
+  const { data, state } = parseForm(tokenCreateSchema, formData);
+  if (state) return state;
+  try {
+    const created = await createAccessToken(await actorOrThrow(), data);
+    revalidatePath("/account");
+    return { ok: true, message: "Copy the token now: it is shown only once.", token: created.token };
+  } catch (error) {
+    return formError(error);
+  }
+}
+
+export async function revokeTokenAction(formData: FormData): Promise<void> {
+  const id = z.uuid().parse(formData.get("tokenId"));
+  await revokeAccessToken(await actorOrThrow(), id);
+  revalidatePath("/account");
+}
+
+export async function inviteAction(_state: FormState, formData: FormData): Promise<FormState> {
+  const { data, state } = parseForm(invitationSchema, formData);
+  if (state) return state;
+  try {
+    await inviteMember(await actorOrThrow(), data);
+  } catch (error) {
+    return formError(error);
+  }
+  revalidatePath("/team");
+  return { ok: true, message: `An invitation is on its way to ${data.email}.` };
+}

@@ -1,0 +1,28 @@
+// The state every form's server action returns: field errors plus one message.
+import { AppError, type FieldErrors } from "@/lib/errors";
+import type { z } from "zod";
+import { zodFieldErrors } from "./field-errors";
+
+export interface FormState {
+  ok?: boolean;
+  message?: string | null;
+  fieldErrors?: FieldErrors;
+}
+
+export const initialFormState: FormState = {};
+
+/** Parses FormData with a schema: the data, or the FormState to return. */
+export function parseForm<T extends z.ZodType>(
+  schema: T,
+  formData: FormData,
+): { data: z.infer<T>; state?: undefined } | { data?: undefined; state: FormState } {
+  const parsed = schema.safeParse(Object.fromEntries(formData));
+  if (parsed.success) return { data: parsed.data };
+  return { state: { message: "Some fields need another look.", fieldErrors: zodFieldErrors(parsed.error) } };
+}
+
+/** Maps an expected error to FormState; anything else is re-thrown to the error boundary. */
+export function formError(error: unknown): FormState {
+  if (error instanceof AppError) return { message: error.message, fieldErrors: error.fieldErrors };
+  throw error;
+}
