@@ -3,7 +3,11 @@
 import { defineConfig } from "vitest/config";
 import path from "node:path";
 
-const alias = { "@": path.resolve(__dirname) };
+// `server-only` throws outside React Server Components; in tests it is an empty module.
+const alias = {
+  "@": path.resolve(__dirname),
+  "server-only": path.resolve(__dirname, "tests/support/empty-module.ts"),
+};
 const exclude = ["node_modules/**", ".next/**", ".data/**", "test-output/**"];
 
 export default defineConfig({
