@@ -1,0 +1,162 @@
+// Finds, for each calibrated peak, the reference lines and band heads within k·σ of its wavelength.
+
+import type { CalibratedPeak, ReferenceLine, WavelengthMedium } from "../types";
+import { lowerBound } from "./lower-bound";
+import { prepareLineIndex, type LineIndex } from "./prepare-line-index";
+
+export interface MatchPeaksToLinesOptions {
+  /** Half-width of the acceptance window in combined standard deviations.
+   * @default 3 */
+  k?: number;
+  /** Instrument resolution (FWHM of an unresolved line) in nm.
+   * @default each peak's own fwhmNm */
+  resolutionNm?: number;
+  /** σ_res = resolutionSigmaFraction × resolution FWHM; 1/√12 is the standard deviation of a
+   * shift spread evenly over ±FWHM/2, the most an unresolved blend can move a centroid.
+   * @default 1 / Math.sqrt(12) */
+  resolutionSigmaFraction?: number;
+  /** Axis the peaks are calibrated on; must agree with a prepared index's medium.
+   * @default the index's medium, or "air" */
+  medium?: WavelengthMedium;
+  /** Share of a band's extent, measured from its head, inside which a peak counts as the head.
+   * @default 0.3 */
+  bandHeadZoneFraction?: number;
+}
+
+/** One reference line (or band) that could explain a peak. */
+export interface LineCandidate {
+  /** Position of the line in the table given to prepareLineIndex. */
+  lineIndex: number;
+  line: ReferenceLine;
+  kind: "line" | "band";
+  /** Tabulated wavelength used for the comparison (the band head for bands), in nm. */
+  referenceNm: number;
+  /** Observed minus tabulated wavelength, in nm. */
+  deltaNm: number;
+  /** Combined one-sigma tolerance for this pair, in nm. */
+  sigmaNm: number;
+  /** For lines deltaNm/sigmaNm; for bands the distance outside the head zone over sigmaNm
+   * (0 inside it, negative on the head's open side). |deltaSigma| ≤ k always holds. */
+  deltaSigma: number;
+}
+
+/** The candidates of one peak, closest (smallest |deltaSigma|) first. */
+export interface PeakMatch {
+  /** Position of the peak in the input array. */
+  peakIndex: number;
+  peak: CalibratedPeak;
+  candidates: LineCandidate[];
+}
+
+/** Guards against a zero tolerance when every contribution happens to be zero. */
+const MINIMUM_SIGMA_NM = 1e-6;
+
+/**
+ * σ² = σ_peak² + σ_line² + σ_res²: σ_peak is the peak's wavelengthUncertaintyNm (its centre
+ * uncertainty through the dispersion, with the calibration's uncertainty there), σ_line the
+ * table's, σ_res the resolution term. Lines are found by binary search on the prepared index
+ * within the widest possible window, then each pair is tested with its own σ: O(P log L + hits).
+ */
+export function matchPeaksToLines(
+  peaks: readonly CalibratedPeak[],
+  lines: readonly ReferenceLine[] | LineIndex,
+  options: MatchPeaksToLinesOptions = {},
+): PeakMatch[] {
+  const {
+    k = 3,
+    resolutionNm,
+    resolutionSigmaFraction = 1 / Math.sqrt(12),
+    medium,
+    bandHeadZoneFraction = 0.3,
+  } = options;
+  assertPositiveFinite("k", k);
+  if (resolutionNm !== undefined) assertPositiveFinite("resolutionNm", resolutionNm);
+  assertNonNegativeFinite("resolutionSigmaFraction", resolutionSigmaFraction);
+  if (!(bandHeadZoneFraction >= 0 && bandHeadZoneFraction <= 1)) {
+    throw new RangeError(`bandHeadZoneFraction must lie in [0, 1], got ${bandHeadZoneFraction}`);
+  }
+  const index = isLineIndex(lines) ? lines : prepareLineIndex(lines, { medium: medium ?? "air" });
+  if (medium !== undefined && medium !== index.medium) {
+    throw new RangeError(`medium "${medium}" disagrees with the line index's "${index.medium}"`);
+  }
+
+  return peaks.map((peak, peakIndex) => {
+    assertPeak(peak, peakIndex);
+    const resolutionFwhmNm = resolutionNm ?? peak.fwhmNm;
+    const sigmaResNm = resolutionSigmaFraction * resolutionFwhmNm;
+    const baseVarianceNm2 = peak.wavelengthUncertaintyNm ** 2 + sigmaResNm ** 2;
+    const candidates: LineCandidate[] = [];
+
+    const lineReachNm = k * Math.sqrt(baseVarianceNm2 + index.maxLineUncertaintyNm ** 2);
+    const from = lowerBound(index.lineWavelengthNm, peak.wavelengthNm - lineReachNm);
+    for (let i = from; i < index.lineWavelengthNm.length; i++) {
+      const referenceNm = index.lineWavelengthNm[i];
+      if (referenceNm > peak.wavelengthNm + lineReachNm) break;
+      const lineIndex = index.lineOrder[i];
+      const line = index.lines[lineIndex];
+      const sigmaNm = Math.max(MINIMUM_SIGMA_NM, Math.sqrt(baseVarianceNm2 + line.uncertaintyNm ** 2));
+      const deltaNm = peak.wavelengthNm - referenceNm;
+      const deltaSigma = deltaNm / sigmaNm;
+      if (Math.abs(deltaSigma) <= k) {
+        candidates.push({ lineIndex, line, kind: "line", referenceNm, deltaNm, sigmaNm, deltaSigma });
+      }
+    }
+
+    if (index.bandHeadNm.length > 0) {
+      const bandReachNm =
+        index.maxBandExtentNm + k * Math.sqrt(baseVarianceNm2 + index.maxBandUncertaintyNm ** 2);
+      const fromBand = lowerBound(index.bandHeadNm, peak.wavelengthNm - bandReachNm);
+      for (let i = fromBand; i < index.bandHeadNm.length; i++) {
+        const referenceNm = index.bandHeadNm[i];
+        if (referenceNm > peak.wavelengthNm + bandReachNm) break;
+        const lineIndex = index.bandOrder[i];
+        const line = index.lines[lineIndex];
+        const band = line.band!;
+        const sigmaNm = Math.max(MINIMUM_SIGMA_NM, Math.sqrt(baseVarianceNm2 + line.uncertaintyNm ** 2));
+        const deltaNm = peak.wavelengthNm - referenceNm;
+        const depthNm = band.degradesTo === "red" ? deltaNm : -deltaNm;
+        const zoneNm = bandHeadZoneFraction * band.extentNm;
+        const outsideNm = depthNm < 0 ? depthNm : Math.max(0, depthNm - zoneNm);
+        const deltaSigma = outsideNm / sigmaNm;
+        if (Math.abs(deltaSigma) <= k) {
+          candidates.push({ lineIndex, line, kind: "band", referenceNm, deltaNm, sigmaNm, deltaSigma });
+        }
+      }
+    }
+
+    candidates.sort(
+      (a, b) => Math.abs(a.deltaSigma) - Math.abs(b.deltaSigma) || a.lineIndex - b.lineIndex,
+    );
+    return { peakIndex, peak, candidates };
+  });
+}
+
+function isLineIndex(lines: readonly ReferenceLine[] | LineIndex): lines is LineIndex {
+  return !Array.isArray(lines);
+}
+
+function assertPeak(peak: CalibratedPeak, position: number): void {
+  if (!(peak.wavelengthNm > 0) || !Number.isFinite(peak.wavelengthNm)) {
+    throw new RangeError(`peak ${position} has an invalid wavelengthNm: ${peak.wavelengthNm}`);
+  }
+  if (!(peak.wavelengthUncertaintyNm >= 0) || !Number.isFinite(peak.wavelengthUncertaintyNm)) {
+    throw new RangeError(
+      `peak ${position} has an invalid wavelengthUncertaintyNm: ${peak.wavelengthUncertaintyNm}`,
+    );
+  }
+  if (!(peak.fwhmNm >= 0) || !Number.isFinite(peak.fwhmNm)) {
+    throw new RangeError(`peak ${position} has an invalid fwhmNm: ${peak.fwhmNm}`);
+  }
+}
+
+function assertPositiveFinite(name: string, value: number): void {
+  if (!(value > 0) || !Number.isFinite(value)) {
+    throw new RangeError(`${name} must be a positive finite number, got ${value}`);
+  }
+}
+
+function assertNonNegativeFinite(name: string, value: number): void {
+  if (!(value >= 0) || !Number.isFinite(value)) {
+    throw new RangeError(`${name} must be a finite number ≥ 0, got ${value}`);
+  }
+}

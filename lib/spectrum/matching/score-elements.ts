@@ -1,0 +1,660 @@
+// Weighs the matched lines per species into a present / possible / absent call with its evidence.
+
+import type { CalibratedPeak, ReferenceLine, SourceKind } from "../types";
+import type { LineCandidate, PeakMatch } from "./match-peaks-to-lines";
+import { lowerBound } from "./lower-bound";
+import { prepareLineIndex, type LineIndex } from "./prepare-line-index";
+import { speciesRelativeIntensities, type SpeciesIntensities } from "./species-relative-intensities";
+import { wavelengthForMatchingNm } from "./wavelength-for-matching-nm";
+
+export type Verdict = "present" | "possible" | "absent";
+
+export interface ScoreElementsOptions {
+  /** Kind of source; chooses the expected relative intensities.
+   * @default "flame" */
+  source?: SourceKind;
+  /** Calibrated range of the spectrum [min, max] in nm; only lines inside it are expected.
+   * @default the span of the matched peaks' wavelengths */
+  rangeNm?: [number, number];
+  /** Signal-to-noise ratio at which a line is just detectable.
+   * @default 3 */
+  detectionLimitSnr?: number;
+  /** Noise of the spectrum in counts; when given, a peak's SNR is taken as height / noiseCounts
+   * instead of the peak's own snr.
+   * @default undefined */
+  noiseCounts?: number;
+  /** A missing line counts against a species when its predicted SNR is at least this many times
+   * the detection limit ("well above" it, so noise alone cannot hide it).
+   * @default 2 */
+  missingSnrFactor?: number;
+  /** A line is one of a species' strong lines when its relative intensity is at least this.
+   * @default 0.3 */
+  strongLineFraction?: number;
+  /** Lowest score for "present" (which also needs a strong line seen and none missing).
+   * @default 0.5 */
+  presentScore?: number;
+  /** A missing line within this many FWHM of a peak at least `hidingSnrRatio` times stronger
+   * than the line's prediction may be hidden in that peak's wing.
+   * @default 1.5 */
+  hidingFwhmFactor?: number;
+  /** See hidingFwhmFactor.
+   * @default 3 */
+  hidingSnrRatio?: number;
+  /** Lowest score for "possible".
+   * @default 0.2 */
+  possibleScore?: number;
+  /** Weight of a seen line that has no relative intensity on the species' basis.
+   * @default 0.1 */
+  unratedLineWeight?: number;
+  /** Species seen in nearly every run of this source, called present only when intense.
+   * @default ["Na I"] for flames, [] otherwise */
+  ubiquitousSpecies?: string[];
+  /** A ubiquitous species is only a trace when its strongest peak is below this fraction of the
+   * tallest peak of the spectrum.
+   * @default 0.1 */
+  traceFraction?: number;
+}
+
+/** A table line seen in the spectrum. */
+export interface SeenLineEvidence {
+  lineIndex: number;
+  line: ReferenceLine;
+  peakIndex: number;
+  peakWavelengthNm: number;
+  referenceNm: number;
+  deltaNm: number;
+  deltaSigma: number;
+  /** Relative intensity on the species' basis, or null when the table has none. */
+  relativeIntensity: number | null;
+  /** The peak's signal-to-noise ratio. */
+  snr: number;
+}
+
+/** A line expected in range that no peak matched. */
+export interface MissingLineEvidence {
+  lineIndex: number;
+  line: ReferenceLine;
+  referenceNm: number;
+  relativeIntensity: number;
+  /** SNR the line should have had, scaled from the species' strongest observed line; null when
+   * nothing of the species was seen. */
+  predictedSnr: number | null;
+  /** A much stronger peak close enough to hide the line in its wing; such a line is listed but
+   * not counted against the species. */
+  hiddenByPeakIndex: number | null;
+}
+
+/** Other species whose lines also fall on a peak this species uses. */
+export interface OverlapEvidence {
+  peakIndex: number;
+  peakWavelengthNm: number;
+  otherSpecies: string[];
+}
+
+/** The call for one species. */
+export interface ElementCall {
+  species: string;
+  element: string;
+  ionStage: number | null;
+  verdict: Verdict;
+  /** 0 … 1: intensity-weighted share of the expected evidence that was seen, each seen line
+   * weighted by match closeness and by its share of a peak claimed by several species. */
+  score: number;
+  seen: SeenLineEvidence[];
+  missing: MissingLineEvidence[];
+  overlaps: OverlapEvidence[];
+  /** Kind of source whose relative intensities were used. */
+  intensityBasis: SourceKind | "none";
+  notes: string[];
+  rationale: string;
+}
+
+/** A peak matched by lines of several species that are not absent. */
+export interface PeakOverlap {
+  peakIndex: number;
+  peakWavelengthNm: number;
+  species: string[];
+}
+
+/** A peak that no credible species explains. */
+export interface UnexplainedPeak {
+  peakIndex: number;
+  peak: CalibratedPeak;
+  reason: "no-candidate" | "only-absent-species";
+}
+
+export interface ElementScoring {
+  /** Sorted by score (highest first), then verdict, then species. */
+  calls: ElementCall[];
+  overlaps: PeakOverlap[];
+  unexplainedPeaks: UnexplainedPeak[];
+}
+
+interface SeenGroup {
+  peakIndex: number;
+  peak: CalibratedPeak;
+  candidates: LineCandidate[];
+  weight: number;
+  ratedWeight: number;
+  quality: number;
+  snr: number;
+}
+
+interface SpeciesWork {
+  info: SpeciesIntensities;
+  groups: SeenGroup[];
+  inRange: number[];
+  missing: MissingLineEvidence[];
+  missingWeight: number;
+  anchor: SeenGroup | null;
+  score: number;
+}
+
+const VERDICT_RANK: Record<Verdict, number> = { present: 0, possible: 1, absent: 2 };
+const CREDIT_FLOOR = 0.01;
+/** Borrowed intensities come from a hotter or colder source; count their missing lines half. */
+const BORROWED_MISSING_WEIGHT = 0.5;
+const UBIQUITOUS_NOTE = "Ubiquitous in flames: trace contamination likely; judge by intensity.";
+
+/**
+ * Calls each species with lines in range. Seen lines earn credit by relative intensity × match
+ * closeness × share of the peak; missing lines that should have been well above the detection
+ * limit (scaled from the species' strongest observed line) add to the expected total. The method
+ * is laid out in docs/identification-scoring.md.
+ */
+export function scoreElements(
+  matches: readonly PeakMatch[],
+  lines: readonly ReferenceLine[] | LineIndex,
+  options: ScoreElementsOptions = {},
+): ElementScoring {
+  const {
+    source = "flame",
+    detectionLimitSnr = 3,
+    noiseCounts,
+    missingSnrFactor = 2,
+    strongLineFraction = 0.3,
+    presentScore = 0.5,
+    possibleScore = 0.2,
+    unratedLineWeight = 0.1,
+    ubiquitousSpecies = source === "flame" ? ["Na I"] : [],
+    traceFraction = 0.1,
+    hidingFwhmFactor = 1.5,
+    hidingSnrRatio = 3,
+  } = options;
+  assertPositive("detectionLimitSnr", detectionLimitSnr);
+  if (noiseCounts !== undefined) assertPositive("noiseCounts", noiseCounts);
+  assertPositive("missingSnrFactor", missingSnrFactor);
+  assertFraction("strongLineFraction", strongLineFraction);
+  assertFraction("presentScore", presentScore);
+  assertFraction("possibleScore", possibleScore);
+  assertFraction("unratedLineWeight", unratedLineWeight);
+  assertFraction("traceFraction", traceFraction);
+  assertPositive("hidingFwhmFactor", hidingFwhmFactor);
+  assertPositive("hidingSnrRatio", hidingSnrRatio);
+  if (possibleScore > presentScore) {
+    throw new RangeError(`possibleScore (${possibleScore}) must not exceed presentScore (${presentScore})`);
+  }
+  const index = Array.isArray(lines)
+    ? prepareLineIndex(lines as readonly ReferenceLine[])
+    : (lines as LineIndex);
+  const rangeNm = options.rangeNm ?? peakSpan(matches);
+  if (!(rangeNm[0] <= rangeNm[1]) || !rangeNm.every(Number.isFinite)) {
+    throw new RangeError(`rangeNm must be [min, max] with min ≤ max, got [${rangeNm.join(", ")}]`);
+  }
+  const intensities = speciesRelativeIntensities(index, source);
+  const snrOf = (peak: CalibratedPeak) => (noiseCounts ? peak.height / noiseCounts : peak.snr);
+  const tallestHeight = matches.reduce((h, m) => Math.max(h, m.peak.height), 0);
+  const byWavelength = [...matches].sort((a, b) => a.peak.wavelengthNm - b.peak.wavelengthNm);
+
+  // Each line is credited to the one peak it matches best, so no line is seen twice.
+  const bestPeakOfLine = new Map<number, { match: PeakMatch; candidate: LineCandidate }>();
+  for (const match of matches) {
+    for (const candidate of match.candidates) {
+      const held = bestPeakOfLine.get(candidate.lineIndex);
+      if (
+        !held ||
+        Math.abs(candidate.deltaSigma) < Math.abs(held.candidate.deltaSigma) ||
+        (Math.abs(candidate.deltaSigma) === Math.abs(held.candidate.deltaSigma) &&
+          match.peakIndex < held.match.peakIndex)
+      ) {
+        bestPeakOfLine.set(candidate.lineIndex, { match, candidate });
+      }
+    }
+  }
+
+  const work = new Map<string, SpeciesWork>();
+  const workOf = (species: string): SpeciesWork => {
+    let entry = work.get(species);
+    if (!entry) {
+      entry = {
+        info: intensities.get(species)!,
+        groups: [],
+        inRange: [],
+        missing: [],
+        missingWeight: 0,
+        anchor: null,
+        score: 0,
+      };
+      work.set(species, entry);
+    }
+    return entry;
+  };
+
+  for (const lineIndex of linesInRange(index, rangeNm)) {
+    workOf(index.lines[lineIndex].species).inRange.push(lineIndex);
+  }
+
+  const groupsByPeak = new Map<number, Map<string, SeenGroup>>();
+  const orderedAssignments = [...bestPeakOfLine.entries()].sort((a, b) => a[0] - b[0]);
+  for (const [, { match, candidate }] of orderedAssignments) {
+    const species = candidate.line.species;
+    let atPeak = groupsByPeak.get(match.peakIndex);
+    if (!atPeak) {
+      atPeak = new Map();
+      groupsByPeak.set(match.peakIndex, atPeak);
+    }
+    let group = atPeak.get(species);
+    if (!group) {
+      group = {
+        peakIndex: match.peakIndex,
+        peak: match.peak,
+        candidates: [],
+        weight: 0,
+        ratedWeight: 0,
+        quality: 0,
+        snr: snrOf(match.peak),
+      };
+      atPeak.set(species, group);
+      workOf(species).groups.push(group);
+    }
+    group.candidates.push(candidate);
+  }
+
+  for (const entry of work.values()) {
+    for (const group of entry.groups) {
+      let rated = 0;
+      let unrated = 0;
+      let closest = Infinity;
+      for (const candidate of group.candidates) {
+        const relative = entry.info.relative.get(candidate.lineIndex);
+        if (relative === undefined) unrated += unratedLineWeight;
+        else rated += relative;
+        closest = Math.min(closest, Math.abs(candidate.deltaSigma));
+      }
+      group.ratedWeight = Math.min(1, rated);
+      group.weight = Math.min(1, rated + unrated);
+      // Half-weight at 2.35σ: a softer fall than the Gaussian itself, so 1–2σ matches stay strong.
+      group.quality = Math.exp(-0.5 * (closest / 2) ** 2);
+    }
+    entry.groups.sort((a, b) => a.peakIndex - b.peakIndex);
+    entry.anchor = entry.groups.reduce<SeenGroup | null>(
+      (best, group) => (group.ratedWeight > 0 && (!best || group.snr > best.snr) ? group : best),
+      null,
+    );
+    predictMissing(entry, bestPeakOfLine, index, source, {
+      missingSnr: detectionLimitSnr * missingSnrFactor,
+      hiderOf: (nm, predictedSnr) => hidingPeak(byWavelength, nm, predictedSnr, snrOf, hidingFwhmFactor, hidingSnrRatio),
+    });
+  }
+
+  // First pass with every peak fully credited. Then a peak claimed by several species is shared
+  // in proportion to what each is expected to contribute there (its prediction from its own
+  // strongest line, capped at what was observed) times its first-pass support, so a weak line
+  // of a well-supported species cannot take the peak of another species' strongest line.
+  const claimOf = (entry: SpeciesWork, group: SeenGroup): number => {
+    const scale = entry.anchor ? entry.anchor.snr / entry.anchor.ratedWeight : null;
+    if (scale === null || group.ratedWeight === 0 || group.snr <= 0) return CREDIT_FLOOR;
+    return Math.max(CREDIT_FLOOR, Math.min(1, (scale * group.ratedWeight) / group.snr));
+  };
+  const scoreRound = (credit: (species: string, group: SeenGroup) => number) => {
+    const next = new Map<string, number>();
+    for (const [species, entry] of work) {
+      let earned = 0;
+      let expected = entry.missingWeight;
+      for (const group of entry.groups) {
+        earned += group.weight * group.quality * credit(species, group);
+        expected += group.weight;
+      }
+      next.set(species, expected > 0 ? earned / expected : 0);
+    }
+    return next;
+  };
+  const firstPass = scoreRound(() => 1);
+  const share = (species: string, group: SeenGroup): number => {
+    const claimants = groupsByPeak.get(group.peakIndex)!;
+    if (claimants.size === 1) return 1;
+    const weightOf = (name: string, claimantGroup: SeenGroup) =>
+      claimOf(work.get(name)!, claimantGroup) * Math.max(CREDIT_FLOOR, firstPass.get(name)!);
+    let total = 0;
+    for (const [name, claimantGroup] of claimants) total += weightOf(name, claimantGroup);
+    return weightOf(species, group) / total;
+  };
+  for (const [species, score] of scoreRound(share)) work.get(species)!.score = score;
+
+  const matchByPeak = new Map(matches.map((match) => [match.peakIndex, match]));
+  const calls: ElementCall[] = [];
+  for (const [species, entry] of work) {
+    const call = buildCall(species, entry, {
+      strongLineFraction,
+      presentScore,
+      possibleScore,
+      ubiquitous: ubiquitousSpecies.includes(species),
+      source,
+      traceFraction,
+      tallestHeight,
+      matchByPeak,
+    });
+    if (call) calls.push(call);
+  }
+  calls.sort(
+    (a, b) =>
+      b.score - a.score ||
+      VERDICT_RANK[a.verdict] - VERDICT_RANK[b.verdict] ||
+      (a.species < b.species ? -1 : a.species > b.species ? 1 : 0),
+  );
+
+  const verdictOf = new Map(calls.map((call) => [call.species, call.verdict]));
+  const credible = (species: string) => {
+    const verdict = verdictOf.get(species);
+    return verdict === "present" || verdict === "possible";
+  };
+  for (const call of calls) {
+    for (const overlap of call.overlaps) {
+      overlap.otherSpecies = overlap.otherSpecies.filter((other) => verdictOf.get(other) !== "absent");
+    }
+    call.overlaps = call.overlaps.filter((overlap) => overlap.otherSpecies.length > 0);
+  }
+
+  const overlaps: PeakOverlap[] = [];
+  const unexplainedPeaks: UnexplainedPeak[] = [];
+  for (const match of matches) {
+    const speciesHere = [...new Set(match.candidates.map((c) => c.line.species))].sort();
+    const credibleHere = speciesHere.filter(credible);
+    if (credibleHere.length >= 2) {
+      overlaps.push({
+        peakIndex: match.peakIndex,
+        peakWavelengthNm: match.peak.wavelengthNm,
+        species: credibleHere,
+      });
+    }
+    if (match.candidates.length === 0) {
+      unexplainedPeaks.push({ peakIndex: match.peakIndex, peak: match.peak, reason: "no-candidate" });
+    } else if (credibleHere.length === 0) {
+      unexplainedPeaks.push({
+        peakIndex: match.peakIndex,
+        peak: match.peak,
+        reason: "only-absent-species",
+      });
+    }
+  }
+  return { calls, overlaps, unexplainedPeaks };
+}
+
+/** Lines of the species in range that no peak matched yet should have stood well above noise. */
+function predictMissing(
+  entry: SpeciesWork,
+  bestPeakOfLine: Map<number, unknown>,
+  index: LineIndex,
+  source: SourceKind,
+  limits: { missingSnr: number; hiderOf: (nm: number, predictedSnr: number) => number | null },
+): void {
+  const { anchor, info } = entry;
+  const scale = anchor ? anchor.snr / anchor.ratedWeight : null;
+  const weight = info.basis === "none" ? 0 : borrowed(info, source) ? BORROWED_MISSING_WEIGHT : 1;
+  for (const lineIndex of entry.inRange) {
+    if (bestPeakOfLine.has(lineIndex)) continue;
+    const relative = info.relative.get(lineIndex);
+    if (relative === undefined) continue;
+    const line = index.lines[lineIndex];
+    const referenceNm = wavelengthForMatchingNm(line, index.medium);
+    if (scale === null) {
+      entry.missing.push({
+        lineIndex,
+        line,
+        referenceNm,
+        relativeIntensity: relative,
+        predictedSnr: null,
+        hiddenByPeakIndex: null,
+      });
+      continue;
+    }
+    const predictedSnr = scale * relative;
+    if (predictedSnr < limits.missingSnr) continue;
+    const hiddenByPeakIndex = limits.hiderOf(referenceNm, predictedSnr);
+    entry.missing.push({ lineIndex, line, referenceNm, relativeIntensity: relative, predictedSnr, hiddenByPeakIndex });
+    if (hiddenByPeakIndex === null) entry.missingWeight += weight * relative;
+  }
+  entry.missing.sort((a, b) => b.relativeIntensity - a.relativeIntensity || a.referenceNm - b.referenceNm);
+}
+
+/** The strongest peak near `nm` that outshines the prediction enough to hide the line, if any. */
+function hidingPeak(
+  byWavelength: PeakMatch[],
+  nm: number,
+  predictedSnr: number,
+  snrOf: (peak: CalibratedPeak) => number,
+  fwhmFactor: number,
+  snrRatio: number,
+): number | null {
+  let best: PeakMatch | null = null;
+  for (const match of byWavelength) {
+    const reachNm = fwhmFactor * match.peak.fwhmNm;
+    if (Math.abs(match.peak.wavelengthNm - nm) > reachNm) continue;
+    if (snrOf(match.peak) < snrRatio * predictedSnr) continue;
+    if (!best || snrOf(match.peak) > snrOf(best.peak)) best = match;
+  }
+  return best ? best.peakIndex : null;
+}
+
+interface CallContext {
+  strongLineFraction: number;
+  presentScore: number;
+  possibleScore: number;
+  ubiquitous: boolean;
+  source: SourceKind;
+  traceFraction: number;
+  tallestHeight: number;
+  matchByPeak: Map<number, PeakMatch>;
+}
+
+function buildCall(species: string, entry: SpeciesWork, context: CallContext): ElementCall | null {
+  const { info } = entry;
+  const strong = context.strongLineFraction;
+  const seen: SeenLineEvidence[] = [];
+  for (const group of entry.groups) {
+    for (const candidate of group.candidates) {
+      seen.push({
+        lineIndex: candidate.lineIndex,
+        line: candidate.line,
+        peakIndex: group.peakIndex,
+        peakWavelengthNm: group.peak.wavelengthNm,
+        referenceNm: candidate.referenceNm,
+        deltaNm: candidate.deltaNm,
+        deltaSigma: candidate.deltaSigma,
+        relativeIntensity: info.relative.get(candidate.lineIndex) ?? null,
+        snr: group.snr,
+      });
+    }
+  }
+  const strongInRange = entry.inRange.filter((i) => (info.relative.get(i) ?? 0) >= strong);
+  if (seen.length === 0) {
+    // Report an unseen species only where it had strong lines to show; keeps the output small.
+    if (strongInRange.length === 0) return null;
+    const missing = entry.missing.filter((m) => m.relativeIntensity >= strong);
+    return {
+      species,
+      element: info.element,
+      ionStage: info.ionStage,
+      verdict: "absent",
+      score: 0,
+      seen,
+      missing,
+      overlaps: [],
+      intensityBasis: info.basis,
+      notes: context.ubiquitous ? [UBIQUITOUS_NOTE] : [],
+      rationale: `No line seen; its strong line${plural(missing.length)} in range (${formatNm(
+        missing.map((m) => m.referenceNm),
+      )}) show${missing.length === 1 ? "s" : ""} no peak.`,
+    };
+  }
+
+  const overlaps: OverlapEvidence[] = [];
+  for (const group of entry.groups) {
+    const match = context.matchByPeak.get(group.peakIndex)!;
+    const others = [...new Set(match.candidates.map((c) => c.line.species))]
+      .filter((other) => other !== species)
+      .sort();
+    if (others.length > 0) {
+      overlaps.push({ peakIndex: group.peakIndex, peakWavelengthNm: group.peak.wavelengthNm, otherSpecies: others });
+    }
+  }
+
+  const strongSeen = seen.filter((s) => (s.relativeIntensity ?? 0) >= strong);
+  const strongMissing = entry.missing.filter(
+    (m) => m.relativeIntensity >= strong && m.hiddenByPeakIndex === null,
+  );
+  const notes: string[] = [];
+  for (const hidden of entry.missing.filter((m) => m.hiddenByPeakIndex !== null)) {
+    const hider = context.matchByPeak.get(hidden.hiddenByPeakIndex!)!;
+    notes.push(
+      `${hidden.referenceNm.toFixed(2)} nm may be hidden in the wing of the stronger peak at ${hider.peak.wavelengthNm.toFixed(2)} nm.`,
+    );
+  }
+  let verdict: Verdict;
+  if (entry.score >= context.presentScore && strongSeen.length > 0 && strongMissing.length === 0) {
+    verdict = "present";
+  } else if (entry.score >= context.possibleScore) {
+    verdict = "possible";
+  } else {
+    verdict = "absent";
+  }
+
+  if (borrowed(info, context.source)) {
+    notes.push(`No ${context.source} intensities in the table; used ${info.basis} intensities instead.`);
+  }
+  if (info.basis === "none") {
+    notes.push("The table gives no relative intensities for this species: missing lines are not weighed.");
+  }
+  if (entry.anchor?.peak.saturated) {
+    notes.push("Its strongest observed line is saturated: predicted intensities are lower bounds.");
+  }
+  if (context.ubiquitous) {
+    notes.push(UBIQUITOUS_NOTE);
+    const strongestHeight = Math.max(...entry.groups.map((g) => g.peak.height));
+    const share = context.tallestHeight > 0 ? strongestHeight / context.tallestHeight : 1;
+    if (verdict === "present" && share < context.traceFraction) {
+      verdict = "possible";
+      notes.push(
+        `Its strongest peak is ${(100 * share).toFixed(1)} % of the tallest peak: treated as a trace, not called present.`,
+      );
+    }
+  }
+
+  return {
+    species,
+    element: info.element,
+    ionStage: info.ionStage,
+    verdict,
+    score: entry.score,
+    seen,
+    missing: entry.missing,
+    overlaps,
+    intensityBasis: info.basis,
+    notes,
+    rationale: rationaleOf(verdict, seen, strongSeen, strongMissing, strongInRange, entry, overlaps),
+  };
+}
+
+function rationaleOf(
+  verdict: Verdict,
+  seen: SeenLineEvidence[],
+  strongSeen: SeenLineEvidence[],
+  strongMissing: MissingLineEvidence[],
+  strongInRange: number[],
+  entry: SpeciesWork,
+  overlaps: OverlapEvidence[],
+): string {
+  const worstSigma = Math.max(...seen.map((s) => Math.abs(s.deltaSigma)));
+  const parts: string[] = [];
+  parts.push(
+    `${seen.length} line${plural(seen.length)} seen (${formatNm(seen.map((s) => s.referenceNm))}; within ${worstSigma.toFixed(1)}σ)`,
+  );
+  if (strongInRange.length > 0) {
+    parts.push(`${strongSeen.length} of ${strongInRange.length} strong line${plural(strongInRange.length)} in range seen`);
+  } else {
+    parts.push("its strong lines lie outside the range");
+  }
+  if (strongMissing.length > 0) {
+    parts.push(
+      `strong line${plural(strongMissing.length)} missing though expected at SNR ≈ ${strongMissing
+        .map((m) => `${Math.round(m.predictedSnr ?? 0)} (${m.referenceNm.toFixed(2)} nm)`)
+        .join(", ")}`,
+    );
+  }
+  const weakMissing = entry.missing.filter(
+    (m) => m.hiddenByPeakIndex === null && !strongMissing.includes(m),
+  ).length;
+  if (weakMissing > 0) parts.push(`${weakMissing} weaker expected line${plural(weakMissing)} missing`);
+  if (overlaps.length > 0) {
+    parts.push(
+      `shares ${overlaps
+        .map((o) => `${o.peakWavelengthNm.toFixed(2)} nm with ${o.otherSpecies.join(", ")}`)
+        .join("; ")}`,
+    );
+  }
+  const lead =
+    verdict === "present"
+      ? "Present"
+      : verdict === "possible"
+        ? "Possible"
+        : "Absent (contradicted)";
+  return `${lead}: ${parts.join("; ")}. Score ${entry.score.toFixed(2)}.`;
+}
+
+function borrowed(info: SpeciesIntensities, source: SourceKind): boolean {
+  return info.basis !== "none" && info.basis !== source;
+}
+
+function linesInRange(index: LineIndex, rangeNm: [number, number]): number[] {
+  const found: number[] = [];
+  const from = lowerBound(index.lineWavelengthNm, rangeNm[0]);
+  for (let i = from; i < index.lineWavelengthNm.length && index.lineWavelengthNm[i] <= rangeNm[1]; i++) {
+    found.push(index.lineOrder[i]);
+  }
+  const fromBand = lowerBound(index.bandHeadNm, rangeNm[0]);
+  for (let i = fromBand; i < index.bandHeadNm.length && index.bandHeadNm[i] <= rangeNm[1]; i++) {
+    found.push(index.bandOrder[i]);
+  }
+  return found;
+}
+
+function peakSpan(matches: readonly PeakMatch[]): [number, number] {
+  if (matches.length === 0) return [0, 0];
+  let low = Infinity;
+  let high = -Infinity;
+  for (const match of matches) {
+    low = Math.min(low, match.peak.wavelengthNm);
+    high = Math.max(high, match.peak.wavelengthNm);
+  }
+  return [low, high];
+}
+
+function formatNm(values: number[]): string {
+  return values.map((v) => v.toFixed(2)).join(", ") + " nm";
+}
+
+function plural(count: number): string {
+  return count === 1 ? "" : "s";
+}
+
+function assertPositive(name: string, value: number): void {
+  if (!(value > 0) || !Number.isFinite(value)) {
+    throw new RangeError(`${name} must be a positive finite number, got ${value}`);
+  }
+}
+
+function assertFraction(name: string, value: number): void {
+  if (!(value >= 0 && value <= 1)) {
+    throw new RangeError(`${name} must lie in [0, 1], got ${value}`);
+  }
+}
