@@ -177,7 +177,17 @@ export function parseSpectrumText(text: string, options: ParseSpectrumTextOption
       );
     }
     const x = parseNumberCell(cells[xIndex], decimal);
-    if (Number.isNaN(x)) throw describeBadCell(cells[xIndex], i + 1, xColumn, decimal);
+    if (Number.isNaN(x)) {
+      if (cells[xIndex] === "" && lines[i].trimStart().startsWith(";")) {
+        throw new SpectrumParseError(
+          "empty-cell",
+          `the cell is empty (a line starting with ";" is a comment only when ";" does not separate the columns)`,
+          i + 1,
+          xColumn,
+        );
+      }
+      throw describeBadCell(cells[xIndex], i + 1, xColumn, decimal);
+    }
     const y = parseNumberCell(cells[yIndex], decimal);
     if (Number.isNaN(y)) throw describeBadCell(cells[yIndex], i + 1, yColumn, decimal);
     xs[n] = x;
