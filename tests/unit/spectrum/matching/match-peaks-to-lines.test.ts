@@ -1,0 +1,195 @@
+// Checks the k·σ window of line matching, band-head matching and the sorted line index.
+import { describe, it, expect } from "vitest";
+import fc from "fast-check";
+import { matchPeaksToLines, prepareLineIndex, wavelengthForMatchingNm } from "../../../../lib/spectrum/matching";
+import type { CalibratedPeak, ReferenceLine } from "../../../../lib/spectrum/types";
+
+function line(id: string, species: string, airNm: number, extra: Partial<ReferenceLine> = {}): ReferenceLine {
+  return {
+    id,
+    species,
+    element: species.split(" ")[0],
+    ionStage: species.includes(" ") ? 1 : null,
+    airNm,
+    vacuumNm: airNm * 1.00028,
+    uncertaintyNm: 0.001,
+    intensities: { flame: 100 },
+    flags: {},
+    ...extra,
+  };
+}
+
+function peak(wavelengthNm: number, wavelengthUncertaintyNm = 0.03, fwhmNm = 1): CalibratedPeak {
+  return {
+    index: 0,
+    x: 0,
+    xUncertainty: 0.1,
+    height: 100,
+    fwhm: 5,
+    area: 500,
+    snr: 50,
+    saturated: false,
+    blended: false,
+    wavelengthNm,
+    wavelengthUncertaintyNm,
+    fwhmNm,
+  };
+}
+
+describe("prepareLineIndex", () => {
+  it("sorts atomic lines by wavelength, keeps bands apart and leaves the input alone", () => {
+    const lines = [
+      line("a", "K I", 766.4899),
+      line("b", "Na I", 588.995),
+      line("c", "CaOH", 554, { flags: { bandHead: true }, band: { extentNm: 8, degradesTo: "red" } }),
+      line("d", "Li I", 670.776),
+    ];
+    const before = JSON.stringify(lines);
+    const index = prepareLineIndex(lines);
+    expect(Array.from(index.lineWavelengthNm)).toEqual([588.995, 670.776, 766.4899]);
+    expect(Array.from(index.lineOrder)).toEqual([1, 3, 0]);
+    expect(Array.from(index.bandHeadNm)).toEqual([554]);
+    expect(index.maxBandExtentNm).toBe(8);
+    expect(JSON.stringify(lines)).toBe(before);
+  });
+
+  it("uses vacuum wavelengths below 200 nm under the air convention, and throughout for vacuum", () => {
+    const uv = line("uv", "C I", 193.0, { vacuumNm: 193.091 });
+    const visible = line("vis", "Na I", 588.995, { vacuumNm: 589.158 });
+    expect(wavelengthForMatchingNm(uv, "air")).toBe(193.091);
+    expect(wavelengthForMatchingNm(visible, "air")).toBe(588.995);
+    expect(wavelengthForMatchingNm(visible, "vacuum")).toBe(589.158);
+  });
+});
+
+describe("matchPeaksToLines", () => {
+  it("combines peak, line and resolution uncertainties in quadrature and keeps lines within k·σ", () => {
+    // NIST ASD air wavelengths of the Na D lines (from memory).
+    const lines = [line("d2", "Na I", 588.995), line("d1", "Na I", 589.5924), line("far", "X I", 592.0)];
+    const [match] = matchPeaksToLines([peak(589.2)], lines, { resolutionNm: 1 });
+    const sigmaNm = Math.sqrt(0.03 ** 2 + 0.001 ** 2 + 1 / 12);
+    expect(match.candidates.map((c) => c.line.id)).toEqual(["d2", "d1"]);
+    const [d2, d1] = match.candidates;
+    expect(d2.sigmaNm).toBeCloseTo(sigmaNm, 12);
+    expect(d2.deltaNm).toBeCloseTo(0.205, 9);
+    expect(d2.deltaSigma).toBeCloseTo(0.205 / sigmaNm, 9);
+    expect(d1.deltaSigma).toBeCloseTo((589.2 - 589.5924) / sigmaNm, 9);
+  });
+
+  it("narrows the window with k and with a finer resolution", () => {
+    const lines = [line("d2", "Na I", 588.995), line("d1", "Na I", 589.5924)];
+    expect(matchPeaksToLines([peak(589.2)], lines, { resolutionNm: 1, k: 0.5 })[0].candidates).toHaveLength(0);
+    const fine = matchPeaksToLines([peak(589.0, 0.005)], lines, { resolutionNm: 0.05 })[0];
+    expect(fine.candidates.map((c) => c.line.id)).toEqual(["d2"]);
+  });
+
+  it("falls back to each peak's own FWHM when no resolution is given", () => {
+    const lines = [line("d2", "Na I", 588.995)];
+    const [narrow, wide] = matchPeaksToLines([peak(589.4, 0.01, 0.2), peak(589.4, 0.01, 2)], lines);
+    expect(narrow.candidates).toHaveLength(0);
+    expect(wide.candidates).toHaveLength(1);
+  });
+
+  it("matches a band from its head into the side it degrades to, not beyond the head zone", () => {
+    const band = line("caoh", "CaOH", 554, {
+      uncertaintyNm: 0.1,
+      flags: { bandHead: true },
+      band: { extentNm: 10, degradesTo: "red" },
+    });
+    const options = { resolutionNm: 1, bandHeadZoneFraction: 0.3 };
+    const sigma = Math.sqrt(0.03 ** 2 + 0.1 ** 2 + 1 / 12);
+    const [inside, past, violetSide, farViolet] = matchPeaksToLines(
+      [peak(555.5), peak(557 + 3.2 * sigma), peak(554 - 2 * sigma), peak(550)],
+      [band],
+      options,
+    );
+    expect(inside.candidates[0].deltaSigma).toBe(0);
+    expect(inside.candidates[0].kind).toBe("band");
+    expect(past.candidates).toHaveLength(0);
+    expect(violetSide.candidates[0].deltaSigma).toBeCloseTo(-2, 9);
+    expect(farViolet.candidates).toHaveLength(0);
+
+    const violetBand = { ...band, band: { extentNm: 10, degradesTo: "violet" as const } };
+    const [blueOfHead] = matchPeaksToLines([peak(552.5)], [violetBand], options);
+    expect(blueOfHead.candidates[0].deltaSigma).toBe(0);
+  });
+
+  it("refuses invalid options and peaks with precise errors", () => {
+    expect(() => matchPeaksToLines([peak(500)], [], { k: 0 })).toThrow(RangeError);
+    expect(() => matchPeaksToLines([peak(Number.NaN)], [])).toThrow(/peak 0/);
+    const index = prepareLineIndex([], { medium: "vacuum" });
+    expect(() => matchPeaksToLines([peak(500)], index, { medium: "air" })).toThrow(/disagrees/);
+  });
+
+  const lineArb = fc.record({
+    airNm: fc.double({ min: 200, max: 1000, noNaN: true }),
+    uncertaintyNm: fc.double({ min: 0, max: 0.5, noNaN: true }),
+    band: fc.option(
+      fc.record({
+        extentNm: fc.double({ min: 0.1, max: 20, noNaN: true }),
+        degradesTo: fc.constantFrom("red" as const, "violet" as const),
+      }),
+      { freq: 5 },
+    ),
+  });
+  const peakArb = fc.record({
+    wavelengthNm: fc.double({ min: 190, max: 1010, noNaN: true }),
+    wavelengthUncertaintyNm: fc.double({ min: 0, max: 1, noNaN: true }),
+    fwhmNm: fc.double({ min: 0, max: 5, noNaN: true }),
+  });
+  const toLines = (rows: { airNm: number; uncertaintyNm: number; band: { extentNm: number; degradesTo: "red" | "violet" } | null }[]) =>
+    rows.map((row, i) =>
+      line(`l${i}`, row.band ? "M" : "X I", row.airNm, {
+        uncertaintyNm: row.uncertaintyNm,
+        flags: row.band ? { bandHead: true } : {},
+        band: row.band ?? undefined,
+      }),
+    );
+
+  it("never throws on random peaks and lines, and every candidate lies within k·σ", () => {
+    fc.assert(
+      fc.property(
+        fc.array(peakArb, { maxLength: 20 }),
+        fc.array(lineArb, { maxLength: 60 }),
+        fc.double({ min: 0.5, max: 5, noNaN: true }),
+        fc.option(fc.double({ min: 0.01, max: 3, noNaN: true })),
+        (peakRows, lineRows, k, resolutionNm) => {
+          const peaks = peakRows.map((p) => peak(p.wavelengthNm, p.wavelengthUncertaintyNm, p.fwhmNm));
+          const matches = matchPeaksToLines(peaks, toLines(lineRows), { k, resolutionNm: resolutionNm ?? undefined });
+          expect(matches).toHaveLength(peaks.length);
+          for (const match of matches) {
+            for (const candidate of match.candidates) {
+              expect(Math.abs(candidate.deltaSigma)).toBeLessThanOrEqual(k);
+              if (candidate.kind === "line") {
+                expect(Math.abs(candidate.deltaNm)).toBeLessThanOrEqual(k * candidate.sigmaNm * (1 + 1e-12));
+              }
+            }
+          }
+        },
+      ),
+      { numRuns: 300 },
+    );
+  });
+
+  it("finds by binary search exactly the lines a brute-force scan finds", () => {
+    fc.assert(
+      fc.property(fc.array(peakArb, { maxLength: 10 }), fc.array(lineArb, { maxLength: 80 }), (peakRows, lineRows) => {
+        const lines = toLines(lineRows.map((row) => ({ ...row, band: null })));
+        const peaks = peakRows.map((p) => peak(p.wavelengthNm, p.wavelengthUncertaintyNm, p.fwhmNm));
+        const matches = matchPeaksToLines(peaks, lines, { resolutionNm: 0.5 });
+        matches.forEach((match, i) => {
+          const expected = lines
+            .map((l, lineIndex) => ({ l, lineIndex }))
+            .filter(({ l }) => {
+              const sigma = Math.max(1e-6, Math.hypot(peaks[i].wavelengthUncertaintyNm, l.uncertaintyNm, 0.5 / Math.sqrt(12)));
+              return Math.abs(peaks[i].wavelengthNm - l.airNm) / sigma <= 3;
+            })
+            .map(({ lineIndex }) => lineIndex)
+            .sort((a, b) => a - b);
+          expect(match.candidates.map((c) => c.lineIndex).sort((a, b) => a - b)).toEqual(expected);
+        });
+      }),
+      { numRuns: 300 },
+    );
+  });
+});
