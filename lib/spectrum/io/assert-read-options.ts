@@ -8,7 +8,9 @@ const MEDIA = new Set(["air", "vacuum"]);
 export function assertReadOptions(options: SpectrumReadOptions): void {
   const { xUnit, medium, maxPoints, minPoints, maxBytes } = options;
   if (xUnit !== undefined && !AXIS_UNITS.has(xUnit)) {
-    throw new RangeError(`xUnit must be "pixel", "nm", "angstrom" or "wavenumber", got ${JSON.stringify(xUnit)}`);
+    throw new RangeError(
+      `xUnit must be "pixel", "nm", "angstrom" or "wavenumber", got ${JSON.stringify(xUnit)}`,
+    );
   }
   if (medium !== undefined && !MEDIA.has(medium)) {
     throw new RangeError(`medium must be "air" or "vacuum", got ${JSON.stringify(medium)}`);
@@ -22,5 +24,6 @@ export function assertReadOptions(options: SpectrumReadOptions): void {
       throw new RangeError(`${name} must be a positive integer, got ${String(value)}`);
     }
   }
-  if (minPoints !== undefined && minPoints < 2) throw new RangeError(`minPoints must be at least 2, got ${minPoints}`);
+  if (minPoints !== undefined && minPoints < 2)
+    throw new RangeError(`minPoints must be at least 2, got ${minPoints}`);
 }

@@ -17,6 +17,9 @@ export function assertTextWithinBytes(text: string, maxBytes: number): void {
     } else bytes += 3;
   }
   if (bytes > maxBytes) {
-    throw new SpectrumParseError("too-large", `the text is larger than the limit of ${maxBytes} bytes`);
+    throw new SpectrumParseError(
+      "too-large",
+      `the text is larger than the limit of ${maxBytes} bytes`,
+    );
   }
 }

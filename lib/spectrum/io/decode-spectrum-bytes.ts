@@ -14,12 +14,19 @@ export interface DecodeSpectrumBytesOptions {
 }
 
 /** The text of `bytes`, without its BOM. Throws "binary" for NUL bytes outside UTF-16, "too-large" over the limit. */
-export function decodeSpectrumBytes(bytes: Uint8Array, options: DecodeSpectrumBytesOptions = {}): string {
+export function decodeSpectrumBytes(
+  bytes: Uint8Array,
+  options: DecodeSpectrumBytesOptions = {},
+): string {
   const { maxBytes = DEFAULT_MAX_BYTES } = options;
   if (!(bytes instanceof Uint8Array)) throw new RangeError("bytes must be a Uint8Array");
-  if (!Number.isInteger(maxBytes) || maxBytes < 1) throw new RangeError(`maxBytes must be a positive integer, got ${String(maxBytes)}`);
+  if (!Number.isInteger(maxBytes) || maxBytes < 1)
+    throw new RangeError(`maxBytes must be a positive integer, got ${String(maxBytes)}`);
   if (bytes.length > maxBytes) {
-    throw new SpectrumParseError("too-large", `the file is ${bytes.length} bytes, over the limit of ${maxBytes}`);
+    throw new SpectrumParseError(
+      "too-large",
+      `the file is ${bytes.length} bytes, over the limit of ${maxBytes}`,
+    );
   }
   const encoding = detectSpectrumTextEncoding(bytes);
   if (encoding === "utf-16le" || encoding === "utf-16be") {
@@ -35,5 +42,8 @@ export function decodeSpectrumBytes(bytes: Uint8Array, options: DecodeSpectrumBy
 
 function binaryError(offset: number | null): SpectrumParseError {
   const where = offset === null ? "" : ` (a NUL byte at offset ${offset})`;
-  return new SpectrumParseError("binary", `the file is binary, not text${where}; export the spectrum as text or JCAMP-DX`);
+  return new SpectrumParseError(
+    "binary",
+    `the file is binary, not text${where}; export the spectrum as text or JCAMP-DX`,
+  );
 }

@@ -64,7 +64,8 @@ export function formatJcampDx(spectrum: Spectrum, options: FormatJcampDxOptions 
   if (!Number.isInteger(yDigits) || yDigits < 1 || yDigits > 15) {
     throw new RangeError(`yDigits must be an integer from 1 to 15, got ${String(yDigits)}`);
   }
-  if (form !== "auto" && form !== "XYDATA" && form !== "XYPOINTS") throw new RangeError(`unknown form ${JSON.stringify(form)}`);
+  if (form !== "auto" && form !== "XYDATA" && form !== "XYPOINTS")
+    throw new RangeError(`unknown form ${JSON.stringify(form)}`);
   const n = x.length;
   const useXyData = form === "XYDATA" || (form === "auto" && isEvenlySpaced(x));
   if (form === "XYDATA" && !isEvenlySpaced(x)) {
@@ -72,7 +73,8 @@ export function formatJcampDx(spectrum: Spectrum, options: FormatJcampDxOptions 
   }
 
   const out: string[] = [];
-  const label = (name: string, value: string | number) => out.push(`##${name}=${oneLine(String(value))}`);
+  const label = (name: string, value: string | number) =>
+    out.push(`##${name}=${oneLine(String(value))}`);
   label("TITLE", options.title ?? meta.TITLE ?? "Spectrum");
   label("JCAMP-DX", "4.24");
   label("DATA TYPE", options.dataType ?? "UV/VIS SPECTRUM");
@@ -95,8 +97,14 @@ export function formatJcampDx(spectrum: Spectrum, options: FormatJcampDxOptions 
     label("LASTX", x[n - 1]);
     label("DELTAX", deltaX);
     label("FIRSTY", y[0]);
-    label("MAXY", y.reduce((a, b) => Math.max(a, b), -Infinity));
-    label("MINY", y.reduce((a, b) => Math.min(a, b), Infinity));
+    label(
+      "MAXY",
+      y.reduce((a, b) => Math.max(a, b), -Infinity),
+    );
+    label(
+      "MINY",
+      y.reduce((a, b) => Math.min(a, b), Infinity),
+    );
     label("NPOINTS", n);
     label("XYDATA", "(X++(Y..Y))");
     let line = "";
@@ -125,14 +133,19 @@ export function formatJcampDx(spectrum: Spectrum, options: FormatJcampDxOptions 
 
 function assertWritable(spectrum: Spectrum): void {
   const { x, y } = spectrum;
-  if (!(x instanceof Float64Array) || !(y instanceof Float64Array)) throw new RangeError("x and y must be Float64Arrays");
+  if (!(x instanceof Float64Array) || !(y instanceof Float64Array))
+    throw new RangeError("x and y must be Float64Arrays");
   if (x.length !== y.length) throw new RangeError(`x has ${x.length} values but y has ${y.length}`);
   if (x.length < 2) throw new RangeError("a spectrum needs at least 2 points");
-  if (!(spectrum.xUnit in XUNITS)) throw new RangeError(`unknown xUnit ${JSON.stringify(spectrum.xUnit)}`);
+  if (!(spectrum.xUnit in XUNITS))
+    throw new RangeError(`unknown xUnit ${JSON.stringify(spectrum.xUnit)}`);
   for (let i = 0; i < x.length; i++) {
-    if (!Number.isFinite(x[i]) || !Number.isFinite(y[i])) throw new RangeError(`point ${i} is not finite`);
-    if (Math.abs(x[i]) >= 1e21) throw new RangeError(`x[${i}] = ${x[i]} is too large for a JCAMP-DX X value`);
-    if (i > 0 && !(x[i] > x[i - 1])) throw new RangeError(`x must be strictly increasing (index ${i})`);
+    if (!Number.isFinite(x[i]) || !Number.isFinite(y[i]))
+      throw new RangeError(`point ${i} is not finite`);
+    if (Math.abs(x[i]) >= 1e21)
+      throw new RangeError(`x[${i}] = ${x[i]} is too large for a JCAMP-DX X value`);
+    if (i > 0 && !(x[i] > x[i - 1]))
+      throw new RangeError(`x must be strictly increasing (index ${i})`);
   }
 }
 

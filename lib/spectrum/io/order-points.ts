@@ -16,7 +16,11 @@ export interface OrderedPoints {
 }
 
 /** Throws "duplicate-x" or "non-monotonic-x" at the offending point; new arrays, inputs untouched. */
-export function orderPoints(x: Float64Array, y: Float64Array, options: OrderPointsOptions = {}): OrderedPoints {
+export function orderPoints(
+  x: Float64Array,
+  y: Float64Array,
+  options: OrderPointsOptions = {},
+): OrderedPoints {
   const { lineOf = () => null, column = null } = options;
   const direction = x.length > 1 ? Math.sign(x[1] - x[0]) : 1;
   for (let i = 1; i < x.length; i++) {
@@ -24,7 +28,12 @@ export function orderPoints(x: Float64Array, y: Float64Array, options: OrderPoin
     if (step === 0) {
       const previous = lineOf(i - 1);
       const where = previous === null ? `point ${i}` : `line ${previous}`;
-      throw new SpectrumParseError("duplicate-x", `x = ${x[i]} repeats the x of ${where}`, lineOf(i), column);
+      throw new SpectrumParseError(
+        "duplicate-x",
+        `x = ${x[i]} repeats the x of ${where}`,
+        lineOf(i),
+        column,
+      );
     }
     if (Math.sign(step) !== direction) {
       const way = direction > 0 ? "up" : "down";

@@ -89,14 +89,19 @@ export function parseJcamp(text: string, options: ParseJcampOptions = {}): Spect
   }
   const block = blocks[blockIndex];
   if (block === undefined) {
-    const found = blocks.length === 0 ? "no ##XYDATA=, ##XYPOINTS= or ##PEAK TABLE= block" : `only ${blocks.length} data blocks`;
+    const found =
+      blocks.length === 0
+        ? "no ##XYDATA=, ##XYPOINTS= or ##PEAK TABLE= block"
+        : `only ${blocks.length} data blocks`;
     throw new SpectrumParseError("jcamp-structure", `the file has ${found}`);
   }
   for (const each of blocks) scanDataBlock(lines, each);
 
   // jcampconverter reads (XY..XY) data only under PEAK TABLE; the layout is the same, so relabel (same line count).
   const forPackage = lines.map((line, i) =>
-    blocks.some((b) => b.form === "XYPOINTS" && b.labelLine === i + 1) ? line.replace(/XY[ _-]*POINTS/i, "PEAK TABLE") : line,
+    blocks.some((b) => b.form === "XYPOINTS" && b.labelLine === i + 1)
+      ? line.replace(/XY[ _-]*POINTS/i, "PEAK TABLE")
+      : line,
   );
   let converted;
   try {
@@ -105,17 +110,29 @@ export function parseJcamp(text: string, options: ParseJcampOptions = {}): Spect
     const reason = error instanceof Error ? error.message : String(error);
     throw new SpectrumParseError("jcamp-structure", `the JCAMP-DX reader failed: ${reason}`);
   }
-  const found = converted.flatten.flatMap((entry) => entry.spectra.map((spectrum) => ({ entry, spectrum })));
+  const found = converted.flatten.flatMap((entry) =>
+    entry.spectra.map((spectrum) => ({ entry, spectrum })),
+  );
   const chosen = found[blockIndex];
   if (chosen === undefined) {
-    throw new SpectrumParseError("jcamp-structure", "the data block could not be decoded", block.labelLine, null);
+    throw new SpectrumParseError(
+      "jcamp-structure",
+      "the data block could not be decoded",
+      block.labelLine,
+      null,
+    );
   }
   const { entry, spectrum: decoded } = chosen;
   const xValues = decoded.data?.x ?? [];
   const yValues = decoded.data?.y ?? [];
   const declared = numberLabel(entry.info.NPOINTS);
   if (xValues.length !== yValues.length) {
-    throw new SpectrumParseError("jcamp-structure", `the block decodes to ${xValues.length} x but ${yValues.length} y values`, block.labelLine, null);
+    throw new SpectrumParseError(
+      "jcamp-structure",
+      `the block decodes to ${xValues.length} x but ${yValues.length} y values`,
+      block.labelLine,
+      null,
+    );
   }
   if (declared !== undefined && declared !== xValues.length) {
     throw new SpectrumParseError(
@@ -126,17 +143,32 @@ export function parseJcamp(text: string, options: ParseJcampOptions = {}): Spect
     );
   }
   if (xValues.length > maxPoints) {
-    throw new SpectrumParseError("too-large", `${xValues.length} points is more than the limit of ${maxPoints}`, block.labelLine, null);
+    throw new SpectrumParseError(
+      "too-large",
+      `${xValues.length} points is more than the limit of ${maxPoints}`,
+      block.labelLine,
+      null,
+    );
   }
   if (xValues.length < minPoints) {
-    throw new SpectrumParseError("too-few-points", `found ${xValues.length} points; at least ${minPoints} are needed`, block.labelLine, null);
+    throw new SpectrumParseError(
+      "too-few-points",
+      `found ${xValues.length} points; at least ${minPoints} are needed`,
+      block.labelLine,
+      null,
+    );
   }
   const x = Float64Array.from(xValues);
   const y = Float64Array.from(yValues);
   const lineOf = (index: number): number | null => block.pointLines?.[index] ?? null;
   for (let i = 0; i < x.length; i++) {
     if (!Number.isFinite(x[i]) || !Number.isFinite(y[i])) {
-      throw new SpectrumParseError("not-finite", `point ${i + 1} decodes to x = ${x[i]}, y = ${y[i]}`, lineOf(i) ?? block.labelLine, null);
+      throw new SpectrumParseError(
+        "not-finite",
+        `point ${i + 1} decodes to x = ${x[i]}, y = ${y[i]}`,
+        lineOf(i) ?? block.labelLine,
+        null,
+      );
     }
   }
   if (block.form === "XYDATA") checkFirstX(lines, block, decoded.xFactor ?? 1, x[0]);
@@ -152,7 +184,9 @@ export function parseJcamp(text: string, options: ParseJcampOptions = {}): Spect
       null,
     );
   }
-  const mediumText = String(entry.meta.MEDIUM ?? "").trim().toUpperCase();
+  const mediumText = String(entry.meta.MEDIUM ?? "")
+    .trim()
+    .toUpperCase();
   const resolved = resolveXUnit({
     fileUnit,
     fileMedium: mediumText === "AIR" ? "air" : mediumText === "VACUUM" ? "vacuum" : undefined,
@@ -163,7 +197,8 @@ export function parseJcamp(text: string, options: ParseJcampOptions = {}): Spect
     x,
   });
   const ordered = orderPoints(x, y, { lineOf });
-  if (resolved.scale !== 1) for (let i = 0; i < ordered.x.length; i++) ordered.x[i] *= resolved.scale;
+  if (resolved.scale !== 1)
+    for (let i = 0; i < ordered.x.length; i++) ordered.x[i] *= resolved.scale;
 
   const meta: Record<string, string> = {};
   for (const [label, value] of Object.entries(entry.info)) {
@@ -185,7 +220,10 @@ function canonicalLabel(line: string): string | undefined {
   if (!trimmed.startsWith("##")) return undefined;
   const equals = trimmed.indexOf("=");
   if (equals < 0) return undefined;
-  return trimmed.slice(2, equals).replace(/[\s_-]/g, "").toUpperCase();
+  return trimmed
+    .slice(2, equals)
+    .replace(/[\s_-]/g, "")
+    .toUpperCase();
 }
 
 function labelLine(lines: string[], label: string): number | null {
@@ -213,21 +251,39 @@ function scanDataBlock(lines: string[], block: DataBlock): void {
     if (block.form === "XYDATA") {
       const bad = ASDF_CHARACTER.exec(line);
       if (bad) {
-        throw new SpectrumParseError("non-numeric", `"${bad[0]}" cannot appear in XYDATA`, i + 1, bad.index + 1);
+        throw new SpectrumParseError(
+          "non-numeric",
+          `"${bad[0]}" cannot appear in XYDATA`,
+          i + 1,
+          bad.index + 1,
+        );
       }
       continue;
     }
-    const tokens = line.trim().split(PAIR_SEPARATOR).filter((token) => token.length > 0);
+    const tokens = line
+      .trim()
+      .split(PAIR_SEPARATOR)
+      .filter((token) => token.length > 0);
     let column = 0;
     for (const token of tokens) {
       column = line.indexOf(token, column);
       if (Number.isNaN(parseNumberCell(token, "."))) {
-        throw new SpectrumParseError("non-numeric", `"${token}" is not a number`, i + 1, column + 1);
+        throw new SpectrumParseError(
+          "non-numeric",
+          `"${token}" is not a number`,
+          i + 1,
+          column + 1,
+        );
       }
       column += token.length;
     }
     if (tokens.length % 2 !== 0) {
-      throw new SpectrumParseError("column-count", `an x without its y (${tokens.length} values on the line)`, i + 1, null);
+      throw new SpectrumParseError(
+        "column-count",
+        `an x without its y (${tokens.length} values on the line)`,
+        i + 1,
+        null,
+      );
     }
     for (let t = 0; t < tokens.length; t += 2) pointLines.push(i + 1);
   }
@@ -245,9 +301,18 @@ function checkFirstX(lines: string[], block: DataBlock, xFactor: number, firstX:
     const line = stripComment(lines[i]).trim();
     if (line.length === 0) continue;
     let end = 0;
-    while (end < line.length && /[0-9+\-.]/.test(line[end]) && (end === 0 || (line[end] !== "+" && line[end] !== "-"))) end++;
+    while (
+      end < line.length &&
+      /[0-9+\-.]/.test(line[end]) &&
+      (end === 0 || (line[end] !== "+" && line[end] !== "-"))
+    )
+      end++;
     const checkX = Number(line.slice(0, end)) * xFactor;
-    if (end > 0 && Number.isFinite(checkX) && Math.abs(checkX - firstX) > Math.abs(xFactor) + 1e-6 * Math.abs(firstX)) {
+    if (
+      end > 0 &&
+      Number.isFinite(checkX) &&
+      Math.abs(checkX - firstX) > Math.abs(xFactor) + 1e-6 * Math.abs(firstX)
+    ) {
       throw new SpectrumParseError(
         "jcamp-structure",
         `the first X value (${checkX}) does not match FIRSTX (${firstX})`,
@@ -260,6 +325,7 @@ function checkFirstX(lines: string[], block: DataBlock, xFactor: number, firstX:
 }
 
 function numberLabel(value: unknown): number | undefined {
-  const number = typeof value === "number" ? value : typeof value === "string" ? Number(value) : NaN;
+  const number =
+    typeof value === "number" ? value : typeof value === "string" ? Number(value) : NaN;
   return Number.isFinite(number) ? number : undefined;
 }

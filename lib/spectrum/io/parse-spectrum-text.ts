@@ -48,7 +48,12 @@ export interface ParseSpectrumTextOptions extends SpectrumReadOptions {
   skipLines?: number;
 }
 
-const DELIMITER_CHARACTERS: Record<TextDelimiter, string> = { tab: "\t", semicolon: ";", comma: ",", whitespace: " " };
+const DELIMITER_CHARACTERS: Record<TextDelimiter, string> = {
+  tab: "\t",
+  semicolon: ";",
+  comma: ",",
+  whitespace: " ",
+};
 /** Tried in this order; the first of equally good layouts wins. */
 const LAYOUTS: ReadonlyArray<readonly [TextDelimiter, "." | ","]> = [
   ["tab", "."],
@@ -97,8 +102,14 @@ export function parseSpectrumText(text: string, options: ParseSpectrumTextOption
   if (options.delimiter !== undefined && !(options.delimiter in DELIMITER_CHARACTERS)) {
     throw new RangeError(`unknown delimiter ${JSON.stringify(options.delimiter)}`);
   }
-  if (options.decimalSeparator !== undefined && options.decimalSeparator !== "." && options.decimalSeparator !== ",") {
-    throw new RangeError(`decimalSeparator must be "." or ",", got ${JSON.stringify(options.decimalSeparator)}`);
+  if (
+    options.decimalSeparator !== undefined &&
+    options.decimalSeparator !== "." &&
+    options.decimalSeparator !== ","
+  ) {
+    throw new RangeError(
+      `decimalSeparator must be "." or ",", got ${JSON.stringify(options.decimalSeparator)}`,
+    );
   }
   if (typeof text !== "string") throw new RangeError("text must be a string");
   assertTextWithinBytes(text, maxBytes);
@@ -111,10 +122,16 @@ export function parseSpectrumText(text: string, options: ParseSpectrumTextOption
 
   const usedColumns = [xColumn - 1, yColumn - 1];
   const sample = content.slice(content.length > 1 ? 1 : 0, SAMPLE_ROWS + 1).map((i) => lines[i]);
-  const [delimiter, decimal] = chooseLayout(sample, usedColumns, options.delimiter, options.decimalSeparator);
+  const [delimiter, decimal] = chooseLayout(
+    sample,
+    usedColumns,
+    options.delimiter,
+    options.decimalSeparator,
+  );
   const split = splitterFor(delimiter);
   if (delimiter === "semicolon") {
-    for (let i = 0; i < lines.length; i++) if (kinds[i] === LineKind.SemicolonLead) kinds[i] = LineKind.Content;
+    for (let i = 0; i < lines.length; i++)
+      if (kinds[i] === LineKind.SemicolonLead) kinds[i] = LineKind.Content;
   }
 
   // Header rows: the leading content rows in which not one cell is a number.
@@ -122,20 +139,29 @@ export function parseSpectrumText(text: string, options: ParseSpectrumTextOption
   let firstDataLine = -1;
   for (let i = 0; i < lines.length; i++) {
     if (kinds[i] !== LineKind.Content) continue;
-    if (headerLines.length < MAX_HEADER_ROWS && split(lines[i]).every((cell) => Number.isNaN(parseNumberCell(cell, decimal)))) {
+    if (
+      headerLines.length < MAX_HEADER_ROWS &&
+      split(lines[i]).every((cell) => Number.isNaN(parseNumberCell(cell, decimal)))
+    ) {
       headerLines.push(i);
       continue;
     }
     firstDataLine = i;
     break;
   }
-  if (firstDataLine < 0) throw new SpectrumParseError("empty", "the text holds a header but no data rows");
+  if (firstDataLine < 0)
+    throw new SpectrumParseError("empty", "the text holds a header but no data rows");
 
   let rowCount = 0;
   for (let i = firstDataLine; i < lines.length; i++) {
     if (kinds[i] !== LineKind.Content) continue;
     if (++rowCount > maxPoints) {
-      throw new SpectrumParseError("too-large", `more than the limit of ${maxPoints} data rows`, i + 1, null);
+      throw new SpectrumParseError(
+        "too-large",
+        `more than the limit of ${maxPoints} data rows`,
+        i + 1,
+        null,
+      );
     }
   }
 
@@ -196,10 +222,17 @@ export function parseSpectrumText(text: string, options: ParseSpectrumTextOption
     n++;
   }
   if (n < minPoints) {
-    throw new SpectrumParseError("too-few-points", `found ${n} data rows; at least ${minPoints} are needed`);
+    throw new SpectrumParseError(
+      "too-few-points",
+      `found ${n} data rows; at least ${minPoints} are needed`,
+    );
   }
 
-  const { reading, line: unitLine, column: unitColumn } = readHeaderUnit(lines, kinds, headerLines, firstDataLine, split, xIndex, columnCount);
+  const {
+    reading,
+    line: unitLine,
+    column: unitColumn,
+  } = readHeaderUnit(lines, kinds, headerLines, firstDataLine, split, xIndex, columnCount);
   const resolved = resolveXUnit({
     fileUnit: reading?.unit,
     conflicting: reading?.conflicting,
@@ -212,7 +245,8 @@ export function parseSpectrumText(text: string, options: ParseSpectrumTextOption
     x: xs,
   });
   const ordered = orderPoints(xs, ys, { lineOf: (index) => lineNumbers[index], column: xColumn });
-  if (resolved.scale !== 1) for (let i = 0; i < ordered.x.length; i++) ordered.x[i] *= resolved.scale;
+  if (resolved.scale !== 1)
+    for (let i = 0; i < ordered.x.length; i++) ordered.x[i] *= resolved.scale;
 
   const meta = buildMeta(lines, kinds, headerLines, firstDataLine, split, xIndex, yIndex);
   meta.delimiter = delimiter;
@@ -226,7 +260,8 @@ export function parseSpectrumText(text: string, options: ParseSpectrumTextOption
 }
 
 function assertColumn(column: number, name: string): void {
-  if (!Number.isInteger(column) || column < 1) throw new RangeError(`${name} must be a 1-based integer, got ${String(column)}`);
+  if (!Number.isInteger(column) || column < 1)
+    throw new RangeError(`${name} must be a 1-based integer, got ${String(column)}`);
 }
 
 function classifyLines(lines: string[], skipLines: number): Uint8Array {
@@ -237,9 +272,12 @@ function classifyLines(lines: string[], skipLines: number): Uint8Array {
     let code = line.charCodeAt(0);
     while (code === 32 || code === 9) code = line.charCodeAt(++start);
     if (start >= line.length) kinds[i] = LineKind.Ignored;
-    else if (code === 35 || code === 37) kinds[i] = LineKind.Comment; // # %
-    else if (code === 47 && line.charCodeAt(start + 1) === 47) kinds[i] = LineKind.Comment; // //
-    else if (code === 59) kinds[i] = LineKind.SemicolonLead; // ;
+    else if (code === 35 || code === 37)
+      kinds[i] = LineKind.Comment; // # %
+    else if (code === 47 && line.charCodeAt(start + 1) === 47)
+      kinds[i] = LineKind.Comment; // //
+    else if (code === 59)
+      kinds[i] = LineKind.SemicolonLead; // ;
     else kinds[i] = LineKind.Content;
   }
   return kinds;
@@ -258,7 +296,8 @@ function splitterFor(delimiter: TextDelimiter): Splitter {
   return (line) => {
     // Quoted cells ("400,12";"1532") need a real CSV reader; plain rows take the fast path.
     const raw = line.includes('"')
-      ? ((Papa.parse<string[]>(line, { delimiter: separator, quoteChar: '"', header: false }).data[0] ?? []) as string[])
+      ? ((Papa.parse<string[]>(line, { delimiter: separator, quoteChar: '"', header: false })
+          .data[0] ?? []) as string[])
       : line.split(separator);
     let end = raw.length;
     const cells = new Array<string>(end);
@@ -297,7 +336,9 @@ function chooseLayout(
     for (const line of sample) {
       const cells = split(line);
       if (cells.length < 2) continue;
-      const good = usedColumns.every((c) => c < cells.length && !Number.isNaN(parseNumberCell(cells[c], decimal)));
+      const good = usedColumns.every(
+        (c) => c < cells.length && !Number.isNaN(parseNumberCell(cells[c], decimal)),
+      );
       if (good) countsOfGoodRows.set(cells.length, (countsOfGoodRows.get(cells.length) ?? 0) + 1);
     }
     const score = Math.max(0, ...countsOfGoodRows.values());
@@ -351,10 +392,13 @@ function readHeaderUnit(
     const reading = readAxisLabel(aligned ? cells[xIndex] : text);
     readings.push({ reading, line: index + 1, column: aligned ? xIndex + 1 : null });
   }
-  const withUnit = readings.filter((r) => r.reading.unit !== undefined || r.reading.conflicting !== undefined);
+  const withUnit = readings.filter(
+    (r) => r.reading.unit !== undefined || r.reading.conflicting !== undefined,
+  );
   const chosen = withUnit[0] ?? readings[0];
   const medium = readings.map((r) => r.reading.medium).find((m) => m !== undefined);
-  const wavelengthWithoutUnit = withUnit.length === 0 && readings.some((r) => r.reading.wavelengthWithoutUnit);
+  const wavelengthWithoutUnit =
+    withUnit.length === 0 && readings.some((r) => r.reading.wavelengthWithoutUnit);
   return {
     reading: { ...chosen.reading, medium: chosen.reading.medium ?? medium, wavelengthWithoutUnit },
     line: chosen.line,
@@ -385,7 +429,8 @@ function buildMeta(
   }
   const comments: string[] = [];
   for (let i = 0; i < firstDataLine && comments.length < MAX_COMMENT_LINES_KEPT; i++) {
-    if (kinds[i] === LineKind.Comment || kinds[i] === LineKind.SemicolonLead) comments.push(lines[i].trim());
+    if (kinds[i] === LineKind.Comment || kinds[i] === LineKind.SemicolonLead)
+      comments.push(lines[i].trim());
   }
   if (comments.length > 0) meta.comments = comments.join("\n");
   return meta;

@@ -17,8 +17,26 @@ export interface AxisLabelReading {
 
 const WAVELENGTH_WORDS = new Set(["wavelength", "wavelengths", "lambda", "λ", "wl", "wave"]);
 const NM_WORDS = new Set(["nm", "nanometer", "nanometers", "nanometre", "nanometres"]);
-const ANGSTROM_WORDS = new Set(["å", "angstrom", "angstroms", "ångström", "ångströms", "angström", "aa"]);
-const MICROMETRE_WORDS = new Set(["µm", "μm", "um", "micron", "microns", "micrometer", "micrometers", "micrometre", "micrometres"]);
+const ANGSTROM_WORDS = new Set([
+  "å",
+  "angstrom",
+  "angstroms",
+  "ångström",
+  "ångströms",
+  "angström",
+  "aa",
+]);
+const MICROMETRE_WORDS = new Set([
+  "µm",
+  "μm",
+  "um",
+  "micron",
+  "microns",
+  "micrometer",
+  "micrometers",
+  "micrometre",
+  "micrometres",
+]);
 const PIXEL_WORDS = new Set(["pixel", "pixels", "px", "pix", "channel", "channels"]);
 const WAVENUMBER_WORDS = new Set(["wavenumber", "wavenumbers"]);
 
@@ -33,7 +51,11 @@ export function readAxisLabel(label: string): AxisLabelReading {
   const compact = normal.replace(/[\s^*{}]/g, "");
   const tokens = normal.split(/[^a-z0-9åöµμλ]+/).filter((token) => token.length > 0);
   const found = new Set<LabelUnit>();
-  if (compact.includes("cm-1") || compact.includes("1/cm") || tokens.some((t) => WAVENUMBER_WORDS.has(t))) {
+  if (
+    compact.includes("cm-1") ||
+    compact.includes("1/cm") ||
+    tokens.some((t) => WAVENUMBER_WORDS.has(t))
+  ) {
     found.add("wavenumber");
   }
   const saysWavelength = tokens.some((t) => WAVELENGTH_WORDS.has(t));
@@ -45,8 +67,12 @@ export function readAxisLabel(label: string): AxisLabelReading {
   }
   let medium: WavelengthMedium | undefined;
   if (tokens.includes("air")) medium = "air";
-  if (tokens.includes("vacuum") || tokens.includes("vac")) medium = medium === "air" ? undefined : "vacuum";
-  const reading: AxisLabelReading = { wavelengthWithoutUnit: saysWavelength && found.size === 0, medium };
+  if (tokens.includes("vacuum") || tokens.includes("vac"))
+    medium = medium === "air" ? undefined : "vacuum";
+  const reading: AxisLabelReading = {
+    wavelengthWithoutUnit: saysWavelength && found.size === 0,
+    medium,
+  };
   if (found.size === 1) reading.unit = [...found][0];
   else if (found.size > 1) reading.conflicting = [...found];
   return reading;

@@ -48,7 +48,15 @@ const UNIT_NAMES: Record<LabelUnit, string> = {
 
 /** The unit, scale and medium to use, or a SpectrumParseError ("unit-unknown" / "unit-conflict"). */
 export function resolveXUnit(evidence: XUnitEvidence): ResolvedXUnit {
-  const { fileUnit, conflicting, fileMedium, statedUnit, statedMedium, line = null, column = null } = evidence;
+  const {
+    fileUnit,
+    conflicting,
+    fileMedium,
+    statedUnit,
+    statedMedium,
+    line = null,
+    column = null,
+  } = evidence;
   const said = evidence.fileText ? ` (${evidence.fileText})` : "";
   if (conflicting && conflicting.length > 1 && statedUnit === undefined) {
     const names = conflicting.map((unit) => UNIT_NAMES[unit]).join(" and ");
@@ -95,7 +103,9 @@ export function resolveXUnit(evidence: XUnitEvidence): ResolvedXUnit {
       ? `the header says wavelength${said} but not whether in nm or Å`
       : `the file does not say what the x column is${said}`;
     const suggestion = evidence.x ? suggestXUnit(evidence.x) : null;
-    const hint = suggestion ? ` (suggestXUnit suggests "${suggestion.unit}": ${suggestion.reason})` : "";
+    const hint = suggestion
+      ? ` (suggestXUnit suggests "${suggestion.unit}": ${suggestion.reason})`
+      : "";
     throw new SpectrumParseError(
       "unit-unknown",
       `${what}; state it with options.xUnit ("pixel", "nm", "angstrom" or "wavenumber")${hint}`,

@@ -37,7 +37,12 @@ export class SpectrumParseError extends Error {
   /** 1-based column (a cell for text files, a character for JCAMP-DX data lines), or null. */
   readonly column: number | null;
 
-  constructor(code: SpectrumParseErrorCode, problem: string, line: number | null = null, column: number | null = null) {
+  constructor(
+    code: SpectrumParseErrorCode,
+    problem: string,
+    line: number | null = null,
+    column: number | null = null,
+  ) {
     super(`${locationPrefix(line, column)}${problem}`);
     this.name = "SpectrumParseError";
     this.code = code;

@@ -6,7 +6,8 @@ import { assertPositiveFinite } from "./assert-positive-finite";
 import { AIR_FORMULA_MIN_VACUUM_NM, refractiveIndexOfAir } from "./refractive-index-of-air";
 
 /** The air wavelength of 200 nm vacuum (≈ 199.936 nm): the lowest air input the formula covers. */
-export const AIR_FORMULA_MIN_AIR_NM = AIR_FORMULA_MIN_VACUUM_NM / refractiveIndexOfAir(AIR_FORMULA_MIN_VACUUM_NM);
+export const AIR_FORMULA_MIN_AIR_NM =
+  AIR_FORMULA_MIN_VACUUM_NM / refractiveIndexOfAir(AIR_FORMULA_MIN_VACUUM_NM);
 
 const TOLERANCE_NM = 1e-12;
 const MAX_ITERATIONS = 20;

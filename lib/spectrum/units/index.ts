@@ -19,7 +19,10 @@ export { airToVacuumNm, AIR_FORMULA_MIN_AIR_NM } from "./air-to-vacuum-nm";
 export { xVacuumToAirNm } from "./x-vacuum-to-air-nm";
 export { xAirToVacuumNm } from "./x-air-to-vacuum-nm";
 export { conventionalWavelengthNm } from "./conventional-wavelength-nm";
-export type { ConventionalWavelength, ConventionalWavelengthNmOptions } from "./conventional-wavelength-nm";
+export type {
+  ConventionalWavelength,
+  ConventionalWavelengthNmOptions,
+} from "./conventional-wavelength-nm";
 export { toNanometres } from "./to-nanometres";
 export type { ToNanometresOptions } from "./to-nanometres";
 export { spectrumToNanometres } from "./spectrum-to-nanometres";

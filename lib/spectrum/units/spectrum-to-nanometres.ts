@@ -12,9 +12,17 @@ export interface SpectrumToNanometresOptions extends AirVacuumOptions {
 }
 
 /** A new Spectrum with x in nm (increasing) and `medium` set; `spectrum` is not modified. */
-export function spectrumToNanometres(spectrum: Spectrum, options: SpectrumToNanometresOptions = {}): Spectrum {
+export function spectrumToNanometres(
+  spectrum: Spectrum,
+  options: SpectrumToNanometresOptions = {},
+): Spectrum {
   const { medium, belowRange } = options;
-  const xNm = toNanometres(spectrum.x, { unit: spectrum.xUnit, inputMedium: spectrum.medium, medium, belowRange });
+  const xNm = toNanometres(spectrum.x, {
+    unit: spectrum.xUnit,
+    inputMedium: spectrum.medium,
+    medium,
+    belowRange,
+  });
   const y = Float64Array.from(spectrum.y);
   const resultMedium = medium ?? (spectrum.xUnit === "wavenumber" ? "vacuum" : spectrum.medium);
   if (xNm.length > 1 && xNm[0] > xNm[xNm.length - 1]) {

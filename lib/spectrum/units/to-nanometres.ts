@@ -32,14 +32,18 @@ export interface ToNanometresOptions extends AirVacuumOptions {
 export function toNanometres(x: Float64Array, options: ToNanometresOptions = {}): Float64Array {
   const { unit = "nm", inputMedium, medium, belowRange } = options;
   if (unit === "pixel") {
-    throw new RangeError("a pixel axis has no wavelength until it is calibrated; calibrate it first");
+    throw new RangeError(
+      "a pixel axis has no wavelength until it is calibrated; calibrate it first",
+    );
   }
   if (unit !== "nm" && unit !== "angstrom" && unit !== "wavenumber") {
     throw new RangeError(`unknown unit ${JSON.stringify(unit)}`);
   }
   const fromMedium: WavelengthMedium | undefined = unit === "wavenumber" ? "vacuum" : inputMedium;
   if (medium !== undefined && fromMedium === undefined) {
-    throw new RangeError(`the ${medium} wavelengths asked for need inputMedium: in which medium was x measured?`);
+    throw new RangeError(
+      `the ${medium} wavelengths asked for need inputMedium: in which medium was x measured?`,
+    );
   }
   const out = new Float64Array(x.length);
   for (let i = 0; i < x.length; i++) {

@@ -3,13 +3,22 @@ import { describe, it, expect } from "vitest";
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import { convert } from "jcampconverter";
-import { SpectrumParseError, formatJcampDx, parseJcamp, type SpectrumParseErrorCode } from "../../../../lib/spectrum/io";
+import {
+  SpectrumParseError,
+  formatJcampDx,
+  parseJcamp,
+  type SpectrumParseErrorCode,
+} from "../../../../lib/spectrum/io";
 import type { Spectrum } from "../../../../lib/spectrum/types";
 
 const FIXTURES = path.resolve(__dirname, "../../../fixtures/spectra");
 const read = (name: string) => readFileSync(path.join(FIXTURES, name), "utf8");
 
-function codeOf(run: () => unknown): { code: SpectrumParseErrorCode; line: number | null; column: number | null } {
+function codeOf(run: () => unknown): {
+  code: SpectrumParseErrorCode;
+  line: number | null;
+  column: number | null;
+} {
   try {
     run();
   } catch (error) {
@@ -23,7 +32,9 @@ function codeOf(run: () => unknown): { code: SpectrumParseErrorCode; line: numbe
 describe("reading", () => {
   it("decodes a hand-encoded SQZ/DIF/DUP block and applies XFACTOR, YFACTOR and FIRSTX", () => {
     // The y values encoded by hand per the JCAMP-DX ASDF rules (McDonald & Wilks 1988), times YFACTOR = 2
-    const expectedY = [50, 55, 60, 65, 65, 65, 62, 59, 56, 53, 50, 50, 50, 50, 50, 50].map((v) => v * 2);
+    const expectedY = [50, 55, 60, 65, 65, 65, 62, 59, 56, 53, 50, 50, 50, 50, 50, 50].map(
+      (v) => v * 2,
+    );
     const spectrum = parseJcamp(read("lamp-difdup-compressed.jdx"));
     expect(Array.from(spectrum.y)).toEqual(expectedY);
     expect(Array.from(spectrum.x)).toEqual(expectedY.map((_, i) => 500 + 0.5 * i));
@@ -54,7 +65,8 @@ describe("reading", () => {
     expect(spectrum.y[15]).toBe(35);
   });
 
-  const withUnits = (units: string) => read("arbitrary-units-peak-table.jdx").replace("##XUNITS=ARBITRARY UNITS", `##XUNITS=${units}`);
+  const withUnits = (units: string) =>
+    read("arbitrary-units-peak-table.jdx").replace("##XUNITS=ARBITRARY UNITS", `##XUNITS=${units}`);
   it.each([
     ["NANOMETERS", "nm", 1],
     ["1/CM", "wavenumber", 1],
@@ -68,35 +80,71 @@ describe("reading", () => {
   });
 
   it("refuses a unit that is not a spectral axis, and a contradicting caller", () => {
-    expect(codeOf(() => parseJcamp(withUnits("SECONDS")))).toEqual({ code: "unit-unknown", line: 6, column: null });
-    expect(codeOf(() => parseJcamp(withUnits("NANOMETERS"), { xUnit: "pixel" })).code).toBe("unit-conflict");
+    expect(codeOf(() => parseJcamp(withUnits("SECONDS")))).toEqual({
+      code: "unit-unknown",
+      line: 6,
+      column: null,
+    });
+    expect(codeOf(() => parseJcamp(withUnits("NANOMETERS"), { xUnit: "pixel" })).code).toBe(
+      "unit-conflict",
+    );
   });
 });
 
 describe("errors", () => {
   const difdup = read("lamp-difdup-compressed.jdx");
   it("a character no ASDF form allows, at its line and column", () => {
-    expect(codeOf(() => parseJcamp(difdup.replace("1005F5lW%W", "1005F5lWx%W")))).toEqual({ code: "non-numeric", line: 19, column: 9 });
+    expect(codeOf(() => parseJcamp(difdup.replace("1005F5lW%W", "1005F5lWx%W")))).toEqual({
+      code: "non-numeric",
+      line: 19,
+      column: 9,
+    });
   });
   it("NPOINTS that disagrees with the data", () => {
-    expect(codeOf(() => parseJcamp(difdup.replace("##NPOINTS=16", "##NPOINTS=17")))).toEqual({ code: "jcamp-structure", line: 16, column: null });
+    expect(codeOf(() => parseJcamp(difdup.replace("##NPOINTS=16", "##NPOINTS=17")))).toEqual({
+      code: "jcamp-structure",
+      line: 16,
+      column: null,
+    });
   });
   it("a first X that disagrees with FIRSTX", () => {
-    expect(codeOf(() => parseJcamp(difdup.replace("\n1000E0", "\n1100E0")))).toEqual({ code: "jcamp-structure", line: 18, column: 1 });
+    expect(codeOf(() => parseJcamp(difdup.replace("\n1000E0", "\n1100E0")))).toEqual({
+      code: "jcamp-structure",
+      line: 18,
+      column: 1,
+    });
   });
   it("a non-numeric (XY..XY) value, and an x without its y", () => {
     const points = read("wavenumber-xypoints.jdx");
-    expect(codeOf(() => parseJcamp(points.replace("1694, 14", "1694, 1q4")))).toEqual({ code: "non-numeric", line: 15, column: 27 });
-    expect(codeOf(() => parseJcamp(points.replace("1694, 14;", "1694;")))).toEqual({ code: "column-count", line: 15, column: null });
+    expect(codeOf(() => parseJcamp(points.replace("1694, 14", "1694, 1q4")))).toEqual({
+      code: "non-numeric",
+      line: 15,
+      column: 27,
+    });
+    expect(codeOf(() => parseJcamp(points.replace("1694, 14;", "1694;")))).toEqual({
+      code: "column-count",
+      line: 15,
+      column: null,
+    });
   });
   it("a duplicated x in (XY..XY), at its line", () => {
     const points = read("wavenumber-xypoints.jdx").replace("1691, 20", "1692, 20");
-    expect(codeOf(() => parseJcamp(points))).toEqual({ code: "duplicate-x", line: 16, column: null });
+    expect(codeOf(() => parseJcamp(points))).toEqual({
+      code: "duplicate-x",
+      line: 16,
+      column: null,
+    });
   });
   it("no data block, no labels, too few points", () => {
-    expect(codeOf(() => parseJcamp("##TITLE=x\n##JCAMP-DX=4.24\n##END=\n")).code).toBe("jcamp-structure");
+    expect(codeOf(() => parseJcamp("##TITLE=x\n##JCAMP-DX=4.24\n##END=\n")).code).toBe(
+      "jcamp-structure",
+    );
     expect(codeOf(() => parseJcamp("just text")).code).toBe("jcamp-structure");
-    expect(codeOf(() => parseJcamp(difdup, { minPoints: 20 }))).toEqual({ code: "too-few-points", line: 16, column: null });
+    expect(codeOf(() => parseJcamp(difdup, { minPoints: 20 }))).toEqual({
+      code: "too-few-points",
+      line: 16,
+      column: null,
+    });
     expect(codeOf(() => parseJcamp(difdup, { maxPoints: 10 })).code).toBe("too-large");
   });
 });
@@ -104,15 +152,36 @@ describe("errors", () => {
 describe("writing", () => {
   const evenly: Spectrum = {
     x: Float64Array.from({ length: 40 }, (_, i) => 380 + 0.25 * i),
-    y: Float64Array.from({ length: 40 }, (_, i) => Math.round(1000 * Math.exp(-(((i - 20) / 3) ** 2))) - 7),
+    y: Float64Array.from(
+      { length: 40 },
+      (_, i) => Math.round(1000 * Math.exp(-(((i - 20) / 3) ** 2))) - 7,
+    ),
     xUnit: "nm",
     medium: "air",
     meta: {},
   };
 
   it("writes the required JCAMP-DX 4.24 labels, lines of at most 80 characters", () => {
-    const text = formatJcampDx(evenly, { title: "Hg lamp\nrun 3", origin: "Test lab", owner: "PUBLIC DOMAIN" });
-    for (const label of ["TITLE=Hg lamp run 3", "JCAMP-DX=4.24", "DATA TYPE=UV/VIS SPECTRUM", "ORIGIN=Test lab", "OWNER=PUBLIC DOMAIN", "XUNITS=NANOMETERS", "YUNITS=", "XFACTOR=", "YFACTOR=", "FIRSTX=380", "LASTX=389.75", "NPOINTS=40", "XYDATA=(X++(Y..Y))"]) {
+    const text = formatJcampDx(evenly, {
+      title: "Hg lamp\nrun 3",
+      origin: "Test lab",
+      owner: "PUBLIC DOMAIN",
+    });
+    for (const label of [
+      "TITLE=Hg lamp run 3",
+      "JCAMP-DX=4.24",
+      "DATA TYPE=UV/VIS SPECTRUM",
+      "ORIGIN=Test lab",
+      "OWNER=PUBLIC DOMAIN",
+      "XUNITS=NANOMETERS",
+      "YUNITS=",
+      "XFACTOR=",
+      "YFACTOR=",
+      "FIRSTX=380",
+      "LASTX=389.75",
+      "NPOINTS=40",
+      "XYDATA=(X++(Y..Y))",
+    ]) {
       expect(text).toContain(`##${label}`);
     }
     expect(text.trimEnd().endsWith("##END=")).toBe(true);
@@ -134,7 +203,12 @@ describe("writing", () => {
 
   it("keeps 10 significant digits of non-integer y through YFACTOR", () => {
     const y = Float64Array.from({ length: 32 }, (_, i) => Math.sin(i) * 1234.5678 + 0.001);
-    const spectrum: Spectrum = { x: Float64Array.from({ length: 32 }, (_, i) => i), y, xUnit: "pixel", meta: {} };
+    const spectrum: Spectrum = {
+      x: Float64Array.from({ length: 32 }, (_, i) => i),
+      y,
+      xUnit: "pixel",
+      meta: {},
+    };
     const text = formatJcampDx(spectrum);
     expect(Number(/##YFACTOR=(.*)/.exec(text)?.[1])).toBe(1e-6);
     const back = parseJcamp(text);
@@ -155,9 +229,16 @@ describe("writing", () => {
   });
 
   it("refuses what it cannot write", () => {
-    const base: Spectrum = { x: Float64Array.from([1, 2, 3]), y: Float64Array.from([1, 2, 3]), xUnit: "nm", meta: {} };
+    const base: Spectrum = {
+      x: Float64Array.from([1, 2, 3]),
+      y: Float64Array.from([1, 2, 3]),
+      xUnit: "nm",
+      meta: {},
+    };
     expect(() => formatJcampDx({ ...base, x: Float64Array.from([1, 3, 2]) })).toThrow(RangeError);
     expect(() => formatJcampDx({ ...base, y: Float64Array.from([1, NaN, 3]) })).toThrow(RangeError);
-    expect(() => formatJcampDx({ ...base, x: Float64Array.from([1, 2, 4]) }, { form: "XYDATA" })).toThrow(RangeError);
+    expect(() =>
+      formatJcampDx({ ...base, x: Float64Array.from([1, 2, 4]) }, { form: "XYDATA" }),
+    ).toThrow(RangeError);
   });
 });

@@ -13,14 +13,18 @@ import {
 
 const FIXTURES = path.resolve(__dirname, "../../../fixtures/spectra");
 /** The y values the fixture files hold: 200 + 5000·exp(−((i − 10)/2)²), rounded. */
-const FIXTURE_Y = [200, 200, 200, 200, 201, 210, 292, 727, 2039, 4094, 5200, 4094, 2039, 727, 292, 210, 201, 200, 200, 200, 200, 200, 200, 200];
+const FIXTURE_Y = [
+  200, 200, 200, 200, 201, 210, 292, 727, 2039, 4094, 5200, 4094, 2039, 727, 292, 210, 201, 200,
+  200, 200, 200, 200, 200, 200,
+];
 
 const N = 20;
 const truthX = Array.from({ length: N }, (_, i) => 400 + i * 0.25);
 const truthY = Array.from({ length: N }, (_, i) => 1000 + 37 * i - 0.5);
 
 function body(separator: string, decimal: "." | ",", eol = "\n"): string {
-  const cell = (value: number) => (decimal === "," ? String(value).replace(".", ",") : String(value));
+  const cell = (value: number) =>
+    decimal === "," ? String(value).replace(".", ",") : String(value);
   return truthX.map((x, i) => `${cell(x)}${separator}${cell(truthY[i])}`).join(eol) + eol;
 }
 
@@ -31,7 +35,13 @@ function expectTruth(text: string, options: ParseSpectrumTextOptions = {}) {
   return spectrum;
 }
 
-function expectError(text: string, code: SpectrumParseErrorCode, line: number | null, column: number | null, options: ParseSpectrumTextOptions = {}) {
+function expectError(
+  text: string,
+  code: SpectrumParseErrorCode,
+  line: number | null,
+  column: number | null,
+  options: ParseSpectrumTextOptions = {},
+) {
   let caught: unknown;
   try {
     parseSpectrumText(text, options);
@@ -40,7 +50,11 @@ function expectError(text: string, code: SpectrumParseErrorCode, line: number | 
   }
   expect(caught).toBeInstanceOf(SpectrumParseError);
   const error = caught as SpectrumParseError;
-  expect({ code: error.code, line: error.line, column: error.column }).toEqual({ code, line, column });
+  expect({ code: error.code, line: error.line, column: error.column }).toEqual({
+    code,
+    line,
+    column,
+  });
   if (line !== null) expect(error.message).toContain(`Line ${line}`);
   return error;
 }
@@ -80,7 +94,9 @@ describe("layouts", () => {
   }
 
   it("skips BOM, blank lines and every comment marker", () => {
-    const text = "\uFEFF# one\n% two\n// three\n; four\n\n  \nx (nm),y\n" + body(",", ".").replace("\n", "\n\n# mid-file note\n");
+    const text =
+      "\uFEFF# one\n% two\n// three\n; four\n\n  \nx (nm),y\n" +
+      body(",", ".").replace("\n", "\n\n# mid-file note\n");
     const spectrum = expectTruth(text);
     expect(spectrum.meta.comments).toBe("# one\n% two\n// three\n; four");
   });
@@ -90,7 +106,9 @@ describe("layouts", () => {
   });
 
   it("reads quoted cells through the CSV parser", () => {
-    const text = truthX.map((x, i) => `"${String(x).replace(".", ",")}";"${String(truthY[i]).replace(".", ",")}"`).join("\n");
+    const text = truthX
+      .map((x, i) => `"${String(x).replace(".", ",")}";"${String(truthY[i]).replace(".", ",")}"`)
+      .join("\n");
     expectTruth(text, { xUnit: "nm" });
   });
 
@@ -99,7 +117,10 @@ describe("layouts", () => {
   });
 
   it("skips a preamble when told how many lines it has", () => {
-    expectTruth("Instrument: bench 7\nIntegration: 100 ms\n" + body("\t", "."), { xUnit: "nm", skipLines: 2 });
+    expectTruth("Instrument: bench 7\nIntegration: 100 ms\n" + body("\t", "."), {
+      xUnit: "nm",
+      skipLines: 2,
+    });
   });
 
   it("reverses a file whose x runs downward", () => {
@@ -147,12 +168,18 @@ describe("units from the header", () => {
   it("reads air or vacuum from the header and from the caller", () => {
     expect(parseSpectrumText(`Wavelength (nm, air),I\n${body(",", ".")}`).medium).toBe("air");
     expect(parseSpectrumText(`wavelength vac (nm),I\n${body(",", ".")}`).medium).toBe("vacuum");
-    expect(parseSpectrumText(body(",", "."), { xUnit: "nm", medium: "vacuum" }).medium).toBe("vacuum");
-    expect(parseSpectrumText(`pixel,I\n${body(",", ".")}`, { medium: "air" }).medium).toBeUndefined();
+    expect(parseSpectrumText(body(",", "."), { xUnit: "nm", medium: "vacuum" }).medium).toBe(
+      "vacuum",
+    );
+    expect(
+      parseSpectrumText(`pixel,I\n${body(",", ".")}`, { medium: "air" }).medium,
+    ).toBeUndefined();
   });
 
   it("reads the unit from the whole header when its cells do not line up", () => {
-    expect(parseSpectrumText(`wavelength (nm)   intensity (counts)\n${body("  ", ".")}`).xUnit).toBe("nm");
+    expect(
+      parseSpectrumText(`wavelength (nm)   intensity (counts)\n${body("  ", ".")}`).xUnit,
+    ).toBe("nm");
   });
 
   it("asks for the unit when neither the file nor the caller gives it", () => {
@@ -169,8 +196,12 @@ describe("units from the header", () => {
   });
 
   it("refuses a caller's unit that contradicts the header", () => {
-    expectError(`wavelength (nm),counts\n${body(",", ".")}`, "unit-conflict", 1, 1, { xUnit: "pixel" });
-    expectError(`wavelength (nm, air)\tcounts\n${body("\t", ".")}`, "unit-conflict", 1, 1, { medium: "vacuum" });
+    expectError(`wavelength (nm),counts\n${body(",", ".")}`, "unit-conflict", 1, 1, {
+      xUnit: "pixel",
+    });
+    expectError(`wavelength (nm, air)\tcounts\n${body("\t", ".")}`, "unit-conflict", 1, 1, {
+      medium: "vacuum",
+    });
     expectError(`nm / cm-1,counts\n${body(",", ".")}`, "unit-unknown", 1, 1);
   });
 });
@@ -189,7 +220,8 @@ describe("suggestXUnit", () => {
 describe("errors name the line and column", () => {
   const header = "wavelength (nm),counts\n";
   const rows = body(",", ".").split("\n");
-  const withRow = (index: number, row: string) => header + rows.map((r, i) => (i === index ? row : r)).join("\n");
+  const withRow = (index: number, row: string) =>
+    header + rows.map((r, i) => (i === index ? row : r)).join("\n");
 
   it("non-numeric cell", () => {
     const error = expectError(withRow(12, "403,12a.5"), "non-numeric", 14, 2);
@@ -208,14 +240,18 @@ describe("errors name the line and column", () => {
   it("too few points, stating the minimum", () => {
     const error = expectError(header + rows.slice(0, 10).join("\n"), "too-few-points", null, null);
     expect(error.message).toMatch(/at least 16/);
-    expect(parseSpectrumText(header + rows.slice(0, 10).join("\n"), { minPoints: 10 }).x.length).toBe(10);
+    expect(
+      parseSpectrumText(header + rows.slice(0, 10).join("\n"), { minPoints: 10 }).x.length,
+    ).toBe(10);
   });
   it("duplicate x", () => expectError(withRow(6, "401.25,9"), "duplicate-x", 8, 1));
   it("non-monotonic x", () => expectError(withRow(6, "400.1,9"), "non-monotonic-x", 8, 1));
   it("missing column", () => expectError(withRow(9, "402.25"), "column-count", 11, 2));
   it("extra column", () => expectError(withRow(9, "402.25,5,6"), "column-count", 11, 3));
-  it("a single-column file", () => expectError("1\n2\n3\n".repeat(8), "column-count", 1, null, { xUnit: "pixel" }));
-  it("an asked-for column that is not there", () => expectError(body(",", "."), "column-count", 1, null, { xUnit: "nm", yColumn: 3 }));
+  it("a single-column file", () =>
+    expectError("1\n2\n3\n".repeat(8), "column-count", 1, null, { xUnit: "pixel" }));
+  it("an asked-for column that is not there", () =>
+    expectError(body(",", "."), "column-count", 1, null, { xUnit: "nm", yColumn: 3 }));
   it("semicolon-led row in a semicolon file is data, not a comment", () => {
     const text = "wavelength (nm);counts\n" + body(";", ",").replace("401,25;", ";");
     expect(expectError(text, "empty-cell", 7, 1).message).toMatch(/comment only when/);
@@ -225,14 +261,16 @@ describe("errors name the line and column", () => {
     expectError("# nothing\n\n", "empty", null, null);
     expectError("wavelength (nm),counts\n", "empty", null, null);
   });
-  it("text over the byte limit", () => expectError(body(",", "."), "too-large", null, null, { xUnit: "nm", maxBytes: 100 }));
+  it("text over the byte limit", () =>
+    expectError(body(",", "."), "too-large", null, null, { xUnit: "nm", maxBytes: 100 }));
   it("byte limit counts UTF-8 bytes, not characters", () => {
     const text = "# " + "Å".repeat(200) + "\n" + body(",", ".");
     const bytes = new TextEncoder().encode(text).length;
     expectError(text, "too-large", null, null, { xUnit: "nm", maxBytes: bytes - 1 });
     expect(parseSpectrumText(text, { xUnit: "nm", maxBytes: bytes }).x.length).toBe(N);
   });
-  it("points over the point limit", () => expectError(header + body(",", "."), "too-large", 19, null, { maxPoints: 17 }));
+  it("points over the point limit", () =>
+    expectError(header + body(",", "."), "too-large", 19, null, { maxPoints: 17 }));
   it("caller mistakes are RangeErrors", () => {
     expect(() => parseSpectrumText(body(",", "."), { xColumn: 0 })).toThrow(RangeError);
     expect(() => parseSpectrumText(body(",", "."), { xColumn: 2, yColumn: 2 })).toThrow(RangeError);
@@ -249,8 +287,13 @@ describe("fixtures", () => {
     expect(Array.from(spectrum.y)).toEqual(FIXTURE_Y);
   });
   it("tab, decimal comma, no header: needs the caller's unit", () => {
-    expect(() => parseSpectrumText(read("tab-decimal-comma-no-header.txt"))).toThrow(SpectrumParseError);
-    const spectrum = parseSpectrumText(read("tab-decimal-comma-no-header.txt"), { xUnit: "nm", medium: "air" });
+    expect(() => parseSpectrumText(read("tab-decimal-comma-no-header.txt"))).toThrow(
+      SpectrumParseError,
+    );
+    const spectrum = parseSpectrumText(read("tab-decimal-comma-no-header.txt"), {
+      xUnit: "nm",
+      medium: "air",
+    });
     expect(spectrum.x[23]).toBeCloseTo(405.75, 12);
     expect(spectrum.medium).toBe("air");
   });

@@ -88,8 +88,11 @@ describe("range and options", () => {
     expect(vacuum).toEqual(copy);
     for (let i = 0; i < vacuum.length; i++) expect(air[i]).toBe(vacuumToAirNm(vacuum[i]));
     const back = xAirToVacuumNm(air);
-    for (let i = 0; i < vacuum.length; i++) expect(Math.abs(back[i] - vacuum[i])).toBeLessThan(1e-9);
-    expect(xVacuumToAirNm(Float64Array.from([121.567, 300]), { belowRange: "unchanged" })[0]).toBe(121.567);
+    for (let i = 0; i < vacuum.length; i++)
+      expect(Math.abs(back[i] - vacuum[i])).toBeLessThan(1e-9);
+    expect(xVacuumToAirNm(Float64Array.from([121.567, 300]), { belowRange: "unchanged" })[0]).toBe(
+      121.567,
+    );
   });
 });
 

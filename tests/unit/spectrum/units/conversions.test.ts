@@ -56,7 +56,10 @@ describe("toNanometres", () => {
 
   it("converts between media only when the input medium is known", () => {
     const x = Float64Array.from([588.995]);
-    expect(toNanometres(x, { unit: "nm", inputMedium: "air", medium: "vacuum" })[0]).toBeCloseTo(airToVacuumNm(588.995), 12);
+    expect(toNanometres(x, { unit: "nm", inputMedium: "air", medium: "vacuum" })[0]).toBeCloseTo(
+      airToVacuumNm(588.995),
+      12,
+    );
     expect(() => toNanometres(x, { unit: "nm", medium: "vacuum" })).toThrow(/inputMedium/);
     expect(() => toNanometres(x, { unit: "pixel" })).toThrow(/calibrat/);
   });
