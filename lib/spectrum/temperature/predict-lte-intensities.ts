@@ -1,0 +1,52 @@
+// Relative line intensities expected in local thermodynamic equilibrium at a given temperature.
+
+import { BOLTZMANN_CONSTANT_EV_PER_K } from "./boltzmann-constant";
+
+/** A line of one species with the atomic data the prediction needs. */
+export interface LteLine {
+  /** Wavelength in nm. */
+  wavelengthNm: number;
+  /** Statistical weight of the upper level. */
+  g: number;
+  /** Transition probability in s⁻¹. */
+  a: number;
+  /** Upper-level energy in eV. */
+  upperEv: number;
+}
+
+export interface PredictLteIntensitiesOptions {
+  /** Excitation temperature in kelvin.
+   * @default 2500 (a typical flame; common practice) */
+  temperatureK?: number;
+}
+
+/**
+ * I ∝ g·A/λ·exp(−E_upper/kT) (emitted power per line; the partition function cancels within one
+ * species), normalised so the strongest line is 1. Same order as the input.
+ */
+export function predictLteIntensities(
+  lines: readonly LteLine[],
+  options: PredictLteIntensitiesOptions = {},
+): Float64Array {
+  const { temperatureK = 2500 } = options;
+  if (!(temperatureK > 0) || !Number.isFinite(temperatureK)) {
+    throw new RangeError(`temperatureK must be a positive finite number, got ${temperatureK}`);
+  }
+  const kT = BOLTZMANN_CONSTANT_EV_PER_K * temperatureK;
+  const logs = new Float64Array(lines.length);
+  lines.forEach((line, i) => {
+    for (const key of ["wavelengthNm", "g", "a"] as const) {
+      if (!(line[key] > 0) || !Number.isFinite(line[key])) {
+        throw new RangeError(`line ${i}: ${key} must be a positive finite number, got ${line[key]}`);
+      }
+    }
+    if (!(line.upperEv >= 0) || !Number.isFinite(line.upperEv)) {
+      throw new RangeError(`line ${i}: upperEv must be a finite number ≥ 0, got ${line.upperEv}`);
+    }
+    // Work in logarithms so cold temperatures and high energies cannot underflow to 0/0.
+    logs[i] = Math.log((line.g * line.a) / line.wavelengthNm) - line.upperEv / kT;
+  });
+  let highest = -Infinity;
+  for (const value of logs) highest = Math.max(highest, value);
+  return logs.map((value) => Math.exp(value - highest));
+}
