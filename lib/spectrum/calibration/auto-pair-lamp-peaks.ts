@@ -1,0 +1,194 @@
+// Automatic pairing of lamp peaks with known lamp lines, knowing only the instrument's nominal range
+// and kind of dispersion: RANSAC over (peak, peak) × (line, line) draws, then iterative refinement.
+//
+// Each draw fixes a first guess x = A + B·g(λ), where g straightens the expected dispersion: g(λ) = λ
+// for a grating, g(λ) = 1/(λ − λ₀) for a prism (a Hartmann shape with α = 1 whose λ₀ comes from real
+// glasses, so blue lines are spread several times wider than red ones). The order of the line pair
+// decides the direction of the axis, so both directions are tried. A guess must map the array onto the
+// nominal range within a tolerance; it is scored by the lines that land on a peak, weighted by how well
+// line intensity and peak height ranks agree, less a penalty for strong lines that land on no peak.
+import { hypothesisShapes, pairingContext } from "./lamp-pairing-setup";
+import type { LampLine, LampPair, LampPairingOptions, LampPairingResult, LampPeak } from "./lamp-pairing-types";
+import {
+  finishLampPairing,
+  refineLampPairing,
+  refineLampPairs,
+  type PairingContext,
+  type RefinedPairing,
+} from "./refine-lamp-pairing";
+import { seededRandom } from "./seeded-random";
+
+export interface AutoPairLampPeaksOptions extends LampPairingOptions {
+  /**
+   * Seed of the random draws; the same seed gives the same result.
+   * @default 1
+   */
+  seed?: number;
+  /**
+   * Number of RANSAC draws.
+   * @default 20000
+   */
+  iterations?: number;
+  /**
+   * How far the guess may map the array's ends from the nominal range's ends, as a fraction of the span.
+   * @default 0.25
+   */
+  rangeTolerance?: number;
+  /**
+   * "dispersion": first guesses follow the dispersion kind; "linear": always a straight line in λ (only
+   * for diagnosis — it fails on prisms, which is the point of the prism shape).
+   * @default "dispersion"
+   */
+  firstGuess?: "dispersion" | "linear";
+  /**
+   * How many of the best distinct first guesses are refined; the most confident result wins.
+   * @default 4
+   */
+  refineCount?: number;
+  /**
+   * Scoring window of a first guess, in multiples of the matching tolerance (half the resolution).
+   * @default 2
+   */
+  guessToleranceFactor?: number;
+}
+
+/** Percentile ranks (0 weakest … 1 strongest) of values. */
+function ranks(values: number[]): number[] {
+  const order = values.map((_, i) => i).sort((a, b) => values[a] - values[b]);
+  const result = new Array<number>(values.length);
+  order.forEach((index, position) => {
+    result[index] = values.length > 1 ? position / (values.length - 1) : 1;
+  });
+  return result;
+}
+
+/** Draws an index from `pool` with weight 1/(rank + 3): strong items more often, weak ones still possible. */
+function weightedPick(pool: number[], random: () => number): number {
+  const weights = pool.map((_, rank) => 1 / (rank + 3));
+  const total = weights.reduce((s, w) => s + w, 0);
+  let u = random() * total;
+  for (let k = 0; k < pool.length; k++) {
+    u -= weights[k];
+    if (u <= 0) return pool[k];
+  }
+  return pool[pool.length - 1];
+}
+
+interface Hypothesis {
+  a: number;
+  b: number;
+  shape: number;
+  score: number;
+  matched: LampPair[];
+}
+
+/** Pairs `peaks` with `lines` automatically; falls back to "needs-manual" when the result is not trusted. */
+export function autoPairLampPeaks(
+  peaks: LampPeak[],
+  lines: LampLine[],
+  options: AutoPairLampPeaksOptions,
+): LampPairingResult {
+  const context = pairingContext(peaks, lines, options);
+  const { seed = 1, iterations = 20000, rangeTolerance = 0.25, firstGuess = "dispersion", refineCount = 4 } = options;
+  const random = seededRandom(seed);
+  const [nominalLow, nominalHigh] = options.nominalRangeNm;
+  const [xMin, xMax] = context.domain;
+  const domainSpan = xMax - xMin;
+  const shapes = hypothesisShapes(firstGuess === "linear" ? "linear" : context.dispersion, options.nominalRangeNm);
+
+  const candidates = context.candidateLines;
+  if (peaks.length < 4 || candidates.length < 4) {
+    return refineLampPairing(context, []);
+  }
+  const peakRank = ranks(peaks.map((p) => p.height));
+  const lineRank = new Map<number, number>();
+  const candidateRanks = ranks(candidates.map((l) => lines[l].intensity));
+  candidates.forEach((l, k) => lineRank.set(l, candidateRanks[k]));
+  const strongPeaks = peaks.map((_, i) => i).sort((a, b) => peaks[b].height - peaks[a].height).slice(0, 20);
+  const strongLines = candidates.slice().sort((a, b) => lines[b].intensity - lines[a].intensity).slice(0, 30);
+  const peaksByX = peaks.map((_, i) => i).sort((a, b) => peaks[a].x - peaks[b].x);
+  const sortedX = peaksByX.map((i) => peaks[i].x);
+  const gValues = shapes.map((g) => new Map(candidates.map((l) => [l, g(lines[l].wavelengthNm)])));
+  const gEnds = shapes.map((g) => [g(nominalLow), g(nominalHigh)]);
+
+  const nearestPeak = (x: number): number => {
+    let low = 0;
+    let high = sortedX.length;
+    while (low < high) {
+      const mid = (low + high) >> 1;
+      if (sortedX[mid] < x) low = mid + 1;
+      else high = mid;
+    }
+    if (low === 0) return peaksByX[0];
+    if (low === sortedX.length) return peaksByX[sortedX.length - 1];
+    return x - sortedX[low - 1] < sortedX[low] - x ? peaksByX[low - 1] : peaksByX[low];
+  };
+
+  // Scoring is tight (a wide window collects chance coincidences as fast as true lines); a crude guess
+  // still scores well near its two anchors, and the refinement then grows it.
+  const guessTolerance = (options.guessToleranceFactor ?? 2) * context.toleranceX;
+  const scoreHypothesis = (a: number, b: number, shape: number, keep: boolean): Hypothesis => {
+    let score = 0;
+    const matched: LampPair[] = [];
+    const used = new Set<number>();
+    for (const l of candidates) {
+      const x = a + b * gValues[shape].get(l)!;
+      if (x < xMin || x > xMax) continue;
+      const p = nearestPeak(x);
+      const quality = lineRank.get(l)!;
+      if (Math.abs(peaks[p].x - x) <= guessTolerance && !used.has(p)) {
+        used.add(p);
+        score += 1 + (1 - Math.abs(quality - peakRank[p]));
+        if (keep) {
+          matched.push({ x: peaks[p].x, wavelengthNm: lines[l].wavelengthNm, species: lines[l].species, lineId: lines[l].id, peakIndex: p, lineIndex: l, ...(peaks[p].xUncertainty !== undefined ? { xUncertainty: peaks[p].xUncertainty } : {}) });
+        }
+      } else if (quality >= 0.75) {
+        score -= 0.5;
+      }
+    }
+    return { a, b, shape, score, matched };
+  };
+
+  const best: Hypothesis[] = [];
+  for (let iteration = 0; iteration < iterations; iteration++) {
+    const shape = iteration % shapes.length;
+    const p1 = weightedPick(strongPeaks, random);
+    const p2 = weightedPick(strongPeaks, random);
+    const l1 = weightedPick(strongLines, random);
+    const l2 = weightedPick(strongLines, random);
+    if (p1 === p2 || l1 === l2) continue;
+    const g1 = gValues[shape].get(l1)!;
+    const g2 = gValues[shape].get(l2)!;
+    const b = (peaks[p2].x - peaks[p1].x) / (g2 - g1);
+    const a = peaks[p1].x - b * g1;
+    if (!Number.isFinite(b) || b === 0) continue;
+    // Where the nominal range's ends would land; they must sit near the array's ends, either way round.
+    const xLow = a + b * gEnds[shape][0];
+    const xHigh = a + b * gEnds[shape][1];
+    const forward = Math.abs(xLow - xMin) + Math.abs(xHigh - xMax);
+    const reverse = Math.abs(xLow - xMax) + Math.abs(xHigh - xMin);
+    if (Math.min(forward, reverse) > 2 * rangeTolerance * domainSpan) continue;
+    const hypothesis = scoreHypothesis(a, b, shape, false);
+    // Keep the best few that differ: two guesses that put the array's ends within a tolerance are one.
+    const duplicate = best.findIndex(
+      (h) => h.shape === shape && Math.abs(h.a + h.b * gEnds[shape][0] - xLow) < 4 * guessTolerance && Math.abs(h.a + h.b * gEnds[shape][1] - xHigh) < 4 * guessTolerance,
+    );
+    if (duplicate >= 0) {
+      if (best[duplicate].score < hypothesis.score) best[duplicate] = hypothesis;
+    } else {
+      best.push(hypothesis);
+    }
+    best.sort((x, y) => y.score - x.score);
+    if (best.length > refineCount) best.length = refineCount;
+  }
+
+  let chosen: { context: PairingContext; refined: RefinedPairing } | undefined;
+  for (const h of best) {
+    const { matched } = scoreHypothesis(h.a, h.b, h.shape, true);
+    const shaped: PairingContext = { ...context, straighten: shapes[h.shape] };
+    const refined = refineLampPairs(shaped, matched);
+    if (!chosen || refined.score > chosen.refined.score) chosen = { context: shaped, refined };
+  }
+  if (chosen) return finishLampPairing(chosen.context, chosen.refined);
+  return refineLampPairing(context, []);
+}

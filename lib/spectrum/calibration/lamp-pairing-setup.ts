@@ -1,0 +1,89 @@
+// Preparation both pairing entry points share: option checks, candidate lines, tolerance, and the
+// first-guess shape g(λ) in which the dispersion hypothesis x = A + B·g(λ) is a straight line.
+import type { DispersionKind } from "../types";
+import { assertDomain, assertFiniteArray } from "./assertions";
+import { GLASS_CATALOGUE, type GlassName } from "./glass-catalogue";
+import type { LampLine, LampPairingOptions, LampPeak } from "./lamp-pairing-types";
+import type { PairingContext } from "./refine-lamp-pairing";
+import { refractiveIndex } from "./refractive-index";
+
+/** Lines this far outside the nominal range (as a fraction of its span) are still considered. */
+const RANGE_MARGIN = 0.1;
+
+/**
+ * λ₀ of the Hartmann form n(λ) ≈ n₀ + k/(λ − λ₀) (α = 1) fitted to a glass over a range. A prism puts a
+ * wavelength at x ≈ a + b·n(λ) (the deviation is close to linear in n), so 1/(λ − λ₀) is the axis in
+ * which its dispersion is a straight line — several times stronger in the blue than in the red.
+ */
+export function hartmannPoleOfGlass(glass: GlassName, rangeNm: [number, number]): number {
+  const samples = Array.from({ length: 24 }, (_, i) => rangeNm[0] + ((rangeNm[1] - rangeNm[0]) * i) / 23);
+  const n = samples.map((lambda) => refractiveIndex(GLASS_CATALOGUE[glass], lambda));
+  let best = { pole: 0, error: Infinity };
+  for (let i = 0; i < 200; i++) {
+    const pole = (0.95 * rangeNm[0] * i) / 199;
+    const g = samples.map((lambda) => 1 / (lambda - pole));
+    const meanG = g.reduce((s, v) => s + v, 0) / g.length;
+    const meanN = n.reduce((s, v) => s + v, 0) / n.length;
+    let sgg = 0;
+    let sgn = 0;
+    for (let k = 0; k < g.length; k++) {
+      sgg += (g[k] - meanG) ** 2;
+      sgn += (g[k] - meanG) * (n[k] - meanN);
+    }
+    const slope = sgn / sgg;
+    const error = n.reduce((s, v, k) => s + (v - meanN - slope * (g[k] - meanG)) ** 2, 0);
+    if (error < best.error) best = { pole, error };
+  }
+  return best.pole;
+}
+
+/** The straightening axes g(λ) to try for a dispersion kind (or a forced straight line). */
+export function hypothesisShapes(dispersion: DispersionKind | "linear", rangeNm: [number, number]): ((lambda: number) => number)[] {
+  if (dispersion !== "prism") return [(lambda) => lambda];
+  // A crown and a dense flint bracket the curvature of the usual prism glasses.
+  return (["N-BK7", "N-SF11"] as const).map((glass) => {
+    const pole = hartmannPoleOfGlass(glass, rangeNm);
+    return (lambda: number) => 1 / (lambda - pole);
+  });
+}
+
+/** Checks the inputs and builds the refinement context. */
+export function pairingContext(
+  peaks: LampPeak[],
+  lines: LampLine[],
+  options: LampPairingOptions,
+  forced: Map<number, number> = new Map(),
+): PairingContext {
+  if (!Array.isArray(peaks) || !Array.isArray(lines)) throw new RangeError("peaks and lines must be arrays");
+  assertFiniteArray(peaks.map((p) => p.x), "peaks.x");
+  assertFiniteArray(peaks.map((p) => p.height), "peaks.height");
+  assertFiniteArray(lines.map((l) => l.wavelengthNm), "lines.wavelengthNm");
+  assertFiniteArray(lines.map((l) => l.intensity), "lines.intensity");
+  assertDomain(options.domain, "options.domain");
+  assertDomain(options.nominalRangeNm, "options.nominalRangeNm");
+  if (options.dispersion !== "grating" && options.dispersion !== "prism") {
+    throw new RangeError(`options.dispersion must be "grating" or "prism", got ${String(options.dispersion)}`);
+  }
+  const [low, high] = options.nominalRangeNm;
+  const span = high - low;
+  const resolutionNm = options.resolutionNm ?? span / 500;
+  if (!(resolutionNm > 0)) throw new RangeError(`options.resolutionNm must be positive, got ${resolutionNm}`);
+  const minConfidence = options.minConfidence ?? 0.35;
+  const candidateLines = lines
+    .map((_, i) => i)
+    .filter((i) => lines[i].wavelengthNm >= low - RANGE_MARGIN * span && lines[i].wavelengthNm <= high + RANGE_MARGIN * span);
+  const meanDispersion = span / (options.domain[1] - options.domain[0]);
+  return {
+    peaks,
+    lines,
+    candidateLines,
+    dispersion: options.dispersion,
+    domain: [options.domain[0], options.domain[1]],
+    // Half the resolution element: two lines closer than that are one peak anyway.
+    toleranceX: (0.5 * resolutionNm) / meanDispersion,
+    minConfidence,
+    forced,
+    nominalRangeNm: [low, high],
+    straighten: hypothesisShapes(options.dispersion, [low, high])[0],
+  };
+}

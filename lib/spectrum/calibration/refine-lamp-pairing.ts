@@ -1,0 +1,204 @@
+// The refinement both pairing entry points share: from a first guess of where each line falls, match
+// lines with peaks, fit, match again with the fit at a tighter tolerance, and judge the result.
+import type { DispersionKind } from "../types";
+import { CalibrationError } from "./calibration-error";
+import { fitCalibration, type FitCalibrationOptions, type FitCalibrationResult } from "./fit-calibration";
+import { informationCriteria } from "./information-criteria";
+import type { LampLine, LampPair, LampPairingResult, LampPeak } from "./lamp-pairing-types";
+import { modelEvaluation } from "./model-evaluation";
+import { weightedLeastSquares } from "./weighted-least-squares";
+
+/** Everything the refinement needs, prepared by the caller. */
+export interface PairingContext {
+  peaks: LampPeak[];
+  lines: LampLine[];
+  /** Indices of the lines inside the nominal range (plus margin). */
+  candidateLines: number[];
+  dispersion: DispersionKind;
+  domain: [number, number];
+  /** Matching half-width in x units at the end of refinement. */
+  toleranceX: number;
+  minConfidence: number;
+  /** Pairs that must stay (manual seeds), as peak index → line index. */
+  forced: Map<number, number>;
+  nominalRangeNm: [number, number];
+  /** The axis g(λ) in which the expected dispersion is nearly a straight line. */
+  straighten: (lambda: number) => number;
+}
+
+/** Pairs each candidate line with the nearest peak to its predicted x; a peak keeps its closest line. */
+function matchByPrediction(context: PairingContext, predictX: (lambda: number) => number, toleranceX: number): LampPair[] {
+  const { peaks, lines, candidateLines, forced } = context;
+  const order = peaks.map((_, i) => i).sort((a, b) => peaks[a].x - peaks[b].x);
+  const sortedX = order.map((i) => peaks[i].x);
+  const forcedLines = new Set(forced.values());
+  const best = new Map<number, { line: number; distanceX: number }>();
+  for (const l of candidateLines) {
+    if (forcedLines.has(l)) continue;
+    const x = predictX(lines[l].wavelengthNm);
+    if (!(x >= context.domain[0] - toleranceX && x <= context.domain[1] + toleranceX)) continue;
+    let low = 0;
+    let high = sortedX.length;
+    while (low < high) {
+      const mid = (low + high) >> 1;
+      if (sortedX[mid] < x) low = mid + 1;
+      else high = mid;
+    }
+    for (const k of [low - 1, low]) {
+      if (k < 0 || k >= sortedX.length) continue;
+      const p = order[k];
+      const distanceX = Math.abs(sortedX[k] - x);
+      if (forced.has(p) || distanceX > toleranceX) continue;
+      const current = best.get(p);
+      if (!current || distanceX < current.distanceX) best.set(p, { line: l, distanceX });
+    }
+  }
+  const pairs: LampPair[] = [];
+  for (const [p, l] of forced) pairs.push(toPair(context, p, l));
+  for (const [p, { line }] of best) pairs.push(toPair(context, p, line));
+  return pairs.sort((a, b) => a.x - b.x);
+}
+
+/**
+ * While pairing, the dispersion is fitted forwards, x as a polynomial in the straightened axis g(λ):
+ * linear least squares, fast, and flexible enough for a strongly curved prism, where the Hartmann
+ * formula over a wide range is off by several pixels in the blue.
+ */
+function forwardFit(context: PairingContext, pairs: LampPair[], degree: number): ((lambda: number) => number) | null {
+  const [low, high] = context.nominalRangeNm;
+  const g = context.straighten;
+  const gLow = g(low);
+  const gHigh = g(high);
+  const normalised = (lambda: number) => (2 * (g(lambda) - gLow)) / (gHigh - gLow) - 1;
+  const design = pairs.map((p) => Array.from({ length: degree + 1 }, (_, k) => normalised(p.wavelengthNm) ** k));
+  try {
+    const { parameters } = weightedLeastSquares(design, pairs.map((p) => p.x), pairs.map((p) => p.xUncertainty ?? 1));
+    return (lambda: number) => {
+      const u = normalised(lambda);
+      return parameters.reduce((sum, a, k) => sum + a * u ** k, 0);
+    };
+  } catch {
+    return null;
+  }
+}
+
+function toPair(context: PairingContext, peakIndex: number, lineIndex: number): LampPair {
+  const peak = context.peaks[peakIndex];
+  const line = context.lines[lineIndex];
+  return {
+    x: peak.x,
+    ...(peak.xUncertainty !== undefined ? { xUncertainty: peak.xUncertainty } : {}),
+    wavelengthNm: line.wavelengthNm,
+    species: line.species,
+    lineId: line.id,
+    peakIndex,
+    lineIndex,
+  };
+}
+
+/** The calibration fitted to the final pairs: a polynomial for a grating, the better of the physical
+ * prism (catalogue glasses) and Hartmann by AICc for a prism, with outlier rejection unless seeds are forced. */
+function finalFit(context: PairingContext, pairs: LampPair[]): FitCalibrationResult | null {
+  const n = pairs.length;
+  const rejectOutliers = context.forced.size === 0;
+  const attempts: FitCalibrationOptions[] =
+    context.dispersion === "prism"
+      ? [{ model: "prism" }, { model: "hartmann" }, { model: "polynomial", degree: Math.min(5, n - 2) }]
+      : [{ model: "polynomial", degree: n >= 10 ? 3 : n >= 6 ? 2 : 1 }, { model: "polynomial", degree: 1 }];
+  let best: { fit: FitCalibrationResult; aicc: number } | undefined;
+  for (const options of attempts) {
+    try {
+      const fit = fitCalibration(pairs, { ...options, domain: context.domain, rejectOutliers });
+      const { aicc } = informationCriteria(fit.model.chiSquare, fit.model.pairCount, fit.model.parameters.length);
+      if (!best || aicc < best.aicc) best = { fit, aicc };
+      if (context.dispersion === "grating") break;
+    } catch (error) {
+      if (!(error instanceof CalibrationError)) throw error;
+    }
+  }
+  return best?.fit ?? null;
+}
+
+/** Pairs after refinement, before the final calibration fit. */
+export interface RefinedPairing {
+  pairs: LampPair[];
+  /** RMS of the forward fit's residuals, x units. */
+  rmsX: number;
+  /** Pairs × precision: ranks refinements cheaply before the one final fit. */
+  score: number;
+}
+
+/** Iterates match → forward fit from the first guess `initialPairs`, tightening the tolerance. */
+export function refineLampPairs(context: PairingContext, initialPairs: LampPair[]): RefinedPairing {
+  let pairs = initialPairs;
+  // Tolerance schedule, in multiples of the final tolerance: wide while the model is crude.
+  const schedule = [3, 2, 1.5, 1, 1, 1];
+  let rmsX = Infinity;
+  for (let stage = 0; stage < schedule.length && pairs.length >= 3; stage++) {
+    const degree = Math.max(1, Math.min(stage + 2, 3, pairs.length - 3));
+    const predictX = forwardFit(context, pairs, degree);
+    if (!predictX) break;
+    pairs = matchByPrediction(context, predictX, schedule[stage] * context.toleranceX);
+    const check = pairs.length > degree + 1 ? forwardFit(context, pairs, degree) : null;
+    rmsX = check
+      ? Math.sqrt(pairs.reduce((s, p) => s + (p.x - check(p.wavelengthNm)) ** 2, 0) / (pairs.length - degree - 1))
+      : Infinity;
+  }
+  const precision = Math.min(Math.max(1 - (2 * rmsX) / context.toleranceX, 0), 1);
+  return { pairs, rmsX, score: pairs.length * precision };
+}
+
+/** Fits the final calibration to refined pairs and judges the result. */
+export function finishLampPairing(context: PairingContext, refined: RefinedPairing): LampPairingResult {
+  const { pairs, rmsX } = refined;
+  const fit = pairs.length >= 3 ? finalFit(context, pairs) : null;
+  const usedPairs = fit ? pairs.filter((_, i) => fit.pairs[i].used) : [];
+  return judge(context, usedPairs, fit, rmsX);
+}
+
+/** Refines and finishes in one go. */
+export function refineLampPairing(context: PairingContext, initialPairs: LampPair[]): LampPairingResult {
+  return finishLampPairing(context, refineLampPairs(context, initialPairs));
+}
+
+function judge(context: PairingContext, pairs: LampPair[], fit: FitCalibrationResult | null, rmsX: number): LampPairingResult {
+  const { peaks, lines, candidateLines } = context;
+  const pairedPeaks = new Set(pairs.map((p) => p.peakIndex));
+  const pairedLines = new Set(pairs.map((p) => p.lineIndex));
+  let confidence = 0;
+  if (fit) {
+    // Lines the fit puts on the array; as many of the strongest as there are peaks should have been seen.
+    const ends = modelEvaluation(fit.model, [context.domain[0], context.domain[1]]).wavelengthNm;
+    const [low, high] = [Math.min(ends[0], ends[1]), Math.max(ends[0], ends[1])];
+    const onArray = candidateLines
+      .filter((l) => lines[l].wavelengthNm >= low && lines[l].wavelengthNm <= high)
+      .sort((a, b) => lines[b].intensity - lines[a].intensity);
+    const strongestLines = onArray.slice(0, Math.max(1, Math.min(peaks.length, onArray.length)));
+    const lineFraction = strongestLines.filter((l) => pairedLines.has(l)).length / strongestLines.length;
+    const strongestPeaks = peaks
+      .map((_, i) => i)
+      .sort((a, b) => peaks[b].height - peaks[a].height)
+      .slice(0, Math.min(10, peaks.length));
+    const peakFraction = strongestPeaks.filter((p) => pairedPeaks.has(p)).length / strongestPeaks.length;
+    const parameters = fit.model.parameters.length;
+    const pairFactor = 1 - Math.exp(-Math.max(pairs.length - parameters, 0) / 4);
+    const precision = Math.min(Math.max(1 - (2 * rmsX) / context.toleranceX, 0), 1);
+    confidence = (0.5 * lineFraction + 0.5 * peakFraction) * pairFactor * precision;
+  }
+  const paired = fit !== null && confidence >= context.minConfidence;
+  const unmatchedPeaks = paired ? peaks.filter((_, i) => !pairedPeaks.has(i)) : peaks.slice();
+  const unmatchedLines = candidateLines.filter((l) => !paired || !pairedLines.has(l)).map((l) => lines[l]);
+  return {
+    status: paired ? "paired" : "needs-manual",
+    confidence,
+    pairs: paired ? pairs : [],
+    model: paired ? fit : null,
+    suggestion: pairs,
+    unmatchedPeaks,
+    unmatchedLines,
+    message: paired
+      ? `paired ${pairs.length} of ${peaks.length} peaks (confidence ${confidence.toFixed(2)}, RMS ${fit!.rmsNm.toFixed(4)} nm)`
+      : `no trustworthy pairing (confidence ${confidence.toFixed(2)} < ${context.minConfidence}): ` +
+        `pair two or three peaks by hand and extend from there`,
+  };
+}
