@@ -23,6 +23,11 @@ function numberCell(value: number | null | undefined): string {
   return value === null || value === undefined ? "" : String(value);
 }
 
+/** Transition probabilities read best in exponent form ("6.16e+7"), which still reads back exactly. */
+function exponentCell(value: number | null): string {
+  return value === null ? "" : value.toExponential();
+}
+
 function rowCells(row: LineTableRow): string[] {
   const cells: Record<string, string> = {
     species: row.species,
@@ -37,7 +42,7 @@ function rowCells(row: LineTableRow): string[] {
     lower_ev: numberCell(row.lowerEv),
     upper_ev: numberCell(row.upperEv),
     g_upper: numberCell(row.gUpper),
-    a_per_s: numberCell(row.aPerS),
+    a_per_s: exponentCell(row.aPerS),
     flags: row.flags.join(";"),
     band_extent_nm: numberCell(row.band?.extentNm),
     band_degrades_to: row.band?.degradesTo ?? "",
