@@ -1,0 +1,69 @@
+# Makes calibration-reference.json: NumPy polyfit (with cov=True) and SciPy curve_fit of the Hartmann
+# formula on deterministic pairs, so the TypeScript fits can be checked against an outside library.
+# Run with Debian's interpreter: /usr/bin/python3 tests/reference/make_calibration_reference.py
+import json
+import os
+
+import numpy as np
+import scipy
+from scipy.optimize import curve_fit
+
+HERE = os.path.dirname(os.path.abspath(__file__))
+
+# Deterministic pairs: a grating-like cubic plus a fixed pseudo-random pattern of residuals (no RNG, so
+# the inputs are the same on every machine).
+DOMAIN = [0.0, 2047.0]
+centre = (DOMAIN[0] + DOMAIN[1]) / 2
+half = (DOMAIN[1] - DOMAIN[0]) / 2
+x_grating = np.array([37.2, 140.8, 262.5, 401.1, 533.9, 689.4, 812.0, 955.7, 1103.3, 1260.6, 1398.2,
+                      1544.9, 1690.1, 1822.4, 1960.8, 2011.5])
+t_grating = (x_grating - centre) / half
+wiggle = 0.01 * np.sin(7.3 * np.arange(len(x_grating)) + 0.4)
+y_grating = 625.0 + 276.0 * t_grating - 1.8 * t_grating**2 + 0.9 * t_grating**3 + wiggle
+
+polynomials = []
+for degree in (1, 2, 3, 4):
+    coefficients, covariance = np.polyfit(t_grating, y_grating, degree, cov=True)
+    x_eval = np.array([0.0, 500.0, 1023.5, 1800.0, 2047.0])
+    t_eval = (x_eval - centre) / half
+    polynomials.append({
+        "degree": degree,
+        # numpy gives the highest power first; stored lowest first to match the TS parameters.
+        "coefficientsAscending": coefficients[::-1].tolist(),
+        "covarianceAscending": covariance[::-1, ::-1].tolist(),
+        "evalX": x_eval.tolist(),
+        "evalNm": np.polyval(coefficients, t_eval).tolist(),
+    })
+
+# Hartmann pairs: λ = λ0 + c/(t0 − t)^α with the pole above the array, plus a fixed residual pattern.
+x_prism = np.array([20.0, 160.0, 330.0, 480.0, 640.0, 800.0, 950.0, 1120.0, 1290.0, 1450.0, 1600.0,
+                    1760.0, 1900.0, 2030.0])
+t_prism = (x_prism - centre) / half
+true = (210.0, 400.0, 1.25, 0.9)
+
+
+def hartmann(t, lambda0, c, t0, alpha):
+    return lambda0 + c / (t0 - t) ** alpha
+
+
+y_prism = hartmann(t_prism, *true) + 0.02 * np.cos(5.1 * np.arange(len(x_prism)) + 1.0)
+parameters, covariance = curve_fit(hartmann, t_prism, y_prism, p0=(200.0, 380.0, 1.3, 1.0), maxfev=20000)
+
+result = {
+    "generator": "tests/reference/make_calibration_reference.py",
+    "numpyVersion": np.__version__,
+    "scipyVersion": scipy.__version__,
+    "domain": DOMAIN,
+    "polynomial": {"x": x_grating.tolist(), "wavelengthNm": y_grating.tolist(), "fits": polynomials},
+    "hartmann": {
+        "x": x_prism.tolist(),
+        "wavelengthNm": y_prism.tolist(),
+        "parameters": parameters.tolist(),
+        "covariance": covariance.tolist(),
+        "parameterNames": ["lambda0Nm", "cNm", "t0", "alpha"],
+    },
+}
+with open(os.path.join(HERE, "calibration-reference.json"), "w") as handle:
+    json.dump(result, handle, indent=2)
+    handle.write("\n")
+print("wrote calibration-reference.json with numpy", np.__version__, "scipy", scipy.__version__)
