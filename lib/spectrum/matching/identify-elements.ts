@@ -1,7 +1,11 @@
 // One call from calibrated peaks to element calls: matching, scoring and unexplained peaks.
 
 import type { CalibratedPeak, ReferenceLine } from "../types";
-import { matchPeaksToLines, type MatchPeaksToLinesOptions, type PeakMatch } from "./match-peaks-to-lines";
+import {
+  matchPeaksToLines,
+  type MatchPeaksToLinesOptions,
+  type PeakMatch,
+} from "./match-peaks-to-lines";
 import { prepareLineIndex, type LineIndex } from "./prepare-line-index";
 import { scoreElements, type ElementScoring, type ScoreElementsOptions } from "./score-elements";
 

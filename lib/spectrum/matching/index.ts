@@ -17,6 +17,9 @@ export type {
   UnexplainedPeak,
   Verdict,
 } from "./score-elements";
-export { INTENSITY_FALLBACK_ORDER, speciesRelativeIntensities } from "./species-relative-intensities";
+export {
+  INTENSITY_FALLBACK_ORDER,
+  speciesRelativeIntensities,
+} from "./species-relative-intensities";
 export type { SpeciesIntensities } from "./species-relative-intensities";
 export { wavelengthForMatchingNm } from "./wavelength-for-matching-nm";

@@ -94,11 +94,22 @@ export function matchPeaksToLines(
       if (referenceNm > peak.wavelengthNm + lineReachNm) break;
       const lineIndex = index.lineOrder[i];
       const line = index.lines[lineIndex];
-      const sigmaNm = Math.max(MINIMUM_SIGMA_NM, Math.sqrt(baseVarianceNm2 + line.uncertaintyNm ** 2));
+      const sigmaNm = Math.max(
+        MINIMUM_SIGMA_NM,
+        Math.sqrt(baseVarianceNm2 + line.uncertaintyNm ** 2),
+      );
       const deltaNm = peak.wavelengthNm - referenceNm;
       const deltaSigma = deltaNm / sigmaNm;
       if (Math.abs(deltaSigma) <= k) {
-        candidates.push({ lineIndex, line, kind: "line", referenceNm, deltaNm, sigmaNm, deltaSigma });
+        candidates.push({
+          lineIndex,
+          line,
+          kind: "line",
+          referenceNm,
+          deltaNm,
+          sigmaNm,
+          deltaSigma,
+        });
       }
     }
 
@@ -112,14 +123,25 @@ export function matchPeaksToLines(
         const lineIndex = index.bandOrder[i];
         const line = index.lines[lineIndex];
         const band = line.band!;
-        const sigmaNm = Math.max(MINIMUM_SIGMA_NM, Math.sqrt(baseVarianceNm2 + line.uncertaintyNm ** 2));
+        const sigmaNm = Math.max(
+          MINIMUM_SIGMA_NM,
+          Math.sqrt(baseVarianceNm2 + line.uncertaintyNm ** 2),
+        );
         const deltaNm = peak.wavelengthNm - referenceNm;
         const depthNm = band.degradesTo === "red" ? deltaNm : -deltaNm;
         const zoneNm = bandHeadZoneFraction * band.extentNm;
         const outsideNm = depthNm < 0 ? depthNm : Math.max(0, depthNm - zoneNm);
         const deltaSigma = outsideNm / sigmaNm;
         if (Math.abs(deltaSigma) <= k) {
-          candidates.push({ lineIndex, line, kind: "band", referenceNm, deltaNm, sigmaNm, deltaSigma });
+          candidates.push({
+            lineIndex,
+            line,
+            kind: "band",
+            referenceNm,
+            deltaNm,
+            sigmaNm,
+            deltaSigma,
+          });
         }
       }
     }

@@ -60,7 +60,9 @@ export function prepareLineIndex(
     wavelengthNm[i] = nm;
     if (line.flags.bandHead && line.band) {
       if (!(line.band.extentNm > 0)) {
-        throw new RangeError(`band ${line.id} needs a positive extentNm, got ${line.band.extentNm}`);
+        throw new RangeError(
+          `band ${line.id} needs a positive extentNm, got ${line.band.extentNm}`,
+        );
       }
       bands.push(i);
       maxBandExtentNm = Math.max(maxBandExtentNm, line.band.extentNm);

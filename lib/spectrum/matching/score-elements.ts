@@ -4,7 +4,10 @@ import type { CalibratedPeak, ReferenceLine, SourceKind } from "../types";
 import type { LineCandidate, PeakMatch } from "./match-peaks-to-lines";
 import { lowerBound } from "./lower-bound";
 import { prepareLineIndex, type LineIndex } from "./prepare-line-index";
-import { speciesRelativeIntensities, type SpeciesIntensities } from "./species-relative-intensities";
+import {
+  speciesRelativeIntensities,
+  type SpeciesIntensities,
+} from "./species-relative-intensities";
 import { wavelengthForMatchingNm } from "./wavelength-for-matching-nm";
 
 export type Verdict = "present" | "possible" | "absent";
@@ -192,7 +195,9 @@ export function scoreElements(
   assertPositive("hidingFwhmFactor", hidingFwhmFactor);
   assertPositive("hidingSnrRatio", hidingSnrRatio);
   if (possibleScore > presentScore) {
-    throw new RangeError(`possibleScore (${possibleScore}) must not exceed presentScore (${presentScore})`);
+    throw new RangeError(
+      `possibleScore (${possibleScore}) must not exceed presentScore (${presentScore})`,
+    );
   }
   const index = Array.isArray(lines)
     ? prepareLineIndex(lines as readonly ReferenceLine[])
@@ -210,6 +215,11 @@ export function scoreElements(
   const bestPeakOfLine = new Map<number, { match: PeakMatch; candidate: LineCandidate }>();
   for (const match of matches) {
     for (const candidate of match.candidates) {
+      if (index.lines[candidate.lineIndex] !== candidate.line) {
+        throw new RangeError(
+          `peak ${match.peakIndex} was matched against a different line table than the one scored`,
+        );
+      }
       const held = bestPeakOfLine.get(candidate.lineIndex);
       if (
         !held ||
@@ -293,7 +303,8 @@ export function scoreElements(
     );
     predictMissing(entry, bestPeakOfLine, index, source, {
       missingSnr: detectionLimitSnr * missingSnrFactor,
-      hiderOf: (nm, predictedSnr) => hidingPeak(byWavelength, nm, predictedSnr, snrOf, hidingFwhmFactor, hidingSnrRatio),
+      hiderOf: (nm, predictedSnr) =>
+        hidingPeak(byWavelength, nm, predictedSnr, snrOf, hidingFwhmFactor, hidingSnrRatio),
     });
   }
 
@@ -360,7 +371,9 @@ export function scoreElements(
   };
   for (const call of calls) {
     for (const overlap of call.overlaps) {
-      overlap.otherSpecies = overlap.otherSpecies.filter((other) => verdictOf.get(other) !== "absent");
+      overlap.otherSpecies = overlap.otherSpecies.filter(
+        (other) => verdictOf.get(other) !== "absent",
+      );
     }
     call.overlaps = call.overlaps.filter((overlap) => overlap.otherSpecies.length > 0);
   }
@@ -378,7 +391,11 @@ export function scoreElements(
       });
     }
     if (match.candidates.length === 0) {
-      unexplainedPeaks.push({ peakIndex: match.peakIndex, peak: match.peak, reason: "no-candidate" });
+      unexplainedPeaks.push({
+        peakIndex: match.peakIndex,
+        peak: match.peak,
+        reason: "no-candidate",
+      });
     } else if (credibleHere.length === 0) {
       unexplainedPeaks.push({
         peakIndex: match.peakIndex,
@@ -421,10 +438,19 @@ function predictMissing(
     const predictedSnr = scale * relative;
     if (predictedSnr < limits.missingSnr) continue;
     const hiddenByPeakIndex = limits.hiderOf(referenceNm, predictedSnr);
-    entry.missing.push({ lineIndex, line, referenceNm, relativeIntensity: relative, predictedSnr, hiddenByPeakIndex });
+    entry.missing.push({
+      lineIndex,
+      line,
+      referenceNm,
+      relativeIntensity: relative,
+      predictedSnr,
+      hiddenByPeakIndex,
+    });
     if (hiddenByPeakIndex === null) entry.missingWeight += weight * relative;
   }
-  entry.missing.sort((a, b) => b.relativeIntensity - a.relativeIntensity || a.referenceNm - b.referenceNm);
+  entry.missing.sort(
+    (a, b) => b.relativeIntensity - a.relativeIntensity || a.referenceNm - b.referenceNm,
+  );
 }
 
 /** The strongest peak near `nm` that outshines the prediction enough to hide the line, if any. */
@@ -505,7 +531,11 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
       .filter((other) => other !== species)
       .sort();
     if (others.length > 0) {
-      overlaps.push({ peakIndex: group.peakIndex, peakWavelengthNm: group.peak.wavelengthNm, otherSpecies: others });
+      overlaps.push({
+        peakIndex: group.peakIndex,
+        peakWavelengthNm: group.peak.wavelengthNm,
+        otherSpecies: others,
+      });
     }
   }
 
@@ -530,10 +560,14 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
   }
 
   if (borrowed(info, context.source)) {
-    notes.push(`No ${context.source} intensities in the table; used ${info.basis} intensities instead.`);
+    notes.push(
+      `No ${context.source} intensities in the table; used ${info.basis} intensities instead.`,
+    );
   }
   if (info.basis === "none") {
-    notes.push("The table gives no relative intensities for this species: missing lines are not weighed.");
+    notes.push(
+      "The table gives no relative intensities for this species: missing lines are not weighed.",
+    );
   }
   if (entry.anchor?.peak.saturated) {
     notes.push("Its strongest observed line is saturated: predicted intensities are lower bounds.");
@@ -561,7 +595,15 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
     overlaps,
     intensityBasis: info.basis,
     notes,
-    rationale: rationaleOf(verdict, seen, strongSeen, strongMissing, strongInRange, entry, overlaps),
+    rationale: rationaleOf(
+      verdict,
+      seen,
+      strongSeen,
+      strongMissing,
+      strongInRange,
+      entry,
+      overlaps,
+    ),
   };
 }
 
@@ -580,7 +622,9 @@ function rationaleOf(
     `${seen.length} line${plural(seen.length)} seen (${formatNm(seen.map((s) => s.referenceNm))}; within ${worstSigma.toFixed(1)}σ)`,
   );
   if (strongInRange.length > 0) {
-    parts.push(`${strongSeen.length} of ${strongInRange.length} strong line${plural(strongInRange.length)} in range seen`);
+    parts.push(
+      `${strongSeen.length} of ${strongInRange.length} strong line${plural(strongInRange.length)} in range seen`,
+    );
   } else {
     parts.push("its strong lines lie outside the range");
   }
@@ -594,7 +638,8 @@ function rationaleOf(
   const weakMissing = entry.missing.filter(
     (m) => m.hiddenByPeakIndex === null && !strongMissing.includes(m),
   ).length;
-  if (weakMissing > 0) parts.push(`${weakMissing} weaker expected line${plural(weakMissing)} missing`);
+  if (weakMissing > 0)
+    parts.push(`${weakMissing} weaker expected line${plural(weakMissing)} missing`);
   if (overlaps.length > 0) {
     parts.push(
       `shares ${overlaps
@@ -618,7 +663,11 @@ function borrowed(info: SpeciesIntensities, source: SourceKind): boolean {
 function linesInRange(index: LineIndex, rangeNm: [number, number]): number[] {
   const found: number[] = [];
   const from = lowerBound(index.lineWavelengthNm, rangeNm[0]);
-  for (let i = from; i < index.lineWavelengthNm.length && index.lineWavelengthNm[i] <= rangeNm[1]; i++) {
+  for (
+    let i = from;
+    i < index.lineWavelengthNm.length && index.lineWavelengthNm[i] <= rangeNm[1];
+    i++
+  ) {
     found.push(index.lineOrder[i]);
   }
   const fromBand = lowerBound(index.bandHeadNm, rangeNm[0]);

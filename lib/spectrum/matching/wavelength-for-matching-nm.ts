@@ -10,7 +10,10 @@ const AIR_VACUUM_BOUNDARY_NM = 200;
  * convention (air above 200 nm, vacuum below, as lamp calibrations are fitted against them);
  * "vacuum" uses vacuum wavelengths throughout.
  */
-export function wavelengthForMatchingNm(line: ReferenceLine, medium: WavelengthMedium = "air"): number {
+export function wavelengthForMatchingNm(
+  line: ReferenceLine,
+  medium: WavelengthMedium = "air",
+): number {
   if (medium === "vacuum") return line.vacuumNm;
   return line.vacuumNm < AIR_VACUUM_BOUNDARY_NM ? line.vacuumNm : line.airNm;
 }

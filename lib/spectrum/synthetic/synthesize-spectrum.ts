@@ -176,8 +176,20 @@ export function synthesizeSpectrum(options: SynthesizeSpectrumOptions = {}): Syn
     const pixel = pixelOfWavelength(wavelengthNmAtPixel, line.wavelengthNm);
     if (pixel === null) continue;
     const fwhmPx = fwhmNm / Math.abs(dispersionNmPerPx(wavelengthNmAtPixel, pixel));
-    addLine(signal, pixel, line.amplitude, fwhmPx, line.profile === "voigt-like" ? lorentzFraction : 0);
-    lineTruth.push({ wavelengthNm: line.wavelengthNm, pixel, amplitude: line.amplitude, fwhmNm, fwhmPx });
+    addLine(
+      signal,
+      pixel,
+      line.amplitude,
+      fwhmPx,
+      line.profile === "voigt-like" ? lorentzFraction : 0,
+    );
+    lineTruth.push({
+      wavelengthNm: line.wavelengthNm,
+      pixel,
+      amplitude: line.amplitude,
+      fwhmNm,
+      fwhmPx,
+    });
   }
 
   const bandTruth: SyntheticBandTruth[] = [];
@@ -293,7 +305,11 @@ function exponentiallyModifiedGaussian(x: number, sigma: number, tau: number): n
   return 0.5 * Math.exp((0.5 * sigma * sigma) / (tau * tau) - x / tau) * erfcOfZ;
 }
 
-function addContinuum(signal: Float64Array, grid: Float64Array, continuum: SyntheticContinuum): void {
+function addContinuum(
+  signal: Float64Array,
+  grid: Float64Array,
+  continuum: SyntheticContinuum,
+): void {
   const shape = new Float64Array(grid.length);
   if (continuum.shape === "planck") {
     assertPositive("continuum.temperatureK", continuum.temperatureK);
@@ -301,7 +317,8 @@ function addContinuum(signal: Float64Array, grid: Float64Array, continuum: Synth
     let highest = 0;
     for (let px = 0; px < grid.length; px++) {
       const nm = grid[px];
-      shape[px] = 1 / (nm ** 5 * Math.expm1(SECOND_RADIATION_CONSTANT_NM_K / (nm * continuum.temperatureK)));
+      shape[px] =
+        1 / (nm ** 5 * Math.expm1(SECOND_RADIATION_CONSTANT_NM_K / (nm * continuum.temperatureK)));
       highest = Math.max(highest, shape[px]);
     }
     const scale = highest > 0 ? continuum.peakCounts / highest : 0;
@@ -326,7 +343,9 @@ function assertStrictlyMonotonic(grid: Float64Array): void {
   const increasing = grid[1] > grid[0];
   for (let px = 0; px < grid.length; px++) {
     if (!Number.isFinite(grid[px]) || grid[px] <= 0) {
-      throw new RangeError(`wavelengthOfPixel gave ${grid[px]} nm at pixel ${px}; expected a positive number`);
+      throw new RangeError(
+        `wavelengthOfPixel gave ${grid[px]} nm at pixel ${px}; expected a positive number`,
+      );
     }
     if (px > 0 && grid[px] > grid[px - 1] !== increasing) {
       throw new RangeError(`wavelengthOfPixel must be strictly monotonic; it turns at pixel ${px}`);

@@ -124,7 +124,8 @@ export function boltzmannPlot(
     };
   }
   const temperatureK = -1 / (BOLTZMANN_CONSTANT_EV_PER_K * slopePerEv);
-  const temperatureUncertaintyK = slopeUncertaintyPerEv / (BOLTZMANN_CONSTANT_EV_PER_K * slopePerEv ** 2);
+  const temperatureUncertaintyK =
+    slopeUncertaintyPerEv / (BOLTZMANN_CONSTANT_EV_PER_K * slopePerEv ** 2);
   return {
     ok: true,
     points,
@@ -141,10 +142,14 @@ export function boltzmannPlot(
 function assertLine(line: BoltzmannLine, position: number): void {
   for (const key of ["wavelengthNm", "intensity", "g", "a"] as const) {
     if (!(line[key] > 0) || !Number.isFinite(line[key])) {
-      throw new RangeError(`line ${position}: ${key} must be a positive finite number, got ${line[key]}`);
+      throw new RangeError(
+        `line ${position}: ${key} must be a positive finite number, got ${line[key]}`,
+      );
     }
   }
   if (!(line.upperEv >= 0) || !Number.isFinite(line.upperEv)) {
-    throw new RangeError(`line ${position}: upperEv must be a finite number ≥ 0, got ${line.upperEv}`);
+    throw new RangeError(
+      `line ${position}: upperEv must be a finite number ≥ 0, got ${line.upperEv}`,
+    );
   }
 }

@@ -37,7 +37,9 @@ export function predictLteIntensities(
   lines.forEach((line, i) => {
     for (const key of ["wavelengthNm", "g", "a"] as const) {
       if (!(line[key] > 0) || !Number.isFinite(line[key])) {
-        throw new RangeError(`line ${i}: ${key} must be a positive finite number, got ${line[key]}`);
+        throw new RangeError(
+          `line ${i}: ${key} must be a positive finite number, got ${line[key]}`,
+        );
       }
     }
     if (!(line.upperEv >= 0) || !Number.isFinite(line.upperEv)) {

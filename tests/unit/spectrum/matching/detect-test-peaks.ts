@@ -22,7 +22,10 @@ function median(values: number[]): number {
 }
 
 /** Rolling-median baseline, MAD noise of first differences, prominence on a 5-point average. */
-export function detectTestPeaks(y: Float64Array, options: DetectTestPeaksOptions): CalibratedPeak[] {
+export function detectTestPeaks(
+  y: Float64Array,
+  options: DetectTestPeaksOptions,
+): CalibratedPeak[] {
   const {
     wavelengthNmAtPixel: grid,
     minSnr = 6,
@@ -60,15 +63,18 @@ export function detectTestPeaks(y: Float64Array, options: DetectTestPeaksOptions
   for (let i = 3; i < n - 3; i++) {
     if (!(smooth[i] >= smooth[i - 1] && smooth[i] > smooth[i + 1])) continue;
     let leftMin = smooth[i];
-    for (let j = i - 1; j >= Math.max(0, i - 40) && smooth[j] <= smooth[i]; j--) leftMin = Math.min(leftMin, smooth[j]);
+    for (let j = i - 1; j >= Math.max(0, i - 40) && smooth[j] <= smooth[i]; j--)
+      leftMin = Math.min(leftMin, smooth[j]);
     let rightMin = smooth[i];
-    for (let j = i + 1; j <= Math.min(n - 1, i + 40) && smooth[j] <= smooth[i]; j++) rightMin = Math.min(rightMin, smooth[j]);
+    for (let j = i + 1; j <= Math.min(n - 1, i + 40) && smooth[j] <= smooth[i]; j++)
+      rightMin = Math.min(rightMin, smooth[j]);
     const prominence = smooth[i] - Math.max(leftMin, rightMin);
     if (prominence < minSnr * noise) continue;
 
     const [a, b, c] = [residual[i - 1], residual[i], residual[i + 1]];
     const denominator = a - 2 * b + c;
-    const shift = denominator < 0 ? Math.max(-0.5, Math.min(0.5, (0.5 * (a - c)) / denominator)) : 0;
+    const shift =
+      denominator < 0 ? Math.max(-0.5, Math.min(0.5, (0.5 * (a - c)) / denominator)) : 0;
     const centrePx = i + shift;
     const height = b - 0.25 * (a - c) * shift;
     let left = i;
@@ -76,7 +82,8 @@ export function detectTestPeaks(y: Float64Array, options: DetectTestPeaksOptions
     let right = i;
     while (right < n - 1 && residual[right] > height / 2) right++;
     const leftCross = left + (height / 2 - residual[left]) / (residual[left + 1] - residual[left]);
-    const rightCross = right - (height / 2 - residual[right]) / (residual[right - 1] - residual[right]);
+    const rightCross =
+      right - (height / 2 - residual[right]) / (residual[right - 1] - residual[right]);
     const fwhmPx = Math.max(1, rightCross - leftCross);
     const snr = height / noise;
     const xUncertainty = Math.max(0.02, (0.5 * fwhmPx) / snr);

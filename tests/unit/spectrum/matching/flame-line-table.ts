@@ -96,11 +96,18 @@ export function flameEmission(
   bands: { headNm: number; extentNm: number; degradesTo: "red" | "violet"; amplitude: number }[];
 } {
   const lines: { wavelengthNm: number; amplitude: number }[] = [];
-  const bands: { headNm: number; extentNm: number; degradesTo: "red" | "violet"; amplitude: number }[] = [];
+  const bands: {
+    headNm: number;
+    extentNm: number;
+    degradesTo: "red" | "violet";
+    amplitude: number;
+  }[] = [];
   for (const line of table) {
     const counts = countsBySpecies[line.species];
     if (counts === undefined) continue;
-    const strongest = Math.max(...table.filter((l) => l.species === line.species).map((l) => l.intensities.flame ?? 0));
+    const strongest = Math.max(
+      ...table.filter((l) => l.species === line.species).map((l) => l.intensities.flame ?? 0),
+    );
     const amplitude = (counts * (line.intensities.flame ?? 0)) / strongest;
     if (line.band) bands.push({ headNm: line.airNm, ...line.band, amplitude });
     else lines.push({ wavelengthNm: line.airNm, amplitude });

@@ -1,10 +1,19 @@
 // Checks the k·σ window of line matching, band-head matching and the sorted line index.
 import { describe, it, expect } from "vitest";
 import fc from "fast-check";
-import { matchPeaksToLines, prepareLineIndex, wavelengthForMatchingNm } from "../../../../lib/spectrum/matching";
+import {
+  matchPeaksToLines,
+  prepareLineIndex,
+  wavelengthForMatchingNm,
+} from "../../../../lib/spectrum/matching";
 import type { CalibratedPeak, ReferenceLine } from "../../../../lib/spectrum/types";
 
-function line(id: string, species: string, airNm: number, extra: Partial<ReferenceLine> = {}): ReferenceLine {
+function line(
+  id: string,
+  species: string,
+  airNm: number,
+  extra: Partial<ReferenceLine> = {},
+): ReferenceLine {
   return {
     id,
     species,
@@ -41,7 +50,10 @@ describe("prepareLineIndex", () => {
     const lines = [
       line("a", "K I", 766.4899),
       line("b", "Na I", 588.995),
-      line("c", "CaOH", 554, { flags: { bandHead: true }, band: { extentNm: 8, degradesTo: "red" } }),
+      line("c", "CaOH", 554, {
+        flags: { bandHead: true },
+        band: { extentNm: 8, degradesTo: "red" },
+      }),
       line("d", "Li I", 670.776),
     ];
     const before = JSON.stringify(lines);
@@ -65,7 +77,11 @@ describe("prepareLineIndex", () => {
 describe("matchPeaksToLines", () => {
   it("combines peak, line and resolution uncertainties in quadrature and keeps lines within k·σ", () => {
     // NIST ASD air wavelengths of the Na D lines (from memory).
-    const lines = [line("d2", "Na I", 588.995), line("d1", "Na I", 589.5924), line("far", "X I", 592.0)];
+    const lines = [
+      line("d2", "Na I", 588.995),
+      line("d1", "Na I", 589.5924),
+      line("far", "X I", 592.0),
+    ];
     const [match] = matchPeaksToLines([peak(589.2)], lines, { resolutionNm: 1 });
     const sigmaNm = Math.sqrt(0.03 ** 2 + 0.001 ** 2 + 1 / 12);
     expect(match.candidates.map((c) => c.line.id)).toEqual(["d2", "d1"]);
@@ -78,7 +94,9 @@ describe("matchPeaksToLines", () => {
 
   it("narrows the window with k and with a finer resolution", () => {
     const lines = [line("d2", "Na I", 588.995), line("d1", "Na I", 589.5924)];
-    expect(matchPeaksToLines([peak(589.2)], lines, { resolutionNm: 1, k: 0.5 })[0].candidates).toHaveLength(0);
+    expect(
+      matchPeaksToLines([peak(589.2)], lines, { resolutionNm: 1, k: 0.5 })[0].candidates,
+    ).toHaveLength(0);
     const fine = matchPeaksToLines([peak(589.0, 0.005)], lines, { resolutionNm: 0.05 })[0];
     expect(fine.candidates.map((c) => c.line.id)).toEqual(["d2"]);
   });
@@ -137,7 +155,13 @@ describe("matchPeaksToLines", () => {
     wavelengthUncertaintyNm: fc.double({ min: 0, max: 1, noNaN: true }),
     fwhmNm: fc.double({ min: 0, max: 5, noNaN: true }),
   });
-  const toLines = (rows: { airNm: number; uncertaintyNm: number; band: { extentNm: number; degradesTo: "red" | "violet" } | null }[]) =>
+  const toLines = (
+    rows: {
+      airNm: number;
+      uncertaintyNm: number;
+      band: { extentNm: number; degradesTo: "red" | "violet" } | null;
+    }[],
+  ) =>
     rows.map((row, i) =>
       line(`l${i}`, row.band ? "M" : "X I", row.airNm, {
         uncertaintyNm: row.uncertaintyNm,
@@ -154,14 +178,21 @@ describe("matchPeaksToLines", () => {
         fc.double({ min: 0.5, max: 5, noNaN: true }),
         fc.option(fc.double({ min: 0.01, max: 3, noNaN: true })),
         (peakRows, lineRows, k, resolutionNm) => {
-          const peaks = peakRows.map((p) => peak(p.wavelengthNm, p.wavelengthUncertaintyNm, p.fwhmNm));
-          const matches = matchPeaksToLines(peaks, toLines(lineRows), { k, resolutionNm: resolutionNm ?? undefined });
+          const peaks = peakRows.map((p) =>
+            peak(p.wavelengthNm, p.wavelengthUncertaintyNm, p.fwhmNm),
+          );
+          const matches = matchPeaksToLines(peaks, toLines(lineRows), {
+            k,
+            resolutionNm: resolutionNm ?? undefined,
+          });
           expect(matches).toHaveLength(peaks.length);
           for (const match of matches) {
             for (const candidate of match.candidates) {
               expect(Math.abs(candidate.deltaSigma)).toBeLessThanOrEqual(k);
               if (candidate.kind === "line") {
-                expect(Math.abs(candidate.deltaNm)).toBeLessThanOrEqual(k * candidate.sigmaNm * (1 + 1e-12));
+                expect(Math.abs(candidate.deltaNm)).toBeLessThanOrEqual(
+                  k * candidate.sigmaNm * (1 + 1e-12),
+                );
               }
             }
           }
@@ -173,22 +204,37 @@ describe("matchPeaksToLines", () => {
 
   it("finds by binary search exactly the lines a brute-force scan finds", () => {
     fc.assert(
-      fc.property(fc.array(peakArb, { maxLength: 10 }), fc.array(lineArb, { maxLength: 80 }), (peakRows, lineRows) => {
-        const lines = toLines(lineRows.map((row) => ({ ...row, band: null })));
-        const peaks = peakRows.map((p) => peak(p.wavelengthNm, p.wavelengthUncertaintyNm, p.fwhmNm));
-        const matches = matchPeaksToLines(peaks, lines, { resolutionNm: 0.5 });
-        matches.forEach((match, i) => {
-          const expected = lines
-            .map((l, lineIndex) => ({ l, lineIndex }))
-            .filter(({ l }) => {
-              const sigma = Math.max(1e-6, Math.hypot(peaks[i].wavelengthUncertaintyNm, l.uncertaintyNm, 0.5 / Math.sqrt(12)));
-              return Math.abs(peaks[i].wavelengthNm - l.airNm) / sigma <= 3;
-            })
-            .map(({ lineIndex }) => lineIndex)
-            .sort((a, b) => a - b);
-          expect(match.candidates.map((c) => c.lineIndex).sort((a, b) => a - b)).toEqual(expected);
-        });
-      }),
+      fc.property(
+        fc.array(peakArb, { maxLength: 10 }),
+        fc.array(lineArb, { maxLength: 80 }),
+        (peakRows, lineRows) => {
+          const lines = toLines(lineRows.map((row) => ({ ...row, band: null })));
+          const peaks = peakRows.map((p) =>
+            peak(p.wavelengthNm, p.wavelengthUncertaintyNm, p.fwhmNm),
+          );
+          const matches = matchPeaksToLines(peaks, lines, { resolutionNm: 0.5 });
+          matches.forEach((match, i) => {
+            const expected = lines
+              .map((l, lineIndex) => ({ l, lineIndex }))
+              .filter(({ l }) => {
+                const sigma = Math.max(
+                  1e-6,
+                  Math.hypot(
+                    peaks[i].wavelengthUncertaintyNm,
+                    l.uncertaintyNm,
+                    0.5 / Math.sqrt(12),
+                  ),
+                );
+                return Math.abs(peaks[i].wavelengthNm - l.airNm) / sigma <= 3;
+              })
+              .map(({ lineIndex }) => lineIndex)
+              .sort((a, b) => a - b);
+            expect(match.candidates.map((c) => c.lineIndex).sort((a, b) => a - b)).toEqual(
+              expected,
+            );
+          });
+        },
+      ),
       { numRuns: 300 },
     );
   });

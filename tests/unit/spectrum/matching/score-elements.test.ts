@@ -25,7 +25,10 @@ const MIXTURE = {
   CaOH: 1500,
 };
 
-function identify(peaks: ReturnType<typeof flameRun>["peaks"], table: ReferenceLine[]): ElementIdentification {
+function identify(
+  peaks: ReturnType<typeof flameRun>["peaks"],
+  table: ReferenceLine[],
+): ElementIdentification {
   return identifyElements(peaks, table, {
     source: "flame",
     rangeNm: FLAME_RANGE_NM,
@@ -60,7 +63,9 @@ function customRun(
     darkCounts: 500,
     seed: 21,
   });
-  const peaks = detectTestPeaks(spectrum.y, { wavelengthNmAtPixel: spectrum.truth.wavelengthNmAtPixel });
+  const peaks = detectTestPeaks(spectrum.y, {
+    wavelengthNmAtPixel: spectrum.truth.wavelengthNmAtPixel,
+  });
   return { table, peaks };
 }
 
@@ -105,7 +110,9 @@ describe("scoreElements on a flame of Na, K, Li, Ca, Sr with CaOH bands", () => 
 
   it("gives sodium its note even when it is intense", () => {
     const sodium = result.calls.find((call) => call.species === "Na I")!;
-    expect(sodium.notes).toContain("Ubiquitous in flames: trace contamination likely; judge by intensity.");
+    expect(sodium.notes).toContain(
+      "Ubiquitous in flames: trace contamination likely; judge by intensity.",
+    );
   });
 
   it("explains every peak and sorts calls by score", () => {
@@ -124,7 +131,9 @@ describe("scoreElements on a flame of Na, K, Li, Ca, Sr with CaOH bands", () => 
 describe("scoreElements on the evidence that argues against a call", () => {
   it("does not call an element from a lone coincidence with one of its weak lines", () => {
     // An unlisted emitter at 577.76 nm coincides with the weak Ba I line there (NIST ASD, from memory).
-    const { table, peaks } = customRun({ "K I": 8000 }, [{ wavelengthNm: 577.762, amplitude: 600 }]);
+    const { table, peaks } = customRun({ "K I": 8000 }, [
+      { wavelengthNm: 577.762, amplitude: 600 },
+    ]);
     const result = identify(peaks, table);
     const barium = result.calls.find((call) => call.species === "Ba I")!;
     expect(barium.seen.map((s) => s.referenceNm)).toEqual([577.762]);
@@ -153,7 +162,9 @@ describe("scoreElements on the evidence that argues against a call", () => {
     const sodium = result.calls.find((call) => call.species === "Na I")!;
     expect(sodium.seen.length).toBeGreaterThan(0);
     expect(sodium.verdict).toBe("possible");
-    expect(sodium.notes[0]).toBe("Ubiquitous in flames: trace contamination likely; judge by intensity.");
+    expect(sodium.notes[0]).toBe(
+      "Ubiquitous in flames: trace contamination likely; judge by intensity.",
+    );
     expect(sodium.notes.join(" ")).toMatch(/trace/);
   });
 
@@ -186,7 +197,9 @@ describe("speciesRelativeIntensities", () => {
   });
 
   it("notes borrowed intensities in the call", () => {
-    const table = flameLineTable().map((l) => (l.species === "K I" ? { ...l, intensities: { arc: l.intensities.arc } } : l));
+    const table = flameLineTable().map((l) =>
+      l.species === "K I" ? { ...l, intensities: { arc: l.intensities.arc } } : l,
+    );
     const { peaks } = customRun({ "K I": 8000 }, []);
     const matches = matchPeaksToLines(peaks, table, { resolutionNm: FLAME_RESOLUTION_NM });
     const result = scoreElements(matches, table, { source: "flame", rangeNm: FLAME_RANGE_NM });

@@ -32,7 +32,11 @@ function observed(temperatureK: number, relativeNoise: number, seed: number): Bo
   const kT = BOLTZMANN_CONSTANT_EV_PER_K * temperatureK;
   return FE_I.map((line) => ({
     ...line,
-    intensity: 1e5 * ((line.g * line.a) / line.wavelengthNm) * Math.exp(-line.upperEv / kT) * Math.exp(relativeNoise * random.normal()),
+    intensity:
+      1e5 *
+      ((line.g * line.a) / line.wavelengthNm) *
+      Math.exp(-line.upperEv / kT) *
+      Math.exp(relativeNoise * random.normal()),
   }));
 }
 
@@ -60,7 +64,9 @@ describe("boltzmannPlot", () => {
       expect(Math.abs(result.temperatureK - 4500)).toBeLessThan(0.03 * 4500);
     }
     const mean = temperatures.reduce((s, t) => s + t, 0) / temperatures.length;
-    const spread = Math.sqrt(temperatures.reduce((s, t) => s + (t - mean) ** 2, 0) / (temperatures.length - 1));
+    const spread = Math.sqrt(
+      temperatures.reduce((s, t) => s + (t - mean) ** 2, 0) / (temperatures.length - 1),
+    );
     const typicalReported = reported.reduce((s, u) => s + u, 0) / reported.length;
     // The regression's standard error should describe the scatter over repeats to within ±30 %.
     expect(typicalReported / spread).toBeGreaterThan(0.7);
@@ -84,7 +90,10 @@ describe("boltzmannPlot", () => {
   });
 
   it("refuses a rising plot, which has no temperature", () => {
-    const lines = observed(4500, 0, 1).map((l) => ({ ...l, intensity: l.g * l.a * Math.exp(l.upperEv) / l.wavelengthNm }));
+    const lines = observed(4500, 0, 1).map((l) => ({
+      ...l,
+      intensity: (l.g * l.a * Math.exp(l.upperEv)) / l.wavelengthNm,
+    }));
     const result = boltzmannPlot(lines);
     expect(result.ok).toBe(false);
     if (!result.ok) expect(result.reason).toBe("non-physical-slope");
