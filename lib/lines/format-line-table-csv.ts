@@ -76,5 +76,6 @@ export function formatLineTableCsv(
     { fields: [...LINE_TABLE_COLUMN_NAMES], data: rows.map(rowCells) },
     { newline: "\n", quotes: false },
   );
-  return [...header, body].join("\n") + "\n";
+  // Papa.unparse ends a data-less table with a line break and a full one without; end both with one.
+  return [...header, body.replace(/\n$/, "")].join("\n") + "\n";
 }
