@@ -52,12 +52,13 @@ export interface FitCalibrationOptions {
    */
   fitApex?: boolean;
   /**
-   * Reject outliers one at a time while the worst residual exceeds clipSigma robust standard deviations.
+   * Reject outliers one at a time while the worst residual, in units of the pair's σ (σx·|dλ/dx|),
+   * exceeds clipSigma robust standard deviations.
    * @default true
    */
   rejectOutliers?: boolean;
   /**
-   * Clipping threshold in robust standard deviations (1.4826 × median absolute residual).
+   * Clipping threshold in robust standard deviations (1.4826 × median absolute normalised residual).
    * @default 4
    */
   clipSigma?: number;
@@ -192,14 +193,21 @@ export function fitCalibration(pairs: CalibrationPair[], options: FitCalibration
     return pairs.map((p, i) => p.wavelengthNm - fitted[i]);
   };
   let residuals = residualsOf(model);
+  // Outliers are judged in units of each pair's σ in x (residual / (σx·|dλ/dx|)): under a prism's
+  // strongly varying dispersion 1 nm is a small error in the red and a gross one in the blue.
+  const sigmaNmOf = (m: CalibrationModel) => {
+    const dispersion = modelEvaluation(m, xs).dispersion;
+    return pairs.map((p, i) => (p.xUncertainty ?? fallbackSigma) * Math.max(Math.abs(dispersion[i]), 1e-12));
+  };
   while (rejectOutliers && rejectedOrder.length < maxRejections && used.filter(Boolean).length > needed) {
-    const usedResiduals = residuals.filter((_, i) => used[i]);
-    const scale = Math.max(1.4826 * median(usedResiduals.map(Math.abs)), minResidualScaleNm);
+    const sigmaNm = sigmaNmOf(model);
+    const z = residuals.map((r, i) => r / sigmaNm[i]);
+    const usedIndices = used.flatMap((u, i) => (u ? [i] : []));
+    const floor = median(usedIndices.map((i) => minResidualScaleNm / sigmaNm[i]));
+    const scale = Math.max(1.4826 * median(usedIndices.map((i) => Math.abs(z[i]))), floor);
     let worst = -1;
-    for (let i = 0; i < pairs.length; i++) {
-      if (used[i] && (worst < 0 || Math.abs(residuals[i]) > Math.abs(residuals[worst]))) worst = i;
-    }
-    if (Math.abs(residuals[worst]) <= clipSigma * scale) break;
+    for (const i of usedIndices) if (worst < 0 || Math.abs(z[i]) > Math.abs(z[worst])) worst = i;
+    if (Math.abs(z[worst]) <= clipSigma * scale) break;
     used[worst] = false;
     rejectedOrder.push(worst);
     model = fitUsed();

@@ -96,8 +96,8 @@ function toPair(context: PairingContext, peakIndex: number, lineIndex: number): 
   };
 }
 
-/** The calibration fitted to the final pairs: a polynomial for a grating, the better of the physical
- * prism (catalogue glasses) and Hartmann by AICc for a prism, with outlier rejection unless seeds are forced. */
+/** The calibration fitted to the final pairs: a polynomial for a grating; for a prism the physical model
+ * (catalogue glasses), else Hartmann, else a polynomial; outliers rejected unless seeds are forced. */
 function finalFit(context: PairingContext, pairs: LampPair[]): FitCalibrationResult | null {
   const n = pairs.length;
   const rejectOutliers = context.forced.size === 0;
@@ -111,7 +111,9 @@ function finalFit(context: PairingContext, pairs: LampPair[]): FitCalibrationRes
       const fit = fitCalibration(pairs, { ...options, domain: context.domain, rejectOutliers });
       const { aicc } = informationCriteria(fit.model.chiSquare, fit.model.pairCount, fit.model.parameters.length);
       if (!best || aicc < best.aicc) best = { fit, aicc };
-      if (context.dispersion === "grating") break;
+      // Over a wide range a strongly dispersing prism defeats Hartmann and polynomials alike (errors of
+      // nm at the ends), so the physical model is kept whenever it fits; the others are fallbacks.
+      break;
     } catch (error) {
       if (!(error instanceof CalibrationError)) throw error;
     }
@@ -148,11 +150,46 @@ export function refineLampPairs(context: PairingContext, initialPairs: LampPair[
   return { pairs, rmsX, score: pairs.length * precision };
 }
 
-/** Fits the final calibration to refined pairs and judges the result. */
+/** x(λ) of a fitted calibration, by interpolating its λ on a dense grid over the domain. */
+function inverseOf(context: PairingContext, fit: FitCalibrationResult): (lambda: number) => number {
+  const [xMin, xMax] = context.domain;
+  const grid = Array.from({ length: 4097 }, (_, i) => xMin + ((xMax - xMin) * i) / 4096);
+  const lambda = modelEvaluation(fit.model, grid).wavelengthNm;
+  const rising = lambda[lambda.length - 1] > lambda[0];
+  return (target: number) => {
+    let low = 0;
+    let high = grid.length - 1;
+    const value = (i: number) => (rising ? lambda[i] : -lambda[i]);
+    const goal = rising ? target : -target;
+    if (!(goal >= value(low) && goal <= value(high))) return Number.NaN;
+    while (high - low > 1) {
+      const mid = (low + high) >> 1;
+      if (value(mid) <= goal) low = mid;
+      else high = mid;
+    }
+    return grid[low] + ((grid[high] - grid[low]) * (goal - value(low))) / (value(high) - value(low) || 1);
+  };
+}
+
+/** Fits the final calibration to refined pairs, re-matches once with it, and judges the result. */
 export function finishLampPairing(context: PairingContext, refined: RefinedPairing): LampPairingResult {
-  const { pairs, rmsX } = refined;
-  const fit = pairs.length >= 3 ? finalFit(context, pairs) : null;
-  const usedPairs = fit ? pairs.filter((_, i) => fit.pairs[i].used) : [];
+  let { pairs } = refined;
+  let fit = pairs.length >= 3 ? finalFit(context, pairs) : null;
+  if (fit) {
+    // The final model (a physical prism, say) can be better than the forward polynomial at the ends,
+    // where few lines pinned the latter; one more matching pass with it repairs pairs made there.
+    const rematched = matchByPrediction(context, inverseOf(context, fit), context.toleranceX);
+    const refit = rematched.length >= 3 ? finalFit(context, rematched) : null;
+    if (refit && refit.pairs.filter((p) => p.used).length >= fit.pairs.filter((p) => p.used).length) {
+      pairs = rematched;
+      fit = refit;
+    }
+  }
+  const usedPairs = fit ? pairs.filter((_, i) => fit!.pairs[i].used) : [];
+  const forward = usedPairs.length > 5 ? forwardFit(context, usedPairs, 3) : null;
+  const rmsX = forward
+    ? Math.sqrt(usedPairs.reduce((s, p) => s + (p.x - forward(p.wavelengthNm)) ** 2, 0) / (usedPairs.length - 4))
+    : refined.rmsX;
   return judge(context, usedPairs, fit, rmsX);
 }
 
