@@ -1,2 +1,4 @@
 // PostCSS runs Tailwind CSS 4 only.
-export default { plugins: { "@tailwindcss/postcss": {} } };
+const config = { plugins: { "@tailwindcss/postcss": {} } };
+
+export default config;
