@@ -19,6 +19,7 @@ export default defineConfig({
         test: {
           name: "unit",
           environment: "node",
+          setupFiles: ["tests/support/fast-check-seed.ts"],
           include: ["tests/unit/**/*.test.ts"],
           exclude,
         },

@@ -11,6 +11,9 @@ import { halfHeightCrossings } from "./half-height-crossings";
 import { shapeSuggestsBlend } from "./shape-suggests-blend";
 import { xAtIndex } from "./x-at-index";
 
+/** Floor of a centre's uncertainty, in samples (far below any real noise-limited value). */
+const MIN_CENTRE_UNCERTAINTY_SAMPLES = 1e-4;
+
 export interface PickPeaksOptions {
   /**
    * Smallest accepted height over the noise σ.
@@ -146,6 +149,9 @@ export function pickPeaks(x: Float64Array, signal: PreparedSignal, options: Pick
     const snr = height / noise;
     let xUncertainty = Math.max(centreNoiseSamples * spacing, gaussianCentreBound({ fwhm, spacing, snr }));
     if (!Number.isFinite(xUncertainty)) xUncertainty = fwhm;
+    // A (nearly) noise-free peak still has a centre known only to the sampling's numerical precision;
+    // a zero uncertainty would make every later tolerance zero.
+    xUncertainty = Math.max(xUncertainty, MIN_CENTRE_UNCERTAINTY_SAMPLES * spacing);
 
     peaks.push({
       index: Math.min(n - 1, Math.max(0, Math.round(centre))),
