@@ -7,6 +7,7 @@ import { PasswordResetToken } from "./password-reset-token";
 import { SignInAttempt } from "./sign-in-attempt";
 import { Team } from "./team";
 import { User } from "./user";
+import { UserSession } from "./user-session";
 
 User.hasMany(Membership, { foreignKey: "userId", as: "memberships" });
 Membership.belongsTo(User, { foreignKey: "userId", as: "user" });
@@ -17,6 +18,7 @@ Invitation.belongsTo(User, { foreignKey: "invitedById", as: "invitedBy" });
 AccessToken.belongsTo(User, { foreignKey: "userId", as: "user" });
 PasswordResetToken.belongsTo(User, { foreignKey: "userId", as: "user" });
 AuditEvent.belongsTo(User, { foreignKey: "actorId", as: "actor" });
+UserSession.belongsTo(User, { foreignKey: "userId", as: "user" });
 
-export { AccessToken, AuditEvent, Invitation, Membership, PasswordResetToken, SignInAttempt, Team, User };
+export { AccessToken, AuditEvent, Invitation, Membership, PasswordResetToken, SignInAttempt, Team, User, UserSession };
 export { sequelize } from "../db/sequelize";

@@ -3,8 +3,8 @@
 import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { z } from "zod";
-import { getSession } from "@/lib/auth/session";
-import { requestPasswordReset, resetPassword, signIn } from "@/lib/services/accounts";
+import { startSession } from "@/lib/auth/session";
+import { loadActor, requestPasswordReset, resetPassword, signIn } from "@/lib/services/accounts";
 import { acceptInvitation } from "@/lib/services/teams";
 import {
   acceptInvitationSchema,
@@ -28,14 +28,9 @@ export async function signInAction(_state: FormState, formData: FormData): Promi
   const { data, state } = parseForm(signInSchema, formData);
   if (state) return state;
   try {
-    const actor = await signIn({ ...data, address: await address() });
-    const session = await getSession();
-    session.userId = actor.id;
-    session.teamId = actor.memberships[0]?.teamId;
-    session.signedInAt = Date.now();
-    await session.save();
+    await startSession(await signIn({ ...data, address: await address() }));
   } catch (error) {
-    return formError(error);
+    return { ...formError(error), values: { email: data.email } };
   }
   redirect(safeNext(formData.get("next")));
 }
@@ -62,11 +57,7 @@ export async function acceptInvitationAction(_state: FormState, formData: FormDa
   const { data, state } = parseForm(acceptInvitationSchema.extend({ name: z.string().trim().max(120).optional() }), formData);
   if (state) return state;
   try {
-    const userId = await acceptInvitation(data);
-    const session = await getSession();
-    session.userId = userId;
-    session.signedInAt = Date.now();
-    await session.save();
+    await startSession((await loadActor(await acceptInvitation(data)))!);
   } catch (error) {
     return formError(error);
   }

@@ -3,7 +3,7 @@
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { z } from "zod";
-import { currentActor, getSession } from "@/lib/auth/session";
+import { currentActor, currentSessionId, endSession, getSession } from "@/lib/auth/session";
 import { unauthenticated } from "@/lib/errors";
 import { changePassword } from "@/lib/services/accounts";
 import { createAccessToken, revokeAccessToken } from "@/lib/services/access-tokens";
@@ -19,11 +19,8 @@ async function actorOrThrow() {
 }
 
 export async function signOutAction(): Promise<void> {
-  const session = await getSession();
-  if (session.userId) {
-    await recordAudit({ actorId: session.userId, action: "session.delete", entity: "user", entityId: session.userId });
-  }
-  session.destroy();
+  const userId = await endSession();
+  if (userId) await recordAudit({ actorId: userId, action: "session.delete", entity: "user", entityId: userId });
   redirect("/sign-in");
 }
 
@@ -42,7 +39,7 @@ export async function changePasswordAction(_state: FormState, formData: FormData
   const { data, state } = parseForm(passwordChangeSchema, formData);
   if (state) return state;
   try {
-    await changePassword(await actorOrThrow(), data);
+    await changePassword(await actorOrThrow(), data, { keepSessionId: await currentSessionId() });
   } catch (error) {
     return formError(error);
   }

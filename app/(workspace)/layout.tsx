@@ -21,7 +21,7 @@ export default async function WorkspaceLayout({ children }: { children: ReactNod
   ];
   return (
     <div className="flex min-h-screen">
-      <aside className="flex w-56 shrink-0 flex-col gap-5 border-r border-[var(--line)] bg-[var(--panel)] p-3">
+      <aside className="flex w-64 shrink-0 flex-col gap-5 border-r border-[var(--line)] bg-[var(--panel)] p-3">
         <a href="#main" className="sr-only focus:not-sr-only">
           Skip to content
         </a>

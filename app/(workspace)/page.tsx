@@ -55,7 +55,7 @@ export default async function HomePage() {
                   {activity.map((event) => (
                     <tr key={event.id}>
                       <td className="tabular py-1 pr-3 whitespace-nowrap">
-                        {new Date(event.at).toISOString().slice(0, 16).replace("T", " ")}
+                        {new Date(event.at).toISOString().slice(0, 16).replace("T", " ")} UTC
                       </td>
                       <td className="py-1 pr-3">{event.actorName ?? "System"}</td>
                       <td className="py-1">

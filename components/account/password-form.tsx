@@ -17,7 +17,7 @@ export function PasswordForm({ action, minLength }: { action: (s: FormState, f: 
         type="password"
         autoComplete="new-password"
         hint={`At least ${minLength} characters.`}
-        errors={state.fieldErrors?.newPassword ?? state.fieldErrors?.password}
+        errors={state.fieldErrors?.newPassword}
       />
       <FormMessage message={state.message} tone={state.ok ? "ok" : "error"} />
       <Button type="submit" pending={pending}>

@@ -35,13 +35,14 @@ export function AuthForm({
       ))}
       {fields.map((field) => (
         <Field
-          key={field.name}
           name={field.name}
           label={field.label}
           type={field.type ?? "text"}
           autoComplete={field.autoComplete}
           hint={field.hint}
-          defaultValue={field.defaultValue}
+          defaultValue={state.values?.[field.name] ?? field.defaultValue}
+          // React 19 resets a form after its action; remounting with the kept value refills it.
+          key={`${field.name}-${state.values?.[field.name] ?? ""}`}
           readOnly={field.readOnly}
           errors={state.fieldErrors?.[field.name]}
           required

@@ -20,6 +20,7 @@ export function TeamSwitcher({
       </label>
       <div className="flex gap-1">
         <select
+          key={currentTeamId}
           id="team-switcher"
           name="teamId"
           defaultValue={currentTeamId}

@@ -4,19 +4,20 @@ import { getIronSession, type SessionOptions } from "iron-session";
 import { cookies, headers } from "next/headers";
 import { env, sessionSecret } from "@/lib/env";
 import { actorFromAccessToken, loadActor } from "@/lib/services/accounts";
+import { openSession, revokeSession, SESSION_HOURS, sessionUserId } from "@/lib/services/sessions";
 import type { Actor } from "./actor";
 import { SESSION_COOKIE } from "./session-cookie";
 
 export { SESSION_COOKIE };
 
 export interface SessionData {
+  /** The server-side session record (user_sessions); revoking it ends the session. */
+  sessionId?: string;
   userId?: string;
   /** The team the person last chose in the team switcher. */
   teamId?: string;
   signedInAt?: number;
 }
-
-const SESSION_HOURS = 12;
 
 function sessionOptions(): SessionOptions {
   const settings = env();
@@ -39,8 +40,9 @@ export async function currentActor(): Promise<Actor | null> {
     return actorFromAccessToken(authorization.slice(7).trim());
   }
   const session = await getSession();
-  if (!session.userId) return null;
-  return loadActor(session.userId);
+  if (!session.sessionId) return null;
+  const userId = await sessionUserId(session.sessionId);
+  return userId ? loadActor(userId) : null;
 }
 
 /** True when the request authenticates with a Bearer token (no cookie, so no CSRF risk). */
@@ -52,5 +54,35 @@ export async function usesBearerToken(): Promise<boolean> {
 export async function currentTeamId(actor: Actor): Promise<string | undefined> {
   const session = await getSession();
   const chosen = actor.memberships.find((m) => m.teamId === session.teamId);
-  return (chosen ?? actor.memberships[0])?.teamId;
+  return chosen?.teamId ?? preferredTeamId(actor);
+}
+
+/** Signs the person in on this browser: a new server-side session and its cookie. */
+export async function startSession(actor: Actor): Promise<void> {
+  const session = await getSession();
+  session.sessionId = await openSession(actor.id);
+  session.userId = actor.id;
+  session.teamId = preferredTeamId(actor);
+  session.signedInAt = Date.now();
+  await session.save();
+}
+
+/** Signs out: revokes the server-side session (so copies of the cookie die too) and clears the cookie. */
+export async function endSession(): Promise<string | undefined> {
+  const session = await getSession();
+  const userId = session.userId;
+  if (session.sessionId) await revokeSession(session.sessionId);
+  session.destroy();
+  return userId;
+}
+
+export async function currentSessionId(): Promise<string | undefined> {
+  return (await getSession()).sessionId;
+}
+
+const ROLE_RANK = { lab_lead: 3, supervisor: 2, chemist: 1 } as const;
+
+/** The team a person opens in: the one where they hold the widest role, then by name. */
+function preferredTeamId(actor: Actor): string | undefined {
+  return actor.memberships.slice().sort((a, b) => ROLE_RANK[b.role] - ROLE_RANK[a.role])[0]?.teamId;
 }

@@ -10,6 +10,7 @@ import { sendMail } from "@/lib/mail/send-mail";
 import { passwordResetMail } from "@/lib/mail/templates";
 import { AccessToken, Membership, PasswordResetToken, SignInAttempt, Team, User, sequelize } from "@/models";
 import { recordAudit } from "./audit";
+import { revokeSessionsOf } from "./sessions";
 
 export const THROTTLE_WINDOW_MINUTES = 15;
 export const MAX_FAILURES_PER_ACCOUNT = 5;
@@ -77,16 +78,18 @@ export async function actorFromAccessToken(token: string): Promise<Actor | null>
   return loadActor(row.userId);
 }
 
-function assertPasswordAcceptable(password: string, email?: string): void {
+function assertPasswordAcceptable(password: string, email?: string, field = "password"): void {
   const problems = passwordProblems(password, email);
   if (problems.length) {
-    throw new AppError("validation", problems[0], { fieldErrors: { password: problems } });
+    throw new AppError("validation", problems[0], { fieldErrors: { [field]: problems } });
   }
 }
 
+/** Changes the password and ends the person's other sessions (all but `keepSessionId`). */
 export async function changePassword(
   actor: Actor,
   input: { currentPassword: string; newPassword: string },
+  options: { keepSessionId?: string } = {},
 ): Promise<void> {
   authorize(actor, "self.changePassword", { userId: actor.id });
   const user = await User.findByPk(actor.id);
@@ -95,10 +98,11 @@ export async function changePassword(
       fieldErrors: { currentPassword: ["The current password is not right."] },
     });
   }
-  assertPasswordAcceptable(input.newPassword, user.email);
+  assertPasswordAcceptable(input.newPassword, user.email, "newPassword");
   const passwordHash = await hashPassword(input.newPassword);
   await sequelize.transaction(async (transaction) => {
     await user.update({ passwordHash }, { transaction });
+    await revokeSessionsOf(user.id, { except: options.keepSessionId, transaction });
     await recordAudit({ actorId: actor.id, action: "password.change", entity: "user", entityId: actor.id }, transaction);
   });
 }
@@ -110,6 +114,11 @@ export async function requestPasswordReset(input: { email: string }): Promise<vo
   if (!user) return;
   const token = newSecretToken();
   await sequelize.transaction(async (transaction) => {
+    // Only the newest link works: older unused ones are retired.
+    await PasswordResetToken.update(
+      { usedAt: new Date() },
+      { where: { userId: user.id, usedAt: null }, transaction },
+    );
     await PasswordResetToken.create(
       {
         userId: user.id,
@@ -142,6 +151,7 @@ export async function resetPassword(input: { token: string; password: string }):
     );
     if (updated !== 1) throw new AppError("validation", "This reset link has already been used.");
     await user.update({ passwordHash }, { transaction });
+    await revokeSessionsOf(user.id, { transaction });
     await recordAudit({ actorId: user.id, action: "password.reset", entity: "user", entityId: user.id }, transaction);
   });
 }

@@ -7,6 +7,8 @@ export interface FormState {
   ok?: boolean;
   message?: string | null;
   fieldErrors?: FieldErrors;
+  /** Values to show again after a failed submit (never passwords). */
+  values?: Record<string, string>;
 }
 
 export const initialFormState: FormState = {};

@@ -21,12 +21,12 @@ const ROLES = [
     nav: ["Home", "Notebooks", "Instruments", "Line library", "Review", "Team", "Account"],
   },
   {
-    // The lead is a supervisor in Arc and Spark Bench, which sorts first and so is the team the
-    // workspace opens in: Review shows there. The team switch to Flame Screening is checked below.
+    // The lead opens in Flame Screening, the team where they hold their widest role (lab lead);
+    // the switch to Arc and Spark Bench, where they are a supervisor, is checked below.
     role: "lab-lead",
     email: "lead@demo.emberline.example",
     name: "Ilse Varga",
-    nav: ["Home", "Notebooks", "Instruments", "Line library", "Review", "Team", "Outgoing mail", "Account"],
+    nav: ["Home", "Notebooks", "Instruments", "Line library", "Team", "Outgoing mail", "Account"],
   },
 ] as const;
 
@@ -90,25 +90,14 @@ describe.each(ROLES)("the $role", ({ role, email, name, nav }) => {
 });
 
 describe("the lab lead's team switcher", () => {
-  it("moves the workspace to Flame Screening, where the lead manages members and has no Review", async () => {
+  it("opens in Flame Screening as lab lead, then moves the workspace to Arc and Spark Bench as supervisor", async () => {
     const { page } = browser;
     await new SignInPage(page).goto();
     await new SignInPage(page).signIn("lead@demo.emberline.example", DEMO_PASSWORD);
     const shell = new WorkspaceShell(page);
     await shell.waitUntilShown();
     const switcher = page.getByLabel("Team", { exact: true });
-    expect(await switcher.locator("option:checked").textContent()).toBe("Arc and Spark Bench — Supervisor");
-    await switcher.selectOption({ label: "Flame Screening — Lab lead" });
-    await page.waitForFunction(() => !document.querySelector('nav[aria-label="Areas"] a[href="/review"]'));
-    expect(await shell.navLabels()).toEqual([
-      "Home",
-      "Notebooks",
-      "Instruments",
-      "Line library",
-      "Team",
-      "Outgoing mail",
-      "Account",
-    ]);
+    expect(await switcher.locator("option:checked").textContent()).toBe("Flame Screening — Lab lead");
     expect(await page.locator("aside").getByText("lead@demo.emberline.example · Lab lead").count()).toBe(1);
     await shell.visit("Team");
     expect(await shell.pageHeading.first().textContent()).toBe("Flame Screening");
@@ -116,6 +105,23 @@ describe("the lab lead's team switcher", () => {
     await screenshot(page, "lab-lead-flame-screening-team");
     await shell.visit("Outgoing mail");
     await screenshot(page, "lab-lead-flame-screening-outgoing-mail");
+
+    await switcher.selectOption({ label: "Arc and Spark Bench — Supervisor" });
+    await page.waitForFunction(() => Boolean(document.querySelector('nav[aria-label="Areas"] a[href="/review"]')));
+    expect(await shell.navLabels()).toEqual([
+      "Home",
+      "Notebooks",
+      "Instruments",
+      "Line library",
+      "Review",
+      "Team",
+      "Outgoing mail",
+      "Account",
+    ]);
+    expect(await page.locator("aside").getByText("lead@demo.emberline.example · Supervisor").count()).toBe(1);
+    // The switcher names the team just chosen (React 19 resets forms after an action).
+    expect(await switcher.locator("option:checked").textContent()).toBe("Arc and Spark Bench — Supervisor");
+    await screenshot(page, "lab-lead-arc-and-spark-bench-home");
     expect(browser.problems, browser.problems.join("\n")).toEqual([]);
     await shell.signOut();
   });
@@ -154,24 +160,8 @@ describe("anonymous visitors", () => {
   });
 });
 
-describe("known defects (see the test report)", () => {
-  // components/shell/team-switcher.tsx: React 19 resets the uncontrolled <select> to its old
-  // defaultValue after the switch action, so it names the previous team while the workspace shows
-  // the new one. Seen in test-output/e2e/lab-lead-flame-screening-team.png.
-  it.skip("BUG: the team switcher shows the team just chosen", async () => {
-    const { page } = browser;
-    await new SignInPage(page).goto();
-    await new SignInPage(page).signIn("lead@demo.emberline.example", DEMO_PASSWORD);
-    await new WorkspaceShell(page).waitUntilShown();
-    const switcher = page.getByLabel("Team", { exact: true });
-    await switcher.selectOption({ label: "Flame Screening — Lab lead" });
-    await page.waitForFunction(() => !document.querySelector('nav[aria-label="Areas"] a[href="/review"]'));
-    expect(await switcher.locator("option:checked").textContent()).toBe("Flame Screening — Lab lead");
-  });
-
-  // components/auth/auth-form.tsx: after a failed sign-in the form is reset, so the e-mail the
-  // person typed is gone and must be typed again. Seen in test-output/e2e/anonymous-wrong-password.png.
-  it.skip("BUG: the e-mail address stays filled in after a failed sign-in", async () => {
+describe("the sign-in form after a failure", () => {
+  it("keeps the e-mail address filled in", async () => {
     const { page } = browser;
     const signInPage = new SignInPage(page);
     await signInPage.goto();

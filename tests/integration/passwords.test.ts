@@ -110,12 +110,12 @@ describe("password change", () => {
     ["too short", "short pw", "Use at least 12 characters; a few words together work well."],
     ["too common", "password1234", "This password is too common."],
     ["one repeated character", "aaaaaaaaaaaaaaaa", "The password must not be one repeated character."],
-  ])("explains the policy when the new password is %s (400, fieldErrors.password)", async (_label, newPassword, message) => {
+  ])("explains the policy when the new password is %s (400, fieldErrors.newPassword, the field the request sent)", async (_label, newPassword, message) => {
     const chemist = await signInDemo("chemist");
     const reply = await chemist.post<ErrorBody>("/api/password", { currentPassword: "emberline-demo", newPassword });
     expect(reply.status).toBe(400);
     expect(reply.body.error.message).toBe(message);
-    expect(reply.body.error.fieldErrors?.password).toContain(message);
+    expect(reply.body.error.fieldErrors?.newPassword).toContain(message);
     // The demo password still works.
     await signInDemo("chemist");
   });

@@ -8,9 +8,8 @@ import type { PrismCalibrationModel } from "./calibration-model";
 import type { GlassName } from "./glass-catalogue";
 import { modelEvaluation } from "./model-evaluation";
 import { modelBase, type CovarianceScaling, type ModelFitInput } from "./model-fit-input";
-import { prismDeviationRad, prismForwardX, type PrismGeometry } from "./prism-forward";
+import { prismDeviationRad } from "./prism-forward";
 import { refractiveIndex } from "./refractive-index";
-import { weightedLeastSquares } from "./weighted-least-squares";
 
 const DEG = Math.PI / 180;
 
@@ -21,25 +20,38 @@ export interface PrismFitSettings {
   scaling: CovarianceScaling;
 }
 
-function geometryFrom(parameters: number[], settings: PrismFitSettings, direction: 1 | -1, referenceNm: number): PrismGeometry {
-  return {
-    glass: settings.glass,
-    incidenceRad: parameters[0],
-    focalX: parameters[1],
-    axisX: parameters[2],
-    apexRad: settings.fitApex ? parameters[3] : settings.apexDeg * DEG,
-    direction,
-    referenceWavelengthNm: referenceNm,
-  };
+/** tan(δref − δ(λ)) for each λ at a given incidence, or undefined when some ray cannot exit. */
+function angularPositions(nReference: number, nOfPair: number[], incidenceRad: number, apexRad: number) {
+  const reference = prismDeviationRad(nReference, incidenceRad, apexRad);
+  const values = nOfPair.map((n) => Math.tan(reference - prismDeviationRad(n, incidenceRad, apexRad)));
+  return values.every(Number.isFinite) && Number.isFinite(reference) ? values : undefined;
 }
 
-/** tan(δref − δ(λ)) for each λ at a given incidence, or undefined when some ray cannot exit. */
-function angularPositions(settings: PrismFitSettings, incidenceRad: number, apexRad: number, referenceNm: number, wavelengthNm: number[]) {
-  const reference = prismDeviationRad(refractiveIndex(settings.glass, referenceNm), incidenceRad, apexRad);
-  const values = wavelengthNm.map((lambda) =>
-    Math.tan(reference - prismDeviationRad(refractiveIndex(settings.glass, lambda), incidenceRad, apexRad)),
-  );
-  return values.every(Number.isFinite) && Number.isFinite(reference) ? values : undefined;
+/** Weighted straight line y = a + b·u in closed form (the scan runs it ~120 times per glass). */
+function weightedLine(u: number[], y: number[], sigma: number[]) {
+  let sw = 0;
+  let su = 0;
+  let sy = 0;
+  for (let i = 0; i < u.length; i++) {
+    const w = 1 / sigma[i] ** 2;
+    sw += w;
+    su += w * u[i];
+    sy += w * y[i];
+  }
+  const meanU = su / sw;
+  const meanY = sy / sw;
+  let suu = 0;
+  let suy = 0;
+  for (let i = 0; i < u.length; i++) {
+    const w = 1 / sigma[i] ** 2;
+    suu += w * (u[i] - meanU) ** 2;
+    suy += w * (u[i] - meanU) * (y[i] - meanY);
+  }
+  const slope = suu > 0 ? suy / suu : 0;
+  const axis = meanY - slope * meanU;
+  let chiSquare = 0;
+  for (let i = 0; i < u.length; i++) chiSquare += ((y[i] - axis - slope * u[i]) / sigma[i]) ** 2;
+  return { axis, slope, chiSquare };
 }
 
 /** Fits the prism model of one glass; throws CalibrationError("fit-failed") when no geometry passes light. */
@@ -52,17 +64,18 @@ export function fitPrismModel(input: ModelFitInput, settings: PrismFitSettings):
 
   // Start: scan the incidence around minimum deviation; x is then linear in (axisX, direction·f).
   const nReference = refractiveIndex(settings.glass, referenceNm);
+  // n(λ) of every pair is fixed during the fit: computing the Sellmeier sums once leaves only Snell's
+  // law per evaluation, and focalX and axisX enter linearly (analytic derivatives).
+  const nOfPair = wavelengthNm.map((lambda) => refractiveIndex(settings.glass, lambda));
   const minimumDeviationIncidence = Math.asin(Math.min(nReference * Math.sin(apexRad / 2), 1));
   let start: { incidence: number; axis: number; slope: number; chiSquare: number } | undefined;
   for (let offsetDeg = -25; offsetDeg <= 35; offsetDeg += 0.5) {
     const incidence = minimumDeviationIncidence + offsetDeg * DEG;
     if (incidence <= 0 || incidence >= Math.PI / 2) continue;
-    const positions = angularPositions(settings, incidence, apexRad, referenceNm, wavelengthNm);
+    const positions = angularPositions(nReference, nOfPair, incidence, apexRad);
     if (!positions) continue;
-    const solution = weightedLeastSquares(positions.map((p) => [1, p]), x, xUncertainty);
-    if (!start || solution.chiSquare < start.chiSquare) {
-      start = { incidence, axis: solution.parameters[0], slope: solution.parameters[1], chiSquare: solution.chiSquare };
-    }
+    const line = weightedLine(positions, x, xUncertainty);
+    if (!start || line.chiSquare < start.chiSquare) start = { incidence, ...line };
   }
   if (!start || start.slope === 0) {
     throw new CalibrationError("fit-failed", `${settings.glass}: no prism geometry passes all the pairs' wavelengths`);
@@ -71,36 +84,60 @@ export function fitPrismModel(input: ModelFitInput, settings: PrismFitSettings):
   const initial = [start.incidence, Math.abs(start.slope), start.axis];
   if (settings.fitApex) initial.push(apexRad);
 
-  const forward = (parameters: number[], i: number) =>
-    prismForwardX(geometryFrom(parameters, settings, direction, referenceNm), wavelengthNm[i]);
-  const gradient = (parameters: number[], i: number) =>
-    parameters.map((value, k) => {
-      const h = 1e-7 * Math.max(Math.abs(value), 1e-2);
+  const angleAt = (parameters: number[], i: number) => {
+    const apex = settings.fitApex ? parameters[3] : apexRad;
+    return (
+      prismDeviationRad(nReference, parameters[0], apex) - prismDeviationRad(nOfPair[i], parameters[0], apex)
+    );
+  };
+  const forward = (parameters: number[], i: number) => parameters[2] + direction * parameters[1] * Math.tan(angleAt(parameters, i));
+  const gradient = (parameters: number[], i: number) => {
+    const tangent = Math.tan(angleAt(parameters, i));
+    const row = [0, direction * tangent, 1];
+    const angular = (k: number) => {
+      const h = 1e-7 * Math.max(Math.abs(parameters[k]), 1e-2);
       const up = parameters.slice();
       const down = parameters.slice();
       up[k] += h;
       down[k] -= h;
       return (forward(up, i) - forward(down, i)) / (2 * h);
-    });
+    };
+    row[0] = angular(0);
+    if (settings.fitApex) row.push(angular(3));
+    return row;
+  };
   const index = x.map((_, i) => i);
-  const fit = levenbergMarquardt(
-    { x: index, y: x.map((value, i) => value / xUncertainty[i]) },
-    (parameters) => (i) => {
-      const value = forward(parameters, i);
-      // A geometry that loses a ray gets a large residual instead of NaN, so LM steps back.
-      return (Number.isFinite(value) ? value : 1e12) / xUncertainty[i];
-    },
-    {
-      initialValues: initial,
-      jacobianFunction: (parameters) => (i) => gradient(parameters, i).map((g) => (Number.isFinite(g) ? g : 0) / xUncertainty[i]),
-      minValues: settings.fitApex ? [1e-3, 1e-9, -1e12, 5 * DEG] : [1e-3, 1e-9, -1e12],
-      maxValues: settings.fitApex ? [Math.PI / 2 - 1e-3, 1e15, 1e12, 85 * DEG] : [Math.PI / 2 - 1e-3, 1e15, 1e12],
-      damping: 1e-3,
-      maxIterations: 300,
-      errorTolerance: 1e-14,
-    },
-  );
-  const parameters = fit.parameterValues;
+  const chiSquareAt = (parameters: number[]) =>
+    x.reduce((sum, value, i) => sum + ((value - forward(parameters, i)) / xUncertainty[i]) ** 2, 0);
+  // ml-levenberg-marquardt stops only on an absolute error or the iteration cap, so it runs in short
+  // rounds until χ² stops falling; from the scanned start a few rounds suffice.
+  let parameters = initial;
+  let previous = chiSquareAt(parameters);
+  for (let round = 0; round < 15; round++) {
+    const fit = levenbergMarquardt(
+      { x: index, y: x.map((value, i) => value / xUncertainty[i]) },
+      (trial) => (i) => {
+        const value = forward(trial, i);
+        // A geometry that loses a ray gets a large residual instead of NaN, so LM steps back.
+        return (Number.isFinite(value) ? value : 1e12) / xUncertainty[i];
+      },
+      {
+        initialValues: parameters,
+        jacobianFunction: (trial) => (i) => gradient(trial, i).map((g) => (Number.isFinite(g) ? g : 0) / xUncertainty[i]),
+        minValues: settings.fitApex ? [1e-3, 1e-9, -1e12, 5 * DEG] : [1e-3, 1e-9, -1e12],
+        maxValues: settings.fitApex ? [Math.PI / 2 - 1e-3, 1e15, 1e12, 85 * DEG] : [Math.PI / 2 - 1e-3, 1e15, 1e12],
+        damping: 1e-3,
+        maxIterations: 20,
+        errorTolerance: 1e-14,
+      },
+    );
+    const current = chiSquareAt(fit.parameterValues);
+    if (!(current <= previous)) break;
+    parameters = fit.parameterValues;
+    const converged = previous - current <= 1e-10 * previous + 1e-14;
+    previous = current;
+    if (converged) break;
+  }
   const rows = x.map((_, i) => gradient(parameters, i).map((g) => g / xUncertainty[i]));
   if (!parameters.every(Number.isFinite) || !rows.every((row) => row.every(Number.isFinite))) {
     throw new CalibrationError("fit-failed", `${settings.glass}: the prism fit did not converge`);

@@ -9,6 +9,7 @@ import { orderPoints } from "./order-points";
 import { parseNumberCell } from "./parse-number-cell";
 import { readAxisLabel, type AxisLabelReading } from "./read-axis-label";
 import { resolveXUnit } from "./resolve-x-unit";
+import { scanDataRows } from "./scan-data-rows";
 import { SpectrumParseError } from "./spectrum-parse-error";
 import {
   DEFAULT_MAX_BYTES,
@@ -46,6 +47,13 @@ export interface ParseSpectrumTextOptions extends SpectrumReadOptions {
    * @default 0
    */
   skipLines?: number;
+  /**
+   * How data rows are read: "scan" reads them straight from the text into typed arrays and hands any
+   * file it finds unusual to "lines", which splits the text into lines and cells. Both give the same
+   * spectrum and the same errors; "lines" exists so that tests can hold "scan" to it.
+   * @default "scan"
+   */
+  rowReader?: "scan" | "lines";
 }
 
 const DELIMITER_CHARACTERS: Record<TextDelimiter, string> = {
@@ -112,19 +120,118 @@ export function parseSpectrumText(text: string, options: ParseSpectrumTextOption
     );
   }
   if (typeof text !== "string") throw new RangeError("text must be a string");
+  const { rowReader = "scan" } = options;
+  if (rowReader !== "scan" && rowReader !== "lines") {
+    throw new RangeError(`rowReader must be "scan" or "lines", got ${JSON.stringify(rowReader)}`);
+  }
   assertTextWithinBytes(text, maxBytes);
 
-  const lines = (text.charCodeAt(0) === 0xfeff ? text.slice(1) : text).split(/\r\n|\r|\n/);
+  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  const settings: ReadSettings = {
+    xIndex: xColumn - 1,
+    yIndex: yColumn - 1,
+    skipLines,
+    maxPoints,
+    minPoints,
+    options,
+  };
+  if (rowReader === "scan") {
+    const scanned = readByScanning(body, settings);
+    if (scanned) return scanned;
+  }
+  const lines = body.split(/\r\n|\r|\n/);
+  const layout = readLayout(lines, settings);
+  return finish(lines, layout, readRowsByLines(lines, layout, settings), settings);
+}
+
+interface ReadSettings {
+  xIndex: number;
+  yIndex: number;
+  skipLines: number;
+  maxPoints: number;
+  minPoints: number;
+  options: ParseSpectrumTextOptions;
+}
+
+/** What the lines above and at the first data row say about the whole file. */
+interface TextLayout {
+  kinds: Uint8Array;
+  delimiter: TextDelimiter;
+  decimal: "." | ",";
+  split: Splitter;
+  headerLines: number[];
+  firstDataLine: number;
+  columnCount: number;
+}
+
+interface DataRows {
+  x: Float64Array;
+  y: Float64Array;
+  /** 1-based file line of each row. */
+  lines: Int32Array;
+}
+
+/**
+ * The spectrum read with the row scanner after the layout is taken from the first lines, or null when
+ * anything is unusual; the line reader then reads the file again and names the problem.
+ */
+function readByScanning(body: string, settings: ReadSettings): Spectrum | null {
+  const head = splitHead(body, settings.skipLines);
+  let layout: TextLayout;
+  try {
+    layout = readLayout(head.lines, settings);
+  } catch (error) {
+    if (error instanceof SpectrumParseError) return null;
+    throw error;
+  }
+  const rows = scanDataRows(body, {
+    start: head.starts[layout.firstDataLine],
+    firstLine: layout.firstDataLine + 1,
+    delimiter: layout.delimiter,
+    decimalSeparator: layout.decimal,
+    columnCount: layout.columnCount,
+    xIndex: settings.xIndex,
+    yIndex: settings.yIndex,
+    maxRows: settings.maxPoints,
+  });
+  // Errors after the rows (too few points, units, order) come out the same from either reader.
+  return rows && finish(head.lines, layout, rows, settings);
+}
+
+/**
+ * The first lines of `body`, split as the line reader splits them, up to the line that completes the
+ * layout sample (which also holds the header rows and the first data row), with each line's offset.
+ */
+function splitHead(body: string, skipLines: number): { lines: string[]; starts: number[] } {
+  const lines: string[] = [];
+  const starts: number[] = [];
+  let contentLines = 0;
+  let position = 0;
+  for (;;) {
+    let end = position;
+    let code = body.charCodeAt(end);
+    while (end < body.length && code !== 10 && code !== 13) code = body.charCodeAt(++end);
+    const line = body.slice(position, end);
+    if (lines.length >= skipLines && classifyLine(line) === LineKind.Content) contentLines++;
+    lines.push(line);
+    starts.push(position);
+    if (end >= body.length || contentLines > SAMPLE_ROWS) return { lines, starts };
+    position = end + (code === 13 && body.charCodeAt(end + 1) === 10 ? 2 : 1);
+  }
+}
+
+/** Layout, header rows and first data row; throws the located errors these can raise. */
+function readLayout(lines: string[], settings: ReadSettings): TextLayout {
+  const { xIndex, yIndex, skipLines, options } = settings;
   const kinds = classifyLines(lines, skipLines);
   const content: number[] = [];
   for (let i = 0; i < lines.length; i++) if (kinds[i] === LineKind.Content) content.push(i);
   if (content.length === 0) throw new SpectrumParseError("empty", "the text holds no data rows");
 
-  const usedColumns = [xColumn - 1, yColumn - 1];
   const sample = content.slice(content.length > 1 ? 1 : 0, SAMPLE_ROWS + 1).map((i) => lines[i]);
   const [delimiter, decimal] = chooseLayout(
     sample,
-    usedColumns,
+    [xIndex, yIndex],
     options.delimiter,
     options.decimalSeparator,
   );
@@ -152,6 +259,30 @@ export function parseSpectrumText(text: string, options: ParseSpectrumTextOption
   if (firstDataLine < 0)
     throw new SpectrumParseError("empty", "the text holds a header but no data rows");
 
+  const columnCount = split(lines[firstDataLine]).length;
+  if (columnCount < 2) {
+    throw new SpectrumParseError(
+      "column-count",
+      `only one column found (separator ${delimiter}); a spectrum needs x and y columns`,
+      firstDataLine + 1,
+      null,
+    );
+  }
+  if (columnCount <= Math.max(xIndex, yIndex)) {
+    throw new SpectrumParseError(
+      "column-count",
+      `found ${columnCount} columns but column ${Math.max(xIndex, yIndex) + 1} was asked for`,
+      firstDataLine + 1,
+      null,
+    );
+  }
+  return { kinds, delimiter, decimal, split, headerLines, firstDataLine, columnCount };
+}
+
+/** Every data row, cell by cell; the reference reader, and the one that locates every refusal. */
+function readRowsByLines(lines: string[], layout: TextLayout, settings: ReadSettings): DataRows {
+  const { kinds, split, decimal, firstDataLine, columnCount } = layout;
+  const { xIndex, yIndex, maxPoints } = settings;
   let rowCount = 0;
   for (let i = firstDataLine; i < lines.length; i++) {
     if (kinds[i] !== LineKind.Content) continue;
@@ -168,25 +299,6 @@ export function parseSpectrumText(text: string, options: ParseSpectrumTextOption
   const xs = new Float64Array(rowCount);
   const ys = new Float64Array(rowCount);
   const lineNumbers = new Int32Array(rowCount);
-  const xIndex = xColumn - 1;
-  const yIndex = yColumn - 1;
-  const columnCount = split(lines[firstDataLine]).length;
-  if (columnCount < 2) {
-    throw new SpectrumParseError(
-      "column-count",
-      `only one column found (separator ${delimiter}); a spectrum needs x and y columns`,
-      firstDataLine + 1,
-      null,
-    );
-  }
-  if (columnCount <= Math.max(xIndex, yIndex)) {
-    throw new SpectrumParseError(
-      "column-count",
-      `found ${columnCount} columns but column ${Math.max(xColumn, yColumn)} was asked for`,
-      firstDataLine + 1,
-      null,
-    );
-  }
   let n = 0;
   for (let i = firstDataLine; i < lines.length; i++) {
     if (kinds[i] !== LineKind.Content) continue;
@@ -209,18 +321,31 @@ export function parseSpectrumText(text: string, options: ParseSpectrumTextOption
           "empty-cell",
           `the cell is empty (a line starting with ";" is a comment only when ";" does not separate the columns)`,
           i + 1,
-          xColumn,
+          xIndex + 1,
         );
       }
-      throw describeBadCell(cells[xIndex], i + 1, xColumn, decimal);
+      throw describeBadCell(cells[xIndex], i + 1, xIndex + 1, decimal);
     }
     const y = parseNumberCell(cells[yIndex], decimal);
-    if (Number.isNaN(y)) throw describeBadCell(cells[yIndex], i + 1, yColumn, decimal);
+    if (Number.isNaN(y)) throw describeBadCell(cells[yIndex], i + 1, yIndex + 1, decimal);
     xs[n] = x;
     ys[n] = y;
     lineNumbers[n] = i + 1;
     n++;
   }
+  return { x: xs, y: ys, lines: lineNumbers };
+}
+
+/** Point count, x unit, order and metadata: the same for whichever reader produced the rows. */
+function finish(
+  lines: string[],
+  layout: TextLayout,
+  rows: DataRows,
+  settings: ReadSettings,
+): Spectrum {
+  const { kinds, delimiter, decimal, split, headerLines, firstDataLine, columnCount } = layout;
+  const { xIndex, yIndex, minPoints, options } = settings;
+  const n = rows.x.length;
   if (n < minPoints) {
     throw new SpectrumParseError(
       "too-few-points",
@@ -242,9 +367,13 @@ export function parseSpectrumText(text: string, options: ParseSpectrumTextOption
     column: unitColumn,
     statedUnit: options.xUnit,
     statedMedium: options.medium,
-    x: xs,
+    x: rows.x,
   });
-  const ordered = orderPoints(xs, ys, { lineOf: (index) => lineNumbers[index], column: xColumn });
+  const lineNumbers = rows.lines;
+  const ordered = orderPoints(rows.x, rows.y, {
+    lineOf: (index) => lineNumbers[index],
+    column: xIndex + 1,
+  });
   if (resolved.scale !== 1)
     for (let i = 0; i < ordered.x.length; i++) ordered.x[i] *= resolved.scale;
 
@@ -266,21 +395,19 @@ function assertColumn(column: number, name: string): void {
 
 function classifyLines(lines: string[], skipLines: number): Uint8Array {
   const kinds = new Uint8Array(lines.length);
-  for (let i = skipLines; i < lines.length; i++) {
-    const line = lines[i];
-    let start = 0;
-    let code = line.charCodeAt(0);
-    while (code === 32 || code === 9) code = line.charCodeAt(++start);
-    if (start >= line.length) kinds[i] = LineKind.Ignored;
-    else if (code === 35 || code === 37)
-      kinds[i] = LineKind.Comment; // # %
-    else if (code === 47 && line.charCodeAt(start + 1) === 47)
-      kinds[i] = LineKind.Comment; // //
-    else if (code === 59)
-      kinds[i] = LineKind.SemicolonLead; // ;
-    else kinds[i] = LineKind.Content;
-  }
+  for (let i = skipLines; i < lines.length; i++) kinds[i] = classifyLine(lines[i]);
   return kinds;
+}
+
+function classifyLine(line: string): LineKind {
+  let start = 0;
+  let code = line.charCodeAt(0);
+  while (code === 32 || code === 9) code = line.charCodeAt(++start);
+  if (start >= line.length) return LineKind.Ignored;
+  if (code === 35 || code === 37) return LineKind.Comment; // # %
+  if (code === 47 && line.charCodeAt(start + 1) === 47) return LineKind.Comment; // //
+  if (code === 59) return LineKind.SemicolonLead; // ;
+  return LineKind.Content;
 }
 
 type Splitter = (line: string) => string[];

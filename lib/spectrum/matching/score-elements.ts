@@ -2,13 +2,15 @@
 
 import type { CalibratedPeak, ReferenceLine, SourceKind } from "../types";
 import type { LineCandidate, PeakMatch } from "./match-peaks-to-lines";
+import { collectAtLeast } from "./collect-at-least";
+import { countAtLeast } from "./count-at-least";
 import { lowerBound } from "./lower-bound";
-import { prepareLineIndex, type LineIndex } from "./prepare-line-index";
 import {
-  speciesRelativeIntensities,
-  type SpeciesIntensities,
-} from "./species-relative-intensities";
-import { wavelengthForMatchingNm } from "./wavelength-for-matching-nm";
+  prepareLineIndex,
+  type LineIndex,
+  type SpeciesBasis,
+  type SpeciesLines,
+} from "./prepare-line-index";
 
 export type Verdict = "present" | "possible" | "absent";
 
@@ -143,10 +145,21 @@ interface SeenGroup {
   snr: number;
 }
 
+/** One species' lines and the scale used for the chosen source. */
+interface SpeciesInfo {
+  lines: SpeciesLines;
+  scale: SpeciesBasis;
+  basis: SourceKind | "none";
+  /** Positions [from, to) in lines.order of its atomic lines in range, then of its band heads. */
+  atomicInRange: [number, number];
+  bandsInRange: [number, number];
+}
+
 interface SpeciesWork {
-  info: SpeciesIntensities;
+  info: SpeciesInfo;
   groups: SeenGroup[];
-  inRange: number[];
+  /** Lines in range whose relative intensity is at least strongLineFraction. */
+  strongInRange: number;
   missing: MissingLineEvidence[];
   missingWeight: number;
   anchor: SeenGroup | null;
@@ -206,10 +219,14 @@ export function scoreElements(
   if (!(rangeNm[0] <= rangeNm[1]) || !rangeNm.every(Number.isFinite)) {
     throw new RangeError(`rangeNm must be [min, max] with min ≤ max, got [${rangeNm.join(", ")}]`);
   }
-  const intensities = speciesRelativeIntensities(index, source);
+  const relativeOf = (lineIndex: number): number | undefined => {
+    const entry = index.species[index.speciesOfLine[lineIndex]];
+    const value = entry.bySource[source].relative[index.positionInSpecies[lineIndex]];
+    return Number.isNaN(value) ? undefined : value;
+  };
   const snrOf = (peak: CalibratedPeak) => (noiseCounts ? peak.height / noiseCounts : peak.snr);
   const tallestHeight = matches.reduce((h, m) => Math.max(h, m.peak.height), 0);
-  const byWavelength = [...matches].sort((a, b) => a.peak.wavelengthNm - b.peak.wavelengthNm);
+  const hiders = hidingPeakFinder(matches, snrOf, hidingFwhmFactor, hidingSnrRatio);
 
   // Each line is credited to the one peak it matches best, so no line is seen twice.
   const bestPeakOfLine = new Map<number, { match: PeakMatch; candidate: LineCandidate }>();
@@ -232,27 +249,41 @@ export function scoreElements(
     }
   }
 
+  // Only species with a matched line, or with strong lines in range to report missing, are
+  // worked on; each is located in the table by binary search, never by scanning the range.
   const work = new Map<string, SpeciesWork>();
-  const workOf = (species: string): SpeciesWork => {
-    let entry = work.get(species);
+  const newWork = (lines: SpeciesLines): SpeciesWork => {
+    const atomicFrom = lowerBound(lines.nm, rangeNm[0], 0, lines.atomicCount);
+    const bandFrom = lowerBound(lines.nm, rangeNm[0], lines.atomicCount, lines.nm.length);
+    const info: SpeciesInfo = {
+      lines,
+      scale: lines.bySource[source],
+      basis: lines.bySource[source].basis,
+      atomicInRange: [atomicFrom, firstAbove(lines.nm, rangeNm[1], atomicFrom, lines.atomicCount)],
+      bandsInRange: [bandFrom, firstAbove(lines.nm, rangeNm[1], bandFrom, lines.nm.length)],
+    };
+    const strongInRange =
+      countAtLeast(info.scale, ...info.atomicInRange, strongLineFraction) +
+      countAtLeast(info.scale, ...info.bandsInRange, strongLineFraction);
+    return {
+      info,
+      groups: [],
+      strongInRange,
+      missing: [],
+      missingWeight: 0,
+      anchor: null,
+      score: 0,
+    };
+  };
+  const workOf = (lineIndex: number): SpeciesWork => {
+    const lines = index.species[index.speciesOfLine[lineIndex]];
+    let entry = work.get(lines.species);
     if (!entry) {
-      entry = {
-        info: intensities.get(species)!,
-        groups: [],
-        inRange: [],
-        missing: [],
-        missingWeight: 0,
-        anchor: null,
-        score: 0,
-      };
-      work.set(species, entry);
+      entry = newWork(lines);
+      work.set(lines.species, entry);
     }
     return entry;
   };
-
-  for (const lineIndex of linesInRange(index, rangeNm)) {
-    workOf(index.lines[lineIndex].species).inRange.push(lineIndex);
-  }
 
   const groupsByPeak = new Map<number, Map<string, SeenGroup>>();
   const orderedAssignments = [...bestPeakOfLine.entries()].sort((a, b) => a[0] - b[0]);
@@ -275,9 +306,14 @@ export function scoreElements(
         snr: snrOf(match.peak),
       };
       atPeak.set(species, group);
-      workOf(species).groups.push(group);
+      workOf(candidate.lineIndex).groups.push(group);
     }
     group.candidates.push(candidate);
+  }
+  for (const lines of index.species) {
+    if (work.has(lines.species)) continue;
+    const entry = newWork(lines);
+    if (entry.strongInRange > 0) work.set(lines.species, entry);
   }
 
   for (const entry of work.values()) {
@@ -286,7 +322,7 @@ export function scoreElements(
       let unrated = 0;
       let closest = Infinity;
       for (const candidate of group.candidates) {
-        const relative = entry.info.relative.get(candidate.lineIndex);
+        const relative = relativeOf(candidate.lineIndex);
         if (relative === undefined) unrated += unratedLineWeight;
         else rated += relative;
         closest = Math.min(closest, Math.abs(candidate.deltaSigma));
@@ -303,8 +339,8 @@ export function scoreElements(
     );
     predictMissing(entry, bestPeakOfLine, index, source, {
       missingSnr: detectionLimitSnr * missingSnrFactor,
-      hiderOf: (nm, predictedSnr) =>
-        hidingPeak(byWavelength, nm, predictedSnr, snrOf, hidingFwhmFactor, hidingSnrRatio),
+      strongLineFraction,
+      hiderOf: hiders,
     });
   }
 
@@ -343,6 +379,12 @@ export function scoreElements(
   for (const [species, score] of scoreRound(share)) work.get(species)!.score = score;
 
   const matchByPeak = new Map(matches.map((match) => [match.peakIndex, match]));
+  const speciesAtPeak = new Map(
+    matches.map((match) => [
+      match.peakIndex,
+      [...new Set(match.candidates.map((c) => c.line.species))].sort(),
+    ]),
+  );
   const calls: ElementCall[] = [];
   for (const [species, entry] of work) {
     const call = buildCall(species, entry, {
@@ -354,6 +396,8 @@ export function scoreElements(
       traceFraction,
       tallestHeight,
       matchByPeak,
+      speciesAtPeak,
+      relativeOf,
     });
     if (call) calls.push(call);
   }
@@ -407,23 +451,43 @@ export function scoreElements(
   return { calls, overlaps, unexplainedPeaks };
 }
 
-/** Lines of the species in range that no peak matched yet should have stood well above noise. */
+/**
+ * Lines of the species in range that no peak matched yet should have stood well above noise.
+ * Only lines at least as strong as the weakest that could qualify are visited (found in the
+ * species' range-maximum tree), in the order a scan of the range would meet them.
+ */
 function predictMissing(
   entry: SpeciesWork,
   bestPeakOfLine: Map<number, unknown>,
   index: LineIndex,
   source: SourceKind,
-  limits: { missingSnr: number; hiderOf: (nm: number, predictedSnr: number) => number | null },
+  limits: {
+    missingSnr: number;
+    strongLineFraction: number;
+    hiderOf: (nm: number, predictedSnr: number) => number | null;
+  },
 ): void {
   const { anchor, info } = entry;
   const scale = anchor ? anchor.snr / anchor.ratedWeight : null;
   const weight = info.basis === "none" ? 0 : borrowed(info, source) ? BORROWED_MISSING_WEIGHT : 1;
-  for (const lineIndex of entry.inRange) {
+  // Without an anchor every rated line is listed when something of the species was seen, but
+  // only the strong ones are ever reported when nothing was.
+  let threshold: number;
+  if (scale === null) threshold = entry.groups.length > 0 ? 0 : limits.strongLineFraction;
+  else {
+    const weakest = limits.missingSnr / scale;
+    // A little below the exact bound, which the test on predictedSnr below then applies.
+    threshold = weakest > 0 && weakest < Infinity ? weakest * (1 - 1e-9) : weakest > 0 ? weakest : 0;
+  }
+  const positions: number[] = [];
+  collectAtLeast(info.scale.maxTree, ...info.atomicInRange, threshold, positions);
+  collectAtLeast(info.scale.maxTree, ...info.bandsInRange, threshold, positions);
+  for (const position of positions) {
+    const lineIndex = info.lines.order[position];
     if (bestPeakOfLine.has(lineIndex)) continue;
-    const relative = info.relative.get(lineIndex);
-    if (relative === undefined) continue;
+    const relative = info.scale.relative[position];
     const line = index.lines[lineIndex];
-    const referenceNm = wavelengthForMatchingNm(line, index.medium);
+    const referenceNm = info.lines.nm[position];
     if (scale === null) {
       entry.missing.push({
         lineIndex,
@@ -453,23 +517,39 @@ function predictMissing(
   );
 }
 
-/** The strongest peak near `nm` that outshines the prediction enough to hide the line, if any. */
-function hidingPeak(
-  byWavelength: PeakMatch[],
-  nm: number,
-  predictedSnr: number,
+/**
+ * For a missing line at `nm` with its predicted SNR, the strongest peak within hidingFwhmFactor of
+ * its own FWHM that outshines the prediction by hidingSnrRatio, if any. Peaks are searched by
+ * wavelength within the widest reach of any peak, so each look-up costs log P plus the peaks near.
+ */
+function hidingPeakFinder(
+  matches: readonly PeakMatch[],
   snrOf: (peak: CalibratedPeak) => number,
   fwhmFactor: number,
   snrRatio: number,
-): number | null {
-  let best: PeakMatch | null = null;
-  for (const match of byWavelength) {
-    const reachNm = fwhmFactor * match.peak.fwhmNm;
-    if (Math.abs(match.peak.wavelengthNm - nm) > reachNm) continue;
-    if (snrOf(match.peak) < snrRatio * predictedSnr) continue;
-    if (!best || snrOf(match.peak) > snrOf(best.peak)) best = match;
-  }
-  return best ? best.peakIndex : null;
+): (nm: number, predictedSnr: number) => number | null {
+  const byWavelength = [...matches].sort((a, b) => a.peak.wavelengthNm - b.peak.wavelengthNm);
+  const wavelengthNm = Float64Array.from(byWavelength, (match) => match.peak.wavelengthNm);
+  const maxReachNm = byWavelength.reduce((r, m) => Math.max(r, fwhmFactor * m.peak.fwhmNm), 0);
+  // Slack so that rounding in nm ± reach cannot drop a peak the exact test below would accept.
+  const slackNm = 1e-9 * (maxReachNm + 1);
+  return (nm, predictedSnr) => {
+    let best: PeakMatch | null = null;
+    let bestSnr = -Infinity;
+    const from = lowerBound(wavelengthNm, nm - maxReachNm - slackNm);
+    for (let i = from; i < byWavelength.length && wavelengthNm[i] <= nm + maxReachNm + slackNm; i++) {
+      const match = byWavelength[i];
+      const reachNm = fwhmFactor * match.peak.fwhmNm;
+      if (Math.abs(match.peak.wavelengthNm - nm) > reachNm) continue;
+      const snr = snrOf(match.peak);
+      if (snr < snrRatio * predictedSnr) continue;
+      if (!best || snr > bestSnr) {
+        best = match;
+        bestSnr = snr;
+      }
+    }
+    return best ? best.peakIndex : null;
+  };
 }
 
 interface CallContext {
@@ -481,6 +561,9 @@ interface CallContext {
   traceFraction: number;
   tallestHeight: number;
   matchByPeak: Map<number, PeakMatch>;
+  /** Species of each peak's candidates, sorted, by peak index. */
+  speciesAtPeak: Map<number, string[]>;
+  relativeOf: (lineIndex: number) => number | undefined;
 }
 
 function buildCall(species: string, entry: SpeciesWork, context: CallContext): ElementCall | null {
@@ -497,20 +580,20 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
         referenceNm: candidate.referenceNm,
         deltaNm: candidate.deltaNm,
         deltaSigma: candidate.deltaSigma,
-        relativeIntensity: info.relative.get(candidate.lineIndex) ?? null,
+        relativeIntensity: context.relativeOf(candidate.lineIndex) ?? null,
         snr: group.snr,
       });
     }
   }
-  const strongInRange = entry.inRange.filter((i) => (info.relative.get(i) ?? 0) >= strong);
+  const { strongInRange } = entry;
   if (seen.length === 0) {
     // Report an unseen species only where it had strong lines to show; keeps the output small.
-    if (strongInRange.length === 0) return null;
+    if (strongInRange === 0) return null;
     const missing = entry.missing.filter((m) => m.relativeIntensity >= strong);
     return {
       species,
-      element: info.element,
-      ionStage: info.ionStage,
+      element: info.lines.element,
+      ionStage: info.lines.ionStage,
       verdict: "absent",
       score: 0,
       seen,
@@ -526,10 +609,7 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
 
   const overlaps: OverlapEvidence[] = [];
   for (const group of entry.groups) {
-    const match = context.matchByPeak.get(group.peakIndex)!;
-    const others = [...new Set(match.candidates.map((c) => c.line.species))]
-      .filter((other) => other !== species)
-      .sort();
+    const others = context.speciesAtPeak.get(group.peakIndex)!.filter((other) => other !== species);
     if (others.length > 0) {
       overlaps.push({
         peakIndex: group.peakIndex,
@@ -574,7 +654,7 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
   }
   if (context.ubiquitous) {
     notes.push(UBIQUITOUS_NOTE);
-    const strongestHeight = Math.max(...entry.groups.map((g) => g.peak.height));
+    const strongestHeight = entry.groups.reduce((h, g) => Math.max(h, g.peak.height), -Infinity);
     const share = context.tallestHeight > 0 ? strongestHeight / context.tallestHeight : 1;
     if (verdict === "present" && share < context.traceFraction) {
       verdict = "possible";
@@ -586,8 +666,8 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
 
   return {
     species,
-    element: info.element,
-    ionStage: info.ionStage,
+    element: info.lines.element,
+    ionStage: info.lines.ionStage,
     verdict,
     score: entry.score,
     seen,
@@ -601,6 +681,7 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
       strongSeen,
       strongMissing,
       strongInRange,
+      strong,
       entry,
       overlaps,
     ),
@@ -612,18 +693,19 @@ function rationaleOf(
   seen: SeenLineEvidence[],
   strongSeen: SeenLineEvidence[],
   strongMissing: MissingLineEvidence[],
-  strongInRange: number[],
+  strongInRange: number,
+  strongLineFraction: number,
   entry: SpeciesWork,
   overlaps: OverlapEvidence[],
 ): string {
-  const worstSigma = Math.max(...seen.map((s) => Math.abs(s.deltaSigma)));
+  const worstSigma = seen.reduce((w, s) => Math.max(w, Math.abs(s.deltaSigma)), -Infinity);
   const parts: string[] = [];
   parts.push(
     `${seen.length} line${plural(seen.length)} seen (${formatNm(seen.map((s) => s.referenceNm))}; within ${worstSigma.toFixed(1)}σ)`,
   );
-  if (strongInRange.length > 0) {
+  if (strongInRange > 0) {
     parts.push(
-      `${strongSeen.length} of ${strongInRange.length} strong line${plural(strongInRange.length)} in range seen`,
+      `${strongSeen.length} of ${strongInRange} strong line${plural(strongInRange)} in range seen`,
     );
   } else {
     parts.push("its strong lines lie outside the range");
@@ -635,8 +717,9 @@ function rationaleOf(
         .join(", ")}`,
     );
   }
+  // Not hidden and not among strongMissing (which holds the unhidden ones at least this strong).
   const weakMissing = entry.missing.filter(
-    (m) => m.hiddenByPeakIndex === null && !strongMissing.includes(m),
+    (m) => m.hiddenByPeakIndex === null && !(m.relativeIntensity >= strongLineFraction),
   ).length;
   if (weakMissing > 0)
     parts.push(`${weakMissing} weaker expected line${plural(weakMissing)} missing`);
@@ -656,25 +739,20 @@ function rationaleOf(
   return `${lead}: ${parts.join("; ")}. Score ${entry.score.toFixed(2)}.`;
 }
 
-function borrowed(info: SpeciesIntensities, source: SourceKind): boolean {
+function borrowed(info: SpeciesInfo, source: SourceKind): boolean {
   return info.basis !== "none" && info.basis !== source;
 }
 
-function linesInRange(index: LineIndex, rangeNm: [number, number]): number[] {
-  const found: number[] = [];
-  const from = lowerBound(index.lineWavelengthNm, rangeNm[0]);
-  for (
-    let i = from;
-    i < index.lineWavelengthNm.length && index.lineWavelengthNm[i] <= rangeNm[1];
-    i++
-  ) {
-    found.push(index.lineOrder[i]);
+/** Index of the first element > target in ascending `values[from … to)` (`to` when none is). */
+function firstAbove(values: Float64Array, target: number, from: number, to: number): number {
+  let lo = from;
+  let hi = to;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (values[mid] <= target) lo = mid + 1;
+    else hi = mid;
   }
-  const fromBand = lowerBound(index.bandHeadNm, rangeNm[0]);
-  for (let i = fromBand; i < index.bandHeadNm.length && index.bandHeadNm[i] <= rangeNm[1]; i++) {
-    found.push(index.bandOrder[i]);
-  }
-  return found;
+  return lo;
 }
 
 function peakSpan(matches: readonly PeakMatch[]): [number, number] {

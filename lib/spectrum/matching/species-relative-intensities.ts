@@ -1,16 +1,9 @@
 // Relative intensities of each species' lines for one kind of source, with a documented fallback.
 
-import type { ReferenceLine, SourceKind } from "../types";
+import type { SourceKind } from "../types";
 import type { LineIndex } from "./prepare-line-index";
 
-/** Where a species' intensities came from when the chosen source has none. */
-export const INTENSITY_FALLBACK_ORDER: Readonly<Record<SourceKind, readonly SourceKind[]>> = {
-  flame: ["arc", "plasma", "spark", "lamp"],
-  arc: ["spark", "plasma", "flame", "lamp"],
-  spark: ["arc", "plasma", "flame", "lamp"],
-  plasma: ["arc", "spark", "flame", "lamp"],
-  lamp: ["arc", "spark", "plasma", "flame"],
-};
+export { INTENSITY_FALLBACK_ORDER } from "./intensity-fallback-order";
 
 /** The lines of one species and their intensities relative to its strongest line. */
 export interface SpeciesIntensities {
@@ -33,7 +26,8 @@ const cache = new WeakMap<LineIndex, Map<SourceKind, Map<string, SpeciesIntensit
  * line of the species has one; otherwise the first source in INTENSITY_FALLBACK_ORDER that has
  * values (so scales of different sources are never mixed within a species); otherwise none.
  * Normalised to the species' strongest line in the whole table, so that a range that misses the
- * strongest lines shows it. Cached per index and source.
+ * strongest lines shows it. A view, as maps, of what prepareLineIndex worked out; cached per index
+ * and source.
  */
 export function speciesRelativeIntensities(
   index: LineIndex,
@@ -47,45 +41,24 @@ export function speciesRelativeIntensities(
   const cached = bySource.get(source);
   if (cached) return cached;
 
-  const grouped = new Map<string, number[]>();
-  index.lines.forEach((line, i) => {
-    const list = grouped.get(line.species);
-    if (list) list.push(i);
-    else grouped.set(line.species, [i]);
-  });
-
   const result = new Map<string, SpeciesIntensities>();
-  for (const [species, lineIndices] of grouped) {
-    const first: ReferenceLine = index.lines[lineIndices[0]];
-    const basis =
-      [source, ...INTENSITY_FALLBACK_ORDER[source]].find((kind) =>
-        lineIndices.some((i) => positive(index.lines[i].intensities[kind])),
-      ) ?? "none";
-    const relative = new Map<number, number>();
-    if (basis !== "none") {
-      let strongest = 0;
-      for (const i of lineIndices) {
-        const value = index.lines[i].intensities[basis];
-        if (positive(value)) strongest = Math.max(strongest, value);
-      }
-      for (const i of lineIndices) {
-        const value = index.lines[i].intensities[basis];
-        if (positive(value)) relative.set(i, value / strongest);
-      }
+  for (const entry of index.species) {
+    const { basis, relative } = entry.bySource[source];
+    const byLine = new Map<number, number>();
+    const lineIndices = Array.from(entry.order).sort((a, b) => a - b);
+    for (const lineIndex of lineIndices) {
+      const value = relative[index.positionInSpecies[lineIndex]];
+      if (!Number.isNaN(value)) byLine.set(lineIndex, value);
     }
-    result.set(species, {
-      species,
-      element: first.element,
-      ionStage: first.ionStage,
+    result.set(entry.species, {
+      species: entry.species,
+      element: entry.element,
+      ionStage: entry.ionStage,
       lineIndices,
       basis,
-      relative,
+      relative: byLine,
     });
   }
   bySource.set(source, result);
   return result;
-}
-
-function positive(value: number | undefined): value is number {
-  return value !== undefined && Number.isFinite(value) && value > 0;
 }

@@ -1,15 +1,13 @@
 // POST accepts an invitation: sets the new person's password (or checks an existing one) and joins.
 import { apiRoute, parseJson } from "@/lib/http/api-handler";
-import { getSession } from "@/lib/auth/session";
+import { startSession } from "@/lib/auth/session";
+import { loadActor } from "@/lib/services/accounts";
 import { acceptInvitation } from "@/lib/services/teams";
 import { acceptInvitationSchema } from "@/lib/validation/account-schemas";
 
 export const POST = apiRoute(async (request) => {
   const input = await parseJson(request, acceptInvitationSchema);
   const userId = await acceptInvitation(input);
-  const session = await getSession();
-  session.userId = userId;
-  session.signedInAt = Date.now();
-  await session.save();
+  await startSession((await loadActor(userId))!);
   return Response.json({ userId }, { status: 201 });
 });
