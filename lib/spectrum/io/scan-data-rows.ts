@@ -100,7 +100,9 @@ export function scanDataRows(text: string, options: ScanDataRowsOptions = {}): S
     throw new RangeError(`unknown delimiter ${JSON.stringify(delimiter)}`);
   }
   if (decimalSeparator !== "." && decimalSeparator !== ",") {
-    throw new RangeError(`decimalSeparator must be "." or ",", got ${JSON.stringify(decimalSeparator)}`);
+    throw new RangeError(
+      `decimalSeparator must be "." or ",", got ${JSON.stringify(decimalSeparator)}`,
+    );
   }
   for (const [name, value] of [
     ["start", start],
@@ -115,7 +117,9 @@ export function scanDataRows(text: string, options: ScanDataRowsOptions = {}): S
     }
   }
   if (xIndex >= columnCount || yIndex >= columnCount || xIndex === yIndex) {
-    throw new RangeError(`xIndex ${xIndex} and yIndex ${yIndex} must be distinct columns below ${columnCount}`);
+    throw new RangeError(
+      `xIndex ${xIndex} and yIndex ${yIndex} must be distinct columns below ${columnCount}`,
+    );
   }
 
   const separator = SEPARATOR_CODES[delimiter];
@@ -231,7 +235,8 @@ export function scanDataRows(text: string, options: ScanDataRowsOptions = {}): S
         if (cell === xIndex) x = value;
         else y = value;
         // Blanks after a number are the separator itself when whitespace separates the columns.
-        if (!whitespace) while (code === SPACE || (code === TAB && tabIsBlank)) code = text.charCodeAt(++q);
+        if (!whitespace)
+          while (code === SPACE || (code === TAB && tabIsBlank)) code = text.charCodeAt(++q);
       } else {
         // An unused cell may hold anything plain; it must not be empty, quoted, or hide a line break.
         const cellStart = q;
@@ -280,7 +285,12 @@ function isBlank(code: number, tabIsBlank: boolean): boolean {
 }
 
 /** The offset of the line's end after separators and blanks only, or −1 when anything else follows. */
-function skipTrailingSeparators(text: string, from: number, separator: number, tabIsBlank: boolean): number {
+function skipTrailingSeparators(
+  text: string,
+  from: number,
+  separator: number,
+  tabIsBlank: boolean,
+): number {
   let q = from;
   let code = text.charCodeAt(q);
   while (code === separator || isBlank(code, tabIsBlank)) code = text.charCodeAt(++q);
