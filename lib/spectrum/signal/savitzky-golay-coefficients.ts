@@ -35,7 +35,9 @@ export interface SavitzkyGolayCoefficientsOptions {
  * Weights w such that Σ w[j]·y[j] over the window is the fitted polynomial's `derivative`-th
  * derivative at `position` ("dot" order: w[0] multiplies the first sample of the window).
  */
-export function savitzkyGolayCoefficients(options: SavitzkyGolayCoefficientsOptions = {}): Float64Array {
+export function savitzkyGolayCoefficients(
+  options: SavitzkyGolayCoefficientsOptions = {},
+): Float64Array {
   const { windowSize = 7, polynomial = 2, derivative = 0, spacing = 1 } = options;
   assertSavitzkyGolayShape(windowSize, polynomial, derivative);
   const half = (windowSize - 1) / 2;
@@ -66,8 +68,12 @@ export function savitzkyGolayCoefficients(options: SavitzkyGolayCoefficientsOpti
 }
 
 /** Throws a RangeError unless window, polynomial and derivative make a well-posed local fit. */
-export function assertSavitzkyGolayShape(windowSize: number, polynomial: number, derivative: number): void {
-  // ml-savitzky-golay rejects windows below 5 and polynomials below 1; check here with clearer messages.
+export function assertSavitzkyGolayShape(
+  windowSize: number,
+  polynomial: number,
+  derivative: number,
+): void {
+  // Windows below 5 were always refused (ml-savitzky-golay's limit, once used here); callers rely on it.
   assertIntegerInRange(windowSize, "windowSize", 5);
   if (windowSize % 2 !== 1) throw new RangeError(`windowSize must be odd (got ${windowSize})`);
   assertIntegerInRange(polynomial, "polynomial", 1, windowSize - 1);

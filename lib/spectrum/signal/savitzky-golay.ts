@@ -1,11 +1,10 @@
 // Savitzky–Golay smoothing and derivatives over a whole spectrum, same length out as in.
-import savitzkyGolayFilter from "ml-savitzky-golay";
 import { assertFiniteArray } from "./assert-finite-array";
 import { assertSavitzkyGolayShape, savitzkyGolayCoefficients } from "./savitzky-golay-coefficients";
 
 export interface SavitzkyGolayOptions {
   /**
-   * Number of samples in the window; odd, at least 5 (ml-savitzky-golay's minimum), at most y.length.
+   * Number of samples in the window; odd, at least 5, at most y.length.
    * @default 7
    */
   windowSize?: number;
@@ -35,11 +34,18 @@ export interface SavitzkyGolayOptions {
 }
 
 /**
- * Savitzky–Golay (1964) filter of `y`. The interior is computed by ml-savitzky-golay (which
- * returns only the n − windowSize + 1 fully covered points); the edges are filled here.
+ * Savitzky–Golay (1964) filter of `y`. The interior is one convolution with the centre weights of
+ * savitzkyGolayCoefficients (checked against SciPy's savgol_coeffs); the edges are filled with the
+ * off-centre weights of the first and last full windows.
  */
 export function savitzkyGolay(y: Float64Array, options: SavitzkyGolayOptions = {}): Float64Array {
-  const { windowSize = 7, polynomial = 2, derivative = 0, spacing = 1, edges = "polynomial" } = options;
+  const {
+    windowSize = 7,
+    polynomial = 2,
+    derivative = 0,
+    spacing = 1,
+    edges = "polynomial",
+  } = options;
   assertSavitzkyGolayShape(windowSize, polynomial, derivative);
   assertFiniteArray(y, "y", windowSize);
   if (!Number.isFinite(spacing) || spacing <= 0) {
@@ -50,21 +56,28 @@ export function savitzkyGolay(y: Float64Array, options: SavitzkyGolayOptions = {
   }
   const n = y.length;
   const half = (windowSize - 1) / 2;
-  const packageOptions = { windowSize, polynomial, derivative, pad: "none" as const };
+  const centre = savitzkyGolayCoefficients({ windowSize, polynomial, derivative, spacing });
 
   if (edges === "nearest") {
     const padded = new Float64Array(n + 2 * half);
     padded.fill(y[0], 0, half);
     padded.set(y, half);
     padded.fill(y[n - 1], half + n);
-    // The package only indexes its input in "none" mode, so a typed array can stand in for number[].
-    return Float64Array.from(savitzkyGolayFilter(padded as unknown as number[], spacing, packageOptions));
+    const out = new Float64Array(n);
+    convolveValid(padded, centre, out, 0);
+    return out;
   }
 
   const out = new Float64Array(n);
-  out.set(savitzkyGolayFilter(y as unknown as number[], spacing, packageOptions), half);
+  convolveValid(y, centre, out, half);
   for (let i = 0; i < half; i++) {
-    const head = savitzkyGolayCoefficients({ windowSize, polynomial, derivative, spacing, position: i });
+    const head = savitzkyGolayCoefficients({
+      windowSize,
+      polynomial,
+      derivative,
+      spacing,
+      position: i,
+    });
     const tail = savitzkyGolayCoefficients({
       windowSize,
       polynomial,
@@ -82,4 +95,43 @@ export function savitzkyGolay(y: Float64Array, options: SavitzkyGolayOptions = {
     out[n - 1 - i] = last;
   }
   return out;
+}
+
+/**
+ * out[offset + k] = Σ weights[j]·input[k + j] for every fully covered k, summed in j order. Four
+ * outputs share each pass over the weights, which halves the loads per output; the package's loop
+ * divided every term and wrote a number[] that then had to be copied.
+ */
+function convolveValid(
+  input: Float64Array,
+  weights: Float64Array,
+  out: Float64Array,
+  offset: number,
+): void {
+  const width = weights.length;
+  const count = input.length - width + 1;
+  let k = 0;
+  for (; k + 3 < count; k += 4) {
+    let s0 = 0;
+    let s1 = 0;
+    let s2 = 0;
+    let s3 = 0;
+    for (let j = 0; j < width; j++) {
+      const w = weights[j];
+      const p = k + j;
+      s0 += w * input[p];
+      s1 += w * input[p + 1];
+      s2 += w * input[p + 2];
+      s3 += w * input[p + 3];
+    }
+    out[offset + k] = s0;
+    out[offset + k + 1] = s1;
+    out[offset + k + 2] = s2;
+    out[offset + k + 3] = s3;
+  }
+  for (; k < count; k++) {
+    let sum = 0;
+    for (let j = 0; j < width; j++) sum += weights[j] * input[k + j];
+    out[offset + k] = sum;
+  }
 }
