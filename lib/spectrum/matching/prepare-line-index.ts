@@ -199,13 +199,10 @@ function basesOf(
     built.set(kind, entry);
     return entry;
   };
-  const rated = (kind: SourceKind) =>
-    positions.some((i) => positive(lines[i].intensities[kind]));
+  const rated = (kind: SourceKind) => positions.some((i) => positive(lines[i].intensities[kind]));
   const result = {} as Record<SourceKind, SpeciesBasis>;
   for (const source of SOURCE_KINDS) {
-    result[source] = basisFor(
-      [source, ...INTENSITY_FALLBACK_ORDER[source]].find(rated) ?? "none",
-    );
+    result[source] = basisFor([source, ...INTENSITY_FALLBACK_ORDER[source]].find(rated) ?? "none");
   }
   return result;
 }
