@@ -16,8 +16,8 @@ describe("savitzkyGolayCoefficients", () => {
       expect(v).toBeCloseTo([-2, 3, 6, 7, 6, 3, -2][j], 10),
     );
     // Savitzky & Golay 1964, 5-point quadratic first derivative (−2, −1, 0, 1, 2)/10 (from memory)
-    times(savitzkyGolayCoefficients({ windowSize: 5, polynomial: 2, derivative: 1 }), 10).forEach((v, j) =>
-      expect(v).toBeCloseTo([-2, -1, 0, 1, 2][j], 10),
+    times(savitzkyGolayCoefficients({ windowSize: 5, polynomial: 2, derivative: 1 }), 10).forEach(
+      (v, j) => expect(v).toBeCloseTo([-2, -1, 0, 1, 2][j], 10),
     );
   });
 
@@ -61,6 +61,26 @@ describe("savitzkyGolay", () => {
     curvature.forEach((v, i) => expect(v).toBeCloseTo(0.6 - 0.12 * i * h, 9));
   });
 
+  it("equals the windowed sum Σ w[j]·y[i − half + j] at every point, for every length and both edge modes", () => {
+    // Lengths windowSize … windowSize + 7 leave every remainder of the four-at-a-time interior loop.
+    for (const windowSize of [5, 9]) {
+      const half = (windowSize - 1) / 2;
+      const centre = savitzkyGolayCoefficients({ windowSize, polynomial: 3 });
+      for (let n = windowSize; n < windowSize + 8; n++) {
+        const y = Float64Array.from({ length: n }, (_, i) => 100 * Math.sin(1.7 * i) + i * i);
+        const clamp = (i: number) => y[Math.min(n - 1, Math.max(0, i))];
+        const nearest = savitzkyGolay(y, { windowSize, polynomial: 3, edges: "nearest" });
+        const interp = savitzkyGolay(y, { windowSize, polynomial: 3 });
+        for (let i = 0; i < n; i++) {
+          let expected = 0;
+          for (let j = 0; j < windowSize; j++) expected += centre[j] * clamp(i - half + j);
+          expect(nearest[i]).toBeCloseTo(expected, 9);
+          if (i >= half && i < n - half) expect(interp[i]).toBeCloseTo(expected, 9);
+        }
+      }
+    }
+  });
+
   it("does not mutate its input", () => {
     const copy = Float64Array.from(signal);
     savitzkyGolay(signal, { windowSize: 7 });
@@ -71,7 +91,9 @@ describe("savitzkyGolay", () => {
     expect(() => savitzkyGolay(signal, { windowSize: 6 })).toThrow(RangeError);
     expect(() => savitzkyGolay(signal, { windowSize: 3 })).toThrow(RangeError);
     expect(() => savitzkyGolay(signal, { windowSize: 5, polynomial: 5 })).toThrow(RangeError);
-    expect(() => savitzkyGolay(signal, { windowSize: 7, polynomial: 2, derivative: 3 })).toThrow(RangeError);
+    expect(() => savitzkyGolay(signal, { windowSize: 7, polynomial: 2, derivative: 3 })).toThrow(
+      RangeError,
+    );
     expect(() => savitzkyGolay(signal, { windowSize: 7, polynomial: 2.5 })).toThrow(RangeError);
     expect(() => savitzkyGolay(signal, { spacing: 0 })).toThrow(RangeError);
     expect(() => savitzkyGolay(new Float64Array(4), { windowSize: 5 })).toThrow(RangeError);
