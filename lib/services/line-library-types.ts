@@ -1,0 +1,127 @@
+// The shapes the line-library services return to pages and route handlers: releases, lines,
+// import previews and release comparisons. Plain objects, no Sequelize instances.
+import type { LineFlag, LineTableError, LineTableRow } from "@/lib/lines";
+import type { SourceKind } from "@/lib/spectrum/types";
+
+export type ReleaseStatus = "draft" | "published";
+
+export interface ReleaseSummary {
+  id: string;
+  teamId: string;
+  /** 1, 2, … for published releases; null for the draft. */
+  number: number | null;
+  status: ReleaseStatus;
+  notes: string;
+  /** The release the draft was started from (null for the first). */
+  basedOnReleaseId: string | null;
+  lineCount: number;
+  createdByName: string | null;
+  publishedByName: string | null;
+  publishedAt: string | null;
+  createdAt: string;
+}
+
+/** One line as the API and the pages see it (the public shape of GET /api/lines). */
+export interface LineRecord {
+  /** This row's id (one row per release). */
+  id: string;
+  /** The line's identity across releases: the same physical line keeps its key when corrected. */
+  lineKey: string;
+  releaseId: string;
+  species: string;
+  element: string;
+  ionStage: number | null;
+  airNm: number | null;
+  vacuumNm: number;
+  uncertaintyNm: number | null;
+  intensities: Partial<Record<SourceKind, number>>;
+  upperEv: number | null;
+  lowerEv: number | null;
+  g: number | null;
+  a: number | null;
+  flags: LineFlag[];
+  band: { extentNm: number; degradesTo: "red" | "violet" } | null;
+  source: string;
+  note: string;
+  verified: boolean;
+  verifiedByName: string | null;
+  verifiedAt: string | null;
+  /** True for a line retired in the draft: it is left out when the draft is published. */
+  retired: boolean;
+  /** Optimistic-locking version: send it back with every edit. */
+  version: number;
+}
+
+export type LineSortKey = "wavelength" | "species" | "intensity";
+
+export interface LineQuery {
+  teamId: string;
+  /** Default: the team's newest published release. */
+  releaseId?: string;
+  minNm?: number;
+  maxNm?: number;
+  /** Exact species in the trade's notation ("Na I"). */
+  species?: string;
+  /** Element symbol or molecular formula ("Na", "CaOH"). */
+  element?: string;
+  /** Only lines with a relative intensity for this kind of source. */
+  source?: SourceKind;
+  flag?: LineFlag;
+  verified?: boolean;
+  sort?: LineSortKey;
+  direction?: "asc" | "desc";
+  /** 1-based. */
+  page?: number;
+  /** At most 500. */
+  pageSize?: number;
+}
+
+export interface LinePage {
+  release: Pick<ReleaseSummary, "id" | "number" | "status" | "publishedAt">;
+  lines: LineRecord[];
+  total: number;
+  page: number;
+  pageSize: number;
+}
+
+/** The values a lab lead types for a line (the CSV row shape, without derived fields). */
+export type LineInput = Omit<LineTableRow, "element" | "ionStage" | "verified">;
+
+export interface ImportChange {
+  lineId: string;
+  lineKey: string;
+  /** 1-based line of the CSV row. */
+  csvLine: number;
+  before: LineTableRow;
+  after: LineTableRow;
+  /** Names of the fields that differ. */
+  fields: string[];
+}
+
+export interface ImportPreview {
+  releaseId: string;
+  adds: { csvLine: number; row: LineTableRow }[];
+  changes: ImportChange[];
+  unchangedCount: number;
+  errors: LineTableError[];
+  /** Fingerprint of the draft and the file the preview was made from; apply refuses a stale one. */
+  fingerprint: string;
+}
+
+export interface ReleaseDiff {
+  from: Pick<ReleaseSummary, "id" | "number" | "status">;
+  to: Pick<ReleaseSummary, "id" | "number" | "status">;
+  added: LineRecord[];
+  removed: LineRecord[];
+  changed: { before: LineRecord; after: LineRecord; fields: string[] }[];
+}
+
+export interface LineHistoryEntry {
+  at: string;
+  actorName: string | null;
+  action: string;
+  releaseNumber: number | null;
+  reason: string | null;
+  before: unknown;
+  after: unknown;
+}
