@@ -47,7 +47,9 @@ export function savitzkyGolay(y: Float64Array, options: SavitzkyGolayOptions = {
     edges = "polynomial",
   } = options;
   assertSavitzkyGolayShape(windowSize, polynomial, derivative);
-  assertFiniteArray(y, "y", windowSize);
+  // Finiteness is checked by the convolution below (a NaN or ±Infinity spoils every window over it),
+  // which saves a pass over y; the type and length are checked here.
+  if (!(y instanceof Float64Array) || y.length < windowSize) assertFiniteArray(y, "y", windowSize);
   if (!Number.isFinite(spacing) || spacing <= 0) {
     throw new RangeError(`spacing must be a positive finite number (got ${spacing})`);
   }
@@ -64,12 +66,12 @@ export function savitzkyGolay(y: Float64Array, options: SavitzkyGolayOptions = {
     padded.set(y, half);
     padded.fill(y[n - 1], half + n);
     const out = new Float64Array(n);
-    convolveValid(padded, centre, out, 0);
+    if (!convolveValid(padded, centre, out, 0)) assertFiniteArray(y, "y", windowSize);
     return out;
   }
 
   const out = new Float64Array(n);
-  convolveValid(y, centre, out, half);
+  if (!convolveValid(y, centre, out, half)) assertFiniteArray(y, "y", windowSize);
   for (let i = 0; i < half; i++) {
     const head = savitzkyGolayCoefficients({
       windowSize,
@@ -98,8 +100,9 @@ export function savitzkyGolay(y: Float64Array, options: SavitzkyGolayOptions = {
 }
 
 /**
- * out[offset + k] = Σ weights[j]·input[k + j] for every fully covered k, summed in j order. Four
- * outputs share each pass over the weights, which halves the loads per output; the package's loop
+ * out[offset + k] = Σ weights[j]·input[k + j] for every fully covered k, summed in j order; false when
+ * an output is not finite (possibly only an overflow; the caller then checks the input itself). Eight
+ * outputs share each pass over the weights, which cuts the loads per output; the package's loop
  * divided every term and wrote a number[] that then had to be copied.
  */
 function convolveValid(
@@ -107,15 +110,21 @@ function convolveValid(
   weights: Float64Array,
   out: Float64Array,
   offset: number,
-): void {
+): boolean {
   const width = weights.length;
   const count = input.length - width + 1;
+  // s·0 is 0 for finite s and NaN otherwise, so the probe stays 0 only if every output is finite.
+  let probe = 0;
   let k = 0;
-  for (; k + 3 < count; k += 4) {
+  for (; k + 7 < count; k += 8) {
     let s0 = 0;
     let s1 = 0;
     let s2 = 0;
     let s3 = 0;
+    let s4 = 0;
+    let s5 = 0;
+    let s6 = 0;
+    let s7 = 0;
     for (let j = 0; j < width; j++) {
       const w = weights[j];
       const p = k + j;
@@ -123,15 +132,27 @@ function convolveValid(
       s1 += w * input[p + 1];
       s2 += w * input[p + 2];
       s3 += w * input[p + 3];
+      s4 += w * input[p + 4];
+      s5 += w * input[p + 5];
+      s6 += w * input[p + 6];
+      s7 += w * input[p + 7];
     }
-    out[offset + k] = s0;
-    out[offset + k + 1] = s1;
-    out[offset + k + 2] = s2;
-    out[offset + k + 3] = s3;
+    const o = offset + k;
+    out[o] = s0;
+    out[o + 1] = s1;
+    out[o + 2] = s2;
+    out[o + 3] = s3;
+    out[o + 4] = s4;
+    out[o + 5] = s5;
+    out[o + 6] = s6;
+    out[o + 7] = s7;
+    probe += (s0 + s1 + s2 + s3 + s4 + s5 + s6 + s7) * 0;
   }
   for (; k < count; k++) {
     let sum = 0;
     for (let j = 0; j < width; j++) sum += weights[j] * input[k + j];
     out[offset + k] = sum;
+    probe += sum * 0;
   }
+  return probe === 0;
 }

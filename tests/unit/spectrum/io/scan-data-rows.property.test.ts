@@ -201,6 +201,12 @@ describe("row scanner against the line reader", () => {
   });
 });
 
+describe("rowReader option", () => {
+  it("is checked on entry", () => {
+    expect(() => parseSpectrumText("1,2\n", { rowReader: "fast" as "scan" })).toThrow(RangeError);
+  });
+});
+
 describe("scanDataRows", () => {
   it("reads plain rows itself, with every number equal to Number() of its cell", () => {
     fc.assert(

@@ -62,11 +62,11 @@ describe("savitzkyGolay", () => {
   });
 
   it("equals the windowed sum Σ w[j]·y[i − half + j] at every point, for every length and both edge modes", () => {
-    // Lengths windowSize … windowSize + 7 leave every remainder of the four-at-a-time interior loop.
+    // Lengths windowSize … windowSize + 15 leave every remainder of the eight-at-a-time interior loop.
     for (const windowSize of [5, 9]) {
       const half = (windowSize - 1) / 2;
       const centre = savitzkyGolayCoefficients({ windowSize, polynomial: 3 });
-      for (let n = windowSize; n < windowSize + 8; n++) {
+      for (let n = windowSize; n < windowSize + 16; n++) {
         const y = Float64Array.from({ length: n }, (_, i) => 100 * Math.sin(1.7 * i) + i * i);
         const clamp = (i: number) => y[Math.min(n - 1, Math.max(0, i))];
         const nearest = savitzkyGolay(y, { windowSize, polynomial: 3, edges: "nearest" });
@@ -98,5 +98,19 @@ describe("savitzkyGolay", () => {
     expect(() => savitzkyGolay(signal, { spacing: 0 })).toThrow(RangeError);
     expect(() => savitzkyGolay(new Float64Array(4), { windowSize: 5 })).toThrow(RangeError);
     expect(() => savitzkyGolay(Float64Array.of(1, 2, NaN, 4, 5, 6, 7))).toThrow(RangeError);
+    const ramp = Float64Array.from({ length: 40 }, (_, i) => i);
+    for (const at of [0, 5, 17, 39]) {
+      const bad = Float64Array.from(ramp);
+      bad[at] = at % 2 ? -Infinity : Infinity;
+      for (const edges of ["polynomial", "nearest"] as const) {
+        expect(() => savitzkyGolay(bad, { edges })).toThrow(`y[${at}] is not a finite number`);
+      }
+    }
+  });
+
+  it("accepts finite input even when its window sums overflow (only non-finite input is refused)", () => {
+    // Partial sums reach 38/35 of 1.7e308, beyond the largest double, so the overflow is really met.
+    const huge = new Float64Array(20).fill(1.7e308);
+    expect(() => savitzkyGolay(huge, { windowSize: 5 })).not.toThrow();
   });
 });
