@@ -6,6 +6,8 @@ import { fitCalibration, type FitCalibrationOptions, type FitCalibrationResult }
 import { informationCriteria } from "./information-criteria";
 import type { LampLine, LampPair, LampPairingResult, LampPeak } from "./lamp-pairing-types";
 import { modelEvaluation } from "./model-evaluation";
+import { growLampPairs } from "./grow-lamp-pairs";
+import { fitForwardHartmann } from "./fit-forward-hartmann";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
 /** Everything the refinement needs, prepared by the caller. */
@@ -173,6 +175,7 @@ function inverseOf(context: PairingContext, fit: FitCalibrationResult): (lambda:
 
 /** Fits the final calibration to refined pairs, re-matches once with it, and judges the result. */
 export function finishLampPairing(context: PairingContext, refined: RefinedPairing): LampPairingResult {
+  if (context.dispersion === "prism") return finishPrismPairing(context, refined);
   let { pairs } = refined;
   let fit = pairs.length >= 3 ? finalFit(context, pairs) : null;
   if (fit) {
@@ -190,6 +193,54 @@ export function finishLampPairing(context: PairingContext, refined: RefinedPairi
   const rmsX = forward
     ? Math.sqrt(usedPairs.reduce((s, p) => s + (p.x - forward(p.wavelengthNm)) ** 2, 0) / (usedPairs.length - 4))
     : refined.rmsX;
+  return judge(context, usedPairs, fit, rmsX);
+}
+
+/**
+ * A prism's pairs are grown from the refinement's pairs by growLampPairs; only then is the physical
+ * model fitted (every catalogue glass, best by AICc). A glass can fit a wrong pairing well, and the
+ * catalogue may not hold the instrument's glass, so the physical model must also beat the glass-free
+ * Hartmann form on the same pairs by AICc (both χ² are in x against the peaks' σ); else Hartmann stays.
+ */
+function finishPrismPairing(context: PairingContext, refined: RefinedPairing): LampPairingResult {
+  const pairs = growLampPairs(context, refined.pairs);
+  if (pairs.length < 6) return judge(context, [], null, refined.rmsX);
+  const rejectOutliers = context.forced.size === 0;
+  let forward: ReturnType<typeof fitForwardHartmann> | null = null;
+  try {
+    forward = fitForwardHartmann(pairs);
+  } catch (error) {
+    if (!(error instanceof CalibrationError)) throw error;
+  }
+  let fit: FitCalibrationResult | null = null;
+  try {
+    const prism = fitCalibration(pairs, { model: "prism", domain: context.domain, rejectOutliers: false });
+    const prismAicc = informationCriteria(prism.model.chiSquare, pairs.length, prism.model.parameters.length).aicc;
+    const hartmannAicc = forward ? informationCriteria(forward.chiSquare, pairs.length, 4).aicc : Infinity;
+    if (prismAicc <= hartmannAicc && prism.model.kind === "prism") {
+      fit = rejectOutliers
+        ? fitCalibration(pairs, { model: "prism", glass: prism.model.glass, domain: context.domain, rejectOutliers })
+        : prism;
+    }
+  } catch (error) {
+    if (!(error instanceof CalibrationError)) throw error;
+  }
+  for (const options of [{ model: "hartmann" as const }, { model: "polynomial" as const, degree: Math.min(5, pairs.length - 2) }]) {
+    if (fit) break;
+    try {
+      fit = fitCalibration(pairs, { ...options, domain: context.domain, rejectOutliers });
+    } catch (error) {
+      if (!(error instanceof CalibrationError)) throw error;
+    }
+  }
+  if (!fit) return judge(context, [], null, refined.rmsX);
+  const usedPairs = pairs.filter((_, i) => fit!.pairs[i].used);
+  // Precision of the final model in x: its residuals divided by the local dispersion.
+  const dispersion = modelEvaluation(fit.model, usedPairs.map((p) => p.x)).dispersion;
+  const usedFitted = fit.pairs.filter((p) => p.used);
+  const rmsX = Math.sqrt(
+    usedFitted.reduce((s, p, i) => s + (p.residualNm / dispersion[i]) ** 2, 0) / Math.max(usedFitted.length - fit.model.parameters.length, 1),
+  );
   return judge(context, usedPairs, fit, rmsX);
 }
 

@@ -1,0 +1,210 @@
+// Grows a prism's lamp pairing outward from the pairs it is sure of: one line at a time, each accepted
+// only when it falls inside the prediction interval of a glass-free Hartmann fit to the pairs so far
+// and no comparably strong line could claim the same peak. Matching everything at once with a model
+// that is off by a pixel or two in the far blue lets a wrong pair in, and every refit then agrees with it.
+import { fitForwardHartmann, type ForwardHartmannFit } from "./fit-forward-hartmann";
+import type { LampPair } from "./lamp-pairing-types";
+import type { PairingContext } from "./refine-lamp-pairing";
+import { weightedLeastSquares } from "./weighted-least-squares";
+
+export interface GrowLampPairsOptions {
+  /**
+   * Half-width of the acceptance window in prediction σ (σ combines the fit's prediction interval and
+   * the peak's own centre uncertainty).
+   * @default 3
+   */
+  windowSigma?: number;
+  /**
+   * A line at least this fraction as strong as the one being placed counts as a rival for its peak.
+   * Lamp intensities are rough and a strong line can be missing from a spectrum, so only a line much
+   * weaker than its neighbour (under 1/20) is ruled out by strength alone.
+   * @default 0.05
+   */
+  rivalIntensityRatio?: number;
+  /**
+   * At most this many prune-and-grow rounds.
+   * @default 4
+   */
+  maxRounds?: number;
+}
+
+/** Fewest pairs the growth starts from: the 4 parameters plus two degrees of freedom. */
+const MIN_CORE = 6;
+
+function toPair(context: PairingContext, peakIndex: number, lineIndex: number): LampPair {
+  const peak = context.peaks[peakIndex];
+  const line = context.lines[lineIndex];
+  return {
+    x: peak.x,
+    ...(peak.xUncertainty !== undefined ? { xUncertainty: peak.xUncertainty } : {}),
+    wavelengthNm: line.wavelengthNm,
+    species: line.species,
+    lineId: line.id,
+    peakIndex,
+    lineIndex,
+  };
+}
+
+/** One pair per peak and per line: a repeated peak or line keeps its first pair (forced pairs come first). */
+function oneToOne(pairs: LampPair[]): LampPair[] {
+  const peaks = new Set<number>();
+  const lines = new Set<number>();
+  return pairs.filter((p) => {
+    if (peaks.has(p.peakIndex) || lines.has(p.lineIndex)) return false;
+    peaks.add(p.peakIndex);
+    lines.add(p.lineIndex);
+    return true;
+  });
+}
+
+/**
+ * Grows `corePairs` (a first pairing, possibly with a few wrong pairs) into the final pairs of a prism.
+ * Rounds of: prune (each pair, left out, must fall inside its own prediction window and have no rival)
+ * then grow (the unpaired line nearest the paired range that passes the same test is added, refit,
+ * repeat). Forced pairs are never removed. Returns the pairs sorted by x.
+ */
+export function growLampPairs(context: PairingContext, corePairs: LampPair[], options: GrowLampPairsOptions = {}): LampPair[] {
+  const { windowSigma = 3, rivalIntensityRatio = 0.05, maxRounds = 4 } = options;
+  if (!(windowSigma > 0)) throw new RangeError(`windowSigma must be positive, got ${windowSigma}`);
+  if (!(rivalIntensityRatio >= 0)) throw new RangeError(`rivalIntensityRatio must be ≥ 0, got ${rivalIntensityRatio}`);
+  const { peaks, lines, candidateLines, forced } = context;
+  const forcedFirst = [
+    ...corePairs.filter((p) => forced.get(p.peakIndex) === p.lineIndex),
+    ...corePairs.filter((p) => forced.get(p.peakIndex) !== p.lineIndex),
+  ];
+  let pairs = oneToOne(forcedFirst);
+  if (pairs.length < MIN_CORE) return pairs.sort((a, b) => a.x - b.x);
+  const peakSigma = (p: number) => peaks[p].xUncertainty ?? 1;
+  const isForced = (pair: LampPair) => forced.get(pair.peakIndex) === pair.lineIndex;
+  const bluestCandidateNm = Math.min(...candidateLines.map((l) => lines[l].wavelengthNm), ...pairs.map((p) => p.wavelengthNm));
+  let start: number[] | undefined;
+  const fit = (subset: LampPair[]): ForwardHartmannFit | null => {
+    try {
+      const result = fitForwardHartmann(subset, { poleBelowNm: bluestCandidateNm, ...(start ? { start } : {}) });
+      start = result.parameters;
+      const other = cubicInStraightened(subset);
+      if (!other) return result;
+      // The two forms agree where pairs pin them and part where they extrapolate; their difference is
+      // the model-form part of the prediction's uncertainty, which the fit's covariance cannot show.
+      return {
+        ...result,
+        predictionSigmaX: (lambda: number, peakSigmaX?: number) =>
+          Math.hypot(result.predictionSigmaX(lambda, peakSigmaX), result.predictX(lambda) - other(lambda)),
+      };
+    } catch {
+      return null;
+    }
+  };
+
+  const [nominalLow, nominalHigh] = context.nominalRangeNm;
+  const gLow = context.straighten(nominalLow);
+  const gHigh = context.straighten(nominalHigh);
+  const normalised = (lambda: number) => (2 * (context.straighten(lambda) - gLow)) / (gHigh - gLow) - 1;
+  /** x as a cubic in the straightened axis g(λ): a second, differently shaped model of the same pairs. */
+  const cubicInStraightened = (subset: LampPair[]): ((lambda: number) => number) | null => {
+    const design = subset.map((p) => [0, 1, 2, 3].map((k) => normalised(p.wavelengthNm) ** k));
+    try {
+      const { parameters } = weightedLeastSquares(design, subset.map((p) => p.x), subset.map((p) => p.xUncertainty ?? 1));
+      return (lambda) => parameters.reduce((sum, a, k) => sum + a * normalised(lambda) ** k, 0);
+    } catch {
+      return null;
+    }
+  };
+
+  /**
+   * Whether `line` may take `peak` under `model`: the peak inside the line's window, no other free
+   * peak inside it, and no rival line whose own window holds the peak.
+   */
+  const acceptable = (model: ForwardHartmannFit, line: number, peak: number, freePeaks: Set<number>, freeLines: Set<number>) => {
+    const lambda = lines[line].wavelengthNm;
+    const predicted = model.predictX(lambda);
+    const window = windowSigma * model.predictionSigmaX(lambda, peakSigma(peak));
+    if (!(Math.abs(peaks[peak].x - predicted) <= window)) return false;
+    for (const other of freePeaks) {
+      if (other !== peak && Math.abs(peaks[other].x - predicted) <= window) return false;
+    }
+    for (const rival of freeLines) {
+      if (rival === line || lines[rival].intensity < rivalIntensityRatio * lines[line].intensity) continue;
+      const rivalLambda = lines[rival].wavelengthNm;
+      const rivalX = model.predictX(rivalLambda);
+      // A rival inside this line's window cannot be told from it by the model, whichever way the
+      // model's bias runs; one whose own window holds the peak could have made it.
+      if (Math.abs(rivalX - predicted) <= window) return false;
+      const rivalWindow = windowSigma * model.predictionSigmaX(rivalLambda, peakSigma(peak));
+      if (Math.abs(peaks[peak].x - rivalX) <= rivalWindow) return false;
+    }
+    return true;
+  };
+  const freeSets = (current: LampPair[]) => {
+    const pairedPeaks = new Set(current.map((p) => p.peakIndex));
+    const pairedLines = new Set(current.map((p) => p.lineIndex));
+    const forcedLines = new Set(forced.values());
+    return {
+      freePeaks: new Set(peaks.map((_, i) => i).filter((i) => !pairedPeaks.has(i) && !forced.has(i))),
+      freeLines: new Set(candidateLines.filter((l) => !pairedLines.has(l) && !forcedLines.has(l))),
+    };
+  };
+
+  /** Leaves each pair out in turn and drops the worst that fails its own test; repeats until all pass. */
+  const prune = () => {
+    while (pairs.length > MIN_CORE) {
+      const whole = fit(pairs);
+      if (!whole) return;
+      let worst: { index: number; z: number } | undefined;
+      for (let i = 0; i < pairs.length; i++) {
+        if (isForced(pairs[i])) continue;
+        const rest = pairs.filter((_, k) => k !== i);
+        const model = fit(rest);
+        start = whole.parameters;
+        if (!model) continue;
+        const { freePeaks, freeLines } = freeSets(rest);
+        const pair = pairs[i];
+        const sigma = model.predictionSigmaX(pair.wavelengthNm, peakSigma(pair.peakIndex));
+        const z = Math.abs(pair.x - model.predictX(pair.wavelengthNm)) / sigma;
+        // A pair with a rival is as doubtful as one far off: rank it just beyond the window.
+        const passes = Number.isFinite(z) && acceptable(model, pair.lineIndex, pair.peakIndex, freePeaks, freeLines);
+        const score = !Number.isFinite(z) ? Infinity : passes ? z : Math.max(z, windowSigma + 1e-9);
+        if (!(score <= windowSigma) && (!worst || score > worst.z)) worst = { index: i, z: score };
+      }
+      if (!worst) return;
+      pairs = pairs.filter((_, k) => k !== worst!.index);
+    }
+  };
+
+  /** Adds, one at a time, the passing line nearest the paired x range; refits after each. */
+  const grow = (): number => {
+    let added = 0;
+    for (;;) {
+      const model = fit(pairs);
+      if (!model) return added;
+      const xs = pairs.map((p) => p.x);
+      const [covLow, covHigh] = [Math.min(...xs), Math.max(...xs)];
+      const { freePeaks, freeLines } = freeSets(pairs);
+      const order = [...freeLines]
+        .map((line) => ({ line, x: model.predictX(lines[line].wavelengthNm) }))
+        .filter((c) => c.x >= context.domain[0] && c.x <= context.domain[1])
+        .map((c) => ({ ...c, distance: Math.max(0, covLow - c.x, c.x - covHigh) }))
+        .sort((a, b) => a.distance - b.distance || a.line - b.line);
+      let accepted: LampPair | undefined;
+      for (const { line, x } of order) {
+        let nearest = -1;
+        for (const p of freePeaks) if (nearest < 0 || Math.abs(peaks[p].x - x) < Math.abs(peaks[nearest].x - x)) nearest = p;
+        if (nearest >= 0 && acceptable(model, line, nearest, freePeaks, freeLines)) {
+          accepted = toPair(context, nearest, line);
+          break;
+        }
+      }
+      if (!accepted) return added;
+      pairs = [...pairs, accepted];
+      added++;
+    }
+  };
+
+  for (let round = 0; round < maxRounds; round++) {
+    const before = pairs.map((p) => `${p.peakIndex}:${p.lineIndex}`).sort().join();
+    prune();
+    grow();
+    if (pairs.map((p) => `${p.peakIndex}:${p.lineIndex}`).sort().join() === before) break;
+  }
+  return pairs.sort((a, b) => a.x - b.x);
+}
