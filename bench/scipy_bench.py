@@ -16,8 +16,12 @@ from scipy.signal import find_peaks, peak_widths, savgol_filter
 from scipy.sparse.linalg import spsolve
 
 
+WARM_UP_RUNS = 5
+
+
 def median_ms(fn, reps):
-    fn()
+    for _ in range(min(WARM_UP_RUNS, reps)):
+        fn()
     samples = []
     for _ in range(reps):
         start = time.perf_counter()
@@ -32,7 +36,7 @@ def als(y, lam=1e6, p=0.01, iterations=10):
     penalty = lam * d.dot(d.transpose())
     w = np.ones(n)
     for _ in range(iterations):
-        z = spsolve(sparse.spdiags(w, 0, n, n) + penalty, w * y)
+        z = spsolve(sparse.csc_matrix(sparse.spdiags(w, 0, n, n) + penalty), w * y)
         w = p * (y > z) + (1 - p) * (y < z)
     return z
 

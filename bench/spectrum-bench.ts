@@ -42,8 +42,11 @@ function repetitions(points: number): number {
   return 60;
 }
 
+/** Warm-up runs before timing (JIT, caches); SciPy's side warms up the same number of times. */
+const WARM_UP_RUNS = 5;
+
 function time(run: () => unknown, reps: number): number {
-  run(); // warm-up: JIT and caches
+  for (let i = 0; i < Math.min(WARM_UP_RUNS, reps); i++) run();
   const samples: number[] = [];
   for (let i = 0; i < reps; i++) {
     const start = process.hrtime.bigint();
