@@ -1,39 +1,34 @@
-// Counts a species' lines in a range whose relative intensity reaches a threshold, in constant time
-// once the table's prefix counts for that threshold exist.
+// Counts the values of a range of lines that reach a threshold, using blocks from buildSortedBlocks.
 
-import type { SpeciesBasis } from "./prepare-line-index";
-
-/** Prefix counts depend on the table and the threshold only; a few thresholds are kept per basis. */
-const KEPT_THRESHOLDS = 4;
-const cache = new WeakMap<SpeciesBasis, Map<number, Uint32Array>>();
+import type { SortedBlocks } from "./build-sorted-blocks";
 
 /**
- * Number of positions p in [from, to) with (relative[p], or 0 when unrated) ≥ threshold. The
- * first call for a threshold builds prefix counts over the species (O(n)); later calls are O(1).
+ * Number of p in [from, to) with values[p] ≥ threshold (NaN never counts): the partial blocks at
+ * the ends are scanned, each whole block is counted by one binary search, so any threshold costs
+ * about blockSize + (n / blockSize) · log blockSize.
  */
 export function countAtLeast(
-  basis: SpeciesBasis,
+  blocks: SortedBlocks,
   from: number,
   to: number,
   threshold: number,
 ): number {
-  if (!(from < to)) return 0;
-  let byThreshold = cache.get(basis);
-  if (!byThreshold) {
-    byThreshold = new Map();
-    cache.set(basis, byThreshold);
-  }
-  let prefix = byThreshold.get(threshold);
-  if (!prefix) {
-    prefix = new Uint32Array(basis.relative.length + 1);
-    for (let p = 0; p < basis.relative.length; p++) {
-      const value = Number.isNaN(basis.relative[p]) ? 0 : basis.relative[p];
-      prefix[p + 1] = prefix[p] + (value >= threshold ? 1 : 0);
+  const { values, blockSize, sorted } = blocks;
+  const start = Math.max(0, from);
+  const end = Math.min(values.length, to);
+  let count = 0;
+  let p = start;
+  for (; p < end && p % blockSize !== 0; p++) if (values[p] >= threshold) count++;
+  for (; p + blockSize <= end; p += blockSize) {
+    let lo = p;
+    let hi = p + blockSize;
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      if (sorted[mid] >= threshold) lo = mid + 1;
+      else hi = mid;
     }
-    if (byThreshold.size >= KEPT_THRESHOLDS) {
-      byThreshold.delete(byThreshold.keys().next().value!);
-    }
-    byThreshold.set(threshold, prefix);
+    count += lo - p;
   }
-  return prefix[to] - prefix[from];
+  for (; p < end; p++) if (values[p] >= threshold) count++;
+  return count;
 }

@@ -3,6 +3,7 @@
 
 import { SOURCE_KINDS, type ReferenceLine, type SourceKind, type WavelengthMedium } from "../types";
 import { buildMaxTree } from "./build-max-tree";
+import { buildSortedBlocks, type SortedBlocks } from "./build-sorted-blocks";
 import { INTENSITY_FALLBACK_ORDER } from "./intensity-fallback-order";
 import { wavelengthForMatchingNm } from "./wavelength-for-matching-nm";
 
@@ -21,6 +22,9 @@ export interface SpeciesBasis {
   /** Range-maximum tree over `relative` (see buildMaxTree), to find the strong lines in a range
    * without visiting the weak ones. */
   maxTree: Float64Array;
+  /** `relative` in sorted blocks with prefix sums (see buildSortedBlocks), to sum or count the
+   * lines above any threshold in a range without visiting them one by one. */
+  blocks: SortedBlocks;
 }
 
 /** The lines of one species, in the order the whole table is searched by wavelength. */
@@ -195,7 +199,12 @@ function basesOf(
         if (positive(value)) relative[position] = value / strongest;
       });
     }
-    entry = { basis: kind, relative, maxTree: buildMaxTree(relative) };
+    entry = {
+      basis: kind,
+      relative,
+      maxTree: buildMaxTree(relative),
+      blocks: buildSortedBlocks(relative),
+    };
     built.set(kind, entry);
     return entry;
   };

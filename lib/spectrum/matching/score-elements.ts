@@ -5,6 +5,8 @@ import type { LineCandidate, PeakMatch } from "./match-peaks-to-lines";
 import { collectAtLeast } from "./collect-at-least";
 import { countAtLeast } from "./count-at-least";
 import { lowerBound } from "./lower-bound";
+import { sumAtLeast } from "./sum-at-least";
+import { walkStrongestFirst } from "./walk-strongest-first";
 import {
   prepareLineIndex,
   type LineIndex,
@@ -58,6 +60,10 @@ export interface ScoreElementsOptions {
    * tallest peak of the spectrum.
    * @default 0.1 */
   traceFraction?: number;
+  /** How many of a call's missing lines that are not hidden are listed, strongest first; the
+   * penalty, missingCount and missingStrongCount always take every missing line into account.
+   * @default 25 */
+  maxMissingListed?: number;
 }
 
 /** A table line seen in the spectrum. */
@@ -106,7 +112,14 @@ export interface ElementCall {
    * weighted by match closeness and by its share of a peak claimed by several species. */
   score: number;
   seen: SeenLineEvidence[];
+  /** Missing lines, strongest first (then by wavelength): every one that may be hidden, and the
+   * `maxMissingListed` strongest of the others; the rest are only counted. */
   missing: MissingLineEvidence[];
+  /** Exact number of missing lines, hidden or not (listed or not). */
+  missingCount: number;
+  /** Exact number of strong lines (relative intensity ≥ strongLineFraction) missing and not
+   * hidden; a present call has none. */
+  missingStrongCount: number;
   overlaps: OverlapEvidence[];
   /** Kind of source whose relative intensities were used. */
   intensityBasis: SourceKind | "none";
@@ -160,7 +173,10 @@ interface SpeciesWork {
   groups: SeenGroup[];
   /** Lines in range whose relative intensity is at least strongLineFraction. */
   strongInRange: number;
+  /** Hidden missing lines and the strongest others; see ElementCall.missing. */
   missing: MissingLineEvidence[];
+  missingCount: number;
+  missingStrongCount: number;
   missingWeight: number;
   anchor: SeenGroup | null;
   score: number;
@@ -196,6 +212,7 @@ export function scoreElements(
     traceFraction = 0.1,
     hidingFwhmFactor = 1.5,
     hidingSnrRatio = 3,
+    maxMissingListed = 25,
   } = options;
   assertPositive("detectionLimitSnr", detectionLimitSnr);
   if (noiseCounts !== undefined) assertPositive("noiseCounts", noiseCounts);
@@ -207,6 +224,9 @@ export function scoreElements(
   assertFraction("traceFraction", traceFraction);
   assertPositive("hidingFwhmFactor", hidingFwhmFactor);
   assertPositive("hidingSnrRatio", hidingSnrRatio);
+  if (!Number.isInteger(maxMissingListed) || maxMissingListed < 0) {
+    throw new RangeError(`maxMissingListed must be an integer ≥ 0, got ${maxMissingListed}`);
+  }
   if (possibleScore > presentScore) {
     throw new RangeError(
       `possibleScore (${possibleScore}) must not exceed presentScore (${presentScore})`,
@@ -226,7 +246,7 @@ export function scoreElements(
   };
   const snrOf = (peak: CalibratedPeak) => (noiseCounts ? peak.height / noiseCounts : peak.snr);
   const tallestHeight = matches.reduce((h, m) => Math.max(h, m.peak.height), 0);
-  const hiders = hidingPeakFinder(matches, snrOf, hidingFwhmFactor, hidingSnrRatio);
+  const hiding = hidingPeaks(matches, snrOf, hidingFwhmFactor, hidingSnrRatio);
 
   // Each line is credited to the one peak it matches best, so no line is seen twice.
   const bestPeakOfLine = new Map<number, { match: PeakMatch; candidate: LineCandidate }>();
@@ -262,14 +282,22 @@ export function scoreElements(
       atomicInRange: [atomicFrom, firstAbove(lines.nm, rangeNm[1], atomicFrom, lines.atomicCount)],
       bandsInRange: [bandFrom, firstAbove(lines.nm, rangeNm[1], bandFrom, lines.nm.length)],
     };
+    // An unrated line counts as intensity 0, so with a zero fraction every line in range is strong.
     const strongInRange =
-      countAtLeast(info.scale, ...info.atomicInRange, strongLineFraction) +
-      countAtLeast(info.scale, ...info.bandsInRange, strongLineFraction);
+      strongLineFraction > 0
+        ? countAtLeast(info.scale.blocks, ...info.atomicInRange, strongLineFraction) +
+          countAtLeast(info.scale.blocks, ...info.bandsInRange, strongLineFraction)
+        : info.atomicInRange[1] -
+          info.atomicInRange[0] +
+          info.bandsInRange[1] -
+          info.bandsInRange[0];
     return {
       info,
       groups: [],
       strongInRange,
       missing: [],
+      missingCount: 0,
+      missingStrongCount: 0,
       missingWeight: 0,
       anchor: null,
       score: 0,
@@ -340,7 +368,9 @@ export function scoreElements(
     predictMissing(entry, bestPeakOfLine, index, source, {
       missingSnr: detectionLimitSnr * missingSnrFactor,
       strongLineFraction,
-      hiderOf: hiders,
+      maxListed: maxMissingListed,
+      hidingSnrRatio,
+      hiding,
     });
   }
 
@@ -452,9 +482,11 @@ export function scoreElements(
 }
 
 /**
- * Lines of the species in range that no peak matched yet should have stood well above noise.
- * Only lines at least as strong as the weakest that could qualify are visited (found in the
- * species' range-maximum tree), in the order a scan of the range would meet them.
+ * Lines of the species in range that no peak matched yet should have stood well above noise. The
+ * penalty and the counts are exact, but lines are only visited where needed: totals over the range
+ * come from the species' sorted blocks, minus the matched lines (few) and minus the hidden ones,
+ * which can only lie within reach of a strong peak; the strongest of the rest are listed from the
+ * range-maximum tree, best first.
  */
 function predictMissing(
   entry: SpeciesWork,
@@ -464,57 +496,159 @@ function predictMissing(
   limits: {
     missingSnr: number;
     strongLineFraction: number;
-    hiderOf: (nm: number, predictedSnr: number) => number | null;
+    maxListed: number;
+    hidingSnrRatio: number;
+    hiding: HidingPeaks;
   },
 ): void {
   const { anchor, info } = entry;
+  const { relative, blocks, maxTree } = info.scale;
+  const { order, nm } = info.lines;
+  const strong = limits.strongLineFraction;
   const scale = anchor ? anchor.snr / anchor.ratedWeight : null;
   const weight = info.basis === "none" ? 0 : borrowed(info, source) ? BORROWED_MISSING_WEIGHT : 1;
+  // The rated lines that are missing unless matched are exactly those with relative ≥ least.
   // Without an anchor every rated line is listed when something of the species was seen, but
   // only the strong ones are ever reported when nothing was.
-  let threshold: number;
-  if (scale === null) threshold = entry.groups.length > 0 ? 0 : limits.strongLineFraction;
-  else {
-    const weakest = limits.missingSnr / scale;
-    // A little below the exact bound, which the test on predictedSnr below then applies.
-    threshold = weakest > 0 && weakest < Infinity ? weakest * (1 - 1e-9) : weakest > 0 ? weakest : 0;
-  }
-  const positions: number[] = [];
-  collectAtLeast(info.scale.maxTree, ...info.atomicInRange, threshold, positions);
-  collectAtLeast(info.scale.maxTree, ...info.bandsInRange, threshold, positions);
-  for (const position of positions) {
-    const lineIndex = info.lines.order[position];
-    if (bestPeakOfLine.has(lineIndex)) continue;
-    const relative = info.scale.relative[position];
-    const line = index.lines[lineIndex];
-    const referenceNm = info.lines.nm[position];
-    if (scale === null) {
-      entry.missing.push({
-        lineIndex,
-        line,
-        referenceNm,
-        relativeIntensity: relative,
-        predictedSnr: null,
-        hiddenByPeakIndex: null,
-      });
-      continue;
+  const least =
+    scale === null
+      ? entry.groups.length > 0
+        ? 0
+        : strong
+      : leastRelativeAtLeast(scale, limits.missingSnr);
+  const ranges = [info.atomicInRange, info.bandsInRange];
+  const inRange = (p: number) => ranges.some(([from, to]) => p >= from && p < to);
+  const evidenceAt = (position: number, hiddenByPeakIndex: number | null): MissingLineEvidence => ({
+    lineIndex: order[position],
+    line: index.lines[order[position]],
+    referenceNm: nm[position],
+    relativeIntensity: relative[position],
+    predictedSnr: scale === null ? null : scale * relative[position],
+    hiddenByPeakIndex,
+  });
+
+  let matchedCount = 0;
+  let matchedStrongCount = 0;
+  let matchedSum = 0;
+  for (const group of entry.groups) {
+    for (const candidate of group.candidates) {
+      const p = index.positionInSpecies[candidate.lineIndex];
+      if (!inRange(p) || !(relative[p] >= least)) continue;
+      matchedCount++;
+      matchedSum += relative[p];
+      if (relative[p] >= strong) matchedStrongCount++;
     }
-    const predictedSnr = scale * relative;
-    if (predictedSnr < limits.missingSnr) continue;
-    const hiddenByPeakIndex = limits.hiderOf(referenceNm, predictedSnr);
-    entry.missing.push({
-      lineIndex,
-      line,
-      referenceNm,
-      relativeIntensity: relative,
-      predictedSnr,
-      hiddenByPeakIndex,
-    });
-    if (hiddenByPeakIndex === null) entry.missingWeight += weight * relative;
   }
-  entry.missing.sort(
-    (a, b) => b.relativeIntensity - a.relativeIntensity || a.referenceNm - b.referenceNm,
-  );
+
+  // A line can only be hidden by a peak within its reach that outshines even the weakest line
+  // that counts, so only the lines in those peaks' reach are examined.
+  const hidden: number[] = [];
+  const hiddenBy = new Map<number, number>();
+  if (scale !== null && least < Infinity) {
+    const { wavelengthNm, reachNm, snr, hiderOf } = limits.hiding;
+    const prune = Number.isFinite(scale) && scale > 0;
+    const weakestHiderSnr = limits.hidingSnrRatio * limits.missingSnr * (1 - 1e-9);
+    const examined = new Set<number>();
+    for (let i = 0; i < wavelengthNm.length; i++) {
+      if (prune && snr[i] < weakestHiderSnr) continue;
+      // Lines stronger than this can not be outshone by this peak (slack for rounding).
+      const mostHideable = prune
+        ? (snr[i] / (limits.hidingSnrRatio * scale)) * (1 + 1e-9)
+        : Infinity;
+      const slackNm = 1e-9 * (reachNm[i] + 1);
+      for (const [from, to] of ranges) {
+        const first = lowerBound(nm, wavelengthNm[i] - reachNm[i] - slackNm, from, to);
+        const last = firstAbove(nm, wavelengthNm[i] + reachNm[i] + slackNm, first, to);
+        for (let p = first; p < last; p++) {
+          if (!(relative[p] >= least) || relative[p] > mostHideable || examined.has(p)) continue;
+          examined.add(p);
+          if (bestPeakOfLine.has(order[p])) continue;
+          const by = hiderOf(nm[p], scale * relative[p]);
+          if (by === null) continue;
+          hidden.push(p);
+          hiddenBy.set(p, by);
+        }
+      }
+    }
+  }
+
+  const countRanges = (threshold: number) =>
+    ranges.reduce((n, [from, to]) => n + countAtLeast(blocks, from, to, threshold), 0);
+  entry.missingCount = countRanges(least) - matchedCount;
+  entry.missingStrongCount =
+    countRanges(Math.max(least, strong)) -
+    matchedStrongCount -
+    hidden.filter((p) => relative[p] >= strong).length;
+  const unhiddenCount = entry.missingCount - hidden.length;
+
+  // The strongest lines that are neither matched nor hidden, from each range (atomic lines and
+  // band heads have their own wavelength order); the best of both are kept.
+  const listed: number[] = [];
+  if (limits.maxListed > 0) {
+    for (const [from, to] of ranges) {
+      let taken = 0;
+      walkStrongestFirst(maxTree, from, to, least, (p) => {
+        if (bestPeakOfLine.has(order[p]) || hiddenBy.has(p)) return true;
+        listed.push(p);
+        return ++taken < limits.maxListed;
+      });
+    }
+  }
+  const strongestFirst = (a: number, b: number) =>
+    relative[b] - relative[a] || nm[a] - nm[b] || a - b;
+  listed.sort(strongestFirst).splice(limits.maxListed);
+
+  if (scale !== null && unhiddenCount > 0) {
+    if (listed.length >= unhiddenCount) {
+      // All of them are listed: add them in the order a scan of the range meets them, so the
+      // penalty is bit for bit what a scan gives.
+      for (const p of listed.slice().sort((a, b) => a - b))
+        entry.missingWeight += weight * relative[p];
+    } else {
+      let total = 0;
+      for (const [from, to] of ranges) total += sumAtLeast(blocks, from, to, least);
+      for (const p of hidden) total -= relative[p];
+      entry.missingWeight = weight * Math.max(0, total - matchedSum);
+    }
+  }
+  entry.missing = [...hidden, ...listed]
+    .sort(strongestFirst)
+    .map((p) => evidenceAt(p, hiddenBy.get(p) ?? null));
+}
+
+/**
+ * The smallest relative intensity v ≥ 0 whose predicted SNR, scale × v in floating point, is not
+ * below missingSnr (Infinity when none is). The product is monotone in v, so a line counts exactly
+ * when its relative intensity reaches this value; it is found from missingSnr / scale by stepping
+ * a few units in the last place.
+ */
+function leastRelativeAtLeast(scale: number, missingSnr: number): number {
+  const counts = (v: number) => !(scale * v < missingSnr);
+  if (counts(0)) return 0;
+  if (!counts(Number.MAX_VALUE)) return Infinity;
+  let v = Math.min(Number.MAX_VALUE, missingSnr / scale);
+  while (!counts(v)) v = nextDouble(v, 1);
+  while (v > 0 && counts(nextDouble(v, -1))) v = nextDouble(v, -1);
+  return v;
+}
+
+const doubleView = new Float64Array(1);
+const bitsView = new BigInt64Array(doubleView.buffer);
+
+/** The neighbouring double of a non-negative finite v, upwards (+1) or downwards (−1). */
+function nextDouble(v: number, direction: 1 | -1): number {
+  doubleView[0] = v;
+  bitsView[0] += BigInt(direction);
+  return doubleView[0];
+}
+
+/** The peaks by wavelength with their hiding reach and SNR, and the hiding test itself. */
+interface HidingPeaks {
+  wavelengthNm: Float64Array;
+  reachNm: Float64Array;
+  snr: Float64Array;
+  /** For a missing line at `nm` with its predicted SNR, the strongest peak that may hide it. */
+  hiderOf: (nm: number, predictedSnr: number) => number | null;
 }
 
 /**
@@ -522,34 +656,38 @@ function predictMissing(
  * its own FWHM that outshines the prediction by hidingSnrRatio, if any. Peaks are searched by
  * wavelength within the widest reach of any peak, so each look-up costs log P plus the peaks near.
  */
-function hidingPeakFinder(
+function hidingPeaks(
   matches: readonly PeakMatch[],
   snrOf: (peak: CalibratedPeak) => number,
   fwhmFactor: number,
   snrRatio: number,
-): (nm: number, predictedSnr: number) => number | null {
+): HidingPeaks {
   const byWavelength = [...matches].sort((a, b) => a.peak.wavelengthNm - b.peak.wavelengthNm);
   const wavelengthNm = Float64Array.from(byWavelength, (match) => match.peak.wavelengthNm);
-  const maxReachNm = byWavelength.reduce((r, m) => Math.max(r, fwhmFactor * m.peak.fwhmNm), 0);
+  const reachNm = Float64Array.from(byWavelength, (match) => fwhmFactor * match.peak.fwhmNm);
+  const snr = Float64Array.from(byWavelength, (match) => snrOf(match.peak));
+  const maxReachNm = reachNm.reduce((r, reach) => Math.max(r, reach), 0);
   // Slack so that rounding in nm ± reach cannot drop a peak the exact test below would accept.
   const slackNm = 1e-9 * (maxReachNm + 1);
-  return (nm, predictedSnr) => {
+  const hiderOf = (nm: number, predictedSnr: number) => {
     let best: PeakMatch | null = null;
     let bestSnr = -Infinity;
     const from = lowerBound(wavelengthNm, nm - maxReachNm - slackNm);
-    for (let i = from; i < byWavelength.length && wavelengthNm[i] <= nm + maxReachNm + slackNm; i++) {
-      const match = byWavelength[i];
-      const reachNm = fwhmFactor * match.peak.fwhmNm;
-      if (Math.abs(match.peak.wavelengthNm - nm) > reachNm) continue;
-      const snr = snrOf(match.peak);
-      if (snr < snrRatio * predictedSnr) continue;
-      if (!best || snr > bestSnr) {
-        best = match;
-        bestSnr = snr;
+    for (
+      let i = from;
+      i < byWavelength.length && wavelengthNm[i] <= nm + maxReachNm + slackNm;
+      i++
+    ) {
+      if (Math.abs(wavelengthNm[i] - nm) > reachNm[i]) continue;
+      if (snr[i] < snrRatio * predictedSnr) continue;
+      if (!best || snr[i] > bestSnr) {
+        best = byWavelength[i];
+        bestSnr = snr[i];
       }
     }
     return best ? best.peakIndex : null;
   };
+  return { wavelengthNm, reachNm, snr, hiderOf };
 }
 
 interface CallContext {
@@ -590,6 +728,7 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
     // Report an unseen species only where it had strong lines to show; keeps the output small.
     if (strongInRange === 0) return null;
     const missing = entry.missing.filter((m) => m.relativeIntensity >= strong);
+    const count = entry.missingStrongCount;
     return {
       species,
       element: info.lines.element,
@@ -598,12 +737,14 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
       score: 0,
       seen,
       missing,
+      missingCount: entry.missingCount,
+      missingStrongCount: count,
       overlaps: [],
       intensityBasis: info.basis,
       notes: context.ubiquitous ? [UBIQUITOUS_NOTE] : [],
-      rationale: `No line seen; its strong line${plural(missing.length)} in range (${formatNm(
+      rationale: `No line seen; its strong line${plural(count)} in range (${formatNm(
         missing.map((m) => m.referenceNm),
-      )}) show${missing.length === 1 ? "s" : ""} no peak.`,
+      )}${andMore(count - missing.length)}) show${count === 1 ? "s" : ""} no peak.`,
     };
   }
 
@@ -631,7 +772,11 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
     );
   }
   let verdict: Verdict;
-  if (entry.score >= context.presentScore && strongSeen.length > 0 && strongMissing.length === 0) {
+  if (
+    entry.score >= context.presentScore &&
+    strongSeen.length > 0 &&
+    entry.missingStrongCount === 0
+  ) {
     verdict = "present";
   } else if (entry.score >= context.possibleScore) {
     verdict = "possible";
@@ -672,6 +817,8 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
     score: entry.score,
     seen,
     missing: entry.missing,
+    missingCount: entry.missingCount,
+    missingStrongCount: entry.missingStrongCount,
     overlaps,
     intensityBasis: info.basis,
     notes,
@@ -681,7 +828,6 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
       strongSeen,
       strongMissing,
       strongInRange,
-      strong,
       entry,
       overlaps,
     ),
@@ -694,7 +840,6 @@ function rationaleOf(
   strongSeen: SeenLineEvidence[],
   strongMissing: MissingLineEvidence[],
   strongInRange: number,
-  strongLineFraction: number,
   entry: SpeciesWork,
   overlaps: OverlapEvidence[],
 ): string {
@@ -710,17 +855,18 @@ function rationaleOf(
   } else {
     parts.push("its strong lines lie outside the range");
   }
-  if (strongMissing.length > 0) {
+  // strongMissing holds the listed ones; missingStrongCount counts them all.
+  const strongCount = entry.missingStrongCount;
+  if (strongCount > 0) {
     parts.push(
-      `strong line${plural(strongMissing.length)} missing though expected at SNR ≈ ${strongMissing
+      `strong line${plural(strongCount)} missing though expected at SNR ≈ ${strongMissing
         .map((m) => `${Math.round(m.predictedSnr ?? 0)} (${m.referenceNm.toFixed(2)} nm)`)
-        .join(", ")}`,
+        .join(", ")}${andMore(strongCount - strongMissing.length)}`,
     );
   }
-  // Not hidden and not among strongMissing (which holds the unhidden ones at least this strong).
-  const weakMissing = entry.missing.filter(
-    (m) => m.hiddenByPeakIndex === null && !(m.relativeIntensity >= strongLineFraction),
-  ).length;
+  // Every hidden line is listed; the rest of the missing lines are strong or weaker.
+  const hiddenCount = entry.missing.filter((m) => m.hiddenByPeakIndex !== null).length;
+  const weakMissing = entry.missingCount - hiddenCount - strongCount;
   if (weakMissing > 0)
     parts.push(`${weakMissing} weaker expected line${plural(weakMissing)} missing`);
   if (overlaps.length > 0) {
@@ -768,6 +914,11 @@ function peakSpan(matches: readonly PeakMatch[]): [number, number] {
 
 function formatNm(values: number[]): string {
   return values.map((v) => v.toFixed(2)).join(", ") + " nm";
+}
+
+/** ", and N more" for what a capped list leaves out, nothing when it left nothing out. */
+function andMore(count: number): string {
+  return count > 0 ? `, and ${count} more` : "";
 }
 
 function plural(count: number): string {
