@@ -2,6 +2,8 @@
 import { AccessToken } from "./access-token";
 import { AuditEvent } from "./audit-event";
 import { Invitation } from "./invitation";
+import { Line } from "./line";
+import { LineRelease } from "./line-release";
 import { Membership } from "./membership";
 import { PasswordResetToken } from "./password-reset-token";
 import { SignInAttempt } from "./sign-in-attempt";
@@ -19,6 +21,25 @@ AccessToken.belongsTo(User, { foreignKey: "userId", as: "user" });
 PasswordResetToken.belongsTo(User, { foreignKey: "userId", as: "user" });
 AuditEvent.belongsTo(User, { foreignKey: "actorId", as: "actor" });
 UserSession.belongsTo(User, { foreignKey: "userId", as: "user" });
+Team.hasMany(LineRelease, { foreignKey: "teamId", as: "lineReleases" });
+LineRelease.belongsTo(Team, { foreignKey: "teamId", as: "team" });
+LineRelease.belongsTo(User, { foreignKey: "createdById", as: "createdBy" });
+LineRelease.belongsTo(User, { foreignKey: "publishedById", as: "publishedBy" });
+LineRelease.hasMany(Line, { foreignKey: "releaseId", as: "lines" });
+Line.belongsTo(LineRelease, { foreignKey: "releaseId", as: "release" });
+Line.belongsTo(User, { foreignKey: "verifiedById", as: "verifiedBy" });
 
-export { AccessToken, AuditEvent, Invitation, Membership, PasswordResetToken, SignInAttempt, Team, User, UserSession };
+export {
+  AccessToken,
+  AuditEvent,
+  Invitation,
+  Line,
+  LineRelease,
+  Membership,
+  PasswordResetToken,
+  SignInAttempt,
+  Team,
+  User,
+  UserSession,
+};
 export { sequelize } from "../db/sequelize";

@@ -58,8 +58,13 @@ export interface LineQuery {
   teamId: string;
   /** Default: the team's newest published release. */
   releaseId?: string;
+  /** A published release by its number (used when releaseId is not given). */
+  releaseNumber?: number;
+  /** Range in nm, compared with the tabulated wavelength (air above 200 nm, vacuum below) unless `vacuum`. */
   minNm?: number;
   maxNm?: number;
+  /** Compare minNm/maxNm with vacuum wavelengths instead of the tabulated ones. Default false. */
+  vacuum?: boolean;
   /** Exact species in the trade's notation ("Na I"). */
   species?: string;
   /** Element symbol or molecular formula ("Na", "CaOH"). */
