@@ -1,8 +1,14 @@
 // Grows a prism's lamp pairing outward from the pairs it is sure of: one line at a time, each accepted
-// only when it falls inside the prediction interval of a glass-free Hartmann fit to the pairs so far
-// and no comparably strong line could claim the same peak. Matching everything at once with a model
-// that is off by a pixel or two in the far blue lets a wrong pair in, and every refit then agrees with it.
+// only when it falls inside the prediction interval of a model of the pairs so far, no comparably strong
+// line could claim the same peak, and the peak is about as strong as the line should make it. Matching
+// everything at once with a model that is off by a pixel or two in the far blue lets a wrong pair in,
+// and every refit then agrees with it. The model is the physical prism of the catalogue glasses that fit
+// (their spread is the model-form uncertainty), because a free-form curve extrapolated from the middle
+// is off by tens of pixels in the blue; only when no glass fits as well as the glass-free Hartmann form
+// (the instrument's glass is not in the catalogue) does Hartmann predict instead.
 import { fitForwardHartmann, type ForwardHartmannFit } from "./fit-forward-hartmann";
+import { fitGlassEnsemble } from "./fit-glass-ensemble";
+import { informationCriteria } from "./information-criteria";
 import type { LampPair } from "./lamp-pairing-types";
 import type { PairingContext } from "./refine-lamp-pairing";
 import { weightedLeastSquares } from "./weighted-least-squares";
@@ -26,7 +32,27 @@ export interface GrowLampPairsOptions {
    * @default 4
    */
   maxRounds?: number;
+  /**
+   * Glasses within this AICc of the best glass are kept, and their spread widens the window.
+   * @default 4
+   */
+  maxDeltaAicc?: number;
+  /**
+   * A peak may be at most this many times fainter or stronger than the line's intensity predicts from
+   * the pairs so far (their median height-to-intensity ratio), or 3 robust σ of that ratio if wider.
+   * Lamp tables and detector responses disagree by a factor of a few, so the check is loose: it stops
+   * a strong line from taking a faint stray peak, and a faint line from taking a strong peak that some
+   * other light (a stray or unlisted line, a blend) must have made.
+   * @default 10
+   */
+  heightTolerance?: number;
 }
+
+/** What pairing asks of a model of the pairs so far. */
+type Predictor = Pick<ForwardHartmannFit, "predictX" | "predictionSigmaX">;
+
+/** Leave-one-out tests per prune step: the two pairs at each end and this many worst-fitting ones. */
+const WORST_SUSPECTS = 3;
 
 /** Fewest pairs the growth starts from: the 4 parameters plus two degrees of freedom. */
 const MIN_CORE = 6;
@@ -64,9 +90,10 @@ function oneToOne(pairs: LampPair[]): LampPair[] {
  * repeat). Forced pairs are never removed. Returns the pairs sorted by x.
  */
 export function growLampPairs(context: PairingContext, corePairs: LampPair[], options: GrowLampPairsOptions = {}): LampPair[] {
-  const { windowSigma = 3, rivalIntensityRatio = 0.05, maxRounds = 4 } = options;
+  const { windowSigma = 3, rivalIntensityRatio = 0.05, maxRounds = 4, maxDeltaAicc = 4, heightTolerance = 10 } = options;
   if (!(windowSigma > 0)) throw new RangeError(`windowSigma must be positive, got ${windowSigma}`);
   if (!(rivalIntensityRatio >= 0)) throw new RangeError(`rivalIntensityRatio must be ≥ 0, got ${rivalIntensityRatio}`);
+  if (!(heightTolerance >= 1)) throw new RangeError(`heightTolerance must be ≥ 1, got ${heightTolerance}`);
   const { peaks, lines, candidateLines, forced } = context;
   const forcedFirst = [
     ...corePairs.filter((p) => forced.get(p.peakIndex) === p.lineIndex),
@@ -77,24 +104,6 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
   const peakSigma = (p: number) => peaks[p].xUncertainty ?? 1;
   const isForced = (pair: LampPair) => forced.get(pair.peakIndex) === pair.lineIndex;
   const bluestCandidateNm = Math.min(...candidateLines.map((l) => lines[l].wavelengthNm), ...pairs.map((p) => p.wavelengthNm));
-  let start: number[] | undefined;
-  const fit = (subset: LampPair[]): ForwardHartmannFit | null => {
-    try {
-      const result = fitForwardHartmann(subset, { poleBelowNm: bluestCandidateNm, ...(start ? { start } : {}) });
-      start = result.parameters;
-      const other = cubicInStraightened(subset);
-      if (!other) return result;
-      // The two forms agree where pairs pin them and part where they extrapolate; their difference is
-      // the model-form part of the prediction's uncertainty, which the fit's covariance cannot show.
-      return {
-        ...result,
-        predictionSigmaX: (lambda: number, peakSigmaX?: number) =>
-          Math.hypot(result.predictionSigmaX(lambda, peakSigmaX), result.predictX(lambda) - other(lambda)),
-      };
-    } catch {
-      return null;
-    }
-  };
 
   const [nominalLow, nominalHigh] = context.nominalRangeNm;
   const gLow = context.straighten(nominalLow);
@@ -111,15 +120,86 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
     }
   };
 
+  let start: number[] | undefined;
+  const glassFree = (subset: LampPair[]): { fit: ForwardHartmannFit; predictor: Predictor } | null => {
+    try {
+      const result = fitForwardHartmann(subset, { poleBelowNm: bluestCandidateNm, ...(start ? { start } : {}) });
+      start = result.parameters;
+      const other = cubicInStraightened(subset);
+      if (!other) return { fit: result, predictor: result };
+      // The two forms agree where pairs pin them and part where they extrapolate; their difference is
+      // the model-form part of the prediction's uncertainty, which the fit's covariance cannot show.
+      return {
+        fit: result,
+        predictor: {
+          predictX: result.predictX,
+          predictionSigmaX: (lambda: number, peakSigmaX?: number) =>
+            Math.hypot(result.predictionSigmaX(lambda, peakSigmaX), result.predictX(lambda) - other(lambda)),
+        },
+      };
+    } catch {
+      return null;
+    }
+  };
+  const computeFit = (subset: LampPair[]): Predictor | null => {
+    const hartmann = glassFree(subset);
+    const ensemble = fitGlassEnsemble(subset, { maxDeltaAicc });
+    if (!ensemble) return hartmann?.predictor ?? null;
+    // The physical model has one parameter fewer; when no glass fits the pairs as well as the
+    // glass-free form does, the instrument's glass is not among them and Hartmann predicts instead.
+    const hartmannAicc = hartmann ? informationCriteria(hartmann.fit.chiSquare, subset.length, 4).aicc : Infinity;
+    if (ensemble.bestAicc > hartmannAicc + maxDeltaAicc) return hartmann!.predictor;
+    const hartmannSigma = hartmann?.fit.predictionSigmaX;
+    return {
+      predictX: ensemble.predictX,
+      predictionSigmaX: (lambda: number, peakSigmaX?: number) => {
+        const glassFreeSigma = hartmannSigma ? hartmannSigma(lambda, peakSigmaX) : 0;
+        return Math.hypot(ensemble.predictionSigmaX(lambda, peakSigmaX), Number.isFinite(glassFreeSigma) ? glassFreeSigma : 0);
+      },
+    };
+  };
+  // Prune and grow ask about the same pair sets again and again (a pair left out, a round repeated).
+  const fits = new Map<string, Predictor | null>();
+  const fit = (subset: LampPair[]): Predictor | null => {
+    const key = subset.map((p) => `${p.peakIndex}:${p.lineIndex}`).sort().join();
+    if (!fits.has(key)) fits.set(key, computeFit(subset));
+    return fits.get(key)!;
+  };
+
+  /**
+   * Plausible ln(height / intensity) of a new pair: the pairs' median ± the larger of ln(heightTolerance)
+   * and 3 robust σ; everything while the pairs are too few to say.
+   */
+  const heightBand = (current: LampPair[]): [number, number] => {
+    const ratios = current
+      .filter((p) => peaks[p.peakIndex].height > 0 && lines[p.lineIndex].intensity > 0)
+      .map((p) => Math.log(peaks[p.peakIndex].height / lines[p.lineIndex].intensity))
+      .sort((a, b) => a - b);
+    if (ratios.length < MIN_CORE) return [-Infinity, Infinity];
+    const median = ratios[ratios.length >> 1];
+    const deviations = ratios.map((r) => Math.abs(r - median)).sort((a, b) => a - b);
+    const halfWidth = Math.max(Math.log(heightTolerance), 3 * 1.4826 * deviations[deviations.length >> 1]);
+    return [median - halfWidth, median + halfWidth];
+  };
+  const plausibleHeight = (line: number, peak: number, [low, high]: [number, number]) => {
+    const { intensity } = lines[line];
+    const { height } = peaks[peak];
+    if (!(intensity > 0 && height > 0)) return true;
+    const ratio = Math.log(height / intensity);
+    return ratio >= low && ratio <= high;
+  };
+
   /**
    * Whether `line` may take `peak` under `model`: the peak inside the line's window, no other free
-   * peak inside it, and no rival line whose own window holds the peak.
+   * peak inside it, no rival line whose own window holds the peak, and a peak about as strong as
+   * the line should make it.
    */
-  const acceptable = (model: ForwardHartmannFit, line: number, peak: number, freePeaks: Set<number>, freeLines: Set<number>) => {
+  const acceptable = (model: Predictor, line: number, peak: number, freePeaks: Set<number>, freeLines: Set<number>, band: [number, number]) => {
     const lambda = lines[line].wavelengthNm;
     const predicted = model.predictX(lambda);
     const window = windowSigma * model.predictionSigmaX(lambda, peakSigma(peak));
     if (!(Math.abs(peaks[peak].x - predicted) <= window)) return false;
+    if (!plausibleHeight(line, peak, band)) return false;
     for (const other of freePeaks) {
       if (other !== peak && Math.abs(peaks[other].x - predicted) <= window) return false;
     }
@@ -145,24 +225,32 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
     };
   };
 
-  /** Leaves each pair out in turn and drops the worst that fails its own test; repeats until all pass. */
+  /**
+   * Leaves suspects out in turn and drops the worst that fails its own test; repeats until all pass.
+   * Suspects are the two pairs at each end (where a wrong pair bends the model least visibly) and the
+   * worst-fitting ones; testing every pair costs a refit each and finds nothing more in practice.
+   */
   const prune = () => {
     while (pairs.length > MIN_CORE) {
       const whole = fit(pairs);
       if (!whole) return;
+      const free = pairs.map((_, i) => i).filter((i) => !isForced(pairs[i]));
+      const byX = free.slice().sort((a, b) => pairs[a].x - pairs[b].x);
+      const misfit = (i: number) =>
+        Math.abs(pairs[i].x - whole.predictX(pairs[i].wavelengthNm)) / whole.predictionSigmaX(pairs[i].wavelengthNm, peakSigma(pairs[i].peakIndex));
+      const worstFitting = free.slice().sort((a, b) => misfit(b) - misfit(a) || a - b).slice(0, WORST_SUSPECTS);
+      const suspects = [...new Set([...byX.slice(0, 2), ...byX.slice(-2), ...worstFitting])].sort((a, b) => a - b);
       let worst: { index: number; z: number } | undefined;
-      for (let i = 0; i < pairs.length; i++) {
-        if (isForced(pairs[i])) continue;
+      for (const i of suspects) {
         const rest = pairs.filter((_, k) => k !== i);
         const model = fit(rest);
-        start = whole.parameters;
         if (!model) continue;
         const { freePeaks, freeLines } = freeSets(rest);
         const pair = pairs[i];
         const sigma = model.predictionSigmaX(pair.wavelengthNm, peakSigma(pair.peakIndex));
         const z = Math.abs(pair.x - model.predictX(pair.wavelengthNm)) / sigma;
         // A pair with a rival is as doubtful as one far off: rank it just beyond the window.
-        const passes = Number.isFinite(z) && acceptable(model, pair.lineIndex, pair.peakIndex, freePeaks, freeLines);
+        const passes = Number.isFinite(z) && acceptable(model, pair.lineIndex, pair.peakIndex, freePeaks, freeLines, heightBand(rest));
         const score = !Number.isFinite(z) ? Infinity : passes ? z : Math.max(z, windowSigma + 1e-9);
         if (!(score <= windowSigma) && (!worst || score > worst.z)) worst = { index: i, z: score };
       }
@@ -180,6 +268,7 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
       const xs = pairs.map((p) => p.x);
       const [covLow, covHigh] = [Math.min(...xs), Math.max(...xs)];
       const { freePeaks, freeLines } = freeSets(pairs);
+      const band = heightBand(pairs);
       const order = [...freeLines]
         .map((line) => ({ line, x: model.predictX(lines[line].wavelengthNm) }))
         .filter((c) => c.x >= context.domain[0] && c.x <= context.domain[1])
@@ -189,7 +278,7 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
       for (const { line, x } of order) {
         let nearest = -1;
         for (const p of freePeaks) if (nearest < 0 || Math.abs(peaks[p].x - x) < Math.abs(peaks[nearest].x - x)) nearest = p;
-        if (nearest >= 0 && acceptable(model, line, nearest, freePeaks, freeLines)) {
+        if (nearest >= 0 && acceptable(model, line, nearest, freePeaks, freeLines, band)) {
           accepted = toPair(context, nearest, line);
           break;
         }

@@ -1,0 +1,77 @@
+// The physical prism model fitted for every catalogue glass at once, for pairing a prism: the glasses
+// that fit the pairs about equally well (ΔAICc small) are kept, and their spread of predicted pixels is
+// the model-form uncertainty of a prediction. Where the pairs pin the glass the spread is a fraction of a
+// pixel even far outside them (the right glass extrapolates as well as it interpolates); where they do
+// not, the glasses part by many pixels and a line there is not matched until more pairs decide.
+import { fitForwardPrism, type ForwardPrismFit } from "./fit-forward-prism";
+import type { ForwardHartmannPoint } from "./fit-forward-hartmann";
+import { GLASS_NAMES, type GlassName } from "./glass-catalogue";
+import { informationCriteria } from "./information-criteria";
+
+export interface FitGlassEnsembleOptions {
+  /**
+   * Glasses within this AICc of the best are kept (ΔAICc ≤ 4: "considerably less support" begins
+   * beyond it, after Burnham & Anderson; common practice).
+   * @default 4
+   */
+  maxDeltaAicc?: number;
+  /**
+   * Apex angle of the prism, degrees.
+   * @default 60
+   */
+  apexDeg?: number;
+  /**
+   * Glasses to try.
+   * @default every catalogue glass
+   */
+  glasses?: readonly GlassName[];
+}
+
+/** The kept glasses and what they say together. */
+export interface GlassEnsemble {
+  /** The kept fits, best (lowest AICc) first. */
+  fits: ForwardPrismFit[];
+  /** AICc of the best glass (χ² against the pairs' x σ; k = 3). */
+  bestAicc: number;
+  /** Akaike-weighted mean of the kept glasses' x at λ; NaN where one has no prediction. */
+  predictX: (wavelengthNm: number) => number;
+  /** Largest minus smallest x the kept glasses predict at λ. */
+  spreadX: (wavelengthNm: number) => number;
+  /** The best glass's prediction σ combined in quadrature with the spread. */
+  predictionSigmaX: (wavelengthNm: number, peakSigmaX?: number) => number;
+}
+
+/** Fits every glass to `points` and keeps the well-supported ones; null when no glass fits at all. */
+export function fitGlassEnsemble(points: readonly ForwardHartmannPoint[], options: FitGlassEnsembleOptions = {}): GlassEnsemble | null {
+  const { maxDeltaAicc = 4, apexDeg = 60, glasses = GLASS_NAMES } = options;
+  if (!(maxDeltaAicc >= 0)) throw new RangeError(`maxDeltaAicc must be ≥ 0, got ${maxDeltaAicc}`);
+  const scored: { fit: ForwardPrismFit; aicc: number }[] = [];
+  for (const glass of glasses) {
+    try {
+      const fit = fitForwardPrism(points, glass, { apexDeg });
+      const { aicc } = informationCriteria(fit.chiSquare, points.length, 3);
+      if (Number.isFinite(aicc)) scored.push({ fit, aicc });
+    } catch {
+      // A glass whose formula does not reach a pair's wavelength, or passes no ray, is simply not a candidate.
+    }
+  }
+  if (scored.length === 0) return null;
+  scored.sort((a, b) => a.aicc - b.aicc);
+  const bestAicc = scored[0].aicc;
+  const kept = scored.filter((s) => s.aicc - bestAicc <= maxDeltaAicc);
+  const weights = kept.map((s) => Math.exp(-(s.aicc - bestAicc) / 2));
+  const totalWeight = weights.reduce((sum, w) => sum + w, 0);
+  const predictions = (wavelengthNm: number) => kept.map((s) => s.fit.predictX(wavelengthNm));
+  const spreadX = (wavelengthNm: number) => {
+    const values = predictions(wavelengthNm);
+    return Math.max(...values) - Math.min(...values);
+  };
+  return {
+    fits: kept.map((s) => s.fit),
+    bestAicc,
+    predictX: (wavelengthNm) => predictions(wavelengthNm).reduce((sum, x, i) => sum + weights[i] * x, 0) / totalWeight,
+    spreadX,
+    predictionSigmaX: (wavelengthNm, peakSigmaX) =>
+      Math.hypot(kept[0].fit.predictionSigmaX(wavelengthNm, peakSigmaX), spreadX(wavelengthNm)),
+  };
+}
