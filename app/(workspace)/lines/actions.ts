@@ -1,0 +1,210 @@
+"use server";
+// Server actions of the line library: open the draft, add, correct, retire, restore and verify lines,
+// import a CSV (preview, then apply), and publish. Each parses its form, calls one service and maps
+// the result; the services authorise.
+import { revalidatePath } from "next/cache";
+import { redirect } from "next/navigation";
+import { z } from "zod";
+import { currentActor } from "@/lib/auth/session";
+import { AppError, unauthenticated } from "@/lib/errors";
+import {
+  addLine,
+  applyImport,
+  openDraft,
+  previewImport,
+  publishDraft,
+  restoreLine,
+  retireLine,
+  updateLine,
+  verifyLine,
+} from "@/lib/services/line-library";
+import { formError, parseForm } from "@/lib/validation/form-state";
+import {
+  IMPORT_MAX_BYTES,
+  IMPORT_MAX_LABEL,
+  importApplySchema,
+  importPreviewSchema,
+  lineAddSchema,
+  lineChangeSchema,
+  lineCorrectionSchema,
+  parseLineInputForm,
+  publishSchema,
+  toImportPreviewView,
+  toLineFormFieldErrors,
+  type ImportFormState,
+  type LineFormState,
+} from "@/lib/validation/line-forms";
+
+const CONFLICT_MESSAGE = "Someone else changed this line first. Reload to see their change.";
+
+async function actorOrThrow() {
+  const actor = await currentActor();
+  if (!actor) throw unauthenticated();
+  return actor;
+}
+
+/** Like formError, with the optimistic-locking answer (409) worded for the line library. */
+function lineFormError(error: unknown): LineFormState {
+  if (
+    (error instanceof AppError && error.code === "conflict") ||
+    (error instanceof Error && error.name === "SequelizeOptimisticLockError")
+  ) {
+    return { message: CONFLICT_MESSAGE, conflict: true };
+  }
+  const state = formError(error);
+  return { ...state, fieldErrors: toLineFormFieldErrors(state.fieldErrors) };
+}
+
+function revalidateLines() {
+  revalidatePath("/lines", "layout");
+}
+
+export async function openDraftAction(formData: FormData): Promise<void> {
+  const teamId = z.uuid().parse(formData.get("teamId"));
+  await openDraft(await actorOrThrow(), teamId);
+  revalidateLines();
+  redirect("/lines/draft");
+}
+
+export async function addLineAction(_state: LineFormState, formData: FormData): Promise<LineFormState> {
+  const { data, state } = parseForm(lineAddSchema, formData);
+  const values = parseLineInputForm(formData);
+  if (state || values.fieldErrors) {
+    return {
+      message: "Some fields need another look.",
+      fieldErrors: { ...state?.fieldErrors, ...values.fieldErrors },
+    };
+  }
+  try {
+    await addLine(await actorOrThrow(), { releaseId: data.releaseId, line: values.input, reason: data.reason });
+  } catch (error) {
+    return lineFormError(error);
+  }
+  revalidateLines();
+  return { ok: true, message: `${values.input.species} ${values.input.airNm ?? values.input.vacuumNm} nm is in the draft.` };
+}
+
+export async function correctLineAction(_state: LineFormState, formData: FormData): Promise<LineFormState> {
+  const { data, state } = parseForm(lineCorrectionSchema, formData);
+  const values = parseLineInputForm(formData);
+  if (state || values.fieldErrors) {
+    return {
+      message: "Some fields need another look.",
+      fieldErrors: { ...state?.fieldErrors, ...values.fieldErrors },
+    };
+  }
+  try {
+    await updateLine(await actorOrThrow(), {
+      lineId: data.lineId,
+      version: data.version,
+      line: values.input,
+      reason: data.reason,
+    });
+  } catch (error) {
+    return lineFormError(error);
+  }
+  revalidateLines();
+  return { ok: true, message: "The correction is in the draft." };
+}
+
+const CHANGE_DONE = { retire: "Retired in the draft.", restore: "Restored in the draft.", verify: "Marked verified." };
+
+export async function changeLineAction(_state: LineFormState, formData: FormData): Promise<LineFormState> {
+  const { data, state } = parseForm(lineChangeSchema, formData);
+  if (state) return state;
+  const change = { retire: retireLine, restore: restoreLine, verify: verifyLine }[data.change];
+  try {
+    await change(await actorOrThrow(), {
+      lineId: data.lineId,
+      version: data.version,
+      reason: data.reason,
+    });
+  } catch (error) {
+    return lineFormError(error);
+  }
+  revalidateLines();
+  return { ok: true, message: CHANGE_DONE[data.change] };
+}
+
+/** The CSV text of the import form: the chosen file, or else the pasted text. */
+async function importText(formData: FormData): Promise<string | { tooLarge: true }> {
+  const file = formData.get("file");
+  if (file instanceof File && file.size > 0) {
+    if (file.size > IMPORT_MAX_BYTES) return { tooLarge: true };
+    return file.text();
+  }
+  return String(formData.get("csv") ?? "");
+}
+
+async function previewImportStep(formData: FormData): Promise<ImportFormState> {
+  const text = await importText(formData);
+  if (typeof text !== "string") {
+    return { message: `The file is larger than ${IMPORT_MAX_LABEL}; split it into smaller files.` };
+  }
+  const { data, state } = parseForm(importPreviewSchema, toFormData({ releaseId: formData.get("releaseId"), csv: text }));
+  if (state) return state;
+  try {
+    const preview = await previewImport(await actorOrThrow(), { releaseId: data.releaseId, csvText: data.csv });
+    return { ok: true, view: toImportPreviewView(preview), csv: data.csv };
+  } catch (error) {
+    return lineFormError(error);
+  }
+}
+
+async function applyImportStep(state: ImportFormState, formData: FormData): Promise<ImportFormState> {
+  const parsed = parseForm(importApplySchema, formData);
+  if (parsed.state) return { ...state, ...parsed.state, ok: false };
+  const { data } = parsed;
+  let result: { added: number; changed: number };
+  try {
+    // The lead has seen the rejected rows in the preview: applying means "without them".
+    result = await applyImport(await actorOrThrow(), {
+      releaseId: data.releaseId,
+      csvText: data.csv,
+      fingerprint: data.fingerprint,
+      skipRejected: true,
+      reason: data.reason,
+    });
+  } catch (error) {
+    const failed = lineFormError(error);
+    if (failed.conflict) {
+      failed.message = "The draft or the file changed since this preview was made. Discard it and preview the file again.";
+    }
+    return { ...state, ...failed, ok: false };
+  }
+  revalidateLines();
+  const { added, changed } = result;
+  return {
+    ok: true,
+    message: `Applied: ${added} ${added === 1 ? "line" : "lines"} added and ${changed} changed in the draft.`,
+    applied: { added, changed },
+  };
+}
+
+/** The import form: preview a file, apply the previewed file, or discard the preview. */
+export async function importAction(state: ImportFormState, formData: FormData): Promise<ImportFormState> {
+  const intent = formData.get("intent");
+  if (intent === "apply") return applyImportStep(state, formData);
+  if (intent === "discard") return {};
+  return previewImportStep(formData);
+}
+
+export async function publishAction(_state: LineFormState, formData: FormData): Promise<LineFormState> {
+  const { data, state } = parseForm(publishSchema, formData);
+  if (state) return state;
+  let number: number | null;
+  try {
+    const release = await publishDraft(await actorOrThrow(), { releaseId: data.releaseId, notes: data.notes });
+    number = release.number;
+  } catch (error) {
+    return lineFormError(error);
+  }
+  revalidateLines();
+  redirect(`/lines?published=${number ?? ""}`);
+}
+
+function toFormData(values: Record<string, FormDataEntryValue | null>): FormData {
+  const formData = new FormData();
+  for (const [key, value] of Object.entries(values)) if (value !== null) formData.set(key, value);
+  return formData;
+}

@@ -1,0 +1,118 @@
+"use client";
+// The draft's CSV import: choose or paste a file, see the preview, then apply exactly that preview.
+// The text travels back in a hidden field with the preview's fingerprint, so the server refuses to
+// apply a file or draft that changed since the preview.
+import { useActionState, useState } from "react";
+import { Button } from "@/components/ui/button";
+import { FormMessage } from "@/components/ui/form-message";
+import { IMPORT_MAX_BYTES, IMPORT_MAX_LABEL, type ImportFormState } from "@/lib/validation/line-forms";
+import { ImportPreview } from "./import-preview";
+
+export function ImportPanel({
+  releaseId,
+  action,
+}: {
+  releaseId: string;
+  /** Previews (intent "preview"), applies (intent "apply") or discards (intent "discard") an import. */
+  action: (state: ImportFormState, formData: FormData) => Promise<ImportFormState>;
+}) {
+  const [state, formAction, pending] = useActionState(action, {} as ImportFormState);
+  const [tooLarge, setTooLarge] = useState(false);
+  const errors = state.fieldErrors ?? {};
+  return (
+    <div className="flex flex-col gap-4">
+      {state.view && state.csv ? (
+        <>
+          <ImportPreview view={state.view} />
+          <form action={formAction} className="flex flex-wrap items-end gap-3 border-t border-[var(--line)] pt-3">
+            <div className="flex w-full flex-col gap-1">
+              <label htmlFor="import-reason" className="text-sm font-medium">
+                Reason for these changes
+              </label>
+              <input
+                id="import-reason"
+                name="reason"
+                placeholder="CSV import"
+                aria-describedby="import-reason-error"
+                className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1.5 text-sm"
+              />
+              <div id="import-reason-error" aria-live="polite" className="text-xs text-red-700 dark:text-red-300">
+                {errors.reason?.join(" ")}
+              </div>
+            </div>
+            <input type="hidden" name="releaseId" value={releaseId} />
+            <input type="hidden" name="csv" value={state.csv} />
+            <input type="hidden" name="fingerprint" value={state.view.preview.fingerprint} />
+            <Button type="submit" name="intent" value="apply" pending={pending} disabled={state.view.addCount + state.view.changeCount === 0}>
+              Apply these changes
+            </Button>
+            <Button type="submit" name="intent" value="discard" variant="quiet" disabled={pending}>
+              Discard the preview
+            </Button>
+            <p className="muted text-xs">
+              Applies the {state.view.addCount} additions and {state.view.changeCount} changes above to the draft, in one step; rejected rows are left out.
+            </p>
+            <div className="w-full">
+              <FormMessage message={state.message} tone={state.ok ? "ok" : "error"} />
+            </div>
+          </form>
+        </>
+      ) : (
+        <form action={formAction} className="flex flex-col gap-3" encType="multipart/form-data">
+          <input type="hidden" name="releaseId" value={releaseId} />
+          <input type="hidden" name="intent" value="preview" />
+          <div className="flex flex-col gap-1">
+            <label htmlFor="import-file" className="text-sm font-medium">
+              CSV file
+            </label>
+            <input
+              id="import-file"
+              name="file"
+              type="file"
+              accept=".csv,text/csv"
+              aria-describedby="import-file-hint import-file-error"
+              className="text-sm file:mr-3 file:rounded file:border file:border-[var(--line)] file:bg-[var(--panel)] file:px-2 file:py-1"
+              onChange={(event) => {
+                const file = event.currentTarget.files?.[0];
+                const large = Boolean(file && file.size > IMPORT_MAX_BYTES);
+                setTooLarge(large);
+                if (large) event.currentTarget.value = "";
+              }}
+            />
+            <p id="import-file-hint" className="muted text-xs">
+              Up to {IMPORT_MAX_LABEL} (the largest form this server accepts), in the columns of an exported release: a file downloaded from any release imports
+              as it is. Larger tables go in several files.
+            </p>
+            <div id="import-file-error" aria-live="polite" className="text-xs text-red-700 dark:text-red-300">
+              {tooLarge ? `That file is larger than ${IMPORT_MAX_LABEL}; split it into smaller files.` : null}
+            </div>
+          </div>
+          <div className="flex flex-col gap-1">
+            <label htmlFor="import-csv" className="text-sm font-medium">
+              Or paste the CSV
+            </label>
+            <textarea
+              id="import-csv"
+              name="csv"
+              rows={5}
+              spellCheck={false}
+              aria-describedby="csv-error"
+              aria-invalid={errors.csv ? true : undefined}
+              className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1.5 font-mono text-xs aria-[invalid=true]:border-red-600"
+              placeholder="species,air_nm,vacuum_nm,…,source,verified,note"
+            />
+            <div id="csv-error" aria-live="polite" className="text-xs text-red-700 dark:text-red-300">
+              {errors.csv?.join(" ")}
+            </div>
+          </div>
+          <FormMessage message={state.message} tone={state.ok ? "ok" : "error"} />
+          <div>
+            <Button type="submit" pending={pending} disabled={tooLarge}>
+              Preview the import
+            </Button>
+          </div>
+        </form>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,76 @@
+// A line's history from the audit trail: who did what, when, in which release, why, and what changed.
+import type { LineHistoryEntry } from "@/lib/services/line-library-types";
+
+const ACTION_LABELS: Record<string, string> = {
+  "line.add": "added",
+  "line.update": "corrected",
+  "line.retire": "retired",
+  "line.restore": "restored",
+  "line.verify": "marked verified",
+  "line.import": "imported",
+  "line.import.add": "added by import",
+  "line.import.update": "changed by import",
+  "release.publish": "published",
+};
+
+// Audit payloads carry bookkeeping next to the line's values; these are not changes of the line.
+const BOOKKEEPING = new Set(["releaseId", "fields", "element", "ionStage", "lineKey", "id", "version"]);
+
+function show(value: unknown): string {
+  if (value === null || value === undefined || value === "") return "–";
+  if (Array.isArray(value)) return value.length ? value.join(", ") : "–";
+  if (typeof value === "object") {
+    const entries = Object.entries(value as Record<string, unknown>);
+    return entries.length ? entries.map(([k, v]) => `${k} ${show(v)}`).join(", ") : "–";
+  }
+  return String(value);
+}
+
+/** The fields an event changed, with their values before and after. */
+function changesOf(entry: LineHistoryEntry): { field: string; before: string; after: string }[] {
+  const before = (entry.before && typeof entry.before === "object" ? entry.before : {}) as Record<string, unknown>;
+  const after = (entry.after && typeof entry.after === "object" ? entry.after : {}) as Record<string, unknown>;
+  const named = Array.isArray(after.fields) ? (after.fields as string[]) : null;
+  const keys = named ?? [...new Set([...Object.keys(before), ...Object.keys(after)])];
+  return keys
+    .filter((key) => !BOOKKEEPING.has(key))
+    .map((field) => ({ field, before: show(before[field]), after: show(after[field]) }))
+    .filter((c) => c.before !== c.after);
+}
+
+export function LineHistory({ entries }: { entries: LineHistoryEntry[] }) {
+  if (entries.length === 0) return <p className="muted text-sm">No change of this line is recorded; it came with the starter table.</p>;
+  return (
+    <ol className="divide-line text-sm" data-testid="line-history">
+      {entries.map((entry, index) => {
+        const changes = changesOf(entry);
+        const isAdd = entry.action.endsWith("add");
+        return (
+          <li key={`${entry.at}-${index}`} className="py-2">
+            <p>
+              <span className="font-medium">{ACTION_LABELS[entry.action] ?? entry.action}</span> by {entry.actorName ?? "the system"}{" "}
+              <time dateTime={entry.at} className="muted">
+                {entry.at.slice(0, 16).replace("T", " ")} UTC
+              </time>
+              {entry.releaseNumber !== null ? <span className="muted"> · release {entry.releaseNumber}</span> : <span className="muted"> · draft</span>}
+            </p>
+            {entry.reason ? <p className="mt-0.5">Why: {entry.reason}</p> : null}
+            {changes.length > 0 && !isAdd ? (
+              <dl className="mt-1 grid grid-cols-[9rem_1fr] gap-x-3 text-xs tabular">
+                {changes.map((c) => (
+                  <div key={c.field} className="contents">
+                    <dt className="muted">{c.field}</dt>
+                    <dd>
+                      <del className="text-red-800 dark:text-red-300">{c.before}</del> <span aria-label="becomes">→</span>{" "}
+                      <ins className="font-medium text-teal-800 no-underline dark:text-teal-300">{c.after}</ins>
+                    </dd>
+                  </div>
+                ))}
+              </dl>
+            ) : null}
+          </li>
+        );
+      })}
+    </ol>
+  );
+}

@@ -1,0 +1,229 @@
+// Schemas of the line library's pages: the browse and compare search parameters, and the lab lead's
+// draft forms (a line's values, a change with its reason, an import, a publish).
+import Papa from "papaparse";
+import { z } from "zod";
+import { LINE_FLAGS, LINE_TABLE_COLUMN_NAMES, parseLineTableCsv, type LineFlag } from "@/lib/lines";
+import type { ImportPreview, LineInput, LineQuery, LineSortKey } from "@/lib/services/line-library-types";
+import type { FormState } from "./form-state";
+import { SOURCE_KINDS, type SourceKind } from "@/lib/spectrum/types";
+import type { FieldErrors } from "@/lib/errors";
+
+/** Rows per page of the browse and draft tables. */
+export const LINE_PAGE_SIZE = 100;
+
+/** The largest CSV the import accepts: next.config.js lets server actions take 2 MB bodies. */
+export const IMPORT_MAX_BYTES = 2 * 1024 * 1024;
+export const IMPORT_MAX_LABEL = "2 MB";
+
+const SORT_KEYS = ["wavelength", "species", "intensity"] as const satisfies readonly LineSortKey[];
+
+// A bad or empty search parameter is dropped rather than failing the page, so that a hand-edited
+// link still shows the table.
+const optionalText = z
+  .string()
+  .trim()
+  .max(40)
+  .transform((s) => s || undefined)
+  .optional()
+  .catch(undefined);
+const optionalNm = z.coerce.number().positive().max(100000).optional().catch(undefined);
+const first = (value: unknown) => (Array.isArray(value) ? value[0] : value === "" ? undefined : value);
+
+/** The browse table's search parameters, as they appear in the URL. */
+export const lineSearchSchema = z.object({
+  release: z.preprocess(first, z.uuid().optional().catch(undefined)),
+  species: z.preprocess(first, optionalText),
+  element: z.preprocess(first, optionalText),
+  minNm: z.preprocess(first, optionalNm),
+  maxNm: z.preprocess(first, optionalNm),
+  source: z.preprocess(first, z.enum(SOURCE_KINDS as [SourceKind, ...SourceKind[]]).optional().catch(undefined)),
+  flag: z.preprocess(first, z.enum(LINE_FLAGS as [LineFlag, ...LineFlag[]]).optional().catch(undefined)),
+  verified: z.preprocess(first, z.enum(["yes", "no"]).optional().catch(undefined)),
+  sort: z.preprocess(first, z.enum(SORT_KEYS).optional().catch(undefined)),
+  dir: z.preprocess(first, z.enum(["asc", "desc"]).optional().catch(undefined)),
+  page: z.preprocess(first, z.coerce.number().int().min(1).max(100000).optional().catch(undefined)),
+});
+
+export type LineSearch = z.infer<typeof lineSearchSchema>;
+
+/** The search parameters of a page, parsed; never throws. */
+export function parseLineSearch(params: Record<string, string | string[] | undefined>): LineSearch {
+  return lineSearchSchema.parse(params);
+}
+
+/** Service field names (LineInput's) → the form's input names (the CSV columns). */
+const INPUT_OF_FIELD: Record<string, string> = {
+  airNm: "air_nm",
+  vacuumNm: "vacuum_nm",
+  uncertaintyNm: "uncertainty_nm",
+  lowerEv: "lower_ev",
+  upperEv: "upper_ev",
+  gUpper: "g_upper",
+  aPerS: "a_per_s",
+  "band.extentNm": "band_extent_nm",
+  "band.degradesTo": "band_degrades_to",
+};
+
+/** Field errors from the service, renamed to the inputs of the line form. */
+export function toLineFormFieldErrors(fieldErrors: FieldErrors | undefined): FieldErrors | undefined {
+  if (!fieldErrors) return undefined;
+  const renamed: FieldErrors = {};
+  for (const [field, messages] of Object.entries(fieldErrors)) {
+    const input = INPUT_OF_FIELD[field] ?? (field.startsWith("intensities.") ? `intensity_${field.slice(12)}` : field);
+    (renamed[input] ??= []).push(...messages);
+  }
+  return renamed;
+}
+
+/** The service query for a parsed search, in one team. */
+export function toLineQuery(teamId: string, search: LineSearch, releaseId = search.release): LineQuery {
+  return {
+    teamId,
+    releaseId,
+    species: search.species,
+    element: search.element,
+    minNm: search.minNm,
+    maxNm: search.maxNm,
+    source: search.source,
+    flag: search.flag,
+    verified: search.verified === undefined ? undefined : search.verified === "yes",
+    sort: search.sort ?? "wavelength",
+    direction: search.dir ?? (search.sort === "intensity" ? "desc" : "asc"),
+    page: search.page ?? 1,
+    pageSize: LINE_PAGE_SIZE,
+  };
+}
+
+/** The same search as a query string, with some parameters changed (undefined removes one). */
+export function lineSearchHref(
+  path: string,
+  search: LineSearch,
+  changes: Partial<Record<keyof LineSearch | "correct", string | number | undefined>> = {},
+): string {
+  const params = new URLSearchParams();
+  const merged: Record<string, unknown> = { ...search, ...changes };
+  for (const [key, value] of Object.entries(merged)) {
+    if (value !== undefined && value !== "") params.set(key, String(value));
+  }
+  const query = params.toString();
+  return query ? `${path}?${query}` : path;
+}
+
+/** The two releases of /lines/compare. */
+export const compareSearchSchema = z.object({
+  from: z.preprocess(first, z.uuid().optional().catch(undefined)),
+  to: z.preprocess(first, z.uuid().optional().catch(undefined)),
+});
+
+const reason = z
+  .string({ error: "Say why." })
+  .trim()
+  .min(3, "Say why, in a few words.")
+  .max(500, "Use at most 500 characters.");
+
+/** Retire, restore or mark verified: which row, its version, and why. */
+export const lineChangeSchema = z.object({
+  lineId: z.uuid(),
+  version: z.coerce.number().int().min(0),
+  change: z.enum(["retire", "restore", "verify"]),
+  reason,
+});
+
+/** The reason and lock of a correction; the values come from parseLineInputForm. */
+export const lineCorrectionSchema = z.object({
+  lineId: z.uuid(),
+  version: z.coerce.number().int().min(0),
+  reason,
+});
+
+export const lineAddSchema = z.object({ releaseId: z.uuid(), reason });
+
+export const importPreviewSchema = z.object({
+  releaseId: z.uuid(),
+  csv: z
+    .string({ error: "Choose a CSV file or paste its text." })
+    .max(IMPORT_MAX_BYTES, `The file is larger than ${IMPORT_MAX_LABEL}; split it into smaller files.`)
+    .refine((text) => text.trim().length > 0, "Choose a CSV file or paste its text."),
+});
+
+export const importApplySchema = importPreviewSchema.extend({
+  fingerprint: z.string().min(8).max(200),
+  reason: z
+    .string()
+    .trim()
+    .max(500, "Use at most 500 characters.")
+    .optional()
+    .transform((s) => s || undefined),
+});
+
+export const publishSchema = z.object({
+  releaseId: z.uuid(),
+  notes: z
+    .string({ error: "Write what changed in this release." })
+    .trim()
+    .min(3, "Write what changed in this release.")
+    .max(4000, "Use at most 4,000 characters."),
+});
+
+/**
+ * Reads a line's values from a form whose inputs are named after the CSV columns, by writing them as
+ * a one-row CSV and reading it back: the form then gets exactly the checks an imported row gets
+ * (species notation, air/vacuum agreement, energies, band fields, a required source).
+ */
+export function parseLineInputForm(
+  formData: FormData,
+): { input: LineInput; fieldErrors?: undefined } | { input?: undefined; fieldErrors: FieldErrors } {
+  const cells = LINE_TABLE_COLUMN_NAMES.map((name) => {
+    if (name === "flags") return formData.getAll("flags").map(String).join(";");
+    if (name === "verified") return "false";
+    return String(formData.get(name) ?? "").trim();
+  });
+  const csv = Papa.unparse({ fields: [...LINE_TABLE_COLUMN_NAMES], data: [cells] });
+  const { rows, errors } = parseLineTableCsv(csv);
+  if (errors.length > 0 || rows.length !== 1) {
+    const fieldErrors: FieldErrors = {};
+    for (const error of errors) (fieldErrors[error.field === "row" ? "_" : error.field] ??= []).push(error.message);
+    return { fieldErrors };
+  }
+  const { element: _element, ionStage: _ionStage, verified: _verified, ...input } = rows[0];
+  return { input };
+}
+
+/** How many rows of each group an import preview lists; the counts always cover the whole file. */
+export const PREVIEW_LIST_LIMIT = 500;
+
+/** An import preview as the page receives it: each group's first rows and the group's full count. */
+export interface ImportPreviewView {
+  preview: ImportPreview;
+  addCount: number;
+  changeCount: number;
+  errorCount: number;
+}
+
+/** A line form's state; conflict marks the answer to a stale version (someone else saved first). */
+export interface LineFormState extends FormState {
+  conflict?: boolean;
+}
+
+/** What the import form's server actions return: the preview to show and the text to apply. */
+export interface ImportFormState extends LineFormState {
+  view?: ImportPreviewView;
+  /** The CSV the preview was made from, kept in a hidden field until the lead applies it. */
+  csv?: string;
+  applied?: { added: number; changed: number };
+}
+
+/** Cuts the preview's lists so that a 300,000-row file does not travel back whole to the browser. */
+export function toImportPreviewView(preview: ImportPreview): ImportPreviewView {
+  return {
+    preview: {
+      ...preview,
+      adds: preview.adds.slice(0, PREVIEW_LIST_LIMIT),
+      changes: preview.changes.slice(0, PREVIEW_LIST_LIMIT),
+      errors: preview.errors.slice(0, PREVIEW_LIST_LIMIT),
+    },
+    addCount: preview.adds.length,
+    changeCount: preview.changes.length,
+    errorCount: preview.errors.length,
+  };
+}
