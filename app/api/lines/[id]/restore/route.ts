@@ -1,0 +1,11 @@
+// POST restores a retired draft line (version and reason in the body).
+import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { restoreLine } from "@/lib/services/line-library";
+import { idParam, lineStateSchema } from "@/lib/validation/line-schemas";
+
+export const POST = apiRoute(async (request, { params }) => {
+  const actor = await requireActor();
+  const lineId = idParam((await params).id, "No such line.");
+  const input = await parseJson(request, lineStateSchema);
+  return Response.json(await restoreLine(actor, { lineId, ...input }));
+});

@@ -1,0 +1,11 @@
+// POST marks a draft line verified against its source (version and reason in the body).
+import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { verifyLine } from "@/lib/services/line-library";
+import { idParam, lineStateSchema } from "@/lib/validation/line-schemas";
+
+export const POST = apiRoute(async (request, { params }) => {
+  const actor = await requireActor();
+  const lineId = idParam((await params).id, "No such line.");
+  const input = await parseJson(request, lineStateSchema);
+  return Response.json(await verifyLine(actor, { lineId, ...input }));
+});

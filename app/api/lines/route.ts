@@ -1,0 +1,27 @@
+// GET lines of a release, filtered, sorted and paginated (default: the team's newest published release).
+import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { AppError } from "@/lib/errors";
+import { fetchLines, fetchReleases } from "@/lib/services/line-library";
+import { lineQuerySchema } from "@/lib/validation/line-schemas";
+import { zodFieldErrors } from "@/lib/validation/field-errors";
+
+export const GET = apiRoute(async (request) => {
+  const actor = await requireActor();
+  const parsed = lineQuerySchema.safeParse(Object.fromEntries(new URL(request.url).searchParams));
+  if (!parsed.success) {
+    throw new AppError("validation", "Some filters are not right.", {
+      fieldErrors: zodFieldErrors(parsed.error),
+    });
+  }
+  const { teamId: givenTeam, release, ...filters } = parsed.data;
+  const teamId = givenTeam ?? actor.memberships[0]?.teamId;
+  if (!teamId) throw new AppError("not_found", "You are not in a team yet.");
+  let releaseId: string | undefined;
+  let releaseNumber: number | undefined;
+  if (release === "draft") {
+    releaseId = (await fetchReleases(actor, teamId)).find((r) => r.status === "draft")?.id;
+    if (!releaseId) throw new AppError("not_found", "The team has no draft.");
+  } else if (typeof release === "number") releaseNumber = release;
+  else releaseId = release;
+  return Response.json(await fetchLines(actor, { teamId, releaseId, releaseNumber, ...filters }));
+});

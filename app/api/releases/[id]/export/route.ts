@@ -1,0 +1,18 @@
+// GET the release as Emberline's line-table CSV (with line_key), as a download.
+import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { exportReleaseCsv } from "@/lib/services/line-library";
+import { idParam } from "@/lib/validation/line-schemas";
+
+export const GET = apiRoute(async (_request, { params }) => {
+  const actor = await requireActor();
+  const { filename, csv } = await exportReleaseCsv(
+    actor,
+    idParam((await params).id, "No such release."),
+  );
+  return new Response(csv, {
+    headers: {
+      "content-type": "text/csv; charset=utf-8",
+      "content-disposition": `attachment; filename="${filename}"`,
+    },
+  });
+});

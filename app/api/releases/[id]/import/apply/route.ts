@@ -1,0 +1,19 @@
+// POST applies a previewed import ({csv, fingerprint, skipRejected?, reason?}) in one transaction.
+import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { applyImport } from "@/lib/services/line-library";
+import { idParam, importApplySchema, readImportBody } from "@/lib/validation/line-schemas";
+
+export const POST = apiRoute(async (request, { params }) => {
+  const actor = await requireActor();
+  const releaseId = idParam((await params).id, "No such release.");
+  const input = await readImportBody(request, importApplySchema);
+  return Response.json(
+    await applyImport(actor, {
+      releaseId,
+      csvText: input.csv,
+      fingerprint: input.fingerprint,
+      skipRejected: input.skipRejected,
+      reason: input.reason,
+    }),
+  );
+});

@@ -1,0 +1,9 @@
+// GET one release's summary.
+import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { fetchRelease } from "@/lib/services/line-library";
+import { idParam } from "@/lib/validation/line-schemas";
+
+export const GET = apiRoute(async (_request, { params }) => {
+  const actor = await requireActor();
+  return Response.json(await fetchRelease(actor, idParam((await params).id, "No such release.")));
+});

@@ -1,0 +1,174 @@
+// Schemas of the line library's API: the line query, a typed line, edits with version and reason,
+// imports, publishing and release comparison. Values are checked in full by the service (the CSV rules).
+import { z } from "zod";
+import { LINE_FLAGS, type LineFlag } from "@/lib/lines";
+import { AppError } from "@/lib/errors";
+import { zodFieldErrors } from "./field-errors";
+
+const SOURCE_KINDS = ["flame", "arc", "spark", "plasma", "lamp"] as const;
+const optionalNumber = z.number().finite().nullable().optional();
+const reason = z
+  .string({ error: "Say why you make this change." })
+  .trim()
+  .min(1, "Say why you make this change.")
+  .max(1000, "Use at most 1000 characters.");
+const version = z.number({ error: "Send the version you edited." }).int().min(0);
+
+/** Query-string numbers: blank means absent. */
+const queryNumber = z.preprocess(
+  (v) => (v === "" || v === null ? undefined : v),
+  z.coerce.number().finite().optional(),
+);
+
+export const lineQuerySchema = z
+  .object({
+    teamId: z.uuid("Choose a team.").optional(),
+    release: z.union([z.literal("draft"), z.uuid(), z.coerce.number().int().positive()]).optional(),
+    minNm: queryNumber,
+    maxNm: queryNumber,
+    vacuum: z
+      .enum(["true", "false"])
+      .transform((v) => v === "true")
+      .optional(),
+    species: z.string().trim().min(1).max(40).optional(),
+    element: z.string().trim().min(1).max(20).optional(),
+    source: z.enum(SOURCE_KINDS).optional(),
+    flag: z.enum(LINE_FLAGS as unknown as [LineFlag, ...LineFlag[]]).optional(),
+    verified: z
+      .enum(["true", "false"])
+      .transform((v) => v === "true")
+      .optional(),
+    sort: z.enum(["wavelength", "species", "intensity"]).optional(),
+    direction: z.enum(["asc", "desc"]).optional(),
+    page: z.coerce.number().int().min(1).optional(),
+    pageSize: z.coerce.number().int().min(1).max(500, "At most 500 lines per page.").optional(),
+  })
+  .refine((q) => q.minNm === undefined || q.maxNm === undefined || q.minNm <= q.maxNm, {
+    path: ["maxNm"],
+    message: "maxNm must not be below minNm.",
+  });
+
+export const lineInputSchema = z.object({
+  species: z.string({ error: "Enter the species." }).trim().min(1, "Enter the species.").max(40),
+  airNm: optionalNumber,
+  vacuumNm: optionalNumber,
+  uncertaintyNm: optionalNumber,
+  intensities: z.partialRecord(z.enum(SOURCE_KINDS), z.number().finite()).optional(),
+  lowerEv: optionalNumber,
+  upperEv: optionalNumber,
+  gUpper: optionalNumber,
+  aPerS: optionalNumber,
+  flags: z.array(z.enum(LINE_FLAGS as unknown as [LineFlag, ...LineFlag[]])).optional(),
+  band: z
+    .object({ extentNm: z.number().finite(), degradesTo: z.enum(["red", "violet"]) })
+    .nullable()
+    .optional(),
+  source: z
+    .string({ error: "Name the source." })
+    .trim()
+    .min(1, 'Name the source ("from memory" if so).')
+    .max(500),
+  note: z.string().max(2000).optional(),
+});
+
+export const addLineSchema = z.object({ line: lineInputSchema, reason });
+export const updateLineSchema = z.object({ version, line: lineInputSchema.partial(), reason });
+export const lineStateSchema = z.object({ version, reason });
+export const openDraftSchema = z.object({ teamId: z.uuid("Choose a team.") });
+export const importPreviewSchema = z.object({ csv: z.string().min(1, "The file is empty.") });
+export const importApplySchema = importPreviewSchema.extend({
+  fingerprint: z.string().min(16, "Preview the file first."),
+  skipRejected: z.boolean().optional(),
+  reason: z.string().trim().max(1000).optional(),
+});
+export const publishSchema = z.object({
+  notes: z
+    .string({ error: "Describe this release." })
+    .trim()
+    .min(1, "Describe this release.")
+    .max(5000),
+});
+export const diffQuerySchema = z.object({
+  teamId: z.uuid().optional(),
+  from: z.uuid(),
+  to: z.uuid(),
+});
+
+type ParsedLine = z.infer<typeof lineInputSchema>;
+
+/** A full typed line for the service, blanks as null. */
+export function toLineInput(line: ParsedLine) {
+  return {
+    species: line.species,
+    airNm: line.airNm ?? null,
+    vacuumNm: (line.vacuumNm ?? null) as number,
+    uncertaintyNm: line.uncertaintyNm ?? null,
+    intensities: line.intensities ?? {},
+    lowerEv: line.lowerEv ?? null,
+    upperEv: line.upperEv ?? null,
+    gUpper: line.gUpper ?? null,
+    aPerS: line.aPerS ?? null,
+    flags: (line.flags ?? []) as LineFlag[],
+    band: line.band ?? null,
+    source: line.source,
+    note: line.note ?? "",
+  };
+}
+
+/** Only the fields an edit sent (absent stays absent, so the service keeps the current value). */
+export function toLineChanges(line: Partial<ParsedLine>) {
+  const changes: Record<string, unknown> = {};
+  for (const [key, value] of Object.entries(line)) {
+    if (value === undefined) continue;
+    changes[key] = value;
+  }
+  return changes as Partial<ReturnType<typeof toLineInput>>;
+}
+
+/** A route's id segment; anything but a UUID is "not found", never a database error. */
+export function idParam(value: string | undefined, what = "No such record."): string {
+  if (!value || !z.uuid().safeParse(value).success) throw new AppError("not_found", what);
+  return value;
+}
+
+const MAX_IMPORT_BODY_BYTES = 6 * 1024 * 1024;
+
+/**
+ * An import body: JSON checked by `schema`, or the file itself as text/csv (then fingerprint,
+ * skipRejected and reason come from the query string).
+ */
+export async function readImportBody<T extends z.ZodType<{ csv: string }>>(
+  request: Request,
+  schema: T = importPreviewSchema as unknown as T,
+): Promise<z.infer<T>> {
+  const length = Number(request.headers.get("content-length") ?? 0);
+  if (length > MAX_IMPORT_BODY_BYTES)
+    throw new AppError("too_large", "The file is larger than 5 MB.");
+  const type = request.headers.get("content-type") ?? "";
+  const text = await request.text();
+  if (text.length > MAX_IMPORT_BODY_BYTES)
+    throw new AppError("too_large", "The file is larger than 5 MB.");
+  let body: unknown;
+  if (type.startsWith("text/csv") || type.startsWith("text/plain")) {
+    const query = new URL(request.url).searchParams;
+    body = {
+      csv: text,
+      ...(query.has("fingerprint") ? { fingerprint: query.get("fingerprint") } : {}),
+      ...(query.has("skipRejected") ? { skipRejected: query.get("skipRejected") === "true" } : {}),
+      ...(query.has("reason") ? { reason: query.get("reason") } : {}),
+    };
+  } else {
+    try {
+      body = JSON.parse(text);
+    } catch {
+      throw new AppError("validation", "Send the file as text/csv, or JSON {csv}.");
+    }
+  }
+  const parsed = schema.safeParse(body);
+  if (!parsed.success) {
+    throw new AppError("validation", "Some fields are not right.", {
+      fieldErrors: zodFieldErrors(parsed.error),
+    });
+  }
+  return parsed.data;
+}
