@@ -52,6 +52,18 @@ function FieldValue({ row, field }: { row: LineTableRow; field: string }) {
   return <>{value === "" || value === undefined ? "–" : String(value)}</>;
 }
 
+/** A change of intensities shown as one change per kind of source that differs. */
+function perKind(before: LineTableRow, after: LineTableRow, field: string): string[] {
+  if (field !== "intensities") return [field];
+  const kinds = new Set([...Object.keys(before.intensities), ...Object.keys(after.intensities)]) as Set<keyof LineTableRow["intensities"]>;
+  return [...kinds].filter((kind) => before.intensities[kind] !== after.intensities[kind]).map((kind) => `intensity_${kind}`);
+}
+
+function fieldLabel(field: string): string {
+  if (field.startsWith("intensity_")) return `intensity, ${field.slice("intensity_".length)}`;
+  return FIELD_LABELS[field] ?? field.replace(/_/g, " ");
+}
+
 function More({ shown, total }: { shown: number; total: number }) {
   if (total <= shown) return null;
   return (
@@ -131,9 +143,9 @@ export function ImportPreview({ view }: { view: ImportPreviewView }) {
                   <span className="muted">· file line {change.csvLine}</span>
                 </p>
                 <dl className="mt-0.5 grid grid-cols-[8rem_1fr] gap-x-3 text-xs tabular">
-                  {change.fields.map((field) => (
+                  {change.fields.flatMap((field) => perKind(change.before, change.after, field)).map((field) => (
                     <div key={field} className="contents">
-                      <dt className="muted">{FIELD_LABELS[field] ?? field.replace(/_/g, " ")}</dt>
+                      <dt className="muted">{fieldLabel(field)}</dt>
                       <dd>
                         <del className="text-red-800 dark:text-red-300">
                           <FieldValue row={change.before} field={field} />

@@ -7,14 +7,10 @@ const ACTION_LABELS: Record<string, string> = {
   "line.retire": "retired",
   "line.restore": "restored",
   "line.verify": "marked verified",
-  "line.import": "imported",
-  "line.import.add": "added by import",
-  "line.import.update": "changed by import",
-  "release.publish": "published",
 };
 
 // Audit payloads carry bookkeeping next to the line's values; these are not changes of the line.
-const BOOKKEEPING = new Set(["releaseId", "fields", "element", "ionStage", "lineKey", "id", "version"]);
+const BOOKKEEPING = new Set(["releaseId", "fields", "import", "element", "ionStage", "lineKey", "id", "version"]);
 
 function show(value: unknown): string {
   if (value === null || value === undefined || value === "") return "–";
@@ -34,8 +30,24 @@ function changesOf(entry: LineHistoryEntry): { field: string; before: string; af
   const keys = named ?? [...new Set([...Object.keys(before), ...Object.keys(after)])];
   return keys
     .filter((key) => !BOOKKEEPING.has(key))
-    .map((field) => ({ field, before: show(before[field]), after: show(after[field]) }))
+    .flatMap((field) => {
+      // Intensities are one field per kind of source for a reader, not one blob.
+      if (field === "intensities") {
+        const was = (before.intensities ?? {}) as Record<string, unknown>;
+        const now = (after.intensities ?? {}) as Record<string, unknown>;
+        return [...new Set([...Object.keys(was), ...Object.keys(now)])].map((kind) => ({
+          field: `intensity, ${kind}`,
+          before: show(was[kind]),
+          after: show(now[kind]),
+        }));
+      }
+      return [{ field, before: show(before[field]), after: show(after[field]) }];
+    })
     .filter((c) => c.before !== c.after);
+}
+
+function isImport(entry: LineHistoryEntry): boolean {
+  return Boolean(entry.after && typeof entry.after === "object" && (entry.after as { import?: unknown }).import);
 }
 
 export function LineHistory({ entries }: { entries: LineHistoryEntry[] }) {
@@ -48,7 +60,10 @@ export function LineHistory({ entries }: { entries: LineHistoryEntry[] }) {
         return (
           <li key={`${entry.at}-${index}`} className="py-2">
             <p>
-              <span className="font-medium">{ACTION_LABELS[entry.action] ?? entry.action}</span> by {entry.actorName ?? "the system"}{" "}
+              <span className="font-medium">
+                {ACTION_LABELS[entry.action] ?? entry.action}
+                {isImport(entry) ? " by CSV import" : ""}
+              </span> by {entry.actorName ?? "the system"}{" "}
               <time dateTime={entry.at} className="muted">
                 {entry.at.slice(0, 16).replace("T", " ")} UTC
               </time>
