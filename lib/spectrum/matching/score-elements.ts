@@ -2,7 +2,6 @@
 
 import type { CalibratedPeak, ReferenceLine, SourceKind } from "../types";
 import type { LineCandidate, PeakMatch } from "./match-peaks-to-lines";
-import { collectAtLeast } from "./collect-at-least";
 import { countAtLeast } from "./count-at-least";
 import { lowerBound } from "./lower-bound";
 import { sumAtLeast } from "./sum-at-least";
