@@ -4,7 +4,7 @@
 import { randomUUID } from "node:crypto";
 import type { LineFlag, LineTableRow } from "@/lib/lines";
 import type { SourceKind } from "@/lib/spectrum/types";
-import type { LineInput, LineRecord, ReleaseSummary } from "./line-library-types";
+import type { LineInput, LineQuery, LineRecord, ReleaseSummary } from "./line-library-types";
 
 /** A row of `lines` joined with the verifier's name, as the SELECTs below return it. */
 export interface LineDbRow {
@@ -305,4 +305,66 @@ function canonical(value: unknown): string {
 /** Names of the LineTableRow fields whose values differ (verification is not a value). */
 export function differingFields(before: LineTableRow, after: LineTableRow): string[] {
   return COMPARED_FIELDS.filter((field) => canonical(before[field]) !== canonical(after[field]));
+}
+
+export const TABULATED_NM = "coalesce(l.air_nm, l.vacuum_nm)";
+
+/** WHERE clause and bind values of a line query; the count uses the same clause. */
+export function lineFilter(
+  releaseId: string,
+  query: LineQuery,
+): { where: string; bind: unknown[] } {
+  const bind: unknown[] = [releaseId];
+  const clauses = ["l.release_id = $1"];
+  const add = (clause: (n: string) => string, value: unknown) => {
+    bind.push(value);
+    clauses.push(clause(`$${bind.length}`));
+  };
+  const wavelength = query.vacuum ? "l.vacuum_nm" : TABULATED_NM;
+  if (query.minNm !== undefined) add((p) => `${wavelength} >= ${p}`, query.minNm);
+  if (query.maxNm !== undefined) add((p) => `${wavelength} <= ${p}`, query.maxNm);
+  if (query.species) add((p) => `l.species = ${p}`, query.species);
+  if (query.element) add((p) => `l.element = ${p}`, query.element);
+  if (query.source) {
+    const column = INTENSITY_COLUMNS.find(([kind]) => kind === query.source)![1];
+    clauses.push(`l.${column} IS NOT NULL`);
+  }
+  if (query.flag) add((p) => `${p} = ANY (l.flags)`, query.flag);
+  if (query.verified !== undefined)
+    clauses.push(query.verified ? "l.verified_at IS NOT NULL" : "l.verified_at IS NULL");
+  return { where: clauses.join(" AND "), bind };
+}
+
+export function lineOrder(query: LineQuery): string {
+  const direction = query.direction === "desc" ? "DESC" : "ASC";
+  const wavelength = query.vacuum ? "l.vacuum_nm" : TABULATED_NM;
+  switch (query.sort ?? "wavelength") {
+    case "species":
+      return `l.species ${direction}, l.vacuum_nm ${direction}, l.id`;
+    case "intensity": {
+      const column = query.source
+        ? `l.${INTENSITY_COLUMNS.find(([kind]) => kind === query.source)![1]}`
+        : `greatest(${INTENSITY_COLUMNS.map(([, c]) => `l.${c}`).join(", ")})`;
+      // Strongest first reads naturally, so "asc" is the default only for wavelength and species.
+      return `${column} ${query.direction === "asc" ? "ASC" : "DESC"} NULLS LAST, l.vacuum_nm, l.id`;
+    }
+    default:
+      return `${wavelength} ${direction}, l.id`;
+  }
+}
+
+/** The page query and the count query of a line query (same filter, same bind values). */
+export function lineQuerySql(
+  releaseId: string,
+  query: LineQuery,
+  page: number,
+  pageSize: number,
+): { select: string; count: string; bind: unknown[] } {
+  const { where, bind } = lineFilter(releaseId, query);
+  return {
+    select: `SELECT ${LINE_SELECT} FROM ${LINE_FROM} WHERE ${where}
+      ORDER BY ${lineOrder(query)} LIMIT ${Math.trunc(pageSize)} OFFSET ${Math.trunc((page - 1) * pageSize)}`,
+    count: `SELECT count(*) AS total FROM lines l WHERE ${where}`,
+    bind,
+  };
 }

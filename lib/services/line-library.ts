@@ -13,11 +13,12 @@ import Papa from "papaparse";
 import { Membership, User, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import {
-  INTENSITY_COLUMNS,
   RELEASE_FROM,
   RELEASE_SELECT,
   VALUE_COLUMNS,
+  TABULATED_NM,
   differingFields,
+  lineQuerySql,
   recordToInput,
   toLineRecord,
   toLineTableRow,
@@ -83,49 +84,6 @@ async function resolveQueryRelease(actor: Actor, query: LineQuery): Promise<Rele
   return release;
 }
 
-const TABULATED_NM = "coalesce(l.air_nm, l.vacuum_nm)";
-
-/** WHERE clause and bind values of a line query; the count uses the same clause. */
-function lineFilter(releaseId: string, query: LineQuery): { where: string; bind: unknown[] } {
-  const bind: unknown[] = [releaseId];
-  const clauses = ["l.release_id = $1"];
-  const add = (clause: (n: string) => string, value: unknown) => {
-    bind.push(value);
-    clauses.push(clause(`$${bind.length}`));
-  };
-  const wavelength = query.vacuum ? "l.vacuum_nm" : TABULATED_NM;
-  if (query.minNm !== undefined) add((p) => `${wavelength} >= ${p}`, query.minNm);
-  if (query.maxNm !== undefined) add((p) => `${wavelength} <= ${p}`, query.maxNm);
-  if (query.species) add((p) => `l.species = ${p}`, query.species);
-  if (query.element) add((p) => `l.element = ${p}`, query.element);
-  if (query.source) {
-    const column = INTENSITY_COLUMNS.find(([kind]) => kind === query.source)![1];
-    clauses.push(`l.${column} IS NOT NULL`);
-  }
-  if (query.flag) add((p) => `${p} = ANY (l.flags)`, query.flag);
-  if (query.verified !== undefined)
-    clauses.push(query.verified ? "l.verified_at IS NOT NULL" : "l.verified_at IS NULL");
-  return { where: clauses.join(" AND "), bind };
-}
-
-function lineOrder(query: LineQuery): string {
-  const direction = query.direction === "desc" ? "DESC" : "ASC";
-  const wavelength = query.vacuum ? "l.vacuum_nm" : TABULATED_NM;
-  switch (query.sort ?? "wavelength") {
-    case "species":
-      return `l.species ${direction}, l.vacuum_nm ${direction}, l.id`;
-    case "intensity": {
-      const column = query.source
-        ? `l.${INTENSITY_COLUMNS.find(([kind]) => kind === query.source)![1]}`
-        : `greatest(${INTENSITY_COLUMNS.map(([, c]) => `l.${c}`).join(", ")})`;
-      // Strongest first reads naturally, so "asc" is the default only for wavelength and species.
-      return `${column} ${query.direction === "asc" ? "ASC" : "DESC"} NULLS LAST, l.vacuum_nm, l.id`;
-    }
-    default:
-      return `${wavelength} ${direction}, l.id`;
-  }
-}
-
 export async function fetchLines(actor: Actor, query: LineQuery): Promise<LinePage> {
   const release = await resolveQueryRelease(actor, query);
   const pageSize = Math.min(
@@ -133,18 +91,10 @@ export async function fetchLines(actor: Actor, query: LineQuery): Promise<LinePa
     MAX_PAGE_SIZE,
   );
   const page = Math.max(Math.trunc(query.page ?? 1), 1);
-  const { where, bind } = lineFilter(release.id, query);
+  const sql = lineQuerySql(release.id, query, page, pageSize);
   const [rows, counted] = await Promise.all([
-    selectLines(
-      where,
-      bind,
-      undefined,
-      `ORDER BY ${lineOrder(query)} LIMIT ${pageSize} OFFSET ${(page - 1) * pageSize}`,
-    ),
-    sequelize.query<{ total: string }>(`SELECT count(*) AS total FROM lines l WHERE ${where}`, {
-      bind,
-      type: QueryTypes.SELECT,
-    }),
+    sequelize.query<LineDbRow>(sql.select, { bind: sql.bind, type: QueryTypes.SELECT }),
+    sequelize.query<{ total: string }>(sql.count, { bind: sql.bind, type: QueryTypes.SELECT }),
   ]);
   return {
     release: {
