@@ -107,10 +107,10 @@ export function ImportPreview({ view }: { view: ImportPreviewView }) {
                   <td className="px-2 py-1">{csvLine}</td>
                   <td className="px-2 py-1 font-medium">{row.species}</td>
                   <td className="px-2 py-1 text-right">
-                    <Value value={row.airNm} />
+                    <Value value={row.airNm} decimals={4} />
                   </td>
                   <td className="px-2 py-1 text-right">
-                    <Value value={row.vacuumNm} />
+                    <Value value={row.vacuumNm} decimals={4} />
                   </td>
                   <td className="px-2 py-1">
                     <Flags flags={row.flags} />

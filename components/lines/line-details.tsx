@@ -19,10 +19,10 @@ export function LineDetails({ line }: { line: LineRecord }) {
         {line.species} {line.retired ? <RetiredMark /> : null}
       </Row>
       <Row label="Air wavelength">
-        <Value value={line.airNm} /> nm
+        <Value value={line.airNm} decimals={4} /> nm
       </Row>
       <Row label="Vacuum wavelength">
-        <Value value={line.vacuumNm} /> nm
+        <Value value={line.vacuumNm} decimals={4} /> nm
       </Row>
       <Row label="Uncertainty">
         ± <Value value={line.uncertaintyNm} /> nm

@@ -118,10 +118,10 @@ export function LineTable({ lines, search, path, source, lineHref, rowActions, c
                 {line.retired ? <RetiredMark /> : null}
               </th>
               <td className="px-2 py-1 text-right">
-                <Value value={line.airNm} />
+                <Value value={line.airNm} decimals={4} />
               </td>
               <td className="px-2 py-1 text-right">
-                <Value value={line.vacuumNm} />
+                <Value value={line.vacuumNm} decimals={4} />
               </td>
               <td className="px-2 py-1 text-right">
                 <Value value={line.uncertaintyNm} />

@@ -19,8 +19,19 @@ export const SOURCE_LABELS: Record<SourceKind, string> = {
   lamp: "Lamp",
 };
 
-/** A number as the table gave it, or an en dash for "not known". */
-export function Value({ value, exponent = false }: { value: number | null | undefined; exponent?: boolean }) {
+/**
+ * A number as the table gave it, or an en dash for "not known". Computed values (a vacuum wavelength
+ * converted from air) carry float noise: at most `decimals` places are shown, trailing zeros dropped.
+ */
+export function Value({
+  value,
+  exponent = false,
+  decimals = 6,
+}: {
+  value: number | null | undefined;
+  exponent?: boolean;
+  decimals?: number;
+}) {
   if (value === null || value === undefined) {
     return (
       <span className="muted" aria-label="not known">
@@ -28,15 +39,15 @@ export function Value({ value, exponent = false }: { value: number | null | unde
       </span>
     );
   }
-  return <>{exponent ? value.toExponential(2) : String(value)}</>;
+  return <>{exponent ? value.toExponential(2) : String(Number(value.toFixed(decimals)))}</>;
 }
 
 export function Flags({ flags }: { flags: LineFlag[] }) {
   if (flags.length === 0) return <span className="muted">–</span>;
   return (
-    <span className="flex flex-wrap gap-1">
+    <span className="flex gap-1">
       {flags.map((flag) => (
-        <span key={flag} className="rounded border border-[var(--line)] px-1 text-2xs leading-4">
+        <span key={flag} className="rounded border border-[var(--line)] px-1 text-2xs leading-4 whitespace-nowrap">
           {FLAG_LABELS[flag]}
         </span>
       ))}

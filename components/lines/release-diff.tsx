@@ -44,7 +44,7 @@ function LineList({ lines, testId }: { lines: LineRecord[]; testId: string }) {
         <li key={line.id} className="flex flex-wrap gap-x-3 py-1">
           <LineName line={line} />
           <span className="muted">
-            vacuum <Value value={line.vacuumNm} /> nm
+            vacuum <Value value={line.vacuumNm} decimals={4} /> nm
           </span>
           <span className="muted max-w-md truncate" title={line.source}>
             {line.source}

@@ -3,7 +3,8 @@
 // a chemist finds the new release in the picker and the added line by filtering. Screenshots go to
 // test-output/e2e/line-library-*.png.
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
-import { openBrowser, screenshot, type Session } from "./support/browser";
+import path from "node:path";
+import { openBrowser, screenshot, SCREENSHOT_DIR, type Session } from "./support/browser";
 import { LineDraftPage, LineLibraryPage } from "./pages/line-library-page";
 import { SignInPage } from "./pages/sign-in-page";
 import { WorkspaceShell } from "./pages/workspace-shell";
@@ -70,6 +71,9 @@ describe("the line library", () => {
     expect(rejection).toContain("line 4");
     expect(rejection).toContain("air_nm");
     await screenshot(page, "line-library-2-import-preview");
+    await page
+      .getByRole("region", { name: "Import a CSV" })
+      .screenshot({ path: path.join(SCREENSHOT_DIR, "line-library-2-import-preview-panel.png") });
 
     // Nothing is written before the lead applies: the draft still lacks the new line.
     expect(await page.getByTestId("line-table").getByText("827.352").count()).toBe(0);
@@ -109,8 +113,11 @@ describe("the line library", () => {
     await screenshot(page, "line-library-6-line-history");
     expect(browser.problems, browser.problems.join("\n")).toEqual([]);
 
-    // The draft is the lab leads' alone.
-    const response = await page.goto("/lines/draft");
-    expect(response?.status()).toBe(404);
+    // The draft is the lab leads' alone. The page streams behind a loading state, so the answer is
+    // the not-found page rather than a 404 status.
+    await page.goto("/lines/draft");
+    await page.getByRole("heading", { level: 1, name: "Not found" }).waitFor();
+    expect(await page.getByText("Draft of the line table").count()).toBe(0);
+    await screenshot(page, "line-library-7-chemist-draft-not-found");
   });
 });

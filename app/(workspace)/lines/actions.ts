@@ -126,14 +126,20 @@ export async function changeLineAction(_state: LineFormState, formData: FormData
   return { ok: true, message: CHANGE_DONE[data.change] };
 }
 
+/**
+ * Browsers send a form's text fields with CRLF line breaks (multipart/form-data), and a file as it
+ * is: one line-break convention keeps the preview's fingerprint valid when the text comes back.
+ */
+const oneLineBreak = (text: string) => text.replace(/\r\n?/g, "\n");
+
 /** The CSV text of the import form: the chosen file, or else the pasted text. */
 async function importText(formData: FormData): Promise<string | { tooLarge: true }> {
   const file = formData.get("file");
   if (file instanceof File && file.size > 0) {
     if (file.size > IMPORT_MAX_BYTES) return { tooLarge: true };
-    return file.text();
+    return oneLineBreak(await file.text());
   }
-  return String(formData.get("csv") ?? "");
+  return oneLineBreak(String(formData.get("csv") ?? ""));
 }
 
 async function previewImportStep(formData: FormData): Promise<ImportFormState> {
@@ -152,6 +158,7 @@ async function previewImportStep(formData: FormData): Promise<ImportFormState> {
 }
 
 async function applyImportStep(state: ImportFormState, formData: FormData): Promise<ImportFormState> {
+  formData.set("csv", oneLineBreak(String(formData.get("csv") ?? "")));
   const parsed = parseForm(importApplySchema, formData);
   if (parsed.state) return { ...state, ...parsed.state, ok: false };
   const { data } = parsed;

@@ -90,9 +90,13 @@ export class LineDraftPage {
     await this.preview.waitFor();
   }
 
+  /** Applies the previewed import; fails with the page's own message when the server refuses. */
   async apply(): Promise<void> {
     await this.applyButton.click();
-    await this.page.getByRole("status").filter({ hasText: "Applied:" }).waitFor();
+    const applied = this.page.getByRole("status").filter({ hasText: "Applied:" });
+    const refused = this.page.locator("form [role=alert]").filter({ hasText: /./ });
+    await applied.or(refused).first().waitFor();
+    if (await refused.count()) throw new Error(`The import was refused: ${await refused.first().textContent()}`);
   }
 
   /** Publishes with notes; resolves with the release number the button announced. */
