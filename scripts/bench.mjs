@@ -1,14 +1,28 @@
 // `npm run bench [-- --json]`: runs the benchmarks with tsx (no timing ever runs inside the tests).
+// The line-table bench needs PostgreSQL: the local cluster is started here (and stopped after)
+// when it is not already running; the bench builds and drops its own throwaway database.
 import { spawnSync } from "node:child_process";
 import path from "node:path";
+import { startCluster } from "../db/cluster.mjs";
 import { ensureDependencies, root } from "./bootstrap.mjs";
 
 ensureDependencies();
 const tsx = path.join(root, "node_modules", ".bin", "tsx");
 const args = process.argv.slice(2);
+const pgPort = Number(process.env.EMBERLINE_PG_PORT ?? 54329);
+const dataRoot = path.resolve(root, process.env.EMBERLINE_DATA_DIR ?? ".data");
+const cluster = await startCluster({ dataDir: path.join(dataRoot, "postgres"), port: pgPort });
+const env = {
+  ...process.env,
+  DATABASE_URL: process.env.DATABASE_URL ?? `postgres://postgres@127.0.0.1:${pgPort}/postgres`,
+};
 let status = 0;
-for (const file of ["bench/spectrum-bench.ts"]) {
-  const result = spawnSync(tsx, [file, ...args], { cwd: root, stdio: "inherit" });
-  status ||= result.status ?? 1;
+try {
+  for (const file of ["bench/spectrum-bench.ts", "bench/line-query-bench.ts"]) {
+    const result = spawnSync(tsx, [file, ...args], { cwd: root, stdio: "inherit", env });
+    status ||= result.status ?? 1;
+  }
+} finally {
+  cluster.stop();
 }
 process.exit(status);
