@@ -121,6 +121,8 @@ interface PlannedImport {
 
 /** Matches a file against the draft's rows. Pure apart from the rows it is given. */
 function planImport(releaseId: string, csvText: string, draftRows: LineDbRow[]): PlannedImport {
+  // One line-break convention: a file re-sent by a form (CRLF) keeps its preview's fingerprint.
+  csvText = csvText.replace(/\r\n?/g, "\n");
   const split = splitLineKeyColumn(csvText);
   const parsed = parseLineTableCsv(split.text);
   const errors: LineTableError[] = parsed.errors.map((error) =>
