@@ -12,7 +12,10 @@ export function DraftEntry({
 }) {
   if (draft) {
     return (
-      <Link href="/lines/draft" className="rounded bg-ember-600 px-3 py-1.5 text-sm font-medium text-white hover:bg-ember-700">
+      <Link
+        href="/lines/draft"
+        className="rounded bg-ember-600 px-3 py-1.5 text-sm font-medium text-white hover:bg-ember-700"
+      >
         Continue the draft
       </Link>
     );
@@ -20,7 +23,10 @@ export function DraftEntry({
   return (
     <form action={openAction}>
       <input type="hidden" name="teamId" value={teamId} />
-      <button type="submit" className="rounded bg-ember-600 px-3 py-1.5 text-sm font-medium text-white hover:bg-ember-700">
+      <button
+        type="submit"
+        className="rounded bg-ember-600 px-3 py-1.5 text-sm font-medium text-white hover:bg-ember-700"
+      >
         Open the draft
       </button>
     </form>

@@ -5,7 +5,11 @@
 import { useActionState, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/form-message";
-import { IMPORT_MAX_BYTES, IMPORT_MAX_LABEL, type ImportFormState } from "@/lib/validation/line-forms";
+import {
+  IMPORT_MAX_BYTES,
+  IMPORT_MAX_LABEL,
+  type ImportFormState,
+} from "@/lib/validation/line-forms";
 import { ImportPreview } from "./import-preview";
 
 export function ImportPanel({
@@ -24,7 +28,10 @@ export function ImportPanel({
       {state.view && state.csv ? (
         <>
           <ImportPreview view={state.view} />
-          <form action={formAction} className="flex flex-wrap items-end gap-3 border-t border-[var(--line)] pt-3">
+          <form
+            action={formAction}
+            className="flex flex-wrap items-end gap-3 border-t border-[var(--line)] pt-3"
+          >
             <div className="flex w-full flex-col gap-1">
               <label htmlFor="import-reason" className="text-sm font-medium">
                 Reason for these changes
@@ -36,21 +43,32 @@ export function ImportPanel({
                 aria-describedby="import-reason-error"
                 className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1.5 text-sm"
               />
-              <div id="import-reason-error" aria-live="polite" className="text-xs text-red-700 dark:text-red-300">
+              <div
+                id="import-reason-error"
+                aria-live="polite"
+                className="text-xs text-red-700 dark:text-red-300"
+              >
                 {errors.reason?.join(" ")}
               </div>
             </div>
             <input type="hidden" name="releaseId" value={releaseId} />
             <input type="hidden" name="csv" value={state.csv} />
             <input type="hidden" name="fingerprint" value={state.view.preview.fingerprint} />
-            <Button type="submit" name="intent" value="apply" pending={pending} disabled={state.view.addCount + state.view.changeCount === 0}>
+            <Button
+              type="submit"
+              name="intent"
+              value="apply"
+              pending={pending}
+              disabled={state.view.addCount + state.view.changeCount === 0}
+            >
               Apply these changes
             </Button>
             <Button type="submit" name="intent" value="discard" variant="quiet" disabled={pending}>
               Discard the preview
             </Button>
             <p className="muted text-xs">
-              Applies the {state.view.addCount} additions and {state.view.changeCount} changes above to the draft, in one step; rejected rows are left out.
+              Writes the rows above to the draft in one step ({state.view.addCount} to add,{" "}
+              {state.view.changeCount} to change); rejected rows are left out.
             </p>
             <div className="w-full">
               <FormMessage message={state.message} tone={state.ok ? "ok" : "error"} />
@@ -80,11 +98,18 @@ export function ImportPanel({
               }}
             />
             <p id="import-file-hint" className="muted text-xs">
-              Up to {IMPORT_MAX_LABEL} (the largest form this server accepts), in the columns of an exported release: a file downloaded from any release imports
-              as it is. Larger tables go in several files.
+              Up to {IMPORT_MAX_LABEL} (the largest form this server accepts), in the columns of an
+              exported release: a file downloaded from any release imports as it is. Larger tables
+              go in several files.
             </p>
-            <div id="import-file-error" aria-live="polite" className="text-xs text-red-700 dark:text-red-300">
-              {tooLarge ? `That file is larger than ${IMPORT_MAX_LABEL}; split it into smaller files.` : null}
+            <div
+              id="import-file-error"
+              aria-live="polite"
+              className="text-xs text-red-700 dark:text-red-300"
+            >
+              {tooLarge
+                ? `That file is larger than ${IMPORT_MAX_LABEL}; split it into smaller files.`
+                : null}
             </div>
           </div>
           <div className="flex flex-col gap-1">
@@ -101,7 +126,11 @@ export function ImportPanel({
               className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1.5 font-mono text-xs aria-[invalid=true]:border-red-600"
               placeholder="species,air_nm,vacuum_nm,…,source,verified,note"
             />
-            <div id="csv-error" aria-live="polite" className="text-xs text-red-700 dark:text-red-300">
+            <div
+              id="csv-error"
+              aria-live="polite"
+              className="text-xs text-red-700 dark:text-red-300"
+            >
               {errors.csv?.join(" ")}
             </div>
           </div>

@@ -44,10 +44,22 @@ function FieldValue({ row, field }: { row: LineTableRow; field: string }) {
   if (key === "flags") return <Flags flags={row.flags} />;
   if (key === "intensities") {
     const entries = Object.entries(row.intensities);
-    return <>{entries.length ? entries.map(([kind, v]) => `${SOURCE_LABELS[kind as keyof typeof SOURCE_LABELS] ?? kind} ${v}`).join(", ") : "–"}</>;
+    return (
+      <>
+        {entries.length
+          ? entries
+              .map(
+                ([kind, v]) => `${SOURCE_LABELS[kind as keyof typeof SOURCE_LABELS] ?? kind} ${v}`,
+              )
+              .join(", ")
+          : "–"}
+      </>
+    );
   }
-  if (key === "band") return <>{row.band ? `${row.band.extentNm} nm, fades to the ${row.band.degradesTo}` : "–"}</>;
-  if (typeof value === "number" || value === null) return <Value value={value} exponent={key === "aPerS"} />;
+  if (key === "band")
+    return <>{row.band ? `${row.band.extentNm} nm, fades to the ${row.band.degradesTo}` : "–"}</>;
+  if (typeof value === "number" || value === null)
+    return <Value value={value} exponent={key === "aPerS"} />;
   if (typeof value === "boolean") return <>{value ? "yes" : "no"}</>;
   return <>{value === "" || value === undefined ? "–" : String(value)}</>;
 }
@@ -55,8 +67,13 @@ function FieldValue({ row, field }: { row: LineTableRow; field: string }) {
 /** A change of intensities shown as one change per kind of source that differs. */
 function perKind(before: LineTableRow, after: LineTableRow, field: string): string[] {
   if (field !== "intensities") return [field];
-  const kinds = new Set([...Object.keys(before.intensities), ...Object.keys(after.intensities)]) as Set<keyof LineTableRow["intensities"]>;
-  return [...kinds].filter((kind) => before.intensities[kind] !== after.intensities[kind]).map((kind) => `intensity_${kind}`);
+  const kinds = new Set([
+    ...Object.keys(before.intensities),
+    ...Object.keys(after.intensities),
+  ]) as Set<keyof LineTableRow["intensities"]>;
+  return [...kinds]
+    .filter((kind) => before.intensities[kind] !== after.intensities[kind])
+    .map((kind) => `intensity_${kind}`);
 }
 
 function fieldLabel(field: string): string {
@@ -78,57 +95,61 @@ export function ImportPreview({ view }: { view: ImportPreviewView }) {
   return (
     <div className="flex flex-col gap-4" data-testid="import-preview">
       <p className="text-sm" role="status">
-        <strong>{addCount.toLocaleString("en")}</strong> to add, <strong>{changeCount.toLocaleString("en")}</strong> to change,{" "}
-        <strong>{errorCount.toLocaleString("en")}</strong> rejected, {preview.unchangedCount.toLocaleString("en")} already as in the draft.
-        Nothing is written until you apply.
+        <strong>{addCount.toLocaleString("en")}</strong> to add,{" "}
+        <strong>{changeCount.toLocaleString("en")}</strong> to change,{" "}
+        <strong>{errorCount.toLocaleString("en")}</strong> rejected;{" "}
+        {preview.unchangedCount.toLocaleString("en")} rows are already as in the draft. Nothing is
+        written until you apply.
       </p>
 
       <section aria-labelledby="preview-adds" data-testid="preview-adds">
         <h3 id="preview-adds" className="mb-1 text-sm font-semibold">
-          <span aria-hidden>＋</span> Rows to add ({addCount.toLocaleString("en")})
+          <span aria-hidden>+</span> Rows to add ({addCount.toLocaleString("en")})
         </h3>
         {addCount === 0 ? (
           <p className="muted text-sm">None.</p>
         ) : (
-          <table className="w-full text-sm tabular">
-            <thead className="muted text-left text-xs">
-              <tr>
-                <th className="px-2 py-1 font-medium">File line</th>
-                <th className="px-2 py-1 font-medium">Species</th>
-                <th className="px-2 py-1 text-right font-medium">Air nm</th>
-                <th className="px-2 py-1 text-right font-medium">Vacuum nm</th>
-                <th className="px-2 py-1 font-medium">Flags</th>
-                <th className="px-2 py-1 font-medium">Source</th>
-              </tr>
-            </thead>
-            <tbody className="divide-line">
-              {preview.adds.map(({ csvLine, row }) => (
-                <tr key={csvLine}>
-                  <td className="px-2 py-1">{csvLine}</td>
-                  <td className="px-2 py-1 font-medium">{row.species}</td>
-                  <td className="px-2 py-1 text-right">
-                    <Value value={row.airNm} decimals={4} />
-                  </td>
-                  <td className="px-2 py-1 text-right">
-                    <Value value={row.vacuumNm} decimals={4} />
-                  </td>
-                  <td className="px-2 py-1">
-                    <Flags flags={row.flags} />
-                  </td>
-                  <td className="max-w-72 truncate px-2 py-1" title={row.source}>
-                    {row.source}
-                  </td>
+          <div className="overflow-x-auto">
+            <table className="w-full text-sm tabular">
+              <thead className="muted text-left text-xs">
+                <tr>
+                  <th className="px-2 py-1 font-medium whitespace-nowrap">File line</th>
+                  <th className="px-2 py-1 font-medium">Species</th>
+                  <th className="px-2 py-1 text-right font-medium">Air nm</th>
+                  <th className="px-2 py-1 text-right font-medium">Vacuum nm</th>
+                  <th className="px-2 py-1 font-medium">Flags</th>
+                  <th className="px-2 py-1 font-medium">Source</th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
+              </thead>
+              <tbody className="divide-line">
+                {preview.adds.map(({ csvLine, row }) => (
+                  <tr key={csvLine}>
+                    <td className="px-2 py-1">{csvLine}</td>
+                    <td className="px-2 py-1 font-medium">{row.species}</td>
+                    <td className="px-2 py-1 text-right">
+                      <Value value={row.airNm} decimals={4} />
+                    </td>
+                    <td className="px-2 py-1 text-right">
+                      <Value value={row.vacuumNm} decimals={4} />
+                    </td>
+                    <td className="px-2 py-1">
+                      <Flags flags={row.flags} />
+                    </td>
+                    <td className="max-w-72 truncate px-2 py-1" title={row.source}>
+                      {row.source}
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
         )}
         <More shown={preview.adds.length} total={addCount} />
       </section>
 
       <section aria-labelledby="preview-changes" data-testid="preview-changes">
         <h3 id="preview-changes" className="mb-1 text-sm font-semibold">
-          <span aria-hidden>～</span> Rows that change ({changeCount.toLocaleString("en")})
+          <span aria-hidden>~</span> Rows that change ({changeCount.toLocaleString("en")})
         </h3>
         {changeCount === 0 ? (
           <p className="muted text-sm">None.</p>
@@ -143,20 +164,22 @@ export function ImportPreview({ view }: { view: ImportPreviewView }) {
                   <span className="muted">· file line {change.csvLine}</span>
                 </p>
                 <dl className="mt-0.5 grid grid-cols-[8rem_1fr] gap-x-3 text-xs tabular">
-                  {change.fields.flatMap((field) => perKind(change.before, change.after, field)).map((field) => (
-                    <div key={field} className="contents">
-                      <dt className="muted">{fieldLabel(field)}</dt>
-                      <dd>
-                        <del className="text-red-800 dark:text-red-300">
-                          <FieldValue row={change.before} field={field} />
-                        </del>{" "}
-                        <span aria-label="becomes">→</span>{" "}
-                        <ins className="font-medium text-teal-800 no-underline dark:text-teal-300">
-                          <FieldValue row={change.after} field={field} />
-                        </ins>
-                      </dd>
-                    </div>
-                  ))}
+                  {change.fields
+                    .flatMap((field) => perKind(change.before, change.after, field))
+                    .map((field) => (
+                      <div key={field} className="contents">
+                        <dt className="muted">{fieldLabel(field)}</dt>
+                        <dd>
+                          <del className="text-red-800 dark:text-red-300">
+                            <FieldValue row={change.before} field={field} />
+                          </del>{" "}
+                          <span aria-label="becomes">→</span>{" "}
+                          <ins className="font-medium text-teal-800 no-underline dark:text-teal-300">
+                            <FieldValue row={change.after} field={field} />
+                          </ins>
+                        </dd>
+                      </div>
+                    ))}
                 </dl>
               </li>
             ))}
@@ -173,11 +196,13 @@ export function ImportPreview({ view }: { view: ImportPreviewView }) {
           <p className="muted text-sm">None.</p>
         ) : (
           <>
-            <p className="muted mb-1 text-xs">Rejected rows are left out; fix them in the file and import it again.</p>
+            <p className="muted mb-1 text-xs">
+              Rejected rows are left out; fix them in the file and import it again.
+            </p>
             <table className="w-full text-sm tabular">
               <thead className="muted text-left text-xs">
                 <tr>
-                  <th className="px-2 py-1 font-medium">File line</th>
+                  <th className="px-2 py-1 font-medium whitespace-nowrap">File line</th>
                   <th className="px-2 py-1 font-medium">Column</th>
                   <th className="px-2 py-1 font-medium">Reason</th>
                 </tr>
@@ -185,10 +210,12 @@ export function ImportPreview({ view }: { view: ImportPreviewView }) {
               <tbody className="divide-line">
                 {preview.errors.map((error, index) => (
                   <tr key={`${error.line}-${error.field}-${index}`}>
-                    <td className="px-2 py-1">line {error.line}</td>
+                    <td className="px-2 py-1 whitespace-nowrap">line {error.line}</td>
                     <td className="px-2 py-1">
                       {error.field}
-                      {error.column ? <span className="muted"> (column {error.column})</span> : null}
+                      {error.column ? (
+                        <span className="muted"> (column {error.column})</span>
+                      ) : null}
                     </td>
                     <td className="px-2 py-1">{error.message}</td>
                   </tr>

@@ -12,7 +12,15 @@ export function LineChangeForm({
   correctHref,
   action,
 }: {
-  line: { id: string; species: string; airNm: number | null; vacuumNm: number; version: number; retired: boolean; verified: boolean };
+  line: {
+    id: string;
+    species: string;
+    airNm: number | null;
+    vacuumNm: number;
+    version: number;
+    retired: boolean;
+    verified: boolean;
+  };
   correctHref: string;
   action: (state: FormState, formData: FormData) => Promise<FormState>;
 }) {
@@ -21,11 +29,15 @@ export function LineChangeForm({
   const reasonId = `reason-${line.id}`;
   const errorId = `reason-${line.id}-error`;
   return (
-    <details className="group min-w-44 text-xs" open={Boolean(state.message) || undefined}>
+    <details className="group w-40 text-xs" open={Boolean(state.message) || undefined}>
       <summary className="cursor-pointer text-ember-700 select-none hover:underline dark:text-ember-300">
         Change<span className="sr-only"> {name}</span>…
       </summary>
-      <form action={formAction} className="mt-1 flex flex-col gap-1.5" aria-label={`Change ${name}`}>
+      <form
+        action={formAction}
+        className="mt-1 flex flex-col gap-1.5"
+        aria-label={`Change ${name}`}
+      >
         <input type="hidden" name="lineId" value={line.id} />
         <input type="hidden" name="version" value={line.version} />
         <label htmlFor={reasonId} className="font-medium">
@@ -44,16 +56,37 @@ export function LineChangeForm({
         </div>
         <div className="flex flex-wrap gap-1">
           {line.retired ? (
-            <Button type="submit" name="change" value="restore" variant="quiet" pending={pending} className="px-2 py-0.5 text-xs">
+            <Button
+              type="submit"
+              name="change"
+              value="restore"
+              variant="quiet"
+              pending={pending}
+              className="px-2 py-0.5 text-xs"
+            >
               Restore
             </Button>
           ) : (
-            <Button type="submit" name="change" value="retire" variant="danger" pending={pending} className="px-2 py-0.5 text-xs">
+            <Button
+              type="submit"
+              name="change"
+              value="retire"
+              variant="danger"
+              pending={pending}
+              className="px-2 py-0.5 text-xs"
+            >
               Retire
             </Button>
           )}
           {line.verified ? null : (
-            <Button type="submit" name="change" value="verify" variant="quiet" pending={pending} className="px-2 py-0.5 text-xs">
+            <Button
+              type="submit"
+              name="change"
+              value="verify"
+              variant="quiet"
+              pending={pending}
+              className="px-2 py-0.5 text-xs"
+            >
               Mark verified
             </Button>
           )}

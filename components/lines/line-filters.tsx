@@ -9,7 +9,15 @@ import { FLAG_LABELS, releaseLabel, SOURCE_LABELS } from "./line-values";
 
 const inputClass = "rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1 text-sm";
 
-function Labelled({ id, label, children }: { id: string; label: string; children: React.ReactNode }) {
+function Labelled({
+  id,
+  label,
+  children,
+}: {
+  id: string;
+  label: string;
+  children: React.ReactNode;
+}) {
   return (
     <div className="flex flex-col gap-0.5">
       <label htmlFor={id} className="text-xs font-medium">
@@ -36,24 +44,43 @@ export function LineFilters({
   source: SourceKind;
 }) {
   return (
-    <form method="get" action={path} role="search" aria-label="Filter lines" className="panel mb-3 flex flex-wrap items-end gap-3 p-3">
+    <form
+      method="get"
+      action={path}
+      role="search"
+      aria-label="Filter lines"
+      className="panel mb-3 flex flex-wrap items-end gap-3 p-3"
+    >
       {releases ? (
         <Labelled id="release" label="Release">
           <select id="release" name="release" defaultValue={releaseId} className={inputClass}>
             {releases.map((r) => (
               <option key={r.id} value={r.id}>
                 {releaseLabel(r)}
-                {r.publishedAt ? ` · ${r.publishedAt.slice(0, 10)}` : " · not yet published"} · {r.lineCount.toLocaleString("en")} lines
+                {r.publishedAt ? ` · ${r.publishedAt.slice(0, 10)}` : " · not yet published"} ·{" "}
+                {r.lineCount.toLocaleString("en")} lines
               </option>
             ))}
           </select>
         </Labelled>
       ) : null}
       <Labelled id="species" label="Species">
-        <input id="species" name="species" defaultValue={search.species} placeholder="Na I" className={`${inputClass} w-24`} />
+        <input
+          id="species"
+          name="species"
+          defaultValue={search.species}
+          placeholder="Na I"
+          className={`${inputClass} w-24`}
+        />
       </Labelled>
       <Labelled id="element" label="Element">
-        <input id="element" name="element" defaultValue={search.element} placeholder="Na" className={`${inputClass} w-20`} />
+        <input
+          id="element"
+          name="element"
+          defaultValue={search.element}
+          placeholder="Na"
+          className={`${inputClass} w-20`}
+        />
       </Labelled>
       <fieldset className="flex items-end gap-1">
         <legend className="text-xs font-medium">Wavelength, nm</legend>
@@ -108,7 +135,12 @@ export function LineFilters({
         </select>
       </Labelled>
       <Labelled id="verified" label="Checked">
-        <select id="verified" name="verified" defaultValue={search.verified ?? ""} className={inputClass}>
+        <select
+          id="verified"
+          name="verified"
+          defaultValue={search.verified ?? ""}
+          className={inputClass}
+        >
           <option value="">Either</option>
           <option value="yes">Verified</option>
           <option value="no">Unverified</option>
@@ -117,10 +149,16 @@ export function LineFilters({
       {search.sort ? <input type="hidden" name="sort" value={search.sort} /> : null}
       {search.dir ? <input type="hidden" name="dir" value={search.dir} /> : null}
       <div className="flex items-center gap-2">
-        <button type="submit" className="rounded bg-ember-600 px-3 py-1 text-sm font-medium text-white hover:bg-ember-700">
+        <button
+          type="submit"
+          className="rounded bg-ember-600 px-3 py-1 text-sm font-medium text-white hover:bg-ember-700"
+        >
           Show lines
         </button>
-        <Link href={releaseId && releases ? `${path}?release=${releaseId}` : path} className="text-sm underline">
+        <Link
+          href={releaseId && releases ? `${path}?release=${releaseId}` : path}
+          className="text-sm underline"
+        >
           Clear
         </Link>
       </div>

@@ -10,7 +10,16 @@ const ACTION_LABELS: Record<string, string> = {
 };
 
 // Audit payloads carry bookkeeping next to the line's values; these are not changes of the line.
-const BOOKKEEPING = new Set(["releaseId", "fields", "import", "element", "ionStage", "lineKey", "id", "version"]);
+const BOOKKEEPING = new Set([
+  "releaseId",
+  "fields",
+  "import",
+  "element",
+  "ionStage",
+  "lineKey",
+  "id",
+  "version",
+]);
 
 function show(value: unknown): string {
   if (value === null || value === undefined || value === "") return "–";
@@ -24,8 +33,14 @@ function show(value: unknown): string {
 
 /** The fields an event changed, with their values before and after. */
 function changesOf(entry: LineHistoryEntry): { field: string; before: string; after: string }[] {
-  const before = (entry.before && typeof entry.before === "object" ? entry.before : {}) as Record<string, unknown>;
-  const after = (entry.after && typeof entry.after === "object" ? entry.after : {}) as Record<string, unknown>;
+  const before = (entry.before && typeof entry.before === "object" ? entry.before : {}) as Record<
+    string,
+    unknown
+  >;
+  const after = (entry.after && typeof entry.after === "object" ? entry.after : {}) as Record<
+    string,
+    unknown
+  >;
   const named = Array.isArray(after.fields) ? (after.fields as string[]) : null;
   const keys = named ?? [...new Set([...Object.keys(before), ...Object.keys(after)])];
   return keys
@@ -47,11 +62,18 @@ function changesOf(entry: LineHistoryEntry): { field: string; before: string; af
 }
 
 function isImport(entry: LineHistoryEntry): boolean {
-  return Boolean(entry.after && typeof entry.after === "object" && (entry.after as { import?: unknown }).import);
+  return Boolean(
+    entry.after && typeof entry.after === "object" && (entry.after as { import?: unknown }).import,
+  );
 }
 
 export function LineHistory({ entries }: { entries: LineHistoryEntry[] }) {
-  if (entries.length === 0) return <p className="muted text-sm">No change of this line is recorded; it came with the starter table.</p>;
+  if (entries.length === 0)
+    return (
+      <p className="muted text-sm">
+        No change of this line is recorded; it came with the starter table.
+      </p>
+    );
   return (
     <ol className="divide-line text-sm" data-testid="line-history">
       {entries.map((entry, index) => {
@@ -63,11 +85,16 @@ export function LineHistory({ entries }: { entries: LineHistoryEntry[] }) {
               <span className="font-medium">
                 {ACTION_LABELS[entry.action] ?? entry.action}
                 {isImport(entry) ? " by CSV import" : ""}
-              </span> by {entry.actorName ?? "the system"}{" "}
+              </span>{" "}
+              by {entry.actorName ?? "the system"}{" "}
               <time dateTime={entry.at} className="muted">
                 {entry.at.slice(0, 16).replace("T", " ")} UTC
               </time>
-              {entry.releaseNumber !== null ? <span className="muted"> · release {entry.releaseNumber}</span> : <span className="muted"> · draft</span>}
+              {entry.releaseNumber !== null ? (
+                <span className="muted"> · release {entry.releaseNumber}</span>
+              ) : (
+                <span className="muted"> · draft</span>
+              )}
             </p>
             {entry.reason ? <p className="mt-0.5">Why: {entry.reason}</p> : null}
             {changes.length > 0 && !isAdd ? (
@@ -76,8 +103,11 @@ export function LineHistory({ entries }: { entries: LineHistoryEntry[] }) {
                   <div key={c.field} className="contents">
                     <dt className="muted">{c.field}</dt>
                     <dd>
-                      <del className="text-red-800 dark:text-red-300">{c.before}</del> <span aria-label="becomes">→</span>{" "}
-                      <ins className="font-medium text-teal-800 no-underline dark:text-teal-300">{c.after}</ins>
+                      <del className="text-red-800 dark:text-red-300">{c.before}</del>{" "}
+                      <span aria-label="becomes">→</span>{" "}
+                      <ins className="font-medium text-teal-800 no-underline dark:text-teal-300">
+                        {c.after}
+                      </ins>
                     </dd>
                   </div>
                 ))}

@@ -21,11 +21,16 @@ export function LinePagination({
   const windowStart = Math.max(1, Math.min(page - 3, pages - 6));
   const numbers = Array.from({ length: Math.min(7, pages) }, (_, i) => windowStart + i);
   const href = (p: number) => lineSearchHref(path, search, { page: p === 1 ? undefined : p });
-  const linkClass = "rounded border border-[var(--line)] px-2 py-0.5 hover:bg-ink-100 dark:hover:bg-ink-800";
+  const linkClass =
+    "rounded border border-[var(--line)] px-2 py-0.5 hover:bg-ink-100 dark:hover:bg-ink-800";
   return (
-    <nav aria-label="Pages" className="mt-3 flex flex-wrap items-center justify-between gap-3 text-sm">
+    <nav
+      aria-label="Pages"
+      className="mt-3 flex flex-wrap items-center justify-between gap-3 text-sm"
+    >
       <p className="muted" role="status">
-        Rows {first.toLocaleString("en")}–{last.toLocaleString("en")} of {total.toLocaleString("en")}
+        Rows {first.toLocaleString("en")}–{last.toLocaleString("en")} of{" "}
+        {total.toLocaleString("en")}
       </p>
       {pages > 1 ? (
         <ul className="flex flex-wrap items-center gap-1">
@@ -47,7 +52,10 @@ export function LinePagination({
           {numbers.map((p) => (
             <li key={p}>
               {p === page ? (
-                <span aria-current="page" className="rounded border border-ember-600 px-2 py-0.5 font-semibold">
+                <span
+                  aria-current="page"
+                  className="rounded border border-ember-600 px-2 py-0.5 font-semibold"
+                >
                   {p}
                 </span>
               ) : (

@@ -36,7 +36,13 @@ function SortHeader({
 }) {
   const current = (search.sort ?? "wavelength") === sortKey;
   const direction = search.dir ?? (search.sort === "intensity" ? "desc" : "asc");
-  const next = current ? (direction === "asc" ? "desc" : "asc") : sortKey === "intensity" ? "desc" : "asc";
+  const next = current
+    ? direction === "asc"
+      ? "desc"
+      : "asc"
+    : sortKey === "intensity"
+      ? "desc"
+      : "asc";
   return (
     <th
       scope="col"
@@ -51,13 +57,23 @@ function SortHeader({
         <span aria-hidden className={current ? "text-ember-600" : "muted"}>
           {current ? (direction === "asc" ? "▲" : "▼") : "↕"}
         </span>
-        <span className="sr-only">{current ? `sorted ${direction === "asc" ? "ascending" : "descending"}` : "sort"}</span>
+        <span className="sr-only">
+          {current ? `sorted ${direction === "asc" ? "ascending" : "descending"}` : "sort"}
+        </span>
       </Link>
     </th>
   );
 }
 
-export function LineTable({ lines, search, path, source, lineHref, rowActions, caption }: LineTableProps) {
+export function LineTable({
+  lines,
+  search,
+  path,
+  source,
+  lineHref,
+  rowActions,
+  caption,
+}: LineTableProps) {
   return (
     <div className="panel overflow-x-auto">
       <table className="w-full text-sm tabular" data-testid="line-table">
@@ -65,7 +81,13 @@ export function LineTable({ lines, search, path, source, lineHref, rowActions, c
         <thead className="muted border-b border-[var(--line)] text-left text-xs">
           <tr>
             <SortHeader label="Species" sortKey="species" search={search} path={path} />
-            <SortHeader label="Air nm" sortKey="wavelength" search={search} path={path} className="text-right" />
+            <SortHeader
+              label="Air nm"
+              sortKey="wavelength"
+              search={search}
+              path={path}
+              className="text-right"
+            />
             <th scope="col" className="px-2 py-1.5 text-right font-medium">
               Vacuum nm
             </th>
@@ -109,7 +131,10 @@ export function LineTable({ lines, search, path, source, lineHref, rowActions, c
             <tr key={line.id} className={line.retired ? "align-top opacity-70" : "align-top"}>
               <th scope="row" className="px-2 py-1 text-left font-medium whitespace-nowrap">
                 {lineHref ? (
-                  <Link href={lineHref(line)} className="text-ember-700 hover:underline dark:text-ember-300">
+                  <Link
+                    href={lineHref(line)}
+                    className="text-ember-700 hover:underline dark:text-ember-300"
+                  >
                     {line.species}
                   </Link>
                 ) : (
@@ -141,7 +166,10 @@ export function LineTable({ lines, search, path, source, lineHref, rowActions, c
               <td className="px-2 py-1">
                 <Flags flags={line.flags} />
               </td>
-              <td className="max-w-56 truncate px-2 py-1" title={line.source}>
+              <td
+                className={`truncate px-2 py-1 ${rowActions ? "max-w-36" : "max-w-56"}`}
+                title={line.source}
+              >
                 {line.source}
               </td>
               <td className="px-2 py-1 whitespace-nowrap">

@@ -47,7 +47,10 @@ export function Flags({ flags }: { flags: LineFlag[] }) {
   return (
     <span className="flex gap-1">
       {flags.map((flag) => (
-        <span key={flag} className="rounded border border-[var(--line)] px-1 text-2xs leading-4 whitespace-nowrap">
+        <span
+          key={flag}
+          className="rounded border border-[var(--line)] px-1 text-2xs leading-4 whitespace-nowrap"
+        >
           {FLAG_LABELS[flag]}
         </span>
       ))}
@@ -65,10 +68,19 @@ export function VerifiedMark({ verified }: { verified: boolean }) {
 }
 
 export function RetiredMark() {
-  return <span className="rounded border border-red-700 px-1 text-2xs text-red-700 dark:text-red-300">retired</span>;
+  return (
+    <span className="rounded border border-red-700 px-1 text-2xs text-red-700 dark:text-red-300">
+      retired
+    </span>
+  );
 }
 
 /** "Release 3" or "Draft". */
-export function releaseLabel(release: { number: number | null; status: "draft" | "published" }): string {
-  return release.status === "draft" || release.number === null ? "Draft" : `Release ${release.number}`;
+export function releaseLabel(release: {
+  number: number | null;
+  status: "draft" | "published";
+}): string {
+  return release.status === "draft" || release.number === null
+    ? "Draft"
+    : `Release ${release.number}`;
 }

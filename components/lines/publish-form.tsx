@@ -39,8 +39,9 @@ export function PublishForm({
         </div>
       </div>
       <p className="rounded border border-ember-300 bg-ember-50 p-2 text-sm text-ember-900 dark:border-ember-700 dark:bg-ink-800 dark:text-ember-100">
-        Publishing makes this draft release {nextNumber}. Everyone in the team is e-mailed, and the release is then frozen: it can never be
-        changed again, and later corrections go into a new draft. Retired lines are left out of it.
+        Publishing makes this draft release {nextNumber}. Everyone in the team is e-mailed, and the
+        release is then frozen: it can never be changed again, and later corrections go into a new
+        draft. Retired lines are left out of it.
       </p>
       <FormMessage message={state.message} tone={state.ok ? "ok" : "error"} />
       <div>

@@ -30,7 +30,10 @@ function show(line: LineRecord, field: string): string {
 
 function LineName({ line }: { line: LineRecord }) {
   return (
-    <Link href={`/lines/${encodeURIComponent(line.lineKey)}?line=${line.id}`} className="font-medium hover:underline">
+    <Link
+      href={`/lines/${encodeURIComponent(line.lineKey)}?line=${line.id}`}
+      className="font-medium hover:underline"
+    >
       {line.species} {line.airNm ?? line.vacuumNm} nm
     </Link>
   );
@@ -59,24 +62,25 @@ export function ReleaseDiffView({ diff }: { diff: ReleaseDiff }) {
   return (
     <div className="flex flex-col gap-4">
       <p className="text-sm" role="status">
-        From {releaseLabel(diff.from).toLowerCase()} to {releaseLabel(diff.to).toLowerCase()}: <strong>{diff.added.length}</strong> added,{" "}
-        <strong>{diff.removed.length}</strong> removed, <strong>{diff.changed.length}</strong> changed.
+        From {releaseLabel(diff.from).toLowerCase()} to {releaseLabel(diff.to).toLowerCase()}:{" "}
+        <strong>{diff.added.length}</strong> added, <strong>{diff.removed.length}</strong> removed,{" "}
+        <strong>{diff.changed.length}</strong> changed.
       </p>
       <section className="panel p-4" aria-labelledby="diff-added">
         <h2 id="diff-added" className="mb-1 font-semibold">
-          <span aria-hidden>＋</span> Added ({diff.added.length})
+          <span aria-hidden>+</span> Added ({diff.added.length})
         </h2>
         <LineList lines={diff.added} testId="diff-added" />
       </section>
       <section className="panel p-4" aria-labelledby="diff-removed">
         <h2 id="diff-removed" className="mb-1 font-semibold">
-          <span aria-hidden>－</span> Removed ({diff.removed.length})
+          <span aria-hidden>−</span> Removed ({diff.removed.length})
         </h2>
         <LineList lines={diff.removed} testId="diff-removed" />
       </section>
       <section className="panel p-4" aria-labelledby="diff-changed">
         <h2 id="diff-changed" className="mb-1 font-semibold">
-          <span aria-hidden>～</span> Changed ({diff.changed.length})
+          <span aria-hidden>~</span> Changed ({diff.changed.length})
         </h2>
         {diff.changed.length === 0 ? (
           <p className="muted text-sm">None.</p>
@@ -90,8 +94,11 @@ export function ReleaseDiffView({ diff }: { diff: ReleaseDiff }) {
                     <div key={field} className="contents">
                       <dt className="muted">{FIELD_LABELS[field] ?? field}</dt>
                       <dd>
-                        <del className="text-red-800 dark:text-red-300">{show(before, field)}</del> <span aria-label="becomes">→</span>{" "}
-                        <ins className="font-medium text-teal-800 no-underline dark:text-teal-300">{show(after, field)}</ins>
+                        <del className="text-red-800 dark:text-red-300">{show(before, field)}</del>{" "}
+                        <span aria-label="becomes">→</span>{" "}
+                        <ins className="font-medium text-teal-800 no-underline dark:text-teal-300">
+                          {show(after, field)}
+                        </ins>
                       </dd>
                     </div>
                   ))}

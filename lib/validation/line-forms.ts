@@ -3,7 +3,12 @@
 import Papa from "papaparse";
 import { z } from "zod";
 import { LINE_FLAGS, LINE_TABLE_COLUMN_NAMES, parseLineTableCsv, type LineFlag } from "@/lib/lines";
-import type { ImportPreview, LineInput, LineQuery, LineSortKey } from "@/lib/services/line-library-types";
+import type {
+  ImportPreview,
+  LineInput,
+  LineQuery,
+  LineSortKey,
+} from "@/lib/services/line-library-types";
 import type { FormState } from "./form-state";
 import { SOURCE_KINDS, type SourceKind } from "@/lib/spectrum/types";
 import type { FieldErrors } from "@/lib/errors";
@@ -27,7 +32,8 @@ const optionalText = z
   .optional()
   .catch(undefined);
 const optionalNm = z.coerce.number().positive().max(100000).optional().catch(undefined);
-const first = (value: unknown) => (Array.isArray(value) ? value[0] : value === "" ? undefined : value);
+const first = (value: unknown) =>
+  Array.isArray(value) ? value[0] : value === "" ? undefined : value;
 
 /** The browse table's search parameters, as they appear in the URL. */
 export const lineSearchSchema = z.object({
@@ -36,8 +42,20 @@ export const lineSearchSchema = z.object({
   element: z.preprocess(first, optionalText),
   minNm: z.preprocess(first, optionalNm),
   maxNm: z.preprocess(first, optionalNm),
-  source: z.preprocess(first, z.enum(SOURCE_KINDS as [SourceKind, ...SourceKind[]]).optional().catch(undefined)),
-  flag: z.preprocess(first, z.enum(LINE_FLAGS as [LineFlag, ...LineFlag[]]).optional().catch(undefined)),
+  source: z.preprocess(
+    first,
+    z
+      .enum(SOURCE_KINDS as [SourceKind, ...SourceKind[]])
+      .optional()
+      .catch(undefined),
+  ),
+  flag: z.preprocess(
+    first,
+    z
+      .enum(LINE_FLAGS as [LineFlag, ...LineFlag[]])
+      .optional()
+      .catch(undefined),
+  ),
   verified: z.preprocess(first, z.enum(["yes", "no"]).optional().catch(undefined)),
   sort: z.preprocess(first, z.enum(SORT_KEYS).optional().catch(undefined)),
   dir: z.preprocess(first, z.enum(["asc", "desc"]).optional().catch(undefined)),
@@ -65,18 +83,26 @@ const INPUT_OF_FIELD: Record<string, string> = {
 };
 
 /** Field errors from the service, renamed to the inputs of the line form. */
-export function toLineFormFieldErrors(fieldErrors: FieldErrors | undefined): FieldErrors | undefined {
+export function toLineFormFieldErrors(
+  fieldErrors: FieldErrors | undefined,
+): FieldErrors | undefined {
   if (!fieldErrors) return undefined;
   const renamed: FieldErrors = {};
   for (const [field, messages] of Object.entries(fieldErrors)) {
-    const input = INPUT_OF_FIELD[field] ?? (field.startsWith("intensities.") ? `intensity_${field.slice(12)}` : field);
+    const input =
+      INPUT_OF_FIELD[field] ??
+      (field.startsWith("intensities.") ? `intensity_${field.slice(12)}` : field);
     (renamed[input] ??= []).push(...messages);
   }
   return renamed;
 }
 
 /** The service query for a parsed search, in one team. */
-export function toLineQuery(teamId: string, search: LineSearch, releaseId = search.release): LineQuery {
+export function toLineQuery(
+  teamId: string,
+  search: LineSearch,
+  releaseId = search.release,
+): LineQuery {
   return {
     teamId,
     releaseId,
@@ -142,7 +168,10 @@ export const importPreviewSchema = z.object({
   releaseId: z.uuid(),
   csv: z
     .string({ error: "Choose a CSV file or paste its text." })
-    .max(IMPORT_MAX_BYTES, `The file is larger than ${IMPORT_MAX_LABEL}; split it into smaller files.`)
+    .max(
+      IMPORT_MAX_BYTES,
+      `The file is larger than ${IMPORT_MAX_LABEL}; split it into smaller files.`,
+    )
     .refine((text) => text.trim().length > 0, "Choose a CSV file or paste its text."),
 });
 
@@ -166,6 +195,19 @@ export const publishSchema = z.object({
 });
 
 /**
+ * A correction form shows both wavelengths. When the lead edits one of them, the other is left blank
+ * so that it is recomputed from the edited one (else the stale partner would fail the air/vacuum
+ * check); when neither was edited both stay as stored, so no rounding difference shows up as a change.
+ */
+export function keepEditedWavelength(formData: FormData): void {
+  const value = (name: string) => String(formData.get(name) ?? "").trim();
+  const airEdited = value("air_nm") !== value("original_air_nm");
+  const vacuumEdited = value("vacuum_nm") !== value("original_vacuum_nm");
+  if (airEdited && !vacuumEdited) formData.set("vacuum_nm", "");
+  else if (vacuumEdited && !airEdited && value("air_nm") !== "") formData.set("air_nm", "");
+}
+
+/**
  * Reads a line's values from a form whose inputs are named after the CSV columns, by writing them as
  * a one-row CSV and reading it back: the form then gets exactly the checks an imported row gets
  * (species notation, air/vacuum agreement, energies, band fields, a required source).
@@ -182,7 +224,8 @@ export function parseLineInputForm(
   const { rows, errors } = parseLineTableCsv(csv);
   if (errors.length > 0 || rows.length !== 1) {
     const fieldErrors: FieldErrors = {};
-    for (const error of errors) (fieldErrors[error.field === "row" ? "_" : error.field] ??= []).push(error.message);
+    for (const error of errors)
+      (fieldErrors[error.field === "row" ? "_" : error.field] ??= []).push(error.message);
     return { fieldErrors };
   }
   const { element: _element, ionStage: _ionStage, verified: _verified, ...input } = rows[0];

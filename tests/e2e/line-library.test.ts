@@ -81,9 +81,14 @@ describe("the line library", () => {
     await page.getByTestId("line-table").waitFor();
     await screenshot(page, "line-library-3-applied");
 
-    const number = await draft.publish("Adds Ag I 827.35 nm and raises the flame intensity of Ag I 546.55 nm.");
+    const number = await draft.publish(
+      "Adds Ag I 827.35 nm and raises the flame intensity of Ag I 546.55 nm.",
+    );
     expect(number).toBeGreaterThanOrEqual(2);
-    await page.getByRole("status").filter({ hasText: `Release ${number} is published` }).waitFor();
+    await page
+      .getByRole("status")
+      .filter({ hasText: `Release ${number} is published` })
+      .waitFor();
     expect(await library.shownRelease.textContent()).toBe(`Release ${number}`);
     await screenshot(page, "line-library-4-published");
     expect(browser.problems, browser.problems.join("\n")).toEqual([]);
@@ -104,6 +109,14 @@ describe("the line library", () => {
     expect(new URL(page.url()).searchParams.get("element")).toBe("Ag");
     await screenshot(page, "line-library-5-chemist-finds-line");
 
+    // The release's CSV export holds the new line.
+    const exportHref = await page
+      .getByRole("link", { name: `Download release ${number} as CSV` })
+      .getAttribute("href");
+    const exported = await page.request.get(exportHref ?? "");
+    expect(exported.status()).toBe(200);
+    expect(await exported.text()).toContain("827.352");
+
     // The changed line's page shows the import in its history, with the value before and after.
     await library.filter({ element: "Ag", minNm: "546.5", maxNm: "546.6" });
     await library.rows.first().getByRole("link", { name: "Ag I" }).click();
@@ -119,5 +132,67 @@ describe("the line library", () => {
     await page.getByRole("heading", { level: 1, name: "Not found" }).waitFor();
     expect(await page.getByText("Draft of the line table").count()).toBe(0);
     await screenshot(page, "line-library-7-chemist-draft-not-found");
+  });
+
+  it("asks the lab lead for a reason and refuses a change to a row someone else changed first", async () => {
+    const { page, context } = browser;
+    await signIn("lead@demo.emberline.example");
+    const library = new LineLibraryPage(page);
+    await library.goto();
+    await library.openDraft();
+    const query = "/lines/draft?element=Ag&minNm=546.5&maxNm=546.6";
+    // A second tab holds the same row at the same version, as a second lead would.
+    const other = await context.newPage();
+    await Promise.all([page.goto(query), other.goto(query)]);
+
+    const row = (p: typeof page) => p.getByTestId("line-table").locator("tbody tr").first();
+    await row(page).locator("summary").click();
+    await row(page).getByLabel("Reason").fill("Checking the retire path in the browser test.");
+    await row(page).getByRole("button", { name: "Retire" }).click();
+    await row(page).getByRole("status").filter({ hasText: "Retired in the draft." }).waitFor();
+    await row(page).getByText("retired", { exact: true }).waitFor();
+    await screenshot(page, "line-library-8-retired");
+
+    await row(other).locator("summary").click();
+    await row(other).getByLabel("Reason").fill("Marking it verified from the stale tab.");
+    await row(other).getByRole("button", { name: "Mark verified" }).click();
+    await row(other)
+      .getByRole("alert")
+      .filter({ hasText: "Someone else changed this line first. Reload to see their change." })
+      .waitFor();
+    await screenshot(other, "line-library-9-conflict");
+    await other.close();
+
+    // Restore it, so the draft is as it was.
+    await page.reload();
+    await row(page).locator("summary").click();
+    await row(page).getByLabel("Reason").fill("Undoing the browser test's retirement.");
+    await row(page).getByRole("button", { name: "Restore" }).click();
+    await row(page).getByRole("status").filter({ hasText: "Restored in the draft." }).waitFor();
+
+    // A correction: only the note changes, so the history shows that field alone.
+    await row(page).getByRole("link", { name: "Correct values" }).click();
+    const correction = page.getByRole("region", { name: /^Correct Ag I 546\.549 nm$/ });
+    await correction.waitFor();
+    await correction.getByLabel("Note").fill("Checked in the browser test.");
+    await correction
+      .getByLabel("Reason for this change")
+      .fill("Adding a note in the browser test.");
+    await correction.getByRole("button", { name: "Save the correction" }).click();
+    await correction
+      .getByRole("status")
+      .filter({ hasText: "The correction is in the draft." })
+      .waitFor();
+    await screenshot(page, "line-library-10-corrected");
+    await row(page).getByRole("link", { name: "Ag I" }).click();
+    await page
+      .getByTestId("line-history")
+      .getByText("Adding a note in the browser test.")
+      .waitFor();
+    const history =
+      (await page.getByTestId("line-history").locator("li").last().textContent()) ?? "";
+    expect(history).toContain("note");
+    expect(history).not.toContain("vacuumNm");
+    expect(browser.problems, browser.problems.join("\n")).toEqual([]);
   });
 });

@@ -24,6 +24,7 @@ import {
   IMPORT_MAX_LABEL,
   importApplySchema,
   importPreviewSchema,
+  keepEditedWavelength,
   lineAddSchema,
   lineChangeSchema,
   lineCorrectionSchema,
@@ -66,7 +67,10 @@ export async function openDraftAction(formData: FormData): Promise<void> {
   redirect("/lines/draft");
 }
 
-export async function addLineAction(_state: LineFormState, formData: FormData): Promise<LineFormState> {
+export async function addLineAction(
+  _state: LineFormState,
+  formData: FormData,
+): Promise<LineFormState> {
   const { data, state } = parseForm(lineAddSchema, formData);
   const values = parseLineInputForm(formData);
   if (state || values.fieldErrors) {
@@ -76,16 +80,27 @@ export async function addLineAction(_state: LineFormState, formData: FormData): 
     };
   }
   try {
-    await addLine(await actorOrThrow(), { releaseId: data.releaseId, line: values.input, reason: data.reason });
+    await addLine(await actorOrThrow(), {
+      releaseId: data.releaseId,
+      line: values.input,
+      reason: data.reason,
+    });
   } catch (error) {
     return lineFormError(error);
   }
   revalidateLines();
-  return { ok: true, message: `${values.input.species} ${values.input.airNm ?? values.input.vacuumNm} nm is in the draft.` };
+  return {
+    ok: true,
+    message: `${values.input.species} ${values.input.airNm ?? values.input.vacuumNm} nm is in the draft.`,
+  };
 }
 
-export async function correctLineAction(_state: LineFormState, formData: FormData): Promise<LineFormState> {
+export async function correctLineAction(
+  _state: LineFormState,
+  formData: FormData,
+): Promise<LineFormState> {
   const { data, state } = parseForm(lineCorrectionSchema, formData);
+  keepEditedWavelength(formData);
   const values = parseLineInputForm(formData);
   if (state || values.fieldErrors) {
     return {
@@ -107,9 +122,16 @@ export async function correctLineAction(_state: LineFormState, formData: FormDat
   return { ok: true, message: "The correction is in the draft." };
 }
 
-const CHANGE_DONE = { retire: "Retired in the draft.", restore: "Restored in the draft.", verify: "Marked verified." };
+const CHANGE_DONE = {
+  retire: "Retired in the draft.",
+  restore: "Restored in the draft.",
+  verify: "Marked verified.",
+};
 
-export async function changeLineAction(_state: LineFormState, formData: FormData): Promise<LineFormState> {
+export async function changeLineAction(
+  _state: LineFormState,
+  formData: FormData,
+): Promise<LineFormState> {
   const { data, state } = parseForm(lineChangeSchema, formData);
   if (state) return state;
   const change = { retire: retireLine, restore: restoreLine, verify: verifyLine }[data.change];
@@ -147,17 +169,26 @@ async function previewImportStep(formData: FormData): Promise<ImportFormState> {
   if (typeof text !== "string") {
     return { message: `The file is larger than ${IMPORT_MAX_LABEL}; split it into smaller files.` };
   }
-  const { data, state } = parseForm(importPreviewSchema, toFormData({ releaseId: formData.get("releaseId"), csv: text }));
+  const { data, state } = parseForm(
+    importPreviewSchema,
+    toFormData({ releaseId: formData.get("releaseId"), csv: text }),
+  );
   if (state) return state;
   try {
-    const preview = await previewImport(await actorOrThrow(), { releaseId: data.releaseId, csvText: data.csv });
+    const preview = await previewImport(await actorOrThrow(), {
+      releaseId: data.releaseId,
+      csvText: data.csv,
+    });
     return { ok: true, view: toImportPreviewView(preview), csv: data.csv };
   } catch (error) {
     return lineFormError(error);
   }
 }
 
-async function applyImportStep(state: ImportFormState, formData: FormData): Promise<ImportFormState> {
+async function applyImportStep(
+  state: ImportFormState,
+  formData: FormData,
+): Promise<ImportFormState> {
   formData.set("csv", oneLineBreak(String(formData.get("csv") ?? "")));
   const parsed = parseForm(importApplySchema, formData);
   if (parsed.state) return { ...state, ...parsed.state, ok: false };
@@ -175,7 +206,8 @@ async function applyImportStep(state: ImportFormState, formData: FormData): Prom
   } catch (error) {
     const failed = lineFormError(error);
     if (failed.conflict) {
-      failed.message = "The draft or the file changed since this preview was made. Discard it and preview the file again.";
+      failed.message =
+        "The draft or the file changed since this preview was made. Discard it and preview the file again.";
     }
     return { ...state, ...failed, ok: false };
   }
@@ -189,19 +221,28 @@ async function applyImportStep(state: ImportFormState, formData: FormData): Prom
 }
 
 /** The import form: preview a file, apply the previewed file, or discard the preview. */
-export async function importAction(state: ImportFormState, formData: FormData): Promise<ImportFormState> {
+export async function importAction(
+  state: ImportFormState,
+  formData: FormData,
+): Promise<ImportFormState> {
   const intent = formData.get("intent");
   if (intent === "apply") return applyImportStep(state, formData);
   if (intent === "discard") return {};
   return previewImportStep(formData);
 }
 
-export async function publishAction(_state: LineFormState, formData: FormData): Promise<LineFormState> {
+export async function publishAction(
+  _state: LineFormState,
+  formData: FormData,
+): Promise<LineFormState> {
   const { data, state } = parseForm(publishSchema, formData);
   if (state) return state;
   let number: number | null;
   try {
-    const release = await publishDraft(await actorOrThrow(), { releaseId: data.releaseId, notes: data.notes });
+    const release = await publishDraft(await actorOrThrow(), {
+      releaseId: data.releaseId,
+      notes: data.notes,
+    });
     number = release.number;
   } catch (error) {
     return lineFormError(error);

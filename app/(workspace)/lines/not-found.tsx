@@ -5,7 +5,9 @@ export default function LinesNotFound() {
   return (
     <div className="panel max-w-lg p-5">
       <h1 className="text-lg font-semibold">Not found</h1>
-      <p className="muted mt-1 text-sm">This part of the line library does not exist, or is only for the team&apos;s lab leads.</p>
+      <p className="muted mt-1 text-sm">
+        This part of the line library does not exist, or is only for the team&apos;s lab leads.
+      </p>
       <Link href="/lines" className="mt-3 inline-block text-sm underline">
         Back to the line library
       </Link>

@@ -15,12 +15,20 @@ import { openDraftAction } from "./actions";
 
 export const metadata = { title: "Line library" };
 
-export default async function LinesPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+export default async function LinesPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const { actor, team } = await requireWorkspace();
-  if (!team) return <EmptyState title="You are not in a team yet">Ask a lab lead to invite you.</EmptyState>;
+  if (!team)
+    return <EmptyState title="You are not in a team yet">Ask a lab lead to invite you.</EmptyState>;
   const params = await searchParams;
   const search = parseLineSearch(params);
-  const justPublished = typeof params.published === "string" && /^\d+$/.test(params.published) ? params.published : undefined;
+  const justPublished =
+    typeof params.published === "string" && /^\d+$/.test(params.published)
+      ? params.published
+      : undefined;
   const lead = can(actor, "lines.edit", { teamId: team.teamId });
   const releases = await fetchReleases(actor, team.teamId);
   const published = releases.filter((r) => r.status === "published");
@@ -33,11 +41,16 @@ export default async function LinesPage({ searchParams }: { searchParams: Promis
       actions={
         <>
           {published.length >= 2 ? (
-            <Link href="/lines/compare" className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800">
+            <Link
+              href="/lines/compare"
+              className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800"
+            >
               Compare releases
             </Link>
           ) : null}
-          {lead ? <DraftEntry draft={draft} openAction={openDraftAction} teamId={team.teamId} /> : null}
+          {lead ? (
+            <DraftEntry draft={draft} openAction={openDraftAction} teamId={team.teamId} />
+          ) : null}
         </>
       }
     />
@@ -54,33 +67,53 @@ export default async function LinesPage({ searchParams }: { searchParams: Promis
       </>
     );
   }
-  const releaseId = pickable.some((r) => r.id === search.release) ? search.release : (published[0] ?? pickable[0]).id;
+  const releaseId = pickable.some((r) => r.id === search.release)
+    ? search.release
+    : (published[0] ?? pickable[0]).id;
   const page = await fetchLines(actor, toLineQuery(team.teamId, search, releaseId));
   const source = search.source ?? "flame";
-  const filtered = Object.entries(search).some(([key, value]) => value !== undefined && !["release", "sort", "dir", "page"].includes(key));
+  const filtered = Object.entries(search).some(
+    ([key, value]) => value !== undefined && !["release", "sort", "dir", "page"].includes(key),
+  );
   return (
     <>
       {header}
       {justPublished ? (
-        <p role="status" className="mb-3 rounded border border-teal-700 bg-[var(--panel)] p-2 text-sm">
-          <span aria-hidden>✓ </span>Release {justPublished} is published; the team has been e-mailed.
+        <p
+          role="status"
+          className="mb-3 rounded border border-teal-700 bg-[var(--panel)] p-2 text-sm"
+        >
+          <span aria-hidden>✓ </span>Release {justPublished} is published; the team has been
+          e-mailed.
         </p>
       ) : null}
-      <LineFilters path="/lines" search={search} releases={pickable} releaseId={releaseId} source={source} />
+      <LineFilters
+        path="/lines"
+        search={search}
+        releases={pickable}
+        releaseId={releaseId}
+        source={source}
+      />
       <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2 text-sm">
         <p>
           <span className="font-semibold" data-testid="shown-release">
             {releaseLabel(page.release)}
           </span>
-          {page.release.publishedAt ? <span className="muted"> · published {page.release.publishedAt.slice(0, 10)}</span> : null}
-          {page.release.status === "draft" ? <span className="muted"> · not yet published; chemists do not see it</span> : null}
+          {page.release.publishedAt ? (
+            <span className="muted"> · published {page.release.publishedAt.slice(0, 10)}</span>
+          ) : null}
+          {page.release.status === "draft" ? (
+            <span className="muted"> · not yet published; chemists do not see it</span>
+          ) : null}
         </p>
         <a href={`/api/releases/${page.release.id}/export`} className="underline" download>
           Download {releaseLabel(page.release).toLowerCase()} as CSV
         </a>
       </div>
       {page.lines.length === 0 ? (
-        <EmptyState title={filtered ? "No line matches these filters" : "This release has no lines"}>
+        <EmptyState
+          title={filtered ? "No line matches these filters" : "This release has no lines"}
+        >
           {filtered ? (
             <>
               Widen the wavelength range or clear a filter.{" "}
@@ -103,7 +136,13 @@ export default async function LinesPage({ searchParams }: { searchParams: Promis
             caption={`Lines of ${releaseLabel(page.release)}`}
             lineHref={(line) => `/lines/${encodeURIComponent(line.lineKey)}?line=${line.id}`}
           />
-          <LinePagination path="/lines" search={{ ...search, release: releaseId }} page={page.page} pageSize={page.pageSize} total={page.total} />
+          <LinePagination
+            path="/lines"
+            search={{ ...search, release: releaseId }}
+            page={page.page}
+            pageSize={page.pageSize}
+            total={page.total}
+          />
         </>
       )}
     </>

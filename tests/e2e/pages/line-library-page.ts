@@ -34,7 +34,12 @@ export class LineLibraryPage {
   }
 
   /** Fills the GET filter form and submits it; waits for the new URL. */
-  async filter(values: { element?: string; species?: string; minNm?: string; maxNm?: string }): Promise<void> {
+  async filter(values: {
+    element?: string;
+    species?: string;
+    minNm?: string;
+    maxNm?: string;
+  }): Promise<void> {
     const form = this.page.getByRole("search", { name: "Filter lines" });
     if (values.species !== undefined) await form.getByLabel("Species").fill(values.species);
     if (values.element !== undefined) await form.getByLabel("Element").fill(values.element);
@@ -85,7 +90,11 @@ export class LineDraftPage {
 
   /** Chooses a CSV file (made in memory) and asks for the preview. */
   async previewImport(fileName: string, csv: string): Promise<void> {
-    await this.fileInput.setInputFiles({ name: fileName, mimeType: "text/csv", buffer: Buffer.from(csv, "utf8") });
+    await this.fileInput.setInputFiles({
+      name: fileName,
+      mimeType: "text/csv",
+      buffer: Buffer.from(csv, "utf8"),
+    });
     await this.previewButton.click();
     await this.preview.waitFor();
   }
@@ -96,7 +105,8 @@ export class LineDraftPage {
     const applied = this.page.getByRole("status").filter({ hasText: "Applied:" });
     const refused = this.page.locator("form [role=alert]").filter({ hasText: /./ });
     await applied.or(refused).first().waitFor();
-    if (await refused.count()) throw new Error(`The import was refused: ${await refused.first().textContent()}`);
+    if (await refused.count())
+      throw new Error(`The import was refused: ${await refused.first().textContent()}`);
   }
 
   /** Publishes with notes; resolves with the release number the button announced. */

@@ -16,7 +16,8 @@ async function orNotFound<T>(promise: Promise<T>): Promise<T> {
   try {
     return await promise;
   } catch (error) {
-    if (error instanceof AppError && (error.code === "not_found" || error.code === "validation")) notFound();
+    if (error instanceof AppError && (error.code === "not_found" || error.code === "validation"))
+      notFound();
     throw error;
   }
 }
@@ -31,7 +32,8 @@ export default async function LinePage({
   const { actor } = await requireWorkspace();
   const { lineKey } = await params;
   const { line: lineParam } = await searchParams;
-  const lineId = typeof lineParam === "string" && /^[0-9a-f-]{36}$/i.test(lineParam) ? lineParam : undefined;
+  const lineId =
+    typeof lineParam === "string" && /^[0-9a-f-]{36}$/i.test(lineParam) ? lineParam : undefined;
   const [history, line] = await Promise.all([
     orNotFound(fetchLineHistory(actor, decodeURIComponent(lineKey))),
     lineId ? orNotFound(fetchLine(actor, lineId)) : Promise.resolve(null),
@@ -62,14 +64,18 @@ export default async function LinePage({
           {line ? (
             <LineDetails line={line} />
           ) : (
-            <p className="muted text-sm">Open the line from a release&apos;s table to see its values there.</p>
+            <p className="muted text-sm">
+              Open the line from a release&apos;s table to see its values there.
+            </p>
           )}
         </section>
         <section className="panel p-4" aria-labelledby="history-heading">
           <h2 id="history-heading" className="mb-1 font-semibold">
             History
           </h2>
-          <p className="muted mb-2 text-xs">Every change of this line in every release, oldest first, from the audit trail.</p>
+          <p className="muted mb-2 text-xs">
+            Every change of this line in every release, oldest first, from the audit trail.
+          </p>
           <LineHistory entries={history} />
         </section>
       </div>

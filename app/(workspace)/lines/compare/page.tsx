@@ -13,9 +13,14 @@ export const metadata = { title: "Compare releases" };
 
 const selectClass = "rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1 text-sm";
 
-export default async function ComparePage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+export default async function ComparePage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const { actor, team } = await requireWorkspace();
-  if (!team) return <EmptyState title="You are not in a team yet">Ask a lab lead to invite you.</EmptyState>;
+  if (!team)
+    return <EmptyState title="You are not in a team yet">Ask a lab lead to invite you.</EmptyState>;
   const lead = can(actor, "lines.edit", { teamId: team.teamId });
   const all = await fetchReleases(actor, team.teamId);
   const releases = lead ? all : all.filter((r) => r.status === "published");
@@ -24,7 +29,10 @@ export default async function ComparePage({ searchParams }: { searchParams: Prom
   const known = (id: string | undefined) => (releases.some((r) => r.id === id) ? id : undefined);
   const fromId = known(asked.from) ?? published[1]?.id ?? published[0]?.id;
   const toId = known(asked.to) ?? published[0]?.id;
-  const diff = fromId && toId && fromId !== toId ? await diffReleases(actor, { teamId: team.teamId, fromId, toId }) : null;
+  const diff =
+    fromId && toId && fromId !== toId
+      ? await diffReleases(actor, { teamId: team.teamId, fromId, toId })
+      : null;
   return (
     <>
       <nav aria-label="Breadcrumb" className="muted mb-2 text-sm">
@@ -32,12 +40,22 @@ export default async function ComparePage({ searchParams }: { searchParams: Prom
           Line library
         </Link>
       </nav>
-      <PageHeader title="Compare releases" description="Which lines one release adds, removes and changes against another." />
+      <PageHeader
+        title="Compare releases"
+        description="Which lines one release adds, removes and changes against another."
+      />
       {releases.length < 2 ? (
-        <EmptyState title="There is only one release">Once a second release is published, you can compare the two here.</EmptyState>
+        <EmptyState title="There is only one release">
+          Once a second release is published, you can compare the two here.
+        </EmptyState>
       ) : (
         <>
-          <form method="get" action="/lines/compare" className="panel mb-4 flex flex-wrap items-end gap-3 p-3" aria-label="Releases to compare">
+          <form
+            method="get"
+            action="/lines/compare"
+            className="panel mb-4 flex flex-wrap items-end gap-3 p-3"
+            aria-label="Releases to compare"
+          >
             <div className="flex flex-col gap-0.5">
               <label htmlFor="from" className="text-xs font-medium">
                 From
@@ -62,11 +80,18 @@ export default async function ComparePage({ searchParams }: { searchParams: Prom
                 ))}
               </select>
             </div>
-            <button type="submit" className="rounded bg-ember-600 px-3 py-1 text-sm font-medium text-white hover:bg-ember-700">
+            <button
+              type="submit"
+              className="rounded bg-ember-600 px-3 py-1 text-sm font-medium text-white hover:bg-ember-700"
+            >
               Compare
             </button>
           </form>
-          {diff ? <ReleaseDiffView diff={diff} /> : <p className="muted text-sm">Choose two different releases.</p>}
+          {diff ? (
+            <ReleaseDiffView diff={diff} />
+          ) : (
+            <p className="muted text-sm">Choose two different releases.</p>
+          )}
         </>
       )}
     </>

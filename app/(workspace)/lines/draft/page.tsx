@@ -15,11 +15,22 @@ import { can } from "@/lib/auth/policy";
 import { fetchLine, fetchLines, fetchReleases } from "@/lib/services/line-library";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { lineSearchHref, parseLineSearch, toLineQuery } from "@/lib/validation/line-forms";
-import { addLineAction, changeLineAction, correctLineAction, importAction, openDraftAction, publishAction } from "../actions";
+import {
+  addLineAction,
+  changeLineAction,
+  correctLineAction,
+  importAction,
+  openDraftAction,
+  publishAction,
+} from "../actions";
 
 export const metadata = { title: "Draft of the line table" };
 
-export default async function DraftPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+export default async function DraftPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const { actor, team } = await requireWorkspace();
   if (!team || !can(actor, "lines.edit", { teamId: team.teamId })) notFound();
   const params = await searchParams;
@@ -32,10 +43,15 @@ export default async function DraftPage({ searchParams }: { searchParams: Promis
       <>
         <PageHeader title="Draft of the line table" />
         <EmptyState title="There is no draft open">
-          <p className="mb-3">A draft starts as a copy of the newest release; publish it when your changes are done.</p>
+          <p className="mb-3">
+            A draft starts as a copy of the newest release; publish it when your changes are done.
+          </p>
           <form action={openDraftAction}>
             <input type="hidden" name="teamId" value={team.teamId} />
-            <button type="submit" className="rounded bg-ember-600 px-3 py-1.5 text-sm font-medium text-white hover:bg-ember-700">
+            <button
+              type="submit"
+              className="rounded bg-ember-600 px-3 py-1.5 text-sm font-medium text-white hover:bg-ember-700"
+            >
               Open the draft
             </button>
           </form>
@@ -78,12 +94,15 @@ export default async function DraftPage({ searchParams }: { searchParams: Promis
           </>
         }
       />
-      <div className="grid gap-5 xl:grid-cols-2">
+      <div className="grid gap-5 xl:grid-cols-[3fr_2fr]">
         <section className="panel p-4" aria-labelledby="import-heading">
           <h2 id="import-heading" className="mb-1 font-semibold">
             Import a CSV
           </h2>
-          <p className="muted mb-3 text-sm">Rows matching a draft line by species and wavelength change it; other rows are added. You see the preview first.</p>
+          <p className="muted mb-3 text-sm">
+            Rows matching a draft line by species and wavelength change it; other rows are added.
+            You see the preview first.
+          </p>
           <ImportPanel releaseId={draft.id} action={importAction} />
         </section>
         <section className="panel p-4" aria-labelledby="publish-heading">
@@ -104,7 +123,12 @@ export default async function DraftPage({ searchParams }: { searchParams: Promis
               Close
             </Link>
           </div>
-          <LineForm releaseId={draft.id} line={correcting} action={correctLineAction} submitLabel="Save the correction" />
+          <LineForm
+            releaseId={draft.id}
+            line={correcting}
+            action={correctLineAction}
+            submitLabel="Save the correction"
+          />
         </section>
       ) : null}
 
@@ -134,7 +158,13 @@ export default async function DraftPage({ searchParams }: { searchParams: Promis
               />
             )}
           />
-          <LinePagination path="/lines/draft" search={search} page={page.page} pageSize={page.pageSize} total={page.total} />
+          <LinePagination
+            path="/lines/draft"
+            search={search}
+            page={page.page}
+            pageSize={page.pageSize}
+            total={page.total}
+          />
         </>
       )}
 
