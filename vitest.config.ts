@@ -19,6 +19,7 @@ export default defineConfig({
         test: {
           name: "unit",
           environment: "node",
+          sequence: { groupOrder: 0 },
           setupFiles: ["tests/support/fast-check-seed.ts"],
           include: ["tests/unit/**/*.test.ts"],
           exclude,
@@ -29,6 +30,9 @@ export default defineConfig({
         test: {
           name: "integration",
           environment: "node",
+          // Integration and browser tests share the demo team's data: run them one project after
+          // the other, so that one's published release is not another's surprise.
+          sequence: { groupOrder: 1 },
           include: ["tests/integration/**/*.test.ts"],
           exclude,
           fileParallelism: false,
@@ -41,6 +45,7 @@ export default defineConfig({
         test: {
           name: "e2e",
           environment: "node",
+          sequence: { groupOrder: 2 },
           include: ["tests/e2e/**/*.test.ts"],
           exclude,
           fileParallelism: false,
