@@ -58,9 +58,11 @@ export interface HartmannCalibrationModel extends CalibrationModelBase {
 /**
  * Physical prism: a ray of wavelength λ enters the prism at incidence θ₁, leaves deviated by δ(λ)
  * (Snell's law at both faces with the glass's Sellmeier n(λ)), and a camera of focal length f (in x
- * units per radian) centred on the ray of `referenceWavelengthNm` images it at
- * x = axisX + direction·f·tan(δ(λ) − δ(λref)).
- * parameters = [θ₁ (rad), f (x units), axisX (x units)] plus the apex angle (rad) when `apexFitted`.
+ * units per radian) whose axis is deviated by δ(λref) + φ images it at
+ * x = axisX + direction·f·(tan(δ(λref) − δ(λ) + φ) − tan φ), so axisX is where the ray of
+ * `referenceWavelengthNm` lands.
+ * parameters = [θ₁ (rad), f (x units), axisX (x units)], then the apex angle (rad) when `apexFitted`,
+ * then φ (rad) when `axisAngleFitted`; without φ the camera is centred on the reference ray (φ = 0).
  */
 export interface PrismCalibrationModel extends CalibrationModelBase {
   kind: "prism";
@@ -68,9 +70,18 @@ export interface PrismCalibrationModel extends CalibrationModelBase {
   /** Apex angle in degrees: as given, or the fitted value when `apexFitted`. */
   apexDeg: number;
   apexFitted: boolean;
+  /**
+   * True when the camera axis angle φ is the last parameter ("axisAngleRad"). A real instrument's
+   * camera looks wherever it was mounted; pinning its axis to one wavelength's ray bends the
+   * calibration by tenths of a nm at the ends of a wide range. Absent (models stored before it): φ = 0.
+   */
+  axisAngleFitted?: boolean;
   /** +1 when wavelength grows with x, −1 when it falls. */
   direction: 1 | -1;
-  /** The wavelength whose ray runs along the camera axis (fixed, not fitted), nm. */
+  /**
+   * The wavelength whose ray lands on axisX (the middle of the pairs' range), nm. It only names the
+   * origin of the angles when `axisAngleFitted`; otherwise the camera axis runs along its ray.
+   */
   referenceWavelengthNm: number;
 }
 

@@ -71,7 +71,7 @@ export function compareCalibrationModels(
   plans.push({ kind: "hartmann" }, { kind: "prism" });
   const candidates: CalibrationCandidate[] = [];
   for (const plan of plans) {
-    const k = parameterCount(plan.kind, plan.degree, options.fitApex ?? false);
+    const k = parameterCount(plan.kind, plan.degree, options.fitApex ?? false, options.fitAxisAngle ?? true);
     // Candidates the pairs cannot support (n < k + 1) are left out rather than listed as failures.
     if (pairs.length < k + 1) continue;
     const candidate: CalibrationCandidate = { kind: plan.kind, degree: plan.degree, parameterCount: k };

@@ -1,12 +1,14 @@
 // Fast fit of the physical prism model of one catalogue glass run forwards, x(λ), used while pairing a
-// prism: with the incidence fixed, x is a straight line in tan(δref − δ(λ)), so the camera scale and axis
-// are solved in closed form and only the incidence is searched (a scan, then golden-section search).
-// About a thousand times cheaper than fitPrismModel, which also inverts the model for residuals in nm.
+// prism and as the start of fitPrismModel: with the incidence and the camera axis angle fixed, x is a
+// straight line in the camera tangent of δref − δ(λ), so the camera scale and axis are solved in closed
+// form; the incidence is searched (a scan, then golden-section search) with the camera on the reference
+// ray, then the incidence and the axis angle are polished together by Gauss–Newton steps.
+// Far cheaper than fitPrismModel, which also inverts the model for residuals in nm.
 import { CalibrationError } from "./calibration-error";
 import type { GlassName } from "./glass-catalogue";
 import { jacobianCovariance } from "./jacobian-covariance";
 import type { ForwardHartmannPoint } from "./fit-forward-hartmann";
-import { prismDeviationRad } from "./prism-forward";
+import { cameraTangent, prismDeviationRad } from "./prism-forward";
 import { refractiveIndex } from "./refractive-index";
 
 const DEG = Math.PI / 180;
@@ -18,16 +20,26 @@ export interface FitForwardPrismOptions {
    */
   apexDeg?: number;
   /**
-   * Wavelength whose ray defines the camera axis, nm.
+   * Wavelength whose ray lands on the fitted axis position a (and, when the axis angle is not fitted,
+   * runs along the camera axis), nm.
    * @default the middle of the pairs' wavelength range (as fitPrismModel takes it)
    */
   referenceWavelengthNm?: number;
+  /**
+   * Fit the camera axis angle φ (deviation of the camera axis minus that of the reference ray). A real
+   * camera looks wherever it was mounted; with φ pinned at 0 a wide range bends by pixels in the blue.
+   * @default true
+   */
+  fitAxisAngle?: boolean;
 }
 
 /** A forward prism fit of one glass: χ², and x with its prediction interval at any λ. */
 export interface ForwardPrismFit {
   glass: GlassName;
-  /** [incidence (rad), slope b (x units per unit tan, signed by the axis direction), axis a (x units)]. */
+  /**
+   * [incidence (rad), slope b (x units per unit tangent, signed by the axis direction), axis a (x units)],
+   * then the camera axis angle φ (rad) when it was fitted.
+   */
   parameters: number[];
   chiSquare: number;
   dof: number;
@@ -49,10 +61,18 @@ function indexOrNaN(glass: GlassName, wavelengthNm: number): number {
   }
 }
 
-/** Fits x = a + b·tan(δ(n_ref) − δ(n(λ))) for one glass; throws CalibrationError when no geometry fits. */
+/** Largest camera axis angle searched, rad: far beyond any camera that still sees the spectrum. */
+const MAX_AXIS_ANGLE_RAD = 0.5;
+
+/**
+ * Fits x = a + b·(tan(δ(n_ref) − δ(n(λ)) + φ) − tan φ) for one glass (φ = 0 unless fitted); throws
+ * CalibrationError when no geometry fits.
+ */
 export function fitForwardPrism(points: readonly ForwardHartmannPoint[], glass: GlassName, options: FitForwardPrismOptions = {}): ForwardPrismFit {
-  if (!Array.isArray(points) || points.length < 4) {
-    throw new RangeError(`points must hold at least 4 pairs (3 parameters + 1), got ${points?.length}`);
+  const fitAxisAngle = options.fitAxisAngle ?? true;
+  const parameterCount = fitAxisAngle ? 4 : 3;
+  if (!Array.isArray(points) || points.length < parameterCount + 1) {
+    throw new RangeError(`points must hold at least ${parameterCount + 1} pairs (${parameterCount} parameters + 1), got ${points?.length}`);
   }
   const apexDeg = options.apexDeg ?? 60;
   if (!(apexDeg > 0 && apexDeg < 90)) throw new RangeError(`apexDeg must be in (0, 90), got ${apexDeg}`);
@@ -66,15 +86,16 @@ export function fitForwardPrism(points: readonly ForwardHartmannPoint[], glass: 
   if (!Number.isFinite(nReference) || !nOfPair.every(Number.isFinite)) {
     throw new CalibrationError("fit-failed", `${glass}: a pair's wavelength lies beyond the glass's Sellmeier range`);
   }
-  const tangentOf = (n: number, incidence: number, reference = prismDeviationRad(nReference, incidence, apexRad)) =>
-    Math.tan(reference - prismDeviationRad(n, incidence, apexRad));
+  const angleOf = (n: number, incidence: number, reference = prismDeviationRad(nReference, incidence, apexRad)) =>
+    reference - prismDeviationRad(n, incidence, apexRad);
+  const tangentOf = (n: number, incidence: number, axisAngle = 0) => cameraTangent(angleOf(n, incidence), axisAngle);
   /** The weighted straight line of x in u = tan(…) at one incidence: the profile of χ² over the incidence. */
   const profile = (incidence: number) => {
     let sw = 0, su = 0, sx = 0, suu = 0, sux = 0;
     const u: number[] = [];
     const reference = prismDeviationRad(nReference, incidence, apexRad);
     for (let i = 0; i < x.length; i++) {
-      const value = tangentOf(nOfPair[i], incidence, reference);
+      const value = Math.tan(angleOf(nOfPair[i], incidence, reference));
       if (!Number.isFinite(value)) return { chiSquare: Infinity, a: 0, b: 0 };
       const w = 1 / sigma[i] ** 2;
       u.push(value);
@@ -129,34 +150,131 @@ export function fitForwardPrism(points: readonly ForwardHartmannPoint[], glass: 
       chiRight = profile(right).chiSquare;
     }
   }
-  const incidence = (low + high) / 2;
-  const { chiSquare, a, b } = profile(incidence);
-  if (!Number.isFinite(chiSquare) || b === 0) {
+  const scannedIncidence = (low + high) / 2;
+  const scanned = profile(scannedIncidence);
+  if (!Number.isFinite(scanned.chiSquare) || scanned.b === 0) {
     throw new CalibrationError("fit-failed", `${glass}: the prism fit did not converge`);
   }
 
   const h = 1e-7;
-  /** Gradient of x(λ) in (incidence, b, a) for a glass index n. */
-  const gradient = (n: number) => {
-    const u = tangentOf(n, incidence);
-    const slope = (tangentOf(n, incidence + h) - tangentOf(n, incidence - h)) / (2 * h);
-    return [b * slope, u, 1];
+  /** Gradient of x(λ) in the parameters [incidence, b, a, (φ)] for a glass index n. */
+  const gradient = (parameters: readonly number[], n: number) => {
+    const [incidence, b, , axisAngle = 0] = parameters;
+    const angle = angleOf(n, incidence);
+    const slope = (tangentOf(n, incidence + h, axisAngle) - tangentOf(n, incidence - h, axisAngle)) / (2 * h);
+    const row = [b * slope, cameraTangent(angle, axisAngle), 1];
+    // d/dφ of tan(v + φ) − tan φ: the curvature the camera's tangent law adds away from its axis.
+    if (fitAxisAngle) row.push(b * (1 / Math.cos(angle + axisAngle) ** 2 - 1 / Math.cos(axisAngle) ** 2));
+    return row;
   };
-  const covariance = jacobianCovariance(nOfPair.map((n, i) => gradient(n).map((g) => g / sigma[i])));
-  const dof = x.length - 3;
+  const valueAt = (parameters: readonly number[], n: number) =>
+    parameters[2] + parameters[1] * tangentOf(n, parameters[0], parameters[3] ?? 0);
+
+  /**
+   * The weighted straight line of x in the camera tangent at (incidence, φ), with what a Gauss–Newton
+   * step over (incidence, φ) needs: the whitened residuals and the derivatives of the model in both
+   * angles with the line's span projected out (variable projection, Kaufman's form). Eliminating the
+   * two linear parameters leaves a two-parameter problem that converges in a few steps, where a
+   * four-parameter search crawls along the valley the strongly correlated angles make.
+   */
+  const projected = (incidence: number, axisAngle: number) => {
+    const count = x.length;
+    const w = sigma.map((s) => 1 / s);
+    const u = new Array<number>(count);
+    const du = [new Array<number>(count), new Array<number>(count)];
+    for (let i = 0; i < count; i++) {
+      const angle = angleOf(nOfPair[i], incidence);
+      u[i] = cameraTangent(angle, axisAngle);
+      du[0][i] = (tangentOf(nOfPair[i], incidence + h, axisAngle) - tangentOf(nOfPair[i], incidence - h, axisAngle)) / (2 * h);
+      du[1][i] = 1 / Math.cos(angle + axisAngle) ** 2 - 1 / Math.cos(axisAngle) ** 2;
+    }
+    // Whitened columns of the line, c₁ = w and c₂ = w·u, and the projection onto their span.
+    let s11 = 0, s12 = 0, s22 = 0;
+    for (let i = 0; i < count; i++) {
+      s11 += w[i] * w[i];
+      s12 += w[i] * w[i] * u[i];
+      s22 += w[i] * w[i] * u[i] * u[i];
+    }
+    const determinant = s11 * s22 - s12 * s12;
+    const residualOfProjection = (y: number[]) => {
+      let t1 = 0, t2 = 0;
+      for (let i = 0; i < count; i++) {
+        t1 += w[i] * y[i];
+        t2 += w[i] * u[i] * y[i];
+      }
+      const alpha = (s22 * t1 - s12 * t2) / determinant;
+      const beta = (s11 * t2 - s12 * t1) / determinant;
+      return { alpha, beta, rest: y.map((value, i) => value - alpha * w[i] - beta * w[i] * u[i]) };
+    };
+    const line = residualOfProjection(x.map((value, i) => value * w[i]));
+    const b = line.beta;
+    const columns = du.map((d) => residualOfProjection(d.map((value, i) => b * value * w[i])).rest);
+    const chi = line.rest.reduce((sum, r) => sum + r * r, 0);
+    return { a: line.alpha, b, residual: line.rest, columns, chiSquare: determinant > 0 && Number.isFinite(chi) ? chi : Infinity };
+  };
+  const polishAxisAngle = (startIncidence: number) => {
+    let incidence = startIncidence;
+    let axisAngle = 0;
+    let current = projected(incidence, axisAngle);
+    let damping = 1e-6;
+    for (let iteration = 0; iteration < 60 && Number.isFinite(current.chiSquare) && damping < 1e10; iteration++) {
+      const [j0, j1] = current.columns;
+      let a00 = 0, a01 = 0, a11 = 0, g0 = 0, g1 = 0;
+      for (let i = 0; i < x.length; i++) {
+        a00 += j0[i] * j0[i];
+        a01 += j0[i] * j1[i];
+        a11 += j1[i] * j1[i];
+        g0 += j0[i] * current.residual[i];
+        g1 += j1[i] * current.residual[i];
+      }
+      const d00 = a00 * (1 + damping);
+      const d11 = a11 * (1 + damping);
+      const determinant = d00 * d11 - a01 * a01;
+      if (!(determinant > 0)) {
+        damping *= 10;
+        continue;
+      }
+      const step0 = (d11 * g0 - a01 * g1) / determinant;
+      const step1 = (d00 * g1 - a01 * g0) / determinant;
+      const nextIncidence = incidence + step0;
+      const nextAxisAngle = axisAngle + step1;
+      const inside = nextIncidence > 1e-3 && nextIncidence < Math.PI / 2 - 1e-3 && Math.abs(nextAxisAngle) < MAX_AXIS_ANGLE_RAD;
+      const trial = inside ? projected(nextIncidence, nextAxisAngle) : undefined;
+      if (trial && trial.chiSquare < current.chiSquare) {
+        const converged = current.chiSquare - trial.chiSquare <= 1e-10 * current.chiSquare + 1e-14;
+        incidence = nextIncidence;
+        axisAngle = nextAxisAngle;
+        current = trial;
+        damping = Math.max(damping / 10, 1e-12);
+        if (converged) break;
+      } else {
+        damping *= 10;
+      }
+    }
+    return { parameters: [incidence, current.b, current.a, axisAngle], chiSquare: current.chiSquare };
+  };
+
+  let parameters = [scannedIncidence, scanned.b, scanned.a];
+  let chiSquare = scanned.chiSquare;
+  if (fitAxisAngle) {
+    const polished = polishAxisAngle(scannedIncidence);
+    if (polished.chiSquare < chiSquare) ({ parameters, chiSquare } = polished);
+  }
+  const covariance = jacobianCovariance(nOfPair.map((n, i) => gradient(parameters, n).map((g) => g / sigma[i])));
+  const dof = x.length - parameterCount;
   const varianceFactor = dof > 0 ? Math.max(1, chiSquare / dof) : 1;
-  const predictX = (wavelengthNm: number) => a + b * tangentOf(indexOrNaN(glass, wavelengthNm), incidence);
+  const predictX = (wavelengthNm: number) => valueAt(parameters, indexOrNaN(glass, wavelengthNm));
   return {
     glass,
-    parameters: [incidence, b, a],
+    parameters,
     chiSquare,
     dof,
     predictX,
     predictionSigmaX: (wavelengthNm, peakSigmaX = 1) => {
-      const g = gradient(indexOrNaN(glass, wavelengthNm));
+      const g = gradient(parameters, indexOrNaN(glass, wavelengthNm));
       if (!g.every(Number.isFinite)) return Number.NaN;
       let variance = 0;
-      for (let j = 0; j < 3; j++) for (let k = 0; k < 3; k++) variance += g[j] * covariance[j][k] * g[k];
+      for (let j = 0; j < parameterCount; j++) for (let k = 0; k < parameterCount; k++) variance += g[j] * covariance[j][k] * g[k];
       return Math.sqrt(varianceFactor * (variance + peakSigmaX ** 2));
     },
   };

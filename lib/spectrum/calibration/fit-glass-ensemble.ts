@@ -21,6 +21,11 @@ export interface FitGlassEnsembleOptions {
    */
   apexDeg?: number;
   /**
+   * Fit the camera axis angle of each glass's prism (see fitForwardPrism).
+   * @default true
+   */
+  fitAxisAngle?: boolean;
+  /**
    * Glasses to try.
    * @default every catalogue glass
    */
@@ -31,7 +36,7 @@ export interface FitGlassEnsembleOptions {
 export interface GlassEnsemble {
   /** The kept fits, best (lowest AICc) first. */
   fits: ForwardPrismFit[];
-  /** AICc of the best glass (χ² against the pairs' x σ; k = 3). */
+  /** AICc of the best glass (χ² against the pairs' x σ; k = 4, or 3 without the axis angle). */
   bestAicc: number;
   /** Akaike-weighted mean of the kept glasses' x at λ; NaN where one has no prediction. */
   predictX: (wavelengthNm: number) => number;
@@ -43,13 +48,13 @@ export interface GlassEnsemble {
 
 /** Fits every glass to `points` and keeps the well-supported ones; null when no glass fits at all. */
 export function fitGlassEnsemble(points: readonly ForwardHartmannPoint[], options: FitGlassEnsembleOptions = {}): GlassEnsemble | null {
-  const { maxDeltaAicc = 4, apexDeg = 60, glasses = GLASS_NAMES } = options;
+  const { maxDeltaAicc = 4, apexDeg = 60, fitAxisAngle = true, glasses = GLASS_NAMES } = options;
   if (!(maxDeltaAicc >= 0)) throw new RangeError(`maxDeltaAicc must be ≥ 0, got ${maxDeltaAicc}`);
   const scored: { fit: ForwardPrismFit; aicc: number }[] = [];
   for (const glass of glasses) {
     try {
-      const fit = fitForwardPrism(points, glass, { apexDeg });
-      const { aicc } = informationCriteria(fit.chiSquare, points.length, 3);
+      const fit = fitForwardPrism(points, glass, { apexDeg, fitAxisAngle });
+      const { aicc } = informationCriteria(fit.chiSquare, points.length, fit.parameters.length);
       if (Number.isFinite(aicc)) scored.push({ fit, aicc });
     } catch {
       // A glass whose formula does not reach a pair's wavelength, or passes no ray, is simply not a candidate.

@@ -1,14 +1,15 @@
 // Grows a prism's lamp pairing outward from the pairs it is sure of: one line at a time, each accepted
 // only when it falls inside the prediction interval of a model of the pairs so far, no comparably strong
-// line could claim the same peak, and the peak is about as strong as the line should make it. Matching
-// everything at once with a model that is off by a pixel or two in the far blue lets a wrong pair in,
-// and every refit then agrees with it. The model is the physical prism of the catalogue glasses that fit
+// line could claim the same peak, no neighbour blends into it, and the peak is about as strong as the
+// line should make it. Matching everything at once with a model that is off by a pixel or two in the
+// far blue lets a wrong pair in, and every refit then agrees with it. The model is the physical prism of the catalogue glasses that fit
 // (their spread is the model-form uncertainty), because a free-form curve extrapolated from the middle
 // is off by tens of pixels in the blue; only when no glass fits as well as the glass-free Hartmann form
 // (the instrument's glass is not in the catalogue) does Hartmann predict instead.
 import { fitForwardHartmann, type ForwardHartmannFit } from "./fit-forward-hartmann";
 import { fitGlassEnsemble } from "./fit-glass-ensemble";
 import { informationCriteria } from "./information-criteria";
+import { lampLineBlended } from "./lamp-line-blended";
 import type { LampPair } from "./lamp-pairing-types";
 import type { PairingContext } from "./refine-lamp-pairing";
 import { weightedLeastSquares } from "./weighted-least-squares";
@@ -102,6 +103,8 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
   let pairs = oneToOne(forcedFirst);
   if (pairs.length < MIN_CORE) return pairs.sort((a, b) => a.x - b.x);
   const peakSigma = (p: number) => peaks[p].xUncertainty ?? 1;
+  // Without a measured width a blend cannot be told from a line (the outlier rejection is then the guard).
+  const peakFwhm = (p: number) => peaks[p].fwhm;
   const isForced = (pair: LampPair) => forced.get(pair.peakIndex) === pair.lineIndex;
   const bluestCandidateNm = Math.min(...candidateLines.map((l) => lines[l].wavelengthNm), ...pairs.map((p) => p.wavelengthNm));
 
@@ -143,9 +146,15 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
   };
   const computeFit = (subset: LampPair[]): Predictor | null => {
     const hartmann = glassFree(subset);
-    const ensemble = fitGlassEnsemble(subset, { maxDeltaAicc });
+    // The camera stays centred on the pairs' middle ray while pairing: a growing pair set often covers
+    // part of the range only, and a free axis angle then lets one far pair bend the model onto itself
+    // (a stray peak 3 px from a missing far-blue line was fitted exactly) and widens the windows that
+    // strays slip into. The centred form is stiffer, and its bias (about a pixel at the far ends) stays
+    // inside windows that the glass spread and the glass-free σ widen anyway; the final calibration
+    // fits the axis angle.
+    const ensemble = fitGlassEnsemble(subset, { maxDeltaAicc, fitAxisAngle: false });
     if (!ensemble) return hartmann?.predictor ?? null;
-    // The physical model has one parameter fewer; when no glass fits the pairs as well as the
+    // The centred physical model has one parameter fewer; when no glass fits the pairs as well as the
     // glass-free form does, the instrument's glass is not among them and Hartmann predicts instead.
     const hartmannAicc = hartmann ? informationCriteria(hartmann.fit.chiSquare, subset.length, 4).aicc : Infinity;
     if (ensemble.bestAicc > hartmannAicc + maxDeltaAicc) return hartmann!.predictor;
@@ -191,8 +200,8 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
 
   /**
    * Whether `line` may take `peak` under `model`: the peak inside the line's window, no other free
-   * peak inside it, no rival line whose own window holds the peak, and a peak about as strong as
-   * the line should make it.
+   * peak inside it, no rival line whose own window holds the peak, no neighbour line blended into
+   * the peak, and a peak about as strong as the line should make it.
    */
   const acceptable = (model: Predictor, line: number, peak: number, freePeaks: Set<number>, freeLines: Set<number>, band: [number, number]) => {
     const lambda = lines[line].wavelengthNm;
@@ -200,6 +209,8 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
     const window = windowSigma * model.predictionSigmaX(lambda, peakSigma(peak));
     if (!(Math.abs(peaks[peak].x - predicted) <= window)) return false;
     if (!plausibleHeight(line, peak, band)) return false;
+    const fwhmX = peakFwhm(peak);
+    if (fwhmX !== undefined && lampLineBlended(lines, candidateLines, line, model.predictX, fwhmX)) return false;
     for (const other of freePeaks) {
       if (other !== peak && Math.abs(peaks[other].x - predicted) <= window) return false;
     }

@@ -7,6 +7,8 @@ export interface LampPeak {
   x: number;
   xUncertainty?: number;
   height: number;
+  /** FWHM in x units, when the peak finder measured it; tells pairing which lines blend into one peak. */
+  fwhm?: number;
 }
 
 /** A known lamp line. */

@@ -23,6 +23,7 @@ export function prismGeometryOf(model: PrismCalibrationModel, parameters = model
     apexRad: model.apexFitted ? parameters[3] : (model.apexDeg * Math.PI) / 180,
     direction: model.direction,
     referenceWavelengthNm: model.referenceWavelengthNm,
+    axisAngleRad: model.axisAngleFitted ? parameters[model.apexFitted ? 4 : 3] : 0,
   };
 }
 

@@ -20,6 +20,23 @@ export interface PrismGeometry {
   /** +1 when λ grows with x. */
   direction: 1 | -1;
   referenceWavelengthNm: number;
+  /**
+   * Deviation of the camera axis minus that of the reference wavelength's ray, rad: where the camera
+   * looks is a property of the instrument, not of any wavelength, so a fit must be free to place it.
+   * 0 or absent: the camera is centred on the reference ray.
+   */
+  axisAngleRad?: number;
+}
+
+/**
+ * x relative to the reference ray's landing point, in units of the focal length, for a ray whose
+ * deviation is `angleFromReferenceRad` (δref − δ) less than the reference ray's: tan(u + φ) − tan φ
+ * with φ the camera axis angle. With φ = 0 it is tan u, a camera centred on the reference ray.
+ */
+export function cameraTangent(angleFromReferenceRad: number, axisAngleRad = 0): number {
+  return axisAngleRad === 0
+    ? Math.tan(angleFromReferenceRad)
+    : Math.tan(angleFromReferenceRad + axisAngleRad) - Math.tan(axisAngleRad);
 }
 
 /** Deviation angle (rad) of a ray through a prism of index n; NaN when the ray is totally reflected. */
@@ -43,7 +60,7 @@ export function prismForwardX(geometry: PrismGeometry, wavelengthNm: number): nu
   const deviation = prismDeviationRad(n, geometry.incidenceRad, geometry.apexRad);
   const deviationRef = prismDeviationRad(nRef, geometry.incidenceRad, geometry.apexRad);
   // Red light is deviated less, so δref − δ grows with λ and `direction` says which way x runs.
-  return geometry.axisX + geometry.direction * geometry.focalX * Math.tan(deviationRef - deviation);
+  return geometry.axisX + geometry.direction * geometry.focalX * cameraTangent(deviationRef - deviation, geometry.axisAngleRad);
 }
 
 /** The wavelength span over which the inverse is searched, nm. */

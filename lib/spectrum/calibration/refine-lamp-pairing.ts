@@ -7,6 +7,7 @@ import { informationCriteria } from "./information-criteria";
 import type { LampLine, LampPair, LampPairingResult, LampPeak } from "./lamp-pairing-types";
 import { modelEvaluation } from "./model-evaluation";
 import { growLampPairs } from "./grow-lamp-pairs";
+import { lampLineBlended } from "./lamp-line-blended";
 import { fitForwardHartmann } from "./fit-forward-hartmann";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
@@ -28,7 +29,10 @@ export interface PairingContext {
   straighten: (lambda: number) => number;
 }
 
-/** Pairs each candidate line with the nearest peak to its predicted x; a peak keeps its closest line. */
+/**
+ * Pairs each candidate line with the nearest peak to its predicted x; a peak keeps its closest line. A
+ * line blended with a neighbour into one peak is left out: the peak's centre belongs to neither.
+ */
 function matchByPrediction(context: PairingContext, predictX: (lambda: number) => number, toleranceX: number): LampPair[] {
   const { peaks, lines, candidateLines, forced } = context;
   const order = peaks.map((_, i) => i).sort((a, b) => peaks[a].x - peaks[b].x);
@@ -51,6 +55,9 @@ function matchByPrediction(context: PairingContext, predictX: (lambda: number) =
       const p = order[k];
       const distanceX = Math.abs(sortedX[k] - x);
       if (forced.has(p) || distanceX > toleranceX) continue;
+      // Without a measured width a blend cannot be told from a line (the outlier rejection is then the guard).
+      const fwhmX = peaks[p].fwhm;
+      if (fwhmX !== undefined && lampLineBlended(lines, candidateLines, l, predictX, fwhmX)) continue;
       const current = best.get(p);
       if (!current || distanceX < current.distanceX) best.set(p, { line: l, distanceX });
     }
@@ -258,16 +265,25 @@ function judge(context: PairingContext, pairs: LampPair[], fit: FitCalibrationRe
     // Lines the fit puts on the array; as many of the strongest as there are peaks should have been seen.
     const ends = modelEvaluation(fit.model, [context.domain[0], context.domain[1]]).wavelengthNm;
     const [low, high] = [Math.min(ends[0], ends[1]), Math.max(ends[0], ends[1])];
-    const onArray = candidateLines
-      .filter((l) => lines[l].wavelengthNm >= low && lines[l].wavelengthNm <= high)
+    // Blended lines are left out of pairing on purpose, so neither they nor the peaks they make count
+    // against the pairing; the lines' width is the peaks' typical one.
+    const xOf = inverseOf(context, fit);
+    const widths = peaks.map((p) => p.fwhm).filter((w): w is number => w !== undefined && w > 0).sort((a, b) => a - b);
+    const fwhmX = widths.length > 0 ? widths[widths.length >> 1] : undefined;
+    const blended = (l: number) => fwhmX !== undefined && lampLineBlended(lines, candidateLines, l, xOf, fwhmX);
+    const inRange = candidateLines.filter((l) => lines[l].wavelengthNm >= low && lines[l].wavelengthNm <= high);
+    const blendedX = inRange.filter(blended).map((l) => xOf(lines[l].wavelengthNm));
+    const onArray = inRange
+      .filter((l) => !blended(l))
       .sort((a, b) => lines[b].intensity - lines[a].intensity);
     const strongestLines = onArray.slice(0, Math.max(1, Math.min(peaks.length, onArray.length)));
-    const lineFraction = strongestLines.filter((l) => pairedLines.has(l)).length / strongestLines.length;
+    const lineFraction = strongestLines.length > 0 ? strongestLines.filter((l) => pairedLines.has(l)).length / strongestLines.length : 0;
     const strongestPeaks = peaks
       .map((_, i) => i)
+      .filter((i) => pairedPeaks.has(i) || !blendedX.some((x) => Math.abs(peaks[i].x - x) < fwhmX!))
       .sort((a, b) => peaks[b].height - peaks[a].height)
       .slice(0, Math.min(10, peaks.length));
-    const peakFraction = strongestPeaks.filter((p) => pairedPeaks.has(p)).length / strongestPeaks.length;
+    const peakFraction = strongestPeaks.length > 0 ? strongestPeaks.filter((p) => pairedPeaks.has(p)).length / strongestPeaks.length : 0;
     const parameters = fit.model.parameters.length;
     const pairFactor = 1 - Math.exp(-Math.max(pairs.length - parameters, 0) / 4);
     const precision = Math.min(Math.max(1 - (2 * rmsX) / context.toleranceX, 0), 1);

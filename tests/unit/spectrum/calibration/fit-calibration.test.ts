@@ -154,6 +154,39 @@ describe("fitCalibration: prism", () => {
     expect(Array.from(evaluateCalibration(stored, x))).toEqual(Array.from(lambda));
   });
 
+  it("represents a prism whose camera looks off the pairs' middle ray exactly, and its σ covers the truth", () => {
+    // The generator's camera is centred on 550 nm, the fit's reference ray is the pairs' middle (≈ 625 nm).
+    const exactPairs = pairsFrom(lampNm.filter((_, i) => i % 3 === 0), truth, 0, 1).map((p) => ({ ...p, xUncertainty: 0.05 }));
+    const fitted = fitCalibration(exactPairs, { model: "prism", glass: "F2", domain: DOMAIN, rejectOutliers: false });
+    const model = fitted.model;
+    expect(model.kind === "prism" && model.axisAngleFitted).toBe(true);
+    expect(model.parameterNames).toEqual(["incidenceRad", "focalX", "axisX", "axisAngleRad"]);
+    // Noise-free pairs of the model's own form: the residual is round-off, not a model bias.
+    expect(fitted.rmsNm).toBeLessThan(1e-6);
+    const lambda = evaluateCalibration(model, x);
+    x.forEach((xi, i) => expect(Math.abs(lambda[i] - trueNm(xi))).toBeLessThan(1e-4));
+    // The camera centred on the middle ray (the model before the axis angle) cannot follow it.
+    const centred = fitCalibration(exactPairs, { model: "prism", glass: "F2", domain: DOMAIN, rejectOutliers: false, fitAxisAngle: false });
+    expect(centred.rmsNm).toBeGreaterThan(1e-3);
+    // On noisy pairs the truth lies within 4σ of the calibration everywhere, the extrapolated ends too.
+    const noisy = fitCalibration(pairs, { model: "prism", glass: "F2", domain: DOMAIN, rejectOutliers: false }).model;
+    const across = new Float64Array([0, 30, 400, 1000, 1600, 2000, 2047]);
+    const noisyNm = evaluateCalibration(noisy, across);
+    const sigma = calibrationUncertainty(noisy, across);
+    across.forEach((xi, i) => expect(Math.abs(noisyNm[i] - trueNm(xi))).toBeLessThan(4 * sigma[i]));
+  });
+
+  it("evaluates a stored prism model without the axis angle as a camera centred on its reference ray", () => {
+    const { model } = fitCalibration(pairs, { model: "prism", glass: "F2", domain: DOMAIN, fitAxisAngle: false });
+    if (model.kind !== "prism") throw new Error("expected a prism model");
+    expect(model.axisAngleFitted).toBeUndefined();
+    expect(model.parameters).toHaveLength(3);
+    const [incidenceRad, focalX, axisX] = model.parameters;
+    const geometry = { glass: model.glass, incidenceRad, focalX, axisX, apexRad: Math.PI / 3, direction: model.direction, referenceWavelengthNm: model.referenceWavelengthNm };
+    const lambda = evaluateCalibration(model, x);
+    lambda.forEach((l, i) => expect(Math.abs(prismForwardX(geometry, l) - x[i])).toBeLessThan(1e-6));
+  });
+
   it("Hartmann follows the prism far better than a cubic polynomial", () => {
     const hartmann = fitCalibration(pairs, { model: "hartmann", domain: DOMAIN, rejectOutliers: false });
     const cubic = fitCalibration(pairs, { model: "polynomial", degree: 3, domain: DOMAIN, rejectOutliers: false });

@@ -35,13 +35,17 @@ describe("fitForwardPrism", () => {
     expect(Math.abs(fit.predictX(365.015) - prismX(365.015))).toBeLessThan(3 * fit.predictionSigmaX(365.015, 0));
   });
 
-  it("extrapolates noise-free pairs of its own glass into the blue within a pixel", () => {
-    // The camera axis is put on the pairs' middle wavelength (720 nm), the generator's on 550 nm; that
-    // convention alone bends the far blue by about 0.6 px.
+  it("fits noise-free pairs of its own glass exactly, wherever its camera looks", () => {
+    // The pairs' middle ray (720 nm) is the fit's reference, the generator's camera looks along 550 nm:
+    // with the axis angle fitted the model is the generator's and extrapolates exactly.
     const fit = fitForwardPrism(pairs(540, 900, 0), "F2");
-    expect(Math.abs(fit.predictX(365.015) - prismX(365.015))).toBeLessThan(1);
-    // Taken at the generator's own axis wavelength, the model is the generator's and the fit exact.
-    const exact = fitForwardPrism(pairs(540, 900, 0), "F2", { referenceWavelengthNm: 550 });
+    expect(fit.parameters).toHaveLength(4);
+    expect(Math.abs(fit.predictX(365.015) - prismX(365.015))).toBeLessThan(1e-3);
+    // A camera pinned to the 720 nm ray bends the far blue by most of a pixel.
+    const centred = fitForwardPrism(pairs(540, 900, 0), "F2", { fitAxisAngle: false });
+    expect(Math.abs(centred.predictX(365.015) - prismX(365.015))).toBeGreaterThan(0.1);
+    // Taken at the generator's own axis wavelength, the centred model is the generator's too.
+    const exact = fitForwardPrism(pairs(540, 900, 0), "F2", { referenceWavelengthNm: 550, fitAxisAngle: false });
     expect(Math.abs(exact.predictX(365.015) - prismX(365.015))).toBeLessThan(1e-3);
   });
 
@@ -50,8 +54,9 @@ describe("fitForwardPrism", () => {
     expect(fitForwardPrism(all, "N-BK7").chiSquare).toBeGreaterThan(100 * fitForwardPrism(all, "F2").chiSquare);
   });
 
-  it("refuses fewer than four pairs", () => {
-    expect(() => fitForwardPrism(pairs(540, 900).slice(0, 3), "F2")).toThrow(RangeError);
+  it("refuses fewer pairs than parameters + 1", () => {
+    expect(() => fitForwardPrism(pairs(540, 900).slice(0, 4), "F2")).toThrow(RangeError);
+    expect(() => fitForwardPrism(pairs(540, 900).slice(0, 3), "F2", { fitAxisAngle: false })).toThrow(RangeError);
   });
 });
 
