@@ -177,6 +177,8 @@ interface SpeciesWork {
   missingCount: number;
   missingStrongCount: number;
   missingWeight: number;
+  /** Relative intensity of the strongest missing line that is not hidden; 0 when there is none. */
+  strongestMissingRelative: number;
   anchor: SeenGroup | null;
   score: number;
 }
@@ -298,6 +300,7 @@ export function scoreElements(
       missingCount: 0,
       missingStrongCount: 0,
       missingWeight: 0,
+      strongestMissingRelative: 0,
       anchor: null,
       score: 0,
     };
@@ -374,12 +377,21 @@ export function scoreElements(
   }
 
   // First pass with every peak fully credited. Then a peak claimed by several species is shared
-  // in proportion to what each is expected to contribute there (its prediction from its own
-  // strongest line, capped at what was observed) times its first-pass support, so a weak line
-  // of a well-supported species cannot take the peak of another species' strongest line.
+  // in proportion to what each is expected to contribute there, capped at what was observed, times
+  // its first-pass support, so a weak line of a well-supported species cannot take the peak of
+  // another species' strongest line. The expected contribution scales from the species' strongest
+  // observed line, but no further than its missing lines allow: had it been brighter, its
+  // strongest missing line would have reached missingSnr and been seen. Without that cap a
+  // species anchored on another species' peak (a lamp gas on the K I doublet) expects the whole
+  // peak by construction, however many of its own strong lines are absent.
+  const missingSnr = detectionLimitSnr * missingSnrFactor;
   const claimOf = (entry: SpeciesWork, group: SeenGroup): number => {
-    const scale = entry.anchor ? entry.anchor.snr / entry.anchor.ratedWeight : null;
-    if (scale === null || group.ratedWeight === 0 || group.snr <= 0) return CREDIT_FLOOR;
+    const { anchor } = entry;
+    if (!anchor || group.ratedWeight === 0 || group.snr <= 0) return CREDIT_FLOOR;
+    let scale = anchor.snr / anchor.ratedWeight;
+    if (entry.strongestMissingRelative > 0) {
+      scale = Math.min(scale, missingSnr / entry.strongestMissingRelative);
+    }
     return Math.max(CREDIT_FLOOR, Math.min(1, (scale * group.ratedWeight) / group.snr));
   };
   const scoreRound = (credit: (species: string, group: SeenGroup) => number) => {
@@ -581,21 +593,23 @@ function predictMissing(
   const unhiddenCount = entry.missingCount - hidden.length;
 
   // The strongest lines that are neither matched nor hidden, from each range (atomic lines and
-  // band heads have their own wavelength order); the best of both are kept.
+  // band heads have their own wavelength order); the best of both are kept. At least one is
+  // looked for: the strongest caps the species' share of shared peaks.
   const listed: number[] = [];
-  if (limits.maxListed > 0) {
-    for (const [from, to] of ranges) {
-      let taken = 0;
-      walkStrongestFirst(maxTree, from, to, least, (p) => {
-        if (bestPeakOfLine.has(order[p]) || hiddenBy.has(p)) return true;
-        listed.push(p);
-        return ++taken < limits.maxListed;
-      });
-    }
+  const wanted = Math.max(1, limits.maxListed);
+  for (const [from, to] of ranges) {
+    let taken = 0;
+    walkStrongestFirst(maxTree, from, to, least, (p) => {
+      if (bestPeakOfLine.has(order[p]) || hiddenBy.has(p)) return true;
+      listed.push(p);
+      return ++taken < wanted;
+    });
   }
   const strongestFirst = (a: number, b: number) =>
     relative[b] - relative[a] || nm[a] - nm[b] || a - b;
-  listed.sort(strongestFirst).splice(limits.maxListed);
+  listed.sort(strongestFirst);
+  entry.strongestMissingRelative = scale !== null && listed.length > 0 ? relative[listed[0]] : 0;
+  listed.splice(limits.maxListed);
 
   if (scale !== null && unhiddenCount > 0) {
     if (listed.length >= unhiddenCount) {

@@ -243,9 +243,15 @@ function referenceScoring(matches: PeakMatch[], table: ReferenceLine[]): Referen
     );
   const first = round(() => 1);
   const claim = (name: string, g: Group) => {
-    const anchor = work.get(name)!.anchor;
+    const { anchor, missing } = work.get(name)!;
     if (!anchor || g.rated === 0 || g.snr <= 0) return 0.01;
-    return Math.max(0.01, Math.min(1, ((anchor.snr / anchor.rated) * g.rated) / g.snr));
+    // Its strongest unhidden missing line caps its scale: brighter, that line would reach SNR 6.
+    const counted = missing.filter((m) => m.hiddenByPeakIndex === null).map((m) => m.relative);
+    const scale = Math.min(
+      anchor.snr / anchor.rated,
+      counted.length > 0 ? MISSING_SNR / Math.max(...counted) : Infinity,
+    );
+    return Math.max(0.01, Math.min(1, (scale * g.rated) / g.snr));
   };
   const weightOf = (name: string, g: Group) => claim(name, g) * Math.max(0.01, first.get(name)!);
   const final = round((name, g) => {

@@ -1,0 +1,118 @@
+// Checks how a peak claimed by several species is shared: a species contradicted by its own missing
+// lines must not take a flame element's peak, and a lone coincidence must not make a lamp gas present.
+import { describe, it, expect } from "vitest";
+import { identifyElements, type ElementIdentification } from "../../../../lib/spectrum/matching";
+import type { CalibratedPeak, ReferenceLine, SourceKind } from "../../../../lib/spectrum/types";
+
+// Wavelengths: NIST Atomic Spectra Database, observed air wavelengths (from memory; the checks below
+// do not depend on them closer than 0.01 nm). Intensities follow the project's starter table: K I has
+// flame values, the lamp gases lamp values only, so a flame borrows theirs.
+const ROWS: { species: string; airNm: number; intensities: Partial<Record<SourceKind, number>> }[] = [
+  { species: "K I", airNm: 766.49, intensities: { flame: 1000, lamp: 1000 } },
+  { species: "K I", airNm: 769.896, intensities: { flame: 600, lamp: 600 } },
+  { species: "Ar I", airNm: 750.387, intensities: { lamp: 200 } },
+  { species: "Ar I", airNm: 751.465, intensities: { lamp: 150 } },
+  { species: "Ar I", airNm: 763.511, intensities: { lamp: 250 } },
+  { species: "Ar I", airNm: 772.376, intensities: { lamp: 150 } },
+  { species: "Kr I", airNm: 557.029, intensities: { lamp: 200 } },
+  { species: "Kr I", airNm: 587.092, intensities: { lamp: 250 } },
+  { species: "Kr I", airNm: 758.741, intensities: { lamp: 200 } },
+  { species: "Kr I", airNm: 760.155, intensities: { lamp: 300 } },
+  { species: "Kr I", airNm: 768.525, intensities: { lamp: 100 } },
+  { species: "Kr I", airNm: 769.454, intensities: { lamp: 100 } },
+];
+
+/** The lamp-gas lines that no peak falls on: they contradict the gases. */
+const FAR_FROM_PEAKS_NM = [557.029, 587.092, 772.376];
+
+function table(rows = ROWS): ReferenceLine[] {
+  return rows.map((row, i) => ({
+    id: `s${i}`,
+    species: row.species,
+    element: row.species.split(" ")[0],
+    ionStage: 1,
+    airNm: row.airNm,
+    vacuumNm: row.airNm * 1.00028,
+    uncertaintyNm: 0.001,
+    intensities: row.intensities,
+    flags: {},
+  }));
+}
+
+function peak(wavelengthNm: number, snr: number, fwhmNm: number): CalibratedPeak {
+  return {
+    index: 0,
+    x: wavelengthNm,
+    xUncertainty: 0.01,
+    height: 10 * snr,
+    fwhm: fwhmNm,
+    area: 10 * snr * fwhmNm,
+    snr,
+    saturated: false,
+    blended: true,
+    wavelengthNm,
+    wavelengthUncertaintyNm: 0.05,
+    fwhmNm,
+  };
+}
+
+/**
+ * A prism's red end: the K I doublet (3.4 nm apart) merged into one 5.8 nm wide peak, which Ar I
+ * 763.51 and Kr I 768.52/769.45 also reach, and two weak broad bumps on Kr I 758.74/760.15 and
+ * Ar I 750.39/751.47 that give the gases some support of their own.
+ */
+const PEAKS = [peak(751.0, 8, 5), peak(759.5, 8, 5), peak(766.6, 270, 5.8)];
+
+function identify(lines: ReferenceLine[], peaks = PEAKS): ElementIdentification {
+  // Each peak's own width stands in for the resolution, as on a prism.
+  return identifyElements(peaks, lines, { source: "flame", rangeNm: [540, 800] });
+}
+
+const callOf = (result: ElementIdentification, species: string) =>
+  result.calls.find((call) => call.species === species)!;
+
+describe("scoreElements on a peak shared with lamp-gas lines", () => {
+  it("sees the K I doublet and the gases' lines on the same broad peak", () => {
+    const result = identify(table());
+    const potassium = callOf(result, "K I");
+    expect(potassium.seen.map((s) => s.peakIndex)).toEqual([2, 2]);
+    expect(potassium.overlaps[0].otherSpecies).toEqual(["Ar I", "Kr I"]);
+    // The gases are anchored on that very peak, and their far lines are missing.
+    for (const species of ["Ar I", "Kr I"]) {
+      expect(callOf(result, species).seen.some((s) => s.peakIndex === 2), species).toBe(true);
+      expect(callOf(result, species).missingStrongCount, species).toBeGreaterThan(0);
+    }
+  });
+
+  it("calls K I present with nearly its unshared score when the gases are contradicted", () => {
+    const result = identify(table());
+    const alone = identify(table(ROWS.filter((row) => row.species === "K I")));
+    const potassium = callOf(result, "K I");
+    expect(potassium.verdict).toBe("present");
+    // Each gas may claim at most what its strongest missing line allows (predicted SNR 6 at most
+    // for that line, so a few SNR of a peak of 270): a few per cent of the peak.
+    expect(callOf(alone, "K I").score - potassium.score).toBeLessThan(0.05);
+    for (const species of ["Ar I", "Kr I"]) {
+      expect(callOf(result, species).verdict, species).not.toBe("present");
+    }
+  });
+
+  it("still shares the peak with gases that nothing contradicts", () => {
+    // Without their far lines the gases are not contradicted, and each may have made the peak.
+    const rows = ROWS.filter((row) => !FAR_FROM_PEAKS_NM.includes(row.airNm));
+    const result = identify(table(rows));
+    const potassium = callOf(result, "K I");
+    expect(potassium.score).toBeLessThan(0.5);
+    expect(potassium.verdict).not.toBe("present");
+  });
+
+  it("does not call a lamp gas present from a lone coincidence with its strongest line", () => {
+    // A peak on Kr I 760.15 nm alone: its other strong lines should then stand at SNR ≈ 170–210.
+    const result = identify(table(), [peak(760.16, 250, 1)]);
+    const krypton = callOf(result, "Kr I");
+    expect(krypton.seen.map((s) => s.referenceNm)).toEqual([760.155]);
+    expect(krypton.verdict).not.toBe("present");
+    expect(krypton.missingStrongCount).toBe(5);
+    expect(krypton.missing.map((m) => m.referenceNm).slice(0, 3)).toEqual([587.092, 557.029, 758.741]);
+  });
+});
