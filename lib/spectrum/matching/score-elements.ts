@@ -63,6 +63,10 @@ export interface ScoreElementsOptions {
    * penalty, missingCount and missingStrongCount always take every missing line into account.
    * @default 25 */
   maxMissingListed?: number;
+  /** How many of a call's seen lines are listed, strongest first; seenCount, the score, the
+   * verdict and the rationale's numbers always take every seen line into account.
+   * @default 25 */
+  maxSeenListed?: number;
 }
 
 /** A table line seen in the spectrum. */
@@ -110,7 +114,11 @@ export interface ElementCall {
   /** 0 … 1: intensity-weighted share of the expected evidence that was seen, each seen line
    * weighted by match closeness and by its share of a peak claimed by several species. */
   score: number;
+  /** The `maxSeenListed` strongest seen lines (by relative intensity, unrated ones last, ties in
+   * the order below), listed by peak and then in table order; the rest are only counted. */
   seen: SeenLineEvidence[];
+  /** Exact number of seen lines (listed or not). */
+  seenCount: number;
   /** Missing lines, strongest first (then by wavelength): every one that may be hidden, and the
    * `maxMissingListed` strongest of the others; the rest are only counted. */
   missing: MissingLineEvidence[];
@@ -214,6 +222,7 @@ export function scoreElements(
     hidingFwhmFactor = 1.5,
     hidingSnrRatio = 3,
     maxMissingListed = 25,
+    maxSeenListed = 25,
   } = options;
   assertPositive("detectionLimitSnr", detectionLimitSnr);
   if (noiseCounts !== undefined) assertPositive("noiseCounts", noiseCounts);
@@ -227,6 +236,9 @@ export function scoreElements(
   assertPositive("hidingSnrRatio", hidingSnrRatio);
   if (!Number.isInteger(maxMissingListed) || maxMissingListed < 0) {
     throw new RangeError(`maxMissingListed must be an integer ≥ 0, got ${maxMissingListed}`);
+  }
+  if (!Number.isInteger(maxSeenListed) || maxSeenListed < 0) {
+    throw new RangeError(`maxSeenListed must be an integer ≥ 0, got ${maxSeenListed}`);
   }
   if (possibleScore > presentScore) {
     throw new RangeError(
@@ -249,23 +261,36 @@ export function scoreElements(
   const tallestHeight = matches.reduce((h, m) => Math.max(h, m.peak.height), 0);
   const hiding = hidingPeaks(matches, snrOf, hidingFwhmFactor, hidingSnrRatio);
 
-  // Each line is credited to the one peak it matches best, so no line is seen twice.
-  const bestPeakOfLine = new Map<number, { match: PeakMatch; candidate: LineCandidate }>();
-  for (const match of matches) {
-    for (const candidate of match.candidates) {
+  // Each line is credited to the one peak it matches best, so no line is seen twice. The winner
+  // of each line is kept in scratch arrays over the table, valid for this call's generation only.
+  const candidateCount = matches.reduce((n, match) => n + match.candidates.length, 0);
+  const candidateMatch = new Uint32Array(candidateCount);
+  const candidateAt = new Uint32Array(candidateCount);
+  const { owner: bestCandidateOfLine, stamp, generation } = nextScratch(index);
+  const isMatched = (lineIndex: number) => stamp[lineIndex] === generation;
+  let flat = 0;
+  for (let m = 0; m < matches.length; m++) {
+    const match = matches[m];
+    for (let c = 0; c < match.candidates.length; c++, flat++) {
+      const candidate = match.candidates[c];
       if (index.lines[candidate.lineIndex] !== candidate.line) {
         throw new RangeError(
           `peak ${match.peakIndex} was matched against a different line table than the one scored`,
         );
       }
-      const held = bestPeakOfLine.get(candidate.lineIndex);
-      if (
-        !held ||
-        Math.abs(candidate.deltaSigma) < Math.abs(held.candidate.deltaSigma) ||
-        (Math.abs(candidate.deltaSigma) === Math.abs(held.candidate.deltaSigma) &&
-          match.peakIndex < held.match.peakIndex)
-      ) {
-        bestPeakOfLine.set(candidate.lineIndex, { match, candidate });
+      candidateMatch[flat] = m;
+      candidateAt[flat] = c;
+      if (stamp[candidate.lineIndex] !== generation) {
+        stamp[candidate.lineIndex] = generation;
+        bestCandidateOfLine[candidate.lineIndex] = flat;
+        continue;
+      }
+      const heldFlat = bestCandidateOfLine[candidate.lineIndex];
+      const heldMatch = matches[candidateMatch[heldFlat]];
+      const heldSigma = Math.abs(heldMatch.candidates[candidateAt[heldFlat]].deltaSigma);
+      const sigma = Math.abs(candidate.deltaSigma);
+      if (sigma < heldSigma || (sigma === heldSigma && match.peakIndex < heldMatch.peakIndex)) {
+        bestCandidateOfLine[candidate.lineIndex] = flat;
       }
     }
   }
@@ -315,30 +340,54 @@ export function scoreElements(
     return entry;
   };
 
+  // One group per species and peak, holding its lines in table order (the order their
+  // intensities are summed in); the groups of a peak are kept in the order of their first line.
   const groupsByPeak = new Map<number, Map<string, SeenGroup>>();
-  const orderedAssignments = [...bestPeakOfLine.entries()].sort((a, b) => a[0] - b[0]);
-  for (const [, { match, candidate }] of orderedAssignments) {
-    const species = candidate.line.species;
-    let atPeak = groupsByPeak.get(match.peakIndex);
-    if (!atPeak) {
-      atPeak = new Map();
-      groupsByPeak.set(match.peakIndex, atPeak);
+  const speciesAtPeak = new Map<number, string[]>();
+  const speciesStamp = new Int32Array(index.species.length).fill(-1);
+  const groupOfSpecies: (SeenGroup | undefined)[] = new Array(index.species.length);
+  flat = 0;
+  for (let m = 0; m < matches.length; m++) {
+    const match = matches[m];
+    const names: string[] = [];
+    const here: SeenGroup[] = [];
+    for (const candidate of match.candidates) {
+      const id = index.speciesOfLine[candidate.lineIndex];
+      if (speciesStamp[id] !== m) {
+        speciesStamp[id] = m;
+        names.push(index.species[id].species);
+        groupOfSpecies[id] = undefined;
+      }
+      if (bestCandidateOfLine[candidate.lineIndex] !== flat++) continue;
+      let group = groupOfSpecies[id];
+      if (!group) {
+        group = {
+          peakIndex: match.peakIndex,
+          peak: match.peak,
+          candidates: [],
+          weight: 0,
+          ratedWeight: 0,
+          quality: 0,
+          snr: snrOf(match.peak),
+        };
+        groupOfSpecies[id] = group;
+        here.push(group);
+      }
+      group.candidates.push(candidate);
     }
-    let group = atPeak.get(species);
-    if (!group) {
-      group = {
-        peakIndex: match.peakIndex,
-        peak: match.peak,
-        candidates: [],
-        weight: 0,
-        ratedWeight: 0,
-        quality: 0,
-        snr: snrOf(match.peak),
-      };
-      atPeak.set(species, group);
-      workOf(candidate.lineIndex).groups.push(group);
+    speciesAtPeak.set(match.peakIndex, names.sort());
+    if (here.length === 0) continue;
+    for (const group of here) {
+      if (group.candidates.length > 1) group.candidates.sort((x, y) => x.lineIndex - y.lineIndex);
     }
-    group.candidates.push(candidate);
+    here.sort((x, y) => x.candidates[0].lineIndex - y.candidates[0].lineIndex);
+    const atPeak = new Map<string, SeenGroup>();
+    for (const group of here) {
+      const lineIndex = group.candidates[0].lineIndex;
+      atPeak.set(index.species[index.speciesOfLine[lineIndex]].species, group);
+      workOf(lineIndex).groups.push(group);
+    }
+    groupsByPeak.set(match.peakIndex, atPeak);
   }
   for (const lines of index.species) {
     if (work.has(lines.species)) continue;
@@ -346,14 +395,16 @@ export function scoreElements(
     if (entry.strongInRange > 0) work.set(lines.species, entry);
   }
 
+  const { positionInSpecies } = index;
   for (const entry of work.values()) {
+    const { relative: relativeInSpecies } = entry.info.scale;
     for (const group of entry.groups) {
       let rated = 0;
       let unrated = 0;
       let closest = Infinity;
       for (const candidate of group.candidates) {
-        const relative = relativeOf(candidate.lineIndex);
-        if (relative === undefined) unrated += unratedLineWeight;
+        const relative = relativeInSpecies[positionInSpecies[candidate.lineIndex]];
+        if (Number.isNaN(relative)) unrated += unratedLineWeight;
         else rated += relative;
         closest = Math.min(closest, Math.abs(candidate.deltaSigma));
       }
@@ -367,7 +418,7 @@ export function scoreElements(
       (best, group) => (group.ratedWeight > 0 && (!best || group.snr > best.snr) ? group : best),
       null,
     );
-    predictMissing(entry, bestPeakOfLine, index, source, {
+    predictMissing(entry, isMatched, index, source, {
       missingSnr: detectionLimitSnr * missingSnrFactor,
       strongLineFraction,
       maxListed: maxMissingListed,
@@ -408,24 +459,24 @@ export function scoreElements(
     return next;
   };
   const firstPass = scoreRound(() => 1);
+  const weightOf = (name: string, claimantGroup: SeenGroup) =>
+    claimOf(work.get(name)!, claimantGroup) * Math.max(CREDIT_FLOOR, firstPass.get(name)!);
+  // Each shared peak's total claim is summed once, in the order its claimants were grouped.
+  const totalClaim = new Map<number, number>();
   const share = (species: string, group: SeenGroup): number => {
     const claimants = groupsByPeak.get(group.peakIndex)!;
     if (claimants.size === 1) return 1;
-    const weightOf = (name: string, claimantGroup: SeenGroup) =>
-      claimOf(work.get(name)!, claimantGroup) * Math.max(CREDIT_FLOOR, firstPass.get(name)!);
-    let total = 0;
-    for (const [name, claimantGroup] of claimants) total += weightOf(name, claimantGroup);
+    let total = totalClaim.get(group.peakIndex);
+    if (total === undefined) {
+      total = 0;
+      for (const [name, claimantGroup] of claimants) total += weightOf(name, claimantGroup);
+      totalClaim.set(group.peakIndex, total);
+    }
     return weightOf(species, group) / total;
   };
   for (const [species, score] of scoreRound(share)) work.get(species)!.score = score;
 
   const matchByPeak = new Map(matches.map((match) => [match.peakIndex, match]));
-  const speciesAtPeak = new Map(
-    matches.map((match) => [
-      match.peakIndex,
-      [...new Set(match.candidates.map((c) => c.line.species))].sort(),
-    ]),
-  );
   const calls: ElementCall[] = [];
   for (const [species, entry] of work) {
     const call = buildCall(species, entry, {
@@ -439,6 +490,8 @@ export function scoreElements(
       matchByPeak,
       speciesAtPeak,
       relativeOf,
+      positionInSpecies,
+      maxSeenListed,
     });
     if (call) calls.push(call);
   }
@@ -466,8 +519,7 @@ export function scoreElements(
   const overlaps: PeakOverlap[] = [];
   const unexplainedPeaks: UnexplainedPeak[] = [];
   for (const match of matches) {
-    const speciesHere = [...new Set(match.candidates.map((c) => c.line.species))].sort();
-    const credibleHere = speciesHere.filter(credible);
+    const credibleHere = speciesAtPeak.get(match.peakIndex)!.filter(credible);
     if (credibleHere.length >= 2) {
       overlaps.push({
         peakIndex: match.peakIndex,
@@ -501,7 +553,7 @@ export function scoreElements(
  */
 function predictMissing(
   entry: SpeciesWork,
-  bestPeakOfLine: Map<number, unknown>,
+  isMatched: (lineIndex: number) => boolean,
   index: LineIndex,
   source: SourceKind,
   limits: {
@@ -528,7 +580,8 @@ function predictMissing(
         : strong
       : leastRelativeAtLeast(scale, limits.missingSnr);
   const ranges = [info.atomicInRange, info.bandsInRange];
-  const inRange = (p: number) => ranges.some(([from, to]) => p >= from && p < to);
+  const [[atomicFrom, atomicTo], [bandFrom, bandTo]] = ranges;
+  const inRange = (p: number) => (p >= atomicFrom && p < atomicTo) || (p >= bandFrom && p < bandTo);
   const evidenceAt = (position: number, hiddenByPeakIndex: number | null): MissingLineEvidence => ({
     lineIndex: order[position],
     line: index.lines[order[position]],
@@ -573,7 +626,7 @@ function predictMissing(
         for (let p = first; p < last; p++) {
           if (!(relative[p] >= least) || relative[p] > mostHideable || examined.has(p)) continue;
           examined.add(p);
-          if (bestPeakOfLine.has(order[p])) continue;
+          if (isMatched(order[p])) continue;
           const by = hiderOf(nm[p], scale * relative[p]);
           if (by === null) continue;
           hidden.push(p);
@@ -600,7 +653,7 @@ function predictMissing(
   for (const [from, to] of ranges) {
     let taken = 0;
     walkStrongestFirst(maxTree, from, to, least, (p) => {
-      if (bestPeakOfLine.has(order[p]) || hiddenBy.has(p)) return true;
+      if (isMatched(order[p]) || hiddenBy.has(p)) return true;
       listed.push(p);
       return ++taken < wanted;
     });
@@ -627,6 +680,27 @@ function predictMissing(
   entry.missing = [...hidden, ...listed]
     .sort(strongestFirst)
     .map((p) => evidenceAt(p, hiddenBy.get(p) ?? null));
+}
+
+/** Per line of a table: the winning candidate, and the call (generation) that wrote it. */
+interface Scratch {
+  owner: Uint32Array;
+  stamp: Uint32Array;
+  generation: number;
+}
+
+const scratchByIndex = new WeakMap<LineIndex, Scratch>();
+
+/** The index's scratch arrays for a new call: entries written by earlier calls are stale. */
+function nextScratch(index: LineIndex): Scratch {
+  let scratch = scratchByIndex.get(index);
+  if (!scratch || scratch.generation >= 0xffffffff) {
+    const n = index.lines.length;
+    scratch = { owner: new Uint32Array(n), stamp: new Uint32Array(n), generation: 0 };
+    scratchByIndex.set(index, scratch);
+  }
+  scratch.generation++;
+  return scratch;
 }
 
 /**
@@ -715,29 +789,23 @@ interface CallContext {
   /** Species of each peak's candidates, sorted, by peak index. */
   speciesAtPeak: Map<number, string[]>;
   relativeOf: (lineIndex: number) => number | undefined;
+  positionInSpecies: Uint32Array;
+  maxSeenListed: number;
 }
 
 function buildCall(species: string, entry: SpeciesWork, context: CallContext): ElementCall | null {
   const { info } = entry;
   const strong = context.strongLineFraction;
-  const seen: SeenLineEvidence[] = [];
-  for (const group of entry.groups) {
-    for (const candidate of group.candidates) {
-      seen.push({
-        lineIndex: candidate.lineIndex,
-        line: candidate.line,
-        peakIndex: group.peakIndex,
-        peakWavelengthNm: group.peak.wavelengthNm,
-        referenceNm: candidate.referenceNm,
-        deltaNm: candidate.deltaNm,
-        deltaSigma: candidate.deltaSigma,
-        relativeIntensity: context.relativeOf(candidate.lineIndex) ?? null,
-        snr: group.snr,
-      });
-    }
-  }
+  const tally = tallySeen(
+    entry.groups,
+    info.scale.relative,
+    context.positionInSpecies,
+    strong,
+    context.maxSeenListed,
+  );
+  const seen = tally.listed;
   const { strongInRange } = entry;
-  if (seen.length === 0) {
+  if (tally.count === 0) {
     // Report an unseen species only where it had strong lines to show; keeps the output small.
     if (strongInRange === 0) return null;
     const missing = entry.missing.filter((m) => m.relativeIntensity >= strong);
@@ -749,6 +817,7 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
       verdict: "absent",
       score: 0,
       seen,
+      seenCount: 0,
       missing,
       missingCount: entry.missingCount,
       missingStrongCount: count,
@@ -773,7 +842,6 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
     }
   }
 
-  const strongSeen = seen.filter((s) => (s.relativeIntensity ?? 0) >= strong);
   const strongMissing = entry.missing.filter(
     (m) => m.relativeIntensity >= strong && m.hiddenByPeakIndex === null,
   );
@@ -787,7 +855,7 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
   let verdict: Verdict;
   if (
     entry.score >= context.presentScore &&
-    strongSeen.length > 0 &&
+    tally.strongCount > 0 &&
     entry.missingStrongCount === 0
   ) {
     verdict = "present";
@@ -829,41 +897,33 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
     verdict,
     score: entry.score,
     seen,
+    seenCount: tally.count,
     missing: entry.missing,
     missingCount: entry.missingCount,
     missingStrongCount: entry.missingStrongCount,
     overlaps,
     intensityBasis: info.basis,
     notes,
-    rationale: rationaleOf(
-      verdict,
-      seen,
-      strongSeen,
-      strongMissing,
-      strongInRange,
-      entry,
-      overlaps,
-    ),
+    rationale: rationaleOf(verdict, tally, strongMissing, strongInRange, entry, overlaps),
   };
 }
 
 function rationaleOf(
   verdict: Verdict,
-  seen: SeenLineEvidence[],
-  strongSeen: SeenLineEvidence[],
+  tally: SeenTally,
   strongMissing: MissingLineEvidence[],
   strongInRange: number,
   entry: SpeciesWork,
   overlaps: OverlapEvidence[],
 ): string {
-  const worstSigma = seen.reduce((w, s) => Math.max(w, Math.abs(s.deltaSigma)), -Infinity);
+  const { count, listed } = tally;
   const parts: string[] = [];
   parts.push(
-    `${seen.length} line${plural(seen.length)} seen (${formatNm(seen.map((s) => s.referenceNm))}; within ${worstSigma.toFixed(1)}σ)`,
+    `${count} line${plural(count)} seen (${formatNm(listed.map((s) => s.referenceNm))}${andMore(count - listed.length)}; within ${tally.worstSigma.toFixed(1)}σ)`,
   );
   if (strongInRange > 0) {
     parts.push(
-      `${strongSeen.length} of ${strongInRange} strong line${plural(strongInRange)} in range seen`,
+      `${tally.strongCount} of ${strongInRange} strong line${plural(strongInRange)} in range seen`,
     );
   } else {
     parts.push("its strong lines lie outside the range");
@@ -896,6 +956,69 @@ function rationaleOf(
         ? "Possible"
         : "Absent (contradicted)";
   return `${lead}: ${parts.join("; ")}. Score ${entry.score.toFixed(2)}.`;
+}
+
+/** A species' seen lines: exact counts, and the evidence of the strongest ones. */
+interface SeenTally {
+  count: number;
+  /** Seen lines whose relative intensity is at least strongLineFraction. */
+  strongCount: number;
+  /** Largest |Δλ/σ| of any seen line. */
+  worstSigma: number;
+  listed: SeenLineEvidence[];
+}
+
+/**
+ * Counts every seen line but builds evidence only for the `maxListed` strongest (unrated last;
+ * ties to the earlier line), kept by partial selection in a small buffer ordered weakest first,
+ * and listed in peak and table order, the order of a call that lists them all.
+ */
+function tallySeen(
+  groups: readonly SeenGroup[],
+  relativeInSpecies: Float64Array,
+  positionInSpecies: Uint32Array,
+  strong: number,
+  maxListed: number,
+): SeenTally {
+  let count = 0;
+  let strongCount = 0;
+  let worstSigma = -Infinity;
+  // Chosen lines as [key, ordinal, group, candidate], the weakest (then the latest) first.
+  const chosen: [number, number, SeenGroup, LineCandidate][] = [];
+  for (const group of groups) {
+    for (const candidate of group.candidates) {
+      const ordinal = count++;
+      // NaN marks an unrated line: it counts as intensity 0 and is listed after every rated one.
+      const relative = relativeInSpecies[positionInSpecies[candidate.lineIndex]];
+      if ((Number.isNaN(relative) ? 0 : relative) >= strong) strongCount++;
+      worstSigma = Math.max(worstSigma, Math.abs(candidate.deltaSigma));
+      if (maxListed === 0) continue;
+      const key = Number.isNaN(relative) ? -1 : relative;
+      // A later line displaces a chosen one only when strictly stronger.
+      if (chosen.length === maxListed && !(key > chosen[0][0])) continue;
+      if (chosen.length === maxListed) chosen.shift();
+      let at = 0;
+      while (
+        at < chosen.length &&
+        (chosen[at][0] < key || (chosen[at][0] === key && chosen[at][1] > ordinal))
+      )
+        at++;
+      chosen.splice(at, 0, [key, ordinal, group, candidate]);
+    }
+  }
+  chosen.sort((a, b) => a[1] - b[1]);
+  const listed = chosen.map(([key, , group, candidate]): SeenLineEvidence => ({
+    lineIndex: candidate.lineIndex,
+    line: candidate.line,
+    peakIndex: group.peakIndex,
+    peakWavelengthNm: group.peak.wavelengthNm,
+    referenceNm: candidate.referenceNm,
+    deltaNm: candidate.deltaNm,
+    deltaSigma: candidate.deltaSigma,
+    relativeIntensity: key < 0 ? null : key,
+    snr: group.snr,
+  }));
+  return { count, strongCount, worstSigma, listed };
 }
 
 function borrowed(info: SpeciesInfo, source: SourceKind): boolean {
