@@ -1,12 +1,17 @@
 // All models and their associations; import models from here so associations are always set.
 import { AccessToken } from "./access-token";
 import { AuditEvent } from "./audit-event";
+import { Calibration } from "./calibration";
+import { Instrument } from "./instrument";
 import { Invitation } from "./invitation";
 import { Line } from "./line";
 import { LineRelease } from "./line-release";
 import { Membership } from "./membership";
+import { Notebook } from "./notebook";
 import { PasswordResetToken } from "./password-reset-token";
+import { Run } from "./run";
 import { SignInAttempt } from "./sign-in-attempt";
+import { SpectrumFile } from "./spectrum-file";
 import { Team } from "./team";
 import { User } from "./user";
 import { UserSession } from "./user-session";
@@ -28,16 +33,37 @@ LineRelease.belongsTo(User, { foreignKey: "publishedById", as: "publishedBy" });
 LineRelease.hasMany(Line, { foreignKey: "releaseId", as: "lines" });
 Line.belongsTo(LineRelease, { foreignKey: "releaseId", as: "release" });
 Line.belongsTo(User, { foreignKey: "verifiedById", as: "verifiedBy" });
+Team.hasMany(Instrument, { foreignKey: "teamId", as: "instruments" });
+Instrument.belongsTo(Team, { foreignKey: "teamId", as: "team" });
+Instrument.hasMany(SpectrumFile, { foreignKey: "instrumentId", as: "spectra" });
+SpectrumFile.belongsTo(Instrument, { foreignKey: "instrumentId", as: "instrument" });
+SpectrumFile.belongsTo(User, { foreignKey: "uploadedById", as: "uploadedBy" });
+Instrument.hasMany(Calibration, { foreignKey: "instrumentId", as: "calibrations" });
+Calibration.belongsTo(Instrument, { foreignKey: "instrumentId", as: "instrument" });
+Calibration.belongsTo(SpectrumFile, { foreignKey: "spectrumId", as: "spectrum" });
+Calibration.belongsTo(LineRelease, { foreignKey: "lineReleaseId", as: "lineRelease" });
+Team.hasMany(Notebook, { foreignKey: "teamId", as: "notebooks" });
+Notebook.belongsTo(Team, { foreignKey: "teamId", as: "team" });
+Notebook.hasMany(Run, { foreignKey: "notebookId", as: "runs" });
+Run.belongsTo(Notebook, { foreignKey: "notebookId", as: "notebook" });
+Run.belongsTo(SpectrumFile, { foreignKey: "spectrumId", as: "spectrum" });
+Run.belongsTo(Calibration, { foreignKey: "calibrationId", as: "calibration" });
+Run.belongsTo(LineRelease, { foreignKey: "lineReleaseId", as: "lineRelease" });
 
 export {
   AccessToken,
   AuditEvent,
+  Calibration,
+  Instrument,
   Invitation,
   Line,
   LineRelease,
   Membership,
+  Notebook,
   PasswordResetToken,
+  Run,
   SignInAttempt,
+  SpectrumFile,
   Team,
   User,
   UserSession,

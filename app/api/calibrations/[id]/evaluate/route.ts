@@ -1,0 +1,12 @@
+// POST {pixels} returns the calibrated wavelengths and their one-sigma uncertainties (nothing is written).
+import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { evaluateStoredCalibration } from "@/lib/services/calibrations";
+import { idParam } from "@/lib/validation/line-schemas";
+import { evaluateSchema } from "@/lib/validation/workflow-schemas";
+
+export const POST = apiRoute(async (request, { params }) => {
+  const actor = await requireActor();
+  const id = idParam((await params).id, "No such calibration.");
+  const { pixels } = await parseJson(request, evaluateSchema);
+  return Response.json(await evaluateStoredCalibration(actor, id, pixels));
+});

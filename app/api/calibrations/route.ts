@@ -1,0 +1,19 @@
+// GET an instrument's calibrations (?instrumentId=), newest first; POST calibrates from a lamp spectrum.
+import { AppError } from "@/lib/errors";
+import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { createCalibration, fetchCalibrations } from "@/lib/services/calibrations";
+import { idParam } from "@/lib/validation/line-schemas";
+import { calibrationCreateSchema } from "@/lib/validation/workflow-schemas";
+
+export const GET = apiRoute(async (request) => {
+  const actor = await requireActor();
+  const given = new URL(request.url).searchParams.get("instrumentId");
+  if (!given) throw new AppError("validation", "Say which instrument (?instrumentId=).");
+  return Response.json(await fetchCalibrations(actor, idParam(given, "No such instrument.")));
+});
+
+export const POST = apiRoute(async (request) => {
+  const actor = await requireActor();
+  const input = await parseJson(request, calibrationCreateSchema);
+  return Response.json(await createCalibration(actor, input), { status: 201 });
+});

@@ -1,0 +1,256 @@
+// Identification runs: a sample spectrum analysed on its calibration against the team's newest
+// published line-table release, stored with every peak, candidate match and call and everything
+// needed to reproduce it (settings, calibration, release, software version).
+import "server-only";
+import { AppError, notFound } from "@/lib/errors";
+import type { Actor } from "@/lib/auth/actor";
+import { authorize } from "@/lib/auth/policy";
+import { toReferenceLine } from "@/lib/lines";
+import { analyzeSample } from "@/lib/spectrum/analysis";
+import { prepareLineIndex, type ElementCall, type LineIndex } from "@/lib/spectrum/matching";
+import { spectrumToNanometres } from "@/lib/spectrum/units";
+import type { RunCreateInput } from "@/lib/validation/workflow-schemas";
+import { Calibration, Instrument, Run, sequelize } from "@/models";
+import { recordAudit } from "./audit";
+import { newestPublishedRelease } from "./calibrations";
+import { latestCalibrationOf } from "./instruments";
+import { selectLines } from "./line-library-access";
+import { toLineTableRow } from "./line-library-rows";
+import { loadNotebook } from "./notebooks";
+import { loadSpectrum, spectrumPoints } from "./spectra";
+import { SOFTWARE_VERSION, type RunCall, type RunPeak, type RunRecord, type RunSummary } from "./workflow-types";
+
+// Published releases never change, so an index prepared once per release serves every later run.
+const indexCache = new Map<string, Promise<LineIndex>>();
+const MAX_CACHED_RELEASES = 16;
+
+function lineIndexOf(releaseId: string): Promise<LineIndex> {
+  let index = indexCache.get(releaseId);
+  if (!index) {
+    index = selectLines("l.release_id = $1", [releaseId]).then((rows) =>
+      prepareLineIndex(rows.map((row) => toReferenceLine(toLineTableRow(row), row.id))),
+    );
+    index.catch(() => indexCache.delete(releaseId));
+    if (indexCache.size >= MAX_CACHED_RELEASES) indexCache.delete(indexCache.keys().next().value!);
+    indexCache.set(releaseId, index);
+  }
+  return index;
+}
+
+function toRunCall(call: ElementCall): RunCall {
+  return {
+    species: call.species,
+    element: call.element,
+    verdict: call.verdict,
+    score: call.score,
+    lines: call.seen.map((s) => ({
+      lineId: s.line.id,
+      lineNm: s.referenceNm,
+      peakNm: s.peakWavelengthNm,
+      deltaNm: s.deltaNm,
+      relativeIntensity: s.relativeIntensity,
+    })),
+    missing: call.missing.map((m) => ({
+      lineId: m.line.id,
+      lineNm: m.referenceNm,
+      relativeIntensity: m.relativeIntensity,
+      predictedSnr: m.predictedSnr,
+      hidden: m.hiddenByPeakIndex !== null,
+    })),
+    seenCount: call.seenCount,
+    missingCount: call.missingCount,
+    missingStrongCount: call.missingStrongCount,
+    overlaps: call.overlaps.map((o) => ({ peakNm: o.peakWavelengthNm, otherSpecies: o.otherSpecies })),
+    intensityBasis: call.intensityBasis,
+    notes: call.notes,
+    rationale: call.rationale,
+  };
+}
+
+function toRunRecord(row: Run): RunRecord {
+  return {
+    id: row.id,
+    notebookId: row.notebookId,
+    spectrumId: row.spectrumId,
+    calibrationId: row.calibrationId,
+    lineReleaseId: row.lineReleaseId,
+    source: row.source,
+    status: row.status,
+    settings: row.settings as RunRecord["settings"],
+    lampChecked: row.lampChecked,
+    softwareVersion: row.softwareVersion,
+    rangeNm: [row.rangeMinNm, row.rangeMaxNm],
+    noiseCounts: row.noiseCounts,
+    warnings: row.warnings as RunRecord["warnings"],
+    peaks: row.peaks as RunPeak[],
+    calls: row.calls as RunCall[],
+    unexplained: row.unexplained as RunRecord["unexplained"],
+    createdAt: row.createdAt.toISOString(),
+  };
+}
+
+export async function fetchRun(actor: Actor, runId: string): Promise<RunRecord> {
+  const row = await Run.findByPk(runId);
+  if (!row) throw notFound("No such run.");
+  authorize(actor, "team.view", { teamId: row.teamId });
+  return toRunRecord(row);
+}
+
+/** A notebook's runs, newest first, with the species called present. */
+export async function fetchNotebookRuns(actor: Actor, notebookId: string): Promise<RunSummary[]> {
+  const notebook = await loadNotebook(actor, notebookId);
+  const rows = await Run.findAll({
+    where: { notebookId: notebook.id },
+    attributes: ["id", "status", "spectrumId", "source", "calls", "createdAt"],
+    order: [["createdAt", "DESC"]],
+  });
+  return rows.map((r) => ({
+    id: r.id,
+    status: r.status,
+    spectrumId: r.spectrumId,
+    source: r.source,
+    present: (r.calls as RunCall[]).filter((c) => c.verdict === "present").map((c) => c.species),
+    createdAt: r.createdAt.toISOString(),
+  }));
+}
+
+export async function createRun(actor: Actor, input: RunCreateInput): Promise<RunRecord> {
+  const notebook = await loadNotebook(actor, input.notebookId, "run.create");
+  const spectrum = await loadSpectrum(actor, input.spectrumId);
+  if (spectrum.teamId !== notebook.teamId) throw notFound("No such spectrum.");
+  const instrument = (await Instrument.findByPk(spectrum.instrumentId))!;
+
+  let calibration: Calibration | null = null;
+  if (input.calibrationId) {
+    calibration = await Calibration.findByPk(input.calibrationId);
+    if (!calibration || calibration.teamId !== notebook.teamId) throw notFound("No such calibration.");
+    if (calibration.instrumentId !== spectrum.instrumentId) {
+      throw new AppError("validation", "That calibration belongs to another instrument.", {
+        fieldErrors: { calibrationId: ["Choose a calibration of the sample's instrument."] },
+      });
+    }
+    if (calibration.xUnit !== spectrum.xUnit) {
+      throw new AppError("validation", `That calibration maps a ${calibration.xUnit} axis; the sample's axis is ${spectrum.xUnit}.`, {
+        fieldErrors: { calibrationId: ["Choose a calibration made on the same kind of axis."] },
+      });
+    }
+  } else {
+    const latest = await latestCalibrationOf(spectrum.instrumentId);
+    if (latest && latest.xUnit === spectrum.xUnit) calibration = latest;
+    else if (spectrum.xUnit === "pixel") {
+      throw new AppError(
+        "unprocessable",
+        "The sample's axis is in pixels and its instrument has no calibration yet: calibrate with a lamp spectrum first.",
+      );
+    }
+  }
+
+  const release = await newestPublishedRelease(notebook.teamId);
+  const index = await lineIndexOf(release.id);
+  let { x, y } = spectrumPoints(spectrum);
+  if (!calibration && spectrum.xUnit !== "nm") {
+    // The file's own wavelength axis, put in nm and (when its medium is known) in air, as tables give lines above 200 nm.
+    const known = spectrum.xUnit === "wavenumber" || spectrum.medium !== null;
+    const inNm = spectrumToNanometres(
+      { x, y, xUnit: spectrum.xUnit, medium: spectrum.medium ?? undefined, meta: {} },
+      known ? { medium: "air", belowRange: "unchanged" } : {},
+    );
+    ({ x, y } = inNm);
+  }
+  const settings = input.settings ?? {};
+  let analysis;
+  try {
+    analysis = analyzeSample(x, y, index, {
+      calibration: calibration?.model ?? null,
+      source: input.source,
+      // A prism's resolution in nm varies across the array: each peak's own width stands in for it.
+      resolutionNm: instrument.dispersion === "grating" ? instrument.resolutionNm : undefined,
+      detectorMax: instrument.detectorMax ?? undefined,
+      minSnr: settings.minSnr,
+      k: settings.k,
+    });
+  } catch (error) {
+    if (error instanceof RangeError) throw new AppError("unprocessable", `The sample could not be analysed: ${error.message}`);
+    throw error;
+  }
+
+  const { identification } = analysis;
+  const peaks: RunPeak[] = analysis.peaks.map((p) => ({
+    x: p.x,
+    wavelengthNm: p.wavelengthNm,
+    uncertaintyNm: p.wavelengthUncertaintyNm,
+    fwhmNm: p.fwhmNm,
+    height: p.height,
+    snr: p.snr,
+    saturated: p.saturated,
+    blended: p.blended,
+  }));
+  const matches = identification.matches.map((m) => ({
+    peakIndex: m.peakIndex,
+    candidates: m.candidates.map((c) => ({
+      lineId: c.line.id,
+      species: c.line.species,
+      kind: c.kind,
+      referenceNm: c.referenceNm,
+      deltaNm: c.deltaNm,
+      sigmaNm: c.sigmaNm,
+      deltaSigma: c.deltaSigma,
+    })),
+  }));
+  const calls = identification.calls.map(toRunCall);
+  const overlaps = identification.overlaps.map((o) => ({ peakIndex: o.peakIndex, peakNm: o.peakWavelengthNm, species: o.species }));
+  const unexplained = identification.unexplainedPeaks.map((u) => ({
+    wavelengthNm: u.peak.wavelengthNm,
+    height: u.peak.height,
+    snr: u.peak.snr,
+    reason: u.reason,
+  }));
+
+  return sequelize.transaction(async (transaction) => {
+    const row = await Run.create(
+      {
+        teamId: notebook.teamId,
+        notebookId: notebook.id,
+        spectrumId: spectrum.id,
+        calibrationId: calibration?.id ?? null,
+        lineReleaseId: release.id,
+        source: input.source,
+        status: "complete",
+        settings,
+        lampChecked: analysis.lampChecked,
+        softwareVersion: SOFTWARE_VERSION,
+        rangeMinNm: analysis.rangeNm[0],
+        rangeMaxNm: analysis.rangeNm[1],
+        noiseCounts: analysis.noiseCounts,
+        peaks,
+        matches,
+        calls,
+        peakOverlaps: overlaps,
+        unexplained,
+        warnings: analysis.warnings,
+        createdById: actor.id,
+      },
+      { transaction },
+    );
+    await recordAudit(
+      {
+        actorId: actor.id,
+        teamId: notebook.teamId,
+        action: "run.create",
+        entity: "run",
+        entityId: row.id,
+        after: {
+          notebookId: notebook.id,
+          spectrumId: spectrum.id,
+          calibrationId: calibration?.id ?? null,
+          lineReleaseId: release.id,
+          source: input.source,
+          settings,
+          present: calls.filter((c) => c.verdict === "present").map((c) => c.species),
+        },
+      },
+      transaction,
+    );
+    return toRunRecord(row);
+  });
+}

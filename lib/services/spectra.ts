@@ -1,0 +1,154 @@
+// Uploaded spectra: the raw bytes are kept unchanged with their SHA-256 beside the parsed points;
+// a file the core cannot read is refused with its located message and nothing is stored.
+import "server-only";
+import { createHash } from "node:crypto";
+import { Op, type Transaction } from "sequelize";
+import { AppError, notFound } from "@/lib/errors";
+import type { Actor } from "@/lib/auth/actor";
+import { authorize, type TeamAction } from "@/lib/auth/policy";
+import { SpectrumParseError, decodeSpectrumBytes, parseSpectrumFile } from "@/lib/spectrum/io";
+import type { AxisUnit } from "@/lib/spectrum/types";
+import { MAX_UPLOAD_BYTES, MAX_UPLOAD_POINTS } from "@/lib/validation/workflow-schemas";
+import { SpectrumFile, sequelize } from "@/models";
+import { recordAudit } from "./audit";
+import { loadInstrument } from "./instruments";
+import type { SpectrumRecord } from "./workflow-types";
+
+/** Points as little-endian float64 bytes, whatever the machine's byte order. */
+export function float64ToBytes(values: Float64Array): Buffer {
+  const buffer = Buffer.allocUnsafe(values.length * 8);
+  for (let i = 0; i < values.length; i++) buffer.writeDoubleLE(values[i], i * 8);
+  return buffer;
+}
+
+export function bytesToFloat64(bytes: Buffer): Float64Array {
+  const values = new Float64Array(bytes.length / 8);
+  for (let i = 0; i < values.length; i++) values[i] = bytes.readDoubleLE(i * 8);
+  return values;
+}
+
+function toSpectrumRecord(row: SpectrumFile, duplicateOf: SpectrumRecord["duplicateOf"], xRange: [number, number]): SpectrumRecord {
+  return {
+    id: row.id,
+    teamId: row.teamId,
+    instrumentId: row.instrumentId,
+    kind: row.kind,
+    label: row.label,
+    fileName: row.fileName,
+    byteSize: row.byteSize,
+    sha256: row.sha256,
+    points: row.pointCount,
+    xUnit: row.xUnit,
+    medium: row.medium,
+    xRange,
+    uploadedAt: row.createdAt.toISOString(),
+    uploadedById: row.uploadedById,
+    duplicateOf,
+  };
+}
+
+async function earlierUpload(row: { teamId: string; sha256: string; id?: string }, transaction?: Transaction) {
+  const earlier = await SpectrumFile.findOne({
+    where: { teamId: row.teamId, sha256: row.sha256, ...(row.id ? { id: { [Op.ne]: row.id } } : {}) },
+    attributes: ["id", "fileName", "createdAt"],
+    order: [["createdAt", "ASC"]],
+    transaction,
+  });
+  return earlier ? { id: earlier.id, fileName: earlier.fileName, uploadedAt: earlier.createdAt.toISOString() } : null;
+}
+
+/** A stored spectrum the actor may act on; another team's is not found. */
+export async function loadSpectrum(actor: Actor, spectrumId: string, action: TeamAction = "instrument.view"): Promise<SpectrumFile> {
+  const row = await SpectrumFile.findByPk(spectrumId);
+  if (!row) throw notFound("No such spectrum.");
+  authorize(actor, action, { teamId: row.teamId });
+  return row;
+}
+
+export function spectrumPoints(row: SpectrumFile): { x: Float64Array; y: Float64Array } {
+  return { x: bytesToFloat64(row.xValues), y: bytesToFloat64(row.yValues) };
+}
+
+export async function fetchSpectrum(actor: Actor, spectrumId: string): Promise<SpectrumRecord> {
+  const row = await loadSpectrum(actor, spectrumId);
+  const { x } = spectrumPoints(row);
+  const earlier = await earlierUpload(row);
+  const duplicateOf = earlier && earlier.uploadedAt < row.createdAt.toISOString() ? earlier : null;
+  return toSpectrumRecord(row, duplicateOf, [x[0], x[x.length - 1]]);
+}
+
+export interface SpectrumUpload {
+  instrumentId: string;
+  kind: "lamp" | "sample";
+  label: string;
+  fileName: string;
+  bytes: Uint8Array;
+  /** Unit of the first column when the file does not say. */
+  xUnit?: AxisUnit;
+}
+
+export async function uploadSpectrum(actor: Actor, upload: SpectrumUpload): Promise<SpectrumRecord> {
+  const instrument = await loadInstrument(actor, upload.instrumentId, "spectrum.upload");
+  if (upload.bytes.length > MAX_UPLOAD_BYTES) {
+    throw new AppError("too_large", `The file is ${upload.bytes.length} bytes; the limit is ${MAX_UPLOAD_BYTES} bytes (16 MiB).`);
+  }
+  let spectrum;
+  try {
+    const text = decodeSpectrumBytes(upload.bytes, { maxBytes: MAX_UPLOAD_BYTES });
+    spectrum = parseSpectrumFile(text, { xUnit: upload.xUnit, maxBytes: MAX_UPLOAD_BYTES, maxPoints: MAX_UPLOAD_POINTS });
+  } catch (error) {
+    if (error instanceof SpectrumParseError) {
+      throw new AppError("validation", error.message, { fieldErrors: { file: [error.message] } });
+    }
+    if (error instanceof RangeError) throw new AppError("validation", error.message, { fieldErrors: { file: [error.message] } });
+    throw error;
+  }
+  const raw = Buffer.from(upload.bytes.buffer, upload.bytes.byteOffset, upload.bytes.byteLength);
+  const sha256 = createHash("sha256").update(raw).digest("hex");
+  return sequelize.transaction(async (transaction) => {
+    const duplicateOf = await earlierUpload({ teamId: instrument.teamId, sha256 }, transaction);
+    const row = await SpectrumFile.create(
+      {
+        teamId: instrument.teamId,
+        instrumentId: instrument.id,
+        kind: upload.kind,
+        label: upload.label,
+        fileName: upload.fileName,
+        byteSize: raw.length,
+        sha256,
+        rawBytes: raw,
+        xUnit: spectrum.xUnit,
+        medium: spectrum.medium ?? null,
+        pointCount: spectrum.x.length,
+        xValues: float64ToBytes(spectrum.x),
+        yValues: float64ToBytes(spectrum.y),
+        meta: spectrum.meta,
+        uploadedById: actor.id,
+      },
+      { transaction },
+    );
+    const record = toSpectrumRecord(row, duplicateOf, [spectrum.x[0], spectrum.x[spectrum.x.length - 1]]);
+    await recordAudit(
+      {
+        actorId: actor.id,
+        teamId: instrument.teamId,
+        action: "spectrum.upload",
+        entity: "spectrum_file",
+        entityId: row.id,
+        after: {
+          instrumentId: instrument.id,
+          kind: upload.kind,
+          label: upload.label,
+          fileName: upload.fileName,
+          byteSize: raw.length,
+          sha256,
+          points: spectrum.x.length,
+          xUnit: spectrum.xUnit,
+          duplicateOf: duplicateOf?.id ?? null,
+        },
+      },
+      transaction,
+    );
+    return record;
+  });
+}

@@ -1,0 +1,140 @@
+// Plain shapes the workflow services return (instruments, spectra, calibrations, notebooks, runs):
+// what pages and the API see; no Sequelize instance or column name gets past the services.
+import type { AxisUnit, SourceKind, WavelengthMedium } from "@/lib/spectrum/types";
+import type { Verdict } from "@/lib/spectrum/matching";
+import packageJson from "@/package.json";
+
+export interface InstrumentRecord {
+  id: string;
+  teamId: string;
+  name: string;
+  dispersion: "prism" | "grating";
+  pixels: number;
+  nominalMinNm: number;
+  nominalMaxNm: number;
+  resolutionNm: number;
+  detectorMax: number | null;
+  glass: string | null;
+  apexDeg: number | null;
+  createdAt: string;
+  /** The newest calibration, the default for new runs; null when the instrument has none yet. */
+  latestCalibrationId: string | null;
+}
+
+export interface SpectrumRecord {
+  id: string;
+  teamId: string;
+  instrumentId: string;
+  kind: "lamp" | "sample";
+  label: string;
+  fileName: string;
+  byteSize: number;
+  sha256: string;
+  points: number;
+  xUnit: AxisUnit;
+  medium: WavelengthMedium | null;
+  xRange: [number, number];
+  uploadedAt: string;
+  uploadedById: string | null;
+  /** An earlier upload of the same bytes in the team (the oldest), when there is one. */
+  duplicateOf: { id: string; fileName: string; uploadedAt: string } | null;
+}
+
+export interface CalibrationPairRecord {
+  pixel: number;
+  wavelengthNm: number;
+  residualNm: number;
+  species: string | null;
+  lineId: string | null;
+}
+
+export interface CalibrationRecord {
+  id: string;
+  instrumentId: string;
+  spectrumId: string;
+  lineReleaseId: string;
+  lamps: string[];
+  requestedModel: string;
+  /** "polynomial-3", "hartmann" or "prism". */
+  model: string;
+  rmsNm: number;
+  dof: number;
+  pairs: CalibrationPairRecord[];
+  rejected: CalibrationPairRecord[];
+  coveredRangeNm: [number, number];
+  uncertainty: { medianNm: number; maxNm: number };
+  /** Calibrated wavelength now minus under the previous calibration, at a few pixels. */
+  drift: { previousCalibrationId: string; pixels: number[]; deltaNm: number[]; maxAbsNm: number } | null;
+  pairing: { status: string; confidence: number; message: string; manualSeeds: number };
+  warnings: { code: string; message: string }[];
+  softwareVersion: string;
+  calibratedOn: string;
+  createdAt: string;
+}
+
+export interface NotebookRecord {
+  id: string;
+  teamId: string;
+  title: string;
+  createdAt: string;
+  runCount: number;
+}
+
+export interface RunSummary {
+  id: string;
+  status: "complete";
+  spectrumId: string;
+  source: SourceKind;
+  present: string[];
+  createdAt: string;
+}
+
+export interface RunPeak {
+  x: number;
+  wavelengthNm: number;
+  uncertaintyNm: number;
+  fwhmNm: number;
+  height: number;
+  snr: number;
+  saturated: boolean;
+  blended: boolean;
+}
+
+export interface RunCall {
+  species: string;
+  element: string;
+  verdict: Verdict;
+  score: number;
+  lines: { lineId: string; lineNm: number; peakNm: number; deltaNm: number; relativeIntensity: number | null }[];
+  missing: { lineId: string; lineNm: number; relativeIntensity: number; predictedSnr: number | null; hidden: boolean }[];
+  seenCount: number;
+  missingCount: number;
+  missingStrongCount: number;
+  overlaps: { peakNm: number; otherSpecies: string[] }[];
+  intensityBasis: string;
+  notes: string[];
+  rationale: string;
+}
+
+export interface RunRecord {
+  id: string;
+  notebookId: string;
+  spectrumId: string;
+  calibrationId: string | null;
+  lineReleaseId: string;
+  source: SourceKind;
+  status: "complete";
+  settings: { minSnr?: number; k?: number; temperatureK?: number };
+  lampChecked: boolean;
+  softwareVersion: string;
+  rangeNm: [number, number];
+  noiseCounts: number;
+  warnings: { code: string; message: string }[];
+  peaks: RunPeak[];
+  calls: RunCall[];
+  unexplained: { wavelengthNm: number; height: number; snr: number; reason: string }[];
+  createdAt: string;
+}
+
+/** The software version stored with every calibration and run (package.json's version). */
+export const SOFTWARE_VERSION: string = packageJson.version;

@@ -1,0 +1,115 @@
+// Schemas of the workflow API: instruments, spectrum uploads, calibrations, notebooks and runs.
+// Route handlers parse with these; the services check what depends on stored data.
+import { z } from "zod";
+import { GLASS_NAMES, type GlassName } from "@/lib/spectrum/calibration";
+import { SOURCE_KINDS, type SourceKind } from "@/lib/spectrum/types";
+import { AppError } from "@/lib/errors";
+
+/** Largest upload, in bytes (16 MiB). Bigger files get 413 before they are parsed. */
+export const MAX_UPLOAD_BYTES = 16 * 1024 * 1024;
+/** Largest number of points in an uploaded spectrum. */
+export const MAX_UPLOAD_POINTS = 2_000_000;
+
+const positive = (what: string) => z.number({ error: `Enter ${what}.` }).finite().positive(`${what} must be positive.`);
+
+export const instrumentCreateSchema = z
+  .object({
+    teamId: z.uuid("Choose a team."),
+    name: z.string({ error: "Name the instrument." }).trim().min(1, "Name the instrument.").max(120),
+    dispersion: z.enum(["prism", "grating"], { error: "Choose prism or grating." }),
+    pixels: z.number({ error: "Enter the number of pixels." }).int().min(16).max(MAX_UPLOAD_POINTS),
+    nominalMinNm: positive("the shortest nominal wavelength"),
+    nominalMaxNm: positive("the longest nominal wavelength"),
+    resolutionNm: positive("the resolution (FWHM in nm)"),
+    detectorMax: positive("the detector maximum").nullable().optional(),
+    glass: z
+      .enum(GLASS_NAMES as unknown as [GlassName, ...GlassName[]], { error: `Choose one of ${GLASS_NAMES.join(", ")}.` })
+      .nullable()
+      .optional(),
+    apexDeg: z.number().finite().gt(0).lt(90, "The apex angle must be below 90°.").nullable().optional(),
+  })
+  .refine((i) => i.nominalMaxNm > i.nominalMinNm, {
+    path: ["nominalMaxNm"],
+    message: "The longest wavelength must be above the shortest.",
+  })
+  .refine((i) => i.dispersion === "prism" || (i.glass == null && i.apexDeg == null), {
+    path: ["glass"],
+    message: "Only a prism has a glass and an apex angle.",
+  });
+export type InstrumentCreateInput = z.infer<typeof instrumentCreateSchema>;
+
+export const AXIS_UNITS = ["pixel", "nm", "angstrom", "wavenumber"] as const;
+
+export const spectrumUploadFieldsSchema = z.object({
+  instrumentId: z.uuid("Choose an instrument."),
+  kind: z.enum(["lamp", "sample"], { error: "Say whether this is a lamp or a sample spectrum." }),
+  label: z.string().trim().max(200, "Use at most 200 characters.").default(""),
+  xUnit: z.enum(AXIS_UNITS, { error: `The x unit is one of ${AXIS_UNITS.join(", ")}.` }).optional(),
+});
+
+export const CALIBRATION_MODELS = [
+  "auto",
+  "polynomial-1",
+  "polynomial-2",
+  "polynomial-3",
+  "polynomial-4",
+  "polynomial-5",
+  "hartmann",
+  "prism",
+] as const;
+export type CalibrationModelChoice = (typeof CALIBRATION_MODELS)[number];
+
+export const calibrationCreateSchema = z.object({
+  instrumentId: z.uuid("Choose an instrument."),
+  spectrumId: z.uuid("Choose a lamp spectrum."),
+  lamps: z
+    .array(z.string().trim().regex(/^[A-Z][a-z]?$/, "Name each lamp gas by its element symbol (Hg, Ar, Ne…)."), {
+      error: "List the lamp gases.",
+    })
+    .min(1, "List the lamp gases.")
+    .max(20),
+  model: z.enum(CALIBRATION_MODELS, { error: `The model is one of ${CALIBRATION_MODELS.join(", ")}.` }).default("auto"),
+  /** Hand-picked seed pairs (2 or 3) when automatic pairing is not trusted. */
+  pairs: z
+    .array(z.object({ pixel: z.number().finite(), wavelengthNm: z.number().finite().positive() }))
+    .min(2, "Pick two or three pairs.")
+    .max(3, "Pick two or three pairs.")
+    .optional(),
+});
+export type CalibrationCreateInput = z.infer<typeof calibrationCreateSchema>;
+
+export const evaluateSchema = z.object({
+  pixels: z.array(z.number().finite(), { error: "Send the pixels as an array of numbers." }).min(1).max(100_000),
+});
+
+export const notebookCreateSchema = z.object({
+  teamId: z.uuid("Choose a team."),
+  title: z.string({ error: "Give the notebook a title." }).trim().min(1, "Give the notebook a title.").max(200),
+});
+
+export const runCreateSchema = z.object({
+  notebookId: z.uuid("Choose a notebook."),
+  spectrumId: z.uuid("Choose a sample spectrum."),
+  calibrationId: z.uuid("Choose a calibration.").nullable().optional(),
+  source: z.enum(SOURCE_KINDS as unknown as [SourceKind, ...SourceKind[]], {
+    error: `The source is one of ${SOURCE_KINDS.join(", ")}.`,
+  }),
+  settings: z
+    .object({
+      minSnr: z.number().finite().min(1).max(1000).optional(),
+      k: z.number().finite().gt(0).max(20).optional(),
+      temperatureK: z.number().finite().min(500).max(20000).optional(),
+    })
+    .strict()
+    .default({}),
+});
+export type RunCreateInput = z.infer<typeof runCreateSchema>;
+
+/** A team id from the query string: absent means the actor's first team; malformed means not found. */
+export function teamIdQuery(request: Request, fallback: string | undefined): string {
+  const given = new URL(request.url).searchParams.get("teamId");
+  if (given !== null && !z.uuid().safeParse(given).success) throw new AppError("not_found", "No such team.");
+  const teamId = given ?? fallback;
+  if (!teamId) throw new AppError("not_found", "You are not in a team yet.");
+  return teamId;
+}
