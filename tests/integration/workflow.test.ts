@@ -15,6 +15,7 @@ import {
   RESOLUTION_NM,
   darkFile,
   flameFile,
+  flameFileOnWavelengthAxis,
   lampFile,
   syntheticGrating,
   syntheticPrism,
@@ -320,6 +321,53 @@ describe("the grating chain: lamp → calibration → flame run", () => {
     for (const d of again.drift!.deltaNm) expect(Math.abs(d)).toBeLessThan(1e-9);
     const byDefault = await run(notebookId, flameSpectrum.id);
     expect(byDefault.calibrationId).toBe(again.id);
+  });
+});
+
+describe("other ways through", () => {
+  it("extends two or three hand-picked pairs to a calibration within the same tolerance", async () => {
+    const seeds = [0, Math.floor(gratingCalibration.pairs.length / 2), gratingCalibration.pairs.length - 1]
+      .map((i) => gratingCalibration.pairs[i])
+      .map((p) => ({ pixel: Math.round(p.pixel), wavelengthNm: p.wavelengthNm }));
+    const reply = await chemist.post<Calibration & { pairing: { manualSeeds: number } }>("/api/calibrations", {
+      instrumentId: gratingInstrument.id,
+      spectrumId: lampSpectrum.id,
+      lamps: ["Hg", "Ar"],
+      model: "polynomial-3",
+      pairs: seeds,
+    });
+    expect(reply.status, JSON.stringify(reply.body)).toBe(201);
+    expect(reply.body.pairing.manualSeeds).toBe(3);
+    expect(reply.body.model).toBe("polynomial-3");
+    for (const p of await errorsInsideCoveredRange(reply.body, grating)) {
+      expect(Math.abs(p.errorNm), `pixel ${p.pixel}`).toBeLessThan(TOLERANCE_NM);
+    }
+    const noLine = await chemist.post<ErrorBody>("/api/calibrations", {
+      instrumentId: gratingInstrument.id,
+      spectrumId: lampSpectrum.id,
+      lamps: ["Hg", "Ar"],
+      pairs: [seeds[0], { pixel: seeds[1].pixel, wavelengthNm: 123.456 }],
+    });
+    expect(noLine.status).toBe(400);
+    expect(noLine.body.error.fieldErrors?.["pairs.1.wavelengthNm"]).toBeDefined();
+  });
+
+  it("runs a file with its own wavelength axis without a calibration, marked as not lamp-checked", async () => {
+    const sample = await uploadOk(gratingInstrument.id, "sample", flameFileOnWavelengthAxis(grating), "flame-nm.csv");
+    expect(sample.xUnit).toBe("nm");
+    const onItsAxis = await run(notebookId, sample.id);
+    expect(onItsAxis.calibrationId).toBeNull();
+    expect(onItsAxis.lampChecked).toBe(false);
+    for (const species of PRESENT) expect(verdictOf(onItsAxis, species), species).toBe("present");
+    for (const species of ABSENT) expect(verdictOf(onItsAxis, species), species).not.toBe("present");
+    // A pixel-axis calibration does not apply to a wavelength axis.
+    const mismatched = await chemist.post<ErrorBody>("/api/runs", {
+      notebookId,
+      spectrumId: sample.id,
+      calibrationId: gratingCalibration.id,
+      source: "flame",
+    });
+    expect(mismatched.status).toBe(400);
   });
 });
 

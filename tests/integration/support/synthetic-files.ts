@@ -85,6 +85,13 @@ function lineWidthNm(instrument: SyntheticInstrument, wavelengthNm: number): num
   return SLIT_IMAGE_PX * Math.abs(wavelengthOfPixel(px + 0.5) - wavelengthOfPixel(px - 0.5));
 }
 
+/** The same flame as flameFile, exported on the instrument's own wavelength axis: "wavelength_nm,counts". */
+export function flameFileOnWavelengthAxis(instrument: SyntheticInstrument, seed = 11): string {
+  const counts = flameFile(instrument, seed).trim().split("\n").slice(1).map((row) => row.split(",")[1]);
+  const rows = ["wavelength_nm,counts", ...counts.map((c, i) => `${instrument.wavelengthOfPixel(i).toFixed(4)},${c}`)];
+  return `${rows.join("\n")}\n`;
+}
+
 function toPixelCsv(y: Float64Array): string {
   const rows = ["pixel,counts"];
   for (let i = 0; i < y.length; i++) rows.push(`${i},${y[i].toFixed(2)}`);
