@@ -5,6 +5,8 @@ import type { CalibrationModelKind } from "../calibration/calibration-model";
 import { fitCalibration, type FitCalibrationResult } from "../calibration/fit-calibration";
 import type { LampLine, LampPairingResult } from "../calibration/lamp-pairing-types";
 import { findPeaks } from "../peaks/find-peaks";
+import { binSamples } from "../signal/bin-samples";
+import { binningFactorFor } from "../signal/binning-factor-for";
 import type { DispersionKind, Peak } from "../types";
 
 export interface CalibrateLampOptions {
@@ -40,7 +42,13 @@ export function calibrateLamp(
   options: CalibrateLampOptions,
 ): LampCalibration {
   const { model = "auto", minSnr = 8, seed = 1 } = options;
-  const peaks = findPeaks(x, y, { source: "lamp", minSnr });
+  // A heavily oversampled array (a line thousands of samples wide) is averaged down to a few samples
+  // per line first: the smoothing window is sized for lines a few samples wide.
+  const spanNm = Math.abs(options.nominalRangeNm[1] - options.nominalRangeNm[0]);
+  const resolutionNm = options.resolutionNm ?? spanNm / 500;
+  const factor = binningFactorFor(resolutionNm / (spanNm / (x.length - 1)));
+  const binned = binSamples(x, y, { factor });
+  const peaks = findPeaks(binned.x, binned.y, { source: "lamp", minSnr });
   const domain: [number, number] = [x[0], x[x.length - 1]];
   const pairing = autoPairLampPeaks(peaks, lines, {
     nominalRangeNm: options.nominalRangeNm,

@@ -17,3 +17,5 @@ export { xMedian } from "./x-median";
 export { assertFiniteArray } from "./assert-finite-array";
 export { assertStrictlyIncreasing } from "./assert-strictly-increasing";
 export { assertIntegerInRange } from "./assert-integer-in-range";
+export { binSamples, type BinSamplesOptions } from "./bin-samples";
+export { binningFactorFor } from "./binning-factor-for";
