@@ -120,4 +120,11 @@ export interface CalibratedPeak extends Peak {
   wavelengthUncertaintyNm: number;
   /** Full width at half maximum in nm. */
   fwhmNm: number;
+  /** The instrument's line-profile FWHM in nm at this peak (its slit image through the local
+   * dispersion), where known; matching then uses it for the resolution term instead of one value
+   * for the whole array. */
+  resolutionNm?: number;
+  /** True when the peak is several times wider than the instrument's line profile there (and not
+   * saturated): too wide for one atomic line, so only molecular bands may explain it. */
+  broad?: boolean;
 }

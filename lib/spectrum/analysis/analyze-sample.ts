@@ -1,14 +1,17 @@
 // The whole identification of one sample spectrum: prepare the signal, find peaks, put them on the
-// calibrated axis, match them to the line table and score the species.
+// calibrated axis with the instrument's line width at each, match them to the line table and
+// score the species.
 import type { CalibrationModel, CalibrationWarning } from "../calibration/calibration-model";
 import { calibrationRangeWarnings } from "../calibration/calibration-range-warnings";
+import { dispersionAt } from "../calibration/dispersion-at";
 import { evaluateCalibration } from "../calibration/evaluate-calibration";
 import { identifyElements, type ElementIdentification } from "../matching/identify-elements";
 import { prepareLineIndex, type LineIndex } from "../matching/prepare-line-index";
 import { pickPeaks, type PickPeaksOptions } from "../peaks/pick-peaks";
 import { prepareSignal } from "../signal/prepare-signal";
-import type { CalibratedPeak, ReferenceLine, SourceKind } from "../types";
+import type { CalibratedPeak, Peak, ReferenceLine, SourceKind } from "../types";
 import { calibratePeaks } from "./calibrate-peaks";
+import { estimateInstrumentFwhm, type EstimateInstrumentFwhmOptions } from "./estimate-instrument-fwhm";
 
 export interface AnalyzeSampleOptions {
   /** The dispersion relation for the input axis; null when x already is a wavelength axis in nm.
@@ -17,9 +20,23 @@ export interface AnalyzeSampleOptions {
   /** Kind of source; chooses the continuum method and the expected relative intensities.
    * @default "flame" */
   source?: SourceKind;
-  /** Instrument resolution (FWHM) in nm, for the matching tolerance.
-   * @default each peak's own FWHM */
+  /** Instrument resolution (FWHM) in nm; on a calibrated pixel axis it is taken as the resolution
+   * at the middle of the array and turned into resolutionPx there (see resolutionPx).
+   * @default estimated (see resolutionPx) */
   resolutionNm?: number;
+  /** Instrument line-profile FWHM in pixels (the slit image, about constant across the array),
+   * for a calibrated pixel axis only. Each peak then gets the resolution in nm at its own
+   * wavelength (this × |dλ/dx| there) for the matching tolerance, and peaks wider than
+   * broadFactor times it are flagged broad and offered only molecular bands.
+   * @default resolutionNm / |dλ/dx| at the middle of the array when resolutionNm is given, else
+   * the median FWHM of the sample's clearest peaks (see estimateInstrumentFwhm); without a
+   * calibration nothing is estimated (the axis's pixel layout is unknown) */
+  resolutionPx?: number;
+  /** A peak wider than this many instrument FWHM (and not saturated) is flagged broad.
+   * @default 3 */
+  broadFactor?: number;
+  /** Settings of the estimate of resolutionPx from the sample's own peaks. */
+  resolutionEstimate?: EstimateInstrumentFwhmOptions;
   /** Detector maximum in counts, to flag saturated peaks.
    * @default undefined (flat tops at the array's maximum) */
   detectorMax?: number;
@@ -44,6 +61,18 @@ export interface SampleAnalysis {
   warnings: CalibrationWarning[];
   /** True when the axis was used without a lamp calibration. */
   lampChecked: boolean;
+  /** The instrument line width the analysis used, and where it came from; null when none was
+   * known (the matching then falls back on each peak's own FWHM and nothing is flagged broad). */
+  instrumentWidth: InstrumentWidth | null;
+}
+
+/** The instrument's line-profile FWHM used by an analysis. */
+export interface InstrumentWidth {
+  /** FWHM on the input axis: pixels when lamp-calibrated, nm on an axis used as it is. */
+  fwhm: number;
+  unit: "px" | "nm";
+  /** Given as resolutionPx, converted from resolutionNm, or estimated from the sample's peaks. */
+  basis: "resolutionPx" | "resolutionNm" | "estimated";
 }
 
 /** Accepts the line table as rows or as an index prepared once and reused across analyses. */
@@ -53,9 +82,19 @@ export function analyzeSample(
   lines: readonly ReferenceLine[] | LineIndex,
   options: AnalyzeSampleOptions = {},
 ): SampleAnalysis {
-  const { calibration = null, source = "flame", resolutionNm, detectorMax, minSnr = 5, k = 3 } = options;
+  const { calibration = null, source = "flame", resolutionNm, resolutionPx, broadFactor, detectorMax, minSnr = 5, k = 3 } = options;
+  for (const [name, value] of Object.entries({ resolutionNm, resolutionPx })) {
+    if (value !== undefined && (!(value > 0) || !Number.isFinite(value))) {
+      throw new RangeError(`${name} must be a positive finite number, got ${value}`);
+    }
+  }
+  if (resolutionPx !== undefined && !calibration) {
+    throw new RangeError("resolutionPx needs a calibrated pixel axis; give resolutionNm for an axis already in nm");
+  }
   const signal = prepareSignal(x, y, { source, detectorMax });
-  const peaks = calibratePeaks(pickPeaks(x, signal, { ...options.peakOptions, minSnr }), { calibration });
+  const picked = pickPeaks(x, signal, { ...options.peakOptions, minSnr });
+  const instrumentWidth = resolveInstrumentWidth(x, picked, calibration, options);
+  const peaks = calibratePeaks(picked, { calibration, instrumentFwhm: instrumentWidth?.fwhm, broadFactor });
   const ends = Float64Array.of(x[0], x[x.length - 1]);
   const endsNm = calibration ? evaluateCalibration(calibration, ends) : ends;
   const rangeNm: [number, number] = [Math.min(endsNm[0], endsNm[1]), Math.max(endsNm[0], endsNm[1])];
@@ -68,5 +107,39 @@ export function analyzeSample(
     noiseCounts: signal.noise,
   });
   const warnings: CalibrationWarning[] = calibration ? calibrationRangeWarnings(calibration, ends) : [];
-  return { peaks, identification, rangeNm, noiseCounts: signal.noise, warnings, lampChecked: Boolean(calibration) };
+  return {
+    peaks,
+    identification,
+    rangeNm,
+    noiseCounts: signal.noise,
+    warnings,
+    lampChecked: Boolean(calibration),
+    instrumentWidth,
+  };
+}
+
+/**
+ * resolutionPx as given; else resolutionNm over the dispersion at the array's middle (a grating's
+ * is nearly constant; for a prism the chemist's one number is best read as its middle); else the
+ * median width of the clearest peaks. Without a calibration only a given resolutionNm counts.
+ */
+function resolveInstrumentWidth(
+  x: Float64Array,
+  peaks: Peak[],
+  calibration: CalibrationModel | null,
+  options: AnalyzeSampleOptions,
+): InstrumentWidth | null {
+  const { resolutionNm, resolutionPx } = options;
+  if (!calibration) return resolutionNm === undefined ? null : { fwhm: resolutionNm, unit: "nm", basis: "resolutionNm" };
+  if (resolutionPx !== undefined) return { fwhm: resolutionPx, unit: "px", basis: "resolutionPx" };
+  if (resolutionNm !== undefined) {
+    const middle = Float64Array.of(0.5 * (x[0] + x[x.length - 1]));
+    const slope = Math.abs(dispersionAt(calibration, middle)[0]);
+    if (!(slope > 0) || !Number.isFinite(slope)) {
+      throw new RangeError(`the calibration's dispersion at the array's middle is not usable (${slope} nm per pixel)`);
+    }
+    return { fwhm: resolutionNm / slope, unit: "px", basis: "resolutionNm" };
+  }
+  const estimated = estimateInstrumentFwhm(peaks, options.resolutionEstimate);
+  return estimated === null ? null : { fwhm: estimated, unit: "px", basis: "estimated" };
 }

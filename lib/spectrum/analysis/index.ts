@@ -1,4 +1,5 @@
 // Public API of the composed analyses: calibrated peaks and the identification of a sample.
 export { calibratePeaks, type CalibratePeaksOptions } from "./calibrate-peaks";
-export { analyzeSample, type AnalyzeSampleOptions, type SampleAnalysis } from "./analyze-sample";
+export { analyzeSample, type AnalyzeSampleOptions, type InstrumentWidth, type SampleAnalysis } from "./analyze-sample";
+export { estimateInstrumentFwhm, type EstimateInstrumentFwhmOptions } from "./estimate-instrument-fwhm";
 export { calibrateLamp, type CalibrateLampOptions, type LampCalibration } from "./calibrate-lamp";

@@ -1,4 +1,5 @@
-// Finds, for each calibrated peak, the reference lines and band heads within k·σ of its wavelength.
+// Finds, for each calibrated peak, the reference lines and band heads within k·σ of its wavelength;
+// a peak flagged broad (too wide for one atomic line) is offered band heads only.
 
 import type { CalibratedPeak, ReferenceLine, WavelengthMedium } from "../types";
 import { lowerBound } from "./lower-bound";
@@ -8,7 +9,9 @@ export interface MatchPeaksToLinesOptions {
   /** Half-width of the acceptance window in combined standard deviations.
    * @default 3 */
   k?: number;
-  /** Instrument resolution (FWHM of an unresolved line) in nm.
+  /** Instrument resolution (FWHM of an unresolved line) in nm, for peaks that carry no
+   * resolutionNm of their own (a peak's own value, set where the resolution varies across the
+   * array as on a prism, takes precedence).
    * @default each peak's own fwhmNm */
   resolutionNm?: number;
   /** σ_res = resolutionSigmaFraction × resolution FWHM; 1/√12 is the standard deviation of a
@@ -54,7 +57,9 @@ const MINIMUM_SIGMA_NM = 1e-6;
 /**
  * σ² = σ_peak² + σ_line² + σ_res²: σ_peak is the peak's wavelengthUncertaintyNm (its centre
  * uncertainty through the dispersion, with the calibration's uncertainty there), σ_line the
- * table's, σ_res the resolution term. Lines are found by binary search on the prepared index
+ * table's, σ_res the resolution term: resolutionSigmaFraction × the instrument's FWHM at the peak
+ * (the peak's resolutionNm, else options.resolutionNm; the peak's own FWHM when it is blended and
+ * wider, or when neither is known). A peak flagged broad gets band candidates only. Lines are found by binary search on the prepared index
  * within the widest possible window, then each pair is tested with its own σ: O(P log L + hits).
  */
 export function matchPeaksToLines(
@@ -82,13 +87,19 @@ export function matchPeaksToLines(
 
   return peaks.map((peak, peakIndex) => {
     assertPeak(peak, peakIndex);
-    const resolutionFwhmNm = resolutionNm ?? peak.fwhmNm;
+    const instrumentNm = peak.resolutionNm ?? resolutionNm;
+    // A blended peak's components can lie anywhere across its own width, not only within the
+    // instrument's: its centroid may then sit up to half that width from either of them.
+    const resolutionFwhmNm =
+      instrumentNm === undefined ? peak.fwhmNm : peak.blended ? Math.max(instrumentNm, peak.fwhmNm) : instrumentNm;
     const sigmaResNm = resolutionSigmaFraction * resolutionFwhmNm;
     const baseVarianceNm2 = peak.wavelengthUncertaintyNm ** 2 + sigmaResNm ** 2;
     const candidates: LineCandidate[] = [];
 
     const lineReachNm = k * Math.sqrt(baseVarianceNm2 + index.maxLineUncertaintyNm ** 2);
-    const from = lowerBound(index.lineWavelengthNm, peak.wavelengthNm - lineReachNm);
+    // Several instrument widths wide is a band, a blend of many lines or continuum structure:
+    // no single atomic line explains it, and its wide window would catch lines by chance.
+    const from = peak.broad ? index.lineWavelengthNm.length : lowerBound(index.lineWavelengthNm, peak.wavelengthNm - lineReachNm);
     for (let i = from; i < index.lineWavelengthNm.length; i++) {
       const referenceNm = index.lineWavelengthNm[i];
       if (referenceNm > peak.wavelengthNm + lineReachNm) break;
@@ -168,6 +179,9 @@ function assertPeak(peak: CalibratedPeak, position: number): void {
   }
   if (!(peak.fwhmNm >= 0) || !Number.isFinite(peak.fwhmNm)) {
     throw new RangeError(`peak ${position} has an invalid fwhmNm: ${peak.fwhmNm}`);
+  }
+  if (peak.resolutionNm !== undefined && (!(peak.resolutionNm > 0) || !Number.isFinite(peak.resolutionNm))) {
+    throw new RangeError(`peak ${position} has an invalid resolutionNm: ${peak.resolutionNm}`);
   }
 }
 

@@ -117,18 +117,26 @@ function prism(direction: 1 | -1) {
   };
 }
 
-const CASES: { name: string; dispersion: DispersionKind; direction: 1 | -1; wavelengthOfPixel: (px: number) => number; toleranceNm: number }[] = [
+const CASES: {
+  name: string;
+  dispersion: DispersionKind;
+  direction: 1 | -1;
+  wavelengthOfPixel: (px: number) => number;
+  toleranceNm: number;
+  /** The chain still calls a species present that was not put in (see the TODO at its test). */
+  knownFalsePresent?: boolean;
+}[] = [
   // 0.1 nm: a tenth of the resolution; a good lamp calibration of such an instrument reaches an RMS of a few
   // hundredths to ~0.1 nm (common practice).
   { name: "grating, blue at low pixels", dispersion: "grating", direction: 1, wavelengthOfPixel: grating(1), toleranceNm: 0.1 },
   { name: "grating, blue at high pixels", dispersion: "grating", direction: -1, wavelengthOfPixel: grating(-1), toleranceNm: 0.1 },
   // 0.1 nm on a prism: its dispersion is several times coarser in the red, where 0.1 nm is under a tenth of a pixel
   // element's width; in the blue it is a fraction of a pixel.
-  { name: "F2 prism, blue at low pixels", dispersion: "prism", direction: 1, wavelengthOfPixel: prism(1), toleranceNm: 0.1 },
+  { name: "F2 prism, blue at low pixels", dispersion: "prism", direction: 1, wavelengthOfPixel: prism(1), toleranceNm: 0.1, knownFalsePresent: true },
   { name: "F2 prism, blue at high pixels", dispersion: "prism", direction: -1, wavelengthOfPixel: prism(-1), toleranceNm: 0.1 },
 ];
 
-describe.each(CASES)("the chain on a $name", ({ dispersion, wavelengthOfPixel, toleranceNm }) => {
+describe.each(CASES)("the chain on a $name", ({ name, dispersion, wavelengthOfPixel, toleranceNm, knownFalsePresent }) => {
   const lamp = lampSpectrum(wavelengthOfPixel, dispersion, 3);
   const [lowNm, highNm] = [lamp.truth.wavelengthNmAtPixel[0], lamp.truth.wavelengthNmAtPixel[PIXELS - 1]].sort((a, b) => a - b);
   const calibration = calibrateLamp(lamp.x, lamp.y, lampLines, {
@@ -166,32 +174,71 @@ describe.each(CASES)("the chain on a $name", ({ dispersion, wavelengthOfPixel, t
     }
   });
 
-  const checkFlameCalls = () => {
+  // The flame is analysed once per case; the tests below read the same analysis.
+  let flameAnalysis: ReturnType<typeof analyzeSample> | undefined;
+  const analyseFlame = () => {
+    if (flameAnalysis) return flameAnalysis;
     const sample = flameSpectrum(wavelengthOfPixel, dispersion, 11);
-    const analysis = analyzeSample(sample.x, sample.y, index, {
+    flameAnalysis = analyzeSample(sample.x, sample.y, index, {
       calibration: calibration.fit!.model,
       source: "flame",
-      // A prism's resolution in nm varies across the array: each peak's own width stands in for it.
+      // A prism's resolution in nm varies across the array: the chain estimates its slit image in pixels
+      // from the clearest peaks instead.
       resolutionNm: dispersion === "grating" ? RESOLUTION_NM : undefined,
     });
-    if (process.env.CHAIN_DEBUG) for (const c of analysis.identification.calls.slice(0, 12)) console.log(c.species, c.verdict, c.score.toFixed(3), c.rationale);
-    const verdict = (species: string) => analysis.identification.calls.find((c) => c.species === species)?.verdict ?? "absent";
-    for (const species of ["K I", "Li I", "Sr I", "Ca I"]) expect(verdict(species), species).toBe("present");
-    // Sodium is strong here (it is in the mix), so it is called; its note about flames stays.
-    expect(["present", "possible"]).toContain(verdict("Na I"));
-    for (const species of ["Ba I", "Tl I", "In I", "Cu I", "Rb I", "Cs I"]) expect(verdict(species), species).not.toBe("present");
+    if (process.env.CHAIN_DEBUG) {
+      const calls = flameAnalysis.identification.calls;
+      const list = (v: string) => calls.filter((c) => c.verdict === v).map((c) => `${c.species} ${c.score.toFixed(3)}`).join(", ");
+      console.log(name, JSON.stringify(flameAnalysis.instrumentWidth), `present [${list("present")}] possible [${list("possible")}]`);
+      for (const c of calls.slice(0, 12)) console.log(c.species, c.verdict, c.score.toFixed(3), c.rationale);
+    }
+    return flameAnalysis;
   };
+  const verdictOf = (species: string) =>
+    analyseFlame().identification.calls.find((c) => c.species === species)?.verdict ?? "absent";
 
-  if (dispersion === "grating") {
-    it("calls the flame's elements present and the elements whose lines are absent not present", checkFlameCalls);
+  it("calls the flame's elements present", () => {
+    for (const species of ["K I", "Li I", "Sr I", "Ca I"]) expect(verdictOf(species), species).toBe("present");
+    // Sodium is strong here (it is in the mix), so it is called; its note about flames stays.
+    expect(["present", "possible"]).toContain(verdictOf("Na I"));
+  });
+
+  // Nothing else was put into the spectrum (no ion lines, no bands): any other "present" is false.
+  const checkNoFalsePresent = () => {
+    const present = analyseFlame().identification.calls.filter((c) => c.verdict === "present").map((c) => c.species);
+    expect(present.filter((species) => !FLAME_ELEMENTS.includes(species))).toEqual([]);
+  };
+  if (knownFalsePresent) {
+    // TODO(peaks): on the F2 prism with blue at low pixels the red end is compressed into the last ~350 pixels,
+    // where the flame's continuum (and its shot noise) is 3-4x what it is in the blue; the one robust noise
+    // estimate of the whole array (prepareSignal, 8.7 counts here) is ~3x too small there (~25 counts, from
+    // pixel differences over pixels 1920-2047), so pickPeaks reports some 20 noise bumps of SNR 5-12 in
+    // 640-930 nm. On this case's line-free continuum alone it finds 10 (SNR 5-10) and the chain calls Cs I
+    // present on them. With the lines in, N I (746.83 nm on a 4.5 px bump at SNR 5.7), O I (777.2 nm
+    // triplet on a 2.2 px bump at SNR 5.3), Cs I (852.11 nm, SNR 7.0) and SrOH (646/682 nm heads on two
+    // broad bumps, SNR 6-7) come out "present". With uniform noise of the same size (read noise 20 counts, no
+    // shot noise) all four cases pass this check. Turn this into a plain `it` when peak picking measures the
+    // noise locally; `it.fails` reports the day it starts to pass.
+    it.fails("calls no species present that was not put into the spectrum (fails: noise bumps in the red)", checkNoFalsePresent);
+  } else {
+    it("calls no species present that was not put into the spectrum", checkNoFalsePresent);
   }
-  // TODO(scoring): on both prism cases K I is called "possible" (score 0.34 and 0.45), not "present",
-  // though its 766.49/769.90 nm lines are seen within 0.1σ: the scoring shares those peaks, and the ones
-  // its weak 404.4/691.1/693.9 nm lines take, with lamp-gas lines nearby (Ar I 766.5, Kr I, Xe I, Hg I)
-  // within the prism's wider red windows, and discounts K I for it (lib/spectrum/matching). The lamp
-  // calibration of these cases passes its own test above. Re-enable when that sharing no longer dilutes
-  // a flame element:
-  // it("calls the flame's elements present and the elements whose lines are absent not present (prism)", checkFlameCalls);
+
+  it("keeps every strong flame line's peak a line, not a broad feature", () => {
+    const { peaks, instrumentWidth } = analyseFlame();
+    expect(instrumentWidth).not.toBeNull();
+    // The slit image is 2.5 px; smoothing and pixel sampling widen what the peak finder measures by about a pixel.
+    expect(instrumentWidth!.fwhm).toBeGreaterThan(SLIT_IMAGE_PX);
+    expect(instrumentWidth!.fwhm).toBeLessThan(SLIT_IMAGE_PX + 2);
+    // Every strong flame line has a peak within two line widths (a doublet's second line sits on the merged
+    // peak's centroid, up to one width away), and none of those peaks is taken for a broad feature.
+    for (const line of flameLines.filter((l) => (l.intensities.flame ?? 0) >= 100)) {
+      const widthNm = lineWidthNm(wavelengthOfPixel, dispersion, line.airNm);
+      const peak = peaks.find((p) => Math.abs(p.wavelengthNm - line.airNm) < 2 * widthNm);
+      expect(peak, `${line.species} ${line.airNm} nm`).toBeDefined();
+      expect(peak!.broad, `${line.species} ${line.airNm} nm`).toBe(false);
+    }
+  });
 
   it("flags the saturated sodium peak instead of hiding it", () => {
     const sample = flameSpectrum(wavelengthOfPixel, dispersion, 12, 2500);
@@ -204,5 +251,8 @@ describe.each(CASES)("the chain on a $name", ({ dispersion, wavelengthOfPixel, t
     const sodium = analysis.peaks.filter((p) => Math.abs(p.wavelengthNm - 589.0) < 1.5);
     expect(sodium.length).toBeGreaterThan(0);
     expect(sodium.some((p) => p.saturated)).toBe(true);
+    // A clipped top reads wide at "half height"; it is still the Na D line, not a broad feature.
+    // (On the prism every strong peak is clipped here, so no width is estimated and nothing is flagged.)
+    for (const peak of sodium.filter((p) => p.saturated)) expect(peak.broad).not.toBe(true);
   });
 });
