@@ -1,0 +1,145 @@
+// One lamp calibration: the lamp spectrum with its paired lines, the residuals, the pairs, the model,
+// RMS, covered range, uncertainty and the drift from the instrument's previous calibration.
+import Link from "next/link";
+import { LampChart, ResidualChart, type PairMark } from "@/components/charts/spectrum-charts";
+import { PageHeader } from "@/components/ui/page-header";
+import { X_TITLES, idOrNotFound, orNotFound, rawSeries } from "@/components/workflow/server-data";
+import { fetchCalibration } from "@/lib/services/calibrations";
+import { fetchInstrument } from "@/lib/services/instruments";
+import { fetchSpectrum } from "@/lib/services/spectra";
+import { requireWorkspace } from "@/lib/services/workspace";
+
+export const metadata = { title: "Calibration" };
+
+export default async function CalibrationPage({ params }: { params: Promise<{ id: string }> }) {
+  const { actor } = await requireWorkspace();
+  const calibration = await orNotFound(fetchCalibration(actor, idOrNotFound((await params).id)));
+  const [instrument, spectrum, series] = await Promise.all([
+    fetchInstrument(actor, calibration.instrumentId),
+    fetchSpectrum(actor, calibration.spectrumId),
+    rawSeries(actor, calibration.spectrumId),
+  ]);
+  const pairs: PairMark[] = [
+    ...calibration.pairs.map((p) => ({ ...p, used: true })),
+    ...calibration.rejected.map((p) => ({ ...p, used: false })),
+  ].sort((a, b) => a.pixel - b.pixel);
+  const xTitle = X_TITLES[spectrum.xUnit];
+  return (
+    <>
+      <PageHeader
+        title={`Calibration of ${instrument.name}, ${calibration.calibratedOn}`}
+        description={`From ${spectrum.label || spectrum.fileName} · lamps ${calibration.lamps.join(", ")}`}
+        actions={
+          <Link href={`/instruments/${instrument.id}`} className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800">
+            Back to the instrument
+          </Link>
+        }
+      />
+      <dl className="panel mb-4 grid grid-cols-2 gap-x-6 gap-y-2 p-4 text-sm sm:grid-cols-4" data-testid="calibration-summary">
+        <div>
+          <dt className="muted">Model</dt>
+          <dd className="font-mono">{calibration.model}</dd>
+        </div>
+        <div>
+          <dt className="muted">RMS</dt>
+          <dd className="font-mono">{calibration.rmsNm.toFixed(4)} nm</dd>
+        </div>
+        <div>
+          <dt className="muted">Pairs used / rejected</dt>
+          <dd className="font-mono">
+            {calibration.pairs.length} / {calibration.rejected.length} (dof {calibration.dof})
+          </dd>
+        </div>
+        <div>
+          <dt className="muted">Covered range</dt>
+          <dd className="font-mono">
+            {calibration.coveredRangeNm[0].toFixed(2)}–{calibration.coveredRangeNm[1].toFixed(2)} nm
+          </dd>
+        </div>
+        <div>
+          <dt className="muted">Fit uncertainty (1σ, median / max)</dt>
+          <dd className="font-mono">
+            {calibration.uncertainty.medianNm.toFixed(4)} / {calibration.uncertainty.maxNm.toFixed(4)} nm
+          </dd>
+        </div>
+        <div>
+          <dt className="muted">Drift from the previous calibration</dt>
+          <dd className="font-mono">
+            {calibration.drift ? (
+              <Link href={`/calibrations/${calibration.drift.previousCalibrationId}`} className="underline">
+                max {calibration.drift.maxAbsNm.toFixed(3)} nm
+              </Link>
+            ) : (
+              "none (first calibration)"
+            )}
+          </dd>
+        </div>
+        <div>
+          <dt className="muted">Pairing</dt>
+          <dd>
+            {calibration.pairing.status}, confidence {calibration.pairing.confidence.toFixed(2)}
+          </dd>
+        </div>
+        <div>
+          <dt className="muted">Software</dt>
+          <dd className="font-mono">{calibration.softwareVersion}</dd>
+        </div>
+      </dl>
+      {calibration.warnings.length > 0 ? (
+        <ul role="alert" className="mb-4 flex flex-col gap-1 text-sm">
+          {calibration.warnings.map((w) => (
+            <li key={w.code + w.message} className="rounded border border-ember-600 p-2">
+              <span aria-hidden>⚠ </span>
+              {w.message}
+            </li>
+          ))}
+        </ul>
+      ) : null}
+      {calibration.drift ? (
+        <p className="muted mb-4 text-sm">
+          Drift (now minus previous) at pixels{" "}
+          {calibration.drift.pixels.map((px, i) => `${px.toFixed(0)}: ${calibration.drift!.deltaNm[i].toFixed(3)} nm`).join(" · ")}
+        </p>
+      ) : null}
+      <div className="mb-4 flex flex-col gap-4">
+        <LampChart spectrum={series} pairs={pairs} xTitle={xTitle} />
+        <ResidualChart pairs={pairs} xTitle={xTitle} />
+      </div>
+      <div className="panel overflow-x-auto">
+        <table className="w-full text-sm" data-testid="pairs-table">
+          <caption className="px-3 py-2 text-left font-semibold">Pairs of lamp peaks and lines</caption>
+          <thead className="border-b border-[var(--line)] text-left">
+            <tr>
+              <th scope="col" className="px-3 py-2 text-right">{xTitle}</th>
+              <th scope="col" className="px-3 py-2 text-right">Line λ (nm)</th>
+              <th scope="col" className="px-3 py-2 text-right">Residual (nm)</th>
+              <th scope="col" className="px-3 py-2">Species</th>
+              <th scope="col" className="px-3 py-2">In the fit</th>
+            </tr>
+          </thead>
+          <tbody>
+            {pairs.map((p) => (
+              <tr key={`${p.pixel}-${p.wavelengthNm}`} className="border-b border-[var(--line)] last:border-0">
+                <td className="px-3 py-1.5 text-right font-mono">{p.pixel.toFixed(2)}</td>
+                <td className="px-3 py-1.5 text-right font-mono">{p.wavelengthNm.toFixed(3)}</td>
+                <td className="px-3 py-1.5 text-right font-mono">{p.residualNm.toFixed(4)}</td>
+                <td className="px-3 py-1.5">{p.species ?? "—"}</td>
+                <td className="px-3 py-1.5">
+                  {p.used ? (
+                    <span>
+                      <span aria-hidden className="text-teal-700 dark:text-teal-300">▼ </span>used
+                    </span>
+                  ) : (
+                    <span>
+                      <span aria-hidden className="text-red-700 dark:text-red-300">✕ </span>rejected
+                    </span>
+                  )}
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+    </>
+  );
+}

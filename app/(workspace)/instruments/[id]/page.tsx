@@ -1,0 +1,90 @@
+// One instrument: its settings, its calibration history (newest first, the default for new runs) and
+// the ways on: calibrate against a lamp, upload a spectrum.
+import Link from "next/link";
+import { EmptyState } from "@/components/ui/empty-state";
+import { PageHeader } from "@/components/ui/page-header";
+import { idOrNotFound, orNotFound } from "@/components/workflow/server-data";
+import { fetchCalibrations } from "@/lib/services/calibrations";
+import { fetchInstrument } from "@/lib/services/instruments";
+import { requireWorkspace } from "@/lib/services/workspace";
+
+export const metadata = { title: "Instrument" };
+
+const action = "rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800";
+
+export default async function InstrumentPage({ params }: { params: Promise<{ id: string }> }) {
+  const { actor } = await requireWorkspace();
+  const id = idOrNotFound((await params).id);
+  const [instrument, calibrations] = await Promise.all([
+    orNotFound(fetchInstrument(actor, id)),
+    orNotFound(fetchCalibrations(actor, id)),
+  ]);
+  return (
+    <>
+      <PageHeader
+        title={instrument.name}
+        description={`${instrument.dispersion === "prism" ? "Prism" : "Grating"} · ${instrument.pixels} pixels · nominal ${instrument.nominalMinNm}–${instrument.nominalMaxNm} nm · resolution ${instrument.resolutionNm} nm FWHM${instrument.detectorMax ? ` · detector maximum ${instrument.detectorMax} counts` : ""}${instrument.glass ? ` · glass ${instrument.glass}` : ""}${instrument.apexDeg ? ` · apex ${instrument.apexDeg}°` : ""}`}
+        actions={
+          <>
+            <Link href={`/instruments/${id}/upload?kind=lamp`} className={action}>
+              Upload a spectrum
+            </Link>
+            <Link href={`/instruments/${id}/calibrate`} className="rounded bg-ember-600 px-3 py-1.5 text-sm font-medium text-white hover:bg-ember-700">
+              Calibrate
+            </Link>
+          </>
+        }
+      />
+      <h2 className="mb-2 text-lg font-semibold">Calibration history</h2>
+      {calibrations.length === 0 ? (
+        <EmptyState title="Not calibrated yet">
+          Upload a reference lamp spectrum (Hg, Ne, Ar, He, Na or a mix) recorded on this instrument, then calibrate: the
+          lamp&apos;s peaks are paired with the line table&apos;s lamp lines and a dispersion relation is fitted.
+        </EmptyState>
+      ) : (
+        <div className="panel overflow-x-auto">
+          <table className="w-full text-sm">
+            <caption className="sr-only">Calibrations of {instrument.name}, newest first</caption>
+            <thead className="border-b border-[var(--line)] text-left">
+              <tr>
+                <th scope="col" className="px-3 py-2">Date</th>
+                <th scope="col" className="px-3 py-2">Model</th>
+                <th scope="col" className="px-3 py-2 text-right">RMS (nm)</th>
+                <th scope="col" className="px-3 py-2 text-right">Pairs used / rejected</th>
+                <th scope="col" className="px-3 py-2 text-right">Covered range (nm)</th>
+                <th scope="col" className="px-3 py-2 text-right">Drift from previous (max, nm)</th>
+                <th scope="col" className="px-3 py-2">Lamps</th>
+              </tr>
+            </thead>
+            <tbody>
+              {calibrations.map((c, index) => (
+                <tr key={c.id} className="border-b border-[var(--line)] last:border-0">
+                  <td className="px-3 py-2">
+                    <Link href={`/calibrations/${c.id}`} className="underline">
+                      {c.calibratedOn}
+                    </Link>
+                    {index === 0 ? (
+                      <span className="ml-2 rounded border border-teal-700 px-1 text-2xs text-teal-800 dark:text-teal-200">
+                        default for new runs
+                      </span>
+                    ) : null}
+                  </td>
+                  <td className="px-3 py-2 font-mono">{c.model}</td>
+                  <td className="px-3 py-2 text-right font-mono">{c.rmsNm.toFixed(3)}</td>
+                  <td className="px-3 py-2 text-right font-mono">
+                    {c.pairs.length} / {c.rejected.length}
+                  </td>
+                  <td className="px-3 py-2 text-right font-mono">
+                    {c.coveredRangeNm[0].toFixed(1)}–{c.coveredRangeNm[1].toFixed(1)}
+                  </td>
+                  <td className="px-3 py-2 text-right font-mono">{c.drift ? c.drift.maxAbsNm.toFixed(3) : "— (first)"}</td>
+                  <td className="px-3 py-2">{c.lamps.join(", ")}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </>
+  );
+}

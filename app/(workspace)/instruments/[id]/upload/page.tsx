@@ -1,0 +1,110 @@
+// Upload a lamp or sample file onto an instrument. The API stores a file when it is sent (there is no
+// separate commit step), so after the upload this page shows the stored spectrum as "Uploaded": its
+// hash, points, range, a duplicate warning and a preview plot, with the next step.
+import Link from "next/link";
+import { PreviewChart } from "@/components/charts/spectrum-charts";
+import { PageHeader } from "@/components/ui/page-header";
+import { SpectrumUpload } from "@/components/workflow/spectrum-upload";
+import { X_TITLES, idOrNotFound, orNotFound, rawSeries } from "@/components/workflow/server-data";
+import { fetchInstrument } from "@/lib/services/instruments";
+import { fetchNotebooks } from "@/lib/services/notebooks";
+import { fetchSpectrum } from "@/lib/services/spectra";
+import { requireWorkspace } from "@/lib/services/workspace";
+import { MAX_UPLOAD_BYTES, MAX_UPLOAD_POINTS } from "@/lib/validation/workflow-schemas";
+
+export const metadata = { title: "Upload a spectrum" };
+
+const one = (value: string | string[] | undefined) => (typeof value === "string" ? value : undefined);
+const primary = "rounded bg-ember-600 px-3 py-1.5 text-sm font-medium text-white hover:bg-ember-700";
+
+export default async function UploadPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ id: string }>;
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
+  const { actor } = await requireWorkspace();
+  const search = await searchParams;
+  const id = idOrNotFound((await params).id);
+  const instrument = await orNotFound(fetchInstrument(actor, id));
+  const kind = one(search.kind) === "sample" ? "sample" : "lamp";
+  const notebookId = one(search.notebook);
+  const spectrumId = one(search.spectrum);
+  const uploaded = spectrumId ? await orNotFound(fetchSpectrum(actor, idOrNotFound(spectrumId))) : null;
+  const back = `/instruments/${id}/upload?kind={kind}${notebookId ? `&notebook=${notebookId}` : ""}`;
+
+  if (uploaded) {
+    const series = await rawSeries(actor, uploaded.id);
+    const notebooks = uploaded.kind === "sample" ? await fetchNotebooks(actor, instrument.teamId) : [];
+    return (
+      <>
+        <PageHeader title="Uploaded" description={`${uploaded.fileName} on ${instrument.name}`} />
+        <p role="status" className="mb-3 rounded border border-teal-700 bg-[var(--panel)] p-2 text-sm" data-testid="upload-status">
+          <span aria-hidden>✓ </span>Uploaded and stored as a {uploaded.kind} spectrum: {uploaded.points.toLocaleString("en")} points,{" "}
+          {X_TITLES[uploaded.xUnit].toLowerCase()} {uploaded.xRange[0]}–{uploaded.xRange[1]}
+          {uploaded.medium ? ` (${uploaded.medium})` : ""}.
+        </p>
+        {uploaded.duplicateOf ? (
+          <p role="alert" className="mb-3 rounded border border-ember-600 bg-ember-50 p-2 text-sm text-ember-900 dark:bg-ink-800 dark:text-ember-100">
+            <span aria-hidden>⚠ </span>The same file (same SHA-256) was uploaded before as {uploaded.duplicateOf.fileName} on{" "}
+            {uploaded.duplicateOf.uploadedAt.slice(0, 10)}. Both copies are kept.
+          </p>
+        ) : null}
+        <dl className="mb-4 grid max-w-3xl grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm">
+          <dt className="muted">Label</dt>
+          <dd>{uploaded.label || "—"}</dd>
+          <dt className="muted">Size</dt>
+          <dd>{uploaded.byteSize.toLocaleString("en")} bytes, kept byte for byte</dd>
+          <dt className="muted">SHA-256</dt>
+          <dd className="break-all font-mono text-xs">{uploaded.sha256}</dd>
+        </dl>
+        <PreviewChart spectrum={series} xTitle={X_TITLES[uploaded.xUnit]} />
+        <div className="mt-4 flex flex-wrap items-center gap-3 text-sm">
+          {uploaded.kind === "lamp" ? (
+            <Link href={`/instruments/${id}/calibrate?spectrum=${uploaded.id}`} className={primary}>
+              Calibrate with this lamp
+            </Link>
+          ) : notebooks.length === 0 ? (
+            <span>
+              <Link href="/notebooks" className="underline">
+                Open a notebook
+              </Link>{" "}
+              to start a run with this sample.
+            </span>
+          ) : (
+            <>
+              <span>Start a run with this sample in:</span>
+              {(notebookId ? notebooks.filter((n) => n.id === notebookId) : notebooks).slice(0, 5).map((n) => (
+                <Link key={n.id} href={`/notebooks/${n.id}?spectrum=${uploaded.id}`} className={primary}>
+                  {n.title}
+                </Link>
+              ))}
+            </>
+          )}
+          <Link href={back.replace("{kind}", uploaded.kind)} className="underline">
+            Upload another file
+          </Link>
+        </div>
+      </>
+    );
+  }
+
+  return (
+    <>
+      <PageHeader title="Upload a spectrum" description={`Onto ${instrument.name}: a reference lamp to calibrate, or a sample to identify.`} />
+      <p className="muted mb-4 max-w-prose text-sm">
+        Two-column text (CSV, TSV or whitespace; header or none; comma or point decimals; pixel, wavelength or wavenumber first)
+        or JCAMP-DX. Limits: {MAX_UPLOAD_BYTES / (1024 * 1024)} MiB per file and {MAX_UPLOAD_POINTS.toLocaleString("en")} points.
+        The file is stored as it is sent, byte for byte with its SHA-256; a file that cannot be read is refused with the place of the
+        problem and nothing is stored.
+      </p>
+      <SpectrumUpload
+        instrumentId={id}
+        defaultKind={kind}
+        maxBytes={MAX_UPLOAD_BYTES}
+        afterUploadHref={`/instruments/${id}/upload?kind={kind}&spectrum={id}${notebookId ? `&notebook=${notebookId}` : ""}`}
+      />
+    </>
+  );
+}

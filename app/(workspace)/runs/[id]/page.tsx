@@ -1,0 +1,119 @@
+// One identification run: the calibrated spectrum with the identified lines labelled, the calls with
+// their evidence, the peaks, the unexplained peaks, the run's warnings and what it was made from.
+import Link from "next/link";
+import { RunSpectrumChart, type LineLabel } from "@/components/charts/spectrum-charts";
+import { PageHeader } from "@/components/ui/page-header";
+import { CallEvidence, PeakTable } from "@/components/workflow/run-evidence";
+import { FlameCautions, ScreeningNotice } from "@/components/workflow/run-notices";
+import { calibratedSeries, idOrNotFound, orNotFound } from "@/components/workflow/server-data";
+import { fetchCalibration } from "@/lib/services/calibrations";
+import { fetchInstrument } from "@/lib/services/instruments";
+import { fetchRun } from "@/lib/services/runs";
+import { fetchSpectrum } from "@/lib/services/spectra";
+import { requireWorkspace } from "@/lib/services/workspace";
+
+export const metadata = { title: "Run" };
+
+export default async function RunPage({ params }: { params: Promise<{ id: string }> }) {
+  const { actor } = await requireWorkspace();
+  const run = await orNotFound(fetchRun(actor, idOrNotFound((await params).id)));
+  const spectrum = await fetchSpectrum(actor, run.spectrumId);
+  const [instrument, calibration, series] = await Promise.all([
+    fetchInstrument(actor, spectrum.instrumentId),
+    run.calibrationId ? fetchCalibration(actor, run.calibrationId) : Promise.resolve(null),
+    calibratedSeries(actor, run.spectrumId, run.calibrationId, spectrum.xUnit),
+  ]);
+  const called = run.calls.filter((c) => c.verdict !== "absent");
+  const labels: LineLabel[] = called.flatMap((c) =>
+    c.lines.map((l) => ({ peakNm: l.peakNm, species: c.species, verdict: c.verdict as LineLabel["verdict"] })),
+  );
+  const present = run.calls.filter((c) => c.verdict === "present").map((c) => c.species);
+  const outside =
+    calibration && (run.rangeNm[0] < calibration.coveredRangeNm[0] - 1e-9 || run.rangeNm[1] > calibration.coveredRangeNm[1] + 1e-9);
+  return (
+    <>
+      <PageHeader
+        title={`Run: ${spectrum.label || spectrum.fileName}`}
+        description={`${run.source} on ${instrument.name} · ${run.createdAt.slice(0, 16).replace("T", " ")} · ${run.peaks.length} peaks · called present: ${present.length ? present.join(", ") : "none"}`}
+        actions={
+          <Link href={`/notebooks/${run.notebookId}`} className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800">
+            Back to the notebook
+          </Link>
+        }
+      />
+      <div className="mb-3 flex flex-col gap-2">
+        <ScreeningNotice />
+        {!run.lampChecked ? (
+          <p className="text-sm" data-testid="not-lamp-checked">
+            <span className="rounded border border-ember-600 px-1.5 py-0.5 text-xs font-semibold text-ember-800 dark:text-ember-200">
+              <span aria-hidden>◇ </span>Not lamp-checked
+            </span>{" "}
+            This run used the file&apos;s own wavelength axis, not a lamp calibration.
+          </p>
+        ) : null}
+        {outside ? (
+          <p role="alert" className="rounded border border-ember-600 p-2 text-sm">
+            <span aria-hidden>⚠ </span>The sample spans {run.rangeNm[0].toFixed(1)}–{run.rangeNm[1].toFixed(1)} nm, past the calibrated range{" "}
+            {calibration!.coveredRangeNm[0].toFixed(1)}–{calibration!.coveredRangeNm[1].toFixed(1)} nm: wavelengths outside it are extrapolated.
+          </p>
+        ) : null}
+        {run.warnings.length > 0 ? (
+          <ul className="flex flex-col gap-1 text-sm">
+            {run.warnings.map((w) => (
+              <li key={w.code + w.message} className="rounded border border-ember-600 p-2">
+                <span aria-hidden>⚠ </span>
+                {w.message}
+              </li>
+            ))}
+          </ul>
+        ) : null}
+        {run.source === "flame" ? <FlameCautions /> : null}
+      </div>
+      <RunSpectrumChart spectrum={series} labels={labels} unexplainedNm={run.unexplained.map((u) => u.wavelengthNm)} />
+      <p className="muted mt-1 text-xs">
+        The chart shows the counts as recorded; the continuum-removed view is not stored with the run yet.
+      </p>
+      <h2 className="mb-2 mt-6 text-lg font-semibold">Calls and their evidence</h2>
+      <CallEvidence calls={run.calls} />
+      <h2 className="mb-2 mt-6 text-lg font-semibold">Unexplained peaks</h2>
+      {run.unexplained.length === 0 ? (
+        <p className="muted text-sm">Every peak above the threshold has a candidate line.</p>
+      ) : (
+        <ul className="panel divide-y divide-[var(--line)] text-sm" data-testid="unexplained">
+          {run.unexplained.map((u) => (
+            <li key={u.wavelengthNm} className="flex gap-4 px-3 py-1.5">
+              <span className="font-mono">{u.wavelengthNm.toFixed(3)} nm</span>
+              <span className="font-mono">SNR {u.snr.toFixed(1)}</span>
+              <span className="muted">{u.reason}</span>
+            </li>
+          ))}
+        </ul>
+      )}
+      <h2 className="mb-2 mt-6 text-lg font-semibold">Peaks</h2>
+      <PeakTable peaks={run.peaks} />
+      <h2 className="mb-2 mt-6 text-lg font-semibold">Made from</h2>
+      <dl className="grid max-w-3xl grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm">
+        <dt className="muted">Calibration</dt>
+        <dd>
+          {calibration ? (
+            <Link href={`/calibrations/${calibration.id}`} className="underline">
+              {calibration.calibratedOn} · {calibration.model} · RMS {calibration.rmsNm.toFixed(3)} nm
+            </Link>
+          ) : (
+            "none (the file's own axis)"
+          )}
+        </dd>
+        <dt className="muted">Line-table release</dt>
+        <dd className="font-mono text-xs">{run.lineReleaseId}</dd>
+        <dt className="muted">Settings</dt>
+        <dd className="font-mono text-xs">{Object.keys(run.settings).length ? JSON.stringify(run.settings) : "defaults"}</dd>
+        <dt className="muted">Noise</dt>
+        <dd className="font-mono text-xs">{run.noiseCounts.toFixed(2)} counts</dd>
+        <dt className="muted">Software</dt>
+        <dd className="font-mono text-xs">{run.softwareVersion}</dd>
+        <dt className="muted">Raw file SHA-256</dt>
+        <dd className="break-all font-mono text-xs">{spectrum.sha256}</dd>
+      </dl>
+    </>
+  );
+}
