@@ -1,0 +1,104 @@
+// The chemist's journey in Chromium: the lab lead adds a grating instrument through its form; the
+// chemist drops a synthetic Hg–Ar lamp file on the upload zone, calibrates, chooses a synthetic flame
+// file with the file picker, starts a flame run in a new notebook, and sees the labelled chart and the
+// calls. The files come from the integration tests' generator (known truth, nothing hard-coded here).
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { openBrowser, screenshot, type Session } from "./support/browser";
+import { SignInPage } from "./pages/sign-in-page";
+import { InstrumentsPage, RunPage, UploadZone, chartsDrawn } from "./pages/workflow-pages";
+import { PIXELS, RESOLUTION_NM, flameFile, lampFile, syntheticGrating } from "../integration/support/synthetic-files";
+
+const DEMO_PASSWORD = "emberline-demo";
+const LEAD = "lead@demo.emberline.example";
+const CHEMIST = "chem@demo.emberline.example";
+/** Elements drawn into the flame file with clear lines (sodium is left out: it is called with care by design). */
+const EXPECTED_PRESENT = ["K I", "Li I", "Sr I"];
+
+let browser: Session;
+const suffix = Date.now().toString(36);
+
+beforeAll(async () => {
+  browser = await openBrowser();
+});
+
+afterAll(async () => {
+  await browser?.close();
+});
+
+async function signInAs(email: string) {
+  await browser.context.clearCookies();
+  const signIn = new SignInPage(browser.page);
+  await signIn.goto();
+  await signIn.signIn(email, DEMO_PASSWORD);
+  await browser.page.waitForURL((url) => url.pathname === "/");
+}
+
+describe("the chemist's journey", () => {
+  it("goes from a lamp and a flame file to labelled calls", async () => {
+    const { page } = browser;
+    const grating = syntheticGrating();
+
+    await signInAs(LEAD);
+    const instruments = new InstrumentsPage(page);
+    await instruments.goto();
+    const instrumentId = await instruments.create({
+      name: `E2E grating ${suffix}`,
+      pixels: PIXELS,
+      fromNm: grating.nominalRangeNm[0],
+      toNm: grating.nominalRangeNm[1],
+      resolutionNm: RESOLUTION_NM,
+    });
+
+    await signInAs(CHEMIST);
+    await page.goto(`/instruments/${instrumentId}`);
+    await page.getByRole("link", { name: "Upload a spectrum" }).click();
+    await page.waitForURL(/\/upload/);
+    const zone = new UploadZone(page);
+    await zone.drop(`lamp-${suffix}.csv`, lampFile(grating));
+    await screenshot(page, "chemist-1-lamp-dropped");
+    await zone.upload("lamp", "Hg–Ar pencil lamp");
+    expect(await zone.status.textContent()).toContain("2,048 points");
+    await chartsDrawn(page);
+    await screenshot(page, "chemist-2-lamp-uploaded");
+
+    await page.getByRole("link", { name: "Calibrate with this lamp" }).click();
+    await page.getByRole("checkbox", { name: "Hg", exact: true }).check();
+    await page.getByRole("checkbox", { name: "Ar", exact: true }).check();
+    await page.getByRole("button", { name: "Pair the lines and fit" }).click();
+    await page.waitForURL(/\/calibrations\/[0-9a-f-]{36}$/, { timeout: 60_000 });
+    await chartsDrawn(page);
+    const summary = (await page.getByTestId("calibration-summary").textContent()) ?? "";
+    const rmsNm = Number(/RMS([\d.]+) nm/.exec(summary)?.[1]);
+    // A good lamp calibration of a 1 nm instrument reaches a few hundredths to ~0.1 nm (common practice).
+    expect(rmsNm).toBeLessThan(0.1);
+    expect(await page.getByTestId("pairs-table").locator("tbody tr").count()).toBeGreaterThanOrEqual(5);
+    await screenshot(page, "chemist-3-calibration");
+
+    await page.goto("/notebooks");
+    await page.getByLabel("Title", { exact: true }).fill(`Flame screening ${suffix}`);
+    await page.getByRole("button", { name: "Open the notebook" }).click();
+    await page.waitForURL(/\/notebooks\/[0-9a-f-]{36}$/);
+    await page.getByRole("link", { name: new RegExp(`Upload a sample on E2E grating ${suffix}`) }).click();
+    await page.waitForURL(/\/upload/);
+    await zone.choose(`flame-${suffix}.csv`, flameFile(grating));
+    await zone.upload("sample", "Mixed chloride flame");
+    await page.getByRole("link", { name: `Flame screening ${suffix}` }).click();
+    await page.waitForURL(/\/notebooks\/.*spectrum=/);
+    await page.getByLabel("Kind of source").selectOption("flame");
+    expect(await page.getByRole("complementary", { name: "Flame safety" }).textContent()).toContain("thallium");
+    await screenshot(page, "chemist-4-new-run");
+    await page.getByRole("button", { name: "Start the run" }).click();
+    await page.waitForURL(/\/runs\/[0-9a-f-]{36}$/, { timeout: 60_000 });
+    await chartsDrawn(page);
+
+    const run = new RunPage(page);
+    for (const species of EXPECTED_PRESENT) expect(await run.verdictOf(species), species).toBe("present");
+    const labels = await run.chartLabels();
+    for (const species of EXPECTED_PRESENT) expect(labels, `chart label ${species}`).toContain(species);
+    expect(await page.getByTestId("screening-notice").textContent()).toContain("A screening aid, not a certified analysis.");
+    await screenshot(page, "chemist-5-run");
+
+    await page.goto(new URL(page.url()).pathname.replace(/\/runs\/.*/, "/notebooks"));
+    expect(browser.problems, browser.problems.join("\n")).toEqual([]);
+  }, 240_000);
+});

@@ -1,0 +1,91 @@
+// Page objects of the chemist's workflow: instruments, the upload zone, calibrating, notebooks and runs.
+import type { Locator, Page } from "playwright-core";
+
+export class InstrumentsPage {
+  constructor(private readonly page: Page) {}
+
+  async goto(): Promise<void> {
+    await this.page.goto("/instruments");
+    await this.page.getByRole("heading", { level: 1, name: "Instruments" }).waitFor();
+  }
+
+  /** The lab lead's form; resolves on the new instrument's page. */
+  async create(fields: { name: string; pixels: number; fromNm: number; toNm: number; resolutionNm: number }): Promise<string> {
+    await this.page.getByLabel("Name").fill(fields.name);
+    await this.page.getByLabel("Dispersion").selectOption("grating");
+    await this.page.getByLabel("Pixels").fill(String(fields.pixels));
+    await this.page.getByLabel("Resolution, FWHM (nm)").fill(String(fields.resolutionNm));
+    await this.page.getByLabel("Nominal range from (nm)").fill(String(fields.fromNm));
+    await this.page.getByLabel("Nominal range to (nm)").fill(String(fields.toNm));
+    await this.page.getByRole("button", { name: "Add the instrument" }).click();
+    await this.page.waitForURL(/\/instruments\/[0-9a-f-]{36}$/);
+    return new URL(this.page.url()).pathname.split("/").pop()!;
+  }
+}
+
+export class UploadZone {
+  readonly zone: Locator;
+  readonly input: Locator;
+  readonly status: Locator;
+
+  constructor(private readonly page: Page) {
+    this.zone = page.getByTestId("dropzone");
+    this.input = this.zone.locator("input[type=file]");
+    this.status = page.getByTestId("upload-status");
+  }
+
+  /** Drops a file on the zone the way a browser does: a drop event carrying a DataTransfer with the file. */
+  async drop(fileName: string, text: string): Promise<void> {
+    const dataTransfer = await this.page.evaluateHandle(
+      ({ name, content }) => {
+        const transfer = new DataTransfer();
+        transfer.items.add(new File([content], name, { type: "text/csv" }));
+        return transfer;
+      },
+      { name: fileName, content: text },
+    );
+    await this.zone.dispatchEvent("dragenter", { dataTransfer });
+    await this.zone.dispatchEvent("drop", { dataTransfer });
+  }
+
+  async choose(fileName: string, text: string): Promise<void> {
+    await this.input.setInputFiles({ name: fileName, mimeType: "text/csv", buffer: Buffer.from(text) });
+  }
+
+  async upload(kind: "lamp" | "sample", label: string): Promise<void> {
+    await this.page.getByRole("radio", { name: kind === "lamp" ? /Reference lamp/ : /Sample/ }).check();
+    await this.page.getByLabel("Label (optional)").fill(label);
+    await this.page.getByTestId("chosen-file").filter({ hasText: "Selected:" }).waitFor();
+    await this.page.getByRole("button", { name: "Upload", exact: true }).click();
+    await this.status.waitFor({ timeout: 30_000 });
+  }
+}
+
+/** Waits until Plotly has drawn every chart on the page. */
+export async function chartsDrawn(page: Page): Promise<void> {
+  await page.waitForFunction(() => {
+    const figures = document.querySelectorAll("[data-testid=chart]");
+    return figures.length > 0 && [...figures].every((f) => f.querySelector(".main-svg"));
+  }, undefined, { timeout: 30_000 });
+}
+
+export class RunPage {
+  readonly calls: Locator;
+
+  constructor(private readonly page: Page) {
+    this.calls = page.getByTestId("call");
+  }
+
+  /** The verdict shown beside a species (its text, not its colour). */
+  async verdictOf(species: string): Promise<string | null> {
+    const call = this.calls.filter({ has: this.page.getByTestId("call-species").getByText(species, { exact: true }) });
+    if ((await call.count()) === 0) return null;
+    const text = (await call.first().locator("summary").textContent()) ?? "";
+    return /present|possible|absent/.exec(text)?.[0] ?? null;
+  }
+
+  /** The species labels Plotly drew on the chart. */
+  async chartLabels(): Promise<string[]> {
+    return this.page.locator("[data-testid=chart] .textpoint text").allTextContents();
+  }
+}
