@@ -55,7 +55,8 @@ export interface SampleAnalysis {
   identification: ElementIdentification;
   /** Calibrated wavelength range covered by the spectrum, in nm. */
   rangeNm: [number, number];
-  /** Robust noise estimate of the raw counts. */
+  /** Robust noise estimate of the raw counts over the whole array (peaks' SNRs use the local
+   * noise instead where it grows with the continuum; see prepareSignal's noiseProfile). */
   noiseCounts: number;
   /** Extrapolation and axis warnings for the chemist. */
   warnings: CalibrationWarning[];
@@ -104,7 +105,8 @@ export function analyzeSample(
     resolutionNm,
     source,
     rangeNm,
-    noiseCounts: signal.noise,
+    // With a noise profile each peak's snr already holds its local noise; one global σ would undo that.
+    noiseCounts: signal.noiseProfile ? undefined : signal.noise,
   });
   const warnings: CalibrationWarning[] = calibration ? calibrationRangeWarnings(calibration, ends) : [];
   return {

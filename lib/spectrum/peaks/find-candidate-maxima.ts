@@ -2,16 +2,18 @@
 
 export interface FindCandidateMaximaOptions {
   /**
-   * Smallest accepted top, in signal units (the caller passes minSnr × noise).
+   * Smallest accepted top, in signal units (the caller passes minSnr × noise); an array gives the
+   * floor at each sample (minSnr × the local noise), read at the top.
    * @default 0
    */
-  minHeight?: number;
+  minHeight?: number | Float64Array;
   /**
    * Two tops count as separate only if the signal between them falls this far below the lower top;
    * otherwise the lower one is merged into the higher (noise wiggles on one line are not two lines).
+   * An array gives it per sample, read at the lower top.
    * @default 0
    */
-  minDip?: number;
+  minDip?: number | Float64Array;
 }
 
 export interface CandidateMaxima {
@@ -34,6 +36,13 @@ export function findCandidateMaxima(
   const { minHeight = 0, minDip = 0 } = options;
   const n = signal.length;
   if (slope.length !== n) throw new RangeError(`slope and signal differ in length (${slope.length} vs ${n})`);
+  for (const [name, value] of Object.entries({ minHeight, minDip })) {
+    if (typeof value !== "number" && value.length !== n) {
+      throw new RangeError(`${name} and signal differ in length (${value.length} vs ${n})`);
+    }
+  }
+  const heightAt = (i: number) => (typeof minHeight === "number" ? minHeight : minHeight[i]);
+  const dipAt = (i: number) => (typeof minDip === "number" ? minDip : minDip[i]);
   const tops: number[] = [];
   const valleys: number[] = [];
   let last = -1;
@@ -46,7 +55,7 @@ export function findCandidateMaxima(
     // The slope is smoother than the signal; climb to the signal's own local maximum.
     while (top > 1 && signal[top - 1] > signal[top]) top--;
     while (top < n - 2 && signal[top + 1] > signal[top]) top++;
-    if (top < 1 || top > n - 2 || top === previousRaw || signal[top] < minHeight) continue;
+    if (top < 1 || top > n - 2 || top === previousRaw || signal[top] < heightAt(top)) continue;
     previousRaw = top;
     if (last < 0 || top <= last) {
       if (last < 0) {
@@ -58,7 +67,8 @@ export function findCandidateMaxima(
     for (let j = scanFrom; j < top; j++) if (lowest < 0 || signal[j] < signal[lowest]) lowest = j;
     scanFrom = top + 1;
     if (lowest < 0) lowest = last;
-    if (Math.min(signal[last], signal[top]) - signal[lowest] >= minDip && lowest !== last) {
+    const lowerTop = signal[last] <= signal[top] ? last : top;
+    if (signal[lowerTop] - signal[lowest] >= dipAt(lowerTop) && lowest !== last) {
       tops.push(last);
       valleys.push(lowest);
       last = top;

@@ -57,6 +57,9 @@ export interface PickPeaksOptions {
  *   Gaussian, 0.69·√(FWHM·Δx)/SNR (see gaussianCentreBound); for a saturated peak (a) is the
  *   noise of the half-height midpoint instead. Shot noise at the top is not included, and a
  *   saturated peak's centre assumes a symmetric line.
+ * - noise σ: the prepared signal's noiseProfile at the top when it has one (shot noise grows with
+ *   the continuum under the peak), else its one global noise; the detection floor (minSnr·σ), the
+ *   dip test, the SNR and the centre uncertainty all use that local σ;
  * - height: vertex of that parabola (a lower bound when saturated); snr = height / σ;
  * - fwhm: between the half-height crossings; twice the one available half-width when a flank is
  *   cut by a neighbour or the array's edge;
@@ -70,24 +73,30 @@ export function pickPeaks(x: Float64Array, signal: PreparedSignal, options: Pick
   for (const [name, value] of Object.entries({ minSnr, minDipSnr, blendSeparationFwhm, areaHalfWidthFwhm, shoulderSnr })) {
     if (!(value >= 0) || !Number.isFinite(value)) throw new RangeError(`${name} must be a non-negative number (got ${value})`);
   }
-  const { corrected: s, noise, saturatedRanges, smoothing } = signal;
+  const { corrected: s, noise, noiseProfile, saturatedRanges, smoothing } = signal;
   const n = s.length;
   if (x.length !== n) throw new RangeError(`x and the prepared signal differ in length (${x.length} vs ${n})`);
+  if (noiseProfile && noiseProfile.length !== n) {
+    throw new RangeError(`noiseProfile and the prepared signal differ in length (${noiseProfile.length} vs ${n})`);
+  }
+  const noiseAt = (i: number) => (noiseProfile ? noiseProfile[i] : noise);
 
   const slopeWindow = largestOddWindow(smoothing ? smoothing.windowSize : 5, n);
   const curvatureWindow = largestOddWindow(Math.max(11, (smoothing ? smoothing.windowSize : 5) + 4), n);
   const slope = savitzkyGolay(s, { windowSize: slopeWindow, polynomial: 2, derivative: 1 });
   const curvature = savitzkyGolay(s, { windowSize: curvatureWindow, polynomial: 2, derivative: 2 });
   const curvatureWeights = savitzkyGolayCoefficients({ windowSize: curvatureWindow, polynomial: 2, derivative: 2 });
-  // Curvature noise: raw σ through the curvature weights (the prior smoothing only lowers it further).
-  const curvatureNoise = noise * Math.sqrt(curvatureWeights.reduce((sum, w) => sum + w * w, 0));
+  // Curvature noise per unit raw σ: through the curvature weights (the prior smoothing only lowers it further).
+  const curvatureGain = Math.sqrt(curvatureWeights.reduce((sum, w) => sum + w * w, 0));
   const smoothingWeights = smoothing
     ? savitzkyGolayCoefficients({ windowSize: smoothing.windowSize, polynomial: smoothing.polynomial })
     : Float64Array.of(1);
 
   const { tops, valleys } = findCandidateMaxima(
     { signal: s, slope },
-    { minHeight: minSnr * noise, minDip: minDipSnr * noise },
+    noiseProfile
+      ? { minHeight: noiseProfile.map((v) => minSnr * v), minDip: noiseProfile.map((v) => minDipSnr * v) }
+      : { minHeight: minSnr * noise, minDip: minDipSnr * noise },
   );
 
   const peaks: Peak[] = [];
@@ -95,6 +104,8 @@ export function pickPeaks(x: Float64Array, signal: PreparedSignal, options: Pick
   let rangeCursor = 0;
   for (let p = 0; p < tops.length; p++) {
     const k = tops[p];
+    // The noise at the top: with a profile, the shot noise of the continuum the peak stands on.
+    const localNoise = noiseAt(k);
     const leftLimit = p > 0 ? valleys[p - 1] : 0;
     const rightLimit = p < tops.length - 1 ? valleys[p] : n - 1;
     const top = fitPeakTop(s, { index: k });
@@ -114,8 +125,8 @@ export function pickPeaks(x: Float64Array, signal: PreparedSignal, options: Pick
     }
 
     const centreNoiseSamples = clipped
-      ? crossingMidpointNoise(s, left, right, noise, smoothingWeights)
-      : propagatedCentreNoise(top.gradient, smoothingWeights, noise);
+      ? crossingMidpointNoise(s, left, right, localNoise, smoothingWeights)
+      : propagatedCentreNoise(top.gradient, smoothingWeights, localNoise);
     const xCentre = xAtIndex(x, centre);
     let fwhm: number;
     let fwhmSamples: number;
@@ -138,15 +149,15 @@ export function pickPeaks(x: Float64Array, signal: PreparedSignal, options: Pick
     let area = 0;
     for (let i = areaStart; i < areaEnd; i++) area += 0.5 * (s[i] + s[i + 1]) * (x[i + 1] - x[i]);
 
-    if (!clipped && left !== null && right !== null && shapeSuggestsBlend(s, { index: k, top, left, right, noise, smoothingWeights, centreNoise: centreNoiseSamples })) {
+    if (!clipped && left !== null && right !== null && shapeSuggestsBlend(s, { index: k, top, left, right, noise: localNoise, smoothingWeights, centreNoise: centreNoiseSamples })) {
       blended = true;
     }
-    if (!clipped && countCurvatureMinima(curvature, { start: areaStart, end: areaEnd, threshold: shoulderSnr * curvatureNoise }) >= 2) {
+    if (!clipped && countCurvatureMinima(curvature, { start: areaStart, end: areaEnd, threshold: shoulderSnr * curvatureGain * localNoise }) >= 2) {
       blended = true;
     }
 
     const spacing = 0.5 * (x[k + 1] - x[k - 1]);
-    const snr = height / noise;
+    const snr = height / localNoise;
     let xUncertainty = Math.max(centreNoiseSamples * spacing, gaussianCentreBound({ fwhm, spacing, snr }));
     if (!Number.isFinite(xUncertainty)) xUncertainty = fwhm;
     // A (nearly) noise-free peak still has a centre known only to the sampling's numerical precision;

@@ -7,6 +7,7 @@ export {
   type SavitzkyGolayCoefficientsOptions,
 } from "./savitzky-golay-coefficients";
 export { estimateNoise, type EstimateNoiseOptions } from "./estimate-noise";
+export { estimateNoiseProfile, type EstimateNoiseProfileOptions } from "./estimate-noise-profile";
 export { estimateContinuum, type BaselineOptions } from "./estimate-continuum";
 export { asymmetricLeastSquares, type AsymmetricLeastSquaresOptions } from "./asymmetric-least-squares";
 export { modifiedPolynomialBaseline, type ModifiedPolynomialBaselineOptions } from "./modified-polynomial-baseline";

@@ -5,6 +5,7 @@ import { assertStrictlyIncreasing } from "./assert-strictly-increasing";
 import { defaultBaselineFor } from "./default-baseline-for";
 import { estimateContinuum, type BaselineOptions } from "./estimate-continuum";
 import { estimateNoise } from "./estimate-noise";
+import { estimateNoiseProfile, type EstimateNoiseProfileOptions } from "./estimate-noise-profile";
 import { findSaturatedRanges, type IndexRange } from "./find-saturated-ranges";
 import { savitzkyGolay } from "./savitzky-golay";
 
@@ -35,6 +36,12 @@ export interface PrepareSignalOptions {
    * @default undefined
    */
   detectorMax?: number;
+  /**
+   * Settings of the per-sample noise model σ² = a + b·continuum (see estimateNoiseProfile), or
+   * false for one σ over the whole array. Not used when `noise` is given.
+   * @default {} (estimateNoiseProfile's defaults)
+   */
+  noiseProfile?: EstimateNoiseProfileOptions | false;
 }
 
 export interface PreparedSignal {
@@ -46,6 +53,9 @@ export interface PreparedSignal {
   corrected: Float64Array;
   /** Robust per-sample noise σ of the raw counts (never 0: a noise-free input gets a tiny floor). */
   noise: number;
+  /** Per-sample noise σ of the raw counts where it grows measurably with the continuum (shot
+   * noise); absent when one σ describes the array (then `noise` holds everywhere). */
+  noiseProfile?: Float64Array;
   /** Runs of raw samples at the detector maximum. */
   saturatedRanges: IndexRange[];
   /** The smoothing actually applied (false when none), so later stages can propagate noise through it. */
@@ -90,5 +100,9 @@ export function prepareSignal(x: Float64Array, y: Float64Array, options: Prepare
     noise = Math.max(noise, 1e-12 * scale, Number.MIN_VALUE);
   }
   const saturatedRanges = findSaturatedRanges(y, { detectorMax });
+  const profileOptions = options.noiseProfile ?? {};
+  const noiseProfile =
+    options.noise === undefined && profileOptions !== false ? estimateNoiseProfile(y, continuum, profileOptions) : null;
+  if (noiseProfile) return { smoothed, continuum, corrected, noise, noiseProfile, saturatedRanges, smoothing };
   return { smoothed, continuum, corrected, noise, saturatedRanges, smoothing };
 }
