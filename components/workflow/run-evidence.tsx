@@ -23,9 +23,12 @@ const ORDER = { present: 0, possible: 1, absent: 2 } as const;
 export function CallEvidence({ calls }: { calls: RunCall[] }) {
   if (calls.length === 0) return <p className="muted text-sm">No element was a candidate for any peak.</p>;
   const sorted = [...calls].sort((a, b) => ORDER[a.verdict] - ORDER[b.verdict] || b.score - a.score);
+  const called = sorted.filter((c) => c.verdict !== "absent");
+  const absent = sorted.filter((c) => c.verdict === "absent");
   return (
     <div className="flex flex-col gap-2" data-testid="calls">
-      {sorted.map((call) => (
+      {called.length === 0 ? <p className="muted text-sm">No element is called present or possible.</p> : null}
+      {called.map((call) => (
         <details key={call.species} open={call.verdict !== "absent"} className="panel p-3" data-testid="call">
           <summary className="flex cursor-pointer flex-wrap items-baseline gap-3">
             <span className="font-semibold" data-testid="call-species">
@@ -113,7 +116,43 @@ export function CallEvidence({ calls }: { calls: RunCall[] }) {
           ) : null}
         </details>
       ))}
+      {absent.length > 0 ? <AbsentCalls calls={absent} /> : null}
     </div>
+  );
+}
+
+/** Species weighed and called absent: one compact table, since most of a table's elements end here. */
+function AbsentCalls({ calls }: { calls: RunCall[] }) {
+  return (
+    <details className="panel p-3" data-testid="absent-calls">
+      <summary className="cursor-pointer text-sm">
+        <VerdictBadge verdict="absent" /> <span className="font-semibold">{calls.length} species called absent</span>{" "}
+        <span className="muted text-xs">{calls.map((c) => c.species).join(", ")}</span>
+      </summary>
+      <table className="mt-2 w-full text-sm">
+        <caption className="sr-only">Species called absent</caption>
+        <thead className="text-left text-xs">
+          <tr>
+            <th scope="col" className="pr-3">Species</th>
+            <th scope="col" className="pr-3 text-right">Score</th>
+            <th scope="col" className="pr-3 text-right">Lines seen</th>
+            <th scope="col" className="pr-3 text-right">Strong lines missing</th>
+            <th scope="col">Why</th>
+          </tr>
+        </thead>
+        <tbody className="text-xs">
+          {calls.map((c) => (
+            <tr key={c.species} className="border-t border-[var(--line)]">
+              <td className="pr-3 font-semibold">{c.species}</td>
+              <td className="pr-3 text-right font-mono">{c.score.toFixed(2)}</td>
+              <td className="pr-3 text-right font-mono">{c.seenCount}</td>
+              <td className="pr-3 text-right font-mono">{c.missingStrongCount}</td>
+              <td className="muted">{c.rationale}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </details>
   );
 }
 

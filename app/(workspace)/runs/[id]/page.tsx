@@ -24,12 +24,25 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
     calibratedSeries(actor, run.spectrumId, run.calibrationId, spectrum.xUnit),
   ]);
   const called = run.calls.filter((c) => c.verdict !== "absent");
-  const labels: LineLabel[] = called.flatMap((c) =>
-    c.lines.map((l) => ({ peakNm: l.peakNm, species: c.species, verdict: c.verdict as LineLabel["verdict"] })),
-  );
+  // Species sharing a peak get one stacked label there, so their names do not print over each other.
+  const byPeak = new Map<string, LineLabel>();
+  for (const c of called) {
+    for (const l of c.lines) {
+      const key = l.peakNm.toFixed(3);
+      const label = byPeak.get(key);
+      if (!label) byPeak.set(key, { peakNm: l.peakNm, species: c.species, verdict: c.verdict as LineLabel["verdict"] });
+      else if (!label.species.split("<br>").includes(c.species)) {
+        label.species += `<br>${c.species}`;
+        if (c.verdict === "present") label.verdict = "present";
+      }
+    }
+  }
+  const labels = [...byPeak.values()];
   const present = run.calls.filter((c) => c.verdict === "present").map((c) => c.species);
   const outside =
     calibration && (run.rangeNm[0] < calibration.coveredRangeNm[0] - 1e-9 || run.rangeNm[1] > calibration.coveredRangeNm[1] + 1e-9);
+  // The range notice below says this in the chemist's terms; the core's wording is for the record.
+  const warnings = run.warnings.filter((w) => !(outside && w.code === "outside-covered-range"));
   return (
     <>
       <PageHeader
@@ -52,14 +65,14 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
           </p>
         ) : null}
         {outside ? (
-          <p role="alert" className="rounded border border-ember-600 p-2 text-sm">
+          <p role="alert" className="rounded border border-ember-600 p-2 text-sm" data-testid="range-warning">
             <span aria-hidden>⚠ </span>The sample spans {run.rangeNm[0].toFixed(1)}–{run.rangeNm[1].toFixed(1)} nm, past the calibrated range{" "}
             {calibration!.coveredRangeNm[0].toFixed(1)}–{calibration!.coveredRangeNm[1].toFixed(1)} nm: wavelengths outside it are extrapolated.
           </p>
         ) : null}
-        {run.warnings.length > 0 ? (
+        {warnings.length > 0 ? (
           <ul className="flex flex-col gap-1 text-sm">
-            {run.warnings.map((w) => (
+            {warnings.map((w) => (
               <li key={w.code + w.message} className="rounded border border-ember-600 p-2">
                 <span aria-hidden>⚠ </span>
                 {w.message}
