@@ -1,13 +1,7 @@
 "use client";
 // Shown when a workspace page fails: what happened, and a way to try again. Nothing was saved.
+import { PageError } from "@/components/ui/page-error";
+
 export default function WorkspaceError({ reset }: { error: Error; reset: () => void }) {
-  return (
-    <div role="alert" className="panel max-w-lg p-5">
-      <h1 className="text-lg font-semibold">This page could not be shown</h1>
-      <p className="muted mt-1 text-sm">Something went wrong on the server. Nothing you were doing was saved.</p>
-      <button type="button" onClick={reset} className="mt-3 rounded bg-ember-600 px-3 py-1.5 text-sm text-white">
-        Try again
-      </button>
-    </div>
-  );
+  return <PageError reset={reset} unchanged="Nothing you were doing was saved." />;
 }

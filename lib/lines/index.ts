@@ -7,6 +7,7 @@ export { formatSpecies } from "./format-species";
 export { LINE_TABLE_COLUMNS, LINE_TABLE_COLUMN_NAMES } from "./line-table-columns";
 export type { LineTableColumn } from "./line-table-columns";
 export { parseLineTableCsv } from "./parse-line-table-csv";
+export { lineLocator } from "./line-locator";
 export type { ParseLineTableCsvOptions } from "./parse-line-table-csv";
 export { formatLineTableCsv } from "./format-line-table-csv";
 export type { FormatLineTableCsvOptions } from "./format-line-table-csv";

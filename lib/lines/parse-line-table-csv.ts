@@ -16,6 +16,7 @@ import { formatSpecies } from "./format-species";
 import { parseSpecies } from "./parse-species";
 import { LINE_FLAGS } from "./types";
 import type { LineFlag, LineTableError, LineTableParseResult, LineTableRow } from "./types";
+import { lineLocator } from "./line-locator";
 
 export interface ParseLineTableCsvOptions {
   /**
@@ -62,22 +63,6 @@ function assertPositiveFinite(value: number, name: string): void {
   if (typeof value !== "number" || !Number.isFinite(value) || value <= 0) {
     throw new RangeError(`${name} must be a positive finite number, got ${value}`);
   }
-}
-
-/** Line numbers from character offsets, by binary search over the offsets of "\n". */
-function lineLocator(text: string): (offset: number) => number {
-  const newlines: number[] = [];
-  for (let i = text.indexOf("\n"); i !== -1; i = text.indexOf("\n", i + 1)) newlines.push(i);
-  return (offset) => {
-    let low = 0;
-    let high = newlines.length;
-    while (low < high) {
-      const mid = (low + high) >> 1;
-      if (newlines[mid] < offset) low = mid + 1;
-      else high = mid;
-    }
-    return low + 1;
-  };
 }
 
 interface RawRecord {

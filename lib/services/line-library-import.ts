@@ -4,7 +4,7 @@ import "server-only";
 import { createHash, randomUUID } from "node:crypto";
 import Papa from "papaparse";
 import type { Transaction } from "sequelize";
-import { parseLineTableCsv, type LineTableError, type LineTableRow } from "@/lib/lines";
+import { lineLocator, parseLineTableCsv, type LineTableError, type LineTableRow } from "@/lib/lines";
 import { AppError } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { AuditEvent, sequelize } from "@/models";
@@ -52,19 +52,8 @@ interface LineKeyColumn {
 function splitLineKeyColumn(original: string): LineKeyColumn {
   const text = original.startsWith("\uFEFF") ? original.slice(1) : original;
   const none: LineKeyColumn = { text, keys: new Map(), column: null };
-  const newlines: number[] = [];
-  for (let i = text.indexOf("\n"); i !== -1; i = text.indexOf("\n", i + 1)) newlines.push(i);
-  const lineOf = (offset: number) => {
-    let low = 0;
-    let high = newlines.length;
-    while (low < high) {
-      const mid = (low + high) >> 1;
-      if (newlines[mid] < offset) low = mid + 1;
-      else high = mid;
-    }
-    return low + 1;
-  };
-  const out: string[] = new Array(newlines.length + 1).fill("");
+  const lineOf = lineLocator(text);
+  const out: string[] = new Array(lineOf(text.length)).fill("");
   const keys = new Map<number, string>();
   let keyIndex: number | null = null;
   let sawHeader = false;

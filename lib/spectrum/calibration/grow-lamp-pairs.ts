@@ -10,6 +10,7 @@ import { fitForwardHartmann, type ForwardHartmannFit } from "./fit-forward-hartm
 import { fitGlassEnsemble } from "./fit-glass-ensemble";
 import { informationCriteria } from "./information-criteria";
 import { lampLineBlended } from "./lamp-line-blended";
+import { toLampPair } from "./to-lamp-pair";
 import type { LampPair } from "./lamp-pairing-types";
 import type { PairingContext } from "./refine-lamp-pairing";
 import { weightedLeastSquares } from "./weighted-least-squares";
@@ -57,20 +58,6 @@ const WORST_SUSPECTS = 3;
 
 /** Fewest pairs the growth starts from: the 4 parameters plus two degrees of freedom. */
 const MIN_CORE = 6;
-
-function toPair(context: PairingContext, peakIndex: number, lineIndex: number): LampPair {
-  const peak = context.peaks[peakIndex];
-  const line = context.lines[lineIndex];
-  return {
-    x: peak.x,
-    ...(peak.xUncertainty !== undefined ? { xUncertainty: peak.xUncertainty } : {}),
-    wavelengthNm: line.wavelengthNm,
-    species: line.species,
-    lineId: line.id,
-    peakIndex,
-    lineIndex,
-  };
-}
 
 /** One pair per peak and per line: a repeated peak or line keeps its first pair (forced pairs come first). */
 function oneToOne(pairs: LampPair[]): LampPair[] {
@@ -290,7 +277,7 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
         let nearest = -1;
         for (const p of freePeaks) if (nearest < 0 || Math.abs(peaks[p].x - x) < Math.abs(peaks[nearest].x - x)) nearest = p;
         if (nearest >= 0 && acceptable(model, line, nearest, freePeaks, freeLines, band)) {
-          accepted = toPair(context, nearest, line);
+          accepted = toLampPair(context, nearest, line);
           break;
         }
       }

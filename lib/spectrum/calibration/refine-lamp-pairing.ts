@@ -8,6 +8,7 @@ import type { LampLine, LampPair, LampPairingResult, LampPeak } from "./lamp-pai
 import { modelEvaluation } from "./model-evaluation";
 import { growLampPairs } from "./grow-lamp-pairs";
 import { lampLineBlended } from "./lamp-line-blended";
+import { toLampPair } from "./to-lamp-pair";
 import { fitForwardHartmann } from "./fit-forward-hartmann";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
@@ -63,8 +64,8 @@ function matchByPrediction(context: PairingContext, predictX: (lambda: number) =
     }
   }
   const pairs: LampPair[] = [];
-  for (const [p, l] of forced) pairs.push(toPair(context, p, l));
-  for (const [p, { line }] of best) pairs.push(toPair(context, p, line));
+  for (const [p, l] of forced) pairs.push(toLampPair(context, p, l));
+  for (const [p, { line }] of best) pairs.push(toLampPair(context, p, line));
   return pairs.sort((a, b) => a.x - b.x);
 }
 
@@ -89,20 +90,6 @@ function forwardFit(context: PairingContext, pairs: LampPair[], degree: number):
   } catch {
     return null;
   }
-}
-
-function toPair(context: PairingContext, peakIndex: number, lineIndex: number): LampPair {
-  const peak = context.peaks[peakIndex];
-  const line = context.lines[lineIndex];
-  return {
-    x: peak.x,
-    ...(peak.xUncertainty !== undefined ? { xUncertainty: peak.xUncertainty } : {}),
-    wavelengthNm: line.wavelengthNm,
-    species: line.species,
-    lineId: line.id,
-    peakIndex,
-    lineIndex,
-  };
 }
 
 /** The calibration fitted to the final pairs: a polynomial for a grating; for a prism the physical model
