@@ -10,6 +10,7 @@ import { Membership } from "./membership";
 import { Notebook } from "./notebook";
 import { PasswordResetToken } from "./password-reset-token";
 import { Run } from "./run";
+import { RunOverride, RunReviewMark, RunRound, RunSignature } from "./run-review";
 import { SignInAttempt } from "./sign-in-attempt";
 import { SpectrumFile } from "./spectrum-file";
 import { Team } from "./team";
@@ -49,6 +50,17 @@ Run.belongsTo(Notebook, { foreignKey: "notebookId", as: "notebook" });
 Run.belongsTo(SpectrumFile, { foreignKey: "spectrumId", as: "spectrum" });
 Run.belongsTo(Calibration, { foreignKey: "calibrationId", as: "calibration" });
 Run.belongsTo(LineRelease, { foreignKey: "lineReleaseId", as: "lineRelease" });
+Run.belongsTo(User, { foreignKey: "createdById", as: "createdBy" });
+Run.belongsTo(Run, { foreignKey: "amendsRunId", as: "amends" });
+Run.hasMany(RunOverride, { foreignKey: "runId", as: "overrides" });
+Run.hasMany(RunRound, { foreignKey: "runId", as: "rounds" });
+Run.hasMany(RunReviewMark, { foreignKey: "runId", as: "reviewMarks" });
+Run.hasOne(RunSignature, { foreignKey: "runId", as: "signature" });
+RunOverride.belongsTo(User, { foreignKey: "createdById", as: "createdBy" });
+RunRound.belongsTo(User, { foreignKey: "submittedById", as: "submittedBy" });
+RunRound.belongsTo(User, { foreignKey: "decidedById", as: "decidedBy" });
+RunReviewMark.belongsTo(User, { foreignKey: "reviewerId", as: "reviewer" });
+RunSignature.belongsTo(User, { foreignKey: "signerId", as: "signer" });
 
 export {
   AccessToken,
@@ -62,6 +74,10 @@ export {
   Notebook,
   PasswordResetToken,
   Run,
+  RunOverride,
+  RunReviewMark,
+  RunRound,
+  RunSignature,
   SignInAttempt,
   SpectrumFile,
   Team,

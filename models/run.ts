@@ -1,5 +1,6 @@
 // One identification run in a notebook: the sample, the calibration and line-table release used, the
-// settings and software version, and every peak, candidate match and call with its evidence.
+// settings and software version, and every peak, candidate match and call with its evidence (frozen
+// by the database), plus its place in review (status, round, notes; frozen once signed).
 import {
   DataTypes,
   Model,
@@ -10,6 +11,9 @@ import {
 import { sequelize } from "../db/sequelize";
 import type { SourceKind } from "../lib/spectrum/types";
 
+export const RUN_STATUSES = ["draft", "submitted", "returned", "signed"] as const;
+export type RunStatus = (typeof RUN_STATUSES)[number];
+
 export class Run extends Model<InferAttributes<Run>, InferCreationAttributes<Run>> {
   declare id: CreationOptional<string>;
   declare teamId: string;
@@ -18,7 +22,7 @@ export class Run extends Model<InferAttributes<Run>, InferCreationAttributes<Run
   declare calibrationId: string | null;
   declare lineReleaseId: string;
   declare source: SourceKind;
-  declare status: "complete";
+  declare status: CreationOptional<RunStatus>;
   declare settings: unknown;
   declare lampChecked: boolean;
   declare softwareVersion: string;
@@ -31,6 +35,17 @@ export class Run extends Model<InferAttributes<Run>, InferCreationAttributes<Run
   declare peakOverlaps: unknown;
   declare unexplained: unknown;
   declare warnings: unknown;
+  declare temperature: unknown;
+  declare continuum: Buffer | null;
+  declare versionNumber: CreationOptional<number>;
+  declare amendsRunId: CreationOptional<string | null>;
+  declare rerunOfId: CreationOptional<string | null>;
+  declare notes: CreationOptional<string>;
+  declare reviewRound: CreationOptional<number>;
+  declare requestedReviewerId: CreationOptional<string | null>;
+  declare submittedAt: CreationOptional<Date | null>;
+  declare signedAt: CreationOptional<Date | null>;
+  declare lockVersion: CreationOptional<number>;
   declare createdById: string | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -45,7 +60,7 @@ Run.init(
     calibrationId: { type: DataTypes.UUID, allowNull: true },
     lineReleaseId: { type: DataTypes.UUID, allowNull: false },
     source: { type: DataTypes.TEXT, allowNull: false },
-    status: { type: DataTypes.TEXT, allowNull: false },
+    status: { type: DataTypes.TEXT, allowNull: false, defaultValue: "draft" },
     settings: { type: DataTypes.JSONB, allowNull: false },
     lampChecked: { type: DataTypes.BOOLEAN, allowNull: false },
     softwareVersion: { type: DataTypes.TEXT, allowNull: false },
@@ -58,6 +73,17 @@ Run.init(
     peakOverlaps: { type: DataTypes.JSONB, allowNull: false },
     unexplained: { type: DataTypes.JSONB, allowNull: false },
     warnings: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
+    temperature: { type: DataTypes.JSONB, allowNull: true },
+    continuum: { type: DataTypes.BLOB, allowNull: true },
+    versionNumber: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+    amendsRunId: { type: DataTypes.UUID, allowNull: true },
+    rerunOfId: { type: DataTypes.UUID, allowNull: true },
+    notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
+    reviewRound: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+    requestedReviewerId: { type: DataTypes.UUID, allowNull: true },
+    submittedAt: { type: DataTypes.DATE, allowNull: true },
+    signedAt: { type: DataTypes.DATE, allowNull: true },
+    lockVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
     createdById: { type: DataTypes.UUID, allowNull: true },
     createdAt: DataTypes.DATE,
     updatedAt: DataTypes.DATE,

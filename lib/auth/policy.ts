@@ -16,6 +16,8 @@ const TEAM_ACTIONS = {
   "calibration.create": ["chemist", "supervisor", "lab_lead"],
   "notebook.create": ["chemist", "supervisor", "lab_lead"],
   "run.create": ["chemist", "supervisor", "lab_lead"],
+  /** Notes, overrides, submission and amendment; the services also require the run's author. */
+  "run.edit": ["chemist", "supervisor", "lab_lead"],
   "run.review": ["supervisor"],
   "lines.view": ["chemist", "supervisor", "lab_lead"],
   "lines.edit": ["lab_lead"],

@@ -7,10 +7,11 @@ import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
 import { toReferenceLine } from "@/lib/lines";
 import { analyzeSample } from "@/lib/spectrum/analysis";
-import { prepareLineIndex, type ElementCall, type LineIndex } from "@/lib/spectrum/matching";
+import { prepareLineIndex, type ElementCall, type LineIndex, type Verdict } from "@/lib/spectrum/matching";
 import { spectrumToNanometres } from "@/lib/spectrum/units";
 import type { RunCreateInput } from "@/lib/validation/workflow-schemas";
-import { Calibration, Instrument, Run, sequelize } from "@/models";
+import type { Transaction } from "sequelize";
+import { Calibration, Instrument, Run, RunOverride, User, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import { newestPublishedRelease } from "./calibrations";
 import { latestCalibrationOf } from "./instruments";
@@ -18,7 +19,7 @@ import { selectLines } from "./line-library-access";
 import { toLineTableRow } from "./line-library-rows";
 import { loadNotebook } from "./notebooks";
 import { loadSpectrum, spectrumPoints } from "./spectra";
-import { SOFTWARE_VERSION, type RunCall, type RunPeak, type RunRecord, type RunSummary } from "./workflow-types";
+import { SOFTWARE_VERSION, type RunCall, type RunOverrideRecord, type RunPeak, type RunRecord, type RunSummary, type RunTemperature } from "./workflow-types";
 
 // Published releases never change, so an index prepared once per release serves every later run.
 const indexCache = new Map<string, Promise<LineIndex>>();
@@ -67,7 +68,41 @@ function toRunCall(call: ElementCall): RunCall {
   };
 }
 
-function toRunRecord(row: Run): RunRecord {
+async function overridesOf(runId: string, transaction?: Transaction): Promise<RunOverrideRecord[]> {
+  const rows = await RunOverride.findAll({
+    where: { runId },
+    include: [{ model: User, as: "createdBy", attributes: ["name"] }],
+    order: [
+      ["createdAt", "ASC"],
+      ["id", "ASC"],
+    ],
+    transaction,
+  });
+  return rows.map((o) => ({
+    id: o.id,
+    species: o.species,
+    computedVerdict: o.computedVerdict,
+    verdict: o.verdict,
+    reason: o.reason,
+    byName: (o as RunOverride & { createdBy?: User }).createdBy?.name ?? null,
+    at: o.createdAt.toISOString(),
+  }));
+}
+
+/** The verdict that stands per species: the newest override, else the computed verdict. */
+export function standingVerdicts(calls: readonly RunCall[], overrides: readonly RunOverrideRecord[]): Record<string, Verdict> {
+  const verdicts: Record<string, Verdict> = {};
+  for (const call of calls) verdicts[call.species] = call.verdict;
+  for (const o of overrides) {
+    const computed = calls.find((c) => c.species === o.species)?.verdict ?? o.computedVerdict;
+    verdicts[o.species] = o.verdict ?? computed;
+  }
+  return verdicts;
+}
+
+export async function toRunRecord(row: Run, transaction?: Transaction): Promise<RunRecord> {
+  const calls = row.calls as RunCall[];
+  const overrides = await overridesOf(row.id, transaction);
   return {
     id: row.id,
     notebookId: row.notebookId,
@@ -76,6 +111,15 @@ function toRunRecord(row: Run): RunRecord {
     lineReleaseId: row.lineReleaseId,
     source: row.source,
     status: row.status,
+    versionNumber: row.versionNumber,
+    amendsRunId: row.amendsRunId,
+    rerunOfId: row.rerunOfId,
+    createdById: row.createdById,
+    notes: row.notes,
+    reviewRound: row.reviewRound,
+    requestedReviewerId: row.requestedReviewerId,
+    submittedAt: row.submittedAt?.toISOString() ?? null,
+    signedAt: row.signedAt?.toISOString() ?? null,
     settings: row.settings as RunRecord["settings"],
     lampChecked: row.lampChecked,
     softwareVersion: row.softwareVersion,
@@ -83,7 +127,10 @@ function toRunRecord(row: Run): RunRecord {
     noiseCounts: row.noiseCounts,
     warnings: row.warnings as RunRecord["warnings"],
     peaks: row.peaks as RunPeak[],
-    calls: row.calls as RunCall[],
+    calls,
+    verdicts: standingVerdicts(calls, overrides),
+    overrides,
+    temperature: (row.temperature as RunTemperature | null) ?? null,
     unexplained: row.unexplained as RunRecord["unexplained"],
     createdAt: row.createdAt.toISOString(),
   };
@@ -93,7 +140,7 @@ export async function fetchRun(actor: Actor, runId: string): Promise<RunRecord> 
   const row = await Run.findByPk(runId);
   if (!row) throw notFound("No such run.");
   authorize(actor, "team.view", { teamId: row.teamId });
-  return toRunRecord(row);
+  return await toRunRecord(row);
 }
 
 /** A notebook's runs, newest first, with the species called present. */
@@ -215,7 +262,7 @@ export async function createRun(actor: Actor, input: RunCreateInput): Promise<Ru
         calibrationId: calibration?.id ?? null,
         lineReleaseId: release.id,
         source: input.source,
-        status: "complete",
+        status: "draft",
         settings,
         lampChecked: analysis.lampChecked,
         softwareVersion: SOFTWARE_VERSION,
@@ -251,6 +298,6 @@ export async function createRun(actor: Actor, input: RunCreateInput): Promise<Ru
       },
       transaction,
     );
-    return toRunRecord(row);
+    return await toRunRecord(row, transaction);
   });
 }

@@ -3,6 +3,9 @@
 import type { AxisUnit, SourceKind, WavelengthMedium } from "@/lib/spectrum/types";
 import type { Verdict } from "@/lib/spectrum/matching";
 import packageJson from "@/package.json";
+import type { RunStatus } from "@/models/run";
+
+export type { RunStatus };
 
 export interface InstrumentRecord {
   id: string;
@@ -82,7 +85,7 @@ export interface NotebookRecord {
 
 export interface RunSummary {
   id: string;
-  status: "complete";
+  status: RunStatus;
   spectrumId: string;
   source: SourceKind;
   present: string[];
@@ -116,6 +119,30 @@ export interface RunCall {
   rationale: string;
 }
 
+/** The newest override of one call: the verdict the chemist chose (null: withdrawn) and why. */
+export interface RunOverrideRecord {
+  id: string;
+  species: string;
+  computedVerdict: Verdict;
+  verdict: Verdict | null;
+  reason: string;
+  byName: string | null;
+  at: string;
+}
+
+/** A Boltzmann excitation temperature from one species' lines, or why none could be found. */
+export type RunTemperature =
+  | {
+      ok: true;
+      species: string;
+      temperatureK: number;
+      temperatureUncertaintyK: number;
+      lineCount: number;
+      rSquared: number;
+      points: { upperEv: number; y: number; wavelengthNm: number }[];
+    }
+  | { ok: false; message: string };
+
 export interface RunRecord {
   id: string;
   notebookId: string;
@@ -123,7 +150,18 @@ export interface RunRecord {
   calibrationId: string | null;
   lineReleaseId: string;
   source: SourceKind;
-  status: "complete";
+  status: RunStatus;
+  /** 1 for the first version; an amendment of a signed run is the next version, linked by amendsRunId. */
+  versionNumber: number;
+  amendsRunId: string | null;
+  /** The run this one repeats against a newer line-table release, when it is a re-run. */
+  rerunOfId: string | null;
+  createdById: string | null;
+  notes: string;
+  reviewRound: number;
+  requestedReviewerId: string | null;
+  submittedAt: string | null;
+  signedAt: string | null;
   settings: { minSnr?: number; k?: number; temperatureK?: number };
   lampChecked: boolean;
   softwareVersion: string;
@@ -131,7 +169,13 @@ export interface RunRecord {
   noiseCounts: number;
   warnings: { code: string; message: string }[];
   peaks: RunPeak[];
+  /** The calls as analysed; `verdict` in each is the computed verdict. */
   calls: RunCall[];
+  /** Per species, the verdict that stands: the newest override's when there is one, else the computed one. */
+  verdicts: Record<string, Verdict>;
+  /** The override history, oldest first (the newest per species applies). */
+  overrides: RunOverrideRecord[];
+  temperature: RunTemperature | null;
   unexplained: { wavelengthNm: number; height: number; snr: number; reason: string }[];
   createdAt: string;
 }
