@@ -8,7 +8,6 @@ import { authorize } from "@/lib/auth/policy";
 import { toReferenceLine } from "@/lib/lines";
 import { analyzeSample } from "@/lib/spectrum/analysis";
 import { prepareLineIndex, type ElementCall, type LineIndex, type Verdict } from "@/lib/spectrum/matching";
-import { spectrumToNanometres } from "@/lib/spectrum/units";
 import type { RunCreateInput } from "@/lib/validation/workflow-schemas";
 import type { Transaction } from "sequelize";
 import { Calibration, Instrument, Run, RunOverride, User, sequelize } from "@/models";
@@ -18,6 +17,7 @@ import { latestCalibrationOf } from "./instruments";
 import { selectLines } from "./line-library-access";
 import { toLineTableRow } from "./line-library-rows";
 import { loadNotebook } from "./notebooks";
+import { fileAxisInNm } from "./run-spectrum";
 import { loadSpectrum, spectrumPoints } from "./spectra";
 import { SOFTWARE_VERSION, type RunCall, type RunOverrideRecord, type RunPeak, type RunRecord, type RunSummary, type RunTemperature } from "./workflow-types";
 
@@ -194,16 +194,8 @@ export async function createRun(actor: Actor, input: RunCreateInput): Promise<Ru
 
   const release = await newestPublishedRelease(notebook.teamId);
   const index = await lineIndexOf(release.id);
-  let { x, y } = spectrumPoints(spectrum);
-  if (!calibration && spectrum.xUnit !== "nm") {
-    // The file's own wavelength axis, put in nm and (when its medium is known) in air, as tables give lines above 200 nm.
-    const known = spectrum.xUnit === "wavenumber" || spectrum.medium !== null;
-    const inNm = spectrumToNanometres(
-      { x, y, xUnit: spectrum.xUnit, medium: spectrum.medium ?? undefined, meta: {} },
-      known ? { medium: "air", belowRange: "unchanged" } : {},
-    );
-    ({ x, y } = inNm);
-  }
+  // Without a calibration the file's own wavelength axis is used, in nm and (when known) in air.
+  const { x, y } = calibration ? spectrumPoints(spectrum) : fileAxisInNm(spectrum);
   const settings = input.settings ?? {};
   let analysis;
   try {

@@ -1,0 +1,53 @@
+// A run's sample on the wavelength axis the run used: through its calibration, or (for a file with
+// its own wavelength column and no calibration) the file's axis in nm, in air where the medium is
+// known. The run page's chart and the report exports read it from here, so both show what the
+// analysis saw.
+import "server-only";
+import type { Actor } from "@/lib/auth/actor";
+import { evaluateCalibration } from "@/lib/spectrum/calibration";
+import { spectrumToNanometres } from "@/lib/spectrum/units";
+import { Calibration, type SpectrumFile } from "@/models";
+import { loadRun } from "./run-lifecycle";
+import { loadSpectrum, spectrumPoints } from "./spectra";
+
+/** The file's own axis in nm: in air when its medium is known (tables give lines in air above 200 nm). */
+export function fileAxisInNm(spectrum: SpectrumFile): { x: Float64Array; y: Float64Array } {
+  const { x, y } = spectrumPoints(spectrum);
+  if (spectrum.xUnit === "nm" || spectrum.xUnit === "pixel") return { x, y };
+  const known = spectrum.xUnit === "wavenumber" || spectrum.medium !== null;
+  const inNm = spectrumToNanometres(
+    { x, y, xUnit: spectrum.xUnit, medium: spectrum.medium ?? undefined, meta: {} },
+    known ? { medium: "air", belowRange: "unchanged" } : {},
+  );
+  return { x: inNm.x, y: inNm.y };
+}
+
+export interface RunSpectrum {
+  /** Ascending wavelengths in nm (air above 200 nm when lamp-calibrated or the medium is known). */
+  wavelengthNm: Float64Array;
+  counts: Float64Array;
+  lampChecked: boolean;
+}
+
+export async function fetchRunSpectrum(actor: Actor, runId: string): Promise<RunSpectrum> {
+  const run = await loadRun(actor, runId);
+  const spectrum = await loadSpectrum(actor, run.spectrumId);
+  let x: Float64Array;
+  let y: Float64Array;
+  if (run.calibrationId) {
+    const calibration = (await Calibration.findByPk(run.calibrationId))!;
+    const points = spectrumPoints(spectrum);
+    const nm = evaluateCalibration(calibration.model, points.x);
+    const keep: number[] = [];
+    for (let i = 0; i < nm.length; i++) if (Number.isFinite(nm[i])) keep.push(i);
+    x = Float64Array.from(keep, (i) => nm[i]);
+    y = Float64Array.from(keep, (i) => points.y[i]);
+  } else {
+    ({ x, y } = fileAxisInNm(spectrum));
+  }
+  if (x.length > 1 && x[0] > x[x.length - 1]) {
+    x = x.slice().reverse();
+    y = y.slice().reverse();
+  }
+  return { wavelengthNm: x, counts: y, lampChecked: run.lampChecked };
+}
