@@ -10,6 +10,7 @@ const ENTITY_LABELS: Record<string, string> = {
   notebook: "Notebook",
   run: "Run",
   spectrum_file: "Spectrum file",
+  team: "Team",
   user: "Person",
 };
 

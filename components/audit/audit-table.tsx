@@ -92,7 +92,7 @@ export function AuditTable({
                         onClick={() => toggle(event.id)}
                         aria-expanded={expanded}
                         aria-controls={detailsId}
-                        className="rounded border border-[var(--line)] px-1.5 text-xs hover:bg-ink-100 dark:hover:bg-ink-800"
+                        className="whitespace-nowrap rounded border border-[var(--line)] px-1.5 text-xs hover:bg-ink-100 dark:hover:bg-ink-800"
                       >
                         <span aria-hidden>{expanded ? "▾" : "▸"} </span>
                         {expanded ? "Hide" : "Show"}

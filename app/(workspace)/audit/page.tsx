@@ -42,6 +42,8 @@ export default async function AuditPage({
   const filtered = parsed.success && [...query.keys()].some((k) => k !== "teamId");
   const csv = new URLSearchParams(query);
   csv.set("format", "csv");
+  // A page size in the URL carries on to "Load more"; the CSV always holds every matching event.
+  if (parsed.success && parsed.data.limit) query.set("limit", String(parsed.data.limit));
   return (
     <>
       <PageHeader
