@@ -336,6 +336,8 @@ describe("who may read", () => {
         .status,
     ).toBe(404);
     expect((await new ApiClient().get(`/api/audit?teamId=${teamId}`)).status).toBe(401);
+    const supervisor = await signInDemo("supervisor");
+    expect((await supervisor.get(`/api/audit?teamId=${teamId}`)).status).toBe(200);
   });
 });
 
