@@ -2,7 +2,8 @@
 // edit, made through the API with the browser's own session; a retired line is left out when the
 // draft is published), opens the audit page, filters by action from the keyboard, opens the row to
 // see before and after with the changed field marked, pages with "Load more", downloads the CSV and
-// reads it back, and finds the same events at the foot of the release's page. Screenshots go to
+// reads it back, and finds the same events at the foot of the release's page; a calibration and a
+// run made through the API show their own trails on their pages. Screenshots go to
 // test-output/e2e/audit-trail-*.png.
 import fs from "node:fs";
 import Papa from "papaparse";
@@ -11,6 +12,13 @@ import { openBrowser, screenshot, type Session } from "./support/browser";
 import { AuditTrailPage } from "./pages/audit-page";
 import { SignInPage } from "./pages/sign-in-page";
 import { WorkspaceShell } from "./pages/workspace-shell";
+import {
+  PIXELS,
+  RESOLUTION_NM,
+  flameFile,
+  lampFile,
+  syntheticGrating,
+} from "../integration/support/synthetic-files";
 
 const DEMO_PASSWORD = "emberline-demo";
 const LEAD = "lead@demo.emberline.example";
@@ -30,13 +38,19 @@ interface Me {
   teams: { id: string; name: string }[];
 }
 
+async function signInLead(): Promise<void> {
+  await browser.context.clearCookies();
+  browser.problems.length = 0;
+  const signIn = new SignInPage(browser.page);
+  await signIn.goto();
+  await signIn.signIn(LEAD, DEMO_PASSWORD);
+  await new WorkspaceShell(browser.page).waitUntilShown();
+}
+
 describe("the audit trail", () => {
   it("lets the lab lead filter, open a change, page, and download the CSV", async () => {
     const { page } = browser;
-    const signIn = new SignInPage(page);
-    await signIn.goto();
-    await signIn.signIn(LEAD, DEMO_PASSWORD);
-    await new WorkspaceShell(page).waitUntilShown();
+    await signInLead();
 
     // A line added to the draft and retired again, with the browser's session.
     const me = (await (await page.request.get("/api/me")).json()) as Me;
@@ -148,6 +162,97 @@ describe("the audit trail", () => {
     await audit.goto(`?teamId=${teamId}&from=2001-02-30`);
     await page.getByText("The first date is not a day of the calendar.").waitFor();
     await screenshot(page, "audit-trail-4-bad-date");
+    expect(browser.problems, browser.problems.join("\n")).toEqual([]);
+  });
+
+  it("shows a calibration's and a run's own trail at the foot of their pages", async () => {
+    const { page } = browser;
+    await signInLead();
+    const post = async (path: string, data: unknown) => {
+      const reply = await page.request.post(path, { data });
+      expect(reply.status(), await reply.text()).toBe(201);
+      return (await reply.json()) as { id: string };
+    };
+    const upload = async (
+      instrumentId: string,
+      kind: "lamp" | "sample",
+      name: string,
+      text: string,
+    ) => {
+      const reply = await page.request.post("/api/spectra", {
+        multipart: {
+          file: { name, mimeType: "text/csv", buffer: Buffer.from(text) },
+          instrumentId,
+          kind,
+          label: name,
+        },
+      });
+      expect(reply.status(), await reply.text()).toBe(201);
+      return ((await reply.json()) as { id: string }).id;
+    };
+    const me = (await (await page.request.get("/api/me")).json()) as Me;
+    const teamId = me.teams.find((t) => t.name === "Flame Screening")!.id;
+    const grating = syntheticGrating();
+    const instrument = await post("/api/instruments", {
+      teamId,
+      name: `Audit grating ${suffix}`,
+      dispersion: "grating",
+      pixels: PIXELS,
+      nominalMinNm: grating.nominalRangeNm[0],
+      nominalMaxNm: grating.nominalRangeNm[1],
+      resolutionNm: RESOLUTION_NM,
+    });
+    const lampId = await upload(instrument.id, "lamp", `lamp-${suffix}.csv`, lampFile(grating));
+    const calibration = await post("/api/calibrations", {
+      instrumentId: instrument.id,
+      spectrumId: lampId,
+      lamps: ["Hg", "Ar"],
+    });
+    const notebook = await post("/api/notebooks", { teamId, title: `Audit notebook ${suffix}` });
+    const flameId = await upload(
+      instrument.id,
+      "sample",
+      `flame-${suffix}.csv`,
+      flameFile(grating),
+    );
+    const run = await post("/api/runs", {
+      notebookId: notebook.id,
+      spectrumId: flameId,
+      calibrationId: calibration.id,
+      source: "flame",
+    });
+
+    for (const [path, entity, action, name] of [
+      [`/calibrations/${calibration.id}`, "calibration", "calibration.create", "calibration"],
+      [`/runs/${run.id}`, "run", "run.create", "run"],
+    ] as const) {
+      await page.goto(path);
+      const trail = page.getByTestId("entity-trail");
+      await trail.waitFor();
+      expect(await trail.getByRole("heading", { level: 2 }).textContent()).toBe(
+        `Audit trail of this ${name}`,
+      );
+      const entry = trail.locator("li").filter({ hasText: action });
+      expect(await entry.count()).toBe(1);
+      expect(await entry.textContent()).toContain("Ilse Varga");
+      await entry.locator("summary").focus();
+      await page.keyboard.press("Enter");
+      await entry.getByTestId("before-after").waitFor();
+      expect(await entry.textContent()).toContain("Nothing before: the record was created here.");
+      await trail.screenshot({ path: `test-output/e2e/audit-trail-5-${entity}-trail.png` });
+      const href = await trail
+        .getByRole("link", { name: "Open in the full audit trail" })
+        .getAttribute("href");
+      expect(href).toBe(
+        `/audit?teamId=${teamId}&entity=${entity}&entityId=${path.split("/").pop()}`,
+      );
+      await page.goto(href!);
+      const audit = new AuditTrailPage(page);
+      await audit.rows.first().waitFor();
+      expect(
+        await audit.rows.evaluateAll((rows) => rows.map((r) => r.getAttribute("data-action"))),
+      ).toEqual([action]);
+    }
     expect(browser.problems, browser.problems.join("\n")).toEqual([]);
   });
 });
