@@ -1,10 +1,16 @@
 // Writes and reads the append-only audit trail. Every mutation in every service calls recordAudit
-// inside the same transaction as the change it describes.
+// inside the same transaction as the change it describes; nothing here (or anywhere) edits or
+// deletes an event, and the database refuses it too.
 import "server-only";
-import type { Transaction } from "sequelize";
-import { AuditEvent, User } from "@/models";
+import Papa from "papaparse";
+import { QueryTypes, type Transaction } from "sequelize";
+import { AuditEvent, User, sequelize } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
-import { authorize } from "@/lib/auth/policy";
+import { authorize, can } from "@/lib/auth/policy";
+import { diffAuditValues, type AuditChange } from "@/lib/audit/diff-audit-values";
+import { AUDIT_FILTER_KEYS, AUDIT_PAGE_DEFAULT, AUDIT_PAGE_MAX } from "@/lib/validation/audit-schemas";
+
+export type { AuditChange };
 
 export interface AuditInput {
   actorId: string | null;
@@ -60,4 +66,311 @@ export async function fetchRecentActivity(actor: Actor, teamId: string, limit = 
     entityId: row.entityId,
     reason: row.reason,
   }));
+}
+
+// ---------------------------------------------------------------------------------------------
+// Reading the trail: one team's events filtered and paged, one entity's trail, and the CSV export.
+
+/** One event as pages, the API and the CSV see it, with the before/after comparison worked out. */
+export interface AuditEventRecord {
+  id: string;
+  /** When the database wrote it, ISO 8601 in UTC. */
+  at: string;
+  teamId: string | null;
+  actorId: string | null;
+  actorName: string | null;
+  actorEmail: string | null;
+  action: string;
+  entity: string;
+  entityId: string | null;
+  reason: string | null;
+  before: unknown;
+  after: unknown;
+  /** Changed leaf fields (none for a creation, which has no before). */
+  changes: AuditChange[];
+}
+
+export interface AuditFilter {
+  teamId: string;
+  actorId?: string;
+  entity?: string;
+  /** With `entity`: that record's trail (see RELATED_BY_REFERENCE). */
+  entityId?: string;
+  /** An exact action (`run.create`), or a prefix ending in "." (`run.`) for every action under it. */
+  action?: string;
+  /** First day, YYYY-MM-DD, inclusive, in UTC. */
+  from?: string;
+  /** Last day, YYYY-MM-DD, inclusive, in UTC. */
+  to?: string;
+}
+
+export interface AuditPageQuery extends AuditFilter {
+  /** The `nextCursor` of the previous page. */
+  cursor?: string;
+  /** Events per page, 1–200. @default 50 */
+  limit?: number;
+}
+
+export interface AuditPage {
+  events: AuditEventRecord[];
+  /** Pass as `cursor` for the next (older) page; null on the last page. */
+  nextCursor: string | null;
+}
+
+/**
+ * Events that belong to a record's trail although they name another entity: the line edits made in
+ * a line-table release's draft (entity `line`, whose before/after carry `releaseId`), and events of
+ * a run's parts (entities `run_…`, carrying `runId`). Everything else is its entity + entity id.
+ */
+const RELATED_BY_REFERENCE: Readonly<Record<string, { entityLike: string; key: string }>> = {
+  line_release: { entityLike: "line", key: "releaseId" },
+  run: { entityLike: "run\\_%", key: "runId" },
+};
+
+interface AuditDbRow {
+  id: string;
+  created_at: Date;
+  team_id: string | null;
+  actor_id: string | null;
+  actor_name: string | null;
+  actor_email: string | null;
+  action: string;
+  entity: string;
+  entity_id: string | null;
+  reason: string | null;
+  before: unknown;
+  after: unknown;
+}
+
+const AUDIT_SELECT = `SELECT e.id::text AS id, e.created_at, e.team_id, e.actor_id, u.name AS actor_name,
+  u.email AS actor_email, e.action, e.entity, e.entity_id, e.reason, e.before, e.after
+  FROM audit_events e LEFT JOIN users u ON u.id = e.actor_id`;
+
+const DAY_MS = 86_400_000;
+
+function toAuditEventRecord(row: AuditDbRow): AuditEventRecord {
+  return {
+    id: row.id,
+    at: row.created_at.toISOString(),
+    teamId: row.team_id,
+    actorId: row.actor_id,
+    actorName: row.actor_name,
+    actorEmail: row.actor_email,
+    action: row.action,
+    entity: row.entity,
+    entityId: row.entity_id,
+    reason: row.reason,
+    before: row.before,
+    after: row.after,
+    changes: diffAuditValues(row.before, row.after),
+  };
+}
+
+function escapeLike(value: string): string {
+  return value.replace(/[\\%_]/g, "\\$&");
+}
+
+/** The WHERE clause of a filter; values go into `bind`, never into the SQL text. */
+function auditWhere(
+  filter: Omit<AuditFilter, "teamId"> & { teamIds: string[]; beforeId?: string; upToId?: string },
+  bind: unknown[],
+): string {
+  const param = (value: unknown) => {
+    bind.push(value);
+    return `$${bind.length}`;
+  };
+  const parts = [`e.team_id = ANY(${param(filter.teamIds)}::uuid[])`];
+  if (filter.actorId) parts.push(`e.actor_id = ${param(filter.actorId)}::uuid`);
+  if (filter.entity && filter.entityId) {
+    const entity = param(filter.entity);
+    const id = param(filter.entityId);
+    const own = `(e.entity = ${entity} AND e.entity_id = ${id})`;
+    const related = RELATED_BY_REFERENCE[filter.entity];
+    if (related) {
+      const key = `${param(related.key)}::text`;
+      parts.push(
+        `(${own} OR (e.entity LIKE ${param(related.entityLike)} AND (e.after ->> ${key} = ${id} OR e.before ->> ${key} = ${id})))`,
+      );
+    } else parts.push(own);
+  } else if (filter.entity) parts.push(`e.entity = ${param(filter.entity)}`);
+  if (filter.action) {
+    parts.push(
+      filter.action.endsWith(".")
+        ? `e.action LIKE ${param(`${escapeLike(filter.action)}%`)}`
+        : `e.action = ${param(filter.action)}`,
+    );
+  }
+  if (filter.from) parts.push(`e.created_at >= ${param(`${filter.from}T00:00:00.000Z`)}::timestamptz`);
+  if (filter.to) {
+    const dayAfter = new Date(Date.parse(`${filter.to}T00:00:00.000Z`) + DAY_MS).toISOString();
+    parts.push(`e.created_at < ${param(dayAfter)}::timestamptz`);
+  }
+  if (filter.beforeId) parts.push(`e.id < ${param(filter.beforeId)}::bigint`);
+  if (filter.upToId) parts.push(`e.id <= ${param(filter.upToId)}::bigint`);
+  return parts.join(" AND ");
+}
+
+async function selectEvents(
+  filter: Parameters<typeof auditWhere>[0],
+  limit: number,
+): Promise<AuditDbRow[]> {
+  const bind: unknown[] = [];
+  const where = auditWhere(filter, bind);
+  bind.push(limit);
+  return sequelize.query<AuditDbRow>(`${AUDIT_SELECT} WHERE ${where} ORDER BY e.id DESC LIMIT $${bind.length}`, {
+    bind,
+    type: QueryTypes.SELECT,
+  });
+}
+
+/**
+ * One team's trail, newest first (by the event's sequence number, which follows the order of
+ * writing), a page at a time: pass the previous page's `nextCursor` to get the next. Every event
+ * shows up exactly once across the pages, even while new ones are written.
+ */
+export async function fetchAuditPage(actor: Actor, query: AuditPageQuery): Promise<AuditPage> {
+  authorize(actor, "audit.view", { teamId: query.teamId });
+  const limit = Math.min(AUDIT_PAGE_MAX, Math.max(1, query.limit ?? AUDIT_PAGE_DEFAULT));
+  const rows = await selectEvents({ ...query, teamIds: [query.teamId], beforeId: query.cursor }, limit + 1);
+  const events = rows.slice(0, limit).map(toAuditEventRecord);
+  return { events, nextCursor: rows.length > limit ? events[events.length - 1].id : null };
+}
+
+export interface EntityTrail {
+  events: AuditEventRecord[];
+  /** True when the trail has older events than those shown. */
+  more: boolean;
+  /** The team the events belong to (for a link to the full trail); null when there are none. */
+  teamId: string | null;
+}
+
+/**
+ * One record's trail (a run, a calibration, a line-table release, …), newest first, from the teams
+ * whose trail the person may read. Other teams' events are simply not there.
+ */
+export async function fetchEntityTrail(
+  actor: Actor,
+  entity: string,
+  entityId: string,
+  limit = 25,
+): Promise<EntityTrail> {
+  const teamIds = actor.memberships.map((m) => m.teamId).filter((teamId) => can(actor, "audit.view", { teamId }));
+  if (teamIds.length === 0) return { events: [], more: false, teamId: null };
+  const rows = await selectEvents({ teamIds, entity, entityId }, limit + 1);
+  const events = rows.slice(0, limit).map(toAuditEventRecord);
+  return { events, more: rows.length > limit, teamId: events[0]?.teamId ?? null };
+}
+
+export interface AuditFacets {
+  /** Entities that occur in the team's trail, sorted. */
+  entities: string[];
+  /** Actions that occur in the team's trail, sorted. */
+  actions: string[];
+}
+
+/** What the filters can offer: the entities and actions that occur in the team's trail. */
+export async function fetchAuditFacets(actor: Actor, teamId: string): Promise<AuditFacets> {
+  authorize(actor, "audit.view", { teamId });
+  const rows = await sequelize.query<{ entity: string; action: string }>(
+    "SELECT DISTINCT entity, action FROM audit_events WHERE team_id = $1",
+    { bind: [teamId], type: QueryTypes.SELECT },
+  );
+  return {
+    entities: [...new Set(rows.map((r) => r.entity))].sort(),
+    actions: [...new Set(rows.map((r) => r.action))].sort(),
+  };
+}
+
+export const AUDIT_CSV_COLUMNS = [
+  "time_utc",
+  "actor_name",
+  "actor_email",
+  "action",
+  "entity",
+  "entity_id",
+  "reason",
+  "changed_fields",
+  "before_json",
+  "after_json",
+] as const;
+
+/** Events fetched per database round trip while the CSV streams out. */
+const CSV_CHUNK = 500;
+
+/**
+ * Cells that a spreadsheet would read as a formula (starting with = + - @, a tab or a carriage
+ * return) get a leading apostrophe (common practice against formula injection). Papa's own
+ * pattern stops at a line break, hence ours.
+ */
+const FORMULA_START = /^[=+\-@\t\r]/;
+
+function csvCells(event: AuditEventRecord): string[] {
+  return [
+    event.at,
+    event.actorName ?? "",
+    event.actorEmail ?? "",
+    event.action,
+    event.entity,
+    event.entityId ?? "",
+    event.reason ?? "",
+    event.changes.map((c) => c.path || "(value)").join("; "),
+    event.before == null ? "" : JSON.stringify(event.before),
+    event.after == null ? "" : JSON.stringify(event.after),
+  ];
+}
+
+function csvText(rows: string[][], header: boolean): string {
+  // RFC 4180: fields with commas, quotes or line breaks are quoted, quotes doubled, CRLF between records.
+  const text = Papa.unparse(header ? { fields: [...AUDIT_CSV_COLUMNS], data: rows } : rows, {
+    newline: "\r\n",
+    escapeFormulae: FORMULA_START,
+    header,
+  });
+  return text ? `${text}\r\n` : "";
+}
+
+export interface AuditCsvExport {
+  filename: string;
+  /** The CSV, produced a chunk of events at a time as the client reads it. */
+  stream: ReadableStream<Uint8Array>;
+}
+
+/**
+ * Every event that matches the filter as CSV, newest first. The events written after the export
+ * started are left out, so that the file is one consistent cut of the trail.
+ */
+export async function exportAuditCsv(actor: Actor, filter: AuditFilter): Promise<AuditCsvExport> {
+  authorize(actor, "audit.view", { teamId: filter.teamId });
+  const [{ newest }] = await sequelize.query<{ newest: string | null }>(
+    "SELECT max(id)::text AS newest FROM audit_events WHERE team_id = $1",
+    { bind: [filter.teamId], type: QueryTypes.SELECT },
+  );
+  const teamName = actor.memberships.find((m) => m.teamId === filter.teamId)?.teamName ?? "team";
+  const slug = teamName.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "") || "team";
+  const filtered = AUDIT_FILTER_KEYS.some((key) => filter[key]);
+  const filename = `emberline-audit-${slug}-${new Date().toISOString().slice(0, 10)}${filtered ? "-filtered" : ""}.csv`;
+  const encoder = new TextEncoder();
+  let cursor: string | undefined;
+  let started = false;
+  const stream = new ReadableStream<Uint8Array>({
+    async pull(controller) {
+      try {
+        const rows =
+          newest === null
+            ? []
+            : await selectEvents({ ...filter, teamIds: [filter.teamId], beforeId: cursor, upToId: newest }, CSV_CHUNK);
+        const text = csvText(rows.map((row) => csvCells(toAuditEventRecord(row))), !started);
+        if (!started && rows.length === 0) {
+          controller.enqueue(encoder.encode(`${AUDIT_CSV_COLUMNS.join(",")}\r\n`));
+        } else if (text) controller.enqueue(encoder.encode(text));
+        started = true;
+        if (rows.length < CSV_CHUNK) controller.close();
+        else cursor = rows[rows.length - 1].id;
+      } catch (error) {
+        console.error(error);
+        controller.error(error);
+      }
+    },
+  });
+  return { filename, stream };
 }

@@ -12,6 +12,7 @@ import { fetchLines, fetchReleases } from "@/lib/services/line-library";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { lineSearchHref, parseLineSearch, toLineQuery } from "@/lib/validation/line-forms";
 import { openDraftAction } from "./actions";
+import { EntityTrail } from "@/components/audit/entity-trail";
 
 export const metadata = { title: "Line library" };
 
@@ -145,6 +146,7 @@ export default async function LinesPage({
           />
         </>
       )}
+      <EntityTrail entity="line_release" entityId={page.release.id} />
     </>
   );
 }

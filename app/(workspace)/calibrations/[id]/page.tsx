@@ -8,6 +8,7 @@ import { fetchCalibration } from "@/lib/services/calibrations";
 import { fetchInstrument } from "@/lib/services/instruments";
 import { fetchSpectrum } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
+import { EntityTrail } from "@/components/audit/entity-trail";
 
 export const metadata = { title: "Calibration" };
 
@@ -140,6 +141,7 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
           </tbody>
         </table>
       </div>
+      <EntityTrail entity="calibration" entityId={calibration.id} />
     </>
   );
 }

@@ -11,6 +11,7 @@ import { fetchInstrument } from "@/lib/services/instruments";
 import { fetchRun } from "@/lib/services/runs";
 import { fetchSpectrum } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
+import { EntityTrail } from "@/components/audit/entity-trail";
 
 export const metadata = { title: "Run" };
 
@@ -127,6 +128,7 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
         <dt className="muted">Raw file SHA-256</dt>
         <dd className="break-all font-mono text-xs">{spectrum.sha256}</dd>
       </dl>
+      <EntityTrail entity="run" entityId={run.id} />
     </>
   );
 }
