@@ -438,7 +438,8 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
       lineId: p.lineId ?? null,
     }));
     const predicted = evaluateCalibration(model, Float64Array.from(peaks.map((p) => p.x)), quiet);
-    const pairedPeak = new Map(work.map((w) => [w.peakIndex, w.lineIndex]));
+    // Excluded pairs stay paired on the chart (drawn as excluded); only peaks without any pair are offered.
+    const pairedPeak = new Map([...work, ...excludedWork].map((w) => [w.peakIndex, w.lineIndex]));
     const pairedLines = new Set(work.map((w) => w.lineIndex));
     const pairingRecord: CalibrationRecord["pairing"] = {
       status: pairing.status,
