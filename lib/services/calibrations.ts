@@ -365,6 +365,7 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
       lineIndex: w.lineIndex,
     });
     const pairs = work.map(toPair);
+    const pairRefOf = (w: WorkPair) => ({ pixel: peaks[w.peakIndex].x, wavelengthNm: lines[w.lineIndex].wavelengthNm, species: lines[w.lineIndex].species });
     const edited = excludedWork.length > 0 || addedInput.length > 0;
     if (edited && pairs.length < 3) {
       throw new AppError(
@@ -448,6 +449,11 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
       manualSeeds: input.pairs?.length ?? 0,
       excludedByHand: excludedWork.length,
       addedByHand: addedInput.length,
+      // Which ones, as resolved to a peak and a line, so the record says what the chemist changed.
+      handPairs: [
+        ...excludedWork.map((w) => ({ change: "excluded" as const, ...pairRefOf(w) })),
+        ...work.filter((w) => w.origin === "added").map((w) => ({ change: "added" as const, ...pairRefOf(w) })),
+      ],
     };
     const previewPairs: CalibrationPreviewPair[] = [
       ...chosen.pairs.map((p, i) => ({ ...toPairRecord(p), origin: work[i].origin, state: p.used ? ("used" as const) : ("rejected" as const) })),

@@ -69,7 +69,15 @@ export interface CalibrationRecord {
   /** Calibrated wavelength now minus under the previous calibration, at a few pixels. */
   drift: { previousCalibrationId: string; pixels: number[]; deltaNm: number[]; maxAbsNm: number } | null;
   /** How the pairs were found; excludedByHand/addedByHand count the workbench's edits (absent on older rows). */
-  pairing: { status: string; confidence: number; message: string; manualSeeds: number; excludedByHand?: number; addedByHand?: number };
+  pairing: {
+    status: string;
+    confidence: number;
+    message: string;
+    manualSeeds: number;
+    excludedByHand?: number;
+    addedByHand?: number;
+    handPairs?: { change: "excluded" | "added"; pixel: number; wavelengthNm: number; species: string }[];
+  };
   warnings: { code: string; message: string }[];
   softwareVersion: string;
   calibratedOn: string;

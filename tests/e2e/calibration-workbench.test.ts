@@ -1,7 +1,8 @@
 // The calibration workbench in Chromium: with a grating instrument, a synthetic Hg–Ar lamp and a first
 // calibration made through the API, the chemist opens the workbench, pairs the lines, excludes a pair,
-// opens the peak chooser from the keyboard, tries a straight line and sees the comparison rank it below
-// the cubic, saves, and lands on the calibration page with the drift from the first calibration.
+// opens the peak chooser from the keyboard, pairs a peak by clicking it on the chart, tries a straight
+// line and sees the comparison rank it below the cubic, saves, and lands on the calibration page with
+// the drift from the first calibration.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Locator, Page } from "playwright-core";
 import { openBrowser, screenshot, type Session } from "./support/browser";
@@ -130,6 +131,34 @@ describe("the calibration workbench", () => {
     await screenshot(page, "workbench-2-excluded-and-chooser");
     await page.keyboard.press("Escape");
     await chooser.waitFor({ state: "detached" });
+    expect(await page.evaluate(() => document.activeElement?.textContent ?? "")).toMatch(/^Pair the peak at pixel/);
+
+    // Pair by clicking the circled peak furthest to the red on the chart, with the line nearest its
+    // predicted wavelength (the chooser's first offer).
+    await page.locator("[data-chart=lamp]").scrollIntoViewIfNeeded();
+    const target = await page.evaluate(() => {
+      type Axis = { _offset: number; l2p: (v: number) => number };
+      const gd = document.querySelector("[data-chart=lamp] .js-plotly-plot") as HTMLElement & {
+        data: { name: string; x: number[]; y: number[] }[];
+        _fullLayout: { xaxis: Axis; yaxis: Axis };
+      };
+      const trace = gd.data.find((t) => t.name.startsWith("Unpaired"))!;
+      const k = trace.x.indexOf(Math.max(...trace.x));
+      const rect = gd.getBoundingClientRect();
+      const { xaxis, yaxis } = gd._fullLayout;
+      return { x: rect.left + xaxis._offset + xaxis.l2p(trace.x[k]), y: rect.top + yaxis._offset + yaxis.l2p(trace.y[k]) };
+    });
+    await page.mouse.move(target.x, target.y);
+    await page.mouse.click(target.x, target.y);
+    await chooser.waitFor();
+    const offered = (await chooser.getByRole("button").first().textContent()) ?? "";
+    await chooser.getByRole("button").first().click();
+    await workbench.pairs.getByRole("cell", { name: "by hand", exact: true }).waitFor({ timeout: 30_000 });
+    await workbench.settled();
+    const byHand = workbench.pairs.locator("tbody tr", { has: page.getByRole("cell", { name: "by hand", exact: true }) });
+    expect(await byHand.textContent()).toContain("in the fit");
+    expect(offered).toContain((await byHand.locator("td").nth(1).textContent())!.trim());
+    expect(await workbench.rows("used").count()).toBe(usedBefore);
 
     // A straight line on the curved grating: larger RMS, and the comparison says which is in use.
     await page.getByLabel("Dispersion model").selectOption("polynomial-1");
@@ -151,7 +180,10 @@ describe("the calibration workbench", () => {
     const summary = (await page.getByTestId("calibration-summary").textContent()) ?? "";
     expect(summary).toContain("polynomial-3");
     expect(summary).toContain(`RMS${shownRms}`);
-    expect(summary).toContain("1 excluded, 0 added");
+    expect(summary).toContain("1 excluded, 1 added");
+    const hand = (await page.getByTestId("hand-pairs").textContent()) ?? "";
+    expect(hand).toContain("Excluded: pixel");
+    expect(hand).toContain("Added: pixel");
     expect(await page.getByTestId("pairs-table").locator("tbody tr").count()).toBeGreaterThanOrEqual(usedBefore - 1);
     const drift = (await page.getByTestId("calibration-drift").textContent()) ?? "";
     expect(drift).toMatch(/at most \d+\.\d{3} nm/);

@@ -159,11 +159,15 @@ describe("the calibration preview", () => {
     const strip = (p: { pixel: number; wavelengthNm: number; residualNm: number }) => ({ pixel: p.pixel, wavelengthNm: p.wavelengthNm, residualNm: p.residualNm });
     expect(saved.body.pairs.map(strip).sort((a, b) => a.pixel - b.pixel)).toEqual(used(shown).map(strip));
     expect(saved.body.pairs.some((p) => p.pixel === good.pixel)).toBe(false);
-    const { rows } = await db().query<{ pairing: { excludedByHand: number; addedByHand: number } }>(
+    const { rows } = await db().query<{ pairing: { excludedByHand: number; addedByHand: number; handPairs: unknown[] } }>(
       "SELECT pairing FROM calibrations WHERE id = $1",
       [saved.body.id],
     );
-    expect(rows[0].pairing).toMatchObject({ excludedByHand: 1, addedByHand: 0 });
+    expect(rows[0].pairing).toMatchObject({
+      excludedByHand: 1,
+      addedByHand: 0,
+      handPairs: [{ change: "excluded", pixel: good.pixel, wavelengthNm: good.wavelengthNm, species: good.species }],
+    });
     const events = await auditEventsSince(mark, { action: "calibration.create" });
     expect(events.map((e) => e.entity_id)).toEqual([saved.body.id]);
     expect(events[0].after).toMatchObject({ excludedByHand: 1, addedByHand: 0 });

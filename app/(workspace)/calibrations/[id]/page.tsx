@@ -110,6 +110,21 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
           ))}
         </ul>
       ) : null}
+      {calibration.pairing.handPairs?.length ? (
+        <section aria-labelledby="hand-heading" className="panel mb-4 p-4" data-testid="hand-pairs">
+          <h2 id="hand-heading" className="mb-1 text-sm font-semibold">
+            Pairs changed by hand on the workbench
+          </h2>
+          <ul className="flex flex-col gap-0.5 text-sm">
+            {calibration.pairing.handPairs.map((p) => (
+              <li key={`${p.change}-${p.pixel}-${p.wavelengthNm}`}>
+                {p.change === "excluded" ? "Excluded" : "Added"}: pixel <span className="font-mono">{p.pixel.toFixed(2)}</span> with {p.species}{" "}
+                <span className="font-mono">{p.wavelengthNm.toFixed(3)} nm</span>
+              </li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
       <section aria-labelledby="drift-heading" className="panel mb-4 p-4" data-testid="calibration-drift">
         <h2 id="drift-heading" className="mb-1 text-sm font-semibold">
           Drift from the previous calibration
@@ -145,7 +160,7 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
                   <th scope="row" className="muted pr-3 text-left font-normal">Δλ (nm)</th>
                   {calibration.drift.deltaNm.map((d, i) => (
                     <td key={i} className="px-3 text-right font-mono">
-                      {(d >= 0 ? "+" : "") + d.toFixed(3)}
+                      {Math.abs(d) < 0.0005 ? "0.000" : (d > 0 ? "+" : "") + d.toFixed(3)}
                     </td>
                   ))}
                 </tr>
