@@ -1,6 +1,7 @@
 // Lamp calibrations: peaks of a lamp spectrum paired with the lamp lines of the team's newest
 // published line-table release, a dispersion relation fitted by the core, and the record kept with
 // everything it came from (release, software version) and its drift from the previous calibration.
+// One computation serves the workbench's preview and the save, so what is saved is what was shown.
 import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
 import { AppError, notFound } from "@/lib/errors";
@@ -10,6 +11,7 @@ import { calibrateLamp } from "@/lib/spectrum/analysis";
 import {
   CalibrationError,
   calibrationUncertainty,
+  compareCalibrationModels,
   evaluateCalibration,
   fitCalibration,
   pairManually,
@@ -18,9 +20,11 @@ import {
   type FittedCalibrationPair,
   type GlassName,
   type LampLine,
+  type LampPair,
   type LampPairingResult,
 } from "@/lib/spectrum/calibration";
-import type { CalibrationCreateInput } from "@/lib/validation/workflow-schemas";
+import type { Peak } from "@/lib/spectrum/types";
+import { CALIBRATION_MODELS, type CalibrationCreateInput, type CalibrationModelChoice } from "@/lib/validation/workflow-schemas";
 import { Calibration, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import { latestCalibrationOf, loadInstrument } from "./instruments";
@@ -143,7 +147,101 @@ function requestedFit(choice: CalibrationCreateInput["model"]): { kind: "polynom
 const NEEDS_MANUAL_HINT =
   "Pair two or three lamp peaks with their lines by hand (send pairs: [{pixel, wavelengthNm}, …]) and calibrate again.";
 
-export async function createCalibration(actor: Actor, input: CalibrationCreateInput): Promise<CalibrationRecord> {
+/** A line given by hand must sit this close to a lamp line of the table. */
+const LINE_MATCH_NM = 0.05;
+
+/** A pair as the workbench shows it: where it came from and whether the fit used it. */
+export interface CalibrationPreviewPair extends CalibrationPairRecord {
+  /** "auto": found by the pairing; "added": made by hand. */
+  origin: "auto" | "added";
+  /** "used" in the fit, "rejected" by the fit's outlier rejection, or "excluded" by hand. */
+  state: "used" | "rejected" | "excluded";
+}
+
+/** One model of the core's comparison, fitted to the same pairs. */
+export interface CalibrationComparisonRow {
+  /** "polynomial-2", "hartmann", "prism": the value of the model selector. */
+  model: CalibrationModelChoice;
+  parameterCount: number | null;
+  rmsNm: number | null;
+  aicc: number | null;
+  bic: number | null;
+  /** λ ± 1σ at the array's first and last pixel: how the model extrapolates. */
+  ends: { pixel: number; wavelengthNm: number; uncertaintyNm: number }[] | null;
+  glass: string | null;
+  /** Why it could not be fitted. */
+  failure: string | null;
+}
+
+export interface CalibrationPreview {
+  instrumentId: string;
+  spectrumId: string;
+  lineRelease: { id: string; number: number };
+  lamps: string[];
+  requestedModel: CalibrationModelChoice;
+  xUnit: string;
+  /** The array's extent on the file's axis. */
+  domain: [number, number];
+  result: {
+    model: string;
+    rmsNm: number;
+    dof: number;
+    /** Every pair: used, rejected by the fit, or excluded by hand (residuals under the fitted model). */
+    pairs: CalibrationPreviewPair[];
+    coveredRangeNm: [number, number];
+    uncertainty: { medianNm: number; maxNm: number };
+    warnings: { code: string; message: string }[];
+    pairing: CalibrationRecord["pairing"];
+  };
+  comparison: { candidates: CalibrationComparisonRow[]; recommended: CalibrationModelChoice | null; reason: string };
+  /** The lamp's peaks, with the wavelength the fitted model puts them at and their line when paired. */
+  peaks: { pixel: number; height: number; fwhm: number; snr: number; predictedNm: number | null; pairedWith: { wavelengthNm: number; species: string } | null }[];
+  /** Lamp lines of the chosen gases in the instrument's nominal range. */
+  lines: { wavelengthNm: number; species: string; intensity: number; lineId: string; paired: boolean }[];
+}
+
+interface ComputedCalibration {
+  preview: CalibrationPreview;
+  instrument: Awaited<ReturnType<typeof loadInstrument>>;
+  spectrum: Awaited<ReturnType<typeof loadSpectrum>>;
+  fit: FitCalibrationResult;
+  /** Pairs the chemist left out, with their residuals under the final model. */
+  excluded: CalibrationPairRecord[];
+}
+
+const COMPARED_MODELS: CalibrationModelChoice[] = CALIBRATION_MODELS.filter((m) => m !== "auto");
+
+function choiceOf(kind: string, degree?: number): CalibrationModelChoice {
+  return (kind === "polynomial" ? `polynomial-${degree}` : kind) as CalibrationModelChoice;
+}
+
+/** The peak nearest a pixel, if it lies within its own width (at least 3 pixels) of it. */
+function peakNear(peaks: Peak[], pixel: number): number {
+  let nearest = -1;
+  peaks.forEach((p, k) => {
+    if (nearest < 0 || Math.abs(p.x - pixel) < Math.abs(peaks[nearest].x - pixel)) nearest = k;
+  });
+  if (nearest < 0 || Math.abs(peaks[nearest].x - pixel) > Math.max(3, 2 * peaks[nearest].fwhm)) return -1;
+  return nearest;
+}
+
+/** The lamp line nearest a wavelength, if within LINE_MATCH_NM of it. */
+function lineAt(lines: LampLine[], wavelengthNm: number): number {
+  let nearest = -1;
+  lines.forEach((l, k) => {
+    if (nearest < 0 || Math.abs(l.wavelengthNm - wavelengthNm) < Math.abs(lines[nearest].wavelengthNm - wavelengthNm)) nearest = k;
+  });
+  return nearest >= 0 && Math.abs(lines[nearest].wavelengthNm - wavelengthNm) <= LINE_MATCH_NM ? nearest : -1;
+}
+
+const modelName = (kind: string, degree?: number) => (kind === "polynomial" ? `degree-${degree} polynomial` : `${kind} model`);
+
+/**
+ * The one computation behind the preview and the saved calibration: pair the lamp's peaks with the
+ * lamp lines (automatically, or from hand-picked seeds), drop the pairs the chemist excluded, add the
+ * ones made by hand, fit the chosen model and compare every model on the same pairs. Writes nothing.
+ */
+async function computeCalibration(actor: Actor, input: CalibrationCreateInput): Promise<ComputedCalibration> {
   const instrument = await loadInstrument(actor, input.instrumentId, "calibration.create");
   const spectrum = await loadSpectrum(actor, input.spectrumId);
   if (spectrum.instrumentId !== instrument.id) {
@@ -175,33 +273,33 @@ export async function createCalibration(actor: Actor, input: CalibrationCreateIn
     resolutionNm: instrument.resolutionNm,
     domain,
   };
+  const excludedInput = input.excluded ?? [];
+  const addedInput = input.added ?? [];
+  const glass = (instrument.glass as GlassName | null) ?? undefined;
+  const apexDeg = instrument.apexDeg ?? undefined;
 
-  let pairing: LampPairingResult;
-  let fit: FitCalibrationResult | null;
   try {
     const auto = calibrateLamp(x, y, lines, { ...pairingOptions, model: "auto" });
-    pairing = auto.pairing;
-    fit = auto.fit;
+    const peaks = auto.peaks;
+    let pairing: LampPairingResult = auto.pairing;
+    let fit: FitCalibrationResult | null = auto.fit;
     if (input.pairs) {
       const seeds = input.pairs.map((seed, i) => {
-        let peakIndex = -1;
-        auto.peaks.forEach((p, k) => {
-          if (peakIndex < 0 || Math.abs(p.x - seed.pixel) < Math.abs(auto.peaks[peakIndex].x - seed.pixel)) peakIndex = k;
-        });
-        if (peakIndex < 0 || Math.abs(auto.peaks[peakIndex].x - seed.pixel) > Math.max(3, 2 * auto.peaks[peakIndex].fwhm)) {
+        const peakIndex = peakNear(peaks, seed.pixel);
+        if (peakIndex < 0) {
           throw new AppError("validation", `No lamp peak was found near pixel ${seed.pixel}.`, {
             fieldErrors: { [`pairs.${i}.pixel`]: ["No lamp peak near this pixel."] },
           });
         }
-        const lineIndex = lines.findIndex((l) => Math.abs(l.wavelengthNm - seed.wavelengthNm) <= 0.05);
+        const lineIndex = lineAt(lines, seed.wavelengthNm);
         if (lineIndex < 0) {
-          throw new AppError("validation", `No lamp line of ${lamps.join(", ")} at ${seed.wavelengthNm} nm (±0.05 nm).`, {
+          throw new AppError("validation", `No lamp line of ${lamps.join(", ")} at ${seed.wavelengthNm} nm (±${LINE_MATCH_NM} nm).`, {
             fieldErrors: { [`pairs.${i}.wavelengthNm`]: ["No lamp line at this wavelength."] },
           });
         }
         return { peakIndex, lineIndex };
       });
-      pairing = pairManually(auto.peaks, lines, seeds, pairingOptions);
+      pairing = pairManually(peaks, lines, seeds, pairingOptions);
       fit = pairing.status === "paired" ? pairing.model : null;
     }
     if (pairing.status !== "paired" || !fit) {
@@ -210,29 +308,213 @@ export async function createCalibration(actor: Actor, input: CalibrationCreateIn
         `The lamp peaks could not be paired with the lamp lines automatically (needs-manual: ${pairing.message}). ${NEEDS_MANUAL_HINT}`,
       );
     }
-    const wanted = requestedFit(input.model);
-    const glass = (instrument.glass as GlassName | null) ?? undefined;
-    const physical = instrument.dispersion === "prism" && (glass !== undefined || instrument.apexDeg !== null);
-    if (wanted || (physical && fit.model.kind === "prism")) {
-      fit = fitCalibration(pairing.pairs, {
-        model: wanted?.kind ?? "prism",
-        degree: wanted?.degree,
-        domain,
-        glass,
-        apexDeg: instrument.apexDeg ?? undefined,
-      });
+
+    // The pairs the chemist works with: the pairing's, less the excluded, with the added ones.
+    type WorkPair = { peakIndex: number; lineIndex: number; origin: "auto" | "added" };
+    // Taken from the pairing's fit, which also holds the pairs its outlier rejection set aside, in its order.
+    const pairingFit = fit;
+    let work: WorkPair[] = pairingFit.pairs.map((p) => ({
+      peakIndex: peaks.findIndex((k) => k.x === p.x),
+      lineIndex: lines.findIndex((l) => l.id === p.lineId),
+      origin: "auto",
+    }));
+    if (work.some((w) => w.peakIndex < 0 || w.lineIndex < 0)) throw new Error("a pair of the pairing names no peak or line");
+    addedInput.forEach((given, i) => {
+      const peakIndex = peakNear(peaks, given.pixel);
+      if (peakIndex < 0) {
+        throw new AppError("validation", `No lamp peak was found near pixel ${given.pixel}.`, {
+          fieldErrors: { [`added.${i}.pixel`]: ["No lamp peak near this pixel."] },
+        });
+      }
+      const lineIndex = lineAt(lines, given.wavelengthNm);
+      if (lineIndex < 0) {
+        throw new AppError(
+          "validation",
+          `No lamp line of ${lamps.join(", ")} at ${given.wavelengthNm} nm (±${LINE_MATCH_NM} nm) in the nominal range.`,
+          { fieldErrors: { [`added.${i}.wavelengthNm`]: ["No lamp line at this wavelength."] } },
+        );
+      }
+      if (work.some((w) => w.origin === "added" && (w.peakIndex === peakIndex || w.lineIndex === lineIndex))) {
+        throw new AppError("validation", `The pair at pixel ${given.pixel} repeats a peak or a line already added by hand.`, {
+          fieldErrors: { [`added.${i}.pixel`]: ["This peak or line is already paired by hand."] },
+        });
+      }
+      // A pair made by hand overrides whatever the pairing did with that peak or that line.
+      work = work.filter((w) => w.peakIndex !== peakIndex && w.lineIndex !== lineIndex);
+      work.push({ peakIndex, lineIndex, origin: "added" });
+    });
+    const excludedWork: WorkPair[] = [];
+    excludedInput.forEach((given, i) => {
+      const k = work.findIndex(
+        (w) => Math.abs(peaks[w.peakIndex].x - given.pixel) <= 1 && Math.abs(lines[w.lineIndex].wavelengthNm - given.wavelengthNm) <= LINE_MATCH_NM,
+      );
+      if (k < 0) {
+        throw new AppError("validation", `No pair at pixel ${given.pixel} with the line at ${given.wavelengthNm} nm to leave out.`, {
+          fieldErrors: { [`excluded.${i}.pixel`]: ["No such pair: pair again and choose from the table."] },
+        });
+      }
+      excludedWork.push(...work.splice(k, 1));
+    });
+    const toPair = (w: WorkPair): LampPair => ({
+      x: peaks[w.peakIndex].x,
+      xUncertainty: peaks[w.peakIndex].xUncertainty,
+      wavelengthNm: lines[w.lineIndex].wavelengthNm,
+      species: lines[w.lineIndex].species,
+      lineId: lines[w.lineIndex].id,
+      peakIndex: w.peakIndex,
+      lineIndex: w.lineIndex,
+    });
+    const pairs = work.map(toPair);
+    const pairRefOf = (w: WorkPair) => ({ pixel: peaks[w.peakIndex].x, wavelengthNm: lines[w.lineIndex].wavelengthNm, species: lines[w.lineIndex].species });
+    const edited = excludedWork.length > 0 || addedInput.length > 0;
+    if (edited && pairs.length < 3) {
+      throw new AppError(
+        "unprocessable",
+        `Too few pairs left: ${pairs.length} remain after ${excludedWork.length} exclusion(s); at least 3 are needed to fit even a straight line. Include some pairs again.`,
+      );
     }
+
+    // The model the pairing chose, refitted to the edited pairs (a polynomial's degree as the pairs allow).
+    const autoFit = (): FitCalibrationResult => {
+      const kind = pairingFit.model.kind;
+      const degree = pairingFit.model.kind === "polynomial" ? Math.min(pairingFit.model.degree, Math.max(1, pairs.length - 2)) : undefined;
+      return fitCalibration(pairs, { model: kind, degree, domain, glass: kind === "prism" ? glass : undefined, apexDeg });
+    };
+    const wanted = requestedFit(input.model);
+    const physical = instrument.dispersion === "prism" && (glass !== undefined || instrument.apexDeg !== null);
+    let baseline: FitCalibrationResult = edited ? autoFit() : pairingFit;
+    if (!wanted && physical && baseline.model.kind === "prism") {
+      baseline = fitCalibration(pairs, { model: "prism", domain, glass, apexDeg });
+    }
+    let chosen = baseline;
+    if (wanted) {
+      try {
+        chosen = fitCalibration(pairs, { model: wanted.kind, degree: wanted.degree, domain, glass, apexDeg });
+      } catch (error) {
+        if (error instanceof CalibrationError && error.code === "too-few-pairs") {
+          throw new AppError(
+            "unprocessable",
+            `The ${modelName(wanted.kind, wanted.degree)} needs more pairs than remain (${error.message}). Include pairs again or choose a simpler model.`,
+            { fieldErrors: { model: ["Needs more pairs than remain."] } },
+          );
+        }
+        throw error;
+      }
+    }
+
+    // Every model compared on the same clean pairs: those the baseline fit kept.
+    const clean = baseline.pairs.filter((p) => p.used);
+    const comparison = compareCalibrationModels(clean, { dispersion: instrument.dispersion, domain, glass, apexDeg });
+    const candidates: CalibrationComparisonRow[] = COMPARED_MODELS.map((choice) => {
+      const c = comparison.candidates.find((k) => choiceOf(k.kind, k.degree) === choice);
+      if (!c) {
+        return { model: choice, parameterCount: null, rmsNm: null, aicc: null, bic: null, ends: null, glass: null, failure: `needs more than the ${clean.length} pairs in the fit` };
+      }
+      const finite = (v: number | undefined) => (v !== undefined && Number.isFinite(v) ? v : null);
+      return {
+        model: choice,
+        parameterCount: c.parameterCount,
+        rmsNm: finite(c.rmsNm),
+        aicc: finite(c.aicc),
+        bic: finite(c.bic),
+        ends: c.ends ? c.ends.map((e) => ({ pixel: e.x, wavelengthNm: e.wavelengthNm, uncertaintyNm: e.uncertaintyNm })) : null,
+        glass: c.glass ?? null,
+        failure: c.failure ? c.failure.message : null,
+      };
+    });
+    const recommended = comparison.recommended >= 0 ? comparison.candidates[comparison.recommended] : null;
+
+    const model = chosen.model;
+    const covered = Float64Array.from({ length: 41 }, (_, i) => model.coveredX[0] + ((model.coveredX[1] - model.coveredX[0]) * i) / 40);
+    const sigma = Array.from(calibrationUncertainty(model, covered)).filter(Number.isFinite).sort((a, b) => a - b);
+    const uncertainty = { medianNm: sigma[sigma.length >> 1] ?? 0, maxNm: sigma[sigma.length - 1] ?? 0 };
+    const quiet = { onWarning: () => undefined };
+    const excludedPairs = excludedWork.map(toPair);
+    const excludedFitted = evaluateCalibration(model, Float64Array.from(excludedPairs.map((p) => p.x)), quiet);
+    const excluded: CalibrationPairRecord[] = excludedPairs.map((p, i) => ({
+      pixel: p.x,
+      wavelengthNm: p.wavelengthNm,
+      residualNm: p.wavelengthNm - excludedFitted[i],
+      species: p.species ?? null,
+      lineId: p.lineId ?? null,
+    }));
+    const predicted = evaluateCalibration(model, Float64Array.from(peaks.map((p) => p.x)), quiet);
+    // Excluded pairs stay paired on the chart (drawn as excluded); only peaks without any pair are offered.
+    const pairedPeak = new Map([...work, ...excludedWork].map((w) => [w.peakIndex, w.lineIndex]));
+    const pairedLines = new Set(work.map((w) => w.lineIndex));
+    const pairingRecord: CalibrationRecord["pairing"] = {
+      status: pairing.status,
+      confidence: pairing.confidence,
+      message: pairing.message,
+      manualSeeds: input.pairs?.length ?? 0,
+      excludedByHand: excludedWork.length,
+      addedByHand: addedInput.length,
+      // Which ones, as resolved to a peak and a line, so the record says what the chemist changed.
+      handPairs: [
+        ...excludedWork.map((w) => ({ change: "excluded" as const, ...pairRefOf(w) })),
+        ...work.filter((w) => w.origin === "added").map((w) => ({ change: "added" as const, ...pairRefOf(w) })),
+      ],
+    };
+    const previewPairs: CalibrationPreviewPair[] = [
+      ...chosen.pairs.map((p, i) => ({ ...toPairRecord(p), origin: work[i].origin, state: p.used ? ("used" as const) : ("rejected" as const) })),
+      ...excluded.map((p, i) => ({ ...p, origin: excludedWork[i].origin, state: "excluded" as const })),
+    ].sort((a, b) => a.pixel - b.pixel);
+
+    const preview: CalibrationPreview = {
+      instrumentId: instrument.id,
+      spectrumId: spectrum.id,
+      lineRelease: release,
+      lamps,
+      requestedModel: input.model,
+      xUnit: spectrum.xUnit,
+      domain,
+      result: {
+        model: modelLabel(model),
+        rmsNm: chosen.rmsNm,
+        dof: chosen.dof,
+        pairs: previewPairs,
+        coveredRangeNm: [model.coveredNm[0], model.coveredNm[1]],
+        uncertainty,
+        warnings: chosen.warnings,
+        pairing: pairingRecord,
+      },
+      comparison: {
+        candidates,
+        recommended: recommended ? choiceOf(recommended.kind, recommended.degree) : null,
+        reason: comparison.reason,
+      },
+      peaks: peaks.map((p, i) => {
+        const line = pairedPeak.has(i) ? lines[pairedPeak.get(i)!] : null;
+        return {
+          pixel: p.x,
+          height: p.height,
+          fwhm: p.fwhm,
+          snr: p.snr,
+          predictedNm: Number.isFinite(predicted[i]) ? predicted[i] : null,
+          pairedWith: line ? { wavelengthNm: line.wavelengthNm, species: line.species } : null,
+        };
+      }),
+      lines: lines.map((l, i) => ({ wavelengthNm: l.wavelengthNm, species: l.species, intensity: l.intensity, lineId: l.id, paired: pairedLines.has(i) })),
+    };
+    return { preview, instrument, spectrum, fit: chosen, excluded };
   } catch (error) {
     if (error instanceof CalibrationError) {
       throw new AppError("unprocessable", `The calibration could not be fitted (${error.code}): ${error.message}.`);
     }
     throw error;
   }
+}
 
+/** What saving would record, computed the same way, without writing anything. */
+export async function previewCalibration(actor: Actor, input: CalibrationCreateInput): Promise<CalibrationPreview> {
+  return (await computeCalibration(actor, input)).preview;
+}
+
+export async function createCalibration(actor: Actor, input: CalibrationCreateInput): Promise<CalibrationRecord> {
+  const { preview, instrument, spectrum, fit } = await computeCalibration(actor, input);
   const model = fit.model;
-  const covered = Float64Array.from({ length: 41 }, (_, i) => model.coveredX[0] + ((model.coveredX[1] - model.coveredX[0]) * i) / 40);
-  const sigma = Array.from(calibrationUncertainty(model, covered)).filter(Number.isFinite).sort((a, b) => a - b);
-  const uncertainty = { medianNm: sigma[sigma.length >> 1] ?? 0, maxNm: sigma[sigma.length - 1] ?? 0 };
+  const { domain } = preview;
+  const release = preview.lineRelease;
 
   return sequelize.transaction(async (transaction) => {
     const previous = await latestCalibrationOf(instrument.id, transaction);
@@ -256,7 +538,7 @@ export async function createCalibration(actor: Actor, input: CalibrationCreateIn
         spectrumId: spectrum.id,
         lineReleaseId: release.id,
         previousCalibrationId: previous?.id ?? null,
-        lamps,
+        lamps: preview.lamps,
         requestedModel: input.model,
         modelKind: model.kind,
         model,
@@ -267,14 +549,9 @@ export async function createCalibration(actor: Actor, input: CalibrationCreateIn
         dof: fit.dof,
         coveredMinNm: model.coveredNm[0],
         coveredMaxNm: model.coveredNm[1],
-        uncertainty,
+        uncertainty: preview.result.uncertainty,
         drift,
-        pairing: {
-          status: pairing.status,
-          confidence: pairing.confidence,
-          message: pairing.message,
-          manualSeeds: input.pairs?.length ?? 0,
-        },
+        pairing: preview.result.pairing,
         warnings: fit.warnings,
         softwareVersion: SOFTWARE_VERSION,
         calibratedOn: new Date().toISOString().slice(0, 10),
@@ -298,6 +575,8 @@ export async function createCalibration(actor: Actor, input: CalibrationCreateIn
           rmsNm: record.rmsNm,
           pairs: record.pairs.length,
           rejected: record.rejected.length,
+          excludedByHand: preview.result.pairing.excludedByHand ?? 0,
+          addedByHand: preview.result.pairing.addedByHand ?? 0,
           coveredRangeNm: record.coveredRangeNm,
           driftMaxAbsNm: drift?.maxAbsNm ?? null,
         },
@@ -306,4 +585,22 @@ export async function createCalibration(actor: Actor, input: CalibrationCreateIn
     );
     return record;
   });
+}
+
+/** A calibration with what its page shows beside it: the release number and the previous calibration. */
+export async function fetchCalibrationView(
+  actor: Actor,
+  calibrationId: string,
+): Promise<{ calibration: CalibrationRecord; releaseNumber: number | null; previous: CalibrationRecord | null }> {
+  const row = await loadCalibration(actor, calibrationId);
+  const [release] = await sequelize.query<{ number: number }>(`SELECT number FROM line_releases WHERE id = $1`, {
+    bind: [row.lineReleaseId],
+    type: QueryTypes.SELECT,
+  });
+  const previousRow = row.previousCalibrationId ? await Calibration.findByPk(row.previousCalibrationId) : null;
+  return {
+    calibration: toCalibrationRecord(row),
+    releaseNumber: release?.number ?? null,
+    previous: previousRow && previousRow.teamId === row.teamId ? toCalibrationRecord(previousRow) : null,
+  };
 }

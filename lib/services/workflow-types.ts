@@ -68,7 +68,16 @@ export interface CalibrationRecord {
   uncertainty: { medianNm: number; maxNm: number };
   /** Calibrated wavelength now minus under the previous calibration, at a few pixels. */
   drift: { previousCalibrationId: string; pixels: number[]; deltaNm: number[]; maxAbsNm: number } | null;
-  pairing: { status: string; confidence: number; message: string; manualSeeds: number };
+  /** How the pairs were found; excludedByHand/addedByHand count the workbench's edits (absent on older rows). */
+  pairing: {
+    status: string;
+    confidence: number;
+    message: string;
+    manualSeeds: number;
+    excludedByHand?: number;
+    addedByHand?: number;
+    handPairs?: { change: "excluded" | "added"; pixel: number; wavelengthNm: number; species: string }[];
+  };
   warnings: { code: string; message: string }[];
   softwareVersion: string;
   calibratedOn: string;

@@ -59,6 +59,17 @@ export const CALIBRATION_MODELS = [
 ] as const;
 export type CalibrationModelChoice = (typeof CALIBRATION_MODELS)[number];
 
+/** A pair named by its peak's pixel and its line's wavelength, as the workbench shows them. */
+function pairRef(verb: string) {
+  return z.object({
+    pixel: z.number({ error: `Give the pixel of the pair to ${verb}.` }).finite("Give the pixel as a number."),
+    wavelengthNm: z
+      .number({ error: `Give the line wavelength (nm) of the pair to ${verb}.` })
+      .finite("Give the wavelength as a number.")
+      .positive("The wavelength must be positive."),
+  });
+}
+
 export const calibrationCreateSchema = z.object({
   instrumentId: z.uuid("Choose an instrument."),
   spectrumId: z.uuid("Choose a lamp spectrum."),
@@ -75,6 +86,10 @@ export const calibrationCreateSchema = z.object({
     .min(2, "Pick two or three pairs.")
     .max(3, "Pick two or three pairs.")
     .optional(),
+  /** Pairs of the pairing to leave out of the fit, by the pixel and line wavelength the preview showed. */
+  excluded: z.array(pairRef("leave out"), { error: "Send the excluded pairs as a list." }).max(200).default([]),
+  /** Pairs made by hand: the lamp peak nearest the pixel with the lamp line at the wavelength (±0.05 nm). */
+  added: z.array(pairRef("add"), { error: "Send the added pairs as a list." }).max(50).default([]),
 });
 export type CalibrationCreateInput = z.infer<typeof calibrationCreateSchema>;
 

@@ -65,6 +65,7 @@ describe("the chemist's journey", () => {
     await page.getByRole("checkbox", { name: "Hg", exact: true }).check();
     await page.getByRole("checkbox", { name: "Ar", exact: true }).check();
     await page.getByRole("button", { name: "Pair the lines and fit" }).click();
+    await page.getByRole("button", { name: "Save the calibration" }).click({ timeout: 60_000 });
     await page.waitForURL(/\/calibrations\/[0-9a-f-]{36}$/, { timeout: 60_000 });
     await chartsDrawn(page);
     const summary = (await page.getByTestId("calibration-summary").textContent()) ?? "";

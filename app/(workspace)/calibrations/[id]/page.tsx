@@ -4,7 +4,7 @@ import Link from "next/link";
 import { LampChart, ResidualChart, type PairMark } from "@/components/charts/spectrum-charts";
 import { PageHeader } from "@/components/ui/page-header";
 import { X_TITLES, idOrNotFound, orNotFound, rawSeries } from "@/components/workflow/server-data";
-import { fetchCalibration } from "@/lib/services/calibrations";
+import { fetchCalibrationView } from "@/lib/services/calibrations";
 import { fetchInstrument } from "@/lib/services/instruments";
 import { fetchSpectrum } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
@@ -14,7 +14,7 @@ export const metadata = { title: "Calibration" };
 
 export default async function CalibrationPage({ params }: { params: Promise<{ id: string }> }) {
   const { actor } = await requireWorkspace();
-  const calibration = await orNotFound(fetchCalibration(actor, idOrNotFound((await params).id)));
+  const { calibration, releaseNumber, previous } = await orNotFound(fetchCalibrationView(actor, idOrNotFound((await params).id)));
   const [instrument, spectrum, series] = await Promise.all([
     fetchInstrument(actor, calibration.instrumentId),
     fetchSpectrum(actor, calibration.spectrumId),
@@ -82,6 +82,21 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
           </dd>
         </div>
         <div>
+          <dt className="muted">Line-table release</dt>
+          <dd className="font-mono">{releaseNumber ?? "—"}</dd>
+        </div>
+        <div>
+          <dt className="muted">Changed by hand</dt>
+          <dd>
+            {calibration.pairing.excludedByHand ?? 0} excluded, {calibration.pairing.addedByHand ?? 0} added
+            {calibration.pairing.manualSeeds ? `, ${calibration.pairing.manualSeeds} seed pairs` : ""}
+          </dd>
+        </div>
+        <div>
+          <dt className="muted">Requested model</dt>
+          <dd className="font-mono">{calibration.requestedModel}</dd>
+        </div>
+        <div>
           <dt className="muted">Software</dt>
           <dd className="font-mono">{calibration.softwareVersion}</dd>
         </div>
@@ -96,12 +111,67 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
           ))}
         </ul>
       ) : null}
-      {calibration.drift ? (
-        <p className="muted mb-4 text-sm">
-          Drift (now minus previous) at pixels{" "}
-          {calibration.drift.pixels.map((px, i) => `${px.toFixed(0)}: ${calibration.drift!.deltaNm[i].toFixed(3)} nm`).join(" · ")}
-        </p>
+      {calibration.pairing.handPairs?.length ? (
+        <section aria-labelledby="hand-heading" className="panel mb-4 p-4" data-testid="hand-pairs">
+          <h2 id="hand-heading" className="mb-1 text-sm font-semibold">
+            Pairs changed by hand on the workbench
+          </h2>
+          <ul className="flex flex-col gap-0.5 text-sm">
+            {calibration.pairing.handPairs.map((p) => (
+              <li key={`${p.change}-${p.pixel}-${p.wavelengthNm}`}>
+                {p.change === "excluded" ? "Excluded" : "Added"}: pixel <span className="font-mono">{p.pixel.toFixed(2)}</span> with {p.species}{" "}
+                <span className="font-mono">{p.wavelengthNm.toFixed(3)} nm</span>
+              </li>
+            ))}
+          </ul>
+        </section>
       ) : null}
+      <section aria-labelledby="drift-heading" className="panel mb-4 p-4" data-testid="calibration-drift">
+        <h2 id="drift-heading" className="mb-1 text-sm font-semibold">
+          Drift from the previous calibration
+        </h2>
+        {calibration.drift ? (
+          <>
+            <p className="mb-2 text-sm">
+              Calibrated wavelength now minus under{" "}
+              {previous ? (
+                <Link href={`/calibrations/${previous.id}`} className="underline">
+                  the calibration of {previous.calibratedOn}
+                </Link>
+              ) : (
+                "the previous calibration"
+              )}
+              {previous ? ` (${previous.model}, RMS ${previous.rmsNm.toFixed(4)} nm)` : ""}: at most{" "}
+              <span className="font-mono font-semibold">{calibration.drift.maxAbsNm.toFixed(3)} nm</span>.
+            </p>
+            <table className="text-sm">
+              <caption className="sr-only">Drift per pixel</caption>
+              <thead>
+                <tr>
+                  <th scope="row" className="muted pr-3 text-left font-normal">{xTitle}</th>
+                  {calibration.drift.pixels.map((px) => (
+                    <th key={px} scope="col" className="px-3 text-right font-mono font-normal">
+                      {px.toFixed(0)}
+                    </th>
+                  ))}
+                </tr>
+              </thead>
+              <tbody>
+                <tr>
+                  <th scope="row" className="muted pr-3 text-left font-normal">Δλ (nm)</th>
+                  {calibration.drift.deltaNm.map((d, i) => (
+                    <td key={i} className="px-3 text-right font-mono">
+                      {Math.abs(d) < 0.0005 ? "0.000" : (d > 0 ? "+" : "") + d.toFixed(3)}
+                    </td>
+                  ))}
+                </tr>
+              </tbody>
+            </table>
+          </>
+        ) : (
+          <p className="muted text-sm">None: this is the instrument&rsquo;s first calibration (or the previous one used another axis).</p>
+        )}
+      </section>
       <div className="mb-4 flex flex-col gap-4">
         <LampChart spectrum={series} pairs={pairs} xTitle={xTitle} />
         <ResidualChart pairs={pairs} xTitle={xTitle} />

@@ -1,15 +1,16 @@
-// Calibrate an instrument: the lamp spectrum (chosen after its upload), the lamp gases and the model.
+// Calibrate an instrument on the workbench: the lamp spectrum (chosen after its upload), the lamp gases,
+// then pairs, residuals and models previewed live; saving records what the preview showed.
 import Link from "next/link";
-import { PreviewChart } from "@/components/charts/spectrum-charts";
+import { CalibrationWorkbench } from "@/components/calibration/calibration-workbench";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
-import { CalibrateForm } from "@/components/workflow/calibrate-form";
 import { X_TITLES, idOrNotFound, orNotFound, rawSeries } from "@/components/workflow/server-data";
+import { fetchCalibration } from "@/lib/services/calibrations";
 import { fetchInstrument } from "@/lib/services/instruments";
 import { fetchSpectrum } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { LAMP_GASES, MODEL_CHOICES } from "@/lib/validation/workflow-forms";
-import { calibrateAction } from "../../actions";
+import { saveCalibrationAction } from "./actions";
 
 export const metadata = { title: "Calibrate" };
 
@@ -28,7 +29,7 @@ export default async function CalibratePage({
   const header = (
     <PageHeader
       title={`Calibrate ${instrument.name}`}
-      description={`Lamp lines of the team's newest line-table release between ${instrument.nominalMinNm} and ${instrument.nominalMaxNm} nm are paired with the lamp's peaks.`}
+      description={`Lamp lines of the team's newest line-table release between ${instrument.nominalMinNm} and ${instrument.nominalMaxNm} nm are paired with the lamp's peaks; check the pairs and the model, then save.`}
     />
   );
   if (!spectrum || spectrum.kind !== "lamp" || spectrum.instrumentId !== id) {
@@ -45,24 +46,37 @@ export default async function CalibratePage({
       </>
     );
   }
+  const current = instrument.latestCalibrationId ? await fetchCalibration(actor, instrument.latestCalibrationId) : null;
   return (
     <>
       {header}
-      <p className="mb-3 text-sm">
+      <p className="mb-1 text-sm">
         Lamp spectrum: <span className="font-medium">{spectrum.label || spectrum.fileName}</span>{" "}
         <span className="muted">
           ({spectrum.points.toLocaleString("en")} points, uploaded {spectrum.uploadedAt.slice(0, 10)})
         </span>
       </p>
-      <div className="mb-4">
-        <PreviewChart spectrum={await rawSeries(actor, spectrum.id)} xTitle={X_TITLES[spectrum.xUnit]} />
-      </div>
-      <CalibrateForm
+      <p className="muted mb-3 text-sm" data-testid="current-calibration">
+        {current ? (
+          <>
+            New runs now use the{" "}
+            <Link href={`/calibrations/${current.id}`} className="underline">
+              calibration of {current.calibratedOn}
+            </Link>{" "}
+            ({current.model}, RMS {current.rmsNm.toFixed(4)} nm); a saved calibration takes its place, and its page shows the drift between the two.
+          </>
+        ) : (
+          "This instrument has no calibration yet; the one you save becomes the default for new runs."
+        )}
+      </p>
+      <CalibrationWorkbench
         instrumentId={id}
         spectrumId={spectrum.id}
+        spectrum={await rawSeries(actor, spectrum.id)}
+        xTitle={X_TITLES[spectrum.xUnit]}
         lampGases={LAMP_GASES}
         models={MODEL_CHOICES}
-        action={calibrateAction}
+        saveAction={saveCalibrationAction}
       />
     </>
   );

@@ -1,0 +1,194 @@
+// The calibration workbench in Chromium: with a grating instrument, a synthetic Hg–Ar lamp and a first
+// calibration made through the API, the chemist opens the workbench, pairs the lines, excludes a pair,
+// opens the peak chooser from the keyboard, pairs a peak by clicking it on the chart, tries a straight
+// line and sees the comparison rank it below the cubic, saves, and lands on the calibration page with
+// the drift from the first calibration.
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Locator, Page } from "playwright-core";
+import { openBrowser, screenshot, type Session } from "./support/browser";
+import { SignInPage } from "./pages/sign-in-page";
+import { chartsDrawn } from "./pages/workflow-pages";
+import { APP_URL } from "../integration/support/http-client";
+import { FLAME_SCREENING, signInDemo, teamIdOf } from "../integration/support/accounts";
+import { PIXELS, RESOLUTION_NM, lampFile, syntheticGrating } from "../integration/support/synthetic-files";
+
+const DEMO_PASSWORD = "emberline-demo";
+const CHEMIST = "chem@demo.emberline.example";
+const SESSION_COOKIE = "emberline_session";
+const suffix = Date.now().toString(36);
+
+/** Page object of /instruments/[id]/calibrate. */
+class WorkbenchPage {
+  readonly summary: Locator;
+  readonly pairs: Locator;
+  readonly comparison: Locator;
+
+  constructor(private readonly page: Page) {
+    this.summary = page.getByTestId("workbench-summary");
+    this.pairs = page.getByTestId("workbench-pairs");
+    this.comparison = page.getByTestId("model-comparison");
+  }
+
+  rows(state: "used" | "rejected" | "excluded"): Locator {
+    return this.pairs.locator(`tbody tr[data-state=${state}]`);
+  }
+
+  async rmsNm(): Promise<number> {
+    return Number(/([\d.]+) nm/.exec((await this.page.getByTestId("workbench-rms").textContent()) ?? "")?.[1]);
+  }
+
+  /** Waits until the preview is no longer being fetched and shows no error. */
+  async settled(): Promise<void> {
+    await this.page.getByTestId("workbench-status").getByText("Preview up to date").waitFor({ timeout: 30_000 });
+  }
+}
+
+let browser: Session;
+let instrumentId: string;
+let spectrumId: string;
+
+beforeAll(async () => {
+  browser = await openBrowser();
+  const grating = syntheticGrating();
+  const lead = await signInDemo("labLead");
+  const chemist = await signInDemo("chemist");
+  const teamId = await teamIdOf(lead, FLAME_SCREENING);
+  const instrument = await lead.post<{ id: string }>("/api/instruments", {
+    teamId,
+    name: `Workbench grating ${suffix}`,
+    dispersion: "grating",
+    pixels: PIXELS,
+    nominalMinNm: grating.nominalRangeNm[0],
+    nominalMaxNm: grating.nominalRangeNm[1],
+    resolutionNm: RESOLUTION_NM,
+  });
+  expect(instrument.status, JSON.stringify(instrument.body)).toBe(201);
+  instrumentId = instrument.body.id;
+  const form = new FormData();
+  form.set("file", new Blob([lampFile(grating)]), `workbench-lamp-${suffix}.csv`);
+  form.set("instrumentId", instrumentId);
+  form.set("kind", "lamp");
+  form.set("label", "Hg–Ar pencil lamp");
+  const uploaded = await fetch(`${APP_URL}/api/spectra`, {
+    method: "POST",
+    headers: { cookie: `${SESSION_COOKIE}=${chemist.cookie(SESSION_COOKIE)}`, "x-forwarded-for": chemist.address },
+    body: form,
+  });
+  expect(uploaded.status).toBe(201);
+  spectrumId = ((await uploaded.json()) as { id: string }).id;
+  // A first calibration, so that the one saved on the workbench has a drift to show.
+  const first = await chemist.post("/api/calibrations", { instrumentId, spectrumId, lamps: ["Hg", "Ar"] });
+  expect(first.status, JSON.stringify(first.body)).toBe(201);
+});
+
+afterAll(async () => {
+  await browser?.close();
+});
+
+describe("the calibration workbench", () => {
+  it("excludes a pair, compares models, saves, and shows the calibration with its drift", async () => {
+    const { page } = browser;
+    await browser.context.clearCookies();
+    const signIn = new SignInPage(page);
+    await signIn.goto();
+    await signIn.signIn(CHEMIST, DEMO_PASSWORD);
+    await page.waitForURL((url) => url.pathname === "/");
+
+    await page.goto(`/instruments/${instrumentId}/calibrate?spectrum=${spectrumId}`);
+    const workbench = new WorkbenchPage(page);
+    expect(await page.getByTestId("current-calibration").textContent()).toContain("New runs now use");
+    await page.getByRole("checkbox", { name: "Ar", exact: true }).check();
+    await page.getByRole("button", { name: "Pair the lines and fit" }).click();
+    await workbench.summary.waitFor({ timeout: 30_000 });
+    await workbench.settled();
+    await chartsDrawn(page);
+    const usedBefore = await workbench.rows("used").count();
+    expect(usedBefore).toBeGreaterThanOrEqual(8);
+    const autoRms = await workbench.rmsNm();
+    // A good lamp calibration of a 1 nm instrument reaches a few hundredths to ~0.1 nm (common practice).
+    expect(autoRms).toBeLessThan(0.1);
+    // Paired peaks are labelled on the chart with their species and wavelength.
+    const labels = (await page.locator("[data-chart=lamp] .textpoint text").allTextContents()).join(" | ");
+    expect(labels).toMatch(/Hg I 546\.\d\d/);
+    await screenshot(page, "workbench-1-paired");
+
+    // Exclude the middle pair: one fewer in the fit, one shown as excluded.
+    const middle = workbench.rows("used").nth(Math.floor(usedBefore / 2));
+    await middle.getByRole("button", { name: /^Exclude the pair/ }).click();
+    await workbench.rows("excluded").first().waitFor({ timeout: 30_000 });
+    await workbench.settled();
+    expect(await workbench.rows("used").count()).toBe(usedBefore - 1);
+    expect(await workbench.rows("excluded").count()).toBe(1);
+    expect(await workbench.rows("excluded").first().textContent()).toContain("excluded by hand");
+
+    // The chooser of an unpaired peak, opened and closed from the keyboard.
+    const unpaired = page.getByTestId("unpaired-peaks").getByRole("button").first();
+    await unpaired.focus();
+    await page.keyboard.press("Enter");
+    const chooser = page.getByTestId("pair-chooser");
+    await chooser.waitFor();
+    expect(await chooser.getByRole("button").count()).toBeGreaterThan(1);
+    await screenshot(page, "workbench-2-excluded-and-chooser");
+    await page.keyboard.press("Escape");
+    await chooser.waitFor({ state: "detached" });
+    expect(await page.evaluate(() => document.activeElement?.textContent ?? "")).toMatch(/^Pair the peak at pixel/);
+
+    // Pair by clicking the circled peak furthest to the red on the chart, with the line nearest its
+    // predicted wavelength (the chooser's first offer).
+    await page.locator("[data-chart=lamp]").scrollIntoViewIfNeeded();
+    const target = await page.evaluate(() => {
+      type Axis = { _offset: number; l2p: (v: number) => number };
+      const gd = document.querySelector("[data-chart=lamp] .js-plotly-plot") as HTMLElement & {
+        data: { name: string; x: number[]; y: number[] }[];
+        _fullLayout: { xaxis: Axis; yaxis: Axis };
+      };
+      const trace = gd.data.find((t) => t.name.startsWith("Unpaired"))!;
+      const k = trace.x.indexOf(Math.max(...trace.x));
+      const rect = gd.getBoundingClientRect();
+      const { xaxis, yaxis } = gd._fullLayout;
+      return { x: rect.left + xaxis._offset + xaxis.l2p(trace.x[k]), y: rect.top + yaxis._offset + yaxis.l2p(trace.y[k]) };
+    });
+    await page.mouse.move(target.x, target.y);
+    await page.mouse.click(target.x, target.y);
+    await chooser.waitFor();
+    const offered = (await chooser.getByRole("button").first().textContent()) ?? "";
+    await chooser.getByRole("button").first().click();
+    await workbench.pairs.getByRole("cell", { name: "by hand", exact: true }).waitFor({ timeout: 30_000 });
+    await workbench.settled();
+    const byHand = workbench.pairs.locator("tbody tr", { has: page.getByRole("cell", { name: "by hand", exact: true }) });
+    expect(await byHand.textContent()).toContain("in the fit");
+    expect(offered).toContain((await byHand.locator("td").nth(1).textContent())!.trim());
+    expect(await workbench.rows("used").count()).toBe(usedBefore);
+
+    // A straight line on the curved grating: larger RMS, and the comparison says which is in use.
+    await page.getByLabel("Dispersion model").selectOption("polynomial-1");
+    await workbench.summary.getByText("polynomial-1").waitFor({ timeout: 30_000 });
+    await workbench.settled();
+    expect(await workbench.rmsNm()).toBeGreaterThan(autoRms);
+    const lineRow = workbench.comparison.getByRole("row", { name: /Polynomial, degree 1/ });
+    expect(await lineRow.textContent()).toContain("in use");
+    expect(await workbench.comparison.getByRole("row", { name: /Polynomial, degree 3/ }).textContent()).toContain("recommended");
+    await screenshot(page, "workbench-3-straight-line");
+
+    await page.getByLabel("Dispersion model").selectOption("polynomial-3");
+    await workbench.summary.getByText("polynomial-3").waitFor({ timeout: 30_000 });
+    await workbench.settled();
+    const shownRms = (await page.getByTestId("workbench-rms").textContent())!.trim();
+    await page.getByRole("button", { name: "Save the calibration" }).click();
+    await page.waitForURL(/\/calibrations\/[0-9a-f-]{36}$/, { timeout: 60_000 });
+    await chartsDrawn(page);
+    const summary = (await page.getByTestId("calibration-summary").textContent()) ?? "";
+    expect(summary).toContain("polynomial-3");
+    expect(summary).toContain(`RMS${shownRms}`);
+    expect(summary).toContain("1 excluded, 1 added");
+    const hand = (await page.getByTestId("hand-pairs").textContent()) ?? "";
+    expect(hand).toContain("Excluded: pixel");
+    expect(hand).toContain("Added: pixel");
+    expect(await page.getByTestId("pairs-table").locator("tbody tr").count()).toBeGreaterThanOrEqual(usedBefore - 1);
+    const drift = (await page.getByTestId("calibration-drift").textContent()) ?? "";
+    expect(drift).toMatch(/at most \d+\.\d{3} nm/);
+    expect(drift).toContain("Δλ (nm)");
+    await screenshot(page, "workbench-4-saved");
+    expect(browser.problems, browser.problems.join("\n")).toEqual([]);
+  }, 240_000);
+});
