@@ -5,7 +5,6 @@ import { zodFieldErrors } from "./field-errors";
 import type { FormState } from "./form-state";
 import {
   CALIBRATION_MODELS,
-  calibrationCreateSchema,
   instrumentCreateSchema,
   notebookCreateSchema,
   runCreateSchema,
@@ -33,16 +32,6 @@ export function instrumentInputFromForm(formData: FormData) {
     detectorMax: numberOrUndefined(formData.get("detectorMax")) ?? null,
     glass: blank(formData.get("glass")) || null,
     apexDeg: numberOrUndefined(formData.get("apexDeg")) ?? null,
-  });
-}
-
-/** The calibrate form: one checkbox per lamp gas, a model choice. */
-export function calibrationInputFromForm(formData: FormData) {
-  return calibrationCreateSchema.safeParse({
-    instrumentId: blank(formData.get("instrumentId")),
-    spectrumId: blank(formData.get("spectrumId")),
-    lamps: formData.getAll("lamps").map(blank).filter(Boolean),
-    model: blank(formData.get("model")) || "auto",
   });
 }
 
