@@ -45,7 +45,8 @@ function RunTable({ notebookId, instruments }: { notebookId: string; instruments
   const [species, setSpecies] = useDebounced(filters.species, (v) => setFilters({ species: v }));
   const [q, setQ] = useDebounced(filters.q, (v) => setFilters({ q: v }));
   const key = runsKey(notebookId, filters);
-  const { data, error, isLoading, isValidating } = useSWR<RunSummary[]>(key, fetchJson, { keepPreviousData: true });
+  // While a new filter's answer is on its way the previous rows stay (dimmed), so the table does not jump.
+  const { data, error, isLoading } = useSWR<RunSummary[]>(key, fetchJson, { keepPreviousData: true });
   const filtered = RUN_FILTER_KEYS.some((k) => filters[k]);
 
   function clear() {
@@ -128,7 +129,7 @@ function RunTable({ notebookId, instruments }: { notebookId: string; instruments
           </button>
         ) : null}
         <span className="muted pb-2 text-xs" aria-live="polite" data-testid="runs-count">
-          {isLoading && !data ? "Loading…" : isValidating ? "Refreshing…" : `${data?.length ?? 0} ${data?.length === 1 ? "run" : "runs"} shown`}
+          {isLoading ? "Loading…" : `${data?.length ?? 0} ${data?.length === 1 ? "run" : "runs"} shown`}
         </span>
       </form>
       {error ? (
@@ -151,7 +152,7 @@ function RunTable({ notebookId, instruments }: { notebookId: string; instruments
         </div>
       ) : (
         <div className="panel overflow-x-auto">
-          <table className="w-full text-sm" data-testid="runs-table">
+          <table className={`w-full text-sm ${isLoading && data ? "opacity-60" : ""}`} data-testid="runs-table" aria-busy={isLoading || undefined}>
             <caption className="sr-only">Runs of this notebook, newest first</caption>
             <thead className="border-b border-[var(--line)] text-left">
               <tr>

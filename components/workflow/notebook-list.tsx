@@ -36,7 +36,7 @@ function NotebookTable({ teamId }: { teamId: string }) {
     const timer = setTimeout(() => setFilters({ q: text }), 300);
     return () => clearTimeout(timer);
   }, [text, filters.q, setFilters]);
-  const { data, error, isLoading, isValidating } = useSWR<NotebookRecord[]>(notebooksKey(teamId, filters.q), fetchJson, {
+  const { data, error, isLoading } = useSWR<NotebookRecord[]>(notebooksKey(teamId, filters.q), fetchJson, {
     keepPreviousData: true,
   });
 
@@ -59,7 +59,7 @@ function NotebookTable({ teamId }: { teamId: string }) {
             className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1"
           />
           <span className="muted text-xs" aria-live="polite" data-testid="notebooks-count">
-            {isLoading && !data ? "Loading…" : isValidating ? "Refreshing…" : `${data?.length ?? 0} shown`}
+            {isLoading ? "Loading…" : `${data?.length ?? 0} shown`}
           </span>
         </form>
       </div>
