@@ -59,10 +59,10 @@ export async function waitForPort(port, timeoutMs = 60_000, host = "127.0.0.1") 
   throw new Error(`Nothing listened on ${host}:${port} within ${timeoutMs / 1000} s`);
 }
 
-/** Runs a TypeScript entry point with tsx and fails loudly on a non-zero exit. */
-export function runTs(file, env) {
+/** Runs a TypeScript entry point with tsx (and any Node options first) and fails loudly on a non-zero exit. */
+export function runTs(file, env, nodeOptions = []) {
   const tsx = path.join(root, "node_modules", ".bin", "tsx");
-  const result = spawnSync(tsx, [file], { cwd: root, stdio: "inherit", env });
+  const result = spawnSync(tsx, [...nodeOptions, file], { cwd: root, stdio: "inherit", env });
   if (result.status !== 0) throw new Error(`${file} failed with exit code ${result.status}`);
 }
 
@@ -96,6 +96,8 @@ export async function bootstrap({ database, freshDatabase = false, mailPort, mai
     NEXT_TELEMETRY_DISABLED: "1",
   };
   runTs("db/migrate.ts", env);
-  if (seed) runTs("db/seed.ts", env);
+  // The seed makes its demo analyses through the app's services, whose "server-only" import needs the
+  // react-server condition.
+  if (seed) runTs("db/seed.ts", env, ["--conditions=react-server"]);
   return { env, stopCluster: cluster.stop };
 }

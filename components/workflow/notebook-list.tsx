@@ -1,32 +1,44 @@
 "use client";
-// The team's notebooks, fetched in the browser with SWR from GET /api/notebooks and filtered by the
-// search box, whose text is kept in the URL (?q=) so a filtered list can be shared or reloaded.
+// The team's notebooks, fetched in the browser with SWR from GET /api/notebooks?teamId=&q= (the API
+// searches the titles). The search text is kept in the URL (?q=) so a filtered list can be shared or
+// reloaded; the server's first answer is SWR's fallback, so the first paint has data.
 import Link from "next/link";
-import { usePathname, useRouter, useSearchParams } from "next/navigation";
-import useSWR from "swr";
-import type { NotebookRecord } from "@/lib/services/workflow-types";
+import { useEffect, useState } from "react";
+import useSWR, { SWRConfig } from "swr";
+import { fetchJson } from "@/components/notebooks/fetch-json";
+import { notebooksKey } from "@/components/notebooks/list-keys";
+import { RUN_STATUS_LABELS } from "@/components/notebooks/run-status";
+import { useUrlFilters } from "@/components/notebooks/url-filters";
+import type { NotebookRecord, RunStatus } from "@/lib/services/workflow-types";
 
-async function fetchJson(url: string): Promise<NotebookRecord[]> {
-  const response = await fetch(url, { headers: { accept: "application/json" } });
-  if (!response.ok) throw new Error(`The notebooks could not be loaded (HTTP ${response.status}).`);
-  return response.json();
+const FILTER_KEYS = ["q"] as const;
+
+export function NotebookList({ teamId, fallback }: { teamId: string; fallback: Record<string, NotebookRecord[]> }) {
+  return (
+    <SWRConfig value={{ fallback }}>
+      <NotebookTable teamId={teamId} />
+    </SWRConfig>
+  );
 }
 
-export function NotebookList({ teamId, fallback }: { teamId: string; fallback: NotebookRecord[] }) {
-  const router = useRouter();
-  const pathname = usePathname();
-  const params = useSearchParams();
-  const query = params.get("q") ?? "";
-  const { data, error, isValidating } = useSWR(`/api/notebooks?teamId=${teamId}`, fetchJson, { fallbackData: fallback });
-  const needle = query.trim().toLowerCase();
-  const shown = (data ?? []).filter((n) => n.title.toLowerCase().includes(needle));
+function statusLine(n: NotebookRecord): string {
+  const parts = (Object.keys(RUN_STATUS_LABELS) as RunStatus[])
+    .filter((s) => n.statusCounts[s] > 0)
+    .map((s) => `${n.statusCounts[s]} ${RUN_STATUS_LABELS[s].toLowerCase()}`);
+  return parts.join(", ");
+}
 
-  function search(value: string) {
-    const next = new URLSearchParams(params);
-    if (value) next.set("q", value);
-    else next.delete("q");
-    router.replace(`${pathname}${next.size ? `?${next}` : ""}`, { scroll: false });
-  }
+function NotebookTable({ teamId }: { teamId: string }) {
+  const [filters, setFilters] = useUrlFilters(FILTER_KEYS);
+  const [text, setText] = useState(filters.q);
+  useEffect(() => {
+    if (text === filters.q) return;
+    const timer = setTimeout(() => setFilters({ q: text }), 300);
+    return () => clearTimeout(timer);
+  }, [text, filters.q, setFilters]);
+  const { data, error, isLoading } = useSWR<NotebookRecord[]>(notebooksKey(teamId, filters.q), fetchJson, {
+    keepPreviousData: true,
+  });
 
   return (
     <section aria-labelledby="notebook-list" className="flex flex-col gap-3">
@@ -34,40 +46,51 @@ export function NotebookList({ teamId, fallback }: { teamId: string; fallback: N
         <h2 id="notebook-list" className="text-lg font-semibold">
           The team&apos;s notebooks
         </h2>
-        <div className="flex items-center gap-2">
+        <form role="search" aria-label="Search the notebooks" className="flex items-center gap-2" onSubmit={(e) => e.preventDefault()}>
           <label htmlFor="notebook-search" className="text-sm">
             Search titles
           </label>
           <input
             id="notebook-search"
             type="search"
-            defaultValue={query}
-            onChange={(e) => search(e.target.value)}
+            value={text}
+            maxLength={200}
+            onChange={(e) => setText(e.target.value)}
             className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1"
           />
-          <span className="muted text-xs" aria-live="polite">
-            {isValidating ? "Refreshing…" : `${shown.length} shown`}
+          <span className="muted text-xs" aria-live="polite" data-testid="notebooks-count">
+            {isLoading ? "Loading…" : `${data?.length ?? 0} shown`}
           </span>
-        </div>
+        </form>
       </div>
       {error ? (
         <p role="alert" className="text-sm text-red-700 dark:text-red-300">
           {error.message}
         </p>
       ) : null}
-      {shown.length === 0 ? (
-        <p className="muted panel p-4 text-sm">
-          {needle ? `No notebook title contains “${query}”.` : "No notebooks yet: open the first one below."}
+      {!data ? (
+        <ul className="panel divide-y divide-[var(--line)]" aria-busy="true" data-testid="skeleton">
+          {[0, 1, 2].map((i) => (
+            <li key={i} className="px-3 py-2">
+              <span className="block h-4 w-64 animate-pulse rounded bg-ink-100 dark:bg-ink-800" />
+              {i === 0 ? <span className="sr-only">Loading the notebooks…</span> : null}
+            </li>
+          ))}
+        </ul>
+      ) : data.length === 0 ? (
+        <p className="muted panel p-4 text-sm" data-testid="notebooks-empty">
+          {filters.q ? `No notebook title contains “${filters.q}”.` : "No notebooks yet: open the first one below."}
         </p>
       ) : (
         <ul className="panel divide-y divide-[var(--line)]">
-          {shown.map((n) => (
-            <li key={n.id} className="flex items-baseline justify-between gap-3 px-3 py-2 text-sm">
+          {data.map((n) => (
+            <li key={n.id} className="flex flex-wrap items-baseline justify-between gap-3 px-3 py-2 text-sm">
               <Link href={`/notebooks/${n.id}`} className="font-medium underline">
                 {n.title}
               </Link>
               <span className="muted">
-                {n.runCount} {n.runCount === 1 ? "run" : "runs"} · opened {n.createdAt.slice(0, 10)}
+                {n.runCount} {n.runCount === 1 ? "run" : "runs"}
+                {n.runCount ? ` (${statusLine(n)})` : ""} · last activity {n.lastActivityAt.slice(0, 10)} · opened {n.createdAt.slice(0, 10)}
               </span>
             </li>
           ))}

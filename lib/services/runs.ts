@@ -19,7 +19,7 @@ import { toLineTableRow } from "./line-library-rows";
 import { loadNotebook } from "./notebooks";
 import { fileAxisInNm } from "./run-spectrum";
 import { loadSpectrum, spectrumPoints } from "./spectra";
-import { SOFTWARE_VERSION, type RunCall, type RunOverrideRecord, type RunPeak, type RunRecord, type RunSummary, type RunTemperature } from "./workflow-types";
+import { SOFTWARE_VERSION, type RunCall, type RunOverrideRecord, type RunPeak, type RunRecord, type RunTemperature } from "./workflow-types";
 
 // Published releases never change, so an index prepared once per release serves every later run.
 const indexCache = new Map<string, Promise<LineIndex>>();
@@ -141,24 +141,6 @@ export async function fetchRun(actor: Actor, runId: string): Promise<RunRecord> 
   if (!row) throw notFound("No such run.");
   authorize(actor, "team.view", { teamId: row.teamId });
   return await toRunRecord(row);
-}
-
-/** A notebook's runs, newest first, with the species called present. */
-export async function fetchNotebookRuns(actor: Actor, notebookId: string): Promise<RunSummary[]> {
-  const notebook = await loadNotebook(actor, notebookId);
-  const rows = await Run.findAll({
-    where: { notebookId: notebook.id },
-    attributes: ["id", "status", "spectrumId", "source", "calls", "createdAt"],
-    order: [["createdAt", "DESC"]],
-  });
-  return rows.map((r) => ({
-    id: r.id,
-    status: r.status,
-    spectrumId: r.spectrumId,
-    source: r.source,
-    present: (r.calls as RunCall[]).filter((c) => c.verdict === "present").map((c) => c.species),
-    createdAt: r.createdAt.toISOString(),
-  }));
 }
 
 export async function createRun(actor: Actor, input: RunCreateInput): Promise<RunRecord> {

@@ -2,7 +2,7 @@
 // a file the core cannot read is refused with its located message and nothing is stored.
 import "server-only";
 import { createHash } from "node:crypto";
-import { Op, type Transaction } from "sequelize";
+import { Op, QueryTypes, type Transaction } from "sequelize";
 import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize, type TeamAction } from "@/lib/auth/policy";
@@ -12,7 +12,11 @@ import { MAX_UPLOAD_BYTES, MAX_UPLOAD_POINTS } from "@/lib/validation/workflow-s
 import { SpectrumFile, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import { loadInstrument } from "./instruments";
+import type { SpectraQuery } from "@/lib/validation/notebook-schemas";
 import type { SpectrumRecord } from "./workflow-types";
+
+/** A spectrum as lists show it: the record without the duplicate check (no bytes or points either). */
+export type SpectrumSummary = Omit<SpectrumRecord, "duplicateOf">;
 
 /** Points as little-endian float64 bytes, whatever the machine's byte order. */
 export function float64ToBytes(values: Float64Array): Buffer {
@@ -75,6 +79,60 @@ export async function fetchSpectrum(actor: Actor, spectrumId: string): Promise<S
   const earlier = await earlierUpload(row);
   const duplicateOf = earlier && earlier.uploadedAt < row.createdAt.toISOString() ? earlier : null;
   return toSpectrumRecord(row, duplicateOf, [x[0], x[x.length - 1]]);
+}
+
+/**
+ * The team's spectra, newest first, optionally of one instrument and one kind. An instrument of
+ * another team is not found. Only the first and last x values are read, never the bytes or points.
+ */
+export async function fetchSpectra(actor: Actor, teamId: string, query: SpectraQuery = {}): Promise<SpectrumSummary[]> {
+  authorize(actor, "instrument.view", { teamId });
+  if (query.instrumentId) {
+    const instrument = await loadInstrument(actor, query.instrumentId);
+    if (instrument.teamId !== teamId) throw notFound("No such instrument.");
+  }
+  const rows = await sequelize.query<{
+    id: string;
+    team_id: string;
+    instrument_id: string;
+    kind: "lamp" | "sample";
+    label: string;
+    file_name: string;
+    byte_size: number;
+    sha256: string;
+    point_count: number;
+    x_unit: SpectrumRecord["xUnit"];
+    medium: SpectrumRecord["medium"];
+    created_at: Date;
+    uploaded_by_id: string | null;
+    x_first: Buffer;
+    x_last: Buffer;
+  }>(
+    `SELECT id, team_id, instrument_id, kind, label, file_name, byte_size, sha256, point_count, x_unit, medium,
+            created_at, uploaded_by_id,
+            substring(x_values FROM 1 FOR 8) AS x_first,
+            substring(x_values FROM octet_length(x_values) - 7 FOR 8) AS x_last
+       FROM spectrum_files
+      WHERE team_id = $1 AND ($2::uuid IS NULL OR instrument_id = $2) AND ($3::text IS NULL OR kind = $3)
+      ORDER BY created_at DESC, id`,
+    { bind: [teamId, query.instrumentId ?? null, query.kind ?? null], type: QueryTypes.SELECT },
+  );
+  return rows.map((r) => ({
+    id: r.id,
+    teamId: r.team_id,
+    instrumentId: r.instrument_id,
+    kind: r.kind,
+    label: r.label,
+    fileName: r.file_name,
+    byteSize: Number(r.byte_size),
+    sha256: r.sha256,
+    points: Number(r.point_count),
+    xUnit: r.x_unit,
+    medium: r.medium,
+    xRange: [r.x_first.readDoubleLE(0), r.x_last.readDoubleLE(0)],
+    uploadedAt: new Date(r.created_at).toISOString(),
+    uploadedById: r.uploaded_by_id,
+  }));
 }
 
 export interface SpectrumUpload {

@@ -1,13 +1,15 @@
 "use server";
-// Server actions of the notebooks area: open a notebook, start a run in one. Each parses its form,
+// Server actions of the notebooks area: open a notebook, rename it, start a run in one. Each parses its form,
 // calls one service and maps the result; the services authorise.
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { currentActor } from "@/lib/auth/session";
 import { unauthenticated } from "@/lib/errors";
-import { createNotebook } from "@/lib/services/notebooks";
+import { createNotebook, renameNotebook } from "@/lib/services/notebooks";
 import { createRun } from "@/lib/services/runs";
 import { formError, type FormState } from "@/lib/validation/form-state";
+import { idParam } from "@/lib/validation/line-schemas";
+import { notebookRenameSchema } from "@/lib/validation/notebook-schemas";
 import { formValues, invalidFormState, notebookInputFromForm, runInputFromForm } from "@/lib/validation/workflow-forms";
 
 async function actorOrThrow() {
@@ -27,6 +29,24 @@ export async function createNotebookAction(_state: FormState, formData: FormData
   }
   revalidatePath("/notebooks");
   redirect(`/notebooks/${id}`);
+}
+
+export async function renameNotebookAction(_state: FormState, formData: FormData): Promise<FormState> {
+  const notebookId = String(formData.get("notebookId") ?? "");
+  const version = formData.get("version");
+  const parsed = notebookRenameSchema.safeParse({
+    title: formData.get("title") ?? undefined,
+    version: typeof version === "string" && version !== "" ? Number(version) : undefined,
+  });
+  if (!parsed.success) return invalidFormState(parsed.error, formValues(formData));
+  try {
+    const renamed = await renameNotebook(await actorOrThrow(), idParam(notebookId, "No such notebook."), parsed.data);
+    revalidatePath(`/notebooks/${notebookId}`);
+    revalidatePath("/notebooks");
+    return { ok: true, message: `Renamed to “${renamed.title}”.` };
+  } catch (error) {
+    return { ...formError(error), values: formValues(formData) };
+  }
 }
 
 export async function startRunAction(_state: FormState, formData: FormData): Promise<FormState> {

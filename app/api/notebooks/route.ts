@@ -1,11 +1,13 @@
-// GET the team's notebooks (?teamId=); POST creates one.
+// GET the team's notebooks (?teamId=&q=: title search, run counts, newest activity first); POST creates one.
 import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
 import { createNotebook, fetchNotebooks } from "@/lib/services/notebooks";
+import { notebookListQuerySchema, parseQuery } from "@/lib/validation/notebook-schemas";
 import { notebookCreateSchema, teamIdQuery } from "@/lib/validation/workflow-schemas";
 
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();
-  return Response.json(await fetchNotebooks(actor, teamIdQuery(request, actor.memberships[0]?.teamId)));
+  const teamId = teamIdQuery(request, actor.memberships[0]?.teamId);
+  return Response.json(await fetchNotebooks(actor, teamId, parseQuery(request, notebookListQuerySchema)));
 });
 
 export const POST = apiRoute(async (request) => {

@@ -1,13 +1,21 @@
+// GET lists the team's spectra, newest first (?teamId=&instrumentId=&kind=; records without bytes or points).
 // POST uploads a spectrum file (multipart: file, instrumentId, kind, label, optional xUnit). A route
 // handler, not a server action, and outside the proxy's matcher, so no body cap applies but ours.
 import { AppError } from "@/lib/errors";
 import { apiRoute, requireActor } from "@/lib/http/api-handler";
-import { uploadSpectrum } from "@/lib/services/spectra";
+import { fetchSpectra, uploadSpectrum } from "@/lib/services/spectra";
 import { zodFieldErrors } from "@/lib/validation/field-errors";
-import { MAX_UPLOAD_BYTES, spectrumUploadFieldsSchema } from "@/lib/validation/workflow-schemas";
+import { parseQuery, spectraQuerySchema } from "@/lib/validation/notebook-schemas";
+import { MAX_UPLOAD_BYTES, spectrumUploadFieldsSchema, teamIdQuery } from "@/lib/validation/workflow-schemas";
 
 /** Room for the multipart boundaries and the other fields around the file. */
 const FORM_OVERHEAD_BYTES = 64 * 1024;
+
+export const GET = apiRoute(async (request) => {
+  const actor = await requireActor();
+  const teamId = teamIdQuery(request, actor.memberships[0]?.teamId);
+  return Response.json(await fetchSpectra(actor, teamId, parseQuery(request, spectraQuerySchema)));
+});
 
 export const POST = apiRoute(async (request) => {
   const actor = await requireActor();

@@ -1,18 +1,23 @@
-// One notebook: its runs (status, species called present, instrument, date) and "New run" for a
-// sample chosen after its upload (?spectrum=), or the way to upload one.
+// One notebook: its runs with filters (status, species called present, instrument, search; kept in the
+// URL), renaming it, and "New run" with a picker of the instrument's sample spectra (the one just
+// uploaded preselected when ?spectrum= names it).
 import Link from "next/link";
-import { EmptyState } from "@/components/ui/empty-state";
+import { notFound } from "next/navigation";
+import { RenameNotebookForm } from "@/components/notebooks/rename-notebook-form";
+import { RunList } from "@/components/notebooks/run-list";
+import { RUN_FILTER_KEYS, oneParam, runsKey, spectraKey } from "@/components/notebooks/list-keys";
 import { PageHeader } from "@/components/ui/page-header";
 import { RunForm } from "@/components/workflow/run-form";
 import { ScreeningNotice } from "@/components/workflow/run-notices";
 import { idOrNotFound, orNotFound } from "@/components/workflow/server-data";
 import { fetchCalibrations } from "@/lib/services/calibrations";
 import { fetchInstruments } from "@/lib/services/instruments";
-import { fetchNotebooks } from "@/lib/services/notebooks";
-import { fetchNotebookRuns } from "@/lib/services/runs";
-import { fetchSpectrum } from "@/lib/services/spectra";
+import { fetchNotebook, fetchNotebookRuns } from "@/lib/services/notebooks";
+import { fetchSpectra, fetchSpectrum } from "@/lib/services/spectra";
+import type { RunSummary } from "@/lib/services/workflow-types";
 import { requireWorkspace } from "@/lib/services/workspace";
-import { startRunAction } from "../actions";
+import { notebookRunsQuerySchema } from "@/lib/validation/notebook-schemas";
+import { renameNotebookAction, startRunAction } from "../actions";
 
 export const metadata = { title: "Notebook" };
 
@@ -23,124 +28,85 @@ export default async function NotebookPage({
   params: Promise<{ id: string }>;
   searchParams: Promise<Record<string, string | string[] | undefined>>;
 }) {
-  const { actor, team } = await requireWorkspace();
+  const { actor } = await requireWorkspace();
   const id = idOrNotFound((await params).id);
-  const given = (await searchParams).spectrum;
-  const runs = await orNotFound(fetchNotebookRuns(actor, id));
-  const notebook = team ? (await fetchNotebooks(actor, team.teamId)).find((n) => n.id === id) : undefined;
-  const teamId = notebook?.teamId ?? team?.teamId;
-  const instruments = teamId ? await fetchInstruments(actor, teamId) : [];
-  const instrumentName = new Map(instruments.map((i) => [i.id, i.name]));
-  const spectra = new Map(
-    await Promise.all([...new Set(runs.map((r) => r.spectrumId))].map(async (sid) => [sid, await fetchSpectrum(actor, sid)] as const)),
-  );
-  const sample = typeof given === "string" ? await orNotFound(fetchSpectrum(actor, idOrNotFound(given))) : null;
-  const calibrations = sample ? await fetchCalibrations(actor, sample.instrumentId) : [];
-  const usable = calibrations;
+  const search = await searchParams;
+  const notebook = await orNotFound(fetchNotebook(actor, id));
+  const instruments = await fetchInstruments(actor, notebook.teamId);
+
+  // The runs under the URL's filters become SWR's fallback; filters the API would refuse get none,
+  // so the browser asks and shows the API's message.
+  const filters = Object.fromEntries(RUN_FILTER_KEYS.map((k) => [k, oneParam(search[k])]));
+  const query = notebookRunsQuerySchema.safeParse(filters);
+  const runFallback: Record<string, RunSummary[]> = query.success
+    ? { [runsKey(id, filters)]: await fetchNotebookRuns(actor, id, query.data) }
+    : {};
+
+  // The run form's preselection: the sample named in the URL (of this team), else the first instrument.
+  const given = oneParam(search.spectrum);
+  const sample = given ? await orNotFound(fetchSpectrum(actor, idOrNotFound(given))) : null;
+  if (sample && sample.teamId !== notebook.teamId) notFound();
+  const instrumentId = sample?.instrumentId ?? instruments[0]?.id;
+  const formFallback: Record<string, unknown> = {};
+  if (instrumentId) {
+    const instrument = instruments.find((i) => i.id === instrumentId)!;
+    formFallback[spectraKey(notebook.teamId, instrumentId, "sample")] = await fetchSpectra(actor, notebook.teamId, { instrumentId, kind: "sample" });
+    formFallback[`/api/instruments/${instrumentId}`] = { ...instrument, calibrations: await fetchCalibrations(actor, instrumentId) };
+  }
 
   return (
     <>
-      <PageHeader title={notebook?.title ?? "Notebook"} description={`${runs.length} ${runs.length === 1 ? "run" : "runs"}`} />
+      <PageHeader
+        title={notebook.title}
+        description={`${notebook.runCount} ${notebook.runCount === 1 ? "run" : "runs"} · opened ${notebook.createdAt.slice(0, 10)} · last activity ${notebook.lastActivityAt.slice(0, 10)}`}
+      />
+      <RenameNotebookForm notebookId={id} title={notebook.title} version={notebook.version} action={renameNotebookAction} />
       <ScreeningNotice />
-      <h2 className="mb-2 mt-4 text-lg font-semibold">Runs</h2>
-      {runs.length === 0 ? (
-        <EmptyState title="No runs yet">A run analyses one sample spectrum on a calibration and calls the elements it shows.</EmptyState>
-      ) : (
-        <div className="panel overflow-x-auto">
-          <table className="w-full text-sm" data-testid="runs-table">
-            <caption className="sr-only">Runs of this notebook, newest first</caption>
-            <thead className="border-b border-[var(--line)] text-left">
-              <tr>
-                <th scope="col" className="px-3 py-2">Date</th>
-                <th scope="col" className="px-3 py-2">Sample</th>
-                <th scope="col" className="px-3 py-2">Status</th>
-                <th scope="col" className="px-3 py-2">Called present</th>
-                <th scope="col" className="px-3 py-2">Source</th>
-                <th scope="col" className="px-3 py-2">Instrument</th>
-              </tr>
-            </thead>
-            <tbody>
-              {runs.map((r) => {
-                const spectrum = spectra.get(r.spectrumId);
-                return (
-                  <tr key={r.id} className="border-b border-[var(--line)] last:border-0">
-                    <td className="px-3 py-2">
-                      <Link href={`/runs/${r.id}`} className="underline">
-                        {r.createdAt.slice(0, 16).replace("T", " ")}
-                      </Link>
-                    </td>
-                    <td className="px-3 py-2">{spectrum ? spectrum.label || spectrum.fileName : "—"}</td>
-                    <td className="px-3 py-2">
-                      <span aria-hidden>● </span>
-                      {r.status}
-                    </td>
-                    <td className="px-3 py-2">{r.present.length ? r.present.join(", ") : <span className="muted">none</span>}</td>
-                    <td className="px-3 py-2">{r.source}</td>
-                    <td className="px-3 py-2">{spectrum ? (instrumentName.get(spectrum.instrumentId) ?? "—") : "—"}</td>
-                  </tr>
-                );
-              })}
-            </tbody>
-          </table>
-        </div>
-      )}
+      <div className="mt-4">
+        <RunList notebookId={id} instruments={instruments.map((i) => ({ id: i.id, name: i.name }))} fallback={runFallback} />
+      </div>
       <div className="mt-6">
-        {sample && sample.kind === "sample" ? (
-          <>
-            <p className="mb-2 text-sm">
-              Sample: <span className="font-medium">{sample.label || sample.fileName}</span>{" "}
-              <span className="muted">
-                on {instrumentName.get(sample.instrumentId) ?? "its instrument"}, {sample.points.toLocaleString("en")} points ({sample.xUnit}{" "}
-                axis)
-              </span>
-            </p>
-            {usable.length === 0 && sample.xUnit === "pixel" ? (
-              <EmptyState title="This instrument is not calibrated yet">
-                A sample on a pixel axis needs a lamp calibration.{" "}
-                <Link href={`/instruments/${sample.instrumentId}/calibrate`} className="underline">
-                  Calibrate the instrument
-                </Link>{" "}
-                first.
-              </EmptyState>
-            ) : (
-              <RunForm
-                notebookId={id}
-                spectrumId={sample.id}
-                calibrations={usable.map((c) => ({ id: c.id, label: `${c.calibratedOn} · ${c.model} · RMS ${c.rmsNm.toFixed(3)} nm` }))}
-                allowOwnAxis={sample.xUnit !== "pixel"}
-                action={startRunAction}
-              />
-            )}
-          </>
-        ) : (
+        {instruments.length === 0 || !instrumentId ? (
           <section className="panel max-w-3xl p-4" aria-labelledby="new-run">
             <h2 id="new-run" className="text-lg font-semibold">
               New run
             </h2>
-            <p className="muted mt-1 text-sm">Upload the sample spectrum on the instrument that recorded it; the run starts from there.</p>
-            {instruments.length === 0 ? (
-              <p className="mt-2 text-sm">
-                The team has no instruments yet: a lab lead adds them under{" "}
-                <Link href="/instruments" className="underline">
-                  Instruments
-                </Link>
-                .
-              </p>
-            ) : (
+            <p className="mt-2 text-sm">
+              The team has no instruments yet: a lab lead adds them under{" "}
+              <Link href="/instruments" className="underline">
+                Instruments
+              </Link>
+              .
+            </p>
+          </section>
+        ) : (
+          <>
+            <RunForm
+              key={sample?.id ?? "none"}
+              notebookId={id}
+              teamId={notebook.teamId}
+              instruments={instruments.map((i) => ({ id: i.id, name: i.name }))}
+              initialInstrumentId={instrumentId}
+              initialSpectrumId={sample?.kind === "sample" ? sample.id : undefined}
+              fallback={formFallback}
+              action={startRunAction}
+            />
+            <section className="mt-3 max-w-3xl text-sm" aria-label="Upload a sample">
+              <p className="muted">A new sample? Upload it on the instrument that recorded it; the run form then has it selected.</p>
               <ul className="mt-2 flex flex-wrap gap-2">
                 {instruments.map((i) => (
                   <li key={i.id}>
                     <Link
                       href={`/instruments/${i.id}/upload?kind=sample&notebook=${id}`}
-                      className="inline-block rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800"
+                      className="inline-block rounded border border-[var(--line)] px-3 py-1.5 hover:bg-ink-100 dark:hover:bg-ink-800"
                     >
                       Upload a sample on {i.name}
                     </Link>
                   </li>
                 ))}
               </ul>
-            )}
-          </section>
+            </section>
+          </>
         )}
       </div>
     </>

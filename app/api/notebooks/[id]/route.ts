@@ -1,10 +1,19 @@
-// GET one notebook's runs, newest first, with the species each called present.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
-import { fetchNotebookRuns } from "@/lib/services/runs";
+// GET one notebook with its runs, newest first; PATCH renames it ({title, version}: 409 when stale).
+import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { fetchNotebook, fetchNotebookRuns, renameNotebook } from "@/lib/services/notebooks";
 import { idParam } from "@/lib/validation/line-schemas";
+import { notebookRenameSchema } from "@/lib/validation/notebook-schemas";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();
   const id = idParam((await params).id, "No such notebook.");
-  return Response.json({ id, runs: await fetchNotebookRuns(actor, id) });
+  const notebook = await fetchNotebook(actor, id);
+  return Response.json({ ...notebook, runs: await fetchNotebookRuns(actor, id) });
+});
+
+export const PATCH = apiRoute(async (request, { params }) => {
+  const actor = await requireActor();
+  const id = idParam((await params).id, "No such notebook.");
+  const input = await parseJson(request, notebookRenameSchema);
+  return Response.json(await renameNotebook(actor, id, input));
 });

@@ -1,0 +1,12 @@
+// GET a notebook's run summaries, newest first, filtered by ?status=&species=&instrumentId=&q=.
+import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { fetchNotebookRuns } from "@/lib/services/notebooks";
+import { idParam } from "@/lib/validation/line-schemas";
+import { notebookRunsQuerySchema, parseQuery } from "@/lib/validation/notebook-schemas";
+
+export const GET = apiRoute(async (request, { params }) => {
+  const actor = await requireActor();
+  const id = idParam((await params).id, "No such notebook.");
+  const query = parseQuery(request, notebookRunsQuerySchema);
+  return Response.json(await fetchNotebookRuns(actor, id, query));
+});
