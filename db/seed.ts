@@ -304,7 +304,7 @@ async function seedDemoWorkflow(): Promise<void> {
     const lampId = spectrumIds.get(bench.lamp.file)!;
     const calibrationId =
       (await Calibration.findOne({ where: { spectrumId: lampId } }))?.id ??
-      (await createCalibration(analyst, { instrumentId, spectrumId: lampId, lamps: ["Hg", "Ar"], model: "auto" })).id;
+      (await createCalibration(analyst, { instrumentId, spectrumId: lampId, lamps: ["Hg", "Ar"], model: "auto", excluded: [], added: [] })).id;
 
     for (const book of bench.notebooks) {
       const notebookId =
