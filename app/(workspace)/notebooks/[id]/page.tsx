@@ -43,6 +43,11 @@ export default async function NotebookPage({
       <PageHeader title={notebook?.title ?? "Notebook"} description={`${runs.length} ${runs.length === 1 ? "run" : "runs"}`} />
       <ScreeningNotice />
       <h2 className="mb-2 mt-4 text-lg font-semibold">Runs</h2>
+      {runs.length > 0 ? (
+        <a href={`/api/notebooks/${id}/calls.csv`} download className="mb-2 inline-block text-sm underline" data-testid="download-calls-csv">
+          Calls CSV (every run&apos;s calls)
+        </a>
+      ) : null}
       {runs.length === 0 ? (
         <EmptyState title="No runs yet">A run analyses one sample spectrum on a calibration and calls the elements it shows.</EmptyState>
       ) : (
