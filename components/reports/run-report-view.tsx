@@ -293,22 +293,31 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
           <p className="muted text-sm">Not signed.</p>
         )}
       </Section>
-
-      {/* Chromium repeats a fixed element on every printed page: the caveat goes in each page's footer. */}
-      <footer className="hidden text-[8pt] print:fixed print:inset-x-0 print:bottom-0 print:block print:border-t print:border-[var(--line)] print:pt-1">
-        {report.caveat} · run {report.shortId} v{report.versionNumber}
-      </footer>
     </article>
   );
 }
 
-/** The print rules of the printable page: A4, light colours, no workspace navigation. */
-export const REPORT_PRINT_CSS = `
+/** A CSS string literal (the caveat and run label go into the printed page's margin boxes). */
+function cssString(text: string): string {
+  return `"${text.replace(/\\/g, "\\\\").replace(/"/g, '\\"').replace(/[\r\n]+/g, " ")}"`;
+}
+
+/** The print rules of the printable page: A4, light colours, no workspace navigation, and in every
+ * page's margins the run, the screening caveat and the page number (CSS page margin boxes). */
+export function reportPrintCss(report: RunReport): string {
+  return `
+@page {
+  size: A4;
+  margin: 16mm 14mm 20mm;
+  @top-left { content: ${cssString(`Emberline · run ${report.shortId} v${report.versionNumber} · ${report.status}`)}; font: 8pt sans-serif; color: #444; }
+  @bottom-left { content: ${cssString(report.caveat)}; font: 7.5pt sans-serif; color: #444; }
+  @bottom-right { content: "Page " counter(page) " of " counter(pages); font: 7.5pt sans-serif; color: #444; }
+}
 @media print {
-  @page { size: A4; margin: 14mm 14mm 18mm; }
   :root, .dark { color-scheme: light; --surface: #fff; --panel: #fff; --text: #000; --muted: #444; --line: #bbb; }
   body > div > aside, .report-toolbar { display: none !important; }
   main { padding: 0 !important; }
-  .report { max-width: none; padding-bottom: 10mm; }
+  .report { max-width: none; }
 }
 `;
+}

@@ -1,6 +1,10 @@
 // Reports in Chromium: a run (made through the API from the synthetic files) opens as a printable
 // report with its chart, calls and caveat, prints without the navigation, and its PDF downloads from
 // the run page's Downloads block; the notebook page offers its calls as CSV.
+import { execFileSync } from "node:child_process";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { openBrowser, screenshot, type Session } from "./support/browser";
 import { SignInPage } from "./pages/sign-in-page";
@@ -91,6 +95,20 @@ describe("reports", () => {
     expect(await page.getByRole("navigation").first().isVisible()).toBe(false);
     expect(await page.getByRole("button", { name: "Print" }).isVisible()).toBe(false);
     await screenshot(page, "reports-2-print-media");
+    // Printed to PDF as the print dialog would: every page carries the caveat and its number in the margins.
+    const printed = await page.pdf({ preferCSSPageSize: true, printBackground: true });
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), "emberline-print-"));
+    const file = path.join(dir, "printed.pdf");
+    fs.writeFileSync(file, printed);
+    const info = execFileSync("/usr/bin/pdfinfo", [file], { encoding: "utf8" });
+    const pages = Number(/Pages:\s+(\d+)/.exec(info)![1]);
+    const printedText = execFileSync("/usr/bin/pdftotext", [file, "-"], { encoding: "utf8" }).replace(/\s+/g, " ");
+    fs.rmSync(dir, { recursive: true, force: true });
+    expect(info).toMatch(/Page size:.*\(A4\)/);
+    expect(pages).toBeGreaterThanOrEqual(2);
+    expect(printedText).toContain(`Page ${pages} of ${pages}`);
+    expect(printedText.split("Qualitative screening result only, not a certified analysis").length - 1).toBeGreaterThanOrEqual(pages);
+    expect(printedText).not.toContain("Line library");
     await page.emulateMedia({ media: "screen" });
     expect(browser.problems).toEqual([]);
   });

@@ -2,7 +2,7 @@
 // the workspace navigation, and the PDF one click away.
 import Link from "next/link";
 import { PrintButton } from "@/components/reports/print-button";
-import { REPORT_CHART_SIZE, REPORT_PRINT_CSS, RunReportView } from "@/components/reports/run-report-view";
+import { REPORT_CHART_SIZE, RunReportView, reportPrintCss } from "@/components/reports/run-report-view";
 import { idOrNotFound, orNotFound } from "@/components/workflow/server-data";
 import { chartGeometry, chartLabelsFromCalls } from "@/lib/reports/chart-geometry";
 import { fetchRunReport } from "@/lib/services/run-reports";
@@ -17,7 +17,7 @@ export default async function RunReportPage({ params }: { params: Promise<{ id: 
   const geometry = chartGeometry(chart.wavelengthNm, chart.counts, chartLabelsFromCalls(report.calls), { ...REPORT_CHART_SIZE, fontSize: 7 });
   return (
     <>
-      <style>{REPORT_PRINT_CSS}</style>
+      <style>{reportPrintCss(report)}</style>
       <div className="report-toolbar mx-auto mb-4 flex max-w-[210mm] flex-wrap items-center gap-2">
         <Link href={`/runs/${id}`} className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800">
           Back to the run
