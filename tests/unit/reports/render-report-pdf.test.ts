@@ -36,7 +36,8 @@ function spectrum() {
   return { wavelengthNm: x, counts: y };
 }
 
-describe("renderReportPdf", () => {
+// Rendering with font subsetting takes seconds on a busy machine: a generous limit keeps the test from flaking.
+describe("renderReportPdf", { timeout: 60_000 }, () => {
   it("makes a PDF whose text holds the calls, the caveat, the calibration and the release", async () => {
     const run = sampleRun({
       overrides: [{ id: "o", species: "Ba I", computedVerdict: "absent", verdict: "possible", reason: "green flame seen by eye", byName: "Chris", at: "2026-03-01T11:00:00.000Z" }],
