@@ -63,6 +63,11 @@ export default async function NotebookPage({
       <RenameNotebookForm notebookId={id} title={notebook.title} version={notebook.version} action={renameNotebookAction} />
       <ScreeningNotice />
       <div className="mt-4">
+        {notebook.runCount > 0 ? (
+          <a href={`/api/notebooks/${id}/calls.csv`} download className="mb-2 inline-block text-sm underline" data-testid="download-calls-csv">
+            Calls CSV (every run&apos;s calls)
+          </a>
+        ) : null}
         <RunList notebookId={id} instruments={instruments.map((i) => ({ id: i.id, name: i.name }))} fallback={runFallback} />
       </div>
       <div className="mt-6">

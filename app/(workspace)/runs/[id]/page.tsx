@@ -2,6 +2,7 @@
 // their evidence, the peaks, the unexplained peaks, the run's warnings and what it was made from.
 import Link from "next/link";
 import { RunSpectrumChart, type LineLabel } from "@/components/charts/spectrum-charts";
+import { RunDownloads } from "@/components/reports/run-downloads";
 import { PageHeader } from "@/components/ui/page-header";
 import { CallEvidence, PeakTable } from "@/components/workflow/run-evidence";
 import { FlameCautions, ScreeningNotice } from "@/components/workflow/run-notices";
@@ -128,6 +129,7 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
         <dt className="muted">Raw file SHA-256</dt>
         <dd className="break-all font-mono text-xs">{spectrum.sha256}</dd>
       </dl>
+      <RunDownloads runId={run.id} />
       <EntityTrail entity="run" entityId={run.id} />
     </>
   );

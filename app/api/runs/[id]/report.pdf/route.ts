@@ -1,0 +1,10 @@
+// GET the PDF report of one run: calls with evidence, calibration, release, settings, signatures (a download; another team's run is not found).
+import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { reportResponse } from "@/lib/reports/report-response";
+import { runReportPdf } from "@/lib/services/run-reports";
+import { idParam } from "@/lib/validation/line-schemas";
+
+export const GET = apiRoute(async (_request, { params }) => {
+  const actor = await requireActor();
+  return reportResponse(await runReportPdf(actor, idParam((await params).id, "No such run.")));
+});

@@ -1,0 +1,135 @@
+// Reports in Chromium: a run (made through the API from the synthetic files) opens as a printable
+// report with its chart, calls and caveat, prints without the navigation, and its PDF downloads from
+// the run page's Downloads block; the notebook page offers its calls as CSV.
+import { execFileSync } from "node:child_process";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { openBrowser, screenshot, type Session } from "./support/browser";
+import { SignInPage } from "./pages/sign-in-page";
+import { PrintableReportPage, RunDownloadsBlock } from "./pages/report-pages";
+import { FLAME_SCREENING, signInDemo, teamIdOf } from "../integration/support/accounts";
+import { APP_URL } from "../integration/support/http-client";
+import { PIXELS, RESOLUTION_NM, flameFile, lampFile, syntheticGrating } from "../integration/support/synthetic-files";
+
+const CHEMIST = "chem@demo.emberline.example";
+const DEMO_PASSWORD = "emberline-demo";
+const suffix = Date.now().toString(36);
+
+let browser: Session;
+let runId: string;
+let notebookId: string;
+let present: string[];
+
+beforeAll(async () => {
+  const grating = syntheticGrating();
+  const lead = await signInDemo("labLead");
+  const chemist = await signInDemo("chemist");
+  const teamId = await teamIdOf(lead, FLAME_SCREENING);
+  const instrument = await lead.post<{ id: string }>("/api/instruments", {
+    teamId,
+    name: `E2E report bench ${suffix}`,
+    dispersion: "grating",
+    pixels: PIXELS,
+    nominalMinNm: grating.nominalRangeNm[0],
+    nominalMaxNm: grating.nominalRangeNm[1],
+    resolutionNm: RESOLUTION_NM,
+  });
+  expect(instrument.status).toBe(201);
+  const upload = async (kind: string, text: string, fileName: string) => {
+    const form = new FormData();
+    form.set("file", new Blob([text]), fileName);
+    form.set("instrumentId", instrument.body.id);
+    form.set("kind", kind);
+    const response = await fetch(`${APP_URL}/api/spectra`, {
+      method: "POST",
+      headers: { cookie: `emberline_session=${chemist.cookie("emberline_session")}`, "x-forwarded-for": chemist.address },
+      body: form,
+    });
+    expect(response.status).toBe(201);
+    return ((await response.json()) as { id: string }).id;
+  };
+  const lampId = await upload("lamp", lampFile(grating), `lamp-${suffix}.csv`);
+  const calibration = await chemist.post<{ id: string }>("/api/calibrations", { instrumentId: instrument.body.id, spectrumId: lampId, lamps: ["Hg", "Ar"] });
+  expect(calibration.status).toBe(201);
+  const notebook = await chemist.post<{ id: string }>("/api/notebooks", { teamId, title: `E2E reports ${suffix}` });
+  notebookId = notebook.body.id;
+  const sampleId = await upload("sample", flameFile(grating), `flame-${suffix}.csv`);
+  const run = await chemist.post<{ id: string; calls: { species: string; verdict: string }[] }>("/api/runs", {
+    notebookId,
+    spectrumId: sampleId,
+    calibrationId: calibration.body.id,
+    source: "flame",
+  });
+  expect(run.status).toBe(201);
+  runId = run.body.id;
+  present = run.body.calls.filter((c) => c.verdict === "present").map((c) => c.species);
+  expect(present.length).toBeGreaterThan(0);
+
+  browser = await openBrowser();
+  const signIn = new SignInPage(browser.page);
+  await signIn.goto();
+  await signIn.signIn(CHEMIST, DEMO_PASSWORD);
+  await browser.page.waitForURL((url) => url.pathname === "/");
+}, 120_000);
+
+afterAll(async () => {
+  await browser?.close();
+});
+
+describe("reports", () => {
+  it("shows the printable report with its chart, calls and caveat, and prints without the navigation", async () => {
+    const { page } = browser;
+    const printable = new PrintableReportPage(page);
+    await printable.goto(runId);
+    const text = (await printable.report.textContent()) ?? "";
+    for (const species of present) expect(text).toContain(species);
+    expect(text).toContain("Qualitative screening result only, not a certified analysis");
+    expect(text).toContain("Flame test cautions");
+    expect(await printable.chart.locator("path").count()).toBeGreaterThan(0);
+    expect(await printable.chart.locator("text").filter({ hasText: present[0] }).count()).toBeGreaterThan(0);
+    await screenshot(page, "reports-1-printable");
+
+    await page.emulateMedia({ media: "print" });
+    expect(await page.getByRole("navigation").first().isVisible()).toBe(false);
+    expect(await page.getByRole("button", { name: "Print" }).isVisible()).toBe(false);
+    await screenshot(page, "reports-2-print-media");
+    // Printed to PDF as the print dialog would: every page carries the caveat and its number in the margins.
+    const printed = await page.pdf({ preferCSSPageSize: true, printBackground: true });
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), "emberline-print-"));
+    const file = path.join(dir, "printed.pdf");
+    fs.writeFileSync(file, printed);
+    const info = execFileSync("/usr/bin/pdfinfo", [file], { encoding: "utf8" });
+    const pages = Number(/Pages:\s+(\d+)/.exec(info)![1]);
+    const printedText = execFileSync("/usr/bin/pdftotext", [file, "-"], { encoding: "utf8" }).replace(/\s+/g, " ");
+    fs.rmSync(dir, { recursive: true, force: true });
+    expect(info).toMatch(/Page size:.*\(A4\)/);
+    expect(pages).toBeGreaterThanOrEqual(2);
+    expect(printedText).toContain(`Page ${pages} of ${pages}`);
+    expect(printedText.split("Qualitative screening result only, not a certified analysis").length - 1).toBeGreaterThanOrEqual(pages);
+    expect(printedText).not.toContain("Line library");
+    await page.emulateMedia({ media: "screen" });
+    expect(browser.problems).toEqual([]);
+  });
+
+  it("downloads the PDF from the run page's Downloads block", async () => {
+    const { page } = browser;
+    await page.goto(`/runs/${runId}`);
+    await page.getByTestId("run-downloads").scrollIntoViewIfNeeded();
+    await screenshot(page, "reports-3-run-downloads");
+    const pdf = await new RunDownloadsBlock(page).download("download-report-pdf");
+    expect(pdf.name).toMatch(/^emberline-run-[0-9a-f]{8}-v1\.pdf$/);
+    expect(pdf.bytes.subarray(0, 5).toString("latin1")).toBe("%PDF-");
+    const csv = await new RunDownloadsBlock(page).download("download-peaks-csv");
+    expect(csv.bytes.toString("utf8").split("\r\n")[0]).toMatch(/^peak_nm,/);
+  });
+
+  it("offers the notebook's calls as CSV", async () => {
+    const { page } = browser;
+    await page.goto(`/notebooks/${notebookId}`);
+    const [download] = await Promise.all([page.waitForEvent("download"), page.getByTestId("download-calls-csv").click()]);
+    expect(download.suggestedFilename()).toMatch(/^emberline-notebook-[0-9a-f]{8}-calls\.csv$/);
+    expect(browser.problems).toEqual([]);
+  });
+});

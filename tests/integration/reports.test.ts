@@ -1,0 +1,302 @@
+// Reports through HTTP against the real PostgreSQL: a run made from synthetic files is downloaded as
+// a PDF (read back with Debian's poppler pdftotext), as a peaks CSV (read back with a CSV parser), as
+// JCAMP-DX (read back with the app's own parser to the run's calibrated points), and its notebook as
+// a calls CSV; an override and a signature (rows put in directly: another part of the app makes them)
+// show in the PDF; another team gets 404 and nobody signed in gets 401.
+import { execFileSync } from "node:child_process";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import Papa from "papaparse";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { parseSpectrumFile } from "@/lib/spectrum/io";
+import { APP_URL, ApiClient } from "./support/http-client";
+import { DEMO, FLAME_SCREENING, signInDemo, signedIn, teamIdOf } from "./support/accounts";
+import { OUTSIDER, ensureOutsider } from "./support/outsider";
+import { closeDb, db, userIdByEmail } from "./support/database";
+import { PIXELS, RESOLUTION_NM, flameFile, flameFileOnWavelengthAxis, lampFile, syntheticGrating } from "./support/synthetic-files";
+
+interface Call {
+  species: string;
+  verdict: string;
+  lines: { lineNm: number; peakNm: number }[];
+}
+interface Run {
+  id: string;
+  versionNumber: number;
+  calibrationId: string | null;
+  lineReleaseId: string;
+  peaks: { wavelengthNm: number }[];
+  calls: Call[];
+  verdicts: Record<string, string>;
+}
+interface Calibration {
+  id: string;
+  model: string;
+  rmsNm: number;
+  coveredRangeNm: [number, number];
+}
+
+const SESSION_COOKIE = "emberline_session";
+const suffix = Date.now().toString(36);
+const grating = syntheticGrating();
+
+let lead: ApiClient;
+let chemist: ApiClient;
+let outsider: ApiClient;
+let teamId: string;
+let calibration: Calibration;
+let notebookId: string;
+let calibratedRun: Run;
+let ownAxisRun: Run;
+let flameText: string;
+
+async function download(client: ApiClient | null, urlPath: string): Promise<Response> {
+  const headers: Record<string, string> = { "x-forwarded-for": client?.address ?? "10.9.9.9" };
+  if (client) headers.cookie = `${SESSION_COOKIE}=${client.cookie(SESSION_COOKIE)}`;
+  return fetch(`${APP_URL}${urlPath}`, { headers, redirect: "manual" });
+}
+
+async function upload(kind: "lamp" | "sample", content: string, fileName: string): Promise<{ id: string }> {
+  const form = new FormData();
+  form.set("file", new Blob([content]), fileName);
+  form.set("instrumentId", instrumentId);
+  form.set("kind", kind);
+  form.set("label", fileName);
+  const response = await fetch(`${APP_URL}/api/spectra`, {
+    method: "POST",
+    headers: { cookie: `${SESSION_COOKIE}=${chemist.cookie(SESSION_COOKIE)}`, "x-forwarded-for": chemist.address },
+    body: form,
+  });
+  const body = await response.json();
+  expect(response.status, JSON.stringify(body)).toBe(201);
+  return body as { id: string };
+}
+
+let instrumentId: string;
+
+function pdfToText(pdf: Uint8Array): string {
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), "emberline-reports-"));
+  try {
+    const file = path.join(dir, "report.pdf");
+    fs.writeFileSync(file, pdf);
+    // Debian's poppler-utils; its line breaks fall where the layout wraps, so whitespace is collapsed.
+    return execFileSync("/usr/bin/pdftotext", [file, "-"], { encoding: "utf8" }).replace(/\s+/g, " ");
+  } finally {
+    fs.rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+function parseCsv(text: string): Record<string, string>[] {
+  const parsed = Papa.parse<Record<string, string>>(text, { header: true, skipEmptyLines: true, delimiter: "," });
+  expect(parsed.errors).toEqual([]);
+  return parsed.data;
+}
+
+const shortId = (id: string) => id.replace(/-/g, "").slice(0, 8);
+
+beforeAll(async () => {
+  lead = await signInDemo("labLead");
+  chemist = await signInDemo("chemist");
+  await ensureOutsider();
+  outsider = await signedIn(OUTSIDER.email, OUTSIDER.password);
+  teamId = await teamIdOf(lead, FLAME_SCREENING);
+
+  const instrument = await lead.post<{ id: string }>("/api/instruments", {
+    teamId,
+    name: `report bench ${suffix}`,
+    dispersion: "grating",
+    pixels: PIXELS,
+    nominalMinNm: grating.nominalRangeNm[0],
+    nominalMaxNm: grating.nominalRangeNm[1],
+    resolutionNm: RESOLUTION_NM,
+  });
+  expect(instrument.status, JSON.stringify(instrument.body)).toBe(201);
+  instrumentId = instrument.body.id;
+  const lamp = await upload("lamp", lampFile(grating), `lamp-${suffix}.csv`);
+  const calibrated = await chemist.post<Calibration>("/api/calibrations", { instrumentId, spectrumId: lamp.id, lamps: ["Hg", "Ar"] });
+  expect(calibrated.status, JSON.stringify(calibrated.body)).toBe(201);
+  calibration = calibrated.body;
+  const nb = await chemist.post<{ id: string }>("/api/notebooks", { teamId, title: `Reports ${suffix}` });
+  expect(nb.status).toBe(201);
+  notebookId = nb.body.id;
+
+  flameText = flameFile(grating);
+  const sample = await upload("sample", flameText, `flame-${suffix}.csv`);
+  const first = await chemist.post<Run>("/api/runs", { notebookId, spectrumId: sample.id, calibrationId: calibration.id, source: "flame" });
+  expect(first.status, JSON.stringify(first.body)).toBe(201);
+  calibratedRun = first.body;
+  const ownAxis = await upload("sample", flameFileOnWavelengthAxis(grating), `flame-nm-${suffix}.csv`);
+  const second = await chemist.post<Run>("/api/runs", { notebookId, spectrumId: ownAxis.id, source: "flame" });
+  expect(second.status, JSON.stringify(second.body)).toBe(201);
+  ownAxisRun = second.body;
+  expect(ownAxisRun.calibrationId).toBeNull();
+});
+
+afterAll(async () => {
+  await closeDb();
+});
+
+describe("the PDF report", () => {
+  it("downloads as an uncached attachment that opens in pdftotext with the calls, the caveat, the calibration and the release", async () => {
+    const response = await download(chemist, `/api/runs/${calibratedRun.id}/report.pdf`);
+    expect(response.status).toBe(200);
+    expect(response.headers.get("content-type")).toBe("application/pdf");
+    expect(response.headers.get("content-disposition")).toBe(`attachment; filename="emberline-run-${shortId(calibratedRun.id)}-v1.pdf"`);
+    expect(response.headers.get("cache-control")).toMatch(/no-store/);
+    expect(response.headers.get("cache-control")).toMatch(/private/);
+    const pdf = new Uint8Array(await response.arrayBuffer());
+    expect(Buffer.from(pdf.subarray(0, 5)).toString("latin1")).toBe("%PDF-");
+
+    const text = pdfToText(pdf);
+    const called = calibratedRun.calls.filter((c) => calibratedRun.verdicts[c.species] !== "absent");
+    expect(called.length).toBeGreaterThanOrEqual(4);
+    for (const c of called) expect(text, c.species).toContain(c.species);
+    expect(text).toContain("Qualitative screening result only, not a certified analysis");
+    expect(text).toContain(calibration.model);
+    expect(text).toContain(`RMS ${calibration.rmsNm.toFixed(4)} nm`);
+    expect(text).toContain(`${calibration.coveredRangeNm[0].toFixed(2)}–${calibration.coveredRangeNm[1].toFixed(2)} nm`);
+    const { rows } = await db().query<{ number: number }>("SELECT number FROM line_releases WHERE id = $1", [calibratedRun.lineReleaseId]);
+    expect(text).toContain(`release ${rows[0].number}`);
+    expect(text).toContain("Flame test cautions");
+    expect(text).toContain("Not signed.");
+  });
+
+  it("shows an override with its reason and a signature with its signer and content hash", async () => {
+    const chemistId = await userIdByEmail(DEMO.chemist.email);
+    const supervisorId = await userIdByEmail(DEMO.supervisor.email);
+    const potassium = calibratedRun.calls.find((c) => c.species === "K I")!;
+    await db().query(
+      "INSERT INTO run_overrides (run_id, species, computed_verdict, verdict, reason, created_by_id) VALUES ($1, 'K I', $2, 'possible', $3, $4)",
+      [calibratedRun.id, potassium.verdict, `violet flame through cobalt glass was faint ${suffix}`, chemistId],
+    );
+    const hash = "5e".repeat(32);
+    await db().query(
+      "INSERT INTO run_signatures (run_id, round, signer_id, signer_name, meaning, content_hash) VALUES ($1, 1, $2, 'Sam Supervisor', $3, $4)",
+      [calibratedRun.id, supervisorId, `Reviewed and approved ${suffix}`, hash],
+    );
+    const response = await download(chemist, `/api/runs/${calibratedRun.id}/report.pdf`);
+    expect(response.status).toBe(200);
+    const text = pdfToText(new Uint8Array(await response.arrayBuffer()));
+    expect(text).toContain("Sam Supervisor");
+    expect(text).toContain(`Reviewed and approved ${suffix}`);
+    expect(text).toContain(hash);
+    expect(text).toContain(`violet flame through cobalt glass was faint ${suffix}`);
+    expect(text).not.toContain("Not signed.");
+  });
+});
+
+describe("the JCAMP-DX export", () => {
+  it("reads back through the app's parser to the run's calibrated points", async () => {
+    const response = await download(chemist, `/api/runs/${calibratedRun.id}/spectrum.jdx`);
+    expect(response.status).toBe(200);
+    expect(response.headers.get("content-disposition")).toBe(`attachment; filename="emberline-run-${shortId(calibratedRun.id)}-v1-spectrum.jdx"`);
+    expect(response.headers.get("cache-control")).toMatch(/no-store/);
+    const text = await response.text();
+    expect(text).toContain("##XUNITS=NANOMETERS");
+    expect(text).toContain("##$WAVELENGTH MEDIUM=AIR");
+    expect(text).toContain(`##$EMBERLINE RUN ID=${calibratedRun.id}`);
+    expect(text).toContain(`##$EMBERLINE CALIBRATION ID=${calibration.id}`);
+    expect(text).toContain(`##$EMBERLINE LINE RELEASE ID=${calibratedRun.lineReleaseId}`);
+    const back = parseSpectrumFile(text);
+    expect(back.xUnit).toBe("nm");
+    expect(back.medium).toBe("air");
+
+    // The same points computed another way: the file's counts at the calibration's wavelengths.
+    const sample = parseSpectrumFile(flameText);
+    const evaluated = await chemist.post<{ wavelengthsNm: (number | null)[] }>(`/api/calibrations/${calibration.id}/evaluate`, {
+      pixels: Array.from(sample.x),
+    });
+    expect(evaluated.status).toBe(200);
+    const expected = evaluated.body.wavelengthsNm
+      .map((nm, i) => [nm, sample.y[i]] as const)
+      .filter(([nm]) => nm !== null)
+      .sort((a, b) => a[0]! - b[0]!);
+    expect(back.x.length).toBe(expected.length);
+    // XYPOINTS (an uneven axis) are written at full double precision: the points come back exactly.
+    for (let i = 0; i < expected.length; i++) {
+      expect(back.x[i]).toBe(expected[i][0]);
+      expect(back.y[i]).toBe(expected[i][1]);
+    }
+  });
+
+  it("states that the medium is unknown for a run on a file's own axis, and keeps its points", async () => {
+    const response = await download(chemist, `/api/runs/${ownAxisRun.id}/spectrum.jdx`);
+    expect(response.status).toBe(200);
+    const text = await response.text();
+    expect(text).toContain("##$WAVELENGTH MEDIUM=NOT STATED");
+    expect(text).toContain("##$EMBERLINE CALIBRATION ID=NONE");
+    const back = parseSpectrumFile(text);
+    const source = parseSpectrumFile(flameFileOnWavelengthAxis(grating));
+    expect(back.x.length).toBe(source.x.length);
+    // The grating's axis is uneven, so it is written as XYPOINTS at full precision: the file's own points come back.
+    for (let i = 0; i < source.x.length; i++) {
+      expect(back.x[i]).toBe(source.x[i]);
+      expect(back.y[i]).toBe(source.y[i]);
+    }
+  });
+});
+
+describe("the CSV exports", () => {
+  it("peaks.csv has one row per peak and candidate, and parses back", async () => {
+    const response = await download(chemist, `/api/runs/${calibratedRun.id}/peaks.csv`);
+    expect(response.status).toBe(200);
+    expect(response.headers.get("content-type")).toMatch(/^text\/csv/);
+    expect(response.headers.get("content-disposition")).toBe(`attachment; filename="emberline-run-${shortId(calibratedRun.id)}-v1-peaks.csv"`);
+    const rows = parseCsv(await response.text());
+    const { rows: stored } = await db().query<{ matches: { peakIndex: number; candidates: unknown[] }[] }>("SELECT matches FROM runs WHERE id = $1", [
+      calibratedRun.id,
+    ]);
+    const candidatesOf = new Map(stored[0].matches.map((m) => [m.peakIndex, m.candidates.length]));
+    const expectedRows = calibratedRun.peaks.reduce((sum, _p, i) => sum + Math.max(1, candidatesOf.get(i) ?? 0), 0);
+    expect(rows).toHaveLength(expectedRows);
+    expect(new Set(rows.map((r) => Number(r.peak_nm)))).toEqual(new Set(calibratedRun.peaks.map((p) => p.wavelengthNm)));
+    // Every line a call used shows as a candidate that the call took.
+    for (const c of calibratedRun.calls.filter((k) => k.verdict === "present")) {
+      for (const l of c.lines) {
+        const row = rows.find((r) => r.candidate_species === c.species && Number(r.reference_nm) === l.lineNm && Number(r.peak_nm) === l.peakNm);
+        expect(row, `${c.species} ${l.lineNm}`).toBeDefined();
+        expect(row!.candidate_used_by_call).toBe("yes");
+      }
+    }
+  });
+
+  it("the notebook's calls.csv lists every call of every run", async () => {
+    const response = await download(chemist, `/api/notebooks/${notebookId}/calls.csv`);
+    expect(response.status).toBe(200);
+    expect(response.headers.get("cache-control")).toMatch(/no-store/);
+    const rows = parseCsv(await response.text());
+    const runs = [calibratedRun, ownAxisRun];
+    expect(rows).toHaveLength(runs.reduce((sum, r) => sum + Math.max(1, r.calls.length), 0));
+    for (const run of runs) {
+      const mine = rows.filter((r) => r.run_id === run.id);
+      expect(mine.map((r) => r.species).sort()).toEqual(run.calls.map((c) => c.species).sort());
+    }
+    // The override put in above stands in the calibrated run's potassium row.
+    const potassium = rows.find((r) => r.run_id === calibratedRun.id && r.species === "K I")!;
+    expect(potassium.standing_verdict).toBe("possible");
+    expect(potassium.override_reason).toContain("cobalt glass");
+    expect(rows.find((r) => r.run_id === ownAxisRun.id)?.author).toBe(DEMO.chemist.name);
+  });
+});
+
+describe("access", () => {
+  it("answers 404 to another team and 401 to nobody signed in, on every download", async () => {
+    const paths = [
+      `/api/runs/${calibratedRun.id}/report.pdf`,
+      `/api/runs/${calibratedRun.id}/peaks.csv`,
+      `/api/runs/${calibratedRun.id}/spectrum.jdx`,
+      `/api/notebooks/${notebookId}/calls.csv`,
+    ];
+    for (const p of paths) {
+      expect((await download(outsider, p)).status, p).toBe(404);
+      expect((await download(null, p)).status, p).toBe(401);
+    }
+    expect((await download(chemist, "/api/runs/not-a-uuid/report.pdf")).status).toBe(404);
+  });
+
+  it("lets every member of the team download (a supervisor too)", async () => {
+    const supervisor = await signInDemo("supervisor");
+    expect((await download(supervisor, `/api/runs/${calibratedRun.id}/peaks.csv`)).status).toBe(200);
+  });
+});
