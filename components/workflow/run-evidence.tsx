@@ -144,7 +144,12 @@ export function CallEvidence({
               ))}
             </ul>
           ) : null}
-          {overrideFormFor ? overrideFormFor(call) : null}
+          {overrideFormFor ? (
+            <details className="mt-2">
+              <summary className="cursor-pointer text-xs underline">Override this call</summary>
+              {overrideFormFor(call)}
+            </details>
+          ) : null}
         </details>
       ))}
       {absent.length > 0 ? <AbsentCalls calls={absent} overrideFormFor={overrideFormFor} /> : null}

@@ -32,7 +32,7 @@ export function RunNotes({
   }
   const dirty = text !== savedNotes;
   return (
-    <form ref={form} action={formAction} className="flex max-w-3xl flex-col gap-2" aria-label="Notes" data-testid="notes-form">
+    <form ref={form} action={formAction} className="flex max-w-3xl flex-col gap-2" aria-label="Run notes" data-testid="notes-form">
       <input type="hidden" name="lockVersion" value={version} />
       <label htmlFor="run-notes" className="sr-only">
         Notes

@@ -11,7 +11,7 @@ export function RunTemperaturePanel({ temperature, assumedK }: { temperature: Ru
   if (!temperature.ok) {
     return (
       <div className="flex flex-col gap-1" data-testid="temperature">
-        <p className="text-sm">No excitation temperature: {temperature.message}</p>
+        <p className="text-sm">No excitation temperature could be found: {temperature.message}</p>
         {assumed}
       </div>
     );

@@ -69,7 +69,7 @@ export function excitationTemperature(
     return {
       ok: false,
       message:
-        "No species called present has a seen line with a statistical weight, a transition probability and an upper-level energy in the line table.",
+        "no species called present has a seen line with a statistical weight, a transition probability and an upper-level energy in the line table.",
     };
   }
   let firstFailure: string | null = null;
@@ -88,5 +88,5 @@ export function excitationTemperature(
     }
     firstFailure ??= `${call.species} (${lines.length} usable line${lines.length === 1 ? "" : "s"}): ${plot.message}`;
   }
-  return { ok: false, message: `No Boltzmann temperature: ${firstFailure}` };
+  return { ok: false, message: `the best candidate was ${firstFailure}` };
 }
