@@ -144,12 +144,7 @@ export function CallEvidence({
               ))}
             </ul>
           ) : null}
-          {overrideFormFor ? (
-            <details className="mt-2">
-              <summary className="cursor-pointer text-xs underline">Override this call</summary>
-              {overrideFormFor(call)}
-            </details>
-          ) : null}
+          {overrideFormFor ? overrideFormFor(call) : null}
         </details>
       ))}
       {absent.length > 0 ? <AbsentCalls calls={absent} overrideFormFor={overrideFormFor} /> : null}
@@ -189,12 +184,7 @@ function AbsentCalls({ calls, overrideFormFor }: { calls: RunCall[]; overrideFor
               <td>
                 <span className="muted">{c.rationale}</span>
                 <OverrideNote call={c} />
-                {overrideFormFor ? (
-                  <details className="mt-1">
-                    <summary className="cursor-pointer text-xs underline">Override this call</summary>
-                    {overrideFormFor(c)}
-                  </details>
-                ) : null}
+                {overrideFormFor ? overrideFormFor(c) : null}
               </td>
             </tr>
           ))}

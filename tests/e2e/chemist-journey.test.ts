@@ -111,7 +111,7 @@ describe("the chemist's journey", () => {
 
     // Override a call with a reason: the standing verdict changes and the override says who and why.
     const potassium = run.calls.filter({ has: page.getByTestId("call-species").getByText("K I", { exact: true }) }).first();
-    await potassium.getByText("Override this call").click();
+    await potassium.getByRole("button", { name: "Override this call" }).press("Enter");
     const form = potassium.getByTestId("override-form");
     await form.getByLabel("Verdict").selectOption("possible");
     await form.getByLabel("Reason (required)").fill("Potassium from the glassware; blank shows it too.");
