@@ -8,6 +8,7 @@ import { SCREENSHOT_DIR, openBrowser, screenshot, type Session } from "./support
 import { SignInPage } from "./pages/sign-in-page";
 import { InstrumentsPage, RunPage, UploadZone, chartsDrawn } from "./pages/workflow-pages";
 import { PIXELS, RESOLUTION_NM, flameFile, lampFile, syntheticGrating } from "../integration/support/synthetic-files";
+import { LTE_FLAME_TEMPERATURE_K, lteCalciumFlame } from "../integration/support/lte-flame";
 
 const DEMO_PASSWORD = "emberline-demo";
 const LEAD = "lead@demo.emberline.example";
@@ -132,6 +133,28 @@ describe("the chemist's journey", () => {
     expect(await page.getByLabel("Notes", { exact: true }).inputValue()).toContain("K blank to be run tomorrow");
     await page.getByTestId("notes-form").scrollIntoViewIfNeeded();
     await screenshot(page, "chemist-9-notes");
+
+    // A calcium flame in LTE, run with its excitation temperature assumed: the page shows T ± σ and the plot.
+    await page.getByRole("link", { name: "Back to the notebook" }).click();
+    await page.waitForURL(/\/notebooks\/[0-9a-f-]{36}$/);
+    await page.getByRole("link", { name: new RegExp(`Upload a sample on E2E grating ${suffix}`) }).click();
+    await page.waitForURL(/\/upload/);
+    await zone.choose(`calcium-${suffix}.csv`, lteCalciumFlame(grating));
+    await zone.upload("sample", "Calcium, hot flame");
+    await page.getByRole("link", { name: `Flame screening ${suffix}` }).click();
+    await page.waitForURL(/\/notebooks\/.*spectrum=/);
+    await page.getByText("Analysis settings (optional; blank keeps the defaults)").click();
+    await page.getByLabel("Excitation temperature (K)").fill(String(LTE_FLAME_TEMPERATURE_K));
+    await page.getByRole("button", { name: "Start the run" }).click();
+    await page.waitForURL(/\/runs\/[0-9a-f-]{36}$/, { timeout: 60_000 });
+    await chartsDrawn(page);
+    const temperature = (await page.getByTestId("temperature").textContent()) ?? "";
+    const kelvin = Number(/(\d+) ± \d+ K/.exec(temperature)?.[1]);
+    // Within 5 % of the generator's temperature (the integration test states why).
+    expect(Math.abs(kelvin / LTE_FLAME_TEMPERATURE_K - 1), temperature).toBeLessThan(0.05);
+    expect(temperature).toContain("Ca I");
+    await page.getByTestId("temperature").scrollIntoViewIfNeeded();
+    await page.screenshot({ path: `${SCREENSHOT_DIR}/chemist-10-temperature.png` });
 
     await page.goto(new URL(page.url()).pathname.replace(/\/runs\/.*/, "/notebooks"));
     expect(browser.problems, browser.problems.join("\n")).toEqual([]);

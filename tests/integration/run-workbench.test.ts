@@ -3,16 +3,12 @@
 // Boltzmann temperature of a synthetic LTE flame whose temperature the generator knows, the stored
 // continuum, and a re-run after a lab lead publishes a newer line-table release, with what changed.
 // Every mutation writes an audit event. The tests run in order and build on each other.
-import fs from "node:fs";
-import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { parseLineTableCsv, toReferenceLine } from "@/lib/lines";
-import { synthesizeSpectrum } from "@/lib/spectrum/synthetic";
-import type { ReferenceLine } from "@/lib/spectrum/types";
 import { APP_URL, ApiClient, type ErrorBody } from "./support/http-client";
 import { DEMO, FLAME_SCREENING, signInDemo, signedIn, teamIdOf } from "./support/accounts";
 import { OUTSIDER, ensureOutsider } from "./support/outsider";
 import { auditEventsSince, auditMark, closeDb, db } from "./support/database";
+import { LTE_FLAME_TEMPERATURE_K as TRUE_T, lteCalciumFlame } from "./support/lte-flame";
 import { PIXELS, RESOLUTION_NM, lampFile, syntheticGrating } from "./support/synthetic-files";
 
 type Verdict = "present" | "possible" | "absent";
@@ -47,55 +43,7 @@ interface Run {
 }
 
 const SESSION_COOKIE = "emberline_session";
-// CODATA 2018 value of the Boltzmann constant in eV/K.
-const K_EV = 8.617333262e-5;
-/** The flame's excitation temperature: a hot (nitrous oxide–acetylene) flame reaches about 3000 K (common practice). */
-const TRUE_T = 3000;
-
 const grating = syntheticGrating();
-const starterCsv = fs.readFileSync(path.resolve(__dirname, "../../db/lines/starter-lines.csv"), "utf8");
-const table: ReferenceLine[] = parseLineTableCsv(starterCsv).rows.map((row, i) => toReferenceLine(row, `row-${i}`));
-
-function pixelOf(nm: number): number {
-  let [lo, hi] = [0, PIXELS - 1];
-  for (let k = 0; k < 50; k++) {
-    const mid = (lo + hi) / 2;
-    if (grating.wavelengthOfPixel(mid) < nm) lo = mid;
-    else hi = mid;
-  }
-  return lo;
-}
-
-/**
- * A flame of calcium in LTE at TRUE_T: every Ca I line of the starter table with g, A and an upper
- * energy, each emitting a power ∝ g·A/λ·exp(−E/kT) (Boltzmann population of the upper level, photon
- * energy ∝ 1/λ), drawn so that its total counts follow that power (the height scales with the local
- * nm per pixel, the line being RESOLUTION_NM wide), on a 2200 K continuum with read and shot noise.
- */
-function lteCalciumFlame(): string {
-  const [lowNm, highNm] = [grating.wavelengthOfPixel(5), grating.wavelengthOfPixel(PIXELS - 6)];
-  const lines = table.filter((l) => l.species === "Ca I" && l.g && l.a && l.upperEv !== undefined && l.airNm > lowNm && l.airNm < highNm);
-  const power = lines.map((l) => ((l.g! * l.a!) / l.airNm) * Math.exp(-l.upperEv! / (K_EV * TRUE_T)));
-  const strongest = Math.max(...power);
-  const spectrum = synthesizeSpectrum({
-    pixelCount: PIXELS,
-    wavelengthOfPixel: grating.wavelengthOfPixel,
-    resolutionNm: RESOLUTION_NM,
-    lines: lines.map((l, i) => {
-      const px = pixelOf(l.airNm);
-      const nmPerPx = grating.wavelengthOfPixel(px + 0.5) - grating.wavelengthOfPixel(px - 0.5);
-      return { wavelengthNm: l.airNm, amplitude: (400_000 * power[i] * nmPerPx) / strongest / 0.27 };
-    }),
-    continuum: { shape: "planck", temperatureK: 2200, peakCounts: 800 },
-    readNoiseCounts: 6,
-    shotNoise: true,
-    darkCounts: 200,
-    seed: 17,
-  });
-  const rows = ["pixel,counts"];
-  for (let i = 0; i < spectrum.y.length; i++) rows.push(`${i},${spectrum.y[i].toFixed(2)}`);
-  return `${rows.join("\n")}\n`;
-}
 
 let lead: ApiClient;
 let chemist: ApiClient;
@@ -147,7 +95,7 @@ beforeAll(async () => {
   const lampId = await upload(instrument.body.id, "lamp", lampFile(grating), `workbench-lamp-${suffix}.csv`);
   const calibration = await chemist.post("/api/calibrations", { instrumentId: instrument.body.id, spectrumId: lampId, lamps: ["Hg", "Ar"] });
   expect(calibration.status, JSON.stringify(calibration.body)).toBe(201);
-  const sampleId = await upload(instrument.body.id, "sample", lteCalciumFlame(), `workbench-calcium-${suffix}.csv`);
+  const sampleId = await upload(instrument.body.id, "sample", lteCalciumFlame(grating), `workbench-calcium-${suffix}.csv`);
   const notebook = await chemist.post<{ id: string }>("/api/notebooks", { teamId, title: `Workbench ${suffix}` });
   expect(notebook.status).toBe(201);
   const created = await chemist.post<Run>("/api/runs", {
