@@ -3,6 +3,8 @@
 // sample's calibrated spectrum with the identified lines labelled by species. Every series has its
 // own marker shape and a legend label, so no series is told apart by colour alone.
 import type { Data } from "plotly.js";
+import { useId, useState } from "react";
+import { BOLTZMANN_CONSTANT_EV_PER_K } from "@/lib/spectrum/temperature/boltzmann-constant";
 import { Chart, SERIES } from "./plot";
 
 export interface SpectrumSeries {
@@ -88,13 +90,20 @@ export interface LineLabel {
 
 export function RunSpectrumChart({
   spectrum,
+  continuum = null,
   labels,
   unexplainedNm,
 }: {
   spectrum: SpectrumSeries;
+  /** The continuum the analysis removed, on spectrum.x; null hides the toggle. */
+  continuum?: number[] | null;
   labels: LineLabel[];
   unexplainedNm: number[];
 }) {
+  const [view, setView] = useState<"raw" | "removed">("raw");
+  const groupName = useId();
+  const removed = view === "removed" && continuum !== null;
+  const shown: SpectrumSeries = removed ? { x: spectrum.x, y: spectrum.y.map((y, i) => y - continuum![i]) } : spectrum;
   const marks = (verdict: LineLabel["verdict"]): Data => {
     const chosen = labels.filter((l) => l.verdict === verdict);
     return {
@@ -102,7 +111,7 @@ export function RunSpectrumChart({
       mode: "text+markers",
       name: verdict === "present" ? "Line of a species called present" : "Line of a species called possible",
       x: chosen.map((l) => l.peakNm),
-      y: chosen.map((l) => countsAt(spectrum, l.peakNm)),
+      y: chosen.map((l) => countsAt(shown, l.peakNm)),
       text: chosen.map((l) => l.species),
       textposition: "top center",
       textfont: { size: 11 },
@@ -114,26 +123,108 @@ export function RunSpectrumChart({
       hovertemplate: "%{text}<br>%{x:.3f} nm<extra></extra>",
     };
   };
+  const continuumTrace: Data[] =
+    continuum !== null && !removed
+      ? [
+          {
+            type: "scatter",
+            mode: "lines",
+            name: "Continuum (removed before peak finding)",
+            x: spectrum.x,
+            y: continuum,
+            line: { color: SERIES.rejected, width: 1, dash: "dot" },
+            hovertemplate: "continuum %{y:.0f}<extra></extra>",
+          },
+        ]
+      : [];
+  return (
+    <div className="flex flex-col gap-2">
+      {continuum !== null ? (
+        <fieldset className="flex flex-wrap items-center gap-3 text-sm" data-testid="spectrum-view">
+          <legend className="sr-only">Spectrum shown</legend>
+          {(
+            [
+              ["raw", "Raw counts"],
+              ["removed", "Continuum removed"],
+            ] as const
+          ).map(([value, label]) => (
+            <label key={value} className="inline-flex cursor-pointer items-center gap-1.5 rounded border border-[var(--line)] px-2 py-1 has-[:checked]:border-ember-600 has-[:checked]:font-semibold has-[:focus-visible]:ring-2 has-[:focus-visible]:ring-ember-600">
+              <input type="radio" name={groupName} value={value} checked={view === value} onChange={() => setView(value)} className="accent-ember-600" />
+              {label}
+            </label>
+          ))}
+        </fieldset>
+      ) : null}
+      <Chart
+        title={removed ? "Calibrated sample spectrum, continuum removed, with the identified lines labelled" : "Calibrated sample spectrum with the identified lines labelled"}
+        fileName={removed ? "run-spectrum-continuum-removed" : "run-spectrum"}
+        height={420}
+        data={[
+          { type: "scatter", mode: "lines", name: removed ? "Counts minus continuum" : "Sample counts", x: shown.x, y: shown.y, line: { color: SERIES.spectrum, width: 1 } },
+          ...continuumTrace,
+          marks("present"),
+          marks("possible"),
+          {
+            type: "scatter",
+            mode: "markers",
+            name: "Unexplained peak",
+            x: unexplainedNm,
+            y: unexplainedNm.map((nm) => countsAt(shown, nm)),
+            marker: { symbol: "circle-open", size: 9, color: SERIES.marks },
+            hovertemplate: "unexplained peak<br>%{x:.3f} nm<extra></extra>",
+          },
+        ]}
+        layout={{
+          xaxis: { title: { text: "Wavelength (nm, air)" } },
+          yaxis: { title: { text: removed ? "Counts above the continuum" : "Counts" } },
+          // Keep the chemist's zoom when switching views.
+          uirevision: "run-spectrum",
+        }}
+      />
+    </div>
+  );
+}
+
+/** A Boltzmann plot: ln(Iλ/gA) against the upper-level energy, with the fitted line. */
+export function BoltzmannChart({
+  points,
+  temperatureK,
+}: {
+  points: { upperEv: number; y: number; wavelengthNm: number }[];
+  temperatureK: number;
+}) {
+  // Slope −1/kT through the points' centroid: the line the fit found (same slope, least squares passes the centroid).
+  const slope = -1 / (BOLTZMANN_CONSTANT_EV_PER_K * temperatureK);
+  const meanX = points.reduce((s, p) => s + p.upperEv, 0) / points.length;
+  const meanY = points.reduce((s, p) => s + p.y, 0) / points.length;
+  const xs = [Math.min(...points.map((p) => p.upperEv)), Math.max(...points.map((p) => p.upperEv))];
   return (
     <Chart
-      title="Calibrated sample spectrum with the identified lines labelled"
-      fileName="run-spectrum"
-      height={420}
+      title="Boltzmann plot of the lines used for the temperature"
+      fileName="boltzmann-plot"
+      height={240}
       data={[
-        { type: "scatter", mode: "lines", name: "Sample counts", x: spectrum.x, y: spectrum.y, line: { color: SERIES.spectrum, width: 1 } },
-        marks("present"),
-        marks("possible"),
         {
           type: "scatter",
           mode: "markers",
-          name: "Unexplained peak",
-          x: unexplainedNm,
-          y: unexplainedNm.map((nm) => countsAt(spectrum, nm)),
-          marker: { symbol: "circle-open", size: 9, color: SERIES.marks },
-          hovertemplate: "unexplained peak<br>%{x:.3f} nm<extra></extra>",
+          name: "Line",
+          x: points.map((p) => p.upperEv),
+          y: points.map((p) => p.y),
+          text: points.map((p) => `${p.wavelengthNm.toFixed(3)} nm`),
+          marker: { symbol: "circle", size: 8, color: SERIES.spectrum },
+          hovertemplate: "%{text}<br>E = %{x:.3f} eV<br>ln(Iλ/gA) = %{y:.3f}<extra></extra>",
+        },
+        {
+          type: "scatter",
+          mode: "lines",
+          name: "Fit",
+          x: xs,
+          y: xs.map((x) => meanY + slope * (x - meanX)),
+          line: { color: SERIES.marks, width: 1, dash: "dash" },
+          hoverinfo: "skip",
         },
       ]}
-      layout={{ xaxis: { title: { text: "Wavelength (nm, air)" } }, yaxis: { title: { text: "Counts" } } }}
+      layout={{ xaxis: { title: { text: "Upper-level energy (eV)" } }, yaxis: { title: { text: "ln(I·λ / g·A)" } } }}
     />
   );
 }

@@ -1,5 +1,7 @@
-// A run's calls with their evidence (verdict in words and a shape, score, lines seen with Δλ, strong
-// lines expected but missing, overlaps) and its peak table.
+// A run's calls with their evidence (the standing verdict in words and a shape, an override marked
+// with who, why, when and the computed verdict, score, lines seen with Δλ, strong lines expected but
+// missing, overlaps) and its peak table.
+import type { ReactNode } from "react";
 import type { RunCall, RunPeak } from "@/lib/services/workflow-types";
 
 const VERDICT = {
@@ -20,7 +22,29 @@ export function VerdictBadge({ verdict }: { verdict: RunCall["verdict"] }) {
 
 const ORDER = { present: 0, possible: 1, absent: 2 } as const;
 
-export function CallEvidence({ calls }: { calls: RunCall[] }) {
+/** "Overridden by … on …: reason (computed: …)", for a call whose verdict a chemist changed. */
+export function OverrideNote({ call }: { call: RunCall }) {
+  const o = call.override;
+  if (!o) return null;
+  return (
+    <p className="mt-2 rounded border border-dashed border-ember-600 px-2 py-1 text-xs" data-testid="override-note">
+      <span className="font-semibold">
+        <span aria-hidden>✎ </span>Overridden
+      </span>{" "}
+      by {o.byName ?? "a former member"} on {o.at.slice(0, 16).replace("T", " ")} UTC: “{o.reason}” · computed verdict:{" "}
+      <VerdictBadge verdict={call.computedVerdict} />
+    </p>
+  );
+}
+
+export function CallEvidence({
+  calls,
+  overrideFormFor,
+}: {
+  calls: RunCall[];
+  /** The override form of one call, when the viewer may override (the run's author, while editable). */
+  overrideFormFor?: (call: RunCall) => ReactNode;
+}) {
   if (calls.length === 0) return <p className="muted text-sm">No element was a candidate for any peak.</p>;
   const sorted = [...calls].sort((a, b) => ORDER[a.verdict] - ORDER[b.verdict] || b.score - a.score);
   const called = sorted.filter((c) => c.verdict !== "absent");
@@ -35,12 +59,18 @@ export function CallEvidence({ calls }: { calls: RunCall[] }) {
               {call.species}
             </span>
             <VerdictBadge verdict={call.verdict} />
+            {call.override ? (
+              <span className="text-xs font-semibold text-ember-800 dark:text-ember-200">
+                <span aria-hidden>✎ </span>overridden (computed: {call.computedVerdict})
+              </span>
+            ) : null}
             <span className="font-mono text-xs">score {call.score.toFixed(2)}</span>
             <span className="muted text-xs">
               {call.seenCount} seen · {call.missingCount} missing ({call.missingStrongCount} strong) · intensities: {call.intensityBasis}
             </span>
           </summary>
           <p className="mt-2 text-sm">{call.rationale}</p>
+          <OverrideNote call={call} />
           <div className="mt-2 grid gap-3 md:grid-cols-2">
             <table className="text-sm">
               <caption className="text-left text-xs font-semibold">Lines seen</caption>
@@ -114,15 +144,16 @@ export function CallEvidence({ calls }: { calls: RunCall[] }) {
               ))}
             </ul>
           ) : null}
+          {overrideFormFor ? overrideFormFor(call) : null}
         </details>
       ))}
-      {absent.length > 0 ? <AbsentCalls calls={absent} /> : null}
+      {absent.length > 0 ? <AbsentCalls calls={absent} overrideFormFor={overrideFormFor} /> : null}
     </div>
   );
 }
 
 /** Species weighed and called absent: one compact table, since most of a table's elements end here. */
-function AbsentCalls({ calls }: { calls: RunCall[] }) {
+function AbsentCalls({ calls, overrideFormFor }: { calls: RunCall[]; overrideFormFor?: (call: RunCall) => ReactNode }) {
   return (
     <details className="panel p-3" data-testid="absent-calls">
       <summary className="cursor-pointer text-sm">
@@ -143,11 +174,18 @@ function AbsentCalls({ calls }: { calls: RunCall[] }) {
         <tbody className="text-xs">
           {calls.map((c) => (
             <tr key={c.species} className="border-t border-[var(--line)]">
-              <td className="pr-3 font-semibold">{c.species}</td>
+              <td className="pr-3 font-semibold">
+                {c.species}
+                {c.override ? <span className="block font-normal text-ember-800 dark:text-ember-200">✎ overridden (computed: {c.computedVerdict})</span> : null}
+              </td>
               <td className="pr-3 text-right font-mono">{c.score.toFixed(2)}</td>
               <td className="pr-3 text-right font-mono">{c.seenCount}</td>
               <td className="pr-3 text-right font-mono">{c.missingStrongCount}</td>
-              <td className="muted">{c.rationale}</td>
+              <td>
+                <span className="muted">{c.rationale}</span>
+                <OverrideNote call={c} />
+                {overrideFormFor ? overrideFormFor(c) : null}
+              </td>
             </tr>
           ))}
         </tbody>

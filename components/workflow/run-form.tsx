@@ -217,7 +217,7 @@ function RunFormFields({
             inputMode="decimal"
             defaultValue={state.values?.temperatureK}
             errors={e["settings.temperatureK"]}
-            hint="Stored with the run."
+            hint="Expected intensities follow LTE at this temperature where the table has g, A and upper energies."
           />
         </div>
       </details>

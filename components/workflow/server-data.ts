@@ -1,13 +1,13 @@
 // Server-side helpers of the workflow pages: a service's not-found becomes the page's not-found, and
-// a stored spectrum becomes a chart series (thinned for the browser, on the calibrated axis for runs).
+// the plain points a service returns become a chart series (thinned by a pure helper for the browser).
 import "server-only";
 import { notFound } from "next/navigation";
 import type { Actor } from "@/lib/auth/actor";
 import { AppError } from "@/lib/errors";
-import { evaluateStoredCalibration } from "@/lib/services/calibrations";
-import { loadSpectrum, spectrumPoints } from "@/lib/services/spectra";
+import { fetchRunSpectrum, fetchSpectrumPoints } from "@/lib/services/run-spectrum";
 import type { AxisUnit } from "@/lib/spectrum/types";
 import type { SpectrumSeries } from "@/components/charts/spectrum-charts";
+import { thinSeries } from "@/components/charts/thin-series";
 
 export async function orNotFound<T>(promise: Promise<T>): Promise<T> {
   try {
@@ -24,50 +24,18 @@ export function idOrNotFound(value: string | undefined): string {
   return value;
 }
 
-/** Most points a chart is sent; beyond it each bucket keeps its lowest and highest count, so no peak is lost. */
-const MAX_CHART_POINTS = 8000;
-
-function thinned(x: Float64Array, y: Float64Array): SpectrumSeries {
-  if (x.length <= MAX_CHART_POINTS) return { x: Array.from(x), y: Array.from(y) };
-  const bucket = Math.ceil((2 * x.length) / MAX_CHART_POINTS);
-  const out: SpectrumSeries = { x: [], y: [] };
-  for (let start = 0; start < x.length; start += bucket) {
-    let lo = start;
-    let hi = start;
-    for (let i = start; i < Math.min(x.length, start + bucket); i++) {
-      if (y[i] < y[lo]) lo = i;
-      if (y[i] > y[hi]) hi = i;
-    }
-    for (const i of lo < hi ? [lo, hi] : lo === hi ? [lo] : [hi, lo]) {
-      out.x.push(x[i]);
-      out.y.push(y[i]);
-    }
-  }
-  return out;
-}
-
-/** A spectrum's points as they were uploaded (its own x axis). */
+/** A spectrum's points as they were uploaded (its own x axis), thinned for the browser. */
 export async function rawSeries(actor: Actor, spectrumId: string): Promise<SpectrumSeries> {
-  const { x, y } = spectrumPoints(await orNotFound(loadSpectrum(actor, spectrumId)));
-  return thinned(x, y);
+  const { x, y } = await orNotFound(fetchSpectrumPoints(actor, spectrumId));
+  const thin = thinSeries(x, y);
+  return { x: thin.x, y: thin.y };
 }
 
-/** A sample on the wavelength axis its run used: the calibration's, or else the file's own axis in nm. */
-export async function calibratedSeries(
-  actor: Actor,
-  spectrumId: string,
-  calibrationId: string | null,
-  xUnit: AxisUnit,
-): Promise<SpectrumSeries> {
-  const raw = await rawSeries(actor, spectrumId);
-  if (calibrationId) {
-    const { wavelengthsNm } = await evaluateStoredCalibration(actor, calibrationId, raw.x);
-    const kept = wavelengthsNm.map((nm, i) => [nm, raw.y[i]] as const).filter(([nm]) => nm !== null) as [number, number][];
-    return { x: kept.map(([nm]) => nm), y: kept.map(([, y]) => y) };
-  }
-  // No calibration: the file carries its own axis (the run marks it "not lamp-checked").
-  const toNm = xUnit === "angstrom" ? (v: number) => v / 10 : xUnit === "wavenumber" ? (v: number) => 1e7 / v : (v: number) => v;
-  return { x: raw.x.map(toNm), y: raw.y };
+/** A run's sample on the axis the run used, with the continuum it removed, thinned for the browser. */
+export async function runSeries(actor: Actor, runId: string): Promise<{ spectrum: SpectrumSeries; continuum: number[] | null }> {
+  const { wavelengthNm, counts, continuum } = await orNotFound(fetchRunSpectrum(actor, runId));
+  const thin = thinSeries(wavelengthNm, counts, continuum ? { continuum } : {});
+  return { spectrum: { x: thin.x, y: thin.y }, continuum: thin.companions.continuum ?? null };
 }
 
 export const X_TITLES: Record<AxisUnit, string> = {

@@ -39,7 +39,7 @@ export function formatNotebookCallsCsv(runs: readonly NotebookCallsRun[]): strin
         call.species,
         call.element,
         run.verdicts[call.species] ?? call.verdict,
-        call.verdict,
+        call.computedVerdict,
         newest?.reason ?? "",
         call.score,
         call.seenCount,

@@ -139,7 +139,7 @@ export function buildRunReport(input: RunReportInput): RunReport {
       species: call.species,
       element: call.element,
       verdict: run.verdicts[call.species] ?? call.verdict,
-      computedVerdict: call.verdict,
+      computedVerdict: call.computedVerdict,
       override: o ? { verdict: o.verdict, reason: o.reason, byName: o.byName, at: o.at } : null,
       score: call.score,
       seenCount: call.seenCount,

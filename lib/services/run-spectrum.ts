@@ -22,11 +22,26 @@ export function fileAxisInNm(spectrum: SpectrumFile): { x: Float64Array; y: Floa
   return { x: inNm.x, y: inNm.y };
 }
 
+/** A stored spectrum's points on its own axis, as plain arrays (for previews of uploads and lamps). */
+export async function fetchSpectrumPoints(actor: Actor, spectrumId: string): Promise<{ x: Float64Array; y: Float64Array }> {
+  return spectrumPoints(await loadSpectrum(actor, spectrumId));
+}
+
 export interface RunSpectrum {
   /** Ascending wavelengths in nm (air above 200 nm when lamp-calibrated or the medium is known). */
   wavelengthNm: Float64Array;
   counts: Float64Array;
+  /** The continuum the analysis removed, on the same points; null for a run stored without one. */
+  continuum: Float64Array | null;
   lampChecked: boolean;
+}
+
+/** The stored continuum (little-endian float64, one per analysed point); null when absent or of another length. */
+function storedContinuum(bytes: Buffer | null, points: number): Float64Array | null {
+  if (!bytes || bytes.length !== points * 8) return null;
+  const out = new Float64Array(points);
+  for (let i = 0; i < points; i++) out[i] = bytes.readDoubleLE(i * 8);
+  return out;
 }
 
 export async function fetchRunSpectrum(actor: Actor, runId: string): Promise<RunSpectrum> {
@@ -34,20 +49,25 @@ export async function fetchRunSpectrum(actor: Actor, runId: string): Promise<Run
   const spectrum = await loadSpectrum(actor, run.spectrumId);
   let x: Float64Array;
   let y: Float64Array;
+  let continuum: Float64Array | null;
   if (run.calibrationId) {
     const calibration = (await Calibration.findByPk(run.calibrationId))!;
     const points = spectrumPoints(spectrum);
     const nm = evaluateCalibration(calibration.model, points.x);
     const keep: number[] = [];
     for (let i = 0; i < nm.length; i++) if (Number.isFinite(nm[i])) keep.push(i);
+    const analysed = storedContinuum(run.continuum, points.x.length);
     x = Float64Array.from(keep, (i) => nm[i]);
     y = Float64Array.from(keep, (i) => points.y[i]);
+    continuum = analysed ? Float64Array.from(keep, (i) => analysed[i]) : null;
   } else {
     ({ x, y } = fileAxisInNm(spectrum));
+    continuum = storedContinuum(run.continuum, x.length);
   }
   if (x.length > 1 && x[0] > x[x.length - 1]) {
     x = x.slice().reverse();
     y = y.slice().reverse();
+    continuum = continuum ? continuum.slice().reverse() : null;
   }
-  return { wavelengthNm: x, counts: y, lampChecked: run.lampChecked };
+  return { wavelengthNm: x, counts: y, continuum, lampChecked: run.lampChecked };
 }

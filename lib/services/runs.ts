@@ -6,20 +6,32 @@ import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
 import { toReferenceLine } from "@/lib/lines";
-import { analyzeSample } from "@/lib/spectrum/analysis";
+import { analyzeSample, type SampleAnalysis } from "@/lib/spectrum/analysis";
+import { dispersionAt, type CalibrationModel } from "@/lib/spectrum/calibration";
 import { prepareLineIndex, type ElementCall, type LineIndex, type Verdict } from "@/lib/spectrum/matching";
+import type { RunNotesInput, RunOverrideInput } from "@/lib/validation/run-schemas";
 import type { RunCreateInput } from "@/lib/validation/workflow-schemas";
 import type { Transaction } from "sequelize";
-import { Calibration, Instrument, Run, RunOverride, User, sequelize } from "@/models";
+import { Calibration, Instrument, LineRelease, Notebook, Run, RunOverride, SpectrumFile, User, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import { newestPublishedRelease } from "./calibrations";
 import { latestCalibrationOf } from "./instruments";
 import { selectLines } from "./line-library-access";
 import { toLineTableRow } from "./line-library-rows";
 import { loadNotebook } from "./notebooks";
+import { assertAuthorMayEdit, loadRun } from "./run-lifecycle";
 import { fileAxisInNm } from "./run-spectrum";
 import { loadSpectrum, spectrumPoints } from "./spectra";
-import { SOFTWARE_VERSION, type RunCall, type RunOverrideRecord, type RunPeak, type RunRecord, type RunTemperature } from "./workflow-types";
+import {
+  SOFTWARE_VERSION,
+  type RunCall,
+  type RunChanges,
+  type RunOverrideRecord,
+  type RunPeak,
+  type RunRecord,
+  type RunTemperature,
+  type StoredRunCall,
+} from "./workflow-types";
 
 // Published releases never change, so an index prepared once per release serves every later run.
 const indexCache = new Map<string, Promise<LineIndex>>();
@@ -38,7 +50,7 @@ function lineIndexOf(releaseId: string): Promise<LineIndex> {
   return index;
 }
 
-function toRunCall(call: ElementCall): RunCall {
+function toRunCall(call: ElementCall): StoredRunCall {
   return {
     species: call.species,
     element: call.element,
@@ -90,7 +102,7 @@ async function overridesOf(runId: string, transaction?: Transaction): Promise<Ru
 }
 
 /** The verdict that stands per species: the newest override, else the computed verdict. */
-export function standingVerdicts(calls: readonly RunCall[], overrides: readonly RunOverrideRecord[]): Record<string, Verdict> {
+export function standingVerdicts(calls: readonly StoredRunCall[], overrides: readonly RunOverrideRecord[]): Record<string, Verdict> {
   const verdicts: Record<string, Verdict> = {};
   for (const call of calls) verdicts[call.species] = call.verdict;
   for (const o of overrides) {
@@ -101,14 +113,28 @@ export function standingVerdicts(calls: readonly RunCall[], overrides: readonly 
 }
 
 export async function toRunRecord(row: Run, transaction?: Transaction): Promise<RunRecord> {
-  const calls = row.calls as RunCall[];
-  const overrides = await overridesOf(row.id, transaction);
+  const stored = row.calls as StoredRunCall[];
+  const [overrides, release] = await Promise.all([
+    overridesOf(row.id, transaction),
+    LineRelease.findByPk(row.lineReleaseId, { attributes: ["number"], transaction }),
+  ]);
+  const verdicts = standingVerdicts(stored, overrides);
+  const calls: RunCall[] = stored.map((c) => {
+    const newest = overrides.findLast((o) => o.species === c.species) ?? null;
+    return {
+      ...c,
+      verdict: verdicts[c.species] ?? c.verdict,
+      computedVerdict: c.verdict,
+      override: newest && newest.verdict !== null ? newest : null,
+    };
+  });
   return {
     id: row.id,
     notebookId: row.notebookId,
     spectrumId: row.spectrumId,
     calibrationId: row.calibrationId,
     lineReleaseId: row.lineReleaseId,
+    lineReleaseNumber: release?.number ?? null,
     source: row.source,
     status: row.status,
     versionNumber: row.versionNumber,
@@ -116,6 +142,7 @@ export async function toRunRecord(row: Run, transaction?: Transaction): Promise<
     rerunOfId: row.rerunOfId,
     createdById: row.createdById,
     notes: row.notes,
+    lockVersion: row.lockVersion,
     reviewRound: row.reviewRound,
     requestedReviewerId: row.requestedReviewerId,
     submittedAt: row.submittedAt?.toISOString() ?? null,
@@ -128,7 +155,7 @@ export async function toRunRecord(row: Run, transaction?: Transaction): Promise<
     warnings: row.warnings as RunRecord["warnings"],
     peaks: row.peaks as RunPeak[],
     calls,
-    verdicts: standingVerdicts(calls, overrides),
+    verdicts,
     overrides,
     temperature: (row.temperature as RunTemperature | null) ?? null,
     unexplained: row.unexplained as RunRecord["unexplained"],
@@ -173,22 +200,126 @@ export async function createRun(actor: Actor, input: RunCreateInput): Promise<Ru
       );
     }
   }
-
   const release = await newestPublishedRelease(notebook.teamId);
+  return await analyseAndStore(actor, {
+    notebook,
+    spectrum,
+    instrument,
+    calibration,
+    release,
+    source: input.source,
+    settings: input.settings ?? {},
+    rerunOf: null,
+  });
+}
+
+/**
+ * A new run of an earlier run's sample (same notebook, spectrum, calibration, source and settings)
+ * against the team's newest published release; 422 when the earlier run already used it.
+ */
+export async function rerunRun(actor: Actor, runId: string): Promise<RunRecord> {
+  const earlier = await loadRun(actor, runId, "run.create");
+  const notebook = (await Notebook.findByPk(earlier.notebookId))!;
+  const spectrum = (await SpectrumFile.findByPk(earlier.spectrumId))!;
+  const instrument = (await Instrument.findByPk(spectrum.instrumentId))!;
+  const calibration = earlier.calibrationId ? await Calibration.findByPk(earlier.calibrationId) : null;
+  const [release, used] = await Promise.all([
+    newestPublishedRelease(earlier.teamId),
+    LineRelease.findByPk(earlier.lineReleaseId, { attributes: ["number"] }),
+  ]);
+  if (release.id === earlier.lineReleaseId || (used?.number ?? 0) >= release.number) {
+    throw new AppError(
+      "unprocessable",
+      `This run already used line-table release ${used?.number ?? release.number}, the team's newest: there is nothing newer to run it against.`,
+    );
+  }
+  return await analyseAndStore(actor, {
+    notebook,
+    spectrum,
+    instrument,
+    calibration,
+    release,
+    source: earlier.source,
+    settings: earlier.settings as RunRecord["settings"],
+    rerunOf: earlier,
+  });
+}
+
+/** The team's newest published release when it is newer than the one the run used, else null. */
+export async function newerReleaseFor(actor: Actor, runId: string): Promise<{ id: string; number: number } | null> {
+  const run = await loadRun(actor, runId);
+  const [newest, used] = await Promise.all([
+    newestPublishedRelease(run.teamId),
+    LineRelease.findByPk(run.lineReleaseId, { attributes: ["number"] }),
+  ]);
+  return newest.id !== run.lineReleaseId && newest.number > (used?.number ?? 0) ? newest : null;
+}
+
+/**
+ * The instrument's resolution for the analysis. A grating's is about constant in nm. A prism's slit
+ * image is about constant in pixels while its dispersion changes several-fold across the array, so
+ * the instrument's one number (its FWHM near the middle) becomes pixels through the calibration's
+ * local dispersion there; each peak then gets its own width in nm from the dispersion at its pixel.
+ * A prism on the file's own axis has no known pixel layout: the core then uses each peak's width.
+ */
+function instrumentResolution(
+  instrument: Instrument,
+  calibration: CalibrationModel | null,
+  x: Float64Array,
+): { resolutionNm?: number; resolutionPx?: number } {
+  if (instrument.dispersion === "grating") return { resolutionNm: instrument.resolutionNm };
+  if (!calibration || x.length < 2) return {};
+  const slope = Math.abs(dispersionAt(calibration, Float64Array.of(0.5 * (x[0] + x[x.length - 1])))[0]);
+  return slope > 0 && Number.isFinite(slope) ? { resolutionPx: instrument.resolutionNm / slope } : {};
+}
+
+/** The continuum as little-endian float64, one value per analysed point. */
+function continuumBytes(continuum: Float64Array): Buffer {
+  const bytes = Buffer.alloc(continuum.length * 8);
+  for (let i = 0; i < continuum.length; i++) bytes.writeDoubleLE(continuum[i], i * 8);
+  return bytes;
+}
+
+function toRunTemperature(temperature: SampleAnalysis["temperature"]): RunTemperature {
+  return temperature.ok
+    ? {
+        ok: true,
+        species: temperature.species,
+        temperatureK: temperature.temperatureK,
+        temperatureUncertaintyK: temperature.temperatureUncertaintyK,
+        lineCount: temperature.lineCount,
+        rSquared: temperature.rSquared,
+        points: temperature.points,
+      }
+    : { ok: false, message: temperature.message };
+}
+
+interface RunPlan {
+  notebook: Notebook;
+  spectrum: SpectrumFile;
+  instrument: Instrument;
+  calibration: Calibration | null;
+  release: { id: string; number: number };
+  source: RunCreateInput["source"];
+  settings: RunRecord["settings"];
+  rerunOf: Run | null;
+}
+
+async function analyseAndStore(actor: Actor, plan: RunPlan): Promise<RunRecord> {
+  const { notebook, spectrum, instrument, calibration, release, source, settings, rerunOf } = plan;
   const index = await lineIndexOf(release.id);
   // Without a calibration the file's own wavelength axis is used, in nm and (when known) in air.
   const { x, y } = calibration ? spectrumPoints(spectrum) : fileAxisInNm(spectrum);
-  const settings = input.settings ?? {};
-  let analysis;
+  let analysis: SampleAnalysis;
   try {
     analysis = analyzeSample(x, y, index, {
       calibration: calibration?.model ?? null,
-      source: input.source,
-      // A prism's resolution in nm varies across the array: each peak's own width stands in for it.
-      resolutionNm: instrument.dispersion === "grating" ? instrument.resolutionNm : undefined,
+      source,
+      ...instrumentResolution(instrument, calibration?.model ?? null, x),
       detectorMax: instrument.detectorMax ?? undefined,
       minSnr: settings.minSnr,
       k: settings.k,
+      lteTemperatureK: settings.temperatureK,
     });
   } catch (error) {
     if (error instanceof RangeError) throw new AppError("unprocessable", `The sample could not be analysed: ${error.message}`);
@@ -226,6 +357,7 @@ export async function createRun(actor: Actor, input: RunCreateInput): Promise<Ru
     snr: u.peak.snr,
     reason: u.reason,
   }));
+  const temperature = toRunTemperature(analysis.temperature);
 
   return sequelize.transaction(async (transaction) => {
     const row = await Run.create(
@@ -235,7 +367,7 @@ export async function createRun(actor: Actor, input: RunCreateInput): Promise<Ru
         spectrumId: spectrum.id,
         calibrationId: calibration?.id ?? null,
         lineReleaseId: release.id,
-        source: input.source,
+        source,
         status: "draft",
         settings,
         lampChecked: analysis.lampChecked,
@@ -249,6 +381,9 @@ export async function createRun(actor: Actor, input: RunCreateInput): Promise<Ru
         peakOverlaps: overlaps,
         unexplained,
         warnings: analysis.warnings,
+        temperature,
+        continuum: continuumBytes(analysis.continuum),
+        rerunOfId: rerunOf?.id ?? null,
         createdById: actor.id,
       },
       { transaction },
@@ -257,21 +392,134 @@ export async function createRun(actor: Actor, input: RunCreateInput): Promise<Ru
       {
         actorId: actor.id,
         teamId: notebook.teamId,
-        action: "run.create",
+        action: rerunOf ? "run.rerun" : "run.create",
         entity: "run",
         entityId: row.id,
+        before: rerunOf ? { runId: rerunOf.id, lineReleaseId: rerunOf.lineReleaseId } : undefined,
         after: {
           notebookId: notebook.id,
           spectrumId: spectrum.id,
           calibrationId: calibration?.id ?? null,
           lineReleaseId: release.id,
-          source: input.source,
+          lineReleaseNumber: release.number,
+          source,
           settings,
+          rerunOfId: rerunOf?.id ?? null,
           present: calls.filter((c) => c.verdict === "present").map((c) => c.species),
+          temperatureK: temperature.ok ? temperature.temperatureK : null,
         },
       },
       transaction,
     );
     return await toRunRecord(row, transaction);
   });
+}
+
+/**
+ * Overrides one call with a reason (verdict null withdraws the standing override): appended to the
+ * run's overrides with the computed verdict, audited with the standing verdict before and after.
+ * Only the run's author, only while it is a draft or returned.
+ */
+export async function overrideCall(actor: Actor, runId: string, input: RunOverrideInput): Promise<RunRecord> {
+  return sequelize.transaction(async (transaction) => {
+    const run = await loadRun(actor, runId, "run.edit", transaction);
+    assertAuthorMayEdit(actor, run);
+    const calls = run.calls as StoredRunCall[];
+    const call = calls.find((c) => c.species === input.species);
+    if (!call) {
+      throw new AppError("validation", `This run has no call for ${input.species}.`, {
+        fieldErrors: { species: [`Choose one of the run's species (${calls.length} weighed).`] },
+      });
+    }
+    const overrides = await overridesOf(run.id, transaction);
+    const before = standingVerdicts(calls, overrides)[call.species];
+    const newest = overrides.findLast((o) => o.species === call.species);
+    if (input.verdict === null && (!newest || newest.verdict === null)) {
+      throw new AppError("validation", `The call for ${call.species} has no override to withdraw.`, {
+        fieldErrors: { verdict: ["Choose a verdict: there is no override to withdraw."] },
+      });
+    }
+    await RunOverride.create(
+      {
+        runId: run.id,
+        species: call.species,
+        computedVerdict: call.verdict,
+        verdict: input.verdict,
+        reason: input.reason,
+        createdById: actor.id,
+      },
+      { transaction },
+    );
+    await recordAudit(
+      {
+        actorId: actor.id,
+        teamId: run.teamId,
+        action: "run.override",
+        entity: "run",
+        entityId: run.id,
+        before: { species: call.species, verdict: before },
+        after: { species: call.species, verdict: input.verdict ?? call.verdict, override: input.verdict, computedVerdict: call.verdict },
+        reason: input.reason,
+      },
+      transaction,
+    );
+    return await toRunRecord(run, transaction);
+  });
+}
+
+/** Saves the run's notes when `lockVersion` is the one stored (else 409); author only, while editable. */
+export async function updateRunNotes(actor: Actor, runId: string, input: RunNotesInput): Promise<RunRecord> {
+  return sequelize.transaction(async (transaction) => {
+    const run = await loadRun(actor, runId, "run.edit", transaction);
+    assertAuthorMayEdit(actor, run);
+    if (run.lockVersion !== input.lockVersion) {
+      throw new AppError("conflict", "The notes were changed since you opened them: reload the run, then write your change again.");
+    }
+    if (run.notes === input.notes) return await toRunRecord(run, transaction);
+    const before = run.notes;
+    await run.update({ notes: input.notes, lockVersion: run.lockVersion + 1 }, { transaction });
+    await recordAudit(
+      {
+        actorId: actor.id,
+        teamId: run.teamId,
+        action: "run.notes",
+        entity: "run",
+        entityId: run.id,
+        before: { notes: before, lockVersion: input.lockVersion },
+        after: { notes: input.notes, lockVersion: run.lockVersion },
+      },
+      transaction,
+    );
+    return await toRunRecord(run, transaction);
+  });
+}
+
+/** Same peak on the same axis: the runs share the spectrum and calibration, so centres agree to rounding. */
+const samePeak = (a: number, b: number) => Math.abs(a - b) < 1e-6;
+
+/** What changed from the run a re-run repeats to the re-run; null when the run is no re-run. */
+export async function fetchRunChanges(actor: Actor, run: RunRecord): Promise<RunChanges | null> {
+  if (!run.rerunOfId) return null;
+  const earlier = await fetchRun(actor, run.rerunOfId);
+  const before = new Map(earlier.calls.map((c) => [c.species, c]));
+  const after = new Map(run.calls.map((c) => [c.species, c]));
+  const changedCalls: RunChanges["changedCalls"] = [];
+  for (const [species, now] of after) {
+    const then = before.get(species);
+    if (then && (then.verdict !== now.verdict || Math.abs(then.score - now.score) >= 0.005)) {
+      changedCalls.push({ species, before: { verdict: then.verdict, score: then.score }, after: { verdict: now.verdict, score: now.score } });
+    }
+  }
+  const unexplainedThen = earlier.unexplained.map((u) => u.wavelengthNm);
+  const unexplainedNow = run.unexplained.map((u) => u.wavelengthNm);
+  return {
+    earlierRunId: earlier.id,
+    earlierReleaseNumber: earlier.lineReleaseNumber,
+    releaseNumber: run.lineReleaseNumber,
+    changedCalls,
+    newSpecies: run.calls.filter((c) => !before.has(c.species)).map((c) => ({ species: c.species, verdict: c.verdict })),
+    goneSpecies: earlier.calls.filter((c) => !after.has(c.species)).map((c) => ({ species: c.species, verdict: c.verdict })),
+    newlyExplainedNm: unexplainedThen.filter((nm) => !unexplainedNow.some((n) => samePeak(n, nm))),
+    newlyUnexplainedNm: unexplainedNow.filter((nm) => !unexplainedThen.some((n) => samePeak(n, nm))),
+  };
 }

@@ -127,7 +127,8 @@ export interface RunPeak {
   blended: boolean;
 }
 
-export interface RunCall {
+/** One call as the analysis stored it (`verdict` is the computed one). */
+export interface StoredRunCall {
   species: string;
   element: string;
   verdict: Verdict;
@@ -141,6 +142,14 @@ export interface RunCall {
   intensityBasis: string;
   notes: string[];
   rationale: string;
+}
+
+/** One call as pages and the API see it: `verdict` is the standing verdict (the newest override's
+ * when one applies), `computedVerdict` what the analysis found, `override` the override that
+ * stands (null when there is none or the newest one was withdrawn). */
+export interface RunCall extends StoredRunCall {
+  computedVerdict: Verdict;
+  override: RunOverrideRecord | null;
 }
 
 /** The newest override of one call: the verdict the chemist chose (null: withdrawn) and why. */
@@ -186,6 +195,10 @@ export interface RunRecord {
   requestedReviewerId: string | null;
   submittedAt: string | null;
   signedAt: string | null;
+  /** Optimistic lock for notes: PATCH sends the value it read; a stale one is refused (409). */
+  lockVersion: number;
+  /** The number of the line-table release the run used. */
+  lineReleaseNumber: number | null;
   settings: { minSnr?: number; k?: number; temperatureK?: number };
   lampChecked: boolean;
   softwareVersion: string;
@@ -193,7 +206,8 @@ export interface RunRecord {
   noiseCounts: number;
   warnings: { code: string; message: string }[];
   peaks: RunPeak[];
-  /** The calls as analysed; `verdict` in each is the computed verdict. */
+  /** The calls: `verdict` is the standing verdict, `computedVerdict` the analysis's, `override`
+   * the override that stands (null when none). */
   calls: RunCall[];
   /** Per species, the verdict that stands: the newest override's when there is one, else the computed one. */
   verdicts: Record<string, Verdict>;
@@ -202,6 +216,23 @@ export interface RunRecord {
   temperature: RunTemperature | null;
   unexplained: { wavelengthNm: number; height: number; snr: number; reason: string }[];
   createdAt: string;
+}
+
+/** What changed from an earlier run of the same sample to its re-run against a newer release. */
+export interface RunChanges {
+  earlierRunId: string;
+  earlierReleaseNumber: number | null;
+  releaseNumber: number | null;
+  /** Species in both runs whose standing verdict or score changed. */
+  changedCalls: { species: string; before: { verdict: Verdict; score: number }; after: { verdict: Verdict; score: number } }[];
+  /** Species the re-run weighs that the earlier run did not, with their verdict now. */
+  newSpecies: { species: string; verdict: Verdict }[];
+  /** Species the earlier run weighed that the re-run no longer does, with their verdict then. */
+  goneSpecies: { species: string; verdict: Verdict }[];
+  /** Peaks (nm) unexplained before that now have a candidate line. */
+  newlyExplainedNm: number[];
+  /** Peaks (nm) that had a candidate line before and are unexplained now. */
+  newlyUnexplainedNm: number[];
 }
 
 /** The software version stored with every calibration and run (package.json's version). */

@@ -1,12 +1,14 @@
 // The chemist's journey in Chromium: the lab lead adds a grating instrument through its form; the
 // chemist drops a synthetic Hg–Ar lamp file on the upload zone, calibrates, chooses a synthetic flame
 // file with the file picker, starts a flame run in a new notebook, and sees the labelled chart and the
-// calls. The files come from the integration tests' generator (known truth, nothing hard-coded here).
+// calls; then switches the chart to continuum-removed with the keyboard, overrides a call with a
+// reason and writes a note. The files come from the integration tests' generator (known truth, nothing hard-coded here).
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { SCREENSHOT_DIR, openBrowser, screenshot, type Session } from "./support/browser";
 import { SignInPage } from "./pages/sign-in-page";
 import { InstrumentsPage, RunPage, UploadZone, chartsDrawn } from "./pages/workflow-pages";
 import { PIXELS, RESOLUTION_NM, flameFile, lampFile, syntheticGrating } from "../integration/support/synthetic-files";
+import { LTE_FLAME_TEMPERATURE_K, lteCalciumFlame } from "../integration/support/lte-flame";
 
 const DEMO_PASSWORD = "emberline-demo";
 const LEAD = "lead@demo.emberline.example";
@@ -100,6 +102,60 @@ describe("the chemist's journey", () => {
     expect(await page.getByTestId("screening-notice").textContent()).toContain("A screening aid, not a certified analysis.");
     await screenshot(page, "chemist-5-run");
     await page.screenshot({ path: `${SCREENSHOT_DIR}/chemist-6-run-chart.png` });
+
+    // Raw / continuum-removed, from the keyboard: arrow keys move between the two views.
+    await page.getByRole("radio", { name: "Raw counts" }).focus();
+    await page.keyboard.press("ArrowRight");
+    expect(await page.getByRole("radio", { name: "Continuum removed" }).isChecked()).toBe(true);
+    await page.locator("[data-testid=chart] .ytitle", { hasText: "Counts above the continuum" }).waitFor();
+    await page.getByTestId("spectrum-view").scrollIntoViewIfNeeded();
+    await page.screenshot({ path: `${SCREENSHOT_DIR}/chemist-7-continuum-removed.png` });
+
+    // Override a call with a reason: the standing verdict changes and the override says who and why.
+    const potassium = run.calls.filter({ has: page.getByTestId("call-species").getByText("K I", { exact: true }) }).first();
+    await potassium.getByRole("button", { name: "Override this call" }).press("Enter");
+    const form = potassium.getByTestId("override-form");
+    await form.getByLabel("Verdict").selectOption("possible");
+    await form.getByLabel("Reason (required)").fill("Potassium from the glassware; blank shows it too.");
+    await form.getByRole("button", { name: "Save override" }).click();
+    await page.getByTestId("override-note").filter({ hasText: "blank shows it too" }).waitFor();
+    expect(await run.verdictOf("K I")).toBe("possible");
+    expect(await page.getByTestId("override-note").first().textContent()).toMatch(/Mara Quist.*computed verdict:.*present/);
+    await page.getByTestId("override-note").first().scrollIntoViewIfNeeded();
+    await screenshot(page, "chemist-8-override");
+
+    // Notes: Ctrl+Enter saves, and the indicator says so.
+    const notes = page.getByLabel("Notes", { exact: true });
+    await notes.fill("Loop cleaned in HCl between samples; K blank to be run tomorrow.");
+    expect(await page.getByTestId("notes-status").textContent()).toMatch(/Unsaved/);
+    await notes.press("Control+Enter");
+    await page.getByTestId("notes-status").filter({ hasText: /^Saved$/ }).waitFor();
+    await page.reload();
+    expect(await page.getByLabel("Notes", { exact: true }).inputValue()).toContain("K blank to be run tomorrow");
+    await page.getByTestId("notes-form").scrollIntoViewIfNeeded();
+    await screenshot(page, "chemist-9-notes");
+
+    // A calcium flame in LTE, run with its excitation temperature assumed: the page shows T ± σ and the plot.
+    await page.getByRole("link", { name: "Back to the notebook" }).click();
+    await page.waitForURL(/\/notebooks\/[0-9a-f-]{36}$/);
+    await page.getByRole("link", { name: new RegExp(`Upload a sample on E2E grating ${suffix}`) }).click();
+    await page.waitForURL(/\/upload/);
+    await zone.choose(`calcium-${suffix}.csv`, lteCalciumFlame(grating));
+    await zone.upload("sample", "Calcium, hot flame");
+    await page.getByRole("link", { name: `Flame screening ${suffix}` }).click();
+    await page.waitForURL(/\/notebooks\/.*spectrum=/);
+    await page.getByText("Analysis settings (optional; blank keeps the defaults)").click();
+    await page.getByLabel("Excitation temperature (K)").fill(String(LTE_FLAME_TEMPERATURE_K));
+    await page.getByRole("button", { name: "Start the run" }).click();
+    await page.waitForURL(/\/runs\/[0-9a-f-]{36}$/, { timeout: 60_000 });
+    await chartsDrawn(page);
+    const temperature = (await page.getByTestId("temperature").textContent()) ?? "";
+    const kelvin = Number(/(\d+) ± \d+ K/.exec(temperature)?.[1]);
+    // Within 5 % of the generator's temperature (the integration test states why).
+    expect(Math.abs(kelvin / LTE_FLAME_TEMPERATURE_K - 1), temperature).toBeLessThan(0.05);
+    expect(temperature).toContain("Ca I");
+    await page.getByTestId("temperature").scrollIntoViewIfNeeded();
+    await page.screenshot({ path: `${SCREENSHOT_DIR}/chemist-10-temperature.png` });
 
     await page.goto(new URL(page.url()).pathname.replace(/\/runs\/.*/, "/notebooks"));
     expect(browser.problems, browser.problems.join("\n")).toEqual([]);

@@ -8,10 +8,14 @@ import { evaluateCalibration } from "../calibration/evaluate-calibration";
 import { identifyElements, type ElementIdentification } from "../matching/identify-elements";
 import { prepareLineIndex, type LineIndex } from "../matching/prepare-line-index";
 import { pickPeaks, type PickPeaksOptions } from "../peaks/pick-peaks";
+import { binSamples } from "../signal/bin-samples";
+import { binningFactorFor } from "../signal/binning-factor-for";
 import { prepareSignal } from "../signal/prepare-signal";
 import type { CalibratedPeak, Peak, ReferenceLine, SourceKind } from "../types";
 import { calibratePeaks } from "./calibrate-peaks";
 import { estimateInstrumentFwhm, type EstimateInstrumentFwhmOptions } from "./estimate-instrument-fwhm";
+import { excitationTemperature, type ExcitationTemperature } from "./excitation-temperature";
+import { lteReferenceLines } from "./lte-reference-lines";
 
 export interface AnalyzeSampleOptions {
   /** The dispersion relation for the input axis; null when x already is a wavelength axis in nm.
@@ -48,6 +52,11 @@ export interface AnalyzeSampleOptions {
   k?: number;
   /** Further peak-picking settings. */
   peakOptions?: Omit<PickPeaksOptions, "minSnr">;
+  /** Excitation temperature in K the chemist assumes: where the table has g, A and upper-level
+   * energy for a species' lines, its expected relative intensities for `source` are the LTE
+   * prediction at this temperature instead of the table's values (see lteReferenceLines).
+   * @default undefined (the table's relative intensities) */
+  lteTemperatureK?: number;
 }
 
 export interface SampleAnalysis {
@@ -65,6 +74,14 @@ export interface SampleAnalysis {
   /** The instrument line width the analysis used, and where it came from; null when none was
    * known (the matching then falls back on each peak's own FWHM and nothing is flagged broad). */
   instrumentWidth: InstrumentWidth | null;
+  /** The continuum that was removed before peak finding, one value per input sample (interpolated
+   * back from the binned samples when the input was binned). */
+  continuum: Float64Array;
+  /** Samples averaged into one before peak finding (1: none). */
+  binningFactor: number;
+  /** The Boltzmann excitation temperature of the species called present with the most usable
+   * lines, or why there is none. */
+  temperature: ExcitationTemperature;
 }
 
 /** The instrument's line-profile FWHM used by an analysis. */
@@ -92,14 +109,27 @@ export function analyzeSample(
   if (resolutionPx !== undefined && !calibration) {
     throw new RangeError("resolutionPx needs a calibrated pixel axis; give resolutionNm for an axis already in nm");
   }
-  const signal = prepareSignal(x, y, { source, detectorMax });
-  const picked = pickPeaks(x, signal, { ...options.peakOptions, minSnr });
-  const instrumentWidth = resolveInstrumentWidth(x, picked, calibration, options);
+  const { lteTemperatureK } = options;
+  if (lteTemperatureK !== undefined && (!(lteTemperatureK > 0) || !Number.isFinite(lteTemperatureK))) {
+    throw new RangeError(`lteTemperatureK must be a positive finite number, got ${lteTemperatureK}`);
+  }
+  if (x.length !== y.length) throw new RangeError(`x and y differ in length (${x.length} vs ${y.length})`);
+  // A heavily oversampled array (a line thousands of samples wide) is averaged down to a few samples
+  // per line first, as calibrateLamp does: the smoothing window and the peak finder expect lines a
+  // few samples wide. Peak centres and widths stay on the input axis (binSamples keeps mean x).
+  const binningFactor = x.length > 1 ? binningFactorFor(lineWidthInSamples(x, calibration, options)) : 1;
+  const binned = binningFactor > 1 ? binSamples(x, y, { factor: binningFactor }) : { x, y };
+  const signal = prepareSignal(binned.x, binned.y, { source, detectorMax });
+  const picked = pickPeaks(binned.x, signal, { ...options.peakOptions, minSnr });
+  const instrumentWidth = resolveInstrumentWidth(binned.x, picked, calibration, options);
   const peaks = calibratePeaks(picked, { calibration, instrumentFwhm: instrumentWidth?.fwhm, broadFactor });
   const ends = Float64Array.of(x[0], x[x.length - 1]);
   const endsNm = calibration ? evaluateCalibration(calibration, ends) : ends;
   const rangeNm: [number, number] = [Math.min(endsNm[0], endsNm[1]), Math.max(endsNm[0], endsNm[1])];
-  const index = Array.isArray(lines) ? prepareLineIndex(lines as readonly ReferenceLine[]) : (lines as LineIndex);
+  let index = Array.isArray(lines) ? prepareLineIndex(lines as readonly ReferenceLine[]) : (lines as LineIndex);
+  if (lteTemperatureK !== undefined) {
+    index = prepareLineIndex(lteReferenceLines(index.lines, source, lteTemperatureK), { medium: index.medium });
+  }
   const identification = identifyElements(peaks, index, {
     k,
     resolutionNm,
@@ -109,6 +139,8 @@ export function analyzeSample(
     noiseCounts: signal.noiseProfile ? undefined : signal.noise,
   });
   const warnings: CalibrationWarning[] = calibration ? calibrationRangeWarnings(calibration, ends) : [];
+  const continuum = binningFactor > 1 ? interpolateOnto(binned.x, signal.continuum, x) : signal.continuum;
+  const temperature = excitationTemperature(identification.calls, peaks);
   return {
     peaks,
     identification,
@@ -117,7 +149,48 @@ export function analyzeSample(
     warnings,
     lampChecked: Boolean(calibration),
     instrumentWidth,
+    continuum,
+    binningFactor,
+    temperature,
   };
+}
+
+/**
+ * How many input samples one instrument line spans: from resolutionPx or resolutionNm when given,
+ * else (like calibrateLamp) a line a 500th of the array wide, the order of a small spectrometer's
+ * resolving power over its range (common practice).
+ */
+function lineWidthInSamples(x: Float64Array, calibration: CalibrationModel | null, options: AnalyzeSampleOptions): number {
+  const step = Math.abs(x[x.length - 1] - x[0]) / (x.length - 1);
+  const { resolutionNm, resolutionPx } = options;
+  if (calibration && resolutionPx !== undefined) return resolutionPx / step;
+  if (resolutionNm !== undefined) {
+    if (!calibration) return resolutionNm / step;
+    const slope = Math.abs(dispersionAt(calibration, Float64Array.of(0.5 * (x[0] + x[x.length - 1])))[0]);
+    if (slope > 0 && Number.isFinite(slope)) return resolutionNm / slope / step;
+  }
+  return (x.length - 1) / 500;
+}
+
+/** Linear interpolation of (fromX, fromY), fromX ascending, at each of `at` (held flat past the ends). */
+function interpolateOnto(fromX: Float64Array, fromY: Float64Array, at: Float64Array): Float64Array {
+  const out = new Float64Array(at.length);
+  let j = 0;
+  for (let i = 0; i < at.length; i++) {
+    const v = at[i];
+    if (v <= fromX[0]) {
+      out[i] = fromY[0];
+      continue;
+    }
+    if (v >= fromX[fromX.length - 1]) {
+      out[i] = fromY[fromY.length - 1];
+      continue;
+    }
+    while (fromX[j + 1] < v) j++;
+    const t = (v - fromX[j]) / (fromX[j + 1] - fromX[j]);
+    out[i] = fromY[j] + t * (fromY[j + 1] - fromY[j]);
+  }
+  return out;
 }
 
 /**

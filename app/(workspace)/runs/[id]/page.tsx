@@ -1,18 +1,27 @@
-// One identification run: the calibrated spectrum with the identified lines labelled, the calls with
-// their evidence, the peaks, the unexplained peaks, the run's warnings and what it was made from.
+// One identification run: the calibrated spectrum (raw or continuum-removed) with the identified lines
+// labelled, what changed since the run it repeats, the calls with their evidence and overrides, the
+// excitation temperature, the unexplained peaks, the peaks, the notes, the run's warnings and what it
+// was made from.
 import Link from "next/link";
 import { RunSpectrumChart, type LineLabel } from "@/components/charts/spectrum-charts";
 import { RunDownloads } from "@/components/reports/run-downloads";
 import { PageHeader } from "@/components/ui/page-header";
+import { RunChangesPanel } from "@/components/workflow/run-changes";
 import { CallEvidence, PeakTable } from "@/components/workflow/run-evidence";
+import { RunNotes } from "@/components/workflow/run-notes";
 import { FlameCautions, ScreeningNotice } from "@/components/workflow/run-notices";
-import { calibratedSeries, idOrNotFound, orNotFound } from "@/components/workflow/server-data";
+import { RunOverrideForm } from "@/components/workflow/run-override-form";
+import { RunRerunButton } from "@/components/workflow/run-rerun";
+import { RunTemperaturePanel } from "@/components/workflow/run-temperature";
+import { idOrNotFound, orNotFound, runSeries } from "@/components/workflow/server-data";
 import { fetchCalibration } from "@/lib/services/calibrations";
 import { fetchInstrument } from "@/lib/services/instruments";
-import { fetchRun } from "@/lib/services/runs";
+import { authorMayEdit } from "@/lib/services/run-lifecycle";
+import { fetchRun, fetchRunChanges, newerReleaseFor } from "@/lib/services/runs";
 import { fetchSpectrum } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { EntityTrail } from "@/components/audit/entity-trail";
+import { overrideCallAction, rerunAction, saveRunNotesAction } from "./actions";
 
 export const metadata = { title: "Run" };
 
@@ -20,11 +29,14 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
   const { actor } = await requireWorkspace();
   const run = await orNotFound(fetchRun(actor, idOrNotFound((await params).id)));
   const spectrum = await fetchSpectrum(actor, run.spectrumId);
-  const [instrument, calibration, series] = await Promise.all([
+  const [instrument, calibration, series, changes, newer] = await Promise.all([
     fetchInstrument(actor, spectrum.instrumentId),
     run.calibrationId ? fetchCalibration(actor, run.calibrationId) : Promise.resolve(null),
-    calibratedSeries(actor, run.spectrumId, run.calibrationId, spectrum.xUnit),
+    runSeries(actor, run.id),
+    fetchRunChanges(actor, run),
+    newerReleaseFor(actor, run.id).catch(() => null),
   ]);
+  const editable = authorMayEdit(actor, run);
   const called = run.calls.filter((c) => c.verdict !== "absent");
   // Species sharing a peak get one stacked label there, so their names do not print over each other.
   const byPeak = new Map<string, LineLabel>();
@@ -51,9 +63,12 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
         title={`Run: ${spectrum.label || spectrum.fileName}`}
         description={`${run.source} on ${instrument.name} · ${run.createdAt.slice(0, 16).replace("T", " ")} · ${run.peaks.length} peaks · called present: ${present.length ? present.join(", ") : "none"}`}
         actions={
-          <Link href={`/notebooks/${run.notebookId}`} className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800">
-            Back to the notebook
-          </Link>
+          <div className="flex flex-wrap items-start gap-2">
+            {newer ? <RunRerunButton releaseNumber={newer.number} action={rerunAction.bind(null, run.id)} /> : null}
+            <Link href={`/notebooks/${run.notebookId}`} className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800">
+              Back to the notebook
+            </Link>
+          </div>
         }
       />
       <div className="mb-3 flex flex-col gap-2">
@@ -84,12 +99,32 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
         ) : null}
         {run.source === "flame" ? <FlameCautions /> : null}
       </div>
-      <RunSpectrumChart spectrum={series} labels={labels} unexplainedNm={run.unexplained.map((u) => u.wavelengthNm)} />
-      <p className="muted mt-1 text-xs">
-        The chart shows the counts as recorded; the continuum-removed view is not stored with the run yet.
-      </p>
+      {changes ? <RunChangesPanel changes={changes} /> : null}
+      <h2 className="mb-2 mt-6 text-lg font-semibold">Spectrum</h2>
+      <RunSpectrumChart
+        spectrum={series.spectrum}
+        continuum={series.continuum}
+        labels={labels}
+        unexplainedNm={run.unexplained.map((u) => u.wavelengthNm)}
+      />
       <h2 className="mb-2 mt-6 text-lg font-semibold">Calls and their evidence</h2>
-      <CallEvidence calls={run.calls} />
+      <CallEvidence
+        calls={run.calls}
+        overrideFormFor={
+          editable
+            ? (call) => (
+                <RunOverrideForm
+                  species={call.species}
+                  computedVerdict={call.computedVerdict}
+                  overridden={call.override !== null}
+                  action={overrideCallAction.bind(null, run.id)}
+                />
+              )
+            : undefined
+        }
+      />
+      <h2 className="mb-2 mt-6 text-lg font-semibold">Excitation temperature</h2>
+      <RunTemperaturePanel temperature={run.temperature} assumedK={run.settings.temperatureK} />
       <h2 className="mb-2 mt-6 text-lg font-semibold">Unexplained peaks</h2>
       {run.unexplained.length === 0 ? (
         <p className="muted text-sm">Every peak above the threshold has a candidate line.</p>
@@ -106,6 +141,8 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
       )}
       <h2 className="mb-2 mt-6 text-lg font-semibold">Peaks</h2>
       <PeakTable peaks={run.peaks} />
+      <h2 className="mb-2 mt-6 text-lg font-semibold">Notes</h2>
+      <RunNotes notes={run.notes} lockVersion={run.lockVersion} editable={editable} action={saveRunNotesAction.bind(null, run.id)} />
       <h2 className="mb-2 mt-6 text-lg font-semibold">Made from</h2>
       <dl className="grid max-w-3xl grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm">
         <dt className="muted">Calibration</dt>
@@ -119,7 +156,20 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
           )}
         </dd>
         <dt className="muted">Line-table release</dt>
-        <dd className="font-mono text-xs">{run.lineReleaseId}</dd>
+        <dd className="text-xs">
+          {run.lineReleaseNumber !== null ? `Release ${run.lineReleaseNumber} · ` : ""}
+          <span className="font-mono">{run.lineReleaseId}</span>
+        </dd>
+        {run.rerunOfId ? (
+          <>
+            <dt className="muted">Re-run of</dt>
+            <dd>
+              <Link href={`/runs/${run.rerunOfId}`} className="underline">
+                the earlier run
+              </Link>
+            </dd>
+          </>
+        ) : null}
         <dt className="muted">Settings</dt>
         <dd className="font-mono text-xs">{Object.keys(run.settings).length ? JSON.stringify(run.settings) : "defaults"}</dd>
         <dt className="muted">Noise</dt>

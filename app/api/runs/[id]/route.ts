@@ -1,9 +1,18 @@
-// GET one run exactly as it was stored: settings, calibration, release, peaks, calls and evidence.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
-import { fetchRun } from "@/lib/services/runs";
+// GET one run exactly as it was stored: settings, calibration, release, peaks, calls (with the standing
+// verdict, the computed one and the override) and evidence. PATCH saves its notes ({notes, lockVersion}).
+import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { fetchRun, updateRunNotes } from "@/lib/services/runs";
 import { idParam } from "@/lib/validation/line-schemas";
+import { runNotesSchema } from "@/lib/validation/run-schemas";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();
   return Response.json(await fetchRun(actor, idParam((await params).id, "No such run.")));
+});
+
+export const PATCH = apiRoute(async (request, { params }) => {
+  const actor = await requireActor();
+  const id = idParam((await params).id, "No such run.");
+  const input = await parseJson(request, runNotesSchema);
+  return Response.json(await updateRunNotes(actor, id, input));
 });

@@ -1,0 +1,54 @@
+"use server";
+// Server actions of the run page: override a call, save the notes, run again on a newer release. Each
+// parses its form, calls the same service as the API and maps the result; the services authorise.
+import { revalidatePath } from "next/cache";
+import { redirect } from "next/navigation";
+import { currentActor } from "@/lib/auth/session";
+import { unauthenticated } from "@/lib/errors";
+import { overrideCall, rerunRun, updateRunNotes } from "@/lib/services/runs";
+import { invalidFormState } from "@/lib/validation/workflow-forms";
+import { formError, type FormState } from "@/lib/validation/form-state";
+import { runNotesFromForm, runOverrideFromForm } from "@/lib/validation/run-schemas";
+
+async function actorOrThrow() {
+  const actor = await currentActor();
+  if (!actor) throw unauthenticated();
+  return actor;
+}
+
+export async function overrideCallAction(runId: string, _state: FormState, formData: FormData): Promise<FormState> {
+  const parsed = runOverrideFromForm(formData);
+  const values = { verdict: String(formData.get("verdict") ?? ""), reason: String(formData.get("reason") ?? "") };
+  if (!parsed.success) return invalidFormState(parsed.error, values);
+  try {
+    await overrideCall(await actorOrThrow(), runId, parsed.data);
+  } catch (error) {
+    return { ...formError(error), values };
+  }
+  revalidatePath(`/runs/${runId}`);
+  return { ok: true, message: parsed.data.verdict === null ? "Override withdrawn." : "Override saved." };
+}
+
+export async function saveRunNotesAction(runId: string, _state: FormState, formData: FormData): Promise<FormState> {
+  const parsed = runNotesFromForm(formData);
+  const values = { notes: String(formData.get("notes") ?? ""), lockVersion: String(formData.get("lockVersion") ?? "") };
+  if (!parsed.success) return invalidFormState(parsed.error, values);
+  try {
+    const run = await updateRunNotes(await actorOrThrow(), runId, parsed.data);
+    revalidatePath(`/runs/${runId}`);
+    return { ok: true, message: "Notes saved.", values: { notes: run.notes, lockVersion: String(run.lockVersion) } };
+  } catch (error) {
+    return { ...formError(error), values };
+  }
+}
+
+export async function rerunAction(runId: string, _state: FormState, _formData: FormData): Promise<FormState> {
+  void _formData;
+  let id: string;
+  try {
+    id = (await rerunRun(await actorOrThrow(), runId)).id;
+  } catch (error) {
+    return formError(error);
+  }
+  redirect(`/runs/${id}`);
+}

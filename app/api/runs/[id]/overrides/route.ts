@@ -1,0 +1,12 @@
+// POST overrides one call of a run with a reason ({species, verdict, reason}; verdict null withdraws).
+import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { overrideCall } from "@/lib/services/runs";
+import { idParam } from "@/lib/validation/line-schemas";
+import { runOverrideSchema } from "@/lib/validation/run-schemas";
+
+export const POST = apiRoute(async (request, { params }) => {
+  const actor = await requireActor();
+  const id = idParam((await params).id, "No such run.");
+  const input = await parseJson(request, runOverrideSchema);
+  return Response.json(await overrideCall(actor, id, input), { status: 201 });
+});
