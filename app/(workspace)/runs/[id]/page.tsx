@@ -2,6 +2,7 @@
 // their evidence, the peaks, the unexplained peaks, the run's warnings and what it was made from.
 import Link from "next/link";
 import { RunSpectrumChart, type LineLabel } from "@/components/charts/spectrum-charts";
+import { RunReviewPanel } from "@/components/review/run-review-panel";
 import { PageHeader } from "@/components/ui/page-header";
 import { CallEvidence, PeakTable } from "@/components/workflow/run-evidence";
 import { FlameCautions, ScreeningNotice } from "@/components/workflow/run-notices";
@@ -54,6 +55,7 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
           </Link>
         }
       />
+      <RunReviewPanel runId={run.id} />
       <div className="mb-3 flex flex-col gap-2">
         <ScreeningNotice />
         {!run.lampChecked ? (
