@@ -101,9 +101,9 @@ describe("the review journey", () => {
     await page.goto(`/runs/${run.id}`);
     await expect.poll(() => panel.getByTestId("run-status").textContent()).toBe("Signed");
     expect(await panel.getByTestId("signature").textContent()).toMatch(/[0-9a-f]{64}/);
-    await screenshot(page, "review-8-signed-run");
     // The signed run offers an amendment (a new version) instead of any edit.
     await panel.getByRole("button", { name: /^Amend: start version 2/ }).waitFor();
+    await screenshot(page, "review-8-signed-run");
     expect(browser.problems, browser.problems.join("\n")).toEqual([]);
   });
 });

@@ -354,6 +354,21 @@ describe("refusals", () => {
     expect(theirs.body.items.map((i) => i.runId)).toContain(own.id);
   });
 
+  it("two supervisors deciding at once: the row lock lets one decide, the other gets 409", async () => {
+    const run = await newRun();
+    expect((await chemist.post(`/api/runs/${run.id}/submit`, {})).status).toBe(200);
+    const replies = await Promise.all([
+      supervisor.post(`/api/runs/${run.id}/review`, { decision: "return", comment: "First reviewer." }),
+      secondClient.post(`/api/runs/${run.id}/review`, { decision: "sign", password: second.password }),
+    ]);
+    expect(replies.map((r) => r.status).sort()).toEqual([200, 409]);
+    const decided = (await db().query("SELECT decision, decided_by_id FROM run_rounds WHERE run_id = $1", [run.id])).rows;
+    expect(decided).toHaveLength(1);
+    const winner = replies[0].status === 200 ? { decision: "returned", by: supervisorId } : { decision: "signed", by: second.userId };
+    expect(decided[0]).toEqual({ decision: winner.decision, decided_by_id: winner.by });
+    expect((await runRow(run.id)).status).toBe(winner.decision);
+  });
+
   it("another team's run answers 404 on every review route; marks need a submitted run", async () => {
     const run = await newRun();
     for (const [path, body] of [

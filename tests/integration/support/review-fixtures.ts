@@ -1,12 +1,15 @@
 // Runs to review, made through the real API: the demo lab lead adds a grating instrument, the author
 // uploads a synthetic Hg–Ar lamp file, calibrates, uploads a synthetic flame file and analyses it into
-// a fresh draft run. The instrument, calibration and sample are made once per test file.
+// a fresh draft run. The instrument, calibration and sample are made once per test file. The files use
+// their own noise seeds, so they never pass for a duplicate of another test's upload of the same team.
 import { expect } from "vitest";
 import { APP_URL, type ApiClient } from "./http-client";
 import { FLAME_SCREENING, teamIdOf } from "./accounts";
 import { PIXELS, RESOLUTION_NM, flameFile, lampFile, syntheticGrating } from "./synthetic-files";
 
 const SESSION_COOKIE = "emberline_session";
+const REVIEW_LAMP_SEED = 31;
+const REVIEW_FLAME_SEED = 37;
 
 export interface DraftRun {
   id: string;
@@ -51,10 +54,10 @@ export function reviewBench(lead: ApiClient, author: ApiClient, title: string) {
       resolutionNm: RESOLUTION_NM,
     });
     expect(instrument.status, JSON.stringify(instrument.body)).toBe(201);
-    const lampId = await upload(author, instrument.body.id, "lamp", lampFile(grating), `lamp-${suffix}.csv`);
+    const lampId = await upload(author, instrument.body.id, "lamp", lampFile(grating, REVIEW_LAMP_SEED), `lamp-${suffix}.csv`);
     const calibration = await author.post<{ id: string }>("/api/calibrations", { instrumentId: instrument.body.id, spectrumId: lampId, lamps: ["Hg", "Ar"] });
     expect(calibration.status, JSON.stringify(calibration.body)).toBe(201);
-    const sampleId = await upload(author, instrument.body.id, "sample", flameFile(grating), `flame-${suffix}.csv`);
+    const sampleId = await upload(author, instrument.body.id, "sample", flameFile(grating, REVIEW_FLAME_SEED), `flame-${suffix}.csv`);
     const notebook = await author.post<{ id: string }>("/api/notebooks", { teamId, title: `${title} ${suffix}` });
     expect(notebook.status, JSON.stringify(notebook.body)).toBe(201);
     return { teamId, instrumentId: instrument.body.id, calibrationId: calibration.body.id, sampleId, notebookId: notebook.body.id };
