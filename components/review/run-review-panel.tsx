@@ -39,7 +39,7 @@ export async function RunReviewPanel({ runId }: { runId: string }) {
       ) : null}
       {state.lockReason ? (
         <p className="rounded border border-ember-600 p-2 text-sm" role="note" data-testid="lock-note">
-          <span aria-hidden>🔒 </span>
+          <span className="font-semibold">Locked: </span>
           {state.lockReason}
         </p>
       ) : null}

@@ -94,7 +94,7 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
         {run.source === "flame" ? <FlameCautions /> : null}
         {review.whyNotDecide ? (
           <p role="note" className="rounded border border-ember-600 p-2 text-sm" data-testid="why-not-review">
-            <span aria-hidden>🔒 </span>
+            <span className="font-semibold">You cannot decide this run: </span>
             {review.whyNotDecide}
           </p>
         ) : null}
