@@ -4,17 +4,19 @@ import { MainNav, type NavItem } from "@/components/shell/main-nav";
 import { TeamSwitcher } from "@/components/shell/team-switcher";
 import { ThemeToggle } from "@/components/shell/theme-toggle";
 import { ROLE_LABELS } from "@/lib/auth/roles";
+import { countRunsWaitingFor } from "@/lib/services/run-review";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { signOutAction, switchTeamAction } from "./actions";
 
 export default async function WorkspaceLayout({ children }: { children: ReactNode }) {
   const { actor, team, canReadMail } = await requireWorkspace();
+  const waiting = team?.role === "supervisor" ? await countRunsWaitingFor(actor, team.teamId) : 0;
   const items: NavItem[] = [
     { href: "/", label: "Home" },
     { href: "/notebooks", label: "Notebooks" },
     { href: "/instruments", label: "Instruments" },
     { href: "/lines", label: "Line library" },
-    ...(team?.role === "supervisor" ? [{ href: "/review", label: "Review" }] : []),
+    ...(team?.role === "supervisor" ? [{ href: "/review", label: "Review", count: waiting, countLabel: "waiting for you" }] : []),
     { href: "/team", label: "Team" },
     ...(canReadMail ? [{ href: "/mail", label: "Outgoing mail" }] : []),
     { href: "/account", label: "Account" },

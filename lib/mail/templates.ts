@@ -50,3 +50,42 @@ export function releasePublishedMail(input: {
       signature,
   };
 }
+
+export function runSubmittedMail(input: {
+  teamName: string;
+  authorName: string;
+  runLabel: string;
+  round: number;
+  named: boolean;
+  runId: string;
+}) {
+  const link = `${env().appUrl}/review/${input.runId}`;
+  const whom = input.named ? "asks you to review" : "submitted for review";
+  return {
+    subject: `Run submitted for review: ${input.runLabel}`,
+    text:
+      `${input.authorName} ${whom} the run "${input.runLabel}" in ${input.teamName}` +
+      `${input.round > 1 ? ` (round ${input.round}, after revision)` : ""}.\n\n` +
+      `Open it to agree or disagree with the calls, return it with comments, or sign it off:\n${link}` +
+      signature,
+  };
+}
+
+export function runReturnedMail(input: {
+  authorName: string;
+  reviewerName: string;
+  runLabel: string;
+  round: number;
+  comment: string;
+  runId: string;
+}) {
+  const link = `${env().appUrl}/runs/${input.runId}`;
+  return {
+    subject: `Run returned: ${input.runLabel}`,
+    text:
+      `Hello ${input.authorName},\n\n${input.reviewerName} returned the run "${input.runLabel}" ` +
+      `(review round ${input.round}) with this comment:\n\n${input.comment}\n\n` +
+      `Revise it and submit it again when it is ready:\n${link}` +
+      signature,
+  };
+}

@@ -3,12 +3,14 @@
 // excitation temperature, the unexplained peaks, the peaks, the notes, the run's warnings and what it
 // was made from.
 import Link from "next/link";
-import { RunSpectrumChart, type LineLabel } from "@/components/charts/spectrum-charts";
+import { RunSpectrumChart } from "@/components/charts/spectrum-charts";
 import { RunDownloads } from "@/components/reports/run-downloads";
+import { RunReviewPanel } from "@/components/review/run-review-panel";
 import { PageHeader } from "@/components/ui/page-header";
 import { RunChangesPanel } from "@/components/workflow/run-changes";
 import { CallEvidence, PeakTable } from "@/components/workflow/run-evidence";
 import { RunNotes } from "@/components/workflow/run-notes";
+import { runChartLabels } from "@/components/workflow/run-labels";
 import { FlameCautions, ScreeningNotice } from "@/components/workflow/run-notices";
 import { RunOverrideForm } from "@/components/workflow/run-override-form";
 import { RunRerunButton } from "@/components/workflow/run-rerun";
@@ -37,21 +39,7 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
     newerReleaseFor(actor, run.id).catch(() => null),
   ]);
   const editable = authorMayEdit(actor, run);
-  const called = run.calls.filter((c) => c.verdict !== "absent");
-  // Species sharing a peak get one stacked label there, so their names do not print over each other.
-  const byPeak = new Map<string, LineLabel>();
-  for (const c of called) {
-    for (const l of c.lines) {
-      const key = l.peakNm.toFixed(3);
-      const label = byPeak.get(key);
-      if (!label) byPeak.set(key, { peakNm: l.peakNm, species: c.species, verdict: c.verdict as LineLabel["verdict"] });
-      else if (!label.species.split("<br>").includes(c.species)) {
-        label.species += `<br>${c.species}`;
-        if (c.verdict === "present") label.verdict = "present";
-      }
-    }
-  }
-  const labels = [...byPeak.values()];
+  const labels = runChartLabels(run.calls);
   const present = run.calls.filter((c) => c.verdict === "present").map((c) => c.species);
   const outside =
     calibration && (run.rangeNm[0] < calibration.coveredRangeNm[0] - 1e-9 || run.rangeNm[1] > calibration.coveredRangeNm[1] + 1e-9);
@@ -71,6 +59,7 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
           </div>
         }
       />
+      <RunReviewPanel runId={run.id} />
       <div className="mb-3 flex flex-col gap-2">
         <ScreeningNotice />
         {!run.lampChecked ? (

@@ -1,0 +1,229 @@
+// Reviewing one run: everything the run page shows (chart, notices, calls with evidence, unexplained
+// peaks, peaks, what it was made from) plus the calibration's pairs and residuals and the settings, a
+// mark form on each call and its lines, the rounds so far, and Return with comments or Sign.
+import Link from "next/link";
+import { redirect } from "next/navigation";
+import { ResidualChart, RunSpectrumChart, type PairMark } from "@/components/charts/spectrum-charts";
+import { ReviewHistory } from "@/components/review/review-history";
+import { MarkForm, ReturnForm, SignForm } from "@/components/review/review-forms";
+import { PageHeader } from "@/components/ui/page-header";
+import { CallEvidence, PeakTable, VerdictBadge } from "@/components/workflow/run-evidence";
+import { runChartLabels } from "@/components/workflow/run-labels";
+import { FlameCautions, ScreeningNotice } from "@/components/workflow/run-notices";
+import { X_TITLES, idOrNotFound, orNotFound, runSeries } from "@/components/workflow/server-data";
+import { fetchCalibration } from "@/lib/services/calibrations";
+import { fetchInstrument } from "@/lib/services/instruments";
+import { SIGNATURE_MEANING, fetchRunReviewState } from "@/lib/services/run-review";
+import { fetchRun } from "@/lib/services/runs";
+import { fetchSpectrum } from "@/lib/services/spectra";
+import { requireWorkspace } from "@/lib/services/workspace";
+import { addMarkAction, decideRunAction } from "../actions";
+
+export const metadata = { title: "Review a run" };
+
+export default async function ReviewRunPage({ params }: { params: Promise<{ id: string }> }) {
+  const { actor } = await requireWorkspace();
+  const runId = idOrNotFound((await params).id);
+  const run = await orNotFound(fetchRun(actor, runId));
+  const review = await fetchRunReviewState(actor, runId);
+  // Only supervisors review; anyone else following a link sees the run itself.
+  if (!review.isReviewer) redirect(`/runs/${runId}`);
+  const spectrum = await fetchSpectrum(actor, run.spectrumId);
+  const [instrument, calibration, series] = await Promise.all([
+    fetchInstrument(actor, spectrum.instrumentId),
+    run.calibrationId ? fetchCalibration(actor, run.calibrationId) : Promise.resolve(null),
+    runSeries(actor, run.id),
+  ]);
+  const labels = runChartLabels(run.calls);
+  const present = Object.entries(run.verdicts)
+    .filter(([, v]) => v === "present")
+    .map(([s]) => s);
+  const pairs: PairMark[] = calibration
+    ? [...calibration.pairs.map((p) => ({ ...p, used: true })), ...calibration.rejected.map((p) => ({ ...p, used: false }))].sort((a, b) => a.pixel - b.pixel)
+    : [];
+  const toReview = [...run.calls]
+    .filter((c) => c.verdict !== "absent" || run.verdicts[c.species] !== "absent")
+    .sort((a, b) => b.score - a.score);
+  return (
+    <>
+      <PageHeader
+        title={`Review: ${spectrum.label || spectrum.fileName}`}
+        description={`${run.source} on ${instrument.name} · ${run.createdAt.slice(0, 16).replace("T", " ")} · ${review.statusLabel} · version ${run.versionNumber}${run.reviewRound ? ` · round ${run.reviewRound}` : ""} · called present: ${present.length ? present.join(", ") : "none"}`}
+        actions={
+          <>
+            <Link href="/review" className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800">
+              Back to the queue
+            </Link>
+            <Link href={`/runs/${run.id}`} className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800">
+              Open the run
+            </Link>
+          </>
+        }
+      />
+      <div className="mb-3 flex flex-col gap-2">
+        <ScreeningNotice />
+        {!run.lampChecked ? (
+          <p className="text-sm">
+            <span className="rounded border border-ember-600 px-1.5 py-0.5 text-xs font-semibold">
+              <span aria-hidden>◇ </span>Not lamp-checked
+            </span>{" "}
+            This run used the file&apos;s own wavelength axis, not a lamp calibration.
+          </p>
+        ) : null}
+        {run.warnings.length > 0 ? (
+          <ul className="flex flex-col gap-1 text-sm">
+            {run.warnings.map((w) => (
+              <li key={w.code + w.message} className="rounded border border-ember-600 p-2">
+                <span aria-hidden>⚠ </span>
+                {w.message}
+              </li>
+            ))}
+          </ul>
+        ) : null}
+        {run.source === "flame" ? <FlameCautions /> : null}
+        {review.whyNotDecide ? (
+          <p role="note" className="rounded border border-ember-600 p-2 text-sm" data-testid="why-not-review">
+            <span className="font-semibold">You cannot decide this run: </span>
+            {review.whyNotDecide}
+          </p>
+        ) : null}
+      </div>
+
+      <RunSpectrumChart spectrum={series.spectrum} continuum={series.continuum} labels={labels} unexplainedNm={run.unexplained.map((u) => u.wavelengthNm)} />
+
+      <h2 className="mb-2 mt-6 text-lg font-semibold">The calls to review</h2>
+      {toReview.length === 0 ? (
+        <p className="muted text-sm">No element is called present or possible: there is no call to mark.</p>
+      ) : (
+        <ul className="flex flex-col gap-2" data-testid="calls-to-review">
+          {toReview.map((call) => {
+            const standing = run.verdicts[call.species] ?? call.verdict;
+            const override = [...run.overrides].reverse().find((o) => o.species === call.species);
+            return (
+              <li key={call.species} className="panel p-3" data-testid="call-to-review">
+                <p className="flex flex-wrap items-baseline gap-2">
+                  <span className="font-semibold">{call.species}</span>
+                  <VerdictBadge verdict={standing} />
+                  {standing !== call.verdict ? <span className="muted text-xs">(computed: {call.verdict})</span> : null}
+                  <span className="font-mono text-xs">score {call.score.toFixed(2)}</span>
+                  <span className="muted text-xs">
+                    {call.seenCount} lines seen · {call.missingCount} missing
+                  </span>
+                </p>
+                {override && override.verdict !== null ? (
+                  <p className="mt-1 text-xs">
+                    Overridden by {override.byName ?? "the author"}: {override.reason}
+                  </p>
+                ) : null}
+                {review.mayDecide ? (
+                  <MarkForm
+                    runId={run.id}
+                    species={call.species}
+                    lines={[
+                      ...call.lines.map((l) => ({ lineNm: l.lineNm, label: `${l.lineNm.toFixed(3)} nm (seen, Δλ ${l.deltaNm.toFixed(3)} nm)` })),
+                      ...call.missing.map((m) => ({ lineNm: m.lineNm, label: `${m.lineNm.toFixed(3)} nm (expected, missing)` })),
+                    ]}
+                    action={addMarkAction}
+                  />
+                ) : null}
+              </li>
+            );
+          })}
+        </ul>
+      )}
+
+      <h2 className="mb-2 mt-6 text-lg font-semibold">Rounds and marks</h2>
+      <ReviewHistory history={review.history} />
+
+      {review.mayDecide ? (
+        <section aria-labelledby="decide-title" className="mt-6">
+          <h2 id="decide-title" className="mb-2 text-lg font-semibold">
+            Decide
+          </h2>
+          <div className="grid gap-4 lg:grid-cols-2">
+            <ReturnForm runId={run.id} action={decideRunAction} />
+            <SignForm runId={run.id} meaning={SIGNATURE_MEANING} signerName={actor.name} action={decideRunAction} />
+          </div>
+        </section>
+      ) : null}
+
+      <h2 className="mb-2 mt-6 text-lg font-semibold">Calls and their evidence</h2>
+      <CallEvidence calls={run.calls} />
+      <h2 className="mb-2 mt-6 text-lg font-semibold">Unexplained peaks</h2>
+      {run.unexplained.length === 0 ? (
+        <p className="muted text-sm">Every peak above the threshold has a candidate line.</p>
+      ) : (
+        <ul className="panel divide-y divide-[var(--line)] text-sm">
+          {run.unexplained.map((u) => (
+            <li key={u.wavelengthNm} className="flex gap-4 px-3 py-1.5">
+              <span className="font-mono">{u.wavelengthNm.toFixed(3)} nm</span>
+              <span className="font-mono">SNR {u.snr.toFixed(1)}</span>
+              <span className="muted">{u.reason}</span>
+            </li>
+          ))}
+        </ul>
+      )}
+      <h2 className="mb-2 mt-6 text-lg font-semibold">Peaks</h2>
+      <PeakTable peaks={run.peaks} />
+
+      <h2 className="mb-2 mt-6 text-lg font-semibold">Calibration used</h2>
+      {calibration ? (
+        <>
+          <p className="mb-2 text-sm">
+            <Link href={`/calibrations/${calibration.id}`} className="underline">
+              {calibration.calibratedOn} · {calibration.model} · RMS {calibration.rmsNm.toFixed(4)} nm
+            </Link>{" "}
+            · {calibration.pairs.length} pairs used, {calibration.rejected.length} rejected · covers {calibration.coveredRangeNm[0].toFixed(1)}–
+            {calibration.coveredRangeNm[1].toFixed(1)} nm
+          </p>
+          <ResidualChart pairs={pairs} xTitle={X_TITLES[spectrum.xUnit]} />
+          <table className="panel mt-2 w-full text-sm" data-testid="review-pairs">
+            <caption className="px-3 py-1 text-left text-xs font-semibold">Lamp pairs and residuals</caption>
+            <thead className="text-left text-xs">
+              <tr>
+                <th scope="col" className="px-3">Pixel</th>
+                <th scope="col" className="px-3">Line</th>
+                <th scope="col" className="px-3">Wavelength (nm)</th>
+                <th scope="col" className="px-3">Residual (nm)</th>
+                <th scope="col" className="px-3">Used</th>
+              </tr>
+            </thead>
+            <tbody className="font-mono text-xs">
+              {pairs.map((p) => (
+                <tr key={`${p.pixel}-${p.wavelengthNm}`}>
+                  <td className="px-3">{p.pixel.toFixed(2)}</td>
+                  <td className="px-3 font-sans">{p.species ?? "—"}</td>
+                  <td className="px-3">{p.wavelengthNm.toFixed(4)}</td>
+                  <td className="px-3">{p.residualNm.toFixed(4)}</td>
+                  <td className="px-3 font-sans">{p.used ? "yes" : "rejected"}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </>
+      ) : (
+        <p className="text-sm">None: the run used the file&apos;s own wavelength axis.</p>
+      )}
+
+      <h2 className="mb-2 mt-6 text-lg font-semibold">Settings and provenance</h2>
+      <dl className="grid max-w-3xl grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm" data-testid="review-settings">
+        <dt className="muted">Detection threshold (min SNR)</dt>
+        <dd className="font-mono text-xs">{run.settings.minSnr ?? "default"}</dd>
+        <dt className="muted">Match window (k·σ)</dt>
+        <dd className="font-mono text-xs">{run.settings.k ?? "default"}</dd>
+        <dt className="muted">Temperature for intensities</dt>
+        <dd className="font-mono text-xs">{run.settings.temperatureK ? `${run.settings.temperatureK} K` : "default"}</dd>
+        <dt className="muted">Line-table release</dt>
+        <dd className="font-mono text-xs">{run.lineReleaseId}</dd>
+        <dt className="muted">Noise</dt>
+        <dd className="font-mono text-xs">{run.noiseCounts.toFixed(2)} counts</dd>
+        <dt className="muted">Software</dt>
+        <dd className="font-mono text-xs">{run.softwareVersion}</dd>
+        <dt className="muted">Raw file SHA-256</dt>
+        <dd className="break-all font-mono text-xs">{spectrum.sha256}</dd>
+        <dt className="muted">Notes</dt>
+        <dd className="whitespace-pre-wrap">{run.notes || <span className="muted">none</span>}</dd>
+      </dl>
+    </>
+  );
+}

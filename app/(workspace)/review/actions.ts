@@ -1,0 +1,84 @@
+"use server";
+// Server actions of review and sign-off: submit a run, amend a signed one, mark a call or line, return
+// or sign. Each parses its form, calls one service and maps the result; the services authorise.
+import { revalidatePath } from "next/cache";
+import { headers } from "next/headers";
+import { redirect } from "next/navigation";
+import { currentActor } from "@/lib/auth/session";
+import { unauthenticated } from "@/lib/errors";
+import { addReviewMark, amendRun, reviewRun, submitRun } from "@/lib/services/run-review";
+import { formError, type FormState } from "@/lib/validation/form-state";
+import { zodFieldErrors } from "@/lib/validation/field-errors";
+import { decisionInputFromForm, markInputFromForm, submitInputFromForm } from "@/lib/validation/review-schemas";
+
+async function actorOrThrow() {
+  const actor = await currentActor();
+  if (!actor) throw unauthenticated();
+  return actor;
+}
+
+const runIdOf = (formData: FormData) => String(formData.get("runId") ?? "");
+
+function invalid(error: Parameters<typeof zodFieldErrors>[0], values?: Record<string, string>): FormState {
+  return { message: "Some fields need another look.", fieldErrors: zodFieldErrors(error), values };
+}
+
+function refreshRun(runId: string) {
+  revalidatePath(`/runs/${runId}`);
+  revalidatePath(`/review/${runId}`);
+  revalidatePath("/review");
+}
+
+export async function submitRunAction(_state: FormState, formData: FormData): Promise<FormState> {
+  const parsed = submitInputFromForm(formData);
+  if (!parsed.success) return invalid(parsed.error);
+  const runId = runIdOf(formData);
+  try {
+    await submitRun(await actorOrThrow(), runId, parsed.data);
+  } catch (error) {
+    return formError(error);
+  }
+  refreshRun(runId);
+  return { ok: true, message: "Submitted for review: the reviewers have been e-mailed." };
+}
+
+export async function amendRunAction(_state: FormState, formData: FormData): Promise<FormState> {
+  const runId = runIdOf(formData);
+  let amendmentId: string;
+  try {
+    amendmentId = (await amendRun(await actorOrThrow(), runId)).id;
+  } catch (error) {
+    return formError(error);
+  }
+  refreshRun(runId);
+  redirect(`/runs/${amendmentId}`);
+}
+
+export async function addMarkAction(_state: FormState, formData: FormData): Promise<FormState> {
+  const values = { comment: String(formData.get("comment") ?? "") };
+  const parsed = markInputFromForm(formData);
+  if (!parsed.success) return invalid(parsed.error, values);
+  const runId = runIdOf(formData);
+  try {
+    await addReviewMark(await actorOrThrow(), runId, parsed.data);
+  } catch (error) {
+    return { ...formError(error), values };
+  }
+  revalidatePath(`/review/${runId}`);
+  return { ok: true, message: "Mark recorded." };
+}
+
+export async function decideRunAction(_state: FormState, formData: FormData): Promise<FormState> {
+  const values = { comment: String(formData.get("comment") ?? "") };
+  const parsed = decisionInputFromForm(formData);
+  if (!parsed.success) return invalid(parsed.error, values);
+  const runId = runIdOf(formData);
+  const address = (await headers()).get("x-forwarded-for")?.split(",")[0]?.trim() || "local";
+  try {
+    await reviewRun(await actorOrThrow(), runId, parsed.data, { address });
+  } catch (error) {
+    return { ...formError(error), values };
+  }
+  refreshRun(runId);
+  redirect(`/review/${runId}`);
+}

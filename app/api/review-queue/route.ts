@@ -1,0 +1,14 @@
+// GET the runs of a team waiting for the signed-in supervisor's review, oldest first, with filters.
+import { AppError } from "@/lib/errors";
+import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { fetchReviewQueue } from "@/lib/services/run-review";
+import { zodFieldErrors } from "@/lib/validation/field-errors";
+import { reviewQueueQueryFrom } from "@/lib/validation/review-schemas";
+
+export const GET = apiRoute(async (request) => {
+  const actor = await requireActor();
+  const search = new URL(request.url).searchParams;
+  const parsed = reviewQueueQueryFrom((name) => search.get(name));
+  if (!parsed.success) throw new AppError("validation", "Some filters are not right.", { fieldErrors: zodFieldErrors(parsed.error) });
+  return Response.json(await fetchReviewQueue(actor, parsed.data));
+});

@@ -1,0 +1,10 @@
+// POST amends a signed run: a new draft version linked to it, with the same analysis, notes and standing overrides.
+import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { amendRun } from "@/lib/services/run-review";
+import { idParam } from "@/lib/validation/line-schemas";
+
+export const POST = apiRoute(async (_request, { params }) => {
+  const actor = await requireActor();
+  const runId = idParam((await params).id, "No such run.");
+  return Response.json(await amendRun(actor, runId), { status: 201 });
+});

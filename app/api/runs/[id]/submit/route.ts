@@ -1,0 +1,12 @@
+// POST submits a draft or returned run for review, optionally naming the supervisor who should review it.
+import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { submitRun } from "@/lib/services/run-review";
+import { idParam } from "@/lib/validation/line-schemas";
+import { submitRunSchema } from "@/lib/validation/review-schemas";
+
+export const POST = apiRoute(async (request, { params }) => {
+  const actor = await requireActor();
+  const runId = idParam((await params).id, "No such run.");
+  const input = await parseJson(request, submitRunSchema);
+  return Response.json(await submitRun(actor, runId, input));
+});

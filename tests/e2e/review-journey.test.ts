@@ -1,0 +1,109 @@
+// Review and sign-off in Chromium: a draft run is made through the API (instrument, lamp calibration,
+// synthetic flame sample); the chemist submits it from the run page; the supervisor sees the count in
+// the navigation, opens the queue, marks a call and returns the run with a comment; the chemist reads
+// the comment and resubmits; the supervisor signs with the password and the run shows Signed.
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { openBrowser, screenshot, type Session } from "./support/browser";
+import { SignInPage } from "./pages/sign-in-page";
+import { signInDemo } from "../integration/support/accounts";
+import type { ApiClient } from "../integration/support/http-client";
+import { draftRun, type DraftRun } from "../integration/support/review-fixtures";
+
+const DEMO_PASSWORD = "emberline-demo";
+const CHEMIST = "chem@demo.emberline.example";
+const SUPERVISOR = "super@demo.emberline.example";
+
+let browser: Session;
+let run: DraftRun;
+
+beforeAll(async () => {
+  const lead: ApiClient = await signInDemo("labLead");
+  const chemist: ApiClient = await signInDemo("chemist");
+  run = await draftRun(lead, chemist, chemist, "E2E review");
+  browser = await openBrowser();
+});
+
+afterAll(async () => {
+  await browser?.close();
+});
+
+async function signInAs(email: string) {
+  await browser.context.clearCookies();
+  const signIn = new SignInPage(browser.page);
+  await signIn.goto();
+  await signIn.signIn(email, DEMO_PASSWORD);
+  await browser.page.waitForURL((url) => url.pathname === "/");
+}
+
+describe("the review journey", () => {
+  it("goes from submission through a return and a resubmission to a signature", async () => {
+    const { page } = browser;
+    const comment = "Please check the lithium line against a fresh lamp spectrum.";
+
+    // The chemist submits the draft from its run page.
+    await signInAs(CHEMIST);
+    await page.goto(`/runs/${run.id}`);
+    const panel = page.getByTestId("run-review-panel");
+    await expect.poll(() => panel.getByTestId("run-status").textContent()).toBe("Draft");
+    await screenshot(page, "review-1-draft-run");
+    await page.getByLabel("Reviewer").selectOption({ label: "Any supervisor of the team" });
+    await panel.getByRole("button", { name: "Submit for review" }).click();
+    await expect.poll(() => panel.getByTestId("run-status").textContent(), { timeout: 20_000 }).toBe("Awaiting review");
+    expect(await panel.getByTestId("lock-note").textContent()).toMatch(/waiting for review/);
+    await screenshot(page, "review-2-submitted");
+
+    // The supervisor sees the count, opens the queue and the run.
+    await signInAs(SUPERVISOR);
+    const count = Number(await page.getByTestId("nav-count-review").textContent().then((t) => t?.match(/\d+/)?.[0]));
+    expect(count).toBeGreaterThanOrEqual(1);
+    await page.getByRole("link", { name: /^Review/ }).click();
+    await page.waitForURL(/\/review$/);
+    const row = page.getByTestId("queue-row").filter({ has: page.locator(`a[href="/review/${run.id}"]`) });
+    await row.waitFor();
+    expect(await row.textContent()).toContain("Mara Quist");
+    await screenshot(page, "review-3-queue");
+    await row.getByRole("link").first().click();
+    await page.waitForURL(new RegExp(`/review/${run.id}$`));
+    await page.getByTestId("review-pairs").waitFor();
+    expect(await page.getByTestId("review-settings").textContent()).toContain("Software");
+
+    // A mark on the first call, then the return with a comment.
+    const firstCall = page.getByTestId("call-to-review").first();
+    await firstCall.getByRole("radio", { name: "Agree", exact: true }).check();
+    await firstCall.getByRole("button", { name: "Add the mark" }).click();
+    await page.getByTestId("review-mark").first().waitFor({ timeout: 20_000 });
+    await page.getByLabel("What should the author look at again?").fill(comment);
+    await screenshot(page, "review-4-review-page");
+    await page.getByRole("button", { name: "Return with comments" }).click();
+    await page.getByTestId("round-comment").filter({ hasText: comment }).waitFor({ timeout: 20_000 });
+    expect(await page.getByRole("heading", { name: "Decide" }).count()).toBe(0);
+    await screenshot(page, "review-5-returned");
+
+    // The chemist reads the comment on the run page and submits again.
+    await signInAs(CHEMIST);
+    await page.goto(`/runs/${run.id}`);
+    await expect.poll(() => panel.getByTestId("run-status").textContent()).toBe("Returned for revision");
+    expect(await panel.getByTestId("round-comment").first().textContent()).toContain(comment);
+    await screenshot(page, "review-6-returned-to-author");
+    await panel.getByLabel("Reviewer").selectOption({ label: "Tobias Wren" });
+    await panel.getByRole("button", { name: "Submit for review" }).click();
+    await expect.poll(() => panel.getByTestId("run-status").textContent(), { timeout: 20_000 }).toBe("Awaiting review");
+
+    // The supervisor signs with the password; the run shows Signed with the signature.
+    await signInAs(SUPERVISOR);
+    await page.goto(`/review/${run.id}`);
+    expect(await page.getByTestId("signature-meaning").textContent()).toContain("Reviewed and approved");
+    await page.getByLabel("Your password, to confirm it is you").fill(DEMO_PASSWORD);
+    await screenshot(page, "review-7-sign-form");
+    await page.getByRole("button", { name: /^Sign:/ }).click();
+    await page.getByTestId("signature").waitFor({ timeout: 20_000 });
+    expect(await page.getByTestId("signature").textContent()).toContain("Tobias Wren");
+    await page.goto(`/runs/${run.id}`);
+    await expect.poll(() => panel.getByTestId("run-status").textContent()).toBe("Signed");
+    expect(await panel.getByTestId("signature").textContent()).toMatch(/[0-9a-f]{64}/);
+    // The signed run offers an amendment (a new version) instead of any edit.
+    await panel.getByRole("button", { name: /^Amend: start version 2/ }).waitFor();
+    await screenshot(page, "review-8-signed-run");
+    expect(browser.problems, browser.problems.join("\n")).toEqual([]);
+  });
+});
