@@ -17,6 +17,7 @@ export default async function WorkspaceLayout({ children }: { children: ReactNod
     { href: "/instruments", label: "Instruments" },
     { href: "/lines", label: "Line library" },
     ...(team?.role === "supervisor" ? [{ href: "/review", label: "Review", count: waiting, countLabel: "waiting for you" }] : []),
+    { href: "/audit", label: "Audit trail" },
     { href: "/team", label: "Team" },
     ...(canReadMail ? [{ href: "/mail", label: "Outgoing mail" }] : []),
     { href: "/account", label: "Account" },

@@ -12,13 +12,13 @@ const ROLES = [
     role: "chemist",
     email: "chem@demo.emberline.example",
     name: "Mara Quist",
-    nav: ["Home", "Notebooks", "Instruments", "Line library", "Team", "Account"],
+    nav: ["Home", "Notebooks", "Instruments", "Line library", "Audit trail", "Team", "Account"],
   },
   {
     role: "supervisor",
     email: "super@demo.emberline.example",
     name: "Tobias Wren",
-    nav: ["Home", "Notebooks", "Instruments", "Line library", "Review", "Team", "Account"],
+    nav: ["Home", "Notebooks", "Instruments", "Line library", "Review", "Audit trail", "Team", "Account"],
   },
   {
     // The lead opens in Flame Screening, the team where they hold their widest role (lab lead);
@@ -26,7 +26,7 @@ const ROLES = [
     role: "lab-lead",
     email: "lead@demo.emberline.example",
     name: "Ilse Varga",
-    nav: ["Home", "Notebooks", "Instruments", "Line library", "Team", "Outgoing mail", "Account"],
+    nav: ["Home", "Notebooks", "Instruments", "Line library", "Audit trail", "Team", "Outgoing mail", "Account"],
   },
 ] as const;
 
@@ -114,6 +114,7 @@ describe("the lab lead's team switcher", () => {
       "Instruments",
       "Line library",
       "Review",
+      "Audit trail",
       "Team",
       "Outgoing mail",
       "Account",

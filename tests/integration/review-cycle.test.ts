@@ -172,13 +172,18 @@ describe("the submit → return → resubmit → sign cycle", () => {
   });
 
   it("is revised and resubmitted to a named reviewer, who alone is mailed; the rounds are kept", async () => {
-    // The revision: a note and an overridden call, written as the notes/overrides service would.
-    await db().query("UPDATE runs SET notes = $2 WHERE id = $1", [run.id, "Li I 670.8 nm rechecked against a fresh lamp spectrum."]);
+    // The revision: a note and an overridden call, through the run's own edit routes.
+    const notes = await chemist.request("PATCH", `/api/runs/${run.id}`, {
+      json: { notes: "Li I 670.8 nm rechecked against a fresh lamp spectrum.", lockVersion: (await runRow(run.id)).lock_version },
+    });
+    expect(notes.status, JSON.stringify(notes.body)).toBe(200);
     const possible = run.calls.find((c) => c.verdict === "possible") ?? run.calls[0];
-    await db().query(
-      "INSERT INTO run_overrides (run_id, species, computed_verdict, verdict, reason, created_by_id) VALUES ($1, $2, $3, 'absent', $4, $5)",
-      [run.id, possible.species, possible.verdict, "Only one weak line; not enough to call it.", chemistId],
-    );
+    const override = await chemist.post(`/api/runs/${run.id}/overrides`, {
+      species: possible.species,
+      verdict: "absent",
+      reason: "Only one weak line; not enough to call it.",
+    });
+    expect(override.status, JSON.stringify(override.body)).toBe(201);
 
     const notSupervisor = await chemist.post<ErrorBody>(`/api/runs/${run.id}/submit`, { reviewerId: leadId });
     expect(notSupervisor.status).toBe(400);
@@ -275,8 +280,17 @@ describe("the submit → return → resubmit → sign cycle", () => {
       await supervisor.post<ErrorBody>(`/api/runs/${run.id}/marks`, { species: call.species, agreement: "disagree" }),
       await supervisor.post<ErrorBody>(`/api/runs/${run.id}/review`, { decision: "return", comment: "Once more." }),
       await secondClient.post<ErrorBody>(`/api/runs/${run.id}/review`, { decision: "sign", password: second.password }),
+      await chemist.request<ErrorBody>("PATCH", `/api/runs/${run.id}`, { json: { notes: "after signing", lockVersion: (await runRow(run.id)).lock_version } }),
+      await chemist.post<ErrorBody>(`/api/runs/${run.id}/overrides`, { species: call.species, verdict: "absent", reason: "after signing" }),
     ];
-    expect(attempts.map((a) => a.status)).toEqual([409, 409, 409, 409]);
+    expect(attempts.map((a) => a.status)).toEqual([409, 409, 409, 409, 409, 409]);
+    // The database refuses an override of a signed run even if a service forgot to ask.
+    await expect(
+      db().query("INSERT INTO run_overrides (run_id, species, computed_verdict, verdict, reason) VALUES ($1, $2, 'present', 'absent', 'x')", [
+        run.id,
+        call.species,
+      ]),
+    ).rejects.toThrow(/submitted or signed/);
     await expect(db().query("UPDATE runs SET notes = 'changed after signing' WHERE id = $1", [run.id])).rejects.toThrow(/signed run is never edited/);
     await expect(db().query("UPDATE run_signatures SET meaning = 'other' WHERE run_id = $1", [run.id])).rejects.toThrow(/cannot be changed/);
     expect((await runRow(run.id)).notes).toBe("Li I 670.8 nm rechecked against a fresh lamp spectrum.");
