@@ -1,8 +1,14 @@
 // Review and sign-off in Chromium: a draft run is made through the API (instrument, lamp calibration,
 // synthetic flame sample); the chemist submits it from the run page; the supervisor sees the count in
 // the navigation, opens the queue, marks a call and returns the run with a comment; the chemist reads
-// the comment and resubmits; the supervisor signs with the password and the run shows Signed.
+// the comment, answers it in the run's notes and resubmits; the supervisor signs with the password, the
+// run shows Signed, and the supervisor downloads its PDF, which carries the signature and the caveat.
+import { execFileSync } from "node:child_process";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { RunDownloadsBlock } from "./pages/report-pages";
 import { openBrowser, screenshot, type Session } from "./support/browser";
 import { SignInPage } from "./pages/sign-in-page";
 import { signInDemo } from "../integration/support/accounts";
@@ -85,6 +91,10 @@ describe("the review journey", () => {
     await expect.poll(() => panel.getByTestId("run-status").textContent()).toBe("Returned for revision");
     expect(await panel.getByTestId("round-comment").first().textContent()).toContain(comment);
     await screenshot(page, "review-6-returned-to-author");
+    const answer = "Rechecked Li I 670.8 nm against this morning's lamp spectrum: unchanged.";
+    await page.getByLabel("Notes", { exact: true }).fill(answer);
+    await page.getByRole("button", { name: "Save notes" }).click();
+    await expect.poll(() => page.getByTestId("notes-status").textContent(), { timeout: 20_000 }).toBe("Saved");
     await panel.getByLabel("Reviewer").selectOption({ label: "Tobias Wren" });
     await panel.getByRole("button", { name: "Submit for review" }).click();
     await expect.poll(() => panel.getByTestId("run-status").textContent(), { timeout: 20_000 }).toBe("Awaiting review");
@@ -104,6 +114,19 @@ describe("the review journey", () => {
     // The signed run offers an amendment (a new version) instead of any edit.
     await panel.getByRole("button", { name: /^Amend: start version 2/ }).waitFor();
     await screenshot(page, "review-8-signed-run");
+    // A signed run's notes are read-only.
+    expect(await page.getByTestId("notes-form").count()).toBe(0);
+    expect(await page.getByTestId("run-notes").textContent()).toContain(answer);
+
+    // The supervisor files the signed run's PDF: it names the signer, the meaning and the caveat.
+    const pdf = await new RunDownloadsBlock(page).download("download-report-pdf");
+    expect(pdf.bytes.subarray(0, 5).toString("latin1")).toBe("%PDF-");
+    const file = path.join(fs.mkdtempSync(path.join(os.tmpdir(), "emberline-signed-")), pdf.name);
+    fs.writeFileSync(file, pdf.bytes);
+    const text = execFileSync("/usr/bin/pdftotext", [file, "-"], { encoding: "utf8" }).replace(/\s+/g, " ");
+    expect(text).toContain("Tobias Wren");
+    expect(text).toContain("Reviewed and approved");
+    expect(text).toMatch(/not a certified analysis/i);
     expect(browser.problems, browser.problems.join("\n")).toEqual([]);
   });
 });

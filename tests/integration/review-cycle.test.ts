@@ -305,9 +305,14 @@ describe("the submit → return → resubmit → sign cycle", () => {
     expect(amended.body).toMatchObject({ versionNumber: 2, amendsRunId: run.id });
     const row = await runRow(amended.body.id);
     expect(row).toMatchObject({ status: "draft", review_round: 0, version_number: 2, amends_run_id: run.id, notes: "Li I 670.8 nm rechecked against a fresh lamp spectrum." });
-    const fetched = await chemist.get<{ calls: unknown; verdicts: Record<string, string>; peaks: unknown }>(`/api/runs/${amended.body.id}`);
-    const original = await chemist.get<{ calls: unknown; verdicts: Record<string, string>; peaks: unknown }>(`/api/runs/${run.id}`);
-    expect(fetched.body.calls).toEqual(original.body.calls);
+    type Fetched = { calls: { override: { id: string; at: string } | null }[]; verdicts: Record<string, string>; peaks: unknown };
+    const fetched = await chemist.get<Fetched>(`/api/runs/${amended.body.id}`);
+    const original = await chemist.get<Fetched>(`/api/runs/${run.id}`);
+    // The amendment carries each standing override as a new row of its own (own id and time), same verdict and reason.
+    const withoutRowIdentity = (calls: Fetched["calls"]) =>
+      calls.map((c) => ({ ...c, override: c.override && { ...c.override, id: undefined, at: undefined } }));
+    expect(withoutRowIdentity(fetched.body.calls)).toEqual(withoutRowIdentity(original.body.calls));
+    expect(fetched.body.calls.some((c) => c.override !== null)).toBe(true);
     expect(fetched.body.peaks).toEqual(original.body.peaks);
     expect(fetched.body.verdicts).toEqual(original.body.verdicts);
 
