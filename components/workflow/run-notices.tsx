@@ -1,4 +1,6 @@
 // Notices every identification shows: what the tool's calls are worth, and for a flame the cautions.
+import type { RunRecord } from "@/lib/services/workflow-types";
+
 export function ScreeningNotice() {
   return (
     <p className="muted text-sm" data-testid="screening-notice">
@@ -25,5 +27,54 @@ export function FlameCautions() {
         <li>Follow your lab&apos;s own safety rules and local regulations; they take precedence over this note.</li>
       </ul>
     </aside>
+  );
+}
+
+/**
+ * Everything a run's page says before its chart: the screening notice, whether the axis was
+ * lamp-checked, the calibrated-range warning in the chemist's words (instead of the core's), the
+ * run's other warnings and, for a flame, the cautions. `children` adds page-specific notes.
+ */
+export function RunNotices({
+  run,
+  coveredRangeNm,
+  children,
+}: {
+  run: Pick<RunRecord, "lampChecked" | "rangeNm" | "warnings" | "source">;
+  coveredRangeNm: [number, number] | null;
+  children?: React.ReactNode;
+}) {
+  const outside = coveredRangeNm !== null && (run.rangeNm[0] < coveredRangeNm[0] - 1e-9 || run.rangeNm[1] > coveredRangeNm[1] + 1e-9);
+  const warnings = run.warnings.filter((w) => !(outside && w.code === "outside-covered-range"));
+  return (
+    <div className="mb-3 flex flex-col gap-2">
+      <ScreeningNotice />
+      {!run.lampChecked ? (
+        <p className="text-sm" data-testid="not-lamp-checked">
+          <span className="rounded border border-ember-600 px-1.5 py-0.5 text-xs font-semibold text-ember-800 dark:text-ember-200">
+            <span aria-hidden>◇ </span>Not lamp-checked
+          </span>{" "}
+          This run used the file&apos;s own wavelength axis, not a lamp calibration.
+        </p>
+      ) : null}
+      {outside ? (
+        <p role="alert" className="rounded border border-ember-600 p-2 text-sm" data-testid="range-warning">
+          <span aria-hidden>⚠ </span>The sample spans {run.rangeNm[0].toFixed(1)}–{run.rangeNm[1].toFixed(1)} nm, past the calibrated range{" "}
+          {coveredRangeNm[0].toFixed(1)}–{coveredRangeNm[1].toFixed(1)} nm: wavelengths outside it are extrapolated.
+        </p>
+      ) : null}
+      {warnings.length > 0 ? (
+        <ul className="flex flex-col gap-1 text-sm">
+          {warnings.map((w) => (
+            <li key={w.code + w.message} className="rounded border border-ember-600 p-2">
+              <span aria-hidden>⚠ </span>
+              {w.message}
+            </li>
+          ))}
+        </ul>
+      ) : null}
+      {run.source === "flame" ? <FlameCautions /> : null}
+      {children}
+    </div>
   );
 }

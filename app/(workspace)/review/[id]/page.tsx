@@ -9,7 +9,7 @@ import { MarkForm, ReturnForm, SignForm } from "@/components/review/review-forms
 import { PageHeader } from "@/components/ui/page-header";
 import { CallEvidence, PeakTable, VerdictBadge } from "@/components/workflow/run-evidence";
 import { runChartLabels } from "@/components/workflow/run-labels";
-import { FlameCautions, ScreeningNotice } from "@/components/workflow/run-notices";
+import { RunNotices } from "@/components/workflow/run-notices";
 import { X_TITLES, idOrNotFound, orNotFound, runSeries } from "@/components/workflow/server-data";
 import { fetchCalibration } from "@/lib/services/calibrations";
 import { fetchInstrument } from "@/lib/services/instruments";
@@ -60,34 +60,14 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
           </>
         }
       />
-      <div className="mb-3 flex flex-col gap-2">
-        <ScreeningNotice />
-        {!run.lampChecked ? (
-          <p className="text-sm">
-            <span className="rounded border border-ember-600 px-1.5 py-0.5 text-xs font-semibold">
-              <span aria-hidden>◇ </span>Not lamp-checked
-            </span>{" "}
-            This run used the file&apos;s own wavelength axis, not a lamp calibration.
-          </p>
-        ) : null}
-        {run.warnings.length > 0 ? (
-          <ul className="flex flex-col gap-1 text-sm">
-            {run.warnings.map((w) => (
-              <li key={w.code + w.message} className="rounded border border-ember-600 p-2">
-                <span aria-hidden>⚠ </span>
-                {w.message}
-              </li>
-            ))}
-          </ul>
-        ) : null}
-        {run.source === "flame" ? <FlameCautions /> : null}
+      <RunNotices run={run} coveredRangeNm={calibration?.coveredRangeNm ?? null}>
         {review.whyNotDecide ? (
           <p role="note" className="rounded border border-ember-600 p-2 text-sm" data-testid="why-not-review">
             <span className="font-semibold">You cannot decide this run: </span>
             {review.whyNotDecide}
           </p>
         ) : null}
-      </div>
+      </RunNotices>
 
       <RunSpectrumChart spectrum={series.spectrum} continuum={series.continuum} labels={labels} unexplainedNm={run.unexplained.map((u) => u.wavelengthNm)} />
 

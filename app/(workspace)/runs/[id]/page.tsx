@@ -11,7 +11,7 @@ import { RunChangesPanel } from "@/components/workflow/run-changes";
 import { CallEvidence, PeakTable } from "@/components/workflow/run-evidence";
 import { RunNotes } from "@/components/workflow/run-notes";
 import { runChartLabels } from "@/components/workflow/run-labels";
-import { FlameCautions, ScreeningNotice } from "@/components/workflow/run-notices";
+import { RunNotices } from "@/components/workflow/run-notices";
 import { RunOverrideForm } from "@/components/workflow/run-override-form";
 import { RunRerunButton } from "@/components/workflow/run-rerun";
 import { RunTemperaturePanel } from "@/components/workflow/run-temperature";
@@ -41,10 +41,6 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
   const editable = authorMayEdit(actor, run);
   const labels = runChartLabels(run.calls);
   const present = run.calls.filter((c) => c.verdict === "present").map((c) => c.species);
-  const outside =
-    calibration && (run.rangeNm[0] < calibration.coveredRangeNm[0] - 1e-9 || run.rangeNm[1] > calibration.coveredRangeNm[1] + 1e-9);
-  // The range notice below says this in the chemist's terms; the core's wording is for the record.
-  const warnings = run.warnings.filter((w) => !(outside && w.code === "outside-covered-range"));
   return (
     <>
       <PageHeader
@@ -60,34 +56,7 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
         }
       />
       <RunReviewPanel runId={run.id} />
-      <div className="mb-3 flex flex-col gap-2">
-        <ScreeningNotice />
-        {!run.lampChecked ? (
-          <p className="text-sm" data-testid="not-lamp-checked">
-            <span className="rounded border border-ember-600 px-1.5 py-0.5 text-xs font-semibold text-ember-800 dark:text-ember-200">
-              <span aria-hidden>◇ </span>Not lamp-checked
-            </span>{" "}
-            This run used the file&apos;s own wavelength axis, not a lamp calibration.
-          </p>
-        ) : null}
-        {outside ? (
-          <p role="alert" className="rounded border border-ember-600 p-2 text-sm" data-testid="range-warning">
-            <span aria-hidden>⚠ </span>The sample spans {run.rangeNm[0].toFixed(1)}–{run.rangeNm[1].toFixed(1)} nm, past the calibrated range{" "}
-            {calibration!.coveredRangeNm[0].toFixed(1)}–{calibration!.coveredRangeNm[1].toFixed(1)} nm: wavelengths outside it are extrapolated.
-          </p>
-        ) : null}
-        {warnings.length > 0 ? (
-          <ul className="flex flex-col gap-1 text-sm">
-            {warnings.map((w) => (
-              <li key={w.code + w.message} className="rounded border border-ember-600 p-2">
-                <span aria-hidden>⚠ </span>
-                {w.message}
-              </li>
-            ))}
-          </ul>
-        ) : null}
-        {run.source === "flame" ? <FlameCautions /> : null}
-      </div>
+      <RunNotices run={run} coveredRangeNm={calibration?.coveredRangeNm ?? null} />
       {changes ? <RunChangesPanel changes={changes} /> : null}
       <h2 className="mb-2 mt-6 text-lg font-semibold">Spectrum</h2>
       <RunSpectrumChart
