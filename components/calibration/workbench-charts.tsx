@@ -3,10 +3,9 @@
 // line, unpaired ones clickable to pair), and the residuals per pair (excluded pairs drawn apart).
 // Each series has its own marker shape and a legend label, so nothing is told by colour alone.
 import type { Data } from "plotly.js";
-import { SERIES } from "@/components/charts/plot";
+import { Chart, SERIES } from "@/components/charts/plot";
 import type { SpectrumSeries } from "@/components/charts/spectrum-charts";
 import type { CalibrationPreview } from "@/lib/services/calibrations";
-import { ClickableChart } from "./clickable-chart";
 
 /** The counts nearest a pixel, so a mark sits on its peak. */
 function countsAt(series: SpectrumSeries, x: number): number {
@@ -52,7 +51,7 @@ export function WorkbenchLampChart({
   };
   const unpaired = preview.peaks.map((p, i) => ({ ...p, i })).filter((p) => !p.pairedWith);
   return (
-    <ClickableChart
+    <Chart
       name="lamp"
       title="Lamp spectrum with the paired lines labelled and the unpaired peaks circled"
       caption="Click a circled peak to pair it with a line."
@@ -114,7 +113,7 @@ export function WorkbenchResidualChart({ preview, xTitle }: { preview: Calibrati
     };
   };
   return (
-    <ClickableChart
+    <Chart
       name="residuals"
       title="Residuals (line wavelength minus calibrated wavelength) against pixel"
       fileName="calibration-residuals"

@@ -2,7 +2,7 @@
 // Plotly for the App Router: plotly.js touches `window` when it loads, so the factory and the min
 // bundle are loaded in the browser only. Every chart keeps the modebar (zoom, pan, PNG export).
 import dynamic from "next/dynamic";
-import type { Data, Layout } from "plotly.js";
+import type { Data, Layout, PlotMouseEvent } from "plotly.js";
 import type { PlotParams } from "react-plotly.js";
 
 const Plot = dynamic<PlotParams>(
@@ -40,6 +40,9 @@ export function Chart({
   title,
   height = 380,
   fileName,
+  caption,
+  onPointClick,
+  name,
 }: {
   data: Data[];
   layout?: Partial<Layout>;
@@ -48,9 +51,14 @@ export function Chart({
   height?: number;
   /** Name of the PNG the modebar's camera button saves. */
   fileName: string;
+  /** What a click does, said under the chart (with onPointClick). */
+  caption?: string;
+  onPointClick?: (event: PlotMouseEvent) => void;
+  /** Names the chart for tests and styles (data-chart). */
+  name?: string;
 }) {
   return (
-    <figure role="figure" aria-label={title} className="panel p-2" data-testid="chart">
+    <figure role="figure" aria-label={title} className="panel p-2" data-testid="chart" data-chart={name}>
       <div style={{ height }}>
         <Plot
           data={data}
@@ -62,6 +70,8 @@ export function Chart({
             font: { family: "IBM Plex Sans, system-ui, sans-serif", size: 12, color: "#8f8b7f" },
             legend: { orientation: "h", y: -0.2 },
             hovermode: "closest",
+            // Zoom and pan survive new data (a changed view or a refitted preview).
+            uirevision: "keep",
             ...layout,
             xaxis: { ...AXIS, ...layout.xaxis },
             yaxis: { ...AXIS, ...layout.yaxis },
@@ -71,12 +81,13 @@ export function Chart({
             displaylogo: false,
             toImageButtonOptions: { format: "png", filename: fileName, scale: 2 },
           }}
+          onClick={onPointClick}
           useResizeHandler
           style={{ width: "100%", height: "100%" }}
         />
       </div>
       <figcaption className="muted px-2 pt-1 text-xs">
-        {title}. Drag to zoom, double-click to reset; the camera button saves a PNG.
+        {title}. {caption ? `${caption} ` : ""}Drag to zoom, double-click to reset; the camera button saves a PNG.
       </figcaption>
     </figure>
   );
