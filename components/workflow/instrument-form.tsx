@@ -1,44 +1,101 @@
 "use client";
-// The lab lead's form that adds a spectrometer to the team: dispersion, pixels, nominal range,
-// resolution, and for a prism its glass and apex angle when they are known.
+// The lab lead's form that adds a spectrometer to the team (dispersion, pixels, nominal range, resolution,
+// and for a prism its glass and apex angle when they are known) or, given an instrument, edits it. Once an
+// instrument has calibrations its dispersion and pixel count are shown but fixed (sent as hidden fields).
 import { useActionState, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
 import { initialFormState, type FormState } from "@/lib/validation/form-state";
 
+/** The stored instrument an edit starts from. */
+export interface InstrumentFormInitial {
+  id: string;
+  version: number;
+  name: string;
+  dispersion: "prism" | "grating";
+  pixels: number;
+  nominalMinNm: number;
+  nominalMaxNm: number;
+  resolutionNm: number;
+  detectorMax: number | null;
+  glass: string | null;
+  apexDeg: number | null;
+  /** Whether calibrations were made on it: then the dispersion and pixel count are fixed. */
+  calibrated: boolean;
+}
+
+const LOCKED_INPUT = "rounded border border-[var(--line)] bg-ink-100 px-2 py-1.5 text-base opacity-60 dark:bg-ink-800";
+
+const text = (value: number | string | null) => (value === null ? "" : String(value));
+
+function initialValues(initial: InstrumentFormInitial | undefined): Record<string, string> {
+  if (!initial) return {};
+  return {
+    name: initial.name,
+    dispersion: initial.dispersion,
+    pixels: text(initial.pixels),
+    nominalMinNm: text(initial.nominalMinNm),
+    nominalMaxNm: text(initial.nominalMaxNm),
+    resolutionNm: text(initial.resolutionNm),
+    detectorMax: text(initial.detectorMax),
+    glass: text(initial.glass),
+    apexDeg: text(initial.apexDeg),
+  };
+}
+
 export function InstrumentForm({
   teamId,
   glassNames,
   action,
+  initial,
 }: {
   teamId: string;
   glassNames: readonly string[];
   action: (state: FormState, formData: FormData) => Promise<FormState>;
+  /** Given: the form edits this instrument; absent: it adds a new one. */
+  initial?: InstrumentFormInitial;
 }) {
   const [state, formAction, pending] = useActionState(action, initialFormState);
-  const [dispersion, setDispersion] = useState(state.values?.dispersion ?? "grating");
-  const v = state.values ?? {};
+  const v = state.values ?? initialValues(initial);
+  const [dispersion, setDispersion] = useState(v.dispersion ?? "grating");
   const e = state.fieldErrors ?? {};
+  const editing = initial !== undefined;
+  const locked = initial?.calibrated ?? false;
+  const headingId = editing ? "edit-instrument" : "new-instrument";
   return (
-    <form action={formAction} className="panel flex flex-col gap-3 p-4" noValidate aria-labelledby="new-instrument">
-      <h2 id="new-instrument" className="text-lg font-semibold">
-        Add an instrument
+    <form action={formAction} className="panel flex flex-col gap-3 p-4" noValidate aria-labelledby={headingId}>
+      <h2 id={headingId} className="text-lg font-semibold">
+        {editing ? "Edit the instrument" : "Add an instrument"}
       </h2>
       <input type="hidden" name="teamId" value={teamId} />
+      {initial ? (
+        <>
+          <input type="hidden" name="instrumentId" value={initial.id} />
+          <input type="hidden" name="version" value={initial.version} />
+        </>
+      ) : null}
+      {locked ? (
+        <p id="geometry-locked" className="rounded border border-[var(--line)] bg-ink-100 px-3 py-2 text-sm dark:bg-ink-800">
+          This instrument has calibrations, so its dispersion and pixel count are fixed: the calibrations and the runs
+          on them were made on that geometry. For a different array or dispersion, add a new instrument.
+        </p>
+      ) : null}
       <div className="grid gap-3 sm:grid-cols-2">
         <Field label="Name" name="name" defaultValue={v.name} errors={e.name} required />
         <div className="flex flex-col gap-1">
           <label htmlFor="dispersion" className="text-sm font-medium">
             Dispersion
           </label>
+          {locked ? <input type="hidden" name="dispersion" value={dispersion} /> : null}
           <select
             id="dispersion"
-            name="dispersion"
+            name={locked ? undefined : "dispersion"}
             value={dispersion}
+            disabled={locked}
             onChange={(event) => setDispersion(event.target.value)}
-            aria-describedby="dispersion-error"
-            className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1.5"
+            aria-describedby={locked ? "dispersion-error geometry-locked" : "dispersion-error"}
+            className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1.5 disabled:opacity-60"
           >
             <option value="grating">Grating (close to linear in pixel)</option>
             <option value="prism">Prism (strongly non-linear)</option>
@@ -47,7 +104,15 @@ export function InstrumentForm({
             {e.dispersion?.join(" ")}
           </div>
         </div>
-        <Field label="Pixels" name="pixels" inputMode="numeric" defaultValue={v.pixels ?? "2048"} errors={e.pixels} />
+        <Field
+          label="Pixels"
+          name="pixels"
+          inputMode="numeric"
+          defaultValue={v.pixels ?? "2048"}
+          errors={e.pixels}
+          hint={locked ? "Fixed: the instrument has calibrations." : undefined}
+          {...(locked ? { readOnly: true, className: LOCKED_INPUT } : {})}
+        />
         <Field
           label="Resolution, FWHM (nm)"
           name="resolutionNm"
@@ -108,7 +173,7 @@ export function InstrumentForm({
       <FormMessage message={state.message} />
       <div>
         <Button type="submit" pending={pending}>
-          Add the instrument
+          {editing ? "Save changes" : "Add the instrument"}
         </Button>
       </div>
     </form>

@@ -1,10 +1,11 @@
-// Instruments of a team: lab leads create them, every member sees them with their newest calibration.
+// Instruments of a team: lab leads create and edit them, every member sees them with their newest calibration.
+// An edit may not change the geometry (dispersion, pixel count) once calibrations were made on it.
 import "server-only";
 import type { Transaction } from "sequelize";
 import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize, type TeamAction } from "@/lib/auth/policy";
-import type { InstrumentCreateInput } from "@/lib/validation/workflow-schemas";
+import type { InstrumentCreateInput, InstrumentUpdateInput } from "@/lib/validation/workflow-schemas";
 import { Calibration, Instrument, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import type { InstrumentRecord } from "./workflow-types";
@@ -22,6 +23,7 @@ export function toInstrumentRecord(row: Instrument, latestCalibrationId: string 
     detectorMax: row.detectorMax,
     glass: row.glass,
     apexDeg: row.apexDeg,
+    version: row.version,
     createdAt: row.createdAt.toISOString(),
     latestCalibrationId,
   };
@@ -91,11 +93,100 @@ export async function createInstrument(actor: Actor, input: InstrumentCreateInpu
       return record;
     });
   } catch (error) {
-    if (error instanceof Error && error.name === "SequelizeUniqueConstraintError") {
-      throw new AppError("conflict", "The team already has an instrument of that name.", {
-        fieldErrors: { name: ["The team already has an instrument of that name."] },
-      });
-    }
-    throw error;
+    throw duplicateNameOr(error);
+  }
+}
+
+/** The unique (team, name) constraint as a 409 on the name field; any other error as it is. */
+function duplicateNameOr(error: unknown): unknown {
+  if (error instanceof Error && error.name === "SequelizeUniqueConstraintError") {
+    return new AppError("conflict", "The team already has an instrument of that name.", {
+      fieldErrors: { name: ["The team already has an instrument of that name."] },
+    });
+  }
+  return error;
+}
+
+/** The fields an edit may change, in the order the audit event lists them. */
+const EDITABLE_FIELDS = [
+  "name",
+  "dispersion",
+  "pixels",
+  "nominalMinNm",
+  "nominalMaxNm",
+  "resolutionNm",
+  "detectorMax",
+  "glass",
+  "apexDeg",
+] as const;
+type EditableField = (typeof EDITABLE_FIELDS)[number];
+type EditableValues = Pick<Instrument, EditableField>;
+
+/** Changing these would invalidate the calibrations (and the runs on them) made on the old geometry. */
+const GEOMETRY_FIELDS: readonly EditableField[] = ["dispersion", "pixels"];
+
+/**
+ * Edits an instrument the editor saw at `input.version` (lab leads only; another team's is not found).
+ * A stale version is a conflict; so is a new dispersion or pixel count once the instrument has
+ * calibrations (make a new instrument instead). Left-out optional fields keep their value; a grating
+ * has no glass or apex. Nothing changed saves nothing and writes no audit event.
+ */
+export async function updateInstrument(actor: Actor, instrumentId: string, input: InstrumentUpdateInput): Promise<InstrumentRecord> {
+  await loadInstrument(actor, instrumentId, "instrument.manage");
+  try {
+    return await sequelize.transaction(async (transaction) => {
+      const row = await Instrument.findByPk(instrumentId, { transaction, lock: transaction.LOCK.UPDATE });
+      if (!row) throw notFound("No such instrument.");
+      if (row.version !== input.version) {
+        throw new AppError(
+          "conflict",
+          "Someone changed this instrument since you opened it. Reload to see its current settings, then make your change again.",
+        );
+      }
+      const prism = input.dispersion === "prism";
+      const next: EditableValues = {
+        name: input.name,
+        dispersion: input.dispersion,
+        pixels: input.pixels,
+        nominalMinNm: input.nominalMinNm,
+        nominalMaxNm: input.nominalMaxNm,
+        resolutionNm: input.resolutionNm,
+        detectorMax: input.detectorMax === undefined ? row.detectorMax : input.detectorMax,
+        glass: !prism ? null : input.glass === undefined ? row.glass : input.glass,
+        apexDeg: !prism ? null : input.apexDeg === undefined ? row.apexDeg : input.apexDeg,
+      };
+      const changed = EDITABLE_FIELDS.filter((field) => next[field] !== row[field]);
+      const latest = await latestCalibrationOf(row.id, transaction);
+      if (changed.length === 0) return toInstrumentRecord(row, latest?.id ?? null);
+
+      const geometry = changed.filter((field) => GEOMETRY_FIELDS.includes(field));
+      if (geometry.length > 0 && latest) {
+        const message =
+          "This instrument has calibrations, and they (and the runs on them) were made on its present dispersion and pixel count. Add a new instrument for the new geometry instead.";
+        throw new AppError("conflict", message, {
+          fieldErrors: Object.fromEntries(geometry.map((field) => [field, ["Fixed once the instrument has calibrations."]])),
+        });
+      }
+
+      const before = Object.fromEntries(changed.map((field) => [field, row[field]]));
+      const after = Object.fromEntries(changed.map((field) => [field, next[field]]));
+      row.set(after as Partial<EditableValues>);
+      await row.save({ transaction });
+      await recordAudit(
+        {
+          actorId: actor.id,
+          teamId: row.teamId,
+          action: "instrument.update",
+          entity: "instrument",
+          entityId: row.id,
+          before,
+          after,
+        },
+        transaction,
+      );
+      return toInstrumentRecord(row, latest?.id ?? null);
+    });
+  } catch (error) {
+    throw duplicateNameOr(error);
   }
 }

@@ -19,6 +19,8 @@ export interface InstrumentRecord {
   detectorMax: number | null;
   glass: string | null;
   apexDeg: number | null;
+  /** Optimistic-locking version: send it back with an edit. */
+  version: number;
   createdAt: string;
   /** The newest calibration, the default for new runs; null when the instrument has none yet. */
   latestCalibrationId: string | null;

@@ -6,6 +6,7 @@ import type { FormState } from "./form-state";
 import {
   CALIBRATION_MODELS,
   instrumentCreateSchema,
+  instrumentUpdateSchema,
   notebookCreateSchema,
   runCreateSchema,
 } from "./workflow-schemas";
@@ -19,10 +20,9 @@ const numberOrUndefined = (value: FormDataEntryValue | null) => {
   return text === "" ? undefined : Number(text);
 };
 
-/** The instrument form: numbers typed as text, glass and apex only for a prism. */
-export function instrumentInputFromForm(formData: FormData) {
-  return instrumentCreateSchema.safeParse({
-    teamId: blank(formData.get("teamId")),
+/** The instrument form's fields: numbers typed as text, blank optional fields sent as null (cleared). */
+function instrumentFieldsFromForm(formData: FormData) {
+  return {
     name: blank(formData.get("name")),
     dispersion: blank(formData.get("dispersion")) || undefined,
     pixels: numberOrUndefined(formData.get("pixels")),
@@ -32,6 +32,19 @@ export function instrumentInputFromForm(formData: FormData) {
     detectorMax: numberOrUndefined(formData.get("detectorMax")) ?? null,
     glass: blank(formData.get("glass")) || null,
     apexDeg: numberOrUndefined(formData.get("apexDeg")) ?? null,
+  };
+}
+
+/** The new-instrument form: glass and apex only for a prism. */
+export function instrumentInputFromForm(formData: FormData) {
+  return instrumentCreateSchema.safeParse({ teamId: blank(formData.get("teamId")), ...instrumentFieldsFromForm(formData) });
+}
+
+/** The edit form: the same fields plus the version the page showed (a hidden field). */
+export function instrumentUpdateFromForm(formData: FormData) {
+  return instrumentUpdateSchema.safeParse({
+    ...instrumentFieldsFromForm(formData),
+    version: numberOrUndefined(formData.get("version")),
   });
 }
 

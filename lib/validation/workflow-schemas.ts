@@ -12,31 +12,56 @@ export const MAX_UPLOAD_POINTS = 2_000_000;
 
 const positive = (what: string) => z.number({ error: `Enter ${what}.` }).finite().positive(`${what} must be positive.`);
 
-export const instrumentCreateSchema = z
-  .object({
-    teamId: z.uuid("Choose a team."),
-    name: z.string({ error: "Name the instrument." }).trim().min(1, "Name the instrument.").max(120),
-    dispersion: z.enum(["prism", "grating"], { error: "Choose prism or grating." }),
-    pixels: z.number({ error: "Enter the number of pixels." }).int().min(16).max(MAX_UPLOAD_POINTS),
-    nominalMinNm: positive("the shortest nominal wavelength"),
-    nominalMaxNm: positive("the longest nominal wavelength"),
-    resolutionNm: positive("the resolution (FWHM in nm)"),
-    detectorMax: positive("the detector maximum").nullable().optional(),
-    glass: z
-      .enum(GLASS_NAMES as unknown as [GlassName, ...GlassName[]], { error: `Choose one of ${GLASS_NAMES.join(", ")}.` })
-      .nullable()
-      .optional(),
-    apexDeg: z.number().finite().gt(0).lt(90, "The apex angle must be below 90°.").nullable().optional(),
-  })
-  .refine((i) => i.nominalMaxNm > i.nominalMinNm, {
-    path: ["nominalMaxNm"],
-    message: "The longest wavelength must be above the shortest.",
-  })
-  .refine((i) => i.dispersion === "prism" || (i.glass == null && i.apexDeg == null), {
-    path: ["glass"],
-    message: "Only a prism has a glass and an apex angle.",
-  });
+/** The instrument's own fields, shared by the create and update schemas. */
+const instrumentFields = {
+  name: z.string({ error: "Name the instrument." }).trim().min(1, "Name the instrument.").max(120),
+  dispersion: z.enum(["prism", "grating"], { error: "Choose prism or grating." }),
+  pixels: z.number({ error: "Enter the number of pixels." }).int().min(16).max(MAX_UPLOAD_POINTS),
+  nominalMinNm: positive("the shortest nominal wavelength"),
+  nominalMaxNm: positive("the longest nominal wavelength"),
+  resolutionNm: positive("the resolution (FWHM in nm)"),
+  detectorMax: positive("the detector maximum").nullable().optional(),
+  glass: z
+    .enum(GLASS_NAMES as unknown as [GlassName, ...GlassName[]], { error: `Choose one of ${GLASS_NAMES.join(", ")}.` })
+    .nullable()
+    .optional(),
+  apexDeg: z.number().finite().gt(0).lt(90, "The apex angle must be below 90°.").nullable().optional(),
+};
+
+type InstrumentFields = z.infer<z.ZodObject<typeof instrumentFields>>;
+
+/** The checks across fields that create and update share: an ordered range, glass and apex only on a prism. */
+function withInstrumentChecks<T extends z.ZodType<InstrumentFields>>(schema: T) {
+  return schema
+    .refine((i) => i.nominalMaxNm > i.nominalMinNm, {
+      path: ["nominalMaxNm"],
+      message: "The longest wavelength must be above the shortest.",
+    })
+    .refine((i) => i.dispersion === "prism" || (i.glass == null && i.apexDeg == null), {
+      path: ["glass"],
+      message: "Only a prism has a glass and an apex angle.",
+    });
+}
+
+export const instrumentCreateSchema = withInstrumentChecks(
+  z.object({ teamId: z.uuid("Choose a team."), ...instrumentFields }),
+);
 export type InstrumentCreateInput = z.infer<typeof instrumentCreateSchema>;
+
+/**
+ * An edit of an instrument: every field of the create form again (the team is fixed) and the version the
+ * editor saw. detectorMax, glass and apexDeg left out keep their stored value; null clears them.
+ */
+export const instrumentUpdateSchema = withInstrumentChecks(
+  z.object({
+    ...instrumentFields,
+    version: z
+      .number({ error: "Send the version of the instrument you edited." })
+      .int("Send the version of the instrument you edited.")
+      .min(0, "Send the version of the instrument you edited."),
+  }),
+);
+export type InstrumentUpdateInput = z.infer<typeof instrumentUpdateSchema>;
 
 export const AXIS_UNITS = ["pixel", "nm", "angstrom", "wavenumber"] as const;
 

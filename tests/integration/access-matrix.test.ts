@@ -19,8 +19,8 @@ interface Context {
 
 interface RouteCase {
   route: string;
-  method: "GET" | "POST" | "DELETE";
-  /** The path, and the body for POST; may prepare data first (e.g. a token to revoke). */
+  method: "GET" | "POST" | "PATCH" | "DELETE";
+  /** The path, and the body for POST and PATCH; may prepare data first (e.g. a token to revoke). */
   request(ctx: Context): Promise<{ path: string; json?: unknown }>;
   expected: Record<Principal, number>;
   /** Routes that sign the client out get a fresh client per row. */
@@ -123,6 +123,19 @@ const CASES: RouteCase[] = [
     expected: signedInOnly(400),
   },
   {
+    route: "PATCH /api/instruments/:id (a Flame Screening instrument, at its current version)",
+    method: "PATCH",
+    request: async (ctx) => {
+      const lead = await ctx.client("labLead");
+      const id = await matrixInstrumentId(lead, ctx.flameTeamId);
+      const current = await lead.get<Record<string, unknown>>(`/api/instruments/${id}`);
+      const { name, dispersion, pixels, nominalMinNm, nominalMaxNm, resolutionNm, version } = current.body;
+      const json = { name, dispersion, pixels, nominalMinNm, nominalMaxNm, resolutionNm: Number(resolutionNm) + 0.1, version };
+      return { path: `/api/instruments/${id}`, json };
+    },
+    expected: { anonymous: 401, chemist: 403, supervisor: 403, labLead: 200, outsider: 404 },
+  },
+  {
     route: "GET /api/mail",
     method: "GET",
     request: async () => ({ path: "/api/mail" }),
@@ -137,6 +150,27 @@ const CASES: RouteCase[] = [
     fresh: true,
   },
 ];
+
+let matrixInstrument: Promise<string> | undefined;
+
+/** One instrument for the matrix's edit rows, made by the lab lead on first use (instruments are never deleted). */
+function matrixInstrumentId(lead: ApiClient, teamId: string): Promise<string> {
+  matrixInstrument ??= lead
+    .post<{ id: string }>("/api/instruments", {
+      teamId,
+      name: `matrix bench ${Date.now().toString(36)}`,
+      dispersion: "grating",
+      pixels: 2048,
+      nominalMinNm: 350,
+      nominalMaxNm: 900,
+      resolutionNm: 1,
+    })
+    .then((reply) => {
+      expect(reply.status, JSON.stringify(reply.body)).toBe(201);
+      return reply.body.id;
+    });
+  return matrixInstrument;
+}
 
 const CODE_FOR: Record<number, string> = { 401: "unauthenticated", 403: "forbidden", 404: "not_found", 400: "validation" };
 

@@ -1,9 +1,10 @@
 // One instrument: its settings, its calibration history (newest first, the default for new runs) and
-// the ways on: calibrate against a lamp, upload a spectrum.
+// the ways on: calibrate against a lamp, upload a spectrum, and for lab leads edit the instrument.
 import Link from "next/link";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
 import { idOrNotFound, orNotFound } from "@/components/workflow/server-data";
+import { can } from "@/lib/auth/policy";
 import { fetchCalibrations } from "@/lib/services/calibrations";
 import { fetchInstrument } from "@/lib/services/instruments";
 import { requireWorkspace } from "@/lib/services/workspace";
@@ -26,6 +27,11 @@ export default async function InstrumentPage({ params }: { params: Promise<{ id:
         description={`${instrument.dispersion === "prism" ? "Prism" : "Grating"} · ${instrument.pixels} pixels · nominal ${instrument.nominalMinNm}–${instrument.nominalMaxNm} nm · resolution ${instrument.resolutionNm} nm FWHM${instrument.detectorMax ? ` · detector maximum ${instrument.detectorMax} counts` : ""}${instrument.glass ? ` · glass ${instrument.glass}` : ""}${instrument.apexDeg ? ` · apex ${instrument.apexDeg}°` : ""}`}
         actions={
           <>
+            {can(actor, "instrument.manage", { teamId: instrument.teamId }) ? (
+              <Link href={`/instruments/${id}/edit`} className={action}>
+                Edit instrument
+              </Link>
+            ) : null}
             <Link href={`/instruments/${id}/upload?kind=lamp`} className={action}>
               Upload a spectrum
             </Link>
