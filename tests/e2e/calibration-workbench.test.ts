@@ -8,13 +8,12 @@ import type { Locator, Page } from "playwright-core";
 import { openBrowser, screenshot, type Session } from "./support/browser";
 import { SignInPage } from "./pages/sign-in-page";
 import { chartsDrawn } from "./pages/workflow-pages";
-import { APP_URL } from "../integration/support/http-client";
 import { FLAME_SCREENING, signInDemo, teamIdOf } from "../integration/support/accounts";
-import { PIXELS, RESOLUTION_NM, lampFile, syntheticGrating } from "../integration/support/synthetic-files";
+import { lampFile, syntheticGrating } from "../integration/support/synthetic-files";
+import { createSyntheticInstrument, uploadSpectrumFile } from "../integration/support/bench";
 
 const DEMO_PASSWORD = "emberline-demo";
 const CHEMIST = "chem@demo.emberline.example";
-const SESSION_COOKIE = "emberline_session";
 const suffix = Date.now().toString(36);
 
 /** Page object of /instruments/[id]/calibrate. */
@@ -53,29 +52,8 @@ beforeAll(async () => {
   const lead = await signInDemo("labLead");
   const chemist = await signInDemo("chemist");
   const teamId = await teamIdOf(lead, FLAME_SCREENING);
-  const instrument = await lead.post<{ id: string }>("/api/instruments", {
-    teamId,
-    name: `Workbench grating ${suffix}`,
-    dispersion: "grating",
-    pixels: PIXELS,
-    nominalMinNm: grating.nominalRangeNm[0],
-    nominalMaxNm: grating.nominalRangeNm[1],
-    resolutionNm: RESOLUTION_NM,
-  });
-  expect(instrument.status, JSON.stringify(instrument.body)).toBe(201);
-  instrumentId = instrument.body.id;
-  const form = new FormData();
-  form.set("file", new Blob([lampFile(grating)]), `workbench-lamp-${suffix}.csv`);
-  form.set("instrumentId", instrumentId);
-  form.set("kind", "lamp");
-  form.set("label", "Hg–Ar pencil lamp");
-  const uploaded = await fetch(`${APP_URL}/api/spectra`, {
-    method: "POST",
-    headers: { cookie: `${SESSION_COOKIE}=${chemist.cookie(SESSION_COOKIE)}`, "x-forwarded-for": chemist.address },
-    body: form,
-  });
-  expect(uploaded.status).toBe(201);
-  spectrumId = ((await uploaded.json()) as { id: string }).id;
+  instrumentId = await createSyntheticInstrument(lead, teamId, `Workbench grating ${suffix}`, grating);
+  spectrumId = await uploadSpectrumFile(chemist, instrumentId, "lamp", lampFile(grating), `workbench-lamp-${suffix}.csv`, "Hg–Ar pencil lamp");
   // A first calibration, so that the one saved on the workbench has a drift to show.
   const first = await chemist.post("/api/calibrations", { instrumentId, spectrumId, lamps: ["Hg", "Ar"] });
   expect(first.status, JSON.stringify(first.body)).toBe(201);

@@ -4,11 +4,12 @@
 // choice on a curved grating; another team's instrument answers 404. The lamp is the synthetic Hg–Ar
 // file of a grating with a cubic dispersion (tests/integration/support/synthetic-files.ts).
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { APP_URL, type ApiClient, type ErrorBody } from "./support/http-client";
+import type { ApiClient, ErrorBody } from "./support/http-client";
 import { FLAME_SCREENING, signInDemo, signedIn, teamIdOf } from "./support/accounts";
 import { OUTSIDER, ensureOutsider } from "./support/outsider";
 import { auditEventsSince, auditMark, closeDb, db } from "./support/database";
-import { PIXELS, RESOLUTION_NM, lampFile, syntheticGrating } from "./support/synthetic-files";
+import { PIXELS, lampFile, syntheticGrating } from "./support/synthetic-files";
+import { createSyntheticInstrument, uploadSpectrumFile } from "./support/bench";
 
 interface PreviewPair {
   pixel: number;
@@ -49,7 +50,6 @@ interface SavedCalibration {
   pairing: { excludedByHand: number; addedByHand: number };
 }
 
-const SESSION_COOKIE = "emberline_session";
 const suffix = Date.now().toString(36);
 const grating = syntheticGrating();
 let chemist: ApiClient;
@@ -76,28 +76,8 @@ beforeAll(async () => {
   await ensureOutsider();
   outsider = await signedIn(OUTSIDER.email, OUTSIDER.password);
   const teamId = await teamIdOf(lead, FLAME_SCREENING);
-  const instrument = await lead.post<{ id: string }>("/api/instruments", {
-    teamId,
-    name: `workbench grating ${suffix}`,
-    dispersion: "grating",
-    pixels: PIXELS,
-    nominalMinNm: grating.nominalRangeNm[0],
-    nominalMaxNm: grating.nominalRangeNm[1],
-    resolutionNm: RESOLUTION_NM,
-  });
-  expect(instrument.status, JSON.stringify(instrument.body)).toBe(201);
-  instrumentId = instrument.body.id;
-  const form = new FormData();
-  form.set("file", new Blob([lampFile(grating)]), "workbench-lamp.csv");
-  form.set("instrumentId", instrumentId);
-  form.set("kind", "lamp");
-  const uploaded = await fetch(`${APP_URL}/api/spectra`, {
-    method: "POST",
-    headers: { cookie: `${SESSION_COOKIE}=${chemist.cookie(SESSION_COOKIE)}`, "x-forwarded-for": chemist.address },
-    body: form,
-  });
-  expect(uploaded.status).toBe(201);
-  spectrumId = ((await uploaded.json()) as { id: string }).id;
+  instrumentId = await createSyntheticInstrument(lead, teamId, `workbench grating ${suffix}`, grating);
+  spectrumId = await uploadSpectrumFile(chemist, instrumentId, "lamp", lampFile(grating), "workbench-lamp.csv");
   base = { instrumentId, spectrumId, lamps: ["Hg", "Ar"] };
 });
 

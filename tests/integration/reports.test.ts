@@ -11,10 +11,11 @@ import Papa from "papaparse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { parseSpectrumFile } from "@/lib/spectrum/io";
 import { APP_URL, ApiClient } from "./support/http-client";
+import { createSyntheticInstrument, uploadSpectrumFile } from "./support/bench";
 import { DEMO, FLAME_SCREENING, signInDemo, signedIn, teamIdOf } from "./support/accounts";
 import { OUTSIDER, ensureOutsider } from "./support/outsider";
 import { closeDb, db, userIdByEmail } from "./support/database";
-import { PIXELS, RESOLUTION_NM, flameFile, flameFileOnWavelengthAxis, lampFile, syntheticGrating } from "./support/synthetic-files";
+import { flameFile, flameFileOnWavelengthAxis, lampFile, syntheticGrating } from "./support/synthetic-files";
 
 interface Call {
   species: string;
@@ -57,21 +58,9 @@ async function download(client: ApiClient | null, urlPath: string): Promise<Resp
   return fetch(`${APP_URL}${urlPath}`, { headers, redirect: "manual" });
 }
 
-async function upload(kind: "lamp" | "sample", content: string, fileName: string): Promise<{ id: string }> {
-  const form = new FormData();
-  form.set("file", new Blob([content]), fileName);
-  form.set("instrumentId", instrumentId);
-  form.set("kind", kind);
-  form.set("label", fileName);
-  const response = await fetch(`${APP_URL}/api/spectra`, {
-    method: "POST",
-    headers: { cookie: `${SESSION_COOKIE}=${chemist.cookie(SESSION_COOKIE)}`, "x-forwarded-for": chemist.address },
-    body: form,
-  });
-  const body = await response.json();
-  expect(response.status, JSON.stringify(body)).toBe(201);
-  return body as { id: string };
-}
+const upload = async (kind: "lamp" | "sample", content: string, fileName: string) => ({
+  id: await uploadSpectrumFile(chemist, instrumentId, kind, content, fileName),
+});
 
 let instrumentId: string;
 
@@ -102,17 +91,7 @@ beforeAll(async () => {
   outsider = await signedIn(OUTSIDER.email, OUTSIDER.password);
   teamId = await teamIdOf(lead, FLAME_SCREENING);
 
-  const instrument = await lead.post<{ id: string }>("/api/instruments", {
-    teamId,
-    name: `report bench ${suffix}`,
-    dispersion: "grating",
-    pixels: PIXELS,
-    nominalMinNm: grating.nominalRangeNm[0],
-    nominalMaxNm: grating.nominalRangeNm[1],
-    resolutionNm: RESOLUTION_NM,
-  });
-  expect(instrument.status, JSON.stringify(instrument.body)).toBe(201);
-  instrumentId = instrument.body.id;
+  instrumentId = await createSyntheticInstrument(lead, teamId, `report bench ${suffix}`, grating);
   const lamp = await upload("lamp", lampFile(grating), `lamp-${suffix}.csv`);
   const calibrated = await chemist.post<Calibration>("/api/calibrations", { instrumentId, spectrumId: lamp.id, lamps: ["Hg", "Ar"] });
   expect(calibrated.status, JSON.stringify(calibrated.body)).toBe(201);

@@ -5,11 +5,12 @@
 // Every mutation writes an audit event. The tests run in order and build on each other.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { APP_URL, ApiClient, type ErrorBody } from "./support/http-client";
+import { createSyntheticInstrument, uploadSpectrumFile } from "./support/bench";
 import { DEMO, FLAME_SCREENING, signInDemo, signedIn, teamIdOf } from "./support/accounts";
 import { OUTSIDER, ensureOutsider } from "./support/outsider";
 import { auditEventsSince, auditMark, closeDb, db } from "./support/database";
 import { LTE_FLAME_TEMPERATURE_K as TRUE_T, lteCalciumFlame } from "./support/lte-flame";
-import { PIXELS, RESOLUTION_NM, lampFile, syntheticGrating } from "./support/synthetic-files";
+import { PIXELS, lampFile, syntheticGrating } from "./support/synthetic-files";
 
 type Verdict = "present" | "possible" | "absent";
 interface Override {
@@ -58,17 +59,8 @@ function cookieHeaders(client: ApiClient): Record<string, string> {
   return { cookie: `${SESSION_COOKIE}=${client.cookie(SESSION_COOKIE)}`, "x-forwarded-for": client.address };
 }
 
-async function upload(instrumentId: string, kind: "lamp" | "sample", content: string, fileName: string): Promise<string> {
-  const form = new FormData();
-  form.set("file", new Blob([content]), fileName);
-  form.set("instrumentId", instrumentId);
-  form.set("kind", kind);
-  form.set("label", fileName);
-  const response = await fetch(`${APP_URL}/api/spectra`, { method: "POST", headers: cookieHeaders(chemist), body: form });
-  const body = (await response.json()) as { id: string };
-  expect(response.status, JSON.stringify(body)).toBe(201);
-  return body.id;
-}
+const upload = (instrumentId: string, kind: "lamp" | "sample", content: string, fileName: string) =>
+  uploadSpectrumFile(chemist, instrumentId, kind, content, fileName);
 
 const override = (client: ApiClient, runId: string, json: unknown) => client.post<Run>(`/api/runs/${runId}/overrides`, json);
 const patchNotes = (client: ApiClient, runId: string, json: unknown) => client.request<Run>("PATCH", `/api/runs/${runId}`, { json });
@@ -82,20 +74,11 @@ beforeAll(async () => {
   teamId = await teamIdOf(lead, FLAME_SCREENING);
   chemistId = (await chemist.get<{ id: string }>("/api/me")).body.id;
 
-  const instrument = await lead.post<{ id: string }>("/api/instruments", {
-    teamId,
-    name: `workbench grating ${suffix}`,
-    dispersion: "grating",
-    pixels: PIXELS,
-    nominalMinNm: grating.nominalRangeNm[0],
-    nominalMaxNm: grating.nominalRangeNm[1],
-    resolutionNm: RESOLUTION_NM,
-  });
-  expect(instrument.status, JSON.stringify(instrument.body)).toBe(201);
-  const lampId = await upload(instrument.body.id, "lamp", lampFile(grating), `workbench-lamp-${suffix}.csv`);
-  const calibration = await chemist.post("/api/calibrations", { instrumentId: instrument.body.id, spectrumId: lampId, lamps: ["Hg", "Ar"] });
+  const instrumentId = await createSyntheticInstrument(lead, teamId, `workbench grating ${suffix}`, grating);
+  const lampId = await upload(instrumentId, "lamp", lampFile(grating), `workbench-lamp-${suffix}.csv`);
+  const calibration = await chemist.post("/api/calibrations", { instrumentId, spectrumId: lampId, lamps: ["Hg", "Ar"] });
   expect(calibration.status, JSON.stringify(calibration.body)).toBe(201);
-  const sampleId = await upload(instrument.body.id, "sample", lteCalciumFlame(grating), `workbench-calcium-${suffix}.csv`);
+  const sampleId = await upload(instrumentId, "sample", lteCalciumFlame(grating), `workbench-calcium-${suffix}.csv`);
   const notebook = await chemist.post<{ id: string }>("/api/notebooks", { teamId, title: `Workbench ${suffix}` });
   expect(notebook.status).toBe(201);
   const created = await chemist.post<Run>("/api/runs", {

@@ -30,6 +30,8 @@ export interface RequestOptions {
   json?: unknown;
   /** A raw body (sent as is, with content-type application/json unless headers say otherwise). */
   rawBody?: string;
+  /** A multipart form (fetch sets its content-type with the boundary). */
+  form?: FormData;
   headers?: Record<string, string>;
   /** Sends `Authorization: Bearer <token>` instead of the cookie jar. */
   bearer?: string;
@@ -55,10 +57,11 @@ export class ApiClient {
 
   async request<T = unknown>(method: string, path: string, options: RequestOptions = {}): Promise<ApiReply<T>> {
     const headers: Record<string, string> = { "x-forwarded-for": this.address, ...options.headers };
-    let body: string | undefined;
+    let body: string | FormData | undefined;
     if (options.json !== undefined) body = JSON.stringify(options.json);
     if (options.rawBody !== undefined) body = options.rawBody;
     if (body !== undefined) headers["content-type"] ??= "application/json";
+    if (options.form) body = options.form;
     if (options.bearer) headers.authorization = `Bearer ${options.bearer}`;
     else if (this.cookies.size) {
       headers.cookie = [...this.cookies].map(([name, value]) => `${name}=${value}`).join("; ");
