@@ -5,7 +5,7 @@
 // reason and writes a note. The files come from the integration tests' generator (known truth, nothing hard-coded here).
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { SCREENSHOT_DIR, openBrowser, screenshot, type Session } from "./support/browser";
-import { SignInPage } from "./pages/sign-in-page";
+import { signInAs as signInWithPassword } from "./pages/sign-in-page";
 import { InstrumentsPage, RunPage, UploadZone, chartsDrawn } from "./pages/workflow-pages";
 import { PIXELS, RESOLUTION_NM, flameFile, lampFile, syntheticGrating } from "../integration/support/synthetic-files";
 import { LTE_FLAME_TEMPERATURE_K, lteCalciumFlame } from "../integration/support/lte-flame";
@@ -27,13 +27,7 @@ afterAll(async () => {
   await browser?.close();
 });
 
-async function signInAs(email: string) {
-  await browser.context.clearCookies();
-  const signIn = new SignInPage(browser.page);
-  await signIn.goto();
-  await signIn.signIn(email, DEMO_PASSWORD);
-  await browser.page.waitForURL((url) => url.pathname === "/");
-}
+const signInAs = (email: string) => signInWithPassword(browser, email, DEMO_PASSWORD);
 
 describe("the chemist's journey", () => {
   it("goes from a lamp and a flame file to labelled calls", async () => {

@@ -4,7 +4,7 @@
 // and finds nothing at the edit address.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { openBrowser, screenshot, type Session } from "./support/browser";
-import { SignInPage } from "./pages/sign-in-page";
+import { signInAs as signInWithPassword } from "./pages/sign-in-page";
 import { InstrumentsPage } from "./pages/workflow-pages";
 import { PIXELS, RESOLUTION_NM, lampFile, syntheticGrating } from "../integration/support/synthetic-files";
 
@@ -23,13 +23,7 @@ afterAll(async () => {
   await browser?.close();
 });
 
-async function signInAs(email: string) {
-  await browser.context.clearCookies();
-  const signIn = new SignInPage(browser.page);
-  await signIn.goto();
-  await signIn.signIn(email, DEMO_PASSWORD);
-  await browser.page.waitForURL((url) => url.pathname === "/");
-}
+const signInAs = (email: string) => signInWithPassword(browser, email, DEMO_PASSWORD);
 
 describe("editing an instrument", () => {
   let instrumentId: string;

@@ -10,7 +10,7 @@ import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { RunDownloadsBlock } from "./pages/report-pages";
 import { openBrowser, screenshot, type Session } from "./support/browser";
-import { SignInPage } from "./pages/sign-in-page";
+import { signInAs as signInWithPassword } from "./pages/sign-in-page";
 import { signInDemo } from "../integration/support/accounts";
 import type { ApiClient } from "../integration/support/http-client";
 import { draftRun, type DraftRun } from "../integration/support/review-fixtures";
@@ -33,13 +33,7 @@ afterAll(async () => {
   await browser?.close();
 });
 
-async function signInAs(email: string) {
-  await browser.context.clearCookies();
-  const signIn = new SignInPage(browser.page);
-  await signIn.goto();
-  await signIn.signIn(email, DEMO_PASSWORD);
-  await browser.page.waitForURL((url) => url.pathname === "/");
-}
+const signInAs = (email: string) => signInWithPassword(browser, email, DEMO_PASSWORD);
 
 describe("the review journey", () => {
   it("goes from submission through a return and a resubmission to a signature", async () => {
