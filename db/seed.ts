@@ -174,6 +174,8 @@ interface DemoSpectrum {
 interface DemoRun {
   spectrum: string;
   source: "flame" | "arc" | "spark" | "plasma" | "lamp";
+  /** Where the demo run stands in review: left a draft, submitted by the analyst, or also signed by `signer`. */
+  review?: { state: "submitted" } | { state: "signed"; signer: string };
 }
 
 /** What each demo team works with: who sets the instrument up, who analyses, and the runs they made. */
@@ -207,8 +209,20 @@ const DEMO_BENCHES: {
       { file: "bench-grating-lamp-check.csv", kind: "sample", label: "Hg–Ar lamp, read back as a sample" },
     ],
     notebooks: [
-      { title: "Chloride salts, week 48", runs: [{ spectrum: "bench-grating-flame-sample.csv", source: "flame" }] },
-      { title: "Lamp read-back checks", runs: [{ spectrum: "bench-grating-lamp-check.csv", source: "lamp" }] },
+      {
+        title: "Chloride salts, week 48",
+        runs: [{ spectrum: "bench-grating-flame-sample.csv", source: "flame", review: { state: "submitted" } }],
+      },
+      {
+        title: "Lamp read-back checks",
+        runs: [
+          {
+            spectrum: "bench-grating-lamp-check.csv",
+            source: "lamp",
+            review: { state: "signed", signer: "super@demo.emberline.example" },
+          },
+        ],
+      },
     ],
   },
   {
@@ -271,6 +285,7 @@ async function seedDemoWorkflow(): Promise<void> {
   const { createCalibration } = await import("../lib/services/calibrations");
   const { createNotebook } = await import("../lib/services/notebooks");
   const { createRun } = await import("../lib/services/runs");
+  const { reviewRun, submitRun } = await import("../lib/services/run-review");
 
   for (const bench of DEMO_BENCHES) {
     const team = await Team.findOne({ where: { name: bench.team } });
@@ -312,8 +327,15 @@ async function seedDemoWorkflow(): Promise<void> {
         (await createNotebook(analyst, { teamId: team.id, title: book.title })).id;
       for (const run of book.runs) {
         const spectrumId = spectrumIds.get(run.spectrum)!;
-        const existing = await Run.findOne({ where: { notebookId, spectrumId, source: run.source }, attributes: ["id"] });
-        if (!existing) await createRun(analyst, { notebookId, spectrumId, calibrationId, source: run.source, settings: {} });
+        const existing = await Run.findOne({ where: { notebookId, spectrumId, source: run.source }, attributes: ["id", "status"] });
+        const runId = existing?.id ?? (await createRun(analyst, { notebookId, spectrumId, calibrationId, source: run.source, settings: {} })).id;
+        // Through the review service too, so the queue, the mails and the audit trail tell the demo's story.
+        let status = existing?.status ?? "draft";
+        if (run.review && status === "draft") status = (await submitRun(analyst, runId, {})).status;
+        if (run.review?.state === "signed" && status === "submitted") {
+          const signer = await demoActor(run.review.signer);
+          await reviewRun(signer, runId, { decision: "sign", comment: "", password: DEMO_PASSWORD }, { address: "127.0.0.1" });
+        }
       }
     }
   }

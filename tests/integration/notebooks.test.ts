@@ -141,8 +141,8 @@ beforeAll(async () => {
   const ownAxisId = await upload(chemist, ownAxisInstrument.id, flameFileOnWavelengthAxis(grating, 23), labels.ownAxis);
   runs.ownAxis = { id: await startRun(ownAxisId, "flame", null), spectrumId: ownAxisId, label: labels.ownAxis };
 
-  // No service submits runs yet in this branch: the lamp check's status is set as the review step would.
-  await db().query("UPDATE runs SET status = 'submitted', submitted_at = now(), review_round = 1 WHERE id = $1", [runs.lampCheck.id]);
+  const submitted = await chemist.post(`/api/runs/${runs.lampCheck.id}/submit`, {});
+  expect(submitted.status, JSON.stringify(submitted.body)).toBe(200);
 }, 180_000);
 
 afterAll(async () => {
