@@ -7,7 +7,7 @@ import { AppError } from "@/lib/errors";
 import { fetchRunSpectrum, fetchSpectrumPoints } from "@/lib/services/run-spectrum";
 import type { AxisUnit } from "@/lib/spectrum/types";
 import type { SpectrumSeries } from "@/components/charts/spectrum-charts";
-import { thinSeries } from "@/components/charts/thin-series";
+import { thinSeries } from "@/lib/charts/thin-series";
 
 export async function orNotFound<T>(promise: Promise<T>): Promise<T> {
   try {

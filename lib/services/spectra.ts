@@ -1,8 +1,10 @@
 // Uploaded spectra: the raw bytes are kept unchanged with their SHA-256 beside the parsed points;
-// a file the core cannot read is refused with its located message and nothing is stored.
+// a file the core cannot read is refused with its located message and nothing is stored. A preview
+// runs the same check (checkUpload) and returns the facts and a thinned series without storing.
 import "server-only";
 import { createHash } from "node:crypto";
 import { Op, QueryTypes, type Transaction } from "sequelize";
+import { thinSeries } from "@/lib/charts/thin-series";
 import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize, type TeamAction } from "@/lib/auth/policy";
@@ -145,7 +147,33 @@ export interface SpectrumUpload {
   xUnit?: AxisUnit;
 }
 
-export async function uploadSpectrum(actor: Actor, upload: SpectrumUpload): Promise<SpectrumRecord> {
+/** What the chemist sees before committing an upload: the parsed facts and the points thinned for a chart. */
+export interface SpectrumPreview {
+  instrumentId: string;
+  kind: "lamp" | "sample";
+  label: string;
+  fileName: string;
+  byteSize: number;
+  sha256: string;
+  points: number;
+  xUnit: AxisUnit;
+  medium: SpectrumRecord["medium"];
+  /** First and last x value, in the file's order. */
+  xRange: [number, number];
+  /** Lowest and highest y value. */
+  yRange: [number, number];
+  /** An earlier upload of the same bytes in the team (the oldest), when there is one. */
+  duplicateOf: SpectrumRecord["duplicateOf"];
+  /** The points for a chart, thinned beyond MAX_CHART_POINTS keeping each bucket's extremes. */
+  series: { x: number[]; y: number[] };
+}
+
+/**
+ * The one check an upload goes through, for the preview and for storing alike: the actor may upload
+ * onto the instrument (another team's is not found), the file is within the limits and the core reads
+ * it (else 413, or 400 with its located message). Reads nothing but the instrument; writes nothing.
+ */
+async function checkUpload(actor: Actor, upload: SpectrumUpload) {
   const instrument = await loadInstrument(actor, upload.instrumentId, "spectrum.upload");
   if (upload.bytes.length > MAX_UPLOAD_BYTES) {
     throw new AppError("too_large", `The file is ${upload.bytes.length} bytes; the limit is ${MAX_UPLOAD_BYTES} bytes (16 MiB).`);
@@ -163,6 +191,38 @@ export async function uploadSpectrum(actor: Actor, upload: SpectrumUpload): Prom
   }
   const raw = Buffer.from(upload.bytes.buffer, upload.bytes.byteOffset, upload.bytes.byteLength);
   const sha256 = createHash("sha256").update(raw).digest("hex");
+  return { instrument, spectrum, raw, sha256 };
+}
+
+/** Parses and checks an upload exactly as uploadSpectrum does, and returns what it would store; stores nothing. */
+export async function previewSpectrumUpload(actor: Actor, upload: SpectrumUpload): Promise<SpectrumPreview> {
+  const { instrument, spectrum, raw, sha256 } = await checkUpload(actor, upload);
+  let yMin = Infinity;
+  let yMax = -Infinity;
+  for (const value of spectrum.y) {
+    if (value < yMin) yMin = value;
+    if (value > yMax) yMax = value;
+  }
+  const thin = thinSeries(spectrum.x, spectrum.y);
+  return {
+    instrumentId: instrument.id,
+    kind: upload.kind,
+    label: upload.label,
+    fileName: upload.fileName,
+    byteSize: raw.length,
+    sha256,
+    points: spectrum.x.length,
+    xUnit: spectrum.xUnit,
+    medium: spectrum.medium ?? null,
+    xRange: [spectrum.x[0], spectrum.x[spectrum.x.length - 1]],
+    yRange: [yMin, yMax],
+    duplicateOf: await earlierUpload({ teamId: instrument.teamId, sha256 }),
+    series: { x: thin.x, y: thin.y },
+  };
+}
+
+export async function uploadSpectrum(actor: Actor, upload: SpectrumUpload): Promise<SpectrumRecord> {
+  const { instrument, spectrum, raw, sha256 } = await checkUpload(actor, upload);
   return sequelize.transaction(async (transaction) => {
     const duplicateOf = await earlierUpload({ teamId: instrument.teamId, sha256 }, transaction);
     const row = await SpectrumFile.create(

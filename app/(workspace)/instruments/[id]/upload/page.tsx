@@ -1,6 +1,7 @@
-// Upload a lamp or sample file onto an instrument. The API stores a file when it is sent (there is no
-// separate commit step), so after the upload this page shows the stored spectrum as "Uploaded": its
-// hash, points, range, a duplicate warning and a preview plot, with the next step.
+// Upload a lamp or sample file onto an instrument. The upload component first sends the file to the
+// preview route (nothing stored) and shows its plot, facts and duplicate warning; once the chemist
+// stores it, this page shows the stored spectrum as "Uploaded": its hash, points, range, a duplicate
+// warning and a preview plot, with the next step.
 import Link from "next/link";
 import { PreviewChart } from "@/components/charts/spectrum-charts";
 import { PageHeader } from "@/components/ui/page-header";
@@ -96,13 +97,14 @@ export default async function UploadPage({
       <p className="muted mb-4 max-w-prose text-sm">
         Two-column text (CSV, TSV or whitespace; header or none; comma or point decimals; pixel, wavelength or wavenumber first)
         or JCAMP-DX. Limits: {MAX_UPLOAD_BYTES / (1024 * 1024)} MiB per file and {MAX_UPLOAD_POINTS.toLocaleString("en")} points.
-        The file is stored as it is sent, byte for byte with its SHA-256; a file that cannot be read is refused with the place of the
-        problem and nothing is stored.
+        You see a preview of the parsed points before anything is stored; the file is then stored as it was sent, byte for byte
+        with its SHA-256. A file that cannot be read is refused with the place of the problem and nothing is stored.
       </p>
       <SpectrumUpload
         instrumentId={id}
         defaultKind={kind}
         maxBytes={MAX_UPLOAD_BYTES}
+        xTitles={X_TITLES}
         afterUploadHref={`/instruments/${id}/upload?kind={kind}&spectrum={id}${notebookId ? `&notebook=${notebookId}` : ""}`}
       />
     </>

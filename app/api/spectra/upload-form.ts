@@ -1,0 +1,43 @@
+// Reads the multipart form of an upload (file, instrumentId, kind, label, optional xUnit) for both
+// POST /api/spectra and POST /api/spectra/preview, with the same size limits and field messages.
+import { AppError } from "@/lib/errors";
+import type { SpectrumUpload } from "@/lib/services/spectra";
+import { zodFieldErrors } from "@/lib/validation/field-errors";
+import { MAX_UPLOAD_BYTES, spectrumUploadFieldsSchema } from "@/lib/validation/workflow-schemas";
+
+/** Room for the multipart boundaries and the other fields around the file. */
+const FORM_OVERHEAD_BYTES = 64 * 1024;
+
+export async function readUploadForm(request: Request): Promise<SpectrumUpload> {
+  const length = Number(request.headers.get("content-length") ?? "0");
+  if (length > MAX_UPLOAD_BYTES + FORM_OVERHEAD_BYTES) {
+    throw new AppError("too_large", `The upload is ${length} bytes; files of up to ${MAX_UPLOAD_BYTES} bytes (16 MiB) are accepted.`);
+  }
+  let form: FormData;
+  try {
+    form = await request.formData();
+  } catch {
+    throw new AppError("validation", "Send the file as multipart/form-data with a `file` field.");
+  }
+  const file = form.get("file");
+  if (!(file instanceof File)) {
+    throw new AppError("validation", "Choose a file to upload.", { fieldErrors: { file: ["Choose a file to upload."] } });
+  }
+  if (file.size > MAX_UPLOAD_BYTES) {
+    throw new AppError("too_large", `The file is ${file.size} bytes; files of up to ${MAX_UPLOAD_BYTES} bytes (16 MiB) are accepted.`);
+  }
+  const text = (name: string) => {
+    const value = form.get(name);
+    return typeof value === "string" && value !== "" ? value : undefined;
+  };
+  const fields = spectrumUploadFieldsSchema.safeParse({
+    instrumentId: text("instrumentId"),
+    kind: text("kind"),
+    label: text("label"),
+    xUnit: text("xUnit"),
+  });
+  if (!fields.success) {
+    throw new AppError("validation", "Some fields are not right.", { fieldErrors: zodFieldErrors(fields.error) });
+  }
+  return { ...fields.data, fileName: file.name || "upload", bytes: new Uint8Array(await file.arrayBuffer()) };
+}
