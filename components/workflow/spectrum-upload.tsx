@@ -41,6 +41,9 @@ function failure(status: number, body: ErrorReply | null): { message: string; de
   return { message, detail };
 }
 
+/** A message as a sentence, so "Nothing was stored." can follow it. */
+const sentence = (message: string) => (/[.!?]$/.test(message) ? message : `${message}.`);
+
 const number = (value: number) => value.toLocaleString("en", { maximumSignificantDigits: 8 });
 
 export function SpectrumUpload({
@@ -109,7 +112,7 @@ export function SpectrumUpload({
           }
           const { message, detail } =
             status === 0 ? { message: "The connection failed while the file was checked.", detail: [] } : failure(status, body as ErrorReply);
-          setPhase({ step: "failed", file, message: `${message} Nothing was stored.`, detail });
+          setPhase({ step: "failed", file, message: `${sentence(message)} Nothing was stored.`, detail });
         },
       );
     },
@@ -132,7 +135,7 @@ export function SpectrumUpload({
         }
         const { message, detail } =
           status === 0 ? { message: "The connection failed during the upload.", detail: [] } : failure(status, body as ErrorReply);
-        setPhase({ step: "failed", file, message: `${message} Nothing was stored.`, detail });
+        setPhase({ step: "failed", file, message: `${sentence(message)} Nothing was stored.`, detail });
       },
     );
   }

@@ -1,5 +1,6 @@
 // The chemist's journey in Chromium: the lab lead adds a grating instrument through its form; the
-// chemist drops a synthetic Hg–Ar lamp file on the upload zone, calibrates, chooses a synthetic flame
+// chemist drops a synthetic Hg–Ar lamp file on the upload zone, sees its preview and stores it (after
+// setting a first file aside), calibrates, chooses a synthetic flame
 // file with the file picker, starts a flame run in a new notebook, and sees the labelled chart and the
 // calls; then switches the chart to continuum-removed with the keyboard, overrides a call with a
 // reason and writes a note. The files come from the integration tests' generator (known truth, nothing hard-coded here).
@@ -50,10 +51,33 @@ describe("the chemist's journey", () => {
     await page.getByRole("link", { name: "Upload a spectrum" }).click();
     await page.waitForURL(/\/upload/);
     const zone = new UploadZone(page);
+    await zone.describe("lamp", "Hg–Ar pencil lamp");
+    // A first drop is previewed, then set aside from the keyboard: back to the zone, nothing stored.
+    await zone.drop(`not-this-${suffix}.csv`, lampFile(grating, 4));
+    await zone.awaitPreview();
+    await zone.preview.getByRole("button", { name: "Choose another file" }).press("Enter");
+    await zone.zone.waitFor();
+    expect(await page.evaluate(() => document.activeElement?.textContent)).toBe("Choose a file…");
+    // A file the core cannot read: the located message, and the zone stays for another try.
+    const rows = Array.from({ length: 30 }, (_, i) => (i === 7 ? `${i},1x5` : `${i},${100 + i}`));
+    await zone.drop(`bad-${suffix}.csv`, `pixel,counts\n${rows.join("\n")}\n`);
+    await page.getByRole("alert").filter({ hasText: /^Line 9, column 2: .*Nothing was stored\.$/ }).waitFor();
+    await screenshot(page, "chemist-0-bad-file");
+    // The refusal is the one failed response so far, and it is expected.
+    expect(browser.problems).toEqual(["HTTP 400 /api/spectra/preview"]);
+    browser.problems.length = 0;
     await zone.drop(`lamp-${suffix}.csv`, lampFile(grating));
-    await screenshot(page, "chemist-1-lamp-dropped");
-    await zone.upload("lamp", "Hg–Ar pencil lamp");
+    await zone.awaitPreview();
+    await chartsDrawn(page);
+    const facts = (await page.getByTestId("preview-facts").textContent()) ?? "";
+    expect(facts).toContain("2,048");
+    expect(facts).toMatch(/SHA-256[0-9a-f]{64}/);
+    expect(await zone.preview.getByRole("heading").textContent()).toContain("not stored yet");
+    await screenshot(page, "chemist-1-lamp-preview");
+    await zone.store();
     expect(await zone.status.textContent()).toContain("2,048 points");
+    // The label typed before the preview is the one stored.
+    expect(await page.getByText("Hg–Ar pencil lamp", { exact: true }).count()).toBe(1);
     await chartsDrawn(page);
     await screenshot(page, "chemist-2-lamp-uploaded");
 

@@ -26,11 +26,13 @@ export class InstrumentsPage {
 export class UploadZone {
   readonly zone: Locator;
   readonly input: Locator;
+  readonly preview: Locator;
   readonly status: Locator;
 
   constructor(private readonly page: Page) {
     this.zone = page.getByTestId("dropzone");
     this.input = this.zone.locator("input[type=file]");
+    this.preview = page.getByTestId("upload-preview");
     this.status = page.getByTestId("upload-status");
   }
 
@@ -52,12 +54,28 @@ export class UploadZone {
     await this.input.setInputFiles({ name: fileName, mimeType: "text/csv", buffer: Buffer.from(text) });
   }
 
-  async upload(kind: "lamp" | "sample", label: string): Promise<void> {
+  /** Sets the kind and the label (they keep their values through the preview). */
+  async describe(kind: "lamp" | "sample", label: string): Promise<void> {
     await this.page.getByRole("radio", { name: kind === "lamp" ? /Reference lamp/ : /Sample/ }).check();
     await this.page.getByLabel("Label (optional)").fill(label);
-    await this.page.getByTestId("chosen-file").filter({ hasText: "Selected:" }).waitFor();
-    await this.page.getByRole("button", { name: "Upload", exact: true }).click();
+  }
+
+  /** Waits for the preview the server sends back for a dropped or chosen file (nothing stored yet). */
+  async awaitPreview(): Promise<void> {
+    await this.preview.waitFor({ timeout: 30_000 });
+  }
+
+  /** Stores the previewed file; resolves on the "Uploaded" state. */
+  async store(): Promise<void> {
+    await this.preview.getByRole("button", { name: "Store this spectrum" }).click();
     await this.status.waitFor({ timeout: 30_000 });
+  }
+
+  /** After dropping or choosing a file: kind and label, the preview, then store. */
+  async upload(kind: "lamp" | "sample", label: string): Promise<void> {
+    await this.describe(kind, label);
+    await this.awaitPreview();
+    await this.store();
   }
 }
 
