@@ -1,7 +1,7 @@
 // The browser-bound thinning of long series: short series pass unchanged, long ones keep every bucket's
 // extremes (so a one-sample spike survives) and the companion series' values at the same samples.
 import { describe, expect, it } from "vitest";
-import { thinSeries, thinnedIndices } from "@/components/charts/thin-series";
+import { thinSeries, thinnedIndices } from "@/lib/charts/thin-series";
 
 describe("thinSeries", () => {
   it("passes a series within the limit unchanged", () => {
