@@ -18,6 +18,13 @@ export interface EstimateNoiseProfileOptions {
    */
   minBlocks?: number;
   /**
+   * Most blocks in the fit. Theil–Sen visits every pair of blocks, so on long arrays the blocks
+   * are widened until there are at most this many (a million samples would otherwise give some
+   * 134 million slopes); wider blocks only make each block's σ more precise.
+   * @default 256
+   */
+  maxBlocks?: number;
+  /**
    * The profile is kept only when the modelled σ over the array spans at least this ratio
    * (largest / smallest); below it a constant σ is as good and today's numbers stay unchanged.
    * @default 1.25
@@ -43,15 +50,17 @@ export function estimateNoiseProfile(
   level: Float64Array,
   options: EstimateNoiseProfileOptions = {},
 ): Float64Array | null {
-  const { blockSize = 64, minBlocks = 8, minSpread = 1.25 } = options;
+  const { blockSize: requestedBlockSize = 64, minBlocks = 8, maxBlocks = 256, minSpread = 1.25 } = options;
   assertFiniteArray(y, "y", 3);
   assertFiniteArray(level, "level", 3);
   if (level.length !== y.length) throw new RangeError(`y and level differ in length (${y.length} vs ${level.length})`);
-  assertIntegerInRange(blockSize, "blockSize", 8);
+  assertIntegerInRange(requestedBlockSize, "blockSize", 8);
   assertIntegerInRange(minBlocks, "minBlocks", 3);
+  assertIntegerInRange(maxBlocks, "maxBlocks", minBlocks);
   if (!(minSpread >= 1) || !Number.isFinite(minSpread)) throw new RangeError(`minSpread must be at least 1 (got ${minSpread})`);
 
   const n = y.length;
+  const blockSize = Math.max(requestedBlockSize, Math.ceil(n / maxBlocks));
   const blocks = Math.floor(n / blockSize);
   if (blocks < minBlocks) return null;
   const variance = new Float64Array(blocks);
