@@ -47,7 +47,8 @@ async function main() {
     log("Demo sign-ins (password emberline-demo):");
     log("  chem@demo.emberline.example   chemist");
     log("  super@demo.emberline.example  supervisor");
-    log("  lead@demo.emberline.example   lab lead");
+    log("  lead@demo.emberline.example   lab lead (Flame Screening), supervisor (Arc and Spark Bench)");
+    log("  bench@demo.emberline.example  lab lead (Arc and Spark Bench)");
     log("Press Ctrl-C to stop; the data stays in .data/.");
   }
 }

@@ -440,6 +440,11 @@ describe("the review queue", () => {
     expect(byInstrument.body.items.every((i) => i.instrument.id === instrumentId && i.author?.id === chemistId)).toBe(true);
     expect(byInstrument.body.total).toBeLessThanOrEqual(queue.body.total);
 
+    // Without ?teamId= a supervisor gets the queue of the team where they review.
+    const defaulted = await supervisor.get<Queue>("/api/review-queue");
+    expect(defaulted.status, JSON.stringify(defaulted.body)).toBe(200);
+    expect(defaulted.body.items.map((i) => i.runId)).toEqual(ids);
+
     expect((await chemist.get(`/api/review-queue?teamId=${teamId}`)).status).toBe(403);
     expect((await outsider.get(`/api/review-queue?teamId=${teamId}`)).status).toBe(404);
     expect((await supervisor.get<ErrorBody>(`/api/review-queue?teamId=${teamId}&author=nobody`)).status).toBe(400);
