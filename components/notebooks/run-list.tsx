@@ -2,6 +2,7 @@
 // A notebook's runs with their filters (status, a species that stands as present, instrument, free
 // text), fetched in the browser with SWR from GET /api/notebooks/:id/runs. The filters live in the URL,
 // so a filtered view can be shared; the server's first answer is SWR's fallback, so the first paint has data.
+import { FilterSelect } from "@/components/ui/filter-select";
 import Link from "next/link";
 import { useEffect, useState } from "react";
 import useSWR, { SWRConfig } from "swr";
@@ -61,19 +62,14 @@ function RunTable({ notebookId, instruments }: { notebookId: string; instruments
         Runs
       </h2>
       <form role="search" aria-label="Filter the runs" className="flex flex-wrap items-end gap-3" onSubmit={(e) => e.preventDefault()}>
-        <div className="flex flex-col gap-1">
-          <label htmlFor="run-status" className="text-sm font-medium">
-            Status
-          </label>
-          <select id="run-status" value={filters.status} onChange={(e) => setFilters({ status: e.target.value })} className={inputClass}>
-            <option value="">Any status</option>
-            {STATUSES.map((s) => (
-              <option key={s} value={s}>
-                {RUN_STATUS_LABELS[s]}
-              </option>
-            ))}
-          </select>
-        </div>
+        <FilterSelect
+          id="run-status"
+          label="Status"
+          anyLabel="Any status"
+          value={filters.status}
+          onChange={(e) => setFilters({ status: e.target.value })}
+          options={STATUSES.map((st) => ({ value: st, label: RUN_STATUS_LABELS[st] }))}
+        />
         <div className="flex flex-col gap-1">
           <label htmlFor="run-species" className="text-sm font-medium">
             Called present
@@ -91,24 +87,14 @@ function RunTable({ notebookId, instruments }: { notebookId: string; instruments
             A species such as K I, or an element symbol for all its ion stages
           </span>
         </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor="run-instrument" className="text-sm font-medium">
-            Instrument
-          </label>
-          <select
-            id="run-instrument"
-            value={filters.instrumentId}
-            onChange={(e) => setFilters({ instrumentId: e.target.value })}
-            className={inputClass}
-          >
-            <option value="">Any instrument</option>
-            {instruments.map((i) => (
-              <option key={i.id} value={i.id}>
-                {i.name}
-              </option>
-            ))}
-          </select>
-        </div>
+        <FilterSelect
+          id="run-instrument"
+          label="Instrument"
+          anyLabel="Any instrument"
+          value={filters.instrumentId}
+          onChange={(e) => setFilters({ instrumentId: e.target.value })}
+          options={instruments.map((i) => ({ value: i.id, label: i.name }))}
+        />
         <div className="flex flex-col gap-1">
           <label htmlFor="run-search" className="text-sm font-medium">
             Search

@@ -18,28 +18,9 @@ import {
 } from "./support/accounts";
 import { OUTSIDER, ensureOutsider } from "./support/outsider";
 import { closeDb, db } from "./support/database";
+import type { AuditEventRecord } from "@/lib/services/audit";
 
-interface AuditChange {
-  path: string;
-  kind: "added" | "removed" | "changed";
-  before?: unknown;
-  after?: unknown;
-}
-interface AuditEvent {
-  id: string;
-  at: string;
-  teamId: string | null;
-  actorId: string | null;
-  actorName: string | null;
-  actorEmail: string | null;
-  action: string;
-  entity: string;
-  entityId: string | null;
-  reason: string | null;
-  before: unknown;
-  after: unknown;
-  changes: AuditChange[];
-}
+type AuditEvent = AuditEventRecord;
 interface AuditPage {
   events: AuditEvent[];
   nextCursor: string | null;

@@ -3,6 +3,7 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { formatTime, formatWaiting } from "@/components/review/format";
+import { FilterSelect } from "@/components/ui/filter-select";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
 import { can } from "@/lib/auth/policy";
@@ -14,7 +15,6 @@ export const metadata = { title: "Review" };
 
 type Search = Record<string, string | string[] | undefined>;
 
-const SELECT = "rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1.5 text-sm";
 
 export default async function ReviewPage({ searchParams }: { searchParams: Promise<Search> }) {
   const { actor, team } = await requireWorkspace();
@@ -39,45 +39,30 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
       ) : (
         <>
           <form method="get" className="mb-3 flex flex-wrap items-end gap-3" aria-label="Filter the queue">
-            <div className="flex flex-col gap-1">
-              <label htmlFor="author" className="text-xs font-semibold">
-                Author
-              </label>
-              <select id="author" name="author" defaultValue={query.author ?? ""} className={SELECT}>
-                <option value="">Anyone</option>
-                {queue.options.authors.map((a) => (
-                  <option key={a.id} value={a.id}>
-                    {a.name}
-                  </option>
-                ))}
-              </select>
-            </div>
-            <div className="flex flex-col gap-1">
-              <label htmlFor="instrumentId" className="text-xs font-semibold">
-                Instrument
-              </label>
-              <select id="instrumentId" name="instrumentId" defaultValue={query.instrumentId ?? ""} className={SELECT}>
-                <option value="">Any</option>
-                {queue.options.instruments.map((i) => (
-                  <option key={i.id} value={i.id}>
-                    {i.name}
-                  </option>
-                ))}
-              </select>
-            </div>
-            <div className="flex flex-col gap-1">
-              <label htmlFor="species" className="text-xs font-semibold">
-                Species called present
-              </label>
-              <select id="species" name="species" defaultValue={query.species ?? ""} className={SELECT}>
-                <option value="">Any</option>
-                {queue.options.species.map((s) => (
-                  <option key={s} value={s}>
-                    {s}
-                  </option>
-                ))}
-              </select>
-            </div>
+            <FilterSelect
+              id="author"
+              name="author"
+              label="Author"
+              anyLabel="Anyone"
+              defaultValue={query.author ?? ""}
+              options={queue.options.authors.map((a) => ({ value: a.id, label: a.name }))}
+            />
+            <FilterSelect
+              id="instrumentId"
+              name="instrumentId"
+              label="Instrument"
+              anyLabel="Any"
+              defaultValue={query.instrumentId ?? ""}
+              options={queue.options.instruments.map((i) => ({ value: i.id, label: i.name }))}
+            />
+            <FilterSelect
+              id="species"
+              name="species"
+              label="Species called present"
+              anyLabel="Any"
+              defaultValue={query.species ?? ""}
+              options={queue.options.species.map((sp) => ({ value: sp, label: sp }))}
+            />
             <button type="submit" className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800">
               Filter
             </button>
