@@ -5,12 +5,11 @@ import { QueryTypes } from "sequelize";
 import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize, type TeamAction } from "@/lib/auth/policy";
-import type { Verdict } from "@/lib/spectrum/matching";
 import type { NotebookListQuery, NotebookRenameInput, NotebookRunsQuery } from "@/lib/validation/notebook-schemas";
 import { Notebook, sequelize } from "@/models";
 import { recordAudit } from "./audit";
-import { standingVerdicts } from "./runs";
-import type { NotebookRecord, RunCall, RunOverrideRecord, RunStatus, RunSummary } from "./workflow-types";
+import { overridesByRun, standingVerdicts } from "./runs";
+import type { NotebookRecord, RunCall, RunStatus, RunSummary } from "./workflow-types";
 
 /** A notebook the actor may act on; another team's is not found. */
 export async function loadNotebook(actor: Actor, notebookId: string, action: TeamAction = "team.view"): Promise<Notebook> {
@@ -228,37 +227,4 @@ export async function fetchNotebookRuns(actor: Actor, notebookId: string, query:
       };
     })
     .filter((r) => !needle || r.present.some((species) => speciesMatches(species, needle)));
-}
-
-/** The override history of several runs at once, oldest first per run (what standingVerdicts expects). */
-async function overridesByRun(runIds: string[]): Promise<Map<string, RunOverrideRecord[]>> {
-  const byRun = new Map<string, RunOverrideRecord[]>();
-  if (runIds.length === 0) return byRun;
-  const rows = await sequelize.query<{
-    id: string;
-    run_id: string;
-    species: string;
-    computed_verdict: Verdict;
-    verdict: Verdict | null;
-    reason: string;
-    created_at: Date;
-  }>(
-    `SELECT id, run_id, species, computed_verdict, verdict, reason, created_at
-       FROM run_overrides WHERE run_id = ANY($1::uuid[]) ORDER BY created_at, id`,
-    { bind: [runIds], type: QueryTypes.SELECT },
-  );
-  for (const o of rows) {
-    const list = byRun.get(o.run_id) ?? [];
-    list.push({
-      id: o.id,
-      species: o.species,
-      computedVerdict: o.computed_verdict,
-      verdict: o.verdict,
-      reason: o.reason,
-      byName: null,
-      at: new Date(o.created_at).toISOString(),
-    });
-    byRun.set(o.run_id, list);
-  }
-  return byRun;
 }

@@ -33,8 +33,8 @@ import { MAX_FAILURES_PER_ACCOUNT, THROTTLE_WINDOW_MINUTES, normaliseEmail } fro
 import { recordAudit } from "./audit";
 import { buildRunContent, calibrationModelLabel, runContentHash } from "./run-content";
 import { STATUS_LABEL, assertAuthorMayEdit, loadRun, lockReason } from "./run-lifecycle";
-import { standingVerdicts } from "./runs";
-import type { RunCall, RunOverrideRecord } from "./workflow-types";
+import { overridesByRun, standingVerdicts } from "./runs";
+import type { RunCall } from "./workflow-types";
 
 /** What a signature says, recorded with it and shown beside it. */
 export const SIGNATURE_MEANING = "Reviewed and approved";
@@ -725,14 +725,10 @@ export async function fetchReviewQueue(actor: Actor, query: ReviewQueueQuery): P
       ORDER BY r.submitted_at ASC, r.id ASC`,
     { bind: [query.teamId, actor.id], type: QueryTypes.SELECT },
   );
-  const overrides = rows.length
-    ? await RunOverride.findAll({ where: { runId: rows.map((r) => r.id) }, order: [["createdAt", "ASC"], ["id", "ASC"]] })
-    : [];
+  const overrides = await overridesByRun(rows.map((r) => r.id));
   const now = Date.now();
   const all: ReviewQueueItem[] = rows.map((row) => {
-    const own: RunOverrideRecord[] = overrides
-      .filter((o) => o.runId === row.id)
-      .map((o) => ({ id: o.id, species: o.species, computedVerdict: o.computedVerdict, verdict: o.verdict, reason: o.reason, byName: null, at: o.createdAt.toISOString() }));
+    const own = overrides.get(row.id) ?? [];
     const verdicts: Record<string, Verdict> = standingVerdicts(row.calls, own);
     const submittedAt = new Date(row.submitted_at);
     return {

@@ -80,9 +80,12 @@ function toRunCall(call: ElementCall): StoredRunCall {
   };
 }
 
-async function overridesOf(runId: string, transaction?: Transaction): Promise<RunOverrideRecord[]> {
+/** The override history of several runs at once (one query), oldest first per run, as standingVerdicts expects. */
+export async function overridesByRun(runIds: readonly string[], transaction?: Transaction): Promise<Map<string, RunOverrideRecord[]>> {
+  const byRun = new Map<string, RunOverrideRecord[]>();
+  if (runIds.length === 0) return byRun;
   const rows = await RunOverride.findAll({
-    where: { runId },
+    where: { runId: [...runIds] },
     include: [{ model: User, as: "createdBy", attributes: ["name"] }],
     order: [
       ["createdAt", "ASC"],
@@ -90,15 +93,24 @@ async function overridesOf(runId: string, transaction?: Transaction): Promise<Ru
     ],
     transaction,
   });
-  return rows.map((o) => ({
-    id: o.id,
-    species: o.species,
-    computedVerdict: o.computedVerdict,
-    verdict: o.verdict,
-    reason: o.reason,
-    byName: (o as RunOverride & { createdBy?: User }).createdBy?.name ?? null,
-    at: o.createdAt.toISOString(),
-  }));
+  for (const o of rows) {
+    const list = byRun.get(o.runId) ?? [];
+    list.push({
+      id: o.id,
+      species: o.species,
+      computedVerdict: o.computedVerdict,
+      verdict: o.verdict,
+      reason: o.reason,
+      byName: (o as RunOverride & { createdBy?: User }).createdBy?.name ?? null,
+      at: o.createdAt.toISOString(),
+    });
+    byRun.set(o.runId, list);
+  }
+  return byRun;
+}
+
+async function overridesOf(runId: string, transaction?: Transaction): Promise<RunOverrideRecord[]> {
+  return (await overridesByRun([runId], transaction)).get(runId) ?? [];
 }
 
 /** The verdict that stands per species: the newest override, else the computed verdict. */
