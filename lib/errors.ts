@@ -8,7 +8,8 @@ export type ErrorCode =
   | "conflict"
   | "rate_limited"
   | "unprocessable"
-  | "too_large";
+  | "too_large"
+  | "unavailable";
 
 const STATUS: Record<ErrorCode, number> = {
   unauthenticated: 401,
@@ -19,6 +20,8 @@ const STATUS: Record<ErrorCode, number> = {
   rate_limited: 429,
   unprocessable: 422,
   too_large: 413,
+  /** Busy or out of reach for a moment (a full work queue, the database gone): retry after Retry-After. */
+  unavailable: 503,
 };
 
 export type FieldErrors = Record<string, string[]>;

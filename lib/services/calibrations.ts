@@ -7,7 +7,6 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
-import { calibrateLamp } from "@/lib/spectrum/analysis";
 import {
   CalibrationError,
   calibrationUncertainty,
@@ -24,6 +23,7 @@ import {
   type LampPairingResult,
 } from "@/lib/spectrum/calibration";
 import type { Peak } from "@/lib/spectrum/types";
+import { runHeavyTask } from "@/lib/workers/heavy-pool";
 import { CALIBRATION_MODELS, type CalibrationCreateInput, type CalibrationModelChoice } from "@/lib/validation/workflow-schemas";
 import { Calibration, sequelize } from "@/models";
 import { recordAudit } from "./audit";
@@ -75,7 +75,7 @@ function toPairRecord(pair: FittedCalibrationPair): CalibrationPairRecord {
   };
 }
 
-function toCalibrationRecord(row: Calibration): CalibrationRecord {
+export function toCalibrationRecord(row: Calibration): CalibrationRecord {
   return {
     id: row.id,
     instrumentId: row.instrumentId,
@@ -279,7 +279,8 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
   const apexDeg = instrument.apexDeg ?? undefined;
 
   try {
-    const auto = calibrateLamp(x, y, lines, { ...pairingOptions, model: "auto" });
+    // Automatic pairing (up to seconds of CPU on a prism) runs in the worker pool, off the request thread.
+    const auto = await runHeavyTask({ kind: "calibrate-lamp", x, y, lines, options: { ...pairingOptions, model: "auto" } });
     const peaks = auto.peaks;
     let pairing: LampPairingResult = auto.pairing;
     let fit: FitCalibrationResult | null = auto.fit;

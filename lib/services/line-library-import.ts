@@ -1,11 +1,11 @@
 // CSV import into a draft: a preview that writes nothing (adds, changes old → new, unchanged, every
 // rejected row located in the file), and an apply that writes exactly that preview in one transaction.
 import "server-only";
-import { createHash, randomUUID } from "node:crypto";
-import Papa from "papaparse";
+import { randomUUID } from "node:crypto";
 import type { Transaction } from "sequelize";
-import { lineLocator, parseLineTableCsv, type LineTableError, type LineTableRow } from "@/lib/lines";
+import type { LineTableError } from "@/lib/lines";
 import { AppError } from "@/lib/errors";
+import { runHeavyTask } from "@/lib/workers/heavy-pool";
 import type { Actor } from "@/lib/auth/actor";
 import { AuditEvent, sequelize } from "@/models";
 import { recordAudit } from "./audit";
@@ -14,17 +14,18 @@ import {
   BULK_INSERT_LINES_SQL,
   BULK_UPDATE_LINES_SQL,
   bulkInsertPayload,
-  differingFields,
   toLineTableRow,
   valuesOf,
-  type LineDbRow,
 } from "./line-library-rows";
-import type { ImportChange, ImportPreview } from "./line-library-types";
+import type { ImportPreview } from "./line-library-types";
 
-/** Rows of one species closer than this in vacuum wavelength are taken as the same line (common practice). */
-export const MATCH_TOLERANCE_NM = 0.002;
+export { MATCH_TOLERANCE_NM } from "./line-import-plan";
 export const MAX_IMPORT_BYTES = 5 * 1024 * 1024;
-const UUID_PATTERN = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+/**
+ * Rows one import takes. A 100,000-row file held the draft's lock for minutes; a bounded file keeps the
+ * preview and the apply to seconds, and a larger table goes in as several files one after the other.
+ */
+export const MAX_IMPORT_ROWS = 20_000;
 
 export interface ImportApplyResult {
   releaseId: string;
@@ -33,201 +34,6 @@ export interface ImportApplyResult {
   unchangedCount: number;
   /** Rows left out (only with skipRejected). */
   rejected: LineTableError[];
-}
-
-interface LineKeyColumn {
-  /** The text without the line_key column, line numbers unchanged. */
-  text: string;
-  /** line_key by the file line where its record starts. */
-  keys: Map<number, string>;
-  /** 1-based CSV column of line_key in the original file. */
-  column: number | null;
-}
-
-/**
- * parseLineTableCsv knows only the table's own columns, so the line_key column that exports carry
- * is cut out first. Each record is written back at the line where it started (comment lines become
- * blank), so every error the parser reports still points at the right line of the original file.
- */
-function splitLineKeyColumn(original: string): LineKeyColumn {
-  const text = original.startsWith("\uFEFF") ? original.slice(1) : original;
-  const none: LineKeyColumn = { text, keys: new Map(), column: null };
-  const lineOf = lineLocator(text);
-  const out: string[] = new Array(lineOf(text.length)).fill("");
-  const keys = new Map<number, string>();
-  let keyIndex: number | null = null;
-  let sawHeader = false;
-  Papa.parse<string[]>(text, {
-    delimiter: ",",
-    comments: "#",
-    skipEmptyLines: false,
-    step: (result, parser) => {
-      const cells = result.data;
-      if (cells.every((cell) => cell.trim() === "")) return;
-      let end = result.meta.cursor;
-      if (text[end - 1] === "\n") end -= 1;
-      if (text[end - 1] === "\r") end -= 1;
-      const innerBreaks = cells.reduce((sum, cell) => sum + (cell.match(/\n/g)?.length ?? 0), 0);
-      const line = lineOf(Math.max(end - 1, 0)) - innerBreaks;
-      if (!sawHeader) {
-        sawHeader = true;
-        const index = cells.findIndex((cell) => cell.trim() === "line_key");
-        if (index === -1) {
-          parser.abort();
-          return;
-        }
-        keyIndex = index;
-      } else if (
-        keyIndex !== null &&
-        cells[keyIndex] !== undefined &&
-        cells[keyIndex].trim() !== ""
-      ) {
-        keys.set(line, cells[keyIndex].trim());
-      }
-      const kept = cells.filter((_, i) => i !== keyIndex);
-      const written = Papa.unparse([kept], { newline: "\n" }).split("\n");
-      written.forEach((part, i) => {
-        if (line - 1 + i < out.length) out[line - 1 + i] = part;
-      });
-    },
-  });
-  return keyIndex === null ? none : { text: out.join("\n"), keys, column: keyIndex + 1 };
-}
-
-/** The draft's state in one hash: any edit (a new row, a bumped version) changes it. */
-function draftStateHash(rows: readonly LineDbRow[]): string {
-  const hash = createHash("sha256");
-  for (const row of [...rows].sort((a, b) => (a.id < b.id ? -1 : 1)))
-    hash.update(`${row.id}:${row.version};`);
-  return hash.digest("hex");
-}
-
-interface PlannedImport {
-  preview: ImportPreview;
-  addRows: LineTableRow[];
-  changeRows: { row: LineDbRow; next: LineTableRow; fields: string[] }[];
-}
-
-/** Matches a file against the draft's rows. Pure apart from the rows it is given. */
-function planImport(releaseId: string, csvText: string, draftRows: LineDbRow[]): PlannedImport {
-  // One line-break convention: a file re-sent by a form (CRLF) keeps its preview's fingerprint.
-  csvText = csvText.replace(/\r\n?/g, "\n");
-  const split = splitLineKeyColumn(csvText);
-  const parsed = parseLineTableCsv(split.text);
-  const errors: LineTableError[] = parsed.errors.map((error) =>
-    split.column !== null && error.column !== undefined && error.column >= split.column
-      ? { ...error, column: error.column + 1 }
-      : error,
-  );
-  const reject = (line: number, field: string, message: string) =>
-    errors.push(
-      field === "line_key" && split.column !== null
-        ? { line, column: split.column, field, message }
-        : { line, field, message },
-    );
-
-  const byKey = new Map(draftRows.map((row) => [row.line_key, row]));
-  const bySpecies = new Map<string, LineDbRow[]>();
-  for (const row of draftRows) {
-    const list = bySpecies.get(row.species) ?? [];
-    list.push(row);
-    bySpecies.set(row.species, list);
-  }
-  const nearest = (row: LineTableRow, pool: readonly { vacuumNm: number }[]) => {
-    let best: number | null = null;
-    pool.forEach((candidate, index) => {
-      const distance = Math.abs(candidate.vacuumNm - row.vacuumNm);
-      if (
-        distance <= MATCH_TOLERANCE_NM &&
-        (best === null || distance < Math.abs(pool[best].vacuumNm - row.vacuumNm))
-      ) {
-        best = index;
-      }
-    });
-    return best;
-  };
-
-  const matchedBy = new Map<string, number>();
-  const adds: ImportPreview["adds"] = [];
-  const addRows: LineTableRow[] = [];
-  const addsBySpecies = new Map<string, { vacuumNm: number; csvLine: number }[]>();
-  const changes: ImportChange[] = [];
-  const changeRows: PlannedImport["changeRows"] = [];
-  let unchangedCount = 0;
-
-  parsed.rows.forEach((row, index) => {
-    const csvLine = parsed.rowLines[index];
-    const key = split.keys.get(csvLine);
-    let match: LineDbRow | undefined;
-    if (key !== undefined) {
-      if (!UUID_PATTERN.test(key)) return reject(csvLine, "line_key", `"${key}" is not a line key`);
-      match = byKey.get(key.toLowerCase());
-      if (!match) {
-        return reject(
-          csvLine,
-          "line_key",
-          `line_key ${key} is not a line of this draft; leave the cell blank to add the row as a new line`,
-        );
-      }
-    } else {
-      const pool = (bySpecies.get(row.species) ?? []).map((r) => ({
-        vacuumNm: r.vacuum_nm,
-        row: r,
-      }));
-      const best = nearest(row, pool);
-      if (best !== null) match = pool[best].row;
-    }
-    if (match) {
-      const earlier = matchedBy.get(match.id);
-      if (earlier !== undefined) {
-        return reject(
-          csvLine,
-          "row",
-          `duplicate inside the file: line ${earlier} already describes ${match.species} ${match.air_nm ?? match.vacuum_nm} nm`,
-        );
-      }
-      matchedBy.set(match.id, csvLine);
-      const before = toLineTableRow(match);
-      const fields = differingFields(before, row);
-      if (fields.length === 0) unchangedCount += 1;
-      else {
-        changes.push({
-          lineId: match.id,
-          lineKey: match.line_key,
-          csvLine,
-          before,
-          after: row,
-          fields,
-        });
-        changeRows.push({ row: match, next: row, fields });
-      }
-      return;
-    }
-    const twins = addsBySpecies.get(row.species) ?? [];
-    const twin = nearest(row, twins);
-    if (twin !== null) {
-      return reject(
-        csvLine,
-        "row",
-        `duplicate inside the file: line ${twins[twin].csvLine} already adds ${row.species} within ${MATCH_TOLERANCE_NM} nm`,
-      );
-    }
-    twins.push({ vacuumNm: row.vacuumNm, csvLine });
-    addsBySpecies.set(row.species, twins);
-    adds.push({ csvLine, row });
-    addRows.push(row);
-  });
-
-  errors.sort((a, b) => a.line - b.line || (a.column ?? 0) - (b.column ?? 0));
-  const fingerprint = createHash("sha256")
-    .update(`${releaseId}\n${draftStateHash(draftRows)}\n`)
-    .update(csvText)
-    .digest("hex");
-  return {
-    preview: { releaseId, adds, changes, unchangedCount, errors, fingerprint },
-    addRows,
-    changeRows,
-  };
 }
 
 function assertSize(csvText: string): void {
@@ -242,6 +48,31 @@ function assertSize(csvText: string): void {
       `The file is larger than ${MAX_IMPORT_BYTES / 1024 / 1024} MB.`,
     );
   }
+  // Counted before any lock or parse: a record takes at least one line, so this never undercounts.
+  const rows = countDataLines(csvText);
+  if (rows > MAX_IMPORT_ROWS) {
+    throw new AppError(
+      "too_large",
+      `The file has ${rows.toLocaleString("en")} rows; one import takes at most ${MAX_IMPORT_ROWS.toLocaleString("en")}. ` +
+        `Split it into files of at most ${MAX_IMPORT_ROWS.toLocaleString("en")} rows and import them one after the other.`,
+      { fieldErrors: { csv: [`At most ${MAX_IMPORT_ROWS.toLocaleString("en")} rows per file.`] } },
+    );
+  }
+}
+
+/** Lines that are neither blank nor # comments, less the header: an upper bound of the file's records. */
+function countDataLines(csvText: string): number {
+  let count = 0;
+  let start = 0;
+  while (start <= csvText.length) {
+    let end = csvText.indexOf("\n", start);
+    if (end < 0) end = csvText.length;
+    let i = start;
+    while (i < end && (csvText[i] === " " || csvText[i] === "\t" || csvText[i] === "\r" || csvText[i] === "\uFEFF")) i++;
+    if (i < end && csvText[i] !== "#") count++;
+    start = end + 1;
+  }
+  return Math.max(0, count - 1);
 }
 
 async function plan(
@@ -253,7 +84,9 @@ async function plan(
 ) {
   const draft = await lockDraft(actor, releaseId, "lines.edit", transaction, mode);
   const rows = await selectLines("l.release_id = $1", [draft.id], transaction);
-  return { draft, planned: planImport(draft.id, csvText, rows) };
+  // The parse and the matching run in the worker pool: a large file no longer stalls other requests.
+  const planned = await runHeavyTask({ kind: "plan-line-import", releaseId: draft.id, csvText, draftRows: rows });
+  return { draft, planned };
 }
 
 /** What applying the file would do to the draft. Writes nothing. */

@@ -2,42 +2,27 @@
 // spectrum as JCAMP-DX, and a notebook's calls CSV. Authorise (team.view; another team's run is not
 // found) → gather the plain records → render with lib/reports. Downloads change nothing: no audit.
 import "server-only";
-import fs from "node:fs";
-import path from "node:path";
 import type { Actor } from "@/lib/auth/actor";
+import { authorize } from "@/lib/auth/policy";
+import { notFound } from "@/lib/errors";
 import { formatNotebookCallsCsv, type NotebookCallsRun } from "@/lib/reports/notebook-calls-csv";
 import { formatPeaksCsv, type StoredPeakMatch } from "@/lib/reports/peaks-csv";
-import { renderReportPdf, type ReportFonts } from "@/lib/reports/render-report-pdf";
 import { buildRunReport, shortRunId, type ReportRound, type RunReport } from "@/lib/reports/report-model";
 import type { ReportFile } from "@/lib/reports/report-response";
 import { formatRunSpectrumJdx } from "@/lib/reports/spectrum-jdx";
 import { thinSpectrum } from "@/lib/reports/thin-spectrum";
 import type { WavelengthMedium } from "@/lib/spectrum/types";
-import { Instrument, LineRelease, Run, RunRound, RunSignature, SpectrumFile, Team, User } from "@/models";
-import { fetchCalibration } from "./calibrations";
-import { fetchInstrument } from "./instruments";
+import { runHeavyTask } from "@/lib/workers/heavy-pool";
+import { Calibration, Instrument, LineRelease, Notebook, Run, RunRound, RunSignature, SpectrumFile, Team, User } from "@/models";
+import { toCalibrationRecord } from "./calibrations";
 import { loadNotebook } from "./notebooks";
+import { keepReportPdf, keptReportPdf } from "./report-cache";
 import { loadRun } from "./run-lifecycle";
-import { fetchRunSpectrum } from "./run-spectrum";
+import { fetchRunSpectrum, runSpectrumOf } from "./run-spectrum";
 import { toRunRecord } from "./runs";
-import { fetchSpectrum } from "./spectra";
-
 
 /** Points drawn in the report's chart; each bucket keeps its extremes, so no line is lost. */
 const CHART_POINTS = 3000;
-
-let fonts: ReportFonts | undefined;
-
-/** IBM Plex as WOFF 1 from fonts/ (fontkit subsets WOFF but not WOFF2), read once. */
-function reportFonts(): ReportFonts {
-  const read = (name: string) => fs.readFileSync(path.join(process.cwd(), "fonts", name));
-  fonts ??= {
-    sans: read("IBMPlexSans-Regular.woff"),
-    sansBold: read("IBMPlexSans-SemiBold.woff"),
-    mono: read("IBMPlexMono-Regular.woff"),
-  };
-  return fonts;
-}
 
 async function namesOf(ids: (string | null)[]): Promise<Map<string, string>> {
   const wanted = [...new Set(ids.filter((id): id is string => id !== null))];
@@ -50,23 +35,41 @@ function baseName(run: { id: string; versionNumber: number }): string {
   return `emberline-run-${shortRunId(run.id)}-v${run.versionNumber}`;
 }
 
+/** The run a report is made from, without its candidate matches (no report shows them; 3 MB on a large table). */
+async function loadReportRun(actor: Actor, runId: string): Promise<Run> {
+  const row = await Run.findByPk(runId, { attributes: { exclude: ["matches"] } });
+  if (!row) throw notFound("No such run.");
+  authorize(actor, "team.view", { teamId: row.teamId });
+  return row;
+}
+
+type ReportAndChart = { report: RunReport; chart: { wavelengthNm: Float64Array; counts: Float64Array } };
+
 /** Everything the report shows, and the spectrum thinned for its chart. */
-export async function fetchRunReport(
-  actor: Actor,
-  runId: string,
-): Promise<{ report: RunReport; chart: { wavelengthNm: Float64Array; counts: Float64Array } }> {
-  const row = await loadRun(actor, runId);
-  const run = await toRunRecord(row);
-  const spectrum = await fetchSpectrum(actor, run.spectrumId);
-  const [instrument, calibration, release, notebook, signature, rounds, points] = await Promise.all([
-    fetchInstrument(actor, spectrum.instrumentId),
-    run.calibrationId ? fetchCalibration(actor, run.calibrationId) : Promise.resolve(null),
-    LineRelease.findByPk(run.lineReleaseId),
-    loadNotebook(actor, run.notebookId),
-    RunSignature.findOne({ where: { runId: run.id } }),
-    RunRound.findAll({ where: { runId: run.id }, order: [["round", "ASC"]] }),
-    fetchRunSpectrum(actor, run.id),
+export async function fetchRunReport(actor: Actor, runId: string): Promise<ReportAndChart> {
+  return reportOf(await loadReportRun(actor, runId));
+}
+
+/**
+ * Each row once: the run (given), the spectrum (without the raw upload), the calibration; the records
+ * and the chart are made from these rows rather than fetched again by the services that serve pages.
+ */
+async function reportOf(row: Run): Promise<ReportAndChart> {
+  const [run, spectrumRow, calibrationRow, release, notebook, signature, rounds] = await Promise.all([
+    toRunRecord(row),
+    SpectrumFile.findByPk(row.spectrumId, { attributes: { exclude: ["rawBytes"] } }),
+    row.calibrationId ? Calibration.findByPk(row.calibrationId) : Promise.resolve(null),
+    LineRelease.findByPk(row.lineReleaseId, { attributes: ["id", "number", "publishedAt"] }),
+    Notebook.findByPk(row.notebookId, { attributes: ["id", "title"] }),
+    RunSignature.findOne({ where: { runId: row.id } }),
+    RunRound.findAll({ where: { runId: row.id }, order: [["round", "ASC"]] }),
   ]);
+  if (!spectrumRow || !notebook) throw notFound("No such run.");
+  const instrument = await Instrument.findByPk(spectrumRow.instrumentId, { attributes: ["id", "name", "dispersion"] });
+  if (!instrument) throw notFound("No such run.");
+  const calibration = calibrationRow ? toCalibrationRecord(calibrationRow) : null;
+  const points = runSpectrumOf(row, spectrumRow, calibrationRow);
+  const spectrum = { id: spectrumRow.id, fileName: spectrumRow.fileName, label: spectrumRow.label, sha256: spectrumRow.sha256, points: spectrumRow.pointCount };
   const names = await namesOf([
     run.createdById,
     ...rounds.flatMap((r) => [r.submittedById, r.requestedReviewerId, r.decidedById ?? null]),
@@ -107,10 +110,36 @@ export async function fetchRunReport(
   return { report, chart: { wavelengthNm: thin.x, counts: thin.y } };
 }
 
+/** Renders in the worker pool (seconds of CPU; 503 with Retry-After when its queue is full). */
+async function renderPdf(row: Run): Promise<{ report: RunReport; pdf: Buffer }> {
+  const { report, chart } = await reportOf(row);
+  const bytes = await runHeavyTask({ kind: "report-pdf", report, chart });
+  return { report, pdf: Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength) };
+}
+
+/** Renders of a signed run in flight in this process, so that requests arriving together share one. */
+const signedRenders = new Map<string, Promise<Buffer>>();
+
+/**
+ * A signed run's report is rendered once and kept (it can no longer change; its "generated" time is
+ * the first render's); any other run's is rendered on every request, as its state may have moved on.
+ */
 export async function runReportPdf(actor: Actor, runId: string): Promise<ReportFile> {
-  const { report, chart } = await fetchRunReport(actor, runId);
-  const body = await renderReportPdf(report, { fonts: reportFonts(), spectrum: chart });
-  return { fileName: `${baseName({ id: report.runId, versionNumber: report.versionNumber })}.pdf`, contentType: "application/pdf", body };
+  const row = await loadReportRun(actor, runId);
+  const file = (body: Buffer): ReportFile => ({ fileName: `${baseName(row)}.pdf`, contentType: "application/pdf", body });
+  if (row.status !== "signed") return file((await renderPdf(row)).pdf);
+  const kept = await keptReportPdf(row.id);
+  if (kept) return file(kept);
+  let render = signedRenders.get(row.id);
+  if (!render) {
+    render = (async () => {
+      const { report, pdf } = await renderPdf(row);
+      if (report.signature) await keepReportPdf(row.id, report.signature.contentHash, pdf);
+      return pdf;
+    })().finally(() => signedRenders.delete(row.id));
+    signedRenders.set(row.id, render);
+  }
+  return file(await render);
 }
 
 export async function runPeaksCsv(actor: Actor, runId: string): Promise<ReportFile> {

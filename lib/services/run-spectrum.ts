@@ -6,7 +6,7 @@ import "server-only";
 import type { Actor } from "@/lib/auth/actor";
 import { evaluateCalibration } from "@/lib/spectrum/calibration";
 import { spectrumToNanometres } from "@/lib/spectrum/units";
-import { Calibration, type SpectrumFile } from "@/models";
+import { Calibration, type Run, type SpectrumFile } from "@/models";
 import { loadRun } from "./run-lifecycle";
 import { loadSpectrum, spectrumPoints } from "./spectra";
 
@@ -47,11 +47,20 @@ function storedContinuum(bytes: Buffer | null, points: number): Float64Array | n
 export async function fetchRunSpectrum(actor: Actor, runId: string): Promise<RunSpectrum> {
   const run = await loadRun(actor, runId);
   const spectrum = await loadSpectrum(actor, run.spectrumId);
+  const calibration = run.calibrationId ? (await Calibration.findByPk(run.calibrationId))! : null;
+  return runSpectrumOf(run, spectrum, calibration);
+}
+
+/** The run's spectrum from rows already loaded (the report loads each row once). */
+export function runSpectrumOf(
+  run: Pick<Run, "continuum" | "lampChecked">,
+  spectrum: SpectrumFile,
+  calibration: Pick<Calibration, "model"> | null,
+): RunSpectrum {
   let x: Float64Array;
   let y: Float64Array;
   let continuum: Float64Array | null;
-  if (run.calibrationId) {
-    const calibration = (await Calibration.findByPk(run.calibrationId))!;
+  if (calibration) {
     const points = spectrumPoints(spectrum);
     const nm = evaluateCalibration(calibration.model, points.x);
     const keep: number[] = [];

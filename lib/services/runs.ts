@@ -6,11 +6,12 @@ import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
 import { toReferenceLine } from "@/lib/lines";
-import { analyzeSample, type SampleAnalysis } from "@/lib/spectrum/analysis";
+import { analyzeSample, type AnalyzeSampleOptions, type SampleAnalysis } from "@/lib/spectrum/analysis";
 import { dispersionAt, type CalibrationModel } from "@/lib/spectrum/calibration";
 import { prepareLineIndex, type ElementCall, type LineIndex, type Verdict } from "@/lib/spectrum/matching";
 import type { RunNotesInput, RunOverrideInput } from "@/lib/validation/run-schemas";
 import type { RunCreateInput } from "@/lib/validation/workflow-schemas";
+import { runHeavyTask } from "@/lib/workers/heavy-pool";
 import type { Transaction } from "sequelize";
 import { Calibration, Instrument, LineRelease, Notebook, Run, RunOverride, SpectrumFile, User, sequelize } from "@/models";
 import { recordAudit } from "./audit";
@@ -48,6 +49,31 @@ function lineIndexOf(releaseId: string): Promise<LineIndex> {
     indexCache.set(releaseId, index);
   }
   return index;
+}
+
+/**
+ * Samples of at least this many points are analysed in the worker pool; smaller ones take a few
+ * milliseconds, less than handing them over. EMBERLINE_WORKER_ANALYSIS_MIN_POINTS changes it.
+ */
+const WORKER_ANALYSIS_MIN_POINTS = Number(process.env.EMBERLINE_WORKER_ANALYSIS_MIN_POINTS ?? 8192);
+
+/**
+ * analyzeSample, in the worker pool when the sample is large or an assumed excitation temperature makes
+ * it re-weigh the whole table (seconds on a large table). A worker keeps its own index per release:
+ * the lines are sent only when the worker answers that it has none.
+ */
+async function analyzeOffThreadWhenLarge(
+  x: Float64Array,
+  y: Float64Array,
+  releaseId: string,
+  index: LineIndex,
+  options: AnalyzeSampleOptions,
+): Promise<SampleAnalysis> {
+  const heavy = x.length >= WORKER_ANALYSIS_MIN_POINTS || options.lteTemperatureK != null;
+  if (!heavy) return analyzeSample(x, y, index, options);
+  const task = { kind: "analyze-sample" as const, x, y, releaseId, options };
+  const first = await runHeavyTask({ ...task, lines: null });
+  return first ?? (await runHeavyTask({ ...task, lines: index.lines }))!;
 }
 
 function toRunCall(call: ElementCall): StoredRunCall {
@@ -324,7 +350,7 @@ async function analyseAndStore(actor: Actor, plan: RunPlan): Promise<RunRecord> 
   const { x, y } = calibration ? spectrumPoints(spectrum) : fileAxisInNm(spectrum);
   let analysis: SampleAnalysis;
   try {
-    analysis = analyzeSample(x, y, index, {
+    analysis = await analyzeOffThreadWhenLarge(x, y, release.id, index, {
       calibration: calibration?.model ?? null,
       source,
       ...instrumentResolution(instrument, calibration?.model ?? null, x),

@@ -1,0 +1,77 @@
+// The worker pool: tasks run on a thread and come back; a full queue refuses at once with 503 and
+// Retry-After (not a longer wait); errors thrown on the thread come back as the classes services catch.
+import path from "node:path";
+import { afterAll, describe, expect, it } from "vitest";
+import { AppError, toResponse } from "@/lib/errors";
+import { CalibrationError } from "@/lib/spectrum/calibration";
+import { reviveTaskError, runHeavyTask } from "@/lib/workers/heavy-pool";
+import { createWorkPool } from "@/lib/workers/work-pool";
+
+const filename = path.resolve("lib/workers/heavy-worker.mjs");
+// One thread and room for one waiting task: a third task at once finds the queue full.
+const pool = createWorkPool({ filename, threads: 1, maxQueue: 1, retryAfterSeconds: 7 });
+
+afterAll(() => pool.close());
+
+// A thread starts by compiling the tasks with tsx (seconds on a busy machine): generous limits.
+describe("createWorkPool", { timeout: 120_000 }, () => {
+  it("runs a task on a thread and returns its plain result", async () => {
+    await expect(runHeavyTask({ kind: "sleep", ms: 5 }, pool)).resolves.toEqual({ sleptMs: 5 });
+  });
+
+  it("refuses with 503 and Retry-After when the queue is full, and runs what it accepted", async () => {
+    const settled = await Promise.allSettled(
+      [0, 1, 2, 3].map(() => runHeavyTask({ kind: "sleep", ms: 400 }, pool)),
+    );
+    const fulfilled = settled.filter((s) => s.status === "fulfilled");
+    const refused = settled.flatMap((s) => (s.status === "rejected" ? [s.reason as unknown] : []));
+    // One running, one waiting; the other two refused.
+    expect(fulfilled).toHaveLength(2);
+    expect(refused).toHaveLength(2);
+    for (const error of refused) {
+      expect(error).toBeInstanceOf(AppError);
+      expect((error as AppError).code).toBe("unavailable");
+      expect((error as AppError).status).toBe(503);
+      const response = toResponse(error);
+      expect(response.status).toBe(503);
+      expect(response.headers.get("Retry-After")).toBe("7");
+      const body = (await response.json()) as { error: { message: string } };
+      expect(body.error.message).toMatch(/busy/);
+    }
+    // The refusal was not permanent: once the queue drains, the pool takes work again.
+    await expect(runHeavyTask({ kind: "sleep", ms: 1 }, pool)).resolves.toEqual({ sleptMs: 1 });
+  });
+
+  it("brings back an error thrown on the thread as the class the service catches", async () => {
+    // A lamp calibration with mismatched arrays throws a RangeError inside the core, on the thread.
+    const task = {
+      kind: "calibrate-lamp" as const,
+      x: Float64Array.of(0, 1, 2),
+      y: Float64Array.of(1, 2),
+      lines: [],
+      options: { nominalRangeNm: [400, 700] as [number, number], dispersion: "grating" as const },
+    };
+    await expect(runHeavyTask(task, pool)).rejects.toBeInstanceOf(RangeError);
+  });
+});
+
+describe("reviveTaskError", () => {
+  it("keeps a calibration error's class, code and details", () => {
+    const revived = reviveTaskError({
+      name: "CalibrationError",
+      message: "too few",
+      code: "too-few-pairs",
+      details: { needed: 3 },
+    });
+    expect(revived).toBeInstanceOf(CalibrationError);
+    expect((revived as CalibrationError).code).toBe("too-few-pairs");
+    expect((revived as CalibrationError).details).toEqual({ needed: 3 });
+  });
+
+  it("keeps RangeError and the name of anything else", () => {
+    expect(reviveTaskError({ name: "RangeError", message: "x" })).toBeInstanceOf(RangeError);
+    const other = reviveTaskError({ name: "SpectrumParseError", message: "y" });
+    expect(other.name).toBe("SpectrumParseError");
+    expect(other.message).toBe("y");
+  });
+});
