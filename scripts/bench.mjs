@@ -1,4 +1,6 @@
 // `npm run bench [-- --json]`: runs the benchmarks with tsx (no timing ever runs inside the tests).
+// `npm run bench -- --load [--clients N --seconds S --pdf-share F --build]`: the production build under
+// load instead (bench/load-bench.mjs, which starts its own database, app and clients on loopback).
 // The line-table bench needs PostgreSQL: the local cluster is started here (and stopped after)
 // when it is not already running; the bench builds and drops its own throwaway database.
 import { spawnSync } from "node:child_process";
@@ -6,6 +8,11 @@ import path from "node:path";
 import { startCluster } from "../db/cluster.mjs";
 import { ensureDependencies, root } from "./bootstrap.mjs";
 
+if (process.argv.includes("--load")) {
+  const args = process.argv.slice(2).filter((a) => a !== "--load");
+  const result = spawnSync(process.execPath, [path.join(root, "bench", "load-bench.mjs"), ...args], { cwd: root, stdio: "inherit" });
+  process.exit(result.status ?? 1);
+}
 ensureDependencies();
 const tsx = path.join(root, "node_modules", ".bin", "tsx");
 const args = process.argv.slice(2);
