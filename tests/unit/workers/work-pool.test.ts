@@ -3,7 +3,10 @@
 import path from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
 import { AppError, toResponse } from "@/lib/errors";
+import { analyzeSample } from "@/lib/spectrum/analysis";
 import { CalibrationError } from "@/lib/spectrum/calibration";
+import { synthesizeSpectrum } from "@/lib/spectrum/synthetic";
+import type { ReferenceLine } from "@/lib/spectrum/types";
 import { reviveTaskError, runHeavyTask } from "@/lib/workers/heavy-pool";
 import { createWorkPool } from "@/lib/workers/work-pool";
 
@@ -20,6 +23,8 @@ describe("createWorkPool", { timeout: 120_000 }, () => {
   });
 
   it("refuses with 503 and Retry-After when the queue is full, and runs what it accepted", async () => {
+    // The thread is up first (a thread still starting would hold tasks in the queue too).
+    await runHeavyTask({ kind: "sleep", ms: 1 }, pool);
     const settled = await Promise.allSettled(
       [0, 1, 2, 3].map(() => runHeavyTask({ kind: "sleep", ms: 400 }, pool)),
     );
@@ -52,6 +57,52 @@ describe("createWorkPool", { timeout: 120_000 }, () => {
       options: { nominalRangeNm: [400, 700] as [number, number], dispersion: "grating" as const },
     };
     await expect(runHeavyTask(task, pool)).rejects.toBeInstanceOf(RangeError);
+  });
+});
+
+describe("the analyze-sample task", { timeout: 120_000 }, () => {
+  const LINES_NM = [420, 465, 510, 630, 680];
+  const table: ReferenceLine[] = LINES_NM.map((nm, i) => ({
+    id: `a${i}`,
+    species: "A I",
+    element: "A",
+    ionStage: 1,
+    airNm: nm,
+    vacuumNm: nm * 1.00028,
+    uncertaintyNm: 0.001,
+    intensities: { flame: 100 },
+    flags: {},
+  }));
+  const sample = synthesizeSpectrum({
+    pixelCount: 2048,
+    wavelengthOfPixel: (px) => 400 + (300 * px) / 2047,
+    resolutionNm: 0.6,
+    lines: LINES_NM.map((wavelengthNm) => ({ wavelengthNm, amplitude: 2000 })),
+    readNoiseCounts: 5,
+    darkCounts: 100,
+    seed: 5,
+  });
+  const x = Float64Array.from(sample.y, (_, px) => 400 + (300 * px) / 2047);
+
+  it("asks for the lines once per release, then answers what analyzeSample answers on the request thread", async () => {
+    const task = {
+      kind: "analyze-sample" as const,
+      x,
+      y: sample.y,
+      releaseId: "release-a",
+      options: { resolutionNm: 0.6 },
+    };
+    // One thread: the second call lands where the first built its index.
+    await expect(runHeavyTask({ ...task, lines: null }, pool)).resolves.toBeNull();
+    const first = await runHeavyTask({ ...task, lines: table }, pool);
+    const again = await runHeavyTask({ ...task, lines: null }, pool);
+    const direct = analyzeSample(x, sample.y, table, { resolutionNm: 0.6 });
+    expect(first!.identification.calls).toEqual(direct.identification.calls);
+    expect(again!.identification.calls).toEqual(direct.identification.calls);
+    expect(again!.peaks.map((p) => p.wavelengthNm)).toEqual(
+      direct.peaks.map((p) => p.wavelengthNm),
+    );
+    expect(direct.peaks.length).toBeGreaterThanOrEqual(LINES_NM.length);
   });
 });
 
