@@ -10,7 +10,11 @@ import { ensureDependencies, root } from "./bootstrap.mjs";
 
 if (process.argv.includes("--load")) {
   const args = process.argv.slice(2).filter((a) => a !== "--load");
-  const result = spawnSync(process.execPath, [path.join(root, "bench", "load-bench.mjs"), ...args], { cwd: root, stdio: "inherit" });
+  const result = spawnSync(
+    process.execPath,
+    [path.join(root, "bench", "load-bench.mjs"), ...args],
+    { cwd: root, stdio: "inherit" },
+  );
   process.exit(result.status ?? 1);
 }
 ensureDependencies();
