@@ -1,0 +1,429 @@
+// Decodes the data lines of a JCAMP-DX ##XYDATA=(X++(Y..Y)) block in every ASDF form (AFFN, PAC, SQZ, DIF,
+// DUP), bounded while it expands: a DUP count or a value that would pass the point limit stops decoding
+// before anything is stored, so a few bytes cannot ask for gigabytes (a 164-byte file once did).
+import { SpectrumParseError } from "./spectrum-parse-error";
+import { DEFAULT_MAX_POINTS } from "./spectrum-read-options";
+
+export interface DecodeJcampXyDataOptions {
+  /**
+   * Offset in `text` of the first data line.
+   * @default 0
+   */
+  start?: number;
+  /**
+   * Offset in `text` where the data lines end (the next ## line).
+   * @default text.length
+   */
+  end?: number;
+  /**
+   * 1-based file line at `start`, for error locations.
+   * @default 1
+   */
+  firstLineNumber?: number;
+  /**
+   * Most Y values the block may decode to; one more stops decoding with "too-large".
+   * @default 2000000
+   */
+  maxPoints?: number;
+  /**
+   * The block's NPOINTS when the file states it: one value more stops decoding with "jcamp-structure".
+   * @default undefined (only maxPoints bounds the block)
+   */
+  declaredPoints?: number;
+  /**
+   * Largest DUP count accepted, whatever room is left under the point limits.
+   * @default maxPoints
+   */
+  maxDupCount?: number;
+  /**
+   * Most work units (one per character read, one per value a DUP count adds) before decoding gives up with
+   * "too-large". Characters and values are each bounded already; this is the bound on both together.
+   * @default 100000000
+   */
+  maxWorkUnits?: number;
+  /**
+   * An object whose `units` the decoder increases by the work it did, also when it throws: lets a
+   * caller (or a test) see that a refused file was refused early.
+   * @default undefined
+   */
+  workMeter?: { units: number };
+}
+
+export interface DecodedXyData {
+  /** The Y values as written (YFACTOR not applied), in file order, Y check values dropped. */
+  y: Float64Array;
+  /** For each data line (blank lines skipped): its 1-based file line. */
+  lineNumbers: Int32Array;
+  /** For each data line: its X value as written (XFACTOR not applied). */
+  lineX: Float64Array;
+  /** For each data line: the index in `y` of the ordinate its X belongs to (the Y check's in DIF form). */
+  linePointIndex: Int32Array;
+  /** For each data line: the index in `y` of the first value it adds (y.length when it adds none). */
+  lineFirstValueIndex: Int32Array;
+}
+
+/** Default for maxWorkUnits: far above a 64 MiB file of 2,000,000 points, far below a stalled server. */
+export const DEFAULT_MAX_WORK_UNITS = 100_000_000;
+
+const ABSOLUTE = 1; // AFFN, PAC or SQZ: a value
+const DIFFERENCE = 2; // DIF: a difference from the previous value
+const DUPLICATE = 3; // DUP: a repeat count
+const INITIAL_CAPACITY = 1024;
+/** Mantissas of up to 15 digits are exact doubles, so they are built without a string. */
+const MAX_EXACT_DIGITS = 15;
+
+/**
+ * The Y values of the XYDATA lines in `text[start, end)`, and each line's X check value. In DIF form the
+ * first Y of a line repeats the last Y of the line before (JCAMP-DX 4.24's Y check value): it is compared
+ * and dropped. Throws a located SpectrumParseError for any character, form or count it cannot take.
+ */
+export function decodeJcampXyData(
+  text: string,
+  options: DecodeJcampXyDataOptions = {},
+): DecodedXyData {
+  const {
+    start = 0,
+    end = text.length,
+    firstLineNumber = 1,
+    maxPoints = DEFAULT_MAX_POINTS,
+    declaredPoints,
+    maxWorkUnits = DEFAULT_MAX_WORK_UNITS,
+    workMeter,
+  } = options;
+  const { maxDupCount = maxPoints } = options;
+  if (typeof text !== "string") throw new RangeError("text must be a string");
+  for (const [name, value] of [
+    ["start", start],
+    ["end", end],
+    ["firstLineNumber", firstLineNumber],
+    ["maxPoints", maxPoints],
+    ["maxDupCount", maxDupCount],
+    ["maxWorkUnits", maxWorkUnits],
+  ] as const) {
+    if (!Number.isInteger(value) || value < 0)
+      throw new RangeError(`${name} must be a non-negative integer, got ${String(value)}`);
+  }
+  if (end > text.length || start > end)
+    throw new RangeError(`start ${start} and end ${end} must lie within the text, in order`);
+  if (declaredPoints !== undefined && (!Number.isInteger(declaredPoints) || declaredPoints < 0))
+    throw new RangeError(`declaredPoints must be a non-negative integer, got ${declaredPoints}`);
+
+  const limit = declaredPoints === undefined ? maxPoints : Math.min(maxPoints, declaredPoints);
+  let y = new Float64Array(Math.min(INITIAL_CAPACITY, limit));
+  let count = 0;
+  const lineTable = new LineTable();
+  let work = 0;
+
+  // The token just read: its kind, its value (or DUP count), and where it ends.
+  let kind = 0;
+  let value = 0;
+  let tokenEnd = 0;
+  let lineNumber = firstLineNumber;
+  let lineStart = start;
+
+  const fail = (
+    code: "non-numeric" | "jcamp-structure" | "not-finite",
+    problem: string,
+    at: number,
+  ) => new SpectrumParseError(code, problem, lineNumber, at - lineStart + 1);
+
+  const overLimit = (at: number): SpectrumParseError =>
+    limit < maxPoints
+      ? fail(
+          "jcamp-structure",
+          `NPOINTS says ${declaredPoints} but the XYDATA block holds more values`,
+          at,
+        )
+      : new SpectrumParseError(
+          "too-large",
+          `the XYDATA block holds more than the limit of ${maxPoints} points`,
+          lineNumber,
+          at - lineStart + 1,
+        );
+
+  const reserve = (needed: number) => {
+    if (needed <= y.length) return;
+    const next = new Float64Array(Math.min(limit, Math.max(needed, y.length * 2)));
+    next.set(y.subarray(0, count));
+    y = next;
+  };
+
+  /** Reads the token at `at` into kind/value/tokenEnd; `at` is on a character that is not a separator. */
+  const readToken = (at: number, lineEnd: number): void => {
+    const code = text.charCodeAt(at);
+    let sign = 1;
+    let lead: number;
+    let digitsFrom = at + 1;
+    if (code >= 48 && code <= 57) {
+      kind = ABSOLUTE;
+      lead = code - 48;
+    } else if (code === 43 || code === 45 || code === 46) {
+      // AFFN or PAC: an optional sign, then digits with at most one decimal point.
+      kind = ABSOLUTE;
+      if (code === 46) digitsFrom = at;
+      if (code === 45) sign = -1;
+      lead = 0;
+    } else if (code === 64) {
+      kind = ABSOLUTE; // SQZ "@" is +0
+      lead = 0;
+    } else if (code >= 65 && code <= 73) {
+      kind = ABSOLUTE; // SQZ A–I: +1 to +9
+      lead = code - 64;
+    } else if (code >= 97 && code <= 105) {
+      kind = ABSOLUTE; // SQZ a–i: −1 to −9
+      lead = code - 96;
+      sign = -1;
+    } else if (code === 37) {
+      kind = DIFFERENCE; // DIF "%" is 0
+      lead = 0;
+    } else if (code >= 74 && code <= 82) {
+      kind = DIFFERENCE; // DIF J–R: +1 to +9
+      lead = code - 73;
+    } else if (code >= 106 && code <= 114) {
+      kind = DIFFERENCE; // DIF j–r: −1 to −9
+      lead = code - 105;
+      sign = -1;
+    } else if (code >= 83 && code <= 90) {
+      kind = DUPLICATE; // DUP S–Z: 1 to 8
+      lead = code - 82;
+    } else if (code === 115) {
+      kind = DUPLICATE; // DUP s: 9
+      lead = 9;
+    } else {
+      throw fail("non-numeric", `"${text[at]}" cannot appear in XYDATA`, at);
+    }
+
+    // AFFN and PAC are written as they stand; SQZ and DIF carry their first digit in a letter.
+    const signed = code === 43 || code === 45 || code === 46;
+    const letter = !signed && !(code >= 48 && code <= 57);
+    let q = digitsFrom;
+    let digits = signed ? 0 : 1;
+    let points = 0;
+    let mantissa = lead;
+    for (; q < lineEnd; q++) {
+      const c = text.charCodeAt(q);
+      if (c >= 48 && c <= 57) {
+        digits++;
+        // Capped: a DUP count past the limit is refused below, a long value goes through Number().
+        if (mantissa < 1e16) mantissa = mantissa * 10 + (c - 48);
+      } else if (c === 46) points++;
+      else break;
+    }
+    tokenEnd = q;
+    if (kind === DUPLICATE) {
+      if (points > 0) throw fail("non-numeric", "a DUP count must be a whole number", at);
+      value = mantissa;
+      return;
+    }
+    if (digits === 0 || points > 1) {
+      throw fail("non-numeric", `"${text.slice(at, q)}" is not a number`, at);
+    }
+    if (points === 0 && digits <= MAX_EXACT_DIGITS) {
+      value = sign * mantissa;
+    } else {
+      const written = letter
+        ? `${sign < 0 ? "-" : ""}${lead}${text.slice(at + 1, q)}`
+        : text.slice(at, q);
+      value = Number(written);
+    }
+    if (!Number.isFinite(value)) {
+      const shown = q - at > 40 ? `${text.slice(at, at + 40)}…` : text.slice(at, q);
+      throw fail("not-finite", `"${shown}" is too large to be a finite number`, at);
+    }
+  };
+
+  try {
+    /** Whether the last Y of the previous data line was in DIF form (then this line opens with a Y check). */
+    let endedInDif = false;
+    let position = start;
+    while (position < end) {
+      lineStart = position;
+      let lineEnd = position;
+      while (lineEnd < end) {
+        const c = text.charCodeAt(lineEnd);
+        if (c === 10 || c === 13) break;
+        lineEnd++;
+      }
+      const next =
+        lineEnd >= end
+          ? end
+          : text.charCodeAt(lineEnd) === 13 && text.charCodeAt(lineEnd + 1) === 10
+            ? lineEnd + 2
+            : lineEnd + 1;
+      // "$$" starts a comment; searched within the line only.
+      let dataEnd = lineStart;
+      while (
+        dataEnd < lineEnd &&
+        !(text.charCodeAt(dataEnd) === 36 && text.charCodeAt(dataEnd + 1) === 36)
+      )
+        dataEnd++;
+      work += next - lineStart;
+      if (work > maxWorkUnits) throw overWork(maxWorkUnits, lineNumber);
+
+      let q = skipSeparators(text, lineStart, dataEnd);
+      if (q < dataEnd) {
+        readToken(q, dataEnd);
+        if (kind !== ABSOLUTE) {
+          throw fail(
+            "jcamp-structure",
+            "a data line must open with its X value, not a DIF or DUP character",
+            q,
+          );
+        }
+        let checkPending = endedInDif;
+        lineTable.push(lineNumber, value, checkPending ? count - 1 : count, count);
+        // What a DUP would repeat: the last value or the last difference, and whether a DUP just came.
+        let previousKind = 0;
+        let previousValue = 0;
+        let lastYKind = 0;
+        q = skipSeparators(text, tokenEnd, dataEnd);
+        while (q < dataEnd) {
+          readToken(q, dataEnd);
+          if (kind === ABSOLUTE) {
+            if (checkPending) {
+              const last = y[count - 1];
+              if (Math.abs(value - last) > 1e-9 * Math.max(1, Math.abs(value), Math.abs(last))) {
+                throw fail(
+                  "jcamp-structure",
+                  `the Y check value ${value} differs from the last Y of the line before (${last})`,
+                  q,
+                );
+              }
+              checkPending = false;
+            } else {
+              if (count >= limit) throw overLimit(q);
+              reserve(count + 1);
+              y[count++] = value;
+            }
+            previousKind = ABSOLUTE;
+            previousValue = value;
+            lastYKind = ABSOLUTE;
+          } else if (kind === DIFFERENCE) {
+            if (checkPending) {
+              throw fail(
+                "jcamp-structure",
+                "the line before ends in DIF form, so this line must repeat its last Y (the Y check value) first",
+                q,
+              );
+            }
+            if (count === 0)
+              throw fail("jcamp-structure", "a DIF value needs a Y value before it", q);
+            if (count >= limit) throw overLimit(q);
+            const next = y[count - 1] + value;
+            if (!Number.isFinite(next))
+              throw fail("not-finite", "the differences add up past the largest number", q);
+            reserve(count + 1);
+            y[count++] = next;
+            previousKind = DIFFERENCE;
+            previousValue = value;
+            lastYKind = DIFFERENCE;
+          } else {
+            if (previousKind === 0)
+              throw fail("jcamp-structure", "a DUP count must follow a Y value", q);
+            if (previousKind === DUPLICATE)
+              throw fail("jcamp-structure", "a DUP count cannot follow another DUP count", q);
+            if (value > maxDupCount) {
+              throw new SpectrumParseError(
+                "too-large",
+                `a DUP count of ${value >= 1e16 ? "over 10^16" : value} is more than the limit of ${maxDupCount}`,
+                lineNumber,
+                q - lineStart + 1,
+              );
+            }
+            // The DUP count includes the value already written.
+            const extra = value - 1;
+            if (count + extra > limit) throw overLimit(q);
+            work += extra;
+            if (work > maxWorkUnits) throw overWork(maxWorkUnits, lineNumber);
+            reserve(count + extra);
+            if (previousKind === ABSOLUTE) {
+              y.fill(previousValue, count, count + extra);
+              count += extra;
+            } else {
+              for (let k = 0; k < extra; k++) {
+                const next = y[count - 1] + previousValue;
+                if (!Number.isFinite(next))
+                  throw fail("not-finite", "the differences add up past the largest number", q);
+                y[count++] = next;
+              }
+            }
+            previousKind = DUPLICATE;
+          }
+          q = skipSeparators(text, tokenEnd, dataEnd);
+        }
+        if (lastYKind === 0) {
+          throw new SpectrumParseError(
+            "jcamp-structure",
+            "an X value without any Y value",
+            lineNumber,
+            null,
+          );
+        }
+        endedInDif = lastYKind === DIFFERENCE;
+      }
+      position = next === lineStart ? end : next;
+      lineNumber++;
+    }
+  } finally {
+    if (workMeter) workMeter.units += work;
+  }
+  return { y: y.slice(0, count), ...lineTable.finish() };
+}
+
+function overWork(maxWorkUnits: number, line: number): SpectrumParseError {
+  return new SpectrumParseError(
+    "too-large",
+    `the XYDATA block takes more than ${maxWorkUnits} units of work to decode`,
+    line,
+    null,
+  );
+}
+
+/** Blanks, tabs, commas and semicolons separate values. */
+function skipSeparators(text: string, from: number, to: number): number {
+  let q = from;
+  while (q < to) {
+    const c = text.charCodeAt(q);
+    if (c !== 32 && c !== 9 && c !== 44 && c !== 59) break;
+    q++;
+  }
+  return q;
+}
+
+/** Growable columns of per-line facts (one entry per data line, so bounded by the text). */
+class LineTable {
+  private size = 0;
+  private numbers = new Int32Array(64);
+  private xs = new Float64Array(64);
+  private indexes = new Int32Array(64);
+  private firsts = new Int32Array(64);
+
+  push(lineNumber: number, x: number, pointIndex: number, firstValueIndex: number): void {
+    if (this.size === this.numbers.length) {
+      const capacity = this.size * 2;
+      this.numbers = copyInto(new Int32Array(capacity), this.numbers);
+      this.xs = copyInto(new Float64Array(capacity), this.xs);
+      this.indexes = copyInto(new Int32Array(capacity), this.indexes);
+      this.firsts = copyInto(new Int32Array(capacity), this.firsts);
+    }
+    this.numbers[this.size] = lineNumber;
+    this.xs[this.size] = x;
+    this.indexes[this.size] = pointIndex;
+    this.firsts[this.size] = firstValueIndex;
+    this.size++;
+  }
+
+  finish(): Omit<DecodedXyData, "y"> {
+    return {
+      lineNumbers: this.numbers.slice(0, this.size),
+      lineX: this.xs.slice(0, this.size),
+      linePointIndex: this.indexes.slice(0, this.size),
+      lineFirstValueIndex: this.firsts.slice(0, this.size),
+    };
+  }
+}
+
+function copyInto<T extends Int32Array | Float64Array>(target: T, source: T): T {
+  target.set(source);
+  return target;
+}
