@@ -121,9 +121,10 @@ export function parseJcamp(text: string, options: ParseJcampOptions = {}): Spect
   let y: Float64Array;
   let lineOf: (index: number) => number | null;
   if (block.form === "XYDATA") {
+    const axis = readAxisLabels(labels, block);
     const decoded = decodeJcampXyData(body, decodeRange);
     checkPointCount(decoded.y.length, declared, minPoints, block);
-    x = placeXyData(decoded, labels, xFactor, block);
+    x = placeXyData(decoded, axis, xFactor, block);
     y = decoded.y;
     lineOf = (index) => lineOfValue(decoded, index);
   } else {
@@ -265,17 +266,16 @@ function checkPointCount(
   }
 }
 
-/**
- * The x of each XYDATA point from FIRSTX and LASTX (or DELTAX), after checking that they agree with each
- * other, with the number of points and with the X value that opens each data line (JCAMP-DX's abscissa check).
- */
-function placeXyData(
-  decoded: DecodedXyData,
-  labels: Map<string, JcampLabel>,
-  xFactor: number,
-  block: JcampDataBlock,
-): Float64Array {
-  const n = decoded.y.length;
+interface AxisLabels {
+  firstX: number;
+  lastX?: number;
+  deltaX?: number;
+  lastLine: number | null;
+  deltaLine: number | null;
+}
+
+/** FIRSTX and LASTX or DELTAX, read (and refused) before any data is decoded. */
+function readAxisLabels(labels: Map<string, JcampLabel>, block: JcampDataBlock): AxisLabels {
   const firstLabel = labels.get("FIRSTX");
   const lastLabel = labels.get("LASTX");
   const deltaLabel = labels.get("DELTAX");
@@ -290,6 +290,35 @@ function placeXyData(
   const firstX = readNumber(firstLabel);
   const lastX = lastLabel === undefined ? undefined : readNumber(lastLabel);
   const deltaX = deltaLabel === undefined ? undefined : readNumber(deltaLabel);
+  if (lastX === undefined && deltaX === undefined) {
+    throw new SpectrumParseError(
+      "jcamp-structure",
+      "XYDATA needs ##LASTX= or ##DELTAX= to place its points",
+      block.labelLine,
+      null,
+    );
+  }
+  return {
+    firstX,
+    lastX,
+    deltaX,
+    lastLine: lastLabel?.line ?? null,
+    deltaLine: deltaLabel?.line ?? null,
+  };
+}
+
+/**
+ * The x of each XYDATA point from FIRSTX and LASTX (or DELTAX), after checking that they agree with each
+ * other, with the number of points and with the X value that opens each data line (JCAMP-DX's abscissa check).
+ */
+function placeXyData(
+  decoded: DecodedXyData,
+  axis: AxisLabels,
+  xFactor: number,
+  block: JcampDataBlock,
+): Float64Array {
+  const n = decoded.y.length;
+  const { firstX, lastX, deltaX } = axis;
   let step: number;
   if (lastX !== undefined) {
     step = (lastX - firstX) / (n - 1);
@@ -297,7 +326,7 @@ function placeXyData(
       throw new SpectrumParseError(
         "jcamp-structure",
         `FIRSTX=${firstX} and LASTX=${lastX} cannot place ${n} distinct points`,
-        lastLabel?.line ?? block.labelLine,
+        axis.lastLine ?? block.labelLine,
         null,
       );
     }
@@ -305,27 +334,20 @@ function placeXyData(
       throw new SpectrumParseError(
         "jcamp-structure",
         `DELTAX=${deltaX} disagrees with (LASTX − FIRSTX)/(NPOINTS − 1) = ${step}`,
-        deltaLabel?.line ?? block.labelLine,
+        axis.deltaLine ?? block.labelLine,
         null,
       );
     }
-  } else if (deltaX !== undefined) {
-    if (deltaX === 0) {
+  } else {
+    step = deltaX ?? 0;
+    if (step === 0) {
       throw new SpectrumParseError(
         "jcamp-structure",
         "DELTAX=0 would put every point at the same x",
-        deltaLabel?.line ?? block.labelLine,
+        axis.deltaLine ?? block.labelLine,
         null,
       );
     }
-    step = deltaX;
-  } else {
-    throw new SpectrumParseError(
-      "jcamp-structure",
-      "XYDATA needs ##LASTX= or ##DELTAX= to place its points",
-      block.labelLine,
-      null,
-    );
   }
   const x = new Float64Array(n);
   for (let i = 0; i < n; i++) x[i] = firstX + i * step;
