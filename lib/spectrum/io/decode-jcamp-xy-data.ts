@@ -112,125 +112,17 @@ export function decodeJcampXyData(
   let y = new Float64Array(Math.min(INITIAL_CAPACITY, limit));
   let count = 0;
   const lineTable = new LineTable();
+  const token: Token = { kind: 0, value: 0, end: 0, problem: "", refusal: "non-numeric" };
   let work = 0;
-
-  // The token just read: its kind, its value (or DUP count), and where it ends.
-  let kind = 0;
-  let value = 0;
-  let tokenEnd = 0;
   let lineNumber = firstLineNumber;
   let lineStart = start;
 
-  const fail = (
-    code: "non-numeric" | "jcamp-structure" | "not-finite",
-    problem: string,
-    at: number,
-  ) => new SpectrumParseError(code, problem, lineNumber, at - lineStart + 1);
-
-  const overLimit = (at: number): SpectrumParseError =>
+  // Errors are built by plain functions: closures over the loop's variables would slow every value.
+  const limitProblem =
     limit < maxPoints
-      ? fail(
-          "jcamp-structure",
-          `NPOINTS says ${declaredPoints} but the XYDATA block holds more values`,
-          at,
-        )
-      : new SpectrumParseError(
-          "too-large",
-          `the XYDATA block holds more than the limit of ${maxPoints} points`,
-          lineNumber,
-          at - lineStart + 1,
-        );
-
-  const reserve = (needed: number) => {
-    if (needed <= y.length) return;
-    const next = new Float64Array(Math.min(limit, Math.max(needed, y.length * 2)));
-    next.set(y.subarray(0, count));
-    y = next;
-  };
-
-  /** Reads the token at `at` into kind/value/tokenEnd; `at` is on a character that is not a separator. */
-  const readToken = (at: number, lineEnd: number): void => {
-    const code = text.charCodeAt(at);
-    let sign = 1;
-    let lead: number;
-    let digitsFrom = at + 1;
-    if (code >= 48 && code <= 57) {
-      kind = ABSOLUTE;
-      lead = code - 48;
-    } else if (code === 43 || code === 45 || code === 46) {
-      // AFFN or PAC: an optional sign, then digits with at most one decimal point.
-      kind = ABSOLUTE;
-      if (code === 46) digitsFrom = at;
-      if (code === 45) sign = -1;
-      lead = 0;
-    } else if (code === 64) {
-      kind = ABSOLUTE; // SQZ "@" is +0
-      lead = 0;
-    } else if (code >= 65 && code <= 73) {
-      kind = ABSOLUTE; // SQZ A–I: +1 to +9
-      lead = code - 64;
-    } else if (code >= 97 && code <= 105) {
-      kind = ABSOLUTE; // SQZ a–i: −1 to −9
-      lead = code - 96;
-      sign = -1;
-    } else if (code === 37) {
-      kind = DIFFERENCE; // DIF "%" is 0
-      lead = 0;
-    } else if (code >= 74 && code <= 82) {
-      kind = DIFFERENCE; // DIF J–R: +1 to +9
-      lead = code - 73;
-    } else if (code >= 106 && code <= 114) {
-      kind = DIFFERENCE; // DIF j–r: −1 to −9
-      lead = code - 105;
-      sign = -1;
-    } else if (code >= 83 && code <= 90) {
-      kind = DUPLICATE; // DUP S–Z: 1 to 8
-      lead = code - 82;
-    } else if (code === 115) {
-      kind = DUPLICATE; // DUP s: 9
-      lead = 9;
-    } else {
-      throw fail("non-numeric", `"${text[at]}" cannot appear in XYDATA`, at);
-    }
-
-    // AFFN and PAC are written as they stand; SQZ and DIF carry their first digit in a letter.
-    const signed = code === 43 || code === 45 || code === 46;
-    const letter = !signed && !(code >= 48 && code <= 57);
-    let q = digitsFrom;
-    let digits = signed ? 0 : 1;
-    let points = 0;
-    let mantissa = lead;
-    for (; q < lineEnd; q++) {
-      const c = text.charCodeAt(q);
-      if (c >= 48 && c <= 57) {
-        digits++;
-        // Capped: a DUP count past the limit is refused below, a long value goes through Number().
-        if (mantissa < 1e16) mantissa = mantissa * 10 + (c - 48);
-      } else if (c === 46) points++;
-      else break;
-    }
-    tokenEnd = q;
-    if (kind === DUPLICATE) {
-      if (points > 0) throw fail("non-numeric", "a DUP count must be a whole number", at);
-      value = mantissa;
-      return;
-    }
-    if (digits === 0 || points > 1) {
-      throw fail("non-numeric", `"${text.slice(at, q)}" is not a number`, at);
-    }
-    if (points === 0 && digits <= MAX_EXACT_DIGITS) {
-      value = sign * mantissa;
-    } else {
-      const written = letter
-        ? `${sign < 0 ? "-" : ""}${lead}${text.slice(at + 1, q)}`
-        : text.slice(at, q);
-      value = Number(written);
-    }
-    if (!Number.isFinite(value)) {
-      const shown = q - at > 40 ? `${text.slice(at, at + 40)}…` : text.slice(at, q);
-      throw fail("not-finite", `"${shown}" is too large to be a finite number`, at);
-    }
-  };
+      ? `NPOINTS says ${declaredPoints} but the XYDATA block holds more values`
+      : `the XYDATA block holds more than the limit of ${maxPoints} points`;
+  const limitCode = limit < maxPoints ? "jcamp-structure" : "too-large";
 
   try {
     /** Whether the last Y of the previous data line was in DIF form (then this line opens with a Y check). */
@@ -262,94 +154,138 @@ export function decodeJcampXyData(
 
       let q = skipSeparators(text, lineStart, dataEnd);
       if (q < dataEnd) {
-        readToken(q, dataEnd);
-        if (kind !== ABSOLUTE) {
-          throw fail(
+        if (!readToken(text, q, dataEnd, token)) {
+          throw located(token.refusal, token.problem, lineNumber, lineStart, q);
+        }
+        if (token.kind !== ABSOLUTE) {
+          throw located(
             "jcamp-structure",
             "a data line must open with its X value, not a DIF or DUP character",
+            lineNumber,
+            lineStart,
             q,
           );
         }
         let checkPending = endedInDif;
-        lineTable.push(lineNumber, value, checkPending ? count - 1 : count, count);
+        lineTable.push(lineNumber, token.value, checkPending ? count - 1 : count, count);
         // What a DUP would repeat: the last value or the last difference, and whether a DUP just came.
         let previousKind = 0;
         let previousValue = 0;
         let lastYKind = 0;
-        q = skipSeparators(text, tokenEnd, dataEnd);
+        q = skipSeparators(text, token.end, dataEnd);
         while (q < dataEnd) {
-          readToken(q, dataEnd);
-          if (kind === ABSOLUTE) {
+          if (!readToken(text, q, dataEnd, token)) {
+            throw located(token.refusal, token.problem, lineNumber, lineStart, q);
+          }
+          const value = token.value;
+          if (token.kind === ABSOLUTE) {
             if (checkPending) {
               const last = y[count - 1];
               if (Math.abs(value - last) > 1e-9 * Math.max(1, Math.abs(value), Math.abs(last))) {
-                throw fail(
+                throw located(
                   "jcamp-structure",
                   `the Y check value ${value} differs from the last Y of the line before (${last})`,
+                  lineNumber,
+                  lineStart,
                   q,
                 );
               }
               checkPending = false;
             } else {
-              if (count >= limit) throw overLimit(q);
-              reserve(count + 1);
+              if (count >= limit) throw located(limitCode, limitProblem, lineNumber, lineStart, q);
+              if (count === y.length) y = grown(y, count, count + 1, limit);
               y[count++] = value;
             }
             previousKind = ABSOLUTE;
             previousValue = value;
             lastYKind = ABSOLUTE;
-          } else if (kind === DIFFERENCE) {
+          } else if (token.kind === DIFFERENCE) {
             if (checkPending) {
-              throw fail(
+              throw located(
                 "jcamp-structure",
                 "the line before ends in DIF form, so this line must repeat its last Y (the Y check value) first",
+                lineNumber,
+                lineStart,
                 q,
               );
             }
             if (count === 0)
-              throw fail("jcamp-structure", "a DIF value needs a Y value before it", q);
-            if (count >= limit) throw overLimit(q);
-            const next = y[count - 1] + value;
-            if (!Number.isFinite(next))
-              throw fail("not-finite", "the differences add up past the largest number", q);
-            reserve(count + 1);
-            y[count++] = next;
+              throw located(
+                "jcamp-structure",
+                "a DIF value needs a Y value before it",
+                lineNumber,
+                lineStart,
+                q,
+              );
+            if (count >= limit) throw located(limitCode, limitProblem, lineNumber, lineStart, q);
+            const sum = y[count - 1] + value;
+            if (!Number.isFinite(sum))
+              throw located(
+                "not-finite",
+                "the differences add up past the largest number",
+                lineNumber,
+                lineStart,
+                q,
+              );
+            if (count === y.length) y = grown(y, count, count + 1, limit);
+            y[count++] = sum;
             previousKind = DIFFERENCE;
             previousValue = value;
             lastYKind = DIFFERENCE;
           } else {
             if (previousKind === 0)
-              throw fail("jcamp-structure", "a DUP count must follow a Y value", q);
-            if (previousKind === DUPLICATE)
-              throw fail("jcamp-structure", "a DUP count cannot follow another DUP count", q);
-            if (value > maxDupCount) {
-              throw new SpectrumParseError(
-                "too-large",
-                `a DUP count of ${value >= 1e16 ? "over 10^16" : value} is more than the limit of ${maxDupCount}`,
+              throw located(
+                "jcamp-structure",
+                "a DUP count must follow a Y value",
                 lineNumber,
-                q - lineStart + 1,
+                lineStart,
+                q,
+              );
+            if (previousKind === DUPLICATE)
+              throw located(
+                "jcamp-structure",
+                "a DUP count cannot follow another DUP count",
+                lineNumber,
+                lineStart,
+                q,
+              );
+            if (value > maxDupCount) {
+              const shown = value >= 1e16 ? "over 10^16" : String(value);
+              throw located(
+                "too-large",
+                `a DUP count of ${shown} is more than the limit of ${maxDupCount}`,
+                lineNumber,
+                lineStart,
+                q,
               );
             }
             // The DUP count includes the value already written.
             const extra = value - 1;
-            if (count + extra > limit) throw overLimit(q);
+            if (count + extra > limit)
+              throw located(limitCode, limitProblem, lineNumber, lineStart, q);
             work += extra;
             if (work > maxWorkUnits) throw overWork(maxWorkUnits, lineNumber);
-            reserve(count + extra);
+            if (count + extra > y.length) y = grown(y, count, count + extra, limit);
             if (previousKind === ABSOLUTE) {
               y.fill(previousValue, count, count + extra);
               count += extra;
             } else {
               for (let k = 0; k < extra; k++) {
-                const next = y[count - 1] + previousValue;
-                if (!Number.isFinite(next))
-                  throw fail("not-finite", "the differences add up past the largest number", q);
-                y[count++] = next;
+                const sum = y[count - 1] + previousValue;
+                if (!Number.isFinite(sum))
+                  throw located(
+                    "not-finite",
+                    "the differences add up past the largest number",
+                    lineNumber,
+                    lineStart,
+                    q,
+                  );
+                y[count++] = sum;
               }
             }
             previousKind = DUPLICATE;
           }
-          q = skipSeparators(text, tokenEnd, dataEnd);
+          q = skipSeparators(text, token.end, dataEnd);
         }
         if (lastYKind === 0) {
           throw new SpectrumParseError(
@@ -368,6 +304,134 @@ export function decodeJcampXyData(
     if (workMeter) workMeter.units += work;
   }
   return { y: y.slice(0, count), ...lineTable.finish() };
+}
+
+interface Token {
+  /** ABSOLUTE, DIFFERENCE or DUPLICATE. */
+  kind: number;
+  /** The value, the difference, or the DUP count. */
+  value: number;
+  /** Offset just past the token. */
+  end: number;
+  /** Why the token was refused. */
+  problem: string;
+  /** The error code of a refusal. */
+  refusal: "non-numeric" | "not-finite";
+}
+
+/**
+ * Reads the token at `at` (not a separator) into `token`; false when it is not one, with the reason.
+ * A plain function over a reused object, so the hot loop allocates nothing per value.
+ */
+function readToken(text: string, at: number, lineEnd: number, token: Token): boolean {
+  const code = text.charCodeAt(at);
+  let sign = 1;
+  let lead = 0;
+  let kind: number;
+  // AFFN and PAC are written as they stand; SQZ and DIF carry their sign and first digit in a letter.
+  let letter = true;
+  if (code >= 48 && code <= 57) {
+    kind = ABSOLUTE;
+    lead = code - 48;
+    letter = false;
+  } else if (code === 43 || code === 45 || code === 46) {
+    kind = ABSOLUTE; // AFFN or PAC: an optional sign, then digits with at most one decimal point
+    if (code === 45) sign = -1;
+    letter = false;
+  } else if (code === 64) {
+    kind = ABSOLUTE; // SQZ "@" is +0
+  } else if (code >= 65 && code <= 73) {
+    kind = ABSOLUTE; // SQZ A–I: +1 to +9
+    lead = code - 64;
+  } else if (code >= 97 && code <= 105) {
+    kind = ABSOLUTE; // SQZ a–i: −1 to −9
+    lead = code - 96;
+    sign = -1;
+  } else if (code === 37) {
+    kind = DIFFERENCE; // DIF "%" is 0
+  } else if (code >= 74 && code <= 82) {
+    kind = DIFFERENCE; // DIF J–R: +1 to +9
+    lead = code - 73;
+  } else if (code >= 106 && code <= 114) {
+    kind = DIFFERENCE; // DIF j–r: −1 to −9
+    lead = code - 105;
+    sign = -1;
+  } else if (code >= 83 && code <= 90) {
+    kind = DUPLICATE; // DUP S–Z: 1 to 8
+    lead = code - 82;
+  } else if (code === 115) {
+    kind = DUPLICATE; // DUP s: 9
+    lead = 9;
+  } else {
+    token.refusal = "non-numeric";
+    token.problem = `"${text[at]}" cannot appear in XYDATA`;
+    return false;
+  }
+
+  const signed = code === 43 || code === 45 || code === 46;
+  let q = code === 46 ? at : at + 1;
+  let digits = signed ? 0 : 1;
+  let points = 0;
+  let mantissa = lead;
+  for (; q < lineEnd; q++) {
+    const c = text.charCodeAt(q);
+    if (c >= 48 && c <= 57) {
+      digits++;
+      // Capped: a DUP count past the limit is refused by the caller, a long value goes through Number().
+      if (mantissa < 1e16) mantissa = mantissa * 10 + (c - 48);
+    } else if (c === 46) points++;
+    else break;
+  }
+  token.end = q;
+  token.kind = kind;
+  if (kind === DUPLICATE) {
+    if (points > 0) {
+      token.refusal = "non-numeric";
+      token.problem = "a DUP count must be a whole number";
+      return false;
+    }
+    token.value = mantissa;
+    return true;
+  }
+  if (digits === 0 || points > 1) {
+    token.refusal = "non-numeric";
+    token.problem = `"${text.slice(at, q)}" is not a number`;
+    return false;
+  }
+  let value: number;
+  if (points === 0 && digits <= MAX_EXACT_DIGITS) value = sign * mantissa;
+  else if (letter) value = Number(`${sign < 0 ? "-" : ""}${lead}${text.slice(at + 1, q)}`);
+  else value = Number(text.slice(at, q));
+  if (!Number.isFinite(value)) {
+    const shown = q - at > 40 ? `${text.slice(at, at + 40)}…` : text.slice(at, q);
+    token.refusal = "not-finite";
+    token.problem = `"${shown}" is too large to be a finite number`;
+    return false;
+  }
+  token.value = value;
+  return true;
+}
+
+function located(
+  code: "non-numeric" | "jcamp-structure" | "not-finite" | "too-large",
+  problem: string,
+  lineNumber: number,
+  lineStart: number,
+  at: number,
+): SpectrumParseError {
+  return new SpectrumParseError(code, problem, lineNumber, at - lineStart + 1);
+}
+
+/** A copy of the first `count` values of `y` in an array with room for `needed`, doubling up to `limit`. */
+function grown(
+  y: Float64Array<ArrayBuffer>,
+  count: number,
+  needed: number,
+  limit: number,
+): Float64Array<ArrayBuffer> {
+  const next = new Float64Array(Math.min(limit, Math.max(needed, y.length * 2)));
+  next.set(y.subarray(0, count));
+  return next;
 }
 
 function overWork(maxWorkUnits: number, line: number): SpectrumParseError {
