@@ -42,6 +42,11 @@ export interface DecodeJcampXyDataOptions {
    */
   maxWorkUnits?: number;
   /**
+   * Called with each data line's X when the line is reached; may throw to stop decoding.
+   * @default undefined
+   */
+  onLine?: XyDataLineListener;
+  /**
    * An object whose `units` the decoder increases by the work it did, also when it throws: lets a
    * caller (or a test) see that a refused file was refused early.
    * @default undefined
@@ -52,15 +57,24 @@ export interface DecodeJcampXyDataOptions {
 export interface DecodedXyData {
   /** The Y values as written (YFACTOR not applied), in file order, Y check values dropped. */
   y: Float64Array;
-  /** For each data line (blank lines skipped): its 1-based file line. */
-  lineNumbers: Int32Array;
-  /** For each data line: its X value as written (XFACTOR not applied). */
-  lineX: Float64Array;
-  /** For each data line: the index in `y` of the ordinate its X belongs to (the Y check's in DIF form). */
-  linePointIndex: Int32Array;
-  /** For each data line: the index in `y` of the first value it adds (y.length when it adds none). */
-  lineFirstValueIndex: Int32Array;
+  /** Number of data lines (blank and comment-only lines not counted). */
+  lineCount: number;
 }
+
+/**
+ * Told of each data line as it is read, so that a caller can check its X without the decoder keeping a
+ * table of lines (a file of one value a line would make that table larger than the values).
+ * @param lineNumber 1-based file line
+ * @param x the line's X value as written (XFACTOR not applied)
+ * @param pointIndex index in y of the ordinate the X belongs to (in DIF form, the Y check's)
+ * @param firstValueIndex index in y of the first value the line adds (y.length when it adds none)
+ */
+export type XyDataLineListener = (
+  lineNumber: number,
+  x: number,
+  pointIndex: number,
+  firstValueIndex: number,
+) => void;
 
 /** Default for maxWorkUnits: far above a 64 MiB file of 2,000,000 points, far below a stalled server. */
 export const DEFAULT_MAX_WORK_UNITS = 100_000_000;
@@ -89,6 +103,7 @@ export function decodeJcampXyData(
     declaredPoints,
     maxWorkUnits = DEFAULT_MAX_WORK_UNITS,
     workMeter,
+    onLine,
   } = options;
   const { maxDupCount = maxPoints } = options;
   if (typeof text !== "string") throw new RangeError("text must be a string");
@@ -111,7 +126,7 @@ export function decodeJcampXyData(
   const limit = declaredPoints === undefined ? maxPoints : Math.min(maxPoints, declaredPoints);
   let y = new Float64Array(Math.min(INITIAL_CAPACITY, limit));
   let count = 0;
-  const lineTable = new LineTable();
+  let lineCount = 0;
   const token: Token = { kind: 0, value: 0, end: 0, problem: "", refusal: "non-numeric" };
   let work = 0;
   let lineNumber = firstLineNumber;
@@ -167,7 +182,8 @@ export function decodeJcampXyData(
           );
         }
         let checkPending = endedInDif;
-        lineTable.push(lineNumber, token.value, checkPending ? count - 1 : count, count);
+        lineCount++;
+        if (onLine) onLine(lineNumber, token.value, checkPending ? count - 1 : count, count);
         // What a DUP would repeat: the last value or the last difference, and whether a DUP just came.
         let previousKind = 0;
         let previousValue = 0;
@@ -303,7 +319,7 @@ export function decodeJcampXyData(
   } finally {
     if (workMeter) workMeter.units += work;
   }
-  return { y: y.slice(0, count), ...lineTable.finish() };
+  return { y: y.slice(0, count), lineCount };
 }
 
 interface Token {
@@ -452,42 +468,4 @@ function skipSeparators(text: string, from: number, to: number): number {
     q++;
   }
   return q;
-}
-
-/** Growable columns of per-line facts (one entry per data line, so bounded by the text). */
-class LineTable {
-  private size = 0;
-  private numbers = new Int32Array(64);
-  private xs = new Float64Array(64);
-  private indexes = new Int32Array(64);
-  private firsts = new Int32Array(64);
-
-  push(lineNumber: number, x: number, pointIndex: number, firstValueIndex: number): void {
-    if (this.size === this.numbers.length) {
-      const capacity = this.size * 2;
-      this.numbers = copyInto(new Int32Array(capacity), this.numbers);
-      this.xs = copyInto(new Float64Array(capacity), this.xs);
-      this.indexes = copyInto(new Int32Array(capacity), this.indexes);
-      this.firsts = copyInto(new Int32Array(capacity), this.firsts);
-    }
-    this.numbers[this.size] = lineNumber;
-    this.xs[this.size] = x;
-    this.indexes[this.size] = pointIndex;
-    this.firsts[this.size] = firstValueIndex;
-    this.size++;
-  }
-
-  finish(): Omit<DecodedXyData, "y"> {
-    return {
-      lineNumbers: this.numbers.slice(0, this.size),
-      lineX: this.xs.slice(0, this.size),
-      linePointIndex: this.indexes.slice(0, this.size),
-      lineFirstValueIndex: this.firsts.slice(0, this.size),
-    };
-  }
-}
-
-function copyInto<T extends Int32Array | Float64Array>(target: T, source: T): T {
-  target.set(source);
-  return target;
 }

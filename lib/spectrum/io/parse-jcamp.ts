@@ -5,7 +5,7 @@ import type { Spectrum } from "../types";
 import { assertPhysicalAxis } from "./assert-physical-axis";
 import { assertReadOptions } from "./assert-read-options";
 import { assertTextWithinBytes } from "./assert-text-within-bytes";
-import { decodeJcampXyData, type DecodedXyData } from "./decode-jcamp-xy-data";
+import { decodeJcampXyData, type DecodeJcampXyDataOptions } from "./decode-jcamp-xy-data";
 import { decodeJcampXyPoints } from "./decode-jcamp-xy-points";
 import { describeBadCell } from "./describe-bad-cell";
 import { orderPoints } from "./order-points";
@@ -122,11 +122,13 @@ export function parseJcamp(text: string, options: ParseJcampOptions = {}): Spect
   let lineOf: (index: number) => number | null;
   if (block.form === "XYDATA") {
     const axis = readAxisLabels(labels, block);
-    const decoded = decodeJcampXyData(body, decodeRange);
+    const lineX = lineXChecker(axis, xFactor, declared);
+    const decoded = decodeJcampXyData(body, { ...decodeRange, onLine: lineX.check });
     checkPointCount(decoded.y.length, declared, minPoints, block);
-    x = placeXyData(decoded, axis, xFactor, block);
+    x = placeXyData(decoded.y.length, axis, block);
+    lineX.checkLast(x);
     y = decoded.y;
-    lineOf = (index) => lineOfValue(decoded, index);
+    lineOf = (index) => lineOfXyDataValue(body, decodeRange, index);
   } else {
     const decoded = decodeJcampXyPoints(body, decodeRange);
     checkPointCount(decoded.x.length, declared, minPoints, block);
@@ -309,15 +311,9 @@ function readAxisLabels(labels: Map<string, JcampLabel>, block: JcampDataBlock):
 
 /**
  * The x of each XYDATA point from FIRSTX and LASTX (or DELTAX), after checking that they agree with each
- * other, with the number of points and with the X value that opens each data line (JCAMP-DX's abscissa check).
+ * other and with the number of points.
  */
-function placeXyData(
-  decoded: DecodedXyData,
-  axis: AxisLabels,
-  xFactor: number,
-  block: JcampDataBlock,
-): Float64Array {
-  const n = decoded.y.length;
+function placeXyData(n: number, axis: AxisLabels, block: JcampDataBlock): Float64Array {
   const { firstX, lastX, deltaX } = axis;
   let step: number;
   if (lastX !== undefined) {
@@ -352,40 +348,83 @@ function placeXyData(
   const x = new Float64Array(n);
   for (let i = 0; i < n; i++) x[i] = firstX + i * step;
   if (lastX !== undefined) x[n - 1] = lastX;
-
-  const { lineX, lineNumbers, linePointIndex } = decoded;
-  for (let j = 0; j < lineX.length; j++) {
-    const checkX = lineX[j] * xFactor;
-    const expected = x[Math.min(linePointIndex[j], n - 1)];
-    const slack =
-      Math.abs(xFactor) +
-      1e-6 * Math.abs(expected) +
-      (j === 0 ? 0 : LINE_X_TOLERANCE_STEPS * Math.abs(step));
-    if (Number.isFinite(checkX) && Math.abs(checkX - expected) <= slack) continue;
-    throw new SpectrumParseError(
-      "jcamp-structure",
-      j === 0
-        ? `the first X value (${checkX}) does not match FIRSTX (${firstX})`
-        : `the line's X value (${checkX}) is not where its first Y falls (x = ${expected}); points are missing or extra`,
-      lineNumbers[j],
-      1,
-    );
-  }
   return x;
 }
 
-/** The file line that holds value `index`: the last data line whose first new value is at or before it. */
-function lineOfValue(decoded: DecodedXyData, index: number): number | null {
-  const firsts = decoded.lineFirstValueIndex;
-  let low = 0;
-  let high = firsts.length - 1;
-  let found = -1;
-  while (low <= high) {
-    const middle = (low + high) >> 1;
-    if (firsts[middle] <= index) {
-      found = middle;
-      low = middle + 1;
-    } else high = middle - 1;
+/**
+ * JCAMP-DX's abscissa check, line by line as the decoder reads: the X that opens a line, times XFACTOR,
+ * is the x of its first ordinate. The first line must match FIRSTX to within XFACTOR (the X is rounded
+ * to it); later lines may sit LINE_X_TOLERANCE_STEPS steps off before points are counted as lost. When
+ * the step is known only once the points are counted (LASTX without NPOINTS or DELTAX), the last line
+ * is checked then.
+ */
+function lineXChecker(axis: AxisLabels, xFactor: number, declared: number | undefined) {
+  const { firstX, lastX, deltaX } = axis;
+  const knownStep =
+    deltaX !== undefined && deltaX !== 0
+      ? deltaX
+      : lastX !== undefined && declared !== undefined && declared > 1
+        ? (lastX - firstX) / (declared - 1)
+        : undefined;
+  let lines = 0;
+  // The last line, in plain variables: an object a line would be millions of objects for a hostile file.
+  let lastLineNumber = 0;
+  let lastLineX = 0;
+  let lastPointIndex = 0;
+  const verify = (lineNumber: number, checkX: number, expected: number, step: number) => {
+    const first = lines === 1;
+    const slack =
+      Math.abs(xFactor) +
+      1e-6 * Math.abs(expected) +
+      (first ? 0 : LINE_X_TOLERANCE_STEPS * Math.abs(step));
+    if (Number.isFinite(checkX) && Math.abs(checkX - expected) <= slack) return;
+    throw new SpectrumParseError(
+      "jcamp-structure",
+      first
+        ? `the first X value (${checkX}) does not match FIRSTX (${firstX})`
+        : `the line's X value (${checkX}) is not where its first Y falls (x = ${expected}); points are missing or extra`,
+      lineNumber,
+      1,
+    );
+  };
+  return {
+    check: (lineNumber: number, x: number, pointIndex: number) => {
+      lines++;
+      lastLineNumber = lineNumber;
+      lastLineX = x;
+      lastPointIndex = pointIndex;
+      if (lines === 1) verify(lineNumber, x * xFactor, firstX, 0);
+      else if (knownStep !== undefined)
+        verify(lineNumber, x * xFactor, firstX + pointIndex * knownStep, knownStep);
+    },
+    checkLast: (placed: Float64Array) => {
+      if (lines < 2 || knownStep !== undefined) return;
+      const step = (placed[placed.length - 1] - placed[0]) / (placed.length - 1);
+      const index = Math.min(lastPointIndex, placed.length - 1);
+      verify(lastLineNumber, lastLineX * xFactor, placed[index], step);
+    },
+  };
+}
+
+const FOUND = new Error("found");
+
+/** The file line that holds value `index` of an XYDATA block, found by reading it again (on refusals only). */
+function lineOfXyDataValue(
+  body: string,
+  range: DecodeJcampXyDataOptions,
+  index: number,
+): number | null {
+  let found: number | null = null;
+  try {
+    decodeJcampXyData(body, {
+      ...range,
+      onLine: (lineNumber, _x, _pointIndex, firstValueIndex) => {
+        if (firstValueIndex > index) throw FOUND;
+        found = lineNumber;
+      },
+    });
+  } catch (error) {
+    if (error !== FOUND && !(error instanceof SpectrumParseError)) throw error;
   }
-  return found < 0 ? null : decoded.lineNumbers[found];
+  return found;
 }

@@ -95,13 +95,18 @@ describe("the ASDF forms", () => {
     // SQZ A23 = +123, DIF J0 = +10, DUP S2 = 12 in all; a decimal point may follow the first digit
     // (JCAMP-DX 4.24, ASDF forms; from memory)
     // The second line opens with the Y check B43 = 243 (the last Y repeated), then j.5, a difference of −1.5.
-    const decoded = decodeJcampXyData("1A23J0S2\n13B43j.5");
+    const lines: number[][] = [];
+    const decoded = decodeJcampXyData("1A23J0S2\n13B43j.5", {
+      onLine: (...line) => lines.push(line),
+    });
     const expected = Array.from({ length: 13 }, (_, i) => 123 + 10 * i);
     expect(Array.from(decoded.y)).toEqual([...expected, 241.5]);
-    expect(Array.from(decoded.linePointIndex)).toEqual([0, 12]);
-    expect(Array.from(decoded.lineFirstValueIndex)).toEqual([0, 13]);
-    expect(Array.from(decoded.lineX)).toEqual([1, 13]);
-    expect(Array.from(decoded.lineNumbers)).toEqual([1, 2]);
+    // [line, X, index of the X's ordinate, index of the first value the line adds]
+    expect(lines).toEqual([
+      [1, 1, 0, 0],
+      [2, 13, 12, 13],
+    ]);
+    expect(decoded.lineCount).toBe(2);
   });
 });
 

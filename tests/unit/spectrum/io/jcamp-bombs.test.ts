@@ -58,6 +58,16 @@ const BOMBS: Bomb[] = [
     work: "none",
   },
   {
+    name: "2,000,001 lines of one value each (no table of lines is kept)",
+    text: file(Array.from({ length: MAX_POINTS + 1 }, () => "1A")),
+    work: "points",
+  },
+  {
+    name: "2,000,001 values on DIF lines each followed by a check-only line",
+    text: file(Array.from({ length: MAX_POINTS + 2 }, (_, i) => (i % 2 === 0 ? "1AJ" : "2B"))),
+    work: "points",
+  },
+  {
     name: "a run of 2,000,001 DIF characters",
     text: file([`1A${"J".repeat(MAX_POINTS + 1)}`]),
     work: "none",
@@ -159,6 +169,22 @@ describe("JCAMP-DX bombs", () => {
     const bound = work === "none" ? dataCharacters : dataCharacters + MAX_POINTS;
     expect(meter.units).toBeGreaterThan(0);
     expect(meter.units).toBeLessThanOrEqual(bound);
+  });
+
+  it("refuses a file of 100,000 label lines at the label limit, without much memory", () => {
+    const text = `##TITLE=labels (invented)\n${"##$A=1\n".repeat(100_000)}`;
+    const heldBefore = heldBytes();
+    let caught: unknown;
+    try {
+      parseJcamp(text);
+    } catch (error) {
+      caught = error;
+    }
+    expect(heldBytes() - heldBefore).toBeLessThan(50 * MB);
+    expect(caught).toBeInstanceOf(SpectrumParseError);
+    expect((caught as SpectrumParseError).message).toBe(
+      "Line 20001: more than 20000 labelled lines; this reader takes no more",
+    );
   });
 
   it("stops at its work bound, counted in characters and repeated values", () => {
