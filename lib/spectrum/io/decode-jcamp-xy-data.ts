@@ -77,7 +77,7 @@ export type XyDataLineListener = (
 ) => void;
 
 /** Default for maxWorkUnits: far above a 64 MiB file of 2,000,000 points, far below a stalled server. */
-export const DEFAULT_MAX_WORK_UNITS = 100_000_000;
+const DEFAULT_MAX_WORK_UNITS = 100_000_000;
 
 const ABSOLUTE = 1; // AFFN, PAC or SQZ: a value
 const DIFFERENCE = 2; // DIF: a difference from the previous value
