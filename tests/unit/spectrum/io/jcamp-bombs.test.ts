@@ -34,18 +34,22 @@ interface Bomb {
 
 const BOMBS: Bomb[] = [
   // The issue's file: a SQZ value then a DUP count of 99,999,999.
-  { name: "SQZ then DUP 99,999,999", text: file(["1E0s99999999"]), work: "none" },
+  {
+    name: "SQZ then DUP 999,999,999 (s99999999, the issue's file)",
+    text: file(["1E0s99999999"]),
+    work: "none",
+  },
   {
     name: "the same with NPOINTS=16",
     text: file(["1E0s99999999"], { NPOINTS: "16" }),
     work: "none",
   },
   { name: "a 30-digit DUP count", text: file([`1A${"s" + "9".repeat(30)}`]), work: "none" },
-  { name: "DIF then DUP 99,999,999", text: file(["1AJs99999999"]), work: "none" },
+  { name: "DIF then DUP 999,999,999", text: file(["1AJs99999999"]), work: "none" },
   { name: "DIF zero then DUP 10^9", text: file(["1A%S000000000"]), work: "none" },
-  { name: "AFFN then DUP 99,999,999", text: file(["1 5 s99999999"]), work: "none" },
+  { name: "AFFN then DUP 999,999,999", text: file(["1 5 s99999999"]), work: "none" },
   {
-    name: "many lines each just within the limit (1,000,000 per line)",
+    name: "many lines each just within the limit (DUP 999,999 per line)",
     text: file(Array.from({ length: 1000 }, () => "1As99999")),
     work: "points",
   },
