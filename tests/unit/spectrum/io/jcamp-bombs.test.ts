@@ -33,7 +33,7 @@ interface Bomb {
 }
 
 const BOMBS: Bomb[] = [
-  // The file: a SQZ value then a DUP count of 99,999,999.
+  // The repeat count: a SQZ value then s99999999, a DUP count of 999,999,999.
   {
     name: "SQZ then DUP 999,999,999 (s99999999, the issue's file)",
     text: file(["1E0s99999999"]),
