@@ -1,13 +1,17 @@
-// Reads a JCAMP-DX spectrum through the jcampconverter package, adding the checks and error locations it lacks.
-// The package decodes XYDATA=(X++(Y..Y)) in every compressed form and applies XFACTOR/YFACTOR/FIRSTX/LASTX;
-// it reads (XY..XY) only as PEAK TABLE, and skips or zeroes bad values quietly, so we scan the data lines first.
-import { convert } from "jcampconverter";
+// Reads a JCAMP-DX spectrum with the project's own decoder: ##XYDATA=(X++(Y..Y)) in every ASDF form, and
+// (XY..XY) under ##XYPOINTS= or ##PEAK TABLE=. Every limit is checked while decoding, every factor and
+// axis value before it is used, and each refusal is a SpectrumParseError at its line.
 import type { Spectrum } from "../types";
+import { assertPhysicalAxis } from "./assert-physical-axis";
 import { assertReadOptions } from "./assert-read-options";
 import { assertTextWithinBytes } from "./assert-text-within-bytes";
+import { decodeJcampXyData, type DecodeJcampXyDataOptions } from "./decode-jcamp-xy-data";
+import { decodeJcampXyPoints } from "./decode-jcamp-xy-points";
+import { describeBadCell } from "./describe-bad-cell";
 import { orderPoints } from "./order-points";
 import { parseNumberCell } from "./parse-number-cell";
 import type { LabelUnit } from "./read-axis-label";
+import { readJcampStructure, type JcampDataBlock, type JcampLabel } from "./read-jcamp-structure";
 import { resolveXUnit } from "./resolve-x-unit";
 import { SpectrumParseError } from "./spectrum-parse-error";
 import {
@@ -24,21 +28,6 @@ export interface ParseJcampOptions extends SpectrumReadOptions {
    */
   blockIndex?: number;
 }
-
-interface DataBlock {
-  /** 1-based line of the ##XYDATA= / ##XYPOINTS= / ##PEAK TABLE= label. */
-  labelLine: number;
-  form: "XYDATA" | "XYPOINTS" | "PEAKTABLE";
-  /** 0-based indexes of the lines that hold the block's numbers. */
-  firstLine: number;
-  endLine: number;
-  /** For (XY..XY) blocks: the 1-based line of each point, as scanned by us. */
-  pointLines?: number[];
-}
-
-/** Characters of the ASDF forms of XYDATA (AFFN, PAC, SQZ, DIF, DUP); anything else is a typing error. */
-const ASDF_CHARACTER = /[^0-9 \t+\-.,;@%A-Za-s]/;
-const PAIR_SEPARATOR = /[\s,;]+/;
 
 const XUNITS: Record<string, LabelUnit> = {
   NANOMETERS: "nm",
@@ -60,13 +49,23 @@ const XUNITS: Record<string, LabelUnit> = {
   CHANNELS: "pixel",
 };
 const UNSTATED_XUNITS = new Set(["", "ARBITRARY UNITS", "ARBITRARY", "AU", "A.U.", "NONE"]);
-/** Labels whose values are the data themselves, not metadata. */
-const DATA_LABELS = new Set(["XYDATA", "XYPOINTS", "PEAKTABLE", "END"]);
+/** The variable lists this reader takes, blanks removed. */
+const VARIABLES: Record<JcampDataBlock["form"], string> = {
+  XYDATA: "(X++(Y..Y))",
+  XYPOINTS: "(XY..XY)",
+  PEAKTABLE: "(XY..XY)",
+};
+/** A scale factor further than 30 decades from 1 scales no measured spectrum; such a file is broken or hostile. */
+const LARGEST_FACTOR = 1e30;
+/** DELTAX is often written rounded; more than 1 % from the step FIRSTX, LASTX and NPOINTS give is a contradiction. */
+const DELTAX_TOLERANCE = 0.01;
+/** A line's X may sit this many steps (plus XFACTOR for its rounding) from its first Y before points are missing. */
+const LINE_X_TOLERANCE_STEPS = 1.5;
 
 /**
  * The spectrum in the JCAMP-DX `text`. XUNITS gives the x unit (MICROMETERS are scaled to nm); for
  * ARBITRARY UNITS or no XUNITS, `options.xUnit` must say. The labels (TITLE, ORIGIN, OWNER, DATE, …)
- * go into `meta`; a user label ##$MEDIUM=AIR|VACUUM gives the medium.
+ * go into `meta` as written; a user label ##$MEDIUM=AIR|VACUUM gives the medium.
  */
 export function parseJcamp(text: string, options: ParseJcampOptions = {}): Spectrum {
   const {
@@ -82,9 +81,9 @@ export function parseJcamp(text: string, options: ParseJcampOptions = {}): Spect
   if (typeof text !== "string") throw new RangeError("text must be a string");
   assertTextWithinBytes(text, maxBytes);
 
-  const lines = (text.charCodeAt(0) === 0xfeff ? text.slice(1) : text).split(/\r\n|\r|\n/);
-  const blocks = findDataBlocks(lines);
-  if (blocks.length === 0 && !lines.some((line) => line.trimStart().startsWith("##"))) {
+  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  const { blocks, hasLabelLines } = readJcampStructure(body);
+  if (blocks.length === 0 && !hasLabelLines) {
     throw new SpectrumParseError("jcamp-structure", "not a JCAMP-DX file: no ##LABEL= lines");
   }
   const block = blocks[blockIndex];
@@ -95,72 +94,50 @@ export function parseJcamp(text: string, options: ParseJcampOptions = {}): Spect
         : `only ${blocks.length} data blocks`;
     throw new SpectrumParseError("jcamp-structure", `the file has ${found}`);
   }
-  for (const each of blocks) scanDataBlock(lines, each);
+  const labels = new Map<string, JcampLabel>();
+  for (const label of block.labels) labels.set(label.key, label);
 
-  // jcampconverter reads (XY..XY) data only under PEAK TABLE; the layout is the same, so relabel (same line count).
-  const forPackage = lines.map((line, i) =>
-    blocks.some((b) => b.form === "XYPOINTS" && b.labelLine === i + 1)
-      ? line.replace(/XY[ _-]*POINTS/i, "PEAK TABLE")
-      : line,
-  );
-  let converted;
-  try {
-    converted = convert(forPackage.join("\n"), { keepRecordsRegExp: /.*/ });
-  } catch (error) {
-    const reason = error instanceof Error ? error.message : String(error);
-    throw new SpectrumParseError("jcamp-structure", `the JCAMP-DX reader failed: ${reason}`);
-  }
-  const found = converted.flatten.flatMap((entry) =>
-    entry.spectra.map((spectrum) => ({ entry, spectrum })),
-  );
-  const chosen = found[blockIndex];
-  if (chosen === undefined) {
+  const variables = block.variables.replace(/\s/g, "").toUpperCase();
+  if (variables !== VARIABLES[block.form]) {
     throw new SpectrumParseError(
       "jcamp-structure",
-      "the data block could not be decoded",
+      `##${block.form === "PEAKTABLE" ? "PEAK TABLE" : block.form}=${block.variables || "(nothing)"}: this reader takes only ${VARIABLES[block.form]}`,
       block.labelLine,
       null,
     );
   }
-  const { entry, spectrum: decoded } = chosen;
-  const xValues = decoded.data?.x ?? [];
-  const yValues = decoded.data?.y ?? [];
-  const declared = numberLabel(entry.info.NPOINTS);
-  if (xValues.length !== yValues.length) {
-    throw new SpectrumParseError(
-      "jcamp-structure",
-      `the block decodes to ${xValues.length} x but ${yValues.length} y values`,
-      block.labelLine,
-      null,
-    );
+  const xFactor = readFactor(labels.get("XFACTOR"));
+  const yFactor = readFactor(labels.get("YFACTOR"));
+  const declared = readPointCount(labels.get("NPOINTS"), maxPoints);
+  const decodeRange = {
+    start: block.start,
+    end: block.end,
+    firstLineNumber: block.firstLineNumber,
+    maxPoints,
+    declaredPoints: declared,
+  };
+
+  let x: Float64Array;
+  let y: Float64Array;
+  let lineOf: (index: number) => number | null;
+  if (block.form === "XYDATA") {
+    const axis = readAxisLabels(labels, block);
+    const lineX = lineXChecker(axis, xFactor, declared);
+    const decoded = decodeJcampXyData(body, { ...decodeRange, onLine: lineX.check });
+    checkPointCount(decoded.y.length, declared, minPoints, block);
+    x = placeXyData(decoded.y.length, axis, block);
+    lineX.checkLast(x);
+    y = decoded.y;
+    lineOf = (index) => lineOfXyDataValue(body, decodeRange, index);
+  } else {
+    const decoded = decodeJcampXyPoints(body, decodeRange);
+    checkPointCount(decoded.x.length, declared, minPoints, block);
+    x = decoded.x;
+    y = decoded.y;
+    if (xFactor !== 1) for (let i = 0; i < x.length; i++) x[i] *= xFactor;
+    lineOf = (index) => decoded.lines[index] ?? null;
   }
-  if (declared !== undefined && declared !== xValues.length) {
-    throw new SpectrumParseError(
-      "jcamp-structure",
-      `NPOINTS says ${declared} but the ${block.form} block holds ${xValues.length} points`,
-      block.labelLine,
-      null,
-    );
-  }
-  if (xValues.length > maxPoints) {
-    throw new SpectrumParseError(
-      "too-large",
-      `${xValues.length} points is more than the limit of ${maxPoints}`,
-      block.labelLine,
-      null,
-    );
-  }
-  if (xValues.length < minPoints) {
-    throw new SpectrumParseError(
-      "too-few-points",
-      `found ${xValues.length} points; at least ${minPoints} are needed`,
-      block.labelLine,
-      null,
-    );
-  }
-  const x = Float64Array.from(xValues);
-  const y = Float64Array.from(yValues);
-  const lineOf = (index: number): number | null => block.pointLines?.[index] ?? null;
+  if (yFactor !== 1) for (let i = 0; i < y.length; i++) y[i] *= yFactor;
   for (let i = 0; i < x.length; i++) {
     if (!Number.isFinite(x[i]) || !Number.isFinite(y[i])) {
       throw new SpectrumParseError(
@@ -171,41 +148,39 @@ export function parseJcamp(text: string, options: ParseJcampOptions = {}): Spect
       );
     }
   }
-  if (block.form === "XYDATA") checkFirstX(lines, block, decoded.xFactor ?? 1, x[0]);
 
-  const xUnitsText = String(decoded.xUnits ?? entry.info.XUNITS ?? "").trim();
+  const xUnitsLabel = labels.get("XUNITS");
+  const xUnitsText = (xUnitsLabel?.value ?? "").trim();
   const xUnitsKey = xUnitsText.toUpperCase();
   const fileUnit = XUNITS[xUnitsKey];
+  const xUnitsLine = xUnitsLabel?.line ?? null;
   if (fileUnit === undefined && !UNSTATED_XUNITS.has(xUnitsKey) && options.xUnit === undefined) {
     throw new SpectrumParseError(
       "unit-unknown",
       `XUNITS=${xUnitsText} is not a spectral axis this reader knows (nm, Å, µm, 1/cm, pixels); state options.xUnit to read it anyway`,
-      labelLine(lines, "XUNITS"),
+      xUnitsLine,
       null,
     );
   }
-  const mediumText = String(entry.meta.MEDIUM ?? "")
-    .trim()
-    .toUpperCase();
+  const mediumText = (labels.get("$MEDIUM")?.value ?? "").trim().toUpperCase();
   const resolved = resolveXUnit({
     fileUnit,
     fileMedium: mediumText === "AIR" ? "air" : mediumText === "VACUUM" ? "vacuum" : undefined,
     fileText: `XUNITS=${xUnitsText || "(none)"}`,
-    line: labelLine(lines, "XUNITS"),
+    line: xUnitsLine,
     statedUnit: options.xUnit,
     statedMedium: options.medium,
     x,
   });
+  if (resolved.scale !== 1) for (let i = 0; i < x.length; i++) x[i] *= resolved.scale;
+  assertPhysicalAxis(x, resolved.xUnit, { lineOf });
   const ordered = orderPoints(x, y, { lineOf });
-  if (resolved.scale !== 1)
-    for (let i = 0; i < ordered.x.length; i++) ordered.x[i] *= resolved.scale;
 
   const meta: Record<string, string> = {};
-  for (const [label, value] of Object.entries(entry.info)) {
-    if (!DATA_LABELS.has(label) && value !== undefined) meta[label] = String(value);
-  }
-  for (const [label, value] of Object.entries(entry.meta)) {
-    if (value !== undefined) meta[`$${label}`] = String(value);
+  for (const label of block.labels) {
+    if (label.key === "END") continue;
+    const name = label.key.startsWith("$") ? `$${label.name.slice(1).trim()}` : label.key;
+    meta[name] = label.value;
   }
   meta.xUnitSource = resolved.source;
   if (resolved.unitInFile) meta.xUnitInFile = resolved.unitInFile;
@@ -215,117 +190,241 @@ export function parseJcamp(text: string, options: ParseJcampOptions = {}): Spect
   return spectrum;
 }
 
-function canonicalLabel(line: string): string | undefined {
-  const trimmed = line.trimStart();
-  if (!trimmed.startsWith("##")) return undefined;
-  const equals = trimmed.indexOf("=");
-  if (equals < 0) return undefined;
-  return trimmed
-    .slice(2, equals)
-    .replace(/[\s_-]/g, "")
-    .toUpperCase();
+/** The number a label holds, or a located error when it holds anything else. */
+function readNumber(label: JcampLabel): number {
+  const value = parseNumberCell(label.value, ".");
+  if (!Number.isNaN(value)) return value;
+  const bad = describeBadCell(label.value, label.line, 1, ".");
+  const shown = label.value.length > 40 ? `${label.value.slice(0, 40)}…` : label.value;
+  const problem = bad.code === "not-finite" ? "is not a finite number" : "is not a number";
+  throw new SpectrumParseError(
+    bad.code === "not-finite" ? "not-finite" : "non-numeric",
+    `${label.name}=${shown} ${problem}`,
+    label.line,
+    null,
+  );
 }
 
-function labelLine(lines: string[], label: string): number | null {
-  const index = lines.findIndex((line) => canonicalLabel(line) === label);
-  return index < 0 ? null : index + 1;
-}
-
-function findDataBlocks(lines: string[]): DataBlock[] {
-  const blocks: DataBlock[] = [];
-  for (let i = 0; i < lines.length; i++) {
-    const label = canonicalLabel(lines[i]);
-    if (label !== "XYDATA" && label !== "XYPOINTS" && label !== "PEAKTABLE") continue;
-    let end = i + 1;
-    while (end < lines.length && !lines[end].trimStart().startsWith("##")) end++;
-    blocks.push({ labelLine: i + 1, form: label, firstLine: i + 1, endLine: end });
+/** XFACTOR or YFACTOR: 1 when absent; refused when zero, not finite, or absurdly large or small. */
+function readFactor(label: JcampLabel | undefined): number {
+  if (label === undefined) return 1;
+  const factor = readNumber(label);
+  const size = Math.abs(factor);
+  if (size === 0 || size > LARGEST_FACTOR || size < 1 / LARGEST_FACTOR) {
+    throw new SpectrumParseError(
+      "out-of-range",
+      `${label.name}=${factor} cannot scale a spectrum: a factor must be non-zero and between 1e-30 and 1e30 in size`,
+      label.line,
+      null,
+    );
   }
-  return blocks;
+  return factor;
 }
 
-/** Refuses characters that no ASDF form allows, and (XY..XY) values that are not numbers, at their line. */
-function scanDataBlock(lines: string[], block: DataBlock): void {
-  const pointLines: number[] = [];
-  for (let i = block.firstLine; i < block.endLine; i++) {
-    const line = stripComment(lines[i]);
-    if (block.form === "XYDATA") {
-      const bad = ASDF_CHARACTER.exec(line);
-      if (bad) {
-        throw new SpectrumParseError(
-          "non-numeric",
-          `"${bad[0]}" cannot appear in XYDATA`,
-          i + 1,
-          bad.index + 1,
-        );
-      }
-      continue;
-    }
-    const tokens = line
-      .trim()
-      .split(PAIR_SEPARATOR)
-      .filter((token) => token.length > 0);
-    let column = 0;
-    for (const token of tokens) {
-      column = line.indexOf(token, column);
-      if (Number.isNaN(parseNumberCell(token, "."))) {
-        throw new SpectrumParseError(
-          "non-numeric",
-          `"${token}" is not a number`,
-          i + 1,
-          column + 1,
-        );
-      }
-      column += token.length;
-    }
-    if (tokens.length % 2 !== 0) {
+/** NPOINTS as a whole number within the point limit, refused before any data is decoded; undefined when absent. */
+function readPointCount(label: JcampLabel | undefined, maxPoints: number): number | undefined {
+  if (label === undefined) return undefined;
+  const count = readNumber(label);
+  if (!Number.isInteger(count) || count < 0) {
+    throw new SpectrumParseError(
+      "jcamp-structure",
+      `${label.name}=${count} is not a whole number of points`,
+      label.line,
+      null,
+    );
+  }
+  if (count > maxPoints) {
+    throw new SpectrumParseError(
+      "too-large",
+      `${label.name}=${count} is more than the limit of ${maxPoints} points`,
+      label.line,
+      null,
+    );
+  }
+  return count;
+}
+
+function checkPointCount(
+  count: number,
+  declared: number | undefined,
+  minPoints: number,
+  block: JcampDataBlock,
+): void {
+  if (declared !== undefined && declared !== count) {
+    throw new SpectrumParseError(
+      "jcamp-structure",
+      `NPOINTS says ${declared} but the ${block.form} block holds ${count} points`,
+      block.labelLine,
+      null,
+    );
+  }
+  if (count < minPoints) {
+    throw new SpectrumParseError(
+      "too-few-points",
+      `found ${count} points; at least ${minPoints} are needed`,
+      block.labelLine,
+      null,
+    );
+  }
+}
+
+interface AxisLabels {
+  firstX: number;
+  lastX?: number;
+  deltaX?: number;
+  lastLine: number | null;
+  deltaLine: number | null;
+}
+
+/** FIRSTX and LASTX or DELTAX, read (and refused) before any data is decoded. */
+function readAxisLabels(labels: Map<string, JcampLabel>, block: JcampDataBlock): AxisLabels {
+  const firstLabel = labels.get("FIRSTX");
+  const lastLabel = labels.get("LASTX");
+  const deltaLabel = labels.get("DELTAX");
+  if (firstLabel === undefined) {
+    throw new SpectrumParseError(
+      "jcamp-structure",
+      "XYDATA needs ##FIRSTX= to place its points",
+      block.labelLine,
+      null,
+    );
+  }
+  const firstX = readNumber(firstLabel);
+  const lastX = lastLabel === undefined ? undefined : readNumber(lastLabel);
+  const deltaX = deltaLabel === undefined ? undefined : readNumber(deltaLabel);
+  if (lastX === undefined && deltaX === undefined) {
+    throw new SpectrumParseError(
+      "jcamp-structure",
+      "XYDATA needs ##LASTX= or ##DELTAX= to place its points",
+      block.labelLine,
+      null,
+    );
+  }
+  return {
+    firstX,
+    lastX,
+    deltaX,
+    lastLine: lastLabel?.line ?? null,
+    deltaLine: deltaLabel?.line ?? null,
+  };
+}
+
+/**
+ * The x of each XYDATA point from FIRSTX and LASTX (or DELTAX), after checking that they agree with each
+ * other and with the number of points.
+ */
+function placeXyData(n: number, axis: AxisLabels, block: JcampDataBlock): Float64Array {
+  const { firstX, lastX, deltaX } = axis;
+  let step: number;
+  if (lastX !== undefined) {
+    step = (lastX - firstX) / (n - 1);
+    if (!(step !== 0) || !Number.isFinite(step)) {
       throw new SpectrumParseError(
-        "column-count",
-        `an x without its y (${tokens.length} values on the line)`,
-        i + 1,
+        "jcamp-structure",
+        `FIRSTX=${firstX} and LASTX=${lastX} cannot place ${n} distinct points`,
+        axis.lastLine ?? block.labelLine,
         null,
       );
     }
-    for (let t = 0; t < tokens.length; t += 2) pointLines.push(i + 1);
-  }
-  if (block.form !== "XYDATA") block.pointLines = pointLines;
-}
-
-function stripComment(line: string): string {
-  const comment = line.indexOf("$$");
-  return comment < 0 ? line : line.slice(0, comment);
-}
-
-/** The X that opens the first XYDATA line, times XFACTOR, must be FIRSTX (JCAMP-DX's own abscissa check). */
-function checkFirstX(lines: string[], block: DataBlock, xFactor: number, firstX: number): void {
-  for (let i = block.firstLine; i < block.endLine; i++) {
-    const line = stripComment(lines[i]).trim();
-    if (line.length === 0) continue;
-    let end = 0;
-    while (
-      end < line.length &&
-      /[0-9+\-.]/.test(line[end]) &&
-      (end === 0 || (line[end] !== "+" && line[end] !== "-"))
-    )
-      end++;
-    const checkX = Number(line.slice(0, end)) * xFactor;
-    if (
-      end > 0 &&
-      Number.isFinite(checkX) &&
-      Math.abs(checkX - firstX) > Math.abs(xFactor) + 1e-6 * Math.abs(firstX)
-    ) {
+    if (deltaX !== undefined && !(Math.abs(deltaX - step) <= DELTAX_TOLERANCE * Math.abs(step))) {
       throw new SpectrumParseError(
         "jcamp-structure",
-        `the first X value (${checkX}) does not match FIRSTX (${firstX})`,
-        i + 1,
-        1,
+        `DELTAX=${deltaX} disagrees with (LASTX − FIRSTX)/(NPOINTS − 1) = ${step}`,
+        axis.deltaLine ?? block.labelLine,
+        null,
       );
     }
-    return;
+  } else {
+    step = deltaX ?? 0;
+    if (step === 0) {
+      throw new SpectrumParseError(
+        "jcamp-structure",
+        "DELTAX=0 would put every point at the same x",
+        axis.deltaLine ?? block.labelLine,
+        null,
+      );
+    }
   }
+  const x = new Float64Array(n);
+  for (let i = 0; i < n; i++) x[i] = firstX + i * step;
+  if (lastX !== undefined) x[n - 1] = lastX;
+  return x;
 }
 
-function numberLabel(value: unknown): number | undefined {
-  const number =
-    typeof value === "number" ? value : typeof value === "string" ? Number(value) : NaN;
-  return Number.isFinite(number) ? number : undefined;
+/**
+ * JCAMP-DX's abscissa check, line by line as the decoder reads: the X that opens a line, times XFACTOR,
+ * is the x of its first ordinate. The first line must match FIRSTX to within XFACTOR (the X is rounded
+ * to it); later lines may sit LINE_X_TOLERANCE_STEPS steps off before points are counted as lost. When
+ * the step is known only once the points are counted (LASTX without NPOINTS or DELTAX), the last line
+ * is checked then.
+ */
+function lineXChecker(axis: AxisLabels, xFactor: number, declared: number | undefined) {
+  const { firstX, lastX, deltaX } = axis;
+  const knownStep =
+    deltaX !== undefined && deltaX !== 0
+      ? deltaX
+      : lastX !== undefined && declared !== undefined && declared > 1
+        ? (lastX - firstX) / (declared - 1)
+        : undefined;
+  let lines = 0;
+  // The last line, in plain variables: an object a line would be millions of objects for a hostile file.
+  let lastLineNumber = 0;
+  let lastLineX = 0;
+  let lastPointIndex = 0;
+  const verify = (lineNumber: number, checkX: number, expected: number, step: number) => {
+    const first = lines === 1;
+    const slack =
+      Math.abs(xFactor) +
+      1e-6 * Math.abs(expected) +
+      (first ? 0 : LINE_X_TOLERANCE_STEPS * Math.abs(step));
+    if (Number.isFinite(checkX) && Math.abs(checkX - expected) <= slack) return;
+    throw new SpectrumParseError(
+      "jcamp-structure",
+      first
+        ? `the first X value (${checkX}) does not match FIRSTX (${firstX})`
+        : `the line's X value (${checkX}) is not where its first Y falls (x = ${expected}); points are missing or extra`,
+      lineNumber,
+      1,
+    );
+  };
+  return {
+    check: (lineNumber: number, x: number, pointIndex: number) => {
+      lines++;
+      lastLineNumber = lineNumber;
+      lastLineX = x;
+      lastPointIndex = pointIndex;
+      if (lines === 1) verify(lineNumber, x * xFactor, firstX, 0);
+      else if (knownStep !== undefined)
+        verify(lineNumber, x * xFactor, firstX + pointIndex * knownStep, knownStep);
+    },
+    checkLast: (placed: Float64Array) => {
+      if (lines < 2 || knownStep !== undefined) return;
+      const step = (placed[placed.length - 1] - placed[0]) / (placed.length - 1);
+      const index = Math.min(lastPointIndex, placed.length - 1);
+      verify(lastLineNumber, lastLineX * xFactor, placed[index], step);
+    },
+  };
+}
+
+const FOUND = new Error("found");
+
+/** The file line that holds value `index` of an XYDATA block, found by reading it again (on refusals only). */
+function lineOfXyDataValue(
+  body: string,
+  range: DecodeJcampXyDataOptions,
+  index: number,
+): number | null {
+  let found: number | null = null;
+  try {
+    decodeJcampXyData(body, {
+      ...range,
+      onLine: (lineNumber, _x, _pointIndex, firstValueIndex) => {
+        if (firstValueIndex > index) throw FOUND;
+        found = lineNumber;
+      },
+    });
+  } catch (error) {
+    if (error !== FOUND && !(error instanceof SpectrumParseError)) throw error;
+  }
+  return found;
 }

@@ -27,7 +27,9 @@ export type SpectrumParseErrorCode =
   /** Binary content (NUL bytes) where text was expected. */
   | "binary"
   /** A JCAMP-DX file whose structure is broken (no data block, wrong NPOINTS, …). */
-  | "jcamp-structure";
+  | "jcamp-structure"
+  /** A value outside what it can physically be: a zero or absurd scale factor, a negative wavelength, … */
+  | "out-of-range";
 
 /** A file that cannot be read as a spectrum, with the 1-based line and column where known. */
 export class SpectrumParseError extends Error {

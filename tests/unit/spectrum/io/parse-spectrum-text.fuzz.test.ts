@@ -1,0 +1,181 @@
+// Fuzz test of the two-column text reader: valid texts in random layouts and texts damaged at random
+// give either a sound spectrum or a SpectrumParseError, never any other error, with both row readers.
+// The seed is fixed by tests/support/fast-check-seed.ts.
+import { describe, expect, it } from "vitest";
+import fc from "fast-check";
+import { SpectrumParseError, parseSpectrumText } from "../../../../lib/spectrum/io";
+import type { Spectrum } from "../../../../lib/spectrum/types";
+
+/** A small point limit, so that damage that multiplies rows cannot make a run slow. */
+const MAX_POINTS = 5000;
+const MIN_POINTS = 16;
+
+const LAYOUTS = [
+  { separator: ",", decimal: "." },
+  { separator: ", ", decimal: "." },
+  { separator: ";", decimal: "." },
+  { separator: ";", decimal: "," },
+  { separator: "\t", decimal: "." },
+  { separator: "\t", decimal: "," },
+  { separator: " ", decimal: "." },
+  { separator: "   ", decimal: "," },
+] as const;
+
+const validText = fc
+  .record({
+    layout: fc.constantFrom(...LAYOUTS),
+    start: fc.integer({ min: -1000, max: 100_000 }),
+    steps: fc.array(fc.integer({ min: 1, max: 5000 }), { minLength: MIN_POINTS, maxLength: 60 }),
+    yMillis: fc.array(fc.integer({ min: -1_000_000, max: 100_000_000 }), {
+      minLength: 60,
+      maxLength: 60,
+    }),
+    header: fc.constantFrom(
+      "",
+      "wavelength (nm)",
+      "# wavelength (nm)",
+      "pixel",
+      "wavenumber (cm-1)",
+      "lambda/Å",
+    ),
+    thirdColumn: fc.boolean(),
+    comments: fc.array(fc.constantFrom("# run 4", "% lamp", "// note", ""), { maxLength: 3 }),
+    crlf: fc.boolean(),
+    descending: fc.boolean(),
+  })
+  .map((g) => {
+    const x: number[] = [];
+    let xMillis = g.start;
+    for (const step of g.steps) {
+      xMillis += step;
+      x.push(xMillis / 1000);
+    }
+    const cell = (value: number) =>
+      g.layout.decimal === "," ? String(value).replace(".", ",") : String(value);
+    const out: string[] = [...g.comments];
+    if (g.header) out.push(`${g.header}${g.layout.separator}counts`);
+    const order = x.map((_, i) => i);
+    if (g.descending) order.reverse();
+    for (const i of order) {
+      const extra = g.thirdColumn ? `${g.layout.separator}${cell(i)}` : "";
+      out.push(`${cell(x[i])}${g.layout.separator}${cell(g.yMillis[i] / 1000)}${extra}`);
+    }
+    return out.join(g.crlf ? "\r\n" : "\n") + "\n";
+  });
+
+const SNIPPETS = [
+  "NaN",
+  "Infinity",
+  "-Infinity",
+  "1e999",
+  "-1e999",
+  "9".repeat(400),
+  "0x1F",
+  '"',
+  '"1,5"',
+  ",",
+  ";",
+  "\t",
+  " ",
+  ".",
+  "\n",
+  "\r",
+  "\r\n",
+  "\u0000",
+  "\uFEFF",
+  "Å",
+  "µm",
+  "nm",
+  "cm-1",
+  "wavelength (Å)",
+  "-",
+  "+",
+  "e",
+  "1e5",
+  "#",
+  "//",
+  "\uD800",
+];
+
+type Mutation = (text: string) => string;
+const mutation: fc.Arbitrary<Mutation> = fc.oneof(
+  fc.tuple(fc.nat(), fc.constantFrom(...SNIPPETS)).map(([at, snippet]) => (text: string) => {
+    const i = at % (text.length + 1);
+    return text.slice(0, i) + snippet + text.slice(i);
+  }),
+  fc.tuple(fc.nat(), fc.integer({ min: 1, max: 12 })).map(([at, length]) => (text: string) => {
+    const i = at % (text.length + 1);
+    return text.slice(0, i) + text.slice(i + length);
+  }),
+  fc.tuple(fc.nat(), fc.integer({ min: 0, max: 0xffff })).map(([at, code]) => (text: string) => {
+    const i = at % Math.max(1, text.length);
+    return text.slice(0, i) + String.fromCharCode(code) + text.slice(i + 1);
+  }),
+  fc.tuple(fc.nat(), fc.nat()).map(([a, b]) => (text: string) => {
+    const lines = text.split("\n");
+    const i = a % lines.length;
+    const j = b % lines.length;
+    [lines[i], lines[j]] = [lines[j], lines[i]];
+    return lines.join("\n");
+  }),
+  fc.nat().map((a) => (text: string) => {
+    const lines = text.split("\n");
+    const i = a % lines.length;
+    lines.splice(i, 0, lines[i]);
+    return lines.join("\n");
+  }),
+  fc.nat().map((at) => (text: string) => text.slice(0, at % (text.length + 1))),
+);
+
+const anyText = fc.oneof(
+  { weight: 2, arbitrary: validText },
+  {
+    weight: 3,
+    arbitrary: fc
+      .tuple(validText, fc.array(mutation, { minLength: 1, maxLength: 4 }))
+      .map(([text, mutations]) => mutations.reduce((t, mutate) => mutate(t), text)),
+  },
+);
+
+/** Why `spectrum` is not one the rest of the app can rely on, or "" when it is sound. */
+function unsoundness(spectrum: Spectrum): string {
+  const { x, y } = spectrum;
+  if (x.length !== y.length) return `${x.length} x but ${y.length} y`;
+  if (x.length < MIN_POINTS || x.length > MAX_POINTS) return `${x.length} points`;
+  for (let i = 0; i < x.length; i++) {
+    if (!Number.isFinite(x[i]) || !Number.isFinite(y[i])) return `point ${i} not finite`;
+    if (i > 0 && !(x[i] > x[i - 1])) return `x not increasing at ${i}`;
+  }
+  return "";
+}
+
+describe("parseSpectrumText fuzz", () => {
+  it("any text, valid or damaged, gives a sound spectrum or a SpectrumParseError", () => {
+    let read = 0;
+    let refused = 0;
+    fc.assert(
+      fc.property(
+        anyText,
+        fc.constantFrom("scan", "lines"),
+        fc.constantFrom(undefined, "nm", "pixel"),
+        (text, rowReader, xUnit) => {
+          let spectrum: Spectrum;
+          try {
+            spectrum = parseSpectrumText(text, { maxPoints: MAX_POINTS, rowReader, xUnit });
+          } catch (error) {
+            if (!(error instanceof SpectrumParseError)) throw error;
+            expect(error.message.length).toBeGreaterThan(0);
+            refused++;
+            return;
+          }
+          expect(unsoundness(spectrum)).toBe("");
+          read++;
+        },
+      ),
+      { numRuns: 2500 },
+    );
+    // Both outcomes must really occur, or the property says little.
+    expect(read).toBeGreaterThan(300);
+    expect(refused).toBeGreaterThan(300);
+  }, 120_000);
+});
