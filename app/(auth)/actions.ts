@@ -4,6 +4,8 @@ import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { z } from "zod";
 import { startSession } from "@/lib/auth/session";
+import { clientAddress } from "@/lib/http/client-address";
+import { safeNextPath } from "@/lib/http/safe-next-path";
 import { loadActor, requestPasswordReset, resetPassword, signIn } from "@/lib/services/accounts";
 import { acceptInvitation } from "@/lib/services/teams";
 import {
@@ -15,13 +17,7 @@ import {
 import { formError, parseForm, type FormState } from "@/lib/validation/form-state";
 
 async function address(): Promise<string> {
-  const h = await headers();
-  return h.get("x-forwarded-for")?.split(",")[0]?.trim() || h.get("x-real-ip") || "local";
-}
-
-function safeNext(value: FormDataEntryValue | null): string {
-  const next = typeof value === "string" ? value : "/";
-  return next.startsWith("/") && !next.startsWith("//") ? next : "/";
+  return clientAddress(await headers());
 }
 
 export async function signInAction(_state: FormState, formData: FormData): Promise<FormState> {
@@ -32,7 +28,7 @@ export async function signInAction(_state: FormState, formData: FormData): Promi
   } catch (error) {
     return { ...formError(error), values: { email: data.email } };
   }
-  redirect(safeNext(formData.get("next")));
+  redirect(safeNextPath(formData.get("next")));
 }
 
 export async function requestResetAction(_state: FormState, formData: FormData): Promise<FormState> {
