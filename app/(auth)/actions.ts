@@ -34,7 +34,11 @@ export async function signInAction(_state: FormState, formData: FormData): Promi
 export async function requestResetAction(_state: FormState, formData: FormData): Promise<FormState> {
   const { data, state } = parseForm(passwordResetRequestSchema, formData);
   if (state) return state;
-  await requestPasswordReset(data);
+  try {
+    await requestPasswordReset({ ...data, address: await address() });
+  } catch (error) {
+    return formError(error);
+  }
   return { ok: true, message: "If that address has an account, a reset link is on its way. It works for one hour." };
 }
 
@@ -42,7 +46,7 @@ export async function resetPasswordAction(_state: FormState, formData: FormData)
   const { data, state } = parseForm(passwordResetSchema, formData);
   if (state) return state;
   try {
-    await resetPassword(data);
+    await resetPassword({ ...data, address: await address() });
   } catch (error) {
     return formError(error);
   }
@@ -53,7 +57,7 @@ export async function acceptInvitationAction(_state: FormState, formData: FormDa
   const { data, state } = parseForm(acceptInvitationSchema.extend({ name: z.string().trim().max(120).optional() }), formData);
   if (state) return state;
   try {
-    await startSession((await loadActor(await acceptInvitation(data)))!);
+    await startSession((await loadActor(await acceptInvitation({ ...data, address: await address() })))!);
   } catch (error) {
     return formError(error);
   }

@@ -11,7 +11,7 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
   return (
     <>
       <h1 className="mb-4 text-xl font-semibold">Sign in</h1>
-      {reset ? <p className="mb-3 text-sm text-teal-700">Your password is changed. Sign in with the new one.</p> : null}
+      {reset ? <p className="mb-3 text-sm text-teal-700">Your password is changed: every session was signed out and your access tokens were revoked. Sign in with the new one.</p> : null}
       <AuthForm
         action={signInAction}
         hidden={{ next: safeNextPath(next) }}
