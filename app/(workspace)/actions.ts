@@ -46,7 +46,7 @@ export async function changePasswordAction(_state: FormState, formData: FormData
       address: clientAddress(await headers()),
     });
     revalidatePath("/account");
-    return { ok: true, message: `Your password is changed. ${describeRevoked(revoked)}` };
+    return { ok: true, message: `Your password is changed. ${describeRevoked(revoked, "change")}` };
   } catch (error) {
     return formError(error);
   }

@@ -32,7 +32,8 @@ export function parseTrustedProxies(list: string | undefined): TrustedProxies {
   for (const entry of entries) {
     const [address, prefix, extra] = entry.split("/");
     const family = net.isIP(address);
-    if (!family || extra !== undefined) throw new RangeError(`TRUSTED_PROXIES: "${entry}" is not an address or CIDR range.`);
+    if (!family || extra !== undefined)
+      throw new RangeError(`TRUSTED_PROXIES: "${entry}" is not an address or CIDR range.`);
     const type = family === 4 ? "ipv4" : "ipv6";
     if (prefix === undefined) {
       blockList.addAddress(address, type);
@@ -57,7 +58,8 @@ export function normaliseAddress(text: string | null | undefined): string | null
   if (!value) return null;
   const bracketed = /^\[([^\]]+)\](?::\d+)?$/.exec(value);
   if (bracketed) value = bracketed[1];
-  else if (/^\d{1,3}(\.\d{1,3}){3}:\d+$/.test(value)) value = value.slice(0, value.lastIndexOf(":"));
+  else if (/^\d{1,3}(\.\d{1,3}){3}:\d+$/.test(value))
+    value = value.slice(0, value.lastIndexOf(":"));
   value = value.replace(/%.*$/, "");
   const mapped = /^::ffff:(\d{1,3}(\.\d{1,3}){3})$/i.exec(value);
   if (mapped) value = mapped[1];
@@ -111,7 +113,10 @@ function trustedProxies(): TrustedProxies {
  * The client address of a request: pass `request.headers` in a route handler or
  * `await headers()` in a server action.
  */
-export function clientAddress(headers: Headers, trusted: TrustedProxies = trustedProxies()): string {
+export function clientAddress(
+  headers: Headers,
+  trusted: TrustedProxies = trustedProxies(),
+): string {
   return resolveClientAddress({
     peer: headers.get(PEER_ADDRESS_HEADER),
     forwardedFor: headers.get("x-forwarded-for"),

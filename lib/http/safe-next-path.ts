@@ -7,7 +7,9 @@ const MAX_LENGTH = 2048;
 const CONTROL = /[\u0000-\u001f\u007f-\u009f]/;
 
 function looksHostile(text: string): boolean {
-  return !text.startsWith("/") || text.startsWith("//") || text.includes("\\") || CONTROL.test(text);
+  return (
+    !text.startsWith("/") || text.startsWith("//") || text.includes("\\") || CONTROL.test(text)
+  );
 }
 
 /**

@@ -9,7 +9,10 @@ export const MASKED_SECRET = "[hidden: only the recipient sees this link]";
  * On outside production; in production only when EMBERLINE_MAIL_VIEWER=1 (the demo of
  * `npm start` and the tests switch it on). EMBERLINE_MAIL_VIEWER=0 turns it off everywhere.
  */
-export function mailViewerEnabled(settings: { NODE_ENV?: string; EMBERLINE_MAIL_VIEWER?: string }): boolean {
+export function mailViewerEnabled(settings: {
+  NODE_ENV?: string;
+  EMBERLINE_MAIL_VIEWER?: string;
+}): boolean {
   if (settings.EMBERLINE_MAIL_VIEWER === "1") return true;
   if (settings.EMBERLINE_MAIL_VIEWER === "0") return false;
   return settings.NODE_ENV !== "production";

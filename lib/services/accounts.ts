@@ -195,14 +195,14 @@ async function revokeCredentialsOf(
   return { sessions, accessTokens };
 }
 
-/** Words for the person about what a new password ended. */
-export function describeRevoked(revoked: CredentialsRevoked): string {
+/** Words for the person about what a new password ended (a reset ends every session, a change the others). */
+export function describeRevoked(revoked: CredentialsRevoked, after: "reset" | "change"): string {
   const tokens =
     revoked.accessTokens === 0
       ? "You had no access tokens."
       : `Your ${revoked.accessTokens === 1 ? "access token was" : `${revoked.accessTokens} access tokens were`} revoked: ` +
         "scripts that used them need a new one (Account → Access tokens).";
-  return `Your other sessions were signed out. ${tokens}`;
+  return `${after === "reset" ? "Every session was signed out." : "Your other sessions were signed out."} ${tokens}`;
 }
 
 /** Changes the password and ends the person's other sessions (all but `keepSessionId`) and every access token. */

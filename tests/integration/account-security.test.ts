@@ -17,7 +17,13 @@ import {
   type FreshAccount,
   type Me,
 } from "./support/accounts";
-import { extractLinkToken, mailTo, readMail, waitForMail, type StoredMail } from "./support/mailbox";
+import {
+  extractLinkToken,
+  mailTo,
+  readMail,
+  waitForMail,
+  type StoredMail,
+} from "./support/mailbox";
 import { closeDb, db } from "./support/database";
 
 const RESET_SUBJECT = /^Reset your Emberline password$/;
@@ -36,7 +42,9 @@ afterAll(closeDb);
 
 async function resetToken(person: FreshAccount): Promise<string> {
   const before = mailTo(person.email).filter((m) => RESET_SUBJECT.test(m.subject)).length;
-  expect((await new ApiClient().post("/api/password-reset", { email: person.email })).status).toBe(202);
+  expect((await new ApiClient().post("/api/password-reset", { email: person.email })).status).toBe(
+    202,
+  );
   const mail = await waitForMail({ to: person.email, subject: RESET_SUBJECT, skip: before });
   return extractLinkToken(mail.text, "/reset-password/");
 }
@@ -45,7 +53,12 @@ async function resetToken(person: FreshAccount): Promise<string> {
  * A POST from another loopback address (127.x.y.z, not the test server's trusted proxy 127.0.0.1),
  * so the server sees an untrusted direct peer whatever X-Forwarded-For says.
  */
-function postFrom(localAddress: string, path: string, json: unknown, headers: Record<string, string> = {}) {
+function postFrom(
+  localAddress: string,
+  path: string,
+  json: unknown,
+  headers: Record<string, string> = {},
+) {
   const url = new URL(path, APP_URL);
   const body = JSON.stringify(json);
   return new Promise<{ status: number; retryAfter: string | undefined }>((resolve, reject) => {
@@ -56,12 +69,19 @@ function postFrom(localAddress: string, path: string, json: unknown, headers: Re
         path: url.pathname,
         method: "POST",
         localAddress,
-        headers: { "content-type": "application/json", "content-length": Buffer.byteLength(body), ...headers },
+        headers: {
+          "content-type": "application/json",
+          "content-length": Buffer.byteLength(body),
+          ...headers,
+        },
       },
       (response) => {
         response.resume();
         response.on("end", () =>
-          resolve({ status: response.statusCode ?? 0, retryAfter: response.headers["retry-after"] as string | undefined }),
+          resolve({
+            status: response.statusCode ?? 0,
+            retryAfter: response.headers["retry-after"] as string | undefined,
+          }),
         );
       },
     );
@@ -77,17 +97,34 @@ describe("the outgoing-mail viewer", () => {
     const person = await createAccountThroughInvitation(lead, { label: "masked" });
     const token = await resetToken(person);
     const inviteeEmail = uniqueEmail("masked-invitee");
-    expect((await lead.post("/api/invitations", { teamId: flameTeamId, email: inviteeEmail, role: "chemist" })).status).toBe(201);
-    const invitation = await waitForMail({ to: inviteeEmail, subject: /invited to Flame Screening/ });
+    expect(
+      (
+        await lead.post("/api/invitations", {
+          teamId: flameTeamId,
+          email: inviteeEmail,
+          role: "chemist",
+        })
+      ).status,
+    ).toBe(201);
+    const invitation = await waitForMail({
+      to: inviteeEmail,
+      subject: /invited to Flame Screening/,
+    });
     const invitationToken = extractLinkToken(invitation.text, "/invitations/");
 
     const view = await lead.get<StoredMail[]>("/api/mail");
     expect(view.status).toBe(200);
     // The lead leads Flame Screening, so both messages are listed: with their secrets hidden.
-    const resetShown = view.body.find((m) => m.to.includes(person.email) && RESET_SUBJECT.test(m.subject));
+    const resetShown = view.body.find(
+      (m) => m.to.includes(person.email) && RESET_SUBJECT.test(m.subject),
+    );
     const invitationShown = view.body.find((m) => m.to.includes(inviteeEmail));
-    expect(resetShown?.text).toContain("/reset-password/[hidden: only the recipient sees this link]");
-    expect(invitationShown?.text).toContain("/invitations/[hidden: only the recipient sees this link]");
+    expect(resetShown?.text).toContain(
+      "/reset-password/[hidden: only the recipient sees this link]",
+    );
+    expect(invitationShown?.text).toContain(
+      "/invitations/[hidden: only the recipient sees this link]",
+    );
     const raw = JSON.stringify(view.body);
     expect(raw).not.toContain(token);
     expect(raw).not.toContain(invitationToken);
@@ -104,8 +141,14 @@ describe("the outgoing-mail viewer", () => {
     // lead@ is a supervisor in Arc and Spark Bench, whose lab lead is bench@.
     const bench = await signedIn("bench@demo.emberline.example", "emberline-demo");
     const before = mailTo(DEMO.labLead.email).filter((m) => RESET_SUBJECT.test(m.subject)).length;
-    expect((await new ApiClient().post("/api/password-reset", { email: DEMO.labLead.email })).status).toBe(202);
-    const mail = await waitForMail({ to: DEMO.labLead.email, subject: RESET_SUBJECT, skip: before });
+    expect(
+      (await new ApiClient().post("/api/password-reset", { email: DEMO.labLead.email })).status,
+    ).toBe(202);
+    const mail = await waitForMail({
+      to: DEMO.labLead.email,
+      subject: RESET_SUBJECT,
+      skip: before,
+    });
     const token = extractLinkToken(mail.text, "/reset-password/");
 
     const benchView = await bench.get<StoredMail[]>("/api/mail");
@@ -130,10 +173,13 @@ describe("a new password ends every access token", () => {
 
   it("after its owner's password reset", async () => {
     const { person, token } = await personWithToken("token-reset");
-    const reply = await new ApiClient().post<{ message: string; revoked: { accessTokens: number } }>(
-      "/api/password-reset/confirm",
-      { token: await resetToken(person), password: strongPassword() },
-    );
+    const reply = await new ApiClient().post<{
+      message: string;
+      revoked: { accessTokens: number };
+    }>("/api/password-reset/confirm", {
+      token: await resetToken(person),
+      password: strongPassword(),
+    });
     expect(reply.status).toBe(200);
     expect(reply.body.revoked.accessTokens).toBe(1);
     expect(reply.body.message).toContain("Your access token was revoked");
@@ -143,10 +189,13 @@ describe("a new password ends every access token", () => {
 
   it("after a password change", async () => {
     const { person, client, token } = await personWithToken("token-change");
-    const reply = await client.post<{ message: string; revoked: { accessTokens: number } }>("/api/password", {
-      currentPassword: person.password,
-      newPassword: strongPassword(),
-    });
+    const reply = await client.post<{ message: string; revoked: { accessTokens: number } }>(
+      "/api/password",
+      {
+        currentPassword: person.password,
+        newPassword: strongPassword(),
+      },
+    );
     expect(reply.status).toBe(200);
     expect(reply.body.revoked.accessTokens).toBe(1);
     expect(reply.body.message).toContain("Your access token was revoked");
@@ -160,12 +209,17 @@ describe("removing a member", () => {
   it("takes the team away at once, from the session and from the access token", async () => {
     const person = await createAccountThroughInvitation(lead, { label: "removed" });
     const client = await signedIn(person.email, person.password);
-    const { body } = await client.post<{ token: string }>("/api/tokens", { name: "removed member's script" });
+    const { body } = await client.post<{ token: string }>("/api/tokens", {
+      name: "removed member's script",
+    });
     const path = `/api/notebooks?teamId=${flameTeamId}`;
     expect((await client.get(path)).status).toBe(200);
     expect((await new ApiClient().get(path, { bearer: body.token })).status).toBe(200);
 
-    await db().query("DELETE FROM memberships WHERE user_id = $1 AND team_id = $2", [person.userId, flameTeamId]);
+    await db().query("DELETE FROM memberships WHERE user_id = $1 AND team_id = $2", [
+      person.userId,
+      flameTeamId,
+    ]);
 
     // Memberships are read on every request: no cached role survives the removal.
     expect((await client.get(path)).status).toBe(404);
@@ -190,7 +244,10 @@ describe("client addresses and the password throttle", () => {
     expect(statuses.slice(0, 20)).toEqual(Array(20).fill(401));
     expect(statuses[20]).toBe(429);
     // A trusted proxy (the test client on 127.0.0.1) naming another client is a different address.
-    const viaProxy = await new ApiClient(testAddress()).post("/api/session", { email: uniqueEmail("rotate"), password: "x" });
+    const viaProxy = await new ApiClient(testAddress()).post("/api/session", {
+      email: uniqueEmail("rotate"),
+      password: "x",
+    });
     expect(viaProxy.status).toBe(401);
   });
 
@@ -215,10 +272,16 @@ describe("client addresses and the password throttle", () => {
     const victim = await createAccountThroughInvitation(lead, { label: "owner-elsewhere" });
     const attacker = new ApiClient(testAddress());
     for (let attempt = 1; attempt <= 20; attempt++) {
-      const reply = await attacker.post("/api/session", { email: victim.email, password: `guess ${attempt}` });
+      const reply = await attacker.post("/api/session", {
+        email: victim.email,
+        password: `guess ${attempt}`,
+      });
       expect([401, 429]).toContain(reply.status);
     }
-    expect((await attacker.post("/api/session", { email: victim.email, password: victim.password })).status).toBe(429);
+    expect(
+      (await attacker.post("/api/session", { email: victim.email, password: victim.password }))
+        .status,
+    ).toBe(429);
     await signedIn(victim.email, victim.password);
   });
 
@@ -227,7 +290,10 @@ describe("client addresses and the password throttle", () => {
     const client = await signedIn(person.email, person.password);
     const statuses: number[] = [];
     for (let attempt = 1; attempt <= 5; attempt++) {
-      const reply = await client.post("/api/password", { currentPassword: `wrong ${attempt}`, newPassword: strongPassword() });
+      const reply = await client.post("/api/password", {
+        currentPassword: `wrong ${attempt}`,
+        newPassword: strongPassword(),
+      });
       statuses.push(reply.status);
     }
     expect(statuses.slice(0, 3)).toEqual([400, 400, 400]);
@@ -237,10 +303,17 @@ describe("client addresses and the password throttle", () => {
   it("lets a completed reset unlock the account's delays (no CAPTCHA)", async () => {
     const person = await createAccountThroughInvitation(lead, { label: "unlock" });
     const client = new ApiClient(testAddress());
-    for (let attempt = 1; attempt <= 4; attempt++) await client.post("/api/session", { email: person.email, password: `x ${attempt}` });
-    expect((await client.post("/api/session", { email: person.email, password: person.password })).status).toBe(429);
+    for (let attempt = 1; attempt <= 4; attempt++)
+      await client.post("/api/session", { email: person.email, password: `x ${attempt}` });
+    expect(
+      (await client.post("/api/session", { email: person.email, password: person.password }))
+        .status,
+    ).toBe(429);
     const password = strongPassword();
-    const reset = await client.post("/api/password-reset/confirm", { token: await resetToken(person), password });
+    const reset = await client.post("/api/password-reset/confirm", {
+      token: await resetToken(person),
+      password,
+    });
     expect(reset.status).toBe(200);
     expect((await client.post("/api/session", { email: person.email, password })).status).toBe(200);
   });
@@ -250,7 +323,9 @@ describe("password-reset requests", () => {
   it("mail an account at most 3 times an hour, answering every request alike", async () => {
     const person = await createAccountThroughInvitation(lead, { label: "reset-cap" });
     for (let request = 1; request <= 5; request++) {
-      const reply = await new ApiClient().post<{ message: string }>("/api/password-reset", { email: person.email });
+      const reply = await new ApiClient().post<{ message: string }>("/api/password-reset", {
+        email: person.email,
+      });
       expect(reply.status).toBe(202);
       expect(reply.body.message).toBe("If the address has an account, a reset link is on its way.");
     }
@@ -263,14 +338,21 @@ describe("password-reset requests", () => {
   it("answer 429 to one address after 10 an hour, whatever addresses it asks for", async () => {
     const client = new ApiClient(testAddress());
     for (let request = 1; request <= 10; request++) {
-      expect((await client.post("/api/password-reset", { email: uniqueEmail("reset-spray") })).status).toBe(202);
+      expect(
+        (await client.post("/api/password-reset", { email: uniqueEmail("reset-spray") })).status,
+      ).toBe(202);
     }
-    const refused = await client.post<ErrorBody>("/api/password-reset", { email: uniqueEmail("reset-spray") });
+    const refused = await client.post<ErrorBody>("/api/password-reset", {
+      email: uniqueEmail("reset-spray"),
+    });
     expect(refused.status).toBe(429);
     expect(refused.body.error.code).toBe("rate_limited");
     expect(Number(refused.headers.get("retry-after"))).toBe(3600);
     // Another address is not affected.
-    expect((await new ApiClient().post("/api/password-reset", { email: uniqueEmail("reset-spray") })).status).toBe(202);
+    expect(
+      (await new ApiClient().post("/api/password-reset", { email: uniqueEmail("reset-spray") }))
+        .status,
+    ).toBe(202);
   });
 });
 
@@ -288,6 +370,8 @@ describe("sign-in's next", () => {
 
   it("keeps a same-origin next", async () => {
     const html = await (await fetch(`${APP_URL}/sign-in?next=/notebooks%3Fstatus%3Ddraft`)).text();
-    expect(/<input[^>]*name="next"[^>]*>/.exec(html)?.[0]).toContain('value="/notebooks?status=draft"');
+    expect(/<input[^>]*name="next"[^>]*>/.exec(html)?.[0]).toContain(
+      'value="/notebooks?status=draft"',
+    );
   });
 });

@@ -42,7 +42,7 @@ describe("password reset", () => {
       password: newPassword,
     });
     expect(confirmed.status).toBe(200);
-    expect(confirmed.body.message).toBe("Your password is changed. Your other sessions were signed out. You had no access tokens.");
+    expect(confirmed.body.message).toBe("Your password is changed. Every session was signed out. You had no access tokens.");
 
     const old = await new ApiClient().post<ErrorBody>("/api/session", { email: person.email, password: person.password });
     expect(old.status).toBe(401);

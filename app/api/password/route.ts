@@ -10,6 +10,12 @@ export const POST = apiRoute(async (request) => {
   const actor = await requireActor();
   const keepSessionId = (await usesBearerToken()) ? undefined : await currentSessionId();
   const input = await parseJson(request, passwordChangeSchema);
-  const revoked = await changePassword(actor, input, { keepSessionId, address: clientAddress(request.headers) });
-  return Response.json({ message: `Your password is changed. ${describeRevoked(revoked)}`, revoked });
+  const revoked = await changePassword(actor, input, {
+    keepSessionId,
+    address: clientAddress(request.headers),
+  });
+  return Response.json({
+    message: `Your password is changed. ${describeRevoked(revoked, "change")}`,
+    revoked,
+  });
 });

@@ -32,7 +32,12 @@ describe("maskMailSecrets", () => {
 
   it("hides the token of an invitation mail", () => {
     const token = secret();
-    const { text } = invitationMail({ teamName: "Flame Screening", role: "chemist", inviterName: "Ilse", token });
+    const { text } = invitationMail({
+      teamName: "Flame Screening",
+      role: "chemist",
+      inviterName: "Ilse",
+      token,
+    });
     const masked = maskMailSecrets(text);
     expect(masked).not.toContain(token);
     expect(masked).toContain(`/invitations/${MASKED_SECRET}`);
@@ -49,7 +54,14 @@ describe("maskMailSecrets", () => {
 
   it("leaves a review link with a run id readable (a UUID is not a secret)", () => {
     const runId = "3f2b8c1e-9a7d-4e5f-8b6a-1c2d3e4f5a6b";
-    const { text } = runSubmittedMail({ teamName: "T", authorName: "A", runLabel: "Run", round: 1, named: true, runId });
+    const { text } = runSubmittedMail({
+      teamName: "T",
+      authorName: "A",
+      runLabel: "Run",
+      round: 1,
+      named: true,
+      runId,
+    });
     expect(maskMailSecrets(text)).toBe(text);
   });
 });

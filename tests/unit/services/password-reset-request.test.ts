@@ -43,7 +43,9 @@ beforeEach(() => {
 describe("requestPasswordReset", () => {
   it("answers without waiting for the account lookup or the mail", async () => {
     // The background transaction never settles; the request must resolve all the same.
-    await expect(requestPasswordReset({ email: "Someone@Example.org ", address: "192.0.2.1" })).resolves.toBeUndefined();
+    await expect(
+      requestPasswordReset({ email: "Someone@Example.org ", address: "192.0.2.1" }),
+    ).resolves.toBeUndefined();
     // What the reply waited for: the address count and the record of the request; the lookup was only started.
     expect(calls).toEqual(["count", "create:reset_request", "transaction"]);
   });

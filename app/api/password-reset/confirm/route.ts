@@ -8,5 +8,8 @@ import { passwordResetSchema } from "@/lib/validation/account-schemas";
 export const POST = apiRoute(async (request) => {
   const input = await parseJson(request, passwordResetSchema);
   const revoked = await resetPassword({ ...input, address: clientAddress(request.headers) });
-  return Response.json({ message: `Your password is changed. ${describeRevoked(revoked)}`, revoked });
+  return Response.json({
+    message: `Your password is changed. ${describeRevoked(revoked, "reset")}`,
+    revoked,
+  });
 });

@@ -9,5 +9,7 @@ export const POST = apiRoute(async (request, { params }) => {
   const actor = await requireActor();
   const runId = idParam((await params).id, "No such run.");
   const input = await parseJson(request, reviewDecisionSchema);
-  return Response.json(await reviewRun(actor, runId, input, { address: clientAddress(request.headers) }));
+  return Response.json(
+    await reviewRun(actor, runId, input, { address: clientAddress(request.headers) }),
+  );
 });
