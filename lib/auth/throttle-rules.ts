@@ -71,3 +71,21 @@ export function describeWait(seconds: number): string {
   const minutes = Math.ceil(seconds / 60);
   return `${minutes} minute${minutes === 1 ? "" : "s"}`;
 }
+
+/**
+ * The key an address is throttled under: an IPv4 address as it is, an IPv6 address by its /64
+ * network (one subscriber usually holds a whole /64, and could otherwise rotate through it).
+ */
+export function throttleAddressKey(address: string): string {
+  if (!address.includes(":") || address.includes(".")) return address;
+  const [head, tail] = address.toLowerCase().split("::");
+  const headParts = head ? head.split(":") : [];
+  const tailParts = tail === undefined ? [] : tail ? tail.split(":") : [];
+  const missing = 8 - headParts.length - tailParts.length;
+  if (missing < 0 || (tail === undefined && missing !== 0)) return address;
+  const groups = [...headParts, ...Array<string>(missing).fill("0"), ...tailParts];
+  return `${groups
+    .slice(0, 4)
+    .map((group) => group.replace(/^0+(?=.)/, ""))
+    .join(":")}::/64`;
+}

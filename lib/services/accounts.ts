@@ -11,6 +11,7 @@ import {
   THROTTLE,
   describeWait,
   passwordCheckWaitSeconds,
+  throttleAddressKey,
   type PasswordCheckHistory,
 } from "@/lib/auth/throttle-rules";
 import { sendMail } from "@/lib/mail/send-mail";
@@ -99,7 +100,7 @@ export async function checkPasswordThrottled(input: {
   passwordHash: string | null;
 }): Promise<boolean> {
   const email = normaliseEmail(input.email);
-  const { address } = input;
+  const address = throttleAddressKey(input.address);
   const pairKey = `pair\n${email}\n${address}`;
   const addressKey = `address\n${address}`;
   if (!takeSlot(pairKey, THROTTLE.concurrentChecksPerPair)) throw throttled(1, "password checks at once");
@@ -257,17 +258,18 @@ function inBackground(task: () => Promise<void>): void {
  */
 export async function requestPasswordReset(input: { email: string; address: string }): Promise<void> {
   const email = normaliseEmail(input.email);
+  const address = throttleAddressKey(input.address);
   const since = new Date(Date.now() - 3_600_000);
   const fromAddress = await SignInAttempt.count({
-    where: { address: input.address, kind: "reset_request", createdAt: { [Op.gte]: since } },
+    where: { address, kind: "reset_request", createdAt: { [Op.gte]: since } },
   });
   if (fromAddress >= THROTTLE.resetRequestsPerAddressPerHour) {
     throw new AppError("rate_limited", "Too many reset requests from here. Try again in an hour.", {
       retryAfterSeconds: 3600,
     });
   }
-  await SignInAttempt.create({ email, address: input.address, kind: "reset_request", succeeded: false });
-  inBackground(() => sendResetLink(email, input.address));
+  await SignInAttempt.create({ email, address, kind: "reset_request", succeeded: false });
+  inBackground(() => sendResetLink(email, address));
 }
 
 /** Makes and mails a reset link, unless the account is unknown or had its few mails this hour. */
@@ -329,7 +331,7 @@ export async function resetPassword(input: { token: string; password: string; ad
     await user.update({ passwordHash }, { transaction });
     const revoked = await revokeCredentialsOf(user.id, transaction);
     await SignInAttempt.create(
-      { email: normaliseEmail(user.email), address: input.address, kind: "unlock", succeeded: true },
+      { email: normaliseEmail(user.email), address: throttleAddressKey(input.address), kind: "unlock", succeeded: true },
       { transaction },
     );
     await recordAudit(

@@ -5,6 +5,7 @@ import {
   describeWait,
   pairDelaySeconds,
   passwordCheckWaitSeconds,
+  throttleAddressKey,
 } from "@/lib/auth/throttle-rules";
 
 const now = new Date("2026-03-01T12:00:00Z");
@@ -81,5 +82,24 @@ describe("describeWait", () => {
     [900, "15 minutes"],
   ])("%i → %s", (seconds, words) => {
     expect(describeWait(seconds)).toBe(words);
+  });
+});
+
+describe("throttleAddressKey", () => {
+  it.each([
+    ["198.51.100.7", "198.51.100.7"],
+    ["2001:db8:1:2:aaaa:bbbb:cccc:dddd", "2001:db8:1:2::/64"],
+    ["2001:db8:1:2::1", "2001:db8:1:2::/64"],
+    ["2001:0DB8:0001:0002::ff", "2001:db8:1:2::/64"],
+    ["2001:db8::1", "2001:db8:0:0::/64"],
+    ["::1", "0:0:0:0::/64"],
+    ["unknown", "unknown"],
+  ])("%s → %s", (address, key) => {
+    expect(throttleAddressKey(address)).toBe(key);
+  });
+
+  it("puts every address of one /64 under one key and the next /64 under another", () => {
+    expect(throttleAddressKey("2001:db8:5:6:1::")).toBe(throttleAddressKey("2001:db8:5:6:ffff:1:2:3"));
+    expect(throttleAddressKey("2001:db8:5:7::1")).not.toBe(throttleAddressKey("2001:db8:5:6::1"));
   });
 });
