@@ -99,7 +99,9 @@ describe("throttleAddressKey", () => {
   });
 
   it("puts every address of one /64 under one key and the next /64 under another", () => {
-    expect(throttleAddressKey("2001:db8:5:6:1::")).toBe(throttleAddressKey("2001:db8:5:6:ffff:1:2:3"));
+    expect(throttleAddressKey("2001:db8:5:6:1::")).toBe(
+      throttleAddressKey("2001:db8:5:6:ffff:1:2:3"),
+    );
     expect(throttleAddressKey("2001:db8:5:7::1")).not.toBe(throttleAddressKey("2001:db8:5:6::1"));
   });
 });
