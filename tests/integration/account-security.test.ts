@@ -228,6 +228,7 @@ describe("removing a member", () => {
   });
 });
 
+// 21 argon2 checks (64 MiB each) take a minute or more on a busy two-core machine.
 describe("client addresses and the password throttle", () => {
   it("ignores X-Forwarded-For from an untrusted client: rotating it does not get past the address cap", async () => {
     const peer = untrustedPeer();
@@ -249,7 +250,7 @@ describe("client addresses and the password throttle", () => {
       password: "x",
     });
     expect(viaProxy.status).toBe(401);
-  });
+  }, 240_000);
 
   it("ignores rotating X-Forwarded-For for one account too: the pair's delay holds", async () => {
     const victim = await createAccountThroughInvitation(lead, { label: "rotate-pair" });

@@ -112,7 +112,7 @@ describe("POST /api/session", () => {
     expect(blocked.body.error.message).toMatch(/^Too many failed password attempts from here\. Try again in \d+ seconds?/);
     expect(Number(blocked.headers.get("retry-after"))).toBeGreaterThan(4);
     expect(blocked.setCookies).toEqual([]);
-  });
+  }, 120_000);
 
   it("throttles an address after 20 failures, whatever account it tries next", async () => {
     const client = new ApiClient(testAddress());
@@ -129,7 +129,7 @@ describe("POST /api/session", () => {
     // The same account from another address is not affected.
     const elsewhere = await new ApiClient().post("/api/session", { email: DEMO.chemist.email, password: DEMO_PASSWORD });
     expect(elsewhere.status).toBe(200);
-  });
+  }, 240_000);
 });
 
 describe("the session cookie", () => {
