@@ -1,6 +1,7 @@
 // The app's settings, read once from the environment with development defaults that are safe
 // on loopback. Production refuses to start without a real session secret.
 import crypto from "node:crypto";
+import { mailViewerEnabled } from "./mail/mail-viewer";
 
 const production = process.env.NODE_ENV === "production" && process.env.EMBERLINE_ALLOW_DEV_SECRET !== "1";
 
@@ -44,8 +45,10 @@ function readEnv() {
     },
     /** Folder where the local fake SMTP server keeps messages; unset in production. */
     mailDir: process.env.EMBERLINE_MAIL_DIR,
-    /** Whether everyone (not only lab leads) may read the fake mailbox: development only. */
-    openMailbox: process.env.EMBERLINE_DEV_MAILBOX === "1" || process.env.NODE_ENV !== "production",
+    /** Whether the outgoing-mail viewer exists at all (lib/mail/mail-viewer.ts): off in production unless enabled. */
+    mailViewer: mailViewerEnabled(process.env),
+    /** Whether everyone (not only lab leads) may use the viewer: development only. */
+    openMailbox: process.env.NODE_ENV !== "production",
   };
 }
 

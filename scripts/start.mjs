@@ -14,7 +14,12 @@ async function main() {
     mailPort: Number(process.env.EMBERLINE_SMTP_PORT ?? 2525),
     mailDir: "mail",
   });
-  const appEnv = { ...env, APP_URL: process.env.APP_URL ?? `http://${host}:${port}` };
+  const appEnv = {
+    ...env,
+    APP_URL: process.env.APP_URL ?? `http://${host}:${port}`,
+    // The demo keeps the outgoing-mail viewer (secret links masked); a production install has it off.
+    EMBERLINE_MAIL_VIEWER: process.env.EMBERLINE_MAIL_VIEWER ?? "1",
+  };
   const next = path.join(root, "node_modules", ".bin", "next");
 
   if (!dev) {

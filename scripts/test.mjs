@@ -61,7 +61,10 @@ async function main() {
     ensurePdfTools();
     step("Building the app for the tests (next build)", bin("next"), ["build"], { ...testEnv, NODE_ENV: "production" });
     startChild(bin("next"), ["start", "-H", "127.0.0.1", "-p", String(testPort)], {
-      env: { ...testEnv, NODE_ENV: "production" },
+      // The tests' HTTP client plays a trusted proxy on 127.0.0.1 (each test file sends its own
+      // X-Forwarded-For); clients on other loopback addresses (127.0.0.2…) are untrusted. The tests
+      // read outgoing mail through the API too, so the production build's mail viewer is switched on.
+      env: { ...testEnv, NODE_ENV: "production", TRUSTED_PROXIES: "127.0.0.1", EMBERLINE_MAIL_VIEWER: "1" },
       stdio: ["ignore", "ignore", "inherit"],
     });
     await waitForPort(testPort, 120_000);

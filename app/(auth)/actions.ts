@@ -4,6 +4,8 @@ import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { z } from "zod";
 import { startSession } from "@/lib/auth/session";
+import { clientAddress } from "@/lib/http/client-address";
+import { safeNextPath } from "@/lib/http/safe-next-path";
 import { loadActor, requestPasswordReset, resetPassword, signIn } from "@/lib/services/accounts";
 import { acceptInvitation } from "@/lib/services/teams";
 import {
@@ -15,13 +17,7 @@ import {
 import { formError, parseForm, type FormState } from "@/lib/validation/form-state";
 
 async function address(): Promise<string> {
-  const h = await headers();
-  return h.get("x-forwarded-for")?.split(",")[0]?.trim() || h.get("x-real-ip") || "local";
-}
-
-function safeNext(value: FormDataEntryValue | null): string {
-  const next = typeof value === "string" ? value : "/";
-  return next.startsWith("/") && !next.startsWith("//") ? next : "/";
+  return clientAddress(await headers());
 }
 
 export async function signInAction(_state: FormState, formData: FormData): Promise<FormState> {
@@ -32,13 +28,17 @@ export async function signInAction(_state: FormState, formData: FormData): Promi
   } catch (error) {
     return { ...formError(error), values: { email: data.email } };
   }
-  redirect(safeNext(formData.get("next")));
+  redirect(safeNextPath(formData.get("next")));
 }
 
 export async function requestResetAction(_state: FormState, formData: FormData): Promise<FormState> {
   const { data, state } = parseForm(passwordResetRequestSchema, formData);
   if (state) return state;
-  await requestPasswordReset(data);
+  try {
+    await requestPasswordReset({ ...data, address: await address() });
+  } catch (error) {
+    return formError(error);
+  }
   return { ok: true, message: "If that address has an account, a reset link is on its way. It works for one hour." };
 }
 
@@ -46,7 +46,7 @@ export async function resetPasswordAction(_state: FormState, formData: FormData)
   const { data, state } = parseForm(passwordResetSchema, formData);
   if (state) return state;
   try {
-    await resetPassword(data);
+    await resetPassword({ ...data, address: await address() });
   } catch (error) {
     return formError(error);
   }
@@ -57,7 +57,7 @@ export async function acceptInvitationAction(_state: FormState, formData: FormDa
   const { data, state } = parseForm(acceptInvitationSchema.extend({ name: z.string().trim().max(120).optional() }), formData);
   if (state) return state;
   try {
-    await startSession((await loadActor(await acceptInvitation(data)))!);
+    await startSession((await loadActor(await acceptInvitation({ ...data, address: await address() })))!);
   } catch (error) {
     return formError(error);
   }

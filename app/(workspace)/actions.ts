@@ -1,11 +1,13 @@
 "use server";
 // Server actions of the signed-in shell and the account and team pages.
 import { revalidatePath } from "next/cache";
+import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { z } from "zod";
 import { currentActor, currentSessionId, endSession, getSession } from "@/lib/auth/session";
 import { unauthenticated } from "@/lib/errors";
-import { changePassword } from "@/lib/services/accounts";
+import { clientAddress } from "@/lib/http/client-address";
+import { changePassword, describeRevoked } from "@/lib/services/accounts";
 import { createAccessToken, revokeAccessToken } from "@/lib/services/access-tokens";
 import { recordAudit } from "@/lib/services/audit";
 import { inviteMember } from "@/lib/services/teams";
@@ -39,11 +41,15 @@ export async function changePasswordAction(_state: FormState, formData: FormData
   const { data, state } = parseForm(passwordChangeSchema, formData);
   if (state) return state;
   try {
-    await changePassword(await actorOrThrow(), data, { keepSessionId: await currentSessionId() });
+    const revoked = await changePassword(await actorOrThrow(), data, {
+      keepSessionId: await currentSessionId(),
+      address: clientAddress(await headers()),
+    });
+    revalidatePath("/account");
+    return { ok: true, message: `Your password is changed. ${describeRevoked(revoked, "change")}` };
   } catch (error) {
     return formError(error);
   }
-  return { ok: true, message: "Your password is changed." };
 }
 
 export async function createTokenAction(

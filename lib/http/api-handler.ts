@@ -57,8 +57,3 @@ export async function parseJson<T extends z.ZodType>(request: Request, schema: T
   }
   return parsed.data;
 }
-
-export function clientAddress(request: Request): string {
-  const forwarded = request.headers.get("x-forwarded-for");
-  return forwarded?.split(",")[0]?.trim() || request.headers.get("x-real-ip") || "local";
-}

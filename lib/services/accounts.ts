@@ -1,51 +1,137 @@
-// Sign-in with throttling, loading the signed-in person, password change and password reset.
+// Sign-in and every other password check under one throttle, loading the signed-in person,
+// password change and password reset (both end every session and access token of the person).
 import "server-only";
-import { Op } from "sequelize";
+import { Op, type Transaction } from "sequelize";
 import { AppError } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
 import { dummyPasswordHash, hashPassword, passwordProblems, verifyPassword } from "@/lib/auth/password";
 import { hashToken, newSecretToken } from "@/lib/auth/secret-token";
+import {
+  THROTTLE,
+  describeWait,
+  passwordCheckWaitSeconds,
+  throttleAddressKey,
+  type PasswordCheckHistory,
+} from "@/lib/auth/throttle-rules";
 import { sendMail } from "@/lib/mail/send-mail";
 import { passwordResetMail } from "@/lib/mail/templates";
 import { AccessToken, Membership, PasswordResetToken, SignInAttempt, Team, User, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import { revokeSessionsOf } from "./sessions";
 
-export const THROTTLE_WINDOW_MINUTES = 15;
-export const MAX_FAILURES_PER_ACCOUNT = 5;
-export const MAX_FAILURES_PER_ADDRESS = 20;
 const RESET_TOKEN_HOURS = 1;
 
 export function normaliseEmail(email: string): string {
   return email.trim().toLowerCase();
 }
 
-async function assertNotThrottled(email: string, address: string): Promise<void> {
-  const since = new Date(Date.now() - THROTTLE_WINDOW_MINUTES * 60_000);
-  const [byAccount, byAddress] = await Promise.all([
-    SignInAttempt.count({ where: { email, succeeded: false, createdAt: { [Op.gte]: since } } }),
-    SignInAttempt.count({ where: { address, succeeded: false, createdAt: { [Op.gte]: since } } }),
+// ---------------------------------------------------------------------------------------------
+// The one password throttle (rules in lib/auth/throttle-rules.ts), used by every password check:
+// sign-in, password change, signing a run, joining a team with an existing account.
+
+function throttled(seconds: number, what = "failed password attempts"): AppError {
+  return new AppError(
+    "rate_limited",
+    `Too many ${what} from here. Try again in ${describeWait(seconds)}, or reset your password by e-mail.`,
+    { retryAfterSeconds: seconds },
+  );
+}
+
+async function passwordCheckHistory(email: string, address: string, now: Date): Promise<PasswordCheckHistory> {
+  const pairSince = new Date(now.getTime() - THROTTLE.pairMemoryHours * 3_600_000);
+  const knownSince = new Date(now.getTime() - THROTTLE.knownAddressDays * 86_400_000);
+  const addressSince = new Date(now.getTime() - THROTTLE.addressWindowMinutes * 60_000);
+  const pairSuccess = { email, address, kind: "password", succeeded: true };
+  const [lastPairSuccessAt, lastUnlockAt, lastUnlockHereAt, addressFailures] = await Promise.all([
+    SignInAttempt.max<Date | null, SignInAttempt>("createdAt", { where: { ...pairSuccess, createdAt: { [Op.gte]: knownSince } } }),
+    SignInAttempt.max<Date | null, SignInAttempt>("createdAt", { where: { email, kind: "unlock", createdAt: { [Op.gte]: pairSince } } }),
+    SignInAttempt.max<Date | null, SignInAttempt>("createdAt", { where: { email, address, kind: "unlock", createdAt: { [Op.gte]: knownSince } } }),
+    SignInAttempt.findAll({
+      where: { address, kind: "password", succeeded: false, createdAt: { [Op.gte]: addressSince } },
+      attributes: ["createdAt"],
+      order: [["createdAt", "DESC"]],
+      limit: THROTTLE.maxFailuresPerAddress,
+    }),
   ]);
-  if (byAccount >= MAX_FAILURES_PER_ACCOUNT || byAddress >= MAX_FAILURES_PER_ADDRESS) {
-    throw new AppError(
-      "rate_limited",
-      `Too many failed sign-ins. Wait ${THROTTLE_WINDOW_MINUTES} minutes and try again, or reset your password.`,
-      { retryAfterSeconds: THROTTLE_WINDOW_MINUTES * 60 },
-    );
+  // A pair's failures count from the later of its last success, the account's last unlock and the memory limit.
+  const clearedAt = [lastPairSuccessAt, lastUnlockAt, pairSince]
+    .filter((d): d is Date => d instanceof Date)
+    .reduce((a, b) => (a > b ? a : b));
+  const where = { email, address, kind: "password", succeeded: false, createdAt: { [Op.gt]: clearedAt } };
+  const [pairFailures, lastPairFailureAt] = await Promise.all([
+    SignInAttempt.count({ where }),
+    SignInAttempt.max<Date | null, SignInAttempt>("createdAt", { where }),
+  ]);
+  return {
+    pairFailures,
+    lastPairFailureAt: lastPairFailureAt ?? null,
+    addressFailureTimes: addressFailures.map((row) => row.createdAt),
+    knownAddress: Boolean(lastPairSuccessAt || lastUnlockHereAt),
+  };
+}
+
+// Checks in flight in this process: a burst of parallel guesses for one pair (or from one address)
+// would all pass the count before any failure is written, and each costs 64 MiB of argon2.
+const checksInFlight = new Map<string, number>();
+
+function takeSlot(key: string, limit: number): boolean {
+  const running = checksInFlight.get(key) ?? 0;
+  if (running >= limit) return false;
+  checksInFlight.set(key, running + 1);
+  return true;
+}
+
+function releaseSlot(key: string): void {
+  const running = (checksInFlight.get(key) ?? 1) - 1;
+  if (running > 0) checksInFlight.set(key, running);
+  else checksInFlight.delete(key);
+}
+
+/**
+ * Checks a password against `passwordHash` (null: no such account, checked against a dummy hash so
+ * the time is the same) under the throttle, and records the outcome. Throws 429 with Retry-After
+ * while the (account, address) pair or the address must wait; answers whether the password is right.
+ */
+export async function checkPasswordThrottled(input: {
+  email: string;
+  password: string;
+  address: string;
+  passwordHash: string | null;
+}): Promise<boolean> {
+  const email = normaliseEmail(input.email);
+  const address = throttleAddressKey(input.address);
+  const pairKey = `pair\n${email}\n${address}`;
+  const addressKey = `address\n${address}`;
+  if (!takeSlot(pairKey, THROTTLE.concurrentChecksPerPair)) throw throttled(1, "password checks at once");
+  if (!takeSlot(addressKey, THROTTLE.concurrentChecksPerAddress)) {
+    releaseSlot(pairKey);
+    throw throttled(1, "password checks at once");
   }
+  try {
+    const wait = passwordCheckWaitSeconds(await passwordCheckHistory(email, address, new Date()), new Date());
+    if (wait > 0) throw throttled(wait);
+    let valid = false;
+    if (input.passwordHash) valid = await verifyPassword(input.passwordHash, input.password);
+    // The same work as a real check, so the reply time does not reveal unknown accounts.
+    else await verifyPassword(await dummyPasswordHash(), input.password);
+    await SignInAttempt.create({ email, address, kind: "password", succeeded: valid });
+    return valid;
+  } finally {
+    releaseSlot(addressKey);
+    releaseSlot(pairKey);
+  }
+}
+
+function findUserByEmail(email: string) {
+  return User.findOne({ where: sequelize.where(sequelize.fn("lower", sequelize.col("email")), normaliseEmail(email)) });
 }
 
 /** Checks e-mail and password; the same generic error for a wrong password and an unknown account. */
 export async function signIn(input: { email: string; password: string; address: string }): Promise<Actor> {
   const email = normaliseEmail(input.email);
-  await assertNotThrottled(email, input.address);
-  const user = await User.findOne({ where: sequelize.where(sequelize.fn("lower", sequelize.col("email")), email) });
-  let valid = false;
-  if (user) valid = await verifyPassword(user.passwordHash, input.password);
-  // The same work as a real check, so the reply time does not reveal unknown accounts.
-  else await verifyPassword(await dummyPasswordHash(), input.password);
-  await SignInAttempt.create({ email, address: input.address, succeeded: valid });
+  const user = await findUserByEmail(email);
+  const valid = await checkPasswordThrottled({ ...input, email, passwordHash: user?.passwordHash ?? null });
   if (!user || !valid) throw new AppError("unauthenticated", "The e-mail address or password is not right.");
   await recordAudit({ actorId: user.id, action: "session.create", entity: "user", entityId: user.id });
   return (await loadActor(user.id))!;
@@ -85,55 +171,147 @@ function assertPasswordAcceptable(password: string, email?: string, field = "pas
   }
 }
 
-/** Changes the password and ends the person's other sessions (all but `keepSessionId`). */
+/** What a password change or reset ended, so the person can be told. */
+export interface CredentialsRevoked {
+  /** Sessions ended (other browsers; all of them after a reset). */
+  sessions: number;
+  /** Personal access tokens revoked: scripts using them must get new ones. */
+  accessTokens: number;
+}
+
+/**
+ * A new password means whoever knew the old one is out: every session (but `keepSessionId`) and
+ * every access token of the person ends, in the caller's transaction.
+ */
+async function revokeCredentialsOf(
+  userId: string,
+  transaction: Transaction,
+  keepSessionId?: string,
+): Promise<CredentialsRevoked> {
+  const sessions = await revokeSessionsOf(userId, { except: keepSessionId, transaction });
+  const [accessTokens] = await AccessToken.update(
+    { revokedAt: new Date() },
+    { where: { userId, revokedAt: null }, transaction },
+  );
+  return { sessions, accessTokens };
+}
+
+/** Words for the person about what a new password ended (a reset ends every session, a change the others). */
+export function describeRevoked(revoked: CredentialsRevoked, after: "reset" | "change"): string {
+  const tokens =
+    revoked.accessTokens === 0
+      ? "You had no access tokens."
+      : `Your ${revoked.accessTokens === 1 ? "access token was" : `${revoked.accessTokens} access tokens were`} revoked: ` +
+        "scripts that used them need a new one (Account → Access tokens).";
+  return `${after === "reset" ? "Every session was signed out." : "Your other sessions were signed out."} ${tokens}`;
+}
+
+/** Changes the password and ends the person's other sessions (all but `keepSessionId`) and every access token. */
 export async function changePassword(
   actor: Actor,
   input: { currentPassword: string; newPassword: string },
-  options: { keepSessionId?: string } = {},
-): Promise<void> {
+  options: { keepSessionId?: string; address: string },
+): Promise<CredentialsRevoked> {
   authorize(actor, "self.changePassword", { userId: actor.id });
   const user = await User.findByPk(actor.id);
-  if (!user || !(await verifyPassword(user.passwordHash, input.currentPassword))) {
+  if (!user) throw new AppError("unauthenticated", "Sign in first.");
+  const valid = await checkPasswordThrottled({
+    email: user.email,
+    password: input.currentPassword,
+    address: options.address,
+    passwordHash: user.passwordHash,
+  });
+  if (!valid) {
     throw new AppError("validation", "The current password is not right.", {
       fieldErrors: { currentPassword: ["The current password is not right."] },
     });
   }
   assertPasswordAcceptable(input.newPassword, user.email, "newPassword");
   const passwordHash = await hashPassword(input.newPassword);
-  await sequelize.transaction(async (transaction) => {
+  return sequelize.transaction(async (transaction) => {
     await user.update({ passwordHash }, { transaction });
-    await revokeSessionsOf(user.id, { except: options.keepSessionId, transaction });
-    await recordAudit({ actorId: actor.id, action: "password.change", entity: "user", entityId: actor.id }, transaction);
+    const revoked = await revokeCredentialsOf(user.id, transaction, options.keepSessionId);
+    await recordAudit(
+      { actorId: actor.id, action: "password.change", entity: "user", entityId: actor.id, after: { revoked } },
+      transaction,
+    );
+    return revoked;
   });
 }
 
-/** Always succeeds from the caller's point of view, so it cannot be used to find accounts. */
-export async function requestPasswordReset(input: { email: string }): Promise<void> {
+// Password-reset mail is sent in the background: the reply to a request does the same work
+// whether or not the address has an account (count, record, answer), so its timing tells nothing.
+const resetMailsPending = new Set<Promise<void>>();
+
+function inBackground(task: () => Promise<void>): void {
+  const running = task()
+    .catch((error: unknown) => {
+      process.stderr.write(`[emberline] a password-reset mail failed: ${error instanceof Error ? error.message : error}\n`);
+    })
+    .finally(() => resetMailsPending.delete(running));
+  resetMailsPending.add(running);
+}
+
+/**
+ * Always answers alike, so it cannot be used to find accounts: 429 only when this address asked
+ * too often (whatever the e-mail addresses), otherwise the request is recorded and a mail queued.
+ */
+export async function requestPasswordReset(input: { email: string; address: string }): Promise<void> {
   const email = normaliseEmail(input.email);
-  const user = await User.findOne({ where: sequelize.where(sequelize.fn("lower", sequelize.col("email")), email) });
-  if (!user) return;
+  const address = throttleAddressKey(input.address);
+  const since = new Date(Date.now() - 3_600_000);
+  const fromAddress = await SignInAttempt.count({
+    where: { address, kind: "reset_request", createdAt: { [Op.gte]: since } },
+  });
+  if (fromAddress >= THROTTLE.resetRequestsPerAddressPerHour) {
+    throw new AppError("rate_limited", "Too many reset requests from here. Try again in an hour.", {
+      retryAfterSeconds: 3600,
+    });
+  }
+  await SignInAttempt.create({ email, address, kind: "reset_request", succeeded: false });
+  inBackground(() => sendResetLink(email, address));
+}
+
+/** Makes and mails a reset link, unless the account is unknown or had its few mails this hour. */
+async function sendResetLink(email: string, address: string): Promise<void> {
   const token = newSecretToken();
-  await sequelize.transaction(async (transaction) => {
+  const user = await sequelize.transaction(async (transaction) => {
+    // Locking the person's row makes parallel requests count each other's mails.
+    const found = await User.findOne({
+      where: sequelize.where(sequelize.fn("lower", sequelize.col("email")), email),
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
+    if (!found) return null;
+    const mailed = await SignInAttempt.count({
+      where: { email, kind: "reset_mail", createdAt: { [Op.gte]: new Date(Date.now() - 3_600_000) } },
+      transaction,
+    });
+    // The newest link mailed this hour still works, so the owner is not left without one.
+    if (mailed >= THROTTLE.resetMailsPerAccountPerHour) return null;
     // Only the newest link works: older unused ones are retired.
-    await PasswordResetToken.update(
-      { usedAt: new Date() },
-      { where: { userId: user.id, usedAt: null }, transaction },
-    );
+    await PasswordResetToken.update({ usedAt: new Date() }, { where: { userId: found.id, usedAt: null }, transaction });
     await PasswordResetToken.create(
       {
-        userId: user.id,
+        userId: found.id,
         tokenHash: hashToken(token),
         expiresAt: new Date(Date.now() + RESET_TOKEN_HOURS * 3_600_000),
         usedAt: null,
       },
       { transaction },
     );
-    await recordAudit({ actorId: user.id, action: "password.resetRequest", entity: "user", entityId: user.id }, transaction);
+    await SignInAttempt.create({ email, address, kind: "reset_mail", succeeded: true }, { transaction });
+    await recordAudit({ actorId: found.id, action: "password.resetRequest", entity: "user", entityId: found.id }, transaction);
+    return found;
   });
-  await sendMail({ to: user.email, ...passwordResetMail({ name: user.name, token }) });
+  if (user) await sendMail({ to: user.email, ...passwordResetMail({ name: user.name, token }) });
 }
 
-export async function resetPassword(input: { token: string; password: string }): Promise<void> {
+/**
+ * Sets a new password with a mailed link; ends every session and access token of the person and
+ * unlocks their password throttle (the link proves the mailbox, so the owner gets back in).
+ */
+export async function resetPassword(input: { token: string; password: string; address: string }): Promise<CredentialsRevoked> {
   const row = await PasswordResetToken.findOne({ where: { tokenHash: hashToken(input.token) } });
   if (!row || row.usedAt || row.expiresAt.getTime() < Date.now()) {
     throw new AppError("validation", "This reset link is not valid any more. Ask for a new one.", {
@@ -144,15 +322,23 @@ export async function resetPassword(input: { token: string; password: string }):
   if (!user) throw new AppError("validation", "This reset link is not valid any more.");
   assertPasswordAcceptable(input.password, user.email);
   const passwordHash = await hashPassword(input.password);
-  await sequelize.transaction(async (transaction) => {
+  return sequelize.transaction(async (transaction) => {
     const [updated] = await PasswordResetToken.update(
       { usedAt: new Date() },
       { where: { id: row.id, usedAt: null }, transaction },
     );
     if (updated !== 1) throw new AppError("validation", "This reset link has already been used.");
     await user.update({ passwordHash }, { transaction });
-    await revokeSessionsOf(user.id, { transaction });
-    await recordAudit({ actorId: user.id, action: "password.reset", entity: "user", entityId: user.id }, transaction);
+    const revoked = await revokeCredentialsOf(user.id, transaction);
+    await SignInAttempt.create(
+      { email: normaliseEmail(user.email), address: throttleAddressKey(input.address), kind: "unlock", succeeded: true },
+      { transaction },
+    );
+    await recordAudit(
+      { actorId: user.id, action: "password.reset", entity: "user", entityId: user.id, after: { revoked } },
+      transaction,
+    );
+    return revoked;
   });
 }
 

@@ -5,11 +5,10 @@
 // (so two reviewers cannot both decide) and writes its audit event in the same transaction; mail goes
 // out after the commit and a mail failure never undoes a decision.
 import "server-only";
-import { Op, QueryTypes, UniqueConstraintError, type Transaction } from "sequelize";
+import { QueryTypes, UniqueConstraintError, type Transaction } from "sequelize";
 import { AppError, forbidden } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize, can } from "@/lib/auth/policy";
-import { verifyPassword } from "@/lib/auth/password";
 import { sendMail } from "@/lib/mail/send-mail";
 import { runReturnedMail, runSubmittedMail } from "@/lib/mail/templates";
 import type { Verdict } from "@/lib/spectrum/matching";
@@ -23,13 +22,12 @@ import {
   RunReviewMark,
   RunRound,
   RunSignature,
-  SignInAttempt,
   SpectrumFile,
   User,
   sequelize,
 } from "@/models";
 import type { RunStatus } from "@/models/run";
-import { MAX_FAILURES_PER_ACCOUNT, THROTTLE_WINDOW_MINUTES, normaliseEmail } from "./accounts";
+import { checkPasswordThrottled } from "./accounts";
 import { recordAudit } from "./audit";
 import { buildRunContent, calibrationModelLabel, runContentHash } from "./run-content";
 import { STATUS_LABEL, assertAuthorMayEdit, loadRun, lockReason } from "./run-lifecycle";
@@ -387,22 +385,14 @@ export async function addReviewMark(actor: Actor, runId: string, input: ReviewMa
 // Decisions: return or sign
 
 /**
- * The signer's password, checked with the sign-in hashing. A wrong one counts as a failed sign-in of
- * the account, so the signing form cannot be used to guess a password past the sign-in throttle.
+ * The signer's password, checked under the one password throttle of lib/services/accounts.ts, so
+ * the signing form cannot be used to guess a password past the sign-in throttle.
  */
 async function assertSigningPassword(actor: Actor, password: string, address: string): Promise<void> {
   const user = await User.findByPk(actor.id, { attributes: ["id", "email", "passwordHash"] });
   if (!user) throw new AppError("unauthenticated", "Sign in first.");
-  const email = normaliseEmail(user.email);
-  const since = new Date(Date.now() - THROTTLE_WINDOW_MINUTES * 60_000);
-  const failures = await SignInAttempt.count({ where: { email, succeeded: false, createdAt: { [Op.gte]: since } } });
-  if (failures >= MAX_FAILURES_PER_ACCOUNT) {
-    throw new AppError("rate_limited", `Too many wrong passwords. Wait ${THROTTLE_WINDOW_MINUTES} minutes and try again.`, {
-      retryAfterSeconds: THROTTLE_WINDOW_MINUTES * 60,
-    });
-  }
-  if (!(await verifyPassword(user.passwordHash, password))) {
-    await SignInAttempt.create({ email, address, succeeded: false });
+  const valid = await checkPasswordThrottled({ email: user.email, password, address, passwordHash: user.passwordHash });
+  if (!valid) {
     throw new AppError("unauthenticated", "The password is not right. Nothing was signed.", {
       fieldErrors: { password: ["The password is not right."] },
     });

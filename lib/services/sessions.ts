@@ -28,16 +28,17 @@ export async function revokeSession(sessionId: string): Promise<void> {
   await UserSession.update({ revokedAt: new Date() }, { where: { id: sessionId, revokedAt: null } });
 }
 
-/** Ends every session of a person, except optionally the one making the request. */
+/** Ends every session of a person, except optionally the one making the request; answers how many ended. */
 export async function revokeSessionsOf(
   userId: string,
   options: { except?: string; transaction?: Transaction } = {},
-): Promise<void> {
-  await UserSession.update(
+): Promise<number> {
+  const [ended] = await UserSession.update(
     { revokedAt: new Date() },
     {
       where: { userId, revokedAt: null, ...(options.except ? { id: { [Op.ne]: options.except } } : {}) },
       transaction: options.transaction,
     },
   );
+  return ended;
 }

@@ -5,12 +5,12 @@ import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
 import type { TeamRole } from "@/lib/auth/roles";
-import { hashPassword, verifyPassword } from "@/lib/auth/password";
+import { hashPassword } from "@/lib/auth/password";
 import { hashToken, newSecretToken } from "@/lib/auth/secret-token";
 import { sendMail } from "@/lib/mail/send-mail";
 import { invitationMail } from "@/lib/mail/templates";
 import { Invitation, Membership, Team, User, sequelize } from "@/models";
-import { assertPasswordAcceptable, normaliseEmail } from "./accounts";
+import { assertPasswordAcceptable, checkPasswordThrottled, normaliseEmail } from "./accounts";
 import { recordAudit } from "./audit";
 
 const INVITATION_DAYS = 7;
@@ -132,7 +132,13 @@ export async function describeInvitation(
 }
 
 /** Joins the team: creates the account (new person) or checks the password (existing account). */
-export async function acceptInvitation(input: { token: string; name?: string; password: string }): Promise<string> {
+export async function acceptInvitation(input: {
+  token: string;
+  name?: string;
+  password: string;
+  /** The client's address, for the password throttle when the account exists. */
+  address: string;
+}): Promise<string> {
   const invitation = await findOpenInvitation(input.token);
   if (!invitation) {
     throw new AppError("validation", "This invitation is not valid any more. Ask your lab lead for a new one.");
@@ -141,7 +147,13 @@ export async function acceptInvitation(input: { token: string; name?: string; pa
     where: sequelize.where(sequelize.fn("lower", sequelize.col("email")), invitation.email),
   });
   if (user) {
-    if (!(await verifyPassword(user.passwordHash, input.password))) {
+    const valid = await checkPasswordThrottled({
+      email: user.email,
+      password: input.password,
+      address: input.address,
+      passwordHash: user.passwordHash,
+    });
+    if (!valid) {
       throw new AppError("validation", "The password is not right for this account.", {
         fieldErrors: { password: ["The password is not right for this account."] },
       });

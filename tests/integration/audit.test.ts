@@ -135,6 +135,8 @@ const MUTATIONS: MutationCase[] = [
     perform: async () => {
       const person = await freshPerson("audit-reset-request");
       expect((await new ApiClient().post("/api/password-reset", { email: person.email })).status).toBe(202);
+      // The reset mail (and its audit event) is made in the background after the answer.
+      await waitForMail({ to: person.email, subject: /Reset your Emberline password/ });
       return { actorId: person.userId, events: [{ action: "password.resetRequest", entity: "user", entityId: person.userId }] };
     },
   },
@@ -147,7 +149,7 @@ const MUTATIONS: MutationCase[] = [
       const token = extractLinkToken(mail.text, "/reset-password/");
       const mark = await auditMark();
       const reply = await new ApiClient().post("/api/password-reset/confirm", { token, password: strongPassword() });
-      expect(reply.status).toBe(204);
+      expect(reply.status).toBe(200);
       expect((await auditEventsSince(mark, { actorId: person.userId })).map((e) => e.action)).toEqual(["password.reset"]);
       return { actorId: person.userId, events: [{ action: "password.reset", entity: "user", entityId: person.userId }] };
     },
@@ -158,7 +160,7 @@ const MUTATIONS: MutationCase[] = [
       const person = await freshPerson("audit-change");
       const client = await signedIn(person.email, person.password);
       const reply = await client.post("/api/password", { currentPassword: person.password, newPassword: strongPassword() });
-      expect(reply.status).toBe(204);
+      expect(reply.status).toBe(200);
       return { actorId: person.userId, events: [{ action: "password.change", entity: "user", entityId: person.userId }] };
     },
   },

@@ -353,6 +353,26 @@ describe("refusals", () => {
     expect(right.body.signature?.signerName).toBe(second.name);
   });
 
+  it("wrong signing passwords fall under the one password throttle; the signer is not locked out elsewhere", async () => {
+    const third = await createAccountThroughInvitation(lead, { label: "throttled-signer", role: "supervisor" });
+    const here = await signedIn(third.email, third.password);
+    const run = await newRun();
+    expect((await chemist.post(`/api/runs/${run.id}/submit`, {})).status).toBe(200);
+    for (let attempt = 1; attempt <= 3; attempt++) {
+      const wrong = await here.post(`/api/runs/${run.id}/review`, { decision: "sign", password: `wrong ${attempt}` });
+      expect(wrong.status, `attempt ${attempt}`).toBe(401);
+    }
+    // The pair (this account, this address) must now wait: even the right password is not checked.
+    const waiting = await here.post<ErrorBody>(`/api/runs/${run.id}/review`, { decision: "sign", password: third.password });
+    expect(waiting.status).toBe(429);
+    expect(waiting.body.error.code).toBe("rate_limited");
+    expect((await db().query("SELECT count(*)::int AS n FROM run_signatures WHERE run_id = $1", [run.id])).rows[0].n).toBe(0);
+    // From another address the signer signs at once.
+    const elsewhere = await signedIn(third.email, third.password);
+    const signed = await elsewhere.post<History>(`/api/runs/${run.id}/review`, { decision: "sign", password: third.password });
+    expect(signed.status, JSON.stringify(signed.body)).toBe(200);
+  });
+
   it("a supervisor cannot sign, return or mark their own run, nor name themselves as its reviewer", async () => {
     const own = await newRun(supervisor);
     const self = await supervisor.post<ErrorBody>(`/api/runs/${own.id}/submit`, { reviewerId: supervisorId });

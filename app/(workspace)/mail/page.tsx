@@ -1,4 +1,5 @@
-// The outgoing-mail page: what the local fake SMTP server received (lab leads; everyone in development).
+// The outgoing-mail page: what the local fake SMTP server received, secret links masked (lab leads;
+// everyone in development; off in production unless EMBERLINE_MAIL_VIEWER=1).
 import { notFound } from "next/navigation";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
@@ -15,7 +16,7 @@ export default async function MailPage() {
   const messages = await fetchMailbox(actor);
   return (
     <>
-      <PageHeader title="Outgoing mail" description="Messages Emberline sent through the local test mail server." />
+      <PageHeader title="Outgoing mail" description="Messages Emberline sent through the local test mail server. Reset and invitation links are hidden from everyone but their recipient." />
       {!mailboxConfigured() ? (
         <EmptyState title="Mail goes to a real server">This installation sends mail through its SMTP settings.</EmptyState>
       ) : messages.length === 0 ? (

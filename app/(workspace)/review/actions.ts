@@ -5,6 +5,7 @@ import { revalidatePath } from "next/cache";
 import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { currentActor } from "@/lib/auth/session";
+import { clientAddress } from "@/lib/http/client-address";
 import { unauthenticated } from "@/lib/errors";
 import { addReviewMark, amendRun, reviewRun, submitRun } from "@/lib/services/run-review";
 import { formError, type FormState } from "@/lib/validation/form-state";
@@ -73,7 +74,7 @@ export async function decideRunAction(_state: FormState, formData: FormData): Pr
   const parsed = decisionInputFromForm(formData);
   if (!parsed.success) return invalid(parsed.error, values);
   const runId = runIdOf(formData);
-  const address = (await headers()).get("x-forwarded-for")?.split(",")[0]?.trim() || "local";
+  const address = clientAddress(await headers());
   try {
     await reviewRun(await actorOrThrow(), runId, parsed.data, { address });
   } catch (error) {

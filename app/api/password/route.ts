@@ -1,12 +1,21 @@
-// POST changes the signed-in person's password (the current one is asked again).
+// POST changes the signed-in person's password (the current one is asked again, under the password
+// throttle); answers what it ended: the other sessions and every access token.
 import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { clientAddress } from "@/lib/http/client-address";
 import { currentSessionId, usesBearerToken } from "@/lib/auth/session";
-import { changePassword } from "@/lib/services/accounts";
+import { changePassword, describeRevoked } from "@/lib/services/accounts";
 import { passwordChangeSchema } from "@/lib/validation/account-schemas";
 
 export const POST = apiRoute(async (request) => {
   const actor = await requireActor();
   const keepSessionId = (await usesBearerToken()) ? undefined : await currentSessionId();
-  await changePassword(actor, await parseJson(request, passwordChangeSchema), { keepSessionId });
-  return new Response(null, { status: 204 });
+  const input = await parseJson(request, passwordChangeSchema);
+  const revoked = await changePassword(actor, input, {
+    keepSessionId,
+    address: clientAddress(request.headers),
+  });
+  return Response.json({
+    message: `Your password is changed. ${describeRevoked(revoked, "change")}`,
+    revoked,
+  });
 });

@@ -1,5 +1,6 @@
 // POST signs in with e-mail and password (sets the session cookie); DELETE signs out.
-import { apiRoute, clientAddress, parseJson } from "@/lib/http/api-handler";
+import { clientAddress } from "@/lib/http/client-address";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { endSession, startSession } from "@/lib/auth/session";
 import { signIn } from "@/lib/services/accounts";
 import { recordAudit } from "@/lib/services/audit";
@@ -8,7 +9,7 @@ import { toMe } from "../me/to-me";
 
 export const POST = apiRoute(async (request) => {
   const input = await parseJson(request, signInSchema);
-  const actor = await signIn({ ...input, address: clientAddress(request) });
+  const actor = await signIn({ ...input, address: clientAddress(request.headers) });
   await startSession(actor);
   return Response.json(toMe(actor));
 });

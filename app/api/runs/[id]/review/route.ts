@@ -1,5 +1,6 @@
 // POST decides a submitted run's review round: return it with a comment, or sign it (the password is asked again).
-import { apiRoute, clientAddress, parseJson, requireActor } from "@/lib/http/api-handler";
+import { clientAddress } from "@/lib/http/client-address";
+import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
 import { reviewRun } from "@/lib/services/run-review";
 import { idParam } from "@/lib/validation/line-schemas";
 import { reviewDecisionSchema } from "@/lib/validation/review-schemas";
@@ -8,5 +9,7 @@ export const POST = apiRoute(async (request, { params }) => {
   const actor = await requireActor();
   const runId = idParam((await params).id, "No such run.");
   const input = await parseJson(request, reviewDecisionSchema);
-  return Response.json(await reviewRun(actor, runId, input, { address: clientAddress(request) }));
+  return Response.json(
+    await reviewRun(actor, runId, input, { address: clientAddress(request.headers) }),
+  );
 });
