@@ -1,4 +1,4 @@
-// `npm run restore -- <file.dump> --into <database> [--json]`: restores a backup made by
+// `npm run restore -- <file.dump> --into <database> [--json]` (--json: a report as the last line of stdout): restores a backup made by
 // `npm run backup` into a new, empty database and proves it: the dump's SHA-256 against its manifest
 // before anything is written, then the row count of every table against the manifest, and every raw
 // spectrum file's SHA-256 recomputed from its bytes against the hash stored beside it. The restored

@@ -6,10 +6,13 @@ import { Pool } from "pg";
 
 const pools = new Map<string, Pool>();
 
+export const TEST_APPLICATION_NAME = "emberline-tests";
+
 function pool(connectionString: string): Pool {
   let found = pools.get(connectionString);
   if (!found) {
-    found = new Pool({ connectionString, max: 2 });
+    // Named, so that a test can tell the served app's connections from its own.
+    found = new Pool({ connectionString, max: 2, application_name: TEST_APPLICATION_NAME });
     pools.set(connectionString, found);
   }
   return found;
