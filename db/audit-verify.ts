@@ -2,7 +2,11 @@
 // (or one team's) and reports ok, or the first broken link of each chain; exits 1 when any is broken.
 // Runs as the app's role (it only reads), under the react-server condition for the services it uses.
 import { sequelize } from "../models";
-import { verifyAllAuditChains, verifyTeamAuditChain, type AuditChainReport } from "../lib/services/audit-chain";
+import {
+  verifyAllAuditChains,
+  verifyTeamAuditChain,
+  type AuditChainReport,
+} from "../lib/services/audit-chain";
 
 function describe(report: AuditChainReport): string {
   const team = report.teamId ?? "(no team)";
@@ -22,7 +26,8 @@ async function main(): Promise<number> {
   const args = process.argv.slice(2);
   const teamIndex = args.indexOf("--team");
   const teamId = teamIndex >= 0 ? args[teamIndex + 1] : undefined;
-  if (teamIndex >= 0 && !/^[0-9a-f-]{36}$/i.test(teamId ?? "")) throw new Error("--team takes a team id (uuid).");
+  if (teamIndex >= 0 && !/^[0-9a-f-]{36}$/i.test(teamId ?? ""))
+    throw new Error("--team takes a team id (uuid).");
   const reports = teamId ? [await verifyTeamAuditChain(teamId)] : await verifyAllAuditChains();
   if (args.includes("--json")) process.stdout.write(`${JSON.stringify(reports, null, 2)}\n`);
   else {
@@ -38,7 +43,9 @@ main()
     process.exit(code);
   })
   .catch(async (error) => {
-    process.stderr.write(`[emberline] audit:verify failed: ${error instanceof Error ? error.message : error}\n`);
+    process.stderr.write(
+      `[emberline] audit:verify failed: ${error instanceof Error ? error.message : error}\n`,
+    );
     await sequelize.close();
     process.exit(2);
   });

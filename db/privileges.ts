@@ -70,13 +70,22 @@ export function appRoleOf(appUrl: string, ownerUrl: string): string {
  * Run as the owner of the tables. Refuses an app role that could bypass all this.
  */
 export async function applyAppPrivileges(owner: Sequelize, appRole: string): Promise<void> {
-  const [role] = await owner.query<{ rolsuper: boolean; rolbypassrls: boolean; rolcreaterole: boolean }>(
-    "SELECT rolsuper, rolbypassrls, rolcreaterole FROM pg_roles WHERE rolname = $1",
-    { bind: [appRole], type: QueryTypes.SELECT },
-  );
-  if (!role) throw new Error(`The app's database role ${appRole} does not exist: create it first (see DEVELOPERS.md).`);
+  const [role] = await owner.query<{
+    rolsuper: boolean;
+    rolbypassrls: boolean;
+    rolcreaterole: boolean;
+  }>("SELECT rolsuper, rolbypassrls, rolcreaterole FROM pg_roles WHERE rolname = $1", {
+    bind: [appRole],
+    type: QueryTypes.SELECT,
+  });
+  if (!role)
+    throw new Error(
+      `The app's database role ${appRole} does not exist: create it first (see DEVELOPERS.md).`,
+    );
   if (role.rolsuper || role.rolbypassrls || role.rolcreaterole) {
-    throw new Error(`The app's database role ${appRole} must be NOSUPERUSER NOBYPASSRLS NOCREATEROLE.`);
+    throw new Error(
+      `The app's database role ${appRole} must be NOSUPERUSER NOBYPASSRLS NOCREATEROLE.`,
+    );
   }
   const tables = await owner.query<{ name: string; owned: boolean }>(
     `SELECT c.relname AS name, pg_has_role(c.relowner, 'USAGE') AS owned
@@ -93,9 +102,12 @@ export async function applyAppPrivileges(owner: Sequelize, appRole: string): Pro
   const notOwned = tables.filter((t) => !t.owned).map((t) => t.name);
   if (notOwned.length) throw new Error(`The migration role does not own ${notOwned.join(", ")}.`);
   const app = quoteIdent(appRole);
-  const [{ database }] = await owner.query<{ database: string }>("SELECT current_database() AS database", {
-    type: QueryTypes.SELECT,
-  });
+  const [{ database }] = await owner.query<{ database: string }>(
+    "SELECT current_database() AS database",
+    {
+      type: QueryTypes.SELECT,
+    },
+  );
   const statements = [
     `GRANT CONNECT ON DATABASE "${database.replace(/"/g, '""')}" TO ${app}`,
     `GRANT USAGE ON SCHEMA public TO ${app}`,
@@ -103,7 +115,8 @@ export async function applyAppPrivileges(owner: Sequelize, appRole: string): Pro
   for (const { name } of tables) {
     statements.push(`REVOKE ALL ON TABLE ${quoteIdent(name)} FROM ${app}`);
     const privileges = APP_TABLE_PRIVILEGES[name];
-    if (privileges.length) statements.push(`GRANT ${privileges.join(", ")} ON TABLE ${quoteIdent(name)} TO ${app}`);
+    if (privileges.length)
+      statements.push(`GRANT ${privileges.join(", ")} ON TABLE ${quoteIdent(name)} TO ${app}`);
   }
   // nextval() for the bigserial ids of tables the app inserts into.
   statements.push(`GRANT USAGE, SELECT ON ALL SEQUENCES IN SCHEMA public TO ${app}`);

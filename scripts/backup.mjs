@@ -34,7 +34,8 @@ export function fileSha256(file) {
   try {
     const buffer = Buffer.alloc(1 << 20);
     let read;
-    while ((read = fs.readSync(fd, buffer, 0, buffer.length, null)) > 0) hash.update(buffer.subarray(0, read));
+    while ((read = fs.readSync(fd, buffer, 0, buffer.length, null)) > 0)
+      hash.update(buffer.subarray(0, read));
   } finally {
     fs.closeSync(fd);
   }
@@ -49,7 +50,9 @@ export async function tableCounts(client) {
   );
   const counts = {};
   for (const { name } of tables) {
-    const { rows } = await client.query(`SELECT count(*)::bigint AS n FROM "${name.replace(/"/g, '""')}"`);
+    const { rows } = await client.query(
+      `SELECT count(*)::bigint AS n FROM "${name.replace(/"/g, '""')}"`,
+    );
     counts[name] = Number(rows[0].n);
   }
   return counts;
@@ -66,10 +69,18 @@ async function main() {
   const database = process.env.EMBERLINE_DB_NAME ?? "emberline";
   const { ownerUrl } = databaseUrls({ pgPort, database });
   const dbName = decodeURIComponent(new URL(ownerUrl).pathname.slice(1));
-  const stamp = new Date().toISOString().replace(/[-:]/g, "").replace(/\.\d+Z$/, "Z");
+  const stamp = new Date()
+    .toISOString()
+    .replace(/[-:]/g, "")
+    .replace(/\.\d+Z$/, "Z");
   const out = path.resolve(
     argValue(args, "--out") ??
-      path.join(root, process.env.EMBERLINE_DATA_DIR ?? ".data", "backups", `emberline-${dbName}-${stamp}.dump`),
+      path.join(
+        root,
+        process.env.EMBERLINE_DATA_DIR ?? ".data",
+        "backups",
+        `emberline-${dbName}-${stamp}.dump`,
+      ),
   );
   fs.mkdirSync(path.dirname(out), { recursive: true });
 
@@ -83,11 +94,20 @@ async function main() {
     const { rows: files } = await client.query(
       "SELECT count(*)::bigint AS n, coalesce(sum(byte_size), 0)::bigint AS bytes FROM spectrum_files",
     );
-    const { rows: migrations } = await client.query("SELECT name FROM schema_migrations ORDER BY name");
+    const { rows: migrations } = await client.query(
+      "SELECT name FROM schema_migrations ORDER BY name",
+    );
     const target = libpqTarget(ownerUrl);
     const dump = spawnSync(
       pgTool("pg_dump"),
-      ["--format=custom", "--no-owner", "--no-acl", `--snapshot=${rows[0].snapshot}`, `--file=${out}`, `--dbname=${target.dbname}`],
+      [
+        "--format=custom",
+        "--no-owner",
+        "--no-acl",
+        `--snapshot=${rows[0].snapshot}`,
+        `--file=${out}`,
+        `--dbname=${target.dbname}`,
+      ],
       { env: target.env, stdio: ["ignore", "inherit", "inherit"] },
     );
     if (dump.status !== 0) throw new Error(`pg_dump failed (exit ${dump.status})`);
@@ -104,10 +124,13 @@ async function main() {
       spectrumFiles: { count: Number(files[0].n), bytes: Number(files[0].bytes) },
     };
     fs.writeFileSync(`${out}.manifest.json`, `${JSON.stringify(manifest, null, 2)}\n`);
-    if (args.includes("--json")) process.stdout.write(`${JSON.stringify({ file: out, manifest })}\n`);
+    if (args.includes("--json"))
+      process.stdout.write(`${JSON.stringify({ file: out, manifest })}\n`);
     else {
       const rowsTotal = Object.values(counts).reduce((a, b) => a + b, 0);
-      log(`Backed up ${dbName}: ${Object.keys(counts).length} tables, ${rowsTotal} rows, ${manifest.spectrumFiles.count} raw files.`);
+      log(
+        `Backed up ${dbName}: ${Object.keys(counts).length} tables, ${rowsTotal} rows, ${manifest.spectrumFiles.count} raw files.`,
+      );
       log(`Dump: ${out} (${manifest.dumpBytes} bytes, SHA-256 ${manifest.dumpSha256})`);
       log(`Manifest: ${out}.manifest.json`);
     }
@@ -118,7 +141,9 @@ async function main() {
 
 if (import.meta.url === `file://${process.argv[1]}`) {
   main().catch((error) => {
-    process.stderr.write(`[emberline] Backup failed: ${error instanceof Error ? error.message : error}\n`);
+    process.stderr.write(
+      `[emberline] Backup failed: ${error instanceof Error ? error.message : error}\n`,
+    );
     process.exit(1);
   });
 }

@@ -37,7 +37,12 @@ async function checkRawFiles(client) {
     for (const row of rows) {
       const actual = crypto.createHash("sha256").update(row.raw_bytes).digest("hex");
       if (actual !== row.sha256 || row.raw_bytes.length !== row.byte_size) {
-        bad.push({ id: row.id, stored: row.sha256, recomputed: actual, bytes: row.raw_bytes.length });
+        bad.push({
+          id: row.id,
+          stored: row.sha256,
+          recomputed: actual,
+          bytes: row.raw_bytes.length,
+        });
       }
       checked += 1;
     }
@@ -52,13 +57,17 @@ async function main() {
   const file = args.find((a, i) => !a.startsWith("--") && args[i - 1] !== "--into");
   const into = argValue(args, "--into");
   if (!file || !into) throw new Error("Usage: npm run restore -- <file.dump> --into <database>");
-  if (!/^[a-z_][a-z0-9_]*$/.test(into)) throw new Error(`Choose a plain database name (a-z, 0-9, _): ${into}`);
+  if (!/^[a-z_][a-z0-9_]*$/.test(into))
+    throw new Error(`Choose a plain database name (a-z, 0-9, _): ${into}`);
   const dump = path.resolve(file);
   const manifest = JSON.parse(fs.readFileSync(`${dump}.manifest.json`, "utf8"));
-  if (manifest.format !== BACKUP_FORMAT) throw new Error(`${dump}.manifest.json is not an Emberline backup manifest.`);
+  if (manifest.format !== BACKUP_FORMAT)
+    throw new Error(`${dump}.manifest.json is not an Emberline backup manifest.`);
   const dumpSha256 = fileSha256(dump);
   if (dumpSha256 !== manifest.dumpSha256) {
-    throw new Error(`The dump's SHA-256 is ${dumpSha256}, its manifest says ${manifest.dumpSha256}: the file is damaged.`);
+    throw new Error(
+      `The dump's SHA-256 is ${dumpSha256}, its manifest says ${manifest.dumpSha256}: the file is damaged.`,
+    );
   }
 
   const pgPort = Number(process.env.EMBERLINE_PG_PORT ?? 54329);
@@ -77,13 +86,26 @@ async function main() {
       `SELECT count(*)::int AS n FROM pg_class c JOIN pg_namespace n ON n.oid = c.relnamespace
         WHERE n.nspname = 'public' AND c.relkind IN ('r', 'p')`,
     );
-    if (rows[0].n > 0) throw new Error(`Database ${into} already holds ${rows[0].n} tables: restore into a new one.`);
+    if (rows[0].n > 0)
+      throw new Error(
+        `Database ${into} already holds ${rows[0].n} tables: restore into a new one.`,
+      );
 
-    if (!json) log(`Restoring ${path.basename(dump)} (${manifest.database}, ${manifest.createdAt}) into ${into}…`);
+    if (!json)
+      log(
+        `Restoring ${path.basename(dump)} (${manifest.database}, ${manifest.createdAt}) into ${into}…`,
+      );
     const target = libpqTarget(ownerUrl);
     const restored = spawnSync(
       pgTool("pg_restore"),
-      ["--no-owner", "--no-acl", "--exit-on-error", "--single-transaction", `--dbname=${target.dbname}`, dump],
+      [
+        "--no-owner",
+        "--no-acl",
+        "--exit-on-error",
+        "--single-transaction",
+        `--dbname=${target.dbname}`,
+        dump,
+      ],
       { env: target.env, stdio: ["ignore", json ? "ignore" : "inherit", "inherit"] },
     );
     if (restored.status !== 0) throw new Error(`pg_restore failed (exit ${restored.status})`);
@@ -108,14 +130,23 @@ async function main() {
     const auditReports = audit.status === 0 || audit.status === 1 ? JSON.parse(audit.stdout) : null;
     const auditOk = audit.status === 0;
 
-    const ok = countMismatches.length === 0 && rawFiles.bad.length === 0 && rawCountOk && migrated && auditOk;
+    const ok =
+      countMismatches.length === 0 &&
+      rawFiles.bad.length === 0 &&
+      rawCountOk &&
+      migrated &&
+      auditOk;
     const report = {
       ok,
       database: into,
       dumpSha256,
       tables: counts,
       countMismatches,
-      rawFiles: { checked: rawFiles.checked, expected: manifest.spectrumFiles.count, mismatches: rawFiles.bad },
+      rawFiles: {
+        checked: rawFiles.checked,
+        expected: manifest.spectrumFiles.count,
+        mismatches: rawFiles.bad,
+      },
       migrated,
       audit: auditReports,
     };
@@ -132,8 +163,19 @@ async function main() {
           ? `Raw files: ${rawFiles.bad.length} of ${rawFiles.checked} differ from their stored SHA-256 (expected ${manifest.spectrumFiles.count} files).`
           : `Raw files: all ${rawFiles.checked} match their stored SHA-256.`,
       );
-      log(auditOk ? "Audit chains: ok." : "Audit chains: broken or not checked (see above).");
-      log(ok ? `Restored and verified: ${into}.` : `Restored into ${into}, but verification FAILED.`);
+      if (auditOk) log(`Audit chains: all ${auditReports.length} verify.`);
+      else if (!auditReports)
+        log("Audit chains: not checked (db/audit-verify.ts failed, see above).");
+      else {
+        for (const r of auditReports.filter((chain) => !chain.ok)) {
+          log(
+            `Audit chain of team ${r.teamId ?? "(no team)"} BROKEN at sequence ${r.break.sequence}, event ${r.break.eventId}: ${r.break.detail}`,
+          );
+        }
+      }
+      log(
+        ok ? `Restored and verified: ${into}.` : `Restored into ${into}, but verification FAILED.`,
+      );
     }
     process.exitCode = ok ? 0 : 1;
   } finally {
@@ -142,6 +184,8 @@ async function main() {
 }
 
 main().catch((error) => {
-  process.stderr.write(`[emberline] Restore failed: ${error instanceof Error ? error.message : error}\n`);
+  process.stderr.write(
+    `[emberline] Restore failed: ${error instanceof Error ? error.message : error}\n`,
+  );
   process.exit(1);
 });

@@ -74,7 +74,10 @@ export interface ChainBreak {
  * it names the previous hash, and its own hash is the hash of its content. Returns the first thing
  * that differs, or null.
  */
-export function checkChainLink(previous: ChainHead | null, event: ChainedAuditEvent): ChainBreak | null {
+export function checkChainLink(
+  previous: ChainHead | null,
+  event: ChainedAuditEvent,
+): ChainBreak | null {
   const expectedSequence = (previous?.sequence ?? 0) + 1;
   const at = { sequence: expectedSequence, eventId: event.id };
   if (event.sequence !== expectedSequence) {

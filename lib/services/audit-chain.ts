@@ -7,7 +7,12 @@ import { QueryTypes, Transaction } from "sequelize";
 import { sequelize } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
-import { checkChainLink, type ChainBreak, type ChainHead, type ChainedAuditEvent } from "@/lib/audit/audit-chain";
+import {
+  checkChainLink,
+  type ChainBreak,
+  type ChainHead,
+  type ChainedAuditEvent,
+} from "@/lib/audit/audit-chain";
 import { recomputeRunContentHash } from "./run-review";
 
 /** What the verification found for one team's chain (teamId null: events that belong to no team). */
@@ -66,7 +71,13 @@ async function checkSignature(row: ChainRow, sequence: number): Promise<AuditCha
   if (row.action !== "run.sign" || row.entity !== "run" || !row.entity_id) return null;
   const at = { sequence, eventId: row.id };
   if (!row.subject_hash) {
-    return { ...at, problem: "signature", detail: `sign-off ${row.id} binds no content hash`, expected: "a SHA-256", found: "none" };
+    return {
+      ...at,
+      problem: "signature",
+      detail: `sign-off ${row.id} binds no content hash`,
+      expected: "a SHA-256",
+      found: "none",
+    };
   }
   if (row.signed_hash !== row.subject_hash) {
     return {
@@ -92,7 +103,10 @@ async function checkSignature(row: ChainRow, sequence: number): Promise<AuditCha
   return null;
 }
 
-async function verifyChainIn(teamId: string | null, transaction: Transaction): Promise<AuditChainReport> {
+async function verifyChainIn(
+  teamId: string | null,
+  transaction: Transaction,
+): Promise<AuditChainReport> {
   let head: ChainHead | null = null;
   let checked = 0;
   for (;;) {
@@ -124,7 +138,10 @@ async function verifyChainIn(teamId: string | null, transaction: Transaction): P
 }
 
 function snapshot<T>(work: (transaction: Transaction) => Promise<T>): Promise<T> {
-  return sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ }, work);
+  return sequelize.transaction(
+    { isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ },
+    work,
+  );
 }
 
 /** Every chain in the database (each team's, and the no-team one): for `npm run audit:verify`. */

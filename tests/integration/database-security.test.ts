@@ -9,7 +9,11 @@ import { execFile } from "node:child_process";
 import { promisify } from "node:util";
 import { Pool } from "pg";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { auditChainHash, canonicalAuditEvent, type ChainedAuditEvent } from "@/lib/audit/audit-chain";
+import {
+  auditChainHash,
+  canonicalAuditEvent,
+  type ChainedAuditEvent,
+} from "@/lib/audit/audit-chain";
 import type { AuditChainReport } from "@/lib/services/audit-chain";
 import { FLAME_SCREENING, signInDemo, signedIn, teamIdOf } from "./support/accounts";
 import { TEST_APPLICATION_NAME, appDb, closeDb, superuserDb } from "./support/database";
@@ -138,11 +142,15 @@ describe("the app's database role", () => {
 
   it("cannot switch the audit trail's triggers off", async () => {
     // PostgreSQL: only a table's owner may ALTER TABLE (42501 insufficient_privilege).
-    expect(await appError("ALTER TABLE audit_events DISABLE TRIGGER audit_events_no_update")).toEqual({
+    expect(
+      await appError("ALTER TABLE audit_events DISABLE TRIGGER audit_events_no_update"),
+    ).toEqual({
       code: "42501",
       message: "must be owner of table audit_events",
     });
-    expect(await appError("ALTER TABLE audit_events DISABLE TRIGGER ALL")).toMatchObject({ code: "42501" });
+    expect(await appError("ALTER TABLE audit_events DISABLE TRIGGER ALL")).toMatchObject({
+      code: "42501",
+    });
     expect(await appError("ALTER TABLE runs DISABLE TRIGGER runs_guarded")).toEqual({
       code: "42501",
       message: "must be owner of table runs",
@@ -157,17 +165,26 @@ describe("the app's database role", () => {
   });
 
   it("cannot update, delete or truncate audit events, signatures or raw files", async () => {
-    const denied = (table: string) => ({ code: "42501", message: `permission denied for table ${table}` });
-    expect(await appError("UPDATE audit_events SET reason = 'forged' WHERE id = (SELECT max(id) FROM audit_events)")).toEqual(
-      denied("audit_events"),
-    );
-    expect(await appError("DELETE FROM audit_events WHERE id = (SELECT max(id) FROM audit_events)")).toEqual(
-      denied("audit_events"),
-    );
+    const denied = (table: string) => ({
+      code: "42501",
+      message: `permission denied for table ${table}`,
+    });
+    expect(
+      await appError(
+        "UPDATE audit_events SET reason = 'forged' WHERE id = (SELECT max(id) FROM audit_events)",
+      ),
+    ).toEqual(denied("audit_events"));
+    expect(
+      await appError("DELETE FROM audit_events WHERE id = (SELECT max(id) FROM audit_events)"),
+    ).toEqual(denied("audit_events"));
     expect(await appError("TRUNCATE audit_events")).toEqual(denied("audit_events"));
-    expect(await appError("UPDATE run_signatures SET meaning = 'forged'")).toEqual(denied("run_signatures"));
+    expect(await appError("UPDATE run_signatures SET meaning = 'forged'")).toEqual(
+      denied("run_signatures"),
+    );
     expect(await appError("DELETE FROM runs")).toEqual(denied("runs"));
-    expect(await appError("UPDATE spectrum_files SET label = 'forged'")).toEqual(denied("spectrum_files"));
+    expect(await appError("UPDATE spectrum_files SET label = 'forged'")).toEqual(
+      denied("spectrum_files"),
+    );
     expect(await appError("DELETE FROM schema_migrations")).toEqual(denied("schema_migrations"));
     expect(await appError("CREATE TABLE audit_shadow (id int)")).toMatchObject({
       code: "42501",
@@ -179,7 +196,11 @@ describe("the app's database role", () => {
 describe("the audit hash chain", () => {
   it("chains concurrent inserts one after the other, whatever the writer claims", async () => {
     const before = (await chainOf(outsider.teamId)).length;
-    const writers = new Pool({ connectionString: process.env.DATABASE_URL, max: 8, application_name: TEST_APPLICATION_NAME });
+    const writers = new Pool({
+      connectionString: process.env.DATABASE_URL,
+      max: 8,
+      application_name: TEST_APPLICATION_NAME,
+    });
     try {
       await Promise.all(
         Array.from({ length: 24 }, (_, i) =>
@@ -222,7 +243,9 @@ describe("the audit hash chain", () => {
     const rows = await chainOf(outsider.teamId);
     const target = rows[Math.floor(rows.length / 2)];
     try {
-      await asSuperuser("UPDATE audit_events SET reason = 'nothing happened here' WHERE id = $1", [target.id]);
+      await asSuperuser("UPDATE audit_events SET reason = 'nothing happened here' WHERE id = $1", [
+        target.id,
+      ]);
       const broken = await outsiderLead.get<AuditChainReport>(path);
       expect(broken.status).toBe(200);
       expect(broken.body.ok).toBe(false);
@@ -232,19 +255,31 @@ describe("the audit hash chain", () => {
         eventId: target.id,
         found: target.hash,
       });
-      expect(broken.body.head).toEqual({ sequence: Number(target.team_seq) - 1, hash: target.prev_hash });
+      expect(broken.body.head).toEqual({
+        sequence: Number(target.team_seq) - 1,
+        hash: target.prev_hash,
+      });
 
       // The command names the same link and fails.
-      const failure = await run("npm", ["run", "-s", "audit:verify", "--", "--team", outsider.teamId], {
-        env: process.env,
-      }).then(
+      const failure = await run(
+        "npm",
+        ["run", "-s", "audit:verify", "--", "--team", outsider.teamId],
+        {
+          env: process.env,
+        },
+      ).then(
         () => null,
         (error: { code: number; stdout: string }) => error,
       );
       expect(failure?.code).toBe(1);
-      expect(failure?.stdout).toContain(`BROKEN  team ${outsider.teamId} at sequence ${target.team_seq}, event ${target.id} (hash)`);
+      expect(failure?.stdout).toContain(
+        `BROKEN  team ${outsider.teamId} at sequence ${target.team_seq}, event ${target.id} (hash)`,
+      );
     } finally {
-      await asSuperuser("UPDATE audit_events SET reason = $2 WHERE id = $1", [target.id, target.reason]);
+      await asSuperuser("UPDATE audit_events SET reason = $2 WHERE id = $1", [
+        target.id,
+        target.reason,
+      ]);
     }
     const repaired = await outsiderLead.get<AuditChainReport>(path);
     expect(repaired.body).toMatchObject({ ok: true, break: null });
@@ -255,7 +290,11 @@ describe("the audit hash chain", () => {
     try {
       await asSuperuser("DELETE FROM audit_events WHERE id = $1", [victim.id]);
       const gap = await outsiderLead.get<AuditChainReport>(path);
-      expect(gap.body.break).toMatchObject({ problem: "sequence", sequence: Number(victim.team_seq), eventId: last.id });
+      expect(gap.body.break).toMatchObject({
+        problem: "sequence",
+        sequence: Number(victim.team_seq),
+        eventId: last.id,
+      });
     } finally {
       await asSuperuser(
         `INSERT INTO audit_events (id, actor_id, team_id, action, entity, entity_id, before, after, reason, created_at,
@@ -285,7 +324,13 @@ describe("the audit hash chain", () => {
   it("notices a signed run changed after signing, through the content its sign-off bound", async () => {
     const lead = await signInDemo("labLead");
     const teamId = await teamIdOf(lead, FLAME_SCREENING);
-    const { rows } = await superuserDb().query<{ id: string; team_seq: string; run_id: string; notes: string; subject_hash: string }>(
+    const { rows } = await superuserDb().query<{
+      id: string;
+      team_seq: string;
+      run_id: string;
+      notes: string;
+      subject_hash: string;
+    }>(
       `SELECT e.id::text AS id, e.team_seq::text AS team_seq, r.id::text AS run_id, r.notes, e.subject_hash
          FROM audit_events e JOIN runs r ON r.id::text = e.entity_id
         WHERE e.action = 'run.sign' AND e.team_id = $1 ORDER BY e.team_seq LIMIT 1`,
@@ -296,7 +341,9 @@ describe("the audit hash chain", () => {
     const path = `/api/audit/verify?teamId=${teamId}`;
     expect((await lead.get<AuditChainReport>(path)).body).toMatchObject({ ok: true });
     try {
-      await asSuperuser("UPDATE runs SET notes = notes || ' (and a forged line)' WHERE id = $1", [signed.run_id]);
+      await asSuperuser("UPDATE runs SET notes = notes || ' (and a forged line)' WHERE id = $1", [
+        signed.run_id,
+      ]);
       const broken = await lead.get<AuditChainReport>(path);
       expect(broken.body.ok).toBe(false);
       expect(broken.body.break).toMatchObject({
@@ -318,7 +365,11 @@ describe("the audit hash chain", () => {
     const refused = await chemist.get<ErrorBody>(`/api/audit/verify?teamId=${teamId}`);
     expect(refused.status).toBe(403);
     expect(refused.body.error.code).toBe("forbidden");
-    expect((await outsiderLead.get<ErrorBody>(`/api/audit/verify?teamId=${teamId}`)).status).toBe(404);
-    expect((await outsiderLead.get<ErrorBody>("/api/audit/verify?teamId=not-a-team")).status).toBe(400);
+    expect((await outsiderLead.get<ErrorBody>(`/api/audit/verify?teamId=${teamId}`)).status).toBe(
+      404,
+    );
+    expect((await outsiderLead.get<ErrorBody>("/api/audit/verify?teamId=not-a-team")).status).toBe(
+      400,
+    );
   });
 });

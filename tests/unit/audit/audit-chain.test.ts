@@ -118,9 +118,10 @@ describe("auditChainHash", () => {
       { teamId: null },
       { sequence: 2 },
     ] satisfies Partial<Fields>[]) {
-      expect(auditChainHash(AUDIT_CHAIN_GENESIS, canonicalAuditEvent({ ...SIGN, ...change })), JSON.stringify(change)).not.toBe(
-        base,
-      );
+      expect(
+        auditChainHash(AUDIT_CHAIN_GENESIS, canonicalAuditEvent({ ...SIGN, ...change })),
+        JSON.stringify(change),
+      ).not.toBe(base);
     }
   });
 });
@@ -135,27 +136,45 @@ describe("checkChainLink", () => {
     trail[2] = { ...trail[2], reason: "rewritten" };
     trail[3] = { ...trail[3], action: "run.sign" };
     const broken = firstBreak(trail);
-    expect(broken).toMatchObject({ problem: "hash", sequence: 3, eventId: "102", found: trail[2].hash });
+    expect(broken).toMatchObject({
+      problem: "hash",
+      sequence: 3,
+      eventId: "102",
+      found: trail[2].hash,
+    });
     expect(broken!.expected).not.toBe(trail[2].hash);
   });
 
   it("notices a rewritten event whose hash was recomputed, at the next link", () => {
     const trail = chain(events(4));
     const rewritten = { ...trail[1], reason: "rewritten" };
-    trail[1] = { ...rewritten, hash: auditChainHash(rewritten.prevHash, canonicalAuditEvent(rewritten)) };
+    trail[1] = {
+      ...rewritten,
+      hash: auditChainHash(rewritten.prevHash, canonicalAuditEvent(rewritten)),
+    };
     expect(firstBreak(trail)).toMatchObject({ problem: "prev_hash", sequence: 3, eventId: "102" });
   });
 
   it("notices a deleted event as a gap in the sequence", () => {
     const trail = chain(events(5));
     trail.splice(1, 1);
-    expect(firstBreak(trail)).toMatchObject({ problem: "sequence", sequence: 2, eventId: "102", expected: "2", found: "3" });
+    expect(firstBreak(trail)).toMatchObject({
+      problem: "sequence",
+      sequence: 2,
+      eventId: "102",
+      expected: "2",
+      found: "3",
+    });
   });
 
   it("notices a repeated sequence number", () => {
     const trail = chain(events(3));
     const copy = { ...trail[1], id: "999" };
-    expect(firstBreak([trail[0], trail[1], copy])).toMatchObject({ problem: "sequence", sequence: 3, found: "2" });
+    expect(firstBreak([trail[0], trail[1], copy])).toMatchObject({
+      problem: "sequence",
+      sequence: 3,
+      found: "2",
+    });
   });
 
   it("expects a team's first event to chain to the genesis hash", () => {

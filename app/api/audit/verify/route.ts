@@ -8,9 +8,13 @@ import { auditVerifyQuerySchema } from "./schema";
 
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();
-  const parsed = auditVerifyQuerySchema.safeParse(Object.fromEntries(new URL(request.url).searchParams));
+  const parsed = auditVerifyQuerySchema.safeParse(
+    Object.fromEntries(new URL(request.url).searchParams),
+  );
   if (!parsed.success) {
-    throw new AppError("validation", "Choose a team.", { fieldErrors: zodFieldErrors(parsed.error) });
+    throw new AppError("validation", "Choose a team.", {
+      fieldErrors: zodFieldErrors(parsed.error),
+    });
   }
   const report = await verifyAuditTrail(actor, parsed.data.teamId);
   return Response.json(report, { headers: { "cache-control": "no-store" } });
