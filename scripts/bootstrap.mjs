@@ -137,7 +137,6 @@ export async function bootstrap({ database, freshDatabase = false, mailPort, mai
   const env = {
     ...process.env,
     DATABASE_URL: urls.appUrl,
-    DATABASE_OWNER_URL: urls.ownerUrl,
     SMTP_HOST: process.env.SMTP_HOST ?? "127.0.0.1",
     SMTP_PORT: process.env.SMTP_PORT ?? String(mailPort),
     EMBERLINE_MAIL_DIR: mailFolder,
@@ -147,7 +146,8 @@ export async function bootstrap({ database, freshDatabase = false, mailPort, mai
   // Migrations run as the owner; the seed, like the app, as the app role (it goes through the app's
   // services, so it proves that the app's privileges suffice). The seed makes its demo analyses
   // through the services, whose "server-only" import needs the react-server condition.
-  runTs("db/migrate.ts", env);
+  // Only the migration step gets the owner's URL: the environment returned for the app leaves it out.
+  runTs("db/migrate.ts", { ...env, DATABASE_OWNER_URL: urls.ownerUrl });
   if (seed) runTs("db/seed.ts", env, ["--conditions=react-server"]);
   return { env, stopCluster: cluster.stop };
 }

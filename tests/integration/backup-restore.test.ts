@@ -10,7 +10,7 @@ import path from "node:path";
 import { promisify } from "node:util";
 import { Client } from "pg";
 import { afterAll, describe, expect, it } from "vitest";
-import { closeDb, db, superuserDb } from "./support/database";
+import { closeDb, db, ownerUrl, superuserDb } from "./support/database";
 
 const exec = promisify(execFile);
 const root = path.resolve(__dirname, "../..");
@@ -43,9 +43,7 @@ interface RestoreReport {
 
 /** The test database's URL for the owner, the app role or the local superuser, on another database. */
 function urlFor(database: string, user: "owner" | "app" | "postgres"): string {
-  const url = new URL(
-    (user === "owner" ? process.env.DATABASE_OWNER_URL : process.env.DATABASE_URL) ?? "",
-  );
+  const url = new URL(user === "owner" ? ownerUrl() : (process.env.DATABASE_URL ?? ""));
   if (user === "postgres") {
     url.username = "postgres";
     url.password = "";

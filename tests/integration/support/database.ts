@@ -24,9 +24,21 @@ function required(name: string): string {
   return value;
 }
 
-/** The owner of the schema (DATABASE_OWNER_URL): may write any table, but triggers still apply. */
+/**
+ * The owner's URL: DATABASE_OWNER_URL, else the local cluster's owner role on the test database (the
+ * test scripts keep the owner's URL away from the served app's environment).
+ */
+export function ownerUrl(): string {
+  if (process.env.DATABASE_OWNER_URL) return process.env.DATABASE_OWNER_URL;
+  const url = new URL(required("DATABASE_URL"));
+  url.username = "emberline_owner";
+  url.password = "";
+  return url.toString();
+}
+
+/** The owner of the schema: may write any table, but triggers still apply. */
 export function db(): Pool {
-  return pool(process.env.DATABASE_OWNER_URL ?? required("DATABASE_URL"));
+  return pool(ownerUrl());
 }
 
 /** The role the app connects as (DATABASE_URL). */
