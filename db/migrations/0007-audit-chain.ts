@@ -51,7 +51,6 @@ export const up: Migration = async ({ context: sequelize }) => {
       ELSE
         SELECT team_seq, hash INTO head FROM audit_events WHERE team_id = NEW.team_id ORDER BY team_seq DESC LIMIT 1;
       END IF;
-      NEW.created_at := now();
       NEW.team_seq := coalesce(head.team_seq, 0) + 1;
       NEW.prev_hash := coalesce(head.hash, repeat('0', 64));
       -- A signature binds the content it signed: the signature row comes first in the same transaction.
