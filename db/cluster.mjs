@@ -146,17 +146,97 @@ export async function startCluster({ dataDir, port }) {
   };
 }
 
-/** Creates a database when it does not exist; with `fresh`, drops it first. */
-export function ensureDatabase({ bin, port, name, fresh = false }) {
-  const psql = (sql) =>
-    execFileSync(path.join(bin, "psql"), ["-h", "127.0.0.1", "-p", String(port), "-U", "postgres", "-d", "postgres", "-tAc", sql], {
-      encoding: "utf8",
-    }).trim();
-  if (!/^[a-z_][a-z0-9_]*$/.test(name)) throw new Error(`Unsafe database name: ${name}`);
+/** The local cluster's superuser, used only by these scripts to create roles and databases. */
+export const SUPERUSER = "postgres";
+
+/** The default roles on the local cluster: the owner runs migrations, the app role runs the app. */
+export const DEFAULT_OWNER_ROLE = "emberline_owner";
+export const DEFAULT_APP_ROLE = "emberline_app";
+
+const SAFE_NAME = /^[a-z_][a-z0-9_]*$/;
+
+function superuserPsql(bin, port, database = "postgres") {
+  return (sql) =>
+    execFileSync(
+      path.join(bin, "psql"),
+      ["-h", "127.0.0.1", "-p", String(port), "-U", SUPERUSER, "-d", database, "-v", "ON_ERROR_STOP=1", "-tAc", sql],
+      { encoding: "utf8" },
+    ).trim();
+}
+
+function sqlLiteral(value) {
+  return `'${String(value).replace(/'/g, "''")}'`;
+}
+
+/**
+ * Creates (or brings into line) the two roles of the least-privileged design: `owner` owns the
+ * schema and runs migrations; `app` is what the running app connects as: it may log in and nothing
+ * more (no superuser, no role or database creation, no row-level-security bypass, no replication),
+ * and gets its table privileges from the migration step (db/privileges.ts). Passwords are optional
+ * on the local cluster (trust on loopback) but are set when the connection URLs carry them.
+ */
+export function ensureRoles({ bin, port, owner, app }) {
+  const psql = superuserPsql(bin, port);
+  for (const role of [owner, app]) {
+    if (!SAFE_NAME.test(role.name)) throw new Error(`Unsafe role name: ${role.name}`);
+    if (role.name === SUPERUSER) throw new Error(`The ${role.name} role is the cluster's superuser: choose another name`);
+  }
+  if (owner.name === app.name) throw new Error("The owner role and the app role must be different roles.");
+  const attributes = {
+    [owner.name]: "LOGIN NOSUPERUSER NOCREATEROLE NOCREATEDB NOREPLICATION NOBYPASSRLS",
+    [app.name]: "LOGIN NOSUPERUSER NOCREATEROLE NOCREATEDB NOREPLICATION NOBYPASSRLS NOINHERIT",
+  };
+  for (const role of [owner, app]) {
+    const exists = psql(`SELECT 1 FROM pg_roles WHERE rolname = ${sqlLiteral(role.name)}`) === "1";
+    const password = role.password ? ` PASSWORD ${sqlLiteral(role.password)}` : "";
+    psql(`${exists ? "ALTER" : "CREATE"} ROLE ${role.name} ${attributes[role.name]}${password}`);
+    if (!exists) log(`Created database role ${role.name}.`);
+  }
+}
+
+/**
+ * Creates a database owned by `owner` when it does not exist; with `fresh`, drops it first. An
+ * existing database made before the owner role existed is handed over to it (the database and every
+ * table, sequence, function and type in its public schema), so migrations keep running as the owner.
+ */
+export function ensureDatabase({ bin, port, name, owner, fresh = false }) {
+  const psql = superuserPsql(bin, port);
+  if (!SAFE_NAME.test(name)) throw new Error(`Unsafe database name: ${name}`);
+  if (owner && !SAFE_NAME.test(owner)) throw new Error(`Unsafe role name: ${owner}`);
   if (fresh) psql(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
   const exists = psql(`SELECT 1 FROM pg_database WHERE datname = '${name}'`) === "1";
   if (!exists) {
-    psql(`CREATE DATABASE ${name}`);
-    log(`Created database ${name}.`);
+    psql(`CREATE DATABASE ${name}${owner ? ` OWNER ${owner}` : ""}`);
+    log(`Created database ${name}${owner ? ` owned by ${owner}` : ""}.`);
+    return;
   }
+  if (!owner) return;
+  const current = psql(`SELECT pg_get_userbyid(datdba) FROM pg_database WHERE datname = '${name}'`);
+  if (current !== owner) psql(`ALTER DATABASE ${name} OWNER TO ${owner}`);
+  superuserPsql(bin, port, name)(`DO $$
+    DECLARE item record;
+    BEGIN
+      FOR item IN
+        SELECT format('ALTER %s %s OWNER TO ${owner}',
+                 CASE c.relkind WHEN 'S' THEN 'SEQUENCE' WHEN 'v' THEN 'VIEW' WHEN 'm' THEN 'MATERIALIZED VIEW' ELSE 'TABLE' END,
+                 c.oid::regclass) AS statement
+          FROM pg_class c JOIN pg_namespace n ON n.oid = c.relnamespace
+         WHERE n.nspname = 'public' AND c.relkind IN ('r', 'p', 'v', 'm', 'S')
+           AND pg_get_userbyid(c.relowner) <> '${owner}'
+           AND NOT EXISTS (SELECT 1 FROM pg_depend d WHERE d.objid = c.oid AND d.deptype = 'a' AND c.relkind = 'S')
+        UNION ALL
+        SELECT format('ALTER FUNCTION %s OWNER TO ${owner}', p.oid::regprocedure)
+          FROM pg_proc p JOIN pg_namespace n ON n.oid = p.pronamespace
+         WHERE n.nspname = 'public' AND pg_get_userbyid(p.proowner) <> '${owner}'
+           AND NOT EXISTS (SELECT 1 FROM pg_depend d WHERE d.objid = p.oid AND d.deptype = 'e')
+        UNION ALL
+        SELECT format('ALTER TYPE %s OWNER TO ${owner}', t.oid::regtype)
+          FROM pg_type t JOIN pg_namespace n ON n.oid = t.typnamespace
+         WHERE n.nspname = 'public' AND t.typtype IN ('e', 'd', 'c') AND pg_get_userbyid(t.typowner) <> '${owner}'
+           AND (t.typrelid = 0 OR (SELECT relkind FROM pg_class WHERE oid = t.typrelid) = 'c')
+           AND NOT EXISTS (SELECT 1 FROM pg_depend d WHERE d.objid = t.oid AND d.deptype = 'e')
+      LOOP
+        EXECUTE item.statement;
+      END LOOP;
+    END $$`);
 }

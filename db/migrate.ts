@@ -1,12 +1,16 @@
-// Runs pending migrations with umzug; `tsx db/migrate.ts` is called by the start and test scripts.
+// Runs pending migrations with umzug as the role that owns the schema (DATABASE_OWNER_URL), then gives
+// the app's role (DATABASE_URL) its table privileges; `tsx db/migrate.ts` is called by the start and
+// test scripts.
 import path from "node:path";
 import { Sequelize } from "sequelize";
 import { SequelizeStorage, Umzug, type MigrationFn } from "umzug";
-import { sequelize } from "./sequelize";
+import { env } from "../lib/env";
+import { appRoleOf, applyAppPrivileges } from "./privileges";
+import { createSequelize } from "./sequelize";
 
 export type Migration = MigrationFn<Sequelize>;
 
-export function migrator(instance: Sequelize = sequelize) {
+export function migrator(instance: Sequelize) {
   return new Umzug<Sequelize>({
     migrations: {
       glob: ["migrations/*.ts", { cwd: path.resolve(__dirname) }],
@@ -22,18 +26,24 @@ export function migrator(instance: Sequelize = sequelize) {
   });
 }
 
-async function main() {
-  const ran = await migrator().up();
+async function main(owner: Sequelize) {
+  const settings = env();
+  const appRole = appRoleOf(settings.databaseUrl, settings.databaseOwnerUrl);
+  const ran = await migrator(owner).up();
   process.stdout.write(
     `[emberline] Migrations: ${ran.length ? ran.map((m) => m.name).join(", ") : "up to date"}\n`,
   );
-  await sequelize.close();
+  await applyAppPrivileges(owner, appRole);
+  process.stdout.write(`[emberline] Privileges of the app role ${appRole} applied.\n`);
 }
 
 if (require.main === module) {
-  main().catch(async (error) => {
-    process.stderr.write(`[emberline] Migration failed: ${error instanceof Error ? error.stack : error}\n`);
-    await sequelize.close();
-    process.exit(1);
-  });
+  const owner = createSequelize(env().databaseOwnerUrl);
+  main(owner)
+    .then(() => owner.close())
+    .catch(async (error) => {
+      process.stderr.write(`[emberline] Migration failed: ${error instanceof Error ? error.stack : error}\n`);
+      await owner.close();
+      process.exit(1);
+    });
 }

@@ -6,9 +6,10 @@ import { env } from "../lib/env";
 
 const globalForDb = globalThis as unknown as { emberlineSequelize?: Sequelize };
 
-function createSequelize(): Sequelize {
+/** A Sequelize instance on `url` (the app's connection unless told otherwise; migrations pass the owner's). */
+export function createSequelize(url: string = env().databaseUrl): Sequelize {
   const settings = env();
-  return new Sequelize(settings.databaseUrl, {
+  return new Sequelize(url, {
     dialect: "postgres",
     dialectModule: pg,
     logging: process.env.EMBERLINE_SQL_LOG === "1" ? console.log : false,

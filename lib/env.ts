@@ -26,9 +26,27 @@ function readSessionSecret(): string {
 
 let cached: ReturnType<typeof readEnv> | undefined;
 
+/** The local cluster's roles (db/cluster.mjs creates them): the app's, and the owner that migrates. */
+export const LOCAL_APP_ROLE = "emberline_app";
+export const LOCAL_OWNER_ROLE = "emberline_owner";
+
+/** `url` with another user and no password: the owner's URL on the same server and database. */
+export function withRole(url: string, role: string): string {
+  const parsed = new URL(url);
+  parsed.username = role;
+  parsed.password = "";
+  return parsed.toString();
+}
+
 function readEnv() {
+  const databaseUrl =
+    process.env.DATABASE_URL ??
+    `postgres://${LOCAL_APP_ROLE}@127.0.0.1:${process.env.EMBERLINE_PG_PORT ?? 54329}/${process.env.EMBERLINE_DB_NAME ?? "emberline"}`;
   return {
-    databaseUrl: process.env.DATABASE_URL ?? "postgres://postgres@127.0.0.1:54329/emberline",
+    /** What the app (server, seed, scripts that go through services) connects as: the app role. */
+    databaseUrl,
+    /** What migrations connect as: the role that owns the schema. Never given to the running app. */
+    databaseOwnerUrl: process.env.DATABASE_OWNER_URL ?? withRole(databaseUrl, LOCAL_OWNER_ROLE),
     databasePoolMax: Number(process.env.DATABASE_POOL_MAX ?? 10),
     /** Cookies marked Secure: on in production unless the app is served over plain HTTP on loopback. */
     secureCookies: process.env.SECURE_COOKIES

@@ -5,7 +5,14 @@ import crypto from "node:crypto";
 import fs from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import { ensureDatabase, isPortOpen, startCluster } from "../db/cluster.mjs";
+import {
+  DEFAULT_APP_ROLE,
+  DEFAULT_OWNER_ROLE,
+  ensureDatabase,
+  ensureRoles,
+  isPortOpen,
+  startCluster,
+} from "../db/cluster.mjs";
 
 export const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 
@@ -67,6 +74,35 @@ export function runTs(file, env, nodeOptions = []) {
 }
 
 /**
+ * The two connection URLs: DATABASE_URL (the app's role) and DATABASE_OWNER_URL (the owner's, for
+ * migrations), from the environment or the local cluster's defaults. Also returns the roles to create
+ * on the local cluster (with the passwords the URLs carry), for URLs that point at it.
+ */
+export function databaseUrls({ pgPort, database }) {
+  const local = (role) => `postgres://${role}@127.0.0.1:${pgPort}/${database}`;
+  const appUrl = process.env.DATABASE_URL ?? local(DEFAULT_APP_ROLE);
+  let ownerUrl = process.env.DATABASE_OWNER_URL;
+  if (!ownerUrl) {
+    const url = new URL(appUrl);
+    url.username = DEFAULT_OWNER_ROLE;
+    url.password = "";
+    ownerUrl = url.toString();
+  }
+  const isLocal = (url) =>
+    ["127.0.0.1", "localhost"].includes(url.hostname) && Number(url.port || 5432) === pgPort;
+  const roleOf = (text) => {
+    const url = new URL(text);
+    return {
+      local: isLocal(url),
+      database: decodeURIComponent(url.pathname.slice(1)),
+      name: decodeURIComponent(url.username),
+      password: url.password ? decodeURIComponent(url.password) : undefined,
+    };
+  };
+  return { appUrl, ownerUrl, app: roleOf(appUrl), owner: roleOf(ownerUrl) };
+}
+
+/**
  * Brings up everything the app needs and returns the environment for it:
  * the PostgreSQL cluster, a database (fresh when asked), the fake SMTP server and the schema.
  */
@@ -75,7 +111,19 @@ export async function bootstrap({ database, freshDatabase = false, mailPort, mai
   const dataRoot = path.resolve(root, process.env.EMBERLINE_DATA_DIR ?? ".data");
   const pgPort = Number(process.env.EMBERLINE_PG_PORT ?? 54329);
   const cluster = await startCluster({ dataDir: path.join(dataRoot, "postgres"), port: pgPort });
-  ensureDatabase({ bin: cluster.bin, port: pgPort, name: database, fresh: freshDatabase });
+  const urls = databaseUrls({ pgPort, database });
+  // The roles and the database are ours to create only on the local cluster; a managed database
+  // comes with them (DEVELOPERS.md says what it must have).
+  if (urls.owner.local && urls.app.local) {
+    ensureRoles({ bin: cluster.bin, port: pgPort, owner: urls.owner, app: urls.app });
+    ensureDatabase({
+      bin: cluster.bin,
+      port: pgPort,
+      name: urls.owner.database,
+      owner: urls.owner.name,
+      fresh: freshDatabase,
+    });
+  }
 
   const mailFolder = path.resolve(dataRoot, mailDir);
   fs.mkdirSync(mailFolder, { recursive: true });
@@ -88,16 +136,18 @@ export async function bootstrap({ database, freshDatabase = false, mailPort, mai
 
   const env = {
     ...process.env,
-    DATABASE_URL: process.env.DATABASE_URL ?? `postgres://postgres@127.0.0.1:${pgPort}/${database}`,
+    DATABASE_URL: urls.appUrl,
     SMTP_HOST: process.env.SMTP_HOST ?? "127.0.0.1",
     SMTP_PORT: process.env.SMTP_PORT ?? String(mailPort),
     EMBERLINE_MAIL_DIR: mailFolder,
     SESSION_SECRET: process.env.SESSION_SECRET ?? developmentSecret(dataRoot),
     NEXT_TELEMETRY_DISABLED: "1",
   };
-  runTs("db/migrate.ts", env);
-  // The seed makes its demo analyses through the app's services, whose "server-only" import needs the
-  // react-server condition.
+  // Migrations run as the owner; the seed, like the app, as the app role (it goes through the app's
+  // services, so it proves that the app's privileges suffice). The seed makes its demo analyses
+  // through the services, whose "server-only" import needs the react-server condition.
+  // Only the migration step gets the owner's URL: the environment returned for the app leaves it out.
+  runTs("db/migrate.ts", { ...env, DATABASE_OWNER_URL: urls.ownerUrl });
   if (seed) runTs("db/seed.ts", env, ["--conditions=react-server"]);
   return { env, stopCluster: cluster.stop };
 }

@@ -23,6 +23,8 @@ const TEAM_ACTIONS = {
   "lines.edit": ["lab_lead"],
   "lines.publish": ["lab_lead"],
   "audit.view": ["chemist", "supervisor", "lab_lead"],
+  /** Recomputing the trail's hash chain (GET /api/audit/verify). */
+  "audit.verify": ["lab_lead"],
 } as const satisfies Record<string, readonly TeamRole[]>;
 
 export type TeamAction = keyof typeof TEAM_ACTIONS;

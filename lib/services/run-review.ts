@@ -239,6 +239,15 @@ async function runContentOf(run: Run, transaction?: Transaction) {
   });
 }
 
+/**
+ * The SHA-256 of a run's content as it stands in the tables now, or null when there is no such run.
+ * Unauthorised: for the audit chain's verifier, which compares it with what was signed.
+ */
+export async function recomputeRunContentHash(runId: string, transaction?: Transaction): Promise<string | null> {
+  const run = await Run.findByPk(runId, { transaction });
+  return run ? runContentHash(await runContentOf(run, transaction)) : null;
+}
+
 /** A run's canonical content and its SHA-256, as a signature would cover it now (for reports and checks). */
 export async function fetchRunContent(actor: Actor, runId: string): Promise<{ content: Record<string, unknown>; contentHash: string }> {
   const run = await loadRun(actor, runId);

@@ -43,6 +43,12 @@ const CASES: RouteCase[] = [
   { route: "GET /api/teams", method: "GET", request: async () => ({ path: "/api/teams" }), expected: signedInOnly(200) },
   { route: "GET /api/tokens", method: "GET", request: async () => ({ path: "/api/tokens" }), expected: signedInOnly(200) },
   {
+    route: "GET /api/audit/verify",
+    method: "GET",
+    request: async (ctx) => ({ path: `/api/audit/verify?teamId=${ctx.flameTeamId}` }),
+    expected: { anonymous: 401, chemist: 403, supervisor: 403, labLead: 200, outsider: 404 },
+  },
+  {
     route: "POST /api/tokens",
     method: "POST",
     request: async () => ({ path: "/api/tokens", json: { name: "matrix" } }),

@@ -1,18 +1,62 @@
-// Direct checks against the test database: audit events written since a mark, and raw SQL.
+// Direct checks against the test database: audit events written since a mark, and raw SQL. db() is
+// the schema's owner (not a superuser, so every trigger still applies); appDb() is the role the app
+// connects as; superuserDb() is the local cluster's superuser, for tests that play an attacker who
+// holds it.
 import { Pool } from "pg";
 
-let pool: Pool | undefined;
+const pools = new Map<string, Pool>();
 
+export const TEST_APPLICATION_NAME = "emberline-tests";
+
+function pool(connectionString: string): Pool {
+  let found = pools.get(connectionString);
+  if (!found) {
+    // Named, so that a test can tell the served app's connections from its own.
+    found = new Pool({ connectionString, max: 2, application_name: TEST_APPLICATION_NAME });
+    pools.set(connectionString, found);
+  }
+  return found;
+}
+
+function required(name: string): string {
+  const value = process.env[name];
+  if (!value) throw new Error(`${name} is not set: run the tests through scripts/test.mjs`);
+  return value;
+}
+
+/**
+ * The owner's URL: DATABASE_OWNER_URL, else the local cluster's owner role on the test database (the
+ * test scripts keep the owner's URL away from the served app's environment).
+ */
+export function ownerUrl(): string {
+  if (process.env.DATABASE_OWNER_URL) return process.env.DATABASE_OWNER_URL;
+  const url = new URL(required("DATABASE_URL"));
+  url.username = "emberline_owner";
+  url.password = "";
+  return url.toString();
+}
+
+/** The owner of the schema: may write any table, but triggers still apply. */
 export function db(): Pool {
-  const connectionString = process.env.DATABASE_URL;
-  if (!connectionString) throw new Error("DATABASE_URL is not set: run the tests through scripts/test.mjs");
-  pool ??= new Pool({ connectionString, max: 2 });
-  return pool;
+  return pool(ownerUrl());
+}
+
+/** The role the app connects as (DATABASE_URL). */
+export function appDb(): Pool {
+  return pool(required("DATABASE_URL"));
+}
+
+/** The local test cluster's superuser on the test database (trust on loopback). */
+export function superuserDb(): Pool {
+  const url = new URL(required("DATABASE_URL"));
+  url.username = "postgres";
+  url.password = "";
+  return pool(url.toString());
 }
 
 export async function closeDb(): Promise<void> {
-  await pool?.end();
-  pool = undefined;
+  await Promise.all([...pools.values()].map((p) => p.end()));
+  pools.clear();
 }
 
 /** The newest audit event id now; events written later have a larger id (bigserial). */
