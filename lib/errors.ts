@@ -1,5 +1,7 @@
 // Typed application errors and the single place that turns any error into an HTTP reply,
 // so that database details never reach a client.
+import { isDatabaseUnavailable } from "@/lib/database-unavailable";
+
 export type ErrorCode =
   | "unauthenticated"
   | "forbidden"
@@ -8,7 +10,9 @@ export type ErrorCode =
   | "conflict"
   | "rate_limited"
   | "unprocessable"
-  | "too_large";
+  | "too_large"
+  | "timeout"
+  | "unavailable";
 
 const STATUS: Record<ErrorCode, number> = {
   unauthenticated: 401,
@@ -19,6 +23,8 @@ const STATUS: Record<ErrorCode, number> = {
   rate_limited: 429,
   unprocessable: 422,
   too_large: 413,
+  timeout: 408,
+  unavailable: 503,
 };
 
 export type FieldErrors = Record<string, string[]>;
@@ -49,6 +55,11 @@ export const notFound = (what = "Not found") => new AppError("not_found", what);
 export const forbidden = (why = "You are not allowed to do that.") => new AppError("forbidden", why);
 export const unauthenticated = () => new AppError("unauthenticated", "Sign in first.");
 
+/** How long a client should wait before trying again while the database is unreachable. */
+export const DATABASE_RETRY_AFTER_SECONDS = 15;
+export const DATABASE_UNAVAILABLE_MESSAGE =
+  "The database is unreachable at the moment, so nothing was read or saved. Try again in a few seconds.";
+
 /** Maps any thrown value to a JSON reply; unknown errors are logged and answered generically. */
 export function toResponse(error: unknown): Response {
   if (error instanceof AppError) {
@@ -63,6 +74,13 @@ export function toResponse(error: unknown): Response {
     return Response.json(
       { error: { code: "conflict", message: "Someone else changed this record first. Reload and try again." } },
       { status: 409 },
+    );
+  }
+  if (isDatabaseUnavailable(error)) {
+    console.error("The database is unreachable:", error instanceof Error ? error.message : error);
+    return Response.json(
+      { error: { code: "unavailable", message: DATABASE_UNAVAILABLE_MESSAGE } },
+      { status: 503, headers: { "Retry-After": String(DATABASE_RETRY_AFTER_SECONDS) } },
     );
   }
   console.error(error);

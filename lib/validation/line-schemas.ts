@@ -3,6 +3,7 @@
 import { z } from "zod";
 import { LINE_FLAGS, type LineFlag } from "@/lib/lines";
 import { AppError } from "@/lib/errors";
+import { bodyText } from "@/lib/http/read-body";
 import { zodFieldErrors } from "./field-errors";
 
 const SOURCE_KINDS = ["flame", "arc", "spark", "plasma", "lamp"] as const;
@@ -131,23 +132,23 @@ export function idParam(value: string | undefined, what = "No such record."): st
   return value;
 }
 
-const MAX_IMPORT_BODY_BYTES = 6 * 1024 * 1024;
+/** The cap of an import body (a 5 MB file, with room for JSON's escapes when sent as {csv}). */
+export const MAX_IMPORT_BODY_BYTES = 6 * 1024 * 1024;
+export const IMPORT_ROUTE_OPTIONS = {
+  maxBodyBytes: MAX_IMPORT_BODY_BYTES,
+  tooLargeMessage: "The line-table file is larger than the 5 MB an import accepts.",
+};
 
 /**
  * An import body: JSON checked by `schema`, or the file itself as text/csv (then fingerprint,
- * skipRejected and reason come from the query string).
+ * skipRejected and reason come from the query string). apiRoute has read it within IMPORT_ROUTE_OPTIONS.
  */
 export async function readImportBody<T extends z.ZodType<{ csv: string }>>(
   request: Request,
   schema: T = importPreviewSchema as unknown as T,
 ): Promise<z.infer<T>> {
-  const length = Number(request.headers.get("content-length") ?? 0);
-  if (length > MAX_IMPORT_BODY_BYTES)
-    throw new AppError("too_large", "The file is larger than 5 MB.");
   const type = request.headers.get("content-type") ?? "";
-  const text = await request.text();
-  if (text.length > MAX_IMPORT_BODY_BYTES)
-    throw new AppError("too_large", "The file is larger than 5 MB.");
+  const text = await bodyText(request);
   let body: unknown;
   if (type.startsWith("text/csv") || type.startsWith("text/plain")) {
     const query = new URL(request.url).searchParams;

@@ -1,5 +1,6 @@
 // POST invites a person by e-mail into a team with a role (lab leads only).
 import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { ACCOUNT_BODY_BYTES } from "@/lib/http/read-body";
 import { inviteMember } from "@/lib/services/teams";
 import { invitationSchema } from "@/lib/validation/account-schemas";
 
@@ -7,4 +8,4 @@ export const POST = apiRoute(async (request) => {
   const actor = await requireActor();
   const input = await parseJson(request, invitationSchema);
   return Response.json(await inviteMember(actor, input), { status: 201 });
-});
+}, { maxBodyBytes: ACCOUNT_BODY_BYTES });

@@ -1,5 +1,6 @@
 // POST signs in with e-mail and password (sets the session cookie); DELETE signs out.
 import { apiRoute, clientAddress, parseJson } from "@/lib/http/api-handler";
+import { SIGN_IN_BODY_BYTES } from "@/lib/http/read-body";
 import { endSession, startSession } from "@/lib/auth/session";
 import { signIn } from "@/lib/services/accounts";
 import { recordAudit } from "@/lib/services/audit";
@@ -11,7 +12,7 @@ export const POST = apiRoute(async (request) => {
   const actor = await signIn({ ...input, address: clientAddress(request) });
   await startSession(actor);
   return Response.json(toMe(actor));
-});
+}, { maxBodyBytes: SIGN_IN_BODY_BYTES });
 
 export const DELETE = apiRoute(async () => {
   const userId = await endSession();

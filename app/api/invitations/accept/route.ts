@@ -1,5 +1,6 @@
 // POST accepts an invitation: sets the new person's password (or checks an existing one) and joins.
 import { apiRoute, parseJson } from "@/lib/http/api-handler";
+import { ACCOUNT_BODY_BYTES } from "@/lib/http/read-body";
 import { startSession } from "@/lib/auth/session";
 import { loadActor } from "@/lib/services/accounts";
 import { acceptInvitation } from "@/lib/services/teams";
@@ -10,4 +11,4 @@ export const POST = apiRoute(async (request) => {
   const userId = await acceptInvitation(input);
   await startSession((await loadActor(userId))!);
   return Response.json({ userId }, { status: 201 });
-});
+}, { maxBodyBytes: ACCOUNT_BODY_BYTES });

@@ -9,4 +9,4 @@ export const POST = apiRoute(async (request, { params }) => {
   const id = idParam((await params).id, "No such calibration.");
   const { pixels } = await parseJson(request, evaluateSchema);
   return Response.json(await evaluateStoredCalibration(actor, id, pixels));
-});
+}, { maxBodyBytes: 2 * 1024 * 1024 });
