@@ -60,6 +60,18 @@ export const DATABASE_RETRY_AFTER_SECONDS = 15;
 export const DATABASE_UNAVAILABLE_MESSAGE =
   "The database is unreachable at the moment, so nothing was read or saved. Try again in a few seconds.";
 
+/**
+ * PostgreSQL's SQLSTATEs for a value it cannot take: 22021 (NUL or bad UTF-8), 22P05 (untranslatable,
+ * e.g. \u0000 in jsonb), 22008 and 22007 (date out of range or malformed), 22003 (number out of range).
+ */
+const UNSTORABLE_VALUE_CODES = new Set(["22021", "22P05", "22008", "22007", "22003"]);
+
+function isUnstorableValue(error: unknown): boolean {
+  if (!(error instanceof Error) || error.name !== "SequelizeDatabaseError") return false;
+  const code = (error as { parent?: { code?: unknown } }).parent?.code;
+  return typeof code === "string" && UNSTORABLE_VALUE_CODES.has(code);
+}
+
 /** Maps any thrown value to a JSON reply; unknown errors are logged and answered generically. */
 export function toResponse(error: unknown): Response {
   if (error instanceof AppError) {
@@ -74,6 +86,18 @@ export function toResponse(error: unknown): Response {
     return Response.json(
       { error: { code: "conflict", message: "Someone else changed this record first. Reload and try again." } },
       { status: 409 },
+    );
+  }
+  if (isUnstorableValue(error)) {
+    // The schemas refuse these first (lib/validation/text.ts, bounded dates); this is the safety net.
+    return Response.json(
+      {
+        error: {
+          code: "validation",
+          message: "The request holds a value that cannot be stored (a control character, broken Unicode or a date out of range). Nothing was saved.",
+        },
+      },
+      { status: 400 },
     );
   }
   if (isDatabaseUnavailable(error)) {

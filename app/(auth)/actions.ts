@@ -3,6 +3,7 @@
 import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { z } from "zod";
+import { text } from "@/lib/validation/text";
 import { startSession } from "@/lib/auth/session";
 import { loadActor, requestPasswordReset, resetPassword, signIn } from "@/lib/services/accounts";
 import { acceptInvitation } from "@/lib/services/teams";
@@ -54,7 +55,7 @@ export async function resetPasswordAction(_state: FormState, formData: FormData)
 }
 
 export async function acceptInvitationAction(_state: FormState, formData: FormData): Promise<FormState> {
-  const { data, state } = parseForm(acceptInvitationSchema.extend({ name: z.string().trim().max(120).optional() }), formData);
+  const { data, state } = parseForm(acceptInvitationSchema.extend({ name: text().trim().max(120).optional() }), formData);
   if (state) return state;
   try {
     await startSession((await loadActor(await acceptInvitation(data)))!);

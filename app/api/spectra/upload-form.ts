@@ -5,6 +5,7 @@ import type { ApiRouteOptions } from "@/lib/http/api-handler";
 import { bodyBytes } from "@/lib/http/read-body";
 import type { SpectrumUpload } from "@/lib/services/spectra";
 import { zodFieldErrors } from "@/lib/validation/field-errors";
+import { cleanText } from "@/lib/validation/text";
 import { MAX_UPLOAD_BYTES, spectrumUploadFieldsSchema } from "@/lib/validation/workflow-schemas";
 
 /** Room for the multipart boundaries and the other fields around the file. */
@@ -21,7 +22,7 @@ export async function readUploadForm(request: Request): Promise<SpectrumUpload> 
   let form: FormData;
   try {
     const type = request.headers.get("content-type") ?? "";
-    form = await new Response(bytes, { headers: { "content-type": type } }).formData();
+    form = await new Response(bytes as Uint8Array<ArrayBuffer>, { headers: { "content-type": type } }).formData();
   } catch {
     throw new AppError("validation", "Send the file as multipart/form-data with a `file` field.");
   }
@@ -45,5 +46,5 @@ export async function readUploadForm(request: Request): Promise<SpectrumUpload> 
   if (!fields.success) {
     throw new AppError("validation", "Some fields are not right.", { fieldErrors: zodFieldErrors(fields.error) });
   }
-  return { ...fields.data, fileName: file.name || "upload", bytes: new Uint8Array(await file.arrayBuffer()) };
+  return { ...fields.data, fileName: cleanText(file.name).slice(0, 255) || "upload", bytes: new Uint8Array(await file.arrayBuffer()) };
 }
