@@ -1,6 +1,7 @@
 // Runs before every page: gives the page a fresh CSP nonce (Next.js reads it from the request's
 // Content-Security-Policy header and puts it on its own scripts), adds HSTS behind HTTPS, answers a
-// path that is not valid percent-encoding with a clean 400 (Next would answer a plain-text 500),
+// path that is not valid percent-encoding with a clean 400 (Next would answer a plain-text 500), a
+// server action from another site with 403 (Next would answer 500),
 // and sends anonymous visitors of workspace pages to sign-in. API routes answer 401 themselves,
 // and every action and handler checks authorisation again: the redirect is a convenience, not the guard.
 import { NextResponse, type NextRequest } from "next/server";
@@ -17,6 +18,10 @@ export function proxy(request: NextRequest) {
       { error: { code: "validation", message: "The address is not valid: it has a broken %-escape." } },
       { status: 400 },
     );
+  }
+  // Next.js refuses a server action from a foreign Origin by throwing, which answers 500: say 403 instead.
+  if (request.method === "POST" && request.headers.has("next-action") && isForeignOrigin(request)) {
+    return new Response("Cross-site form posts are not accepted.", { status: 403, headers: { "content-type": "text/plain; charset=utf-8" } });
   }
   // /api paths reach the proxy only when they contain "%" (see the matcher); the rest are the routes' own.
   if (pathname.startsWith("/api/")) return NextResponse.next();
@@ -42,6 +47,18 @@ export function proxy(request: NextRequest) {
   const hsts = strictTransportSecurity(appUrl);
   if (hsts) response.headers.set("Strict-Transport-Security", hsts);
   return response;
+}
+
+/** The same comparison Next.js makes for server actions: the Origin's host against the (forwarded) Host. */
+function isForeignOrigin(request: NextRequest): boolean {
+  const origin = request.headers.get("origin");
+  if (!origin) return false;
+  const host = request.headers.get("x-forwarded-host")?.split(",")[0]?.trim() || request.headers.get("host");
+  try {
+    return new URL(origin).host !== host;
+  } catch {
+    return true;
+  }
 }
 
 function isDecodablePath(pathname: string): boolean {
