@@ -19,12 +19,15 @@ let violations: string[];
 beforeAll(async () => {
   const chemist = await signInDemo("chemist");
   const teamId = await teamIdOf(chemist, FLAME_SCREENING);
-  const notebooks = await chemist.get<{ id: string; runCount: number }[]>(`/api/notebooks?teamId=${teamId}`);
+  const notebooks = await chemist.get<{ id: string; runCount: number }[]>(
+    `/api/notebooks?teamId=${teamId}`,
+  );
   const notebook = notebooks.body.find((n) => n.runCount > 0);
   expect(notebook, "the demo data has a notebook with a run").toBeDefined();
   const runs = await chemist.get<{ id: string }[]>(`/api/notebooks/${notebook!.id}/runs`);
   runId = runs.body[0].id;
-  calibrationId = (await chemist.get<{ calibrationId: string }>(`/api/runs/${runId}`)).body.calibrationId;
+  calibrationId = (await chemist.get<{ calibrationId: string }>(`/api/runs/${runId}`)).body
+    .calibrationId;
 
   browser = await openBrowser();
   violations = [];
@@ -50,7 +53,8 @@ async function chartsDrawn(path: string): Promise<number> {
   const charts = page.locator("[data-testid=chart]");
   await charts.first().waitFor();
   const count = await charts.count();
-  for (let i = 0; i < count; i++) await charts.nth(i).locator(".main-svg").first().waitFor({ timeout: 30_000 });
+  for (let i = 0; i < count; i++)
+    await charts.nth(i).locator(".main-svg").first().waitFor({ timeout: 30_000 });
   return count;
 }
 
@@ -58,9 +62,16 @@ async function chartsDrawn(path: string): Promise<number> {
 async function chartControls(): Promise<{ titles: string[]; hrefs: string[]; logos: number }> {
   return browser.page.evaluate(() => {
     const figures = [...document.querySelectorAll("[data-testid=chart]")];
-    const titles = figures.flatMap((f) => [...f.querySelectorAll(".modebar-btn")].map((b) => b.getAttribute("data-title") ?? ""));
-    const hrefs = figures.flatMap((f) => [...f.querySelectorAll("a[href]")].map((a) => (a as HTMLAnchorElement).href));
-    const logos = figures.reduce((n, f) => n + f.querySelectorAll(".plotlyjsicon, a.modebar-btn--logo").length, 0);
+    const titles = figures.flatMap((f) =>
+      [...f.querySelectorAll(".modebar-btn")].map((b) => b.getAttribute("data-title") ?? ""),
+    );
+    const hrefs = figures.flatMap((f) =>
+      [...f.querySelectorAll("a[href]")].map((a) => (a as HTMLAnchorElement).href),
+    );
+    const logos = figures.reduce(
+      (n, f) => n + f.querySelectorAll(".plotlyjsicon, a.modebar-btn--logo").length,
+      0,
+    );
     return { titles, hrefs, logos };
   });
 }
@@ -95,7 +106,9 @@ describe("charts under the Content-Security-Policy", () => {
     expect(nonce).toBeTruthy();
     // Every script the server wrote into the page carries it (scripts those load later are allowed
     // by 'strict-dynamic' and carry none).
-    const tags = [...((await response?.text()) ?? "").matchAll(/<script\b[^>]*>/g)].map((m) => m[0]);
+    const tags = [...((await response?.text()) ?? "").matchAll(/<script\b[^>]*>/g)].map(
+      (m) => m[0],
+    );
     expect(tags.length).toBeGreaterThan(0);
     for (const tag of tags) expect(tag).toContain(`nonce="${nonce}"`);
     // The charts still drew under that policy.

@@ -11,14 +11,21 @@ import { ApiClient, type ErrorBody } from "./support/http-client";
 
 const root = path.resolve(__dirname, "../..");
 const dataDir = path.resolve(root, process.env.EMBERLINE_DATA_DIR ?? ".data", "postgres");
-const pgPort = Number(process.env.EMBERLINE_PG_PORT ?? new URL(process.env.DATABASE_URL ?? "postgres://x@127.0.0.1:54329/x").port);
+const pgPort = Number(
+  process.env.EMBERLINE_PG_PORT ??
+    new URL(process.env.DATABASE_URL ?? "postgres://x@127.0.0.1:54329/x").port,
+);
 const clusterModule = path.join(root, "db", "cluster.mjs");
 
 /** Runs a snippet against db/cluster.mjs in a plain Node process (the script is plain ESM JavaScript). */
 function cluster(snippet: string): void {
   const script = `import * as c from ${JSON.stringify(clusterModule)};\n${snippet}`;
-  const result = spawnSync(process.execPath, ["--input-type=module", "-e", script], { encoding: "utf8", timeout: 90_000 });
-  if (result.status !== 0) throw new Error(`cluster step failed: ${result.stderr || result.stdout}`);
+  const result = spawnSync(process.execPath, ["--input-type=module", "-e", script], {
+    encoding: "utf8",
+    timeout: 90_000,
+  });
+  if (result.status !== 0)
+    throw new Error(`cluster step failed: ${result.stderr || result.stdout}`);
 }
 
 function stopDatabase(): void {
@@ -59,9 +66,17 @@ describe("a database outage", () => {
     const chemist = await signInDemo("chemist");
     const teamId = await teamIdOf(chemist, FLAME_SCREENING);
     const anonymous = new ApiClient();
-    const healthy = await anonymous.get<{ status: string; app: { status: string }; database: { status: string } }>("/api/health");
+    const healthy = await anonymous.get<{
+      status: string;
+      app: { status: string };
+      database: { status: string };
+    }>("/api/health");
     expect(healthy.status).toBe(200);
-    expect(healthy.body).toMatchObject({ status: "ok", app: { status: "ok" }, database: { status: "ok" } });
+    expect(healthy.body).toMatchObject({
+      status: "ok",
+      app: { status: "ok" },
+      database: { status: "ok" },
+    });
     // No addresses, versions or connection strings in the health answer.
     expect(JSON.stringify(healthy.body)).not.toMatch(/postgres|127\.0\.0\.1|password|version/i);
 
@@ -72,12 +87,26 @@ describe("a database outage", () => {
     const health = await waitForHealth(anonymous, 503, 10_000);
     expect(health.status).toBe(503);
     expect(Number(health.headers.get("retry-after"))).toBeGreaterThan(0);
-    expect(health.body).toMatchObject({ status: "unavailable", app: { status: "ok" }, database: { status: "unreachable" } });
+    expect(health.body).toMatchObject({
+      status: "unavailable",
+      app: { status: "ok" },
+      database: { status: "unreachable" },
+    });
 
     const read = await chemist.get<ErrorBody>("/api/me");
-    const write = await chemist.post<ErrorBody>("/api/notebooks", { teamId, title: "written during an outage" });
-    const signIn = await anonymous.post<ErrorBody>("/api/session", { email: "nobody-during-outage@test.emberline.example", password: "not the password" });
-    for (const [what, reply] of [["read", read], ["write", write], ["sign-in", signIn]] as const) {
+    const write = await chemist.post<ErrorBody>("/api/notebooks", {
+      teamId,
+      title: "written during an outage",
+    });
+    const signIn = await anonymous.post<ErrorBody>("/api/session", {
+      email: "nobody-during-outage@test.emberline.example",
+      password: "not the password",
+    });
+    for (const [what, reply] of [
+      ["read", read],
+      ["write", write],
+      ["sign-in", signIn],
+    ] as const) {
       expect(reply.status, `${what}: ${JSON.stringify(reply.body)}`).toBe(503);
       expect(Number(reply.headers.get("retry-after")), what).toBeGreaterThan(0);
       expect(reply.body.error.code).toBe("unavailable");
@@ -93,7 +122,9 @@ describe("a database outage", () => {
     // The same session works again, and the write refused during the outage was never stored.
     const me = await chemist.get("/api/me");
     expect(me.status).toBe(200);
-    const notebooks = await chemist.get<{ title: string }[] | { notebooks: { title: string }[] }>(`/api/notebooks?teamId=${teamId}`);
+    const notebooks = await chemist.get<{ title: string }[] | { notebooks: { title: string }[] }>(
+      `/api/notebooks?teamId=${teamId}`,
+    );
     expect(notebooks.status).toBe(200);
     expect(JSON.stringify(notebooks.body)).not.toContain("written during an outage");
   });

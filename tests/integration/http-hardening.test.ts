@@ -24,11 +24,22 @@ interface EarlyAnswer {
  * Sends a chunked body (no Content-Length) of `totalBytes` in `chunkBytes` pieces, waiting for the
  * socket to drain and a moment between pieces, and stops as soon as an answer arrives.
  */
-function sendChunked(path: string, totalBytes: number, chunkBytes: number, headers: Record<string, string> = {}): Promise<EarlyAnswer> {
+function sendChunked(
+  path: string,
+  totalBytes: number,
+  chunkBytes: number,
+  headers: Record<string, string> = {},
+): Promise<EarlyAnswer> {
   return new Promise((resolve, reject) => {
     let sentBytes = 0;
     let answered = false;
-    const request = http.request({ hostname, port, path, method: "POST", headers: { "content-type": "application/json", ...headers } });
+    const request = http.request({
+      hostname,
+      port,
+      path,
+      method: "POST",
+      headers: { "content-type": "application/json", ...headers },
+    });
     request.on("response", (response) => {
       answered = true;
       const finished = sentBytes >= totalBytes;
@@ -58,7 +69,10 @@ function sendChunked(path: string, totalBytes: number, chunkBytes: number, heade
 }
 
 /** Sends only the head of a request that declares a huge body, and waits for the answer. */
-function declareHugeBody(path: string, declaredBytes: number): Promise<{ status: number; body: string }> {
+function declareHugeBody(
+  path: string,
+  declaredBytes: number,
+): Promise<{ status: number; body: string }> {
   return new Promise((resolve, reject) => {
     const request = http.request({
       hostname,
@@ -108,7 +122,9 @@ describe("security headers", () => {
 
   it("the password-confirmed sign-off page cannot be framed", async () => {
     const supervisor = await signInDemo("supervisor");
-    const response = await fetch(`${APP_URL}/review`, { headers: { cookie: `emberline_session=${supervisor.cookie("emberline_session")}` } });
+    const response = await fetch(`${APP_URL}/review`, {
+      headers: { cookie: `emberline_session=${supervisor.cookie("emberline_session")}` },
+    });
     expect(response.status).toBe(200);
     expect(response.headers.get("content-security-policy")).toContain("frame-ancestors 'none'");
     expect(response.headers.get("x-frame-options")).toBe("DENY");
@@ -120,7 +136,9 @@ describe("security headers", () => {
     expect(me.status).toBe(200);
     expect(me.headers.get("cache-control")).toBe("no-store");
     expect(me.headers.get("x-content-type-options")).toBe("nosniff");
-    expect(me.headers.get("content-security-policy")).toBe("default-src 'none'; frame-ancestors 'none'");
+    expect(me.headers.get("content-security-policy")).toBe(
+      "default-src 'none'; frame-ancestors 'none'",
+    );
     const anonymous = await new ApiClient().get("/api/me");
     expect(anonymous.status).toBe(401);
     expect(anonymous.headers.get("cache-control")).toBe("no-store");
@@ -132,7 +150,9 @@ describe("request bodies over their cap", () => {
     const started = Date.now();
     const reply = await declareHugeBody("/api/session", 200 * 1024 * 1024);
     expect(reply.status).toBe(413);
-    expect((JSON.parse(reply.body) as ErrorBody).error.message).toBe("The request body is larger than the 4 KB this address accepts.");
+    expect((JSON.parse(reply.body) as ErrorBody).error.message).toBe(
+      "The request body is larger than the 4 KB this address accepts.",
+    );
     expect(Date.now() - started).toBeLessThan(10_000);
   });
 
@@ -153,32 +173,51 @@ describe("request bodies over their cap", () => {
     expect(answer.status).toBe(413);
     expect(answer.finished).toBe(false);
     expect(answer.sentBytes).toBeLessThan(total / 2);
-    expect((JSON.parse(answer.body) as ErrorBody).error.message).toBe("The upload is larger than the 16 MB a spectrum file may have.");
+    expect((JSON.parse(answer.body) as ErrorBody).error.message).toBe(
+      "The upload is larger than the 16 MB a spectrum file may have.",
+    );
   });
 
   it("a small JSON route refuses a 20 MB body before reading it", async () => {
     const chemist = await signInDemo("chemist");
-    const reply = await chemist.request<ErrorBody>("POST", "/api/notebooks", { rawBody: JSON.stringify({ title: "x".repeat(20 * 1024 * 1024) }) });
+    const reply = await chemist.request<ErrorBody>("POST", "/api/notebooks", {
+      rawBody: JSON.stringify({ title: "x".repeat(20 * 1024 * 1024) }),
+    });
     expect(reply.status).toBe(413);
-    expect(reply.body.error.message).toBe("The request body is larger than the 128 KB this address accepts.");
+    expect(reply.body.error.message).toBe(
+      "The request body is larger than the 128 KB this address accepts.",
+    );
   });
 });
 
 describe("hostile ids and values", () => {
   it("a broken %-escape as an id answers a clean 400 on API and page routes, never Next's plain 500", async () => {
     const chemist = await signInDemo("chemist");
-    for (const path of ["/api/runs/%C0%AF", "/api/notebooks/%C0%AF/runs", "/api/releases/%E0%A4%A/export", "/api/spectra/%FF"]) {
+    for (const path of [
+      "/api/runs/%C0%AF",
+      "/api/notebooks/%C0%AF/runs",
+      "/api/releases/%E0%A4%A/export",
+      "/api/spectra/%FF",
+    ]) {
       const reply = await chemist.get<ErrorBody>(path);
       expect(reply.status, path).toBe(400);
       expect(reply.body.error.code).toBe("validation");
     }
-    const page = await fetch(`${APP_URL}/runs/%C0%AF`, { headers: { cookie: `emberline_session=${chemist.cookie("emberline_session")}` }, redirect: "manual" });
+    const page = await fetch(`${APP_URL}/runs/%C0%AF`, {
+      headers: { cookie: `emberline_session=${chemist.cookie("emberline_session")}` },
+      redirect: "manual",
+    });
     expect(page.status).toBe(400);
   });
 
   it("an id that is not a UUID answers 404 on every kind of id route", async () => {
     const chemist = await signInDemo("chemist");
-    for (const path of ["/api/runs/1", "/api/runs/..%2f..%2fetc", "/api/instruments/abc", "/api/tokens/not-a-uuid"]) {
+    for (const path of [
+      "/api/runs/1",
+      "/api/runs/..%2f..%2fetc",
+      "/api/instruments/abc",
+      "/api/tokens/not-a-uuid",
+    ]) {
       const method = path.startsWith("/api/tokens") ? "DELETE" : "GET";
       expect((await chemist.request(method, path)).status, path).toBe(404);
     }
@@ -191,7 +230,9 @@ describe("hostile ids and values", () => {
     expect(token.status).toBe(400);
     expect(token.body.error.fieldErrors?.name?.[0]).toMatch(/control characters/);
     // A lone surrogate written as a JSON escape reaches the server as one.
-    const notebook = await chemist.request<ErrorBody>("POST", "/api/notebooks", { rawBody: `{"teamId":"${teamId}","title":"flame \\ud800"}` });
+    const notebook = await chemist.request<ErrorBody>("POST", "/api/notebooks", {
+      rawBody: `{"teamId":"${teamId}","title":"flame \\ud800"}`,
+    });
     expect(notebook.status).toBe(400);
     expect(notebook.body.error.fieldErrors?.title).toBeDefined();
   });

@@ -13,12 +13,18 @@ describe("chartConfig", () => {
     expect(config.sendData).toBe(false);
     expect(config.displaylogo).toBe(false);
     expect(config.plotlyServerURL).toBe("");
-    expect(config.modeBarButtonsToRemove).toEqual(expect.arrayContaining(["sendChartToCloud", "sendDataToCloud"]));
+    expect(config.modeBarButtonsToRemove).toEqual(
+      expect.arrayContaining(["sendChartToCloud", "sendDataToCloud"]),
+    );
     expect(OUTSIDE_SERVICE_BUTTONS).toEqual(["sendChartToCloud", "sendDataToCloud"]);
   });
 
   it("keeps the PNG export under the chart's own file name", () => {
-    expect(config.toImageButtonOptions).toEqual({ format: "png", filename: "lamp-calibration", scale: 2 });
+    expect(config.toImageButtonOptions).toEqual({
+      format: "png",
+      filename: "lamp-calibration",
+      scale: 2,
+    });
   });
 
   it("names no outside address anywhere in the config", () => {

@@ -12,11 +12,27 @@ function named(name: string, message = "x", extra: Record<string, unknown> = {})
 
 describe("database outages", () => {
   it.each([
-    ["Sequelize's refused connection", named("SequelizeConnectionRefusedError", "connect ECONNREFUSED 127.0.0.1:5432")],
+    [
+      "Sequelize's refused connection",
+      named("SequelizeConnectionRefusedError", "connect ECONNREFUSED 127.0.0.1:5432"),
+    ],
     ["Sequelize's pool timeout", named("SequelizeConnectionAcquireTimeoutError")],
-    ["a dropped connection mid-query", named("SequelizeDatabaseError", "Connection terminated unexpectedly", { parent: new Error("Connection terminated unexpectedly") })],
-    ["the server shutting down (57P01)", named("SequelizeDatabaseError", "terminating connection", { parent: Object.assign(new Error("x"), { code: "57P01" }) })],
-    ["the server starting up (57P03)", Object.assign(new Error("the database system is starting up"), { code: "57P03" })],
+    [
+      "a dropped connection mid-query",
+      named("SequelizeDatabaseError", "Connection terminated unexpectedly", {
+        parent: new Error("Connection terminated unexpectedly"),
+      }),
+    ],
+    [
+      "the server shutting down (57P01)",
+      named("SequelizeDatabaseError", "terminating connection", {
+        parent: Object.assign(new Error("x"), { code: "57P01" }),
+      }),
+    ],
+    [
+      "the server starting up (57P03)",
+      Object.assign(new Error("the database system is starting up"), { code: "57P03" }),
+    ],
     ["a socket reset", Object.assign(new Error("read ECONNRESET"), { code: "ECONNRESET" })],
   ])("%s answers 503 with Retry-After", async (_name, error) => {
     const spy = vi.spyOn(console, "error").mockImplementation(() => {});
@@ -31,7 +47,13 @@ describe("database outages", () => {
   });
 
   it("a constraint violation or a bug is not mistaken for an outage", () => {
-    expect(isDatabaseUnavailable(named("SequelizeUniqueConstraintError", "duplicate key", { parent: Object.assign(new Error("x"), { code: "23505" }) }))).toBe(false);
+    expect(
+      isDatabaseUnavailable(
+        named("SequelizeUniqueConstraintError", "duplicate key", {
+          parent: Object.assign(new Error("x"), { code: "23505" }),
+        }),
+      ),
+    ).toBe(false);
     expect(isDatabaseUnavailable(new TypeError("undefined is not a function"))).toBe(false);
     const spy = vi.spyOn(console, "error").mockImplementation(() => {});
     expect(toResponse(new TypeError("boom")).status).toBe(500);
@@ -39,7 +61,9 @@ describe("database outages", () => {
   });
 
   it("a value the database cannot store answers 400", () => {
-    const error = named("SequelizeDatabaseError", "invalid byte sequence", { parent: Object.assign(new Error("x"), { code: "22021" }) });
+    const error = named("SequelizeDatabaseError", "invalid byte sequence", {
+      parent: Object.assign(new Error("x"), { code: "22021" }),
+    });
     expect(toResponse(error).status).toBe(400);
   });
 });

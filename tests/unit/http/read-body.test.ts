@@ -6,20 +6,32 @@ import { AppError } from "@/lib/errors";
 import { bodyText, formatByteCap, readBody } from "@/lib/http/read-body";
 
 /** A request whose body is produced chunk by chunk; `pulled` counts the chunks the reader asked for. */
-function streamingRequest(chunkBytes: number, chunks: number, { delayMs = 0, headers = {} as Record<string, string> } = {}) {
+function streamingRequest(
+  chunkBytes: number,
+  chunks: number,
+  { delayMs = 0, headers = {} as Record<string, string> } = {},
+) {
   const state = { pulled: 0, cancelled: false };
-  const body = new ReadableStream<Uint8Array>({
-    async pull(controller) {
-      if (state.pulled === chunks) return controller.close();
-      state.pulled++;
-      if (delayMs) await new Promise((resolve) => setTimeout(resolve, delayMs));
-      controller.enqueue(new Uint8Array(chunkBytes).fill(120));
+  const body = new ReadableStream<Uint8Array>(
+    {
+      async pull(controller) {
+        if (state.pulled === chunks) return controller.close();
+        state.pulled++;
+        if (delayMs) await new Promise((resolve) => setTimeout(resolve, delayMs));
+        controller.enqueue(new Uint8Array(chunkBytes).fill(120));
+      },
+      cancel() {
+        state.cancelled = true;
+      },
     },
-    cancel() {
-      state.cancelled = true;
-    },
-  }, { highWaterMark: 0 });
-  const request = new Request("http://127.0.0.1/api/x", { method: "POST", body, headers, duplex: "half" } as RequestInit);
+    { highWaterMark: 0 },
+  );
+  const request = new Request("http://127.0.0.1/api/x", {
+    method: "POST",
+    body,
+    headers,
+    duplex: "half",
+  } as RequestInit);
   return { request, state };
 }
 
@@ -34,7 +46,9 @@ async function failure(promise: Promise<unknown>): Promise<AppError> {
 
 describe("readBody", () => {
   it("refuses a declared Content-Length over the cap without reading the body", async () => {
-    const { request, state } = streamingRequest(1024, 100, { headers: { "content-length": String(100 * 1024) } });
+    const { request, state } = streamingRequest(1024, 100, {
+      headers: { "content-length": String(100 * 1024) },
+    });
     const error = await failure(readBody(request, { maxBytes: 4096 }));
     expect(error.status).toBe(413);
     expect(error.message).toBe("The request body is larger than the 4 KB this address accepts.");
@@ -67,13 +81,21 @@ describe("readBody", () => {
   });
 
   it("uses the route's own sentence for the 413 when it has one", async () => {
-    const request = new Request("http://127.0.0.1/api/x", { method: "POST", body: "x".repeat(100) });
-    const error = await failure(readBody(request, { maxBytes: 10, tooLargeMessage: "Files of up to 16 MB." }));
+    const request = new Request("http://127.0.0.1/api/x", {
+      method: "POST",
+      body: "x".repeat(100),
+    });
+    const error = await failure(
+      readBody(request, { maxBytes: 10, tooLargeMessage: "Files of up to 16 MB." }),
+    );
     expect(error.message).toBe("Files of up to 16 MB.");
   });
 
   it("refuses bytes that are not UTF-8 where text is expected", async () => {
-    const request = new Request("http://127.0.0.1/api/x", { method: "POST", body: new Uint8Array([0x7b, 0xc0, 0xaf, 0x7d]) });
+    const request = new Request("http://127.0.0.1/api/x", {
+      method: "POST",
+      body: new Uint8Array([0x7b, 0xc0, 0xaf, 0x7d]),
+    });
     expect((await failure(bodyText(request))).status).toBe(400);
   });
 });

@@ -16,10 +16,16 @@ const require = createRequire(import.meta.url);
 
 describe("pageContentSecurityPolicy", () => {
   const policy = pageContentSecurityPolicy("abc123==");
-  const directives = new Map(policy.split("; ").map((d) => [d.split(" ")[0], d.split(" ").slice(1)]));
+  const directives = new Map(
+    policy.split("; ").map((d) => [d.split(" ")[0], d.split(" ").slice(1)]),
+  );
 
   it("runs scripts only with the nonce (no unsafe-inline, no unsafe-eval in production)", () => {
-    expect(directives.get("script-src")).toEqual(["'self'", "'nonce-abc123=='", "'strict-dynamic'"]);
+    expect(directives.get("script-src")).toEqual([
+      "'self'",
+      "'nonce-abc123=='",
+      "'strict-dynamic'",
+    ]);
     expect(policy).not.toContain("unsafe-eval");
     expect(pageContentSecurityPolicy("n", { development: true })).toContain("'unsafe-eval'");
   });
@@ -52,7 +58,9 @@ describe("newNonce", () => {
 
 describe("strictTransportSecurity", () => {
   it("is sent only when the app's address is https", () => {
-    expect(strictTransportSecurity("https://emberline.lab.example")).toBe("max-age=31536000; includeSubDomains");
+    expect(strictTransportSecurity("https://emberline.lab.example")).toBe(
+      "max-age=31536000; includeSubDomains",
+    );
     expect(strictTransportSecurity("http://127.0.0.1:3000")).toBeNull();
     expect(strictTransportSecurity(undefined)).toBeNull();
   });
@@ -60,7 +68,9 @@ describe("strictTransportSecurity", () => {
 
 describe("next.config.js headers", () => {
   it("match lib/http/security-headers.ts", async () => {
-    const config = require("../../../next.config.js") as { headers: () => Promise<{ source: string; headers: { key: string; value: string }[] }[]> };
+    const config = require("../../../next.config.js") as {
+      headers: () => Promise<{ source: string; headers: { key: string; value: string }[] }[]>;
+    };
     const rules = await config.headers();
     expect(rules.find((r) => r.source === "/:path*")?.headers).toEqual(FIXED_SECURITY_HEADERS);
     expect(rules.find((r) => r.source === "/api/:path*")?.headers).toEqual([

@@ -5,10 +5,13 @@ import { formatLineTableCsv, parseLineTableCsv } from "@/lib/lines";
 import { guardFormulaCell, unguardFormulaCell } from "@/lib/reports/formula-guard";
 
 describe("guardFormulaCell", () => {
-  it.each(["=HYPERLINK(\"http://evil.example\",\"x\")", "+1", "-2+3", "@SUM(A1)", "\tx", "\rx"])("prefixes %j", (cell) => {
-    expect(guardFormulaCell(cell)).toBe(`'${cell}`);
-    expect(unguardFormulaCell(guardFormulaCell(cell))).toBe(cell);
-  });
+  it.each(['=HYPERLINK("http://evil.example","x")', "+1", "-2+3", "@SUM(A1)", "\tx", "\rx"])(
+    "prefixes %j",
+    (cell) => {
+      expect(guardFormulaCell(cell)).toBe(`'${cell}`);
+      expect(unguardFormulaCell(guardFormulaCell(cell))).toBe(cell);
+    },
+  );
   it("leaves ordinary text alone", () => {
     expect(guardFormulaCell("Kramida 2020")).toBe("Kramida 2020");
     expect(unguardFormulaCell("it's fine")).toBe("it's fine");
@@ -39,7 +42,8 @@ describe("the line table CSV (release export)", () => {
     ] as unknown as Parameters<typeof formatLineTableCsv>[0]);
     const dataLine = csv.split("\n").find((line) => line.startsWith("Na I"))!;
     expect(dataLine).toContain(`'=HYPERLINK`);
-    for (const cell of dataLine.split(/,(?=(?:[^"]*"[^"]*")*[^"]*$)/)) expect(cell.replace(/^"/, "")).not.toMatch(/^[=+@\t\r]/);
+    for (const cell of dataLine.split(/,(?=(?:[^"]*"[^"]*")*[^"]*$)/))
+      expect(cell.replace(/^"/, "")).not.toMatch(/^[=+@\t\r]/);
     const parsed = parseLineTableCsv(csv);
     expect(parsed.rows[0]?.source).toBe('=HYPERLINK("http://evil.example/","click")');
     expect(parsed.rows[0]?.note).toBe("@cmd|' /C calc'!A0");

@@ -4,7 +4,10 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { auditQuerySchema } from "@/lib/validation/audit-schemas";
-import { spectrumUploadFieldsSchema, notebookCreateSchema } from "@/lib/validation/workflow-schemas";
+import {
+  spectrumUploadFieldsSchema,
+  notebookCreateSchema,
+} from "@/lib/validation/workflow-schemas";
 import { tokenCreateSchema } from "@/lib/validation/account-schemas";
 import { cleanText, isCleanText, text } from "@/lib/validation/text";
 
@@ -20,12 +23,13 @@ describe("isCleanText", () => {
     expect(isCleanText(value)).toBe(false);
   });
 
-  it.each([["tab, LF, CR", "a\tb\nc\r\n"], ["accents and Greek", "Hα 656.28 nm, Ångström"], ["an emoji (a surrogate pair)", "flame 🔥"]])(
-    "accepts %s",
-    (_name, value) => {
-      expect(isCleanText(value)).toBe(true);
-    },
-  );
+  it.each([
+    ["tab, LF, CR", "a\tb\nc\r\n"],
+    ["accents and Greek", "Hα 656.28 nm, Ångström"],
+    ["an emoji (a surrogate pair)", "flame 🔥"],
+  ])("accepts %s", (_name, value) => {
+    expect(isCleanText(value)).toBe(true);
+  });
 
   it("cleanText always yields clean text and leaves clean text alone", () => {
     fc.assert(
@@ -51,10 +55,16 @@ describe("isCleanText", () => {
 
 describe("schemas built on text()", () => {
   it("a label, a notebook title and a token name refuse NUL and lone surrogates with a field message", () => {
-    const upload = spectrumUploadFieldsSchema.safeParse({ instrumentId: crypto.randomUUID(), kind: "sample", label: "x\u0000" });
+    const upload = spectrumUploadFieldsSchema.safeParse({
+      instrumentId: crypto.randomUUID(),
+      kind: "sample",
+      label: "x\u0000",
+    });
     expect(upload.success).toBe(false);
     expect(upload.error?.issues[0]?.path).toEqual(["label"]);
-    expect(notebookCreateSchema.safeParse({ teamId: crypto.randomUUID(), title: "\ud800" }).success).toBe(false);
+    expect(
+      notebookCreateSchema.safeParse({ teamId: crypto.randomUUID(), title: "\ud800" }).success,
+    ).toBe(false);
     expect(tokenCreateSchema.safeParse({ name: "ci\u0000" }).success).toBe(false);
     expect(tokenCreateSchema.safeParse({ name: "ci 🔥" }).success).toBe(true);
   });
