@@ -14,7 +14,15 @@ const SEQUELIZE_CONNECTION_NAMES = new Set([
 ]);
 
 /** Socket errors of a connection that is gone or cannot be opened. */
-const SOCKET_CODES = new Set(["ECONNREFUSED", "ECONNRESET", "EPIPE", "ETIMEDOUT", "EHOSTUNREACH", "ENOTFOUND", "EAI_AGAIN"]);
+const SOCKET_CODES = new Set([
+  "ECONNREFUSED",
+  "ECONNRESET",
+  "EPIPE",
+  "ETIMEDOUT",
+  "EHOSTUNREACH",
+  "ENOTFOUND",
+  "EAI_AGAIN",
+]);
 
 /**
  * PostgreSQL's SQLSTATEs for "the server is going away or not there yet": class 08 (connection
@@ -25,16 +33,34 @@ function isUnavailableSqlState(code: string): boolean {
 }
 
 /** pg's own messages when a connection drops mid-query or the client was ended. */
-const LOST_CONNECTION_MESSAGE = /Connection terminated|Client has encountered a connection error|connection is closed|Client was closed/i;
+const LOST_CONNECTION_MESSAGE =
+  /Connection terminated|Client has encountered a connection error|connection is closed|Client was closed/i;
 
 export function isDatabaseUnavailable(error: unknown, depth = 0): boolean {
   if (!error || typeof error !== "object" || depth > 4) return false;
   const { name, code, message } = error as { name?: unknown; code?: unknown; message?: unknown };
   if (typeof name === "string" && SEQUELIZE_CONNECTION_NAMES.has(name)) return true;
-  if (typeof code === "string" && (SOCKET_CODES.has(code) || (/^[0-9A-Z]{5}$/.test(code) && isUnavailableSqlState(code)))) return true;
+  if (
+    typeof code === "string" &&
+    (SOCKET_CODES.has(code) || (/^[0-9A-Z]{5}$/.test(code) && isUnavailableSqlState(code)))
+  )
+    return true;
   if (typeof message === "string" && LOST_CONNECTION_MESSAGE.test(message)) return true;
   // Sequelize wraps the driver's error in `parent`/`original`; AggregateError lists several.
-  const wrapped = error as { parent?: unknown; original?: unknown; cause?: unknown; errors?: unknown };
-  if ([wrapped.parent, wrapped.original, wrapped.cause].some((inner) => isDatabaseUnavailable(inner, depth + 1))) return true;
-  return Array.isArray(wrapped.errors) && wrapped.errors.some((inner) => isDatabaseUnavailable(inner, depth + 1));
+  const wrapped = error as {
+    parent?: unknown;
+    original?: unknown;
+    cause?: unknown;
+    errors?: unknown;
+  };
+  if (
+    [wrapped.parent, wrapped.original, wrapped.cause].some((inner) =>
+      isDatabaseUnavailable(inner, depth + 1),
+    )
+  )
+    return true;
+  return (
+    Array.isArray(wrapped.errors) &&
+    wrapped.errors.some((inner) => isDatabaseUnavailable(inner, depth + 1))
+  );
 }

@@ -2,7 +2,6 @@
 // Server actions of the signed-out pages: sign in, ask for a reset link, reset, accept an invitation.
 import { headers } from "next/headers";
 import { redirect } from "next/navigation";
-import { z } from "zod";
 import { text } from "@/lib/validation/text";
 import { startSession } from "@/lib/auth/session";
 import { loadActor, requestPasswordReset, resetPassword, signIn } from "@/lib/services/accounts";

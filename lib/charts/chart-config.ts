@@ -7,10 +7,18 @@ import type { Config, ModeBarDefaultButtons } from "plotly.js";
  * Modebar buttons that send a chart or its data to an outside service: Plotly 4's "Share chart…"
  * and the name the same button had before (the types know only the current one).
  */
-export const OUTSIDE_SERVICE_BUTTONS = ["sendChartToCloud", "sendDataToCloud"] as unknown as ModeBarDefaultButtons[];
+export const OUTSIDE_SERVICE_BUTTONS = [
+  "sendChartToCloud",
+  "sendDataToCloud",
+] as unknown as ModeBarDefaultButtons[];
 
 /** Keys of older Plotly versions that put a "send to the cloud" link under the chart; Plotly 4 ignores them. */
-const LEGACY_LINK_KEYS = { showLink: false, sendData: false, linkText: "", showEditInChartStudio: false } as Partial<Config>;
+const LEGACY_LINK_KEYS = {
+  showLink: false,
+  sendData: false,
+  linkText: "",
+  showEditInChartStudio: false,
+} as Partial<Config>;
 
 export function chartConfig(fileName: string): Partial<Config> {
   return {

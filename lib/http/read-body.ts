@@ -36,7 +36,11 @@ export function formatByteCap(bytes: number): string {
 }
 
 export function tooLarge(maxBytes: number, message?: string): AppError {
-  return new AppError("too_large", message ?? `The request body is larger than the ${formatByteCap(maxBytes)} this address accepts.`);
+  return new AppError(
+    "too_large",
+    message ??
+      `The request body is larger than the ${formatByteCap(maxBytes)} this address accepts.`,
+  );
 }
 
 const bodies = new WeakMap<Request, Promise<Uint8Array>>();
@@ -76,7 +80,8 @@ async function readCapped(
   const declared = request.headers.get("content-length");
   if (declared !== null) {
     const length = Number(declared);
-    if (!Number.isSafeInteger(length) || length < 0) throw new AppError("validation", "The Content-Length header is not a number.");
+    if (!Number.isSafeInteger(length) || length < 0)
+      throw new AppError("validation", "The Content-Length header is not a number.");
     if (length > maxBytes) throw tooLarge(maxBytes, tooLargeMessage);
   }
   if (!request.body) return new Uint8Array(0);
@@ -86,7 +91,13 @@ async function readCapped(
   let timer: ReturnType<typeof setTimeout> | undefined;
   const deadline = new Promise<never>((_, reject) => {
     timer = setTimeout(
-      () => reject(new AppError("timeout", `The request body did not arrive within ${Math.round(timeoutMs / 1000)} s.`)),
+      () =>
+        reject(
+          new AppError(
+            "timeout",
+            `The request body did not arrive within ${Math.round(timeoutMs / 1000)} s.`,
+          ),
+        ),
       timeoutMs,
     );
   });

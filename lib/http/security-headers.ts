@@ -9,7 +9,8 @@ export const FIXED_SECURITY_HEADERS: ReadonlyArray<{ key: string; value: string 
   // The app uses none of these; a page that someone manages to inject cannot ask for them either.
   {
     key: "Permissions-Policy",
-    value: "camera=(), microphone=(), geolocation=(), payment=(), usb=(), serial=(), bluetooth=(), interest-cohort=()",
+    value:
+      "camera=(), microphone=(), geolocation=(), payment=(), usb=(), serial=(), bluetooth=(), interest-cohort=()",
   },
   // For browsers older than CSP's frame-ancestors.
   { key: "X-Frame-Options", value: "DENY" },
@@ -33,7 +34,10 @@ export interface PagePolicyOptions {
  * Next's chunks and the chart library); styles allow inline attributes because Plotly draws with
  * them; images allow data: and blob: for the charts' PNG export; nothing may frame a page.
  */
-export function pageContentSecurityPolicy(nonce: string, { development = false, https = false }: PagePolicyOptions = {}): string {
+export function pageContentSecurityPolicy(
+  nonce: string,
+  { development = false, https = false }: PagePolicyOptions = {},
+): string {
   const directives = [
     "default-src 'self'",
     `script-src 'self' 'nonce-${nonce}' 'strict-dynamic'${development ? " 'unsafe-eval'" : ""}`,

@@ -20,7 +20,10 @@ export async function checkHealth(): Promise<HealthReport> {
     await Promise.race([
       sequelize.query("SELECT 1"),
       new Promise((_, reject) => {
-        timer = setTimeout(() => reject(new Error("database check timed out")), DATABASE_CHECK_TIMEOUT_MS);
+        timer = setTimeout(
+          () => reject(new Error("database check timed out")),
+          DATABASE_CHECK_TIMEOUT_MS,
+        );
       }),
     ]);
     reachable = true;
@@ -32,6 +35,9 @@ export async function checkHealth(): Promise<HealthReport> {
   return {
     status: reachable ? "ok" : "unavailable",
     app: { status: "ok", uptimeS: Math.round(process.uptime()) },
-    database: { status: reachable ? "ok" : "unreachable", latencyMs: reachable ? Math.round(performance.now() - started) : null },
+    database: {
+      status: reachable ? "ok" : "unreachable",
+      latencyMs: reachable ? Math.round(performance.now() - started) : null,
+    },
   };
 }

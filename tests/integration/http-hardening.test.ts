@@ -237,6 +237,27 @@ describe("hostile ids and values", () => {
     expect(notebook.body.error.fieldErrors?.title).toBeDefined();
   });
 
+  it("a server action posted from another site answers 403, not Next's 500", async () => {
+    const chemist = await signInDemo("chemist");
+    const post = (origin: string) =>
+      fetch(`${APP_URL}/notebooks`, {
+        method: "POST",
+        headers: {
+          "next-action": "0".repeat(40),
+          origin,
+          "content-type": "text/plain;charset=UTF-8",
+          cookie: `emberline_session=${chemist.cookie("emberline_session")}`,
+        },
+        body: "[]",
+        redirect: "manual",
+      });
+    const foreign = await post("http://evil.example");
+    expect(foreign.status).toBe(403);
+    expect(await foreign.text()).toBe("Cross-site form posts are not accepted.");
+    // From our own origin the same (unknown) action is Next's to answer, and not with a 403.
+    expect((await post(APP_URL)).status).not.toBe(403);
+  });
+
   it("the audit trail refuses a date beyond its range with 400", async () => {
     const lead = await signInDemo("labLead");
     const reply = await lead.get<ErrorBody>("/api/audit?to=9999-12-31");

@@ -9,5 +9,8 @@ export const dynamic = "force-dynamic";
 export const GET = apiRoute(async () => {
   const report = await checkHealth();
   if (report.status === "ok") return Response.json(report);
-  return Response.json(report, { status: 503, headers: { "Retry-After": String(DATABASE_RETRY_AFTER_SECONDS) } });
+  return Response.json(report, {
+    status: 503,
+    headers: { "Retry-After": String(DATABASE_RETRY_AFTER_SECONDS) },
+  });
 });

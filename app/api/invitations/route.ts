@@ -4,8 +4,11 @@ import { ACCOUNT_BODY_BYTES } from "@/lib/http/read-body";
 import { inviteMember } from "@/lib/services/teams";
 import { invitationSchema } from "@/lib/validation/account-schemas";
 
-export const POST = apiRoute(async (request) => {
-  const actor = await requireActor();
-  const input = await parseJson(request, invitationSchema);
-  return Response.json(await inviteMember(actor, input), { status: 201 });
-}, { maxBodyBytes: ACCOUNT_BODY_BYTES });
+export const POST = apiRoute(
+  async (request) => {
+    const actor = await requireActor();
+    const input = await parseJson(request, invitationSchema);
+    return Response.json(await inviteMember(actor, input), { status: 201 });
+  },
+  { maxBodyBytes: ACCOUNT_BODY_BYTES },
+);

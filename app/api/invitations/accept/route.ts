@@ -6,9 +6,12 @@ import { loadActor } from "@/lib/services/accounts";
 import { acceptInvitation } from "@/lib/services/teams";
 import { acceptInvitationSchema } from "@/lib/validation/account-schemas";
 
-export const POST = apiRoute(async (request) => {
-  const input = await parseJson(request, acceptInvitationSchema);
-  const userId = await acceptInvitation(input);
-  await startSession((await loadActor(userId))!);
-  return Response.json({ userId }, { status: 201 });
-}, { maxBodyBytes: ACCOUNT_BODY_BYTES });
+export const POST = apiRoute(
+  async (request) => {
+    const input = await parseJson(request, acceptInvitationSchema);
+    const userId = await acceptInvitation(input);
+    await startSession((await loadActor(userId))!);
+    return Response.json({ userId }, { status: 201 });
+  },
+  { maxBodyBytes: ACCOUNT_BODY_BYTES },
+);
