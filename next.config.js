@@ -1,5 +1,5 @@
 // Next.js settings: Sequelize stays outside the server bundle (it loads dialects dynamically), and so does pdfkit (fontkit and its font data load from node_modules).
-// Security headers: the fixed ones on every path, and no caching and no framing of API answers; the pages'
+// Security headers: the fixed ones on every path, and no framing of API answers; the pages'
 // Content-Security-Policy (with its per-request nonce) and HSTS come from proxy.ts. The values live in
 // lib/http/security-headers.ts; this file is plain JavaScript, so they are repeated here and a unit test
 // (tests/unit/http/security-headers.test.ts) keeps the two the same.
@@ -12,10 +12,9 @@ const FIXED_SECURITY_HEADERS = [
   },
   { key: "X-Frame-Options", value: "DENY" },
 ];
-const API_HEADERS = [
-  { key: "Cache-Control", value: "no-store" },
-  { key: "Content-Security-Policy", value: "default-src 'none'; frame-ancestors 'none'" },
-];
+// Cache-Control: no-store is set by lib/http/api-handler.ts, so that a route's own value (the reports'
+// "private, no-store") is not overwritten by this file's.
+const API_HEADERS = [{ key: "Content-Security-Policy", value: "default-src 'none'; frame-ancestors 'none'" }];
 
 /** @type {import('next').NextConfig} */
 const nextConfig = {

@@ -9,6 +9,7 @@ import type { Actor } from "@/lib/auth/actor";
 import { currentActor, usesBearerToken } from "@/lib/auth/session";
 import { zodFieldErrors } from "@/lib/validation/field-errors";
 import { bodyText, JSON_BODY_BYTES, readBody } from "./read-body";
+import { API_CACHE_CONTROL } from "./security-headers";
 
 type RouteContext = { params: Promise<Record<string, string>> };
 
@@ -28,16 +29,32 @@ export function apiRoute(
   { maxBodyBytes = JSON_BODY_BYTES, tooLargeMessage }: ApiRouteOptions = {},
 ): (request: Request, context: RouteContext) => Promise<Response> {
   return async (request, context) => {
+    let response: Response;
     try {
       if (request.method !== "GET" && request.method !== "HEAD") {
         await readBody(request, { maxBytes: maxBodyBytes, tooLargeMessage });
         await assertSameOrigin(request);
       }
-      return await handler(request, context);
+      response = await handler(request, context);
     } catch (error) {
-      return toResponse(error);
+      response = toResponse(error);
     }
+    return withoutCaching(response);
   };
+}
+
+/** API answers carry personal data: nothing keeps them unless the route says how (e.g. "private, no-store"). */
+function withoutCaching(response: Response): Response {
+  if (response.headers.has("cache-control")) return response;
+  try {
+    response.headers.set("Cache-Control", API_CACHE_CONTROL);
+    return response;
+  } catch {
+    // A Response with immutable headers (Response.redirect): copy it.
+    const headers = new Headers(response.headers);
+    headers.set("Cache-Control", API_CACHE_CONTROL);
+    return new Response(response.body, { status: response.status, statusText: response.statusText, headers });
+  }
 }
 
 /** Cookie-authenticated mutations must come from our own pages; tokens need no such check. */
