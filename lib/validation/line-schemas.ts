@@ -5,6 +5,7 @@ import { text } from "./text";
 import { LINE_FLAGS, type LineFlag } from "@/lib/lines";
 import { AppError } from "@/lib/errors";
 import { bodyText } from "@/lib/http/read-body";
+import { isRecordId } from "./record-id";
 import { zodFieldErrors } from "./field-errors";
 
 const SOURCE_KINDS = ["flame", "arc", "spark", "plasma", "lamp"] as const;
@@ -124,9 +125,9 @@ export function toLineChanges(line: Partial<ParsedLine>) {
   return changes as Partial<ReturnType<typeof toLineInput>>;
 }
 
-/** A route's id segment; anything but a UUID is "not found", never a database error. */
+/** A route's id segment (every API [id] route): anything but a UUID is "not found", never a database error. */
 export function idParam(value: string | undefined, what = "No such record."): string {
-  if (!value || !z.uuid().safeParse(value).success) throw new AppError("not_found", what);
+  if (!isRecordId(value)) throw new AppError("not_found", what);
   return value;
 }
 
