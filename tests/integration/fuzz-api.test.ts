@@ -221,25 +221,29 @@ const count = (status: number) => statuses.set(status, (statuses.get(status) ?? 
 
 beforeAll(async () => {
   clients = await identities();
-  const team = await teamIdOf(clients.chemist, FLAME_SCREENING);
-  const notebooks = await clients.chemist.get<{ id: string; runCount: number }[]>(
+  const { chemist } = clients;
+  const team = await teamIdOf(chemist, FLAME_SCREENING);
+  const first = async <T extends { id: string }>(
+    path: string,
+    where: (row: T) => boolean = () => true,
+  ) => (await chemist.get<T[]>(path)).body.find(where)?.id ?? "";
+  const notebook = await first<{ id: string; runCount: number }>(
     `/api/notebooks?teamId=${team}`,
+    (n) => n.runCount > 0,
   );
-  const notebook = notebooks.body.find((n) => n.runCount > 0)!;
-  const runs = await clients.chemist.get<
-    { id: string; spectrumId: string; instrumentId: string }[]
-  >(`/api/notebooks/${notebook.id}/runs`);
-  const run = await clients.chemist.get<{ calibrationId: string; lineReleaseId: string }>(
-    `/api/runs/${runs.body[0].id}`,
-  );
+  const instruments = (await chemist.get<{ id: string }[]>(`/api/instruments?teamId=${team}`)).body;
+  let calibration = "";
+  for (const instrument of instruments) {
+    calibration ||= await first(`/api/calibrations?instrumentId=${instrument.id}`);
+  }
   real = {
     team,
-    notebook: notebook.id,
-    run: runs.body[0].id,
-    instrument: runs.body[0].instrumentId,
-    spectrum: runs.body[0].spectrumId,
-    calibration: run.body.calibrationId,
-    release: run.body.lineReleaseId,
+    notebook,
+    run: notebook ? await first(`/api/notebooks/${notebook}/runs`) : "",
+    instrument: instruments[0]?.id ?? "",
+    spectrum: await first(`/api/spectra?teamId=${team}`),
+    calibration,
+    release: await first(`/api/releases?teamId=${team}`),
   };
   expect(Object.values(real).every(Boolean), JSON.stringify(real)).toBe(true);
 });
