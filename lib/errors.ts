@@ -1,5 +1,7 @@
 // Typed application errors and the single place that turns any error into an HTTP reply,
 // so that database details never reach a client.
+import { isDatabaseUnavailable } from "@/lib/database-unavailable";
+
 export type ErrorCode =
   | "unauthenticated"
   | "forbidden"
@@ -9,6 +11,7 @@ export type ErrorCode =
   | "rate_limited"
   | "unprocessable"
   | "too_large"
+  | "timeout"
   | "unavailable";
 
 const STATUS: Record<ErrorCode, number> = {
@@ -20,6 +23,7 @@ const STATUS: Record<ErrorCode, number> = {
   rate_limited: 429,
   unprocessable: 422,
   too_large: 413,
+  timeout: 408,
   /** Busy or out of reach for a moment (a full work queue, the database gone): retry after Retry-After. */
   unavailable: 503,
 };
@@ -52,6 +56,23 @@ export const notFound = (what = "Not found") => new AppError("not_found", what);
 export const forbidden = (why = "You are not allowed to do that.") => new AppError("forbidden", why);
 export const unauthenticated = () => new AppError("unauthenticated", "Sign in first.");
 
+/** How long a client should wait before trying again while the database is unreachable. */
+export const DATABASE_RETRY_AFTER_SECONDS = 15;
+export const DATABASE_UNAVAILABLE_MESSAGE =
+  "The database is unreachable at the moment, so nothing was read or saved. Try again in a few seconds.";
+
+/**
+ * PostgreSQL's SQLSTATEs for a value it cannot take: 22021 (NUL or bad UTF-8), 22P05 (untranslatable,
+ * e.g. \u0000 in jsonb), 22008 and 22007 (date out of range or malformed), 22003 (number out of range).
+ */
+const UNSTORABLE_VALUE_CODES = new Set(["22021", "22P05", "22008", "22007", "22003"]);
+
+function isUnstorableValue(error: unknown): boolean {
+  if (!(error instanceof Error) || error.name !== "SequelizeDatabaseError") return false;
+  const code = (error as { parent?: { code?: unknown } }).parent?.code;
+  return typeof code === "string" && UNSTORABLE_VALUE_CODES.has(code);
+}
+
 /** Maps any thrown value to a JSON reply; unknown errors are logged and answered generically. */
 export function toResponse(error: unknown): Response {
   if (error instanceof AppError) {
@@ -66,6 +87,25 @@ export function toResponse(error: unknown): Response {
     return Response.json(
       { error: { code: "conflict", message: "Someone else changed this record first. Reload and try again." } },
       { status: 409 },
+    );
+  }
+  if (isUnstorableValue(error)) {
+    // The schemas refuse these first (lib/validation/text.ts, bounded dates); this is the safety net.
+    return Response.json(
+      {
+        error: {
+          code: "validation",
+          message: "The request holds a value that cannot be stored (a control character, broken Unicode or a date out of range). Nothing was saved.",
+        },
+      },
+      { status: 400 },
+    );
+  }
+  if (isDatabaseUnavailable(error)) {
+    console.error("The database is unreachable:", error instanceof Error ? error.message : error);
+    return Response.json(
+      { error: { code: "unavailable", message: DATABASE_UNAVAILABLE_MESSAGE } },
+      { status: 503, headers: { "Retry-After": String(DATABASE_RETRY_AFTER_SECONDS) } },
     );
   }
   console.error(error);

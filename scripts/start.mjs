@@ -7,6 +7,13 @@ import { bootstrap, log, root, startChild, stopChildren, waitForPort } from "./b
 const dev = process.argv.includes("--dev");
 const port = Number(process.env.PORT ?? 3000);
 const host = process.env.HOST ?? "127.0.0.1";
+/** An app that ran this long before dying is restarted after the shortest pause again. */
+const RESTART_RESET_MS = 60_000;
+
+/** 1 s, 2 s, 4 s … up to 30 s between restarts of an app that keeps dying. */
+function restartDelayMs(failures) {
+  return Math.min(30_000, 1_000 * 2 ** Math.max(0, failures - 1));
+}
 
 async function main() {
   const { env, stopCluster } = await bootstrap({
@@ -27,11 +34,9 @@ async function main() {
     const build = spawnSync(next, ["build"], { cwd: root, stdio: "inherit", env: { ...appEnv, NODE_ENV: "production" } });
     if (build.status !== 0) throw new Error("next build failed");
   }
-  const app = startChild(next, [dev ? "dev" : "start", "-H", host, "-p", String(port)], {
-    env: { ...appEnv, NODE_ENV: dev ? "development" : "production" },
-  });
-
+  let stopping = false;
   const shutdown = () => {
+    stopping = true;
     log("Stopping…");
     stopChildren();
     stopCluster();
@@ -39,12 +44,25 @@ async function main() {
   };
   process.on("SIGINT", shutdown);
   process.on("SIGTERM", shutdown);
-  app.once("exit", (code) => {
-    log(`The app exited (${code}).`);
-    stopChildren();
-    stopCluster();
-    process.exit(code ?? 1);
-  });
+
+  // The app is restarted when it dies (a crash, the kernel's OOM killer), with a growing pause
+  // between quick deaths; PostgreSQL and the mail server keep running. Only Ctrl-C stops everything.
+  let failures = 0;
+  const runApp = () => {
+    const startedAt = Date.now();
+    const app = startChild(next, [dev ? "dev" : "start", "-H", host, "-p", String(port)], {
+      env: { ...appEnv, NODE_ENV: dev ? "development" : "production" },
+    });
+    app.once("exit", (code, signal) => {
+      if (stopping) return;
+      // A run that lasted a while starts the backoff afresh.
+      failures = Date.now() - startedAt > RESTART_RESET_MS ? 1 : failures + 1;
+      const delayMs = restartDelayMs(failures);
+      log(`The app exited (${signal ?? code}); restarting it in ${delayMs / 1000} s. The database keeps running.`);
+      setTimeout(() => stopping || runApp(), delayMs);
+    });
+  };
+  runApp();
 
   await waitForPort(port, 180_000, host);
   {

@@ -2,7 +2,7 @@
 // Server actions of the signed-out pages: sign in, ask for a reset link, reset, accept an invitation.
 import { headers } from "next/headers";
 import { redirect } from "next/navigation";
-import { z } from "zod";
+import { text } from "@/lib/validation/text";
 import { startSession } from "@/lib/auth/session";
 import { clientAddress } from "@/lib/http/client-address";
 import { safeNextPath } from "@/lib/http/safe-next-path";
@@ -54,7 +54,7 @@ export async function resetPasswordAction(_state: FormState, formData: FormData)
 }
 
 export async function acceptInvitationAction(_state: FormState, formData: FormData): Promise<FormState> {
-  const { data, state } = parseForm(acceptInvitationSchema.extend({ name: z.string().trim().max(120).optional() }), formData);
+  const { data, state } = parseForm(acceptInvitationSchema.extend({ name: text().trim().max(120).optional() }), formData);
   if (state) return state;
   try {
     await startSession((await loadActor(await acceptInvitation({ ...data, address: await address() })))!);

@@ -1,9 +1,11 @@
 "use client";
 // Plotly for the App Router: plotly.js touches `window` when it loads, so the factory and the min
-// bundle are loaded in the browser only. Every chart keeps the modebar (zoom, pan, PNG export).
+// bundle are loaded in the browser only. Every chart keeps the modebar (zoom, pan, PNG export) and
+// nothing that sends a chart outside (lib/charts/chart-config.ts).
 import dynamic from "next/dynamic";
 import type { Data, Layout, PlotMouseEvent } from "plotly.js";
 import type { PlotParams } from "react-plotly.js";
+import { chartConfig } from "@/lib/charts/chart-config";
 
 const Plot = dynamic<PlotParams>(
   async () => {
@@ -76,11 +78,7 @@ export function Chart({
             xaxis: { ...AXIS, ...layout.xaxis },
             yaxis: { ...AXIS, ...layout.yaxis },
           }}
-          config={{
-            responsive: true,
-            displaylogo: false,
-            toImageButtonOptions: { format: "png", filename: fileName, scale: 2 },
-          }}
+          config={chartConfig(fileName)}
           onClick={onPointClick}
           useResizeHandler
           style={{ width: "100%", height: "100%" }}

@@ -8,6 +8,7 @@ import { fetchRunSpectrum, fetchSpectrumPoints } from "@/lib/services/run-spectr
 import type { AxisUnit } from "@/lib/spectrum/types";
 import type { SpectrumSeries } from "@/components/charts/spectrum-charts";
 import { thinSeries } from "@/lib/charts/thin-series";
+import { isRecordId } from "@/lib/validation/record-id";
 
 export async function orNotFound<T>(promise: Promise<T>): Promise<T> {
   try {
@@ -20,7 +21,7 @@ export async function orNotFound<T>(promise: Promise<T>): Promise<T> {
 
 /** A record id from the URL; a malformed one is simply not found. */
 export function idOrNotFound(value: string | undefined): string {
-  if (!value || !/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(value)) notFound();
+  if (!isRecordId(value)) notFound();
   return value;
 }
 

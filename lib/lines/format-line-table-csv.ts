@@ -2,6 +2,7 @@
 
 import Papa from "papaparse";
 
+import { guardFormulaCell } from "../reports/formula-guard";
 import { LINE_TABLE_COLUMNS, LINE_TABLE_COLUMN_NAMES } from "./line-table-columns";
 import type { LineTableRow } from "./types";
 
@@ -30,7 +31,8 @@ function exponentCell(value: number | null): string {
 
 function rowCells(row: LineTableRow): string[] {
   const cells: Record<string, string> = {
-    species: row.species,
+    // Text cells are guarded against formula injection; parseLineTableCsv drops the guard again.
+    species: guardFormulaCell(row.species),
     air_nm: numberCell(row.airNm),
     vacuum_nm: numberCell(row.vacuumNm),
     uncertainty_nm: numberCell(row.uncertaintyNm),
@@ -43,12 +45,12 @@ function rowCells(row: LineTableRow): string[] {
     upper_ev: numberCell(row.upperEv),
     g_upper: numberCell(row.gUpper),
     a_per_s: exponentCell(row.aPerS),
-    flags: row.flags.join(";"),
+    flags: guardFormulaCell(row.flags.join(";")),
     band_extent_nm: numberCell(row.band?.extentNm),
-    band_degrades_to: row.band?.degradesTo ?? "",
-    source: row.source,
+    band_degrades_to: guardFormulaCell(row.band?.degradesTo ?? ""),
+    source: guardFormulaCell(row.source),
     verified: row.verified ? "true" : "false",
-    note: row.note,
+    note: guardFormulaCell(row.note),
   };
   return LINE_TABLE_COLUMN_NAMES.map((name) => cells[name]);
 }

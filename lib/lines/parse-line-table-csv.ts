@@ -2,6 +2,7 @@
 // Every row is checked in full so a preview can show all of a file's problems at once.
 
 import Papa from "papaparse";
+import { unguardFormulaCell } from "../reports/formula-guard";
 
 import type { SourceKind } from "../spectrum/types";
 import {
@@ -161,7 +162,8 @@ function readRow(
   };
   const cell = (field: string): string => {
     const index = columns.get(field);
-    return index === undefined ? "" : (cells[index] ?? "").trim();
+    // Exports guard formula-like text with a leading apostrophe (formatLineTableCsv): drop it again.
+    return index === undefined ? "" : unguardFormulaCell((cells[index] ?? "").trim());
   };
   /** A number cell: null when blank, undefined (after reporting) when invalid. */
   const number = (

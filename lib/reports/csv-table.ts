@@ -1,6 +1,7 @@
 // Writes a table as RFC 4180 CSV (CRLF line ends, quotes where needed) through papaparse, with
 // text cells that a spreadsheet would run as a formula (= + - @ tab CR first) prefixed by a quote.
 import Papa from "papaparse";
+import { FORMULA_START } from "./formula-guard";
 
 export type CsvCell = string | number | boolean | null;
 
@@ -12,7 +13,7 @@ export function formatCsv(columns: readonly string[], rows: readonly CsvCell[][]
   return (
     Papa.unparse({ fields: [...columns], data: rows.map((r) => r.map((c) => (typeof c === "number" && !Number.isFinite(c) ? null : c))) }, {
       newline: "\r\n",
-      escapeFormulae: true,
+      escapeFormulae: FORMULA_START,
     }) + "\r\n"
   );
 }

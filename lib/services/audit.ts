@@ -3,6 +3,7 @@
 // deletes an event, and the database refuses it too.
 import "server-only";
 import Papa from "papaparse";
+import { FORMULA_START } from "@/lib/reports/formula-guard";
 import { QueryTypes, type Transaction } from "sequelize";
 import { AuditEvent, User, sequelize } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
@@ -297,12 +298,6 @@ export const AUDIT_CSV_COLUMNS = [
 /** Events fetched per database round trip while the CSV streams out. */
 const CSV_CHUNK = 500;
 
-/**
- * Cells that a spreadsheet would read as a formula (starting with = + - @, a tab or a carriage
- * return) get a leading apostrophe (common practice against formula injection). Papa's own
- * pattern stops at a line break, hence ours.
- */
-const FORMULA_START = /^[=+\-@\t\r]/;
 
 function csvCells(event: AuditEventRecord): string[] {
   return [
@@ -323,6 +318,7 @@ function csvText(rows: string[][], header: boolean): string {
   // RFC 4180: fields with commas, quotes or line breaks are quoted, quotes doubled, CRLF between records.
   const text = Papa.unparse(header ? { fields: [...AUDIT_CSV_COLUMNS], data: rows } : rows, {
     newline: "\r\n",
+    // Formula-like cells get a leading apostrophe (lib/reports/formula-guard.ts).
     escapeFormulae: FORMULA_START,
     header,
   });

@@ -1,15 +1,16 @@
 // Form and API schemas for sign-in, tokens, invitations and passwords; variants derive from one base.
 import { z } from "zod";
+import { text } from "./text";
 import { TEAM_ROLES } from "@/lib/auth/roles";
 import { PASSWORD_MAX_LENGTH } from "@/lib/auth/password";
 
-const email = z.string({ error: "Enter an e-mail address." }).trim().toLowerCase().email("Enter a valid e-mail address.");
+const email = text({ error: "Enter an e-mail address." }).trim().toLowerCase().email("Enter a valid e-mail address.");
 const password = z.string({ error: "Enter a password." }).min(1, "Enter a password.").max(PASSWORD_MAX_LENGTH);
 
 export const signInSchema = z.object({ email, password });
 
 export const tokenCreateSchema = z.object({
-  name: z.string({ error: "Name the token." }).trim().min(1, "Name the token.").max(80, "Use at most 80 characters."),
+  name: text({ error: "Name the token." }).trim().min(1, "Name the token.").max(80, "Use at most 80 characters."),
 });
 
 export const invitationSchema = z.object({
@@ -19,11 +20,11 @@ export const invitationSchema = z.object({
 });
 
 export const acceptInvitationSchema = z.object({
-  token: z.string().min(10),
-  name: z.string().trim().max(120).optional(),
+  token: text().min(10),
+  name: text().trim().max(120).optional(),
   password,
 });
 
 export const passwordResetRequestSchema = z.object({ email });
-export const passwordResetSchema = z.object({ token: z.string().min(10), password });
+export const passwordResetSchema = z.object({ token: text().min(10), password });
 export const passwordChangeSchema = z.object({ currentPassword: password, newPassword: password });

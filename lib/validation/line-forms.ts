@@ -2,6 +2,7 @@
 // draft forms (a line's values, a change with its reason, an import, a publish).
 import Papa from "papaparse";
 import { z } from "zod";
+import { text } from "./text";
 import { LINE_FLAGS, LINE_TABLE_COLUMN_NAMES, parseLineTableCsv, type LineFlag } from "@/lib/lines";
 import type {
   ImportPreview,
@@ -24,8 +25,7 @@ const SORT_KEYS = ["wavelength", "species", "intensity"] as const satisfies read
 
 // A bad or empty search parameter is dropped rather than failing the page, so that a hand-edited
 // link still shows the table.
-const optionalText = z
-  .string()
+const optionalText = text()
   .trim()
   .max(40)
   .transform((s) => s || undefined)
@@ -141,8 +141,7 @@ export const compareSearchSchema = z.object({
   to: z.preprocess(first, z.uuid().optional().catch(undefined)),
 });
 
-const reason = z
-  .string({ error: "Say why." })
+const reason = text({ error: "Say why." })
   .trim()
   .min(3, "Say why, in a few words.")
   .max(500, "Use at most 500 characters.");
@@ -166,8 +165,7 @@ export const lineAddSchema = z.object({ releaseId: z.uuid(), reason });
 
 export const importPreviewSchema = z.object({
   releaseId: z.uuid(),
-  csv: z
-    .string({ error: "Choose a CSV file or paste its text." })
+  csv: text({ error: "Choose a CSV file or paste its text." })
     .max(
       IMPORT_MAX_BYTES,
       `The file is larger than ${IMPORT_MAX_LABEL}; split it into smaller files.`,
@@ -176,9 +174,8 @@ export const importPreviewSchema = z.object({
 });
 
 export const importApplySchema = importPreviewSchema.extend({
-  fingerprint: z.string().min(8).max(200),
-  reason: z
-    .string()
+  fingerprint: text().min(8).max(200),
+  reason: text()
     .trim()
     .max(500, "Use at most 500 characters.")
     .optional()
@@ -187,8 +184,7 @@ export const importApplySchema = importPreviewSchema.extend({
 
 export const publishSchema = z.object({
   releaseId: z.uuid(),
-  notes: z
-    .string({ error: "Write what changed in this release." })
+  notes: text({ error: "Write what changed in this release." })
     .trim()
     .min(3, "Write what changed in this release.")
     .max(4000, "Use at most 4,000 characters."),

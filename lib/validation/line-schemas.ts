@@ -1,14 +1,16 @@
 // Schemas of the line library's API: the line query, a typed line, edits with version and reason,
 // imports, publishing and release comparison. Values are checked in full by the service (the CSV rules).
 import { z } from "zod";
+import { text } from "./text";
 import { LINE_FLAGS, type LineFlag } from "@/lib/lines";
 import { AppError } from "@/lib/errors";
+import { bodyText } from "@/lib/http/read-body";
+import { isRecordId } from "./record-id";
 import { zodFieldErrors } from "./field-errors";
 
 const SOURCE_KINDS = ["flame", "arc", "spark", "plasma", "lamp"] as const;
 const optionalNumber = z.number().finite().nullable().optional();
-const reason = z
-  .string({ error: "Say why you make this change." })
+const reason = text({ error: "Say why you make this change." })
   .trim()
   .min(1, "Say why you make this change.")
   .max(1000, "Use at most 1000 characters.");
@@ -30,8 +32,8 @@ export const lineQuerySchema = z
       .enum(["true", "false"])
       .transform((v) => v === "true")
       .optional(),
-    species: z.string().trim().min(1).max(40).optional(),
-    element: z.string().trim().min(1).max(20).optional(),
+    species: text().trim().min(1).max(40).optional(),
+    element: text().trim().min(1).max(20).optional(),
     source: z.enum(SOURCE_KINDS).optional(),
     flag: z.enum(LINE_FLAGS as unknown as [LineFlag, ...LineFlag[]]).optional(),
     verified: z
@@ -49,7 +51,7 @@ export const lineQuerySchema = z
   });
 
 export const lineInputSchema = z.object({
-  species: z.string({ error: "Enter the species." }).trim().min(1, "Enter the species.").max(40),
+  species: text({ error: "Enter the species." }).trim().min(1, "Enter the species.").max(40),
   airNm: optionalNumber,
   vacuumNm: optionalNumber,
   uncertaintyNm: optionalNumber,
@@ -63,27 +65,25 @@ export const lineInputSchema = z.object({
     .object({ extentNm: z.number().finite(), degradesTo: z.enum(["red", "violet"]) })
     .nullable()
     .optional(),
-  source: z
-    .string({ error: "Name the source." })
+  source: text({ error: "Name the source." })
     .trim()
     .min(1, 'Name the source ("from memory" if so).')
     .max(500),
-  note: z.string().max(2000).optional(),
+  note: text().max(2000).optional(),
 });
 
 export const addLineSchema = z.object({ line: lineInputSchema, reason });
 export const updateLineSchema = z.object({ version, line: lineInputSchema.partial(), reason });
 export const lineStateSchema = z.object({ version, reason });
 export const openDraftSchema = z.object({ teamId: z.uuid("Choose a team.") });
-export const importPreviewSchema = z.object({ csv: z.string().min(1, "The file is empty.") });
+export const importPreviewSchema = z.object({ csv: text().min(1, "The file is empty.") });
 export const importApplySchema = importPreviewSchema.extend({
-  fingerprint: z.string().min(16, "Preview the file first."),
+  fingerprint: text().min(16, "Preview the file first."),
   skipRejected: z.boolean().optional(),
-  reason: z.string().trim().max(1000).optional(),
+  reason: text().trim().max(1000).optional(),
 });
 export const publishSchema = z.object({
-  notes: z
-    .string({ error: "Describe this release." })
+  notes: text({ error: "Describe this release." })
     .trim()
     .min(1, "Describe this release.")
     .max(5000),
@@ -125,29 +125,29 @@ export function toLineChanges(line: Partial<ParsedLine>) {
   return changes as Partial<ReturnType<typeof toLineInput>>;
 }
 
-/** A route's id segment; anything but a UUID is "not found", never a database error. */
+/** A route's id segment (every API [id] route): anything but a UUID is "not found", never a database error. */
 export function idParam(value: string | undefined, what = "No such record."): string {
-  if (!value || !z.uuid().safeParse(value).success) throw new AppError("not_found", what);
+  if (!isRecordId(value)) throw new AppError("not_found", what);
   return value;
 }
 
-const MAX_IMPORT_BODY_BYTES = 6 * 1024 * 1024;
+/** The cap of an import body (a 5 MB file, with room for JSON's escapes when sent as {csv}). */
+export const MAX_IMPORT_BODY_BYTES = 6 * 1024 * 1024;
+export const IMPORT_ROUTE_OPTIONS = {
+  maxBodyBytes: MAX_IMPORT_BODY_BYTES,
+  tooLargeMessage: "The line-table file is larger than the 5 MB an import accepts.",
+};
 
 /**
  * An import body: JSON checked by `schema`, or the file itself as text/csv (then fingerprint,
- * skipRejected and reason come from the query string).
+ * skipRejected and reason come from the query string). apiRoute has read it within IMPORT_ROUTE_OPTIONS.
  */
 export async function readImportBody<T extends z.ZodType<{ csv: string }>>(
   request: Request,
   schema: T = importPreviewSchema as unknown as T,
 ): Promise<z.infer<T>> {
-  const length = Number(request.headers.get("content-length") ?? 0);
-  if (length > MAX_IMPORT_BODY_BYTES)
-    throw new AppError("too_large", "The file is larger than 5 MB.");
   const type = request.headers.get("content-type") ?? "";
-  const text = await request.text();
-  if (text.length > MAX_IMPORT_BODY_BYTES)
-    throw new AppError("too_large", "The file is larger than 5 MB.");
+  const text = await bodyText(request);
   let body: unknown;
   if (type.startsWith("text/csv") || type.startsWith("text/plain")) {
     const query = new URL(request.url).searchParams;

@@ -1,12 +1,12 @@
 // Schemas of the notebooks and spectra lists and of renaming a notebook: the rename body (title and the
 // version it was edited from) and the query strings of the lists, which reject unknown values with 400.
 import { z } from "zod";
+import { text } from "./text";
 import { AppError } from "@/lib/errors";
 import { RUN_STATUSES, type RunStatus } from "@/models/run";
 import { zodFieldErrors } from "./field-errors";
 
-export const notebookTitle = z
-  .string({ error: "Give the notebook a title." })
+export const notebookTitle = text({ error: "Give the notebook a title." })
   .trim()
   .min(1, "Give the notebook a title.")
   .max(200, "Use at most 200 characters.");
@@ -21,7 +21,7 @@ export type NotebookRenameInput = z.infer<typeof notebookRenameSchema>;
 const optionalText = (max: number, what: string) =>
   z.preprocess(
     (v) => (typeof v === "string" && v.trim() === "" ? undefined : v),
-    z.string().trim().max(max, `${what} is at most ${max} characters.`).optional(),
+    text().trim().max(max, `${what} is at most ${max} characters.`).optional(),
   );
 const optionalId = (message: string) =>
   z.preprocess((v) => (v === "" ? undefined : v), z.uuid(message).optional());

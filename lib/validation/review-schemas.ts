@@ -1,6 +1,7 @@
 // Schemas of submission, review marks, review decisions and the review queue's filters, shared by
 // the route handlers and the review pages' server actions. The services check what depends on data.
 import { z } from "zod";
+import { text } from "./text";
 
 const blank = (value: FormDataEntryValue | null) => (typeof value === "string" ? value.trim() : "");
 
@@ -13,10 +14,10 @@ export type SubmitRunInput = z.infer<typeof submitRunSchema>;
 
 export const reviewMarkSchema = z
   .object({
-    species: z.string({ error: "Say which call the mark is about." }).trim().min(1, "Say which call the mark is about.").max(40),
+    species: text({ error: "Say which call the mark is about." }).trim().min(1, "Say which call the mark is about.").max(40),
     lineNm: z.number({ error: "The line is its wavelength in nm." }).finite().positive("The line is its wavelength in nm.").nullable().optional(),
     agreement: z.enum(["agree", "disagree"], { error: "Choose agree or disagree." }).nullable().optional(),
-    comment: z.string().trim().max(MAX_REVIEW_COMMENT, `Use at most ${MAX_REVIEW_COMMENT} characters.`).default(""),
+    comment: text().trim().max(MAX_REVIEW_COMMENT, `Use at most ${MAX_REVIEW_COMMENT} characters.`).default(""),
   })
   .refine((m) => m.agreement != null || m.comment !== "", {
     path: ["comment"],
@@ -27,7 +28,7 @@ export type ReviewMarkInput = z.infer<typeof reviewMarkSchema>;
 export const reviewDecisionSchema = z
   .object({
     decision: z.enum(["return", "sign"], { error: "The decision is return or sign." }),
-    comment: z.string().trim().max(MAX_REVIEW_COMMENT, `Use at most ${MAX_REVIEW_COMMENT} characters.`).default(""),
+    comment: text().trim().max(MAX_REVIEW_COMMENT, `Use at most ${MAX_REVIEW_COMMENT} characters.`).default(""),
     /** Asked again for a signature; not needed to return a run. */
     password: z.string().max(256).optional(),
   })
@@ -45,7 +46,7 @@ export const reviewQueueQuerySchema = z.object({
   teamId: z.uuid("Choose a team."),
   author: z.uuid("Choose an author from the list.").optional(),
   instrumentId: z.uuid("Choose an instrument from the list.").optional(),
-  species: z.string().trim().min(1).max(40).optional(),
+  species: text().trim().min(1).max(40).optional(),
 });
 export type ReviewQueueQuery = z.infer<typeof reviewQueueQuerySchema>;
 

@@ -1,6 +1,7 @@
 // Schemas of the workflow API: instruments, spectrum uploads, calibrations, notebooks and runs.
 // Route handlers parse with these; the services check what depends on stored data.
 import { z } from "zod";
+import { text } from "./text";
 import { GLASS_NAMES, type GlassName } from "@/lib/spectrum/calibration";
 import { SOURCE_KINDS, type SourceKind } from "@/lib/spectrum/types";
 import { AppError } from "@/lib/errors";
@@ -14,7 +15,7 @@ const positive = (what: string) => z.number({ error: `Enter ${what}.` }).finite(
 
 /** The instrument's own fields, shared by the create and update schemas. */
 const instrumentFields = {
-  name: z.string({ error: "Name the instrument." }).trim().min(1, "Name the instrument.").max(120),
+  name: text({ error: "Name the instrument." }).trim().min(1, "Name the instrument.").max(120),
   dispersion: z.enum(["prism", "grating"], { error: "Choose prism or grating." }),
   pixels: z.number({ error: "Enter the number of pixels." }).int().min(16).max(MAX_UPLOAD_POINTS),
   nominalMinNm: positive("the shortest nominal wavelength"),
@@ -68,7 +69,7 @@ export const AXIS_UNITS = ["pixel", "nm", "angstrom", "wavenumber"] as const;
 export const spectrumUploadFieldsSchema = z.object({
   instrumentId: z.uuid("Choose an instrument."),
   kind: z.enum(["lamp", "sample"], { error: "Say whether this is a lamp or a sample spectrum." }),
-  label: z.string().trim().max(200, "Use at most 200 characters.").default(""),
+  label: text().trim().max(200, "Use at most 200 characters.").default(""),
   xUnit: z.enum(AXIS_UNITS, { error: `The x unit is one of ${AXIS_UNITS.join(", ")}.` }).optional(),
 });
 
@@ -99,7 +100,7 @@ export const calibrationCreateSchema = z.object({
   instrumentId: z.uuid("Choose an instrument."),
   spectrumId: z.uuid("Choose a lamp spectrum."),
   lamps: z
-    .array(z.string().trim().regex(/^[A-Z][a-z]?$/, "Name each lamp gas by its element symbol (Hg, Ar, Ne…)."), {
+    .array(text().trim().regex(/^[A-Z][a-z]?$/, "Name each lamp gas by its element symbol (Hg, Ar, Ne…)."), {
       error: "List the lamp gases.",
     })
     .min(1, "List the lamp gases.")
@@ -124,7 +125,7 @@ export const evaluateSchema = z.object({
 
 export const notebookCreateSchema = z.object({
   teamId: z.uuid("Choose a team."),
-  title: z.string({ error: "Give the notebook a title." }).trim().min(1, "Give the notebook a title.").max(200),
+  title: text({ error: "Give the notebook a title." }).trim().min(1, "Give the notebook a title.").max(200),
 });
 
 export const runCreateSchema = z.object({

@@ -2,20 +2,24 @@
 // throttle); answers what it ended: the other sessions and every access token.
 import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
 import { clientAddress } from "@/lib/http/client-address";
+import { ACCOUNT_BODY_BYTES } from "@/lib/http/read-body";
 import { currentSessionId, usesBearerToken } from "@/lib/auth/session";
 import { changePassword, describeRevoked } from "@/lib/services/accounts";
 import { passwordChangeSchema } from "@/lib/validation/account-schemas";
 
-export const POST = apiRoute(async (request) => {
-  const actor = await requireActor();
-  const keepSessionId = (await usesBearerToken()) ? undefined : await currentSessionId();
-  const input = await parseJson(request, passwordChangeSchema);
-  const revoked = await changePassword(actor, input, {
-    keepSessionId,
-    address: clientAddress(request.headers),
-  });
-  return Response.json({
-    message: `Your password is changed. ${describeRevoked(revoked, "change")}`,
-    revoked,
-  });
-});
+export const POST = apiRoute(
+  async (request) => {
+    const actor = await requireActor();
+    const keepSessionId = (await usesBearerToken()) ? undefined : await currentSessionId();
+    const input = await parseJson(request, passwordChangeSchema);
+    const revoked = await changePassword(actor, input, {
+      keepSessionId,
+      address: clientAddress(request.headers),
+    });
+    return Response.json({
+      message: `Your password is changed. ${describeRevoked(revoked, "change")}`,
+      revoked,
+    });
+  },
+  { maxBodyBytes: ACCOUNT_BODY_BYTES },
+);

@@ -1,6 +1,7 @@
 // POST signs in with e-mail and password (sets the session cookie); DELETE signs out.
 import { clientAddress } from "@/lib/http/client-address";
 import { apiRoute, parseJson } from "@/lib/http/api-handler";
+import { SIGN_IN_BODY_BYTES } from "@/lib/http/read-body";
 import { endSession, startSession } from "@/lib/auth/session";
 import { signIn } from "@/lib/services/accounts";
 import { recordAudit } from "@/lib/services/audit";
@@ -12,7 +13,7 @@ export const POST = apiRoute(async (request) => {
   const actor = await signIn({ ...input, address: clientAddress(request.headers) });
   await startSession(actor);
   return Response.json(toMe(actor));
-});
+}, { maxBodyBytes: SIGN_IN_BODY_BYTES });
 
 export const DELETE = apiRoute(async () => {
   const userId = await endSession();

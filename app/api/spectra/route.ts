@@ -1,12 +1,12 @@
 // GET lists the team's spectra, newest first (?teamId=&instrumentId=&kind=; records without bytes or points).
 // POST uploads a spectrum file (multipart: file, instrumentId, kind, label, optional xUnit) and stores it;
 // POST /api/spectra/preview checks the same form without storing. Route handlers, not server actions,
-// and outside the proxy's matcher, so no body cap applies but ours (upload-form.ts).
+// and outside the proxy's matcher, so no body cap applies but ours (UPLOAD_ROUTE_OPTIONS, read before sign-in is checked).
 import { apiRoute, requireActor } from "@/lib/http/api-handler";
 import { fetchSpectra, uploadSpectrum } from "@/lib/services/spectra";
 import { parseQuery, spectraQuerySchema } from "@/lib/validation/notebook-schemas";
 import { teamIdQuery } from "@/lib/validation/workflow-schemas";
-import { readUploadForm } from "./upload-form";
+import { readUploadForm, UPLOAD_ROUTE_OPTIONS } from "./upload-form";
 
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();
@@ -18,4 +18,4 @@ export const POST = apiRoute(async (request) => {
   const actor = await requireActor();
   const record = await uploadSpectrum(actor, await readUploadForm(request));
   return Response.json(record, { status: 201 });
-});
+}, UPLOAD_ROUTE_OPTIONS);

@@ -1,5 +1,6 @@
 // GET the person's active access tokens; POST creates one and returns its secret once.
 import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { ACCOUNT_BODY_BYTES } from "@/lib/http/read-body";
 import { createAccessToken, fetchAccessTokens } from "@/lib/services/access-tokens";
 import { tokenCreateSchema } from "@/lib/validation/account-schemas";
 
@@ -9,4 +10,4 @@ export const POST = apiRoute(async (request) => {
   const actor = await requireActor();
   const input = await parseJson(request, tokenCreateSchema);
   return Response.json(await createAccessToken(actor, input), { status: 201 });
-});
+}, { maxBodyBytes: ACCOUNT_BODY_BYTES });

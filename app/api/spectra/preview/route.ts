@@ -3,9 +3,9 @@
 // big, 400 with the core's located message when the file cannot be read. Writes nothing.
 import { apiRoute, requireActor } from "@/lib/http/api-handler";
 import { previewSpectrumUpload } from "@/lib/services/spectra";
-import { readUploadForm } from "../upload-form";
+import { readUploadForm, UPLOAD_ROUTE_OPTIONS } from "../upload-form";
 
 export const POST = apiRoute(async (request) => {
   const actor = await requireActor();
   return Response.json(await previewSpectrumUpload(actor, await readUploadForm(request)));
-});
+}, UPLOAD_ROUTE_OPTIONS);

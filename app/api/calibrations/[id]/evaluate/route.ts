@@ -4,9 +4,12 @@ import { evaluateStoredCalibration } from "@/lib/services/calibrations";
 import { idParam } from "@/lib/validation/line-schemas";
 import { evaluateSchema } from "@/lib/validation/workflow-schemas";
 
-export const POST = apiRoute(async (request, { params }) => {
-  const actor = await requireActor();
-  const id = idParam((await params).id, "No such calibration.");
-  const { pixels } = await parseJson(request, evaluateSchema);
-  return Response.json(await evaluateStoredCalibration(actor, id, pixels));
-});
+export const POST = apiRoute(
+  async (request, { params }) => {
+    const actor = await requireActor();
+    const id = idParam((await params).id, "No such calibration.");
+    const { pixels } = await parseJson(request, evaluateSchema);
+    return Response.json(await evaluateStoredCalibration(actor, id, pixels));
+  },
+  { maxBodyBytes: 2 * 1024 * 1024 },
+);

@@ -1,7 +1,12 @@
 // POST applies a previewed import ({csv, fingerprint, skipRejected?, reason?}) in one transaction.
 import { apiRoute, requireActor } from "@/lib/http/api-handler";
 import { applyImport } from "@/lib/services/line-library";
-import { idParam, importApplySchema, readImportBody } from "@/lib/validation/line-schemas";
+import {
+  idParam,
+  IMPORT_ROUTE_OPTIONS,
+  importApplySchema,
+  readImportBody,
+} from "@/lib/validation/line-schemas";
 
 export const POST = apiRoute(async (request, { params }) => {
   const actor = await requireActor();
@@ -16,4 +21,4 @@ export const POST = apiRoute(async (request, { params }) => {
       reason: input.reason,
     }),
   );
-});
+}, IMPORT_ROUTE_OPTIONS);
