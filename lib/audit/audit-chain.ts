@@ -50,6 +50,44 @@ export function auditChainHash(prevHash: string, canonical: string): string {
 }
 
 /** The chain head a link is checked against: the previous event's place and hash. */
+/** An audit event's chain columns as PostgreSQL returns them (snake_case, bigint and times as text). */
+export interface AuditChainRow {
+  id: string;
+  team_id: string | null;
+  team_seq: string;
+  actor_id: string | null;
+  action: string;
+  entity: string;
+  entity_id: string | null;
+  reason: string | null;
+  before_json: string | null;
+  after_json: string | null;
+  created_at: string;
+  subject_hash: string | null;
+  prev_hash: string;
+  hash: string;
+}
+
+/** The one mapping from a stored row to the event the chain hashes. */
+export function chainedAuditEventOf(row: AuditChainRow): ChainedAuditEvent {
+  return {
+    id: row.id,
+    teamId: row.team_id,
+    sequence: Number(row.team_seq),
+    actorId: row.actor_id,
+    action: row.action,
+    entity: row.entity,
+    entityId: row.entity_id,
+    reason: row.reason,
+    beforeJson: row.before_json,
+    afterJson: row.after_json,
+    createdAt: row.created_at,
+    subjectHash: row.subject_hash,
+    prevHash: row.prev_hash,
+    hash: row.hash,
+  };
+}
+
 export interface ChainHead {
   sequence: number;
   hash: string;

@@ -8,10 +8,11 @@ import { sequelize } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
 import {
+  chainedAuditEventOf,
   checkChainLink,
+  type AuditChainRow,
   type ChainBreak,
   type ChainHead,
-  type ChainedAuditEvent,
 } from "@/lib/audit/audit-chain";
 import { recomputeRunContentHash } from "./run-review";
 
@@ -27,44 +28,11 @@ export interface AuditChainReport {
   break: (Omit<ChainBreak, "problem"> & { problem: ChainBreak["problem"] | "signature" }) | null;
 }
 
-interface ChainRow {
-  id: string;
-  team_id: string | null;
-  team_seq: string;
-  actor_id: string | null;
-  action: string;
-  entity: string;
-  entity_id: string | null;
-  reason: string | null;
-  before_json: string | null;
-  after_json: string | null;
-  created_at: string;
-  subject_hash: string | null;
-  prev_hash: string;
-  hash: string;
+interface ChainRow extends AuditChainRow {
   signed_hash: string | null;
 }
 
 const BATCH = 1000;
-
-function toChained(row: ChainRow): ChainedAuditEvent {
-  return {
-    id: row.id,
-    teamId: row.team_id,
-    sequence: Number(row.team_seq),
-    actorId: row.actor_id,
-    action: row.action,
-    entity: row.entity,
-    entityId: row.entity_id,
-    reason: row.reason,
-    beforeJson: row.before_json,
-    afterJson: row.after_json,
-    createdAt: row.created_at,
-    subjectHash: row.subject_hash,
-    prevHash: row.prev_hash,
-    hash: row.hash,
-  };
-}
 
 /** A sign-off must bind the hash its signature row holds, and the run must still have that content. */
 async function checkSignature(row: ChainRow, sequence: number): Promise<AuditChainReport["break"]> {
@@ -127,7 +95,7 @@ async function verifyChainIn(
       },
     );
     for (const row of rows) {
-      const event = toChained(row);
+      const event = chainedAuditEventOf(row);
       const broken = checkChainLink(head, event) ?? (await checkSignature(row, event.sequence));
       if (broken) return { teamId, ok: false, checked, head, break: broken };
       head = { sequence: event.sequence, hash: event.hash };

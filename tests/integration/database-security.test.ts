@@ -12,7 +12,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import {
   auditChainHash,
   canonicalAuditEvent,
-  type ChainedAuditEvent,
+  chainedAuditEventOf,
+  type AuditChainRow,
 } from "@/lib/audit/audit-chain";
 import type { AuditChainReport } from "@/lib/services/audit-chain";
 import { FLAME_SCREENING, signInDemo, signedIn, teamIdOf } from "./support/accounts";
@@ -46,21 +47,7 @@ async function asSuperuser(sql: string, params: unknown[]): Promise<void> {
   }
 }
 
-interface ChainRow {
-  id: string;
-  team_id: string | null;
-  team_seq: string;
-  actor_id: string | null;
-  action: string;
-  entity: string;
-  entity_id: string | null;
-  reason: string | null;
-  before_json: string | null;
-  after_json: string | null;
-  created_at: string;
-  subject_hash: string | null;
-  prev_hash: string;
-  hash: string;
+interface ChainRow extends AuditChainRow {
   canonical: string;
 }
 
@@ -74,25 +61,6 @@ async function chainOf(teamId: string): Promise<ChainRow[]> {
     [teamId],
   );
   return rows;
-}
-
-function chained(row: ChainRow): ChainedAuditEvent {
-  return {
-    id: row.id,
-    teamId: row.team_id,
-    sequence: Number(row.team_seq),
-    actorId: row.actor_id,
-    action: row.action,
-    entity: row.entity,
-    entityId: row.entity_id,
-    reason: row.reason,
-    beforeJson: row.before_json,
-    afterJson: row.after_json,
-    createdAt: row.created_at,
-    subjectHash: row.subject_hash,
-    prevHash: row.prev_hash,
-    hash: row.hash,
-  };
 }
 
 let outsider: { userId: string; teamId: string };
@@ -228,7 +196,7 @@ describe("the audit hash chain", () => {
       expect(Number(row.team_seq)).toBe(i + 1);
       expect(row.prev_hash).toBe(i === 0 ? "0".repeat(64) : rows[i - 1].hash);
       // The database's canonical text is the TypeScript one, and so is the hash.
-      expect(canonicalAuditEvent(chained(row))).toBe(row.canonical);
+      expect(canonicalAuditEvent(chainedAuditEventOf(row))).toBe(row.canonical);
       expect(row.hash).toBe(auditChainHash(row.prev_hash, row.canonical));
     });
   });
