@@ -1,7 +1,7 @@
 // Runs automatic lamp calibration over many realistic instruments (tests/support/realistic-lamp.ts)
 // and scores each against the generator's truth. Shared by the unit-test sweep and `npm run sweep`.
 import { calibrateLamp, type CalibrateLampOptions } from "@/lib/spectrum/analysis/calibrate-lamp";
-import { evaluateCalibration } from "@/lib/spectrum/calibration";
+import { evaluateCalibration, fitCalibration } from "@/lib/spectrum/calibration";
 import type { CalibrationModel } from "@/lib/spectrum/calibration";
 import { realisticLamp, type RealisticLamp, type RealisticLampOptions } from "./realistic-lamp";
 
@@ -24,10 +24,14 @@ export interface SweepRecord {
   /** Largest |error| at the probes over the tolerance there (≤ 1 is right); NaN without a fit. */
   worstErrorRatio: number;
   worstErrorNm: number;
+  /** For a fit that was not trusted ("check"): whether it was right after all. */
+  candidateRight: boolean | null;
   /** Covered fraction of the array (0…1). */
   coveredFraction: number;
   cpuMs: number;
   message: string;
+  /** The pairing checks' measures, "name=value" (for tuning their limits). */
+  checkValues: string;
 }
 
 function resolutionClass(lamp: RealisticLamp): string {
@@ -99,7 +103,7 @@ export function sweepOne(
     });
     const cpu = cpuMs(start);
     const status = result.pairing.status as string;
-    const model = result.fit?.model ?? null;
+    const model = result.fit?.model ?? result.pairing.candidate?.model ?? null;
     const scored = model
       ? probeErrorRatio(lamp, model)
       : { ratio: Number.NaN, errorNm: Number.NaN, coveredFraction: 0 };
@@ -119,9 +123,13 @@ export function sweepOne(
       confidence: result.pairing.confidence,
       worstErrorRatio: scored.ratio,
       worstErrorNm: scored.errorNm,
+      candidateRight: status !== "paired" && model ? right : null,
       coveredFraction: scored.coveredFraction,
       cpuMs: cpu,
       message: result.pairing.message,
+      checkValues: (result.pairing.checks ?? [])
+        .map((c) => `${c.name}=${c.value.toFixed(2)}`)
+        .join(" "),
     };
   } catch (error) {
     return {
@@ -131,8 +139,10 @@ export function sweepOne(
       confidence: 0,
       worstErrorRatio: Number.NaN,
       worstErrorNm: Number.NaN,
+      candidateRight: null,
       coveredFraction: 0,
       cpuMs: cpuMs(start),
+      checkValues: "",
       message: error instanceof Error ? `${error.name}: ${error.message}` : String(error),
     };
   }
@@ -144,19 +154,20 @@ export function runSweep(options: SweepOptions): SweepRecord[] {
   for (let k = 0; k < options.n; k++) {
     const lamp = realisticLamp(options.seed + k, options.lamp);
     if (options.withPrevious) {
-      const first = calibrateLamp(lamp.x, lamp.y, lamp.lines, {
-        nominalRangeNm: lamp.statedRangeNm,
-        dispersion: lamp.dispersion === "prism" ? "prism" : "grating",
-        resolutionNm: lamp.resolutionNm,
-      });
-      const previous = first.fit?.model;
+      // Yesterday's calibration, as checked then: a quintic through the first recording's true axis.
+      const last = lamp.x.length - 1;
+      const truthPairs = Array.from({ length: 41 }, (_, i) => ({
+        x: (last * i) / 40,
+        wavelengthNm: lamp.wavelengthAt((last * i) / 40),
+      }));
+      const previous = fitCalibration(truthPairs, {
+        model: "polynomial",
+        degree: 5,
+        domain: [0, last],
+        rejectOutliers: false,
+      }).model;
       const again = lamp.rerecord(options.seed + k + 100_000);
-      records.push(
-        sweepOne(again, {
-          ...options.calibrate,
-          ...(previous ? { previous } : {}),
-        } as Partial<CalibrateLampOptions>),
-      );
+      records.push(sweepOne(again, { ...options.calibrate, previous }));
     } else {
       records.push(sweepOne(lamp, options.calibrate));
     }
@@ -234,7 +245,7 @@ export function formatSweep(records: SweepRecord[], title: string): string {
   }
   const describe = (r: SweepRecord) =>
     `  seed ${r.seed} ${r.dispersion} ${r.gases} ${r.glass} ${r.resolutionClass} lines ${r.tableLinesInRange}: ${r.outcome} ` +
-    `(conf ${r.confidence.toFixed(2)}, worst ${Number.isFinite(r.worstErrorNm) ? r.worstErrorNm.toFixed(3) : "—"} nm, ${r.cpuMs.toFixed(0)} ms) ${r.message}`;
+    `(conf ${r.confidence.toFixed(2)}, worst ${Number.isFinite(r.worstErrorNm) ? r.worstErrorNm.toFixed(3) : "—"} nm, ${r.cpuMs.toFixed(0)} ms) ${r.message} [${r.checkValues}]`;
   out.push("slowest:");
   for (const r of records
     .slice()

@@ -179,6 +179,10 @@ export interface RealisticLampOptions {
   clean?: boolean;
   /** Pixels of the array. @default 2048 or 3648 at random */
   pixels?: number;
+  /** Force the true range [low, high] nm of the array. */
+  rangeNm?: [number, number];
+  /** Force the axis direction (1: blue at low pixels). */
+  direction?: 1 | -1;
 }
 
 export interface RealisticLamp {
@@ -418,7 +422,8 @@ export function realisticLamp(seed: number, options: RealisticLampOptions = {}):
     options.dispersion ??
     (random() < 0.3 ? "grating-straight" : random() < 0.55 ? "grating-curved" : "prism");
   const gases = options.gases ?? pick(random, LAMP_MIXES);
-  const direction: 1 | -1 = random() < 0.8 ? 1 : -1;
+  const drawnDirection: 1 | -1 = random() < 0.8 ? 1 : -1;
+  const direction = options.direction ?? drawnDirection;
   let axisFor: (shiftPx: number, stretch: number) => Axis;
   let glass: string | null = null;
   let lowNm: number;
@@ -429,6 +434,7 @@ export function realisticLamp(seed: number, options: RealisticLampOptions = {}):
     const g = GENERATOR_GLASSES[glass];
     lowNm = Math.max(g.minNm, between(random, 230, 420));
     highNm = Math.min(1000, lowNm + between(random, 250, 600));
+    if (options.rangeNm) [lowNm, highNm] = options.rangeNm;
     const slitPx = between(random, 2.5, 5);
     const axisOffset = between(random, -0.01, 0.01);
     axisFor = (shiftPx, stretch) => {
@@ -441,6 +447,7 @@ export function realisticLamp(seed: number, options: RealisticLampOptions = {}):
   } else {
     lowNm = between(random, 300, 550);
     highNm = Math.min(1000, lowNm + between(random, 180, 600));
+    if (options.rangeNm) [lowNm, highNm] = options.rangeNm;
     const fwhmPx = between(random, 2.5, 6);
     resolutionNm = (fwhmPx * (highNm - lowNm)) / pixels;
     const k2 = dispersion === "grating-curved" ? between(random, -0.12, 0.12) : 0;
