@@ -1,7 +1,6 @@
 // The refinement both pairing entry points share: from a first guess of where each line falls, match
 // lines with peaks, fit, match again with the fit at a tighter tolerance, and judge the result.
 import type { DispersionKind } from "../types";
-import { CalibrationError } from "./calibration-error";
 import { fitCalibration, type FitCalibrationOptions, type FitCalibrationResult } from "./fit-calibration";
 import { informationCriteria } from "./information-criteria";
 import type { LampLine, LampPair, LampPairingResult, LampPeak } from "./lamp-pairing-types";
@@ -111,8 +110,9 @@ function finalFit(context: PairingContext, pairs: LampPair[]): FitCalibrationRes
       // Over a wide range a strongly dispersing prism defeats Hartmann and polynomials alike (errors of
       // nm at the ends), so the physical model is kept whenever it fits; the others are fallbacks.
       break;
-    } catch (error) {
-      if (!(error instanceof CalibrationError)) throw error;
+    } catch {
+      // Any failed attempt (a CalibrationError, or a singular system from degenerate pairs) only means
+      // this model does not fit these pairs; the next attempt, or "needs-manual", follows.
     }
   }
   return best?.fit ?? null;
@@ -204,8 +204,9 @@ function finishPrismPairing(context: PairingContext, refined: RefinedPairing): L
   let forward: ReturnType<typeof fitForwardHartmann> | null = null;
   try {
     forward = fitForwardHartmann(pairs);
-  } catch (error) {
-    if (!(error instanceof CalibrationError)) throw error;
+  } catch {
+    // Any failed attempt (a CalibrationError, or a singular system from degenerate pairs) only means
+    // this model does not fit these pairs.
   }
   let fit: FitCalibrationResult | null = null;
   try {
@@ -217,15 +218,17 @@ function finishPrismPairing(context: PairingContext, refined: RefinedPairing): L
         ? fitCalibration(pairs, { model: "prism", glass: prism.model.glass, domain: context.domain, rejectOutliers })
         : prism;
     }
-  } catch (error) {
-    if (!(error instanceof CalibrationError)) throw error;
+  } catch {
+    // Any failed attempt (a CalibrationError, or a singular system from degenerate pairs) only means
+    // this model does not fit these pairs.
   }
   for (const options of [{ model: "hartmann" as const }, { model: "polynomial" as const, degree: Math.min(5, pairs.length - 2) }]) {
     if (fit) break;
     try {
       fit = fitCalibration(pairs, { ...options, domain: context.domain, rejectOutliers });
-    } catch (error) {
-      if (!(error instanceof CalibrationError)) throw error;
+    } catch {
+      // Any failed attempt (a CalibrationError, or a singular system from degenerate pairs) only means
+      // this model does not fit these pairs; the next attempt, or "needs-manual", follows.
     }
   }
   if (!fit) return judge(context, [], null, refined.rmsX);

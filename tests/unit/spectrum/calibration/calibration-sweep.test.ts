@@ -8,6 +8,7 @@
 // floor, not the goal); raise them as the pairing improves.
 import { beforeAll, describe, expect, it } from "vitest";
 import {
+  formatSweep,
   runSweep,
   summarise,
   type SweepRecord,
@@ -17,9 +18,12 @@ import {
 // Cheaper than the CLI's mix (2048-pixel arrays only) so the unit suite stays quick.
 const SEED = 1000;
 const COUNT = 300;
-/** Measured on these seeds when the floor was set (see the commit): silent wrong and eligible success. */
-const SILENT_WRONG_FLOOR = 0.03;
-const SUCCESS_FLOOR = 0.15;
+/**
+ * Measured on these seeds when the floors were set: silent wrong 2.3 % (7 of 300; target ≤ 0.5 %),
+ * success 18.5 % of the 281 eligible instruments (target ≥ 95 %), 0 exceptions.
+ */
+const SILENT_WRONG_FLOOR = 0.025;
+const SUCCESS_FLOOR = 0.18;
 
 describe("automatic calibration over 300 realistic instruments", () => {
   let records: SweepRecord[] = [];
@@ -27,6 +31,13 @@ describe("automatic calibration over 300 realistic instruments", () => {
   beforeAll(() => {
     records = runSweep({ seed: SEED, n: COUNT, lamp: { pixels: 2048 } });
     summary = summarise(records);
+    // The figures, for the floors below and for whoever raises them.
+    console.log(
+      formatSweep(records, `unit sweep: seed ${SEED}, n ${COUNT}, 2048-pixel arrays`)
+        .split("\n")
+        .slice(0, 4)
+        .join("\n"),
+    );
   }, 900_000);
 
   it("never throws", () => {
@@ -35,12 +46,12 @@ describe("automatic calibration over 300 realistic instruments", () => {
   });
 
   it("is rarely silently wrong", () => {
-    // Target ≤ 0.5 %; floor measured: SILENT_WRONG_FLOOR.
+    // Target ≤ 0.5 %; a regression floor at what was measured (see SILENT_WRONG_FLOOR).
     expect(summary.silentWrongRate).toBeLessThanOrEqual(SILENT_WRONG_FLOOR);
   });
 
   it("succeeds at least as often as it did when this floor was set", () => {
-    // Target ≥ 95 % of eligible instruments; floor measured: SUCCESS_FLOOR.
+    // Target ≥ 95 % of eligible instruments; a regression floor at what was measured (see SUCCESS_FLOOR).
     expect(summary.successRateEligible).toBeGreaterThanOrEqual(SUCCESS_FLOOR);
   });
 });
