@@ -1,13 +1,17 @@
 // From a lamp spectrum to a wavelength calibration: find the lamp's peaks, pair them with the
 // lamp lines automatically, and fit the chosen (or the default) dispersion relation.
 import { autoPairLampPeaks } from "../calibration/auto-pair-lamp-peaks";
-import type { CalibrationModelKind } from "../calibration/calibration-model";
+import { CalibrationError } from "../calibration/calibration-error";
+import type { CalibrationModel, CalibrationModelKind } from "../calibration/calibration-model";
 import { fitCalibration, type FitCalibrationResult } from "../calibration/fit-calibration";
 import type { LampLine, LampPairingResult } from "../calibration/lamp-pairing-types";
 import { findPeaks } from "../peaks/find-peaks";
 import { binSamples } from "../signal/bin-samples";
 import { binningFactorFor } from "../signal/binning-factor-for";
 import type { DispersionKind, Peak } from "../types";
+
+/** Fewest samples of a lamp spectrum (the peak finder's smoothing needs this many). */
+const MIN_SAMPLES = 16;
 
 export interface CalibrateLampOptions {
   /** The instrument's nominal wavelength range in nm. */
@@ -23,6 +27,8 @@ export interface CalibrateLampOptions {
   /** Lowest signal-to-noise ratio of a lamp peak.
    * @default 8 */
   minSnr?: number;
+  /** The instrument's previous calibration: pairing starts from it (shift, stretch), the blind search is the fallback. */
+  previous?: CalibrationModel;
   /** Seed of the pairing's random draws.
    * @default 1 */
   seed?: number;
@@ -35,12 +41,51 @@ export interface LampCalibration {
   fit: FitCalibrationResult | null;
 }
 
+/** Throws CalibrationError("invalid-input") with a sentence a chemist understands when the input cannot be calibrated. */
+function checkInput(x: Float64Array, y: Float64Array, lines: LampLine[], options: CalibrateLampOptions): void {
+  const invalid = (message: string, details: Record<string, unknown> = {}) => new CalibrationError("invalid-input", message, details);
+  if (!(x instanceof Float64Array) || !(y instanceof Float64Array) || x.length !== y.length) {
+    throw invalid("the lamp spectrum must have one count per pixel (the two columns differ in length)");
+  }
+  if (x.length < MIN_SAMPLES) throw invalid(`the lamp spectrum has ${x.length} samples; at least ${MIN_SAMPLES} are needed`);
+  for (let i = 0; i < x.length; i++) {
+    if (!Number.isFinite(x[i]) || !Number.isFinite(y[i])) throw invalid(`the lamp spectrum has a missing or non-numeric value at sample ${i + 1}`);
+    if (i > 0 && !(x[i] > x[i - 1])) throw invalid(`the lamp spectrum's first column must increase from sample to sample (sample ${i + 1} does not)`);
+  }
+  const range = options?.nominalRangeNm;
+  if (!Array.isArray(range) || range.length !== 2 || !(Number.isFinite(range[0]) && Number.isFinite(range[1]) && range[0] > 0 && range[0] < range[1])) {
+    throw invalid("the instrument's nominal range must be two positive wavelengths, the lower first");
+  }
+  if (options.dispersion !== "grating" && options.dispersion !== "prism") throw invalid('the instrument must be a "grating" or a "prism"');
+  if (options.resolutionNm !== undefined && !(Number.isFinite(options.resolutionNm) && options.resolutionNm > 0)) {
+    throw invalid("the instrument's resolution must be a positive number of nm");
+  }
+  if (!Array.isArray(lines) || lines.some((l) => !(Number.isFinite(l?.wavelengthNm) && l.wavelengthNm > 0 && Number.isFinite(l.intensity)))) {
+    throw invalid("every lamp line needs a positive wavelength and a numeric intensity");
+  }
+}
+
 export function calibrateLamp(
   x: Float64Array,
   y: Float64Array,
   lines: LampLine[],
   options: CalibrateLampOptions,
 ): LampCalibration {
+  checkInput(x, y, lines, options);
+  try {
+    return calibrateCheckedLamp(x, y, lines, options);
+  } catch (error) {
+    if (error instanceof CalibrationError) throw error;
+    // Whatever else fails inside (a degenerate fit, a numerical corner) is still a calibration that
+    // could not be made from this lamp: the caller gets the typed error it maps to a 4xx, with the cause.
+    const reason = error instanceof Error ? error.message : String(error);
+    throw new CalibrationError("fit-failed", `the lamp spectrum could not be calibrated automatically (${reason}); pair a few peaks by hand`, {
+      cause: error instanceof Error ? error.name : typeof error,
+    });
+  }
+}
+
+function calibrateCheckedLamp(x: Float64Array, y: Float64Array, lines: LampLine[], options: CalibrateLampOptions): LampCalibration {
   const { model = "auto", minSnr = 8, seed = 1 } = options;
   // A heavily oversampled array (a line thousands of samples wide) is averaged down to a few samples
   // per line first: the smoothing window is sized for lines a few samples wide.
@@ -56,6 +101,7 @@ export function calibrateLamp(
     resolutionNm: options.resolutionNm,
     domain,
     seed,
+    ...(options.previous ? { previous: options.previous } : {}),
   });
   if (pairing.status !== "paired") return { peaks, pairing, fit: null };
   const fit =

@@ -7,7 +7,9 @@
 // decides the direction of the axis, so both directions are tried. A guess must map the array onto the
 // nominal range within a tolerance; it is scored by the lines that land on a peak, weighted by how well
 // line intensity and peak height ranks agree, less a penalty for strong lines that land on no peak.
+import type { CalibrationModel } from "./calibration-model";
 import { hypothesisShapes, pairingContext } from "./lamp-pairing-setup";
+import { pairsFromPrevious } from "./pairs-from-previous";
 import type { LampLine, LampPair, LampPairingOptions, LampPairingResult, LampPeak } from "./lamp-pairing-types";
 import {
   finishLampPairing,
@@ -45,6 +47,11 @@ export interface AutoPairLampPeaksOptions extends LampPairingOptions {
    * @default 4
    */
   refineCount?: number;
+  /**
+   * The instrument's previous calibration: a recalibration starts from it (a small shift and stretch)
+   * and falls back to the blind search only when that pairing is not trusted.
+   */
+  previous?: CalibrationModel;
   /**
    * Scoring window of a first guess, in multiples of the matching tolerance (half the resolution).
    * @default 2
@@ -95,6 +102,14 @@ export function autoPairLampPeaks(
   const [xMin, xMax] = context.domain;
   const domainSpan = xMax - xMin;
   const shapes = hypothesisShapes(firstGuess === "linear" ? "linear" : context.dispersion, options.nominalRangeNm);
+
+  if (options.previous) {
+    const seeded = pairsFromPrevious(context, options.previous);
+    if (seeded.length >= 4) {
+      const result = refineLampPairing(context, seeded);
+      if (result.status === "paired") return result;
+    }
+  }
 
   const candidates = context.candidateLines;
   if (peaks.length < 4 || candidates.length < 4) {

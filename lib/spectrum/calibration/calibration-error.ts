@@ -11,7 +11,11 @@ export type CalibrationErrorCode =
   /** The prism forward model has no solution for a wavelength (total internal reflection, outside the glass's range). */
   | "not-invertible"
   /** A stored model does not have the shape its kind requires. */
-  | "invalid-model";
+  | "invalid-model"
+  /** A named prism glass is not described (or has a resonance) over the wavelengths it would have to serve. */
+  | "glass-out-of-range"
+  /** The spectrum or the options cannot be calibrated at all (lengths differ, not finite, x not increasing, …). */
+  | "invalid-input";
 
 /** Error thrown by the calibration functions; `code` is stable, `message` is for people. */
 export class CalibrationError extends Error {

@@ -13,7 +13,9 @@ import type {
 import { fitHartmannModel } from "./fit-hartmann-model";
 import { fitPolynomialModel } from "./fit-polynomial-model";
 import { fitPrismModel } from "./fit-prism-model";
+import { assertGlassValidOver } from "./assert-glass-valid-over";
 import { GLASS_NAMES, type GlassName } from "./glass-catalogue";
+import { glassesValidOver } from "./glasses-valid-over";
 import { informationCriteria } from "./information-criteria";
 import { modelEvaluation } from "./model-evaluation";
 import type { CovarianceScaling, ModelFitInput } from "./model-fit-input";
@@ -123,7 +125,16 @@ function fitOnce(input: ModelFitInput, options: Required<Omit<FitCalibrationOpti
   const uniform = options.weighting === "uniform";
   if (options.model === "polynomial") return fitPolynomialModel(input, options.degree, options.covarianceScaling, uniform);
   if (options.model === "hartmann") return fitHartmannModel(input, options.covarianceScaling, uniform);
-  const glasses = options.glass ? [options.glass] : GLASS_NAMES;
+  // A glass is tried only where its formula holds; a named one that does not is refused in words.
+  const pairRange: [number, number] = [Math.min(...input.wavelengthNm), Math.max(...input.wavelengthNm)];
+  if (options.glass) assertGlassValidOver(options.glass, pairRange);
+  const glasses = options.glass ? [options.glass] : glassesValidOver(pairRange, GLASS_NAMES);
+  if (glasses.length === 0) {
+    throw new CalibrationError(
+      "fit-failed",
+      `no catalogue glass is described over ${pairRange[0].toFixed(1)}–${pairRange[1].toFixed(1)} nm; the glass-free Hartmann model can be fitted instead`,
+    );
+  }
   let best: { model: CalibrationModel; aicc: number } | undefined;
   let lastError: unknown;
   for (const glass of glasses) {

@@ -6,6 +6,7 @@
 import { fitForwardPrism, type ForwardPrismFit } from "./fit-forward-prism";
 import type { ForwardHartmannPoint } from "./fit-forward-hartmann";
 import { GLASS_NAMES, type GlassName } from "./glass-catalogue";
+import { glassesValidOver } from "./glasses-valid-over";
 import { informationCriteria } from "./information-criteria";
 
 export interface FitGlassEnsembleOptions {
@@ -51,7 +52,8 @@ export function fitGlassEnsemble(points: readonly ForwardHartmannPoint[], option
   const { maxDeltaAicc = 4, apexDeg = 60, fitAxisAngle = true, glasses = GLASS_NAMES } = options;
   if (!(maxDeltaAicc >= 0)) throw new RangeError(`maxDeltaAicc must be ≥ 0, got ${maxDeltaAicc}`);
   const scored: { fit: ForwardPrismFit; aicc: number }[] = [];
-  for (const glass of glasses) {
+  const wavelengths = points.map((p) => p.wavelengthNm);
+  for (const glass of glassesValidOver([Math.min(...wavelengths), Math.max(...wavelengths)], glasses)) {
     try {
       const fit = fitForwardPrism(points, glass, { apexDeg, fitAxisAngle });
       const { aicc } = informationCriteria(fit.chiSquare, points.length, fit.parameters.length);

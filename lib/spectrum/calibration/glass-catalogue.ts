@@ -2,8 +2,10 @@
 //
 // n² − 1 = Σ Bᵢ λ² / (λ² − Cᵢ), λ in µm, Cᵢ in µm². SCHOTT values are those of the SCHOTT optical
 // glass catalogue data sheets (typed here from memory, and checked against the data sheets' n_d, n_F,
-// n_C in the tests); fused silica is Malitson 1965 (J. Opt. Soc. Am. 55, 1205), also from memory, with
-// Cᵢ given there as squared resonance wavelengths.
+// n_C in the tests); fused silica is Malitson 1965 (J. Opt. Soc. Am. 55, 1205) and CaF₂ Malitson 1963
+// (Appl. Opt. 2, 1103), also from memory, with Cᵢ given there as squared resonance wavelengths.
+// A glass is only ever evaluated inside its validRangeNm (see glassesValidOver): below it the formula
+// approaches an ultraviolet resonance (N-SF11's lies near 249.6 nm) and means nothing.
 
 /** Sellmeier coefficients of one glass, with where they come from. */
 export interface SellmeierGlass {
@@ -13,7 +15,7 @@ export interface SellmeierGlass {
   b: readonly [number, number, number];
   /** C1, C2, C3 in µm². */
   cUm2: readonly [number, number, number];
-  /** Wavelength range over which the maker states the formula, in nm (approximate, from memory; informative only). */
+  /** Wavelength range over which the maker states the formula, in nm (approximate, from memory); calibration uses a glass only inside it. */
   validRangeNm: readonly [number, number];
   /** Citation for the coefficients. */
   source: string;
@@ -71,6 +73,27 @@ export const GLASS_CATALOGUE = {
     cUm2: [0.013188707, 0.0623068142, 155.23629],
     validRangeNm: [370, 2500],
     source: SCHOTT,
+  },
+  SF10: {
+    name: "SF10",
+    b: [1.61625977, 0.259229334, 1.07762317],
+    cUm2: [0.0127534559, 0.0581983954, 116.60768],
+    validRangeNm: [380, 2500],
+    source: "SCHOTT optical glass catalogue, data sheet SF10 (the lead-containing SF10; from memory)",
+  },
+  "N-BAK4": {
+    name: "N-BAK4",
+    b: [1.28834642, 0.132817724, 0.945395373],
+    cUm2: [0.00779980626, 0.0315631177, 105.965875],
+    validRangeNm: [320, 2500],
+    source: SCHOTT,
+  },
+  CaF2: {
+    name: "CaF2",
+    b: [0.5675888, 0.4710914, 3.8484723],
+    cUm2: [0.050263605 ** 2, 0.1003909 ** 2, 34.64904 ** 2],
+    validRangeNm: [230, 9700],
+    source: "Malitson 1963, Appl. Opt. 2, 1103, calcium fluoride at 24 °C (from memory)",
   },
   "fused-silica": {
     name: "fused-silica",

@@ -24,6 +24,9 @@ export interface LampLineBlendedOptions {
   minIntensityRatio?: number;
 }
 
+/** "Hg" of "Hg I": the element whose intensity scale a line's intensity is on. */
+const elementOf = (species: string) => species.trim().split(/\s+/)[0];
+
 /**
  * True when a neighbour among `candidates` would pull the centre of `line`'s peak by more than
  * maxPullFwhm·fwhmX, the pull taken as separation × I_neighbour / (I_line + I_neighbour) (the
@@ -45,11 +48,14 @@ export function lampLineBlended(
   for (const other of candidates) {
     if (other === line) continue;
     const neighbour = lines[other];
-    if (!(neighbour.intensity >= minIntensityRatio * own.intensity)) continue;
+    // Table intensities compare lines of one element only; in a mixed lamp the gases' shares depend
+    // on the lamp, so a neighbour of another element may be as strong as the line itself.
+    const sameElement = elementOf(neighbour.species) === elementOf(own.species);
+    if (sameElement && !(neighbour.intensity >= minIntensityRatio * own.intensity)) continue;
     const separation = Math.abs(predictX(neighbour.wavelengthNm) - ownX);
     if (!(separation < reachFwhm * fwhmX)) continue;
     const total = own.intensity + neighbour.intensity;
-    const weight = total > 0 ? neighbour.intensity / total : 0.5;
+    const weight = !sameElement ? 0.5 : total > 0 ? neighbour.intensity / total : 0.5;
     if (separation * weight > maxPullFwhm * fwhmX) return true;
   }
   return false;

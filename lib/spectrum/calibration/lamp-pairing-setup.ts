@@ -2,7 +2,8 @@
 // first-guess shape g(λ) in which the dispersion hypothesis x = A + B·g(λ) is a straight line.
 import type { DispersionKind } from "../types";
 import { assertDomain, assertFiniteArray } from "./assertions";
-import { GLASS_CATALOGUE, type GlassName } from "./glass-catalogue";
+import { GLASS_CATALOGUE, GLASS_NAMES, type GlassName } from "./glass-catalogue";
+import { glassesValidOver } from "./glasses-valid-over";
 import type { LampLine, LampPairingOptions, LampPeak } from "./lamp-pairing-types";
 import type { PairingContext } from "./refine-lamp-pairing";
 import { refractiveIndex } from "./refractive-index";
@@ -40,9 +41,30 @@ export function hartmannPoleOfGlass(glass: GlassName, rangeNm: [number, number])
 /** The straightening axes g(λ) to try for a dispersion kind (or a forced straight line). */
 export function hypothesisShapes(dispersion: DispersionKind | "linear", rangeNm: [number, number]): ((lambda: number) => number)[] {
   if (dispersion !== "prism") return [(lambda) => lambda];
-  // A crown and a dense flint bracket the curvature of the usual prism glasses.
-  return (["N-BK7", "N-SF11"] as const).map((glass) => {
-    const pole = hartmannPoleOfGlass(glass, rangeNm);
+  // A crown and a dense flint bracket the curvature of the usual prism glasses. A glass is evaluated
+  // only where it has no resonance (N-SF11's lies near 249.6 nm); for a range reaching further into
+  // the ultraviolet the least and the most dispersive glass that does serve take their place.
+  const [low, high] = [Math.min(...rangeNm), Math.max(...rangeNm)];
+  const evaluated: [number, number] = [0.9 * low, high];
+  const valid = glassesValidOver(evaluated, GLASS_NAMES, true);
+  if (valid.length === 0) {
+    // No catalogue glass reaches this far into the ultraviolet: a pole well below the range still
+    // spreads the blue more than the red, which is all a first guess needs.
+    const pole = 0.5 * low;
+    return [(lambda: number) => 1 / (lambda - pole)];
+  }
+  const strength = (glass: GlassName) => {
+    const nLow = refractiveIndex(GLASS_CATALOGUE[glass], evaluated[0]);
+    const nHigh = refractiveIndex(GLASS_CATALOGUE[glass], evaluated[1]);
+    return (nLow - nHigh) / (nHigh - 1);
+  };
+  const byStrength = valid.slice().sort((a, b) => strength(a) - strength(b));
+  const bracket =
+    valid.includes("N-BK7") && valid.includes("N-SF11")
+      ? (["N-BK7", "N-SF11"] as GlassName[])
+      : [...new Set([byStrength[0], byStrength[byStrength.length - 1]])];
+  return bracket.map((glass) => {
+    const pole = hartmannPoleOfGlass(glass, [low, high]);
     return (lambda: number) => 1 / (lambda - pole);
   });
 }

@@ -1,6 +1,7 @@
 // Shapes shared by automatic and manual pairing of lamp peaks with known lamp lines.
 import type { CalibrationPair, DispersionKind } from "../types";
 import type { FitCalibrationResult } from "./fit-calibration";
+import type { PairingCheck } from "./verify-lamp-pairing";
 
 /** A peak found in the lamp spectrum, on the input axis. */
 export interface LampPeak {
@@ -48,7 +49,18 @@ export interface LampPairingOptions {
 
 /** Outcome of pairing. */
 export interface LampPairingResult {
-  status: "paired" | "needs-manual";
+  /**
+   * "paired": trusted (every check passed); "check": a calibration was found but a check failed — it is
+   * in `candidate` and `reasons` says why, for a person to confirm or correct; "needs-manual": nothing
+   * usable was found.
+   */
+  status: "paired" | "check" | "needs-manual";
+  /** The checks of an automatic pairing (absent for manual pairing, whose pairs a person chose). */
+  checks?: PairingCheck[];
+  /** Why the pairing is not trusted, in sentences; empty when paired. */
+  reasons?: string[];
+  /** The untrusted calibration of a "check" result (its pairs are in `suggestion`); null otherwise. */
+  candidate?: FitCalibrationResult | null;
   /**
    * 0..1: (½·fraction of the strongest lines that found a peak + ½·fraction of the strongest peaks that
    * found a line) × (1 − exp(−(pairs − parameters)/4)) × clamp(1 − 2·rmsX/toleranceX, 0, 1). Chance

@@ -1,7 +1,6 @@
 // The refinement both pairing entry points share: from a first guess of where each line falls, match
 // lines with peaks, fit, match again with the fit at a tighter tolerance, and judge the result.
 import type { DispersionKind } from "../types";
-import { CalibrationError } from "./calibration-error";
 import { fitCalibration, type FitCalibrationOptions, type FitCalibrationResult } from "./fit-calibration";
 import { informationCriteria } from "./information-criteria";
 import type { LampLine, LampPair, LampPairingResult, LampPeak } from "./lamp-pairing-types";
@@ -10,6 +9,7 @@ import { growLampPairs } from "./grow-lamp-pairs";
 import { lampLineBlended } from "./lamp-line-blended";
 import { toLampPair } from "./to-lamp-pair";
 import { fitForwardHartmann } from "./fit-forward-hartmann";
+import { verifyLampPairing } from "./verify-lamp-pairing";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
 /** Everything the refinement needs, prepared by the caller. */
@@ -110,8 +110,9 @@ function finalFit(context: PairingContext, pairs: LampPair[]): FitCalibrationRes
       // Over a wide range a strongly dispersing prism defeats Hartmann and polynomials alike (errors of
       // nm at the ends), so the physical model is kept whenever it fits; the others are fallbacks.
       break;
-    } catch (error) {
-      if (!(error instanceof CalibrationError)) throw error;
+    } catch {
+      // Any failed attempt (a CalibrationError, or a singular system from degenerate pairs) only means
+      // this model does not fit these pairs; the next attempt, or "needs-manual", follows.
     }
   }
   return best?.fit ?? null;
@@ -203,8 +204,9 @@ function finishPrismPairing(context: PairingContext, refined: RefinedPairing): L
   let forward: ReturnType<typeof fitForwardHartmann> | null = null;
   try {
     forward = fitForwardHartmann(pairs);
-  } catch (error) {
-    if (!(error instanceof CalibrationError)) throw error;
+  } catch {
+    // Any failed attempt (a CalibrationError, or a singular system from degenerate pairs) only means
+    // this model does not fit these pairs.
   }
   let fit: FitCalibrationResult | null = null;
   try {
@@ -216,15 +218,17 @@ function finishPrismPairing(context: PairingContext, refined: RefinedPairing): L
         ? fitCalibration(pairs, { model: "prism", glass: prism.model.glass, domain: context.domain, rejectOutliers })
         : prism;
     }
-  } catch (error) {
-    if (!(error instanceof CalibrationError)) throw error;
+  } catch {
+    // Any failed attempt (a CalibrationError, or a singular system from degenerate pairs) only means
+    // this model does not fit these pairs.
   }
   for (const options of [{ model: "hartmann" as const }, { model: "polynomial" as const, degree: Math.min(5, pairs.length - 2) }]) {
     if (fit) break;
     try {
       fit = fitCalibration(pairs, { ...options, domain: context.domain, rejectOutliers });
-    } catch (error) {
-      if (!(error instanceof CalibrationError)) throw error;
+    } catch {
+      // Any failed attempt (a CalibrationError, or a singular system from degenerate pairs) only means
+      // this model does not fit these pairs; the next attempt, or "needs-manual", follows.
     }
   }
   if (!fit) return judge(context, [], null, refined.rmsX);
@@ -243,10 +247,18 @@ export function refineLampPairing(context: PairingContext, initialPairs: LampPai
   return finishLampPairing(context, refineLampPairs(context, initialPairs));
 }
 
-function judge(context: PairingContext, pairs: LampPair[], fit: FitCalibrationResult | null, rmsX: number): LampPairingResult {
+/** Below this old-style score the pairs are chance coincidences, not a calibration to check. */
+const CHANCE_CONFIDENCE = 0.1;
+
+/** At most this many pairs are dropped on the leave-one-out check before a pairing is reported for checking. */
+const MAX_LOO_DROPS = 2;
+
+function judge(context: PairingContext, givenPairs: LampPair[], givenFit: FitCalibrationResult | null, rmsX: number): LampPairingResult {
+  let pairs = givenPairs;
+  let fit = givenFit;
   const { peaks, lines, candidateLines } = context;
-  const pairedPeaks = new Set(pairs.map((p) => p.peakIndex));
-  const pairedLines = new Set(pairs.map((p) => p.lineIndex));
+  let pairedPeaks = new Set(pairs.map((p) => p.peakIndex));
+  let pairedLines = new Set(pairs.map((p) => p.lineIndex));
   let confidence = 0;
   if (fit) {
     // Lines the fit puts on the array; as many of the strongest as there are peaks should have been seen.
@@ -276,11 +288,45 @@ function judge(context: PairingContext, pairs: LampPair[], fit: FitCalibrationRe
     const precision = Math.min(Math.max(1 - (2 * rmsX) / context.toleranceX, 0), 1);
     confidence = (0.5 * lineFraction + 0.5 * peakFraction) * pairFactor * precision;
   }
-  const paired = fit !== null && confidence >= context.minConfidence;
+  // An automatic pairing must also pass the checks that a wrong pairing with a small RMS fails; a
+  // manual one (forced seeds) is the person's choice and is only fitted.
+  let verdict = fit && context.forced.size === 0 && pairs.length >= 3 ? verifyLampPairing(context, pairs, fit) : null;
+  // A pair that the others put elsewhere (a stray peak next to a missing line) is dropped and the rest
+  // refitted and checked again, a few times at most; a pairing that needs more is not trusted.
+  let trial = { pairs, fit, verdict };
+  for (let round = 0; round < MAX_LOO_DROPS && trial.verdict && !trial.verdict.passed && trial.verdict.looOutlier; round++) {
+    const outlier = trial.verdict.looOutlier;
+    const rest = trial.pairs.filter((p) => p !== outlier);
+    const refit = rest.length >= 3 ? finalFit(context, rest) : null;
+    if (!refit) break;
+    const usedRest = rest.filter((_, i) => refit.pairs[i].used);
+    trial = { pairs: usedRest, fit: refit, verdict: verifyLampPairing(context, usedRest, refit) };
+  }
+  // Only a pairing that passes after the drops replaces the one given; otherwise the given one is reported.
+  if (trial.verdict?.passed && trial.pairs !== pairs) {
+    ({ pairs, fit, verdict } = trial);
+    pairedPeaks = new Set(pairs.map((p) => p.peakIndex));
+    pairedLines = new Set(pairs.map((p) => p.lineIndex));
+  }
+  const coincidence = confidence < CHANCE_CONFIDENCE;
+  let status: LampPairingResult["status"];
+  if (!fit || coincidence) status = "needs-manual";
+  else if (verdict) status = verdict.passed ? "paired" : "check";
+  else status = confidence >= context.minConfidence ? "paired" : "needs-manual";
+  if (verdict) {
+    // Unlisted lamp lines and missing ones lower the old score without saying anything against the
+    // pairing; the checks' margin is what separates right from wrong (see PAIRING_CHECK_LIMITS).
+    confidence = verdict.passed ? 0.5 + 0.5 * verdict.margin : Math.min(0.49, 0.5 * confidence);
+  }
+  const reasons = verdict ? verdict.checks.filter((c) => !c.passed).map((c) => c.reason) : [];
+  const paired = status === "paired";
   const unmatchedPeaks = paired ? peaks.filter((_, i) => !pairedPeaks.has(i)) : peaks.slice();
   const unmatchedLines = candidateLines.filter((l) => !paired || !pairedLines.has(l)).map((l) => lines[l]);
   return {
-    status: paired ? "paired" : "needs-manual",
+    status,
+    ...(verdict ? { checks: verdict.checks } : {}),
+    reasons,
+    candidate: status === "check" ? fit : null,
     confidence,
     pairs: paired ? pairs : [],
     model: paired ? fit : null,
@@ -289,7 +335,9 @@ function judge(context: PairingContext, pairs: LampPair[], fit: FitCalibrationRe
     unmatchedLines,
     message: paired
       ? `paired ${pairs.length} of ${peaks.length} peaks (confidence ${confidence.toFixed(2)}, RMS ${fit!.rmsNm.toFixed(4)} nm)`
-      : `no trustworthy pairing (confidence ${confidence.toFixed(2)} < ${context.minConfidence}): ` +
-        `pair two or three peaks by hand and extend from there`,
+      : status === "check"
+        ? `check this pairing: ${reasons.join("; ")}`
+        : `no trustworthy pairing (confidence ${confidence.toFixed(2)} < ${context.minConfidence}): ` +
+          `pair two or three peaks by hand and extend from there`,
   };
 }

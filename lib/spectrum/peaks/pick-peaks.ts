@@ -141,6 +141,14 @@ export function pickPeaks(x: Float64Array, signal: PreparedSignal, options: Pick
       fwhm = x[rightLimit] - x[leftLimit];
       fwhmSamples = rightLimit - leftLimit;
     }
+    // A width is positive by definition. A fitted top more than twice the top sample (a one-sample
+    // spike, a flat or clipped top, a top on a negative baseline) can put an interpolated crossing on
+    // the wrong side of the top and make the difference zero or negative; such a peak is no wider than
+    // the sampling can tell, so it gets one sample's width.
+    if (!(fwhmSamples > 0) || !(fwhm > 0) || !Number.isFinite(fwhm)) {
+      fwhmSamples = 1;
+      fwhm = Math.max(Math.abs(xAtIndex(x, k + 0.5) - xAtIndex(x, k - 0.5)), Number.MIN_VALUE);
+    }
     // A flank that stops at a neighbour's valley before half height is shared with that neighbour.
     let blended = (left === null && leftLimit > 0) || (right === null && rightLimit < n - 1);
 

@@ -81,7 +81,15 @@ describe("autoPairLampPeaks", () => {
       it(`calibrates a prism lamp across the array after automatic pairing: axis direction ${direction}, lamp ${seed}`, () => {
         const lamp = syntheticLamp(LINES, xOf, { domain: DOMAIN, noiseX: 0.05, dropFraction: 0.2, spurious: 5, seed, maxPeaks: 40 });
         const result = autoPairLampPeaks(lamp.peaks, LINES, { nominalRangeNm: NOMINAL, dispersion: "prism", domain: DOMAIN, seed: 7 });
-        expect(result.status).toBe("paired");
+        // The pairing checks (verify-lamp-pairing.ts) may ask for a check instead of trusting a pairing
+        // that holds a wrong pair; the calibration they hold back must still be the right one.
+        expect(["paired", "check"]).toContain(result.status);
+        if (result.status === "check") {
+          expect(result.reasons!.length).toBeGreaterThan(0);
+          const held = evaluateCalibration(result.candidate!.model, new Float64Array([150, 700, 1300, 1900]));
+          [150, 700, 1300, 1900].forEach((xi, i) => expect(Math.abs(held[i] - trueNm(xOf, xi))).toBeLessThan(PRISM_TOLERANCE_NM));
+          return;
+        }
         const { correct, wrong, real } = count(result, lamp);
         expect(correct).toBeGreaterThanOrEqual(0.75 * real);
         // One wrong pair is allowed: a stray peak can sit within a noise σ of a line that is missing,

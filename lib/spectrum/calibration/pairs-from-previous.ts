@@ -1,0 +1,109 @@
+// First pairs of a recalibration: the instrument's previous calibration, moved by a small shift and
+// stretch (a day's drift: temperature, a knock), predicts where each lamp line lands; the transform
+// that puts the most lamp lines on peaks wins, and its matches seed the usual refinement.
+import type { CalibrationModel } from "./calibration-model";
+import type { LampPair } from "./lamp-pairing-types";
+import { modelEvaluation } from "./model-evaluation";
+import type { PairingContext } from "./refine-lamp-pairing";
+import { toLampPair } from "./to-lamp-pair";
+
+export interface PairsFromPreviousOptions {
+  /** Largest shift searched, as a fraction of the array. @default 0.03 */
+  maxShiftFraction?: number;
+  /** Largest relative stretch searched about the array's middle. @default 0.01 */
+  maxStretch?: number;
+}
+
+/** x(λ) of a model on the context's domain, by inverting it on a dense grid; NaN off the array. */
+function inverse(
+  model: CalibrationModel,
+  [xMin, xMax]: [number, number],
+): (lambda: number) => number {
+  const count = 4097;
+  const grid = Array.from({ length: count }, (_, i) => xMin + ((xMax - xMin) * i) / (count - 1));
+  const wavelengths = modelEvaluation(model, grid).wavelengthNm;
+  const rising = wavelengths[count - 1] > wavelengths[0];
+  const value = (i: number) => (rising ? wavelengths[i] : -wavelengths[i]);
+  return (lambda) => {
+    const goal = rising ? lambda : -lambda;
+    if (!(goal >= value(0) && goal <= value(count - 1))) return Number.NaN;
+    let low = 0;
+    let high = count - 1;
+    while (high - low > 1) {
+      const mid = (low + high) >> 1;
+      if (value(mid) <= goal) low = mid;
+      else high = mid;
+    }
+    const span = value(high) - value(low) || 1;
+    return grid[low] + ((grid[high] - grid[low]) * (goal - value(low))) / span;
+  };
+}
+
+/** The lamp pairs the best shifted and stretched previous calibration makes; empty when it cannot be used. */
+export function pairsFromPrevious(
+  context: PairingContext,
+  previous: CalibrationModel,
+  options: PairsFromPreviousOptions = {},
+): LampPair[] {
+  const { maxShiftFraction = 0.03, maxStretch = 0.01 } = options;
+  const [xMin, xMax] = context.domain;
+  let xOf: (lambda: number) => number;
+  try {
+    xOf = inverse(previous, context.domain);
+  } catch {
+    return [];
+  }
+  const { peaks, lines, candidateLines, toleranceX } = context;
+  const predicted = candidateLines
+    .map((l) => ({ line: l, x: xOf(lines[l].wavelengthNm) }))
+    .filter((c) => Number.isFinite(c.x));
+  if (predicted.length === 0 || peaks.length === 0) return [];
+  const order = peaks.map((_, i) => i).sort((a, b) => peaks[a].x - peaks[b].x);
+  const sortedX = order.map((i) => peaks[i].x);
+  const nearest = (x: number): number => {
+    let low = 0;
+    let high = sortedX.length;
+    while (low < high) {
+      const mid = (low + high) >> 1;
+      if (sortedX[mid] < x) low = mid + 1;
+      else high = mid;
+    }
+    const candidates = [low - 1, low].filter((k) => k >= 0 && k < sortedX.length);
+    return candidates.reduce(
+      (best, k) => (Math.abs(sortedX[k] - x) < Math.abs(sortedX[best] - x) ? k : best),
+      candidates[0],
+    );
+  };
+  const middle = 0.5 * (xMin + xMax);
+  const span = xMax - xMin;
+  const maxShift = maxShiftFraction * span;
+  const shiftStep = 0.5 * toleranceX;
+  const stretchSteps = 7;
+  // Strong lines count more: a chance coincidence with a faint line is cheap, with a strong one rare.
+  const weight = (l: number) => 1 + Math.log1p(Math.max(lines[l].intensity, 0));
+  let best = { score: -1, shift: 0, stretch: 1 };
+  for (let s = 0; s < stretchSteps; s++) {
+    const stretch = 1 + maxStretch * ((2 * s) / (stretchSteps - 1) - 1);
+    for (let shift = -maxShift; shift <= maxShift; shift += shiftStep) {
+      let score = 0;
+      for (const { line, x } of predicted) {
+        const moved = middle + (x - middle) * stretch + shift;
+        const k = nearest(moved);
+        if (Math.abs(sortedX[k] - moved) <= toleranceX) score += weight(line);
+      }
+      if (score > best.score) best = { score, shift, stretch };
+    }
+  }
+  const byPeak = new Map<number, { line: number; distance: number }>();
+  for (const { line, x } of predicted) {
+    const moved = middle + (x - middle) * best.stretch + best.shift;
+    const k = nearest(moved);
+    const distance = Math.abs(sortedX[k] - moved);
+    if (distance > toleranceX) continue;
+    const current = byPeak.get(order[k]);
+    if (!current || distance < current.distance) byPeak.set(order[k], { line, distance });
+  }
+  return [...byPeak]
+    .map(([peak, { line }]) => toLampPair(context, peak, line))
+    .sort((a, b) => a.x - b.x);
+}

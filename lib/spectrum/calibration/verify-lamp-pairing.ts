@@ -1,0 +1,294 @@
+// Checks an automatic lamp pairing before it may be called "paired": a wrong pairing can fit its own
+// pairs with a tiny RMS (one wrong pair at the far end of a cluster of right ones is absorbed by a
+// cubic), so the residuals alone prove nothing. Four independent questions are asked instead:
+// - leave-one-out: does every pair still fall where the others put it when it is left out?
+// - lopsided support: does the covered range hang on one or two pairs beyond a wide gap?
+// - model agreement: do two differently shaped models of the same pairs agree over the covered range?
+// - expected lines: does a peak stand where the strong lamp lines of each gas should be?
+// Each answer is kept as a number and a sentence; the pairing is trusted only when all pass.
+import {
+  fitCalibration,
+  type FitCalibrationOptions,
+  type FitCalibrationResult,
+} from "./fit-calibration";
+import type { LampPair } from "./lamp-pairing-types";
+import { lampLineBlended } from "./lamp-line-blended";
+import { modelEvaluation } from "./model-evaluation";
+import type { PairingContext } from "./refine-lamp-pairing";
+import { weightedLeastSquares } from "./weighted-least-squares";
+
+/** One check of a pairing, with its measure and, when it fails, why in words. */
+export interface PairingCheck {
+  name:
+    | "pairs"
+    | "residuals"
+    | "leave-one-out"
+    | "lopsided-support"
+    | "model-agreement"
+    | "expected-lines";
+  passed: boolean;
+  /** The check's measure (see each check); larger is worse except for "expected-lines" and "pairs". */
+  value: number;
+  /** Why it failed, in words a chemist understands; empty when it passed. */
+  reason: string;
+}
+
+export interface PairingVerdict {
+  checks: PairingCheck[];
+  /** True when every check passed. */
+  passed: boolean;
+  /** 0..1: how far inside its limits the weakest check stands (0 at or beyond a limit). */
+  margin: number;
+  /** The pair the leave-one-out check found worst, when that check failed. */
+  looOutlier?: LampPair;
+}
+
+/** Limits of the checks, tuned on the realistic-lamp sweep (tests/support/realistic-lamp.ts; `npm run sweep`). */
+export const PAIRING_CHECK_LIMITS = {
+  /** Fewest pairs a trusted automatic pairing has. */
+  minPairs: 7,
+  /** Largest RMS of the pairs about a forward model, in matching tolerances: chance coincidences scatter over the whole tolerance (RMS ≈ 0.58), true pairs sit far inside it. */
+  maxResiduals: 0.2,
+  /** Largest leave-one-out miss, in matching tolerances (half a resolution element). */
+  maxLeaveOneOut: 1.5,
+  /** Largest share of the covered span that one or two end pairs may sit beyond a gap. */
+  maxEndGap: 0.3,
+  /** Largest disagreement of two model shapes over the covered range, in matching tolerances (grating). */
+  maxModelDisagreement: 0.25,
+  /**
+   * The same for a prism: over a wide range Hartmann and the physical prism of the right glass differ by
+   * up to about a pixel on right pairings (the demo F2 prism, 350–940 nm: 0.8 px), wrong ones by several.
+   */
+  maxModelDisagreementPrism: 1.2,
+  /** Smallest share of the strong, unblended lamp lines on the array that must show a peak. */
+  minExpectedSeen: 0.6,
+} as const;
+
+/** x as a polynomial of `degree` in the straightened axis, fitted to `pairs`; null when singular. */
+function forwardPolynomial(
+  context: PairingContext,
+  pairs: readonly LampPair[],
+  degree: number,
+): ((lambda: number) => number) | null {
+  const [low, high] = context.nominalRangeNm;
+  const gLow = context.straighten(low);
+  const gHigh = context.straighten(high);
+  const u = (lambda: number) => (2 * (context.straighten(lambda) - gLow)) / (gHigh - gLow) - 1;
+  const design = pairs.map((p) =>
+    Array.from({ length: degree + 1 }, (_, k) => u(p.wavelengthNm) ** k),
+  );
+  try {
+    const { parameters } = weightedLeastSquares(
+      design,
+      pairs.map((p) => p.x),
+      pairs.map(() => 1),
+    );
+    if (!parameters.every(Number.isFinite)) return null;
+    return (lambda) => parameters.reduce((sum, a, k) => sum + a * u(lambda) ** k, 0);
+  } catch {
+    return null;
+  }
+}
+
+/** Checks `pairs` (the used pairs) and their final `fit`; see the module comment. */
+export function verifyLampPairing(
+  context: PairingContext,
+  pairs: readonly LampPair[],
+  fit: FitCalibrationResult,
+): PairingVerdict {
+  const limits = PAIRING_CHECK_LIMITS;
+  const tol = context.toleranceX;
+  const checks: PairingCheck[] = [];
+  const n = pairs.length;
+  checks.push({
+    name: "pairs",
+    passed: n >= limits.minPairs,
+    value: n,
+    reason:
+      n >= limits.minPairs
+        ? ""
+        : `only ${n} lamp lines were paired; at least ${limits.minPairs} are needed to trust an automatic pairing`,
+  });
+  const sorted = pairs.slice().sort((a, b) => a.x - b.x);
+  // A prism's dispersion over a wide range needs a quartic even in the straightened axis once the
+  // pairs are many; a grating's a cubic.
+  const degree = Math.max(1, Math.min(context.dispersion === "prism" && n >= 12 ? 4 : 3, n - 4));
+
+  const whole = n >= degree + 2 ? forwardPolynomial(context, sorted, degree) : null;
+  const rms = whole
+    ? Math.sqrt(
+        sorted.reduce((s, p) => s + (whole(p.wavelengthNm) - p.x) ** 2, 0) /
+          Math.max(1, n - degree - 1),
+      ) / tol
+    : Infinity;
+  checks.push({
+    name: "residuals",
+    passed: rms <= limits.maxResiduals,
+    value: rms,
+    reason:
+      rms <= limits.maxResiduals
+        ? ""
+        : `the pairs scatter by ${(rms * tol).toFixed(2)} px about a smooth dispersion, as chance coincidences do`,
+  });
+
+  // Leave-one-out: each pair predicted by a model of the others.
+  let worstLoo = 0;
+  let worstPair: LampPair | undefined;
+  if (n >= degree + 3) {
+    // The two end pairs are left to the lopsided-support check: predicting one from the others is an
+    // extrapolation, wild for a polynomial even when the pair is right (a prism's far blue).
+    for (let i = 1; i < n - 1; i++) {
+      const rest = sorted.filter((_, k) => k !== i);
+      const model = forwardPolynomial(context, rest, degree);
+      const miss = model ? Math.abs(model(sorted[i].wavelengthNm) - sorted[i].x) / tol : Infinity;
+      if (!(miss <= worstLoo)) {
+        worstLoo = miss;
+        worstPair = sorted[i];
+      }
+    }
+  }
+  checks.push({
+    name: "leave-one-out",
+    passed: worstLoo <= limits.maxLeaveOneOut,
+    value: worstLoo,
+    reason:
+      worstLoo <= limits.maxLeaveOneOut
+        ? ""
+        : `the pair ${worstPair ? `${worstPair.species ?? ""} ${worstPair.wavelengthNm.toFixed(3)} nm at x ${worstPair.x.toFixed(1)}`.trim() : ""} ` +
+          `lands ${Number.isFinite(worstLoo) ? (worstLoo * tol).toFixed(1) : "far"} px from where the other pairs put it when it is left out`,
+  });
+
+  // Lopsided support: one or two pairs beyond a wide gap at either end of the covered range, measured
+  // in wavelength (a prism spreads its sparse blue lines over many pixels; what matters is how much of
+  // the spectrum has no line).
+  const span = n >= 2 ? sorted[n - 1].x - sorted[0].x : 0;
+  const byWavelength = sorted.map((p) => p.wavelengthNm).sort((a, b) => a - b);
+  const spanNm = n >= 2 ? byWavelength[n - 1] - byWavelength[0] : 0;
+  let endGap = 0;
+  if (spanNm > 0) {
+    for (const k of [1, 2]) {
+      if (n < 2 * k + 2) continue;
+      endGap = Math.max(
+        endGap,
+        (byWavelength[k] - byWavelength[k - 1]) / spanNm,
+        (byWavelength[n - k] - byWavelength[n - k - 1]) / spanNm,
+      );
+    }
+  }
+  checks.push({
+    name: "lopsided-support",
+    passed: endGap <= limits.maxEndGap,
+    value: endGap,
+    reason:
+      endGap <= limits.maxEndGap
+        ? ""
+        : `one or two pairs at an end of the covered range stand beyond a gap of ${(100 * endGap).toFixed(0)} % of it, so they alone decide the calibration there`,
+  });
+
+  // Model agreement: the final model against a model of another shape fitted to the same pairs (a
+  // polynomial one degree higher for a grating; Hartmann against the physical prism and the reverse),
+  // over the covered range, in matching tolerances; a forward polynomial in the straightened axis
+  // when that cannot be fitted.
+  let disagreement = Infinity;
+  if (span > 0) {
+    const grid = Array.from({ length: 9 }, (_, i) => sorted[0].x + (span * i) / 8);
+    const final = modelEvaluation(fit.model, grid);
+    const alternativeOptions: FitCalibrationOptions =
+      fit.model.kind === "polynomial"
+        ? { model: "polynomial", degree: Math.min(5, fit.model.degree + 1) }
+        : fit.model.kind === "prism"
+          ? { model: "hartmann" }
+          : { model: "polynomial", degree: Math.min(5, Math.max(1, n - 3)) };
+    try {
+      const other = fitCalibration(sorted, {
+        ...alternativeOptions,
+        domain: context.domain,
+        rejectOutliers: false,
+      });
+      const lambda = modelEvaluation(other.model, grid).wavelengthNm;
+      disagreement = Math.max(
+        ...grid.map(
+          (_, i) =>
+            Math.abs(lambda[i] - final.wavelengthNm[i]) / (tol * Math.abs(final.dispersion[i])),
+        ),
+      );
+    } catch {
+      const alternativeDegree = Math.min(degree + 1, Math.max(1, n - 3));
+      const alternative =
+        n >= alternativeDegree + 2 ? forwardPolynomial(context, sorted, alternativeDegree) : null;
+      if (alternative)
+        disagreement = Math.max(
+          ...grid.map((x, i) => Math.abs(alternative(final.wavelengthNm[i]) - x) / tol),
+        );
+    }
+  }
+  const maxDisagreement =
+    context.dispersion === "prism" ? limits.maxModelDisagreementPrism : limits.maxModelDisagreement;
+  checks.push({
+    name: "model-agreement",
+    passed: disagreement <= maxDisagreement,
+    value: disagreement,
+    reason:
+      disagreement <= maxDisagreement
+        ? ""
+        : `two differently shaped models of the same pairs disagree by ${Number.isFinite(disagreement) ? (disagreement * tol).toFixed(1) : "many"} px inside the covered range`,
+  });
+
+  // Expected lines: the stronger half of each gas's unblended lines on the array should show a peak.
+  const predict = forwardPolynomial(context, sorted, degree);
+  let seen = 0;
+  let expected = 0;
+  if (predict) {
+    const widths = context.peaks
+      .map((p) => p.fwhm)
+      .filter((w): w is number => w !== undefined && w > 0)
+      .sort((a, b) => a - b);
+    const fwhmX = widths.length > 0 ? widths[widths.length >> 1] : 2 * tol;
+    const peakX = context.peaks.map((p) => p.x).sort((a, b) => a - b);
+    const byElement = new Map<string, number[]>();
+    for (const l of context.candidateLines) {
+      const x = predict(context.lines[l].wavelengthNm);
+      if (!(x >= context.domain[0] && x <= context.domain[1])) continue;
+      const element = context.lines[l].species.trim().split(/\s+/)[0];
+      byElement.set(element, [...(byElement.get(element) ?? []), l]);
+    }
+    for (const group of byElement.values()) {
+      const strong = group
+        .slice()
+        .sort((a, b) => context.lines[b].intensity - context.lines[a].intensity)
+        .slice(0, Math.max(3, Math.ceil(group.length / 2)));
+      for (const l of strong) {
+        if (lampLineBlended(context.lines, context.candidateLines, l, predict, fwhmX)) continue;
+        expected++;
+        const x = predict(context.lines[l].wavelengthNm);
+        if (peakX.some((p) => Math.abs(p - x) <= 1.5 * tol)) seen++;
+      }
+    }
+  }
+  const seenFraction = expected > 0 ? seen / expected : 0;
+  checks.push({
+    name: "expected-lines",
+    passed: seenFraction >= limits.minExpectedSeen,
+    value: seenFraction,
+    reason:
+      seenFraction >= limits.minExpectedSeen
+        ? ""
+        : `only ${seen} of the ${expected} strong lamp lines this calibration puts on the array have a peak there`,
+  });
+
+  const margins = [
+    Math.min(1, Math.max(0, (n - limits.minPairs + 1) / 8)),
+    1 - rms / limits.maxResiduals,
+    1 - worstLoo / limits.maxLeaveOneOut,
+    1 - endGap / limits.maxEndGap,
+    1 - disagreement / maxDisagreement,
+    (seenFraction - limits.minExpectedSeen) / (1 - limits.minExpectedSeen),
+  ].map((m) => (Number.isFinite(m) ? Math.min(1, Math.max(0, m)) : 0));
+  const looFailed = worstLoo > limits.maxLeaveOneOut;
+  return {
+    checks,
+    passed: checks.every((c) => c.passed),
+    margin: Math.min(...margins),
+    ...(looFailed && worstPair ? { looOutlier: worstPair } : {}),
+  };
+}

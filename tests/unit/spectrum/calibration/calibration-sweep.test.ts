@@ -1,0 +1,57 @@
+// A fixed-seed sweep of 300 realistic instruments (tests/support/realistic-lamp.ts) through automatic
+// lamp calibration, against the generator's truth. The same figures, for any seed and size, come
+// from `npm run sweep -- --seed N --n M` (add --previous for recalibration from the last calibration).
+//
+// The issue's targets: success ≥ 95 % where ≥ 6 table lamp lines are in range; silent wrong (reported
+// "paired" but outside tolerance) ≤ 0.5 % of all; 0 exceptions; ≥ 99 % with the previous calibration.
+// Not all are reached yet: the floors below are what this code measured on these seeds (a regression
+// floor, not the goal); raise them as the pairing improves.
+import { beforeAll, describe, expect, it } from "vitest";
+import {
+  formatSweep,
+  runSweep,
+  summarise,
+  type SweepRecord,
+  type SweepSummary,
+} from "../../../support/calibration-sweep";
+
+// Cheaper than the CLI's mix (2048-pixel arrays only) so the unit suite stays quick.
+const SEED = 1000;
+const COUNT = 300;
+/**
+ * Measured on these seeds when the floors were set: silent wrong 2.3 % (7 of 300; target ≤ 0.5 %),
+ * success 18.5 % of the 281 eligible instruments (target ≥ 95 %), 0 exceptions.
+ */
+const SILENT_WRONG_FLOOR = 0.025;
+const SUCCESS_FLOOR = 0.18;
+
+describe("automatic calibration over 300 realistic instruments", () => {
+  let records: SweepRecord[] = [];
+  let summary: SweepSummary;
+  beforeAll(() => {
+    records = runSweep({ seed: SEED, n: COUNT, lamp: { pixels: 2048 } });
+    summary = summarise(records);
+    // The figures, for the floors below and for whoever raises them.
+    console.log(
+      formatSweep(records, `unit sweep: seed ${SEED}, n ${COUNT}, 2048-pixel arrays`)
+        .split("\n")
+        .slice(0, 4)
+        .join("\n"),
+    );
+  }, 900_000);
+
+  it("never throws", () => {
+    expect(records).toHaveLength(COUNT);
+    expect(summary.exceptions).toBe(0);
+  });
+
+  it("is rarely silently wrong", () => {
+    // Target ≤ 0.5 %; a regression floor at what was measured (see SILENT_WRONG_FLOOR).
+    expect(summary.silentWrongRate).toBeLessThanOrEqual(SILENT_WRONG_FLOOR);
+  });
+
+  it("succeeds at least as often as it did when this floor was set", () => {
+    // Target ≥ 95 % of eligible instruments; a regression floor at what was measured (see SUCCESS_FLOOR).
+    expect(summary.successRateEligible).toBeGreaterThanOrEqual(SUCCESS_FLOOR);
+  });
+});
