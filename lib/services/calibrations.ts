@@ -304,10 +304,11 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
       fit = pairing.status === "paired" ? pairing.model : null;
     }
     if (pairing.status !== "paired" || !fit) {
-      throw new AppError(
-        "unprocessable",
-        `The lamp peaks could not be paired with the lamp lines automatically (needs-manual: ${pairing.message}). ${NEEDS_MANUAL_HINT}`,
-      );
+      const why =
+        pairing.status === "check"
+          ? `An automatic pairing was found but is not trusted — ${(pairing.reasons ?? []).join(" ")}`
+          : `The lamp peaks could not be paired with the lamp lines automatically (${pairing.message}).`;
+      throw new AppError("unprocessable", `${why} ${NEEDS_MANUAL_HINT}`);
     }
 
     // The pairs the chemist works with: the pairing's, less the excluded, with the added ones.
