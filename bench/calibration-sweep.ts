@@ -4,6 +4,16 @@
 import { formatSweep, runSweep } from "../tests/support/calibration-sweep";
 import type { RealisticDispersion } from "../tests/support/realistic-lamp";
 
+// `--samples` is the element-identification sweep (bench/sample-sweep.ts), routed here so both
+// sweeps share `npm run sweep`.
+if (process.argv.includes("--samples")) {
+  void import("./sample-sweep");
+} else {
+  runCalibrationSweep();
+}
+
+function runCalibrationSweep() {
+
 const args = process.argv.slice(2);
 const value = (name: string, fallback: string) => {
   const at = args.indexOf(`--${name}`);
@@ -31,3 +41,4 @@ const mode = [
   clean ? "clean lamps" : "realistic lamps",
 ].join(", ");
 console.log(formatSweep(records, `calibration sweep: seed ${seed}, n ${n} (${mode})`));
+}
