@@ -289,16 +289,20 @@ export function realisticSample(seed: number, options: RealisticSampleOptions = 
   };
 
   // Resolution: a grating's FWHM in nm (coarse for the Na D case), a prism's slit image in px.
-  const gratingFwhmNm =
+  // Never narrower than 2.5 px: a real instrument is sampled at least that finely (common practice),
+  // and the chemist states the width the lines really have.
+  const maxStepNm = Math.max(...Array.from({ length: pixelCount - 1 }, (_, i) => wavelengths[i + 1] - wavelengths[i]));
+  const gratingFwhmNm = Math.max(
+    2.5 * maxStepNm,
     interference?.name === "Na D at low resolution"
       ? between(random, 0.8, 2)
-      : logBetween(random, 0.08, 1.2);
+      : logBetween(random, 0.08, 1.2),
+  );
   const slitPx = between(random, 2.2, 4);
-  // Never narrower than 2 px: a real instrument is sampled at least that finely (common practice).
-  const fwhmNmAt = (wavelengthNm: number) => {
-    const step = Math.abs(dispersionNmPerPx(pixelOf(wavelengthNm)));
-    return instrument === "grating" ? Math.max(gratingFwhmNm, 2 * step) : slitPx * step;
-  };
+  const fwhmNmAt = (wavelengthNm: number) =>
+    instrument === "grating"
+      ? gratingFwhmNm
+      : slitPx * Math.abs(dispersionNmPerPx(pixelOf(wavelengthNm)));
 
   const lines: DrawnLine[] = [];
   const principalInRange: Record<string, boolean> = {};
