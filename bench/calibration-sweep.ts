@@ -13,32 +13,31 @@ if (process.argv.includes("--samples")) {
 }
 
 function runCalibrationSweep() {
-
-const args = process.argv.slice(2);
-const value = (name: string, fallback: string) => {
-  const at = args.indexOf(`--${name}`);
-  return at >= 0 && at + 1 < args.length ? args[at + 1] : fallback;
-};
-const seed = Number(value("seed", "1"));
-const n = Number(value("n", "100"));
-if (!Number.isInteger(seed) || !Number.isInteger(n) || n < 1) {
-  console.error(
-    "usage: npm run sweep -- --seed N --n M [--previous] [--clean] [--dispersion KIND]",
-  );
-  process.exit(2);
-}
-const withPrevious = args.includes("--previous");
-const clean = args.includes("--clean");
-const dispersion = value("dispersion", "") as RealisticDispersion | "";
-const records = runSweep({
-  seed,
-  n,
-  withPrevious,
-  lamp: { clean, ...(dispersion ? { dispersion } : {}) },
-});
-const mode = [
-  withPrevious ? "re-recorded, starting from the previous calibration" : "blind",
-  clean ? "clean lamps" : "realistic lamps",
-].join(", ");
-console.log(formatSweep(records, `calibration sweep: seed ${seed}, n ${n} (${mode})`));
+  const args = process.argv.slice(2);
+  const value = (name: string, fallback: string) => {
+    const at = args.indexOf(`--${name}`);
+    return at >= 0 && at + 1 < args.length ? args[at + 1] : fallback;
+  };
+  const seed = Number(value("seed", "1"));
+  const n = Number(value("n", "100"));
+  if (!Number.isInteger(seed) || !Number.isInteger(n) || n < 1) {
+    console.error(
+      "usage: npm run sweep -- --seed N --n M [--previous] [--clean] [--dispersion KIND]",
+    );
+    process.exit(2);
+  }
+  const withPrevious = args.includes("--previous");
+  const clean = args.includes("--clean");
+  const dispersion = value("dispersion", "") as RealisticDispersion | "";
+  const records = runSweep({
+    seed,
+    n,
+    withPrevious,
+    lamp: { clean, ...(dispersion ? { dispersion } : {}) },
+  });
+  const mode = [
+    withPrevious ? "re-recorded, starting from the previous calibration" : "blind",
+    clean ? "clean lamps" : "realistic lamps",
+  ].join(", ");
+  console.log(formatSweep(records, `calibration sweep: seed ${seed}, n ${n} (${mode})`));
 }

@@ -78,7 +78,13 @@ export const INTERFERENCE_CASES = [
     rangeNm: [360, 700],
     source: "arc",
   },
-  { name: "Na D at low resolution", element: "Na", interferer: null, rangeNm: [400, 800], source: "flame" },
+  {
+    name: "Na D at low resolution",
+    element: "Na",
+    interferer: null,
+    rangeNm: [400, 800],
+    source: "flame",
+  },
 ] as const satisfies readonly {
   name: string;
   element: string;
@@ -234,7 +240,10 @@ function planck(wavelengthNm: number, temperatureK: number): number {
 /**
  * One realistic sample from its seed (the same seed and options give the same sample).
  */
-export function realisticSample(seed: number, options: RealisticSampleOptions = {}): RealisticSample {
+export function realisticSample(
+  seed: number,
+  options: RealisticSampleOptions = {},
+): RealisticSample {
   const random = makeRandom(seed);
   const pixelCount = options.pixelCount ?? 2048;
   const interferenceShare = options.interferenceShare ?? 0.3;
@@ -246,7 +255,9 @@ export function realisticSample(seed: number, options: RealisticSampleOptions = 
     options.source ?? interference?.source ?? (random.uniform() < 0.6 ? "flame" : "arc");
   const instrument: SampleInstrument =
     options.instrument ??
-    (interference?.name === "Na D at low resolution"
+    // The Na D case needs a coarse grating; the Mg II/Mn case lies below the generator's prism glasses' UV cut.
+    (interference?.name === "Na D at low resolution" ||
+    (interference && interference.rangeNm[0] < 330)
       ? "grating"
       : random.uniform() < 0.65
         ? "grating"
@@ -271,7 +282,10 @@ export function realisticSample(seed: number, options: RealisticSampleOptions = 
   const pool = shuffled(random, SAMPLE_ELEMENTS).filter(
     (e) => e !== interference?.element && e !== interference?.interferer,
   );
-  const elements = [...(interference ? [interference.element] : []), ...pool].slice(0, count);
+  const elements: string[] = [...(interference ? [interference.element] : []), ...pool].slice(
+    0,
+    count,
+  );
 
   const wavelengths = wavelengthAxis(random, instrument, pixelCount, rangeNm);
   const dispersionNmPerPx = (px: number) => {
@@ -291,7 +305,9 @@ export function realisticSample(seed: number, options: RealisticSampleOptions = 
   // Resolution: a grating's FWHM in nm (coarse for the Na D case), a prism's slit image in px.
   // Never narrower than 2.5 px: a real instrument is sampled at least that finely (common practice),
   // and the chemist states the width the lines really have.
-  const maxStepNm = Math.max(...Array.from({ length: pixelCount - 1 }, (_, i) => wavelengths[i + 1] - wavelengths[i]));
+  const maxStepNm = Math.max(
+    ...Array.from({ length: pixelCount - 1 }, (_, i) => wavelengths[i + 1] - wavelengths[i]),
+  );
   const gratingFwhmNm = Math.max(
     2.5 * maxStepNm,
     interference?.name === "Na D at low resolution"
@@ -373,7 +389,8 @@ export function realisticSample(seed: number, options: RealisticSampleOptions = 
 
   // Counts: dark offset + continuum + lines + bands, then Poisson and read noise.
   const darkCounts = between(random, 100, 400);
-  const temperatureK = source === "flame" ? between(random, 1900, 2800) : between(random, 4000, 6500);
+  const temperatureK =
+    source === "flame" ? between(random, 1900, 2800) : between(random, 4000, 6500);
   let continuumMax = 0;
   for (const nm of [rangeNm[0], rangeNm[1], 0.5 * (rangeNm[0] + rangeNm[1])]) {
     continuumMax = Math.max(continuumMax, planck(nm, temperatureK));
@@ -389,7 +406,11 @@ export function realisticSample(seed: number, options: RealisticSampleOptions = 
     const sigmaPx =
       line.fwhmNm / Math.abs(dispersionNmPerPx(centrePx)) / (2 * Math.sqrt(2 * Math.log(2)));
     const reach = Math.ceil(6 * sigmaPx);
-    for (let px = Math.max(0, Math.floor(centrePx) - reach); px <= Math.min(pixelCount - 1, Math.ceil(centrePx) + reach); px++) {
+    for (
+      let px = Math.max(0, Math.floor(centrePx) - reach);
+      px <= Math.min(pixelCount - 1, Math.ceil(centrePx) + reach);
+      px++
+    ) {
       y[px] += line.amplitudeCounts * Math.exp(-0.5 * ((px - centrePx) / sigmaPx) ** 2);
     }
   }
@@ -443,7 +464,8 @@ export function realisticSample(seed: number, options: RealisticSampleOptions = 
     axis,
     calibration,
     resolution,
-    instrumentWidth: instrument === "grating" ? { fwhm: gratingFwhmNm, unit: "nm" } : { fwhm: slitPx, unit: "px" },
+    instrumentWidth:
+      instrument === "grating" ? { fwhm: gratingFwhmNm, unit: "nm" } : { fwhm: slitPx, unit: "px" },
     readNoiseCounts,
     truth: {
       elements: [...elements].sort(),

@@ -5,7 +5,13 @@ import { analyzeSample } from "@/lib/spectrum/analysis/analyze-sample";
 import { prepareLineIndex } from "@/lib/spectrum/matching";
 import type { SampleAnalysis } from "@/lib/spectrum/analysis/analyze-sample";
 import { STARTER_TABLE } from "./realistic-lamp";
-import { BAND_METAL, realisticSample, SAMPLE_ELEMENTS, type RealisticSample } from "./realistic-sample";
+import {
+  BAND_METAL,
+  INTERFERENCE_CASES,
+  realisticSample,
+  SAMPLE_ELEMENTS,
+  type RealisticSample,
+} from "./realistic-sample";
 
 const INDEX = prepareLineIndex(STARTER_TABLE);
 
@@ -122,6 +128,11 @@ export interface SampleSweepSummary {
   /** The same where the element's principal line for the source is in range. */
   recallPrincipalInRange: Ratio;
   recallByElement: Map<string, Ratio>;
+  /** Recall by element where its principal line is in range. */
+  recallPrincipalByElement: Map<string, Ratio>;
+  /** Per interference case: samples whose interfering element was called present, over the samples
+   * built around the case (the Na D case has no interferer and counts none). */
+  interferenceFalse: Map<string, Ratio>;
   recallBySource: Map<string, Ratio>;
   recallByInstrument: Map<string, Ratio>;
   /** False present over absent element–sample pairs: the sample elements not in the mix, plus any
@@ -140,6 +151,8 @@ export function summariseSamples(records: SampleSweepRecord[]): SampleSweepSumma
   const recall = ratio();
   const recallPrincipalInRange = ratio();
   const recallByElement = new Map<string, Ratio>();
+  const recallPrincipalByElement = new Map<string, Ratio>();
+  const interferenceFalse = new Map<string, Ratio>();
   const recallBySource = new Map<string, Ratio>();
   const recallByInstrument = new Map<string, Ratio>();
   const falsePresent = ratio();
@@ -160,6 +173,7 @@ export function summariseSamples(records: SampleSweepRecord[]): SampleSweepSumma
         if (hit) recallPrincipalInRange.hits++;
       }
       add(recallByElement, element, hit);
+      if (r.principalInRange[element]) add(recallPrincipalByElement, element, hit);
       add(recallBySource, r.source, hit);
       add(recallByInstrument, `${r.instrument} on a ${r.axis} axis`, hit);
     }
@@ -183,14 +197,21 @@ export function summariseSamples(records: SampleSweepRecord[]): SampleSweepSumma
       add(falseByElement, element, true);
     }
     if (anyFalse) samplesWithFalsePresent++;
+    if (r.interference) {
+      const interferer = INTERFERENCE_CASES.find((c) => c.name === r.interference)?.interferer;
+      add(interferenceFalse, r.interference, interferer ? r.present.includes(interferer) : false);
+    }
   }
   const cpu = records.map((r) => r.cpuMs).sort((a, b) => a - b);
-  const at = (q: number) => (cpu.length ? cpu[Math.min(cpu.length - 1, Math.floor(q * cpu.length))] : 0);
+  const at = (q: number) =>
+    cpu.length ? cpu[Math.min(cpu.length - 1, Math.floor(q * cpu.length))] : 0;
   return {
     samples: records.length,
     recall,
     recallPrincipalInRange,
     recallByElement,
+    recallPrincipalByElement,
+    interferenceFalse,
     recallBySource,
     recallByInstrument,
     falsePresent,
@@ -215,7 +236,9 @@ export function formatSampleSweep(records: SampleSweepRecord[], title: string, w
   out.push(`samples with a false present:   ${s.samplesWithFalsePresent}/${s.samples}`);
   out.push(`present on one line another species explains: ${s.singleLineExplained}`);
   out.push(`exceptions:                     ${s.exceptions}`);
-  out.push(`CPU per sample:                 median ${s.cpuMedianMs.toFixed(0)} ms, p99 ${s.cpuP99Ms.toFixed(0)} ms`);
+  out.push(
+    `CPU per sample:                 median ${s.cpuMedianMs.toFixed(0)} ms, p99 ${s.cpuP99Ms.toFixed(0)} ms`,
+  );
   const table = (name: string, map: Map<string, Ratio>) => {
     out.push("", name);
     for (const [key, r] of [...map].sort((a, b) => a[0].localeCompare(b[0]))) {
@@ -223,14 +246,18 @@ export function formatSampleSweep(records: SampleSweepRecord[], title: string, w
     }
   };
   table("recall by element", s.recallByElement);
+  table("recall by element, principal line in range", s.recallPrincipalByElement);
   table("recall by source", s.recallBySource);
   table("recall by instrument", s.recallByInstrument);
   table("false present by element (outside the pool: every call is false)", s.falseByElement);
+  table("interference cases: interferer called present", s.interferenceFalse);
   const badness = (r: SampleSweepRecord) =>
     (r.exception ? 100 : 0) +
     r.truth.filter((e) => !r.present.includes(e)).length +
     r.present.filter((e) => !r.truth.includes(e)).length;
-  const worstCases = [...records].sort((a, b) => badness(b) - badness(a) || a.seed - b.seed).slice(0, worst);
+  const worstCases = [...records]
+    .sort((a, b) => badness(b) - badness(a) || a.seed - b.seed)
+    .slice(0, worst);
   out.push("", "worst cases");
   for (const r of worstCases) {
     if (badness(r) === 0) break;
