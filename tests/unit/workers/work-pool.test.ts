@@ -48,7 +48,8 @@ describe("createWorkPool", { timeout: 120_000 }, () => {
   });
 
   it("brings back an error thrown on the thread as the class the service catches", async () => {
-    // A lamp calibration with mismatched arrays throws a RangeError inside the core, on the thread.
+    // A lamp calibration with mismatched arrays is refused inside the core, on the thread, with a
+    // CalibrationError("invalid-input") that the calibration service maps to a 4xx.
     const task = {
       kind: "calibrate-lamp" as const,
       x: Float64Array.of(0, 1, 2),
@@ -56,7 +57,9 @@ describe("createWorkPool", { timeout: 120_000 }, () => {
       lines: [],
       options: { nominalRangeNm: [400, 700] as [number, number], dispersion: "grating" as const },
     };
-    await expect(runHeavyTask(task, pool)).rejects.toBeInstanceOf(RangeError);
+    const error = await runHeavyTask(task, pool).catch((e: unknown) => e);
+    expect(error).toBeInstanceOf(CalibrationError);
+    expect((error as CalibrationError).code).toBe("invalid-input");
   });
 });
 
