@@ -103,7 +103,9 @@ export function pairsFromPrevious(
   let pairs: LampPair[] = [];
   const widths = peaks.map((p) => p.fwhm).filter((w): w is number => w !== undefined && w > 0).sort((a, b) => a - b);
   const fwhmX = widths.length > 0 ? widths[widths.length >> 1] : undefined;
-  for (const window of [2, 1.5, 1, 1]) {
+  // The last windows are tight: a true line's peak sits within a fraction of the half-width of where
+  // the drift map puts it; an unlisted neighbour further off is not taken for it.
+  for (const window of [2, 1.5, 1, 0.6, 0.6]) {
     const byPeak = new Map<number, { line: number; distance: number }>();
     const predictX = (lambda: number) => mapX(xOf(lambda));
     for (const { line, x } of predicted) {
@@ -118,14 +120,19 @@ export function pairsFromPrevious(
     }
     pairs = [...byPeak].map(([peak, { line }]) => toLampPair(context, peak, line));
     if (pairs.length < 6) break;
-    const us = pairs.map((p) => xOf(lines[p.lineIndex].wavelengthNm));
+    // Pairs far off the current map (a stray peak next to a missing line) do not steer the next one.
+    const offsets = pairs.map((p) => Math.abs(p.x - predictX(p.wavelengthNm)));
+    const spread = 1.4826 * offsets.slice().sort((a, b) => a - b)[offsets.length >> 1];
+    const steering = pairs.filter((_, i) => offsets[i] <= Math.max(3 * spread, 0.25 * toleranceX));
+    if (steering.length < 6) break;
+    const us = steering.map((p) => xOf(lines[p.lineIndex].wavelengthNm));
     const scale = 0.5 * span;
     const design = us.map((u) => [1, (u - middle) / scale, ((u - middle) / scale) ** 2]);
     try {
       const { parameters } = weightedLeastSquares(
         design,
-        pairs.map((p) => p.x),
-        pairs.map(() => 1),
+        steering.map((p) => p.x),
+        steering.map(() => 1),
       );
       const [c0, c1, c2] = parameters;
       mapX = (u: number) => {
