@@ -171,9 +171,15 @@ export function runSweep(options: SweepOptions): SweepRecord[] {
       let previousError = Infinity;
       for (const family of families) {
         try {
-          const model = fitCalibration(truthPairs, { ...family, domain: [0, last], rejectOutliers: false }).model;
+          const model = fitCalibration(truthPairs, {
+            ...family,
+            domain: [0, last],
+            rejectOutliers: false,
+          }).model;
           const calibrated = evaluateCalibration(model, grid);
-          const error = Math.max(...grid.map((x, i) => Math.abs(calibrated[i] - lamp.wavelengthAt(x))));
+          const error = Math.max(
+            ...grid.map((x, i) => Math.abs(calibrated[i] - lamp.wavelengthAt(x))),
+          );
           if (error < previousError) [previous, previousError] = [model, error];
         } catch {
           // A family that cannot fit this axis is simply not yesterday's calibration.

@@ -101,7 +101,10 @@ export function pairsFromPrevious(
   // tightening window recovers the lines the coarse search missed and drops chance neighbours.
   let mapX = (u: number) => middle + (u - middle) * best.stretch + best.shift;
   let pairs: LampPair[] = [];
-  const widths = peaks.map((p) => p.fwhm).filter((w): w is number => w !== undefined && w > 0).sort((a, b) => a - b);
+  const widths = peaks
+    .map((p) => p.fwhm)
+    .filter((w): w is number => w !== undefined && w > 0)
+    .sort((a, b) => a - b);
   const fwhmX = widths.length > 0 ? widths[widths.length >> 1] : undefined;
   // The last windows are tight: a true line's peak sits within a fraction of the half-width of where
   // the drift map puts it; an unlisted neighbour further off is not taken for it.
@@ -114,7 +117,8 @@ export function pairsFromPrevious(
       const distance = Math.abs(sortedX[k] - moved);
       if (distance > window * toleranceX) continue;
       // A line blended with a neighbour into one peak is left out: the peak's centre belongs to neither.
-      if (fwhmX !== undefined && lampLineBlended(lines, candidateLines, line, predictX, fwhmX)) continue;
+      if (fwhmX !== undefined && lampLineBlended(lines, candidateLines, line, predictX, fwhmX))
+        continue;
       const current = byPeak.get(order[k]);
       if (!current || distance < current.distance) byPeak.set(order[k], { line, distance });
     }

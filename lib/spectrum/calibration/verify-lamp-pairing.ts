@@ -25,7 +25,8 @@ export interface PairingCheck {
     | "leave-one-out"
     | "lopsided-support"
     | "model-agreement"
-    | "expected-lines";
+    | "expected-lines"
+    | "fit-miss";
   passed: boolean;
   /** The check's measure (see each check); larger is worse except for "expected-lines" and "pairs". */
   value: number;
@@ -58,8 +59,10 @@ export const PAIRING_CHECK_LIMITS = {
   /**
    * The same for a prism: over a wide range Hartmann and the physical prism of the right glass differ by
    * up to about a pixel on right pairings (the demo F2 prism, 350–940 nm: 0.8 px), wrong ones by several.
+   * In the sweep (seed 1000, 300 instruments) right prism pairings reached 0.91 tolerances and a wrong
+   * one 1.07, so the limit is one tolerance.
    */
-  maxModelDisagreementPrism: 1.2,
+  maxModelDisagreementPrism: 1,
   /** Smallest share of the strong, unblended lamp lines on the array that must show a peak. */
   minExpectedSeen: 0.6,
   /**
@@ -284,7 +287,13 @@ export function verifyLampPairing(
 
   // The final calibration itself must pass near every pair it used, the end pairs above all.
   const used = fit.pairs.filter((p) => p.used);
-  const slopes = used.length > 0 ? modelEvaluation(fit.model, used.map((p) => p.x)).dispersion : [];
+  const slopes =
+    used.length > 0
+      ? modelEvaluation(
+          fit.model,
+          used.map((p) => p.x),
+        ).dispersion
+      : [];
   const fitMiss = used.reduce(
     (worst, p, i) => Math.max(worst, Math.abs(p.residualNm / slopes[i]) / tol),
     0,
