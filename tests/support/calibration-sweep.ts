@@ -2,7 +2,7 @@
 // and scores each against the generator's truth. Shared by the unit-test sweep and `npm run sweep`.
 import { calibrateLamp, type CalibrateLampOptions } from "@/lib/spectrum/analysis/calibrate-lamp";
 import { evaluateCalibration, fitCalibration } from "@/lib/spectrum/calibration";
-import type { CalibrationModel } from "@/lib/spectrum/calibration";
+import type { CalibrationModel, FitCalibrationOptions } from "@/lib/spectrum/calibration";
 import { realisticLamp, type RealisticLamp, type RealisticLampOptions } from "./realistic-lamp";
 
 /** Probe pixels per calibration, evenly spread over its covered range (ends included). */
@@ -154,18 +154,38 @@ export function runSweep(options: SweepOptions): SweepRecord[] {
   for (let k = 0; k < options.n; k++) {
     const lamp = realisticLamp(options.seed + k, options.lamp);
     if (options.withPrevious) {
-      // Yesterday's calibration, as checked then: a quintic through the first recording's true axis.
+      // Yesterday's calibration, as checked then: of the model families, the one closest to the first
+      // recording's true axis (a quintic misses a prism's blue end by many resolutions; the physical
+      // prism model does not).
       const last = lamp.x.length - 1;
       const truthPairs = Array.from({ length: 41 }, (_, i) => ({
         x: (last * i) / 40,
         wavelengthNm: lamp.wavelengthAt((last * i) / 40),
       }));
-      const previous = fitCalibration(truthPairs, {
-        model: "polynomial",
-        degree: 5,
-        domain: [0, last],
-        rejectOutliers: false,
-      }).model;
+      const families: FitCalibrationOptions[] =
+        lamp.dispersion === "prism"
+          ? [{ model: "prism" }, { model: "hartmann" }, { model: "polynomial", degree: 5 }]
+          : [{ model: "polynomial", degree: 5 }];
+      const grid = Float64Array.from({ length: 401 }, (_, i) => (last * i) / 400);
+      let previous: CalibrationModel | undefined;
+      let previousError = Infinity;
+      for (const family of families) {
+        try {
+          const model = fitCalibration(truthPairs, {
+            ...family,
+            domain: [0, last],
+            rejectOutliers: false,
+          }).model;
+          const calibrated = evaluateCalibration(model, grid);
+          const error = Math.max(
+            ...grid.map((x, i) => Math.abs(calibrated[i] - lamp.wavelengthAt(x))),
+          );
+          if (error < previousError) [previous, previousError] = [model, error];
+        } catch {
+          // A family that cannot fit this axis is simply not yesterday's calibration.
+        }
+      }
+      if (!previous) throw new Error(`no model fits the true axis of instrument ${lamp.seed}`);
       const again = lamp.rerecord(options.seed + k + 100_000);
       records.push(sweepOne(again, { ...options.calibrate, previous }));
     } else {

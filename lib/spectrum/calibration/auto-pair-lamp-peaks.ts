@@ -106,7 +106,10 @@ export function autoPairLampPeaks(
   if (options.previous) {
     const seeded = pairsFromPrevious(context, options.previous);
     if (seeded.length >= 4) {
-      const result = refineLampPairing(context, seeded);
+      // The previous calibration already predicts every line to within the matching window, so its
+      // matches go straight to the final fit; the blind refinement's crude forward model would lose some.
+      const family: PairingContext = { ...context, previousModel: options.previous };
+      const result = finishLampPairing(family, { pairs: seeded, rmsX: Infinity, score: seeded.length });
       if (result.status === "paired") return result;
     }
   }

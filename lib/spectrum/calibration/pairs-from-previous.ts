@@ -5,7 +5,9 @@ import type { CalibrationModel } from "./calibration-model";
 import type { LampPair } from "./lamp-pairing-types";
 import { modelEvaluation } from "./model-evaluation";
 import type { PairingContext } from "./refine-lamp-pairing";
+import { lampLineBlended } from "./lamp-line-blended";
 import { toLampPair } from "./to-lamp-pair";
+import { weightedLeastSquares } from "./weighted-least-squares";
 
 export interface PairsFromPreviousOptions {
   /** Largest shift searched, as a fraction of the array. @default 0.03 */
@@ -94,16 +96,56 @@ export function pairsFromPrevious(
       if (score > best.score) best = { score, shift, stretch };
     }
   }
-  const byPeak = new Map<number, { line: number; distance: number }>();
-  for (const { line, x } of predicted) {
-    const moved = middle + (x - middle) * best.stretch + best.shift;
-    const k = nearest(moved);
-    const distance = Math.abs(sortedX[k] - moved);
-    if (distance > toleranceX) continue;
-    const current = byPeak.get(order[k]);
-    if (!current || distance < current.distance) byPeak.set(order[k], { line, distance });
+  // Refinement: the day's drift maps yesterday's pixel of a line to today's smoothly, so a quadratic
+  // in yesterday's pixel, fitted to the matches, predicts every line; matching with it again at a
+  // tightening window recovers the lines the coarse search missed and drops chance neighbours.
+  let mapX = (u: number) => middle + (u - middle) * best.stretch + best.shift;
+  let pairs: LampPair[] = [];
+  const widths = peaks
+    .map((p) => p.fwhm)
+    .filter((w): w is number => w !== undefined && w > 0)
+    .sort((a, b) => a - b);
+  const fwhmX = widths.length > 0 ? widths[widths.length >> 1] : undefined;
+  // The last windows are tight: a true line's peak sits within a fraction of the half-width of where
+  // the drift map puts it; an unlisted neighbour further off is not taken for it.
+  for (const window of [2, 1.5, 1, 0.6, 0.6]) {
+    const byPeak = new Map<number, { line: number; distance: number }>();
+    const predictX = (lambda: number) => mapX(xOf(lambda));
+    for (const { line, x } of predicted) {
+      const moved = mapX(x);
+      const k = nearest(moved);
+      const distance = Math.abs(sortedX[k] - moved);
+      if (distance > window * toleranceX) continue;
+      // A line blended with a neighbour into one peak is left out: the peak's centre belongs to neither.
+      if (fwhmX !== undefined && lampLineBlended(lines, candidateLines, line, predictX, fwhmX))
+        continue;
+      const current = byPeak.get(order[k]);
+      if (!current || distance < current.distance) byPeak.set(order[k], { line, distance });
+    }
+    pairs = [...byPeak].map(([peak, { line }]) => toLampPair(context, peak, line));
+    if (pairs.length < 6) break;
+    // Pairs far off the current map (a stray peak next to a missing line) do not steer the next one.
+    const offsets = pairs.map((p) => Math.abs(p.x - predictX(p.wavelengthNm)));
+    const spread = 1.4826 * offsets.slice().sort((a, b) => a - b)[offsets.length >> 1];
+    const steering = pairs.filter((_, i) => offsets[i] <= Math.max(3 * spread, 0.25 * toleranceX));
+    if (steering.length < 6) break;
+    const us = steering.map((p) => xOf(lines[p.lineIndex].wavelengthNm));
+    const scale = 0.5 * span;
+    const design = us.map((u) => [1, (u - middle) / scale, ((u - middle) / scale) ** 2]);
+    try {
+      const { parameters } = weightedLeastSquares(
+        design,
+        steering.map((p) => p.x),
+        steering.map(() => 1),
+      );
+      const [c0, c1, c2] = parameters;
+      mapX = (u: number) => {
+        const t = (u - middle) / scale;
+        return c0 + c1 * t + c2 * t * t;
+      };
+    } catch {
+      break;
+    }
   }
-  return [...byPeak]
-    .map(([peak, { line }]) => toLampPair(context, peak, line))
-    .sort((a, b) => a.x - b.x);
+  return pairs.sort((a, b) => a.x - b.x);
 }

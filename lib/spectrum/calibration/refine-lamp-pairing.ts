@@ -4,6 +4,7 @@ import type { DispersionKind } from "../types";
 import { fitCalibration, type FitCalibrationOptions, type FitCalibrationResult } from "./fit-calibration";
 import { informationCriteria } from "./information-criteria";
 import type { LampLine, LampPair, LampPairingResult, LampPeak } from "./lamp-pairing-types";
+import type { CalibrationModel } from "./calibration-model";
 import { modelEvaluation } from "./model-evaluation";
 import { growLampPairs } from "./grow-lamp-pairs";
 import { lampLineBlended } from "./lamp-line-blended";
@@ -28,6 +29,11 @@ export interface PairingContext {
   nominalRangeNm: [number, number];
   /** The axis g(λ) in which the expected dispersion is nearly a straight line. */
   straighten: (lambda: number) => number;
+  /**
+   * The instrument's previous calibration, when the pairs were predicted from it: the final fit keeps
+   * its model family (and glass) instead of the dispersion's usual choice of models.
+   */
+  previousModel?: CalibrationModel;
 }
 
 /**
@@ -92,13 +98,29 @@ function forwardFit(context: PairingContext, pairs: LampPair[], degree: number):
   }
 }
 
+/** The final models of a recalibration: the previous calibration's family first, a polynomial as fallback. */
+function previousFamily(previous: CalibrationModel, dispersion: DispersionKind, n: number): FitCalibrationOptions[] {
+  // A grating's dispersion is a cubic at most; more freedom only lets noisy end pairs bend it. Beyond a
+  // quadratic, three pairs to spare per parameter.
+  const highest = Math.max(1, Math.min(dispersion === "prism" ? 5 : 3, n - 4));
+  const polynomial: FitCalibrationOptions = {
+    model: "polynomial",
+    degree: previous.kind === "polynomial" ? Math.min(previous.degree, highest) : highest,
+  };
+  if (previous.kind === "prism") return [{ model: "prism", glass: previous.glass }, polynomial];
+  if (previous.kind === "hartmann") return [{ model: "hartmann" }, polynomial];
+  return [polynomial];
+}
+
 /** The calibration fitted to the final pairs: a polynomial for a grating; for a prism the physical model
  * (catalogue glasses), else Hartmann, else a polynomial; outliers rejected unless seeds are forced. */
 function finalFit(context: PairingContext, pairs: LampPair[]): FitCalibrationResult | null {
   const n = pairs.length;
   const rejectOutliers = context.forced.size === 0;
   const attempts: FitCalibrationOptions[] =
-    context.dispersion === "prism"
+    context.previousModel !== undefined
+      ? previousFamily(context.previousModel, context.dispersion, n)
+      : context.dispersion === "prism"
       ? [{ model: "prism" }, { model: "hartmann" }, { model: "polynomial", degree: Math.min(5, n - 2) }]
       : [{ model: "polynomial", degree: n >= 10 ? 3 : n >= 6 ? 2 : 1 }, { model: "polynomial", degree: 1 }];
   let best: { fit: FitCalibrationResult; aicc: number } | undefined;
@@ -170,7 +192,7 @@ function inverseOf(context: PairingContext, fit: FitCalibrationResult): (lambda:
 
 /** Fits the final calibration to refined pairs, re-matches once with it, and judges the result. */
 export function finishLampPairing(context: PairingContext, refined: RefinedPairing): LampPairingResult {
-  if (context.dispersion === "prism") return finishPrismPairing(context, refined);
+  if (context.dispersion === "prism" && context.previousModel === undefined) return finishPrismPairing(context, refined);
   let { pairs } = refined;
   let fit = pairs.length >= 3 ? finalFit(context, pairs) : null;
   if (fit) {
@@ -308,7 +330,9 @@ function judge(context: PairingContext, givenPairs: LampPair[], givenFit: FitCal
     pairedPeaks = new Set(pairs.map((p) => p.peakIndex));
     pairedLines = new Set(pairs.map((p) => p.lineIndex));
   }
-  const coincidence = confidence < CHANCE_CONFIDENCE;
+  // Pairs predicted by a previous calibration are no chance coincidences: the checks alone judge them
+  // (the old score counts the many unlisted and blended lines against them).
+  const coincidence = confidence < CHANCE_CONFIDENCE && !(context.previousModel !== undefined && verdict?.passed);
   let status: LampPairingResult["status"];
   if (!fit || coincidence) status = "needs-manual";
   else if (verdict) status = verdict.passed ? "paired" : "check";
