@@ -12,12 +12,17 @@ import { hypothesisShapes, pairingContext } from "./lamp-pairing-setup";
 import { pairsFromPrevious } from "./pairs-from-previous";
 import type { LampLine, LampPair, LampPairingOptions, LampPairingResult, LampPeak } from "./lamp-pairing-types";
 import {
+  finishGrownPairing,
   finishLampPairing,
   refineLampPairing,
   refineLampPairs,
   type PairingContext,
   type RefinedPairing,
 } from "./refine-lamp-pairing";
+import { groupBlendedLampLines, type LampLineGroup } from "./group-blended-lamp-lines";
+import { growthDegree } from "./grow-pairs-outward";
+import { searchLampPairing, type GrownPairing } from "./search-lamp-pairing";
+import { fitStraightenedPolynomial } from "./straightened-polynomial";
 import { seededRandom } from "./seeded-random";
 
 export interface AutoPairLampPeaksOptions extends LampPairingOptions {
@@ -57,6 +62,121 @@ export interface AutoPairLampPeaksOptions extends LampPairingOptions {
    * @default 2
    */
   guessToleranceFactor?: number;
+  /**
+   * The blind search: "grow" (short-baseline anchors grown outward with a bending model) or "ransac"
+   * (whole-array draws in the straightened axis, refined and, for a prism, grown with the glass
+   * ensemble). Measured on the realistic-lamp sweep, growth pairs gratings twice as often at the same
+   * or a lower rate of silent errors; on prisms it succeeds more often but was silently wrong more
+   * often too (blends crowd a prism's red end), so prisms stay with the draws for now.
+   * @default "grow" for a grating, "ransac" for a prism
+   */
+  search?: "grow" | "ransac";
+}
+
+/**
+ * The instrument's FWHM in nm at a wavelength, from the nominal axis: two matching tolerances in x
+ * through the local dispersion of the straightened nominal map (constant for a grating; several
+ * times finer in the blue than in the red for a prism).
+ */
+function fwhmNmOfNominalAxis(context: PairingContext, straighten: (lambda: number) => number): (lambda: number) => number {
+  const [low, high] = context.nominalRangeNm;
+  const gSpan = Math.abs(straighten(high) - straighten(low));
+  const spanX = context.domain[1] - context.domain[0];
+  return (lambda) => {
+    const step = 1e-3 * (high - low);
+    const slope = Math.abs(straighten(lambda + step) - straighten(lambda - step)) / (2 * step);
+    return (2 * context.toleranceX * gSpan) / (spanX * slope);
+  };
+}
+
+/** Peaks compared for width with this many neighbours on either side. */
+const WIDTH_NEIGHBOURS = 8;
+
+/**
+ * A peak clearly wider than its neighbours is most likely two lines, one of them perhaps unlisted, and
+ * its centre is pulled towards the other: its centre uncertainty grows with the excess width, so that
+ * fits weigh it down instead of following it (an end pair pulled by 0.18 nm once carried a cubic with it).
+ */
+export function withBlendUncertainty(peaks: LampPeak[]): LampPeak[] {
+  const order = peaks.map((_, i) => i).sort((a, b) => peaks[a].x - peaks[b].x);
+  const position = new Map(order.map((p, k) => [p, k]));
+  return peaks.map((peak, i) => {
+    if (!(peak.fwhm !== undefined && peak.fwhm > 0)) return peak;
+    const k = position.get(i)!;
+    const widths = order
+      .slice(Math.max(0, k - WIDTH_NEIGHBOURS), k + WIDTH_NEIGHBOURS + 1)
+      .map((p) => peaks[p].fwhm)
+      .filter((w): w is number => w !== undefined && w > 0)
+      .sort((a, b) => a - b);
+    if (widths.length < 5) return peak;
+    const typical = widths[widths.length >> 1];
+    const excess = peak.fwhm / typical - 1.2;
+    if (!(excess > 0)) return peak;
+    return { ...peak, xUncertainty: Math.hypot(peak.xUncertainty ?? 0, 0.5 * excess * typical) };
+  });
+}
+
+/**
+ * A blend's pair carries its centroid's uncertainty (table intensities are rough) on top of the peak's
+ * own, through the local dispersion, so the fit weighs it for what it is.
+ */
+function withCentroidUncertainty(pairs: LampPair[], groups: LampLineGroup[], context: PairingContext): LampPair[] {
+  if (!pairs.some((p) => groups[p.lineIndex].wavelengthSigmaNm > 0)) return pairs;
+  const g = context.straighten;
+  const xs = pairs.map((p) => p.x);
+  const coveredFraction = (Math.max(...xs) - Math.min(...xs)) / (context.domain[1] - context.domain[0]);
+  const degree = Math.max(1, growthDegree(pairs.length, coveredFraction, context.dispersion));
+  const model = fitStraightenedPolynomial(pairs, g, [g(context.nominalRangeNm[0]), g(context.nominalRangeNm[1])], degree);
+  if (!model) return pairs;
+  return pairs.map((p) => {
+    const sigmaNm = groups[p.lineIndex].wavelengthSigmaNm;
+    if (!(sigmaNm > 0)) return p;
+    const step = 0.01;
+    const pixelsPerNm = Math.abs(model.predictX(p.wavelengthNm + step) - model.predictX(p.wavelengthNm - step)) / (2 * step);
+    return { ...p, xUncertainty: Math.hypot(p.xUncertainty ?? 0, sigmaNm * pixelsPerNm) };
+  });
+}
+
+/** A result about grouped lines, told in the caller's lines: a blend's pair points at its strongest line. */
+function inCallerLines(result: LampPairingResult, groups: LampLineGroup[], lines: LampLine[], candidateLines: number[]): LampPairingResult {
+  const indexOf = new Map(lines.map((l, i) => [l.id, i]));
+  const toCaller = (pairs: LampPair[]) => pairs.map((p) => ({ ...p, lineIndex: indexOf.get(groups[p.lineIndex]?.id ?? p.lineId ?? "") ?? p.lineIndex }));
+  const pairedMembers = new Set(result.pairs.flatMap((p) => groups[p.lineIndex]?.members ?? []));
+  return {
+    ...result,
+    pairs: toCaller(result.pairs),
+    suggestion: toCaller(result.suggestion),
+    ...(result.rivalSuggestion ? { rivalSuggestion: toCaller(result.rivalSuggestion) } : {}),
+    unmatchedLines: candidateLines.filter((i) => !pairedMembers.has(i)).map((i) => lines[i]),
+  };
+}
+
+/** A rival within this many points of the best grown pairing's score makes the choice between them a person's. */
+const RIVAL_MARGIN = 2;
+
+/**
+ * A "paired" result whose grown pairing has a rival that explains the spectrum nearly as well becomes
+ * "check": the two disagree, and nothing in the spectrum decides between them.
+ */
+function withRival(result: LampPairingResult, best: GrownPairing, rival: GrownPairing | null): LampPairingResult {
+  if (!rival || result.status !== "paired") return result;
+  const margin = Math.max(RIVAL_MARGIN, 0.15 * best.score);
+  if (rival.score < best.score - margin) return result;
+  const reason =
+    `another pairing of the peaks explains the spectrum nearly as well (${rival.pairs.length} pairs against ${best.pairs.length}); ` +
+    `compare the two and confirm one`;
+  return {
+    ...result,
+    status: "check",
+    checks: [...(result.checks ?? []), { name: "rival-pairing", passed: false, value: rival.score / Math.max(best.score, 1), reason }],
+    reasons: [...(result.reasons ?? []), reason],
+    candidate: result.model,
+    confidence: Math.min(result.confidence, 0.49),
+    pairs: [],
+    model: null,
+    rivalSuggestion: rival.pairs,
+    message: `check this pairing: ${reason}`,
+  };
 }
 
 /** Percentile ranks (0 weakest … 1 strongest) of values. */
@@ -95,6 +215,7 @@ export function autoPairLampPeaks(
   lines: LampLine[],
   options: AutoPairLampPeaksOptions,
 ): LampPairingResult {
+  const search = options.search ?? (options.dispersion === "prism" ? "ransac" : "grow");
   const context = pairingContext(peaks, lines, options);
   const { seed = 1, iterations = 20000, rangeTolerance = 0.25, firstGuess = "dispersion", refineCount = 4 } = options;
   const random = seededRandom(seed);
@@ -114,6 +235,16 @@ export function autoPairLampPeaks(
     }
   }
 
+  if (search === "grow") {
+    // Pairing sees the lamp as the spectrometer does: lines that blend are one line at their centroid.
+    const groups = groupBlendedLampLines(lines, context.candidateLines, fwhmNmOfNominalAxis(context, shapes[0]));
+    const grouped: PairingContext = { ...context, peaks: withBlendUncertainty(peaks), lines: groups, candidateLines: groups.map((_, i) => i) };
+    const search = searchLampPairing({ ...grouped, shapes });
+    if (!search.best) return inCallerLines(refineLampPairing(context, []), groups, lines, context.candidateLines);
+    const shaped: PairingContext = { ...grouped, straighten: shapes[search.best.shape] };
+    const result = finishGrownPairing(shaped, withCentroidUncertainty(search.best.pairs, groups, shaped));
+    return inCallerLines(withRival(result, search.best, search.rival), groups, lines, context.candidateLines);
+  }
   const candidates = context.candidateLines;
   if (peaks.length < 4 || candidates.length < 4) {
     return refineLampPairing(context, []);

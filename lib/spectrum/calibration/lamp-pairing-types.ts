@@ -73,6 +73,8 @@ export interface LampPairingResult {
   model: FitCalibrationResult | null;
   /** The best attempt even when it was not trusted, for a manual pairing screen to start from. */
   suggestion: LampPair[];
+  /** A competing pairing that explains the spectrum nearly as well, when there is one (status "check"). */
+  rivalSuggestion?: LampPair[];
   unmatchedPeaks: LampPeak[];
   unmatchedLines: LampLine[];
   message: string;

@@ -264,6 +264,47 @@ function finishPrismPairing(context: PairingContext, refined: RefinedPairing): L
   return judge(context, usedPairs, fit, rmsX);
 }
 
+/**
+ * Fits and judges pairs that growth already chose (they are not matched again: a final model
+ * extrapolated beyond the pairs would pair strays there). A grating gets its polynomial; a prism the
+ * model family with the lowest AICc of the physical prism, Hartmann and a polynomial, since its glass
+ * may be outside the catalogue.
+ */
+export function finishGrownPairing(context: PairingContext, pairs: LampPair[]): LampPairingResult {
+  let fit: FitCalibrationResult | null = null;
+  if (context.dispersion === "prism") {
+    let bestAicc = Infinity;
+    const attempts: FitCalibrationOptions[] = [
+      { model: "prism" },
+      { model: "hartmann" },
+      { model: "polynomial", degree: Math.max(1, Math.min(5, pairs.length - 4)) },
+    ];
+    for (const options of attempts) {
+      try {
+        const candidate = fitCalibration(pairs, { ...options, domain: context.domain, rejectOutliers: true });
+        const used = candidate.pairs.filter((p) => p.used).length;
+        // Compared on the same pairs only: a fit that set pairs aside is judged by what it kept, so it must keep them all to compete.
+        const { aicc } = informationCriteria(candidate.model.chiSquare, candidate.model.pairCount, candidate.model.parameters.length);
+        const penalised = used === pairs.length ? aicc : aicc + 10 * (pairs.length - used);
+        if (penalised < bestAicc) [fit, bestAicc] = [candidate, penalised];
+      } catch {
+        // This family does not fit these pairs; the next one may.
+      }
+    }
+  } else {
+    fit = pairs.length >= 3 ? finalFit(context, pairs) : null;
+  }
+  if (!fit) return judge(context, [], null, Infinity);
+  const chosen = fit;
+  const usedPairs = pairs.filter((_, i) => chosen.pairs[i].used);
+  const dispersion = modelEvaluation(chosen.model, usedPairs.map((p) => p.x)).dispersion;
+  const usedFitted = chosen.pairs.filter((p) => p.used);
+  const rmsX = Math.sqrt(
+    usedFitted.reduce((s, p, i) => s + (p.residualNm / dispersion[i]) ** 2, 0) / Math.max(usedFitted.length - chosen.model.parameters.length, 1),
+  );
+  return judge(context, usedPairs, chosen, rmsX);
+}
+
 /** Refines and finishes in one go. */
 export function refineLampPairing(context: PairingContext, initialPairs: LampPair[]): LampPairingResult {
   return finishLampPairing(context, refineLampPairs(context, initialPairs));
@@ -330,9 +371,10 @@ function judge(context: PairingContext, givenPairs: LampPair[], givenFit: FitCal
     pairedPeaks = new Set(pairs.map((p) => p.peakIndex));
     pairedLines = new Set(pairs.map((p) => p.lineIndex));
   }
-  // Pairs predicted by a previous calibration are no chance coincidences: the checks alone judge them
-  // (the old score counts the many unlisted and blended lines against them).
-  const coincidence = confidence < CHANCE_CONFIDENCE && !(context.previousModel !== undefined && verdict?.passed);
+  // Pairs predicted by a previous calibration are no chance coincidences: the checks alone judge them.
+  // Likewise a pairing that passed every check: the old score counts unlisted peaks and missing or
+  // blended lines against it, which the checks already weigh.
+  const coincidence = confidence < CHANCE_CONFIDENCE && !verdict?.passed;
   let status: LampPairingResult["status"];
   if (!fit || coincidence) status = "needs-manual";
   else if (verdict) status = verdict.passed ? "paired" : "check";

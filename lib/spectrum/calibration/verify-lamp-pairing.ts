@@ -15,6 +15,8 @@ import type { LampPair } from "./lamp-pairing-types";
 import { lampLineBlended } from "./lamp-line-blended";
 import { modelEvaluation } from "./model-evaluation";
 import type { PairingContext } from "./refine-lamp-pairing";
+import { growthDegree } from "./grow-pairs-outward";
+import { fitStraightenedPolynomial } from "./straightened-polynomial";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
 /** One check of a pairing, with its measure and, when it fails, why in words. */
@@ -26,7 +28,9 @@ export interface PairingCheck {
     | "lopsided-support"
     | "model-agreement"
     | "expected-lines"
-    | "fit-miss";
+    | "fit-miss"
+    | "end-pairs"
+    | "rival-pairing";
   passed: boolean;
   /** The check's measure (see each check); larger is worse except for "expected-lines" and "pairs". */
   value: number;
@@ -165,6 +169,44 @@ export function verifyLampPairing(
         ? ""
         : `the pair ${worstPair ? `${worstPair.species ?? ""} ${worstPair.wavelengthNm.toFixed(3)} nm at x ${worstPair.x.toFixed(1)}`.trim() : ""} ` +
           `lands ${Number.isFinite(worstLoo) ? (worstLoo * tol).toFixed(1) : "far"} px from where the other pairs put it when it is left out`,
+  });
+
+  // End pairs: each of the two outermost pairs at either end, predicted from the others by a model in
+  // the straightened axis, must land inside the prediction's window (its statistical σ, the
+  // disagreement of the next lower degree as the model-form part, and a tolerance). A wrong end pair
+  // bends a polynomial onto itself and passes every other check; this is where it shows.
+  let worstEnd = 0;
+  let worstEndPair: LampPair | undefined;
+  if (n >= 8) {
+    const g = context.straighten;
+    const gRange: [number, number] = [g(context.nominalRangeNm[0]), g(context.nominalRangeNm[1])];
+    const spanX = context.domain[1] - context.domain[0];
+    for (const i of [0, 1, n - 2, n - 1]) {
+      const rest = sorted.filter((_, k) => k !== i);
+      const restXs = rest.map((p) => p.x);
+      const covered = (Math.max(...restXs) - Math.min(...restXs)) / spanX;
+      const restDegree = Math.max(1, growthDegree(rest.length, covered, context.dispersion));
+      const model = fitStraightenedPolynomial(rest, g, gRange, restDegree);
+      const lower = restDegree > 1 ? fitStraightenedPolynomial(rest, g, gRange, restDegree - 1) : null;
+      if (!model) continue;
+      const lambda = sorted[i].wavelengthNm;
+      const form = lower ? Math.abs(lower.predictX(lambda) - model.predictX(lambda)) : 0;
+      const allowed = tol + 3 * model.sigmaX(lambda) + form;
+      const ratio = Math.abs(model.predictX(lambda) - sorted[i].x) / allowed;
+      if (ratio > worstEnd) {
+        worstEnd = ratio;
+        worstEndPair = sorted[i];
+      }
+    }
+  }
+  checks.push({
+    name: "end-pairs",
+    passed: worstEnd <= 1,
+    value: worstEnd,
+    reason:
+      worstEnd <= 1
+        ? ""
+        : `the end pair ${worstEndPair ? `${worstEndPair.species ?? ""} ${worstEndPair.wavelengthNm.toFixed(3)} nm at x ${worstEndPair.x.toFixed(1)}`.trim() : ""} lands outside where the other pairs put it, so the calibration at that end rests on it alone`,
   });
 
   // Lopsided support: one or two pairs beyond a wide gap at either end of the covered range, measured

@@ -1,0 +1,138 @@
+// Lamp lines as the spectrometer sees them: lines closer than about one resolution element make one
+// peak, whose centre is their intensity-weighted centroid. Pairing such a peak with either line puts
+// a biased pair into the calibration, and dropping it loses the lamp's strongest feature (mercury's
+// 365.0 nm group), so lines of one gas that blend are merged into one line at their centroid, with the
+// centroid's uncertainty; a blend whose centroid cannot be placed well (lines of two gases, whose
+// shares depend on the lamp; members too far apart to trust their intensity ratio) is left out.
+import type { LampLine } from "./lamp-pairing-types";
+
+export interface GroupBlendedLampLinesOptions {
+  /**
+   * Lines closer than this many FWHM merge into one peak (two equal Gaussians are resolved from about
+   * 1.5 FWHM apart, and their peak is a single centre only below about one; common practice).
+   * @default 0.8
+   */
+  mergeFwhm?: number;
+  /**
+   * A line with a neighbour between mergeFwhm and this many FWHM is partly resolved: its peak's centre
+   * is pulled towards the neighbour, so it is left out unless the neighbour is far weaker.
+   * @default 1.6
+   */
+  reachFwhm?: number;
+  /**
+   * Largest uncertainty of a merged centroid, in FWHM: table intensities are rough (a factor of two
+   * either way, common practice), which moves the centroid of lines d apart by about d/4.
+   * @default 0.08
+   */
+  maxCentroidSigmaFwhm?: number;
+  /**
+   * Neighbours of the same gas weaker than this fraction neither merge nor pull.
+   * @default 0.05
+   */
+  minIntensityRatio?: number;
+}
+
+/** A line or a merged blend, as pairing uses it. */
+export interface LampLineGroup extends LampLine {
+  /** Indices (into the given lines) of the lines it stands for. */
+  members: number[];
+  /** 1σ uncertainty of the centroid in nm (0 for a single line). */
+  wavelengthSigmaNm: number;
+}
+
+const elementOf = (species: string) => species.trim().split(/\s+/)[0];
+
+/**
+ * Groups `candidates` (indices into `lines`) for pairing, given the instrument's FWHM in nm at a
+ * wavelength. Returns the lines that can be paired (single lines and merged blends), sorted by
+ * wavelength; lines left out (pulled, or in a blend that cannot be placed) are not returned.
+ */
+export function groupBlendedLampLines(
+  lines: readonly LampLine[],
+  candidates: readonly number[],
+  fwhmNmAt: (wavelengthNm: number) => number,
+  options: GroupBlendedLampLinesOptions = {},
+): LampLineGroup[] {
+  const {
+    mergeFwhm = 0.8,
+    reachFwhm = 1.6,
+    maxCentroidSigmaFwhm = 0.08,
+    minIntensityRatio = 0.05,
+  } = options;
+  const sorted = candidates.slice().sort((a, b) => lines[a].wavelengthNm - lines[b].wavelengthNm);
+  // Single-linkage clusters of lines closer than mergeFwhm (a faint neighbour of the same gas is no link).
+  const clusters: number[][] = [];
+  for (const index of sorted) {
+    const last = clusters[clusters.length - 1];
+    const previous = last?.[last.length - 1];
+    if (
+      previous !== undefined &&
+      lines[index].wavelengthNm - lines[previous].wavelengthNm <
+        mergeFwhm * fwhmNmAt(lines[index].wavelengthNm)
+    ) {
+      last.push(index);
+    } else {
+      clusters.push([index]);
+    }
+  }
+  const groups: LampLineGroup[] = [];
+  for (const cluster of clusters) {
+    const strongest = cluster.reduce((a, b) => (lines[b].intensity > lines[a].intensity ? b : a));
+    const element = elementOf(lines[strongest].species);
+    // Members that matter: every line of another gas, lines of this gas not far weaker than the strongest.
+    const members = cluster.filter(
+      (i) =>
+        elementOf(lines[i].species) !== element ||
+        lines[i].intensity >= minIntensityRatio * lines[strongest].intensity,
+    );
+    const fwhm = fwhmNmAt(lines[strongest].wavelengthNm);
+    if (members.length === 1) {
+      groups.push({ ...lines[strongest], members: [strongest], wavelengthSigmaNm: 0 });
+      continue;
+    }
+    if (members.some((i) => elementOf(lines[i].species) !== element)) {
+      // Two gases: their shares are the lamp's, not the table's. Only a blend far tighter than the
+      // resolution has a centre that does not depend on them.
+      const spread =
+        lines[members[members.length - 1]].wavelengthNm - lines[members[0]].wavelengthNm;
+      if (spread > 2 * maxCentroidSigmaFwhm * fwhm) continue;
+    }
+    const total = members.reduce((s, i) => s + Math.max(lines[i].intensity, 0), 0);
+    if (!(total > 0)) continue;
+    const centroid =
+      members.reduce((s, i) => s + Math.max(lines[i].intensity, 0) * lines[i].wavelengthNm, 0) /
+      total;
+    // A factor of two in any member's intensity moves the centroid by about a quarter of its distance from the rest.
+    const sigma = Math.sqrt(
+      members.reduce(
+        (s, i) =>
+          s +
+          (0.25 *
+            (Math.max(lines[i].intensity, 0) / total) *
+            Math.abs(lines[i].wavelengthNm - centroid) *
+            2) **
+            2,
+        0,
+      ),
+    );
+    if (sigma > maxCentroidSigmaFwhm * fwhm) continue;
+    groups.push({
+      wavelengthNm: centroid,
+      intensity: total,
+      species: lines[strongest].species,
+      id: lines[strongest].id,
+      members,
+      wavelengthSigmaNm: sigma,
+    });
+  }
+  // A line (or blend) with a partly resolved neighbour has its centre pulled towards it.
+  return groups.filter((group) => {
+    const fwhm = fwhmNmAt(group.wavelengthNm);
+    return !sorted.some((i) => {
+      if (group.members.includes(i)) return false;
+      if (!(Math.abs(lines[i].wavelengthNm - group.wavelengthNm) < reachFwhm * fwhm)) return false;
+      const sameElement = elementOf(lines[i].species) === elementOf(group.species);
+      return !(sameElement && lines[i].intensity < minIntensityRatio * group.intensity);
+    });
+  });
+}

@@ -1,0 +1,323 @@
+// The blind search of automatic lamp pairing, knowing only the nominal range and the kind of
+// dispersion. Short-baseline hypotheses first: two strong peaks a few per cent of the array apart,
+// paired with two lamp lines that the nominal range puts near them at a plausible local dispersion,
+// are a straight line that holds over that short stretch even on a curved grating (in the straightened
+// axis of a prism); each is scored by the lines it lands on a peak nearby. The best few are then grown
+// outward over the whole array (growPairsOutward), and the grown pairings are compared: the best is
+// kept, and the best one that disagrees with it is reported as its rival, so that two pairings that
+// explain the spectrum about equally well are shown to a person rather than decided by chance.
+import type { DispersionKind } from "../types";
+import { growPairsOutward, growthDegree, type GrowPairsOutwardInput } from "./grow-pairs-outward";
+import type { LampLine, LampPair, LampPeak } from "./lamp-pairing-types";
+import { fitStraightenedPolynomial } from "./straightened-polynomial";
+
+export interface SearchLampPairingInput {
+  peaks: readonly LampPeak[];
+  lines: readonly LampLine[];
+  candidateLines: readonly number[];
+  dispersion: DispersionKind;
+  domain: [number, number];
+  nominalRangeNm: [number, number];
+  toleranceX: number;
+  /** The straightening axes to try (one for a grating; a crown's and a flint's for a prism). */
+  shapes: readonly ((wavelengthNm: number) => number)[];
+}
+
+export interface SearchLampPairingOptions {
+  /**
+   * Strongest peaks that may anchor a hypothesis.
+   * @default 30
+   */
+  anchorPeaks?: number;
+  /**
+   * Strongest lines that may anchor a hypothesis.
+   * @default 45
+   */
+  anchorLines?: number;
+  /**
+   * Hypotheses grown, best first.
+   * @default 40
+   */
+  maxGrown?: number;
+}
+
+/** A grown pairing and how well it explains the spectrum. */
+export interface GrownPairing {
+  pairs: LampPair[];
+  /** Index of the shape (straightening axis) it was grown in. */
+  shape: number;
+  /** Pairs, each weighted by how close it sits to the pairing's model, less half the strong lines the model puts inside the paired stretch without a peak. */
+  score: number;
+  /** Strong lines inside the paired stretch with no peak near where the model puts them. */
+  missingStrong: number;
+  /** Share of the array between the outermost pairs. */
+  coveredFraction: number;
+}
+
+export interface LampPairingSearch {
+  best: GrownPairing | null;
+  /** The best grown pairing that disagrees with `best` (shares under half its pairs). */
+  rival: GrownPairing | null;
+}
+
+interface Hypothesis {
+  shape: number;
+  score: number;
+  pairs: LampPair[];
+}
+
+/** How far the nominal range may misplace a line, in shares of the array: ±3 % stated-range error at each end and a few per cent of curvature (a prism's straightening is rougher). */
+const PLACEMENT_SHARE: Record<DispersionKind, number> = { grating: 0.12, prism: 0.2 };
+/** Local dispersion against the nominal mean: a curved grating's varies by about ±25 %; a prism's, straightened by the wrong glass, by more. */
+const SLOPE_RATIO: Record<DispersionKind, [number, number]> = {
+  grating: [0.7, 1.45],
+  prism: [0.45, 2.2],
+};
+/** Anchor peaks lie this share of the array apart: far enough to fix a dispersion, close enough for a straight line to hold. */
+const ANCHOR_SEPARATION: [number, number] = [0.03, 0.14];
+
+/** A pair this many matching tolerances off the pairing's model counts about half (exp(−½)). */
+const CLOSE_TOLERANCES = 0.25;
+
+/** Percentile ranks (0 weakest … 1 strongest). */
+function ranks(values: readonly number[]): number[] {
+  const order = values.map((_, i) => i).sort((a, b) => values[a] - values[b]);
+  const result = new Array<number>(values.length);
+  order.forEach((index, position) => {
+    result[index] = values.length > 1 ? position / (values.length - 1) : 1;
+  });
+  return result;
+}
+
+/** Peaks narrower than this share of the typical peak are hot pixels or spikes, not lines. */
+const MIN_WIDTH_SHARE = 0.45;
+
+/** Indices of the peaks that can be lamp lines: hot pixels (far narrower than the typical peak) left out. */
+export function usableLampPeaks(peaks: readonly LampPeak[]): number[] {
+  const widths = peaks
+    .map((p) => p.fwhm)
+    .filter((w): w is number => w !== undefined && w > 0)
+    .sort((a, b) => a - b);
+  if (widths.length < 3) return peaks.map((_, i) => i);
+  const typical = widths[widths.length >> 1];
+  return peaks
+    .map((_, i) => i)
+    .filter((i) => !(peaks[i].fwhm !== undefined && peaks[i].fwhm! < MIN_WIDTH_SHARE * typical));
+}
+
+export function searchLampPairing(
+  input: SearchLampPairingInput,
+  options: SearchLampPairingOptions = {},
+): LampPairingSearch {
+  const { anchorPeaks = 30, anchorLines = 45, maxGrown = 40 } = options;
+  const { peaks, lines, candidateLines, dispersion, domain, nominalRangeNm, toleranceX, shapes } =
+    input;
+  const usable = usableLampPeaks(peaks);
+  if (usable.length < 4 || candidateLines.length < 4) return { best: null, rival: null };
+  const spanX = domain[1] - domain[0];
+  const usableByX = usable.slice().sort((a, b) => peaks[a].x - peaks[b].x);
+  const usableX = usableByX.map((p) => peaks[p].x);
+  const nearestUsable = (x: number): number => {
+    let low = 0;
+    let high = usableX.length;
+    while (low < high) {
+      const mid = (low + high) >> 1;
+      if (usableX[mid] < x) low = mid + 1;
+      else high = mid;
+    }
+    if (low === 0) return 0;
+    if (low === usableX.length) return low - 1;
+    return x - usableX[low - 1] < usableX[low] - x ? low - 1 : low;
+  };
+  const peakRank = new Map<number, number>();
+  ranks(usable.map((p) => peaks[p].height)).forEach((r, k) => peakRank.set(usable[k], r));
+  const lineRank = new Map<number, number>();
+  ranks(candidateLines.map((l) => lines[l].intensity)).forEach((r, k) =>
+    lineRank.set(candidateLines[k], r),
+  );
+  const strongPeaks = usable
+    .slice()
+    .sort((a, b) => peaks[b].height - peaks[a].height)
+    .slice(0, anchorPeaks)
+    .sort((a, b) => peaks[a].x - peaks[b].x);
+  const strongLines = candidateLines
+    .slice()
+    .sort((a, b) => lines[b].intensity - lines[a].intensity)
+    .slice(0, anchorLines);
+  const placement = PLACEMENT_SHARE[dispersion] * spanX;
+  const [slowest, fastest] = SLOPE_RATIO[dispersion];
+  const scoreTolerance = 1.5 * toleranceX;
+
+  const hypotheses: Hypothesis[] = [];
+  shapes.forEach((g, shape) => {
+    const gLow = g(nominalRangeNm[0]);
+    const gHigh = g(nominalRangeNm[1]);
+    const gOf = new Map(candidateLines.map((l) => [l, g(lines[l].wavelengthNm)]));
+    for (const direction of [1, -1] as const) {
+      const nominalSlope = (direction * spanX) / (gHigh - gLow);
+      const nominalX = (l: number) =>
+        direction === 1
+          ? domain[0] + (gOf.get(l)! - gLow) * (spanX / (gHigh - gLow))
+          : domain[1] - (gOf.get(l)! - gLow) * (spanX / (gHigh - gLow));
+      const near = strongPeaks.map((p) =>
+        strongLines.filter((l) => Math.abs(nominalX(l) - peaks[p].x) <= placement),
+      );
+      for (let i = 0; i < strongPeaks.length; i++) {
+        for (let j = i + 1; j < strongPeaks.length; j++) {
+          const pi = strongPeaks[i];
+          const pj = strongPeaks[j];
+          const separation = peaks[pj].x - peaks[pi].x;
+          if (separation < ANCHOR_SEPARATION[0] * spanX) continue;
+          if (separation > ANCHOR_SEPARATION[1] * spanX) break;
+          for (const la of near[i]) {
+            for (const lb of near[j]) {
+              if (la === lb) continue;
+              const slope = separation / (gOf.get(lb)! - gOf.get(la)!);
+              const ratio = slope / nominalSlope;
+              if (!(ratio >= slowest && ratio <= fastest)) continue;
+              hypotheses.push(scoreLocal(shape, gOf, pi, la, slope, separation));
+            }
+          }
+        }
+      }
+    }
+  });
+
+  /** Lines a straight line through the anchors lands on a peak, near the anchors only. */
+  function scoreLocal(
+    shape: number,
+    gOf: Map<number, number>,
+    anchorPeak: number,
+    anchorLine: number,
+    slope: number,
+    separation: number,
+  ): Hypothesis {
+    const x0 = peaks[anchorPeak].x;
+    const g0 = gOf.get(anchorLine)!;
+    // Between the anchors and half their separation beyond either (the second anchor is at x0 + separation).
+    const from = x0 - 0.5 * separation;
+    const to = x0 + 1.5 * separation;
+    let score = 0;
+    const pairs: LampPair[] = [];
+    const taken = new Set<number>();
+    for (const l of candidateLines) {
+      const x = x0 + slope * (gOf.get(l)! - g0);
+      if (x < from || x > to) continue;
+      const k = nearestUsable(x);
+      const p = usableByX[k];
+      const quality = lineRank.get(l)!;
+      if (Math.abs(usableX[k] - x) <= scoreTolerance && !taken.has(p)) {
+        taken.add(p);
+        score += 1 + (1 - Math.abs(quality - peakRank.get(p)!));
+        pairs.push({
+          x: peaks[p].x,
+          ...(peaks[p].xUncertainty !== undefined ? { xUncertainty: peaks[p].xUncertainty } : {}),
+          wavelengthNm: lines[l].wavelengthNm,
+          species: lines[l].species,
+          lineId: lines[l].id,
+          peakIndex: p,
+          lineIndex: l,
+        });
+      } else if (quality >= 0.6) {
+        score -= 0.5;
+      }
+    }
+    return { shape, score, pairs };
+  }
+
+  hypotheses.sort((a, b) => b.score - a.score);
+  const grown: GrownPairing[] = [];
+  const seen = new Set<string>();
+  const keyOf = (pairs: readonly LampPair[]) =>
+    pairs.map((p) => `${p.peakIndex}:${p.lineIndex}`).join();
+  let attempts = 0;
+  for (const hypothesis of hypotheses) {
+    if (attempts >= maxGrown) break;
+    if (hypothesis.pairs.length < 3) continue;
+    const key = `${hypothesis.shape}/${keyOf(hypothesis.pairs)}`;
+    if (seen.has(key)) continue;
+    seen.add(key);
+    // A seed whose pairs a grown pairing already holds would grow into it again.
+    if (
+      grown.some(
+        (g) =>
+          g.shape === hypothesis.shape &&
+          hypothesis.pairs.every((p) =>
+            g.pairs.some((q) => q.peakIndex === p.peakIndex && q.lineIndex === p.lineIndex),
+          ),
+      )
+    )
+      continue;
+    attempts++;
+    const g = shapes[hypothesis.shape];
+    const growInput: GrowPairsOutwardInput = {
+      peaks,
+      lines,
+      candidateLines,
+      usablePeaks: usable,
+      dispersion,
+      domain,
+      toleranceX,
+      straighten: g,
+      gRange: [g(nominalRangeNm[0]), g(nominalRangeNm[1])],
+    };
+    const pairs = growPairsOutward(growInput, hypothesis.pairs);
+    grown.push(judgeGrown(growInput, pairs, hypothesis.shape));
+  }
+  grown.sort((a, b) => b.score - a.score);
+  const best = grown[0] ?? null;
+  if (!best) return { best: null, rival: null };
+  const bestKeys = new Set(best.pairs.map((p) => `${p.peakIndex}:${p.lineIndex}`));
+  const rival =
+    grown.find(
+      (g) =>
+        g !== best &&
+        g.pairs.filter((p) => bestKeys.has(`${p.peakIndex}:${p.lineIndex}`)).length <
+          0.5 * Math.min(g.pairs.length, best.pairs.length),
+    ) ?? null;
+  return { best, rival };
+
+  function judgeGrown(
+    growInput: GrowPairsOutwardInput,
+    pairs: LampPair[],
+    shape: number,
+  ): GrownPairing {
+    const xs = pairs.map((p) => p.x);
+    const covered: [number, number] = [Math.min(...xs), Math.max(...xs)];
+    const coveredFraction = (covered[1] - covered[0]) / spanX;
+    const degree = Math.max(1, growthDegree(pairs.length, coveredFraction, dispersion));
+    const model = fitStraightenedPolynomial(pairs, growInput.straighten, growInput.gRange, degree);
+    if (!model) return { pairs, shape, score: -Infinity, missingStrong: 0, coveredFraction };
+    const paired = new Set(pairs.map((p) => p.lineIndex));
+    // The stronger half of each gas's lines that fall inside the paired stretch should show a peak.
+    const byElement = new Map<string, number[]>();
+    for (const l of candidateLines) {
+      const x = model.predictX(lines[l].wavelengthNm);
+      if (!(x >= covered[0] && x <= covered[1])) continue;
+      const element = lines[l].species.trim().split(/\s+/)[0];
+      byElement.set(element, [...(byElement.get(element) ?? []), l]);
+    }
+    let missingStrong = 0;
+    for (const group of byElement.values()) {
+      const strong = group
+        .sort((a, b) => lines[b].intensity - lines[a].intensity)
+        .slice(0, Math.ceil(group.length / 2));
+      for (const l of strong) {
+        if (paired.has(l)) continue;
+        const x = model.predictX(lines[l].wavelengthNm);
+        if (Math.abs(usableX[nearestUsable(x)] - x) > 1.5 * toleranceX) missingStrong++;
+      }
+    }
+    // Right pairs sit within a tenth of a pixel or so of a smooth curve; chance coincidences, which a
+    // bending model can collect too, scatter over the whole window. Each pair counts by how close it sits.
+    const closeness = pairs.reduce(
+      (sum, p) =>
+        sum +
+        Math.exp(
+          -0.5 * ((p.x - model.predictX(p.wavelengthNm)) / (CLOSE_TOLERANCES * toleranceX)) ** 2,
+        ),
+      0,
+    );
+    return { pairs, shape, score: closeness - 0.5 * missingStrong, missingStrong, coveredFraction };
+  }
+}

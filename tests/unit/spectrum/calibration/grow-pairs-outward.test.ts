@@ -1,0 +1,83 @@
+// Growth from a short stretch of sure pairs across a strongly curved grating, with missing lines and
+// stray peaks: every pair it adds is right, and it reaches both ends.
+import { describe, expect, it } from "vitest";
+import {
+  growPairsOutward,
+  type GrowPairsOutwardInput,
+} from "@/lib/spectrum/calibration/grow-pairs-outward";
+import type { LampLine, LampPair, LampPeak } from "@/lib/spectrum/calibration";
+import { seededRandom } from "@/lib/spectrum/calibration/seeded-random";
+
+const PIXELS = 2048;
+/** A curved grating: λ(t) = 400 + 400·(t + 0.12(t² − t) + 0.05(t³ − t)), t = px/2047 — dispersion ±20 % across the array. */
+const lambdaAt = (px: number) => {
+  const t = px / (PIXELS - 1);
+  return 400 + 400 * (t + 0.12 * (t * t - t) + 0.05 * (t * t * t - t));
+};
+const pixelOf = (lambda: number) => {
+  let low = 0;
+  let high = PIXELS - 1;
+  for (let k = 0; k < 60; k++) {
+    const mid = (low + high) / 2;
+    if (lambdaAt(mid) < lambda) low = mid;
+    else high = mid;
+  }
+  return (low + high) / 2;
+};
+
+describe("growPairsOutward", () => {
+  it("crosses a curved grating from a 6 % stretch without a wrong pair", () => {
+    const random = seededRandom(11);
+    // 40 lines 9–11 nm apart (well resolved at a 4-px FWHM, ~0.8 nm), a fifth of them missing, 30 stray peaks.
+    const lines: LampLine[] = Array.from({ length: 40 }, (_, i) => ({
+      wavelengthNm: 402 + i * 9.9 + 1.5 * random(),
+      intensity: 10 + 90 * random(),
+      species: "Ne I",
+      id: `line-${i}`,
+    }));
+    const peaks: LampPeak[] = [];
+    const truth = new Map<number, number>();
+    lines.forEach((line, i) => {
+      if (i > 3 && random() < 0.2) return;
+      truth.set(peaks.length, i);
+      peaks.push({
+        x: pixelOf(line.wavelengthNm) + 0.05 * (random() - 0.5),
+        xUncertainty: 0.05,
+        height: line.intensity * (0.6 + 0.8 * random()),
+        fwhm: 4,
+      });
+    });
+    for (let k = 0; k < 30; k++)
+      peaks.push({
+        x: random() * (PIXELS - 1),
+        xUncertainty: 0.05,
+        height: 20 * random(),
+        fwhm: 4,
+      });
+    const input: GrowPairsOutwardInput = {
+      peaks,
+      lines,
+      candidateLines: lines.map((_, i) => i),
+      usablePeaks: peaks.map((_, i) => i),
+      dispersion: "grating",
+      domain: [0, PIXELS - 1],
+      toleranceX: 2,
+      straighten: (lambda) => lambda,
+      gRange: [400, 800],
+    };
+    // The seed: the first four lines, which are all present, near the blue end.
+    const seed: LampPair[] = [0, 1, 2, 3].map((i) => ({
+      x: peaks[i].x,
+      wavelengthNm: lines[i].wavelengthNm,
+      peakIndex: i,
+      lineIndex: truth.get(i)!,
+      lineId: lines[i].id,
+    }));
+    const grown = growPairsOutward(input, seed);
+    const wrong = grown.filter((p) => truth.get(p.peakIndex) !== p.lineIndex);
+    expect(wrong).toEqual([]);
+    const present = [...truth.values()].length;
+    expect(grown.length).toBeGreaterThanOrEqual(0.85 * present);
+    expect(Math.max(...grown.map((p) => p.x))).toBeGreaterThan(0.9 * (PIXELS - 1));
+  });
+});
