@@ -10,7 +10,13 @@
 import type { CalibrationModel } from "./calibration-model";
 import { hypothesisShapes, pairingContext } from "./lamp-pairing-setup";
 import { pairsFromPrevious } from "./pairs-from-previous";
-import type { LampLine, LampPair, LampPairingOptions, LampPairingResult, LampPeak } from "./lamp-pairing-types";
+import type {
+  LampLine,
+  LampPair,
+  LampPairingOptions,
+  LampPairingResult,
+  LampPeak,
+} from "./lamp-pairing-types";
 import {
   finishGrownPairing,
   finishLampPairing,
@@ -21,6 +27,7 @@ import {
 } from "./refine-lamp-pairing";
 import { groupBlendedLampLines, type LampLineGroup } from "./group-blended-lamp-lines";
 import { growthDegree } from "./grow-pairs-outward";
+import { prunePulledPairs } from "./prune-pulled-pairs";
 import { searchLampPairing, type GrownPairing } from "./search-lamp-pairing";
 import { fitStraightenedPolynomial } from "./straightened-polynomial";
 import { seededRandom } from "./seeded-random";
@@ -78,7 +85,10 @@ export interface AutoPairLampPeaksOptions extends LampPairingOptions {
  * through the local dispersion of the straightened nominal map (constant for a grating; several
  * times finer in the blue than in the red for a prism).
  */
-function fwhmNmOfNominalAxis(context: PairingContext, straighten: (lambda: number) => number): (lambda: number) => number {
+function fwhmNmOfNominalAxis(
+  context: PairingContext,
+  straighten: (lambda: number) => number,
+): (lambda: number) => number {
   const [low, high] = context.nominalRangeNm;
   const gSpan = Math.abs(straighten(high) - straighten(low));
   const spanX = context.domain[1] - context.domain[0];
@@ -120,27 +130,48 @@ export function withBlendUncertainty(peaks: LampPeak[]): LampPeak[] {
  * A blend's pair carries its centroid's uncertainty (table intensities are rough) on top of the peak's
  * own, through the local dispersion, so the fit weighs it for what it is.
  */
-function withCentroidUncertainty(pairs: LampPair[], groups: LampLineGroup[], context: PairingContext): LampPair[] {
+function withCentroidUncertainty(
+  pairs: LampPair[],
+  groups: LampLineGroup[],
+  context: PairingContext,
+): LampPair[] {
   if (!pairs.some((p) => groups[p.lineIndex].wavelengthSigmaNm > 0)) return pairs;
   const g = context.straighten;
   const xs = pairs.map((p) => p.x);
-  const coveredFraction = (Math.max(...xs) - Math.min(...xs)) / (context.domain[1] - context.domain[0]);
+  const coveredFraction =
+    (Math.max(...xs) - Math.min(...xs)) / (context.domain[1] - context.domain[0]);
   const degree = Math.max(1, growthDegree(pairs.length, coveredFraction, context.dispersion));
-  const model = fitStraightenedPolynomial(pairs, g, [g(context.nominalRangeNm[0]), g(context.nominalRangeNm[1])], degree);
+  const model = fitStraightenedPolynomial(
+    pairs,
+    g,
+    [g(context.nominalRangeNm[0]), g(context.nominalRangeNm[1])],
+    degree,
+  );
   if (!model) return pairs;
   return pairs.map((p) => {
     const sigmaNm = groups[p.lineIndex].wavelengthSigmaNm;
     if (!(sigmaNm > 0)) return p;
     const step = 0.01;
-    const pixelsPerNm = Math.abs(model.predictX(p.wavelengthNm + step) - model.predictX(p.wavelengthNm - step)) / (2 * step);
+    const pixelsPerNm =
+      Math.abs(model.predictX(p.wavelengthNm + step) - model.predictX(p.wavelengthNm - step)) /
+      (2 * step);
     return { ...p, xUncertainty: Math.hypot(p.xUncertainty ?? 0, sigmaNm * pixelsPerNm) };
   });
 }
 
 /** A result about grouped lines, told in the caller's lines: a blend's pair points at its strongest line. */
-function inCallerLines(result: LampPairingResult, groups: LampLineGroup[], lines: LampLine[], candidateLines: number[]): LampPairingResult {
+function inCallerLines(
+  result: LampPairingResult,
+  groups: LampLineGroup[],
+  lines: LampLine[],
+  candidateLines: number[],
+): LampPairingResult {
   const indexOf = new Map(lines.map((l, i) => [l.id, i]));
-  const toCaller = (pairs: LampPair[]) => pairs.map((p) => ({ ...p, lineIndex: indexOf.get(groups[p.lineIndex]?.id ?? p.lineId ?? "") ?? p.lineIndex }));
+  const toCaller = (pairs: LampPair[]) =>
+    pairs.map((p) => ({
+      ...p,
+      lineIndex: indexOf.get(groups[p.lineIndex]?.id ?? p.lineId ?? "") ?? p.lineIndex,
+    }));
   const pairedMembers = new Set(result.pairs.flatMap((p) => groups[p.lineIndex]?.members ?? []));
   return {
     ...result,
@@ -158,7 +189,11 @@ const RIVAL_MARGIN = 2;
  * A "paired" result whose grown pairing has a rival that explains the spectrum nearly as well becomes
  * "check": the two disagree, and nothing in the spectrum decides between them.
  */
-function withRival(result: LampPairingResult, best: GrownPairing, rival: GrownPairing | null): LampPairingResult {
+function withRival(
+  result: LampPairingResult,
+  best: GrownPairing,
+  rival: GrownPairing | null,
+): LampPairingResult {
   if (!rival || result.status !== "paired") return result;
   const margin = Math.max(RIVAL_MARGIN, 0.15 * best.score);
   if (rival.score < best.score - margin) return result;
@@ -168,7 +203,15 @@ function withRival(result: LampPairingResult, best: GrownPairing, rival: GrownPa
   return {
     ...result,
     status: "check",
-    checks: [...(result.checks ?? []), { name: "rival-pairing", passed: false, value: rival.score / Math.max(best.score, 1), reason }],
+    checks: [
+      ...(result.checks ?? []),
+      {
+        name: "rival-pairing",
+        passed: false,
+        value: rival.score / Math.max(best.score, 1),
+        reason,
+      },
+    ],
     reasons: [...(result.reasons ?? []), reason],
     candidate: result.model,
     confidence: Math.min(result.confidence, 0.49),
@@ -217,12 +260,21 @@ export function autoPairLampPeaks(
 ): LampPairingResult {
   const search = options.search ?? (options.dispersion === "prism" ? "ransac" : "grow");
   const context = pairingContext(peaks, lines, options);
-  const { seed = 1, iterations = 20000, rangeTolerance = 0.25, firstGuess = "dispersion", refineCount = 4 } = options;
+  const {
+    seed = 1,
+    iterations = 20000,
+    rangeTolerance = 0.25,
+    firstGuess = "dispersion",
+    refineCount = 4,
+  } = options;
   const random = seededRandom(seed);
   const [nominalLow, nominalHigh] = options.nominalRangeNm;
   const [xMin, xMax] = context.domain;
   const domainSpan = xMax - xMin;
-  const shapes = hypothesisShapes(firstGuess === "linear" ? "linear" : context.dispersion, options.nominalRangeNm);
+  const shapes = hypothesisShapes(
+    firstGuess === "linear" ? "linear" : context.dispersion,
+    options.nominalRangeNm,
+  );
 
   if (options.previous) {
     const seeded = pairsFromPrevious(context, options.previous);
@@ -230,20 +282,47 @@ export function autoPairLampPeaks(
       // The previous calibration already predicts every line to within the matching window, so its
       // matches go straight to the final fit; the blind refinement's crude forward model would lose some.
       const family: PairingContext = { ...context, previousModel: options.previous };
-      const result = finishLampPairing(family, { pairs: seeded, rmsX: Infinity, score: seeded.length });
+      const result = finishLampPairing(family, {
+        pairs: seeded,
+        rmsX: Infinity,
+        score: seeded.length,
+      });
       if (result.status === "paired") return result;
     }
   }
 
   if (search === "grow") {
     // Pairing sees the lamp as the spectrometer does: lines that blend are one line at their centroid.
-    const groups = groupBlendedLampLines(lines, context.candidateLines, fwhmNmOfNominalAxis(context, shapes[0]));
-    const grouped: PairingContext = { ...context, peaks: withBlendUncertainty(peaks), lines: groups, candidateLines: groups.map((_, i) => i) };
+    const groups = groupBlendedLampLines(
+      lines,
+      context.candidateLines,
+      fwhmNmOfNominalAxis(context, shapes[0]),
+    );
+    const grouped: PairingContext = {
+      ...context,
+      peaks: withBlendUncertainty(peaks),
+      lines: groups,
+      candidateLines: groups.map((_, i) => i),
+    };
     const search = searchLampPairing({ ...grouped, shapes });
-    if (!search.best) return inCallerLines(refineLampPairing(context, []), groups, lines, context.candidateLines);
+    if (!search.best)
+      return inCallerLines(refineLampPairing(context, []), groups, lines, context.candidateLines);
     const shaped: PairingContext = { ...grouped, straighten: shapes[search.best.shape] };
-    const result = finishGrownPairing(shaped, withCentroidUncertainty(search.best.pairs, groups, shaped));
-    return inCallerLines(withRival(result, search.best, search.rival), groups, lines, context.candidateLines);
+    const g = shapes[search.best.shape];
+    const centred = prunePulledPairs(
+      search.best.pairs,
+      g,
+      [g(context.nominalRangeNm[0]), g(context.nominalRangeNm[1])],
+      context.dispersion,
+      context.domain,
+    );
+    const result = finishGrownPairing(shaped, withCentroidUncertainty(centred, groups, shaped));
+    return inCallerLines(
+      withRival(result, search.best, search.rival),
+      groups,
+      lines,
+      context.candidateLines,
+    );
   }
   const candidates = context.candidateLines;
   if (peaks.length < 4 || candidates.length < 4) {
@@ -253,8 +332,14 @@ export function autoPairLampPeaks(
   const lineRank = new Map<number, number>();
   const candidateRanks = ranks(candidates.map((l) => lines[l].intensity));
   candidates.forEach((l, k) => lineRank.set(l, candidateRanks[k]));
-  const strongPeaks = peaks.map((_, i) => i).sort((a, b) => peaks[b].height - peaks[a].height).slice(0, 20);
-  const strongLines = candidates.slice().sort((a, b) => lines[b].intensity - lines[a].intensity).slice(0, 30);
+  const strongPeaks = peaks
+    .map((_, i) => i)
+    .sort((a, b) => peaks[b].height - peaks[a].height)
+    .slice(0, 20);
+  const strongLines = candidates
+    .slice()
+    .sort((a, b) => lines[b].intensity - lines[a].intensity)
+    .slice(0, 30);
   const peaksByX = peaks.map((_, i) => i).sort((a, b) => peaks[a].x - peaks[b].x);
   const sortedX = peaksByX.map((i) => peaks[i].x);
   const gValues = shapes.map((g) => new Map(candidates.map((l) => [l, g(lines[l].wavelengthNm)])));
@@ -289,7 +374,15 @@ export function autoPairLampPeaks(
         used.add(p);
         score += 1 + (1 - Math.abs(quality - peakRank[p]));
         if (keep) {
-          matched.push({ x: peaks[p].x, wavelengthNm: lines[l].wavelengthNm, species: lines[l].species, lineId: lines[l].id, peakIndex: p, lineIndex: l, ...(peaks[p].xUncertainty !== undefined ? { xUncertainty: peaks[p].xUncertainty } : {}) });
+          matched.push({
+            x: peaks[p].x,
+            wavelengthNm: lines[l].wavelengthNm,
+            species: lines[l].species,
+            lineId: lines[l].id,
+            peakIndex: p,
+            lineIndex: l,
+            ...(peaks[p].xUncertainty !== undefined ? { xUncertainty: peaks[p].xUncertainty } : {}),
+          });
         }
       } else if (quality >= 0.75) {
         score -= 0.5;
@@ -320,7 +413,10 @@ export function autoPairLampPeaks(
     const hypothesis = scoreHypothesis(a, b, shape, false);
     // Keep the best few that differ: two guesses that put the array's ends within a tolerance are one.
     const duplicate = best.findIndex(
-      (h) => h.shape === shape && Math.abs(h.a + h.b * gEnds[shape][0] - xLow) < 4 * guessTolerance && Math.abs(h.a + h.b * gEnds[shape][1] - xHigh) < 4 * guessTolerance,
+      (h) =>
+        h.shape === shape &&
+        Math.abs(h.a + h.b * gEnds[shape][0] - xLow) < 4 * guessTolerance &&
+        Math.abs(h.a + h.b * gEnds[shape][1] - xHigh) < 4 * guessTolerance,
     );
     if (duplicate >= 0) {
       if (best[duplicate].score < hypothesis.score) best[duplicate] = hypothesis;

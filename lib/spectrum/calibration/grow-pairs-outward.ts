@@ -7,6 +7,7 @@
 // each step extrapolates only a little beyond what is already pinned.
 import type { DispersionKind } from "../types";
 import type { LampLine, LampPair, LampPeak } from "./lamp-pairing-types";
+import { toLampPair } from "./to-lamp-pair";
 import { fitStraightenedPolynomial, type StraightenedPolynomial } from "./straightened-polynomial";
 
 export interface GrowPairsOutwardInput {
@@ -331,15 +332,7 @@ export function growPairsOutward(
   }
 
   function pairOf(peak: number, line: number): LampPair {
-    return {
-      x: peaks[peak].x,
-      ...(peaks[peak].xUncertainty !== undefined ? { xUncertainty: peaks[peak].xUncertainty } : {}),
-      wavelengthNm: lines[line].wavelengthNm,
-      species: lines[line].species,
-      lineId: lines[line].id,
-      peakIndex: peak,
-      lineIndex: line,
-    };
+    return toLampPair(input, peak, line);
   }
 
   /**

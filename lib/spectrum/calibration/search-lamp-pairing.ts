@@ -9,6 +9,7 @@
 import type { DispersionKind } from "../types";
 import { growPairsOutward, growthDegree, type GrowPairsOutwardInput } from "./grow-pairs-outward";
 import type { LampLine, LampPair, LampPeak } from "./lamp-pairing-types";
+import { toLampPair } from "./to-lamp-pair";
 import { fitStraightenedPolynomial } from "./straightened-polynomial";
 
 export interface SearchLampPairingInput {
@@ -209,15 +210,7 @@ export function searchLampPairing(
       if (Math.abs(usableX[k] - x) <= scoreTolerance && !taken.has(p)) {
         taken.add(p);
         score += 1 + (1 - Math.abs(quality - peakRank.get(p)!));
-        pairs.push({
-          x: peaks[p].x,
-          ...(peaks[p].xUncertainty !== undefined ? { xUncertainty: peaks[p].xUncertainty } : {}),
-          wavelengthNm: lines[l].wavelengthNm,
-          species: lines[l].species,
-          lineId: lines[l].id,
-          peakIndex: p,
-          lineIndex: l,
-        });
+        pairs.push(toLampPair(input, p, l));
       } else if (quality >= 0.6) {
         score -= 0.5;
       }

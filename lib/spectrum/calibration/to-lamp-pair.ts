@@ -1,8 +1,11 @@
 // Builds the pair of one lamp peak and one lamp line, pointing back into the pairing's arrays.
-import type { LampPair } from "./lamp-pairing-types";
-import type { PairingContext } from "./refine-lamp-pairing";
+import type { LampLine, LampPair, LampPeak } from "./lamp-pairing-types";
 
-export function toLampPair(context: PairingContext, peakIndex: number, lineIndex: number): LampPair {
+export function toLampPair(
+  context: { peaks: readonly LampPeak[]; lines: readonly LampLine[] },
+  peakIndex: number,
+  lineIndex: number,
+): LampPair {
   const peak = context.peaks[peakIndex];
   const line = context.lines[lineIndex];
   return {
