@@ -315,9 +315,19 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
     type WorkPair = { peakIndex: number; lineIndex: number; origin: "auto" | "added" };
     // Taken from the pairing's fit, which also holds the pairs its outlier rejection set aside, in its order.
     const pairingFit = fit;
+    // A blend the pairing paired at its centroid (the Hg 365 nm group) is a line of its own here, at that
+    // centroid, so that the workbench refits and shows the pair the pairing made.
+    for (const p of pairingFit.pairs) {
+      const member = lines.find((l) => l.id === p.lineId);
+      const id = `blend:${p.lineId}`;
+      if (member && Math.abs(member.wavelengthNm - p.wavelengthNm) > 1e-9 && !lines.some((l) => l.id === id)) {
+        lines.push({ wavelengthNm: p.wavelengthNm, intensity: member.intensity, species: member.species, id });
+      }
+    }
+    lines.sort((a, b) => a.wavelengthNm - b.wavelengthNm);
     let work: WorkPair[] = pairingFit.pairs.map((p) => ({
       peakIndex: peaks.findIndex((k) => k.x === p.x),
-      lineIndex: lines.findIndex((l) => l.id === p.lineId),
+      lineIndex: lines.findIndex((l) => (l.id === p.lineId || l.id === `blend:${p.lineId}`) && Math.abs(l.wavelengthNm - p.wavelengthNm) < 1e-9),
       origin: "auto",
     }));
     if (work.some((w) => w.peakIndex < 0 || w.lineIndex < 0)) throw new Error("a pair of the pairing names no peak or line");

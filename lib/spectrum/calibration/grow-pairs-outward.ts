@@ -25,6 +25,8 @@ export interface GrowPairsOutwardInput {
   straighten: (wavelengthNm: number) => number;
   /** g at the nominal range's ends: the polynomial's variable runs from −1 to 1 between them. */
   gRange: [number, number];
+  /** The stated nominal range, nm: a leap must keep it near the array's ends. */
+  nominalRangeNm: [number, number];
 }
 
 export interface GrowPairsOutwardOptions {
@@ -56,6 +58,12 @@ export interface GrowPairsOutwardOptions {
 
 /** Widest window, in matching tolerances, in which a line beyond the paired stretch is paired on its own. */
 const SINGLE_STEP_WINDOW = 1.5;
+
+/** How far, as a share of the array, a leap may put the stated range's ends from the array's ends. */
+const STATED_RANGE_SHARE = 0.1;
+
+/** Least support (close-landing lines besides the anchor) of a leap that keeps the stated range. */
+const LEAP_MIN_SUPPORT = 1.5;
 
 /** How far (in close-landing lines) the best leap must lead every trial that pairs differently. */
 const LEAP_LEAD = 1.5;
@@ -283,7 +291,7 @@ export function growPairsOutward(
         .slice(0, 6);
       const farthest = Math.max(...anchors.map((a) => a.distance));
       const within = farthest + 0.5 * Math.max(farthest, minReach * spanX);
-      trials.push(supportOf(model, onSide, within, []));
+      if (keepsStatedRange(model)) trials.push(supportOf(model, onSide, within, []));
       for (const anchor of anchors) {
         const window = Math.min(
           toleranceX +
@@ -307,12 +315,18 @@ export function growPairsOutward(
     }
     trials.sort((a, b) => b.support - a.support);
     const first = trials[0];
-    if (!first || first.support < 2) return false;
-    // A trial that pairs differently with nearly as much support leaves the leap undecided.
-    const firstKeys = new Set(first.pairs.map((p) => `${p.peakIndex}:${p.lineIndex}`));
-    const runnerUp = trials
-      .slice(1)
-      .find((t) => !t.pairs.every((p) => firstKeys.has(`${p.peakIndex}:${p.lineIndex}`)));
+    if (!first || first.support < LEAP_MIN_SUPPORT) return false;
+    // A trial that pairs a line with another peak (or a peak with another line) with nearly as much
+    // support leaves the leap undecided; one that only adds or lacks pairs agrees with it.
+    const peakOfLine = new Map(first.pairs.map((p) => [p.lineIndex, p.peakIndex]));
+    const lineOfPeak = new Map(first.pairs.map((p) => [p.peakIndex, p.lineIndex]));
+    const conflicts = (t: Trial) =>
+      t.pairs.some(
+        (p) =>
+          (peakOfLine.has(p.lineIndex) && peakOfLine.get(p.lineIndex) !== p.peakIndex) ||
+          (lineOfPeak.has(p.peakIndex) && lineOfPeak.get(p.peakIndex) !== p.lineIndex),
+      );
+    const runnerUp = trials.slice(1).find(conflicts);
     if (runnerUp && runnerUp.support > first.support - LEAP_LEAD) return false;
     for (const pair of first.pairs) {
       if (pairedPeaks.has(pair.peakIndex) || pairedLines.has(pair.lineIndex)) continue;
@@ -321,6 +335,22 @@ export function growPairsOutward(
       pairedLines.add(pair.lineIndex);
     }
     return first.pairs.length > 0;
+  }
+
+  /**
+   * Whether a model puts the stated range's ends near the array's ends (either way round): the stated
+   * range is off by a few per cent of the span at most (±3 % in the sweep, common practice for a
+   * spectrometer's data sheet), and a curved grating's bending moves them a few per cent more.
+   */
+  function keepsStatedRange(model: StraightenedPolynomial): boolean {
+    const reach = STATED_RANGE_SHARE * spanX;
+    const low = model.predictX(input.nominalRangeNm[0]);
+    const high = model.predictX(input.nominalRangeNm[1]);
+    const near = (x: number, end: number) => Math.abs(x - end) <= reach;
+    return (
+      (near(low, domain[0]) && near(high, domain[1])) ||
+      (near(low, domain[1]) && near(high, domain[0]))
+    );
   }
 
   function plausibleHeight(line: number, peak: number, [low, high]: [number, number]): boolean {

@@ -253,6 +253,7 @@ export function searchLampPairing(
       toleranceX,
       straighten: g,
       gRange: [g(nominalRangeNm[0]), g(nominalRangeNm[1])],
+      nominalRangeNm,
     };
     const pairs = growPairsOutward(growInput, hypothesis.pairs);
     grown.push(judgeGrown(growInput, pairs, hypothesis.shape));
