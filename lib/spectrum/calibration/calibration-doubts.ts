@@ -43,15 +43,26 @@ export interface CalibrationDoubtsOptions {
 }
 
 function assertFraction(value: number, name: string): void {
-  if (!(Number.isFinite(value) && value >= 0 && value <= 1)) throw new RangeError(`${name} must be within [0, 1], got ${value}`);
+  if (!(Number.isFinite(value) && value >= 0 && value <= 1))
+    throw new RangeError(`${name} must be within [0, 1], got ${value}`);
 }
 
 const nm = (value: number) => value.toFixed(1);
 
 /** The doubts about a fitted calibration, as sentences; [] when there are none. */
-export function calibrationDoubts(fit: CalibrationDoubtsFit, options: CalibrationDoubtsOptions = {}): string[] {
-  const { automaticConfidence, minPairs = 7, minCoveredFraction = 0.6, maxEndGapFraction = 0.3, minConfidence = 0.5 } = options;
-  if (!Number.isInteger(minPairs) || minPairs < 1) throw new RangeError(`minPairs must be a positive integer, got ${minPairs}`);
+export function calibrationDoubts(
+  fit: CalibrationDoubtsFit,
+  options: CalibrationDoubtsOptions = {},
+): string[] {
+  const {
+    automaticConfidence,
+    minPairs = 7,
+    minCoveredFraction = 0.6,
+    maxEndGapFraction = 0.3,
+    minConfidence = 0.5,
+  } = options;
+  if (!Number.isInteger(minPairs) || minPairs < 1)
+    throw new RangeError(`minPairs must be a positive integer, got ${minPairs}`);
   assertFraction(minCoveredFraction, "minCoveredFraction");
   assertFraction(maxEndGapFraction, "maxEndGapFraction");
   assertFraction(minConfidence, "minConfidence");
@@ -59,12 +70,15 @@ export function calibrationDoubts(fit: CalibrationDoubtsFit, options: Calibratio
     throw new RangeError(`automaticConfidence must be finite, got ${automaticConfidence}`);
   }
   const [x0, x1] = fit.model.domain;
-  if (!(Number.isFinite(x0) && Number.isFinite(x1) && x0 !== x1)) throw new RangeError(`model.domain must be two different finite numbers`);
+  if (!(Number.isFinite(x0) && Number.isFinite(x1) && x0 !== x1))
+    throw new RangeError(`model.domain must be two different finite numbers`);
   const [c0, c1] = fit.model.coveredX;
-  if (!(Number.isFinite(c0) && Number.isFinite(c1))) throw new RangeError(`model.coveredX must be finite`);
+  if (!(Number.isFinite(c0) && Number.isFinite(c1)))
+    throw new RangeError(`model.coveredX must be finite`);
   const used = fit.pairs.filter((p) => p.used).map((p) => p.wavelengthNm);
   used.forEach((w, i) => {
-    if (!(Number.isFinite(w) && w > 0)) throw new RangeError(`used pair ${i} has a wavelength that is not positive and finite: ${w}`);
+    if (!(Number.isFinite(w) && w > 0))
+      throw new RangeError(`used pair ${i} has a wavelength that is not positive and finite: ${w}`);
   });
   used.sort((a, b) => a - b);
 
@@ -78,7 +92,9 @@ export function calibrationDoubts(fit: CalibrationDoubtsFit, options: Calibratio
   const covered = Math.abs(c1 - c0) / Math.abs(x1 - x0);
   if (covered < minCoveredFraction) {
     // Rounded down, so that a doubtful share never reads as the threshold itself.
-    doubts.push(`The pairs cover ${Math.floor(covered * 100)} % of the array; wavelengths outside are extrapolated.`);
+    doubts.push(
+      `The pairs cover ${Math.floor(covered * 100)} % of the array; wavelengths outside are extrapolated.`,
+    );
   }
 
   const n = used.length;
@@ -97,7 +113,10 @@ export function calibrationDoubts(fit: CalibrationDoubtsFit, options: Calibratio
     };
     const low = endGap((k) => used[k] - used[k - 1]);
     if (low) {
-      const pairs = low.k === 1 ? `1 pair (${nm(used[0])} nm)` : `2 pairs (${nm(used[0])} and ${nm(used[1])} nm)`;
+      const pairs =
+        low.k === 1
+          ? `1 pair (${nm(used[0])} nm)`
+          : `2 pairs (${nm(used[0])} and ${nm(used[1])} nm)`;
       doubts.push(
         `The short-wavelength end rests on ${pairs} beyond a gap of ${nm(low.gapNm)} nm with no pair, ` +
           `${Math.round((100 * low.gapNm) / spanNm)} % of the covered ${range}; a wrong pair there would bend that whole end.`,
@@ -105,7 +124,10 @@ export function calibrationDoubts(fit: CalibrationDoubtsFit, options: Calibratio
     }
     const high = endGap((k) => used[n - k] - used[n - k - 1]);
     if (high) {
-      const pairs = high.k === 1 ? `1 pair (${nm(used[n - 1])} nm)` : `2 pairs (${nm(used[n - 2])} and ${nm(used[n - 1])} nm)`;
+      const pairs =
+        high.k === 1
+          ? `1 pair (${nm(used[n - 1])} nm)`
+          : `2 pairs (${nm(used[n - 2])} and ${nm(used[n - 1])} nm)`;
       doubts.push(
         `The long-wavelength end rests on ${pairs} beyond a gap of ${nm(high.gapNm)} nm with no pair, ` +
           `${Math.round((100 * high.gapNm) / spanNm)} % of the covered ${range}; a wrong pair there would bend that whole end.`,

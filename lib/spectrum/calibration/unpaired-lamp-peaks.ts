@@ -25,7 +25,8 @@ export interface UnpairedLampLineInput {
  * line near is paired with another peak; "left-unpaired": one clean line is near but the pairing did not
  * take it (pair it by hand if it is right); "no-wavelength": the calibration gives the peak no wavelength.
  */
-export type UnpairedPeakReasonCode = "blend" | "not-in-table" | "line-paired-elsewhere" | "left-unpaired" | "no-wavelength";
+export type UnpairedPeakReasonCode =
+  "blend" | "not-in-table" | "line-paired-elsewhere" | "left-unpaired" | "no-wavelength";
 
 export interface UnpairedPeakReason {
   code: UnpairedPeakReasonCode;
@@ -57,21 +58,31 @@ export function unpairedLampPeaks(
   options: UnpairedLampPeaksOptions,
 ): UnpairedLampPeaksResult {
   const { arrayRangeNm, widthFactor = 1.5 } = options;
-  if (!(Number.isFinite(widthFactor) && widthFactor > 0)) throw new RangeError(`widthFactor must be positive and finite, got ${widthFactor}`);
-  if (!(Number.isFinite(arrayRangeNm[0]) && Number.isFinite(arrayRangeNm[1]) && arrayRangeNm[0] < arrayRangeNm[1])) {
+  if (!(Number.isFinite(widthFactor) && widthFactor > 0))
+    throw new RangeError(`widthFactor must be positive and finite, got ${widthFactor}`);
+  if (!(
+    Number.isFinite(arrayRangeNm[0]) &&
+    Number.isFinite(arrayRangeNm[1]) &&
+    arrayRangeNm[0] < arrayRangeNm[1]
+  )) {
     throw new RangeError(`arrayRangeNm must be [min, max] with finite min < max`);
   }
   peaks.forEach((p, i) => {
-    if (!(Number.isFinite(p.fwhmNm) && p.fwhmNm > 0)) throw new RangeError(`peaks[${i}].fwhmNm must be positive and finite, got ${p.fwhmNm}`);
+    if (!(Number.isFinite(p.fwhmNm) && p.fwhmNm > 0))
+      throw new RangeError(`peaks[${i}].fwhmNm must be positive and finite, got ${p.fwhmNm}`);
   });
   lines.forEach((l, i) => {
     if (!(Number.isFinite(l.wavelengthNm) && l.wavelengthNm > 0)) {
-      throw new RangeError(`lines[${i}].wavelengthNm must be positive and finite, got ${l.wavelengthNm}`);
+      throw new RangeError(
+        `lines[${i}].wavelengthNm must be positive and finite, got ${l.wavelengthNm}`,
+      );
     }
   });
 
   const linesWithin = (wavelengthNm: number, reachNm: number, except = -1) =>
-    lines.flatMap((l, j) => (j !== except && Math.abs(l.wavelengthNm - wavelengthNm) <= reachNm ? [j] : []));
+    lines.flatMap((l, j) =>
+      j !== except && Math.abs(l.wavelengthNm - wavelengthNm) <= reachNm ? [j] : [],
+    );
 
   const peakReasons = peaks.map((peak): UnpairedPeakReason | null => {
     if (peak.paired) return null;
@@ -81,18 +92,31 @@ export function unpairedLampPeaks(
     if (near.length === 0) return { code: "not-in-table", lineIndices: [] };
     // Another lamp line within reach of a table line near the peak: the peak may be both at once.
     const partners = near.flatMap((j) => linesWithin(lines[j].wavelengthNm, reachNm, j));
-    if (partners.length > 0) return { code: "blend", lineIndices: [...new Set([...near, ...partners])].sort((a, b) => a - b) };
+    if (partners.length > 0)
+      return {
+        code: "blend",
+        lineIndices: [...new Set([...near, ...partners])].sort((a, b) => a - b),
+      };
     const [only] = near;
-    return { code: lines[only].paired ? "line-paired-elsewhere" : "left-unpaired", lineIndices: near };
+    return {
+      code: lines[only].paired ? "line-paired-elsewhere" : "left-unpaired",
+      lineIndices: near,
+    };
   });
 
   const located = peaks.filter((p) => Number.isFinite(p.wavelengthNm));
   const expectedWithoutPeak = lines.flatMap((line, j) => {
-    if (line.paired || line.wavelengthNm < arrayRangeNm[0] || line.wavelengthNm > arrayRangeNm[1]) return [];
+    if (line.paired || line.wavelengthNm < arrayRangeNm[0] || line.wavelengthNm > arrayRangeNm[1])
+      return [];
     if (located.length === 0) return [j];
     // The local width is that of the peak nearest the line: the resolution changes along the array.
     let nearest = located[0];
-    for (const p of located) if (Math.abs(p.wavelengthNm - line.wavelengthNm) < Math.abs(nearest.wavelengthNm - line.wavelengthNm)) nearest = p;
+    for (const p of located)
+      if (
+        Math.abs(p.wavelengthNm - line.wavelengthNm) <
+        Math.abs(nearest.wavelengthNm - line.wavelengthNm)
+      )
+        nearest = p;
     const reachNm = widthFactor * nearest.fwhmNm;
     return located.some((p) => Math.abs(p.wavelengthNm - line.wavelengthNm) <= reachNm) ? [] : [j];
   });

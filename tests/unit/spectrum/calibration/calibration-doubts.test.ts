@@ -11,11 +11,14 @@ const fitAt = (pixels: number[]) =>
     pixels.map((x) => ({ x, wavelengthNm: wavelengthOf(x), xUncertainty: 0.05 })),
     { model: "polynomial", degree: 1, domain: DOMAIN },
   );
-const spread = (n: number, from: number, to: number) => Array.from({ length: n }, (_, i) => from + ((to - from) * i) / (n - 1));
+const spread = (n: number, from: number, to: number) =>
+  Array.from({ length: n }, (_, i) => from + ((to - from) * i) / (n - 1));
 
 describe("calibrationDoubts", () => {
   it("has no doubt about 9 evenly spread pairs over 90 % of the array with a confident pairing", () => {
-    expect(calibrationDoubts(fitAt(spread(9, 100, 1940)), { automaticConfidence: 0.9 })).toEqual([]);
+    expect(calibrationDoubts(fitAt(spread(9, 100, 1940)), { automaticConfidence: 0.9 })).toEqual(
+      [],
+    );
   });
 
   it("doubts fewer than 7 pairs, and not 7", () => {
@@ -28,7 +31,9 @@ describe("calibrationDoubts", () => {
   it("doubts pairs that cover under 60 % of the array, and says how much they cover", () => {
     // 41 % of the 2047-pixel span.
     const doubts = calibrationDoubts(fitAt(spread(9, 600, 600 + 0.41 * 2047 + 1)));
-    expect(doubts).toEqual(["The pairs cover 41 % of the array; wavelengths outside are extrapolated."]);
+    expect(doubts).toEqual([
+      "The pairs cover 41 % of the array; wavelengths outside are extrapolated.",
+    ]);
     // 61 %: no doubt.
     expect(calibrationDoubts(fitAt(spread(9, 400, 400 + 0.61 * 2047)))).toEqual([]);
   });
@@ -43,7 +48,9 @@ describe("calibrationDoubts", () => {
     // Eight pairs from 900 to 1900 px, one at 100 px: the gap is 800 of 1800 px (44 %).
     const doubts = calibrationDoubts(fitAt([100, ...spread(8, 900, 1900)]));
     expect(doubts).toHaveLength(1);
-    expect(doubts[0]).toMatch(/^The short-wavelength end rests on 1 pair \(425\.0 nm\) beyond a gap of 200\.0 nm/);
+    expect(doubts[0]).toMatch(
+      /^The short-wavelength end rests on 1 pair \(425\.0 nm\) beyond a gap of 200\.0 nm/,
+    );
     expect(doubts[0]).toMatch(/44 % of the covered 425\.0–875\.0 nm/);
   });
 
@@ -66,9 +73,19 @@ describe("calibrationDoubts", () => {
 
   it("counts only the pairs the fit used, and lists every doubt at once", () => {
     const fit = fitAt(spread(6, 600, 1000));
-    const withRejected = { ...fit, pairs: [...fit.pairs, { ...fit.pairs[0], x: 2000, wavelengthNm: wavelengthOf(2000), used: false }] };
+    const withRejected = {
+      ...fit,
+      pairs: [
+        ...fit.pairs,
+        { ...fit.pairs[0], x: 2000, wavelengthNm: wavelengthOf(2000), used: false },
+      ],
+    };
     const doubts = calibrationDoubts(withRejected, { automaticConfidence: 0.2 });
-    expect(doubts.map((d) => d.slice(0, 20))).toEqual(["Only 6 pairs are use", "The pairs cover 19 %", "The automatic pairin"]);
+    expect(doubts.map((d) => d.slice(0, 20))).toEqual([
+      "Only 6 pairs are use",
+      "The pairs cover 19 %",
+      "The automatic pairin",
+    ]);
   });
 
   it("refuses thresholds outside their range", () => {

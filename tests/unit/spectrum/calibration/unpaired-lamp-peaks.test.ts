@@ -4,7 +4,11 @@ import { describe, expect, it } from "vitest";
 import { unpairedLampPeaks } from "@/lib/spectrum/calibration";
 
 const FWHM_NM = 1; // reach: 1.5 nm
-const peak = (wavelengthNm: number, paired = false, fwhmNm = FWHM_NM) => ({ wavelengthNm, fwhmNm, paired });
+const peak = (wavelengthNm: number, paired = false, fwhmNm = FWHM_NM) => ({
+  wavelengthNm,
+  fwhmNm,
+  paired,
+});
 const line = (wavelengthNm: number, paired = false) => ({ wavelengthNm, paired });
 const OPTIONS = { arrayRangeNm: [400, 900] as const };
 
@@ -15,14 +19,22 @@ describe("unpairedLampPeaks", () => {
   });
 
   it("says 'not in the table' when no lamp line lies within 1.5 FWHM", () => {
-    const { peakReasons } = unpairedLampPeaks([peak(600), peak(700)], [line(601.6), line(701.4)], OPTIONS);
+    const { peakReasons } = unpairedLampPeaks(
+      [peak(600), peak(700)],
+      [line(601.6), line(701.4)],
+      OPTIONS,
+    );
     expect(peakReasons[0]).toEqual({ code: "not-in-table", lineIndices: [] });
     expect(peakReasons[1]).toEqual({ code: "left-unpaired", lineIndices: [1] });
   });
 
   it("says 'blend' when another lamp line lies within 1.5 FWHM of the table line near the peak", () => {
     // 650.0 is near the peak; 651.2 lies 1.2 nm from it (within reach), though 1.7 nm from the peak.
-    const { peakReasons } = unpairedLampPeaks([peak(649.8)], [line(640), line(650.0), line(651.5)], OPTIONS);
+    const { peakReasons } = unpairedLampPeaks(
+      [peak(649.8)],
+      [line(640), line(650.0), line(651.5)],
+      OPTIONS,
+    );
     expect(peakReasons[0]).toEqual({ code: "blend", lineIndices: [1, 2] });
     // Pushed 1.6 nm apart, the partner is out of reach: not a blend.
     const apart = unpairedLampPeaks([peak(649.8)], [line(640), line(650.0), line(651.7)], OPTIONS);
@@ -35,12 +47,19 @@ describe("unpairedLampPeaks", () => {
   });
 
   it("names a line already paired with another peak", () => {
-    const { peakReasons } = unpairedLampPeaks([peak(500, true), peak(500.9)], [line(500, true)], OPTIONS);
+    const { peakReasons } = unpairedLampPeaks(
+      [peak(500, true), peak(500.9)],
+      [line(500, true)],
+      OPTIONS,
+    );
     expect(peakReasons[1]).toEqual({ code: "line-paired-elsewhere", lineIndices: [0] });
   });
 
   it("says a peak the calibration gives no wavelength has none", () => {
-    expect(unpairedLampPeaks([peak(Number.NaN)], [line(500)], OPTIONS).peakReasons[0]).toEqual({ code: "no-wavelength", lineIndices: [] });
+    expect(unpairedLampPeaks([peak(Number.NaN)], [line(500)], OPTIONS).peakReasons[0]).toEqual({
+      code: "no-wavelength",
+      lineIndices: [],
+    });
   });
 
   it("lists unpaired lines on the array with no peak within 1.5 FWHM as expected without a peak", () => {
