@@ -327,7 +327,7 @@ async function seedDemoWorkflow(): Promise<void> {
           model: "auto",
           excluded: [],
           added: [],
-          // The demo lamps calibrate with doubts (e.g. pairs over a third of the array); the demo says so
+          // The demo lamps calibrate with doubts (the grating demo's pairs cover 30 % of the array); the demo says so
           // on the calibration page rather than hiding them. A reason is stored only when there are doubts.
           confirmReason: "Demo data: the shipped demo lamp is calibrated as it is, so that the demo runs have a calibration to show.",
         })
