@@ -38,6 +38,8 @@ interface Saved {
 
 const suffix = Date.now().toString(36);
 const grating = syntheticGrating();
+/** Its own noise seed: the same bytes as another test file's lamp would be flagged as a duplicate upload. */
+const CONFIRMATION_SEED = 11;
 const REASON =
   "Only the middle of the array is used for sodium D today; checked against the Hg 546 nm line by eye.";
 let chemist: ApiClient;
@@ -71,7 +73,7 @@ beforeAll(async () => {
     chemist,
     instrumentId,
     "lamp",
-    lampFile(grating),
+    lampFile(grating, CONFIRMATION_SEED),
     "confirmation-lamp.csv",
   );
   base = { instrumentId, spectrumId, lamps: ["Hg", "Ar"] };
