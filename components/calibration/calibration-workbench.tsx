@@ -28,6 +28,8 @@ interface WorkbenchInput {
   model: CalibrationModelChoice;
   excluded: PairRef[];
   added: PairRef[];
+  /** Sent with the save only: why a doubtful calibration may still become the default. */
+  confirmReason?: string;
 }
 
 interface PreviewError {
@@ -66,6 +68,7 @@ export function CalibrationWorkbench({
   const [busy, setBusy] = useState(false);
   const [chooserPeak, setChooserPeak] = useState<number | null>(null);
   const [saveState, setSaveState] = useState<FormState>({});
+  const [confirmReason, setConfirmReason] = useState("");
   const [saving, startSaving] = useTransition();
   const request = useRef(0);
   const opener = useRef<HTMLElement | null>(null);
@@ -130,6 +133,8 @@ export function CalibrationWorkbench({
   const stale = busy || (shownInput !== null && shownInput !== input);
   const peaks = preview?.peaks ?? [];
   const unpaired = peaks.map((p, i) => ({ ...p, i })).filter((p) => !p.pairedWith);
+  const doubts = preview?.result.doubts ?? [];
+  const reasonError = saveState.fieldErrors?.confirmReason?.join(" ");
   const labels = Object.fromEntries(models.map((m) => [m.value, m.label]));
   const counts = preview
     ? {
@@ -313,7 +318,30 @@ export function CalibrationWorkbench({
                     >
                       Pair the peak at pixel {p.pixel.toFixed(1)}
                       {p.predictedNm !== null ? ` (≈ ${p.predictedNm.toFixed(2)} nm)` : ""}, SNR {p.snr.toFixed(0)}
+                      {p.unpaired ? (
+                        <>
+                          {" — "}
+                          <span data-testid="unpaired-reason">{p.unpaired.reason}</span>
+                          {p.unpaired.lines.length > 0
+                            ? ` (${p.unpaired.lines.map((l) => `${l.species} ${l.wavelengthNm.toFixed(3)}`).join(", ")} nm)`
+                            : ""}
+                        </>
+                      ) : null}
                     </button>
+                  </li>
+                ))}
+              </ul>
+            )}
+            <h3 id="expected-heading" className="mt-3 mb-1 text-sm font-semibold">
+              Expected lines with no peak ({preview.expectedWithoutPeak.length})
+            </h3>
+            {preview.expectedWithoutPeak.length === 0 ? (
+              <p className="muted text-sm">Every lamp line the calibration puts on the array has a peak within 1.5 FWHM of it.</p>
+            ) : (
+              <ul aria-labelledby="expected-heading" className="flex flex-wrap gap-x-4 gap-y-1 text-sm" data-testid="expected-without-peak">
+                {preview.expectedWithoutPeak.map((l) => (
+                  <li key={`${l.species}-${l.wavelengthNm}`}>
+                    {l.species} <span className="font-mono">{l.wavelengthNm.toFixed(3)} nm</span> — {l.reason}
                   </li>
                 ))}
               </ul>
@@ -342,6 +370,37 @@ export function CalibrationWorkbench({
               Saves the model, its coefficients, the pairs, RMS, uncertainty, covered range and line-table release {preview.lineRelease.number}. The newest
               calibration of the instrument becomes the default for new runs; its page shows the drift from the previous one.
             </p>
+            {doubts.length > 0 ? (
+              <div className="flex flex-col gap-2 rounded border border-ember-600 p-3 text-sm" data-testid="calibration-doubts">
+                <p id="doubts-heading" className="font-semibold">
+                  <span aria-hidden>⚠ </span>This calibration is doubtful. It becomes the instrument&rsquo;s default only with a reason:
+                </p>
+                <ul aria-labelledby="doubts-heading" className="list-disc pl-5">
+                  {doubts.map((d) => (
+                    <li key={d}>{d}</li>
+                  ))}
+                </ul>
+                <label htmlFor="confirm-reason" className="font-medium">
+                  Why it can be trusted (10–500 characters)
+                </label>
+                <textarea
+                  id="confirm-reason"
+                  name="confirmReason"
+                  required
+                  minLength={10}
+                  maxLength={500}
+                  rows={3}
+                  value={confirmReason}
+                  onChange={(e) => setConfirmReason(e.target.value)}
+                  aria-invalid={reasonError ? true : undefined}
+                  aria-describedby="confirm-reason-error"
+                  className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1.5"
+                />
+                <div id="confirm-reason-error" aria-live="polite" className="text-xs text-red-700 dark:text-red-300">
+                  {reasonError}
+                </div>
+              </div>
+            ) : null}
             <FormMessage message={saveState.message} />
             <div>
               <Button
@@ -350,7 +409,8 @@ export function CalibrationWorkbench({
                 pending={saving}
                 onClick={() =>
                   startSaving(async () => {
-                    const state = await saveAction(input);
+                    const reason = confirmReason.trim();
+                    const state = await saveAction(doubts.length > 0 && reason ? { ...input, confirmReason: reason } : input);
                     setSaveState(state);
                   })
                 }

@@ -9,11 +9,14 @@ import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
 import {
   CalibrationError,
+  calibrationDoubts,
   calibrationUncertainty,
   compareCalibrationModels,
+  dispersionAt,
   evaluateCalibration,
   fitCalibration,
   pairManually,
+  unpairedLampPeaks,
   type CalibrationModel,
   type FitCalibrationResult,
   type FittedCalibrationPair,
@@ -21,6 +24,7 @@ import {
   type LampLine,
   type LampPair,
   type LampPairingResult,
+  type UnpairedPeakReasonCode,
 } from "@/lib/spectrum/calibration";
 import type { Peak } from "@/lib/spectrum/types";
 import { runHeavyTask } from "@/lib/workers/heavy-pool";
@@ -75,20 +79,39 @@ function toPairRecord(pair: FittedCalibrationPair): CalibrationPairRecord {
   };
 }
 
+/**
+ * Tells two calibrations of one instrument apart, even on one date: gases, time (UTC, like calibratedOn),
+ * model, RMS and covered range, e.g. "Ne+Ar · 14:05 · polynomial-3 · RMS 0.012 nm · 402–918 nm".
+ */
+export function calibrationLabel(parts: { lamps: string[]; createdAt: Date; model: string; rmsNm: number; coveredRangeNm: [number, number] }): string {
+  const time = parts.createdAt.toISOString().slice(11, 16);
+  const [fromNm, toNm] = parts.coveredRangeNm;
+  return [
+    parts.lamps.join("+"),
+    time,
+    parts.model,
+    `RMS ${parts.rmsNm.toFixed(3)} nm`,
+    `${Math.round(fromNm)}–${Math.round(toNm)} nm`,
+  ].join(" · ");
+}
+
 export function toCalibrationRecord(row: Calibration): CalibrationRecord {
+  const model = modelLabel(row.model);
+  const coveredRangeNm: [number, number] = [row.coveredMinNm, row.coveredMaxNm];
   return {
     id: row.id,
+    label: calibrationLabel({ lamps: row.lamps, createdAt: row.createdAt, model, rmsNm: row.rmsNm, coveredRangeNm }),
     instrumentId: row.instrumentId,
     spectrumId: row.spectrumId,
     lineReleaseId: row.lineReleaseId,
     lamps: row.lamps,
     requestedModel: row.requestedModel,
-    model: modelLabel(row.model),
+    model,
     rmsNm: row.rmsNm,
     dof: row.dof,
     pairs: row.pairs as CalibrationPairRecord[],
     rejected: row.rejected as CalibrationPairRecord[],
-    coveredRangeNm: [row.coveredMinNm, row.coveredMaxNm],
+    coveredRangeNm,
     uncertainty: row.uncertainty as CalibrationRecord["uncertainty"],
     drift: row.drift as CalibrationRecord["drift"],
     pairing: row.pairing as CalibrationRecord["pairing"],
@@ -192,13 +215,45 @@ export interface CalibrationPreview {
     uncertainty: { medianNm: number; maxNm: number };
     warnings: { code: string; message: string }[];
     pairing: CalibrationRecord["pairing"];
+    /**
+     * Why this calibration should not silently become the instrument's default (calibrationDoubts);
+     * saving it then needs confirmReason.
+     */
+    doubts: string[];
   };
   comparison: { candidates: CalibrationComparisonRow[]; recommended: CalibrationModelChoice | null; reason: string };
   /** The lamp's peaks, with the wavelength the fitted model puts them at and their line when paired. */
-  peaks: { pixel: number; height: number; fwhm: number; snr: number; predictedNm: number | null; pairedWith: { wavelengthNm: number; species: string } | null }[];
+  peaks: {
+    pixel: number;
+    height: number;
+    fwhm: number;
+    snr: number;
+    predictedNm: number | null;
+    pairedWith: { wavelengthNm: number; species: string } | null;
+    /** Why an unpaired peak is unpaired (null when paired), with the lamp lines the reason is about. */
+    unpaired: UnpairedPeakExplanation | null;
+  }[];
   /** Lamp lines of the chosen gases in the instrument's nominal range. */
   lines: { wavelengthNm: number; species: string; intensity: number; lineId: string; paired: boolean }[];
+  /** Unpaired lamp lines the calibration puts on the array with no peak within 1.5 FWHM: below the peak threshold. */
+  expectedWithoutPeak: { wavelengthNm: number; species: string; intensity: number; reason: "below threshold" }[];
 }
+
+/** An unpaired peak's reason in words the workbench shows as they are. */
+export interface UnpairedPeakExplanation {
+  code: UnpairedPeakReasonCode;
+  /** "blend", "not in the table", "line paired with another peak", "left unpaired", "no wavelength". */
+  reason: string;
+  lines: { wavelengthNm: number; species: string }[];
+}
+
+const UNPAIRED_REASON_WORDS: Record<UnpairedPeakReasonCode, string> = {
+  blend: "blend",
+  "not-in-table": "not in the table",
+  "line-paired-elsewhere": "line paired with another peak",
+  "left-unpaired": "left unpaired",
+  "no-wavelength": "no wavelength",
+};
 
 interface ComputedCalibration {
   preview: CalibrationPreview;
@@ -232,6 +287,17 @@ function lineAt(lines: LampLine[], wavelengthNm: number): number {
     if (nearest < 0 || Math.abs(l.wavelengthNm - wavelengthNm) < Math.abs(lines[nearest].wavelengthNm - wavelengthNm)) nearest = k;
   });
   return nearest >= 0 && Math.abs(lines[nearest].wavelengthNm - wavelengthNm) <= LINE_MATCH_NM ? nearest : -1;
+}
+
+/** An unpaired peak's reason in words; a peak without a calibrated wavelength says so. */
+function explainUnpaired(
+  paired: boolean,
+  reason: { code: UnpairedPeakReasonCode; lineIndices: number[] } | null,
+  lineRef: (j: number) => { wavelengthNm: number; species: string },
+): UnpairedPeakExplanation | null {
+  if (paired) return null;
+  const code = reason?.code ?? "no-wavelength";
+  return { code, reason: UNPAIRED_REASON_WORDS[code], lines: (reason?.lineIndices ?? []).map(lineRef) };
 }
 
 const modelName = (kind: string, degree?: number) => (kind === "polynomial" ? `degree-${degree} polynomial` : `${kind} model`);
@@ -467,6 +533,25 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
         ...work.filter((w) => w.origin === "added").map((w) => ({ change: "added" as const, ...pairRefOf(w) })),
       ],
     };
+    // Doubts about the chosen fit; the confidence counts only for an automatic pairing (no seeds by hand).
+    const doubts = calibrationDoubts(chosen, input.pairs ? {} : { automaticConfidence: pairing.confidence });
+    // Why peaks stay unpaired, in calibrated wavelength with each peak's FWHM turned into nm.
+    const localDispersion = dispersionAt(model, Float64Array.from(peaks.map((p) => p.x)));
+    const arrayEndsNm = Array.from(evaluateCalibration(model, Float64Array.from(domain), quiet));
+    const explained =
+      arrayEndsNm.every(Number.isFinite) && arrayEndsNm[0] !== arrayEndsNm[1]
+        ? unpairedLampPeaks(
+            peaks.map((p, i) => ({
+              wavelengthNm: predicted[i],
+              // A width the model cannot turn into nm falls back to the instrument's resolution.
+              fwhmNm: Number.isFinite(localDispersion[i]) && localDispersion[i] !== 0 ? p.fwhm * Math.abs(localDispersion[i]) : instrument.resolutionNm,
+              paired: pairedPeak.has(i),
+            })),
+            lines.map((l, i) => ({ wavelengthNm: l.wavelengthNm, paired: pairedLines.has(i) })),
+            { arrayRangeNm: [Math.min(...arrayEndsNm), Math.max(...arrayEndsNm)] },
+          )
+        : null;
+    const lineRef = (j: number) => ({ wavelengthNm: lines[j].wavelengthNm, species: lines[j].species });
     const previewPairs: CalibrationPreviewPair[] = [
       ...chosen.pairs.map((p, i) => ({ ...toPairRecord(p), origin: work[i].origin, state: p.used ? ("used" as const) : ("rejected" as const) })),
       ...excluded.map((p, i) => ({ ...p, origin: excludedWork[i].origin, state: "excluded" as const })),
@@ -489,6 +574,7 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
         uncertainty,
         warnings: chosen.warnings,
         pairing: pairingRecord,
+        doubts,
       },
       comparison: {
         candidates,
@@ -504,9 +590,16 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
           snr: p.snr,
           predictedNm: Number.isFinite(predicted[i]) ? predicted[i] : null,
           pairedWith: line ? { wavelengthNm: line.wavelengthNm, species: line.species } : null,
+          unpaired: explainUnpaired(line !== null, explained?.peakReasons[i] ?? null, lineRef),
         };
       }),
       lines: lines.map((l, i) => ({ wavelengthNm: l.wavelengthNm, species: l.species, intensity: l.intensity, lineId: l.id, paired: pairedLines.has(i) })),
+      expectedWithoutPeak: (explained?.expectedWithoutPeak ?? []).map((j) => ({
+        wavelengthNm: lines[j].wavelengthNm,
+        species: lines[j].species,
+        intensity: lines[j].intensity,
+        reason: "below threshold" as const,
+      })),
     };
     return { preview, instrument, spectrum, fit: chosen, excluded };
   } catch (error) {
@@ -527,6 +620,21 @@ export async function createCalibration(actor: Actor, input: CalibrationCreateIn
   const model = fit.model;
   const { domain } = preview;
   const release = preview.lineRelease;
+  // The newest calibration becomes the instrument's default: a doubtful one only with a stated reason.
+  const { doubts } = preview.result;
+  if (doubts.length > 0 && !input.confirmReason) {
+    throw new AppError(
+      "unprocessable",
+      `This calibration would become the instrument's default but is doubtful: ${doubts.join(" ")} ` +
+        "Improve the pairs, or say why it can be trusted and save it again.",
+      {
+        fieldErrors: {
+          confirmReason: [`Say why this calibration can be trusted (10–500 characters). Its doubts: ${doubts.join(" ")}`],
+        },
+      },
+    );
+  }
+  const confirmation = doubts.length > 0 && input.confirmReason ? { reason: input.confirmReason, doubts, by: actor.id } : null;
 
   return sequelize.transaction(async (transaction) => {
     const previous = await latestCalibrationOf(instrument.id, transaction);
@@ -563,7 +671,8 @@ export async function createCalibration(actor: Actor, input: CalibrationCreateIn
         coveredMaxNm: model.coveredNm[1],
         uncertainty: preview.result.uncertainty,
         drift,
-        pairing: preview.result.pairing,
+        // Rows are frozen after insert: the confirmation of a doubtful calibration is written with it.
+        pairing: confirmation ? { ...preview.result.pairing, confirmation } : preview.result.pairing,
         warnings: fit.warnings,
         softwareVersion: SOFTWARE_VERSION,
         calibratedOn: new Date().toISOString().slice(0, 10),
@@ -579,7 +688,9 @@ export async function createCalibration(actor: Actor, input: CalibrationCreateIn
         action: "calibration.create",
         entity: "calibration",
         entityId: row.id,
+        reason: confirmation?.reason ?? null,
         after: {
+          label: record.label,
           instrumentId: instrument.id,
           spectrumId: spectrum.id,
           lineReleaseId: release.id,
@@ -591,6 +702,8 @@ export async function createCalibration(actor: Actor, input: CalibrationCreateIn
           addedByHand: preview.result.pairing.addedByHand ?? 0,
           coveredRangeNm: record.coveredRangeNm,
           driftMaxAbsNm: drift?.maxAbsNm ?? null,
+          doubts,
+          confirmation: confirmation ? { reason: confirmation.reason, doubts: confirmation.doubts } : null,
         },
       },
       transaction,

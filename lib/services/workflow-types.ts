@@ -55,6 +55,8 @@ export interface CalibrationPairRecord {
 
 export interface CalibrationRecord {
   id: string;
+  /** Tells calibrations apart: "Ne+Ar · 14:05 · polynomial-3 · RMS 0.012 nm · 402–918 nm" (time in UTC). */
+  label: string;
   instrumentId: string;
   spectrumId: string;
   lineReleaseId: string;
@@ -79,6 +81,8 @@ export interface CalibrationRecord {
     excludedByHand?: number;
     addedByHand?: number;
     handPairs?: { change: "excluded" | "added"; pixel: number; wavelengthNm: number; species: string }[];
+    /** A doubtful calibration saved as the default anyway: who said why, and the doubts they answered. */
+    confirmation?: { reason: string; doubts: string[]; by: string };
   };
   warnings: { code: string; message: string }[];
   softwareVersion: string;

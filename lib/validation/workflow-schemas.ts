@@ -116,6 +116,12 @@ export const calibrationCreateSchema = z.object({
   excluded: z.array(pairRef("leave out"), { error: "Send the excluded pairs as a list." }).max(200).default([]),
   /** Pairs made by hand: the lamp peak nearest the pixel with the lamp line at the wavelength (±0.05 nm). */
   added: z.array(pairRef("add"), { error: "Send the added pairs as a list." }).max(50).default([]),
+  /** Why a doubtful calibration (see calibrationDoubts) should still become the instrument's default. */
+  confirmReason: text({ error: "Give the reason as text." })
+    .trim()
+    .min(10, "Say in at least 10 characters why this calibration can be trusted despite its doubts.")
+    .max(500, "Keep the reason under 500 characters.")
+    .optional(),
 });
 export type CalibrationCreateInput = z.infer<typeof calibrationCreateSchema>;
 

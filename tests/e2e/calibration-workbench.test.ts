@@ -2,7 +2,8 @@
 // calibration made through the API, the chemist opens the workbench, pairs the lines, excludes a pair,
 // opens the peak chooser from the keyboard, pairs a peak by clicking it on the chart, tries a straight
 // line and sees the comparison rank it below the cubic, saves, and lands on the calibration page with
-// the drift from the first calibration.
+// the drift from the first calibration; then leaves out pairs until the calibration is doubtful, is
+// refused without a reason, types one from the keyboard and sees it on the saved calibration.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Locator, Page } from "playwright-core";
 import { openBrowser, screenshot, type Session } from "./support/browser";
@@ -167,6 +168,71 @@ describe("the calibration workbench", () => {
     expect(drift).toMatch(/at most \d+\.\d{3} nm/);
     expect(drift).toContain("Δλ (nm)");
     await screenshot(page, "workbench-4-saved");
+    expect(browser.problems, browser.problems.join("\n")).toEqual([]);
+  }, 240_000);
+
+  it("shows a doubtful calibration's doubts, refuses to save it without a reason, and saves it with one typed from the keyboard", async () => {
+    const { page } = browser;
+    await browser.context.clearCookies();
+    const signIn = new SignInPage(page);
+    await signIn.goto();
+    await signIn.signIn(CHEMIST, DEMO_PASSWORD);
+    await page.waitForURL((url) => url.pathname === "/");
+    await page.goto(`/instruments/${instrumentId}/calibrate?spectrum=${spectrumId}`);
+    const workbench = new WorkbenchPage(page);
+    await page.getByRole("checkbox", { name: "Ar", exact: true }).check();
+    await page.getByRole("button", { name: "Pair the lines and fit" }).click();
+    await workbench.summary.waitFor({ timeout: 30_000 });
+    await workbench.settled();
+    // Unpaired peaks say why; expected lines with no peak are listed under their own heading.
+    await page.getByRole("heading", { name: /^Expected lines with no peak/ }).waitFor();
+    const reasons = await page.getByTestId("unpaired-reason").allTextContents();
+    expect(reasons.length).toBeGreaterThan(0);
+    for (const r of reasons) expect(["blend", "not in the table", "line paired with another peak", "left unpaired", "no wavelength"]).toContain(r);
+    expect(await page.getByTestId("calibration-doubts").count()).toBe(0);
+
+    // Leave out pairs until at most six are used: fewer than 7 is a doubt. (A refit may reject another
+    // pair or take back one it had rejected, so count the used pairs the preview shows, not the clicks.)
+    let used = await workbench.rows("used").count();
+    for (let excluded = 1; used > 6; excluded++) {
+      await workbench.rows("used").first().getByRole("button", { name: /^Exclude the pair/ }).click();
+      await expect.poll(() => workbench.rows("excluded").count(), { timeout: 30_000 }).toBe(excluded);
+      await workbench.settled();
+      used = await workbench.rows("used").count();
+    }
+    const doubts = page.getByTestId("calibration-doubts");
+    await doubts.waitFor();
+    const fewPairs = new RegExp(`Only ${used} pairs? (are|is) used in the fit`);
+    expect(await doubts.textContent()).toMatch(fewPairs);
+
+    const save = page.getByRole("button", { name: "Save the calibration" });
+    await save.click();
+    const reasonError = page.locator("#confirm-reason-error");
+    await expect.poll(() => reasonError.textContent(), { timeout: 30_000 }).toMatch(fewPairs);
+    const reason = page.getByLabel(/Why it can be trusted/);
+    expect(await reason.getAttribute("aria-describedby")).toBe("confirm-reason-error");
+    await screenshot(page, "workbench-5-doubts");
+
+    // From the keyboard: into the reason, type it, Tab on to the save button and press Enter.
+    await reason.focus();
+    await page.keyboard.type("Checked by eye against the Hg 546 nm line; the middle of the array is what we use.");
+    for (let i = 0; i < 10; i++) {
+      if (await save.evaluate((el) => el === document.activeElement)) break;
+      await page.keyboard.press("Tab");
+    }
+    expect(await save.evaluate((el) => el === document.activeElement)).toBe(true);
+    await page.keyboard.press("Enter");
+    await page.waitForURL(/\/calibrations\/[0-9a-f-]{36}$/, { timeout: 60_000 });
+    const confirmation = (await page.getByTestId("calibration-confirmation").textContent()) ?? "";
+    expect(confirmation).toMatch(fewPairs);
+    expect(confirmation).toContain("Checked by eye against the Hg 546 nm line");
+    expect(await page.getByRole("heading", { level: 1 }).textContent()).toMatch(/Hg\+Ar · \d\d:\d\d · polynomial-\d · RMS \d+\.\d{3} nm · \d+–\d+ nm$/);
+    await screenshot(page, "workbench-6-confirmed");
+
+    await page.goto(`/instruments/${instrumentId}`);
+    const labels = await page.getByTestId("calibration-label").allTextContents();
+    expect(labels.length).toBeGreaterThanOrEqual(2);
+    for (const label of labels) expect(label).toMatch(/^Hg\+Ar · \d\d:\d\d · /);
     expect(browser.problems, browser.problems.join("\n")).toEqual([]);
   }, 240_000);
 });

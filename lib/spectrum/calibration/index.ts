@@ -29,3 +29,13 @@ export {
 export { autoPairLampPeaks, type AutoPairLampPeaksOptions } from "./auto-pair-lamp-peaks";
 export { pairManually, type ManualSeedPair, type PairManuallyOptions } from "./pair-manually";
 export type { LampLine, LampPair, LampPairingOptions, LampPairingResult, LampPeak } from "./lamp-pairing-types";
+export { calibrationDoubts, type CalibrationDoubtsFit, type CalibrationDoubtsOptions } from "./calibration-doubts";
+export {
+  unpairedLampPeaks,
+  type UnpairedLampLineInput,
+  type UnpairedLampPeakInput,
+  type UnpairedLampPeaksOptions,
+  type UnpairedLampPeaksResult,
+  type UnpairedPeakReason,
+  type UnpairedPeakReasonCode,
+} from "./unpaired-lamp-peaks";

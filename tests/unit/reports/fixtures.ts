@@ -100,6 +100,7 @@ export const sampleMatches: StoredPeakMatch[] = [
 export function sampleCalibration(): CalibrationRecord {
   return {
     id: "33333333-4444-4555-8666-777777777777",
+    label: "Hg+Ar · 09:00 · polynomial-3 · RMS 0.012 nm · 405–812 nm",
     instrumentId: "55555555-6666-4777-8888-999999999999",
     spectrumId: "66666666-7777-4888-8999-aaaaaaaaaaaa",
     lineReleaseId: "44444444-5555-4666-8777-888888888888",

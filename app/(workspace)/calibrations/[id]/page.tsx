@@ -28,7 +28,7 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
   return (
     <>
       <PageHeader
-        title={`Calibration of ${instrument.name}, ${calibration.calibratedOn}`}
+        title={`Calibration of ${instrument.name}, ${calibration.calibratedOn}: ${calibration.label}`}
         description={`From ${spectrum.label || spectrum.fileName} · lamps ${calibration.lamps.join(", ")}`}
         actions={
           <Link href={`/instruments/${instrument.id}`} className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800">
@@ -110,6 +110,22 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
             </li>
           ))}
         </ul>
+      ) : null}
+      {calibration.pairing.confirmation ? (
+        <section aria-labelledby="confirmation-heading" className="panel mb-4 border-ember-600 p-4" data-testid="calibration-confirmation">
+          <h2 id="confirmation-heading" className="mb-1 text-sm font-semibold">
+            <span aria-hidden>⚠ </span>Saved as the default despite its doubts
+          </h2>
+          <ul className="mb-2 list-disc pl-5 text-sm">
+            {calibration.pairing.confirmation.doubts.map((d) => (
+              <li key={d}>{d}</li>
+            ))}
+          </ul>
+          <p className="text-sm">
+            <span className="muted">Reason given: </span>
+            {calibration.pairing.confirmation.reason}
+          </p>
+        </section>
       ) : null}
       {calibration.pairing.handPairs?.length ? (
         <section aria-labelledby="hand-heading" className="panel mb-4 p-4" data-testid="hand-pairs">

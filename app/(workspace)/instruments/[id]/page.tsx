@@ -69,6 +69,10 @@ export default async function InstrumentPage({ params }: { params: Promise<{ id:
                     <Link href={`/calibrations/${c.id}`} className="underline">
                       {c.calibratedOn}
                     </Link>
+                    <span className="muted block font-mono text-xs" data-testid="calibration-label">
+                      {c.label}
+                    </span>
+                    {c.pairing.confirmation ? <span className="block text-xs">confirmed despite doubts</span> : null}
                     {index === 0 ? (
                       <span className="ml-2 rounded border border-teal-700 px-1 text-2xs text-teal-800 dark:text-teal-200">
                         default for new runs
