@@ -319,19 +319,8 @@ async function seedDemoWorkflow(): Promise<void> {
     const lampId = spectrumIds.get(bench.lamp.file)!;
     const calibrationId =
       (await Calibration.findOne({ where: { spectrumId: lampId } }))?.id ??
-      (
-        await createCalibration(analyst, {
-          instrumentId,
-          spectrumId: lampId,
-          lamps: ["Hg", "Ar"],
-          model: "auto",
-          excluded: [],
-          added: [],
-          // The demo lamps calibrate with doubts (the grating demo's pairs cover 30 % of the array); the demo says so
-          // on the calibration page rather than hiding them. A reason is stored only when there are doubts.
-          confirmReason: "Demo data: the shipped demo lamp is calibrated as it is, so that the demo runs have a calibration to show.",
-        })
-      ).id;
+      // No confirmation reason: the demo lamps calibrate without doubts, and a seed that met one should fail loudly.
+      (await createCalibration(analyst, { instrumentId, spectrumId: lampId, lamps: ["Hg", "Ar"], model: "auto", excluded: [], added: [] })).id;
 
     for (const book of bench.notebooks) {
       const notebookId =
