@@ -154,10 +154,12 @@ describe("the calibration preview", () => {
   });
 
   it("pairs an unpaired peak with the true line given by pixel and wavelength", async () => {
-    // An unpaired peak whose generator truth lies on a lamp line of the table (within 0.02 nm).
+    // An unpaired peak whose generator truth lies on a lamp line of the table (within 0.06 nm). The
+    // pairing leaves out lines a neighbour pulls (group-blended-lamp-lines.ts), so the peaks it leaves
+    // unpaired are such blends: on this lamp Hg I 404.656 nm's peak sits 0.05 nm off, the others 0.1–0.4 nm.
     const candidate = auto.peaks
       .filter((p) => !p.pairedWith)
-      .map((p) => ({ peak: p, line: auto.lines.find((l) => !l.paired && Math.abs(l.wavelengthNm - grating.wavelengthOfPixel(p.pixel)) < 0.02) }))
+      .map((p) => ({ peak: p, line: auto.lines.find((l) => !l.paired && Math.abs(l.wavelengthNm - grating.wavelengthOfPixel(p.pixel)) < 0.06) }))
       .find((c) => c.line);
     expect(candidate, "an unpaired peak on a true lamp line").toBeDefined();
     const added = [{ pixel: Math.round(candidate!.peak.pixel), wavelengthNm: candidate!.line!.wavelengthNm }];
