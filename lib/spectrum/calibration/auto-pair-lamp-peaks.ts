@@ -26,7 +26,7 @@ import {
   type RefinedPairing,
 } from "./refine-lamp-pairing";
 import { groupBlendedLampLines, type LampLineGroup } from "./group-blended-lamp-lines";
-import { growthDegree } from "./grow-pairs-outward";
+import { growthDegree } from "./growth-degree";
 import { prunePulledPairs } from "./prune-pulled-pairs";
 import { searchLampPairing, type GrownPairing } from "./search-lamp-pairing";
 import { fitStraightenedPolynomial } from "./straightened-polynomial";

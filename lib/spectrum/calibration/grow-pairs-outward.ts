@@ -7,6 +7,9 @@
 // each step extrapolates only a little beyond what is already pinned.
 import type { DispersionKind } from "../types";
 import type { LampLine, LampPair, LampPeak } from "./lamp-pairing-types";
+import { firstAtOrAbove } from "../signal/first-at-or-above";
+import { growthDegree } from "./growth-degree";
+import { worstOffCurve } from "./prune-pulled-pairs";
 import { toLampPair } from "./to-lamp-pair";
 import { fitStraightenedPolynomial, type StraightenedPolynomial } from "./straightened-polynomial";
 
@@ -71,20 +74,6 @@ const LEAP_LEAD = 1.5;
 /** Pairs at which the growth starts to judge peak heights against line intensities. */
 const MIN_PAIRS_FOR_HEIGHTS = 6;
 
-/** The model's degree for the support so far: straight over a short stretch, bending as it widens. */
-export function growthDegree(
-  pairCount: number,
-  coveredFraction: number,
-  dispersion: DispersionKind,
-): number {
-  let degree = 1;
-  if (pairCount >= 4 && coveredFraction >= 0.12) degree = 2;
-  if (pairCount >= 7 && coveredFraction >= 0.3) degree = 3;
-  if (dispersion === "prism" && pairCount >= 10 && coveredFraction >= 0.5) degree = 4;
-  if (dispersion === "prism" && pairCount >= 14 && coveredFraction >= 0.7) degree = 5;
-  return Math.min(degree, pairCount - 2);
-}
-
 /**
  * How far a model of `degree` fitted over a stretch may be off at `distanceX` beyond it, in x: the
  * neglected next term of a curved grating's dispersion (a second derivative of up to ~0.6 and a third
@@ -135,19 +124,9 @@ export function growPairsOutward(
   const turnedDownAt = new Map<number, number>();
   const usableByX = usablePeaks.slice().sort((a, b) => peaks[a].x - peaks[b].x);
   const usableX = usableByX.map((p) => peaks[p].x);
-  const firstAtOrAbove = (x: number) => {
-    let low = 0;
-    let high = usableX.length;
-    while (low < high) {
-      const mid = (low + high) >> 1;
-      if (usableX[mid] < x) low = mid + 1;
-      else high = mid;
-    }
-    return low;
-  };
   const freePeaksWithin = (from: number, to: number): number[] => {
     const found: number[] = [];
-    for (let k = firstAtOrAbove(from); k < usableX.length && usableX[k] <= to; k++) {
+    for (let k = firstAtOrAbove(usableX, from); k < usableX.length && usableX[k] <= to; k++) {
       if (!pairedPeaks.has(usableByX[k])) found.push(usableByX[k]);
     }
     return found;
@@ -372,24 +351,12 @@ export function growPairsOutward(
    */
   function prune(): void {
     while (pairs.length > 6) {
-      const xs = pairs.map((p) => p.x);
-      const coveredFraction = (Math.max(...xs) - Math.min(...xs)) / spanX;
-      const model = fitStraightenedPolynomial(
-        pairs,
-        straighten,
-        gRange,
-        Math.max(1, growthDegree(pairs.length, coveredFraction, dispersion)),
-      );
-      if (!model) return;
-      const residuals = pairs.map((p) => Math.abs(p.x - model.predictX(p.wavelengthNm)));
-      const sorted = residuals.slice().sort((a, b) => a - b);
-      const robustSigma = 1.4826 * sorted[sorted.length >> 1];
-      const worst = residuals.indexOf(sorted[sorted.length - 1]);
-      if (!(residuals[worst] > Math.max(4 * robustSigma, 0.5 * toleranceX))) return;
-      pairedPeaks.delete(pairs[worst].peakIndex);
-      pairedLines.delete(pairs[worst].lineIndex);
-      turnedDownAt.set(pairs[worst].lineIndex, Infinity);
-      pairs = pairs.filter((_, k) => k !== worst);
+      const worst = worstOffCurve(pairs, straighten, gRange, dispersion, domain);
+      if (!worst || !(worst.residualX > Math.max(4 * worst.robustSigmaX, 0.5 * toleranceX))) return;
+      pairedPeaks.delete(pairs[worst.index].peakIndex);
+      pairedLines.delete(pairs[worst.index].lineIndex);
+      turnedDownAt.set(pairs[worst.index].lineIndex, Infinity);
+      pairs = pairs.filter((_, k) => k !== worst.index);
     }
   }
 

@@ -4,7 +4,7 @@
 // bias a cubic by more than a tenth of the resolution at the ends of the covered range, with a small
 // RMS, while the well-centred lines follow the curve to a few hundredths of a pixel.
 import type { DispersionKind } from "../types";
-import { growthDegree } from "./grow-pairs-outward";
+import { growthDegree } from "./growth-degree";
 import type { LampPair } from "./lamp-pairing-types";
 import { fitStraightenedPolynomial } from "./straightened-polynomial";
 
@@ -26,6 +26,33 @@ export interface PrunePulledPairsOptions {
   maxShare?: number;
 }
 
+/** The pair farthest from a model of all the pairs (its degree as growth would choose it), with the residuals' robust σ (1.4826 × median |residual|). */
+export function worstOffCurve(
+  pairs: readonly LampPair[],
+  straighten: (wavelengthNm: number) => number,
+  gRange: [number, number],
+  dispersion: DispersionKind,
+  domain: [number, number],
+): { index: number; residualX: number; robustSigmaX: number } | null {
+  const xs = pairs.map((p) => p.x);
+  const covered = (Math.max(...xs) - Math.min(...xs)) / (domain[1] - domain[0]);
+  const model = fitStraightenedPolynomial(
+    pairs,
+    straighten,
+    gRange,
+    Math.max(1, growthDegree(pairs.length, covered, dispersion)),
+  );
+  if (!model) return null;
+  const residuals = pairs.map((p) => Math.abs(p.x - model.predictX(p.wavelengthNm)));
+  const sorted = residuals.slice().sort((a, b) => a - b);
+  const residualX = sorted[sorted.length - 1];
+  return {
+    index: residuals.indexOf(residualX),
+    residualX,
+    robustSigmaX: 1.4826 * sorted[sorted.length >> 1],
+  };
+}
+
 /** The pairs left after setting aside those pulled off the smooth curve of the rest (worst first, one at a time). */
 export function prunePulledPairs(
   pairs: readonly LampPair[],
@@ -37,24 +64,11 @@ export function prunePulledPairs(
 ): LampPair[] {
   const { sigmaLimit = 3, floorX = 0.15, maxShare = 0.3 } = options;
   let kept = pairs.slice();
-  const spanX = domain[1] - domain[0];
   const most = Math.floor(maxShare * pairs.length);
   while (kept.length > 8 && pairs.length - kept.length < most) {
-    const xs = kept.map((p) => p.x);
-    const covered = (Math.max(...xs) - Math.min(...xs)) / spanX;
-    const model = fitStraightenedPolynomial(
-      kept,
-      straighten,
-      gRange,
-      Math.max(1, growthDegree(kept.length, covered, dispersion)),
-    );
-    if (!model) break;
-    const residuals = kept.map((p) => Math.abs(p.x - model.predictX(p.wavelengthNm)));
-    const sorted = residuals.slice().sort((a, b) => a - b);
-    const robustSigma = 1.4826 * sorted[sorted.length >> 1];
-    const worst = residuals.indexOf(sorted[sorted.length - 1]);
-    if (!(residuals[worst] > Math.max(sigmaLimit * robustSigma, floorX))) break;
-    kept = kept.filter((_, k) => k !== worst);
+    const worst = worstOffCurve(kept, straighten, gRange, dispersion, domain);
+    if (!worst || !(worst.residualX > Math.max(sigmaLimit * worst.robustSigmaX, floorX))) break;
+    kept = kept.filter((_, k) => k !== worst.index);
   }
   return kept;
 }

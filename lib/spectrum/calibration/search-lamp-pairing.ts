@@ -7,8 +7,10 @@
 // kept, and the best one that disagrees with it is reported as its rival, so that two pairings that
 // explain the spectrum about equally well are shown to a person rather than decided by chance.
 import type { DispersionKind } from "../types";
-import { growPairsOutward, growthDegree, type GrowPairsOutwardInput } from "./grow-pairs-outward";
+import { growPairsOutward, type GrowPairsOutwardInput } from "./grow-pairs-outward";
+import { growthDegree } from "./growth-degree";
 import type { LampLine, LampPair, LampPeak } from "./lamp-pairing-types";
+import { firstAtOrAbove } from "../signal/first-at-or-above";
 import { toLampPair } from "./to-lamp-pair";
 import { fitStraightenedPolynomial } from "./straightened-polynomial";
 
@@ -119,13 +121,7 @@ export function searchLampPairing(
   const usableByX = usable.slice().sort((a, b) => peaks[a].x - peaks[b].x);
   const usableX = usableByX.map((p) => peaks[p].x);
   const nearestUsable = (x: number): number => {
-    let low = 0;
-    let high = usableX.length;
-    while (low < high) {
-      const mid = (low + high) >> 1;
-      if (usableX[mid] < x) low = mid + 1;
-      else high = mid;
-    }
+    const low = firstAtOrAbove(usableX, x);
     if (low === 0) return 0;
     if (low === usableX.length) return low - 1;
     return x - usableX[low - 1] < usableX[low] - x ? low - 1 : low;

@@ -15,7 +15,7 @@ import type { LampPair } from "./lamp-pairing-types";
 import { lampLineBlended } from "./lamp-line-blended";
 import { modelEvaluation } from "./model-evaluation";
 import type { PairingContext } from "./refine-lamp-pairing";
-import { growthDegree } from "./grow-pairs-outward";
+import { growthDegree } from "./growth-degree";
 import { fitStraightenedPolynomial } from "./straightened-polynomial";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
