@@ -4,6 +4,7 @@
 // 365.0 nm group), so lines of one gas that blend are merged into one line at their centroid, with the
 // centroid's uncertainty; a blend whose centroid cannot be placed well (lines of two gases, whose
 // shares depend on the lamp; members too far apart to trust their intensity ratio) is left out.
+import { elementOfSpecies } from "./element-of-species";
 import type { LampLine } from "./lamp-pairing-types";
 
 export interface GroupBlendedLampLinesOptions {
@@ -39,8 +40,6 @@ export interface LampLineGroup extends LampLine {
   /** 1σ uncertainty of the centroid in nm (0 for a single line). */
   wavelengthSigmaNm: number;
 }
-
-const elementOf = (species: string) => species.trim().split(/\s+/)[0];
 
 /**
  * Groups `candidates` (indices into `lines`) for pairing, given the instrument's FWHM in nm at a
@@ -78,11 +77,11 @@ export function groupBlendedLampLines(
   const groups: LampLineGroup[] = [];
   for (const cluster of clusters) {
     const strongest = cluster.reduce((a, b) => (lines[b].intensity > lines[a].intensity ? b : a));
-    const element = elementOf(lines[strongest].species);
+    const element = elementOfSpecies(lines[strongest].species);
     // Members that matter: every line of another gas, lines of this gas not far weaker than the strongest.
     const members = cluster.filter(
       (i) =>
-        elementOf(lines[i].species) !== element ||
+        elementOfSpecies(lines[i].species) !== element ||
         lines[i].intensity >= minIntensityRatio * lines[strongest].intensity,
     );
     const fwhm = fwhmNmAt(lines[strongest].wavelengthNm);
@@ -90,7 +89,7 @@ export function groupBlendedLampLines(
       groups.push({ ...lines[strongest], members: [strongest], wavelengthSigmaNm: 0 });
       continue;
     }
-    if (members.some((i) => elementOf(lines[i].species) !== element)) {
+    if (members.some((i) => elementOfSpecies(lines[i].species) !== element)) {
       // Two gases: their shares are the lamp's, not the table's. Only a blend far tighter than the
       // resolution has a centre that does not depend on them.
       const spread =
@@ -131,7 +130,7 @@ export function groupBlendedLampLines(
     return !sorted.some((i) => {
       if (group.members.includes(i)) return false;
       if (!(Math.abs(lines[i].wavelengthNm - group.wavelengthNm) < reachFwhm * fwhm)) return false;
-      const sameElement = elementOf(lines[i].species) === elementOf(group.species);
+      const sameElement = elementOfSpecies(lines[i].species) === elementOfSpecies(group.species);
       return !(sameElement && lines[i].intensity < minIntensityRatio * group.intensity);
     });
   });

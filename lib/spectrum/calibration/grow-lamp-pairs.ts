@@ -9,6 +9,7 @@
 import { fitForwardHartmann, type ForwardHartmannFit } from "./fit-forward-hartmann";
 import { fitGlassEnsemble } from "./fit-glass-ensemble";
 import { informationCriteria } from "./information-criteria";
+import { heightInBand, lampHeightBand } from "./lamp-height-band";
 import { lampLineBlended } from "./lamp-line-blended";
 import { toLampPair } from "./to-lamp-pair";
 import type { LampPair } from "./lamp-pairing-types";
@@ -162,28 +163,9 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
     return fits.get(key)!;
   };
 
-  /**
-   * Plausible ln(height / intensity) of a new pair: the pairs' median ± the larger of ln(heightTolerance)
-   * and 3 robust σ; everything while the pairs are too few to say.
-   */
-  const heightBand = (current: LampPair[]): [number, number] => {
-    const ratios = current
-      .filter((p) => peaks[p.peakIndex].height > 0 && lines[p.lineIndex].intensity > 0)
-      .map((p) => Math.log(peaks[p.peakIndex].height / lines[p.lineIndex].intensity))
-      .sort((a, b) => a - b);
-    if (ratios.length < MIN_CORE) return [-Infinity, Infinity];
-    const median = ratios[ratios.length >> 1];
-    const deviations = ratios.map((r) => Math.abs(r - median)).sort((a, b) => a - b);
-    const halfWidth = Math.max(Math.log(heightTolerance), 3 * 1.4826 * deviations[deviations.length >> 1]);
-    return [median - halfWidth, median + halfWidth];
-  };
-  const plausibleHeight = (line: number, peak: number, [low, high]: [number, number]) => {
-    const { intensity } = lines[line];
-    const { height } = peaks[peak];
-    if (!(intensity > 0 && height > 0)) return true;
-    const ratio = Math.log(height / intensity);
-    return ratio >= low && ratio <= high;
-  };
+  const heightBand = (current: LampPair[]) => lampHeightBand(current, peaks, lines, heightTolerance);
+  const plausibleHeight = (line: number, peak: number, band: [number, number]) =>
+    heightInBand(peaks[peak].height, lines[line].intensity, band);
 
   /**
    * Whether `line` may take `peak` under `model`: the peak inside the line's window, no other free

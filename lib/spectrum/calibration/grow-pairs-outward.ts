@@ -8,6 +8,8 @@
 import type { DispersionKind } from "../types";
 import type { LampLine, LampPair, LampPeak } from "./lamp-pairing-types";
 import { firstAtOrAbove } from "../signal/first-at-or-above";
+import { elementOfSpecies } from "./element-of-species";
+import { heightInBand, lampHeightBand } from "./lamp-height-band";
 import { growthDegree } from "./growth-degree";
 import { worstOffCurve } from "./prune-pulled-pairs";
 import { toLampPair } from "./to-lamp-pair";
@@ -71,9 +73,6 @@ const LEAP_MIN_SUPPORT = 1.5;
 /** How far (in close-landing lines) the best leap must lead every trial that pairs differently. */
 const LEAP_LEAD = 1.5;
 
-/** Pairs at which the growth starts to judge peak heights against line intensities. */
-const MIN_PAIRS_FOR_HEIGHTS = 6;
-
 /**
  * How far a model of `degree` fitted over a stretch may be off at `distanceX` beyond it, in x: the
  * neglected next term of a curved grating's dispersion (a second derivative of up to ~0.6 and a third
@@ -131,21 +130,8 @@ export function growPairsOutward(
     }
     return found;
   };
-  const heightBand = (): [number, number] => {
-    const ratios = pairs
-      .filter((p) => peaks[p.peakIndex].height > 0 && lines[p.lineIndex].intensity > 0)
-      .map((p) => Math.log(peaks[p.peakIndex].height / lines[p.lineIndex].intensity))
-      .sort((a, b) => a - b);
-    if (ratios.length < MIN_PAIRS_FOR_HEIGHTS) return [-Infinity, Infinity];
-    const median = ratios[ratios.length >> 1];
-    const deviations = ratios.map((r) => Math.abs(r - median)).sort((a, b) => a - b);
-    const halfWidth = Math.max(
-      Math.log(heightTolerance),
-      3 * 1.4826 * deviations[deviations.length >> 1],
-    );
-    return [median - halfWidth, median + halfWidth];
-  };
-  const elementOf = (line: number) => lines[line].species.trim().split(/\s+/)[0];
+  const heightBand = () => lampHeightBand(pairs, peaks, lines, heightTolerance);
+  const elementOf = (line: number) => elementOfSpecies(lines[line].species);
 
   extend();
   prune();
@@ -332,12 +318,8 @@ export function growPairsOutward(
     );
   }
 
-  function plausibleHeight(line: number, peak: number, [low, high]: [number, number]): boolean {
-    const { intensity } = lines[line];
-    const { height } = peaks[peak];
-    if (!(intensity > 0 && height > 0)) return true;
-    const ratio = Math.log(height / intensity);
-    return ratio >= low && ratio <= high;
+  function plausibleHeight(line: number, peak: number, band: [number, number]): boolean {
+    return heightInBand(peaks[peak].height, lines[line].intensity, band);
   }
 
   function pairOf(peak: number, line: number): LampPair {

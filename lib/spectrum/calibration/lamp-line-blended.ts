@@ -1,6 +1,7 @@
 // Whether another lamp line shares the peak a line makes: two lines closer than about one and a half
 // FWHM make one peak (or a partly resolved pair) whose fitted centre lies between them, so pairing that
 // peak with either line puts a biased pair into the calibration — tenths of a nm, far above the noise.
+import { elementOfSpecies } from "./element-of-species";
 import type { LampLine } from "./lamp-pairing-types";
 
 export interface LampLineBlendedOptions {
@@ -24,8 +25,6 @@ export interface LampLineBlendedOptions {
   minIntensityRatio?: number;
 }
 
-/** "Hg" of "Hg I": the element whose intensity scale a line's intensity is on. */
-const elementOf = (species: string) => species.trim().split(/\s+/)[0];
 
 /**
  * True when a neighbour among `candidates` would pull the centre of `line`'s peak by more than
@@ -50,7 +49,7 @@ export function lampLineBlended(
     const neighbour = lines[other];
     // Table intensities compare lines of one element only; in a mixed lamp the gases' shares depend
     // on the lamp, so a neighbour of another element may be as strong as the line itself.
-    const sameElement = elementOf(neighbour.species) === elementOf(own.species);
+    const sameElement = elementOfSpecies(neighbour.species) === elementOfSpecies(own.species);
     if (sameElement && !(neighbour.intensity >= minIntensityRatio * own.intensity)) continue;
     const separation = Math.abs(predictX(neighbour.wavelengthNm) - ownX);
     if (!(separation < reachFwhm * fwhmX)) continue;

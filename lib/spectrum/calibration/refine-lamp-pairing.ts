@@ -254,8 +254,12 @@ function finishPrismPairing(context: PairingContext, refined: RefinedPairing): L
     }
   }
   if (!fit) return judge(context, [], null, refined.rmsX);
-  const usedPairs = pairs.filter((_, i) => fit!.pairs[i].used);
-  // Precision of the final model in x: its residuals divided by the local dispersion.
+  return judgeFitted(context, pairs, fit);
+}
+
+/** Judges a final fit of `pairs`: its used pairs, and its precision in x (residuals through the local dispersion). */
+function judgeFitted(context: PairingContext, pairs: LampPair[], fit: FitCalibrationResult): LampPairingResult {
+  const usedPairs = pairs.filter((_, i) => fit.pairs[i].used);
   const dispersion = modelEvaluation(fit.model, usedPairs.map((p) => p.x)).dispersion;
   const usedFitted = fit.pairs.filter((p) => p.used);
   const rmsX = Math.sqrt(
@@ -295,14 +299,7 @@ export function finishGrownPairing(context: PairingContext, pairs: LampPair[]): 
     fit = pairs.length >= 3 ? finalFit(context, pairs) : null;
   }
   if (!fit) return judge(context, [], null, Infinity);
-  const chosen = fit;
-  const usedPairs = pairs.filter((_, i) => chosen.pairs[i].used);
-  const dispersion = modelEvaluation(chosen.model, usedPairs.map((p) => p.x)).dispersion;
-  const usedFitted = chosen.pairs.filter((p) => p.used);
-  const rmsX = Math.sqrt(
-    usedFitted.reduce((s, p, i) => s + (p.residualNm / dispersion[i]) ** 2, 0) / Math.max(usedFitted.length - chosen.model.parameters.length, 1),
-  );
-  return judge(context, usedPairs, chosen, rmsX);
+  return judgeFitted(context, pairs, fit);
 }
 
 /** Refines and finishes in one go. */

@@ -8,6 +8,7 @@
 // explain the spectrum about equally well are shown to a person rather than decided by chance.
 import type { DispersionKind } from "../types";
 import { growPairsOutward, type GrowPairsOutwardInput } from "./grow-pairs-outward";
+import { elementOfSpecies } from "./element-of-species";
 import { growthDegree } from "./growth-degree";
 import type { LampLine, LampPair, LampPeak } from "./lamp-pairing-types";
 import { firstAtOrAbove } from "../signal/first-at-or-above";
@@ -284,7 +285,7 @@ export function searchLampPairing(
     for (const l of candidateLines) {
       const x = model.predictX(lines[l].wavelengthNm);
       if (!(x >= covered[0] && x <= covered[1])) continue;
-      const element = lines[l].species.trim().split(/\s+/)[0];
+      const element = elementOfSpecies(lines[l].species);
       byElement.set(element, [...(byElement.get(element) ?? []), l]);
     }
     let missingStrong = 0;

@@ -15,6 +15,7 @@ import type { LampPair } from "./lamp-pairing-types";
 import { lampLineBlended } from "./lamp-line-blended";
 import { modelEvaluation } from "./model-evaluation";
 import type { PairingContext } from "./refine-lamp-pairing";
+import { elementOfSpecies } from "./element-of-species";
 import { growthDegree } from "./growth-degree";
 import { fitStraightenedPolynomial } from "./straightened-polynomial";
 import { weightedLeastSquares } from "./weighted-least-squares";
@@ -312,7 +313,7 @@ export function verifyLampPairing(
     for (const l of context.candidateLines) {
       const x = predict(context.lines[l].wavelengthNm);
       if (!(x >= context.domain[0] && x <= context.domain[1])) continue;
-      const element = context.lines[l].species.trim().split(/\s+/)[0];
+      const element = elementOfSpecies(context.lines[l].species);
       byElement.set(element, [...(byElement.get(element) ?? []), l]);
     }
     for (const group of byElement.values()) {

@@ -47,39 +47,26 @@ describe("glass validity", () => {
   });
 });
 
+/** A clean 2048-pixel prism lamp of the realistic generator, calibrated automatically. */
+function calibratedPrism(seed: number, glass: string, rangeNm: [number, number], gases: string[]) {
+  const lamp = realisticLamp(seed, { dispersion: "prism", glass, rangeNm, gases, clean: true, pixels: 2048 });
+  const result = calibrateLamp(lamp.x, lamp.y, lamp.lines, {
+    nominalRangeNm: lamp.statedRangeNm,
+    dispersion: "prism",
+    resolutionNm: lamp.resolutionNm,
+  });
+  return { lamp, result };
+}
+
 describe("prisms outside the usual range and glass", () => {
   it("calibrates a fused-silica prism whose range starts at 230 nm (Hg + Ar lamp)", () => {
-    const lamp = realisticLamp(3, {
-      dispersion: "prism",
-      glass: "fused-silica",
-      rangeNm: [230, 600],
-      gases: ["Hg", "Ar"],
-      clean: true,
-      pixels: 2048,
-    });
-    const result = calibrateLamp(lamp.x, lamp.y, lamp.lines, {
-      nominalRangeNm: lamp.statedRangeNm,
-      dispersion: "prism",
-      resolutionNm: lamp.resolutionNm,
-    });
+    const { lamp, result } = calibratedPrism(3, "fused-silica", [230, 600], ["Hg", "Ar"]);
     expect(result.pairing.status).toBe("paired");
     expect(probeErrorRatio(lamp, result.fit!.model).ratio).toBeLessThanOrEqual(1);
   }, 60_000);
 
   it("calibrates a prism of a glass not in the catalogue (N-LASF9), at worst asking for a check, never silently wrong", () => {
-    const lamp = realisticLamp(2, {
-      dispersion: "prism",
-      glass: "N-LASF9",
-      rangeNm: [400, 850],
-      gases: ["Ne", "Ar"],
-      clean: true,
-      pixels: 2048,
-    });
-    const result = calibrateLamp(lamp.x, lamp.y, lamp.lines, {
-      nominalRangeNm: lamp.statedRangeNm,
-      dispersion: "prism",
-      resolutionNm: lamp.resolutionNm,
-    });
+    const { lamp, result } = calibratedPrism(2, "N-LASF9", [400, 850], ["Ne", "Ar"]);
     // The target is "paired" here; today the model-agreement check still asks for a check (0.5 px apart).
     expect(["paired", "check"]).toContain(result.pairing.status);
     const model = result.fit?.model ?? result.pairing.candidate?.model;
