@@ -2,6 +2,7 @@
 // DUP), bounded while it expands: a DUP count or a value that would pass the point limit stops decoding
 // before anything is stored, so a few bytes cannot ask for gigabytes (a 164-byte file once did).
 import { SpectrumParseError } from "./spectrum-parse-error";
+import { assertNonNegativeIntegers, assertTextSpan } from "./assert-decode-options";
 import { DEFAULT_MAX_POINTS } from "./spectrum-read-options";
 
 export interface DecodeJcampXyDataOptions {
@@ -107,21 +108,9 @@ export function decodeJcampXyData(
   } = options;
   const { maxDupCount = maxPoints } = options;
   if (typeof text !== "string") throw new RangeError("text must be a string");
-  for (const [name, value] of [
-    ["start", start],
-    ["end", end],
-    ["firstLineNumber", firstLineNumber],
-    ["maxPoints", maxPoints],
-    ["maxDupCount", maxDupCount],
-    ["maxWorkUnits", maxWorkUnits],
-  ] as const) {
-    if (!Number.isInteger(value) || value < 0)
-      throw new RangeError(`${name} must be a non-negative integer, got ${String(value)}`);
-  }
-  if (end > text.length || start > end)
-    throw new RangeError(`start ${start} and end ${end} must lie within the text, in order`);
-  if (declaredPoints !== undefined && (!Number.isInteger(declaredPoints) || declaredPoints < 0))
-    throw new RangeError(`declaredPoints must be a non-negative integer, got ${declaredPoints}`);
+  assertNonNegativeIntegers({ start, end, firstLineNumber, maxPoints, maxDupCount, maxWorkUnits });
+  assertTextSpan(text, start, end);
+  if (declaredPoints !== undefined) assertNonNegativeIntegers({ declaredPoints });
 
   const limit = declaredPoints === undefined ? maxPoints : Math.min(maxPoints, declaredPoints);
   let y = new Float64Array(Math.min(INITIAL_CAPACITY, limit));

@@ -1,6 +1,8 @@
 // Decodes the data lines of a JCAMP-DX (XY..XY) block (##XYPOINTS= or ##PEAK TABLE=): AFFN pairs
 // separated by blanks, commas or semicolons, bounded by the point limit as it reads.
 import { describeBadCell } from "./describe-bad-cell";
+import { assertNonNegativeIntegers, assertTextSpan } from "./assert-decode-options";
+import { growFloat64, growInt32 } from "./grow-typed-array";
 import { parseNumberCell } from "./parse-number-cell";
 import { SpectrumParseError } from "./spectrum-parse-error";
 import { DEFAULT_MAX_POINTS } from "./spectrum-read-options";
@@ -57,19 +59,9 @@ export function decodeJcampXyPoints(
     declaredPoints,
   } = options;
   if (typeof text !== "string") throw new RangeError("text must be a string");
-  for (const [name, value] of [
-    ["start", start],
-    ["end", end],
-    ["firstLineNumber", firstLineNumber],
-    ["maxPoints", maxPoints],
-  ] as const) {
-    if (!Number.isInteger(value) || value < 0)
-      throw new RangeError(`${name} must be a non-negative integer, got ${String(value)}`);
-  }
-  if (end > text.length || start > end)
-    throw new RangeError(`start ${start} and end ${end} must lie within the text, in order`);
-  if (declaredPoints !== undefined && (!Number.isInteger(declaredPoints) || declaredPoints < 0))
-    throw new RangeError(`declaredPoints must be a non-negative integer, got ${declaredPoints}`);
+  assertNonNegativeIntegers({ start, end, firstLineNumber, maxPoints });
+  assertTextSpan(text, start, end);
+  if (declaredPoints !== undefined) assertNonNegativeIntegers({ declaredPoints });
 
   const limit = declaredPoints === undefined ? maxPoints : Math.min(maxPoints, declaredPoints);
   let capacity = Math.min(INITIAL_CAPACITY, limit);
@@ -124,9 +116,9 @@ export function decodeJcampXyPoints(
         }
         if (count === capacity) {
           capacity = Math.min(limit, capacity * 2);
-          xs = grow(xs, capacity);
-          ys = grow(ys, capacity);
-          lines = growInt(lines, capacity);
+          xs = growFloat64(xs, capacity);
+          ys = growFloat64(ys, capacity);
+          lines = growInt32(lines, capacity);
         }
         xs[count] = value;
         lines[count] = lineNumber;
@@ -157,16 +149,4 @@ export function decodeJcampXyPoints(
 /** Blanks, tabs, commas and semicolons separate values. */
 function isSeparator(code: number): boolean {
   return code === 32 || code === 9 || code === 44 || code === 59;
-}
-
-function grow(values: Float64Array<ArrayBuffer>, capacity: number): Float64Array<ArrayBuffer> {
-  const next = new Float64Array(capacity);
-  next.set(values);
-  return next;
-}
-
-function growInt(values: Int32Array<ArrayBuffer>, capacity: number): Int32Array<ArrayBuffer> {
-  const next = new Int32Array(capacity);
-  next.set(values);
-  return next;
 }

@@ -2,6 +2,8 @@
 // It answers only for rows it is sure about; anything unusual (quotes, a bad or empty cell, a column too
 // many or too few, a lone CR, non-ASCII text) returns null so that the line-by-line reader names the problem.
 import { parseNumberCell } from "./parse-number-cell";
+import { assertNonNegativeIntegers } from "./assert-decode-options";
+import { growFloat64, growInt32 } from "./grow-typed-array";
 import type { TextDelimiter } from "./parse-spectrum-text";
 import { DEFAULT_MAX_POINTS } from "./spectrum-read-options";
 
@@ -104,18 +106,7 @@ export function scanDataRows(text: string, options: ScanDataRowsOptions = {}): S
       `decimalSeparator must be "." or ",", got ${JSON.stringify(decimalSeparator)}`,
     );
   }
-  for (const [name, value] of [
-    ["start", start],
-    ["firstLine", firstLine],
-    ["columnCount", columnCount],
-    ["xIndex", xIndex],
-    ["yIndex", yIndex],
-    ["maxRows", maxRows],
-  ] as const) {
-    if (!Number.isInteger(value) || value < 0) {
-      throw new RangeError(`${name} must be a non-negative integer, got ${String(value)}`);
-    }
-  }
+  assertNonNegativeIntegers({ start, firstLine, columnCount, xIndex, yIndex, maxRows });
   if (xIndex >= columnCount || yIndex >= columnCount || xIndex === yIndex) {
     throw new RangeError(
       `xIndex ${xIndex} and yIndex ${yIndex} must be distinct columns below ${columnCount}`,
@@ -171,9 +162,9 @@ export function scanDataRows(text: string, options: ScanDataRowsOptions = {}): S
     if (n === maxRows) return null;
     if (n === capacity) {
       capacity *= 2;
-      xs = grow(xs, capacity);
-      ys = grow(ys, capacity);
-      lineNumbers = growInt(lineNumbers, capacity);
+      xs = growFloat64(xs, capacity);
+      ys = growFloat64(ys, capacity);
+      lineNumbers = growInt32(lineNumbers, capacity);
     }
 
     // Cells of a content row, from the line's first character (a leading tab may be an empty first cell).
@@ -296,16 +287,4 @@ function skipTrailingSeparators(
   while (code === separator || isBlank(code, tabIsBlank)) code = text.charCodeAt(++q);
   if (q >= text.length || code === LF || code === CR) return q;
   return -1;
-}
-
-function grow(values: Float64Array<ArrayBuffer>, capacity: number): Float64Array<ArrayBuffer> {
-  const next = new Float64Array(capacity);
-  next.set(values);
-  return next;
-}
-
-function growInt(values: Int32Array<ArrayBuffer>, capacity: number): Int32Array<ArrayBuffer> {
-  const next = new Int32Array(capacity);
-  next.set(values);
-  return next;
 }
