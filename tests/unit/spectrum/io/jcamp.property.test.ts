@@ -3,6 +3,7 @@
 // SpectrumParseError, never any other error. The seed is fixed by tests/support/fast-check-seed.ts.
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
+import { textMutations, type TextMutation } from "../../../support/text-mutations";
 import { SpectrumParseError, parseJcamp } from "../../../../lib/spectrum/io";
 import type { Spectrum } from "../../../../lib/spectrum/types";
 
@@ -202,41 +203,19 @@ const HOSTILE_VALUES = [
 ];
 const LABELS = ["XFACTOR", "YFACTOR", "FIRSTX", "LASTX", "DELTAX", "NPOINTS", "XUNITS", "XYDATA"];
 
-type Mutation = (text: string) => string;
-const mutation: fc.Arbitrary<Mutation> = fc.oneof(
-  fc
-    .tuple(fc.nat(), fc.constantFrom(...HOSTILE_SNIPPETS))
-    .map(([at, snippet]) => (text: string) => {
-      const i = at % (text.length + 1);
-      return text.slice(0, i) + snippet + text.slice(i);
-    }),
-  fc.tuple(fc.nat(), fc.integer({ min: 1, max: 12 })).map(([at, length]) => (text: string) => {
-    const i = at % (text.length + 1);
-    return text.slice(0, i) + text.slice(i + length);
-  }),
-  fc.tuple(fc.nat(), fc.integer({ min: 0, max: 127 })).map(([at, code]) => (text: string) => {
-    const i = at % Math.max(1, text.length);
-    return text.slice(0, i) + String.fromCharCode(code) + text.slice(i + 1);
-  }),
+const damage = textMutations(HOSTILE_SNIPPETS, 127);
+const mutation: fc.Arbitrary<TextMutation> = fc.oneof(
+  damage.insertSnippet,
+  damage.deleteSpan,
+  damage.replaceCharacter,
   fc.tuple(fc.constantFrom(...LABELS), fc.constantFrom(...HOSTILE_VALUES)).map(
     ([label, value]) =>
       (text: string) =>
         text.replace(new RegExp(`##${label}=[^\\r\\n]*`), () => `##${label}=${value}`),
   ),
-  fc.tuple(fc.nat(), fc.nat()).map(([a, b]) => (text: string) => {
-    const lines = text.split("\n");
-    const i = a % lines.length;
-    const j = b % lines.length;
-    [lines[i], lines[j]] = [lines[j], lines[i]];
-    return lines.join("\n");
-  }),
-  fc.nat().map((a) => (text: string) => {
-    const lines = text.split("\n");
-    const i = a % lines.length;
-    lines.splice(i, 0, lines[i]);
-    return lines.join("\n");
-  }),
-  fc.nat().map((at) => (text: string) => text.slice(0, at % (text.length + 1))),
+  damage.swapLines,
+  damage.duplicateLine,
+  damage.truncate,
 );
 
 /** A valid file, or one damaged by one to four mutations. */

@@ -3,6 +3,7 @@
 // The seed is fixed by tests/support/fast-check-seed.ts.
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
+import { TEXT_LAYOUTS, textMutations, type TextMutation } from "../../../support/text-mutations";
 import { SpectrumParseError, parseSpectrumText } from "../../../../lib/spectrum/io";
 import type { Spectrum } from "../../../../lib/spectrum/types";
 
@@ -10,20 +11,9 @@ import type { Spectrum } from "../../../../lib/spectrum/types";
 const MAX_POINTS = 5000;
 const MIN_POINTS = 16;
 
-const LAYOUTS = [
-  { separator: ",", decimal: "." },
-  { separator: ", ", decimal: "." },
-  { separator: ";", decimal: "." },
-  { separator: ";", decimal: "," },
-  { separator: "\t", decimal: "." },
-  { separator: "\t", decimal: "," },
-  { separator: " ", decimal: "." },
-  { separator: "   ", decimal: "," },
-] as const;
-
 const validText = fc
   .record({
-    layout: fc.constantFrom(...LAYOUTS),
+    layout: fc.constantFrom(...TEXT_LAYOUTS),
     start: fc.integer({ min: -1000, max: 100_000 }),
     steps: fc.array(fc.integer({ min: 1, max: 5000 }), { minLength: MIN_POINTS, maxLength: 60 }),
     yMillis: fc.array(fc.integer({ min: -1_000_000, max: 100_000_000 }), {
@@ -97,34 +87,14 @@ const SNIPPETS = [
   "\uD800",
 ];
 
-type Mutation = (text: string) => string;
-const mutation: fc.Arbitrary<Mutation> = fc.oneof(
-  fc.tuple(fc.nat(), fc.constantFrom(...SNIPPETS)).map(([at, snippet]) => (text: string) => {
-    const i = at % (text.length + 1);
-    return text.slice(0, i) + snippet + text.slice(i);
-  }),
-  fc.tuple(fc.nat(), fc.integer({ min: 1, max: 12 })).map(([at, length]) => (text: string) => {
-    const i = at % (text.length + 1);
-    return text.slice(0, i) + text.slice(i + length);
-  }),
-  fc.tuple(fc.nat(), fc.integer({ min: 0, max: 0xffff })).map(([at, code]) => (text: string) => {
-    const i = at % Math.max(1, text.length);
-    return text.slice(0, i) + String.fromCharCode(code) + text.slice(i + 1);
-  }),
-  fc.tuple(fc.nat(), fc.nat()).map(([a, b]) => (text: string) => {
-    const lines = text.split("\n");
-    const i = a % lines.length;
-    const j = b % lines.length;
-    [lines[i], lines[j]] = [lines[j], lines[i]];
-    return lines.join("\n");
-  }),
-  fc.nat().map((a) => (text: string) => {
-    const lines = text.split("\n");
-    const i = a % lines.length;
-    lines.splice(i, 0, lines[i]);
-    return lines.join("\n");
-  }),
-  fc.nat().map((at) => (text: string) => text.slice(0, at % (text.length + 1))),
+const damage = textMutations(SNIPPETS, 0xffff);
+const mutation: fc.Arbitrary<TextMutation> = fc.oneof(
+  damage.insertSnippet,
+  damage.deleteSpan,
+  damage.replaceCharacter,
+  damage.swapLines,
+  damage.duplicateLine,
+  damage.truncate,
 );
 
 const anyText = fc.oneof(

@@ -1,18 +1,8 @@
 // Property tests of the text reader: random valid layouts always read back, random damage is always located.
 import { describe, it, expect } from "vitest";
 import fc from "fast-check";
+import { TEXT_LAYOUTS } from "../../../support/text-mutations";
 import { SpectrumParseError, parseSpectrumText } from "../../../../lib/spectrum/io";
-
-const LAYOUTS = [
-  { separator: ",", decimal: "." },
-  { separator: ", ", decimal: "." },
-  { separator: ";", decimal: "." },
-  { separator: ";", decimal: "," },
-  { separator: "\t", decimal: "." },
-  { separator: "\t", decimal: "," },
-  { separator: " ", decimal: "." },
-  { separator: "   ", decimal: "," },
-] as const;
 
 interface Generated {
   text: string;
@@ -27,7 +17,7 @@ interface Generated {
 /** Strictly increasing x (positive steps, 3 decimals) and y with up to 3 decimals, in a random layout. */
 const spectrumText = fc
   .record({
-    layout: fc.constantFrom(...LAYOUTS),
+    layout: fc.constantFrom(...TEXT_LAYOUTS),
     start: fc.integer({ min: 0, max: 100_000 }),
     steps: fc.array(fc.integer({ min: 1, max: 5000 }), { minLength: 16, maxLength: 60 }),
     yMillis: fc.array(fc.integer({ min: -1_000_000, max: 100_000_000 }), {
