@@ -344,9 +344,19 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
   const glass = (instrument.glass as GlassName | null) ?? undefined;
   const apexDeg = instrument.apexDeg ?? undefined;
 
+  // A recalibration starts from the instrument's last calibration on the same axis (the daily case).
+  const last = await latestCalibrationOf(instrument.id);
+  const previous = last && last.xUnit === spectrum.xUnit ? { previous: last.model } : {};
+
   try {
     // Automatic pairing (up to seconds of CPU on a prism) runs in the worker pool, off the request thread.
-    const auto = await runHeavyTask({ kind: "calibrate-lamp", x, y, lines, options: { ...pairingOptions, model: "auto" } });
+    const auto = await runHeavyTask({
+      kind: "calibrate-lamp",
+      x,
+      y,
+      lines,
+      options: { ...pairingOptions, ...previous, model: "auto" },
+    });
     const peaks = auto.peaks;
     let pairing: LampPairingResult = auto.pairing;
     let fit: FitCalibrationResult | null = auto.fit;

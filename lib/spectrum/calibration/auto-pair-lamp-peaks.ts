@@ -10,6 +10,10 @@
 import type { CalibrationModel } from "./calibration-model";
 import { hypothesisShapes, pairingContext } from "./lamp-pairing-setup";
 import { pairsFromPrevious } from "./pairs-from-previous";
+import { inverseOfModel } from "./inverse-of-model";
+import { modelEvaluation } from "./model-evaluation";
+import { recalibrateFromPrevious } from "./recalibrate-from-previous";
+import { CalibrationError } from "./calibration-error";
 import type {
   LampLine,
   LampPair,
@@ -252,8 +256,98 @@ interface Hypothesis {
   matched: LampPair[];
 }
 
-/** Pairs `peaks` with `lines` automatically; falls back to "needs-manual" when the result is not trusted. */
+/**
+ * Pairs `peaks` with `lines` automatically; falls back to "needs-manual" when the result is not trusted.
+ * With the instrument's previous calibration the pairing starts from it (a recalibration) and searches
+ * blind only when that fails.
+ */
 export function autoPairLampPeaks(
+  peaks: LampPeak[],
+  lines: LampLine[],
+  options: AutoPairLampPeaksOptions,
+): LampPairingResult {
+  if (!options.previous) return blindLampPairing(peaks, lines, options);
+  const context = pairingContext(peaks, lines, options);
+  let recalibrated: LampPairingResult | null = null;
+  try {
+    recalibrated = recalibration(context, options.previous);
+  } catch (error) {
+    // A stored calibration that cannot be evaluated (an invalid model) is no starting point.
+    if (!(error instanceof CalibrationError)) throw error;
+  }
+  if (recalibrated?.status === "paired") return recalibrated;
+  if (!recalibrated) {
+    // The drift does not explain today's lamp (the instrument was realigned, say): yesterday's model
+    // still predicts where each line lands, so a fresh fit of its family starts from those pairs.
+    const seeded = pairsFromPrevious(context, options.previous);
+    if (seeded.length >= 4) {
+      const family: PairingContext = { ...context, previousModel: options.previous };
+      const result = finishLampPairing(family, { pairs: seeded, rmsX: Infinity, score: seeded.length });
+      if (result.status === "paired") return result;
+    }
+    return blindLampPairing(peaks, lines, options);
+  }
+  // A recalibration to check stands unless a blind search, which knows nothing of yesterday, finds the
+  // same axis: two independent routes to one answer are trusted, a disagreement is the person's call.
+  const blind = blindLampPairing(peaks, lines, options);
+  if (blind.status === "paired" && blind.model && recalibrated.candidate) {
+    if (modelsAgree(blind.model.model, recalibrated.candidate.model, context)) return blind;
+  }
+  return recalibrated;
+}
+
+/** Whether two calibrations agree within a tenth of a matching tolerance wherever both are covered. */
+function modelsAgree(a: CalibrationModel, b: CalibrationModel, context: PairingContext): boolean {
+  const low = Math.max(a.coveredX[0], b.coveredX[0]);
+  const high = Math.min(a.coveredX[1], b.coveredX[1]);
+  if (!(high > low)) return false;
+  const xs = Array.from({ length: 41 }, (_, i) => low + ((high - low) * i) / 40);
+  const first = modelEvaluation(a, xs);
+  const second = modelEvaluation(b, xs);
+  return xs.every((_, i) => {
+    const toleranceNm = context.toleranceX * Math.abs(first.dispersion[i]);
+    return Math.abs(first.wavelengthNm[i] - second.wavelengthNm[i]) <= 0.2 * toleranceNm;
+  });
+}
+
+/**
+ * The recalibration from `previous`, with lines that blend at today's resolution paired as one line at
+ * their centroid (as the blind search does), reported in the caller's lines.
+ */
+function recalibration(context: PairingContext, previous: CalibrationModel): LampPairingResult | null {
+  let xOf: (lambda: number) => number;
+  try {
+    xOf = inverseOfModel(previous, previous.domain);
+  } catch {
+    return null;
+  }
+  const widths = context.peaks
+    .map((p) => p.fwhm)
+    .filter((w): w is number => w !== undefined && w > 0)
+    .sort((a, b) => a - b);
+  if (widths.length === 0) return null;
+  const fwhmX = widths[widths.length >> 1];
+  const [xMin, xMax] = previous.domain;
+  const ends = modelEvaluation(previous, [xMin, xMax]).wavelengthNm;
+  const meanNmPerX = Math.abs(ends[1] - ends[0]) / (xMax - xMin);
+  const fwhmNmAt = (lambda: number) => {
+    const u = xOf(lambda);
+    const nmPerX = Number.isFinite(u) ? Math.abs(modelEvaluation(previous, [u]).dispersion[0]) : Number.NaN;
+    return fwhmX * (Number.isFinite(nmPerX) && nmPerX > 0 ? nmPerX : meanNmPerX);
+  };
+  const groups = groupBlendedLampLines(context.lines, context.candidateLines, fwhmNmAt);
+  const grouped: PairingContext = {
+    ...context,
+    peaks: withBlendUncertainty(context.peaks),
+    lines: groups,
+    candidateLines: groups.map((_, i) => i),
+  };
+  const result = recalibrateFromPrevious(grouped, previous);
+  return result && inCallerLines(result, groups, context.lines, context.candidateLines);
+}
+
+/** The blind search: nothing but the nominal range and the kind of dispersion is known. */
+function blindLampPairing(
   peaks: LampPeak[],
   lines: LampLine[],
   options: AutoPairLampPeaksOptions,
@@ -275,21 +369,6 @@ export function autoPairLampPeaks(
     firstGuess === "linear" ? "linear" : context.dispersion,
     options.nominalRangeNm,
   );
-
-  if (options.previous) {
-    const seeded = pairsFromPrevious(context, options.previous);
-    if (seeded.length >= 4) {
-      // The previous calibration already predicts every line to within the matching window, so its
-      // matches go straight to the final fit; the blind refinement's crude forward model would lose some.
-      const family: PairingContext = { ...context, previousModel: options.previous };
-      const result = finishLampPairing(family, {
-        pairs: seeded,
-        rmsX: Infinity,
-        score: seeded.length,
-      });
-      if (result.status === "paired") return result;
-    }
-  }
 
   if (search === "grow") {
     // Pairing sees the lamp as the spectrometer does: lines that blend are one line at their centroid.

@@ -3,7 +3,7 @@
 // that puts the most lamp lines on peaks wins, and its matches seed the usual refinement.
 import type { CalibrationModel } from "./calibration-model";
 import type { LampPair } from "./lamp-pairing-types";
-import { modelEvaluation } from "./model-evaluation";
+import { inverseOfModel } from "./inverse-of-model";
 import type { PairingContext } from "./refine-lamp-pairing";
 import { lampLineBlended } from "./lamp-line-blended";
 import { toLampPair } from "./to-lamp-pair";
@@ -16,31 +16,6 @@ export interface PairsFromPreviousOptions {
   maxStretch?: number;
 }
 
-/** x(λ) of a model on the context's domain, by inverting it on a dense grid; NaN off the array. */
-function inverse(
-  model: CalibrationModel,
-  [xMin, xMax]: [number, number],
-): (lambda: number) => number {
-  const count = 4097;
-  const grid = Array.from({ length: count }, (_, i) => xMin + ((xMax - xMin) * i) / (count - 1));
-  const wavelengths = modelEvaluation(model, grid).wavelengthNm;
-  const rising = wavelengths[count - 1] > wavelengths[0];
-  const value = (i: number) => (rising ? wavelengths[i] : -wavelengths[i]);
-  return (lambda) => {
-    const goal = rising ? lambda : -lambda;
-    if (!(goal >= value(0) && goal <= value(count - 1))) return Number.NaN;
-    let low = 0;
-    let high = count - 1;
-    while (high - low > 1) {
-      const mid = (low + high) >> 1;
-      if (value(mid) <= goal) low = mid;
-      else high = mid;
-    }
-    const span = value(high) - value(low) || 1;
-    return grid[low] + ((grid[high] - grid[low]) * (goal - value(low))) / span;
-  };
-}
-
 /** The lamp pairs the best shifted and stretched previous calibration makes; empty when it cannot be used. */
 export function pairsFromPrevious(
   context: PairingContext,
@@ -51,7 +26,7 @@ export function pairsFromPrevious(
   const [xMin, xMax] = context.domain;
   let xOf: (lambda: number) => number;
   try {
-    xOf = inverse(previous, context.domain);
+    xOf = inverseOfModel(previous, context.domain);
   } catch {
     return [];
   }

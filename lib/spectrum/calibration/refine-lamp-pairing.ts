@@ -6,6 +6,7 @@ import { informationCriteria } from "./information-criteria";
 import type { LampLine, LampPair, LampPairingResult, LampPeak } from "./lamp-pairing-types";
 import type { CalibrationModel } from "./calibration-model";
 import { modelEvaluation } from "./model-evaluation";
+import { inverseOfModel } from "./inverse-of-model";
 import { growLampPairs } from "./grow-lamp-pairs";
 import { lampLineBlended } from "./lamp-line-blended";
 import { toLampPair } from "./to-lamp-pair";
@@ -171,23 +172,7 @@ export function refineLampPairs(context: PairingContext, initialPairs: LampPair[
 
 /** x(λ) of a fitted calibration, by interpolating its λ on a dense grid over the domain. */
 function inverseOf(context: PairingContext, fit: FitCalibrationResult): (lambda: number) => number {
-  const [xMin, xMax] = context.domain;
-  const grid = Array.from({ length: 4097 }, (_, i) => xMin + ((xMax - xMin) * i) / 4096);
-  const lambda = modelEvaluation(fit.model, grid).wavelengthNm;
-  const rising = lambda[lambda.length - 1] > lambda[0];
-  return (target: number) => {
-    let low = 0;
-    let high = grid.length - 1;
-    const value = (i: number) => (rising ? lambda[i] : -lambda[i]);
-    const goal = rising ? target : -target;
-    if (!(goal >= value(low) && goal <= value(high))) return Number.NaN;
-    while (high - low > 1) {
-      const mid = (low + high) >> 1;
-      if (value(mid) <= goal) low = mid;
-      else high = mid;
-    }
-    return grid[low] + ((grid[high] - grid[low]) * (goal - value(low))) / (value(high) - value(low) || 1);
-  };
+  return inverseOfModel(fit.model, context.domain);
 }
 
 /** Fits the final calibration to refined pairs, re-matches once with it, and judges the result. */

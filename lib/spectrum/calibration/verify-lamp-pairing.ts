@@ -31,7 +31,9 @@ export interface PairingCheck {
     | "expected-lines"
     | "fit-miss"
     | "end-pairs"
-    | "rival-pairing";
+    | "rival-pairing"
+    | "drift-precision"
+    | "previous-fit";
   passed: boolean;
   /** The check's measure (see each check); larger is worse except for "expected-lines" and "pairs". */
   value: number;

@@ -1,0 +1,134 @@
+// Recalibration from the instrument's previous calibration: today's axis is yesterday's moved by a
+// small shift and stretch. It must find that drift among many unlisted peaks, say so, refuse a lamp
+// whose lines repeat so evenly that another drift explains it as well, and give up (for the caller's
+// fresh fit) when the previous calibration cannot describe today's array.
+import { describe, expect, it } from "vitest";
+import {
+  autoPairLampPeaks,
+  evaluateCalibration,
+  fitCalibration,
+  type CalibrationModel,
+  type LampLine,
+  type LampPeak,
+} from "@/lib/spectrum/calibration";
+import { pairingContext } from "@/lib/spectrum/calibration/lamp-pairing-setup";
+import { recalibrateFromPrevious } from "@/lib/spectrum/calibration/recalibrate-from-previous";
+import { seededRandom } from "@/lib/spectrum/calibration/seeded-random";
+import { HG_NE_AR_LINES } from "./lamp-lines";
+import { gaussian } from "./synthetic-lamp";
+
+const domain: [number, number] = [0, 2047];
+/** Yesterday's axis: a curved grating, 400–656 nm. */
+const yesterdayNm = (u: number) => 400 + 0.1 * u + 1e-5 * u * u;
+/** Yesterday's pixel of a wavelength (the quadratic solved). */
+const yesterdayPx = (nm: number) => (-0.1 + Math.sqrt(0.01 + 4e-5 * (nm - 400))) / 2e-5;
+
+function previousOf(nmAt: (u: number) => number): CalibrationModel {
+  const pairs = Array.from({ length: 21 }, (_, i) => ({
+    x: (2047 * i) / 20,
+    wavelengthNm: nmAt((2047 * i) / 20),
+  }));
+  return fitCalibration(pairs, { model: "polynomial", degree: 3, domain, rejectOutliers: false })
+    .model;
+}
+
+/** Peaks of `lines` where `todayPx` puts them (some missing), among unlisted peaks. */
+function lampPeaks(
+  lines: LampLine[],
+  todayPx: (nm: number) => number,
+  seed: number,
+  unlisted = 60,
+): LampPeak[] {
+  const random = seededRandom(seed);
+  const peaks: LampPeak[] = [];
+  for (const line of lines) {
+    const x = todayPx(line.wavelengthNm);
+    if (!(x >= 0 && x <= 2047) || random() < 0.2) continue;
+    peaks.push({
+      x: x + 0.03 * gaussian(random),
+      xUncertainty: 0.03,
+      height: line.intensity,
+      fwhm: 4,
+    });
+  }
+  for (let k = 0; k < unlisted; k++) {
+    peaks.push({ x: 2047 * random(), xUncertainty: 0.05, height: 50 * random(), fwhm: 4 });
+  }
+  return peaks;
+}
+
+const options = {
+  nominalRangeNm: [400, 656] as [number, number],
+  dispersion: "grating" as const,
+  resolutionNm: 0.5,
+  domain,
+};
+
+describe("recalibration from the previous calibration", () => {
+  it("finds a day's shift and stretch among many unlisted peaks and says it recalibrated", () => {
+    const previous = previousOf(yesterdayNm);
+    // Today a ray lands at x = 1.0017·u − 11.3 (−0.55 % of the array, a temperature change).
+    const todayPx = (nm: number) => 1.0017 * yesterdayPx(nm) - 11.3;
+    const peaks = lampPeaks(HG_NE_AR_LINES, todayPx, 3);
+    const result = autoPairLampPeaks(peaks, HG_NE_AR_LINES, { ...options, previous });
+    expect(result.status).toBe("paired");
+    expect(result.message).toMatch(/^recalibrated from the previous calibration/);
+    expect(result.pairs.length).toBeGreaterThanOrEqual(10);
+    // Every pair is a line's own peak: within 0.2 px of where today's axis puts the line.
+    for (const pair of result.pairs)
+      expect(Math.abs(pair.x - todayPx(pair.wavelengthNm))).toBeLessThan(0.2);
+    const xs = Float64Array.from([50, 500, 1000, 1500, 2000]);
+    const calibrated = evaluateCalibration(result.model!.model, xs);
+    xs.forEach((x, i) =>
+      expect(Math.abs(calibrated[i] - yesterdayNm((x + 11.3) / 1.0017))).toBeLessThan(0.005),
+    );
+  });
+
+  it("does not trust a lamp whose lines repeat so evenly that another drift fits as well", () => {
+    // A comb: a line every 5 nm (50 px, inside the searched shift of ±61 px), all equally strong.
+    const comb: LampLine[] = Array.from({ length: 40 }, (_, i) => ({
+      wavelengthNm: 405 + 5 * i,
+      intensity: 100,
+      species: "Ne I",
+      id: `comb-${i}`,
+    }));
+    const straight = (u: number) => 400 + 0.1 * u;
+    const previous = previousOf(straight);
+    const peaks = lampPeaks(comb, (nm) => 10 * (nm - 400) + 1.5, 5, 0);
+    const context = pairingContext(peaks, comb, { ...options, nominalRangeNm: [400, 605] });
+    const result = recalibrateFromPrevious(context, previous);
+    expect(result).not.toBeNull();
+    expect(result!.status).toBe("check");
+    expect(result!.checks?.find((c) => c.name === "rival-pairing")?.passed).toBe(false);
+    expect(result!.rivalSuggestion?.length ?? 0).toBeGreaterThan(10);
+  });
+
+  it("does not take a bent axis (a realigned instrument) for a drift", () => {
+    const previous = previousOf(yesterdayNm);
+    // Several tolerances of bend across the array: no straight drift holds it.
+    const todayPx = (nm: number) => {
+      const u = yesterdayPx(nm);
+      return u + 6e-6 * (u - 1024) ** 2 - 3;
+    };
+    const peaks = lampPeaks(HG_NE_AR_LINES, todayPx, 9);
+    const result = recalibrateFromPrevious(
+      pairingContext(peaks, HG_NE_AR_LINES, options),
+      previous,
+    );
+    expect(result === null || result.status !== "paired").toBe(true);
+  });
+
+  it("gives up on a previous calibration of another array", () => {
+    const previous = fitCalibration(
+      Array.from({ length: 11 }, (_, i) => ({
+        x: 409.5 * i,
+        wavelengthNm: 400 + 0.05 * 409.5 * i,
+      })),
+      { model: "polynomial", degree: 2, domain: [0, 4095], rejectOutliers: false },
+    ).model;
+    const peaks = lampPeaks(HG_NE_AR_LINES, (nm) => yesterdayPx(nm), 4);
+    expect(
+      recalibrateFromPrevious(pairingContext(peaks, HG_NE_AR_LINES, options), previous),
+    ).toBeNull();
+  });
+});
