@@ -11,6 +11,7 @@ import { FormMessage } from "@/components/ui/form-message";
 import type { CalibrationPreview, CalibrationPreviewPair } from "@/lib/services/calibrations";
 import type { FormState } from "@/lib/validation/form-state";
 import type { CalibrationModelChoice } from "@/lib/validation/workflow-schemas";
+import { CompetingPairing } from "./competing-pairing";
 import { ModelComparison } from "./model-comparison";
 import { PairChooser } from "./pair-chooser";
 import { WorkbenchLampChart, WorkbenchResidualChart } from "./workbench-charts";
@@ -288,6 +289,20 @@ export function CalibrationWorkbench({
             </ul>
           ) : null}
 
+          {preview.result.rival.length > 0 ? (
+            <CompetingPairing
+              rival={preview.result.rival}
+              tried={preview.result.rival.every((r) => input.added.some((a) => samePair(a, r)))}
+              disabled={busy}
+              onTry={() =>
+                change({
+                  excluded: preview.result.pairs.filter((p) => p.origin === "auto").map(ref),
+                  added: preview.result.rival.map((r) => ({ pixel: r.pixel, wavelengthNm: r.wavelengthNm })),
+                })
+              }
+              onBack={() => change({ excluded: [], added: [] })}
+            />
+          ) : null}
           <WorkbenchLampChart spectrum={spectrum} preview={preview} xTitle={xTitle} onPeakClick={openChooser} />
           {chooserPeak !== null && peaks[chooserPeak] ? (
             <PairChooser

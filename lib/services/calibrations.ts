@@ -220,6 +220,11 @@ export interface CalibrationPreview {
      * saving it then needs confirmReason.
      */
     doubts: string[];
+    /**
+     * A competing automatic pairing that explains the lamp nearly as well (empty when there is none):
+     * the chemist decides between them.
+     */
+    rival: { pixel: number; wavelengthNm: number; species: string }[];
   };
   comparison: { candidates: CalibrationComparisonRow[]; recommended: CalibrationModelChoice | null; reason: string };
   /** The lamp's peaks, with the wavelength the fitted model puts them at and their line when paired. */
@@ -379,7 +384,11 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
       pairing = pairManually(peaks, lines, seeds, pairingOptions);
       fit = pairing.status === "paired" ? pairing.model : null;
     }
-    if (pairing.status !== "paired" || !fit) {
+    // An automatic pairing to check is shown for the chemist to confirm or correct (saving it as the
+    // default then needs a reason, see the doubts below); only with no candidate at all is there nothing to show.
+    const toCheck = !input.pairs && pairing.status === "check" && pairing.candidate ? pairing.candidate : null;
+    if (toCheck) fit = toCheck;
+    if ((pairing.status !== "paired" && !toCheck) || !fit) {
       const why =
         pairing.status === "check"
           ? `An automatic pairing was found but is not trusted — ${(pairing.reasons ?? []).join(" ")}`
@@ -393,7 +402,8 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
     const pairingFit = fit;
     // A blend the pairing paired at its centroid (the Hg 365 nm group) is a line of its own here, at that
     // centroid, so that the workbench refits and shows the pair the pairing made.
-    for (const p of pairingFit.pairs) {
+    const rival = toCheck ? (pairing.rivalSuggestion ?? []) : [];
+    for (const p of [...pairingFit.pairs, ...rival]) {
       const member = lines.find((l) => l.id === p.lineId);
       const id = `blend:${p.lineId}`;
       if (member && Math.abs(member.wavelengthNm - p.wavelengthNm) > 1e-9 && !lines.some((l) => l.id === id)) {
@@ -407,6 +417,7 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
       origin: "auto",
     }));
     if (work.some((w) => w.peakIndex < 0 || w.lineIndex < 0)) throw new Error("a pair of the pairing names no peak or line");
+    const overridden: WorkPair[] = [];
     addedInput.forEach((given, i) => {
       const peakIndex = peakNear(peaks, given.pixel);
       if (peakIndex < 0) {
@@ -428,14 +439,18 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
         });
       }
       // A pair made by hand overrides whatever the pairing did with that peak or that line.
+      overridden.push(...work.filter((w) => w.peakIndex === peakIndex || w.lineIndex === lineIndex));
       work = work.filter((w) => w.peakIndex !== peakIndex && w.lineIndex !== lineIndex);
       work.push({ peakIndex, lineIndex, origin: "added" });
     });
     const excludedWork: WorkPair[] = [];
     excludedInput.forEach((given, i) => {
-      const k = work.findIndex(
-        (w) => Math.abs(peaks[w.peakIndex].x - given.pixel) <= 1 && Math.abs(lines[w.lineIndex].wavelengthNm - given.wavelengthNm) <= LINE_MATCH_NM,
-      );
+      const matches = (w: WorkPair) =>
+        Math.abs(peaks[w.peakIndex].x - given.pixel) <= 1 && Math.abs(lines[w.lineIndex].wavelengthNm - given.wavelengthNm) <= LINE_MATCH_NM;
+      const k = work.findIndex(matches);
+      // Leaving out a pair that a pair made by hand already replaced asks for nothing more (trying a
+      // competing pairing replaces some pairs and leaves out the rest).
+      if (k < 0 && overridden.some(matches)) return;
       if (k < 0) {
         throw new AppError("validation", `No pair at pixel ${given.pixel} with the line at ${given.wavelengthNm} nm to leave out.`, {
           fieldErrors: { [`excluded.${i}.pixel`]: ["No such pair: pair again and choose from the table."] },
@@ -544,7 +559,10 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
       ],
     };
     // Doubts about the chosen fit; the confidence counts only for an automatic pairing (no seeds by hand).
-    const doubts = calibrationDoubts(chosen, input.pairs ? {} : { automaticConfidence: pairing.confidence });
+    const doubts = [
+      ...(toCheck ? [`The automatic pairing is not trusted: ${(pairing.reasons ?? []).join(" ")}`] : []),
+      ...calibrationDoubts(chosen, input.pairs ? {} : { automaticConfidence: pairing.confidence }),
+    ];
     // Why peaks stay unpaired, in calibrated wavelength with each peak's FWHM turned into nm.
     const localDispersion = dispersionAt(model, Float64Array.from(peaks.map((p) => p.x)));
     const arrayEndsNm = Array.from(evaluateCalibration(model, Float64Array.from(domain), quiet));
@@ -585,6 +603,7 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
         warnings: chosen.warnings,
         pairing: pairingRecord,
         doubts,
+        rival: rival.map((p) => ({ pixel: p.x, wavelengthNm: p.wavelengthNm, species: p.species ?? "" })),
       },
       comparison: {
         candidates,
