@@ -3,7 +3,8 @@
 // opens the peak chooser from the keyboard, pairs a peak by clicking it on the chart, tries a straight
 // line and sees the comparison rank it below the cubic, saves, and lands on the calibration page with
 // the drift from the first calibration; then leaves out pairs until the calibration is doubtful, is
-// refused without a reason, types one from the keyboard and sees it on the saved calibration.
+// refused without a reason, types one from the keyboard and sees it on the saved calibration; last, with
+// a lamp gas the lamp does not hold, sees the untrusted pairing and its competitor, tries it and goes back.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Locator, Page } from "playwright-core";
 import { openBrowser, screenshot, type Session } from "./support/browser";
@@ -299,6 +300,52 @@ describe("the calibration workbench", () => {
     const labels = await page.getByTestId("calibration-label").allTextContents();
     expect(labels.length).toBeGreaterThanOrEqual(2);
     for (const label of labels) expect(label).toMatch(/^Hg\+Ar · \d\d:\d\d · /);
+    expect(browser.problems, browser.problems.join("\n")).toEqual([]);
+  }, 240_000);
+  it("shows a pairing it does not trust with the competing pairing, tries that one and goes back", async () => {
+    const { page } = browser;
+    await browser.context.clearCookies();
+    const signIn = new SignInPage(page);
+    await signIn.goto();
+    await signIn.signIn(CHEMIST, DEMO_PASSWORD);
+    await page.waitForURL((url) => url.pathname === "/");
+    await page.goto(`/instruments/${instrumentId}/calibrate?spectrum=${spectrumId}`);
+    const workbench = new WorkbenchPage(page);
+    // The lamp holds no neon: its peaks can be paired with neon lines only by coincidence, and the
+    // recalibration from the instrument's last calibration says so.
+    await page.getByRole("checkbox", { name: "Hg", exact: true }).uncheck();
+    await page.getByRole("checkbox", { name: "Ne", exact: true }).check();
+    await page.getByRole("button", { name: "Pair the lines and fit" }).click();
+    await workbench.summary.waitFor({ timeout: 30_000 });
+    await workbench.settled();
+    expect(await page.getByTestId("calibration-doubts").textContent()).toMatch(
+      /The automatic pairing is not trusted: .*another drift/,
+    );
+    const competing = page.getByTestId("competing-pairing");
+    await competing.waitFor();
+    const count = Number(
+      /\((\d+) pairs\)/.exec((await competing.getByRole("heading").textContent()) ?? "")?.[1],
+    );
+    expect(count).toBeGreaterThan(0);
+    expect(await competing.getByRole("listitem").count()).toBe(count);
+    await screenshot(page, "workbench-7-competing");
+
+    const byHand = workbench.pairs.getByRole("cell", { name: "by hand", exact: true });
+    await competing.getByRole("button", { name: "Try the competing pairing" }).click();
+    // The preview follows the change after a short debounce: wait for the table, not the status.
+    await expect.poll(() => byHand.count(), { timeout: 30_000 }).toBe(count);
+    await workbench.settled();
+    expect(await competing.getByRole("button", { name: "Back to the first pairing" }).count()).toBe(
+      1,
+    );
+    await screenshot(page, "workbench-8-competing-tried");
+
+    await competing.getByRole("button", { name: "Back to the first pairing" }).click();
+    await expect.poll(() => byHand.count(), { timeout: 30_000 }).toBe(0);
+    await workbench.settled();
+    expect(await competing.getByRole("button", { name: "Try the competing pairing" }).count()).toBe(
+      1,
+    );
     expect(browser.problems, browser.problems.join("\n")).toEqual([]);
   }, 240_000);
 });
