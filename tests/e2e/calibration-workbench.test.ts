@@ -86,14 +86,19 @@ afterAll(async () => {
   await browser?.close();
 });
 
+/** A fresh session of the demo chemist, on the home page. */
+async function signInAsChemist(page: Page): Promise<void> {
+  await browser.context.clearCookies();
+  const signIn = new SignInPage(page);
+  await signIn.goto();
+  await signIn.signIn(CHEMIST, DEMO_PASSWORD);
+  await page.waitForURL((url) => url.pathname === "/");
+}
+
 describe("the calibration workbench", () => {
   it("excludes a pair, compares models, saves, and shows the calibration with its drift", async () => {
     const { page } = browser;
-    await browser.context.clearCookies();
-    const signIn = new SignInPage(page);
-    await signIn.goto();
-    await signIn.signIn(CHEMIST, DEMO_PASSWORD);
-    await page.waitForURL((url) => url.pathname === "/");
+    await signInAsChemist(page);
 
     await page.goto(`/instruments/${instrumentId}/calibrate?spectrum=${spectrumId}`);
     const workbench = new WorkbenchPage(page);
@@ -223,11 +228,7 @@ describe("the calibration workbench", () => {
 
   it("shows a doubtful calibration's doubts, refuses to save it without a reason, and saves it with one typed from the keyboard", async () => {
     const { page } = browser;
-    await browser.context.clearCookies();
-    const signIn = new SignInPage(page);
-    await signIn.goto();
-    await signIn.signIn(CHEMIST, DEMO_PASSWORD);
-    await page.waitForURL((url) => url.pathname === "/");
+    await signInAsChemist(page);
     await page.goto(`/instruments/${instrumentId}/calibrate?spectrum=${spectrumId}`);
     const workbench = new WorkbenchPage(page);
     await page.getByRole("checkbox", { name: "Ar", exact: true }).check();
@@ -302,13 +303,10 @@ describe("the calibration workbench", () => {
     for (const label of labels) expect(label).toMatch(/^Hg\+Ar · \d\d:\d\d · /);
     expect(browser.problems, browser.problems.join("\n")).toEqual([]);
   }, 240_000);
+
   it("shows a pairing it does not trust with the competing pairing, tries that one and goes back", async () => {
     const { page } = browser;
-    await browser.context.clearCookies();
-    const signIn = new SignInPage(page);
-    await signIn.goto();
-    await signIn.signIn(CHEMIST, DEMO_PASSWORD);
-    await page.waitForURL((url) => url.pathname === "/");
+    await signInAsChemist(page);
     await page.goto(`/instruments/${instrumentId}/calibrate?spectrum=${spectrumId}`);
     const workbench = new WorkbenchPage(page);
     // The lamp holds no neon: its peaks can be paired with neon lines only by coincidence, and the

@@ -7,7 +7,14 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { ApiClient, ErrorBody } from "./support/http-client";
 import { DEMO, FLAME_SCREENING, signInDemo, teamIdOf } from "./support/accounts";
-import { auditEventsSince, auditMark, closeDb, db, userIdByEmail } from "./support/database";
+import {
+  auditEventsSince,
+  auditMark,
+  closeDb,
+  db,
+  userIdByEmail,
+  calibrationCountOf,
+} from "./support/database";
 import { lampFile, syntheticGrating } from "./support/synthetic-files";
 import { createSyntheticInstrument, uploadSpectrumFile } from "./support/bench";
 
@@ -49,14 +56,6 @@ let base: { instrumentId: string; spectrumId: string; lamps: string[] };
 let auto: Preview;
 /** Pairs to leave out so that five used pairs remain. */
 let excluded: { pixel: number; wavelengthNm: number }[];
-
-async function calibrationsOf(id: string): Promise<number> {
-  const { rows } = await db().query<{ n: string }>(
-    "SELECT count(*) AS n FROM calibrations WHERE instrument_id = $1",
-    [id],
-  );
-  return Number(rows[0].n);
-}
 
 beforeAll(async () => {
   const lead = await signInDemo("labLead");
@@ -104,19 +103,19 @@ describe("a doubtful calibration", () => {
   });
 
   it("is refused without a reason (422, a field error listing the doubts) and nothing is written", async () => {
-    const before = await calibrationsOf(instrumentId);
+    const before = await calibrationCountOf(instrumentId);
     const mark = await auditMark();
     const reply = await chemist.post<ErrorBody>("/api/calibrations", { ...base, excluded });
     expect(reply.status, JSON.stringify(reply.body)).toBe(422);
     const fieldError = reply.body.error.fieldErrors?.confirmReason?.join(" ") ?? "";
     expect(fieldError).toMatch(/Only 5 pairs are used/);
     expect(reply.body.error.message).toMatch(/doubtful/);
-    expect(await calibrationsOf(instrumentId)).toBe(before);
+    expect(await calibrationCountOf(instrumentId)).toBe(before);
     expect(await auditEventsSince(mark)).toEqual([]);
   });
 
   it("is refused with a reason under 10 characters (400), writing nothing", async () => {
-    const before = await calibrationsOf(instrumentId);
+    const before = await calibrationCountOf(instrumentId);
     const reply = await chemist.post<ErrorBody>("/api/calibrations", {
       ...base,
       excluded,
@@ -124,7 +123,7 @@ describe("a doubtful calibration", () => {
     });
     expect(reply.status).toBe(400);
     expect(reply.body.error.fieldErrors?.confirmReason).toBeDefined();
-    expect(await calibrationsOf(instrumentId)).toBe(before);
+    expect(await calibrationCountOf(instrumentId)).toBe(before);
   });
 
   it("is saved with a reason, which is kept with the doubts in the row and in the audit event", async () => {

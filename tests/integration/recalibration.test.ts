@@ -6,7 +6,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { ApiClient, ErrorBody } from "./support/http-client";
 import { FLAME_SCREENING, signInDemo, teamIdOf } from "./support/accounts";
-import { auditEventsSince, auditMark, closeDb, db } from "./support/database";
+import { auditEventsSince, auditMark, calibrationCountOf, closeDb } from "./support/database";
 import { lampFile, syntheticGrating, PIXELS } from "./support/synthetic-files";
 import { createSyntheticInstrument, uploadSpectrumFile } from "./support/bench";
 
@@ -30,14 +30,6 @@ const moved = {
 let chemist: ApiClient;
 let instrumentId: string;
 let todayId: string;
-
-async function calibrationsOf(id: string): Promise<number> {
-  const { rows } = await db().query<{ n: string }>(
-    "SELECT count(*) AS n FROM calibrations WHERE instrument_id = $1",
-    [id],
-  );
-  return Number(rows[0].n);
-}
 
 beforeAll(async () => {
   const lead = await signInDemo("labLead");
@@ -118,7 +110,7 @@ describe("recalibration", () => {
   });
 
   it("refuses to save the untrusted pairing without a reason, writing nothing", async () => {
-    const before = await calibrationsOf(instrumentId);
+    const before = await calibrationCountOf(instrumentId);
     const mark = await auditMark();
     const reply = await chemist.post<ErrorBody>("/api/calibrations", {
       instrumentId,
@@ -129,7 +121,7 @@ describe("recalibration", () => {
     expect(reply.body.error.fieldErrors?.confirmReason?.join(" ")).toMatch(
       /The automatic pairing is not trusted/,
     );
-    expect(await calibrationsOf(instrumentId)).toBe(before);
+    expect(await calibrationCountOf(instrumentId)).toBe(before);
     expect(await auditEventsSince(mark)).toEqual([]);
   });
 

@@ -97,3 +97,11 @@ export async function userIdByEmail(email: string): Promise<string> {
   if (!rows[0]) throw new Error(`No user ${email}`);
   return rows[0].id;
 }
+
+/** How many calibrations an instrument has. */
+export async function calibrationCountOf(instrumentId: string): Promise<number> {
+  const { rows } = await db().query<{ n: string }>("SELECT count(*) AS n FROM calibrations WHERE instrument_id = $1", [
+    instrumentId,
+  ]);
+  return Number(rows[0].n);
+}
