@@ -278,6 +278,9 @@ export function CalibrationWorkbench({
               </dd>
             </div>
           </dl>
+          <p className="muted text-sm" data-testid="pairing-message">
+            How it was paired: {preview.result.pairing.message}
+          </p>
           {preview.result.warnings.length > 0 ? (
             <ul className="flex flex-col gap-1 text-sm">
               {preview.result.warnings.map((w) => (

@@ -120,6 +120,10 @@ describe("the calibration workbench", () => {
       " | ",
     );
     expect(labels).toMatch(/Hg I 546\.\d\d/);
+    // The instrument has a calibration already: the pairing started from it and says so.
+    expect(await page.getByTestId("pairing-message").textContent()).toMatch(
+      /How it was paired: recalibrated from the previous calibration \(moved by/,
+    );
     await screenshot(page, "workbench-1-paired");
 
     // Exclude the middle pair: one fewer in the fit, one shown as excluded.
@@ -213,6 +217,9 @@ describe("the calibration workbench", () => {
     expect(summary).toContain("polynomial-3");
     expect(summary).toContain(`RMS${shownRms}`);
     expect(summary).toContain("1 excluded, 1 added");
+    expect(await page.getByTestId("pairing-message").textContent()).toMatch(
+      /^How it was paired: recalibrated from the previous calibration/,
+    );
     const hand = (await page.getByTestId("hand-pairs").textContent()) ?? "";
     expect(hand).toContain("Excluded: pixel");
     expect(hand).toContain("Added: pixel");

@@ -101,6 +101,9 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
           <dd className="font-mono">{calibration.softwareVersion}</dd>
         </div>
       </dl>
+      <p className="muted mb-4 px-1 text-sm" data-testid="pairing-message">
+        How it was paired: {calibration.pairing.message}
+      </p>
       {calibration.warnings.length > 0 ? (
         <ul role="alert" className="mb-4 flex flex-col gap-1 text-sm">
           {calibration.warnings.map((w) => (
