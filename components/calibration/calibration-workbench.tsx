@@ -354,7 +354,9 @@ export function CalibrationWorkbench({
               Expected lines with no peak ({preview.expectedWithoutPeak.length})
             </h3>
             {preview.expectedWithoutPeak.length === 0 ? (
-              <p className="muted text-sm">Every lamp line the calibration puts on the array has a peak within 1.5 FWHM of it.</p>
+              <p className="muted text-sm">
+                Every lamp line the calibration puts on the array has a peak within {preview.tolerances.expectedPeakReachFwhm} FWHM of it.
+              </p>
             ) : (
               <ul aria-labelledby="expected-heading" className="flex flex-wrap gap-x-4 gap-y-1 text-sm" data-testid="expected-without-peak">
                 {preview.expectedWithoutPeak.map((l) => (
@@ -372,11 +374,15 @@ export function CalibrationWorkbench({
             disabled={busy}
             onExclude={(p) => change({ excluded: [...input.excluded, ref(p)] })}
             onInclude={(p) => change({ excluded: input.excluded.filter((e) => !samePair(e, ref(p))) })}
-            onRemove={(p) =>
-              change({
-                added: input.added.filter((a) => !(Math.abs(a.wavelengthNm - p.wavelengthNm) <= 0.05 && Math.abs(a.pixel - p.pixel) <= 3)),
-              })
-            }
+            onRemove={(p) => {
+              // The hand pair the server resolved to this one: its line within the server's match, the nearest pixel.
+              const candidates = input.added.filter((a) => Math.abs(a.wavelengthNm - p.wavelengthNm) <= preview.tolerances.lineMatchNm);
+              const given = candidates.reduce<PairRef | null>(
+                (best, a) => (best === null || Math.abs(a.pixel - p.pixel) < Math.abs(best.pixel - p.pixel) ? a : best),
+                null,
+              );
+              change({ added: input.added.filter((a) => a !== given) });
+            }}
           />
           <ModelComparison comparison={preview.comparison} chosenModel={preview.result.model} labels={labels} />
 

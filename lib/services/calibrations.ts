@@ -16,6 +16,7 @@ import {
   evaluateCalibration,
   fitCalibration,
   pairManually,
+  UNPAIRED_REACH_FWHM,
   unpairedLampPeaks,
   type CalibrationModel,
   type FitCalibrationResult,
@@ -240,7 +241,13 @@ export interface CalibrationPreview {
   }[];
   /** Lamp lines of the chosen gases in the instrument's nominal range. */
   lines: { wavelengthNm: number; species: string; intensity: number; lineId: string; paired: boolean }[];
-  /** Unpaired lamp lines the calibration puts on the array with no peak within 1.5 FWHM: below the peak threshold. */
+  /**
+   * The tolerances the workbench states, as the service and the core apply them: a line given by hand
+   * must lie within lineMatchNm of a table line; an expected line "has a peak" within
+   * expectedPeakReachFwhm local FWHMs.
+   */
+  tolerances: { lineMatchNm: number; expectedPeakReachFwhm: number };
+  /** Unpaired lamp lines the calibration puts on the array with no peak within tolerances.expectedPeakReachFwhm FWHM: below the peak threshold. */
   expectedWithoutPeak: { wavelengthNm: number; species: string; intensity: number; reason: "below threshold" }[];
 }
 
@@ -623,6 +630,7 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
         };
       }),
       lines: lines.map((l, i) => ({ wavelengthNm: l.wavelengthNm, species: l.species, intensity: l.intensity, lineId: l.id, paired: pairedLines.has(i) })),
+      tolerances: { lineMatchNm: LINE_MATCH_NM, expectedPeakReachFwhm: UNPAIRED_REACH_FWHM },
       expectedWithoutPeak: (explained?.expectedWithoutPeak ?? []).map((j) => ({
         wavelengthNm: lines[j].wavelengthNm,
         species: lines[j].species,

@@ -345,6 +345,17 @@ describe("the calibration workbench", () => {
     );
     await screenshot(page, "workbench-8-competing-tried");
 
+    // A pair made by hand comes out again with its own button; trying the competitor again restores it.
+    const madeByHand = workbench.pairs
+      .locator("tbody tr", { has: page.getByRole("cell", { name: "by hand", exact: true }) })
+      .first();
+    await madeByHand.getByRole("button", { name: /^Remove/ }).click();
+    await expect.poll(() => byHand.count(), { timeout: 30_000 }).toBe(count - 1);
+    await workbench.settled();
+    await competing.getByRole("button", { name: "Try the competing pairing" }).click();
+    await expect.poll(() => byHand.count(), { timeout: 30_000 }).toBe(count);
+    await workbench.settled();
+
     await competing.getByRole("button", { name: "Back to the first pairing" }).click();
     await expect.poll(() => byHand.count(), { timeout: 30_000 }).toBe(0);
     await workbench.settled();

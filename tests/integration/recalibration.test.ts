@@ -8,9 +8,11 @@ import type { ApiClient, ErrorBody } from "./support/http-client";
 import { FLAME_SCREENING, signInDemo, teamIdOf } from "./support/accounts";
 import { auditEventsSince, auditMark, calibrationCountOf, closeDb } from "./support/database";
 import { lampFile, syntheticGrating, PIXELS } from "./support/synthetic-files";
+import { UNPAIRED_REACH_FWHM } from "@/lib/spectrum/calibration";
 import { createSyntheticInstrument, uploadSpectrumFile } from "./support/bench";
 
 interface Preview {
+  tolerances: { lineMatchNm: number; expectedPeakReachFwhm: number };
   result: {
     pairs: { pixel: number; wavelengthNm: number; state: string; origin: string }[];
     pairing: { status: string; message: string };
@@ -87,6 +89,11 @@ describe("recalibration", () => {
     expect(Math.abs(Number(stated![2]) - 0.402)).toBeLessThan(0.01);
     expect(reply.body.result.doubts).toEqual([]);
     expect(reply.body.result.rival).toEqual([]);
+    // The tolerances the workbench states come with the preview, as the service and the core apply them.
+    expect(reply.body.tolerances).toEqual({
+      lineMatchNm: 0.05,
+      expectedPeakReachFwhm: UNPAIRED_REACH_FWHM,
+    });
     // Every pair is a line's own peak on today's axis.
     for (const p of reply.body.result.pairs.filter((q) => q.state === "used")) {
       expect(Math.abs(moved.wavelengthOfPixel(p.pixel) - p.wavelengthNm)).toBeLessThan(0.05);

@@ -31,6 +31,7 @@ export { pairManually, type ManualSeedPair, type PairManuallyOptions } from "./p
 export type { LampLine, LampPair, LampPairingOptions, LampPairingResult, LampPeak } from "./lamp-pairing-types";
 export { calibrationDoubts, type CalibrationDoubtsFit, type CalibrationDoubtsOptions } from "./calibration-doubts";
 export {
+  UNPAIRED_REACH_FWHM,
   unpairedLampPeaks,
   type UnpairedLampLineInput,
   type UnpairedLampPeakInput,

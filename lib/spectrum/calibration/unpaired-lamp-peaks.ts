@@ -34,6 +34,9 @@ export interface UnpairedPeakReason {
   lineIndices: number[];
 }
 
+/** A line is "near" a peak within this many local FWHMs (the default of `widthFactor`). */
+export const UNPAIRED_REACH_FWHM = 1.5;
+
 export interface UnpairedLampPeaksOptions {
   /** The array's extent in calibrated wavelength, [min, max] nm: lines outside it cannot show. */
   arrayRangeNm: readonly [number, number];
@@ -57,7 +60,7 @@ export function unpairedLampPeaks(
   lines: readonly UnpairedLampLineInput[],
   options: UnpairedLampPeaksOptions,
 ): UnpairedLampPeaksResult {
-  const { arrayRangeNm, widthFactor = 1.5 } = options;
+  const { arrayRangeNm, widthFactor = UNPAIRED_REACH_FWHM } = options;
   if (!(Number.isFinite(widthFactor) && widthFactor > 0))
     throw new RangeError(`widthFactor must be positive and finite, got ${widthFactor}`);
   if (!(
