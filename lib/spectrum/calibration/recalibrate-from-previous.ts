@@ -187,23 +187,19 @@ export function recalibrateFromPrevious(
   });
   // A rival moves some part of the array by more than two tolerances against the best, and is scored
   // only by the lines it pairs differently.
-  const differs = (h: { stretch: number; shift: number }) =>
+  type GridDrift = { stretch: number; shift: number };
+  const farApart = (a: GridDrift, b: GridDrift) =>
     [xMin, xMax].some(
-      (x) =>
-        Math.abs(h.shift - best.shift + (h.stretch - best.stretch) * (x - middle)) > 2 * tolerance,
+      (x) => Math.abs(a.shift - b.shift + (a.stretch - b.stretch) * (x - middle)) > 2 * tolerance,
     );
+  const differs = (h: GridDrift) => farApart(h, best);
   // The strongest few distinct drifts against the best (each moves the array by more than two
   // tolerances against the best and against each other) are the coarse rivals.
   const rivalScores = grid.map((h) => (differs(h) ? scoreOf(h.stretch, h.shift, bestPeakOf) : 0));
-  const coarseRivals: { stretch: number; shift: number }[] = [];
+  const coarseRivals: GridDrift[] = [];
   for (const at of rivalScores.map((_, i) => i).sort((a, b) => rivalScores[b] - rivalScores[a])) {
     if (coarseRivals.length >= COARSE_RIVALS || !(rivalScores[at] > 0)) break;
-    const h = grid[at];
-    const apart = (o: { stretch: number; shift: number }) =>
-      [xMin, xMax].some(
-        (x) => Math.abs(h.shift - o.shift + (h.stretch - o.stretch) * (x - middle)) > 2 * tolerance,
-      );
-    if (coarseRivals.every(apart)) coarseRivals.push(h);
+    if (coarseRivals.every((o) => farApart(grid[at], o))) coarseRivals.push(grid[at]);
   }
 
   const fitted = fitDrift(
