@@ -13,6 +13,7 @@ import { pairsFromPrevious } from "./pairs-from-previous";
 import { inverseOfModel } from "./inverse-of-model";
 import { modelEvaluation } from "./model-evaluation";
 import { recalibrateFromPrevious } from "./recalibrate-from-previous";
+import { typicalPeakFwhm } from "./typical-peak-fwhm";
 import { CalibrationError } from "./calibration-error";
 import type {
   LampLine,
@@ -321,12 +322,8 @@ function recalibration(context: PairingContext, previous: CalibrationModel): Lam
   } catch {
     return null;
   }
-  const widths = context.peaks
-    .map((p) => p.fwhm)
-    .filter((w): w is number => w !== undefined && w > 0)
-    .sort((a, b) => a - b);
-  if (widths.length === 0) return null;
-  const fwhmX = widths[widths.length >> 1];
+  const fwhmX = typicalPeakFwhm(context.peaks);
+  if (fwhmX === undefined) return null;
   const [xMin, xMax] = previous.domain;
   const ends = modelEvaluation(previous, [xMin, xMax]).wavelengthNm;
   const meanNmPerX = Math.abs(ends[1] - ends[0]) / (xMax - xMin);
@@ -342,7 +339,7 @@ function recalibration(context: PairingContext, previous: CalibrationModel): Lam
     lines: groups,
     candidateLines: groups.map((_, i) => i),
   };
-  const result = recalibrateFromPrevious(grouped, previous);
+  const result = recalibrateFromPrevious(grouped, previous, { previousInverse: xOf });
   return result && inCallerLines(result, groups, context.lines, context.candidateLines);
 }
 

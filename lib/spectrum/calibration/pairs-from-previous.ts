@@ -7,6 +7,7 @@ import { inverseOfModel } from "./inverse-of-model";
 import type { PairingContext } from "./refine-lamp-pairing";
 import { lampLineBlended } from "./lamp-line-blended";
 import { toLampPair } from "./to-lamp-pair";
+import { typicalPeakFwhm } from "./typical-peak-fwhm";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
 export interface PairsFromPreviousOptions {
@@ -76,11 +77,7 @@ export function pairsFromPrevious(
   // tightening window recovers the lines the coarse search missed and drops chance neighbours.
   let mapX = (u: number) => middle + (u - middle) * best.stretch + best.shift;
   let pairs: LampPair[] = [];
-  const widths = peaks
-    .map((p) => p.fwhm)
-    .filter((w): w is number => w !== undefined && w > 0)
-    .sort((a, b) => a - b);
-  const fwhmX = widths.length > 0 ? widths[widths.length >> 1] : undefined;
+  const fwhmX = typicalPeakFwhm(peaks);
   // The last windows are tight: a true line's peak sits within a fraction of the half-width of where
   // the drift map puts it; an unlisted neighbour further off is not taken for it.
   for (const window of [2, 1.5, 1, 0.6, 0.6]) {

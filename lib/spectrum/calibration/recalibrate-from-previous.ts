@@ -16,6 +16,7 @@ import type { LampPair, LampPairingResult } from "./lamp-pairing-types";
 import { modelEvaluation } from "./model-evaluation";
 import type { PairingContext } from "./refine-lamp-pairing";
 import { toLampPair } from "./to-lamp-pair";
+import { typicalPeakFwhm } from "./typical-peak-fwhm";
 import type { PairingCheck } from "./verify-lamp-pairing";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
@@ -24,6 +25,11 @@ export interface RecalibrateFromPreviousOptions {
   maxShiftFraction?: number;
   /** Largest relative stretch searched. @default 0.01 */
   maxStretch?: number;
+  /**
+   * x(λ) of `previous` on its domain, when the caller has already made it (inverting a model on a dense
+   * grid is the costliest step of the setup). @default inverseOfModel(previous, previous.domain)
+   */
+  previousInverse?: (lambda: number) => number;
 }
 
 /**
@@ -114,13 +120,12 @@ export function recalibrateFromPrevious(
 
   let xOf: (lambda: number) => number;
   try {
-    xOf = inverseOfModel(previous, previous.domain);
+    xOf = options.previousInverse ?? inverseOfModel(previous, previous.domain);
   } catch {
     return null;
   }
   // The matching tolerance is half the lines' own width on today's array, as measured.
-  const fwhmX =
-    median(peaks.map((p) => p.fwhm ?? Number.NaN).filter((w) => w > 0)) ?? 2 * context.toleranceX;
+  const fwhmX = typicalPeakFwhm(peaks) ?? 2 * context.toleranceX;
   const tolerance = 0.5 * fwhmX;
   // Strong lines count more: a chance coincidence with a faint line is cheap, with a strong one rare.
   const located = candidateLines

@@ -10,6 +10,7 @@ import { inverseOfModel } from "./inverse-of-model";
 import { growLampPairs } from "./grow-lamp-pairs";
 import { lampLineBlended } from "./lamp-line-blended";
 import { toLampPair } from "./to-lamp-pair";
+import { typicalPeakFwhm } from "./typical-peak-fwhm";
 import { fitForwardHartmann } from "./fit-forward-hartmann";
 import { verifyLampPairing } from "./verify-lamp-pairing";
 import { weightedLeastSquares } from "./weighted-least-squares";
@@ -312,8 +313,7 @@ function judge(context: PairingContext, givenPairs: LampPair[], givenFit: FitCal
     // Blended lines are left out of pairing on purpose, so neither they nor the peaks they make count
     // against the pairing; the lines' width is the peaks' typical one.
     const xOf = inverseOf(context, fit);
-    const widths = peaks.map((p) => p.fwhm).filter((w): w is number => w !== undefined && w > 0).sort((a, b) => a - b);
-    const fwhmX = widths.length > 0 ? widths[widths.length >> 1] : undefined;
+    const fwhmX = typicalPeakFwhm(peaks);
     const blended = (l: number) => fwhmX !== undefined && lampLineBlended(lines, candidateLines, l, xOf, fwhmX);
     const inRange = candidateLines.filter((l) => lines[l].wavelengthNm >= low && lines[l].wavelengthNm <= high);
     const blendedX = inRange.filter(blended).map((l) => xOf(lines[l].wavelengthNm));

@@ -1,3 +1,4 @@
+
 // The blind search of automatic lamp pairing, knowing only the nominal range and the kind of
 // dispersion. Short-baseline hypotheses first: two strong peaks a few per cent of the array apart,
 // paired with two lamp lines that the nominal range puts near them at a plausible local dispersion,
@@ -13,6 +14,7 @@ import { growthDegree } from "./growth-degree";
 import type { LampLine, LampPair, LampPeak } from "./lamp-pairing-types";
 import { firstAtOrAbove } from "../signal/first-at-or-above";
 import { toLampPair } from "./to-lamp-pair";
+import { typicalPeakFwhm } from "./typical-peak-fwhm";
 import { fitStraightenedPolynomial } from "./straightened-polynomial";
 
 export interface SearchLampPairingInput {
@@ -98,12 +100,8 @@ const MIN_WIDTH_SHARE = 0.45;
 
 /** Indices of the peaks that can be lamp lines: hot pixels (far narrower than the typical peak) left out. */
 export function usableLampPeaks(peaks: readonly LampPeak[]): number[] {
-  const widths = peaks
-    .map((p) => p.fwhm)
-    .filter((w): w is number => w !== undefined && w > 0)
-    .sort((a, b) => a - b);
-  if (widths.length < 3) return peaks.map((_, i) => i);
-  const typical = widths[widths.length >> 1];
+  const typical = typicalPeakFwhm(peaks, 3);
+  if (typical === undefined) return peaks.map((_, i) => i);
   return peaks
     .map((_, i) => i)
     .filter((i) => !(peaks[i].fwhm !== undefined && peaks[i].fwhm! < MIN_WIDTH_SHARE * typical));

@@ -17,6 +17,7 @@ import { modelEvaluation } from "./model-evaluation";
 import type { PairingContext } from "./refine-lamp-pairing";
 import { elementOfSpecies } from "./element-of-species";
 import { growthDegree } from "./growth-degree";
+import { typicalPeakFwhm } from "./typical-peak-fwhm";
 import { fitStraightenedPolynomial } from "./straightened-polynomial";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
@@ -305,11 +306,7 @@ export function verifyLampPairing(
   let seen = 0;
   let expected = 0;
   if (predict) {
-    const widths = context.peaks
-      .map((p) => p.fwhm)
-      .filter((w): w is number => w !== undefined && w > 0)
-      .sort((a, b) => a - b);
-    const fwhmX = widths.length > 0 ? widths[widths.length >> 1] : 2 * tol;
+    const fwhmX = typicalPeakFwhm(context.peaks) ?? 2 * tol;
     const peakX = context.peaks.map((p) => p.x).sort((a, b) => a - b);
     const byElement = new Map<string, number[]>();
     for (const l of context.candidateLines) {
