@@ -13,6 +13,7 @@ import { toLampPair } from "./to-lamp-pair";
 import { typicalPeakFwhm } from "./typical-peak-fwhm";
 import { fitForwardHartmann } from "./fit-forward-hartmann";
 import { verifyLampPairing } from "./verify-lamp-pairing";
+import { trimPulledEnds } from "./trim-pulled-ends";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
 /** Everything the refinement needs, prepared by the caller. */
@@ -196,7 +197,7 @@ export function finishLampPairing(context: PairingContext, refined: RefinedPairi
   const rmsX = forward
     ? Math.sqrt(usedPairs.reduce((s, p) => s + (p.x - forward(p.wavelengthNm)) ** 2, 0) / (usedPairs.length - 4))
     : refined.rmsX;
-  return judge(context, usedPairs, fit, rmsX);
+  return withCheckedEnds(context, judge(context, usedPairs, fit, rmsX));
 }
 
 /**
@@ -243,6 +244,29 @@ function finishPrismPairing(context: PairingContext, refined: RefinedPairing): L
   return judgeFitted(context, pairs, fit);
 }
 
+/**
+ * A trusted automatic pairing claims its ends only where more than one pair stands behind them: the
+ * checks judged the whole pairing; end pairs that carry the calibration alone are then set aside and
+ * the covered range ends at the next pair.
+ */
+function withCheckedEnds(context: PairingContext, result: LampPairingResult): LampPairingResult {
+  const fwhmX = typicalPeakFwhm(context.peaks);
+  if (result.status !== "paired" || !result.model || context.forced.size > 0 || fwhmX === undefined) return result;
+  const { pairs, fit, trimmed } = trimPulledEnds(result.pairs, result.model, context.domain, fwhmX);
+  if (trimmed.length === 0) return result;
+  const setAside = new Set(trimmed.map((p) => p.peakIndex));
+  return {
+    ...result,
+    pairs,
+    model: fit,
+    unmatchedPeaks: [...result.unmatchedPeaks, ...context.peaks.filter((_, i) => setAside.has(i))],
+    message:
+      `${result.message}; ${trimmed.length} end pair${trimmed.length > 1 ? "s" : ""} set aside ` +
+      `(${trimmed.map((p) => `${p.species ?? ""} ${p.wavelengthNm.toFixed(3)} nm`.trim()).join(", ")}): ` +
+      `the calibration there rested on ${trimmed.length > 1 ? "them" : "it"} alone`,
+  };
+}
+
 /** Judges a final fit of `pairs`: its used pairs, and its precision in x (residuals through the local dispersion). */
 function judgeFitted(context: PairingContext, pairs: LampPair[], fit: FitCalibrationResult): LampPairingResult {
   const usedPairs = pairs.filter((_, i) => fit.pairs[i].used);
@@ -251,7 +275,7 @@ function judgeFitted(context: PairingContext, pairs: LampPair[], fit: FitCalibra
   const rmsX = Math.sqrt(
     usedFitted.reduce((s, p, i) => s + (p.residualNm / dispersion[i]) ** 2, 0) / Math.max(usedFitted.length - fit.model.parameters.length, 1),
   );
-  return judge(context, usedPairs, fit, rmsX);
+  return withCheckedEnds(context, judge(context, usedPairs, fit, rmsX));
 }
 
 /**
