@@ -8,7 +8,11 @@ import type { LampLine, LampPairingResult } from "../calibration/lamp-pairing-ty
 import { findPeaks } from "../peaks/find-peaks";
 import { binSamples } from "../signal/bin-samples";
 import { binningFactorFor } from "../signal/binning-factor-for";
+import { removeSpikes } from "../signal/remove-spikes";
 import type { DispersionKind, Peak } from "../types";
+
+/** Lines narrower than this many samples (FWHM) could pass for hot pixels, which are then left alone. */
+const MIN_SAMPLES_PER_LINE_TO_DESPIKE = 2;
 
 /** Fewest samples of a lamp spectrum (the peak finder's smoothing needs this many). */
 const MIN_SAMPLES = 16;
@@ -92,7 +96,11 @@ function calibrateCheckedLamp(x: Float64Array, y: Float64Array, lines: LampLine[
   const spanNm = Math.abs(options.nominalRangeNm[1] - options.nominalRangeNm[0]);
   const resolutionNm = options.resolutionNm ?? spanNm / 500;
   const factor = binningFactorFor(resolutionNm / (spanNm / (x.length - 1)));
-  const binned = binSamples(x, y, { factor });
+  // Hot pixels go first, while they are still one sample wide (binning or smoothing would widen them
+  // into line-like peaks); only where lines span two samples or more, so no line can be taken for one.
+  const samplesPerLine = resolutionNm / (spanNm / Math.max(x.length - 1, 1));
+  const despiked = samplesPerLine >= MIN_SAMPLES_PER_LINE_TO_DESPIKE ? removeSpikes(y).y : y;
+  const binned = binSamples(x, despiked, { factor });
   const peaks = findPeaks(binned.x, binned.y, { source: "lamp", minSnr });
   const domain: [number, number] = [x[0], x[x.length - 1]];
   const pairing = autoPairLampPeaks(peaks, lines, {

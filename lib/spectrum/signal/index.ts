@@ -20,3 +20,4 @@ export { assertStrictlyIncreasing } from "./assert-strictly-increasing";
 export { assertIntegerInRange } from "./assert-integer-in-range";
 export { binSamples, type BinSamplesOptions } from "./bin-samples";
 export { binningFactorFor } from "./binning-factor-for";
+export { removeSpikes, type RemoveSpikesOptions, type RemovedSpikes } from "./remove-spikes";
