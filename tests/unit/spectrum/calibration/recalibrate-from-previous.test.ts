@@ -84,6 +84,30 @@ describe("recalibration from the previous calibration", () => {
     );
   });
 
+  it("claims only the part of the array its lines fix well enough when they stand in part of it", () => {
+    const previous = previousOf(yesterdayNm);
+    const todayPx = (nm: number) => 0.999 * yesterdayPx(nm) + 2.2;
+    // A lamp whose table lines all land in the last 45 % of the array today (neon's red lines).
+    const redLines = HG_NE_AR_LINES.filter((line) => todayPx(line.wavelengthNm) > 1120);
+    const peaks = lampPeaks(redLines, todayPx, 11);
+    const result = autoPairLampPeaks(peaks, redLines, { ...options, previous });
+    expect(result.status).toBe("paired");
+    const model = result.model!.model;
+    // Covered: where the lines are and a little beyond, not the blue end of the array.
+    expect(model.coveredX[0]).toBeLessThanOrEqual(Math.min(...result.pairs.map((p) => p.x)));
+    expect(model.coveredX[1]).toBeGreaterThanOrEqual(Math.max(...result.pairs.map((p) => p.x)));
+    expect(model.coveredX[0]).toBeGreaterThan(500);
+    const xs = Float64Array.from(
+      { length: 9 },
+      (_, i) => model.coveredX[0] + ((model.coveredX[1] - model.coveredX[0]) * i) / 8,
+    );
+    const calibrated = evaluateCalibration(model, xs);
+    // Within a tenth of the 0.5 nm FWHM everywhere it claims.
+    xs.forEach((x, i) =>
+      expect(Math.abs(calibrated[i] - yesterdayNm((x - 2.2) / 0.999))).toBeLessThan(0.05),
+    );
+  });
+
   it("does not trust a lamp whose lines repeat so evenly that another drift fits as well", () => {
     // A comb: a line every 5 nm (50 px, inside the searched shift of ±61 px), all equally strong.
     const comb: LampLine[] = Array.from({ length: 40 }, (_, i) => ({
