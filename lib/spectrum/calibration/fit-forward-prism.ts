@@ -31,6 +31,12 @@ export interface FitForwardPrismOptions {
    * @default true
    */
   fitAxisAngle?: boolean;
+  /**
+   * Incidence (rad) of an earlier fit of nearly the same pairs: the scan for the χ² minimum starts
+   * around it and widens to the whole range only when the minimum lies at the edge of that window.
+   * @default undefined (the whole range is scanned)
+   */
+  startIncidenceRad?: number;
 }
 
 /** A forward prism fit of one glass: χ², and x with its prediction interval at any λ. */
@@ -114,17 +120,25 @@ export function fitForwardPrism(points: readonly ForwardHartmannPoint[], glass: 
   // scan around minimum deviation brackets the minimum before the golden-section search.
   const minimumDeviation = Math.asin(Math.min(nReference * Math.sin(apexRad / 2), 1));
   const stepRad = 0.5 * DEG;
-  let bestIncidence = Number.NaN;
-  let bestChiSquare = Infinity;
-  for (let offsetDeg = -25; offsetDeg <= 35; offsetDeg += 0.5) {
-    const incidence = minimumDeviation + offsetDeg * DEG;
-    if (incidence <= 0 || incidence >= Math.PI / 2) continue;
-    const { chiSquare } = profile(incidence);
-    if (chiSquare < bestChiSquare) {
-      bestChiSquare = chiSquare;
-      bestIncidence = incidence;
+  /** The best incidence on a 0.5° grid of offsets (degrees) from `centre`, and whether it lies inside. */
+  const scan = (centre: number, fromDeg: number, toDeg: number) => {
+    let best = { incidence: Number.NaN, chiSquare: Infinity, inside: false };
+    for (let offsetDeg = fromDeg; offsetDeg <= toDeg; offsetDeg += 0.5) {
+      const incidence = centre + offsetDeg * DEG;
+      if (incidence <= 0 || incidence >= Math.PI / 2) continue;
+      const { chiSquare } = profile(incidence);
+      if (chiSquare < best.chiSquare) {
+        best = { incidence, chiSquare, inside: offsetDeg > fromDeg && offsetDeg < toDeg };
+      }
     }
-  }
+    return best;
+  };
+  // Growth refits nearly the same pairs many times: around the last incidence a few degrees suffice.
+  const start = options.startIncidenceRad;
+  let found = start !== undefined && Number.isFinite(start) ? scan(start, -3, 3) : null;
+  if (!found || !found.inside || !Number.isFinite(found.chiSquare)) found = scan(minimumDeviation, -25, 35);
+  const bestIncidence = found.incidence;
+  const bestChiSquare = found.chiSquare;
   if (!Number.isFinite(bestChiSquare)) {
     throw new CalibrationError("fit-failed", `${glass}: no prism geometry passes all the pairs' wavelengths`);
   }

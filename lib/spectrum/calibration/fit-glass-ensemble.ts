@@ -31,6 +31,12 @@ export interface FitGlassEnsembleOptions {
    * @default every catalogue glass
    */
   glasses?: readonly GlassName[];
+  /**
+   * Each glass's incidence from an earlier fit of nearly the same pairs (read to start each glass's
+   * search there, and updated with this fit's).
+   * @default undefined (every glass searched from scratch)
+   */
+  incidenceStarts?: Map<GlassName, number>;
 }
 
 /** The kept glasses and what they say together. */
@@ -48,14 +54,26 @@ export interface GlassEnsemble {
 }
 
 /** Fits every glass to `points` and keeps the well-supported ones; null when no glass fits at all. */
-export function fitGlassEnsemble(points: readonly ForwardHartmannPoint[], options: FitGlassEnsembleOptions = {}): GlassEnsemble | null {
+export function fitGlassEnsemble(
+  points: readonly ForwardHartmannPoint[],
+  options: FitGlassEnsembleOptions = {},
+): GlassEnsemble | null {
   const { maxDeltaAicc = 4, apexDeg = 60, fitAxisAngle = true, glasses = GLASS_NAMES } = options;
   if (!(maxDeltaAicc >= 0)) throw new RangeError(`maxDeltaAicc must be ≥ 0, got ${maxDeltaAicc}`);
   const scored: { fit: ForwardPrismFit; aicc: number }[] = [];
   const wavelengths = points.map((p) => p.wavelengthNm);
-  for (const glass of glassesValidOver([Math.min(...wavelengths), Math.max(...wavelengths)], glasses)) {
+  for (const glass of glassesValidOver(
+    [Math.min(...wavelengths), Math.max(...wavelengths)],
+    glasses,
+  )) {
     try {
-      const fit = fitForwardPrism(points, glass, { apexDeg, fitAxisAngle });
+      const starts = options.incidenceStarts;
+      const fit = fitForwardPrism(points, glass, {
+        apexDeg,
+        fitAxisAngle,
+        ...(starts?.has(glass) ? { startIncidenceRad: starts.get(glass) } : {}),
+      });
+      starts?.set(glass, fit.parameters[0]);
       const { aicc } = informationCriteria(fit.chiSquare, points.length, fit.parameters.length);
       if (Number.isFinite(aicc)) scored.push({ fit, aicc });
     } catch {
@@ -76,7 +94,8 @@ export function fitGlassEnsemble(points: readonly ForwardHartmannPoint[], option
   return {
     fits: kept.map((s) => s.fit),
     bestAicc,
-    predictX: (wavelengthNm) => predictions(wavelengthNm).reduce((sum, x, i) => sum + weights[i] * x, 0) / totalWeight,
+    predictX: (wavelengthNm) =>
+      predictions(wavelengthNm).reduce((sum, x, i) => sum + weights[i] * x, 0) / totalWeight,
     spreadX,
     predictionSigmaX: (wavelengthNm, peakSigmaX) =>
       Math.hypot(kept[0].fit.predictionSigmaX(wavelengthNm, peakSigmaX), spreadX(wavelengthNm)),

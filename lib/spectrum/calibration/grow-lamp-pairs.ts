@@ -8,6 +8,7 @@
 // (the instrument's glass is not in the catalogue) does Hartmann predict instead.
 import { fitForwardHartmann, type ForwardHartmannFit } from "./fit-forward-hartmann";
 import { fitGlassEnsemble } from "./fit-glass-ensemble";
+import type { GlassName } from "./glass-catalogue";
 import { informationCriteria } from "./information-criteria";
 import { heightInBand, lampHeightBand } from "./lamp-height-band";
 import { lampLineBlended } from "./lamp-line-blended";
@@ -112,6 +113,8 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
   };
 
   let start: number[] | undefined;
+  // Each glass's last incidence: growth refits nearly the same pairs, and its search starts there.
+  const incidenceStarts = new Map<GlassName, number>();
   const glassFree = (subset: LampPair[]): { fit: ForwardHartmannFit; predictor: Predictor } | null => {
     try {
       const result = fitForwardHartmann(subset, { poleBelowNm: bluestCandidateNm, ...(start ? { start } : {}) });
@@ -140,7 +143,7 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
     // strays slip into. The centred form is stiffer, and its bias (about a pixel at the far ends) stays
     // inside windows that the glass spread and the glass-free σ widen anyway; the final calibration
     // fits the axis angle.
-    const ensemble = fitGlassEnsemble(subset, { maxDeltaAicc, fitAxisAngle: false });
+    const ensemble = fitGlassEnsemble(subset, { maxDeltaAicc, fitAxisAngle: false, incidenceStarts });
     if (!ensemble) return hartmann?.predictor ?? null;
     // The centred physical model has one parameter fewer; when no glass fits the pairs as well as the
     // glass-free form does, the instrument's glass is not among them and Hartmann predicts instead.

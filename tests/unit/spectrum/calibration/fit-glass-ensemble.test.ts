@@ -49,6 +49,19 @@ describe("fitForwardPrism", () => {
     expect(Math.abs(exact.predictX(365.015) - prismX(365.015))).toBeLessThan(1e-3);
   });
 
+  it("finds the same geometry from an earlier fit's incidence, near or far off", () => {
+    const all = pairs(350, 900);
+    const scratch = fitForwardPrism(all, "F2", { fitAxisAngle: false });
+    for (const offsetDeg of [0.7, -2.2, 20]) {
+      const started = fitForwardPrism(all, "F2", {
+        fitAxisAngle: false,
+        startIncidenceRad: scratch.parameters[0] + (offsetDeg * Math.PI) / 180,
+      });
+      expect(started.parameters[0]).toBeCloseTo(scratch.parameters[0], 7);
+      expect(started.chiSquare).toBeCloseTo(scratch.chiSquare, 6);
+    }
+  });
+
   it("fits a crown glass to flint pairs far worse than the flint", () => {
     const all = pairs(350, 900);
     expect(fitForwardPrism(all, "N-BK7").chiSquare).toBeGreaterThan(100 * fitForwardPrism(all, "F2").chiSquare);
