@@ -1,0 +1,102 @@
+// One peak is no proof when another credible species has a line there too: two species whose only
+// evidence is the same peak are both "possible", with the interference named; a faint line of a species
+// seen strongly elsewhere does not stand in the way of a strong peak's own species.
+// The species and wavelengths are invented (a test table, not the trade's data).
+import { describe, expect, it } from "vitest";
+import { identifyElements } from "@/lib/spectrum/matching";
+import type { CalibratedPeak, ReferenceLine } from "@/lib/spectrum/types";
+
+function line(species: string, airNm: number, flame: number | null): ReferenceLine {
+  const [element] = species.split(" ");
+  return {
+    id: `${species}-${airNm}`,
+    species,
+    element,
+    ionStage: 1,
+    airNm,
+    vacuumNm: airNm * 1.00028,
+    uncertaintyNm: 0.002,
+    intensities: flame === null ? {} : { flame },
+    flags: {},
+  };
+}
+
+function peak(wavelengthNm: number, snr: number): CalibratedPeak {
+  return {
+    index: Math.round(wavelengthNm),
+    x: wavelengthNm,
+    xUncertainty: 0.003,
+    height: 10 * snr,
+    fwhm: 0.3,
+    area: 3 * snr,
+    snr,
+    saturated: false,
+    blended: false,
+    wavelengthNm,
+    wavelengthUncertaintyNm: 0.003,
+    fwhmNm: 0.3,
+    resolutionNm: 0.3,
+  };
+}
+
+const options = {
+  source: "flame" as const,
+  rangeNm: [400, 700] as [number, number],
+  resolutionNm: 0.3,
+};
+const verdict = (result: ReturnType<typeof identifyElements>, species: string) =>
+  result.calls.find((c) => c.species === species)?.verdict;
+
+describe("a present call on one peak that another species explains", () => {
+  it("makes a species whose lines all sit in one peak possible when another species explains it", () => {
+    // Xa's two lines blend into the one peak (which alone would score it present); Yb's line is there too.
+    const table = [
+      line("Xa I", 520.0, 1000),
+      line("Xa I", 520.02, 800),
+      line("Yb I", 520.03, 1000),
+    ];
+    const result = identifyElements([peak(520.015, 400)], table, options);
+    expect(verdict(result, "Xa I")).toBe("possible");
+    expect(verdict(result, "Yb I")).toBe("possible");
+    const xa = result.calls.find((c) => c.species === "Xa I")!;
+    expect(xa.notes).toContain(
+      "Interference: Yb I also explains the only peak seen, at 520.01 nm; another line of Xa I would decide.",
+    );
+    expect(xa.rationale).toMatch(/^Possible:.*Yb I has a line there too\.$/);
+  });
+
+  it("leaves the call present when a second peak of its own backs it", () => {
+    const table = [
+      line("Xa I", 520.0, 1000),
+      line("Xa I", 520.02, 800),
+      line("Xa I", 590.0, 500),
+      line("Yb I", 520.03, 1000),
+    ];
+    const result = identifyElements([peak(520.015, 400), peak(590.0, 200)], table, options);
+    expect(verdict(result, "Xa I")).toBe("present");
+  });
+
+  it("keeps a strong peak's species present when the other's line there is one of its faintest", () => {
+    // Zc is seen strongly at 610 nm; its line at 520.03 nm is a thousandth of that, so it cannot make
+    // a peak of SNR 400: Xa's principal line is the only explanation.
+    const table = [line("Xa I", 520.0, 1000), line("Zc I", 610.0, 1000), line("Zc I", 520.03, 1)];
+    const result = identifyElements([peak(520.015, 400), peak(610.0, 500)], table, options);
+    expect(verdict(result, "Xa I")).toBe("present");
+    expect(verdict(result, "Zc I")).toBe("present");
+  });
+
+  it("judges a line the table gives no intensity by the species' faintest rated line seen", () => {
+    const table = [
+      line("Xa I", 520.0, 1000),
+      line("Zc I", 610.0, 1000),
+      line("Zc I", 640.0, 2),
+      line("Zc I", 520.03, null),
+    ];
+    const result = identifyElements(
+      [peak(520.015, 400), peak(610.0, 500), peak(640.0, 20)],
+      table,
+      options,
+    );
+    expect(verdict(result, "Xa I")).toBe("present");
+  });
+});
