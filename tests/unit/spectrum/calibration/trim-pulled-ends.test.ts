@@ -61,6 +61,19 @@ describe("trimPulledEnds", () => {
     expect(trimmed.trimmed.map((p) => p.wavelengthNm)).toEqual([795]);
   });
 
+  it("still sets aside a far end pair that is clearly wrong, wherever the end then rests", () => {
+    const pairs = pairsAt(
+      [...Array.from({ length: 10 }, (_, i) => 405 + 15 * i), 650, 720, 795],
+      6,
+    );
+    pairs[11] = { ...pairs[11], x: pairs[11].x + 0.125 * FWHM_X };
+    pairs[10] = { ...pairs[10], x: pairs[10].x - 0.125 * FWHM_X };
+    // 795 nm paired with a peak two line widths away.
+    pairs[12] = { ...pairs[12], x: pairs[12].x + 2 * FWHM_X };
+    const trimmed = trimPulledEnds(pairs, cubicOf(pairs), DOMAIN, FWHM_X);
+    expect(trimmed.trimmed.map((p) => p.wavelengthNm)).toContain(795);
+  });
+
   it("leaves a short pairing alone", () => {
     const pairs = pairsAt(evenly(8), 4);
     pairs[7] = { ...pairs[7], x: pairs[7].x + FWHM_X };
