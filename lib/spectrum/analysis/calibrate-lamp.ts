@@ -95,10 +95,10 @@ function calibrateCheckedLamp(x: Float64Array, y: Float64Array, lines: LampLine[
   // per line first: the smoothing window is sized for lines a few samples wide.
   const spanNm = Math.abs(options.nominalRangeNm[1] - options.nominalRangeNm[0]);
   const resolutionNm = options.resolutionNm ?? spanNm / 500;
-  const factor = binningFactorFor(resolutionNm / (spanNm / (x.length - 1)));
+  const samplesPerLine = resolutionNm / (spanNm / (x.length - 1));
+  const factor = binningFactorFor(samplesPerLine);
   // Hot pixels go first, while they are still one sample wide (binning or smoothing would widen them
   // into line-like peaks); only where lines span two samples or more, so no line can be taken for one.
-  const samplesPerLine = resolutionNm / (spanNm / Math.max(x.length - 1, 1));
   const despiked = samplesPerLine >= MIN_SAMPLES_PER_LINE_TO_DESPIKE ? removeSpikes(y).y : y;
   const binned = binSamples(x, despiked, { factor });
   const peaks = findPeaks(binned.x, binned.y, { source: "lamp", minSnr });

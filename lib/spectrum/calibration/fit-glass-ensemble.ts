@@ -62,12 +62,12 @@ export function fitGlassEnsemble(
   if (!(maxDeltaAicc >= 0)) throw new RangeError(`maxDeltaAicc must be ≥ 0, got ${maxDeltaAicc}`);
   const scored: { fit: ForwardPrismFit; aicc: number }[] = [];
   const wavelengths = points.map((p) => p.wavelengthNm);
+  const starts = options.incidenceStarts;
   for (const glass of glassesValidOver(
     [Math.min(...wavelengths), Math.max(...wavelengths)],
     glasses,
   )) {
     try {
-      const starts = options.incidenceStarts;
       const fit = fitForwardPrism(points, glass, {
         apexDeg,
         fitAxisAngle,

@@ -1,4 +1,3 @@
-
 // The blind search of automatic lamp pairing, knowing only the nominal range and the kind of
 // dispersion. Short-baseline hypotheses first: two strong peaks a few per cent of the array apart,
 // paired with two lamp lines that the nominal range puts near them at a plausible local dispersion,
