@@ -260,6 +260,7 @@ function withCheckedEnds(context: PairingContext, result: LampPairingResult): La
     pairs,
     model: fit,
     unmatchedPeaks: [...result.unmatchedPeaks, ...context.peaks.filter((_, i) => setAside.has(i))],
+    unmatchedLines: [...result.unmatchedLines, ...trimmed.map((p) => context.lines[p.lineIndex])],
     message:
       `${result.message}; ${trimmed.length} end pair${trimmed.length > 1 ? "s" : ""} set aside ` +
       `(${trimmed.map((p) => `${p.species ?? ""} ${p.wavelengthNm.toFixed(3)} nm`.trim()).join(", ")}): ` +
