@@ -4,6 +4,7 @@
 import { analyzeSample } from "@/lib/spectrum/analysis/analyze-sample";
 import { prepareLineIndex } from "@/lib/spectrum/matching";
 import type { SampleAnalysis } from "@/lib/spectrum/analysis/analyze-sample";
+import type { ReferenceLine, SourceKind } from "@/lib/spectrum/types";
 import { STARTER_TABLE } from "./realistic-lamp";
 import {
   BAND_METAL,
@@ -39,21 +40,54 @@ const cpuMs = (start: NodeJS.CpuUsage) => {
 /** The metal a call stands for: its element, or a band molecule's metal. */
 const metalOf = (element: string) => BAND_METAL[element] ?? element;
 
-function singleLinePresents(analysis: SampleAnalysis): string[] {
+/** A share of a peak a rival must be able to make to explain it, and the SNR a line needs to show
+ * (twice a detection limit of 3; common practice). */
+const EXPLAINING_SHARE = 0.3;
+const SHOWING_SNR = 6;
+const SOURCES: SourceKind[] = ["arc", "spark", "plasma", "lamp", "flame"];
+
+/**
+ * "Present" calls resting on one peak that a line of another element in the table also explains,
+ * judged from the table alone: a line of another species within half the peak's FWHM, which could
+ * make 30 % of the peak given that species' strongest line in range (by the table's intensities for
+ * the source, or for the first other source it rates where it rates none for this one; a line
+ * without one counts as the species' faintest rated line): either that strongest
+ * line would stay below SNR 6 at that share, or a peak stands at it bright enough to go with it.
+ */
+function singleLinePresents(analysis: SampleAnalysis, source: SourceKind): string[] {
   const out: string[] = [];
+  const [from, to] = analysis.rangeNm;
+  const peakNear = (nm: number, halfNm: number) =>
+    analysis.peaks.find((p) => Math.abs(p.wavelengthNm - nm) <= halfNm);
   for (const call of analysis.identification.calls) {
     if (call.verdict !== "present" || call.ionStage === null) continue;
     const peaks = new Set(call.seen.map((s) => s.peakIndex));
     if (call.seenCount === 0 || peaks.size !== 1) continue;
     const peak = analysis.peaks[call.seen[0].peakIndex];
-    // Another element's line within half the peak's FWHM (or its named overlap) explains it as well.
     const halfNm = 0.5 * (peak.resolutionNm ?? peak.fwhmNm);
-    const other =
-      call.overlaps.length > 0 ||
-      STARTER_TABLE.some(
-        (l) => l.element !== call.element && Math.abs(l.airNm - peak.wavelengthNm) <= halfNm,
+    const explains = (rival: ReferenceLine) => {
+      if (rival.element === call.element || Math.abs(rival.airNm - peak.wavelengthNm) > halfNm) {
+        return false;
+      }
+      const own = STARTER_TABLE.filter((l) => l.species === rival.species);
+      const basis = [source, ...SOURCES].find((kind) =>
+        own.some((l) => (l.intensities[kind] ?? 0) > 0),
       );
-    if (other) out.push(call.species);
+      if (basis === undefined) return true;
+      const rated = own.filter(
+        (l) => l.airNm >= from && l.airNm <= to && (l.intensities[basis] ?? 0) > 0,
+      );
+      if (rated.length === 0) return true;
+      const strongest = rated.reduce((a, b) =>
+        b.intensities[basis]! > a.intensities[basis]! ? b : a,
+      );
+      const here = rival.intensities[basis] ?? Math.min(...rated.map((l) => l.intensities[basis]!));
+      const ratio = strongest.intensities[basis]! / here;
+      if (EXPLAINING_SHARE * peak.snr * ratio < SHOWING_SNR) return true;
+      const atStrongest = peakNear(strongest.airNm, halfNm);
+      return atStrongest !== undefined && atStrongest.snr / ratio >= EXPLAINING_SHARE * peak.snr;
+    };
+    if (STARTER_TABLE.some(explains)) out.push(call.species);
   }
   return out;
 }
@@ -85,7 +119,7 @@ export function sweepSample(sample: RealisticSample): SampleSweepRecord {
     return {
       ...base,
       present: [...present].sort(),
-      singleExplained: singleLinePresents(analysis),
+      singleExplained: singleLinePresents(analysis, sample.source),
       exception: null,
       cpuMs: cpuMs(start),
     };

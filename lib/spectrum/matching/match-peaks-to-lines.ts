@@ -51,6 +51,11 @@ export interface PeakMatch {
   candidates: LineCandidate[];
 }
 
+/** A band at least this many instrument FWHM long is resolved (common practice, no source)… */
+const RESOLVED_BAND_WIDTHS = 4;
+/** …and a peak narrower than this many instrument FWHM is a line, not that band. */
+const RESOLVED_BAND_MIN_FWHM = 1.5;
+
 /** Guards against a zero tolerance when every contribution happens to be zero. */
 const MINIMUM_SIGMA_NM = 1e-6;
 
@@ -91,7 +96,11 @@ export function matchPeaksToLines(
     // A blended peak's components can lie anywhere across its own width, not only within the
     // instrument's: its centroid may then sit up to half that width from either of them.
     const resolutionFwhmNm =
-      instrumentNm === undefined ? peak.fwhmNm : peak.blended ? Math.max(instrumentNm, peak.fwhmNm) : instrumentNm;
+      instrumentNm === undefined
+        ? peak.fwhmNm
+        : peak.blended
+          ? Math.max(instrumentNm, peak.fwhmNm)
+          : instrumentNm;
     const sigmaResNm = resolutionSigmaFraction * resolutionFwhmNm;
     const baseVarianceNm2 = peak.wavelengthUncertaintyNm ** 2 + sigmaResNm ** 2;
     const candidates: LineCandidate[] = [];
@@ -99,7 +108,9 @@ export function matchPeaksToLines(
     const lineReachNm = k * Math.sqrt(baseVarianceNm2 + index.maxLineUncertaintyNm ** 2);
     // Several instrument widths wide is a band, a blend of many lines or continuum structure:
     // no single atomic line explains it, and its wide window would catch lines by chance.
-    const from = peak.broad ? index.lineWavelengthNm.length : lowerBound(index.lineWavelengthNm, peak.wavelengthNm - lineReachNm);
+    const from = peak.broad
+      ? index.lineWavelengthNm.length
+      : lowerBound(index.lineWavelengthNm, peak.wavelengthNm - lineReachNm);
     for (let i = from; i < index.lineWavelengthNm.length; i++) {
       const referenceNm = index.lineWavelengthNm[i];
       if (referenceNm > peak.wavelengthNm + lineReachNm) break;
@@ -143,7 +154,15 @@ export function matchPeaksToLines(
         const zoneNm = bandHeadZoneFraction * band.extentNm;
         const outsideNm = depthNm < 0 ? depthNm : Math.max(0, depthNm - zoneNm);
         const deltaSigma = outsideNm / sigmaNm;
-        if (Math.abs(deltaSigma) <= k) {
+        // A band's feature spans at most its extent, blurred by the instrument at either end (and
+        // merged with a neighbouring head's): a peak wider than that is continuum or many lines.
+        const widestNm = band.extentNm + 2 * (instrumentNm ?? 0);
+        // A band several instrument widths long is resolved: its feature is wider than a line's.
+        const narrowestNm =
+          instrumentNm !== undefined && band.extentNm >= RESOLVED_BAND_WIDTHS * instrumentNm
+            ? RESOLVED_BAND_MIN_FWHM * instrumentNm
+            : 0;
+        if (Math.abs(deltaSigma) <= k && peak.fwhmNm <= widestNm && peak.fwhmNm >= narrowestNm) {
           candidates.push({
             lineIndex,
             line,
@@ -180,7 +199,10 @@ function assertPeak(peak: CalibratedPeak, position: number): void {
   if (!(peak.fwhmNm >= 0) || !Number.isFinite(peak.fwhmNm)) {
     throw new RangeError(`peak ${position} has an invalid fwhmNm: ${peak.fwhmNm}`);
   }
-  if (peak.resolutionNm !== undefined && (!(peak.resolutionNm > 0) || !Number.isFinite(peak.resolutionNm))) {
+  if (
+    peak.resolutionNm !== undefined &&
+    (!(peak.resolutionNm > 0) || !Number.isFinite(peak.resolutionNm))
+  ) {
     throw new RangeError(`peak ${position} has an invalid resolutionNm: ${peak.resolutionNm}`);
   }
 }

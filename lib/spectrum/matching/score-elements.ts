@@ -514,7 +514,14 @@ export function scoreElements(
     }
     call.overlaps = call.overlaps.filter((overlap) => overlap.otherSpecies.length > 0);
   }
-  demoteSingleLineInterferences(calls);
+  demoteSinglePeakCalls(calls, {
+    matchByPeak,
+    work,
+    index,
+    isMatched,
+    hiding,
+    missingSnr,
+  });
   calls.sort(byStanding);
 
   const overlaps: PeakOverlap[] = [];
@@ -561,46 +568,143 @@ const EXPLAINING_SHARE = 0.3;
  * no stronger than the rival's faintest rated line seen (the table rates a species' strong lines).
  * Without a rated line seen elsewhere, it could.
  */
-function couldMake(rival: ElementCall, peakIndex: number): boolean {
-  const here = rival.seen.find((s) => s.peakIndex === peakIndex);
-  if (!here || !(here.snr > 0)) return true;
+function couldMake(
+  rival: ElementCall,
+  peakIndex: number,
+  relativeHere: number,
+  peakSnr: number,
+): boolean {
+  if (!(peakSnr > 0)) return true;
   const elsewhere = rival.seen.filter(
     (s) => s.peakIndex !== peakIndex && s.relativeIntensity !== null && s.relativeIntensity > 0,
   );
   if (elsewhere.length === 0) return true;
   const anchor = elsewhere.reduce((a, b) => (b.relativeIntensity! > a.relativeIntensity! ? b : a));
-  const relative =
-    here.relativeIntensity ?? Math.min(...elsewhere.map((s) => s.relativeIntensity!));
+  const relative = Number.isNaN(relativeHere)
+    ? Math.min(...elsewhere.map((s) => s.relativeIntensity!))
+    : relativeHere;
   const expectedSnr = (anchor.snr * relative) / anchor.relativeIntensity!;
-  return expectedSnr >= EXPLAINING_SHARE * here.snr;
+  return expectedSnr >= EXPLAINING_SHARE * peakSnr;
+}
+
+interface SinglePeakContext {
+  matchByPeak: Map<number, PeakMatch>;
+  work: Map<string, SpeciesWork>;
+  index: LineIndex;
+  isMatched: (lineIndex: number) => boolean;
+  hiding: HidingPeaks;
+  missingSnr: number;
 }
 
 /**
- * One peak is no proof when another credible species (not called absent on its own lines) has a line
- * there too: a "present" call resting on a single peak becomes "possible", naming the interference and
- * what would decide it. Two single-peak calls on one peak both become "possible": neither is present on
- * that evidence alone. A rival explains the peak only if its line there could make it (couldMake).
- * Measured on the sample sweep (seeds 12, 77 and 55; n 200, 300, 300): false present 2.12 → 1.24 %,
- * 1.96 → 1.33 % and 2.02 → 1.27 % of absent pairs; recall 64.8 → 64.1 %, 65.4 → 64.9 % and 65.3 →
- * 64.2 % (the calls lost are Mn beside Mg II at 279.8 nm in arcs, an interference the issue names).
+ * Whether `rival`, had it made this peak alone with its line `lineIndex`, would have shown no other
+ * line: every line of it in range that would then stand at missingSnr or more is matched to some peak
+ * or may hide in a stronger one's wing. A line the table gives no intensity is taken as the rival's
+ * faintest rated line in range (the table rates a species' strong lines). A rival without intensities
+ * is not weighed and always could.
  */
-function demoteSingleLineInterferences(calls: ElementCall[]): void {
-  const callOf = new Map(calls.map((call) => [call.species, call]));
-  for (const call of calls) {
-    if (call.verdict !== "present" || call.ionStage === null || evidencePeaks(call) !== 1) continue;
-    const overlap = call.overlaps[0];
-    if (!overlap) continue;
-    // The overlaps already hold only species not called absent.
-    const explainers = overlap.otherSpecies.filter((other) => {
-      const rival = callOf.get(other);
-      return rival !== undefined && rival.ionStage !== null && couldMake(rival, overlap.peakIndex);
+function unseenLinesAllow(
+  rival: SpeciesWork,
+  lineIndex: number,
+  peakSnr: number,
+  context: SinglePeakContext,
+): boolean {
+  const { relative, maxTree } = rival.info.scale;
+  const { order, nm } = rival.info.lines;
+  const ranges = [rival.info.atomicInRange, rival.info.bandsInRange];
+  let here = relative[context.index.positionInSpecies[lineIndex]];
+  if (Number.isNaN(here)) {
+    here = Infinity;
+    for (const [from, to] of ranges) {
+      for (let p = from; p < to; p++) if (relative[p] < here) here = relative[p];
+    }
+    if (here === Infinity) return true;
+  }
+  if (!(peakSnr > 0)) return true;
+  const scale = peakSnr / here;
+  const least = leastRelativeAtLeast(scale, context.missingSnr);
+  let allows = true;
+  for (const [from, to] of ranges) {
+    walkStrongestFirst(maxTree, from, to, least, (p) => {
+      if (context.isMatched(order[p])) return true;
+      if (context.hiding.hiderOf(nm[p], scale * relative[p]) !== null) return true;
+      allows = false;
+      return false;
     });
+    if (!allows) break;
+  }
+  return allows;
+}
+
+/**
+ * One peak is proof only of the species' principal line, and only when no other species in the table
+ * explains it. A "present" call resting on a single peak becomes "possible" when the peak holds none of
+ * its principal line (the strongest for the source), or when another species (of another element) has
+ * a line there that could have made the peak: its unseen lines allow it (unseenLinesAllow) and, when it
+ * is seen elsewhere, its line here is not too faint for the peak (couldMake). Two single-peak calls on
+ * one peak both become "possible": neither is present on that evidence alone.
+ */
+function demoteSinglePeakCalls(calls: ElementCall[], context: SinglePeakContext): void {
+  const callOf = new Map(calls.map((call) => [call.species, call]));
+  const { index } = context;
+  for (const call of calls) {
+    if (call.verdict !== "present" || evidencePeaks(call) !== 1) continue;
+    const peakIndex = call.seen[0].peakIndex;
+    const match = context.matchByPeak.get(peakIndex)!;
+    const peakNm = match.peak.wavelengthNm.toFixed(2);
+    if (!call.seen.some((s) => s.relativeIntensity === 1)) {
+      call.verdict = "possible";
+      call.notes.push(
+        `Only one peak is seen (${peakNm} nm) and it holds none of the principal line of ${call.species}; ` +
+          `its strongest line would decide.`,
+      );
+      call.rationale = `${call.rationale.replace(/^Present:/, "Possible:")} One peak without the principal line is no proof.`;
+      continue;
+    }
+    // The rival's line at the peak most able to make it: its strongest there.
+    const rivalLine = new Map<string, number>();
+    for (const candidate of match.candidates) {
+      const lines = index.species[index.speciesOfLine[candidate.lineIndex]];
+      const rival = context.work.get(lines.species);
+      if (lines.element === call.element || !rival) continue;
+      const relative = (lineIndex: number) =>
+        rival.info.scale.relative[index.positionInSpecies[lineIndex]];
+      const held = rivalLine.get(lines.species);
+      if (held === undefined || relative(candidate.lineIndex) > relative(held)) {
+        rivalLine.set(lines.species, candidate.lineIndex);
+      }
+    }
+    const snr = call.seen[0].snr;
+    const explainers: string[] = [];
+    for (const [species, lineIndex] of rivalLine) {
+      // A rival explains the peak when it could make a fair share of it (EXPLAINING_SHARE) without its
+      // other lines showing. One seen elsewhere must also not be too faint there for the peak, and
+      // when its own lines call it absent at that scale, the share must still be allowed.
+      const rivalCall = callOf.get(species);
+      const seenElsewhere = rivalCall?.seen.some(
+        (s) => s.peakIndex !== peakIndex && s.relativeIntensity !== null && s.relativeIntensity > 0,
+      );
+      const rival = context.work.get(species)!;
+      const allowedByUnseen = () =>
+        unseenLinesAllow(rival, lineIndex, EXPLAINING_SHARE * snr, context);
+      const could = seenElsewhere
+        ? couldMake(
+            rivalCall!,
+            peakIndex,
+            rival.info.scale.relative[index.positionInSpecies[lineIndex]],
+            snr,
+          ) &&
+          (rivalCall!.verdict !== "absent" || allowedByUnseen())
+        : allowedByUnseen();
+      if (could) explainers.push(species);
+    }
     if (explainers.length === 0) continue;
+    explainers.sort();
     call.verdict = "possible";
     const names = explainers.join(", ");
     call.notes.push(
       `Interference: ${names} also explain${explainers.length === 1 ? "s" : ""} the only peak seen, at ` +
-        `${overlap.peakWavelengthNm.toFixed(2)} nm; another line of ${call.species} would decide.`,
+        `${peakNm} nm; another line of ${call.species} would decide.`,
     );
     call.rationale =
       `${call.rationale.replace(/^Present:/, "Possible:")} Only one peak is seen, and ${names} ` +

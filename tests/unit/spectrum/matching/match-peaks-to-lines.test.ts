@@ -116,8 +116,10 @@ describe("matchPeaksToLines", () => {
     });
     const options = { resolutionNm: 1, bandHeadZoneFraction: 0.3 };
     const sigma = Math.sqrt(0.03 ** 2 + 0.1 ** 2 + 1 / 12);
+    // A resolved band's feature is wider than a line: 3 nm at 1 nm resolution.
+    const bandPeak = (nm: number) => peak(nm, 0.03, 3);
     const [inside, past, violetSide, farViolet] = matchPeaksToLines(
-      [peak(555.5), peak(557 + 3.2 * sigma), peak(554 - 2 * sigma), peak(550)],
+      [bandPeak(555.5), bandPeak(557 + 3.2 * sigma), bandPeak(554 - 2 * sigma), bandPeak(550)],
       [band],
       options,
     );
@@ -128,8 +130,29 @@ describe("matchPeaksToLines", () => {
     expect(farViolet.candidates).toHaveLength(0);
 
     const violetBand = { ...band, band: { extentNm: 10, degradesTo: "violet" as const } };
-    const [blueOfHead] = matchPeaksToLines([peak(552.5)], [violetBand], options);
+    const [blueOfHead] = matchPeaksToLines([bandPeak(552.5)], [violetBand], options);
     expect(blueOfHead.candidates[0].deltaSigma).toBe(0);
+  });
+
+  it("offers a band only at a peak as wide as a band can be", () => {
+    const band = line("caoh", "CaOH", 554, {
+      uncertaintyNm: 0.1,
+      flags: { bandHead: true },
+      band: { extentNm: 8, degradesTo: "red" },
+    });
+    const at = (fwhmNm: number, resolutionNm?: number) =>
+      matchPeaksToLines([peak(555, 0.03, fwhmNm)], [band], { resolutionNm })[0].candidates.length;
+    // At 1 nm resolution the 8-nm band is resolved: a 1-nm peak is a line, a 3-nm one may be the band,
+    // and one wider than its extent plus the blur at both ends (8 + 2 × 1 nm) is something else.
+    expect(at(1, 1)).toBe(0);
+    expect(at(3, 1)).toBe(1);
+    expect(at(10, 1)).toBe(1);
+    expect(at(10.5, 1)).toBe(0);
+    // At 3 nm resolution the band is no wider than a few lines: a line-wide peak may be it.
+    expect(at(3, 3)).toBe(1);
+    // Without a resolution only the upper bound holds.
+    expect(at(1)).toBe(1);
+    expect(at(8.5)).toBe(0);
   });
 
   it("refuses invalid options and peaks with precise errors", () => {

@@ -99,4 +99,34 @@ describe("a present call on one peak that another species explains", () => {
     );
     expect(verdict(result, "Xa I")).toBe("present");
   });
+
+  it("makes one peak without the species' principal line possible", () => {
+    // Xa's strongest line (380 nm) lies outside the range; its second line alone is no proof.
+    const table = [line("Xa I", 380.0, 1000), line("Xa I", 520.0, 500)];
+    const result = identifyElements([peak(520.0, 400)], table, options);
+    const xa = result.calls.find((c) => c.species === "Xa I")!;
+    expect(xa.verdict).toBe("possible");
+    expect(xa.notes).toContain(
+      "Only one peak is seen (520.00 nm) and it holds none of the principal line of Xa I; its strongest line would decide.",
+    );
+  });
+
+  it("asks of a species seen nowhere else whether its other lines would have shown", () => {
+    // Yb's line at the peak is a tenth of its 600-nm line: had Yb made even 30 % of an SNR-400 peak,
+    // that line would stand at SNR 1200, and there is no peak there. Wb's other line is a hundredth:
+    // it would stand at SNR 1.2, below detection, so Wb could have made the peak.
+    const peaks = [peak(520.0, 400)];
+    const yb = [line("Xa I", 520.0, 1000), line("Yb I", 520.03, 100), line("Yb I", 600.0, 1000)];
+    expect(verdict(identifyElements(peaks, yb, options), "Xa I")).toBe("present");
+    const wb = [line("Xa I", 520.0, 1000), line("Wb I", 520.03, 1000), line("Wb I", 600.0, 10)];
+    const result = identifyElements(peaks, wb, options);
+    expect(verdict(result, "Xa I")).toBe("possible");
+    expect(result.calls.find((c) => c.species === "Xa I")!.notes[0]).toMatch(/^Interference: Wb I/);
+  });
+
+  it("does not count another ion of the same element as an interference", () => {
+    const table = [line("Xa I", 520.0, 1000), { ...line("Xa II", 520.03, 1000), ionStage: 2 }];
+    const result = identifyElements([peak(520.0, 400)], table, options);
+    expect(verdict(result, "Xa I")).toBe("present");
+  });
 });
