@@ -14,6 +14,10 @@ import { prepareSignal } from "../signal/prepare-signal";
 import type { CalibratedPeak, Peak, ReferenceLine, SourceKind } from "../types";
 import { calibratePeaks } from "./calibrate-peaks";
 import { estimateInstrumentFwhm, type EstimateInstrumentFwhmOptions } from "./estimate-instrument-fwhm";
+import {
+  estimateInstrumentFwhmTrend,
+  type EstimateInstrumentFwhmTrendOptions,
+} from "./estimate-instrument-fwhm-trend";
 import { excitationTemperature, type ExcitationTemperature } from "./excitation-temperature";
 import { lteReferenceLines } from "./lte-reference-lines";
 
@@ -33,14 +37,16 @@ export interface AnalyzeSampleOptions {
    * wavelength (this × |dλ/dx| there) for the matching tolerance, and peaks wider than
    * broadFactor times it are flagged broad and offered only molecular bands.
    * @default resolutionNm / |dλ/dx| at the middle of the array when resolutionNm is given, else
-   * the median FWHM of the sample's clearest peaks (see estimateInstrumentFwhm); without a
-   * calibration nothing is estimated (the axis's pixel layout is unknown) */
+   * the median FWHM of the sample's clearest peaks (see estimateInstrumentFwhm); on an axis in nm
+   * without resolutionNm, the power law of the clean peaks' widths along it (see resolutionTrend) */
   resolutionPx?: number;
   /** A peak wider than this many instrument FWHM (and not saturated) is flagged broad.
    * @default 3 */
   broadFactor?: number;
   /** Settings of the estimate of resolutionPx from the sample's own peaks. */
   resolutionEstimate?: EstimateInstrumentFwhmOptions;
+  /** Settings of the width trend read from the sample's peaks on an axis in nm (see resolutionNm). */
+  resolutionTrend?: EstimateInstrumentFwhmTrendOptions;
   /** Detector maximum in counts, to flag saturated peaks.
    * @default undefined (flat tops at the array's maximum) */
   detectorMax?: number;
@@ -91,6 +97,14 @@ export interface InstrumentWidth {
   unit: "px" | "nm";
   /** Given as resolutionPx, converted from resolutionNm, or estimated from the sample's peaks. */
   basis: "resolutionPx" | "resolutionNm" | "estimated";
+  /** On an axis in nm with no stated resolution, the width varies as fwhm · (x / referenceX)^exponent
+   * (estimated from the clean peaks; near 0 for a grating, about 3 for a prism); absent: constant. */
+  trend?: { referenceX: number; exponent: number };
+}
+
+/** The instrument FWHM at x on the input axis. */
+export function instrumentWidthAt(width: InstrumentWidth, x: number): number {
+  return width.trend ? width.fwhm * (x / width.trend.referenceX) ** width.trend.exponent : width.fwhm;
 }
 
 /** Accepts the line table as rows or as an index prepared once and reused across analyses. */
@@ -122,7 +136,11 @@ export function analyzeSample(
   const signal = prepareSignal(binned.x, binned.y, { source, detectorMax });
   const picked = pickPeaks(binned.x, signal, { ...options.peakOptions, minSnr });
   const instrumentWidth = resolveInstrumentWidth(binned.x, picked, calibration, options);
-  const peaks = calibratePeaks(picked, { calibration, instrumentFwhm: instrumentWidth?.fwhm, broadFactor });
+  const peaks = calibratePeaks(picked, {
+    calibration,
+    instrumentFwhm: instrumentWidth?.trend ? (at) => instrumentWidthAt(instrumentWidth, at) : instrumentWidth?.fwhm,
+    broadFactor,
+  });
   const ends = Float64Array.of(x[0], x[x.length - 1]);
   const endsNm = calibration ? evaluateCalibration(calibration, ends) : ends;
   const rangeNm: [number, number] = [Math.min(endsNm[0], endsNm[1]), Math.max(endsNm[0], endsNm[1])];
@@ -196,7 +214,9 @@ function interpolateOnto(fromX: Float64Array, fromY: Float64Array, at: Float64Ar
 /**
  * resolutionPx as given; else resolutionNm over the dispersion at the array's middle (a grating's
  * is nearly constant; for a prism the chemist's one number is best read as its middle); else the
- * median width of the clearest peaks. Without a calibration only a given resolutionNm counts.
+ * median width of the clearest peaks. Without a calibration, a given resolutionNm, else the
+ * power law the clean peaks' widths follow along the axis (estimateInstrumentFwhmTrend): a prism's
+ * width in nm grows several-fold to the red, so no one number serves it.
  */
 function resolveInstrumentWidth(
   x: Float64Array,
@@ -205,7 +225,13 @@ function resolveInstrumentWidth(
   options: AnalyzeSampleOptions,
 ): InstrumentWidth | null {
   const { resolutionNm, resolutionPx } = options;
-  if (!calibration) return resolutionNm === undefined ? null : { fwhm: resolutionNm, unit: "nm", basis: "resolutionNm" };
+  if (!calibration) {
+    if (resolutionNm !== undefined) return { fwhm: resolutionNm, unit: "nm", basis: "resolutionNm" };
+    const trend = estimateInstrumentFwhmTrend(peaks, options.resolutionTrend);
+    return trend === null
+      ? null
+      : { fwhm: trend.fwhm, unit: "nm", basis: "estimated", trend: { referenceX: trend.referenceX, exponent: trend.exponent } };
+  }
   if (resolutionPx !== undefined) return { fwhm: resolutionPx, unit: "px", basis: "resolutionPx" };
   if (resolutionNm !== undefined) {
     const middle = Float64Array.of(0.5 * (x[0] + x[x.length - 1]));

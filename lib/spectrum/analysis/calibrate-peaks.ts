@@ -18,9 +18,10 @@ export interface CalibratePeaksOptions {
    * FWHM of the instrument's line profile on the input axis, in the peaks' x units (pixels on a
    * pixel axis; nm when calibration is null). A slit image is about as many pixels wide across the
    * whole array, so each peak gets resolutionNm = instrumentFwhm × |dλ/dx| there and the broad flag.
+   * A function gives the FWHM at each peak's x instead (a prism's width in nm on an axis in nm).
    * @default undefined (neither resolutionNm nor broad is set)
    */
-  instrumentFwhm?: number;
+  instrumentFwhm?: number | ((x: number) => number);
   /**
    * A peak wider than this many instrument FWHM is flagged broad. One line, or an unresolved blend
    * of lines closer than a FWHM, reads at most about twice the instrument's width (two equal lines
@@ -39,16 +40,18 @@ export interface CalibratePeaksOptions {
  */
 export function calibratePeaks(peaks: readonly Peak[], options: CalibratePeaksOptions = {}): CalibratedPeak[] {
   const { calibration = null, instrumentFwhm, broadFactor = 3 } = options;
-  if (instrumentFwhm !== undefined) assertPositiveFinite("instrumentFwhm", instrumentFwhm);
+  if (typeof instrumentFwhm === "number") assertPositiveFinite("instrumentFwhm", instrumentFwhm);
   assertPositiveFinite("broadFactor", broadFactor);
   if (peaks.length === 0) return [];
-  const withResolution = (peak: Peak, slope: number) =>
-    instrumentFwhm === undefined
-      ? {}
-      : {
-          resolutionNm: instrumentFwhm * slope,
-          broad: !peak.saturated && peak.fwhm > broadFactor * instrumentFwhm,
-        };
+  const withResolution = (peak: Peak, slope: number) => {
+    if (instrumentFwhm === undefined) return {};
+    const width = typeof instrumentFwhm === "number" ? instrumentFwhm : instrumentFwhm(peak.x);
+    assertPositiveFinite("instrumentFwhm at a peak", width);
+    return {
+      resolutionNm: width * slope,
+      broad: !peak.saturated && peak.fwhm > broadFactor * width,
+    };
+  };
   if (!calibration) {
     return peaks.map((peak) => ({
       ...peak,

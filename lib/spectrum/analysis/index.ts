@@ -2,6 +2,12 @@
 export { calibratePeaks, type CalibratePeaksOptions } from "./calibrate-peaks";
 export { analyzeSample, type AnalyzeSampleOptions, type InstrumentWidth, type SampleAnalysis } from "./analyze-sample";
 export { estimateInstrumentFwhm, type EstimateInstrumentFwhmOptions } from "./estimate-instrument-fwhm";
+export {
+  estimateInstrumentFwhmTrend,
+  instrumentFwhmAt,
+  type EstimateInstrumentFwhmTrendOptions,
+  type InstrumentFwhmTrend,
+} from "./estimate-instrument-fwhm-trend";
 export { calibrateLamp, type CalibrateLampOptions, type LampCalibration } from "./calibrate-lamp";
 export { excitationTemperature, usableBoltzmannLines, type ExcitationTemperature, type ExcitationTemperatureOptions } from "./excitation-temperature";
 export { lteReferenceLines } from "./lte-reference-lines";

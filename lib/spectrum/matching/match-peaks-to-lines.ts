@@ -18,6 +18,15 @@ export interface MatchPeaksToLinesOptions {
    * shift spread evenly over ±FWHM/2, the most an unresolved blend can move a centroid.
    * @default 1 / Math.sqrt(12) */
   resolutionSigmaFraction?: number;
+  /** For a peak not flagged blended, with the instrument's FWHM known: σ_res = max(this × the
+   * instrument FWHM, resolutionSigmaFraction × min(FWHM_peak, 2·√(FWHM_peak² −
+   * FWHM_instrument²))): an unresolved companion lies within the peak's width beyond the
+   * instrument's on either side, and within the peak. A companion close
+   * enough to stay unresolved and not widen the peak beyond the noise on its measured width moves
+   * the centroid by a tenth of the FWHM or so (two equal lines a third of a FWHM apart widen the
+   * peak by about 4 % and sit a sixth of a FWHM from the centroid).
+   * @default 0.1 */
+  cleanResolutionSigmaFraction?: number;
   /** Axis the peaks are calibrated on; must agree with a prepared index's medium.
    * @default the index's medium, or "air" */
   medium?: WavelengthMedium;
@@ -64,7 +73,8 @@ const MINIMUM_SIGMA_NM = 1e-6;
  * uncertainty through the dispersion, with the calibration's uncertainty there), σ_line the
  * table's, σ_res the resolution term: resolutionSigmaFraction × the instrument's FWHM at the peak
  * (the peak's resolutionNm, else options.resolutionNm; the peak's own FWHM when it is blended and
- * wider, or when neither is known). A peak flagged broad gets band candidates only. Lines are found by binary search on the prepared index
+ * wider, or when neither is known), and for a peak not flagged blended only what its width beyond
+ * the instrument's allows (see cleanResolutionSigmaFraction). A peak flagged broad gets band candidates only. Lines are found by binary search on the prepared index
  * within the widest possible window, then each pair is tested with its own σ: O(P log L + hits).
  */
 export function matchPeaksToLines(
@@ -76,12 +86,14 @@ export function matchPeaksToLines(
     k = 3,
     resolutionNm,
     resolutionSigmaFraction = 1 / Math.sqrt(12),
+    cleanResolutionSigmaFraction = 0.1,
     medium,
     bandHeadZoneFraction = 0.3,
   } = options;
   assertPositiveFinite("k", k);
   if (resolutionNm !== undefined) assertPositiveFinite("resolutionNm", resolutionNm);
   assertNonNegativeFinite("resolutionSigmaFraction", resolutionSigmaFraction);
+  assertNonNegativeFinite("cleanResolutionSigmaFraction", cleanResolutionSigmaFraction);
   if (!(bandHeadZoneFraction >= 0 && bandHeadZoneFraction <= 1)) {
     throw new RangeError(`bandHeadZoneFraction must lie in [0, 1], got ${bandHeadZoneFraction}`);
   }
@@ -95,14 +107,33 @@ export function matchPeaksToLines(
     const instrumentNm = peak.resolutionNm ?? resolutionNm;
     // A blended peak's components can lie anywhere across its own width, not only within the
     // instrument's: its centroid may then sit up to half that width from either of them.
-    const resolutionFwhmNm =
+    // A peak no wider than one line cannot hide a companion that would move its centroid far:
+    // only its width beyond the instrument's (in quadrature) can, with a floor for what noise on the
+    // measured width leaves unseen.
+    const sigmaResNm =
+      instrumentNm === undefined
+        ? resolutionSigmaFraction * peak.fwhmNm
+        : peak.blended
+          ? resolutionSigmaFraction * Math.max(instrumentNm, peak.fwhmNm)
+          : Math.max(
+              cleanResolutionSigmaFraction * instrumentNm,
+              resolutionSigmaFraction *
+                Math.min(
+                  peak.fwhmNm,
+                  2 * Math.sqrt(Math.max(0, peak.fwhmNm ** 2 - instrumentNm ** 2)),
+                ),
+            );
+    const baseVarianceNm2 = peak.wavelengthUncertaintyNm ** 2 + sigmaResNm ** 2;
+    // A band's feature is as wide as the band by nature: only its head's place is compared, to
+    // within what the instrument (or a blend) leaves open; the head zone allows for the extent.
+    const bandResolutionNm =
       instrumentNm === undefined
         ? peak.fwhmNm
         : peak.blended
           ? Math.max(instrumentNm, peak.fwhmNm)
           : instrumentNm;
-    const sigmaResNm = resolutionSigmaFraction * resolutionFwhmNm;
-    const baseVarianceNm2 = peak.wavelengthUncertaintyNm ** 2 + sigmaResNm ** 2;
+    const bandVarianceNm2 =
+      peak.wavelengthUncertaintyNm ** 2 + (resolutionSigmaFraction * bandResolutionNm) ** 2;
     const candidates: LineCandidate[] = [];
 
     const lineReachNm = k * Math.sqrt(baseVarianceNm2 + index.maxLineUncertaintyNm ** 2);
@@ -137,7 +168,7 @@ export function matchPeaksToLines(
 
     if (index.bandHeadNm.length > 0) {
       const bandReachNm =
-        index.maxBandExtentNm + k * Math.sqrt(baseVarianceNm2 + index.maxBandUncertaintyNm ** 2);
+        index.maxBandExtentNm + k * Math.sqrt(bandVarianceNm2 + index.maxBandUncertaintyNm ** 2);
       const fromBand = lowerBound(index.bandHeadNm, peak.wavelengthNm - bandReachNm);
       for (let i = fromBand; i < index.bandHeadNm.length; i++) {
         const referenceNm = index.bandHeadNm[i];
@@ -147,7 +178,7 @@ export function matchPeaksToLines(
         const band = line.band!;
         const sigmaNm = Math.max(
           MINIMUM_SIGMA_NM,
-          Math.sqrt(baseVarianceNm2 + line.uncertaintyNm ** 2),
+          Math.sqrt(bandVarianceNm2 + line.uncertaintyNm ** 2),
         );
         const deltaNm = peak.wavelengthNm - referenceNm;
         const depthNm = band.degradesTo === "red" ? deltaNm : -deltaNm;

@@ -521,6 +521,7 @@ export function scoreElements(
     isMatched,
     hiding,
     missingSnr,
+    source,
   });
   calls.sort(byStanding);
 
@@ -594,6 +595,7 @@ interface SinglePeakContext {
   isMatched: (lineIndex: number) => boolean;
   hiding: HidingPeaks;
   missingSnr: number;
+  source: SourceKind;
 }
 
 /**
@@ -666,7 +668,9 @@ function demoteSinglePeakCalls(calls: ElementCall[], context: SinglePeakContext)
     for (const candidate of match.candidates) {
       const lines = index.species[index.speciesOfLine[candidate.lineIndex]];
       const rival = context.work.get(lines.species);
-      if (lines.element === call.element || !rival) continue;
+      // A species the table rates for other sources but not this one is not expected from it.
+      if (lines.element === call.element || !rival || borrowed(rival.info, context.source))
+        continue;
       const relative = (lineIndex: number) =>
         rival.info.scale.relative[index.positionInSpecies[lineIndex]];
       const held = rivalLine.get(lines.species);

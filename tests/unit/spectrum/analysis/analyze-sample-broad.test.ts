@@ -103,11 +103,23 @@ describe("analyzeSample on features much wider than the instrument's line", () =
     expect(fromPx.peaks[peakNear(fromPx, 605)].broad).toBe(true);
   });
 
-  it("estimates nothing on an axis already in nm, and wants a calibration for resolutionPx", () => {
+  it("reads the width along an axis already in nm from its clean lines, and wants a calibration for resolutionPx", () => {
     const x = Float64Array.from(sample.x, wavelengthOfPixel);
     const asNm = analyzeSample(x, sample.y, table, {});
-    expect(asNm.instrumentWidth).toBeNull();
-    expect(asNm.peaks.every((p) => p.broad === undefined && p.resolutionNm === undefined)).toBe(true);
+    // A grating: the five clear lines give a flat trend near the 0.6-nm truth (the smoothing
+    // widens a 4-sample line by a few per cent).
+    expect(asNm.instrumentWidth?.basis).toBe("estimated");
+    expect(asNm.instrumentWidth?.unit).toBe("nm");
+    expect(asNm.instrumentWidth!.fwhm).toBeGreaterThan(0.95 * RESOLUTION_NM);
+    expect(asNm.instrumentWidth!.fwhm).toBeLessThan(1.15 * RESOLUTION_NM);
+    expect(Math.abs(asNm.instrumentWidth!.trend!.exponent)).toBeLessThan(0.3);
+    expect(asNm.peaks[peakNear(asNm, 605)].broad).toBe(true);
+    expect(asNm.peaks[peakNear(asNm, 510)].broad).toBe(false);
+    // Too few clean lines to read a trend: nothing is estimated, and each peak's own width serves.
+    const oneLine = x.map((nm) => (nm > 500 && nm < 520 ? 1 : 0));
+    const few = analyzeSample(x, sample.y.map((v, i) => (oneLine[i] ? v : 100)), table, {});
+    expect(few.instrumentWidth).toBeNull();
+    expect(few.peaks.every((p) => p.broad === undefined && p.resolutionNm === undefined)).toBe(true);
     const given = analyzeSample(x, sample.y, table, { resolutionNm: RESOLUTION_NM });
     expect(given.instrumentWidth).toEqual({ fwhm: RESOLUTION_NM, unit: "nm", basis: "resolutionNm" });
     expect(given.peaks[peakNear(given, 605)].broad).toBe(true);

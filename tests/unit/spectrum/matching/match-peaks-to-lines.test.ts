@@ -82,8 +82,11 @@ describe("matchPeaksToLines", () => {
       line("d1", "Na I", 589.5924),
       line("far", "X I", 592.0),
     ];
-    const [match] = matchPeaksToLines([peak(589.2)], lines, { resolutionNm: 1 });
-    const sigmaNm = Math.sqrt(0.03 ** 2 + 0.001 ** 2 + 1 / 12);
+    // The doublet at 1 nm resolution: one peak 15 % wider than a line, not flagged blended. Its
+    // width beyond the instrument's, √(1.15² − 1²) nm, bounds where a companion can sit.
+    const [match] = matchPeaksToLines([peak(589.2, 0.03, 1.15)], lines, { resolutionNm: 1 });
+    const sigmaResNm = (2 / Math.sqrt(12)) * Math.sqrt(1.15 ** 2 - 1);
+    const sigmaNm = Math.sqrt(0.03 ** 2 + 0.001 ** 2 + sigmaResNm ** 2);
     expect(match.candidates.map((c) => c.line.id)).toEqual(["d2", "d1"]);
     const [d2, d1] = match.candidates;
     expect(d2.sigmaNm).toBeCloseTo(sigmaNm, 12);
@@ -97,8 +100,25 @@ describe("matchPeaksToLines", () => {
     expect(
       matchPeaksToLines([peak(589.2)], lines, { resolutionNm: 1, k: 0.5 })[0].candidates,
     ).toHaveLength(0);
-    const fine = matchPeaksToLines([peak(589.0, 0.005)], lines, { resolutionNm: 0.05 })[0];
+    const fine = matchPeaksToLines([peak(589.0, 0.005, 0.05)], lines, { resolutionNm: 0.05 })[0];
     expect(fine.candidates.map((c) => c.line.id)).toEqual(["d2"]);
+  });
+
+  it("does not reach 0.45 nm from a clean peak placed to ±0.004 nm (Li I 460.29 at Sr I 460.73)", () => {
+    // NIST ASD air wavelengths (from memory): Sr I 460.733 nm, Li I 460.286 nm.
+    const lines = [line("sr", "Sr I", 460.733), line("li", "Li I", 460.286)];
+    // A peak as wide as the instrument's line (1 nm) can hide no companion 0.45 nm away: that
+    // would have widened it by a fifth. σ_res is then a tenth of the FWHM.
+    const [clean] = matchPeaksToLines([peak(460.733, 0.004, 1)], lines, { resolutionNm: 1 });
+    expect(clean.candidates.map((c) => c.line.id)).toEqual(["sr"]);
+    expect(clean.candidates[0].sigmaNm).toBeCloseTo(Math.hypot(0.004, 0.001, 0.1), 12);
+    // The same peak 30 % wider than a line, or flagged blended, may hold both.
+    const [wider] = matchPeaksToLines([peak(460.6, 0.004, 1.3)], lines, { resolutionNm: 1 });
+    expect(wider.candidates.map((c) => c.line.id).sort()).toEqual(["li", "sr"]);
+    const [blend] = matchPeaksToLines([{ ...peak(460.6, 0.004, 1), blended: true }], lines, {
+      resolutionNm: 1,
+    });
+    expect(blend.candidates.map((c) => c.line.id).sort()).toEqual(["li", "sr"]);
   });
 
   it("falls back to each peak's own FWHM when no resolution is given", () => {
@@ -240,13 +260,16 @@ describe("matchPeaksToLines", () => {
             const expected = lines
               .map((l, lineIndex) => ({ l, lineIndex }))
               .filter(({ l }) => {
+                // At 0.5 nm resolution, a peak not flagged blended: a tenth of the FWHM, or
+                // what its width beyond the instrument's leaves open, within the peak.
+                const excessNm = Math.sqrt(Math.max(0, peaks[i].fwhmNm ** 2 - 0.25));
+                const sigmaRes = Math.max(
+                  0.05,
+                  Math.min(peaks[i].fwhmNm, 2 * excessNm) / Math.sqrt(12),
+                );
                 const sigma = Math.max(
                   1e-6,
-                  Math.hypot(
-                    peaks[i].wavelengthUncertaintyNm,
-                    l.uncertaintyNm,
-                    0.5 / Math.sqrt(12),
-                  ),
+                  Math.hypot(peaks[i].wavelengthUncertaintyNm, l.uncertaintyNm, sigmaRes),
                 );
                 return Math.abs(peaks[i].wavelengthNm - l.airNm) / sigma <= 3;
               })

@@ -80,9 +80,17 @@ describe("scoreElements on a flame of Na, K, Li, Ca, Sr with CaOH bands", () => 
   });
 
   it("does not call elements whose lines were not put in", () => {
-    for (const species of ["Ba I", "Ba II", "In I", "Tl I", "Cu I"]) {
+    for (const species of ["Ba II", "In I", "Tl I", "Cu I"]) {
       expect(verdictOf(result, species), species).not.toBe("present");
       expect(verdictOf(result, species), species).not.toBe("possible");
+    }
+    // Ba I 553.55 nm lies 1.1 nm from the centre of the CaOH band's 2.9-nm-wide peak at 1 nm
+    // resolution: a line there could hide in it, so Ba I may be possible, never present, and its
+    // call names the band it shares the peak with.
+    expect(verdictOf(result, "Ba I")).not.toBe("present");
+    const barium = result.calls.find((call) => call.species === "Ba I");
+    if (barium && barium.verdict === "possible") {
+      expect(barium.overlaps.flatMap((o) => o.otherSpecies)).toContain("CaOH");
     }
     // Cu I has its strong flame lines below the range, so it is not even listed.
     expect(verdictOf(result, "Cu I")).toBe("not reported");
@@ -99,13 +107,16 @@ describe("scoreElements on a flame of Na, K, Li, Ca, Sr with CaOH bands", () => 
     expect(potassium.missing.filter((m) => m.hiddenByPeakIndex === null)).toHaveLength(0);
   });
 
-  it("names the overlap of Li I 460.29 nm with Sr I 460.73 nm at 1 nm resolution", () => {
-    const overlap = result.overlaps.find((o) => o.species.includes("Sr I"));
-    expect(overlap?.species).toEqual(["Li I", "Sr I"]);
-    expect(overlap!.peakWavelengthNm).toBeCloseTo(460.73, 0);
+  it("does not see Li I 460.29 nm in the clean Sr I 460.73 nm peak 0.45 nm away at 1 nm resolution", () => {
+    // The Sr peak is as wide as one line and placed to a few hundredths of a nm: a Li line 0.45 nm
+    // off would have widened it. (Li's 460.29 line is weak in a flame; the mixture's Li shows at 670.8.)
+    const peak = run.peaks.find((p) => Math.abs(p.wavelengthNm - 460.73) < 0.2)!;
+    expect(peak.fwhmNm).toBeLessThan(1.1 * FLAME_RESOLUTION_NM);
     const strontium = result.calls.find((call) => call.species === "Sr I")!;
-    expect(strontium.overlaps[0].otherSpecies).toEqual(["Li I"]);
-    expect(strontium.rationale).toMatch(/Li I/);
+    expect(strontium.verdict).toBe("present");
+    expect(strontium.overlaps.flatMap((o) => o.otherSpecies)).not.toContain("Li I");
+    const lithium = result.calls.find((call) => call.species === "Li I")!;
+    expect(lithium.seen.map((s) => s.referenceNm)).not.toContain(460.286);
   });
 
   it("gives sodium its note even when it is intense", () => {
