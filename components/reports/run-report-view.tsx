@@ -126,6 +126,16 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
         {report.absentSpecies.length ? (
           <p className="muted mt-1 text-xs">Candidates not supported by the spectrum (absent): {report.absentSpecies.join(", ")}.</p>
         ) : null}
+        {report.absentLimits.some((a) => a.limit !== "—") ? (
+          <p className="muted mt-1 text-xs" data-testid="detection-limits">
+            Detection limits (the least height each one&apos;s strongest line in range needed to be found):{" "}
+            {report.absentLimits
+              .filter((a) => a.limit !== "—")
+              .map((a) => `${a.species} ${a.limit}`)
+              .join("; ")}
+            .
+          </p>
+        ) : null}
       </Section>
 
       {report.calls.map((call) => (

@@ -1,7 +1,8 @@
 // A run's calls with their evidence (the standing verdict in words and a shape, an override marked
 // with who, why, when and the computed verdict, score, lines seen with Δλ, strong lines expected but
-// missing, overlaps) and its peak table.
+// missing, overlaps, an absent call's detection limit) and its peak table.
 import type { ReactNode } from "react";
+import { detectionLimitText } from "@/lib/reports/detection-limit-text";
 import type { RunCall, RunPeak } from "@/lib/services/workflow-types";
 
 const VERDICT = {
@@ -168,6 +169,9 @@ function AbsentCalls({ calls, overrideFormFor }: { calls: RunCall[]; overrideFor
             <th scope="col" className="pr-3 text-right">Score</th>
             <th scope="col" className="pr-3 text-right">Lines seen</th>
             <th scope="col" className="pr-3 text-right">Strong lines missing</th>
+            <th scope="col" className="pr-3">
+              Detection limit <span className="sr-only">(least height its strongest line needed to be found)</span>
+            </th>
             <th scope="col">Why</th>
           </tr>
         </thead>
@@ -181,6 +185,9 @@ function AbsentCalls({ calls, overrideFormFor }: { calls: RunCall[]; overrideFor
               <td className="pr-3 text-right font-mono">{c.score.toFixed(2)}</td>
               <td className="pr-3 text-right font-mono">{c.seenCount}</td>
               <td className="pr-3 text-right font-mono">{c.missingStrongCount}</td>
+              <td className="pr-3" data-testid="detection-limit">
+                {detectionLimitText(c.detectionLimit)}
+              </td>
               <td>
                 <span className="muted">{c.rationale}</span>
                 <OverrideNote call={c} />

@@ -287,6 +287,15 @@ class Writer {
     if (report.absentSpecies.length) {
       this.doc.moveDown(0.3);
       this.paragraph(`Candidates not supported by the spectrum (absent): ${report.absentSpecies.join(", ")}.`, { size: 8, color: MUTED });
+      const limits = report.absentLimits.filter((a) => a.limit !== "—");
+      if (limits.length) {
+        this.paragraph(
+          `Detection limits (the least height each one's strongest line in range needed to be found): ${limits
+            .map((a) => `${a.species} ${a.limit}`)
+            .join("; ")}.`,
+          { size: 8, color: MUTED },
+        );
+      }
     }
     for (const call of report.calls) this.evidence(call);
   }

@@ -3,6 +3,7 @@
 import type { Verdict } from "@/lib/spectrum/matching";
 import type { SourceKind } from "@/lib/spectrum/types";
 import type { CalibrationRecord, RunCall, RunRecord, RunStatus, RunTemperature } from "@/lib/services/workflow-types";
+import { detectionLimitText } from "./detection-limit-text";
 import { FLAME_CAUTIONS, SCREENING_CAVEAT } from "./report-text";
 
 /** A signature as stored in run_signatures. */
@@ -81,6 +82,8 @@ export interface RunReport {
   calls: ReportCall[];
   /** Candidates that did not reach "possible": listed briefly so the reader sees what was weighed. */
   absentSpecies: string[];
+  /** The same species with their detection limits in words ("—" where none), for the report. */
+  absentLimits: { species: string; limit: string }[];
   /** Standing verdicts of every candidate species (for labels and CSVs). */
   verdicts: Record<string, Verdict>;
   calibration: {
@@ -157,6 +160,8 @@ export function buildRunReport(input: RunReportInput): RunReport {
   // A call the chemist overrode stays in the main list whatever it became, so the override is seen.
   const calls = all.filter((c) => c.verdict !== "absent" || c.override !== null);
   const absentSpecies = all.filter((c) => c.verdict === "absent" && c.override === null).map((c) => c.species);
+  const limitOf = new Map(run.calls.map((c) => [c.species, detectionLimitText(c.detectionLimit)]));
+  const absentLimits = absentSpecies.map((species) => ({ species, limit: limitOf.get(species) ?? "—" }));
 
   const outsideCoveredRange =
     calibration !== null &&
@@ -217,6 +222,7 @@ export function buildRunReport(input: RunReportInput): RunReport {
     instrumentName: input.instrument.name,
     calls,
     absentSpecies,
+    absentLimits,
     verdicts: run.verdicts,
     calibration: calibration
       ? {

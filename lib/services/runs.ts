@@ -6,7 +6,7 @@ import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
 import { toReferenceLine } from "@/lib/lines";
-import { analyzeSample, type AnalyzeSampleOptions, type SampleAnalysis } from "@/lib/spectrum/analysis";
+import { analyzeSample, type AnalyzeSampleOptions, type DetectionLimit, type SampleAnalysis } from "@/lib/spectrum/analysis";
 import { dispersionAt, type CalibrationModel } from "@/lib/spectrum/calibration";
 import { prepareLineIndex, type ElementCall, type LineIndex, type Verdict } from "@/lib/spectrum/matching";
 import type { RunNotesInput, RunOverrideInput } from "@/lib/validation/run-schemas";
@@ -76,7 +76,7 @@ async function analyzeOffThreadWhenLarge(
   return first ?? (await runHeavyTask({ ...task, lines: index.lines }))!;
 }
 
-function toRunCall(call: ElementCall): StoredRunCall {
+function toRunCall(call: ElementCall, limit: DetectionLimit | undefined): StoredRunCall {
   return {
     species: call.species,
     element: call.element,
@@ -103,6 +103,7 @@ function toRunCall(call: ElementCall): StoredRunCall {
     intensityBasis: call.intensityBasis,
     notes: call.notes,
     rationale: call.rationale,
+    detectionLimit: limit ?? null,
   };
 }
 
@@ -387,7 +388,7 @@ async function analyseAndStore(actor: Actor, plan: RunPlan): Promise<RunRecord> 
       deltaSigma: c.deltaSigma,
     })),
   }));
-  const calls = identification.calls.map(toRunCall);
+  const calls = identification.calls.map((call) => toRunCall(call, analysis.detectionLimits[call.species]));
   const overlaps = identification.overlaps.map((o) => ({ peakIndex: o.peakIndex, peakNm: o.peakWavelengthNm, species: o.species }));
   const unexplained = identification.unexplainedPeaks.map((u) => ({
     wavelengthNm: u.peak.wavelengthNm,

@@ -148,6 +148,18 @@ export interface StoredRunCall {
   intensityBasis: string;
   notes: string[];
   rationale: string;
+  /** For an absent call: the least height its strongest line in range needed to be found (an upper
+   * limit on the line); absent on runs stored before limits were computed. */
+  detectionLimit?: StoredDetectionLimit | null;
+}
+
+/** See DetectionLimit in lib/spectrum/analysis/detection-limits.ts. */
+export interface StoredDetectionLimit {
+  lineNm: number;
+  principal: boolean;
+  noiseCounts: number;
+  counts: number;
+  relativeToStrongest: number | null;
 }
 
 /** One call as pages and the API see it: `verdict` is the standing verdict (the newest override's

@@ -18,6 +18,7 @@ import {
   estimateInstrumentFwhmTrend,
   type EstimateInstrumentFwhmTrendOptions,
 } from "./estimate-instrument-fwhm-trend";
+import { detectionLimits, type DetectionLimit } from "./detection-limits";
 import { excitationTemperature, type ExcitationTemperature } from "./excitation-temperature";
 import { lteReferenceLines } from "./lte-reference-lines";
 
@@ -88,6 +89,9 @@ export interface SampleAnalysis {
   /** The Boltzmann excitation temperature of the species called present with the most usable
    * lines, or why there is none. */
   temperature: ExcitationTemperature;
+  /** For each species called absent with a rated line in range: the least height its strongest
+   * line there needed to be found (see detectionLimits), by species. */
+  detectionLimits: Record<string, DetectionLimit>;
 }
 
 /** The instrument's line-profile FWHM used by an analysis. */
@@ -159,6 +163,18 @@ export function analyzeSample(
   const warnings: CalibrationWarning[] = calibration ? calibrationRangeWarnings(calibration, ends) : [];
   const continuum = binningFactor > 1 ? interpolateOnto(binned.x, signal.continuum, x) : signal.continuum;
   const temperature = excitationTemperature(identification.calls, peaks);
+  const binnedNm = calibration ? evaluateCalibration(calibration, binned.x) : binned.x;
+  const limits = detectionLimits(identification.calls, {
+    index,
+    source,
+    rangeNm,
+    noiseAtNm: (nm) => {
+      const i = nearestSample(binnedNm, nm);
+      return i < 0 ? Number.NaN : signal.noiseProfile ? signal.noiseProfile[i] : signal.noise;
+    },
+    minSnr,
+    tallestHeight: peaks.reduce((h, p) => Math.max(h, p.height), 0),
+  });
   return {
     peaks,
     identification,
@@ -170,7 +186,26 @@ export function analyzeSample(
     continuum,
     binningFactor,
     temperature,
+    detectionLimits: Object.fromEntries(limits),
   };
+}
+
+/** Index of the sample nearest `nm` on a monotonic axis, or −1 when nm lies outside it. */
+function nearestSample(axisNm: Float64Array, nm: number): number {
+  const n = axisNm.length;
+  if (n === 0) return -1;
+  const rising = axisNm[n - 1] >= axisNm[0];
+  const at = (i: number) => (rising ? axisNm[i] : -axisNm[i]);
+  const goal = rising ? nm : -nm;
+  if (!(goal >= at(0) && goal <= at(n - 1))) return -1;
+  let low = 0;
+  let high = n - 1;
+  while (high - low > 1) {
+    const mid = (low + high) >> 1;
+    if (at(mid) <= goal) low = mid;
+    else high = mid;
+  }
+  return goal - at(low) <= at(high) - goal ? low : high;
 }
 
 /**

@@ -11,3 +11,4 @@ export {
 export { calibrateLamp, type CalibrateLampOptions, type LampCalibration } from "./calibrate-lamp";
 export { excitationTemperature, usableBoltzmannLines, type ExcitationTemperature, type ExcitationTemperatureOptions } from "./excitation-temperature";
 export { lteReferenceLines } from "./lte-reference-lines";
+export { detectionLimits, type DetectionLimit, type DetectionLimitContext } from "./detection-limits";

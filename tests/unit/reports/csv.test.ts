@@ -78,5 +78,12 @@ describe("formatNotebookCallsCsv", () => {
     expect(k.override_reason).toBe("'=also seen at 769.9 nm");
     expect(rows.filter((r) => r.run_id === empty.id)).toEqual([expect.objectContaining({ species: "", standing_verdict: "" })]);
     expect(rows.find((r) => r.species === "Na I")).toMatchObject({ lines_seen: "2", lines_missing: "0", author: "Chris Chemist" });
+    // An absent call carries its detection limit; a present one leaves the cells empty.
+    expect(rows.find((r) => r.species === "Ba I")).toMatchObject({
+      detection_limit_nm: "553.548",
+      detection_limit_counts: "48",
+      detection_limit_of_strongest: "0.004",
+    });
+    expect(rows.find((r) => r.species === "Na I")).toMatchObject({ detection_limit_nm: "", detection_limit_counts: "" });
   });
 });

@@ -36,7 +36,11 @@ export function sampleRun(overrides: Partial<RunRecord> = {}): RunRecord {
       [NA_D1, 589.588, "line-na-d1"],
     ], 0.93),
     call("K I", "possible", [[K_LINE, 766.52, "line-k"]], 0.41),
-    call("Ba I", "absent", [], 0.02),
+    // Invented demo figures: 5 σ of 9.6 counts at Ba I 553.55 nm, against a 12 000-count Na peak.
+    {
+      ...call("Ba I", "absent", [], 0.02),
+      detectionLimit: { lineNm: 553.548, principal: true, noiseCounts: 9.6, counts: 48, relativeToStrongest: 0.004 },
+    },
   ];
   return {
     id: "0f3c9a12-4b5d-4e6f-8a7b-1c2d3e4f5a6b",

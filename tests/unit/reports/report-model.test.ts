@@ -14,6 +14,9 @@ describe("buildRunReport", () => {
       ["K I", "possible"],
     ]);
     expect(report.absentSpecies).toEqual(["Ba I"]);
+    expect(report.absentLimits).toEqual([
+      { species: "Ba I", limit: "< 48 counts (0.40 % of the strongest peak) at 553.55 nm" },
+    ]);
     expect(report.caveat).toBe(SCREENING_CAVEAT);
     expect(report.title).toContain(`run ${shortRunId(report.runId)} v1`);
   });
