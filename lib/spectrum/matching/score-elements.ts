@@ -588,6 +588,26 @@ function couldMake(
   return expectedSnr >= EXPLAINING_SHARE * peakSnr;
 }
 
+/**
+ * The species' strongest line in range (by relative intensity for the source) farther than the
+ * peak's FWHM from it: where a peak would tell this species from its rivals. Null when none.
+ */
+function decidingLineNm(entry: SpeciesWork | undefined, peak: CalibratedPeak): number | null {
+  if (!entry) return null;
+  const { maxTree } = entry.info.scale;
+  const { nm } = entry.info.lines;
+  let found: number | null = null;
+  for (const [from, to] of [entry.info.atomicInRange, entry.info.bandsInRange]) {
+    walkStrongestFirst(maxTree, from, to, 0, (p) => {
+      if (Math.abs(nm[p] - peak.wavelengthNm) <= peak.fwhmNm) return true;
+      found = nm[p];
+      return false;
+    });
+    if (found !== null) break;
+  }
+  return found;
+}
+
 interface SinglePeakContext {
   matchByPeak: Map<number, PeakMatch>;
   work: Map<string, SpeciesWork>;
@@ -706,9 +726,17 @@ function demoteSinglePeakCalls(calls: ElementCall[], context: SinglePeakContext)
     explainers.sort();
     call.verdict = "possible";
     const names = explainers.join(", ");
+    // The line that would decide: the strongest of each species in range away from this peak.
+    const deciders = [call.species, ...explainers].flatMap((species) => {
+      const nm = decidingLineNm(context.work.get(species), match.peak);
+      return nm === null ? [] : [`${species} ${nm.toFixed(2)} nm`];
+    });
     call.notes.push(
       `Interference: ${names} also explain${explainers.length === 1 ? "s" : ""} the only peak seen, at ` +
-        `${peakNm} nm; another line of ${call.species} would decide.`,
+        `${peakNm} nm; ` +
+        (deciders.length > 0
+          ? `a peak at ${deciders.join(" or ")} would decide.`
+          : `another line of ${call.species} would decide.`),
     );
     call.rationale =
       `${call.rationale.replace(/^Present:/, "Possible:")} Only one peak is seen, and ${names} ` +
