@@ -67,7 +67,9 @@ export function CallEvidence({
             ) : null}
             <span className="font-mono text-xs">score {call.score.toFixed(2)}</span>
             <span className="muted text-xs">
-              {call.seenCount} seen · {call.missingCount} missing ({call.missingStrongCount} strong) · intensities: {call.intensityBasis}
+              {call.seenCount} seen
+              {call.seenPeaks !== undefined && call.seenPeaks < call.seenCount ? ` at ${call.seenPeaks} peak${call.seenPeaks === 1 ? "" : "s"}` : ""} ·{" "}
+              {call.missingCount} missing ({call.missingStrongCount} strong) · intensities: {call.intensityBasis}
             </span>
           </summary>
           <p className="mt-2 text-sm">{call.rationale}</p>
@@ -91,10 +93,18 @@ export function CallEvidence({
                     </td>
                   </tr>
                 ) : (
-                  call.lines.map((l) => (
+                  call.lines.map((l, i) => (
                     <tr key={l.lineId}>
                       <td className="pr-3">{l.lineNm.toFixed(3)}</td>
-                      <td className="pr-3">{l.peakNm.toFixed(3)}</td>
+                      <td className="pr-3">
+                        {i > 0 && call.lines[i - 1].peakNm === l.peakNm ? (
+                          <span className="font-sans" data-testid="same-peak">
+                            ↳ same peak <span className="sr-only">(blended with the line above: one piece of evidence)</span>
+                          </span>
+                        ) : (
+                          l.peakNm.toFixed(3)
+                        )}
+                      </td>
                       <td className="pr-3">{l.deltaNm >= 0 ? "+" : ""}{l.deltaNm.toFixed(3)}</td>
                       <td>{l.relativeIntensity ?? "—"}</td>
                     </tr>

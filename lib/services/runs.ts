@@ -97,6 +97,7 @@ function toRunCall(call: ElementCall, limit: DetectionLimit | undefined): Stored
       hidden: m.hiddenByPeakIndex !== null,
     })),
     seenCount: call.seenCount,
+    seenPeaks: call.seenPeaks,
     missingCount: call.missingCount,
     missingStrongCount: call.missingStrongCount,
     overlaps: call.overlaps.map((o) => ({ peakNm: o.peakWavelengthNm, otherSpecies: o.otherSpecies })),

@@ -142,6 +142,9 @@ export interface StoredRunCall {
   lines: { lineId: string; lineNm: number; peakNm: number; deltaNm: number; relativeIntensity: number | null }[];
   missing: { lineId: string; lineNm: number; relativeIntensity: number; predictedSnr: number | null; hidden: boolean }[];
   seenCount: number;
+  /** Peaks the seen lines stand on (lines blended into one peak are one piece of evidence); absent
+   * on runs stored before it was kept. */
+  seenPeaks?: number;
   missingCount: number;
   missingStrongCount: number;
   overlaps: { peakNm: number; otherSpecies: string[] }[];

@@ -119,6 +119,9 @@ export interface ElementCall {
   seen: SeenLineEvidence[];
   /** Exact number of seen lines (listed or not). */
   seenCount: number;
+  /** Exact number of peaks the seen lines stand on: lines blended into one peak are one group and
+   * earn one credit, their relative intensities summed (capped at 1). */
+  seenPeaks: number;
   /** Missing lines, strongest first (then by wavelength): every one that may be hidden, and the
    * `maxMissingListed` strongest of the others; the rest are only counted. */
   missing: MissingLineEvidence[];
@@ -1018,6 +1021,7 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
       score: 0,
       seen,
       seenCount: 0,
+      seenPeaks: 0,
       missing,
       missingCount: entry.missingCount,
       missingStrongCount: count,
@@ -1098,6 +1102,7 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
     score: entry.score,
     seen,
     seenCount: tally.count,
+    seenPeaks: entry.groups.length,
     missing: entry.missing,
     missingCount: entry.missingCount,
     missingStrongCount: entry.missingStrongCount,
@@ -1117,9 +1122,12 @@ function rationaleOf(
   overlaps: OverlapEvidence[],
 ): string {
   const { count, listed } = tally;
+  const peaks = entry.groups.length;
+  // Lines blended into one peak are one piece of evidence: say how many peaks they stand on.
+  const atPeaks = peaks < count ? ` at ${peaks} peak${plural(peaks)}` : "";
   const parts: string[] = [];
   parts.push(
-    `${count} line${plural(count)} seen (${formatNm(listed.map((s) => s.referenceNm))}${andMore(count - listed.length)}; within ${tally.worstSigma.toFixed(1)}σ)`,
+    `${count} line${plural(count)} seen${atPeaks} (${formatNm(listed.map((s) => s.referenceNm))}${andMore(count - listed.length)}; within ${tally.worstSigma.toFixed(1)}σ)`,
   );
   if (strongInRange > 0) {
     parts.push(

@@ -96,7 +96,14 @@ describe("scoreElements with a capped list of seen lines", () => {
         expect(call.seen, call.species).toEqual(chosen.map((k) => all[k]));
         const left = all.length - call.seen.length;
         if (left > 0) {
-          expect(call.rationale).toContain(`${all.length} lines seen (`);
+          // Counted over every seen line, with the peaks they stand on (several lines may share one).
+          const peaks = new Set(all.map((s) => s.peakIndex)).size;
+          expect(call.seenPeaks, call.species).toBe(peaks);
+          expect(call.rationale).toContain(
+            peaks < all.length
+              ? `${all.length} lines seen at ${peaks} peak${peaks === 1 ? "" : "s"} (`
+              : `${all.length} lines seen (`,
+          );
           expect(call.rationale).toContain(`, and ${left} more; within`);
         } else {
           expect(call.rationale).toBe(full.calls[i].rationale);
