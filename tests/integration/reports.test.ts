@@ -9,6 +9,8 @@ import os from "node:os";
 import path from "node:path";
 import Papa from "papaparse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { detectionLimitText } from "@/lib/reports/detection-limit-text";
+import type { StoredDetectionLimit } from "@/lib/services/workflow-types";
 import { parseSpectrumFile } from "@/lib/spectrum/io";
 import { APP_URL, ApiClient } from "./support/http-client";
 import { createSyntheticInstrument, uploadSpectrumFile } from "./support/bench";
@@ -21,6 +23,7 @@ interface Call {
   species: string;
   verdict: string;
   lines: { lineNm: number; peakNm: number }[];
+  detectionLimit?: StoredDetectionLimit | null;
 }
 interface Run {
   id: string;
@@ -139,6 +142,11 @@ describe("the PDF report", () => {
     expect(text).toContain(`release ${rows[0].number}`);
     expect(text).toContain("Flame test cautions");
     expect(text).toContain("Not signed.");
+    // Absent calls with their detection limits, worded as on the page.
+    const limited = calibratedRun.calls.find((c) => calibratedRun.verdicts[c.species] === "absent" && c.detectionLimit);
+    expect(limited, "an absent call with a detection limit").toBeDefined();
+    expect(text).toContain("Detection limits");
+    expect(text.replace(/\s+/g, " ")).toContain(`${limited!.species} ${detectionLimitText(limited!.detectionLimit)}`);
   });
 
   it("shows an override with its reason and a signature with its signer and content hash", async () => {
@@ -256,6 +264,19 @@ describe("the CSV exports", () => {
     expect(potassium.standing_verdict).toBe("possible");
     expect(potassium.override_reason).toContain("cobalt glass");
     expect(rows.find((r) => r.run_id === ownAxisRun.id)?.author).toBe(DEMO.chemist.name);
+    // Absent calls carry their detection limit, as stored with the run; other calls leave it empty.
+    for (const run of runs) {
+      for (const call of run.calls) {
+        const row = rows.find((r) => r.run_id === run.id && r.species === call.species)!;
+        if (call.verdict === "absent" && call.detectionLimit) {
+          expect(Number(row.detection_limit_nm)).toBe(call.detectionLimit.lineNm);
+          expect(Number(row.detection_limit_counts)).toBe(call.detectionLimit.counts);
+        } else if (call.verdict !== "absent") {
+          expect(row.detection_limit_counts).toBe("");
+        }
+      }
+    }
+    expect(runs.some((run) => run.calls.some((c) => c.verdict === "absent" && c.detectionLimit))).toBe(true);
   });
 });
 

@@ -100,16 +100,10 @@ export function pickPeaks(x: Float64Array, signal: PreparedSignal, options: Pick
     ? savitzkyGolayCoefficients({ windowSize: smoothing.windowSize, polynomial: smoothing.polynomial })
     : Float64Array.of(1);
 
-  // A dip must stand out of the noise at the lower top's own level: on the flank of a strong line its
-  // shot noise, not the continuum's, makes the wiggles.
-  const varianceSlope = signal.noiseVarianceSlope ?? 0;
   const candidates = findCandidateMaxima(
     { signal: s, slope },
     noiseProfile
-      ? {
-          minHeight: noiseProfile.map((v) => minSnr * v),
-          minDip: noiseProfile.map((v, i) => minDipSnr * Math.sqrt(v * v + varianceSlope * Math.max(0, s[i]))),
-        }
+      ? { minHeight: noiseProfile.map((v) => minSnr * v), minDip: noiseProfile.map((v) => minDipSnr * v) }
       : { minHeight: minSnr * noise, minDip: minDipSnr * noise },
   );
   const { tops, valleys } = smoothing

@@ -5,10 +5,6 @@ import { assertIntegerInRange } from "./assert-integer-in-range";
 import { estimateNoise } from "./estimate-noise";
 import { xMedian } from "./x-median";
 
-/** σ per sample, with the fitted b of σ² = a + b·level: the variance one more count of signal adds
- * (1/gain), so a line's own shot noise can be added where it stands above the background. */
-export type NoiseProfile = Float64Array & { varianceSlope: number };
-
 export interface EstimateNoiseProfileOptions {
   /**
    * Samples per block; each block gives one robust σ and one median level. 64 samples hold a
@@ -53,7 +49,7 @@ export function estimateNoiseProfile(
   y: Float64Array,
   level: Float64Array,
   options: EstimateNoiseProfileOptions = {},
-): NoiseProfile | null {
+): Float64Array | null {
   const { blockSize: requestedBlockSize = 64, minBlocks = 8, maxBlocks = 256, minSpread = 1.25 } = options;
   assertFiniteArray(y, "y", 3);
   assertFiniteArray(level, "level", 3);
@@ -99,8 +95,7 @@ export function estimateNoiseProfile(
   const floorVariance = sortedVariance[Math.floor(0.1 * (blocks - 1))];
   if (!(floorVariance > 0)) return null;
 
-  const profile = new Float64Array(n) as NoiseProfile;
-  profile.varianceSlope = slope;
+  const profile = new Float64Array(n);
   let lowest = Infinity;
   let highest = 0;
   for (let i = 0; i < n; i++) {

@@ -56,9 +56,6 @@ export interface PreparedSignal {
   /** Per-sample noise σ of the raw counts where it grows measurably with the continuum (shot
    * noise); absent when one σ describes the array (then `noise` holds everywhere). */
   noiseProfile?: Float64Array;
-  /** With a noiseProfile: the variance each count of signal adds (σ² = a + b·level; b is 1/gain),
-   * so the shot noise of a line itself can be judged where it stands high above the continuum. */
-  noiseVarianceSlope?: number;
   /** Runs of raw samples at the detector maximum. */
   saturatedRanges: IndexRange[];
   /** The smoothing actually applied (false when none), so later stages can propagate noise through it. */
@@ -106,9 +103,6 @@ export function prepareSignal(x: Float64Array, y: Float64Array, options: Prepare
   const profileOptions = options.noiseProfile ?? {};
   const noiseProfile =
     options.noise === undefined && profileOptions !== false ? estimateNoiseProfile(y, continuum, profileOptions) : null;
-  if (noiseProfile) {
-    const noiseVarianceSlope = noiseProfile.varianceSlope;
-    return { smoothed, continuum, corrected, noise, noiseProfile, noiseVarianceSlope, saturatedRanges, smoothing };
-  }
+  if (noiseProfile) return { smoothed, continuum, corrected, noise, noiseProfile, saturatedRanges, smoothing };
   return { smoothed, continuum, corrected, noise, saturatedRanges, smoothing };
 }

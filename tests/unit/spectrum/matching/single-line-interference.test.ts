@@ -132,4 +132,16 @@ describe("a present call on one peak that another species explains", () => {
     const result = identifyElements([peak(520.0, 400)], table, options);
     expect(verdict(result, "Xa I")).toBe("present");
   });
+
+  it("makes one faint peak possible even when it holds the principal line and nothing else explains it", () => {
+    const table = [line("Xa I", 520.0, 1000), line("Xa I", 600.0, 100)];
+    expect(verdict(identifyElements([peak(520.0, 6)], table, options), "Xa I")).toBe("possible");
+    const faint = identifyElements([peak(520.0, 6)], table, options).calls.find(
+      (c) => c.species === "Xa I",
+    )!;
+    expect(faint.notes[0]).toMatch(
+      /^Only one peak is seen \(520\.00 nm\), at SNR 6\.0: too faint alone/,
+    );
+    expect(verdict(identifyElements([peak(520.0, 40)], table, options), "Xa I")).toBe("present");
+  });
 });

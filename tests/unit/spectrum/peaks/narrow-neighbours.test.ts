@@ -1,6 +1,6 @@
 // Lines only 2–3 samples wide (a small grating or a prism's slit image) a few widths apart are two
 // peaks, not one: a slope read over the smoothing's whole 9-sample window turned once across both.
-// And a wiggle of shot noise on the flank of a strong line is no second peak.
+// And the smoothing's ringing beside a strong narrow line is no second peak.
 import { describe, it, expect } from "vitest";
 import { findPeaks } from "@/lib/spectrum/peaks";
 import { makeRandom } from "@/lib/spectrum/synthetic/make-random";
@@ -57,7 +57,7 @@ describe("peaks of lines a few samples wide", () => {
     }
   });
 
-  it("does not split a strong line's flank into extra peaks where its own shot noise wiggles", () => {
+  it("does not take the smoothing's ringing beside a strong narrow line for peaks", () => {
     let extra = 0;
     for (let seed = 1; seed <= 20; seed++) {
       const { x, y } = spectrum([{ centre: 500.2, fwhm: 3, height: 60000 }], seed);
