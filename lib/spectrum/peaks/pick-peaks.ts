@@ -32,7 +32,7 @@ export interface PickPeaksOptions {
    */
   minDipSnr?: number;
   /**
-   * Neighbouring peaks closer than this many FWHM (the wider of the two) are both flagged blended.
+   * Neighbouring peaks closer than this many FWHM (the mean of the two) are both flagged blended.
    * @default 1
    */
   blendSeparationFwhm?: number;
@@ -69,7 +69,7 @@ export interface PickPeaksOptions {
  * - fwhm: between the half-height crossings; twice the one available half-width when a flank is
  *   cut by a neighbour or the array's edge;
  * - blended: a flank cut by a neighbour before half height, a neighbour within
- *   blendSeparationFwhm, two significant curvature minima, or a lopsided or flat top
+ *   blendSeparationFwhm mean FWHMs, two significant curvature minima, or a lopsided or flat top
  *   (see shapeSuggestsBlend);
  * - area: trapezoid integral over centre ± areaHalfWidthFwhm·FWHM.
  */
@@ -173,7 +173,12 @@ export function pickPeaks(x: Float64Array, signal: PreparedSignal, options: Pick
     if (!clipped && left !== null && right !== null && shapeSuggestsBlend(s, { index: k, top, left, right, noise: localNoise, smoothingWeights, centreNoise: centreNoiseSamples })) {
       blended = true;
     }
-    if (!clipped && countCurvatureMinima(curvature, { start: areaStart, end: areaEnd, threshold: shoulderSnr * curvatureGain * localNoise }) >= 2) {
+    // A shoulder must also stand above the smoothing's ringing, a few parts in a thousand of the top.
+    const shoulderThreshold = Math.max(
+      shoulderSnr * curvatureGain * localNoise,
+      smoothing ? RINGING_FRACTION * Math.abs(curvature[k]) : 0,
+    );
+    if (!clipped && countCurvatureMinima(curvature, { start: areaStart, end: areaEnd, threshold: shoulderThreshold }) >= 2) {
       blended = true;
     }
 
@@ -199,9 +204,11 @@ export function pickPeaks(x: Float64Array, signal: PreparedSignal, options: Pick
     spans.push(fwhm);
   }
 
+  // Two profiles overlap at half height when their centres are closer than the mean of their FWHMs
+  // (the wider alone would let a broad hump flag every line on its wings).
   for (let p = 1; p < peaks.length; p++) {
-    const widest = Math.max(spans[p - 1], spans[p]);
-    if (peaks[p].x - peaks[p - 1].x < blendSeparationFwhm * widest) {
+    const meanWidth = 0.5 * (spans[p - 1] + spans[p]);
+    if (peaks[p].x - peaks[p - 1].x < blendSeparationFwhm * meanWidth) {
       peaks[p - 1].blended = true;
       peaks[p].blended = true;
     }
