@@ -114,6 +114,9 @@ function nearestIndex(xs: number[], x: number): number {
   return x - xs[low - 1] <= xs[low] - x ? low - 1 : low;
 }
 
+/** Peaks wider than this many typical line widths take no lamp line (as a sample's "broad" peaks). */
+const BROAD_PEAK_FWHMS = 3;
+
 /**
  * Today's calibration from `previous` and today's lamp peaks, or null when the previous calibration
  * cannot be moved onto today's array (another array length, a bent drift, too few lines). A result
@@ -160,7 +163,11 @@ export function recalibrateFromPrevious(
   });
   if (predicted.length < RECALIBRATION_LIMITS.minPairs) return null;
 
-  const order = peaks.map((_, i) => i).sort((a, b) => peaks[a].x - peaks[b].x);
+  // A peak several line widths wide is continuum structure or a clump of lines: no lamp line's place.
+  const order = peaks
+    .map((_, i) => i)
+    .filter((i) => !((peaks[i].fwhm ?? 0) > BROAD_PEAK_FWHMS * fwhmX))
+    .sort((a, b) => peaks[a].x - peaks[b].x);
   const sortedX = order.map((i) => peaks[i].x);
 
   // The grid: steps of half a tolerance in shift and in stretch at the array's ends, coarsened (with a

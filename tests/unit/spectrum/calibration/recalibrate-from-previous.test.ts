@@ -84,6 +84,27 @@ describe("recalibration from the previous calibration", () => {
     );
   });
 
+  it("pairs no lamp line with a peak many line widths wide (continuum structure)", () => {
+    const previous = previousOf(yesterdayNm);
+    const todayPx = (nm: number) => 1.0017 * yesterdayPx(nm) - 11.3;
+    const peaks = lampPeaks(HG_NE_AR_LINES, todayPx, 3);
+    // Humps 40 px wide (ten line widths) right where some of today's lines fall, their own peaks gone.
+    const humped = HG_NE_AR_LINES.filter((_, i) => i % 4 === 0).map((line) =>
+      todayPx(line.wavelengthNm),
+    );
+    const withHumps = peaks
+      .filter((p) => !humped.some((x) => Math.abs(p.x - x) < 1))
+      .concat(
+        humped
+          .filter((x) => x > 0 && x < 2047)
+          .map((x) => ({ x, xUncertainty: 3, height: 300, fwhm: 40 })),
+      );
+    const result = autoPairLampPeaks(withHumps, HG_NE_AR_LINES, { ...options, previous });
+    expect(result.status).toBe("paired");
+    for (const pair of result.pairs)
+      expect(humped.some((x) => Math.abs(pair.x - x) < 1e-9)).toBe(false);
+  });
+
   it("claims only the part of the array its lines fix well enough when they stand in part of it", () => {
     const previous = previousOf(yesterdayNm);
     const todayPx = (nm: number) => 0.999 * yesterdayPx(nm) + 2.2;
