@@ -170,6 +170,12 @@ describe("the PDF report", () => {
     expect(text).toContain(hash);
     expect(text).toContain(`violet flame through cobalt glass was faint ${suffix}`);
     expect(text).not.toContain("Not signed.");
+    // The PDF reads the standing verdict, as the page and the CSV do: K I's evidence is headed
+    // possible and it is not among the species called present.
+    expect(text).toContain("Evidence: K I (possible)");
+    const calledPresent = (/Called present: ([^\n]*)/.exec(text)?.[1] ?? "").split("Possible:")[0];
+    expect(calledPresent).toContain("Na I");
+    expect(calledPresent).not.toContain("K I");
   });
 });
 
