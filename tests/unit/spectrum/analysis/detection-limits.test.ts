@@ -3,23 +3,12 @@
 import { describe, it, expect } from "vitest";
 import { analyzeSample } from "../../../../lib/spectrum/analysis";
 import { makeRandom } from "../../../../lib/spectrum/synthetic/make-random";
-import type { ReferenceLine } from "../../../../lib/spectrum/types";
+import { inventedLine } from "../../../support/invented-line";
 
 // An invented table: Xa is in the sample; Yb (principal 600 nm) and Zc (principal 800 nm, outside
 // the range, and a weaker line at 650 nm) are not.
-function line(species: string, airNm: number, flame: number): ReferenceLine {
-  return {
-    id: `${species}-${airNm}`,
-    species,
-    element: species.split(" ")[0],
-    ionStage: 1,
-    airNm,
-    vacuumNm: airNm * 1.00028,
-    uncertaintyNm: 0.001,
-    intensities: { flame },
-    flags: {},
-  };
-}
+const line = (species: string, airNm: number, flame: number) =>
+  inventedLine(species, airNm, { flame });
 const table = [
   line("Xa I", 500, 1000),
   line("Yb I", 600, 1000),

@@ -2,25 +2,12 @@
 // group of two lines with one credit, and the evidence says so.
 import { describe, it, expect } from "vitest";
 import { identifyElements } from "@/lib/spectrum/matching";
-import type { CalibratedPeak, ReferenceLine } from "@/lib/spectrum/types";
-
-function line(id: string, airNm: number, flame: number): ReferenceLine {
-  return {
-    id,
-    species: "Na I",
-    element: "Na",
-    ionStage: 1,
-    airNm,
-    vacuumNm: airNm * 1.00028,
-    uncertaintyNm: 0.001,
-    intensities: { flame },
-    flags: {},
-  };
-}
+import type { CalibratedPeak } from "@/lib/spectrum/types";
+import { inventedLine } from "../../../support/invented-line";
 
 // NIST ASD air wavelengths of the Na D lines (from memory); D2 about twice D1 in a flame (common practice).
-const D2 = line("d2", 588.995, 1000);
-const D1 = line("d1", 589.592, 500);
+const D2 = inventedLine("Na I", 588.995, { flame: 1000 });
+const D1 = inventedLine("Na I", 589.592, { flame: 500 });
 
 // At 1 nm resolution the doublet (0.6 nm apart) is one peak at its intensity-weighted centre, 15 %
 // wider than one line.
