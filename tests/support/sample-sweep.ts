@@ -52,7 +52,8 @@ const SOURCES: SourceKind[] = ["arc", "spark", "plasma", "lamp", "flame"];
  * make 30 % of the peak given that species' strongest line in range (by the table's intensities for
  * the source, or for the first other source it rates where it rates none for this one; a line
  * without one counts as the species' faintest rated line): either that strongest
- * line would stay below SNR 6 at that share, or a peak stands at it bright enough to go with it.
+ * line would stay below SNR 6 at that share, or a peak stands at it bright enough to go with it. A
+ * band four or more line widths long explains no peak as narrow as a line (1.5 line widths).
  */
 function singleLinePresents(analysis: SampleAnalysis, source: SourceKind): string[] {
   const out: string[] = [];
@@ -67,6 +68,16 @@ function singleLinePresents(analysis: SampleAnalysis, source: SourceKind): strin
     const halfNm = 0.5 * (peak.resolutionNm ?? peak.fwhmNm);
     const explains = (rival: ReferenceLine) => {
       if (rival.element === call.element || Math.abs(rival.airNm - peak.wavelengthNm) > halfNm) {
+        return false;
+      }
+      // A band several line widths long shows as a feature wider than a line, never as a line.
+      const band = rival.band;
+      if (
+        band &&
+        peak.resolutionNm &&
+        band.extentNm >= 4 * peak.resolutionNm &&
+        peak.fwhmNm < 1.5 * peak.resolutionNm
+      ) {
         return false;
       }
       const own = STARTER_TABLE.filter((l) => l.species === rival.species);
