@@ -13,7 +13,7 @@
 // - a Planck-like continuum, Poisson and read noise, a dark offset, a few weak unlisted impurity lines;
 // - in about a third of the samples one of the known interference cases of issue 12.
 import type { CalibrationModel } from "@/lib/spectrum/calibration";
-import { fitCalibration } from "@/lib/spectrum/calibration";
+import { compareCalibrationModels, fitCalibration } from "@/lib/spectrum/calibration";
 import { makeRandom, type SeededRandom } from "@/lib/spectrum/synthetic/make-random";
 import type { ReferenceLine } from "@/lib/spectrum/types";
 import { GENERATOR_GLASSES, STARTER_TABLE } from "./realistic-lamp";
@@ -440,11 +440,17 @@ export function realisticSample(
       const wavelengthNm = wavelengths[i] + (wavelengths[i + 1] - wavelengths[i]) * (px - i);
       return { x: px + 0.05 * random.normal(), xUncertainty: 0.05, wavelengthNm };
     });
-    calibration = fitCalibration(pairs, {
-      model: "polynomial",
-      degree: instrument === "grating" ? 3 : 5,
-      domain: [0, pixelCount - 1],
-    }).model;
+    // A grating's cubic; for a prism the model the workbench recommends from these pairs (a
+    // polynomial cannot follow a prism's red end: degree 5 put lines there 4–6 nm off).
+    const domain: [number, number] = [0, pixelCount - 1];
+    if (instrument === "grating") {
+      calibration = fitCalibration(pairs, { model: "polynomial", degree: 3, domain }).model;
+    } else {
+      const compared = compareCalibrationModels(pairs, { dispersion: "prism", domain });
+      calibration =
+        compared.candidates[compared.recommended]?.model ??
+        fitCalibration(pairs, { model: "polynomial", degree: 5, domain }).model;
+    }
   } else {
     x = wavelengths;
   }
