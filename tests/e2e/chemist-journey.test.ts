@@ -120,6 +120,14 @@ describe("the chemist's journey", () => {
     expect(await page.getByTestId("screening-notice").textContent()).toContain("A screening aid, not a certified analysis.");
     await screenshot(page, "chemist-5-run");
     await page.screenshot({ path: `${SCREENSHOT_DIR}/chemist-6-run-chart.png` });
+    // The species called absent open from the keyboard and carry their detection limits.
+    const absent = page.getByTestId("absent-calls");
+    await absent.locator("summary").focus();
+    await page.keyboard.press("Enter");
+    const limits = await absent.getByTestId("detection-limit").allTextContents();
+    expect(limits.some((t) => /^< [\d.]+ counts \([\d.]+ % of the strongest peak\) at \d+\.\d\d nm/.test(t)), limits.join(" | ")).toBe(true);
+    await absent.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: `${SCREENSHOT_DIR}/chemist-6b-absent-limits.png` });
 
     // Raw / continuum-removed, from the keyboard: arrow keys move between the two views.
     await page.getByRole("radio", { name: "Raw counts" }).focus();
