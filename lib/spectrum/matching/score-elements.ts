@@ -1153,7 +1153,12 @@ function rationaleOf(
   }
   // strongMissing holds the listed ones; missingStrongCount counts them all.
   const strongCount = entry.missingStrongCount;
-  if (strongCount > 0) {
+  if (strongCount > 0 && strongMissing.every((m) => m.predictedSnr === null)) {
+    // No rated line of the species was seen to scale a prediction from: name the lines only.
+    parts.push(
+      `strong line${plural(strongCount)} missing (${formatNm(strongMissing.map((m) => m.referenceNm))}${andMore(strongCount - strongMissing.length)})`,
+    );
+  } else if (strongCount > 0) {
     parts.push(
       `strong line${plural(strongCount)} missing though expected at SNR ≈ ${strongMissing
         .map((m) => `${Math.round(m.predictedSnr ?? 0)} (${m.referenceNm.toFixed(2)} nm)`)
