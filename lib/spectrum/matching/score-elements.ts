@@ -628,9 +628,9 @@ interface SinglePeakContext {
 }
 
 /**
- * Whether `rival`, had it made this peak alone with its line `lineIndex`, would have shown no other
- * line: every line of it in range that would then stand at missingSnr or more is matched to some peak
- * or may hide in a stronger one's wing. A line the table gives no intensity is taken as the rival's
+ * Whether `rival`, had its line `lineIndex` stood at SNR `peakSnr` (the share of the peak it is asked
+ * to make), would have shown no other line: every line of it in range that would then stand at
+ * missingSnr or more is matched to some peak or may hide in a stronger one's wing. A line the table gives no intensity is taken as the rival's
  * faintest rated line in range (the table rates a species' strong lines). A rival without intensities
  * is not weighed and always could.
  */
