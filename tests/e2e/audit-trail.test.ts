@@ -62,7 +62,8 @@ describe("the audit trail", () => {
       data: {
         line: {
           species: "Xe I",
-          airNm: 823.1 + (Date.now() % 1000) / 10_000,
+          // Between the table's Xe I lines at 828.01 and 834.68 nm (823.1–823.2 met Xe I 823.163).
+          airNm: 831.0 + (Date.now() % 1000) / 10_000,
           uncertaintyNm: 0.002,
           source: "Browser test row (from memory), retired at once",
         },
