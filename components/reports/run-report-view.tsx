@@ -2,6 +2,7 @@
 // model), laid out for A4 with print styles that hide the workspace navigation.
 import type { ReactNode } from "react";
 import type { ChartGeometry } from "@/lib/reports/chart-geometry";
+import { detectionLimitsSentence } from "@/lib/reports/detection-limit-text";
 import { formatUtc, type ReportCall, type ReportField, type RunReport } from "@/lib/reports/report-model";
 import { ReportChart } from "./report-chart";
 
@@ -40,6 +41,7 @@ const signed = (v: number) => `${v >= 0 ? "+" : "−"}${Math.abs(v).toFixed(4)}`
 export function RunReportView({ report, chart }: { report: RunReport; chart: ChartGeometry }) {
   const present = report.calls.filter((c) => c.verdict === "present").map((c) => c.species);
   const possible = report.calls.filter((c) => c.verdict === "possible").map((c) => c.species);
+  const limitsSentence = detectionLimitsSentence(report.absentLimits);
   const c = report.calibration;
   return (
     <article className="report mx-auto max-w-[210mm] text-[var(--text)]" data-testid="run-report">
@@ -126,14 +128,9 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
         {report.absentSpecies.length ? (
           <p className="muted mt-1 text-xs">Candidates not supported by the spectrum (absent): {report.absentSpecies.join(", ")}.</p>
         ) : null}
-        {report.absentLimits.some((a) => a.limit !== "—") ? (
+        {limitsSentence ? (
           <p className="muted mt-1 text-xs" data-testid="detection-limits">
-            Detection limits (the least height each one&apos;s strongest line in range needed to be found):{" "}
-            {report.absentLimits
-              .filter((a) => a.limit !== "—")
-              .map((a) => `${a.species} ${a.limit}`)
-              .join("; ")}
-            .
+            {limitsSentence}
           </p>
         ) : null}
       </Section>

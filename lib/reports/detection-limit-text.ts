@@ -7,7 +7,9 @@ export function detectionLimitText(limit: StoredDetectionLimit | null | undefine
   if (!limit) return "—";
   const counts = limit.counts >= 100 ? limit.counts.toFixed(0) : limit.counts.toPrecision(2);
   const share =
-    limit.relativeToStrongest === null ? "" : ` (${formatPercent(limit.relativeToStrongest)} of the strongest peak)`;
+    limit.relativeToStrongest === null
+      ? ""
+      : ` (${formatPercent(limit.relativeToStrongest)} of the strongest peak)`;
   const which = limit.principal ? "" : ", the strongest line in range";
   return `< ${counts} counts${share} at ${limit.lineNm.toFixed(2)} nm${which}`;
 }
@@ -15,4 +17,15 @@ export function detectionLimitText(limit: StoredDetectionLimit | null | undefine
 function formatPercent(share: number): string {
   const percent = 100 * share;
   return `${percent >= 10 ? percent.toFixed(0) : percent >= 1 ? percent.toFixed(1) : percent.toPrecision(2)} %`;
+}
+
+/** The report's sentence over the absent species that have a limit, or null when none has one. */
+export function detectionLimitsSentence(
+  absentLimits: readonly { species: string; limit: string }[],
+): string | null {
+  const limited = absentLimits.filter((a) => a.limit !== "—");
+  if (limited.length === 0) return null;
+  return `Detection limits (the least height each one's strongest line in range needed to be found): ${limited
+    .map((a) => `${a.species} ${a.limit}`)
+    .join("; ")}.`;
 }

@@ -3,6 +3,7 @@
 // signatures, and on every page a header, the screening caveat and the page number.
 import PDFDocument from "pdfkit";
 import { chartGeometry, chartLabelsFromCalls } from "./chart-geometry";
+import { detectionLimitsSentence } from "./detection-limit-text";
 import { formatUtc, type ReportCall, type RunReport } from "./report-model";
 
 export interface ReportFonts {
@@ -287,15 +288,8 @@ class Writer {
     if (report.absentSpecies.length) {
       this.doc.moveDown(0.3);
       this.paragraph(`Candidates not supported by the spectrum (absent): ${report.absentSpecies.join(", ")}.`, { size: 8, color: MUTED });
-      const limits = report.absentLimits.filter((a) => a.limit !== "—");
-      if (limits.length) {
-        this.paragraph(
-          `Detection limits (the least height each one's strongest line in range needed to be found): ${limits
-            .map((a) => `${a.species} ${a.limit}`)
-            .join("; ")}.`,
-          { size: 8, color: MUTED },
-        );
-      }
+      const limits = detectionLimitsSentence(report.absentLimits);
+      if (limits) this.paragraph(limits, { size: 8, color: MUTED });
     }
     for (const call of report.calls) this.evidence(call);
   }

@@ -2,6 +2,7 @@
 // what pages and the API see; no Sequelize instance or column name gets past the services.
 import type { AxisUnit, SourceKind, WavelengthMedium } from "@/lib/spectrum/types";
 import type { Verdict } from "@/lib/spectrum/matching";
+import type { DetectionLimit } from "@/lib/spectrum/analysis/detection-limits";
 import packageJson from "@/package.json";
 import type { RunStatus } from "@/models/run";
 
@@ -156,14 +157,8 @@ export interface StoredRunCall {
   detectionLimit?: StoredDetectionLimit | null;
 }
 
-/** See DetectionLimit in lib/spectrum/analysis/detection-limits.ts. */
-export interface StoredDetectionLimit {
-  lineNm: number;
-  principal: boolean;
-  noiseCounts: number;
-  counts: number;
-  relativeToStrongest: number | null;
-}
+/** Stored as the analysis gives it. */
+export type StoredDetectionLimit = DetectionLimit;
 
 /** One call as pages and the API see it: `verdict` is the standing verdict (the newest override's
  * when one applies), `computedVerdict` what the analysis found, `override` the override that

@@ -5,7 +5,9 @@ import type { CalibrationModel, CalibrationWarning } from "../calibration/calibr
 import { calibrationRangeWarnings } from "../calibration/calibration-range-warnings";
 import { dispersionAt } from "../calibration/dispersion-at";
 import { evaluateCalibration } from "../calibration/evaluate-calibration";
+import { inverseOfModel } from "../calibration/inverse-of-model";
 import { identifyElements, type ElementIdentification } from "../matching/identify-elements";
+import { lowerBound } from "../matching/lower-bound";
 import { prepareLineIndex, type LineIndex } from "../matching/prepare-line-index";
 import { pickPeaks, type PickPeaksOptions } from "../peaks/pick-peaks";
 import { binSamples } from "../signal/bin-samples";
@@ -163,13 +165,14 @@ export function analyzeSample(
   const warnings: CalibrationWarning[] = calibration ? calibrationRangeWarnings(calibration, ends) : [];
   const continuum = binningFactor > 1 ? interpolateOnto(binned.x, signal.continuum, x) : signal.continuum;
   const temperature = excitationTemperature(identification.calls, peaks);
-  const binnedNm = calibration ? evaluateCalibration(calibration, binned.x) : binned.x;
+  // The input x of a wavelength: through the calibration's inverse (NaN where it does not reach).
+  const xOfNm = calibration ? inverseOfModel(calibration, [x[0], x[x.length - 1]]) : (nm: number) => nm;
   const limits = detectionLimits(identification.calls, {
     index,
     source,
     rangeNm,
     noiseAtNm: (nm) => {
-      const i = nearestSample(binnedNm, nm);
+      const i = nearestSample(binned.x, xOfNm(nm));
       return i < 0 ? Number.NaN : signal.noiseProfile ? signal.noiseProfile[i] : signal.noise;
     },
     minSnr,
@@ -190,22 +193,12 @@ export function analyzeSample(
   };
 }
 
-/** Index of the sample nearest `nm` on a monotonic axis, or −1 when nm lies outside it. */
-function nearestSample(axisNm: Float64Array, nm: number): number {
-  const n = axisNm.length;
-  if (n === 0) return -1;
-  const rising = axisNm[n - 1] >= axisNm[0];
-  const at = (i: number) => (rising ? axisNm[i] : -axisNm[i]);
-  const goal = rising ? nm : -nm;
-  if (!(goal >= at(0) && goal <= at(n - 1))) return -1;
-  let low = 0;
-  let high = n - 1;
-  while (high - low > 1) {
-    const mid = (low + high) >> 1;
-    if (at(mid) <= goal) low = mid;
-    else high = mid;
-  }
-  return goal - at(low) <= at(high) - goal ? low : high;
+/** Index of the sample of increasing `axis` nearest `at`, or −1 when `at` lies outside it. */
+function nearestSample(axis: Float64Array, at: number): number {
+  const n = axis.length;
+  if (!(at >= axis[0] && at <= axis[n - 1])) return -1;
+  const i = lowerBound(axis, at);
+  return i > 0 && at - axis[i - 1] <= axis[i] - at ? i - 1 : i;
 }
 
 /**

@@ -3,6 +3,7 @@
 // (its dispersion falls), so one number cannot serve a prism. The width is read from the sample's
 // own clean peaks as a power law, fitted robustly in log–log.
 import { TheilSenRegression } from "ml-regression-theil-sen";
+import { assertIntegerInRange } from "../signal/assert-integer-in-range";
 import type { Peak } from "../types";
 
 export interface EstimateInstrumentFwhmTrendOptions {
@@ -52,11 +53,8 @@ export function estimateInstrumentFwhmTrend(
   if (!(minSnr >= 0) || !Number.isFinite(minSnr)) {
     throw new RangeError(`minSnr must be a finite number ≥ 0, got ${minSnr}`);
   }
-  for (const [name, value] of Object.entries({ maxPeaks, minPeaks })) {
-    if (!Number.isInteger(value) || value < 2) {
-      throw new RangeError(`${name} must be an integer ≥ 2, got ${value}`);
-    }
-  }
+  assertIntegerInRange(maxPeaks, "maxPeaks", 2);
+  assertIntegerInRange(minPeaks, "minPeaks", 2);
   if (!(minSpanRatio >= 1) || !Number.isFinite(minSpanRatio)) {
     throw new RangeError(`minSpanRatio must be a finite number ≥ 1, got ${minSpanRatio}`);
   }

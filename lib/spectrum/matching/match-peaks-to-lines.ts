@@ -105,35 +105,32 @@ export function matchPeaksToLines(
   return peaks.map((peak, peakIndex) => {
     assertPeak(peak, peakIndex);
     const instrumentNm = peak.resolutionNm ?? resolutionNm;
-    // A blended peak's components can lie anywhere across its own width, not only within the
-    // instrument's: its centroid may then sit up to half that width from either of them.
-    // A peak no wider than one line cannot hide a companion that would move its centroid far:
-    // only its width beyond the instrument's (in quadrature) can, with a floor for what noise on the
-    // measured width leaves unseen.
-    const sigmaResNm =
-      instrumentNm === undefined
-        ? resolutionSigmaFraction * peak.fwhmNm
-        : peak.blended
-          ? resolutionSigmaFraction * Math.max(instrumentNm, peak.fwhmNm)
-          : Math.max(
-              cleanResolutionSigmaFraction * instrumentNm,
-              resolutionSigmaFraction *
-                Math.min(
-                  peak.fwhmNm,
-                  2 * Math.sqrt(Math.max(0, peak.fwhmNm ** 2 - instrumentNm ** 2)),
-                ),
-            );
-    const baseVarianceNm2 = peak.wavelengthUncertaintyNm ** 2 + sigmaResNm ** 2;
-    // A band's feature is as wide as the band by nature: only its head's place is compared, to
-    // within what the instrument (or a blend) leaves open; the head zone allows for the extent.
-    const bandResolutionNm =
+    // The instrument's FWHM at the peak, or a blended peak's own when wider (its components can lie
+    // anywhere across it); a band's feature is as wide as the band by nature, so its head's place is
+    // compared to within this alone, the head zone allowing for the extent.
+    const resolutionFwhmNm =
       instrumentNm === undefined
         ? peak.fwhmNm
         : peak.blended
           ? Math.max(instrumentNm, peak.fwhmNm)
           : instrumentNm;
-    const bandVarianceNm2 =
-      peak.wavelengthUncertaintyNm ** 2 + (resolutionSigmaFraction * bandResolutionNm) ** 2;
+    const bandSigmaResNm = resolutionSigmaFraction * resolutionFwhmNm;
+    // A clean peak no wider than one line cannot hide a companion that would move its centroid far:
+    // only its width beyond the instrument's (in quadrature) can, with a floor for what noise on the
+    // measured width leaves unseen.
+    const sigmaResNm =
+      instrumentNm === undefined || peak.blended
+        ? bandSigmaResNm
+        : Math.max(
+            cleanResolutionSigmaFraction * instrumentNm,
+            resolutionSigmaFraction *
+              Math.min(
+                peak.fwhmNm,
+                2 * Math.sqrt(Math.max(0, peak.fwhmNm ** 2 - instrumentNm ** 2)),
+              ),
+          );
+    const baseVarianceNm2 = peak.wavelengthUncertaintyNm ** 2 + sigmaResNm ** 2;
+    const bandVarianceNm2 = peak.wavelengthUncertaintyNm ** 2 + bandSigmaResNm ** 2;
     const candidates: LineCandidate[] = [];
 
     const lineReachNm = k * Math.sqrt(baseVarianceNm2 + index.maxLineUncertaintyNm ** 2);

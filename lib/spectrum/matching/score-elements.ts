@@ -556,12 +556,6 @@ export function scoreElements(
   return { calls, overlaps, unexplainedPeaks };
 }
 
-/** Distinct peaks a call's seen lines stand on (Infinity when not all seen lines are listed). */
-function evidencePeaks(call: ElementCall): number {
-  if (call.seenCount > call.seen.length) return Number.POSITIVE_INFINITY;
-  return new Set(call.seen.map((s) => s.peakIndex)).size;
-}
-
 /** A line expected at this share of the peak's SNR, or more, could have made the peak. */
 const EXPLAINING_SHARE = 0.3;
 
@@ -570,19 +564,19 @@ const EXPLAINING_SHARE = 0.3;
  * line seen at another peak, scaled by the two lines' relative intensities (a faint line of a species
  * seen strongly elsewhere cannot make a strong peak). A line the table gives no intensity is taken as
  * no stronger than the rival's faintest rated line seen (the table rates a species' strong lines).
- * Without a rated line seen elsewhere, it could.
+ * Null without a rated line seen elsewhere: nothing there to judge from.
  */
 function couldMake(
   rival: ElementCall,
   peakIndex: number,
   relativeHere: number,
   peakSnr: number,
-): boolean {
-  if (!(peakSnr > 0)) return true;
+): boolean | null {
   const elsewhere = rival.seen.filter(
     (s) => s.peakIndex !== peakIndex && s.relativeIntensity !== null && s.relativeIntensity > 0,
   );
-  if (elsewhere.length === 0) return true;
+  if (elsewhere.length === 0) return null;
+  if (!(peakSnr > 0)) return true;
   const anchor = elsewhere.reduce((a, b) => (b.relativeIntensity! > a.relativeIntensity! ? b : a));
   const relative = Number.isNaN(relativeHere)
     ? Math.min(...elsewhere.map((s) => s.relativeIntensity!))
@@ -679,87 +673,83 @@ function demoteSinglePeakCalls(calls: ElementCall[], context: SinglePeakContext)
   const callOf = new Map(calls.map((call) => [call.species, call]));
   const { index } = context;
   for (const call of calls) {
-    if (call.verdict !== "present" || evidencePeaks(call) !== 1) continue;
+    if (call.verdict !== "present" || call.seenPeaks !== 1 || call.seen.length === 0) continue;
     const peakIndex = call.seen[0].peakIndex;
     const match = context.matchByPeak.get(peakIndex)!;
     const peakNm = match.peak.wavelengthNm.toFixed(2);
-    if (call.seen[0].snr < SINGLE_PEAK_MIN_SNR) {
-      call.verdict = "possible";
-      call.notes.push(
-        `Only one peak is seen (${peakNm} nm), at SNR ${call.seen[0].snr.toFixed(1)}: too faint alone to call ` +
+    const snr = call.seen[0].snr;
+    if (snr < SINGLE_PEAK_MIN_SNR) {
+      demoteToPossible(
+        call,
+        `Only one peak is seen (${peakNm} nm), at SNR ${snr.toFixed(1)}: too faint alone to call ` +
           `${call.species} present; another of its lines would decide.`,
+        "One faint peak is no proof.",
       );
-      call.rationale = `${call.rationale.replace(/^Present:/, "Possible:")} One faint peak is no proof.`;
       continue;
     }
     if (!call.seen.some((s) => s.relativeIntensity === 1)) {
-      call.verdict = "possible";
-      call.notes.push(
+      demoteToPossible(
+        call,
         `Only one peak is seen (${peakNm} nm) and it holds none of the principal line of ${call.species}; ` +
           `its strongest line would decide.`,
+        "One peak without the principal line is no proof.",
       );
-      call.rationale = `${call.rationale.replace(/^Present:/, "Possible:")} One peak without the principal line is no proof.`;
       continue;
     }
     // The rival's line at the peak most able to make it: its strongest there.
-    const rivalLine = new Map<string, number>();
+    const rivalLine = new Map<string, { lineIndex: number; relative: number }>();
     for (const candidate of match.candidates) {
       const lines = index.species[index.speciesOfLine[candidate.lineIndex]];
       const rival = context.work.get(lines.species);
       // A species the table rates for other sources but not this one is not expected from it.
       if (lines.element === call.element || !rival || borrowed(rival.info, context.source))
         continue;
-      const relative = (lineIndex: number) =>
-        rival.info.scale.relative[index.positionInSpecies[lineIndex]];
+      const relative = rival.info.scale.relative[index.positionInSpecies[candidate.lineIndex]];
       const held = rivalLine.get(lines.species);
-      if (held === undefined || relative(candidate.lineIndex) > relative(held)) {
-        rivalLine.set(lines.species, candidate.lineIndex);
+      if (held === undefined || relative > held.relative) {
+        rivalLine.set(lines.species, { lineIndex: candidate.lineIndex, relative });
       }
     }
-    const snr = call.seen[0].snr;
     const explainers: string[] = [];
-    for (const [species, lineIndex] of rivalLine) {
+    for (const [species, { lineIndex, relative }] of rivalLine) {
       // A rival explains the peak when it could make a fair share of it (EXPLAINING_SHARE) without its
       // other lines showing. One seen elsewhere must also not be too faint there for the peak, and
       // when its own lines call it absent at that scale, the share must still be allowed.
       const rivalCall = callOf.get(species);
-      const seenElsewhere = rivalCall?.seen.some(
-        (s) => s.peakIndex !== peakIndex && s.relativeIntensity !== null && s.relativeIntensity > 0,
-      );
-      const rival = context.work.get(species)!;
       const allowedByUnseen = () =>
-        unseenLinesAllow(rival, lineIndex, EXPLAINING_SHARE * snr, context);
-      const could = seenElsewhere
-        ? couldMake(
-            rivalCall!,
-            peakIndex,
-            rival.info.scale.relative[index.positionInSpecies[lineIndex]],
-            snr,
-          ) &&
-          (rivalCall!.verdict !== "absent" || allowedByUnseen())
-        : allowedByUnseen();
+        unseenLinesAllow(context.work.get(species)!, lineIndex, EXPLAINING_SHARE * snr, context);
+      const fromElsewhere = rivalCall ? couldMake(rivalCall, peakIndex, relative, snr) : null;
+      const could =
+        fromElsewhere === null
+          ? allowedByUnseen()
+          : fromElsewhere && (rivalCall!.verdict !== "absent" || allowedByUnseen());
       if (could) explainers.push(species);
     }
     if (explainers.length === 0) continue;
     explainers.sort();
-    call.verdict = "possible";
     const names = explainers.join(", ");
     // The line that would decide: the strongest of each species in range away from this peak.
     const deciders = [call.species, ...explainers].flatMap((species) => {
       const nm = decidingLineNm(context.work.get(species), match.peak);
       return nm === null ? [] : [`${species} ${nm.toFixed(2)} nm`];
     });
-    call.notes.push(
+    demoteToPossible(
+      call,
       `Interference: ${names} also explain${explainers.length === 1 ? "s" : ""} the only peak seen, at ` +
         `${peakNm} nm; ` +
         (deciders.length > 0
           ? `a peak at ${deciders.join(" or ")} would decide.`
           : `another line of ${call.species} would decide.`),
+      `Only one peak is seen, and ${names} ${explainers.length === 1 ? "has" : "have"} a line there too.`,
     );
-    call.rationale =
-      `${call.rationale.replace(/^Present:/, "Possible:")} Only one peak is seen, and ${names} ` +
-      `${explainers.length === 1 ? "has" : "have"} a line there too.`;
   }
+}
+
+/** A present call becomes possible, with a note saying why and the reason added to its rationale. */
+function demoteToPossible(call: ElementCall, note: string, reason: string): void {
+  call.verdict = "possible";
+  call.notes.push(note);
+  call.rationale = `${call.rationale.replace(/^Present:/, "Possible:")} ${reason}`;
 }
 
 /**
