@@ -255,6 +255,28 @@ function withCheckedEnds(context: PairingContext, result: LampPairingResult): La
   const { pairs, fit, trimmed } = trimPulledEnds(result.pairs, result.model, context.domain, fwhmX);
   if (trimmed.length === 0) return result;
   const setAside = new Set(trimmed.map((p) => p.peakIndex));
+  // What is left is a pairing of its own and is checked as one: setting two pairs aside can leave a
+  // third beyond a gap that a quintic then follows (seen in the sweep: 8 nm wrong across 130 nm).
+  const verdict = verifyLampPairing(context, pairs, fit);
+  if (!verdict.passed) {
+    const reasons = verdict.checks.filter((c) => !c.passed).map((c) => c.reason);
+    return {
+      ...result,
+      status: "check",
+      checks: verdict.checks,
+      reasons,
+      candidate: fit,
+      confidence: Math.min(0.49, result.confidence),
+      pairs: [],
+      model: null,
+      suggestion: pairs,
+      unmatchedPeaks: context.peaks.slice(),
+      unmatchedLines: context.candidateLines.map((l) => context.lines[l]),
+      message:
+        `check this pairing: with ${trimmed.length} end pair${trimmed.length > 1 ? "s" : ""} set aside ` +
+        `(${describePairs(trimmed)}), ${reasons.join("; ")}`,
+    };
+  }
   return {
     ...result,
     pairs,
@@ -263,9 +285,14 @@ function withCheckedEnds(context: PairingContext, result: LampPairingResult): La
     unmatchedLines: [...result.unmatchedLines, ...trimmed.map((p) => context.lines[p.lineIndex])],
     message:
       `${result.message}; ${trimmed.length} end pair${trimmed.length > 1 ? "s" : ""} set aside ` +
-      `(${trimmed.map((p) => `${p.species ?? ""} ${p.wavelengthNm.toFixed(3)} nm`.trim()).join(", ")}): ` +
+      `(${describePairs(trimmed)}): ` +
       `the calibration there rested on ${trimmed.length > 1 ? "them" : "it"} alone`,
   };
+}
+
+/** "Ar I 416.418 nm, Ar I 418.188 nm" */
+function describePairs(pairs: readonly LampPair[]): string {
+  return pairs.map((p) => `${p.species ?? ""} ${p.wavelengthNm.toFixed(3)} nm`.trim()).join(", ");
 }
 
 /** Judges a final fit of `pairs`: its used pairs, and its precision in x (residuals through the local dispersion). */
@@ -372,6 +399,23 @@ function judge(context: PairingContext, givenPairs: LampPair[], givenFit: FitCal
     const usedRest = rest.filter((_, i) => refit.pairs[i].used);
     trial = { pairs: usedRest, fit: refit, verdict: verifyLampPairing(context, usedRest, refit) };
   }
+  // Pairs beyond a wide gap at one end decide the calibration there alone, and a shifted cluster of them
+  // bends a polynomial onto itself unseen; the rest, when it passes every check on its own, is trusted
+  // over the range it covers, and the pairs beyond the gap are reported set aside.
+  let beyondGap: LampPair[] = [];
+  if (trial.verdict && !trial.verdict.passed && trial.verdict.beyondGap) {
+    const aside = new Set(trial.verdict.beyondGap);
+    const rest = trial.pairs.filter((p) => !aside.has(p));
+    const refit = rest.length >= 3 ? finalFit(context, rest) : null;
+    if (refit) {
+      const usedRest = rest.filter((_, i) => refit.pairs[i].used);
+      const verdictRest = verifyLampPairing(context, usedRest, refit);
+      if (verdictRest.passed) {
+        trial = { pairs: usedRest, fit: refit, verdict: verdictRest };
+        beyondGap = [...aside];
+      }
+    }
+  }
   // Only a pairing that passes after the drops replaces the one given; otherwise the given one is reported.
   if (trial.verdict?.passed && trial.pairs !== pairs) {
     ({ pairs, fit, verdict } = trial);
@@ -407,7 +451,11 @@ function judge(context: PairingContext, givenPairs: LampPair[], givenFit: FitCal
     unmatchedPeaks,
     unmatchedLines,
     message: paired
-      ? `paired ${pairs.length} of ${peaks.length} peaks (confidence ${confidence.toFixed(2)}, RMS ${fit!.rmsNm.toFixed(4)} nm)`
+      ? `paired ${pairs.length} of ${peaks.length} peaks (confidence ${confidence.toFixed(2)}, RMS ${fit!.rmsNm.toFixed(4)} nm)` +
+        (beyondGap.length > 0
+          ? `; ${beyondGap.length} pair${beyondGap.length > 1 ? "s" : ""} beyond a wide gap set aside (${describePairs(beyondGap)}): ` +
+            `the calibration there would have rested on ${beyondGap.length > 1 ? "them" : "it"} alone`
+          : "")
       : status === "check"
         ? `check this pairing: ${reasons.join("; ")}`
         : `no trustworthy pairing (confidence ${confidence.toFixed(2)} < ${context.minConfidence}): ` +

@@ -50,7 +50,14 @@ export interface PairingVerdict {
   margin: number;
   /** The pair the leave-one-out check found worst, when that check failed. */
   looOutlier?: LampPair;
+  /** The pairs beyond the gap, when the lopsided-support check failed. */
+  beyondGap?: LampPair[];
 }
+
+/** Most pairs at an end that the lopsided-support check looks beyond a gap for. */
+const MAX_PAIRS_BEYOND_GAP = 3;
+/** Three pairs beyond a gap count as one when they span no more than this share of the gap. */
+const TIGHT_CLUSTER_SHARE = 0.25;
 
 /** Limits of the checks, tuned on the realistic-lamp sweep (tests/support/realistic-lamp.ts; `npm run sweep`). */
 export const PAIRING_CHECK_LIMITS = {
@@ -69,7 +76,7 @@ export const PAIRING_CHECK_LIMITS = {
   maxResidualsPrism: 0.2,
   /** Largest leave-one-out miss, in matching tolerances (half a resolution element). */
   maxLeaveOneOut: 1.5,
-  /** Largest share of the covered span that one or two end pairs may sit beyond a gap. */
+  /** Largest share of the covered span that one to three end pairs may sit beyond a gap. */
   maxEndGap: 0.3,
   /** Largest disagreement of two model shapes over the covered range, in matching tolerances (grating). */
   maxModelDisagreement: 0.25,
@@ -225,31 +232,38 @@ export function verifyLampPairing(
         : `the end pair ${worstEndPair ? `${worstEndPair.species ?? ""} ${worstEndPair.wavelengthNm.toFixed(3)} nm at x ${worstEndPair.x.toFixed(1)}`.trim() : ""} lands outside where the other pairs put it, so the calibration at that end rests on it alone`,
   });
 
-  // Lopsided support: one or two pairs beyond a wide gap at either end of the covered range, measured
-  // in wavelength (a prism spreads its sparse blue lines over many pixels; what matters is how much of
-  // the spectrum has no line).
+  // Lopsided support: a few pairs beyond a wide gap at either end of the covered range, measured in
+  // wavelength (a prism spreads its sparse blue lines over many pixels; what matters is how much of the
+  // spectrum has no line). Up to three: a cluster of three pairs tight against its gap, all shifted by one
+  // lamp line, is as free to bend a polynomial as one pair (seen in the sweep: Ar I 416–420 nm on a prism, 8 nm wrong
+  // across the gap).
   const span = n >= 2 ? sorted[n - 1].x - sorted[0].x : 0;
-  const byWavelength = sorted.map((p) => p.wavelengthNm).sort((a, b) => a - b);
-  const spanNm = n >= 2 ? byWavelength[n - 1] - byWavelength[0] : 0;
+  const byWavelength = sorted.slice().sort((a, b) => a.wavelengthNm - b.wavelengthNm);
+  const spanNm = n >= 2 ? byWavelength[n - 1].wavelengthNm - byWavelength[0].wavelengthNm : 0;
   let endGap = 0;
+  let beyondGap: LampPair[] = [];
   if (spanNm > 0) {
-    for (const k of [1, 2]) {
+    for (let k = 1; k <= MAX_PAIRS_BEYOND_GAP; k++) {
       if (n < 2 * k + 2) continue;
-      endGap = Math.max(
-        endGap,
-        (byWavelength[k] - byWavelength[k - 1]) / spanNm,
-        (byWavelength[n - k] - byWavelength[n - k - 1]) / spanNm,
-      );
+      const nm = (i: number) => byWavelength[i].wavelengthNm;
+      // Beyond two, only a cluster tight against its gap acts as one pair does.
+      const tight = (extent: number, gap: number) => k <= 2 || extent <= TIGHT_CLUSTER_SHARE * gap;
+      const lowGap = nm(k) - nm(k - 1);
+      const highGap = nm(n - k) - nm(n - k - 1);
+      const low = tight(nm(k - 1) - nm(0), lowGap) ? lowGap / spanNm : 0;
+      const high = tight(nm(n - 1) - nm(n - k), highGap) ? highGap / spanNm : 0;
+      if (low > endGap) [endGap, beyondGap] = [low, byWavelength.slice(0, k)];
+      if (high > endGap) [endGap, beyondGap] = [high, byWavelength.slice(n - k)];
     }
   }
+  const lopsided = endGap > limits.maxEndGap;
   checks.push({
     name: "lopsided-support",
-    passed: endGap <= limits.maxEndGap,
+    passed: !lopsided,
     value: endGap,
-    reason:
-      endGap <= limits.maxEndGap
-        ? ""
-        : `one or two pairs at an end of the covered range stand beyond a gap of ${(100 * endGap).toFixed(0)} % of it, so they alone decide the calibration there`,
+    reason: lopsided
+      ? `${beyondGap.length === 1 ? "one pair" : `${beyondGap.length} pairs`} at an end of the covered range stand beyond a gap of ${(100 * endGap).toFixed(0)} % of it, so ${beyondGap.length === 1 ? "it alone decides" : "they alone decide"} the calibration there`
+      : "",
   });
 
   // Model agreement: the final model against a model of another shape fitted to the same pairs (a
@@ -376,5 +390,6 @@ export function verifyLampPairing(
     passed: checks.every((c) => c.passed),
     margin: Math.min(...margins),
     ...(looFailed && worstPair ? { looOutlier: worstPair } : {}),
+    ...(lopsided ? { beyondGap } : {}),
   };
 }

@@ -1,0 +1,68 @@
+// The lopsided-support check of an automatic pairing: pairs beyond a wide gap at one end of the covered
+// range decide the calibration there alone, and a tight cluster of three (all shifted by one lamp line)
+// bends a polynomial as freely as one pair does. A straight grating, 5 px per nm from 400 nm, with its
+// pairs exactly where the axis puts them: only the arrangement differs between the cases.
+import { describe, expect, it } from "vitest";
+import { fitCalibration } from "@/lib/spectrum/calibration";
+import { pairingContext } from "@/lib/spectrum/calibration/lamp-pairing-setup";
+import type { LampLine, LampPair, LampPeak } from "@/lib/spectrum/calibration/lamp-pairing-types";
+import { verifyLampPairing } from "@/lib/spectrum/calibration/verify-lamp-pairing";
+
+const xOf = (nm: number) => 5 * (nm - 400);
+
+function verdictFor(wavelengthsNm: number[]) {
+  const lines: LampLine[] = wavelengthsNm.map((nm, i) => ({
+    wavelengthNm: nm,
+    intensity: 100,
+    species: "Ne I",
+    id: `l${i}`,
+  }));
+  const peaks: LampPeak[] = wavelengthsNm.map((nm) => ({ x: xOf(nm), height: 1000, fwhm: 5 }));
+  const pairs: LampPair[] = wavelengthsNm.map((nm, i) => ({
+    x: xOf(nm),
+    wavelengthNm: nm,
+    species: "Ne I",
+    lineId: `l${i}`,
+    peakIndex: i,
+    lineIndex: i,
+  }));
+  const context = pairingContext(peaks, lines, {
+    nominalRangeNm: [400, 710],
+    dispersion: "grating",
+    resolutionNm: 1,
+    domain: [0, 1550],
+  });
+  const fit = fitCalibration(pairs, { model: "polynomial", degree: 3, domain: [0, 1550] });
+  return verifyLampPairing(context, pairs, fit);
+}
+
+const core = [550, 565, 580, 595, 610, 625, 640, 655, 670, 700];
+
+describe("verifyLampPairing: lopsided support", () => {
+  it("flags a tight cluster of three pairs beyond a wide gap and names them", () => {
+    // 400–403 nm, then nothing until 550 nm: a gap of 147 nm in a span of 300 (49 %).
+    const verdict = verdictFor([400, 401.5, 403, ...core]);
+    const check = verdict.checks.find((c) => c.name === "lopsided-support")!;
+    expect(check.passed).toBe(false);
+    expect(check.value).toBeCloseTo(147 / 300, 6);
+    expect(check.reason).toContain("3 pairs");
+    expect(verdict.beyondGap?.map((p) => p.wavelengthNm)).toEqual([400, 401.5, 403]);
+  });
+
+  it("does not flag three pairs that spread over much of what lies beyond the gap", () => {
+    // 400, 420, 440 nm, then a gap of 110 nm (37 % of the span) before 550: three pairs 40 nm apart
+    // constrain the curve's shape there, and the gaps between them are small.
+    const verdict = verdictFor([400, 420, 440, ...core]);
+    const check = verdict.checks.find((c) => c.name === "lopsided-support")!;
+    expect(check.passed).toBe(true);
+    expect(verdict.beyondGap).toBeUndefined();
+  });
+
+  it("flags one pair beyond a wide gap at the red end", () => {
+    // Eight pairs at 550–564 nm and one at 700 nm: a gap of 136 nm in a span of 150.
+    const verdict = verdictFor([550, 552, 554, 556, 558, 560, 562, 564, 700]);
+    const check = verdict.checks.find((c) => c.name === "lopsided-support")!;
+    expect(check.passed).toBe(false);
+    expect(verdict.beyondGap?.map((p) => p.wavelengthNm)).toEqual([700]);
+  });
+});
