@@ -267,19 +267,26 @@ export function verifyLampPairing(
   });
 
   // Model agreement: the final model against a model of another shape fitted to the same pairs (a
-  // polynomial one degree higher for a grating; Hartmann against the physical prism and the reverse),
-  // over the covered range, in matching tolerances; a forward polynomial in the straightened axis
-  // when that cannot be fitted.
+  // polynomial one degree higher for a grating, a quartic for a quintic; Hartmann against a prism's
+  // polynomial and physical model, and a polynomial against Hartmann), over the covered range, in
+  // matching tolerances; a forward polynomial in the straightened axis when that cannot be fitted.
   let disagreement = Infinity;
   if (span > 0) {
     const grid = Array.from({ length: 9 }, (_, i) => sorted[0].x + (span * i) / 8);
     const final = modelEvaluation(fit.model, grid);
     const alternativeOptions: FitCalibrationOptions =
-      fit.model.kind === "polynomial"
-        ? { model: "polynomial", degree: Math.min(5, fit.model.degree + 1) }
-        : fit.model.kind === "prism"
-          ? { model: "hartmann" }
-          : { model: "polynomial", degree: Math.min(5, Math.max(1, n - 3)) };
+      fit.model.kind === "polynomial" && context.dispersion === "prism"
+        ? { model: "hartmann" }
+        : fit.model.kind === "polynomial"
+          ? {
+              model: "polynomial",
+              // One degree more; for a quintic (the most fitted), one less: a quintic against itself
+              // always agrees.
+              degree: fit.model.degree < 5 ? fit.model.degree + 1 : fit.model.degree - 1,
+            }
+          : fit.model.kind === "prism"
+            ? { model: "hartmann" }
+            : { model: "polynomial", degree: Math.min(5, Math.max(1, n - 3)) };
     try {
       const other = fitCalibration(sorted, {
         ...alternativeOptions,

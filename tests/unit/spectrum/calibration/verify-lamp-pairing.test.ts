@@ -10,7 +10,7 @@ import { verifyLampPairing } from "@/lib/spectrum/calibration/verify-lamp-pairin
 
 const xOf = (nm: number) => 5 * (nm - 400);
 
-function verdictFor(wavelengthsNm: number[]) {
+function verdictFor(wavelengthsNm: number[], degree = 3, lastShiftX = 0) {
   const lines: LampLine[] = wavelengthsNm.map((nm, i) => ({
     wavelengthNm: nm,
     intensity: 100,
@@ -19,7 +19,7 @@ function verdictFor(wavelengthsNm: number[]) {
   }));
   const peaks: LampPeak[] = wavelengthsNm.map((nm) => ({ x: xOf(nm), height: 1000, fwhm: 5 }));
   const pairs: LampPair[] = wavelengthsNm.map((nm, i) => ({
-    x: xOf(nm),
+    x: xOf(nm) + (i === wavelengthsNm.length - 1 ? lastShiftX : 0),
     wavelengthNm: nm,
     species: "Ne I",
     lineId: `l${i}`,
@@ -32,7 +32,7 @@ function verdictFor(wavelengthsNm: number[]) {
     resolutionNm: 1,
     domain: [0, 1550],
   });
-  const fit = fitCalibration(pairs, { model: "polynomial", degree: 3, domain: [0, 1550] });
+  const fit = fitCalibration(pairs, { model: "polynomial", degree, domain: [0, 1550] });
   return verifyLampPairing(context, pairs, fit);
 }
 
@@ -64,5 +64,25 @@ describe("verifyLampPairing: lopsided support", () => {
     const check = verdict.checks.find((c) => c.name === "lopsided-support")!;
     expect(check.passed).toBe(false);
     expect(verdict.beyondGap?.map((p) => p.wavelengthNm)).toEqual([700]);
+  });
+});
+
+describe("verifyLampPairing: model agreement of a quintic", () => {
+  // A quintic was once compared with a quintic of the same pairs, which always agrees (value 0). Now
+  // with a quartic: an end pair moved along the array bends the two apart in proportion.
+  const evenly = [410, 430, 450, 470, 490, 510, 530, 550, 570, 590, 610, 630, 650, 700];
+  const agreement = (shiftX: number) =>
+    verdictFor(evenly, 5, shiftX).checks.find((c) => c.name === "model-agreement")!;
+
+  it("agrees on pairs that lie on the axis", () => {
+    expect(agreement(0).passed).toBe(true);
+    expect(agreement(0).value).toBeLessThan(1e-6);
+  });
+
+  it("disagrees, in proportion, when the end pair is moved", () => {
+    const two = agreement(2).value;
+    expect(two).toBeGreaterThan(0.03);
+    expect(agreement(4).value).toBeCloseTo(2 * two, 2);
+    expect(agreement(8).passed).toBe(false);
   });
 });
