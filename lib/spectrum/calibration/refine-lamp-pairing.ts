@@ -12,7 +12,7 @@ import { lampLineBlended } from "./lamp-line-blended";
 import { toLampPair } from "./to-lamp-pair";
 import { typicalPeakFwhm } from "./typical-peak-fwhm";
 import { fitForwardHartmann } from "./fit-forward-hartmann";
-import { verifyLampPairing } from "./verify-lamp-pairing";
+import { verifyLampPairing, type PairingVerdict } from "./verify-lamp-pairing";
 import { trimPulledEnds } from "./trim-pulled-ends";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
@@ -256,37 +256,48 @@ function withCheckedEnds(context: PairingContext, result: LampPairingResult): La
   if (trimmed.length === 0) return result;
   const setAside = new Set(trimmed.map((p) => p.peakIndex));
   // What is left is a pairing of its own and is checked as one: setting two pairs aside can leave a
-  // third beyond a gap that a quintic then follows (seen in the sweep: 8 nm wrong across 130 nm).
+  // third beyond a gap that a quintic then follows (seen in the sweep: 8 nm wrong across 130 nm). The
+  // pairs set aside were doubtful, so the whole pairing does not stand in for it.
+  let kept = { pairs, fit, aside: [] as LampPair[] };
   const verdict = verifyLampPairing(context, pairs, fit);
   if (!verdict.passed) {
-    const reasons = verdict.checks.filter((c) => !c.passed).map((c) => c.reason);
-    return {
-      ...result,
-      status: "check",
-      checks: verdict.checks,
-      reasons,
-      candidate: fit,
-      confidence: Math.min(0.49, result.confidence),
-      pairs: [],
-      model: null,
-      suggestion: pairs,
-      unmatchedPeaks: context.peaks.slice(),
-      unmatchedLines: context.candidateLines.map((l) => context.lines[l]),
-      message:
-        `check this pairing: with ${trimmed.length} end pair${trimmed.length > 1 ? "s" : ""} set aside ` +
-        `(${describePairs(trimmed)}), ${reasons.join("; ")}`,
-    };
+    const rest = withoutPairsBeyondGap(context, pairs, verdict);
+    if (!rest) {
+      const reasons = verdict.checks.filter((c) => !c.passed).map((c) => c.reason);
+      return {
+        ...result,
+        status: "check",
+        checks: verdict.checks,
+        reasons,
+        candidate: fit,
+        confidence: Math.min(0.49, result.confidence),
+        pairs: [],
+        model: null,
+        suggestion: pairs,
+        unmatchedPeaks: context.peaks.slice(),
+        unmatchedLines: context.candidateLines.map((l) => context.lines[l]),
+        message:
+          `check this pairing: with ${trimmed.length} end pair${trimmed.length > 1 ? "s" : ""} set aside ` +
+          `(${describePairs(trimmed)}), ${reasons.join("; ")}`,
+      };
+    }
+    kept = rest;
   }
+  const dropped = [...trimmed, ...kept.aside];
+  for (const p of kept.aside) setAside.add(p.peakIndex);
   return {
     ...result,
-    pairs,
-    model: fit,
+    pairs: kept.pairs,
+    model: kept.fit,
     unmatchedPeaks: [...result.unmatchedPeaks, ...context.peaks.filter((_, i) => setAside.has(i))],
-    unmatchedLines: [...result.unmatchedLines, ...trimmed.map((p) => context.lines[p.lineIndex])],
+    unmatchedLines: [...result.unmatchedLines, ...dropped.map((p) => context.lines[p.lineIndex])],
     message:
       `${result.message}; ${trimmed.length} end pair${trimmed.length > 1 ? "s" : ""} set aside ` +
       `(${describePairs(trimmed)}): ` +
-      `the calibration there rested on ${trimmed.length > 1 ? "them" : "it"} alone`,
+      `the calibration there rested on ${trimmed.length > 1 ? "them" : "it"} alone` +
+      (kept.aside.length > 0
+        ? `; then ${kept.aside.length} pair${kept.aside.length > 1 ? "s" : ""} beyond a wide gap (${describePairs(kept.aside)})`
+        : ""),
   };
 }
 
@@ -345,6 +356,26 @@ export function refineLampPairing(context: PairingContext, initialPairs: LampPai
   return finishLampPairing(context, refineLampPairs(context, initialPairs));
 }
 
+/**
+ * Pairs beyond a wide gap at one end decide the calibration there alone, and a shifted cluster of them
+ * bends a polynomial onto itself unseen: when `verdict` failed on that, the rest is refitted and, when
+ * it passes every check on its own, trusted over the range it covers. Null otherwise.
+ */
+function withoutPairsBeyondGap(
+  context: PairingContext,
+  pairs: LampPair[],
+  verdict: PairingVerdict,
+): { pairs: LampPair[]; fit: FitCalibrationResult; verdict: PairingVerdict; aside: LampPair[] } | null {
+  if (!verdict.beyondGap) return null;
+  const aside = new Set(verdict.beyondGap);
+  const rest = pairs.filter((p) => !aside.has(p));
+  const refit = rest.length >= 3 ? finalFit(context, rest) : null;
+  if (!refit) return null;
+  const usedRest = rest.filter((_, i) => refit.pairs[i].used);
+  const verdictRest = verifyLampPairing(context, usedRest, refit);
+  return verdictRest.passed ? { pairs: usedRest, fit: refit, verdict: verdictRest, aside: [...aside] } : null;
+}
+
 /** Below this old-style score the pairs are chance coincidences, not a calibration to check. */
 const CHANCE_CONFIDENCE = 0.1;
 
@@ -399,22 +430,10 @@ function judge(context: PairingContext, givenPairs: LampPair[], givenFit: FitCal
     const usedRest = rest.filter((_, i) => refit.pairs[i].used);
     trial = { pairs: usedRest, fit: refit, verdict: verifyLampPairing(context, usedRest, refit) };
   }
-  // Pairs beyond a wide gap at one end decide the calibration there alone, and a shifted cluster of them
-  // bends a polynomial onto itself unseen; the rest, when it passes every check on its own, is trusted
-  // over the range it covers, and the pairs beyond the gap are reported set aside.
   let beyondGap: LampPair[] = [];
-  if (trial.verdict && !trial.verdict.passed && trial.verdict.beyondGap) {
-    const aside = new Set(trial.verdict.beyondGap);
-    const rest = trial.pairs.filter((p) => !aside.has(p));
-    const refit = rest.length >= 3 ? finalFit(context, rest) : null;
-    if (refit) {
-      const usedRest = rest.filter((_, i) => refit.pairs[i].used);
-      const verdictRest = verifyLampPairing(context, usedRest, refit);
-      if (verdictRest.passed) {
-        trial = { pairs: usedRest, fit: refit, verdict: verdictRest };
-        beyondGap = [...aside];
-      }
-    }
+  if (trial.verdict && !trial.verdict.passed) {
+    const rest = withoutPairsBeyondGap(context, trial.pairs, trial.verdict);
+    if (rest) ({ aside: beyondGap, ...trial } = rest);
   }
   // Only a pairing that passes after the drops replaces the one given; otherwise the given one is reported.
   if (trial.verdict?.passed && trial.pairs !== pairs) {

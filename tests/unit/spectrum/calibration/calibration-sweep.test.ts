@@ -19,15 +19,17 @@ import {
 const SEED = 1000;
 const COUNT = 300;
 /**
- * Measured on these seeds when the floors were last set (hot pixels removed before the peaks are found;
- * end pairs that carry an end alone set aside): silent wrong 0.7 % (2 of 300; target ≤ 0.5 %), success
- * 45.9 % of the 281 eligible instruments (target ≥ 95 %), 0 exceptions. Before: 38.4 % and 1.3 %;
- * before growth from short-baseline anchors, 18.5 % and 2.0 %.
+ * Measured on these seeds when the floors were last set (a trimmed pairing checked again; pairs beyond
+ * a wide gap set aside, and the rest trusted over what it covers when it passes every check):
+ * silent wrong 0.3 % (1 of 300; target ≤ 0.5 %), success 52.7 % of the 281 eligible instruments (target
+ * ≥ 95 %), 0 exceptions. Before: 45.9 % and 0.7 % (hot pixels removed, pulled end pairs set aside);
+ * before that 38.4 % and 1.3 %; before growth from short-baseline anchors, 18.5 % and 2.0 %.
  */
-const SILENT_WRONG_FLOOR = 0.007;
-const SUCCESS_FLOOR = 0.45;
+const SILENT_WRONG_FLOOR = 0.004;
+const SUCCESS_FLOOR = 0.52;
 /**
- * Recalibration from the previous calibration, 100 instruments: success 72.0 % of 93 eligible (target
+ * Recalibration from the previous calibration, 100 instruments: success 75.3 % of 93 eligible (72.0 %
+ * before pairs beyond a gap were set aside; target
  * ≥ 99 %), silent wrong 1 of 100 (an error 1.02 times the tolerance at the end of its covered range),
  * since the covered range is where the lines fix the drift to 0.07 tolerance (recalibrate-from-previous.ts).
  * Before: 52.7 % and 0 of 100 (all of the array claimed, or nothing); before the drift, 36.6 % and 2.
@@ -35,7 +37,7 @@ const SUCCESS_FLOOR = 0.45;
  * 83.2 %, no silent wrong in 600.
  */
 const PREVIOUS_COUNT = 100;
-const PREVIOUS_SUCCESS_FLOOR = 0.71;
+const PREVIOUS_SUCCESS_FLOOR = 0.75;
 const PREVIOUS_SILENT_WRONG_FLOOR = 0.01;
 
 describe("automatic calibration over 300 realistic instruments", () => {

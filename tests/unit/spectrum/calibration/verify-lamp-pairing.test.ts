@@ -7,6 +7,8 @@ import { fitCalibration } from "@/lib/spectrum/calibration";
 import { pairingContext } from "@/lib/spectrum/calibration/lamp-pairing-setup";
 import type { LampLine, LampPair, LampPeak } from "@/lib/spectrum/calibration/lamp-pairing-types";
 import { verifyLampPairing } from "@/lib/spectrum/calibration/verify-lamp-pairing";
+import { sweepOne } from "../../../support/calibration-sweep";
+import { realisticLamp } from "../../../support/realistic-lamp";
 
 const xOf = (nm: number) => 5 * (nm - 400);
 
@@ -85,4 +87,22 @@ describe("verifyLampPairing: model agreement of a quintic", () => {
     expect(agreement(4).value).toBeCloseTo(2 * two, 2);
     expect(agreement(8).passed).toBe(false);
   });
+});
+
+describe("pairs beyond a gap on realistic lamps (seen in the blind sweep)", () => {
+  it("sets aside three Ar I pairs shifted by one line at a prism's blue end and trusts the rest", () => {
+    // Instrument 1300171: Ar I 416.42/418.19/419.83 nm each paired with the next line's peak, 130 nm
+    // from the other pairs; a quintic through all of them was 8 nm wrong in between.
+    const record = sweepOne(realisticLamp(1_300_171));
+    expect(record.status).toBe("paired");
+    expect(record.message).toContain("3 pairs beyond a wide gap set aside");
+    expect(record.outcome).toBe("success");
+  }, 60_000);
+
+  it("does not trust three red pairs 4 nm off beyond a gap once two blue end pairs are trimmed", () => {
+    // Instrument 1500141: before, the end trimming left a quintic following Ne I 837.76–849.54 nm.
+    const record = sweepOne(realisticLamp(1_500_141));
+    expect(record.outcome).not.toBe("silent-wrong");
+    expect(record.status).not.toBe("paired");
+  }, 60_000);
 });
