@@ -192,6 +192,8 @@ interface SpeciesWork {
   strongestMissingRelative: number;
   anchor: SeenGroup | null;
   score: number;
+  /** Peaks of which the species could have made a fair share (EXPLAINING_SHARE or more). */
+  heldPeaks: number[];
 }
 
 const VERDICT_RANK: Record<Verdict, number> = { present: 0, possible: 1, absent: 2 };
@@ -330,6 +332,7 @@ export function scoreElements(
       missingWeight: 0,
       strongestMissingRelative: 0,
       anchor: null,
+      heldPeaks: [],
       score: 0,
     };
   };
@@ -417,10 +420,16 @@ export function scoreElements(
       group.quality = Math.exp(-0.5 * (closest / 2) ** 2);
     }
     entry.groups.sort((a, b) => a.peakIndex - b.peakIndex);
-    entry.anchor = entry.groups.reduce<SeenGroup | null>(
-      (best, group) => (group.ratedWeight > 0 && (!best || group.snr > best.snr) ? group : best),
-      null,
-    );
+    // The species' scale comes from its own lines: the strongest peak no other species claims, when
+    // there is one. A shared peak may be mostly another species' (a weak line at a strong neighbour's
+    // peak would predict every other line of the species far too bright).
+    const ownPeak = (group: SeenGroup) => groupsByPeak.get(group.peakIndex)!.size === 1;
+    const strongest = (from: SeenGroup[]) =>
+      from.reduce<SeenGroup | null>(
+        (best, group) => (group.ratedWeight > 0 && (!best || group.snr > best.snr) ? group : best),
+        null,
+      );
+    entry.anchor = strongest(entry.groups.filter(ownPeak)) ?? strongest(entry.groups);
     predictMissing(entry, isMatched, index, source, {
       missingSnr: detectionLimitSnr * missingSnrFactor,
       strongLineFraction,
@@ -478,6 +487,13 @@ export function scoreElements(
     return weightOf(species, group) / total;
   };
   for (const [species, score] of scoreRound(share)) work.get(species)!.score = score;
+  // The peaks a species could have made a fair share of: evidence of its own. A sliver of another
+  // species' peak is no second line seen.
+  for (const [species, entry] of work) {
+    entry.heldPeaks = entry.groups
+      .filter((group) => share(species, group) >= EXPLAINING_SHARE)
+      .map((group) => group.peakIndex);
+  }
 
   const matchByPeak = new Map(matches.map((match) => [match.peakIndex, match]));
   const calls: ElementCall[] = [];
@@ -663,7 +679,8 @@ function unseenLinesAllow(
 
 /**
  * One peak is proof only of the species' principal line, and only when no other species in the table
- * explains it. A "present" call resting on a single peak becomes "possible" when the peak holds none of
+ * explains it. A species holds a peak when its share of it is EXPLAINING_SHARE or more (heldPeaks); a
+ * "present" call that holds none becomes "possible". One that holds a single peak becomes "possible" when the peak holds none of
  * its principal line (the strongest for the source), or when another species (of another element) has
  * a line there that could have made the peak: its unseen lines allow it (unseenLinesAllow) and, when it
  * is seen elsewhere, its line here is not too faint for the peak (couldMake). Two single-peak calls on
@@ -673,24 +690,39 @@ function demoteSinglePeakCalls(calls: ElementCall[], context: SinglePeakContext)
   const callOf = new Map(calls.map((call) => [call.species, call]));
   const { index } = context;
   for (const call of calls) {
-    if (call.verdict !== "present" || call.seenPeaks !== 1 || call.seen.length === 0) continue;
-    const peakIndex = call.seen[0].peakIndex;
+    const held = context.work.get(call.species)?.heldPeaks ?? [];
+    if (call.verdict !== "present" || held.length > 1 || call.seen.length === 0) continue;
+    if (held.length === 0) {
+      const at = [...new Set(call.seen.map((s) => s.peakWavelengthNm.toFixed(2)))].join(", ");
+      demoteToPossible(
+        call,
+        `Its lines stand only on peaks that other species explain for the most part (${at} nm); ` +
+          `a peak of its own would decide.`,
+        "No peak of its own.",
+      );
+      continue;
+    }
+    const peakIndex = held[0];
     const match = context.matchByPeak.get(peakIndex)!;
     const peakNm = match.peak.wavelengthNm.toFixed(2);
-    const snr = call.seen[0].snr;
+    const snr = match.peak.snr;
+    const alone = call.seenPeaks === 1;
+    const onlyPeak = alone
+      ? `Only one peak is seen (${peakNm} nm)`
+      : `Only one peak is its own (${peakNm} nm; the others are mostly other species')`;
     if (snr < SINGLE_PEAK_MIN_SNR) {
       demoteToPossible(
         call,
-        `Only one peak is seen (${peakNm} nm), at SNR ${snr.toFixed(1)}: too faint alone to call ` +
+        `${onlyPeak}, at SNR ${snr.toFixed(1)}: too faint alone to call ` +
           `${call.species} present; another of its lines would decide.`,
         "One faint peak is no proof.",
       );
       continue;
     }
-    if (!call.seen.some((s) => s.relativeIntensity === 1)) {
+    if (!call.seen.some((s) => s.peakIndex === peakIndex && s.relativeIntensity === 1)) {
       demoteToPossible(
         call,
-        `Only one peak is seen (${peakNm} nm) and it holds none of the principal line of ${call.species}; ` +
+        `${onlyPeak} and it holds none of the principal line of ${call.species}; ` +
           `its strongest line would decide.`,
         "One peak without the principal line is no proof.",
       );
@@ -735,7 +767,7 @@ function demoteSinglePeakCalls(calls: ElementCall[], context: SinglePeakContext)
     });
     demoteToPossible(
       call,
-      `Interference: ${names} also explain${explainers.length === 1 ? "s" : ""} the only peak seen, at ` +
+      `Interference: ${names} also explain${explainers.length === 1 ? "s" : ""} the only peak ${alone ? "seen" : "of its own"}, at ` +
         `${peakNm} nm; ` +
         (deciders.length > 0
           ? `a peak at ${deciders.join(" or ")} would decide.`

@@ -7,20 +7,21 @@ import type { CalibratedPeak, ReferenceLine, SourceKind } from "../../../../lib/
 // Wavelengths: NIST Atomic Spectra Database, observed air wavelengths (from memory; the checks below
 // do not depend on them closer than 0.01 nm). Intensities follow the project's starter table: K I has
 // flame values, the lamp gases lamp values only, so a flame borrows theirs.
-const ROWS: { species: string; airNm: number; intensities: Partial<Record<SourceKind, number>> }[] = [
-  { species: "K I", airNm: 766.49, intensities: { flame: 1000, lamp: 1000 } },
-  { species: "K I", airNm: 769.896, intensities: { flame: 600, lamp: 600 } },
-  { species: "Ar I", airNm: 750.387, intensities: { lamp: 200 } },
-  { species: "Ar I", airNm: 751.465, intensities: { lamp: 150 } },
-  { species: "Ar I", airNm: 763.511, intensities: { lamp: 250 } },
-  { species: "Ar I", airNm: 772.376, intensities: { lamp: 150 } },
-  { species: "Kr I", airNm: 557.029, intensities: { lamp: 200 } },
-  { species: "Kr I", airNm: 587.092, intensities: { lamp: 250 } },
-  { species: "Kr I", airNm: 758.741, intensities: { lamp: 200 } },
-  { species: "Kr I", airNm: 760.155, intensities: { lamp: 300 } },
-  { species: "Kr I", airNm: 768.525, intensities: { lamp: 100 } },
-  { species: "Kr I", airNm: 769.454, intensities: { lamp: 100 } },
-];
+const ROWS: { species: string; airNm: number; intensities: Partial<Record<SourceKind, number>> }[] =
+  [
+    { species: "K I", airNm: 766.49, intensities: { flame: 1000, lamp: 1000 } },
+    { species: "K I", airNm: 769.896, intensities: { flame: 600, lamp: 600 } },
+    { species: "Ar I", airNm: 750.387, intensities: { lamp: 200 } },
+    { species: "Ar I", airNm: 751.465, intensities: { lamp: 150 } },
+    { species: "Ar I", airNm: 763.511, intensities: { lamp: 250 } },
+    { species: "Ar I", airNm: 772.376, intensities: { lamp: 150 } },
+    { species: "Kr I", airNm: 557.029, intensities: { lamp: 200 } },
+    { species: "Kr I", airNm: 587.092, intensities: { lamp: 250 } },
+    { species: "Kr I", airNm: 758.741, intensities: { lamp: 200 } },
+    { species: "Kr I", airNm: 760.155, intensities: { lamp: 300 } },
+    { species: "Kr I", airNm: 768.525, intensities: { lamp: 100 } },
+    { species: "Kr I", airNm: 769.454, intensities: { lamp: 100 } },
+  ];
 
 /** The lamp-gas lines that no peak falls on: they contradict the gases. */
 const FAR_FROM_PEAKS_NM = [557.029, 587.092, 772.376];
@@ -77,11 +78,32 @@ describe("scoreElements on a peak shared with lamp-gas lines", () => {
     const potassium = callOf(result, "K I");
     expect(potassium.seen.map((s) => s.peakIndex)).toEqual([2, 2]);
     expect(potassium.overlaps[0].otherSpecies).toEqual(["Ar I", "Kr I"]);
-    // The gases are anchored on that very peak, and their far lines are missing.
     for (const species of ["Ar I", "Kr I"]) {
-      expect(callOf(result, species).seen.some((s) => s.peakIndex === 2), species).toBe(true);
-      expect(callOf(result, species).missingStrongCount, species).toBeGreaterThan(0);
+      expect(
+        callOf(result, species).seen.some((s) => s.peakIndex === 2),
+        species,
+      ).toBe(true);
     }
+  });
+
+  it("scales each gas from its own bump, not from the peak it shares with K I", () => {
+    // Anchored on the shared peak (SNR 270), Ar I 772.38 nm would be expected at SNR ≈ 160 and Kr I
+    // 587.09 nm at ≈ 225; from their own bumps at SNR 8 both stay below the detection limit.
+    const result = identify(table());
+    for (const species of ["Ar I", "Kr I"]) {
+      const call = callOf(result, species);
+      // A far line is listed only when its own scale puts it above the detection limit, and then
+      // near it (Kr I 587.09 nm: 8 × 0.83 ≈ 6.7), never at the shared peak's scale.
+      for (const line of call.missing.filter((m) => FAR_FROM_PEAKS_NM.includes(m.referenceNm))) {
+        expect(line.predictedSnr!, species).toBeLessThan(10);
+      }
+      // Their lines on K I's peak are no evidence of their own: a sliver of it at most.
+      expect(call.verdict, species).not.toBe("present");
+    }
+    // Ar I holds its bump alone, and its principal line (763.51 nm) stands only on K I's peak.
+    const argon = callOf(result, "Ar I");
+    expect(argon.verdict).toBe("possible");
+    expect(argon.notes.some((n) => n.startsWith("Only one peak is its own (751.00 nm"))).toBe(true);
   });
 
   it("calls K I present with nearly its unshared score when the gases are contradicted", () => {
@@ -97,13 +119,15 @@ describe("scoreElements on a peak shared with lamp-gas lines", () => {
     }
   });
 
-  it("still shares the peak with gases that nothing contradicts", () => {
-    // Without their far lines the gases are not contradicted, and each may have made the peak.
+  it("leaves K I its peak when the gases' own bumps say they are faint, contradicted or not", () => {
+    // Without their far lines nothing contradicts the gases; their bumps at SNR 8 still say their
+    // lines on K I's peak stand near SNR 8 too, a few per cent of a peak of 270.
     const rows = ROWS.filter((row) => !FAR_FROM_PEAKS_NM.includes(row.airNm));
     const result = identify(table(rows));
+    const alone = identify(table(rows.filter((row) => row.species === "K I")));
     const potassium = callOf(result, "K I");
-    expect(potassium.score).toBeLessThan(0.5);
-    expect(potassium.verdict).not.toBe("present");
+    expect(potassium.verdict).toBe("present");
+    expect(callOf(alone, "K I").score - potassium.score).toBeLessThan(0.05);
   });
 
   it("does not call a lamp gas present from a lone coincidence with its strongest line", () => {
@@ -113,6 +137,8 @@ describe("scoreElements on a peak shared with lamp-gas lines", () => {
     expect(krypton.seen.map((s) => s.referenceNm)).toEqual([760.155]);
     expect(krypton.verdict).not.toBe("present");
     expect(krypton.missingStrongCount).toBe(5);
-    expect(krypton.missing.map((m) => m.referenceNm).slice(0, 3)).toEqual([587.092, 557.029, 758.741]);
+    expect(krypton.missing.map((m) => m.referenceNm).slice(0, 3)).toEqual([
+      587.092, 557.029, 758.741,
+    ]);
   });
 });
