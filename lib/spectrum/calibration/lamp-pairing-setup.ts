@@ -7,6 +7,7 @@ import { glassesValidOver } from "./glasses-valid-over";
 import type { LampLine, LampPairingOptions, LampPeak } from "./lamp-pairing-types";
 import type { PairingContext } from "./refine-lamp-pairing";
 import { refractiveIndex } from "./refractive-index";
+import { prismForwardX } from "./prism-forward";
 
 /** Lines this far outside the nominal range (as a fraction of its span) are still considered. */
 const RANGE_MARGIN = 0.1;
@@ -38,12 +39,33 @@ export function hartmannPoleOfGlass(glass: GlassName, rangeNm: [number, number])
   return best.pole;
 }
 
+/**
+ * x(λ) of a prism of `glass` in the usual arrangement (an equilateral prism at minimum deviation for
+ * the middle of the range, a camera whose image is tan of the deviation): the axis in which a prism of
+ * that glass is nearly straight, deviation's own curvature included (a dense flint's exit angle grows
+ * steeply in the blue, which no n(λ)-only straightening follows).
+ */
+export function nominalPrismShape(glass: GlassName, rangeNm: [number, number]): (lambda: number) => number {
+  const apexRad = Math.PI / 3;
+  const middle = Math.sqrt(rangeNm[0] * rangeNm[1]);
+  const nMiddle = refractiveIndex(GLASS_CATALOGUE[glass], middle);
+  const geometry = {
+    glass,
+    incidenceRad: Math.asin(Math.min(0.999, nMiddle * Math.sin(apexRad / 2))),
+    apexRad,
+    focalX: 1,
+    axisX: 0,
+    direction: 1 as const,
+    referenceWavelengthNm: middle,
+  };
+  return (lambda) => prismForwardX(geometry, lambda);
+}
+
 /** The straightening axes g(λ) to try for a dispersion kind (or a forced straight line). */
 export function hypothesisShapes(dispersion: DispersionKind | "linear", rangeNm: [number, number]): ((lambda: number) => number)[] {
   if (dispersion !== "prism") return [(lambda) => lambda];
-  // A crown and a dense flint bracket the curvature of the usual prism glasses. A glass is evaluated
-  // only where it has no resonance (N-SF11's lies near 249.6 nm); for a range reaching further into
-  // the ultraviolet the least and the most dispersive glass that does serve take their place.
+  // A glass is evaluated only where it has no resonance (N-SF11's lies near 249.6 nm): a range reaching
+  // further into the ultraviolet is served by the glasses that do.
   const [low, high] = [Math.min(...rangeNm), Math.max(...rangeNm)];
   const evaluated: [number, number] = [0.9 * low, high];
   const valid = glassesValidOver(evaluated, GLASS_NAMES, true);
@@ -58,7 +80,19 @@ export function hypothesisShapes(dispersion: DispersionKind | "linear", rangeNm:
     const nHigh = refractiveIndex(GLASS_CATALOGUE[glass], evaluated[1]);
     return (nLow - nHigh) / (nHigh - 1);
   };
+  // One axis per catalogue glass that serves, crown first: each straightens a prism of its own glass
+  // in the usual arrangement to about a tolerance (the n(λ)-only Hartmann axis of a dense flint left
+  // 50–90 tolerances of curvature: seen on N-SF11 in the sweep), and the nearest glass is the best
+  // first guess for one outside the catalogue.
   const byStrength = valid.slice().sort((a, b) => strength(a) - strength(b));
+  const ordered = valid.includes("N-BK7") ? ["N-BK7" as GlassName, ...byStrength.filter((g) => g !== "N-BK7")] : byStrength;
+  const sampled = Array.from({ length: 33 }, (_, i) => evaluated[0] + ((1.1 * high - evaluated[0]) * i) / 32);
+  const shapes = ordered
+    .map((glass) => nominalPrismShape(glass, [low, high]))
+    .filter((shape) => sampled.every((lambda) => Number.isFinite(shape(lambda))));
+  if (shapes.length > 0) return shapes;
+  // No glass's ray leaves the prism over the whole range in that arrangement: the Hartmann axes of a
+  // crown and a dense flint bracket the usual curvature.
   const bracket =
     valid.includes("N-BK7") && valid.includes("N-SF11")
       ? (["N-BK7", "N-SF11"] as GlassName[])

@@ -3,7 +3,8 @@
 // bends a polynomial as freely as one pair does. A straight grating, 5 px per nm from 400 nm, with its
 // pairs exactly where the axis puts them: only the arrangement differs between the cases.
 import { describe, expect, it } from "vitest";
-import { fitCalibration } from "@/lib/spectrum/calibration";
+import { evaluateCalibration, fitCalibration } from "@/lib/spectrum/calibration";
+import { finishGrownPairing } from "@/lib/spectrum/calibration/refine-lamp-pairing";
 import { pairingContext } from "@/lib/spectrum/calibration/lamp-pairing-setup";
 import type { LampLine, LampPair, LampPeak } from "@/lib/spectrum/calibration/lamp-pairing-types";
 import { verifyLampPairing } from "@/lib/spectrum/calibration/verify-lamp-pairing";
@@ -89,16 +90,60 @@ describe("verifyLampPairing: model agreement of a quintic", () => {
   });
 });
 
-describe("pairs beyond a gap on realistic lamps (seen in the blind sweep)", () => {
-  it("sets aside three Ar I pairs shifted by one line at a prism's blue end and trusts the rest", () => {
-    // Instrument 1300171: Ar I 416.42/418.19/419.83 nm each paired with the next line's peak, 130 nm
-    // from the other pairs; a quintic through all of them was 8 nm wrong in between.
+describe("finishGrownPairing: pairs beyond a gap", () => {
+  it("sets aside a cluster shifted by one line beyond a wide gap and trusts the rest over what it covers", () => {
+    // Eleven right pairs 550–700 nm; three lines at 400–403 nm each paired with the next one's peak
+    // (1.5 nm, 7.5 px on), 147 nm from the rest: a cubic through all fourteen bends onto them.
+    const right = [550, 565, 580, 595, 610, 625, 640, 655, 670, 685, 700];
+    const cluster = [400, 401.5, 403];
+    const wavelengths = [...cluster, 404.5, ...right];
+    const lines: LampLine[] = wavelengths.map((nm, i) => ({
+      wavelengthNm: nm,
+      intensity: 100,
+      species: "Ne I",
+      id: `l${i}`,
+    }));
+    const peaks: LampPeak[] = wavelengths.map((nm) => ({ x: xOf(nm), height: 1000, fwhm: 5 }));
+    const pairOf = (lineIndex: number, peakIndex: number): LampPair => ({
+      x: peaks[peakIndex].x,
+      wavelengthNm: lines[lineIndex].wavelengthNm,
+      species: "Ne I",
+      lineId: lines[lineIndex].id,
+      peakIndex,
+      lineIndex,
+    });
+    const pairs = [
+      ...cluster.map((_, k) => pairOf(k, k + 1)),
+      ...right.map((_, k) => pairOf(cluster.length + 1 + k, cluster.length + 1 + k)),
+    ];
+    const context = pairingContext(peaks, lines, {
+      nominalRangeNm: [400, 710],
+      dispersion: "grating",
+      resolutionNm: 1,
+      domain: [0, 1550],
+    });
+    const result = finishGrownPairing(context, pairs);
+    expect(result.status).toBe("paired");
+    expect(result.message).toContain(
+      "3 pairs beyond a wide gap set aside (Ne I 400.000 nm, Ne I 401.500 nm, Ne I 403.000 nm)",
+    );
+    expect(result.pairs.map((p) => p.wavelengthNm).sort((a, b) => a - b)).toEqual(right);
+    // The calibration claims only what the right pairs cover, and is right there.
+    const [low, high] = result.model!.model.coveredX;
+    expect(low).toBeCloseTo(xOf(550), 6);
+    expect(high).toBeCloseTo(xOf(700), 6);
+    const probes = Float64Array.from([xOf(560), xOf(630), xOf(690)]);
+    const calibrated = evaluateCalibration(result.model!.model, probes);
+    [560, 630, 690].forEach((nm, i) => expect(Math.abs(calibrated[i] - nm)).toBeLessThan(0.01));
+  });
+});
+
+describe("realistic lamps seen in the blind sweep", () => {
+  it("calibrates instrument 1300171 (a prism whose blue Ar I lines were once paired one line off)", () => {
     const record = sweepOne(realisticLamp(1_300_171));
     expect(record.status).toBe("paired");
-    expect(record.message).toContain("3 pairs beyond a wide gap set aside");
     expect(record.outcome).toBe("success");
   }, 60_000);
-
   it("does not trust three red pairs 4 nm off beyond a gap once two blue end pairs are trimmed", () => {
     // Instrument 1500141: before, the end trimming left a quintic following Ne I 837.76–849.54 nm.
     const record = sweepOne(realisticLamp(1_500_141));
