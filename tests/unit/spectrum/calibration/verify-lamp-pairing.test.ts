@@ -13,7 +13,8 @@ import { realisticLamp } from "../../../support/realistic-lamp";
 
 const xOf = (nm: number) => 5 * (nm - 400);
 
-function verdictFor(wavelengthsNm: number[], degree = 3, lastShiftX = 0) {
+/** Equal Ne I lines at these wavelengths, a peak exactly on each, and the pairing context of the array. */
+function lampAt(wavelengthsNm: number[]) {
   const lines: LampLine[] = wavelengthsNm.map((nm, i) => ({
     wavelengthNm: nm,
     intensity: 100,
@@ -21,20 +22,28 @@ function verdictFor(wavelengthsNm: number[], degree = 3, lastShiftX = 0) {
     id: `l${i}`,
   }));
   const peaks: LampPeak[] = wavelengthsNm.map((nm) => ({ x: xOf(nm), height: 1000, fwhm: 5 }));
-  const pairs: LampPair[] = wavelengthsNm.map((nm, i) => ({
-    x: xOf(nm) + (i === wavelengthsNm.length - 1 ? lastShiftX : 0),
-    wavelengthNm: nm,
-    species: "Ne I",
-    lineId: `l${i}`,
-    peakIndex: i,
-    lineIndex: i,
-  }));
   const context = pairingContext(peaks, lines, {
     nominalRangeNm: [400, 710],
     dispersion: "grating",
     resolutionNm: 1,
     domain: [0, 1550],
   });
+  /** Line `lineIndex` paired with peak `peakIndex`, `shiftX` off it. */
+  const pairOf = (lineIndex: number, peakIndex: number, shiftX = 0): LampPair => ({
+    x: peaks[peakIndex].x + shiftX,
+    wavelengthNm: lines[lineIndex].wavelengthNm,
+    species: "Ne I",
+    lineId: lines[lineIndex].id,
+    peakIndex,
+    lineIndex,
+  });
+  return { context, pairOf };
+}
+
+function verdictFor(wavelengthsNm: number[], degree = 3, lastShiftX = 0) {
+  const { context, pairOf } = lampAt(wavelengthsNm);
+  const last = wavelengthsNm.length - 1;
+  const pairs = wavelengthsNm.map((_, i) => pairOf(i, i, i === last ? lastShiftX : 0));
   const fit = fitCalibration(pairs, { model: "polynomial", degree, domain: [0, 1550] });
   return verifyLampPairing(context, pairs, fit);
 }
@@ -96,32 +105,11 @@ describe("finishGrownPairing: pairs beyond a gap", () => {
     // (1.5 nm, 7.5 px on), 147 nm from the rest: a cubic through all fourteen bends onto them.
     const right = [550, 565, 580, 595, 610, 625, 640, 655, 670, 685, 700];
     const cluster = [400, 401.5, 403];
-    const wavelengths = [...cluster, 404.5, ...right];
-    const lines: LampLine[] = wavelengths.map((nm, i) => ({
-      wavelengthNm: nm,
-      intensity: 100,
-      species: "Ne I",
-      id: `l${i}`,
-    }));
-    const peaks: LampPeak[] = wavelengths.map((nm) => ({ x: xOf(nm), height: 1000, fwhm: 5 }));
-    const pairOf = (lineIndex: number, peakIndex: number): LampPair => ({
-      x: peaks[peakIndex].x,
-      wavelengthNm: lines[lineIndex].wavelengthNm,
-      species: "Ne I",
-      lineId: lines[lineIndex].id,
-      peakIndex,
-      lineIndex,
-    });
+    const { context, pairOf } = lampAt([...cluster, 404.5, ...right]);
     const pairs = [
       ...cluster.map((_, k) => pairOf(k, k + 1)),
       ...right.map((_, k) => pairOf(cluster.length + 1 + k, cluster.length + 1 + k)),
     ];
-    const context = pairingContext(peaks, lines, {
-      nominalRangeNm: [400, 710],
-      dispersion: "grating",
-      resolutionNm: 1,
-      domain: [0, 1550],
-    });
     const result = finishGrownPairing(context, pairs);
     expect(result.status).toBe("paired");
     expect(result.message).toContain(
