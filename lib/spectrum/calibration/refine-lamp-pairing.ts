@@ -277,7 +277,7 @@ function withCheckedEnds(context: PairingContext, result: LampPairingResult): La
         unmatchedPeaks: context.peaks.slice(),
         unmatchedLines: context.candidateLines.map((l) => context.lines[l]),
         message:
-          `check this pairing: with ${trimmed.length} end pair${trimmed.length > 1 ? "s" : ""} set aside ` +
+          `check this pairing: with ${counted(trimmed.length, "end pair")} set aside ` +
           `(${describePairs(trimmed)}), ${reasons.join("; ")}`,
       };
     }
@@ -292,11 +292,11 @@ function withCheckedEnds(context: PairingContext, result: LampPairingResult): La
     unmatchedPeaks: [...result.unmatchedPeaks, ...context.peaks.filter((_, i) => setAside.has(i))],
     unmatchedLines: [...result.unmatchedLines, ...dropped.map((p) => context.lines[p.lineIndex])],
     message:
-      `${result.message}; ${trimmed.length} end pair${trimmed.length > 1 ? "s" : ""} set aside ` +
+      `${result.message}; ${counted(trimmed.length, "end pair")} set aside ` +
       `(${describePairs(trimmed)}): ` +
       `the calibration there rested on ${trimmed.length > 1 ? "them" : "it"} alone` +
       (kept.aside.length > 0
-        ? `; then ${kept.aside.length} pair${kept.aside.length > 1 ? "s" : ""} beyond a wide gap (${describePairs(kept.aside)})`
+        ? `; then ${counted(kept.aside.length, "pair")} beyond a wide gap (${describePairs(kept.aside)})`
         : ""),
   };
 }
@@ -368,12 +368,24 @@ function withoutPairsBeyondGap(
 ): { pairs: LampPair[]; fit: FitCalibrationResult; verdict: PairingVerdict; aside: LampPair[] } | null {
   if (!verdict.beyondGap) return null;
   const aside = new Set(verdict.beyondGap);
-  const rest = pairs.filter((p) => !aside.has(p));
-  const refit = rest.length >= 3 ? finalFit(context, rest) : null;
-  if (!refit) return null;
-  const usedRest = rest.filter((_, i) => refit.pairs[i].used);
-  const verdictRest = verifyLampPairing(context, usedRest, refit);
-  return verdictRest.passed ? { pairs: usedRest, fit: refit, verdict: verdictRest, aside: [...aside] } : null;
+  const rest = refitAndVerify(context, pairs.filter((p) => !aside.has(p)));
+  return rest?.verdict.passed ? { ...rest, aside: [...aside] } : null;
+}
+
+/** `pairs` fitted afresh, the pairs the fit used, and their checks; null when they cannot be fitted. */
+function refitAndVerify(
+  context: PairingContext,
+  pairs: LampPair[],
+): { pairs: LampPair[]; fit: FitCalibrationResult; verdict: PairingVerdict } | null {
+  const fit = pairs.length >= 3 ? finalFit(context, pairs) : null;
+  if (!fit) return null;
+  const used = pairs.filter((_, i) => fit.pairs[i].used);
+  return { pairs: used, fit, verdict: verifyLampPairing(context, used, fit) };
+}
+
+/** "1 pair", "3 end pairs" */
+function counted(n: number, noun: string): string {
+  return `${n} ${noun}${n === 1 ? "" : "s"}`;
 }
 
 /** Below this old-style score the pairs are chance coincidences, not a calibration to check. */
@@ -424,11 +436,9 @@ function judge(context: PairingContext, givenPairs: LampPair[], givenFit: FitCal
   let trial = { pairs, fit, verdict };
   for (let round = 0; round < MAX_LOO_DROPS && trial.verdict && !trial.verdict.passed && trial.verdict.looOutlier; round++) {
     const outlier = trial.verdict.looOutlier;
-    const rest = trial.pairs.filter((p) => p !== outlier);
-    const refit = rest.length >= 3 ? finalFit(context, rest) : null;
-    if (!refit) break;
-    const usedRest = rest.filter((_, i) => refit.pairs[i].used);
-    trial = { pairs: usedRest, fit: refit, verdict: verifyLampPairing(context, usedRest, refit) };
+    const rest = refitAndVerify(context, trial.pairs.filter((p) => p !== outlier));
+    if (!rest) break;
+    trial = rest;
   }
   let beyondGap: LampPair[] = [];
   if (trial.verdict && !trial.verdict.passed) {
@@ -472,7 +482,7 @@ function judge(context: PairingContext, givenPairs: LampPair[], givenFit: FitCal
     message: paired
       ? `paired ${pairs.length} of ${peaks.length} peaks (confidence ${confidence.toFixed(2)}, RMS ${fit!.rmsNm.toFixed(4)} nm)` +
         (beyondGap.length > 0
-          ? `; ${beyondGap.length} pair${beyondGap.length > 1 ? "s" : ""} beyond a wide gap set aside (${describePairs(beyondGap)}): ` +
+          ? `; ${counted(beyondGap.length, "pair")} beyond a wide gap set aside (${describePairs(beyondGap)}): ` +
             `the calibration there would have rested on ${beyondGap.length > 1 ? "them" : "it"} alone`
           : "")
       : status === "check"

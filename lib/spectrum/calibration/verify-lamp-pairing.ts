@@ -11,6 +11,8 @@ import {
   type FitCalibrationOptions,
   type FitCalibrationResult,
 } from "./fit-calibration";
+import type { CalibrationModel } from "./calibration-model";
+import type { DispersionKind } from "../types";
 import type { LampPair } from "./lamp-pairing-types";
 import { lampLineBlended } from "./lamp-line-blended";
 import { modelEvaluation } from "./model-evaluation";
@@ -127,6 +129,20 @@ function forwardPolynomial(
   } catch {
     return null;
   }
+}
+
+/** The model of another shape that the model-agreement check fits to the same `n` pairs. */
+function alternativeModel(
+  model: CalibrationModel,
+  dispersion: DispersionKind,
+  n: number,
+): FitCalibrationOptions {
+  if (model.kind === "prism") return { model: "hartmann" };
+  if (model.kind === "hartmann")
+    return { model: "polynomial", degree: Math.min(5, Math.max(1, n - 3)) };
+  if (dispersion === "prism") return { model: "hartmann" };
+  // One degree more; for a quintic (the most fitted), one less: a quintic against itself always agrees.
+  return { model: "polynomial", degree: model.degree < 5 ? model.degree + 1 : model.degree - 1 };
 }
 
 /** Checks `pairs` (the used pairs) and their final `fit`; see the module comment. */
@@ -249,9 +265,9 @@ export function verifyLampPairing(
   let endGap = 0;
   let beyondGap: LampPair[] = [];
   if (spanNm > 0) {
+    const nm = (i: number) => byWavelength[i].wavelengthNm;
     for (let k = 1; k <= MAX_PAIRS_BEYOND_GAP; k++) {
       if (n < 2 * k + 2) continue;
-      const nm = (i: number) => byWavelength[i].wavelengthNm;
       // Beyond two, only a cluster tight against its gap acts as one pair does.
       const tight = (extent: number, gap: number) => k <= 2 || extent <= TIGHT_CLUSTER_SHARE * gap;
       const lowGap = nm(k) - nm(k - 1);
@@ -280,19 +296,7 @@ export function verifyLampPairing(
   if (span > 0) {
     const grid = Array.from({ length: 9 }, (_, i) => sorted[0].x + (span * i) / 8);
     const final = modelEvaluation(fit.model, grid);
-    const alternativeOptions: FitCalibrationOptions =
-      fit.model.kind === "polynomial" && context.dispersion === "prism"
-        ? { model: "hartmann" }
-        : fit.model.kind === "polynomial"
-          ? {
-              model: "polynomial",
-              // One degree more; for a quintic (the most fitted), one less: a quintic against itself
-              // always agrees.
-              degree: fit.model.degree < 5 ? fit.model.degree + 1 : fit.model.degree - 1,
-            }
-          : fit.model.kind === "prism"
-            ? { model: "hartmann" }
-            : { model: "polynomial", degree: Math.min(5, Math.max(1, n - 3)) };
+    const alternativeOptions = alternativeModel(fit.model, context.dispersion, n);
     try {
       const other = fitCalibration(sorted, {
         ...alternativeOptions,

@@ -2,7 +2,7 @@
 // group of two lines with one credit, and the evidence says so.
 import { describe, it, expect } from "vitest";
 import { identifyElements } from "@/lib/spectrum/matching";
-import type { CalibratedPeak } from "@/lib/spectrum/types";
+import { calibratedPeak } from "../../../support/calibrated-peak";
 import { inventedLine } from "../../../support/invented-line";
 
 // NIST ASD air wavelengths of the Na D lines (from memory); D2 about twice D1 in a flame (common practice).
@@ -11,21 +11,12 @@ const D1 = inventedLine("Na I", 589.592, { flame: 500 });
 
 // At 1 nm resolution the doublet (0.6 nm apart) is one peak at its intensity-weighted centre, 15 %
 // wider than one line.
-const peak: CalibratedPeak = {
-  index: 100,
-  x: 589.194,
-  xUncertainty: 0.005,
-  height: 5000,
-  fwhm: 1.15,
-  area: 6000,
-  snr: 500,
-  saturated: false,
-  blended: false,
-  wavelengthNm: 589.194,
-  wavelengthUncertaintyNm: 0.005,
-  fwhmNm: 1.15,
-  resolutionNm: 1,
-};
+const peak = calibratedPeak(
+  589.194,
+  500,
+  { fwhmNm: 1.15, uncertaintyNm: 0.005, resolutionNm: 1 },
+  { index: 100, area: 6000 },
+);
 const options = {
   source: "flame" as const,
   rangeNm: [580, 600] as [number, number],

@@ -5,38 +5,22 @@
 import { describe, expect, it } from "vitest";
 import { identifyElements } from "@/lib/spectrum/matching";
 import type { CalibratedPeak, ReferenceLine } from "@/lib/spectrum/types";
+import { calibratedPeak } from "../../../support/calibrated-peak";
+import { inventedLine } from "../../../support/invented-line";
 
 function line(species: string, airNm: number, flame: number | null): ReferenceLine {
-  const [element] = species.split(" ");
-  return {
-    id: `${species}-${airNm}`,
-    species,
-    element,
+  return inventedLine(species, airNm, flame === null ? {} : { flame }, {
     ionStage: 1,
-    airNm,
-    vacuumNm: airNm * 1.00028,
     uncertaintyNm: 0.002,
-    intensities: flame === null ? {} : { flame },
-    flags: {},
-  };
+  });
 }
 
 function peak(wavelengthNm: number, snr: number): CalibratedPeak {
-  return {
-    index: Math.round(wavelengthNm),
-    x: wavelengthNm,
-    xUncertainty: 0.003,
-    height: 10 * snr,
-    fwhm: 0.3,
-    area: 3 * snr,
-    snr,
-    saturated: false,
-    blended: false,
-    wavelengthNm,
-    wavelengthUncertaintyNm: 0.003,
+  return calibratedPeak(wavelengthNm, snr, {
     fwhmNm: 0.3,
+    uncertaintyNm: 0.003,
     resolutionNm: 0.3,
-  };
+  });
 }
 
 const options = {
