@@ -73,6 +73,13 @@ describe("the review journey", () => {
     await firstCall.getByRole("button", { name: "Add the mark" }).click();
     await page.getByTestId("review-mark").first().waitFor({ timeout: 20_000 });
     await page.getByLabel("What should the author look at again?").fill(comment);
+    // The supervisor judges the spectrum and the calibration's residuals, not only the tables: every
+    // chart on the page is drawn before the page is looked at.
+    const charts = page.getByTestId("chart");
+    expect(await charts.count()).toBeGreaterThan(0);
+    for (let i = 0; i < (await charts.count()); i++) {
+      await charts.nth(i).locator(".main-svg").first().waitFor({ timeout: 30_000 });
+    }
     await screenshot(page, "review-4-review-page");
     await page.getByRole("button", { name: "Return with comments" }).click();
     await page.getByTestId("round-comment").filter({ hasText: comment }).waitFor({ timeout: 20_000 });
