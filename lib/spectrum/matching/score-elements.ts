@@ -772,7 +772,7 @@ function demoteSinglePeakCalls(calls: ElementCall[], context: SinglePeakContext)
         (deciders.length > 0
           ? `a peak at ${deciders.join(" or ")} would decide.`
           : `another line of ${call.species} would decide.`),
-      `Only one peak is seen, and ${names} ${explainers.length === 1 ? "has" : "have"} a line there too.`,
+      `Only one peak is ${alone ? "seen" : "its own"}, and ${names} ${explainers.length === 1 ? "has" : "have"} a line there too.`,
     );
   }
 }
