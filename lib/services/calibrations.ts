@@ -7,29 +7,20 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
+import { lampPairRecord, type EditedLampCalibration, type WorkbenchPair } from "@/lib/spectrum/analysis";
 import {
   CalibrationError,
-  calibrationDoubts,
+  calibrationDrift,
+  calibrationModelChoice,
   calibrationUncertainty,
-  compareCalibrationModels,
-  dispersionAt,
   evaluateCalibration,
-  fitCalibration,
-  pairManually,
-  UNPAIRED_REACH_FWHM,
-  unpairedLampPeaks,
-  type CalibrationModel,
+  type CalibrationModelChoice,
   type FitCalibrationResult,
-  type FittedCalibrationPair,
   type GlassName,
   type LampLine,
-  type LampPair,
-  type LampPairingResult,
-  type UnpairedPeakReasonCode,
 } from "@/lib/spectrum/calibration";
-import type { Peak } from "@/lib/spectrum/types";
 import { runHeavyTask } from "@/lib/workers/heavy-pool";
-import { CALIBRATION_MODELS, type CalibrationCreateInput, type CalibrationModelChoice } from "@/lib/validation/workflow-schemas";
+import type { CalibrationCreateInput } from "@/lib/validation/workflow-schemas";
 import { Calibration, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import { latestCalibrationOf, loadInstrument } from "./instruments";
@@ -66,20 +57,6 @@ async function lampLinesOf(releaseId: string, lamps: string[], rangeNm: [number,
   }));
 }
 
-function modelLabel(model: CalibrationModel): string {
-  return model.kind === "polynomial" ? `polynomial-${model.degree}` : model.kind;
-}
-
-function toPairRecord(pair: FittedCalibrationPair): CalibrationPairRecord {
-  return {
-    pixel: pair.x,
-    wavelengthNm: pair.wavelengthNm,
-    residualNm: pair.residualNm,
-    species: pair.species ?? null,
-    lineId: pair.lineId ?? null,
-  };
-}
-
 /**
  * Tells two calibrations of one instrument apart, even on one date: gases, time (UTC, like calibratedOn),
  * model, RMS and covered range, e.g. "Ne+Ar · 14:05 · polynomial-3 · RMS 0.012 nm · 402–918 nm".
@@ -97,7 +74,7 @@ export function calibrationLabel(parts: { lamps: string[]; createdAt: Date; mode
 }
 
 export function toCalibrationRecord(row: Calibration): CalibrationRecord {
-  const model = modelLabel(row.model);
+  const model = calibrationModelChoice(row.model);
   const coveredRangeNm: [number, number] = [row.coveredMinNm, row.coveredMaxNm];
   return {
     id: row.id,
@@ -162,42 +139,11 @@ export async function evaluateStoredCalibration(
   return { wavelengthsNm: Array.from(wavelengths, finite), uncertaintiesNm: Array.from(sigma, finite), warnings };
 }
 
-function requestedFit(choice: CalibrationCreateInput["model"]): { kind: "polynomial" | "hartmann" | "prism"; degree?: number } | null {
-  if (choice === "auto") return null;
-  if (choice.startsWith("polynomial-")) return { kind: "polynomial", degree: Number(choice.slice("polynomial-".length)) };
-  return { kind: choice as "hartmann" | "prism" };
-}
-
 const NEEDS_MANUAL_HINT =
   "Pair two or three lamp peaks with their lines by hand (send pairs: [{pixel, wavelengthNm}, …]) and calibrate again.";
 
-/** A line given by hand must sit this close to a lamp line of the table. */
-const LINE_MATCH_NM = 0.05;
-
-/** A pair as the workbench shows it: where it came from and whether the fit used it. */
-export interface CalibrationPreviewPair extends CalibrationPairRecord {
-  /** "auto": found by the pairing; "added": made by hand. */
-  origin: "auto" | "added";
-  /** "used" in the fit, "rejected" by the fit's outlier rejection, or "excluded" by hand. */
-  state: "used" | "rejected" | "excluded";
-}
-
-/** One model of the core's comparison, fitted to the same pairs. */
-export interface CalibrationComparisonRow {
-  /** "polynomial-2", "hartmann", "prism": the value of the model selector. */
-  model: CalibrationModelChoice;
-  parameterCount: number | null;
-  rmsNm: number | null;
-  aicc: number | null;
-  bic: number | null;
-  /** λ ± 1σ at the array's first and last pixel: how the model extrapolates. */
-  ends: { pixel: number; wavelengthNm: number; uncertaintyNm: number }[] | null;
-  glass: string | null;
-  /** Why it could not be fitted. */
-  failure: string | null;
-}
-
-export interface CalibrationPreview {
+/** What the workbench shows: the core's edited calibration, with the records it was made from. */
+export interface CalibrationPreview extends Omit<EditedLampCalibration, "fit"> {
   instrumentId: string;
   spectrumId: string;
   lineRelease: { id: string; number: number };
@@ -206,118 +152,40 @@ export interface CalibrationPreview {
   xUnit: string;
   /** The array's extent on the file's axis. */
   domain: [number, number];
-  result: {
-    model: string;
-    rmsNm: number;
-    dof: number;
-    /** Every pair: used, rejected by the fit, or excluded by hand (residuals under the fitted model). */
-    pairs: CalibrationPreviewPair[];
-    coveredRangeNm: [number, number];
-    uncertainty: { medianNm: number; maxNm: number };
-    warnings: { code: string; message: string }[];
-    pairing: CalibrationRecord["pairing"];
-    /**
-     * Why this calibration should not silently become the instrument's default (calibrationDoubts);
-     * saving it then needs confirmReason.
-     */
-    doubts: string[];
-    /**
-     * A competing automatic pairing that explains the lamp nearly as well (empty when there is none):
-     * the chemist decides between them.
-     */
-    rival: { pixel: number; wavelengthNm: number; species: string }[];
-  };
-  comparison: { candidates: CalibrationComparisonRow[]; recommended: CalibrationModelChoice | null; reason: string };
-  /** The lamp's peaks, with the wavelength the fitted model puts them at and their line when paired. */
-  peaks: {
-    pixel: number;
-    height: number;
-    fwhm: number;
-    snr: number;
-    predictedNm: number | null;
-    pairedWith: { wavelengthNm: number; species: string } | null;
-    /** Why an unpaired peak is unpaired (null when paired), with the lamp lines the reason is about. */
-    unpaired: UnpairedPeakExplanation | null;
-  }[];
-  /** Lamp lines of the chosen gases in the instrument's nominal range. */
-  lines: { wavelengthNm: number; species: string; intensity: number; lineId: string; paired: boolean }[];
-  /**
-   * The tolerances the workbench states, as the service and the core apply them: a line given by hand
-   * must lie within lineMatchNm of a table line; an expected line "has a peak" within
-   * expectedPeakReachFwhm local FWHMs.
-   */
-  tolerances: { lineMatchNm: number; expectedPeakReachFwhm: number };
-  /** Unpaired lamp lines the calibration puts on the array with no peak within tolerances.expectedPeakReachFwhm FWHM: below the peak threshold. */
-  expectedWithoutPeak: { wavelengthNm: number; species: string; intensity: number; reason: "below threshold" }[];
 }
 
-/** An unpaired peak's reason in words the workbench shows as they are. */
-export interface UnpairedPeakExplanation {
-  code: UnpairedPeakReasonCode;
-  /** "blend", "not in the table", "line paired with another peak", "left unpaired", "no wavelength". */
-  reason: string;
-  lines: { wavelengthNm: number; species: string }[];
-}
-
-const UNPAIRED_REASON_WORDS: Record<UnpairedPeakReasonCode, string> = {
-  blend: "blend",
-  "not-in-table": "not in the table",
-  "line-paired-elsewhere": "line paired with another peak",
-  "left-unpaired": "left unpaired",
-  "no-wavelength": "no wavelength",
-};
+/** A pair as the workbench shows it (see WorkbenchPair). */
+export type CalibrationPreviewPair = WorkbenchPair;
 
 interface ComputedCalibration {
   preview: CalibrationPreview;
   instrument: Awaited<ReturnType<typeof loadInstrument>>;
   spectrum: Awaited<ReturnType<typeof loadSpectrum>>;
   fit: FitCalibrationResult;
-  /** Pairs the chemist left out, with their residuals under the final model. */
-  excluded: CalibrationPairRecord[];
 }
 
-const COMPARED_MODELS: CalibrationModelChoice[] = CALIBRATION_MODELS.filter((m) => m !== "auto");
-
-function choiceOf(kind: string, degree?: number): CalibrationModelChoice {
-  return (kind === "polynomial" ? `polynomial-${degree}` : kind) as CalibrationModelChoice;
+/** A calibration error as the reply a chemist reads: a bad hand edit is a 400 on its field, the rest 422. */
+function calibrationAppError(error: CalibrationError): AppError {
+  const field = typeof error.details.field === "string" ? error.details.field : null;
+  const fieldMessage = typeof error.details.fieldMessage === "string" ? error.details.fieldMessage : error.message;
+  const fieldErrors = field ? { [field]: [fieldMessage] } : undefined;
+  switch (error.code) {
+    case "invalid-edit":
+      return new AppError("validation", error.message, { fieldErrors });
+    case "not-paired":
+      return new AppError("unprocessable", `${error.message} ${NEEDS_MANUAL_HINT}`);
+    case "too-few-pairs-left":
+      return new AppError("unprocessable", error.message, { fieldErrors });
+    default:
+      return new AppError("unprocessable", `The calibration could not be fitted (${error.code}): ${error.message}.`);
+  }
 }
-
-/** The peak nearest a pixel, if it lies within its own width (at least 3 pixels) of it. */
-function peakNear(peaks: Peak[], pixel: number): number {
-  let nearest = -1;
-  peaks.forEach((p, k) => {
-    if (nearest < 0 || Math.abs(p.x - pixel) < Math.abs(peaks[nearest].x - pixel)) nearest = k;
-  });
-  if (nearest < 0 || Math.abs(peaks[nearest].x - pixel) > Math.max(3, 2 * peaks[nearest].fwhm)) return -1;
-  return nearest;
-}
-
-/** The lamp line nearest a wavelength, if within LINE_MATCH_NM of it. */
-function lineAt(lines: LampLine[], wavelengthNm: number): number {
-  let nearest = -1;
-  lines.forEach((l, k) => {
-    if (nearest < 0 || Math.abs(l.wavelengthNm - wavelengthNm) < Math.abs(lines[nearest].wavelengthNm - wavelengthNm)) nearest = k;
-  });
-  return nearest >= 0 && Math.abs(lines[nearest].wavelengthNm - wavelengthNm) <= LINE_MATCH_NM ? nearest : -1;
-}
-
-/** An unpaired peak's reason in words; a peak without a calibrated wavelength says so. */
-function explainUnpaired(
-  paired: boolean,
-  reason: { code: UnpairedPeakReasonCode; lineIndices: number[] } | null,
-  lineRef: (j: number) => { wavelengthNm: number; species: string },
-): UnpairedPeakExplanation | null {
-  if (paired) return null;
-  const code = reason?.code ?? "no-wavelength";
-  return { code, reason: UNPAIRED_REASON_WORDS[code], lines: (reason?.lineIndices ?? []).map(lineRef) };
-}
-
-const modelName = (kind: string, degree?: number) => (kind === "polynomial" ? `degree-${degree} polynomial` : `${kind} model`);
 
 /**
- * The one computation behind the preview and the saved calibration: pair the lamp's peaks with the
- * lamp lines (automatically, or from hand-picked seeds), drop the pairs the chemist excluded, add the
- * ones made by hand, fit the chosen model and compare every model on the same pairs. Writes nothing.
+ * The one computation behind the preview and the saved calibration: load the instrument, the lamp and
+ * its lines, and let the core pair them (automatically, or from hand-picked seeds), apply the chemist's
+ * edits, fit the chosen model and compare every model — in the worker pool, off the request thread.
+ * Writes nothing.
  */
 async function computeCalibration(actor: Actor, input: CalibrationCreateInput): Promise<ComputedCalibration> {
   const instrument = await loadInstrument(actor, input.instrumentId, "calibration.create");
@@ -345,253 +213,29 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
   }
   const { x, y } = spectrumPoints(spectrum);
   const domain: [number, number] = [x[0], x[x.length - 1]];
-  const pairingOptions = {
-    nominalRangeNm,
-    dispersion: instrument.dispersion,
-    resolutionNm: instrument.resolutionNm,
-    domain,
-  };
-  const excludedInput = input.excluded ?? [];
-  const addedInput = input.added ?? [];
-  const glass = (instrument.glass as GlassName | null) ?? undefined;
-  const apexDeg = instrument.apexDeg ?? undefined;
-
   // A recalibration starts from the instrument's last calibration on the same axis (the daily case).
   const last = await latestCalibrationOf(instrument.id);
   const previous = last && last.xUnit === spectrum.xUnit ? { previous: last.model } : {};
 
   try {
-    // Automatic pairing (up to seconds of CPU on a prism) runs in the worker pool, off the request thread.
-    const auto = await runHeavyTask({
-      kind: "calibrate-lamp",
+    const edited = await runHeavyTask({
+      kind: "edit-lamp-calibration",
       x,
       y,
       lines,
-      options: { ...pairingOptions, ...previous, model: "auto" },
+      options: {
+        nominalRangeNm,
+        dispersion: instrument.dispersion,
+        resolutionNm: instrument.resolutionNm,
+        domain,
+        glass: (instrument.glass as GlassName | null) ?? undefined,
+        apexDeg: instrument.apexDeg ?? undefined,
+        model: "auto",
+        ...previous,
+      },
+      edits: { seeds: input.pairs, added: input.added, excluded: input.excluded, model: input.model },
     });
-    const peaks = auto.peaks;
-    let pairing: LampPairingResult = auto.pairing;
-    let fit: FitCalibrationResult | null = auto.fit;
-    if (input.pairs) {
-      const seeds = input.pairs.map((seed, i) => {
-        const peakIndex = peakNear(peaks, seed.pixel);
-        if (peakIndex < 0) {
-          throw new AppError("validation", `No lamp peak was found near pixel ${seed.pixel}.`, {
-            fieldErrors: { [`pairs.${i}.pixel`]: ["No lamp peak near this pixel."] },
-          });
-        }
-        const lineIndex = lineAt(lines, seed.wavelengthNm);
-        if (lineIndex < 0) {
-          throw new AppError("validation", `No lamp line of ${lamps.join(", ")} at ${seed.wavelengthNm} nm (±${LINE_MATCH_NM} nm).`, {
-            fieldErrors: { [`pairs.${i}.wavelengthNm`]: ["No lamp line at this wavelength."] },
-          });
-        }
-        return { peakIndex, lineIndex };
-      });
-      pairing = pairManually(peaks, lines, seeds, pairingOptions);
-      fit = pairing.status === "paired" ? pairing.model : null;
-    }
-    // An automatic pairing to check is shown for the chemist to confirm or correct (saving it as the
-    // default then needs a reason, see the doubts below); only with no candidate at all is there nothing to show.
-    const toCheck = !input.pairs && pairing.status === "check" && pairing.candidate ? pairing.candidate : null;
-    if (toCheck) fit = toCheck;
-    if ((pairing.status !== "paired" && !toCheck) || !fit) {
-      const why =
-        pairing.status === "check"
-          ? `An automatic pairing was found but is not trusted — ${(pairing.reasons ?? []).join(" ")}`
-          : `The lamp peaks could not be paired with the lamp lines automatically (${pairing.message}).`;
-      throw new AppError("unprocessable", `${why} ${NEEDS_MANUAL_HINT}`);
-    }
-
-    // The pairs the chemist works with: the pairing's, less the excluded, with the added ones.
-    type WorkPair = { peakIndex: number; lineIndex: number; origin: "auto" | "added" };
-    // Taken from the pairing's fit, which also holds the pairs its outlier rejection set aside, in its order.
-    const pairingFit = fit;
-    // A blend the pairing paired at its centroid (the Hg 365 nm group) is a line of its own here, at that
-    // centroid, so that the workbench refits and shows the pair the pairing made.
-    const rival = toCheck ? (pairing.rivalSuggestion ?? []) : [];
-    for (const p of [...pairingFit.pairs, ...rival]) {
-      const member = lines.find((l) => l.id === p.lineId);
-      const id = `blend:${p.lineId}`;
-      if (member && Math.abs(member.wavelengthNm - p.wavelengthNm) > 1e-9 && !lines.some((l) => l.id === id)) {
-        lines.push({ wavelengthNm: p.wavelengthNm, intensity: member.intensity, species: member.species, id });
-      }
-    }
-    lines.sort((a, b) => a.wavelengthNm - b.wavelengthNm);
-    let work: WorkPair[] = pairingFit.pairs.map((p) => ({
-      peakIndex: peaks.findIndex((k) => k.x === p.x),
-      lineIndex: lines.findIndex((l) => (l.id === p.lineId || l.id === `blend:${p.lineId}`) && Math.abs(l.wavelengthNm - p.wavelengthNm) < 1e-9),
-      origin: "auto",
-    }));
-    if (work.some((w) => w.peakIndex < 0 || w.lineIndex < 0)) throw new Error("a pair of the pairing names no peak or line");
-    const overridden: WorkPair[] = [];
-    addedInput.forEach((given, i) => {
-      const peakIndex = peakNear(peaks, given.pixel);
-      if (peakIndex < 0) {
-        throw new AppError("validation", `No lamp peak was found near pixel ${given.pixel}.`, {
-          fieldErrors: { [`added.${i}.pixel`]: ["No lamp peak near this pixel."] },
-        });
-      }
-      const lineIndex = lineAt(lines, given.wavelengthNm);
-      if (lineIndex < 0) {
-        throw new AppError(
-          "validation",
-          `No lamp line of ${lamps.join(", ")} at ${given.wavelengthNm} nm (±${LINE_MATCH_NM} nm) in the nominal range.`,
-          { fieldErrors: { [`added.${i}.wavelengthNm`]: ["No lamp line at this wavelength."] } },
-        );
-      }
-      if (work.some((w) => w.origin === "added" && (w.peakIndex === peakIndex || w.lineIndex === lineIndex))) {
-        throw new AppError("validation", `The pair at pixel ${given.pixel} repeats a peak or a line already added by hand.`, {
-          fieldErrors: { [`added.${i}.pixel`]: ["This peak or line is already paired by hand."] },
-        });
-      }
-      // A pair made by hand overrides whatever the pairing did with that peak or that line.
-      overridden.push(...work.filter((w) => w.peakIndex === peakIndex || w.lineIndex === lineIndex));
-      work = work.filter((w) => w.peakIndex !== peakIndex && w.lineIndex !== lineIndex);
-      work.push({ peakIndex, lineIndex, origin: "added" });
-    });
-    const excludedWork: WorkPair[] = [];
-    excludedInput.forEach((given, i) => {
-      const matches = (w: WorkPair) =>
-        Math.abs(peaks[w.peakIndex].x - given.pixel) <= 1 && Math.abs(lines[w.lineIndex].wavelengthNm - given.wavelengthNm) <= LINE_MATCH_NM;
-      const k = work.findIndex(matches);
-      // Leaving out a pair that a pair made by hand already replaced asks for nothing more (trying a
-      // competing pairing replaces some pairs and leaves out the rest).
-      if (k < 0 && overridden.some(matches)) return;
-      if (k < 0) {
-        throw new AppError("validation", `No pair at pixel ${given.pixel} with the line at ${given.wavelengthNm} nm to leave out.`, {
-          fieldErrors: { [`excluded.${i}.pixel`]: ["No such pair: pair again and choose from the table."] },
-        });
-      }
-      excludedWork.push(...work.splice(k, 1));
-    });
-    const toPair = (w: WorkPair): LampPair => ({
-      x: peaks[w.peakIndex].x,
-      xUncertainty: peaks[w.peakIndex].xUncertainty,
-      wavelengthNm: lines[w.lineIndex].wavelengthNm,
-      species: lines[w.lineIndex].species,
-      lineId: lines[w.lineIndex].id,
-      peakIndex: w.peakIndex,
-      lineIndex: w.lineIndex,
-    });
-    const pairs = work.map(toPair);
-    const pairRefOf = (w: WorkPair) => ({ pixel: peaks[w.peakIndex].x, wavelengthNm: lines[w.lineIndex].wavelengthNm, species: lines[w.lineIndex].species });
-    const edited = excludedWork.length > 0 || addedInput.length > 0;
-    if (edited && pairs.length < 3) {
-      throw new AppError(
-        "unprocessable",
-        `Too few pairs left: ${pairs.length} remain after ${excludedWork.length} exclusion(s); at least 3 are needed to fit even a straight line. Include some pairs again.`,
-      );
-    }
-
-    // The model the pairing chose, refitted to the edited pairs (a polynomial's degree as the pairs allow).
-    const autoFit = (): FitCalibrationResult => {
-      const kind = pairingFit.model.kind;
-      const degree = pairingFit.model.kind === "polynomial" ? Math.min(pairingFit.model.degree, Math.max(1, pairs.length - 2)) : undefined;
-      return fitCalibration(pairs, { model: kind, degree, domain, glass: kind === "prism" ? glass : undefined, apexDeg });
-    };
-    const wanted = requestedFit(input.model);
-    const physical = instrument.dispersion === "prism" && (glass !== undefined || instrument.apexDeg !== null);
-    let baseline: FitCalibrationResult = edited ? autoFit() : pairingFit;
-    if (!wanted && physical && baseline.model.kind === "prism") {
-      baseline = fitCalibration(pairs, { model: "prism", domain, glass, apexDeg });
-    }
-    let chosen = baseline;
-    if (wanted) {
-      try {
-        chosen = fitCalibration(pairs, { model: wanted.kind, degree: wanted.degree, domain, glass, apexDeg });
-      } catch (error) {
-        if (error instanceof CalibrationError && error.code === "too-few-pairs") {
-          throw new AppError(
-            "unprocessable",
-            `The ${modelName(wanted.kind, wanted.degree)} needs more pairs than remain (${error.message}). Include pairs again or choose a simpler model.`,
-            { fieldErrors: { model: ["Needs more pairs than remain."] } },
-          );
-        }
-        throw error;
-      }
-    }
-
-    // Every model compared on the same clean pairs: those the baseline fit kept.
-    const clean = baseline.pairs.filter((p) => p.used);
-    const comparison = compareCalibrationModels(clean, { dispersion: instrument.dispersion, domain, glass, apexDeg });
-    const candidates: CalibrationComparisonRow[] = COMPARED_MODELS.map((choice) => {
-      const c = comparison.candidates.find((k) => choiceOf(k.kind, k.degree) === choice);
-      if (!c) {
-        return { model: choice, parameterCount: null, rmsNm: null, aicc: null, bic: null, ends: null, glass: null, failure: `needs more than the ${clean.length} pairs in the fit` };
-      }
-      const finite = (v: number | undefined) => (v !== undefined && Number.isFinite(v) ? v : null);
-      return {
-        model: choice,
-        parameterCount: c.parameterCount,
-        rmsNm: finite(c.rmsNm),
-        aicc: finite(c.aicc),
-        bic: finite(c.bic),
-        ends: c.ends ? c.ends.map((e) => ({ pixel: e.x, wavelengthNm: e.wavelengthNm, uncertaintyNm: e.uncertaintyNm })) : null,
-        glass: c.glass ?? null,
-        failure: c.failure ? c.failure.message : null,
-      };
-    });
-    const recommended = comparison.recommended >= 0 ? comparison.candidates[comparison.recommended] : null;
-
-    const model = chosen.model;
-    const covered = Float64Array.from({ length: 41 }, (_, i) => model.coveredX[0] + ((model.coveredX[1] - model.coveredX[0]) * i) / 40);
-    const sigma = Array.from(calibrationUncertainty(model, covered)).filter(Number.isFinite).sort((a, b) => a - b);
-    const uncertainty = { medianNm: sigma[sigma.length >> 1] ?? 0, maxNm: sigma[sigma.length - 1] ?? 0 };
-    const quiet = { onWarning: () => undefined };
-    const excludedPairs = excludedWork.map(toPair);
-    const excludedFitted = evaluateCalibration(model, Float64Array.from(excludedPairs.map((p) => p.x)), quiet);
-    const excluded: CalibrationPairRecord[] = excludedPairs.map((p, i) => ({
-      pixel: p.x,
-      wavelengthNm: p.wavelengthNm,
-      residualNm: p.wavelengthNm - excludedFitted[i],
-      species: p.species ?? null,
-      lineId: p.lineId ?? null,
-    }));
-    const predicted = evaluateCalibration(model, Float64Array.from(peaks.map((p) => p.x)), quiet);
-    // Excluded pairs stay paired on the chart (drawn as excluded); only peaks without any pair are offered.
-    const pairedPeak = new Map([...work, ...excludedWork].map((w) => [w.peakIndex, w.lineIndex]));
-    const pairedLines = new Set(work.map((w) => w.lineIndex));
-    const pairingRecord: CalibrationRecord["pairing"] = {
-      status: pairing.status,
-      confidence: pairing.confidence,
-      message: pairing.message,
-      manualSeeds: input.pairs?.length ?? 0,
-      excludedByHand: excludedWork.length,
-      addedByHand: addedInput.length,
-      // Which ones, as resolved to a peak and a line, so the record says what the chemist changed.
-      handPairs: [
-        ...excludedWork.map((w) => ({ change: "excluded" as const, ...pairRefOf(w) })),
-        ...work.filter((w) => w.origin === "added").map((w) => ({ change: "added" as const, ...pairRefOf(w) })),
-      ],
-    };
-    // Doubts about the chosen fit; the confidence counts only for an automatic pairing (no seeds by hand).
-    const doubts = [
-      ...(toCheck ? [`The automatic pairing is not trusted: ${(pairing.reasons ?? []).join(" ")}`] : []),
-      ...calibrationDoubts(chosen, input.pairs ? {} : { automaticConfidence: pairing.confidence }),
-    ];
-    // Why peaks stay unpaired, in calibrated wavelength with each peak's FWHM turned into nm.
-    const localDispersion = dispersionAt(model, Float64Array.from(peaks.map((p) => p.x)));
-    const arrayEndsNm = Array.from(evaluateCalibration(model, Float64Array.from(domain), quiet));
-    const explained =
-      arrayEndsNm.every(Number.isFinite) && arrayEndsNm[0] !== arrayEndsNm[1]
-        ? unpairedLampPeaks(
-            peaks.map((p, i) => ({
-              wavelengthNm: predicted[i],
-              // A width the model cannot turn into nm falls back to the instrument's resolution.
-              fwhmNm: Number.isFinite(localDispersion[i]) && localDispersion[i] !== 0 ? p.fwhm * Math.abs(localDispersion[i]) : instrument.resolutionNm,
-              paired: pairedPeak.has(i),
-            })),
-            lines.map((l, i) => ({ wavelengthNm: l.wavelengthNm, paired: pairedLines.has(i) })),
-            { arrayRangeNm: [Math.min(...arrayEndsNm), Math.max(...arrayEndsNm)] },
-          )
-        : null;
-    const lineRef = (j: number) => ({ wavelengthNm: lines[j].wavelengthNm, species: lines[j].species });
-    const previewPairs: CalibrationPreviewPair[] = [
-      ...chosen.pairs.map((p, i) => ({ ...toPairRecord(p), origin: work[i].origin, state: p.used ? ("used" as const) : ("rejected" as const) })),
-      ...excluded.map((p, i) => ({ ...p, origin: excludedWork[i].origin, state: "excluded" as const })),
-    ].sort((a, b) => a.pixel - b.pixel);
-
+    const { fit, ...shown } = edited;
     const preview: CalibrationPreview = {
       instrumentId: instrument.id,
       spectrumId: spectrum.id,
@@ -600,49 +244,11 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
       requestedModel: input.model,
       xUnit: spectrum.xUnit,
       domain,
-      result: {
-        model: modelLabel(model),
-        rmsNm: chosen.rmsNm,
-        dof: chosen.dof,
-        pairs: previewPairs,
-        coveredRangeNm: [model.coveredNm[0], model.coveredNm[1]],
-        uncertainty,
-        warnings: chosen.warnings,
-        pairing: pairingRecord,
-        doubts,
-        rival: rival.map((p) => ({ pixel: p.x, wavelengthNm: p.wavelengthNm, species: p.species ?? "" })),
-      },
-      comparison: {
-        candidates,
-        recommended: recommended ? choiceOf(recommended.kind, recommended.degree) : null,
-        reason: comparison.reason,
-      },
-      peaks: peaks.map((p, i) => {
-        const line = pairedPeak.has(i) ? lines[pairedPeak.get(i)!] : null;
-        return {
-          pixel: p.x,
-          height: p.height,
-          fwhm: p.fwhm,
-          snr: p.snr,
-          predictedNm: Number.isFinite(predicted[i]) ? predicted[i] : null,
-          pairedWith: line ? { wavelengthNm: line.wavelengthNm, species: line.species } : null,
-          unpaired: explainUnpaired(line !== null, explained?.peakReasons[i] ?? null, lineRef),
-        };
-      }),
-      lines: lines.map((l, i) => ({ wavelengthNm: l.wavelengthNm, species: l.species, intensity: l.intensity, lineId: l.id, paired: pairedLines.has(i) })),
-      tolerances: { lineMatchNm: LINE_MATCH_NM, expectedPeakReachFwhm: UNPAIRED_REACH_FWHM },
-      expectedWithoutPeak: (explained?.expectedWithoutPeak ?? []).map((j) => ({
-        wavelengthNm: lines[j].wavelengthNm,
-        species: lines[j].species,
-        intensity: lines[j].intensity,
-        reason: "below threshold" as const,
-      })),
+      ...shown,
     };
-    return { preview, instrument, spectrum, fit: chosen, excluded };
+    return { preview, instrument, spectrum, fit };
   } catch (error) {
-    if (error instanceof CalibrationError) {
-      throw new AppError("unprocessable", `The calibration could not be fitted (${error.code}): ${error.message}.`);
-    }
+    if (error instanceof CalibrationError) throw calibrationAppError(error);
     throw error;
   }
 }
@@ -675,19 +281,10 @@ export async function createCalibration(actor: Actor, input: CalibrationCreateIn
 
   return sequelize.transaction(async (transaction) => {
     const previous = await latestCalibrationOf(instrument.id, transaction);
-    let drift: CalibrationRecord["drift"] = null;
-    if (previous && previous.xUnit === spectrum.xUnit) {
-      const pixels = [0, 0.25, 0.5, 0.75, 1].map((f) => domain[0] + f * (domain[1] - domain[0]));
-      const now = evaluateCalibration(model, Float64Array.from(pixels));
-      const before = evaluateCalibration(previous.model, Float64Array.from(pixels));
-      const deltaNm = pixels.map((_, i) => now[i] - before[i]);
-      drift = {
-        previousCalibrationId: previous.id,
-        pixels,
-        deltaNm,
-        maxAbsNm: Math.max(...deltaNm.map((d) => (Number.isFinite(d) ? Math.abs(d) : 0))),
-      };
-    }
+    const drift: CalibrationRecord["drift"] =
+      previous && previous.xUnit === spectrum.xUnit
+        ? { previousCalibrationId: previous.id, ...calibrationDrift(model, previous.model, domain) }
+        : null;
     const row = await Calibration.create(
       {
         teamId: instrument.teamId,
@@ -700,8 +297,8 @@ export async function createCalibration(actor: Actor, input: CalibrationCreateIn
         modelKind: model.kind,
         model,
         xUnit: spectrum.xUnit,
-        pairs: fit.pairs.filter((p) => p.used).map(toPairRecord),
-        rejected: fit.rejected.map(toPairRecord),
+        pairs: fit.pairs.filter((p) => p.used).map(lampPairRecord),
+        rejected: fit.rejected.map(lampPairRecord),
         rmsNm: fit.rmsNm,
         dof: fit.dof,
         coveredMinNm: model.coveredNm[0],

@@ -2,7 +2,7 @@
 // Route handlers parse with these; the services check what depends on stored data.
 import { z } from "zod";
 import { text } from "./text";
-import { GLASS_NAMES, type GlassName } from "@/lib/spectrum/calibration";
+import { CALIBRATION_MODELS, GLASS_NAMES, type CalibrationModelChoice, type GlassName } from "@/lib/spectrum/calibration";
 import { SOURCE_KINDS, type SourceKind } from "@/lib/spectrum/types";
 import { AppError } from "@/lib/errors";
 
@@ -73,17 +73,7 @@ export const spectrumUploadFieldsSchema = z.object({
   xUnit: z.enum(AXIS_UNITS, { error: `The x unit is one of ${AXIS_UNITS.join(", ")}.` }).optional(),
 });
 
-export const CALIBRATION_MODELS = [
-  "auto",
-  "polynomial-1",
-  "polynomial-2",
-  "polynomial-3",
-  "polynomial-4",
-  "polynomial-5",
-  "hartmann",
-  "prism",
-] as const;
-export type CalibrationModelChoice = (typeof CALIBRATION_MODELS)[number];
+export { CALIBRATION_MODELS, type CalibrationModelChoice };
 
 /** A pair named by its peak's pixel and its line's wavelength, as the workbench shows them. */
 function pairRef(verb: string) {

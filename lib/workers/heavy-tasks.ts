@@ -10,9 +10,12 @@ import { woffToSfnt } from "@/lib/reports/woff-to-sfnt";
 import {
   analyzeSample,
   calibrateLamp,
+  editLampCalibration,
   type AnalyzeSampleOptions,
   type CalibrateLampOptions,
-  type LampCalibration,
+  type EditedLampCalibration,
+  type EditLampCalibrationOptions,
+  type LampCalibrationEdits,
   type SampleAnalysis,
 } from "@/lib/spectrum/analysis";
 import { CalibrationError, type LampLine } from "@/lib/spectrum/calibration";
@@ -28,11 +31,13 @@ export type HeavyTask =
       chart: { wavelengthNm: Float64Array; counts: Float64Array };
     }
   | {
-      kind: "calibrate-lamp";
+      /** The workbench: the automatic calibration, then the chemist's edits and every model compared. */
+      kind: "edit-lamp-calibration";
       x: Float64Array;
       y: Float64Array;
       lines: LampLine[];
-      options: CalibrateLampOptions;
+      options: CalibrateLampOptions & EditLampCalibrationOptions;
+      edits: LampCalibrationEdits;
     }
   | {
       kind: "analyze-sample";
@@ -49,7 +54,7 @@ export type HeavyTask =
 
 export interface HeavyResults {
   "report-pdf": Uint8Array;
-  "calibrate-lamp": LampCalibration;
+  "edit-lamp-calibration": EditedLampCalibration;
   /** null: this worker has no index of the release yet; send the lines. */
   "analyze-sample": SampleAnalysis | null;
   "plan-line-import": PlannedImport;
@@ -103,8 +108,10 @@ async function run(task: HeavyTask): Promise<unknown> {
       });
       return new Uint8Array(pdf.buffer, pdf.byteOffset, pdf.byteLength);
     }
-    case "calibrate-lamp":
-      return calibrateLamp(task.x, task.y, task.lines, task.options);
+    case "edit-lamp-calibration": {
+      const automatic = calibrateLamp(task.x, task.y, task.lines, task.options);
+      return editLampCalibration(automatic, task.lines, task.edits, task.options);
+    }
     case "analyze-sample": {
       const index = indexFor(task.releaseId, task.lines);
       return index ? analyzeSample(task.x, task.y, index, task.options) : null;

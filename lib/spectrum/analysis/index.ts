@@ -1,4 +1,4 @@
-// Public API of the composed analyses: calibrated peaks and the identification of a sample.
+// Public API of the composed analyses: lamp calibration and its workbench edits, calibrated peaks and the identification of a sample.
 export { calibratePeaks, type CalibratePeaksOptions } from "./calibrate-peaks";
 export { analyzeSample, type AnalyzeSampleOptions, type InstrumentWidth, type SampleAnalysis } from "./analyze-sample";
 export { estimateInstrumentFwhm, type EstimateInstrumentFwhmOptions } from "./estimate-instrument-fwhm";
@@ -9,6 +9,20 @@ export {
   type InstrumentFwhmTrend,
 } from "./estimate-instrument-fwhm-trend";
 export { calibrateLamp, type CalibrateLampOptions, type LampCalibration } from "./calibrate-lamp";
+export {
+  editLampCalibration,
+  HAND_LINE_MATCH_NM,
+  lampPairRecord,
+  type EditedLampCalibration,
+  type EditLampCalibrationOptions,
+  type HandPair,
+  type LampCalibrationEdits,
+  type LampPairRecord,
+  type UnpairedPeakExplanation,
+  type WorkbenchModelRow,
+  type WorkbenchPair,
+  type WorkbenchPairingRecord,
+} from "./edit-lamp-calibration";
 export { excitationTemperature, usableBoltzmannLines, type ExcitationTemperature, type ExcitationTemperatureOptions } from "./excitation-temperature";
 export { lteReferenceLines } from "./lte-reference-lines";
 export { detectionLimits, type DetectionLimit, type DetectionLimitContext } from "./detection-limits";

@@ -15,7 +15,13 @@ export type CalibrationErrorCode =
   /** A named prism glass is not described (or has a resonance) over the wavelengths it would have to serve. */
   | "glass-out-of-range"
   /** The spectrum or the options cannot be calibrated at all (lengths differ, not finite, x not increasing, …). */
-  | "invalid-input";
+  | "invalid-input"
+  /** A hand edit names no peak or no line, repeats one, or leaves out a pair that does not exist (details.field names it). */
+  | "invalid-edit"
+  /** No automatic pairing to start from and no pairs given by hand. */
+  | "not-paired"
+  /** The hand edits, or the model asked for, need more pairs than remain (details.field names the model when it is the model). */
+  | "too-few-pairs-left";
 
 /** Error thrown by the calibration functions; `code` is stable, `message` is for people. */
 export class CalibrationError extends Error {

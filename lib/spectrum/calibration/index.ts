@@ -40,3 +40,5 @@ export {
   type UnpairedPeakReason,
   type UnpairedPeakReasonCode,
 } from "./unpaired-lamp-peaks";
+export { CALIBRATION_MODELS, calibrationModelChoice, type CalibrationModelChoice } from "./calibration-model-choice";
+export { calibrationDrift, type CalibrationDrift } from "./calibration-drift";

@@ -9,6 +9,7 @@ import { synthesizeSpectrum } from "@/lib/spectrum/synthetic";
 import type { ReferenceLine } from "@/lib/spectrum/types";
 import { reviveTaskError, runHeavyTask } from "@/lib/workers/heavy-pool";
 import { createWorkPool } from "@/lib/workers/work-pool";
+import { realisticLamp } from "../../support/realistic-lamp";
 
 const filename = path.resolve("lib/workers/heavy-worker.mjs");
 // One thread and room for one waiting task: a third task at once finds the queue full.
@@ -51,15 +52,50 @@ describe("createWorkPool", { timeout: 120_000 }, () => {
     // A lamp calibration with mismatched arrays is refused inside the core, on the thread, with a
     // CalibrationError("invalid-input") that the calibration service maps to a 4xx.
     const task = {
-      kind: "calibrate-lamp" as const,
+      kind: "edit-lamp-calibration" as const,
       x: Float64Array.of(0, 1, 2),
       y: Float64Array.of(1, 2),
       lines: [],
-      options: { nominalRangeNm: [400, 700] as [number, number], dispersion: "grating" as const },
+      options: {
+        nominalRangeNm: [400, 700] as [number, number],
+        dispersion: "grating" as const,
+        domain: [0, 2] as [number, number],
+      },
+      edits: {},
     };
     const error = await runHeavyTask(task, pool).catch((e: unknown) => e);
     expect(error).toBeInstanceOf(CalibrationError);
     expect((error as CalibrationError).code).toBe("invalid-input");
+  });
+
+  it("keeps a bad hand edit's field across the thread, so the reply can point at it", async () => {
+    const lamp = realisticLamp(7, {
+      clean: true,
+      dispersion: "grating-straight",
+      gases: ["Hg", "Ar"],
+      pixels: 2048,
+    });
+    const task = {
+      kind: "edit-lamp-calibration" as const,
+      x: lamp.x,
+      y: lamp.y,
+      lines: lamp.lines,
+      options: {
+        nominalRangeNm: lamp.statedRangeNm,
+        dispersion: "grating" as const,
+        resolutionNm: lamp.resolutionNm,
+        domain: [0, 2047] as [number, number],
+      },
+      // No lamp line of the table sits at 123.456 nm.
+      edits: { added: [{ pixel: 1000, wavelengthNm: 123.456 }] },
+    };
+    const error = await runHeavyTask(task, pool).catch((e: unknown) => e);
+    expect(error).toBeInstanceOf(CalibrationError);
+    const revived = error as CalibrationError;
+    // Either the pixel has no peak or the wavelength no line: both are fields of the first added pair.
+    expect(revived.code).toBe("invalid-edit");
+    expect(String(revived.details.field)).toMatch(/^added\.0\.(pixel|wavelengthNm)$/);
+    expect(typeof revived.details.fieldMessage).toBe("string");
   });
 });
 
