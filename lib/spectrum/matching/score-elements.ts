@@ -728,18 +728,28 @@ function demoteSinglePeakCalls(calls: ElementCall[], context: SinglePeakContext)
       );
       continue;
     }
-    // The rival's line at the peak most able to make it: its strongest there.
+    // The rival's line at the peak most able to make it: its strongest there. Any line within half the
+    // instrument's width of the peak can be part of it, matched or not; a species the table rates only
+    // for other sources is weighed on their scale (the table holds it, and a lamp or a sample can show it).
     const rivalLine = new Map<string, { lineIndex: number; relative: number }>();
-    for (const candidate of match.candidates) {
-      const lines = index.species[index.speciesOfLine[candidate.lineIndex]];
+    const halfWidthNm = 0.5 * (match.peak.resolutionNm ?? match.peak.fwhmNm);
+    const within: number[] = [];
+    for (
+      let i = lowerBound(index.lineWavelengthNm, match.peak.wavelengthNm - halfWidthNm);
+      i < index.lineWavelengthNm.length &&
+      index.lineWavelengthNm[i] <= match.peak.wavelengthNm + halfWidthNm;
+      i++
+    ) {
+      within.push(index.lineOrder[i]);
+    }
+    for (const lineIndex of [...match.candidates.map((c) => c.lineIndex), ...within]) {
+      const lines = index.species[index.speciesOfLine[lineIndex]];
       const rival = context.work.get(lines.species);
-      // A species the table rates for other sources but not this one is not expected from it.
-      if (lines.element === call.element || !rival || borrowed(rival.info, context.source))
-        continue;
-      const relative = rival.info.scale.relative[index.positionInSpecies[candidate.lineIndex]];
+      if (lines.element === call.element || !rival) continue;
+      const relative = rival.info.scale.relative[index.positionInSpecies[lineIndex]];
       const held = rivalLine.get(lines.species);
       if (held === undefined || relative > held.relative) {
-        rivalLine.set(lines.species, { lineIndex: candidate.lineIndex, relative });
+        rivalLine.set(lines.species, { lineIndex, relative });
       }
     }
     const explainers: string[] = [];

@@ -111,6 +111,32 @@ describe("a present call on one peak that another species explains", () => {
     );
   });
 
+  it("weighs a species the table rates only for another source as a rival", () => {
+    // Vd has no flame intensity, only an arc one: the table still holds it, and a flame can show it.
+    const table = [
+      line("Xa I", 520.0, 1000),
+      inventedLine("Vd I", 520.03, { arc: 500 }, { ionStage: 1, uncertaintyNm: 0.002 }),
+    ];
+    const result = identifyElements([peak(520.0, 400)], table, options);
+    expect(verdict(result, "Xa I")).toBe("possible");
+    expect(result.calls.find((c) => c.species === "Xa I")!.notes.join(" ")).toMatch(
+      /Vd I also explains/,
+    );
+  });
+
+  it("weighs a rival line within half the instrument's width even when it is too far off to be matched", () => {
+    // The peak is placed to ±0.003 nm, so Ub's line 0.12 nm off is no match for it; at 0.3 nm
+    // resolution it still lies inside the peak and could make part of it.
+    const table = [line("Xa I", 520.0, 1000), line("Ub I", 520.12, 1000)];
+    const result = identifyElements([peak(520.0, 400)], table, options);
+    const ub = result.calls.find((c) => c.species === "Ub I");
+    expect(ub?.seen ?? []).toEqual([]);
+    expect(verdict(result, "Xa I")).toBe("possible");
+    // Beyond half the width it is no rival.
+    const far = [line("Xa I", 520.0, 1000), line("Ub I", 520.2, 1000)];
+    expect(verdict(identifyElements([peak(520.0, 400)], far, options), "Xa I")).toBe("present");
+  });
+
   it("does not count another ion of the same element as an interference", () => {
     const table = [line("Xa I", 520.0, 1000), { ...line("Xa II", 520.03, 1000), ionStage: 2 }];
     const result = identifyElements([peak(520.0, 400)], table, options);
