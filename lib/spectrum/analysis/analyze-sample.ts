@@ -13,6 +13,7 @@ import { pickPeaks, type PickPeaksOptions } from "../peaks/pick-peaks";
 import { binSamples } from "../signal/bin-samples";
 import { binningFactorFor } from "../signal/binning-factor-for";
 import { prepareSignal } from "../signal/prepare-signal";
+import { smoothingWindowFor } from "../signal/smoothing-window-for";
 import type { CalibratedPeak, Peak, ReferenceLine, SourceKind } from "../types";
 import { calibratePeaks } from "./calibrate-peaks";
 import { estimateInstrumentFwhm, type EstimateInstrumentFwhmOptions } from "./estimate-instrument-fwhm";
@@ -137,9 +138,14 @@ export function analyzeSample(
   // A heavily oversampled array (a line thousands of samples wide) is averaged down to a few samples
   // per line first, as calibrateLamp does: the smoothing window and the peak finder expect lines a
   // few samples wide. Peak centres and widths stay on the input axis (binSamples keeps mean x).
-  const binningFactor = x.length > 1 ? binningFactorFor(lineWidthInSamples(x, calibration, options)) : 1;
+  const lineSamples = x.length > 1 ? lineWidthInSamples(x, calibration, options) : Number.NaN;
+  const binningFactor = x.length > 1 ? binningFactorFor(lineSamples) : 1;
   const binned = binningFactor > 1 ? binSamples(x, y, { factor: binningFactor }) : { x, y };
-  const signal = prepareSignal(binned.x, binned.y, { source, detectorMax });
+  const signal = prepareSignal(binned.x, binned.y, {
+    source,
+    detectorMax,
+    smoothing: { windowSize: smoothingWindowFor(lineSamples / binningFactor), polynomial: 4 },
+  });
   const picked = pickPeaks(binned.x, signal, { ...options.peakOptions, minSnr });
   const instrumentWidth = resolveInstrumentWidth(binned.x, picked, calibration, options);
   const peaks = calibratePeaks(picked, {
