@@ -3,8 +3,8 @@
 // The forward direction is closed-form (Snell's law at both faces); the inverse has none, so λ(x) is
 // found on a bracket by Newton steps safeguarded with bisection, which always converges because x(λ)
 // is monotonic wherever the fit is accepted.
-import { refractiveIndex } from "./refractive-index";
-import type { GlassName } from "./glass-catalogue";
+import { refractiveIndexOrNaN } from "./refractive-index-or-nan";
+import { GLASS_CATALOGUE, type GlassName } from "./glass-catalogue";
 
 /** Geometry of a prism spectrometer in the units the calibration fits it in. */
 export interface PrismGeometry {
@@ -49,14 +49,11 @@ export function prismDeviationRad(n: number, incidenceRad: number, apexRad: numb
 
 /** x at which a wavelength lands; NaN where the ray cannot leave the prism or the glass has no index. */
 export function prismForwardX(geometry: PrismGeometry, wavelengthNm: number): number {
-  let n: number;
-  let nRef: number;
-  try {
-    n = refractiveIndex(geometry.glass, wavelengthNm);
-    nRef = refractiveIndex(geometry.glass, geometry.referenceWavelengthNm);
-  } catch {
-    return Number.NaN;
-  }
+  const coefficients = GLASS_CATALOGUE[geometry.glass];
+  if (!coefficients) return Number.NaN;
+  const n = refractiveIndexOrNaN(coefficients, wavelengthNm);
+  const nRef = refractiveIndexOrNaN(coefficients, geometry.referenceWavelengthNm);
+  if (Number.isNaN(n) || Number.isNaN(nRef)) return Number.NaN;
   const deviation = prismDeviationRad(n, geometry.incidenceRad, geometry.apexRad);
   const deviationRef = prismDeviationRad(nRef, geometry.incidenceRad, geometry.apexRad);
   // Red light is deviated less, so δref − δ grows with λ and `direction` says which way x runs.

@@ -49,9 +49,16 @@ function matchByPrediction(context: PairingContext, predictX: (lambda: number) =
   const sortedX = order.map((i) => peaks[i].x);
   const forcedLines = new Set(forced.values());
   const best = new Map<number, { line: number; distanceX: number }>();
+  // The blend test below asks for every candidate's place again for each line: each is computed once.
+  const placed = new Map<number, number>();
+  const placedX = (wavelengthNm: number) => {
+    let x = placed.get(wavelengthNm);
+    if (x === undefined) placed.set(wavelengthNm, (x = predictX(wavelengthNm)));
+    return x;
+  };
   for (const l of candidateLines) {
     if (forcedLines.has(l)) continue;
-    const x = predictX(lines[l].wavelengthNm);
+    const x = placedX(lines[l].wavelengthNm);
     if (!(x >= context.domain[0] - toleranceX && x <= context.domain[1] + toleranceX)) continue;
     let low = 0;
     let high = sortedX.length;
@@ -67,7 +74,7 @@ function matchByPrediction(context: PairingContext, predictX: (lambda: number) =
       if (forced.has(p) || distanceX > toleranceX) continue;
       // Without a measured width a blend cannot be told from a line (the outlier rejection is then the guard).
       const fwhmX = peaks[p].fwhm;
-      if (fwhmX !== undefined && lampLineBlended(lines, candidateLines, l, predictX, fwhmX)) continue;
+      if (fwhmX !== undefined && lampLineBlended(lines, candidateLines, l, placedX, fwhmX)) continue;
       const current = best.get(p);
       if (!current || distanceX < current.distanceX) best.set(p, { line: l, distanceX });
     }
@@ -407,7 +414,13 @@ function judge(context: PairingContext, givenPairs: LampPair[], givenFit: FitCal
     const [low, high] = [Math.min(ends[0], ends[1]), Math.max(ends[0], ends[1])];
     // Blended lines are left out of pairing on purpose, so neither they nor the peaks they make count
     // against the pairing; the lines' width is the peaks' typical one.
-    const xOf = inverseOf(context, fit);
+    const inverse = inverseOf(context, fit);
+    const placed = new Map<number, number>();
+    const xOf = (wavelengthNm: number) => {
+      let x = placed.get(wavelengthNm);
+      if (x === undefined) placed.set(wavelengthNm, (x = inverse(wavelengthNm)));
+      return x;
+    };
     const fwhmX = typicalPeakFwhm(peaks);
     const blended = (l: number) => fwhmX !== undefined && lampLineBlended(lines, candidateLines, l, xOf, fwhmX);
     const inRange = candidateLines.filter((l) => lines[l].wavelengthNm >= low && lines[l].wavelengthNm <= high);

@@ -1,6 +1,7 @@
 // Refractive index of a catalogue glass from its Sellmeier equation, the basis of the physical prism model.
 import { CalibrationError } from "./calibration-error";
 import { GLASS_CATALOGUE, type GlassName, type SellmeierGlass } from "./glass-catalogue";
+import { refractiveIndexOrNaN } from "./refractive-index-or-nan";
 
 /**
  * n(λ) = sqrt(1 + Σ Bᵢλ²/(λ² − Cᵢ)) with λ in µm.
@@ -16,20 +17,12 @@ export function refractiveIndex(glass: GlassName | SellmeierGlass, wavelengthNm:
   if (!Number.isFinite(wavelengthNm) || wavelengthNm <= 0) {
     throw new RangeError(`wavelengthNm must be a positive finite number, got ${wavelengthNm}`);
   }
-  const lambdaUm2 = (wavelengthNm / 1000) ** 2;
-  let nSquaredMinusOne = 0;
-  for (let i = 0; i < 3; i++) {
-    const resonanceUm2 = coefficients.cUm2[i];
-    const denominator = lambdaUm2 - resonanceUm2;
-    // The terms with Cᵢ < 1 µm² are ultraviolet resonances (λ must lie above them), the others infrared
-    // ones (λ must lie below); across a resonance the formula has no physical meaning.
-    if (resonanceUm2 < 1 ? denominator <= 0 : denominator >= 0) {
-      throw new CalibrationError(
-        "not-invertible",
-        `${coefficients.name}: ${wavelengthNm} nm lies beyond a Sellmeier resonance of the glass`,
-      );
-    }
-    nSquaredMinusOne += (coefficients.b[i] * lambdaUm2) / denominator;
+  const n = refractiveIndexOrNaN(coefficients, wavelengthNm);
+  if (Number.isNaN(n)) {
+    throw new CalibrationError(
+      "not-invertible",
+      `${coefficients.name}: ${wavelengthNm} nm lies beyond a Sellmeier resonance of the glass`,
+    );
   }
-  return Math.sqrt(1 + nSquaredMinusOne);
+  return n;
 }

@@ -26,13 +26,23 @@ export function weightedLeastSquares(design: number[][], y: number[], sigma: num
     throw new CalibrationError("fit-failed", "the pairs do not determine the model (rank-deficient design)");
   }
   const solution = qr.solve(rhs).getColumn(0);
-  const normal = weighted.transpose().mmul(weighted);
-  const unscaledCovariance = inverse(normal).to2DArray();
   let chiSquare = 0;
   for (let i = 0; i < rows; i++) {
     let predicted = 0;
     for (let j = 0; j < columns; j++) predicted += design[i][j] * solution[j];
     chiSquare += ((y[i] - predicted) / sigma[i]) ** 2;
   }
+  // AᵀWA summed directly: a transposed copy and a general product cost more than the fit itself at
+  // the handful of columns a calibration has, thousands of times per calibration.
+  const normal = new Matrix(columns, columns);
+  for (let j = 0; j < columns; j++) {
+    for (let k = 0; k <= j; k++) {
+      let sum = 0;
+      for (let i = 0; i < rows; i++) sum += (design[i][j] * design[i][k]) / (sigma[i] * sigma[i]);
+      normal.set(j, k, sum);
+      normal.set(k, j, sum);
+    }
+  }
+  const unscaledCovariance = inverse(normal).to2DArray();
   return { parameters: solution, unscaledCovariance, chiSquare };
 }

@@ -45,36 +45,39 @@ export function modifiedPolynomialBaseline(
   const m = degree + 1;
   const x0 = x[0];
   const span = x[n - 1] - x[0] || 1;
-  const basis = new Float64Array(m);
-  const fillBasis = (i: number) => {
+  // The basis at every sample and the normal matrix depend on x alone: built once, not on every pass.
+  const basis = new Float64Array(n * m);
+  for (let i = 0; i < n; i++) {
     const u = (2 * (x[i] - x0)) / span - 1;
-    basis[0] = 1;
-    if (m > 1) basis[1] = u;
-    for (let k = 1; k < m - 1; k++) basis[k + 1] = ((2 * k + 1) * u * basis[k] - k * basis[k - 1]) / (k + 1);
-  };
+    const row = i * m;
+    basis[row] = 1;
+    if (m > 1) basis[row + 1] = u;
+    for (let k = 1; k < m - 1; k++) basis[row + k + 1] = ((2 * k + 1) * u * basis[row + k] - k * basis[row + k - 1]) / (k + 1);
+  }
+  const normal = new Float64Array(m * m);
+  for (let i = 0; i < n; i++) {
+    const row = i * m;
+    for (let a = 0; a < m; a++) for (let b = a; b < m; b++) normal[a * m + b] += basis[row + a] * basis[row + b];
+  }
+  const normalMatrix = new Matrix(m, m);
+  for (let a = 0; a < m; a++) for (let b = 0; b < m; b++) normalMatrix.set(a, b, normal[Math.min(a, b) * m + Math.max(a, b)]);
 
   const working = Float64Array.from(y);
   let fit = new Float64Array(n);
   for (let iteration = 0; iteration < maxIterations; iteration++) {
-    const normal = new Float64Array(m * m);
     const moments = new Float64Array(m);
     for (let i = 0; i < n; i++) {
-      fillBasis(i);
-      for (let a = 0; a < m; a++) {
-        moments[a] += basis[a] * working[i];
-        for (let b = a; b < m; b++) normal[a * m + b] += basis[a] * basis[b];
-      }
+      const row = i * m;
+      for (let a = 0; a < m; a++) moments[a] += basis[row + a] * working[i];
     }
-    const normalMatrix = new Matrix(m, m);
-    for (let a = 0; a < m; a++) for (let b = 0; b < m; b++) normalMatrix.set(a, b, normal[Math.min(a, b) * m + Math.max(a, b)]);
     const coefficients = solve(normalMatrix, Matrix.columnVector(Array.from(moments))).getColumn(0);
     const next = new Float64Array(n);
     let changeSquares = 0;
     let fitSquares = 0;
     for (let i = 0; i < n; i++) {
-      fillBasis(i);
+      const row = i * m;
       let value = 0;
-      for (let k = 0; k < m; k++) value += coefficients[k] * basis[k];
+      for (let k = 0; k < m; k++) value += coefficients[k] * basis[row + k];
       next[i] = value;
       changeSquares += (value - fit[i]) ** 2;
       fitSquares += value * value;
