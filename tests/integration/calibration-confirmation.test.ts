@@ -197,6 +197,7 @@ describe("labels and unpaired peaks", () => {
     expect(unpaired.length).toBeGreaterThan(0);
     for (const p of unpaired)
       expect([
+        "too broad for one lamp line",
         "blend",
         "not in the table",
         "line paired with another peak",

@@ -98,7 +98,7 @@ export interface WorkbenchModelRow {
 /** An unpaired peak's reason in words the workbench shows as they are. */
 export interface UnpairedPeakExplanation {
   code: UnpairedPeakReasonCode;
-  /** "blend", "not in the table", "line paired with another peak", "left unpaired", "no wavelength". */
+  /** "too broad for one lamp line", "blend", "not in the table", "line paired with another peak", "left unpaired", "no wavelength". */
   reason: string;
   lines: { wavelengthNm: number; species: string }[];
 }
@@ -177,6 +177,7 @@ export interface EditedLampCalibration {
 }
 
 const UNPAIRED_REASON_WORDS: Record<UnpairedPeakReasonCode, string> = {
+  broad: "too broad for one lamp line",
   blend: "blend",
   "not-in-table": "not in the table",
   "line-paired-elsewhere": "line paired with another peak",

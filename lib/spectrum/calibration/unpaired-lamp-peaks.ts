@@ -20,13 +20,14 @@ export interface UnpairedLampLineInput {
 }
 
 /**
- * "blend": the table line near the peak has another lamp line within reach, so no single line can be
+ * "broad": the peak is several times wider than the paired lines around it — continuum structure or a
+ * clump of lines, not one lamp line (no line is named); "blend": the table line near the peak has another lamp line within reach, so no single line can be
  * named; "not-in-table": no lamp line of the selected gases is near; "line-paired-elsewhere": the one
  * line near is paired with another peak; "left-unpaired": one clean line is near but the pairing did not
  * take it (pair it by hand if it is right); "no-wavelength": the calibration gives the peak no wavelength.
  */
 export type UnpairedPeakReasonCode =
-  "blend" | "not-in-table" | "line-paired-elsewhere" | "left-unpaired" | "no-wavelength";
+  "broad" | "blend" | "not-in-table" | "line-paired-elsewhere" | "left-unpaired" | "no-wavelength";
 
 export interface UnpairedPeakReason {
   code: UnpairedPeakReasonCode;
@@ -45,7 +46,16 @@ export interface UnpairedLampPeaksOptions {
    * @default 1.5
    */
   widthFactor?: number;
+  /**
+   * A peak wider than this many times the median FWHM of the (up to three) paired peaks nearest it is
+   * "broad": no single lamp line makes it, and it stands for no line's place.
+   * @default 3
+   */
+  broadFactor?: number;
 }
+
+/** Paired peaks a broad peak's width is compared with: the nearest ones, as the width changes along a prism. */
+const WIDTH_NEIGHBOURS = 3;
 
 export interface UnpairedLampPeaksResult {
   /** Per peak, in input order: why it is unpaired, or null when it is paired. */
@@ -60,7 +70,9 @@ export function unpairedLampPeaks(
   lines: readonly UnpairedLampLineInput[],
   options: UnpairedLampPeaksOptions,
 ): UnpairedLampPeaksResult {
-  const { arrayRangeNm, widthFactor = UNPAIRED_REACH_FWHM } = options;
+  const { arrayRangeNm, widthFactor = UNPAIRED_REACH_FWHM, broadFactor = 3 } = options;
+  if (!(Number.isFinite(broadFactor) && broadFactor > 1))
+    throw new RangeError(`broadFactor must be finite and above 1, got ${broadFactor}`);
   if (!(Number.isFinite(widthFactor) && widthFactor > 0))
     throw new RangeError(`widthFactor must be positive and finite, got ${widthFactor}`);
   if (!(
@@ -87,9 +99,30 @@ export function unpairedLampPeaks(
       j !== except && Math.abs(l.wavelengthNm - wavelengthNm) <= reachNm ? [j] : [],
     );
 
-  const peakReasons = peaks.map((peak): UnpairedPeakReason | null => {
+  // A line's width where a peak stands: the median of the nearest paired peaks' (NaN when none is paired).
+  const paired = peaks.filter((p) => p.paired && Number.isFinite(p.wavelengthNm));
+  const lineWidthNear = (wavelengthNm: number) => {
+    const widths = paired
+      .slice()
+      .sort(
+        (a, b) => Math.abs(a.wavelengthNm - wavelengthNm) - Math.abs(b.wavelengthNm - wavelengthNm),
+      )
+      .slice(0, WIDTH_NEIGHBOURS)
+      .map((p) => p.fwhmNm)
+      .sort((a, b) => a - b);
+    return widths.length > 0 ? widths[widths.length >> 1] : Number.NaN;
+  };
+  const broad = peaks.map(
+    (p) =>
+      !p.paired &&
+      Number.isFinite(p.wavelengthNm) &&
+      p.fwhmNm > broadFactor * lineWidthNear(p.wavelengthNm),
+  );
+
+  const peakReasons = peaks.map((peak, i): UnpairedPeakReason | null => {
     if (peak.paired) return null;
     if (!Number.isFinite(peak.wavelengthNm)) return { code: "no-wavelength", lineIndices: [] };
+    if (broad[i]) return { code: "broad", lineIndices: [] };
     const reachNm = widthFactor * peak.fwhmNm;
     const near = linesWithin(peak.wavelengthNm, reachNm);
     if (near.length === 0) return { code: "not-in-table", lineIndices: [] };
@@ -107,7 +140,8 @@ export function unpairedLampPeaks(
     };
   });
 
-  const located = peaks.filter((p) => Number.isFinite(p.wavelengthNm));
+  // A broad peak stands for no line: it neither hides an expected line nor sets the reach.
+  const located = peaks.filter((p, i) => Number.isFinite(p.wavelengthNm) && !broad[i]);
   const expectedWithoutPeak = lines.flatMap((line, j) => {
     if (line.paired || line.wavelengthNm < arrayRangeNm[0] || line.wavelengthNm > arrayRangeNm[1])
       return [];

@@ -18,6 +18,48 @@ describe("unpairedLampPeaks", () => {
     expect(peakReasons).toEqual([null]);
   });
 
+  it("says 'broad' for a peak three times wider than the paired lines near it, naming no line", () => {
+    // A continuum hump 20 nm wide over lamp lines 1 nm wide: no lamp line makes it, and its width
+    // neither reaches nor hides the expected line at 712 nm.
+    const peaks = [
+      peak(690, true),
+      peak(700, true),
+      peak(720, true),
+      peak(705, false, 20),
+      peak(730, false, 2.5),
+    ];
+    const lines = [
+      line(690, true),
+      line(700, true),
+      line(703),
+      line(706),
+      line(712),
+      line(720, true),
+      line(730.5),
+    ];
+    const { peakReasons, expectedWithoutPeak } = unpairedLampPeaks(peaks, lines, OPTIONS);
+    expect(peakReasons[3]).toEqual({ code: "broad", lineIndices: [] });
+    // 2.5 times the paired lines' width is still a line (a blend or a broadened one).
+    expect(peakReasons[4]?.code).toBe("left-unpaired");
+    expect(expectedWithoutPeak).toEqual([2, 3, 4]);
+  });
+
+  it("compares a peak's width with the paired peaks near it, as a prism's line widths grow to the red", () => {
+    // Lines 0.5 nm wide in the blue and 5 nm wide in the red: a 4-nm peak is broad in the blue only.
+    const peaks = [
+      peak(400, true, 0.5),
+      peak(410, true, 0.5),
+      peak(420, true, 0.5),
+      peak(850, true, 5),
+      peak(870, true, 5),
+      peak(415, false, 4),
+      peak(860, false, 4),
+    ];
+    const { peakReasons } = unpairedLampPeaks(peaks, [line(400, true), line(880)], OPTIONS);
+    expect(peakReasons[5]?.code).toBe("broad");
+    expect(peakReasons[6]?.code).not.toBe("broad");
+  });
+
   it("says 'not in the table' when no lamp line lies within 1.5 FWHM", () => {
     const { peakReasons } = unpairedLampPeaks(
       [peak(600), peak(700)],
