@@ -19,7 +19,7 @@ import { loadNotebook } from "./notebooks";
 import { keepReportPdf, keptReportPdf } from "./report-cache";
 import { loadRun } from "./run-lifecycle";
 import { fetchRunSpectrum, runSpectrumOf } from "./run-spectrum";
-import { toRunRecord } from "./runs";
+import { toRunRecord, toRunRecords } from "./runs";
 
 /** Points drawn in the report's chart; each bucket keeps its extremes, so no line is lost. */
 const CHART_POINTS = 3000;
@@ -182,12 +182,14 @@ export async function notebookCallsCsv(actor: Actor, notebookId: string): Promis
   const notebook = await loadNotebook(actor, notebookId);
   const rows = await Run.findAll({
     where: { notebookId: notebook.id },
+    // Every candidate line of every peak is stored with a run; the calls CSV reads none of it.
+    attributes: { exclude: ["matches"] },
     order: [
       ["createdAt", "ASC"],
       ["id", "ASC"],
     ],
   });
-  const runs = await Promise.all(rows.map((r) => toRunRecord(r)));
+  const runs = await toRunRecords(rows);
   const spectra = await SpectrumFile.findAll({ where: { id: [...new Set(runs.map((r) => r.spectrumId))] }, attributes: ["id", "instrumentId"] });
   const instruments = await Instrument.findAll({ where: { id: [...new Set(spectra.map((s) => s.instrumentId))] }, attributes: ["id", "name"] });
   const instrumentOf = new Map(spectra.map((s) => [s.id, instruments.find((i) => i.id === s.instrumentId)?.name ?? ""]));

@@ -152,12 +152,33 @@ export function standingVerdicts(calls: readonly StoredRunCall[], overrides: rea
   return verdicts;
 }
 
-export async function toRunRecord(row: Run, transaction?: Transaction): Promise<RunRecord> {
-  const stored = row.calls as StoredRunCall[];
-  const [overrides, release] = await Promise.all([
-    overridesOf(row.id, transaction),
-    LineRelease.findByPk(row.lineReleaseId, { attributes: ["number"], transaction }),
+/**
+ * Run records of several runs with two queries in all (their overrides, their releases' numbers),
+ * whatever their number: a notebook's calls CSV reads every run of it.
+ */
+export async function toRunRecords(rows: readonly Run[], transaction?: Transaction): Promise<RunRecord[]> {
+  if (rows.length === 0) return [];
+  const [overrides, releases] = await Promise.all([
+    overridesByRun(
+      rows.map((r) => r.id),
+      transaction,
+    ),
+    LineRelease.findAll({
+      where: { id: [...new Set(rows.map((r) => r.lineReleaseId))] },
+      attributes: ["id", "number"],
+      transaction,
+    }),
   ]);
+  const numberOf = new Map(releases.map((r) => [r.id, r.number]));
+  return rows.map((row) => runRecordOf(row, overrides.get(row.id) ?? [], numberOf.get(row.lineReleaseId) ?? null));
+}
+
+export async function toRunRecord(row: Run, transaction?: Transaction): Promise<RunRecord> {
+  return (await toRunRecords([row], transaction))[0];
+}
+
+function runRecordOf(row: Run, overrides: RunOverrideRecord[], releaseNumber: number | null): RunRecord {
+  const stored = row.calls as StoredRunCall[];
   const verdicts = standingVerdicts(stored, overrides);
   const calls: RunCall[] = stored.map((c) => {
     const newest = overrides.findLast((o) => o.species === c.species) ?? null;
@@ -174,7 +195,7 @@ export async function toRunRecord(row: Run, transaction?: Transaction): Promise<
     spectrumId: row.spectrumId,
     calibrationId: row.calibrationId,
     lineReleaseId: row.lineReleaseId,
-    lineReleaseNumber: release?.number ?? null,
+    lineReleaseNumber: releaseNumber,
     source: row.source,
     status: row.status,
     versionNumber: row.versionNumber,
@@ -204,7 +225,8 @@ export async function toRunRecord(row: Run, transaction?: Transaction): Promise<
 }
 
 export async function fetchRun(actor: Actor, runId: string): Promise<RunRecord> {
-  const row = await Run.findByPk(runId);
+  // A run's record does not carry the stored candidate lines (megabytes against a large table).
+  const row = await Run.findByPk(runId, { attributes: { exclude: ["matches"] } });
   if (!row) throw notFound("No such run.");
   authorize(actor, "team.view", { teamId: row.teamId });
   return await toRunRecord(row);
