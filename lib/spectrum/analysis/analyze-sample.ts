@@ -23,7 +23,7 @@ import {
 } from "./estimate-instrument-fwhm-trend";
 import { detectionLimits, type DetectionLimit } from "./detection-limits";
 import { excitationTemperature, type ExcitationTemperature } from "./excitation-temperature";
-import { lteReferenceLines } from "./lte-reference-lines";
+import { lteLineIndex } from "./lte-line-index";
 
 export interface AnalyzeSampleOptions {
   /** The dispersion relation for the input axis; null when x already is a wavelength axis in nm.
@@ -158,7 +158,7 @@ export function analyzeSample(
   const rangeNm: [number, number] = [Math.min(endsNm[0], endsNm[1]), Math.max(endsNm[0], endsNm[1])];
   let index = Array.isArray(lines) ? prepareLineIndex(lines as readonly ReferenceLine[]) : (lines as LineIndex);
   if (lteTemperatureK !== undefined) {
-    index = prepareLineIndex(lteReferenceLines(index.lines, source, lteTemperatureK), { medium: index.medium });
+    index = lteLineIndex(index, source, lteTemperatureK);
   }
   const identification = identifyElements(peaks, index, {
     k,
