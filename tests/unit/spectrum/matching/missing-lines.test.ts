@@ -9,6 +9,7 @@ import {
 import type { PeakMatch } from "../../../../lib/spectrum/matching";
 import type { CalibratedPeak, ReferenceLine } from "../../../../lib/spectrum/types";
 import { makeRandom } from "../../../../lib/spectrum/synthetic";
+import { twoLineDip } from "../../../../lib/spectrum/matching/two-line-dip";
 
 const RANGE_NM: [number, number] = [400, 700];
 const STRONG = 0.3;
@@ -210,10 +211,17 @@ function referenceScoring(matches: PeakMatch[], table: ReferenceLine[]): Referen
       if (predictedSnr < MISSING_SNR) continue;
       let hider: PeakMatch | null = null;
       for (const m of byWavelength) {
-        if (
-          Math.abs(m.peak.wavelengthNm - nm) > 1.5 * m.peak.fwhmNm ||
-          m.peak.snr < 3 * predictedSnr
-        )
+        const apartNm = Math.abs(m.peak.wavelengthNm - nm);
+        // Outshone three times, or a companion too close to be resolved from the peak.
+        const unresolved =
+          predictedSnr <= m.peak.snr &&
+          m.peak.snr *
+            twoLineDip(
+              apartNm / (m.peak.resolutionNm ?? m.peak.fwhmNm),
+              predictedSnr / m.peak.snr,
+            ) <
+            6;
+        if (apartNm > 1.5 * m.peak.fwhmNm || (m.peak.snr < 3 * predictedSnr && !unresolved))
           continue;
         if (!hider || m.peak.snr > hider.peak.snr) hider = m;
       }
