@@ -217,6 +217,17 @@ export function SpectrumUpload({
               {phase.preview.duplicateOf.uploadedAt.slice(0, 10)}. Storing it again keeps both copies.
             </p>
           ) : null}
+          {phase.preview.warnings.map((warning) => (
+            <p
+              key={warning}
+              role="alert"
+              data-testid="range-warning"
+              className="rounded border border-ember-600 bg-ember-50 p-2 text-sm text-ember-900 dark:bg-ink-800 dark:text-ember-100"
+            >
+              <span aria-hidden>⚠ </span>
+              {warning}
+            </p>
+          ))}
           <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm" data-testid="preview-facts">
             <dt className="muted">Points</dt>
             <dd>{phase.preview.points.toLocaleString("en")}</dd>

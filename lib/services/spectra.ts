@@ -8,7 +8,7 @@ import { thinSeries } from "@/lib/charts/thin-series";
 import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize, type TeamAction } from "@/lib/auth/policy";
-import { SpectrumParseError, decodeSpectrumBytes, parseSpectrumFile } from "@/lib/spectrum/io";
+import { SpectrumParseError, decodeSpectrumBytes, parseSpectrumFile, spectrumFitToInstrument } from "@/lib/spectrum/io";
 import type { AxisUnit } from "@/lib/spectrum/types";
 import { MAX_UPLOAD_BYTES, MAX_UPLOAD_POINTS } from "@/lib/validation/workflow-schemas";
 import { SpectrumFile, sequelize } from "@/models";
@@ -164,6 +164,8 @@ export interface SpectrumPreview {
   yRange: [number, number];
   /** An earlier upload of the same bytes in the team (the oldest), when there is one. */
   duplicateOf: SpectrumRecord["duplicateOf"];
+  /** What to check before storing, in sentences (a range mostly outside the instrument's). */
+  warnings: string[];
   /** The points for a chart, thinned beyond MAX_CHART_POINTS keeping each bucket's extremes. */
   series: { x: number[]; y: number[] };
 }
@@ -189,14 +191,22 @@ async function checkUpload(actor: Actor, upload: SpectrumUpload) {
     if (error instanceof RangeError) throw new AppError("validation", error.message, { fieldErrors: { file: [error.message] } });
     throw error;
   }
+  // A file that cannot have come from this instrument's detector is refused; one mostly outside its
+  // nominal range is said on the preview.
+  const fit = spectrumFitToInstrument(spectrum.x, spectrum.xUnit, {
+    name: instrument.name,
+    pixels: instrument.pixels,
+    nominalRangeNm: [instrument.nominalMinNm, instrument.nominalMaxNm],
+  });
+  if (fit.refusal) throw new AppError("validation", fit.refusal, { fieldErrors: { file: [fit.refusal] } });
   const raw = Buffer.from(upload.bytes.buffer, upload.bytes.byteOffset, upload.bytes.byteLength);
   const sha256 = createHash("sha256").update(raw).digest("hex");
-  return { instrument, spectrum, raw, sha256 };
+  return { instrument, spectrum, raw, sha256, warnings: fit.warnings };
 }
 
 /** Parses and checks an upload exactly as uploadSpectrum does, and returns what it would store; stores nothing. */
 export async function previewSpectrumUpload(actor: Actor, upload: SpectrumUpload): Promise<SpectrumPreview> {
-  const { instrument, spectrum, raw, sha256 } = await checkUpload(actor, upload);
+  const { instrument, spectrum, raw, sha256, warnings } = await checkUpload(actor, upload);
   let yMin = Infinity;
   let yMax = -Infinity;
   for (const value of spectrum.y) {
@@ -217,6 +227,7 @@ export async function previewSpectrumUpload(actor: Actor, upload: SpectrumUpload
     xRange: [spectrum.x[0], spectrum.x[spectrum.x.length - 1]],
     yRange: [yMin, yMax],
     duplicateOf: await earlierUpload({ teamId: instrument.teamId, sha256 }),
+    warnings,
     series: { x: thin.x, y: thin.y },
   };
 }

@@ -24,6 +24,7 @@ interface Preview {
   xRange: [number, number];
   yRange: [number, number];
   duplicateOf: { id: string; fileName: string; uploadedAt: string } | null;
+  warnings: string[];
   series: { x: number[]; y: number[] };
 }
 
@@ -87,6 +88,7 @@ describe("the upload preview", () => {
       xRange: [0, PIXELS - 1],
       yRange: [Math.min(...y), Math.max(...y)],
       duplicateOf: null,
+      warnings: [],
     });
     // Within the chart limit the series is every point, as the file has them.
     expect(reply.body.series).toEqual({ x, y });
@@ -95,16 +97,59 @@ describe("the upload preview", () => {
   });
 
   it("thins a long file for the chart and keeps a one-sample spike", async () => {
+    // 50,000 points on a wavelength axis inside the instrument's nominal range (a pixel file that long
+    // could not come from its 2,048-pixel detector).
     const n = 50_000;
-    const rows = Array.from({ length: n }, (_, i) => `${i},${i === 31_337 ? 90_000 : 200 + (i % 7)}`);
-    const reply = await preview(chemist, `pixel,counts\n${rows.join("\n")}\n`, "long.csv");
+    const [low, high] = grating.nominalRangeNm;
+    const nmAt = (i: number) => Number((low + ((high - low) * i) / (n - 1)).toFixed(5));
+    const rows = Array.from({ length: n }, (_, i) => `${nmAt(i)},${i === 31_337 ? 90_000 : 200 + (i % 7)}`);
+    const reply = await preview(chemist, `wavelength_nm,counts\n${rows.join("\n")}\n`, "long.csv");
     expect(reply.status, JSON.stringify(reply.body)).toBe(200);
     expect(reply.body.points).toBe(n);
+    expect(reply.body.warnings).toEqual([]);
     expect(reply.body.yRange).toEqual([200, 90_000]);
     expect(reply.body.series.x.length).toBeLessThan(n);
     expect(reply.body.series.x.length).toBeLessThanOrEqual(8002);
     expect(reply.body.series.y).toContain(90_000);
-    expect(reply.body.series.x[reply.body.series.y.indexOf(90_000)]).toBe(31_337);
+    expect(reply.body.series.x[reply.body.series.y.indexOf(90_000)]).toBe(nmAt(31_337));
+  });
+
+  it("refuses a pixel file longer than the instrument's detector, for the preview and for storing, writing nothing", async () => {
+    const before = await storedRows();
+    const mark = await auditMark();
+    const rows = Array.from({ length: 2 * PIXELS }, (_, i) => `${i},${200 + (i % 13)}`);
+    const content = `pixel,counts\n${rows.join("\n")}\n`;
+    const refused = await preview(chemist, content, "other-detector.csv");
+    expect(refused.status).toBe(400);
+    expect(refused.body.error.message).toBe(
+      `This file's first column runs over pixels 0 to ${2 * PIXELS - 1}, but Preview bench ${suffix} has ` +
+        `${PIXELS.toLocaleString("en")} pixels (0 to ${PIXELS - 1}): it was recorded on another detector or with ` +
+        "other binning. Upload it to the instrument it was recorded on.",
+    );
+    expect(refused.body.error.fieldErrors?.file?.[0]).toBe(refused.body.error.message);
+    const form = new FormData();
+    form.set("file", new Blob([content]), "other-detector.csv");
+    form.set("instrumentId", instrumentId);
+    form.set("kind", "lamp");
+    const stored = await chemist.request<ErrorBody>("POST", "/api/spectra", { form });
+    expect(stored.status).toBe(400);
+    // Pixels counted from 1 up to the detector's size are its own.
+    const fromOne = Array.from({ length: PIXELS }, (_, i) => `${i + 1},${200 + (i % 13)}`);
+    expect((await preview(chemist, `pixel,counts\n${fromOne.join("\n")}\n`, "from-one.csv")).status).toBe(200);
+    expect(await storedRows()).toBe(before);
+    expect(await auditEventsSince(mark, { actorId: chemistId })).toEqual([]);
+  });
+
+  it("says on the preview when a wavelength file lies mostly outside the instrument's nominal range", async () => {
+    const [low, high] = grating.nominalRangeNm;
+    const span = high - low;
+    const rows = Array.from({ length: 500 }, (_, i) => `${(high + 0.5 * span * (i / 499 - 0.2)).toFixed(3)},${300 + (i % 5)}`);
+    const reply = await preview(chemist, `wavelength_nm,counts\n${rows.join("\n")}\n`, "red-end.csv");
+    expect(reply.status, JSON.stringify(reply.body)).toBe(200);
+    expect(reply.body.warnings).toHaveLength(1);
+    expect(reply.body.warnings[0]).toMatch(
+      new RegExp(`only 20 % of it lies in Preview bench ${suffix}'s nominal range \\(${low} to ${high} nm\\)`),
+    );
   });
 
   it("refuses a bad file with the located message (400) and a too big one with 413, writing nothing", async () => {

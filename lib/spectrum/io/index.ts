@@ -21,3 +21,5 @@ export type { SuggestXUnitOptions, XUnitSuggestion } from "./suggest-x-unit";
 export { readAxisLabel } from "./read-axis-label";
 export type { AxisLabelReading, LabelUnit } from "./read-axis-label";
 export { parseNumberCell } from "./parse-number-cell";
+export { spectrumFitToInstrument } from "./spectrum-fit-to-instrument";
+export type { InstrumentFrame, SpectrumFit } from "./spectrum-fit-to-instrument";
