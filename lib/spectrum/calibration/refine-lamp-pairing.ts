@@ -16,6 +16,16 @@ import { verifyLampPairing, type PairingVerdict } from "./verify-lamp-pairing";
 import { trimPulledEnds } from "./trim-pulled-ends";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
+/** `place` remembered per wavelength: the blend test asks again for every candidate line's place. */
+function placedOnce(place: (wavelengthNm: number) => number): (wavelengthNm: number) => number {
+  const placed = new Map<number, number>();
+  return (wavelengthNm) => {
+    let x = placed.get(wavelengthNm);
+    if (x === undefined) placed.set(wavelengthNm, (x = place(wavelengthNm)));
+    return x;
+  };
+}
+
 /** Everything the refinement needs, prepared by the caller. */
 export interface PairingContext {
   peaks: LampPeak[];
@@ -50,12 +60,7 @@ function matchByPrediction(context: PairingContext, predictX: (lambda: number) =
   const forcedLines = new Set(forced.values());
   const best = new Map<number, { line: number; distanceX: number }>();
   // The blend test below asks for every candidate's place again for each line: each is computed once.
-  const placed = new Map<number, number>();
-  const placedX = (wavelengthNm: number) => {
-    let x = placed.get(wavelengthNm);
-    if (x === undefined) placed.set(wavelengthNm, (x = predictX(wavelengthNm)));
-    return x;
-  };
+  const placedX = placedOnce(predictX);
   for (const l of candidateLines) {
     if (forcedLines.has(l)) continue;
     const x = placedX(lines[l].wavelengthNm);
@@ -414,13 +419,7 @@ function judge(context: PairingContext, givenPairs: LampPair[], givenFit: FitCal
     const [low, high] = [Math.min(ends[0], ends[1]), Math.max(ends[0], ends[1])];
     // Blended lines are left out of pairing on purpose, so neither they nor the peaks they make count
     // against the pairing; the lines' width is the peaks' typical one.
-    const inverse = inverseOf(context, fit);
-    const placed = new Map<number, number>();
-    const xOf = (wavelengthNm: number) => {
-      let x = placed.get(wavelengthNm);
-      if (x === undefined) placed.set(wavelengthNm, (x = inverse(wavelengthNm)));
-      return x;
-    };
+    const xOf = placedOnce(inverseOf(context, fit));
     const fwhmX = typicalPeakFwhm(peaks);
     const blended = (l: number) => fwhmX !== undefined && lampLineBlended(lines, candidateLines, l, xOf, fwhmX);
     const inRange = candidateLines.filter((l) => lines[l].wavelengthNm >= low && lines[l].wavelengthNm <= high);

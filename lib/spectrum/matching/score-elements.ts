@@ -980,7 +980,6 @@ function nextDouble(v: number, direction: 1 | -1): number {
   return doubleView[0];
 }
 
-/** The peaks by wavelength with their hiding reach and SNR, and the hiding test itself. */
 /**
  * A dip between two lines must be this many noise σ deep for the peak finder to keep them apart: its
  * test is 3 σ on the smoothed signal, and smoothing and sampling at 2–3 samples per FWHM take about half
@@ -988,6 +987,7 @@ function nextDouble(v: number, direction: 1 | -1): number {
  */
 const RESOLVING_DIP_SNR = 6;
 
+/** The peaks by wavelength with their hiding reach and SNR, and the hiding test itself. */
 interface HidingPeaks {
   wavelengthNm: Float64Array;
   reachNm: Float64Array;
@@ -1030,13 +1030,14 @@ function hidingPeaks(
       if (Math.abs(wavelengthNm[i] - nm) > reachNm[i]) continue;
       // Far fainter than the peak, or a companion so close that the dip between them would not clear
       // the peak finder's test: in either case no peak of its own could show.
-      const outshone = snr[i] >= snrRatio * predictedSnr;
-      const unresolved =
-        predictedSnr <= snr[i] &&
-        snr[i] *
-          twoLineDip(Math.abs(wavelengthNm[i] - nm) / instrumentNm[i], predictedSnr / snr[i]) <
-          RESOLVING_DIP_SNR;
-      if (!outshone && !unresolved) continue;
+      // (The dip is worked out only for a line the peak does not outshine.)
+      const hides =
+        snr[i] >= snrRatio * predictedSnr ||
+        (predictedSnr <= snr[i] &&
+          snr[i] *
+            twoLineDip(Math.abs(wavelengthNm[i] - nm) / instrumentNm[i], predictedSnr / snr[i]) <
+            RESOLVING_DIP_SNR);
+      if (!hides) continue;
       if (!best || snr[i] > bestSnr) {
         best = byWavelength[i];
         bestSnr = snr[i];
