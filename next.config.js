@@ -8,17 +8,28 @@ const FIXED_SECURITY_HEADERS = [
   { key: "Referrer-Policy", value: "strict-origin-when-cross-origin" },
   {
     key: "Permissions-Policy",
-    value: "camera=(), microphone=(), geolocation=(), payment=(), usb=(), serial=(), bluetooth=(), interest-cohort=()",
+    value:
+      "camera=(), microphone=(), geolocation=(), payment=(), usb=(), serial=(), bluetooth=(), interest-cohort=()",
   },
   { key: "X-Frame-Options", value: "DENY" },
 ];
 // Cache-Control: no-store is set by lib/http/api-handler.ts, so that a route's own value (the reports'
 // "private, no-store") is not overwritten by this file's.
-const API_HEADERS = [{ key: "Content-Security-Policy", value: "default-src 'none'; frame-ancestors 'none'" }];
+const API_HEADERS = [
+  { key: "Content-Security-Policy", value: "default-src 'none'; frame-ancestors 'none'" },
+];
 
 /** @type {import('next').NextConfig} */
 const nextConfig = {
-  serverExternalPackages: ["sequelize", "argon2", "smtp-server", "mailparser", "nodemailer", "pdfkit", "piscina"],
+  serverExternalPackages: [
+    "sequelize",
+    "argon2",
+    "smtp-server",
+    "mailparser",
+    "nodemailer",
+    "pdfkit",
+    "piscina",
+  ],
   allowedDevOrigins: ["127.0.0.1"],
   poweredByHeader: false,
   // `npm test` runs `tsc --noEmit` over the whole project (tests included) before it builds;

@@ -6,7 +6,11 @@
 // and every action and handler checks authorisation again: the redirect is a convenience, not the guard.
 import { NextResponse, type NextRequest } from "next/server";
 import { SESSION_COOKIE } from "@/lib/auth/session-cookie";
-import { newNonce, pageContentSecurityPolicy, strictTransportSecurity } from "@/lib/http/security-headers";
+import {
+  newNonce,
+  pageContentSecurityPolicy,
+  strictTransportSecurity,
+} from "@/lib/http/security-headers";
 
 /** Pages anyone may open without a session. */
 const PUBLIC_PAGES = /^\/(sign-in|forgot-password|reset-password|invitations)(\/|$)/;
@@ -15,13 +19,21 @@ export function proxy(request: NextRequest) {
   const { pathname } = request.nextUrl;
   if (!isDecodablePath(pathname)) {
     return Response.json(
-      { error: { code: "validation", message: "The address is not valid: it has a broken %-escape." } },
+      {
+        error: {
+          code: "validation",
+          message: "The address is not valid: it has a broken %-escape.",
+        },
+      },
       { status: 400 },
     );
   }
   // Next.js refuses a server action from a foreign Origin by throwing, which answers 500: say 403 instead.
   if (request.method === "POST" && request.headers.has("next-action") && isForeignOrigin(request)) {
-    return new Response("Cross-site form posts are not accepted.", { status: 403, headers: { "content-type": "text/plain; charset=utf-8" } });
+    return new Response("Cross-site form posts are not accepted.", {
+      status: 403,
+      headers: { "content-type": "text/plain; charset=utf-8" },
+    });
   }
   // /api paths reach the proxy only when they contain "%" (see the matcher); the rest are the routes' own.
   if (pathname.startsWith("/api/")) return NextResponse.next();
@@ -53,7 +65,8 @@ export function proxy(request: NextRequest) {
 function isForeignOrigin(request: NextRequest): boolean {
   const origin = request.headers.get("origin");
   if (!origin) return false;
-  const host = request.headers.get("x-forwarded-host")?.split(",")[0]?.trim() || request.headers.get("host");
+  const host =
+    request.headers.get("x-forwarded-host")?.split(",")[0]?.trim() || request.headers.get("host");
   try {
     return new URL(origin).host !== host;
   } catch {

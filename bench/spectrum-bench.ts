@@ -57,11 +57,20 @@ function time(run: () => unknown, reps: number): number {
 }
 
 // The project's starter table: real lamp and flame lines (each with its source in the CSV).
-const starter = parseLineTableCsv(fs.readFileSync(path.join(root, "db/lines/starter-lines.csv"), "utf8"));
-const starterLines: ReferenceLine[] = starter.rows.map((row, i) => toReferenceLine(row, `starter-${i}`));
+const starter = parseLineTableCsv(
+  fs.readFileSync(path.join(root, "db/lines/starter-lines.csv"), "utf8"),
+);
+const starterLines: ReferenceLine[] = starter.rows.map((row, i) =>
+  toReferenceLine(row, `starter-${i}`),
+);
 const lampLines: LampLine[] = starterLines
   .filter((l) => l.flags.lamp && /^(Hg|Ar) I$/.test(l.species) && l.airNm > 350 && l.airNm < 900)
-  .map((l) => ({ wavelengthNm: l.airNm, intensity: l.intensities.lamp ?? 1, species: l.species, id: l.id }));
+  .map((l) => ({
+    wavelengthNm: l.airNm,
+    intensity: l.intensities.lamp ?? 1,
+    species: l.species,
+    id: l.id,
+  }));
 
 /** A large table: the starter lines plus invented filler lines, for timing only. */
 function syntheticTable(size: number): ReferenceLine[] {
@@ -101,7 +110,10 @@ function lampSpectrum(points: number) {
     pixelCount: points,
     wavelengthOfPixel: dispersionFor(points),
     resolutionNm: resolutionFor(points),
-    lines: lampLines.map((l) => ({ wavelengthNm: l.wavelengthNm, amplitude: 200 + 30 * Math.sqrt(l.intensity) })),
+    lines: lampLines.map((l) => ({
+      wavelengthNm: l.wavelengthNm,
+      amplitude: 200 + 30 * Math.sqrt(l.intensity),
+    })),
     readNoiseCounts: 4,
     darkCounts: 100,
     seed: 7,
@@ -109,12 +121,17 @@ function lampSpectrum(points: number) {
 }
 
 function flameSpectrum(points: number) {
-  const flame = starterLines.filter((l) => ["Na I", "K I", "Li I", "Ca I", "Sr I"].includes(l.species));
+  const flame = starterLines.filter((l) =>
+    ["Na I", "K I", "Li I", "Ca I", "Sr I"].includes(l.species),
+  );
   return synthesizeSpectrum({
     pixelCount: points,
     wavelengthOfPixel: dispersionFor(points),
     resolutionNm: resolutionFor(points),
-    lines: flame.map((l) => ({ wavelengthNm: l.airNm, amplitude: 20 + 2 * (l.intensities.flame ?? 10) })),
+    lines: flame.map((l) => ({
+      wavelengthNm: l.airNm,
+      amplitude: 20 + 2 * (l.intensities.flame ?? 10),
+    })),
     continuum: { shape: "planck", temperatureK: 2300, peakCounts: 600 },
     readNoiseCounts: 5,
     shotNoise: true,
@@ -151,7 +168,16 @@ function scipyMedians(dir: string, manifest: unknown): Record<string, number> {
 function main() {
   const cases: BenchCase[] = [];
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), "emberline-bench-"));
-  const manifest: { points: number; reps: number; text: string; lamp: string; flame: string; table: string; tableSize: number; lampLines: number[] }[] = [];
+  const manifest: {
+    points: number;
+    reps: number;
+    text: string;
+    lamp: string;
+    flame: string;
+    table: string;
+    tableSize: number;
+    lampLines: number[];
+  }[] = [];
   const bigTable = syntheticTable(300_000);
   const bigIndex = prepareLineIndex(bigTable);
   const tableFile = path.join(dir, "table-300000.f64");
@@ -168,7 +194,16 @@ function main() {
     fs.writeFileSync(lampFile, Buffer.from(lamp.y.buffer));
     fs.writeFileSync(flameFile, Buffer.from(flame.y.buffer));
     fs.writeFileSync(textFile, text);
-    manifest.push({ points, reps, text: textFile, lamp: lampFile, flame: flameFile, table: tableFile, tableSize: bigTable.length, lampLines: lampLines.map((l) => l.wavelengthNm) });
+    manifest.push({
+      points,
+      reps,
+      text: textFile,
+      lamp: lampFile,
+      flame: flameFile,
+      table: tableFile,
+      tableSize: bigTable.length,
+      lampLines: lampLines.map((l) => l.wavelengthNm),
+    });
 
     const calibrate = () =>
       calibrateLamp(lamp.x, lamp.y, lampLines, {
@@ -177,10 +212,17 @@ function main() {
         resolutionNm: resolutionFor(points),
       });
     const calibration = calibrate();
-    if (!calibration.fit) throw new Error(`the benchmark lamp did not calibrate at ${points} points`);
+    if (!calibration.fit)
+      throw new Error(`the benchmark lamp did not calibrate at ${points} points`);
     const model = calibration.fit.model;
 
-    cases.push({ name: "parse", points, lines: 0, medianMs: time(() => parseSpectrumText(text), reps), referenceMedianMs: null });
+    cases.push({
+      name: "parse",
+      points,
+      lines: 0,
+      medianMs: time(() => parseSpectrumText(text), reps),
+      referenceMedianMs: null,
+    });
     cases.push({
       name: "smoothing",
       points,
@@ -188,20 +230,44 @@ function main() {
       medianMs: time(() => savitzkyGolay(flame.y, { windowSize: 9, polynomial: 4 }), reps),
       referenceMedianMs: null,
     });
-    cases.push({ name: "peaks", points, lines: 0, medianMs: time(() => findPeaks(flame.x, flame.y, { source: "flame" }), reps), referenceMedianMs: null });
-    cases.push({ name: "auto-calibration", points, lines: lampLines.length, medianMs: time(calibrate, Math.min(reps, 15)), referenceMedianMs: null });
+    cases.push({
+      name: "peaks",
+      points,
+      lines: 0,
+      medianMs: time(() => findPeaks(flame.x, flame.y, { source: "flame" }), reps),
+      referenceMedianMs: null,
+    });
+    cases.push({
+      name: "auto-calibration",
+      points,
+      lines: lampLines.length,
+      medianMs: time(calibrate, Math.min(reps, 15)),
+      referenceMedianMs: null,
+    });
     cases.push({
       name: "full-analysis",
       points,
       lines: bigTable.length,
-      medianMs: time(() => analyzeSample(flame.x, flame.y, bigIndex, { calibration: model, source: "flame", resolutionNm: resolutionFor(points) }), reps),
+      medianMs: time(
+        () =>
+          analyzeSample(flame.x, flame.y, bigIndex, {
+            calibration: model,
+            source: "flame",
+            resolutionNm: resolutionFor(points),
+          }),
+        reps,
+      ),
       referenceMedianMs: null,
     });
   }
 
   // Growth in table size at a fixed 4,096-point spectrum: matching should grow like log n.
   const lamp4k = lampSpectrum(4096);
-  const model4k = calibrateLamp(lamp4k.x, lamp4k.y, lampLines, { nominalRangeNm: [350, 900], dispersion: "grating", resolutionNm: 1 }).fit!.model;
+  const model4k = calibrateLamp(lamp4k.x, lamp4k.y, lampLines, {
+    nominalRangeNm: [350, 900],
+    dispersion: "grating",
+    resolutionNm: 1,
+  }).fit!.model;
   const flame4k = flameSpectrum(4096);
   for (const size of TABLE_SIZES) {
     const index = prepareLineIndex(syntheticTable(size));
@@ -209,7 +275,15 @@ function main() {
       name: "full-analysis-by-table",
       points: 4096,
       lines: size,
-      medianMs: time(() => analyzeSample(flame4k.x, flame4k.y, index, { calibration: model4k, source: "flame", resolutionNm: 1 }), 60),
+      medianMs: time(
+        () =>
+          analyzeSample(flame4k.x, flame4k.y, index, {
+            calibration: model4k,
+            source: "flame",
+            resolutionNm: 1,
+          }),
+        60,
+      ),
       referenceMedianMs: null,
     });
   }
@@ -226,12 +300,18 @@ function main() {
   fs.rmSync(dir, { recursive: true, force: true });
 
   if (json) {
-    process.stdout.write(JSON.stringify({ node: process.version, reference: referenceNote, cases }, null, 2) + "\n");
+    process.stdout.write(
+      JSON.stringify({ node: process.version, reference: referenceNote, cases }, null, 2) + "\n",
+    );
     return;
   }
   const pad = (s: string, n: number) => s.padStart(n);
-  console.log(`Emberline numerical core — medians on ${os.cpus().length} cores, Node ${process.version}; ${referenceNote}`);
-  console.log(`${"step".padEnd(24)}${pad("points", 10)}${pad("lines", 9)}${pad("median ms", 12)}${pad("SciPy ms", 11)}${pad("ratio", 8)}`);
+  console.log(
+    `Emberline numerical core — medians on ${os.cpus().length} cores, Node ${process.version}; ${referenceNote}`,
+  );
+  console.log(
+    `${"step".padEnd(24)}${pad("points", 10)}${pad("lines", 9)}${pad("median ms", 12)}${pad("SciPy ms", 11)}${pad("ratio", 8)}`,
+  );
   for (const c of cases) {
     const ratio = c.referenceMedianMs ? (c.medianMs / c.referenceMedianMs).toFixed(2) : "—";
     console.log(

@@ -41,7 +41,10 @@ export function ensurePostgresInstalled() {
     env: { ...process.env, DEBIAN_FRONTEND: "noninteractive" },
   });
   bin = findPostgresBin();
-  if (!bin) throw new Error("Installing `postgresql` did not provide server binaries under /usr/lib/postgresql.");
+  if (!bin)
+    throw new Error(
+      "Installing `postgresql` did not provide server binaries under /usr/lib/postgresql.",
+    );
   return bin;
 }
 
@@ -55,10 +58,14 @@ function run(command, args, options = {}) {
 /** Runs a PostgreSQL tool, as the `postgres` user when we are root (initdb refuses root). */
 function pgTool(bin, tool, args) {
   const file = path.join(bin, tool);
-  const [command, fullArgs] = isRoot ? ["runuser", ["-u", "postgres", "--", file, ...args]] : [file, args];
+  const [command, fullArgs] = isRoot
+    ? ["runuser", ["-u", "postgres", "--", file, ...args]]
+    : [file, args];
   const result = spawnSync(command, fullArgs, { encoding: "utf8" });
   if (result.status !== 0) {
-    throw new Error(`${tool} failed (exit ${result.status}): ${(result.stderr || result.stdout || "").trim()}`);
+    throw new Error(
+      `${tool} failed (exit ${result.status}): ${(result.stderr || result.stdout || "").trim()}`,
+    );
   }
   return result.stdout;
 }
@@ -159,7 +166,20 @@ function superuserPsql(bin, port, database = "postgres") {
   return (sql) =>
     execFileSync(
       path.join(bin, "psql"),
-      ["-h", "127.0.0.1", "-p", String(port), "-U", SUPERUSER, "-d", database, "-v", "ON_ERROR_STOP=1", "-tAc", sql],
+      [
+        "-h",
+        "127.0.0.1",
+        "-p",
+        String(port),
+        "-U",
+        SUPERUSER,
+        "-d",
+        database,
+        "-v",
+        "ON_ERROR_STOP=1",
+        "-tAc",
+        sql,
+      ],
       { encoding: "utf8" },
     ).trim();
 }
@@ -179,9 +199,11 @@ export function ensureRoles({ bin, port, owner, app }) {
   const psql = superuserPsql(bin, port);
   for (const role of [owner, app]) {
     if (!SAFE_NAME.test(role.name)) throw new Error(`Unsafe role name: ${role.name}`);
-    if (role.name === SUPERUSER) throw new Error(`The ${role.name} role is the cluster's superuser: choose another name`);
+    if (role.name === SUPERUSER)
+      throw new Error(`The ${role.name} role is the cluster's superuser: choose another name`);
   }
-  if (owner.name === app.name) throw new Error("The owner role and the app role must be different roles.");
+  if (owner.name === app.name)
+    throw new Error("The owner role and the app role must be different roles.");
   const attributes = {
     [owner.name]: "LOGIN NOSUPERUSER NOCREATEROLE NOCREATEDB NOREPLICATION NOBYPASSRLS",
     [app.name]: "LOGIN NOSUPERUSER NOCREATEROLE NOCREATEDB NOREPLICATION NOBYPASSRLS NOINHERIT",
@@ -213,7 +235,11 @@ export function ensureDatabase({ bin, port, name, owner, fresh = false }) {
   if (!owner) return;
   const current = psql(`SELECT pg_get_userbyid(datdba) FROM pg_database WHERE datname = '${name}'`);
   if (current !== owner) psql(`ALTER DATABASE ${name} OWNER TO ${owner}`);
-  superuserPsql(bin, port, name)(`DO $$
+  superuserPsql(
+    bin,
+    port,
+    name,
+  )(`DO $$
     DECLARE item record;
     BEGIN
       FOR item IN

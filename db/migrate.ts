@@ -42,7 +42,9 @@ if (require.main === module) {
   main(owner)
     .then(() => owner.close())
     .catch(async (error) => {
-      process.stderr.write(`[emberline] Migration failed: ${error instanceof Error ? error.stack : error}\n`);
+      process.stderr.write(
+        `[emberline] Migration failed: ${error instanceof Error ? error.stack : error}\n`,
+      );
       await owner.close();
       process.exit(1);
     });

@@ -12,7 +12,18 @@ import { BULK_INSERT_LINES_SQL, bulkInsertPayload } from "../lib/services/line-l
 import type { Actor } from "../lib/auth/actor";
 import type { TeamRole } from "../lib/auth/roles";
 import type { InstrumentCreateInput } from "../lib/validation/workflow-schemas";
-import { AuditEvent, Calibration, Instrument, Membership, Notebook, Run, SpectrumFile, Team, User, sequelize } from "../models";
+import {
+  AuditEvent,
+  Calibration,
+  Instrument,
+  Membership,
+  Notebook,
+  Run,
+  SpectrumFile,
+  Team,
+  User,
+  sequelize,
+} from "../models";
 
 export const DEMO_PASSWORD = "emberline-demo";
 
@@ -203,15 +214,33 @@ const DEMO_BENCHES: {
       glass: null,
       apexDeg: null,
     },
-    lamp: { file: "bench-grating-lamp-hg-ar.csv", kind: "lamp", label: "Hg–Ar pencil lamp, morning check" },
+    lamp: {
+      file: "bench-grating-lamp-hg-ar.csv",
+      kind: "lamp",
+      label: "Hg–Ar pencil lamp, morning check",
+    },
     samples: [
-      { file: "bench-grating-flame-sample.csv", kind: "sample", label: "Mixed chloride salts, loop 1" },
-      { file: "bench-grating-lamp-check.csv", kind: "sample", label: "Hg–Ar lamp, read back as a sample" },
+      {
+        file: "bench-grating-flame-sample.csv",
+        kind: "sample",
+        label: "Mixed chloride salts, loop 1",
+      },
+      {
+        file: "bench-grating-lamp-check.csv",
+        kind: "sample",
+        label: "Hg–Ar lamp, read back as a sample",
+      },
     ],
     notebooks: [
       {
         title: "Chloride salts, week 48",
-        runs: [{ spectrum: "bench-grating-flame-sample.csv", source: "flame", review: { state: "submitted" } }],
+        runs: [
+          {
+            spectrum: "bench-grating-flame-sample.csv",
+            source: "flame",
+            review: { state: "submitted" },
+          },
+        ],
       },
       {
         title: "Lamp read-back checks",
@@ -242,8 +271,16 @@ const DEMO_BENCHES: {
     },
     lamp: { file: "bench-prism-lamp-hg-ar.csv", kind: "lamp", label: "Hg–Ar pencil lamp" },
     samples: [
-      { file: "bench-prism-flame-sample.csv", kind: "sample", label: "Chloride salts in the flame adapter" },
-      { file: "bench-prism-lamp-check.csv", kind: "sample", label: "Hg–Ar lamp, read back as a sample" },
+      {
+        file: "bench-prism-flame-sample.csv",
+        kind: "sample",
+        label: "Chloride salts in the flame adapter",
+      },
+      {
+        file: "bench-prism-lamp-check.csv",
+        kind: "sample",
+        label: "Hg–Ar lamp, read back as a sample",
+      },
     ],
     notebooks: [
       {
@@ -301,7 +338,9 @@ async function seedDemoWorkflow(): Promise<void> {
     for (const spectrum of [bench.lamp, ...bench.samples]) {
       const bytes = fs.readFileSync(path.join(DEMO_DIR, spectrum.file));
       const sha256 = createHash("sha256").update(bytes).digest("hex");
-      const existing = await SpectrumFile.findOne({ where: { teamId: team.id, instrumentId, sha256, kind: spectrum.kind } });
+      const existing = await SpectrumFile.findOne({
+        where: { teamId: team.id, instrumentId, sha256, kind: spectrum.kind },
+      });
       const id =
         existing?.id ??
         (
@@ -320,7 +359,16 @@ async function seedDemoWorkflow(): Promise<void> {
     const calibrationId =
       (await Calibration.findOne({ where: { spectrumId: lampId } }))?.id ??
       // No confirmation reason: the demo lamps calibrate without doubts, and a seed that met one should fail loudly.
-      (await createCalibration(analyst, { instrumentId, spectrumId: lampId, lamps: ["Hg", "Ar"], model: "auto", excluded: [], added: [] })).id;
+      (
+        await createCalibration(analyst, {
+          instrumentId,
+          spectrumId: lampId,
+          lamps: ["Hg", "Ar"],
+          model: "auto",
+          excluded: [],
+          added: [],
+        })
+      ).id;
 
     for (const book of bench.notebooks) {
       const notebookId =
@@ -328,14 +376,32 @@ async function seedDemoWorkflow(): Promise<void> {
         (await createNotebook(analyst, { teamId: team.id, title: book.title })).id;
       for (const run of book.runs) {
         const spectrumId = spectrumIds.get(run.spectrum)!;
-        const existing = await Run.findOne({ where: { notebookId, spectrumId, source: run.source }, attributes: ["id", "status"] });
-        const runId = existing?.id ?? (await createRun(analyst, { notebookId, spectrumId, calibrationId, source: run.source, settings: {} })).id;
+        const existing = await Run.findOne({
+          where: { notebookId, spectrumId, source: run.source },
+          attributes: ["id", "status"],
+        });
+        const runId =
+          existing?.id ??
+          (
+            await createRun(analyst, {
+              notebookId,
+              spectrumId,
+              calibrationId,
+              source: run.source,
+              settings: {},
+            })
+          ).id;
         // Through the review service too, so the queue, the mails and the audit trail tell the demo's story.
         let status = existing?.status ?? "draft";
         if (run.review && status === "draft") status = (await submitRun(analyst, runId, {})).status;
         if (run.review?.state === "signed" && status === "submitted") {
           const signer = await demoActor(run.review.signer);
-          await reviewRun(signer, runId, { decision: "sign", comment: "", password: DEMO_PASSWORD }, { address: "127.0.0.1" });
+          await reviewRun(
+            signer,
+            runId,
+            { decision: "sign", comment: "", password: DEMO_PASSWORD },
+            { address: "127.0.0.1" },
+          );
         }
       }
     }

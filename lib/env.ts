@@ -3,7 +3,8 @@
 import crypto from "node:crypto";
 import { mailViewerEnabled } from "./mail/mail-viewer";
 
-const production = process.env.NODE_ENV === "production" && process.env.EMBERLINE_ALLOW_DEV_SECRET !== "1";
+const production =
+  process.env.NODE_ENV === "production" && process.env.EMBERLINE_ALLOW_DEV_SECRET !== "1";
 
 let secret: string | undefined;
 
@@ -17,7 +18,8 @@ function readSessionSecret(): string {
   const value = process.env.SESSION_SECRET;
   if (value && value.length >= 32) return value;
   if (value) throw new Error("SESSION_SECRET must be at least 32 characters long.");
-  if (production) throw new Error("SESSION_SECRET is required in production (32 characters or more).");
+  if (production)
+    throw new Error("SESSION_SECRET is required in production (32 characters or more).");
   // A per-process development secret: sessions end when the process restarts.
   const generated = crypto.randomBytes(32).toString("base64url");
   process.env.SESSION_SECRET = generated;

@@ -53,7 +53,8 @@ export class AppError extends Error {
 }
 
 export const notFound = (what = "Not found") => new AppError("not_found", what);
-export const forbidden = (why = "You are not allowed to do that.") => new AppError("forbidden", why);
+export const forbidden = (why = "You are not allowed to do that.") =>
+  new AppError("forbidden", why);
 export const unauthenticated = () => new AppError("unauthenticated", "Sign in first.");
 
 /** How long a client should wait before trying again while the database is unreachable. */
@@ -85,7 +86,12 @@ export function toResponse(error: unknown): Response {
   }
   if (error instanceof Error && error.name === "SequelizeOptimisticLockError") {
     return Response.json(
-      { error: { code: "conflict", message: "Someone else changed this record first. Reload and try again." } },
+      {
+        error: {
+          code: "conflict",
+          message: "Someone else changed this record first. Reload and try again.",
+        },
+      },
       { status: 409 },
     );
   }
@@ -95,7 +101,8 @@ export function toResponse(error: unknown): Response {
       {
         error: {
           code: "validation",
-          message: "The request holds a value that cannot be stored (a control character, broken Unicode or a date out of range). Nothing was saved.",
+          message:
+            "The request holds a value that cannot be stored (a control character, broken Unicode or a date out of range). Nothing was saved.",
         },
       },
       { status: 400 },
@@ -110,7 +117,12 @@ export function toResponse(error: unknown): Response {
   }
   console.error(error);
   return Response.json(
-    { error: { code: "internal", message: "Something went wrong on the server. Nothing was saved." } },
+    {
+      error: {
+        code: "internal",
+        message: "Something went wrong on the server. Nothing was saved.",
+      },
+    },
     { status: 500 },
   );
 }

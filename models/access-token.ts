@@ -9,7 +9,10 @@ import {
 } from "sequelize";
 import { sequelize } from "../db/sequelize";
 
-export class AccessToken extends Model<InferAttributes<AccessToken>, InferCreationAttributes<AccessToken>> {
+export class AccessToken extends Model<
+  InferAttributes<AccessToken>,
+  InferCreationAttributes<AccessToken>
+> {
   declare id: CreationOptional<string>;
   declare userId: ForeignKey<string>;
   declare name: string;

@@ -8,7 +8,10 @@ import {
 } from "sequelize";
 import { sequelize } from "../db/sequelize";
 
-export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreationAttributes<AuditEvent>> {
+export class AuditEvent extends Model<
+  InferAttributes<AuditEvent>,
+  InferCreationAttributes<AuditEvent>
+> {
   declare id: CreationOptional<string>;
   declare actorId: string | null;
   declare teamId: string | null;

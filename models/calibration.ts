@@ -11,7 +11,10 @@ import { sequelize } from "../db/sequelize";
 import type { CalibrationModel } from "../lib/spectrum/calibration";
 import type { AxisUnit } from "../lib/spectrum/types";
 
-export class Calibration extends Model<InferAttributes<Calibration>, InferCreationAttributes<Calibration>> {
+export class Calibration extends Model<
+  InferAttributes<Calibration>,
+  InferCreationAttributes<Calibration>
+> {
   declare id: CreationOptional<string>;
   declare teamId: string;
   declare instrumentId: string;

@@ -8,7 +8,10 @@ import {
 } from "sequelize";
 import { sequelize } from "../db/sequelize";
 
-export class Instrument extends Model<InferAttributes<Instrument>, InferCreationAttributes<Instrument>> {
+export class Instrument extends Model<
+  InferAttributes<Instrument>,
+  InferCreationAttributes<Instrument>
+> {
   declare id: CreationOptional<string>;
   declare teamId: string;
   declare name: string;

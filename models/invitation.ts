@@ -10,7 +10,10 @@ import {
 import { sequelize } from "../db/sequelize";
 import { TEAM_ROLES, type TeamRole } from "../lib/auth/roles";
 
-export class Invitation extends Model<InferAttributes<Invitation>, InferCreationAttributes<Invitation>> {
+export class Invitation extends Model<
+  InferAttributes<Invitation>,
+  InferCreationAttributes<Invitation>
+> {
   declare id: CreationOptional<string>;
   declare teamId: ForeignKey<string>;
   declare email: string;

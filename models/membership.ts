@@ -10,7 +10,10 @@ import {
 import { sequelize } from "../db/sequelize";
 import { TEAM_ROLES, type TeamRole } from "../lib/auth/roles";
 
-export class Membership extends Model<InferAttributes<Membership>, InferCreationAttributes<Membership>> {
+export class Membership extends Model<
+  InferAttributes<Membership>,
+  InferCreationAttributes<Membership>
+> {
   declare id: CreationOptional<string>;
   declare userId: ForeignKey<string>;
   declare teamId: ForeignKey<string>;

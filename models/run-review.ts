@@ -11,7 +11,10 @@ import { sequelize } from "../db/sequelize";
 import type { Verdict } from "../lib/spectrum/matching";
 
 /** A chemist's change of one call's verdict, with the reason; verdict null withdraws an earlier override. */
-export class RunOverride extends Model<InferAttributes<RunOverride>, InferCreationAttributes<RunOverride>> {
+export class RunOverride extends Model<
+  InferAttributes<RunOverride>,
+  InferCreationAttributes<RunOverride>
+> {
   declare id: CreationOptional<string>;
   declare runId: string;
   declare species: string;
@@ -67,7 +70,10 @@ RunRound.init(
 );
 
 /** A reviewer's agreement or disagreement with a call, or a comment on a call or one of its lines. */
-export class RunReviewMark extends Model<InferAttributes<RunReviewMark>, InferCreationAttributes<RunReviewMark>> {
+export class RunReviewMark extends Model<
+  InferAttributes<RunReviewMark>,
+  InferCreationAttributes<RunReviewMark>
+> {
   declare id: CreationOptional<string>;
   declare runId: string;
   declare round: number;
@@ -95,7 +101,10 @@ RunReviewMark.init(
 );
 
 /** An electronic signature: signer, time, meaning and the SHA-256 of the run record signed. */
-export class RunSignature extends Model<InferAttributes<RunSignature>, InferCreationAttributes<RunSignature>> {
+export class RunSignature extends Model<
+  InferAttributes<RunSignature>,
+  InferCreationAttributes<RunSignature>
+> {
   declare id: CreationOptional<string>;
   declare runId: string;
   declare round: number;

@@ -11,7 +11,10 @@ import { sequelize } from "../db/sequelize";
 
 export type AttemptKind = "password" | "reset_request" | "reset_mail" | "unlock";
 
-export class SignInAttempt extends Model<InferAttributes<SignInAttempt>, InferCreationAttributes<SignInAttempt>> {
+export class SignInAttempt extends Model<
+  InferAttributes<SignInAttempt>,
+  InferCreationAttributes<SignInAttempt>
+> {
   declare id: CreationOptional<number>;
   declare email: string;
   declare address: string;

@@ -10,7 +10,10 @@ import {
 import { sequelize } from "../db/sequelize";
 import type { AxisUnit, WavelengthMedium } from "../lib/spectrum/types";
 
-export class SpectrumFile extends Model<InferAttributes<SpectrumFile>, InferCreationAttributes<SpectrumFile>> {
+export class SpectrumFile extends Model<
+  InferAttributes<SpectrumFile>,
+  InferCreationAttributes<SpectrumFile>
+> {
   declare id: CreationOptional<string>;
   declare teamId: string;
   declare instrumentId: string;

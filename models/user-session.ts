@@ -9,7 +9,10 @@ import {
 } from "sequelize";
 import { sequelize } from "../db/sequelize";
 
-export class UserSession extends Model<InferAttributes<UserSession>, InferCreationAttributes<UserSession>> {
+export class UserSession extends Model<
+  InferAttributes<UserSession>,
+  InferCreationAttributes<UserSession>
+> {
   declare id: CreationOptional<string>;
   declare userId: ForeignKey<string>;
   declare expiresAt: Date;

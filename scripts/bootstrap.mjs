@@ -24,11 +24,13 @@ export function log(message) {
 export function ensureDependencies() {
   const lock = path.join(root, "package-lock.json");
   const marker = path.join(root, "node_modules", ".package-lock.json");
-  const stale =
-    !fs.existsSync(marker) || fs.statSync(marker).mtimeMs < fs.statSync(lock).mtimeMs;
+  const stale = !fs.existsSync(marker) || fs.statSync(marker).mtimeMs < fs.statSync(lock).mtimeMs;
   if (!stale) return;
   log("Installing Node dependencies (npm ci)…");
-  const result = spawnSync("npm", ["ci", "--no-audit", "--no-fund"], { cwd: root, stdio: "inherit" });
+  const result = spawnSync("npm", ["ci", "--no-audit", "--no-fund"], {
+    cwd: root,
+    stdio: "inherit",
+  });
   if (result.status !== 0) throw new Error("npm ci failed");
 }
 
@@ -106,7 +108,13 @@ export function databaseUrls({ pgPort, database }) {
  * Brings up everything the app needs and returns the environment for it:
  * the PostgreSQL cluster, a database (fresh when asked), the fake SMTP server and the schema.
  */
-export async function bootstrap({ database, freshDatabase = false, mailPort, mailDir, seed = true }) {
+export async function bootstrap({
+  database,
+  freshDatabase = false,
+  mailPort,
+  mailDir,
+  seed = true,
+}) {
   ensureDependencies();
   const dataRoot = path.resolve(root, process.env.EMBERLINE_DATA_DIR ?? ".data");
   const pgPort = Number(process.env.EMBERLINE_PG_PORT ?? 54329);
@@ -129,7 +137,11 @@ export async function bootstrap({ database, freshDatabase = false, mailPort, mai
   fs.mkdirSync(mailFolder, { recursive: true });
   if (!(await isPortOpen(mailPort))) {
     startChild(process.execPath, [path.join(root, "scripts", "mail-server.mjs")], {
-      env: { ...process.env, EMBERLINE_MAIL_DIR: mailFolder, EMBERLINE_SMTP_PORT: String(mailPort) },
+      env: {
+        ...process.env,
+        EMBERLINE_MAIL_DIR: mailFolder,
+        EMBERLINE_SMTP_PORT: String(mailPort),
+      },
     });
     await waitForPort(mailPort, 20_000);
   }

@@ -38,7 +38,9 @@ const server = new SMTPServer({
 });
 
 server.listen(port, "127.0.0.1", () => {
-  process.stdout.write(`[emberline] Fake SMTP server on 127.0.0.1:${port}, keeping mail in ${dir}\n`);
+  process.stdout.write(
+    `[emberline] Fake SMTP server on 127.0.0.1:${port}, keeping mail in ${dir}\n`,
+  );
 });
 const stop = () => server.close(() => process.exit(0));
 process.on("SIGTERM", stop);

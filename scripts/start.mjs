@@ -31,7 +31,11 @@ async function main() {
 
   if (!dev) {
     log("Building the app (next build)…");
-    const build = spawnSync(next, ["build"], { cwd: root, stdio: "inherit", env: { ...appEnv, NODE_ENV: "production" } });
+    const build = spawnSync(next, ["build"], {
+      cwd: root,
+      stdio: "inherit",
+      env: { ...appEnv, NODE_ENV: "production" },
+    });
     if (build.status !== 0) throw new Error("next build failed");
   }
   let stopping = false;
@@ -58,7 +62,9 @@ async function main() {
       // A run that lasted a while starts the backoff afresh.
       failures = Date.now() - startedAt > RESTART_RESET_MS ? 1 : failures + 1;
       const delayMs = restartDelayMs(failures);
-      log(`The app exited (${signal ?? code}); restarting it in ${delayMs / 1000} s. The database keeps running.`);
+      log(
+        `The app exited (${signal ?? code}); restarting it in ${delayMs / 1000} s. The database keeps running.`,
+      );
       setTimeout(() => stopping || runApp(), delayMs);
     });
   };
@@ -70,7 +76,9 @@ async function main() {
     log("Demo sign-ins (password emberline-demo):");
     log("  chem@demo.emberline.example   chemist");
     log("  super@demo.emberline.example  supervisor");
-    log("  lead@demo.emberline.example   lab lead (Flame Screening), supervisor (Arc and Spark Bench)");
+    log(
+      "  lead@demo.emberline.example   lab lead (Flame Screening), supervisor (Arc and Spark Bench)",
+    );
     log("  bench@demo.emberline.example  lab lead (Arc and Spark Bench)");
     log("Press Ctrl-C to stop; the data stays in .data/.");
   }

@@ -31,7 +31,10 @@ export async function signInAction(_state: FormState, formData: FormData): Promi
   redirect(safeNextPath(formData.get("next")));
 }
 
-export async function requestResetAction(_state: FormState, formData: FormData): Promise<FormState> {
+export async function requestResetAction(
+  _state: FormState,
+  formData: FormData,
+): Promise<FormState> {
   const { data, state } = parseForm(passwordResetRequestSchema, formData);
   if (state) return state;
   try {
@@ -39,10 +42,16 @@ export async function requestResetAction(_state: FormState, formData: FormData):
   } catch (error) {
     return formError(error);
   }
-  return { ok: true, message: "If that address has an account, a reset link is on its way. It works for one hour." };
+  return {
+    ok: true,
+    message: "If that address has an account, a reset link is on its way. It works for one hour.",
+  };
 }
 
-export async function resetPasswordAction(_state: FormState, formData: FormData): Promise<FormState> {
+export async function resetPasswordAction(
+  _state: FormState,
+  formData: FormData,
+): Promise<FormState> {
   const { data, state } = parseForm(passwordResetSchema, formData);
   if (state) return state;
   try {
@@ -53,11 +62,19 @@ export async function resetPasswordAction(_state: FormState, formData: FormData)
   redirect("/sign-in?reset=1");
 }
 
-export async function acceptInvitationAction(_state: FormState, formData: FormData): Promise<FormState> {
-  const { data, state } = parseForm(acceptInvitationSchema.extend({ name: text().trim().max(120).optional() }), formData);
+export async function acceptInvitationAction(
+  _state: FormState,
+  formData: FormData,
+): Promise<FormState> {
+  const { data, state } = parseForm(
+    acceptInvitationSchema.extend({ name: text().trim().max(120).optional() }),
+    formData,
+  );
   if (state) return state;
   try {
-    await startSession((await loadActor(await acceptInvitation({ ...data, address: await address() })))!);
+    await startSession(
+      (await loadActor(await acceptInvitation({ ...data, address: await address() })))!,
+    );
   } catch (error) {
     return formError(error);
   }

@@ -11,7 +11,9 @@ export default function AuthLayout({ children }: { children: ReactNode }) {
           </span>{" "}
           Emberline
         </p>
-        <p className="muted mb-5 text-sm">The team notebook for emission-spectra identifications.</p>
+        <p className="muted mb-5 text-sm">
+          The team notebook for emission-spectra identifications.
+        </p>
         <div className="panel p-5">{children}</div>
       </div>
     </main>

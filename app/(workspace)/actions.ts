@@ -11,7 +11,11 @@ import { changePassword, describeRevoked } from "@/lib/services/accounts";
 import { createAccessToken, revokeAccessToken } from "@/lib/services/access-tokens";
 import { recordAudit } from "@/lib/services/audit";
 import { inviteMember } from "@/lib/services/teams";
-import { invitationSchema, passwordChangeSchema, tokenCreateSchema } from "@/lib/validation/account-schemas";
+import {
+  invitationSchema,
+  passwordChangeSchema,
+  tokenCreateSchema,
+} from "@/lib/validation/account-schemas";
 import { formError, parseForm, type FormState } from "@/lib/validation/form-state";
 
 async function actorOrThrow() {
@@ -22,7 +26,13 @@ async function actorOrThrow() {
 
 export async function signOutAction(): Promise<void> {
   const userId = await endSession();
-  if (userId) await recordAudit({ actorId: userId, action: "session.delete", entity: "user", entityId: userId });
+  if (userId)
+    await recordAudit({
+      actorId: userId,
+      action: "session.delete",
+      entity: "user",
+      entityId: userId,
+    });
   redirect("/sign-in");
 }
 
@@ -37,7 +47,10 @@ export async function switchTeamAction(formData: FormData): Promise<void> {
   revalidatePath("/", "layout");
 }
 
-export async function changePasswordAction(_state: FormState, formData: FormData): Promise<FormState> {
+export async function changePasswordAction(
+  _state: FormState,
+  formData: FormData,
+): Promise<FormState> {
   const { data, state } = parseForm(passwordChangeSchema, formData);
   if (state) return state;
   try {
@@ -61,7 +74,11 @@ export async function createTokenAction(
   try {
     const created = await createAccessToken(await actorOrThrow(), data);
     revalidatePath("/account");
-    return { ok: true, message: "Copy the token now: it is shown only once.", token: created.token };
+    return {
+      ok: true,
+      message: "Copy the token now: it is shown only once.",
+      token: created.token,
+    };
   } catch (error) {
     return formError(error);
   }

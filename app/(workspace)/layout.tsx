@@ -16,7 +16,9 @@ export default async function WorkspaceLayout({ children }: { children: ReactNod
     { href: "/notebooks", label: "Notebooks" },
     { href: "/instruments", label: "Instruments" },
     { href: "/lines", label: "Line library" },
-    ...(team?.role === "supervisor" ? [{ href: "/review", label: "Review", count: waiting, countLabel: "waiting for you" }] : []),
+    ...(team?.role === "supervisor"
+      ? [{ href: "/review", label: "Review", count: waiting, countLabel: "waiting for you" }]
+      : []),
     { href: "/audit", label: "Audit trail" },
     { href: "/team", label: "Team" },
     ...(canReadMail ? [{ href: "/mail", label: "Outgoing mail" }] : []),
@@ -34,7 +36,11 @@ export default async function WorkspaceLayout({ children }: { children: ReactNod
           </span>{" "}
           Emberline
         </p>
-        <TeamSwitcher memberships={actor.memberships} currentTeamId={team?.teamId} action={switchTeamAction} />
+        <TeamSwitcher
+          memberships={actor.memberships}
+          currentTeamId={team?.teamId}
+          action={switchTeamAction}
+        />
         <MainNav items={items} />
         <div className="mt-auto flex flex-col gap-2 border-t border-[var(--line)] pt-3 text-sm">
           <div>
@@ -48,7 +54,10 @@ export default async function WorkspaceLayout({ children }: { children: ReactNod
           </div>
           <div className="flex items-center justify-between">
             <form action={signOutAction}>
-              <button type="submit" className="rounded px-2 py-1 text-xs hover:bg-ink-100 dark:hover:bg-ink-800">
+              <button
+                type="submit"
+                className="rounded px-2 py-1 text-xs hover:bg-ink-100 dark:hover:bg-ink-800"
+              >
                 Sign out
               </button>
             </form>

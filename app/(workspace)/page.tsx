@@ -13,7 +13,10 @@ export default async function HomePage() {
   const activity = team ? await fetchRecentActivity(actor, team.teamId) : [];
   return (
     <>
-      <PageHeader title={`Welcome, ${actor.name.split(" ")[0]}`} description="Your teams and their latest activity." />
+      <PageHeader
+        title={`Welcome, ${actor.name.split(" ")[0]}`}
+        description="Your teams and their latest activity."
+      />
       {actor.memberships.length === 0 ? (
         <EmptyState title="You are not in a team yet">
           Ask a lab lead to invite you; the invitation arrives by e-mail.
@@ -39,7 +42,10 @@ export default async function HomePage() {
             </h2>
             {activity.length === 0 ? (
               <p className="muted text-sm">
-                Nothing yet. Start in <Link href="/instruments" className="text-ember-600 underline">Instruments</Link>{" "}
+                Nothing yet. Start in{" "}
+                <Link href="/instruments" className="text-ember-600 underline">
+                  Instruments
+                </Link>{" "}
                 or open a notebook.
               </p>
             ) : (

@@ -6,11 +6,23 @@ import { Field } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
 import { initialFormState, type FormState } from "@/lib/validation/form-state";
 
-export function PasswordForm({ action, minLength }: { action: (s: FormState, f: FormData) => Promise<FormState>; minLength: number }) {
+export function PasswordForm({
+  action,
+  minLength,
+}: {
+  action: (s: FormState, f: FormData) => Promise<FormState>;
+  minLength: number;
+}) {
   const [state, formAction, pending] = useActionState(action, initialFormState);
   return (
     <form action={formAction} className="flex flex-col gap-3" noValidate>
-      <Field name="currentPassword" label="Current password" type="password" autoComplete="current-password" errors={state.fieldErrors?.currentPassword} />
+      <Field
+        name="currentPassword"
+        label="Current password"
+        type="password"
+        autoComplete="current-password"
+        errors={state.fieldErrors?.currentPassword}
+      />
       <Field
         name="newPassword"
         label="New password"

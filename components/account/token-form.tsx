@@ -8,11 +8,20 @@ import type { FormState } from "@/lib/validation/form-state";
 
 type TokenState = FormState & { token?: string };
 
-export function TokenForm({ action }: { action: (state: TokenState, formData: FormData) => Promise<TokenState> }) {
+export function TokenForm({
+  action,
+}: {
+  action: (state: TokenState, formData: FormData) => Promise<TokenState>;
+}) {
   const [state, formAction, pending] = useActionState(action, {});
   return (
     <form action={formAction} className="flex flex-col gap-3" noValidate>
-      <Field name="name" label="Token name" hint="For example: the instrument PC in room 2." errors={state.fieldErrors?.name} />
+      <Field
+        name="name"
+        label="Token name"
+        hint="For example: the instrument PC in room 2."
+        errors={state.fieldErrors?.name}
+      />
       <FormMessage message={state.message} tone={state.ok ? "ok" : "error"} />
       {state.token ? (
         <output className="block rounded border border-ember-300 bg-ember-50 p-2 font-mono text-xs break-all text-ink-900">

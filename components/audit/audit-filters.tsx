@@ -35,8 +35,14 @@ function Labelled({
         {label}
       </label>
       {children}
-      <div id={`${id}-error`} aria-live="polite" className="max-w-56 text-xs text-red-700 dark:text-red-300">
-        {errors?.map((message) => <p key={message}>{message}</p>)}
+      <div
+        id={`${id}-error`}
+        aria-live="polite"
+        className="max-w-56 text-xs text-red-700 dark:text-red-300"
+      >
+        {errors?.map((message) => (
+          <p key={message}>{message}</p>
+        ))}
       </div>
     </div>
   );
@@ -44,7 +50,9 @@ function Labelled({
 
 /** Actions with their families ("run." for every run action), for the action field's suggestions. */
 function actionSuggestions(actions: string[]): string[] {
-  const families = new Set(actions.filter((a) => a.includes(".")).map((a) => `${a.slice(0, a.indexOf("."))}.`));
+  const families = new Set(
+    actions.filter((a) => a.includes(".")).map((a) => `${a.slice(0, a.indexOf("."))}.`),
+  );
   return [...families, ...actions].sort();
 }
 
@@ -61,7 +69,8 @@ export function AuditFilters({
   actions: string[];
   errors?: FieldErrors;
 }) {
-  const entityChoices = values.entity && !entities.includes(values.entity) ? [...entities, values.entity] : entities;
+  const entityChoices =
+    values.entity && !entities.includes(values.entity) ? [...entities, values.entity] : entities;
   const invalid = (field: string) => (errors[field]?.length ? true : undefined);
   return (
     <form

@@ -37,10 +37,14 @@ export function AuditTable({
     try {
       const params = new URLSearchParams(query);
       params.set("cursor", cursor);
-      const response = await fetch(`/api/audit?${params}`, { headers: { accept: "application/json" } });
+      const response = await fetch(`/api/audit?${params}`, {
+        headers: { accept: "application/json" },
+      });
       const body = (await response.json()) as AuditPage | { error: { message: string } };
       if (!response.ok || "error" in body) {
-        throw new Error("error" in body ? body.error.message : `The server answered ${response.status}.`);
+        throw new Error(
+          "error" in body ? body.error.message : `The server answered ${response.status}.`,
+        );
       }
       setEvents((current) => [...current, ...body.events]);
       setCursor(body.nextCursor);
@@ -85,7 +89,11 @@ export function AuditTable({
               const detailsId = `audit-details-${event.id}`;
               return (
                 <Fragment key={event.id}>
-                  <tr className="border-b border-[var(--line)] align-top" data-testid="audit-row" data-action={event.action}>
+                  <tr
+                    className="border-b border-[var(--line)] align-top"
+                    data-testid="audit-row"
+                    data-action={event.action}
+                  >
                     <td className="px-3 py-1.5">
                       <button
                         type="button"
@@ -96,13 +104,20 @@ export function AuditTable({
                       >
                         <span aria-hidden>{expanded ? "▾" : "▸"} </span>
                         {expanded ? "Hide" : "Show"}
-                        <span className="sr-only"> before and after of {event.action} at {utcTime(event.at)}</span>
+                        <span className="sr-only">
+                          {" "}
+                          before and after of {event.action} at {utcTime(event.at)}
+                        </span>
                       </button>
                     </td>
-                    <td className="tabular whitespace-nowrap px-3 py-1.5 font-mono text-xs">{utcTime(event.at)}</td>
+                    <td className="tabular whitespace-nowrap px-3 py-1.5 font-mono text-xs">
+                      {utcTime(event.at)}
+                    </td>
                     <td className="px-3 py-1.5">
                       {event.actorName ?? <span className="muted">the system</span>}
-                      {event.actorEmail ? <div className="muted text-xs">{event.actorEmail}</div> : null}
+                      {event.actorEmail ? (
+                        <div className="muted text-xs">{event.actorEmail}</div>
+                      ) : null}
                     </td>
                     <td className="px-3 py-1.5 font-mono text-xs">{event.action}</td>
                     <td className="px-3 py-1.5">
@@ -111,7 +126,11 @@ export function AuditTable({
                         <>
                           {" "}
                           {href ? (
-                            <Link href={href} className="font-mono text-xs underline" title={event.entityId}>
+                            <Link
+                              href={href}
+                              className="font-mono text-xs underline"
+                              title={event.entityId}
+                            >
                               {shortId(event.entityId)}
                             </Link>
                           ) : (
@@ -122,10 +141,15 @@ export function AuditTable({
                         </>
                       ) : null}
                     </td>
-                    <td className="px-3 py-1.5">{event.reason ?? <span className="muted">—</span>}</td>
+                    <td className="px-3 py-1.5">
+                      {event.reason ?? <span className="muted">—</span>}
+                    </td>
                   </tr>
                   {expanded ? (
-                    <tr id={detailsId} className="border-b border-[var(--line)] bg-[var(--surface)]">
+                    <tr
+                      id={detailsId}
+                      className="border-b border-[var(--line)] bg-[var(--surface)]"
+                    >
                       <td colSpan={6} className="px-3 py-2">
                         <BeforeAfter
                           before={event.before}
@@ -144,7 +168,8 @@ export function AuditTable({
       </div>
       <div className="mt-3 flex flex-wrap items-center gap-3 text-sm">
         <p role="status" aria-live="polite" className="muted">
-          {events.length} event{events.length === 1 ? "" : "s"} shown{cursor ? "; older ones follow" : ", the whole trail for these filters"}.
+          {events.length} event{events.length === 1 ? "" : "s"} shown
+          {cursor ? "; older ones follow" : ", the whole trail for these filters"}.
         </p>
         {cursor ? (
           <button

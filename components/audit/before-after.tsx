@@ -1,6 +1,10 @@
 // An event's before and after side by side, field by field; changed, added and removed fields are
 // marked with a symbol and a word as well as a tint, so nothing is told by colour alone.
-import { flattenAuditValue, type AuditChange, type AuditChangeKind } from "@/lib/audit/diff-audit-values";
+import {
+  flattenAuditValue,
+  type AuditChange,
+  type AuditChangeKind,
+} from "@/lib/audit/diff-audit-values";
 import { formatAuditValue } from "./audit-labels";
 
 const MARKS: Record<AuditChangeKind, { symbol: string; word: string }> = {
@@ -11,7 +15,11 @@ const MARKS: Record<AuditChangeKind, { symbol: string; word: string }> = {
 
 function changeOf(path: string, changes: AuditChange[]): AuditChange | undefined {
   return changes.find(
-    (c) => c.path === path || c.path === "" || path.startsWith(`${c.path}.`) || path.startsWith(`${c.path}[`),
+    (c) =>
+      c.path === path ||
+      c.path === "" ||
+      path.startsWith(`${c.path}.`) ||
+      path.startsWith(`${c.path}[`),
   );
 }
 
@@ -28,7 +36,10 @@ export function BeforeAfter({
 }) {
   const beforeLeaves = new Map(flattenAuditValue(before).map((l) => [l.path, l.value]));
   const afterLeaves = new Map(flattenAuditValue(after).map((l) => [l.path, l.value]));
-  const paths = [...beforeLeaves.keys(), ...[...afterLeaves.keys()].filter((p) => !beforeLeaves.has(p))];
+  const paths = [
+    ...beforeLeaves.keys(),
+    ...[...afterLeaves.keys()].filter((p) => !beforeLeaves.has(p)),
+  ];
   if (paths.length === 0) {
     return <p className="muted text-sm">This event carries no before or after values.</p>;
   }
@@ -72,7 +83,10 @@ export function BeforeAfter({
                 data-changed={mark ? change?.kind : undefined}
                 className={`border-t border-[var(--line)] align-top ${mark ? "bg-ember-50 dark:bg-ink-800" : ""}`}
               >
-                <th scope="row" className={`px-2 py-1 text-left font-mono ${mark ? "font-semibold" : "font-normal"}`}>
+                <th
+                  scope="row"
+                  className={`px-2 py-1 text-left font-mono ${mark ? "font-semibold" : "font-normal"}`}
+                >
                   {path || "(value)"}
                 </th>
                 <td className="max-w-[28rem] break-all px-2 py-1 font-mono">
@@ -85,7 +99,10 @@ export function BeforeAfter({
                   <td className="whitespace-nowrap px-2 py-1">
                     {mark ? (
                       <span>
-                        <span aria-hidden className="font-semibold text-ember-700 dark:text-ember-300">
+                        <span
+                          aria-hidden
+                          className="font-semibold text-ember-700 dark:text-ember-300"
+                        >
                           {mark.symbol}{" "}
                         </span>
                         {mark.word}

@@ -41,7 +41,8 @@ interface PreviewError {
 /** Quiet time after a change before the preview is asked for, so quick edits make one request. */
 const DEBOUNCE_MS = 300;
 
-const samePair = (a: PairRef, b: PairRef) => Math.abs(a.pixel - b.pixel) < 1e-6 && Math.abs(a.wavelengthNm - b.wavelengthNm) < 1e-6;
+const samePair = (a: PairRef, b: PairRef) =>
+  Math.abs(a.pixel - b.pixel) < 1e-6 && Math.abs(a.wavelengthNm - b.wavelengthNm) < 1e-6;
 
 export function CalibrationWorkbench({
   instrumentId,
@@ -60,7 +61,14 @@ export function CalibrationWorkbench({
   models: { value: CalibrationModelChoice; label: string }[];
   saveAction: (input: WorkbenchInput) => Promise<FormState>;
 }) {
-  const [input, setInput] = useState<WorkbenchInput>({ instrumentId, spectrumId, lamps: ["Hg"], model: "auto", excluded: [], added: [] });
+  const [input, setInput] = useState<WorkbenchInput>({
+    instrumentId,
+    spectrumId,
+    lamps: ["Hg"],
+    model: "auto",
+    excluded: [],
+    added: [],
+  });
   const [started, setStarted] = useState(false);
   const [preview, setPreview] = useState<CalibrationPreview | null>(null);
   /** The input the shown preview was computed from: what Undo goes back to. */
@@ -88,7 +96,9 @@ export function CalibrationWorkbench({
       if (id !== request.current) return;
       if (!response.ok) {
         setError({
-          message: body?.error?.message ?? `The preview failed (HTTP ${response.status}). Your changes are kept; try again.`,
+          message:
+            body?.error?.message ??
+            `The preview failed (HTTP ${response.status}). Your changes are kept; try again.`,
           fieldErrors: body?.error?.fieldErrors,
         });
       } else {
@@ -119,8 +129,13 @@ export function CalibrationWorkbench({
     setInput((current) => ({ ...current, ...next }));
   };
   const toggleLamp = (gas: string, on: boolean) =>
-    change({ lamps: on ? [...new Set([...input.lamps, gas])] : input.lamps.filter((g) => g !== gas) });
-  const ref = (p: CalibrationPreviewPair): PairRef => ({ pixel: p.pixel, wavelengthNm: p.wavelengthNm });
+    change({
+      lamps: on ? [...new Set([...input.lamps, gas])] : input.lamps.filter((g) => g !== gas),
+    });
+  const ref = (p: CalibrationPreviewPair): PairRef => ({
+    pixel: p.pixel,
+    wavelengthNm: p.wavelengthNm,
+  });
   const openChooser = (peakIndex: number) => {
     opener.current = document.activeElement instanceof HTMLElement ? document.activeElement : null;
     setChooserPeak(peakIndex);
@@ -158,12 +173,22 @@ export function CalibrationWorkbench({
             <div className="flex flex-wrap gap-4 text-sm">
               {lampGases.map((gas) => (
                 <label key={gas} className="flex items-center gap-1.5">
-                  <input type="checkbox" name="lamps" value={gas} checked={input.lamps.includes(gas)} onChange={(e) => toggleLamp(gas, e.target.checked)} />
+                  <input
+                    type="checkbox"
+                    name="lamps"
+                    value={gas}
+                    checked={input.lamps.includes(gas)}
+                    onChange={(e) => toggleLamp(gas, e.target.checked)}
+                  />
                   {gas}
                 </label>
               ))}
             </div>
-            <div id="lamps-error" aria-live="polite" className="text-xs text-red-700 dark:text-red-300">
+            <div
+              id="lamps-error"
+              aria-live="polite"
+              className="text-xs text-red-700 dark:text-red-300"
+            >
               {lampsError ?? error?.fieldErrors?.lamps?.join(" ")}
             </div>
           </fieldset>
@@ -185,9 +210,14 @@ export function CalibrationWorkbench({
               ))}
             </select>
             <p id="workbench-model-hint" className="muted text-xs">
-              A grating is close to linear in pixel; a prism is better described by the Hartmann formula or its glass.
+              A grating is close to linear in pixel; a prism is better described by the Hartmann
+              formula or its glass.
             </p>
-            <div id="workbench-model-error" aria-live="polite" className="text-xs text-red-700 dark:text-red-300">
+            <div
+              id="workbench-model-error"
+              aria-live="polite"
+              className="text-xs text-red-700 dark:text-red-300"
+            >
               {error?.fieldErrors?.model?.join(" ")}
             </div>
           </div>
@@ -201,23 +231,41 @@ export function CalibrationWorkbench({
               setStarted(true);
             }}
           >
-            {busy && !preview ? "Pairing and fitting…" : started ? "Pair again" : "Pair the lines and fit"}
+            {busy && !preview
+              ? "Pairing and fitting…"
+              : started
+                ? "Pair again"
+                : "Pair the lines and fit"}
           </Button>
         </div>
-        <div role="status" aria-live="polite" data-testid="workbench-status" className="min-h-5 text-sm">
+        <div
+          role="status"
+          aria-live="polite"
+          data-testid="workbench-status"
+          className="min-h-5 text-sm"
+        >
           {busy ? (
             <span className="flex items-center gap-2">
-              <span aria-hidden className="inline-block h-3 w-3 animate-spin rounded-full border-2 border-ember-600 border-t-transparent" />
+              <span
+                aria-hidden
+                className="inline-block h-3 w-3 animate-spin rounded-full border-2 border-ember-600 border-t-transparent"
+              />
               Updating the preview…
             </span>
           ) : preview && !error ? (
             <span className="muted">Preview up to date. Nothing is saved until you save it.</span>
           ) : !started ? (
-            <span className="muted">Choose the lamp gases, then pair the lines. The preview saves nothing.</span>
+            <span className="muted">
+              Choose the lamp gases, then pair the lines. The preview saves nothing.
+            </span>
           ) : null}
         </div>
         {error ? (
-          <div role="alert" data-testid="workbench-error" className="flex flex-wrap items-center gap-3 rounded border border-red-700 p-2 text-sm text-red-700 dark:text-red-300">
+          <div
+            role="alert"
+            data-testid="workbench-error"
+            className="flex flex-wrap items-center gap-3 rounded border border-red-700 p-2 text-sm text-red-700 dark:text-red-300"
+          >
             <p>{error.message}</p>
             {shownInput && shownInput !== input ? (
               <button
@@ -233,8 +281,14 @@ export function CalibrationWorkbench({
       </section>
 
       {preview && counts ? (
-        <div className={`flex flex-col gap-4 transition-opacity ${stale ? "opacity-60" : ""}`} aria-busy={busy || undefined}>
-          <dl className="panel grid grid-cols-2 gap-x-6 gap-y-2 p-4 text-sm sm:grid-cols-4" data-testid="workbench-summary">
+        <div
+          className={`flex flex-col gap-4 transition-opacity ${stale ? "opacity-60" : ""}`}
+          aria-busy={busy || undefined}
+        >
+          <dl
+            className="panel grid grid-cols-2 gap-x-6 gap-y-2 p-4 text-sm sm:grid-cols-4"
+            data-testid="workbench-summary"
+          >
             <div>
               <dt className="muted">Model</dt>
               <dd className="font-mono">{preview.result.model}</dd>
@@ -254,13 +308,15 @@ export function CalibrationWorkbench({
             <div>
               <dt className="muted">Covered range</dt>
               <dd className="font-mono">
-                {preview.result.coveredRangeNm[0].toFixed(2)}–{preview.result.coveredRangeNm[1].toFixed(2)} nm
+                {preview.result.coveredRangeNm[0].toFixed(2)}–
+                {preview.result.coveredRangeNm[1].toFixed(2)} nm
               </dd>
             </div>
             <div>
               <dt className="muted">Fit uncertainty (1σ, median / max)</dt>
               <dd className="font-mono">
-                {preview.result.uncertainty.medianNm.toFixed(4)} / {preview.result.uncertainty.maxNm.toFixed(4)} nm
+                {preview.result.uncertainty.medianNm.toFixed(4)} /{" "}
+                {preview.result.uncertainty.maxNm.toFixed(4)} nm
               </dd>
             </div>
             <div>
@@ -274,7 +330,8 @@ export function CalibrationWorkbench({
             <div>
               <dt className="muted">Pairing</dt>
               <dd>
-                {preview.result.pairing.status}, confidence {preview.result.pairing.confidence.toFixed(2)}
+                {preview.result.pairing.status}, confidence{" "}
+                {preview.result.pairing.confidence.toFixed(2)}
               </dd>
             </div>
           </dl>
@@ -300,20 +357,30 @@ export function CalibrationWorkbench({
               onTry={() =>
                 change({
                   excluded: preview.result.pairs.filter((p) => p.origin === "auto").map(ref),
-                  added: preview.result.rival.map((r) => ({ pixel: r.pixel, wavelengthNm: r.wavelengthNm })),
+                  added: preview.result.rival.map((r) => ({
+                    pixel: r.pixel,
+                    wavelengthNm: r.wavelengthNm,
+                  })),
                 })
               }
               onBack={() => change({ excluded: [], added: [] })}
             />
           ) : null}
-          <WorkbenchLampChart spectrum={spectrum} preview={preview} xTitle={xTitle} onPeakClick={openChooser} />
+          <WorkbenchLampChart
+            spectrum={spectrum}
+            preview={preview}
+            xTitle={xTitle}
+            onPeakClick={openChooser}
+          />
           {chooserPeak !== null && peaks[chooserPeak] ? (
             <PairChooser
               peak={peaks[chooserPeak]}
               lines={preview.lines}
               onClose={closeChooser}
               onChoose={(wavelengthNm) => {
-                change({ added: [...input.added, { pixel: peaks[chooserPeak].pixel, wavelengthNm }] });
+                change({
+                  added: [...input.added, { pixel: peaks[chooserPeak].pixel, wavelengthNm }],
+                });
                 setChooserPeak(null);
               }}
             />
@@ -335,7 +402,8 @@ export function CalibrationWorkbench({
                       className="rounded border border-[var(--line)] px-2 py-1 text-xs hover:bg-ink-100 disabled:opacity-50 dark:hover:bg-ink-800"
                     >
                       Pair the peak at pixel {p.pixel.toFixed(1)}
-                      {p.predictedNm !== null ? ` (≈ ${p.predictedNm.toFixed(2)} nm)` : ""}, SNR {p.snr.toFixed(0)}
+                      {p.predictedNm !== null ? ` (≈ ${p.predictedNm.toFixed(2)} nm)` : ""}, SNR{" "}
+                      {p.snr.toFixed(0)}
                       {p.unpaired ? (
                         <>
                           {" — "}
@@ -355,13 +423,19 @@ export function CalibrationWorkbench({
             </h3>
             {preview.expectedWithoutPeak.length === 0 ? (
               <p className="muted text-sm">
-                Every lamp line the calibration puts on the array has a peak within {preview.tolerances.expectedPeakReachFwhm} FWHM of it.
+                Every lamp line the calibration puts on the array has a peak within{" "}
+                {preview.tolerances.expectedPeakReachFwhm} FWHM of it.
               </p>
             ) : (
-              <ul aria-labelledby="expected-heading" className="flex flex-wrap gap-x-4 gap-y-1 text-sm" data-testid="expected-without-peak">
+              <ul
+                aria-labelledby="expected-heading"
+                className="flex flex-wrap gap-x-4 gap-y-1 text-sm"
+                data-testid="expected-without-peak"
+              >
                 {preview.expectedWithoutPeak.map((l) => (
                   <li key={`${l.species}-${l.wavelengthNm}`}>
-                    {l.species} <span className="font-mono">{l.wavelengthNm.toFixed(3)} nm</span> — {l.reason}
+                    {l.species} <span className="font-mono">{l.wavelengthNm.toFixed(3)} nm</span> —{" "}
+                    {l.reason}
                   </li>
                 ))}
               </ul>
@@ -373,31 +447,48 @@ export function CalibrationWorkbench({
             xTitle={xTitle}
             disabled={busy}
             onExclude={(p) => change({ excluded: [...input.excluded, ref(p)] })}
-            onInclude={(p) => change({ excluded: input.excluded.filter((e) => !samePair(e, ref(p))) })}
+            onInclude={(p) =>
+              change({ excluded: input.excluded.filter((e) => !samePair(e, ref(p))) })
+            }
             onRemove={(p) => {
               // The hand pair the server resolved to this one: its line within the server's match, the nearest pixel.
-              const candidates = input.added.filter((a) => Math.abs(a.wavelengthNm - p.wavelengthNm) <= preview.tolerances.lineMatchNm);
+              const candidates = input.added.filter(
+                (a) => Math.abs(a.wavelengthNm - p.wavelengthNm) <= preview.tolerances.lineMatchNm,
+              );
               const given = candidates.reduce<PairRef | null>(
-                (best, a) => (best === null || Math.abs(a.pixel - p.pixel) < Math.abs(best.pixel - p.pixel) ? a : best),
+                (best, a) =>
+                  best === null || Math.abs(a.pixel - p.pixel) < Math.abs(best.pixel - p.pixel)
+                    ? a
+                    : best,
                 null,
               );
               change({ added: input.added.filter((a) => a !== given) });
             }}
           />
-          <ModelComparison comparison={preview.comparison} chosenModel={preview.result.model} labels={labels} />
+          <ModelComparison
+            comparison={preview.comparison}
+            chosenModel={preview.result.model}
+            labels={labels}
+          />
 
           <section aria-labelledby="save-heading" className="panel flex flex-col gap-2 p-4">
             <h2 id="save-heading" className="text-sm font-semibold">
               Save
             </h2>
             <p className="muted text-sm">
-              Saves the model, its coefficients, the pairs, RMS, uncertainty, covered range and line-table release {preview.lineRelease.number}. The newest
-              calibration of the instrument becomes the default for new runs; its page shows the drift from the previous one.
+              Saves the model, its coefficients, the pairs, RMS, uncertainty, covered range and
+              line-table release {preview.lineRelease.number}. The newest calibration of the
+              instrument becomes the default for new runs; its page shows the drift from the
+              previous one.
             </p>
             {doubts.length > 0 ? (
-              <div className="flex flex-col gap-2 rounded border border-ember-600 p-3 text-sm" data-testid="calibration-doubts">
+              <div
+                className="flex flex-col gap-2 rounded border border-ember-600 p-3 text-sm"
+                data-testid="calibration-doubts"
+              >
                 <p id="doubts-heading" className="font-semibold">
-                  <span aria-hidden>⚠ </span>This calibration is doubtful. It becomes the instrument&rsquo;s default only with a reason:
+                  <span aria-hidden>⚠ </span>This calibration is doubtful. It becomes the
+                  instrument&rsquo;s default only with a reason:
                 </p>
                 <ul aria-labelledby="doubts-heading" className="list-disc pl-5">
                   {doubts.map((d) => (
@@ -420,7 +511,11 @@ export function CalibrationWorkbench({
                   aria-describedby="confirm-reason-error"
                   className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1.5"
                 />
-                <div id="confirm-reason-error" aria-live="polite" className="text-xs text-red-700 dark:text-red-300">
+                <div
+                  id="confirm-reason-error"
+                  aria-live="polite"
+                  className="text-xs text-red-700 dark:text-red-300"
+                >
                   {reasonError}
                 </div>
               </div>
@@ -434,7 +529,9 @@ export function CalibrationWorkbench({
                 onClick={() =>
                   startSaving(async () => {
                     const reason = confirmReason.trim();
-                    const state = await saveAction(doubts.length > 0 && reason ? { ...input, confirmReason: reason } : input);
+                    const state = await saveAction(
+                      doubts.length > 0 && reason ? { ...input, confirmReason: reason } : input,
+                    );
                     setSaveState(state);
                   })
                 }

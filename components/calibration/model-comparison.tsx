@@ -20,19 +20,36 @@ export function ModelComparison({
         <caption className="px-3 py-2 text-left">
           <span className="font-semibold">Models compared on the same pairs</span>
           <span className="muted block text-xs">
-            Lower AICc and BIC are better; models within 2 of the best AICc are equally supported. Recommended: {comparison.reason}.
+            Lower AICc and BIC are better; models within 2 of the best AICc are equally supported.
+            Recommended: {comparison.reason}.
           </span>
         </caption>
         <thead className="border-b border-[var(--line)] text-left">
           <tr>
-            <th scope="col" className="px-3 py-2">Model</th>
-            <th scope="col" className="px-3 py-2 text-right">Parameters</th>
-            <th scope="col" className="px-3 py-2 text-right">RMS (nm)</th>
-            <th scope="col" className="px-3 py-2 text-right">AICc</th>
-            <th scope="col" className="px-3 py-2 text-right">BIC</th>
-            <th scope="col" className="px-3 py-2 text-right">λ at first pixel (nm)</th>
-            <th scope="col" className="px-3 py-2 text-right">λ at last pixel (nm)</th>
-            <th scope="col" className="px-3 py-2">Note</th>
+            <th scope="col" className="px-3 py-2">
+              Model
+            </th>
+            <th scope="col" className="px-3 py-2 text-right">
+              Parameters
+            </th>
+            <th scope="col" className="px-3 py-2 text-right">
+              RMS (nm)
+            </th>
+            <th scope="col" className="px-3 py-2 text-right">
+              AICc
+            </th>
+            <th scope="col" className="px-3 py-2 text-right">
+              BIC
+            </th>
+            <th scope="col" className="px-3 py-2 text-right">
+              λ at first pixel (nm)
+            </th>
+            <th scope="col" className="px-3 py-2 text-right">
+              λ at last pixel (nm)
+            </th>
+            <th scope="col" className="px-3 py-2">
+              Note
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -44,15 +61,22 @@ export function ModelComparison({
               c.failure,
             ].filter(Boolean);
             return (
-              <tr key={c.model} className={`border-b border-[var(--line)] last:border-0 ${c.model === chosenModel ? "bg-ember-50 dark:bg-ink-800" : ""}`}>
-                <th scope="row" className="px-3 py-1.5 text-left font-normal">{labels[c.model] ?? c.model}</th>
+              <tr
+                key={c.model}
+                className={`border-b border-[var(--line)] last:border-0 ${c.model === chosenModel ? "bg-ember-50 dark:bg-ink-800" : ""}`}
+              >
+                <th scope="row" className="px-3 py-1.5 text-left font-normal">
+                  {labels[c.model] ?? c.model}
+                </th>
                 <td className="px-3 py-1.5 text-right font-mono">{c.parameterCount ?? "—"}</td>
                 <td className="px-3 py-1.5 text-right font-mono">{fixed(c.rmsNm, 4)}</td>
                 <td className="px-3 py-1.5 text-right font-mono">{fixed(c.aicc, 1)}</td>
                 <td className="px-3 py-1.5 text-right font-mono">{fixed(c.bic, 1)}</td>
                 {[0, 1].map((end) => (
                   <td key={end} className="px-3 py-1.5 text-right font-mono">
-                    {c.ends ? `${c.ends[end].wavelengthNm.toFixed(2)} ± ${c.ends[end].uncertaintyNm.toFixed(3)}` : "—"}
+                    {c.ends
+                      ? `${c.ends[end].wavelengthNm.toFixed(2)} ± ${c.ends[end].uncertaintyNm.toFixed(3)}`
+                      : "—"}
                   </td>
                 ))}
                 <td className="px-3 py-1.5 text-xs">{notes.join(" · ")}</td>

@@ -66,18 +66,26 @@ export function PairChooser({
                 <span className="w-24 font-mono">{l.wavelengthNm.toFixed(3)} nm</span>
                 {predicted !== null ? (
                   <span className="muted w-24 font-mono text-xs">
-                    Δ {(l.wavelengthNm - predicted >= 0 ? "+" : "") + (l.wavelengthNm - predicted).toFixed(3)}
+                    Δ{" "}
+                    {(l.wavelengthNm - predicted >= 0 ? "+" : "") +
+                      (l.wavelengthNm - predicted).toFixed(3)}
                   </span>
                 ) : null}
                 <span className="muted text-xs">intensity {l.intensity}</span>
-                {l.paired ? <span className="muted text-xs">(paired elsewhere: moves here)</span> : null}
+                {l.paired ? (
+                  <span className="muted text-xs">(paired elsewhere: moves here)</span>
+                ) : null}
               </button>
             </li>
           ))}
         </ul>
       )}
       <div className="mt-2">
-        <button type="button" onClick={onClose} className="rounded border border-[var(--line)] px-2 py-1 text-sm hover:bg-ink-100 dark:hover:bg-ink-800">
+        <button
+          type="button"
+          onClick={onClose}
+          className="rounded border border-[var(--line)] px-2 py-1 text-sm hover:bg-ink-100 dark:hover:bg-ink-800"
+        >
           Cancel
         </button>
       </div>

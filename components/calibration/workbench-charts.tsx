@@ -10,11 +10,13 @@ import type { CalibrationPreview } from "@/lib/services/calibrations";
 /** The counts nearest a pixel, so a mark sits on its peak. */
 function countsAt(series: SpectrumSeries, x: number): number {
   let best = 0;
-  for (let i = 1; i < series.x.length; i++) if (Math.abs(series.x[i] - x) < Math.abs(series.x[best] - x)) best = i;
+  for (let i = 1; i < series.x.length; i++)
+    if (Math.abs(series.x[i] - x) < Math.abs(series.x[best] - x)) best = i;
   return series.y[best] ?? 0;
 }
 
-const lineLabel = (species: string | null, wavelengthNm: number) => `${species ?? ""} ${wavelengthNm.toFixed(2)}`.trim();
+const lineLabel = (species: string | null, wavelengthNm: number) =>
+  `${species ?? ""} ${wavelengthNm.toFixed(2)}`.trim();
 
 export function WorkbenchLampChart({
   spectrum,
@@ -31,11 +33,21 @@ export function WorkbenchLampChart({
   const pairs = preview.result.pairs;
   const marks = (state: "used" | "rejected" | "excluded"): Data => {
     const chosen = pairs.filter((p) => p.state === state);
-    const style = ({
-      used: { name: "Paired line (in the fit)", symbol: "triangle-down", color: SERIES.used },
-      rejected: { name: "Paired line (rejected by the fit)", symbol: "x", color: SERIES.rejected },
-      excluded: { name: "Paired line (excluded by hand)", symbol: "diamond-open", color: SERIES.other },
-    } as const)[state];
+    const style = (
+      {
+        used: { name: "Paired line (in the fit)", symbol: "triangle-down", color: SERIES.used },
+        rejected: {
+          name: "Paired line (rejected by the fit)",
+          symbol: "x",
+          color: SERIES.rejected,
+        },
+        excluded: {
+          name: "Paired line (excluded by hand)",
+          symbol: "diamond-open",
+          color: SERIES.other,
+        },
+      } as const
+    )[state];
     return {
       type: "scatter",
       mode: "text+markers",
@@ -57,7 +69,15 @@ export function WorkbenchLampChart({
       caption="Click a circled peak to pair it with a line."
       fileName="lamp-workbench"
       data={[
-        { type: "scatter", mode: "lines", name: "Lamp counts", x: spectrum.x, y: spectrum.y, line: { color: SERIES.spectrum, width: 1 }, hoverinfo: "skip" },
+        {
+          type: "scatter",
+          mode: "lines",
+          name: "Lamp counts",
+          x: spectrum.x,
+          y: spectrum.y,
+          line: { color: SERIES.spectrum, width: 1 },
+          hoverinfo: "skip",
+        },
         marks("used"),
         marks("rejected"),
         marks("excluded"),
@@ -68,9 +88,12 @@ export function WorkbenchLampChart({
           x: unpaired.map((p) => p.pixel),
           y: unpaired.map((p) => countsAt(spectrum, p.pixel)),
           customdata: unpaired.map((p) => p.i),
-          text: unpaired.map((p) => (p.predictedNm === null ? "outside the model" : `≈ ${p.predictedNm.toFixed(2)} nm`)),
+          text: unpaired.map((p) =>
+            p.predictedNm === null ? "outside the model" : `≈ ${p.predictedNm.toFixed(2)} nm`,
+          ),
           marker: { symbol: "circle-open", size: 13, color: SERIES.marks, line: { width: 2 } },
-          hovertemplate: "unpaired peak at pixel %{x:.2f}<br>%{text}<br>click to pair<extra></extra>",
+          hovertemplate:
+            "unpaired peak at pixel %{x:.2f}<br>%{text}<br>click to pair<extra></extra>",
         },
       ]}
       layout={{ xaxis: { title: { text: xTitle } }, yaxis: { title: { text: "Counts" } } }}
@@ -93,21 +116,32 @@ export function WorkbenchLampChart({
   );
 }
 
-export function WorkbenchResidualChart({ preview, xTitle }: { preview: CalibrationPreview; xTitle: string }) {
+export function WorkbenchResidualChart({
+  preview,
+  xTitle,
+}: {
+  preview: CalibrationPreview;
+  xTitle: string;
+}) {
   const series = (state: "used" | "rejected" | "excluded"): Data => {
     const chosen = preview.result.pairs.filter((p) => p.state === state);
-    const style = ({
-      used: { name: "Used pair", symbol: "circle", color: SERIES.used },
-      rejected: { name: "Rejected by the fit", symbol: "x", color: SERIES.rejected },
-      excluded: { name: "Excluded by hand", symbol: "diamond-open", color: SERIES.other },
-    } as const)[state];
+    const style = (
+      {
+        used: { name: "Used pair", symbol: "circle", color: SERIES.used },
+        rejected: { name: "Rejected by the fit", symbol: "x", color: SERIES.rejected },
+        excluded: { name: "Excluded by hand", symbol: "diamond-open", color: SERIES.other },
+      } as const
+    )[state];
     return {
       type: "scatter",
       mode: "markers",
       name: style.name,
       x: chosen.map((p) => p.pixel),
       y: chosen.map((p) => p.residualNm),
-      text: chosen.map((p) => `${lineLabel(p.species, p.wavelengthNm)} nm${p.origin === "added" ? " (paired by hand)" : ""}`),
+      text: chosen.map(
+        (p) =>
+          `${lineLabel(p.species, p.wavelengthNm)} nm${p.origin === "added" ? " (paired by hand)" : ""}`,
+      ),
       marker: { symbol: style.symbol, size: 9, color: style.color },
       hovertemplate: "pixel %{x:.2f}<br>%{text}<br>residual %{y:.4f} nm<extra></extra>",
     };
@@ -119,7 +153,10 @@ export function WorkbenchResidualChart({ preview, xTitle }: { preview: Calibrati
       fileName="calibration-residuals"
       height={260}
       data={[series("used"), series("rejected"), series("excluded")]}
-      layout={{ xaxis: { title: { text: xTitle } }, yaxis: { title: { text: "Residual (nm)" }, zeroline: true } }}
+      layout={{
+        xaxis: { title: { text: xTitle } },
+        yaxis: { title: { text: "Residual (nm)" }, zeroline: true },
+      }}
     />
   );
 }

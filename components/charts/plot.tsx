@@ -34,7 +34,11 @@ export const SERIES = {
   other: "#E69F00",
 } as const;
 
-const AXIS = { gridcolor: "rgba(128,128,128,0.25)", zerolinecolor: "rgba(128,128,128,0.5)", linecolor: "rgba(128,128,128,0.6)" };
+const AXIS = {
+  gridcolor: "rgba(128,128,128,0.25)",
+  zerolinecolor: "rgba(128,128,128,0.5)",
+  linecolor: "rgba(128,128,128,0.6)",
+};
 
 export function Chart({
   data,
@@ -60,7 +64,13 @@ export function Chart({
   name?: string;
 }) {
   return (
-    <figure role="figure" aria-label={title} className="panel p-2" data-testid="chart" data-chart={name}>
+    <figure
+      role="figure"
+      aria-label={title}
+      className="panel p-2"
+      data-testid="chart"
+      data-chart={name}
+    >
       <div style={{ height }}>
         <Plot
           data={data}
@@ -85,7 +95,8 @@ export function Chart({
         />
       </div>
       <figcaption className="muted px-2 pt-1 text-xs">
-        {title}. {caption ? `${caption} ` : ""}Drag to zoom, double-click to reset; the camera button saves a PNG.
+        {title}. {caption ? `${caption} ` : ""}Drag to zoom, double-click to reset; the camera
+        button saves a PNG.
       </figcaption>
     </figure>
   );

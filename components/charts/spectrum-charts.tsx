@@ -15,7 +15,8 @@ export interface SpectrumSeries {
 /** The counts nearest to a position on the x axis (x sorted either way), so a mark sits on its peak. */
 function countsAt(series: SpectrumSeries, x: number): number {
   let best = 0;
-  for (let i = 1; i < series.x.length; i++) if (Math.abs(series.x[i] - x) < Math.abs(series.x[best] - x)) best = i;
+  for (let i = 1; i < series.x.length; i++)
+    if (Math.abs(series.x[i] - x) < Math.abs(series.x[best] - x)) best = i;
   return series.y[best] ?? 0;
 }
 
@@ -27,7 +28,15 @@ export interface PairMark {
   used: boolean;
 }
 
-export function LampChart({ spectrum, pairs, xTitle }: { spectrum: SpectrumSeries; pairs: PairMark[]; xTitle: string }) {
+export function LampChart({
+  spectrum,
+  pairs,
+  xTitle,
+}: {
+  spectrum: SpectrumSeries;
+  pairs: PairMark[];
+  xTitle: string;
+}) {
   const mark = (used: boolean): Data => {
     const chosen = pairs.filter((p) => p.used === used);
     return {
@@ -39,7 +48,11 @@ export function LampChart({ spectrum, pairs, xTitle }: { spectrum: SpectrumSerie
       text: chosen.map((p) => `${p.species ?? ""} ${p.wavelengthNm.toFixed(2)}`.trim()),
       textposition: "top center",
       textfont: { size: 10 },
-      marker: { symbol: used ? "triangle-down" : "x", size: 9, color: used ? SERIES.used : SERIES.rejected },
+      marker: {
+        symbol: used ? "triangle-down" : "x",
+        size: 9,
+        color: used ? SERIES.used : SERIES.rejected,
+      },
       hovertemplate: "pixel %{x:.2f}<br>%{text} nm<extra></extra>",
     };
   };
@@ -48,7 +61,14 @@ export function LampChart({ spectrum, pairs, xTitle }: { spectrum: SpectrumSerie
       title="Lamp spectrum with the paired lines marked"
       fileName="lamp-calibration"
       data={[
-        { type: "scatter", mode: "lines", name: "Lamp counts", x: spectrum.x, y: spectrum.y, line: { color: SERIES.spectrum, width: 1 } },
+        {
+          type: "scatter",
+          mode: "lines",
+          name: "Lamp counts",
+          x: spectrum.x,
+          y: spectrum.y,
+          line: { color: SERIES.spectrum, width: 1 },
+        },
         mark(true),
         mark(false),
       ]}
@@ -67,7 +87,11 @@ export function ResidualChart({ pairs, xTitle }: { pairs: PairMark[]; xTitle: st
       x: chosen.map((p) => p.pixel),
       y: chosen.map((p) => p.residualNm),
       text: chosen.map((p) => `${p.species ?? ""} ${p.wavelengthNm.toFixed(3)} nm`.trim()),
-      marker: { symbol: used ? "circle" : "x", size: 8, color: used ? SERIES.used : SERIES.rejected },
+      marker: {
+        symbol: used ? "circle" : "x",
+        size: 8,
+        color: used ? SERIES.used : SERIES.rejected,
+      },
       hovertemplate: "pixel %{x:.2f}<br>%{text}<br>residual %{y:.4f} nm<extra></extra>",
     };
   };
@@ -77,7 +101,10 @@ export function ResidualChart({ pairs, xTitle }: { pairs: PairMark[]; xTitle: st
       fileName="calibration-residuals"
       height={260}
       data={[series(true), series(false)]}
-      layout={{ xaxis: { title: { text: xTitle } }, yaxis: { title: { text: "Residual (nm)" }, zeroline: true } }}
+      layout={{
+        xaxis: { title: { text: xTitle } },
+        yaxis: { title: { text: "Residual (nm)" }, zeroline: true },
+      }}
     />
   );
 }
@@ -103,13 +130,18 @@ export function RunSpectrumChart({
   const [view, setView] = useState<"raw" | "removed">("raw");
   const groupName = useId();
   const removed = view === "removed" && continuum !== null;
-  const shown: SpectrumSeries = removed ? { x: spectrum.x, y: spectrum.y.map((y, i) => y - continuum![i]) } : spectrum;
+  const shown: SpectrumSeries = removed
+    ? { x: spectrum.x, y: spectrum.y.map((y, i) => y - continuum![i]) }
+    : spectrum;
   const marks = (verdict: LineLabel["verdict"]): Data => {
     const chosen = labels.filter((l) => l.verdict === verdict);
     return {
       type: "scatter",
       mode: "text+markers",
-      name: verdict === "present" ? "Line of a species called present" : "Line of a species called possible",
+      name:
+        verdict === "present"
+          ? "Line of a species called present"
+          : "Line of a species called possible",
       x: chosen.map((l) => l.peakNm),
       y: chosen.map((l) => countsAt(shown, l.peakNm)),
       text: chosen.map((l) => l.species),
@@ -148,19 +180,40 @@ export function RunSpectrumChart({
               ["removed", "Continuum removed"],
             ] as const
           ).map(([value, label]) => (
-            <label key={value} className="inline-flex cursor-pointer items-center gap-1.5 rounded border border-[var(--line)] px-2 py-1 has-[:checked]:border-ember-600 has-[:checked]:font-semibold has-[:focus-visible]:ring-2 has-[:focus-visible]:ring-ember-600">
-              <input type="radio" name={groupName} value={value} checked={view === value} onChange={() => setView(value)} className="accent-ember-600" />
+            <label
+              key={value}
+              className="inline-flex cursor-pointer items-center gap-1.5 rounded border border-[var(--line)] px-2 py-1 has-[:checked]:border-ember-600 has-[:checked]:font-semibold has-[:focus-visible]:ring-2 has-[:focus-visible]:ring-ember-600"
+            >
+              <input
+                type="radio"
+                name={groupName}
+                value={value}
+                checked={view === value}
+                onChange={() => setView(value)}
+                className="accent-ember-600"
+              />
               {label}
             </label>
           ))}
         </fieldset>
       ) : null}
       <Chart
-        title={removed ? "Calibrated sample spectrum, continuum removed, with the identified lines labelled" : "Calibrated sample spectrum with the identified lines labelled"}
+        title={
+          removed
+            ? "Calibrated sample spectrum, continuum removed, with the identified lines labelled"
+            : "Calibrated sample spectrum with the identified lines labelled"
+        }
         fileName={removed ? "run-spectrum-continuum-removed" : "run-spectrum"}
         height={420}
         data={[
-          { type: "scatter", mode: "lines", name: removed ? "Counts minus continuum" : "Sample counts", x: shown.x, y: shown.y, line: { color: SERIES.spectrum, width: 1 } },
+          {
+            type: "scatter",
+            mode: "lines",
+            name: removed ? "Counts minus continuum" : "Sample counts",
+            x: shown.x,
+            y: shown.y,
+            line: { color: SERIES.spectrum, width: 1 },
+          },
           ...continuumTrace,
           marks("present"),
           marks("possible"),
@@ -224,7 +277,10 @@ export function BoltzmannChart({
           hoverinfo: "skip",
         },
       ]}
-      layout={{ xaxis: { title: { text: "Upper-level energy (eV)" } }, yaxis: { title: { text: "ln(I·λ / g·A)" } } }}
+      layout={{
+        xaxis: { title: { text: "Upper-level energy (eV)" } },
+        yaxis: { title: { text: "ln(I·λ / g·A)" } },
+      }}
     />
   );
 }
@@ -236,8 +292,21 @@ export function PreviewChart({ spectrum, xTitle }: { spectrum: SpectrumSeries; x
       title="Preview of the parsed points"
       fileName="upload-preview"
       height={260}
-      data={[{ type: "scatter", mode: "lines", name: "Counts", x: spectrum.x, y: spectrum.y, line: { color: SERIES.spectrum, width: 1 } }]}
-      layout={{ showlegend: false, xaxis: { title: { text: xTitle } }, yaxis: { title: { text: "Counts" } } }}
+      data={[
+        {
+          type: "scatter",
+          mode: "lines",
+          name: "Counts",
+          x: spectrum.x,
+          y: spectrum.y,
+          line: { color: SERIES.spectrum, width: 1 },
+        },
+      ]}
+      layout={{
+        showlegend: false,
+        xaxis: { title: { text: xTitle } },
+        yaxis: { title: { text: "Counts" } },
+      }}
     />
   );
 }

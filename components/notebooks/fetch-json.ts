@@ -2,8 +2,12 @@
 export async function fetchJson<T>(url: string): Promise<T> {
   const response = await fetch(url, { headers: { accept: "application/json" } });
   if (!response.ok) {
-    const body = (await response.json().catch(() => null)) as { error?: { message?: string } } | null;
-    throw new Error(body?.error?.message ?? `The list could not be loaded (HTTP ${response.status}).`);
+    const body = (await response.json().catch(() => null)) as {
+      error?: { message?: string };
+    } | null;
+    throw new Error(
+      body?.error?.message ?? `The list could not be loaded (HTTP ${response.status}).`,
+    );
   }
   return response.json() as Promise<T>;
 }

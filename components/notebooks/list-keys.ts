@@ -4,7 +4,11 @@ export const RUN_FILTER_KEYS = ["status", "species", "instrumentId", "q"] as con
 export type RunFilterKey = (typeof RUN_FILTER_KEYS)[number];
 
 /** The query string of the filters that are set, in a fixed order. */
-export function filterQuery(values: Partial<Record<string, string>>, keys: readonly string[], extra: Record<string, string> = {}): string {
+export function filterQuery(
+  values: Partial<Record<string, string>>,
+  keys: readonly string[],
+  extra: Record<string, string> = {},
+): string {
   const query = new URLSearchParams(extra);
   for (const key of keys) {
     const value = values[key]?.trim();

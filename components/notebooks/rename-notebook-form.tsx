@@ -20,9 +20,17 @@ export function RenameNotebookForm({
 }) {
   const [state, formAction, pending] = useActionState(action, initialFormState);
   return (
-    <details className="mb-4 max-w-xl" open={Boolean(state.fieldErrors || (state.message && !state.ok)) || undefined}>
+    <details
+      className="mb-4 max-w-xl"
+      open={Boolean(state.fieldErrors || (state.message && !state.ok)) || undefined}
+    >
       <summary className="cursor-pointer text-sm underline">Rename the notebook</summary>
-      <form action={formAction} className="panel mt-2 flex flex-col gap-3 p-4" noValidate aria-label="Rename the notebook">
+      <form
+        action={formAction}
+        className="panel mt-2 flex flex-col gap-3 p-4"
+        noValidate
+        aria-label="Rename the notebook"
+      >
         <input type="hidden" name="notebookId" value={notebookId} />
         <input type="hidden" name="version" value={version} />
         <Field

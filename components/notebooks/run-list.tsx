@@ -18,7 +18,11 @@ const COLUMNS = 7;
 const inputClass = "rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1.5 text-sm";
 
 /** Keeps typed text local and sends it to the URL once typing pauses. */
-function useDebounced(value: string, send: (value: string) => void, ms = 300): [string, (v: string) => void] {
+function useDebounced(
+  value: string,
+  send: (value: string) => void,
+  ms = 300,
+): [string, (v: string) => void] {
   const [text, setText] = useState(value);
   useEffect(() => {
     if (text === value) return;
@@ -41,13 +45,21 @@ export function RunList(props: {
   );
 }
 
-function RunTable({ notebookId, instruments }: { notebookId: string; instruments: { id: string; name: string }[] }) {
+function RunTable({
+  notebookId,
+  instruments,
+}: {
+  notebookId: string;
+  instruments: { id: string; name: string }[];
+}) {
   const [filters, setFilters] = useUrlFilters(RUN_FILTER_KEYS);
   const [species, setSpecies] = useDebounced(filters.species, (v) => setFilters({ species: v }));
   const [q, setQ] = useDebounced(filters.q, (v) => setFilters({ q: v }));
   const key = runsKey(notebookId, filters);
   // While a new filter's answer is on its way the previous rows stay (dimmed), so the table does not jump.
-  const { data, error, isLoading } = useSWR<RunSummary[]>(key, fetchJson, { keepPreviousData: true });
+  const { data, error, isLoading } = useSWR<RunSummary[]>(key, fetchJson, {
+    keepPreviousData: true,
+  });
   const filtered = RUN_FILTER_KEYS.some((k) => filters[k]);
 
   function clear() {
@@ -61,7 +73,12 @@ function RunTable({ notebookId, instruments }: { notebookId: string; instruments
       <h2 id="runs-heading" className="text-lg font-semibold">
         Runs
       </h2>
-      <form role="search" aria-label="Filter the runs" className="flex flex-wrap items-end gap-3" onSubmit={(e) => e.preventDefault()}>
+      <form
+        role="search"
+        aria-label="Filter the runs"
+        className="flex flex-wrap items-end gap-3"
+        onSubmit={(e) => e.preventDefault()}
+      >
         <FilterSelect
           id="run-status"
           label="Status"
@@ -115,7 +132,9 @@ function RunTable({ notebookId, instruments }: { notebookId: string; instruments
           </button>
         ) : null}
         <span className="muted pb-2 text-xs" aria-live="polite" data-testid="runs-count">
-          {isLoading ? "Loading…" : `${data?.length ?? 0} ${data?.length === 1 ? "run" : "runs"} shown`}
+          {isLoading
+            ? "Loading…"
+            : `${data?.length ?? 0} ${data?.length === 1 ? "run" : "runs"} shown`}
         </span>
       </form>
       {error ? (
@@ -133,22 +152,43 @@ function RunTable({ notebookId, instruments }: { notebookId: string; instruments
               </button>
             </>
           ) : (
-            <p className="muted">No runs yet: a run analyses one sample spectrum on a calibration and calls the elements it shows.</p>
+            <p className="muted">
+              No runs yet: a run analyses one sample spectrum on a calibration and calls the
+              elements it shows.
+            </p>
           )}
         </div>
       ) : (
         <div className="panel overflow-x-auto">
-          <table className={`w-full text-sm ${isLoading && data ? "opacity-60" : ""}`} data-testid="runs-table" aria-busy={isLoading || undefined}>
+          <table
+            className={`w-full text-sm ${isLoading && data ? "opacity-60" : ""}`}
+            data-testid="runs-table"
+            aria-busy={isLoading || undefined}
+          >
             <caption className="sr-only">Runs of this notebook, newest first</caption>
             <thead className="border-b border-[var(--line)] text-left">
               <tr>
-                <th scope="col" className="px-3 py-2">Date</th>
-                <th scope="col" className="px-3 py-2">Sample</th>
-                <th scope="col" className="px-3 py-2">Status</th>
-                <th scope="col" className="px-3 py-2">Called present</th>
-                <th scope="col" className="px-3 py-2">Source</th>
-                <th scope="col" className="px-3 py-2">Instrument</th>
-                <th scope="col" className="px-3 py-2">Author</th>
+                <th scope="col" className="px-3 py-2">
+                  Date
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Sample
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Status
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Called present
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Source
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Instrument
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Author
+                </th>
               </tr>
             </thead>
             {!data ? (
@@ -156,22 +196,34 @@ function RunTable({ notebookId, instruments }: { notebookId: string; instruments
             ) : (
               <tbody>
                 {data.map((r) => (
-                  <tr key={r.id} className="border-b border-[var(--line)] last:border-0" data-testid="run-row">
+                  <tr
+                    key={r.id}
+                    className="border-b border-[var(--line)] last:border-0"
+                    data-testid="run-row"
+                  >
                     <td className="whitespace-nowrap px-3 py-2">
                       <Link href={`/runs/${r.id}`} className="underline">
                         {r.createdAt.slice(0, 16).replace("T", " ")}
                       </Link>
-                      {r.versionNumber > 1 ? <span className="muted ml-1 text-xs">v{r.versionNumber}</span> : null}
+                      {r.versionNumber > 1 ? (
+                        <span className="muted ml-1 text-xs">v{r.versionNumber}</span>
+                      ) : null}
                     </td>
                     <td className="px-3 py-2">
                       {r.spectrumLabel || r.spectrumFileName}
-                      {r.spectrumLabel ? <span className="muted block text-xs">{r.spectrumFileName}</span> : null}
+                      {r.spectrumLabel ? (
+                        <span className="muted block text-xs">{r.spectrumFileName}</span>
+                      ) : null}
                     </td>
                     <td className="px-3 py-2">
                       <RunStatusBadge status={r.status} />
                     </td>
                     <td className="px-3 py-2" data-testid="run-present">
-                      {r.present.length ? r.present.join(", ") : <span className="muted">none</span>}
+                      {r.present.length ? (
+                        r.present.join(", ")
+                      ) : (
+                        <span className="muted">none</span>
+                      )}
                     </td>
                     <td className="px-3 py-2">{r.source}</td>
                     <td className="px-3 py-2">{r.instrumentName}</td>

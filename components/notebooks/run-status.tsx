@@ -8,7 +8,12 @@ export const RUN_STATUS_LABELS: Record<RunStatus, string> = {
   signed: "Signed",
 };
 
-const SHAPES: Record<RunStatus, string> = { draft: "○", submitted: "◐", returned: "↩", signed: "●" };
+const SHAPES: Record<RunStatus, string> = {
+  draft: "○",
+  submitted: "◐",
+  returned: "↩",
+  signed: "●",
+};
 const TONES: Record<RunStatus, string> = {
   draft: "text-ink-700 dark:text-ink-200",
   submitted: "text-sky-800 dark:text-sky-300",
@@ -18,7 +23,10 @@ const TONES: Record<RunStatus, string> = {
 
 export function RunStatusBadge({ status }: { status: RunStatus }) {
   return (
-    <span className={`inline-flex items-center gap-1 whitespace-nowrap ${TONES[status]}`} data-status={status}>
+    <span
+      className={`inline-flex items-center gap-1 whitespace-nowrap ${TONES[status]}`}
+      data-status={status}
+    >
       <span aria-hidden>{SHAPES[status]}</span>
       {RUN_STATUS_LABELS[status]}
     </span>

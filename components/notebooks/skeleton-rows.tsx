@@ -1,5 +1,13 @@
 // Placeholder rows while a list loads: grey bars of the table's shape, announced once as loading.
-export function SkeletonRows({ rows = 3, columns, label }: { rows?: number; columns: number; label: string }) {
+export function SkeletonRows({
+  rows = 3,
+  columns,
+  label,
+}: {
+  rows?: number;
+  columns: number;
+  label: string;
+}) {
   return (
     <tbody aria-busy="true" data-testid="skeleton">
       {Array.from({ length: rows }, (_, r) => (

@@ -4,7 +4,9 @@
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { useCallback } from "react";
 
-export function useUrlFilters<K extends string>(keys: readonly K[]): [Record<K, string>, (changes: Partial<Record<K, string>>) => void] {
+export function useUrlFilters<K extends string>(
+  keys: readonly K[],
+): [Record<K, string>, (changes: Partial<Record<K, string>>) => void] {
   const router = useRouter();
   const pathname = usePathname();
   const params = useSearchParams();

@@ -2,7 +2,8 @@
 // the printable page. Plain links: the browser downloads the files with the session cookie.
 import Link from "next/link";
 
-const LINK = "inline-flex items-center gap-1 rounded border border-[var(--line)] bg-[var(--panel)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800";
+const LINK =
+  "inline-flex items-center gap-1 rounded border border-[var(--line)] bg-[var(--panel)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800";
 
 export function RunDownloads({ runId }: { runId: string }) {
   return (
@@ -12,17 +13,32 @@ export function RunDownloads({ runId }: { runId: string }) {
       </h2>
       <ul className="flex flex-wrap gap-2">
         <li>
-          <a href={`/api/runs/${runId}/report.pdf`} download className={LINK} data-testid="download-report-pdf">
+          <a
+            href={`/api/runs/${runId}/report.pdf`}
+            download
+            className={LINK}
+            data-testid="download-report-pdf"
+          >
             Report (PDF)
           </a>
         </li>
         <li>
-          <a href={`/api/runs/${runId}/peaks.csv`} download className={LINK} data-testid="download-peaks-csv">
+          <a
+            href={`/api/runs/${runId}/peaks.csv`}
+            download
+            className={LINK}
+            data-testid="download-peaks-csv"
+          >
             Peaks and matches (CSV)
           </a>
         </li>
         <li>
-          <a href={`/api/runs/${runId}/spectrum.jdx`} download className={LINK} data-testid="download-spectrum-jdx">
+          <a
+            href={`/api/runs/${runId}/spectrum.jdx`}
+            download
+            className={LINK}
+            data-testid="download-spectrum-jdx"
+          >
             Calibrated spectrum (JCAMP-DX)
           </a>
         </li>
@@ -32,7 +48,9 @@ export function RunDownloads({ runId }: { runId: string }) {
           </Link>
         </li>
       </ul>
-      <p className="muted mt-1 text-xs">The report and the files carry the screening caveat: they are not a certified analysis.</p>
+      <p className="muted mt-1 text-xs">
+        The report and the files carry the screening caveat: they are not a certified analysis.
+      </p>
     </section>
   );
 }

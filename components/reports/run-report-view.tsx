@@ -3,15 +3,30 @@
 import type { ReactNode } from "react";
 import type { ChartGeometry } from "@/lib/reports/chart-geometry";
 import { detectionLimitsSentence } from "@/lib/reports/detection-limit-text";
-import { formatUtc, type ReportCall, type ReportField, type RunReport } from "@/lib/reports/report-model";
+import {
+  formatUtc,
+  type ReportCall,
+  type ReportField,
+  type RunReport,
+} from "@/lib/reports/report-model";
 import { ReportChart } from "./report-chart";
 
 export const REPORT_CHART_SIZE = { width: 700, height: 300 };
 
-function Section({ title, children, testId }: { title: string; children: ReactNode; testId?: string }) {
+function Section({
+  title,
+  children,
+  testId,
+}: {
+  title: string;
+  children: ReactNode;
+  testId?: string;
+}) {
   return (
     <section className="mt-5 break-inside-avoid-page" data-testid={testId}>
-      <h2 className="mb-1.5 border-b border-[var(--line)] pb-0.5 text-base font-semibold">{title}</h2>
+      <h2 className="mb-1.5 border-b border-[var(--line)] pb-0.5 text-base font-semibold">
+        {title}
+      </h2>
       {children}
     </section>
   );
@@ -32,7 +47,8 @@ function Fields({ fields, mono = false }: { fields: ReportField[]; mono?: boolea
 
 function overrideText(c: ReportCall): string {
   const o = c.override!;
-  const what = o.verdict === null ? `withdrawn (back to ${c.computedVerdict})` : `set to ${o.verdict}`;
+  const what =
+    o.verdict === null ? `withdrawn (back to ${c.computedVerdict})` : `set to ${o.verdict}`;
   return `${what} by ${o.byName ?? "unknown"}, ${formatUtc(o.at)}: ${o.reason}`;
 }
 
@@ -47,15 +63,20 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
     <article className="report mx-auto max-w-[210mm] text-[var(--text)]" data-testid="run-report">
       <header>
         <p className="muted text-xs">
-          Emberline · run {report.shortId} v{report.versionNumber} · {report.status} · made {formatUtc(report.generatedAt)}
+          Emberline · run {report.shortId} v{report.versionNumber} · {report.status} · made{" "}
+          {formatUtc(report.generatedAt)}
         </p>
-        <h1 className="mt-1 text-2xl font-semibold tracking-tight">Emission spectrum screening report</h1>
+        <h1 className="mt-1 text-2xl font-semibold tracking-tight">
+          Emission spectrum screening report
+        </h1>
         <p className="text-sm">{report.title}</p>
         <p className="muted mt-1 text-sm">
-          Notebook: {report.notebookTitle} · author: {report.authorName ?? "unknown"} · instrument: {report.instrumentName} · source:{" "}
-          {report.source} · analysed {formatUtc(report.createdAt)}
+          Notebook: {report.notebookTitle} · author: {report.authorName ?? "unknown"} · instrument:{" "}
+          {report.instrumentName} · source: {report.source} · analysed {formatUtc(report.createdAt)}
         </p>
-        <p className="mt-2 font-semibold">Called present: {present.length ? present.join(", ") : "none"}</p>
+        <p className="mt-2 font-semibold">
+          Called present: {present.length ? present.join(", ") : "none"}
+        </p>
         <p>Possible: {possible.length ? possible.join(", ") : "none"}</p>
       </header>
 
@@ -68,7 +89,10 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
         ))}
       </div>
       {report.flameCautions ? (
-        <aside aria-label="Flame safety" className="mt-2 rounded border border-ember-600 p-2 text-sm">
+        <aside
+          aria-label="Flame safety"
+          className="mt-2 rounded border border-ember-600 p-2 text-sm"
+        >
           <p className="font-semibold">
             <span aria-hidden>⚠ </span>Flame test cautions
           </p>
@@ -86,8 +110,12 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
           {...REPORT_CHART_SIZE}
           caption={
             "Labels: lines of species called present in bold; lines of possible species marked “?”. Counts as recorded, on the run's wavelength axis" +
-            (report.lampChecked ? " (air wavelengths from the lamp calibration)." : " (the file's own axis, not lamp-checked).") +
-            (chart.unplaced.length ? ` Not labelled for want of room: ${chart.unplaced.join("; ")}.` : "")
+            (report.lampChecked
+              ? " (air wavelengths from the lamp calibration)."
+              : " (the file's own axis, not lamp-checked).") +
+            (chart.unplaced.length
+              ? ` Not labelled for want of room: ${chart.unplaced.join("; ")}.`
+              : "")
           }
         />
       </Section>
@@ -99,12 +127,24 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
           <table className="w-full text-sm">
             <thead className="text-left">
               <tr>
-                <th scope="col" className="pr-2">Species</th>
-                <th scope="col" className="pr-2">Verdict</th>
-                <th scope="col" className="pr-2">Computed</th>
-                <th scope="col" className="pr-2 text-right">Score</th>
-                <th scope="col" className="pr-2 text-right">Seen</th>
-                <th scope="col" className="pr-2 text-right">Missing (strong)</th>
+                <th scope="col" className="pr-2">
+                  Species
+                </th>
+                <th scope="col" className="pr-2">
+                  Verdict
+                </th>
+                <th scope="col" className="pr-2">
+                  Computed
+                </th>
+                <th scope="col" className="pr-2 text-right">
+                  Score
+                </th>
+                <th scope="col" className="pr-2 text-right">
+                  Seen
+                </th>
+                <th scope="col" className="pr-2 text-right">
+                  Missing (strong)
+                </th>
                 <th scope="col">Override</th>
               </tr>
             </thead>
@@ -126,7 +166,9 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
           </table>
         )}
         {report.absentSpecies.length ? (
-          <p className="muted mt-1 text-xs">Candidates not supported by the spectrum (absent): {report.absentSpecies.join(", ")}.</p>
+          <p className="muted mt-1 text-xs">
+            Candidates not supported by the spectrum (absent): {report.absentSpecies.join(", ")}.
+          </p>
         ) : null}
         {limitsSentence ? (
           <p className="muted mt-1 text-xs" data-testid="detection-limits">
@@ -138,7 +180,11 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
       {report.calls.map((call) => (
         <Section key={call.species} title={`Evidence: ${call.species} (${call.verdict})`}>
           <p className="text-sm">{call.rationale}</p>
-          {call.override ? <p className="text-sm text-ember-800 dark:text-ember-200">Override: {overrideText(call)}</p> : null}
+          {call.override ? (
+            <p className="text-sm text-ember-800 dark:text-ember-200">
+              Override: {overrideText(call)}
+            </p>
+          ) : null}
           {call.notes.map((n) => (
             <p key={n} className="muted text-xs">
               Note: {n}
@@ -149,10 +195,18 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
             <table className="mt-1 text-sm">
               <thead>
                 <tr>
-                  <th scope="col" className="pr-4 text-right">Line (nm)</th>
-                  <th scope="col" className="pr-4 text-right">Peak (nm)</th>
-                  <th scope="col" className="pr-4 text-right">Δλ (nm)</th>
-                  <th scope="col" className="text-right">Rel. intensity</th>
+                  <th scope="col" className="pr-4 text-right">
+                    Line (nm)
+                  </th>
+                  <th scope="col" className="pr-4 text-right">
+                    Peak (nm)
+                  </th>
+                  <th scope="col" className="pr-4 text-right">
+                    Δλ (nm)
+                  </th>
+                  <th scope="col" className="text-right">
+                    Rel. intensity
+                  </th>
                 </tr>
               </thead>
               <tbody className="font-mono text-xs">
@@ -175,25 +229,42 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
               {call.missing
                 .filter((m) => !m.hidden)
                 .slice(0, 12)
-                .map((m) => `${m.lineNm.toFixed(3)} nm${m.predictedSnr !== null ? ` (predicted SNR ${m.predictedSnr.toFixed(1)})` : ""}`)
+                .map(
+                  (m) =>
+                    `${m.lineNm.toFixed(3)} nm${m.predictedSnr !== null ? ` (predicted SNR ${m.predictedSnr.toFixed(1)})` : ""}`,
+                )
                 .join(", ")}
-              {call.missing.filter((m) => !m.hidden).length > 12 ? `, and ${call.missing.filter((m) => !m.hidden).length - 12} more` : ""}.
+              {call.missing.filter((m) => !m.hidden).length > 12
+                ? `, and ${call.missing.filter((m) => !m.hidden).length - 12} more`
+                : ""}
+              .
             </p>
           ) : null}
           {call.overlaps.length ? (
-            <p className="mt-1 text-xs">Shared peaks: {call.overlaps.map((o) => `${o.peakNm.toFixed(3)} nm with ${o.otherSpecies.join(", ")}`).join("; ")}.</p>
+            <p className="mt-1 text-xs">
+              Shared peaks:{" "}
+              {call.overlaps
+                .map((o) => `${o.peakNm.toFixed(3)} nm with ${o.otherSpecies.join(", ")}`)
+                .join("; ")}
+              .
+            </p>
           ) : null}
         </Section>
       ))}
 
       <Section title="Unexplained peaks">
         {report.unexplained.length === 0 ? (
-          <p className="muted text-sm">Every one of the {report.peakCount} peaks above the threshold has a candidate line.</p>
+          <p className="muted text-sm">
+            Every one of the {report.peakCount} peaks above the threshold has a candidate line.
+          </p>
         ) : (
           <ul className="text-sm">
             {report.unexplained.map((u) => (
               <li key={u.wavelengthNm}>
-                <span className="font-mono text-xs">{u.wavelengthNm.toFixed(3)} nm · SNR {u.snr.toFixed(1)}</span> <span className="muted">{u.reason}</span>
+                <span className="font-mono text-xs">
+                  {u.wavelengthNm.toFixed(3)} nm · SNR {u.snr.toFixed(1)}
+                </span>{" "}
+                <span className="muted">{u.reason}</span>
               </li>
             ))}
           </ul>
@@ -206,12 +277,18 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
             fields={[
               { label: "Model", value: c.model },
               { label: "RMS", value: `${c.rmsNm.toFixed(4)} nm` },
-              { label: "Covered range", value: `${c.coveredRangeNm[0].toFixed(2)}–${c.coveredRangeNm[1].toFixed(2)} nm` },
+              {
+                label: "Covered range",
+                value: `${c.coveredRangeNm[0].toFixed(2)}–${c.coveredRangeNm[1].toFixed(2)} nm`,
+              },
               {
                 label: "Sample range",
                 value: `${report.rangeNm[0].toFixed(2)}–${report.rangeNm[1].toFixed(2)} nm${report.outsideCoveredRange ? " (extends past the covered range)" : ""}`,
               },
-              { label: "Lamp lines used", value: `${c.pairCount} (${c.rejectedCount} rejected as outliers)` },
+              {
+                label: "Lamp lines used",
+                value: `${c.pairCount} (${c.rejectedCount} rejected as outliers)`,
+              },
               { label: "Lamps", value: c.lamps.join(", ") || "–" },
               { label: "Median uncertainty", value: `${c.medianUncertaintyNm.toFixed(4)} nm` },
               { label: "Calibrated on", value: c.calibratedOn },
@@ -219,15 +296,24 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
             ]}
           />
         ) : (
-          <p className="text-sm">None: the run used the file&apos;s own wavelength axis (not lamp-checked).</p>
+          <p className="text-sm">
+            None: the run used the file&apos;s own wavelength axis (not lamp-checked).
+          </p>
         )}
       </Section>
 
       <Section title="Line-table release">
         <Fields
           fields={[
-            { label: "Release", value: report.release.number === null ? "unnumbered" : `release ${report.release.number}` },
-            { label: "Published", value: report.release.publishedAt ? formatUtc(report.release.publishedAt) : "–" },
+            {
+              label: "Release",
+              value:
+                report.release.number === null ? "unnumbered" : `release ${report.release.number}`,
+            },
+            {
+              label: "Published",
+              value: report.release.publishedAt ? formatUtc(report.release.publishedAt) : "–",
+            },
             { label: "Release id", value: report.release.id },
           ]}
         />
@@ -260,9 +346,15 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
           <table className="w-full text-sm">
             <thead className="text-left">
               <tr>
-                <th scope="col" className="pr-2">Round</th>
-                <th scope="col" className="pr-2">Submitted</th>
-                <th scope="col" className="pr-2">Decision</th>
+                <th scope="col" className="pr-2">
+                  Round
+                </th>
+                <th scope="col" className="pr-2">
+                  Submitted
+                </th>
+                <th scope="col" className="pr-2">
+                  Decision
+                </th>
                 <th scope="col">Comment</th>
               </tr>
             </thead>
@@ -274,7 +366,9 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
                     {r.submittedByName ?? "unknown"}, {formatUtc(r.submittedAt)}
                   </td>
                   <td className="pr-2">
-                    {r.decision ? `${r.decision} by ${r.decidedByName ?? "unknown"}${r.decidedAt ? `, ${formatUtc(r.decidedAt)}` : ""}` : "pending"}
+                    {r.decision
+                      ? `${r.decision} by ${r.decidedByName ?? "unknown"}${r.decidedAt ? `, ${formatUtc(r.decidedAt)}` : ""}`
+                      : "pending"}
                   </td>
                   <td>{r.comment}</td>
                 </tr>
@@ -294,7 +388,10 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
                 { label: "Review round", value: String(report.signature.round) },
               ]}
             />
-            <Fields fields={[{ label: "Content hash (SHA-256)", value: report.signature.contentHash }]} mono />
+            <Fields
+              fields={[{ label: "Content hash (SHA-256)", value: report.signature.contentHash }]}
+              mono
+            />
           </div>
         ) : (
           <p className="muted text-sm">Not signed.</p>
@@ -306,7 +403,10 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
 
 /** A CSS string literal (the caveat and run label go into the printed page's margin boxes). */
 function cssString(text: string): string {
-  return `"${text.replace(/\\/g, "\\\\").replace(/"/g, '\\"').replace(/[\r\n]+/g, " ")}"`;
+  return `"${text
+    .replace(/\\/g, "\\\\")
+    .replace(/"/g, '\\"')
+    .replace(/[\r\n]+/g, " ")}"`;
 }
 
 /** The print rules of the printable page: A4, light colours, no workspace navigation, and in every

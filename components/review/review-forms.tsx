@@ -15,12 +15,22 @@ const TEXTAREA =
 function Errors({ id, errors }: { id: string; errors?: string[] }) {
   return (
     <div id={id} aria-live="polite" className="text-xs text-red-700 dark:text-red-300">
-      {errors?.map((message) => <p key={message}>{message}</p>)}
+      {errors?.map((message) => (
+        <p key={message}>{message}</p>
+      ))}
     </div>
   );
 }
 
-export function SubmitForm({ runId, reviewers, action }: { runId: string; reviewers: { id: string; name: string }[]; action: Action }) {
+export function SubmitForm({
+  runId,
+  reviewers,
+  action,
+}: {
+  runId: string;
+  reviewers: { id: string; name: string }[];
+  action: Action;
+}) {
   const [state, formAction, pending] = useActionState(action, initialFormState);
   return (
     <form action={formAction} className="flex flex-col gap-2" noValidate>
@@ -44,7 +54,8 @@ export function SubmitForm({ runId, reviewers, action }: { runId: string; review
         ))}
       </select>
       <p id="reviewerId-hint" className="muted text-xs">
-        The named supervisor, or every supervisor of the team, is e-mailed a link. You cannot change the run while it waits.
+        The named supervisor, or every supervisor of the team, is e-mailed a link. You cannot change
+        the run while it waits.
       </p>
       <Errors id="reviewerId-error" errors={state.fieldErrors?.reviewerId} />
       <FormMessage message={state.message} tone={state.ok ? "ok" : "error"} />
@@ -57,14 +68,23 @@ export function SubmitForm({ runId, reviewers, action }: { runId: string; review
   );
 }
 
-export function AmendForm({ runId, nextVersion, action }: { runId: string; nextVersion: number; action: Action }) {
+export function AmendForm({
+  runId,
+  nextVersion,
+  action,
+}: {
+  runId: string;
+  nextVersion: number;
+  action: Action;
+}) {
   const [state, formAction, pending] = useActionState(action, initialFormState);
   return (
     <form action={formAction} className="flex flex-col gap-2">
       <input type="hidden" name="runId" value={runId} />
       <p className="muted text-xs">
-        An amendment is a new draft (version {nextVersion}) with the same analysis, notes and overridden calls, linked to this signed
-        version, which stays as it was signed. It goes through review again.
+        An amendment is a new draft (version {nextVersion}) with the same analysis, notes and
+        overridden calls, linked to this signed version, which stays as it was signed. It goes
+        through review again.
       </p>
       <FormMessage message={state.message} />
       <div>
@@ -90,7 +110,12 @@ export function MarkForm({
   const [state, formAction, pending] = useActionState(action, initialFormState);
   const id = useId();
   return (
-    <form action={formAction} className="mt-2 flex flex-col gap-2 border-t border-[var(--line)] pt-2" noValidate aria-label={`Mark on ${species}`}>
+    <form
+      action={formAction}
+      className="mt-2 flex flex-col gap-2 border-t border-[var(--line)] pt-2"
+      noValidate
+      aria-label={`Mark on ${species}`}
+    >
       <input type="hidden" name="runId" value={runId} />
       <input type="hidden" name="species" value={species} />
       <div className="flex flex-wrap items-end gap-4">
@@ -110,7 +135,12 @@ export function MarkForm({
           <label htmlFor={`${id}-line`} className="text-xs font-semibold">
             About
           </label>
-          <select id={`${id}-line`} name="lineNm" className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1 text-sm" defaultValue="">
+          <select
+            id={`${id}-line`}
+            name="lineNm"
+            className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1 text-sm"
+            defaultValue=""
+          >
             <option value="">the call as a whole</option>
             {lines.map((l) => (
               <option key={l.lineNm} value={String(l.lineNm)}>
@@ -133,7 +163,10 @@ export function MarkForm({
         aria-invalid={state.fieldErrors?.comment ? true : undefined}
         className={TEXTAREA}
       />
-      <Errors id={`${id}-comment-error`} errors={[...(state.fieldErrors?.comment ?? []), ...(state.fieldErrors?.lineNm ?? [])]} />
+      <Errors
+        id={`${id}-comment-error`}
+        errors={[...(state.fieldErrors?.comment ?? []), ...(state.fieldErrors?.lineNm ?? [])]}
+      />
       <FormMessage message={state.message} tone={state.ok ? "ok" : "error"} />
       <div>
         <Button type="submit" variant="quiet" pending={pending}>
@@ -164,7 +197,10 @@ export function ReturnForm({ runId, action }: { runId: string; action: Action })
         className={TEXTAREA}
       />
       <Errors id="return-comment-error" errors={state.fieldErrors?.comment} />
-      <p className="muted text-xs">The author is e-mailed your comment, can revise the run and submit it again; this round is kept.</p>
+      <p className="muted text-xs">
+        The author is e-mailed your comment, can revise the run and submit it again; this round is
+        kept.
+      </p>
       <FormMessage message={state.message} />
       <div>
         <Button type="submit" variant="quiet" pending={pending}>
@@ -175,7 +211,17 @@ export function ReturnForm({ runId, action }: { runId: string; action: Action })
   );
 }
 
-export function SignForm({ runId, meaning, signerName, action }: { runId: string; meaning: string; signerName: string; action: Action }) {
+export function SignForm({
+  runId,
+  meaning,
+  signerName,
+  action,
+}: {
+  runId: string;
+  meaning: string;
+  signerName: string;
+  action: Action;
+}) {
   const [state, formAction, pending] = useActionState(action, initialFormState);
   return (
     <form action={formAction} className="panel flex flex-col gap-2 border-ember-600 p-4" noValidate>
@@ -183,13 +229,21 @@ export function SignForm({ runId, meaning, signerName, action }: { runId: string
       <input type="hidden" name="runId" value={runId} />
       <input type="hidden" name="decision" value="sign" />
       <p className="text-sm" data-testid="signature-meaning">
-        By signing, you, <strong>{signerName}</strong>, state: <strong>&ldquo;{meaning}&rdquo;</strong>. The signature records your name, the
-        time and a SHA-256 hash of the run&apos;s exact content, and the run is locked for good: later changes need an amendment.
+        By signing, you, <strong>{signerName}</strong>, state:{" "}
+        <strong>&ldquo;{meaning}&rdquo;</strong>. The signature records your name, the time and a
+        SHA-256 hash of the run&apos;s exact content, and the run is locked for good: later changes
+        need an amendment.
       </p>
       <label htmlFor="sign-comment" className="text-sm font-medium">
         Comment (optional)
       </label>
-      <textarea id="sign-comment" name="comment" rows={2} defaultValue={state.values?.comment} className={TEXTAREA} />
+      <textarea
+        id="sign-comment"
+        name="comment"
+        rows={2}
+        defaultValue={state.values?.comment}
+        className={TEXTAREA}
+      />
       <Field
         label="Your password, to confirm it is you"
         name="password"

@@ -29,36 +29,52 @@ export function SignatureBlock({ signature }: { signature: SignatureRecord }) {
 export function ReviewHistory({ history }: { history: RunHistory }) {
   return (
     <div className="flex flex-col gap-3" data-testid="review-history">
-      {history.rounds.length === 0 ? <p className="muted text-sm">Not submitted for review yet.</p> : null}
+      {history.rounds.length === 0 ? (
+        <p className="muted text-sm">Not submitted for review yet.</p>
+      ) : null}
       <ol className="flex flex-col gap-2">
         {history.rounds.map((round) => (
-          <li key={round.round} className="rounded border border-[var(--line)] p-3 text-sm" data-testid="review-round">
+          <li
+            key={round.round}
+            className="rounded border border-[var(--line)] p-3 text-sm"
+            data-testid="review-round"
+          >
             <p>
-              <span className="font-semibold">Round {round.round}</span> · submitted by {round.submittedBy?.name ?? "someone"} on{" "}
-              {formatTime(round.submittedAt)}
-              {round.requestedReviewer ? ` to ${round.requestedReviewer.name}` : " to any supervisor"}
+              <span className="font-semibold">Round {round.round}</span> · submitted by{" "}
+              {round.submittedBy?.name ?? "someone"} on {formatTime(round.submittedAt)}
+              {round.requestedReviewer
+                ? ` to ${round.requestedReviewer.name}`
+                : " to any supervisor"}
             </p>
             <p className="mt-1">
               {round.decision ? (
                 <>
-                  <span className="font-semibold">{DECISION[round.decision]}</span> by {round.decidedBy?.name ?? "someone"} on{" "}
-                  {formatTime(round.decidedAt!)}
+                  <span className="font-semibold">{DECISION[round.decision]}</span> by{" "}
+                  {round.decidedBy?.name ?? "someone"} on {formatTime(round.decidedAt!)}
                 </>
               ) : (
                 <span className="muted">Waiting for the reviewer.</span>
               )}
             </p>
             {round.comment ? (
-              <blockquote className="mt-1 whitespace-pre-wrap border-l-2 border-ember-600 pl-2" data-testid="round-comment">
+              <blockquote
+                className="mt-1 whitespace-pre-wrap border-l-2 border-ember-600 pl-2"
+                data-testid="round-comment"
+              >
                 {round.comment}
               </blockquote>
             ) : null}
             {round.marks.length > 0 ? (
-              <ul className="mt-2 flex flex-col gap-1 text-xs" aria-label={`Marks of round ${round.round}`}>
+              <ul
+                className="mt-2 flex flex-col gap-1 text-xs"
+                aria-label={`Marks of round ${round.round}`}
+              >
                 {round.marks.map((m) => (
                   <li key={m.id} data-testid="review-mark">
                     <span className="font-semibold">{m.species}</span>
-                    {m.lineNm !== null ? <span className="font-mono"> {m.lineNm.toFixed(3)} nm</span> : null}
+                    {m.lineNm !== null ? (
+                      <span className="font-mono"> {m.lineNm.toFixed(3)} nm</span>
+                    ) : null}
                     {m.agreement ? (
                       <span className="ml-1 rounded border border-[var(--line)] px-1">
                         <span aria-hidden>{m.agreement === "agree" ? "✓ " : "✗ "}</span>

@@ -12,13 +12,20 @@ export async function RunReviewPanel({ runId }: { runId: string }) {
   const state = await fetchRunReviewState(actor, runId);
   const { history } = state;
   return (
-    <section aria-labelledby="review-panel-title" className="panel mb-4 flex flex-col gap-3 p-4" data-testid="run-review-panel">
+    <section
+      aria-labelledby="review-panel-title"
+      className="panel mb-4 flex flex-col gap-3 p-4"
+      data-testid="run-review-panel"
+    >
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <h2 id="review-panel-title" className="text-lg font-semibold">
           Review
         </h2>
         <p className="text-sm">
-          <span className="rounded border border-[var(--line)] px-1.5 py-0.5 text-xs font-semibold" data-testid="run-status">
+          <span
+            className="rounded border border-[var(--line)] px-1.5 py-0.5 text-xs font-semibold"
+            data-testid="run-status"
+          >
             {state.statusLabel}
           </span>
           <span className="muted">
@@ -38,15 +45,23 @@ export async function RunReviewPanel({ runId }: { runId: string }) {
         </p>
       ) : null}
       {state.lockReason ? (
-        <p className="rounded border border-ember-600 p-2 text-sm" role="note" data-testid="lock-note">
+        <p
+          className="rounded border border-ember-600 p-2 text-sm"
+          role="note"
+          data-testid="lock-note"
+        >
           <span className="font-semibold">Locked: </span>
           {state.lockReason}
         </p>
       ) : null}
       {state.status === "returned" && state.isAuthor ? (
-        <p className="text-sm">The reviewer returned this run: see their comments below, revise it and submit it again.</p>
+        <p className="text-sm">
+          The reviewer returned this run: see their comments below, revise it and submit it again.
+        </p>
       ) : null}
-      {state.maySubmit ? <SubmitForm runId={state.runId} reviewers={state.reviewers} action={submitRunAction} /> : null}
+      {state.maySubmit ? (
+        <SubmitForm runId={state.runId} reviewers={state.reviewers} action={submitRunAction} />
+      ) : null}
       {state.status === "submitted" && state.isReviewer ? (
         <p className="text-sm">
           {state.mayDecide ? (
@@ -68,7 +83,13 @@ export async function RunReviewPanel({ runId }: { runId: string }) {
           .
         </p>
       ) : null}
-      {state.mayAmend ? <AmendForm runId={state.runId} nextVersion={history.versionNumber + 1} action={amendRunAction} /> : null}
+      {state.mayAmend ? (
+        <AmendForm
+          runId={state.runId}
+          nextVersion={history.versionNumber + 1}
+          action={amendRunAction}
+        />
+      ) : null}
     </section>
   );
 }

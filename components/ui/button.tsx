@@ -6,7 +6,8 @@ type Variant = "primary" | "quiet" | "danger";
 const STYLES: Record<Variant, string> = {
   primary: "bg-ember-600 text-white hover:bg-ember-700 disabled:bg-ember-300",
   quiet: "border border-[var(--line)] bg-[var(--panel)] hover:bg-ink-100 dark:hover:bg-ink-800",
-  danger: "border border-red-700 text-red-700 hover:bg-red-50 dark:text-red-300 dark:hover:bg-red-950",
+  danger:
+    "border border-red-700 text-red-700 hover:bg-red-50 dark:text-red-300 dark:hover:bg-red-950",
 };
 
 export function Button({

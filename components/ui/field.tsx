@@ -7,7 +7,12 @@ export function Field({
   errors,
   hint,
   ...input
-}: InputHTMLAttributes<HTMLInputElement> & { label: ReactNode; name: string; errors?: string[]; hint?: string }) {
+}: InputHTMLAttributes<HTMLInputElement> & {
+  label: ReactNode;
+  name: string;
+  errors?: string[];
+  hint?: string;
+}) {
   const errorId = `${name}-error`;
   const hintId = hint ? `${name}-hint` : undefined;
   return (
@@ -29,7 +34,9 @@ export function Field({
         </p>
       ) : null}
       <div id={errorId} aria-live="polite" className="text-xs text-red-700 dark:text-red-300">
-        {errors?.map((message) => <p key={message}>{message}</p>)}
+        {errors?.map((message) => (
+          <p key={message}>{message}</p>
+        ))}
       </div>
     </div>
   );

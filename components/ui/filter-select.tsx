@@ -20,7 +20,11 @@ export function FilterSelect({
       <label htmlFor={id} className="text-sm font-medium">
         {label}
       </label>
-      <select id={id} className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1.5 text-sm" {...select}>
+      <select
+        id={id}
+        className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1.5 text-sm"
+        {...select}
+      >
         <option value="">{anyLabel}</option>
         {options.map((o) => (
           <option key={o.value} value={o.value}>

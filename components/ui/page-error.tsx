@@ -12,7 +12,9 @@ export function PageError({ reset, unchanged }: { reset: () => void; unchanged: 
     let live = true;
     fetch("/api/health", { cache: "no-store" })
       .then(async (response) => {
-        const body = (await response.json().catch(() => null)) as { database?: { status?: string } } | null;
+        const body = (await response.json().catch(() => null)) as {
+          database?: { status?: string };
+        } | null;
         if (live) setCause(body?.database?.status === "unreachable" ? "database" : "other");
       })
       .catch(() => live && setCause("other"));
@@ -23,13 +25,19 @@ export function PageError({ reset, unchanged }: { reset: () => void; unchanged: 
   const database = cause === "database";
   return (
     <div role="alert" className="panel max-w-lg p-5" data-error-cause={cause}>
-      <h1 className="text-lg font-semibold">{database ? "The database is unreachable" : "This page could not be shown"}</h1>
+      <h1 className="text-lg font-semibold">
+        {database ? "The database is unreachable" : "This page could not be shown"}
+      </h1>
       <p className="muted mt-1 text-sm">
         {database
           ? `Emberline cannot reach its database at the moment, so this page cannot be read. ${unchanged} Try again in a few seconds.`
           : `Something went wrong on the server. ${unchanged}`}
       </p>
-      <button type="button" onClick={reset} className="mt-3 rounded bg-ember-600 px-3 py-1.5 text-sm text-white">
+      <button
+        type="button"
+        onClick={reset}
+        className="mt-3 rounded bg-ember-600 px-3 py-1.5 text-sm text-white"
+      >
         Try again
       </button>
     </div>

@@ -1,7 +1,15 @@
 // The title line of a workspace page, with room for actions on the right.
 import type { ReactNode } from "react";
 
-export function PageHeader({ title, description, actions }: { title: string; description?: string; actions?: ReactNode }) {
+export function PageHeader({
+  title,
+  description,
+  actions,
+}: {
+  title: string;
+  description?: string;
+  actions?: ReactNode;
+}) {
   return (
     <header className="mb-5 flex flex-wrap items-end justify-between gap-3 border-b border-[var(--line)] pb-3">
       <div>

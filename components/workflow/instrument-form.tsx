@@ -25,7 +25,8 @@ export interface InstrumentFormInitial {
   calibrated: boolean;
 }
 
-const LOCKED_INPUT = "rounded border border-[var(--line)] bg-ink-100 px-2 py-1.5 text-base opacity-60 dark:bg-ink-800";
+const LOCKED_INPUT =
+  "rounded border border-[var(--line)] bg-ink-100 px-2 py-1.5 text-base opacity-60 dark:bg-ink-800";
 
 const text = (value: number | string | null) => (value === null ? "" : String(value));
 
@@ -64,7 +65,12 @@ export function InstrumentForm({
   const locked = initial?.calibrated ?? false;
   const headingId = editing ? "edit-instrument" : "new-instrument";
   return (
-    <form action={formAction} className="panel flex flex-col gap-3 p-4" noValidate aria-labelledby={headingId}>
+    <form
+      action={formAction}
+      className="panel flex flex-col gap-3 p-4"
+      noValidate
+      aria-labelledby={headingId}
+    >
       <h2 id={headingId} className="text-lg font-semibold">
         {editing ? "Edit the instrument" : "Add an instrument"}
       </h2>
@@ -76,9 +82,13 @@ export function InstrumentForm({
         </>
       ) : null}
       {locked ? (
-        <p id="geometry-locked" className="rounded border border-[var(--line)] bg-ink-100 px-3 py-2 text-sm dark:bg-ink-800">
-          This instrument has calibrations, so its dispersion and pixel count are fixed: the calibrations and the runs
-          on them were made on that geometry. For a different array or dispersion, add a new instrument.
+        <p
+          id="geometry-locked"
+          className="rounded border border-[var(--line)] bg-ink-100 px-3 py-2 text-sm dark:bg-ink-800"
+        >
+          This instrument has calibrations, so its dispersion and pixel count are fixed: the
+          calibrations and the runs on them were made on that geometry. For a different array or
+          dispersion, add a new instrument.
         </p>
       ) : null}
       <div className="grid gap-3 sm:grid-cols-2">
@@ -100,7 +110,11 @@ export function InstrumentForm({
             <option value="grating">Grating (close to linear in pixel)</option>
             <option value="prism">Prism (strongly non-linear)</option>
           </select>
-          <div id="dispersion-error" aria-live="polite" className="text-xs text-red-700 dark:text-red-300">
+          <div
+            id="dispersion-error"
+            aria-live="polite"
+            className="text-xs text-red-700 dark:text-red-300"
+          >
             {e.dispersion?.join(" ")}
           </div>
         </div>
@@ -162,11 +176,21 @@ export function InstrumentForm({
                   </option>
                 ))}
               </select>
-              <div id="glass-error" aria-live="polite" className="text-xs text-red-700 dark:text-red-300">
+              <div
+                id="glass-error"
+                aria-live="polite"
+                className="text-xs text-red-700 dark:text-red-300"
+              >
                 {e.glass?.join(" ")}
               </div>
             </div>
-            <Field label="Apex angle (°, optional)" name="apexDeg" inputMode="decimal" defaultValue={v.apexDeg} errors={e.apexDeg} />
+            <Field
+              label="Apex angle (°, optional)"
+              name="apexDeg"
+              inputMode="decimal"
+              defaultValue={v.apexDeg}
+              errors={e.apexDeg}
+            />
           </>
         ) : null}
       </div>

@@ -18,7 +18,12 @@ export function NotebookForm({
     <form action={formAction} className="panel flex max-w-xl flex-col gap-3 p-4" noValidate>
       <h2 className="text-lg font-semibold">Open a notebook</h2>
       <input type="hidden" name="teamId" value={teamId} />
-      <Field label="Title" name="title" defaultValue={state.values?.title} errors={state.fieldErrors?.title} />
+      <Field
+        label="Title"
+        name="title"
+        defaultValue={state.values?.title}
+        errors={state.fieldErrors?.title}
+      />
       <FormMessage message={state.message} />
       <div>
         <Button type="submit" pending={pending}>

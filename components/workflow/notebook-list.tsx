@@ -13,7 +13,13 @@ import type { NotebookRecord, RunStatus } from "@/lib/services/workflow-types";
 
 const FILTER_KEYS = ["q"] as const;
 
-export function NotebookList({ teamId, fallback }: { teamId: string; fallback: Record<string, NotebookRecord[]> }) {
+export function NotebookList({
+  teamId,
+  fallback,
+}: {
+  teamId: string;
+  fallback: Record<string, NotebookRecord[]>;
+}) {
   return (
     <SWRConfig value={{ fallback }}>
       <NotebookTable teamId={teamId} />
@@ -36,9 +42,13 @@ function NotebookTable({ teamId }: { teamId: string }) {
     const timer = setTimeout(() => setFilters({ q: text }), 300);
     return () => clearTimeout(timer);
   }, [text, filters.q, setFilters]);
-  const { data, error, isLoading } = useSWR<NotebookRecord[]>(notebooksKey(teamId, filters.q), fetchJson, {
-    keepPreviousData: true,
-  });
+  const { data, error, isLoading } = useSWR<NotebookRecord[]>(
+    notebooksKey(teamId, filters.q),
+    fetchJson,
+    {
+      keepPreviousData: true,
+    },
+  );
 
   return (
     <section aria-labelledby="notebook-list" className="flex flex-col gap-3">
@@ -46,7 +56,12 @@ function NotebookTable({ teamId }: { teamId: string }) {
         <h2 id="notebook-list" className="text-lg font-semibold">
           The team&apos;s notebooks
         </h2>
-        <form role="search" aria-label="Search the notebooks" className="flex items-center gap-2" onSubmit={(e) => e.preventDefault()}>
+        <form
+          role="search"
+          aria-label="Search the notebooks"
+          className="flex items-center gap-2"
+          onSubmit={(e) => e.preventDefault()}
+        >
           <label htmlFor="notebook-search" className="text-sm">
             Search titles
           </label>
@@ -79,18 +94,24 @@ function NotebookTable({ teamId }: { teamId: string }) {
         </ul>
       ) : data.length === 0 ? (
         <p className="muted panel p-4 text-sm" data-testid="notebooks-empty">
-          {filters.q ? `No notebook title contains “${filters.q}”.` : "No notebooks yet: open the first one below."}
+          {filters.q
+            ? `No notebook title contains “${filters.q}”.`
+            : "No notebooks yet: open the first one below."}
         </p>
       ) : (
         <ul className="panel divide-y divide-[var(--line)]">
           {data.map((n) => (
-            <li key={n.id} className="flex flex-wrap items-baseline justify-between gap-3 px-3 py-2 text-sm">
+            <li
+              key={n.id}
+              className="flex flex-wrap items-baseline justify-between gap-3 px-3 py-2 text-sm"
+            >
               <Link href={`/notebooks/${n.id}`} className="font-medium underline">
                 {n.title}
               </Link>
               <span className="muted">
                 {n.runCount} {n.runCount === 1 ? "run" : "runs"}
-                {n.runCount ? ` (${statusLine(n)})` : ""} · last activity {n.lastActivityAt.slice(0, 10)} · opened {n.createdAt.slice(0, 10)}
+                {n.runCount ? ` (${statusLine(n)})` : ""} · last activity{" "}
+                {n.lastActivityAt.slice(0, 10)} · opened {n.createdAt.slice(0, 10)}
               </span>
             </li>
           ))}

@@ -14,7 +14,9 @@ const VERDICT = {
 export function VerdictBadge({ verdict }: { verdict: RunCall["verdict"] }) {
   const v = VERDICT[verdict];
   return (
-    <span className={`inline-flex items-center gap-1 rounded border px-1.5 text-xs font-semibold dark:brightness-150 ${v.tone}`}>
+    <span
+      className={`inline-flex items-center gap-1 rounded border px-1.5 text-xs font-semibold dark:brightness-150 ${v.tone}`}
+    >
       <span aria-hidden>{v.mark}</span>
       {v.label}
     </span>
@@ -28,12 +30,15 @@ export function OverrideNote({ call }: { call: RunCall }) {
   const o = call.override;
   if (!o) return null;
   return (
-    <p className="mt-2 rounded border border-dashed border-ember-600 px-2 py-1 text-xs" data-testid="override-note">
+    <p
+      className="mt-2 rounded border border-dashed border-ember-600 px-2 py-1 text-xs"
+      data-testid="override-note"
+    >
       <span className="font-semibold">
         <span aria-hidden>✎ </span>Overridden
       </span>{" "}
-      by {o.byName ?? "a former member"} on {o.at.slice(0, 16).replace("T", " ")} UTC: “{o.reason}” · computed verdict:{" "}
-      <VerdictBadge verdict={call.computedVerdict} />
+      by {o.byName ?? "a former member"} on {o.at.slice(0, 16).replace("T", " ")} UTC: “{o.reason}”
+      · computed verdict: <VerdictBadge verdict={call.computedVerdict} />
     </p>
   );
 }
@@ -46,15 +51,25 @@ export function CallEvidence({
   /** The override form of one call, when the viewer may override (the run's author, while editable). */
   overrideFormFor?: (call: RunCall) => ReactNode;
 }) {
-  if (calls.length === 0) return <p className="muted text-sm">No element was a candidate for any peak.</p>;
-  const sorted = [...calls].sort((a, b) => ORDER[a.verdict] - ORDER[b.verdict] || b.score - a.score);
+  if (calls.length === 0)
+    return <p className="muted text-sm">No element was a candidate for any peak.</p>;
+  const sorted = [...calls].sort(
+    (a, b) => ORDER[a.verdict] - ORDER[b.verdict] || b.score - a.score,
+  );
   const called = sorted.filter((c) => c.verdict !== "absent");
   const absent = sorted.filter((c) => c.verdict === "absent");
   return (
     <div className="flex flex-col gap-2" data-testid="calls">
-      {called.length === 0 ? <p className="muted text-sm">No element is called present or possible.</p> : null}
+      {called.length === 0 ? (
+        <p className="muted text-sm">No element is called present or possible.</p>
+      ) : null}
       {called.map((call) => (
-        <details key={call.species} open={call.verdict !== "absent"} className="panel p-3" data-testid="call">
+        <details
+          key={call.species}
+          open={call.verdict !== "absent"}
+          className="panel p-3"
+          data-testid="call"
+        >
           <summary className="flex cursor-pointer flex-wrap items-baseline gap-3">
             <span className="font-semibold" data-testid="call-species">
               {call.species}
@@ -68,8 +83,11 @@ export function CallEvidence({
             <span className="font-mono text-xs">score {call.score.toFixed(2)}</span>
             <span className="muted text-xs">
               {call.seenCount} seen
-              {call.seenPeaks !== undefined && call.seenPeaks < call.seenCount ? ` at ${call.seenPeaks} peak${call.seenPeaks === 1 ? "" : "s"}` : ""} ·{" "}
-              {call.missingCount} missing ({call.missingStrongCount} strong) · intensities: {call.intensityBasis}
+              {call.seenPeaks !== undefined && call.seenPeaks < call.seenCount
+                ? ` at ${call.seenPeaks} peak${call.seenPeaks === 1 ? "" : "s"}`
+                : ""}{" "}
+              · {call.missingCount} missing ({call.missingStrongCount} strong) · intensities:{" "}
+              {call.intensityBasis}
             </span>
           </summary>
           <p className="mt-2 text-sm">{call.rationale}</p>
@@ -79,9 +97,15 @@ export function CallEvidence({
               <caption className="text-left text-xs font-semibold">Lines seen</caption>
               <thead className="text-left text-xs">
                 <tr>
-                  <th scope="col" className="pr-3">Line (nm)</th>
-                  <th scope="col" className="pr-3">Peak (nm)</th>
-                  <th scope="col" className="pr-3">Δλ (nm)</th>
+                  <th scope="col" className="pr-3">
+                    Line (nm)
+                  </th>
+                  <th scope="col" className="pr-3">
+                    Peak (nm)
+                  </th>
+                  <th scope="col" className="pr-3">
+                    Δλ (nm)
+                  </th>
                   <th scope="col">Rel. int.</th>
                 </tr>
               </thead>
@@ -99,13 +123,19 @@ export function CallEvidence({
                       <td className="pr-3">
                         {i > 0 && call.lines[i - 1].peakNm === l.peakNm ? (
                           <span className="font-sans" data-testid="same-peak">
-                            ↳ same peak <span className="sr-only">(blended with the line above: one piece of evidence)</span>
+                            ↳ same peak{" "}
+                            <span className="sr-only">
+                              (blended with the line above: one piece of evidence)
+                            </span>
                           </span>
                         ) : (
                           l.peakNm.toFixed(3)
                         )}
                       </td>
-                      <td className="pr-3">{l.deltaNm >= 0 ? "+" : ""}{l.deltaNm.toFixed(3)}</td>
+                      <td className="pr-3">
+                        {l.deltaNm >= 0 ? "+" : ""}
+                        {l.deltaNm.toFixed(3)}
+                      </td>
                       <td>{l.relativeIntensity ?? "—"}</td>
                     </tr>
                   ))
@@ -116,8 +146,12 @@ export function CallEvidence({
               <caption className="text-left text-xs font-semibold">Expected but missing</caption>
               <thead className="text-left text-xs">
                 <tr>
-                  <th scope="col" className="pr-3">Line (nm)</th>
-                  <th scope="col" className="pr-3">Rel. int.</th>
+                  <th scope="col" className="pr-3">
+                    Line (nm)
+                  </th>
+                  <th scope="col" className="pr-3">
+                    Rel. int.
+                  </th>
                   <th scope="col">Note</th>
                 </tr>
               </thead>
@@ -134,7 +168,11 @@ export function CallEvidence({
                       <td className="pr-3">{m.lineNm.toFixed(3)}</td>
                       <td className="pr-3">{m.relativeIntensity}</td>
                       <td className="font-sans">
-                        {m.hidden ? "under another peak" : m.predictedSnr !== null ? `predicted SNR ${m.predictedSnr.toFixed(1)}` : ""}
+                        {m.hidden
+                          ? "under another peak"
+                          : m.predictedSnr !== null
+                            ? `predicted SNR ${m.predictedSnr.toFixed(1)}`
+                            : ""}
                       </td>
                     </tr>
                   ))
@@ -145,7 +183,9 @@ export function CallEvidence({
           {call.overlaps.length > 0 ? (
             <p className="mt-2 text-xs">
               Overlaps:{" "}
-              {call.overlaps.map((o) => `${o.peakNm.toFixed(2)} nm shared with ${o.otherSpecies.join(", ")}`).join("; ")}
+              {call.overlaps
+                .map((o) => `${o.peakNm.toFixed(2)} nm shared with ${o.otherSpecies.join(", ")}`)
+                .join("; ")}
             </p>
           ) : null}
           {call.notes.length > 0 ? (
@@ -164,23 +204,39 @@ export function CallEvidence({
 }
 
 /** Species weighed and called absent: one compact table, since most of a table's elements end here. */
-function AbsentCalls({ calls, overrideFormFor }: { calls: RunCall[]; overrideFormFor?: (call: RunCall) => ReactNode }) {
+function AbsentCalls({
+  calls,
+  overrideFormFor,
+}: {
+  calls: RunCall[];
+  overrideFormFor?: (call: RunCall) => ReactNode;
+}) {
   return (
     <details className="panel p-3" data-testid="absent-calls">
       <summary className="cursor-pointer text-sm">
-        <VerdictBadge verdict="absent" /> <span className="font-semibold">{calls.length} species called absent</span>{" "}
+        <VerdictBadge verdict="absent" />{" "}
+        <span className="font-semibold">{calls.length} species called absent</span>{" "}
         <span className="muted text-xs">{calls.map((c) => c.species).join(", ")}</span>
       </summary>
       <table className="mt-2 w-full text-sm">
         <caption className="sr-only">Species called absent</caption>
         <thead className="text-left text-xs">
           <tr>
-            <th scope="col" className="pr-3">Species</th>
-            <th scope="col" className="pr-3 text-right">Score</th>
-            <th scope="col" className="pr-3 text-right">Lines seen</th>
-            <th scope="col" className="pr-3 text-right">Strong lines missing</th>
             <th scope="col" className="pr-3">
-              Detection limit <span className="sr-only">(least height its strongest line needed to be found)</span>
+              Species
+            </th>
+            <th scope="col" className="pr-3 text-right">
+              Score
+            </th>
+            <th scope="col" className="pr-3 text-right">
+              Lines seen
+            </th>
+            <th scope="col" className="pr-3 text-right">
+              Strong lines missing
+            </th>
+            <th scope="col" className="pr-3">
+              Detection limit{" "}
+              <span className="sr-only">(least height its strongest line needed to be found)</span>
             </th>
             <th scope="col">Why</th>
           </tr>
@@ -190,7 +246,11 @@ function AbsentCalls({ calls, overrideFormFor }: { calls: RunCall[]; overrideFor
             <tr key={c.species} className="border-t border-[var(--line)]">
               <td className="pr-3 font-semibold">
                 {c.species}
-                {c.override ? <span className="block font-normal text-ember-800 dark:text-ember-200">✎ overridden (computed: {c.computedVerdict})</span> : null}
+                {c.override ? (
+                  <span className="block font-normal text-ember-800 dark:text-ember-200">
+                    ✎ overridden (computed: {c.computedVerdict})
+                  </span>
+                ) : null}
               </td>
               <td className="pr-3 text-right font-mono">{c.score.toFixed(2)}</td>
               <td className="pr-3 text-right font-mono">{c.seenCount}</td>
@@ -218,12 +278,24 @@ export function PeakTable({ peaks }: { peaks: RunPeak[] }) {
         <caption className="sr-only">Peaks found in the sample</caption>
         <thead className="sticky top-0 border-b border-[var(--line)] bg-[var(--panel)] text-left">
           <tr>
-            <th scope="col" className="px-3 py-1.5 text-right">λ (nm)</th>
-            <th scope="col" className="px-3 py-1.5 text-right">± (nm)</th>
-            <th scope="col" className="px-3 py-1.5 text-right">FWHM (nm)</th>
-            <th scope="col" className="px-3 py-1.5 text-right">Height</th>
-            <th scope="col" className="px-3 py-1.5 text-right">SNR</th>
-            <th scope="col" className="px-3 py-1.5">Flags</th>
+            <th scope="col" className="px-3 py-1.5 text-right">
+              λ (nm)
+            </th>
+            <th scope="col" className="px-3 py-1.5 text-right">
+              ± (nm)
+            </th>
+            <th scope="col" className="px-3 py-1.5 text-right">
+              FWHM (nm)
+            </th>
+            <th scope="col" className="px-3 py-1.5 text-right">
+              Height
+            </th>
+            <th scope="col" className="px-3 py-1.5 text-right">
+              SNR
+            </th>
+            <th scope="col" className="px-3 py-1.5">
+              Flags
+            </th>
           </tr>
         </thead>
         <tbody className="font-mono text-xs">
@@ -234,7 +306,11 @@ export function PeakTable({ peaks }: { peaks: RunPeak[] }) {
               <td className="px-3 py-1 text-right">{p.fwhmNm.toFixed(2)}</td>
               <td className="px-3 py-1 text-right">{p.height.toFixed(0)}</td>
               <td className="px-3 py-1 text-right">{p.snr.toFixed(1)}</td>
-              <td className="px-3 py-1 font-sans">{[p.saturated ? "saturated" : "", p.blended ? "blended" : ""].filter(Boolean).join(", ")}</td>
+              <td className="px-3 py-1 font-sans">
+                {[p.saturated ? "saturated" : "", p.blended ? "blended" : ""]
+                  .filter(Boolean)
+                  .join(", ")}
+              </td>
             </tr>
           ))}
         </tbody>

@@ -77,18 +77,33 @@ function RunFormFields({
   const [state, formAction, pending] = useActionState(action, initialFormState);
   const [source, setSource] = useState(state.values?.source ?? "flame");
   const [instrumentId, setInstrumentId] = useState(initialInstrumentId);
-  const [chosenSpectrumId, setSpectrumId] = useState(state.values?.spectrumId ?? initialSpectrumId ?? "");
-  const spectra = useSWR<SpectrumSummary[]>(instrumentId ? spectraKey(teamId, instrumentId, "sample") : null, fetchJson);
-  const instrument = useSWR<InstrumentWithCalibrations>(instrumentId ? `/api/instruments/${instrumentId}` : null, fetchJson);
+  const [chosenSpectrumId, setSpectrumId] = useState(
+    state.values?.spectrumId ?? initialSpectrumId ?? "",
+  );
+  const spectra = useSWR<SpectrumSummary[]>(
+    instrumentId ? spectraKey(teamId, instrumentId, "sample") : null,
+    fetchJson,
+  );
+  const instrument = useSWR<InstrumentWithCalibrations>(
+    instrumentId ? `/api/instruments/${instrumentId}` : null,
+    fetchJson,
+  );
   const samples = spectra.data ?? [];
   const sample = samples.find((s) => s.id === chosenSpectrumId) ?? samples[0];
   const calibrations = instrument.data?.calibrations ?? [];
   const allowOwnAxis = sample ? sample.xUnit !== "pixel" : false;
-  const needsCalibration = sample?.xUnit === "pixel" && instrument.data !== undefined && calibrations.length === 0;
-  const loading = (spectra.isLoading && !spectra.data) || (instrument.isLoading && !instrument.data);
+  const needsCalibration =
+    sample?.xUnit === "pixel" && instrument.data !== undefined && calibrations.length === 0;
+  const loading =
+    (spectra.isLoading && !spectra.data) || (instrument.isLoading && !instrument.data);
   const e = state.fieldErrors ?? {};
   return (
-    <form action={formAction} className="panel flex max-w-3xl flex-col gap-4 p-4" noValidate aria-labelledby="new-run">
+    <form
+      action={formAction}
+      className="panel flex max-w-3xl flex-col gap-4 p-4"
+      noValidate
+      aria-labelledby="new-run"
+    >
       <h2 id="new-run" className="text-lg font-semibold">
         New run
       </h2>
@@ -128,20 +143,29 @@ function RunFormFields({
             aria-busy={spectra.isLoading || undefined}
             className={selectClass}
           >
-            {samples.length === 0 ? <option value="">{loading ? "Loading the samples…" : "No sample spectra yet"}</option> : null}
+            {samples.length === 0 ? (
+              <option value="">{loading ? "Loading the samples…" : "No sample spectra yet"}</option>
+            ) : null}
             {samples.map((s) => (
               <option key={s.id} value={s.id}>
                 {spectrumLabel(s)}
               </option>
             ))}
           </select>
-          <div id="spectrumId-error" aria-live="polite" className="text-xs text-red-700 dark:text-red-300">
+          <div
+            id="spectrumId-error"
+            aria-live="polite"
+            className="text-xs text-red-700 dark:text-red-300"
+          >
             {e.spectrumId?.join(" ")}
             {spectra.error ? spectra.error.message : null}
           </div>
           {!loading && samples.length === 0 ? (
             <p className="muted text-xs">
-              <Link href={`/instruments/${instrumentId}/upload?kind=sample&notebook=${notebookId}`} className="underline">
+              <Link
+                href={`/instruments/${instrumentId}/upload?kind=sample&notebook=${notebookId}`}
+                className="underline"
+              >
                 Upload a sample on this instrument
               </Link>{" "}
               first.
@@ -166,10 +190,18 @@ function RunFormFields({
                 {i === 0 ? " (newest)" : ""}
               </option>
             ))}
-            {allowOwnAxis ? <option value="">None: the file&apos;s own wavelength axis (not lamp-checked)</option> : null}
-            {!allowOwnAxis && calibrations.length === 0 ? <option value="">No calibration yet</option> : null}
+            {allowOwnAxis ? (
+              <option value="">None: the file&apos;s own wavelength axis (not lamp-checked)</option>
+            ) : null}
+            {!allowOwnAxis && calibrations.length === 0 ? (
+              <option value="">No calibration yet</option>
+            ) : null}
           </select>
-          <div id="calibrationId-error" aria-live="polite" className="text-xs text-red-700 dark:text-red-300">
+          <div
+            id="calibrationId-error"
+            aria-live="polite"
+            className="text-xs text-red-700 dark:text-red-300"
+          >
             {e.calibrationId?.join(" ")}
             {needsCalibration ? (
               <span className="text-[var(--text)]">
@@ -200,17 +232,35 @@ function RunFormFields({
               </option>
             ))}
           </select>
-          <div id="source-error" aria-live="polite" className="text-xs text-red-700 dark:text-red-300">
+          <div
+            id="source-error"
+            aria-live="polite"
+            className="text-xs text-red-700 dark:text-red-300"
+          >
             {e.source?.join(" ")}
           </div>
         </div>
       </div>
       {source === "flame" ? <FlameCautions /> : null}
       <details>
-        <summary className="cursor-pointer text-sm font-medium">Analysis settings (optional; blank keeps the defaults)</summary>
+        <summary className="cursor-pointer text-sm font-medium">
+          Analysis settings (optional; blank keeps the defaults)
+        </summary>
         <div className="mt-3 grid gap-3 sm:grid-cols-3">
-          <Field label="Minimum SNR of a peak" name="minSnr" inputMode="decimal" defaultValue={state.values?.minSnr} errors={e["settings.minSnr"]} />
-          <Field label="Match tolerance k (σ)" name="k" inputMode="decimal" defaultValue={state.values?.k} errors={e["settings.k"]} />
+          <Field
+            label="Minimum SNR of a peak"
+            name="minSnr"
+            inputMode="decimal"
+            defaultValue={state.values?.minSnr}
+            errors={e["settings.minSnr"]}
+          />
+          <Field
+            label="Match tolerance k (σ)"
+            name="k"
+            inputMode="decimal"
+            defaultValue={state.values?.k}
+            errors={e["settings.k"]}
+          />
           <Field
             label="Excitation temperature (K)"
             name="temperatureK"

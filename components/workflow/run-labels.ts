@@ -10,7 +10,12 @@ export function runChartLabels(calls: readonly RunCall[]): LineLabel[] {
     for (const l of c.lines) {
       const key = l.peakNm.toFixed(3);
       const label = byPeak.get(key);
-      if (!label) byPeak.set(key, { peakNm: l.peakNm, species: c.species, verdict: c.verdict as LineLabel["verdict"] });
+      if (!label)
+        byPeak.set(key, {
+          peakNm: l.peakNm,
+          species: c.species,
+          verdict: c.verdict as LineLabel["verdict"],
+        });
       else if (!label.species.split("<br>").includes(c.species)) {
         label.species += `<br>${c.species}`;
         if (c.verdict === "present") label.verdict = "present";

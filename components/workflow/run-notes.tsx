@@ -32,7 +32,13 @@ export function RunNotes({
   }
   const dirty = text !== savedNotes;
   return (
-    <form ref={form} action={formAction} className="flex max-w-3xl flex-col gap-2" aria-label="Run notes" data-testid="notes-form">
+    <form
+      ref={form}
+      action={formAction}
+      className="flex max-w-3xl flex-col gap-2"
+      aria-label="Run notes"
+      data-testid="notes-form"
+    >
       <input type="hidden" name="lockVersion" value={version} />
       <label htmlFor="run-notes" className="sr-only">
         Notes
@@ -56,7 +62,13 @@ export function RunNotes({
         <Button type="submit" variant="quiet" pending={pending} disabled={!dirty}>
           {pending ? "Saving…" : "Save notes"}
         </Button>
-        <span id="run-notes-hint" className="muted text-xs" role="status" aria-live="polite" data-testid="notes-status">
+        <span
+          id="run-notes-hint"
+          className="muted text-xs"
+          role="status"
+          aria-live="polite"
+          data-testid="notes-status"
+        >
           {pending ? "Saving…" : dirty ? "Unsaved changes · Ctrl+Enter saves" : "Saved"}
         </span>
       </div>

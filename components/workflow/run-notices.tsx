@@ -4,7 +4,8 @@ import type { RunRecord } from "@/lib/services/workflow-types";
 export function ScreeningNotice() {
   return (
     <p className="muted text-sm" data-testid="screening-notice">
-      A screening aid, not a certified analysis. Confirmation by an accredited method is the lab&apos;s decision.
+      A screening aid, not a certified analysis. Confirmation by an accredited method is the
+      lab&apos;s decision.
     </p>
   );
 }
@@ -19,12 +20,19 @@ export function FlameCautions() {
         <span aria-hidden>⚠ </span>Flame test cautions
       </p>
       <ul className="mt-1 list-disc pl-5">
-        <li>An open flame: keep flammable solvents (ethanol, methanol, acetone) capped and away from it.</li>
         <li>
-          Many test salts are toxic: barium, thallium, copper and strontium compounds among them. Wear gloves and eye
-          protection, work in a fume hood, and dispose of residues as your lab requires.
+          An open flame: keep flammable solvents (ethanol, methanol, acetone) capped and away from
+          it.
         </li>
-        <li>Follow your lab&apos;s own safety rules and local regulations; they take precedence over this note.</li>
+        <li>
+          Many test salts are toxic: barium, thallium, copper and strontium compounds among them.
+          Wear gloves and eye protection, work in a fume hood, and dispose of residues as your lab
+          requires.
+        </li>
+        <li>
+          Follow your lab&apos;s own safety rules and local regulations; they take precedence over
+          this note.
+        </li>
       </ul>
     </aside>
   );
@@ -44,7 +52,9 @@ export function RunNotices({
   coveredRangeNm: [number, number] | null;
   children?: React.ReactNode;
 }) {
-  const outside = coveredRangeNm !== null && (run.rangeNm[0] < coveredRangeNm[0] - 1e-9 || run.rangeNm[1] > coveredRangeNm[1] + 1e-9);
+  const outside =
+    coveredRangeNm !== null &&
+    (run.rangeNm[0] < coveredRangeNm[0] - 1e-9 || run.rangeNm[1] > coveredRangeNm[1] + 1e-9);
   const warnings = run.warnings.filter((w) => !(outside && w.code === "outside-covered-range"));
   return (
     <div className="mb-3 flex flex-col gap-2">
@@ -58,9 +68,14 @@ export function RunNotices({
         </p>
       ) : null}
       {outside ? (
-        <p role="alert" className="rounded border border-ember-600 p-2 text-sm" data-testid="range-warning">
-          <span aria-hidden>⚠ </span>The sample spans {run.rangeNm[0].toFixed(1)}–{run.rangeNm[1].toFixed(1)} nm, past the calibrated range{" "}
-          {coveredRangeNm[0].toFixed(1)}–{coveredRangeNm[1].toFixed(1)} nm: wavelengths outside it are extrapolated.
+        <p
+          role="alert"
+          className="rounded border border-ember-600 p-2 text-sm"
+          data-testid="range-warning"
+        >
+          <span aria-hidden>⚠ </span>The sample spans {run.rangeNm[0].toFixed(1)}–
+          {run.rangeNm[1].toFixed(1)} nm, past the calibrated range {coveredRangeNm[0].toFixed(1)}–
+          {coveredRangeNm[1].toFixed(1)} nm: wavelengths outside it are extrapolated.
         </p>
       ) : null}
       {warnings.length > 0 ? (

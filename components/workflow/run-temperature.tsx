@@ -3,11 +3,21 @@
 import { BoltzmannChart } from "@/components/charts/spectrum-charts";
 import type { RunTemperature } from "@/lib/services/workflow-types";
 
-export function RunTemperaturePanel({ temperature, assumedK }: { temperature: RunTemperature | null; assumedK?: number }) {
+export function RunTemperaturePanel({
+  temperature,
+  assumedK,
+}: {
+  temperature: RunTemperature | null;
+  assumedK?: number;
+}) {
   const assumed = assumedK ? (
-    <p className="muted text-xs">Expected intensities assumed an excitation temperature of {assumedK} K where the table has g, A and upper energies.</p>
+    <p className="muted text-xs">
+      Expected intensities assumed an excitation temperature of {assumedK} K where the table has g,
+      A and upper energies.
+    </p>
   ) : null;
-  if (!temperature) return <p className="muted text-sm">This run was stored before temperatures were computed.</p>;
+  if (!temperature)
+    return <p className="muted text-sm">This run was stored before temperatures were computed.</p>;
   if (!temperature.ok) {
     return (
       <div className="flex flex-col gap-1" data-testid="temperature">
@@ -21,15 +31,18 @@ export function RunTemperaturePanel({ temperature, assumedK }: { temperature: Ru
       <div className="flex flex-col gap-1 text-sm">
         <p className="text-base">
           <span className="font-semibold font-mono">
-            {Math.round(temperature.temperatureK)} ± {Math.round(temperature.temperatureUncertaintyK)} K
+            {Math.round(temperature.temperatureK)} ±{" "}
+            {Math.round(temperature.temperatureUncertaintyK)} K
           </span>
         </p>
         <p>
-          From {temperature.lineCount} lines of {temperature.species} · R² {temperature.rSquared.toFixed(3)}
+          From {temperature.lineCount} lines of {temperature.species} · R²{" "}
+          {temperature.rSquared.toFixed(3)}
         </p>
         <p className="muted text-xs">
-          A Boltzmann plot of the peaks&apos; areas with the table&apos;s g, A and upper-level energies; it assumes local thermodynamic
-          equilibrium and an optically thin source, and σ comes from the slope&apos;s standard error only.
+          A Boltzmann plot of the peaks&apos; areas with the table&apos;s g, A and upper-level
+          energies; it assumes local thermodynamic equilibrium and an optically thin source, and σ
+          comes from the slope&apos;s standard error only.
         </p>
         {assumed}
       </div>

@@ -33,7 +33,10 @@ export async function rawSeries(actor: Actor, spectrumId: string): Promise<Spect
 }
 
 /** A run's sample on the axis the run used, with the continuum it removed, thinned for the browser. */
-export async function runSeries(actor: Actor, runId: string): Promise<{ spectrum: SpectrumSeries; continuum: number[] | null }> {
+export async function runSeries(
+  actor: Actor,
+  runId: string,
+): Promise<{ spectrum: SpectrumSeries; continuum: number[] | null }> {
   const { wavelengthNm, counts, continuum } = await orNotFound(fetchRunSpectrum(actor, runId));
   const thin = thinSeries(wavelengthNm, counts, continuum ? { continuum } : {});
   return { spectrum: { x: thin.x, y: thin.y }, continuum: thin.companions.continuum ?? null };

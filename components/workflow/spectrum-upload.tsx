@@ -28,7 +28,8 @@ interface ErrorReply {
 
 function describeRejection(rejection: FileRejection, maxBytes: number): string {
   const tooLarge = rejection.errors.some((e) => e.code === "file-too-large");
-  if (tooLarge) return `${rejection.file.name} is ${rejection.file.size} bytes; files of up to ${maxBytes} bytes are accepted.`;
+  if (tooLarge)
+    return `${rejection.file.name} is ${rejection.file.size} bytes; files of up to ${maxBytes} bytes are accepted.`;
   return rejection.errors.map((e) => e.message).join(" ");
 }
 
@@ -71,7 +72,12 @@ export function SpectrumUpload({
 
   /** Sends the file as multipart to `path` with the progress reported; one request at a time. */
   const send = useCallback(
-    (path: string, file: File, onProgress: (percent: number) => void, onDone: (status: number, body: unknown) => void) => {
+    (
+      path: string,
+      file: File,
+      onProgress: (percent: number) => void,
+      onDone: (status: number, body: unknown) => void,
+    ) => {
       request.current?.abort();
       const form = new FormData();
       form.set("file", file);
@@ -104,15 +110,23 @@ export function SpectrumUpload({
       send(
         "/api/spectra/preview",
         file,
-        (percent) => setPhase((p) => (p.step === "checking" && p.file === file ? { ...p, percent } : p)),
+        (percent) =>
+          setPhase((p) => (p.step === "checking" && p.file === file ? { ...p, percent } : p)),
         (status, body) => {
           if (status === 200 && body) {
             setPhase({ step: "preview", file, preview: body as SpectrumPreview });
             return;
           }
           const { message, detail } =
-            status === 0 ? { message: "The connection failed while the file was checked.", detail: [] } : failure(status, body as ErrorReply);
-          setPhase({ step: "failed", file, message: `${sentence(message)} Nothing was stored.`, detail });
+            status === 0
+              ? { message: "The connection failed while the file was checked.", detail: [] }
+              : failure(status, body as ErrorReply);
+          setPhase({
+            step: "failed",
+            file,
+            message: `${sentence(message)} Nothing was stored.`,
+            detail,
+          });
         },
       );
     },
@@ -134,8 +148,15 @@ export function SpectrumUpload({
           return;
         }
         const { message, detail } =
-          status === 0 ? { message: "The connection failed during the upload.", detail: [] } : failure(status, body as ErrorReply);
-        setPhase({ step: "failed", file, message: `${sentence(message)} Nothing was stored.`, detail });
+          status === 0
+            ? { message: "The connection failed during the upload.", detail: [] }
+            : failure(status, body as ErrorReply);
+        setPhase({
+          step: "failed",
+          file,
+          message: `${sentence(message)} Nothing was stored.`,
+          detail,
+        });
       },
     );
   }
@@ -184,8 +205,16 @@ export function SpectrumUpload({
         <legend className="mb-1 text-sm font-medium">Kind of spectrum</legend>
         {(["lamp", "sample"] as const).map((value) => (
           <label key={value} className="flex items-center gap-1.5">
-            <input type="radio" name="kind" value={value} checked={kind === value} onChange={() => setKind(value)} />
-            {value === "lamp" ? "Reference lamp (for a calibration)" : "Sample (for an identification run)"}
+            <input
+              type="radio"
+              name="kind"
+              value={value}
+              checked={kind === value}
+              onChange={() => setKind(value)}
+            />
+            {value === "lamp"
+              ? "Reference lamp (for a calibration)"
+              : "Sample (for an identification run)"}
           </label>
         ))}
       </fieldset>
@@ -203,8 +232,17 @@ export function SpectrumUpload({
       </div>
 
       {showingPreview ? (
-        <section aria-labelledby="upload-preview-heading" data-testid="upload-preview" className="flex flex-col gap-3">
-          <h2 id="upload-preview-heading" ref={previewHeading} tabIndex={-1} className="text-base font-semibold outline-none">
+        <section
+          aria-labelledby="upload-preview-heading"
+          data-testid="upload-preview"
+          className="flex flex-col gap-3"
+        >
+          <h2
+            id="upload-preview-heading"
+            ref={previewHeading}
+            tabIndex={-1}
+            className="text-base font-semibold outline-none"
+          >
             Preview of {phase.preview.fileName} — not stored yet
           </h2>
           {phase.preview.duplicateOf ? (
@@ -213,8 +251,10 @@ export function SpectrumUpload({
               data-testid="duplicate-warning"
               className="rounded border border-ember-600 bg-ember-50 p-2 text-sm text-ember-900 dark:bg-ink-800 dark:text-ember-100"
             >
-              <span aria-hidden>⚠ </span>The same file (same SHA-256) was uploaded before as {phase.preview.duplicateOf.fileName} on{" "}
-              {phase.preview.duplicateOf.uploadedAt.slice(0, 10)}. Storing it again keeps both copies.
+              <span aria-hidden>⚠ </span>The same file (same SHA-256) was uploaded before as{" "}
+              {phase.preview.duplicateOf.fileName} on{" "}
+              {phase.preview.duplicateOf.uploadedAt.slice(0, 10)}. Storing it again keeps both
+              copies.
             </p>
           ) : null}
           {phase.preview.warnings.map((warning) => (
@@ -228,7 +268,10 @@ export function SpectrumUpload({
               {warning}
             </p>
           ))}
-          <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm" data-testid="preview-facts">
+          <dl
+            className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm"
+            data-testid="preview-facts"
+          >
             <dt className="muted">Points</dt>
             <dd>{phase.preview.points.toLocaleString("en")}</dd>
             <dt className="muted">{xTitles[phase.preview.xUnit]}</dt>
@@ -248,8 +291,9 @@ export function SpectrumUpload({
           <PreviewChart spectrum={phase.preview.series} xTitle={xTitles[phase.preview.xUnit]} />
           {phase.preview.series.x.length < phase.preview.points ? (
             <p className="muted text-xs">
-              The plot shows {phase.preview.series.x.length.toLocaleString("en")} of the points (each stretch&apos;s lowest and highest);
-              all {phase.preview.points.toLocaleString("en")} are stored.
+              The plot shows {phase.preview.series.x.length.toLocaleString("en")} of the points
+              (each stretch&apos;s lowest and highest); all{" "}
+              {phase.preview.points.toLocaleString("en")} are stored.
             </p>
           ) : null}
           <div className="flex flex-wrap items-center gap-3">
@@ -261,7 +305,12 @@ export function SpectrumUpload({
             </Button>
             {phase.step === "storing" ? (
               <div className="flex items-center gap-2 text-sm">
-                <progress max={100} value={phase.percent} aria-label="Upload progress" className="w-48" />
+                <progress
+                  max={100}
+                  value={phase.percent}
+                  aria-label="Upload progress"
+                  className="w-48"
+                />
                 <span>{phase.percent}% sent</span>
               </div>
             ) : null}
@@ -279,16 +328,33 @@ export function SpectrumUpload({
         >
           <input {...getInputProps()} aria-label="Spectrum file" />
           <p>{isDragActive ? "Drop the file to check it" : "Drag a spectrum file here, or"}</p>
-          <Button type="button" variant="quiet" onClick={open} id="choose-spectrum-file" disabled={phase.step === "checking"}>
+          <Button
+            type="button"
+            variant="quiet"
+            onClick={open}
+            id="choose-spectrum-file"
+            disabled={phase.step === "checking"}
+          >
             Choose a file…
           </Button>
           <p className="muted text-xs" data-testid="chosen-file" aria-live="polite">
-            {file ? `Selected: ${file.name} (${file.size.toLocaleString("en")} bytes)` : "No file selected."}
+            {file
+              ? `Selected: ${file.name} (${file.size.toLocaleString("en")} bytes)`
+              : "No file selected."}
           </p>
           {phase.step === "checking" ? (
             <div className="flex items-center gap-2 text-sm">
-              <progress max={100} value={phase.percent} aria-label="Upload progress" className="w-48" />
-              <span>{phase.percent < 100 ? `${phase.percent}% sent for the preview` : "Checking the file…"}</span>
+              <progress
+                max={100}
+                value={phase.percent}
+                aria-label="Upload progress"
+                className="w-48"
+              />
+              <span>
+                {phase.percent < 100
+                  ? `${phase.percent}% sent for the preview`
+                  : "Checking the file…"}
+              </span>
             </div>
           ) : (
             <p className="muted text-xs">You see a preview before anything is stored.</p>

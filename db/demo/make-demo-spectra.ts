@@ -5,11 +5,17 @@
 // Run: npx tsx db/demo/make-demo-spectra.ts
 import fs from "node:fs";
 import path from "node:path";
-import { flameFile, lampFile, syntheticGrating, syntheticPrism } from "../../tests/integration/support/synthetic-files";
+import {
+  flameFile,
+  lampFile,
+  syntheticGrating,
+  syntheticPrism,
+} from "../../tests/integration/support/synthetic-files";
 
 const grating = syntheticGrating();
 const prism = syntheticPrism();
-const gratingHeader = "# Emberline demo spectrum (synthetic, invented for the demo): Bench grating, 2048 px, 350–900 nm\n";
+const gratingHeader =
+  "# Emberline demo spectrum (synthetic, invented for the demo): Bench grating, 2048 px, 350–900 nm\n";
 const prismHeader = `# Emberline demo spectrum (synthetic, invented for the demo): Bench prism, F2 60°, 2048 px, ${prism.nominalRangeNm.join("–")} nm\n`;
 const files: [string, string][] = [
   ["bench-grating-lamp-hg-ar.csv", gratingHeader + lampFile(grating, 3)],

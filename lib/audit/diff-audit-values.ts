@@ -47,9 +47,14 @@ function join(path: string, key: string | number): string {
  * key by key, arrays index by index; a value that turns from an object into a number is one change at
  * its path. Key order: before's keys, then keys only after has.
  */
-export function diffAuditValues(before: unknown, after: unknown, options: DiffAuditValuesOptions = {}): AuditChange[] {
+export function diffAuditValues(
+  before: unknown,
+  after: unknown,
+  options: DiffAuditValuesOptions = {},
+): AuditChange[] {
   const maxChanges = options.maxChanges ?? 500;
-  if (!Number.isInteger(maxChanges) || maxChanges < 1) throw new RangeError("maxChanges must be a positive integer");
+  if (!Number.isInteger(maxChanges) || maxChanges < 1)
+    throw new RangeError("maxChanges must be a positive integer");
   if (before === null || before === undefined || after === null || after === undefined) return [];
   const changes: AuditChange[] = [];
   const walk = (b: unknown, a: unknown, path: string): void => {
@@ -62,7 +67,8 @@ export function diffAuditValues(before: unknown, after: unknown, options: DiffAu
     }
     if (isObject(b) && isObject(a)) {
       const keys = [...Object.keys(b), ...Object.keys(a).filter((k) => !Object.hasOwn(b, k))];
-      for (const key of keys) visit(Object.hasOwn(b, key), b[key], Object.hasOwn(a, key), a[key], join(path, key));
+      for (const key of keys)
+        visit(Object.hasOwn(b, key), b[key], Object.hasOwn(a, key), a[key], join(path, key));
       return;
     }
     if (!sameValue(b, a)) changes.push({ path, kind: "changed", before: b, after: a });
@@ -95,7 +101,8 @@ export function flattenAuditValue(value: unknown, limit = 300): AuditLeaf[] {
   const walk = (v: unknown, path: string): void => {
     if (leaves.length >= limit) return;
     if (Array.isArray(v) && v.length > 0) v.forEach((item, i) => walk(item, join(path, i)));
-    else if (isObject(v) && Object.keys(v).length > 0) for (const [k, item] of Object.entries(v)) walk(item, join(path, k));
+    else if (isObject(v) && Object.keys(v).length > 0)
+      for (const [k, item] of Object.entries(v)) walk(item, join(path, k));
     else leaves.push({ path, value: v });
   };
   if (value !== null && value !== undefined) walk(value, "");

@@ -3,7 +3,12 @@ import argon2 from "argon2";
 
 // OWASP Password Storage Cheat Sheet: argon2id with at least 19 MiB memory, 2 iterations,
 // parallelism 1. We use 64 MiB and 3 iterations.
-const HASH_OPTIONS = { type: argon2.argon2id, memoryCost: 65_536, timeCost: 3, parallelism: 1 } as const;
+const HASH_OPTIONS = {
+  type: argon2.argon2id,
+  memoryCost: 65_536,
+  timeCost: 3,
+  parallelism: 1,
+} as const;
 
 export const PASSWORD_MIN_LENGTH = 12;
 export const PASSWORD_MAX_LENGTH = 256;
@@ -23,7 +28,9 @@ const COMMON_PASSWORDS = new Set([
 export function passwordProblems(password: string, email?: string): string[] {
   const problems: string[] = [];
   if (password.length < PASSWORD_MIN_LENGTH) {
-    problems.push(`Use at least ${PASSWORD_MIN_LENGTH} characters; a few words together work well.`);
+    problems.push(
+      `Use at least ${PASSWORD_MIN_LENGTH} characters; a few words together work well.`,
+    );
   }
   if (password.length > PASSWORD_MAX_LENGTH) {
     problems.push(`Use at most ${PASSWORD_MAX_LENGTH} characters.`);

@@ -39,7 +39,10 @@ export type Resource = { teamId: string } | { userId: string };
 export function can(actor: Actor | null, action: Action, resource: Resource): boolean {
   if (!actor) return false;
   if ("userId" in resource) {
-    return (action === "self.manageTokens" || action === "self.changePassword") && resource.userId === actor.id;
+    return (
+      (action === "self.manageTokens" || action === "self.changePassword") &&
+      resource.userId === actor.id
+    );
   }
   const role = roleIn(actor, resource.teamId);
   if (!role || !(action in TEAM_ACTIONS)) return false;

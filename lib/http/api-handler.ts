@@ -53,7 +53,11 @@ function withoutCaching(response: Response): Response {
     // A Response with immutable headers (Response.redirect): copy it.
     const headers = new Headers(response.headers);
     headers.set("Cache-Control", API_CACHE_CONTROL);
-    return new Response(response.body, { status: response.status, statusText: response.statusText, headers });
+    return new Response(response.body, {
+      status: response.status,
+      statusText: response.statusText,
+      headers,
+    });
   }
 }
 
@@ -78,7 +82,10 @@ export async function requireActor(): Promise<Actor> {
   return actor;
 }
 
-export async function parseJson<T extends z.ZodType>(request: Request, schema: T): Promise<z.infer<T>> {
+export async function parseJson<T extends z.ZodType>(
+  request: Request,
+  schema: T,
+): Promise<z.infer<T>> {
   const text = await bodyText(request);
   let body: unknown;
   try {
@@ -88,7 +95,9 @@ export async function parseJson<T extends z.ZodType>(request: Request, schema: T
   }
   const parsed = schema.safeParse(body);
   if (!parsed.success) {
-    throw new AppError("validation", "Some fields are not right.", { fieldErrors: zodFieldErrors(parsed.error) });
+    throw new AppError("validation", "Some fields are not right.", {
+      fieldErrors: zodFieldErrors(parsed.error),
+    });
   }
   return parsed.data;
 }

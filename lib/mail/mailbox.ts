@@ -18,12 +18,18 @@ export async function readMailbox(limit = 200): Promise<StoredMail[]> {
   if (!dir) return [];
   let names: string[];
   try {
-    names = (await fs.readdir(dir)).filter((n) => n.endsWith(".json")).sort().reverse().slice(0, limit);
+    names = (await fs.readdir(dir))
+      .filter((n) => n.endsWith(".json"))
+      .sort()
+      .reverse()
+      .slice(0, limit);
   } catch {
     return [];
   }
   const messages = await Promise.all(
-    names.map(async (name) => JSON.parse(await fs.readFile(path.join(dir, name), "utf8")) as StoredMail),
+    names.map(
+      async (name) => JSON.parse(await fs.readFile(path.join(dir, name), "utf8")) as StoredMail,
+    ),
   );
   return messages;
 }

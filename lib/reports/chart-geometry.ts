@@ -57,13 +57,15 @@ export interface ChartGeometry {
 
 /** Tick values at 1, 2 or 5 × 10^k covering [min, max] with about `count` intervals. */
 export function niceTicks(min: number, max: number, count = 6): number[] {
-  if (!(Number.isFinite(min) && Number.isFinite(max))) throw new RangeError("tick range must be finite");
+  if (!(Number.isFinite(min) && Number.isFinite(max)))
+    throw new RangeError("tick range must be finite");
   if (max <= min) return [min];
   const raw = (max - min) / count;
   const power = 10 ** Math.floor(Math.log10(raw));
   const step = [1, 2, 5, 10].map((m) => m * power).find((s) => s >= raw) ?? 10 * power;
   const ticks: number[] = [];
-  for (let v = Math.ceil(min / step - 1e-9) * step; v <= max + step * 1e-9; v += step) ticks.push(Number(v.toPrecision(12)));
+  for (let v = Math.ceil(min / step - 1e-9) * step; v <= max + step * 1e-9; v += step)
+    ticks.push(Number(v.toPrecision(12)));
   return ticks;
 }
 
@@ -104,13 +106,21 @@ export function chartGeometry(
   const px = (v: number) => plot.left + ((v - xMin) / (xMax - xMin)) * (plot.right - plot.left);
   const py = (v: number) => plot.bottom - ((v - yLow) / (yHigh - yLow)) * (plot.bottom - plot.top);
 
-  const xTickValues = niceTicks(xMin, xMax, Math.max(3, Math.round((plot.right - plot.left) / (fontSize * 9))));
+  const xTickValues = niceTicks(
+    xMin,
+    xMax,
+    Math.max(3, Math.round((plot.right - plot.left) / (fontSize * 9))),
+  );
   const xTicks = xTickValues.map((v) => ({ value: v, at: px(v), text: tickText(v, xTickValues) }));
-  const yTicks = yTickValues.filter((v) => v >= yLow && v <= yHigh).map((v) => ({ value: v, at: py(v), text: compactCount(v) }));
+  const yTicks = yTickValues
+    .filter((v) => v >= yLow && v <= yHigh)
+    .map((v) => ({ value: v, at: py(v), text: compactCount(v) }));
   const trace: [number, number][] = Array.from(x, (v, i) => [round2(px(v)), round2(py(y[i]))]);
 
   // Labels left to right; each takes the first row (nearest the plot) where it clears the previous label.
-  const sorted = [...labelInputs].filter((l) => l.peakNm >= xMin && l.peakNm <= xMax).sort((a, b) => a.peakNm - b.peakNm);
+  const sorted = [...labelInputs]
+    .filter((l) => l.peakNm >= xMin && l.peakNm <= xMax)
+    .sort((a, b) => a.peakNm - b.peakNm);
   const rowEnds = new Array<number>(labelRows).fill(-Infinity);
   const labels: ChartLabel[] = [];
   const unplaced: string[] = [];
@@ -134,7 +144,16 @@ export function chartGeometry(
       textY: plot.top - fontSize * 0.6 - row * rowHeight,
     });
   }
-  return { plot, xTicks, yTicks, xTitle: "Wavelength (nm)", yTitle: "Counts", trace, labels, unplaced };
+  return {
+    plot,
+    xTicks,
+    yTicks,
+    xTitle: "Wavelength (nm)",
+    yTitle: "Counts",
+    trace,
+    labels,
+    unplaced,
+  };
 }
 
 /** The highest count within a small window around a wavelength (the drawn top of that line). */
@@ -144,7 +163,8 @@ function peakHeightNear(x: Float64Array, y: Float64Array, nm: number): number {
   for (let i = 0; i < x.length; i++) if (Math.abs(x[i] - nm) <= window) best = Math.max(best, y[i]);
   if (best > -Infinity) return best;
   let nearest = 0;
-  for (let i = 1; i < x.length; i++) if (Math.abs(x[i] - nm) < Math.abs(x[nearest] - nm)) nearest = i;
+  for (let i = 1; i < x.length; i++)
+    if (Math.abs(x[i] - nm) < Math.abs(x[nearest] - nm)) nearest = i;
   return y[nearest];
 }
 

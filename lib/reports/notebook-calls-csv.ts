@@ -34,8 +34,17 @@ export const NOTEBOOK_CALLS_CSV_COLUMNS = [
 export function formatNotebookCallsCsv(runs: readonly NotebookCallsRun[]): string {
   const rows: CsvCell[][] = [];
   for (const { run, authorName, instrumentName } of runs) {
-    const runCells: CsvCell[] = [run.id, run.versionNumber, run.status, run.createdAt, authorName ?? "", instrumentName, run.source];
-    if (run.calls.length === 0) rows.push([...runCells, "", "", "", "", "", null, null, null, null, null, null]);
+    const runCells: CsvCell[] = [
+      run.id,
+      run.versionNumber,
+      run.status,
+      run.createdAt,
+      authorName ?? "",
+      instrumentName,
+      run.source,
+    ];
+    if (run.calls.length === 0)
+      rows.push([...runCells, "", "", "", "", "", null, null, null, null, null, null]);
     for (const call of run.calls) {
       const newest = run.overrides.filter((o) => o.species === call.species).at(-1);
       rows.push([

@@ -48,15 +48,29 @@ export function formatPeaksCsv(
   const rows: CsvCell[][] = [];
   peaks.forEach((peak, index) => {
     const uses = (call: RunCall, lineId?: string) =>
-      call.lines.some((l) => Math.abs(l.peakNm - peak.wavelengthNm) < SAME_PEAK_NM && (lineId === undefined || l.lineId === lineId));
+      call.lines.some(
+        (l) =>
+          Math.abs(l.peakNm - peak.wavelengthNm) < SAME_PEAK_NM &&
+          (lineId === undefined || l.lineId === lineId),
+      );
     const assignedTo = calls
       .filter((c) => (verdicts[c.species] ?? c.verdict) !== "absent" && uses(c))
       .map((c) => c.species)
       .join("; ");
-    const flags = [peak.saturated ? "saturated" : "", peak.blended ? "blended" : ""].filter(Boolean).join("; ");
-    const peakCells: CsvCell[] = [peak.wavelengthNm, peak.uncertaintyNm, peak.fwhmNm, peak.height, peak.snr, flags];
+    const flags = [peak.saturated ? "saturated" : "", peak.blended ? "blended" : ""]
+      .filter(Boolean)
+      .join("; ");
+    const peakCells: CsvCell[] = [
+      peak.wavelengthNm,
+      peak.uncertaintyNm,
+      peak.fwhmNm,
+      peak.height,
+      peak.snr,
+      flags,
+    ];
     const candidates = byPeak.get(index) ?? [];
-    if (candidates.length === 0) rows.push([...peakCells, "", "", null, null, null, "", "", assignedTo]);
+    if (candidates.length === 0)
+      rows.push([...peakCells, "", "", null, null, null, "", "", assignedTo]);
     for (const c of candidates) {
       const call = calls.find((k) => k.species === c.species);
       rows.push([

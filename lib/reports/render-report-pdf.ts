@@ -29,7 +29,10 @@ const RULE = "#cfc6ba";
 
 type Doc = InstanceType<typeof PDFDocument>;
 
-export function renderReportPdf(report: RunReport, options: RenderReportPdfOptions): Promise<Buffer> {
+export function renderReportPdf(
+  report: RunReport,
+  options: RenderReportPdfOptions,
+): Promise<Buffer> {
   const doc: Doc = new PDFDocument({
     size: "A4",
     margins: MARGIN,
@@ -85,17 +88,31 @@ class Writer {
   private heading(text: string): void {
     this.room(60);
     this.doc.moveDown(0.8);
-    this.doc.font("bold").fontSize(12).fillColor(INK).text(text, MARGIN.left, this.doc.y, { width: CONTENT_WIDTH });
+    this.doc
+      .font("bold")
+      .fontSize(12)
+      .fillColor(INK)
+      .text(text, MARGIN.left, this.doc.y, { width: CONTENT_WIDTH });
     const y = this.doc.y + 1;
-    this.doc.moveTo(MARGIN.left, y).lineTo(MARGIN.left + CONTENT_WIDTH, y).lineWidth(0.5).strokeColor(RULE).stroke();
+    this.doc
+      .moveTo(MARGIN.left, y)
+      .lineTo(MARGIN.left + CONTENT_WIDTH, y)
+      .lineWidth(0.5)
+      .strokeColor(RULE)
+      .stroke();
     this.doc.y = y + 4;
   }
 
-  private paragraph(text: string, options: { font?: string; size?: number; color?: string; indent?: number } = {}): void {
+  private paragraph(
+    text: string,
+    options: { font?: string; size?: number; color?: string; indent?: number } = {},
+  ): void {
     const { font = "sans", size = 9, color = INK, indent = 0 } = options;
     this.doc.font(font).fontSize(size);
     this.room(this.doc.heightOfString(text, { width: CONTENT_WIDTH - indent }) + 2);
-    this.doc.fillColor(color).text(text, MARGIN.left + indent, this.doc.y, { width: CONTENT_WIDTH - indent });
+    this.doc
+      .fillColor(color)
+      .text(text, MARGIN.left + indent, this.doc.y, { width: CONTENT_WIDTH - indent });
   }
 
   /** Label–value pairs in two columns. */
@@ -103,10 +120,17 @@ class Writer {
     const labelWidth = 130;
     for (const f of fields) {
       this.doc.font(mono ? "mono" : "sans").fontSize(mono ? 8 : 9);
-      const h = Math.max(this.doc.heightOfString(f.value, { width: CONTENT_WIDTH - labelWidth }), 11);
+      const h = Math.max(
+        this.doc.heightOfString(f.value, { width: CONTENT_WIDTH - labelWidth }),
+        11,
+      );
       this.room(h + 2);
       const y = this.doc.y;
-      this.doc.font("sans").fontSize(9).fillColor(MUTED).text(f.label, MARGIN.left, y, { width: labelWidth - 8 });
+      this.doc
+        .font("sans")
+        .fontSize(9)
+        .fillColor(MUTED)
+        .text(f.label, MARGIN.left, y, { width: labelWidth - 8 });
       this.doc
         .font(mono ? "mono" : "sans")
         .fontSize(mono ? 8 : 9)
@@ -117,14 +141,23 @@ class Writer {
   }
 
   /** A table: fixed column widths, a bold header row, rows that break across pages with the header repeated. */
-  private table(columns: { title: string; width: number; align?: "left" | "right" }[], rows: string[][], size = 8): void {
+  private table(
+    columns: { title: string; width: number; align?: "left" | "right" }[],
+    rows: string[][],
+    size = 8,
+  ): void {
     const drawRow = (cells: string[], font: string) => {
       this.doc.font(font).fontSize(size);
-      const h = Math.max(...cells.map((c, i) => this.doc.heightOfString(c, { width: columns[i].width - 4 })), size + 2);
+      const h = Math.max(
+        ...cells.map((c, i) => this.doc.heightOfString(c, { width: columns[i].width - 4 })),
+        size + 2,
+      );
       let x = MARGIN.left;
       const y = this.doc.y;
       cells.forEach((c, i) => {
-        this.doc.fillColor(INK).text(c, x, y, { width: columns[i].width - 4, align: columns[i].align ?? "left" });
+        this.doc
+          .fillColor(INK)
+          .text(c, x, y, { width: columns[i].width - 4, align: columns[i].align ?? "left" });
         x += columns[i].width;
       });
       this.doc.y = y + h + 2;
@@ -137,13 +170,21 @@ class Writer {
         "bold",
       );
       const y = this.doc.y - 1;
-      this.doc.moveTo(MARGIN.left, y).lineTo(MARGIN.left + CONTENT_WIDTH, y).lineWidth(0.4).strokeColor(RULE).stroke();
+      this.doc
+        .moveTo(MARGIN.left, y)
+        .lineTo(MARGIN.left + CONTENT_WIDTH, y)
+        .lineWidth(0.4)
+        .strokeColor(RULE)
+        .stroke();
       this.doc.y = y + 2;
     };
     header();
     for (const row of rows) {
       this.doc.font("sans").fontSize(size);
-      const h = Math.max(...row.map((c, i) => this.doc.heightOfString(c, { width: columns[i].width - 4 })), size + 2);
+      const h = Math.max(
+        ...row.map((c, i) => this.doc.heightOfString(c, { width: columns[i].width - 4 })),
+        size + 2,
+      );
       if (this.doc.y + h > this.bottom) {
         this.doc.addPage();
         header();
@@ -154,7 +195,12 @@ class Writer {
 
   title(report: RunReport): void {
     const d = this.doc;
-    d.font("bold").fontSize(16).fillColor(INK).text("Emission spectrum screening report", MARGIN.left, MARGIN.top, { width: CONTENT_WIDTH });
+    d.font("bold")
+      .fontSize(16)
+      .fillColor(INK)
+      .text("Emission spectrum screening report", MARGIN.left, MARGIN.top, {
+        width: CONTENT_WIDTH,
+      });
     d.font("sans").fontSize(10).fillColor(INK).text(report.title, { width: CONTENT_WIDTH });
     d.moveDown(0.3);
     d.font("sans")
@@ -171,10 +217,14 @@ class Writer {
     d.font("bold")
       .fontSize(10)
       .fillColor(INK)
-      .text(`Called present: ${present.length ? present.join(", ") : "none"}`, { width: CONTENT_WIDTH });
+      .text(`Called present: ${present.length ? present.join(", ") : "none"}`, {
+        width: CONTENT_WIDTH,
+      });
     d.font("sans")
       .fontSize(10)
-      .text(`Possible: ${possible.length ? possible.join(", ") : "none"}`, { width: CONTENT_WIDTH });
+      .text(`Possible: ${possible.length ? possible.join(", ") : "none"}`, {
+        width: CONTENT_WIDTH,
+      });
   }
 
   notice(report: RunReport): void {
@@ -183,10 +233,16 @@ class Writer {
     const boxTop = d.y;
     const lines = [report.caveat, ...report.warnings.map((w) => `Warning: ${w}`)];
     d.font("sans").fontSize(9);
-    const h = lines.reduce((sum, l) => sum + d.heightOfString(l, { width: CONTENT_WIDTH - 12 }) + 2, 0) + 8;
+    const h =
+      lines.reduce((sum, l) => sum + d.heightOfString(l, { width: CONTENT_WIDTH - 12 }) + 2, 0) + 8;
     d.rect(MARGIN.left, boxTop, CONTENT_WIDTH, h).lineWidth(0.8).strokeColor(EMBER).stroke();
     d.y = boxTop + 5;
-    lines.forEach((l, i) => d.font(i === 0 ? "bold" : "sans").fillColor(INK).text(l, MARGIN.left + 6, d.y, { width: CONTENT_WIDTH - 12 }));
+    lines.forEach((l, i) =>
+      d
+        .font(i === 0 ? "bold" : "sans")
+        .fillColor(INK)
+        .text(l, MARGIN.left + 6, d.y, { width: CONTENT_WIDTH - 12 }),
+    );
     d.y = boxTop + h + 4;
     if (report.flameCautions) {
       this.paragraph("Flame test cautions", { font: "bold", color: EMBER });
@@ -204,28 +260,52 @@ class Writer {
     this.room(height + 30);
     const d = this.doc;
     const top = d.y;
-    const g = chartGeometry(spectrum.wavelengthNm, spectrum.counts, chartLabelsFromCalls(report.calls), {
-      width: CONTENT_WIDTH,
-      height,
-      fontSize: 7,
-    });
+    const g = chartGeometry(
+      spectrum.wavelengthNm,
+      spectrum.counts,
+      chartLabelsFromCalls(report.calls),
+      {
+        width: CONTENT_WIDTH,
+        height,
+        fontSize: 7,
+      },
+    );
     d.save();
     d.translate(MARGIN.left, top);
     const { plot } = g;
-    d.rect(plot.left, plot.top, plot.right - plot.left, plot.bottom - plot.top).lineWidth(0.6).strokeColor(INK).stroke();
+    d.rect(plot.left, plot.top, plot.right - plot.left, plot.bottom - plot.top)
+      .lineWidth(0.6)
+      .strokeColor(INK)
+      .stroke();
     d.font("sans").fontSize(7).fillColor(INK);
     for (const t of g.xTicks) {
-      d.moveTo(t.at, plot.bottom).lineTo(t.at, plot.bottom + 3).lineWidth(0.5).strokeColor(INK).stroke();
+      d.moveTo(t.at, plot.bottom)
+        .lineTo(t.at, plot.bottom + 3)
+        .lineWidth(0.5)
+        .strokeColor(INK)
+        .stroke();
       d.text(t.text, t.at - 20, plot.bottom + 4, { width: 40, align: "center", lineBreak: false });
     }
     for (const t of g.yTicks) {
-      d.moveTo(plot.left - 3, t.at).lineTo(plot.left, t.at).lineWidth(0.5).strokeColor(INK).stroke();
+      d.moveTo(plot.left - 3, t.at)
+        .lineTo(plot.left, t.at)
+        .lineWidth(0.5)
+        .strokeColor(INK)
+        .stroke();
       d.text(t.text, plot.left - 40, t.at - 3, { width: 36, align: "right", lineBreak: false });
     }
-    d.text(g.xTitle, plot.left, plot.bottom + 14, { width: plot.right - plot.left, align: "center", lineBreak: false });
+    d.text(g.xTitle, plot.left, plot.bottom + 14, {
+      width: plot.right - plot.left,
+      align: "center",
+      lineBreak: false,
+    });
     d.save();
     d.rotate(-90, { origin: [8, (plot.top + plot.bottom) / 2] });
-    d.text(g.yTitle, 8 - 40, (plot.top + plot.bottom) / 2 - 4, { width: 80, align: "center", lineBreak: false });
+    d.text(g.yTitle, 8 - 40, (plot.top + plot.bottom) / 2 - 4, {
+      width: 80,
+      align: "center",
+      lineBreak: false,
+    });
     d.restore();
     // The trace, clipped to the plot area.
     d.save();
@@ -246,13 +326,17 @@ class Writer {
       d.font(l.verdict === "present" ? "bold" : "sans")
         .fontSize(7)
         .fillColor(color)
-        .text(l.verdict === "present" ? l.text : `${l.text}?`, l.textX, l.textY, { lineBreak: false });
+        .text(l.verdict === "present" ? l.text : `${l.text}?`, l.textX, l.textY, {
+          lineBreak: false,
+        });
     }
     d.restore();
     d.y = top + height;
     this.paragraph(
       "Labels: lines of species called present in bold; lines of possible species marked “?”. Counts as recorded, on the run's wavelength axis" +
-        (report.lampChecked ? " (air wavelengths from the lamp calibration)." : " (the file's own axis, not lamp-checked).") +
+        (report.lampChecked
+          ? " (air wavelengths from the lamp calibration)."
+          : " (the file's own axis, not lamp-checked).") +
         (g.unplaced.length ? ` Not labelled for want of room: ${g.unplaced.join("; ")}.` : ""),
       { size: 7.5, color: MUTED },
     );
@@ -287,7 +371,10 @@ class Writer {
     }
     if (report.absentSpecies.length) {
       this.doc.moveDown(0.3);
-      this.paragraph(`Candidates not supported by the spectrum (absent): ${report.absentSpecies.join(", ")}.`, { size: 8, color: MUTED });
+      this.paragraph(
+        `Candidates not supported by the spectrum (absent): ${report.absentSpecies.join(", ")}.`,
+        { size: 8, color: MUTED },
+      );
       const limits = detectionLimitsSentence(report.absentLimits);
       if (limits) this.paragraph(limits, { size: 8, color: MUTED });
     }
@@ -297,7 +384,8 @@ class Writer {
   private evidence(call: ReportCall): void {
     this.heading(`Evidence: ${call.species} (${call.verdict})`);
     this.paragraph(call.rationale, { size: 8.5 });
-    if (call.override) this.paragraph(`Override: ${overrideText(call)}`, { size: 8.5, color: EMBER });
+    if (call.override)
+      this.paragraph(`Override: ${overrideText(call)}`, { size: 8.5, color: EMBER });
     for (const n of call.notes) this.paragraph(`Note: ${n}`, { size: 8, color: MUTED });
     this.paragraph(`Intensities: ${call.intensityBasis}`, { size: 8, color: MUTED });
     this.doc.moveDown(0.2);
@@ -322,7 +410,10 @@ class Writer {
       this.paragraph(
         `Expected but not seen: ${missing
           .slice(0, 12)
-          .map((m) => `${m.lineNm.toFixed(3)} nm${m.predictedSnr !== null ? ` (predicted SNR ${m.predictedSnr.toFixed(1)})` : ""}`)
+          .map(
+            (m) =>
+              `${m.lineNm.toFixed(3)} nm${m.predictedSnr !== null ? ` (predicted SNR ${m.predictedSnr.toFixed(1)})` : ""}`,
+          )
           .join(", ")}${missing.length > 12 ? `, and ${missing.length - 12} more` : ""}.`,
         { size: 8 },
       );
@@ -338,7 +429,10 @@ class Writer {
   unexplained(report: RunReport): void {
     this.heading("Unexplained peaks");
     if (report.unexplained.length === 0) {
-      this.paragraph(`Every one of the ${report.peakCount} peaks above the threshold has a candidate line.`, { color: MUTED });
+      this.paragraph(
+        `Every one of the ${report.peakCount} peaks above the threshold has a candidate line.`,
+        { color: MUTED },
+      );
       return;
     }
     this.table(
@@ -360,9 +454,18 @@ class Writer {
       this.fields([
         { label: "Model", value: c.model },
         { label: "RMS", value: `${c.rmsNm.toFixed(4)} nm` },
-        { label: "Covered range", value: `${c.coveredRangeNm[0].toFixed(2)}–${c.coveredRangeNm[1].toFixed(2)} nm` },
-        { label: "Sample range", value: `${report.rangeNm[0].toFixed(2)}–${report.rangeNm[1].toFixed(2)} nm${report.outsideCoveredRange ? " (extends past the covered range)" : ""}` },
-        { label: "Lamp lines used", value: `${c.pairCount} (${c.rejectedCount} rejected as outliers)` },
+        {
+          label: "Covered range",
+          value: `${c.coveredRangeNm[0].toFixed(2)}–${c.coveredRangeNm[1].toFixed(2)} nm`,
+        },
+        {
+          label: "Sample range",
+          value: `${report.rangeNm[0].toFixed(2)}–${report.rangeNm[1].toFixed(2)} nm${report.outsideCoveredRange ? " (extends past the covered range)" : ""}`,
+        },
+        {
+          label: "Lamp lines used",
+          value: `${c.pairCount} (${c.rejectedCount} rejected as outliers)`,
+        },
         { label: "Lamps", value: c.lamps.join(", ") || "–" },
         { label: "Median uncertainty", value: `${c.medianUncertaintyNm.toFixed(4)} nm` },
         { label: "Calibrated on", value: c.calibratedOn },
@@ -371,8 +474,14 @@ class Writer {
     }
     this.heading("Line-table release");
     this.fields([
-      { label: "Release", value: report.release.number === null ? "unnumbered" : `release ${report.release.number}` },
-      { label: "Published", value: report.release.publishedAt ? formatUtc(report.release.publishedAt) : "–" },
+      {
+        label: "Release",
+        value: report.release.number === null ? "unnumbered" : `release ${report.release.number}`,
+      },
+      {
+        label: "Published",
+        value: report.release.publishedAt ? formatUtc(report.release.publishedAt) : "–",
+      },
       { label: "Release id", value: report.release.id },
     ]);
     if (report.temperature) {
@@ -410,7 +519,9 @@ class Writer {
         report.rounds.map((r) => [
           String(r.round),
           `${r.submittedByName ?? "unknown"}, ${formatUtc(r.submittedAt)}`,
-          r.decision ? `${r.decision} by ${r.decidedByName ?? "unknown"}${r.decidedAt ? `, ${formatUtc(r.decidedAt)}` : ""}` : "pending",
+          r.decision
+            ? `${r.decision} by ${r.decidedByName ?? "unknown"}${r.decidedAt ? `, ${formatUtc(r.decidedAt)}` : ""}`
+            : "pending",
           r.comment,
         ]),
       );
@@ -439,24 +550,42 @@ class Writer {
       const bottomMargin = d.page.margins.bottom;
       d.page.margins.bottom = 0;
       d.font("sans").fontSize(7.5).fillColor(MUTED);
-      d.text(`Emberline · run ${report.shortId} v${report.versionNumber} · ${report.status}`, MARGIN.left, 28, {
-        width: CONTENT_WIDTH / 2,
-        lineBreak: false,
-      });
+      d.text(
+        `Emberline · run ${report.shortId} v${report.versionNumber} · ${report.status}`,
+        MARGIN.left,
+        28,
+        {
+          width: CONTENT_WIDTH / 2,
+          lineBreak: false,
+        },
+      );
       d.text(`Made ${formatUtc(report.generatedAt)}`, MARGIN.left + CONTENT_WIDTH / 2, 28, {
         width: CONTENT_WIDTH / 2,
         align: "right",
         lineBreak: false,
       });
-      d.moveTo(MARGIN.left, 40).lineTo(MARGIN.left + CONTENT_WIDTH, 40).lineWidth(0.4).strokeColor(RULE).stroke();
+      d.moveTo(MARGIN.left, 40)
+        .lineTo(MARGIN.left + CONTENT_WIDTH, 40)
+        .lineWidth(0.4)
+        .strokeColor(RULE)
+        .stroke();
       const footY = PAGE.height - 44;
-      d.moveTo(MARGIN.left, footY - 4).lineTo(MARGIN.left + CONTENT_WIDTH, footY - 4).lineWidth(0.4).strokeColor(RULE).stroke();
+      d.moveTo(MARGIN.left, footY - 4)
+        .lineTo(MARGIN.left + CONTENT_WIDTH, footY - 4)
+        .lineWidth(0.4)
+        .strokeColor(RULE)
+        .stroke();
       d.text(report.caveat, MARGIN.left, footY, { width: CONTENT_WIDTH - 70 });
-      d.text(`Page ${i - range.start + 1} of ${range.count}`, MARGIN.left + CONTENT_WIDTH - 70, footY, {
-        width: 70,
-        align: "right",
-        lineBreak: false,
-      });
+      d.text(
+        `Page ${i - range.start + 1} of ${range.count}`,
+        MARGIN.left + CONTENT_WIDTH - 70,
+        footY,
+        {
+          width: 70,
+          align: "right",
+          lineBreak: false,
+        },
+      );
       d.page.margins.bottom = bottomMargin;
     }
   }
@@ -464,7 +593,8 @@ class Writer {
 
 function overrideText(c: ReportCall): string {
   const o = c.override!;
-  const what = o.verdict === null ? `withdrawn (back to ${c.computedVerdict})` : `set to ${o.verdict}`;
+  const what =
+    o.verdict === null ? `withdrawn (back to ${c.computedVerdict})` : `set to ${o.verdict}`;
   return `${what} by ${o.byName ?? "unknown"}, ${formatUtc(o.at)}: ${o.reason}`;
 }
 

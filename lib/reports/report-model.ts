@@ -2,7 +2,13 @@
 // printable page and the tests read the same model, so the two renderings cannot drift apart.
 import type { Verdict } from "@/lib/spectrum/matching";
 import type { SourceKind } from "@/lib/spectrum/types";
-import type { CalibrationRecord, RunCall, RunRecord, RunStatus, RunTemperature } from "@/lib/services/workflow-types";
+import type {
+  CalibrationRecord,
+  RunCall,
+  RunRecord,
+  RunStatus,
+  RunTemperature,
+} from "@/lib/services/workflow-types";
 import { detectionLimitText } from "./detection-limit-text";
 import { FLAME_CAUTIONS, SCREENING_CAVEAT } from "./report-text";
 
@@ -156,18 +162,32 @@ export function buildRunReport(input: RunReportInput): RunReport {
       notes: call.notes,
     };
   });
-  all.sort((a, b) => ORDER[a.verdict] - ORDER[b.verdict] || b.score - a.score || a.species.localeCompare(b.species));
+  all.sort(
+    (a, b) =>
+      ORDER[a.verdict] - ORDER[b.verdict] ||
+      b.score - a.score ||
+      a.species.localeCompare(b.species),
+  );
   // A call the chemist overrode stays in the main list whatever it became, so the override is seen.
   const calls = all.filter((c) => c.verdict !== "absent" || c.override !== null);
-  const absentSpecies = all.filter((c) => c.verdict === "absent" && c.override === null).map((c) => c.species);
+  const absentSpecies = all
+    .filter((c) => c.verdict === "absent" && c.override === null)
+    .map((c) => c.species);
   const limitOf = new Map(run.calls.map((c) => [c.species, detectionLimitText(c.detectionLimit)]));
-  const absentLimits = absentSpecies.map((species) => ({ species, limit: limitOf.get(species) ?? "—" }));
+  const absentLimits = absentSpecies.map((species) => ({
+    species,
+    limit: limitOf.get(species) ?? "—",
+  }));
 
   const outsideCoveredRange =
     calibration !== null &&
-    (run.rangeNm[0] < calibration.coveredRangeNm[0] - 1e-9 || run.rangeNm[1] > calibration.coveredRangeNm[1] + 1e-9);
+    (run.rangeNm[0] < calibration.coveredRangeNm[0] - 1e-9 ||
+      run.rangeNm[1] > calibration.coveredRangeNm[1] + 1e-9);
   const warnings: string[] = [];
-  if (!run.lampChecked) warnings.push("Not lamp-checked: this run used the file's own wavelength axis, not a lamp calibration.");
+  if (!run.lampChecked)
+    warnings.push(
+      "Not lamp-checked: this run used the file's own wavelength axis, not a lamp calibration.",
+    );
   if (outsideCoveredRange) {
     warnings.push(
       `The sample spans ${run.rangeNm[0].toFixed(1)}–${run.rangeNm[1].toFixed(1)} nm, past the calibrated range ` +
@@ -191,7 +211,10 @@ export function buildRunReport(input: RunReportInput): RunReport {
     { label: "Author", value: input.authorName ?? "unknown" },
     { label: "Instrument", value: `${input.instrument.name} (${input.instrument.dispersion})` },
     { label: "Source", value: run.source },
-    { label: "Sample file", value: `${input.spectrum.fileName} (${input.spectrum.points.toLocaleString("en")} points)` },
+    {
+      label: "Sample file",
+      value: `${input.spectrum.fileName} (${input.spectrum.points.toLocaleString("en")} points)`,
+    },
     { label: "Sample SHA-256", value: input.spectrum.sha256 },
     {
       label: "Line-table release",
@@ -201,7 +224,9 @@ export function buildRunReport(input: RunReportInput): RunReport {
     },
     {
       label: "Calibration",
-      value: calibration ? `${calibration.model}, RMS ${calibration.rmsNm.toFixed(4)} nm (${calibration.id})` : "none: the file's own axis",
+      value: calibration
+        ? `${calibration.model}, RMS ${calibration.rmsNm.toFixed(4)} nm (${calibration.id})`
+        : "none: the file's own axis",
     },
     { label: "Software", value: `Emberline ${run.softwareVersion}` },
     { label: "Noise", value: `${run.noiseCounts.toFixed(2)} counts` },
@@ -263,4 +288,8 @@ export function formatUtc(iso: string): string {
   return `${iso.slice(0, 16).replace("T", " ")} UTC`;
 }
 
-export const VERDICT_WORDS: Record<Verdict, string> = { present: "present", possible: "possible", absent: "absent" };
+export const VERDICT_WORDS: Record<Verdict, string> = {
+  present: "present",
+  possible: "possible",
+  absent: "absent",
+};

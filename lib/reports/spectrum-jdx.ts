@@ -25,7 +25,13 @@ export interface RunSpectrumJdxInput {
 export function formatRunSpectrumJdx(input: RunSpectrumJdxInput): string {
   const mediumWords = input.medium === null ? "medium not stated" : `${input.medium} wavelengths`;
   const text = formatJcampDx(
-    { x: input.wavelengthNm, y: input.counts, xUnit: "nm", medium: input.medium ?? undefined, meta: {} },
+    {
+      x: input.wavelengthNm,
+      y: input.counts,
+      xUnit: "nm",
+      medium: input.medium ?? undefined,
+      meta: {},
+    },
     {
       title: `Emberline run ${input.runId} v${input.versionNumber}: calibrated sample spectrum (${mediumWords})`,
       origin: input.origin,

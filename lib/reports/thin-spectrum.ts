@@ -16,7 +16,8 @@ export function thinSpectrum(
 ): { x: Float64Array; y: Float64Array } {
   const { maxPoints = 4000 } = options;
   if (x.length !== y.length) throw new RangeError(`x has ${x.length} values but y has ${y.length}`);
-  if (!Number.isInteger(maxPoints) || maxPoints < 2) throw new RangeError(`maxPoints must be an integer ≥ 2, got ${maxPoints}`);
+  if (!Number.isInteger(maxPoints) || maxPoints < 2)
+    throw new RangeError(`maxPoints must be an integer ≥ 2, got ${maxPoints}`);
   if (x.length <= maxPoints) return { x: x.slice(), y: y.slice() };
   const bucket = Math.ceil((2 * x.length) / maxPoints);
   const outX: number[] = [];

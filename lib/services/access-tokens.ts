@@ -35,7 +35,10 @@ export async function createAccessToken(
   authorize(actor, "self.manageTokens", { userId: actor.id });
   const active = await AccessToken.count({ where: { userId: actor.id, revokedAt: null } });
   if (active >= MAX_ACTIVE_TOKENS) {
-    throw new AppError("conflict", `You already have ${MAX_ACTIVE_TOKENS} active tokens; revoke one first.`);
+    throw new AppError(
+      "conflict",
+      `You already have ${MAX_ACTIVE_TOKENS} active tokens; revoke one first.`,
+    );
   }
   const token = newSecretToken(TOKEN_PREFIX);
   const row = await sequelize.transaction(async (transaction) => {
@@ -51,7 +54,13 @@ export async function createAccessToken(
       { transaction },
     );
     await recordAudit(
-      { actorId: actor.id, action: "token.create", entity: "access_token", entityId: created.id, after: { name: input.name } },
+      {
+        actorId: actor.id,
+        action: "token.create",
+        entity: "access_token",
+        entityId: created.id,
+        after: { name: input.name },
+      },
       transaction,
     );
     return created;
@@ -79,7 +88,13 @@ export async function revokeAccessToken(actor: Actor, tokenId: string): Promise<
     if (!row) throw notFound("No such token.");
     await row.update({ revokedAt: new Date() }, { transaction });
     await recordAudit(
-      { actorId: actor.id, action: "token.revoke", entity: "access_token", entityId: row.id, before: { name: row.name } },
+      {
+        actorId: actor.id,
+        action: "token.revoke",
+        entity: "access_token",
+        entityId: row.id,
+        before: { name: row.name },
+      },
       transaction,
     );
   });

@@ -5,7 +5,12 @@ import { Op, type Transaction } from "sequelize";
 import { AppError } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
-import { dummyPasswordHash, hashPassword, passwordProblems, verifyPassword } from "@/lib/auth/password";
+import {
+  dummyPasswordHash,
+  hashPassword,
+  passwordProblems,
+  verifyPassword,
+} from "@/lib/auth/password";
 import { hashToken, newSecretToken } from "@/lib/auth/secret-token";
 import {
   THROTTLE,
@@ -16,7 +21,15 @@ import {
 } from "@/lib/auth/throttle-rules";
 import { sendMail } from "@/lib/mail/send-mail";
 import { passwordResetMail } from "@/lib/mail/templates";
-import { AccessToken, Membership, PasswordResetToken, SignInAttempt, Team, User, sequelize } from "@/models";
+import {
+  AccessToken,
+  Membership,
+  PasswordResetToken,
+  SignInAttempt,
+  Team,
+  User,
+  sequelize,
+} from "@/models";
 import { recordAudit } from "./audit";
 import { revokeSessionsOf } from "./sessions";
 
@@ -38,15 +51,25 @@ function throttled(seconds: number, what = "failed password attempts"): AppError
   );
 }
 
-async function passwordCheckHistory(email: string, address: string, now: Date): Promise<PasswordCheckHistory> {
+async function passwordCheckHistory(
+  email: string,
+  address: string,
+  now: Date,
+): Promise<PasswordCheckHistory> {
   const pairSince = new Date(now.getTime() - THROTTLE.pairMemoryHours * 3_600_000);
   const knownSince = new Date(now.getTime() - THROTTLE.knownAddressDays * 86_400_000);
   const addressSince = new Date(now.getTime() - THROTTLE.addressWindowMinutes * 60_000);
   const pairSuccess = { email, address, kind: "password", succeeded: true };
   const [lastPairSuccessAt, lastUnlockAt, lastUnlockHereAt, addressFailures] = await Promise.all([
-    SignInAttempt.max<Date | null, SignInAttempt>("createdAt", { where: { ...pairSuccess, createdAt: { [Op.gte]: knownSince } } }),
-    SignInAttempt.max<Date | null, SignInAttempt>("createdAt", { where: { email, kind: "unlock", createdAt: { [Op.gte]: pairSince } } }),
-    SignInAttempt.max<Date | null, SignInAttempt>("createdAt", { where: { email, address, kind: "unlock", createdAt: { [Op.gte]: knownSince } } }),
+    SignInAttempt.max<Date | null, SignInAttempt>("createdAt", {
+      where: { ...pairSuccess, createdAt: { [Op.gte]: knownSince } },
+    }),
+    SignInAttempt.max<Date | null, SignInAttempt>("createdAt", {
+      where: { email, kind: "unlock", createdAt: { [Op.gte]: pairSince } },
+    }),
+    SignInAttempt.max<Date | null, SignInAttempt>("createdAt", {
+      where: { email, address, kind: "unlock", createdAt: { [Op.gte]: knownSince } },
+    }),
     SignInAttempt.findAll({
       where: { address, kind: "password", succeeded: false, createdAt: { [Op.gte]: addressSince } },
       attributes: ["createdAt"],
@@ -58,7 +81,13 @@ async function passwordCheckHistory(email: string, address: string, now: Date): 
   const clearedAt = [lastPairSuccessAt, lastUnlockAt, pairSince]
     .filter((d): d is Date => d instanceof Date)
     .reduce((a, b) => (a > b ? a : b));
-  const where = { email, address, kind: "password", succeeded: false, createdAt: { [Op.gt]: clearedAt } };
+  const where = {
+    email,
+    address,
+    kind: "password",
+    succeeded: false,
+    createdAt: { [Op.gt]: clearedAt },
+  };
   const [pairFailures, lastPairFailureAt] = await Promise.all([
     SignInAttempt.count({ where }),
     SignInAttempt.max<Date | null, SignInAttempt>("createdAt", { where }),
@@ -103,13 +132,17 @@ export async function checkPasswordThrottled(input: {
   const address = throttleAddressKey(input.address);
   const pairKey = `pair\n${email}\n${address}`;
   const addressKey = `address\n${address}`;
-  if (!takeSlot(pairKey, THROTTLE.concurrentChecksPerPair)) throw throttled(1, "password checks at once");
+  if (!takeSlot(pairKey, THROTTLE.concurrentChecksPerPair))
+    throw throttled(1, "password checks at once");
   if (!takeSlot(addressKey, THROTTLE.concurrentChecksPerAddress)) {
     releaseSlot(pairKey);
     throw throttled(1, "password checks at once");
   }
   try {
-    const wait = passwordCheckWaitSeconds(await passwordCheckHistory(email, address, new Date()), new Date());
+    const wait = passwordCheckWaitSeconds(
+      await passwordCheckHistory(email, address, new Date()),
+      new Date(),
+    );
     if (wait > 0) throw throttled(wait);
     let valid = false;
     if (input.passwordHash) valid = await verifyPassword(input.passwordHash, input.password);
@@ -124,16 +157,32 @@ export async function checkPasswordThrottled(input: {
 }
 
 function findUserByEmail(email: string) {
-  return User.findOne({ where: sequelize.where(sequelize.fn("lower", sequelize.col("email")), normaliseEmail(email)) });
+  return User.findOne({
+    where: sequelize.where(sequelize.fn("lower", sequelize.col("email")), normaliseEmail(email)),
+  });
 }
 
 /** Checks e-mail and password; the same generic error for a wrong password and an unknown account. */
-export async function signIn(input: { email: string; password: string; address: string }): Promise<Actor> {
+export async function signIn(input: {
+  email: string;
+  password: string;
+  address: string;
+}): Promise<Actor> {
   const email = normaliseEmail(input.email);
   const user = await findUserByEmail(email);
-  const valid = await checkPasswordThrottled({ ...input, email, passwordHash: user?.passwordHash ?? null });
-  if (!user || !valid) throw new AppError("unauthenticated", "The e-mail address or password is not right.");
-  await recordAudit({ actorId: user.id, action: "session.create", entity: "user", entityId: user.id });
+  const valid = await checkPasswordThrottled({
+    ...input,
+    email,
+    passwordHash: user?.passwordHash ?? null,
+  });
+  if (!user || !valid)
+    throw new AppError("unauthenticated", "The e-mail address or password is not right.");
+  await recordAudit({
+    actorId: user.id,
+    action: "session.create",
+    entity: "user",
+    entityId: user.id,
+  });
   return (await loadActor(user.id))!;
 }
 
@@ -155,7 +204,9 @@ export async function loadActor(userId: string): Promise<Actor | null> {
 
 /** Resolves a personal access token to its owner, or null when unknown or revoked. */
 export async function actorFromAccessToken(token: string): Promise<Actor | null> {
-  const row = await AccessToken.findOne({ where: { tokenHash: hashToken(token), revokedAt: null } });
+  const row = await AccessToken.findOne({
+    where: { tokenHash: hashToken(token), revokedAt: null },
+  });
   if (!row) return null;
   // Recording use at most once a minute keeps scripts from writing on every request.
   if (!row.lastUsedAt || Date.now() - row.lastUsedAt.getTime() > 60_000) {
@@ -232,7 +283,13 @@ export async function changePassword(
     await user.update({ passwordHash }, { transaction });
     const revoked = await revokeCredentialsOf(user.id, transaction, options.keepSessionId);
     await recordAudit(
-      { actorId: actor.id, action: "password.change", entity: "user", entityId: actor.id, after: { revoked } },
+      {
+        actorId: actor.id,
+        action: "password.change",
+        entity: "user",
+        entityId: actor.id,
+        after: { revoked },
+      },
       transaction,
     );
     return revoked;
@@ -246,7 +303,9 @@ const resetMailsPending = new Set<Promise<void>>();
 function inBackground(task: () => Promise<void>): void {
   const running = task()
     .catch((error: unknown) => {
-      process.stderr.write(`[emberline] a password-reset mail failed: ${error instanceof Error ? error.message : error}\n`);
+      process.stderr.write(
+        `[emberline] a password-reset mail failed: ${error instanceof Error ? error.message : error}\n`,
+      );
     })
     .finally(() => resetMailsPending.delete(running));
   resetMailsPending.add(running);
@@ -256,7 +315,10 @@ function inBackground(task: () => Promise<void>): void {
  * Always answers alike, so it cannot be used to find accounts: 429 only when this address asked
  * too often (whatever the e-mail addresses), otherwise the request is recorded and a mail queued.
  */
-export async function requestPasswordReset(input: { email: string; address: string }): Promise<void> {
+export async function requestPasswordReset(input: {
+  email: string;
+  address: string;
+}): Promise<void> {
   const email = normaliseEmail(input.email);
   const address = throttleAddressKey(input.address);
   const since = new Date(Date.now() - 3_600_000);
@@ -284,13 +346,20 @@ async function sendResetLink(email: string, address: string): Promise<void> {
     });
     if (!found) return null;
     const mailed = await SignInAttempt.count({
-      where: { email, kind: "reset_mail", createdAt: { [Op.gte]: new Date(Date.now() - 3_600_000) } },
+      where: {
+        email,
+        kind: "reset_mail",
+        createdAt: { [Op.gte]: new Date(Date.now() - 3_600_000) },
+      },
       transaction,
     });
     // The newest link mailed this hour still works, so the owner is not left without one.
     if (mailed >= THROTTLE.resetMailsPerAccountPerHour) return null;
     // Only the newest link works: older unused ones are retired.
-    await PasswordResetToken.update({ usedAt: new Date() }, { where: { userId: found.id, usedAt: null }, transaction });
+    await PasswordResetToken.update(
+      { usedAt: new Date() },
+      { where: { userId: found.id, usedAt: null }, transaction },
+    );
     await PasswordResetToken.create(
       {
         userId: found.id,
@@ -300,8 +369,14 @@ async function sendResetLink(email: string, address: string): Promise<void> {
       },
       { transaction },
     );
-    await SignInAttempt.create({ email, address, kind: "reset_mail", succeeded: true }, { transaction });
-    await recordAudit({ actorId: found.id, action: "password.resetRequest", entity: "user", entityId: found.id }, transaction);
+    await SignInAttempt.create(
+      { email, address, kind: "reset_mail", succeeded: true },
+      { transaction },
+    );
+    await recordAudit(
+      { actorId: found.id, action: "password.resetRequest", entity: "user", entityId: found.id },
+      transaction,
+    );
     return found;
   });
   if (user) await sendMail({ to: user.email, ...passwordResetMail({ name: user.name, token }) });
@@ -311,7 +386,11 @@ async function sendResetLink(email: string, address: string): Promise<void> {
  * Sets a new password with a mailed link; ends every session and access token of the person and
  * unlocks their password throttle (the link proves the mailbox, so the owner gets back in).
  */
-export async function resetPassword(input: { token: string; password: string; address: string }): Promise<CredentialsRevoked> {
+export async function resetPassword(input: {
+  token: string;
+  password: string;
+  address: string;
+}): Promise<CredentialsRevoked> {
   const row = await PasswordResetToken.findOne({ where: { tokenHash: hashToken(input.token) } });
   if (!row || row.usedAt || row.expiresAt.getTime() < Date.now()) {
     throw new AppError("validation", "This reset link is not valid any more. Ask for a new one.", {
@@ -331,11 +410,22 @@ export async function resetPassword(input: { token: string; password: string; ad
     await user.update({ passwordHash }, { transaction });
     const revoked = await revokeCredentialsOf(user.id, transaction);
     await SignInAttempt.create(
-      { email: normaliseEmail(user.email), address: throttleAddressKey(input.address), kind: "unlock", succeeded: true },
+      {
+        email: normaliseEmail(user.email),
+        address: throttleAddressKey(input.address),
+        kind: "unlock",
+        succeeded: true,
+      },
       { transaction },
     );
     await recordAudit(
-      { actorId: user.id, action: "password.reset", entity: "user", entityId: user.id, after: { revoked } },
+      {
+        actorId: user.id,
+        action: "password.reset",
+        entity: "user",
+        entityId: user.id,
+        after: { revoked },
+      },
       transaction,
     );
     return revoked;

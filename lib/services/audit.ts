@@ -9,7 +9,11 @@ import { AuditEvent, User, sequelize } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize, can } from "@/lib/auth/policy";
 import { diffAuditValues, type AuditChange } from "@/lib/audit/diff-audit-values";
-import { AUDIT_FILTER_KEYS, AUDIT_PAGE_DEFAULT, AUDIT_PAGE_MAX } from "@/lib/validation/audit-schemas";
+import {
+  AUDIT_FILTER_KEYS,
+  AUDIT_PAGE_DEFAULT,
+  AUDIT_PAGE_MAX,
+} from "@/lib/validation/audit-schemas";
 
 export type { AuditChange };
 
@@ -50,7 +54,11 @@ export interface AuditEntry {
   reason: string | null;
 }
 
-export async function fetchRecentActivity(actor: Actor, teamId: string, limit = 15): Promise<AuditEntry[]> {
+export async function fetchRecentActivity(
+  actor: Actor,
+  teamId: string,
+  limit = 15,
+): Promise<AuditEntry[]> {
   authorize(actor, "audit.view", { teamId });
   const rows = await AuditEvent.findAll({
     where: { teamId },
@@ -201,7 +209,8 @@ function auditWhere(
         : `e.action = ${param(filter.action)}`,
     );
   }
-  if (filter.from) parts.push(`e.created_at >= ${param(`${filter.from}T00:00:00.000Z`)}::timestamptz`);
+  if (filter.from)
+    parts.push(`e.created_at >= ${param(`${filter.from}T00:00:00.000Z`)}::timestamptz`);
   if (filter.to) {
     const dayAfter = new Date(Date.parse(`${filter.to}T00:00:00.000Z`) + DAY_MS).toISOString();
     parts.push(`e.created_at < ${param(dayAfter)}::timestamptz`);
@@ -218,10 +227,13 @@ async function selectEvents(
   const bind: unknown[] = [];
   const where = auditWhere(filter, bind);
   bind.push(limit);
-  return sequelize.query<AuditDbRow>(`${AUDIT_SELECT} WHERE ${where} ORDER BY e.id DESC LIMIT $${bind.length}`, {
-    bind,
-    type: QueryTypes.SELECT,
-  });
+  return sequelize.query<AuditDbRow>(
+    `${AUDIT_SELECT} WHERE ${where} ORDER BY e.id DESC LIMIT $${bind.length}`,
+    {
+      bind,
+      type: QueryTypes.SELECT,
+    },
+  );
 }
 
 /**
@@ -232,7 +244,10 @@ async function selectEvents(
 export async function fetchAuditPage(actor: Actor, query: AuditPageQuery): Promise<AuditPage> {
   authorize(actor, "audit.view", { teamId: query.teamId });
   const limit = Math.min(AUDIT_PAGE_MAX, Math.max(1, query.limit ?? AUDIT_PAGE_DEFAULT));
-  const rows = await selectEvents({ ...query, teamIds: [query.teamId], beforeId: query.cursor }, limit + 1);
+  const rows = await selectEvents(
+    { ...query, teamIds: [query.teamId], beforeId: query.cursor },
+    limit + 1,
+  );
   const events = rows.slice(0, limit).map(toAuditEventRecord);
   return { events, nextCursor: rows.length > limit ? events[events.length - 1].id : null };
 }
@@ -255,7 +270,9 @@ export async function fetchEntityTrail(
   entityId: string,
   limit = 25,
 ): Promise<EntityTrail> {
-  const teamIds = actor.memberships.map((m) => m.teamId).filter((teamId) => can(actor, "audit.view", { teamId }));
+  const teamIds = actor.memberships
+    .map((m) => m.teamId)
+    .filter((teamId) => can(actor, "audit.view", { teamId }));
   if (teamIds.length === 0) return { events: [], more: false, teamId: null };
   const rows = await selectEvents({ teamIds, entity, entityId }, limit + 1);
   const events = rows.slice(0, limit).map(toAuditEventRecord);
@@ -297,7 +314,6 @@ export const AUDIT_CSV_COLUMNS = [
 
 /** Events fetched per database round trip while the CSV streams out. */
 const CSV_CHUNK = 500;
-
 
 function csvCells(event: AuditEventRecord): string[] {
   return [
@@ -342,7 +358,11 @@ export async function exportAuditCsv(actor: Actor, filter: AuditFilter): Promise
     { bind: [filter.teamId], type: QueryTypes.SELECT },
   );
   const teamName = actor.memberships.find((m) => m.teamId === filter.teamId)?.teamName ?? "team";
-  const slug = teamName.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "") || "team";
+  const slug =
+    teamName
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, "-")
+      .replace(/^-|-$/g, "") || "team";
   const filtered = AUDIT_FILTER_KEYS.some((key) => filter[key]);
   const filename = `emberline-audit-${slug}-${new Date().toISOString().slice(0, 10)}${filtered ? "-filtered" : ""}.csv`;
   const encoder = new TextEncoder();
@@ -354,8 +374,14 @@ export async function exportAuditCsv(actor: Actor, filter: AuditFilter): Promise
         const rows =
           newest === null
             ? []
-            : await selectEvents({ ...filter, teamIds: [filter.teamId], beforeId: cursor, upToId: newest }, CSV_CHUNK);
-        const text = csvText(rows.map((row) => csvCells(toAuditEventRecord(row))), !started);
+            : await selectEvents(
+                { ...filter, teamIds: [filter.teamId], beforeId: cursor, upToId: newest },
+                CSV_CHUNK,
+              );
+        const text = csvText(
+          rows.map((row) => csvCells(toAuditEventRecord(row))),
+          !started,
+        );
         if (!started && rows.length === 0) {
           controller.enqueue(encoder.encode(`${AUDIT_CSV_COLUMNS.join(",")}\r\n`));
         } else if (text) controller.enqueue(encoder.encode(text));

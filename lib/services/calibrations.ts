@@ -7,7 +7,11 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
-import { lampPairRecord, type EditedLampCalibration, type WorkbenchPair } from "@/lib/spectrum/analysis";
+import {
+  lampPairRecord,
+  type EditedLampCalibration,
+  type WorkbenchPair,
+} from "@/lib/spectrum/analysis";
 import {
   CalibrationError,
   calibrationDrift,
@@ -26,22 +30,36 @@ import { recordAudit } from "./audit";
 import { latestCalibrationOf, loadInstrument } from "./instruments";
 import { selectLines } from "./line-library-access";
 import { loadSpectrum, spectrumPoints } from "./spectra";
-import { SOFTWARE_VERSION, type CalibrationPairRecord, type CalibrationRecord } from "./workflow-types";
+import {
+  SOFTWARE_VERSION,
+  type CalibrationPairRecord,
+  type CalibrationRecord,
+} from "./workflow-types";
 
 /** The team's newest published line-table release; calibrations and runs are tied to it. */
-export async function newestPublishedRelease(teamId: string, transaction?: Transaction): Promise<{ id: string; number: number }> {
+export async function newestPublishedRelease(
+  teamId: string,
+  transaction?: Transaction,
+): Promise<{ id: string; number: number }> {
   const [release] = await sequelize.query<{ id: string; number: number }>(
     `SELECT id, number FROM line_releases WHERE team_id = $1 AND status = 'published' ORDER BY number DESC LIMIT 1`,
     { bind: [teamId], type: QueryTypes.SELECT, transaction },
   );
   if (!release) {
-    throw new AppError("unprocessable", "The team has no published line-table release yet: a lab lead publishes one first.");
+    throw new AppError(
+      "unprocessable",
+      "The team has no published line-table release yet: a lab lead publishes one first.",
+    );
   }
   return release;
 }
 
 /** The release's lamp lines of the given gases inside [minNm, maxNm], as the tables give them (air above 200 nm). */
-async function lampLinesOf(releaseId: string, lamps: string[], rangeNm: [number, number]): Promise<LampLine[]> {
+async function lampLinesOf(
+  releaseId: string,
+  lamps: string[],
+  rangeNm: [number, number],
+): Promise<LampLine[]> {
   const rows = await selectLines(
     `l.release_id = $1 AND 'lamp' = ANY(l.flags) AND l.element = ANY($2::text[])
        AND coalesce(l.air_nm, l.vacuum_nm) BETWEEN $3 AND $4`,
@@ -61,7 +79,13 @@ async function lampLinesOf(releaseId: string, lamps: string[], rangeNm: [number,
  * Tells two calibrations of one instrument apart, even on one date: gases, time (UTC, like calibratedOn),
  * model, RMS and covered range, e.g. "Ne+Ar · 14:05 · polynomial-3 · RMS 0.012 nm · 402–918 nm".
  */
-export function calibrationLabel(parts: { lamps: string[]; createdAt: Date; model: string; rmsNm: number; coveredRangeNm: [number, number] }): string {
+export function calibrationLabel(parts: {
+  lamps: string[];
+  createdAt: Date;
+  model: string;
+  rmsNm: number;
+  coveredRangeNm: [number, number];
+}): string {
   const time = parts.createdAt.toISOString().slice(11, 16);
   const [fromNm, toNm] = parts.coveredRangeNm;
   return [
@@ -78,7 +102,13 @@ export function toCalibrationRecord(row: Calibration): CalibrationRecord {
   const coveredRangeNm: [number, number] = [row.coveredMinNm, row.coveredMaxNm];
   return {
     id: row.id,
-    label: calibrationLabel({ lamps: row.lamps, createdAt: row.createdAt, model, rmsNm: row.rmsNm, coveredRangeNm }),
+    label: calibrationLabel({
+      lamps: row.lamps,
+      createdAt: row.createdAt,
+      model,
+      rmsNm: row.rmsNm,
+      coveredRangeNm,
+    }),
     instrumentId: row.instrumentId,
     spectrumId: row.spectrumId,
     lineReleaseId: row.lineReleaseId,
@@ -108,12 +138,18 @@ export async function loadCalibration(actor: Actor, calibrationId: string): Prom
   return row;
 }
 
-export async function fetchCalibration(actor: Actor, calibrationId: string): Promise<CalibrationRecord> {
+export async function fetchCalibration(
+  actor: Actor,
+  calibrationId: string,
+): Promise<CalibrationRecord> {
   return toCalibrationRecord(await loadCalibration(actor, calibrationId));
 }
 
 /** An instrument's calibration history, newest (the default for new runs) first. */
-export async function fetchCalibrations(actor: Actor, instrumentId: string): Promise<CalibrationRecord[]> {
+export async function fetchCalibrations(
+  actor: Actor,
+  instrumentId: string,
+): Promise<CalibrationRecord[]> {
   const instrument = await loadInstrument(actor, instrumentId);
   const rows = await Calibration.findAll({
     where: { instrumentId: instrument.id },
@@ -129,14 +165,24 @@ export async function evaluateStoredCalibration(
   actor: Actor,
   calibrationId: string,
   pixels: number[],
-): Promise<{ wavelengthsNm: (number | null)[]; uncertaintiesNm: (number | null)[]; warnings: string[] }> {
+): Promise<{
+  wavelengthsNm: (number | null)[];
+  uncertaintiesNm: (number | null)[];
+  warnings: string[];
+}> {
   const row = await loadCalibration(actor, calibrationId);
   const x = Float64Array.from(pixels);
   const warnings: string[] = [];
-  const wavelengths = evaluateCalibration(row.model, x, { onWarning: (w) => warnings.push(...w.map((e) => e.message)) });
+  const wavelengths = evaluateCalibration(row.model, x, {
+    onWarning: (w) => warnings.push(...w.map((e) => e.message)),
+  });
   const sigma = calibrationUncertainty(row.model, x);
   const finite = (v: number) => (Number.isFinite(v) ? v : null);
-  return { wavelengthsNm: Array.from(wavelengths, finite), uncertaintiesNm: Array.from(sigma, finite), warnings };
+  return {
+    wavelengthsNm: Array.from(wavelengths, finite),
+    uncertaintiesNm: Array.from(sigma, finite),
+    warnings,
+  };
 }
 
 const NEEDS_MANUAL_HINT =
@@ -167,7 +213,8 @@ interface ComputedCalibration {
 /** A calibration error as the reply a chemist reads: a bad hand edit is a 400 on its field, the rest 422. */
 function calibrationAppError(error: CalibrationError): AppError {
   const field = typeof error.details.field === "string" ? error.details.field : null;
-  const fieldMessage = typeof error.details.fieldMessage === "string" ? error.details.fieldMessage : error.message;
+  const fieldMessage =
+    typeof error.details.fieldMessage === "string" ? error.details.fieldMessage : error.message;
   const fieldErrors = field ? { [field]: [fieldMessage] } : undefined;
   switch (error.code) {
     case "invalid-edit":
@@ -177,7 +224,10 @@ function calibrationAppError(error: CalibrationError): AppError {
     case "too-few-pairs-left":
       return new AppError("unprocessable", error.message, { fieldErrors });
     default:
-      return new AppError("unprocessable", `The calibration could not be fitted (${error.code}): ${error.message}.`);
+      return new AppError(
+        "unprocessable",
+        `The calibration could not be fitted (${error.code}): ${error.message}.`,
+      );
   }
 }
 
@@ -187,7 +237,10 @@ function calibrationAppError(error: CalibrationError): AppError {
  * edits, fit the chosen model and compare every model — in the worker pool, off the request thread.
  * Writes nothing.
  */
-async function computeCalibration(actor: Actor, input: CalibrationCreateInput): Promise<ComputedCalibration> {
+async function computeCalibration(
+  actor: Actor,
+  input: CalibrationCreateInput,
+): Promise<ComputedCalibration> {
   const instrument = await loadInstrument(actor, input.instrumentId, "calibration.create");
   const spectrum = await loadSpectrum(actor, input.spectrumId);
   if (spectrum.instrumentId !== instrument.id) {
@@ -233,7 +286,12 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
         model: "auto",
         ...previous,
       },
-      edits: { seeds: input.pairs, added: input.added, excluded: input.excluded, model: input.model },
+      edits: {
+        seeds: input.pairs,
+        added: input.added,
+        excluded: input.excluded,
+        model: input.model,
+      },
     });
     const { fit, ...shown } = edited;
     const preview: CalibrationPreview = {
@@ -254,11 +312,17 @@ async function computeCalibration(actor: Actor, input: CalibrationCreateInput): 
 }
 
 /** What saving would record, computed the same way, without writing anything. */
-export async function previewCalibration(actor: Actor, input: CalibrationCreateInput): Promise<CalibrationPreview> {
+export async function previewCalibration(
+  actor: Actor,
+  input: CalibrationCreateInput,
+): Promise<CalibrationPreview> {
   return (await computeCalibration(actor, input)).preview;
 }
 
-export async function createCalibration(actor: Actor, input: CalibrationCreateInput): Promise<CalibrationRecord> {
+export async function createCalibration(
+  actor: Actor,
+  input: CalibrationCreateInput,
+): Promise<CalibrationRecord> {
   const { preview, instrument, spectrum, fit } = await computeCalibration(actor, input);
   const model = fit.model;
   const { domain } = preview;
@@ -272,12 +336,17 @@ export async function createCalibration(actor: Actor, input: CalibrationCreateIn
         "Improve the pairs, or say why it can be trusted and save it again.",
       {
         fieldErrors: {
-          confirmReason: [`Say why this calibration can be trusted (10–500 characters). Its doubts: ${doubts.join(" ")}`],
+          confirmReason: [
+            `Say why this calibration can be trusted (10–500 characters). Its doubts: ${doubts.join(" ")}`,
+          ],
         },
       },
     );
   }
-  const confirmation = doubts.length > 0 && input.confirmReason ? { reason: input.confirmReason, doubts, by: actor.id } : null;
+  const confirmation =
+    doubts.length > 0 && input.confirmReason
+      ? { reason: input.confirmReason, doubts, by: actor.id }
+      : null;
 
   return sequelize.transaction(async (transaction) => {
     const previous = await latestCalibrationOf(instrument.id, transaction);
@@ -306,7 +375,9 @@ export async function createCalibration(actor: Actor, input: CalibrationCreateIn
         uncertainty: preview.result.uncertainty,
         drift,
         // Rows are frozen after insert: the confirmation of a doubtful calibration is written with it.
-        pairing: confirmation ? { ...preview.result.pairing, confirmation } : preview.result.pairing,
+        pairing: confirmation
+          ? { ...preview.result.pairing, confirmation }
+          : preview.result.pairing,
         warnings: fit.warnings,
         softwareVersion: SOFTWARE_VERSION,
         calibratedOn: new Date().toISOString().slice(0, 10),
@@ -337,7 +408,9 @@ export async function createCalibration(actor: Actor, input: CalibrationCreateIn
           coveredRangeNm: record.coveredRangeNm,
           driftMaxAbsNm: drift?.maxAbsNm ?? null,
           doubts,
-          confirmation: confirmation ? { reason: confirmation.reason, doubts: confirmation.doubts } : null,
+          confirmation: confirmation
+            ? { reason: confirmation.reason, doubts: confirmation.doubts }
+            : null,
         },
       },
       transaction,
@@ -350,16 +423,26 @@ export async function createCalibration(actor: Actor, input: CalibrationCreateIn
 export async function fetchCalibrationView(
   actor: Actor,
   calibrationId: string,
-): Promise<{ calibration: CalibrationRecord; releaseNumber: number | null; previous: CalibrationRecord | null }> {
+): Promise<{
+  calibration: CalibrationRecord;
+  releaseNumber: number | null;
+  previous: CalibrationRecord | null;
+}> {
   const row = await loadCalibration(actor, calibrationId);
-  const [release] = await sequelize.query<{ number: number }>(`SELECT number FROM line_releases WHERE id = $1`, {
-    bind: [row.lineReleaseId],
-    type: QueryTypes.SELECT,
-  });
-  const previousRow = row.previousCalibrationId ? await Calibration.findByPk(row.previousCalibrationId) : null;
+  const [release] = await sequelize.query<{ number: number }>(
+    `SELECT number FROM line_releases WHERE id = $1`,
+    {
+      bind: [row.lineReleaseId],
+      type: QueryTypes.SELECT,
+    },
+  );
+  const previousRow = row.previousCalibrationId
+    ? await Calibration.findByPk(row.previousCalibrationId)
+    : null;
   return {
     calibration: toCalibrationRecord(row),
     releaseNumber: release?.number ?? null,
-    previous: previousRow && previousRow.teamId === row.teamId ? toCalibrationRecord(previousRow) : null,
+    previous:
+      previousRow && previousRow.teamId === row.teamId ? toCalibrationRecord(previousRow) : null,
   };
 }

@@ -5,12 +5,18 @@ import type { Transaction } from "sequelize";
 import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize, type TeamAction } from "@/lib/auth/policy";
-import type { InstrumentCreateInput, InstrumentUpdateInput } from "@/lib/validation/workflow-schemas";
+import type {
+  InstrumentCreateInput,
+  InstrumentUpdateInput,
+} from "@/lib/validation/workflow-schemas";
 import { Calibration, Instrument, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import type { InstrumentRecord } from "./workflow-types";
 
-export function toInstrumentRecord(row: Instrument, latestCalibrationId: string | null): InstrumentRecord {
+export function toInstrumentRecord(
+  row: Instrument,
+  latestCalibrationId: string | null,
+): InstrumentRecord {
   return {
     id: row.id,
     teamId: row.teamId,
@@ -43,7 +49,10 @@ export async function loadInstrument(
 }
 
 /** The instrument's newest calibration (the default for new runs), or null. */
-export async function latestCalibrationOf(instrumentId: string, transaction?: Transaction): Promise<Calibration | null> {
+export async function latestCalibrationOf(
+  instrumentId: string,
+  transaction?: Transaction,
+): Promise<Calibration | null> {
   return Calibration.findOne({
     where: { instrumentId },
     order: [
@@ -57,15 +66,25 @@ export async function latestCalibrationOf(instrumentId: string, transaction?: Tr
 export async function fetchInstruments(actor: Actor, teamId: string): Promise<InstrumentRecord[]> {
   authorize(actor, "instrument.view", { teamId });
   const rows = await Instrument.findAll({ where: { teamId }, order: [["name", "ASC"]] });
-  return Promise.all(rows.map(async (row) => toInstrumentRecord(row, (await latestCalibrationOf(row.id))?.id ?? null)));
+  return Promise.all(
+    rows.map(async (row) =>
+      toInstrumentRecord(row, (await latestCalibrationOf(row.id))?.id ?? null),
+    ),
+  );
 }
 
-export async function fetchInstrument(actor: Actor, instrumentId: string): Promise<InstrumentRecord> {
+export async function fetchInstrument(
+  actor: Actor,
+  instrumentId: string,
+): Promise<InstrumentRecord> {
   const row = await loadInstrument(actor, instrumentId);
   return toInstrumentRecord(row, (await latestCalibrationOf(row.id))?.id ?? null);
 }
 
-export async function createInstrument(actor: Actor, input: InstrumentCreateInput): Promise<InstrumentRecord> {
+export async function createInstrument(
+  actor: Actor,
+  input: InstrumentCreateInput,
+): Promise<InstrumentRecord> {
   authorize(actor, "instrument.manage", { teamId: input.teamId });
   try {
     return await sequelize.transaction(async (transaction) => {
@@ -87,7 +106,14 @@ export async function createInstrument(actor: Actor, input: InstrumentCreateInpu
       );
       const record = toInstrumentRecord(row, null);
       await recordAudit(
-        { actorId: actor.id, teamId: input.teamId, action: "instrument.create", entity: "instrument", entityId: row.id, after: record },
+        {
+          actorId: actor.id,
+          teamId: input.teamId,
+          action: "instrument.create",
+          entity: "instrument",
+          entityId: row.id,
+          after: record,
+        },
         transaction,
       );
       return record;
@@ -131,11 +157,18 @@ const GEOMETRY_FIELDS: readonly EditableField[] = ["dispersion", "pixels"];
  * calibrations (make a new instrument instead). Left-out optional fields keep their value; a grating
  * has no glass or apex. Nothing changed saves nothing and writes no audit event.
  */
-export async function updateInstrument(actor: Actor, instrumentId: string, input: InstrumentUpdateInput): Promise<InstrumentRecord> {
+export async function updateInstrument(
+  actor: Actor,
+  instrumentId: string,
+  input: InstrumentUpdateInput,
+): Promise<InstrumentRecord> {
   await loadInstrument(actor, instrumentId, "instrument.manage");
   try {
     return await sequelize.transaction(async (transaction) => {
-      const row = await Instrument.findByPk(instrumentId, { transaction, lock: transaction.LOCK.UPDATE });
+      const row = await Instrument.findByPk(instrumentId, {
+        transaction,
+        lock: transaction.LOCK.UPDATE,
+      });
       if (!row) throw notFound("No such instrument.");
       if (row.version !== input.version) {
         throw new AppError(
@@ -164,7 +197,9 @@ export async function updateInstrument(actor: Actor, instrumentId: string, input
         const message =
           "This instrument has calibrations, and they (and the runs on them) were made on its present dispersion and pixel count. Add a new instrument for the new geometry instead.";
         throw new AppError("conflict", message, {
-          fieldErrors: Object.fromEntries(geometry.map((field) => [field, ["Fixed once the instrument has calibrations."]])),
+          fieldErrors: Object.fromEntries(
+            geometry.map((field) => [field, ["Fixed once the instrument has calibrations."]]),
+          ),
         });
       }
 

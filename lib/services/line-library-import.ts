@@ -68,7 +68,11 @@ function countDataLines(csvText: string): number {
     let end = csvText.indexOf("\n", start);
     if (end < 0) end = csvText.length;
     let i = start;
-    while (i < end && (csvText[i] === " " || csvText[i] === "\t" || csvText[i] === "\r" || csvText[i] === "\uFEFF")) i++;
+    while (
+      i < end &&
+      (csvText[i] === " " || csvText[i] === "\t" || csvText[i] === "\r" || csvText[i] === "\uFEFF")
+    )
+      i++;
     if (i < end && csvText[i] !== "#") count++;
     start = end + 1;
   }
@@ -85,7 +89,12 @@ async function plan(
   const draft = await lockDraft(actor, releaseId, "lines.edit", transaction, mode);
   const rows = await selectLines("l.release_id = $1", [draft.id], transaction);
   // The parse and the matching run in the worker pool: a large file no longer stalls other requests.
-  const planned = await runHeavyTask({ kind: "plan-line-import", releaseId: draft.id, csvText, draftRows: rows });
+  const planned = await runHeavyTask({
+    kind: "plan-line-import",
+    releaseId: draft.id,
+    csvText,
+    draftRows: rows,
+  });
   return { draft, planned };
 }
 

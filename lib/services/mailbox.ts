@@ -13,7 +13,9 @@ import { maskMailSecrets } from "@/lib/mail/mail-viewer";
 import { Invitation, Membership, User } from "@/models";
 
 function ledTeamIds(actor: Actor): string[] {
-  return actor.memberships.filter((m) => can(actor, "team.readMailbox", { teamId: m.teamId })).map((m) => m.teamId);
+  return actor.memberships
+    .filter((m) => can(actor, "team.readMailbox", { teamId: m.teamId }))
+    .map((m) => m.teamId);
 }
 
 export function canReadMailbox(actor: Actor): boolean {
@@ -23,11 +25,16 @@ export function canReadMailbox(actor: Actor): boolean {
 
 async function addressesOfTeams(teamIds: string[]): Promise<Set<string>> {
   const [members, invitations] = await Promise.all([
-    Membership.findAll({ where: { teamId: { [Op.in]: teamIds } }, include: [{ model: User, as: "user", attributes: ["email"] }] }),
+    Membership.findAll({
+      where: { teamId: { [Op.in]: teamIds } },
+      include: [{ model: User, as: "user", attributes: ["email"] }],
+    }),
     Invitation.findAll({ where: { teamId: { [Op.in]: teamIds } }, attributes: ["email"] }),
   ]);
   return new Set(
-    [...members.map((m) => (m.get("user") as User).email), ...invitations.map((i) => i.email)].map((e) => e.toLowerCase()),
+    [...members.map((m) => (m.get("user") as User).email), ...invitations.map((i) => i.email)].map(
+      (e) => e.toLowerCase(),
+    ),
   );
 }
 
@@ -43,5 +50,7 @@ export async function fetchMailbox(actor: Actor): Promise<StoredMail[]> {
   const messages = await readMailbox();
   if (env().openMailbox) return messages.map((m) => forReader(actor, m));
   const addresses = await addressesOfTeams(ledTeamIds(actor));
-  return messages.filter((m) => m.to.some((to) => addresses.has(to.toLowerCase()))).map((m) => forReader(actor, m));
+  return messages
+    .filter((m) => m.to.some((to) => addresses.has(to.toLowerCase())))
+    .map((m) => forReader(actor, m));
 }

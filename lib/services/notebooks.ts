@@ -5,14 +5,22 @@ import { QueryTypes } from "sequelize";
 import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize, type TeamAction } from "@/lib/auth/policy";
-import type { NotebookListQuery, NotebookRenameInput, NotebookRunsQuery } from "@/lib/validation/notebook-schemas";
+import type {
+  NotebookListQuery,
+  NotebookRenameInput,
+  NotebookRunsQuery,
+} from "@/lib/validation/notebook-schemas";
 import { Notebook, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import { overridesByRun, standingVerdicts } from "./runs";
 import type { NotebookRecord, RunCall, RunStatus, RunSummary } from "./workflow-types";
 
 /** A notebook the actor may act on; another team's is not found. */
-export async function loadNotebook(actor: Actor, notebookId: string, action: TeamAction = "team.view"): Promise<Notebook> {
+export async function loadNotebook(
+  actor: Actor,
+  notebookId: string,
+  action: TeamAction = "team.view",
+): Promise<Notebook> {
   const row = await Notebook.findByPk(notebookId);
   if (!row) throw notFound("No such notebook.");
   authorize(actor, action, { teamId: row.teamId });
@@ -70,7 +78,11 @@ function likePattern(text: string): string {
 }
 
 /** The team's notebooks whose title contains `q` (any case), most recently active first. */
-export async function fetchNotebooks(actor: Actor, teamId: string, query: NotebookListQuery = {}): Promise<NotebookRecord[]> {
+export async function fetchNotebooks(
+  actor: Actor,
+  teamId: string,
+  query: NotebookListQuery = {},
+): Promise<NotebookRecord[]> {
   authorize(actor, "team.view", { teamId });
   const rows = await sequelize.query<NotebookRow>(
     `${NOTEBOOK_SELECT}
@@ -80,22 +92,36 @@ export async function fetchNotebooks(actor: Actor, teamId: string, query: Notebo
   );
   return rows
     .map(toNotebookRecord)
-    .sort((a, b) => b.lastActivityAt.localeCompare(a.lastActivityAt) || b.createdAt.localeCompare(a.createdAt) || a.id.localeCompare(b.id));
+    .sort(
+      (a, b) =>
+        b.lastActivityAt.localeCompare(a.lastActivityAt) ||
+        b.createdAt.localeCompare(a.createdAt) ||
+        a.id.localeCompare(b.id),
+    );
 }
 
 export async function fetchNotebook(actor: Actor, notebookId: string): Promise<NotebookRecord> {
   const notebook = await loadNotebook(actor, notebookId);
-  const [row] = await sequelize.query<NotebookRow>(`${NOTEBOOK_SELECT} WHERE n.id = $1 GROUP BY n.id`, {
-    bind: [notebook.id],
-    type: QueryTypes.SELECT,
-  });
+  const [row] = await sequelize.query<NotebookRow>(
+    `${NOTEBOOK_SELECT} WHERE n.id = $1 GROUP BY n.id`,
+    {
+      bind: [notebook.id],
+      type: QueryTypes.SELECT,
+    },
+  );
   return toNotebookRecord(row);
 }
 
-export async function createNotebook(actor: Actor, input: { teamId: string; title: string }): Promise<NotebookRecord> {
+export async function createNotebook(
+  actor: Actor,
+  input: { teamId: string; title: string },
+): Promise<NotebookRecord> {
   authorize(actor, "notebook.create", { teamId: input.teamId });
   return sequelize.transaction(async (transaction) => {
-    const row = await Notebook.create({ teamId: input.teamId, title: input.title, createdById: actor.id }, { transaction });
+    const row = await Notebook.create(
+      { teamId: input.teamId, title: input.title, createdById: actor.id },
+      { transaction },
+    );
     await recordAudit(
       {
         actorId: actor.id,
@@ -125,14 +151,25 @@ export async function createNotebook(actor: Actor, input: { teamId: string; titl
  * Renames a notebook edited at `version`: a stale version (someone renamed it since) is a conflict and
  * changes nothing. The same title again changes nothing and writes no audit event.
  */
-export async function renameNotebook(actor: Actor, notebookId: string, input: NotebookRenameInput): Promise<NotebookRecord> {
+export async function renameNotebook(
+  actor: Actor,
+  notebookId: string,
+  input: NotebookRenameInput,
+): Promise<NotebookRecord> {
   const found = await loadNotebook(actor, notebookId, "notebook.create");
   await sequelize.transaction(async (transaction) => {
-    const row = (await Notebook.findByPk(found.id, { transaction, lock: transaction.LOCK.UPDATE }))!;
+    const row = (await Notebook.findByPk(found.id, {
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    }))!;
     if (row.version !== input.version) {
-      throw new AppError("conflict", "Someone renamed this notebook since you opened it. Reload to see the new title, then try again.", {
-        fieldErrors: { title: [`It is now called “${row.title}”.`] },
-      });
+      throw new AppError(
+        "conflict",
+        "Someone renamed this notebook since you opened it. Reload to see the new title, then try again.",
+        {
+          fieldErrors: { title: [`It is now called “${row.title}”.`] },
+        },
+      );
     }
     if (row.title === input.title) return;
     const before = { title: row.title, version: row.version };
@@ -182,7 +219,11 @@ function speciesMatches(species: string, needle: string): boolean {
  * instrument, a species that stands as present, and free text (sample label or file name, instrument,
  * author, notes).
  */
-export async function fetchNotebookRuns(actor: Actor, notebookId: string, query: NotebookRunsQuery = {}): Promise<RunSummary[]> {
+export async function fetchNotebookRuns(
+  actor: Actor,
+  notebookId: string,
+  query: NotebookRunsQuery = {},
+): Promise<RunSummary[]> {
   const notebook = await loadNotebook(actor, notebookId);
   const rows = await sequelize.query<RunRow>(
     `SELECT r.id, r.status, r.version_number, r.spectrum_id, r.source, r.calls, r.created_at, r.created_by_id,
@@ -199,7 +240,12 @@ export async function fetchNotebookRuns(actor: Actor, notebookId: string, query:
              OR u.name ILIKE $4 OR r.notes ILIKE $4)
       ORDER BY r.created_at DESC, r.id`,
     {
-      bind: [notebook.id, query.status ?? null, query.instrumentId ?? null, query.q ? likePattern(query.q) : null],
+      bind: [
+        notebook.id,
+        query.status ?? null,
+        query.instrumentId ?? null,
+        query.q ? likePattern(query.q) : null,
+      ],
       type: QueryTypes.SELECT,
     },
   );

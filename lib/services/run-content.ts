@@ -34,7 +34,15 @@ export interface RunContentSource {
   calibration: { id: string; model: string; rmsNm: number } | null;
   lineRelease: { id: string; number: number | null };
   /** Every override of the run, oldest first. */
-  overrides: { id: string; species: string; computedVerdict: string; verdict: string | null; reason: string; createdById: string | null; createdAt: string }[];
+  overrides: {
+    id: string;
+    species: string;
+    computedVerdict: string;
+    verdict: string | null;
+    reason: string;
+    createdById: string | null;
+    createdAt: string;
+  }[];
 }
 
 export const RUN_CONTENT_FORMAT = "emberline-run-content/1";
@@ -58,7 +66,13 @@ export function buildRunContent(source: RunContentSource): Record<string, unknow
     amendsRunId: run.amendsRunId,
     rerunOfId: run.rerunOfId,
     spectrum: { id: run.spectrumId, sha256: source.spectrumSha256 },
-    calibration: source.calibration ? { id: source.calibration.id, model: source.calibration.model, rmsNm: source.calibration.rmsNm } : null,
+    calibration: source.calibration
+      ? {
+          id: source.calibration.id,
+          model: source.calibration.model,
+          rmsNm: source.calibration.rmsNm,
+        }
+      : null,
     lineRelease: { id: source.lineRelease.id, number: source.lineRelease.number },
     source: run.source,
     settings: run.settings,
@@ -92,7 +106,8 @@ function sortKeys(value: unknown): unknown {
   if (Array.isArray(value)) return value.map(sortKeys);
   if (value && typeof value === "object" && !(value instanceof Date)) {
     const sorted: Record<string, unknown> = {};
-    for (const key of Object.keys(value).sort()) sorted[key] = sortKeys((value as Record<string, unknown>)[key]);
+    for (const key of Object.keys(value).sort())
+      sorted[key] = sortKeys((value as Record<string, unknown>)[key]);
     return sorted;
   }
   return value;

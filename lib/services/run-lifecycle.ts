@@ -24,7 +24,10 @@ export async function loadRun(
   action: TeamAction = "team.view",
   transaction?: Transaction,
 ): Promise<Run> {
-  const row = await Run.findByPk(runId, { transaction, lock: transaction ? transaction.LOCK.UPDATE : undefined });
+  const row = await Run.findByPk(runId, {
+    transaction,
+    lock: transaction ? transaction.LOCK.UPDATE : undefined,
+  });
   if (!row) throw notFound("No such run.");
   authorize(actor, action, { teamId: row.teamId });
   return row;

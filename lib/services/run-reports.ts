@@ -7,13 +7,29 @@ import { authorize } from "@/lib/auth/policy";
 import { notFound } from "@/lib/errors";
 import { formatNotebookCallsCsv, type NotebookCallsRun } from "@/lib/reports/notebook-calls-csv";
 import { formatPeaksCsv, type StoredPeakMatch } from "@/lib/reports/peaks-csv";
-import { buildRunReport, shortRunId, type ReportRound, type RunReport } from "@/lib/reports/report-model";
+import {
+  buildRunReport,
+  shortRunId,
+  type ReportRound,
+  type RunReport,
+} from "@/lib/reports/report-model";
 import type { ReportFile } from "@/lib/reports/report-response";
 import { formatRunSpectrumJdx } from "@/lib/reports/spectrum-jdx";
 import { thinSpectrum } from "@/lib/reports/thin-spectrum";
 import type { WavelengthMedium } from "@/lib/spectrum/types";
 import { runHeavyTask } from "@/lib/workers/heavy-pool";
-import { Calibration, Instrument, LineRelease, Notebook, Run, RunRound, RunSignature, SpectrumFile, Team, User } from "@/models";
+import {
+  Calibration,
+  Instrument,
+  LineRelease,
+  Notebook,
+  Run,
+  RunRound,
+  RunSignature,
+  SpectrumFile,
+  Team,
+  User,
+} from "@/models";
 import { toCalibrationRecord } from "./calibrations";
 import { loadNotebook } from "./notebooks";
 import { keepReportPdf, keptReportPdf } from "./report-cache";
@@ -43,7 +59,10 @@ async function loadReportRun(actor: Actor, runId: string): Promise<Run> {
   return row;
 }
 
-type ReportAndChart = { report: RunReport; chart: { wavelengthNm: Float64Array; counts: Float64Array } };
+type ReportAndChart = {
+  report: RunReport;
+  chart: { wavelengthNm: Float64Array; counts: Float64Array };
+};
 
 /** Everything the report shows, and the spectrum thinned for its chart. */
 export async function fetchRunReport(actor: Actor, runId: string): Promise<ReportAndChart> {
@@ -55,21 +74,30 @@ export async function fetchRunReport(actor: Actor, runId: string): Promise<Repor
  * and the chart are made from these rows rather than fetched again by the services that serve pages.
  */
 async function reportOf(row: Run): Promise<ReportAndChart> {
-  const [run, spectrumRow, calibrationRow, release, notebook, signature, rounds] = await Promise.all([
-    toRunRecord(row),
-    SpectrumFile.findByPk(row.spectrumId, { attributes: { exclude: ["rawBytes"] } }),
-    row.calibrationId ? Calibration.findByPk(row.calibrationId) : Promise.resolve(null),
-    LineRelease.findByPk(row.lineReleaseId, { attributes: ["id", "number", "publishedAt"] }),
-    Notebook.findByPk(row.notebookId, { attributes: ["id", "title"] }),
-    RunSignature.findOne({ where: { runId: row.id } }),
-    RunRound.findAll({ where: { runId: row.id }, order: [["round", "ASC"]] }),
-  ]);
+  const [run, spectrumRow, calibrationRow, release, notebook, signature, rounds] =
+    await Promise.all([
+      toRunRecord(row),
+      SpectrumFile.findByPk(row.spectrumId, { attributes: { exclude: ["rawBytes"] } }),
+      row.calibrationId ? Calibration.findByPk(row.calibrationId) : Promise.resolve(null),
+      LineRelease.findByPk(row.lineReleaseId, { attributes: ["id", "number", "publishedAt"] }),
+      Notebook.findByPk(row.notebookId, { attributes: ["id", "title"] }),
+      RunSignature.findOne({ where: { runId: row.id } }),
+      RunRound.findAll({ where: { runId: row.id }, order: [["round", "ASC"]] }),
+    ]);
   if (!spectrumRow || !notebook) throw notFound("No such run.");
-  const instrument = await Instrument.findByPk(spectrumRow.instrumentId, { attributes: ["id", "name", "dispersion"] });
+  const instrument = await Instrument.findByPk(spectrumRow.instrumentId, {
+    attributes: ["id", "name", "dispersion"],
+  });
   if (!instrument) throw notFound("No such run.");
   const calibration = calibrationRow ? toCalibrationRecord(calibrationRow) : null;
   const points = runSpectrumOf(row, spectrumRow, calibrationRow);
-  const spectrum = { id: spectrumRow.id, fileName: spectrumRow.fileName, label: spectrumRow.label, sha256: spectrumRow.sha256, points: spectrumRow.pointCount };
+  const spectrum = {
+    id: spectrumRow.id,
+    fileName: spectrumRow.fileName,
+    label: spectrumRow.label,
+    sha256: spectrumRow.sha256,
+    points: spectrumRow.pointCount,
+  };
   const names = await namesOf([
     run.createdById,
     ...rounds.flatMap((r) => [r.submittedById, r.requestedReviewerId, r.decidedById ?? null]),
@@ -78,8 +106,18 @@ async function reportOf(row: Run): Promise<ReportAndChart> {
   const report = buildRunReport({
     run,
     calibration,
-    release: { id: run.lineReleaseId, number: release?.number ?? null, publishedAt: release?.publishedAt?.toISOString() ?? null },
-    spectrum: { id: spectrum.id, fileName: spectrum.fileName, label: spectrum.label, sha256: spectrum.sha256, points: spectrum.points },
+    release: {
+      id: run.lineReleaseId,
+      number: release?.number ?? null,
+      publishedAt: release?.publishedAt?.toISOString() ?? null,
+    },
+    spectrum: {
+      id: spectrum.id,
+      fileName: spectrum.fileName,
+      label: spectrum.label,
+      sha256: spectrum.sha256,
+      points: spectrum.points,
+    },
     instrument: { name: instrument.name, dispersion: instrument.dispersion },
     notebook: { id: notebook.id, title: notebook.title },
     authorName: name(run.createdById),
@@ -92,18 +130,16 @@ async function reportOf(row: Run): Promise<ReportAndChart> {
           round: signature.round,
         }
       : null,
-    rounds: rounds.map(
-      (r): ReportRound => ({
-        round: r.round,
-        submittedByName: name(r.submittedById),
-        submittedAt: r.submittedAt.toISOString(),
-        requestedReviewerName: name(r.requestedReviewerId),
-        decision: r.decision ?? null,
-        decidedByName: name(r.decidedById),
-        decidedAt: r.decidedAt?.toISOString() ?? null,
-        comment: r.comment ?? "",
-      }),
-    ),
+    rounds: rounds.map((r): ReportRound => ({
+      round: r.round,
+      submittedByName: name(r.submittedById),
+      submittedAt: r.submittedAt.toISOString(),
+      requestedReviewerName: name(r.requestedReviewerId),
+      decision: r.decision ?? null,
+      decidedByName: name(r.decidedById),
+      decidedAt: r.decidedAt?.toISOString() ?? null,
+      comment: r.comment ?? "",
+    })),
     generatedAt: new Date().toISOString(),
   });
   const thin = thinSpectrum(points.wavelengthNm, points.counts, { maxPoints: CHART_POINTS });
@@ -126,7 +162,11 @@ const signedRenders = new Map<string, Promise<Buffer>>();
  */
 export async function runReportPdf(actor: Actor, runId: string): Promise<ReportFile> {
   const row = await loadReportRun(actor, runId);
-  const file = (body: Buffer): ReportFile => ({ fileName: `${baseName(row)}.pdf`, contentType: "application/pdf", body });
+  const file = (body: Buffer): ReportFile => ({
+    fileName: `${baseName(row)}.pdf`,
+    contentType: "application/pdf",
+    body,
+  });
   if (row.status !== "signed") return file((await renderPdf(row)).pdf);
   const kept = await keptReportPdf(row.id);
   if (kept) return file(kept);
@@ -146,20 +186,28 @@ export async function runPeaksCsv(actor: Actor, runId: string): Promise<ReportFi
   const row = await loadRun(actor, runId);
   const run = await toRunRecord(row);
   const body = formatPeaksCsv(run.peaks, row.matches as StoredPeakMatch[], run.calls, run.verdicts);
-  return { fileName: `${baseName(run)}-peaks.csv`, contentType: "text/csv; charset=utf-8; header=present", body };
+  return {
+    fileName: `${baseName(run)}-peaks.csv`,
+    contentType: "text/csv; charset=utf-8; header=present",
+    body,
+  };
 }
 
 export async function runSpectrumJdx(actor: Actor, runId: string): Promise<ReportFile> {
   const row = await loadRun(actor, runId);
   const [points, spectrum, release, team] = await Promise.all([
     fetchRunSpectrum(actor, row.id),
-    SpectrumFile.findByPk(row.spectrumId, { attributes: ["id", "fileName", "sha256", "xUnit", "medium"] }),
+    SpectrumFile.findByPk(row.spectrumId, {
+      attributes: ["id", "fileName", "sha256", "xUnit", "medium"],
+    }),
     LineRelease.findByPk(row.lineReleaseId, { attributes: ["id", "number"] }),
     Team.findByPk(row.teamId, { attributes: ["id", "name"] }),
   ]);
   // A lamp calibration maps onto the table's air wavelengths; a file's own axis is in air when its medium is known.
   const medium: WavelengthMedium | null =
-    row.calibrationId || spectrum!.xUnit === "wavenumber" || spectrum!.medium !== null ? "air" : null;
+    row.calibrationId || spectrum!.xUnit === "wavenumber" || spectrum!.medium !== null
+      ? "air"
+      : null;
   const body = formatRunSpectrumJdx({
     wavelengthNm: points.wavelengthNm,
     counts: points.counts,
@@ -175,7 +223,11 @@ export async function runSpectrumJdx(actor: Actor, runId: string): Promise<Repor
     origin: `Emberline, team ${team?.name ?? row.teamId}`,
     analysedAt: row.createdAt.toISOString(),
   });
-  return { fileName: `${baseName(row)}-spectrum.jdx`, contentType: "chemical/x-jcamp-dx; charset=utf-8", body };
+  return {
+    fileName: `${baseName(row)}-spectrum.jdx`,
+    contentType: "chemical/x-jcamp-dx; charset=utf-8",
+    body,
+  };
 }
 
 export async function notebookCallsCsv(actor: Actor, notebookId: string): Promise<ReportFile> {
@@ -190,9 +242,17 @@ export async function notebookCallsCsv(actor: Actor, notebookId: string): Promis
     ],
   });
   const runs = await toRunRecords(rows);
-  const spectra = await SpectrumFile.findAll({ where: { id: [...new Set(runs.map((r) => r.spectrumId))] }, attributes: ["id", "instrumentId"] });
-  const instruments = await Instrument.findAll({ where: { id: [...new Set(spectra.map((s) => s.instrumentId))] }, attributes: ["id", "name"] });
-  const instrumentOf = new Map(spectra.map((s) => [s.id, instruments.find((i) => i.id === s.instrumentId)?.name ?? ""]));
+  const spectra = await SpectrumFile.findAll({
+    where: { id: [...new Set(runs.map((r) => r.spectrumId))] },
+    attributes: ["id", "instrumentId"],
+  });
+  const instruments = await Instrument.findAll({
+    where: { id: [...new Set(spectra.map((s) => s.instrumentId))] },
+    attributes: ["id", "name"],
+  });
+  const instrumentOf = new Map(
+    spectra.map((s) => [s.id, instruments.find((i) => i.id === s.instrumentId)?.name ?? ""]),
+  );
   const names = await namesOf(runs.map((r) => r.createdById));
   const entries: NotebookCallsRun[] = runs.map((run) => ({
     run,

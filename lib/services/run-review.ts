@@ -12,7 +12,12 @@ import { authorize, can } from "@/lib/auth/policy";
 import { sendMail } from "@/lib/mail/send-mail";
 import { runReturnedMail, runSubmittedMail } from "@/lib/mail/templates";
 import type { Verdict } from "@/lib/spectrum/matching";
-import type { ReviewDecisionInput, ReviewMarkInput, ReviewQueueQuery, SubmitRunInput } from "@/lib/validation/review-schemas";
+import type {
+  ReviewDecisionInput,
+  ReviewMarkInput,
+  ReviewQueueQuery,
+  SubmitRunInput,
+} from "@/lib/validation/review-schemas";
 import {
   Calibration,
   LineRelease,
@@ -141,9 +146,13 @@ export interface ReviewQueue {
 // ---------------------------------------------------------------------------------------------
 // Shared checks
 
-const person = (user: User | null | undefined): PersonRef | null => (user ? { id: user.id, name: user.name } : null);
+const person = (user: User | null | undefined): PersonRef | null =>
+  user ? { id: user.id, name: user.name } : null;
 
-async function supervisorsOf(teamId: string, transaction?: Transaction): Promise<{ id: string; name: string; email: string }[]> {
+async function supervisorsOf(
+  teamId: string,
+  transaction?: Transaction,
+): Promise<{ id: string; name: string; email: string }[]> {
   const rows = await Membership.findAll({
     where: { teamId, role: "supervisor" },
     include: [{ model: User, as: "user", attributes: ["id", "name", "email"] }],
@@ -157,11 +166,16 @@ async function supervisorsOf(teamId: string, transaction?: Transaction): Promise
 
 /** Why this actor cannot review the run now, or null; the role itself is checked by `authorize`. */
 function decideRefusal(actor: Actor, run: Pick<Run, "status" | "createdById">): AppError | null {
-  if (run.createdById === actor.id) return forbidden("A supervisor cannot review or sign their own run: another supervisor of the team must.");
+  if (run.createdById === actor.id)
+    return forbidden(
+      "A supervisor cannot review or sign their own run: another supervisor of the team must.",
+    );
   if (run.status !== "submitted") {
     return new AppError(
       "conflict",
-      run.status === "signed" ? "This run is already signed: it is never changed (amend it to make a new version)." : "This run is not waiting for review.",
+      run.status === "signed"
+        ? "This run is already signed: it is never changed (amend it to make a new version)."
+        : "This run is not waiting for review.",
     );
   }
   return null;
@@ -180,7 +194,10 @@ function teamNameOf(actor: Actor, teamId: string): string {
   return actor.memberships.find((m) => m.teamId === teamId)?.teamName ?? "your team";
 }
 
-async function send(what: string, mail: { to: string[]; subject: string; text: string }): Promise<void> {
+async function send(
+  what: string,
+  mail: { to: string[]; subject: string; text: string },
+): Promise<void> {
   if (mail.to.length === 0) return;
   try {
     await sendMail(mail);
@@ -195,9 +212,21 @@ async function send(what: string, mail: { to: string[]; subject: string; text: s
 async function runContentOf(run: Run, transaction?: Transaction) {
   const [spectrum, calibration, release, overrides] = await Promise.all([
     SpectrumFile.findByPk(run.spectrumId, { attributes: ["id", "sha256"], transaction }),
-    run.calibrationId ? Calibration.findByPk(run.calibrationId, { attributes: ["id", "model", "rmsNm"], transaction }) : null,
+    run.calibrationId
+      ? Calibration.findByPk(run.calibrationId, {
+          attributes: ["id", "model", "rmsNm"],
+          transaction,
+        })
+      : null,
     LineRelease.findByPk(run.lineReleaseId, { attributes: ["id", "number"], transaction }),
-    RunOverride.findAll({ where: { runId: run.id }, order: [["createdAt", "ASC"], ["id", "ASC"]], transaction }),
+    RunOverride.findAll({
+      where: { runId: run.id },
+      order: [
+        ["createdAt", "ASC"],
+        ["id", "ASC"],
+      ],
+      transaction,
+    }),
   ]);
   return buildRunContent({
     run: {
@@ -225,7 +254,13 @@ async function runContentOf(run: Run, transaction?: Transaction) {
       createdById: run.createdById,
     },
     spectrumSha256: spectrum!.sha256,
-    calibration: calibration ? { id: calibration.id, model: calibrationModelLabel(calibration.model), rmsNm: calibration.rmsNm } : null,
+    calibration: calibration
+      ? {
+          id: calibration.id,
+          model: calibrationModelLabel(calibration.model),
+          rmsNm: calibration.rmsNm,
+        }
+      : null,
     lineRelease: { id: release!.id, number: release!.number },
     overrides: overrides.map((o) => ({
       id: o.id,
@@ -243,13 +278,19 @@ async function runContentOf(run: Run, transaction?: Transaction) {
  * The SHA-256 of a run's content as it stands in the tables now, or null when there is no such run.
  * Unauthorised: for the audit chain's verifier, which compares it with what was signed.
  */
-export async function recomputeRunContentHash(runId: string, transaction?: Transaction): Promise<string | null> {
+export async function recomputeRunContentHash(
+  runId: string,
+  transaction?: Transaction,
+): Promise<string | null> {
   const run = await Run.findByPk(runId, { transaction });
   return run ? runContentHash(await runContentOf(run, transaction)) : null;
 }
 
 /** A run's canonical content and its SHA-256, as a signature would cover it now (for reports and checks). */
-export async function fetchRunContent(actor: Actor, runId: string): Promise<{ content: Record<string, unknown>; contentHash: string }> {
+export async function fetchRunContent(
+  actor: Actor,
+  runId: string,
+): Promise<{ content: Record<string, unknown>; contentHash: string }> {
   const run = await loadRun(actor, runId);
   const content = await runContentOf(run);
   return { content, contentHash: runContentHash(content) };
@@ -258,28 +299,46 @@ export async function fetchRunContent(actor: Actor, runId: string): Promise<{ co
 // ---------------------------------------------------------------------------------------------
 // Submission
 
-export async function submitRun(actor: Actor, runId: string, input: SubmitRunInput): Promise<RunHistory> {
+export async function submitRun(
+  actor: Actor,
+  runId: string,
+  input: SubmitRunInput,
+): Promise<RunHistory> {
   const submitted = await sequelize.transaction(async (transaction) => {
     const run = await loadRun(actor, runId, "run.edit", transaction);
     assertAuthorMayEdit(actor, run);
-    const supervisors = (await supervisorsOf(run.teamId, transaction)).filter((s) => s.id !== actor.id);
+    const supervisors = (await supervisorsOf(run.teamId, transaction)).filter(
+      (s) => s.id !== actor.id,
+    );
     let recipients = supervisors;
     if (input.reviewerId) {
       const named = supervisors.find((s) => s.id === input.reviewerId);
       if (!named) {
-        throw new AppError("validation", "The reviewer must be a supervisor of the team other than the author.", {
-          fieldErrors: { reviewerId: ["Choose a supervisor of the team other than yourself."] },
-        });
+        throw new AppError(
+          "validation",
+          "The reviewer must be a supervisor of the team other than the author.",
+          {
+            fieldErrors: { reviewerId: ["Choose a supervisor of the team other than yourself."] },
+          },
+        );
       }
       recipients = [named];
     }
     if (recipients.length === 0) {
-      throw new AppError("unprocessable", "The team has no supervisor who could review this run: ask the lab lead to add one.");
+      throw new AppError(
+        "unprocessable",
+        "The team has no supervisor who could review this run: ask the lab lead to add one.",
+      );
     }
     const before = { status: run.status, round: run.reviewRound };
     const round = run.reviewRound + 1;
     await RunRound.create(
-      { runId: run.id, round, submittedById: actor.id, requestedReviewerId: input.reviewerId ?? null },
+      {
+        runId: run.id,
+        round,
+        submittedById: actor.id,
+        requestedReviewerId: input.reviewerId ?? null,
+      },
       { transaction },
     );
     await run.update(
@@ -304,7 +363,10 @@ export async function submitRun(actor: Actor, runId: string, input: SubmitRunInp
       },
       transaction,
     );
-    const spectrum = await SpectrumFile.findByPk(run.spectrumId, { attributes: ["label", "fileName"], transaction });
+    const spectrum = await SpectrumFile.findByPk(run.spectrumId, {
+      attributes: ["label", "fileName"],
+      transaction,
+    });
     return { run, round, recipients, label: runLabel(spectrum) };
   });
   await send("submission", {
@@ -326,7 +388,11 @@ export async function submitRun(actor: Actor, runId: string, input: SubmitRunInp
 
 const LINE_MATCH_NM = 1e-6;
 
-export async function addReviewMark(actor: Actor, runId: string, input: ReviewMarkInput): Promise<ReviewMarkRecord> {
+export async function addReviewMark(
+  actor: Actor,
+  runId: string,
+  input: ReviewMarkInput,
+): Promise<ReviewMarkRecord> {
   return sequelize.transaction(async (transaction) => {
     const run = await loadRun(actor, runId, "run.review", transaction);
     assertMayDecide(actor, run);
@@ -338,11 +404,17 @@ export async function addReviewMark(actor: Actor, runId: string, input: ReviewMa
     }
     const lineNm = input.lineNm ?? null;
     if (lineNm !== null) {
-      const known = [...call.lines, ...call.missing].some((l) => Math.abs(l.lineNm - lineNm) <= LINE_MATCH_NM);
+      const known = [...call.lines, ...call.missing].some(
+        (l) => Math.abs(l.lineNm - lineNm) <= LINE_MATCH_NM,
+      );
       if (!known) {
-        throw new AppError("validation", `No line at ${lineNm} nm belongs to the ${call.species} call.`, {
-          fieldErrors: { lineNm: ["Choose one of the call's lines."] },
-        });
+        throw new AppError(
+          "validation",
+          `No line at ${lineNm} nm belongs to the ${call.species} call.`,
+          {
+            fieldErrors: { lineNm: ["Choose one of the call's lines."] },
+          },
+        );
       }
     }
     const mark = await RunReviewMark.create(
@@ -397,10 +469,19 @@ export async function addReviewMark(actor: Actor, runId: string, input: ReviewMa
  * The signer's password, checked under the one password throttle of lib/services/accounts.ts, so
  * the signing form cannot be used to guess a password past the sign-in throttle.
  */
-async function assertSigningPassword(actor: Actor, password: string, address: string): Promise<void> {
+async function assertSigningPassword(
+  actor: Actor,
+  password: string,
+  address: string,
+): Promise<void> {
   const user = await User.findByPk(actor.id, { attributes: ["id", "email", "passwordHash"] });
   if (!user) throw new AppError("unauthenticated", "Sign in first.");
-  const valid = await checkPasswordThrottled({ email: user.email, password, address, passwordHash: user.passwordHash });
+  const valid = await checkPasswordThrottled({
+    email: user.email,
+    password,
+    address,
+    passwordHash: user.passwordHash,
+  });
   if (!valid) {
     throw new AppError("unauthenticated", "The password is not right. Nothing was signed.", {
       fieldErrors: { password: ["The password is not right."] },
@@ -417,17 +498,26 @@ export async function reviewRun(
   // Refuse early (role, authorship, state) without a lock, so a wrong password is only ever checked
   // for someone who could sign; everything is checked again under the row lock below.
   assertMayDecide(actor, await loadRun(actor, runId, "run.review"));
-  if (input.decision === "sign") await assertSigningPassword(actor, input.password ?? "", context.address);
+  if (input.decision === "sign")
+    await assertSigningPassword(actor, input.password ?? "", context.address);
 
   const decided = await sequelize.transaction(async (transaction) => {
     const run = await loadRun(actor, runId, "run.review", transaction);
     assertMayDecide(actor, run);
-    const round = await RunRound.findOne({ where: { runId: run.id, round: run.reviewRound }, transaction, lock: transaction.LOCK.UPDATE });
-    if (!round || round.decision) throw new AppError("conflict", "This review round is already decided.");
+    const round = await RunRound.findOne({
+      where: { runId: run.id, round: run.reviewRound },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
+    if (!round || round.decision)
+      throw new AppError("conflict", "This review round is already decided.");
     const before = { status: run.status, round: run.reviewRound };
     const now = new Date();
     if (input.decision === "return") {
-      await round.update({ decision: "returned", decidedById: actor.id, decidedAt: now, comment: input.comment }, { transaction });
+      await round.update(
+        { decision: "returned", decidedById: actor.id, decidedAt: now, comment: input.comment },
+        { transaction },
+      );
       await run.update({ status: "returned", lockVersion: run.lockVersion + 1 }, { transaction });
       await recordAudit(
         {
@@ -444,11 +534,25 @@ export async function reviewRun(
     } else {
       const contentHash = runContentHash(await runContentOf(run, transaction));
       await RunSignature.create(
-        { runId: run.id, round: run.reviewRound, signerId: actor.id, signerName: actor.name, meaning: SIGNATURE_MEANING, contentHash, signedAt: now },
+        {
+          runId: run.id,
+          round: run.reviewRound,
+          signerId: actor.id,
+          signerName: actor.name,
+          meaning: SIGNATURE_MEANING,
+          contentHash,
+          signedAt: now,
+        },
         { transaction },
       );
-      await round.update({ decision: "signed", decidedById: actor.id, decidedAt: now, comment: input.comment }, { transaction });
-      await run.update({ status: "signed", signedAt: now, lockVersion: run.lockVersion + 1 }, { transaction });
+      await round.update(
+        { decision: "signed", decidedById: actor.id, decidedAt: now, comment: input.comment },
+        { transaction },
+      );
+      await run.update(
+        { status: "signed", signedAt: now, lockVersion: run.lockVersion + 1 },
+        { transaction },
+      );
       await recordAudit(
         {
           actorId: actor.id,
@@ -457,13 +561,22 @@ export async function reviewRun(
           entity: "run",
           entityId: run.id,
           before,
-          after: { status: "signed", round: run.reviewRound, meaning: SIGNATURE_MEANING, signerName: actor.name, contentHash, comment: input.comment },
+          after: {
+            status: "signed",
+            round: run.reviewRound,
+            meaning: SIGNATURE_MEANING,
+            signerName: actor.name,
+            contentHash,
+            comment: input.comment,
+          },
         },
         transaction,
       );
     }
     const [author, spectrum] = await Promise.all([
-      run.createdById ? User.findByPk(run.createdById, { attributes: ["name", "email"], transaction }) : null,
+      run.createdById
+        ? User.findByPk(run.createdById, { attributes: ["name", "email"], transaction })
+        : null,
       SpectrumFile.findByPk(run.spectrumId, { attributes: ["label", "fileName"], transaction }),
     ]);
     return { run, author, label: runLabel(spectrum) };
@@ -489,18 +602,32 @@ export async function reviewRun(
 // Amendment of a signed run
 
 /** A new draft version of a signed run: the same analysis, notes and standing overrides, linked to it. */
-export async function amendRun(actor: Actor, runId: string): Promise<{ id: string; versionNumber: number; amendsRunId: string }> {
+export async function amendRun(
+  actor: Actor,
+  runId: string,
+): Promise<{ id: string; versionNumber: number; amendsRunId: string }> {
   try {
     return await sequelize.transaction(async (transaction) => {
       const signed = await loadRun(actor, runId, "run.edit", transaction);
       if (signed.status !== "signed") {
-        throw new AppError("conflict", "Only a signed run is amended; this one can still be changed by its author.");
+        throw new AppError(
+          "conflict",
+          "Only a signed run is amended; this one can still be changed by its author.",
+        );
       }
       if (signed.createdById !== actor.id && !can(actor, "run.review", { teamId: signed.teamId })) {
         throw forbidden("Only the run's author or a supervisor of the team amends a signed run.");
       }
-      const existing = await Run.findOne({ where: { amendsRunId: signed.id }, attributes: ["id", "versionNumber"], transaction });
-      if (existing) throw new AppError("conflict", `This run already has an amendment (version ${existing.versionNumber}): amend that one once it is signed.`);
+      const existing = await Run.findOne({
+        where: { amendsRunId: signed.id },
+        attributes: ["id", "versionNumber"],
+        transaction,
+      });
+      if (existing)
+        throw new AppError(
+          "conflict",
+          `This run already has an amendment (version ${existing.versionNumber}): amend that one once it is signed.`,
+        );
       const amendment = await Run.create(
         {
           teamId: signed.teamId,
@@ -533,13 +660,27 @@ export async function amendRun(actor: Actor, runId: string): Promise<{ id: strin
         { transaction },
       );
       // The overrides that stand on the signed version stand on the amendment too (withdrawn ones do not).
-      const overrides = await RunOverride.findAll({ where: { runId: signed.id }, order: [["createdAt", "ASC"], ["id", "ASC"]], transaction });
+      const overrides = await RunOverride.findAll({
+        where: { runId: signed.id },
+        order: [
+          ["createdAt", "ASC"],
+          ["id", "ASC"],
+        ],
+        transaction,
+      });
       const newest = new Map<string, RunOverride>();
       for (const o of overrides) newest.set(o.species, o);
       const carried = [...newest.values()].filter((o) => o.verdict !== null);
       for (const o of carried) {
         await RunOverride.create(
-          { runId: amendment.id, species: o.species, computedVerdict: o.computedVerdict, verdict: o.verdict, reason: o.reason, createdById: o.createdById },
+          {
+            runId: amendment.id,
+            species: o.species,
+            computedVerdict: o.computedVerdict,
+            verdict: o.verdict,
+            reason: o.reason,
+            createdById: o.createdById,
+          },
           { transaction },
         );
       }
@@ -550,7 +691,12 @@ export async function amendRun(actor: Actor, runId: string): Promise<{ id: strin
           action: "run.amend",
           entity: "run",
           entityId: amendment.id,
-          before: { runId: signed.id, status: signed.status, round: signed.reviewRound, versionNumber: signed.versionNumber },
+          before: {
+            runId: signed.id,
+            status: signed.status,
+            round: signed.reviewRound,
+            versionNumber: signed.versionNumber,
+          },
           after: {
             status: "draft",
             round: 0,
@@ -565,7 +711,8 @@ export async function amendRun(actor: Actor, runId: string): Promise<{ id: strin
     });
   } catch (error) {
     // Two amendments at once: the unique index lets one through.
-    if (error instanceof UniqueConstraintError) throw new AppError("conflict", "This run already has an amendment.");
+    if (error instanceof UniqueConstraintError)
+      throw new AppError("conflict", "This run already has an amendment.");
     throw error;
   }
 }
@@ -573,17 +720,19 @@ export async function amendRun(actor: Actor, runId: string): Promise<{ id: strin
 // ---------------------------------------------------------------------------------------------
 // Reading: history, the panel's state, the queue
 
-async function versionsOf(run: Run): Promise<{ versions: RunVersionRef[]; amendedById: string | null }> {
+async function versionsOf(
+  run: Run,
+): Promise<{ versions: RunVersionRef[]; amendedById: string | null }> {
   const attributes = ["id", "versionNumber", "status", "signedAt", "amendsRunId"];
   const chain: Run[] = [run];
-  for (let previousId = run.amendsRunId; previousId; ) {
+  for (let previousId = run.amendsRunId; previousId;) {
     const previous = await Run.findByPk(previousId, { attributes });
     if (!previous) break;
     chain.unshift(previous);
     previousId = previous.amendsRunId;
   }
   let amendedById: string | null = null;
-  for (let current = run.id; ; ) {
+  for (let current = run.id; ;) {
     const next = await Run.findOne({ where: { amendsRunId: current }, attributes });
     if (!next) break;
     if (current === run.id) amendedById = next.id;
@@ -591,7 +740,12 @@ async function versionsOf(run: Run): Promise<{ versions: RunVersionRef[]; amende
     current = next.id;
   }
   return {
-    versions: chain.map((r) => ({ id: r.id, versionNumber: r.versionNumber, status: r.status, signedAt: r.signedAt?.toISOString() ?? null })),
+    versions: chain.map((r) => ({
+      id: r.id,
+      versionNumber: r.versionNumber,
+      status: r.status,
+      signedAt: r.signedAt?.toISOString() ?? null,
+    })),
     amendedById,
   };
 }
@@ -609,14 +763,25 @@ async function historyOf(run: Run): Promise<RunHistory> {
     RunReviewMark.findAll({
       where: { runId: run.id },
       include: [{ model: User, as: "reviewer", attributes: ["id", "name"] }],
-      order: [["createdAt", "ASC"], ["id", "ASC"]],
+      order: [
+        ["createdAt", "ASC"],
+        ["id", "ASC"],
+      ],
     }),
-    RunSignature.findOne({ where: { runId: run.id }, include: [{ model: User, as: "signer", attributes: ["id", "name"] }] }),
+    RunSignature.findOne({
+      where: { runId: run.id },
+      include: [{ model: User, as: "signer", attributes: ["id", "name"] }],
+    }),
     versionsOf(run),
   ]);
-  const requestedIds = [...new Set(rounds.map((r) => r.requestedReviewerId).filter((id): id is string => Boolean(id)))];
+  const requestedIds = [
+    ...new Set(rounds.map((r) => r.requestedReviewerId).filter((id): id is string => Boolean(id))),
+  ];
   const requested = new Map(
-    (requestedIds.length ? await User.findAll({ where: { id: requestedIds }, attributes: ["id", "name"] }) : []).map((u) => [u.id, u]),
+    (requestedIds.length
+      ? await User.findAll({ where: { id: requestedIds }, attributes: ["id", "name"] })
+      : []
+    ).map((u) => [u.id, u]),
   );
   const markRecords: ReviewMarkRecord[] = marks.map((m) => ({
     id: m.id,
@@ -638,7 +803,9 @@ async function historyOf(run: Run): Promise<RunHistory> {
       round: r.round,
       submittedBy: person(r.get("submittedBy") as User | null),
       submittedAt: r.submittedAt.toISOString(),
-      requestedReviewer: person(r.requestedReviewerId ? requested.get(r.requestedReviewerId) : null),
+      requestedReviewer: person(
+        r.requestedReviewerId ? requested.get(r.requestedReviewerId) : null,
+      ),
       decision: r.decision ?? null,
       decidedBy: person(r.get("decidedBy") as User | null),
       decidedAt: r.decidedAt?.toISOString() ?? null,
@@ -679,12 +846,19 @@ export async function fetchRunReviewState(actor: Actor, runId: string): Promise<
     statusLabel: STATUS_LABEL[run.status as RunStatus],
     lockReason: lockReason(run),
     isAuthor,
-    maySubmit: isAuthor && lockReason(run) === null && can(actor, "run.edit", { teamId: run.teamId }),
+    maySubmit:
+      isAuthor && lockReason(run) === null && can(actor, "run.edit", { teamId: run.teamId }),
     isReviewer,
     mayDecide: isReviewer && refusal === null,
     whyNotDecide: refusal?.message ?? null,
-    mayAmend: run.status === "signed" && history.amendedById === null && (isAuthor || isReviewer) && can(actor, "run.edit", { teamId: run.teamId }),
-    reviewers: supervisors.filter((s) => s.id !== run.createdById).map((s) => ({ id: s.id, name: s.name })),
+    mayAmend:
+      run.status === "signed" &&
+      history.amendedById === null &&
+      (isAuthor || isReviewer) &&
+      can(actor, "run.edit", { teamId: run.teamId }),
+    reviewers: supervisors
+      .filter((s) => s.id !== run.createdById)
+      .map((s) => ({ id: s.id, name: s.name })),
     history,
   };
 }
@@ -710,7 +884,10 @@ const WAITING_FOR = `r.team_id = $1 AND r.status = 'submitted'
   AND r.created_by_id IS DISTINCT FROM $2`;
 
 /** Runs of the team waiting for the actor (named to them or to no one; never their own), oldest first. */
-export async function fetchReviewQueue(actor: Actor, query: ReviewQueueQuery): Promise<ReviewQueue> {
+export async function fetchReviewQueue(
+  actor: Actor,
+  query: ReviewQueueQuery,
+): Promise<ReviewQueue> {
   authorize(actor, "run.review", { teamId: query.teamId });
   const rows = await sequelize.query<QueueRow>(
     `SELECT r.id, r.submitted_at, r.review_round, r.version_number, r.requested_reviewer_id, r.calls, r.created_by_id,
@@ -747,7 +924,8 @@ export async function fetchReviewQueue(actor: Actor, query: ReviewQueueQuery): P
         .sort(),
     };
   });
-  const unique = <T extends { id: string; name: string }>(list: T[]) => [...new Map(list.map((x) => [x.id, x])).values()].sort((a, b) => a.name.localeCompare(b.name));
+  const unique = <T extends { id: string; name: string }>(list: T[]) =>
+    [...new Map(list.map((x) => [x.id, x])).values()].sort((a, b) => a.name.localeCompare(b.name));
   return {
     items: all.filter(
       (item) =>
@@ -767,9 +945,12 @@ export async function fetchReviewQueue(actor: Actor, query: ReviewQueueQuery): P
 /** How many runs wait for the actor in the team: the navigation's count (0 for non-supervisors). */
 export async function countRunsWaitingFor(actor: Actor, teamId: string): Promise<number> {
   if (!can(actor, "run.review", { teamId })) return 0;
-  const [row] = await sequelize.query<{ count: string }>(`SELECT count(*) AS count FROM runs r WHERE ${WAITING_FOR}`, {
-    bind: [teamId, actor.id],
-    type: QueryTypes.SELECT,
-  });
+  const [row] = await sequelize.query<{ count: string }>(
+    `SELECT count(*) AS count FROM runs r WHERE ${WAITING_FOR}`,
+    {
+      bind: [teamId, actor.id],
+      type: QueryTypes.SELECT,
+    },
+  );
   return Number(row?.count ?? 0);
 }

@@ -23,7 +23,10 @@ export function fileAxisInNm(spectrum: SpectrumFile): { x: Float64Array; y: Floa
 }
 
 /** A stored spectrum's points on its own axis, as plain arrays (for previews of uploads and lamps). */
-export async function fetchSpectrumPoints(actor: Actor, spectrumId: string): Promise<{ x: Float64Array; y: Float64Array }> {
+export async function fetchSpectrumPoints(
+  actor: Actor,
+  spectrumId: string,
+): Promise<{ x: Float64Array; y: Float64Array }> {
   return spectrumPoints(await loadSpectrum(actor, spectrumId));
 }
 

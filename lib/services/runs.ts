@@ -6,14 +6,34 @@ import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
 import { toReferenceLine } from "@/lib/lines";
-import { analyzeSample, type AnalyzeSampleOptions, type DetectionLimit, type SampleAnalysis } from "@/lib/spectrum/analysis";
+import {
+  analyzeSample,
+  type AnalyzeSampleOptions,
+  type DetectionLimit,
+  type SampleAnalysis,
+} from "@/lib/spectrum/analysis";
 import { dispersionAt, type CalibrationModel } from "@/lib/spectrum/calibration";
-import { prepareLineIndex, type ElementCall, type LineIndex, type Verdict } from "@/lib/spectrum/matching";
+import {
+  prepareLineIndex,
+  type ElementCall,
+  type LineIndex,
+  type Verdict,
+} from "@/lib/spectrum/matching";
 import type { RunNotesInput, RunOverrideInput } from "@/lib/validation/run-schemas";
 import type { RunCreateInput } from "@/lib/validation/workflow-schemas";
 import { runHeavyTask } from "@/lib/workers/heavy-pool";
 import type { Transaction } from "sequelize";
-import { Calibration, Instrument, LineRelease, Notebook, Run, RunOverride, SpectrumFile, User, sequelize } from "@/models";
+import {
+  Calibration,
+  Instrument,
+  LineRelease,
+  Notebook,
+  Run,
+  RunOverride,
+  SpectrumFile,
+  User,
+  sequelize,
+} from "@/models";
 import { recordAudit } from "./audit";
 import { newestPublishedRelease } from "./calibrations";
 import { latestCalibrationOf } from "./instruments";
@@ -100,7 +120,10 @@ function toRunCall(call: ElementCall, limit: DetectionLimit | undefined): Stored
     seenPeaks: call.seenPeaks,
     missingCount: call.missingCount,
     missingStrongCount: call.missingStrongCount,
-    overlaps: call.overlaps.map((o) => ({ peakNm: o.peakWavelengthNm, otherSpecies: o.otherSpecies })),
+    overlaps: call.overlaps.map((o) => ({
+      peakNm: o.peakWavelengthNm,
+      otherSpecies: o.otherSpecies,
+    })),
     intensityBasis: call.intensityBasis,
     notes: call.notes,
     rationale: call.rationale,
@@ -109,7 +132,10 @@ function toRunCall(call: ElementCall, limit: DetectionLimit | undefined): Stored
 }
 
 /** The override history of several runs at once (one query), oldest first per run, as standingVerdicts expects. */
-export async function overridesByRun(runIds: readonly string[], transaction?: Transaction): Promise<Map<string, RunOverrideRecord[]>> {
+export async function overridesByRun(
+  runIds: readonly string[],
+  transaction?: Transaction,
+): Promise<Map<string, RunOverrideRecord[]>> {
   const byRun = new Map<string, RunOverrideRecord[]>();
   if (runIds.length === 0) return byRun;
   const rows = await RunOverride.findAll({
@@ -142,7 +168,10 @@ async function overridesOf(runId: string, transaction?: Transaction): Promise<Ru
 }
 
 /** The verdict that stands per species: the newest override, else the computed verdict. */
-export function standingVerdicts(calls: readonly StoredRunCall[], overrides: readonly RunOverrideRecord[]): Record<string, Verdict> {
+export function standingVerdicts(
+  calls: readonly StoredRunCall[],
+  overrides: readonly RunOverrideRecord[],
+): Record<string, Verdict> {
   const verdicts: Record<string, Verdict> = {};
   for (const call of calls) verdicts[call.species] = call.verdict;
   for (const o of overrides) {
@@ -156,7 +185,10 @@ export function standingVerdicts(calls: readonly StoredRunCall[], overrides: rea
  * Run records of several runs with two queries in all (their overrides, their releases' numbers),
  * whatever their number: a notebook's calls CSV reads every run of it.
  */
-export async function toRunRecords(rows: readonly Run[], transaction?: Transaction): Promise<RunRecord[]> {
+export async function toRunRecords(
+  rows: readonly Run[],
+  transaction?: Transaction,
+): Promise<RunRecord[]> {
   if (rows.length === 0) return [];
   const [overrides, releases] = await Promise.all([
     overridesByRun(
@@ -170,14 +202,20 @@ export async function toRunRecords(rows: readonly Run[], transaction?: Transacti
     }),
   ]);
   const numberOf = new Map(releases.map((r) => [r.id, r.number]));
-  return rows.map((row) => runRecordOf(row, overrides.get(row.id) ?? [], numberOf.get(row.lineReleaseId) ?? null));
+  return rows.map((row) =>
+    runRecordOf(row, overrides.get(row.id) ?? [], numberOf.get(row.lineReleaseId) ?? null),
+  );
 }
 
 export async function toRunRecord(row: Run, transaction?: Transaction): Promise<RunRecord> {
   return (await toRunRecords([row], transaction))[0];
 }
 
-function runRecordOf(row: Run, overrides: RunOverrideRecord[], releaseNumber: number | null): RunRecord {
+function runRecordOf(
+  row: Run,
+  overrides: RunOverrideRecord[],
+  releaseNumber: number | null,
+): RunRecord {
   const stored = row.calls as StoredRunCall[];
   const verdicts = standingVerdicts(stored, overrides);
   const calls: RunCall[] = stored.map((c) => {
@@ -241,16 +279,21 @@ export async function createRun(actor: Actor, input: RunCreateInput): Promise<Ru
   let calibration: Calibration | null = null;
   if (input.calibrationId) {
     calibration = await Calibration.findByPk(input.calibrationId);
-    if (!calibration || calibration.teamId !== notebook.teamId) throw notFound("No such calibration.");
+    if (!calibration || calibration.teamId !== notebook.teamId)
+      throw notFound("No such calibration.");
     if (calibration.instrumentId !== spectrum.instrumentId) {
       throw new AppError("validation", "That calibration belongs to another instrument.", {
         fieldErrors: { calibrationId: ["Choose a calibration of the sample's instrument."] },
       });
     }
     if (calibration.xUnit !== spectrum.xUnit) {
-      throw new AppError("validation", `That calibration maps a ${calibration.xUnit} axis; the sample's axis is ${spectrum.xUnit}.`, {
-        fieldErrors: { calibrationId: ["Choose a calibration made on the same kind of axis."] },
-      });
+      throw new AppError(
+        "validation",
+        `That calibration maps a ${calibration.xUnit} axis; the sample's axis is ${spectrum.xUnit}.`,
+        {
+          fieldErrors: { calibrationId: ["Choose a calibration made on the same kind of axis."] },
+        },
+      );
     }
   } else {
     const latest = await latestCalibrationOf(spectrum.instrumentId);
@@ -284,7 +327,9 @@ export async function rerunRun(actor: Actor, runId: string): Promise<RunRecord> 
   const notebook = (await Notebook.findByPk(earlier.notebookId))!;
   const spectrum = (await SpectrumFile.findByPk(earlier.spectrumId))!;
   const instrument = (await Instrument.findByPk(spectrum.instrumentId))!;
-  const calibration = earlier.calibrationId ? await Calibration.findByPk(earlier.calibrationId) : null;
+  const calibration = earlier.calibrationId
+    ? await Calibration.findByPk(earlier.calibrationId)
+    : null;
   const [release, used] = await Promise.all([
     newestPublishedRelease(earlier.teamId),
     LineRelease.findByPk(earlier.lineReleaseId, { attributes: ["number"] }),
@@ -308,7 +353,10 @@ export async function rerunRun(actor: Actor, runId: string): Promise<RunRecord> 
 }
 
 /** The team's newest published release when it is newer than the one the run used, else null. */
-export async function newerReleaseFor(actor: Actor, runId: string): Promise<{ id: string; number: number } | null> {
+export async function newerReleaseFor(
+  actor: Actor,
+  runId: string,
+): Promise<{ id: string; number: number } | null> {
   const run = await loadRun(actor, runId);
   const [newest, used] = await Promise.all([
     newestPublishedRelease(run.teamId),
@@ -331,8 +379,12 @@ function instrumentResolution(
 ): { resolutionNm?: number; resolutionPx?: number } {
   if (instrument.dispersion === "grating") return { resolutionNm: instrument.resolutionNm };
   if (!calibration || x.length < 2) return {};
-  const slope = Math.abs(dispersionAt(calibration, Float64Array.of(0.5 * (x[0] + x[x.length - 1])))[0]);
-  return slope > 0 && Number.isFinite(slope) ? { resolutionPx: instrument.resolutionNm / slope } : {};
+  const slope = Math.abs(
+    dispersionAt(calibration, Float64Array.of(0.5 * (x[0] + x[x.length - 1])))[0],
+  );
+  return slope > 0 && Number.isFinite(slope)
+    ? { resolutionPx: instrument.resolutionNm / slope }
+    : {};
 }
 
 /** The continuum as little-endian float64, one value per analysed point. */
@@ -384,7 +436,8 @@ async function analyseAndStore(actor: Actor, plan: RunPlan): Promise<RunRecord> 
       lteTemperatureK: settings.temperatureK,
     });
   } catch (error) {
-    if (error instanceof RangeError) throw new AppError("unprocessable", `The sample could not be analysed: ${error.message}`);
+    if (error instanceof RangeError)
+      throw new AppError("unprocessable", `The sample could not be analysed: ${error.message}`);
     throw error;
   }
 
@@ -411,8 +464,14 @@ async function analyseAndStore(actor: Actor, plan: RunPlan): Promise<RunRecord> 
       deltaSigma: c.deltaSigma,
     })),
   }));
-  const calls = identification.calls.map((call) => toRunCall(call, analysis.detectionLimits[call.species]));
-  const overlaps = identification.overlaps.map((o) => ({ peakIndex: o.peakIndex, peakNm: o.peakWavelengthNm, species: o.species }));
+  const calls = identification.calls.map((call) =>
+    toRunCall(call, analysis.detectionLimits[call.species]),
+  );
+  const overlaps = identification.overlaps.map((o) => ({
+    peakIndex: o.peakIndex,
+    peakNm: o.peakWavelengthNm,
+    species: o.species,
+  }));
   const unexplained = identification.unexplainedPeaks.map((u) => ({
     wavelengthNm: u.peak.wavelengthNm,
     height: u.peak.height,
@@ -482,7 +541,11 @@ async function analyseAndStore(actor: Actor, plan: RunPlan): Promise<RunRecord> 
  * run's overrides with the computed verdict, audited with the standing verdict before and after.
  * Only the run's author, only while it is a draft or returned.
  */
-export async function overrideCall(actor: Actor, runId: string, input: RunOverrideInput): Promise<RunRecord> {
+export async function overrideCall(
+  actor: Actor,
+  runId: string,
+  input: RunOverrideInput,
+): Promise<RunRecord> {
   return sequelize.transaction(async (transaction) => {
     const run = await loadRun(actor, runId, "run.edit", transaction);
     assertAuthorMayEdit(actor, run);
@@ -497,9 +560,13 @@ export async function overrideCall(actor: Actor, runId: string, input: RunOverri
     const before = standingVerdicts(calls, overrides)[call.species];
     const newest = overrides.findLast((o) => o.species === call.species);
     if (input.verdict === null && (!newest || newest.verdict === null)) {
-      throw new AppError("validation", `The call for ${call.species} has no override to withdraw.`, {
-        fieldErrors: { verdict: ["Choose a verdict: there is no override to withdraw."] },
-      });
+      throw new AppError(
+        "validation",
+        `The call for ${call.species} has no override to withdraw.`,
+        {
+          fieldErrors: { verdict: ["Choose a verdict: there is no override to withdraw."] },
+        },
+      );
     }
     await RunOverride.create(
       {
@@ -520,7 +587,12 @@ export async function overrideCall(actor: Actor, runId: string, input: RunOverri
         entity: "run",
         entityId: run.id,
         before: { species: call.species, verdict: before },
-        after: { species: call.species, verdict: input.verdict ?? call.verdict, override: input.verdict, computedVerdict: call.verdict },
+        after: {
+          species: call.species,
+          verdict: input.verdict ?? call.verdict,
+          override: input.verdict,
+          computedVerdict: call.verdict,
+        },
         reason: input.reason,
       },
       transaction,
@@ -530,12 +602,19 @@ export async function overrideCall(actor: Actor, runId: string, input: RunOverri
 }
 
 /** Saves the run's notes when `lockVersion` is the one stored (else 409); author only, while editable. */
-export async function updateRunNotes(actor: Actor, runId: string, input: RunNotesInput): Promise<RunRecord> {
+export async function updateRunNotes(
+  actor: Actor,
+  runId: string,
+  input: RunNotesInput,
+): Promise<RunRecord> {
   return sequelize.transaction(async (transaction) => {
     const run = await loadRun(actor, runId, "run.edit", transaction);
     assertAuthorMayEdit(actor, run);
     if (run.lockVersion !== input.lockVersion) {
-      throw new AppError("conflict", "The notes were changed since you opened them: reload the run, then write your change again.");
+      throw new AppError(
+        "conflict",
+        "The notes were changed since you opened them: reload the run, then write your change again.",
+      );
     }
     if (run.notes === input.notes) return await toRunRecord(run, transaction);
     const before = run.notes;
@@ -569,7 +648,11 @@ export async function fetchRunChanges(actor: Actor, run: RunRecord): Promise<Run
   for (const [species, now] of after) {
     const then = before.get(species);
     if (then && (then.verdict !== now.verdict || Math.abs(then.score - now.score) >= 0.005)) {
-      changedCalls.push({ species, before: { verdict: then.verdict, score: then.score }, after: { verdict: now.verdict, score: now.score } });
+      changedCalls.push({
+        species,
+        before: { verdict: then.verdict, score: then.score },
+        after: { verdict: now.verdict, score: now.score },
+      });
     }
   }
   const unexplainedThen = earlier.unexplained.map((u) => u.wavelengthNm);
@@ -579,9 +662,15 @@ export async function fetchRunChanges(actor: Actor, run: RunRecord): Promise<Run
     earlierReleaseNumber: earlier.lineReleaseNumber,
     releaseNumber: run.lineReleaseNumber,
     changedCalls,
-    newSpecies: run.calls.filter((c) => !before.has(c.species)).map((c) => ({ species: c.species, verdict: c.verdict })),
-    goneSpecies: earlier.calls.filter((c) => !after.has(c.species)).map((c) => ({ species: c.species, verdict: c.verdict })),
+    newSpecies: run.calls
+      .filter((c) => !before.has(c.species))
+      .map((c) => ({ species: c.species, verdict: c.verdict })),
+    goneSpecies: earlier.calls
+      .filter((c) => !after.has(c.species))
+      .map((c) => ({ species: c.species, verdict: c.verdict })),
     newlyExplainedNm: unexplainedThen.filter((nm) => !unexplainedNow.some((n) => samePeak(n, nm))),
-    newlyUnexplainedNm: unexplainedNow.filter((nm) => !unexplainedThen.some((n) => samePeak(n, nm))),
+    newlyUnexplainedNm: unexplainedNow.filter(
+      (nm) => !unexplainedThen.some((n) => samePeak(n, nm)),
+    ),
   };
 }

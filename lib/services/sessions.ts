@@ -25,7 +25,10 @@ export async function sessionUserId(sessionId: string): Promise<string | null> {
 }
 
 export async function revokeSession(sessionId: string): Promise<void> {
-  await UserSession.update({ revokedAt: new Date() }, { where: { id: sessionId, revokedAt: null } });
+  await UserSession.update(
+    { revokedAt: new Date() },
+    { where: { id: sessionId, revokedAt: null } },
+  );
 }
 
 /** Ends every session of a person, except optionally the one making the request; answers how many ended. */
@@ -36,7 +39,11 @@ export async function revokeSessionsOf(
   const [ended] = await UserSession.update(
     { revokedAt: new Date() },
     {
-      where: { userId, revokedAt: null, ...(options.except ? { id: { [Op.ne]: options.except } } : {}) },
+      where: {
+        userId,
+        revokedAt: null,
+        ...(options.except ? { id: { [Op.ne]: options.except } } : {}),
+      },
       transaction: options.transaction,
     },
   );

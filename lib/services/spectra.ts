@@ -8,7 +8,12 @@ import { thinSeries } from "@/lib/charts/thin-series";
 import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize, type TeamAction } from "@/lib/auth/policy";
-import { SpectrumParseError, decodeSpectrumBytes, parseSpectrumFile, spectrumFitToInstrument } from "@/lib/spectrum/io";
+import {
+  SpectrumParseError,
+  decodeSpectrumBytes,
+  parseSpectrumFile,
+  spectrumFitToInstrument,
+} from "@/lib/spectrum/io";
 import type { AxisUnit } from "@/lib/spectrum/types";
 import { MAX_UPLOAD_BYTES, MAX_UPLOAD_POINTS } from "@/lib/validation/workflow-schemas";
 import { SpectrumFile, sequelize } from "@/models";
@@ -33,7 +38,11 @@ export function bytesToFloat64(bytes: Buffer): Float64Array {
   return values;
 }
 
-function toSpectrumRecord(row: SpectrumFile, duplicateOf: SpectrumRecord["duplicateOf"], xRange: [number, number]): SpectrumRecord {
+function toSpectrumRecord(
+  row: SpectrumFile,
+  duplicateOf: SpectrumRecord["duplicateOf"],
+  xRange: [number, number],
+): SpectrumRecord {
   return {
     id: row.id,
     teamId: row.teamId,
@@ -53,18 +62,31 @@ function toSpectrumRecord(row: SpectrumFile, duplicateOf: SpectrumRecord["duplic
   };
 }
 
-async function earlierUpload(row: { teamId: string; sha256: string; id?: string }, transaction?: Transaction) {
+async function earlierUpload(
+  row: { teamId: string; sha256: string; id?: string },
+  transaction?: Transaction,
+) {
   const earlier = await SpectrumFile.findOne({
-    where: { teamId: row.teamId, sha256: row.sha256, ...(row.id ? { id: { [Op.ne]: row.id } } : {}) },
+    where: {
+      teamId: row.teamId,
+      sha256: row.sha256,
+      ...(row.id ? { id: { [Op.ne]: row.id } } : {}),
+    },
     attributes: ["id", "fileName", "createdAt"],
     order: [["createdAt", "ASC"]],
     transaction,
   });
-  return earlier ? { id: earlier.id, fileName: earlier.fileName, uploadedAt: earlier.createdAt.toISOString() } : null;
+  return earlier
+    ? { id: earlier.id, fileName: earlier.fileName, uploadedAt: earlier.createdAt.toISOString() }
+    : null;
 }
 
 /** A stored spectrum the actor may act on; another team's is not found. */
-export async function loadSpectrum(actor: Actor, spectrumId: string, action: TeamAction = "instrument.view"): Promise<SpectrumFile> {
+export async function loadSpectrum(
+  actor: Actor,
+  spectrumId: string,
+  action: TeamAction = "instrument.view",
+): Promise<SpectrumFile> {
   const row = await SpectrumFile.findByPk(spectrumId);
   if (!row) throw notFound("No such spectrum.");
   authorize(actor, action, { teamId: row.teamId });
@@ -87,7 +109,11 @@ export async function fetchSpectrum(actor: Actor, spectrumId: string): Promise<S
  * The team's spectra, newest first, optionally of one instrument and one kind. An instrument of
  * another team is not found. Only the first and last x values are read, never the bytes or points.
  */
-export async function fetchSpectra(actor: Actor, teamId: string, query: SpectraQuery = {}): Promise<SpectrumSummary[]> {
+export async function fetchSpectra(
+  actor: Actor,
+  teamId: string,
+  query: SpectraQuery = {},
+): Promise<SpectrumSummary[]> {
   authorize(actor, "instrument.view", { teamId });
   if (query.instrumentId) {
     const instrument = await loadInstrument(actor, query.instrumentId);
@@ -178,17 +204,25 @@ export interface SpectrumPreview {
 async function checkUpload(actor: Actor, upload: SpectrumUpload) {
   const instrument = await loadInstrument(actor, upload.instrumentId, "spectrum.upload");
   if (upload.bytes.length > MAX_UPLOAD_BYTES) {
-    throw new AppError("too_large", `The file is ${upload.bytes.length} bytes; the limit is ${MAX_UPLOAD_BYTES} bytes (16 MiB).`);
+    throw new AppError(
+      "too_large",
+      `The file is ${upload.bytes.length} bytes; the limit is ${MAX_UPLOAD_BYTES} bytes (16 MiB).`,
+    );
   }
   let spectrum;
   try {
     const text = decodeSpectrumBytes(upload.bytes, { maxBytes: MAX_UPLOAD_BYTES });
-    spectrum = parseSpectrumFile(text, { xUnit: upload.xUnit, maxBytes: MAX_UPLOAD_BYTES, maxPoints: MAX_UPLOAD_POINTS });
+    spectrum = parseSpectrumFile(text, {
+      xUnit: upload.xUnit,
+      maxBytes: MAX_UPLOAD_BYTES,
+      maxPoints: MAX_UPLOAD_POINTS,
+    });
   } catch (error) {
     if (error instanceof SpectrumParseError) {
       throw new AppError("validation", error.message, { fieldErrors: { file: [error.message] } });
     }
-    if (error instanceof RangeError) throw new AppError("validation", error.message, { fieldErrors: { file: [error.message] } });
+    if (error instanceof RangeError)
+      throw new AppError("validation", error.message, { fieldErrors: { file: [error.message] } });
     throw error;
   }
   // A file that cannot have come from this instrument's detector is refused; one mostly outside its
@@ -198,14 +232,18 @@ async function checkUpload(actor: Actor, upload: SpectrumUpload) {
     pixels: instrument.pixels,
     nominalRangeNm: [instrument.nominalMinNm, instrument.nominalMaxNm],
   });
-  if (fit.refusal) throw new AppError("validation", fit.refusal, { fieldErrors: { file: [fit.refusal] } });
+  if (fit.refusal)
+    throw new AppError("validation", fit.refusal, { fieldErrors: { file: [fit.refusal] } });
   const raw = Buffer.from(upload.bytes.buffer, upload.bytes.byteOffset, upload.bytes.byteLength);
   const sha256 = createHash("sha256").update(raw).digest("hex");
   return { instrument, spectrum, raw, sha256, warnings: fit.warnings };
 }
 
 /** Parses and checks an upload exactly as uploadSpectrum does, and returns what it would store; stores nothing. */
-export async function previewSpectrumUpload(actor: Actor, upload: SpectrumUpload): Promise<SpectrumPreview> {
+export async function previewSpectrumUpload(
+  actor: Actor,
+  upload: SpectrumUpload,
+): Promise<SpectrumPreview> {
   const { instrument, spectrum, raw, sha256, warnings } = await checkUpload(actor, upload);
   let yMin = Infinity;
   let yMax = -Infinity;
@@ -232,7 +270,10 @@ export async function previewSpectrumUpload(actor: Actor, upload: SpectrumUpload
   };
 }
 
-export async function uploadSpectrum(actor: Actor, upload: SpectrumUpload): Promise<SpectrumRecord> {
+export async function uploadSpectrum(
+  actor: Actor,
+  upload: SpectrumUpload,
+): Promise<SpectrumRecord> {
   const { instrument, spectrum, raw, sha256 } = await checkUpload(actor, upload);
   return sequelize.transaction(async (transaction) => {
     const duplicateOf = await earlierUpload({ teamId: instrument.teamId, sha256 }, transaction);
@@ -256,7 +297,10 @@ export async function uploadSpectrum(actor: Actor, upload: SpectrumUpload): Prom
       },
       { transaction },
     );
-    const record = toSpectrumRecord(row, duplicateOf, [spectrum.x[0], spectrum.x[spectrum.x.length - 1]]);
+    const record = toSpectrumRecord(row, duplicateOf, [
+      spectrum.x[0],
+      spectrum.x[spectrum.x.length - 1],
+    ]);
     await recordAudit(
       {
         actorId: actor.id,

@@ -43,13 +43,21 @@ export async function fetchTeamMembers(actor: Actor, teamId: string): Promise<Te
     .sort((a, b) => a.name.localeCompare(b.name));
 }
 
-export async function fetchPendingInvitations(actor: Actor, teamId: string): Promise<PendingInvitation[]> {
+export async function fetchPendingInvitations(
+  actor: Actor,
+  teamId: string,
+): Promise<PendingInvitation[]> {
   authorize(actor, "team.manageMembers", { teamId });
   const rows = await Invitation.findAll({
     where: { teamId, acceptedAt: null, revokedAt: null, expiresAt: { [Op.gt]: new Date() } },
     order: [["createdAt", "DESC"]],
   });
-  return rows.map((r) => ({ id: r.id, email: r.email, role: r.role, expiresAt: r.expiresAt.toISOString() }));
+  return rows.map((r) => ({
+    id: r.id,
+    email: r.email,
+    role: r.role,
+    expiresAt: r.expiresAt.toISOString(),
+  }));
 }
 
 export async function inviteMember(
@@ -62,7 +70,13 @@ export async function inviteMember(
   if (!team) throw notFound();
   const existing = await Membership.findOne({
     where: { teamId: team.id },
-    include: [{ model: User, as: "user", where: sequelize.where(sequelize.fn("lower", sequelize.col("user.email")), email) }],
+    include: [
+      {
+        model: User,
+        as: "user",
+        where: sequelize.where(sequelize.fn("lower", sequelize.col("user.email")), email),
+      },
+    ],
   });
   if (existing) {
     throw new AppError("conflict", `${email} is already a member of ${team.name}.`, {
@@ -109,7 +123,12 @@ async function findOpenInvitation(token: string) {
     where: { tokenHash: hashToken(token) },
     include: [{ model: Team, as: "team" }],
   });
-  if (!invitation || invitation.acceptedAt || invitation.revokedAt || invitation.expiresAt.getTime() < Date.now()) {
+  if (
+    !invitation ||
+    invitation.acceptedAt ||
+    invitation.revokedAt ||
+    invitation.expiresAt.getTime() < Date.now()
+  ) {
     return null;
   }
   return invitation;
@@ -141,7 +160,10 @@ export async function acceptInvitation(input: {
 }): Promise<string> {
   const invitation = await findOpenInvitation(input.token);
   if (!invitation) {
-    throw new AppError("validation", "This invitation is not valid any more. Ask your lab lead for a new one.");
+    throw new AppError(
+      "validation",
+      "This invitation is not valid any more. Ask your lab lead for a new one.",
+    );
   }
   let user = await User.findOne({
     where: sequelize.where(sequelize.fn("lower", sequelize.col("email")), invitation.email),
@@ -160,7 +182,10 @@ export async function acceptInvitation(input: {
     }
   } else {
     const name = input.name?.trim();
-    if (!name) throw new AppError("validation", "Enter your name.", { fieldErrors: { name: ["Enter your name."] } });
+    if (!name)
+      throw new AppError("validation", "Enter your name.", {
+        fieldErrors: { name: ["Enter your name."] },
+      });
     assertPasswordAcceptable(input.password, invitation.email);
   }
   const passwordHash = user ? null : await hashPassword(input.password);
@@ -176,7 +201,14 @@ export async function acceptInvitation(input: {
         { transaction },
       );
       await recordAudit(
-        { actorId: user.id, teamId: invitation.teamId, action: "user.create", entity: "user", entityId: user.id, after: { email: user.email, name: user.name } },
+        {
+          actorId: user.id,
+          teamId: invitation.teamId,
+          action: "user.create",
+          entity: "user",
+          entityId: user.id,
+          after: { email: user.email, name: user.name },
+        },
         transaction,
       );
     }

@@ -72,7 +72,12 @@ export interface CalibrationRecord {
   coveredRangeNm: [number, number];
   uncertainty: { medianNm: number; maxNm: number };
   /** Calibrated wavelength now minus under the previous calibration, at a few pixels. */
-  drift: { previousCalibrationId: string; pixels: number[]; deltaNm: number[]; maxAbsNm: number } | null;
+  drift: {
+    previousCalibrationId: string;
+    pixels: number[];
+    deltaNm: number[];
+    maxAbsNm: number;
+  } | null;
   /** How the pairs were found; excludedByHand/addedByHand count the workbench's edits (absent on older rows). */
   pairing: {
     status: string;
@@ -81,7 +86,12 @@ export interface CalibrationRecord {
     manualSeeds: number;
     excludedByHand?: number;
     addedByHand?: number;
-    handPairs?: { change: "excluded" | "added"; pixel: number; wavelengthNm: number; species: string }[];
+    handPairs?: {
+      change: "excluded" | "added";
+      pixel: number;
+      wavelengthNm: number;
+      species: string;
+    }[];
     /** A doubtful calibration saved as the default anyway: who said why, and the doubts they answered. */
     confirmation?: { reason: string; doubts: string[]; by: string };
   };
@@ -140,8 +150,20 @@ export interface StoredRunCall {
   element: string;
   verdict: Verdict;
   score: number;
-  lines: { lineId: string; lineNm: number; peakNm: number; deltaNm: number; relativeIntensity: number | null }[];
-  missing: { lineId: string; lineNm: number; relativeIntensity: number; predictedSnr: number | null; hidden: boolean }[];
+  lines: {
+    lineId: string;
+    lineNm: number;
+    peakNm: number;
+    deltaNm: number;
+    relativeIntensity: number | null;
+  }[];
+  missing: {
+    lineId: string;
+    lineNm: number;
+    relativeIntensity: number;
+    predictedSnr: number | null;
+    hidden: boolean;
+  }[];
   seenCount: number;
   /** Peaks the seen lines stand on (lines blended into one peak are one piece of evidence); absent
    * on runs stored before it was kept. */
@@ -240,7 +262,11 @@ export interface RunChanges {
   earlierReleaseNumber: number | null;
   releaseNumber: number | null;
   /** Species in both runs whose standing verdict or score changed. */
-  changedCalls: { species: string; before: { verdict: Verdict; score: number }; after: { verdict: Verdict; score: number } }[];
+  changedCalls: {
+    species: string;
+    before: { verdict: Verdict; score: number };
+    after: { verdict: Verdict; score: number };
+  }[];
   /** Species the re-run weighs that the earlier run did not, with their verdict now. */
   newSpecies: { species: string; verdict: Verdict }[];
   /** Species the earlier run weighed that the re-run no longer does, with their verdict then. */

@@ -4,13 +4,22 @@ import { text } from "./text";
 import { TEAM_ROLES } from "@/lib/auth/roles";
 import { PASSWORD_MAX_LENGTH } from "@/lib/auth/password";
 
-const email = text({ error: "Enter an e-mail address." }).trim().toLowerCase().email("Enter a valid e-mail address.");
-const password = z.string({ error: "Enter a password." }).min(1, "Enter a password.").max(PASSWORD_MAX_LENGTH);
+const email = text({ error: "Enter an e-mail address." })
+  .trim()
+  .toLowerCase()
+  .email("Enter a valid e-mail address.");
+const password = z
+  .string({ error: "Enter a password." })
+  .min(1, "Enter a password.")
+  .max(PASSWORD_MAX_LENGTH);
 
 export const signInSchema = z.object({ email, password });
 
 export const tokenCreateSchema = z.object({
-  name: text({ error: "Name the token." }).trim().min(1, "Name the token.").max(80, "Use at most 80 characters."),
+  name: text({ error: "Name the token." })
+    .trim()
+    .min(1, "Name the token.")
+    .max(80, "Use at most 80 characters."),
 });
 
 export const invitationSchema = z.object({

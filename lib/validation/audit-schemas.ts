@@ -55,7 +55,11 @@ export const auditQuerySchema = z
     ),
     from: blankIsAbsent(day("first").optional()),
     to: blankIsAbsent(day("last").optional()),
-    cursor: blankIsAbsent(text().regex(/^\d{1,18}$/, "The cursor is not one this server gave out.").optional()),
+    cursor: blankIsAbsent(
+      text()
+        .regex(/^\d{1,18}$/, "The cursor is not one this server gave out.")
+        .optional(),
+    ),
     limit: blankIsAbsent(
       z.coerce
         .number({ error: "The page size is a whole number." })
@@ -64,7 +68,9 @@ export const auditQuerySchema = z
         .max(AUDIT_PAGE_MAX, `Ask for at most ${AUDIT_PAGE_MAX} events a page.`)
         .optional(),
     ),
-    format: blankIsAbsent(z.enum(["json", "csv"], { error: "The format is json or csv." }).optional()),
+    format: blankIsAbsent(
+      z.enum(["json", "csv"], { error: "The format is json or csv." }).optional(),
+    ),
   })
   .refine((q) => !q.from || !q.to || q.from <= q.to, {
     path: ["to"],
@@ -82,7 +88,9 @@ export const AUDIT_FILTER_KEYS = ["actorId", "entity", "entityId", "action", "fr
 export type AuditFilterKey = (typeof AUDIT_FILTER_KEYS)[number];
 
 /** The query string of a filtered trail, blank fields left out. */
-export function auditSearchParams(filters: Partial<Record<AuditFilterKey | "teamId" | "format", string | undefined>>): URLSearchParams {
+export function auditSearchParams(
+  filters: Partial<Record<AuditFilterKey | "teamId" | "format", string | undefined>>,
+): URLSearchParams {
   const params = new URLSearchParams();
   for (const key of ["teamId", ...AUDIT_FILTER_KEYS, "format"] as const) {
     const value = filters[key];

@@ -20,7 +20,9 @@ export function parseForm<T extends z.ZodType>(
 ): { data: z.infer<T>; state?: undefined } | { data?: undefined; state: FormState } {
   const parsed = schema.safeParse(Object.fromEntries(formData));
   if (parsed.success) return { data: parsed.data };
-  return { state: { message: "Some fields need another look.", fieldErrors: zodFieldErrors(parsed.error) } };
+  return {
+    state: { message: "Some fields need another look.", fieldErrors: zodFieldErrors(parsed.error) },
+  };
 }
 
 /** Maps an expected error to FormState; anything else is re-thrown to the error boundary. */

@@ -13,7 +13,10 @@ export const notebookTitle = text({ error: "Give the notebook a title." })
 
 export const notebookRenameSchema = z.object({
   title: notebookTitle,
-  version: z.number({ error: "Send the version you renamed (reload the page if unsure)." }).int().min(0),
+  version: z
+    .number({ error: "Send the version you renamed (reload the page if unsure)." })
+    .int()
+    .min(0),
 });
 export type NotebookRenameInput = z.infer<typeof notebookRenameSchema>;
 
@@ -34,7 +37,11 @@ export type NotebookListQuery = z.infer<typeof notebookListQuerySchema>;
 export const notebookRunsQuerySchema = z.object({
   status: z.preprocess(
     (v) => (v === "" ? undefined : v),
-    z.enum(RUN_STATUSES as unknown as [RunStatus, ...RunStatus[]], { error: `The status is one of ${RUN_STATUSES.join(", ")}.` }).optional(),
+    z
+      .enum(RUN_STATUSES as unknown as [RunStatus, ...RunStatus[]], {
+        error: `The status is one of ${RUN_STATUSES.join(", ")}.`,
+      })
+      .optional(),
   ),
   species: optionalText(40, "The species"),
   instrumentId: optionalId("Choose an instrument from the list."),
@@ -58,7 +65,9 @@ export function parseQuery<T extends z.ZodType>(request: Request, schema: T): z.
   for (const [key, value] of params) if (key !== "teamId") values[key] = value;
   const parsed = schema.safeParse(values);
   if (!parsed.success) {
-    throw new AppError("validation", "Some filters are not right.", { fieldErrors: zodFieldErrors(parsed.error) });
+    throw new AppError("validation", "Some filters are not right.", {
+      fieldErrors: zodFieldErrors(parsed.error),
+    });
   }
   return parsed.data;
 }

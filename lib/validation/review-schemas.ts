@@ -14,10 +14,24 @@ export type SubmitRunInput = z.infer<typeof submitRunSchema>;
 
 export const reviewMarkSchema = z
   .object({
-    species: text({ error: "Say which call the mark is about." }).trim().min(1, "Say which call the mark is about.").max(40),
-    lineNm: z.number({ error: "The line is its wavelength in nm." }).finite().positive("The line is its wavelength in nm.").nullable().optional(),
-    agreement: z.enum(["agree", "disagree"], { error: "Choose agree or disagree." }).nullable().optional(),
-    comment: text().trim().max(MAX_REVIEW_COMMENT, `Use at most ${MAX_REVIEW_COMMENT} characters.`).default(""),
+    species: text({ error: "Say which call the mark is about." })
+      .trim()
+      .min(1, "Say which call the mark is about.")
+      .max(40),
+    lineNm: z
+      .number({ error: "The line is its wavelength in nm." })
+      .finite()
+      .positive("The line is its wavelength in nm.")
+      .nullable()
+      .optional(),
+    agreement: z
+      .enum(["agree", "disagree"], { error: "Choose agree or disagree." })
+      .nullable()
+      .optional(),
+    comment: text()
+      .trim()
+      .max(MAX_REVIEW_COMMENT, `Use at most ${MAX_REVIEW_COMMENT} characters.`)
+      .default(""),
   })
   .refine((m) => m.agreement != null || m.comment !== "", {
     path: ["comment"],
@@ -28,7 +42,10 @@ export type ReviewMarkInput = z.infer<typeof reviewMarkSchema>;
 export const reviewDecisionSchema = z
   .object({
     decision: z.enum(["return", "sign"], { error: "The decision is return or sign." }),
-    comment: text().trim().max(MAX_REVIEW_COMMENT, `Use at most ${MAX_REVIEW_COMMENT} characters.`).default(""),
+    comment: text()
+      .trim()
+      .max(MAX_REVIEW_COMMENT, `Use at most ${MAX_REVIEW_COMMENT} characters.`)
+      .default(""),
     /** Asked again for a signature; not needed to return a run. */
     password: z.string().max(256).optional(),
   })

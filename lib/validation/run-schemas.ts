@@ -9,8 +9,14 @@ export const MAX_RUN_NOTES = 20000;
 
 export const runOverrideSchema = z
   .object({
-    species: text({ error: "Name the species whose call you override." }).trim().min(1, "Name the species whose call you override."),
-    verdict: z.enum(["present", "possible", "absent"], { error: "Choose present, possible or absent (or null to withdraw)." }).nullable(),
+    species: text({ error: "Name the species whose call you override." })
+      .trim()
+      .min(1, "Name the species whose call you override."),
+    verdict: z
+      .enum(["present", "possible", "absent"], {
+        error: "Choose present, possible or absent (or null to withdraw).",
+      })
+      .nullable(),
     reason: text({ error: "Give a reason for the override." })
       .trim()
       .min(1, "Give a reason for the override.")
@@ -21,7 +27,10 @@ export type RunOverrideInput = z.infer<typeof runOverrideSchema>;
 
 export const runNotesSchema = z
   .object({
-    notes: text({ error: "Send the notes as text." }).max(MAX_RUN_NOTES, `Keep the notes within ${MAX_RUN_NOTES} characters.`),
+    notes: text({ error: "Send the notes as text." }).max(
+      MAX_RUN_NOTES,
+      `Keep the notes within ${MAX_RUN_NOTES} characters.`,
+    ),
     lockVersion: z.number({ error: "Send the lockVersion you read with the run." }).int().min(0),
   })
   .strict();

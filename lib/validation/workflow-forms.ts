@@ -37,7 +37,10 @@ function instrumentFieldsFromForm(formData: FormData) {
 
 /** The new-instrument form: glass and apex only for a prism. */
 export function instrumentInputFromForm(formData: FormData) {
-  return instrumentCreateSchema.safeParse({ teamId: blank(formData.get("teamId")), ...instrumentFieldsFromForm(formData) });
+  return instrumentCreateSchema.safeParse({
+    teamId: blank(formData.get("teamId")),
+    ...instrumentFieldsFromForm(formData),
+  });
 }
 
 /** The edit form: the same fields plus the version the page showed (a hidden field). */
@@ -49,7 +52,10 @@ export function instrumentUpdateFromForm(formData: FormData) {
 }
 
 export function notebookInputFromForm(formData: FormData) {
-  return notebookCreateSchema.safeParse({ teamId: blank(formData.get("teamId")), title: blank(formData.get("title")) });
+  return notebookCreateSchema.safeParse({
+    teamId: blank(formData.get("teamId")),
+    title: blank(formData.get("title")),
+  });
 }
 
 /** The new-run form: settings left blank are not sent, so the core's defaults apply. */
@@ -76,7 +82,8 @@ export function invalidFormState(error: z.ZodError, values?: Record<string, stri
 /** The values typed into a form, shown again after a failed submit. */
 export function formValues(formData: FormData): Record<string, string> {
   const values: Record<string, string> = {};
-  for (const [key, value] of formData) if (typeof value === "string" && !key.startsWith("$")) values[key] = value;
+  for (const [key, value] of formData)
+    if (typeof value === "string" && !key.startsWith("$")) values[key] = value;
   return values;
 }
 

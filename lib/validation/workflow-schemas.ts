@@ -2,7 +2,12 @@
 // Route handlers parse with these; the services check what depends on stored data.
 import { z } from "zod";
 import { text } from "./text";
-import { CALIBRATION_MODELS, GLASS_NAMES, type CalibrationModelChoice, type GlassName } from "@/lib/spectrum/calibration";
+import {
+  CALIBRATION_MODELS,
+  GLASS_NAMES,
+  type CalibrationModelChoice,
+  type GlassName,
+} from "@/lib/spectrum/calibration";
 import { SOURCE_KINDS, type SourceKind } from "@/lib/spectrum/types";
 import { AppError } from "@/lib/errors";
 
@@ -11,7 +16,11 @@ export const MAX_UPLOAD_BYTES = 16 * 1024 * 1024;
 /** Largest number of points in an uploaded spectrum. */
 export const MAX_UPLOAD_POINTS = 2_000_000;
 
-const positive = (what: string) => z.number({ error: `Enter ${what}.` }).finite().positive(`${what} must be positive.`);
+const positive = (what: string) =>
+  z
+    .number({ error: `Enter ${what}.` })
+    .finite()
+    .positive(`${what} must be positive.`);
 
 /** The instrument's own fields, shared by the create and update schemas. */
 const instrumentFields = {
@@ -23,10 +32,18 @@ const instrumentFields = {
   resolutionNm: positive("the resolution (FWHM in nm)"),
   detectorMax: positive("the detector maximum").nullable().optional(),
   glass: z
-    .enum(GLASS_NAMES as unknown as [GlassName, ...GlassName[]], { error: `Choose one of ${GLASS_NAMES.join(", ")}.` })
+    .enum(GLASS_NAMES as unknown as [GlassName, ...GlassName[]], {
+      error: `Choose one of ${GLASS_NAMES.join(", ")}.`,
+    })
     .nullable()
     .optional(),
-  apexDeg: z.number().finite().gt(0).lt(90, "The apex angle must be below 90°.").nullable().optional(),
+  apexDeg: z
+    .number()
+    .finite()
+    .gt(0)
+    .lt(90, "The apex angle must be below 90°.")
+    .nullable()
+    .optional(),
 };
 
 type InstrumentFields = z.infer<z.ZodObject<typeof instrumentFields>>;
@@ -78,7 +95,9 @@ export { CALIBRATION_MODELS, type CalibrationModelChoice };
 /** A pair named by its peak's pixel and its line's wavelength, as the workbench shows them. */
 function pairRef(verb: string) {
   return z.object({
-    pixel: z.number({ error: `Give the pixel of the pair to ${verb}.` }).finite("Give the pixel as a number."),
+    pixel: z
+      .number({ error: `Give the pixel of the pair to ${verb}.` })
+      .finite("Give the pixel as a number."),
     wavelengthNm: z
       .number({ error: `Give the line wavelength (nm) of the pair to ${verb}.` })
       .finite("Give the wavelength as a number.")
@@ -90,12 +109,19 @@ export const calibrationCreateSchema = z.object({
   instrumentId: z.uuid("Choose an instrument."),
   spectrumId: z.uuid("Choose a lamp spectrum."),
   lamps: z
-    .array(text().trim().regex(/^[A-Z][a-z]?$/, "Name each lamp gas by its element symbol (Hg, Ar, Ne…)."), {
-      error: "List the lamp gases.",
-    })
+    .array(
+      text()
+        .trim()
+        .regex(/^[A-Z][a-z]?$/, "Name each lamp gas by its element symbol (Hg, Ar, Ne…)."),
+      {
+        error: "List the lamp gases.",
+      },
+    )
     .min(1, "List the lamp gases.")
     .max(20),
-  model: z.enum(CALIBRATION_MODELS, { error: `The model is one of ${CALIBRATION_MODELS.join(", ")}.` }).default("auto"),
+  model: z
+    .enum(CALIBRATION_MODELS, { error: `The model is one of ${CALIBRATION_MODELS.join(", ")}.` })
+    .default("auto"),
   /** Hand-picked seed pairs (2 or 3) when automatic pairing is not trusted. */
   pairs: z
     .array(z.object({ pixel: z.number().finite(), wavelengthNm: z.number().finite().positive() }))
@@ -103,25 +129,37 @@ export const calibrationCreateSchema = z.object({
     .max(3, "Pick two or three pairs.")
     .optional(),
   /** Pairs of the pairing to leave out of the fit, by the pixel and line wavelength the preview showed. */
-  excluded: z.array(pairRef("leave out"), { error: "Send the excluded pairs as a list." }).max(200).default([]),
+  excluded: z
+    .array(pairRef("leave out"), { error: "Send the excluded pairs as a list." })
+    .max(200)
+    .default([]),
   /** Pairs made by hand: the lamp peak nearest the pixel with the lamp line at the wavelength (±0.05 nm). */
   added: z.array(pairRef("add"), { error: "Send the added pairs as a list." }).max(50).default([]),
   /** Why a doubtful calibration (see calibrationDoubts) should still become the instrument's default. */
   confirmReason: text({ error: "Give the reason as text." })
     .trim()
-    .min(10, "Say in at least 10 characters why this calibration can be trusted despite its doubts.")
+    .min(
+      10,
+      "Say in at least 10 characters why this calibration can be trusted despite its doubts.",
+    )
     .max(500, "Keep the reason under 500 characters.")
     .optional(),
 });
 export type CalibrationCreateInput = z.infer<typeof calibrationCreateSchema>;
 
 export const evaluateSchema = z.object({
-  pixels: z.array(z.number().finite(), { error: "Send the pixels as an array of numbers." }).min(1).max(100_000),
+  pixels: z
+    .array(z.number().finite(), { error: "Send the pixels as an array of numbers." })
+    .min(1)
+    .max(100_000),
 });
 
 export const notebookCreateSchema = z.object({
   teamId: z.uuid("Choose a team."),
-  title: text({ error: "Give the notebook a title." }).trim().min(1, "Give the notebook a title.").max(200),
+  title: text({ error: "Give the notebook a title." })
+    .trim()
+    .min(1, "Give the notebook a title.")
+    .max(200),
 });
 
 export const runCreateSchema = z.object({
@@ -145,7 +183,8 @@ export type RunCreateInput = z.infer<typeof runCreateSchema>;
 /** A team id from the query string: absent means the actor's first team; malformed means not found. */
 export function teamIdQuery(request: Request, fallback: string | undefined): string {
   const given = new URL(request.url).searchParams.get("teamId");
-  if (given !== null && !z.uuid().safeParse(given).success) throw new AppError("not_found", "No such team.");
+  if (given !== null && !z.uuid().safeParse(given).success)
+    throw new AppError("not_found", "No such team.");
   const teamId = given ?? fallback;
   if (!teamId) throw new AppError("not_found", "You are not in a team yet.");
   return teamId;

@@ -8,7 +8,13 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { SCREENSHOT_DIR, openBrowser, screenshot, type Session } from "./support/browser";
 import { signInAs as signInWithPassword } from "./pages/sign-in-page";
 import { InstrumentsPage, RunPage, UploadZone, chartsDrawn } from "./pages/workflow-pages";
-import { PIXELS, RESOLUTION_NM, flameFile, lampFile, syntheticGrating } from "../integration/support/synthetic-files";
+import {
+  PIXELS,
+  RESOLUTION_NM,
+  flameFile,
+  lampFile,
+  syntheticGrating,
+} from "../integration/support/synthetic-files";
 import { LTE_FLAME_TEMPERATURE_K, lteCalciumFlame } from "../integration/support/lte-flame";
 
 const DEMO_PASSWORD = "emberline-demo";
@@ -61,7 +67,10 @@ describe("the chemist's journey", () => {
     // A file the core cannot read: the located message, and the zone stays for another try.
     const rows = Array.from({ length: 30 }, (_, i) => (i === 7 ? `${i},1x5` : `${i},${100 + i}`));
     await zone.drop(`bad-${suffix}.csv`, `pixel,counts\n${rows.join("\n")}\n`);
-    await page.getByRole("alert").filter({ hasText: /^Line 9, column 2: .*Nothing was stored\.$/ }).waitFor();
+    await page
+      .getByRole("alert")
+      .filter({ hasText: /^Line 9, column 2: .*Nothing was stored\.$/ })
+      .waitFor();
     await screenshot(page, "chemist-0-bad-file");
     // The refusal is the one failed response so far, and it is expected.
     expect(browser.problems).toEqual(["HTTP 400 /api/spectra/preview"]);
@@ -92,32 +101,42 @@ describe("the chemist's journey", () => {
     const rmsNm = Number(/RMS([\d.]+) nm/.exec(summary)?.[1]);
     // A good lamp calibration of a 1 nm instrument reaches a few hundredths to ~0.1 nm (common practice).
     expect(rmsNm).toBeLessThan(0.1);
-    expect(await page.getByTestId("pairs-table").locator("tbody tr").count()).toBeGreaterThanOrEqual(5);
+    expect(
+      await page.getByTestId("pairs-table").locator("tbody tr").count(),
+    ).toBeGreaterThanOrEqual(5);
     await screenshot(page, "chemist-3-calibration");
 
     await page.goto("/notebooks");
     await page.getByLabel("Title", { exact: true }).fill(`Flame screening ${suffix}`);
     await page.getByRole("button", { name: "Open the notebook" }).click();
     await page.waitForURL(/\/notebooks\/[0-9a-f-]{36}$/);
-    await page.getByRole("link", { name: new RegExp(`Upload a sample on E2E grating ${suffix}`) }).click();
+    await page
+      .getByRole("link", { name: new RegExp(`Upload a sample on E2E grating ${suffix}`) })
+      .click();
     await page.waitForURL(/\/upload/);
     await zone.choose(`flame-${suffix}.csv`, flameFile(grating));
     await zone.upload("sample", "Mixed chloride flame");
     await page.getByRole("link", { name: `Flame screening ${suffix}` }).click();
     await page.waitForURL(/\/notebooks\/.*spectrum=/);
     await page.getByLabel("Kind of source").selectOption("flame");
-    expect(await page.getByRole("complementary", { name: "Flame safety" }).textContent()).toContain("thallium");
+    expect(await page.getByRole("complementary", { name: "Flame safety" }).textContent()).toContain(
+      "thallium",
+    );
     await screenshot(page, "chemist-4-new-run");
     await page.getByRole("button", { name: "Start the run" }).click();
     await page.waitForURL(/\/runs\/[0-9a-f-]{36}$/, { timeout: 60_000 });
     await chartsDrawn(page);
 
     const run = new RunPage(page);
-    for (const species of EXPECTED_PRESENT) expect(await run.verdictOf(species), species).toBe("present");
+    for (const species of EXPECTED_PRESENT)
+      expect(await run.verdictOf(species), species).toBe("present");
     // Species sharing a peak are stacked in one label, so look for each name in the labels' text.
     const labels = (await run.chartLabels()).join(" | ");
-    for (const species of EXPECTED_PRESENT) expect(labels, `chart label ${species}`).toContain(species);
-    expect(await page.getByTestId("screening-notice").textContent()).toContain("A screening aid, not a certified analysis.");
+    for (const species of EXPECTED_PRESENT)
+      expect(labels, `chart label ${species}`).toContain(species);
+    expect(await page.getByTestId("screening-notice").textContent()).toContain(
+      "A screening aid, not a certified analysis.",
+    );
     await screenshot(page, "chemist-5-run");
     await page.screenshot({ path: `${SCREENSHOT_DIR}/chemist-6-run-chart.png` });
     // The species called absent open from the keyboard and carry their detection limits.
@@ -125,7 +144,12 @@ describe("the chemist's journey", () => {
     await absent.locator("summary").focus();
     await page.keyboard.press("Enter");
     const limits = await absent.getByTestId("detection-limit").allTextContents();
-    expect(limits.some((t) => /^< [\d.]+ counts \([\d.]+ % of the strongest peak\) at \d+\.\d\d nm/.test(t)), limits.join(" | ")).toBe(true);
+    expect(
+      limits.some((t) =>
+        /^< [\d.]+ counts \([\d.]+ % of the strongest peak\) at \d+\.\d\d nm/.test(t),
+      ),
+      limits.join(" | "),
+    ).toBe(true);
     await absent.scrollIntoViewIfNeeded();
     await page.screenshot({ path: `${SCREENSHOT_DIR}/chemist-6b-absent-limits.png` });
 
@@ -133,20 +157,28 @@ describe("the chemist's journey", () => {
     await page.getByRole("radio", { name: "Raw counts" }).focus();
     await page.keyboard.press("ArrowRight");
     expect(await page.getByRole("radio", { name: "Continuum removed" }).isChecked()).toBe(true);
-    await page.locator("[data-testid=chart] .ytitle", { hasText: "Counts above the continuum" }).waitFor();
+    await page
+      .locator("[data-testid=chart] .ytitle", { hasText: "Counts above the continuum" })
+      .waitFor();
     await page.getByTestId("spectrum-view").scrollIntoViewIfNeeded();
     await page.screenshot({ path: `${SCREENSHOT_DIR}/chemist-7-continuum-removed.png` });
 
     // Override a call with a reason: the standing verdict changes and the override says who and why.
-    const potassium = run.calls.filter({ has: page.getByTestId("call-species").getByText("K I", { exact: true }) }).first();
+    const potassium = run.calls
+      .filter({ has: page.getByTestId("call-species").getByText("K I", { exact: true }) })
+      .first();
     await potassium.getByRole("button", { name: "Override this call" }).press("Enter");
     const form = potassium.getByTestId("override-form");
     await form.getByLabel("Verdict").selectOption("possible");
-    await form.getByLabel("Reason (required)").fill("Potassium from the glassware; blank shows it too.");
+    await form
+      .getByLabel("Reason (required)")
+      .fill("Potassium from the glassware; blank shows it too.");
     await form.getByRole("button", { name: "Save override" }).click();
     await page.getByTestId("override-note").filter({ hasText: "blank shows it too" }).waitFor();
     expect(await run.verdictOf("K I")).toBe("possible");
-    expect(await page.getByTestId("override-note").first().textContent()).toMatch(/Mara Quist.*computed verdict:.*present/);
+    expect(await page.getByTestId("override-note").first().textContent()).toMatch(
+      /Mara Quist.*computed verdict:.*present/,
+    );
     await page.getByTestId("override-note").first().scrollIntoViewIfNeeded();
     await screenshot(page, "chemist-8-override");
 
@@ -155,16 +187,23 @@ describe("the chemist's journey", () => {
     await notes.fill("Loop cleaned in HCl between samples; K blank to be run tomorrow.");
     expect(await page.getByTestId("notes-status").textContent()).toMatch(/Unsaved/);
     await notes.press("Control+Enter");
-    await page.getByTestId("notes-status").filter({ hasText: /^Saved$/ }).waitFor();
+    await page
+      .getByTestId("notes-status")
+      .filter({ hasText: /^Saved$/ })
+      .waitFor();
     await page.reload();
-    expect(await page.getByLabel("Notes", { exact: true }).inputValue()).toContain("K blank to be run tomorrow");
+    expect(await page.getByLabel("Notes", { exact: true }).inputValue()).toContain(
+      "K blank to be run tomorrow",
+    );
     await page.getByTestId("notes-form").scrollIntoViewIfNeeded();
     await screenshot(page, "chemist-9-notes");
 
     // A calcium flame in LTE, run with its excitation temperature assumed: the page shows T ± σ and the plot.
     await page.getByRole("link", { name: "Back to the notebook" }).click();
     await page.waitForURL(/\/notebooks\/[0-9a-f-]{36}$/);
-    await page.getByRole("link", { name: new RegExp(`Upload a sample on E2E grating ${suffix}`) }).click();
+    await page
+      .getByRole("link", { name: new RegExp(`Upload a sample on E2E grating ${suffix}`) })
+      .click();
     await page.waitForURL(/\/upload/);
     await zone.choose(`calcium-${suffix}.csv`, lteCalciumFlame(grating));
     await zone.upload("sample", "Calcium, hot flame");

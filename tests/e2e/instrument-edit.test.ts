@@ -6,7 +6,12 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { openBrowser, screenshot, type Session } from "./support/browser";
 import { signInAs as signInWithPassword } from "./pages/sign-in-page";
 import { InstrumentsPage } from "./pages/workflow-pages";
-import { PIXELS, RESOLUTION_NM, lampFile, syntheticGrating } from "../integration/support/synthetic-files";
+import {
+  PIXELS,
+  RESOLUTION_NM,
+  lampFile,
+  syntheticGrating,
+} from "../integration/support/synthetic-files";
 
 const DEMO_PASSWORD = "emberline-demo";
 const LEAD = "lead@demo.emberline.example";
@@ -85,12 +90,20 @@ describe("editing an instrument", () => {
       multipart: {
         instrumentId,
         kind: "lamp",
-        file: { name: `lamp-${suffix}.csv`, mimeType: "text/csv", buffer: Buffer.from(lampFile(syntheticGrating())) },
+        file: {
+          name: `lamp-${suffix}.csv`,
+          mimeType: "text/csv",
+          buffer: Buffer.from(lampFile(syntheticGrating())),
+        },
       },
     });
     expect(uploaded.status(), await uploaded.text()).toBe(201);
     const calibration = await page.request.post("/api/calibrations", {
-      data: { instrumentId, spectrumId: ((await uploaded.json()) as { id: string }).id, lamps: ["Hg", "Ar"] },
+      data: {
+        instrumentId,
+        spectrumId: ((await uploaded.json()) as { id: string }).id,
+        lamps: ["Hg", "Ar"],
+      },
     });
     expect(calibration.status(), await calibration.text()).toBe(201);
 

@@ -38,7 +38,9 @@ describe("notebooks", () => {
     await page.getByLabel("Search titles").fill("read-back");
     await page.waitForURL(/\?q=read-back/);
     await page.getByRole("link", { name: "Lamp read-back checks" }).waitFor();
-    await page.getByRole("link", { name: "Chloride salts, week 48" }).waitFor({ state: "detached" });
+    await page
+      .getByRole("link", { name: "Chloride salts, week 48" })
+      .waitFor({ state: "detached" });
     expect(await page.getByTestId("notebooks-count").textContent()).toMatch(/shown$/);
 
     await page.getByLabel("Title", { exact: true }).fill(`Filter practice ${suffix}`);
@@ -74,7 +76,10 @@ describe("notebooks", () => {
     expect(await page.getByLabel("Status").inputValue()).toBe("draft");
 
     await page.getByLabel("Status").selectOption("signed");
-    await page.getByTestId("runs-empty").filter({ hasText: "No runs match these filters." }).waitFor();
+    await page
+      .getByTestId("runs-empty")
+      .filter({ hasText: "No runs match these filters." })
+      .waitFor();
     await screenshot(page, "notebooks-5-no-match");
     await page.getByRole("button", { name: "Clear the filters" }).first().click();
     await notebook.waitForRuns(2);
@@ -86,7 +91,10 @@ describe("notebooks", () => {
 
     const title = `Filter practice, renamed ${suffix}`;
     await notebook.rename(title);
-    await page.getByRole("status").filter({ hasText: `Renamed to “${title}”.` }).waitFor();
+    await page
+      .getByRole("status")
+      .filter({ hasText: `Renamed to “${title}”.` })
+      .waitFor();
     await page.getByRole("heading", { level: 1, name: title }).waitFor();
     await screenshot(page, "notebooks-6-renamed");
     await notebook.rename("");

@@ -11,7 +11,13 @@ import { SignInPage } from "./pages/sign-in-page";
 import { PrintableReportPage, RunDownloadsBlock } from "./pages/report-pages";
 import { FLAME_SCREENING, signInDemo, teamIdOf } from "../integration/support/accounts";
 import { APP_URL } from "../integration/support/http-client";
-import { PIXELS, RESOLUTION_NM, flameFile, lampFile, syntheticGrating } from "../integration/support/synthetic-files";
+import {
+  PIXELS,
+  RESOLUTION_NM,
+  flameFile,
+  lampFile,
+  syntheticGrating,
+} from "../integration/support/synthetic-files";
 
 const CHEMIST = "chem@demo.emberline.example";
 const DEMO_PASSWORD = "emberline-demo";
@@ -44,24 +50,37 @@ beforeAll(async () => {
     form.set("kind", kind);
     const response = await fetch(`${APP_URL}/api/spectra`, {
       method: "POST",
-      headers: { cookie: `emberline_session=${chemist.cookie("emberline_session")}`, "x-forwarded-for": chemist.address },
+      headers: {
+        cookie: `emberline_session=${chemist.cookie("emberline_session")}`,
+        "x-forwarded-for": chemist.address,
+      },
       body: form,
     });
     expect(response.status).toBe(201);
     return ((await response.json()) as { id: string }).id;
   };
   const lampId = await upload("lamp", lampFile(grating), `lamp-${suffix}.csv`);
-  const calibration = await chemist.post<{ id: string }>("/api/calibrations", { instrumentId: instrument.body.id, spectrumId: lampId, lamps: ["Hg", "Ar"] });
+  const calibration = await chemist.post<{ id: string }>("/api/calibrations", {
+    instrumentId: instrument.body.id,
+    spectrumId: lampId,
+    lamps: ["Hg", "Ar"],
+  });
   expect(calibration.status).toBe(201);
-  const notebook = await chemist.post<{ id: string }>("/api/notebooks", { teamId, title: `E2E reports ${suffix}` });
+  const notebook = await chemist.post<{ id: string }>("/api/notebooks", {
+    teamId,
+    title: `E2E reports ${suffix}`,
+  });
   notebookId = notebook.body.id;
   const sampleId = await upload("sample", flameFile(grating), `flame-${suffix}.csv`);
-  const run = await chemist.post<{ id: string; calls: { species: string; verdict: string }[] }>("/api/runs", {
-    notebookId,
-    spectrumId: sampleId,
-    calibrationId: calibration.body.id,
-    source: "flame",
-  });
+  const run = await chemist.post<{ id: string; calls: { species: string; verdict: string }[] }>(
+    "/api/runs",
+    {
+      notebookId,
+      spectrumId: sampleId,
+      calibrationId: calibration.body.id,
+      source: "flame",
+    },
+  );
   expect(run.status).toBe(201);
   runId = run.body.id;
   present = run.body.calls.filter((c) => c.verdict === "present").map((c) => c.species);
@@ -88,7 +107,9 @@ describe("reports", () => {
     expect(text).toContain("Qualitative screening result only, not a certified analysis");
     expect(text).toContain("Flame test cautions");
     expect(await printable.chart.locator("path").count()).toBeGreaterThan(0);
-    expect(await printable.chart.locator("text").filter({ hasText: present[0] }).count()).toBeGreaterThan(0);
+    expect(
+      await printable.chart.locator("text").filter({ hasText: present[0] }).count(),
+    ).toBeGreaterThan(0);
     await screenshot(page, "reports-1-printable");
 
     await page.emulateMedia({ media: "print" });
@@ -102,12 +123,16 @@ describe("reports", () => {
     fs.writeFileSync(file, printed);
     const info = execFileSync("/usr/bin/pdfinfo", [file], { encoding: "utf8" });
     const pages = Number(/Pages:\s+(\d+)/.exec(info)![1]);
-    const printedText = execFileSync("/usr/bin/pdftotext", [file, "-"], { encoding: "utf8" }).replace(/\s+/g, " ");
+    const printedText = execFileSync("/usr/bin/pdftotext", [file, "-"], {
+      encoding: "utf8",
+    }).replace(/\s+/g, " ");
     fs.rmSync(dir, { recursive: true, force: true });
     expect(info).toMatch(/Page size:.*\(A4\)/);
     expect(pages).toBeGreaterThanOrEqual(2);
     expect(printedText).toContain(`Page ${pages} of ${pages}`);
-    expect(printedText.split("Qualitative screening result only, not a certified analysis").length - 1).toBeGreaterThanOrEqual(pages);
+    expect(
+      printedText.split("Qualitative screening result only, not a certified analysis").length - 1,
+    ).toBeGreaterThanOrEqual(pages);
     expect(printedText).not.toContain("Line library");
     await page.emulateMedia({ media: "screen" });
     expect(browser.problems).toEqual([]);
@@ -128,7 +153,10 @@ describe("reports", () => {
   it("offers the notebook's calls as CSV", async () => {
     const { page } = browser;
     await page.goto(`/notebooks/${notebookId}`);
-    const [download] = await Promise.all([page.waitForEvent("download"), page.getByTestId("download-calls-csv").click()]);
+    const [download] = await Promise.all([
+      page.waitForEvent("download"),
+      page.getByTestId("download-calls-csv").click(),
+    ]);
     expect(download.suggestedFilename()).toMatch(/^emberline-notebook-[0-9a-f]{8}-calls\.csv$/);
     expect(browser.problems).toEqual([]);
   });

@@ -48,17 +48,26 @@ describe("the review journey", () => {
     await screenshot(page, "review-1-draft-run");
     await page.getByLabel("Reviewer").selectOption({ label: "Any supervisor of the team" });
     await panel.getByRole("button", { name: "Submit for review" }).click();
-    await expect.poll(() => panel.getByTestId("run-status").textContent(), { timeout: 20_000 }).toBe("Awaiting review");
+    await expect
+      .poll(() => panel.getByTestId("run-status").textContent(), { timeout: 20_000 })
+      .toBe("Awaiting review");
     expect(await panel.getByTestId("lock-note").textContent()).toMatch(/waiting for review/);
     await screenshot(page, "review-2-submitted");
 
     // The supervisor sees the count, opens the queue and the run.
     await signInAs(SUPERVISOR);
-    const count = Number(await page.getByTestId("nav-count-review").textContent().then((t) => t?.match(/\d+/)?.[0]));
+    const count = Number(
+      await page
+        .getByTestId("nav-count-review")
+        .textContent()
+        .then((t) => t?.match(/\d+/)?.[0]),
+    );
     expect(count).toBeGreaterThanOrEqual(1);
     await page.getByRole("link", { name: /^Review/ }).click();
     await page.waitForURL(/\/review$/);
-    const row = page.getByTestId("queue-row").filter({ has: page.locator(`a[href="/review/${run.id}"]`) });
+    const row = page
+      .getByTestId("queue-row")
+      .filter({ has: page.locator(`a[href="/review/${run.id}"]`) });
     await row.waitFor();
     expect(await row.textContent()).toContain("Mara Quist");
     await screenshot(page, "review-3-queue");
@@ -82,28 +91,39 @@ describe("the review journey", () => {
     }
     await screenshot(page, "review-4-review-page");
     await page.getByRole("button", { name: "Return with comments" }).click();
-    await page.getByTestId("round-comment").filter({ hasText: comment }).waitFor({ timeout: 20_000 });
+    await page
+      .getByTestId("round-comment")
+      .filter({ hasText: comment })
+      .waitFor({ timeout: 20_000 });
     expect(await page.getByRole("heading", { name: "Decide" }).count()).toBe(0);
     await screenshot(page, "review-5-returned");
 
     // The chemist reads the comment on the run page and submits again.
     await signInAs(CHEMIST);
     await page.goto(`/runs/${run.id}`);
-    await expect.poll(() => panel.getByTestId("run-status").textContent()).toBe("Returned for revision");
+    await expect
+      .poll(() => panel.getByTestId("run-status").textContent())
+      .toBe("Returned for revision");
     expect(await panel.getByTestId("round-comment").first().textContent()).toContain(comment);
     await screenshot(page, "review-6-returned-to-author");
     const answer = "Rechecked Li I 670.8 nm against this morning's lamp spectrum: unchanged.";
     await page.getByLabel("Notes", { exact: true }).fill(answer);
     await page.getByRole("button", { name: "Save notes" }).click();
-    await expect.poll(() => page.getByTestId("notes-status").textContent(), { timeout: 20_000 }).toBe("Saved");
+    await expect
+      .poll(() => page.getByTestId("notes-status").textContent(), { timeout: 20_000 })
+      .toBe("Saved");
     await panel.getByLabel("Reviewer").selectOption({ label: "Tobias Wren" });
     await panel.getByRole("button", { name: "Submit for review" }).click();
-    await expect.poll(() => panel.getByTestId("run-status").textContent(), { timeout: 20_000 }).toBe("Awaiting review");
+    await expect
+      .poll(() => panel.getByTestId("run-status").textContent(), { timeout: 20_000 })
+      .toBe("Awaiting review");
 
     // The supervisor signs with the password; the run shows Signed with the signature.
     await signInAs(SUPERVISOR);
     await page.goto(`/review/${run.id}`);
-    expect(await page.getByTestId("signature-meaning").textContent()).toContain("Reviewed and approved");
+    expect(await page.getByTestId("signature-meaning").textContent()).toContain(
+      "Reviewed and approved",
+    );
     await page.getByLabel("Your password, to confirm it is you").fill(DEMO_PASSWORD);
     await screenshot(page, "review-7-sign-form");
     await page.getByRole("button", { name: /^Sign:/ }).click();
@@ -124,7 +144,10 @@ describe("the review journey", () => {
     expect(pdf.bytes.subarray(0, 5).toString("latin1")).toBe("%PDF-");
     const file = path.join(fs.mkdtempSync(path.join(os.tmpdir(), "emberline-signed-")), pdf.name);
     fs.writeFileSync(file, pdf.bytes);
-    const text = execFileSync("/usr/bin/pdftotext", [file, "-"], { encoding: "utf8" }).replace(/\s+/g, " ");
+    const text = execFileSync("/usr/bin/pdftotext", [file, "-"], { encoding: "utf8" }).replace(
+      /\s+/g,
+      " ",
+    );
     expect(text).toContain("Tobias Wren");
     expect(text).toContain("Reviewed and approved");
     expect(text).toMatch(/not a certified analysis/i);

@@ -18,7 +18,16 @@ const ROLES = [
     role: "supervisor",
     email: "super@demo.emberline.example",
     name: "Tobias Wren",
-    nav: ["Home", "Notebooks", "Instruments", "Line library", "Review", "Audit trail", "Team", "Account"],
+    nav: [
+      "Home",
+      "Notebooks",
+      "Instruments",
+      "Line library",
+      "Review",
+      "Audit trail",
+      "Team",
+      "Account",
+    ],
   },
   {
     // The lead opens in Flame Screening, the team where they hold their widest role (lab lead);
@@ -26,7 +35,16 @@ const ROLES = [
     role: "lab-lead",
     email: "lead@demo.emberline.example",
     name: "Ilse Varga",
-    nav: ["Home", "Notebooks", "Instruments", "Line library", "Audit trail", "Team", "Outgoing mail", "Account"],
+    nav: [
+      "Home",
+      "Notebooks",
+      "Instruments",
+      "Line library",
+      "Audit trail",
+      "Team",
+      "Outgoing mail",
+      "Account",
+    ],
   },
 ] as const;
 
@@ -97,8 +115,12 @@ describe("the lab lead's team switcher", () => {
     const shell = new WorkspaceShell(page);
     await shell.waitUntilShown();
     const switcher = page.getByLabel("Team", { exact: true });
-    expect(await switcher.locator("option:checked").textContent()).toBe("Flame Screening — Lab lead");
-    expect(await page.locator("aside").getByText("lead@demo.emberline.example · Lab lead").count()).toBe(1);
+    expect(await switcher.locator("option:checked").textContent()).toBe(
+      "Flame Screening — Lab lead",
+    );
+    expect(
+      await page.locator("aside").getByText("lead@demo.emberline.example · Lab lead").count(),
+    ).toBe(1);
     await shell.visit("Team");
     expect(await shell.pageHeading.first().textContent()).toBe("Flame Screening");
     await page.getByRole("heading", { name: "Invite a person" }).waitFor();
@@ -107,7 +129,9 @@ describe("the lab lead's team switcher", () => {
     await screenshot(page, "lab-lead-flame-screening-outgoing-mail");
 
     await switcher.selectOption({ label: "Arc and Spark Bench — Supervisor" });
-    await page.waitForFunction(() => Boolean(document.querySelector('nav[aria-label="Areas"] a[href="/review"]')));
+    await page.waitForFunction(() =>
+      Boolean(document.querySelector('nav[aria-label="Areas"] a[href="/review"]')),
+    );
     expect(await shell.navLabels()).toEqual([
       "Home",
       "Notebooks",
@@ -119,9 +143,13 @@ describe("the lab lead's team switcher", () => {
       "Outgoing mail",
       "Account",
     ]);
-    expect(await page.locator("aside").getByText("lead@demo.emberline.example · Supervisor").count()).toBe(1);
+    expect(
+      await page.locator("aside").getByText("lead@demo.emberline.example · Supervisor").count(),
+    ).toBe(1);
     // The switcher names the team just chosen (React 19 resets forms after an action).
-    expect(await switcher.locator("option:checked").textContent()).toBe("Arc and Spark Bench — Supervisor");
+    expect(await switcher.locator("option:checked").textContent()).toBe(
+      "Arc and Spark Bench — Supervisor",
+    );
     await screenshot(page, "lab-lead-arc-and-spark-bench-home");
     expect(browser.problems, browser.problems.join("\n")).toEqual([]);
     await shell.signOut();
@@ -157,7 +185,9 @@ describe("anonymous visitors", () => {
     await signInPage.message.getByText("The e-mail address or password is not right.").waitFor();
     expect(new URL(page.url()).pathname).toBe("/sign-in");
     await screenshot(page, "anonymous-wrong-password");
-    expect((await browser.context.cookies()).some((c) => c.name === "emberline_session")).toBe(false);
+    expect((await browser.context.cookies()).some((c) => c.name === "emberline_session")).toBe(
+      false,
+    );
   });
 });
 

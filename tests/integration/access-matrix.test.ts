@@ -1,8 +1,21 @@
 // Every API route so far × {anonymous, chemist, supervisor, lab lead, member of another team}
 // with the status each must get. Outsiders get 404 for another team's resources, never 403.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { ApiClient, type ApiReply, type ErrorBody, type RequestOptions } from "./support/http-client";
-import { ARC_AND_SPARK, FLAME_SCREENING, signInDemo, signedIn, strongPassword, teamIdOf, uniqueEmail } from "./support/accounts";
+import {
+  ApiClient,
+  type ApiReply,
+  type ErrorBody,
+  type RequestOptions,
+} from "./support/http-client";
+import {
+  ARC_AND_SPARK,
+  FLAME_SCREENING,
+  signInDemo,
+  signedIn,
+  strongPassword,
+  teamIdOf,
+  uniqueEmail,
+} from "./support/accounts";
 import { OUTSIDER, ensureOutsider } from "./support/outsider";
 import { closeDb } from "./support/database";
 
@@ -36,12 +49,30 @@ const all = (status: number): Record<Principal, number> => ({
   labLead: status,
   outsider: status,
 });
-const signedInOnly = (status: number): Record<Principal, number> => ({ ...all(status), anonymous: 401 });
+const signedInOnly = (status: number): Record<Principal, number> => ({
+  ...all(status),
+  anonymous: 401,
+});
 
 const CASES: RouteCase[] = [
-  { route: "GET /api/me", method: "GET", request: async () => ({ path: "/api/me" }), expected: signedInOnly(200) },
-  { route: "GET /api/teams", method: "GET", request: async () => ({ path: "/api/teams" }), expected: signedInOnly(200) },
-  { route: "GET /api/tokens", method: "GET", request: async () => ({ path: "/api/tokens" }), expected: signedInOnly(200) },
+  {
+    route: "GET /api/me",
+    method: "GET",
+    request: async () => ({ path: "/api/me" }),
+    expected: signedInOnly(200),
+  },
+  {
+    route: "GET /api/teams",
+    method: "GET",
+    request: async () => ({ path: "/api/teams" }),
+    expected: signedInOnly(200),
+  },
+  {
+    route: "GET /api/tokens",
+    method: "GET",
+    request: async () => ({ path: "/api/tokens" }),
+    expected: signedInOnly(200),
+  },
   {
     route: "GET /api/audit/verify",
     method: "GET",
@@ -107,7 +138,10 @@ const CASES: RouteCase[] = [
   {
     route: "POST /api/password-reset",
     method: "POST",
-    request: async () => ({ path: "/api/password-reset", json: { email: uniqueEmail("matrix-reset") } }),
+    request: async () => ({
+      path: "/api/password-reset",
+      json: { email: uniqueEmail("matrix-reset") },
+    }),
     expected: all(202),
   },
   {
@@ -135,8 +169,17 @@ const CASES: RouteCase[] = [
       const lead = await ctx.client("labLead");
       const id = await matrixInstrumentId(lead, ctx.flameTeamId);
       const current = await lead.get<Record<string, unknown>>(`/api/instruments/${id}`);
-      const { name, dispersion, pixels, nominalMinNm, nominalMaxNm, resolutionNm, version } = current.body;
-      const json = { name, dispersion, pixels, nominalMinNm, nominalMaxNm, resolutionNm: Number(resolutionNm) + 0.1, version };
+      const { name, dispersion, pixels, nominalMinNm, nominalMaxNm, resolutionNm, version } =
+        current.body;
+      const json = {
+        name,
+        dispersion,
+        pixels,
+        nominalMinNm,
+        nominalMaxNm,
+        resolutionNm: Number(resolutionNm) + 0.1,
+        version,
+      };
       return { path: `/api/instruments/${id}`, json };
     },
     expected: { anonymous: 401, chemist: 403, supervisor: 403, labLead: 200, outsider: 404 },
@@ -178,7 +221,12 @@ function matrixInstrumentId(lead: ApiClient, teamId: string): Promise<string> {
   return matrixInstrument;
 }
 
-const CODE_FOR: Record<number, string> = { 401: "unauthenticated", 403: "forbidden", 404: "not_found", 400: "validation" };
+const CODE_FOR: Record<number, string> = {
+  401: "unauthenticated",
+  403: "forbidden",
+  404: "not_found",
+  400: "validation",
+};
 
 const shared = new Map<Principal, ApiClient>();
 let ctx: Context;
@@ -203,7 +251,9 @@ beforeAll(async () => {
 
 afterAll(closeDb);
 
-const ROWS = CASES.flatMap((c) => PRINCIPALS.map((principal) => ({ ...c, principal, status: c.expected[principal] })));
+const ROWS = CASES.flatMap((c) =>
+  PRINCIPALS.map((principal) => ({ ...c, principal, status: c.expected[principal] })),
+);
 
 describe("API access matrix", () => {
   it.each(ROWS)("$route as $principal → $status", async (row) => {

@@ -14,7 +14,14 @@ import {
   type FreshAccount,
 } from "./support/accounts";
 import { extractLinkToken, waitForMail } from "./support/mailbox";
-import { auditEventsSince, auditMark, closeDb, db, userIdByEmail, type AuditRow } from "./support/database";
+import {
+  auditEventsSince,
+  auditMark,
+  closeDb,
+  db,
+  userIdByEmail,
+  type AuditRow,
+} from "./support/database";
 
 let lead: ApiClient;
 let leadId: string;
@@ -52,7 +59,10 @@ const MUTATIONS: MutationCase[] = [
     perform: async () => {
       const person = await freshPerson("audit-signin");
       await signedIn(person.email, person.password);
-      return { actorId: person.userId, events: [{ action: "session.create", entity: "user", entityId: person.userId }] };
+      return {
+        actorId: person.userId,
+        events: [{ action: "session.create", entity: "user", entityId: person.userId }],
+      };
     },
   },
   {
@@ -64,7 +74,10 @@ const MUTATIONS: MutationCase[] = [
       expect((await client.delete("/api/session")).status).toBe(204);
       const events = await auditEventsSince(mark, { actorId: person.userId });
       expect(events.map((e) => e.action)).toEqual(["session.delete"]);
-      return { actorId: person.userId, events: [{ action: "session.delete", entity: "user", entityId: person.userId }] };
+      return {
+        actorId: person.userId,
+        events: [{ action: "session.delete", entity: "user", entityId: person.userId }],
+      };
     },
   },
   {
@@ -74,7 +87,10 @@ const MUTATIONS: MutationCase[] = [
       const client = await signedIn(person.email, person.password);
       const created = await client.post<{ id: string }>("/api/tokens", { name: "audited" });
       expect(created.status).toBe(201);
-      return { actorId: person.userId, events: [{ action: "token.create", entity: "access_token", entityId: created.body.id }] };
+      return {
+        actorId: person.userId,
+        events: [{ action: "token.create", entity: "access_token", entityId: created.body.id }],
+      };
     },
   },
   {
@@ -104,7 +120,14 @@ const MUTATIONS: MutationCase[] = [
       expect(invited.status).toBe(201);
       return {
         actorId: leadId,
-        events: [{ action: "invitation.create", entity: "invitation", entityId: invited.body.id, teamId: flameTeamId }],
+        events: [
+          {
+            action: "invitation.create",
+            entity: "invitation",
+            entityId: invited.body.id,
+            teamId: flameTeamId,
+          },
+        ],
       };
     },
   },
@@ -113,7 +136,10 @@ const MUTATIONS: MutationCase[] = [
     perform: async () => {
       const email = uniqueEmail("audit-accept");
       await lead.post("/api/invitations", { teamId: flameTeamId, email, role: "supervisor" });
-      const token = extractLinkToken((await waitForMail({ to: email, subject: /invited/ })).text, "/invitations/");
+      const token = extractLinkToken(
+        (await waitForMail({ to: email, subject: /invited/ })).text,
+        "/invitations/",
+      );
       const accepted = await new ApiClient().post<{ userId: string }>("/api/invitations/accept", {
         token,
         name: "Audit Newcomer",
@@ -134,10 +160,15 @@ const MUTATIONS: MutationCase[] = [
     mutation: "POST /api/password-reset",
     perform: async () => {
       const person = await freshPerson("audit-reset-request");
-      expect((await new ApiClient().post("/api/password-reset", { email: person.email })).status).toBe(202);
+      expect(
+        (await new ApiClient().post("/api/password-reset", { email: person.email })).status,
+      ).toBe(202);
       // The reset mail (and its audit event) is made in the background after the answer.
       await waitForMail({ to: person.email, subject: /Reset your Emberline password/ });
-      return { actorId: person.userId, events: [{ action: "password.resetRequest", entity: "user", entityId: person.userId }] };
+      return {
+        actorId: person.userId,
+        events: [{ action: "password.resetRequest", entity: "user", entityId: person.userId }],
+      };
     },
   },
   {
@@ -145,13 +176,24 @@ const MUTATIONS: MutationCase[] = [
     perform: async () => {
       const person = await freshPerson("audit-reset");
       await new ApiClient().post("/api/password-reset", { email: person.email });
-      const mail = await waitForMail({ to: person.email, subject: /Reset your Emberline password/ });
+      const mail = await waitForMail({
+        to: person.email,
+        subject: /Reset your Emberline password/,
+      });
       const token = extractLinkToken(mail.text, "/reset-password/");
       const mark = await auditMark();
-      const reply = await new ApiClient().post("/api/password-reset/confirm", { token, password: strongPassword() });
+      const reply = await new ApiClient().post("/api/password-reset/confirm", {
+        token,
+        password: strongPassword(),
+      });
       expect(reply.status).toBe(200);
-      expect((await auditEventsSince(mark, { actorId: person.userId })).map((e) => e.action)).toEqual(["password.reset"]);
-      return { actorId: person.userId, events: [{ action: "password.reset", entity: "user", entityId: person.userId }] };
+      expect(
+        (await auditEventsSince(mark, { actorId: person.userId })).map((e) => e.action),
+      ).toEqual(["password.reset"]);
+      return {
+        actorId: person.userId,
+        events: [{ action: "password.reset", entity: "user", entityId: person.userId }],
+      };
     },
   },
   {
@@ -159,9 +201,15 @@ const MUTATIONS: MutationCase[] = [
     perform: async () => {
       const person = await freshPerson("audit-change");
       const client = await signedIn(person.email, person.password);
-      const reply = await client.post("/api/password", { currentPassword: person.password, newPassword: strongPassword() });
+      const reply = await client.post("/api/password", {
+        currentPassword: person.password,
+        newPassword: strongPassword(),
+      });
       expect(reply.status).toBe(200);
-      return { actorId: person.userId, events: [{ action: "password.change", entity: "user", entityId: person.userId }] };
+      return {
+        actorId: person.userId,
+        events: [{ action: "password.change", entity: "user", entityId: person.userId }],
+      };
     },
   },
 ];
@@ -187,7 +235,8 @@ describe("audit events for every mutation", () => {
     const { rows } = await db().query<{ blob: string }>(
       "SELECT coalesce(before::text, '') || coalesce(after::text, '') AS blob FROM audit_events",
     );
-    for (const { blob } of rows) expect(blob).not.toMatch(/password|token_hash|emb_[A-Za-z0-9_-]{20}/i);
+    for (const { blob } of rows)
+      expect(blob).not.toMatch(/password|token_hash|emb_[A-Za-z0-9_-]{20}/i);
   });
 
   it("writes nothing for refused or failed attempts", async () => {
@@ -195,23 +244,44 @@ describe("audit events for every mutation", () => {
     const chemist = await signInDemo("chemist");
     const chemistId = await userIdByEmail("chem@demo.emberline.example");
     const mark = await auditMark();
-    expect((await new ApiClient().post("/api/session", { email: person.email, password: "wrong wrong" })).status).toBe(401);
+    expect(
+      (await new ApiClient().post("/api/session", { email: person.email, password: "wrong wrong" }))
+        .status,
+    ).toBe(401);
     const client = await signedIn(person.email, person.password);
-    expect((await client.post("/api/password", { currentPassword: "wrong wrong", newPassword: strongPassword() })).status).toBe(400);
+    expect(
+      (
+        await client.post("/api/password", {
+          currentPassword: "wrong wrong",
+          newPassword: strongPassword(),
+        })
+      ).status,
+    ).toBe(400);
     expect((await client.post("/api/tokens", { name: "" })).status).toBe(400);
     expect(
-      (await chemist.post("/api/invitations", { teamId: flameTeamId, email: uniqueEmail("nope"), role: "chemist" })).status,
+      (
+        await chemist.post("/api/invitations", {
+          teamId: flameTeamId,
+          email: uniqueEmail("nope"),
+          role: "chemist",
+        })
+      ).status,
     ).toBe(403);
     const personEvents = await auditEventsSince(mark, { actorId: person.userId });
     // Only the one successful sign-in in between.
     expect(personEvents.map((e) => e.action)).toEqual(["session.create"]);
-    expect(await auditEventsSince(mark, { action: "invitation.create", actorId: chemistId })).toEqual([]);
+    expect(
+      await auditEventsSince(mark, { action: "invitation.create", actorId: chemistId }),
+    ).toEqual([]);
   });
 });
 
 describe("audit_events is append-only in the database", () => {
   it.each([
-    ["UPDATE", "UPDATE audit_events SET reason = 'rewritten' WHERE id = (SELECT max(id) FROM audit_events)"],
+    [
+      "UPDATE",
+      "UPDATE audit_events SET reason = 'rewritten' WHERE id = (SELECT max(id) FROM audit_events)",
+    ],
     ["DELETE", "DELETE FROM audit_events WHERE id = (SELECT max(id) FROM audit_events)"],
     ["TRUNCATE", "TRUNCATE audit_events"],
   ])("refuses %s", async (operation, sql) => {
@@ -219,10 +289,13 @@ describe("audit_events is append-only in the database", () => {
       "SELECT count(*)::int AS n, max(id)::text AS newest FROM audit_events",
     );
     expect(before.rows[0].n).toBeGreaterThan(0);
-    await expect(db().query(sql)).rejects.toThrow(`audit_events is append-only: ${operation} is not allowed`);
-    const newest = await db().query<{ reason: string | null }>("SELECT reason FROM audit_events WHERE id = $1", [
-      before.rows[0].newest,
-    ]);
+    await expect(db().query(sql)).rejects.toThrow(
+      `audit_events is append-only: ${operation} is not allowed`,
+    );
+    const newest = await db().query<{ reason: string | null }>(
+      "SELECT reason FROM audit_events WHERE id = $1",
+      [before.rows[0].newest],
+    );
     expect(newest.rows).toHaveLength(1);
     expect(newest.rows[0].reason).not.toBe("rewritten");
   });

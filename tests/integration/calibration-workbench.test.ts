@@ -31,10 +31,22 @@ interface Preview {
     pairing: { excludedByHand: number; addedByHand: number };
   };
   comparison: {
-    candidates: { model: string; rmsNm: number | null; aicc: number | null; bic: number | null; ends: { pixel: number; wavelengthNm: number; uncertaintyNm: number }[] | null }[];
+    candidates: {
+      model: string;
+      rmsNm: number | null;
+      aicc: number | null;
+      bic: number | null;
+      ends: { pixel: number; wavelengthNm: number; uncertaintyNm: number }[] | null;
+    }[];
     recommended: string | null;
   };
-  peaks: { pixel: number; height: number; fwhm: number; predictedNm: number | null; pairedWith: { wavelengthNm: number } | null }[];
+  peaks: {
+    pixel: number;
+    height: number;
+    fwhm: number;
+    predictedNm: number | null;
+    pairedWith: { wavelengthNm: number } | null;
+  }[];
   lines: { wavelengthNm: number; species: string; intensity: number; paired: boolean }[];
 }
 interface SavedCalibration {
@@ -76,8 +88,19 @@ beforeAll(async () => {
   await ensureOutsider();
   outsider = await signedIn(OUTSIDER.email, OUTSIDER.password);
   const teamId = await teamIdOf(lead, FLAME_SCREENING);
-  instrumentId = await createSyntheticInstrument(lead, teamId, `workbench grating ${suffix}`, grating);
-  spectrumId = await uploadSpectrumFile(chemist, instrumentId, "lamp", lampFile(grating), "workbench-lamp.csv");
+  instrumentId = await createSyntheticInstrument(
+    lead,
+    teamId,
+    `workbench grating ${suffix}`,
+    grating,
+  );
+  spectrumId = await uploadSpectrumFile(
+    chemist,
+    instrumentId,
+    "lamp",
+    lampFile(grating),
+    "workbench-lamp.csv",
+  );
   base = { instrumentId, spectrumId, lamps: ["Hg", "Ar"] };
 });
 
@@ -98,16 +121,29 @@ describe("the calibration preview", () => {
     expect(used(auto).length).toBeGreaterThanOrEqual(8);
     // A good lamp calibration of a 1 nm instrument reaches a few hundredths to ~0.1 nm (common practice).
     expect(auto.result.rmsNm).toBeLessThan(0.1);
-    for (const p of used(auto)) expect(Math.abs(p.wavelengthNm - grating.wavelengthOfPixel(p.pixel)), `pixel ${p.pixel}`).toBeLessThan(0.1);
+    for (const p of used(auto))
+      expect(
+        Math.abs(p.wavelengthNm - grating.wavelengthOfPixel(p.pixel)),
+        `pixel ${p.pixel}`,
+      ).toBeLessThan(0.1);
     expect(auto.result.pairing).toMatchObject({ excludedByHand: 0, addedByHand: 0 });
     expect(auto.comparison.candidates.map((c) => c.model)).toEqual([
-      "polynomial-1", "polynomial-2", "polynomial-3", "polynomial-4", "polynomial-5", "hartmann", "prism",
+      "polynomial-1",
+      "polynomial-2",
+      "polynomial-3",
+      "polynomial-4",
+      "polynomial-5",
+      "hartmann",
+      "prism",
     ]);
     expect(auto.comparison.recommended).toMatch(/^polynomial-/);
     // Every paired peak sits where the fit predicts its line, and every line lies in the nominal range.
     const paired = auto.peaks.filter((p) => p.pairedWith);
-    expect(paired.length).toBe(used(auto).length + auto.result.pairs.filter((p) => p.state === "rejected").length);
-    for (const p of paired) expect(Math.abs(p.predictedNm! - p.pairedWith!.wavelengthNm)).toBeLessThan(0.1);
+    expect(paired.length).toBe(
+      used(auto).length + auto.result.pairs.filter((p) => p.state === "rejected").length,
+    );
+    for (const p of paired)
+      expect(Math.abs(p.predictedNm! - p.pairedWith!.wavelengthNm)).toBeLessThan(0.1);
     expect(auto.peaks.every((p) => p.height > 0 && p.fwhm > 0)).toBe(true);
     for (const l of auto.lines) {
       expect(l.wavelengthNm).toBeGreaterThanOrEqual(grating.nominalRangeNm[0]);
@@ -136,17 +172,29 @@ describe("the calibration preview", () => {
     expect(saved.body.coveredRangeNm).toEqual(shown.result.coveredRangeNm);
     expect(saved.body.uncertainty).toEqual(shown.result.uncertainty);
     expect(saved.body.lineReleaseId).toBe(shown.lineRelease.id);
-    const strip = (p: { pixel: number; wavelengthNm: number; residualNm: number }) => ({ pixel: p.pixel, wavelengthNm: p.wavelengthNm, residualNm: p.residualNm });
-    expect(saved.body.pairs.map(strip).sort((a, b) => a.pixel - b.pixel)).toEqual(used(shown).map(strip));
-    expect(saved.body.pairs.some((p) => p.pixel === good.pixel)).toBe(false);
-    const { rows } = await db().query<{ pairing: { excludedByHand: number; addedByHand: number; handPairs: unknown[] } }>(
-      "SELECT pairing FROM calibrations WHERE id = $1",
-      [saved.body.id],
+    const strip = (p: { pixel: number; wavelengthNm: number; residualNm: number }) => ({
+      pixel: p.pixel,
+      wavelengthNm: p.wavelengthNm,
+      residualNm: p.residualNm,
+    });
+    expect(saved.body.pairs.map(strip).sort((a, b) => a.pixel - b.pixel)).toEqual(
+      used(shown).map(strip),
     );
+    expect(saved.body.pairs.some((p) => p.pixel === good.pixel)).toBe(false);
+    const { rows } = await db().query<{
+      pairing: { excludedByHand: number; addedByHand: number; handPairs: unknown[] };
+    }>("SELECT pairing FROM calibrations WHERE id = $1", [saved.body.id]);
     expect(rows[0].pairing).toMatchObject({
       excludedByHand: 1,
       addedByHand: 0,
-      handPairs: [{ change: "excluded", pixel: good.pixel, wavelengthNm: good.wavelengthNm, species: good.species }],
+      handPairs: [
+        {
+          change: "excluded",
+          pixel: good.pixel,
+          wavelengthNm: good.wavelengthNm,
+          species: good.species,
+        },
+      ],
     });
     const events = await auditEventsSince(mark, { action: "calibration.create" });
     expect(events.map((e) => e.entity_id)).toEqual([saved.body.id]);
@@ -161,10 +209,17 @@ describe("the calibration preview", () => {
     const current = (await preview({})).body;
     const candidate = current.peaks
       .filter((p) => !p.pairedWith)
-      .map((p) => ({ peak: p, line: current.lines.find((l) => !l.paired && Math.abs(l.wavelengthNm - grating.wavelengthOfPixel(p.pixel)) < 0.06) }))
+      .map((p) => ({
+        peak: p,
+        line: current.lines.find(
+          (l) => !l.paired && Math.abs(l.wavelengthNm - grating.wavelengthOfPixel(p.pixel)) < 0.06,
+        ),
+      }))
       .find((c) => c.line);
     expect(candidate, "an unpaired peak on a true lamp line").toBeDefined();
-    const added = [{ pixel: Math.round(candidate!.peak.pixel), wavelengthNm: candidate!.line!.wavelengthNm }];
+    const added = [
+      { pixel: Math.round(candidate!.peak.pixel), wavelengthNm: candidate!.line!.wavelengthNm },
+    ];
     const reply = await preview({ added });
     expect(reply.status, JSON.stringify(reply.body)).toBe(200);
     expect(used(reply.body).length).toBe(used(current).length + 1);
@@ -175,26 +230,42 @@ describe("the calibration preview", () => {
 
     const saved = await chemist.post<SavedCalibration>("/api/calibrations", { ...base, added });
     expect(saved.status, JSON.stringify(saved.body)).toBe(201);
-    expect(saved.body.pairs.some((p) => p.wavelengthNm === candidate!.line!.wavelengthNm)).toBe(true);
+    expect(saved.body.pairs.some((p) => p.wavelengthNm === candidate!.line!.wavelengthNm)).toBe(
+      true,
+    );
     expect(saved.body.pairing.addedByHand).toBe(1);
   });
 
   it("refuses a wavelength with no lamp line (400), a pixel with no peak (400) and too few pairs (422), writing nothing", async () => {
     const before = await calibrationCount();
-    const bogus = await chemist.post<ErrorBody>("/api/calibrations", { ...base, added: [{ pixel: Math.round(auto.peaks[0].pixel), wavelengthNm: 123.456 }] });
+    const bogus = await chemist.post<ErrorBody>("/api/calibrations", {
+      ...base,
+      added: [{ pixel: Math.round(auto.peaks[0].pixel), wavelengthNm: 123.456 }],
+    });
     expect(bogus.status).toBe(400);
-    expect(bogus.body.error.fieldErrors?.["added.0.wavelengthNm"]).toEqual(["No lamp line at this wavelength."]);
-    const bogusPreview = await preview({ added: [{ pixel: Math.round(auto.peaks[0].pixel), wavelengthNm: 123.456 }] });
+    expect(bogus.body.error.fieldErrors?.["added.0.wavelengthNm"]).toEqual([
+      "No lamp line at this wavelength.",
+    ]);
+    const bogusPreview = await preview({
+      added: [{ pixel: Math.round(auto.peaks[0].pixel), wavelengthNm: 123.456 }],
+    });
     expect(bogusPreview.status).toBe(400);
     expect(bogusPreview.body.error.message).toMatch(/No lamp line .* at 123\.456 nm/);
 
     // Half-way between the two most distant neighbouring peaks: far from any peak.
     const sorted = auto.peaks.map((p) => p.pixel).sort((a, b) => a - b);
     let gap = 0;
-    for (let i = 1; i < sorted.length; i++) if (sorted[i] - sorted[i - 1] > sorted[gap + 1] - sorted[gap]) gap = i - 1;
-    const noPeak = await preview({ added: [{ pixel: (sorted[gap] + sorted[gap + 1]) / 2, wavelengthNm: auto.lines[0].wavelengthNm }] });
+    for (let i = 1; i < sorted.length; i++)
+      if (sorted[i] - sorted[i - 1] > sorted[gap + 1] - sorted[gap]) gap = i - 1;
+    const noPeak = await preview({
+      added: [
+        { pixel: (sorted[gap] + sorted[gap + 1]) / 2, wavelengthNm: auto.lines[0].wavelengthNm },
+      ],
+    });
     expect(noPeak.status).toBe(400);
-    expect(noPeak.body.error.fieldErrors?.["added.0.pixel"]).toEqual(["No lamp peak near this pixel."]);
+    expect(noPeak.body.error.fieldErrors?.["added.0.pixel"]).toEqual([
+      "No lamp peak near this pixel.",
+    ]);
 
     const missing = await preview({ excluded: [{ pixel: 5, wavelengthNm: 500 }] });
     expect(missing.status).toBe(400);
@@ -204,13 +275,20 @@ describe("the calibration preview", () => {
     expect(malformed.status).toBe(400);
     expect(malformed.body.error.fieldErrors?.["excluded.0.pixel"]).toBeDefined();
 
-    const all = (await preview({})).body.result.pairs.map((p) => ({ pixel: p.pixel, wavelengthNm: p.wavelengthNm }));
+    const all = (await preview({})).body.result.pairs.map((p) => ({
+      pixel: p.pixel,
+      wavelengthNm: p.wavelengthNm,
+    }));
     const tooFew = await preview({ excluded: all.slice(2) });
     expect(tooFew.status).toBe(422);
     expect(tooFew.body.error.message).toMatch(/Too few pairs left: 2 remain/);
 
     // Five pairs left: a degree-5 polynomial needs 7.
-    const needsMore = await chemist.post<ErrorBody>("/api/calibrations", { ...base, model: "polynomial-5", excluded: all.slice(5) });
+    const needsMore = await chemist.post<ErrorBody>("/api/calibrations", {
+      ...base,
+      model: "polynomial-5",
+      excluded: all.slice(5),
+    });
     expect(needsMore.status).toBe(422);
     expect(needsMore.body.error.message).toMatch(/needs more pairs than remain/);
     expect(await calibrationCount()).toBe(before);
@@ -232,12 +310,19 @@ describe("the calibration preview", () => {
     expect(line.ends![0].pixel).toBe(0);
     expect(line.ends![1].pixel).toBe(PIXELS - 1);
     // The auto choice extrapolates to the ends within 0.1 nm of the truth; the straight line does not.
-    for (const end of chosen.ends!) expect(Math.abs(end.wavelengthNm - grating.wavelengthOfPixel(end.pixel))).toBeLessThan(0.1);
-    expect(Math.max(...line.ends!.map((e) => Math.abs(e.wavelengthNm - grating.wavelengthOfPixel(e.pixel))))).toBeGreaterThan(0.3);
+    for (const end of chosen.ends!)
+      expect(Math.abs(end.wavelengthNm - grating.wavelengthOfPixel(end.pixel))).toBeLessThan(0.1);
+    expect(
+      Math.max(
+        ...line.ends!.map((e) => Math.abs(e.wavelengthNm - grating.wavelengthOfPixel(e.pixel))),
+      ),
+    ).toBeGreaterThan(0.3);
   });
 
   it("keeps the hand-picked seed pairs working", async () => {
-    const seeds = [0, Math.floor(used(auto).length / 2), used(auto).length - 1].map((i) => used(auto)[i]).map((p) => ({ pixel: Math.round(p.pixel), wavelengthNm: p.wavelengthNm }));
+    const seeds = [0, Math.floor(used(auto).length / 2), used(auto).length - 1]
+      .map((i) => used(auto)[i])
+      .map((p) => ({ pixel: Math.round(p.pixel), wavelengthNm: p.wavelengthNm }));
     const reply = await preview({ pairs: seeds, model: "polynomial-3" });
     expect(reply.status, JSON.stringify(reply.body)).toBe(200);
     expect(reply.body.result.model).toBe("polynomial-3");

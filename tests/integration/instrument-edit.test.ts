@@ -110,9 +110,18 @@ describe("editing an instrument", () => {
   it("lets the lab lead change the name and resolution, bumps the version and audits only the changed fields", async () => {
     bench = await create(`edit bench ${suffix}`);
     const mark = await auditMark();
-    const reply = await patch(lead, bench.id, { ...fieldsOf(bench), name: `edit bench renamed ${suffix}`, resolutionNm: 0.5 });
+    const reply = await patch(lead, bench.id, {
+      ...fieldsOf(bench),
+      name: `edit bench renamed ${suffix}`,
+      resolutionNm: 0.5,
+    });
     expect(reply.status, JSON.stringify(reply.body)).toBe(200);
-    expect(reply.body).toMatchObject({ id: bench.id, name: `edit bench renamed ${suffix}`, resolutionNm: 0.5, version: 1 });
+    expect(reply.body).toMatchObject({
+      id: bench.id,
+      name: `edit bench renamed ${suffix}`,
+      resolutionNm: 0.5,
+      version: 1,
+    });
     // Fields the edit did not touch keep their values.
     expect(reply.body).toMatchObject({ dispersion: "grating", pixels: PIXELS, detectorMax: 60000 });
 
@@ -130,13 +139,21 @@ describe("editing an instrument", () => {
 
     const read = await chemist.get<Instrument>(`/api/instruments/${bench.id}`);
     expect(read.status).toBe(200);
-    expect(read.body).toMatchObject({ name: `edit bench renamed ${suffix}`, resolutionNm: 0.5, version: 1 });
+    expect(read.body).toMatchObject({
+      name: `edit bench renamed ${suffix}`,
+      resolutionNm: 0.5,
+      version: 1,
+    });
     bench = reply.body;
   });
 
   it("refuses an edit made on a stale version with 409 and keeps the other edit", async () => {
     await changesNothing(bench.id, async () => {
-      const reply = await patch<ErrorBody>(lead, bench.id, { ...fieldsOf(bench), version: 0, resolutionNm: 2 });
+      const reply = await patch<ErrorBody>(lead, bench.id, {
+        ...fieldsOf(bench),
+        version: 0,
+        resolutionNm: 2,
+      });
       expect(reply.status).toBe(409);
       expect(reply.body.error.message).toMatch(/changed this instrument since you opened it/);
     });
@@ -174,7 +191,9 @@ describe("editing an instrument", () => {
       for (const [change, field] of cases) {
         const reply = await patch<ErrorBody>(lead, bench.id, { ...fieldsOf(bench), ...change });
         expect(reply.status, JSON.stringify(change)).toBe(400);
-        expect(reply.body.error.fieldErrors?.[field]?.[0], JSON.stringify(reply.body)).toEqual(expect.any(String));
+        expect(reply.body.error.fieldErrors?.[field]?.[0], JSON.stringify(reply.body)).toEqual(
+          expect.any(String),
+        );
       }
     });
   });
@@ -182,20 +201,41 @@ describe("editing an instrument", () => {
   it("refuses a name another instrument of the team has with 409 on the name field", async () => {
     const other = await create(`edit other ${suffix}`);
     await changesNothing(bench.id, async () => {
-      const reply = await patch<ErrorBody>(lead, bench.id, { ...fieldsOf(bench), name: other.name, resolutionNm: 0.7 });
+      const reply = await patch<ErrorBody>(lead, bench.id, {
+        ...fieldsOf(bench),
+        name: other.name,
+        resolutionNm: 0.7,
+      });
       expect(reply.status).toBe(409);
-      expect(reply.body.error.fieldErrors?.name?.[0]).toMatch(/already has an instrument of that name/);
+      expect(reply.body.error.fieldErrors?.name?.[0]).toMatch(
+        /already has an instrument of that name/,
+      );
     });
   });
 
   it("may turn an uncalibrated grating into a prism with glass and apex, and back (which clears them)", async () => {
-    const toPrism = await patch(lead, bench.id, { ...fieldsOf(bench), dispersion: "prism", glass: "F2", apexDeg: 60 });
+    const toPrism = await patch(lead, bench.id, {
+      ...fieldsOf(bench),
+      dispersion: "prism",
+      glass: "F2",
+      apexDeg: 60,
+    });
     expect(toPrism.status, JSON.stringify(toPrism.body)).toBe(200);
-    expect(toPrism.body).toMatchObject({ dispersion: "prism", glass: "F2", apexDeg: 60, version: 2 });
+    expect(toPrism.body).toMatchObject({
+      dispersion: "prism",
+      glass: "F2",
+      apexDeg: 60,
+      version: 2,
+    });
     const { glass: _glass, apexDeg: _apex, ...withoutPrismFields } = fieldsOf(toPrism.body);
     const back = await patch(lead, bench.id, { ...withoutPrismFields, dispersion: "grating" });
     expect(back.status, JSON.stringify(back.body)).toBe(200);
-    expect(back.body).toMatchObject({ dispersion: "grating", glass: null, apexDeg: null, version: 3 });
+    expect(back.body).toMatchObject({
+      dispersion: "grating",
+      glass: null,
+      apexDeg: null,
+      version: 3,
+    });
     bench = back.body;
   });
 
@@ -219,7 +259,10 @@ describe("an instrument with calibrations", () => {
     form.set("kind", "lamp");
     const uploaded = await fetch(`${APP_URL}/api/spectra`, {
       method: "POST",
-      headers: { cookie: `${SESSION_COOKIE}=${chemist.cookie(SESSION_COOKIE)}`, "x-forwarded-for": chemist.address },
+      headers: {
+        cookie: `${SESSION_COOKIE}=${chemist.cookie(SESSION_COOKIE)}`,
+        "x-forwarded-for": chemist.address,
+      },
       body: form,
     });
     const spectrum = (await uploaded.json()) as { id: string };
@@ -237,12 +280,19 @@ describe("an instrument with calibrations", () => {
 
   it("refuses a new dispersion or pixel count with 409, saying to add a new instrument", async () => {
     await changesNothing(calibrated.id, async () => {
-      const prism = await patch<ErrorBody>(lead, calibrated.id, { ...fieldsOf(calibrated), dispersion: "prism", resolutionNm: 2 });
+      const prism = await patch<ErrorBody>(lead, calibrated.id, {
+        ...fieldsOf(calibrated),
+        dispersion: "prism",
+        resolutionNm: 2,
+      });
       expect(prism.status).toBe(409);
       expect(prism.body.error.message).toMatch(/Add a new instrument/);
       expect(prism.body.error.fieldErrors?.dispersion).toBeDefined();
 
-      const pixels = await patch<ErrorBody>(lead, calibrated.id, { ...fieldsOf(calibrated), pixels: 1024 });
+      const pixels = await patch<ErrorBody>(lead, calibrated.id, {
+        ...fieldsOf(calibrated),
+        pixels: 1024,
+      });
       expect(pixels.status).toBe(409);
       expect(pixels.body.error.fieldErrors?.pixels).toBeDefined();
     });
@@ -258,7 +308,11 @@ describe("an instrument with calibrations", () => {
       nominalMinNm: calibrated.nominalMinNm - 10,
     });
     expect(reply.status, JSON.stringify(reply.body)).toBe(200);
-    expect(reply.body).toMatchObject({ resolutionNm: 1.2, detectorMax: null, nominalMinNm: calibrated.nominalMinNm - 10 });
+    expect(reply.body).toMatchObject({
+      resolutionNm: 1.2,
+      detectorMax: null,
+      nominalMinNm: calibrated.nominalMinNm - 10,
+    });
     const [event] = await auditEventsSince(mark, { action: "instrument.update" });
     expect(event.before).toEqual({
       name: calibrated.name,

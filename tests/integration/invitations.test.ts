@@ -29,12 +29,21 @@ afterAll(closeDb);
 describe("invitations", () => {
   it("take a new person from the lab lead's invitation to a signed-in member with the invited role", async () => {
     const email = uniqueEmail("invitee");
-    const invited = await lead.post<{ id: string }>("/api/invitations", { teamId: flameTeamId, email, role: "supervisor" });
+    const invited = await lead.post<{ id: string }>("/api/invitations", {
+      teamId: flameTeamId,
+      email,
+      role: "supervisor",
+    });
     expect(invited.status).toBe(201);
     expect(invited.body.id).toMatch(/^[0-9a-f-]{36}$/);
 
-    const mail = await waitForMail({ to: email, subject: /^You are invited to Flame Screening on Emberline$/ });
-    expect(mail.text).toContain(`${DEMO.labLead.name} invites you to join ${FLAME_SCREENING} as supervisor`);
+    const mail = await waitForMail({
+      to: email,
+      subject: /^You are invited to Flame Screening on Emberline$/,
+    });
+    expect(mail.text).toContain(
+      `${DEMO.labLead.name} invites you to join ${FLAME_SCREENING} as supervisor`,
+    );
     const token = extractLinkToken(mail.text, "/invitations/");
     expect(token.length).toBeGreaterThanOrEqual(40);
 
@@ -50,7 +59,9 @@ describe("invitations", () => {
     const meNow = await newcomer.get<Me>("/api/me");
     expect(meNow.status).toBe(200);
     expect(meNow.body).toMatchObject({ id: accepted.body.userId, email, name: "Nell Invitee" });
-    expect(meNow.body.teams).toEqual([{ id: flameTeamId, name: FLAME_SCREENING, role: "supervisor" }]);
+    expect(meNow.body.teams).toEqual([
+      { id: flameTeamId, name: FLAME_SCREENING, role: "supervisor" },
+    ]);
 
     // And the new password works for a later sign-in.
     const later = await signedIn(email, password);
@@ -79,24 +90,50 @@ describe("invitations", () => {
 
   it("ask a new person for a name and an acceptable password before creating the account", async () => {
     const email = uniqueEmail("fussy");
-    expect((await lead.post("/api/invitations", { teamId: flameTeamId, email, role: "chemist" })).status).toBe(201);
-    const token = extractLinkToken((await waitForMail({ to: email, subject: /invited/ })).text, "/invitations/");
+    expect(
+      (await lead.post("/api/invitations", { teamId: flameTeamId, email, role: "chemist" })).status,
+    ).toBe(201);
+    const token = extractLinkToken(
+      (await waitForMail({ to: email, subject: /invited/ })).text,
+      "/invitations/",
+    );
     const client = new ApiClient();
 
-    const noName = await client.post<ErrorBody>("/api/invitations/accept", { token, password: strongPassword() });
+    const noName = await client.post<ErrorBody>("/api/invitations/accept", {
+      token,
+      password: strongPassword(),
+    });
     expect(noName.status).toBe(400);
     expect(noName.body.error.fieldErrors?.name).toEqual(["Enter your name."]);
 
-    const short = await client.post<ErrorBody>("/api/invitations/accept", { token, name: "Fen", password: "short" });
+    const short = await client.post<ErrorBody>("/api/invitations/accept", {
+      token,
+      name: "Fen",
+      password: "short",
+    });
     expect(short.status).toBe(400);
     expect(short.body.error.fieldErrors?.password?.[0]).toMatch(/at least 12 characters/);
 
-    const ownAddress = await client.post<ErrorBody>("/api/invitations/accept", { token, name: "Fen", password: email });
+    const ownAddress = await client.post<ErrorBody>("/api/invitations/accept", {
+      token,
+      name: "Fen",
+      password: email,
+    });
     expect(ownAddress.status).toBe(400);
-    expect(ownAddress.body.error.fieldErrors?.password).toContain("The password must not be your e-mail address.");
+    expect(ownAddress.body.error.fieldErrors?.password).toContain(
+      "The password must not be your e-mail address.",
+    );
 
     // None of those used up the invitation.
-    expect((await client.post("/api/invitations/accept", { token, name: "Fen", password: strongPassword() })).status).toBe(201);
+    expect(
+      (
+        await client.post("/api/invitations/accept", {
+          token,
+          name: "Fen",
+          password: strongPassword(),
+        })
+      ).status,
+    ).toBe(201);
   });
 
   it("let a person who already has an account join another team with their existing password", async () => {
@@ -112,12 +149,20 @@ describe("invitations", () => {
     const mail = await waitForMail({ to: person.email, subject: /invited to Outsider Test Bench/ });
     const token = extractLinkToken(mail.text, "/invitations/");
 
-    const wrong = await new ApiClient().post<ErrorBody>("/api/invitations/accept", { token, password: strongPassword() });
+    const wrong = await new ApiClient().post<ErrorBody>("/api/invitations/accept", {
+      token,
+      password: strongPassword(),
+    });
     expect(wrong.status).toBe(400);
-    expect(wrong.body.error.fieldErrors?.password).toEqual(["The password is not right for this account."]);
+    expect(wrong.body.error.fieldErrors?.password).toEqual([
+      "The password is not right for this account.",
+    ]);
 
     const client = new ApiClient();
-    const accepted = await client.post<{ userId: string }>("/api/invitations/accept", { token, password: person.password });
+    const accepted = await client.post<{ userId: string }>("/api/invitations/accept", {
+      token,
+      password: person.password,
+    });
     expect(accepted.status).toBe(201);
     expect(accepted.body.userId).toBe(person.userId);
     const me = await client.get<Me>("/api/me");

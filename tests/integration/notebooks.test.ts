@@ -6,10 +6,24 @@
 // nothing. The tests run in order and build on each other.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { APP_URL, ApiClient, type ErrorBody } from "./support/http-client";
-import { ARC_AND_SPARK, DEMO, FLAME_SCREENING, signInDemo, signedIn, teamIdOf } from "./support/accounts";
+import {
+  ARC_AND_SPARK,
+  DEMO,
+  FLAME_SCREENING,
+  signInDemo,
+  signedIn,
+  teamIdOf,
+} from "./support/accounts";
 import { OUTSIDER, ensureOutsider } from "./support/outsider";
 import { auditEventsSince, auditMark, closeDb, db } from "./support/database";
-import { PIXELS, RESOLUTION_NM, flameFile, flameFileOnWavelengthAxis, lampFile, syntheticGrating } from "./support/synthetic-files";
+import {
+  PIXELS,
+  RESOLUTION_NM,
+  flameFile,
+  flameFileOnWavelengthAxis,
+  lampFile,
+  syntheticGrating,
+} from "./support/synthetic-files";
 
 interface Instrument {
   id: string;
@@ -62,9 +76,17 @@ let outsiderTeamId: string;
 let demoInstrument: Instrument;
 let ownAxisInstrument: Instrument;
 let notebookId: string;
-const runs: Record<"flame" | "lampCheck" | "ownAxis", { id: string; spectrumId: string; label: string }> = {} as never;
+const runs: Record<
+  "flame" | "lampCheck" | "ownAxis",
+  { id: string; spectrumId: string; label: string }
+> = {} as never;
 
-async function upload(client: ApiClient, instrumentId: string, content: string, label: string): Promise<string> {
+async function upload(
+  client: ApiClient,
+  instrumentId: string,
+  content: string,
+  label: string,
+): Promise<string> {
   const form = new FormData();
   form.set("file", new Blob([content]), `${label}.csv`);
   form.set("instrumentId", instrumentId);
@@ -72,7 +94,10 @@ async function upload(client: ApiClient, instrumentId: string, content: string, 
   form.set("label", label);
   const response = await fetch(`${APP_URL}/api/spectra`, {
     method: "POST",
-    headers: { cookie: `${SESSION_COOKIE}=${client.cookie(SESSION_COOKIE)}`, "x-forwarded-for": client.address },
+    headers: {
+      cookie: `${SESSION_COOKIE}=${client.cookie(SESSION_COOKIE)}`,
+      "x-forwarded-for": client.address,
+    },
     body: form,
   });
   const body = await response.json();
@@ -80,8 +105,17 @@ async function upload(client: ApiClient, instrumentId: string, content: string, 
   return body.id;
 }
 
-async function startRun(spectrumId: string, source: string, calibrationId: string | null): Promise<string> {
-  const reply = await chemist.post<{ id: string }>("/api/runs", { notebookId, spectrumId, calibrationId, source });
+async function startRun(
+  spectrumId: string,
+  source: string,
+  calibrationId: string | null,
+): Promise<string> {
+  const reply = await chemist.post<{ id: string }>("/api/runs", {
+    notebookId,
+    spectrumId,
+    calibrationId,
+    source,
+  });
   expect(reply.status, JSON.stringify(reply.body)).toBe(201);
   return reply.body.id;
 }
@@ -129,17 +163,41 @@ beforeAll(async () => {
   expect(created.status, JSON.stringify(created.body)).toBe(201);
   ownAxisInstrument = created.body;
 
-  const notebook = await chemist.post<{ id: string }>("/api/notebooks", { teamId, title: `Filter bench ${suffix}` });
+  const notebook = await chemist.post<{ id: string }>("/api/notebooks", {
+    teamId,
+    title: `Filter bench ${suffix}`,
+  });
   expect(notebook.status).toBe(201);
   notebookId = notebook.body.id;
 
-  const labels = { flame: `flame ${suffix}`, lampCheck: `lamp check ${suffix}`, ownAxis: `own axis ${suffix}` };
+  const labels = {
+    flame: `flame ${suffix}`,
+    lampCheck: `lamp check ${suffix}`,
+    ownAxis: `own axis ${suffix}`,
+  };
   const flameId = await upload(chemist, demoInstrument.id, flameFile(grating, 21), labels.flame);
-  runs.flame = { id: await startRun(flameId, "flame", demoInstrument.latestCalibrationId), spectrumId: flameId, label: labels.flame };
+  runs.flame = {
+    id: await startRun(flameId, "flame", demoInstrument.latestCalibrationId),
+    spectrumId: flameId,
+    label: labels.flame,
+  };
   const lampId = await upload(chemist, demoInstrument.id, lampFile(grating, 22), labels.lampCheck);
-  runs.lampCheck = { id: await startRun(lampId, "lamp", demoInstrument.latestCalibrationId), spectrumId: lampId, label: labels.lampCheck };
-  const ownAxisId = await upload(chemist, ownAxisInstrument.id, flameFileOnWavelengthAxis(grating, 23), labels.ownAxis);
-  runs.ownAxis = { id: await startRun(ownAxisId, "flame", null), spectrumId: ownAxisId, label: labels.ownAxis };
+  runs.lampCheck = {
+    id: await startRun(lampId, "lamp", demoInstrument.latestCalibrationId),
+    spectrumId: lampId,
+    label: labels.lampCheck,
+  };
+  const ownAxisId = await upload(
+    chemist,
+    ownAxisInstrument.id,
+    flameFileOnWavelengthAxis(grating, 23),
+    labels.ownAxis,
+  );
+  runs.ownAxis = {
+    id: await startRun(ownAxisId, "flame", null),
+    spectrumId: ownAxisId,
+    label: labels.ownAxis,
+  };
 
   const submitted = await chemist.post(`/api/runs/${runs.lampCheck.id}/submit`, {});
   expect(submitted.status, JSON.stringify(submitted.body)).toBe(200);
@@ -166,7 +224,9 @@ describe("a notebook's runs", () => {
     });
     for (const run of all) {
       const record = await chemist.get<{ verdicts: Record<string, string> }>(`/api/runs/${run.id}`);
-      const standing = Object.entries(record.body.verdicts).filter(([, v]) => v === "present").map(([s]) => s);
+      const standing = Object.entries(record.body.verdicts)
+        .filter(([, v]) => v === "present")
+        .map(([s]) => s);
       expect([...run.present].sort(), run.id).toEqual(standing.sort());
     }
     expect(all.find((r) => r.id === runs.lampCheck.id)!.status).toBe("submitted");
@@ -177,7 +237,9 @@ describe("a notebook's runs", () => {
     expect(ids(await listRuns("?status=draft"))).toEqual(ids([runs.flame, runs.ownAxis]));
     expect(await listRuns("?status=signed")).toEqual([]);
     expect(ids(await listRuns(`?instrumentId=${ownAxisInstrument.id}`))).toEqual([runs.ownAxis.id]);
-    expect(ids(await listRuns(`?instrumentId=${demoInstrument.id}&status=draft`))).toEqual([runs.flame.id]);
+    expect(ids(await listRuns(`?instrumentId=${demoInstrument.id}&status=draft`))).toEqual([
+      runs.flame.id,
+    ]);
   });
 
   it("filter by a species standing as present: by its name in any case, or by the element for all its stages", async () => {
@@ -207,10 +269,16 @@ describe("a notebook's runs", () => {
   });
 
   it("search the sample label, file name, instrument and author", async () => {
-    expect(ids(await listRuns(`?q=${encodeURIComponent(runs.lampCheck.label)}`))).toEqual([runs.lampCheck.id]);
-    expect(ids(await listRuns(`?q=${encodeURIComponent(`own axis ${suffix}.csv`)}`))).toEqual([runs.ownAxis.id]);
+    expect(ids(await listRuns(`?q=${encodeURIComponent(runs.lampCheck.label)}`))).toEqual([
+      runs.lampCheck.id,
+    ]);
+    expect(ids(await listRuns(`?q=${encodeURIComponent(`own axis ${suffix}.csv`)}`))).toEqual([
+      runs.ownAxis.id,
+    ]);
     expect(ids(await listRuns(`?q=own-axis%20grating`))).toEqual([runs.ownAxis.id]);
-    expect(ids(await listRuns(`?q=${encodeURIComponent(DEMO.chemist.name.toUpperCase())}`))).toEqual(ids(Object.values(runs)));
+    expect(
+      ids(await listRuns(`?q=${encodeURIComponent(DEMO.chemist.name.toUpperCase())}`)),
+    ).toEqual(ids(Object.values(runs)));
     // A % typed into the box is a character, not a wildcard.
     expect(await listRuns("?q=%25")).toEqual([]);
   });
@@ -234,14 +302,18 @@ describe("a notebook's runs", () => {
 
 describe("renaming a notebook", () => {
   it("takes the version it was made from, answers 409 to a stale one and audits the change with before and after", async () => {
-    const before = await chemist.get<Notebook & { runs: RunSummary[] }>(`/api/notebooks/${notebookId}`);
+    const before = await chemist.get<Notebook & { runs: RunSummary[] }>(
+      `/api/notebooks/${notebookId}`,
+    );
     expect(before.status).toBe(200);
     expect(before.body.runs).toHaveLength(3);
     const version = before.body.version;
 
     const mark = await auditMark();
     const title = `Filter bench, renamed ${suffix}`;
-    const renamed = await chemist.request<Notebook>("PATCH", `/api/notebooks/${notebookId}`, { json: { title: `  ${title} `, version } });
+    const renamed = await chemist.request<Notebook>("PATCH", `/api/notebooks/${notebookId}`, {
+      json: { title: `  ${title} `, version },
+    });
     expect(renamed.status, JSON.stringify(renamed.body)).toBe(200);
     expect(renamed.body.title).toBe(title);
     expect(renamed.body.version).toBe(version + 1);
@@ -252,7 +324,9 @@ describe("renaming a notebook", () => {
     expect(events[0].after).toMatchObject({ title });
 
     const staleMark = await auditMark();
-    const stale = await chemist.request<ErrorBody>("PATCH", `/api/notebooks/${notebookId}`, { json: { title: "Someone else's title", version } });
+    const stale = await chemist.request<ErrorBody>("PATCH", `/api/notebooks/${notebookId}`, {
+      json: { title: "Someone else's title", version },
+    });
     expect(stale.status).toBe(409);
     expect(stale.body.error.fieldErrors?.title?.join(" ")).toContain(title);
     const after = await chemist.get<Notebook>(`/api/notebooks/${notebookId}`);
@@ -262,28 +336,47 @@ describe("renaming a notebook", () => {
 
   it("refuses a blank or overlong title and a missing version with 400; outsiders get 404", async () => {
     const current = (await chemist.get<Notebook>(`/api/notebooks/${notebookId}`)).body;
-    const blank = await chemist.request<ErrorBody>("PATCH", `/api/notebooks/${notebookId}`, { json: { title: "   ", version: current.version } });
+    const blank = await chemist.request<ErrorBody>("PATCH", `/api/notebooks/${notebookId}`, {
+      json: { title: "   ", version: current.version },
+    });
     expect(blank.status).toBe(400);
     expect(blank.body.error.fieldErrors?.title).toEqual(["Give the notebook a title."]);
-    const long = await chemist.request<ErrorBody>("PATCH", `/api/notebooks/${notebookId}`, { json: { title: "x".repeat(201), version: current.version } });
+    const long = await chemist.request<ErrorBody>("PATCH", `/api/notebooks/${notebookId}`, {
+      json: { title: "x".repeat(201), version: current.version },
+    });
     expect(long.status).toBe(400);
     expect(long.body.error.fieldErrors?.title).toBeDefined();
-    const noVersion = await chemist.request<ErrorBody>("PATCH", `/api/notebooks/${notebookId}`, { json: { title: "No version" } });
+    const noVersion = await chemist.request<ErrorBody>("PATCH", `/api/notebooks/${notebookId}`, {
+      json: { title: "No version" },
+    });
     expect(noVersion.status).toBe(400);
     expect(noVersion.body.error.fieldErrors?.version).toBeDefined();
-    const foreign = await outsider.request("PATCH", `/api/notebooks/${notebookId}`, { json: { title: "Mine now", version: current.version } });
+    const foreign = await outsider.request("PATCH", `/api/notebooks/${notebookId}`, {
+      json: { title: "Mine now", version: current.version },
+    });
     expect(foreign.status).toBe(404);
-    expect((await chemist.get<Notebook>(`/api/notebooks/${notebookId}`)).body.title).toBe(current.title);
+    expect((await chemist.get<Notebook>(`/api/notebooks/${notebookId}`)).body.title).toBe(
+      current.title,
+    );
   });
 
   it("is found by the title search, with its run counts by status", async () => {
-    const found = await chemist.get<Notebook[]>(`/api/notebooks?teamId=${teamId}&q=${encodeURIComponent(`renamed ${suffix}`.toUpperCase())}`);
+    const found = await chemist.get<Notebook[]>(
+      `/api/notebooks?teamId=${teamId}&q=${encodeURIComponent(`renamed ${suffix}`.toUpperCase())}`,
+    );
     expect(found.status).toBe(200);
     expect(found.body.map((n) => n.id)).toEqual([notebookId]);
-    expect(found.body[0]).toMatchObject({ runCount: 3, statusCounts: { draft: 2, submitted: 1, returned: 0, signed: 0 } });
-    const old = await chemist.get<Notebook[]>(`/api/notebooks?teamId=${teamId}&q=${encodeURIComponent(`Filter bench ${suffix}`)}`);
+    expect(found.body[0]).toMatchObject({
+      runCount: 3,
+      statusCounts: { draft: 2, submitted: 1, returned: 0, signed: 0 },
+    });
+    const old = await chemist.get<Notebook[]>(
+      `/api/notebooks?teamId=${teamId}&q=${encodeURIComponent(`Filter bench ${suffix}`)}`,
+    );
     expect(old.body).toEqual([]);
-    const tooLong = await chemist.get<ErrorBody>(`/api/notebooks?teamId=${teamId}&q=${"x".repeat(201)}`);
+    const tooLong = await chemist.get<ErrorBody>(
+      `/api/notebooks?teamId=${teamId}&q=${"x".repeat(201)}`,
+    );
     expect(tooLong.status).toBe(400);
     expect((await outsider.get(`/api/notebooks?teamId=${teamId}&q=renamed`)).status).toBe(404);
   });
@@ -291,22 +384,34 @@ describe("renaming a notebook", () => {
 
 describe("the spectra list", () => {
   it("lists the team's spectra of one instrument and kind, newest first, without bytes or points", async () => {
-    const reply = await chemist.get<SpectrumSummary[]>(`/api/spectra?teamId=${teamId}&instrumentId=${demoInstrument.id}&kind=sample`);
+    const reply = await chemist.get<SpectrumSummary[]>(
+      `/api/spectra?teamId=${teamId}&instrumentId=${demoInstrument.id}&kind=sample`,
+    );
     expect(reply.status).toBe(200);
     const list = reply.body;
     expect(list.length).toBeGreaterThanOrEqual(2);
-    expect(list.every((s) => s.kind === "sample" && s.instrumentId === demoInstrument.id && s.teamId === teamId)).toBe(true);
-    expect(list.slice(0, 2).map((s) => s.id)).toEqual([runs.lampCheck.spectrumId, runs.flame.spectrumId]);
+    expect(
+      list.every(
+        (s) => s.kind === "sample" && s.instrumentId === demoInstrument.id && s.teamId === teamId,
+      ),
+    ).toBe(true);
+    expect(list.slice(0, 2).map((s) => s.id)).toEqual([
+      runs.lampCheck.spectrumId,
+      runs.flame.spectrumId,
+    ]);
     const times = list.map((s) => s.uploadedAt);
     expect(times).toEqual([...times].sort().reverse());
-    for (const key of ["rawBytes", "xValues", "yValues", "x", "y"]) expect(list[0]).not.toHaveProperty(key);
+    for (const key of ["rawBytes", "xValues", "yValues", "x", "y"])
+      expect(list[0]).not.toHaveProperty(key);
     expect(list[0].points).toBe(PIXELS);
     expect(list[0].xRange).toEqual([0, PIXELS - 1]);
 
     const lamps = await chemist.get<SpectrumSummary[]>(`/api/spectra?teamId=${teamId}&kind=lamp`);
     expect(lamps.body.length).toBeGreaterThan(0);
     expect(lamps.body.every((s) => s.kind === "lamp")).toBe(true);
-    const own = await chemist.get<SpectrumSummary[]>(`/api/spectra?teamId=${teamId}&instrumentId=${ownAxisInstrument.id}`);
+    const own = await chemist.get<SpectrumSummary[]>(
+      `/api/spectra?teamId=${teamId}&instrumentId=${ownAxisInstrument.id}`,
+    );
     expect(own.body.map((s) => s.id)).toEqual([runs.ownAxis.spectrumId]);
   });
 
@@ -317,13 +422,21 @@ describe("the spectra list", () => {
     // The lab lead sees the Arc and Spark Bench instrument; the chemist may not list it under her own team.
     const arcInstruments = await lead.get<Instrument[]>(`/api/instruments?teamId=${arcTeamId}`);
     expect(arcInstruments.body.length).toBeGreaterThan(0);
-    expect((await chemist.get(`/api/spectra?teamId=${teamId}&instrumentId=${arcInstruments.body[0].id}`)).status).toBe(404);
-    expect((await lead.get(`/api/spectra?teamId=${teamId}&instrumentId=${arcInstruments.body[0].id}`)).status).toBe(404);
+    expect(
+      (await chemist.get(`/api/spectra?teamId=${teamId}&instrumentId=${arcInstruments.body[0].id}`))
+        .status,
+    ).toBe(404);
+    expect(
+      (await lead.get(`/api/spectra?teamId=${teamId}&instrumentId=${arcInstruments.body[0].id}`))
+        .status,
+    ).toBe(404);
 
     const badKind = await chemist.get<ErrorBody>(`/api/spectra?teamId=${teamId}&kind=dark`);
     expect(badKind.status).toBe(400);
     expect(badKind.body.error.fieldErrors?.kind).toBeDefined();
-    const badInstrument = await chemist.get<ErrorBody>(`/api/spectra?teamId=${teamId}&instrumentId=42`);
+    const badInstrument = await chemist.get<ErrorBody>(
+      `/api/spectra?teamId=${teamId}&instrumentId=42`,
+    );
     expect(badInstrument.status).toBe(400);
     expect(badInstrument.body.error.fieldErrors?.instrumentId).toBeDefined();
   });

@@ -24,7 +24,9 @@ afterAll(closeDb);
 
 async function requestResetToken(person: FreshAccount): Promise<string> {
   const before = mailTo(person.email).filter((m) => RESET_SUBJECT.test(m.subject)).length;
-  const reply = await new ApiClient().post<{ message: string }>("/api/password-reset", { email: person.email });
+  const reply = await new ApiClient().post<{ message: string }>("/api/password-reset", {
+    email: person.email,
+  });
   expect(reply.status).toBe(202);
   const mail = await waitForMail({ to: person.email, subject: RESET_SUBJECT, skip: before });
   expect(mail.text).toContain(`Hello ${person.name},`);
@@ -37,14 +39,22 @@ describe("password reset", () => {
     const token = await requestResetToken(person);
     const newPassword = strongPassword();
 
-    const confirmed = await new ApiClient().post<{ message: string }>("/api/password-reset/confirm", {
-      token,
-      password: newPassword,
-    });
+    const confirmed = await new ApiClient().post<{ message: string }>(
+      "/api/password-reset/confirm",
+      {
+        token,
+        password: newPassword,
+      },
+    );
     expect(confirmed.status).toBe(200);
-    expect(confirmed.body.message).toBe("Your password is changed. Every session was signed out. You had no access tokens.");
+    expect(confirmed.body.message).toBe(
+      "Your password is changed. Every session was signed out. You had no access tokens.",
+    );
 
-    const old = await new ApiClient().post<ErrorBody>("/api/session", { email: person.email, password: person.password });
+    const old = await new ApiClient().post<ErrorBody>("/api/session", {
+      email: person.email,
+      password: person.password,
+    });
     expect(old.status).toBe(401);
     await signedIn(person.email, newPassword);
 
@@ -60,7 +70,9 @@ describe("password reset", () => {
 
   it("answers 202 for an unknown address and sends no mail", async () => {
     const nobody = uniqueEmail("no-account");
-    const reply = await new ApiClient().post<{ message: string }>("/api/password-reset", { email: nobody });
+    const reply = await new ApiClient().post<{ message: string }>("/api/password-reset", {
+      email: nobody,
+    });
     expect(reply.status).toBe(202);
     // The same words as for a real account, so the reply reveals nothing.
     expect(reply.body.message).toBe("If the address has an account, a reset link is on its way.");
@@ -73,13 +85,18 @@ describe("password reset", () => {
   it("keeps the link usable when the new password is refused by the policy", async () => {
     const person = await createAccountThroughInvitation(lead, { label: "reset-policy" });
     const token = await requestResetToken(person);
-    const short = await new ApiClient().post<ErrorBody>("/api/password-reset/confirm", { token, password: "tiny" });
+    const short = await new ApiClient().post<ErrorBody>("/api/password-reset/confirm", {
+      token,
+      password: "tiny",
+    });
     expect(short.status).toBe(400);
     expect(short.body.error.fieldErrors?.password).toEqual([
       "Use at least 12 characters; a few words together work well.",
     ]);
     const good = strongPassword();
-    expect((await new ApiClient().post("/api/password-reset/confirm", { token, password: good })).status).toBe(200);
+    expect(
+      (await new ApiClient().post("/api/password-reset/confirm", { token, password: good })).status,
+    ).toBe(200);
     await signedIn(person.email, good);
   });
 
@@ -103,25 +120,47 @@ describe("password change", () => {
       newPassword: strongPassword(),
     });
     expect(wrong.status).toBe(400);
-    expect(wrong.body.error.fieldErrors?.currentPassword).toEqual(["The current password is not right."]);
+    expect(wrong.body.error.fieldErrors?.currentPassword).toEqual([
+      "The current password is not right.",
+    ]);
 
     const newPassword = strongPassword();
-    expect((await client.post("/api/password", { currentPassword: person.password, newPassword })).status).toBe(200);
-    expect((await new ApiClient().post("/api/session", { email: person.email, password: person.password })).status).toBe(401);
+    expect(
+      (await client.post("/api/password", { currentPassword: person.password, newPassword }))
+        .status,
+    ).toBe(200);
+    expect(
+      (
+        await new ApiClient().post("/api/session", {
+          email: person.email,
+          password: person.password,
+        })
+      ).status,
+    ).toBe(401);
     await signedIn(person.email, newPassword);
   });
 
   it.each([
     ["too short", "short pw", "Use at least 12 characters; a few words together work well."],
     ["too common", "password1234", "This password is too common."],
-    ["one repeated character", "aaaaaaaaaaaaaaaa", "The password must not be one repeated character."],
-  ])("explains the policy when the new password is %s (400, fieldErrors.newPassword, the field the request sent)", async (_label, newPassword, message) => {
-    const chemist = await signInDemo("chemist");
-    const reply = await chemist.post<ErrorBody>("/api/password", { currentPassword: "emberline-demo", newPassword });
-    expect(reply.status).toBe(400);
-    expect(reply.body.error.message).toBe(message);
-    expect(reply.body.error.fieldErrors?.newPassword).toContain(message);
-    // The demo password still works.
-    await signInDemo("chemist");
-  });
+    [
+      "one repeated character",
+      "aaaaaaaaaaaaaaaa",
+      "The password must not be one repeated character.",
+    ],
+  ])(
+    "explains the policy when the new password is %s (400, fieldErrors.newPassword, the field the request sent)",
+    async (_label, newPassword, message) => {
+      const chemist = await signInDemo("chemist");
+      const reply = await chemist.post<ErrorBody>("/api/password", {
+        currentPassword: "emberline-demo",
+        newPassword,
+      });
+      expect(reply.status).toBe(400);
+      expect(reply.body.error.message).toBe(message);
+      expect(reply.body.error.fieldErrors?.newPassword).toContain(message);
+      // The demo password still works.
+      await signInDemo("chemist");
+    },
+  );
 });

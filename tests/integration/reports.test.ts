@@ -17,7 +17,12 @@ import { createSyntheticInstrument, uploadSpectrumFile } from "./support/bench";
 import { DEMO, FLAME_SCREENING, signInDemo, signedIn, teamIdOf } from "./support/accounts";
 import { OUTSIDER, ensureOutsider } from "./support/outsider";
 import { closeDb, db, userIdByEmail } from "./support/database";
-import { flameFile, flameFileOnWavelengthAxis, lampFile, syntheticGrating } from "./support/synthetic-files";
+import {
+  flameFile,
+  flameFileOnWavelengthAxis,
+  lampFile,
+  syntheticGrating,
+} from "./support/synthetic-files";
 
 interface Call {
   species: string;
@@ -73,14 +78,21 @@ function pdfToText(pdf: Uint8Array): string {
     const file = path.join(dir, "report.pdf");
     fs.writeFileSync(file, pdf);
     // Debian's poppler-utils; its line breaks fall where the layout wraps, so whitespace is collapsed.
-    return execFileSync("/usr/bin/pdftotext", [file, "-"], { encoding: "utf8" }).replace(/\s+/g, " ");
+    return execFileSync("/usr/bin/pdftotext", [file, "-"], { encoding: "utf8" }).replace(
+      /\s+/g,
+      " ",
+    );
   } finally {
     fs.rmSync(dir, { recursive: true, force: true });
   }
 }
 
 function parseCsv(text: string): Record<string, string>[] {
-  const parsed = Papa.parse<Record<string, string>>(text, { header: true, skipEmptyLines: true, delimiter: "," });
+  const parsed = Papa.parse<Record<string, string>>(text, {
+    header: true,
+    skipEmptyLines: true,
+    delimiter: ",",
+  });
   expect(parsed.errors).toEqual([]);
   return parsed.data;
 }
@@ -96,20 +108,40 @@ beforeAll(async () => {
 
   instrumentId = await createSyntheticInstrument(lead, teamId, `report bench ${suffix}`, grating);
   const lamp = await upload("lamp", lampFile(grating), `lamp-${suffix}.csv`);
-  const calibrated = await chemist.post<Calibration>("/api/calibrations", { instrumentId, spectrumId: lamp.id, lamps: ["Hg", "Ar"] });
+  const calibrated = await chemist.post<Calibration>("/api/calibrations", {
+    instrumentId,
+    spectrumId: lamp.id,
+    lamps: ["Hg", "Ar"],
+  });
   expect(calibrated.status, JSON.stringify(calibrated.body)).toBe(201);
   calibration = calibrated.body;
-  const nb = await chemist.post<{ id: string }>("/api/notebooks", { teamId, title: `Reports ${suffix}` });
+  const nb = await chemist.post<{ id: string }>("/api/notebooks", {
+    teamId,
+    title: `Reports ${suffix}`,
+  });
   expect(nb.status).toBe(201);
   notebookId = nb.body.id;
 
   flameText = flameFile(grating);
   const sample = await upload("sample", flameText, `flame-${suffix}.csv`);
-  const first = await chemist.post<Run>("/api/runs", { notebookId, spectrumId: sample.id, calibrationId: calibration.id, source: "flame" });
+  const first = await chemist.post<Run>("/api/runs", {
+    notebookId,
+    spectrumId: sample.id,
+    calibrationId: calibration.id,
+    source: "flame",
+  });
   expect(first.status, JSON.stringify(first.body)).toBe(201);
   calibratedRun = first.body;
-  const ownAxis = await upload("sample", flameFileOnWavelengthAxis(grating), `flame-nm-${suffix}.csv`);
-  const second = await chemist.post<Run>("/api/runs", { notebookId, spectrumId: ownAxis.id, source: "flame" });
+  const ownAxis = await upload(
+    "sample",
+    flameFileOnWavelengthAxis(grating),
+    `flame-nm-${suffix}.csv`,
+  );
+  const second = await chemist.post<Run>("/api/runs", {
+    notebookId,
+    spectrumId: ownAxis.id,
+    source: "flame",
+  });
   expect(second.status, JSON.stringify(second.body)).toBe(201);
   ownAxisRun = second.body;
   expect(ownAxisRun.calibrationId).toBeNull();
@@ -124,29 +156,42 @@ describe("the PDF report", () => {
     const response = await download(chemist, `/api/runs/${calibratedRun.id}/report.pdf`);
     expect(response.status).toBe(200);
     expect(response.headers.get("content-type")).toBe("application/pdf");
-    expect(response.headers.get("content-disposition")).toBe(`attachment; filename="emberline-run-${shortId(calibratedRun.id)}-v1.pdf"`);
+    expect(response.headers.get("content-disposition")).toBe(
+      `attachment; filename="emberline-run-${shortId(calibratedRun.id)}-v1.pdf"`,
+    );
     expect(response.headers.get("cache-control")).toMatch(/no-store/);
     expect(response.headers.get("cache-control")).toMatch(/private/);
     const pdf = new Uint8Array(await response.arrayBuffer());
     expect(Buffer.from(pdf.subarray(0, 5)).toString("latin1")).toBe("%PDF-");
 
     const text = pdfToText(pdf);
-    const called = calibratedRun.calls.filter((c) => calibratedRun.verdicts[c.species] !== "absent");
+    const called = calibratedRun.calls.filter(
+      (c) => calibratedRun.verdicts[c.species] !== "absent",
+    );
     expect(called.length).toBeGreaterThanOrEqual(4);
     for (const c of called) expect(text, c.species).toContain(c.species);
     expect(text).toContain("Qualitative screening result only, not a certified analysis");
     expect(text).toContain(calibration.model);
     expect(text).toContain(`RMS ${calibration.rmsNm.toFixed(4)} nm`);
-    expect(text).toContain(`${calibration.coveredRangeNm[0].toFixed(2)}–${calibration.coveredRangeNm[1].toFixed(2)} nm`);
-    const { rows } = await db().query<{ number: number }>("SELECT number FROM line_releases WHERE id = $1", [calibratedRun.lineReleaseId]);
+    expect(text).toContain(
+      `${calibration.coveredRangeNm[0].toFixed(2)}–${calibration.coveredRangeNm[1].toFixed(2)} nm`,
+    );
+    const { rows } = await db().query<{ number: number }>(
+      "SELECT number FROM line_releases WHERE id = $1",
+      [calibratedRun.lineReleaseId],
+    );
     expect(text).toContain(`release ${rows[0].number}`);
     expect(text).toContain("Flame test cautions");
     expect(text).toContain("Not signed.");
     // Absent calls with their detection limits, worded as on the page.
-    const limited = calibratedRun.calls.find((c) => calibratedRun.verdicts[c.species] === "absent" && c.detectionLimit);
+    const limited = calibratedRun.calls.find(
+      (c) => calibratedRun.verdicts[c.species] === "absent" && c.detectionLimit,
+    );
     expect(limited, "an absent call with a detection limit").toBeDefined();
     expect(text).toContain("Detection limits");
-    expect(text.replace(/\s+/g, " ")).toContain(`${limited!.species} ${detectionLimitText(limited!.detectionLimit)}`);
+    expect(text.replace(/\s+/g, " ")).toContain(
+      `${limited!.species} ${detectionLimitText(limited!.detectionLimit)}`,
+    );
   });
 
   it("shows an override with its reason and a signature with its signer and content hash", async () => {
@@ -155,7 +200,12 @@ describe("the PDF report", () => {
     const potassium = calibratedRun.calls.find((c) => c.species === "K I")!;
     await db().query(
       "INSERT INTO run_overrides (run_id, species, computed_verdict, verdict, reason, created_by_id) VALUES ($1, 'K I', $2, 'possible', $3, $4)",
-      [calibratedRun.id, potassium.verdict, `violet flame through cobalt glass was faint ${suffix}`, chemistId],
+      [
+        calibratedRun.id,
+        potassium.verdict,
+        `violet flame through cobalt glass was faint ${suffix}`,
+        chemistId,
+      ],
     );
     const hash = "5e".repeat(32);
     await db().query(
@@ -183,7 +233,9 @@ describe("the JCAMP-DX export", () => {
   it("reads back through the app's parser to the run's calibrated points", async () => {
     const response = await download(chemist, `/api/runs/${calibratedRun.id}/spectrum.jdx`);
     expect(response.status).toBe(200);
-    expect(response.headers.get("content-disposition")).toBe(`attachment; filename="emberline-run-${shortId(calibratedRun.id)}-v1-spectrum.jdx"`);
+    expect(response.headers.get("content-disposition")).toBe(
+      `attachment; filename="emberline-run-${shortId(calibratedRun.id)}-v1-spectrum.jdx"`,
+    );
     expect(response.headers.get("cache-control")).toMatch(/no-store/);
     const text = await response.text();
     expect(text).toContain("##XUNITS=NANOMETERS");
@@ -197,9 +249,12 @@ describe("the JCAMP-DX export", () => {
 
     // The same points computed another way: the file's counts at the calibration's wavelengths.
     const sample = parseSpectrumFile(flameText);
-    const evaluated = await chemist.post<{ wavelengthsNm: (number | null)[] }>(`/api/calibrations/${calibration.id}/evaluate`, {
-      pixels: Array.from(sample.x),
-    });
+    const evaluated = await chemist.post<{ wavelengthsNm: (number | null)[] }>(
+      `/api/calibrations/${calibration.id}/evaluate`,
+      {
+        pixels: Array.from(sample.x),
+      },
+    );
     expect(evaluated.status).toBe(200);
     const expected = evaluated.body.wavelengthsNm
       .map((nm, i) => [nm, sample.y[i]] as const)
@@ -235,19 +290,31 @@ describe("the CSV exports", () => {
     const response = await download(chemist, `/api/runs/${calibratedRun.id}/peaks.csv`);
     expect(response.status).toBe(200);
     expect(response.headers.get("content-type")).toMatch(/^text\/csv/);
-    expect(response.headers.get("content-disposition")).toBe(`attachment; filename="emberline-run-${shortId(calibratedRun.id)}-v1-peaks.csv"`);
+    expect(response.headers.get("content-disposition")).toBe(
+      `attachment; filename="emberline-run-${shortId(calibratedRun.id)}-v1-peaks.csv"`,
+    );
     const rows = parseCsv(await response.text());
-    const { rows: stored } = await db().query<{ matches: { peakIndex: number; candidates: unknown[] }[] }>("SELECT matches FROM runs WHERE id = $1", [
-      calibratedRun.id,
-    ]);
+    const { rows: stored } = await db().query<{
+      matches: { peakIndex: number; candidates: unknown[] }[];
+    }>("SELECT matches FROM runs WHERE id = $1", [calibratedRun.id]);
     const candidatesOf = new Map(stored[0].matches.map((m) => [m.peakIndex, m.candidates.length]));
-    const expectedRows = calibratedRun.peaks.reduce((sum, _p, i) => sum + Math.max(1, candidatesOf.get(i) ?? 0), 0);
+    const expectedRows = calibratedRun.peaks.reduce(
+      (sum, _p, i) => sum + Math.max(1, candidatesOf.get(i) ?? 0),
+      0,
+    );
     expect(rows).toHaveLength(expectedRows);
-    expect(new Set(rows.map((r) => Number(r.peak_nm)))).toEqual(new Set(calibratedRun.peaks.map((p) => p.wavelengthNm)));
+    expect(new Set(rows.map((r) => Number(r.peak_nm)))).toEqual(
+      new Set(calibratedRun.peaks.map((p) => p.wavelengthNm)),
+    );
     // Every line a call used shows as a candidate that the call took.
     for (const c of calibratedRun.calls.filter((k) => k.verdict === "present")) {
       for (const l of c.lines) {
-        const row = rows.find((r) => r.candidate_species === c.species && Number(r.reference_nm) === l.lineNm && Number(r.peak_nm) === l.peakNm);
+        const row = rows.find(
+          (r) =>
+            r.candidate_species === c.species &&
+            Number(r.reference_nm) === l.lineNm &&
+            Number(r.peak_nm) === l.peakNm,
+        );
         expect(row, `${c.species} ${l.lineNm}`).toBeDefined();
         expect(row!.candidate_used_by_call).toBe("yes");
       }
@@ -282,7 +349,9 @@ describe("the CSV exports", () => {
         }
       }
     }
-    expect(runs.some((run) => run.calls.some((c) => c.verdict === "absent" && c.detectionLimit))).toBe(true);
+    expect(
+      runs.some((run) => run.calls.some((c) => c.verdict === "absent" && c.detectionLimit)),
+    ).toBe(true);
   });
 });
 
@@ -303,6 +372,8 @@ describe("access", () => {
 
   it("lets every member of the team download (a supervisor too)", async () => {
     const supervisor = await signInDemo("supervisor");
-    expect((await download(supervisor, `/api/runs/${calibratedRun.id}/peaks.csv`)).status).toBe(200);
+    expect((await download(supervisor, `/api/runs/${calibratedRun.id}/peaks.csv`)).status).toBe(
+      200,
+    );
   });
 });

@@ -4,7 +4,13 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { ApiClient } from "./support/http-client";
 import { DEMO, DEMO_PASSWORD, FLAME_SCREENING, signInDemo, teamIdOf } from "./support/accounts";
-import { auditEventsSince, auditMark, closeDb, userIdByEmail, type AuditRow } from "./support/database";
+import {
+  auditEventsSince,
+  auditMark,
+  closeDb,
+  userIdByEmail,
+  type AuditRow,
+} from "./support/database";
 import { draftRun, type DraftRun } from "./support/review-fixtures";
 
 let lead: ApiClient;
@@ -19,7 +25,10 @@ beforeAll(async () => {
   chemist = await signInDemo("chemist");
   supervisor = await signInDemo("supervisor");
   teamId = await teamIdOf(lead, FLAME_SCREENING);
-  [chemistId, supervisorId] = await Promise.all([userIdByEmail(DEMO.chemist.email), userIdByEmail(DEMO.supervisor.email)]);
+  [chemistId, supervisorId] = await Promise.all([
+    userIdByEmail(DEMO.chemist.email),
+    userIdByEmail(DEMO.supervisor.email),
+  ]);
 });
 
 afterAll(closeDb);
@@ -32,7 +41,14 @@ async function runIn(state: State): Promise<DraftRun> {
   if (state === "draft") return run;
   expect((await chemist.post(`/api/runs/${run.id}/submit`, {})).status).toBe(200);
   if (state === "signed") {
-    expect((await supervisor.post(`/api/runs/${run.id}/review`, { decision: "sign", password: DEMO_PASSWORD })).status).toBe(200);
+    expect(
+      (
+        await supervisor.post(`/api/runs/${run.id}/review`, {
+          decision: "sign",
+          password: DEMO_PASSWORD,
+        })
+      ).status,
+    ).toBe(200);
   }
   return run;
 }
@@ -50,7 +66,14 @@ interface MutatingRoute {
   before: { status: string; round: number };
   after: { status: string; round: number };
   /** Attempts of the same route that must be refused, with the status each gets. */
-  refused: { why: string; actor: () => ApiClient; actorId: () => string; from: State; body: (run: DraftRun) => unknown; status: number }[];
+  refused: {
+    why: string;
+    actor: () => ApiClient;
+    actorId: () => string;
+    from: State;
+    body: (run: DraftRun) => unknown;
+    status: number;
+  }[];
 }
 
 // The mutating routes of review and sign-off: submit, marks, review (return), review (sign), amend.
@@ -67,9 +90,30 @@ const ROUTES: MutatingRoute[] = [
     before: { status: "draft", round: 0 },
     after: { status: "submitted", round: 1 },
     refused: [
-      { why: "someone else's run", actor: () => supervisor, actorId: () => supervisorId, from: "draft", body: () => ({}), status: 403 },
-      { why: "a named reviewer who is not a supervisor", actor: () => chemist, actorId: () => chemistId, from: "draft", body: () => ({ reviewerId: chemistId }), status: 400 },
-      { why: "already submitted", actor: () => chemist, actorId: () => chemistId, from: "submitted", body: () => ({}), status: 409 },
+      {
+        why: "someone else's run",
+        actor: () => supervisor,
+        actorId: () => supervisorId,
+        from: "draft",
+        body: () => ({}),
+        status: 403,
+      },
+      {
+        why: "a named reviewer who is not a supervisor",
+        actor: () => chemist,
+        actorId: () => chemistId,
+        from: "draft",
+        body: () => ({ reviewerId: chemistId }),
+        status: 400,
+      },
+      {
+        why: "already submitted",
+        actor: () => chemist,
+        actorId: () => chemistId,
+        from: "submitted",
+        body: () => ({}),
+        status: 409,
+      },
     ],
   },
   {
@@ -78,15 +122,40 @@ const ROUTES: MutatingRoute[] = [
     actor: () => supervisor,
     actorId: () => supervisorId,
     path: (r) => `/api/runs/${r.id}/marks`,
-    body: (r) => ({ species: r.calls[0].species, agreement: "disagree", comment: "Needs a second line." }),
+    body: (r) => ({
+      species: r.calls[0].species,
+      agreement: "disagree",
+      comment: "Needs a second line.",
+    }),
     action: "run.review_mark",
     status: 201,
     before: { status: "submitted", round: 1 },
     after: { status: "submitted", round: 1 },
     refused: [
-      { why: "a chemist", actor: () => chemist, actorId: () => chemistId, from: "submitted", body: (r) => ({ species: r.calls[0].species, agreement: "agree" }), status: 403 },
-      { why: "a draft", actor: () => supervisor, actorId: () => supervisorId, from: "draft", body: (r) => ({ species: r.calls[0].species, agreement: "agree" }), status: 409 },
-      { why: "an empty mark", actor: () => supervisor, actorId: () => supervisorId, from: "submitted", body: (r) => ({ species: r.calls[0].species }), status: 400 },
+      {
+        why: "a chemist",
+        actor: () => chemist,
+        actorId: () => chemistId,
+        from: "submitted",
+        body: (r) => ({ species: r.calls[0].species, agreement: "agree" }),
+        status: 403,
+      },
+      {
+        why: "a draft",
+        actor: () => supervisor,
+        actorId: () => supervisorId,
+        from: "draft",
+        body: (r) => ({ species: r.calls[0].species, agreement: "agree" }),
+        status: 409,
+      },
+      {
+        why: "an empty mark",
+        actor: () => supervisor,
+        actorId: () => supervisorId,
+        from: "submitted",
+        body: (r) => ({ species: r.calls[0].species }),
+        status: 400,
+      },
     ],
   },
   {
@@ -101,9 +170,30 @@ const ROUTES: MutatingRoute[] = [
     before: { status: "submitted", round: 1 },
     after: { status: "returned", round: 1 },
     refused: [
-      { why: "no comment", actor: () => supervisor, actorId: () => supervisorId, from: "submitted", body: () => ({ decision: "return" }), status: 400 },
-      { why: "a chemist", actor: () => chemist, actorId: () => chemistId, from: "submitted", body: () => ({ decision: "return", comment: "x" }), status: 403 },
-      { why: "a signed run", actor: () => supervisor, actorId: () => supervisorId, from: "signed", body: () => ({ decision: "return", comment: "x" }), status: 409 },
+      {
+        why: "no comment",
+        actor: () => supervisor,
+        actorId: () => supervisorId,
+        from: "submitted",
+        body: () => ({ decision: "return" }),
+        status: 400,
+      },
+      {
+        why: "a chemist",
+        actor: () => chemist,
+        actorId: () => chemistId,
+        from: "submitted",
+        body: () => ({ decision: "return", comment: "x" }),
+        status: 403,
+      },
+      {
+        why: "a signed run",
+        actor: () => supervisor,
+        actorId: () => supervisorId,
+        from: "signed",
+        body: () => ({ decision: "return", comment: "x" }),
+        status: 409,
+      },
     ],
   },
   {
@@ -118,9 +208,30 @@ const ROUTES: MutatingRoute[] = [
     before: { status: "submitted", round: 1 },
     after: { status: "signed", round: 1 },
     refused: [
-      { why: "a chemist", actor: () => chemist, actorId: () => chemistId, from: "submitted", body: () => ({ decision: "sign", password: DEMO_PASSWORD }), status: 403 },
-      { why: "a draft", actor: () => supervisor, actorId: () => supervisorId, from: "draft", body: () => ({ decision: "sign", password: DEMO_PASSWORD }), status: 409 },
-      { why: "no password", actor: () => supervisor, actorId: () => supervisorId, from: "submitted", body: () => ({ decision: "sign" }), status: 400 },
+      {
+        why: "a chemist",
+        actor: () => chemist,
+        actorId: () => chemistId,
+        from: "submitted",
+        body: () => ({ decision: "sign", password: DEMO_PASSWORD }),
+        status: 403,
+      },
+      {
+        why: "a draft",
+        actor: () => supervisor,
+        actorId: () => supervisorId,
+        from: "draft",
+        body: () => ({ decision: "sign", password: DEMO_PASSWORD }),
+        status: 409,
+      },
+      {
+        why: "no password",
+        actor: () => supervisor,
+        actorId: () => supervisorId,
+        from: "submitted",
+        body: () => ({ decision: "sign" }),
+        status: 400,
+      },
     ],
   },
   {
@@ -135,7 +246,14 @@ const ROUTES: MutatingRoute[] = [
     before: { status: "signed", round: 1 },
     after: { status: "draft", round: 0 },
     refused: [
-      { why: "a run not signed", actor: () => chemist, actorId: () => chemistId, from: "submitted", body: () => undefined, status: 409 },
+      {
+        why: "a run not signed",
+        actor: () => chemist,
+        actorId: () => chemistId,
+        from: "submitted",
+        body: () => undefined,
+        status: 409,
+      },
     ],
   },
 ];

@@ -4,9 +4,24 @@
 // signed hash is recomputed from the stored rows; the queue lists what waits, oldest first.
 import { createHash } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { buildRunContent, calibrationModelLabel, canonicalJson, runContentHash, type RunContentSource } from "@/lib/services/run-content";
+import {
+  buildRunContent,
+  calibrationModelLabel,
+  canonicalJson,
+  runContentHash,
+  type RunContentSource,
+} from "@/lib/services/run-content";
 import { APP_URL, type ApiClient, type ErrorBody } from "./support/http-client";
-import { DEMO, DEMO_PASSWORD, FLAME_SCREENING, createAccountThroughInvitation, signInDemo, signedIn, teamIdOf, type FreshAccount } from "./support/accounts";
+import {
+  DEMO,
+  DEMO_PASSWORD,
+  FLAME_SCREENING,
+  createAccountThroughInvitation,
+  signInDemo,
+  signedIn,
+  teamIdOf,
+  type FreshAccount,
+} from "./support/accounts";
 import { OUTSIDER, ensureOutsider } from "./support/outsider";
 import { auditEventsSince, auditMark, closeDb, db, userIdByEmail } from "./support/database";
 import { mailTo, waitForMail } from "./support/mailbox";
@@ -24,16 +39,36 @@ interface History {
     decision: string | null;
     decidedBy: { id: string; name: string } | null;
     comment: string;
-    marks: { species: string; lineNm: number | null; agreement: string | null; comment: string; reviewer: { name: string } | null }[];
+    marks: {
+      species: string;
+      lineNm: number | null;
+      agreement: string | null;
+      comment: string;
+      reviewer: { name: string } | null;
+    }[];
   }[];
-  signature: { signerName: string; meaning: string; contentHash: string; signedAt: string; signer: { id: string } } | null;
+  signature: {
+    signerName: string;
+    meaning: string;
+    contentHash: string;
+    signedAt: string;
+    signer: { id: string };
+  } | null;
   versions: { id: string; versionNumber: number; status: string }[];
   amendsRunId: string | null;
   amendedById: string | null;
 }
 
 interface Queue {
-  items: { runId: string; author: { id: string; name: string } | null; instrument: { id: string; name: string }; present: string[]; submittedAt: string; waitingSeconds: number; namedToMe: boolean }[];
+  items: {
+    runId: string;
+    author: { id: string; name: string } | null;
+    instrument: { id: string; name: string };
+    present: string[];
+    submittedAt: string;
+    waitingSeconds: number;
+    namedToMe: boolean;
+  }[];
   total: number;
   options: { authors: { id: string }[]; instruments: { id: string }[]; species: string[] };
 }
@@ -56,7 +91,9 @@ beforeAll(async () => {
   await ensureOutsider();
   outsider = await signedIn(OUTSIDER.email, OUTSIDER.password);
   teamId = await teamIdOf(lead, FLAME_SCREENING);
-  [chemistId, supervisorId, leadId] = await Promise.all([DEMO.chemist, DEMO.supervisor, DEMO.labLead].map((p) => userIdByEmail(p.email)));
+  [chemistId, supervisorId, leadId] = await Promise.all(
+    [DEMO.chemist, DEMO.supervisor, DEMO.labLead].map((p) => userIdByEmail(p.email)),
+  );
   // A second supervisor of the team: the one whose password is got wrong, so the demo account is never throttled.
   second = await createAccountThroughInvitation(lead, { label: "reviewer", role: "supervisor" });
   secondClient = await signedIn(second.email, second.password);
@@ -72,18 +109,38 @@ const history = async (runId: string, client: ApiClient = chemist) => {
   return reply.body;
 };
 /** How many messages to `to` have a subject matching `subject` (waitForMail's `skip`). */
-const mailCount = (to: string, subject: RegExp) => mailTo(to).filter((m) => subject.test(m.subject)).length;
+const mailCount = (to: string, subject: RegExp) =>
+  mailTo(to).filter((m) => subject.test(m.subject)).length;
 const SUBMITTED = /^Run submitted for review/;
 const runRow = async (runId: string) =>
-  (await db().query("SELECT status, review_round, signed_at, notes, version_number, amends_run_id, lock_version FROM runs WHERE id = $1", [runId])).rows[0];
+  (
+    await db().query(
+      "SELECT status, review_round, signed_at, notes, version_number, amends_run_id, lock_version FROM runs WHERE id = $1",
+      [runId],
+    )
+  ).rows[0];
 
 /** The run's content rebuilt from its rows, the way a report or an auditor would. */
 async function contentFromRows(runId: string) {
   const run = (await db().query("SELECT * FROM runs WHERE id = $1", [runId])).rows[0];
-  const spectrum = (await db().query("SELECT sha256 FROM spectrum_files WHERE id = $1", [run.spectrum_id])).rows[0];
-  const calibration = run.calibration_id ? (await db().query("SELECT id, model, rms_nm FROM calibrations WHERE id = $1", [run.calibration_id])).rows[0] : null;
-  const release = (await db().query("SELECT id, number FROM line_releases WHERE id = $1", [run.line_release_id])).rows[0];
-  const overrides = (await db().query("SELECT * FROM run_overrides WHERE run_id = $1 ORDER BY created_at, id", [runId])).rows;
+  const spectrum = (
+    await db().query("SELECT sha256 FROM spectrum_files WHERE id = $1", [run.spectrum_id])
+  ).rows[0];
+  const calibration = run.calibration_id
+    ? (
+        await db().query("SELECT id, model, rms_nm FROM calibrations WHERE id = $1", [
+          run.calibration_id,
+        ])
+      ).rows[0]
+    : null;
+  const release = (
+    await db().query("SELECT id, number FROM line_releases WHERE id = $1", [run.line_release_id])
+  ).rows[0];
+  const overrides = (
+    await db().query("SELECT * FROM run_overrides WHERE run_id = $1 ORDER BY created_at, id", [
+      runId,
+    ])
+  ).rows;
   const source: RunContentSource = {
     run: {
       id: run.id,
@@ -110,7 +167,13 @@ async function contentFromRows(runId: string) {
       createdById: run.created_by_id,
     },
     spectrumSha256: spectrum.sha256,
-    calibration: calibration ? { id: calibration.id, model: calibrationModelLabel(calibration.model), rmsNm: calibration.rms_nm } : null,
+    calibration: calibration
+      ? {
+          id: calibration.id,
+          model: calibrationModelLabel(calibration.model),
+          rmsNm: calibration.rms_nm,
+        }
+      : null,
     lineRelease: { id: release.id, number: release.number },
     overrides: overrides.map((o) => ({
       id: o.id,
@@ -131,14 +194,26 @@ describe("the submit → return → resubmit → sign cycle", () => {
 
   it("mails every supervisor of the team (never the author) on submission and locks the run for its author", async () => {
     run = await newRun();
-    const before = { super: mailCount(DEMO.supervisor.email, SUBMITTED), second: mailCount(second.email, SUBMITTED), chemist: mailTo(DEMO.chemist.email).length };
+    const before = {
+      super: mailCount(DEMO.supervisor.email, SUBMITTED),
+      second: mailCount(second.email, SUBMITTED),
+      chemist: mailTo(DEMO.chemist.email).length,
+    };
     const submitted = await chemist.post<History>(`/api/runs/${run.id}/submit`, {});
     expect(submitted.status, JSON.stringify(submitted.body)).toBe(200);
     expect(submitted.body).toMatchObject({ status: "submitted", reviewRound: 1 });
     expect(submitted.body.rounds).toHaveLength(1);
-    expect(submitted.body.rounds[0]).toMatchObject({ round: 1, submittedBy: { id: chemistId }, requestedReviewer: null, decision: null });
+    expect(submitted.body.rounds[0]).toMatchObject({
+      round: 1,
+      submittedBy: { id: chemistId },
+      requestedReviewer: null,
+      decision: null,
+    });
 
-    for (const [to, skip] of [[DEMO.supervisor.email, before.super], [second.email, before.second]] as const) {
+    for (const [to, skip] of [
+      [DEMO.supervisor.email, before.super],
+      [second.email, before.second],
+    ] as const) {
       const mail = await waitForMail({ to, subject: SUBMITTED, skip });
       expect(mail.text).toContain(`${APP_URL}/review/${run.id}`);
       expect(mail.text).toContain(DEMO.chemist.name);
@@ -154,16 +229,25 @@ describe("the submit → return → resubmit → sign cycle", () => {
   });
 
   it("is returned with a comment (required), e-mailed to the author with the comment and a link", async () => {
-    const noComment = await supervisor.post<ErrorBody>(`/api/runs/${run.id}/review`, { decision: "return" });
+    const noComment = await supervisor.post<ErrorBody>(`/api/runs/${run.id}/review`, {
+      decision: "return",
+    });
     expect(noComment.status).toBe(400);
     expect(noComment.body.error.fieldErrors?.comment).toBeDefined();
 
     const skip = mailCount(DEMO.chemist.email, /^Run returned/);
     const comment = `Check the Li I 670.8 nm line against the lamp again (${Date.now()}).`;
-    const returned = await supervisor.post<History>(`/api/runs/${run.id}/review`, { decision: "return", comment });
+    const returned = await supervisor.post<History>(`/api/runs/${run.id}/review`, {
+      decision: "return",
+      comment,
+    });
     expect(returned.status, JSON.stringify(returned.body)).toBe(200);
     expect(returned.body.status).toBe("returned");
-    expect(returned.body.rounds[0]).toMatchObject({ decision: "returned", decidedBy: { id: supervisorId }, comment });
+    expect(returned.body.rounds[0]).toMatchObject({
+      decision: "returned",
+      decidedBy: { id: supervisorId },
+      comment,
+    });
 
     const mail = await waitForMail({ to: DEMO.chemist.email, subject: /^Run returned/, skip });
     expect(mail.text).toContain(comment);
@@ -174,7 +258,10 @@ describe("the submit → return → resubmit → sign cycle", () => {
   it("is revised and resubmitted to a named reviewer, who alone is mailed; the rounds are kept", async () => {
     // The revision: a note and an overridden call, through the run's own edit routes.
     const notes = await chemist.request("PATCH", `/api/runs/${run.id}`, {
-      json: { notes: "Li I 670.8 nm rechecked against a fresh lamp spectrum.", lockVersion: (await runRow(run.id)).lock_version },
+      json: {
+        notes: "Li I 670.8 nm rechecked against a fresh lamp spectrum.",
+        lockVersion: (await runRow(run.id)).lock_version,
+      },
     });
     expect(notes.status, JSON.stringify(notes.body)).toBe(200);
     const possible = run.calls.find((c) => c.verdict === "possible") ?? run.calls[0];
@@ -185,15 +272,24 @@ describe("the submit → return → resubmit → sign cycle", () => {
     });
     expect(override.status, JSON.stringify(override.body)).toBe(201);
 
-    const notSupervisor = await chemist.post<ErrorBody>(`/api/runs/${run.id}/submit`, { reviewerId: leadId });
+    const notSupervisor = await chemist.post<ErrorBody>(`/api/runs/${run.id}/submit`, {
+      reviewerId: leadId,
+    });
     expect(notSupervisor.status).toBe(400);
     expect(notSupervisor.body.error.fieldErrors?.reviewerId).toBeDefined();
-    const self = await chemist.post<ErrorBody>(`/api/runs/${run.id}/submit`, { reviewerId: chemistId });
+    const self = await chemist.post<ErrorBody>(`/api/runs/${run.id}/submit`, {
+      reviewerId: chemistId,
+    });
     expect(self.status).toBe(400);
     expect((await runRow(run.id)).status).toBe("returned");
 
-    const skip = { super: mailCount(DEMO.supervisor.email, SUBMITTED), second: mailTo(second.email).length };
-    const resubmitted = await chemist.post<History>(`/api/runs/${run.id}/submit`, { reviewerId: supervisorId });
+    const skip = {
+      super: mailCount(DEMO.supervisor.email, SUBMITTED),
+      second: mailTo(second.email).length,
+    };
+    const resubmitted = await chemist.post<History>(`/api/runs/${run.id}/submit`, {
+      reviewerId: supervisorId,
+    });
     expect(resubmitted.status, JSON.stringify(resubmitted.body)).toBe(200);
     expect(resubmitted.body).toMatchObject({ status: "submitted", reviewRound: 2 });
     expect(resubmitted.body.rounds.map((r) => [r.round, r.decision])).toEqual([
@@ -201,21 +297,57 @@ describe("the submit → return → resubmit → sign cycle", () => {
       [2, null],
     ]);
     expect(resubmitted.body.rounds[1].requestedReviewer?.id).toBe(supervisorId);
-    const mail = await waitForMail({ to: DEMO.supervisor.email, subject: SUBMITTED, skip: skip.super });
+    const mail = await waitForMail({
+      to: DEMO.supervisor.email,
+      subject: SUBMITTED,
+      skip: skip.super,
+    });
     expect(mail.text).toContain("round 2");
     expect(mailTo(second.email).length).toBe(skip.second);
   });
 
   it("takes the reviewer's marks on calls and lines, refusing calls and lines the run does not have", async () => {
     const call = run.calls.find((c) => c.verdict === "present" && c.lines.length > 0)!;
-    const agree = await supervisor.post(`/api/runs/${run.id}/marks`, { species: call.species, agreement: "agree" });
+    const agree = await supervisor.post(`/api/runs/${run.id}/marks`, {
+      species: call.species,
+      agreement: "agree",
+    });
     expect(agree.status, JSON.stringify(agree.body)).toBe(201);
-    const line = await supervisor.post(`/api/runs/${run.id}/marks`, { species: call.species, lineNm: call.lines[0].lineNm, comment: "Clean, well-separated line." });
+    const line = await supervisor.post(`/api/runs/${run.id}/marks`, {
+      species: call.species,
+      lineNm: call.lines[0].lineNm,
+      comment: "Clean, well-separated line.",
+    });
     expect(line.status, JSON.stringify(line.body)).toBe(201);
-    expect((await supervisor.post<ErrorBody>(`/api/runs/${run.id}/marks`, { species: "Xx I", agreement: "agree" })).status).toBe(400);
-    expect((await supervisor.post<ErrorBody>(`/api/runs/${run.id}/marks`, { species: call.species, lineNm: 123.456, comment: "?" })).status).toBe(400);
-    expect((await supervisor.post<ErrorBody>(`/api/runs/${run.id}/marks`, { species: call.species })).status).toBe(400);
-    expect((await chemist.post<ErrorBody>(`/api/runs/${run.id}/marks`, { species: call.species, agreement: "agree" })).status).toBe(403);
+    expect(
+      (
+        await supervisor.post<ErrorBody>(`/api/runs/${run.id}/marks`, {
+          species: "Xx I",
+          agreement: "agree",
+        })
+      ).status,
+    ).toBe(400);
+    expect(
+      (
+        await supervisor.post<ErrorBody>(`/api/runs/${run.id}/marks`, {
+          species: call.species,
+          lineNm: 123.456,
+          comment: "?",
+        })
+      ).status,
+    ).toBe(400);
+    expect(
+      (await supervisor.post<ErrorBody>(`/api/runs/${run.id}/marks`, { species: call.species }))
+        .status,
+    ).toBe(400);
+    expect(
+      (
+        await chemist.post<ErrorBody>(`/api/runs/${run.id}/marks`, {
+          species: call.species,
+          agreement: "agree",
+        })
+      ).status,
+    ).toBe(403);
 
     const marks = (await history(run.id)).rounds[1].marks;
     expect(marks.map((m) => [m.species, m.lineNm, m.agreement, m.comment])).toEqual([
@@ -226,18 +358,46 @@ describe("the submit → return → resubmit → sign cycle", () => {
   });
 
   it("is signed with the password: meaning, signer, time and the content hash recorded, the run locked", async () => {
-    expect((await chemist.post<ErrorBody>(`/api/runs/${run.id}/review`, { decision: "sign", password: DEMO_PASSWORD })).status).toBe(403);
-    expect((await lead.post<ErrorBody>(`/api/runs/${run.id}/review`, { decision: "sign", password: DEMO_PASSWORD })).status).toBe(403);
-    const noPassword = await supervisor.post<ErrorBody>(`/api/runs/${run.id}/review`, { decision: "sign" });
+    expect(
+      (
+        await chemist.post<ErrorBody>(`/api/runs/${run.id}/review`, {
+          decision: "sign",
+          password: DEMO_PASSWORD,
+        })
+      ).status,
+    ).toBe(403);
+    expect(
+      (
+        await lead.post<ErrorBody>(`/api/runs/${run.id}/review`, {
+          decision: "sign",
+          password: DEMO_PASSWORD,
+        })
+      ).status,
+    ).toBe(403);
+    const noPassword = await supervisor.post<ErrorBody>(`/api/runs/${run.id}/review`, {
+      decision: "sign",
+    });
     expect(noPassword.status).toBe(400);
     expect(noPassword.body.error.fieldErrors?.password).toBeDefined();
 
     const startedAt = Date.now();
-    const signed = await supervisor.post<History>(`/api/runs/${run.id}/review`, { decision: "sign", password: DEMO_PASSWORD, comment: "Agreed." });
+    const signed = await supervisor.post<History>(`/api/runs/${run.id}/review`, {
+      decision: "sign",
+      password: DEMO_PASSWORD,
+      comment: "Agreed.",
+    });
     expect(signed.status, JSON.stringify(signed.body)).toBe(200);
     expect(signed.body.status).toBe("signed");
-    expect(signed.body.rounds[1]).toMatchObject({ decision: "signed", decidedBy: { id: supervisorId }, comment: "Agreed." });
-    expect(signed.body.signature).toMatchObject({ signerName: DEMO.supervisor.name, meaning: "Reviewed and approved", signer: { id: supervisorId } });
+    expect(signed.body.rounds[1]).toMatchObject({
+      decision: "signed",
+      decidedBy: { id: supervisorId },
+      comment: "Agreed.",
+    });
+    expect(signed.body.signature).toMatchObject({
+      signerName: DEMO.supervisor.name,
+      meaning: "Reviewed and approved",
+      signer: { id: supervisorId },
+    });
     const signedAt = Date.parse(signed.body.signature!.signedAt);
     expect(signedAt).toBeGreaterThanOrEqual(startedAt - 5_000);
     expect(signedAt).toBeLessThanOrEqual(Date.now() + 5_000);
@@ -247,7 +407,12 @@ describe("the submit → return → resubmit → sign cycle", () => {
     const row = await runRow(run.id);
     expect(row.status).toBe("signed");
     expect(new Date(row.signed_at).getTime()).toBe(signedAt);
-    const stored = (await db().query("SELECT content_hash, signer_id, round FROM run_signatures WHERE run_id = $1", [run.id])).rows;
+    const stored = (
+      await db().query(
+        "SELECT content_hash, signer_id, round FROM run_signatures WHERE run_id = $1",
+        [run.id],
+      )
+    ).rows;
     expect(stored).toEqual([{ content_hash: signedHash, signer_id: supervisorId, round: 2 }]);
   });
 
@@ -256,7 +421,9 @@ describe("the submit → return → resubmit → sign cycle", () => {
     expect(runContentHash(content)).toBe(signedHash);
     // The hash is SHA-256 of the canonical JSON, whose keys are sorted at every level.
     expect(createHash("sha256").update(canonicalJson(content)).digest("hex")).toBe(signedHash);
-    expect(canonicalJson({ b: 1, a: { d: [2, { z: 0, y: 1 }], c: null } })).toBe('{"a":{"c":null,"d":[2,{"y":1,"z":0}]},"b":1}');
+    expect(canonicalJson({ b: 1, a: { d: [2, { z: 0, y: 1 }], c: null } })).toBe(
+      '{"a":{"c":null,"d":[2,{"y":1,"z":0}]},"b":1}',
+    );
     // It covers what the run is made from and what it says, including the revision.
     expect(content).toMatchObject({
       runId: run.id,
@@ -266,10 +433,16 @@ describe("the submit → return → resubmit → sign cycle", () => {
       versionNumber: 1,
       amendsRunId: null,
     });
-    const overridden = (content.calls as { species: string; standingVerdict: string; computedVerdict: string }[]).find((c) => c.standingVerdict !== c.computedVerdict);
+    const overridden = (
+      content.calls as { species: string; standingVerdict: string; computedVerdict: string }[]
+    ).find((c) => c.standingVerdict !== c.computedVerdict);
     expect(overridden?.standingVerdict).toBe("absent");
     // Any change of what was signed gives another hash.
-    expect(runContentHash(buildRunContent({ ...source, run: { ...source.run, notes: `${source.run.notes}.` } }))).not.toBe(signedHash);
+    expect(
+      runContentHash(
+        buildRunContent({ ...source, run: { ...source.run, notes: `${source.run.notes}.` } }),
+      ),
+    ).not.toBe(signedHash);
   });
 
   it("refuses every edit of the signed run (409), and the database refuses a direct UPDATE", async () => {
@@ -277,40 +450,76 @@ describe("the submit → return → resubmit → sign cycle", () => {
     const call = run.calls[0];
     const attempts = [
       await chemist.post<ErrorBody>(`/api/runs/${run.id}/submit`, {}),
-      await supervisor.post<ErrorBody>(`/api/runs/${run.id}/marks`, { species: call.species, agreement: "disagree" }),
-      await supervisor.post<ErrorBody>(`/api/runs/${run.id}/review`, { decision: "return", comment: "Once more." }),
-      await secondClient.post<ErrorBody>(`/api/runs/${run.id}/review`, { decision: "sign", password: second.password }),
-      await chemist.request<ErrorBody>("PATCH", `/api/runs/${run.id}`, { json: { notes: "after signing", lockVersion: (await runRow(run.id)).lock_version } }),
-      await chemist.post<ErrorBody>(`/api/runs/${run.id}/overrides`, { species: call.species, verdict: "absent", reason: "after signing" }),
+      await supervisor.post<ErrorBody>(`/api/runs/${run.id}/marks`, {
+        species: call.species,
+        agreement: "disagree",
+      }),
+      await supervisor.post<ErrorBody>(`/api/runs/${run.id}/review`, {
+        decision: "return",
+        comment: "Once more.",
+      }),
+      await secondClient.post<ErrorBody>(`/api/runs/${run.id}/review`, {
+        decision: "sign",
+        password: second.password,
+      }),
+      await chemist.request<ErrorBody>("PATCH", `/api/runs/${run.id}`, {
+        json: { notes: "after signing", lockVersion: (await runRow(run.id)).lock_version },
+      }),
+      await chemist.post<ErrorBody>(`/api/runs/${run.id}/overrides`, {
+        species: call.species,
+        verdict: "absent",
+        reason: "after signing",
+      }),
     ];
     expect(attempts.map((a) => a.status)).toEqual([409, 409, 409, 409, 409, 409]);
     // The database refuses an override of a signed run even if a service forgot to ask.
     await expect(
-      db().query("INSERT INTO run_overrides (run_id, species, computed_verdict, verdict, reason) VALUES ($1, $2, 'present', 'absent', 'x')", [
-        run.id,
-        call.species,
-      ]),
+      db().query(
+        "INSERT INTO run_overrides (run_id, species, computed_verdict, verdict, reason) VALUES ($1, $2, 'present', 'absent', 'x')",
+        [run.id, call.species],
+      ),
     ).rejects.toThrow(/submitted or signed/);
-    await expect(db().query("UPDATE runs SET notes = 'changed after signing' WHERE id = $1", [run.id])).rejects.toThrow(/signed run is never edited/);
-    await expect(db().query("UPDATE run_signatures SET meaning = 'other' WHERE run_id = $1", [run.id])).rejects.toThrow(/cannot be changed/);
-    expect((await runRow(run.id)).notes).toBe("Li I 670.8 nm rechecked against a fresh lamp spectrum.");
+    await expect(
+      db().query("UPDATE runs SET notes = 'changed after signing' WHERE id = $1", [run.id]),
+    ).rejects.toThrow(/signed run is never edited/);
+    await expect(
+      db().query("UPDATE run_signatures SET meaning = 'other' WHERE run_id = $1", [run.id]),
+    ).rejects.toThrow(/cannot be changed/);
+    expect((await runRow(run.id)).notes).toBe(
+      "Li I 670.8 nm rechecked against a fresh lamp spectrum.",
+    );
     expect(await auditEventsSince(mark, { actorId: chemistId })).toEqual([]);
     expect(await auditEventsSince(mark, { actorId: supervisorId })).toEqual([]);
   });
 
   it("is amended by a linked new draft version carrying the notes and standing overrides, once only", async () => {
     expect((await outsider.post<ErrorBody>(`/api/runs/${run.id}/amend`)).status).toBe(404);
-    const amended = await chemist.post<{ id: string; versionNumber: number; amendsRunId: string }>(`/api/runs/${run.id}/amend`);
+    const amended = await chemist.post<{ id: string; versionNumber: number; amendsRunId: string }>(
+      `/api/runs/${run.id}/amend`,
+    );
     expect(amended.status, JSON.stringify(amended.body)).toBe(201);
     expect(amended.body).toMatchObject({ versionNumber: 2, amendsRunId: run.id });
     const row = await runRow(amended.body.id);
-    expect(row).toMatchObject({ status: "draft", review_round: 0, version_number: 2, amends_run_id: run.id, notes: "Li I 670.8 nm rechecked against a fresh lamp spectrum." });
-    type Fetched = { calls: { override: { id: string; at: string } | null }[]; verdicts: Record<string, string>; peaks: unknown };
+    expect(row).toMatchObject({
+      status: "draft",
+      review_round: 0,
+      version_number: 2,
+      amends_run_id: run.id,
+      notes: "Li I 670.8 nm rechecked against a fresh lamp spectrum.",
+    });
+    type Fetched = {
+      calls: { override: { id: string; at: string } | null }[];
+      verdicts: Record<string, string>;
+      peaks: unknown;
+    };
     const fetched = await chemist.get<Fetched>(`/api/runs/${amended.body.id}`);
     const original = await chemist.get<Fetched>(`/api/runs/${run.id}`);
     // The amendment carries each standing override as a new row of its own (own id and time), same verdict and reason.
     const withoutRowIdentity = (calls: Fetched["calls"]) =>
-      calls.map((c) => ({ ...c, override: c.override && { ...c.override, id: undefined, at: undefined } }));
+      calls.map((c) => ({
+        ...c,
+        override: c.override && { ...c.override, id: undefined, at: undefined },
+      }));
     expect(withoutRowIdentity(fetched.body.calls)).toEqual(withoutRowIdentity(original.body.calls));
     expect(fetched.body.calls.some((c) => c.override !== null)).toBe(true);
     expect(fetched.body.peaks).toEqual(original.body.peaks);
@@ -340,50 +549,97 @@ describe("refusals", () => {
     expect((await chemist.post(`/api/runs/${run.id}/submit`, {})).status).toBe(200);
     const before = await runRow(run.id);
     const mark = await auditMark();
-    const wrong = await secondClient.post<ErrorBody>(`/api/runs/${run.id}/review`, { decision: "sign", password: `${second.password}x` });
+    const wrong = await secondClient.post<ErrorBody>(`/api/runs/${run.id}/review`, {
+      decision: "sign",
+      password: `${second.password}x`,
+    });
     expect(wrong.status).toBe(401);
     expect(wrong.body.error.message).toMatch(/Nothing was signed/);
     expect(await runRow(run.id)).toEqual(before);
-    expect((await db().query("SELECT count(*)::int AS n FROM run_signatures WHERE run_id = $1", [run.id])).rows[0].n).toBe(0);
-    expect((await db().query("SELECT decision FROM run_rounds WHERE run_id = $1", [run.id])).rows).toEqual([{ decision: null }]);
+    expect(
+      (
+        await db().query("SELECT count(*)::int AS n FROM run_signatures WHERE run_id = $1", [
+          run.id,
+        ])
+      ).rows[0].n,
+    ).toBe(0);
+    expect(
+      (await db().query("SELECT decision FROM run_rounds WHERE run_id = $1", [run.id])).rows,
+    ).toEqual([{ decision: null }]);
     expect(await auditEventsSince(mark, { actorId: second.userId })).toEqual([]);
     // The right password still signs.
-    const right = await secondClient.post<History>(`/api/runs/${run.id}/review`, { decision: "sign", password: second.password });
+    const right = await secondClient.post<History>(`/api/runs/${run.id}/review`, {
+      decision: "sign",
+      password: second.password,
+    });
     expect(right.status, JSON.stringify(right.body)).toBe(200);
     expect(right.body.signature?.signerName).toBe(second.name);
   });
 
   it("wrong signing passwords fall under the one password throttle; the signer is not locked out elsewhere", async () => {
-    const third = await createAccountThroughInvitation(lead, { label: "throttled-signer", role: "supervisor" });
+    const third = await createAccountThroughInvitation(lead, {
+      label: "throttled-signer",
+      role: "supervisor",
+    });
     const here = await signedIn(third.email, third.password);
     const run = await newRun();
     expect((await chemist.post(`/api/runs/${run.id}/submit`, {})).status).toBe(200);
     for (let attempt = 1; attempt <= 3; attempt++) {
-      const wrong = await here.post(`/api/runs/${run.id}/review`, { decision: "sign", password: `wrong ${attempt}` });
+      const wrong = await here.post(`/api/runs/${run.id}/review`, {
+        decision: "sign",
+        password: `wrong ${attempt}`,
+      });
       expect(wrong.status, `attempt ${attempt}`).toBe(401);
     }
     // The pair (this account, this address) must now wait: even the right password is not checked.
-    const waiting = await here.post<ErrorBody>(`/api/runs/${run.id}/review`, { decision: "sign", password: third.password });
+    const waiting = await here.post<ErrorBody>(`/api/runs/${run.id}/review`, {
+      decision: "sign",
+      password: third.password,
+    });
     expect(waiting.status).toBe(429);
     expect(waiting.body.error.code).toBe("rate_limited");
-    expect((await db().query("SELECT count(*)::int AS n FROM run_signatures WHERE run_id = $1", [run.id])).rows[0].n).toBe(0);
+    expect(
+      (
+        await db().query("SELECT count(*)::int AS n FROM run_signatures WHERE run_id = $1", [
+          run.id,
+        ])
+      ).rows[0].n,
+    ).toBe(0);
     // From another address the signer signs at once.
     const elsewhere = await signedIn(third.email, third.password);
-    const signed = await elsewhere.post<History>(`/api/runs/${run.id}/review`, { decision: "sign", password: third.password });
+    const signed = await elsewhere.post<History>(`/api/runs/${run.id}/review`, {
+      decision: "sign",
+      password: third.password,
+    });
     expect(signed.status, JSON.stringify(signed.body)).toBe(200);
   });
 
   it("a supervisor cannot sign, return or mark their own run, nor name themselves as its reviewer", async () => {
     const own = await newRun(supervisor);
-    const self = await supervisor.post<ErrorBody>(`/api/runs/${own.id}/submit`, { reviewerId: supervisorId });
+    const self = await supervisor.post<ErrorBody>(`/api/runs/${own.id}/submit`, {
+      reviewerId: supervisorId,
+    });
     expect(self.status).toBe(400);
     expect((await supervisor.post(`/api/runs/${own.id}/submit`, {})).status).toBe(200);
     const mark = await auditMark();
-    const sign = await supervisor.post<ErrorBody>(`/api/runs/${own.id}/review`, { decision: "sign", password: DEMO_PASSWORD });
+    const sign = await supervisor.post<ErrorBody>(`/api/runs/${own.id}/review`, {
+      decision: "sign",
+      password: DEMO_PASSWORD,
+    });
     expect(sign.status).toBe(403);
     expect(sign.body.error.message).toMatch(/own run/);
-    expect((await supervisor.post(`/api/runs/${own.id}/review`, { decision: "return", comment: "mine" })).status).toBe(403);
-    expect((await supervisor.post(`/api/runs/${own.id}/marks`, { species: own.calls[0].species, agreement: "agree" })).status).toBe(403);
+    expect(
+      (await supervisor.post(`/api/runs/${own.id}/review`, { decision: "return", comment: "mine" }))
+        .status,
+    ).toBe(403);
+    expect(
+      (
+        await supervisor.post(`/api/runs/${own.id}/marks`, {
+          species: own.calls[0].species,
+          agreement: "agree",
+        })
+      ).status,
+    ).toBe(403);
     expect((await runRow(own.id)).status).toBe("submitted");
     expect(await auditEventsSince(mark, { actorId: supervisorId })).toEqual([]);
     // Their own run is not in their queue; it is in the other supervisor's.
@@ -397,13 +653,24 @@ describe("refusals", () => {
     const run = await newRun();
     expect((await chemist.post(`/api/runs/${run.id}/submit`, {})).status).toBe(200);
     const replies = await Promise.all([
-      supervisor.post(`/api/runs/${run.id}/review`, { decision: "return", comment: "First reviewer." }),
-      secondClient.post(`/api/runs/${run.id}/review`, { decision: "sign", password: second.password }),
+      supervisor.post(`/api/runs/${run.id}/review`, {
+        decision: "return",
+        comment: "First reviewer.",
+      }),
+      secondClient.post(`/api/runs/${run.id}/review`, {
+        decision: "sign",
+        password: second.password,
+      }),
     ]);
     expect(replies.map((r) => r.status).sort()).toEqual([200, 409]);
-    const decided = (await db().query("SELECT decision, decided_by_id FROM run_rounds WHERE run_id = $1", [run.id])).rows;
+    const decided = (
+      await db().query("SELECT decision, decided_by_id FROM run_rounds WHERE run_id = $1", [run.id])
+    ).rows;
     expect(decided).toHaveLength(1);
-    const winner = replies[0].status === 200 ? { decision: "returned", by: supervisorId } : { decision: "signed", by: second.userId };
+    const winner =
+      replies[0].status === 200
+        ? { decision: "returned", by: supervisorId }
+        : { decision: "signed", by: second.userId };
     expect(decided[0]).toEqual({ decision: winner.decision, decided_by_id: winner.by });
     expect((await runRow(run.id)).status).toBe(winner.decision);
   });
@@ -419,7 +686,14 @@ describe("refusals", () => {
       expect((await outsider.post(`/api/runs/${run.id}/${path}`, body)).status, path).toBe(404);
     }
     expect((await outsider.get(`/api/runs/${run.id}/history`)).status).toBe(404);
-    expect((await supervisor.post(`/api/runs/${run.id}/marks`, { species: run.calls[0].species, agreement: "agree" })).status).toBe(409);
+    expect(
+      (
+        await supervisor.post(`/api/runs/${run.id}/marks`, {
+          species: run.calls[0].species,
+          agreement: "agree",
+        })
+      ).status,
+    ).toBe(409);
     expect((await supervisor.post(`/api/runs/${run.id}/submit`, {})).status).toBe(403);
   });
 });
@@ -431,8 +705,13 @@ describe("the review queue", () => {
     const next = await newRun();
     const namedToOther = await newRun();
     expect((await chemist.post(`/api/runs/${first.id}/submit`, {})).status).toBe(200);
-    expect((await chemist.post(`/api/runs/${next.id}/submit`, { reviewerId: supervisorId })).status).toBe(200);
-    expect((await chemist.post(`/api/runs/${namedToOther.id}/submit`, { reviewerId: second.userId })).status).toBe(200);
+    expect(
+      (await chemist.post(`/api/runs/${next.id}/submit`, { reviewerId: supervisorId })).status,
+    ).toBe(200);
+    expect(
+      (await chemist.post(`/api/runs/${namedToOther.id}/submit`, { reviewerId: second.userId }))
+        .status,
+    ).toBe(200);
 
     const queue = await supervisor.get<Queue>(`/api/review-queue?teamId=${teamId}`);
     expect(queue.status, JSON.stringify(queue.body)).toBe(200);
@@ -444,20 +723,39 @@ describe("the review queue", () => {
     const times = queue.body.items.map((i) => Date.parse(i.submittedAt));
     expect([...times].sort((a, b) => a - b)).toEqual(times);
     const item = queue.body.items.find((i) => i.runId === next.id)!;
-    expect(item).toMatchObject({ author: { id: chemistId, name: DEMO.chemist.name }, instrument: { id: instrumentId }, namedToMe: true });
+    expect(item).toMatchObject({
+      author: { id: chemistId, name: DEMO.chemist.name },
+      instrument: { id: instrumentId },
+      namedToMe: true,
+    });
     expect(item.waitingSeconds).toBeGreaterThanOrEqual(0);
-    expect(item.present).toEqual(next.calls.filter((c) => c.verdict === "present").map((c) => c.species).sort());
+    expect(item.present).toEqual(
+      next.calls
+        .filter((c) => c.verdict === "present")
+        .map((c) => c.species)
+        .sort(),
+    );
     expect(queue.body.total).toBe(queue.body.items.length);
 
     const species = item.present[0];
-    const bySpecies = await supervisor.get<Queue>(`/api/review-queue?teamId=${teamId}&species=${encodeURIComponent(species)}`);
+    const bySpecies = await supervisor.get<Queue>(
+      `/api/review-queue?teamId=${teamId}&species=${encodeURIComponent(species)}`,
+    );
     expect(bySpecies.body.items.every((i) => i.present.includes(species))).toBe(true);
-    const byOther = await supervisor.get<Queue>(`/api/review-queue?teamId=${teamId}&author=${supervisorId}`);
+    const byOther = await supervisor.get<Queue>(
+      `/api/review-queue?teamId=${teamId}&author=${supervisorId}`,
+    );
     expect(byOther.body.items).toEqual([]);
-    const byInstrument = await supervisor.get<Queue>(`/api/review-queue?teamId=${teamId}&instrumentId=${instrumentId}&author=${chemistId}`);
+    const byInstrument = await supervisor.get<Queue>(
+      `/api/review-queue?teamId=${teamId}&instrumentId=${instrumentId}&author=${chemistId}`,
+    );
     expect(byInstrument.body.items.map((i) => i.runId)).toContain(first.id);
     expect(byInstrument.body.items.length).toBeGreaterThan(0);
-    expect(byInstrument.body.items.every((i) => i.instrument.id === instrumentId && i.author?.id === chemistId)).toBe(true);
+    expect(
+      byInstrument.body.items.every(
+        (i) => i.instrument.id === instrumentId && i.author?.id === chemistId,
+      ),
+    ).toBe(true);
     expect(byInstrument.body.total).toBeLessThanOrEqual(queue.body.total);
 
     // Without ?teamId= a supervisor gets the queue of the team where they review.
@@ -467,6 +765,8 @@ describe("the review queue", () => {
 
     expect((await chemist.get(`/api/review-queue?teamId=${teamId}`)).status).toBe(403);
     expect((await outsider.get(`/api/review-queue?teamId=${teamId}`)).status).toBe(404);
-    expect((await supervisor.get<ErrorBody>(`/api/review-queue?teamId=${teamId}&author=nobody`)).status).toBe(400);
+    expect(
+      (await supervisor.get<ErrorBody>(`/api/review-queue?teamId=${teamId}&author=nobody`)).status,
+    ).toBe(400);
   });
 });

@@ -4,7 +4,13 @@
 // change of password revoke, so a kept copy of the cookie stops working.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { ApiClient } from "./support/http-client";
-import { createAccountThroughInvitation, signInDemo, signedIn, strongPassword, type FreshAccount } from "./support/accounts";
+import {
+  createAccountThroughInvitation,
+  signInDemo,
+  signedIn,
+  strongPassword,
+  type FreshAccount,
+} from "./support/accounts";
 import { extractLinkToken, waitForMail } from "./support/mailbox";
 import { closeDb } from "./support/database";
 
@@ -43,7 +49,14 @@ describe("session revocation", () => {
     await new ApiClient().post("/api/password-reset", { email: account.email });
     const mail = await waitForMail({ to: account.email, subject: /Reset your Emberline password/ });
     const token = extractLinkToken(mail.text, "/reset-password/");
-    expect((await new ApiClient().post("/api/password-reset/confirm", { token, password: strongPassword() })).status).toBe(200);
+    expect(
+      (
+        await new ApiClient().post("/api/password-reset/confirm", {
+          token,
+          password: strongPassword(),
+        })
+      ).status,
+    ).toBe(200);
     expect((await before.get("/api/me")).status).toBe(401);
   });
 
@@ -51,7 +64,10 @@ describe("session revocation", () => {
     const account = await person("revoke-change");
     const other = await signedIn(account.email, account.password);
     const here = await signedIn(account.email, account.password);
-    const reply = await here.post("/api/password", { currentPassword: account.password, newPassword: strongPassword() });
+    const reply = await here.post("/api/password", {
+      currentPassword: account.password,
+      newPassword: strongPassword(),
+    });
     expect(reply.status).toBe(200);
     expect((await other.get("/api/me")).status).toBe(401);
   });

@@ -29,7 +29,10 @@ afterAll(closeDb);
 describe("POST /api/session", () => {
   it("signs in with the right password and answers with the person and their teams", async () => {
     const client = new ApiClient();
-    const reply = await client.post<Me>("/api/session", { email: DEMO.labLead.email, password: DEMO_PASSWORD });
+    const reply = await client.post<Me>("/api/session", {
+      email: DEMO.labLead.email,
+      password: DEMO_PASSWORD,
+    });
     expect(reply.status).toBe(200);
     expect(reply.body.email).toBe(DEMO.labLead.email);
     expect(reply.body.name).toBe(DEMO.labLead.name);
@@ -73,14 +76,20 @@ describe("POST /api/session", () => {
     const guesser = new ApiClient(testAddress());
     const statuses: number[] = [];
     for (let attempt = 1; attempt <= 20; attempt++) {
-      statuses.push((await guesser.post("/api/session", { email: victim.email, password: `wrong ${attempt}` })).status);
+      statuses.push(
+        (await guesser.post("/api/session", { email: victim.email, password: `wrong ${attempt}` }))
+          .status,
+      );
     }
     // The first three are checked and wrong; then the pair must wait (1 s, 2 s, 4 s… after each failure).
     expect(statuses.slice(0, 3)).toEqual([401, 401, 401]);
     expect(statuses.slice(3)).toContain(429);
     expect(statuses.every((status) => status === 401 || status === 429)).toBe(true);
     // The owner, from their own address, signs in at once with the right password.
-    const owner = await new ApiClient(testAddress()).post<Me>("/api/session", { email: victim.email, password: victim.password });
+    const owner = await new ApiClient(testAddress()).post<Me>("/api/session", {
+      email: victim.email,
+      password: victim.password,
+    });
     expect(owner.status).toBe(200);
   });
 
@@ -90,7 +99,10 @@ describe("POST /api/session", () => {
     const waits: number[] = [];
     let failures = 0;
     while (failures < 6) {
-      const reply = await guesser.post("/api/session", { email: victim.email, password: `wrong ${failures}` });
+      const reply = await guesser.post("/api/session", {
+        email: victim.email,
+        password: `wrong ${failures}`,
+      });
       if (reply.status === 401) {
         failures++;
         continue;
@@ -106,10 +118,15 @@ describe("POST /api/session", () => {
     expect(waits[2]).toBeGreaterThan(waits[0]);
     expect(waits[2]).toBeLessThanOrEqual(4);
     // After the 6th failure the pair waits 8 s: the right password is not even checked.
-    const blocked = await guesser.post<ErrorBody>("/api/session", { email: victim.email, password: victim.password });
+    const blocked = await guesser.post<ErrorBody>("/api/session", {
+      email: victim.email,
+      password: victim.password,
+    });
     expect(blocked.status).toBe(429);
     expect(blocked.body.error.code).toBe("rate_limited");
-    expect(blocked.body.error.message).toMatch(/^Too many failed password attempts from here\. Try again in \d+ seconds?/);
+    expect(blocked.body.error.message).toMatch(
+      /^Too many failed password attempts from here\. Try again in \d+ seconds?/,
+    );
     expect(Number(blocked.headers.get("retry-after"))).toBeGreaterThan(4);
     expect(blocked.setCookies).toEqual([]);
   }, 120_000);
@@ -117,26 +134,40 @@ describe("POST /api/session", () => {
   it("throttles an address after 20 failures, whatever account it tries next", async () => {
     const client = new ApiClient(testAddress());
     for (let attempt = 1; attempt <= 20; attempt++) {
-      const reply = await client.post("/api/session", { email: uniqueEmail("spray"), password: "guessing wildly" });
+      const reply = await client.post("/api/session", {
+        email: uniqueEmail("spray"),
+        password: "guessing wildly",
+      });
       expect(reply.status, `attempt ${attempt}`).toBe(401);
     }
-    const blocked = await client.post<ErrorBody>("/api/session", { email: DEMO.chemist.email, password: DEMO_PASSWORD });
+    const blocked = await client.post<ErrorBody>("/api/session", {
+      email: DEMO.chemist.email,
+      password: DEMO_PASSWORD,
+    });
     expect(blocked.status).toBe(429);
     // Until the oldest of the 20 failures leaves the 15-minute window.
     const retryAfter = Number(blocked.headers.get("retry-after"));
     expect(retryAfter).toBeGreaterThan(60);
     expect(retryAfter).toBeLessThanOrEqual(15 * 60);
     // The same account from another address is not affected.
-    const elsewhere = await new ApiClient().post("/api/session", { email: DEMO.chemist.email, password: DEMO_PASSWORD });
+    const elsewhere = await new ApiClient().post("/api/session", {
+      email: DEMO.chemist.email,
+      password: DEMO_PASSWORD,
+    });
     expect(elsewhere.status).toBe(200);
   }, 240_000);
 });
 
 describe("the session cookie", () => {
   it("is HttpOnly, SameSite=Lax, Path=/ and not Secure over plain HTTP", async () => {
-    const reply = await new ApiClient().post("/api/session", { email: DEMO.supervisor.email, password: DEMO_PASSWORD });
+    const reply = await new ApiClient().post("/api/session", {
+      email: DEMO.supervisor.email,
+      password: DEMO_PASSWORD,
+    });
     expect(reply.status).toBe(200);
-    const sessionCookies = reply.setCookies.map(parseSetCookie).filter((c) => c.name === "emberline_session");
+    const sessionCookies = reply.setCookies
+      .map(parseSetCookie)
+      .filter((c) => c.name === "emberline_session");
     expect(sessionCookies).toHaveLength(1);
     const [cookie] = sessionCookies;
     expect(cookie.value.length).toBeGreaterThan(20);
@@ -165,7 +196,9 @@ describe("DELETE /api/session", () => {
     expect((await client.get("/api/me")).status).toBe(200);
     const reply = await client.delete("/api/session");
     expect(reply.status).toBe(204);
-    const cleared = reply.setCookies.map(parseSetCookie).find((c) => c.name === "emberline_session");
+    const cleared = reply.setCookies
+      .map(parseSetCookie)
+      .find((c) => c.name === "emberline_session");
     expect(cleared, "a Set-Cookie that removes the session cookie").toBeDefined();
     const removed = cleared!.value === "" || cleared!.attributes.get("max-age") === "0";
     expect(removed).toBe(true);

@@ -1,7 +1,14 @@
 // Personal access tokens: created once with their secret, used as Bearer, listed without it, revoked.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { ApiClient, type ErrorBody } from "./support/http-client";
-import { DEMO, FLAME_SCREENING, signInDemo, teamIdOf, uniqueEmail, type Me } from "./support/accounts";
+import {
+  DEMO,
+  FLAME_SCREENING,
+  signInDemo,
+  teamIdOf,
+  uniqueEmail,
+  type Me,
+} from "./support/accounts";
 import { closeDb, db } from "./support/database";
 
 interface CreatedToken {
@@ -23,7 +30,9 @@ afterAll(closeDb);
 
 describe("access tokens", () => {
   it("go from creation to Bearer use to listing (without the secret) to revocation", async () => {
-    const created = await chemist.post<CreatedToken>("/api/tokens", { name: "Instrument PC, bench 2" });
+    const created = await chemist.post<CreatedToken>("/api/tokens", {
+      name: "Instrument PC, bench 2",
+    });
     expect(created.status).toBe(201);
     const { id, token, prefix } = created.body;
     expect(created.body.name).toBe("Instrument PC, bench 2");
@@ -59,7 +68,9 @@ describe("access tokens", () => {
     expect(revoked.status).toBe(204);
     const after = await script.get<ErrorBody>("/api/me", { bearer: token });
     expect(after.status).toBe(401);
-    expect((await chemist.get<CreatedToken[]>("/api/tokens")).body.some((t) => t.id === id)).toBe(false);
+    expect((await chemist.get<CreatedToken[]>("/api/tokens")).body.some((t) => t.id === id)).toBe(
+      false,
+    );
     // Revoking twice finds nothing.
     expect((await chemist.delete(`/api/tokens/${id}`)).status).toBe(404);
   });
@@ -79,8 +90,13 @@ describe("access tokens", () => {
 
   it("are refused when unknown or malformed", async () => {
     const client = new ApiClient();
-    expect((await client.get("/api/me", { bearer: "emb_not-a-real-token-at-all-000000000000000000" })).status).toBe(401);
-    expect((await client.get("/api/me", { headers: { authorization: "Bearer " } })).status).toBe(401);
+    expect(
+      (await client.get("/api/me", { bearer: "emb_not-a-real-token-at-all-000000000000000000" }))
+        .status,
+    ).toBe(401);
+    expect((await client.get("/api/me", { headers: { authorization: "Bearer " } })).status).toBe(
+      401,
+    );
   });
 
   it("cannot be revoked by another person, and a non-uuid id is simply not found", async () => {

@@ -35,7 +35,12 @@ let chemist: ApiClient;
 let chemistId: string;
 let instrumentId: string;
 
-function preview(client: ApiClient, content: string | Uint8Array, fileName: string, fields: Record<string, string> = {}) {
+function preview(
+  client: ApiClient,
+  content: string | Uint8Array,
+  fileName: string,
+  fields: Record<string, string> = {},
+) {
   const form = new FormData();
   form.set("file", new Blob([content as BlobPart]), fileName);
   form.set("instrumentId", instrumentId);
@@ -45,13 +50,20 @@ function preview(client: ApiClient, content: string | Uint8Array, fileName: stri
 }
 
 async function storedRows(): Promise<number> {
-  const { rows } = await db().query<{ n: string }>("SELECT count(*) AS n FROM spectrum_files WHERE instrument_id = $1", [instrumentId]);
+  const { rows } = await db().query<{ n: string }>(
+    "SELECT count(*) AS n FROM spectrum_files WHERE instrument_id = $1",
+    [instrumentId],
+  );
   return Number(rows[0].n);
 }
 
 /** "pixel,counts" rows read back by the test itself: the x and y columns as numbers. */
 function columns(csv: string): { x: number[]; y: number[] } {
-  const rows = csv.trim().split("\n").slice(1).map((line) => line.split(",").map(Number));
+  const rows = csv
+    .trim()
+    .split("\n")
+    .slice(1)
+    .map((line) => line.split(",").map(Number));
   return { x: rows.map((r) => r[0]), y: rows.map((r) => r[1]) };
 }
 
@@ -60,7 +72,11 @@ beforeAll(async () => {
   lead = await signInDemo("labLead");
   chemist = await signInDemo("chemist");
   chemistId = await userIdByEmail(DEMO.chemist.email);
-  instrumentId = await createSyntheticInstrument(lead, await teamIdOf(lead, FLAME_SCREENING), `Preview bench ${suffix}`);
+  instrumentId = await createSyntheticInstrument(
+    lead,
+    await teamIdOf(lead, FLAME_SCREENING),
+    `Preview bench ${suffix}`,
+  );
 });
 
 afterAll(async () => {
@@ -102,7 +118,10 @@ describe("the upload preview", () => {
     const n = 50_000;
     const [low, high] = grating.nominalRangeNm;
     const nmAt = (i: number) => Number((low + ((high - low) * i) / (n - 1)).toFixed(5));
-    const rows = Array.from({ length: n }, (_, i) => `${nmAt(i)},${i === 31_337 ? 90_000 : 200 + (i % 7)}`);
+    const rows = Array.from(
+      { length: n },
+      (_, i) => `${nmAt(i)},${i === 31_337 ? 90_000 : 200 + (i % 7)}`,
+    );
     const reply = await preview(chemist, `wavelength_nm,counts\n${rows.join("\n")}\n`, "long.csv");
     expect(reply.status, JSON.stringify(reply.body)).toBe(200);
     expect(reply.body.points).toBe(n);
@@ -135,7 +154,9 @@ describe("the upload preview", () => {
     expect(stored.status).toBe(400);
     // Pixels counted from 1 up to the detector's size are its own.
     const fromOne = Array.from({ length: PIXELS }, (_, i) => `${i + 1},${200 + (i % 13)}`);
-    expect((await preview(chemist, `pixel,counts\n${fromOne.join("\n")}\n`, "from-one.csv")).status).toBe(200);
+    expect(
+      (await preview(chemist, `pixel,counts\n${fromOne.join("\n")}\n`, "from-one.csv")).status,
+    ).toBe(200);
     expect(await storedRows()).toBe(before);
     expect(await auditEventsSince(mark, { actorId: chemistId })).toEqual([]);
   });
@@ -143,12 +164,21 @@ describe("the upload preview", () => {
   it("says on the preview when a wavelength file lies mostly outside the instrument's nominal range", async () => {
     const [low, high] = grating.nominalRangeNm;
     const span = high - low;
-    const rows = Array.from({ length: 500 }, (_, i) => `${(high + 0.5 * span * (i / 499 - 0.2)).toFixed(3)},${300 + (i % 5)}`);
-    const reply = await preview(chemist, `wavelength_nm,counts\n${rows.join("\n")}\n`, "red-end.csv");
+    const rows = Array.from(
+      { length: 500 },
+      (_, i) => `${(high + 0.5 * span * (i / 499 - 0.2)).toFixed(3)},${300 + (i % 5)}`,
+    );
+    const reply = await preview(
+      chemist,
+      `wavelength_nm,counts\n${rows.join("\n")}\n`,
+      "red-end.csv",
+    );
     expect(reply.status, JSON.stringify(reply.body)).toBe(200);
     expect(reply.body.warnings).toHaveLength(1);
     expect(reply.body.warnings[0]).toMatch(
-      new RegExp(`only 20 % of it lies in Preview bench ${suffix}'s nominal range \\(${low} to ${high} nm\\)`),
+      new RegExp(
+        `only 20 % of it lies in Preview bench ${suffix}'s nominal range \\(${low} to ${high} nm\\)`,
+      ),
     );
   });
 
@@ -162,13 +192,19 @@ describe("the upload preview", () => {
     expect(bad.body.error.message).toMatch(/^Line 9, column 2: /);
     expect(bad.body.error.fieldErrors?.file?.[0]).toBe(bad.body.error.message);
 
-    const huge = await preview(chemist, new Uint8Array(16 * 1024 * 1024 + 1).fill(0x31), "huge.csv");
+    const huge = await preview(
+      chemist,
+      new Uint8Array(16 * 1024 * 1024 + 1).fill(0x31),
+      "huge.csv",
+    );
     expect(huge.status).toBe(413);
 
     const noKind = new FormData();
     noKind.set("file", new Blob([lampFile(grating)]), "lamp.csv");
     noKind.set("instrumentId", instrumentId);
-    const missing = await chemist.request<ErrorBody>("POST", "/api/spectra/preview", { form: noKind });
+    const missing = await chemist.request<ErrorBody>("POST", "/api/spectra/preview", {
+      form: noKind,
+    });
     expect(missing.status).toBe(400);
     expect(missing.body.error.fieldErrors?.kind).toBeDefined();
 
@@ -178,7 +214,13 @@ describe("the upload preview", () => {
 
   it("warns when the same bytes were stored before in the team", async () => {
     const content = lampFile(grating, randomInt(1_000_000, 2_000_000_000));
-    const storedId = await uploadSpectrumFile(chemist, instrumentId, "lamp", content, "first-copy.csv");
+    const storedId = await uploadSpectrumFile(
+      chemist,
+      instrumentId,
+      "lamp",
+      content,
+      "first-copy.csv",
+    );
     const reply = await preview(chemist, content, "second-copy.csv");
     expect(reply.status, JSON.stringify(reply.body)).toBe(200);
     expect(reply.body.duplicateOf).toMatchObject({ id: storedId, fileName: "first-copy.csv" });

@@ -98,25 +98,38 @@ describe("bad bodies", () => {
     expect(reply.body.error.fieldErrors).toEqual(bad.fieldErrors);
   });
 
-  it.each(["/api/session", "/api/tokens", "/api/invitations", "/api/password-reset", "/api/password"])(
-    "POST %s with a body that is not JSON → 400 that says so",
-    async (path) => {
-      const reply = await lead.request<ErrorBody>("POST", path, { rawBody: "{not json" });
-      expect(reply.status).toBe(400);
-      expect(reply.body.error).toMatchObject({ code: "validation", message: "The request body must be JSON." });
-    },
-  );
+  it.each([
+    "/api/session",
+    "/api/tokens",
+    "/api/invitations",
+    "/api/password-reset",
+    "/api/password",
+  ])("POST %s with a body that is not JSON → 400 that says so", async (path) => {
+    const reply = await lead.request<ErrorBody>("POST", path, { rawBody: "{not json" });
+    expect(reply.status).toBe(400);
+    expect(reply.body.error).toMatchObject({
+      code: "validation",
+      message: "The request body must be JSON.",
+    });
+  });
 
   it("POST /api/invitations/accept and /api/password-reset/confirm name the token and password fields", async () => {
     for (const path of ["/api/invitations/accept", "/api/password-reset/confirm"]) {
       const reply = await new ApiClient().post<ErrorBody>(path, { token: "short", password: "" });
       expect(reply.status, path).toBe(400);
-      expect(Object.keys(reply.body.error.fieldErrors ?? {}).sort(), path).toEqual(["password", "token"]);
+      expect(Object.keys(reply.body.error.fieldErrors ?? {}).sort(), path).toEqual([
+        "password",
+        "token",
+      ]);
     }
   });
 
   it("never leaks a database error: a body of the wrong shape is a 400, not a 500", async () => {
-    const reply = await lead.post<ErrorBody>("/api/invitations", [flameTeamId, "x@y.example", "chemist"]);
+    const reply = await lead.post<ErrorBody>("/api/invitations", [
+      flameTeamId,
+      "x@y.example",
+      "chemist",
+    ]);
     expect(reply.status).toBe(400);
     expect(JSON.stringify(reply.body)).not.toMatch(/sequelize|postgres|SELECT|stack/i);
   });
@@ -137,8 +150,16 @@ describe("cookie-authenticated mutations from a foreign Origin", () => {
   const CROSS_SITE: [string, string, () => unknown][] = [
     ["POST", "/api/session", () => ({ email: member.email, password: member.password })],
     ["POST", "/api/tokens", () => ({ name: "from elsewhere" })],
-    ["POST", "/api/invitations", () => ({ teamId: flameTeamId, email: uniqueEmail("csrf"), role: "lab_lead" })],
-    ["POST", "/api/password", () => ({ currentPassword: member.password, newPassword: strongPassword() })],
+    [
+      "POST",
+      "/api/invitations",
+      () => ({ teamId: flameTeamId, email: uniqueEmail("csrf"), role: "lab_lead" }),
+    ],
+    [
+      "POST",
+      "/api/password",
+      () => ({ currentPassword: member.password, newPassword: strongPassword() }),
+    ],
     ["POST", "/api/password-reset", () => ({ email: member.email })],
     ["DELETE", "/api/session", () => undefined],
     ["DELETE", "/api/tokens/00000000-0000-4000-8000-000000000000", () => undefined],
@@ -148,7 +169,10 @@ describe("cookie-authenticated mutations from a foreign Origin", () => {
     const mark = await auditMark();
     const reply = await client.request<ErrorBody>(method, path, { json: body(), headers: FOREIGN });
     expect(reply.status).toBe(403);
-    expect(reply.body.error).toMatchObject({ code: "forbidden", message: "Cross-site requests are not accepted." });
+    expect(reply.body.error).toMatchObject({
+      code: "forbidden",
+      message: "Cross-site requests are not accepted.",
+    });
     expect(reply.setCookies).toEqual([]);
     expect(await auditEventsSince(mark, { actorId: member.userId })).toEqual([]);
   });
@@ -169,17 +193,31 @@ describe("cookie-authenticated mutations from a foreign Origin", () => {
   });
 
   it("refuses an Origin that is not a URL (e.g. `null` from a sandboxed frame)", async () => {
-    const reply = await client.post<ErrorBody>("/api/tokens", { name: "sandboxed" }, { headers: { origin: "null" } });
+    const reply = await client.post<ErrorBody>(
+      "/api/tokens",
+      { name: "sandboxed" },
+      { headers: { origin: "null" } },
+    );
     expect(reply.status).toBe(403);
     expect(reply.body.error.message).toBe("The request's Origin header is not valid.");
-    const { rows } = await db().query("SELECT count(*)::int AS n FROM access_tokens WHERE user_id = $1", [member.userId]);
+    const { rows } = await db().query(
+      "SELECT count(*)::int AS n FROM access_tokens WHERE user_id = $1",
+      [member.userId],
+    );
     expect(rows[0].n).toBe(0);
   });
 
   it("accepts the app's own Origin", async () => {
-    const reply = await client.post<{ id: string }>("/api/tokens", { name: "same origin" }, { headers: { origin: APP_URL } });
+    const reply = await client.post<{ id: string }>(
+      "/api/tokens",
+      { name: "same origin" },
+      { headers: { origin: APP_URL } },
+    );
     expect(reply.status).toBe(201);
-    expect((await client.delete(`/api/tokens/${reply.body.id}`, { headers: { origin: APP_URL } })).status).toBe(204);
+    expect(
+      (await client.delete(`/api/tokens/${reply.body.id}`, { headers: { origin: APP_URL } }))
+        .status,
+    ).toBe(204);
   });
 
   it("lets a GET through whatever the Origin (reads change nothing)", async () => {

@@ -50,7 +50,12 @@ interface Calibration {
   coveredRangeNm: [number, number];
   lineReleaseId: string;
   softwareVersion: string;
-  drift: { previousCalibrationId: string; pixels: number[]; deltaNm: number[]; maxAbsNm: number } | null;
+  drift: {
+    previousCalibrationId: string;
+    pixels: number[];
+    deltaNm: number[];
+    maxAbsNm: number;
+  } | null;
 }
 interface Run {
   id: string;
@@ -58,8 +63,20 @@ interface Run {
   calibrationId: string | null;
   lineReleaseId: string;
   lampChecked: boolean;
-  peaks: { wavelengthNm: number; uncertaintyNm: number; fwhmNm: number; height: number; snr: number }[];
-  calls: { species: string; element: string; verdict: string; score: number; lines: { lineNm: number; peakNm: number; deltaNm: number }[] }[];
+  peaks: {
+    wavelengthNm: number;
+    uncertaintyNm: number;
+    fwhmNm: number;
+    height: number;
+    snr: number;
+  }[];
+  calls: {
+    species: string;
+    element: string;
+    verdict: string;
+    score: number;
+    lines: { lineNm: number; peakNm: number; deltaNm: number }[];
+  }[];
   unexplained: unknown[];
 }
 
@@ -87,17 +104,24 @@ async function upload(
 ): Promise<{ status: number; body: unknown }> {
   const form = new FormData();
   form.set("file", new Blob([content as BlobPart]), fileName);
-  for (const [name, value] of Object.entries(fields)) if (value !== undefined) form.set(name, value);
+  for (const [name, value] of Object.entries(fields))
+    if (value !== undefined) form.set(name, value);
   const response = await fetch(`${APP_URL}/api/spectra`, {
     method: "POST",
-    headers: { cookie: `${SESSION_COOKIE}=${client.cookie(SESSION_COOKIE)}`, "x-forwarded-for": client.address },
+    headers: {
+      cookie: `${SESSION_COOKIE}=${client.cookie(SESSION_COOKIE)}`,
+      "x-forwarded-for": client.address,
+    },
     body: form,
   });
   const text = await response.text();
   return { status: response.status, body: text ? JSON.parse(text) : null };
 }
 
-async function createInstrument(dispersion: "grating" | "prism", synthetic: SyntheticInstrument): Promise<Instrument> {
+async function createInstrument(
+  dispersion: "grating" | "prism",
+  synthetic: SyntheticInstrument,
+): Promise<Instrument> {
   const reply = await lead.post<Instrument>("/api/instruments", {
     teamId,
     name: `${dispersion} bench ${suffix}`,
@@ -111,14 +135,28 @@ async function createInstrument(dispersion: "grating" | "prism", synthetic: Synt
   return reply.body;
 }
 
-async function uploadOk(instrumentId: string, kind: "lamp" | "sample", content: string, fileName: string): Promise<Spectrum> {
+async function uploadOk(
+  instrumentId: string,
+  kind: "lamp" | "sample",
+  content: string,
+  fileName: string,
+): Promise<Spectrum> {
   const reply = await upload(chemist, { instrumentId, kind, label: fileName }, content, fileName);
   expect(reply.status, JSON.stringify(reply.body)).toBe(201);
   return reply.body as Spectrum;
 }
 
-async function calibrate(instrumentId: string, spectrumId: string, model?: string): Promise<Calibration> {
-  const reply = await chemist.post<Calibration>("/api/calibrations", { instrumentId, spectrumId, lamps: ["Hg", "Ar"], model });
+async function calibrate(
+  instrumentId: string,
+  spectrumId: string,
+  model?: string,
+): Promise<Calibration> {
+  const reply = await chemist.post<Calibration>("/api/calibrations", {
+    instrumentId,
+    spectrumId,
+    lamps: ["Hg", "Ar"],
+    model,
+  });
   expect(reply.status, JSON.stringify(reply.body)).toBe(201);
   return reply.body;
 }
@@ -135,7 +173,11 @@ async function errorsInsideCoveredRange(calibration: Calibration, synthetic: Syn
   expect(reply.body.uncertaintiesNm.every((s) => s >= 0)).toBe(true);
   const [lowNm, highNm] = calibration.coveredRangeNm;
   return pixels
-    .map((pixel, i) => ({ pixel, truthNm: synthetic.wavelengthOfPixel(pixel), errorNm: reply.body.wavelengthsNm[i] - synthetic.wavelengthOfPixel(pixel) }))
+    .map((pixel, i) => ({
+      pixel,
+      truthNm: synthetic.wavelengthOfPixel(pixel),
+      errorNm: reply.body.wavelengthsNm[i] - synthetic.wavelengthOfPixel(pixel),
+    }))
     .filter((p) => p.truthNm >= lowNm && p.truthNm <= highNm);
 }
 
@@ -146,12 +188,18 @@ async function notebook(title: string): Promise<string> {
 }
 
 async function run(notebookId: string, spectrumId: string, calibrationId?: string): Promise<Run> {
-  const reply = await chemist.post<Run>("/api/runs", { notebookId, spectrumId, calibrationId, source: "flame" });
+  const reply = await chemist.post<Run>("/api/runs", {
+    notebookId,
+    spectrumId,
+    calibrationId,
+    source: "flame",
+  });
   expect(reply.status, JSON.stringify(reply.body)).toBe(201);
   return reply.body;
 }
 
-const verdictOf = (r: Run, species: string) => r.calls.find((c) => c.species === species)?.verdict ?? "absent";
+const verdictOf = (r: Run, species: string) =>
+  r.calls.find((c) => c.species === species)?.verdict ?? "absent";
 
 async function rowCounts() {
   const { rows } = await db().query<Record<string, string>>(
@@ -184,7 +232,15 @@ let gratingRun: Run;
 
 describe("instruments", () => {
   it("are created by lab leads only (a chemist gets 403, an outsider 404), with an audit event", async () => {
-    const body = { teamId, name: `chemist's bench ${suffix}`, dispersion: "grating", pixels: PIXELS, nominalMinNm: 350, nominalMaxNm: 900, resolutionNm: 1 };
+    const body = {
+      teamId,
+      name: `chemist's bench ${suffix}`,
+      dispersion: "grating",
+      pixels: PIXELS,
+      nominalMinNm: 350,
+      nominalMaxNm: 900,
+      resolutionNm: 1,
+    };
     expect((await chemist.post("/api/instruments", body)).status).toBe(403);
     expect((await outsider.post("/api/instruments", body)).status).toBe(404);
     const invalid = await lead.post<ErrorBody>("/api/instruments", { ...body, nominalMaxNm: 300 });
@@ -207,12 +263,20 @@ describe("uploads", () => {
     const before = await rowCounts();
     const mark = await auditMark();
     const rows = Array.from({ length: 30 }, (_, i) => (i === 12 ? `${i},12O` : `${i},${100 + i}`));
-    const bad = await upload(chemist, { instrumentId: gratingInstrument.id, kind: "lamp" }, `pixel,counts\n${rows.join("\n")}\n`);
+    const bad = await upload(
+      chemist,
+      { instrumentId: gratingInstrument.id, kind: "lamp" },
+      `pixel,counts\n${rows.join("\n")}\n`,
+    );
     expect(bad.status).toBe(400);
     // The header is line 1, so data row 12 (0-based) is line 14; its counts are the second column.
     expect((bad.body as ErrorBody).error.message).toMatch(/^Line 14, column 2: /);
 
-    const binary = await upload(chemist, { instrumentId: gratingInstrument.id, kind: "lamp" }, Uint8Array.of(0x50, 0, 1, 2, 3));
+    const binary = await upload(
+      chemist,
+      { instrumentId: gratingInstrument.id, kind: "lamp" },
+      Uint8Array.of(0x50, 0, 1, 2, 3),
+    );
     expect(binary.status).toBe(400);
     expect((binary.body as ErrorBody).error.message).toMatch(/binary/);
 
@@ -220,7 +284,11 @@ describe("uploads", () => {
     expect(noKind.status).toBe(400);
     expect((noKind.body as ErrorBody).error.fieldErrors?.kind).toBeDefined();
 
-    const huge = await upload(chemist, { instrumentId: gratingInstrument.id, kind: "lamp" }, new Uint8Array(16 * 1024 * 1024 + 1).fill(0x31));
+    const huge = await upload(
+      chemist,
+      { instrumentId: gratingInstrument.id, kind: "lamp" },
+      new Uint8Array(16 * 1024 * 1024 + 1).fill(0x31),
+    );
     expect(huge.status).toBe(413);
 
     expect(await rowCounts()).toEqual(before);
@@ -232,11 +300,19 @@ describe("uploads", () => {
     const mark = await auditMark();
     lampSpectrum = await uploadOk(gratingInstrument.id, "lamp", content, "hg-ar-lamp.csv");
     const sha256 = createHash("sha256").update(content).digest("hex");
-    expect(lampSpectrum).toMatchObject({ points: PIXELS, sha256, xUnit: "pixel", duplicateOf: null });
-    const { rows } = await db().query<{ raw_bytes: Buffer; file_name: string; point_count: number }>(
-      "SELECT raw_bytes, file_name, point_count FROM spectrum_files WHERE id = $1",
-      [lampSpectrum.id],
-    );
+    expect(lampSpectrum).toMatchObject({
+      points: PIXELS,
+      sha256,
+      xUnit: "pixel",
+      duplicateOf: null,
+    });
+    const { rows } = await db().query<{
+      raw_bytes: Buffer;
+      file_name: string;
+      point_count: number;
+    }>("SELECT raw_bytes, file_name, point_count FROM spectrum_files WHERE id = $1", [
+      lampSpectrum.id,
+    ]);
     expect(rows[0].raw_bytes.equals(Buffer.from(content))).toBe(true);
     expect(rows[0]).toMatchObject({ file_name: "hg-ar-lamp.csv", point_count: PIXELS });
     const events = await auditEventsSince(mark, { action: "spectrum.upload" });
@@ -252,16 +328,22 @@ describe("the grating chain: lamp → calibration → flame run", () => {
     const mark = await auditMark();
     gratingCalibration = await calibrate(gratingInstrument.id, lampSpectrum.id);
     expect(gratingCalibration.pairs.length).toBeGreaterThanOrEqual(8);
-    expect(gratingCalibration.pairs.every((p) => p.species === "Hg I" || p.species === "Ar I")).toBe(true);
+    expect(
+      gratingCalibration.pairs.every((p) => p.species === "Hg I" || p.species === "Ar I"),
+    ).toBe(true);
     expect(gratingCalibration.rmsNm).toBeLessThan(TOLERANCE_NM);
     expect(gratingCalibration.drift).toBeNull();
     expect(gratingCalibration.softwareVersion).toBe(packageJson.version);
     const inside = await errorsInsideCoveredRange(gratingCalibration, grating);
     expect(inside.length).toBeGreaterThan(30);
-    for (const p of inside) expect(Math.abs(p.errorNm), `pixel ${p.pixel}`).toBeLessThan(TOLERANCE_NM);
+    for (const p of inside)
+      expect(Math.abs(p.errorNm), `pixel ${p.pixel}`).toBeLessThan(TOLERANCE_NM);
     const events = await auditEventsSince(mark, { action: "calibration.create" });
     expect(events.map((e) => e.entity_id)).toEqual([gratingCalibration.id]);
-    const { rows } = await db().query("SELECT line_release_id, model FROM calibrations WHERE id = $1", [gratingCalibration.id]);
+    const { rows } = await db().query(
+      "SELECT line_release_id, model FROM calibrations WHERE id = $1",
+      [gratingCalibration.id],
+    );
     expect(rows[0].line_release_id).toBe(gratingCalibration.lineReleaseId);
     expect(rows[0].model.kind).toBeDefined();
     const instrument = await chemist.get<Instrument>(`/api/instruments/${gratingInstrument.id}`);
@@ -269,12 +351,25 @@ describe("the grating chain: lamp → calibration → flame run", () => {
   });
 
   it("refuses a sample as the lamp (400) and a lamp file without lines (422, asks for manual pairs)", async () => {
-    flameSpectrum = await uploadOk(gratingInstrument.id, "sample", flameFile(grating), "flame-k-li-sr-ca.csv");
-    const sample = await chemist.post<ErrorBody>("/api/calibrations", { instrumentId: gratingInstrument.id, spectrumId: flameSpectrum.id, lamps: ["Hg"] });
+    flameSpectrum = await uploadOk(
+      gratingInstrument.id,
+      "sample",
+      flameFile(grating),
+      "flame-k-li-sr-ca.csv",
+    );
+    const sample = await chemist.post<ErrorBody>("/api/calibrations", {
+      instrumentId: gratingInstrument.id,
+      spectrumId: flameSpectrum.id,
+      lamps: ["Hg"],
+    });
     expect(sample.status).toBe(400);
     const dark = await uploadOk(gratingInstrument.id, "lamp", darkFile(), "dark.csv");
     const before = await rowCounts();
-    const failed = await chemist.post<ErrorBody>("/api/calibrations", { instrumentId: gratingInstrument.id, spectrumId: dark.id, lamps: ["Hg", "Ar"] });
+    const failed = await chemist.post<ErrorBody>("/api/calibrations", {
+      instrumentId: gratingInstrument.id,
+      spectrumId: dark.id,
+      lamps: ["Hg", "Ar"],
+    });
     expect(failed.status, JSON.stringify(failed.body)).toBe(422);
     expect(failed.body.error.message).toMatch(/by hand/);
     expect(await rowCounts()).toEqual(before);
@@ -291,10 +386,15 @@ describe("the grating chain: lamp → calibration → flame run", () => {
     expect(gratingRun.lampChecked).toBe(true);
     expect(gratingRun.peaks.length).toBeGreaterThan(5);
     for (const species of PRESENT) expect(verdictOf(gratingRun, species), species).toBe("present");
-    for (const species of ABSENT) expect(verdictOf(gratingRun, species), species).not.toBe("present");
+    for (const species of ABSENT)
+      expect(verdictOf(gratingRun, species), species).not.toBe("present");
     // The evidence: potassium's resonance doublet seen within the tolerance of its table wavelengths.
     const potassium = gratingRun.calls.find((c) => c.species === "K I")!;
-    expect(potassium.lines.some((l) => Math.abs(l.lineNm - 766.49) < 0.01 && Math.abs(l.deltaNm) < TOLERANCE_NM)).toBe(true);
+    expect(
+      potassium.lines.some(
+        (l) => Math.abs(l.lineNm - 766.49) < 0.01 && Math.abs(l.deltaNm) < TOLERANCE_NM,
+      ),
+    ).toBe(true);
 
     const fetched = await chemist.get<Run>(`/api/runs/${gratingRun.id}`);
     expect(fetched.status).toBe(200);
@@ -329,16 +429,23 @@ describe("the grating chain: lamp → calibration → flame run", () => {
 
 describe("other ways through", () => {
   it("extends two or three hand-picked pairs to a calibration within the same tolerance", async () => {
-    const seeds = [0, Math.floor(gratingCalibration.pairs.length / 2), gratingCalibration.pairs.length - 1]
+    const seeds = [
+      0,
+      Math.floor(gratingCalibration.pairs.length / 2),
+      gratingCalibration.pairs.length - 1,
+    ]
       .map((i) => gratingCalibration.pairs[i])
       .map((p) => ({ pixel: Math.round(p.pixel), wavelengthNm: p.wavelengthNm }));
-    const reply = await chemist.post<Calibration & { pairing: { manualSeeds: number } }>("/api/calibrations", {
-      instrumentId: gratingInstrument.id,
-      spectrumId: lampSpectrum.id,
-      lamps: ["Hg", "Ar"],
-      model: "polynomial-3",
-      pairs: seeds,
-    });
+    const reply = await chemist.post<Calibration & { pairing: { manualSeeds: number } }>(
+      "/api/calibrations",
+      {
+        instrumentId: gratingInstrument.id,
+        spectrumId: lampSpectrum.id,
+        lamps: ["Hg", "Ar"],
+        model: "polynomial-3",
+        pairs: seeds,
+      },
+    );
     expect(reply.status, JSON.stringify(reply.body)).toBe(201);
     expect(reply.body.pairing.manualSeeds).toBe(3);
     expect(reply.body.model).toBe("polynomial-3");
@@ -356,13 +463,19 @@ describe("other ways through", () => {
   });
 
   it("runs a file with its own wavelength axis without a calibration, marked as not lamp-checked", async () => {
-    const sample = await uploadOk(gratingInstrument.id, "sample", flameFileOnWavelengthAxis(grating), "flame-nm.csv");
+    const sample = await uploadOk(
+      gratingInstrument.id,
+      "sample",
+      flameFileOnWavelengthAxis(grating),
+      "flame-nm.csv",
+    );
     expect(sample.xUnit).toBe("nm");
     const onItsAxis = await run(notebookId, sample.id);
     expect(onItsAxis.calibrationId).toBeNull();
     expect(onItsAxis.lampChecked).toBe(false);
     for (const species of PRESENT) expect(verdictOf(onItsAxis, species), species).toBe("present");
-    for (const species of ABSENT) expect(verdictOf(onItsAxis, species), species).not.toBe("present");
+    for (const species of ABSENT)
+      expect(verdictOf(onItsAxis, species), species).not.toBe("present");
     // A pixel-axis calibration does not apply to a wavelength axis.
     const mismatched = await chemist.post<ErrorBody>("/api/runs", {
       notebookId,
@@ -385,7 +498,8 @@ describe("the prism chain", () => {
     expect(["prism", "hartmann"]).toContain(prismCalibration.model);
     const inside = await errorsInsideCoveredRange(prismCalibration, prism);
     expect(inside.length).toBeGreaterThan(30);
-    for (const p of inside) expect(Math.abs(p.errorNm), `pixel ${p.pixel}`).toBeLessThan(TOLERANCE_NM);
+    for (const p of inside)
+      expect(Math.abs(p.errorNm), `pixel ${p.pixel}`).toBeLessThan(TOLERANCE_NM);
 
     const flame = await uploadOk(instrument.id, "sample", flameFile(prism), "prism-flame.csv");
     prismRun = await run(notebookId, flame.id);
@@ -400,26 +514,55 @@ describe("the prism chain", () => {
 
 describe("another team's records", () => {
   it("answer 404 to an outsider, whatever the route", async () => {
-    const ids = { instrument: gratingInstrument.id, spectrum: lampSpectrum.id, calibration: gratingCalibration.id, notebook: notebookId, run: gratingRun.id };
+    const ids = {
+      instrument: gratingInstrument.id,
+      spectrum: lampSpectrum.id,
+      calibration: gratingCalibration.id,
+      notebook: notebookId,
+      run: gratingRun.id,
+    };
     const statuses = {
       instruments: (await outsider.get(`/api/instruments?teamId=${teamId}`)).status,
       instrument: (await outsider.get(`/api/instruments/${ids.instrument}`)).status,
-      upload: (await upload(outsider, { instrumentId: ids.instrument, kind: "lamp" }, lampFile(grating))).status,
+      upload: (
+        await upload(outsider, { instrumentId: ids.instrument, kind: "lamp" }, lampFile(grating))
+      ).status,
       spectrum: (await outsider.get(`/api/spectra/${ids.spectrum}`)).status,
-      calibrate: (await outsider.post("/api/calibrations", { instrumentId: ids.instrument, spectrumId: ids.spectrum, lamps: ["Hg"] })).status,
+      calibrate: (
+        await outsider.post("/api/calibrations", {
+          instrumentId: ids.instrument,
+          spectrumId: ids.spectrum,
+          lamps: ["Hg"],
+        })
+      ).status,
       calibration: (await outsider.get(`/api/calibrations/${ids.calibration}`)).status,
-      evaluate: (await outsider.post(`/api/calibrations/${ids.calibration}/evaluate`, { pixels: [1, 2] })).status,
+      evaluate: (
+        await outsider.post(`/api/calibrations/${ids.calibration}/evaluate`, { pixels: [1, 2] })
+      ).status,
       notebooks: (await outsider.get(`/api/notebooks?teamId=${teamId}`)).status,
       notebook: (await outsider.get(`/api/notebooks/${ids.notebook}`)).status,
-      runInTheirNotebook: (await outsider.post("/api/runs", { notebookId: ids.notebook, spectrumId: ids.spectrum, source: "flame" })).status,
+      runInTheirNotebook: (
+        await outsider.post("/api/runs", {
+          notebookId: ids.notebook,
+          spectrumId: ids.spectrum,
+          source: "flame",
+        })
+      ).status,
       run: (await outsider.get(`/api/runs/${ids.run}`)).status,
     };
     expect(statuses).toEqual(Object.fromEntries(Object.keys(statuses).map((k) => [k, 404])));
 
     // Their own notebook with our spectrum or calibration: still not found.
-    const own = await outsider.post<{ id: string }>("/api/notebooks", { teamId: outsiderTeamId, title: `Outside ${suffix}` });
+    const own = await outsider.post<{ id: string }>("/api/notebooks", {
+      teamId: outsiderTeamId,
+      title: `Outside ${suffix}`,
+    });
     expect(own.status).toBe(201);
-    const borrowed = await outsider.post("/api/runs", { notebookId: own.body.id, spectrumId: ids.spectrum, source: "flame" });
+    const borrowed = await outsider.post("/api/runs", {
+      notebookId: own.body.id,
+      spectrumId: ids.spectrum,
+      source: "flame",
+    });
     expect(borrowed.status).toBe(404);
   });
 });

@@ -27,7 +27,8 @@ export default async function AccountPage() {
             Access tokens
           </h2>
           <p className="muted mb-3 text-sm">
-            Scripts send a token in the header <code>Authorization: Bearer &lt;token&gt;</code>; it acts as you, in your teams.
+            Scripts send a token in the header <code>Authorization: Bearer &lt;token&gt;</code>; it
+            acts as you, in your teams.
           </p>
           {tokens.length === 0 ? (
             <p className="muted mb-3 text-sm">No tokens yet.</p>

@@ -22,21 +22,31 @@ export default async function AuditPage({
   searchParams: Promise<Record<string, string | string[] | undefined>>;
 }) {
   const { actor, team } = await requireWorkspace();
-  if (!team) return <EmptyState title="You are not in a team yet">Ask a lab lead to invite you.</EmptyState>;
+  if (!team)
+    return <EmptyState title="You are not in a team yet">Ask a lab lead to invite you.</EmptyState>;
   const raw = Object.fromEntries(Object.entries(await searchParams).map(([k, v]) => [k, first(v)]));
   // A link from a record of another of the person's teams names that team; anyone else's is ignored.
   const chosen = actor.memberships.find((m) => m.teamId === raw.teamId) ?? team;
-  const parsed = auditQuerySchema.safeParse({ ...raw, teamId: chosen.teamId, cursor: undefined, format: undefined });
+  const parsed = auditQuerySchema.safeParse({
+    ...raw,
+    teamId: chosen.teamId,
+    cursor: undefined,
+    format: undefined,
+  });
   const errors = parsed.success ? {} : zodFieldErrors(parsed.error);
   const filters = parsed.success ? parsed.data : {};
   const values: AuditFilterValues = {
     teamId: chosen.teamId,
-    ...(parsed.success ? filters : Object.fromEntries(Object.entries(raw).filter(([, v]) => typeof v === "string"))),
+    ...(parsed.success
+      ? filters
+      : Object.fromEntries(Object.entries(raw).filter(([, v]) => typeof v === "string"))),
   };
   const [members, facets, page] = await Promise.all([
     fetchTeamMembers(actor, chosen.teamId),
     fetchAuditFacets(actor, chosen.teamId),
-    parsed.success ? fetchAuditPage(actor, { ...filters, teamId: chosen.teamId }) : Promise.resolve(null),
+    parsed.success
+      ? fetchAuditPage(actor, { ...filters, teamId: chosen.teamId })
+      : Promise.resolve(null),
   ]);
   const query = auditSearchParams({ ...(parsed.success ? filters : {}), teamId: chosen.teamId });
   const filtered = parsed.success && [...query.keys()].some((k) => k !== "teamId");
@@ -73,7 +83,9 @@ export default async function AuditPage({
           Some filters are not right; correct the marked fields to see events.
         </p>
       ) : page.events.length === 0 ? (
-        <EmptyState title={filtered ? "No event matches these filters" : "Nothing in the trail yet"}>
+        <EmptyState
+          title={filtered ? "No event matches these filters" : "Nothing in the trail yet"}
+        >
           {filtered
             ? "Widen the days, choose another person or action, or clear the filters."
             : "Events appear here as soon as anyone in the team creates or changes something."}

@@ -21,7 +21,10 @@ async function actorOrThrow() {
   return actor;
 }
 
-export async function createInstrumentAction(_state: FormState, formData: FormData): Promise<FormState> {
+export async function createInstrumentAction(
+  _state: FormState,
+  formData: FormData,
+): Promise<FormState> {
   const parsed = instrumentInputFromForm(formData);
   if (!parsed.success) return invalidFormState(parsed.error, formValues(formData));
   let id: string;
@@ -35,7 +38,10 @@ export async function createInstrumentAction(_state: FormState, formData: FormDa
 }
 
 /** Saves the edit form; on success back to the instrument's page, otherwise the form with its messages. */
-export async function updateInstrumentAction(_state: FormState, formData: FormData): Promise<FormState> {
+export async function updateInstrumentAction(
+  _state: FormState,
+  formData: FormData,
+): Promise<FormState> {
   const parsed = instrumentUpdateFromForm(formData);
   if (!parsed.success) return invalidFormState(parsed.error, formValues(formData));
   let id: string;

@@ -16,7 +16,8 @@ const nm = (value: number, digits = 0) => value.toFixed(digits);
 
 export default async function InstrumentsPage() {
   const { actor, team } = await requireWorkspace();
-  if (!team) return <EmptyState title="You are not in a team yet">Ask a lab lead to invite you.</EmptyState>;
+  if (!team)
+    return <EmptyState title="You are not in a team yet">Ask a lab lead to invite you.</EmptyState>;
   const lead = can(actor, "instrument.manage", { teamId: team.teamId });
   const instruments = await fetchInstruments(actor, team.teamId);
   const latest = new Map(
@@ -28,7 +29,10 @@ export default async function InstrumentsPage() {
   );
   return (
     <>
-      <PageHeader title="Instruments" description="Spectrometers, their dispersion and their lamp calibrations." />
+      <PageHeader
+        title="Instruments"
+        description="Spectrometers, their dispersion and their lamp calibrations."
+      />
       {instruments.length === 0 ? (
         <EmptyState title="No instruments yet">
           {lead
@@ -41,13 +45,27 @@ export default async function InstrumentsPage() {
             <caption className="sr-only">The team&apos;s instruments</caption>
             <thead className="border-b border-[var(--line)] text-left">
               <tr>
-                <th scope="col" className="px-3 py-2">Name</th>
-                <th scope="col" className="px-3 py-2">Dispersion</th>
-                <th scope="col" className="px-3 py-2 text-right">Pixels</th>
-                <th scope="col" className="px-3 py-2 text-right">Nominal range (nm)</th>
-                <th scope="col" className="px-3 py-2 text-right">Resolution (nm)</th>
-                <th scope="col" className="px-3 py-2">Newest calibration</th>
-                <th scope="col" className="px-3 py-2 text-right">RMS (nm)</th>
+                <th scope="col" className="px-3 py-2">
+                  Name
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Dispersion
+                </th>
+                <th scope="col" className="px-3 py-2 text-right">
+                  Pixels
+                </th>
+                <th scope="col" className="px-3 py-2 text-right">
+                  Nominal range (nm)
+                </th>
+                <th scope="col" className="px-3 py-2 text-right">
+                  Resolution (nm)
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Newest calibration
+                </th>
+                <th scope="col" className="px-3 py-2 text-right">
+                  RMS (nm)
+                </th>
               </tr>
             </thead>
             <tbody>
@@ -56,7 +74,10 @@ export default async function InstrumentsPage() {
                 return (
                   <tr key={instrument.id} className="border-b border-[var(--line)] last:border-0">
                     <td className="px-3 py-2">
-                      <Link href={`/instruments/${instrument.id}`} className="font-medium underline">
+                      <Link
+                        href={`/instruments/${instrument.id}`}
+                        className="font-medium underline"
+                      >
                         {instrument.name}
                       </Link>
                     </td>
@@ -65,7 +86,9 @@ export default async function InstrumentsPage() {
                     <td className="px-3 py-2 text-right font-mono">
                       {nm(instrument.nominalMinNm)}–{nm(instrument.nominalMaxNm)}
                     </td>
-                    <td className="px-3 py-2 text-right font-mono">{nm(instrument.resolutionNm, 2)}</td>
+                    <td className="px-3 py-2 text-right font-mono">
+                      {nm(instrument.resolutionNm, 2)}
+                    </td>
                     <td className="px-3 py-2">
                       {calibration ? (
                         <Link href={`/calibrations/${calibration.id}`} className="underline">
@@ -77,7 +100,9 @@ export default async function InstrumentsPage() {
                         </span>
                       )}
                     </td>
-                    <td className="px-3 py-2 text-right font-mono">{calibration ? calibration.rmsNm.toFixed(3) : "—"}</td>
+                    <td className="px-3 py-2 text-right font-mono">
+                      {calibration ? calibration.rmsNm.toFixed(3) : "—"}
+                    </td>
                   </tr>
                 );
               })}
@@ -87,7 +112,11 @@ export default async function InstrumentsPage() {
       )}
       {lead ? (
         <div className="mt-6 max-w-3xl">
-          <InstrumentForm teamId={team.teamId} glassNames={GLASS_NAMES} action={createInstrumentAction} />
+          <InstrumentForm
+            teamId={team.teamId}
+            glassNames={GLASS_NAMES}
+            action={createInstrumentAction}
+          />
         </div>
       ) : null}
     </>

@@ -16,11 +16,18 @@ export default async function MailPage() {
   const messages = await fetchMailbox(actor);
   return (
     <>
-      <PageHeader title="Outgoing mail" description="Messages Emberline sent through the local test mail server. Reset and invitation links are hidden from everyone but their recipient." />
+      <PageHeader
+        title="Outgoing mail"
+        description="Messages Emberline sent through the local test mail server. Reset and invitation links are hidden from everyone but their recipient."
+      />
       {!mailboxConfigured() ? (
-        <EmptyState title="Mail goes to a real server">This installation sends mail through its SMTP settings.</EmptyState>
+        <EmptyState title="Mail goes to a real server">
+          This installation sends mail through its SMTP settings.
+        </EmptyState>
       ) : messages.length === 0 ? (
-        <EmptyState title="No mail sent yet">Invitations, reset links, review requests and sign-offs appear here.</EmptyState>
+        <EmptyState title="No mail sent yet">
+          Invitations, reset links, review requests and sign-offs appear here.
+        </EmptyState>
       ) : (
         <ul className="flex flex-col gap-3">
           {messages.map((m) => (

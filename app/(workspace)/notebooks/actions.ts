@@ -10,7 +10,12 @@ import { createRun } from "@/lib/services/runs";
 import { formError, type FormState } from "@/lib/validation/form-state";
 import { idParam } from "@/lib/validation/line-schemas";
 import { notebookRenameSchema } from "@/lib/validation/notebook-schemas";
-import { formValues, invalidFormState, notebookInputFromForm, runInputFromForm } from "@/lib/validation/workflow-forms";
+import {
+  formValues,
+  invalidFormState,
+  notebookInputFromForm,
+  runInputFromForm,
+} from "@/lib/validation/workflow-forms";
 
 async function actorOrThrow() {
   const actor = await currentActor();
@@ -18,7 +23,10 @@ async function actorOrThrow() {
   return actor;
 }
 
-export async function createNotebookAction(_state: FormState, formData: FormData): Promise<FormState> {
+export async function createNotebookAction(
+  _state: FormState,
+  formData: FormData,
+): Promise<FormState> {
   const parsed = notebookInputFromForm(formData);
   if (!parsed.success) return invalidFormState(parsed.error, formValues(formData));
   let id: string;
@@ -31,7 +39,10 @@ export async function createNotebookAction(_state: FormState, formData: FormData
   redirect(`/notebooks/${id}`);
 }
 
-export async function renameNotebookAction(_state: FormState, formData: FormData): Promise<FormState> {
+export async function renameNotebookAction(
+  _state: FormState,
+  formData: FormData,
+): Promise<FormState> {
   const notebookId = String(formData.get("notebookId") ?? "");
   const version = formData.get("version");
   const parsed = notebookRenameSchema.safeParse({
@@ -40,7 +51,11 @@ export async function renameNotebookAction(_state: FormState, formData: FormData
   });
   if (!parsed.success) return invalidFormState(parsed.error, formValues(formData));
   try {
-    const renamed = await renameNotebook(await actorOrThrow(), idParam(notebookId, "No such notebook."), parsed.data);
+    const renamed = await renameNotebook(
+      await actorOrThrow(),
+      idParam(notebookId, "No such notebook."),
+      parsed.data,
+    );
     revalidatePath(`/notebooks/${notebookId}`);
     revalidatePath("/notebooks");
     return { ok: true, message: `Renamed to “${renamed.title}”.` };

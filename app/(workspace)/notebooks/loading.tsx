@@ -7,7 +7,10 @@ export default function NotebooksLoading() {
       <span className="block h-4 w-48 animate-pulse rounded bg-ink-100 dark:bg-ink-800" />
       <div className="panel flex flex-col gap-2 p-3">
         {[0, 1, 2, 3].map((i) => (
-          <span key={i} className="block h-4 w-full animate-pulse rounded bg-ink-100 dark:bg-ink-800" />
+          <span
+            key={i}
+            className="block h-4 w-full animate-pulse rounded bg-ink-100 dark:bg-ink-800"
+          />
         ))}
       </div>
     </div>

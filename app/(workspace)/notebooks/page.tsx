@@ -12,13 +12,20 @@ import { createNotebookAction } from "./actions";
 
 export const metadata = { title: "Notebooks" };
 
-export default async function NotebooksPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+export default async function NotebooksPage({
+  searchParams,
+}: {
+  searchParams: Promise<Record<string, string | string[] | undefined>>;
+}) {
   const { actor, team } = await requireWorkspace();
-  if (!team) return <EmptyState title="You are not in a team yet">Ask a lab lead to invite you.</EmptyState>;
+  if (!team)
+    return <EmptyState title="You are not in a team yet">Ask a lab lead to invite you.</EmptyState>;
   // The list under the URL's search becomes SWR's fallback, so the first paint has data.
   const q = oneParam((await searchParams).q);
   const query = notebookListQuerySchema.safeParse({ q });
-  const fallback = query.success ? { [notebooksKey(team.teamId, q)]: await fetchNotebooks(actor, team.teamId, query.data) } : {};
+  const fallback = query.success
+    ? { [notebooksKey(team.teamId, q)]: await fetchNotebooks(actor, team.teamId, query.data) }
+    : {};
   return (
     <>
       <PageHeader

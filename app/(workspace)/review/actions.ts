@@ -10,7 +10,11 @@ import { unauthenticated } from "@/lib/errors";
 import { addReviewMark, amendRun, reviewRun, submitRun } from "@/lib/services/run-review";
 import { formError, type FormState } from "@/lib/validation/form-state";
 import { zodFieldErrors } from "@/lib/validation/field-errors";
-import { decisionInputFromForm, markInputFromForm, submitInputFromForm } from "@/lib/validation/review-schemas";
+import {
+  decisionInputFromForm,
+  markInputFromForm,
+  submitInputFromForm,
+} from "@/lib/validation/review-schemas";
 
 async function actorOrThrow() {
   const actor = await currentActor();
@@ -20,7 +24,10 @@ async function actorOrThrow() {
 
 const runIdOf = (formData: FormData) => String(formData.get("runId") ?? "");
 
-function invalid(error: Parameters<typeof zodFieldErrors>[0], values?: Record<string, string>): FormState {
+function invalid(
+  error: Parameters<typeof zodFieldErrors>[0],
+  values?: Record<string, string>,
+): FormState {
   return { message: "Some fields need another look.", fieldErrors: zodFieldErrors(error), values };
 }
 

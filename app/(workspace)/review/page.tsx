@@ -15,7 +15,6 @@ export const metadata = { title: "Review" };
 
 type Search = Record<string, string | string[] | undefined>;
 
-
 export default async function ReviewPage({ searchParams }: { searchParams: Promise<Search> }) {
   const { actor, team } = await requireWorkspace();
   if (!team || !can(actor, "run.review", { teamId: team.teamId })) notFound();
@@ -30,15 +29,22 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
   const filtered = Boolean(query.author || query.instrumentId || query.species);
   return (
     <>
-      <PageHeader title="Review" description={`Runs of ${team.teamName} waiting for your review, oldest first.`} />
+      <PageHeader
+        title="Review"
+        description={`Runs of ${team.teamName} waiting for your review, oldest first.`}
+      />
       {queue.total === 0 ? (
         <EmptyState title="Nothing waits for your review">
-          When a chemist submits a run to you or to any supervisor of the team, it appears here and you receive an e-mail. Your own
-          runs are reviewed by another supervisor.
+          When a chemist submits a run to you or to any supervisor of the team, it appears here and
+          you receive an e-mail. Your own runs are reviewed by another supervisor.
         </EmptyState>
       ) : (
         <>
-          <form method="get" className="mb-3 flex flex-wrap items-end gap-3" aria-label="Filter the queue">
+          <form
+            method="get"
+            className="mb-3 flex flex-wrap items-end gap-3"
+            aria-label="Filter the queue"
+          >
             <FilterSelect
               id="author"
               name="author"
@@ -63,7 +69,10 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
               defaultValue={query.species ?? ""}
               options={queue.options.species.map((sp) => ({ value: sp, label: sp }))}
             />
-            <button type="submit" className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800">
+            <button
+              type="submit"
+              className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800"
+            >
               Filter
             </button>
             {filtered ? (
@@ -73,7 +82,9 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
             ) : null}
           </form>
           <p className="muted mb-2 text-sm" role="status">
-            {filtered ? `${queue.items.length} of ${queue.total} waiting runs match the filters.` : `${queue.total} waiting.`}
+            {filtered
+              ? `${queue.items.length} of ${queue.total} waiting runs match the filters.`
+              : `${queue.total} waiting.`}
           </p>
           {queue.items.length === 0 ? (
             <p className="panel p-4 text-sm">No waiting run matches these filters.</p>
@@ -81,12 +92,24 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
             <table className="panel w-full text-sm" data-testid="review-queue">
               <thead className="text-left text-xs">
                 <tr className="border-b border-[var(--line)]">
-                  <th scope="col" className="px-3 py-2">Run</th>
-                  <th scope="col" className="px-3 py-2">Waiting</th>
-                  <th scope="col" className="px-3 py-2">Author</th>
-                  <th scope="col" className="px-3 py-2">Instrument</th>
-                  <th scope="col" className="px-3 py-2">Called present</th>
-                  <th scope="col" className="px-3 py-2">Round</th>
+                  <th scope="col" className="px-3 py-2">
+                    Run
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Waiting
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Author
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Instrument
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Called present
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Round
+                  </th>
                 </tr>
               </thead>
               <tbody className="divide-y divide-[var(--line)]">
@@ -104,11 +127,19 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
                     </td>
                     <td className="px-3 py-2">
                       {formatWaiting(item.waitingSeconds)}
-                      <span className="muted block text-xs">since {formatTime(item.submittedAt)}</span>
+                      <span className="muted block text-xs">
+                        since {formatTime(item.submittedAt)}
+                      </span>
                     </td>
                     <td className="px-3 py-2">{item.author?.name ?? "—"}</td>
                     <td className="px-3 py-2">{item.instrument.name}</td>
-                    <td className="px-3 py-2">{item.present.length ? item.present.join(", ") : <span className="muted">none</span>}</td>
+                    <td className="px-3 py-2">
+                      {item.present.length ? (
+                        item.present.join(", ")
+                      ) : (
+                        <span className="muted">none</span>
+                      )}
+                    </td>
                     <td className="px-3 py-2 font-mono">{item.round}</td>
                   </tr>
                 ))}

@@ -12,7 +12,8 @@ export const metadata = { title: "Team" };
 
 export default async function TeamPage() {
   const { actor, team } = await requireWorkspace();
-  if (!team) return <EmptyState title="You are not in a team yet">Ask a lab lead to invite you.</EmptyState>;
+  if (!team)
+    return <EmptyState title="You are not in a team yet">Ask a lab lead to invite you.</EmptyState>;
   const manage = can(actor, "team.manageMembers", { teamId: team.teamId });
   const [members, pending] = await Promise.all([
     fetchTeamMembers(actor, team.teamId),

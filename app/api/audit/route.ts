@@ -11,7 +11,9 @@ export const GET = apiRoute(async (request) => {
   const actor = await requireActor();
   const parsed = auditQuerySchema.safeParse(Object.fromEntries(new URL(request.url).searchParams));
   if (!parsed.success) {
-    throw new AppError("validation", "Some filters are not right.", { fieldErrors: zodFieldErrors(parsed.error) });
+    throw new AppError("validation", "Some filters are not right.", {
+      fieldErrors: zodFieldErrors(parsed.error),
+    });
   }
   const { format, cursor, limit, ...filter } = parsed.data;
   const teamId = filter.teamId ?? actor.memberships[0]?.teamId;

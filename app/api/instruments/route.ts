@@ -5,7 +5,9 @@ import { instrumentCreateSchema, teamIdQuery } from "@/lib/validation/workflow-s
 
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();
-  return Response.json(await fetchInstruments(actor, teamIdQuery(request, actor.memberships[0]?.teamId)));
+  return Response.json(
+    await fetchInstruments(actor, teamIdQuery(request, actor.memberships[0]?.teamId)),
+  );
 });
 
 export const POST = apiRoute(async (request) => {

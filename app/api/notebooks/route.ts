@@ -7,7 +7,9 @@ import { notebookCreateSchema, teamIdQuery } from "@/lib/validation/workflow-sch
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();
   const teamId = teamIdQuery(request, actor.memberships[0]?.teamId);
-  return Response.json(await fetchNotebooks(actor, teamId, parseQuery(request, notebookListQuerySchema)));
+  return Response.json(
+    await fetchNotebooks(actor, teamId, parseQuery(request, notebookListQuerySchema)),
+  );
 });
 
 export const POST = apiRoute(async (request) => {

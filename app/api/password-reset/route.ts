@@ -6,8 +6,14 @@ import { SIGN_IN_BODY_BYTES } from "@/lib/http/read-body";
 import { requestPasswordReset } from "@/lib/services/accounts";
 import { passwordResetRequestSchema } from "@/lib/validation/account-schemas";
 
-export const POST = apiRoute(async (request) => {
-  const input = await parseJson(request, passwordResetRequestSchema);
-  await requestPasswordReset({ ...input, address: clientAddress(request.headers) });
-  return Response.json({ message: "If the address has an account, a reset link is on its way." }, { status: 202 });
-}, { maxBodyBytes: SIGN_IN_BODY_BYTES });
+export const POST = apiRoute(
+  async (request) => {
+    const input = await parseJson(request, passwordResetRequestSchema);
+    await requestPasswordReset({ ...input, address: clientAddress(request.headers) });
+    return Response.json(
+      { message: "If the address has an account, a reset link is on its way." },
+      { status: 202 },
+    );
+  },
+  { maxBodyBytes: SIGN_IN_BODY_BYTES },
+);

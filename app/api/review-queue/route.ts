@@ -10,7 +10,12 @@ export const GET = apiRoute(async (request) => {
   const search = new URL(request.url).searchParams;
   // Without ?teamId= the queue is that of the first team where the person reviews (else their first team).
   const reviewing = actor.memberships.find((m) => m.role === "supervisor") ?? actor.memberships[0];
-  const parsed = reviewQueueQueryFrom((name) => search.get(name) ?? (name === "teamId" ? (reviewing?.teamId ?? null) : null));
-  if (!parsed.success) throw new AppError("validation", "Some filters are not right.", { fieldErrors: zodFieldErrors(parsed.error) });
+  const parsed = reviewQueueQueryFrom(
+    (name) => search.get(name) ?? (name === "teamId" ? (reviewing?.teamId ?? null) : null),
+  );
+  if (!parsed.success)
+    throw new AppError("validation", "Some filters are not right.", {
+      fieldErrors: zodFieldErrors(parsed.error),
+    });
   return Response.json(await fetchReviewQueue(actor, parsed.data));
 });

@@ -22,16 +22,23 @@ export async function readUploadForm(request: Request): Promise<SpectrumUpload> 
   let form: FormData;
   try {
     const type = request.headers.get("content-type") ?? "";
-    form = await new Response(bytes as Uint8Array<ArrayBuffer>, { headers: { "content-type": type } }).formData();
+    form = await new Response(bytes as Uint8Array<ArrayBuffer>, {
+      headers: { "content-type": type },
+    }).formData();
   } catch {
     throw new AppError("validation", "Send the file as multipart/form-data with a `file` field.");
   }
   const file = form.get("file");
   if (!(file instanceof File)) {
-    throw new AppError("validation", "Choose a file to upload.", { fieldErrors: { file: ["Choose a file to upload."] } });
+    throw new AppError("validation", "Choose a file to upload.", {
+      fieldErrors: { file: ["Choose a file to upload."] },
+    });
   }
   if (file.size > MAX_UPLOAD_BYTES) {
-    throw new AppError("too_large", `The file is ${file.size} bytes; files of up to ${MAX_UPLOAD_BYTES} bytes (16 MiB) are accepted.`);
+    throw new AppError(
+      "too_large",
+      `The file is ${file.size} bytes; files of up to ${MAX_UPLOAD_BYTES} bytes (16 MiB) are accepted.`,
+    );
   }
   const text = (name: string) => {
     const value = form.get(name);
@@ -44,7 +51,13 @@ export async function readUploadForm(request: Request): Promise<SpectrumUpload> 
     xUnit: text("xUnit"),
   });
   if (!fields.success) {
-    throw new AppError("validation", "Some fields are not right.", { fieldErrors: zodFieldErrors(fields.error) });
+    throw new AppError("validation", "Some fields are not right.", {
+      fieldErrors: zodFieldErrors(fields.error),
+    });
   }
-  return { ...fields.data, fileName: cleanText(file.name).slice(0, 255) || "upload", bytes: new Uint8Array(await file.arrayBuffer()) };
+  return {
+    ...fields.data,
+    fileName: cleanText(file.name).slice(0, 255) || "upload",
+    bytes: new Uint8Array(await file.arrayBuffer()),
+  };
 }

@@ -3,5 +3,7 @@ import { apiRoute, requireActor } from "@/lib/http/api-handler";
 
 export const GET = apiRoute(async () => {
   const actor = await requireActor();
-  return Response.json(actor.memberships.map((m) => ({ id: m.teamId, name: m.teamName, role: m.role })));
+  return Response.json(
+    actor.memberships.map((m) => ({ id: m.teamId, name: m.teamName, role: m.role })),
+  );
 });

@@ -16,7 +16,10 @@ import { prepareSignal } from "../signal/prepare-signal";
 import { smoothingWindowFor } from "../signal/smoothing-window-for";
 import type { CalibratedPeak, Peak, ReferenceLine, SourceKind } from "../types";
 import { calibratePeaks } from "./calibrate-peaks";
-import { estimateInstrumentFwhm, type EstimateInstrumentFwhmOptions } from "./estimate-instrument-fwhm";
+import {
+  estimateInstrumentFwhm,
+  type EstimateInstrumentFwhmOptions,
+} from "./estimate-instrument-fwhm";
 import {
   estimateInstrumentFwhmTrend,
   type EstimateInstrumentFwhmTrendOptions,
@@ -111,7 +114,9 @@ export interface InstrumentWidth {
 
 /** The instrument FWHM at x on the input axis. */
 export function instrumentWidthAt(width: InstrumentWidth, x: number): number {
-  return width.trend ? width.fwhm * (x / width.trend.referenceX) ** width.trend.exponent : width.fwhm;
+  return width.trend
+    ? width.fwhm * (x / width.trend.referenceX) ** width.trend.exponent
+    : width.fwhm;
 }
 
 /** Accepts the line table as rows or as an index prepared once and reused across analyses. */
@@ -121,20 +126,37 @@ export function analyzeSample(
   lines: readonly ReferenceLine[] | LineIndex,
   options: AnalyzeSampleOptions = {},
 ): SampleAnalysis {
-  const { calibration = null, source = "flame", resolutionNm, resolutionPx, broadFactor, detectorMax, minSnr = 5, k = 3 } = options;
+  const {
+    calibration = null,
+    source = "flame",
+    resolutionNm,
+    resolutionPx,
+    broadFactor,
+    detectorMax,
+    minSnr = 5,
+    k = 3,
+  } = options;
   for (const [name, value] of Object.entries({ resolutionNm, resolutionPx })) {
     if (value !== undefined && (!(value > 0) || !Number.isFinite(value))) {
       throw new RangeError(`${name} must be a positive finite number, got ${value}`);
     }
   }
   if (resolutionPx !== undefined && !calibration) {
-    throw new RangeError("resolutionPx needs a calibrated pixel axis; give resolutionNm for an axis already in nm");
+    throw new RangeError(
+      "resolutionPx needs a calibrated pixel axis; give resolutionNm for an axis already in nm",
+    );
   }
   const { lteTemperatureK } = options;
-  if (lteTemperatureK !== undefined && (!(lteTemperatureK > 0) || !Number.isFinite(lteTemperatureK))) {
-    throw new RangeError(`lteTemperatureK must be a positive finite number, got ${lteTemperatureK}`);
+  if (
+    lteTemperatureK !== undefined &&
+    (!(lteTemperatureK > 0) || !Number.isFinite(lteTemperatureK))
+  ) {
+    throw new RangeError(
+      `lteTemperatureK must be a positive finite number, got ${lteTemperatureK}`,
+    );
   }
-  if (x.length !== y.length) throw new RangeError(`x and y differ in length (${x.length} vs ${y.length})`);
+  if (x.length !== y.length)
+    throw new RangeError(`x and y differ in length (${x.length} vs ${y.length})`);
   // A heavily oversampled array (a line thousands of samples wide) is averaged down to a few samples
   // per line first, as calibrateLamp does: the smoothing window and the peak finder expect lines a
   // few samples wide. Peak centres and widths stay on the input axis (binSamples keeps mean x).
@@ -150,13 +172,20 @@ export function analyzeSample(
   const instrumentWidth = resolveInstrumentWidth(binned.x, picked, calibration, options);
   const peaks = calibratePeaks(picked, {
     calibration,
-    instrumentFwhm: instrumentWidth?.trend ? (at) => instrumentWidthAt(instrumentWidth, at) : instrumentWidth?.fwhm,
+    instrumentFwhm: instrumentWidth?.trend
+      ? (at) => instrumentWidthAt(instrumentWidth, at)
+      : instrumentWidth?.fwhm,
     broadFactor,
   });
   const ends = Float64Array.of(x[0], x[x.length - 1]);
   const endsNm = calibration ? evaluateCalibration(calibration, ends) : ends;
-  const rangeNm: [number, number] = [Math.min(endsNm[0], endsNm[1]), Math.max(endsNm[0], endsNm[1])];
-  let index = Array.isArray(lines) ? prepareLineIndex(lines as readonly ReferenceLine[]) : (lines as LineIndex);
+  const rangeNm: [number, number] = [
+    Math.min(endsNm[0], endsNm[1]),
+    Math.max(endsNm[0], endsNm[1]),
+  ];
+  let index = Array.isArray(lines)
+    ? prepareLineIndex(lines as readonly ReferenceLine[])
+    : (lines as LineIndex);
   if (lteTemperatureK !== undefined) {
     index = lteLineIndex(index, source, lteTemperatureK);
   }
@@ -168,11 +197,16 @@ export function analyzeSample(
     // With a noise profile each peak's snr already holds its local noise; one global σ would undo that.
     noiseCounts: signal.noiseProfile ? undefined : signal.noise,
   });
-  const warnings: CalibrationWarning[] = calibration ? calibrationRangeWarnings(calibration, ends) : [];
-  const continuum = binningFactor > 1 ? interpolateOnto(binned.x, signal.continuum, x) : signal.continuum;
+  const warnings: CalibrationWarning[] = calibration
+    ? calibrationRangeWarnings(calibration, ends)
+    : [];
+  const continuum =
+    binningFactor > 1 ? interpolateOnto(binned.x, signal.continuum, x) : signal.continuum;
   const temperature = excitationTemperature(identification.calls, peaks);
   // The input x of a wavelength: through the calibration's inverse (NaN where it does not reach).
-  const xOfNm = calibration ? inverseOfModel(calibration, [x[0], x[x.length - 1]]) : (nm: number) => nm;
+  const xOfNm = calibration
+    ? inverseOfModel(calibration, [x[0], x[x.length - 1]])
+    : (nm: number) => nm;
   const limits = detectionLimits(identification.calls, {
     index,
     source,
@@ -212,13 +246,19 @@ function nearestSample(axis: Float64Array, at: number): number {
  * else (like calibrateLamp) a line a 500th of the array wide, the order of a small spectrometer's
  * resolving power over its range (common practice).
  */
-function lineWidthInSamples(x: Float64Array, calibration: CalibrationModel | null, options: AnalyzeSampleOptions): number {
+function lineWidthInSamples(
+  x: Float64Array,
+  calibration: CalibrationModel | null,
+  options: AnalyzeSampleOptions,
+): number {
   const step = Math.abs(x[x.length - 1] - x[0]) / (x.length - 1);
   const { resolutionNm, resolutionPx } = options;
   if (calibration && resolutionPx !== undefined) return resolutionPx / step;
   if (resolutionNm !== undefined) {
     if (!calibration) return resolutionNm / step;
-    const slope = Math.abs(dispersionAt(calibration, Float64Array.of(0.5 * (x[0] + x[x.length - 1])))[0]);
+    const slope = Math.abs(
+      dispersionAt(calibration, Float64Array.of(0.5 * (x[0] + x[x.length - 1])))[0],
+    );
     if (slope > 0 && Number.isFinite(slope)) return resolutionNm / slope / step;
   }
   return (x.length - 1) / 500;
@@ -260,18 +300,26 @@ function resolveInstrumentWidth(
 ): InstrumentWidth | null {
   const { resolutionNm, resolutionPx } = options;
   if (!calibration) {
-    if (resolutionNm !== undefined) return { fwhm: resolutionNm, unit: "nm", basis: "resolutionNm" };
+    if (resolutionNm !== undefined)
+      return { fwhm: resolutionNm, unit: "nm", basis: "resolutionNm" };
     const trend = estimateInstrumentFwhmTrend(peaks, options.resolutionTrend);
     return trend === null
       ? null
-      : { fwhm: trend.fwhm, unit: "nm", basis: "estimated", trend: { referenceX: trend.referenceX, exponent: trend.exponent } };
+      : {
+          fwhm: trend.fwhm,
+          unit: "nm",
+          basis: "estimated",
+          trend: { referenceX: trend.referenceX, exponent: trend.exponent },
+        };
   }
   if (resolutionPx !== undefined) return { fwhm: resolutionPx, unit: "px", basis: "resolutionPx" };
   if (resolutionNm !== undefined) {
     const middle = Float64Array.of(0.5 * (x[0] + x[x.length - 1]));
     const slope = Math.abs(dispersionAt(calibration, middle)[0]);
     if (!(slope > 0) || !Number.isFinite(slope)) {
-      throw new RangeError(`the calibration's dispersion at the array's middle is not usable (${slope} nm per pixel)`);
+      throw new RangeError(
+        `the calibration's dispersion at the array's middle is not usable (${slope} nm per pixel)`,
+      );
     }
     return { fwhm: resolutionNm / slope, unit: "px", basis: "resolutionNm" };
   }

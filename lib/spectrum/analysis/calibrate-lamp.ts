@@ -46,25 +46,54 @@ export interface LampCalibration {
 }
 
 /** Throws CalibrationError("invalid-input") with a sentence a chemist understands when the input cannot be calibrated. */
-function checkInput(x: Float64Array, y: Float64Array, lines: LampLine[], options: CalibrateLampOptions): void {
-  const invalid = (message: string, details: Record<string, unknown> = {}) => new CalibrationError("invalid-input", message, details);
+function checkInput(
+  x: Float64Array,
+  y: Float64Array,
+  lines: LampLine[],
+  options: CalibrateLampOptions,
+): void {
+  const invalid = (message: string, details: Record<string, unknown> = {}) =>
+    new CalibrationError("invalid-input", message, details);
   if (!(x instanceof Float64Array) || !(y instanceof Float64Array) || x.length !== y.length) {
-    throw invalid("the lamp spectrum must have one count per pixel (the two columns differ in length)");
+    throw invalid(
+      "the lamp spectrum must have one count per pixel (the two columns differ in length)",
+    );
   }
-  if (x.length < MIN_SAMPLES) throw invalid(`the lamp spectrum has ${x.length} samples; at least ${MIN_SAMPLES} are needed`);
+  if (x.length < MIN_SAMPLES)
+    throw invalid(`the lamp spectrum has ${x.length} samples; at least ${MIN_SAMPLES} are needed`);
   for (let i = 0; i < x.length; i++) {
-    if (!Number.isFinite(x[i]) || !Number.isFinite(y[i])) throw invalid(`the lamp spectrum has a missing or non-numeric value at sample ${i + 1}`);
-    if (i > 0 && !(x[i] > x[i - 1])) throw invalid(`the lamp spectrum's first column must increase from sample to sample (sample ${i + 1} does not)`);
+    if (!Number.isFinite(x[i]) || !Number.isFinite(y[i]))
+      throw invalid(`the lamp spectrum has a missing or non-numeric value at sample ${i + 1}`);
+    if (i > 0 && !(x[i] > x[i - 1]))
+      throw invalid(
+        `the lamp spectrum's first column must increase from sample to sample (sample ${i + 1} does not)`,
+      );
   }
   const range = options?.nominalRangeNm;
-  if (!Array.isArray(range) || range.length !== 2 || !(Number.isFinite(range[0]) && Number.isFinite(range[1]) && range[0] > 0 && range[0] < range[1])) {
-    throw invalid("the instrument's nominal range must be two positive wavelengths, the lower first");
+  if (
+    !Array.isArray(range) ||
+    range.length !== 2 ||
+    !(Number.isFinite(range[0]) && Number.isFinite(range[1]) && range[0] > 0 && range[0] < range[1])
+  ) {
+    throw invalid(
+      "the instrument's nominal range must be two positive wavelengths, the lower first",
+    );
   }
-  if (options.dispersion !== "grating" && options.dispersion !== "prism") throw invalid('the instrument must be a "grating" or a "prism"');
-  if (options.resolutionNm !== undefined && !(Number.isFinite(options.resolutionNm) && options.resolutionNm > 0)) {
+  if (options.dispersion !== "grating" && options.dispersion !== "prism")
+    throw invalid('the instrument must be a "grating" or a "prism"');
+  if (
+    options.resolutionNm !== undefined &&
+    !(Number.isFinite(options.resolutionNm) && options.resolutionNm > 0)
+  ) {
     throw invalid("the instrument's resolution must be a positive number of nm");
   }
-  if (!Array.isArray(lines) || lines.some((l) => !(Number.isFinite(l?.wavelengthNm) && l.wavelengthNm > 0 && Number.isFinite(l.intensity)))) {
+  if (
+    !Array.isArray(lines) ||
+    lines.some(
+      (l) =>
+        !(Number.isFinite(l?.wavelengthNm) && l.wavelengthNm > 0 && Number.isFinite(l.intensity)),
+    )
+  ) {
     throw invalid("every lamp line needs a positive wavelength and a numeric intensity");
   }
 }
@@ -83,13 +112,22 @@ export function calibrateLamp(
     // Whatever else fails inside (a degenerate fit, a numerical corner) is still a calibration that
     // could not be made from this lamp: the caller gets the typed error it maps to a 4xx, with the cause.
     const reason = error instanceof Error ? error.message : String(error);
-    throw new CalibrationError("fit-failed", `the lamp spectrum could not be calibrated automatically (${reason}); pair a few peaks by hand`, {
-      cause: error instanceof Error ? error.name : typeof error,
-    });
+    throw new CalibrationError(
+      "fit-failed",
+      `the lamp spectrum could not be calibrated automatically (${reason}); pair a few peaks by hand`,
+      {
+        cause: error instanceof Error ? error.name : typeof error,
+      },
+    );
   }
 }
 
-function calibrateCheckedLamp(x: Float64Array, y: Float64Array, lines: LampLine[], options: CalibrateLampOptions): LampCalibration {
+function calibrateCheckedLamp(
+  x: Float64Array,
+  y: Float64Array,
+  lines: LampLine[],
+  options: CalibrateLampOptions,
+): LampCalibration {
   const { model = "auto", minSnr = 8, seed = 1 } = options;
   // A heavily oversampled array (a line thousands of samples wide) is averaged down to a few samples
   // per line first: the smoothing window is sized for lines a few samples wide.

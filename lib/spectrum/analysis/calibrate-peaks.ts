@@ -38,7 +38,10 @@ export interface CalibratePeaksOptions {
  * A saturated peak is never flagged broad: its half-height is taken from the clipped top, so its
  * FWHM reads wider than the line is (twice as wide when clipped at a twentieth of its height).
  */
-export function calibratePeaks(peaks: readonly Peak[], options: CalibratePeaksOptions = {}): CalibratedPeak[] {
+export function calibratePeaks(
+  peaks: readonly Peak[],
+  options: CalibratePeaksOptions = {},
+): CalibratedPeak[] {
   const { calibration = null, instrumentFwhm, broadFactor = 3 } = options;
   if (typeof instrumentFwhm === "number") assertPositiveFinite("instrumentFwhm", instrumentFwhm);
   assertPositiveFinite("broadFactor", broadFactor);

@@ -30,7 +30,14 @@ export function estimateInstrumentFwhm(
   assertPositiveInteger("maxPeaks", maxPeaks);
   assertPositiveInteger("minPeaks", minPeaks);
   const widths = peaks
-    .filter((peak) => !peak.saturated && !peak.blended && peak.snr >= minSnr && peak.fwhm > 0 && Number.isFinite(peak.fwhm))
+    .filter(
+      (peak) =>
+        !peak.saturated &&
+        !peak.blended &&
+        peak.snr >= minSnr &&
+        peak.fwhm > 0 &&
+        Number.isFinite(peak.fwhm),
+    )
     .sort((a, b) => b.snr - a.snr || a.x - b.x)
     .slice(0, maxPeaks)
     .map((peak) => peak.fwhm)

@@ -34,7 +34,10 @@ export type ExcitationTemperature =
  * The intensity is the peak's area on the input axis: on a pixel axis that is the line's total
  * counts, the quantity proportional to the power it emits.
  */
-export function usableBoltzmannLines(call: ElementCall, peaks: readonly CalibratedPeak[]): BoltzmannLine[] {
+export function usableBoltzmannLines(
+  call: ElementCall,
+  peaks: readonly CalibratedPeak[],
+): BoltzmannLine[] {
   const shared = new Set(call.overlaps.map((o) => o.peakIndex));
   const perPeak = new Map<number, number>();
   for (const s of call.seen) perPeak.set(s.peakIndex, (perPeak.get(s.peakIndex) ?? 0) + 1);
@@ -43,8 +46,10 @@ export function usableBoltzmannLines(call: ElementCall, peaks: readonly Calibrat
     const { g, a, upperEv } = s.line;
     const peak = peaks[s.peakIndex];
     if (g === undefined || a === undefined || upperEv === undefined || !peak) continue;
-    if (!(g > 0) || !(a > 0) || !(upperEv >= 0) || !(peak.area > 0) || !Number.isFinite(peak.area)) continue;
-    if (peak.saturated || peak.blended || shared.has(s.peakIndex) || perPeak.get(s.peakIndex)! > 1) continue;
+    if (!(g > 0) || !(a > 0) || !(upperEv >= 0) || !(peak.area > 0) || !Number.isFinite(peak.area))
+      continue;
+    if (peak.saturated || peak.blended || shared.has(s.peakIndex) || perPeak.get(s.peakIndex)! > 1)
+      continue;
     lines.push({ wavelengthNm: s.referenceNm, intensity: peak.area, g, a, upperEv });
   }
   return lines;
@@ -64,7 +69,9 @@ export function excitationTemperature(
     .filter((c) => c.verdict === "present")
     .map((c) => ({ call: c, lines: usableBoltzmannLines(c, peaks) }))
     .filter((c) => c.lines.length > 0)
-    .sort((p, q) => q.lines.length - p.lines.length || p.call.species.localeCompare(q.call.species));
+    .sort(
+      (p, q) => q.lines.length - p.lines.length || p.call.species.localeCompare(q.call.species),
+    );
   if (candidates.length === 0) {
     return {
       ok: false,
@@ -83,7 +90,11 @@ export function excitationTemperature(
         temperatureUncertaintyK: plot.temperatureUncertaintyK,
         lineCount: lines.length,
         rSquared: plot.rSquared,
-        points: plot.points.map((p, i) => ({ upperEv: p.upperEv, y: p.y, wavelengthNm: lines[i].wavelengthNm })),
+        points: plot.points.map((p, i) => ({
+          upperEv: p.upperEv,
+          y: p.y,
+          wavelengthNm: lines[i].wavelengthNm,
+        })),
       };
     }
     firstFailure ??= `${call.species} (${lines.length} usable line${lines.length === 1 ? "" : "s"}): ${plot.message}`;

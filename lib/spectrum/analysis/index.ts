@@ -1,7 +1,15 @@
 // Public API of the composed analyses: lamp calibration and its workbench edits, calibrated peaks and the identification of a sample.
 export { calibratePeaks, type CalibratePeaksOptions } from "./calibrate-peaks";
-export { analyzeSample, type AnalyzeSampleOptions, type InstrumentWidth, type SampleAnalysis } from "./analyze-sample";
-export { estimateInstrumentFwhm, type EstimateInstrumentFwhmOptions } from "./estimate-instrument-fwhm";
+export {
+  analyzeSample,
+  type AnalyzeSampleOptions,
+  type InstrumentWidth,
+  type SampleAnalysis,
+} from "./analyze-sample";
+export {
+  estimateInstrumentFwhm,
+  type EstimateInstrumentFwhmOptions,
+} from "./estimate-instrument-fwhm";
 export {
   estimateInstrumentFwhmTrend,
   instrumentFwhmAt,
@@ -23,6 +31,15 @@ export {
   type WorkbenchPair,
   type WorkbenchPairingRecord,
 } from "./edit-lamp-calibration";
-export { excitationTemperature, usableBoltzmannLines, type ExcitationTemperature, type ExcitationTemperatureOptions } from "./excitation-temperature";
+export {
+  excitationTemperature,
+  usableBoltzmannLines,
+  type ExcitationTemperature,
+  type ExcitationTemperatureOptions,
+} from "./excitation-temperature";
 export { lteReferenceLines } from "./lte-reference-lines";
-export { detectionLimits, type DetectionLimit, type DetectionLimitContext } from "./detection-limits";
+export {
+  detectionLimits,
+  type DetectionLimit,
+  type DetectionLimitContext,
+} from "./detection-limits";

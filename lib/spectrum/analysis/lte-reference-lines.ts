@@ -6,8 +6,16 @@ import type { ReferenceLine, SourceKind } from "../types";
 /** Scale of the predicted intensities (the strongest predicted line of a species gets this). */
 const LTE_SCALE = 1000;
 
-const hasAtomicData = (l: ReferenceLine): l is ReferenceLine & { g: number; a: number; upperEv: number } =>
-  !l.flags.bandHead && l.g !== undefined && l.g > 0 && l.a !== undefined && l.a > 0 && l.upperEv !== undefined && l.upperEv >= 0;
+const hasAtomicData = (
+  l: ReferenceLine,
+): l is ReferenceLine & { g: number; a: number; upperEv: number } =>
+  !l.flags.bandHead &&
+  l.g !== undefined &&
+  l.g > 0 &&
+  l.a !== undefined &&
+  l.a > 0 &&
+  l.upperEv !== undefined &&
+  l.upperEv >= 0;
 
 /**
  * A copy of `lines` in which, for every species with at least `minLines` lines carrying g, A and an

@@ -14,7 +14,12 @@ export function assertFiniteArray(values: ArrayLike<number>, name: string): void
 
 /** A domain [min, max] with min < max, both finite. */
 export function assertDomain(domain: readonly [number, number], name = "domain"): void {
-  if (!Array.isArray(domain) || domain.length !== 2 || !Number.isFinite(domain[0]) || !Number.isFinite(domain[1])) {
+  if (
+    !Array.isArray(domain) ||
+    domain.length !== 2 ||
+    !Number.isFinite(domain[0]) ||
+    !Number.isFinite(domain[1])
+  ) {
     throw new RangeError(`${name} must be [min, max] with finite numbers`);
   }
   if (!(domain[0] < domain[1])) {
@@ -26,19 +31,28 @@ export function assertDomain(domain: readonly [number, number], name = "domain")
 export function assertPairs(pairs: readonly CalibrationPair[]): void {
   if (!Array.isArray(pairs)) throw new RangeError("pairs must be an array");
   pairs.forEach((pair, i) => {
-    if (!Number.isFinite(pair.x)) throw new RangeError(`pairs[${i}].x must be finite, got ${pair.x}`);
+    if (!Number.isFinite(pair.x))
+      throw new RangeError(`pairs[${i}].x must be finite, got ${pair.x}`);
     if (!(Number.isFinite(pair.wavelengthNm) && pair.wavelengthNm > 0)) {
-      throw new RangeError(`pairs[${i}].wavelengthNm must be positive and finite, got ${pair.wavelengthNm}`);
+      throw new RangeError(
+        `pairs[${i}].wavelengthNm must be positive and finite, got ${pair.wavelengthNm}`,
+      );
     }
-    if (pair.xUncertainty !== undefined && !(Number.isFinite(pair.xUncertainty) && pair.xUncertainty > 0)) {
-      throw new RangeError(`pairs[${i}].xUncertainty must be positive and finite, got ${pair.xUncertainty}`);
+    if (
+      pair.xUncertainty !== undefined &&
+      !(Number.isFinite(pair.xUncertainty) && pair.xUncertainty > 0)
+    ) {
+      throw new RangeError(
+        `pairs[${i}].xUncertainty must be positive and finite, got ${pair.xUncertainty}`,
+      );
     }
   });
 }
 
 /** A stored model whose parameter vector and covariance have matching sizes. */
 export function assertModel(model: CalibrationModel): void {
-  if (!model || typeof model !== "object") throw new CalibrationError("invalid-model", "model must be an object");
+  if (!model || typeof model !== "object")
+    throw new CalibrationError("invalid-model", "model must be an object");
   const p = model.parameters?.length ?? 0;
   if (p === 0 || !Array.isArray(model.covariance) || model.covariance.length !== p) {
     throw new CalibrationError("invalid-model", "model parameters and covariance do not match");

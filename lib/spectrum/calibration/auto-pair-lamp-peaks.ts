@@ -294,7 +294,11 @@ export function autoPairLampPeaks(
     const seeded = pairsFromPrevious(context, options.previous);
     if (seeded.length >= 4) {
       const family: PairingContext = { ...context, previousModel: options.previous };
-      const result = finishLampPairing(family, { pairs: seeded, rmsX: Infinity, score: seeded.length });
+      const result = finishLampPairing(family, {
+        pairs: seeded,
+        rmsX: Infinity,
+        score: seeded.length,
+      });
       if (result.status === "paired") return result;
     }
     return blindLampPairing(peaks, lines, options);
@@ -326,7 +330,10 @@ function modelsAgree(a: CalibrationModel, b: CalibrationModel, context: PairingC
  * The recalibration from `previous`, with lines that blend at today's resolution paired as one line at
  * their centroid (as the blind search does), reported in the caller's lines.
  */
-function recalibration(context: PairingContext, previous: CalibrationModel): LampPairingResult | null {
+function recalibration(
+  context: PairingContext,
+  previous: CalibrationModel,
+): LampPairingResult | null {
   let xOf: (lambda: number) => number;
   try {
     xOf = inverseOfModel(previous, previous.domain);
@@ -340,7 +347,9 @@ function recalibration(context: PairingContext, previous: CalibrationModel): Lam
   const meanNmPerX = Math.abs(ends[1] - ends[0]) / (xMax - xMin);
   const fwhmNmAt = (lambda: number) => {
     const u = xOf(lambda);
-    const nmPerX = Number.isFinite(u) ? Math.abs(modelEvaluation(previous, [u]).dispersion[0]) : Number.NaN;
+    const nmPerX = Number.isFinite(u)
+      ? Math.abs(modelEvaluation(previous, [u]).dispersion[0])
+      : Number.NaN;
     return fwhmX * (Number.isFinite(nmPerX) && nmPerX > 0 ? nmPerX : meanNmPerX);
   };
   const groups = groupBlendedLampLines(context.lines, context.candidateLines, fwhmNmAt);

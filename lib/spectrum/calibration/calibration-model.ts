@@ -86,7 +86,8 @@ export interface PrismCalibrationModel extends CalibrationModelBase {
 }
 
 /** A stored wavelength calibration. */
-export type CalibrationModel = PolynomialCalibrationModel | HartmannCalibrationModel | PrismCalibrationModel;
+export type CalibrationModel =
+  PolynomialCalibrationModel | HartmannCalibrationModel | PrismCalibrationModel;
 
 /** A note about a calibration's use that does not stop it. */
 export interface CalibrationWarning {

@@ -2,7 +2,10 @@
 import type { CalibrationModel, CalibrationWarning } from "./calibration-model";
 
 /** Warnings for the x values that lie outside the pairs' covered range or the array domain. */
-export function calibrationRangeWarnings(model: CalibrationModel, x: ArrayLike<number>): CalibrationWarning[] {
+export function calibrationRangeWarnings(
+  model: CalibrationModel,
+  x: ArrayLike<number>,
+): CalibrationWarning[] {
   let outsideCovered = 0;
   let outsideDomain = 0;
   let low = Infinity;

@@ -8,7 +8,10 @@ import { fitCalibration, parameterCount, type FitCalibrationOptions } from "./fi
 import { informationCriteria } from "./information-criteria";
 import { modelEvaluation } from "./model-evaluation";
 
-export interface CompareCalibrationModelsOptions extends Omit<FitCalibrationOptions, "model" | "degree"> {
+export interface CompareCalibrationModelsOptions extends Omit<
+  FitCalibrationOptions,
+  "model" | "degree"
+> {
   /** How the instrument disperses; decides the recommendation. */
   dispersion: DispersionKind;
   /**
@@ -63,20 +66,39 @@ export function compareCalibrationModels(
 ): CompareCalibrationModelsResult {
   const { dispersion, rejectOutliers = false, ...fitOptions } = options;
   if (dispersion !== "grating" && dispersion !== "prism") {
-    throw new RangeError(`options.dispersion must be "grating" or "prism", got ${String(dispersion)}`);
+    throw new RangeError(
+      `options.dispersion must be "grating" or "prism", got ${String(dispersion)}`,
+    );
   }
   const xs = pairs.map((p) => p.x);
   const domain = options.domain ?? [Math.min(...xs), Math.max(...xs)];
-  const plans: { kind: CalibrationModelKind; degree?: number }[] = [1, 2, 3, 4, 5].map((degree) => ({ kind: "polynomial", degree }));
+  const plans: { kind: CalibrationModelKind; degree?: number }[] = [1, 2, 3, 4, 5].map(
+    (degree) => ({ kind: "polynomial", degree }),
+  );
   plans.push({ kind: "hartmann" }, { kind: "prism" });
   const candidates: CalibrationCandidate[] = [];
   for (const plan of plans) {
-    const k = parameterCount(plan.kind, plan.degree, options.fitApex ?? false, options.fitAxisAngle ?? true);
+    const k = parameterCount(
+      plan.kind,
+      plan.degree,
+      options.fitApex ?? false,
+      options.fitAxisAngle ?? true,
+    );
     // Candidates the pairs cannot support (n < k + 1) are left out rather than listed as failures.
     if (pairs.length < k + 1) continue;
-    const candidate: CalibrationCandidate = { kind: plan.kind, degree: plan.degree, parameterCount: k };
+    const candidate: CalibrationCandidate = {
+      kind: plan.kind,
+      degree: plan.degree,
+      parameterCount: k,
+    };
     try {
-      const fit = fitCalibration(pairs, { ...fitOptions, domain, rejectOutliers, model: plan.kind, degree: plan.degree });
+      const fit = fitCalibration(pairs, {
+        ...fitOptions,
+        domain,
+        rejectOutliers,
+        model: plan.kind,
+        degree: plan.degree,
+      });
       const criteria = informationCriteria(fit.model.chiSquare, fit.model.pairCount, k);
       const endX = new Float64Array(domain);
       const wavelengths = modelEvaluation(fit.model, endX).wavelengthNm;
@@ -88,7 +110,11 @@ export function compareCalibrationModels(
         dof: fit.dof,
         aicc: criteria.aicc,
         bic: criteria.bic,
-        ends: [0, 1].map((i) => ({ x: endX[i], wavelengthNm: wavelengths[i], uncertaintyNm: uncertainties[i] })),
+        ends: [0, 1].map((i) => ({
+          x: endX[i],
+          wavelengthNm: wavelengths[i],
+          uncertaintyNm: uncertainties[i],
+        })),
       });
     } catch (error) {
       if (!(error instanceof CalibrationError)) throw error;
@@ -97,22 +123,32 @@ export function compareCalibrationModels(
     candidates.push(candidate);
   }
   const fitted = (predicate: (c: CalibrationCandidate) => boolean) =>
-    candidates.map((c, i) => ({ c, i })).filter(({ c }) => c.model && Number.isFinite(c.aicc) && predicate(c));
-  const pool = fitted((c) => (dispersion === "grating" ? c.kind === "polynomial" : c.kind !== "polynomial"));
+    candidates
+      .map((c, i) => ({ c, i }))
+      .filter(({ c }) => c.model && Number.isFinite(c.aicc) && predicate(c));
+  const pool = fitted((c) =>
+    dispersion === "grating" ? c.kind === "polynomial" : c.kind !== "polynomial",
+  );
   const usable = pool.length > 0 ? pool : fitted(() => true);
-  if (usable.length === 0) return { candidates, recommended: -1, reason: "no candidate model could be fitted" };
+  if (usable.length === 0)
+    return { candidates, recommended: -1, reason: "no candidate model could be fitted" };
   const bestAicc = Math.min(...usable.map(({ c }) => c.aicc!));
   // Among the equally supported, the fewest parameters: it extrapolates least wildly.
   const chosen = usable
     .filter(({ c }) => c.aicc! - bestAicc <= EQUAL_SUPPORT)
     .sort((a, b) => a.c.parameterCount - b.c.parameterCount || a.c.aicc! - b.c.aicc!)[0];
-  const label = chosen.c.kind === "polynomial" ? `degree-${chosen.c.degree} polynomial` : `${chosen.c.kind} model`;
+  const label =
+    chosen.c.kind === "polynomial"
+      ? `degree-${chosen.c.degree} polynomial`
+      : `${chosen.c.kind} model`;
   return {
     candidates,
     recommended: chosen.i,
     reason:
       `${label}: fewest parameters within ΔAICc ≤ ${EQUAL_SUPPORT} of the best ` +
-      (dispersion === "grating" ? "polynomial (grating)" : "prism-shaped model (prism: Hartmann or the physical prism)") +
+      (dispersion === "grating"
+        ? "polynomial (grating)"
+        : "prism-shaped model (prism: Hartmann or the physical prism)") +
       (pool.length === 0 ? "; no model of the preferred kind fitted, so all were considered" : ""),
   };
 }

@@ -108,7 +108,12 @@ export interface FitCalibrationResult {
 }
 
 /** Parameters each model fits, so the too-few-pairs error can say what is needed. */
-export function parameterCount(kind: CalibrationModelKind, degree = 3, fitApex = false, fitAxisAngle = true): number {
+export function parameterCount(
+  kind: CalibrationModelKind,
+  degree = 3,
+  fitApex = false,
+  fitAxisAngle = true,
+): number {
   if (kind === "polynomial") return degree + 1;
   if (kind === "hartmann") return 4;
   return 3 + (fitApex ? 1 : 0) + (fitAxisAngle ? 1 : 0);
@@ -121,12 +126,20 @@ function median(values: number[]): number {
 }
 
 /** Fits one model kind to the given subset; the glass search lives here. */
-function fitOnce(input: ModelFitInput, options: Required<Omit<FitCalibrationOptions, "glass" | "domain">> & { glass?: GlassName }): CalibrationModel {
+function fitOnce(
+  input: ModelFitInput,
+  options: Required<Omit<FitCalibrationOptions, "glass" | "domain">> & { glass?: GlassName },
+): CalibrationModel {
   const uniform = options.weighting === "uniform";
-  if (options.model === "polynomial") return fitPolynomialModel(input, options.degree, options.covarianceScaling, uniform);
-  if (options.model === "hartmann") return fitHartmannModel(input, options.covarianceScaling, uniform);
+  if (options.model === "polynomial")
+    return fitPolynomialModel(input, options.degree, options.covarianceScaling, uniform);
+  if (options.model === "hartmann")
+    return fitHartmannModel(input, options.covarianceScaling, uniform);
   // A glass is tried only where its formula holds; a named one that does not is refused in words.
-  const pairRange: [number, number] = [Math.min(...input.wavelengthNm), Math.max(...input.wavelengthNm)];
+  const pairRange: [number, number] = [
+    Math.min(...input.wavelengthNm),
+    Math.max(...input.wavelengthNm),
+  ];
   if (options.glass) assertGlassValidOver(options.glass, pairRange);
   const glasses = options.glass ? [options.glass] : glassesValidOver(pairRange, GLASS_NAMES);
   if (glasses.length === 0) {
@@ -146,18 +159,26 @@ function fitOnce(input: ModelFitInput, options: Required<Omit<FitCalibrationOpti
         fitAxisAngle: options.fitAxisAngle,
         scaling: options.covarianceScaling,
       });
-      const { aicc } = informationCriteria(model.chiSquare, model.pairCount, model.parameters.length);
+      const { aicc } = informationCriteria(
+        model.chiSquare,
+        model.pairCount,
+        model.parameters.length,
+      );
       if (!best || aicc < best.aicc) best = { model, aicc };
     } catch (error) {
       lastError = error;
     }
   }
-  if (!best) throw lastError ?? new CalibrationError("fit-failed", "no catalogue glass fits the pairs");
+  if (!best)
+    throw lastError ?? new CalibrationError("fit-failed", "no catalogue glass fits the pairs");
   return best.model;
 }
 
 /** Fits `pairs` with the chosen model, rejecting outliers one at a time. */
-export function fitCalibration(pairs: CalibrationPair[], options: FitCalibrationOptions = {}): FitCalibrationResult {
+export function fitCalibration(
+  pairs: CalibrationPair[],
+  options: FitCalibrationOptions = {},
+): FitCalibrationResult {
   assertPairs(pairs);
   const {
     model: kind = "polynomial",
@@ -177,7 +198,8 @@ export function fitCalibration(pairs: CalibrationPair[], options: FitCalibration
     throw new RangeError(`degree must be an integer from 1 to 5, got ${degree}`);
   }
   if (!(clipSigma > 0)) throw new RangeError(`clipSigma must be positive, got ${clipSigma}`);
-  if (!(apexDeg > 0 && apexDeg < 90)) throw new RangeError(`apexDeg must be in (0, 90), got ${apexDeg}`);
+  if (!(apexDeg > 0 && apexDeg < 90))
+    throw new RangeError(`apexDeg must be in (0, 90), got ${apexDeg}`);
   const needed = parameterCount(kind, degree, fitApex, fitAxisAngle) + 1;
   if (pairs.length < needed) {
     throw new CalibrationError(
@@ -193,7 +215,20 @@ export function fitCalibration(pairs: CalibrationPair[], options: FitCalibration
   // Pairs without an uncertainty take the median of the given ones (or 1 when none is given).
   const given = pairs.map((p) => p.xUncertainty).filter((s): s is number => s !== undefined);
   const fallbackSigma = given.length > 0 ? median(given) : 1;
-  const settings = { model: kind, degree, apexDeg, fitApex, fitAxisAngle, rejectOutliers, clipSigma, maxRejections, minResidualScaleNm, covarianceScaling, weighting, glass };
+  const settings = {
+    model: kind,
+    degree,
+    apexDeg,
+    fitApex,
+    fitAxisAngle,
+    rejectOutliers,
+    clipSigma,
+    maxRejections,
+    minResidualScaleNm,
+    covarianceScaling,
+    weighting,
+    glass,
+  };
 
   const used = pairs.map(() => true);
   const rejectedOrder: number[] = [];
@@ -217,9 +252,15 @@ export function fitCalibration(pairs: CalibrationPair[], options: FitCalibration
   // strongly varying dispersion 1 nm is a small error in the red and a gross one in the blue.
   const sigmaNmOf = (m: CalibrationModel) => {
     const dispersion = modelEvaluation(m, xs).dispersion;
-    return pairs.map((p, i) => (p.xUncertainty ?? fallbackSigma) * Math.max(Math.abs(dispersion[i]), 1e-12));
+    return pairs.map(
+      (p, i) => (p.xUncertainty ?? fallbackSigma) * Math.max(Math.abs(dispersion[i]), 1e-12),
+    );
   };
-  while (rejectOutliers && rejectedOrder.length < maxRejections && used.filter(Boolean).length > needed) {
+  while (
+    rejectOutliers &&
+    rejectedOrder.length < maxRejections &&
+    used.filter(Boolean).length > needed
+  ) {
     const sigmaNm = sigmaNmOf(model);
     const z = residuals.map((r, i) => r / sigmaNm[i]);
     const usedIndices = used.flatMap((u, i) => (u ? [i] : []));
@@ -235,7 +276,11 @@ export function fitCalibration(pairs: CalibrationPair[], options: FitCalibration
   }
   assertMonotonicCalibration(model);
 
-  const fittedPairs: FittedCalibrationPair[] = pairs.map((p, i) => ({ ...p, residualNm: residuals[i], used: used[i] }));
+  const fittedPairs: FittedCalibrationPair[] = pairs.map((p, i) => ({
+    ...p,
+    residualNm: residuals[i],
+    used: used[i],
+  }));
   const warnings: CalibrationWarning[] = [];
   if (rejectedOrder.length > 0) {
     warnings.push({

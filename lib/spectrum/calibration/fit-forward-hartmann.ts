@@ -62,9 +62,14 @@ function valueAt(parameters: readonly number[], lambda: number): number {
 }
 
 /** Fits x = a + b·((λ − λ₀)/100)^(−α) by Levenberg–Marquardt; throws CalibrationError when it cannot. */
-export function fitForwardHartmann(points: readonly ForwardHartmannPoint[], options: FitForwardHartmannOptions = {}): ForwardHartmannFit {
+export function fitForwardHartmann(
+  points: readonly ForwardHartmannPoint[],
+  options: FitForwardHartmannOptions = {},
+): ForwardHartmannFit {
   if (!Array.isArray(points) || points.length < 5) {
-    throw new RangeError(`points must hold at least 5 pairs (4 parameters + 1), got ${points?.length}`);
+    throw new RangeError(
+      `points must hold at least 5 pairs (4 parameters + 1), got ${points?.length}`,
+    );
   }
   const x = points.map((p) => p.x);
   const lambda = points.map((p) => p.wavelengthNm);
@@ -73,19 +78,31 @@ export function fitForwardHartmann(points: readonly ForwardHartmannPoint[], opti
   const poleLimit = Math.min(bluest, options.poleBelowNm ?? bluest) - POLE_MARGIN_NM;
   const chiSquareOf = (parameters: readonly number[]) => {
     let sum = 0;
-    for (let i = 0; i < x.length; i++) sum += ((x[i] - valueAt(parameters, lambda[i])) / sigma[i]) ** 2;
+    for (let i = 0; i < x.length; i++)
+      sum += ((x[i] - valueAt(parameters, lambda[i])) / sigma[i]) ** 2;
     return sum;
   };
   const valid = (p: readonly number[]) =>
-    p.every(Number.isFinite) && p[2] < poleLimit && p[3] >= ALPHA_LIMITS[0] && p[3] <= ALPHA_LIMITS[1];
+    p.every(Number.isFinite) &&
+    p[2] < poleLimit &&
+    p[3] >= ALPHA_LIMITS[0] &&
+    p[3] <= ALPHA_LIMITS[1];
 
   // With λ₀ and α fixed the model is a straight line in u, so a scan of λ₀ at α = 1 gives a start.
   const lineFit = (lambda0: number, alpha: number): number[] => {
-    let sw = 0, su = 0, sx = 0, suu = 0, sux = 0;
+    let sw = 0,
+      su = 0,
+      sx = 0,
+      suu = 0,
+      sux = 0;
     for (let i = 0; i < x.length; i++) {
       const w = 1 / sigma[i] ** 2;
       const u = ((lambda[i] - lambda0) / SCALE_NM) ** -alpha;
-      sw += w; su += w * u; sx += w * x[i]; suu += w * u * u; sux += w * u * x[i];
+      sw += w;
+      su += w * u;
+      sx += w * x[i];
+      suu += w * u * u;
+      sux += w * u * x[i];
     }
     const b = (sw * sux - su * sx) / (sw * suu - su * su);
     return [(sx - b * su) / sw, b, lambda0, alpha];
@@ -95,7 +112,8 @@ export function fitForwardHartmann(points: readonly ForwardHartmannPoint[], opti
   for (let k = 0; k < 60; k++) {
     const parameters = lineFit((poleLimit * k) / 60, 1);
     const chiSquare = chiSquareOf(parameters);
-    if (valid(parameters) && (!scanned || chiSquare < scanned.chiSquare)) scanned = { parameters, chiSquare };
+    if (valid(parameters) && (!scanned || chiSquare < scanned.chiSquare))
+      scanned = { parameters, chiSquare };
   }
   if (scanned) starts.push(scanned.parameters);
   if (options.start && valid(options.start)) starts.push(options.start.slice());
@@ -113,7 +131,8 @@ export function fitForwardHartmann(points: readonly ForwardHartmannPoint[], opti
         const r = (x[i] - valueAt(parameters, lambda[i])) / sigma[i];
         for (let j = 0; j < 4; j++) {
           gradient.set(j, 0, gradient.get(j, 0) + (g[j] / sigma[i]) * r);
-          for (let k = 0; k < 4; k++) normal.set(j, k, normal.get(j, k) + (g[j] * g[k]) / sigma[i] ** 2);
+          for (let k = 0; k < 4; k++)
+            normal.set(j, k, normal.get(j, k) + (g[j] * g[k]) / sigma[i] ** 2);
         }
       }
       for (let j = 0; j < 4; j++) normal.set(j, j, normal.get(j, j) * (1 + damping) + 1e-300);
@@ -142,7 +161,9 @@ export function fitForwardHartmann(points: readonly ForwardHartmannPoint[], opti
     throw new CalibrationError("fit-failed", "the forward Hartmann fit found no finite solution");
   }
   const { parameters, chiSquare } = best;
-  const covariance = jacobianCovariance(lambda.map((l, i) => row(parameters, l).map((g) => g / sigma[i])));
+  const covariance = jacobianCovariance(
+    lambda.map((l, i) => row(parameters, l).map((g) => g / sigma[i])),
+  );
   const dof = x.length - 4;
   const varianceFactor = dof > 0 ? Math.max(1, chiSquare / dof) : 1;
   let sumSquares = 0;
@@ -152,12 +173,14 @@ export function fitForwardHartmann(points: readonly ForwardHartmannPoint[], opti
     chiSquare,
     dof,
     rmsX: Math.sqrt(sumSquares / x.length),
-    predictX: (wavelengthNm) => (wavelengthNm > parameters[2] ? valueAt(parameters, wavelengthNm) : Number.NaN),
+    predictX: (wavelengthNm) =>
+      wavelengthNm > parameters[2] ? valueAt(parameters, wavelengthNm) : Number.NaN,
     predictionSigmaX: (wavelengthNm, peakSigmaX = 1) => {
       if (!(wavelengthNm > parameters[2])) return Number.NaN;
       const g = row(parameters, wavelengthNm);
       let variance = 0;
-      for (let j = 0; j < 4; j++) for (let k = 0; k < 4; k++) variance += g[j] * covariance[j][k] * g[k];
+      for (let j = 0; j < 4; j++)
+        for (let k = 0; k < 4; k++) variance += g[j] * covariance[j][k] * g[k];
       return Math.sqrt(varianceFactor * (variance + peakSigmaX ** 2));
     },
   };

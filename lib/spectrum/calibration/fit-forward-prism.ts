@@ -74,30 +74,49 @@ const MAX_AXIS_ANGLE_RAD = 0.5;
  * Fits x = a + b·(tan(δ(n_ref) − δ(n(λ)) + φ) − tan φ) for one glass (φ = 0 unless fitted); throws
  * CalibrationError when no geometry fits.
  */
-export function fitForwardPrism(points: readonly ForwardHartmannPoint[], glass: GlassName, options: FitForwardPrismOptions = {}): ForwardPrismFit {
+export function fitForwardPrism(
+  points: readonly ForwardHartmannPoint[],
+  glass: GlassName,
+  options: FitForwardPrismOptions = {},
+): ForwardPrismFit {
   const fitAxisAngle = options.fitAxisAngle ?? true;
   const parameterCount = fitAxisAngle ? 4 : 3;
   if (!Array.isArray(points) || points.length < parameterCount + 1) {
-    throw new RangeError(`points must hold at least ${parameterCount + 1} pairs (${parameterCount} parameters + 1), got ${points?.length}`);
+    throw new RangeError(
+      `points must hold at least ${parameterCount + 1} pairs (${parameterCount} parameters + 1), got ${points?.length}`,
+    );
   }
   const apexDeg = options.apexDeg ?? 60;
-  if (!(apexDeg > 0 && apexDeg < 90)) throw new RangeError(`apexDeg must be in (0, 90), got ${apexDeg}`);
+  if (!(apexDeg > 0 && apexDeg < 90))
+    throw new RangeError(`apexDeg must be in (0, 90), got ${apexDeg}`);
   const apexRad = apexDeg * DEG;
   const x = points.map((p) => p.x);
   const sigma = points.map((p) => p.xUncertainty ?? 1);
   const lambda = points.map((p) => p.wavelengthNm);
-  const referenceNm = options.referenceWavelengthNm ?? (Math.min(...lambda) + Math.max(...lambda)) / 2;
+  const referenceNm =
+    options.referenceWavelengthNm ?? (Math.min(...lambda) + Math.max(...lambda)) / 2;
   const nReference = indexOrNaN(glass, referenceNm);
   const nOfPair = lambda.map((l) => indexOrNaN(glass, l));
   if (!Number.isFinite(nReference) || !nOfPair.every(Number.isFinite)) {
-    throw new CalibrationError("fit-failed", `${glass}: a pair's wavelength lies beyond the glass's Sellmeier range`);
+    throw new CalibrationError(
+      "fit-failed",
+      `${glass}: a pair's wavelength lies beyond the glass's Sellmeier range`,
+    );
   }
-  const angleOf = (n: number, incidence: number, reference = prismDeviationRad(nReference, incidence, apexRad)) =>
-    reference - prismDeviationRad(n, incidence, apexRad);
-  const tangentOf = (n: number, incidence: number, axisAngle = 0) => cameraTangent(angleOf(n, incidence), axisAngle);
+  const angleOf = (
+    n: number,
+    incidence: number,
+    reference = prismDeviationRad(nReference, incidence, apexRad),
+  ) => reference - prismDeviationRad(n, incidence, apexRad);
+  const tangentOf = (n: number, incidence: number, axisAngle = 0) =>
+    cameraTangent(angleOf(n, incidence), axisAngle);
   /** The weighted straight line of x in u = tan(…) at one incidence: the profile of χ² over the incidence. */
   const profile = (incidence: number) => {
-    let sw = 0, su = 0, sx = 0, suu = 0, sux = 0;
+    let sw = 0,
+      su = 0,
+      sx = 0,
+      suu = 0,
+      sux = 0;
     const u: number[] = [];
     const reference = prismDeviationRad(nReference, incidence, apexRad);
     for (let i = 0; i < x.length; i++) {
@@ -105,7 +124,11 @@ export function fitForwardPrism(points: readonly ForwardHartmannPoint[], glass: 
       if (!Number.isFinite(value)) return { chiSquare: Infinity, a: 0, b: 0 };
       const w = 1 / sigma[i] ** 2;
       u.push(value);
-      sw += w; su += w * value; sx += w * x[i]; suu += w * value * value; sux += w * value * x[i];
+      sw += w;
+      su += w * value;
+      sx += w * x[i];
+      suu += w * value * value;
+      sux += w * value * x[i];
     }
     const determinant = sw * suu - su * su;
     if (!(determinant > 0)) return { chiSquare: Infinity, a: 0, b: 0 };
@@ -136,11 +159,15 @@ export function fitForwardPrism(points: readonly ForwardHartmannPoint[], glass: 
   // Growth refits nearly the same pairs many times: around the last incidence a few degrees suffice.
   const start = options.startIncidenceRad;
   let found = start !== undefined && Number.isFinite(start) ? scan(start, -3, 3) : null;
-  if (!found || !found.inside || !Number.isFinite(found.chiSquare)) found = scan(minimumDeviation, -25, 35);
+  if (!found || !found.inside || !Number.isFinite(found.chiSquare))
+    found = scan(minimumDeviation, -25, 35);
   const bestIncidence = found.incidence;
   const bestChiSquare = found.chiSquare;
   if (!Number.isFinite(bestChiSquare)) {
-    throw new CalibrationError("fit-failed", `${glass}: no prism geometry passes all the pairs' wavelengths`);
+    throw new CalibrationError(
+      "fit-failed",
+      `${glass}: no prism geometry passes all the pairs' wavelengths`,
+    );
   }
   const ratio = (Math.sqrt(5) - 1) / 2;
   let low = Math.max(bestIncidence - stepRad, 1e-3);
@@ -175,10 +202,12 @@ export function fitForwardPrism(points: readonly ForwardHartmannPoint[], glass: 
   const gradient = (parameters: readonly number[], n: number) => {
     const [incidence, b, , axisAngle = 0] = parameters;
     const angle = angleOf(n, incidence);
-    const slope = (tangentOf(n, incidence + h, axisAngle) - tangentOf(n, incidence - h, axisAngle)) / (2 * h);
+    const slope =
+      (tangentOf(n, incidence + h, axisAngle) - tangentOf(n, incidence - h, axisAngle)) / (2 * h);
     const row = [b * slope, cameraTangent(angle, axisAngle), 1];
     // d/dφ of tan(v + φ) − tan φ: the curvature the camera's tangent law adds away from its axis.
-    if (fitAxisAngle) row.push(b * (1 / Math.cos(angle + axisAngle) ** 2 - 1 / Math.cos(axisAngle) ** 2));
+    if (fitAxisAngle)
+      row.push(b * (1 / Math.cos(angle + axisAngle) ** 2 - 1 / Math.cos(axisAngle) ** 2));
     return row;
   };
   const valueAt = (parameters: readonly number[], n: number) =>
@@ -199,11 +228,16 @@ export function fitForwardPrism(points: readonly ForwardHartmannPoint[], glass: 
     for (let i = 0; i < count; i++) {
       const angle = angleOf(nOfPair[i], incidence);
       u[i] = cameraTangent(angle, axisAngle);
-      du[0][i] = (tangentOf(nOfPair[i], incidence + h, axisAngle) - tangentOf(nOfPair[i], incidence - h, axisAngle)) / (2 * h);
+      du[0][i] =
+        (tangentOf(nOfPair[i], incidence + h, axisAngle) -
+          tangentOf(nOfPair[i], incidence - h, axisAngle)) /
+        (2 * h);
       du[1][i] = 1 / Math.cos(angle + axisAngle) ** 2 - 1 / Math.cos(axisAngle) ** 2;
     }
     // Whitened columns of the line, c₁ = w and c₂ = w·u, and the projection onto their span.
-    let s11 = 0, s12 = 0, s22 = 0;
+    let s11 = 0,
+      s12 = 0,
+      s22 = 0;
     for (let i = 0; i < count; i++) {
       s11 += w[i] * w[i];
       s12 += w[i] * w[i] * u[i];
@@ -211,7 +245,8 @@ export function fitForwardPrism(points: readonly ForwardHartmannPoint[], glass: 
     }
     const determinant = s11 * s22 - s12 * s12;
     const residualOfProjection = (y: number[]) => {
-      let t1 = 0, t2 = 0;
+      let t1 = 0,
+        t2 = 0;
       for (let i = 0; i < count; i++) {
         t1 += w[i] * y[i];
         t2 += w[i] * u[i] * y[i];
@@ -224,16 +259,30 @@ export function fitForwardPrism(points: readonly ForwardHartmannPoint[], glass: 
     const b = line.beta;
     const columns = du.map((d) => residualOfProjection(d.map((value, i) => b * value * w[i])).rest);
     const chi = line.rest.reduce((sum, r) => sum + r * r, 0);
-    return { a: line.alpha, b, residual: line.rest, columns, chiSquare: determinant > 0 && Number.isFinite(chi) ? chi : Infinity };
+    return {
+      a: line.alpha,
+      b,
+      residual: line.rest,
+      columns,
+      chiSquare: determinant > 0 && Number.isFinite(chi) ? chi : Infinity,
+    };
   };
   const polishAxisAngle = (startIncidence: number) => {
     let incidence = startIncidence;
     let axisAngle = 0;
     let current = projected(incidence, axisAngle);
     let damping = 1e-6;
-    for (let iteration = 0; iteration < 60 && Number.isFinite(current.chiSquare) && damping < 1e10; iteration++) {
+    for (
+      let iteration = 0;
+      iteration < 60 && Number.isFinite(current.chiSquare) && damping < 1e10;
+      iteration++
+    ) {
       const [j0, j1] = current.columns;
-      let a00 = 0, a01 = 0, a11 = 0, g0 = 0, g1 = 0;
+      let a00 = 0,
+        a01 = 0,
+        a11 = 0,
+        g0 = 0,
+        g1 = 0;
       for (let i = 0; i < x.length; i++) {
         a00 += j0[i] * j0[i];
         a01 += j0[i] * j1[i];
@@ -252,7 +301,10 @@ export function fitForwardPrism(points: readonly ForwardHartmannPoint[], glass: 
       const step1 = (d00 * g1 - a01 * g0) / determinant;
       const nextIncidence = incidence + step0;
       const nextAxisAngle = axisAngle + step1;
-      const inside = nextIncidence > 1e-3 && nextIncidence < Math.PI / 2 - 1e-3 && Math.abs(nextAxisAngle) < MAX_AXIS_ANGLE_RAD;
+      const inside =
+        nextIncidence > 1e-3 &&
+        nextIncidence < Math.PI / 2 - 1e-3 &&
+        Math.abs(nextAxisAngle) < MAX_AXIS_ANGLE_RAD;
       const trial = inside ? projected(nextIncidence, nextAxisAngle) : undefined;
       if (trial && trial.chiSquare < current.chiSquare) {
         const converged = current.chiSquare - trial.chiSquare <= 1e-10 * current.chiSquare + 1e-14;
@@ -265,7 +317,10 @@ export function fitForwardPrism(points: readonly ForwardHartmannPoint[], glass: 
         damping *= 10;
       }
     }
-    return { parameters: [incidence, current.b, current.a, axisAngle], chiSquare: current.chiSquare };
+    return {
+      parameters: [incidence, current.b, current.a, axisAngle],
+      chiSquare: current.chiSquare,
+    };
   };
 
   let parameters = [scannedIncidence, scanned.b, scanned.a];
@@ -274,7 +329,9 @@ export function fitForwardPrism(points: readonly ForwardHartmannPoint[], glass: 
     const polished = polishAxisAngle(scannedIncidence);
     if (polished.chiSquare < chiSquare) ({ parameters, chiSquare } = polished);
   }
-  const covariance = jacobianCovariance(nOfPair.map((n, i) => gradient(parameters, n).map((g) => g / sigma[i])));
+  const covariance = jacobianCovariance(
+    nOfPair.map((n, i) => gradient(parameters, n).map((g) => g / sigma[i])),
+  );
   const dof = x.length - parameterCount;
   const varianceFactor = dof > 0 ? Math.max(1, chiSquare / dof) : 1;
   const predictX = (wavelengthNm: number) => valueAt(parameters, indexOrNaN(glass, wavelengthNm));
@@ -288,7 +345,8 @@ export function fitForwardPrism(points: readonly ForwardHartmannPoint[], glass: 
       const g = gradient(parameters, indexOrNaN(glass, wavelengthNm));
       if (!g.every(Number.isFinite)) return Number.NaN;
       let variance = 0;
-      for (let j = 0; j < parameterCount; j++) for (let k = 0; k < parameterCount; k++) variance += g[j] * covariance[j][k] * g[k];
+      for (let j = 0; j < parameterCount; j++)
+        for (let k = 0; k < parameterCount; k++) variance += g[j] * covariance[j][k] * g[k];
       return Math.sqrt(varianceFactor * (variance + peakSigmaX ** 2));
     },
   };

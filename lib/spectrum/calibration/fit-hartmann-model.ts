@@ -6,7 +6,12 @@ import { levenbergMarquardt } from "ml-levenberg-marquardt";
 import { CalibrationError } from "./calibration-error";
 import { jacobianCovariance } from "./jacobian-covariance";
 import type { HartmannCalibrationModel } from "./calibration-model";
-import { domainNormalisation, modelBase, type CovarianceScaling, type ModelFitInput } from "./model-fit-input";
+import {
+  domainNormalisation,
+  modelBase,
+  type CovarianceScaling,
+  type ModelFitInput,
+} from "./model-fit-input";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
 /** Closest the pole may come to the array's edge, in normalised units (keeps λ finite on the array). */
@@ -35,14 +40,23 @@ function scanPole(t: number[], y: number[], sigma: number[], side: 1 | -1) {
     const design = t.map((value) => [1, 1 / (side * (t0 - value))]);
     const solution = weightedLeastSquares(design, y, sigma);
     if (!best || solution.chiSquare < best.chiSquare) {
-      best = { parameters: [solution.parameters[0], solution.parameters[1], t0, 1], chiSquare: solution.chiSquare };
+      best = {
+        parameters: [solution.parameters[0], solution.parameters[1], t0, 1],
+        chiSquare: solution.chiSquare,
+      };
     }
   }
   return best!;
 }
 
 /** Levenberg–Marquardt on residuals divided by σ (passed as index → value so weights stay exact). */
-function refine(t: number[], y: number[], sigma: number[], side: 1 | -1, start: number[]): number[] {
+function refine(
+  t: number[],
+  y: number[],
+  sigma: number[],
+  side: 1 | -1,
+  start: number[],
+): number[] {
   const index = t.map((_, i) => i);
   const poleBound = side * (1 + POLE_MARGIN);
   const result = levenbergMarquardt(
@@ -50,7 +64,8 @@ function refine(t: number[], y: number[], sigma: number[], side: 1 | -1, start: 
     (parameters) => (i) => hartmann(parameters, side, t[i]) / sigma[i],
     {
       initialValues: start,
-      jacobianFunction: (parameters) => (i) => hartmannGradient(parameters, side, t[i]).map((g) => g / sigma[i]),
+      jacobianFunction: (parameters) => (i) =>
+        hartmannGradient(parameters, side, t[i]).map((g) => g / sigma[i]),
       minValues: [-1e12, -1e12, side > 0 ? poleBound : -1e9, ALPHA_LIMITS[0]],
       maxValues: [1e12, 1e12, side > 0 ? 1e9 : poleBound, ALPHA_LIMITS[1]],
       damping: 1e-3,
@@ -61,8 +76,17 @@ function refine(t: number[], y: number[], sigma: number[], side: 1 | -1, start: 
   return result.parameterValues;
 }
 
-function chiSquareOf(t: number[], y: number[], sigma: number[], side: 1 | -1, parameters: number[]): number {
-  return t.reduce((sum, value, i) => sum + ((y[i] - hartmann(parameters, side, value)) / sigma[i]) ** 2, 0);
+function chiSquareOf(
+  t: number[],
+  y: number[],
+  sigma: number[],
+  side: 1 | -1,
+  parameters: number[],
+): number {
+  return t.reduce(
+    (sum, value, i) => sum + ((y[i] - hartmann(parameters, side, value)) / sigma[i]) ** 2,
+    0,
+  );
 }
 
 /** Fits the Hartmann formula; σλ = σx·|dλ/dx| from the α = 1 start unless `uniformWeights`. */
@@ -81,7 +105,9 @@ export function fitHartmannModel(
     const start = scanPole(t, y, sigma, side);
     if (!uniformWeights) {
       // Convert σx into nm with the start's dispersion, then redo the start with those weights.
-      const slopes = t.map((value) => Math.abs(hartmannGradient(start.parameters, side, value)[2]) / halfRange);
+      const slopes = t.map(
+        (value) => Math.abs(hartmannGradient(start.parameters, side, value)[2]) / halfRange,
+      );
       const sigmaNm = input.xUncertainty.map((s, i) => s * Math.max(slopes[i], 1e-12));
       const again = scanPole(t, y, sigmaNm, side);
       const parameters = refine(t, y, sigmaNm, side, again.parameters);
@@ -98,7 +124,10 @@ export function fitHartmannModel(
   }
   const { side, parameters, chiSquare } = best!;
   if (!parameters.every(Number.isFinite)) {
-    throw new CalibrationError("fit-failed", "the Hartmann fit did not converge to finite parameters");
+    throw new CalibrationError(
+      "fit-failed",
+      "the Hartmann fit did not converge to finite parameters",
+    );
   }
   // Covariance from the final Jacobian: (JᵀWJ)⁻¹.
   const unscaledCovariance = jacobianCovariance(
@@ -108,6 +137,14 @@ export function fitHartmannModel(
   return {
     kind: "hartmann",
     poleSide: side,
-    ...modelBase(input, parameters, ["lambda0Nm", "cNm", "t0", "alpha"], unscaledCovariance, chiSquare, fitted, scaling),
+    ...modelBase(
+      input,
+      parameters,
+      ["lambda0Nm", "cNm", "t0", "alpha"],
+      unscaledCovariance,
+      chiSquare,
+      fitted,
+      scaling,
+    ),
   };
 }

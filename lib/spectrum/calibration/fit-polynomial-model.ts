@@ -1,6 +1,11 @@
 // Weighted polynomial fit of λ against normalised x: the grating calibration.
 import type { PolynomialCalibrationModel } from "./calibration-model";
-import { domainNormalisation, modelBase, type CovarianceScaling, type ModelFitInput } from "./model-fit-input";
+import {
+  domainNormalisation,
+  modelBase,
+  type CovarianceScaling,
+  type ModelFitInput,
+} from "./model-fit-input";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
 /** Fits λ(t) = Σ cₖ tᵏ; the x uncertainties become nm through the dispersion of a first pass. */
@@ -25,7 +30,9 @@ export function fitPolynomialModel(
     });
     solution = weightedLeastSquares(design, input.wavelengthNm, sigmaNm);
   }
-  const fitted = design.map((row) => row.reduce((sum, value, k) => sum + value * solution.parameters[k], 0));
+  const fitted = design.map((row) =>
+    row.reduce((sum, value, k) => sum + value * solution.parameters[k], 0),
+  );
   return {
     kind: "polynomial",
     degree,

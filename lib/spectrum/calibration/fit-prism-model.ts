@@ -24,7 +24,10 @@ export interface PrismFitSettings {
 }
 
 /** Fits the prism model of one glass; throws CalibrationError("fit-failed") when no geometry passes light. */
-export function fitPrismModel(input: ModelFitInput, settings: PrismFitSettings): PrismCalibrationModel {
+export function fitPrismModel(
+  input: ModelFitInput,
+  settings: PrismFitSettings,
+): PrismCalibrationModel {
   const { x, wavelengthNm, xUncertainty } = input;
   const low = Math.min(...wavelengthNm);
   const high = Math.max(...wavelengthNm);
@@ -37,13 +40,20 @@ export function fitPrismModel(input: ModelFitInput, settings: PrismFitSettings):
   // The forward fit with the apex as given is the start, and with the apex fixed it is already the
   // solution (same model, same χ² in x); only a fitted apex needs the full Levenberg–Marquardt below.
   const start = fitForwardPrism(
-    x.map((value, i) => ({ x: value, wavelengthNm: wavelengthNm[i], xUncertainty: xUncertainty[i] })),
+    x.map((value, i) => ({
+      x: value,
+      wavelengthNm: wavelengthNm[i],
+      xUncertainty: xUncertainty[i],
+    })),
     settings.glass,
     { apexDeg: settings.apexDeg, referenceWavelengthNm: referenceNm, fitAxisAngle },
   );
   const [startIncidence, startSlope, startAxis, startAxisAngle] = start.parameters;
   if (startSlope === 0) {
-    throw new CalibrationError("fit-failed", `${settings.glass}: no prism geometry passes all the pairs' wavelengths`);
+    throw new CalibrationError(
+      "fit-failed",
+      `${settings.glass}: no prism geometry passes all the pairs' wavelengths`,
+    );
   }
   const direction: 1 | -1 = startSlope > 0 ? 1 : -1;
   const initial = [startIncidence, Math.abs(startSlope), startAxis];
@@ -56,10 +66,13 @@ export function fitPrismModel(input: ModelFitInput, settings: PrismFitSettings):
   const nOfPair = wavelengthNm.map((lambda) => refractiveIndex(settings.glass, lambda));
   const tangentAt = (parameters: number[], i: number) => {
     const apex = fitApex ? parameters[apexIndex] : apexRad;
-    const angle = prismDeviationRad(nReference, parameters[0], apex) - prismDeviationRad(nOfPair[i], parameters[0], apex);
+    const angle =
+      prismDeviationRad(nReference, parameters[0], apex) -
+      prismDeviationRad(nOfPair[i], parameters[0], apex);
     return cameraTangent(angle, fitAxisAngle ? parameters[axisAngleIndex] : 0);
   };
-  const forward = (parameters: number[], i: number) => parameters[2] + direction * parameters[1] * tangentAt(parameters, i);
+  const forward = (parameters: number[], i: number) =>
+    parameters[2] + direction * parameters[1] * tangentAt(parameters, i);
   const gradient = (parameters: number[], i: number) => {
     const row = [0, direction * tangentAt(parameters, i), 1];
     const angular = (k: number) => {
@@ -97,7 +110,8 @@ export function fitPrismModel(input: ModelFitInput, settings: PrismFitSettings):
         },
         {
           initialValues: parameters,
-          jacobianFunction: (trial) => (i) => gradient(trial, i).map((g) => (Number.isFinite(g) ? g : 0) / xUncertainty[i]),
+          jacobianFunction: (trial) => (i) =>
+            gradient(trial, i).map((g) => (Number.isFinite(g) ? g : 0) / xUncertainty[i]),
           minValues,
           maxValues,
           damping: 1e-3,
@@ -130,9 +144,25 @@ export function fitPrismModel(input: ModelFitInput, settings: PrismFitSettings):
     ...(fitAxisAngle ? { axisAngleFitted: true } : {}),
     direction,
     referenceWavelengthNm: referenceNm,
-    ...modelBase(input, parameters, parameterNames, unscaledCovariance, chiSquare, wavelengthNm, settings.scaling),
+    ...modelBase(
+      input,
+      parameters,
+      parameterNames,
+      unscaledCovariance,
+      chiSquare,
+      wavelengthNm,
+      settings.scaling,
+    ),
   };
   const fitted = modelEvaluation(model, x).wavelengthNm;
-  const rebuilt = modelBase(input, parameters, parameterNames, unscaledCovariance, chiSquare, Array.from(fitted), settings.scaling);
+  const rebuilt = modelBase(
+    input,
+    parameters,
+    parameterNames,
+    unscaledCovariance,
+    chiSquare,
+    Array.from(fitted),
+    settings.scaling,
+  );
   return { ...model, rmsNm: rebuilt.rmsNm };
 }

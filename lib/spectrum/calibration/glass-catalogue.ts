@@ -79,7 +79,8 @@ export const GLASS_CATALOGUE = {
     b: [1.61625977, 0.259229334, 1.07762317],
     cUm2: [0.0127534559, 0.0581983954, 116.60768],
     validRangeNm: [380, 2500],
-    source: "SCHOTT optical glass catalogue, data sheet SF10 (the lead-containing SF10; from memory)",
+    source:
+      "SCHOTT optical glass catalogue, data sheet SF10 (the lead-containing SF10; from memory)",
   },
   "N-BAK4": {
     name: "N-BAK4",

@@ -79,11 +79,23 @@ function oneToOne(pairs: LampPair[]): LampPair[] {
  * then grow (the unpaired line nearest the paired range that passes the same test is added, refit,
  * repeat). Forced pairs are never removed. Returns the pairs sorted by x.
  */
-export function growLampPairs(context: PairingContext, corePairs: LampPair[], options: GrowLampPairsOptions = {}): LampPair[] {
-  const { windowSigma = 3, rivalIntensityRatio = 0.05, maxRounds = 4, maxDeltaAicc = 4, heightTolerance = 10 } = options;
+export function growLampPairs(
+  context: PairingContext,
+  corePairs: LampPair[],
+  options: GrowLampPairsOptions = {},
+): LampPair[] {
+  const {
+    windowSigma = 3,
+    rivalIntensityRatio = 0.05,
+    maxRounds = 4,
+    maxDeltaAicc = 4,
+    heightTolerance = 10,
+  } = options;
   if (!(windowSigma > 0)) throw new RangeError(`windowSigma must be positive, got ${windowSigma}`);
-  if (!(rivalIntensityRatio >= 0)) throw new RangeError(`rivalIntensityRatio must be ≥ 0, got ${rivalIntensityRatio}`);
-  if (!(heightTolerance >= 1)) throw new RangeError(`heightTolerance must be ≥ 1, got ${heightTolerance}`);
+  if (!(rivalIntensityRatio >= 0))
+    throw new RangeError(`rivalIntensityRatio must be ≥ 0, got ${rivalIntensityRatio}`);
+  if (!(heightTolerance >= 1))
+    throw new RangeError(`heightTolerance must be ≥ 1, got ${heightTolerance}`);
   const { peaks, lines, candidateLines, forced } = context;
   const forcedFirst = [
     ...corePairs.filter((p) => forced.get(p.peakIndex) === p.lineIndex),
@@ -95,17 +107,25 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
   // Without a measured width a blend cannot be told from a line (the outlier rejection is then the guard).
   const peakFwhm = (p: number) => peaks[p].fwhm;
   const isForced = (pair: LampPair) => forced.get(pair.peakIndex) === pair.lineIndex;
-  const bluestCandidateNm = Math.min(...candidateLines.map((l) => lines[l].wavelengthNm), ...pairs.map((p) => p.wavelengthNm));
+  const bluestCandidateNm = Math.min(
+    ...candidateLines.map((l) => lines[l].wavelengthNm),
+    ...pairs.map((p) => p.wavelengthNm),
+  );
 
   const [nominalLow, nominalHigh] = context.nominalRangeNm;
   const gLow = context.straighten(nominalLow);
   const gHigh = context.straighten(nominalHigh);
-  const normalised = (lambda: number) => (2 * (context.straighten(lambda) - gLow)) / (gHigh - gLow) - 1;
+  const normalised = (lambda: number) =>
+    (2 * (context.straighten(lambda) - gLow)) / (gHigh - gLow) - 1;
   /** x as a cubic in the straightened axis g(λ): a second, differently shaped model of the same pairs. */
   const cubicInStraightened = (subset: LampPair[]): ((lambda: number) => number) | null => {
     const design = subset.map((p) => [0, 1, 2, 3].map((k) => normalised(p.wavelengthNm) ** k));
     try {
-      const { parameters } = weightedLeastSquares(design, subset.map((p) => p.x), subset.map((p) => p.xUncertainty ?? 1));
+      const { parameters } = weightedLeastSquares(
+        design,
+        subset.map((p) => p.x),
+        subset.map((p) => p.xUncertainty ?? 1),
+      );
       return (lambda) => parameters.reduce((sum, a, k) => sum + a * normalised(lambda) ** k, 0);
     } catch {
       return null;
@@ -115,9 +135,14 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
   let start: number[] | undefined;
   // Each glass's last incidence: growth refits nearly the same pairs, and its search starts there.
   const incidenceStarts = new Map<GlassName, number>();
-  const glassFree = (subset: LampPair[]): { fit: ForwardHartmannFit; predictor: Predictor } | null => {
+  const glassFree = (
+    subset: LampPair[],
+  ): { fit: ForwardHartmannFit; predictor: Predictor } | null => {
     try {
-      const result = fitForwardHartmann(subset, { poleBelowNm: bluestCandidateNm, ...(start ? { start } : {}) });
+      const result = fitForwardHartmann(subset, {
+        poleBelowNm: bluestCandidateNm,
+        ...(start ? { start } : {}),
+      });
       start = result.parameters;
       const other = cubicInStraightened(subset);
       if (!other) return { fit: result, predictor: result };
@@ -128,7 +153,10 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
         predictor: {
           predictX: result.predictX,
           predictionSigmaX: (lambda: number, peakSigmaX?: number) =>
-            Math.hypot(result.predictionSigmaX(lambda, peakSigmaX), result.predictX(lambda) - other(lambda)),
+            Math.hypot(
+              result.predictionSigmaX(lambda, peakSigmaX),
+              result.predictX(lambda) - other(lambda),
+            ),
         },
       };
     } catch {
@@ -143,30 +171,43 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
     // strays slip into. The centred form is stiffer, and its bias (about a pixel at the far ends) stays
     // inside windows that the glass spread and the glass-free σ widen anyway; the final calibration
     // fits the axis angle.
-    const ensemble = fitGlassEnsemble(subset, { maxDeltaAicc, fitAxisAngle: false, incidenceStarts });
+    const ensemble = fitGlassEnsemble(subset, {
+      maxDeltaAicc,
+      fitAxisAngle: false,
+      incidenceStarts,
+    });
     if (!ensemble) return hartmann?.predictor ?? null;
     // The centred physical model has one parameter fewer; when no glass fits the pairs as well as the
     // glass-free form does, the instrument's glass is not among them and Hartmann predicts instead.
-    const hartmannAicc = hartmann ? informationCriteria(hartmann.fit.chiSquare, subset.length, 4).aicc : Infinity;
+    const hartmannAicc = hartmann
+      ? informationCriteria(hartmann.fit.chiSquare, subset.length, 4).aicc
+      : Infinity;
     if (ensemble.bestAicc > hartmannAicc + maxDeltaAicc) return hartmann!.predictor;
     const hartmannSigma = hartmann?.fit.predictionSigmaX;
     return {
       predictX: ensemble.predictX,
       predictionSigmaX: (lambda: number, peakSigmaX?: number) => {
         const glassFreeSigma = hartmannSigma ? hartmannSigma(lambda, peakSigmaX) : 0;
-        return Math.hypot(ensemble.predictionSigmaX(lambda, peakSigmaX), Number.isFinite(glassFreeSigma) ? glassFreeSigma : 0);
+        return Math.hypot(
+          ensemble.predictionSigmaX(lambda, peakSigmaX),
+          Number.isFinite(glassFreeSigma) ? glassFreeSigma : 0,
+        );
       },
     };
   };
   // Prune and grow ask about the same pair sets again and again (a pair left out, a round repeated).
   const fits = new Map<string, Predictor | null>();
   const fit = (subset: LampPair[]): Predictor | null => {
-    const key = subset.map((p) => `${p.peakIndex}:${p.lineIndex}`).sort().join();
+    const key = subset
+      .map((p) => `${p.peakIndex}:${p.lineIndex}`)
+      .sort()
+      .join();
     if (!fits.has(key)) fits.set(key, computeFit(subset));
     return fits.get(key)!;
   };
 
-  const heightBand = (current: LampPair[]) => lampHeightBand(current, peaks, lines, heightTolerance);
+  const heightBand = (current: LampPair[]) =>
+    lampHeightBand(current, peaks, lines, heightTolerance);
   const plausibleHeight = (line: number, peak: number, band: [number, number]) =>
     heightInBand(peaks[peak].height, lines[line].intensity, band);
 
@@ -175,19 +216,28 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
    * peak inside it, no rival line whose own window holds the peak, no neighbour line blended into
    * the peak, and a peak about as strong as the line should make it.
    */
-  const acceptable = (model: Predictor, line: number, peak: number, freePeaks: Set<number>, freeLines: Set<number>, band: [number, number]) => {
+  const acceptable = (
+    model: Predictor,
+    line: number,
+    peak: number,
+    freePeaks: Set<number>,
+    freeLines: Set<number>,
+    band: [number, number],
+  ) => {
     const lambda = lines[line].wavelengthNm;
     const predicted = model.predictX(lambda);
     const window = windowSigma * model.predictionSigmaX(lambda, peakSigma(peak));
     if (!(Math.abs(peaks[peak].x - predicted) <= window)) return false;
     if (!plausibleHeight(line, peak, band)) return false;
     const fwhmX = peakFwhm(peak);
-    if (fwhmX !== undefined && lampLineBlended(lines, candidateLines, line, model.predictX, fwhmX)) return false;
+    if (fwhmX !== undefined && lampLineBlended(lines, candidateLines, line, model.predictX, fwhmX))
+      return false;
     for (const other of freePeaks) {
       if (other !== peak && Math.abs(peaks[other].x - predicted) <= window) return false;
     }
     for (const rival of freeLines) {
-      if (rival === line || lines[rival].intensity < rivalIntensityRatio * lines[line].intensity) continue;
+      if (rival === line || lines[rival].intensity < rivalIntensityRatio * lines[line].intensity)
+        continue;
       const rivalLambda = lines[rival].wavelengthNm;
       const rivalX = model.predictX(rivalLambda);
       // A rival inside this line's window cannot be told from it by the model, whichever way the
@@ -203,7 +253,9 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
     const pairedLines = new Set(current.map((p) => p.lineIndex));
     const forcedLines = new Set(forced.values());
     return {
-      freePeaks: new Set(peaks.map((_, i) => i).filter((i) => !pairedPeaks.has(i) && !forced.has(i))),
+      freePeaks: new Set(
+        peaks.map((_, i) => i).filter((i) => !pairedPeaks.has(i) && !forced.has(i)),
+      ),
       freeLines: new Set(candidateLines.filter((l) => !pairedLines.has(l) && !forcedLines.has(l))),
     };
   };
@@ -220,9 +272,15 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
       const free = pairs.map((_, i) => i).filter((i) => !isForced(pairs[i]));
       const byX = free.slice().sort((a, b) => pairs[a].x - pairs[b].x);
       const misfit = (i: number) =>
-        Math.abs(pairs[i].x - whole.predictX(pairs[i].wavelengthNm)) / whole.predictionSigmaX(pairs[i].wavelengthNm, peakSigma(pairs[i].peakIndex));
-      const worstFitting = free.slice().sort((a, b) => misfit(b) - misfit(a) || a - b).slice(0, WORST_SUSPECTS);
-      const suspects = [...new Set([...byX.slice(0, 2), ...byX.slice(-2), ...worstFitting])].sort((a, b) => a - b);
+        Math.abs(pairs[i].x - whole.predictX(pairs[i].wavelengthNm)) /
+        whole.predictionSigmaX(pairs[i].wavelengthNm, peakSigma(pairs[i].peakIndex));
+      const worstFitting = free
+        .slice()
+        .sort((a, b) => misfit(b) - misfit(a) || a - b)
+        .slice(0, WORST_SUSPECTS);
+      const suspects = [...new Set([...byX.slice(0, 2), ...byX.slice(-2), ...worstFitting])].sort(
+        (a, b) => a - b,
+      );
       let worst: { index: number; z: number } | undefined;
       for (const i of suspects) {
         const rest = pairs.filter((_, k) => k !== i);
@@ -233,7 +291,9 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
         const sigma = model.predictionSigmaX(pair.wavelengthNm, peakSigma(pair.peakIndex));
         const z = Math.abs(pair.x - model.predictX(pair.wavelengthNm)) / sigma;
         // A pair with a rival is as doubtful as one far off: rank it just beyond the window.
-        const passes = Number.isFinite(z) && acceptable(model, pair.lineIndex, pair.peakIndex, freePeaks, freeLines, heightBand(rest));
+        const passes =
+          Number.isFinite(z) &&
+          acceptable(model, pair.lineIndex, pair.peakIndex, freePeaks, freeLines, heightBand(rest));
         const score = !Number.isFinite(z) ? Infinity : passes ? z : Math.max(z, windowSigma + 1e-9);
         if (!(score <= windowSigma) && (!worst || score > worst.z)) worst = { index: i, z: score };
       }
@@ -260,7 +320,8 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
       let accepted: LampPair | undefined;
       for (const { line, x } of order) {
         let nearest = -1;
-        for (const p of freePeaks) if (nearest < 0 || Math.abs(peaks[p].x - x) < Math.abs(peaks[nearest].x - x)) nearest = p;
+        for (const p of freePeaks)
+          if (nearest < 0 || Math.abs(peaks[p].x - x) < Math.abs(peaks[nearest].x - x)) nearest = p;
         if (nearest >= 0 && acceptable(model, line, nearest, freePeaks, freeLines, band)) {
           accepted = toLampPair(context, nearest, line);
           break;
@@ -273,10 +334,19 @@ export function growLampPairs(context: PairingContext, corePairs: LampPair[], op
   };
 
   for (let round = 0; round < maxRounds; round++) {
-    const before = pairs.map((p) => `${p.peakIndex}:${p.lineIndex}`).sort().join();
+    const before = pairs
+      .map((p) => `${p.peakIndex}:${p.lineIndex}`)
+      .sort()
+      .join();
     prune();
     grow();
-    if (pairs.map((p) => `${p.peakIndex}:${p.lineIndex}`).sort().join() === before) break;
+    if (
+      pairs
+        .map((p) => `${p.peakIndex}:${p.lineIndex}`)
+        .sort()
+        .join() === before
+    )
+      break;
   }
   return pairs.sort((a, b) => a.x - b.x);
 }

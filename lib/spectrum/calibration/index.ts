@@ -1,5 +1,10 @@
 // Public API of the wavelength calibration stage: glass catalogue, models, fitting and lamp pairing.
-export { GLASS_CATALOGUE, GLASS_NAMES, type GlassName, type SellmeierGlass } from "./glass-catalogue";
+export {
+  GLASS_CATALOGUE,
+  GLASS_NAMES,
+  type GlassName,
+  type SellmeierGlass,
+} from "./glass-catalogue";
 export { refractiveIndex } from "./refractive-index";
 export { CalibrationError, type CalibrationErrorCode } from "./calibration-error";
 export type {
@@ -18,7 +23,11 @@ export { calibrationUncertainty } from "./calibration-uncertainty";
 export { dispersionAt } from "./dispersion-at";
 export { calibrationRangeWarnings } from "./calibration-range-warnings";
 export { assertMonotonicCalibration } from "./assert-monotonic-calibration";
-export { fitCalibration, type FitCalibrationOptions, type FitCalibrationResult } from "./fit-calibration";
+export {
+  fitCalibration,
+  type FitCalibrationOptions,
+  type FitCalibrationResult,
+} from "./fit-calibration";
 export { informationCriteria, type InformationCriteria } from "./information-criteria";
 export {
   compareCalibrationModels,
@@ -28,8 +37,18 @@ export {
 } from "./compare-calibration-models";
 export { autoPairLampPeaks, type AutoPairLampPeaksOptions } from "./auto-pair-lamp-peaks";
 export { pairManually, type ManualSeedPair, type PairManuallyOptions } from "./pair-manually";
-export type { LampLine, LampPair, LampPairingOptions, LampPairingResult, LampPeak } from "./lamp-pairing-types";
-export { calibrationDoubts, type CalibrationDoubtsFit, type CalibrationDoubtsOptions } from "./calibration-doubts";
+export type {
+  LampLine,
+  LampPair,
+  LampPairingOptions,
+  LampPairingResult,
+  LampPeak,
+} from "./lamp-pairing-types";
+export {
+  calibrationDoubts,
+  type CalibrationDoubtsFit,
+  type CalibrationDoubtsOptions,
+} from "./calibration-doubts";
 export {
   UNPAIRED_REACH_FWHM,
   unpairedLampPeaks,
@@ -40,5 +59,9 @@ export {
   type UnpairedPeakReason,
   type UnpairedPeakReasonCode,
 } from "./unpaired-lamp-peaks";
-export { CALIBRATION_MODELS, calibrationModelChoice, type CalibrationModelChoice } from "./calibration-model-choice";
+export {
+  CALIBRATION_MODELS,
+  calibrationModelChoice,
+  type CalibrationModelChoice,
+} from "./calibration-model-choice";
 export { calibrationDrift, type CalibrationDrift } from "./calibration-drift";

@@ -25,7 +25,6 @@ export interface LampLineBlendedOptions {
   minIntensityRatio?: number;
 }
 
-
 /**
  * True when a neighbour among `candidates` would pull the centre of `line`'s peak by more than
  * maxPullFwhm·fwhmX, the pull taken as separation × I_neighbour / (I_line + I_neighbour) (the

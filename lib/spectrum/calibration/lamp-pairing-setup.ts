@@ -18,7 +18,10 @@ const RANGE_MARGIN = 0.1;
  * which its dispersion is a straight line — several times stronger in the blue than in the red.
  */
 export function hartmannPoleOfGlass(glass: GlassName, rangeNm: [number, number]): number {
-  const samples = Array.from({ length: 24 }, (_, i) => rangeNm[0] + ((rangeNm[1] - rangeNm[0]) * i) / 23);
+  const samples = Array.from(
+    { length: 24 },
+    (_, i) => rangeNm[0] + ((rangeNm[1] - rangeNm[0]) * i) / 23,
+  );
   const n = samples.map((lambda) => refractiveIndex(GLASS_CATALOGUE[glass], lambda));
   let best = { pole: 0, error: Infinity };
   for (let i = 0; i < 200; i++) {
@@ -45,7 +48,10 @@ export function hartmannPoleOfGlass(glass: GlassName, rangeNm: [number, number])
  * that glass is nearly straight, deviation's own curvature included (a dense flint's exit angle grows
  * steeply in the blue, which no n(λ)-only straightening follows).
  */
-export function nominalPrismShape(glass: GlassName, rangeNm: [number, number]): (lambda: number) => number {
+export function nominalPrismShape(
+  glass: GlassName,
+  rangeNm: [number, number],
+): (lambda: number) => number {
   const apexRad = Math.PI / 3;
   const middle = Math.sqrt(rangeNm[0] * rangeNm[1]);
   const nMiddle = refractiveIndex(GLASS_CATALOGUE[glass], middle);
@@ -62,7 +68,10 @@ export function nominalPrismShape(glass: GlassName, rangeNm: [number, number]): 
 }
 
 /** The straightening axes g(λ) to try for a dispersion kind (or a forced straight line). */
-export function hypothesisShapes(dispersion: DispersionKind | "linear", rangeNm: [number, number]): ((lambda: number) => number)[] {
+export function hypothesisShapes(
+  dispersion: DispersionKind | "linear",
+  rangeNm: [number, number],
+): ((lambda: number) => number)[] {
   if (dispersion !== "prism") return [(lambda) => lambda];
   // A glass is evaluated only where it has no resonance (N-SF11's lies near 249.6 nm): a range reaching
   // further into the ultraviolet is served by the glasses that do.
@@ -85,8 +94,13 @@ export function hypothesisShapes(dispersion: DispersionKind | "linear", rangeNm:
   // 50–90 tolerances of curvature: seen on N-SF11 in the sweep), and the nearest glass is the best
   // first guess for one outside the catalogue.
   const byStrength = valid.slice().sort((a, b) => strength(a) - strength(b));
-  const ordered = valid.includes("N-BK7") ? ["N-BK7" as GlassName, ...byStrength.filter((g) => g !== "N-BK7")] : byStrength;
-  const sampled = Array.from({ length: 33 }, (_, i) => evaluated[0] + ((1.1 * high - evaluated[0]) * i) / 32);
+  const ordered = valid.includes("N-BK7")
+    ? ["N-BK7" as GlassName, ...byStrength.filter((g) => g !== "N-BK7")]
+    : byStrength;
+  const sampled = Array.from(
+    { length: 33 },
+    (_, i) => evaluated[0] + ((1.1 * high - evaluated[0]) * i) / 32,
+  );
   const shapes = ordered
     .map((glass) => nominalPrismShape(glass, [low, high]))
     .filter((shape) => sampled.every((lambda) => Number.isFinite(shape(lambda))));
@@ -110,24 +124,44 @@ export function pairingContext(
   options: LampPairingOptions,
   forced: Map<number, number> = new Map(),
 ): PairingContext {
-  if (!Array.isArray(peaks) || !Array.isArray(lines)) throw new RangeError("peaks and lines must be arrays");
-  assertFiniteArray(peaks.map((p) => p.x), "peaks.x");
-  assertFiniteArray(peaks.map((p) => p.height), "peaks.height");
-  assertFiniteArray(lines.map((l) => l.wavelengthNm), "lines.wavelengthNm");
-  assertFiniteArray(lines.map((l) => l.intensity), "lines.intensity");
+  if (!Array.isArray(peaks) || !Array.isArray(lines))
+    throw new RangeError("peaks and lines must be arrays");
+  assertFiniteArray(
+    peaks.map((p) => p.x),
+    "peaks.x",
+  );
+  assertFiniteArray(
+    peaks.map((p) => p.height),
+    "peaks.height",
+  );
+  assertFiniteArray(
+    lines.map((l) => l.wavelengthNm),
+    "lines.wavelengthNm",
+  );
+  assertFiniteArray(
+    lines.map((l) => l.intensity),
+    "lines.intensity",
+  );
   assertDomain(options.domain, "options.domain");
   assertDomain(options.nominalRangeNm, "options.nominalRangeNm");
   if (options.dispersion !== "grating" && options.dispersion !== "prism") {
-    throw new RangeError(`options.dispersion must be "grating" or "prism", got ${String(options.dispersion)}`);
+    throw new RangeError(
+      `options.dispersion must be "grating" or "prism", got ${String(options.dispersion)}`,
+    );
   }
   const [low, high] = options.nominalRangeNm;
   const span = high - low;
   const resolutionNm = options.resolutionNm ?? span / 500;
-  if (!(resolutionNm > 0)) throw new RangeError(`options.resolutionNm must be positive, got ${resolutionNm}`);
+  if (!(resolutionNm > 0))
+    throw new RangeError(`options.resolutionNm must be positive, got ${resolutionNm}`);
   const minConfidence = options.minConfidence ?? 0.35;
   const candidateLines = lines
     .map((_, i) => i)
-    .filter((i) => lines[i].wavelengthNm >= low - RANGE_MARGIN * span && lines[i].wavelengthNm <= high + RANGE_MARGIN * span);
+    .filter(
+      (i) =>
+        lines[i].wavelengthNm >= low - RANGE_MARGIN * span &&
+        lines[i].wavelengthNm <= high + RANGE_MARGIN * span,
+    );
   const meanDispersion = span / (options.domain[1] - options.domain[0]);
   return {
     peaks,

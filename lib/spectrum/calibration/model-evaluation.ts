@@ -14,7 +14,10 @@ export interface ModelEvaluation {
 }
 
 /** Geometry of a stored prism model with the given parameter vector. */
-export function prismGeometryOf(model: PrismCalibrationModel, parameters = model.parameters): PrismGeometry {
+export function prismGeometryOf(
+  model: PrismCalibrationModel,
+  parameters = model.parameters,
+): PrismGeometry {
   return {
     glass: model.glass,
     incidenceRad: parameters[0],
@@ -28,7 +31,11 @@ export function prismGeometryOf(model: PrismCalibrationModel, parameters = model
 }
 
 /** Evaluates `model` at every x. */
-export function modelEvaluation(model: CalibrationModel, x: ArrayLike<number>, withJacobian = false): ModelEvaluation {
+export function modelEvaluation(
+  model: CalibrationModel,
+  x: ArrayLike<number>,
+  withJacobian = false,
+): ModelEvaluation {
   const count = x.length;
   const parameterCount = model.parameters.length;
   const wavelengthNm = new Float64Array(count);
@@ -36,7 +43,10 @@ export function modelEvaluation(model: CalibrationModel, x: ArrayLike<number>, w
   const jacobian = withJacobian ? new Float64Array(count * parameterCount) : undefined;
   const { centre, halfRange } = model.xNormalisation;
   if (!(halfRange > 0) || model.covariance.length !== parameterCount) {
-    throw new CalibrationError("invalid-model", "calibration model has an invalid normalisation or covariance");
+    throw new CalibrationError(
+      "invalid-model",
+      "calibration model has an invalid normalisation or covariance",
+    );
   }
 
   switch (model.kind) {
@@ -95,7 +105,8 @@ export function modelEvaluation(model: CalibrationModel, x: ArrayLike<number>, w
         }
         const step = 1e-4 * lambda;
         const dxdLambda =
-          (prismForwardX(geometry, lambda + step) - prismForwardX(geometry, lambda - step)) / (2 * step);
+          (prismForwardX(geometry, lambda + step) - prismForwardX(geometry, lambda - step)) /
+          (2 * step);
         dispersion[i] = 1 / dxdLambda;
         if (jacobian) {
           // Implicit function: x(λ(p), p) = x fixed ⇒ ∂λ/∂p = −(∂x/∂p)/(∂x/∂λ).
@@ -106,7 +117,8 @@ export function modelEvaluation(model: CalibrationModel, x: ArrayLike<number>, w
             up[k] += h;
             down[k] -= h;
             const dxdp =
-              (prismForwardX(prismGeometryOf(model, up), lambda) - prismForwardX(prismGeometryOf(model, down), lambda)) /
+              (prismForwardX(prismGeometryOf(model, up), lambda) -
+                prismForwardX(prismGeometryOf(model, down), lambda)) /
               (2 * h);
             jacobian[i * parameterCount + k] = -dxdp / dxdLambda;
           }
@@ -115,7 +127,10 @@ export function modelEvaluation(model: CalibrationModel, x: ArrayLike<number>, w
       break;
     }
     default:
-      throw new CalibrationError("invalid-model", `unknown calibration kind "${(model as { kind: string }).kind}"`);
+      throw new CalibrationError(
+        "invalid-model",
+        `unknown calibration kind "${(model as { kind: string }).kind}"`,
+      );
   }
   return { wavelengthNm, dispersion, jacobian };
 }

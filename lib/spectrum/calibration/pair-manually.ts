@@ -2,7 +2,13 @@
 // automatic pairing is not trusted and the override when the chemist knows better.
 import { Matrix, solve } from "ml-matrix";
 import { hypothesisShapes, pairingContext } from "./lamp-pairing-setup";
-import type { LampLine, LampPair, LampPairingOptions, LampPairingResult, LampPeak } from "./lamp-pairing-types";
+import type {
+  LampLine,
+  LampPair,
+  LampPairingOptions,
+  LampPairingResult,
+  LampPeak,
+} from "./lamp-pairing-types";
 import { refineLampPairing } from "./refine-lamp-pairing";
 
 /** One pair picked by hand: a peak and a line, by their indices in the arrays given. */
@@ -14,7 +20,10 @@ export interface ManualSeedPair {
 export type PairManuallyOptions = LampPairingOptions;
 
 /** First guess x(λ) through the seeds: a line in g(λ) for two, a parabola (grating) or α = 1 Hartmann (prism) for three. */
-function seedPrediction(seeds: { x: number; lambda: number }[], options: LampPairingOptions): ((lambda: number) => number)[] {
+function seedPrediction(
+  seeds: { x: number; lambda: number }[],
+  options: LampPairingOptions,
+): ((lambda: number) => number)[] {
   if (seeds.length === 2) {
     return hypothesisShapes(options.dispersion, options.nominalRangeNm).map((g) => {
       const b = (seeds[1].x - seeds[0].x) / (g(seeds[1].lambda) - g(seeds[0].lambda));
@@ -27,7 +36,10 @@ function seedPrediction(seeds: { x: number; lambda: number }[], options: LampPai
       new Matrix(seeds.map((s) => [1, s.lambda, s.lambda ** 2])),
       Matrix.columnVector(seeds.map((s) => s.x)),
     ).getColumn(0);
-    return [(lambda: number) => coefficients[0] + coefficients[1] * lambda + coefficients[2] * lambda ** 2];
+    return [
+      (lambda: number) =>
+        coefficients[0] + coefficients[1] * lambda + coefficients[2] * lambda ** 2,
+    ];
   }
   // λ(x0 − x) = λ0(x0 − x) + c is linear in (x0, λ0, u = λ0·x0 + c): x0·λ + λ0·x − u = λ·x.
   const [x0, lambda0, u] = solve(
@@ -61,8 +73,12 @@ export function pairManually(
     throw new RangeError("seedPairs must not repeat a peak or a line");
   }
   const context = pairingContext(peaks, lines, options, forced);
-  for (const l of forced.values()) if (!context.candidateLines.includes(l)) context.candidateLines.push(l);
-  const seeds = seedPairs.map((s) => ({ x: peaks[s.peakIndex].x, lambda: lines[s.lineIndex].wavelengthNm }));
+  for (const l of forced.values())
+    if (!context.candidateLines.includes(l)) context.candidateLines.push(l);
+  const seeds = seedPairs.map((s) => ({
+    x: peaks[s.peakIndex].x,
+    lambda: lines[s.lineIndex].wavelengthNm,
+  }));
 
   let result: LampPairingResult | undefined;
   for (const predict of seedPrediction(seeds, options)) {
@@ -74,15 +90,30 @@ export function pairManually(
       if (!(x >= context.domain[0] && x <= context.domain[1])) continue;
       let nearest = -1;
       peaks.forEach((peak, p) => {
-        if (!taken.has(p) && (nearest < 0 || Math.abs(peak.x - x) < Math.abs(peaks[nearest].x - x))) nearest = p;
+        if (!taken.has(p) && (nearest < 0 || Math.abs(peak.x - x) < Math.abs(peaks[nearest].x - x)))
+          nearest = p;
       });
       if (nearest >= 0 && Math.abs(peaks[nearest].x - x) <= 6 * context.toleranceX) {
         taken.add(nearest);
-        initial.push({ x: peaks[nearest].x, wavelengthNm: lines[l].wavelengthNm, species: lines[l].species, lineId: lines[l].id, peakIndex: nearest, lineIndex: l });
+        initial.push({
+          x: peaks[nearest].x,
+          wavelengthNm: lines[l].wavelengthNm,
+          species: lines[l].species,
+          lineId: lines[l].id,
+          peakIndex: nearest,
+          lineIndex: l,
+        });
       }
     }
     for (const [p, l] of forced) {
-      initial.push({ x: peaks[p].x, wavelengthNm: lines[l].wavelengthNm, species: lines[l].species, lineId: lines[l].id, peakIndex: p, lineIndex: l });
+      initial.push({
+        x: peaks[p].x,
+        wavelengthNm: lines[l].wavelengthNm,
+        species: lines[l].species,
+        lineId: lines[l].id,
+        peakIndex: p,
+        lineIndex: l,
+      });
     }
     const attempt = refineLampPairing(context, initial);
     if (!result || attempt.confidence > result.confidence) result = attempt;

@@ -57,7 +57,12 @@ export function prismForwardX(geometry: PrismGeometry, wavelengthNm: number): nu
   const deviation = prismDeviationRad(n, geometry.incidenceRad, geometry.apexRad);
   const deviationRef = prismDeviationRad(nRef, geometry.incidenceRad, geometry.apexRad);
   // Red light is deviated less, so δref − δ grows with λ and `direction` says which way x runs.
-  return geometry.axisX + geometry.direction * geometry.focalX * cameraTangent(deviationRef - deviation, geometry.axisAngleRad);
+  return (
+    geometry.axisX +
+    geometry.direction *
+      geometry.focalX *
+      cameraTangent(deviationRef - deviation, geometry.axisAngleRad)
+  );
 }
 
 /** The wavelength span over which the inverse is searched, nm. */
@@ -68,7 +73,10 @@ const GRID_POINTS = 400;
  * λ(x) for each x by inverting prismForwardX; NaN for an x the forward model never reaches on the
  * search range (200–2500 nm, clipped to where the glass's formula and the ray exist).
  */
-export function prismInverseWavelengths(geometry: PrismGeometry, x: ArrayLike<number>): Float64Array {
+export function prismInverseWavelengths(
+  geometry: PrismGeometry,
+  x: ArrayLike<number>,
+): Float64Array {
   // Tabulate x(λ) on a grid even in 1/λ (where prism dispersion is roughly uniform) to bracket each root.
   const gridNm: number[] = [];
   const gridX: number[] = [];
@@ -104,7 +112,9 @@ export function prismInverseWavelengths(geometry: PrismGeometry, x: ArrayLike<nu
     for (let iteration = 0; iteration < 40; iteration++) {
       const f = prismForwardX(geometry, lambda) - target;
       const step = 1e-4 * lambda;
-      const slope = (prismForwardX(geometry, lambda + step) - prismForwardX(geometry, lambda - step)) / (2 * step);
+      const slope =
+        (prismForwardX(geometry, lambda + step) - prismForwardX(geometry, lambda - step)) /
+        (2 * step);
       const fA = prismForwardX(geometry, a) - target;
       if (Math.sign(f) === Math.sign(fA)) a = lambda;
       else b = lambda;

@@ -1,7 +1,11 @@
 // The refinement both pairing entry points share: from a first guess of where each line falls, match
 // lines with peaks, fit, match again with the fit at a tighter tolerance, and judge the result.
 import type { DispersionKind } from "../types";
-import { fitCalibration, type FitCalibrationOptions, type FitCalibrationResult } from "./fit-calibration";
+import {
+  fitCalibration,
+  type FitCalibrationOptions,
+  type FitCalibrationResult,
+} from "./fit-calibration";
 import { informationCriteria } from "./information-criteria";
 import type { LampLine, LampPair, LampPairingResult, LampPeak } from "./lamp-pairing-types";
 import type { CalibrationModel } from "./calibration-model";
@@ -53,7 +57,11 @@ export interface PairingContext {
  * Pairs each candidate line with the nearest peak to its predicted x; a peak keeps its closest line. A
  * line blended with a neighbour into one peak is left out: the peak's centre belongs to neither.
  */
-function matchByPrediction(context: PairingContext, predictX: (lambda: number) => number, toleranceX: number): LampPair[] {
+function matchByPrediction(
+  context: PairingContext,
+  predictX: (lambda: number) => number,
+  toleranceX: number,
+): LampPair[] {
   const { peaks, lines, candidateLines, forced } = context;
   const order = peaks.map((_, i) => i).sort((a, b) => peaks[a].x - peaks[b].x);
   const sortedX = order.map((i) => peaks[i].x);
@@ -79,7 +87,8 @@ function matchByPrediction(context: PairingContext, predictX: (lambda: number) =
       if (forced.has(p) || distanceX > toleranceX) continue;
       // Without a measured width a blend cannot be told from a line (the outlier rejection is then the guard).
       const fwhmX = peaks[p].fwhm;
-      if (fwhmX !== undefined && lampLineBlended(lines, candidateLines, l, placedX, fwhmX)) continue;
+      if (fwhmX !== undefined && lampLineBlended(lines, candidateLines, l, placedX, fwhmX))
+        continue;
       const current = best.get(p);
       if (!current || distanceX < current.distanceX) best.set(p, { line: l, distanceX });
     }
@@ -95,15 +104,25 @@ function matchByPrediction(context: PairingContext, predictX: (lambda: number) =
  * linear least squares, fast, and flexible enough for a strongly curved prism, where the Hartmann
  * formula over a wide range is off by several pixels in the blue.
  */
-function forwardFit(context: PairingContext, pairs: LampPair[], degree: number): ((lambda: number) => number) | null {
+function forwardFit(
+  context: PairingContext,
+  pairs: LampPair[],
+  degree: number,
+): ((lambda: number) => number) | null {
   const [low, high] = context.nominalRangeNm;
   const g = context.straighten;
   const gLow = g(low);
   const gHigh = g(high);
   const normalised = (lambda: number) => (2 * (g(lambda) - gLow)) / (gHigh - gLow) - 1;
-  const design = pairs.map((p) => Array.from({ length: degree + 1 }, (_, k) => normalised(p.wavelengthNm) ** k));
+  const design = pairs.map((p) =>
+    Array.from({ length: degree + 1 }, (_, k) => normalised(p.wavelengthNm) ** k),
+  );
   try {
-    const { parameters } = weightedLeastSquares(design, pairs.map((p) => p.x), pairs.map((p) => p.xUncertainty ?? 1));
+    const { parameters } = weightedLeastSquares(
+      design,
+      pairs.map((p) => p.x),
+      pairs.map((p) => p.xUncertainty ?? 1),
+    );
     return (lambda: number) => {
       const u = normalised(lambda);
       return parameters.reduce((sum, a, k) => sum + a * u ** k, 0);
@@ -114,7 +133,11 @@ function forwardFit(context: PairingContext, pairs: LampPair[], degree: number):
 }
 
 /** The final models of a recalibration: the previous calibration's family first, a polynomial as fallback. */
-function previousFamily(previous: CalibrationModel, dispersion: DispersionKind, n: number): FitCalibrationOptions[] {
+function previousFamily(
+  previous: CalibrationModel,
+  dispersion: DispersionKind,
+  n: number,
+): FitCalibrationOptions[] {
   // A grating's dispersion is a cubic at most; more freedom only lets noisy end pairs bend it. Beyond a
   // quadratic, three pairs to spare per parameter.
   const highest = Math.max(1, Math.min(dispersion === "prism" ? 5 : 3, n - 4));
@@ -136,13 +159,24 @@ function finalFit(context: PairingContext, pairs: LampPair[]): FitCalibrationRes
     context.previousModel !== undefined
       ? previousFamily(context.previousModel, context.dispersion, n)
       : context.dispersion === "prism"
-      ? [{ model: "prism" }, { model: "hartmann" }, { model: "polynomial", degree: Math.min(5, n - 2) }]
-      : [{ model: "polynomial", degree: n >= 10 ? 3 : n >= 6 ? 2 : 1 }, { model: "polynomial", degree: 1 }];
+        ? [
+            { model: "prism" },
+            { model: "hartmann" },
+            { model: "polynomial", degree: Math.min(5, n - 2) },
+          ]
+        : [
+            { model: "polynomial", degree: n >= 10 ? 3 : n >= 6 ? 2 : 1 },
+            { model: "polynomial", degree: 1 },
+          ];
   let best: { fit: FitCalibrationResult; aicc: number } | undefined;
   for (const options of attempts) {
     try {
       const fit = fitCalibration(pairs, { ...options, domain: context.domain, rejectOutliers });
-      const { aicc } = informationCriteria(fit.model.chiSquare, fit.model.pairCount, fit.model.parameters.length);
+      const { aicc } = informationCriteria(
+        fit.model.chiSquare,
+        fit.model.pairCount,
+        fit.model.parameters.length,
+      );
       if (!best || aicc < best.aicc) best = { fit, aicc };
       // Over a wide range a strongly dispersing prism defeats Hartmann and polynomials alike (errors of
       // nm at the ends), so the physical model is kept whenever it fits; the others are fallbacks.
@@ -177,7 +211,10 @@ export function refineLampPairs(context: PairingContext, initialPairs: LampPair[
     pairs = matchByPrediction(context, predictX, schedule[stage] * context.toleranceX);
     const check = pairs.length > degree + 1 ? forwardFit(context, pairs, degree) : null;
     rmsX = check
-      ? Math.sqrt(pairs.reduce((s, p) => s + (p.x - check(p.wavelengthNm)) ** 2, 0) / (pairs.length - degree - 1))
+      ? Math.sqrt(
+          pairs.reduce((s, p) => s + (p.x - check(p.wavelengthNm)) ** 2, 0) /
+            (pairs.length - degree - 1),
+        )
       : Infinity;
   }
   const precision = Math.min(Math.max(1 - (2 * rmsX) / context.toleranceX, 0), 1);
@@ -190,8 +227,12 @@ function inverseOf(context: PairingContext, fit: FitCalibrationResult): (lambda:
 }
 
 /** Fits the final calibration to refined pairs, re-matches once with it, and judges the result. */
-export function finishLampPairing(context: PairingContext, refined: RefinedPairing): LampPairingResult {
-  if (context.dispersion === "prism" && context.previousModel === undefined) return finishPrismPairing(context, refined);
+export function finishLampPairing(
+  context: PairingContext,
+  refined: RefinedPairing,
+): LampPairingResult {
+  if (context.dispersion === "prism" && context.previousModel === undefined)
+    return finishPrismPairing(context, refined);
   let { pairs } = refined;
   let fit = pairs.length >= 3 ? finalFit(context, pairs) : null;
   if (fit) {
@@ -199,7 +240,10 @@ export function finishLampPairing(context: PairingContext, refined: RefinedPairi
     // where few lines pinned the latter; one more matching pass with it repairs pairs made there.
     const rematched = matchByPrediction(context, inverseOf(context, fit), context.toleranceX);
     const refit = rematched.length >= 3 ? finalFit(context, rematched) : null;
-    if (refit && refit.pairs.filter((p) => p.used).length >= fit.pairs.filter((p) => p.used).length) {
+    if (
+      refit &&
+      refit.pairs.filter((p) => p.used).length >= fit.pairs.filter((p) => p.used).length
+    ) {
       pairs = rematched;
       fit = refit;
     }
@@ -207,7 +251,10 @@ export function finishLampPairing(context: PairingContext, refined: RefinedPairi
   const usedPairs = fit ? pairs.filter((_, i) => fit!.pairs[i].used) : [];
   const forward = usedPairs.length > 5 ? forwardFit(context, usedPairs, 3) : null;
   const rmsX = forward
-    ? Math.sqrt(usedPairs.reduce((s, p) => s + (p.x - forward(p.wavelengthNm)) ** 2, 0) / (usedPairs.length - 4))
+    ? Math.sqrt(
+        usedPairs.reduce((s, p) => s + (p.x - forward(p.wavelengthNm)) ** 2, 0) /
+          (usedPairs.length - 4),
+      )
     : refined.rmsX;
   return withCheckedEnds(context, judge(context, usedPairs, fit, rmsX));
 }
@@ -231,19 +278,37 @@ function finishPrismPairing(context: PairingContext, refined: RefinedPairing): L
   }
   let fit: FitCalibrationResult | null = null;
   try {
-    const prism = fitCalibration(pairs, { model: "prism", domain: context.domain, rejectOutliers: false });
-    const prismAicc = informationCriteria(prism.model.chiSquare, pairs.length, prism.model.parameters.length).aicc;
-    const hartmannAicc = forward ? informationCriteria(forward.chiSquare, pairs.length, 4).aicc : Infinity;
+    const prism = fitCalibration(pairs, {
+      model: "prism",
+      domain: context.domain,
+      rejectOutliers: false,
+    });
+    const prismAicc = informationCriteria(
+      prism.model.chiSquare,
+      pairs.length,
+      prism.model.parameters.length,
+    ).aicc;
+    const hartmannAicc = forward
+      ? informationCriteria(forward.chiSquare, pairs.length, 4).aicc
+      : Infinity;
     if (prismAicc <= hartmannAicc && prism.model.kind === "prism") {
       fit = rejectOutliers
-        ? fitCalibration(pairs, { model: "prism", glass: prism.model.glass, domain: context.domain, rejectOutliers })
+        ? fitCalibration(pairs, {
+            model: "prism",
+            glass: prism.model.glass,
+            domain: context.domain,
+            rejectOutliers,
+          })
         : prism;
     }
   } catch {
     // Any failed attempt (a CalibrationError, or a singular system from degenerate pairs) only means
     // this model does not fit these pairs.
   }
-  for (const options of [{ model: "hartmann" as const }, { model: "polynomial" as const, degree: Math.min(5, pairs.length - 2) }]) {
+  for (const options of [
+    { model: "hartmann" as const },
+    { model: "polynomial" as const, degree: Math.min(5, pairs.length - 2) },
+  ]) {
     if (fit) break;
     try {
       fit = fitCalibration(pairs, { ...options, domain: context.domain, rejectOutliers });
@@ -263,7 +328,8 @@ function finishPrismPairing(context: PairingContext, refined: RefinedPairing): L
  */
 function withCheckedEnds(context: PairingContext, result: LampPairingResult): LampPairingResult {
   const fwhmX = typicalPeakFwhm(context.peaks);
-  if (result.status !== "paired" || !result.model || context.forced.size > 0 || fwhmX === undefined) return result;
+  if (result.status !== "paired" || !result.model || context.forced.size > 0 || fwhmX === undefined)
+    return result;
   const { pairs, fit, trimmed } = trimPulledEnds(result.pairs, result.model, context.domain, fwhmX);
   if (trimmed.length === 0) return result;
   const setAside = new Set(trimmed.map((p) => p.peakIndex));
@@ -319,12 +385,20 @@ function describePairs(pairs: readonly LampPair[]): string {
 }
 
 /** Judges a final fit of `pairs`: its used pairs, and its precision in x (residuals through the local dispersion). */
-function judgeFitted(context: PairingContext, pairs: LampPair[], fit: FitCalibrationResult): LampPairingResult {
+function judgeFitted(
+  context: PairingContext,
+  pairs: LampPair[],
+  fit: FitCalibrationResult,
+): LampPairingResult {
   const usedPairs = pairs.filter((_, i) => fit.pairs[i].used);
-  const dispersion = modelEvaluation(fit.model, usedPairs.map((p) => p.x)).dispersion;
+  const dispersion = modelEvaluation(
+    fit.model,
+    usedPairs.map((p) => p.x),
+  ).dispersion;
   const usedFitted = fit.pairs.filter((p) => p.used);
   const rmsX = Math.sqrt(
-    usedFitted.reduce((s, p, i) => s + (p.residualNm / dispersion[i]) ** 2, 0) / Math.max(usedFitted.length - fit.model.parameters.length, 1),
+    usedFitted.reduce((s, p, i) => s + (p.residualNm / dispersion[i]) ** 2, 0) /
+      Math.max(usedFitted.length - fit.model.parameters.length, 1),
   );
   return withCheckedEnds(context, judge(context, usedPairs, fit, rmsX));
 }
@@ -346,10 +420,18 @@ export function finishGrownPairing(context: PairingContext, pairs: LampPair[]): 
     ];
     for (const options of attempts) {
       try {
-        const candidate = fitCalibration(pairs, { ...options, domain: context.domain, rejectOutliers: true });
+        const candidate = fitCalibration(pairs, {
+          ...options,
+          domain: context.domain,
+          rejectOutliers: true,
+        });
         const used = candidate.pairs.filter((p) => p.used).length;
         // Compared on the same pairs only: a fit that set pairs aside is judged by what it kept, so it must keep them all to compete.
-        const { aicc } = informationCriteria(candidate.model.chiSquare, candidate.model.pairCount, candidate.model.parameters.length);
+        const { aicc } = informationCriteria(
+          candidate.model.chiSquare,
+          candidate.model.pairCount,
+          candidate.model.parameters.length,
+        );
         const penalised = used === pairs.length ? aicc : aicc + 10 * (pairs.length - used);
         if (penalised < bestAicc) [fit, bestAicc] = [candidate, penalised];
       } catch {
@@ -364,7 +446,10 @@ export function finishGrownPairing(context: PairingContext, pairs: LampPair[]): 
 }
 
 /** Refines and finishes in one go. */
-export function refineLampPairing(context: PairingContext, initialPairs: LampPair[]): LampPairingResult {
+export function refineLampPairing(
+  context: PairingContext,
+  initialPairs: LampPair[],
+): LampPairingResult {
   return finishLampPairing(context, refineLampPairs(context, initialPairs));
 }
 
@@ -377,10 +462,18 @@ function withoutPairsBeyondGap(
   context: PairingContext,
   pairs: LampPair[],
   verdict: PairingVerdict,
-): { pairs: LampPair[]; fit: FitCalibrationResult; verdict: PairingVerdict; aside: LampPair[] } | null {
+): {
+  pairs: LampPair[];
+  fit: FitCalibrationResult;
+  verdict: PairingVerdict;
+  aside: LampPair[];
+} | null {
   if (!verdict.beyondGap) return null;
   const aside = new Set(verdict.beyondGap);
-  const rest = refitAndVerify(context, pairs.filter((p) => !aside.has(p)));
+  const rest = refitAndVerify(
+    context,
+    pairs.filter((p) => !aside.has(p)),
+  );
   return rest?.verdict.passed ? { ...rest, aside: [...aside] } : null;
 }
 
@@ -406,7 +499,12 @@ const CHANCE_CONFIDENCE = 0.1;
 /** At most this many pairs are dropped on the leave-one-out check before a pairing is reported for checking. */
 const MAX_LOO_DROPS = 2;
 
-function judge(context: PairingContext, givenPairs: LampPair[], givenFit: FitCalibrationResult | null, rmsX: number): LampPairingResult {
+function judge(
+  context: PairingContext,
+  givenPairs: LampPair[],
+  givenFit: FitCalibrationResult | null,
+  rmsX: number,
+): LampPairingResult {
   let pairs = givenPairs;
   let fit = givenFit;
   const { peaks, lines, candidateLines } = context;
@@ -421,20 +519,29 @@ function judge(context: PairingContext, givenPairs: LampPair[], givenFit: FitCal
     // against the pairing; the lines' width is the peaks' typical one.
     const xOf = placedOnce(inverseOf(context, fit));
     const fwhmX = typicalPeakFwhm(peaks);
-    const blended = (l: number) => fwhmX !== undefined && lampLineBlended(lines, candidateLines, l, xOf, fwhmX);
-    const inRange = candidateLines.filter((l) => lines[l].wavelengthNm >= low && lines[l].wavelengthNm <= high);
+    const blended = (l: number) =>
+      fwhmX !== undefined && lampLineBlended(lines, candidateLines, l, xOf, fwhmX);
+    const inRange = candidateLines.filter(
+      (l) => lines[l].wavelengthNm >= low && lines[l].wavelengthNm <= high,
+    );
     const blendedX = inRange.filter(blended).map((l) => xOf(lines[l].wavelengthNm));
     const onArray = inRange
       .filter((l) => !blended(l))
       .sort((a, b) => lines[b].intensity - lines[a].intensity);
     const strongestLines = onArray.slice(0, Math.max(1, Math.min(peaks.length, onArray.length)));
-    const lineFraction = strongestLines.length > 0 ? strongestLines.filter((l) => pairedLines.has(l)).length / strongestLines.length : 0;
+    const lineFraction =
+      strongestLines.length > 0
+        ? strongestLines.filter((l) => pairedLines.has(l)).length / strongestLines.length
+        : 0;
     const strongestPeaks = peaks
       .map((_, i) => i)
       .filter((i) => pairedPeaks.has(i) || !blendedX.some((x) => Math.abs(peaks[i].x - x) < fwhmX!))
       .sort((a, b) => peaks[b].height - peaks[a].height)
       .slice(0, Math.min(10, peaks.length));
-    const peakFraction = strongestPeaks.length > 0 ? strongestPeaks.filter((p) => pairedPeaks.has(p)).length / strongestPeaks.length : 0;
+    const peakFraction =
+      strongestPeaks.length > 0
+        ? strongestPeaks.filter((p) => pairedPeaks.has(p)).length / strongestPeaks.length
+        : 0;
     const parameters = fit.model.parameters.length;
     const pairFactor = 1 - Math.exp(-Math.max(pairs.length - parameters, 0) / 4);
     const precision = Math.min(Math.max(1 - (2 * rmsX) / context.toleranceX, 0), 1);
@@ -442,13 +549,23 @@ function judge(context: PairingContext, givenPairs: LampPair[], givenFit: FitCal
   }
   // An automatic pairing must also pass the checks that a wrong pairing with a small RMS fails; a
   // manual one (forced seeds) is the person's choice and is only fitted.
-  let verdict = fit && context.forced.size === 0 && pairs.length >= 3 ? verifyLampPairing(context, pairs, fit) : null;
+  let verdict =
+    fit && context.forced.size === 0 && pairs.length >= 3
+      ? verifyLampPairing(context, pairs, fit)
+      : null;
   // A pair that the others put elsewhere (a stray peak next to a missing line) is dropped and the rest
   // refitted and checked again, a few times at most; a pairing that needs more is not trusted.
   let trial = { pairs, fit, verdict };
-  for (let round = 0; round < MAX_LOO_DROPS && trial.verdict && !trial.verdict.passed && trial.verdict.looOutlier; round++) {
+  for (
+    let round = 0;
+    round < MAX_LOO_DROPS && trial.verdict && !trial.verdict.passed && trial.verdict.looOutlier;
+    round++
+  ) {
     const outlier = trial.verdict.looOutlier;
-    const rest = refitAndVerify(context, trial.pairs.filter((p) => p !== outlier));
+    const rest = refitAndVerify(
+      context,
+      trial.pairs.filter((p) => p !== outlier),
+    );
     if (!rest) break;
     trial = rest;
   }
@@ -479,7 +596,9 @@ function judge(context: PairingContext, givenPairs: LampPair[], givenFit: FitCal
   const reasons = verdict ? verdict.checks.filter((c) => !c.passed).map((c) => c.reason) : [];
   const paired = status === "paired";
   const unmatchedPeaks = paired ? peaks.filter((_, i) => !pairedPeaks.has(i)) : peaks.slice();
-  const unmatchedLines = candidateLines.filter((l) => !paired || !pairedLines.has(l)).map((l) => lines[l]);
+  const unmatchedLines = candidateLines
+    .filter((l) => !paired || !pairedLines.has(l))
+    .map((l) => lines[l]);
   return {
     status,
     ...(verdict ? { checks: verdict.checks } : {}),

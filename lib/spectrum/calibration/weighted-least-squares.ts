@@ -12,7 +12,11 @@ export interface LeastSquaresSolution {
 }
 
 /** Minimises Σ ((yᵢ − Σⱼ Aᵢⱼ pⱼ)/σᵢ)² for design rows A, observations y and 1σ uncertainties σ. */
-export function weightedLeastSquares(design: number[][], y: number[], sigma: number[]): LeastSquaresSolution {
+export function weightedLeastSquares(
+  design: number[][],
+  y: number[],
+  sigma: number[],
+): LeastSquaresSolution {
   const rows = design.length;
   const columns = design[0]?.length ?? 0;
   const weighted = new Matrix(rows, columns);
@@ -23,7 +27,10 @@ export function weightedLeastSquares(design: number[][], y: number[], sigma: num
   }
   const qr = new QrDecomposition(weighted);
   if (!qr.isFullRank()) {
-    throw new CalibrationError("fit-failed", "the pairs do not determine the model (rank-deficient design)");
+    throw new CalibrationError(
+      "fit-failed",
+      "the pairs do not determine the model (rank-deficient design)",
+    );
   }
   const solution = qr.solve(rhs).getColumn(0);
   let chiSquare = 0;

@@ -16,7 +16,10 @@ export interface CountCurvatureMinimaOptions {
  * Each line component makes its own negative lobe in the second derivative, even when it has no
  * maximum of its own (a shoulder), so the count of significant minima is a component count.
  */
-export function countCurvatureMinima(curvature: Float64Array, options: CountCurvatureMinimaOptions): number {
+export function countCurvatureMinima(
+  curvature: Float64Array,
+  options: CountCurvatureMinimaOptions,
+): number {
   const { threshold } = options;
   const start = Math.max(0, options.start);
   const end = Math.min(curvature.length - 1, options.end);

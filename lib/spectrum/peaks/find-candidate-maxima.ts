@@ -35,7 +35,8 @@ export function findCandidateMaxima(
   const { signal, slope } = data;
   const { minHeight = 0, minDip = 0 } = options;
   const n = signal.length;
-  if (slope.length !== n) throw new RangeError(`slope and signal differ in length (${slope.length} vs ${n})`);
+  if (slope.length !== n)
+    throw new RangeError(`slope and signal differ in length (${slope.length} vs ${n})`);
   for (const [name, value] of Object.entries({ minHeight, minDip })) {
     if (typeof value !== "number" && value.length !== n) {
       throw new RangeError(`${name} and signal differ in length (${value.length} vs ${n})`);

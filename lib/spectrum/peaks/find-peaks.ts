@@ -10,8 +10,19 @@ export interface FindPeaksOptions extends PrepareSignalOptions, PickPeaksOptions
  * wavelength axis, uniform or not). To show the continuum-removed data as well, call
  * prepareSignal and pickPeaks separately; this is exactly their composition.
  */
-export function findPeaks(x: Float64Array, y: Float64Array, options: FindPeaksOptions = {}): Peak[] {
-  const { minSnr, minDipSnr, blendSeparationFwhm, areaHalfWidthFwhm, shoulderSnr, ...prepare } = options;
+export function findPeaks(
+  x: Float64Array,
+  y: Float64Array,
+  options: FindPeaksOptions = {},
+): Peak[] {
+  const { minSnr, minDipSnr, blendSeparationFwhm, areaHalfWidthFwhm, shoulderSnr, ...prepare } =
+    options;
   const signal = prepareSignal(x, y, prepare);
-  return pickPeaks(x, signal, { minSnr, minDipSnr, blendSeparationFwhm, areaHalfWidthFwhm, shoulderSnr });
+  return pickPeaks(x, signal, {
+    minSnr,
+    minDipSnr,
+    blendSeparationFwhm,
+    areaHalfWidthFwhm,
+    shoulderSnr,
+  });
 }

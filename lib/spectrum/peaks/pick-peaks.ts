@@ -73,41 +73,77 @@ export interface PickPeaksOptions {
  *   (see shapeSuggestsBlend);
  * - area: trapezoid integral over centre ± areaHalfWidthFwhm·FWHM.
  */
-export function pickPeaks(x: Float64Array, signal: PreparedSignal, options: PickPeaksOptions = {}): Peak[] {
-  const { minSnr = 5, minDipSnr = 3, blendSeparationFwhm = 1, areaHalfWidthFwhm = 1.5, shoulderSnr = 5 } = options;
-  for (const [name, value] of Object.entries({ minSnr, minDipSnr, blendSeparationFwhm, areaHalfWidthFwhm, shoulderSnr })) {
-    if (!(value >= 0) || !Number.isFinite(value)) throw new RangeError(`${name} must be a non-negative number (got ${value})`);
+export function pickPeaks(
+  x: Float64Array,
+  signal: PreparedSignal,
+  options: PickPeaksOptions = {},
+): Peak[] {
+  const {
+    minSnr = 5,
+    minDipSnr = 3,
+    blendSeparationFwhm = 1,
+    areaHalfWidthFwhm = 1.5,
+    shoulderSnr = 5,
+  } = options;
+  for (const [name, value] of Object.entries({
+    minSnr,
+    minDipSnr,
+    blendSeparationFwhm,
+    areaHalfWidthFwhm,
+    shoulderSnr,
+  })) {
+    if (!(value >= 0) || !Number.isFinite(value))
+      throw new RangeError(`${name} must be a non-negative number (got ${value})`);
   }
   const { corrected: s, noise, noiseProfile, saturatedRanges, smoothing } = signal;
   const n = s.length;
-  if (x.length !== n) throw new RangeError(`x and the prepared signal differ in length (${x.length} vs ${n})`);
+  if (x.length !== n)
+    throw new RangeError(`x and the prepared signal differ in length (${x.length} vs ${n})`);
   if (noiseProfile && noiseProfile.length !== n) {
-    throw new RangeError(`noiseProfile and the prepared signal differ in length (${noiseProfile.length} vs ${n})`);
+    throw new RangeError(
+      `noiseProfile and the prepared signal differ in length (${noiseProfile.length} vs ${n})`,
+    );
   }
   const noiseAt = (i: number) => (noiseProfile ? noiseProfile[i] : noise);
 
-  const curvatureWindow = largestOddWindow(Math.max(11, (smoothing ? smoothing.windowSize : 5) + 4), n);
+  const curvatureWindow = largestOddWindow(
+    Math.max(11, (smoothing ? smoothing.windowSize : 5) + 4),
+    n,
+  );
   // Tops are the smoothed signal's own local maxima (central differences): a slope fitted over
   // several samples is dragged by a strong neighbour's flank and never turns on a line 2–3 samples
   // wide a few widths away. Noise wiggles are merged by the dip test below, not by this slope.
   const slope = new Float64Array(n);
   for (let i = 1; i < n - 1; i++) slope[i] = s[i + 1] - s[i - 1];
   const curvature = savitzkyGolay(s, { windowSize: curvatureWindow, polynomial: 2, derivative: 2 });
-  const curvatureWeights = savitzkyGolayCoefficients({ windowSize: curvatureWindow, polynomial: 2, derivative: 2 });
+  const curvatureWeights = savitzkyGolayCoefficients({
+    windowSize: curvatureWindow,
+    polynomial: 2,
+    derivative: 2,
+  });
   // Curvature noise per unit raw σ: through the curvature weights (the prior smoothing only lowers it further).
   const curvatureGain = Math.sqrt(curvatureWeights.reduce((sum, w) => sum + w * w, 0));
   const smoothingWeights = smoothing
-    ? savitzkyGolayCoefficients({ windowSize: smoothing.windowSize, polynomial: smoothing.polynomial })
+    ? savitzkyGolayCoefficients({
+        windowSize: smoothing.windowSize,
+        polynomial: smoothing.polynomial,
+      })
     : Float64Array.of(1);
 
   const candidates = findCandidateMaxima(
     { signal: s, slope },
     noiseProfile
-      ? { minHeight: noiseProfile.map((v) => minSnr * v), minDip: noiseProfile.map((v) => minDipSnr * v) }
+      ? {
+          minHeight: noiseProfile.map((v) => minSnr * v),
+          minDip: noiseProfile.map((v) => minDipSnr * v),
+        }
       : { minHeight: minSnr * noise, minDip: minDipSnr * noise },
   );
   const { tops, valleys } = smoothing
-    ? dropSmoothingRinging(candidates, s, { reach: smoothing.windowSize, fraction: RINGING_FRACTION })
+    ? dropSmoothingRinging(candidates, s, {
+        reach: smoothing.windowSize,
+        fraction: RINGING_FRACTION,
+      })
     : candidates;
 
   const peaks: Peak[] = [];
@@ -122,17 +158,24 @@ export function pickPeaks(x: Float64Array, signal: PreparedSignal, options: Pick
     const top = fitPeakTop(s, { index: k });
     let centre = k + top.offset;
     let height = top.height;
-    const { left, right } = halfHeightCrossings(s, { index: k, level: height / 2, leftLimit, rightLimit });
+    const { left, right } = halfHeightCrossings(s, {
+      index: k,
+      level: height / 2,
+      leftLimit,
+      rightLimit,
+    });
 
     const spanStart = Math.floor(left ?? k - 1);
     const spanEnd = Math.ceil(right ?? k + 1);
-    while (rangeCursor < saturatedRanges.length && saturatedRanges[rangeCursor].end < spanStart) rangeCursor++;
+    while (rangeCursor < saturatedRanges.length && saturatedRanges[rangeCursor].end < spanStart)
+      rangeCursor++;
     const clipped =
       rangeCursor < saturatedRanges.length && saturatedRanges[rangeCursor].start <= spanEnd
         ? saturatedRanges[rangeCursor]
         : null;
     if (clipped) {
-      centre = left !== null && right !== null ? (left + right) / 2 : (clipped.start + clipped.end) / 2;
+      centre =
+        left !== null && right !== null ? (left + right) / 2 : (clipped.start + clipped.end) / 2;
       // The smoothing rings at the corners of a clipped top; its middle holds the clip level.
       height = Math.min(height, s[Math.round((clipped.start + clipped.end) / 2)]);
     }
@@ -170,7 +213,20 @@ export function pickPeaks(x: Float64Array, signal: PreparedSignal, options: Pick
     let area = 0;
     for (let i = areaStart; i < areaEnd; i++) area += 0.5 * (s[i] + s[i + 1]) * (x[i + 1] - x[i]);
 
-    if (!clipped && left !== null && right !== null && shapeSuggestsBlend(s, { index: k, top, left, right, noise: localNoise, smoothingWeights, centreNoise: centreNoiseSamples })) {
+    if (
+      !clipped &&
+      left !== null &&
+      right !== null &&
+      shapeSuggestsBlend(s, {
+        index: k,
+        top,
+        left,
+        right,
+        noise: localNoise,
+        smoothingWeights,
+        centreNoise: centreNoiseSamples,
+      })
+    ) {
       blended = true;
     }
     // A shoulder must also stand above the smoothing's ringing, a few parts in a thousand of the top.
@@ -178,13 +234,23 @@ export function pickPeaks(x: Float64Array, signal: PreparedSignal, options: Pick
       shoulderSnr * curvatureGain * localNoise,
       smoothing ? RINGING_FRACTION * Math.abs(curvature[k]) : 0,
     );
-    if (!clipped && countCurvatureMinima(curvature, { start: areaStart, end: areaEnd, threshold: shoulderThreshold }) >= 2) {
+    if (
+      !clipped &&
+      countCurvatureMinima(curvature, {
+        start: areaStart,
+        end: areaEnd,
+        threshold: shoulderThreshold,
+      }) >= 2
+    ) {
       blended = true;
     }
 
     const spacing = 0.5 * (x[k + 1] - x[k - 1]);
     const snr = height / localNoise;
-    let xUncertainty = Math.max(centreNoiseSamples * spacing, gaussianCentreBound({ fwhm, spacing, snr }));
+    let xUncertainty = Math.max(
+      centreNoiseSamples * spacing,
+      gaussianCentreBound({ fwhm, spacing, snr }),
+    );
     if (!Number.isFinite(xUncertainty)) xUncertainty = fwhm;
     // A (nearly) noise-free peak still has a centre known only to the sampling's numerical precision;
     // a zero uncertainty would make every later tolerance zero.
@@ -217,7 +283,11 @@ export function pickPeaks(x: Float64Array, signal: PreparedSignal, options: Pick
 }
 
 /** σ of the three-point centre, in samples: Σ over raw samples of (Σ_m gradient_m · weight)², times σ². */
-function propagatedCentreNoise(gradient: [number, number, number], weights: Float64Array, noise: number): number {
+function propagatedCentreNoise(
+  gradient: [number, number, number],
+  weights: Float64Array,
+  noise: number,
+): number {
   const w = weights.length;
   const combined = new Float64Array(w + 2);
   for (let m = 0; m < 3; m++) {

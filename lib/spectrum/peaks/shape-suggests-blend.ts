@@ -37,8 +37,20 @@ const MIN_ASYMMETRY = 0.03;
  * `significance` σ, or (Gaussian fits only) the top's log-curvature × FWHM² is under FLAT_TOP_LIMIT
  * and `significance` σ below the Gaussian value.
  */
-export function shapeSuggestsBlend(signal: Float64Array, options: ShapeSuggestsBlendOptions): boolean {
-  const { index, top, left, right, noise, smoothingWeights, centreNoise, significance = 3 } = options;
+export function shapeSuggestsBlend(
+  signal: Float64Array,
+  options: ShapeSuggestsBlendOptions,
+): boolean {
+  const {
+    index,
+    top,
+    left,
+    right,
+    noise,
+    smoothingWeights,
+    centreNoise,
+    significance = 3,
+  } = options;
   if (top.method === "flat") return false;
   const smoothedNoise = noise * Math.sqrt(smoothingWeights.reduce((sum, w) => sum + w * w, 0));
   const fwhm = right - left;
@@ -51,7 +63,10 @@ export function shapeSuggestsBlend(signal: Float64Array, options: ShapeSuggestsB
   };
   const midpointNoise = 0.5 * Math.hypot(crossingNoise(left), crossingNoise(right));
   const offCentre = Math.abs((left + right) / 2 - centre);
-  if (offCentre > MIN_ASYMMETRY * fwhm && offCentre > significance * Math.hypot(midpointNoise, centreNoise)) {
+  if (
+    offCentre > MIN_ASYMMETRY * fwhm &&
+    offCentre > significance * Math.hypot(midpointNoise, centreNoise)
+  ) {
     return true;
   }
 
@@ -61,6 +76,7 @@ export function shapeSuggestsBlend(signal: Float64Array, options: ShapeSuggestsB
   const c = signal[index + 1];
   const flatness = -(Math.log(a) - 2 * Math.log(b) + Math.log(c)) * fwhm * fwhm;
   // σ of a − 2b + c on the log scale, neglecting the smoothing's correlation between neighbours.
-  const flatnessNoise = smoothedNoise * Math.sqrt(1 / (a * a) + 4 / (b * b) + 1 / (c * c)) * fwhm * fwhm;
+  const flatnessNoise =
+    smoothedNoise * Math.sqrt(1 / (a * a) + 4 / (b * b) + 1 / (c * c)) * fwhm * fwhm;
   return flatness < FLAT_TOP_LIMIT && GAUSSIAN_FLATNESS - flatness > significance * flatnessNoise;
 }

@@ -28,11 +28,16 @@ export interface AsymmetricLeastSquaresOptions {
  * Minimises Σ wᵢ(yᵢ − zᵢ)² + λ Σ (Δ²zᵢ)² by repeated weighted Whittaker smoothing, each solve
  * being a pentadiagonal system, so the whole baseline costs O(n · iterations).
  */
-export function asymmetricLeastSquares(y: Float64Array, options: AsymmetricLeastSquaresOptions = {}): Float64Array {
+export function asymmetricLeastSquares(
+  y: Float64Array,
+  options: AsymmetricLeastSquaresOptions = {},
+): Float64Array {
   const { lambda = 1e6, asymmetry = 0.01, maxIterations = 10 } = options;
   assertFiniteArray(y, "y", 3);
-  if (!Number.isFinite(lambda) || lambda <= 0) throw new RangeError(`lambda must be positive (got ${lambda})`);
-  if (!(asymmetry > 0 && asymmetry < 0.5)) throw new RangeError(`asymmetry must lie in (0, 0.5) (got ${asymmetry})`);
+  if (!Number.isFinite(lambda) || lambda <= 0)
+    throw new RangeError(`lambda must be positive (got ${lambda})`);
+  if (!(asymmetry > 0 && asymmetry < 0.5))
+    throw new RangeError(`asymmetry must lie in (0, 0.5) (got ${asymmetry})`);
   assertIntegerInRange(maxIterations, "maxIterations", 1);
 
   const n = y.length;

@@ -19,8 +19,10 @@ export function binSamples(
   options: BinSamplesOptions = {},
 ): { x: Float64Array; y: Float64Array } {
   const { factor = 1 } = options;
-  if (!Number.isInteger(factor) || factor < 1) throw new RangeError(`factor must be a positive integer, got ${factor}`);
-  if (x.length !== y.length) throw new RangeError(`x and y must have the same length (${x.length} ≠ ${y.length})`);
+  if (!Number.isInteger(factor) || factor < 1)
+    throw new RangeError(`factor must be a positive integer, got ${factor}`);
+  if (x.length !== y.length)
+    throw new RangeError(`x and y must have the same length (${x.length} ≠ ${y.length})`);
   assertFiniteArray(x, "x");
   assertFiniteArray(y, "y");
   assertStrictlyIncreasing(x, "x");

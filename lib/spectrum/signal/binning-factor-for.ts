@@ -8,6 +8,7 @@
  */
 export function binningFactorFor(resolutionSamples: number, samplesPerFwhm = 6): number {
   if (!(resolutionSamples > 0) || !Number.isFinite(resolutionSamples)) return 1;
-  if (!(samplesPerFwhm > 0)) throw new RangeError(`samplesPerFwhm must be positive, got ${samplesPerFwhm}`);
+  if (!(samplesPerFwhm > 0))
+    throw new RangeError(`samplesPerFwhm must be positive, got ${samplesPerFwhm}`);
   return Math.max(1, Math.floor(resolutionSamples / samplesPerFwhm));
 }

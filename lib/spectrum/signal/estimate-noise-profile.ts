@@ -50,14 +50,21 @@ export function estimateNoiseProfile(
   level: Float64Array,
   options: EstimateNoiseProfileOptions = {},
 ): Float64Array | null {
-  const { blockSize: requestedBlockSize = 64, minBlocks = 8, maxBlocks = 256, minSpread = 1.25 } = options;
+  const {
+    blockSize: requestedBlockSize = 64,
+    minBlocks = 8,
+    maxBlocks = 256,
+    minSpread = 1.25,
+  } = options;
   assertFiniteArray(y, "y", 3);
   assertFiniteArray(level, "level", 3);
-  if (level.length !== y.length) throw new RangeError(`y and level differ in length (${y.length} vs ${level.length})`);
+  if (level.length !== y.length)
+    throw new RangeError(`y and level differ in length (${y.length} vs ${level.length})`);
   assertIntegerInRange(requestedBlockSize, "blockSize", 8);
   assertIntegerInRange(minBlocks, "minBlocks", 3);
   assertIntegerInRange(maxBlocks, "maxBlocks", minBlocks);
-  if (!(minSpread >= 1) || !Number.isFinite(minSpread)) throw new RangeError(`minSpread must be at least 1 (got ${minSpread})`);
+  if (!(minSpread >= 1) || !Number.isFinite(minSpread))
+    throw new RangeError(`minSpread must be at least 1 (got ${minSpread})`);
 
   const n = y.length;
   const blockSize = Math.max(requestedBlockSize, Math.ceil(n / maxBlocks));

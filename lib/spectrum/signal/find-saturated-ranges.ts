@@ -29,7 +29,10 @@ export interface FindSaturatedRangesOptions {
 }
 
 /** Saturated runs of `y`, in increasing order. A constant spectrum without detectorMax has none. */
-export function findSaturatedRanges(y: Float64Array, options: FindSaturatedRangesOptions = {}): IndexRange[] {
+export function findSaturatedRanges(
+  y: Float64Array,
+  options: FindSaturatedRangesOptions = {},
+): IndexRange[] {
   assertFiniteArray(y, "y", 1);
   const { detectorMax } = options;
   const known = detectorMax !== undefined;

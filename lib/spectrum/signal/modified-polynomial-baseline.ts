@@ -36,7 +36,8 @@ export function modifiedPolynomialBaseline(
   const { degree = 3, maxIterations = 100, tolerance = 0.001 } = options;
   assertFiniteArray(x, "x", 2);
   assertFiniteArray(y, "y", 2);
-  if (x.length !== y.length) throw new RangeError(`x and y differ in length (${x.length} vs ${y.length})`);
+  if (x.length !== y.length)
+    throw new RangeError(`x and y differ in length (${x.length} vs ${y.length})`);
   assertIntegerInRange(degree, "degree", 0, Math.min(15, x.length - 1));
   assertIntegerInRange(maxIterations, "maxIterations", 1);
   if (!(tolerance > 0)) throw new RangeError(`tolerance must be positive (got ${tolerance})`);
@@ -52,15 +53,18 @@ export function modifiedPolynomialBaseline(
     const row = i * m;
     basis[row] = 1;
     if (m > 1) basis[row + 1] = u;
-    for (let k = 1; k < m - 1; k++) basis[row + k + 1] = ((2 * k + 1) * u * basis[row + k] - k * basis[row + k - 1]) / (k + 1);
+    for (let k = 1; k < m - 1; k++)
+      basis[row + k + 1] = ((2 * k + 1) * u * basis[row + k] - k * basis[row + k - 1]) / (k + 1);
   }
   const normal = new Float64Array(m * m);
   for (let i = 0; i < n; i++) {
     const row = i * m;
-    for (let a = 0; a < m; a++) for (let b = a; b < m; b++) normal[a * m + b] += basis[row + a] * basis[row + b];
+    for (let a = 0; a < m; a++)
+      for (let b = a; b < m; b++) normal[a * m + b] += basis[row + a] * basis[row + b];
   }
   const normalMatrix = new Matrix(m, m);
-  for (let a = 0; a < m; a++) for (let b = 0; b < m; b++) normalMatrix.set(a, b, normal[Math.min(a, b) * m + Math.max(a, b)]);
+  for (let a = 0; a < m; a++)
+    for (let b = 0; b < m; b++) normalMatrix.set(a, b, normal[Math.min(a, b) * m + Math.max(a, b)]);
 
   const working = Float64Array.from(y);
   let fit = new Float64Array(n);

@@ -66,22 +66,34 @@ export interface PreparedSignal {
 export const MIN_SIGNAL_LENGTH = 16;
 
 /** Smooths, removes the continuum and measures noise and clipping of the spectrum (x, y). */
-export function prepareSignal(x: Float64Array, y: Float64Array, options: PrepareSignalOptions = {}): PreparedSignal {
+export function prepareSignal(
+  x: Float64Array,
+  y: Float64Array,
+  options: PrepareSignalOptions = {},
+): PreparedSignal {
   assertFiniteArray(x, "x", MIN_SIGNAL_LENGTH);
   assertFiniteArray(y, "y", MIN_SIGNAL_LENGTH);
-  if (x.length !== y.length) throw new RangeError(`x and y differ in length (${x.length} vs ${y.length})`);
+  if (x.length !== y.length)
+    throw new RangeError(`x and y differ in length (${x.length} vs ${y.length})`);
   assertStrictlyIncreasing(x);
   const { source = "flame", detectorMax } = options;
   const baseline = options.baseline ?? defaultBaselineFor(source);
   const smoothing =
     options.smoothing === false
       ? false
-      : { windowSize: options.smoothing?.windowSize ?? 9, polynomial: options.smoothing?.polynomial ?? 4 };
+      : {
+          windowSize: options.smoothing?.windowSize ?? 9,
+          polynomial: options.smoothing?.polynomial ?? 4,
+        };
   if (smoothing && smoothing.windowSize > y.length) {
-    throw new RangeError(`smoothing windowSize ${smoothing.windowSize} exceeds the ${y.length} samples`);
+    throw new RangeError(
+      `smoothing windowSize ${smoothing.windowSize} exceeds the ${y.length} samples`,
+    );
   }
 
-  const smoothed = smoothing ? savitzkyGolay(y, { ...smoothing, derivative: 0 }) : Float64Array.from(y);
+  const smoothed = smoothing
+    ? savitzkyGolay(y, { ...smoothing, derivative: 0 })
+    : Float64Array.from(y);
   const continuum = estimateContinuum(x, smoothed, baseline);
   const corrected = new Float64Array(y.length);
   for (let i = 0; i < y.length; i++) corrected[i] = smoothed[i] - continuum[i];
@@ -102,7 +114,10 @@ export function prepareSignal(x: Float64Array, y: Float64Array, options: Prepare
   const saturatedRanges = findSaturatedRanges(y, { detectorMax });
   const profileOptions = options.noiseProfile ?? {};
   const noiseProfile =
-    options.noise === undefined && profileOptions !== false ? estimateNoiseProfile(y, continuum, profileOptions) : null;
-  if (noiseProfile) return { smoothed, continuum, corrected, noise, noiseProfile, saturatedRanges, smoothing };
+    options.noise === undefined && profileOptions !== false
+      ? estimateNoiseProfile(y, continuum, profileOptions)
+      : null;
+  if (noiseProfile)
+    return { smoothed, continuum, corrected, noise, noiseProfile, saturatedRanges, smoothing };
   return { smoothed, continuum, corrected, noise, saturatedRanges, smoothing };
 }

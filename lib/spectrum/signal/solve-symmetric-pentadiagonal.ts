@@ -15,11 +15,16 @@ export interface SymmetricPentadiagonal {
  * so time and memory stay linear (a dense solve at a million points is out of the question).
  * A must be symmetric positive definite; a non-positive pivot throws a RangeError.
  */
-export function solveSymmetricPentadiagonal(matrix: SymmetricPentadiagonal, rhs: Float64Array): Float64Array {
+export function solveSymmetricPentadiagonal(
+  matrix: SymmetricPentadiagonal,
+  rhs: Float64Array,
+): Float64Array {
   const { diagonal, upper1, upper2 } = matrix;
   const n = diagonal.length;
   if (rhs.length !== n || (n > 1 && upper1.length < n - 1) || (n > 2 && upper2.length < n - 2)) {
-    throw new RangeError(`band lengths do not match: n = ${n}, rhs ${rhs.length}, bands ${upper1.length}/${upper2.length}`);
+    throw new RangeError(
+      `band lengths do not match: n = ${n}, rhs ${rhs.length}, bands ${upper1.length}/${upper2.length}`,
+    );
   }
   const d = new Float64Array(n);
   const l1 = new Float64Array(Math.max(n - 1, 0));
@@ -28,7 +33,8 @@ export function solveSymmetricPentadiagonal(matrix: SymmetricPentadiagonal, rhs:
     let pivot = diagonal[i];
     if (i >= 1) pivot -= l1[i - 1] * l1[i - 1] * d[i - 1];
     if (i >= 2) pivot -= l2[i - 2] * l2[i - 2] * d[i - 2];
-    if (!(pivot > 0)) throw new RangeError(`matrix is not positive definite (pivot ${pivot} at row ${i})`);
+    if (!(pivot > 0))
+      throw new RangeError(`matrix is not positive definite (pivot ${pivot} at row ${i})`);
     d[i] = pivot;
     if (i < n - 1) {
       let coupling = upper1[i];

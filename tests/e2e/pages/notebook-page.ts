@@ -14,7 +14,10 @@ export class NotebookPage {
 
   /** Starts a run on a sample picked by its label; resolves on the run's page. */
   async startRun(instrument: string, sampleLabel: string, source: string): Promise<void> {
-    await this.page.getByLabel("Instrument", { exact: true }).last().selectOption({ label: instrument });
+    await this.page
+      .getByLabel("Instrument", { exact: true })
+      .last()
+      .selectOption({ label: instrument });
     const picker = this.page.getByLabel("Sample spectrum");
     const option = picker.locator("option", { hasText: sampleLabel }).first();
     await option.waitFor({ state: "attached" });
@@ -38,7 +41,8 @@ export class NotebookPage {
   async rename(title: string): Promise<void> {
     const field = this.page.getByLabel("New title");
     // The form folds away under its summary; it stays open after a rename to show the outcome.
-    if (!(await field.isVisible())) await this.page.getByText("Rename the notebook", { exact: true }).click();
+    if (!(await field.isVisible()))
+      await this.page.getByText("Rename the notebook", { exact: true }).click();
     await field.fill(title);
     await this.page.getByRole("button", { name: "Rename", exact: true }).click();
   }

@@ -23,8 +23,13 @@ export class RunDownloadsBlock {
   constructor(private readonly page: Page) {}
 
   /** Clicks a download link of the run page and returns the downloaded bytes and the suggested name. */
-  async download(testId: "download-report-pdf" | "download-peaks-csv" | "download-spectrum-jdx"): Promise<{ name: string; bytes: Buffer }> {
-    const [download]: [Download, void] = await Promise.all([this.page.waitForEvent("download"), this.page.getByTestId(testId).click()]);
+  async download(
+    testId: "download-report-pdf" | "download-peaks-csv" | "download-spectrum-jdx",
+  ): Promise<{ name: string; bytes: Buffer }> {
+    const [download]: [Download, void] = await Promise.all([
+      this.page.waitForEvent("download"),
+      this.page.getByTestId(testId).click(),
+    ]);
     const file = await download.path();
     return { name: download.suggestedFilename(), bytes: fs.readFileSync(file) };
   }

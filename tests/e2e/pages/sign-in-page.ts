@@ -35,7 +35,11 @@ export class SignInPage {
 }
 
 /** Starts over as another demo person: drops the cookies, signs in by keyboard, waits for home. */
-export async function signInAs(session: { page: Page; context: { clearCookies(): Promise<void> } }, email: string, password: string): Promise<void> {
+export async function signInAs(
+  session: { page: Page; context: { clearCookies(): Promise<void> } },
+  email: string,
+  password: string,
+): Promise<void> {
   await session.context.clearCookies();
   const signIn = new SignInPage(session.page);
   await signIn.goto();

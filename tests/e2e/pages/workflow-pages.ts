@@ -10,7 +10,13 @@ export class InstrumentsPage {
   }
 
   /** The lab lead's form; resolves on the new instrument's page. */
-  async create(fields: { name: string; pixels: number; fromNm: number; toNm: number; resolutionNm: number }): Promise<string> {
+  async create(fields: {
+    name: string;
+    pixels: number;
+    fromNm: number;
+    toNm: number;
+    resolutionNm: number;
+  }): Promise<string> {
     await this.page.getByLabel("Name").fill(fields.name);
     await this.page.getByLabel("Dispersion").selectOption("grating");
     await this.page.getByLabel("Pixels").fill(String(fields.pixels));
@@ -51,12 +57,18 @@ export class UploadZone {
   }
 
   async choose(fileName: string, text: string): Promise<void> {
-    await this.input.setInputFiles({ name: fileName, mimeType: "text/csv", buffer: Buffer.from(text) });
+    await this.input.setInputFiles({
+      name: fileName,
+      mimeType: "text/csv",
+      buffer: Buffer.from(text),
+    });
   }
 
   /** Sets the kind and the label (they keep their values through the preview). */
   async describe(kind: "lamp" | "sample", label: string): Promise<void> {
-    await this.page.getByRole("radio", { name: kind === "lamp" ? /Reference lamp/ : /Sample/ }).check();
+    await this.page
+      .getByRole("radio", { name: kind === "lamp" ? /Reference lamp/ : /Sample/ })
+      .check();
     await this.page.getByLabel("Label (optional)").fill(label);
   }
 
@@ -81,10 +93,14 @@ export class UploadZone {
 
 /** Waits until Plotly has drawn every chart on the page. */
 export async function chartsDrawn(page: Page): Promise<void> {
-  await page.waitForFunction(() => {
-    const figures = document.querySelectorAll("[data-testid=chart]");
-    return figures.length > 0 && [...figures].every((f) => f.querySelector(".main-svg"));
-  }, undefined, { timeout: 30_000 });
+  await page.waitForFunction(
+    () => {
+      const figures = document.querySelectorAll("[data-testid=chart]");
+      return figures.length > 0 && [...figures].every((f) => f.querySelector(".main-svg"));
+    },
+    undefined,
+    { timeout: 30_000 },
+  );
 }
 
 export class RunPage {
@@ -96,7 +112,9 @@ export class RunPage {
 
   /** The verdict shown beside a species (its text, not its colour). */
   async verdictOf(species: string): Promise<string | null> {
-    const call = this.calls.filter({ has: this.page.getByTestId("call-species").getByText(species, { exact: true }) });
+    const call = this.calls.filter({
+      has: this.page.getByTestId("call-species").getByText(species, { exact: true }),
+    });
     if ((await call.count()) === 0) return null;
     const text = (await call.first().locator("summary").textContent()) ?? "";
     return /present|possible|absent/.exec(text)?.[0] ?? null;

@@ -13,7 +13,9 @@ export class WorkspaceShell {
     this.signedInName = page.getByTestId("signed-in-name");
     this.signOutButton = page.getByRole("button", { name: "Sign out" });
     this.pageHeading = page.locator("main#main h1");
-    this.errorBoundary = page.getByRole("alert").filter({ hasText: "This page could not be shown" });
+    this.errorBoundary = page
+      .getByRole("alert")
+      .filter({ hasText: "This page could not be shown" });
   }
 
   async waitUntilShown(): Promise<void> {
@@ -26,7 +28,9 @@ export class WorkspaceShell {
   }
 
   async navHref(label: string): Promise<string> {
-    const href = await this.nav.getByRole("link", { name: label, exact: true }).getAttribute("href");
+    const href = await this.nav
+      .getByRole("link", { name: label, exact: true })
+      .getAttribute("href");
     if (!href) throw new Error(`The nav item ${label} has no href`);
     return href;
   }
@@ -39,7 +43,9 @@ export class WorkspaceShell {
     await this.page.waitForURL((url) => url.pathname === href);
     await this.page.waitForFunction(
       (name) =>
-        document.querySelector(`nav[aria-label="Areas"] a[aria-current="page"]`)?.textContent?.trim() === name,
+        document
+          .querySelector(`nav[aria-label="Areas"] a[aria-current="page"]`)
+          ?.textContent?.trim() === name,
       label,
     );
     await this.pageHeading.first().waitFor();

@@ -6,7 +6,10 @@ import path from "node:path";
 import { randomInt } from "node:crypto";
 import { chromium, type BrowserContext, type Page } from "playwright-core";
 
-export const APP_URL = (process.env.EMBERLINE_TEST_URL ?? "http://127.0.0.1:3100").replace(/\/$/, "");
+export const APP_URL = (process.env.EMBERLINE_TEST_URL ?? "http://127.0.0.1:3100").replace(
+  /\/$/,
+  "",
+);
 export const SCREENSHOT_DIR = path.resolve(process.cwd(), "test-output/e2e");
 
 export interface Session {
@@ -37,7 +40,9 @@ export async function openBrowser(): Promise<Session> {
     viewport: { width: 1280, height: 800 },
     baseURL: APP_URL,
     // The app throttles failed sign-ins per client address; this file gets its own (a header only).
-    extraHTTPHeaders: { "x-forwarded-for": `10.${randomInt(0, 256)}.${randomInt(0, 256)}.${randomInt(1, 255)}` },
+    extraHTTPHeaders: {
+      "x-forwarded-for": `10.${randomInt(0, 256)}.${randomInt(0, 256)}.${randomInt(1, 255)}`,
+    },
   });
   const page = context.pages()[0] ?? (await context.newPage());
   const problems: string[] = [];
@@ -53,7 +58,8 @@ export async function openBrowser(): Promise<Session> {
     const url = new URL(response.url());
     // The app has no favicon yet (reported); Chromium asks for one on the first visit of a profile.
     if (url.pathname === "/favicon.ico") return;
-    if (response.status() >= 400) problems.push(`HTTP ${response.status()} ${url.pathname}${url.search}`);
+    if (response.status() >= 400)
+      problems.push(`HTTP ${response.status()} ${url.pathname}${url.search}`);
   });
   return {
     context,

@@ -24,7 +24,11 @@ export interface Me {
 }
 
 /** A client signed in with e-mail and password; fails the test when sign-in does not succeed. */
-export async function signedIn(email: string, password: string, address = testAddress()): Promise<ApiClient> {
+export async function signedIn(
+  email: string,
+  password: string,
+  address = testAddress(),
+): Promise<ApiClient> {
   const client = new ApiClient(address);
   const reply = await client.post<Me>("/api/session", { email, password });
   expect(reply.status, `sign-in of ${email}: ${JSON.stringify(reply.body)}`).toBe(200);
@@ -69,13 +73,21 @@ export async function createAccountThroughInvitation(
 ): Promise<FreshAccount> {
   const email = uniqueEmail(options.label ?? "person");
   const teamId = await teamIdOf(lead, FLAME_SCREENING);
-  const invited = await lead.post("/api/invitations", { teamId, email, role: options.role ?? "chemist" });
+  const invited = await lead.post("/api/invitations", {
+    teamId,
+    email,
+    role: options.role ?? "chemist",
+  });
   expect(invited.status, JSON.stringify(invited.body)).toBe(201);
   const mail = await waitForMail({ to: email, subject: /invited to Flame Screening/ });
   const token = extractLinkToken(mail.text, "/invitations/");
   const password = strongPassword();
   const name = `Test Person ${randomBytes(2).toString("hex")}`;
-  const accepted = await new ApiClient().post<{ userId: string }>("/api/invitations/accept", { token, name, password });
+  const accepted = await new ApiClient().post<{ userId: string }>("/api/invitations/accept", {
+    token,
+    name,
+    password,
+  });
   expect(accepted.status, JSON.stringify(accepted.body)).toBe(201);
   return { email, password, name, userId: accepted.body.userId };
 }

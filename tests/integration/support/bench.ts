@@ -2,7 +2,12 @@
 // database is shared by every test file) and spectrum uploads as multipart forms.
 import { expect } from "vitest";
 import type { ApiClient } from "./http-client";
-import { PIXELS, RESOLUTION_NM, syntheticGrating, type SyntheticInstrument } from "./synthetic-files";
+import {
+  PIXELS,
+  RESOLUTION_NM,
+  syntheticGrating,
+  type SyntheticInstrument,
+} from "./synthetic-files";
 
 /** A lab lead adds an instrument matching the synthetic one; returns its id. */
 export async function createSyntheticInstrument(

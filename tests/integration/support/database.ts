@@ -61,7 +61,9 @@ export async function closeDb(): Promise<void> {
 
 /** The newest audit event id now; events written later have a larger id (bigserial). */
 export async function auditMark(): Promise<number> {
-  const { rows } = await db().query<{ id: string | null }>("SELECT max(id) AS id FROM audit_events");
+  const { rows } = await db().query<{ id: string | null }>(
+    "SELECT max(id) AS id FROM audit_events",
+  );
   return Number(rows[0].id ?? 0);
 }
 
@@ -93,15 +95,19 @@ export async function auditEventsSince(
 }
 
 export async function userIdByEmail(email: string): Promise<string> {
-  const { rows } = await db().query<{ id: string }>("SELECT id FROM users WHERE lower(email) = lower($1)", [email]);
+  const { rows } = await db().query<{ id: string }>(
+    "SELECT id FROM users WHERE lower(email) = lower($1)",
+    [email],
+  );
   if (!rows[0]) throw new Error(`No user ${email}`);
   return rows[0].id;
 }
 
 /** How many calibrations an instrument has. */
 export async function calibrationCountOf(instrumentId: string): Promise<number> {
-  const { rows } = await db().query<{ n: string }>("SELECT count(*) AS n FROM calibrations WHERE instrument_id = $1", [
-    instrumentId,
-  ]);
+  const { rows } = await db().query<{ n: string }>(
+    "SELECT count(*) AS n FROM calibrations WHERE instrument_id = $1",
+    [instrumentId],
+  );
   return Number(rows[0].n);
 }

@@ -2,7 +2,10 @@
 // browser: it keeps the session cookie between requests and exposes the raw Set-Cookie lines.
 import { randomInt } from "node:crypto";
 
-export const APP_URL = (process.env.EMBERLINE_TEST_URL ?? "http://127.0.0.1:3100").replace(/\/$/, "");
+export const APP_URL = (process.env.EMBERLINE_TEST_URL ?? "http://127.0.0.1:3100").replace(
+  /\/$/,
+  "",
+);
 
 /**
  * A fresh client address for the X-Forwarded-For header (a header value only; nothing is sent
@@ -55,7 +58,11 @@ export class ApiClient {
     this.cookies.clear();
   }
 
-  async request<T = unknown>(method: string, path: string, options: RequestOptions = {}): Promise<ApiReply<T>> {
+  async request<T = unknown>(
+    method: string,
+    path: string,
+    options: RequestOptions = {},
+  ): Promise<ApiReply<T>> {
     const headers: Record<string, string> = { "x-forwarded-for": this.address, ...options.headers };
     let body: string | FormData | undefined;
     if (options.json !== undefined) body = JSON.stringify(options.json);
@@ -66,7 +73,12 @@ export class ApiClient {
     else if (this.cookies.size) {
       headers.cookie = [...this.cookies].map(([name, value]) => `${name}=${value}`).join("; ");
     }
-    const response = await fetch(`${APP_URL}${path}`, { method, headers, body, redirect: "manual" });
+    const response = await fetch(`${APP_URL}${path}`, {
+      method,
+      headers,
+      body,
+      redirect: "manual",
+    });
     const setCookies = response.headers.getSetCookie();
     if (!options.bearer) this.absorb(setCookies);
     const text = await response.text();
@@ -98,7 +110,8 @@ export class ApiClient {
       const expired =
         cookie.value === "" ||
         cookie.attributes.get("max-age") === "0" ||
-        (cookie.attributes.has("expires") && Date.parse(cookie.attributes.get("expires")!) <= Date.now());
+        (cookie.attributes.has("expires") &&
+          Date.parse(cookie.attributes.get("expires")!) <= Date.now());
       if (expired) this.cookies.delete(cookie.name);
       else this.cookies.set(cookie.name, cookie.value);
     }

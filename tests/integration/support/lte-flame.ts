@@ -13,8 +13,13 @@ const K_EV = 8.617333262e-5;
 export const LTE_FLAME_TEMPERATURE_K = 3000;
 const TRUE_T = LTE_FLAME_TEMPERATURE_K;
 
-const starterCsv = fs.readFileSync(path.resolve(__dirname, "../../../db/lines/starter-lines.csv"), "utf8");
-const table: ReferenceLine[] = parseLineTableCsv(starterCsv).rows.map((row, i) => toReferenceLine(row, `row-${i}`));
+const starterCsv = fs.readFileSync(
+  path.resolve(__dirname, "../../../db/lines/starter-lines.csv"),
+  "utf8",
+);
+const table: ReferenceLine[] = parseLineTableCsv(starterCsv).rows.map((row, i) =>
+  toReferenceLine(row, `row-${i}`),
+);
 
 function pixelOf(grating: SyntheticInstrument, nm: number): number {
   let [lo, hi] = [0, PIXELS - 1];
@@ -34,8 +39,18 @@ function pixelOf(grating: SyntheticInstrument, nm: number): number {
  */
 export function lteCalciumFlame(grating: SyntheticInstrument): string {
   const [lowNm, highNm] = [grating.wavelengthOfPixel(5), grating.wavelengthOfPixel(PIXELS - 6)];
-  const lines = table.filter((l) => l.species === "Ca I" && l.g && l.a && l.upperEv !== undefined && l.airNm > lowNm && l.airNm < highNm);
-  const power = lines.map((l) => ((l.g! * l.a!) / l.airNm) * Math.exp(-l.upperEv! / (K_EV * TRUE_T)));
+  const lines = table.filter(
+    (l) =>
+      l.species === "Ca I" &&
+      l.g &&
+      l.a &&
+      l.upperEv !== undefined &&
+      l.airNm > lowNm &&
+      l.airNm < highNm,
+  );
+  const power = lines.map(
+    (l) => ((l.g! * l.a!) / l.airNm) * Math.exp(-l.upperEv! / (K_EV * TRUE_T)),
+  );
   const strongest = Math.max(...power);
   const spectrum = synthesizeSpectrum({
     pixelCount: PIXELS,
@@ -44,7 +59,10 @@ export function lteCalciumFlame(grating: SyntheticInstrument): string {
     lines: lines.map((l, i) => {
       const px = pixelOf(grating, l.airNm);
       const nmPerPx = grating.wavelengthOfPixel(px + 0.5) - grating.wavelengthOfPixel(px - 0.5);
-      return { wavelengthNm: l.airNm, amplitude: (400_000 * power[i] * nmPerPx) / strongest / 0.27 };
+      return {
+        wavelengthNm: l.airNm,
+        amplitude: (400_000 * power[i] * nmPerPx) / strongest / 0.27,
+      };
     }),
     continuum: { shape: "planck", temperatureK: 2200, peakCounts: 800 },
     readNoiseCounts: 6,
@@ -56,4 +74,3 @@ export function lteCalciumFlame(grating: SyntheticInstrument): string {
   for (let i = 0; i < spectrum.y.length; i++) rows.push(`${i},${spectrum.y[i].toFixed(2)}`);
   return `${rows.join("\n")}\n`;
 }
-

@@ -14,7 +14,8 @@ export interface StoredMail {
 
 export function mailDir(): string {
   const dir = process.env.EMBERLINE_MAIL_DIR;
-  if (!dir) throw new Error("EMBERLINE_MAIL_DIR is not set: run the tests through scripts/test.mjs");
+  if (!dir)
+    throw new Error("EMBERLINE_MAIL_DIR is not set: run the tests through scripts/test.mjs");
   return dir;
 }
 
@@ -47,7 +48,9 @@ export async function waitForMail(query: {
     const matches = mailTo(query.to).filter((m) => query.subject.test(m.subject));
     if (matches.length > (query.skip ?? 0)) return matches[matches.length - 1];
     if (Date.now() > deadline) {
-      throw new Error(`No mail to ${query.to} with subject ${query.subject} within ${query.timeoutMs ?? 10_000} ms`);
+      throw new Error(
+        `No mail to ${query.to} with subject ${query.subject} within ${query.timeoutMs ?? 10_000} ms`,
+      );
     }
     await new Promise((resolve) => setTimeout(resolve, 100));
   }

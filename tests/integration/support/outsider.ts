@@ -28,16 +28,20 @@ async function createOutsider(): Promise<{ userId: string; teamId: string }> {
       [OUTSIDER.teamName],
     );
     // users has a unique index on lower(email), not a constraint, hence the explicit lookup.
-    let user = await client.query<{ id: string }>("SELECT id FROM users WHERE lower(email) = lower($1)", [
-      OUTSIDER.email,
-    ]);
+    let user = await client.query<{ id: string }>(
+      "SELECT id FROM users WHERE lower(email) = lower($1)",
+      [OUTSIDER.email],
+    );
     if (!user.rows[0]) {
       user = await client.query<{ id: string }>(
         "INSERT INTO users (email, name, password_hash) VALUES ($1, $2, $3) RETURNING id",
         [OUTSIDER.email, OUTSIDER.name, passwordHash],
       );
     } else {
-      await client.query("UPDATE users SET password_hash = $2 WHERE id = $1", [user.rows[0].id, passwordHash]);
+      await client.query("UPDATE users SET password_hash = $2 WHERE id = $1", [
+        user.rows[0].id,
+        passwordHash,
+      ]);
     }
     const ids = { userId: user.rows[0].id, teamId: team.rows[0].id };
     await client.query(

@@ -20,7 +20,15 @@ export interface DraftRun {
   calls: { species: string; verdict: string; lines: { lineNm: number }[] }[];
 }
 
-let bench: Promise<{ teamId: string; instrumentId: string; calibrationId: string; sampleId: string; notebookId: string }> | undefined;
+let bench:
+  | Promise<{
+      teamId: string;
+      instrumentId: string;
+      calibrationId: string;
+      sampleId: string;
+      notebookId: string;
+    }>
+  | undefined;
 
 /** The shared instrument, calibration, sample and notebook of this test file (made on first use). */
 export function reviewBench(lead: ApiClient, author: ApiClient, title: string) {
@@ -28,22 +36,62 @@ export function reviewBench(lead: ApiClient, author: ApiClient, title: string) {
     const grating = syntheticGrating();
     const teamId = await teamIdOf(lead, FLAME_SCREENING);
     const suffix = `${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 6)}`;
-    const instrumentId = await createSyntheticInstrument(lead, teamId, `review bench ${suffix}`, grating);
-    const lampId = await uploadSpectrumFile(author, instrumentId, "lamp", lampFile(grating, REVIEW_LAMP_SEED), `lamp-${suffix}.csv`);
-    const calibration = await author.post<{ id: string }>("/api/calibrations", { instrumentId, spectrumId: lampId, lamps: ["Hg", "Ar"] });
+    const instrumentId = await createSyntheticInstrument(
+      lead,
+      teamId,
+      `review bench ${suffix}`,
+      grating,
+    );
+    const lampId = await uploadSpectrumFile(
+      author,
+      instrumentId,
+      "lamp",
+      lampFile(grating, REVIEW_LAMP_SEED),
+      `lamp-${suffix}.csv`,
+    );
+    const calibration = await author.post<{ id: string }>("/api/calibrations", {
+      instrumentId,
+      spectrumId: lampId,
+      lamps: ["Hg", "Ar"],
+    });
     expect(calibration.status, JSON.stringify(calibration.body)).toBe(201);
-    const sampleId = await uploadSpectrumFile(author, instrumentId, "sample", flameFile(grating, REVIEW_FLAME_SEED), `flame-${suffix}.csv`);
-    const notebook = await author.post<{ id: string }>("/api/notebooks", { teamId, title: `${title} ${suffix}` });
+    const sampleId = await uploadSpectrumFile(
+      author,
+      instrumentId,
+      "sample",
+      flameFile(grating, REVIEW_FLAME_SEED),
+      `flame-${suffix}.csv`,
+    );
+    const notebook = await author.post<{ id: string }>("/api/notebooks", {
+      teamId,
+      title: `${title} ${suffix}`,
+    });
     expect(notebook.status, JSON.stringify(notebook.body)).toBe(201);
-    return { teamId, instrumentId, calibrationId: calibration.body.id, sampleId, notebookId: notebook.body.id };
+    return {
+      teamId,
+      instrumentId,
+      calibrationId: calibration.body.id,
+      sampleId,
+      notebookId: notebook.body.id,
+    };
   })();
   return bench;
 }
 
 /** A new draft run by `author` (any member of Flame Screening) in the shared notebook. */
-export async function draftRun(lead: ApiClient, author: ApiClient, chemist: ApiClient, title = "Review"): Promise<DraftRun> {
+export async function draftRun(
+  lead: ApiClient,
+  author: ApiClient,
+  chemist: ApiClient,
+  title = "Review",
+): Promise<DraftRun> {
   const { notebookId, sampleId, calibrationId } = await reviewBench(lead, chemist, title);
-  const reply = await author.post<DraftRun>("/api/runs", { notebookId, spectrumId: sampleId, calibrationId, source: "flame" });
+  const reply = await author.post<DraftRun>("/api/runs", {
+    notebookId,
+    spectrumId: sampleId,
+    calibrationId,
+    source: "flame",
+  });
   expect(reply.status, JSON.stringify(reply.body)).toBe(201);
   return reply.body;
 }

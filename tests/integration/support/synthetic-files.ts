@@ -5,7 +5,10 @@
 import fs from "node:fs";
 import path from "node:path";
 import { parseLineTableCsv, toReferenceLine } from "@/lib/lines";
-import { prismInverseWavelengths, type PrismGeometry } from "@/lib/spectrum/calibration/prism-forward";
+import {
+  prismInverseWavelengths,
+  type PrismGeometry,
+} from "@/lib/spectrum/calibration/prism-forward";
 import { synthesizeSpectrum } from "@/lib/spectrum/synthetic";
 import type { DispersionKind, ReferenceLine } from "@/lib/spectrum/types";
 
@@ -16,17 +19,28 @@ export const RESOLUTION_NM = 1;
  * nm therefore follows the local dispersion. */
 const SLIT_IMAGE_PX = 2.5;
 
-const starterCsv = fs.readFileSync(path.resolve(__dirname, "../../../db/lines/starter-lines.csv"), "utf8");
-const table: ReferenceLine[] = parseLineTableCsv(starterCsv).rows.map((row, i) => toReferenceLine(row, `row-${i}`));
+const starterCsv = fs.readFileSync(
+  path.resolve(__dirname, "../../../db/lines/starter-lines.csv"),
+  "utf8",
+);
+const table: ReferenceLine[] = parseLineTableCsv(starterCsv).rows.map((row, i) =>
+  toReferenceLine(row, `row-${i}`),
+);
 
 /** Hg I and Ar I lamp lines of the starter table (a mixed Hg–Ar pencil lamp). */
 const lampLines = table.filter(
-  (l) => l.flags.lamp && (l.species === "Hg I" || l.species === "Ar I") && l.airNm > 355 && l.airNm < 895,
+  (l) =>
+    l.flags.lamp &&
+    (l.species === "Hg I" || l.species === "Ar I") &&
+    l.airNm > 355 &&
+    l.airNm < 895,
 );
 
 /** The elements drawn into the flame file; everything else in the table is absent from it. */
 export const FLAME_SPECIES = ["Na I", "K I", "Li I", "Sr I", "Ca I"];
-const flameLines = table.filter((l) => FLAME_SPECIES.includes(l.species) && (l.intensities.flame ?? 0) > 0);
+const flameLines = table.filter(
+  (l) => FLAME_SPECIES.includes(l.species) && (l.intensities.flame ?? 0) > 0,
+);
 
 export interface SyntheticInstrument {
   dispersion: DispersionKind;
@@ -36,7 +50,10 @@ export interface SyntheticInstrument {
   nominalRangeNm: [number, number];
 }
 
-function withRange(dispersion: DispersionKind, wavelengthOfPixel: (px: number) => number): SyntheticInstrument {
+function withRange(
+  dispersion: DispersionKind,
+  wavelengthOfPixel: (px: number) => number,
+): SyntheticInstrument {
   const ends = [wavelengthOfPixel(0), wavelengthOfPixel(PIXELS - 1)].sort((a, b) => a - b);
   return {
     dispersion,
@@ -64,7 +81,10 @@ export function syntheticPrism(): SyntheticInstrument {
     direction: 1,
     referenceWavelengthNm: 480,
   };
-  const wavelengths = prismInverseWavelengths(geometry, Float64Array.from({ length: PIXELS }, (_, i) => i));
+  const wavelengths = prismInverseWavelengths(
+    geometry,
+    Float64Array.from({ length: PIXELS }, (_, i) => i),
+  );
   return withRange("prism", (px) => {
     const i = Math.min(PIXELS - 2, Math.max(0, Math.floor(px)));
     return wavelengths[i] + (wavelengths[i + 1] - wavelengths[i]) * (px - i);
@@ -87,8 +107,15 @@ function lineWidthNm(instrument: SyntheticInstrument, wavelengthNm: number): num
 
 /** The same flame as flameFile, exported on the instrument's own wavelength axis: "wavelength_nm,counts". */
 export function flameFileOnWavelengthAxis(instrument: SyntheticInstrument, seed = 11): string {
-  const counts = flameFile(instrument, seed).trim().split("\n").slice(1).map((row) => row.split(",")[1]);
-  const rows = ["wavelength_nm,counts", ...counts.map((c, i) => `${instrument.wavelengthOfPixel(i).toFixed(4)},${c}`)];
+  const counts = flameFile(instrument, seed)
+    .trim()
+    .split("\n")
+    .slice(1)
+    .map((row) => row.split(",")[1]);
+  const rows = [
+    "wavelength_nm,counts",
+    ...counts.map((c, i) => `${instrument.wavelengthOfPixel(i).toFixed(4)},${c}`),
+  ];
   return `${rows.join("\n")}\n`;
 }
 

@@ -5,8 +5,18 @@ import { diffAuditValues, flattenAuditValue } from "@/lib/audit/diff-audit-value
 
 describe("diffAuditValues", () => {
   it("finds changed, added and removed leaves at any depth", () => {
-    const before = { name: "Bench A", model: { kind: "polynomial", coefficients: [350, 0.27, 1e-6] }, notes: "old", tags: ["a"] };
-    const after = { name: "Bench A", model: { kind: "polynomial", coefficients: [350, 0.28] }, tags: ["a", "b"], extra: { x: 1 } };
+    const before = {
+      name: "Bench A",
+      model: { kind: "polynomial", coefficients: [350, 0.27, 1e-6] },
+      notes: "old",
+      tags: ["a"],
+    };
+    const after = {
+      name: "Bench A",
+      model: { kind: "polynomial", coefficients: [350, 0.28] },
+      tags: ["a", "b"],
+      extra: { x: 1 },
+    };
     expect(diffAuditValues(before, after)).toEqual([
       { path: "model.coefficients[1]", kind: "changed", before: 0.27, after: 0.28 },
       { path: "model.coefficients[2]", kind: "removed", before: 1e-6, after: undefined },
@@ -20,12 +30,18 @@ describe("diffAuditValues", () => {
     expect(diffAuditValues({ model: { a: 1 } }, { model: 3 })).toEqual([
       { path: "model", kind: "changed", before: { a: 1 }, after: 3 },
     ]);
-    expect(diffAuditValues({ v: [] }, { v: {} })).toEqual([{ path: "v", kind: "changed", before: [], after: {} }]);
+    expect(diffAuditValues({ v: [] }, { v: {} })).toEqual([
+      { path: "v", kind: "changed", before: [], after: {} },
+    ]);
   });
 
   it("treats null as a value and equal values as unchanged", () => {
-    expect(diffAuditValues({ a: null, b: 2 }, { a: 1, b: 2 })).toEqual([{ path: "a", kind: "changed", before: null, after: 1 }]);
-    expect(diffAuditValues({ a: { b: [1, { c: "x" }] } }, { a: { b: [1, { c: "x" }] } })).toEqual([]);
+    expect(diffAuditValues({ a: null, b: 2 }, { a: 1, b: 2 })).toEqual([
+      { path: "a", kind: "changed", before: null, after: 1 },
+    ]);
+    expect(diffAuditValues({ a: { b: [1, { c: "x" }] } }, { a: { b: [1, { c: "x" }] } })).toEqual(
+      [],
+    );
   });
 
   it("has nothing to compare for a creation or a removal", () => {
@@ -34,7 +50,9 @@ describe("diffAuditValues", () => {
   });
 
   it("compares bare values at the root and stops at maxChanges", () => {
-    expect(diffAuditValues("draft", "published")).toEqual([{ path: "", kind: "changed", before: "draft", after: "published" }]);
+    expect(diffAuditValues("draft", "published")).toEqual([
+      { path: "", kind: "changed", before: "draft", after: "published" },
+    ]);
     const many = diffAuditValues(
       Array.from({ length: 50 }, (_, i) => i),
       Array.from({ length: 50 }, (_, i) => i + 1),

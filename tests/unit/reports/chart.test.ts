@@ -36,8 +36,15 @@ describe("thinSpectrum", () => {
 
 describe("chartGeometry", () => {
   const x = Float64Array.from({ length: 401 }, (_, i) => 400 + i);
-  const y = Float64Array.from(x, (nm) => 50 + 4000 * Math.exp(-(((nm - 589) / 1.5) ** 2)) + 300 * Math.exp(-(((nm - 766) / 1.5) ** 2)));
-  const g = chartGeometry(x, y, chartLabelsFromCalls(sampleRun().calls), { width: 500, height: 250 });
+  const y = Float64Array.from(
+    x,
+    (nm) =>
+      50 + 4000 * Math.exp(-(((nm - 589) / 1.5) ** 2)) + 300 * Math.exp(-(((nm - 766) / 1.5) ** 2)),
+  );
+  const g = chartGeometry(x, y, chartLabelsFromCalls(sampleRun().calls), {
+    width: 500,
+    height: 250,
+  });
 
   it("maps the range onto the plot with ticks in nm", () => {
     expect(g.xTicks.map((t) => t.text)).toEqual(["400", "500", "600", "700", "800"]);

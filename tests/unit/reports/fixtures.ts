@@ -9,7 +9,12 @@ export const NA_D2 = 588.995;
 export const NA_D1 = 589.592;
 export const K_LINE = 766.49;
 
-function call(species: string, verdict: RunCall["verdict"], lines: [number, number, string][], score: number): RunCall {
+function call(
+  species: string,
+  verdict: RunCall["verdict"],
+  lines: [number, number, string][],
+  score: number,
+): RunCall {
   return {
     species,
     element: species.split(" ")[0],
@@ -17,7 +22,13 @@ function call(species: string, verdict: RunCall["verdict"], lines: [number, numb
     computedVerdict: verdict,
     override: null,
     score,
-    lines: lines.map(([lineNm, peakNm, lineId]) => ({ lineId, lineNm, peakNm, deltaNm: peakNm - lineNm, relativeIntensity: 1000 })),
+    lines: lines.map(([lineNm, peakNm, lineId]) => ({
+      lineId,
+      lineNm,
+      peakNm,
+      deltaNm: peakNm - lineNm,
+      relativeIntensity: 1000,
+    })),
     missing: [],
     seenCount: lines.length,
     missingCount: 0,
@@ -31,15 +42,26 @@ function call(species: string, verdict: RunCall["verdict"], lines: [number, numb
 
 export function sampleRun(overrides: Partial<RunRecord> = {}): RunRecord {
   const calls = [
-    call("Na I", "present", [
-      [NA_D2, 589.001, "line-na-d2"],
-      [NA_D1, 589.588, "line-na-d1"],
-    ], 0.93),
+    call(
+      "Na I",
+      "present",
+      [
+        [NA_D2, 589.001, "line-na-d2"],
+        [NA_D1, 589.588, "line-na-d1"],
+      ],
+      0.93,
+    ),
     call("K I", "possible", [[K_LINE, 766.52, "line-k"]], 0.41),
     // Invented demo figures: 5 σ of 9.6 counts at Ba I 553.55 nm, against a 12 000-count Na peak.
     {
       ...call("Ba I", "absent", [], 0.02),
-      detectionLimit: { lineNm: 553.548, principal: true, noiseCounts: 9.6, counts: 48, relativeToStrongest: 0.004 },
+      detectionLimit: {
+        lineNm: 553.548,
+        principal: true,
+        noiseCounts: 9.6,
+        counts: 48,
+        relativeToStrongest: 0.004,
+      },
     },
   ];
   return {
@@ -68,16 +90,54 @@ export function sampleRun(overrides: Partial<RunRecord> = {}): RunRecord {
     noiseCounts: 3.2,
     warnings: [],
     peaks: [
-      { x: 100, wavelengthNm: 589.001, uncertaintyNm: 0.004, fwhmNm: 1.02, height: 5200, snr: 410, saturated: false, blended: true },
-      { x: 101, wavelengthNm: 589.588, uncertaintyNm: 0.005, fwhmNm: 1.01, height: 2600, snr: 205, saturated: false, blended: true },
-      { x: 300, wavelengthNm: 766.52, uncertaintyNm: 0.01, fwhmNm: 1.1, height: 90, snr: 9, saturated: false, blended: false },
-      { x: 350, wavelengthNm: 701.2, uncertaintyNm: 0.02, fwhmNm: 1.0, height: 40, snr: 6, saturated: false, blended: false },
+      {
+        x: 100,
+        wavelengthNm: 589.001,
+        uncertaintyNm: 0.004,
+        fwhmNm: 1.02,
+        height: 5200,
+        snr: 410,
+        saturated: false,
+        blended: true,
+      },
+      {
+        x: 101,
+        wavelengthNm: 589.588,
+        uncertaintyNm: 0.005,
+        fwhmNm: 1.01,
+        height: 2600,
+        snr: 205,
+        saturated: false,
+        blended: true,
+      },
+      {
+        x: 300,
+        wavelengthNm: 766.52,
+        uncertaintyNm: 0.01,
+        fwhmNm: 1.1,
+        height: 90,
+        snr: 9,
+        saturated: false,
+        blended: false,
+      },
+      {
+        x: 350,
+        wavelengthNm: 701.2,
+        uncertaintyNm: 0.02,
+        fwhmNm: 1.0,
+        height: 40,
+        snr: 6,
+        saturated: false,
+        blended: false,
+      },
     ],
     calls,
     verdicts: { "Na I": "present", "K I": "possible", "Ba I": "absent" },
     overrides: [],
     temperature: null,
-    unexplained: [{ wavelengthNm: 701.2, height: 40, snr: 6, reason: "no line of the release within 3σ" }],
+    unexplained: [
+      { wavelengthNm: 701.2, height: 40, snr: 6, reason: "no line of the release within 3σ" },
+    ],
     createdAt: "2026-03-01T10:15:00.000Z",
     ...overrides,
   };
@@ -87,17 +147,53 @@ export const sampleMatches: StoredPeakMatch[] = [
   {
     peakIndex: 0,
     candidates: [
-      { lineId: "line-na-d2", species: "Na I", kind: "atomic", referenceNm: NA_D2, deltaNm: 0.006, sigmaNm: 0.01, deltaSigma: 0.6 },
-      { lineId: "line-ba", species: "Ba I", kind: "atomic", referenceNm: 588.99, deltaNm: 0.011, sigmaNm: 0.01, deltaSigma: 1.1 },
+      {
+        lineId: "line-na-d2",
+        species: "Na I",
+        kind: "atomic",
+        referenceNm: NA_D2,
+        deltaNm: 0.006,
+        sigmaNm: 0.01,
+        deltaSigma: 0.6,
+      },
+      {
+        lineId: "line-ba",
+        species: "Ba I",
+        kind: "atomic",
+        referenceNm: 588.99,
+        deltaNm: 0.011,
+        sigmaNm: 0.01,
+        deltaSigma: 1.1,
+      },
     ],
   },
   {
     peakIndex: 1,
-    candidates: [{ lineId: "line-na-d1", species: "Na I", kind: "atomic", referenceNm: NA_D1, deltaNm: -0.004, sigmaNm: 0.01, deltaSigma: -0.4 }],
+    candidates: [
+      {
+        lineId: "line-na-d1",
+        species: "Na I",
+        kind: "atomic",
+        referenceNm: NA_D1,
+        deltaNm: -0.004,
+        sigmaNm: 0.01,
+        deltaSigma: -0.4,
+      },
+    ],
   },
   {
     peakIndex: 2,
-    candidates: [{ lineId: "line-k", species: "K I", kind: "atomic", referenceNm: K_LINE, deltaNm: 0.03, sigmaNm: 0.02, deltaSigma: 1.5 }],
+    candidates: [
+      {
+        lineId: "line-k",
+        species: "K I",
+        kind: "atomic",
+        referenceNm: K_LINE,
+        deltaNm: 0.03,
+        sigmaNm: 0.02,
+        deltaSigma: 1.5,
+      },
+    ],
   },
 ];
 
@@ -126,12 +222,21 @@ export function sampleCalibration(): CalibrationRecord {
   };
 }
 
-export function sampleInput(run: RunRecord = sampleRun(), extra: Partial<RunReportInput> = {}): RunReportInput {
+export function sampleInput(
+  run: RunRecord = sampleRun(),
+  extra: Partial<RunReportInput> = {},
+): RunReportInput {
   return {
     run,
     calibration: sampleCalibration(),
     release: { id: run.lineReleaseId, number: 3, publishedAt: "2026-02-20T08:00:00.000Z" },
-    spectrum: { id: run.spectrumId, fileName: "flame-sample.csv", label: "Flame sample", sha256: "ab".repeat(32), points: 2048 },
+    spectrum: {
+      id: run.spectrumId,
+      fileName: "flame-sample.csv",
+      label: "Flame sample",
+      sha256: "ab".repeat(32),
+      points: 2048,
+    },
     instrument: { name: "Grating bench", dispersion: "grating" },
     notebook: { id: run.notebookId, title: "Salt screening" },
     authorName: "Chris Chemist",

@@ -21,7 +21,11 @@ function poppler(tool: "pdftotext" | "pdffonts" | "pdfinfo", pdf: Buffer): strin
   try {
     const file = path.join(dir, "report.pdf");
     fs.writeFileSync(file, pdf);
-    return execFileSync(`/usr/bin/${tool}`, tool === "pdftotext" ? ["-layout", file, "-"] : [file], { encoding: "utf8" });
+    return execFileSync(
+      `/usr/bin/${tool}`,
+      tool === "pdftotext" ? ["-layout", file, "-"] : [file],
+      { encoding: "utf8" },
+    );
   } finally {
     fs.rmSync(dir, { recursive: true, force: true });
   }
@@ -32,7 +36,13 @@ const flat = (text: string) => text.replace(/\s+/g, " ");
 
 function spectrum() {
   const x = Float64Array.from({ length: 2000 }, (_, i) => 400 + i * 0.2);
-  const y = Float64Array.from(x, (nm) => 30 + 5000 * Math.exp(-(((nm - 589) / 0.6) ** 2)) + 200 * Math.exp(-(((nm - 766.5) / 0.6) ** 2)));
+  const y = Float64Array.from(
+    x,
+    (nm) =>
+      30 +
+      5000 * Math.exp(-(((nm - 589) / 0.6) ** 2)) +
+      200 * Math.exp(-(((nm - 766.5) / 0.6) ** 2)),
+  );
   return { wavelengthNm: x, counts: y };
 }
 
@@ -40,10 +50,23 @@ function spectrum() {
 describe("renderReportPdf", { timeout: 60_000 }, () => {
   it("makes a PDF whose text holds the calls, the caveat, the calibration and the release", async () => {
     const run = sampleRun({
-      overrides: [{ id: "o", species: "Ba I", computedVerdict: "absent", verdict: "possible", reason: "green flame seen by eye", byName: "Chris", at: "2026-03-01T11:00:00.000Z" }],
+      overrides: [
+        {
+          id: "o",
+          species: "Ba I",
+          computedVerdict: "absent",
+          verdict: "possible",
+          reason: "green flame seen by eye",
+          byName: "Chris",
+          at: "2026-03-01T11:00:00.000Z",
+        },
+      ],
       verdicts: { "Na I": "present", "K I": "possible", "Ba I": "possible" },
     });
-    const pdf = await renderReportPdf(buildRunReport(sampleInput(run)), { fonts, spectrum: spectrum() });
+    const pdf = await renderReportPdf(buildRunReport(sampleInput(run)), {
+      fonts,
+      spectrum: spectrum(),
+    });
     expect(pdf.subarray(0, 5).toString("latin1")).toBe("%PDF-");
     const text = flat(poppler("pdftotext", pdf));
     for (const species of ["Na I", "K I", "Ba I"]) expect(text).toContain(species);
@@ -70,7 +93,13 @@ describe("renderReportPdf", { timeout: 60_000 }, () => {
     const pdf = await renderReportPdf(
       buildRunReport(
         sampleInput(sampleRun({ status: "signed", source: "arc" }), {
-          signature: { signerName: "Sam Supervisor", meaning: "Reviewed and approved", signedAt: "2026-03-02T09:30:00.000Z", contentHash: hash, round: 1 },
+          signature: {
+            signerName: "Sam Supervisor",
+            meaning: "Reviewed and approved",
+            signedAt: "2026-03-02T09:30:00.000Z",
+            contentHash: hash,
+            round: 1,
+          },
           rounds: [
             {
               round: 1,

@@ -24,8 +24,24 @@ describe("buildRunReport", () => {
   it("shows the standing verdict and keeps an overridden call in the list with its reason", () => {
     const run = sampleRun();
     run.overrides = [
-      { id: "o1", species: "Ba I", computedVerdict: "absent", verdict: "possible", reason: "green flame seen by eye", byName: "Chris", at: "2026-03-01T11:00:00.000Z" },
-      { id: "o2", species: "K I", computedVerdict: "possible", verdict: "absent", reason: "line is an argon artefact", byName: "Chris", at: "2026-03-01T11:05:00.000Z" },
+      {
+        id: "o1",
+        species: "Ba I",
+        computedVerdict: "absent",
+        verdict: "possible",
+        reason: "green flame seen by eye",
+        byName: "Chris",
+        at: "2026-03-01T11:00:00.000Z",
+      },
+      {
+        id: "o2",
+        species: "K I",
+        computedVerdict: "possible",
+        verdict: "absent",
+        reason: "line is an argon artefact",
+        byName: "Chris",
+        at: "2026-03-01T11:05:00.000Z",
+      },
     ];
     run.verdicts = standingVerdictsForTest(run);
     const report = buildRunReport(sampleInput(run));
@@ -44,10 +60,18 @@ describe("buildRunReport", () => {
     expect(inside.outsideCoveredRange).toBe(false);
     expect(inside.warnings).toEqual([]);
     const outside = buildRunReport(
-      sampleInput(sampleRun({ rangeNm: [350, 900], lampChecked: false, warnings: [{ code: "outside-covered-range", message: "core wording" }] })),
+      sampleInput(
+        sampleRun({
+          rangeNm: [350, 900],
+          lampChecked: false,
+          warnings: [{ code: "outside-covered-range", message: "core wording" }],
+        }),
+      ),
     );
     expect(outside.outsideCoveredRange).toBe(true);
-    expect(outside.warnings.some((w) => w.includes("past the calibrated range 404.7–811.5 nm"))).toBe(true);
+    expect(
+      outside.warnings.some((w) => w.includes("past the calibrated range 404.7–811.5 nm")),
+    ).toBe(true);
     expect(outside.warnings.some((w) => w.startsWith("Not lamp-checked"))).toBe(true);
     // The core's wording of the same warning is replaced by the report's, not repeated.
     expect(outside.warnings).not.toContain("core wording");
@@ -64,8 +88,14 @@ describe("buildRunReport", () => {
       { label: "Minimum SNR", value: "5" },
       { label: "Match window (k·σ)", value: "2.5" },
     ]);
-    expect(buildRunReport(sampleInput()).settings).toEqual([{ label: "Settings", value: "the defaults" }]);
-    expect(report.calibration).toMatchObject({ model: "polynomial-3", rmsNm: 0.0123, coveredRangeNm: [404.66, 811.53] });
+    expect(buildRunReport(sampleInput()).settings).toEqual([
+      { label: "Settings", value: "the defaults" },
+    ]);
+    expect(report.calibration).toMatchObject({
+      model: "polynomial-3",
+      rmsNm: 0.0123,
+      coveredRangeNm: [404.66, 811.53],
+    });
     const made = Object.fromEntries(report.provenance.map((f) => [f.label, f.value]));
     expect(made["Line-table release"]).toContain("release 3, published 2026-02-20");
     expect(made["Sample SHA-256"]).toBe("ab".repeat(32));
@@ -73,7 +103,9 @@ describe("buildRunReport", () => {
   });
 
   it("says when there is no calibration", () => {
-    const report = buildRunReport(sampleInput(sampleRun({ calibrationId: null, lampChecked: false }), { calibration: null }));
+    const report = buildRunReport(
+      sampleInput(sampleRun({ calibrationId: null, lampChecked: false }), { calibration: null }),
+    );
     expect(report.calibration).toBeNull();
     expect(report.provenance.find((f) => f.label === "Calibration")?.value).toMatch(/own axis/);
   });

@@ -4,7 +4,11 @@ import { describe, expect, it } from "vitest";
 import { formatRunSpectrumJdx, type RunSpectrumJdxInput } from "@/lib/reports/spectrum-jdx";
 import { parseSpectrumFile } from "@/lib/spectrum/io";
 
-function input(wavelengthNm: Float64Array, counts: Float64Array, medium: RunSpectrumJdxInput["medium"] = "air"): RunSpectrumJdxInput {
+function input(
+  wavelengthNm: Float64Array,
+  counts: Float64Array,
+  medium: RunSpectrumJdxInput["medium"] = "air",
+): RunSpectrumJdxInput {
   return {
     wavelengthNm,
     counts,
@@ -26,8 +30,14 @@ describe("formatRunSpectrumJdx", () => {
   it("writes an uneven calibrated axis that reads back to exactly the same points", () => {
     const n = 500;
     // A cubic pixel-to-nm mapping, as a grating calibration gives: unevenly spaced wavelengths.
-    const x = Float64Array.from({ length: n }, (_, i) => 400 + 0.2 * i + 1e-5 * i * i - 3e-9 * i * i * i);
-    const y = Float64Array.from({ length: n }, (_, i) => 100 + 5000 * Math.exp(-(((i - 250) / 3) ** 2)) + (i % 7) * 0.25);
+    const x = Float64Array.from(
+      { length: n },
+      (_, i) => 400 + 0.2 * i + 1e-5 * i * i - 3e-9 * i * i * i,
+    );
+    const y = Float64Array.from(
+      { length: n },
+      (_, i) => 100 + 5000 * Math.exp(-(((i - 250) / 3) ** 2)) + (i % 7) * 0.25,
+    );
     const text = formatRunSpectrumJdx(input(x, y));
     const back = parseSpectrumFile(text);
     expect(back.xUnit).toBe("nm");
@@ -56,7 +66,9 @@ describe("formatRunSpectrumJdx", () => {
   });
 
   it("says so when the medium is not known", () => {
-    const text = formatRunSpectrumJdx(input(Float64Array.of(500, 501, 503), Float64Array.of(1, 2, 3), null));
+    const text = formatRunSpectrumJdx(
+      input(Float64Array.of(500, 501, 503), Float64Array.of(1, 2, 3), null),
+    );
     expect(text).toContain("##$WAVELENGTH MEDIUM=NOT STATED");
     expect(text).not.toContain("##$MEDIUM=");
   });

@@ -6,6 +6,7 @@ import type { RunRecord } from "@/lib/services/workflow-types";
 export function standingVerdictsForTest(run: RunRecord): Record<string, Verdict> {
   const verdicts: Record<string, Verdict> = {};
   for (const c of run.calls) verdicts[c.species] = c.verdict;
-  for (const o of run.overrides) verdicts[o.species] = o.verdict ?? run.calls.find((c) => c.species === o.species)!.verdict;
+  for (const o of run.overrides)
+    verdicts[o.species] = o.verdict ?? run.calls.find((c) => c.species === o.species)!.verdict;
   return verdicts;
 }

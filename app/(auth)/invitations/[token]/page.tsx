@@ -15,7 +15,9 @@ export default async function InvitationPage({ params }: { params: Promise<{ tok
     return (
       <>
         <h1 className="mb-2 text-xl font-semibold">This invitation is not valid</h1>
-        <p className="muted text-sm">It has expired, was withdrawn or has been used. Ask your lab lead for a new one.</p>
+        <p className="muted text-sm">
+          It has expired, was withdrawn or has been used. Ask your lab lead for a new one.
+        </p>
         <Link href="/sign-in" className="mt-4 inline-block text-sm text-ember-600 underline">
           Go to sign-in
         </Link>
@@ -34,7 +36,14 @@ export default async function InvitationPage({ params }: { params: Promise<{ tok
         submitLabel="Join the team"
         fields={
           invitation.hasAccount
-            ? [{ name: "password", label: "Your current password", type: "password", autoComplete: "current-password" }]
+            ? [
+                {
+                  name: "password",
+                  label: "Your current password",
+                  type: "password",
+                  autoComplete: "current-password",
+                },
+              ]
             : [
                 { name: "name", label: "Your name", autoComplete: "name" },
                 {

@@ -5,7 +5,11 @@ import { resetPasswordAction } from "../../actions";
 
 export const metadata = { title: "Choose a new password" };
 
-export default async function ResetPasswordPage({ params }: { params: Promise<{ token: string }> }) {
+export default async function ResetPasswordPage({
+  params,
+}: {
+  params: Promise<{ token: string }>;
+}) {
   const { token } = await params;
   return (
     <>

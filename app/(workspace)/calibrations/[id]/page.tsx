@@ -14,7 +14,9 @@ export const metadata = { title: "Calibration" };
 
 export default async function CalibrationPage({ params }: { params: Promise<{ id: string }> }) {
   const { actor } = await requireWorkspace();
-  const { calibration, releaseNumber, previous } = await orNotFound(fetchCalibrationView(actor, idOrNotFound((await params).id)));
+  const { calibration, releaseNumber, previous } = await orNotFound(
+    fetchCalibrationView(actor, idOrNotFound((await params).id)),
+  );
   const [instrument, spectrum, series] = await Promise.all([
     fetchInstrument(actor, calibration.instrumentId),
     fetchSpectrum(actor, calibration.spectrumId),
@@ -31,12 +33,18 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
         title={`Calibration of ${instrument.name}, ${calibration.calibratedOn}: ${calibration.label}`}
         description={`From ${spectrum.label || spectrum.fileName} · lamps ${calibration.lamps.join(", ")}`}
         actions={
-          <Link href={`/instruments/${instrument.id}`} className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800">
+          <Link
+            href={`/instruments/${instrument.id}`}
+            className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800"
+          >
             Back to the instrument
           </Link>
         }
       />
-      <dl className="panel mb-4 grid grid-cols-2 gap-x-6 gap-y-2 p-4 text-sm sm:grid-cols-4" data-testid="calibration-summary">
+      <dl
+        className="panel mb-4 grid grid-cols-2 gap-x-6 gap-y-2 p-4 text-sm sm:grid-cols-4"
+        data-testid="calibration-summary"
+      >
         <div>
           <dt className="muted">Model</dt>
           <dd className="font-mono">{calibration.model}</dd>
@@ -60,14 +68,18 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
         <div>
           <dt className="muted">Fit uncertainty (1σ, median / max)</dt>
           <dd className="font-mono">
-            {calibration.uncertainty.medianNm.toFixed(4)} / {calibration.uncertainty.maxNm.toFixed(4)} nm
+            {calibration.uncertainty.medianNm.toFixed(4)} /{" "}
+            {calibration.uncertainty.maxNm.toFixed(4)} nm
           </dd>
         </div>
         <div>
           <dt className="muted">Drift from the previous calibration</dt>
           <dd className="font-mono">
             {calibration.drift ? (
-              <Link href={`/calibrations/${calibration.drift.previousCalibrationId}`} className="underline">
+              <Link
+                href={`/calibrations/${calibration.drift.previousCalibrationId}`}
+                className="underline"
+              >
                 max {calibration.drift.maxAbsNm.toFixed(3)} nm
               </Link>
             ) : (
@@ -88,8 +100,11 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
         <div>
           <dt className="muted">Changed by hand</dt>
           <dd>
-            {calibration.pairing.excludedByHand ?? 0} excluded, {calibration.pairing.addedByHand ?? 0} added
-            {calibration.pairing.manualSeeds ? `, ${calibration.pairing.manualSeeds} seed pairs` : ""}
+            {calibration.pairing.excludedByHand ?? 0} excluded,{" "}
+            {calibration.pairing.addedByHand ?? 0} added
+            {calibration.pairing.manualSeeds
+              ? `, ${calibration.pairing.manualSeeds} seed pairs`
+              : ""}
           </dd>
         </div>
         <div>
@@ -115,7 +130,11 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
         </ul>
       ) : null}
       {calibration.pairing.confirmation ? (
-        <section aria-labelledby="confirmation-heading" className="panel mb-4 border-ember-600 p-4" data-testid="calibration-confirmation">
+        <section
+          aria-labelledby="confirmation-heading"
+          className="panel mb-4 border-ember-600 p-4"
+          data-testid="calibration-confirmation"
+        >
           <h2 id="confirmation-heading" className="mb-1 text-sm font-semibold">
             <span aria-hidden>⚠ </span>Saved as the default despite its doubts
           </h2>
@@ -138,14 +157,19 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
           <ul className="flex flex-col gap-0.5 text-sm">
             {calibration.pairing.handPairs.map((p) => (
               <li key={`${p.change}-${p.pixel}-${p.wavelengthNm}`}>
-                {p.change === "excluded" ? "Excluded" : "Added"}: pixel <span className="font-mono">{p.pixel.toFixed(2)}</span> with {p.species}{" "}
+                {p.change === "excluded" ? "Excluded" : "Added"}: pixel{" "}
+                <span className="font-mono">{p.pixel.toFixed(2)}</span> with {p.species}{" "}
                 <span className="font-mono">{p.wavelengthNm.toFixed(3)} nm</span>
               </li>
             ))}
           </ul>
         </section>
       ) : null}
-      <section aria-labelledby="drift-heading" className="panel mb-4 p-4" data-testid="calibration-drift">
+      <section
+        aria-labelledby="drift-heading"
+        className="panel mb-4 p-4"
+        data-testid="calibration-drift"
+      >
         <h2 id="drift-heading" className="mb-1 text-sm font-semibold">
           Drift from the previous calibration
         </h2>
@@ -161,13 +185,18 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
                 "the previous calibration"
               )}
               {previous ? ` (${previous.model}, RMS ${previous.rmsNm.toFixed(4)} nm)` : ""}: at most{" "}
-              <span className="font-mono font-semibold">{calibration.drift.maxAbsNm.toFixed(3)} nm</span>.
+              <span className="font-mono font-semibold">
+                {calibration.drift.maxAbsNm.toFixed(3)} nm
+              </span>
+              .
             </p>
             <table className="text-sm">
               <caption className="sr-only">Drift per pixel</caption>
               <thead>
                 <tr>
-                  <th scope="row" className="muted pr-3 text-left font-normal">{xTitle}</th>
+                  <th scope="row" className="muted pr-3 text-left font-normal">
+                    {xTitle}
+                  </th>
                   {calibration.drift.pixels.map((px) => (
                     <th key={px} scope="col" className="px-3 text-right font-mono font-normal">
                       {px.toFixed(0)}
@@ -177,7 +206,9 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
               </thead>
               <tbody>
                 <tr>
-                  <th scope="row" className="muted pr-3 text-left font-normal">Δλ (nm)</th>
+                  <th scope="row" className="muted pr-3 text-left font-normal">
+                    Δλ (nm)
+                  </th>
                   {calibration.drift.deltaNm.map((d, i) => (
                     <td key={i} className="px-3 text-right font-mono">
                       {Math.abs(d) < 0.0005 ? "0.000" : (d > 0 ? "+" : "") + d.toFixed(3)}
@@ -188,7 +219,10 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
             </table>
           </>
         ) : (
-          <p className="muted text-sm">None: this is the instrument&rsquo;s first calibration (or the previous one used another axis).</p>
+          <p className="muted text-sm">
+            None: this is the instrument&rsquo;s first calibration (or the previous one used another
+            axis).
+          </p>
         )}
       </section>
       <div className="mb-4 flex flex-col gap-4">
@@ -197,19 +231,34 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
       </div>
       <div className="panel overflow-x-auto">
         <table className="w-full text-sm" data-testid="pairs-table">
-          <caption className="px-3 py-2 text-left font-semibold">Pairs of lamp peaks and lines</caption>
+          <caption className="px-3 py-2 text-left font-semibold">
+            Pairs of lamp peaks and lines
+          </caption>
           <thead className="border-b border-[var(--line)] text-left">
             <tr>
-              <th scope="col" className="px-3 py-2 text-right">{xTitle}</th>
-              <th scope="col" className="px-3 py-2 text-right">Line λ (nm)</th>
-              <th scope="col" className="px-3 py-2 text-right">Residual (nm)</th>
-              <th scope="col" className="px-3 py-2">Species</th>
-              <th scope="col" className="px-3 py-2">In the fit</th>
+              <th scope="col" className="px-3 py-2 text-right">
+                {xTitle}
+              </th>
+              <th scope="col" className="px-3 py-2 text-right">
+                Line λ (nm)
+              </th>
+              <th scope="col" className="px-3 py-2 text-right">
+                Residual (nm)
+              </th>
+              <th scope="col" className="px-3 py-2">
+                Species
+              </th>
+              <th scope="col" className="px-3 py-2">
+                In the fit
+              </th>
             </tr>
           </thead>
           <tbody>
             {pairs.map((p) => (
-              <tr key={`${p.pixel}-${p.wavelengthNm}`} className="border-b border-[var(--line)] last:border-0">
+              <tr
+                key={`${p.pixel}-${p.wavelengthNm}`}
+                className="border-b border-[var(--line)] last:border-0"
+              >
                 <td className="px-3 py-1.5 text-right font-mono">{p.pixel.toFixed(2)}</td>
                 <td className="px-3 py-1.5 text-right font-mono">{p.wavelengthNm.toFixed(3)}</td>
                 <td className="px-3 py-1.5 text-right font-mono">{p.residualNm.toFixed(4)}</td>
@@ -217,11 +266,17 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
                 <td className="px-3 py-1.5">
                   {p.used ? (
                     <span>
-                      <span aria-hidden className="text-teal-700 dark:text-teal-300">▼ </span>used
+                      <span aria-hidden className="text-teal-700 dark:text-teal-300">
+                        ▼{" "}
+                      </span>
+                      used
                     </span>
                   ) : (
                     <span>
-                      <span aria-hidden className="text-red-700 dark:text-red-300">✕ </span>rejected
+                      <span aria-hidden className="text-red-700 dark:text-red-300">
+                        ✕{" "}
+                      </span>
+                      rejected
                     </span>
                   )}
                 </td>

@@ -11,7 +11,8 @@ import { requireWorkspace } from "@/lib/services/workspace";
 
 export const metadata = { title: "Instrument" };
 
-const action = "rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800";
+const action =
+  "rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800";
 
 export default async function InstrumentPage({ params }: { params: Promise<{ id: string }> }) {
   const { actor } = await requireWorkspace();
@@ -35,7 +36,10 @@ export default async function InstrumentPage({ params }: { params: Promise<{ id:
             <Link href={`/instruments/${id}/upload?kind=lamp`} className={action}>
               Upload a spectrum
             </Link>
-            <Link href={`/instruments/${id}/calibrate`} className="rounded bg-ember-600 px-3 py-1.5 text-sm font-medium text-white hover:bg-ember-700">
+            <Link
+              href={`/instruments/${id}/calibrate`}
+              className="rounded bg-ember-600 px-3 py-1.5 text-sm font-medium text-white hover:bg-ember-700"
+            >
               Calibrate
             </Link>
           </>
@@ -44,8 +48,9 @@ export default async function InstrumentPage({ params }: { params: Promise<{ id:
       <h2 className="mb-2 text-lg font-semibold">Calibration history</h2>
       {calibrations.length === 0 ? (
         <EmptyState title="Not calibrated yet">
-          Upload a reference lamp spectrum (Hg, Ne, Ar, He, Na or a mix) recorded on this instrument, then calibrate: the
-          lamp&apos;s peaks are paired with the line table&apos;s lamp lines and a dispersion relation is fitted.
+          Upload a reference lamp spectrum (Hg, Ne, Ar, He, Na or a mix) recorded on this
+          instrument, then calibrate: the lamp&apos;s peaks are paired with the line table&apos;s
+          lamp lines and a dispersion relation is fitted.
         </EmptyState>
       ) : (
         <div className="panel overflow-x-auto">
@@ -53,13 +58,27 @@ export default async function InstrumentPage({ params }: { params: Promise<{ id:
             <caption className="sr-only">Calibrations of {instrument.name}, newest first</caption>
             <thead className="border-b border-[var(--line)] text-left">
               <tr>
-                <th scope="col" className="px-3 py-2">Date</th>
-                <th scope="col" className="px-3 py-2">Model</th>
-                <th scope="col" className="px-3 py-2 text-right">RMS (nm)</th>
-                <th scope="col" className="px-3 py-2 text-right">Pairs used / rejected</th>
-                <th scope="col" className="px-3 py-2 text-right">Covered range (nm)</th>
-                <th scope="col" className="px-3 py-2 text-right">Drift from previous (max, nm)</th>
-                <th scope="col" className="px-3 py-2">Lamps</th>
+                <th scope="col" className="px-3 py-2">
+                  Date
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Model
+                </th>
+                <th scope="col" className="px-3 py-2 text-right">
+                  RMS (nm)
+                </th>
+                <th scope="col" className="px-3 py-2 text-right">
+                  Pairs used / rejected
+                </th>
+                <th scope="col" className="px-3 py-2 text-right">
+                  Covered range (nm)
+                </th>
+                <th scope="col" className="px-3 py-2 text-right">
+                  Drift from previous (max, nm)
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Lamps
+                </th>
               </tr>
             </thead>
             <tbody>
@@ -72,7 +91,9 @@ export default async function InstrumentPage({ params }: { params: Promise<{ id:
                     <span className="muted block font-mono text-xs" data-testid="calibration-label">
                       {c.label}
                     </span>
-                    {c.pairing.confirmation ? <span className="block text-xs">confirmed despite doubts</span> : null}
+                    {c.pairing.confirmation ? (
+                      <span className="block text-xs">confirmed despite doubts</span>
+                    ) : null}
                     {index === 0 ? (
                       <span className="ml-2 rounded border border-teal-700 px-1 text-2xs text-teal-800 dark:text-teal-200">
                         default for new runs
@@ -87,7 +108,9 @@ export default async function InstrumentPage({ params }: { params: Promise<{ id:
                   <td className="px-3 py-2 text-right font-mono">
                     {c.coveredRangeNm[0].toFixed(1)}–{c.coveredRangeNm[1].toFixed(1)}
                   </td>
-                  <td className="px-3 py-2 text-right font-mono">{c.drift ? c.drift.maxAbsNm.toFixed(3) : "— (first)"}</td>
+                  <td className="px-3 py-2 text-right font-mono">
+                    {c.drift ? c.drift.maxAbsNm.toFixed(3) : "— (first)"}
+                  </td>
                   <td className="px-3 py-2">{c.lamps.join(", ")}</td>
                 </tr>
               ))}

@@ -50,8 +50,15 @@ export default async function NotebookPage({
   const formFallback: Record<string, unknown> = {};
   if (instrumentId) {
     const instrument = instruments.find((i) => i.id === instrumentId)!;
-    formFallback[spectraKey(notebook.teamId, instrumentId, "sample")] = await fetchSpectra(actor, notebook.teamId, { instrumentId, kind: "sample" });
-    formFallback[`/api/instruments/${instrumentId}`] = { ...instrument, calibrations: await fetchCalibrations(actor, instrumentId) };
+    formFallback[spectraKey(notebook.teamId, instrumentId, "sample")] = await fetchSpectra(
+      actor,
+      notebook.teamId,
+      { instrumentId, kind: "sample" },
+    );
+    formFallback[`/api/instruments/${instrumentId}`] = {
+      ...instrument,
+      calibrations: await fetchCalibrations(actor, instrumentId),
+    };
   }
 
   return (
@@ -60,15 +67,29 @@ export default async function NotebookPage({
         title={notebook.title}
         description={`${notebook.runCount} ${notebook.runCount === 1 ? "run" : "runs"} · opened ${notebook.createdAt.slice(0, 10)} · last activity ${notebook.lastActivityAt.slice(0, 10)}`}
       />
-      <RenameNotebookForm notebookId={id} title={notebook.title} version={notebook.version} action={renameNotebookAction} />
+      <RenameNotebookForm
+        notebookId={id}
+        title={notebook.title}
+        version={notebook.version}
+        action={renameNotebookAction}
+      />
       <ScreeningNotice />
       <div className="mt-4">
         {notebook.runCount > 0 ? (
-          <a href={`/api/notebooks/${id}/calls.csv`} download className="mb-2 inline-block text-sm underline" data-testid="download-calls-csv">
+          <a
+            href={`/api/notebooks/${id}/calls.csv`}
+            download
+            className="mb-2 inline-block text-sm underline"
+            data-testid="download-calls-csv"
+          >
             Calls CSV (every run&apos;s calls)
           </a>
         ) : null}
-        <RunList notebookId={id} instruments={instruments.map((i) => ({ id: i.id, name: i.name }))} fallback={runFallback} />
+        <RunList
+          notebookId={id}
+          instruments={instruments.map((i) => ({ id: i.id, name: i.name }))}
+          fallback={runFallback}
+        />
       </div>
       <div className="mt-6">
         {instruments.length === 0 || !instrumentId ? (
@@ -97,7 +118,10 @@ export default async function NotebookPage({
               action={startRunAction}
             />
             <section className="mt-3 max-w-3xl text-sm" aria-label="Upload a sample">
-              <p className="muted">A new sample? Upload it on the instrument that recorded it; the run form then has it selected.</p>
+              <p className="muted">
+                A new sample? Upload it on the instrument that recorded it; the run form then has it
+                selected.
+              </p>
               <ul className="mt-2 flex flex-wrap gap-2">
                 {instruments.map((i) => (
                   <li key={i.id}>

@@ -3,7 +3,11 @@
 // mark form on each call and its lines, the rounds so far, and Return with comments or Sign.
 import Link from "next/link";
 import { redirect } from "next/navigation";
-import { ResidualChart, RunSpectrumChart, type PairMark } from "@/components/charts/spectrum-charts";
+import {
+  ResidualChart,
+  RunSpectrumChart,
+  type PairMark,
+} from "@/components/charts/spectrum-charts";
 import { ReviewHistory } from "@/components/review/review-history";
 import { MarkForm, ReturnForm, SignForm } from "@/components/review/review-forms";
 import { PageHeader } from "@/components/ui/page-header";
@@ -39,7 +43,10 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
     .filter(([, v]) => v === "present")
     .map(([s]) => s);
   const pairs: PairMark[] = calibration
-    ? [...calibration.pairs.map((p) => ({ ...p, used: true })), ...calibration.rejected.map((p) => ({ ...p, used: false }))].sort((a, b) => a.pixel - b.pixel)
+    ? [
+        ...calibration.pairs.map((p) => ({ ...p, used: true })),
+        ...calibration.rejected.map((p) => ({ ...p, used: false })),
+      ].sort((a, b) => a.pixel - b.pixel)
     : [];
   const toReview = [...run.calls]
     .filter((c) => c.verdict !== "absent" || run.verdicts[c.species] !== "absent")
@@ -51,10 +58,16 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
         description={`${run.source} on ${instrument.name} · ${run.createdAt.slice(0, 16).replace("T", " ")} · ${review.statusLabel} · version ${run.versionNumber}${run.reviewRound ? ` · round ${run.reviewRound}` : ""} · called present: ${present.length ? present.join(", ") : "none"}`}
         actions={
           <>
-            <Link href="/review" className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800">
+            <Link
+              href="/review"
+              className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800"
+            >
               Back to the queue
             </Link>
-            <Link href={`/runs/${run.id}`} className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800">
+            <Link
+              href={`/runs/${run.id}`}
+              className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800"
+            >
               Open the run
             </Link>
           </>
@@ -62,18 +75,29 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
       />
       <RunNotices run={run} coveredRangeNm={calibration?.coveredRangeNm ?? null}>
         {review.whyNotDecide ? (
-          <p role="note" className="rounded border border-ember-600 p-2 text-sm" data-testid="why-not-review">
+          <p
+            role="note"
+            className="rounded border border-ember-600 p-2 text-sm"
+            data-testid="why-not-review"
+          >
             <span className="font-semibold">You cannot decide this run: </span>
             {review.whyNotDecide}
           </p>
         ) : null}
       </RunNotices>
 
-      <RunSpectrumChart spectrum={series.spectrum} continuum={series.continuum} labels={labels} unexplainedNm={run.unexplained.map((u) => u.wavelengthNm)} />
+      <RunSpectrumChart
+        spectrum={series.spectrum}
+        continuum={series.continuum}
+        labels={labels}
+        unexplainedNm={run.unexplained.map((u) => u.wavelengthNm)}
+      />
 
       <h2 className="mb-2 mt-6 text-lg font-semibold">The calls to review</h2>
       {toReview.length === 0 ? (
-        <p className="muted text-sm">No element is called present or possible: there is no call to mark.</p>
+        <p className="muted text-sm">
+          No element is called present or possible: there is no call to mark.
+        </p>
       ) : (
         <ul className="flex flex-col gap-2" data-testid="calls-to-review">
           {toReview.map((call) => {
@@ -84,7 +108,9 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
                 <p className="flex flex-wrap items-baseline gap-2">
                   <span className="font-semibold">{call.species}</span>
                   <VerdictBadge verdict={standing} />
-                  {standing !== call.verdict ? <span className="muted text-xs">(computed: {call.verdict})</span> : null}
+                  {standing !== call.verdict ? (
+                    <span className="muted text-xs">(computed: {call.verdict})</span>
+                  ) : null}
                   <span className="font-mono text-xs">score {call.score.toFixed(2)}</span>
                   <span className="muted text-xs">
                     {call.seenCount} lines seen · {call.missingCount} missing
@@ -100,8 +126,14 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
                     runId={run.id}
                     species={call.species}
                     lines={[
-                      ...call.lines.map((l) => ({ lineNm: l.lineNm, label: `${l.lineNm.toFixed(3)} nm (seen, Δλ ${l.deltaNm.toFixed(3)} nm)` })),
-                      ...call.missing.map((m) => ({ lineNm: m.lineNm, label: `${m.lineNm.toFixed(3)} nm (expected, missing)` })),
+                      ...call.lines.map((l) => ({
+                        lineNm: l.lineNm,
+                        label: `${l.lineNm.toFixed(3)} nm (seen, Δλ ${l.deltaNm.toFixed(3)} nm)`,
+                      })),
+                      ...call.missing.map((m) => ({
+                        lineNm: m.lineNm,
+                        label: `${m.lineNm.toFixed(3)} nm (expected, missing)`,
+                      })),
                     ]}
                     action={addMarkAction}
                   />
@@ -122,7 +154,12 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
           </h2>
           <div className="grid gap-4 lg:grid-cols-2">
             <ReturnForm runId={run.id} action={decideRunAction} />
-            <SignForm runId={run.id} meaning={SIGNATURE_MEANING} signerName={actor.name} action={decideRunAction} />
+            <SignForm
+              runId={run.id}
+              meaning={SIGNATURE_MEANING}
+              signerName={actor.name}
+              action={decideRunAction}
+            />
           </div>
         </section>
       ) : null}
@@ -151,21 +188,34 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
         <>
           <p className="mb-2 text-sm">
             <Link href={`/calibrations/${calibration.id}`} className="underline">
-              {calibration.calibratedOn} · {calibration.model} · RMS {calibration.rmsNm.toFixed(4)} nm
+              {calibration.calibratedOn} · {calibration.model} · RMS {calibration.rmsNm.toFixed(4)}{" "}
+              nm
             </Link>{" "}
-            · {calibration.pairs.length} pairs used, {calibration.rejected.length} rejected · covers {calibration.coveredRangeNm[0].toFixed(1)}–
-            {calibration.coveredRangeNm[1].toFixed(1)} nm
+            · {calibration.pairs.length} pairs used, {calibration.rejected.length} rejected · covers{" "}
+            {calibration.coveredRangeNm[0].toFixed(1)}–{calibration.coveredRangeNm[1].toFixed(1)} nm
           </p>
           <ResidualChart pairs={pairs} xTitle={X_TITLES[spectrum.xUnit]} />
           <table className="panel mt-2 w-full text-sm" data-testid="review-pairs">
-            <caption className="px-3 py-1 text-left text-xs font-semibold">Lamp pairs and residuals</caption>
+            <caption className="px-3 py-1 text-left text-xs font-semibold">
+              Lamp pairs and residuals
+            </caption>
             <thead className="text-left text-xs">
               <tr>
-                <th scope="col" className="px-3">Pixel</th>
-                <th scope="col" className="px-3">Line</th>
-                <th scope="col" className="px-3">Wavelength (nm)</th>
-                <th scope="col" className="px-3">Residual (nm)</th>
-                <th scope="col" className="px-3">Used</th>
+                <th scope="col" className="px-3">
+                  Pixel
+                </th>
+                <th scope="col" className="px-3">
+                  Line
+                </th>
+                <th scope="col" className="px-3">
+                  Wavelength (nm)
+                </th>
+                <th scope="col" className="px-3">
+                  Residual (nm)
+                </th>
+                <th scope="col" className="px-3">
+                  Used
+                </th>
               </tr>
             </thead>
             <tbody className="font-mono text-xs">
@@ -186,13 +236,18 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
       )}
 
       <h2 className="mb-2 mt-6 text-lg font-semibold">Settings and provenance</h2>
-      <dl className="grid max-w-3xl grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm" data-testid="review-settings">
+      <dl
+        className="grid max-w-3xl grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm"
+        data-testid="review-settings"
+      >
         <dt className="muted">Detection threshold (min SNR)</dt>
         <dd className="font-mono text-xs">{run.settings.minSnr ?? "default"}</dd>
         <dt className="muted">Match window (k·σ)</dt>
         <dd className="font-mono text-xs">{run.settings.k ?? "default"}</dd>
         <dt className="muted">Temperature for intensities</dt>
-        <dd className="font-mono text-xs">{run.settings.temperatureK ? `${run.settings.temperatureK} K` : "default"}</dd>
+        <dd className="font-mono text-xs">
+          {run.settings.temperatureK ? `${run.settings.temperatureK} K` : "default"}
+        </dd>
         <dt className="muted">Line-table release</dt>
         <dd className="font-mono text-xs">{run.lineReleaseId}</dd>
         <dt className="muted">Noise</dt>

@@ -16,9 +16,16 @@ async function actorOrThrow() {
   return actor;
 }
 
-export async function overrideCallAction(runId: string, _state: FormState, formData: FormData): Promise<FormState> {
+export async function overrideCallAction(
+  runId: string,
+  _state: FormState,
+  formData: FormData,
+): Promise<FormState> {
   const parsed = runOverrideFromForm(formData);
-  const values = { verdict: String(formData.get("verdict") ?? ""), reason: String(formData.get("reason") ?? "") };
+  const values = {
+    verdict: String(formData.get("verdict") ?? ""),
+    reason: String(formData.get("reason") ?? ""),
+  };
   if (!parsed.success) return invalidFormState(parsed.error, values);
   try {
     await overrideCall(await actorOrThrow(), runId, parsed.data);
@@ -26,23 +33,41 @@ export async function overrideCallAction(runId: string, _state: FormState, formD
     return { ...formError(error), values };
   }
   revalidatePath(`/runs/${runId}`);
-  return { ok: true, message: parsed.data.verdict === null ? "Override withdrawn." : "Override saved." };
+  return {
+    ok: true,
+    message: parsed.data.verdict === null ? "Override withdrawn." : "Override saved.",
+  };
 }
 
-export async function saveRunNotesAction(runId: string, _state: FormState, formData: FormData): Promise<FormState> {
+export async function saveRunNotesAction(
+  runId: string,
+  _state: FormState,
+  formData: FormData,
+): Promise<FormState> {
   const parsed = runNotesFromForm(formData);
-  const values = { notes: String(formData.get("notes") ?? ""), lockVersion: String(formData.get("lockVersion") ?? "") };
+  const values = {
+    notes: String(formData.get("notes") ?? ""),
+    lockVersion: String(formData.get("lockVersion") ?? ""),
+  };
   if (!parsed.success) return invalidFormState(parsed.error, values);
   try {
     const run = await updateRunNotes(await actorOrThrow(), runId, parsed.data);
     revalidatePath(`/runs/${runId}`);
-    return { ok: true, message: "Notes saved.", values: { notes: run.notes, lockVersion: String(run.lockVersion) } };
+    return {
+      ok: true,
+      message: "Notes saved.",
+      values: { notes: run.notes, lockVersion: String(run.lockVersion) },
+    };
   } catch (error) {
     return { ...formError(error), values };
   }
 }
 
-export async function rerunAction(runId: string, _state: FormState, _formData: FormData): Promise<FormState> {
+export async function rerunAction(
+  runId: string,
+  _state: FormState,
+  _formData: FormData,
+): Promise<FormState> {
   void _formData;
   let id: string;
   try {

@@ -48,8 +48,16 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
         description={`${run.source} on ${instrument.name} · ${run.createdAt.slice(0, 16).replace("T", " ")} · ${run.peaks.length} peaks · called present: ${present.length ? present.join(", ") : "none"}`}
         actions={
           <div className="flex flex-wrap items-start gap-2">
-            {newer ? <RunRerunButton releaseNumber={newer.number} action={rerunAction.bind(null, run.id)} /> : null}
-            <Link href={`/notebooks/${run.notebookId}`} className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800">
+            {newer ? (
+              <RunRerunButton
+                releaseNumber={newer.number}
+                action={rerunAction.bind(null, run.id)}
+              />
+            ) : null}
+            <Link
+              href={`/notebooks/${run.notebookId}`}
+              className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800"
+            >
               Back to the notebook
             </Link>
           </div>
@@ -100,14 +108,20 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
       <h2 className="mb-2 mt-6 text-lg font-semibold">Peaks</h2>
       <PeakTable peaks={run.peaks} />
       <h2 className="mb-2 mt-6 text-lg font-semibold">Notes</h2>
-      <RunNotes notes={run.notes} lockVersion={run.lockVersion} editable={editable} action={saveRunNotesAction.bind(null, run.id)} />
+      <RunNotes
+        notes={run.notes}
+        lockVersion={run.lockVersion}
+        editable={editable}
+        action={saveRunNotesAction.bind(null, run.id)}
+      />
       <h2 className="mb-2 mt-6 text-lg font-semibold">Made from</h2>
       <dl className="grid max-w-3xl grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm">
         <dt className="muted">Calibration</dt>
         <dd>
           {calibration ? (
             <Link href={`/calibrations/${calibration.id}`} className="underline">
-              {calibration.calibratedOn} · {calibration.model} · RMS {calibration.rmsNm.toFixed(3)} nm
+              {calibration.calibratedOn} · {calibration.model} · RMS {calibration.rmsNm.toFixed(3)}{" "}
+              nm
             </Link>
           ) : (
             "none (the file's own axis)"
@@ -129,7 +143,9 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
           </>
         ) : null}
         <dt className="muted">Settings</dt>
-        <dd className="font-mono text-xs">{Object.keys(run.settings).length ? JSON.stringify(run.settings) : "defaults"}</dd>
+        <dd className="font-mono text-xs">
+          {Object.keys(run.settings).length ? JSON.stringify(run.settings) : "defaults"}
+        </dd>
         <dt className="muted">Noise</dt>
         <dd className="font-mono text-xs">{run.noiseCounts.toFixed(2)} counts</dd>
         <dt className="muted">Software</dt>

@@ -5,5 +5,7 @@ import { idParam } from "@/lib/validation/line-schemas";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();
-  return Response.json(await fetchCalibration(actor, idParam((await params).id, "No such calibration.")));
+  return Response.json(
+    await fetchCalibration(actor, idParam((await params).id, "No such calibration.")),
+  );
 });

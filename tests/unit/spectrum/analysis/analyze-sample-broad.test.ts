@@ -13,7 +13,12 @@ const NM_PER_PX = 300 / (PIXELS - 1);
 const RESOLUTION_NM = 0.6;
 
 // An invented table: five clear lines, an atomic line under each broad feature, and one band.
-function line(id: string, species: string, airNm: number, extra: Partial<ReferenceLine> = {}): ReferenceLine {
+function line(
+  id: string,
+  species: string,
+  airNm: number,
+  extra: Partial<ReferenceLine> = {},
+): ReferenceLine {
   return {
     id,
     species,
@@ -32,7 +37,11 @@ const table: ReferenceLine[] = [
   ...CLEAR_NM.map((nm, i) => line(`a${i}`, "A I", nm)),
   line("x1", "X I", 605.0),
   line("y1", "Y I", 560.0),
-  line("xo", "XO", 600, { uncertaintyNm: 0.5, flags: { bandHead: true }, band: { extentNm: 20, degradesTo: "red" } }),
+  line("xo", "XO", 600, {
+    uncertaintyNm: 0.5,
+    flags: { bandHead: true },
+    band: { extentNm: 20, degradesTo: "red" },
+  }),
 ];
 
 const sample = synthesizeSpectrum({
@@ -49,8 +58,15 @@ const sample = synthesizeSpectrum({
   darkCounts: 100,
   seed: 7,
 });
-const pairs = [0, 400, 800, 1200, 1600, 2047].map((x) => ({ x, wavelengthNm: wavelengthOfPixel(x) }));
-const calibration = fitCalibration(pairs, { model: "polynomial", degree: 1, domain: [0, PIXELS - 1] }).model;
+const pairs = [0, 400, 800, 1200, 1600, 2047].map((x) => ({
+  x,
+  wavelengthNm: wavelengthOfPixel(x),
+}));
+const calibration = fitCalibration(pairs, {
+  model: "polynomial",
+  degree: 1,
+  domain: [0, PIXELS - 1],
+}).model;
 const peakNear = (analysis: ReturnType<typeof analyzeSample>, nm: number) => {
   const found = analysis.peaks.findIndex((p) => Math.abs(p.wavelengthNm - nm) < RESOLUTION_NM);
   expect(found, `a peak near ${nm} nm`).toBeGreaterThanOrEqual(0);
@@ -74,7 +90,9 @@ describe("analyzeSample on features much wider than the instrument's line", () =
       const p = analysis.peaks[peakNear(analysis, nm)];
       expect(p.broad).toBe(false);
       expect(Math.abs(p.resolutionNm! / RESOLUTION_NM - 1)).toBeLessThan(0.15);
-      expect(analysis.identification.matches[peakNear(analysis, nm)].candidates.map((c) => c.line.id)).toContain(`a${CLEAR_NM.indexOf(nm)}`);
+      expect(
+        analysis.identification.matches[peakNear(analysis, nm)].candidates.map((c) => c.line.id),
+      ).toContain(`a${CLEAR_NM.indexOf(nm)}`);
     }
     expect(analysis.identification.calls.find((c) => c.species === "A I")?.verdict).toBe("present");
   });
@@ -82,20 +100,31 @@ describe("analyzeSample on features much wider than the instrument's line", () =
   it("offers a broad feature only the band whose head zone it lies in", () => {
     const at = peakNear(analysis, 605);
     expect(analysis.peaks[at].broad).toBe(true);
-    expect(analysis.identification.matches[at].candidates.map((c) => [c.line.id, c.kind])).toEqual([["xo", "band"]]);
-    expect(analysis.identification.calls.find((c) => c.species === "X I")?.verdict ?? "absent").toBe("absent");
+    expect(analysis.identification.matches[at].candidates.map((c) => [c.line.id, c.kind])).toEqual([
+      ["xo", "band"],
+    ]);
+    expect(
+      analysis.identification.calls.find((c) => c.species === "X I")?.verdict ?? "absent",
+    ).toBe("absent");
   });
 
   it("lists a broad feature that no band explains among the unexplained peaks", () => {
     const at = peakNear(analysis, 560);
     expect(analysis.peaks[at].broad).toBe(true);
     expect(analysis.identification.matches[at].candidates).toEqual([]);
-    expect(analysis.identification.unexplainedPeaks.find((u) => u.peakIndex === at)?.reason).toBe("no-candidate");
-    expect(analysis.identification.calls.find((c) => c.species === "Y I")?.verdict ?? "absent").toBe("absent");
+    expect(analysis.identification.unexplainedPeaks.find((u) => u.peakIndex === at)?.reason).toBe(
+      "no-candidate",
+    );
+    expect(
+      analysis.identification.calls.find((c) => c.species === "Y I")?.verdict ?? "absent",
+    ).toBe("absent");
   });
 
   it("converts a given resolutionNm at the array's middle, or takes resolutionPx as it is", () => {
-    const fromNm = analyzeSample(sample.x, sample.y, table, { calibration, resolutionNm: RESOLUTION_NM });
+    const fromNm = analyzeSample(sample.x, sample.y, table, {
+      calibration,
+      resolutionNm: RESOLUTION_NM,
+    });
     expect(fromNm.instrumentWidth?.basis).toBe("resolutionNm");
     expect(fromNm.instrumentWidth!.fwhm / (RESOLUTION_NM / NM_PER_PX) - 1).toBeCloseTo(0, 9);
     const fromPx = analyzeSample(sample.x, sample.y, table, { calibration, resolutionPx: 4 });
@@ -117,14 +146,29 @@ describe("analyzeSample on features much wider than the instrument's line", () =
     expect(asNm.peaks[peakNear(asNm, 510)].broad).toBe(false);
     // Too few clean lines to read a trend: nothing is estimated, and each peak's own width serves.
     const oneLine = x.map((nm) => (nm > 500 && nm < 520 ? 1 : 0));
-    const few = analyzeSample(x, sample.y.map((v, i) => (oneLine[i] ? v : 100)), table, {});
+    const few = analyzeSample(
+      x,
+      sample.y.map((v, i) => (oneLine[i] ? v : 100)),
+      table,
+      {},
+    );
     expect(few.instrumentWidth).toBeNull();
-    expect(few.peaks.every((p) => p.broad === undefined && p.resolutionNm === undefined)).toBe(true);
+    expect(few.peaks.every((p) => p.broad === undefined && p.resolutionNm === undefined)).toBe(
+      true,
+    );
     const given = analyzeSample(x, sample.y, table, { resolutionNm: RESOLUTION_NM });
-    expect(given.instrumentWidth).toEqual({ fwhm: RESOLUTION_NM, unit: "nm", basis: "resolutionNm" });
+    expect(given.instrumentWidth).toEqual({
+      fwhm: RESOLUTION_NM,
+      unit: "nm",
+      basis: "resolutionNm",
+    });
     expect(given.peaks[peakNear(given, 605)].broad).toBe(true);
     expect(() => analyzeSample(x, sample.y, table, { resolutionPx: 4 })).toThrow(RangeError);
-    expect(() => analyzeSample(sample.x, sample.y, table, { calibration, resolutionNm: -1 })).toThrow(/resolutionNm/);
-    expect(() => analyzeSample(sample.x, sample.y, table, { calibration, resolutionPx: 0 })).toThrow(/resolutionPx/);
+    expect(() =>
+      analyzeSample(sample.x, sample.y, table, { calibration, resolutionNm: -1 }),
+    ).toThrow(/resolutionNm/);
+    expect(() =>
+      analyzeSample(sample.x, sample.y, table, { calibration, resolutionPx: 0 }),
+    ).toThrow(/resolutionPx/);
   });
 });

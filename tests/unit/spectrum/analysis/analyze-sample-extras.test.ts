@@ -11,7 +11,12 @@ import type { ReferenceLine } from "../../../../lib/spectrum/types";
 // CODATA 2018 value of the Boltzmann constant in eV/K.
 const K_EV = 8.617333262e-5;
 
-function line(id: string, species: string, airNm: number, extra: Partial<ReferenceLine> = {}): ReferenceLine {
+function line(
+  id: string,
+  species: string,
+  airNm: number,
+  extra: Partial<ReferenceLine> = {},
+): ReferenceLine {
   return {
     id,
     species,
@@ -28,7 +33,10 @@ function line(id: string, species: string, airNm: number, extra: Partial<Referen
 
 const linearCalibration = (pixels: number, wavelengthOfPixel: (px: number) => number) =>
   fitCalibration(
-    [0, 0.2, 0.4, 0.6, 0.8, 1].map((u) => ({ x: u * (pixels - 1), wavelengthNm: wavelengthOfPixel(u * (pixels - 1)) })),
+    [0, 0.2, 0.4, 0.6, 0.8, 1].map((u) => ({
+      x: u * (pixels - 1),
+      wavelengthNm: wavelengthOfPixel(u * (pixels - 1)),
+    })),
     { model: "polynomial", degree: 1, domain: [0, pixels - 1] },
   ).model;
 
@@ -88,14 +96,20 @@ describe("analyzeSample's Boltzmann temperature and assumed LTE intensities", ()
   const TRUE_T = 4000;
   // I ∝ g·A/λ·exp(−E/kT) (Boltzmann population of the upper level, photon energy ∝ 1/λ); the heights
   // stand for the areas here, since every line is drawn with the same width on a linear axis.
-  const strength = (l: (typeof atomic)[number]) => ((l.g * l.a) / l.nm) * Math.exp(-l.upperEv / (K_EV * TRUE_T));
+  const strength = (l: (typeof atomic)[number]) =>
+    ((l.g * l.a) / l.nm) * Math.exp(-l.upperEv / (K_EV * TRUE_T));
   const strongest = Math.max(...atomic.map(strength));
-  const table = atomic.map((l, i) => line(`t${i}`, "T I", l.nm, { g: l.g, a: l.a, upperEv: l.upperEv, intensities: { flame: 100 } }));
+  const table = atomic.map((l, i) =>
+    line(`t${i}`, "T I", l.nm, { g: l.g, a: l.a, upperEv: l.upperEv, intensities: { flame: 100 } }),
+  );
   const sample = synthesizeSpectrum({
     pixelCount: PIXELS,
     wavelengthOfPixel,
     resolutionNm: 0.6,
-    lines: atomic.map((l) => ({ wavelengthNm: l.nm, amplitude: (20000 * strength(l)) / strongest })),
+    lines: atomic.map((l) => ({
+      wavelengthNm: l.nm,
+      amplitude: (20000 * strength(l)) / strongest,
+    })),
     readNoiseCounts: 3,
     darkCounts: 100,
     seed: 9,
@@ -134,9 +148,11 @@ describe("analyzeSample's Boltzmann temperature and assumed LTE intensities", ()
       seed: 2,
     });
     const call = (lteTemperatureK?: number) =>
-      analyzeSample(one.x, one.y, pair, { calibration, resolutionNm: 0.6, lteTemperatureK }).identification.calls.find(
-        (c) => c.species === "U I",
-      )!;
+      analyzeSample(one.x, one.y, pair, {
+        calibration,
+        resolutionNm: 0.6,
+        lteTemperatureK,
+      }).identification.calls.find((c) => c.species === "U I")!;
     // Table values: the 600 nm line is as strong as the seen one, so its absence counts against U I.
     expect(call().missingStrongCount).toBe(1);
     // At 2500 K, exp(−4 eV / kT) ≈ 1e-8: the 600 nm line is not expected to show.

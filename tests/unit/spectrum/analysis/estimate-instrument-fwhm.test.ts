@@ -4,7 +4,18 @@ import { estimateInstrumentFwhm } from "../../../../lib/spectrum/analysis";
 import type { Peak } from "../../../../lib/spectrum/types";
 
 function peak(x: number, fwhm: number, snr: number, extra: Partial<Peak> = {}): Peak {
-  return { index: Math.round(x), x, xUncertainty: 0.05, height: 10 * snr, fwhm, area: 10 * snr * fwhm, snr, saturated: false, blended: false, ...extra };
+  return {
+    index: Math.round(x),
+    x,
+    xUncertainty: 0.05,
+    height: 10 * snr,
+    fwhm,
+    area: 10 * snr * fwhm,
+    snr,
+    saturated: false,
+    blended: false,
+    ...extra,
+  };
 }
 
 describe("estimateInstrumentFwhm", () => {

@@ -1,7 +1,12 @@
 // Automatic and manual pairing on synthetic Hg–Ne–Ar lamps with known truth: right pairs counted,
 // wavelengths back within tolerance, the prism first guess needed, hopeless input sent to manual.
 import { describe, it, expect } from "vitest";
-import { autoPairLampPeaks, evaluateCalibration, pairManually, type LampPairingResult } from "@/lib/spectrum/calibration";
+import {
+  autoPairLampPeaks,
+  evaluateCalibration,
+  pairManually,
+  type LampPairingResult,
+} from "@/lib/spectrum/calibration";
 import { prismForwardX } from "@/lib/spectrum/calibration/prism-forward";
 import { seededRandom } from "@/lib/spectrum/calibration/seeded-random";
 import { HG_NE_AR_LINES as LINES } from "./lamp-lines";
@@ -10,7 +15,13 @@ import { syntheticLamp, type SyntheticLamp } from "./synthetic-lamp";
 const DOMAIN: [number, number] = [0, 2047];
 const NOMINAL: [number, number] = [350, 900];
 const gratingX = (l: number) => (l - 350) / 0.27 - (2e-5 * (l - 600) ** 3) / 27;
-const F2 = { glass: "F2" as const, incidenceRad: (52 * Math.PI) / 180, apexRad: Math.PI / 3, direction: 1 as const, referenceWavelengthNm: 550 };
+const F2 = {
+  glass: "F2" as const,
+  incidenceRad: (52 * Math.PI) / 180,
+  apexRad: Math.PI / 3,
+  direction: 1 as const,
+  referenceWavelengthNm: 550,
+};
 const rawPrism = (l: number) => prismForwardX({ ...F2, focalX: 1, axisX: 0 }, l);
 const prismScale = 2000 / (rawPrism(900) - rawPrism(350));
 const prismX = (l: number) => 20 + prismScale * (rawPrism(l) - rawPrism(350));
@@ -49,16 +60,43 @@ function trueNm(xOf: (l: number) => number, x: number): number {
 const PRISM_TOLERANCE_NM = 0.1;
 
 const cases = [
-  { name: "grating, blue at low pixels", xOf: gratingX, dispersion: "grating" as const, toleranceNm: 0.05 },
-  { name: "grating, blue at high pixels", xOf: (l: number) => 2047 - gratingX(l), dispersion: "grating" as const, toleranceNm: 0.05 },
-  { name: "F2 prism, blue at low pixels", xOf: prismX, dispersion: "prism" as const, toleranceNm: PRISM_TOLERANCE_NM },
+  {
+    name: "grating, blue at low pixels",
+    xOf: gratingX,
+    dispersion: "grating" as const,
+    toleranceNm: 0.05,
+  },
+  {
+    name: "grating, blue at high pixels",
+    xOf: (l: number) => 2047 - gratingX(l),
+    dispersion: "grating" as const,
+    toleranceNm: 0.05,
+  },
+  {
+    name: "F2 prism, blue at low pixels",
+    xOf: prismX,
+    dispersion: "prism" as const,
+    toleranceNm: PRISM_TOLERANCE_NM,
+  },
 ];
 
 describe("autoPairLampPeaks", () => {
   for (const c of cases) {
     it(`pairs a noisy lamp with missing lines and spurious peaks: ${c.name}`, () => {
-      const lamp = syntheticLamp(LINES, c.xOf, { domain: DOMAIN, noiseX: 0.05, dropFraction: 0.2, spurious: 5, seed: 3, maxPeaks: 40 });
-      const result = autoPairLampPeaks(lamp.peaks, LINES, { nominalRangeNm: NOMINAL, dispersion: c.dispersion, domain: DOMAIN, seed: 7 });
+      const lamp = syntheticLamp(LINES, c.xOf, {
+        domain: DOMAIN,
+        noiseX: 0.05,
+        dropFraction: 0.2,
+        spurious: 5,
+        seed: 3,
+        maxPeaks: 40,
+      });
+      const result = autoPairLampPeaks(lamp.peaks, LINES, {
+        nominalRangeNm: NOMINAL,
+        dispersion: c.dispersion,
+        domain: DOMAIN,
+        seed: 7,
+      });
       expect(result.status).toBe("paired");
       const { correct, wrong } = count(result, lamp);
       // At least three quarters of the real peaks whose line stands clear of its neighbours paired, and
@@ -66,7 +104,13 @@ describe("autoPairLampPeaks", () => {
       // 1.6 resolution elements (here 4 px each, span/500 at 0.27 nm/px) of another is partly resolved
       // at best, its centre pulled, and pairing leaves it out on purpose (group-blended-lamp-lines.ts).
       const isolated = lamp.truthLine.filter(
-        (l) => l >= 0 && LINES.every((other, k) => k === l || Math.abs(c.xOf(other.wavelengthNm) - c.xOf(LINES[l].wavelengthNm)) >= 1.6 * 4),
+        (l) =>
+          l >= 0 &&
+          LINES.every(
+            (other, k) =>
+              k === l ||
+              Math.abs(c.xOf(other.wavelengthNm) - c.xOf(LINES[l].wavelengthNm)) >= 1.6 * 4,
+          ),
       ).length;
       expect(correct).toBeGreaterThanOrEqual(0.75 * isolated);
       expect(wrong).toBeLessThanOrEqual(2);
@@ -78,7 +122,9 @@ describe("autoPairLampPeaks", () => {
       expect(Math.abs(c1 - c0)).toBeGreaterThanOrEqual(0.4 * (DOMAIN[1] - DOMAIN[0]));
       const x = Float64Array.from({ length: 5 }, (_, i) => c0 + ((c1 - c0) * i) / 4);
       const lambda = evaluateCalibration(result.model!.model, x);
-      x.forEach((xi, i) => expect(Math.abs(lambda[i] - trueNm(c.xOf, xi))).toBeLessThan(c.toleranceNm));
+      x.forEach((xi, i) =>
+        expect(Math.abs(lambda[i] - trueNm(c.xOf, xi))).toBeLessThan(c.toleranceNm),
+      );
     });
   }
 
@@ -89,15 +135,32 @@ describe("autoPairLampPeaks", () => {
     const xOf = direction === 1 ? prismX : (l: number) => 2047 - prismX(l);
     for (let seed = 1; seed <= 6; seed++) {
       it(`calibrates a prism lamp across the array after automatic pairing: axis direction ${direction}, lamp ${seed}`, () => {
-        const lamp = syntheticLamp(LINES, xOf, { domain: DOMAIN, noiseX: 0.05, dropFraction: 0.2, spurious: 5, seed, maxPeaks: 40 });
-        const result = autoPairLampPeaks(lamp.peaks, LINES, { nominalRangeNm: NOMINAL, dispersion: "prism", domain: DOMAIN, seed: 7 });
+        const lamp = syntheticLamp(LINES, xOf, {
+          domain: DOMAIN,
+          noiseX: 0.05,
+          dropFraction: 0.2,
+          spurious: 5,
+          seed,
+          maxPeaks: 40,
+        });
+        const result = autoPairLampPeaks(lamp.peaks, LINES, {
+          nominalRangeNm: NOMINAL,
+          dispersion: "prism",
+          domain: DOMAIN,
+          seed: 7,
+        });
         // The pairing checks (verify-lamp-pairing.ts) may ask for a check instead of trusting a pairing
         // that holds a wrong pair; the calibration they hold back must still be the right one.
         expect(["paired", "check"]).toContain(result.status);
         if (result.status === "check") {
           expect(result.reasons!.length).toBeGreaterThan(0);
-          const held = evaluateCalibration(result.candidate!.model, new Float64Array([150, 700, 1300, 1900]));
-          [150, 700, 1300, 1900].forEach((xi, i) => expect(Math.abs(held[i] - trueNm(xOf, xi))).toBeLessThan(PRISM_TOLERANCE_NM));
+          const held = evaluateCalibration(
+            result.candidate!.model,
+            new Float64Array([150, 700, 1300, 1900]),
+          );
+          [150, 700, 1300, 1900].forEach((xi, i) =>
+            expect(Math.abs(held[i] - trueNm(xOf, xi))).toBeLessThan(PRISM_TOLERANCE_NM),
+          );
           return;
         }
         const { correct, wrong, real } = count(result, lamp);
@@ -107,14 +170,26 @@ describe("autoPairLampPeaks", () => {
         expect(wrong).toBeLessThanOrEqual(1);
         const x = new Float64Array([150, 700, 1300, 1900]);
         const lambda = evaluateCalibration(result.model!.model, x);
-        x.forEach((xi, i) => expect(Math.abs(lambda[i] - trueNm(xOf, xi))).toBeLessThan(PRISM_TOLERANCE_NM));
+        x.forEach((xi, i) =>
+          expect(Math.abs(lambda[i] - trueNm(xOf, xi))).toBeLessThan(PRISM_TOLERANCE_NM),
+        );
       });
     }
   }
 
-  for (const [dispersion, xOf] of [["grating", gratingX], ["prism", prismX]] as const) {
+  for (const [dispersion, xOf] of [
+    ["grating", gratingX],
+    ["prism", prismX],
+  ] as const) {
     it(`is deterministic for a seed: ${dispersion}`, () => {
-      const lamp = syntheticLamp(LINES, xOf, { domain: DOMAIN, noiseX: 0.05, dropFraction: 0.2, spurious: 5, seed: 4, maxPeaks: 40 });
+      const lamp = syntheticLamp(LINES, xOf, {
+        domain: DOMAIN,
+        noiseX: 0.05,
+        dropFraction: 0.2,
+        spurious: 5,
+        seed: 4,
+        maxPeaks: 40,
+      });
       const options = { nominalRangeNm: NOMINAL, dispersion, domain: DOMAIN, seed: 11 };
       const a = autoPairLampPeaks(lamp.peaks, LINES, options);
       const b = autoPairLampPeaks(lamp.peaks, LINES, options);
@@ -125,8 +200,20 @@ describe("autoPairLampPeaks", () => {
   }
 
   it("a straight-line first guess fails on the prism where the Hartmann-shaped guess succeeds", () => {
-    const lamp = syntheticLamp(LINES, prismX, { domain: DOMAIN, noiseX: 0.05, dropFraction: 0.2, spurious: 5, seed: 3, maxPeaks: 40 });
-    const options = { nominalRangeNm: NOMINAL, dispersion: "prism" as const, domain: DOMAIN, seed: 7 };
+    const lamp = syntheticLamp(LINES, prismX, {
+      domain: DOMAIN,
+      noiseX: 0.05,
+      dropFraction: 0.2,
+      spurious: 5,
+      seed: 3,
+      maxPeaks: 40,
+    });
+    const options = {
+      nominalRangeNm: NOMINAL,
+      dispersion: "prism" as const,
+      domain: DOMAIN,
+      seed: 7,
+    };
     const shaped = autoPairLampPeaks(lamp.peaks, LINES, options);
     const straight = autoPairLampPeaks(lamp.peaks, LINES, { ...options, firstGuess: "linear" });
     expect(shaped.status).toBe("paired");
@@ -140,8 +227,17 @@ describe("autoPairLampPeaks", () => {
 
   it("sends peaks unrelated to the lamp to manual pairing instead of handing on wrong pairs", () => {
     const random = seededRandom(5);
-    const peaks = Array.from({ length: 35 }, () => ({ x: random() * 2047, height: random() * 1000, xUncertainty: 0.05 }));
-    const result = autoPairLampPeaks(peaks, LINES, { nominalRangeNm: NOMINAL, dispersion: "grating", domain: DOMAIN, seed: 1 });
+    const peaks = Array.from({ length: 35 }, () => ({
+      x: random() * 2047,
+      height: random() * 1000,
+      xUncertainty: 0.05,
+    }));
+    const result = autoPairLampPeaks(peaks, LINES, {
+      nominalRangeNm: NOMINAL,
+      dispersion: "grating",
+      domain: DOMAIN,
+      seed: 1,
+    });
     expect(result.status).toBe("needs-manual");
     expect(result.pairs).toEqual([]);
     expect(result.model).toBeNull();
@@ -151,28 +247,68 @@ describe("autoPairLampPeaks", () => {
 
 describe("pairManually", () => {
   it("extends two hand-picked pairs to a full grating pairing and keeps the seeds", () => {
-    const lamp = syntheticLamp(LINES, gratingX, { domain: DOMAIN, noiseX: 0.05, dropFraction: 0.2, spurious: 5, seed: 6, maxPeaks: 40 });
-    const real = lamp.truthLine.map((l, p) => ({ l, p })).filter((e) => e.l >= 0).sort((a, b) => lamp.peaks[a.p].x - lamp.peaks[b.p].x);
+    const lamp = syntheticLamp(LINES, gratingX, {
+      domain: DOMAIN,
+      noiseX: 0.05,
+      dropFraction: 0.2,
+      spurious: 5,
+      seed: 6,
+      maxPeaks: 40,
+    });
+    const real = lamp.truthLine
+      .map((l, p) => ({ l, p }))
+      .filter((e) => e.l >= 0)
+      .sort((a, b) => lamp.peaks[a.p].x - lamp.peaks[b.p].x);
     const seeds = [real[2], real[real.length - 3]].map((e) => ({ peakIndex: e.p, lineIndex: e.l }));
-    const result = pairManually(lamp.peaks, LINES, seeds, { nominalRangeNm: NOMINAL, dispersion: "grating", domain: DOMAIN });
+    const result = pairManually(lamp.peaks, LINES, seeds, {
+      nominalRangeNm: NOMINAL,
+      dispersion: "grating",
+      domain: DOMAIN,
+    });
     expect(result.status).toBe("paired");
-    for (const s of seeds) expect(result.pairs.some((p) => p.peakIndex === s.peakIndex && p.lineIndex === s.lineIndex)).toBe(true);
+    for (const s of seeds)
+      expect(
+        result.pairs.some((p) => p.peakIndex === s.peakIndex && p.lineIndex === s.lineIndex),
+      ).toBe(true);
     const { correct, wrong } = count(result, lamp);
     expect(correct).toBeGreaterThanOrEqual(0.75 * real.length);
     expect(wrong).toBeLessThanOrEqual(1);
   });
 
   it("extends three hand-picked pairs on a prism", () => {
-    const lamp = syntheticLamp(LINES, prismX, { domain: DOMAIN, noiseX: 0.05, dropFraction: 0.2, spurious: 5, seed: 3, maxPeaks: 40 });
-    const real = lamp.truthLine.map((l, p) => ({ l, p })).filter((e) => e.l >= 0).sort((a, b) => lamp.peaks[a.p].x - lamp.peaks[b.p].x);
-    const seeds = [real[1], real[Math.floor(real.length / 2)], real[real.length - 2]].map((e) => ({ peakIndex: e.p, lineIndex: e.l }));
-    const result = pairManually(lamp.peaks, LINES, seeds, { nominalRangeNm: NOMINAL, dispersion: "prism", domain: DOMAIN });
+    const lamp = syntheticLamp(LINES, prismX, {
+      domain: DOMAIN,
+      noiseX: 0.05,
+      dropFraction: 0.2,
+      spurious: 5,
+      seed: 3,
+      maxPeaks: 40,
+    });
+    const real = lamp.truthLine
+      .map((l, p) => ({ l, p }))
+      .filter((e) => e.l >= 0)
+      .sort((a, b) => lamp.peaks[a.p].x - lamp.peaks[b.p].x);
+    const seeds = [real[1], real[Math.floor(real.length / 2)], real[real.length - 2]].map((e) => ({
+      peakIndex: e.p,
+      lineIndex: e.l,
+    }));
+    const result = pairManually(lamp.peaks, LINES, seeds, {
+      nominalRangeNm: NOMINAL,
+      dispersion: "prism",
+      domain: DOMAIN,
+    });
     const { correct, wrong } = count(result, lamp, result.suggestion);
     expect(correct).toBeGreaterThanOrEqual(0.7 * real.length);
     expect(wrong).toBeLessThanOrEqual(3);
   });
 
   it("refuses fewer than two seeds", () => {
-    expect(() => pairManually([], LINES, [{ peakIndex: 0, lineIndex: 0 }], { nominalRangeNm: NOMINAL, dispersion: "grating", domain: DOMAIN })).toThrow(RangeError);
+    expect(() =>
+      pairManually([], LINES, [{ peakIndex: 0, lineIndex: 0 }], {
+        nominalRangeNm: NOMINAL,
+        dispersion: "grating",
+        domain: DOMAIN,
+      }),
+    ).toThrow(RangeError);
   });
 });

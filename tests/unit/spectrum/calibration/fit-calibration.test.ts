@@ -21,29 +21,46 @@ const DOMAIN: [number, number] = [0, 2047];
 const gratingNm = (x: number) => 350 + 0.27 * x + 2e-6 * (x - 1000) ** 2 - 4e-10 * (x - 1000) ** 3;
 function gratingX(lambda: number): number {
   let x = (lambda - 350) / 0.27;
-  for (let i = 0; i < 50; i++) x -= (gratingNm(x) - lambda) / (0.27 + 4e-6 * (x - 1000) - 1.2e-9 * (x - 1000) ** 2);
+  for (let i = 0; i < 50; i++)
+    x -= (gratingNm(x) - lambda) / (0.27 + 4e-6 * (x - 1000) - 1.2e-9 * (x - 1000) ** 2);
   return x;
 }
 
 /** A prism of F2 scaled so that 350–900 nm fills the array. */
 function prismTruth(direction: 1 | -1 = 1) {
-  const base = { glass: "F2" as const, incidenceRad: (52 * Math.PI) / 180, apexRad: Math.PI / 3, direction: 1 as const, referenceWavelengthNm: 550 };
+  const base = {
+    glass: "F2" as const,
+    incidenceRad: (52 * Math.PI) / 180,
+    apexRad: Math.PI / 3,
+    direction: 1 as const,
+    referenceWavelengthNm: 550,
+  };
   const raw = (l: number) => prismForwardX({ ...base, focalX: 1, axisX: 0 }, l);
   const focalX = 2000 / (raw(900) - raw(350));
   const geometry = { ...base, focalX, axisX: 20 - focalX * raw(350) };
-  return (l: number) => (direction === 1 ? prismForwardX(geometry, l) : 2047 - prismForwardX(geometry, l));
+  return (l: number) =>
+    direction === 1 ? prismForwardX(geometry, l) : 2047 - prismForwardX(geometry, l);
 }
 
 function pairsFrom(lines: number[], xOf: (l: number) => number, noiseX: number, seed: number) {
   const random = seededRandom(seed);
-  return lines.map((wavelengthNm) => ({ x: xOf(wavelengthNm) + noiseX * gaussian(random), xUncertainty: noiseX, wavelengthNm }));
+  return lines.map((wavelengthNm) => ({
+    x: xOf(wavelengthNm) + noiseX * gaussian(random),
+    xUncertainty: noiseX,
+    wavelengthNm,
+  }));
 }
 
 const lampNm = HG_NE_AR_LINES.map((l) => l.wavelengthNm).filter((l) => l > 352 && l < 890);
 
 describe("fitCalibration: polynomial (grating)", () => {
   it("recovers a cubic grating within 0.02 nm at chosen pixels and the 1σ covers the truth", () => {
-    const pairs = pairsFrom(lampNm.filter((_, i) => i % 2 === 0), gratingX, 0.05, 11);
+    const pairs = pairsFrom(
+      lampNm.filter((_, i) => i % 2 === 0),
+      gratingX,
+      0.05,
+      11,
+    );
     const { model, rmsNm, dof } = fitCalibration(pairs, { degree: 3, domain: DOMAIN });
     expect(dof).toBe(pairs.length - 4);
     // 0.05 px noise × 0.27 nm/px ≈ 0.014 nm per pair: the RMS must be of that order.
@@ -58,7 +75,11 @@ describe("fitCalibration: polynomial (grating)", () => {
     });
     expect(covered).toBeGreaterThanOrEqual(4);
     const dispersion = dispersionAt(model, x);
-    x.forEach((xi, i) => expect(Math.abs(dispersion[i] - (gratingNm(xi + 0.5) - gratingNm(xi - 0.5)))).toBeLessThan(1e-3));
+    x.forEach((xi, i) =>
+      expect(Math.abs(dispersion[i] - (gratingNm(xi + 0.5) - gratingNm(xi - 0.5)))).toBeLessThan(
+        1e-3,
+      ),
+    );
   });
 
   it("the 2σ band covers the truth in most of 40 noise draws", () => {
@@ -104,7 +125,10 @@ describe("fitCalibration: polynomial (grating)", () => {
   it("throws the typed non-monotonic error for a polynomial that turns back on the array", () => {
     // Pairs on the first half only, with a strong curvature: a quadratic through them has its vertex
     // inside the array, so λ(x) turns back before xMax.
-    const pairs = [0, 100, 200, 300, 400, 500, 600].map((x) => ({ x, wavelengthNm: 400 + 0.5 * x - 0.0004 * x * x }));
+    const pairs = [0, 100, 200, 300, 400, 500, 600].map((x) => ({
+      x,
+      wavelengthNm: 400 + 0.5 * x - 0.0004 * x * x,
+    }));
     expect(() => fitCalibration(pairs, { degree: 2, domain: DOMAIN })).toThrowError(
       expect.objectContaining({ code: "non-monotonic" }),
     );
@@ -123,7 +147,9 @@ describe("calibrationUncertainty", () => {
     expect(sigma[0]).toBeGreaterThan(10 * sigma[1]);
     expect(sigma[2]).toBeGreaterThan(1.5 * sigma[1]);
     const warnings: string[] = [];
-    evaluateCalibration(model, new Float64Array([blue, dense]), { onWarning: (w) => warnings.push(...w.map((x) => x.code)) });
+    evaluateCalibration(model, new Float64Array([blue, dense]), {
+      onWarning: (w) => warnings.push(...w.map((x) => x.code)),
+    });
     expect(warnings).toEqual(["outside-covered-range"]);
     expect(calibrationRangeWarnings(model, new Float64Array([dense]))).toEqual([]);
   });
@@ -131,7 +157,12 @@ describe("calibrationUncertainty", () => {
 
 describe("fitCalibration: prism", () => {
   const truth = prismTruth();
-  const pairs = pairsFrom(lampNm.filter((_, i) => i % 3 === 0), truth, 0.05, 9);
+  const pairs = pairsFrom(
+    lampNm.filter((_, i) => i % 3 === 0),
+    truth,
+    0.05,
+    9,
+  );
   const x = new Float64Array([30, 400, 1000, 1600, 2000]);
   const trueNm = (xi: number) => {
     let low = 300;
@@ -156,8 +187,18 @@ describe("fitCalibration: prism", () => {
 
   it("represents a prism whose camera looks off the pairs' middle ray exactly, and its σ covers the truth", () => {
     // The generator's camera is centred on 550 nm, the fit's reference ray is the pairs' middle (≈ 625 nm).
-    const exactPairs = pairsFrom(lampNm.filter((_, i) => i % 3 === 0), truth, 0, 1).map((p) => ({ ...p, xUncertainty: 0.05 }));
-    const fitted = fitCalibration(exactPairs, { model: "prism", glass: "F2", domain: DOMAIN, rejectOutliers: false });
+    const exactPairs = pairsFrom(
+      lampNm.filter((_, i) => i % 3 === 0),
+      truth,
+      0,
+      1,
+    ).map((p) => ({ ...p, xUncertainty: 0.05 }));
+    const fitted = fitCalibration(exactPairs, {
+      model: "prism",
+      glass: "F2",
+      domain: DOMAIN,
+      rejectOutliers: false,
+    });
     const model = fitted.model;
     expect(model.kind === "prism" && model.axisAngleFitted).toBe(true);
     expect(model.parameterNames).toEqual(["incidenceRad", "focalX", "axisX", "axisAngleRad"]);
@@ -166,10 +207,21 @@ describe("fitCalibration: prism", () => {
     const lambda = evaluateCalibration(model, x);
     x.forEach((xi, i) => expect(Math.abs(lambda[i] - trueNm(xi))).toBeLessThan(1e-4));
     // The camera centred on the middle ray (the model before the axis angle) cannot follow it.
-    const centred = fitCalibration(exactPairs, { model: "prism", glass: "F2", domain: DOMAIN, rejectOutliers: false, fitAxisAngle: false });
+    const centred = fitCalibration(exactPairs, {
+      model: "prism",
+      glass: "F2",
+      domain: DOMAIN,
+      rejectOutliers: false,
+      fitAxisAngle: false,
+    });
     expect(centred.rmsNm).toBeGreaterThan(1e-3);
     // On noisy pairs the truth lies within 4σ of the calibration everywhere, the extrapolated ends too.
-    const noisy = fitCalibration(pairs, { model: "prism", glass: "F2", domain: DOMAIN, rejectOutliers: false }).model;
+    const noisy = fitCalibration(pairs, {
+      model: "prism",
+      glass: "F2",
+      domain: DOMAIN,
+      rejectOutliers: false,
+    }).model;
     const across = new Float64Array([0, 30, 400, 1000, 1600, 2000, 2047]);
     const noisyNm = evaluateCalibration(noisy, across);
     const sigma = calibrationUncertainty(noisy, across);
@@ -177,25 +229,57 @@ describe("fitCalibration: prism", () => {
   });
 
   it("evaluates a stored prism model without the axis angle as a camera centred on its reference ray", () => {
-    const { model } = fitCalibration(pairs, { model: "prism", glass: "F2", domain: DOMAIN, fitAxisAngle: false });
+    const { model } = fitCalibration(pairs, {
+      model: "prism",
+      glass: "F2",
+      domain: DOMAIN,
+      fitAxisAngle: false,
+    });
     if (model.kind !== "prism") throw new Error("expected a prism model");
     expect(model.axisAngleFitted).toBeUndefined();
     expect(model.parameters).toHaveLength(3);
     const [incidenceRad, focalX, axisX] = model.parameters;
-    const geometry = { glass: model.glass, incidenceRad, focalX, axisX, apexRad: Math.PI / 3, direction: model.direction, referenceWavelengthNm: model.referenceWavelengthNm };
+    const geometry = {
+      glass: model.glass,
+      incidenceRad,
+      focalX,
+      axisX,
+      apexRad: Math.PI / 3,
+      direction: model.direction,
+      referenceWavelengthNm: model.referenceWavelengthNm,
+    };
     const lambda = evaluateCalibration(model, x);
-    lambda.forEach((l, i) => expect(Math.abs(prismForwardX(geometry, l) - x[i])).toBeLessThan(1e-6));
+    lambda.forEach((l, i) =>
+      expect(Math.abs(prismForwardX(geometry, l) - x[i])).toBeLessThan(1e-6),
+    );
   });
 
   it("Hartmann follows the prism far better than a cubic polynomial", () => {
-    const hartmann = fitCalibration(pairs, { model: "hartmann", domain: DOMAIN, rejectOutliers: false });
-    const cubic = fitCalibration(pairs, { model: "polynomial", degree: 3, domain: DOMAIN, rejectOutliers: false });
+    const hartmann = fitCalibration(pairs, {
+      model: "hartmann",
+      domain: DOMAIN,
+      rejectOutliers: false,
+    });
+    const cubic = fitCalibration(pairs, {
+      model: "polynomial",
+      degree: 3,
+      domain: DOMAIN,
+      rejectOutliers: false,
+    });
     expect(hartmann.rmsNm).toBeLessThan(cubic.rmsNm / 3);
   });
 
   it("compareCalibrationModels lists the candidates with their ends and recommends a prism-shaped one", () => {
     const result = compareCalibrationModels(pairs, { dispersion: "prism", domain: DOMAIN });
-    expect(result.candidates.map((c) => c.kind)).toEqual(["polynomial", "polynomial", "polynomial", "polynomial", "polynomial", "hartmann", "prism"]);
+    expect(result.candidates.map((c) => c.kind)).toEqual([
+      "polynomial",
+      "polynomial",
+      "polynomial",
+      "polynomial",
+      "polynomial",
+      "hartmann",
+      "prism",
+    ]);
     const recommended = result.candidates[result.recommended];
     expect(recommended.kind).not.toBe("polynomial");
     for (const c of result.candidates.filter((c) => c.model)) {
@@ -212,7 +296,11 @@ describe("compareCalibrationModels: grating", () => {
     const recommended = result.candidates[result.recommended];
     expect(recommended.kind).toBe("polynomial");
     expect(recommended.degree).toBeGreaterThanOrEqual(3);
-    const best = Math.min(...result.candidates.filter((c) => c.kind === "polynomial" && c.aicc !== undefined).map((c) => c.aicc!));
+    const best = Math.min(
+      ...result.candidates
+        .filter((c) => c.kind === "polynomial" && c.aicc !== undefined)
+        .map((c) => c.aicc!),
+    );
     expect(recommended.aicc! - best).toBeLessThanOrEqual(2);
   });
 });

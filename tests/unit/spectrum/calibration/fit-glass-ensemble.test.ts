@@ -9,7 +9,13 @@ import { seededRandom } from "@/lib/spectrum/calibration/seeded-random";
 import { HG_NE_AR_LINES as LINES } from "./lamp-lines";
 import { gaussian } from "./synthetic-lamp";
 
-const F2 = { glass: "F2" as const, incidenceRad: (52 * Math.PI) / 180, apexRad: Math.PI / 3, direction: 1 as const, referenceWavelengthNm: 550 };
+const F2 = {
+  glass: "F2" as const,
+  incidenceRad: (52 * Math.PI) / 180,
+  apexRad: Math.PI / 3,
+  direction: 1 as const,
+  referenceWavelengthNm: 550,
+};
 const rawPrism = (l: number) => prismForwardX({ ...F2, focalX: 1, axisX: 0 }, l);
 const prismScale = 2000 / (rawPrism(900) - rawPrism(350));
 const prismX = (l: number) => 20 + prismScale * (rawPrism(l) - rawPrism(350));
@@ -32,7 +38,9 @@ describe("fitForwardPrism", () => {
     // χ² of a correct model is about its degrees of freedom; 3× allows for the noise draw.
     expect(fit.chiSquare).toBeLessThan(3 * fit.dof);
     // 365 nm lies 250 px beyond the bluest pair, where 0.05 px of noise grows to about 1 px.
-    expect(Math.abs(fit.predictX(365.015) - prismX(365.015))).toBeLessThan(3 * fit.predictionSigmaX(365.015, 0));
+    expect(Math.abs(fit.predictX(365.015) - prismX(365.015))).toBeLessThan(
+      3 * fit.predictionSigmaX(365.015, 0),
+    );
   });
 
   it("fits noise-free pairs of its own glass exactly, wherever its camera looks", () => {
@@ -45,7 +53,10 @@ describe("fitForwardPrism", () => {
     const centred = fitForwardPrism(pairs(540, 900, 0), "F2", { fitAxisAngle: false });
     expect(Math.abs(centred.predictX(365.015) - prismX(365.015))).toBeGreaterThan(0.1);
     // Taken at the generator's own axis wavelength, the centred model is the generator's too.
-    const exact = fitForwardPrism(pairs(540, 900, 0), "F2", { referenceWavelengthNm: 550, fitAxisAngle: false });
+    const exact = fitForwardPrism(pairs(540, 900, 0), "F2", {
+      referenceWavelengthNm: 550,
+      fitAxisAngle: false,
+    });
     expect(Math.abs(exact.predictX(365.015) - prismX(365.015))).toBeLessThan(1e-3);
   });
 
@@ -64,12 +75,16 @@ describe("fitForwardPrism", () => {
 
   it("fits a crown glass to flint pairs far worse than the flint", () => {
     const all = pairs(350, 900);
-    expect(fitForwardPrism(all, "N-BK7").chiSquare).toBeGreaterThan(100 * fitForwardPrism(all, "F2").chiSquare);
+    expect(fitForwardPrism(all, "N-BK7").chiSquare).toBeGreaterThan(
+      100 * fitForwardPrism(all, "F2").chiSquare,
+    );
   });
 
   it("refuses fewer pairs than parameters + 1", () => {
     expect(() => fitForwardPrism(pairs(540, 900).slice(0, 4), "F2")).toThrow(RangeError);
-    expect(() => fitForwardPrism(pairs(540, 900).slice(0, 3), "F2", { fitAxisAngle: false })).toThrow(RangeError);
+    expect(() =>
+      fitForwardPrism(pairs(540, 900).slice(0, 3), "F2", { fitAxisAngle: false }),
+    ).toThrow(RangeError);
   });
 });
 
@@ -84,7 +99,9 @@ describe("fitGlassEnsemble", () => {
   it("narrows in the blue once pairs there pin the glass", () => {
     const redOnly = fitGlassEnsemble(pairs(580, 900))!;
     const wide = fitGlassEnsemble(pairs(400, 900))!;
-    expect(wide.predictionSigmaX(365.015, NOISE_X)).toBeLessThan(redOnly.predictionSigmaX(365.015, NOISE_X));
+    expect(wide.predictionSigmaX(365.015, NOISE_X)).toBeLessThan(
+      redOnly.predictionSigmaX(365.015, NOISE_X),
+    );
     // Pinned over 400–900 nm, 365.015 and 366.328 nm (20 px apart) are told apart many times over.
     expect(3 * wide.predictionSigmaX(365.015, NOISE_X)).toBeLessThan(2);
     expect(Math.abs(wide.predictX(365.015) - prismX(365.015))).toBeLessThan(1);

@@ -49,7 +49,14 @@ describe("glass validity", () => {
 
 /** A clean 2048-pixel prism lamp of the realistic generator, calibrated automatically. */
 function calibratedPrism(seed: number, glass: string, rangeNm: [number, number], gases: string[]) {
-  const lamp = realisticLamp(seed, { dispersion: "prism", glass, rangeNm, gases, clean: true, pixels: 2048 });
+  const lamp = realisticLamp(seed, {
+    dispersion: "prism",
+    glass,
+    rangeNm,
+    gases,
+    clean: true,
+    pixels: 2048,
+  });
   const result = calibrateLamp(lamp.x, lamp.y, lamp.lines, {
     nominalRangeNm: lamp.statedRangeNm,
     dispersion: "prism",

@@ -8,7 +8,8 @@ import { HG_NE_AR_LINES as LINES } from "./lamp-lines";
 /** An axis of 1 nm per pixel (a prism's red end) and a 2.5 px slit image. */
 const xOf = (wavelengthNm: number) => wavelengthNm;
 const FWHM_X = 2.5;
-const indexOf = (lines: LampLine[], wavelengthNm: number) => lines.findIndex((l) => l.wavelengthNm === wavelengthNm);
+const indexOf = (lines: LampLine[], wavelengthNm: number) =>
+  lines.findIndex((l) => l.wavelengthNm === wavelengthNm);
 
 describe("lampLineBlended", () => {
   const candidates = LINES.map((_, i) => i);

@@ -8,8 +8,16 @@ const domain = reference.domain as [number, number];
 describe("fits against NumPy/SciPy reference values", () => {
   for (const expected of reference.polynomial.fits) {
     it(`degree-${expected.degree} polynomial matches numpy.polyfit(cov=True)`, () => {
-      const pairs = reference.polynomial.x.map((x, i) => ({ x, wavelengthNm: reference.polynomial.wavelengthNm[i] }));
-      const { model } = fitCalibration(pairs, { degree: expected.degree, domain, weighting: "uniform", rejectOutliers: false });
+      const pairs = reference.polynomial.x.map((x, i) => ({
+        x,
+        wavelengthNm: reference.polynomial.wavelengthNm[i],
+      }));
+      const { model } = fitCalibration(pairs, {
+        degree: expected.degree,
+        domain,
+        weighting: "uniform",
+        rejectOutliers: false,
+      });
       expected.coefficientsAscending.forEach((c, k) => {
         // NumPy 1.24.2 numpy.polyfit coefficients: agree within 1e-9 relative to the largest (276 nm)
         expect(Math.abs(model.parameters[k] - c)).toBeLessThan(1e-9 * 300);
@@ -17,19 +25,28 @@ describe("fits against NumPy/SciPy reference values", () => {
       expected.covarianceAscending.forEach((row, a) =>
         row.forEach((value, b) => {
           // NumPy 1.24.2 numpy.polyfit(cov=True) covariance: within 1e-6 relative
-          expect(Math.abs(model.covariance[a][b] - value)).toBeLessThanOrEqual(1e-6 * Math.abs(value) + 1e-15);
+          expect(Math.abs(model.covariance[a][b] - value)).toBeLessThanOrEqual(
+            1e-6 * Math.abs(value) + 1e-15,
+          );
         }),
       );
       const predicted = evaluateCalibration(model, new Float64Array(expected.evalX));
       // NumPy 1.24.2 numpy.polyval predictions: within 1e-8 nm
-      expected.evalNm.forEach((value, i) => expect(Math.abs(predicted[i] - value)).toBeLessThan(1e-8));
+      expected.evalNm.forEach((value, i) =>
+        expect(Math.abs(predicted[i] - value)).toBeLessThan(1e-8),
+      );
     });
   }
 
   it("Hartmann fit matches scipy.optimize.curve_fit parameters and covariance", () => {
     const h = reference.hartmann;
     const pairs = h.x.map((x, i) => ({ x, wavelengthNm: h.wavelengthNm[i] }));
-    const { model } = fitCalibration(pairs, { model: "hartmann", domain, weighting: "uniform", rejectOutliers: false });
+    const { model } = fitCalibration(pairs, {
+      model: "hartmann",
+      domain,
+      weighting: "uniform",
+      rejectOutliers: false,
+    });
     expect(model.kind).toBe("hartmann");
     h.parameters.forEach((value, k) => {
       // SciPy 1.10.1 curve_fit parameters: within 1e-5 relative (both stop at their own tolerances)

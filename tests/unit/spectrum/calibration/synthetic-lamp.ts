@@ -43,7 +43,11 @@ export function syntheticLamp(
   for (const c of resolved) {
     if (random() < settings.dropFraction) continue;
     // Heights follow the table's intensities loosely (a factor of ~2 scatter), as real lamps do.
-    peaks.push({ x: c.x + settings.noiseX * gaussian(random), xUncertainty: settings.noiseX, height: c.line.intensity * (0.5 + random()) });
+    peaks.push({
+      x: c.x + settings.noiseX * gaussian(random),
+      xUncertainty: settings.noiseX,
+      height: c.line.intensity * (0.5 + random()),
+    });
     truthLine.push(c.index);
   }
   const maxHeight = Math.max(...peaks.map((p) => p.height));

@@ -23,7 +23,13 @@ describe("findPeaks on a flame-like spectrum (curved continuum, seeded noise σ 
     { centre: 1502.2, fwhm: 10, height: 300, shape: lorentzian },
   ];
   const continuum = (i: number) => 500 + 0.2 * i + 150 * Math.sin(i / 700);
-  const y = Float64Array.from({ length: n }, (_, i) => continuum(i) + truth.reduce((s, t) => s + t.shape(i, t.centre, t.fwhm, t.height), 0) + 2 * normal());
+  const y = Float64Array.from(
+    { length: n },
+    (_, i) =>
+      continuum(i) +
+      truth.reduce((s, t) => s + t.shape(i, t.centre, t.fwhm, t.height), 0) +
+      2 * normal(),
+  );
   const peaks = findPeaks(x, y);
 
   it("finds exactly the three lines, sorted, none flagged", () => {
@@ -57,12 +63,19 @@ describe("centre uncertainty", () => {
   it("is honest: about 68 % of centres fall within 1σ over 400 noisy trials (tolerance ±0.08)", () => {
     const n = 256;
     const x = pixels(n);
-    for (const [fwhm, height, shape] of [[6, 30, gaussian], [4, 15, gaussian], [6, 30, lorentzian]] as const) {
+    for (const [fwhm, height, shape] of [
+      [6, 30, gaussian],
+      [4, 15, gaussian],
+      [6, 30, lorentzian],
+    ] as const) {
       const { uniform, normal } = seededRandom(100 + fwhm);
       let inside = 0;
       for (let trial = 0; trial < 400; trial++) {
         const centre = 120 + 10 * uniform();
-        const y = Float64Array.from({ length: n }, (_, i) => 50 + 0.1 * i + shape(i, centre, fwhm, height) + normal());
+        const y = Float64Array.from(
+          { length: n },
+          (_, i) => 50 + 0.1 * i + shape(i, centre, fwhm, height) + normal(),
+        );
         const p = nearest(findPeaks(x, y), centre);
         if (Math.abs(p.x - centre) <= p.xUncertainty) inside++;
       }
@@ -76,7 +89,10 @@ describe("centre uncertainty", () => {
     const x = pixels(n);
     const measure = (fwhm: number, sigma: number) => {
       const { normal } = seededRandom(77);
-      const y = Float64Array.from({ length: n }, (_, i) => gaussian(i, 250.3, fwhm, 200) + sigma * normal());
+      const y = Float64Array.from(
+        { length: n },
+        (_, i) => gaussian(i, 250.3, fwhm, 200) + sigma * normal(),
+      );
       return nearest(findPeaks(x, y), 250.3).xUncertainty;
     };
     expect(measure(6, 4)).toBeGreaterThan(1.5 * measure(6, 2));
@@ -90,7 +106,15 @@ describe("flags", () => {
 
   it("flags a doublet 0.85 FWHM apart (2 : 1) as blended, and an isolated line as not", () => {
     const { normal } = seededRandom(8);
-    const y = Float64Array.from({ length: n }, (_, i) => 100 + gaussian(i, 200, 7, 300) + gaussian(i, 206, 7, 150) + gaussian(i, 400, 7, 300) + 2 * normal());
+    const y = Float64Array.from(
+      { length: n },
+      (_, i) =>
+        100 +
+        gaussian(i, 200, 7, 300) +
+        gaussian(i, 206, 7, 150) +
+        gaussian(i, 400, 7, 300) +
+        2 * normal(),
+    );
     const peaks = findPeaks(x, y);
     expect(nearest(peaks, 201).blended).toBe(true);
     expect(nearest(peaks, 400).blended).toBe(false);
@@ -98,7 +122,9 @@ describe("flags", () => {
 
   it("flags a clipped top as saturated, keeps it in the list and centres it within 0.3 px", () => {
     const { normal } = seededRandom(9);
-    const y = Float64Array.from({ length: n }, (_, i) => Math.min(4095, 100 + gaussian(i, 250.4, 8, 12000) + 3 * normal()));
+    const y = Float64Array.from({ length: n }, (_, i) =>
+      Math.min(4095, 100 + gaussian(i, 250.4, 8, 12000) + 3 * normal()),
+    );
     const peaks = findPeaks(x, y, { detectorMax: 4095 });
     const p = nearest(peaks, 250.4);
     expect(p.saturated).toBe(true);
@@ -120,8 +146,14 @@ describe("non-uniform wavelength axis", () => {
     const n = 1024;
     const x = Float64Array.from({ length: n }, (_, i) => 400 + 0.1 * i + 1e-4 * i * i);
     const { normal } = seededRandom(12);
-    const lines = [{ nm: 450.5, fwhmNm: 1.2 }, { nm: 560.3, fwhmNm: 2.0 }];
-    const y = Float64Array.from({ length: n }, (_, i) => 20 + lines.reduce((s, l) => s + gaussian(x[i], l.nm, l.fwhmNm, 500), 0) + normal());
+    const lines = [
+      { nm: 450.5, fwhmNm: 1.2 },
+      { nm: 560.3, fwhmNm: 2.0 },
+    ];
+    const y = Float64Array.from(
+      { length: n },
+      (_, i) => 20 + lines.reduce((s, l) => s + gaussian(x[i], l.nm, l.fwhmNm, 500), 0) + normal(),
+    );
     const peaks = findPeaks(x, y);
     expect(peaks.length).toBe(2);
     for (const l of lines) {

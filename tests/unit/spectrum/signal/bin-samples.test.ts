@@ -18,7 +18,10 @@ describe("binSamples", () => {
     const random = makeRandom(5);
     const n = 60_000;
     const x = Float64Array.from({ length: n }, (_, i) => i);
-    const y = Float64Array.from({ length: n }, (_, i) => 1000 * Math.exp(-0.5 * ((i - 31_234.5) / 900) ** 2) + 10 * random.normal());
+    const y = Float64Array.from(
+      { length: n },
+      (_, i) => 1000 * Math.exp(-0.5 * ((i - 31_234.5) / 900) ** 2) + 10 * random.normal(),
+    );
     const binned = binSamples(x, y, { factor: 100 });
     let sum = 0;
     let weighted = 0;

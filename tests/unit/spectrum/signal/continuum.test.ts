@@ -12,8 +12,11 @@ import { SOURCE_KINDS } from "@/lib/spectrum/types";
 import { seededRandom } from "./seeded-random";
 
 function lines(i: number): number {
-  return 400 * Math.exp(-0.5 * ((i - 300) / 2.5) ** 2) + 900 * Math.exp(-0.5 * ((i - 1100) / 3) ** 2) +
-    250 * Math.exp(-0.5 * ((i - 1500) / 4) ** 2);
+  return (
+    400 * Math.exp(-0.5 * ((i - 300) / 2.5) ** 2) +
+    900 * Math.exp(-0.5 * ((i - 1100) / 3) ** 2) +
+    250 * Math.exp(-0.5 * ((i - 1500) / 4) ** 2)
+  );
 }
 
 describe("solveSymmetricPentadiagonal", () => {
@@ -31,12 +34,21 @@ describe("solveSymmetricPentadiagonal", () => {
       if (i < n - 2) dense.set(i, i + 2, upper2[i]).set(i + 2, i, upper2[i]);
     }
     const expected = solve(dense, Matrix.columnVector(Array.from(rhs))).getColumn(0);
-    solveSymmetricPentadiagonal({ diagonal, upper1, upper2 }, rhs).forEach((v, i) => expect(v).toBeCloseTo(expected[i], 10));
+    solveSymmetricPentadiagonal({ diagonal, upper1, upper2 }, rhs).forEach((v, i) =>
+      expect(v).toBeCloseTo(expected[i], 10),
+    );
   });
 
   it("refuses a matrix that is not positive definite", () => {
     expect(() =>
-      solveSymmetricPentadiagonal({ diagonal: Float64Array.of(1, -1, 1), upper1: new Float64Array(2), upper2: new Float64Array(1) }, new Float64Array(3)),
+      solveSymmetricPentadiagonal(
+        {
+          diagonal: Float64Array.of(1, -1, 1),
+          upper1: new Float64Array(2),
+          upper2: new Float64Array(1),
+        },
+        new Float64Array(3),
+      ),
     ).toThrow(RangeError);
   });
 });
@@ -75,7 +87,8 @@ describe("modifiedPolynomialBaseline", () => {
     const n = 1500;
     const { normal } = seededRandom(3);
     const x = Float64Array.from({ length: n }, (_, i) => 400 + i * 0.2 + 1e-5 * i * i);
-    const continuum = (w: number) => 50 + 0.8 * (w - 400) - 0.002 * (w - 400) ** 2 + 4e-6 * (w - 400) ** 3;
+    const continuum = (w: number) =>
+      50 + 0.8 * (w - 400) - 0.002 * (w - 400) ** 2 + 4e-6 * (w - 400) ** 3;
     const y = Float64Array.from({ length: n }, (_, i) => continuum(x[i]) + lines(i) + normal());
     const baseline = modifiedPolynomialBaseline(x, y, { degree: 3 });
     let worst = 0;
@@ -94,6 +107,8 @@ describe("defaultBaselineFor and estimateContinuum", () => {
     }
     expect(defaultBaselineFor("flame").method).toBe("asymmetricLeastSquares");
     expect(defaultBaselineFor("lamp").method).toBe("modifiedPolynomial");
-    expect(Array.from(estimateContinuum(x, y, { method: "none" })).every((v) => v === 0)).toBe(true);
+    expect(Array.from(estimateContinuum(x, y, { method: "none" })).every((v) => v === 0)).toBe(
+      true,
+    );
   });
 });

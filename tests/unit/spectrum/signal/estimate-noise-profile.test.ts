@@ -14,7 +14,8 @@ const level = Float64Array.from({ length: N }, (_, i) => 100 + 2900 * (i / (N - 
 const trueSigma = (counts: number) => Math.sqrt(READ_NOISE ** 2 + counts);
 
 type Line = { index: number; height: number };
-const gaussian = (i: number, line: Line) => line.height * Math.exp(-0.5 * ((i - line.index) / 1.5) ** 2);
+const gaussian = (i: number, line: Line) =>
+  line.height * Math.exp(-0.5 * ((i - line.index) / 1.5) ** 2);
 
 function poissonSpectrum(seed: number, lines: Line[] = []): Float64Array {
   const random = makeRandom(seed);
@@ -51,7 +52,10 @@ describe("estimateNoiseProfile", () => {
   });
 
   it("recovers it through prepareSignal, from the prepared continuum with lines on top", () => {
-    const lines = Array.from({ length: 12 }, (_, j) => ({ index: 80 + 160 * j, height: 400 + 100 * j }));
+    const lines = Array.from({ length: 12 }, (_, j) => ({
+      index: 80 + 160 * j,
+      height: 400 + 100 * j,
+    }));
     const signal = prepareSignal(x, poissonSpectrum(7, lines), { source: "flame" });
     expect(signal.noiseProfile).toBeDefined();
     const [rms, worst] = relativeErrors(signal.noiseProfile!);
@@ -83,7 +87,9 @@ describe("estimateNoiseProfile", () => {
     expect(() => estimateNoiseProfile(y, level, { blockSize: 4 })).toThrow(RangeError);
     expect(() => estimateNoiseProfile(y, level, { minBlocks: 2.5 })).toThrow(RangeError);
     expect(() => estimateNoiseProfile(y, level, { minSpread: 0.5 })).toThrow(RangeError);
-    expect(() => estimateNoiseProfile(Float64Array.of(1, NaN, 3), Float64Array.of(1, 2, 3))).toThrow(RangeError);
+    expect(() =>
+      estimateNoiseProfile(Float64Array.of(1, NaN, 3), Float64Array.of(1, 2, 3)),
+    ).toThrow(RangeError);
   });
 });
 
@@ -127,7 +133,10 @@ describe("pickPeaks with a noise profile", () => {
     const n = 1_048_576;
     const longLevel = Float64Array.from({ length: n }, (_, i) => 100 + 2900 * (i / (n - 1)) ** 2);
     const random = makeRandom(11);
-    const counts = Float64Array.from({ length: n }, (_, i) => random.poisson(longLevel[i]) + READ_NOISE * random.normal());
+    const counts = Float64Array.from(
+      { length: n },
+      (_, i) => random.poisson(longLevel[i]) + READ_NOISE * random.normal(),
+    );
     const profile = estimateNoiseProfile(counts, longLevel);
     expect(profile).not.toBeNull();
     let sumSquares = 0;

@@ -3,14 +3,23 @@ import { describe, it, expect } from "vitest";
 import { estimateNoise, xMedian } from "@/lib/spectrum/signal";
 import { seededRandom } from "./seeded-random";
 
-function noisy(n: number, sigma: number, seed: number, shape: (i: number) => number = () => 0): Float64Array {
+function noisy(
+  n: number,
+  sigma: number,
+  seed: number,
+  shape: (i: number) => number = () => 0,
+): Float64Array {
   const { normal } = seededRandom(seed);
   return Float64Array.from({ length: n }, (_, i) => shape(i) + sigma * normal());
 }
 
 describe("estimateNoise", () => {
   it("returns σ for white Gaussian noise (within 4 % at 20 000 samples)", () => {
-    for (const [sigma, seed] of [[1, 1], [3.5, 2], [250, 3]]) {
+    for (const [sigma, seed] of [
+      [1, 1],
+      [3.5, 2],
+      [250, 3],
+    ]) {
       const y = noisy(20_000, sigma, seed);
       expect(Math.abs(estimateNoise(y) / sigma - 1)).toBeLessThan(0.04);
       expect(Math.abs(estimateNoise(y, { differenceOrder: 1 }) / sigma - 1)).toBeLessThan(0.04);
@@ -19,14 +28,20 @@ describe("estimateNoise", () => {
 
   it("ignores peaks and a curved, sloping continuum (within 6 %)", () => {
     const shape = (i: number) =>
-      1000 + 0.8 * i + 200 * Math.sin(i / 900) + 5000 * Math.exp(-0.5 * ((i - 3000) / 3) ** 2) +
+      1000 +
+      0.8 * i +
+      200 * Math.sin(i / 900) +
+      5000 * Math.exp(-0.5 * ((i - 3000) / 3) ** 2) +
       800 * Math.exp(-0.5 * ((i - 7000) / 6) ** 2);
     const y = noisy(10_000, 4, 7, shape);
     expect(Math.abs(estimateNoise(y) / 4 - 1)).toBeLessThan(0.06);
   });
 
   it("returns 0 for a noise-free straight line and rejects too-short input", () => {
-    expect(estimateNoise(Float64Array.from({ length: 50 }, (_, i) => 3 + 2 * i))).toBeCloseTo(0, 12);
+    expect(estimateNoise(Float64Array.from({ length: 50 }, (_, i) => 3 + 2 * i))).toBeCloseTo(
+      0,
+      12,
+    );
     expect(() => estimateNoise(Float64Array.of(1, 2))).toThrow(RangeError);
   });
 });

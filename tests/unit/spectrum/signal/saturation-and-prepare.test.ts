@@ -13,21 +13,30 @@ describe("findSaturatedRanges", () => {
   });
 
   it("without detectorMax finds flat tops of ≥ 3 samples at the array maximum only", () => {
-    expect(findSaturatedRanges(Float64Array.of(1, 5, 9, 9, 9, 2, 9, 9, 1))).toEqual([{ start: 2, end: 4 }]);
+    expect(findSaturatedRanges(Float64Array.of(1, 5, 9, 9, 9, 2, 9, 9, 1))).toEqual([
+      { start: 2, end: 4 },
+    ]);
     expect(findSaturatedRanges(Float64Array.of(1, 5, 9, 3, 2))).toEqual([]);
     expect(findSaturatedRanges(Float64Array.of(4, 4, 4, 4))).toEqual([]);
   });
 
   it("rejects bad options", () => {
-    expect(() => findSaturatedRanges(Float64Array.of(1, 2), { nearMaxFraction: 2 })).toThrow(RangeError);
-    expect(() => findSaturatedRanges(Float64Array.of(1, 2), { minRunLength: 0 })).toThrow(RangeError);
+    expect(() => findSaturatedRanges(Float64Array.of(1, 2), { nearMaxFraction: 2 })).toThrow(
+      RangeError,
+    );
+    expect(() => findSaturatedRanges(Float64Array.of(1, 2), { minRunLength: 0 })).toThrow(
+      RangeError,
+    );
   });
 });
 
 describe("prepareSignal", () => {
   const n = 256;
   const x = Float64Array.from({ length: n }, (_, i) => 500 + 0.25 * i);
-  const y = Float64Array.from({ length: n }, (_, i) => 100 + 0.3 * i + 500 * Math.exp(-0.5 * ((i - 128) / 3) ** 2) + 3 * Math.sin(i * i));
+  const y = Float64Array.from(
+    { length: n },
+    (_, i) => 100 + 0.3 * i + 500 * Math.exp(-0.5 * ((i - 128) / 3) ** 2) + 3 * Math.sin(i * i),
+  );
 
   it("returns smoothed, continuum and corrected = smoothed − continuum, without touching the input", () => {
     const copy = Float64Array.from(y);
@@ -42,6 +51,8 @@ describe("prepareSignal", () => {
     expect(() => prepareSignal(x.slice().reverse(), y)).toThrow(RangeError);
     expect(() => prepareSignal(x, y.subarray(1))).toThrow(RangeError);
     expect(() => prepareSignal(x.subarray(0, 10), y.subarray(0, 10))).toThrow(RangeError);
-    expect(() => prepareSignal(x.subarray(0, 20), y.subarray(0, 20), { smoothing: { windowSize: 21 } })).toThrow(RangeError);
+    expect(() =>
+      prepareSignal(x.subarray(0, 20), y.subarray(0, 20), { smoothing: { windowSize: 21 } }),
+    ).toThrow(RangeError);
   });
 });

@@ -25,7 +25,8 @@ export default async function CalibratePage({
   const id = idOrNotFound((await params).id);
   const given = (await searchParams).spectrum;
   const instrument = await orNotFound(fetchInstrument(actor, id));
-  const spectrum = typeof given === "string" ? await orNotFound(fetchSpectrum(actor, idOrNotFound(given))) : null;
+  const spectrum =
+    typeof given === "string" ? await orNotFound(fetchSpectrum(actor, idOrNotFound(given))) : null;
   const header = (
     <PageHeader
       title={`Calibrate ${instrument.name}`}
@@ -36,8 +37,15 @@ export default async function CalibratePage({
     return (
       <>
         {header}
-        <EmptyState title={spectrum ? "That spectrum is not a lamp of this instrument" : "Choose a lamp spectrum first"}>
-          Upload the reference lamp recorded on this instrument; its page then offers &ldquo;Calibrate with this lamp&rdquo;.{" "}
+        <EmptyState
+          title={
+            spectrum
+              ? "That spectrum is not a lamp of this instrument"
+              : "Choose a lamp spectrum first"
+          }
+        >
+          Upload the reference lamp recorded on this instrument; its page then offers
+          &ldquo;Calibrate with this lamp&rdquo;.{" "}
           <Link href={`/instruments/${id}/upload?kind=lamp`} className="underline">
             Upload a lamp spectrum
           </Link>
@@ -46,14 +54,17 @@ export default async function CalibratePage({
       </>
     );
   }
-  const current = instrument.latestCalibrationId ? await fetchCalibration(actor, instrument.latestCalibrationId) : null;
+  const current = instrument.latestCalibrationId
+    ? await fetchCalibration(actor, instrument.latestCalibrationId)
+    : null;
   return (
     <>
       {header}
       <p className="mb-1 text-sm">
         Lamp spectrum: <span className="font-medium">{spectrum.label || spectrum.fileName}</span>{" "}
         <span className="muted">
-          ({spectrum.points.toLocaleString("en")} points, uploaded {spectrum.uploadedAt.slice(0, 10)})
+          ({spectrum.points.toLocaleString("en")} points, uploaded{" "}
+          {spectrum.uploadedAt.slice(0, 10)})
         </span>
       </p>
       <p className="muted mb-3 text-sm" data-testid="current-calibration">
@@ -63,7 +74,8 @@ export default async function CalibratePage({
             <Link href={`/calibrations/${current.id}`} className="underline">
               calibration of {current.calibratedOn}
             </Link>{" "}
-            ({current.model}, RMS {current.rmsNm.toFixed(4)} nm); a saved calibration takes its place, and its page shows the drift between the two.
+            ({current.model}, RMS {current.rmsNm.toFixed(4)} nm); a saved calibration takes its
+            place, and its page shows the drift between the two.
           </>
         ) : (
           "This instrument has no calibration yet; the one you save becomes the default for new runs."

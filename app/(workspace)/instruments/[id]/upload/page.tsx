@@ -15,8 +15,10 @@ import { MAX_UPLOAD_BYTES, MAX_UPLOAD_POINTS } from "@/lib/validation/workflow-s
 
 export const metadata = { title: "Upload a spectrum" };
 
-const one = (value: string | string[] | undefined) => (typeof value === "string" ? value : undefined);
-const primary = "rounded bg-ember-600 px-3 py-1.5 text-sm font-medium text-white hover:bg-ember-700";
+const one = (value: string | string[] | undefined) =>
+  typeof value === "string" ? value : undefined;
+const primary =
+  "rounded bg-ember-600 px-3 py-1.5 text-sm font-medium text-white hover:bg-ember-700";
 
 export default async function UploadPage({
   params,
@@ -32,24 +34,36 @@ export default async function UploadPage({
   const kind = one(search.kind) === "sample" ? "sample" : "lamp";
   const notebookId = one(search.notebook);
   const spectrumId = one(search.spectrum);
-  const uploaded = spectrumId ? await orNotFound(fetchSpectrum(actor, idOrNotFound(spectrumId))) : null;
+  const uploaded = spectrumId
+    ? await orNotFound(fetchSpectrum(actor, idOrNotFound(spectrumId)))
+    : null;
   const back = `/instruments/${id}/upload?kind={kind}${notebookId ? `&notebook=${notebookId}` : ""}`;
 
   if (uploaded) {
     const series = await rawSeries(actor, uploaded.id);
-    const notebooks = uploaded.kind === "sample" ? await fetchNotebooks(actor, instrument.teamId) : [];
+    const notebooks =
+      uploaded.kind === "sample" ? await fetchNotebooks(actor, instrument.teamId) : [];
     return (
       <>
         <PageHeader title="Uploaded" description={`${uploaded.fileName} on ${instrument.name}`} />
-        <p role="status" className="mb-3 rounded border border-teal-700 bg-[var(--panel)] p-2 text-sm" data-testid="upload-status">
-          <span aria-hidden>✓ </span>Uploaded and stored as a {uploaded.kind} spectrum: {uploaded.points.toLocaleString("en")} points,{" "}
-          {X_TITLES[uploaded.xUnit].toLowerCase()} {uploaded.xRange[0]}–{uploaded.xRange[1]}
+        <p
+          role="status"
+          className="mb-3 rounded border border-teal-700 bg-[var(--panel)] p-2 text-sm"
+          data-testid="upload-status"
+        >
+          <span aria-hidden>✓ </span>Uploaded and stored as a {uploaded.kind} spectrum:{" "}
+          {uploaded.points.toLocaleString("en")} points, {X_TITLES[uploaded.xUnit].toLowerCase()}{" "}
+          {uploaded.xRange[0]}–{uploaded.xRange[1]}
           {uploaded.medium ? ` (${uploaded.medium})` : ""}.
         </p>
         {uploaded.duplicateOf ? (
-          <p role="alert" className="mb-3 rounded border border-ember-600 bg-ember-50 p-2 text-sm text-ember-900 dark:bg-ink-800 dark:text-ember-100">
-            <span aria-hidden>⚠ </span>The same file (same SHA-256) was uploaded before as {uploaded.duplicateOf.fileName} on{" "}
-            {uploaded.duplicateOf.uploadedAt.slice(0, 10)}. Both copies are kept.
+          <p
+            role="alert"
+            className="mb-3 rounded border border-ember-600 bg-ember-50 p-2 text-sm text-ember-900 dark:bg-ink-800 dark:text-ember-100"
+          >
+            <span aria-hidden>⚠ </span>The same file (same SHA-256) was uploaded before as{" "}
+            {uploaded.duplicateOf.fileName} on {uploaded.duplicateOf.uploadedAt.slice(0, 10)}. Both
+            copies are kept.
           </p>
         ) : null}
         <dl className="mb-4 grid max-w-3xl grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm">
@@ -76,11 +90,17 @@ export default async function UploadPage({
           ) : (
             <>
               <span>Start a run with this sample in:</span>
-              {(notebookId ? notebooks.filter((n) => n.id === notebookId) : notebooks).slice(0, 5).map((n) => (
-                <Link key={n.id} href={`/notebooks/${n.id}?spectrum=${uploaded.id}`} className={primary}>
-                  {n.title}
-                </Link>
-              ))}
+              {(notebookId ? notebooks.filter((n) => n.id === notebookId) : notebooks)
+                .slice(0, 5)
+                .map((n) => (
+                  <Link
+                    key={n.id}
+                    href={`/notebooks/${n.id}?spectrum=${uploaded.id}`}
+                    className={primary}
+                  >
+                    {n.title}
+                  </Link>
+                ))}
             </>
           )}
           <Link href={back.replace("{kind}", uploaded.kind)} className="underline">
@@ -93,12 +113,17 @@ export default async function UploadPage({
 
   return (
     <>
-      <PageHeader title="Upload a spectrum" description={`Onto ${instrument.name}: a reference lamp to calibrate, or a sample to identify.`} />
+      <PageHeader
+        title="Upload a spectrum"
+        description={`Onto ${instrument.name}: a reference lamp to calibrate, or a sample to identify.`}
+      />
       <p className="muted mb-4 max-w-prose text-sm">
-        Two-column text (CSV, TSV or whitespace; header or none; comma or point decimals; pixel, wavelength or wavenumber first)
-        or JCAMP-DX. Limits: {MAX_UPLOAD_BYTES / (1024 * 1024)} MiB per file and {MAX_UPLOAD_POINTS.toLocaleString("en")} points.
-        You see a preview of the parsed points before anything is stored; the file is then stored as it was sent, byte for byte
-        with its SHA-256. A file that cannot be read is refused with the place of the problem and nothing is stored.
+        Two-column text (CSV, TSV or whitespace; header or none; comma or point decimals; pixel,
+        wavelength or wavenumber first) or JCAMP-DX. Limits: {MAX_UPLOAD_BYTES / (1024 * 1024)} MiB
+        per file and {MAX_UPLOAD_POINTS.toLocaleString("en")} points. You see a preview of the
+        parsed points before anything is stored; the file is then stored as it was sent, byte for
+        byte with its SHA-256. A file that cannot be read is refused with the place of the problem
+        and nothing is stored.
       </p>
       <SpectrumUpload
         instrumentId={id}

@@ -2,7 +2,11 @@
 // the workspace navigation, and the PDF one click away.
 import Link from "next/link";
 import { PrintButton } from "@/components/reports/print-button";
-import { REPORT_CHART_SIZE, RunReportView, reportPrintCss } from "@/components/reports/run-report-view";
+import {
+  REPORT_CHART_SIZE,
+  RunReportView,
+  reportPrintCss,
+} from "@/components/reports/run-report-view";
 import { idOrNotFound, orNotFound } from "@/components/workflow/server-data";
 import { chartGeometry, chartLabelsFromCalls } from "@/lib/reports/chart-geometry";
 import { fetchRunReport } from "@/lib/services/run-reports";
@@ -14,12 +18,20 @@ export default async function RunReportPage({ params }: { params: Promise<{ id: 
   const { actor } = await requireWorkspace();
   const id = idOrNotFound((await params).id);
   const { report, chart } = await orNotFound(fetchRunReport(actor, id));
-  const geometry = chartGeometry(chart.wavelengthNm, chart.counts, chartLabelsFromCalls(report.calls), { ...REPORT_CHART_SIZE, fontSize: 7 });
+  const geometry = chartGeometry(
+    chart.wavelengthNm,
+    chart.counts,
+    chartLabelsFromCalls(report.calls),
+    { ...REPORT_CHART_SIZE, fontSize: 7 },
+  );
   return (
     <>
       <style>{reportPrintCss(report)}</style>
       <div className="report-toolbar mx-auto mb-4 flex max-w-[210mm] flex-wrap items-center gap-2">
-        <Link href={`/runs/${id}`} className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800">
+        <Link
+          href={`/runs/${id}`}
+          className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800"
+        >
           Back to the run
         </Link>
         <PrintButton />

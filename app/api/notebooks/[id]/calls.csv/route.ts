@@ -6,5 +6,7 @@ import { idParam } from "@/lib/validation/line-schemas";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();
-  return reportResponse(await notebookCallsCsv(actor, idParam((await params).id, "No such notebook.")));
+  return reportResponse(
+    await notebookCallsCsv(actor, idParam((await params).id, "No such notebook.")),
+  );
 });

@@ -5,5 +5,7 @@ import { idParam } from "@/lib/validation/line-schemas";
 
 export const POST = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();
-  return Response.json(await rerunRun(actor, idParam((await params).id, "No such run.")), { status: 201 });
+  return Response.json(await rerunRun(actor, idParam((await params).id, "No such run.")), {
+    status: 201,
+  });
 });
