@@ -1,10 +1,10 @@
 // The signed, encrypted session cookie (iron-session) and the signed-in person behind a request.
 import "server-only";
-import { getIronSession, type SessionOptions } from "iron-session";
+import { getIronSession, unsealData, type SessionOptions } from "iron-session";
 import { cookies, headers } from "next/headers";
 import { env, sessionSecret } from "@/lib/env";
-import { actorFromAccessToken, loadActor } from "@/lib/services/accounts";
-import { openSession, revokeSession, SESSION_HOURS, sessionUserId } from "@/lib/services/sessions";
+import { actorFromAccessToken, loadSessionActor } from "@/lib/services/accounts";
+import { openSession, revokeSession, SESSION_HOURS } from "@/lib/services/sessions";
 import type { Actor } from "./actor";
 import { SESSION_COOKIE } from "./session-cookie";
 
@@ -33,16 +33,45 @@ export async function getSession() {
   return getIronSession<SessionData>(await cookies(), sessionOptions());
 }
 
+/** How long an unsealed cookie is reused, and how many are kept (the oldest go first). */
+const UNSEALED_TTL_MS = 60_000;
+const UNSEALED_MAX = 5_000;
+const unsealed = new Map<string, { data: SessionData; until: number }>();
+
+/**
+ * The session cookie's contents, for reading only. Unsealing costs two key derivations on libuv's
+ * thread pool, which argon2's sign-ins also use, so the same cookie is unsealed once a minute at
+ * most. Keyed by the exact sealed text: a cookie changed by one byte is unsealed (and checked) anew;
+ * what the session may do is still decided on every request by the database (revoked or expired
+ * sessions, memberships).
+ */
+async function readSessionData(): Promise<SessionData> {
+  const sealed = (await cookies()).get(SESSION_COOKIE)?.value;
+  if (!sealed) return {};
+  const now = Date.now();
+  const kept = unsealed.get(sealed);
+  if (kept && kept.until > now) return kept.data;
+  const options = sessionOptions();
+  const data = await unsealData<SessionData>(sealed, {
+    password: options.password,
+    ttl: options.ttl,
+  });
+  if (unsealed.size >= UNSEALED_MAX) {
+    for (const [key, entry] of unsealed) if (entry.until <= now) unsealed.delete(key);
+    if (unsealed.size >= UNSEALED_MAX) unsealed.delete(unsealed.keys().next().value!);
+  }
+  unsealed.set(sealed, { data, until: now + UNSEALED_TTL_MS });
+  return data;
+}
+
 /** The person behind this request: a Bearer token first, then the session cookie. */
 export async function currentActor(): Promise<Actor | null> {
   const authorization = (await headers()).get("authorization");
   if (authorization?.toLowerCase().startsWith("bearer ")) {
     return actorFromAccessToken(authorization.slice(7).trim());
   }
-  const session = await getSession();
-  if (!session.sessionId) return null;
-  const userId = await sessionUserId(session.sessionId);
-  return userId ? loadActor(userId) : null;
+  const { sessionId } = await readSessionData();
+  return sessionId ? loadSessionActor(sessionId) : null;
 }
 
 /** True when the request authenticates with a Bearer token (no cookie, so no CSRF risk). */
@@ -52,8 +81,8 @@ export async function usesBearerToken(): Promise<boolean> {
 
 /** The team the person works in now: the one chosen in the switcher, else their first. */
 export async function currentTeamId(actor: Actor): Promise<string | undefined> {
-  const session = await getSession();
-  const chosen = actor.memberships.find((m) => m.teamId === session.teamId);
+  const { teamId } = await readSessionData();
+  const chosen = actor.memberships.find((m) => m.teamId === teamId);
   return chosen?.teamId ?? preferredTeamId(actor);
 }
 
@@ -77,7 +106,7 @@ export async function endSession(): Promise<string | undefined> {
 }
 
 export async function currentSessionId(): Promise<string | undefined> {
-  return (await getSession()).sessionId;
+  return (await readSessionData()).sessionId;
 }
 
 const ROLE_RANK = { lab_lead: 3, supervisor: 2, chemist: 1 } as const;

@@ -1,7 +1,7 @@
 // Sign-in and every other password check under one throttle, loading the signed-in person,
 // password change and password reset (both end every session and access token of the person).
 import "server-only";
-import { Op, type Transaction } from "sequelize";
+import { Op, QueryTypes, type Transaction } from "sequelize";
 import { AppError } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
@@ -188,7 +188,15 @@ export async function signIn(input: {
 
 export async function loadActor(userId: string): Promise<Actor | null> {
   const user = await User.findByPk(userId, {
-    include: [{ model: Membership, as: "memberships", include: [{ model: Team, as: "team" }] }],
+    attributes: ["id", "email", "name"],
+    include: [
+      {
+        model: Membership,
+        as: "memberships",
+        attributes: ["teamId", "role"],
+        include: [{ model: Team, as: "team", attributes: ["id", "name"] }],
+      },
+    ],
   });
   if (!user) return null;
   const memberships = (user.get("memberships") as (Membership & { team: Team })[]) ?? [];
@@ -198,6 +206,46 @@ export async function loadActor(userId: string): Promise<Actor | null> {
     name: user.name,
     memberships: memberships
       .map((m) => ({ teamId: m.teamId, teamName: m.team.name, role: m.role }))
+      .sort((a, b) => a.teamName.localeCompare(b.teamName)),
+  };
+}
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+interface SessionActorRow {
+  id: string;
+  email: string;
+  name: string;
+  team_id: string | null;
+  team_name: string | null;
+  role: Actor["memberships"][number]["role"] | null;
+}
+
+/**
+ * The person behind a live server-side session (not revoked, not expired) with their teams, in one
+ * statement: this runs on every cookie-authenticated request, so the session check and the person's
+ * memberships share a round trip, and the password hash is never read.
+ */
+export async function loadSessionActor(sessionId: string): Promise<Actor | null> {
+  if (!UUID.test(sessionId)) return null;
+  const rows = await sequelize.query<SessionActorRow>(
+    `SELECT u.id, u.email, u.name, m.team_id, t.name AS team_name, m.role
+       FROM user_sessions s
+       JOIN users u ON u.id = s.user_id
+       LEFT JOIN memberships m ON m.user_id = u.id
+       LEFT JOIN teams t ON t.id = m.team_id
+      WHERE s.id = :sessionId AND s.revoked_at IS NULL AND s.expires_at > now()`,
+    { replacements: { sessionId }, type: QueryTypes.SELECT },
+  );
+  if (!rows.length) return null;
+  const { id, email, name } = rows[0];
+  return {
+    id,
+    email,
+    name,
+    memberships: rows
+      .filter((r) => r.team_id !== null && r.team_name !== null && r.role !== null)
+      .map((r) => ({ teamId: r.team_id!, teamName: r.team_name!, role: r.role! }))
       .sort((a, b) => a.teamName.localeCompare(b.teamName)),
   };
 }

@@ -23,8 +23,12 @@ export async function loadRun(
   runId: string,
   action: TeamAction = "team.view",
   transaction?: Transaction,
+  { withMatches = false }: { withMatches?: boolean } = {},
 ): Promise<Run> {
+  // Every candidate line of every peak is kept with the run (megabytes against a large table); only
+  // the peaks CSV and an amendment's copy read them, so the rest never load them.
   const row = await Run.findByPk(runId, {
+    attributes: withMatches ? undefined : { exclude: ["matches"] },
     transaction,
     lock: transaction ? transaction.LOCK.UPDATE : undefined,
   });

@@ -183,7 +183,7 @@ export async function runReportPdf(actor: Actor, runId: string): Promise<ReportF
 }
 
 export async function runPeaksCsv(actor: Actor, runId: string): Promise<ReportFile> {
-  const row = await loadRun(actor, runId);
+  const row = await loadRun(actor, runId, "team.view", undefined, { withMatches: true });
   const run = await toRunRecord(row);
   const body = formatPeaksCsv(run.peaks, row.matches as StoredPeakMatch[], run.calls, run.verdicts);
   return {

@@ -608,7 +608,7 @@ export async function amendRun(
 ): Promise<{ id: string; versionNumber: number; amendsRunId: string }> {
   try {
     return await sequelize.transaction(async (transaction) => {
-      const signed = await loadRun(actor, runId, "run.edit", transaction);
+      const signed = await loadRun(actor, runId, "run.edit", transaction, { withMatches: true });
       if (signed.status !== "signed") {
         throw new AppError(
           "conflict",

@@ -15,15 +15,6 @@ export async function openSession(userId: string): Promise<string> {
   return row.id;
 }
 
-/** The user behind a live session, or null when it is unknown, revoked or expired. */
-export async function sessionUserId(sessionId: string): Promise<string | null> {
-  const row = await UserSession.findOne({
-    where: { id: sessionId, revokedAt: null, expiresAt: { [Op.gt]: new Date() } },
-    attributes: ["userId"],
-  });
-  return row?.userId ?? null;
-}
-
 export async function revokeSession(sessionId: string): Promise<void> {
   await UserSession.update(
     { revokedAt: new Date() },
