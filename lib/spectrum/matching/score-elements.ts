@@ -1224,10 +1224,15 @@ function rationaleOf(
   if (weakMissing > 0)
     parts.push(`${weakMissing} weaker expected line${plural(weakMissing)} missing`);
   if (overlaps.length > 0) {
+    // Capped both ways: against a dense table every species shares every peak with every other,
+    // and an uncapped sentence grew with the square of the species called (megabytes per run).
+    const listed = overlaps.slice(0, SHARED_PEAKS_LISTED).map((o) => {
+      const named = o.otherSpecies.slice(0, SHARING_SPECIES_LISTED).join(", ");
+      return `${o.peakWavelengthNm.toFixed(2)} nm with ${named}${andMore(o.otherSpecies.length - SHARING_SPECIES_LISTED)}`;
+    });
+    const morePeaks = overlaps.length - SHARED_PEAKS_LISTED;
     parts.push(
-      `shares ${overlaps
-        .map((o) => `${o.peakWavelengthNm.toFixed(2)} nm with ${o.otherSpecies.join(", ")}`)
-        .join("; ")}`,
+      `shares ${listed.join("; ")}${morePeaks > 0 ? `; and ${morePeaks} more peak${plural(morePeaks)}` : ""}`,
     );
   }
   const lead =
@@ -1332,6 +1337,10 @@ function peakSpan(matches: readonly PeakMatch[]): [number, number] {
 function formatNm(values: number[]): string {
   return values.map((v) => v.toFixed(2)).join(", ") + " nm";
 }
+
+/** How many shared peaks, and species at each, a call's rationale names (its overlaps keep the credible ones). */
+const SHARED_PEAKS_LISTED = 4;
+const SHARING_SPECIES_LISTED = 5;
 
 /** ", and N more" for what a capped list leaves out, nothing when it left nothing out. */
 function andMore(count: number): string {

@@ -142,3 +142,32 @@ describe("scoreElements on a peak shared with lamp-gas lines", () => {
     ]);
   });
 });
+
+describe("the rationale of a call against a dense table", () => {
+  it("names a few sharing species per peak and counts the rest, whatever the table's density", () => {
+    // 120 invented species, each with a line on every one of 8 peaks: every call shares every peak
+    // with 119 others. The sentence must stay short; the counts say what it leaves out.
+    const peaks = Array.from({ length: 8 }, (_, k) => peak(500 + 20 * k, 50, 0.5));
+    const rows = Array.from({ length: 120 }, (_, s) =>
+      peaks.map((p, k) => ({
+        species: `X${s} I`,
+        airNm: p.wavelengthNm + 0.001 * ((s + k) % 5),
+        intensities: { flame: 100 + ((s * 7 + k) % 50) },
+      })),
+    ).flat();
+    const result = identifyElements(peaks, table(rows), {
+      source: "flame",
+      rangeNm: [480, 660],
+      resolutionNm: 0.5,
+    });
+    expect(result.calls.length).toBeGreaterThan(100);
+    for (const call of result.calls) {
+      expect(call.rationale.length).toBeLessThan(1_500);
+      if (call.rationale.includes("shares ")) {
+        expect(call.rationale).toMatch(/with (X\d+ I, ){4}X\d+ I, and \d+ more/);
+        expect(call.rationale).toMatch(/and 4 more peaks/);
+      }
+    }
+    expect(result.calls.some((call) => call.rationale.includes("shares "))).toBe(true);
+  });
+});
