@@ -159,7 +159,8 @@ async function send(route, setup, index, base, tag) {
     case "GET /api/notebooks":
       return reader.request("GET", `/api/notebooks?teamId=${setup.teamId}`, undefined, base);
     case "GET /api/runs/:id":
-      return reader.request("GET", `/api/runs/${setup.seedRun.id}`, undefined, base);
+      // A run analysed by this build against the lab's table (the seed run may be an old one).
+      return reader.request("GET", `/api/runs/${own.id}`, undefined, base);
     case "GET /api/audit":
       return reader.request("GET", `/api/audit?teamId=${setup.teamId}&limit=50`, undefined, base);
     case "PATCH /api/runs/:id (notes)": {

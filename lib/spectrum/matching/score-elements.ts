@@ -68,6 +68,11 @@ export interface ScoreElementsOptions {
    * verdict and the rationale's numbers always take every seen line into account.
    * @default 25 */
   maxSeenListed?: number;
+  /** How many seen and missing lines an absent call lists (hidden ones included); its counts stay
+   * exact. Against a dense table most species a peak reaches are absent, and their full lists were
+   * most of a run's stored size.
+   * @default 5 */
+  maxListedWhenAbsent?: number;
 }
 
 /** A table line seen in the spectrum. */
@@ -229,6 +234,7 @@ export function scoreElements(
     hidingSnrRatio = 3,
     maxMissingListed = 25,
     maxSeenListed = 25,
+    maxListedWhenAbsent = 5,
   } = options;
   assertPositive("detectionLimitSnr", detectionLimitSnr);
   if (noiseCounts !== undefined) assertPositive("noiseCounts", noiseCounts);
@@ -245,6 +251,9 @@ export function scoreElements(
   }
   if (!Number.isInteger(maxSeenListed) || maxSeenListed < 0) {
     throw new RangeError(`maxSeenListed must be an integer ≥ 0, got ${maxSeenListed}`);
+  }
+  if (!Number.isInteger(maxListedWhenAbsent) || maxListedWhenAbsent < 0) {
+    throw new RangeError(`maxListedWhenAbsent must be an integer ≥ 0, got ${maxListedWhenAbsent}`);
   }
   if (possibleScore > presentScore) {
     throw new RangeError(
@@ -569,6 +578,9 @@ export function scoreElements(
         reason: "only-absent-species",
       });
     }
+  }
+  for (const call of calls) {
+    if (call.verdict === "absent") trimAbsentEvidence(call, maxListedWhenAbsent);
   }
   return { calls, overlaps, unexplainedPeaks };
 }
@@ -1336,6 +1348,24 @@ function peakSpan(matches: readonly PeakMatch[]): [number, number] {
 
 function formatNm(values: number[]): string {
   return values.map((v) => v.toFixed(2)).join(", ") + " nm";
+}
+
+/**
+ * Keeps an absent call's `limit` strongest seen lines (in their listed order: by peak, then table
+ * order) and its `limit` first missing lines (already strongest first).
+ */
+function trimAbsentEvidence(call: ElementCall, limit: number): void {
+  if (call.seen.length > limit) {
+    const strongest = new Set(
+      call.seen
+        .map((seen, i) => ({ i, relative: seen.relativeIntensity ?? -1 }))
+        .sort((a, b) => b.relative - a.relative || a.i - b.i)
+        .slice(0, limit)
+        .map((entry) => entry.i),
+    );
+    call.seen = call.seen.filter((_, i) => strongest.has(i));
+  }
+  call.missing.splice(limit);
 }
 
 /** How many shared peaks, and species at each, a call's rationale names (its overlaps keep the credible ones). */

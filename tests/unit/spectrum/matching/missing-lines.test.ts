@@ -306,6 +306,8 @@ describe("scoreElements against a plain scan of a 30,000-line table", () => {
         rangeNm: RANGE_NM,
         ubiquitousSpecies: [],
         maxMissingListed,
+        // Absent calls' own, shorter cap is tested in seen-lines.test.ts.
+        maxListedWhenAbsent: 100_000,
       });
       expect(calls.map((c) => c.species)).toEqual(reference.map((c) => c.species));
       calls.forEach((call, i) => {

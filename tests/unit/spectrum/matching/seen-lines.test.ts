@@ -66,7 +66,8 @@ function peaks(): CalibratedPeak[] {
 describe("scoreElements with a capped list of seen lines", () => {
   const index = prepareLineIndex(table());
   const matches = matchPeaksToLines(peaks(), index, { resolutionNm: 1 });
-  const options = { source: "flame" as const, rangeNm: RANGE_NM };
+  // Absent calls are trimmed further by their own cap, tested on its own below.
+  const options = { source: "flame" as const, rangeNm: RANGE_NM, maxListedWhenAbsent: 100_000 };
   const full = scoreElements(matches, index, { ...options, maxSeenListed: 100_000 });
 
   it("has a call with far more seen lines than the default cap lists", () => {
@@ -117,6 +118,50 @@ describe("scoreElements with a capped list of seen lines", () => {
       RangeError,
     );
     expect(() => scoreElements(matches, index, { ...options, maxSeenListed: 2.5 })).toThrow(
+      RangeError,
+    );
+  });
+});
+
+describe("scoreElements on absent calls", () => {
+  const index = prepareLineIndex(table());
+  const matches = matchPeaksToLines(peaks(), index, { resolutionNm: 1 });
+  const options = { source: "flame" as const, rangeNm: RANGE_NM };
+  const full = scoreElements(matches, index, { ...options, maxListedWhenAbsent: 100_000 });
+  const trimmed = scoreElements(matches, index, options);
+
+  it("lists an absent call's 5 strongest seen lines and 5 first missing ones, counts unchanged", () => {
+    const absent = trimmed.calls.filter((call) => call.verdict === "absent");
+    expect(
+      absent.some((call) => full.calls.find((c) => c.species === call.species)!.seen.length > 5),
+    ).toBe(true);
+    trimmed.calls.forEach((call, i) => {
+      const whole = full.calls[i];
+      expect(call.species).toBe(whole.species);
+      expect([call.verdict, call.score, call.seenCount, call.missingCount, call.rationale]).toEqual(
+        [whole.verdict, whole.score, whole.seenCount, whole.missingCount, whole.rationale],
+      );
+      if (call.verdict !== "absent") {
+        expect(call.seen).toEqual(whole.seen);
+        expect(call.missing).toEqual(whole.missing);
+        return;
+      }
+      const strength = (k: number) => whole.seen[k].relativeIntensity ?? -1;
+      const chosen = whole.seen
+        .map((_, k) => k)
+        .sort((a, b) => strength(b) - strength(a) || a - b)
+        .slice(0, 5)
+        .sort((a, b) => a - b);
+      expect(call.seen, call.species).toEqual(chosen.map((k) => whole.seen[k]));
+      expect(call.missing, call.species).toEqual(whole.missing.slice(0, 5));
+    });
+  });
+
+  it("refuses a cap that is not a whole number ≥ 0", () => {
+    expect(() => scoreElements(matches, index, { ...options, maxListedWhenAbsent: -1 })).toThrow(
+      RangeError,
+    );
+    expect(() => scoreElements(matches, index, { ...options, maxListedWhenAbsent: 1.5 })).toThrow(
       RangeError,
     );
   });
