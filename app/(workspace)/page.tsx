@@ -1,21 +1,29 @@
-// Home: the person's teams and what happened lately in the current one.
+// Home: what is waiting for the person in the current team, their teams, and what happened lately,
+// in words.
 import Link from "next/link";
+import { WaitingPanel } from "@/components/home/waiting-panel";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import { fetchRecentActivity } from "@/lib/services/audit";
+import { fetchWaitingForYou } from "@/lib/services/waiting";
 import { requireWorkspace } from "@/lib/services/workspace";
 
 export const metadata = { title: "Home" };
 
 export default async function HomePage() {
   const { actor, team } = await requireWorkspace();
-  const activity = team ? await fetchRecentActivity(actor, team.teamId) : [];
+  const [activity, waiting] = team
+    ? await Promise.all([
+        fetchRecentActivity(actor, team.teamId),
+        fetchWaitingForYou(actor, team.teamId),
+      ])
+    : [[], null];
   return (
     <>
       <PageHeader
         title={`Welcome, ${actor.name.split(" ")[0]}`}
-        description="Your teams and their latest activity."
+        description="What is waiting for you, your teams and their latest activity."
       />
       {actor.memberships.length === 0 ? (
         <EmptyState title="You are not in a team yet">
@@ -23,6 +31,11 @@ export default async function HomePage() {
         </EmptyState>
       ) : (
         <div className="grid gap-5 lg:grid-cols-[18rem_1fr]">
+          {waiting ? (
+            <div className="lg:col-span-2">
+              <WaitingPanel waiting={waiting} />
+            </div>
+          ) : null}
           <section className="panel p-4" aria-labelledby="teams-heading">
             <h2 id="teams-heading" className="mb-2 font-semibold">
               Your teams
@@ -49,29 +62,25 @@ export default async function HomePage() {
                 or open a notebook.
               </p>
             ) : (
-              <table className="w-full text-sm">
-                <thead className="muted text-left text-xs">
-                  <tr>
-                    <th className="py-1 font-medium">When</th>
-                    <th className="py-1 font-medium">Who</th>
-                    <th className="py-1 font-medium">What</th>
-                  </tr>
-                </thead>
-                <tbody className="divide-line">
-                  {activity.map((event) => (
-                    <tr key={event.id}>
-                      <td className="tabular py-1 pr-3 whitespace-nowrap">
-                        {new Date(event.at).toISOString().slice(0, 16).replace("T", " ")} UTC
-                      </td>
-                      <td className="py-1 pr-3">{event.actorName ?? "System"}</td>
-                      <td className="py-1">
-                        <code className="text-xs">{event.action}</code>
-                        {event.reason ? <span className="muted"> — {event.reason}</span> : null}
-                      </td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
+              <ul className="divide-line text-sm" data-testid="activity">
+                {activity.map((event) => (
+                  <li key={event.id} className="flex flex-wrap justify-between gap-x-3 py-1">
+                    <span>
+                      {event.href ? (
+                        <Link href={event.href} className="hover:underline">
+                          {event.sentence}
+                        </Link>
+                      ) : (
+                        event.sentence
+                      )}
+                      {event.reason ? <span className="muted"> — {event.reason}</span> : null}
+                    </span>
+                    <time dateTime={event.at} className="tabular muted text-xs whitespace-nowrap">
+                      {event.at.slice(0, 16).replace("T", " ")} UTC
+                    </time>
+                  </li>
+                ))}
+              </ul>
             )}
           </section>
         </div>

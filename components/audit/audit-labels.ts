@@ -1,4 +1,6 @@
 // Names and links of the things an audit event can be about, and how its times and values read.
+export { entityHref } from "@/lib/audit/entity-href";
+
 const ENTITY_LABELS: Record<string, string> = {
   access_token: "Access token",
   calibration: "Calibration",
@@ -16,28 +18,6 @@ const ENTITY_LABELS: Record<string, string> = {
 
 export function entityLabel(entity: string): string {
   return ENTITY_LABELS[entity] ?? entity.replace(/_/g, " ");
-}
-
-/** The page of the record an event is about, where it has one. */
-export function entityHref(entity: string, entityId: string | null): string | null {
-  if (!entityId) return null;
-  const id = encodeURIComponent(entityId);
-  switch (entity) {
-    case "run":
-      return `/runs/${id}`;
-    case "calibration":
-      return `/calibrations/${id}`;
-    case "line_release":
-      return `/lines?release=${id}`;
-    case "notebook":
-      return `/notebooks/${id}`;
-    case "instrument":
-      return `/instruments/${id}`;
-    case "line":
-      return `/lines/${id}`;
-    default:
-      return null;
-  }
 }
 
 /** `2026-12-02 03:41:07 UTC` from an ISO time: the trail's times are always shown in UTC. */

@@ -1,6 +1,7 @@
 "use client";
 // The team's trail as a table: time, person, action, entity (linked where it has a page) and reason;
 // each row opens to show its before and after; "Load more" fetches the next, older page.
+import { actionLabel } from "@/lib/audit/action-words";
 import Link from "next/link";
 import { Fragment, useState } from "react";
 import type { AuditEventRecord, AuditPage } from "@/lib/services/audit";
@@ -119,7 +120,10 @@ export function AuditTable({
                         <div className="muted text-xs">{event.actorEmail}</div>
                       ) : null}
                     </td>
-                    <td className="px-3 py-1.5 font-mono text-xs">{event.action}</td>
+                    <td className="px-3 py-1.5">
+                      {actionLabel(event.action)}
+                      <div className="muted font-mono text-xs">{event.action}</div>
+                    </td>
                     <td className="px-3 py-1.5">
                       {entityLabel(event.entity)}
                       {event.entityId ? (

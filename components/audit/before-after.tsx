@@ -5,6 +5,7 @@ import {
   type AuditChange,
   type AuditChangeKind,
 } from "@/lib/audit/diff-audit-values";
+import { fieldLabel } from "@/lib/audit/action-words";
 import { formatAuditValue } from "./audit-labels";
 
 const MARKS: Record<AuditChangeKind, { symbol: string; word: string }> = {
@@ -85,9 +86,10 @@ export function BeforeAfter({
               >
                 <th
                   scope="row"
-                  className={`px-2 py-1 text-left font-mono ${mark ? "font-semibold" : "font-normal"}`}
+                  className={`px-2 py-1 text-left ${mark ? "font-semibold" : "font-normal"}`}
                 >
-                  {path || "(value)"}
+                  {fieldLabel(path)}
+                  {path ? <div className="muted font-mono font-normal">{path}</div> : null}
                 </th>
                 <td className="max-w-[28rem] break-all px-2 py-1 font-mono">
                   {beforeLeaves.has(path) ? formatAuditValue(beforeLeaves.get(path)) : "—"}

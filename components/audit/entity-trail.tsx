@@ -1,6 +1,7 @@
 // One record's audit trail (a run, a calibration, a line-table release…) for the foot of its page:
 // a compact list, newest first, each event opening to its before and after, and a link to the full
 // trail filtered on the record.
+import { actionLabel } from "@/lib/audit/action-words";
 import Link from "next/link";
 import { fetchEntityTrail } from "@/lib/services/audit";
 import { requireWorkspace } from "@/lib/services/workspace";
@@ -32,7 +33,10 @@ export async function EntityTrail({ entity, entityId }: { entity: string; entity
               <details className="group">
                 <summary className="flex cursor-pointer flex-wrap items-baseline gap-x-3 gap-y-0.5 px-3 py-1.5 hover:bg-ink-100 dark:hover:bg-ink-800">
                   <span className="tabular font-mono text-xs">{utcTime(event.at)}</span>
-                  <span className="font-mono text-xs">{event.action}</span>
+                  <span>
+                    {actionLabel(event.action)}{" "}
+                    <span className="muted font-mono text-xs">{event.action}</span>
+                  </span>
                   <span>{event.actorName ?? "the system"}</span>
                   {event.reason ? <span className="muted">“{event.reason}”</span> : null}
                   {event.changes.length > 0 ? (

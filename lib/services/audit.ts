@@ -8,7 +8,10 @@ import { QueryTypes, type Transaction } from "sequelize";
 import { AuditEvent, User, sequelize } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize, can } from "@/lib/auth/policy";
+import { actionLabel, activitySentence } from "@/lib/audit/action-words";
+import { entityHref } from "@/lib/audit/entity-href";
 import { diffAuditValues, type AuditChange } from "@/lib/audit/diff-audit-values";
+import { ROLE_LABELS, type TeamRole } from "@/lib/auth/roles";
 import {
   AUDIT_FILTER_KEYS,
   AUDIT_PAGE_DEFAULT,
@@ -49,9 +52,95 @@ export interface AuditEntry {
   at: string;
   actorName: string | null;
   action: string;
+  /** The action in words: "Run started". */
+  label: string;
+  /** The event as a sentence: "Mara Quist started run Flame sample A." */
+  sentence: string;
   entity: string;
   entityId: string | null;
+  /** The page of the record, where it has one. */
+  href: string | null;
   reason: string | null;
+}
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+/**
+ * The names of the records events are about, as they read now (a run by its sample's label, a
+ * notebook by its title, …): one statement per kind of record, whatever the number of events.
+ */
+async function recordNames(
+  teamId: string,
+  events: readonly { entity: string; entityId: string | null }[],
+): Promise<Map<string, string>> {
+  const idsOf = (entity: string) => [
+    ...new Set(
+      events
+        .filter((e) => e.entity === entity && e.entityId && UUID.test(e.entityId))
+        .map((e) => e.entityId!),
+    ),
+  ];
+  const lookups: { entity: string; sql: string }[] = [
+    {
+      entity: "run",
+      sql: `SELECT r.id, coalesce(nullif(s.label, ''), s.file_name) AS name FROM runs r
+              JOIN spectrum_files s ON s.id = r.spectrum_id WHERE r.team_id = $1 AND r.id = ANY ($2::uuid[])`,
+    },
+    {
+      entity: "notebook",
+      sql: "SELECT id, title AS name FROM notebooks WHERE team_id = $1 AND id = ANY ($2::uuid[])",
+    },
+    {
+      entity: "instrument",
+      sql: "SELECT id, name FROM instruments WHERE team_id = $1 AND id = ANY ($2::uuid[])",
+    },
+    {
+      entity: "calibration",
+      sql: `SELECT c.id, i.name || ' (' || to_char(c.calibrated_on, 'YYYY-MM-DD') || ')' AS name
+              FROM calibrations c JOIN instruments i ON i.id = c.instrument_id
+             WHERE c.team_id = $1 AND c.id = ANY ($2::uuid[])`,
+    },
+    {
+      entity: "spectrum_file",
+      sql: `SELECT id, coalesce(nullif(label, ''), file_name) AS name FROM spectrum_files
+             WHERE team_id = $1 AND id = ANY ($2::uuid[])`,
+    },
+    {
+      entity: "line_release",
+      sql: `SELECT id, CASE WHEN number IS NULL THEN 'the draft line table' ELSE 'line-table release ' || number END AS name
+              FROM line_releases WHERE team_id = $1 AND id = ANY ($2::uuid[])`,
+    },
+    {
+      entity: "line",
+      sql: `SELECT l.id, l.species || ' ' || round(coalesce(l.air_nm, l.vacuum_nm)::numeric, 3) || ' nm' AS name
+              FROM lines l JOIN line_releases lr ON lr.id = l.release_id
+             WHERE lr.team_id = $1 AND l.id = ANY ($2::uuid[])`,
+    },
+  ];
+  const names = new Map<string, string>();
+  await Promise.all(
+    lookups.map(async ({ entity, sql }) => {
+      const ids = idsOf(entity);
+      if (ids.length === 0) return;
+      const rows = await sequelize.query<{ id: string; name: string }>(sql, {
+        bind: [teamId, ids],
+        type: QueryTypes.SELECT,
+      });
+      for (const row of rows) names.set(`${entity}:${row.id}`, row.name);
+    }),
+  );
+  return names;
+}
+
+/** A name an event carries itself (a person's e-mail, a token's name, a role), when the record has none. */
+function carriedName(value: unknown): string | null {
+  if (!value || typeof value !== "object") return null;
+  const record = value as Record<string, unknown>;
+  for (const key of ["title", "name", "email", "label", "fileName"]) {
+    if (typeof record[key] === "string" && record[key]) return record[key] as string;
+  }
+  if (typeof record.role === "string") return ROLE_LABELS[record.role as TeamRole] ?? record.role;
+  return null;
 }
 
 export async function fetchRecentActivity(
@@ -66,15 +155,26 @@ export async function fetchRecentActivity(
     limit,
     include: [{ model: User, as: "actor", attributes: ["name"] }],
   });
-  return rows.map((row) => ({
-    id: String(row.id),
-    at: row.createdAt.toISOString(),
-    actorName: (row.get("actor") as User | null)?.name ?? null,
-    action: row.action,
-    entity: row.entity,
-    entityId: row.entityId,
-    reason: row.reason,
-  }));
+  const names = await recordNames(teamId, rows);
+  return rows.map((row) => {
+    const actorName = (row.get("actor") as User | null)?.name ?? null;
+    const subject =
+      names.get(`${row.entity}:${row.entityId}`) ??
+      carriedName(row.after) ??
+      carriedName(row.before);
+    return {
+      id: String(row.id),
+      at: row.createdAt.toISOString(),
+      actorName,
+      action: row.action,
+      label: actionLabel(row.action),
+      sentence: activitySentence({ actorName, action: row.action, subject }),
+      entity: row.entity,
+      entityId: row.entityId,
+      href: entityHref(row.entity, row.entityId),
+      reason: row.reason,
+    };
+  });
 }
 
 // ---------------------------------------------------------------------------------------------
