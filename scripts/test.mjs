@@ -1,5 +1,6 @@
 // `npm test`: every check from a fresh clone — the same bootstrap as `npm start` against a test
-// database created afresh, then Prettier's check, ESLint, the type check, a production build served
+// database created afresh, then Prettier's check, ESLint, the type check, the licence check of the
+// production dependencies, a production build served
 // on a test port, and Vitest (unit, integration against the real PostgreSQL, end to end in Debian's Chromium).
 import fs from "node:fs";
 import path from "node:path";
@@ -69,6 +70,12 @@ async function main() {
       step("Prettier (the whole tree is formatted)", bin("prettier"), ["--check", "."], testEnv);
       step("ESLint", bin("eslint"), [".", "--max-warnings=0"], testEnv);
       step("Type check (tsc --noEmit)", bin("tsc"), ["--noEmit"], testEnv);
+      step(
+        "Licences of the production dependencies (licence-allow-list.json)",
+        bin("tsx"),
+        ["scripts/check-licences.ts"],
+        testEnv,
+      );
     }
     ensureChromium();
     ensurePdfTools();

@@ -1,5 +1,6 @@
-// The "Downloads" block of a run page: the PDF report, the peaks CSV, the spectrum as JCAMP-DX and
-// the printable page. Plain links: the browser downloads the files with the session cookie.
+// The "Downloads" block of a run page: the PDF report, the peaks CSV, the spectrum as JCAMP-DX (as
+// calibrated and on even steps) and the printable page. Plain links: the browser downloads the files
+// with the session cookie.
 import Link from "next/link";
 
 const LINK =
@@ -43,6 +44,17 @@ export function RunDownloads({ runId }: { runId: string }) {
           </a>
         </li>
         <li>
+          <a
+            href={`/api/runs/${runId}/spectrum-even.jdx`}
+            download
+            className={LINK}
+            data-testid="download-spectrum-even-jdx"
+            aria-describedby="run-downloads-even-note"
+          >
+            Spectrum on even steps (JCAMP-DX)
+          </a>
+        </li>
+        <li>
           <Link href={`/runs/${runId}/report`} className={LINK} data-testid="printable-report">
             Printable page
           </Link>
@@ -50,6 +62,10 @@ export function RunDownloads({ runId }: { runId: string }) {
       </ul>
       <p className="muted mt-1 text-xs">
         The report and the files carry the screening caveat: they are not a certified analysis.
+      </p>
+      <p id="run-downloads-even-note" className="muted mt-1 text-xs">
+        The even-step spectrum is the calibrated one interpolated onto evenly spaced wavelengths,
+        for programs that read only those; a narrow peak loses a little height in it.
       </p>
     </section>
   );

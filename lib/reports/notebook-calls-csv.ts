@@ -1,8 +1,11 @@
 // A notebook's calls as CSV: one row per run and call (a run with no candidate at all has one row
 // with the call cells empty, so every run is listed), with the standing and the computed verdict, and
 // an absent call's detection limit (the least height its strongest line in range needed to be found).
+// Comment lines name the notebook, the runs' line-table releases and the caveat.
 import type { RunRecord } from "@/lib/services/workflow-types";
 import { formatCsv, type CsvCell } from "./csv-table";
+import { SCREENING_CAVEAT } from "./report-text";
+import { roundSignificant } from "./round-to-uncertainty";
 
 export interface NotebookCallsRun {
   run: RunRecord;
@@ -31,7 +34,15 @@ export const NOTEBOOK_CALLS_CSV_COLUMNS = [
   "detection_limit_of_strongest",
 ] as const;
 
-export function formatNotebookCallsCsv(runs: readonly NotebookCallsRun[]): string {
+/** The notebook the calls CSV lists. */
+export interface NotebookCallsAbout {
+  notebookId: string;
+}
+
+export function formatNotebookCallsCsv(
+  runs: readonly NotebookCallsRun[],
+  about: NotebookCallsAbout,
+): string {
   const rows: CsvCell[][] = [];
   for (const { run, authorName, instrumentName } of runs) {
     const runCells: CsvCell[] = [
@@ -54,7 +65,8 @@ export function formatNotebookCallsCsv(runs: readonly NotebookCallsRun[]): strin
         run.verdicts[call.species] ?? call.verdict,
         call.computedVerdict,
         newest?.reason ?? "",
-        call.score,
+        // A score is a weighing of evidence: three digits say all it can.
+        roundSignificant(call.score, 3),
         call.seenCount,
         call.missingCount,
         call.detectionLimit?.lineNm ?? null,
@@ -63,5 +75,14 @@ export function formatNotebookCallsCsv(runs: readonly NotebookCallsRun[]): strin
       ]);
     }
   }
-  return formatCsv(NOTEBOOK_CALLS_CSV_COLUMNS, rows);
+  const releases = [...new Set(runs.map(({ run }) => run.lineReleaseNumber ?? "unpublished"))];
+  return formatCsv(NOTEBOOK_CALLS_CSV_COLUMNS, rows, {
+    comments: [
+      `Emberline calls of notebook ${about.notebookId}: ${runs.length} run${runs.length === 1 ? "" : "s"} (run_id and version name each)`,
+      releases.length === 0
+        ? "No runs yet: no line-table release."
+        : `Line-table release${releases.length === 1 ? "" : "s"} the runs used: ${releases.join(" and ")}`,
+      SCREENING_CAVEAT,
+    ],
+  });
 }

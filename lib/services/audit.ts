@@ -4,6 +4,7 @@
 import "server-only";
 import Papa from "papaparse";
 import { FORMULA_START } from "@/lib/reports/formula-guard";
+import { csvComment } from "@/lib/reports/csv-table";
 import { QueryTypes, type Transaction } from "sequelize";
 import { AuditEvent, User, sequelize } from "@/models";
 import type { Actor } from "@/lib/auth/actor";
@@ -430,6 +431,16 @@ function csvCells(event: AuditEventRecord): string[] {
   ];
 }
 
+/** The audit CSV's comment lines: whose trail, which cut of it, and what the file does not prove. */
+function auditCsvComments(teamId: string, newest: string | null, filtered: boolean): string {
+  return [
+    `Emberline audit trail of team ${teamId}: events up to id ${newest ?? "(none)"}, newest first${filtered ? " (filtered)" : ""}`,
+    `Exported ${new Date().toISOString()}. The trail is hash-chained in the database: GET /api/audit/verify?teamId=${teamId} checks it; this copy proves nothing by itself.`,
+  ]
+    .map((line) => `${csvComment(line)}\r\n`)
+    .join("");
+}
+
 function csvText(rows: string[][], header: boolean): string {
   // RFC 4180: fields with commas, quotes or line breaks are quoted, quotes doubled, CRLF between records.
   const text = Papa.unparse(header ? { fields: [...AUDIT_CSV_COLUMNS], data: rows } : rows, {
@@ -466,6 +477,7 @@ export async function exportAuditCsv(actor: Actor, filter: AuditFilter): Promise
   const filtered = AUDIT_FILTER_KEYS.some((key) => filter[key]);
   const filename = `emberline-audit-${slug}-${new Date().toISOString().slice(0, 10)}${filtered ? "-filtered" : ""}.csv`;
   const encoder = new TextEncoder();
+  const comments = auditCsvComments(filter.teamId, newest, filtered);
   let cursor: string | undefined;
   let started = false;
   const stream = new ReadableStream<Uint8Array>({
@@ -482,6 +494,7 @@ export async function exportAuditCsv(actor: Actor, filter: AuditFilter): Promise
           rows.map((row) => csvCells(toAuditEventRecord(row))),
           !started,
         );
+        if (!started) controller.enqueue(encoder.encode(comments));
         if (!started && rows.length === 0) {
           controller.enqueue(encoder.encode(`${AUDIT_CSV_COLUMNS.join(",")}\r\n`));
         } else if (text) controller.enqueue(encoder.encode(text));

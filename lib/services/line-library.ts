@@ -606,6 +606,7 @@ export async function exportReleaseCsv(
     comments: [
       `Emberline line table, ${label}${release.published_at ? `, published ${new Date(release.published_at).toISOString()}` : ""}.`,
       "line_key identifies each line across releases; keep it when editing this file for re-import.",
+      "A value whose source says it was typed from memory stays unverified (verified=false) until a lab lead checks it against the source.",
     ],
   });
   return {

@@ -1,5 +1,5 @@
 // Reports a lab files: a run's PDF report and printable page, its peaks CSV and its calibrated
-// spectrum as JCAMP-DX, and a notebook's calls CSV. Authorise (team.view; another team's run is not
+// spectrum as JCAMP-DX (as calibrated, and resampled onto an even axis), and a notebook's calls CSV. Authorise (team.view; another team's run is not
 // found) → gather the plain records → render with lib/reports. Downloads change nothing: no audit.
 import "server-only";
 import type { Actor } from "@/lib/auth/actor";
@@ -185,7 +185,7 @@ export async function runReportPdf(actor: Actor, runId: string): Promise<ReportF
 export async function runPeaksCsv(actor: Actor, runId: string): Promise<ReportFile> {
   const row = await loadRun(actor, runId, "team.view", undefined, { withMatches: true });
   const run = await toRunRecord(row);
-  const body = formatPeaksCsv(run.peaks, row.matches as StoredPeakMatch[], run.calls, run.verdicts);
+  const body = formatPeaksCsv(run, row.matches as StoredPeakMatch[]);
   return {
     fileName: `${baseName(run)}-peaks.csv`,
     contentType: "text/csv; charset=utf-8; header=present",
@@ -193,7 +193,17 @@ export async function runPeaksCsv(actor: Actor, runId: string): Promise<ReportFi
   };
 }
 
-export async function runSpectrumJdx(actor: Actor, runId: string): Promise<ReportFile> {
+/** The run's calibrated spectrum as JCAMP-DX, point by point (XYPOINTS on an uneven axis). */
+export function runSpectrumJdx(actor: Actor, runId: string): Promise<ReportFile> {
+  return spectrumJdx(actor, runId, false);
+}
+
+/** The same spectrum linearly resampled onto an even axis, as compressed XYDATA, for programs that take no other. */
+export function runSpectrumEvenJdx(actor: Actor, runId: string): Promise<ReportFile> {
+  return spectrumJdx(actor, runId, true);
+}
+
+async function spectrumJdx(actor: Actor, runId: string, even: boolean): Promise<ReportFile> {
   const row = await loadRun(actor, runId);
   const [points, spectrum, release, team] = await Promise.all([
     fetchRunSpectrum(actor, row.id),
@@ -208,23 +218,26 @@ export async function runSpectrumJdx(actor: Actor, runId: string): Promise<Repor
     row.calibrationId || spectrum!.xUnit === "wavenumber" || spectrum!.medium !== null
       ? "air"
       : null;
-  const body = formatRunSpectrumJdx({
-    wavelengthNm: points.wavelengthNm,
-    counts: points.counts,
-    medium,
-    runId: row.id,
-    versionNumber: row.versionNumber,
-    calibrationId: row.calibrationId,
-    releaseId: row.lineReleaseId,
-    releaseNumber: release?.number ?? null,
-    sampleSha256: spectrum!.sha256,
-    sampleFileName: spectrum!.fileName,
-    softwareVersion: row.softwareVersion,
-    origin: `Emberline, team ${team?.name ?? row.teamId}`,
-    analysedAt: row.createdAt.toISOString(),
-  });
+  const body = formatRunSpectrumJdx(
+    {
+      wavelengthNm: points.wavelengthNm,
+      counts: points.counts,
+      medium,
+      runId: row.id,
+      versionNumber: row.versionNumber,
+      calibrationId: row.calibrationId,
+      releaseId: row.lineReleaseId,
+      releaseNumber: release?.number ?? null,
+      sampleSha256: spectrum!.sha256,
+      sampleFileName: spectrum!.fileName,
+      softwareVersion: row.softwareVersion,
+      origin: `Emberline, team ${team?.name ?? row.teamId}`,
+      analysedAt: row.createdAt.toISOString(),
+    },
+    { resampleEvenly: even },
+  );
   return {
-    fileName: `${baseName(row)}-spectrum.jdx`,
+    fileName: `${baseName(row)}-spectrum${even ? "-even" : ""}.jdx`,
     contentType: "chemical/x-jcamp-dx; charset=utf-8",
     body,
   };
@@ -262,6 +275,6 @@ export async function notebookCallsCsv(actor: Actor, notebookId: string): Promis
   return {
     fileName: `emberline-notebook-${shortRunId(notebook.id)}-calls.csv`,
     contentType: "text/csv; charset=utf-8; header=present",
-    body: formatNotebookCallsCsv(entries),
+    body: formatNotebookCallsCsv(entries, { notebookId: notebook.id }),
   };
 }

@@ -134,6 +134,7 @@ describe("the audit trail", () => {
     const parsed = Papa.parse<Record<string, string>>(fs.readFileSync(file, "utf8"), {
       header: true,
       skipEmptyLines: true,
+      comments: "#",
     });
     expect(parsed.errors).toEqual([]);
     expect(parsed.data).toHaveLength(shown);

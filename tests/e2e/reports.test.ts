@@ -138,7 +138,7 @@ describe("reports", () => {
     expect(browser.problems).toEqual([]);
   });
 
-  it("downloads the PDF from the run page's Downloads block", async () => {
+  it("downloads the PDF, the peaks CSV and the even-step JCAMP-DX from the run page's Downloads block", async () => {
     const { page } = browser;
     await page.goto(`/runs/${runId}`);
     await page.getByTestId("run-downloads").scrollIntoViewIfNeeded();
@@ -147,7 +147,12 @@ describe("reports", () => {
     expect(pdf.name).toMatch(/^emberline-run-[0-9a-f]{8}-v1\.pdf$/);
     expect(pdf.bytes.subarray(0, 5).toString("latin1")).toBe("%PDF-");
     const csv = await new RunDownloadsBlock(page).download("download-peaks-csv");
-    expect(csv.bytes.toString("utf8").split("\r\n")[0]).toMatch(/^peak_nm,/);
+    const csvLines = csv.bytes.toString("utf8").split("\r\n");
+    expect(csvLines[0]).toMatch(/^# Emberline peaks and candidate lines of run /);
+    expect(csvLines.find((line) => !line.startsWith("#"))).toMatch(/^peak_nm,/);
+    const even = await new RunDownloadsBlock(page).download("download-spectrum-even-jdx");
+    expect(even.name).toMatch(/^emberline-run-[0-9a-f]{8}-v1-spectrum-even\.jdx$/);
+    expect(even.bytes.toString("latin1")).toContain("##XYDATA=(X++(Y..Y))");
   });
 
   it("offers the notebook's calls as CSV", async () => {

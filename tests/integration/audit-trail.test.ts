@@ -390,14 +390,24 @@ describe("CSV export", () => {
       ),
     );
     const text = await reply.text();
-    expect(
-      text.startsWith(
-        "time_utc,actor_name,actor_email,action,entity,entity_id,reason,changed_fields,before_json,after_json\r\n",
+    // Comment lines first: whose trail, which cut, and that a copy proves nothing by itself.
+    const [first, second, header] = text.split("\r\n");
+    expect(first).toMatch(
+      new RegExp(
+        `^# Emberline audit trail of team ${outsiderTeamId}: events up to id \\d+ - newest first \\(filtered\\)$`,
       ),
-    ).toBe(true);
+    );
+    expect(second).toContain(`GET /api/audit/verify?teamId=${outsiderTeamId} checks it`);
+    expect(header).toBe(
+      "time_utc,actor_name,actor_email,action,entity,entity_id,reason,changed_fields,before_json,after_json",
+    );
     // The reason's quotes are doubled inside a quoted field, behind the apostrophe of the formula guard.
     expect(text).toContain(`"'=1+2 corrected, ""as read""\nfrom the lamp sheet ${suffix}"`);
-    const parsed = Papa.parse<Record<string, string>>(text, { header: true, skipEmptyLines: true });
+    const parsed = Papa.parse<Record<string, string>>(text, {
+      header: true,
+      skipEmptyLines: true,
+      comments: "#",
+    });
     expect(parsed.errors).toEqual([]);
     expect(parsed.data.map((r) => r.action)).toEqual(["line.update", "line.add"]);
     const [update] = parsed.data;
@@ -434,6 +444,7 @@ describe("CSV export", () => {
     const parsed = Papa.parse<Record<string, string>>(await reply.text(), {
       header: true,
       skipEmptyLines: true,
+      comments: "#",
     });
     expect(parsed.errors).toEqual([]);
     expect(parsed.data.map((r) => `${r.action} ${r.entity_id}`)).toEqual(
@@ -443,7 +454,7 @@ describe("CSV export", () => {
     expect(JSON.parse(tricky!.after_json).name).toBe(TRICKY_NAME);
   });
 
-  it("writes just the header when nothing matches", async () => {
+  it("writes just the comments and the header when nothing matches", async () => {
     const reply = await fetch(
       `${process.env.EMBERLINE_TEST_URL ?? "http://127.0.0.1:3100"}/api/audit?teamId=${teamId}&from=2001-01-01&to=2001-01-02&format=csv`,
       {
@@ -454,7 +465,7 @@ describe("CSV export", () => {
       },
     );
     expect(reply.status).toBe(200);
-    expect(await reply.text()).toBe(
+    expect((await reply.text()).replace(/^#.*\r\n/gm, "")).toBe(
       "time_utc,actor_name,actor_email,action,entity,entity_id,reason,changed_fields,before_json,after_json\r\n",
     );
   });

@@ -186,6 +186,7 @@ const QUERY_ROUTES: QueryRoute[] = [
   { path: "/api/runs/:id/history", keys: [], realId: "run" },
   { path: "/api/runs/:id/peaks.csv", keys: [], realId: "run" },
   { path: "/api/runs/:id/spectrum.jdx", keys: [], realId: "run" },
+  { path: "/api/runs/:id/spectrum-even.jdx", keys: [], realId: "run" },
   // The PDF takes seconds of CPU: only odd ids here (the report tests render real ones).
   { path: "/api/runs/:id/report.pdf", keys: [] },
   { path: "/api/releases", keys: ["teamId"] },

@@ -1,7 +1,7 @@
 // Reports through HTTP against the real PostgreSQL: a run made from synthetic files is downloaded as
 // a PDF (read back with Debian's poppler pdftotext), as a peaks CSV (read back with a CSV parser), as
-// JCAMP-DX (read back with the app's own parser to the run's calibrated points), and its notebook as
-// a calls CSV; an override and a signature (rows put in directly: another part of the app makes them)
+// JCAMP-DX as calibrated and resampled evenly (checked by the strict validator and read back with the
+// app's own parser to the run's calibrated points), and its notebook as a calls CSV; an override and a signature (rows put in directly: another part of the app makes them)
 // show in the PDF; another team gets 404 and nobody signed in gets 401.
 import { execFileSync } from "node:child_process";
 import fs from "node:fs";
@@ -11,7 +11,8 @@ import Papa from "papaparse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { detectionLimitText } from "@/lib/reports/detection-limit-text";
 import type { StoredDetectionLimit } from "@/lib/services/workflow-types";
-import { parseSpectrumFile } from "@/lib/spectrum/io";
+import { parseSpectrumFile, resampleEvenly } from "@/lib/spectrum/io";
+import { validateStrictJcamp } from "../support/jcamp-strict-validator";
 import { APP_URL, ApiClient } from "./support/http-client";
 import { createSyntheticInstrument, uploadSpectrumFile } from "./support/bench";
 import { DEMO, FLAME_SCREENING, signInDemo, signedIn, teamIdOf } from "./support/accounts";
@@ -92,6 +93,7 @@ function parseCsv(text: string): Record<string, string>[] {
     header: true,
     skipEmptyLines: true,
     delimiter: ",",
+    comments: "#",
   });
   expect(parsed.errors).toEqual([]);
   return parsed.data;
@@ -238,8 +240,12 @@ describe("the JCAMP-DX export", () => {
     );
     expect(response.headers.get("cache-control")).toMatch(/no-store/);
     const text = await response.text();
+    // A strict JCAMP-DX 4.24 reader takes it (tests/support/jcamp-strict-validator.ts).
+    expect(validateStrictJcamp(text).problems).toEqual([]);
     expect(text).toContain("##XUNITS=NANOMETERS");
-    expect(text).toContain("##$WAVELENGTH MEDIUM=AIR");
+    expect(text).toContain("##YUNITS=ARBITRARY UNITS");
+    expect(text).toContain("##$MEDIUM=AIR");
+    expect(text.match(/MEDIUM=/g)).toHaveLength(1);
     expect(text).toContain(`##$EMBERLINE RUN ID=${calibratedRun.id}`);
     expect(text).toContain(`##$EMBERLINE CALIBRATION ID=${calibration.id}`);
     expect(text).toContain(`##$EMBERLINE LINE RELEASE ID=${calibratedRun.lineReleaseId}`);
@@ -268,11 +274,45 @@ describe("the JCAMP-DX export", () => {
     }
   });
 
+  it("offers the same spectrum resampled onto an even axis, as compressed XYDATA a strict reader takes", async () => {
+    const [even, calibrated] = await Promise.all([
+      download(chemist, `/api/runs/${calibratedRun.id}/spectrum-even.jdx`),
+      download(chemist, `/api/runs/${calibratedRun.id}/spectrum.jdx`),
+    ]);
+    expect(even.status).toBe(200);
+    expect(even.headers.get("content-type")).toMatch(/^chemical\/x-jcamp-dx/);
+    expect(even.headers.get("content-disposition")).toBe(
+      `attachment; filename="emberline-run-${shortId(calibratedRun.id)}-v1-spectrum-even.jdx"`,
+    );
+    expect(even.headers.get("cache-control")).toMatch(/no-store/);
+    const text = await even.text();
+    const strict = validateStrictJcamp(text);
+    expect(strict.problems).toEqual([]);
+    expect(text).toContain("##XYDATA=(X++(Y..Y))");
+    expect(text).toMatch(/^##\$EMBERLINE RESAMPLED=LINEAR INTERPOLATION ONTO \d+ EVEN STEPS$/m);
+    expect(text).toContain(`##$EMBERLINE LINE RELEASE ID=${calibratedRun.lineReleaseId}`);
+    // The even axis is the calibrated points resampled: the app's reader and the strict validator both
+    // return them within half of YFACTOR.
+    const points = parseSpectrumFile(await calibrated.text());
+    const expected = resampleEvenly(points);
+    const yFactor = Number(/^##YFACTOR=(.*)$/m.exec(text)![1]);
+    const back = parseSpectrumFile(text);
+    expect(back.x.length).toBe(expected.x.length);
+    expect(back.medium).toBe("air");
+    const step = expected.x[1] - expected.x[0];
+    for (let i = 0; i < expected.x.length; i++) {
+      expect(Math.abs(back.x[i] - expected.x[i])).toBeLessThanOrEqual(1e-9 * step);
+      expect(Math.abs(back.y[i] - expected.y[i])).toBeLessThanOrEqual(yFactor / 2);
+      expect(Math.abs(strict.points!.y[i] - expected.y[i])).toBeLessThanOrEqual(yFactor / 2);
+    }
+  });
+
   it("states that the medium is unknown for a run on a file's own axis, and keeps its points", async () => {
     const response = await download(chemist, `/api/runs/${ownAxisRun.id}/spectrum.jdx`);
     expect(response.status).toBe(200);
     const text = await response.text();
-    expect(text).toContain("##$WAVELENGTH MEDIUM=NOT STATED");
+    expect(validateStrictJcamp(text).problems).toEqual([]);
+    expect(text).toContain("##$MEDIUM=NOT STATED");
     expect(text).toContain("##$EMBERLINE CALIBRATION ID=NONE");
     const back = parseSpectrumFile(text);
     const source = parseSpectrumFile(flameFileOnWavelengthAxis(grating));
@@ -293,7 +333,16 @@ describe("the CSV exports", () => {
     expect(response.headers.get("content-disposition")).toBe(
       `attachment; filename="emberline-run-${shortId(calibratedRun.id)}-v1-peaks.csv"`,
     );
-    const rows = parseCsv(await response.text());
+    const text = await response.text();
+    // Comment lines name the run, its release and the caveat.
+    expect(text).toContain(
+      `# Emberline peaks and candidate lines of run ${calibratedRun.id} version 1\r\n`,
+    );
+    expect(text).toMatch(
+      new RegExp(`^# Line-table release \\d+ \\(${calibratedRun.lineReleaseId}\\)`, "m"),
+    );
+    expect(text).toContain("# Qualitative screening result only - not a certified analysis");
+    const rows = parseCsv(text);
     const { rows: stored } = await db().query<{
       matches: { peakIndex: number; candidates: unknown[] }[];
     }>("SELECT matches FROM runs WHERE id = $1", [calibratedRun.id]);
@@ -303,17 +352,32 @@ describe("the CSV exports", () => {
       0,
     );
     expect(rows).toHaveLength(expectedRows);
-    expect(new Set(rows.map((r) => Number(r.peak_nm)))).toEqual(
-      new Set(calibratedRun.peaks.map((p) => p.wavelengthNm)),
-    );
+    // Each peak's centre, rounded to the decimal place of its uncertainty's second digit: no 15-digit
+    // doubles, and never further from the stored centre than half that place.
+    const peakRows = new Map(rows.map((r) => [r.peak_nm, r]));
+    expect(peakRows.size).toBe(calibratedRun.peaks.length);
+    for (const r of peakRows.values()) {
+      const decimals = r.peak_nm.split(".")[1]?.length ?? 0;
+      expect(
+        r.peak_uncertainty_nm.replace(/^0\.0*/, "").replace(".", "").length,
+      ).toBeLessThanOrEqual(2);
+      const stored = calibratedRun.peaks.find(
+        (p) => Math.abs(p.wavelengthNm - Number(r.peak_nm)) <= 0.5 * 10 ** -decimals + 1e-12,
+      );
+      expect(stored, r.peak_nm).toBeDefined();
+      expect(Number(r.peak_uncertainty_nm)).toBeGreaterThan(0);
+      expect(decimals).toBeLessThanOrEqual(
+        2 - 1 - Math.floor(Math.log10(Number(r.peak_uncertainty_nm))),
+      );
+    }
     // Every line a call used shows as a candidate that the call took.
     for (const c of calibratedRun.calls.filter((k) => k.verdict === "present")) {
       for (const l of c.lines) {
         const row = rows.find(
           (r) =>
             r.candidate_species === c.species &&
-            Number(r.reference_nm) === l.lineNm &&
-            Number(r.peak_nm) === l.peakNm,
+            Math.abs(Number(r.reference_nm) - l.lineNm) < 1e-6 &&
+            Math.abs(Number(r.peak_nm) - l.peakNm) <= Number(r.peak_uncertainty_nm),
         );
         expect(row, `${c.species} ${l.lineNm}`).toBeDefined();
         expect(row!.candidate_used_by_call).toBe("yes");
@@ -325,7 +389,11 @@ describe("the CSV exports", () => {
     const response = await download(chemist, `/api/notebooks/${notebookId}/calls.csv`);
     expect(response.status).toBe(200);
     expect(response.headers.get("cache-control")).toMatch(/no-store/);
-    const rows = parseCsv(await response.text());
+    const text = await response.text();
+    expect(text).toContain(`# Emberline calls of notebook ${notebookId}: 2 runs`);
+    expect(text).toMatch(/^# Line-table release the runs used: \d+\r$/m);
+    expect(text).toContain("# Qualitative screening result only - not a certified analysis");
+    const rows = parseCsv(text);
     const runs = [calibratedRun, ownAxisRun];
     expect(rows).toHaveLength(runs.reduce((sum, r) => sum + Math.max(1, r.calls.length), 0));
     for (const run of runs) {
@@ -361,6 +429,7 @@ describe("access", () => {
       `/api/runs/${calibratedRun.id}/report.pdf`,
       `/api/runs/${calibratedRun.id}/peaks.csv`,
       `/api/runs/${calibratedRun.id}/spectrum.jdx`,
+      `/api/runs/${calibratedRun.id}/spectrum-even.jdx`,
       `/api/notebooks/${notebookId}/calls.csv`,
     ];
     for (const p of paths) {

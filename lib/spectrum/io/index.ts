@@ -8,7 +8,10 @@ export type { ParseSpectrumTextOptions, TextDelimiter } from "./parse-spectrum-t
 export { parseJcamp } from "./parse-jcamp";
 export type { ParseJcampOptions } from "./parse-jcamp";
 export { formatJcampDx } from "./format-jcamp-dx";
-export type { FormatJcampDxOptions } from "./format-jcamp-dx";
+export type { FormatJcampDxOptions, JcampYUnits } from "./format-jcamp-dx";
+export { JCAMP_Y_UNITS } from "./format-jcamp-dx";
+export { resampleEvenly } from "./resample-evenly";
+export type { ResampleEvenlyOptions } from "./resample-evenly";
 export { parseSpectrumFile } from "./parse-spectrum-file";
 export { isJcampText } from "./is-jcamp-text";
 export type { ParseSpectrumFileOptions } from "./parse-spectrum-file";

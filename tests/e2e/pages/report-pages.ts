@@ -24,7 +24,11 @@ export class RunDownloadsBlock {
 
   /** Clicks a download link of the run page and returns the downloaded bytes and the suggested name. */
   async download(
-    testId: "download-report-pdf" | "download-peaks-csv" | "download-spectrum-jdx",
+    testId:
+      | "download-report-pdf"
+      | "download-peaks-csv"
+      | "download-spectrum-jdx"
+      | "download-spectrum-even-jdx",
   ): Promise<{ name: string; bytes: Buffer }> {
     const [download]: [Download, void] = await Promise.all([
       this.page.waitForEvent("download"),

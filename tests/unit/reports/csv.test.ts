@@ -15,6 +15,7 @@ function parse(text: string): Record<string, string>[] {
     header: true,
     skipEmptyLines: true,
     delimiter: ",",
+    comments: "#",
   });
   expect(parsed.errors).toEqual([]);
   return parsed.data;
@@ -41,6 +42,12 @@ describe("formatCsv", () => {
     expect(cells).toEqual(['\'=HYPERLINK("x")', "'+1", "'-2", "'@SUM(A1)", "-0.004", "plain"]);
   });
 
+  it("writes comment lines above the header, each one cell that no spreadsheet runs as a formula", () => {
+    const text = formatCsv(["a"], [[1]], { comments: ["run x, release 3;\tthen\n=EVIL()"] });
+    expect(text).toBe("# run x - release 3 - then =EVIL()\r\na\r\n1\r\n");
+    expect(parse(text)).toEqual([{ a: "1" }]);
+  });
+
   it("refuses a row of the wrong width", () => {
     expect(() => formatCsv(["a", "b"], [["only one"]])).toThrow(RangeError);
   });
@@ -48,7 +55,86 @@ describe("formatCsv", () => {
 
 describe("formatPeaksCsv", () => {
   const run = sampleRun();
-  const rows = parse(formatPeaksCsv(run.peaks, sampleMatches, run.calls, run.verdicts));
+  const text = formatPeaksCsv(run, sampleMatches);
+  const rows = parse(text);
+
+  it("opens with comments naming the run, the release and the caveat", () => {
+    const comments = text.split("\r\n").filter((line) => line.startsWith("# "));
+    expect(comments[0]).toBe(`# Emberline peaks and candidate lines of run ${run.id} version 1`);
+    expect(comments[1]).toBe(
+      `# Line-table release 3 (${run.lineReleaseId}) - software ${run.softwareVersion}`,
+    );
+    expect(comments[2]).toMatch(/^# Qualitative screening result only - not a certified analysis/);
+    expect(text.split("\r\n")[comments.length]).toBe(PEAKS_CSV_COLUMNS.join(","));
+  });
+
+  it("writes each number with the digits its uncertainty supports", () => {
+    const noisy = sampleRun({
+      peaks: [
+        {
+          x: 1000.123456789,
+          wavelengthNm: 589.0012345678901,
+          uncertaintyNm: 0.0031234567,
+          fwhmNm: 0.512345678901,
+          height: 12345.6789,
+          snr: 153.456789,
+          saturated: false,
+          blended: false,
+        },
+        {
+          x: 1500.5,
+          wavelengthNm: 670.79123456,
+          uncertaintyNm: 0.0456789,
+          fwhmNm: 0.8765432,
+          height: 31.23456,
+          snr: 4.56789,
+          saturated: false,
+          blended: false,
+        },
+      ],
+    });
+    const matches = [
+      {
+        peakIndex: 0,
+        candidates: [
+          {
+            lineId: "line-na-d2",
+            species: "Na I",
+            kind: "line",
+            referenceNm: 588.9950000000001,
+            deltaNm: 0.0062345678901,
+            sigmaNm: 0.012345678,
+            deltaSigma: 0.50501234,
+          },
+        ],
+      },
+    ];
+    const [na, li] = parse(formatPeaksCsv(noisy, matches));
+    // GUM 7.2.6 (from memory): the uncertainty to two significant digits, the value to its last place.
+    expect(na).toMatchObject({
+      peak_nm: "589.0012",
+      peak_uncertainty_nm: "0.0031",
+      fwhm_nm: "0.5123",
+      // Noise = height/snr = 80.4 counts: its two significant digits end at the units.
+      height_counts: "12346",
+      snr: "153",
+      reference_nm: "588.995",
+      // sigma 0.012 nm (two digits): Δλ to the thousandth.
+      delta_nm: "0.006",
+      delta_over_sigma: "0.51",
+    });
+    expect(li).toMatchObject({
+      peak_nm: "670.791",
+      peak_uncertainty_nm: "0.046",
+      fwhm_nm: "0.877",
+      height_counts: "31.2",
+      snr: "4.6",
+    });
+    // No cell carries the 15–17 digits of a double.
+    for (const row of [na, li]) {
+      for (const value of Object.values(row)) expect(value).not.toMatch(/\d{9,}|\.\d{7,}/);
+    }
+  });
 
   it("has one row per peak and candidate, and one for a peak without any", () => {
     expect(Object.keys(rows[0])).toEqual([...PEAKS_CSV_COLUMNS]);
@@ -103,11 +189,14 @@ describe("formatNotebookCallsCsv", () => {
       verdicts: {},
     });
     const rows = parse(
-      formatNotebookCallsCsv([
-        { run: sampleRun(), authorName: "Chris Chemist", instrumentName: "Grating bench" },
-        { run: overridden, authorName: null, instrumentName: "Prism bench" },
-        { run: empty, authorName: "Chris Chemist", instrumentName: "Grating bench" },
-      ]),
+      formatNotebookCallsCsv(
+        [
+          { run: sampleRun(), authorName: "Chris Chemist", instrumentName: "Grating bench" },
+          { run: overridden, authorName: null, instrumentName: "Prism bench" },
+          { run: empty, authorName: "Chris Chemist", instrumentName: "Grating bench" },
+        ],
+        { notebookId: "11111111-2222-4333-8444-555555555555" },
+      ),
     );
     expect(Object.keys(rows[0])).toEqual([...NOTEBOOK_CALLS_CSV_COLUMNS]);
     expect(rows).toHaveLength(3 + 3 + 1);

@@ -50,12 +50,14 @@ describe("an overridden call reads the same everywhere", () => {
   });
 
   it("writes the standing and the computed verdict in the notebook CSV", () => {
-    const text = formatNotebookCallsCsv([
-      { run, authorName: "Chris", instrumentName: "Grating bench" },
-    ]);
+    const text = formatNotebookCallsCsv(
+      [{ run, authorName: "Chris", instrumentName: "Grating bench" }],
+      { notebookId: run.notebookId },
+    );
     const rows = Papa.parse<Record<string, string>>(text, {
       header: true,
       skipEmptyLines: true,
+      comments: "#",
     }).data;
     expect(rows.find((r) => r.species === "Na I")).toMatchObject({
       standing_verdict: "possible",

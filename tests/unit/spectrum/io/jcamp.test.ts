@@ -190,49 +190,49 @@ describe("writing", () => {
     expect(text.split("\n").every((line) => line.length <= 80)).toBe(true);
   });
 
-  it("reads back an evenly spaced integer spectrum exactly, through parseJcamp and by splitting its AFFN lines", () => {
+  it("reads back an evenly spaced integer spectrum exactly, from compressed DIFDUP lines", () => {
     const text = formatJcampDx(evenly);
+    expect(text).toContain("##YFACTOR=1\n");
     const back = parseJcamp(text);
     expect(back.xUnit).toBe("nm");
     expect(back.medium).toBe("air");
     expect(Array.from(back.y)).toEqual(Array.from(evenly.y));
     for (let i = 0; i < 40; i++) expect(Math.abs(back.x[i] - evenly.x[i])).toBeLessThan(1e-9);
-    // Independently of the reader: the writer's data lines are plain AFFN "X Y Y …", each X the x of its first Y.
+    // DIFDUP: each line opens with its X and a SQZ ordinate (a letter), then DIF/DUP pseudo-digits only
+    // (JCAMP-DX 4.24, Table VII, as transcribed); no blank-separated AFFN ordinates.
     const dataLines = text.slice(text.indexOf("##XYDATA=")).split("\n").slice(1, -2);
-    const ys: number[] = [];
-    for (const line of dataLines) {
-      const [lineX, ...values] = line.split(" ").map(Number);
-      expect(lineX).toBe(evenly.x[ys.length]);
-      ys.push(...values);
-    }
-    expect(ys).toEqual(Array.from(evenly.y));
+    for (const line of dataLines) expect(line).toMatch(/^[\d.]+[@A-Ia-i]\d*[%J-Rj-rS-Zs\d]*$/);
   });
 
-  it("keeps 10 significant digits of non-integer y through YFACTOR", () => {
+  it("writes non-integer y as integers times a power-of-ten YFACTOR, within half of it", () => {
     const y = Float64Array.from({ length: 32 }, (_, i) => Math.sin(i) * 1234.5678 + 0.001);
     const spectrum: Spectrum = {
-      x: Float64Array.from({ length: 32 }, (_, i) => i),
+      x: Float64Array.from({ length: 32 }, (_, i) => 500 + i),
       y,
-      xUnit: "pixel",
+      xUnit: "nm",
       meta: {},
     };
     const text = formatJcampDx(spectrum);
-    expect(Number(/##YFACTOR=(.*)/.exec(text)?.[1])).toBe(1e-6);
+    // The finest power of ten that keeps 1234.5678… within 2^30 − 1: 1e-5 (1.2e8 < 1.07e9 < 1.2e9).
+    expect(Number(/##YFACTOR=(.*)/.exec(text)?.[1])).toBe(1e-5);
     const back = parseJcamp(text);
-    for (let i = 0; i < 32; i++) expect(Math.abs(back.y[i] - y[i])).toBeLessThanOrEqual(1e-6);
-    expect(back.xUnit).toBe("pixel");
+    for (let i = 0; i < 32; i++) expect(Math.abs(back.y[i] - y[i])).toBeLessThanOrEqual(0.5e-5);
+    // A caller may ask for a coarser step.
+    const coarse = formatJcampDx(spectrum, { yResolution: 0.01 });
+    expect(/##YFACTOR=(.*)/.exec(coarse)?.[1]).toBe("0.01");
   });
 
-  it("writes an unevenly spaced axis as XYPOINTS that reads back exactly", () => {
-    const x = Float64Array.from({ length: 20 }, (_, i) => 400 + 0.3 * i + 0.001 * i * i);
+  it("writes an unevenly spaced axis as XYPOINTS that reads back exactly, ångströms as nanometres", () => {
+    const x = Float64Array.from({ length: 20 }, (_, i) => 4000 + 3 * i + 0.01 * i * i);
     const y = Float64Array.from({ length: 20 }, (_, i) => i * 1.5 - 3.25);
     const text = formatJcampDx({ x, y, xUnit: "angstrom", meta: { TITLE: "uneven" } });
     expect(text).toContain("##XYPOINTS=(XY..XY)");
+    expect(text).toContain("##XUNITS=NANOMETERS");
     expect(text).toContain("##TITLE=uneven");
     const back = parseJcamp(text);
-    expect(Array.from(back.x)).toEqual(Array.from(x));
+    expect(Array.from(back.x)).toEqual(Array.from(x, (v) => v * 0.1));
     expect(Array.from(back.y)).toEqual(Array.from(y));
-    expect(back.xUnit).toBe("angstrom");
+    expect(back.xUnit).toBe("nm");
   });
 
   it("refuses what it cannot write", () => {
@@ -247,5 +247,17 @@ describe("writing", () => {
     expect(() =>
       formatJcampDx({ ...base, x: Float64Array.from([1, 2, 4]) }, { form: "XYDATA" }),
     ).toThrow(RangeError);
+    // JCAMP-DX 4.24 names no unit for detector pixels, nor ##YUNITS=COUNTS (from memory).
+    expect(() => formatJcampDx({ ...base, xUnit: "pixel" })).toThrow(/no unit for detector pixels/);
+    expect(() => formatJcampDx(base, { yUnits: "COUNTS" as unknown as "ARBITRARY UNITS" })).toThrow(
+      /not one of the standard's/,
+    );
+    // One label, once: the writer's ##$MEDIUM cannot be repeated by a caller.
+    expect(() =>
+      formatJcampDx(
+        { ...base, medium: "air" },
+        { userLabels: [{ name: "$MEDIUM", value: "AIR" }] },
+      ),
+    ).toThrow(/written twice/);
   });
 });
