@@ -24,10 +24,11 @@ function RunList({ runs, verb }: { runs: WaitingRun[]; verb: string }) {
   );
 }
 
-function Heading({ id, title, count }: { id: string; title: string; count: number }) {
+function Heading({ id, title, count }: { id: string; title: string; count?: number }) {
   return (
     <h3 id={id} className="mt-3 mb-1 text-sm font-semibold first:mt-0">
-      {title} <span className="muted font-normal">({count})</span>
+      {title}
+      {count === undefined ? null : <span className="muted font-normal"> ({count})</span>}
     </h3>
   );
 }
@@ -70,7 +71,7 @@ export function WaitingPanel({ waiting }: { waiting: WaitingForYou }) {
     if (draft)
       sections.push(
         <section key="draft-release" aria-labelledby="waiting-line-draft">
-          <Heading id="waiting-line-draft" title="Draft line table" count={1} />
+          <Heading id="waiting-line-draft" title="Draft line table" />
           <p className="text-sm">
             A draft with {draft.lineCount.toLocaleString("en")} line
             {draft.lineCount === 1 ? "" : "s"} is open since {draft.openedAt.slice(0, 10)}.{" "}

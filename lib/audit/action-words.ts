@@ -48,7 +48,7 @@ const ACTIONS: Record<string, ActionWords> = {
   },
   "line_release.open_draft": {
     label: "Draft release opened",
-    verb: "opened a draft of",
+    verb: "opened",
     alone: "opened a draft release",
   },
   "line_release.publish": {

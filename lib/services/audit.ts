@@ -113,9 +113,12 @@ async function recordNames(
     },
     {
       entity: "line",
-      sql: `SELECT l.id, l.species || ' ' || round(coalesce(l.air_nm, l.vacuum_nm)::numeric, 3) || ' nm' AS name
+      // A line's events name its key (the same line across releases); any release's row names it.
+      sql: `SELECT DISTINCT ON (l.line_key) l.line_key AS id,
+                   l.species || ' ' || round(coalesce(l.air_nm, l.vacuum_nm)::numeric, 3) || ' nm' AS name
               FROM lines l JOIN line_releases lr ON lr.id = l.release_id
-             WHERE lr.team_id = $1 AND l.id = ANY ($2::uuid[])`,
+             WHERE lr.team_id = $1 AND l.line_key = ANY ($2::uuid[])
+             ORDER BY l.line_key, lr.created_at DESC`,
     },
   ];
   const names = new Map<string, string>();
