@@ -354,7 +354,6 @@ export function SpectrumUpload({
               data-testid="profile-proposal"
               className="rounded border border-teal-700 bg-[var(--panel)] p-2 text-sm"
             >
-              <span aria-hidden>ⓘ </span>
               {instrumentName} has no export profile yet. Storing this file also sets it: files
               without a header will then be read with their first column as{" "}
               <strong>

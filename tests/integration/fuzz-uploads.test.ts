@@ -79,9 +79,15 @@ const uploadCase = fc.record({
   kind: fc.oneof(fc.constantFrom("sample", "lamp", "dark"), hostileString),
   label: fc.option(hostileString, { nil: undefined }),
   xUnit: fc.option(
-    fc.oneof(fc.constantFrom("pixel", "nm", "angstrom", "wavenumber"), hostileString),
+    fc.oneof(
+      fc.constantFrom("pixel", "pixel-from-0", "pixel-from-1", "nm", "angstrom", "wavenumber"),
+      hostileString,
+    ),
     { nil: undefined },
   ),
+  medium: fc.option(fc.oneof(fc.constantFrom("air", "vacuum"), hostileString), {
+    nil: undefined,
+  }),
   // One form in twenty comes without its file.
   withFile: fc.integer({ min: 0, max: 19 }).map((n) => n !== 0),
 });
@@ -114,6 +120,7 @@ describe("fuzz: uploads", () => {
         form.set("kind", c.kind);
         if (c.label !== undefined) form.set("label", c.label);
         if (c.xUnit !== undefined) form.set("xUnit", c.xUnit);
+        if (c.medium !== undefined) form.set("medium", c.medium);
         const reply = await clients[c.who].request("POST", c.route, { form });
         statuses.set(reply.status, (statuses.get(reply.status) ?? 0) + 1);
         const what = `${c.who} POST ${c.route} file ${JSON.stringify(c.fileName)} (${c.content.length} bytes) instrument ${JSON.stringify(instrument)}`;

@@ -67,7 +67,7 @@ export default async function UploadPage({
             className="mb-3 rounded border border-teal-700 bg-[var(--panel)] p-2 text-sm"
             data-testid="profile-set"
           >
-            <span aria-hidden>ⓘ </span>
+            <span aria-hidden>✓ </span>
             {instrument.name} had no export profile; this upload set it. Files without a header are
             now read with their first column as <strong>{profile}</strong>.{" "}
             <Link href={`/instruments/${id}`} className="underline">
