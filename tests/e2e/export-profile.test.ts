@@ -162,6 +162,7 @@ describe("uploads as instruments export them", () => {
 
     // The next headerless file is read through the remembered answer, without a question.
     await page.goto(`/instruments/${instrumentId}/upload?kind=sample`);
+    await zone.describe("sample", "Spaces, no header");
     await zone.drop(`remembered-${suffix}.txt`, headerless("  ", ".", 3));
     await zone.awaitPreview();
     expect(await page.getByTestId("first-column").textContent()).toBe(

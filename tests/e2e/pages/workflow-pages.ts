@@ -53,8 +53,13 @@ export class UploadZone {
     this.status = page.getByTestId("upload-status");
   }
 
-  /** Drops a file on the zone the way a browser does: a drop event carrying a DataTransfer with the file. */
+  /**
+   * Drops a file on the zone the way a browser does: a drop event carrying a DataTransfer with the file.
+   * It waits for the page's scripts first: a drop on the server-rendered zone before React has attached
+   * its handlers is lost.
+   */
   async drop(fileName: string, text: string): Promise<void> {
+    await this.page.waitForLoadState("networkidle");
     const dataTransfer = await this.page.evaluateHandle(
       ({ name, content }) => {
         const transfer = new DataTransfer();
