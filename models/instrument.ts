@@ -1,4 +1,5 @@
-// A team's spectrometer: its dispersion, array size, nominal range and resolution (and a prism's glass).
+// A team's spectrometer: its dispersion, array size, nominal range and resolution (and a prism's glass),
+// and its export profile (how its files without a header are read).
 import {
   DataTypes,
   Model,
@@ -6,6 +7,7 @@ import {
   type InferAttributes,
   type InferCreationAttributes,
 } from "sequelize";
+import type { FirstColumnKind, WavelengthMedium } from "../lib/spectrum/types";
 import { sequelize } from "../db/sequelize";
 
 export class Instrument extends Model<
@@ -23,6 +25,10 @@ export class Instrument extends Model<
   declare detectorMax: number | null;
   declare glass: string | null;
   declare apexDeg: number | null;
+  /** What the first column of its exported files holds; null while no profile is set. */
+  declare exportXUnit: FirstColumnKind | null;
+  /** Air or vacuum for a wavelength profile; null when not known or not a wavelength. */
+  declare exportMedium: WavelengthMedium | null;
   declare createdById: string | null;
   declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
@@ -42,6 +48,8 @@ Instrument.init(
     detectorMax: { type: DataTypes.DOUBLE, allowNull: true },
     glass: { type: DataTypes.TEXT, allowNull: true },
     apexDeg: { type: DataTypes.DOUBLE, allowNull: true },
+    exportXUnit: { type: DataTypes.TEXT, allowNull: true },
+    exportMedium: { type: DataTypes.TEXT, allowNull: true },
     createdById: { type: DataTypes.UUID, allowNull: true },
     version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
     createdAt: DataTypes.DATE,

@@ -2,11 +2,14 @@
 // The lab lead's form that adds a spectrometer to the team (dispersion, pixels, nominal range, resolution,
 // and for a prism its glass and apex angle when they are known) or, given an instrument, edits it. Once an
 // instrument has calibrations its dispersion and pixel count are shown but fixed (sent as hidden fields).
+// Its export profile (what the first column of its files holds, air or vacuum) may always change.
 import { useActionState, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
+import type { FirstColumnKind, WavelengthMedium } from "@/lib/spectrum/types";
 import { initialFormState, type FormState } from "@/lib/validation/form-state";
+import { FirstColumnFields } from "./first-column-fields";
 
 /** The stored instrument an edit starts from. */
 export interface InstrumentFormInitial {
@@ -21,6 +24,8 @@ export interface InstrumentFormInitial {
   detectorMax: number | null;
   glass: string | null;
   apexDeg: number | null;
+  exportXUnit: FirstColumnKind | null;
+  exportMedium: WavelengthMedium | null;
   /** Whether calibrations were made on it: then the dispersion and pixel count are fixed. */
   calibrated: boolean;
 }
@@ -42,6 +47,8 @@ function initialValues(initial: InstrumentFormInitial | undefined): Record<strin
     detectorMax: text(initial.detectorMax),
     glass: text(initial.glass),
     apexDeg: text(initial.apexDeg),
+    exportXUnit: text(initial.exportXUnit),
+    exportMedium: text(initial.exportMedium),
   };
 }
 
@@ -60,6 +67,8 @@ export function InstrumentForm({
   const [state, formAction, pending] = useActionState(action, initialFormState);
   const v = state.values ?? initialValues(initial);
   const [dispersion, setDispersion] = useState(v.dispersion ?? "grating");
+  const [exportXUnit, setExportXUnit] = useState((v.exportXUnit ?? "") as FirstColumnKind | "");
+  const [exportMedium, setExportMedium] = useState((v.exportMedium ?? "") as WavelengthMedium | "");
   const e = state.fieldErrors ?? {};
   const editing = initial !== undefined;
   const locked = initial?.calibrated ?? false;
@@ -194,6 +203,29 @@ export function InstrumentForm({
           </>
         ) : null}
       </div>
+      <fieldset className="flex flex-col gap-2 border-t border-[var(--line)] pt-3">
+        <legend className="text-sm font-semibold">Export profile</legend>
+        <p id="export-profile-hint" className="muted max-w-prose text-xs">
+          How this instrument&apos;s files are read when they do not say what their first column
+          holds (no header). Pixel indices counted from 0 or from 1 matter: the calibration maps the
+          index to a wavelength. Left unset, the first upload whose header or uploader says it sets
+          it.
+        </p>
+        <FirstColumnFields
+          idPrefix="export"
+          unitName="exportXUnit"
+          mediumName="exportMedium"
+          unitLabel="First column of its files"
+          unsetLabel="Not set: ask when a file does not say"
+          unit={exportXUnit}
+          medium={exportMedium}
+          onUnitChange={setExportXUnit}
+          onMediumChange={setExportMedium}
+          unitErrors={e.exportXUnit}
+          mediumErrors={e.exportMedium}
+          hintId="export-profile-hint"
+        />
+      </fieldset>
       <FormMessage message={state.message} />
       <div>
         <Button type="submit" pending={pending}>

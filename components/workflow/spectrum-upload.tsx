@@ -5,21 +5,42 @@
 // the plot, the facts (points, ranges, unit, SHA-256) and a duplicate warning, with "Store this
 // spectrum" (sends the same File to POST /api/spectra, then opens the page's "Uploaded" state) and
 // "Choose another file" (back to the zone, nothing stored). A refused file shows the API's located
-// message. Kind and label keep their values throughout.
+// message. Kind and label keep their values throughout. When nothing tells what the file's first
+// column holds (no header, no export profile, not one row per pixel), the API refuses on `xUnit` and
+// the component asks with a select, then checks the file again with the answer; storing sends the same
+// answer, which becomes the instrument's export profile when it has none. The preview says how the
+// first column was read and offers to read it differently unless the file's header said.
 import { useRouter } from "next/navigation";
 import { useCallback, useEffect, useRef, useState } from "react";
 import { useDropzone, type FileRejection } from "react-dropzone";
 import { PreviewChart } from "@/components/charts/spectrum-charts";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/form-message";
-import type { SpectrumPreview } from "@/lib/services/spectra";
-import type { AxisUnit } from "@/lib/spectrum/types";
+import type { ExportProfileFields, SpectrumPreview, StoredUpload } from "@/lib/services/spectra";
+import type { AxisUnit, FirstColumnKind, WavelengthMedium } from "@/lib/spectrum/types";
+import { FirstColumnFields } from "./first-column-fields";
+import {
+  FIRST_COLUMN_FROM_LABELS,
+  describeFirstColumn,
+  isWavelengthColumn,
+} from "./first-column-labels";
+
+/** What the chemist said the first column holds (sent as xUnit and medium), or null: not said. */
+type Statement = { xUnit: FirstColumnKind; medium: WavelengthMedium | null } | null;
 
 type Phase =
   | { step: "idle" }
-  | { step: "checking"; file: File; percent: number }
-  | { step: "preview"; file: File; preview: SpectrumPreview }
-  | { step: "storing"; file: File; preview: SpectrumPreview; percent: number }
+  | { step: "checking"; file: File; percent: number; statement: Statement }
+  | { step: "preview"; file: File; preview: SpectrumPreview; statement: Statement }
+  | {
+      step: "storing";
+      file: File;
+      preview: SpectrumPreview;
+      statement: Statement;
+      percent: number;
+    }
+  /** The first column needs saying: `reason` is why (null when the chemist asked to change it). */
+  | { step: "asking"; file: File; reason: string | null }
   | { step: "failed"; file: File | null; message: string; detail?: string[] };
 
 interface ErrorReply {
@@ -47,14 +68,28 @@ const sentence = (message: string) => (/[.!?]$/.test(message) ? message : `${mes
 
 const number = (value: number) => value.toLocaleString("en", { maximumSignificantDigits: 8 });
 
+/** The field message that says why the first column needs saying, when the refusal is about it. */
+function firstColumnReason(body: ErrorReply | null): string | null {
+  const fields = body?.error?.fieldErrors;
+  return fields?.xUnit?.[0] ?? fields?.medium?.[0] ?? null;
+}
+
 export function SpectrumUpload({
   instrumentId,
+  instrumentName,
+  pixels,
+  exportProfile,
   defaultKind,
   maxBytes,
   afterUploadHref,
   xTitles,
 }: {
   instrumentId: string;
+  instrumentName: string;
+  /** The detector's pixel count, for the question's explanation. */
+  pixels: number;
+  /** The instrument's export profile, or null while it has none. */
+  exportProfile: ExportProfileFields | null;
   defaultKind: "lamp" | "sample";
   maxBytes: number;
   /** Where to go once stored; `{id}` is replaced by the new spectrum's id, `{kind}` by its kind. */
@@ -66,8 +101,12 @@ export function SpectrumUpload({
   const [kind, setKind] = useState(defaultKind);
   const [label, setLabel] = useState("");
   const [phase, setPhase] = useState<Phase>({ step: "idle" });
+  const [answerUnit, setAnswerUnit] = useState<FirstColumnKind | "">("");
+  const [answerMedium, setAnswerMedium] = useState<WavelengthMedium | "">("");
+  const [answerError, setAnswerError] = useState<string | null>(null);
   const request = useRef<XMLHttpRequest | null>(null);
   const previewHeading = useRef<HTMLHeadingElement>(null);
+  const questionHeading = useRef<HTMLHeadingElement>(null);
   const returnFocus = useRef(false);
 
   /** Sends the file as multipart to `path` with the progress reported; one request at a time. */
@@ -75,6 +114,7 @@ export function SpectrumUpload({
     (
       path: string,
       file: File,
+      statement: Statement,
       onProgress: (percent: number) => void,
       onDone: (status: number, body: unknown) => void,
     ) => {
@@ -84,6 +124,10 @@ export function SpectrumUpload({
       form.set("instrumentId", instrumentId);
       form.set("kind", kind);
       form.set("label", label);
+      if (statement) {
+        form.set("xUnit", statement.xUnit);
+        if (statement.medium) form.set("medium", statement.medium);
+      }
       const xhr = new XMLHttpRequest();
       request.current = xhr;
       xhr.open("POST", path);
@@ -105,16 +149,22 @@ export function SpectrumUpload({
   );
 
   const check = useCallback(
-    (file: File) => {
-      setPhase({ step: "checking", file, percent: 0 });
+    (file: File, statement: Statement = null) => {
+      setPhase({ step: "checking", file, percent: 0, statement });
       send(
         "/api/spectra/preview",
         file,
+        statement,
         (percent) =>
           setPhase((p) => (p.step === "checking" && p.file === file ? { ...p, percent } : p)),
         (status, body) => {
           if (status === 200 && body) {
-            setPhase({ step: "preview", file, preview: body as SpectrumPreview });
+            setPhase({ step: "preview", file, preview: body as SpectrumPreview, statement });
+            return;
+          }
+          const reason = status === 400 ? firstColumnReason(body as ErrorReply) : null;
+          if (reason) {
+            setPhase({ step: "asking", file, reason });
             return;
           }
           const { message, detail } =
@@ -135,16 +185,18 @@ export function SpectrumUpload({
 
   function store() {
     if (phase.step !== "preview") return;
-    const { file, preview } = phase;
-    setPhase({ step: "storing", file, preview, percent: 0 });
+    const { file, preview, statement } = phase;
+    setPhase({ step: "storing", file, preview, statement, percent: 0 });
     send(
       "/api/spectra",
       file,
+      statement,
       (percent) => setPhase((p) => (p.step === "storing" ? { ...p, percent } : p)),
       (status, body) => {
-        const stored = body as { id?: string } | null;
+        const stored = body as Partial<StoredUpload> | null;
         if (status === 201 && stored?.id) {
-          router.push(afterUploadHref.replace("{id}", stored.id).replace("{kind}", kind));
+          const href = afterUploadHref.replace("{id}", stored.id).replace("{kind}", kind);
+          router.push(stored.exportProfileSet ? `${href}&profileSet=1` : href);
           return;
         }
         const { message, detail } =
@@ -165,11 +217,36 @@ export function SpectrumUpload({
     request.current?.abort();
     request.current = null;
     returnFocus.current = true;
+    setAnswerUnit("");
+    setAnswerMedium("");
     setPhase({ step: "idle" });
+  }
+
+  /** From the preview: say what the first column holds instead of how it was read. */
+  function readDifferently() {
+    if (phase.step !== "preview") return;
+    setAnswerUnit(phase.preview.firstColumn ?? "");
+    setAnswerMedium(phase.preview.medium ?? "");
+    setPhase({ step: "asking", file: phase.file, reason: null });
+  }
+
+  function answer(event: React.FormEvent) {
+    event.preventDefault();
+    if (phase.step !== "asking") return;
+    if (answerUnit === "") {
+      setAnswerError("Choose what the first column holds.");
+      return;
+    }
+    setAnswerError(null);
+    check(phase.file, {
+      xUnit: answerUnit,
+      medium: isWavelengthColumn(answerUnit) && answerMedium !== "" ? answerMedium : null,
+    });
   }
 
   useEffect(() => () => request.current?.abort(), []);
   useEffect(() => {
+    if (phase.step === "asking") questionHeading.current?.focus();
     if (phase.step === "preview") previewHeading.current?.focus();
     if (phase.step === "idle" && returnFocus.current) {
       returnFocus.current = false;
@@ -199,6 +276,9 @@ export function SpectrumUpload({
 
   const showingPreview = phase.step === "preview" || phase.step === "storing";
   const file = phase.step === "idle" ? null : phase.file;
+  const profileWords = exportProfile
+    ? describeFirstColumn(exportProfile.exportXUnit, exportProfile.exportMedium)
+    : null;
   return (
     <div className="flex max-w-3xl flex-col gap-4">
       <fieldset className="flex flex-wrap gap-4 text-sm">
@@ -268,10 +348,35 @@ export function SpectrumUpload({
               {warning}
             </p>
           ))}
+          {phase.preview.exportProfileProposal ? (
+            <p
+              role="status"
+              data-testid="profile-proposal"
+              className="rounded border border-teal-700 bg-[var(--panel)] p-2 text-sm"
+            >
+              {instrumentName} has no export profile yet. Storing this file also sets it: files
+              without a header will then be read with their first column as{" "}
+              <strong>
+                {describeFirstColumn(
+                  phase.preview.exportProfileProposal.exportXUnit,
+                  phase.preview.exportProfileProposal.exportMedium,
+                )}
+              </strong>
+              . A lab lead can change it on the instrument&apos;s page.
+            </p>
+          ) : null}
           <dl
             className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm"
             data-testid="preview-facts"
           >
+            <dt className="muted">First column</dt>
+            <dd data-testid="first-column">
+              {phase.preview.firstColumn
+                ? describeFirstColumn(phase.preview.firstColumn, phase.preview.medium)
+                : "Pixel index, as the file numbers it (from 0 or 1 is not known)"}
+              , read {FIRST_COLUMN_FROM_LABELS[phase.preview.firstColumnFrom]}
+              {phase.preview.firstColumn === "pixel-from-1" ? "; stored counted from 0" : ""}
+            </dd>
             <dt className="muted">Points</dt>
             <dd>{phase.preview.points.toLocaleString("en")}</dd>
             <dt className="muted">{xTitles[phase.preview.xUnit]}</dt>
@@ -303,6 +408,16 @@ export function SpectrumUpload({
             <Button type="button" variant="quiet" onClick={chooseAnother}>
               Choose another file
             </Button>
+            {phase.preview.firstColumnFrom !== "file" ? (
+              <Button
+                type="button"
+                variant="quiet"
+                onClick={readDifferently}
+                disabled={phase.step === "storing"}
+              >
+                Read the first column differently…
+              </Button>
+            ) : null}
             {phase.step === "storing" ? (
               <div className="flex items-center gap-2 text-sm">
                 <progress
@@ -316,6 +431,51 @@ export function SpectrumUpload({
             ) : null}
           </div>
         </section>
+      ) : phase.step === "asking" ? (
+        <form
+          onSubmit={answer}
+          aria-labelledby="first-column-question"
+          data-testid="first-column-question"
+          className="flex max-w-2xl flex-col gap-3 rounded border border-ember-600 p-4"
+        >
+          <h2
+            id="first-column-question"
+            ref={questionHeading}
+            tabIndex={-1}
+            className="text-base font-semibold outline-none"
+          >
+            What does the first column of {phase.file.name} hold?
+          </h2>
+          <div id="first-column-why" className="flex flex-col gap-1 text-sm">
+            {phase.reason ? <p role="alert">{phase.reason}</p> : null}
+            <p className="muted">
+              {exportProfile
+                ? `Your answer is used for this file only; ${instrumentName}'s export profile (${profileWords}) stays as it is.`
+                : phase.reason
+                  ? `It has no header that says, ${instrumentName} has no export profile yet, and it does not have one row per detector pixel (${pixels.toLocaleString("en")}). Storing the file with your answer makes the answer ${instrumentName}'s export profile, for later files without a header.`
+                  : `Storing the file with your answer makes it ${instrumentName}'s export profile, for later files without a header.`}
+            </p>
+          </div>
+          <FirstColumnFields
+            idPrefix="answer"
+            unitLabel="First column"
+            unit={answerUnit}
+            medium={answerMedium}
+            onUnitChange={(unit) => {
+              setAnswerUnit(unit);
+              if (unit !== "") setAnswerError(null);
+            }}
+            onMediumChange={setAnswerMedium}
+            unitErrors={answerError ? [answerError] : undefined}
+            hintId="first-column-why"
+          />
+          <div className="flex flex-wrap items-center gap-3">
+            <Button type="submit">Read the file this way</Button>
+            <Button type="button" variant="quiet" onClick={chooseAnother}>
+              Choose another file
+            </Button>
+          </div>
+        </form>
       ) : (
         <div
           {...getRootProps({

@@ -1,7 +1,10 @@
 // Instruments of a team: lab leads create and edit them, every member sees them with their newest calibration.
-// An edit may not change the geometry (dispersion, pixel count) once calibrations were made on it.
+// An edit may not change the geometry (dispersion, pixel count) once calibrations were made on it. The
+// export profile (how files without a header are read) is edited here too; the first upload that says
+// what its first column holds sets it on an instrument that has none (lib/services/spectra.ts).
 import "server-only";
 import type { Transaction } from "sequelize";
+import type { ExportProfile } from "@/lib/spectrum/types";
 import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize, type TeamAction } from "@/lib/auth/policy";
@@ -29,11 +32,24 @@ export function toInstrumentRecord(
     detectorMax: row.detectorMax,
     glass: row.glass,
     apexDeg: row.apexDeg,
+    exportXUnit: row.exportXUnit,
+    exportMedium: row.exportMedium,
     version: row.version,
     createdAt: row.createdAt.toISOString(),
     latestCalibrationId,
   };
 }
+
+/** The instrument's export profile in the core's terms, or null while none is set. */
+export function exportProfileOf(
+  row: Pick<Instrument, "exportXUnit" | "exportMedium">,
+): ExportProfile | null {
+  return row.exportXUnit ? { firstColumn: row.exportXUnit, medium: row.exportMedium } : null;
+}
+
+/** A wavelength column is the only one measured in air or vacuum. */
+const isWavelengthColumn = (unit: Instrument["exportXUnit"]) =>
+  unit === "nm" || unit === "angstrom";
 
 /** An instrument the actor may act on; another team's (or a malformed id's) is not found. */
 export async function loadInstrument(
@@ -100,6 +116,8 @@ export async function createInstrument(
           detectorMax: input.detectorMax ?? null,
           glass: input.glass ?? null,
           apexDeg: input.apexDeg ?? null,
+          exportXUnit: input.exportXUnit ?? null,
+          exportMedium: input.exportMedium ?? null,
           createdById: actor.id,
         },
         { transaction },
@@ -144,6 +162,8 @@ const EDITABLE_FIELDS = [
   "detectorMax",
   "glass",
   "apexDeg",
+  "exportXUnit",
+  "exportMedium",
 ] as const;
 type EditableField = (typeof EDITABLE_FIELDS)[number];
 type EditableValues = Pick<Instrument, EditableField>;
@@ -155,7 +175,9 @@ const GEOMETRY_FIELDS: readonly EditableField[] = ["dispersion", "pixels"];
  * Edits an instrument the editor saw at `input.version` (lab leads only; another team's is not found).
  * A stale version is a conflict; so is a new dispersion or pixel count once the instrument has
  * calibrations (make a new instrument instead). Left-out optional fields keep their value; a grating
- * has no glass or apex. Nothing changed saves nothing and writes no audit event.
+ * has no glass or apex, and a profile that is not a wavelength no medium. The export profile may change
+ * whatever the calibrations: it only says how later files are read. Nothing changed saves nothing and
+ * writes no audit event.
  */
 export async function updateInstrument(
   actor: Actor,
@@ -187,7 +209,17 @@ export async function updateInstrument(
         detectorMax: input.detectorMax === undefined ? row.detectorMax : input.detectorMax,
         glass: !prism ? null : input.glass === undefined ? row.glass : input.glass,
         apexDeg: !prism ? null : input.apexDeg === undefined ? row.apexDeg : input.apexDeg,
+        exportXUnit: input.exportXUnit === undefined ? row.exportXUnit : input.exportXUnit,
+        exportMedium: null,
       };
+      const keptMedium = input.exportMedium === undefined ? row.exportMedium : input.exportMedium;
+      if (isWavelengthColumn(next.exportXUnit)) next.exportMedium = keptMedium;
+      else if (input.exportMedium != null) {
+        // The schema checks this when both come together; here the unit is the stored one.
+        const message =
+          "Only wavelengths (nm or angstrom) are in air or vacuum: leave exportMedium out.";
+        throw new AppError("validation", message, { fieldErrors: { exportMedium: [message] } });
+      }
       const changed = EDITABLE_FIELDS.filter((field) => next[field] !== row[field]);
       const latest = await latestCalibrationOf(row.id, transaction);
       if (changed.length === 0) return toInstrumentRecord(row, latest?.id ?? null);

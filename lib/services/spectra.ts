@@ -1,6 +1,10 @@
 // Uploaded spectra: the raw bytes are kept unchanged with their SHA-256 beside the parsed points;
 // a file the core cannot read is refused with its located message and nothing is stored. A preview
 // runs the same check (checkUpload) and returns the facts and a thinned series without storing.
+// What the first column holds comes from the file, the upload's xUnit, the instrument's export
+// profile or a column of exactly the detector's indices (lib/spectrum/io/read-instrument-file.ts);
+// when nothing says, the refusal names xUnit. Storing a file that said it, on an instrument with no
+// profile, sets the profile (audited).
 import "server-only";
 import { createHash } from "node:crypto";
 import { Op, QueryTypes, type Transaction } from "sequelize";
@@ -11,14 +15,24 @@ import { authorize, type TeamAction } from "@/lib/auth/policy";
 import {
   SpectrumParseError,
   decodeSpectrumBytes,
-  parseSpectrumFile,
-  spectrumFitToInstrument,
+  readInstrumentFile,
+  type FirstColumnSource,
+  type InstrumentFileReading,
 } from "@/lib/spectrum/io";
-import type { AxisUnit } from "@/lib/spectrum/types";
-import { MAX_UPLOAD_BYTES, MAX_UPLOAD_POINTS } from "@/lib/validation/workflow-schemas";
-import { SpectrumFile, sequelize } from "@/models";
+import type {
+  AxisUnit,
+  ExportProfile,
+  FirstColumnKind,
+  WavelengthMedium,
+} from "@/lib/spectrum/types";
+import {
+  MAX_UPLOAD_BYTES,
+  MAX_UPLOAD_POINTS,
+  UPLOAD_X_UNITS,
+} from "@/lib/validation/workflow-schemas";
+import { Instrument, SpectrumFile, sequelize } from "@/models";
 import { recordAudit } from "./audit";
-import { loadInstrument } from "./instruments";
+import { exportProfileOf, loadInstrument } from "./instruments";
 import type { SpectraQuery } from "@/lib/validation/notebook-schemas";
 import type { SpectrumRecord } from "./workflow-types";
 
@@ -169,12 +183,49 @@ export interface SpectrumUpload {
   label: string;
   fileName: string;
   bytes: Uint8Array;
-  /** Unit of the first column when the file does not say. */
-  xUnit?: AxisUnit;
+  /** What the first column holds, when the file does not say (the API's `xUnit`). */
+  xUnit?: FirstColumnKind | "pixel";
+  /** Air or vacuum, for a wavelength column whose file does not say (the API's `medium`). */
+  medium?: WavelengthMedium;
+}
+
+/** An export profile as the API names it: the instrument's own fields. */
+export interface ExportProfileFields {
+  exportXUnit: FirstColumnKind;
+  exportMedium: WavelengthMedium | null;
+}
+
+/** What decided the first column, in the API's words: the file, the upload's `xUnit`, the
+ * instrument's export profile, or the column being exactly the detector's pixel indices. */
+export type FirstColumnFrom = "file" | "xUnit" | "exportProfile" | "pixelCount";
+
+const FROM_API: Record<FirstColumnSource, FirstColumnFrom> = {
+  file: "file",
+  stated: "xUnit",
+  profile: "exportProfile",
+  "pixel-count": "pixelCount",
+};
+
+const toProfileFields = (profile: ExportProfile): ExportProfileFields => ({
+  exportXUnit: profile.firstColumn,
+  exportMedium: profile.medium,
+});
+
+/** How an upload's first column was read (the preview and the stored record alike). */
+export interface FirstColumnReading {
+  /** What the first column held; null for pixels whose counting nothing told (stored as numbered). */
+  firstColumn: FirstColumnKind | null;
+  firstColumnFrom: FirstColumnFrom;
+}
+
+/** A stored upload: the record, how its first column was read, and the profile it set, if it did. */
+export interface StoredUpload extends SpectrumRecord, FirstColumnReading {
+  /** The export profile this upload gave its instrument (which had none), or null. */
+  exportProfileSet: ExportProfileFields | null;
 }
 
 /** What the chemist sees before committing an upload: the parsed facts and the points thinned for a chart. */
-export interface SpectrumPreview {
+export interface SpectrumPreview extends FirstColumnReading {
   instrumentId: string;
   kind: "lamp" | "sample";
   label: string;
@@ -192,14 +243,48 @@ export interface SpectrumPreview {
   duplicateOf: SpectrumRecord["duplicateOf"];
   /** What to check before storing, in sentences (a range mostly outside the instrument's). */
   warnings: string[];
+  /** The export profile storing this file would give the instrument (it has none yet), or null. */
+  exportProfileProposal: ExportProfileFields | null;
   /** The points for a chart, thinned beyond MAX_CHART_POINTS keeping each bucket's extremes. */
   series: { x: number[]; y: number[] };
 }
 
+/** The list of first-column kinds an API user may send as xUnit, for the messages. */
+const X_UNIT_CHOICES = UPLOAD_X_UNITS.filter((unit) => unit !== "pixel")
+  .map((unit) => `"${unit}"`)
+  .join(", ");
+
+/** A core message as a sentence of its own: capital first, full stop last. */
+function asSentence(message: string): string {
+  const text = message.charAt(0).toUpperCase() + message.slice(1);
+  return /[.!?]$/.test(text) ? text : `${text}.`;
+}
+
+/**
+ * A file the core could not read, as the API's 400: a unit nothing decides (or one the upload's xUnit
+ * or medium contradicts) on the field that would fix it, anything else on `file`. The message says
+ * what to send; the field's own message says only what is wrong, which the upload page shows beside
+ * its question.
+ */
+function readRefusal(error: SpectrumParseError): AppError {
+  const reason = asSentence(error.message);
+  if (error.code === "unit-unknown") {
+    const message = `${reason} Say what it holds with xUnit: ${X_UNIT_CHOICES}.`;
+    return new AppError("validation", message, { fieldErrors: { xUnit: [reason] } });
+  }
+  if (error.code === "unit-conflict" && error.stated) {
+    const field = error.stated;
+    const message = `${reason} The file says this itself: leave ${field} out, or send what the file says.`;
+    return new AppError("validation", message, { fieldErrors: { [field]: [reason] } });
+  }
+  return new AppError("validation", error.message, { fieldErrors: { file: [error.message] } });
+}
+
 /**
  * The one check an upload goes through, for the preview and for storing alike: the actor may upload
- * onto the instrument (another team's is not found), the file is within the limits and the core reads
- * it (else 413, or 400 with its located message). Reads nothing but the instrument; writes nothing.
+ * onto the instrument (another team's is not found), the file is within the limits, the core reads
+ * it as this instrument's file and it fits the detector (else 413, or 400 with the located message on
+ * the field to fix). Reads nothing but the instrument; writes nothing.
  */
 async function checkUpload(actor: Actor, upload: SpectrumUpload) {
   const instrument = await loadInstrument(actor, upload.instrumentId, "spectrum.upload");
@@ -209,34 +294,50 @@ async function checkUpload(actor: Actor, upload: SpectrumUpload) {
       `The file is ${upload.bytes.length} bytes; the limit is ${MAX_UPLOAD_BYTES} bytes (16 MiB).`,
     );
   }
-  let spectrum;
+  let reading: InstrumentFileReading;
   try {
     const text = decodeSpectrumBytes(upload.bytes, { maxBytes: MAX_UPLOAD_BYTES });
-    spectrum = parseSpectrumFile(text, {
-      xUnit: upload.xUnit,
-      maxBytes: MAX_UPLOAD_BYTES,
-      maxPoints: MAX_UPLOAD_POINTS,
-    });
+    reading = readInstrumentFile(
+      text,
+      {
+        name: instrument.name,
+        pixels: instrument.pixels,
+        nominalRangeNm: [instrument.nominalMinNm, instrument.nominalMaxNm],
+        exportProfile: exportProfileOf(instrument),
+      },
+      {
+        firstColumn: upload.xUnit,
+        medium: upload.medium,
+        maxBytes: MAX_UPLOAD_BYTES,
+        maxPoints: MAX_UPLOAD_POINTS,
+      },
+    );
   } catch (error) {
-    if (error instanceof SpectrumParseError) {
-      throw new AppError("validation", error.message, { fieldErrors: { file: [error.message] } });
-    }
+    if (error instanceof SpectrumParseError) throw readRefusal(error);
     if (error instanceof RangeError)
       throw new AppError("validation", error.message, { fieldErrors: { file: [error.message] } });
     throw error;
   }
   // A file that cannot have come from this instrument's detector is refused; one mostly outside its
-  // nominal range is said on the preview.
-  const fit = spectrumFitToInstrument(spectrum.x, spectrum.xUnit, {
-    name: instrument.name,
-    pixels: instrument.pixels,
-    nominalRangeNm: [instrument.nominalMinNm, instrument.nominalMaxNm],
-  });
-  if (fit.refusal)
-    throw new AppError("validation", fit.refusal, { fieldErrors: { file: [fit.refusal] } });
+  // nominal range is said on the preview. A counting the values contradict is refused on xUnit, with
+  // the counting that fits.
+  const { refusal } = reading;
+  if (refusal) {
+    if (refusal.otherCounting) {
+      const message = `${refusal.message} If the file counts that way, send xUnit "${refusal.otherCounting}".`;
+      throw new AppError("validation", message, { fieldErrors: { xUnit: [refusal.message] } });
+    }
+    throw new AppError("validation", refusal.message, {
+      fieldErrors: { file: [refusal.message] },
+    });
+  }
   const raw = Buffer.from(upload.bytes.buffer, upload.bytes.byteOffset, upload.bytes.byteLength);
   const sha256 = createHash("sha256").update(raw).digest("hex");
-  return { instrument, spectrum, raw, sha256, warnings: fit.warnings };
+  const firstColumn: FirstColumnReading = {
+    firstColumn: reading.firstColumn,
+    firstColumnFrom: FROM_API[reading.firstColumnFrom],
+  };
+  return { instrument, reading, spectrum: reading.spectrum, raw, sha256, firstColumn };
 }
 
 /** Parses and checks an upload exactly as uploadSpectrum does, and returns what it would store; stores nothing. */
@@ -244,7 +345,10 @@ export async function previewSpectrumUpload(
   actor: Actor,
   upload: SpectrumUpload,
 ): Promise<SpectrumPreview> {
-  const { instrument, spectrum, raw, sha256, warnings } = await checkUpload(actor, upload);
+  const { instrument, reading, spectrum, raw, sha256, firstColumn } = await checkUpload(
+    actor,
+    upload,
+  );
   let yMin = Infinity;
   let yMax = -Infinity;
   for (const value of spectrum.y) {
@@ -265,17 +369,71 @@ export async function previewSpectrumUpload(
     xRange: [spectrum.x[0], spectrum.x[spectrum.x.length - 1]],
     yRange: [yMin, yMax],
     duplicateOf: await earlierUpload({ teamId: instrument.teamId, sha256 }),
-    warnings,
+    warnings: reading.warnings,
+    exportProfileProposal: reading.proposedProfile
+      ? toProfileFields(reading.proposedProfile)
+      : null,
+    ...firstColumn,
     series: { x: thin.x, y: thin.y },
   };
 }
 
-export async function uploadSpectrum(
+/**
+ * Gives an instrument without an export profile the one its upload proposes (the file's header or the
+ * uploader's xUnit said what the first column holds), in the upload's transaction and audited. The
+ * uploader needs no right to edit the instrument: a profile only fills the gap; changing one that is
+ * set is the instrument's editors' (updateInstrument). Returns the profile set, or null when another
+ * upload or an editor set one first.
+ */
+async function setProposedProfile(
   actor: Actor,
+  instrumentId: string,
+  proposal: ExportProfile,
   upload: SpectrumUpload,
-): Promise<SpectrumRecord> {
-  const { instrument, spectrum, raw, sha256 } = await checkUpload(actor, upload);
+  decidedBy: FirstColumnFrom,
+  transaction: Transaction,
+): Promise<ExportProfileFields | null> {
+  const row = await Instrument.findByPk(instrumentId, {
+    transaction,
+    lock: transaction.LOCK.UPDATE,
+  });
+  if (!row || row.exportXUnit !== null) return null;
+  const fields = toProfileFields(proposal);
+  row.set(fields);
+  await row.save({ transaction });
+  const source = decidedBy === "file" ? "its file said" : "its uploader said (xUnit)";
+  await recordAudit(
+    {
+      actorId: actor.id,
+      teamId: row.teamId,
+      action: "instrument.export_profile",
+      entity: "instrument",
+      entityId: row.id,
+      before: { exportXUnit: null, exportMedium: null },
+      after: { ...fields },
+      reason: `Set from the upload of ${upload.fileName}: the instrument had no export profile and ${source} what the first column holds.`,
+    },
+    transaction,
+  );
+  return fields;
+}
+
+export async function uploadSpectrum(actor: Actor, upload: SpectrumUpload): Promise<StoredUpload> {
+  const { instrument, reading, spectrum, raw, sha256, firstColumn } = await checkUpload(
+    actor,
+    upload,
+  );
   return sequelize.transaction(async (transaction) => {
+    const exportProfileSet = reading.proposedProfile
+      ? await setProposedProfile(
+          actor,
+          instrument.id,
+          reading.proposedProfile,
+          upload,
+          firstColumn.firstColumnFrom,
+          transaction,
+        )
+      : null;
     const duplicateOf = await earlierUpload({ teamId: instrument.teamId, sha256 }, transaction);
     const row = await SpectrumFile.create(
       {
@@ -317,11 +475,12 @@ export async function uploadSpectrum(
           sha256,
           points: spectrum.x.length,
           xUnit: spectrum.xUnit,
+          ...firstColumn,
           duplicateOf: duplicateOf?.id ?? null,
         },
       },
       transaction,
     );
-    return record;
+    return { ...record, ...firstColumn, exportProfileSet };
   });
 }

@@ -1,6 +1,6 @@
 // Plain shapes the workflow services return (instruments, spectra, calibrations, notebooks, runs):
 // what pages and the API see; no Sequelize instance or column name gets past the services.
-import type { AxisUnit, SourceKind, WavelengthMedium } from "@/lib/spectrum/types";
+import type { AxisUnit, FirstColumnKind, SourceKind, WavelengthMedium } from "@/lib/spectrum/types";
 import type { Verdict } from "@/lib/spectrum/matching";
 import type { DetectionLimit } from "@/lib/spectrum/analysis/detection-limits";
 import packageJson from "@/package.json";
@@ -20,6 +20,10 @@ export interface InstrumentRecord {
   detectorMax: number | null;
   glass: string | null;
   apexDeg: number | null;
+  /** Export profile: what the first column of its files holds, for files that do not say; null: not set. */
+  exportXUnit: FirstColumnKind | null;
+  /** Air or vacuum, for a wavelength profile; null when not known or not a wavelength. */
+  exportMedium: WavelengthMedium | null;
   /** Optimistic-locking version: send it back with an edit. */
   version: number;
   createdAt: string;

@@ -7,6 +7,27 @@ export type AxisUnit = "pixel" | "nm" | "angstrom" | "wavenumber";
 /** Whether a wavelength is measured in air or in vacuum. */
 export type WavelengthMedium = "air" | "vacuum";
 
+/**
+ * What the first column of an instrument's exported files holds: pixel indices counted from 0 or
+ * from 1 (the calibration maps the index, so the counting matters), or a spectral unit.
+ */
+export type FirstColumnKind = "pixel-from-0" | "pixel-from-1" | "nm" | "angstrom" | "wavenumber";
+
+export const FIRST_COLUMN_KINDS: readonly FirstColumnKind[] = [
+  "pixel-from-0",
+  "pixel-from-1",
+  "nm",
+  "angstrom",
+  "wavenumber",
+];
+
+/** How an instrument's files are read when they do not say what their first column holds. */
+export interface ExportProfile {
+  firstColumn: FirstColumnKind;
+  /** Air or vacuum, for a wavelength column (nm or Å) only; null when not known. */
+  medium: WavelengthMedium | null;
+}
+
 /** The kind of light source; expected relative intensities depend on it. */
 export type SourceKind = "flame" | "arc" | "spark" | "plasma" | "lamp";
 

@@ -20,7 +20,8 @@ const numberOrUndefined = (value: FormDataEntryValue | null) => {
   return text === "" ? undefined : Number(text);
 };
 
-/** The instrument form's fields: numbers typed as text, blank optional fields sent as null (cleared). */
+/** The instrument form's fields: numbers typed as text, blank optional fields sent as null (cleared),
+ * "not set" in the export profile's selects as null. */
 function instrumentFieldsFromForm(formData: FormData) {
   return {
     name: blank(formData.get("name")),
@@ -32,6 +33,11 @@ function instrumentFieldsFromForm(formData: FormData) {
     detectorMax: numberOrUndefined(formData.get("detectorMax")) ?? null,
     glass: blank(formData.get("glass")) || null,
     apexDeg: numberOrUndefined(formData.get("apexDeg")) ?? null,
+    exportXUnit: blank(formData.get("exportXUnit")) || null,
+    // The medium belongs to wavelengths only; the form keeps its select hidden for other columns.
+    exportMedium: ["nm", "angstrom"].includes(blank(formData.get("exportXUnit")))
+      ? blank(formData.get("exportMedium")) || null
+      : null,
   };
 }
 

@@ -8,7 +8,12 @@ import {
   type CalibrationModelChoice,
   type GlassName,
 } from "@/lib/spectrum/calibration";
-import { SOURCE_KINDS, type SourceKind } from "@/lib/spectrum/types";
+import {
+  FIRST_COLUMN_KINDS,
+  SOURCE_KINDS,
+  type FirstColumnKind,
+  type SourceKind,
+} from "@/lib/spectrum/types";
 import { AppError } from "@/lib/errors";
 
 /** Largest upload, in bytes (16 MiB). Bigger files get 413 before they are parsed. */
@@ -21,6 +26,11 @@ const positive = (what: string) =>
     .number({ error: `Enter ${what}.` })
     .finite()
     .positive(`${what} must be positive.`);
+
+const MEDIA = ["air", "vacuum"] as const;
+
+/** Names of the first-column kinds as the messages list them. */
+const FIRST_COLUMN_LIST = FIRST_COLUMN_KINDS.join(", ");
 
 /** The instrument's own fields, shared by the create and update schemas. */
 const instrumentFields = {
@@ -44,6 +54,18 @@ const instrumentFields = {
     .lt(90, "The apex angle must be below 90°.")
     .nullable()
     .optional(),
+  /** The export profile: what the first column of the instrument's files holds (null: not set). */
+  exportXUnit: z
+    .enum(FIRST_COLUMN_KINDS as unknown as [FirstColumnKind, ...FirstColumnKind[]], {
+      error: `exportXUnit, the first column of this instrument's files, is one of ${FIRST_COLUMN_LIST}, or null when not known.`,
+    })
+    .nullable()
+    .optional(),
+  /** Air or vacuum, for a wavelength profile (nm or angstrom). */
+  exportMedium: z
+    .enum(MEDIA, { error: "exportMedium is air or vacuum, or null when not known." })
+    .nullable()
+    .optional(),
 };
 
 type InstrumentFields = z.infer<z.ZodObject<typeof instrumentFields>>;
@@ -58,7 +80,18 @@ function withInstrumentChecks<T extends z.ZodType<InstrumentFields>>(schema: T) 
     .refine((i) => i.dispersion === "prism" || (i.glass == null && i.apexDeg == null), {
       path: ["glass"],
       message: "Only a prism has a glass and an apex angle.",
-    });
+    })
+    .refine(
+      (i) =>
+        i.exportMedium == null ||
+        i.exportXUnit === undefined ||
+        i.exportXUnit === "nm" ||
+        i.exportXUnit === "angstrom",
+      {
+        path: ["exportMedium"],
+        message: "Only wavelengths (nm or angstrom) are in air or vacuum: leave exportMedium out.",
+      },
+    );
 }
 
 export const instrumentCreateSchema = withInstrumentChecks(
@@ -68,7 +101,8 @@ export type InstrumentCreateInput = z.infer<typeof instrumentCreateSchema>;
 
 /**
  * An edit of an instrument: every field of the create form again (the team is fixed) and the version the
- * editor saw. detectorMax, glass and apexDeg left out keep their stored value; null clears them.
+ * editor saw. detectorMax, glass, apexDeg, exportXUnit and exportMedium left out keep their stored
+ * value; null clears them.
  */
 export const instrumentUpdateSchema = withInstrumentChecks(
   z.object({
@@ -81,13 +115,22 @@ export const instrumentUpdateSchema = withInstrumentChecks(
 );
 export type InstrumentUpdateInput = z.infer<typeof instrumentUpdateSchema>;
 
-export const AXIS_UNITS = ["pixel", "nm", "angstrom", "wavenumber"] as const;
+/**
+ * What an upload may say its first column holds: the export profile's kinds, and plain "pixel" (pixel
+ * indices counted as the instrument's profile or the values tell).
+ */
+export const UPLOAD_X_UNITS = [...FIRST_COLUMN_KINDS, "pixel"] as const;
 
 export const spectrumUploadFieldsSchema = z.object({
   instrumentId: z.uuid("Choose an instrument."),
   kind: z.enum(["lamp", "sample"], { error: "Say whether this is a lamp or a sample spectrum." }),
   label: text().trim().max(200, "Use at most 200 characters.").default(""),
-  xUnit: z.enum(AXIS_UNITS, { error: `The x unit is one of ${AXIS_UNITS.join(", ")}.` }).optional(),
+  xUnit: z
+    .enum(UPLOAD_X_UNITS as unknown as [FirstColumnKind | "pixel", ...FirstColumnKind[]], {
+      error: `xUnit, what the file's first column holds, is one of ${UPLOAD_X_UNITS.join(", ")}.`,
+    })
+    .optional(),
+  medium: z.enum(MEDIA, { error: "medium, of a wavelength column, is air or vacuum." }).optional(),
 });
 
 export { CALIBRATION_MODELS, type CalibrationModelChoice };

@@ -1,5 +1,5 @@
 // GET lists the team's spectra, newest first (?teamId=&instrumentId=&kind=; records without bytes or points).
-// POST uploads a spectrum file (multipart: file, instrumentId, kind, label, optional xUnit) and stores it;
+// POST uploads a spectrum file (multipart: file, instrumentId, kind, label, optional xUnit and medium) and stores it;
 // POST /api/spectra/preview checks the same form without storing. Route handlers, not server actions,
 // and outside the proxy's matcher, so no body cap applies but ours (UPLOAD_ROUTE_OPTIONS, read before sign-in is checked).
 import { apiRoute, requireActor } from "@/lib/http/api-handler";

@@ -1,4 +1,4 @@
-// Reads the multipart form of an upload (file, instrumentId, kind, label, optional xUnit) for both
+// Reads the multipart form of an upload (file, instrumentId, kind, label, optional xUnit and medium) for both
 // POST /api/spectra and POST /api/spectra/preview, with the same size limits and field messages.
 import { AppError } from "@/lib/errors";
 import type { ApiRouteOptions } from "@/lib/http/api-handler";
@@ -49,6 +49,7 @@ export async function readUploadForm(request: Request): Promise<SpectrumUpload> 
     kind: text("kind"),
     label: text("label"),
     xUnit: text("xUnit"),
+    medium: text("medium"),
   });
   if (!fields.success) {
     throw new AppError("validation", "Some fields are not right.", {

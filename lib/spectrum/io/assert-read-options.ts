@@ -4,21 +4,28 @@ import type { SpectrumReadOptions } from "./spectrum-read-options";
 const AXIS_UNITS = new Set(["pixel", "nm", "angstrom", "wavenumber"]);
 const MEDIA = new Set(["air", "vacuum"]);
 
-/** Throws a RangeError for an unknown unit or medium, or limits that are not positive integers. */
+/** Throws a RangeError for an unknown unit or medium, or limits and counts that are not positive integers. */
 export function assertReadOptions(options: SpectrumReadOptions): void {
-  const { xUnit, medium, maxPoints, minPoints, maxBytes } = options;
-  if (xUnit !== undefined && !AXIS_UNITS.has(xUnit)) {
-    throw new RangeError(
-      `xUnit must be "pixel", "nm", "angstrom" or "wavenumber", got ${JSON.stringify(xUnit)}`,
-    );
+  const { maxPoints, minPoints, maxBytes, pixelCount } = options;
+  for (const name of ["xUnit", "fallbackXUnit"] as const) {
+    const unit = options[name];
+    if (unit !== undefined && !AXIS_UNITS.has(unit)) {
+      throw new RangeError(
+        `${name} must be "pixel", "nm", "angstrom" or "wavenumber", got ${JSON.stringify(unit)}`,
+      );
+    }
   }
-  if (medium !== undefined && !MEDIA.has(medium)) {
-    throw new RangeError(`medium must be "air" or "vacuum", got ${JSON.stringify(medium)}`);
+  for (const name of ["medium", "fallbackMedium"] as const) {
+    const medium = options[name];
+    if (medium !== undefined && !MEDIA.has(medium)) {
+      throw new RangeError(`${name} must be "air" or "vacuum", got ${JSON.stringify(medium)}`);
+    }
   }
   for (const [name, value] of [
     ["maxPoints", maxPoints],
     ["minPoints", minPoints],
     ["maxBytes", maxBytes],
+    ["pixelCount", pixelCount],
   ] as const) {
     if (value !== undefined && (!Number.isInteger(value) || value < 1)) {
       throw new RangeError(`${name} must be a positive integer, got ${String(value)}`);

@@ -26,3 +26,12 @@ export type { AxisLabelReading, LabelUnit } from "./read-axis-label";
 export { parseNumberCell } from "./parse-number-cell";
 export { spectrumFitToInstrument } from "./spectrum-fit-to-instrument";
 export type { InstrumentFrame, SpectrumFit } from "./spectrum-fit-to-instrument";
+export type { SpectrumFitOptions } from "./spectrum-fit-to-instrument";
+export { detectorPixelOrigin } from "./detector-pixel-origin";
+export { readInstrumentFile } from "./read-instrument-file";
+export type {
+  FirstColumnSource,
+  InstrumentExportFrame,
+  InstrumentFileReading,
+  ReadInstrumentFileOptions,
+} from "./read-instrument-file";

@@ -64,7 +64,8 @@ const LINE_X_TOLERANCE_STEPS = 1.5;
 
 /**
  * The spectrum in the JCAMP-DX `text`. XUNITS gives the x unit (MICROMETERS are scaled to nm); for
- * ARBITRARY UNITS or no XUNITS, `options.xUnit` must say. The labels (TITLE, ORIGIN, OWNER, DATE, …)
+ * ARBITRARY UNITS or no XUNITS, `options.xUnit` (or the fallback and pixel-count options, as for text)
+ * must say. The labels (TITLE, ORIGIN, OWNER, DATE, …)
  * go into `meta` as written; a user label ##$MEDIUM=AIR|VACUUM gives the medium.
  */
 export function parseJcamp(text: string, options: ParseJcampOptions = {}): Spectrum {
@@ -157,7 +158,7 @@ export function parseJcamp(text: string, options: ParseJcampOptions = {}): Spect
   if (fileUnit === undefined && !UNSTATED_XUNITS.has(xUnitsKey) && options.xUnit === undefined) {
     throw new SpectrumParseError(
       "unit-unknown",
-      `XUNITS=${xUnitsText} is not a spectral axis this reader knows (nm, Å, µm, 1/cm, pixels); state options.xUnit to read it anyway`,
+      `XUNITS=${xUnitsText} is not a spectral axis this reader knows (nm, Å, µm, 1/cm, pixels); state the unit of the first column to read it anyway`,
       xUnitsLine,
       null,
     );
@@ -170,6 +171,9 @@ export function parseJcamp(text: string, options: ParseJcampOptions = {}): Spect
     line: xUnitsLine,
     statedUnit: options.xUnit,
     statedMedium: options.medium,
+    fallbackUnit: options.fallbackXUnit,
+    fallbackMedium: options.fallbackMedium,
+    pixelCount: options.pixelCount,
     x,
   });
   if (resolved.scale !== 1) for (let i = 0; i < x.length; i++) x[i] *= resolved.scale;

@@ -87,9 +87,10 @@ const enum LineKind {
 }
 
 /**
- * The spectrum in `text`. The x unit comes from the header ("wavelength (nm)", "pixel", "1/cm", …) or
- * from `options.xUnit`; with neither, it throws "unit-unknown" rather than guess. A file whose x runs
- * downward is returned reversed, so x is strictly increasing.
+ * The spectrum in `text`. The x unit comes from the header ("wavelength (nm)", "pixel", "1/cm", …),
+ * from `options.xUnit`, from `options.fallbackXUnit`, or (with `options.pixelCount`) from values that
+ * are exactly the detector's pixel indices; with none of these, it throws "unit-unknown" rather than
+ * guess. A file whose x runs downward is returned reversed, so x is strictly increasing.
  */
 export function parseSpectrumText(text: string, options: ParseSpectrumTextOptions = {}): Spectrum {
   const {
@@ -367,6 +368,9 @@ function finish(
     column: unitColumn,
     statedUnit: options.xUnit,
     statedMedium: options.medium,
+    fallbackUnit: options.fallbackXUnit,
+    fallbackMedium: options.fallbackMedium,
+    pixelCount: options.pixelCount,
     x: rows.x,
   });
   const lineNumbers = rows.lines;

@@ -21,6 +21,15 @@ export interface SpectrumFit {
   warnings: string[];
 }
 
+export interface SpectrumFitOptions {
+  /**
+   * How the file counts its pixels, when known: a pixel axis must then lie on origin … origin +
+   * pixels − 1. Unknown, either counting passes (0 … pixels).
+   * @default undefined (unknown)
+   */
+  pixelOrigin?: 0 | 1;
+}
+
 /** Shares of a file's span below which its overlap with the nominal range is worth saying. */
 const MIN_OVERLAP_SHARE = 0.5;
 
@@ -31,7 +40,12 @@ export function spectrumFitToInstrument(
   x: Float64Array,
   xUnit: AxisUnit,
   instrument: InstrumentFrame,
+  options: SpectrumFitOptions = {},
 ): SpectrumFit {
+  const { pixelOrigin } = options;
+  if (pixelOrigin !== undefined && pixelOrigin !== 0 && pixelOrigin !== 1) {
+    throw new RangeError(`pixelOrigin must be 0 or 1, got ${String(pixelOrigin)}`);
+  }
   if (x.length === 0) return { refusal: null, warnings: [] };
   let low = Infinity;
   let high = -Infinity;
@@ -40,12 +54,19 @@ export function spectrumFitToInstrument(
     if (value > high) high = value;
   }
   if (xUnit === "pixel") {
-    // Pixels count from 0 or from 1: the last index is pixels − 1 or pixels.
-    if (low < 0 || high > instrument.pixels) {
+    // Pixels count from 0 or from 1: unless the counting is known, the last index is pixels − 1 or pixels.
+    const first = pixelOrigin ?? 0;
+    const last =
+      pixelOrigin === undefined ? instrument.pixels : pixelOrigin + instrument.pixels - 1;
+    if (low < first || high > last) {
+      const indices =
+        pixelOrigin === undefined
+          ? `0 to ${instrument.pixels - 1}`
+          : `${first} to ${last}, counted from ${pixelOrigin}`;
       return {
         refusal:
           `This file's first column runs over pixels ${round(low)} to ${round(high)}, but ${instrument.name} has ` +
-          `${instrument.pixels.toLocaleString("en")} pixels (0 to ${instrument.pixels - 1}): it was recorded on another ` +
+          `${instrument.pixels.toLocaleString("en")} pixels (${indices}): it was recorded on another ` +
           `detector or with other binning. Upload it to the instrument it was recorded on.`,
         warnings: [],
       };

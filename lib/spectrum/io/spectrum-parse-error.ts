@@ -38,18 +38,25 @@ export class SpectrumParseError extends Error {
   readonly line: number | null;
   /** 1-based column (a cell for text files, a character for JCAMP-DX data lines), or null. */
   readonly column: number | null;
+  /**
+   * For "unit-conflict": which of the caller's statements the file contradicts, so that a caller can
+   * point at its own field; undefined for every other error.
+   */
+  readonly stated: "xUnit" | "medium" | undefined;
 
   constructor(
     code: SpectrumParseErrorCode,
     problem: string,
     line: number | null = null,
     column: number | null = null,
+    stated?: "xUnit" | "medium",
   ) {
     super(`${locationPrefix(line, column)}${problem}`);
     this.name = "SpectrumParseError";
     this.code = code;
     this.line = line;
     this.column = column;
+    this.stated = stated;
   }
 }
 

@@ -21,6 +21,23 @@ export interface SpectrumReadOptions {
    */
   medium?: WavelengthMedium;
   /**
+   * Unit of the x column when neither the file nor `xUnit` says (an instrument's usual export). Unlike
+   * `xUnit`, it never contradicts a file: a file that names its unit is read in that unit.
+   * @default undefined (no fallback)
+   */
+  fallbackXUnit?: AxisUnit;
+  /**
+   * Medium of a wavelength axis read in `fallbackXUnit` when neither the file nor `medium` says.
+   * @default undefined
+   */
+  fallbackMedium?: WavelengthMedium;
+  /**
+   * The detector's pixel count. When nothing else says what the x column is, consecutive integers
+   * from 0 or from 1 (in either direction) exactly this many are read as pixel indices.
+   * @default undefined (never inferred)
+   */
+  pixelCount?: number;
+  /**
    * Largest accepted input, in bytes of UTF-8.
    * @default 67108864 (64 MiB)
    */

@@ -16,6 +16,9 @@ export class InstrumentsPage {
     fromNm: number;
     toNm: number;
     resolutionNm: number;
+    /** The export profile's selects, by their option labels; left out, the profile stays unset. */
+    firstColumn?: string;
+    medium?: string;
   }): Promise<string> {
     await this.page.getByLabel("Name").fill(fields.name);
     await this.page.getByLabel("Dispersion").selectOption("grating");
@@ -23,6 +26,14 @@ export class InstrumentsPage {
     await this.page.getByLabel("Resolution, FWHM (nm)").fill(String(fields.resolutionNm));
     await this.page.getByLabel("Nominal range from (nm)").fill(String(fields.fromNm));
     await this.page.getByLabel("Nominal range to (nm)").fill(String(fields.toNm));
+    if (fields.firstColumn) {
+      await this.page
+        .getByLabel("First column of its files")
+        .selectOption({ label: fields.firstColumn });
+    }
+    if (fields.medium) {
+      await this.page.getByLabel("Wavelengths measured").selectOption({ label: fields.medium });
+    }
     await this.page.getByRole("button", { name: "Add the instrument" }).click();
     await this.page.waitForURL(/\/instruments\/[0-9a-f-]{36}$/);
     return new URL(this.page.url()).pathname.split("/").pop()!;
@@ -42,8 +53,13 @@ export class UploadZone {
     this.status = page.getByTestId("upload-status");
   }
 
-  /** Drops a file on the zone the way a browser does: a drop event carrying a DataTransfer with the file. */
+  /**
+   * Drops a file on the zone the way a browser does: a drop event carrying a DataTransfer with the file.
+   * It waits for the page's scripts first: a drop on the server-rendered zone before React has attached
+   * its handlers is lost.
+   */
   async drop(fileName: string, text: string): Promise<void> {
+    await this.page.waitForLoadState("networkidle");
     const dataTransfer = await this.page.evaluateHandle(
       ({ name, content }) => {
         const transfer = new DataTransfer();
@@ -81,6 +97,19 @@ export class UploadZone {
   async store(): Promise<void> {
     await this.preview.getByRole("button", { name: "Store this spectrum" }).click();
     await this.status.waitFor({ timeout: 30_000 });
+  }
+
+  /** The question the page asks when nothing tells what the file's first column holds. */
+  get question(): Locator {
+    return this.page.getByTestId("first-column-question");
+  }
+
+  /** Answers the question with the selects' option labels and sends the file again for its preview. */
+  async answerFirstColumn(firstColumn: string, medium?: string): Promise<void> {
+    await this.question.getByLabel("First column").selectOption({ label: firstColumn });
+    if (medium)
+      await this.question.getByLabel("Wavelengths measured").selectOption({ label: medium });
+    await this.question.getByRole("button", { name: "Read the file this way" }).click();
   }
 
   /** After dropping or choosing a file: kind and label, the preview, then store. */

@@ -1,8 +1,10 @@
-// One instrument: its settings, its calibration history (newest first, the default for new runs) and
-// the ways on: calibrate against a lamp, upload a spectrum, and for lab leads edit the instrument.
+// One instrument: its settings, its export profile (how its files without a header are read), its
+// calibration history (newest first, the default for new runs) and the ways on: calibrate against a
+// lamp, upload a spectrum, and for lab leads edit the instrument (and so its profile).
 import Link from "next/link";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
+import { describeFirstColumn } from "@/components/workflow/first-column-labels";
 import { idOrNotFound, orNotFound } from "@/components/workflow/server-data";
 import { can } from "@/lib/auth/policy";
 import { fetchCalibrations } from "@/lib/services/calibrations";
@@ -21,6 +23,7 @@ export default async function InstrumentPage({ params }: { params: Promise<{ id:
     orNotFound(fetchInstrument(actor, id)),
     orNotFound(fetchCalibrations(actor, id)),
   ]);
+  const manager = can(actor, "instrument.manage", { teamId: instrument.teamId });
   return (
     <>
       <PageHeader
@@ -28,7 +31,7 @@ export default async function InstrumentPage({ params }: { params: Promise<{ id:
         description={`${instrument.dispersion === "prism" ? "Prism" : "Grating"} · ${instrument.pixels} pixels · nominal ${instrument.nominalMinNm}–${instrument.nominalMaxNm} nm · resolution ${instrument.resolutionNm} nm FWHM${instrument.detectorMax ? ` · detector maximum ${instrument.detectorMax} counts` : ""}${instrument.glass ? ` · glass ${instrument.glass}` : ""}${instrument.apexDeg ? ` · apex ${instrument.apexDeg}°` : ""}`}
         actions={
           <>
-            {can(actor, "instrument.manage", { teamId: instrument.teamId }) ? (
+            {manager ? (
               <Link href={`/instruments/${id}/edit`} className={action}>
                 Edit instrument
               </Link>
@@ -45,6 +48,44 @@ export default async function InstrumentPage({ params }: { params: Promise<{ id:
           </>
         }
       />
+      <section
+        aria-labelledby="export-profile-heading"
+        className="mb-6 max-w-3xl text-sm"
+        data-testid="export-profile"
+      >
+        <h2 id="export-profile-heading" className="mb-1 text-lg font-semibold">
+          Export profile
+        </h2>
+        {instrument.exportXUnit ? (
+          <p>
+            Files without a header are read with their first column as{" "}
+            <strong>{describeFirstColumn(instrument.exportXUnit, instrument.exportMedium)}</strong>
+            {instrument.exportMedium === null &&
+            (instrument.exportXUnit === "nm" || instrument.exportXUnit === "angstrom")
+              ? " (air or vacuum not known)"
+              : ""}
+            .{" "}
+            {manager ? (
+              <Link href={`/instruments/${id}/edit`} className="underline">
+                Change the profile
+              </Link>
+            ) : (
+              <span className="muted">A lab lead can change it.</span>
+            )}
+          </p>
+        ) : (
+          <p>
+            Not set yet: a file that does not say what its first column holds is read as pixels only
+            when it has one row per pixel ({instrument.pixels.toLocaleString("en")}), else the
+            upload page asks. The first upload whose header or uploader says it sets the profile.{" "}
+            {manager ? (
+              <Link href={`/instruments/${id}/edit`} className="underline">
+                Set it now
+              </Link>
+            ) : null}
+          </p>
+        )}
+      </section>
       <h2 className="mb-2 text-lg font-semibold">Calibration history</h2>
       {calibrations.length === 0 ? (
         <EmptyState title="Not calibrated yet">

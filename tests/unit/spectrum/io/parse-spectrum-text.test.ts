@@ -182,9 +182,9 @@ describe("units from the header", () => {
     ).toBe("nm");
   });
 
-  it("asks for the unit when neither the file nor the caller gives it", () => {
+  it("asks for the unit when neither the file nor the caller gives it, naming no option", () => {
     const error = expectError(body(",", "."), "unit-unknown", null, null);
-    expect(error.message).toMatch(/options\.xUnit/);
+    expect(error.message).toBe("the file does not say what its first column holds");
     expectError(`wavelength,counts\n${body(",", ".")}`, "unit-unknown", 1, 1);
     expectError(`x,y\n${body(",", ".")}`, "unit-unknown", 1, 1);
   });
@@ -192,16 +192,24 @@ describe("units from the header", () => {
   it("mentions the pixel suggestion but does not act on it", () => {
     const pixels = Array.from({ length: 20 }, (_, i) => `${i} ${i * 3}`).join("\n");
     const error = expectError(pixels, "unit-unknown", null, null);
-    expect(error.message).toMatch(/suggestXUnit suggests "pixel"/);
+    expect(error.message).toBe(
+      "the file does not say what its first column holds; the values are the integers 0 to 19 in steps of 1, as pixel indices would be",
+    );
   });
 
-  it("refuses a caller's unit that contradicts the header", () => {
-    expectError(`wavelength (nm),counts\n${body(",", ".")}`, "unit-conflict", 1, 1, {
+  it("refuses a caller's unit that contradicts the header, saying which statement it contradicts", () => {
+    const unit = expectError(`wavelength (nm),counts\n${body(",", ".")}`, "unit-conflict", 1, 1, {
       xUnit: "pixel",
     });
-    expectError(`wavelength (nm, air)\tcounts\n${body("\t", ".")}`, "unit-conflict", 1, 1, {
-      medium: "vacuum",
-    });
+    expect(unit.stated).toBe("xUnit");
+    const medium = expectError(
+      `wavelength (nm, air)\tcounts\n${body("\t", ".")}`,
+      "unit-conflict",
+      1,
+      1,
+      { medium: "vacuum" },
+    );
+    expect(medium.stated).toBe("medium");
     expectError(`nm / cm-1,counts\n${body(",", ".")}`, "unit-unknown", 1, 1);
   });
 });

@@ -24,6 +24,23 @@ describe("spectrumFitToInstrument", () => {
     );
   });
 
+  it("holds a pixel axis to one counting when it is known", () => {
+    expect(
+      spectrumFitToInstrument(axis(1, 2048), "pixel", bench, { pixelOrigin: 1 }).refusal,
+    ).toBeNull();
+    expect(
+      spectrumFitToInstrument(axis(0, 2047), "pixel", bench, { pixelOrigin: 0 }).refusal,
+    ).toBeNull();
+    // 1 to 2048 counted from 0 ends one pixel past the detector.
+    expect(spectrumFitToInstrument(axis(1, 2048), "pixel", bench, { pixelOrigin: 0 }).refusal).toBe(
+      "This file's first column runs over pixels 1 to 2048, but Bench A has 2,048 pixels (0 to 2047, counted " +
+        "from 0): it was recorded on another detector or with other binning. Upload it to the instrument it was recorded on.",
+    );
+    expect(
+      spectrumFitToInstrument(axis(0, 2047), "pixel", bench, { pixelOrigin: 1 }).refusal,
+    ).toMatch(/\(1 to 2048, counted from 1\)/);
+  });
+
   it("says when a wavelength file lies mostly outside the nominal range, in nm whatever its unit", () => {
     expect(spectrumFitToInstrument(axis(420, 680), "nm", bench).warnings).toEqual([]);
     // 650–950 nm: 50 of 300 nm inside.

@@ -1,5 +1,6 @@
 // Editing an instrument (lab leads of its team; anyone else finds nothing here): the add form again,
-// filled in, with the dispersion and pixel count fixed once the instrument has calibrations.
+// filled in, with the dispersion and pixel count fixed once the instrument has calibrations. The export
+// profile (how files without a header are read) is changed here.
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { PageHeader } from "@/components/ui/page-header";
@@ -22,7 +23,7 @@ export default async function EditInstrumentPage({ params }: { params: Promise<{
     <>
       <PageHeader
         title={`Edit ${instrument.name}`}
-        description="Change the instrument's name, nominal range, resolution, detector maximum or prism data. Calibrations already made are kept as they are."
+        description="Change the instrument's name, nominal range, resolution, detector maximum, prism data or export profile. Calibrations and spectra already stored are kept as they are."
         actions={
           <Link
             href={`/instruments/${id}`}

@@ -1,10 +1,12 @@
 // Upload a lamp or sample file onto an instrument. The upload component first sends the file to the
-// preview route (nothing stored) and shows its plot, facts and duplicate warning; once the chemist
-// stores it, this page shows the stored spectrum as "Uploaded": its hash, points, range, a duplicate
-// warning and a preview plot, with the next step.
+// preview route (nothing stored) and shows its plot, facts and duplicate warning, and asks what the
+// first column holds when nothing tells; once the chemist stores it, this page shows the stored
+// spectrum as "Uploaded": its hash, points, range, a duplicate warning, the export profile the upload
+// set (if it did) and a preview plot, with the next step.
 import Link from "next/link";
 import { PreviewChart } from "@/components/charts/spectrum-charts";
 import { PageHeader } from "@/components/ui/page-header";
+import { describeFirstColumn } from "@/components/workflow/first-column-labels";
 import { SpectrumUpload } from "@/components/workflow/spectrum-upload";
 import { X_TITLES, idOrNotFound, orNotFound, rawSeries } from "@/components/workflow/server-data";
 import { fetchInstrument } from "@/lib/services/instruments";
@@ -38,6 +40,9 @@ export default async function UploadPage({
     ? await orNotFound(fetchSpectrum(actor, idOrNotFound(spectrumId)))
     : null;
   const back = `/instruments/${id}/upload?kind={kind}${notebookId ? `&notebook=${notebookId}` : ""}`;
+  const profile = instrument.exportXUnit
+    ? describeFirstColumn(instrument.exportXUnit, instrument.exportMedium)
+    : null;
 
   if (uploaded) {
     const series = await rawSeries(actor, uploaded.id);
@@ -56,6 +61,21 @@ export default async function UploadPage({
           {uploaded.xRange[0]}–{uploaded.xRange[1]}
           {uploaded.medium ? ` (${uploaded.medium})` : ""}.
         </p>
+        {one(search.profileSet) === "1" && profile ? (
+          <p
+            role="status"
+            className="mb-3 rounded border border-teal-700 bg-[var(--panel)] p-2 text-sm"
+            data-testid="profile-set"
+          >
+            <span aria-hidden>✓ </span>
+            {instrument.name} had no export profile; this upload set it. Files without a header are
+            now read with their first column as <strong>{profile}</strong>.{" "}
+            <Link href={`/instruments/${id}`} className="underline">
+              See the instrument
+            </Link>{" "}
+            (a lab lead can change it there).
+          </p>
+        ) : null}
         {uploaded.duplicateOf ? (
           <p
             role="alert"
@@ -117,16 +137,45 @@ export default async function UploadPage({
         title="Upload a spectrum"
         description={`Onto ${instrument.name}: a reference lamp to calibrate, or a sample to identify.`}
       />
-      <p className="muted mb-4 max-w-prose text-sm">
-        Two-column text (CSV, TSV or whitespace; header or none; comma or point decimals; pixel,
-        wavelength or wavenumber first) or JCAMP-DX. Limits: {MAX_UPLOAD_BYTES / (1024 * 1024)} MiB
-        per file and {MAX_UPLOAD_POINTS.toLocaleString("en")} points. You see a preview of the
-        parsed points before anything is stored; the file is then stored as it was sent, byte for
-        byte with its SHA-256. A file that cannot be read is refused with the place of the problem
-        and nothing is stored.
-      </p>
+      <div className="muted mb-4 flex max-w-prose flex-col gap-2 text-sm" data-testid="upload-help">
+        <p>
+          Two-column text (separated by commas, tabs, semicolons or spaces; comma or point decimals)
+          or JCAMP-DX. The first column holds pixel indices, wavelengths in nm or Å, or wavenumbers
+          in cm⁻¹; a header such as &ldquo;wavelength (nm, air)&rdquo; or &ldquo;pixel&rdquo; says
+          which. Limits: {MAX_UPLOAD_BYTES / (1024 * 1024)} MiB per file and{" "}
+          {MAX_UPLOAD_POINTS.toLocaleString("en")} points.
+        </p>
+        <p data-testid="upload-profile">
+          A file without such a header is read{" "}
+          {profile ? (
+            <>
+              through {instrument.name}&apos;s export profile, as <strong>{profile}</strong>
+            </>
+          ) : (
+            <>
+              as pixels when it has one row per detector pixel (
+              {instrument.pixels.toLocaleString("en")}); otherwise you are asked what its first
+              column holds, and since {instrument.name} has no export profile yet, your answer
+              becomes it
+            </>
+          )}
+          .
+        </p>
+        <p>
+          You see a preview of the parsed points before anything is stored; the file is then stored
+          as it was sent, byte for byte with its SHA-256. A file that cannot be read is refused with
+          the place of the problem and nothing is stored.
+        </p>
+      </div>
       <SpectrumUpload
         instrumentId={id}
+        instrumentName={instrument.name}
+        pixels={instrument.pixels}
+        exportProfile={
+          instrument.exportXUnit
+            ? { exportXUnit: instrument.exportXUnit, exportMedium: instrument.exportMedium }
+            : null
+        }
         defaultKind={kind}
         maxBytes={MAX_UPLOAD_BYTES}
         xTitles={X_TITLES}
