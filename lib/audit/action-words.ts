@@ -22,6 +22,11 @@ const ACTIONS: Record<string, ActionWords> = {
     verb: "added instrument",
     alone: "added an instrument",
   },
+  "instrument.export_profile": {
+    label: "Export profile set",
+    verb: "set the export profile of",
+    alone: "set an instrument's export profile",
+  },
   "instrument.update": {
     label: "Instrument changed",
     verb: "changed instrument",
