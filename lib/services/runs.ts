@@ -21,6 +21,7 @@ import {
 } from "@/lib/spectrum/matching";
 import type { RunNotesInput, RunOverrideInput } from "@/lib/validation/run-schemas";
 import type { RunCreateInput } from "@/lib/validation/workflow-schemas";
+import { pixelNumberingDiffers } from "@/lib/spectrum/io/stored-pixel-numbering";
 import { runHeavyTask } from "@/lib/workers/heavy-pool";
 import type { Transaction } from "sequelize";
 import {
@@ -42,7 +43,7 @@ import { toLineTableRow } from "./line-library-rows";
 import { loadNotebook } from "./notebooks";
 import { assertAuthorMayEdit, loadRun } from "./run-lifecycle";
 import { fileAxisInNm } from "./run-spectrum";
-import { loadSpectrum, spectrumPoints } from "./spectra";
+import { loadSpectrum, spectrumPoints, storedAxisFacts } from "./spectra";
 import {
   SOFTWARE_VERSION,
   type RunCall,
@@ -305,6 +306,8 @@ export async function createRun(actor: Actor, input: RunCreateInput): Promise<Ru
       );
     }
   }
+  if (calibration && spectrum.xUnit === "pixel")
+    await assertSamePixelNumbering(calibration, spectrum);
   const release = await newestPublishedRelease(notebook.teamId);
   return await analyseAndStore(actor, {
     notebook,
@@ -316,6 +319,25 @@ export async function createRun(actor: Actor, input: RunCreateInput): Promise<Ru
     settings: input.settings ?? {},
     rerunOf: null,
   });
+}
+
+/**
+ * Refuses a calibration whose lamp counted its pixels otherwise than the sample is stored: an older
+ * lamp upload counted from 1 against a sample stored from 0 (or the reverse) would be one pixel off.
+ */
+async function assertSamePixelNumbering(
+  calibration: Calibration,
+  sample: SpectrumFile,
+): Promise<void> {
+  const lamp = await SpectrumFile.findByPk(calibration.spectrumId, {
+    attributes: ["id", "xUnit", "meta", "xValues", "pointCount"],
+  });
+  if (!lamp || !pixelNumberingDiffers(storedAxisFacts(lamp), storedAxisFacts(sample))) return;
+  throw new AppError(
+    "unprocessable",
+    "That calibration's lamp file was stored before Emberline knew how this instrument counts its pixels, and it counts them differently from this sample, so every line would be one pixel off. Calibrate again from a new lamp upload of this instrument.",
+    { fieldErrors: { calibrationId: ["Calibrate again from a new lamp upload."] } },
+  );
 }
 
 /**

@@ -6,6 +6,7 @@
 // when nothing says, the refusal names xUnit. Storing a file that said it, on an instrument with no
 // profile, sets the profile (audited).
 import "server-only";
+import type { StoredAxisFacts } from "@/lib/spectrum/io/stored-pixel-numbering";
 import { createHash } from "node:crypto";
 import { Op, QueryTypes, type Transaction } from "sequelize";
 import { thinSeries } from "@/lib/charts/thin-series";
@@ -105,6 +106,16 @@ export async function loadSpectrum(
   if (!row) throw notFound("No such spectrum.");
   authorize(actor, action, { teamId: row.teamId });
   return row;
+}
+
+/** What tells how a stored axis counts its pixels (see stored-pixel-numbering). */
+export function storedAxisFacts(
+  row: Pick<SpectrumFile, "xUnit" | "meta" | "xValues" | "pointCount">,
+): StoredAxisFacts {
+  const x = row.xValues;
+  const minX = Math.min(x.readDoubleLE(0), x.readDoubleLE(8 * (row.pointCount - 1)));
+  const meta = (row.meta ?? {}) as { firstColumn?: string };
+  return { xUnit: row.xUnit, firstColumn: meta.firstColumn ?? null, minX };
 }
 
 export function spectrumPoints(row: SpectrumFile): { x: Float64Array; y: Float64Array } {
