@@ -4,7 +4,7 @@ import { getIronSession, type SessionOptions } from "iron-session";
 import { cookies, headers } from "next/headers";
 import { env, sessionSecret } from "@/lib/env";
 import { actorFromAccessToken, loadActor } from "@/lib/services/accounts";
-import { openSession, revokeSession, SESSION_HOURS, sessionUserId } from "@/lib/services/sessions";
+import { liveSession, openSession, revokeSession, SESSION_HOURS } from "@/lib/services/sessions";
 import type { Actor } from "./actor";
 import { SESSION_COOKIE } from "./session-cookie";
 
@@ -41,8 +41,8 @@ export async function currentActor(): Promise<Actor | null> {
   }
   const session = await getSession();
   if (!session.sessionId) return null;
-  const userId = await sessionUserId(session.sessionId);
-  return userId ? loadActor(userId) : null;
+  const live = await liveSession(session.sessionId);
+  return live ? loadActor(live.userId, { credentialIssuedAt: live.openedAt }) : null;
 }
 
 /** True when the request authenticates with a Bearer token (no cookie, so no CSRF risk). */

@@ -24,6 +24,7 @@ import { passwordResetMail } from "@/lib/mail/templates";
 import {
   AccessToken,
   Membership,
+  MembershipRemoval,
   PasswordResetToken,
   SignInAttempt,
   Team,
@@ -186,12 +187,31 @@ export async function signIn(input: {
   return (await loadActor(user.id))!;
 }
 
-export async function loadActor(userId: string): Promise<Actor | null> {
-  const user = await User.findByPk(userId, {
-    include: [{ model: Membership, as: "memberships", include: [{ model: Team, as: "team" }] }],
-  });
+/**
+ * The person with their memberships as they are now: read on every request, so a removal or a role
+ * change takes effect on the very next one. With `credentialIssuedAt` (the session's or access
+ * token's creation), also the teams the person was removed from since then.
+ */
+export async function loadActor(
+  userId: string,
+  options: { credentialIssuedAt?: Date } = {},
+): Promise<Actor | null> {
+  const issuedAt = options.credentialIssuedAt;
+  const [user, removals] = await Promise.all([
+    User.findByPk(userId, {
+      include: [{ model: Membership, as: "memberships", include: [{ model: Team, as: "team" }] }],
+    }),
+    issuedAt
+      ? MembershipRemoval.findAll({
+          where: { userId, removedAt: { [Op.gte]: issuedAt } },
+          attributes: ["teamId"],
+        })
+      : Promise.resolve([]),
+  ]);
   if (!user) return null;
   const memberships = (user.get("memberships") as (Membership & { team: Team })[]) ?? [];
+  const memberOf = new Set(memberships.map((m) => m.teamId));
+  const removedFrom = [...new Set(removals.map((r) => r.teamId))].filter((t) => !memberOf.has(t));
   return {
     id: user.id,
     email: user.email,
@@ -199,6 +219,7 @@ export async function loadActor(userId: string): Promise<Actor | null> {
     memberships: memberships
       .map((m) => ({ teamId: m.teamId, teamName: m.team.name, role: m.role }))
       .sort((a, b) => a.teamName.localeCompare(b.teamName)),
+    ...(removedFrom.length ? { removedFrom } : {}),
   };
 }
 
@@ -212,7 +233,7 @@ export async function actorFromAccessToken(token: string): Promise<Actor | null>
   if (!row.lastUsedAt || Date.now() - row.lastUsedAt.getTime() > 60_000) {
     await row.update({ lastUsedAt: new Date() });
   }
-  return loadActor(row.userId);
+  return loadActor(row.userId, { credentialIssuedAt: row.createdAt });
 }
 
 function assertPasswordAcceptable(password: string, email?: string, field = "password"): void {

@@ -15,13 +15,18 @@ export async function openSession(userId: string): Promise<string> {
   return row.id;
 }
 
-/** The user behind a live session, or null when it is unknown, revoked or expired. */
-export async function sessionUserId(sessionId: string): Promise<string | null> {
+/**
+ * The user behind a live session and when it was opened (removals from a team after that end the
+ * session's access to the team), or null when it is unknown, revoked or expired.
+ */
+export async function liveSession(
+  sessionId: string,
+): Promise<{ userId: string; openedAt: Date } | null> {
   const row = await UserSession.findOne({
     where: { id: sessionId, revokedAt: null, expiresAt: { [Op.gt]: new Date() } },
-    attributes: ["userId"],
+    attributes: ["userId", "createdAt"],
   });
-  return row?.userId ?? null;
+  return row ? { userId: row.userId, openedAt: row.createdAt } : null;
 }
 
 export async function revokeSession(sessionId: string): Promise<void> {
