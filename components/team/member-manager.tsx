@@ -27,6 +27,8 @@ export function MemberManager({
   removeAction: Action;
 }) {
   const [result, setResult] = useState<FormState>({});
+  /** The member whose role change was just refused: their select points at the message. */
+  const [refusedUserId, setRefusedUserId] = useState<string | null>(null);
   const [removing, setRemoving] = useState<TeamMember | null>(null);
   const [pending, startTransition] = useTransition();
   const opener = useRef<HTMLElement | null>(null);
@@ -61,15 +63,14 @@ export function MemberManager({
       <h2 id="members-heading" ref={heading} tabIndex={-1} className="mb-2 font-semibold">
         Members ({members.length})
       </h2>
-      <div data-testid="member-message">
+      <div id="member-message" data-testid="member-message">
         <FormMessage message={result.message} tone={result.ok ? "ok" : "error"} />
       </div>
       <div className="overflow-x-auto">
         <table className="w-full text-sm" aria-labelledby="members-heading">
           <thead className="muted text-left text-xs">
             <tr>
-              <th className="py-1 pr-3 font-medium">Name</th>
-              <th className="py-1 pr-3 font-medium">E-mail</th>
+              <th className="py-1 pr-3 font-medium">Name and e-mail</th>
               <th className="py-1 pr-3 font-medium">Role</th>
               <th className="py-1 pr-3 font-medium">Joined</th>
               <th className="py-1 font-medium">
@@ -84,9 +85,11 @@ export function MemberManager({
                 key={`${member.userId}:${member.role}`}
                 member={member}
                 isYou={member.userId === currentUserId}
+                refused={refusedUserId === member.userId}
                 pending={pending}
                 onSave={(role) =>
                   run(changeRoleAction, { teamId, userId: member.userId, role }, (outcome) => {
+                    setRefusedUserId(outcome.ok ? null : member.userId);
                     // A saved row is drawn afresh and loses the focus; a refused one keeps it.
                     if (outcome.ok) heading.current?.focus();
                   })
@@ -94,6 +97,7 @@ export function MemberManager({
                 onRemove={(button) => {
                   opener.current = button;
                   setResult({});
+                  setRefusedUserId(null);
                   setRemoving(member);
                 }}
               />
@@ -146,12 +150,15 @@ export function MemberManager({
 function MemberRow({
   member,
   isYou,
+  refused,
   pending,
   onSave,
   onRemove,
 }: {
   member: TeamMember;
   isYou: boolean;
+  /** Its last role change was refused: the select is marked and described by the message. */
+  refused: boolean;
   pending: boolean;
   onSave: (role: TeamRole) => void;
   onRemove: (button: HTMLButtonElement) => void;
@@ -162,10 +169,12 @@ function MemberRow({
   return (
     <tr data-testid="member-row" data-email={member.email}>
       <td className="py-1.5 pr-3">
-        {member.name}
-        {isYou ? <span className="muted"> (you)</span> : null}
+        <div className="font-medium">
+          {member.name}
+          {isYou ? <span className="muted font-normal"> (you)</span> : null}
+        </div>
+        <div className="muted text-xs break-all">{member.email}</div>
       </td>
-      <td className="py-1.5 pr-3">{member.email}</td>
       <td className="py-1.5 pr-3">
         <form
           className="flex items-center gap-2"
@@ -181,7 +190,9 @@ function MemberRow({
             id={selectId}
             value={role}
             onChange={(event) => setRole(event.target.value as TeamRole)}
-            className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1"
+            aria-invalid={refused || undefined}
+            aria-describedby={refused ? "member-message" : undefined}
+            className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1 aria-[invalid=true]:border-red-600"
           >
             {TEAM_ROLES.map((r) => (
               <option key={r} value={r}>
@@ -194,13 +205,14 @@ function MemberRow({
             variant="quiet"
             disabled={!changed || pending}
             aria-label={`Save the role of ${member.name}`}
+            className="disabled:opacity-50"
           >
             Save
           </Button>
         </form>
       </td>
       <td className="tabular py-1.5 pr-3 whitespace-nowrap">{member.joinedAt.slice(0, 10)}</td>
-      <td className="py-1.5 text-right">
+      <td className="py-1.5 text-right whitespace-nowrap">
         <Button
           type="button"
           variant="danger"

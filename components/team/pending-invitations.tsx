@@ -46,7 +46,7 @@ export function PendingInvitations({
       <h2 id="invitations-heading" ref={heading} tabIndex={-1} className="mt-6 mb-2 font-semibold">
         Invitations not yet accepted ({invitations.length})
       </h2>
-      <div data-testid="invitation-message">
+      <div id="invitation-message" data-testid="invitation-message">
         <FormMessage message={result.message} tone={result.ok ? "ok" : "error"} />
       </div>
       {invitations.length === 0 ? (

@@ -2,7 +2,7 @@
 // e-mailed to the person), and the rule that a team always keeps at least one lab lead.
 import "server-only";
 import type { Transaction } from "sequelize";
-import { AppError, notFound } from "@/lib/errors";
+import { AppError, forbidden, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
 import type { TeamRole } from "@/lib/auth/roles";
@@ -47,12 +47,23 @@ export async function fetchTeamMembers(actor: Actor, teamId: string): Promise<Te
  * and loads the member the change is about.
  */
 async function lockTeamAndMember(
+  actor: Actor,
   teamId: string,
   userId: string,
   transaction: Transaction,
 ): Promise<{ team: Team; membership: Membership; user: User }> {
   const team = await Team.findByPk(teamId, { transaction, lock: transaction.LOCK.UPDATE });
   if (!team) throw notFound();
+  // The actor's role was read at the start of the request; a lab lead demoted by another while this
+  // request waited for the lock must not act on the old role.
+  const own = await Membership.findOne({
+    where: { teamId, userId: actor.id },
+    attributes: ["role"],
+    transaction,
+  });
+  if (own?.role !== "lab_lead") {
+    throw forbidden("You are no longer a lab lead of this team, so nothing was changed.");
+  }
   const membership = await Membership.findOne({ where: { teamId, userId }, transaction });
   const user = membership ? await User.findByPk(userId, { transaction }) : null;
   if (!membership || !user) throw notFound("This person is not a member of this team.");
@@ -108,6 +119,7 @@ export async function changeMemberRole(
   authorize(actor, "team.manageMembers", { teamId: input.teamId });
   const outcome = await sequelize.transaction(async (transaction) => {
     const { team, membership, user } = await lockTeamAndMember(
+      actor,
       input.teamId,
       input.userId,
       transaction,
@@ -159,7 +171,7 @@ export async function removeMember(
 ): Promise<TeamMember> {
   authorize(actor, "team.manageMembers", { teamId: input.teamId });
   const { team, user, removed } = await sequelize.transaction(async (transaction) => {
-    const found = await lockTeamAndMember(input.teamId, input.userId, transaction);
+    const found = await lockTeamAndMember(actor, input.teamId, input.userId, transaction);
     await assertAnotherLabLead(
       actor,
       found.team,
