@@ -173,7 +173,7 @@ function MemberRow({
           {member.name}
           {isYou ? <span className="muted font-normal"> (you)</span> : null}
         </div>
-        <div className="muted text-xs break-all">{member.email}</div>
+        <div className="muted text-xs wrap-anywhere">{member.email}</div>
       </td>
       <td className="py-1.5 pr-3">
         <form

@@ -70,7 +70,7 @@ export function PendingInvitations({
             <tbody className="divide-line">
               {invitations.map((invitation) => (
                 <tr key={invitation.id} data-testid="invitation-row" data-email={invitation.email}>
-                  <td className="py-1.5 pr-3">{invitation.email}</td>
+                  <td className="py-1.5 pr-3 wrap-anywhere">{invitation.email}</td>
                   <td className="py-1.5 pr-3">{ROLE_LABELS[invitation.role]}</td>
                   <td className="tabular py-1.5 pr-3 whitespace-nowrap">
                     {invitation.sentAt.slice(0, 10)}

@@ -141,6 +141,10 @@ describe("roles and invitations on the team page", () => {
     await page.reload();
     await team.roleSelect(person.name).waitFor();
     expect(await team.roleSelect(person.name).inputValue()).toBe("supervisor");
+    // However many members and long addresses the test runs left, the page does not scroll sideways.
+    expect(
+      await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth),
+    ).toBe(true);
 
     const own = team.roleSelect(DEMO.labLead.name);
     await own.selectOption("chemist");

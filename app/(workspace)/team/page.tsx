@@ -40,7 +40,7 @@ export default async function TeamPage() {
         }
       />
       <div className="grid gap-5 lg:grid-cols-[1fr_20rem]">
-        <section className="panel p-4" aria-labelledby="members-heading">
+        <section className="panel min-w-0 p-4" aria-labelledby="members-heading">
           {manage ? (
             <>
               <MemberManager
@@ -78,7 +78,7 @@ export default async function TeamPage() {
                         {m.name}
                         {m.userId === actor.id ? <span className="muted"> (you)</span> : null}
                       </td>
-                      <td className="py-1.5 pr-3">{m.email}</td>
+                      <td className="py-1.5 pr-3 wrap-anywhere">{m.email}</td>
                       <td className="py-1.5 pr-3">{ROLE_LABELS[m.role]}</td>
                       <td className="tabular py-1.5 whitespace-nowrap">
                         {m.joinedAt.slice(0, 10)}
