@@ -3,7 +3,8 @@
 // Cancel focused first, Escape closes), and the member's open session gets 401 on its next request
 // for the team's records. The lead changes another member's role, is refused demoting themselves
 // as the only lab lead (the sentence shows in the live region), and resends and revokes an
-// invitation, whose link then says it was revoked. A chemist sees the list without any control.
+// invitation, whose link then says it was revoked (these in a team of the test's own). A chemist
+// sees the list without any control.
 // Screenshots go to test-output/e2e/.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { openBrowser, screenshot, type Session } from "./support/browser";
@@ -18,9 +19,16 @@ import {
   teamIdOf,
   uniqueEmail,
   type FreshAccount,
+  signedIn,
 } from "../integration/support/accounts";
+import { closeDb } from "../integration/support/database";
 import type { ApiClient } from "../integration/support/http-client";
 import { extractLinkToken, waitForMail } from "../integration/support/mailbox";
+import {
+  joinWithExistingAccount,
+  scratchTeam,
+  type ScratchTeam,
+} from "../integration/support/scratch-team";
 
 let leadBrowser: Session;
 let memberBrowser: Session;
@@ -35,6 +43,7 @@ beforeAll(async () => {
 
 afterAll(async () => {
   await Promise.all([leadBrowser?.close(), memberBrowser?.close()]);
+  await closeDb();
 });
 
 /** A request from inside the member's open page, with its session cookie, as the app's own code makes. */
@@ -83,6 +92,12 @@ describe("removing a member", () => {
     await team.goto();
     await team.memberRow(member.email).waitFor();
     await screenshot(leadBrowser.page, "team-management-1-lead-view");
+    // However many members and long addresses earlier tests left, the page does not scroll sideways.
+    expect(
+      await leadBrowser.page.evaluate(
+        () => document.documentElement.scrollWidth <= window.innerWidth,
+      ),
+    ).toBe(true);
 
     // Enter opens the confirmation with Cancel focused; Escape closes it and nothing happens.
     await team.pressEnterOn(team.removeButton(member.name));
@@ -123,12 +138,30 @@ describe("removing a member", () => {
   });
 });
 
+// In a team of the test's own, whose only lab lead is a fresh person: other tests invite more lab
+// leads into Flame Screening, and the demo lead must never be the one demoted.
 describe("roles and invitations on the team page", () => {
+  let scratch: ScratchTeam;
+
+  beforeAll(async () => {
+    scratch = await scratchTeam(leadApi);
+  });
+
   it("changes a member's role from the keyboard, and refuses the only lab lead's own demotion in the live region", async () => {
+    const { founder } = scratch;
     const person = await createAccountThroughInvitation(leadApi, { label: "e2e-role" });
+    await joinWithExistingAccount(
+      await signedIn(founder.email, founder.password),
+      scratch.teamId,
+      scratch.name,
+      person,
+    );
     const { page } = leadBrowser;
+    // The founder opens in the team where they are lab lead.
+    await signInAs(leadBrowser, founder.email, founder.password);
     const team = new TeamPage(page);
     await team.goto();
+    expect(await team.heading.textContent()).toBe(scratch.name);
     const select = team.roleSelect(person.name);
     expect(await select.inputValue()).toBe("chemist");
     expect(await team.saveRoleButton(person.name).isDisabled()).toBe(true);
@@ -141,25 +174,23 @@ describe("roles and invitations on the team page", () => {
     await page.reload();
     await team.roleSelect(person.name).waitFor();
     expect(await team.roleSelect(person.name).inputValue()).toBe("supervisor");
-    // However many members and long addresses the test runs left, the page does not scroll sideways.
-    expect(
-      await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth),
-    ).toBe(true);
 
-    const own = team.roleSelect(DEMO.labLead.name);
+    const own = team.roleSelect(founder.name);
     await own.selectOption("chemist");
-    await team.pressEnterOn(team.saveRoleButton(DEMO.labLead.name));
+    await team.pressEnterOn(team.saveRoleButton(founder.name));
     const refusal = team.memberMessage.getByRole("alert");
     await refusal
-      .getByText(`You are the only lab lead of ${FLAME_SCREENING}, so your role cannot change`, {
+      .getByText(`You are the only lab lead of ${scratch.name}, so your role cannot change`, {
         exact: false,
       })
       .waitFor();
+    expect(await own.getAttribute("aria-invalid")).toBe("true");
+    expect(await own.getAttribute("aria-describedby")).toBe("member-message");
     expect(await refusal.getAttribute("aria-live")).toBe("polite");
     await screenshot(page, "team-management-4-last-lead-refused");
     await page.reload();
-    await team.roleSelect(DEMO.labLead.name).waitFor();
-    expect(await team.roleSelect(DEMO.labLead.name).inputValue()).toBe("lab_lead");
+    await team.roleSelect(founder.name).waitFor();
+    expect(await team.roleSelect(founder.name).inputValue()).toBe("lab_lead");
     expect(leadBrowser.problems, leadBrowser.problems.join("\n")).toEqual([]);
   });
 
@@ -167,15 +198,17 @@ describe("roles and invitations on the team page", () => {
     const { page } = leadBrowser;
     const team = new TeamPage(page);
     const email = uniqueEmail("e2e-invitee");
+    await signInAs(leadBrowser, scratch.founder.email, scratch.founder.password);
     await team.goto();
     await page.getByLabel("E-mail", { exact: true }).fill(email);
     await page.getByRole("button", { name: "Send invitation" }).click();
     await team.invitationRow(email).waitFor();
-    const first = await waitForMail({ to: email, subject: /invited to Flame Screening/ });
+    const invitedTo = new RegExp(`invited to ${scratch.name}`);
+    const first = await waitForMail({ to: email, subject: invitedTo });
 
     await team.pressEnterOn(team.resendButton(email));
     await team.invitationMessage.getByText(`A new link is on its way to ${email}`).waitFor();
-    const second = await waitForMail({ to: email, subject: /invited to Flame Screening/, skip: 1 });
+    const second = await waitForMail({ to: email, subject: invitedTo, skip: 1 });
     expect(extractLinkToken(second.text, "/invitations/")).not.toBe(
       extractLinkToken(first.text, "/invitations/"),
     );
@@ -197,7 +230,7 @@ describe("roles and invitations on the team page", () => {
       .getByRole("heading", { name: "This invitation is not valid" })
       .waitFor();
     expect(await memberBrowser.page.getByTestId("invitation-closed").textContent()).toBe(
-      `This invitation is not valid any more: a lab lead of ${FLAME_SCREENING} revoked it. Ask them for a new one if you should still join.`,
+      `This invitation is not valid any more: a lab lead of ${scratch.name} revoked it. Ask them for a new one if you should still join.`,
     );
     await screenshot(memberBrowser.page, "team-management-6-revoked-link");
   });

@@ -2,7 +2,6 @@
 // (audited, e-mailed, effective on the member's next request, sessions and tokens of a removed member
 // refused with 401 for that team only), the rule that a team keeps a lab lead (in the service and in
 // the database), and resending and revoking invitations.
-import { randomBytes } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { APP_URL, ApiClient, type ApiReply, type ErrorBody } from "./support/http-client";
 import {
@@ -14,12 +13,12 @@ import {
   strongPassword,
   teamIdOf,
   uniqueEmail,
-  type FreshAccount,
   type Me,
 } from "./support/accounts";
 import { extractLinkToken, mailTo, waitForMail } from "./support/mailbox";
 import { appDb, auditEventsSince, auditMark, closeDb, db, userIdByEmail } from "./support/database";
 import { OUTSIDER, ensureOutsider } from "./support/outsider";
+import { joinWithExistingAccount, scratchTeam } from "./support/scratch-team";
 
 interface Member {
   userId: string;
@@ -80,44 +79,6 @@ async function leadCount(teamId: string): Promise<number> {
     [teamId],
   );
   return rows[0].n;
-}
-
-/**
- * A team of its own for the lab-lead rules, so the demo team's one lead is never at stake: a fresh
- * person (who joined Flame Screening as a chemist through an invitation) made its only lab lead.
- * The app has no way to create a team, hence the direct insert (as tests/integration/support/outsider.ts).
- */
-async function scratchTeam(): Promise<{ teamId: string; name: string; founder: FreshAccount }> {
-  const founder = await createAccountThroughInvitation(lead, { label: "scratch-lead" });
-  const name = `Team Test Bench ${randomBytes(3).toString("hex")}`;
-  const { rows } = await db().query<{ id: string }>(
-    "INSERT INTO teams (name) VALUES ($1) RETURNING id",
-    [name],
-  );
-  await db().query("INSERT INTO memberships (user_id, team_id, role) VALUES ($1, $2, 'lab_lead')", [
-    founder.userId,
-    rows[0].id,
-  ]);
-  return { teamId: rows[0].id, name, founder };
-}
-
-/** Invites an existing account into a team through the API and accepts with its password. */
-async function joinWithExistingAccount(
-  inviter: ApiClient,
-  teamId: string,
-  teamName: string,
-  person: FreshAccount,
-  role: "chemist" | "supervisor" | "lab_lead" = "chemist",
-): Promise<void> {
-  const skip = mailTo(person.email).filter((m) => m.subject.includes(teamName)).length;
-  const invited = await inviter.post("/api/invitations", { teamId, email: person.email, role });
-  expect(invited.status, JSON.stringify(invited.body)).toBe(201);
-  const mail = await waitForMail({ to: person.email, subject: new RegExp(teamName), skip });
-  const accepted = await new ApiClient().post("/api/invitations/accept", {
-    token: extractLinkToken(mail.text, "/invitations/"),
-    password: person.password,
-  });
-  expect(accepted.status, JSON.stringify(accepted.body)).toBe(201);
 }
 
 describe("the member list", () => {
@@ -219,7 +180,7 @@ describe("changing a member's role", () => {
 
 describe("a team always keeps a lab lead", () => {
   it("refuses the only lab lead's demotion and removal with a sentence, and allows them once another leads", async () => {
-    const { teamId, name, founder } = await scratchTeam();
+    const { teamId, name, founder } = await scratchTeam(lead);
     const founderClient = await signedIn(founder.email, founder.password);
     const mark = await auditMark();
 
@@ -252,7 +213,7 @@ describe("a team always keeps a lab lead", () => {
   });
 
   it("keeps one of two lab leads who demote each other at the same moment", async () => {
-    const { teamId, name, founder } = await scratchTeam();
+    const { teamId, name, founder } = await scratchTeam(lead);
     const founderClient = await signedIn(founder.email, founder.password);
     const other = await createAccountThroughInvitation(lead, { label: "rival-lead" });
     await joinWithExistingAccount(founderClient, teamId, name, other, "lab_lead");
@@ -269,7 +230,7 @@ describe("a team always keeps a lab lead", () => {
   });
 
   it("is guarded by the database too: the app's role cannot demote or delete a team's last lab lead", async () => {
-    const { teamId, founder } = await scratchTeam();
+    const { teamId, founder } = await scratchTeam(lead);
     const plain = await createAccountThroughInvitation(lead, { label: "db-guard" });
     await db().query(
       "INSERT INTO memberships (user_id, team_id, role) VALUES ($1, $2, 'chemist')",
@@ -299,7 +260,7 @@ describe("a team always keeps a lab lead", () => {
 
 describe("removing a member through the API", () => {
   it("ends their session's and token's access to that team at once (401), leaves their other team, is audited and e-mailed", async () => {
-    const { teamId: otherTeamId, name: otherTeamName, founder } = await scratchTeam();
+    const { teamId: otherTeamId, name: otherTeamName, founder } = await scratchTeam(lead);
     const person = await createAccountThroughInvitation(lead, { label: "removed-api" });
     await joinWithExistingAccount(
       await signedIn(founder.email, founder.password),
