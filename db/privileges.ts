@@ -27,6 +27,8 @@ export const APP_TABLE_PRIVILEGES: Readonly<Record<string, readonly TablePrivile
   access_tokens: FULL,
   user_sessions: FULL,
   sign_in_attempts: READ_APPEND,
+  // Removals from teams are history: sessions and tokens issued before one are refused its team.
+  membership_removals: READ_APPEND,
   // The append-only trail.
   audit_events: READ_APPEND,
   // The line library: drafts are edited (publishing deletes a draft's retired rows); published

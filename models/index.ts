@@ -7,6 +7,7 @@ import { Invitation } from "./invitation";
 import { Line } from "./line";
 import { LineRelease } from "./line-release";
 import { Membership } from "./membership";
+import { MembershipRemoval } from "./membership-removal";
 import { Notebook } from "./notebook";
 import { PasswordResetToken } from "./password-reset-token";
 import { Run } from "./run";
@@ -22,6 +23,7 @@ Membership.belongsTo(User, { foreignKey: "userId", as: "user" });
 Team.hasMany(Membership, { foreignKey: "teamId", as: "memberships" });
 Membership.belongsTo(Team, { foreignKey: "teamId", as: "team" });
 Invitation.belongsTo(Team, { foreignKey: "teamId", as: "team" });
+MembershipRemoval.belongsTo(Team, { foreignKey: "teamId", as: "team" });
 Invitation.belongsTo(User, { foreignKey: "invitedById", as: "invitedBy" });
 AccessToken.belongsTo(User, { foreignKey: "userId", as: "user" });
 PasswordResetToken.belongsTo(User, { foreignKey: "userId", as: "user" });
@@ -71,6 +73,7 @@ export {
   Line,
   LineRelease,
   Membership,
+  MembershipRemoval,
   Notebook,
   PasswordResetToken,
   Run,

@@ -2,7 +2,7 @@
 // lands in the URL, so a filtered trail can be shared as a link; errors sit beside their field.
 import Link from "next/link";
 import type { FieldErrors } from "@/lib/errors";
-import type { TeamMember } from "@/lib/services/teams";
+import type { TeamMember } from "@/lib/services/team-members";
 import { entityLabel, shortId } from "./audit-labels";
 
 const inputClass =

@@ -12,6 +12,11 @@ export interface Actor {
   email: string;
   name: string;
   memberships: TeamMembership[];
+  /**
+   * Teams a lab lead removed the person from after the session or access token of this request was
+   * issued (and that they have not rejoined): that credential gets 401 for those teams' records.
+   */
+  removedFrom?: readonly string[];
 }
 
 export function roleIn(actor: Actor, teamId: string): TeamRole | undefined {

@@ -1,7 +1,7 @@
 // The one policy: who may do what. Every service asks `authorize` (or `can`) before it acts.
 // A person outside a team gets "not found" for its resources, never "forbidden", so that the
 // existence of another team's data is not revealed.
-import { notFound, forbidden } from "../errors";
+import { AppError, notFound, forbidden } from "../errors";
 import { roleIn, type Actor } from "./actor";
 import type { TeamRole } from "./roles";
 
@@ -49,12 +49,27 @@ export function can(actor: Actor | null, action: Action, resource: Resource): bo
   return (TEAM_ACTIONS[action as TeamAction] as readonly TeamRole[]).includes(role);
 }
 
-/** Throws not-found for outsiders and forbidden for members without the right role. */
+/**
+ * Throws not-found for outsiders and forbidden for members without the right role; a person removed
+ * from the team since this request's session or token was issued gets 401 with the reason, so the
+ * credential visibly stops working for that team (it still works for their other teams).
+ */
 export function authorize(actor: Actor, action: Action, resource: Resource): void {
   if (can(actor, action, resource)) return;
-  if ("teamId" in resource && !roleIn(actor, resource.teamId)) throw notFound();
+  if ("teamId" in resource && !roleIn(actor, resource.teamId)) {
+    if (actor.removedFrom?.includes(resource.teamId)) throw removedFromTeam();
+    throw notFound();
+  }
   if ("userId" in resource && resource.userId !== actor.id) throw notFound();
   throw forbidden();
+}
+
+function removedFromTeam(): AppError {
+  return new AppError(
+    "unauthenticated",
+    "A lab lead removed you from this team, so this session or access token no longer opens its records. " +
+      "Your other teams are not affected; ask a lab lead of this team if you need access again.",
+  );
 }
 
 export const ROLES_FOR: Readonly<Record<TeamAction, readonly TeamRole[]>> = TEAM_ACTIONS;

@@ -9,6 +9,8 @@ export function invitationMail(input: {
   role: TeamRole;
   inviterName: string;
   token: string;
+  /** Sent again with a fresh link: the link of the earlier message no longer works. */
+  resent?: boolean;
 }) {
   const link = `${env().appUrl}/invitations/${input.token}`;
   return {
@@ -16,6 +18,52 @@ export function invitationMail(input: {
     text:
       `${input.inviterName} invites you to join ${input.teamName} as ${ROLE_LABELS[input.role].toLowerCase()}.\n\n` +
       `Open this link to set your password and join (valid for 7 days):\n${link}` +
+      (input.resent
+        ? "\n\nThis message replaces an earlier invitation: the link in the earlier message no longer works."
+        : "") +
+      signature,
+  };
+}
+
+export function invitationRevokedMail(input: { teamName: string; revokerName: string }) {
+  return {
+    subject: `Your invitation to ${input.teamName} was revoked`,
+    text:
+      `${input.revokerName} revoked the invitation to join ${input.teamName} on Emberline; ` +
+      `its link no longer works.\n\nIf you think you should still join, ask a lab lead of the team for a new invitation.` +
+      signature,
+  };
+}
+
+export function memberRoleChangedMail(input: {
+  name: string;
+  teamName: string;
+  from: TeamRole;
+  to: TeamRole;
+  changedByName: string;
+}) {
+  return {
+    subject: `Your role in ${input.teamName} is now ${ROLE_LABELS[input.to].toLowerCase()}`,
+    text:
+      `Hello ${input.name},\n\n${input.changedByName} changed your role in ${input.teamName} from ` +
+      `${ROLE_LABELS[input.from].toLowerCase()} to ${ROLE_LABELS[input.to].toLowerCase()}. ` +
+      `It applies from your next request, on every signed-in browser and access token.` +
+      signature,
+  };
+}
+
+export function memberRemovedMail(input: {
+  name: string;
+  teamName: string;
+  removedByName: string;
+}) {
+  return {
+    subject: `You were removed from ${input.teamName} on Emberline`,
+    text:
+      `Hello ${input.name},\n\n${input.removedByName} removed you from ${input.teamName}. ` +
+      `Your signed-in sessions and access tokens no longer open its notebooks, instruments, line table ` +
+      `or audit trail; your other teams are not affected. What you recorded in the team stays in its records.\n\n` +
+      `If you think this is a mistake, ask a lab lead of ${input.teamName}.` +
       signature,
   };
 }

@@ -24,6 +24,7 @@ import { passwordResetMail } from "@/lib/mail/templates";
 import {
   AccessToken,
   Membership,
+  MembershipRemoval,
   PasswordResetToken,
   SignInAttempt,
   Team,
@@ -186,20 +187,39 @@ export async function signIn(input: {
   return (await loadActor(user.id))!;
 }
 
-export async function loadActor(userId: string): Promise<Actor | null> {
-  const user = await User.findByPk(userId, {
-    attributes: ["id", "email", "name"],
-    include: [
-      {
-        model: Membership,
-        as: "memberships",
-        attributes: ["teamId", "role"],
-        include: [{ model: Team, as: "team", attributes: ["id", "name"] }],
-      },
-    ],
-  });
+/**
+ * The person with their memberships as they are now: read on every request, so a removal or a role
+ * change takes effect on the very next one. With `credentialIssuedAt` (the session's or access
+ * token's creation), also the teams the person was removed from since then.
+ */
+export async function loadActor(
+  userId: string,
+  options: { credentialIssuedAt?: Date } = {},
+): Promise<Actor | null> {
+  const issuedAt = options.credentialIssuedAt;
+  const [user, removals] = await Promise.all([
+    User.findByPk(userId, {
+      attributes: ["id", "email", "name"],
+      include: [
+        {
+          model: Membership,
+          as: "memberships",
+          attributes: ["teamId", "role"],
+          include: [{ model: Team, as: "team", attributes: ["id", "name"] }],
+        },
+      ],
+    }),
+    issuedAt
+      ? MembershipRemoval.findAll({
+          where: { userId, removedAt: { [Op.gte]: issuedAt } },
+          attributes: ["teamId"],
+        })
+      : Promise.resolve([]),
+  ]);
   if (!user) return null;
   const memberships = (user.get("memberships") as (Membership & { team: Team })[]) ?? [];
+  const memberOf = new Set(memberships.map((m) => m.teamId));
+  const removedFrom = [...new Set(removals.map((r) => r.teamId))].filter((t) => !memberOf.has(t));
   return {
     id: user.id,
     email: user.email,
@@ -207,6 +227,7 @@ export async function loadActor(userId: string): Promise<Actor | null> {
     memberships: memberships
       .map((m) => ({ teamId: m.teamId, teamName: m.team.name, role: m.role }))
       .sort((a, b) => a.teamName.localeCompare(b.teamName)),
+    ...(removedFrom.length ? { removedFrom } : {}),
   };
 }
 
@@ -219,17 +240,21 @@ interface SessionActorRow {
   team_id: string | null;
   team_name: string | null;
   role: Actor["memberships"][number]["role"] | null;
+  removed_team_ids: string[];
 }
 
 /**
- * The person behind a live server-side session (not revoked, not expired) with their teams, in one
- * statement: this runs on every cookie-authenticated request, so the session check and the person's
- * memberships share a round trip, and the password hash is never read.
+ * The person behind a live server-side session (not revoked, not expired) with their teams and the
+ * teams they were removed from since it opened, in one statement: this runs on every
+ * cookie-authenticated request, so the session check and the person's memberships share a round
+ * trip, and the password hash is never read.
  */
 export async function loadSessionActor(sessionId: string): Promise<Actor | null> {
   if (!UUID.test(sessionId)) return null;
   const rows = await sequelize.query<SessionActorRow>(
-    `SELECT u.id, u.email, u.name, m.team_id, t.name AS team_name, m.role
+    `SELECT u.id, u.email, u.name, m.team_id, t.name AS team_name, m.role,
+            ARRAY(SELECT DISTINCT r.team_id FROM membership_removals r
+                   WHERE r.user_id = u.id AND r.removed_at >= s.created_at) AS removed_team_ids
        FROM user_sessions s
        JOIN users u ON u.id = s.user_id
        LEFT JOIN memberships m ON m.user_id = u.id
@@ -239,15 +264,14 @@ export async function loadSessionActor(sessionId: string): Promise<Actor | null>
   );
   if (!rows.length) return null;
   const { id, email, name } = rows[0];
-  return {
-    id,
-    email,
-    name,
-    memberships: rows
-      .filter((r) => r.team_id !== null && r.team_name !== null && r.role !== null)
-      .map((r) => ({ teamId: r.team_id!, teamName: r.team_name!, role: r.role! }))
-      .sort((a, b) => a.teamName.localeCompare(b.teamName)),
-  };
+  const memberships = rows
+    .filter((r) => r.team_id !== null && r.team_name !== null && r.role !== null)
+    .map((r) => ({ teamId: r.team_id!, teamName: r.team_name!, role: r.role! }))
+    .sort((a, b) => a.teamName.localeCompare(b.teamName));
+  // Teams a lab lead removed the person from since this session opened (and not rejoined): see loadActor.
+  const memberOf = new Set(memberships.map((m) => m.teamId));
+  const removedFrom = rows[0].removed_team_ids.filter((teamId) => !memberOf.has(teamId));
+  return { id, email, name, memberships, ...(removedFrom.length ? { removedFrom } : {}) };
 }
 
 /** Resolves a personal access token to its owner, or null when unknown or revoked. */
@@ -260,7 +284,7 @@ export async function actorFromAccessToken(token: string): Promise<Actor | null>
   if (!row.lastUsedAt || Date.now() - row.lastUsedAt.getTime() > 60_000) {
     await row.update({ lastUsedAt: new Date() });
   }
-  return loadActor(row.userId);
+  return loadActor(row.userId, { credentialIssuedAt: row.createdAt });
 }
 
 function assertPasswordAcceptable(password: string, email?: string, field = "password"): void {

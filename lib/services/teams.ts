@@ -1,6 +1,7 @@
-// Teams and their members; invitations by e-mail and joining through an invitation link.
+// Invitations by e-mail (send, resend, revoke, the pending list) and joining a team through an
+// invitation link. The members themselves are in team-members.ts.
 import "server-only";
-import { Op } from "sequelize";
+import type { Transaction } from "sequelize";
 import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
@@ -8,55 +9,52 @@ import type { TeamRole } from "@/lib/auth/roles";
 import { hashPassword } from "@/lib/auth/password";
 import { hashToken, newSecretToken } from "@/lib/auth/secret-token";
 import { sendMail } from "@/lib/mail/send-mail";
-import { invitationMail } from "@/lib/mail/templates";
+import { invitationMail, invitationRevokedMail } from "@/lib/mail/templates";
 import { Invitation, Membership, Team, User, sequelize } from "@/models";
 import { assertPasswordAcceptable, checkPasswordThrottled, normaliseEmail } from "./accounts";
 import { recordAudit } from "./audit";
 
 const INVITATION_DAYS = 7;
-
-export interface TeamMember {
-  userId: string;
-  name: string;
-  email: string;
-  role: TeamRole;
-}
+/** The pending list is for people, not an export: the newest this many. */
+const PENDING_LIST_LIMIT = 200;
 
 export interface PendingInvitation {
   id: string;
   email: string;
   role: TeamRole;
+  /** Who sent it (last). */
+  invitedByName: string;
+  /** When it was last sent (ISO time): a resend renews it. */
+  sentAt: string;
   expiresAt: string;
+  /** Past its expiry: its link no longer works, but a resend renews it. */
+  expired: boolean;
 }
 
-export async function fetchTeamMembers(actor: Actor, teamId: string): Promise<TeamMember[]> {
-  authorize(actor, "team.view", { teamId });
-  const rows = await Membership.findAll({
-    where: { teamId },
-    include: [{ model: User, as: "user", attributes: ["id", "name", "email"] }],
-  });
-  return rows
-    .map((m) => {
-      const user = m.get("user") as User;
-      return { userId: user.id, name: user.name, email: user.email, role: m.role };
-    })
-    .sort((a, b) => a.name.localeCompare(b.name));
-}
-
+/** Invitations neither accepted nor revoked, newest first: expired ones too, so they can be resent. */
 export async function fetchPendingInvitations(
   actor: Actor,
   teamId: string,
 ): Promise<PendingInvitation[]> {
   authorize(actor, "team.manageMembers", { teamId });
   const rows = await Invitation.findAll({
-    where: { teamId, acceptedAt: null, revokedAt: null, expiresAt: { [Op.gt]: new Date() } },
-    order: [["createdAt", "DESC"]],
+    where: { teamId, acceptedAt: null, revokedAt: null },
+    include: [{ model: User, as: "invitedBy", attributes: ["name"] }],
+    order: [
+      ["updatedAt", "DESC"],
+      ["id", "ASC"],
+    ],
+    limit: PENDING_LIST_LIMIT,
   });
+  const now = Date.now();
   return rows.map((r) => ({
     id: r.id,
     email: r.email,
     role: r.role,
+    invitedByName: (r.get("invitedBy") as User | null)?.name ?? "",
+    sentAt: r.updatedAt.toISOString(),
     expiresAt: r.expiresAt.toISOString(),
+    expired: r.expiresAt.getTime() < now,
   }));
 }
 
@@ -118,33 +116,68 @@ export async function inviteMember(
   return { id: invitation.id };
 }
 
-async function findOpenInvitation(token: string) {
+/** Why a link does not open: each state has its own sentence (see `closedInvitationMessage`). */
+export type ClosedInvitationState = "revoked" | "used" | "expired" | "unknown";
+
+type InvitationLookup =
+  | { state: "open"; invitation: Invitation & { team: Team } }
+  | { state: ClosedInvitationState; teamName?: string; expiresAt?: Date };
+
+/**
+ * The invitation behind a link. A resent invitation has a new token, so the earlier link finds
+ * nothing ("unknown") — the same answer as a made-up token.
+ */
+async function lookUpInvitation(token: string): Promise<InvitationLookup> {
   const invitation = await Invitation.findOne({
     where: { tokenHash: hashToken(token) },
     include: [{ model: Team, as: "team" }],
   });
-  if (
-    !invitation ||
-    invitation.acceptedAt ||
-    invitation.revokedAt ||
-    invitation.expiresAt.getTime() < Date.now()
-  ) {
-    return null;
+  if (!invitation) return { state: "unknown" };
+  const teamName = (invitation.get("team") as Team).name;
+  if (invitation.revokedAt) return { state: "revoked", teamName };
+  if (invitation.acceptedAt) return { state: "used", teamName };
+  if (invitation.expiresAt.getTime() < Date.now()) {
+    return { state: "expired", teamName, expiresAt: invitation.expiresAt };
   }
-  return invitation;
+  return { state: "open", invitation: invitation as Invitation & { team: Team } };
+}
+
+/** The sentence a closed invitation link answers with, on its page and from the accept API. */
+export function closedInvitationMessage(lookup: {
+  state: ClosedInvitationState;
+  teamName?: string;
+  expiresAt?: Date;
+}): string {
+  const team = lookup.teamName ?? "the team";
+  switch (lookup.state) {
+    case "revoked":
+      return `This invitation is not valid any more: a lab lead of ${team} revoked it. Ask them for a new one if you should still join.`;
+    case "used":
+      return `This invitation is not valid any more: it has already been used to join ${team}. Sign in instead.`;
+    case "expired":
+      return `This invitation is not valid any more: it expired on ${lookup.expiresAt?.toISOString().slice(0, 10)} (UTC). Ask a lab lead of ${team} to send it again.`;
+    case "unknown":
+      return "This invitation is not valid any more. If it was sent to you again, use the link in the newest message; otherwise ask your lab lead for a new one.";
+  }
 }
 
 export async function describeInvitation(
   token: string,
-): Promise<{ email: string; teamName: string; role: TeamRole; hasAccount: boolean } | null> {
-  const invitation = await findOpenInvitation(token);
-  if (!invitation) return null;
+): Promise<
+  | { state: "open"; email: string; teamName: string; role: TeamRole; hasAccount: boolean }
+  | { state: ClosedInvitationState; message: string }
+> {
+  const lookup = await lookUpInvitation(token);
+  if (lookup.state !== "open")
+    return { state: lookup.state, message: closedInvitationMessage(lookup) };
+  const { invitation } = lookup;
   const user = await User.findOne({
     where: sequelize.where(sequelize.fn("lower", sequelize.col("email")), invitation.email),
   });
   return {
+    state: "open",
     email: invitation.email,
-    teamName: (invitation.get("team") as Team).name,
+    teamName: invitation.team.name,
     role: invitation.role,
     hasAccount: Boolean(user),
   };
@@ -158,13 +191,9 @@ export async function acceptInvitation(input: {
   /** The client's address, for the password throttle when the account exists. */
   address: string;
 }): Promise<string> {
-  const invitation = await findOpenInvitation(input.token);
-  if (!invitation) {
-    throw new AppError(
-      "validation",
-      "This invitation is not valid any more. Ask your lab lead for a new one.",
-    );
-  }
+  const lookup = await lookUpInvitation(input.token);
+  if (lookup.state !== "open") throw new AppError("validation", closedInvitationMessage(lookup));
+  const { invitation } = lookup;
   let user = await User.findOne({
     where: sequelize.where(sequelize.fn("lower", sequelize.col("email")), invitation.email),
   });
@@ -190,11 +219,26 @@ export async function acceptInvitation(input: {
   }
   const passwordHash = user ? null : await hashPassword(input.password);
   return sequelize.transaction(async (transaction) => {
+    // Claimed only while still open under this very token: a revoke or a resend that landed after
+    // the lookup above wins.
     const [claimed] = await Invitation.update(
       { acceptedAt: new Date() },
-      { where: { id: invitation.id, acceptedAt: null }, transaction },
+      {
+        where: {
+          id: invitation.id,
+          tokenHash: invitation.tokenHash,
+          acceptedAt: null,
+          revokedAt: null,
+        },
+        transaction,
+      },
     );
-    if (claimed !== 1) throw new AppError("conflict", "This invitation has already been used.");
+    if (claimed !== 1) {
+      throw new AppError(
+        "conflict",
+        "This invitation was used, revoked or sent again a moment ago. Open the newest invitation link, or ask your lab lead.",
+      );
+    }
     if (!user) {
       user = await User.create(
         { email: invitation.email, name: input.name!.trim(), passwordHash: passwordHash! },
@@ -229,4 +273,134 @@ export async function acceptInvitation(input: {
     );
     return user.id;
   });
+}
+
+/** Loads an invitation for a lab lead's change, locked, and says why it cannot change any more. */
+async function lockOpenInvitation(
+  actor: Actor,
+  invitationId: string,
+  transaction: Transaction,
+): Promise<Invitation & { team: Team }> {
+  const invitation = await Invitation.findByPk(invitationId, {
+    include: [{ model: Team, as: "team", required: true }],
+    transaction,
+    lock: { level: transaction.LOCK.UPDATE, of: Invitation },
+  });
+  if (!invitation) throw notFound("No such invitation.");
+  authorize(actor, "team.manageMembers", { teamId: invitation.teamId });
+  if (invitation.acceptedAt) {
+    throw new AppError(
+      "conflict",
+      `${invitation.email} already accepted this invitation and is a member now: change their role or remove them from the team instead.`,
+    );
+  }
+  if (invitation.revokedAt) {
+    throw new AppError(
+      "conflict",
+      `The invitation to ${invitation.email} was already revoked. Send a new invitation if they should join.`,
+    );
+  }
+  return invitation as Invitation & { team: Team };
+}
+
+/**
+ * Sends an invitation again with a fresh link valid for another 7 days (lab leads only); the
+ * earlier link stops working, because only the new token's hash is kept. Expired invitations
+ * can be resent too.
+ */
+export async function resendInvitation(
+  actor: Actor,
+  invitationId: string,
+): Promise<PendingInvitation> {
+  const token = newSecretToken();
+  const invitation = await sequelize.transaction(async (transaction) => {
+    const found = await lockOpenInvitation(actor, invitationId, transaction);
+    const before = {
+      email: found.email,
+      role: found.role,
+      expiresAt: found.expiresAt.toISOString(),
+    };
+    await found.update(
+      {
+        tokenHash: hashToken(token),
+        expiresAt: new Date(Date.now() + INVITATION_DAYS * 86_400_000),
+        invitedById: actor.id,
+      },
+      { transaction },
+    );
+    await recordAudit(
+      {
+        actorId: actor.id,
+        teamId: found.teamId,
+        action: "invitation.resend",
+        entity: "invitation",
+        entityId: found.id,
+        before,
+        after: { email: found.email, role: found.role, expiresAt: found.expiresAt.toISOString() },
+      },
+      transaction,
+    );
+    return found;
+  });
+  try {
+    await sendMail({
+      to: invitation.email,
+      ...invitationMail({
+        teamName: invitation.team.name,
+        role: invitation.role,
+        inviterName: actor.name,
+        token,
+        resent: true,
+      }),
+    });
+  } catch (error) {
+    console.error("[emberline] A resent invitation could not be mailed:", error);
+    throw new AppError(
+      "unavailable",
+      `The invitation to ${invitation.email} has a new link, but the mail server did not take the message, so it was not delivered. Resend it again in a moment.`,
+      { retryAfterSeconds: 15 },
+    );
+  }
+  return {
+    id: invitation.id,
+    email: invitation.email,
+    role: invitation.role,
+    invitedByName: actor.name,
+    sentAt: invitation.updatedAt.toISOString(),
+    expiresAt: invitation.expiresAt.toISOString(),
+    expired: false,
+  };
+}
+
+/** Revokes an invitation (lab leads only): its link answers that it was revoked; the invitee is told. */
+export async function revokeInvitation(
+  actor: Actor,
+  invitationId: string,
+): Promise<{ email: string }> {
+  const invitation = await sequelize.transaction(async (transaction) => {
+    const found = await lockOpenInvitation(actor, invitationId, transaction);
+    await found.update({ revokedAt: new Date() }, { transaction });
+    await recordAudit(
+      {
+        actorId: actor.id,
+        teamId: found.teamId,
+        action: "invitation.revoke",
+        entity: "invitation",
+        entityId: found.id,
+        before: { email: found.email, role: found.role, expiresAt: found.expiresAt.toISOString() },
+      },
+      transaction,
+    );
+    return found;
+  });
+  try {
+    await sendMail({
+      to: invitation.email,
+      ...invitationRevokedMail({ teamName: invitation.team.name, revokerName: actor.name }),
+    });
+  } catch (error) {
+    // The revoke is committed and the link refuses already; the notice is a courtesy.
+    console.error("[emberline] The revoked-invitation mail could not be sent:", error);
+  }
+  return { email: invitation.email };
 }

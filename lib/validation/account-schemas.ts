@@ -28,6 +28,19 @@ export const invitationSchema = z.object({
   role: z.enum(TEAM_ROLES, { error: "Choose a role." }),
 });
 
+/** PATCH /api/teams/:id/members/:userId: the member's new role. */
+export const memberRoleSchema = z.object({
+  role: z.enum(TEAM_ROLES, { error: "Choose a role: chemist, supervisor or lab lead." }),
+});
+
+/** The team page's forms name the team and the member (or invitation) in hidden fields. */
+export const memberFormSchema = z.object({
+  teamId: z.uuid("Choose a team."),
+  userId: z.uuid("Choose a member."),
+});
+export const memberRoleFormSchema = memberFormSchema.extend(memberRoleSchema.shape);
+export const invitationFormSchema = z.object({ invitationId: z.uuid("Choose an invitation.") });
+
 export const acceptInvitationSchema = z.object({
   token: text().min(10),
   name: text().trim().max(120).optional(),

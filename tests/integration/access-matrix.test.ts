@@ -9,7 +9,9 @@ import {
 } from "./support/http-client";
 import {
   ARC_AND_SPARK,
+  DEMO,
   FLAME_SCREENING,
+  createAccountThroughInvitation,
   signInDemo,
   signedIn,
   strongPassword,
@@ -17,7 +19,7 @@ import {
   uniqueEmail,
 } from "./support/accounts";
 import { OUTSIDER, ensureOutsider } from "./support/outsider";
-import { closeDb } from "./support/database";
+import { closeDb, userIdByEmail } from "./support/database";
 
 const PRINCIPALS = ["anonymous", "chemist", "supervisor", "labLead", "outsider"] as const;
 type Principal = (typeof PRINCIPALS)[number];
@@ -127,6 +129,52 @@ const CASES: RouteCase[] = [
     expected: { anonymous: 401, chemist: 404, supervisor: 404, labLead: 404, outsider: 201 },
   },
   {
+    route: "GET /api/teams/:id/members (Flame Screening)",
+    method: "GET",
+    request: async (ctx) => ({ path: `/api/teams/${ctx.flameTeamId}/members` }),
+    expected: { anonymous: 401, chemist: 200, supervisor: 200, labLead: 200, outsider: 404 },
+  },
+  {
+    route: "GET /api/teams/:id/invitations (Flame Screening)",
+    method: "GET",
+    request: async (ctx) => ({ path: `/api/teams/${ctx.flameTeamId}/invitations` }),
+    expected: { anonymous: 401, chemist: 403, supervisor: 403, labLead: 200, outsider: 404 },
+  },
+  {
+    route: "PATCH /api/teams/:id/members/:userId (the demo chemist, to the role they have)",
+    method: "PATCH",
+    request: async (ctx) => ({
+      path: `/api/teams/${ctx.flameTeamId}/members/${await userIdByEmail(DEMO.chemist.email)}`,
+      json: { role: "chemist" },
+    }),
+    expected: { anonymous: 401, chemist: 403, supervisor: 403, labLead: 200, outsider: 404 },
+  },
+  {
+    route: "DELETE /api/teams/:id/members/:userId (a new member of Flame Screening)",
+    method: "DELETE",
+    request: async (ctx) => {
+      const person = await createAccountThroughInvitation(await ctx.client("labLead"), {
+        label: "matrix-remove",
+      });
+      return { path: `/api/teams/${ctx.flameTeamId}/members/${person.userId}` };
+    },
+    expected: { anonymous: 401, chemist: 403, supervisor: 403, labLead: 204, outsider: 404 },
+  },
+  {
+    route: "POST /api/invitations/:id/resend (an invitation into Flame Screening)",
+    method: "POST",
+    request: async (ctx) => ({
+      path: `/api/invitations/${await matrixInvitationId(ctx)}/resend`,
+    }),
+    expected: { anonymous: 401, chemist: 403, supervisor: 403, labLead: 200, outsider: 404 },
+  },
+  {
+    route: "DELETE /api/invitations/:id (an invitation into Flame Screening)",
+    method: "DELETE",
+    request: async (ctx) => ({ path: `/api/invitations/${await matrixInvitationId(ctx)}` }),
+    expected: { anonymous: 401, chemist: 403, supervisor: 403, labLead: 204, outsider: 404 },
+  },
+  {
     route: "POST /api/invitations/accept with an unknown token",
     method: "POST",
     request: async () => ({
@@ -199,6 +247,18 @@ const CASES: RouteCase[] = [
     fresh: true,
   },
 ];
+
+/** A fresh invitation into Flame Screening by the demo lab lead, for one row. */
+async function matrixInvitationId(ctx: Context): Promise<string> {
+  const lead = await ctx.client("labLead");
+  const reply = await lead.post<{ id: string }>("/api/invitations", {
+    teamId: ctx.flameTeamId,
+    email: uniqueEmail("matrix-invitation"),
+    role: "chemist",
+  });
+  expect(reply.status, JSON.stringify(reply.body)).toBe(201);
+  return reply.body.id;
+}
 
 let matrixInstrument: Promise<string> | undefined;
 

@@ -60,6 +60,11 @@ const JSON_ROUTES: JsonRoute[] = [
   { method: "POST", path: "/api/password-reset/confirm", fields: ["token", "password"] },
   { method: "POST", path: "/api/invitations", fields: ["teamId", "email", "role"] },
   { method: "POST", path: "/api/invitations/accept", fields: ["token", "name", "password"] },
+  // Mutations of members and invitations only ever name odd ids (every ":id" is replaced).
+  { method: "PATCH", path: "/api/teams/:id/members/:id", fields: ["role"] },
+  { method: "DELETE", path: "/api/teams/:id/members/:id", fields: [] },
+  { method: "POST", path: "/api/invitations/:id/resend", fields: [] },
+  { method: "DELETE", path: "/api/invitations/:id", fields: [] },
   { method: "POST", path: "/api/tokens", fields: ["name"], onlyInvalid: tokenCreateSchema },
   { method: "DELETE", path: "/api/tokens/:id", fields: [] },
   { method: "POST", path: "/api/notebooks", fields: ["teamId", "title"] },
@@ -209,6 +214,8 @@ const QUERY_ROUTES: QueryRoute[] = [
   { path: "/api/lines/:id/history", keys: [] },
   { path: "/api/review-queue", keys: ["teamId"] },
   { path: "/api/teams", keys: ["teamId"] },
+  { path: "/api/teams/:id/members", keys: [], realId: "team" },
+  { path: "/api/teams/:id/invitations", keys: [], realId: "team" },
   { path: "/api/me", keys: [] },
   { path: "/api/mail", keys: ["to", "limit"] },
   { path: "/api/tokens", keys: [] },
@@ -322,7 +329,7 @@ describe("fuzz: JSON routes", () => {
     await fc.assert(
       fc.asyncProperty(routeCase, async ({ route, id, who, body, contentType }) => {
         cases++;
-        const path = route.path.replace(":id", id);
+        const path = route.path.replaceAll(":id", id);
         const rawBody = "raw" in body ? body.raw : JSON.stringify(body.json);
         const reply = await clients[who].request(route.method, path, {
           rawBody,

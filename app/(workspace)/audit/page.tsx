@@ -6,7 +6,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
 import { zodFieldErrors } from "@/lib/validation/field-errors";
 import { fetchAuditFacets, fetchAuditPage } from "@/lib/services/audit";
-import { fetchTeamMembers } from "@/lib/services/teams";
+import { fetchTeamMembers } from "@/lib/services/team-members";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { auditQuerySchema, auditSearchParams } from "@/lib/validation/audit-schemas";
 

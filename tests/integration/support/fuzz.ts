@@ -144,6 +144,7 @@ const COUNTED_TABLES = [
   "users",
   "teams",
   "memberships",
+  "membership_removals",
   "invitations",
   "user_sessions",
   "access_tokens",

@@ -11,12 +11,12 @@ export const metadata = { title: "Join a team" };
 export default async function InvitationPage({ params }: { params: Promise<{ token: string }> }) {
   const { token } = await params;
   const invitation = await describeInvitation(token);
-  if (!invitation) {
+  if (invitation.state !== "open") {
     return (
       <>
         <h1 className="mb-2 text-xl font-semibold">This invitation is not valid</h1>
-        <p className="muted text-sm">
-          It has expired, was withdrawn or has been used. Ask your lab lead for a new one.
+        <p className="muted text-sm" data-testid="invitation-closed" data-state={invitation.state}>
+          {invitation.message}
         </p>
         <Link href="/sign-in" className="mt-4 inline-block text-sm text-ember-600 underline">
           Go to sign-in

@@ -1,0 +1,11 @@
+// POST sends an invitation again with a fresh link for another 7 days; the earlier link stops working.
+import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { resendInvitation } from "@/lib/services/teams";
+import { idParam } from "@/lib/validation/line-schemas";
+
+export const POST = apiRoute(async (_request, { params }) => {
+  const actor = await requireActor();
+  return Response.json(
+    await resendInvitation(actor, idParam((await params).id, "No such invitation.")),
+  );
+});

@@ -1,0 +1,10 @@
+// GET the team's invitations not yet accepted nor revoked, expired ones included (lab leads only).
+import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { fetchPendingInvitations } from "@/lib/services/teams";
+import { idParam } from "@/lib/validation/line-schemas";
+
+export const GET = apiRoute(async (_request, { params }) => {
+  const actor = await requireActor();
+  const teamId = idParam((await params).id, "No such team.");
+  return Response.json(await fetchPendingInvitations(actor, teamId));
+});

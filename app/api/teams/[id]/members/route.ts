@@ -1,0 +1,10 @@
+// GET the team's members with their roles and when they joined (every member of the team).
+import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { fetchTeamMembers } from "@/lib/services/team-members";
+import { idParam } from "@/lib/validation/line-schemas";
+
+export const GET = apiRoute(async (_request, { params }) => {
+  const actor = await requireActor();
+  const teamId = idParam((await params).id, "No such team.");
+  return Response.json(await fetchTeamMembers(actor, teamId));
+});
