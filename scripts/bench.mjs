@@ -29,7 +29,11 @@ const env = {
 };
 let status = 0;
 try {
-  for (const file of ["bench/spectrum-bench.ts", "bench/line-query-bench.ts"]) {
+  for (const file of [
+    "bench/spectrum-bench.ts",
+    "bench/design-packages-bench.ts",
+    "bench/line-query-bench.ts",
+  ]) {
     const result = spawnSync(tsx, [file, ...args], { cwd: root, stdio: "inherit", env });
     status ||= result.status ?? 1;
   }
