@@ -1,7 +1,7 @@
 """The SciPy/NumPy counterparts of Emberline's benchmark steps, on the same files, as medians in ms.
 
 parse: numpy.loadtxt; smoothing: scipy.signal.savgol_filter(9, 4); peaks: savgol_filter +
-an asymmetric-least-squares continuum (scipy.sparse) + find_peaks(prominence) + peak_widths;
+an asymmetric-least-squares continuum (a banded solver) + find_peaks(prominence) + peak_widths;
 auto-calibration: find_peaks on the lamp + numpy.polyfit (SciPy has no pairing, so this is a floor);
 full-analysis: the peaks step + numpy.searchsorted of the peaks into the sorted line table.
 """
@@ -13,7 +13,7 @@ import numpy as np
 import scipy
 from scipy import sparse
 from scipy.signal import find_peaks, peak_widths, savgol_filter
-from scipy.sparse.linalg import spsolve
+from scipy.linalg import solveh_banded
 
 
 WARM_UP_RUNS = 5
@@ -31,12 +31,21 @@ def median_ms(fn, reps):
 
 
 def als(y, lam=1e6, p=0.01, iterations=10):
+    """The asymmetric-least-squares continuum with a banded solver: W + lam D^T D is symmetric
+    pentadiagonal, so scipy.linalg.solveh_banded (LAPACK's banded Cholesky) is the fair counterpart
+    of Emberline's own pentadiagonal solve (a general sparse LU overstated the ratio ~10x)."""
     n = len(y)
     d = sparse.diags([1.0, -2.0, 1.0], [0, -1, -2], shape=(n, n - 2))
     penalty = lam * d.dot(d.transpose())
+    # Upper banded form: row 0 the second superdiagonal, row 1 the first, row 2 the main diagonal.
+    bands = np.zeros((3, n))
+    bands[0, 2:] = penalty.diagonal(2)
+    bands[1, 1:] = penalty.diagonal(1)
+    main = penalty.diagonal(0)
     w = np.ones(n)
     for _ in range(iterations):
-        z = spsolve(sparse.csc_matrix(sparse.spdiags(w, 0, n, n) + penalty), w * y)
+        bands[2] = main + w
+        z = solveh_banded(bands, w * y, check_finite=False)
         w = p * (y > z) + (1 - p) * (y < z)
     return z
 
