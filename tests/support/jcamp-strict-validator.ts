@@ -2,7 +2,7 @@
 // with lib/spectrum/io (neither its writer nor its reader), so that an export the app writes is checked by
 // a second, independent reading. The standard: R. S. McDonald & P. A. Wilks, "JCAMP-DX: A Standard Form
 // for Exchange of Infrared Spectra in Computer Readable Form", Appl. Spectrosc. 42(1), 151–162 (1988).
-// Sections 5.2–5.10 and Table VII (the ASDF forms) were checked against a transcription of the paper's
+// Sections 5.2–5.10 and Table VII (the ASDF forms) were checked against a public copy of the paper's
 // text; every other section number and list below is from memory and says so.
 
 export interface StrictJcampResult {
@@ -14,7 +14,7 @@ export interface StrictJcampResult {
 
 // From memory, sec. 3.1 / Table II: a label is "##", a name, "="; user-defined names start with "$".
 const LABEL = /^##([^=]*)=(.*)$/;
-// Sec. 5.3 (AFFN, as transcribed): a field of +, -, decimal point and digits; E followed by + or − and
+// Sec. 5.3 (AFFN, as checked against the paper): a field of +, -, decimal point and digits; E followed by + or − and
 // a two- or three-digit integer gives a power of ten.
 const AFFN = /^[+-]?(\d+\.?\d*|\.\d+)(E[+-]\d{2,3})?$/;
 // From memory, sec. 4 / Table II(a): the labels every 4.24 spectrum carries.
@@ -277,7 +277,7 @@ interface Token {
   value: number;
 }
 
-// Table VII (as transcribed): the pseudo-digits of SQZ (@ A–I, a–i), DIF (% J–R, j–r) and DUP (S–Z, s).
+// Table VII (as checked against the paper): the pseudo-digits of SQZ (@ A–I, a–i), DIF (% J–R, j–r) and DUP (S–Z, s).
 const SQZ = "ihgfedcba@ABCDEFGHI";
 const DIF = "rqponmlkj%JKLMNOPQR";
 const DUP = "STUVWXYZs";
