@@ -116,7 +116,7 @@ describe("the strict validator", () => {
 
 describe("files of every compression form, as other writers make them", () => {
   // The ten ordinates of the example of Table VII of JCAMP-DX 4.24 (McDonald & Wilks 1988), each file
-  // in one ASDF form (sec. 5.3–5.10); as transcribed from the paper.
+  // in one ASDF form (sec. 5.3–5.10); as checked against the paper.
   it.each(["affn.jdx", "pac.jdx", "sqz.jdx", "dif.jdx", "sqzdup.jdx", "difdup.jdx"])(
     "%s decodes to the ten ordinates of the standard's example, in the app's reader and the validator",
     (name) => {

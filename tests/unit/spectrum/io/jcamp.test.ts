@@ -199,7 +199,7 @@ describe("writing", () => {
     expect(Array.from(back.y)).toEqual(Array.from(evenly.y));
     for (let i = 0; i < 40; i++) expect(Math.abs(back.x[i] - evenly.x[i])).toBeLessThan(1e-9);
     // DIFDUP: each line opens with its X and a SQZ ordinate (a letter), then DIF/DUP pseudo-digits only
-    // (JCAMP-DX 4.24, Table VII, as transcribed); no blank-separated AFFN ordinates.
+    // (JCAMP-DX 4.24, Table VII, as checked against the paper); no blank-separated AFFN ordinates.
     const dataLines = text.slice(text.indexOf("##XYDATA=")).split("\n").slice(1, -2);
     for (const line of dataLines) expect(line).toMatch(/^[\d.]+[@A-Ia-i]\d*[%J-Rj-rS-Zs\d]*$/);
   });
