@@ -6,13 +6,13 @@ import { resampleEvenly } from "@/lib/spectrum/io";
 
 describe("encodeJcampDifDup", () => {
   it("writes the standard's examples", () => {
-    // JCAMP-DX 4.24 sec. 5.10 (as transcribed): 50 50 50 50 is 50%U in DIFDUP form; the first value
+    // JCAMP-DX 4.24 sec. 5.10 (as checked against the paper): 50 50 50 50 is 50%U in DIFDUP form; the first value
     // here is in SQZ form (E0 = +50, sec. 5.5), and the line ending in DIF form gets its Y check line.
     expect(encodeJcampDifDup([50, 50, 50, 50], (i) => String(500 + i))).toEqual([
       "500E0%U",
       "503E0",
     ]);
-    // Table VII's ten ordinates (as transcribed), DIFDUP form "1JT%jX" after an SQZ first value.
+    // Table VII's ten ordinates (as checked against the paper), DIFDUP form "1JT%jX" after an SQZ first value.
     expect(encodeJcampDifDup([1, 2, 3, 3, 2, 1, 0, -1, -2, -3], (i) => String(401 + i))).toEqual([
       "401AJT%jX",
       "410c",
