@@ -5,14 +5,14 @@
 //   Modified-polynomial continuum: ml-regression-polynomial refitted per pass against our Legendre
 //     basis built once (signal/modified-polynomial-baseline.ts).
 //   Theil–Sen of the noise profile (256 blocks): ml-regression-theil-sen against the pairwise slopes
-//     and xMedian of signal/estimate-noise-profile.ts.
+//     and xMedian of signal/theil-sen-line.ts (the noise profile's).
 import mlSavitzkyGolay from "ml-savitzky-golay";
 import { PolynomialRegression } from "ml-regression-polynomial";
 import { TheilSenRegression } from "ml-regression-theil-sen";
 import { makeRandom } from "../lib/spectrum/synthetic/make-random";
 import { modifiedPolynomialBaseline } from "../lib/spectrum/signal/modified-polynomial-baseline";
 import { savitzkyGolay } from "../lib/spectrum/signal/savitzky-golay";
-import { xMedian } from "../lib/spectrum/signal/x-median";
+import { theilSenLine } from "../lib/spectrum/signal/theil-sen-line";
 
 const json = process.argv.includes("--json");
 
@@ -91,22 +91,6 @@ function modifiedPolynomialWithPackage(
   return fit;
 }
 
-/** Our Theil–Sen of the noise profile: every pair of blocks with different levels, then xMedian. */
-function ourTheilSen(
-  level: Float64Array,
-  variance: Float64Array,
-): { slope: number; intercept: number } {
-  const slopes: number[] = [];
-  for (let i = 0; i < level.length; i++)
-    for (let j = i + 1; j < level.length; j++) {
-      const run = level[j] - level[i];
-      if (run !== 0) slopes.push((variance[j] - variance[i]) / run);
-    }
-  const slope = xMedian(Float64Array.from(slopes));
-  const intercepts = Float64Array.from(variance, (v, b) => v - slope * level[b]);
-  return { slope, intercept: xMedian(intercepts) };
-}
-
 interface Row {
   name: string;
   points: number;
@@ -169,12 +153,12 @@ function main(): void {
     level,
     (l, b) => 25 + 1.1 * l * (1 + 0.1 * random.normal()) + (b % 17 === 0 ? 5000 : 0),
   );
-  const ours = ourTheilSen(level, variance);
+  const ours = theilSenLine(level, variance)!;
   const theirs = new TheilSenRegression(Array.from(level), Array.from(variance));
   rows.push({
     name: "Theil–Sen of the noise profile, 256 blocks",
     points: 256,
-    oursMs: time(() => ourTheilSen(level, variance), 50),
+    oursMs: time(() => theilSenLine(level, variance), 50),
     packageMs: time(() => new TheilSenRegression(Array.from(level), Array.from(variance)), 50),
     difference: `slope ${Math.abs(ours.slope - theirs.slope).toExponential(1)}, intercept ${Math.abs(
       ours.intercept - theirs.intercept,

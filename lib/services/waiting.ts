@@ -158,11 +158,8 @@ async function labLeadItems(
   ]);
   const draft = releases.find((r) => r.status === "draft");
   const published = releases.find((r) => r.status === "published");
-  const today = Date.UTC(
-    new Date(now).getUTCFullYear(),
-    new Date(now).getUTCMonth(),
-    new Date(now).getUTCDate(),
-  );
+  // Today's midnight (UTC), the day calibrated_on counts from.
+  const today = Math.floor(now / 86_400_000) * 86_400_000;
   return {
     draft: draft
       ? {

@@ -3,6 +3,7 @@
 import { assertFiniteArray } from "./assert-finite-array";
 import { assertIntegerInRange } from "./assert-integer-in-range";
 import { estimateNoise } from "./estimate-noise";
+import { theilSenLine } from "./theil-sen-line";
 import { xMedian } from "./x-median";
 
 export interface EstimateNoiseProfileOptions {
@@ -81,19 +82,9 @@ export function estimateNoiseProfile(
     blockLevel[b] = xMedian(level.subarray(start, end));
   }
 
-  const slopes: number[] = [];
-  for (let i = 0; i < blocks; i++) {
-    for (let j = i + 1; j < blocks; j++) {
-      const run = blockLevel[j] - blockLevel[i];
-      if (run !== 0) slopes.push((variance[j] - variance[i]) / run);
-    }
-  }
-  if (slopes.length === 0) return null;
-  const slope = xMedian(Float64Array.from(slopes));
-  if (!(slope > 0)) return null;
-  const intercepts = new Float64Array(blocks);
-  for (let b = 0; b < blocks; b++) intercepts[b] = variance[b] - slope * blockLevel[b];
-  const intercept = xMedian(intercepts);
+  const line = theilSenLine(blockLevel, variance);
+  if (!line || !(line.slope > 0)) return null;
+  const { slope, intercept } = line;
 
   // A model below the quieter blocks is extrapolating (a negative intercept, a level below any
   // block's), so it is held at the blocks' 10th-percentile σ; a percentile rather than the minimum,
