@@ -91,8 +91,14 @@ export function prepareSignal(
     );
   }
 
+  const saturatedRanges = findSaturatedRanges(y, { detectorMax });
   const smoothed = smoothing
-    ? savitzkyGolay(y, { ...smoothing, derivative: 0 })
+    ? keepClippedRaw(
+        savitzkyGolay(y, { ...smoothing, derivative: 0 }),
+        y,
+        saturatedRanges,
+        smoothing,
+      )
     : Float64Array.from(y);
   const continuum = estimateContinuum(x, smoothed, baseline);
   const corrected = new Float64Array(y.length);
@@ -111,7 +117,6 @@ export function prepareSignal(
     for (let i = 0; i < y.length; i++) scale = Math.max(scale, Math.abs(y[i]));
     noise = Math.max(noise, 1e-12 * scale, Number.MIN_VALUE);
   }
-  const saturatedRanges = findSaturatedRanges(y, { detectorMax });
   const profileOptions = options.noiseProfile ?? {};
   const noiseProfile =
     options.noise === undefined && profileOptions !== false
@@ -120,4 +125,27 @@ export function prepareSignal(
   if (noiseProfile)
     return { smoothed, continuum, corrected, noise, noiseProfile, saturatedRanges, smoothing };
   return { smoothed, continuum, corrected, noise, saturatedRanges, smoothing };
+}
+
+/**
+ * A polynomial smoothing rings at the corners of a clipped (flat) top: two false tops on the
+ * plateau, a dip between them deep enough to pass for two lines, and lobes of a few per cent of the
+ * clip level beside it, which the peak finder took for lines (a saturated lamp line came out as two
+ * peaks at one centre plus two faint neighbours). Within half a window of a clipped run the raw
+ * counts stand instead: the line is strong there, so its noise matters little, and the plateau stays
+ * flat.
+ */
+function keepClippedRaw(
+  smoothed: Float64Array,
+  y: Float64Array,
+  clipped: readonly IndexRange[],
+  smoothing: { windowSize: number },
+): Float64Array {
+  const half = (smoothing.windowSize - 1) >> 1;
+  for (const range of clipped) {
+    const from = Math.max(0, range.start - half);
+    const to = Math.min(y.length - 1, range.end + half);
+    for (let i = from; i <= to; i++) smoothed[i] = y[i];
+  }
+  return smoothed;
 }

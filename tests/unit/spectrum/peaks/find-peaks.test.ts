@@ -134,6 +134,19 @@ describe("flags", () => {
     expect(nearest(findPeaks(x, y), 250.4).saturated).toBe(true);
   });
 
+  it("finds a narrow line clipped over several samples once, with no smoothing lobes beside it", () => {
+    // A lamp's strongest line: 4.5 px wide, 6× over full scale, so 7 samples sit at the clip level.
+    // The smoothing used to ring at the plateau's corners (two tops at one centre) and beside it.
+    const { normal } = seededRandom(11);
+    const y = Float64Array.from({ length: n }, (_, i) =>
+      Math.min(9603, 230 + gaussian(i, 302.3, 4.5, 60000) + 5 * normal()),
+    );
+    const peaks = findPeaks(x, y).filter((p) => Math.abs(p.x - 302.3) < 20);
+    expect(peaks).toHaveLength(1);
+    expect(peaks[0].saturated).toBe(true);
+    expect(Math.abs(peaks[0].x - 302.3)).toBeLessThan(0.3);
+  });
+
   it("rejects decreasing x with a RangeError", () => {
     const y = Float64Array.from({ length: n }, (_, i) => gaussian(i, 250, 6, 100));
     expect(() => findPeaks(x.slice().reverse(), y)).toThrow(RangeError);
