@@ -245,6 +245,28 @@ export function growPairsOutward(
         found.push(pairOf(near[0], other.line));
         support += Math.exp(-0.5 * ((peaks[near[0]].x - x) / (0.25 * toleranceX)) ** 2);
       }
+      // A long leap's trial model is rough where it lands: right lines land a good part of a tolerance
+      // off it. Refitted with what landed, right lines sit on the curve and chance ones do not; each
+      // landed line counts by the better of the two closenesses.
+      const landed = found.length - taken.length;
+      if (landed >= 2) {
+        const all = [...pairs, ...found];
+        const refit = fitStraightenedPolynomial(
+          all,
+          straighten,
+          gRange,
+          Math.min(3, all.length - 3),
+        );
+        if (refit) {
+          let refitSupport = 0;
+          for (const p of found.slice(taken.length)) {
+            refitSupport += Math.exp(
+              -0.5 * ((p.x - refit.predictX(p.wavelengthNm)) / (0.25 * toleranceX)) ** 2,
+            );
+          }
+          support = Math.max(support, refitSupport);
+        }
+      }
       return { pairs: found, support };
     };
     for (const side of [-1, 1]) {

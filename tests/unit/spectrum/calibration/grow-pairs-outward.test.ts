@@ -87,6 +87,59 @@ describe("growPairsOutward", () => {
   });
 });
 
+describe("growPairsOutward with a sparse lamp", () => {
+  it("leaps from a short blue stretch to the few red lines far beyond it", () => {
+    // A helium-like lamp: six lines in the blue, then nothing for half the array, then four strong
+    // lines in the red. A leap's first model lands the red lines up to a tolerance off; they must
+    // still be recognised (they sit on one curve once refitted), and chance peaks must not be.
+    const random = seededRandom(23);
+    const wavelengths = [404.7, 419.3, 433.4, 447.1, 463.2, 480.6, 587.6, 667.8, 706.5, 728.1];
+    const lines: LampLine[] = wavelengths.map((wavelengthNm, i) => ({
+      wavelengthNm,
+      intensity: i < 6 ? 20 + 20 * random() : 80 + 40 * random(),
+      species: "He I",
+      id: `line-${i}`,
+    }));
+    const peaks: LampPeak[] = lines.map((line) => ({
+      x: pixelOf(line.wavelengthNm) + 0.05 * (random() - 0.5),
+      xUncertainty: 0.05,
+      height: line.intensity * (0.6 + 0.8 * random()),
+      fwhm: 4,
+    }));
+    for (let k = 0; k < 25; k++)
+      peaks.push({
+        x: random() * (PIXELS - 1),
+        xUncertainty: 0.05,
+        height: 15 * random(),
+        fwhm: 4,
+      });
+    const input: GrowPairsOutwardInput = {
+      peaks,
+      lines,
+      candidateLines: lines.map((_, i) => i),
+      usablePeaks: peaks.map((_, i) => i),
+      dispersion: "grating",
+      domain: [0, PIXELS - 1],
+      toleranceX: 2,
+      straighten: (lambda) => lambda,
+      gRange: [400, 800],
+      nominalRangeNm: [400, 800],
+    };
+    const seed: LampPair[] = [0, 1, 2, 3, 4, 5].map((i) => ({
+      x: peaks[i].x,
+      wavelengthNm: lines[i].wavelengthNm,
+      peakIndex: i,
+      lineIndex: i,
+      lineId: lines[i].id,
+    }));
+    const grown = growPairsOutward(input, seed);
+    expect(grown.filter((p) => p.peakIndex !== p.lineIndex)).toEqual([]);
+    expect(grown.map((p) => p.lineIndex).sort((a, b) => a - b)).toEqual([
+      0, 1, 2, 3, 4, 5, 6, 7, 8, 9,
+    ]);
+  });
+});
+
 describe("the demo bench's grating lamp", () => {
   it("is paired across the array, the blue mercury lines reached across the gap below 696 nm", () => {
     // The demo's own mercury–argon lamp (invented data, db/demo): argon crowds 696–870 nm, and below a
