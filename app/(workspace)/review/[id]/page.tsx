@@ -8,6 +8,7 @@ import {
   RunSpectrumChart,
   type PairMark,
 } from "@/components/charts/spectrum-charts";
+import { decisionOutcome } from "@/components/review/decision-outcome";
 import { ReviewHistory } from "@/components/review/review-history";
 import { MarkForm, ReturnForm, SignForm } from "@/components/review/review-forms";
 import { PageHeader } from "@/components/ui/page-header";
@@ -48,6 +49,9 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
         ...calibration.rejected.map((p) => ({ ...p, used: false })),
       ].sort((a, b) => a.pixel - b.pixel)
     : [];
+  // Once decided (or not yet submitted) the page says what happened; the author's own run keeps the
+  // refusal, which is the reason they cannot decide it.
+  const outcome = review.isAuthor ? null : decisionOutcome(review.history, actor.id);
   const toReview = [...run.calls]
     .filter((c) => c.verdict !== "absent" || run.verdicts[c.species] !== "absent")
     .sort((a, b) => b.score - a.score);
@@ -74,13 +78,21 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
         }
       />
       <RunNotices run={run} coveredRangeNm={calibration?.coveredRangeNm ?? null}>
-        {review.whyNotDecide ? (
+        {outcome ? (
+          <p
+            role="status"
+            className="rounded border border-teal-700 p-2 text-sm"
+            data-testid="review-outcome"
+          >
+            <span className="font-semibold">{outcome.title}. </span>
+            {outcome.text}
+          </p>
+        ) : review.whyNotDecide ? (
           <p
             role="note"
             className="rounded border border-ember-600 p-2 text-sm"
             data-testid="why-not-review"
           >
-            <span className="font-semibold">You cannot decide this run: </span>
             {review.whyNotDecide}
           </p>
         ) : null}
