@@ -23,6 +23,7 @@ import { fetchRun } from "@/lib/services/runs";
 import { fetchSpectrum } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { addMarkAction, decideRunAction } from "../actions";
+import { countOf } from "@/lib/text/count-of";
 
 export const metadata = { title: "Review a run" };
 
@@ -125,7 +126,7 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
                   ) : null}
                   <span className="font-mono text-xs">score {call.score.toFixed(2)}</span>
                   <span className="muted text-xs">
-                    {call.seenCount} lines seen · {call.missingCount} missing
+                    {countOf(call.seenCount, "line")} seen · {call.missingCount} missing
                   </span>
                 </p>
                 {override && override.verdict !== null ? (
@@ -203,8 +204,9 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
               {calibration.calibratedOn} · {calibration.model} · RMS {calibration.rmsNm.toFixed(4)}{" "}
               nm
             </Link>{" "}
-            · {calibration.pairs.length} pairs used, {calibration.rejected.length} rejected · covers{" "}
-            {calibration.coveredRangeNm[0].toFixed(1)}–{calibration.coveredRangeNm[1].toFixed(1)} nm
+            · {countOf(calibration.pairs.length, "pair")} used, {calibration.rejected.length}{" "}
+            rejected · covers {calibration.coveredRangeNm[0].toFixed(1)}–
+            {calibration.coveredRangeNm[1].toFixed(1)} nm
           </p>
           <ResidualChart pairs={pairs} xTitle={X_TITLES[spectrum.xUnit]} />
           <table className="panel mt-2 w-full text-sm" data-testid="review-pairs">

@@ -24,6 +24,7 @@ import { fetchSpectrum } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { EntityTrail } from "@/components/audit/entity-trail";
 import { overrideCallAction, rerunAction, saveRunNotesAction } from "./actions";
+import { countOf } from "@/lib/text/count-of";
 
 export const metadata = { title: "Run" };
 
@@ -45,7 +46,7 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
     <>
       <PageHeader
         title={`Run: ${spectrum.label || spectrum.fileName}`}
-        description={`${run.source} on ${instrument.name} · ${run.createdAt.slice(0, 16).replace("T", " ")} · ${run.peaks.length} peaks · called present: ${present.length ? present.join(", ") : "none"}`}
+        description={`${run.source} on ${instrument.name} · ${run.createdAt.slice(0, 16).replace("T", " ")} · ${countOf(run.peaks.length, "peak")} · called present: ${present.length ? present.join(", ") : "none"}`}
         actions={
           <div className="flex flex-wrap items-start gap-2">
             {newer ? (
