@@ -15,6 +15,8 @@ import type { SpectrumSummary } from "@/lib/services/spectra";
 import type { CalibrationRecord } from "@/lib/services/workflow-types";
 import { initialFormState, type FormState } from "@/lib/validation/form-state";
 import { FlameCautions } from "./run-notices";
+import { SETTING_PLACEHOLDERS } from "@/components/workflow/analysis-settings";
+import { SAMPLE_ANALYSIS_DEFAULTS } from "@/lib/spectrum/analysis/sample-analysis-defaults";
 
 /** What GET /api/instruments/:id answers, as far as the form needs it. */
 export interface InstrumentWithCalibrations {
@@ -244,13 +246,16 @@ function RunFormFields({
       {source === "flame" ? <FlameCautions /> : null}
       <details>
         <summary className="cursor-pointer text-sm font-medium">
-          Analysis settings (optional; blank keeps the defaults)
+          Analysis settings (optional; blank keeps the defaults: minimum SNR{" "}
+          {SAMPLE_ANALYSIS_DEFAULTS.minSnr}, k {SAMPLE_ANALYSIS_DEFAULTS.k}, the table&apos;s
+          intensities)
         </summary>
         <div className="mt-3 grid gap-3 sm:grid-cols-3">
           <Field
             label="Minimum SNR of a peak"
             name="minSnr"
             inputMode="decimal"
+            placeholder={SETTING_PLACEHOLDERS.minSnr}
             defaultValue={state.values?.minSnr}
             errors={e["settings.minSnr"]}
           />
@@ -258,6 +263,7 @@ function RunFormFields({
             label="Match tolerance k (σ)"
             name="k"
             inputMode="decimal"
+            placeholder={SETTING_PLACEHOLDERS.k}
             defaultValue={state.values?.k}
             errors={e["settings.k"]}
           />
@@ -265,6 +271,7 @@ function RunFormFields({
             label="Excitation temperature (K)"
             name="temperatureK"
             inputMode="decimal"
+            placeholder={SETTING_PLACEHOLDERS.temperatureK}
             defaultValue={state.values?.temperatureK}
             errors={e["settings.temperatureK"]}
             hint="Expected intensities follow LTE at this temperature where the table has g, A and upper energies."

@@ -74,7 +74,11 @@ describe("the review journey", () => {
     await row.getByRole("link").first().click();
     await page.waitForURL(new RegExp(`/review/${run.id}$`));
     await page.getByTestId("review-pairs").waitFor();
-    expect(await page.getByTestId("review-settings").textContent()).toContain("Software");
+    const settings = (await page.getByTestId("review-settings").textContent()) ?? "";
+    expect(settings).toContain("Software");
+    // Settings left blank show the defaults they stand for.
+    expect(settings).toContain("Detection threshold (min SNR, minSnr)5 (default)");
+    expect(settings).toContain("Match window (k·σ, k)3 (default)");
 
     // A mark on the first call, then the return with a comment.
     const firstCall = page.getByTestId("call-to-review").first();

@@ -24,6 +24,8 @@ import { fetchSpectrum } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { addMarkAction, decideRunAction } from "../actions";
 import { countOf } from "@/lib/text/count-of";
+import { analysisSettingRows } from "@/components/workflow/analysis-settings";
+import { Fragment } from "react";
 
 export const metadata = { title: "Review a run" };
 
@@ -254,14 +256,12 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
         className="grid max-w-3xl grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm"
         data-testid="review-settings"
       >
-        <dt className="muted">Detection threshold (min SNR)</dt>
-        <dd className="font-mono text-xs">{run.settings.minSnr ?? "default"}</dd>
-        <dt className="muted">Match window (k·σ)</dt>
-        <dd className="font-mono text-xs">{run.settings.k ?? "default"}</dd>
-        <dt className="muted">Temperature for intensities</dt>
-        <dd className="font-mono text-xs">
-          {run.settings.temperatureK ? `${run.settings.temperatureK} K` : "default"}
-        </dd>
+        {analysisSettingRows(run.settings).map((setting) => (
+          <Fragment key={setting.label}>
+            <dt className="muted">{setting.label}</dt>
+            <dd className="font-mono text-xs">{setting.value}</dd>
+          </Fragment>
+        ))}
         <dt className="muted">Line-table release</dt>
         <dd className="font-mono text-xs">{run.lineReleaseId}</dd>
         <dt className="muted">Noise</dt>

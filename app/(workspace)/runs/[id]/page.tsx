@@ -25,6 +25,8 @@ import { requireWorkspace } from "@/lib/services/workspace";
 import { EntityTrail } from "@/components/audit/entity-trail";
 import { overrideCallAction, rerunAction, saveRunNotesAction } from "./actions";
 import { countOf } from "@/lib/text/count-of";
+import { analysisSettingRows } from "@/components/workflow/analysis-settings";
+import { Fragment } from "react";
 
 export const metadata = { title: "Run" };
 
@@ -143,10 +145,14 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
             </dd>
           </>
         ) : null}
-        <dt className="muted">Settings</dt>
-        <dd className="font-mono text-xs">
-          {Object.keys(run.settings).length ? JSON.stringify(run.settings) : "defaults"}
-        </dd>
+        {analysisSettingRows(run.settings).map((setting) => (
+          <Fragment key={setting.label}>
+            <dt className="muted">{setting.label}</dt>
+            <dd className="font-mono text-xs" data-testid="run-setting">
+              {setting.value}
+            </dd>
+          </Fragment>
+        ))}
         <dt className="muted">Noise</dt>
         <dd className="font-mono text-xs">{run.noiseCounts.toFixed(2)} counts</dd>
         <dt className="muted">Software</dt>
