@@ -46,7 +46,9 @@ describe("the review journey", () => {
     const panel = page.getByTestId("run-review-panel");
     await expect.poll(() => panel.getByTestId("run-status").textContent()).toBe("Draft");
     await screenshot(page, "review-1-draft-run");
-    await page.getByLabel("Reviewer").selectOption({ label: "Any supervisor of the team" });
+    await page
+      .getByLabel("Reviewer", { exact: true })
+      .selectOption({ label: "Any supervisor of the team" });
     await panel.getByRole("button", { name: "Submit for review" }).click();
     await expect
       .poll(() => panel.getByTestId("run-status").textContent(), { timeout: 20_000 })
@@ -128,7 +130,7 @@ describe("the review journey", () => {
       .toBe("Saved");
     const reply = "Rechecked against a fresh lamp spectrum; see the notes.";
     await panel.getByLabel("Reply to the reviewer's comments").fill(reply);
-    await panel.getByLabel("Reviewer").selectOption({ label: "Tobias Wren" });
+    await panel.getByLabel("Reviewer", { exact: true }).selectOption({ label: "Tobias Wren" });
     await panel.getByRole("button", { name: "Submit for review" }).click();
     await expect
       .poll(() => panel.getByTestId("run-status").textContent(), { timeout: 20_000 })
