@@ -16,6 +16,7 @@ import type { CalibrationRecord } from "@/lib/services/workflow-types";
 import { initialFormState, type FormState } from "@/lib/validation/form-state";
 import { FlameCautions } from "./run-notices";
 import { SETTING_PLACEHOLDERS } from "@/components/workflow/analysis-settings";
+import { PendingStatus } from "@/components/ui/pending-status";
 import { SAMPLE_ANALYSIS_DEFAULTS } from "@/lib/spectrum/analysis/sample-analysis-defaults";
 
 /** What GET /api/instruments/:id answers, as far as the form needs it. */
@@ -246,10 +247,13 @@ function RunFormFields({
       {source === "flame" ? <FlameCautions /> : null}
       <details>
         <summary className="cursor-pointer text-sm font-medium">
-          Analysis settings (optional; blank keeps the defaults: minimum SNR{" "}
-          {SAMPLE_ANALYSIS_DEFAULTS.minSnr}, k {SAMPLE_ANALYSIS_DEFAULTS.k}, the table&apos;s
-          intensities)
+          Analysis settings (optional; blank keeps the defaults)
         </summary>
+        <p className="muted mt-2 text-xs" data-testid="settings-defaults">
+          The defaults: minimum SNR {SAMPLE_ANALYSIS_DEFAULTS.minSnr}, match tolerance k{" "}
+          {SAMPLE_ANALYSIS_DEFAULTS.k} σ, and the table&apos;s relative intensities (no
+          temperature).
+        </p>
         <div className="mt-3 grid gap-3 sm:grid-cols-3">
           <Field
             label="Minimum SNR of a peak"
@@ -283,6 +287,11 @@ function RunFormFields({
         <Button type="submit" pending={pending} disabled={!sample || needsCalibration}>
           {pending ? "Analysing…" : "Start the run"}
         </Button>
+        <PendingStatus
+          pending={pending}
+          text="Analysing the sample: finding its peaks above the noise and the continuum, and matching them against the line table."
+          testId="run-form-status"
+        />
       </div>
     </form>
   );
