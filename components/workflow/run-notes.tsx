@@ -93,11 +93,8 @@ export function RunNotes({
               >
                 Take the newer notes
               </Button>
-              <Button
-                type="submit"
-                variant="quiet"
-                onClick={() => setSettledVersion(newer.lockVersion)}
-              >
+              {/* Submits against the newer version; the panel goes once the save succeeds. */}
+              <Button type="submit" variant="quiet">
                 Save my text over them
               </Button>
             </div>
