@@ -4,7 +4,7 @@
 // Each series has its own marker shape and a legend label, so nothing is told by colour alone.
 import type { Data } from "plotly.js";
 import { Chart, SERIES } from "@/components/charts/plot";
-import { staggeredLabelAnnotations } from "@/lib/charts/stagger-labels";
+import { labelLanesMarginPx, staggeredLabelAnnotations } from "@/lib/charts/stagger-labels";
 import type { SpectrumSeries } from "@/components/charts/spectrum-charts";
 import type { CalibrationPreview } from "@/lib/services/calibrations";
 
@@ -64,7 +64,6 @@ export function WorkbenchLampChart({
   const labels = staggeredLabelAnnotations(
     pairs.map((p) => ({
       x: p.pixel,
-      y: countsAt(spectrum, p.pixel),
       text: lineLabel(p.species, p.wavelengthNm),
     })),
     [spectrum.x[0] ?? 0, spectrum.x[spectrum.x.length - 1] ?? 1],
@@ -108,6 +107,7 @@ export function WorkbenchLampChart({
         xaxis: { title: { text: xTitle } },
         yaxis: { title: { text: "Counts" } },
         annotations: labels,
+        margin: { l: 60, r: 16, t: labelLanesMarginPx(), b: 48 },
       }}
       onPointClick={(event) => {
         const point = event.points?.[0];

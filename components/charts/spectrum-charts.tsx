@@ -4,7 +4,7 @@
 // own marker shape and a legend label, so no series is told apart by colour alone.
 import type { Data } from "plotly.js";
 import { useId, useState } from "react";
-import { staggeredLabelAnnotations } from "@/lib/charts/stagger-labels";
+import { labelLanesMarginPx, staggeredLabelAnnotations } from "@/lib/charts/stagger-labels";
 import { BOLTZMANN_CONSTANT_EV_PER_K } from "@/lib/spectrum/temperature/boltzmann-constant";
 import { Chart, SERIES } from "./plot";
 
@@ -41,7 +41,7 @@ export function LampChart({
   const pairText = (p: PairMark) => `${p.species ?? ""} ${p.wavelengthNm.toFixed(2)}`.trim();
   // Labels in lanes so none overlaps; a dense group's labels are read on hover.
   const labels = staggeredLabelAnnotations(
-    pairs.map((p) => ({ x: p.pixel, y: countsAt(spectrum, p.pixel), text: pairText(p) })),
+    pairs.map((p) => ({ x: p.pixel, text: pairText(p) })),
     [spectrum.x[0] ?? 0, spectrum.x[spectrum.x.length - 1] ?? 1],
   );
   const mark = (used: boolean): Data => {
@@ -81,6 +81,7 @@ export function LampChart({
         xaxis: { title: { text: xTitle } },
         yaxis: { title: { text: "Counts" } },
         annotations: labels,
+        margin: { l: 60, r: 16, t: labelLanesMarginPx(), b: 48 },
       }}
     />
   );

@@ -1,11 +1,13 @@
 // Lanes for the text labels of a chart's marks, so that no two labels overlap: labels go left to right
 // into the lowest lane where they clear the label before them; a label that fits in no lane (a dense
-// group) gets none and is read on hover. Widths are estimated from the characters at the narrowest plot
+// group) gets none and is read on hover. The lanes stand in a band above the plot area, so a label's
+// height never depends on its mark's. Widths are estimated from the characters at the narrowest plot
 // the pages draw, so a wider chart only leaves more room.
 
 export interface StaggerLabelsOptions {
-  /** Width of the plot area in px the estimate assumes (the narrowest chart the pages draw).
-   * @default 560 */
+  /** Width of the plot area in px the estimate assumes (the narrowest chart the pages draw: the
+   * workbench's half-width chart on a 1280 px screen).
+   * @default 440 */
   plotWidthPx?: number;
   /** Average width of one character of the label font in px (10 px IBM Plex Sans, generous).
    * @default 6.5 */
@@ -28,7 +30,7 @@ export function staggerLabels(
   xRange: readonly [number, number],
   options: StaggerLabelsOptions = {},
 ): (number | null)[] {
-  const { plotWidthPx = 560, charWidthPx = 6.5, gapPx = 6, maxLanes = 3 } = options;
+  const { plotWidthPx = 440, charWidthPx = 6.5, gapPx = 6, maxLanes = 3 } = options;
   if (xs.length !== texts.length) throw new RangeError("xs and texts must be the same length");
   const span = Math.abs(xRange[1] - xRange[0]);
   const pxPerUnit = span > 0 ? plotWidthPx / span : 0;
@@ -51,12 +53,18 @@ export function staggerLabels(
 /** Height of one lane in px (10 px text and its leading). */
 const LANE_HEIGHT_PX = 13;
 
+/** The top margin in px a chart needs for `maxLanes` lanes of labels above its plot area. */
+export function labelLanesMarginPx(maxLanes = 3): number {
+  return 8 + maxLanes * LANE_HEIGHT_PX;
+}
+
 /**
- * Chart annotations (Plotly's plain layout objects) for labelled marks, each lifted to its lane above
- * its mark; marks whose label fits no lane get none (their trace's hover still names them).
+ * Chart annotations (Plotly's plain layout objects) for labelled marks: each label stands in its lane
+ * in a band above the plot area (so the lanes, not the marks' heights, keep labels apart), right
+ * above its mark's x; a mark whose label fits no lane gets none (its trace's hover still names it).
  */
 export function staggeredLabelAnnotations(
-  marks: readonly { x: number; y: number; text: string }[],
+  marks: readonly { x: number; text: string }[],
   xRange: readonly [number, number],
   options: StaggerLabelsOptions = {},
 ) {
@@ -72,13 +80,13 @@ export function staggeredLabelAnnotations(
     return [
       {
         x: mark.x,
-        y: mark.y,
+        y: 1,
         xref: "x" as const,
-        yref: "y" as const,
+        yref: "paper" as const,
         text: mark.text,
         showarrow: false,
         yanchor: "bottom" as const,
-        yshift: 8 + lane * LANE_HEIGHT_PX,
+        yshift: 2 + lane * LANE_HEIGHT_PX,
         font: { size: 10 },
       },
     ];

@@ -41,7 +41,10 @@ describe("the README's curl walk-through", () => {
       timeout: 90_000,
     });
     // The demo flame holds K, Li, Sr and Ca: the invented demo file's own truth.
-    const presentLine = output.split("\n").find((line) => /^[A-Z][a-z]? I(, |$)/.test(line));
+    // curl prints replies without a newline: a reply's closing brace also ends a "line" here.
+    const presentLine = output
+      .split(/\n|(?<=\})/)
+      .find((line) => /^[A-Z][a-z]? I(, |$)/.test(line));
     expect(presentLine, output).toBeDefined();
     for (const species of ["K I", "Li I", "Sr I", "Ca I"]) expect(presentLine).toContain(species);
     const file = (name: string) => fs.readFileSync(path.join(workDir, name));

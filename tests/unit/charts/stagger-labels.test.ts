@@ -1,7 +1,7 @@
 // Chart labels never overlap: each lane's labels clear each other by the gap at the assumed plot
 // width, lanes fill lowest first, and a label that fits nowhere is left to hover.
 import { describe, expect, it } from "vitest";
-import { staggerLabels } from "@/lib/charts/stagger-labels";
+import { staggerLabels, staggeredLabelAnnotations } from "@/lib/charts/stagger-labels";
 
 const OPTIONS = { plotWidthPx: 500, charWidthPx: 6, gapPx: 4, maxLanes: 3 };
 
@@ -55,5 +55,18 @@ describe("staggerLabels", () => {
 
   it("refuses texts and positions of different lengths", () => {
     expect(() => staggerLabels([1, 2], ["a"], [0, 10])).toThrow(RangeError);
+  });
+
+  it("puts the labels in a band above the plot, lifted by lane, whatever their marks' heights", () => {
+    const annotations = staggeredLabelAnnotations(
+      [1000, 1010, 1020, 1030].map((x) => ({ x, text: "Ar I 763.51" })),
+      [0, 2048],
+      OPTIONS,
+    );
+    expect(annotations.map((a) => [a.x, a.yref, a.y, a.yshift])).toEqual([
+      [1000, "paper", 1, 2],
+      [1010, "paper", 1, 15],
+      [1020, "paper", 1, 28],
+    ]);
   });
 });
