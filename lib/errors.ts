@@ -52,7 +52,9 @@ export class AppError extends Error {
   }
 }
 
-export const notFound = (what = "Not found") => new AppError("not_found", what);
+export const notFound = (
+  what = "Not found: it does not exist, or it belongs to a team you are not in.",
+) => new AppError("not_found", what);
 export const forbidden = (why = "You are not allowed to do that.") =>
   new AppError("forbidden", why);
 export const unauthenticated = () => new AppError("unauthenticated", "Sign in first.");

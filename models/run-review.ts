@@ -51,6 +51,10 @@ export class RunRound extends Model<InferAttributes<RunRound>, InferCreationAttr
   declare decidedById: CreationOptional<string | null>;
   declare decidedAt: CreationOptional<Date | null>;
   declare comment: CreationOptional<string>;
+  /** The author's reply to the previous round's comments, given when submitting this round. */
+  declare reply: CreationOptional<string>;
+  /** The run's content SHA-256 when this round was returned: a resubmission unchanged needs a reply. */
+  declare decidedContentHash: CreationOptional<string | null>;
 }
 
 RunRound.init(
@@ -65,6 +69,8 @@ RunRound.init(
     decidedById: { type: DataTypes.UUID, allowNull: true },
     decidedAt: { type: DataTypes.DATE, allowNull: true },
     comment: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
+    reply: { type: DataTypes.TEXT, allowNull: false, defaultValue: "" },
+    decidedContentHash: { type: DataTypes.TEXT, allowNull: true },
   },
   { sequelize, tableName: "run_rounds", timestamps: false },
 );

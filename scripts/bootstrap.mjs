@@ -114,6 +114,7 @@ export async function bootstrap({
   mailPort,
   mailDir,
   seed = true,
+  appUrl,
 }) {
   ensureDependencies();
   const dataRoot = path.resolve(root, process.env.EMBERLINE_DATA_DIR ?? ".data");
@@ -154,6 +155,8 @@ export async function bootstrap({
     EMBERLINE_MAIL_DIR: mailFolder,
     SESSION_SECRET: process.env.SESSION_SECRET ?? developmentSecret(dataRoot),
     NEXT_TELEMETRY_DISABLED: "1",
+    // The address the app will serve at: the seed's mails (the demo review request) link to it too.
+    ...(appUrl ? { APP_URL: appUrl } : {}),
   };
   // Migrations run as the owner; the seed, like the app, as the app role (it goes through the app's
   // services, so it proves that the app's privileges suffice). The seed makes its demo analyses

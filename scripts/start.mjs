@@ -16,14 +16,16 @@ function restartDelayMs(failures) {
 }
 
 async function main() {
+  const appUrl = process.env.APP_URL ?? `http://${host}:${port}`;
   const { env, stopCluster } = await bootstrap({
     database: process.env.EMBERLINE_DB_NAME ?? "emberline",
     mailPort: Number(process.env.EMBERLINE_SMTP_PORT ?? 2525),
     mailDir: "mail",
+    appUrl,
   });
   const appEnv = {
     ...env,
-    APP_URL: process.env.APP_URL ?? `http://${host}:${port}`,
+    APP_URL: appUrl,
     // The demo keeps the outgoing-mail viewer (secret links masked); a production install has it off.
     EMBERLINE_MAIL_VIEWER: process.env.EMBERLINE_MAIL_VIEWER ?? "1",
   };

@@ -56,13 +56,14 @@ async function main() {
     recursive: true,
     force: true,
   });
+  const appUrl = `http://127.0.0.1:${testPort}`;
   const { env, stopCluster } = await bootstrap({
     database: "emberline_test",
     freshDatabase: true,
     mailPort,
     mailDir,
+    appUrl,
   });
-  const appUrl = `http://127.0.0.1:${testPort}`;
   const testEnv = { ...env, APP_URL: appUrl, EMBERLINE_TEST_URL: appUrl };
   let failed = false;
   try {

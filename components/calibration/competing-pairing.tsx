@@ -3,6 +3,7 @@
 // automatic pairs for the competing ones (as exclusions and pairs made by hand, so the record says
 // what was changed); going back restores the first pairing.
 import { Button } from "@/components/ui/button";
+import { countOf } from "@/lib/text/count-of";
 
 export interface CompetingPair {
   pixel: number;
@@ -31,7 +32,7 @@ export function CompetingPairing({
       data-testid="competing-pairing"
     >
       <h2 id="rival-heading" className="text-sm font-semibold">
-        A competing pairing ({rival.length} pairs)
+        A competing pairing ({countOf(rival.length, "pair")})
       </h2>
       <p className="muted text-sm">
         The lamp&apos;s peaks can also be paired this way, nearly as convincingly. Compare both on

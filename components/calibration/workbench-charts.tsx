@@ -4,6 +4,7 @@
 // Each series has its own marker shape and a legend label, so nothing is told by colour alone.
 import type { Data } from "plotly.js";
 import { Chart, SERIES } from "@/components/charts/plot";
+import { labelLanesMarginPx, staggeredLabelAnnotations } from "@/lib/charts/stagger-labels";
 import type { SpectrumSeries } from "@/components/charts/spectrum-charts";
 import type { CalibrationPreview } from "@/lib/services/calibrations";
 
@@ -50,17 +51,23 @@ export function WorkbenchLampChart({
     )[state];
     return {
       type: "scatter",
-      mode: "text+markers",
+      mode: "markers",
       name: style.name,
       x: chosen.map((p) => p.pixel),
       y: chosen.map((p) => countsAt(spectrum, p.pixel)),
       text: chosen.map((p) => lineLabel(p.species, p.wavelengthNm)),
-      textposition: "top center",
-      textfont: { size: 10 },
       marker: { symbol: style.symbol, size: 9, color: style.color },
       hovertemplate: `pixel %{x:.2f}<br>%{text} nm<br>${state}<extra></extra>`,
     };
   };
+  // Labels in lanes so none overlaps; a dense group's labels are read on hover.
+  const labels = staggeredLabelAnnotations(
+    pairs.map((p) => ({
+      x: p.pixel,
+      text: lineLabel(p.species, p.wavelengthNm),
+    })),
+    [spectrum.x[0] ?? 0, spectrum.x[spectrum.x.length - 1] ?? 1],
+  );
   const unpaired = preview.peaks.map((p, i) => ({ ...p, i })).filter((p) => !p.pairedWith);
   return (
     <Chart
@@ -96,7 +103,12 @@ export function WorkbenchLampChart({
             "unpaired peak at pixel %{x:.2f}<br>%{text}<br>click to pair<extra></extra>",
         },
       ]}
-      layout={{ xaxis: { title: { text: xTitle } }, yaxis: { title: { text: "Counts" } } }}
+      layout={{
+        xaxis: { title: { text: xTitle } },
+        yaxis: { title: { text: "Counts" } },
+        annotations: labels,
+        margin: { l: 60, r: 16, t: labelLanesMarginPx(), b: 48 },
+      }}
       onPointClick={(event) => {
         const point = event.points?.[0];
         if (!point) return;

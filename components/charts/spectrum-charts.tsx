@@ -4,6 +4,7 @@
 // own marker shape and a legend label, so no series is told apart by colour alone.
 import type { Data } from "plotly.js";
 import { useId, useState } from "react";
+import { labelLanesMarginPx, staggeredLabelAnnotations } from "@/lib/charts/stagger-labels";
 import { BOLTZMANN_CONSTANT_EV_PER_K } from "@/lib/spectrum/temperature/boltzmann-constant";
 import { Chart, SERIES } from "./plot";
 
@@ -37,17 +38,21 @@ export function LampChart({
   pairs: PairMark[];
   xTitle: string;
 }) {
+  const pairText = (p: PairMark) => `${p.species ?? ""} ${p.wavelengthNm.toFixed(2)}`.trim();
+  // Labels in lanes so none overlaps; a dense group's labels are read on hover.
+  const labels = staggeredLabelAnnotations(
+    pairs.map((p) => ({ x: p.pixel, text: pairText(p) })),
+    [spectrum.x[0] ?? 0, spectrum.x[spectrum.x.length - 1] ?? 1],
+  );
   const mark = (used: boolean): Data => {
     const chosen = pairs.filter((p) => p.used === used);
     return {
       type: "scatter",
-      mode: "text+markers",
+      mode: "markers",
       name: used ? "Paired line (used in the fit)" : "Paired line (rejected)",
       x: chosen.map((p) => p.pixel),
       y: chosen.map((p) => countsAt(spectrum, p.pixel)),
-      text: chosen.map((p) => `${p.species ?? ""} ${p.wavelengthNm.toFixed(2)}`.trim()),
-      textposition: "top center",
-      textfont: { size: 10 },
+      text: chosen.map(pairText),
       marker: {
         symbol: used ? "triangle-down" : "x",
         size: 9,
@@ -72,7 +77,12 @@ export function LampChart({
         mark(true),
         mark(false),
       ]}
-      layout={{ xaxis: { title: { text: xTitle } }, yaxis: { title: { text: "Counts" } } }}
+      layout={{
+        xaxis: { title: { text: xTitle } },
+        yaxis: { title: { text: "Counts" } },
+        annotations: labels,
+        margin: { l: 60, r: 16, t: labelLanesMarginPx(), b: 48 },
+      }}
     />
   );
 }

@@ -1,7 +1,9 @@
 "use client";
-// The lab lead's form that publishes the draft as the team's next release, with notes.
-import { useActionState } from "react";
+// The lab lead's form that publishes the draft as the team's next release, with notes. Publishing
+// cannot be undone (the release is frozen and the whole team is e-mailed), so it asks first.
+import { useActionState, useRef, useState } from "react";
 import { Button } from "@/components/ui/button";
+import { ConfirmDialog } from "@/components/ui/confirm-dialog";
 import { FormMessage } from "@/components/ui/form-message";
 import { initialFormState, type FormState } from "@/lib/validation/form-state";
 
@@ -15,8 +17,10 @@ export function PublishForm({
   action: (state: FormState, formData: FormData) => Promise<FormState>;
 }) {
   const [state, formAction, pending] = useActionState(action, initialFormState);
+  const [asking, setAsking] = useState(false);
+  const form = useRef<HTMLFormElement>(null);
   return (
-    <form action={formAction} className="flex flex-col gap-3" noValidate>
+    <form ref={form} action={formAction} className="flex flex-col gap-3" noValidate>
       <input type="hidden" name="releaseId" value={releaseId} />
       <div className="flex flex-col gap-1">
         <label htmlFor="notes" className="text-sm font-medium">
@@ -45,10 +49,28 @@ export function PublishForm({
       </p>
       <FormMessage message={state.message} tone={state.ok ? "ok" : "error"} />
       <div>
-        <Button type="submit" pending={pending}>
+        <Button data-publish type="button" pending={pending} onClick={() => setAsking(true)}>
           Publish as release {nextNumber}
         </Button>
       </div>
+      <ConfirmDialog
+        open={asking}
+        title={`Publish release ${nextNumber}?`}
+        confirmLabel={`Publish release ${nextNumber}`}
+        onConfirm={() => {
+          setAsking(false);
+          form.current?.requestSubmit();
+        }}
+        onCancel={() => {
+          setAsking(false);
+          form.current?.querySelector<HTMLButtonElement>("[data-publish]")?.focus();
+        }}
+      >
+        <p>
+          Release {nextNumber} is frozen once published: it can never be changed, and everyone in
+          the team is e-mailed. New identifications use it from then on.
+        </p>
+      </ConfirmDialog>
     </form>
   );
 }

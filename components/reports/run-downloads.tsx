@@ -1,7 +1,8 @@
 // The "Downloads" block of a run page: the PDF report, the peaks CSV, the spectrum as JCAMP-DX (as
-// calibrated and on even steps) and the printable page. Plain links: the browser downloads the files
-// with the session cookie.
+// calibrated and on even steps) and the printable page. Each file is a button that says while it is
+// prepared (the PDF takes several seconds) and when it is saved, or why it failed.
 import Link from "next/link";
+import { DownloadButton } from "@/components/ui/download-button";
 
 const LINK =
   "inline-flex items-center gap-1 rounded border border-[var(--line)] bg-[var(--panel)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800";
@@ -12,47 +13,43 @@ export function RunDownloads({ runId }: { runId: string }) {
       <h2 id="run-downloads" className="mb-2 text-lg font-semibold">
         Downloads
       </h2>
-      <ul className="flex flex-wrap gap-2">
+      <ul className="flex flex-wrap items-start gap-2">
         <li>
-          <a
+          <DownloadButton
             href={`/api/runs/${runId}/report.pdf`}
-            download
-            className={LINK}
-            data-testid="download-report-pdf"
-          >
-            Report (PDF)
-          </a>
+            label="Report (PDF)"
+            what="PDF"
+            fallbackName="emberline-run-report.pdf"
+            testId="download-report-pdf"
+          />
         </li>
         <li>
-          <a
+          <DownloadButton
             href={`/api/runs/${runId}/peaks.csv`}
-            download
-            className={LINK}
-            data-testid="download-peaks-csv"
-          >
-            Peaks and matches (CSV)
-          </a>
+            label="Peaks and matches (CSV)"
+            what="peaks CSV"
+            fallbackName="emberline-run-peaks.csv"
+            testId="download-peaks-csv"
+          />
         </li>
         <li>
-          <a
+          <DownloadButton
             href={`/api/runs/${runId}/spectrum.jdx`}
-            download
-            className={LINK}
-            data-testid="download-spectrum-jdx"
-          >
-            Calibrated spectrum (JCAMP-DX)
-          </a>
+            label="Calibrated spectrum (JCAMP-DX)"
+            what="JCAMP-DX file"
+            fallbackName="emberline-run-spectrum.jdx"
+            testId="download-spectrum-jdx"
+          />
         </li>
         <li>
-          <a
+          <DownloadButton
             href={`/api/runs/${runId}/spectrum-even.jdx`}
-            download
-            className={LINK}
-            data-testid="download-spectrum-even-jdx"
-            aria-describedby="run-downloads-even-note"
-          >
-            Spectrum on even steps (JCAMP-DX)
-          </a>
+            label="Spectrum on even steps (JCAMP-DX)"
+            what="even-step JCAMP-DX file"
+            fallbackName="emberline-run-spectrum-even.jdx"
+            testId="download-spectrum-even-jdx"
+            describedBy="run-downloads-even-note"
+          />
         </li>
         <li>
           <Link href={`/runs/${runId}/report`} className={LINK} data-testid="printable-report">

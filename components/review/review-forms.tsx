@@ -25,10 +25,13 @@ function Errors({ id, errors }: { id: string; errors?: string[] }) {
 export function SubmitForm({
   runId,
   reviewers,
+  returned = false,
   action,
 }: {
   runId: string;
   reviewers: { id: string; name: string }[];
+  /** The run came back from review: the form asks for a reply to the comments. */
+  returned?: boolean;
   action: Action;
 }) {
   const [state, formAction, pending] = useActionState(action, initialFormState);
@@ -58,6 +61,27 @@ export function SubmitForm({
         the run while it waits.
       </p>
       <Errors id="reviewerId-error" errors={state.fieldErrors?.reviewerId} />
+      {returned ? (
+        <>
+          <label htmlFor="reply" className="text-sm font-medium">
+            Reply to the reviewer&apos;s comments
+          </label>
+          <textarea
+            id="reply"
+            name="reply"
+            rows={3}
+            aria-describedby="reply-hint reply-error"
+            aria-invalid={state.fieldErrors?.reply ? true : undefined}
+            className={TEXTAREA}
+            data-testid="submit-reply"
+          />
+          <p id="reply-hint" className="muted text-xs">
+            What you changed or why the run stands as it is. Needed when you resubmit the run
+            unchanged; the reviewer reads it beside their comments.
+          </p>
+          <Errors id="reply-error" errors={state.fieldErrors?.reply} />
+        </>
+      ) : null}
       <FormMessage message={state.message} tone={state.ok ? "ok" : "error"} />
       <div>
         <Button type="submit" pending={pending}>

@@ -46,6 +46,15 @@ export function ReviewHistory({ history }: { history: RunHistory }) {
                 ? ` to ${round.requestedReviewer.name}`
                 : " to any supervisor"}
             </p>
+            {round.reply ? (
+              <blockquote
+                className="mt-1 whitespace-pre-wrap border-l-2 border-teal-700 pl-2"
+                data-testid="round-reply"
+              >
+                <span className="font-semibold">Reply to the comments: </span>
+                {round.reply}
+              </blockquote>
+            ) : null}
             <p className="mt-1">
               {round.decision ? (
                 <>

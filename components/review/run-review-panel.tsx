@@ -60,7 +60,12 @@ export async function RunReviewPanel({ runId }: { runId: string }) {
         </p>
       ) : null}
       {state.maySubmit ? (
-        <SubmitForm runId={state.runId} reviewers={state.reviewers} action={submitRunAction} />
+        <SubmitForm
+          runId={state.runId}
+          reviewers={state.reviewers}
+          returned={state.status === "returned"}
+          action={submitRunAction}
+        />
       ) : null}
       {state.status === "submitted" && state.isReviewer ? (
         <p className="text-sm">

@@ -3,6 +3,7 @@
 // missing, overlaps, an absent call's detection limit) and its peak table.
 import type { ReactNode } from "react";
 import { detectionLimitText } from "@/lib/reports/detection-limit-text";
+import { formatWavelengthColumn } from "@/lib/reports/wavelength-column";
 import type { RunCall, RunPeak } from "@/lib/services/workflow-types";
 
 const VERDICT = {
@@ -272,6 +273,8 @@ function AbsentCalls({
 }
 
 export function PeakTable({ peaks }: { peaks: RunPeak[] }) {
+  // One precision for the whole column, from the peaks' centre uncertainties.
+  const column = formatWavelengthColumn(peaks);
   return (
     <div className="panel max-h-96 overflow-auto">
       <table className="w-full text-sm" data-testid="peaks-table">
@@ -299,10 +302,10 @@ export function PeakTable({ peaks }: { peaks: RunPeak[] }) {
           </tr>
         </thead>
         <tbody className="font-mono text-xs">
-          {peaks.map((p) => (
+          {peaks.map((p, i) => (
             <tr key={p.x} className="border-b border-[var(--line)] last:border-0">
-              <td className="px-3 py-1 text-right">{p.wavelengthNm.toFixed(3)}</td>
-              <td className="px-3 py-1 text-right">{p.uncertaintyNm.toFixed(3)}</td>
+              <td className="px-3 py-1 text-right">{column.wavelengths[i]}</td>
+              <td className="px-3 py-1 text-right">{column.uncertainties[i]}</td>
               <td className="px-3 py-1 text-right">{p.fwhmNm.toFixed(2)}</td>
               <td className="px-3 py-1 text-right">{p.height.toFixed(0)}</td>
               <td className="px-3 py-1 text-right">{p.snr.toFixed(1)}</td>

@@ -15,6 +15,9 @@ import type { SpectrumSummary } from "@/lib/services/spectra";
 import type { CalibrationRecord } from "@/lib/services/workflow-types";
 import { initialFormState, type FormState } from "@/lib/validation/form-state";
 import { FlameCautions } from "./run-notices";
+import { SETTING_PLACEHOLDERS } from "@/components/workflow/analysis-settings";
+import { PendingStatus } from "@/components/ui/pending-status";
+import { SAMPLE_ANALYSIS_DEFAULTS } from "@/lib/spectrum/analysis/sample-analysis-defaults";
 
 /** What GET /api/instruments/:id answers, as far as the form needs it. */
 export interface InstrumentWithCalibrations {
@@ -246,11 +249,17 @@ function RunFormFields({
         <summary className="cursor-pointer text-sm font-medium">
           Analysis settings (optional; blank keeps the defaults)
         </summary>
+        <p className="muted mt-2 text-xs" data-testid="settings-defaults">
+          The defaults: minimum SNR {SAMPLE_ANALYSIS_DEFAULTS.minSnr}, match tolerance k{" "}
+          {SAMPLE_ANALYSIS_DEFAULTS.k} σ, and the table&apos;s relative intensities (no
+          temperature).
+        </p>
         <div className="mt-3 grid gap-3 sm:grid-cols-3">
           <Field
             label="Minimum SNR of a peak"
             name="minSnr"
             inputMode="decimal"
+            placeholder={SETTING_PLACEHOLDERS.minSnr}
             defaultValue={state.values?.minSnr}
             errors={e["settings.minSnr"]}
           />
@@ -258,6 +267,7 @@ function RunFormFields({
             label="Match tolerance k (σ)"
             name="k"
             inputMode="decimal"
+            placeholder={SETTING_PLACEHOLDERS.k}
             defaultValue={state.values?.k}
             errors={e["settings.k"]}
           />
@@ -265,6 +275,7 @@ function RunFormFields({
             label="Excitation temperature (K)"
             name="temperatureK"
             inputMode="decimal"
+            placeholder={SETTING_PLACEHOLDERS.temperatureK}
             defaultValue={state.values?.temperatureK}
             errors={e["settings.temperatureK"]}
             hint="Expected intensities follow LTE at this temperature where the table has g, A and upper energies."
@@ -276,6 +287,11 @@ function RunFormFields({
         <Button type="submit" pending={pending} disabled={!sample || needsCalibration}>
           {pending ? "Analysing…" : "Start the run"}
         </Button>
+        <PendingStatus
+          pending={pending}
+          text="Analysing the sample: finding its peaks above the noise and the continuum, and matching them against the line table."
+          testId="run-form-status"
+        />
       </div>
     </form>
   );

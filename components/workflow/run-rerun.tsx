@@ -4,6 +4,7 @@ import { useActionState } from "react";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/form-message";
 import { initialFormState, type FormState } from "@/lib/validation/form-state";
+import { PendingStatus } from "@/components/ui/pending-status";
 
 export function RunRerunButton({
   releaseNumber,
@@ -18,6 +19,10 @@ export function RunRerunButton({
       <Button type="submit" variant="quiet" pending={pending} data-testid="rerun">
         {pending ? "Analysing…" : `Run again on release ${releaseNumber}`}
       </Button>
+      <PendingStatus
+        pending={pending}
+        text={`Analysing the sample again against release ${releaseNumber}.`}
+      />
       <FormMessage message={state.message} />
     </form>
   );

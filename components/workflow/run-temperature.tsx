@@ -2,6 +2,7 @@
 // small plot, or why none could be found.
 import { BoltzmannChart } from "@/components/charts/spectrum-charts";
 import type { RunTemperature } from "@/lib/services/workflow-types";
+import { countOf } from "@/lib/text/count-of";
 
 export function RunTemperaturePanel({
   temperature,
@@ -36,7 +37,7 @@ export function RunTemperaturePanel({
           </span>
         </p>
         <p>
-          From {temperature.lineCount} lines of {temperature.species} · R²{" "}
+          From {countOf(temperature.lineCount, "line")} of {temperature.species} · R²{" "}
           {temperature.rSquared.toFixed(3)}
         </p>
         <p className="muted text-xs">

@@ -1,6 +1,7 @@
 // The words of every e-mail Emberline sends, in one place.
 import { env } from "../env";
 import { ROLE_LABELS, type TeamRole } from "../auth/roles";
+import { countOf } from "@/lib/text/count-of";
 
 const signature = "\n\n— Emberline, the emission-spectra notebook of your lab";
 
@@ -93,7 +94,7 @@ export function releasePublishedMail(input: {
     subject: `Line table release ${input.number} of ${input.teamName} is published`,
     text:
       `${input.publisherName} published release ${input.number} of the ${input.teamName} line table ` +
-      `(${input.lineCount} lines).\n\nNotes:\n${input.notes}\n\n` +
+      `(${countOf(input.lineCount, "line")}).\n\nNotes:\n${input.notes}\n\n` +
       `New identifications use this release; earlier results stay tied to the release they used.\n${link}` +
       signature,
   };

@@ -18,6 +18,7 @@ import {
   valuesOf,
 } from "./line-library-rows";
 import type { ImportPreview } from "./line-library-types";
+import { countOf } from "@/lib/text/count-of";
 
 export { MATCH_TOLERANCE_NM } from "./line-import-plan";
 export const MAX_IMPORT_BYTES = 5 * 1024 * 1024;
@@ -146,7 +147,7 @@ export async function applyImport(
       if (preview.errors.length > 0 && !input.skipRejected) {
         throw new AppError(
           "unprocessable",
-          `${preview.errors.length} problem(s) in the file. Fix them, or apply only the good rows.`,
+          `The file has ${countOf(preview.errors.length, "problem")}. Fix them, or apply only the good rows.`,
         );
       }
       if (planned.changeRows.length > 0) {

@@ -67,6 +67,8 @@ export interface ReviewRoundRecord {
   decidedBy: PersonRef | null;
   decidedAt: string | null;
   comment: string;
+  /** The author's reply, on submitting this round, to the comments of the round before. */
+  reply: string;
   marks: ReviewMarkRecord[];
 }
 
@@ -299,6 +301,30 @@ export async function fetchRunContent(
 // ---------------------------------------------------------------------------------------------
 // Submission
 
+/**
+ * A returned run goes back to review only when the author changed it (notes, overrides) or answered
+ * the comments: the same content with no reply would ask the reviewer the same question again.
+ */
+async function assertChangedOrReplied(run: Run, reply: string, transaction: Transaction) {
+  if (reply !== "") return;
+  const returned = await RunRound.findOne({
+    where: { runId: run.id, round: run.reviewRound },
+    attributes: ["decision", "decidedContentHash"],
+    transaction,
+  });
+  // Rounds returned before the hash was kept cannot be compared: a reply is asked for there too.
+  if (returned?.decision !== "returned") return;
+  const unchanged =
+    returned.decidedContentHash === null ||
+    returned.decidedContentHash === runContentHash(await runContentOf(run, transaction));
+  if (!unchanged) return;
+  throw new AppError(
+    "unprocessable",
+    "The run is unchanged since it was returned: reply to the reviewer's comments, or change the run, before submitting it again.",
+    { fieldErrors: { reply: ["Say how you dealt with the reviewer's comments."] } },
+  );
+}
+
 export async function submitRun(
   actor: Actor,
   runId: string,
@@ -330,6 +356,8 @@ export async function submitRun(
         "The team has no supervisor who could review this run: ask the lab lead to add one.",
       );
     }
+    const reply = input.reply ?? "";
+    if (run.status === "returned") await assertChangedOrReplied(run, reply, transaction);
     const before = { status: run.status, round: run.reviewRound };
     const round = run.reviewRound + 1;
     await RunRound.create(
@@ -338,6 +366,7 @@ export async function submitRun(
         round,
         submittedById: actor.id,
         requestedReviewerId: input.reviewerId ?? null,
+        reply,
       },
       { transaction },
     );
@@ -359,7 +388,12 @@ export async function submitRun(
         entity: "run",
         entityId: run.id,
         before,
-        after: { status: "submitted", round, requestedReviewerId: input.reviewerId ?? null },
+        after: {
+          status: "submitted",
+          round,
+          requestedReviewerId: input.reviewerId ?? null,
+          ...(reply ? { reply } : {}),
+        },
       },
       transaction,
     );
@@ -515,7 +549,13 @@ export async function reviewRun(
     const now = new Date();
     if (input.decision === "return") {
       await round.update(
-        { decision: "returned", decidedById: actor.id, decidedAt: now, comment: input.comment },
+        {
+          decision: "returned",
+          decidedById: actor.id,
+          decidedAt: now,
+          comment: input.comment,
+          decidedContentHash: runContentHash(await runContentOf(run, transaction)),
+        },
         { transaction },
       );
       await run.update({ status: "returned", lockVersion: run.lockVersion + 1 }, { transaction });
@@ -810,6 +850,7 @@ async function historyOf(run: Run): Promise<RunHistory> {
       decidedBy: person(r.get("decidedBy") as User | null),
       decidedAt: r.decidedAt?.toISOString() ?? null,
       comment: r.comment,
+      reply: r.reply,
       marks: markRecords.filter((m) => m.round === r.round),
     })),
     signature: signature

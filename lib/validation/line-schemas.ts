@@ -47,7 +47,7 @@ export const lineQuerySchema = z
   })
   .refine((q) => q.minNm === undefined || q.maxNm === undefined || q.minNm <= q.maxNm, {
     path: ["maxNm"],
-    message: "maxNm must not be below minNm.",
+    message: "The maxNm must not be below minNm.",
   });
 
 export const lineInputSchema = z.object({

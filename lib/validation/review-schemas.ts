@@ -9,8 +9,14 @@ export const MAX_REVIEW_COMMENT = 4000;
 
 export const submitRunSchema = z.object({
   reviewerId: z.uuid("Choose a reviewer from the list.").nullable().optional(),
+  /** The author's answer to the comments of the round that returned the run. */
+  reply: text()
+    .trim()
+    .max(MAX_REVIEW_COMMENT, `Use at most ${MAX_REVIEW_COMMENT} characters.`)
+    .default(""),
 });
-export type SubmitRunInput = z.infer<typeof submitRunSchema>;
+/** The parsed body, or a service caller's own (the seed) with `reply` left out. */
+export type SubmitRunInput = z.input<typeof submitRunSchema>;
 
 export const reviewMarkSchema = z
   .object({
@@ -82,7 +88,10 @@ export function reviewQueueQueryFrom(get: (name: string) => string | null | unde
 }
 
 export function submitInputFromForm(formData: FormData) {
-  return submitRunSchema.safeParse({ reviewerId: blank(formData.get("reviewerId")) || null });
+  return submitRunSchema.safeParse({
+    reviewerId: blank(formData.get("reviewerId")) || null,
+    reply: blank(formData.get("reply")),
+  });
 }
 
 export function markInputFromForm(formData: FormData) {

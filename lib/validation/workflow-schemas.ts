@@ -57,13 +57,13 @@ const instrumentFields = {
   /** The export profile: what the first column of the instrument's files holds (null: not set). */
   exportXUnit: z
     .enum(FIRST_COLUMN_KINDS as unknown as [FirstColumnKind, ...FirstColumnKind[]], {
-      error: `exportXUnit, the first column of this instrument's files, is one of ${FIRST_COLUMN_LIST}, or null when not known.`,
+      error: `The exportXUnit, the first column of this instrument's files, is one of ${FIRST_COLUMN_LIST}, or null when not known.`,
     })
     .nullable()
     .optional(),
   /** Air or vacuum, for a wavelength profile (nm or angstrom). */
   exportMedium: z
-    .enum(MEDIA, { error: "exportMedium is air or vacuum, or null when not known." })
+    .enum(MEDIA, { error: "The exportMedium is air or vacuum, or null when not known." })
     .nullable()
     .optional(),
 };
@@ -127,10 +127,12 @@ export const spectrumUploadFieldsSchema = z.object({
   label: text().trim().max(200, "Use at most 200 characters.").default(""),
   xUnit: z
     .enum(UPLOAD_X_UNITS as unknown as [FirstColumnKind | "pixel", ...FirstColumnKind[]], {
-      error: `xUnit, what the file's first column holds, is one of ${UPLOAD_X_UNITS.join(", ")}.`,
+      error: `The xUnit, what the file's first column holds, is one of ${UPLOAD_X_UNITS.join(", ")}.`,
     })
     .optional(),
-  medium: z.enum(MEDIA, { error: "medium, of a wavelength column, is air or vacuum." }).optional(),
+  medium: z
+    .enum(MEDIA, { error: "The medium, of a wavelength column, is air or vacuum." })
+    .optional(),
 });
 
 export { CALIBRATION_MODELS, type CalibrationModelChoice };

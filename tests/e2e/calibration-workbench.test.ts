@@ -115,11 +115,22 @@ describe("the calibration workbench", () => {
     const autoRms = await workbench.rmsNm();
     // A good lamp calibration of a 1 nm instrument reaches a few hundredths to ~0.1 nm (common practice).
     expect(autoRms).toBeLessThan(0.1);
-    // Paired peaks are labelled on the chart with their species and wavelength.
-    const labels = (await page.locator("[data-chart=lamp] .textpoint text").allTextContents()).join(
-      " | ",
+    // Paired peaks are labelled on the chart with their species and wavelength, and no two labels
+    // overlap (close ones are staggered; a dense group is read on hover).
+    const boxes = await page.locator("[data-chart=lamp] .annotation-text").evaluateAll((elements) =>
+      elements.map((e) => {
+        const r = e.getBoundingClientRect();
+        return { text: e.textContent ?? "", l: r.left, r: r.right, t: r.top, b: r.bottom };
+      }),
     );
-    expect(labels).toMatch(/Hg I 546\.\d\d/);
+    expect(boxes.map((b) => b.text).join(" | ")).toMatch(/Hg I 546\.\d\d/);
+    const overlapping = boxes.flatMap((a, i) =>
+      boxes
+        .slice(i + 1)
+        .filter((b) => a.l < b.r && b.l < a.r && a.t < b.b && b.t < a.b)
+        .map((b) => `${a.text} / ${b.text}`),
+    );
+    expect(overlapping).toEqual([]);
     // The instrument has a calibration already: the pairing started from it and says so.
     expect(await page.getByTestId("pairing-message").textContent()).toMatch(
       /How it was paired: recalibrated from the previous calibration \(moved by/,

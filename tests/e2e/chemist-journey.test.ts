@@ -5,6 +5,7 @@
 // calls; then switches the chart to continuum-removed with the keyboard, overrides a call with a
 // reason and writes a note. The files come from the integration tests' generator (known truth, nothing hard-coded here).
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Route } from "playwright-core";
 import { SCREENSHOT_DIR, openBrowser, screenshot, type Session } from "./support/browser";
 import { signInAs as signInWithPassword } from "./pages/sign-in-page";
 import { InstrumentsPage, RunPage, UploadZone, chartsDrawn } from "./pages/workflow-pages";
@@ -123,8 +124,20 @@ describe("the chemist's journey", () => {
       "thallium",
     );
     await screenshot(page, "chemist-4-new-run");
+    // The analysis says what it is doing while it runs (its server action is held 2.5 s here, so the
+    // status is seen however fast the analysis is).
+    const holdAction = async (route: Route) => {
+      if (route.request().method() === "POST") await new Promise((r) => setTimeout(r, 2500));
+      await route.continue();
+    };
+    await page.route(/\/notebooks\/[0-9a-f-]{36}/, holdAction);
     await page.getByRole("button", { name: "Start the run" }).click();
+    await expect
+      .poll(() => page.getByTestId("run-form-status").textContent())
+      .toMatch(/^Analysing the sample: finding its peaks/);
+    await screenshot(page, "chemist-4b-analysing");
     await page.waitForURL(/\/runs\/[0-9a-f-]{36}$/, { timeout: 60_000 });
+    await page.unroute(/\/notebooks\/[0-9a-f-]{36}/, holdAction);
     await chartsDrawn(page);
 
     const run = new RunPage(page);

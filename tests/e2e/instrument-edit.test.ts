@@ -1,7 +1,7 @@
 // Editing an instrument in Chromium: the lab lead adds a grating through the form, opens it, clicks
 // "Edit instrument", changes the resolution, saves and is back on the instrument page with the new value.
 // Once calibrated, the edit form shows the dispersion and pixel count fixed. A chemist sees no edit link
-// and finds nothing at the edit address.
+// and finds nothing at the edit address. The instrument page lists its spectra (none, then the lamp).
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { openBrowser, screenshot, type Session } from "./support/browser";
 import { signInAs as signInWithPassword } from "./pages/sign-in-page";
@@ -51,6 +51,7 @@ describe("editing an instrument", () => {
     await page.getByText(`resolution ${RESOLUTION_NM} nm FWHM`).waitFor();
     await page.getByRole("heading", { name: "Calibration history" }).waitFor();
     await page.getByText("Not calibrated yet").waitFor();
+    await page.getByText("No spectra yet").waitFor();
 
     await page.getByRole("link", { name: "Edit instrument" }).click();
     await page.waitForURL(`**/instruments/${instrumentId}/edit`);
@@ -109,6 +110,14 @@ describe("editing an instrument", () => {
 
     await page.goto(`/instruments/${instrumentId}`);
     await page.getByText("default for new runs").waitFor();
+    // The instrument page lists its spectra, the lamp with a way to calibrate with it.
+    const spectra = page.getByTestId("instrument-spectrum");
+    expect(await spectra.count()).toBe(1);
+    expect(await spectra.first().textContent()).toContain(`lamp-${suffix}.csv`);
+    expect(
+      await spectra.first().getByRole("link", { name: "Calibrate with it" }).getAttribute("href"),
+    ).toMatch(new RegExp(`^/instruments/${instrumentId}/calibrate\\?spectrum=[0-9a-f-]{36}$`));
+    await screenshot(page, "instrument-edit-3b-spectra");
     await page.getByRole("link", { name: "Edit instrument" }).click();
     await page.waitForURL(`**/instruments/${instrumentId}/edit`);
     await page.getByText("its dispersion and pixel count are fixed").waitFor();

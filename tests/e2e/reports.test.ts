@@ -155,6 +155,56 @@ describe("reports", () => {
     expect(even.bytes.toString("latin1")).toContain("##XYDATA=(X++(Y..Y))");
   });
 
+  it("says while the PDF is prepared and when it is saved, works from the keyboard, and says why a download failed", async () => {
+    const { page } = browser;
+    await page.goto(`/runs/${runId}`);
+    const block = new RunDownloadsBlock(page);
+    // The reply is held back 2.5 s here, so the preparing state is seen whatever the report cache holds.
+    const pdfPath = `/api/runs/${runId}/report.pdf`;
+    await page.route(`**${pdfPath}`, async (route) => {
+      await new Promise((resolve) => setTimeout(resolve, 2500));
+      await route.continue();
+    });
+    const pdfButton = block.button("download-report-pdf");
+    await pdfButton.focus();
+    const downloaded = page.waitForEvent("download");
+    await page.keyboard.press("Enter");
+    await expect
+      .poll(() => block.status("download-report-pdf").textContent())
+      .toMatch(/^Preparing the PDF…/);
+    expect(await pdfButton.getAttribute("aria-busy")).toBe("true");
+    expect(await pdfButton.isDisabled()).toBe(true);
+    expect(await block.status("download-report-pdf").getAttribute("aria-live")).toBe("polite");
+    await screenshot(page, "reports-4-preparing-pdf");
+    const download = await downloaded;
+    expect(download.suggestedFilename()).toMatch(/^emberline-run-[0-9a-f]{8}-v1\.pdf$/);
+    await expect
+      .poll(() => block.status("download-report-pdf").textContent())
+      .toBe(`Ready — saved as ${download.suggestedFilename()}.`);
+    expect(await pdfButton.isDisabled()).toBe(false);
+    await screenshot(page, "reports-5-pdf-ready");
+    await page.unroute(`**${pdfPath}`);
+
+    // A failure the server answers (here: the CSV asked of a run that is not there) is a sentence.
+    const csvPath = `/api/runs/${runId}/peaks.csv`;
+    const missing = "00000000-0000-4000-8000-000000000000";
+    await page.route(`**${csvPath}`, (route) =>
+      route.continue({ url: route.request().url().replace(runId, missing) }),
+    );
+    await block.button("download-peaks-csv").click();
+    await expect
+      .poll(() => block.status("download-peaks-csv").textContent())
+      .toMatch(/^The peaks CSV could not be prepared: [a-z].*\.$/);
+    await screenshot(page, "reports-6-download-failed");
+    await page.unroute(`**${csvPath}`);
+    // The 404 asked for above is the only problem this test caused.
+    const expected = browser.problems.filter(
+      (p) => p.startsWith("HTTP 404") && (p.includes(missing) || p.includes(csvPath)),
+    );
+    expect(expected).toHaveLength(1);
+    browser.problems.splice(browser.problems.indexOf(expected[0]), 1);
+  });
+
   it("offers the notebook's calls as CSV", async () => {
     const { page } = browser;
     await page.goto(`/notebooks/${notebookId}`);

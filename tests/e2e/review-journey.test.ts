@@ -1,7 +1,7 @@
 // Review and sign-off in Chromium: a draft run is made through the API (instrument, lamp calibration,
 // synthetic flame sample); the chemist submits it from the run page; the supervisor sees the count in
 // the navigation, opens the queue, marks a call and returns the run with a comment; the chemist reads
-// the comment, answers it in the run's notes and resubmits; the supervisor signs with the password, the
+// the comment, answers it in the run's notes and a reply, and resubmits; the supervisor signs with the password, the
 // run shows Signed, and the supervisor downloads its PDF, which carries the signature and the caveat.
 import { execFileSync } from "node:child_process";
 import fs from "node:fs";
@@ -46,7 +46,9 @@ describe("the review journey", () => {
     const panel = page.getByTestId("run-review-panel");
     await expect.poll(() => panel.getByTestId("run-status").textContent()).toBe("Draft");
     await screenshot(page, "review-1-draft-run");
-    await page.getByLabel("Reviewer").selectOption({ label: "Any supervisor of the team" });
+    await page
+      .getByLabel("Reviewer", { exact: true })
+      .selectOption({ label: "Any supervisor of the team" });
     await panel.getByRole("button", { name: "Submit for review" }).click();
     await expect
       .poll(() => panel.getByTestId("run-status").textContent(), { timeout: 20_000 })
@@ -74,7 +76,11 @@ describe("the review journey", () => {
     await row.getByRole("link").first().click();
     await page.waitForURL(new RegExp(`/review/${run.id}$`));
     await page.getByTestId("review-pairs").waitFor();
-    expect(await page.getByTestId("review-settings").textContent()).toContain("Software");
+    const settings = (await page.getByTestId("review-settings").textContent()) ?? "";
+    expect(settings).toContain("Software");
+    // Settings left blank show the defaults they stand for.
+    expect(settings).toContain("Detection threshold (min SNR, minSnr)5 (default)");
+    expect(settings).toContain("Match window (k·σ, k)3 (default)");
 
     // A mark on the first call, then the return with a comment.
     const firstCall = page.getByTestId("call-to-review").first();
@@ -90,12 +96,22 @@ describe("the review journey", () => {
       await charts.nth(i).locator(".main-svg").first().waitFor({ timeout: 30_000 });
     }
     await screenshot(page, "review-4-review-page");
+    // The calls come before Decide on the page: the reviewer reads them first.
+    const callsTop = (await page.getByTestId("calls-to-review").boundingBox())!.y;
+    const decideTop = (await page.getByRole("heading", { name: "Decide" }).boundingBox())!.y;
+    expect(callsTop).toBeLessThan(decideTop);
     await page.getByRole("button", { name: "Return with comments" }).click();
     await page
       .getByTestId("round-comment")
       .filter({ hasText: comment })
       .waitFor({ timeout: 20_000 });
     expect(await page.getByRole("heading", { name: "Decide" }).count()).toBe(0);
+    // The page then says what was done, not that the run cannot be decided.
+    const outcome = page.getByTestId("review-outcome");
+    expect(await outcome.textContent()).toMatch(
+      /^Returned for revision\. You returned this run to its author on \d{4}-\d\d-\d\d \d\d:\d\d UTC \(round 1\)\./,
+    );
+    expect(await page.getByText("You cannot decide").count()).toBe(0);
     await screenshot(page, "review-5-returned");
 
     // The chemist reads the comment on the run page and submits again.
@@ -112,7 +128,9 @@ describe("the review journey", () => {
     await expect
       .poll(() => page.getByTestId("notes-status").textContent(), { timeout: 20_000 })
       .toBe("Saved");
-    await panel.getByLabel("Reviewer").selectOption({ label: "Tobias Wren" });
+    const reply = "Rechecked against a fresh lamp spectrum; see the notes.";
+    await panel.getByLabel("Reply to the reviewer's comments").fill(reply);
+    await panel.getByLabel("Reviewer", { exact: true }).selectOption({ label: "Tobias Wren" });
     await panel.getByRole("button", { name: "Submit for review" }).click();
     await expect
       .poll(() => panel.getByTestId("run-status").textContent(), { timeout: 20_000 })
@@ -129,6 +147,10 @@ describe("the review journey", () => {
     await page.getByRole("button", { name: /^Sign:/ }).click();
     await page.getByTestId("signature").waitFor({ timeout: 20_000 });
     expect(await page.getByTestId("signature").textContent()).toContain("Tobias Wren");
+    expect(await page.getByTestId("round-reply").textContent()).toContain(reply);
+    expect(await page.getByTestId("review-outcome").textContent()).toMatch(
+      /^Signed\. You signed this run on .* UTC \(round 2\), meaning “Reviewed and approved”\./,
+    );
     await page.goto(`/runs/${run.id}`);
     await expect.poll(() => panel.getByTestId("run-status").textContent()).toBe("Signed");
     expect(await panel.getByTestId("signature").textContent()).toMatch(/[0-9a-f]{64}/);
@@ -152,5 +174,6 @@ describe("the review journey", () => {
     expect(text).toContain("Reviewed and approved");
     expect(text).toMatch(/not a certified analysis/i);
     expect(browser.problems, browser.problems.join("\n")).toEqual([]);
-  });
+    // The whole journey in one test, under a loaded machine: more than the default two minutes.
+  }, 240_000);
 });

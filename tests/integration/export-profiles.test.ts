@@ -322,7 +322,7 @@ describe("the profile from an upload", () => {
     });
     expect(unknown.status).toBe(400);
     expect(unknown.body.error.fieldErrors?.xUnit?.[0]).toMatch(
-      /^xUnit, what the file's first column holds, is one of/,
+      /^The xUnit, what the file's first column holds, is one of/,
     );
     expect(await instrumentRow(bench.id)).toMatchObject({ export_x_unit: null, version: 0 });
     expect(await spectraOf(bench.id)).toBe(0);
@@ -348,7 +348,7 @@ describe("the profile on the instrument", () => {
     });
     expect(badUnit.status).toBe(400);
     expect(badUnit.body.error.fieldErrors?.exportXUnit?.[0]).toBe(
-      "exportXUnit, the first column of this instrument's files, is one of pixel-from-0, pixel-from-1, nm, angstrom, wavenumber, or null when not known.",
+      "The exportXUnit, the first column of this instrument's files, is one of pixel-from-0, pixel-from-1, nm, angstrom, wavenumber, or null when not known.",
     );
     const badMedium = await lead.post<ErrorBody>("/api/instruments", {
       ...base,

@@ -1,5 +1,6 @@
 // The team's audit trail: who changed what, when and why, filtered through the URL, each event with
 // its before and after, older events a page at a time, and the filtered trail as a CSV download.
+import { DownloadButton } from "@/components/ui/download-button";
 import { AuditFilters, type AuditFilterValues } from "@/components/audit/audit-filters";
 import { AuditTable } from "@/components/audit/audit-table";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -61,13 +62,13 @@ export default async function AuditPage({
         description={`Every change in ${chosen.teamName}: who, what, when and why. Events cannot be edited or deleted. Times and days are in UTC.`}
         actions={
           page && page.events.length > 0 ? (
-            <a
+            <DownloadButton
               href={`/api/audit?${csv}`}
-              download
-              className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800"
-            >
-              Download CSV{filtered ? " of these events" : ""}
-            </a>
+              label={`Download CSV${filtered ? " of these events" : ""}`}
+              what="audit CSV"
+              fallbackName="emberline-audit.csv"
+              testId="download-audit-csv"
+            />
           ) : undefined
         }
       />

@@ -27,6 +27,7 @@ import {
 import { detectionLimits, type DetectionLimit } from "./detection-limits";
 import { excitationTemperature, type ExcitationTemperature } from "./excitation-temperature";
 import { lteLineIndex } from "./lte-line-index";
+import { SAMPLE_ANALYSIS_DEFAULTS } from "./sample-analysis-defaults";
 
 export interface AnalyzeSampleOptions {
   /** The dispersion relation for the input axis; null when x already is a wavelength axis in nm.
@@ -133,8 +134,8 @@ export function analyzeSample(
     resolutionPx,
     broadFactor,
     detectorMax,
-    minSnr = 5,
-    k = 3,
+    minSnr = SAMPLE_ANALYSIS_DEFAULTS.minSnr,
+    k = SAMPLE_ANALYSIS_DEFAULTS.k,
   } = options;
   for (const [name, value] of Object.entries({ resolutionNm, resolutionPx })) {
     if (value !== undefined && (!(value > 0) || !Number.isFinite(value))) {

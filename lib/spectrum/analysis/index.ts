@@ -1,5 +1,6 @@
 // Public API of the composed analyses: lamp calibration and its workbench edits, calibrated peaks and the identification of a sample.
 export { calibratePeaks, type CalibratePeaksOptions } from "./calibrate-peaks";
+export { SAMPLE_ANALYSIS_DEFAULTS } from "./sample-analysis-defaults";
 export {
   analyzeSample,
   type AnalyzeSampleOptions,

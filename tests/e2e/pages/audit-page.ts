@@ -17,7 +17,7 @@ export class AuditTrailPage {
     this.table = page.getByTestId("audit-table");
     this.rows = page.getByTestId("audit-row");
     this.loadMore = page.getByRole("button", { name: "Load more" });
-    this.download = page.getByRole("link", { name: /^Download CSV/ });
+    this.download = page.getByRole("button", { name: /^Download CSV/ });
     this.status = page.getByRole("main").getByRole("status");
   }
 

@@ -109,12 +109,31 @@ export class LineDraftPage {
       throw new Error(`The import was refused: ${await refused.first().textContent()}`);
   }
 
-  /** Publishes with notes; resolves with the release number the button announced. */
-  async publish(notes: string): Promise<number> {
+  /** The question asked before publishing. */
+  get publishDialog() {
+    return this.page.getByRole("dialog", { name: /^Publish release \d+\?$/ });
+  }
+
+  /**
+   * Publishes with notes, confirming in the dialog; resolves with the release number the button
+   * announced. With `cancelFirst`, the dialog is first cancelled with Escape and must leave the draft.
+   */
+  async publish(notes: string, { cancelFirst = false } = {}): Promise<number> {
     await this.notes.fill(notes);
     const button = this.page.getByRole("button", { name: /^Publish as release \d+$/ });
     const number = Number((await button.textContent())?.match(/\d+/)?.[0]);
-    await Promise.all([this.page.waitForURL((url) => url.pathname === "/lines"), button.click()]);
+    if (cancelFirst) {
+      await button.click();
+      await this.publishDialog.waitFor();
+      await this.page.keyboard.press("Escape");
+      await this.publishDialog.waitFor({ state: "hidden" });
+    }
+    await button.click();
+    await this.publishDialog.waitFor();
+    await Promise.all([
+      this.page.waitForURL((url) => url.pathname === "/lines"),
+      this.publishDialog.getByRole("button", { name: `Publish release ${number}` }).click(),
+    ]);
     return number;
   }
 }

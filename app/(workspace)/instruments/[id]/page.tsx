@@ -1,14 +1,16 @@
 // One instrument: its settings, its export profile (how its files without a header are read), its
-// calibration history (newest first, the default for new runs) and the ways on: calibrate against a
+// calibration history (newest first, the default for new runs), its spectra (newest first, a lamp
+// linking to its calibration) and the ways on: calibrate against a
 // lamp, upload a spectrum, and for lab leads edit the instrument (and so its profile).
 import Link from "next/link";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
 import { describeFirstColumn } from "@/components/workflow/first-column-labels";
-import { idOrNotFound, orNotFound } from "@/components/workflow/server-data";
+import { X_TITLES, idOrNotFound, orNotFound } from "@/components/workflow/server-data";
 import { can } from "@/lib/auth/policy";
 import { fetchCalibrations } from "@/lib/services/calibrations";
 import { fetchInstrument } from "@/lib/services/instruments";
+import { fetchSpectra } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
 
 export const metadata = { title: "Instrument" };
@@ -23,6 +25,7 @@ export default async function InstrumentPage({ params }: { params: Promise<{ id:
     orNotFound(fetchInstrument(actor, id)),
     orNotFound(fetchCalibrations(actor, id)),
   ]);
+  const spectra = await fetchSpectra(actor, instrument.teamId, { instrumentId: id });
   const manager = can(actor, "instrument.manage", { teamId: instrument.teamId });
   return (
     <>
@@ -153,6 +156,80 @@ export default async function InstrumentPage({ params }: { params: Promise<{ id:
                     {c.drift ? c.drift.maxAbsNm.toFixed(3) : "— (first)"}
                   </td>
                   <td className="px-3 py-2">{c.lamps.join(", ")}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+      <h2 id="instrument-spectra" className="mb-2 mt-6 text-lg font-semibold">
+        Spectra
+      </h2>
+      {spectra.length === 0 ? (
+        <EmptyState title="No spectra yet">
+          Nothing has been uploaded from this instrument.{" "}
+          <Link href={`/instruments/${id}/upload?kind=lamp`} className="underline">
+            Upload a lamp or sample spectrum
+          </Link>
+          .
+        </EmptyState>
+      ) : (
+        <div className="panel overflow-x-auto">
+          <table className="w-full text-sm" data-testid="instrument-spectra">
+            <caption className="sr-only">
+              Spectra uploaded from {instrument.name}, newest first
+            </caption>
+            <thead className="border-b border-[var(--line)] text-left">
+              <tr>
+                <th scope="col" className="px-3 py-2">
+                  Uploaded (UTC)
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Kind
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  Label and file
+                </th>
+                <th scope="col" className="px-3 py-2 text-right">
+                  Points
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  First column
+                </th>
+                <th scope="col" className="px-3 py-2">
+                  <span className="sr-only">Next step</span>
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {spectra.map((spectrum) => (
+                <tr
+                  key={spectrum.id}
+                  className="border-b border-[var(--line)] last:border-0"
+                  data-testid="instrument-spectrum"
+                >
+                  <td className="px-3 py-2 font-mono text-xs">
+                    {spectrum.uploadedAt.slice(0, 16).replace("T", " ")}
+                  </td>
+                  <td className="px-3 py-2">{spectrum.kind}</td>
+                  <td className="px-3 py-2">
+                    {spectrum.label || <span className="muted">no label</span>}
+                    <span className="muted block font-mono text-xs">{spectrum.fileName}</span>
+                  </td>
+                  <td className="px-3 py-2 text-right font-mono">
+                    {spectrum.points.toLocaleString("en")}
+                  </td>
+                  <td className="px-3 py-2">{X_TITLES[spectrum.xUnit]}</td>
+                  <td className="px-3 py-2">
+                    {spectrum.kind === "lamp" ? (
+                      <Link
+                        href={`/instruments/${id}/calibrate?spectrum=${spectrum.id}`}
+                        className="underline"
+                      >
+                        Calibrate with it
+                      </Link>
+                    ) : null}
+                  </td>
                 </tr>
               ))}
             </tbody>

@@ -1,6 +1,7 @@
 // One notebook: its runs with filters (status, species called present, instrument, search; kept in the
 // URL), renaming it, and "New run" with a picker of the instrument's sample spectra (the one just
 // uploaded preselected when ?spectrum= names it).
+import { DownloadButton } from "@/components/ui/download-button";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { RenameNotebookForm } from "@/components/notebooks/rename-notebook-form";
@@ -76,14 +77,15 @@ export default async function NotebookPage({
       <ScreeningNotice />
       <div className="mt-4">
         {notebook.runCount > 0 ? (
-          <a
-            href={`/api/notebooks/${id}/calls.csv`}
-            download
-            className="mb-2 inline-block text-sm underline"
-            data-testid="download-calls-csv"
-          >
-            Calls CSV (every run&apos;s calls)
-          </a>
+          <div className="mb-2">
+            <DownloadButton
+              href={`/api/notebooks/${id}/calls.csv`}
+              label="Calls CSV (every run's calls)"
+              what="calls CSV"
+              fallbackName="emberline-notebook-calls.csv"
+              testId="download-calls-csv"
+            />
+          </div>
         ) : null}
         <RunList
           notebookId={id}

@@ -8,6 +8,7 @@ import {
   RunSpectrumChart,
   type PairMark,
 } from "@/components/charts/spectrum-charts";
+import { decisionOutcome } from "@/components/review/decision-outcome";
 import { ReviewHistory } from "@/components/review/review-history";
 import { MarkForm, ReturnForm, SignForm } from "@/components/review/review-forms";
 import { PageHeader } from "@/components/ui/page-header";
@@ -22,6 +23,9 @@ import { fetchRun } from "@/lib/services/runs";
 import { fetchSpectrum } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { addMarkAction, decideRunAction } from "../actions";
+import { countOf } from "@/lib/text/count-of";
+import { analysisSettingRows } from "@/components/workflow/analysis-settings";
+import { Fragment } from "react";
 
 export const metadata = { title: "Review a run" };
 
@@ -48,6 +52,9 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
         ...calibration.rejected.map((p) => ({ ...p, used: false })),
       ].sort((a, b) => a.pixel - b.pixel)
     : [];
+  // Once decided (or not yet submitted) the page says what happened; the author's own run keeps the
+  // refusal, which is the reason they cannot decide it.
+  const outcome = review.isAuthor ? null : decisionOutcome(review.history, actor.id);
   const toReview = [...run.calls]
     .filter((c) => c.verdict !== "absent" || run.verdicts[c.species] !== "absent")
     .sort((a, b) => b.score - a.score);
@@ -74,13 +81,21 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
         }
       />
       <RunNotices run={run} coveredRangeNm={calibration?.coveredRangeNm ?? null}>
-        {review.whyNotDecide ? (
+        {outcome ? (
+          <p
+            role="status"
+            className="rounded border border-teal-700 p-2 text-sm"
+            data-testid="review-outcome"
+          >
+            <span className="font-semibold">{outcome.title}. </span>
+            {outcome.text}
+          </p>
+        ) : review.whyNotDecide ? (
           <p
             role="note"
             className="rounded border border-ember-600 p-2 text-sm"
             data-testid="why-not-review"
           >
-            <span className="font-semibold">You cannot decide this run: </span>
             {review.whyNotDecide}
           </p>
         ) : null}
@@ -113,7 +128,7 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
                   ) : null}
                   <span className="font-mono text-xs">score {call.score.toFixed(2)}</span>
                   <span className="muted text-xs">
-                    {call.seenCount} lines seen · {call.missingCount} missing
+                    {countOf(call.seenCount, "line")} seen · {call.missingCount} missing
                   </span>
                 </p>
                 {override && override.verdict !== null ? (
@@ -191,8 +206,9 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
               {calibration.calibratedOn} · {calibration.model} · RMS {calibration.rmsNm.toFixed(4)}{" "}
               nm
             </Link>{" "}
-            · {calibration.pairs.length} pairs used, {calibration.rejected.length} rejected · covers{" "}
-            {calibration.coveredRangeNm[0].toFixed(1)}–{calibration.coveredRangeNm[1].toFixed(1)} nm
+            · {countOf(calibration.pairs.length, "pair")} used, {calibration.rejected.length}{" "}
+            rejected · covers {calibration.coveredRangeNm[0].toFixed(1)}–
+            {calibration.coveredRangeNm[1].toFixed(1)} nm
           </p>
           <ResidualChart pairs={pairs} xTitle={X_TITLES[spectrum.xUnit]} />
           <table className="panel mt-2 w-full text-sm" data-testid="review-pairs">
@@ -240,14 +256,12 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
         className="grid max-w-3xl grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm"
         data-testid="review-settings"
       >
-        <dt className="muted">Detection threshold (min SNR)</dt>
-        <dd className="font-mono text-xs">{run.settings.minSnr ?? "default"}</dd>
-        <dt className="muted">Match window (k·σ)</dt>
-        <dd className="font-mono text-xs">{run.settings.k ?? "default"}</dd>
-        <dt className="muted">Temperature for intensities</dt>
-        <dd className="font-mono text-xs">
-          {run.settings.temperatureK ? `${run.settings.temperatureK} K` : "default"}
-        </dd>
+        {analysisSettingRows(run.settings).map((setting) => (
+          <Fragment key={setting.label}>
+            <dt className="muted">{setting.label}</dt>
+            <dd className="font-mono text-xs">{setting.value}</dd>
+          </Fragment>
+        ))}
         <dt className="muted">Line-table release</dt>
         <dd className="font-mono text-xs">{run.lineReleaseId}</dd>
         <dt className="muted">Noise</dt>

@@ -4,8 +4,8 @@
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { currentActor } from "@/lib/auth/session";
-import { unauthenticated } from "@/lib/errors";
-import { overrideCall, rerunRun, updateRunNotes } from "@/lib/services/runs";
+import { AppError, unauthenticated } from "@/lib/errors";
+import { fetchRun, overrideCall, rerunRun, updateRunNotes } from "@/lib/services/runs";
 import { invalidFormState } from "@/lib/validation/workflow-forms";
 import { formError, type FormState } from "@/lib/validation/form-state";
 import { runNotesFromForm, runOverrideFromForm } from "@/lib/validation/run-schemas";
@@ -39,19 +39,25 @@ export async function overrideCallAction(
   };
 }
 
+/** The notes form's state; `newer` carries the notes someone saved since the form was opened. */
+export interface RunNotesState extends FormState {
+  newer?: { notes: string; lockVersion: number };
+}
+
 export async function saveRunNotesAction(
   runId: string,
-  _state: FormState,
+  _state: RunNotesState,
   formData: FormData,
-): Promise<FormState> {
+): Promise<RunNotesState> {
   const parsed = runNotesFromForm(formData);
   const values = {
     notes: String(formData.get("notes") ?? ""),
     lockVersion: String(formData.get("lockVersion") ?? ""),
   };
   if (!parsed.success) return invalidFormState(parsed.error, values);
+  const actor = await actorOrThrow();
   try {
-    const run = await updateRunNotes(await actorOrThrow(), runId, parsed.data);
+    const run = await updateRunNotes(actor, runId, parsed.data);
     revalidatePath(`/runs/${runId}`);
     return {
       ok: true,
@@ -59,7 +65,21 @@ export async function saveRunNotesAction(
       values: { notes: run.notes, lockVersion: String(run.lockVersion) },
     };
   } catch (error) {
-    return { ...formError(error), values };
+    const state: RunNotesState = { ...formError(error), values };
+    // A stale copy: the form keeps the user's text and shows the newer notes beside it, so
+    // neither is lost and the user chooses.
+    if (error instanceof AppError && error.code === "conflict") {
+      const run = await fetchRun(actor, runId);
+      const editable = run.status === "draft" || run.status === "returned";
+      if (
+        editable &&
+        run.lockVersion !== parsed.data.lockVersion &&
+        run.notes !== parsed.data.notes
+      ) {
+        state.newer = { notes: run.notes, lockVersion: run.lockVersion };
+      }
+    }
+    return state;
   }
 }
 

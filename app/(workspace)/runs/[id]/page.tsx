@@ -24,6 +24,9 @@ import { fetchSpectrum } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { EntityTrail } from "@/components/audit/entity-trail";
 import { overrideCallAction, rerunAction, saveRunNotesAction } from "./actions";
+import { countOf } from "@/lib/text/count-of";
+import { analysisSettingRows } from "@/components/workflow/analysis-settings";
+import { Fragment } from "react";
 
 export const metadata = { title: "Run" };
 
@@ -45,7 +48,7 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
     <>
       <PageHeader
         title={`Run: ${spectrum.label || spectrum.fileName}`}
-        description={`${run.source} on ${instrument.name} · ${run.createdAt.slice(0, 16).replace("T", " ")} · ${run.peaks.length} peaks · called present: ${present.length ? present.join(", ") : "none"}`}
+        description={`${run.source} on ${instrument.name} · ${run.createdAt.slice(0, 16).replace("T", " ")} · ${countOf(run.peaks.length, "peak")} · called present: ${present.length ? present.join(", ") : "none"}`}
         actions={
           <div className="flex flex-wrap items-start gap-2">
             {newer ? (
@@ -142,10 +145,14 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
             </dd>
           </>
         ) : null}
-        <dt className="muted">Settings</dt>
-        <dd className="font-mono text-xs">
-          {Object.keys(run.settings).length ? JSON.stringify(run.settings) : "defaults"}
-        </dd>
+        {analysisSettingRows(run.settings).map((setting) => (
+          <Fragment key={setting.label}>
+            <dt className="muted">{setting.label}</dt>
+            <dd className="font-mono text-xs" data-testid="run-setting">
+              {setting.value}
+            </dd>
+          </Fragment>
+        ))}
         <dt className="muted">Noise</dt>
         <dd className="font-mono text-xs">{run.noiseCounts.toFixed(2)} counts</dd>
         <dt className="muted">Software</dt>

@@ -1,5 +1,6 @@
 // A run's printable report: the same content as the PDF, with print styles for A4 that leave out
 // the workspace navigation, and the PDF one click away.
+import { DownloadButton } from "@/components/ui/download-button";
 import Link from "next/link";
 import { PrintButton } from "@/components/reports/print-button";
 import {
@@ -35,13 +36,13 @@ export default async function RunReportPage({ params }: { params: Promise<{ id: 
           Back to the run
         </Link>
         <PrintButton />
-        <a
+        <DownloadButton
           href={`/api/runs/${id}/report.pdf`}
-          download
-          className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800"
-        >
-          Download the PDF
-        </a>
+          label="Download the PDF"
+          what="PDF"
+          fallbackName="emberline-run-report.pdf"
+          testId="report-page-pdf"
+        />
         <p className="muted text-xs">Printing leaves out the navigation and fits A4.</p>
       </div>
       <div className="panel mx-auto max-w-[210mm] p-6 print:border-0 print:p-0">
