@@ -70,7 +70,10 @@ describe("checking the draft against a reference", () => {
     expect(await check.error.first().textContent()).toMatch(
       /nothing was compared or written.*"uncertainty_nm" is missing/,
     );
-    await page.getByText(/Line 1: required column "uncertainty_nm" is missing/).waitFor();
+    // The file field's own error region (aria-describedby of the file input) lists the located problems.
+    expect(await page.locator("#reference-file-error").textContent()).toMatch(
+      /^Line 1: required column "uncertainty_nm" is missing/,
+    );
     await screenshot(page, "line-reference-check-2-refused");
 
     await check.check("nist-asd-example.csv", REFERENCE);
