@@ -66,7 +66,7 @@ function PairTable({
         <tbody className="divide-line">
           {pairs.map((p) => (
             <tr key={p.lineId} className="align-top">
-              <th scope="row" className="py-1 pr-2 font-medium">
+              <th scope="row" className="py-1 pr-2 font-medium whitespace-nowrap">
                 {p.species} {p.draftNm.toFixed(3)}
                 {p.verified ? <span className="muted"> (verified)</span> : null}
               </th>
@@ -173,12 +173,13 @@ export function ReferenceCheckPanel({
           {preview.referenceLineCount} reference lines: {rows(preview.agreeing.length)} agree within
           the combined uncertainty, {preview.disagreeing.length} disagree,{" "}
           {preview.alreadyVerified.length} already verified agree, {preview.referenceOnly.length}{" "}
-          have no draft row and {preview.draftOnly.length} draft rows of the same species have no
-          reference line. Agreement means the difference is at most{" "}
-          {preview.coverageFactor === 1 ? "" : `${preview.coverageFactor} × `}the combined
-          uncertainty √(u<sub>draft</sub>² + u<sub>reference</sub>²), and never less than{" "}
-          {preview.minToleranceNm} nm; each line is compared in the medium its reference states.
-          Nothing is written until you confirm.
+          {preview.referenceOnly.length === 1 ? "has" : "have"} no draft row, and{" "}
+          {rows(preview.draftOnly.length)} of the same species in the draft{" "}
+          {preview.draftOnly.length === 1 ? "has" : "have"} no reference line. Agreement means the
+          difference is at most {preview.coverageFactor === 1 ? "" : `${preview.coverageFactor} × `}
+          the combined uncertainty √(u<sub>draft</sub>² + u<sub>reference</sub>²), and never less
+          than {preview.minToleranceNm} nm; each line is compared in the medium its reference
+          states. Nothing is written until you confirm.
         </p>
 
         <section aria-labelledby="ref-agree-heading">

@@ -178,18 +178,20 @@ async function plan(
         citation: line.citation,
       };
     }),
-    draftOnly: comparison.draftOnly.map((id) => {
-      const row = rows.get(id)!;
-      return {
-        lineId: row.id,
-        lineKey: row.line_key,
-        species: row.species,
-        airNm: row.air_nm,
-        vacuumNm: row.vacuum_nm,
-        uncertaintyNm: row.uncertainty_nm,
-        verified: row.verified_at !== null,
-      };
-    }),
+    draftOnly: comparison.draftOnly
+      .map((id) => {
+        const row = rows.get(id)!;
+        return {
+          lineId: row.id,
+          lineKey: row.line_key,
+          species: row.species,
+          airNm: row.air_nm,
+          vacuumNm: row.vacuum_nm,
+          uncertaintyNm: row.uncertainty_nm,
+          verified: row.verified_at !== null,
+        };
+      })
+      .sort((a, b) => a.species.localeCompare(b.species) || a.vacuumNm - b.vacuumNm),
     otherSpeciesCount: comparison.otherSpeciesCount,
     retiredCount: comparison.retiredCount,
     citations: [...new Set([...agreeing, ...disagreeing].map((p) => p.citation))],
