@@ -66,6 +66,7 @@ describe("checking the draft against a reference", () => {
       "no-uncertainty.csv",
       "species,wavelength_nm,citation\nNa I,588.995,test\n",
       "air",
+      { expect: "refusal" },
     );
     expect(await check.error.first().textContent()).toMatch(
       /nothing was compared or written.*"uncertainty_nm" is missing/,

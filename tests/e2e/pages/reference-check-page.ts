@@ -38,8 +38,16 @@ export class ReferenceCheckPage {
     await this.heading.waitFor();
   }
 
-  /** Chooses a reference file (made in memory), optionally its medium, and asks for the comparison. */
-  async check(fileName: string, csv: string, medium: "" | "air" | "vacuum" = ""): Promise<void> {
+  /**
+   * Chooses a reference file (made in memory), optionally its medium, and asks for the comparison;
+   * waits for the preview, or with `expect: "refusal"` for the form's error.
+   */
+  async check(
+    fileName: string,
+    csv: string,
+    medium: "" | "air" | "vacuum" = "",
+    { expect = "preview" }: { expect?: "preview" | "refusal" } = {},
+  ): Promise<void> {
     await this.fileInput.setInputFiles({
       name: fileName,
       mimeType: "text/csv",
@@ -47,7 +55,12 @@ export class ReferenceCheckPage {
     });
     await this.medium.selectOption(medium);
     await this.checkButton.click();
-    await this.preview.or(this.error).first().waitFor();
+    if (expect === "refusal") {
+      await this.error.first().waitFor();
+      return;
+    }
+    // An earlier refusal stays on screen until the answer comes: wait for the preview itself.
+    await this.preview.waitFor();
   }
 
   /** Chooses a decision for the disagreeing row whose text contains `rowText`. */
