@@ -63,6 +63,13 @@ export function LineDetails({ line }: { line: LineRecord }) {
             {line.verifiedAt ? `, ${line.verifiedAt.slice(0, 10)}` : ""}
           </span>
         ) : null}
+        {line.verified ? (
+          <span className="block" data-testid="verified-against">
+            {line.verifiedCitation
+              ? `Against the reference: ${line.verifiedCitation}`
+              : "Against the row's own source"}
+          </span>
+        ) : null}
       </Row>
     </dl>
   );

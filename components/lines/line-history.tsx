@@ -9,6 +9,13 @@ const ACTION_LABELS: Record<string, string> = {
   "line.verify": "marked verified",
 };
 
+/** A reference check's decision for this line, in words. */
+const REFERENCE_DECISIONS: Record<string, string> = {
+  verified: "verified against a reference",
+  take: "took the reference value and verified",
+  keep: "kept our value against a reference",
+};
+
 // Audit payloads carry bookkeeping next to the line's values; these are not changes of the line.
 const BOOKKEEPING = new Set([
   "releaseId",
@@ -19,6 +26,7 @@ const BOOKKEEPING = new Set([
   "lineKey",
   "id",
   "version",
+  "decision",
 ]);
 
 function show(value: unknown): string {
@@ -61,6 +69,14 @@ function changesOf(entry: LineHistoryEntry): { field: string; before: string; af
     .filter((c) => c.before !== c.after);
 }
 
+function actionLabel(entry: LineHistoryEntry): string {
+  if (entry.action === "line_release.reference_check") {
+    const decision = (entry.after as { decision?: string } | null)?.decision ?? "";
+    return REFERENCE_DECISIONS[decision] ?? "checked against a reference";
+  }
+  return ACTION_LABELS[entry.action] ?? entry.action;
+}
+
 function isImport(entry: LineHistoryEntry): boolean {
   return Boolean(
     entry.after && typeof entry.after === "object" && (entry.after as { import?: unknown }).import,
@@ -83,7 +99,7 @@ export function LineHistory({ entries }: { entries: LineHistoryEntry[] }) {
           <li key={`${entry.at}-${index}`} className="py-2">
             <p>
               <span className="font-medium">
-                {ACTION_LABELS[entry.action] ?? entry.action}
+                {actionLabel(entry)}
                 {isImport(entry) ? " by CSV import" : ""}
               </span>{" "}
               by {entry.actorName ?? "the system"}{" "}

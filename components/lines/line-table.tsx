@@ -172,8 +172,19 @@ export function LineTable({
               >
                 {line.source}
               </td>
-              <td className="px-2 py-1 whitespace-nowrap">
-                <VerifiedMark verified={line.verified} />
+              <td className="px-2 py-1">
+                <span className="whitespace-nowrap">
+                  <VerifiedMark verified={line.verified} />
+                </span>
+                {line.verifiedCitation ? (
+                  <span
+                    className="muted block max-w-48 truncate text-2xs"
+                    title={`Against ${line.verifiedCitation}`}
+                    data-testid="verified-citation"
+                  >
+                    against {line.verifiedCitation}
+                  </span>
+                ) : null}
               </td>
               {rowActions ? <td className="px-2 py-1">{rowActions(line)}</td> : null}
             </tr>

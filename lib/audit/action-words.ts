@@ -51,6 +51,11 @@ const ACTIONS: Record<string, ActionWords> = {
     verb: "imported lines into",
     alone: "imported lines",
   },
+  "line_release.reference_check": {
+    label: "Checked against a reference",
+    verb: "checked lines against a reference in",
+    alone: "checked lines against a reference",
+  },
   "line_release.open_draft": {
     label: "Draft release opened",
     verb: "opened",

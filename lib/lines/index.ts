@@ -23,3 +23,17 @@ export type {
   LineTableRow,
   ParsedSpecies,
 } from "./types";
+export { parseReferenceCsv, REFERENCE_COLUMNS } from "./parse-reference-csv";
+export type {
+  ParseReferenceCsvOptions,
+  ReferenceCsvParseResult,
+  ReferenceFileLine,
+  WavelengthMedium,
+} from "./parse-reference-csv";
+export { compareWithReference } from "./compare-with-reference";
+export type {
+  CompareWithReferenceOptions,
+  DraftLineForCheck,
+  ReferenceComparison,
+  ReferencePairing,
+} from "./compare-with-reference";

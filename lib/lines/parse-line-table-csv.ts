@@ -1,7 +1,6 @@
 // Reads a line-table CSV (starter table, draft import) into validated rows and located errors.
 // Every row is checked in full so a preview can show all of a file's problems at once.
 
-import Papa from "papaparse";
 import { unguardFormulaCell } from "../reports/formula-guard";
 
 import type { SourceKind } from "../spectrum/types";
@@ -17,7 +16,7 @@ import { formatSpecies } from "./format-species";
 import { parseSpecies } from "./parse-species";
 import { LINE_FLAGS } from "./types";
 import type { LineFlag, LineTableError, LineTableParseResult, LineTableRow } from "./types";
-import { lineLocator } from "./line-locator";
+import { readCsvRecords, type CsvRecord as RawRecord } from "./read-csv-records";
 
 export interface ParseLineTableCsvOptions {
   /**
@@ -64,37 +63,6 @@ function assertPositiveFinite(value: number, name: string): void {
   if (typeof value !== "number" || !Number.isFinite(value) || value <= 0) {
     throw new RangeError(`${name} must be a positive finite number, got ${value}`);
   }
-}
-
-interface RawRecord {
-  cells: string[];
-  line: number;
-  parseErrors: string[];
-}
-
-/** Splits the CSV into records, skipping "#" comment lines and remembering where each record starts. */
-function readRecords(text: string): RawRecord[] {
-  const lineOf = lineLocator(text);
-  const records: RawRecord[] = [];
-  Papa.parse<string[]>(text, {
-    delimiter: ",",
-    comments: "#",
-    skipEmptyLines: false,
-    step: (result) => {
-      const cells = result.data;
-      // The cursor sits after the record's line break; back up to its last character, then
-      // subtract the line breaks inside quoted cells to reach the line where it starts.
-      let end = result.meta.cursor;
-      if (text[end - 1] === "\n") end -= 1;
-      if (text[end - 1] === "\r") end -= 1;
-      const innerBreaks = cells.reduce((sum, cell) => sum + (cell.match(/\n/g)?.length ?? 0), 0);
-      const line = lineOf(Math.max(end - 1, 0)) - innerBreaks;
-      const parseErrors = result.errors.map((e) => e.message);
-      if (cells.every((cell) => cell.trim() === "") && parseErrors.length === 0) return;
-      records.push({ cells, line, parseErrors });
-    },
-  });
-  return records;
 }
 
 /** Checks the header row; returns column indexes by name, or null after reporting errors. */
@@ -364,7 +332,7 @@ export function parseLineTableCsv(
     throw new RangeError("maxWavelengthNm must be greater than minWavelengthNm");
   }
 
-  const records = readRecords(text.startsWith("\uFEFF") ? text.slice(1) : text);
+  const records = readCsvRecords(text.startsWith("\uFEFF") ? text.slice(1) : text);
   const errors: LineTableError[] = [];
   const result: LineTableParseResult = { rows: [], rowLines: [], errors };
   if (records.length === 0) {

@@ -62,7 +62,7 @@ function assertSize(csvText: string): void {
 }
 
 /** Lines that are neither blank nor # comments, less the header: an upper bound of the file's records. */
-function countDataLines(csvText: string): number {
+export function countDataLines(csvText: string): number {
   let count = 0;
   let start = 0;
   while (start <= csvText.length) {

@@ -34,6 +34,8 @@ export interface LineDbRow {
   verified_by_id: string | null;
   verified_by_name: string | null;
   verified_at: Date | null;
+  /** What a reference check verified the line against; null for a check against its own source. */
+  verified_citation: string | null;
   retired: boolean;
   version: number;
 }
@@ -114,7 +116,7 @@ export const VALUE_COLUMN_TYPES: Record<ValueColumn, string> = {
 
 /** SELECT list for lines aliased `l`, with the verifier joined as `vu`. */
 export const LINE_SELECT = `l.id, l.release_id, l.line_key, ${VALUE_COLUMNS.map((c) => `l.${c}`).join(", ")},
-  l.verified_by_id, vu.name AS verified_by_name, l.verified_at, l.retired, l.version`;
+  l.verified_by_id, vu.name AS verified_by_name, l.verified_at, l.verified_citation, l.retired, l.version`;
 export const LINE_FROM = `lines l LEFT JOIN users vu ON vu.id = l.verified_by_id`;
 
 const RECORDSET_COLUMNS = VALUE_COLUMNS.map((c) => `${c} ${VALUE_COLUMN_TYPES[c]}`).join(", ");
@@ -129,7 +131,8 @@ export const BULK_INSERT_LINES_SQL = `INSERT INTO lines (release_id, line_key, $
 
 /** One UPDATE of many lines' values (bind $1 = JSON array of {id, ...values}); edited values are unverified. */
 export const BULK_UPDATE_LINES_SQL = `UPDATE lines l SET ${VALUE_COLUMNS.map((c) => `${c} = v.${c}`).join(", ")},
-    verified_by_id = NULL, verified_at = NULL, version = l.version + 1, updated_at = now()
+    verified_by_id = NULL, verified_at = NULL, verified_citation = NULL, version = l.version + 1,
+    updated_at = now()
   FROM jsonb_to_recordset($1::jsonb) AS v(id uuid, ${RECORDSET_COLUMNS})
   WHERE l.id = v.id`;
 
@@ -204,6 +207,7 @@ export function toLineRecord(row: LineDbRow): LineRecord {
     verified: row.verified_at !== null,
     verifiedByName: row.verified_by_name,
     verifiedAt: row.verified_at ? new Date(row.verified_at).toISOString() : null,
+    verifiedCitation: row.verified_citation,
     retired: row.retired,
     version: row.version,
   };

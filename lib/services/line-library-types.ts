@@ -46,6 +46,8 @@ export interface LineRecord {
   verified: boolean;
   verifiedByName: string | null;
   verifiedAt: string | null;
+  /** The reference citation a reference check verified the line against; null otherwise. */
+  verifiedCitation: string | null;
   /** True for a line retired in the draft: it is left out when the draft is published. */
   retired: boolean;
   /** Optimistic-locking version: send it back with every edit. */
@@ -129,4 +131,88 @@ export interface LineHistoryEntry {
   reason: string | null;
   before: unknown;
   after: unknown;
+}
+
+/** One reference line paired with one draft row, as a reference check's preview shows it. */
+export interface ReferenceCheckPair {
+  lineId: string;
+  lineKey: string;
+  species: string;
+  /** The medium of the comparison: the reference line's. */
+  medium: "air" | "vacuum";
+  /** The draft row's wavelength in that medium, nm. */
+  draftNm: number;
+  referenceNm: number;
+  /** draftNm − referenceNm, nm. */
+  differenceNm: number;
+  /** √(u_draft² + u_reference²), nm. */
+  combinedUncertaintyNm: number;
+  /** The largest difference that counts as agreement, nm. */
+  toleranceNm: number;
+  draftUncertaintyNm: number | null;
+  referenceUncertaintyNm: number;
+  citation: string;
+  /** 1-based line of the reference file. */
+  csvLine: number;
+  verified: boolean;
+  verifiedCitation: string | null;
+}
+
+/** What a reference check would do to the draft. Writes nothing. */
+export interface ReferenceCheckPreview {
+  releaseId: string;
+  /** SHA-256 of the reference file's text (UTF-8). */
+  fileSha256: string;
+  /** Fingerprint of the file, the medium and the draft's rows; apply refuses a stale one. */
+  fingerprint: string;
+  referenceLineCount: number;
+  /** Agree and are not verified yet: marked verified on apply. */
+  agreeing: ReferenceCheckPair[];
+  /** Agree and are verified already: left as they are. */
+  alreadyVerified: ReferenceCheckPair[];
+  /** Disagree: each waits for a decision (keep ours, take the reference value, or leave). */
+  disagreeing: ReferenceCheckPair[];
+  /** Reference lines with no draft row of their species within the pairing window. */
+  referenceOnly: {
+    csvLine: number;
+    species: string;
+    medium: "air" | "vacuum";
+    wavelengthNm: number;
+    uncertaintyNm: number;
+    citation: string;
+  }[];
+  /** Draft rows of the species the file covers that no reference line paired with. */
+  draftOnly: {
+    lineId: string;
+    lineKey: string;
+    species: string;
+    airNm: number | null;
+    vacuumNm: number;
+    uncertaintyNm: number | null;
+    verified: boolean;
+  }[];
+  /** Live draft rows of species the file does not mention. */
+  otherSpeciesCount: number;
+  /** Retired draft rows, not compared. */
+  retiredCount: number;
+  /** The distinct citations of the reference lines that agree or could be taken. */
+  citations: string[];
+  /** Agreement is |Δ| ≤ coverageFactor · combined uncertainty, and never less than minToleranceNm. */
+  coverageFactor: number;
+  minToleranceNm: number;
+  pairingWindowNm: number;
+}
+
+export type ReferenceDecision = "take" | "keep";
+
+export interface ReferenceCheckResult {
+  releaseId: string;
+  /** Rows marked verified (agreeing rows and rows that took the reference value). */
+  verified: number;
+  /** Rows whose wavelength and uncertainty were replaced by the reference's. */
+  taken: number;
+  /** Disagreeing rows whose values the lab lead kept (recorded, not verified). */
+  kept: number;
+  /** Disagreeing rows left for later. */
+  left: number;
 }

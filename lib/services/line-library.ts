@@ -139,12 +139,22 @@ export async function fetchLineHistory(actor: Actor, lineKey: string): Promise<L
     before: unknown;
     after: unknown;
   }>(
-    `SELECT e.created_at, u.name AS actor_name, e.action, r.number AS release_number, e.reason, e.before, e.after
+    // A reference check is one event for many lines; its `lines` object holds each line's part by key.
+    `SELECT e.id, e.created_at, u.name AS actor_name, e.action, r.number AS release_number, e.reason, e.before, e.after
        FROM audit_events e
        LEFT JOIN users u ON u.id = e.actor_id
        LEFT JOIN line_releases r ON r.id::text = coalesce(e.after->>'releaseId', e.before->>'releaseId')
       WHERE e.entity = 'line' AND e.entity_id = $1 AND e.team_id = $2
-      ORDER BY e.id`,
+     UNION ALL
+     SELECT e.id, e.created_at, u.name, e.action, r.number, e.reason,
+            e.after->'lines'->$1->'before',
+            (e.after->'lines'->$1->'after') || jsonb_build_object('decision', e.after->'lines'->$1->'decision')
+       FROM audit_events e
+       LEFT JOIN users u ON u.id = e.actor_id
+       LEFT JOIN line_releases r ON r.id::text = e.entity_id
+      WHERE e.entity = 'line_release' AND e.action = 'line_release.reference_check'
+        AND e.team_id = $2 AND e.after->'lines' ? $1
+      ORDER BY id`,
     { bind: [lineKey, teamId], type: QueryTypes.SELECT },
   );
   return events.map((e) => ({
@@ -177,7 +187,13 @@ export async function openDraft(actor: Actor, teamId: string): Promise<ReleaseSu
         { bind: [teamId, base?.id ?? null, actor.id], type: QueryTypes.SELECT, transaction },
       );
       if (base) {
-        const columns = ["line_key", ...VALUE_COLUMNS, "verified_by_id", "verified_at"].join(", ");
+        const columns = [
+          "line_key",
+          ...VALUE_COLUMNS,
+          "verified_by_id",
+          "verified_at",
+          "verified_citation",
+        ].join(", ");
         await sequelize.query(
           `INSERT INTO lines (release_id, ${columns}) SELECT $1, ${columns} FROM lines WHERE release_id = $2`,
           { bind: [created.id, base.id], transaction },
@@ -368,7 +384,8 @@ export async function updateLine(
     const values = valuesOf(next);
     await sequelize.query(
       `UPDATE lines SET ${VALUE_COLUMNS.map((c, i) => `${c} = $${i + 2}`).join(", ")},
-         verified_by_id = NULL, verified_at = NULL, version = version + 1, updated_at = now()
+         verified_by_id = NULL, verified_at = NULL, verified_citation = NULL, version = version + 1,
+         updated_at = now()
        WHERE id = $1`,
       { bind: [row.id, ...VALUE_COLUMNS.map((c) => values[c])], transaction },
     );
@@ -399,7 +416,7 @@ async function setLineState(
     const { row, teamId } = await lockLineForEdit(actor, input.lineId, input.version, transaction);
     const set =
       action === "line.verify"
-        ? "verified_by_id = $2, verified_at = now()"
+        ? "verified_by_id = $2, verified_at = now(), verified_citation = NULL"
         : `retired = ${action === "line.retire" ? "true" : "false"}`;
     if (action === "line.restore") {
       const twin = await twinInDraft(row.release_id, toLineTableRow(row), row.id, transaction);

@@ -9,6 +9,8 @@ import type {
   LineInput,
   LineQuery,
   LineSortKey,
+  ReferenceCheckPreview,
+  ReferenceCheckResult,
 } from "@/lib/services/line-library-types";
 import type { FormState } from "./form-state";
 import { SOURCE_KINDS, type SourceKind } from "@/lib/spectrum/types";
@@ -265,4 +267,48 @@ export function toImportPreviewView(preview: ImportPreview): ImportPreviewView {
     changeCount: preview.changes.length,
     errorCount: preview.errors.length,
   };
+}
+
+/** The reference check's file form: the draft, the file's text and the medium of rows without a medium cell. */
+export const referenceCheckFormSchema = z.object({
+  releaseId: z.uuid(),
+  csv: text({ error: "Choose a reference CSV file." })
+    .max(IMPORT_MAX_BYTES, `The file is larger than ${IMPORT_MAX_LABEL}; split it by element.`)
+    .refine((text) => text.trim().length > 0, "Choose a reference CSV file."),
+  medium: z
+    .enum(["", "air", "vacuum"], { error: "Choose air, vacuum or the file's medium column." })
+    .optional()
+    .transform((m) => (m ? m : undefined)),
+});
+
+export const referenceApplyFormSchema = referenceCheckFormSchema.extend({
+  fingerprint: text().min(8).max(200),
+  reason: text()
+    .trim()
+    .max(500, "Use at most 500 characters.")
+    .optional()
+    .transform((s) => s || undefined),
+});
+
+/** The decisions of the confirm form: fields named decision:<line id> holding take, keep or leave. */
+export function referenceDecisionsOf(
+  formData: FormData,
+): { lineId: string; decision: "take" | "keep" }[] {
+  const decisions: { lineId: string; decision: "take" | "keep" }[] = [];
+  for (const [name, value] of formData.entries()) {
+    if (!name.startsWith("decision:")) continue;
+    const lineId = name.slice("decision:".length);
+    if (!z.uuid().safeParse(lineId).success) continue;
+    if (value === "take" || value === "keep") decisions.push({ lineId, decision: value });
+  }
+  return decisions;
+}
+
+/** What the reference check's server action returns: the preview, and the text to confirm it with. */
+export interface ReferenceCheckFormState extends FormState {
+  preview?: ReferenceCheckPreview;
+  /** The reference CSV the preview was made from, kept in a hidden field until the lead confirms. */
+  csv?: string;
+  medium?: "air" | "vacuum";
+  applied?: ReferenceCheckResult;
 }

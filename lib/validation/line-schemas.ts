@@ -82,6 +82,34 @@ export const importApplySchema = importPreviewSchema.extend({
   skipRejected: z.boolean().optional(),
   reason: text().trim().max(1000).optional(),
 });
+const medium = z.enum(["air", "vacuum"], {
+  error: 'Say whether the reference wavelengths are in "air" or in "vacuum".',
+});
+/** A reference check's preview: the reference CSV and, for rows without a medium column, their medium. */
+export const referenceCheckPreviewSchema = z.object({
+  csv: text().min(1, "The reference file is empty."),
+  medium: medium.optional(),
+});
+export const referenceCheckApplySchema = referenceCheckPreviewSchema.extend({
+  fingerprint: text().min(16, "Check the file first: apply what a preview showed."),
+  decisions: z
+    .array(
+      z.object({
+        lineId: z.uuid("Name a draft line by its id."),
+        decision: z.enum(["take", "keep"], {
+          error: 'A decision is "take" (the reference value) or "keep" (ours).',
+        }),
+      }),
+    )
+    .max(20_000)
+    .optional(),
+  reason: text().trim().max(1000).optional(),
+});
+/** The cap of a reference check's body (a 2 MB file, with room for JSON's escapes and the decisions). */
+export const REFERENCE_CHECK_ROUTE_OPTIONS = {
+  maxBodyBytes: 4 * 1024 * 1024,
+  tooLargeMessage: "The reference file is larger than the 2 MB a reference check accepts.",
+};
 export const publishSchema = z.object({
   notes: text({ error: "Describe this release." })
     .trim()
@@ -156,6 +184,7 @@ export async function readImportBody<T extends z.ZodType<{ csv: string }>>(
       ...(query.has("fingerprint") ? { fingerprint: query.get("fingerprint") } : {}),
       ...(query.has("skipRejected") ? { skipRejected: query.get("skipRejected") === "true" } : {}),
       ...(query.has("reason") ? { reason: query.get("reason") } : {}),
+      ...(query.has("medium") ? { medium: query.get("medium") } : {}),
     };
   } else {
     try {

@@ -138,6 +138,12 @@ const JSON_ROUTES: JsonRoute[] = [
     path: "/api/releases/:id/import/apply",
     fields: ["csv", "fingerprint", "skipRejected", "reason"],
   },
+  { method: "POST", path: "/api/releases/:id/reference-check/preview", fields: ["csv", "medium"] },
+  {
+    method: "POST",
+    path: "/api/releases/:id/reference-check/apply",
+    fields: ["csv", "medium", "fingerprint", "decisions", "reason"],
+  },
   { method: "PATCH", path: "/api/lines/:id", fields: ["version", "line", "reason"] },
   { method: "POST", path: "/api/lines/:id/retire", fields: ["version", "reason"] },
   { method: "POST", path: "/api/lines/:id/restore", fields: ["version", "reason"] },

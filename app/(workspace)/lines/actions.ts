@@ -18,6 +18,7 @@ import {
   updateLine,
   verifyLine,
 } from "@/lib/services/line-library";
+import { applyReferenceCheck, previewReferenceCheck } from "@/lib/services/line-reference-check";
 import { formError, parseForm } from "@/lib/validation/form-state";
 import {
   IMPORT_MAX_BYTES,
@@ -30,10 +31,14 @@ import {
   lineCorrectionSchema,
   parseLineInputForm,
   publishSchema,
+  referenceApplyFormSchema,
+  referenceCheckFormSchema,
+  referenceDecisionsOf,
   toImportPreviewView,
   toLineFormFieldErrors,
   type ImportFormState,
   type LineFormState,
+  type ReferenceCheckFormState,
 } from "@/lib/validation/line-forms";
 
 const CONFLICT_MESSAGE = "Someone else changed this line first. Reload to see their change.";
@@ -229,6 +234,82 @@ export async function importAction(
   if (intent === "apply") return applyImportStep(state, formData);
   if (intent === "discard") return {};
   return previewImportStep(formData);
+}
+
+async function previewReferenceStep(formData: FormData): Promise<ReferenceCheckFormState> {
+  const text = await importText(formData);
+  if (typeof text !== "string") {
+    return { message: `The file is larger than ${IMPORT_MAX_LABEL}; split it by element.` };
+  }
+  const { data, state } = parseForm(
+    referenceCheckFormSchema,
+    toFormData({
+      releaseId: formData.get("releaseId"),
+      csv: text,
+      medium: formData.get("medium"),
+    }),
+  );
+  if (state) return state;
+  try {
+    const preview = await previewReferenceCheck(await actorOrThrow(), {
+      releaseId: data.releaseId,
+      csvText: data.csv,
+      medium: data.medium,
+    });
+    return { ok: true, preview, csv: data.csv, medium: data.medium };
+  } catch (error) {
+    return lineFormError(error);
+  }
+}
+
+async function applyReferenceStep(
+  state: ReferenceCheckFormState,
+  formData: FormData,
+): Promise<ReferenceCheckFormState> {
+  formData.set("csv", oneLineBreak(String(formData.get("csv") ?? "")));
+  const parsed = parseForm(referenceApplyFormSchema, formData);
+  if (parsed.state) return { ...state, ...parsed.state, ok: false };
+  const { data } = parsed;
+  try {
+    const applied = await applyReferenceCheck(await actorOrThrow(), {
+      releaseId: data.releaseId,
+      csvText: data.csv,
+      medium: data.medium,
+      fingerprint: data.fingerprint,
+      decisions: referenceDecisionsOf(formData),
+      reason: data.reason,
+    });
+    revalidateLines();
+    const rows = (n: number) => `${n} ${n === 1 ? "row" : "rows"}`;
+    return {
+      ok: true,
+      applied,
+      message:
+        `Marked ${rows(applied.verified)} verified` +
+        (applied.taken ? ` (${applied.taken} with the reference value taken)` : "") +
+        (applied.kept ? `; kept our value in ${rows(applied.kept)}` : "") +
+        (applied.left ? `; ${rows(applied.left)} left for later` : "") +
+        ".",
+    };
+  } catch (error) {
+    const failed = lineFormError(error);
+    if (failed.conflict) {
+      failed.message =
+        "The draft or the file changed since this check was made. Discard it and check the file again.";
+    }
+    return { ...state, ...failed, ok: false };
+  }
+}
+
+/** The reference check's form: check a file (preview), confirm the previewed check, or discard it. */
+export async function referenceCheckAction(
+  state: ReferenceCheckFormState,
+  formData: FormData,
+): Promise<ReferenceCheckFormState> {
+  const intent = formData.get("intent");
+  if (intent === "apply") return applyReferenceStep(state, formData);
+  if (intent === "discard") return {};
+  return previewReferenceStep(formData);
 }
 
 export async function publishAction(

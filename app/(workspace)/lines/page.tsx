@@ -50,6 +50,14 @@ export default async function LinesPage({
             </Link>
           ) : null}
           {lead ? (
+            <Link
+              href="/lines/reference"
+              className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800"
+            >
+              Check against a reference
+            </Link>
+          ) : null}
+          {lead ? (
             <DraftEntry draft={draft} openAction={openDraftAction} teamId={team.teamId} />
           ) : null}
         </>

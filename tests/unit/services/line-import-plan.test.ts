@@ -35,6 +35,7 @@ function draftRow(i: number, species: string, vacuumNm: number): LineDbRow {
     verified_by_id: null,
     verified_by_name: null,
     verified_at: null,
+    verified_citation: null,
     retired: false,
     version: 1,
   };

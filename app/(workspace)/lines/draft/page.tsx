@@ -84,6 +84,12 @@ export default async function DraftPage({
                 Changes since release {basedOn.number}
               </Link>
             ) : null}
+            <Link
+              href="/lines/reference"
+              className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800"
+            >
+              Check against a reference
+            </Link>
             <a
               href={`/api/releases/${draft.id}/export`}
               className="rounded border border-[var(--line)] px-3 py-1.5 text-sm hover:bg-ink-100 dark:hover:bg-ink-800"
