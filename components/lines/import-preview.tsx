@@ -1,6 +1,7 @@
 // What an import would do to the draft, before anything is written: the rows it adds, the rows it
 // changes (each changed field old → new) and the rows it rejects, located by file line and column.
 import type { LineTableRow } from "@/lib/lines";
+import { countOf } from "@/lib/text/count-of";
 import type { ImportPreviewView } from "@/lib/validation/line-forms";
 import { Flags, SOURCE_LABELS, Value } from "./line-values";
 
@@ -98,8 +99,8 @@ export function ImportPreview({ view }: { view: ImportPreviewView }) {
         <strong>{addCount.toLocaleString("en")}</strong> to add,{" "}
         <strong>{changeCount.toLocaleString("en")}</strong> to change,{" "}
         <strong>{errorCount.toLocaleString("en")}</strong> rejected;{" "}
-        {preview.unchangedCount.toLocaleString("en")} rows are already as in the draft. Nothing is
-        written until you apply.
+        {countOf(preview.unchangedCount, "row")} {preview.unchangedCount === 1 ? "is" : "are"}{" "}
+        already as in the draft. Nothing is written until you apply.
       </p>
 
       <section aria-labelledby="preview-adds" data-testid="preview-adds">

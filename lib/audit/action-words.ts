@@ -44,8 +44,10 @@ const ACTIONS: Record<string, ActionWords> = {
     alone: "withdrew an invitation",
   },
   "line.add": { label: "Line added", verb: "added line", alone: "added a line" },
+  "line.restore": { label: "Line restored", verb: "restored line", alone: "restored a line" },
   "line.retire": { label: "Line retired", verb: "retired line", alone: "retired a line" },
   "line.update": { label: "Line changed", verb: "changed line", alone: "changed a line" },
+  "line.verify": { label: "Line verified", verb: "verified line", alone: "verified a line" },
   "line_release.import": {
     label: "Lines imported",
     verb: "imported lines into",
