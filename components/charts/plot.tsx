@@ -62,10 +62,13 @@ function ChartUnavailable({ reason }: { reason: string }) {
       className="flex h-full flex-col items-center justify-center gap-2 rounded border border-dashed border-[var(--line)] p-4 text-center text-sm"
     >
       <p>
-        The chart could not be shown: the charting code did not arrive from the server. The figures
-        in the tables on this page are complete.
+        The chart could not be shown: the charting code did not arrive from the server. The rest of
+        the page is complete; reloading it usually brings the chart.
       </p>
-      <p className="muted text-xs">{reason}</p>
+      <details className="muted text-xs">
+        <summary className="cursor-pointer">Technical detail</summary>
+        {reason}
+      </details>
       <Button type="button" variant="quiet" onClick={() => window.location.reload()}>
         Reload the page
       </Button>
