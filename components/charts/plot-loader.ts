@@ -7,15 +7,13 @@ import type { PlotParams } from "react-plotly.js";
 
 export type PlotComponent = ComponentType<PlotParams>;
 
-let loaded: PlotComponent | null = null;
 let pending: Promise<PlotComponent> | null = null;
 
 /** The Plotly React component, downloading the library on the first call of the page. */
 export function loadPlotComponent(): Promise<PlotComponent> {
   pending ??= Promise.all([import("react-plotly.js/factory"), import("plotly.js-basic-dist-min")])
     .then(([factory, plotly]) => {
-      loaded = factory.default((plotly as { default?: object }).default ?? plotly);
-      return loaded;
+      return factory.default((plotly as { default?: object }).default ?? plotly);
     })
     .catch((error: unknown) => {
       // Forget the failure, so a later chart asks again (the bundler may still refuse a chunk it
@@ -24,9 +22,4 @@ export function loadPlotComponent(): Promise<PlotComponent> {
       throw error;
     });
   return pending;
-}
-
-/** The component when the library has already arrived (a chart mounted after the first one). */
-export function loadedPlotComponent(): PlotComponent | null {
-  return loaded;
 }

@@ -7,19 +7,20 @@ import type { Data, Layout, PlotMouseEvent } from "plotly.js";
 import { useEffect, useState } from "react";
 import { chartConfig } from "@/lib/charts/chart-config";
 import { Button } from "@/components/ui/button";
-import { loadedPlotComponent, loadPlotComponent, type PlotComponent } from "./plot-loader";
+import { loadPlotComponent, type PlotComponent } from "./plot-loader";
 
 type LoadState =
   | { status: "loading" }
   | { status: "ready"; Plot: PlotComponent }
   | { status: "failed"; reason: string };
 
-/** The Plotly component once the shared loader has it; the server and the first render say "loading". */
+/**
+ * The Plotly component once the shared loader has it. Every chart starts "loading", as the server drew
+ * it, even when the library is already here (a chart hydrated late, or a page reached by a link): the
+ * loader's settled promise then answers within the same frame.
+ */
 function usePlotComponent(): LoadState {
-  const [state, setState] = useState<LoadState>(() => {
-    const Plot = loadedPlotComponent();
-    return Plot ? { status: "ready", Plot } : { status: "loading" };
-  });
+  const [state, setState] = useState<LoadState>({ status: "loading" });
   const ready = state.status === "ready";
   useEffect(() => {
     if (ready) return;
