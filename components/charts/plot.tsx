@@ -17,7 +17,7 @@ type LoadState =
 /**
  * The Plotly component once the shared loader has it. Every chart starts "loading", as the server drew
  * it, even when the library is already here (a chart hydrated late, or a page reached by a link): the
- * loader's settled promise then answers within the same frame.
+ * loader's settled promise then answers at once, so the skeleton shows for a frame at most.
  */
 function usePlotComponent(): LoadState {
   const [state, setState] = useState<LoadState>({ status: "loading" });
