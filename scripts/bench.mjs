@@ -1,4 +1,6 @@
-// `npm run bench [-- --json]`: runs the benchmarks with tsx (no timing ever runs inside the tests).
+// `npm run bench [-- --json]`: runs the benchmarks with tsx (no timing ever runs inside the tests), then the
+// page-weight report of the production build in .next (built first when there is none; `--build` rebuilds).
+// `npm run bench -- --pages [--build] [--json]`: the page-weight report alone (bench/page-weight-bench.ts).
 // `npm run bench -- --load [--clients N --seconds S --pdf-share F --build]`: the production build under
 // load instead (bench/load-bench.mjs, which starts its own database, app and clients on loopback).
 // The line-table bench needs PostgreSQL: the local cluster is started here (and stopped after)
@@ -19,7 +21,13 @@ if (process.argv.includes("--load")) {
 }
 ensureDependencies();
 const tsx = path.join(root, "node_modules", ".bin", "tsx");
-const args = process.argv.slice(2);
+const pageWeight = path.join("bench", "page-weight-bench.ts");
+if (process.argv.includes("--pages")) {
+  const args = process.argv.slice(2).filter((a) => a !== "--pages");
+  const result = spawnSync(tsx, [pageWeight, ...args], { cwd: root, stdio: "inherit" });
+  process.exit(result.status ?? 1);
+}
+const args = process.argv.slice(2).filter((a) => a !== "--build");
 const pgPort = Number(process.env.EMBERLINE_PG_PORT ?? 54329);
 const dataRoot = path.resolve(root, process.env.EMBERLINE_DATA_DIR ?? ".data");
 const cluster = await startCluster({ dataDir: path.join(dataRoot, "postgres"), port: pgPort });
@@ -40,4 +48,11 @@ try {
 } finally {
   cluster.stop();
 }
+// Needs no database: the build's manifests and chunks only.
+const weights = spawnSync(
+  tsx,
+  [pageWeight, ...process.argv.slice(2).filter((a) => a === "--build" || a === "--json")],
+  { cwd: root, stdio: "inherit" },
+);
+status ||= weights.status ?? 1;
 process.exit(status);

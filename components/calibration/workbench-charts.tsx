@@ -3,7 +3,7 @@
 // line, unpaired ones clickable to pair), and the residuals per pair (excluded pairs drawn apart).
 // Each series has its own marker shape and a legend label, so nothing is told by colour alone.
 import type { Data } from "plotly.js";
-import { Chart, SERIES } from "@/components/charts/plot";
+import { Chart, SERIES, thinningOf } from "@/components/charts/plot";
 import { labelLanesMarginPx, staggeredLabelAnnotations } from "@/lib/charts/stagger-labels";
 import type { SpectrumSeries } from "@/components/charts/spectrum-charts";
 import type { CalibrationPreview } from "@/lib/services/calibrations";
@@ -75,6 +75,7 @@ export function WorkbenchLampChart({
       title="Lamp spectrum with the paired lines labelled and the unpaired peaks circled"
       caption="Click a circled peak to pair it with a line."
       fileName="lamp-workbench"
+      thinned={thinningOf(spectrum)}
       data={[
         {
           type: "scatter",

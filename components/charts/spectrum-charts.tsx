@@ -6,11 +6,13 @@ import type { Data } from "plotly.js";
 import { useId, useState } from "react";
 import { labelLanesMarginPx, staggeredLabelAnnotations } from "@/lib/charts/stagger-labels";
 import { BOLTZMANN_CONSTANT_EV_PER_K } from "@/lib/spectrum/temperature/boltzmann-constant";
-import { Chart, SERIES } from "./plot";
+import { Chart, SERIES, thinningOf } from "./plot";
 
 export interface SpectrumSeries {
   x: number[];
   y: number[];
+  /** Points before the series was thinned for the browser; absent when it was not. */
+  sourcePoints?: number;
 }
 
 /** The counts nearest to a position on the x axis (x sorted either way), so a mark sits on its peak. */
@@ -65,6 +67,7 @@ export function LampChart({
     <Chart
       title="Lamp spectrum with the paired lines marked"
       fileName="lamp-calibration"
+      thinned={thinningOf(spectrum)}
       data={[
         {
           type: "scatter",
@@ -215,6 +218,7 @@ export function RunSpectrumChart({
         }
         fileName={removed ? "run-spectrum-continuum-removed" : "run-spectrum"}
         height={420}
+        thinned={thinningOf(spectrum)}
         data={[
           {
             type: "scatter",
@@ -301,6 +305,7 @@ export function PreviewChart({ spectrum, xTitle }: { spectrum: SpectrumSeries; x
     <Chart
       title="Preview of the parsed points"
       fileName="upload-preview"
+      thinned={thinningOf(spectrum)}
       height={260}
       data={[
         {

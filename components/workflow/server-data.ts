@@ -29,7 +29,7 @@ export function idOrNotFound(value: string | undefined): string {
 export async function rawSeries(actor: Actor, spectrumId: string): Promise<SpectrumSeries> {
   const { x, y } = await orNotFound(fetchSpectrumPoints(actor, spectrumId));
   const thin = thinSeries(x, y);
-  return { x: thin.x, y: thin.y };
+  return { x: thin.x, y: thin.y, sourcePoints: thin.sourcePoints };
 }
 
 /** A run's sample on the axis the run used, with the continuum it removed, thinned for the browser. */
@@ -39,7 +39,10 @@ export async function runSeries(
 ): Promise<{ spectrum: SpectrumSeries; continuum: number[] | null }> {
   const { wavelengthNm, counts, continuum } = await orNotFound(fetchRunSpectrum(actor, runId));
   const thin = thinSeries(wavelengthNm, counts, continuum ? { continuum } : {});
-  return { spectrum: { x: thin.x, y: thin.y }, continuum: thin.companions.continuum ?? null };
+  return {
+    spectrum: { x: thin.x, y: thin.y, sourcePoints: thin.sourcePoints },
+    continuum: thin.companions.continuum ?? null,
+  };
 }
 
 export const X_TITLES: Record<AxisUnit, string> = {

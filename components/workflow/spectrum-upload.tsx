@@ -393,14 +393,10 @@ export function SpectrumUpload({
             <dt className="muted">SHA-256</dt>
             <dd className="break-all font-mono text-xs">{phase.preview.sha256}</dd>
           </dl>
-          <PreviewChart spectrum={phase.preview.series} xTitle={xTitles[phase.preview.xUnit]} />
-          {phase.preview.series.x.length < phase.preview.points ? (
-            <p className="muted text-xs">
-              The plot shows {phase.preview.series.x.length.toLocaleString("en")} of the points
-              (each stretch&apos;s lowest and highest); all{" "}
-              {phase.preview.points.toLocaleString("en")} are stored.
-            </p>
-          ) : null}
+          <PreviewChart
+            spectrum={{ ...phase.preview.series, sourcePoints: phase.preview.points }}
+            xTitle={xTitles[phase.preview.xUnit]}
+          />
           <div className="flex flex-wrap items-center gap-3">
             <Button type="button" onClick={store} pending={phase.step === "storing"}>
               {phase.step === "storing" ? "Storing…" : "Store this spectrum"}

@@ -4,6 +4,7 @@
 // person gets 404; a chemist may preview. Facts are checked against the test's own reading of the bytes.
 import { createHash, randomInt } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { MAX_CHART_POINTS } from "@/lib/charts/thin-series";
 import { DEMO, FLAME_SCREENING, signInDemo, signedIn, teamIdOf } from "./support/accounts";
 import { createSyntheticInstrument, uploadSpectrumFile } from "./support/bench";
 import { auditEventsSince, auditMark, closeDb, db, userIdByEmail } from "./support/database";
@@ -128,7 +129,7 @@ describe("the upload preview", () => {
     expect(reply.body.warnings).toEqual([]);
     expect(reply.body.yRange).toEqual([200, 90_000]);
     expect(reply.body.series.x.length).toBeLessThan(n);
-    expect(reply.body.series.x.length).toBeLessThanOrEqual(8002);
+    expect(reply.body.series.x.length).toBeLessThanOrEqual(MAX_CHART_POINTS);
     expect(reply.body.series.y).toContain(90_000);
     expect(reply.body.series.x[reply.body.series.y.indexOf(90_000)]).toBe(nmAt(31_337));
   });
