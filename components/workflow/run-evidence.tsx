@@ -137,7 +137,7 @@ export function CallEvidence({
                         {l.deltaNm >= 0 ? "+" : ""}
                         {l.deltaNm.toFixed(3)}
                       </td>
-                      <td>{l.relativeIntensity ?? "—"}</td>
+                      <td>{l.relativeIntensity === null ? "—" : twoDigits(l.relativeIntensity)}</td>
                     </tr>
                   ))
                 )}
@@ -167,7 +167,7 @@ export function CallEvidence({
                   call.missing.map((m) => (
                     <tr key={m.lineId}>
                       <td className="pr-3">{m.lineNm.toFixed(3)}</td>
-                      <td className="pr-3">{m.relativeIntensity}</td>
+                      <td className="pr-3">{twoDigits(m.relativeIntensity)}</td>
                       <td className="font-sans">
                         {m.hidden
                           ? "under another peak"
@@ -320,4 +320,9 @@ export function PeakTable({ peaks }: { peaks: RunPeak[] }) {
       </table>
     </div>
   );
+}
+
+/** A relative intensity to two significant digits: table intensities are rough to a factor of two. */
+function twoDigits(value: number): string {
+  return Number.isFinite(value) ? String(Number(value.toPrecision(2))) : "—";
 }
