@@ -10,6 +10,7 @@ import { can } from "@/lib/auth/policy";
 import { fetchCalibrations } from "@/lib/services/calibrations";
 import { fetchInstrument } from "@/lib/services/instruments";
 import { requireWorkspace } from "@/lib/services/workspace";
+import { TableScroll } from "@/components/ui/table-scroll";
 
 export const metadata = { title: "Instrument" };
 
@@ -94,7 +95,7 @@ export default async function InstrumentPage({ params }: { params: Promise<{ id:
           lamp lines and a dispersion relation is fitted.
         </EmptyState>
       ) : (
-        <div className="panel overflow-x-auto">
+        <TableScroll label={`Calibrations of ${instrument.name}`} className="panel">
           <table className="w-full text-sm">
             <caption className="sr-only">Calibrations of {instrument.name}, newest first</caption>
             <thead className="border-b border-[var(--line)] text-left">
@@ -157,7 +158,7 @@ export default async function InstrumentPage({ params }: { params: Promise<{ id:
               ))}
             </tbody>
           </table>
-        </div>
+        </TableScroll>
       )}
     </>
   );
