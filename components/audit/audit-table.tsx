@@ -73,13 +73,13 @@ export function AuditTable({
               <th scope="col" className="px-3 py-2 font-medium">
                 Person
               </th>
-              <th scope="col" className="px-3 py-2 font-medium">
+              <th scope="col" className="min-w-40 px-3 py-2 font-medium">
                 Action
               </th>
               <th scope="col" className="px-3 py-2 font-medium">
                 Entity
               </th>
-              <th scope="col" className="px-3 py-2 font-medium">
+              <th scope="col" className="min-w-60 px-3 py-2 font-medium">
                 Reason
               </th>
             </tr>

@@ -172,7 +172,7 @@ function RunTable({
                 <th scope="col" className="px-3 py-2">
                   Date
                 </th>
-                <th scope="col" className="px-3 py-2">
+                <th scope="col" className="min-w-40 px-3 py-2">
                   Sample
                 </th>
                 <th scope="col" className="px-3 py-2">

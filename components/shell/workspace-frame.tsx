@@ -16,20 +16,18 @@ export function WorkspaceFrame({
   sidebar: ReactNode;
   children: ReactNode;
 }) {
-  const [open, setOpen] = useState(false);
+  const pathname = usePathname();
+  // The page the sheet was opened on: following a link lands on another page, and the sheet must not
+  // stay over it, so it counts as open only on the page where it was opened.
+  const [openOn, setOpenOn] = useState<string | null>(null);
+  const open = openOn === pathname;
   const buttonRef = useRef<HTMLButtonElement>(null);
   const menuId = useId();
-  const pathname = usePathname();
 
   const close = useCallback((returnFocus: boolean) => {
-    setOpen(false);
+    setOpenOn(null);
     if (returnFocus) buttonRef.current?.focus();
   }, []);
-
-  // A followed link lands on another page: the sheet should not stay over it.
-  useEffect(() => {
-    setOpen(false);
-  }, [pathname]);
 
   // Escape closes from anywhere while the sheet is open, not only from inside it.
   useEffect(() => {
@@ -59,7 +57,7 @@ export function WorkspaceFrame({
           type="button"
           aria-expanded={open}
           aria-controls={menuId}
-          onClick={() => setOpen((value) => !value)}
+          onClick={() => setOpenOn(open ? null : pathname)}
           className="flex min-h-10 min-w-10 items-center gap-2 rounded border border-[var(--line)] px-3 text-sm hover:bg-ink-100 dark:hover:bg-ink-800"
         >
           <span aria-hidden className="font-mono text-base leading-none">

@@ -93,7 +93,7 @@ export function CallEvidence({
           </summary>
           <p className="mt-2 text-sm">{call.rationale}</p>
           <OverrideNote call={call} />
-          <div className="mt-2 grid gap-3 md:grid-cols-2">
+          <div className="mt-2 grid grid-cols-1 gap-3 md:grid-cols-2">
             <TableScroll label={`Lines of ${call.species} seen`}>
               <table className="text-sm">
                 <caption className="text-left text-xs font-semibold">Lines seen</caption>
