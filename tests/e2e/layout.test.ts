@@ -65,9 +65,14 @@ async function demoRunHref(page: Page): Promise<string> {
   return href;
 }
 
-/** The workbench over the demo grating's Hg–Ar lamp. */
+/** The workbench over the demo grating's Hg–Ar lamp (Flame Screening's, which every demo role sees). */
 async function workbenchHref(page: Page): Promise<string> {
-  const response = await page.request.get("/api/spectra?kind=lamp");
+  const me = (await (await page.request.get("/api/me")).json()) as {
+    teams: { id: string; name: string }[];
+  };
+  const team = me.teams.find((t) => t.name === "Flame Screening");
+  if (!team) throw new Error("The demo person is not in Flame Screening");
+  const response = await page.request.get(`/api/spectra?kind=lamp&teamId=${team.id}`);
   expect(response.status()).toBe(200);
   const lamps = (await response.json()) as { id: string; instrumentId: string; label: string }[];
   const lamp = lamps.find((s) => s.label === "Hg–Ar pencil lamp, morning check");
