@@ -5,7 +5,9 @@
 // line, and at 1440×900 the sidebar is back. Screenshots: test-output/e2e/layout-*.png.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Page } from "playwright-core";
-import { openBrowser, screenshot, type Session } from "./support/browser";
+import fs from "node:fs";
+import path from "node:path";
+import { SCREENSHOT_DIR, openBrowser, screenshot, type Session } from "./support/browser";
 import { SignInPage } from "./pages/sign-in-page";
 import { WorkspaceShell } from "./pages/workspace-shell";
 import { chartsDrawn } from "./pages/workflow-pages";
@@ -143,6 +145,12 @@ describe("the run page on a phone", () => {
     await signIn(phone, "chem@demo.emberline.example");
     await open(page, "run", await demoRunHref(page));
     const heightPx = await page.evaluate(() => document.documentElement.scrollHeight);
+    // Kept beside the screenshots, so that a change of the page's height can be followed over time.
+    fs.mkdirSync(SCREENSHOT_DIR, { recursive: true });
+    fs.writeFileSync(
+      path.join(SCREENSHOT_DIR, "layout-run-height-390.json"),
+      JSON.stringify({ heightPx, boundPx: RUN_PAGE_MAX_HEIGHT_PX }),
+    );
     expect(heightPx).toBeLessThan(RUN_PAGE_MAX_HEIGHT_PX);
     // The title takes whole lines: at one word per line it would be far taller than three lines.
     const title = page.locator("main#main h1");

@@ -94,7 +94,7 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
               <table className="w-full text-sm" data-testid="review-queue">
                 <thead className="text-left text-xs">
                   <tr className="border-b border-[var(--line)]">
-                    <th scope="col" className="px-3 py-2">
+                    <th scope="col" className="min-w-44 px-3 py-2">
                       Run
                     </th>
                     <th scope="col" className="px-3 py-2">
@@ -106,7 +106,7 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
                     <th scope="col" className="px-3 py-2">
                       Instrument
                     </th>
-                    <th scope="col" className="px-3 py-2">
+                    <th scope="col" className="min-w-32 px-3 py-2">
                       Called present
                     </th>
                     <th scope="col" className="px-3 py-2">
