@@ -17,9 +17,10 @@ const PHONE = { width: 390, height: 844 };
 const TABLET = { width: 768, height: 1024 };
 const DESKTOP = { width: 1440, height: 900 };
 /**
- * The demo flame run's page at 390 px measured 12,059 px tall with the sidebar beside it (one word per
- * line) and about 5,000 px with this layout (2026-12-03, this branch): 8,000 px fails the first with
- * room and leaves the second room for a few more calls.
+ * Measured on this branch (2026-12-03): before the change a demo run's page (the lamp read back as a
+ * sample) was 12,059 px tall at 390 px, the sidebar beside it and one word per line; with it that page is
+ * about 4,950 px and the demo flame run checked here 4,987 px. 8,000 px fails the first with room and
+ * leaves the second room for a few more calls.
  */
 const RUN_PAGE_MAX_HEIGHT_PX = 8_000;
 
