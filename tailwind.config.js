@@ -4,6 +4,10 @@
 module.exports = {
   theme: {
     extend: {
+      // Where the workspace's sidebar appears; below it the areas sit behind a menu button.
+      screens: {
+        sidebar: "56.25rem",
+      },
       colors: {
         ember: {
           50: "#fdf5ef",

@@ -1,8 +1,10 @@
-// The signed-in shell: areas on the left, the team switcher, the person and sign-out.
+// The signed-in shell: areas on the left (behind a menu button on narrow screens), the team switcher,
+// the person and sign-out.
 import type { ReactNode } from "react";
 import { MainNav, type NavItem } from "@/components/shell/main-nav";
 import { TeamSwitcher } from "@/components/shell/team-switcher";
 import { ThemeToggle } from "@/components/shell/theme-toggle";
+import { WorkspaceFrame } from "@/components/shell/workspace-frame";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import { countRunsWaitingFor } from "@/lib/services/run-review";
 import { requireWorkspace } from "@/lib/services/workspace";
@@ -25,49 +27,49 @@ export default async function WorkspaceLayout({ children }: { children: ReactNod
     { href: "/account", label: "Account" },
   ];
   return (
-    <div className="flex min-h-screen">
-      <aside className="flex w-64 shrink-0 flex-col gap-5 border-r border-[var(--line)] bg-[var(--panel)] p-3">
-        <a href="#main" className="sr-only focus:not-sr-only">
-          Skip to content
-        </a>
-        <p className="text-lg font-semibold tracking-tight">
+    <WorkspaceFrame
+      brand={
+        <p>
           <span className="text-ember-600" aria-hidden>
             ◆
           </span>{" "}
           Emberline
         </p>
-        <TeamSwitcher
-          memberships={actor.memberships}
-          currentTeamId={team?.teamId}
-          action={switchTeamAction}
-        />
-        <MainNav items={items} />
-        <div className="mt-auto flex flex-col gap-2 border-t border-[var(--line)] pt-3 text-sm">
-          <div>
-            <p className="font-medium" data-testid="signed-in-name">
-              {actor.name}
-            </p>
-            <p className="muted text-xs">
-              {actor.email}
-              {team ? ` · ${ROLE_LABELS[team.role]}` : ""}
-            </p>
+      }
+      sidebar={
+        <>
+          <TeamSwitcher
+            memberships={actor.memberships}
+            currentTeamId={team?.teamId}
+            action={switchTeamAction}
+          />
+          <MainNav items={items} />
+          <div className="mt-auto flex flex-col gap-2 border-t border-[var(--line)] pt-3 text-sm">
+            <div>
+              <p className="font-medium" data-testid="signed-in-name">
+                {actor.name}
+              </p>
+              <p className="muted break-words text-xs">
+                {actor.email}
+                {team ? ` · ${ROLE_LABELS[team.role]}` : ""}
+              </p>
+            </div>
+            <div className="flex items-center justify-between">
+              <form action={signOutAction}>
+                <button
+                  type="submit"
+                  className="min-h-10 rounded px-2 py-1 text-xs hover:bg-ink-100 sidebar:min-h-0 dark:hover:bg-ink-800"
+                >
+                  Sign out
+                </button>
+              </form>
+              <ThemeToggle />
+            </div>
           </div>
-          <div className="flex items-center justify-between">
-            <form action={signOutAction}>
-              <button
-                type="submit"
-                className="rounded px-2 py-1 text-xs hover:bg-ink-100 dark:hover:bg-ink-800"
-              >
-                Sign out
-              </button>
-            </form>
-            <ThemeToggle />
-          </div>
-        </div>
-      </aside>
-      <main id="main" className="min-w-0 flex-1 p-6">
-        {children}
-      </main>
-    </div>
+        </>
+      }
+    >
+      {children}
+    </WorkspaceFrame>
   );
 }

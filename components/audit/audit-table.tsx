@@ -7,6 +7,7 @@ import { Fragment, useState } from "react";
 import type { AuditEventRecord, AuditPage } from "@/lib/services/audit";
 import { BeforeAfter } from "./before-after";
 import { entityHref, entityLabel, shortId, utcTime } from "./audit-labels";
+import { TableScroll } from "@/components/ui/table-scroll";
 
 export function AuditTable({
   initial,
@@ -58,7 +59,7 @@ export function AuditTable({
 
   return (
     <div>
-      <div className="panel overflow-x-auto">
+      <TableScroll label="Audit events" className="panel">
         <table className="w-full text-sm" data-testid="audit-table">
           <caption className="sr-only">Audit events, newest first</caption>
           <thead className="muted border-b border-[var(--line)] text-left text-xs">
@@ -72,13 +73,13 @@ export function AuditTable({
               <th scope="col" className="px-3 py-2 font-medium">
                 Person
               </th>
-              <th scope="col" className="px-3 py-2 font-medium">
+              <th scope="col" className="min-w-40 px-3 py-2 font-medium">
                 Action
               </th>
               <th scope="col" className="px-3 py-2 font-medium">
                 Entity
               </th>
-              <th scope="col" className="px-3 py-2 font-medium">
+              <th scope="col" className="min-w-60 px-3 py-2 font-medium">
                 Reason
               </th>
             </tr>
@@ -169,7 +170,7 @@ export function AuditTable({
             })}
           </tbody>
         </table>
-      </div>
+      </TableScroll>
       <div className="mt-3 flex flex-wrap items-center gap-3 text-sm">
         <p role="status" aria-live="polite" className="muted">
           {events.length} event{events.length === 1 ? "" : "s"} shown

@@ -7,6 +7,7 @@ import {
 } from "@/lib/audit/diff-audit-values";
 import { fieldLabel } from "@/lib/audit/action-words";
 import { formatAuditValue } from "./audit-labels";
+import { TableScroll } from "@/components/ui/table-scroll";
 
 const MARKS: Record<AuditChangeKind, { symbol: string; word: string }> = {
   changed: { symbol: "Δ", word: "changed" },
@@ -52,7 +53,7 @@ export function BeforeAfter({
         ? "Nothing after: the record was removed here."
         : `${changes.length} field${changes.length === 1 ? "" : "s"} changed.`;
   return (
-    <div className="overflow-x-auto">
+    <TableScroll label={caption}>
       <p className="muted mb-1 text-xs">{note}</p>
       <table className="w-full text-xs" data-testid="before-after">
         <caption className="sr-only">{caption}</caption>
@@ -119,6 +120,6 @@ export function BeforeAfter({
           })}
         </tbody>
       </table>
-    </div>
+    </TableScroll>
   );
 }

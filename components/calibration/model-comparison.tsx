@@ -1,6 +1,7 @@
 // The core's comparison of the dispersion models on the same pairs: RMS, AICc, BIC and where each model
 // puts the array's first and last pixel (with its 1σ), the recommended and the chosen ones named in text.
 import type { CalibrationPreview } from "@/lib/services/calibrations";
+import { TableScroll } from "@/components/ui/table-scroll";
 
 const fixed = (v: number | null, digits: number) => (v === null ? "—" : v.toFixed(digits));
 
@@ -15,7 +16,7 @@ export function ModelComparison({
   labels: Record<string, string>;
 }) {
   return (
-    <div className="panel overflow-x-auto">
+    <TableScroll label="Models compared" className="panel">
       <table className="w-full text-sm" data-testid="model-comparison">
         <caption className="px-3 py-2 text-left">
           <span className="font-semibold">Models compared on the same pairs</span>
@@ -65,7 +66,7 @@ export function ModelComparison({
                 key={c.model}
                 className={`border-b border-[var(--line)] last:border-0 ${c.model === chosenModel ? "bg-ember-50 dark:bg-ink-800" : ""}`}
               >
-                <th scope="row" className="px-3 py-1.5 text-left font-normal">
+                <th scope="row" className="px-3 py-1.5 text-left font-normal whitespace-nowrap">
                   {labels[c.model] ?? c.model}
                 </th>
                 <td className="px-3 py-1.5 text-right font-mono">{c.parameterCount ?? "—"}</td>
@@ -73,7 +74,7 @@ export function ModelComparison({
                 <td className="px-3 py-1.5 text-right font-mono">{fixed(c.aicc, 1)}</td>
                 <td className="px-3 py-1.5 text-right font-mono">{fixed(c.bic, 1)}</td>
                 {[0, 1].map((end) => (
-                  <td key={end} className="px-3 py-1.5 text-right font-mono">
+                  <td key={end} className="px-3 py-1.5 text-right font-mono whitespace-nowrap">
                     {c.ends
                       ? `${c.ends[end].wavelengthNm.toFixed(2)} ± ${c.ends[end].uncertaintyNm.toFixed(3)}`
                       : "—"}
@@ -85,6 +86,6 @@ export function ModelComparison({
           })}
         </tbody>
       </table>
-    </div>
+    </TableScroll>
   );
 }

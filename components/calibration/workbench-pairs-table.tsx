@@ -1,6 +1,7 @@
 // The workbench's pairs: every pair of the pairing and every one made by hand, with its residual, where
 // it came from, whether the fit used it, and the one action that changes it (exclude, include, remove).
 import type { CalibrationPreview, CalibrationPreviewPair } from "@/lib/services/calibrations";
+import { TableScroll } from "@/components/ui/table-scroll";
 
 const STATE_TEXT: Record<
   CalibrationPreviewPair["state"],
@@ -31,8 +32,8 @@ export function WorkbenchPairsTable({
   onRemove: (pair: CalibrationPreviewPair) => void;
 }) {
   return (
-    <div className="panel overflow-x-auto">
-      <table className="w-full text-sm" data-testid="workbench-pairs">
+    <TableScroll label="Pairs of lamp peaks and lines" className="panel">
+      <table className="w-full text-sm whitespace-nowrap" data-testid="workbench-pairs">
         <caption className="px-3 py-2 text-left font-semibold">
           Pairs of lamp peaks and lines
         </caption>
@@ -122,6 +123,6 @@ export function WorkbenchPairsTable({
           })}
         </tbody>
       </table>
-    </div>
+    </TableScroll>
   );
 }

@@ -4,6 +4,7 @@ import type { LineTableRow } from "@/lib/lines";
 import { countOf } from "@/lib/text/count-of";
 import type { ImportPreviewView } from "@/lib/validation/line-forms";
 import { Flags, SOURCE_LABELS, Value } from "./line-values";
+import { TableScroll } from "@/components/ui/table-scroll";
 
 const FIELD_LABELS: Record<string, string> = {
   species: "species",
@@ -110,7 +111,7 @@ export function ImportPreview({ view }: { view: ImportPreviewView }) {
         {addCount === 0 ? (
           <p className="muted text-sm">None.</p>
         ) : (
-          <div className="overflow-x-auto">
+          <TableScroll label="Rows to add">
             <table className="w-full text-sm tabular">
               <thead className="muted text-left text-xs">
                 <tr>
@@ -143,7 +144,7 @@ export function ImportPreview({ view }: { view: ImportPreviewView }) {
                 ))}
               </tbody>
             </table>
-          </div>
+          </TableScroll>
         )}
         <More shown={preview.adds.length} total={addCount} />
       </section>
@@ -200,29 +201,31 @@ export function ImportPreview({ view }: { view: ImportPreviewView }) {
             <p className="muted mb-1 text-xs">
               Rejected rows are left out; fix them in the file and import it again.
             </p>
-            <table className="w-full text-sm tabular">
-              <thead className="muted text-left text-xs">
-                <tr>
-                  <th className="px-2 py-1 font-medium whitespace-nowrap">File line</th>
-                  <th className="px-2 py-1 font-medium">Column</th>
-                  <th className="px-2 py-1 font-medium">Reason</th>
-                </tr>
-              </thead>
-              <tbody className="divide-line">
-                {preview.errors.map((error, index) => (
-                  <tr key={`${error.line}-${error.field}-${index}`}>
-                    <td className="px-2 py-1 whitespace-nowrap">line {error.line}</td>
-                    <td className="px-2 py-1">
-                      {error.field}
-                      {error.column ? (
-                        <span className="muted"> (column {error.column})</span>
-                      ) : null}
-                    </td>
-                    <td className="px-2 py-1">{error.message}</td>
+            <TableScroll label="Rows rejected">
+              <table className="w-full text-sm tabular">
+                <thead className="muted text-left text-xs">
+                  <tr>
+                    <th className="px-2 py-1 font-medium whitespace-nowrap">File line</th>
+                    <th className="px-2 py-1 font-medium">Column</th>
+                    <th className="px-2 py-1 font-medium">Reason</th>
                   </tr>
-                ))}
-              </tbody>
-            </table>
+                </thead>
+                <tbody className="divide-line">
+                  {preview.errors.map((error, index) => (
+                    <tr key={`${error.line}-${error.field}-${index}`}>
+                      <td className="px-2 py-1 whitespace-nowrap">line {error.line}</td>
+                      <td className="px-2 py-1">
+                        {error.field}
+                        {error.column ? (
+                          <span className="muted"> (column {error.column})</span>
+                        ) : null}
+                      </td>
+                      <td className="px-2 py-1">{error.message}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </TableScroll>
           </>
         )}
         <More shown={preview.errors.length} total={errorCount} />

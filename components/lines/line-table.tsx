@@ -6,6 +6,7 @@ import type { LineRecord, LineSortKey } from "@/lib/services/line-library-types"
 import type { SourceKind } from "@/lib/spectrum/types";
 import { lineSearchHref, type LineSearch } from "@/lib/validation/line-forms";
 import { Flags, RetiredMark, SOURCE_LABELS, Value, VerifiedMark } from "./line-values";
+import { TableScroll } from "@/components/ui/table-scroll";
 
 export interface LineTableProps {
   lines: LineRecord[];
@@ -75,7 +76,7 @@ export function LineTable({
   caption,
 }: LineTableProps) {
   return (
-    <div className="panel overflow-x-auto">
+    <TableScroll label={caption} className="panel">
       <table className="w-full text-sm tabular" data-testid="line-table">
         <caption className="sr-only">{caption}</caption>
         <thead className="muted border-b border-[var(--line)] text-left text-xs">
@@ -191,6 +192,6 @@ export function LineTable({
           ))}
         </tbody>
       </table>
-    </div>
+    </TableScroll>
   );
 }

@@ -12,6 +12,7 @@ import { RUN_STATUS_LABELS, RunStatusBadge } from "./run-status";
 import { SkeletonRows } from "./skeleton-rows";
 import { RUN_FILTER_KEYS, runsKey } from "./list-keys";
 import { useUrlFilters } from "./url-filters";
+import { TableScroll } from "@/components/ui/table-scroll";
 
 const STATUSES = Object.keys(RUN_STATUS_LABELS) as RunStatus[];
 const COLUMNS = 7;
@@ -159,7 +160,7 @@ function RunTable({
           )}
         </div>
       ) : (
-        <div className="panel overflow-x-auto">
+        <TableScroll label="Runs of this notebook" className="panel">
           <table
             className={`w-full text-sm ${isLoading && data ? "opacity-60" : ""}`}
             data-testid="runs-table"
@@ -171,7 +172,7 @@ function RunTable({
                 <th scope="col" className="px-3 py-2">
                   Date
                 </th>
-                <th scope="col" className="px-3 py-2">
+                <th scope="col" className="min-w-40 px-3 py-2">
                   Sample
                 </th>
                 <th scope="col" className="px-3 py-2">
@@ -233,7 +234,7 @@ function RunTable({
               </tbody>
             )}
           </table>
-        </div>
+        </TableScroll>
       )}
     </section>
   );

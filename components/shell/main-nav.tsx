@@ -25,7 +25,7 @@ export function MainNav({ items }: { items: NavItem[] }) {
             <Link
               href={item.href}
               aria-current={active ? "page" : undefined}
-              className={`block rounded px-2 py-1.5 text-sm ${
+              className={`block min-h-10 rounded px-2 py-2.5 text-sm sidebar:min-h-0 sidebar:py-1.5 ${
                 active
                   ? "border-l-2 border-ember-600 bg-ember-50 font-medium text-ember-800 dark:bg-ink-800 dark:text-ember-200"
                   : "border-l-2 border-transparent hover:bg-ink-100 dark:hover:bg-ink-800"

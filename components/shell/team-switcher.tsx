@@ -25,7 +25,7 @@ export function TeamSwitcher({
           name="teamId"
           defaultValue={currentTeamId}
           onChange={(event) => event.currentTarget.form?.requestSubmit()}
-          className="w-full rounded border border-[var(--line)] bg-[var(--panel)] px-1 py-1 text-sm"
+          className="min-h-10 w-full rounded border border-[var(--line)] bg-[var(--panel)] px-1 py-1 text-sm sidebar:min-h-0"
         >
           {memberships.map((m) => (
             <option key={m.teamId} value={m.teamId}>

@@ -8,6 +8,7 @@ import { FormMessage } from "@/components/ui/form-message";
 import { ROLE_LABELS, TEAM_ROLES, type TeamRole } from "@/lib/auth/roles";
 import type { TeamMember } from "@/lib/services/team-members";
 import type { FormState } from "@/lib/validation/form-state";
+import { TableScroll } from "@/components/ui/table-scroll";
 
 type Action = (state: FormState, formData: FormData) => Promise<FormState>;
 
@@ -66,7 +67,7 @@ export function MemberManager({
       <div id="member-message" data-testid="member-message">
         <FormMessage message={result.message} tone={result.ok ? "ok" : "error"} />
       </div>
-      <div className="overflow-x-auto">
+      <TableScroll label="Members">
         <table className="w-full text-sm" aria-labelledby="members-heading">
           <thead className="muted text-left text-xs">
             <tr>
@@ -104,7 +105,7 @@ export function MemberManager({
             ))}
           </tbody>
         </table>
-      </div>
+      </TableScroll>
       {members.length === 1 ? (
         <p className="muted mt-3 text-sm">
           You are the only member so far. Invite people with the form beside the list.

@@ -8,6 +8,7 @@ import { FormMessage } from "@/components/ui/form-message";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import type { PendingInvitation } from "@/lib/services/teams";
 import type { FormState } from "@/lib/validation/form-state";
+import { TableScroll } from "@/components/ui/table-scroll";
 
 type Action = (state: FormState, formData: FormData) => Promise<FormState>;
 
@@ -54,7 +55,7 @@ export function PendingInvitations({
           No invitation is waiting for an answer. People you invite appear here until they join.
         </p>
       ) : (
-        <div className="overflow-x-auto">
+        <TableScroll label="Invitations waiting for an answer">
           <table className="w-full text-sm" aria-labelledby="invitations-heading">
             <thead className="muted text-left text-xs">
               <tr>
@@ -117,7 +118,7 @@ export function PendingInvitations({
               ))}
             </tbody>
           </table>
-        </div>
+        </TableScroll>
       )}
       <ConfirmDialog
         open={revoking !== null}

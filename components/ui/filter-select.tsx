@@ -16,13 +16,14 @@ export function FilterSelect({
   options: readonly { value: string; label: string }[];
 }) {
   return (
-    <div className="flex flex-col gap-1">
+    // max-w-full: a long option (an instrument's name) must not widen a phone's page.
+    <div className="flex max-w-full flex-col gap-1">
       <label htmlFor={id} className="text-sm font-medium">
         {label}
       </label>
       <select
         id={id}
-        className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1.5 text-sm"
+        className="max-w-full rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1.5 text-sm"
         {...select}
       >
         <option value="">{anyLabel}</option>

@@ -43,7 +43,7 @@ export function FirstColumnFields({
   const mediumId = `${idPrefix}-medium`;
   const describe = (errorId: string) => [errorId, hintId].filter(Boolean).join(" ");
   return (
-    <div className="grid gap-3 sm:grid-cols-2">
+    <div className="grid grid-cols-1 gap-3 sm:grid-cols-2">
       <div className="flex flex-col gap-1">
         <label htmlFor={unitId} className="text-sm font-medium">
           {unitLabel}

@@ -100,7 +100,7 @@ export function InstrumentForm({
           dispersion, add a new instrument.
         </p>
       ) : null}
-      <div className="grid gap-3 sm:grid-cols-2">
+      <div className="grid grid-cols-1 gap-3 sm:grid-cols-2">
         <Field label="Name" name="name" defaultValue={v.name} errors={e.name} required />
         <div className="flex flex-col gap-1">
           <label htmlFor="dispersion" className="text-sm font-medium">

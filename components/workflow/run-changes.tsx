@@ -3,6 +3,7 @@
 import Link from "next/link";
 import type { RunChanges } from "@/lib/services/workflow-types";
 import { VerdictBadge } from "./run-evidence";
+import { TableScroll } from "@/components/ui/table-scroll";
 
 export function RunChangesPanel({ changes }: { changes: RunChanges }) {
   const nothing =
@@ -30,35 +31,37 @@ export function RunChangesPanel({ changes }: { changes: RunChanges }) {
         <p className="muted">Nothing: the same calls, scores and unexplained peaks.</p>
       ) : null}
       {changes.changedCalls.length > 0 ? (
-        <table className="text-sm">
-          <caption className="text-left text-xs font-semibold">Calls that changed</caption>
-          <thead className="text-left text-xs">
-            <tr>
-              <th scope="col" className="pr-3">
-                Species
-              </th>
-              <th scope="col" className="pr-3">
-                Before
-              </th>
-              <th scope="col">Now</th>
-            </tr>
-          </thead>
-          <tbody>
-            {changes.changedCalls.map((c) => (
-              <tr key={c.species} className="border-t border-[var(--line)]">
-                <td className="pr-3 font-semibold">{c.species}</td>
-                <td className="pr-3">
-                  <VerdictBadge verdict={c.before.verdict} />{" "}
-                  <span className="font-mono text-xs">{c.before.score.toFixed(2)}</span>
-                </td>
-                <td>
-                  <VerdictBadge verdict={c.after.verdict} />{" "}
-                  <span className="font-mono text-xs">{c.after.score.toFixed(2)}</span>
-                </td>
+        <TableScroll label="Calls that changed">
+          <table className="text-sm">
+            <caption className="text-left text-xs font-semibold">Calls that changed</caption>
+            <thead className="text-left text-xs">
+              <tr>
+                <th scope="col" className="pr-3">
+                  Species
+                </th>
+                <th scope="col" className="pr-3">
+                  Before
+                </th>
+                <th scope="col">Now</th>
               </tr>
-            ))}
-          </tbody>
-        </table>
+            </thead>
+            <tbody>
+              {changes.changedCalls.map((c) => (
+                <tr key={c.species} className="border-t border-[var(--line)]">
+                  <td className="pr-3 font-semibold">{c.species}</td>
+                  <td className="pr-3">
+                    <VerdictBadge verdict={c.before.verdict} />{" "}
+                    <span className="font-mono text-xs">{c.before.score.toFixed(2)}</span>
+                  </td>
+                  <td>
+                    <VerdictBadge verdict={c.after.verdict} />{" "}
+                    <span className="font-mono text-xs">{c.after.score.toFixed(2)}</span>
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </TableScroll>
       ) : null}
       {changes.newSpecies.length > 0 ? (
         <p>

@@ -2,6 +2,7 @@
 // with who, why, when and the computed verdict, score, lines seen with Δλ, strong lines expected but
 // missing, overlaps, an absent call's detection limit) and its peak table.
 import type { ReactNode } from "react";
+import { TableScroll } from "@/components/ui/table-scroll";
 import { detectionLimitText } from "@/lib/reports/detection-limit-text";
 import { formatWavelengthColumn } from "@/lib/reports/wavelength-column";
 import type { RunCall, RunPeak } from "@/lib/services/workflow-types";
@@ -93,93 +94,99 @@ export function CallEvidence({
           </summary>
           <p className="mt-2 text-sm">{call.rationale}</p>
           <OverrideNote call={call} />
-          <div className="mt-2 grid gap-3 md:grid-cols-2">
-            <table className="text-sm">
-              <caption className="text-left text-xs font-semibold">Lines seen</caption>
-              <thead className="text-left text-xs">
-                <tr>
-                  <th scope="col" className="pr-3">
-                    Line (nm)
-                  </th>
-                  <th scope="col" className="pr-3">
-                    Peak (nm)
-                  </th>
-                  <th scope="col" className="pr-3">
-                    Δλ (nm)
-                  </th>
-                  <th scope="col">Rel. int.</th>
-                </tr>
-              </thead>
-              <tbody className="font-mono text-xs">
-                {call.lines.length === 0 ? (
+          <div className="mt-2 grid grid-cols-1 gap-3 md:grid-cols-2">
+            <TableScroll label={`Lines of ${call.species} seen`}>
+              <table className="text-sm">
+                <caption className="text-left text-xs font-semibold">Lines seen</caption>
+                <thead className="text-left text-xs">
                   <tr>
-                    <td colSpan={4} className="muted font-sans">
-                      none
-                    </td>
+                    <th scope="col" className="pr-3">
+                      Line (nm)
+                    </th>
+                    <th scope="col" className="pr-3">
+                      Peak (nm)
+                    </th>
+                    <th scope="col" className="pr-3">
+                      Δλ (nm)
+                    </th>
+                    <th scope="col">Rel. int.</th>
                   </tr>
-                ) : (
-                  call.lines.map((l, i) => (
-                    <tr key={l.lineId}>
-                      <td className="pr-3">{l.lineNm.toFixed(3)}</td>
-                      <td className="pr-3">
-                        {i > 0 && call.lines[i - 1].peakNm === l.peakNm ? (
-                          <span className="font-sans" data-testid="same-peak">
-                            ↳ same peak{" "}
-                            <span className="sr-only">
-                              (blended with the line above: one piece of evidence)
+                </thead>
+                <tbody className="font-mono text-xs">
+                  {call.lines.length === 0 ? (
+                    <tr>
+                      <td colSpan={4} className="muted font-sans">
+                        none
+                      </td>
+                    </tr>
+                  ) : (
+                    call.lines.map((l, i) => (
+                      <tr key={l.lineId}>
+                        <td className="pr-3">{l.lineNm.toFixed(3)}</td>
+                        <td className="pr-3">
+                          {i > 0 && call.lines[i - 1].peakNm === l.peakNm ? (
+                            <span className="font-sans" data-testid="same-peak">
+                              ↳ same peak{" "}
+                              <span className="sr-only">
+                                (blended with the line above: one piece of evidence)
+                              </span>
                             </span>
-                          </span>
-                        ) : (
-                          l.peakNm.toFixed(3)
-                        )}
-                      </td>
-                      <td className="pr-3">
-                        {l.deltaNm >= 0 ? "+" : ""}
-                        {l.deltaNm.toFixed(3)}
-                      </td>
-                      <td>{l.relativeIntensity === null ? "—" : twoDigits(l.relativeIntensity)}</td>
-                    </tr>
-                  ))
-                )}
-              </tbody>
-            </table>
-            <table className="text-sm">
-              <caption className="text-left text-xs font-semibold">Expected but missing</caption>
-              <thead className="text-left text-xs">
-                <tr>
-                  <th scope="col" className="pr-3">
-                    Line (nm)
-                  </th>
-                  <th scope="col" className="pr-3">
-                    Rel. int.
-                  </th>
-                  <th scope="col">Note</th>
-                </tr>
-              </thead>
-              <tbody className="font-mono text-xs">
-                {call.missing.length === 0 ? (
+                          ) : (
+                            l.peakNm.toFixed(3)
+                          )}
+                        </td>
+                        <td className="pr-3">
+                          {l.deltaNm >= 0 ? "+" : ""}
+                          {l.deltaNm.toFixed(3)}
+                        </td>
+                        <td>
+                          {l.relativeIntensity === null ? "—" : twoDigits(l.relativeIntensity)}
+                        </td>
+                      </tr>
+                    ))
+                  )}
+                </tbody>
+              </table>
+            </TableScroll>
+            <TableScroll label={`Lines of ${call.species} expected but missing`}>
+              <table className="text-sm">
+                <caption className="text-left text-xs font-semibold">Expected but missing</caption>
+                <thead className="text-left text-xs">
                   <tr>
-                    <td colSpan={3} className="muted font-sans">
-                      none
-                    </td>
+                    <th scope="col" className="pr-3">
+                      Line (nm)
+                    </th>
+                    <th scope="col" className="pr-3">
+                      Rel. int.
+                    </th>
+                    <th scope="col">Note</th>
                   </tr>
-                ) : (
-                  call.missing.map((m) => (
-                    <tr key={m.lineId}>
-                      <td className="pr-3">{m.lineNm.toFixed(3)}</td>
-                      <td className="pr-3">{twoDigits(m.relativeIntensity)}</td>
-                      <td className="font-sans">
-                        {m.hidden
-                          ? "under another peak"
-                          : m.predictedSnr !== null
-                            ? `predicted SNR ${m.predictedSnr.toFixed(1)}`
-                            : ""}
+                </thead>
+                <tbody className="font-mono text-xs">
+                  {call.missing.length === 0 ? (
+                    <tr>
+                      <td colSpan={3} className="muted font-sans">
+                        none
                       </td>
                     </tr>
-                  ))
-                )}
-              </tbody>
-            </table>
+                  ) : (
+                    call.missing.map((m) => (
+                      <tr key={m.lineId}>
+                        <td className="pr-3">{m.lineNm.toFixed(3)}</td>
+                        <td className="pr-3">{twoDigits(m.relativeIntensity)}</td>
+                        <td className="font-sans">
+                          {m.hidden
+                            ? "under another peak"
+                            : m.predictedSnr !== null
+                              ? `predicted SNR ${m.predictedSnr.toFixed(1)}`
+                              : ""}
+                        </td>
+                      </tr>
+                    ))
+                  )}
+                </tbody>
+              </table>
+            </TableScroll>
           </div>
           {call.overlaps.length > 0 ? (
             <p className="mt-2 text-xs">
@@ -219,55 +226,59 @@ function AbsentCalls({
         <span className="font-semibold">{calls.length} species called absent</span>{" "}
         <span className="muted text-xs">{calls.map((c) => c.species).join(", ")}</span>
       </summary>
-      <table className="mt-2 w-full text-sm">
-        <caption className="sr-only">Species called absent</caption>
-        <thead className="text-left text-xs">
-          <tr>
-            <th scope="col" className="pr-3">
-              Species
-            </th>
-            <th scope="col" className="pr-3 text-right">
-              Score
-            </th>
-            <th scope="col" className="pr-3 text-right">
-              Lines seen
-            </th>
-            <th scope="col" className="pr-3 text-right">
-              Strong lines missing
-            </th>
-            <th scope="col" className="pr-3">
-              Detection limit{" "}
-              <span className="sr-only">(least height its strongest line needed to be found)</span>
-            </th>
-            <th scope="col">Why</th>
-          </tr>
-        </thead>
-        <tbody className="text-xs">
-          {calls.map((c) => (
-            <tr key={c.species} className="border-t border-[var(--line)]">
-              <td className="pr-3 font-semibold">
-                {c.species}
-                {c.override ? (
-                  <span className="block font-normal text-ember-800 dark:text-ember-200">
-                    ✎ overridden (computed: {c.computedVerdict})
-                  </span>
-                ) : null}
-              </td>
-              <td className="pr-3 text-right font-mono">{c.score.toFixed(2)}</td>
-              <td className="pr-3 text-right font-mono">{c.seenCount}</td>
-              <td className="pr-3 text-right font-mono">{c.missingStrongCount}</td>
-              <td className="pr-3" data-testid="detection-limit">
-                {detectionLimitText(c.detectionLimit)}
-              </td>
-              <td>
-                <span className="muted">{c.rationale}</span>
-                <OverrideNote call={c} />
-                {overrideFormFor ? overrideFormFor(c) : null}
-              </td>
+      <TableScroll label="Species called absent" className="mt-2">
+        <table className="w-full text-sm">
+          <caption className="sr-only">Species called absent</caption>
+          <thead className="text-left text-xs">
+            <tr>
+              <th scope="col" className="pr-3">
+                Species
+              </th>
+              <th scope="col" className="pr-3 text-right">
+                Score
+              </th>
+              <th scope="col" className="pr-3 text-right">
+                Lines seen
+              </th>
+              <th scope="col" className="pr-3 text-right">
+                Strong lines missing
+              </th>
+              <th scope="col" className="pr-3">
+                Detection limit{" "}
+                <span className="sr-only">
+                  (least height its strongest line needed to be found)
+                </span>
+              </th>
+              <th scope="col">Why</th>
             </tr>
-          ))}
-        </tbody>
-      </table>
+          </thead>
+          <tbody className="text-xs">
+            {calls.map((c) => (
+              <tr key={c.species} className="border-t border-[var(--line)]">
+                <td className="pr-3 font-semibold">
+                  {c.species}
+                  {c.override ? (
+                    <span className="block font-normal text-ember-800 dark:text-ember-200">
+                      ✎ overridden (computed: {c.computedVerdict})
+                    </span>
+                  ) : null}
+                </td>
+                <td className="pr-3 text-right font-mono">{c.score.toFixed(2)}</td>
+                <td className="pr-3 text-right font-mono">{c.seenCount}</td>
+                <td className="pr-3 text-right font-mono">{c.missingStrongCount}</td>
+                <td className="pr-3" data-testid="detection-limit">
+                  {detectionLimitText(c.detectionLimit)}
+                </td>
+                <td>
+                  <span className="muted">{c.rationale}</span>
+                  <OverrideNote call={c} />
+                  {overrideFormFor ? overrideFormFor(c) : null}
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </TableScroll>
     </details>
   );
 }
@@ -276,7 +287,7 @@ export function PeakTable({ peaks }: { peaks: RunPeak[] }) {
   // One precision for the whole column, from the peaks' centre uncertainties.
   const column = formatWavelengthColumn(peaks);
   return (
-    <div className="panel max-h-96 overflow-auto">
+    <TableScroll label="Peaks" className="panel max-h-96 overflow-y-auto">
       <table className="w-full text-sm" data-testid="peaks-table">
         <caption className="sr-only">Peaks found in the sample</caption>
         <thead className="sticky top-0 border-b border-[var(--line)] bg-[var(--panel)] text-left">
@@ -318,7 +329,7 @@ export function PeakTable({ peaks }: { peaks: RunPeak[] }) {
           ))}
         </tbody>
       </table>
-    </div>
+    </TableScroll>
   );
 }
 

@@ -111,8 +111,8 @@ function RunFormFields({
         New run
       </h2>
       <input type="hidden" name="notebookId" value={notebookId} />
-      <div className="grid gap-3 sm:grid-cols-2">
-        <div className="flex flex-col gap-1">
+      <div className="grid grid-cols-1 gap-3 sm:grid-cols-2">
+        <div className="flex max-w-full flex-col gap-1">
           <label htmlFor="run-instrumentId" className="text-sm font-medium">
             Instrument
           </label>
@@ -132,7 +132,7 @@ function RunFormFields({
             ))}
           </select>
         </div>
-        <div className="flex flex-col gap-1">
+        <div className="flex max-w-full flex-col gap-1">
           <label htmlFor="spectrumId" className="text-sm font-medium">
             Sample spectrum
           </label>
@@ -175,7 +175,7 @@ function RunFormFields({
             </p>
           ) : null}
         </div>
-        <div className="flex flex-col gap-1">
+        <div className="flex max-w-full flex-col gap-1">
           <label htmlFor="calibrationId" className="text-sm font-medium">
             Calibration
           </label>
@@ -217,7 +217,7 @@ function RunFormFields({
             ) : null}
           </div>
         </div>
-        <div className="flex flex-col gap-1">
+        <div className="flex max-w-full flex-col gap-1">
           <label htmlFor="source" className="text-sm font-medium">
             Kind of source
           </label>
@@ -254,7 +254,7 @@ function RunFormFields({
           {SAMPLE_ANALYSIS_DEFAULTS.k} σ, and the table&apos;s relative intensities (no
           temperature).
         </p>
-        <div className="mt-3 grid gap-3 sm:grid-cols-3">
+        <div className="mt-3 grid grid-cols-1 gap-3 sm:grid-cols-3">
           <Field
             label="Minimum SNR of a peak"
             name="minSnr"

@@ -28,7 +28,10 @@ export function RunTemperaturePanel({
     );
   }
   return (
-    <div className="grid gap-3 md:grid-cols-[minmax(16rem,1fr)_2fr]" data-testid="temperature">
+    <div
+      className="grid grid-cols-1 gap-3 md:grid-cols-[minmax(16rem,1fr)_2fr]"
+      data-testid="temperature"
+    >
       <div className="flex flex-col gap-1 text-sm">
         <p className="text-base">
           <span className="font-semibold font-mono">

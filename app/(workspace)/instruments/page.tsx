@@ -9,6 +9,7 @@ import { fetchInstruments } from "@/lib/services/instruments";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { GLASS_NAMES } from "@/lib/spectrum/calibration";
 import { createInstrumentAction } from "./actions";
+import { TableScroll } from "@/components/ui/table-scroll";
 
 export const metadata = { title: "Instruments" };
 
@@ -40,7 +41,7 @@ export default async function InstrumentsPage() {
             : "A lab lead adds the team's spectrometers. Once one is here you can calibrate it against a reference lamp."}
         </EmptyState>
       ) : (
-        <div className="panel overflow-x-auto">
+        <TableScroll label="Instruments" className="panel">
           <table className="w-full text-sm">
             <caption className="sr-only">The team&apos;s instruments</caption>
             <thead className="border-b border-[var(--line)] text-left">
@@ -108,7 +109,7 @@ export default async function InstrumentsPage() {
               })}
             </tbody>
           </table>
-        </div>
+        </TableScroll>
       )}
       {lead ? (
         <div className="mt-6 max-w-3xl">

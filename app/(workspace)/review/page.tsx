@@ -10,6 +10,7 @@ import { can } from "@/lib/auth/policy";
 import { fetchReviewQueue } from "@/lib/services/run-review";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { reviewQueueQueryFrom } from "@/lib/validation/review-schemas";
+import { TableScroll } from "@/components/ui/table-scroll";
 
 export const metadata = { title: "Review" };
 
@@ -89,62 +90,64 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
           {queue.items.length === 0 ? (
             <p className="panel p-4 text-sm">No waiting run matches these filters.</p>
           ) : (
-            <table className="panel w-full text-sm" data-testid="review-queue">
-              <thead className="text-left text-xs">
-                <tr className="border-b border-[var(--line)]">
-                  <th scope="col" className="px-3 py-2">
-                    Run
-                  </th>
-                  <th scope="col" className="px-3 py-2">
-                    Waiting
-                  </th>
-                  <th scope="col" className="px-3 py-2">
-                    Author
-                  </th>
-                  <th scope="col" className="px-3 py-2">
-                    Instrument
-                  </th>
-                  <th scope="col" className="px-3 py-2">
-                    Called present
-                  </th>
-                  <th scope="col" className="px-3 py-2">
-                    Round
-                  </th>
-                </tr>
-              </thead>
-              <tbody className="divide-y divide-[var(--line)]">
-                {queue.items.map((item) => (
-                  <tr key={item.runId} data-testid="queue-row">
-                    <td className="px-3 py-2">
-                      <Link href={`/review/${item.runId}`} className="font-medium underline">
-                        {item.label}
-                      </Link>
-                      <span className="muted block text-xs">
-                        {item.notebookTitle}
-                        {item.versionNumber > 1 ? ` · version ${item.versionNumber}` : ""}
-                        {item.namedToMe ? " · asked of you" : ""}
-                      </span>
-                    </td>
-                    <td className="px-3 py-2">
-                      {formatWaiting(item.waitingSeconds)}
-                      <span className="muted block text-xs">
-                        since {formatTime(item.submittedAt)}
-                      </span>
-                    </td>
-                    <td className="px-3 py-2">{item.author?.name ?? "—"}</td>
-                    <td className="px-3 py-2">{item.instrument.name}</td>
-                    <td className="px-3 py-2">
-                      {item.present.length ? (
-                        item.present.join(", ")
-                      ) : (
-                        <span className="muted">none</span>
-                      )}
-                    </td>
-                    <td className="px-3 py-2 font-mono">{item.round}</td>
+            <TableScroll label="Runs waiting for review" className="panel">
+              <table className="w-full text-sm" data-testid="review-queue">
+                <thead className="text-left text-xs">
+                  <tr className="border-b border-[var(--line)]">
+                    <th scope="col" className="min-w-44 px-3 py-2">
+                      Run
+                    </th>
+                    <th scope="col" className="px-3 py-2">
+                      Waiting
+                    </th>
+                    <th scope="col" className="px-3 py-2">
+                      Author
+                    </th>
+                    <th scope="col" className="px-3 py-2">
+                      Instrument
+                    </th>
+                    <th scope="col" className="min-w-32 px-3 py-2">
+                      Called present
+                    </th>
+                    <th scope="col" className="px-3 py-2">
+                      Round
+                    </th>
                   </tr>
-                ))}
-              </tbody>
-            </table>
+                </thead>
+                <tbody className="divide-y divide-[var(--line)]">
+                  {queue.items.map((item) => (
+                    <tr key={item.runId} data-testid="queue-row">
+                      <td className="px-3 py-2">
+                        <Link href={`/review/${item.runId}`} className="font-medium underline">
+                          {item.label}
+                        </Link>
+                        <span className="muted block text-xs">
+                          {item.notebookTitle}
+                          {item.versionNumber > 1 ? ` · version ${item.versionNumber}` : ""}
+                          {item.namedToMe ? " · asked of you" : ""}
+                        </span>
+                      </td>
+                      <td className="px-3 py-2">
+                        {formatWaiting(item.waitingSeconds)}
+                        <span className="muted block text-xs">
+                          since {formatTime(item.submittedAt)}
+                        </span>
+                      </td>
+                      <td className="px-3 py-2">{item.author?.name ?? "—"}</td>
+                      <td className="px-3 py-2">{item.instrument.name}</td>
+                      <td className="px-3 py-2">
+                        {item.present.length ? (
+                          item.present.join(", ")
+                        ) : (
+                          <span className="muted">none</span>
+                        )}
+                      </td>
+                      <td className="px-3 py-2 font-mono">{item.round}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </TableScroll>
           )}
         </>
       )}

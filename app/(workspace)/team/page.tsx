@@ -17,6 +17,7 @@ import {
   resendInvitationAction,
   revokeInvitationAction,
 } from "./actions";
+import { TableScroll } from "@/components/ui/table-scroll";
 
 export const metadata = { title: "Team" };
 
@@ -62,31 +63,33 @@ export default async function TeamPage() {
               <h2 id="members-heading" className="mb-2 font-semibold">
                 Members ({members.length})
               </h2>
-              <table className="w-full text-sm">
-                <thead className="muted text-left text-xs">
-                  <tr>
-                    <th className="py-1 pr-3 font-medium">Name</th>
-                    <th className="py-1 pr-3 font-medium">E-mail</th>
-                    <th className="py-1 pr-3 font-medium">Role</th>
-                    <th className="py-1 font-medium">Joined</th>
-                  </tr>
-                </thead>
-                <tbody className="divide-line">
-                  {members.map((m) => (
-                    <tr key={m.userId} data-testid="member-row" data-email={m.email}>
-                      <td className="py-1.5 pr-3">
-                        {m.name}
-                        {m.userId === actor.id ? <span className="muted"> (you)</span> : null}
-                      </td>
-                      <td className="py-1.5 pr-3 wrap-anywhere">{m.email}</td>
-                      <td className="py-1.5 pr-3">{ROLE_LABELS[m.role]}</td>
-                      <td className="tabular py-1.5 whitespace-nowrap">
-                        {m.joinedAt.slice(0, 10)}
-                      </td>
+              <TableScroll label="Members">
+                <table className="w-full text-sm">
+                  <thead className="muted text-left text-xs">
+                    <tr>
+                      <th className="py-1 pr-3 font-medium">Name</th>
+                      <th className="py-1 pr-3 font-medium">E-mail</th>
+                      <th className="py-1 pr-3 font-medium">Role</th>
+                      <th className="py-1 font-medium">Joined</th>
                     </tr>
-                  ))}
-                </tbody>
-              </table>
+                  </thead>
+                  <tbody className="divide-line">
+                    {members.map((m) => (
+                      <tr key={m.userId} data-testid="member-row" data-email={m.email}>
+                        <td className="py-1.5 pr-3">
+                          {m.name}
+                          {m.userId === actor.id ? <span className="muted"> (you)</span> : null}
+                        </td>
+                        <td className="py-1.5 pr-3 wrap-anywhere">{m.email}</td>
+                        <td className="py-1.5 pr-3">{ROLE_LABELS[m.role]}</td>
+                        <td className="tabular py-1.5 whitespace-nowrap">
+                          {m.joinedAt.slice(0, 10)}
+                        </td>
+                      </tr>
+                    ))}
+                  </tbody>
+                </table>
+              </TableScroll>
             </>
           )}
         </section>

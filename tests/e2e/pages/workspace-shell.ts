@@ -7,6 +7,8 @@ export class WorkspaceShell {
   readonly signOutButton: Locator;
   readonly pageHeading: Locator;
   readonly errorBoundary: Locator;
+  /** The top bar's "Menu" button, shown below the sidebar breakpoint (900 px). */
+  readonly menuButton: Locator;
 
   constructor(private readonly page: Page) {
     this.nav = page.getByRole("navigation", { name: "Areas" });
@@ -16,6 +18,17 @@ export class WorkspaceShell {
     this.errorBoundary = page
       .getByRole("alert")
       .filter({ hasText: "This page could not be shown" });
+    this.menuButton = page.getByRole("button", { name: "Menu", exact: true });
+  }
+
+  /** Signed in on a narrow screen, where the areas hide behind the menu button. */
+  async waitUntilShownNarrow(): Promise<void> {
+    await this.menuButton.waitFor();
+    await this.signedInName.waitFor({ state: "attached" });
+  }
+
+  async menuExpanded(): Promise<boolean> {
+    return (await this.menuButton.getAttribute("aria-expanded")) === "true";
   }
 
   async waitUntilShown(): Promise<void> {

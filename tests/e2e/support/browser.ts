@@ -20,11 +20,20 @@ export interface Session {
   close(): Promise<void>;
 }
 
+/** What a test may change about the browser: a phone's screen and touch (the layout tests). */
+export interface BrowserOptions {
+  viewport?: { width: number; height: number };
+  /** Touch events and a coarse pointer, as on a phone or tablet. */
+  hasTouch?: boolean;
+  /** Honours the page's meta viewport, as a phone's browser does. */
+  isMobile?: boolean;
+}
+
 /**
  * A headless Chromium with its own fresh profile. Playwright refuses `--user-data-dir` in
  * `args` and takes the folder as launchPersistentContext's first argument instead.
  */
-export async function openBrowser(): Promise<Session> {
+export async function openBrowser(options: BrowserOptions = {}): Promise<Session> {
   const userDataDir = fs.mkdtempSync(path.join(os.tmpdir(), "emberline-e2e-"));
   const context = await chromium.launchPersistentContext(userDataDir, {
     executablePath: "/usr/bin/chromium",
@@ -37,7 +46,9 @@ export async function openBrowser(): Promise<Session> {
       "--no-first-run",
       "--disable-sync",
     ],
-    viewport: { width: 1280, height: 800 },
+    viewport: options.viewport ?? { width: 1280, height: 800 },
+    hasTouch: options.hasTouch ?? false,
+    isMobile: options.isMobile ?? false,
     baseURL: APP_URL,
     // The app throttles failed sign-ins per client address; this file gets its own (a header only).
     extraHTTPHeaders: {

@@ -9,6 +9,7 @@ import { fetchInstrument } from "@/lib/services/instruments";
 import { fetchSpectrum } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { EntityTrail } from "@/components/audit/entity-trail";
+import { TableScroll } from "@/components/ui/table-scroll";
 
 export const metadata = { title: "Calibration" };
 
@@ -190,33 +191,35 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
               </span>
               .
             </p>
-            <table className="text-sm">
-              <caption className="sr-only">Drift per pixel</caption>
-              <thead>
-                <tr>
-                  <th scope="row" className="muted pr-3 text-left font-normal">
-                    {xTitle}
-                  </th>
-                  {calibration.drift.pixels.map((px) => (
-                    <th key={px} scope="col" className="px-3 text-right font-mono font-normal">
-                      {px.toFixed(0)}
+            <TableScroll label="Drift per pixel">
+              <table className="text-sm">
+                <caption className="sr-only">Drift per pixel</caption>
+                <thead>
+                  <tr>
+                    <th scope="row" className="muted pr-3 text-left font-normal">
+                      {xTitle}
                     </th>
-                  ))}
-                </tr>
-              </thead>
-              <tbody>
-                <tr>
-                  <th scope="row" className="muted pr-3 text-left font-normal">
-                    Δλ (nm)
-                  </th>
-                  {calibration.drift.deltaNm.map((d, i) => (
-                    <td key={i} className="px-3 text-right font-mono">
-                      {Math.abs(d) < 0.0005 ? "0.000" : (d > 0 ? "+" : "") + d.toFixed(3)}
-                    </td>
-                  ))}
-                </tr>
-              </tbody>
-            </table>
+                    {calibration.drift.pixels.map((px) => (
+                      <th key={px} scope="col" className="px-3 text-right font-mono font-normal">
+                        {px.toFixed(0)}
+                      </th>
+                    ))}
+                  </tr>
+                </thead>
+                <tbody>
+                  <tr>
+                    <th scope="row" className="muted pr-3 text-left font-normal">
+                      Δλ (nm)
+                    </th>
+                    {calibration.drift.deltaNm.map((d, i) => (
+                      <td key={i} className="px-3 text-right font-mono">
+                        {Math.abs(d) < 0.0005 ? "0.000" : (d > 0 ? "+" : "") + d.toFixed(3)}
+                      </td>
+                    ))}
+                  </tr>
+                </tbody>
+              </table>
+            </TableScroll>
           </>
         ) : (
           <p className="muted text-sm">
@@ -229,7 +232,7 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
         <LampChart spectrum={series} pairs={pairs} xTitle={xTitle} />
         <ResidualChart pairs={pairs} xTitle={xTitle} />
       </div>
-      <div className="panel overflow-x-auto">
+      <TableScroll label="Pairs of lamp peaks and lines" className="panel">
         <table className="w-full text-sm" data-testid="pairs-table">
           <caption className="px-3 py-2 text-left font-semibold">
             Pairs of lamp peaks and lines
@@ -284,7 +287,7 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
             ))}
           </tbody>
         </table>
-      </div>
+      </TableScroll>
       <EntityTrail entity="calibration" entityId={calibration.id} />
     </>
   );

@@ -12,6 +12,7 @@ import { fetchCalibrations } from "@/lib/services/calibrations";
 import { fetchInstrument } from "@/lib/services/instruments";
 import { fetchSpectra } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
+import { TableScroll } from "@/components/ui/table-scroll";
 
 export const metadata = { title: "Instrument" };
 
@@ -97,7 +98,7 @@ export default async function InstrumentPage({ params }: { params: Promise<{ id:
           lamp lines and a dispersion relation is fitted.
         </EmptyState>
       ) : (
-        <div className="panel overflow-x-auto">
+        <TableScroll label={`Calibrations of ${instrument.name}`} className="panel">
           <table className="w-full text-sm">
             <caption className="sr-only">Calibrations of {instrument.name}, newest first</caption>
             <thead className="border-b border-[var(--line)] text-left">
@@ -160,7 +161,7 @@ export default async function InstrumentPage({ params }: { params: Promise<{ id:
               ))}
             </tbody>
           </table>
-        </div>
+        </TableScroll>
       )}
       <h2 id="instrument-spectra" className="mb-2 mt-6 text-lg font-semibold">
         Spectra

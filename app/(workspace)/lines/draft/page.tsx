@@ -100,7 +100,7 @@ export default async function DraftPage({
           </>
         }
       />
-      <div className="grid gap-5 xl:grid-cols-[3fr_2fr]">
+      <div className="grid grid-cols-1 gap-5 xl:grid-cols-[3fr_2fr]">
         <section className="panel p-4" aria-labelledby="import-heading">
           <h2 id="import-heading" className="mb-1 font-semibold">
             Import a CSV

@@ -26,6 +26,7 @@ import { addMarkAction, decideRunAction } from "../actions";
 import { countOf } from "@/lib/text/count-of";
 import { analysisSettingRows } from "@/components/workflow/analysis-settings";
 import { Fragment } from "react";
+import { TableScroll } from "@/components/ui/table-scroll";
 
 export const metadata = { title: "Review a run" };
 
@@ -211,41 +212,43 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
             {calibration.coveredRangeNm[1].toFixed(1)} nm
           </p>
           <ResidualChart pairs={pairs} xTitle={X_TITLES[spectrum.xUnit]} />
-          <table className="panel mt-2 w-full text-sm" data-testid="review-pairs">
-            <caption className="px-3 py-1 text-left text-xs font-semibold">
-              Lamp pairs and residuals
-            </caption>
-            <thead className="text-left text-xs">
-              <tr>
-                <th scope="col" className="px-3">
-                  Pixel
-                </th>
-                <th scope="col" className="px-3">
-                  Line
-                </th>
-                <th scope="col" className="px-3">
-                  Wavelength (nm)
-                </th>
-                <th scope="col" className="px-3">
-                  Residual (nm)
-                </th>
-                <th scope="col" className="px-3">
-                  Used
-                </th>
-              </tr>
-            </thead>
-            <tbody className="font-mono text-xs">
-              {pairs.map((p) => (
-                <tr key={`${p.pixel}-${p.wavelengthNm}`}>
-                  <td className="px-3">{p.pixel.toFixed(2)}</td>
-                  <td className="px-3 font-sans">{p.species ?? "—"}</td>
-                  <td className="px-3">{p.wavelengthNm.toFixed(4)}</td>
-                  <td className="px-3">{p.residualNm.toFixed(4)}</td>
-                  <td className="px-3 font-sans">{p.used ? "yes" : "rejected"}</td>
+          <TableScroll label="Lamp pairs and residuals" className="panel mt-2">
+            <table className="w-full text-sm" data-testid="review-pairs">
+              <caption className="px-3 py-1 text-left text-xs font-semibold">
+                Lamp pairs and residuals
+              </caption>
+              <thead className="text-left text-xs">
+                <tr>
+                  <th scope="col" className="px-3">
+                    Pixel
+                  </th>
+                  <th scope="col" className="px-3">
+                    Line
+                  </th>
+                  <th scope="col" className="px-3">
+                    Wavelength (nm)
+                  </th>
+                  <th scope="col" className="px-3">
+                    Residual (nm)
+                  </th>
+                  <th scope="col" className="px-3">
+                    Used
+                  </th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
+              </thead>
+              <tbody className="font-mono text-xs">
+                {pairs.map((p) => (
+                  <tr key={`${p.pixel}-${p.wavelengthNm}`}>
+                    <td className="px-3">{p.pixel.toFixed(2)}</td>
+                    <td className="px-3 font-sans">{p.species ?? "—"}</td>
+                    <td className="px-3">{p.wavelengthNm.toFixed(4)}</td>
+                    <td className="px-3">{p.residualNm.toFixed(4)}</td>
+                    <td className="px-3 font-sans">{p.used ? "yes" : "rejected"}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </TableScroll>
         </>
       ) : (
         <p className="text-sm">None: the run used the file&apos;s own wavelength axis.</p>
