@@ -4,7 +4,7 @@
 import type { ReactNode } from "react";
 import { TableScroll } from "@/components/ui/table-scroll";
 import { detectionLimitText } from "@/lib/reports/detection-limit-text";
-import { formatWavelengthColumn } from "@/lib/reports/wavelength-column";
+import { formatWavelengthColumn, wavelengthColumnDecimals } from "@/lib/reports/wavelength-column";
 import type { RunCall, RunPeak } from "@/lib/services/workflow-types";
 
 const VERDICT = {
@@ -47,9 +47,12 @@ export function OverrideNote({ call }: { call: RunCall }) {
 
 export function CallEvidence({
   calls,
+  peaks = [],
   overrideFormFor,
 }: {
   calls: RunCall[];
+  /** The run's peaks: the evidence's peak wavelengths take the peak table's precision. */
+  peaks?: RunPeak[];
   /** The override form of one call, when the viewer may override (the run's author, while editable). */
   overrideFormFor?: (call: RunCall) => ReactNode;
 }) {
@@ -59,6 +62,7 @@ export function CallEvidence({
     (a, b) => ORDER[a.verdict] - ORDER[b.verdict] || b.score - a.score,
   );
   const called = sorted.filter((c) => c.verdict !== "absent");
+  const peakDecimals = wavelengthColumnDecimals(peaks.map((p) => p.uncertaintyNm));
   const absent = sorted.filter((c) => c.verdict === "absent");
   return (
     <div className="flex flex-col gap-2" data-testid="calls">
@@ -132,12 +136,12 @@ export function CallEvidence({
                               </span>
                             </span>
                           ) : (
-                            l.peakNm.toFixed(3)
+                            l.peakNm.toFixed(peakDecimals)
                           )}
                         </td>
                         <td className="pr-3">
                           {l.deltaNm >= 0 ? "+" : ""}
-                          {l.deltaNm.toFixed(3)}
+                          {l.deltaNm.toFixed(peakDecimals)}
                         </td>
                         <td>
                           {l.relativeIntensity === null ? "—" : twoDigits(l.relativeIntensity)}

@@ -1,6 +1,7 @@
 // Reviewing one run: everything the run page shows (chart, notices, calls with evidence, unexplained
 // peaks, peaks, what it was made from) plus the calibration's pairs and residuals and the settings, a
 // mark form on each call and its lines, the rounds so far, and Return with comments or Sign.
+import { wavelengthColumnDecimals } from "@/lib/reports/wavelength-column";
 import Link from "next/link";
 import { redirect } from "next/navigation";
 import {
@@ -181,7 +182,7 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
       ) : null}
 
       <h2 className="mb-2 mt-6 text-lg font-semibold">Calls and their evidence</h2>
-      <CallEvidence calls={run.calls} />
+      <CallEvidence calls={run.calls} peaks={run.peaks} />
       <h2 className="mb-2 mt-6 text-lg font-semibold">Unexplained peaks</h2>
       {run.unexplained.length === 0 ? (
         <p className="muted text-sm">Every peak above the threshold has a candidate line.</p>
@@ -189,7 +190,12 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
         <ul className="panel divide-y divide-[var(--line)] text-sm">
           {run.unexplained.map((u) => (
             <li key={u.wavelengthNm} className="flex gap-4 px-3 py-1.5">
-              <span className="font-mono">{u.wavelengthNm.toFixed(3)} nm</span>
+              <span className="font-mono">
+                {u.wavelengthNm.toFixed(
+                  wavelengthColumnDecimals(run.peaks.map((p) => p.uncertaintyNm)),
+                )}{" "}
+                nm
+              </span>
               <span className="font-mono">SNR {u.snr.toFixed(1)}</span>
               <span className="muted">{u.reason}</span>
             </li>

@@ -2,6 +2,7 @@
 // labelled, what changed since the run it repeats, the calls with their evidence and overrides, the
 // excitation temperature, the unexplained peaks, the peaks, the notes, the run's warnings and what it
 // was made from.
+import { wavelengthColumnDecimals } from "@/lib/reports/wavelength-column";
 import Link from "next/link";
 import { RunSpectrumChart } from "@/components/charts/spectrum-charts";
 import { RunDownloads } from "@/components/reports/run-downloads";
@@ -79,6 +80,7 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
       <h2 className="mb-2 mt-6 text-lg font-semibold">Calls and their evidence</h2>
       <CallEvidence
         calls={run.calls}
+        peaks={run.peaks}
         overrideFormFor={
           editable
             ? (call) => (
@@ -101,7 +103,12 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
         <ul className="panel divide-y divide-[var(--line)] text-sm" data-testid="unexplained">
           {run.unexplained.map((u) => (
             <li key={u.wavelengthNm} className="flex gap-4 px-3 py-1.5">
-              <span className="font-mono">{u.wavelengthNm.toFixed(3)} nm</span>
+              <span className="font-mono">
+                {u.wavelengthNm.toFixed(
+                  wavelengthColumnDecimals(run.peaks.map((p) => p.uncertaintyNm)),
+                )}{" "}
+                nm
+              </span>
               <span className="font-mono">SNR {u.snr.toFixed(1)}</span>
               <span className="muted">{u.reason}</span>
             </li>
