@@ -4,12 +4,10 @@
 // apply a file or draft that changed since the preview.
 import { useActionState, useState } from "react";
 import { Button } from "@/components/ui/button";
+import { Field } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
-import {
-  IMPORT_MAX_BYTES,
-  IMPORT_MAX_LABEL,
-  type ImportFormState,
-} from "@/lib/validation/line-forms";
+import { CsvFileInput } from "./csv-file-input";
+import { IMPORT_MAX_LABEL, type ImportFormState } from "@/lib/validation/line-forms";
 import { ImportPreview } from "./import-preview";
 
 export function ImportPanel({
@@ -32,24 +30,14 @@ export function ImportPanel({
             action={formAction}
             className="flex flex-wrap items-end gap-3 border-t border-[var(--line)] pt-3"
           >
-            <div className="flex w-full flex-col gap-1">
-              <label htmlFor="import-reason" className="text-sm font-medium">
-                Reason for these changes
-              </label>
-              <input
+            <div className="w-full">
+              <Field
                 id="import-reason"
                 name="reason"
+                label="Reason for these changes"
                 placeholder="CSV import"
-                aria-describedby="import-reason-error"
-                className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1.5 text-sm"
+                errors={errors.reason}
               />
-              <div
-                id="import-reason-error"
-                aria-live="polite"
-                className="text-xs text-red-700 dark:text-red-300"
-              >
-                {errors.reason?.join(" ")}
-              </div>
             </div>
             <input type="hidden" name="releaseId" value={releaseId} />
             <input type="hidden" name="csv" value={state.csv} />
@@ -83,20 +71,7 @@ export function ImportPanel({
             <label htmlFor="import-file" className="text-sm font-medium">
               CSV file
             </label>
-            <input
-              id="import-file"
-              name="file"
-              type="file"
-              accept=".csv,text/csv"
-              aria-describedby="import-file-hint import-file-error"
-              className="text-sm file:mr-3 file:rounded file:border file:border-[var(--line)] file:bg-[var(--panel)] file:px-2 file:py-1"
-              onChange={(event) => {
-                const file = event.currentTarget.files?.[0];
-                const large = Boolean(file && file.size > IMPORT_MAX_BYTES);
-                setTooLarge(large);
-                if (large) event.currentTarget.value = "";
-              }}
-            />
+            <CsvFileInput id="import-file" onTooLarge={setTooLarge} />
             <p id="import-file-hint" className="muted text-xs">
               Up to {IMPORT_MAX_LABEL} (the largest form this server accepts), in the columns of an
               exported release: a file downloaded from any release imports as it is. Larger tables

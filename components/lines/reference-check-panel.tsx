@@ -5,12 +5,10 @@
 import { useActionState, useState } from "react";
 import Link from "next/link";
 import { Button } from "@/components/ui/button";
+import { Field } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
-import {
-  IMPORT_MAX_BYTES,
-  IMPORT_MAX_LABEL,
-  type ReferenceCheckFormState,
-} from "@/lib/validation/line-forms";
+import { CsvFileInput } from "./csv-file-input";
+import { IMPORT_MAX_LABEL, type ReferenceCheckFormState } from "@/lib/validation/line-forms";
 import type { ReferenceCheckPair } from "@/lib/services/line-library-types";
 
 type Decision = "leave" | "keep" | "take";
@@ -280,24 +278,14 @@ export function ReferenceCheckPanel({
         ) : null}
 
         <div className="flex flex-wrap items-end gap-3 border-t border-[var(--line)] pt-3">
-          <div className="flex w-full flex-col gap-1">
-            <label htmlFor="reference-reason" className="text-sm font-medium">
-              Reason for the audit trail
-            </label>
-            <input
+          <div className="w-full">
+            <Field
               id="reference-reason"
               name="reason"
+              label="Reason for the audit trail"
               placeholder="Checked against a reference"
-              aria-describedby="reference-reason-error"
-              className="rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1.5 text-sm"
+              errors={errors.reason}
             />
-            <div
-              id="reference-reason-error"
-              aria-live="polite"
-              className="text-xs text-red-700 dark:text-red-300"
-            >
-              {errors.reason?.join(" ")}
-            </div>
           </div>
           <input type="hidden" name="releaseId" value={releaseId} />
           <input type="hidden" name="csv" value={state.csv} />
@@ -337,20 +325,7 @@ export function ReferenceCheckPanel({
         <label htmlFor="reference-file" className="text-sm font-medium">
           Reference CSV file
         </label>
-        <input
-          id="reference-file"
-          name="file"
-          type="file"
-          accept=".csv,text/csv"
-          aria-describedby="reference-file-hint reference-file-error"
-          className="text-sm file:mr-3 file:rounded file:border file:border-[var(--line)] file:bg-[var(--panel)] file:px-2 file:py-1"
-          onChange={(event) => {
-            const file = event.currentTarget.files?.[0];
-            const large = Boolean(file && file.size > IMPORT_MAX_BYTES);
-            setTooLarge(large);
-            if (large) event.currentTarget.value = "";
-          }}
-        />
+        <CsvFileInput id="reference-file" onTooLarge={setTooLarge} />
         <p id="reference-file-hint" className="muted text-xs">
           Up to {IMPORT_MAX_LABEL}: a header row with the columns <code>species</code>,{" "}
           <code>wavelength_nm</code>, <code>uncertainty_nm</code> (one sigma, nm),{" "}

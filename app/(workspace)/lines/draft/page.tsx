@@ -11,6 +11,7 @@ import { LineTable } from "@/components/lines/line-table";
 import { PublishForm } from "@/components/lines/publish-form";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
+import { NoDraftOpen } from "../no-draft-open";
 import { can } from "@/lib/auth/policy";
 import { fetchLine, fetchLines, fetchReleases } from "@/lib/services/line-library";
 import { requireWorkspace } from "@/lib/services/workspace";
@@ -20,7 +21,6 @@ import {
   changeLineAction,
   correctLineAction,
   importAction,
-  openDraftAction,
   publishAction,
 } from "../actions";
 
@@ -40,23 +40,9 @@ export default async function DraftPage({
   const published = releases.filter((r) => r.status === "published");
   if (!draft) {
     return (
-      <>
-        <PageHeader title="Draft of the line table" />
-        <EmptyState title="There is no draft open">
-          <p className="mb-3">
-            A draft starts as a copy of the newest release; publish it when your changes are done.
-          </p>
-          <form action={openDraftAction}>
-            <input type="hidden" name="teamId" value={team.teamId} />
-            <button
-              type="submit"
-              className="rounded bg-ember-600 px-3 py-1.5 text-sm font-medium text-white hover:bg-ember-700"
-            >
-              Open the draft
-            </button>
-          </form>
-        </EmptyState>
-      </>
+      <NoDraftOpen title="Draft of the line table" teamId={team.teamId}>
+        A draft starts as a copy of the newest release; publish it when your changes are done.
+      </NoDraftOpen>
     );
   }
   const correctId = typeof params.correct === "string" ? params.correct : undefined;

@@ -3,12 +3,12 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { ReferenceCheckPanel } from "@/components/lines/reference-check-panel";
-import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
+import { NoDraftOpen } from "../no-draft-open";
 import { can } from "@/lib/auth/policy";
 import { fetchReleases } from "@/lib/services/line-library";
 import { requireWorkspace } from "@/lib/services/workspace";
-import { openDraftAction, referenceCheckAction } from "../actions";
+import { referenceCheckAction } from "../actions";
 
 export const metadata = { title: "Check the draft against a reference" };
 
@@ -20,24 +20,10 @@ export default async function ReferenceCheckPage() {
   const title = "Check the draft against a reference";
   if (!draft) {
     return (
-      <>
-        <PageHeader title={title} />
-        <EmptyState title="There is no draft open">
-          <p className="mb-3">
-            Published releases never change, so a check marks rows verified in the draft; they are
-            verified for chemists once you publish it.
-          </p>
-          <form action={openDraftAction}>
-            <input type="hidden" name="teamId" value={team.teamId} />
-            <button
-              type="submit"
-              className="rounded bg-ember-600 px-3 py-1.5 text-sm font-medium text-white hover:bg-ember-700"
-            >
-              Open the draft
-            </button>
-          </form>
-        </EmptyState>
-      </>
+      <NoDraftOpen title={title} teamId={team.teamId}>
+        Published releases never change, so a check marks rows verified in the draft; they are
+        verified for chemists once you publish it.
+      </NoDraftOpen>
     );
   }
   return (

@@ -29,6 +29,22 @@ const pixelOf = (lambda: number) => {
   return (low + high) / 2;
 };
 
+/** Growth on this grating (400–800 nm stated, a 4-px FWHM), every line and peak free. */
+function gratingInput(peaks: LampPeak[], lines: LampLine[]): GrowPairsOutwardInput {
+  return {
+    peaks,
+    lines,
+    candidateLines: lines.map((_, i) => i),
+    usablePeaks: peaks.map((_, i) => i),
+    dispersion: "grating",
+    domain: [0, PIXELS - 1],
+    toleranceX: 2,
+    straighten: (lambda) => lambda,
+    gRange: [400, 800],
+    nominalRangeNm: [400, 800],
+  };
+}
+
 describe("growPairsOutward", () => {
   it("crosses a curved grating from a 6 % stretch without a wrong pair", () => {
     const random = seededRandom(11);
@@ -58,18 +74,7 @@ describe("growPairsOutward", () => {
         height: 20 * random(),
         fwhm: 4,
       });
-    const input: GrowPairsOutwardInput = {
-      peaks,
-      lines,
-      candidateLines: lines.map((_, i) => i),
-      usablePeaks: peaks.map((_, i) => i),
-      dispersion: "grating",
-      domain: [0, PIXELS - 1],
-      toleranceX: 2,
-      straighten: (lambda) => lambda,
-      gRange: [400, 800],
-      nominalRangeNm: [400, 800],
-    };
+    const input = gratingInput(peaks, lines);
     // The seed: the first four lines, which are all present, near the blue end.
     const seed: LampPair[] = [0, 1, 2, 3].map((i) => ({
       x: peaks[i].x,
@@ -113,18 +118,7 @@ describe("growPairsOutward with a sparse lamp", () => {
         height: 15 * random(),
         fwhm: 4,
       });
-    const input: GrowPairsOutwardInput = {
-      peaks,
-      lines,
-      candidateLines: lines.map((_, i) => i),
-      usablePeaks: peaks.map((_, i) => i),
-      dispersion: "grating",
-      domain: [0, PIXELS - 1],
-      toleranceX: 2,
-      straighten: (lambda) => lambda,
-      gRange: [400, 800],
-      nominalRangeNm: [400, 800],
-    };
+    const input = gratingInput(peaks, lines);
     const seed: LampPair[] = [0, 1, 2, 3, 4, 5].map((i) => ({
       x: peaks[i].x,
       wavelengthNm: lines[i].wavelengthNm,
