@@ -170,12 +170,19 @@ describe("reports", () => {
     const downloaded = page.waitForEvent("download");
     // Until the page has hydrated the button has no handler and Enter does nothing: press again
     // while nothing has started (once it has, the button is disabled and the status says so).
+    // Focus is set again each time: a page that re-renders while hydrating may drop it.
     await expect
-      .poll(async () => {
-        const text = (await block.status("download-report-pdf").textContent()) ?? "";
-        if (text === "") await page.keyboard.press("Enter");
-        return text;
-      })
+      .poll(
+        async () => {
+          const text = (await block.status("download-report-pdf").textContent()) ?? "";
+          if (text === "") {
+            await pdfButton.focus();
+            await page.keyboard.press("Enter");
+          }
+          return text;
+        },
+        { timeout: 15_000, interval: 250 },
+      )
       .toMatch(/^Preparing the PDF…/);
     expect(await pdfButton.getAttribute("aria-busy")).toBe("true");
     expect(await pdfButton.isDisabled()).toBe(true);
