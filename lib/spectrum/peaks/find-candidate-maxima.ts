@@ -1,4 +1,5 @@
-// Candidate peak tops: downward zero-crossings of the slope, above a height floor, separated by real dips.
+// Candidate peak tops: downward zero-crossings of the slope or the signal's own local maxima, above a
+// height floor, separated by real dips.
 
 export interface FindCandidateMaximaOptions {
   /**
@@ -25,8 +26,8 @@ export interface CandidateMaxima {
 
 /**
  * Finds tops of `signal` where `slope` (its smoothed derivative) changes from positive to
- * non-positive, moves each onto the local maximum of `signal`, and merges tops not separated by a
- * dip of `minDip`. One left-to-right pass: O(n).
+ * non-positive or where `signal` itself has a local maximum, moves each onto the local maximum of
+ * `signal`, and merges tops not separated by a dip of `minDip`. One left-to-right pass: O(n).
  */
 export function findCandidateMaxima(
   data: { signal: Float64Array; slope: Float64Array },
@@ -51,7 +52,12 @@ export function findCandidateMaxima(
   let scanFrom = 0;
   let previousRaw = -1;
   for (let i = 1; i < n; i++) {
-    if (!(slope[i - 1] > 0 && slope[i] <= 0)) continue;
+    // A downward zero-crossing of the slope, or a top of the signal itself: a fainter line 1.3 FWHM
+    // beside a strong one, sampled 2.5 times per FWHM, is a one-sample top on the strong line's
+    // falling flank whose central differences never turn positive (Na D1 beside D2 at 0.44 nm).
+    const slopeTurns = slope[i - 1] > 0 && slope[i] <= 0;
+    const ownTop = i < n - 1 && signal[i] > signal[i - 1] && signal[i] >= signal[i + 1];
+    if (!slopeTurns && !ownTop) continue;
     let top = signal[i] >= signal[i - 1] ? i : i - 1;
     // The slope is smoother than the signal; climb to the signal's own local maximum.
     while (top > 1 && signal[top - 1] > signal[top]) top--;

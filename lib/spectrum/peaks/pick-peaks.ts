@@ -110,9 +110,10 @@ export function pickPeaks(
     Math.max(11, (smoothing ? smoothing.windowSize : 5) + 4),
     n,
   );
-  // Tops are the smoothed signal's own local maxima (central differences): a slope fitted over
-  // several samples is dragged by a strong neighbour's flank and never turns on a line 2–3 samples
-  // wide a few widths away. Noise wiggles are merged by the dip test below, not by this slope.
+  // Tops are where the smoothed signal's central differences turn, or its own one-sample local
+  // maxima (a companion on a strong line's flank, where the differences never turn): a slope fitted
+  // over several samples is dragged by a strong neighbour's flank and never turns on a line 2–3
+  // samples wide a few widths away. Noise wiggles are merged by the dip test, not by this slope.
   const slope = new Float64Array(n);
   for (let i = 1; i < n - 1; i++) slope[i] = s[i + 1] - s[i - 1];
   const curvature = savitzkyGolay(s, { windowSize: curvatureWindow, polynomial: 2, derivative: 2 });

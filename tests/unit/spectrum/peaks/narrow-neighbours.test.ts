@@ -57,6 +57,32 @@ describe("peaks of lines a few samples wide", () => {
     }
   });
 
+  it("finds a companion of a third of the height 1.35 FWHM beside a line 2.5 samples wide", () => {
+    // Shaped like Na D1 beside D2 at 0.44 nm resolution and 0.18 nm per sample, smoothed with the
+    // 7-sample quartic analyzeSample uses for lines this narrow. The companion is a one-sample top on
+    // the strong line's falling flank: the smoothed signal's central differences never turn positive
+    // there, so a top found only where they change sign was lost (D1 "missing though expected at SNR
+    // 383" on the sample sweep). Whether the samples show a top of it at all depends on where the
+    // lines fall between samples; at these three phases they do. Measured: 47 of 60 found, none before.
+    let found = 0;
+    for (const phase of [0.3, 0.5, 0.7]) {
+      for (let seed = 1; seed <= 20; seed++) {
+        const { x, y } = spectrum(
+          [
+            { centre: 500 + phase, fwhm: 2.5, height: 19000 },
+            { centre: 503.37 + phase, fwhm: 2.5, height: 7000 },
+          ],
+          seed,
+        );
+        const near = findPeaks(x, y, { smoothing: { windowSize: 7, polynomial: 4 } }).filter(
+          (p) => p.x > 495 && p.x < 510,
+        );
+        if (near.length === 2 && Math.abs(near[1].x - (503.37 + phase)) < 0.6) found++;
+      }
+    }
+    expect(found).toBeGreaterThanOrEqual(40);
+  });
+
   it("does not take the smoothing's ringing beside a strong narrow line for peaks", () => {
     let extra = 0;
     for (let seed = 1; seed <= 20; seed++) {
