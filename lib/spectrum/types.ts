@@ -70,6 +70,11 @@ export interface Peak {
   saturated: boolean;
   /** True when the peak is a shoulder of, or blended with, a neighbour. */
   blended: boolean;
+  /** How the peak leans: (w₊ − w₋)/(w₊ + w₋), where w₊ and w₋ are its half-widths at half height
+   * towards larger and smaller x. 0 for a symmetric line, towards +1 for a sharp edge on the low-x
+   * side and a long tail to high x (a molecular band degraded that way). Absent when a flank is cut
+   * by a neighbour or the array's end, or the top is clipped. */
+  asymmetry?: number;
 }
 
 /** Band-head details for molecular bands (CaOH, BO₂, …). */
@@ -148,4 +153,7 @@ export interface CalibratedPeak extends Peak {
   /** True when the peak is several times wider than the instrument's line profile there (and not
    * saturated): too wide for one atomic line, so only molecular bands may explain it. */
   broad?: boolean;
+  /** The peak's asymmetry (see Peak) towards longer wavelengths: positive when it has a sharp violet
+   * edge and a tail to the red. Absent when the peak's asymmetry is. */
+  redAsymmetry?: number;
 }

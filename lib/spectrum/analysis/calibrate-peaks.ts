@@ -62,6 +62,7 @@ export function calibratePeaks(
       wavelengthUncertaintyNm: peak.xUncertainty,
       fwhmNm: peak.fwhm,
       ...withResolution(peak, 1),
+      ...(peak.asymmetry !== undefined ? { redAsymmetry: peak.asymmetry } : {}),
     }));
   }
   const x = Float64Array.from(peaks, (peak) => peak.x);
@@ -76,6 +77,10 @@ export function calibratePeaks(
       wavelengthUncertaintyNm: Math.hypot(slope * peak.xUncertainty, fitSigma[i]),
       fwhmNm: slope * peak.fwhm,
       ...withResolution(peak, slope),
+      // On an axis whose wavelength falls with x the lean turns round.
+      ...(peak.asymmetry !== undefined
+        ? { redAsymmetry: Math.sign(dispersion[i]) * peak.asymmetry }
+        : {}),
     };
   });
 }

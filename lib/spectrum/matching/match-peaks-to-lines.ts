@@ -2,6 +2,7 @@
 // a peak flagged broad (too wide for one atomic line) is offered band heads only.
 
 import type { CalibratedPeak, ReferenceLine, WavelengthMedium } from "../types";
+import { leansLikeBand } from "./leans-like-band";
 import { lowerBound } from "./lower-bound";
 import { prepareLineIndex, type LineIndex } from "./prepare-line-index";
 
@@ -186,11 +187,16 @@ export function matchPeaksToLines(
         // merged with a neighbouring head's): a peak wider than that is continuum or many lines.
         const widestNm = band.extentNm + 2 * (instrumentNm ?? 0);
         // A band several instrument widths long is resolved: its feature is wider than a line's.
-        const narrowestNm =
-          instrumentNm !== undefined && band.extentNm >= RESOLVED_BAND_WIDTHS * instrumentNm
-            ? RESOLVED_BAND_MIN_FWHM * instrumentNm
-            : 0;
-        if (Math.abs(deltaSigma) <= k && peak.fwhmNm <= widestNm && peak.fwhmNm >= narrowestNm) {
+        const resolved =
+          instrumentNm !== undefined && band.extentNm >= RESOLVED_BAND_WIDTHS * instrumentNm;
+        const narrowestNm = resolved ? RESOLVED_BAND_MIN_FWHM * instrumentNm : 0;
+        if (
+          Math.abs(deltaSigma) <= k &&
+          peak.fwhmNm <= widestNm &&
+          peak.fwhmNm >= narrowestNm &&
+          // A resolved band's peak leans away from its head.
+          (!resolved || leansLikeBand(peak, band, instrumentNm))
+        ) {
           candidates.push({
             lineIndex,
             line,

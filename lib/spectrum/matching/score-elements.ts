@@ -780,6 +780,11 @@ function demoteSinglePeakCalls(calls: ElementCall[], context: SinglePeakContext)
           : fromElsewhere && (rivalCall!.verdict !== "absent" || allowedByUnseen());
       if (could) explainers.push(species);
     }
+    // A line inside the extent of a band called present needs its own confirming lines: the band's
+    // fading tail lies under it whatever the band's head zone says.
+    for (const species of seenBandsCovering(match.peak.wavelengthNm, call.element, callOf, index)) {
+      if (!explainers.includes(species)) explainers.push(species);
+    }
     if (explainers.length === 0) continue;
     explainers.sort();
     const names = explainers.join(", ");
@@ -798,6 +803,38 @@ function demoteSinglePeakCalls(calls: ElementCall[], context: SinglePeakContext)
       `Only one peak is ${alone ? "seen" : "its own"}, and ${names} ${explainers.length === 1 ? "has" : "have"} a line there too.`,
     );
   }
+}
+
+/** Species of bands called present whose extent, from the head in the direction the
+ * band degrades, covers `nm`; a band of `element`'s own molecule (CaOH for Ca: its formula's first
+ * element symbol) stands with it, not against it. */
+function seenBandsCovering(
+  nm: number,
+  element: string,
+  callOf: Map<string, ElementCall>,
+  index: LineIndex,
+): string[] {
+  const out: string[] = [];
+  for (
+    let i = lowerBound(index.bandHeadNm, nm - index.maxBandExtentNm);
+    i < index.bandHeadNm.length && index.bandHeadNm[i] <= nm + index.maxBandExtentNm;
+    i++
+  ) {
+    const line = index.lines[index.bandOrder[i]];
+    const band = line.band!;
+    const depthNm = (band.degradesTo === "red" ? 1 : -1) * (nm - index.bandHeadNm[i]);
+    const verdict = callOf.get(line.species)?.verdict;
+    if (
+      depthNm >= 0 &&
+      depthNm <= band.extentNm &&
+      /^[A-Z][a-z]?/.exec(line.element)?.[0] !== element &&
+      verdict === "present" &&
+      !out.includes(line.species)
+    ) {
+      out.push(line.species);
+    }
+  }
+  return out;
 }
 
 /** A present call becomes possible, with a note saying why and the reason added to its rationale. */

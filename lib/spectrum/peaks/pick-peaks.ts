@@ -267,6 +267,7 @@ export function pickPeaks(
       snr,
       saturated: clipped !== null,
       blended,
+      ...asymmetryOf(x, left, right, xCentre, clipped === null),
     });
     spans.push(fwhm);
   }
@@ -281,6 +282,22 @@ export function pickPeaks(
     }
   }
   return peaks.sort((a, b) => a.x - b.x);
+}
+
+/** The peak's lean from its half-height crossings, when both flanks reach half height unclipped. */
+function asymmetryOf(
+  x: Float64Array,
+  left: number | null,
+  right: number | null,
+  centre: number,
+  unclipped: boolean,
+): { asymmetry?: number } {
+  if (!unclipped || left === null || right === null) return {};
+  const [low, high] = [xAtIndex(x, left), xAtIndex(x, right)].sort((a, b) => a - b);
+  const below = centre - low;
+  const above = high - centre;
+  if (!(below > 0) || !(above > 0)) return {};
+  return { asymmetry: (above - below) / (above + below) };
 }
 
 /** σ of the three-point centre, in samples: Σ over raw samples of (Σ_m gradient_m · weight)², times σ². */

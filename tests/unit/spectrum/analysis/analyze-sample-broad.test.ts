@@ -35,7 +35,7 @@ function line(
 const CLEAR_NM = [420, 465, 510, 630, 680];
 const table: ReferenceLine[] = [
   ...CLEAR_NM.map((nm, i) => line(`a${i}`, "A I", nm)),
-  line("x1", "X I", 605.0),
+  line("x1", "X I", 602.0),
   line("y1", "Y I", 560.0),
   line("xo", "XO", 600, {
     uncertaintyNm: 0.5,
@@ -50,10 +50,12 @@ const sample = synthesizeSpectrum({
   resolutionNm: RESOLUTION_NM,
   lines: [
     ...CLEAR_NM.map((wavelengthNm) => ({ wavelengthNm, amplitude: 2000 })),
-    // Six instrument widths wide: one on the band's head zone, one where only Y I lies.
-    { wavelengthNm: 605.0, amplitude: 400, fwhmNm: 6 * RESOLUTION_NM },
+    // Six instrument widths wide where only Y I lies.
     { wavelengthNm: 560.0, amplitude: 400, fwhmNm: 6 * RESOLUTION_NM },
   ],
+  // A band as a band looks, a sharp head fading to the red, with its head in the table's head zone
+  // (600–606 nm) and X I under its top.
+  bands: [{ headNm: 601, extentNm: 20, degradesTo: "red", amplitude: 400 }],
   readNoiseCounts: 5,
   darkCounts: 100,
   seed: 7,
@@ -98,7 +100,7 @@ describe("analyzeSample on features much wider than the instrument's line", () =
   });
 
   it("offers a broad feature only the band whose head zone it lies in", () => {
-    const at = peakNear(analysis, 605);
+    const at = peakNear(analysis, 602);
     expect(analysis.peaks[at].broad).toBe(true);
     expect(analysis.identification.matches[at].candidates.map((c) => [c.line.id, c.kind])).toEqual([
       ["xo", "band"],
@@ -129,7 +131,7 @@ describe("analyzeSample on features much wider than the instrument's line", () =
     expect(fromNm.instrumentWidth!.fwhm / (RESOLUTION_NM / NM_PER_PX) - 1).toBeCloseTo(0, 9);
     const fromPx = analyzeSample(sample.x, sample.y, table, { calibration, resolutionPx: 4 });
     expect(fromPx.instrumentWidth).toEqual({ fwhm: 4, unit: "px", basis: "resolutionPx" });
-    expect(fromPx.peaks[peakNear(fromPx, 605)].broad).toBe(true);
+    expect(fromPx.peaks[peakNear(fromPx, 602)].broad).toBe(true);
   });
 
   it("reads the width along an axis already in nm from its clean lines, and wants a calibration for resolutionPx", () => {
@@ -142,7 +144,7 @@ describe("analyzeSample on features much wider than the instrument's line", () =
     expect(asNm.instrumentWidth!.fwhm).toBeGreaterThan(0.95 * RESOLUTION_NM);
     expect(asNm.instrumentWidth!.fwhm).toBeLessThan(1.15 * RESOLUTION_NM);
     expect(Math.abs(asNm.instrumentWidth!.trend!.exponent)).toBeLessThan(0.3);
-    expect(asNm.peaks[peakNear(asNm, 605)].broad).toBe(true);
+    expect(asNm.peaks[peakNear(asNm, 602)].broad).toBe(true);
     expect(asNm.peaks[peakNear(asNm, 510)].broad).toBe(false);
     // Too few clean lines to read a trend: nothing is estimated, and each peak's own width serves.
     const oneLine = x.map((nm) => (nm > 500 && nm < 520 ? 1 : 0));
@@ -162,7 +164,7 @@ describe("analyzeSample on features much wider than the instrument's line", () =
       unit: "nm",
       basis: "resolutionNm",
     });
-    expect(given.peaks[peakNear(given, 605)].broad).toBe(true);
+    expect(given.peaks[peakNear(given, 602)].broad).toBe(true);
     expect(() => analyzeSample(x, sample.y, table, { resolutionPx: 4 })).toThrow(RangeError);
     expect(() =>
       analyzeSample(sample.x, sample.y, table, { calibration, resolutionNm: -1 }),

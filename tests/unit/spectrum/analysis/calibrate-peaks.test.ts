@@ -81,3 +81,19 @@ describe("calibratePeaks with an instrument width", () => {
     ).toThrow(RangeError);
   });
 });
+
+describe("calibratePeaks and a peak's lean", () => {
+  it("keeps the lean towards the red on an axis whose wavelength rises with x, and turns it round where it falls", () => {
+    const falling = fitCalibration(
+      pairs.map(({ x, wavelengthNm }) => ({ x: 2047 - x, wavelengthNm })),
+      { model: "polynomial", degree: 2, domain: [0, 2047] },
+    ).model;
+    const leaning = peak(1000, 6, { asymmetry: 0.4 });
+    expect(calibratePeaks([leaning], { calibration })[0].redAsymmetry).toBeCloseTo(0.4, 12);
+    expect(calibratePeaks([leaning], { calibration: falling })[0].redAsymmetry).toBeCloseTo(
+      -0.4,
+      12,
+    );
+    expect(calibratePeaks([peak(1000, 6)], { calibration })[0].redAsymmetry).toBeUndefined();
+  });
+});
