@@ -113,6 +113,37 @@ export interface InstrumentWidth {
   trend?: { referenceX: number; exponent: number };
 }
 
+/** Samples kept clear of each end when the instrument's width is not known. */
+const EDGE_SAMPLES = 3;
+
+/**
+ * The part of the range where a line would show as a peak: one instrument FWHM (else EDGE_SAMPLES
+ * samples) in from each end of the array. A line closer to an end than that has part of its profile
+ * off the detector and no top the peak finder can take (Cs I 852.11 nm 0.1 nm inside a range ending
+ * at 852.2 nm was "missing though expected at SNR 1264", and Cs absent). The full range when the
+ * array is too short to keep anything.
+ */
+function judgedRange(
+  x: Float64Array,
+  calibration: CalibrationModel | null,
+  width: InstrumentWidth | null,
+  rangeNm: [number, number],
+): [number, number] {
+  const n = x.length;
+  if (n < 2) return rangeNm;
+  const inward = Math.sign(x[n - 1] - x[0]);
+  const margin = (at: number, step: number) =>
+    width ? instrumentWidthAt(width, x[at]) : EDGE_SAMPLES * Math.abs(step);
+  const inside = Float64Array.of(
+    x[0] + inward * margin(0, x[1] - x[0]),
+    x[n - 1] - inward * margin(n - 1, x[n - 1] - x[n - 2]),
+  );
+  const insideNm = calibration ? evaluateCalibration(calibration, inside) : inside;
+  const low = Math.max(rangeNm[0], Math.min(insideNm[0], insideNm[1]));
+  const high = Math.min(rangeNm[1], Math.max(insideNm[0], insideNm[1]));
+  return low < high && Number.isFinite(low) && Number.isFinite(high) ? [low, high] : rangeNm;
+}
+
 /** The instrument FWHM at x on the input axis. */
 export function instrumentWidthAt(width: InstrumentWidth, x: number): number {
   return width.trend
@@ -184,6 +215,7 @@ export function analyzeSample(
     Math.min(endsNm[0], endsNm[1]),
     Math.max(endsNm[0], endsNm[1]),
   ];
+  const judgedRangeNm = judgedRange(x, calibration, instrumentWidth, rangeNm);
   let index = Array.isArray(lines)
     ? prepareLineIndex(lines as readonly ReferenceLine[])
     : (lines as LineIndex);
@@ -195,6 +227,7 @@ export function analyzeSample(
     resolutionNm,
     source,
     rangeNm,
+    judgedRangeNm,
     // With a noise profile each peak's snr already holds its local noise; one global σ would undo that.
     noiseCounts: signal.noiseProfile ? undefined : signal.noise,
   });
@@ -211,7 +244,7 @@ export function analyzeSample(
   const limits = detectionLimits(identification.calls, {
     index,
     source,
-    rangeNm,
+    rangeNm: judgedRangeNm,
     noiseAtNm: (nm) => {
       const i = nearestSample(binned.x, xOfNm(nm));
       return i < 0 ? Number.NaN : signal.noiseProfile ? signal.noiseProfile[i] : signal.noise;

@@ -23,6 +23,10 @@ export interface ScoreElementsOptions {
   /** Calibrated range of the spectrum [min, max] in nm; only lines inside it are expected.
    * @default the span of the matched peaks' wavelengths */
   rangeNm?: [number, number];
+  /** The part of rangeNm where a line would show as a peak; a line closer to the array's ends than
+   * that (half of it off the detector) is never counted missing, though it counts when seen.
+   * @default rangeNm */
+  judgedRangeNm?: [number, number];
   /** Signal-to-noise ratio at which a line is just detectable.
    * @default 3 */
   detectionLimitSnr?: number;
@@ -182,6 +186,9 @@ interface SpeciesInfo {
   /** Positions [from, to) in lines.order of its atomic lines in range, then of its band heads. */
   atomicInRange: [number, number];
   bandsInRange: [number, number];
+  /** The same inside the judged range (judgedRangeNm): the lines that can be missing. */
+  atomicJudged: [number, number];
+  bandsJudged: [number, number];
 }
 
 interface SpeciesWork {
@@ -267,6 +274,12 @@ export function scoreElements(
   if (!(rangeNm[0] <= rangeNm[1]) || !rangeNm.every(Number.isFinite)) {
     throw new RangeError(`rangeNm must be [min, max] with min ≤ max, got [${rangeNm.join(", ")}]`);
   }
+  const judgedRangeNm = options.judgedRangeNm ?? rangeNm;
+  if (!(judgedRangeNm[0] <= judgedRangeNm[1]) || !judgedRangeNm.every(Number.isFinite)) {
+    throw new RangeError(
+      `judgedRangeNm must be [min, max] with min ≤ max, got [${judgedRangeNm.join(", ")}]`,
+    );
+  }
   const relativeOf = (lineIndex: number): number | undefined => {
     const entry = index.species[index.speciesOfLine[lineIndex]];
     const value = entry.bySource[source].relative[index.positionInSpecies[lineIndex]];
@@ -314,14 +327,22 @@ export function scoreElements(
   // worked on; each is located in the table by binary search, never by scanning the range.
   const work = new Map<string, SpeciesWork>();
   const newWork = (lines: SpeciesLines): SpeciesWork => {
-    const atomicFrom = lowerBound(lines.nm, rangeNm[0], 0, lines.atomicCount);
-    const bandFrom = lowerBound(lines.nm, rangeNm[0], lines.atomicCount, lines.nm.length);
+    const positions = (
+      [from, to]: [number, number],
+      first: number,
+      end: number,
+    ): [number, number] => {
+      const start = lowerBound(lines.nm, from, first, end);
+      return [start, Math.max(start, firstAbove(lines.nm, to, start, end))];
+    };
     const info: SpeciesInfo = {
       lines,
       scale: lines.bySource[source],
       basis: lines.bySource[source].basis,
-      atomicInRange: [atomicFrom, firstAbove(lines.nm, rangeNm[1], atomicFrom, lines.atomicCount)],
-      bandsInRange: [bandFrom, firstAbove(lines.nm, rangeNm[1], bandFrom, lines.nm.length)],
+      atomicInRange: positions(rangeNm, 0, lines.atomicCount),
+      bandsInRange: positions(rangeNm, lines.atomicCount, lines.nm.length),
+      atomicJudged: positions(judgedRangeNm, 0, lines.atomicCount),
+      bandsJudged: positions(judgedRangeNm, lines.atomicCount, lines.nm.length),
     };
     // An unrated line counts as intensity 0, so with a zero fraction every line in range is strong.
     const strongInRange =
@@ -665,7 +686,7 @@ function unseenLinesAllow(
 ): boolean {
   const { relative, maxTree } = rival.info.scale;
   const { order, nm } = rival.info.lines;
-  const ranges = [rival.info.atomicInRange, rival.info.bandsInRange];
+  const ranges = [rival.info.atomicJudged, rival.info.bandsJudged];
   let here = relative[context.index.positionInSpecies[lineIndex]];
   if (Number.isNaN(here)) {
     here = Infinity;
@@ -879,7 +900,8 @@ function predictMissing(
         ? 0
         : strong
       : leastRelativeAtLeast(scale, limits.missingSnr);
-  const ranges = [info.atomicInRange, info.bandsInRange];
+  // Only lines where a peak could show can be missing (judgedRangeNm).
+  const ranges = [info.atomicJudged, info.bandsJudged];
   const [[atomicFrom, atomicTo], [bandFrom, bandTo]] = ranges;
   const inRange = (p: number) => (p >= atomicFrom && p < atomicTo) || (p >= bandFrom && p < bandTo);
   const evidenceAt = (position: number, hiddenByPeakIndex: number | null): MissingLineEvidence => ({
@@ -1130,6 +1152,8 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
     if (strongInRange === 0) return null;
     const missing = entry.missing.filter((m) => m.relativeIntensity >= strong);
     const count = entry.missingStrongCount;
+    // Its strong lines all lie at the array's ends, where no peak could show them: nothing to say.
+    if (count === 0 && missing.length === 0) return null;
     return {
       species,
       element: info.lines.element,
