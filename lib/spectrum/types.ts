@@ -75,6 +75,9 @@ export interface Peak {
    * side and a long tail to high x (a molecular band degraded that way). Absent when a flank is cut
    * by a neighbour or the array's end, or the top is clipped. */
   asymmetry?: number;
+  /** The FWHM in samples of the array the peak finder read (after any binning): how finely the peak is
+   * sampled. */
+  fwhmSamples?: number;
 }
 
 /** Band-head details for molecular bands (CaOH, BO₂, …). */

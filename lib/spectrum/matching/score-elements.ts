@@ -1086,6 +1086,12 @@ function hidingPeaks(
     byWavelength,
     (match) => match.peak.resolutionNm ?? match.peak.fwhmNm,
   );
+  // How many samples an instrument FWHM spans at each peak (NaN when the peak does not say).
+  const instrumentSamples = Float64Array.from(byWavelength, (match, i) =>
+    match.peak.fwhmSamples !== undefined && match.peak.fwhmNm > 0
+      ? (instrumentNm[i] * match.peak.fwhmSamples) / match.peak.fwhmNm
+      : Number.NaN,
+  );
   const maxReachNm = reachNm.reduce((r, reach) => Math.max(r, reach), 0);
   // Slack so that rounding in nm ± reach cannot drop a peak the exact test below would accept.
   const slackNm = 1e-9 * (maxReachNm + 1);
@@ -1106,7 +1112,11 @@ function hidingPeaks(
         snr[i] >= snrRatio * predictedSnr ||
         (predictedSnr <= snr[i] &&
           snr[i] *
-            twoLineDip(Math.abs(wavelengthNm[i] - nm) / instrumentNm[i], predictedSnr / snr[i]) <
+            twoLineDip(
+              Math.abs(wavelengthNm[i] - nm) / instrumentNm[i],
+              predictedSnr / snr[i],
+              Number.isNaN(instrumentSamples[i]) ? undefined : instrumentSamples[i],
+            ) <
             RESOLVING_DIP_SNR);
       if (!hides) continue;
       if (!best || snr[i] > bestSnr) {

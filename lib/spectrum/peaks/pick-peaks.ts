@@ -267,6 +267,7 @@ export function pickPeaks(
       snr,
       saturated: clipped !== null,
       blended,
+      fwhmSamples,
       ...asymmetryOf(x, left, right, xCentre, clipped === null),
     });
     spans.push(fwhm);

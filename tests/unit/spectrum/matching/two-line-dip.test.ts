@@ -34,4 +34,30 @@ describe("twoLineDip", () => {
     expect(twoLineDip(0, 0.5)).toBe(0);
     expect(twoLineDip(Number.NaN, 0.5)).toBe(0);
   });
+
+  it("gives the continuous dip when finely sampled, and never more than it", () => {
+    expect(twoLineDip(2, 1, 40)).toBeCloseTo(twoLineDip(2, 1), 2);
+    expect(twoLineDip(1.35, 0.37, 40)).toBeCloseTo(twoLineDip(1.35, 0.37), 2);
+    for (const samples of [2.2, 2.5, 3, 4, 6]) {
+      for (const [separation, ratio] of [
+        [1.35, 0.37],
+        [2, 1],
+        [1.6, 0.5],
+      ]) {
+        expect(twoLineDip(separation, ratio, samples)).toBeLessThanOrEqual(
+          twoLineDip(separation, ratio) + 1e-12,
+        );
+      }
+    }
+  });
+
+  it("is 0 where 2.5 samples per FWHM can fall so that no sample tops the companion", () => {
+    // The Na D pair at 0.44 nm resolution and 0.18 nm per sample (D1 0.37 of D2, 1.35 FWHM away): the
+    // continuous profile dips by 6 % of D2, but the peak finder's test found D1 at some placings of the
+    // grid and at others not at all (tests/unit/spectrum/peaks/narrow-neighbours.test.ts).
+    expect(twoLineDip(1.35, 0.37)).toBeGreaterThan(0.05);
+    expect(twoLineDip(1.35, 0.37, 2.5)).toBe(0);
+    // Sampled five times per FWHM the dip shows at every placing.
+    expect(twoLineDip(1.35, 0.37, 5)).toBeGreaterThan(0.03);
+  });
 });
