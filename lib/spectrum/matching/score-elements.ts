@@ -803,7 +803,7 @@ function demoteSinglePeakCalls(calls: ElementCall[], context: SinglePeakContext)
     }
     // A line inside the extent of a band called present needs its own confirming lines: the band's
     // fading tail lies under it whatever the band's head zone says.
-    for (const species of seenBandsCovering(match.peak.wavelengthNm, call.element, callOf, index)) {
+    for (const species of seenBandsCovering(match.peak, call.element, callOf, index)) {
       if (!explainers.includes(species)) explainers.push(species);
     }
     if (explainers.length === 0) continue;
@@ -826,15 +826,18 @@ function demoteSinglePeakCalls(calls: ElementCall[], context: SinglePeakContext)
   }
 }
 
-/** Species of bands called present whose extent, from the head in the direction the
- * band degrades, covers `nm`; a band of `element`'s own molecule (CaOH for Ca: its formula's first
- * element symbol) stands with it, not against it. */
+/** Species of bands called present whose extent, from the head in the direction the band degrades,
+ * covers the peak, and which are bright enough to make EXPLAINING_SHARE of it: a band's tail is never
+ * brighter than its head, so a band whose brightest seen peak is fainter than that cannot (Tl I
+ * 535.05 nm standing 20 times above the BaCl heads it lies beyond). A band of `element`'s own molecule
+ * (CaOH for Ca: its formula's first element symbol) stands with it, not against it. */
 function seenBandsCovering(
-  nm: number,
+  peak: CalibratedPeak,
   element: string,
   callOf: Map<string, ElementCall>,
   index: LineIndex,
 ): string[] {
+  const nm = peak.wavelengthNm;
   const out: string[] = [];
   for (
     let i = lowerBound(index.bandHeadNm, nm - index.maxBandExtentNm);
@@ -850,7 +853,8 @@ function seenBandsCovering(
       depthNm <= band.extentNm &&
       /^[A-Z][a-z]?/.exec(line.element)?.[0] !== element &&
       verdict === "present" &&
-      !out.includes(line.species)
+      !out.includes(line.species) &&
+      callOf.get(line.species)!.seen.some((seen) => seen.snr >= EXPLAINING_SHARE * peak.snr)
     ) {
       out.push(line.species);
     }

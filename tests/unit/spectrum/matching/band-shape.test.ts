@@ -119,6 +119,14 @@ describe("an atomic line inside the extent of a band called present", () => {
     expect(wv.notes.join(" ")).toMatch(/^Interference: XyO also explains the only peak seen/);
   });
 
+  it("keeps the call present when the line stands far above the band's brightest head", () => {
+    // A band's tail is never brighter than its head: heads at SNR 80 and 60 cannot make 30 % of a
+    // peak at SNR 1600.
+    const result = identifyElements([...bandPeaks, peak(650.2, 1600)], table, options);
+    expect(result.calls.find((c) => c.species === "XyO")?.verdict).toBe("present");
+    expect(result.calls.find((c) => c.species === "Wv I")?.verdict).toBe("present");
+  });
+
   it("keeps the call present when the band is not seen", () => {
     const result = identifyElements([peak(650.2, 120)], table, options);
     expect(result.calls.find((c) => c.species === "Wv I")?.verdict).toBe("present");
