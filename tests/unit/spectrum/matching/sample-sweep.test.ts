@@ -1,9 +1,10 @@
 // The element-identification sweep of issue 12 on one fixed seed: 200 realistic flame and arc
 // samples (tests/support/realistic-sample.ts) through analyzeSample against the starter table,
 // scored against the generator's truth. The figures asserted are regression floors: what the
-// identification measured when they were last set (seed 12, n 200: recall 65.6 % (391 of 596),
-// 95.9 % where the principal line is in range (347 of 362), false present 0.35 % of absent pairs
-// (7 of 2007), 7 samples with one, no present call on a single line another species explains):
+// identification measured when they were last set (seed 12, n 200: recall 65.9 % (393 of 596),
+// 96.7 % where the principal line is in range (350 of 362), false present 0.25 % of absent pairs
+// (5 of 2006), 5 samples with one, no present call on a single line another species explains;
+// before the sampled two-line dip, the lean of bands and the judged range: 65.6 %, 95.9 %, 0.35 %, 7):
 // one peak proves only a principal line at SNR ≥ 7 that no other species explains, a band is offered only
 // at a peak as wide as a band, a clean peak's window is what its width beyond the instrument's
 // allows, an axis in nm reads its width trend from its clean peaks, and the peak finder keeps
@@ -28,14 +29,14 @@ describe("sample sweep (seed 12, 200 samples)", () => {
   });
 
   it("holds today's recall of present (floors)", () => {
-    expect(fraction(summary.recall)).toBeGreaterThanOrEqual(0.655);
-    expect(fraction(summary.recallPrincipalInRange)).toBeGreaterThanOrEqual(0.95);
+    expect(fraction(summary.recall)).toBeGreaterThanOrEqual(0.659);
+    expect(fraction(summary.recallPrincipalInRange)).toBeGreaterThanOrEqual(0.965);
   });
 
   it("holds today's false present (ceilings)", () => {
     // Issue 12's own target, met on this seed: no present call on one peak another species explains.
     expect(summary.singleLineExplained).toBe(0);
-    expect(fraction(summary.falsePresent)).toBeLessThanOrEqual(0.0035);
-    expect(summary.samplesWithFalsePresent).toBeLessThanOrEqual(7);
+    expect(fraction(summary.falsePresent)).toBeLessThanOrEqual(0.0025);
+    expect(summary.samplesWithFalsePresent).toBeLessThanOrEqual(5);
   });
 });
