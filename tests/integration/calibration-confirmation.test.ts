@@ -98,7 +98,7 @@ describe("a doubtful calibration", () => {
     expect(reply.status, JSON.stringify(reply.body)).toBe(200);
     expect(reply.body.result.pairs.filter((p) => p.state === "used")).toHaveLength(5);
     expect(reply.body.result.doubts).toContain(
-      "Only 5 pairs are used in the fit; at least 7 are wanted before a calibration is trusted.",
+      "Only 5 pairs are used in the fit; at least 6 are wanted before a calibration is trusted.",
     );
   });
 
@@ -136,7 +136,7 @@ describe("a doubtful calibration", () => {
     expect(reply.status, JSON.stringify(reply.body)).toBe(201);
     const doubts = reply.body.pairing.confirmation?.doubts ?? [];
     expect(doubts).toContain(
-      "Only 5 pairs are used in the fit; at least 7 are wanted before a calibration is trusted.",
+      "Only 5 pairs are used in the fit; at least 6 are wanted before a calibration is trusted.",
     );
     expect(reply.body.pairing.confirmation).toEqual({ reason: REASON, doubts, by: chemistId });
 

@@ -139,7 +139,10 @@ function calibrateCheckedLamp(
   // into line-like peaks); only where lines span two samples or more, so no line can be taken for one.
   const despiked = samplesPerLine >= MIN_SAMPLES_PER_LINE_TO_DESPIKE ? removeSpikes(y).y : y;
   const binned = binSamples(x, despiked, { factor });
-  const peaks = findPeaks(binned.x, binned.y, { source: "lamp", minSnr });
+  const peaks = withEdgeUncertainty(
+    findPeaks(binned.x, binned.y, { source: "lamp", minSnr }),
+    binned.x,
+  );
   const domain: [number, number] = [x[0], x[x.length - 1]];
   const pairing = autoPairLampPeaks(peaks, lines, {
     nominalRangeNm: options.nominalRangeNm,
@@ -155,4 +158,20 @@ function calibrateCheckedLamp(
       ? pairing.model
       : fitCalibration(pairing.pairs, { model: model.kind, degree: model.degree, domain });
   return { peaks, pairing, fit };
+}
+
+/**
+ * A line whose centre lies within one FWHM of the array's end has part of its profile off the
+ * detector: the peak finder's centre for it is pulled towards the inside by up to about a FWHM, and a
+ * fit that believes its noise-limited σ follows it (a Kr I 645.63 nm pair 3 pixels from the end of a
+ * 2048-pixel prism array sat 0.29 nm off, and the physical prism model bent 0.29 nm with it). Such a
+ * peak's centre uncertainty is raised to its FWHM, so the fits weigh it for what it is.
+ */
+function withEdgeUncertainty(peaks: Peak[], x: Float64Array): Peak[] {
+  const [first, last] = [x[0], x[x.length - 1]];
+  return peaks.map((peak) =>
+    Math.min(peak.x - first, last - peak.x) < peak.fwhm
+      ? { ...peak, xUncertainty: Math.max(peak.xUncertainty, peak.fwhm) }
+      : peak,
+  );
 }

@@ -2,6 +2,8 @@
 // cover too little of the array, ends that rest on one or two isolated pairs, or an automatic pairing of
 // low confidence. Each doubt is a sentence a chemist can act on; an empty list means no doubt.
 
+import { MIN_TRUSTED_PAIRS } from "./min-trusted-pairs";
+
 /** The parts of a fit the doubts look at (a FitCalibrationResult has them all). */
 export interface CalibrationDoubtsFit {
   /** Every pair of the fit; only those with `used` count. */
@@ -22,7 +24,7 @@ export interface CalibrationDoubtsOptions {
   automaticConfidence?: number;
   /**
    * Fewer used pairs than this are a doubt.
-   * @default 7
+   * @default MIN_TRUSTED_PAIRS (6)
    */
   minPairs?: number;
   /**
@@ -56,7 +58,7 @@ export function calibrationDoubts(
 ): string[] {
   const {
     automaticConfidence,
-    minPairs = 7,
+    minPairs = MIN_TRUSTED_PAIRS,
     minCoveredFraction = 0.6,
     maxEndGapFraction = 0.3,
     minConfidence = 0.5,

@@ -15,6 +15,7 @@ import type { CalibrationModel } from "./calibration-model";
 import type { DispersionKind } from "../types";
 import type { LampPair } from "./lamp-pairing-types";
 import { lampLineBlended } from "./lamp-line-blended";
+import { MIN_TRUSTED_PAIRS } from "./min-trusted-pairs";
 import { modelEvaluation } from "./model-evaluation";
 import type { PairingContext } from "./refine-lamp-pairing";
 import { elementOfSpecies } from "./element-of-species";
@@ -63,8 +64,8 @@ const TIGHT_CLUSTER_SHARE = 0.25;
 
 /** Limits of the checks, tuned on the realistic-lamp sweep (tests/support/realistic-lamp.ts; `npm run sweep`). */
 export const PAIRING_CHECK_LIMITS = {
-  /** Fewest pairs a trusted automatic pairing has. */
-  minPairs: 7,
+  /** Fewest pairs a trusted automatic pairing has (see min-trusted-pairs.ts). */
+  minPairs: MIN_TRUSTED_PAIRS,
   /**
    * Largest RMS of the pairs about a forward model, in matching tolerances (half a resolution element):
    * chance coincidences scatter over the whole tolerance (RMS ≈ 0.58), true pairs sit far inside it. At

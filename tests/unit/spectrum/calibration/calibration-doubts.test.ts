@@ -21,11 +21,11 @@ describe("calibrationDoubts", () => {
     );
   });
 
-  it("doubts fewer than 7 pairs, and not 7", () => {
-    const six = calibrationDoubts(fitAt(spread(6, 100, 1940)));
-    expect(six).toHaveLength(1);
-    expect(six[0]).toMatch(/Only 6 pairs are used/);
-    expect(calibrationDoubts(fitAt(spread(7, 100, 1940)))).toEqual([]);
+  it("doubts fewer than 6 pairs (the automatic pairing's own minimum), and not 6", () => {
+    const five = calibrationDoubts(fitAt(spread(5, 100, 1940)));
+    expect(five).toHaveLength(1);
+    expect(five[0]).toMatch(/Only 5 pairs are used/);
+    expect(calibrationDoubts(fitAt(spread(6, 100, 1940)))).toEqual([]);
   });
 
   it("doubts pairs that cover under 60 % of the array, and says how much they cover", () => {
@@ -72,7 +72,7 @@ describe("calibrationDoubts", () => {
   });
 
   it("counts only the pairs the fit used, and lists every doubt at once", () => {
-    const fit = fitAt(spread(6, 600, 1000));
+    const fit = fitAt(spread(5, 600, 1000));
     const withRejected = {
       ...fit,
       pairs: [
@@ -82,7 +82,7 @@ describe("calibrationDoubts", () => {
     };
     const doubts = calibrationDoubts(withRejected, { automaticConfidence: 0.2 });
     expect(doubts.map((d) => d.slice(0, 20))).toEqual([
-      "Only 6 pairs are use",
+      "Only 5 pairs are use",
       "The pairs cover 19 %",
       "The automatic pairin",
     ]);

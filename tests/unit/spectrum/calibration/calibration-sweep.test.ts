@@ -19,9 +19,12 @@ import {
 const SEED = 1000;
 const COUNT = 300;
 /**
- * Measured on these seeds when the floors were last set (raw counts kept around clipped tops, a leap's
- * landed lines judged by a refit): silent wrong 0.33 % (1 of 300; target ≤ 0.5 %), success 56.9 % of
- * the 281 eligible instruments (target ≥ 95 %), 0 exceptions. This seed lost 0.8 points (outcomes
+ * Measured on these seeds when the floors were last set (a lamp line cut by the array's end weighed
+ * with a FWHM of uncertainty, six pairs enough when every other check passes): silent wrong 0.33 % (1
+ * of 300; target ≤ 0.5 %), success 58.0 % of the 281 eligible instruments (target ≥ 95 %), 0
+ * exceptions. Six fresh seeds of the CLI's mix (1000, 7900000–8300000, n 300 each): 962 → 985
+ * successes of 1680 eligible, silent wrong 28 → 27 of 1800. Before: 56.9 % and 0.33 % (raw counts
+ * kept around clipped tops, a leap's landed lines judged by a refit). That lost 0.8 points (outcomes
  * churned both ways when saturated lines stopped splitting) while three fresh seeds (3100000–3300000,
  * n 200 each) gained: 288 → 302 successes of 549 eligible, silent wrong 7 → 6 of 600. Before: 57.7 %
  * and 0.7 % (a prism's first guess in the axis of a prism of each catalogue glass); 52.7 % and 0.3 % (pairs beyond a wide
@@ -31,7 +34,7 @@ const COUNT = 300;
  * 54.2 % with silent wrong 0.50 → 0.42 %.
  */
 const SILENT_WRONG_FLOOR = 0.005;
-const SUCCESS_FLOOR = 0.565;
+const SUCCESS_FLOOR = 0.58;
 /**
  * Recalibration from the previous calibration, 100 instruments: success 76.3 % of 93 eligible (75.3 %
  * before clipped tops stopped splitting and leaps were judged by a refit; 72.0 % before pairs beyond
