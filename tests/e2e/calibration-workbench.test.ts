@@ -267,10 +267,10 @@ describe("the calibration workbench", () => {
       ]).toContain(r);
     expect(await page.getByTestId("calibration-doubts").count()).toBe(0);
 
-    // Leave out pairs until at most six are used: fewer than 7 is a doubt. (A refit may reject another
+    // Leave out pairs until at most five are used: fewer than 6 is a doubt. (A refit may reject another
     // pair or take back one it had rejected, so count the used pairs the preview shows, not the clicks.)
     let used = await workbench.rows("used").count();
-    for (let excluded = 1; used > 6; excluded++) {
+    for (let excluded = 1; used > 5; excluded++) {
       await workbench
         .rows("used")
         .first()
