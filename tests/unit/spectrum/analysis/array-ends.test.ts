@@ -3,21 +3,15 @@
 // strong line sits there keeps the call its other lines earn. The table is invented.
 import { describe, expect, it } from "vitest";
 import { analyzeSample } from "@/lib/spectrum/analysis";
-import { fitCalibration } from "@/lib/spectrum/calibration";
 import { synthesizeSpectrum } from "@/lib/spectrum/synthetic";
 import { inventedLine } from "../../../support/invented-line";
+import { linearCalibration } from "../../../support/linear-calibration";
 
 const PIXELS = 2048;
 const RESOLUTION_NM = 0.6;
 /** A linear grating over 400–700 nm, 0.147 nm per pixel: a line is 4.1 pixels wide. */
 const wavelengthOfPixel = (px: number) => 400 + (300 * px) / (PIXELS - 1);
-const calibration = fitCalibration(
-  [0, 0.25, 0.5, 0.75, 1].map((u) => ({
-    x: u * (PIXELS - 1),
-    wavelengthNm: wavelengthOfPixel(u * (PIXELS - 1)),
-  })),
-  { model: "polynomial", degree: 1, domain: [0, PIXELS - 1] },
-).model;
+const calibration = linearCalibration(PIXELS, wavelengthOfPixel);
 
 const line = (airNm: number, flame: number) =>
   inventedLine("Xa I", airNm, { flame }, { ionStage: 1, uncertaintyNm: 0.002 });

@@ -4,21 +4,15 @@
 // The table is invented.
 import { describe, expect, it } from "vitest";
 import { analyzeSample } from "@/lib/spectrum/analysis";
-import { fitCalibration } from "@/lib/spectrum/calibration";
 import { synthesizeSpectrum } from "@/lib/spectrum/synthetic";
 import { inventedLine } from "../../../support/invented-line";
+import { linearCalibration } from "../../../support/linear-calibration";
 
 const PIXELS = 2048;
 const NM_PER_PX = 0.18;
 const RESOLUTION_NM = 2.5 * NM_PER_PX;
 const wavelengthOfPixel = (px: number) => 400 + NM_PER_PX * px;
-const calibration = fitCalibration(
-  [0, 0.25, 0.5, 0.75, 1].map((u) => ({
-    x: u * (PIXELS - 1),
-    wavelengthNm: wavelengthOfPixel(u * (PIXELS - 1)),
-  })),
-  { model: "polynomial", degree: 1, domain: [0, PIXELS - 1] },
-).model;
+const calibration = linearCalibration(PIXELS, wavelengthOfPixel);
 
 // The stronger line 0.2 of a pixel past pixel 1000, the fainter 3.37 pixels further.
 const STRONG_NM = wavelengthOfPixel(1000.2);
