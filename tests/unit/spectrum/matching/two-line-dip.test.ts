@@ -51,6 +51,13 @@ describe("twoLineDip", () => {
     }
   });
 
+  it("takes the continuous dip for very fine or senseless sampling, at no cost", () => {
+    expect(twoLineDip(1.35, 0.37, 1e9)).toBe(twoLineDip(1.35, 0.37));
+    expect(twoLineDip(1.35, 0.37, Number.POSITIVE_INFINITY)).toBe(twoLineDip(1.35, 0.37));
+    expect(twoLineDip(1.35, 0.37, Number.NaN)).toBe(twoLineDip(1.35, 0.37));
+    expect(twoLineDip(1.35, 0.37, 0)).toBe(twoLineDip(1.35, 0.37));
+  });
+
   it("is 0 where 2.5 samples per FWHM can fall so that no sample tops the companion", () => {
     // The Na D pair at 0.44 nm resolution and 0.18 nm per sample (D1 0.37 of D2, 1.35 FWHM away): the
     // continuous profile dips by 6 % of D2, but the peak finder's test found D1 at some placings of the
