@@ -2,6 +2,7 @@
 // a peak flagged broad (too wide for one atomic line) is offered band heads only.
 
 import type { CalibratedPeak, ReferenceLine, WavelengthMedium } from "../types";
+import { depthIntoBandNm } from "./depth-into-band";
 import { leansLikeBand } from "./leans-like-band";
 import { lowerBound } from "./lower-bound";
 import { prepareLineIndex, type LineIndex } from "./prepare-line-index";
@@ -179,7 +180,7 @@ export function matchPeaksToLines(
           Math.sqrt(bandVarianceNm2 + line.uncertaintyNm ** 2),
         );
         const deltaNm = peak.wavelengthNm - referenceNm;
-        const depthNm = band.degradesTo === "red" ? deltaNm : -deltaNm;
+        const depthNm = depthIntoBandNm(band, referenceNm, peak.wavelengthNm);
         const zoneNm = bandHeadZoneFraction * band.extentNm;
         const outsideNm = depthNm < 0 ? depthNm : Math.max(0, depthNm - zoneNm);
         const deltaSigma = outsideNm / sigmaNm;

@@ -3,6 +3,7 @@
 import type { CalibratedPeak, ReferenceLine, SourceKind } from "../types";
 import type { LineCandidate, PeakMatch } from "./match-peaks-to-lines";
 import { countAtLeast } from "./count-at-least";
+import { depthIntoBandNm } from "./depth-into-band";
 import { lowerBound } from "./lower-bound";
 import { twoLineDip } from "./two-line-dip";
 import { sumAtLeast } from "./sum-at-least";
@@ -271,15 +272,9 @@ export function scoreElements(
     ? prepareLineIndex(lines as readonly ReferenceLine[])
     : (lines as LineIndex);
   const rangeNm = options.rangeNm ?? peakSpan(matches);
-  if (!(rangeNm[0] <= rangeNm[1]) || !rangeNm.every(Number.isFinite)) {
-    throw new RangeError(`rangeNm must be [min, max] with min ≤ max, got [${rangeNm.join(", ")}]`);
-  }
   const judgedRangeNm = options.judgedRangeNm ?? rangeNm;
-  if (!(judgedRangeNm[0] <= judgedRangeNm[1]) || !judgedRangeNm.every(Number.isFinite)) {
-    throw new RangeError(
-      `judgedRangeNm must be [min, max] with min ≤ max, got [${judgedRangeNm.join(", ")}]`,
-    );
-  }
+  assertRangeNm("rangeNm", rangeNm);
+  assertRangeNm("judgedRangeNm", judgedRangeNm);
   const relativeOf = (lineIndex: number): number | undefined => {
     const entry = index.species[index.speciesOfLine[lineIndex]];
     const value = entry.bySource[source].relative[index.positionInSpecies[lineIndex]];
@@ -846,20 +841,32 @@ function seenBandsCovering(
   ) {
     const line = index.lines[index.bandOrder[i]];
     const band = line.band!;
-    const depthNm = (band.degradesTo === "red" ? 1 : -1) * (nm - index.bandHeadNm[i]);
-    const verdict = callOf.get(line.species)?.verdict;
+    const depthNm = depthIntoBandNm(band, index.bandHeadNm[i], nm);
+    const bandCall = callOf.get(line.species);
     if (
       depthNm >= 0 &&
       depthNm <= band.extentNm &&
-      /^[A-Z][a-z]?/.exec(line.element)?.[0] !== element &&
-      verdict === "present" &&
+      firstElementOf(line.element) !== element &&
+      bandCall?.verdict === "present" &&
       !out.includes(line.species) &&
-      callOf.get(line.species)!.seen.some((seen) => seen.snr >= EXPLAINING_SHARE * peak.snr)
+      bandCall.seen.some((seen) => seen.snr >= EXPLAINING_SHARE * peak.snr)
     ) {
       out.push(line.species);
     }
   }
   return out;
+}
+
+/** The element symbol a formula opens with: "Ca" of "CaOH", "B" of "BO2". */
+function firstElementOf(formula: string): string | undefined {
+  return /^[A-Z][a-z]?/.exec(formula)?.[0];
+}
+
+/** Throws unless `range` is [min, max] of finite numbers with min ≤ max. */
+function assertRangeNm(name: string, range: [number, number]): void {
+  if (!(range[0] <= range[1]) || !range.every(Number.isFinite)) {
+    throw new RangeError(`${name} must be [min, max] with min ≤ max, got [${range.join(", ")}]`);
+  }
 }
 
 /** A present call becomes possible, with a note saying why and the reason added to its rationale. */
