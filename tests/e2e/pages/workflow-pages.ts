@@ -120,16 +120,36 @@ export class UploadZone {
   }
 }
 
-/** Waits until Plotly has drawn every chart on the page. */
+/**
+ * Waits until Plotly has drawn every chart on the page; when it never does, the error says what the
+ * charts show instead (skeletons still loading, or the sentence of a library that did not arrive).
+ */
 export async function chartsDrawn(page: Page): Promise<void> {
-  await page.waitForFunction(
-    () => {
-      const figures = document.querySelectorAll("[data-testid=chart]");
-      return figures.length > 0 && [...figures].every((f) => f.querySelector(".main-svg"));
-    },
-    undefined,
-    { timeout: 30_000 },
-  );
+  try {
+    await page.waitForFunction(
+      () => {
+        const figures = document.querySelectorAll("[data-testid=chart]");
+        return figures.length > 0 && [...figures].every((f) => f.querySelector(".main-svg"));
+      },
+      undefined,
+      { timeout: 30_000 },
+    );
+  } catch (error) {
+    const seen = await page
+      .evaluate(() =>
+        [...document.querySelectorAll("[data-testid=chart]")].map((f) =>
+          f.querySelector(".main-svg")
+            ? "drawn"
+            : (f.querySelector("[data-testid=chart-error]")?.textContent ??
+              f.querySelector("[data-testid=chart-skeleton]")?.textContent ??
+              "empty"),
+        ),
+      )
+      .catch(() => ["(the page could not be read)"]);
+    throw new Error(`The charts were not all drawn in 30 s: ${JSON.stringify(seen)}`, {
+      cause: error,
+    });
+  }
 }
 
 export class RunPage {
