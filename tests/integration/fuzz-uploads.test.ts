@@ -70,7 +70,7 @@ const fileContent: fc.Arbitrary<Uint8Array> = fc.oneof(
     ),
 );
 
-const uploadCase = fc.record({
+const hostileCase = fc.record({
   route: fc.constantFrom("/api/spectra/preview", "/api/spectra"),
   who: fc.constantFrom(...IDENTITIES),
   fileName: fc.oneof(fc.constantFrom(...FILE_NAMES), hostileString),
@@ -97,6 +97,26 @@ const uploadCase = fc.record({
   // One form in twenty comes without its file.
   withFile: fc.integer({ min: 0, max: 19 }).map((n) => n !== 0),
 });
+
+/**
+ * A quarter of the forms are well formed but for their file and its name (a chemist previewing on the
+ * real instrument), so that with any seed (FC_SEED) enough of them reach the parser: with all fields
+ * drawn at random, one seed of four brought not one form past the checks before it.
+ */
+const nearlyValidCase = hostileCase.map((c) => ({
+  ...c,
+  route: "/api/spectra/preview",
+  who: "chemist" as Identity,
+  instrument: "@real",
+  kind: "sample",
+  medium: undefined,
+  withFile: true,
+}));
+
+const uploadCase = fc.oneof(
+  { arbitrary: hostileCase, weight: 3 },
+  { arbitrary: nearlyValidCase, weight: 1 },
+);
 
 function decodeSafely(id: string): string {
   try {
