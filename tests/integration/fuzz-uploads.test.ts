@@ -99,9 +99,10 @@ const hostileCase = fc.record({
 });
 
 /**
- * A quarter of the forms are well formed but for their file and its name (a chemist previewing on the
- * real instrument), so that with any seed (FC_SEED) enough of them reach the parser: with all fields
- * drawn at random, one seed of four brought not one form past the checks before it.
+ * A quarter of the forms are well formed but for their file, its name, label and stated unit (a
+ * chemist previewing on the real instrument), so that with any seed (FC_SEED) enough of them reach the
+ * parser: with all fields drawn at random, one seed of four brought not one form past the checks
+ * before it.
  */
 const nearlyValidCase = hostileCase.map((c) => ({
   ...c,
