@@ -288,7 +288,12 @@ export function autoPairLampPeaks(
     if (!(error instanceof CalibrationError)) throw error;
   }
   if (recalibrated?.status === "paired") return recalibrated;
-  if (!recalibrated) {
+  // Yesterday's model fitted its own lines too loosely to carry today's, though the drift's pairs passed
+  // every other check: the lines are known, only the shape is doubted, so today's pairs get a fit of
+  // their own (checked as a blind pairing is).
+  const failed = (recalibrated?.checks ?? []).filter((c) => !c.passed);
+  const onlyShapeDoubted = failed.length > 0 && failed.every((c) => c.name === "previous-fit");
+  if (!recalibrated || onlyShapeDoubted) {
     // The drift does not explain today's lamp (the instrument was realigned, say): yesterday's model
     // still predicts where each line lands, so a fresh fit of its family starts from those pairs.
     const seeded = pairsFromPrevious(context, options.previous);
@@ -301,7 +306,7 @@ export function autoPairLampPeaks(
       });
       if (result.status === "paired") return result;
     }
-    return blindLampPairing(peaks, lines, options);
+    if (!recalibrated) return blindLampPairing(peaks, lines, options);
   }
   // A recalibration to check stands unless a blind search, which knows nothing of yesterday, finds the
   // same axis: two independent routes to one answer are trusted, a disagreement is the person's call.
