@@ -295,16 +295,19 @@ export function autoPairLampPeaks(
   const onlyShapeDoubted = failed.length > 0 && failed.every((c) => c.name === "previous-fit");
   if (!recalibrated || onlyShapeDoubted) {
     // The drift does not explain today's lamp (the instrument was realigned, say): yesterday's model
-    // still predicts where each line lands, so a fresh fit of its family starts from those pairs.
+    // still predicts where each line lands, so a fresh fit of its family starts from those pairs. When
+    // it was yesterday's shape that was doubted, a fit free to choose its model (a prism of another
+    // glass, Hartmann, a polynomial) follows if that family fails.
     const seeded = pairsFromPrevious(context, options.previous);
     if (seeded.length >= 4) {
+      const start = { pairs: seeded, rmsX: Infinity, score: seeded.length };
       const family: PairingContext = { ...context, previousModel: options.previous };
-      const result = finishLampPairing(family, {
-        pairs: seeded,
-        rmsX: Infinity,
-        score: seeded.length,
-      });
+      const result = finishLampPairing(family, start);
       if (result.status === "paired") return result;
+      if (onlyShapeDoubted) {
+        const free = finishLampPairing(context, start);
+        if (free.status === "paired") return free;
+      }
     }
     if (!recalibrated) return blindLampPairing(peaks, lines, options);
   }
