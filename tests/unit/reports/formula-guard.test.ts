@@ -4,11 +4,7 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import "../../support/fast-check-seed";
 import { formatLineTableCsv, parseLineTableCsv } from "@/lib/lines";
-import {
-  FORMULA_START,
-  guardFormulaCell,
-  unguardFormulaCell,
-} from "@/lib/reports/formula-guard";
+import { FORMULA_START, guardFormulaCell, unguardFormulaCell } from "@/lib/reports/formula-guard";
 
 describe("guardFormulaCell", () => {
   it.each(['=HYPERLINK("http://evil.example","x")', "+1", "-2+3", "@SUM(A1)", "\tx", "\rx"])(
@@ -25,10 +21,13 @@ describe("guardFormulaCell", () => {
   });
   // A random seed of the line table's round-trip property found a note "'-" read back as "-": the
   // reader took the text's own apostrophe for the guard's.
-  it.each(["'-", "'=1", "''", "'''x", "'@"])("writes %j so that it reads back unchanged", (cell) => {
-    expect(guardFormulaCell(cell)).toBe(`'${cell}`);
-    expect(unguardFormulaCell(guardFormulaCell(cell))).toBe(cell);
-  });
+  it.each(["'-", "'=1", "''", "'''x", "'@"])(
+    "writes %j so that it reads back unchanged",
+    (cell) => {
+      expect(guardFormulaCell(cell)).toBe(`'${cell}`);
+      expect(unguardFormulaCell(guardFormulaCell(cell))).toBe(cell);
+    },
+  );
   it("reads back every text it writes, and writes none that starts a formula (property)", () => {
     const text = fc.string({ unit: fc.constantFrom("'", "-", "=", "+", "@", "\t", "a", " ") });
     fc.assert(
