@@ -294,21 +294,8 @@ export function autoPairLampPeaks(
   const failed = (recalibrated?.checks ?? []).filter((c) => !c.passed);
   const onlyShapeDoubted = failed.length > 0 && failed.every((c) => c.name === "previous-fit");
   if (!recalibrated || onlyShapeDoubted) {
-    // The drift does not explain today's lamp (the instrument was realigned, say): yesterday's model
-    // still predicts where each line lands, so a fresh fit of its family starts from those pairs. When
-    // it was yesterday's shape that was doubted, a fit free to choose its model (a prism of another
-    // glass, Hartmann, a polynomial) follows if that family fails.
-    const seeded = pairsFromPrevious(context, options.previous);
-    if (seeded.length >= 4) {
-      const start = { pairs: seeded, rmsX: Infinity, score: seeded.length };
-      const family: PairingContext = { ...context, previousModel: options.previous };
-      const result = finishLampPairing(family, start);
-      if (result.status === "paired") return result;
-      if (onlyShapeDoubted) {
-        const free = finishLampPairing(context, start);
-        if (free.status === "paired") return free;
-      }
-    }
+    const refitted = refitFromPrevious(context, options.previous, onlyShapeDoubted);
+    if (refitted) return refitted;
     if (!recalibrated) return blindLampPairing(peaks, lines, options);
   }
   // A recalibration to check stands unless a blind search, which knows nothing of yesterday, finds the
@@ -318,6 +305,26 @@ export function autoPairLampPeaks(
     if (modelsAgree(blind.model.model, recalibrated.candidate.model, context)) return blind;
   }
   return recalibrated;
+}
+
+/**
+ * Today's pairs as `previous` predicts them, fitted afresh: in `previous`'s family (the drift does not
+ * explain today's lamp, the instrument was realigned, say), then, with `anyModel`, free to choose its
+ * model (a prism of another glass, Hartmann, a polynomial) when that family fails. Null unless trusted.
+ */
+function refitFromPrevious(
+  context: PairingContext,
+  previous: CalibrationModel,
+  anyModel: boolean,
+): LampPairingResult | null {
+  const seeded = pairsFromPrevious(context, previous);
+  if (seeded.length < 4) return null;
+  const start = { pairs: seeded, rmsX: Infinity, score: seeded.length };
+  const inFamily = finishLampPairing({ ...context, previousModel: previous }, start);
+  if (inFamily.status === "paired") return inFamily;
+  if (!anyModel) return null;
+  const free = finishLampPairing(context, start);
+  return free.status === "paired" ? free : null;
 }
 
 /** Whether two calibrations agree within a tenth of a matching tolerance wherever both are covered. */

@@ -125,25 +125,28 @@ export class UploadZone {
  * charts show instead (skeletons still loading, or the sentence of a library that did not arrive).
  */
 export async function chartsDrawn(page: Page): Promise<void> {
+  const chart = "[data-testid=chart]";
   try {
     await page.waitForFunction(
-      () => {
-        const figures = document.querySelectorAll("[data-testid=chart]");
+      (selector) => {
+        const figures = document.querySelectorAll(selector);
         return figures.length > 0 && [...figures].every((f) => f.querySelector(".main-svg"));
       },
-      undefined,
+      chart,
       { timeout: 30_000 },
     );
   } catch (error) {
     const seen = await page
-      .evaluate(() =>
-        [...document.querySelectorAll("[data-testid=chart]")].map((f) =>
-          f.querySelector(".main-svg")
-            ? "drawn"
-            : (f.querySelector("[data-testid=chart-error]")?.textContent ??
-              f.querySelector("[data-testid=chart-skeleton]")?.textContent ??
-              "empty"),
-        ),
+      .evaluate(
+        (selector) =>
+          [...document.querySelectorAll(selector)].map((f) =>
+            f.querySelector(".main-svg")
+              ? "drawn"
+              : (f.querySelector("[data-testid=chart-error]")?.textContent ??
+                f.querySelector("[data-testid=chart-skeleton]")?.textContent ??
+                "empty"),
+          ),
+        chart,
       )
       .catch(() => ["(the page could not be read)"]);
     throw new Error(`The charts were not all drawn in 30 s: ${JSON.stringify(seen)}`, {
