@@ -65,10 +65,19 @@ export interface LampPairingSearch {
   rival: GrownPairing | null;
 }
 
+/**
+ * A short-baseline hypothesis: a straight line in shape `shape`'s axis through `anchorPeak` and
+ * `anchorLine` at `slope`. Only its score and pair count are kept; its pairs are listed again for the
+ * few that are grown (a dense lamp on a prism makes millions of hypotheses).
+ */
 interface Hypothesis {
   shape: number;
+  anchorPeak: number;
+  anchorLine: number;
+  slope: number;
+  separation: number;
   score: number;
-  pairs: LampPair[];
+  count: number;
 }
 
 /** How far the nominal range may misplace a line, in shares of the array: ±3 % stated-range error at each end and a few per cent of curvature (a prism's straightening is rougher). */
@@ -104,6 +113,28 @@ export function usableLampPeaks(peaks: readonly LampPeak[]): number[] {
   return peaks
     .map((_, i) => i)
     .filter((i) => !(peaks[i].fwhm !== undefined && peaks[i].fwhm! < MIN_WIDTH_SHARE * typical));
+}
+
+/** Hypotheses sorted in one batch: growth rarely looks further than the first few hundred. */
+const BEST_FIRST_BATCH = 4096;
+
+/**
+ * `hypotheses` best score first, ties in their given order (as a stable sort would give them), sorted a
+ * batch at a time: growth stops after a few dozen, so sorting a million hypotheses whole is wasted.
+ */
+function* bestFirst(hypotheses: readonly Hypothesis[]): Generator<Hypothesis> {
+  const scores = Float64Array.from(hypotheses, (h) => h.score).sort();
+  let above = Infinity;
+  let remaining = scores.length;
+  while (remaining > 0) {
+    // The lowest score of this batch: every hypothesis at or above it and below the last batch's.
+    const floor = scores[Math.max(0, remaining - BEST_FIRST_BATCH)];
+    const batch = hypotheses.filter((h) => h.score >= floor && h.score < above);
+    batch.sort((a, b) => b.score - a.score);
+    yield* batch;
+    remaining -= batch.length;
+    above = floor;
+  }
 }
 
 export function searchLampPairing(
@@ -144,16 +175,39 @@ export function searchLampPairing(
   const scoreTolerance = 1.5 * toleranceX;
 
   const hypotheses: Hypothesis[] = [];
+  // Each candidate line's place in each shape's axis, by line index.
+  const gOfShape = shapes.map((g) => {
+    const values = new Float64Array(lines.length);
+    for (const l of candidateLines) values[l] = g(lines[l].wavelengthNm);
+    return values;
+  });
+  // Where a shape's axis runs one way along the candidate lines (it does when they are in wavelength
+  // order), a hypothesis's window is found by bisection instead of a pass over every line. `ascending`
+  // holds the axis values in candidate order, negated when they fall.
+  const windows = shapes.map((_, shape) => {
+    const values = Float64Array.from(candidateLines, (l) => gOfShape[shape][l]);
+    const rising = values.every((v, k) => k === 0 || v > values[k - 1]);
+    const falling = values.every((v, k) => k === 0 || v < values[k - 1]);
+    if (!rising && !falling) return null;
+    return { sign: rising ? 1 : -1, ascending: rising ? values : values.map((v) => -v) };
+  });
+  const lineRankOf = new Float64Array(lines.length);
+  lineRank.forEach((rank, l) => (lineRankOf[l] = rank));
+  const peakRankOf = new Float64Array(peaks.length);
+  peakRank.forEach((rank, p) => (peakRankOf[p] = rank));
+  // Peaks taken by a hypothesis's lines, marked with the hypothesis's stamp (no set per hypothesis).
+  const takenStamp = new Int32Array(peaks.length);
+  let stamp = 0;
   shapes.forEach((g, shape) => {
     const gLow = g(nominalRangeNm[0]);
     const gHigh = g(nominalRangeNm[1]);
-    const gOf = new Map(candidateLines.map((l) => [l, g(lines[l].wavelengthNm)]));
+    const gValues = gOfShape[shape];
     for (const direction of [1, -1] as const) {
       const nominalSlope = (direction * spanX) / (gHigh - gLow);
       const nominalX = (l: number) =>
         direction === 1
-          ? domain[0] + (gOf.get(l)! - gLow) * (spanX / (gHigh - gLow))
-          : domain[1] - (gOf.get(l)! - gLow) * (spanX / (gHigh - gLow));
+          ? domain[0] + (gValues[l] - gLow) * (spanX / (gHigh - gLow))
+          : domain[1] - (gValues[l] - gLow) * (spanX / (gHigh - gLow));
       const near = strongPeaks.map((p) =>
         strongLines.filter((l) => Math.abs(nominalX(l) - peaks[p].x) <= placement),
       );
@@ -167,10 +221,21 @@ export function searchLampPairing(
           for (const la of near[i]) {
             for (const lb of near[j]) {
               if (la === lb) continue;
-              const slope = separation / (gOf.get(lb)! - gOf.get(la)!);
+              const slope = separation / (gValues[lb] - gValues[la]);
               const ratio = slope / nominalSlope;
               if (!(ratio >= slowest && ratio <= fastest)) continue;
-              hypotheses.push(scoreLocal(shape, gOf, pi, la, slope, separation));
+              const local = scoreLocal(shape, pi, la, slope, separation);
+              // Fewer than three pairs is never grown: not kept.
+              if (local.count < 3) continue;
+              hypotheses.push({
+                shape,
+                anchorPeak: pi,
+                anchorLine: la,
+                slope,
+                separation,
+                score: local.score,
+                count: local.count,
+              });
             }
           }
         }
@@ -178,50 +243,69 @@ export function searchLampPairing(
     }
   });
 
-  /** Lines a straight line through the anchors lands on a peak, near the anchors only. */
+  /**
+   * Lines a straight line through the anchors lands on a peak, near the anchors only: the score and
+   * the number of pairs, and the pairs themselves into `pairs` when given.
+   */
   function scoreLocal(
     shape: number,
-    gOf: Map<number, number>,
     anchorPeak: number,
     anchorLine: number,
     slope: number,
     separation: number,
-  ): Hypothesis {
+    pairs?: LampPair[],
+  ): { score: number; count: number } {
+    const gValues = gOfShape[shape];
     const x0 = peaks[anchorPeak].x;
-    const g0 = gOf.get(anchorLine)!;
+    const g0 = gValues[anchorLine];
     // Between the anchors and half their separation beyond either (the second anchor is at x0 + separation).
     const from = x0 - 0.5 * separation;
     const to = x0 + 1.5 * separation;
     let score = 0;
-    const pairs: LampPair[] = [];
-    const taken = new Set<number>();
-    for (const l of candidateLines) {
-      const x = x0 + slope * (gOf.get(l)! - g0);
+    let count = 0;
+    stamp++;
+    let first = 0;
+    let last = candidateLines.length;
+    const window = windows[shape];
+    if (window) {
+      // The lines whose x can fall in [from, to], a little wider than exact (the x test below decides).
+      const end0 = window.sign * (g0 + (from - x0) / slope);
+      const end1 = window.sign * (g0 + (to - x0) / slope);
+      const margin = 1e-9 * (Math.abs(end0) + Math.abs(end1) + 1);
+      first = firstAtOrAbove(window.ascending, Math.min(end0, end1) - margin);
+      last = firstAtOrAbove(window.ascending, Math.max(end0, end1) + margin);
+    }
+    for (let position = first; position < last; position++) {
+      const l = candidateLines[position];
+      const x = x0 + slope * (gValues[l] - g0);
       if (x < from || x > to) continue;
       const k = nearestUsable(x);
       const p = usableByX[k];
-      const quality = lineRank.get(l)!;
-      if (Math.abs(usableX[k] - x) <= scoreTolerance && !taken.has(p)) {
-        taken.add(p);
-        score += 1 + (1 - Math.abs(quality - peakRank.get(p)!));
-        pairs.push(toLampPair(input, p, l));
+      const quality = lineRankOf[l];
+      if (Math.abs(usableX[k] - x) <= scoreTolerance && takenStamp[p] !== stamp) {
+        takenStamp[p] = stamp;
+        score += 1 + (1 - Math.abs(quality - peakRankOf[p]));
+        count++;
+        pairs?.push(toLampPair(input, p, l));
       } else if (quality >= 0.6) {
         score -= 0.5;
       }
     }
-    return { shape, score, pairs };
+    return { score, count };
   }
 
-  hypotheses.sort((a, b) => b.score - a.score);
   const grown: GrownPairing[] = [];
   const seen = new Set<string>();
   const keyOf = (pairs: readonly LampPair[]) =>
     pairs.map((p) => `${p.peakIndex}:${p.lineIndex}`).join();
   let attempts = 0;
-  for (const hypothesis of hypotheses) {
+  for (const hypothesis of bestFirst(hypotheses)) {
     if (attempts >= maxGrown) break;
-    if (hypothesis.pairs.length < 3) continue;
-    const key = `${hypothesis.shape}/${keyOf(hypothesis.pairs)}`;
+    if (hypothesis.count < 3) continue;
+    const seedPairs: LampPair[] = [];
+    const { shape, anchorPeak, anchorLine, slope, separation } = hypothesis;
+    scoreLocal(shape, anchorPeak, anchorLine, slope, separation, seedPairs);
+    const key = `${hypothesis.shape}/${keyOf(seedPairs)}`;
     if (seen.has(key)) continue;
     seen.add(key);
     // A seed whose pairs a grown pairing already holds would grow into it again.
@@ -229,7 +313,7 @@ export function searchLampPairing(
       grown.some(
         (g) =>
           g.shape === hypothesis.shape &&
-          hypothesis.pairs.every((p) =>
+          seedPairs.every((p) =>
             g.pairs.some((q) => q.peakIndex === p.peakIndex && q.lineIndex === p.lineIndex),
           ),
       )
@@ -249,7 +333,7 @@ export function searchLampPairing(
       gRange: [g(nominalRangeNm[0]), g(nominalRangeNm[1])],
       nominalRangeNm,
     };
-    const pairs = growPairsOutward(growInput, hypothesis.pairs);
+    const pairs = growPairsOutward(growInput, seedPairs);
     grown.push(judgeGrown(growInput, pairs, hypothesis.shape));
   }
   grown.sort((a, b) => b.score - a.score);
