@@ -67,8 +67,8 @@ export interface LampPairingSearch {
 
 /**
  * A short-baseline hypothesis: a straight line in shape `shape`'s axis through `anchorPeak` and
- * `anchorLine` at `slope`. Only its score and pair count are kept; its pairs are listed again for the
- * few that are grown (a dense lamp on a prism makes millions of hypotheses).
+ * `anchorLine` at `slope`. Only its score is kept (with at least three pairs); its pairs are listed
+ * again for the few that are grown (a dense lamp on a prism makes millions of hypotheses).
  */
 interface Hypothesis {
   shape: number;
@@ -77,7 +77,6 @@ interface Hypothesis {
   slope: number;
   separation: number;
   score: number;
-  count: number;
 }
 
 /** How far the nominal range may misplace a line, in shares of the array: ±3 % stated-range error at each end and a few per cent of curvature (a prism's straightening is rougher). */
@@ -155,11 +154,12 @@ export function searchLampPairing(
     if (low === usableX.length) return low - 1;
     return x - usableX[low - 1] < usableX[low] - x ? low - 1 : low;
   };
-  const peakRank = new Map<number, number>();
-  ranks(usable.map((p) => peaks[p].height)).forEach((r, k) => peakRank.set(usable[k], r));
-  const lineRank = new Map<number, number>();
-  ranks(candidateLines.map((l) => lines[l].intensity)).forEach((r, k) =>
-    lineRank.set(candidateLines[k], r),
+  // Percentile ranks of the usable peaks' heights and the candidate lines' intensities, by index.
+  const peakRankOf = new Float64Array(peaks.length);
+  ranks(usable.map((p) => peaks[p].height)).forEach((r, k) => (peakRankOf[usable[k]] = r));
+  const lineRankOf = new Float64Array(lines.length);
+  ranks(candidateLines.map((l) => lines[l].intensity)).forEach(
+    (r, k) => (lineRankOf[candidateLines[k]] = r),
   );
   const strongPeaks = usable
     .slice()
@@ -191,10 +191,6 @@ export function searchLampPairing(
     if (!rising && !falling) return null;
     return { sign: rising ? 1 : -1, ascending: rising ? values : values.map((v) => -v) };
   });
-  const lineRankOf = new Float64Array(lines.length);
-  lineRank.forEach((rank, l) => (lineRankOf[l] = rank));
-  const peakRankOf = new Float64Array(peaks.length);
-  peakRank.forEach((rank, p) => (peakRankOf[p] = rank));
   // Peaks taken by a hypothesis's lines, marked with the hypothesis's stamp (no set per hypothesis).
   const takenStamp = new Int32Array(peaks.length);
   let stamp = 0;
@@ -234,7 +230,6 @@ export function searchLampPairing(
                 slope,
                 separation,
                 score: local.score,
-                count: local.count,
               });
             }
           }
@@ -301,7 +296,6 @@ export function searchLampPairing(
   let attempts = 0;
   for (const hypothesis of bestFirst(hypotheses)) {
     if (attempts >= maxGrown) break;
-    if (hypothesis.count < 3) continue;
     const seedPairs: LampPair[] = [];
     const { shape, anchorPeak, anchorLine, slope, separation } = hypothesis;
     scoreLocal(shape, anchorPeak, anchorLine, slope, separation, seedPairs);
