@@ -10,6 +10,8 @@ export interface LampPeak {
   height: number;
   /** FWHM in x units, when the peak finder measured it; tells pairing which lines blend into one peak. */
   fwhm?: number;
+  /** True when the peak finder found the peak overlapping a neighbour (its centre is partly the neighbour's). */
+  blended?: boolean;
 }
 
 /** A known lamp line. */
