@@ -491,14 +491,13 @@ export function editLampCalibration(
   };
   const wanted = requestedFit(requested);
   const physical = options.dispersion === "prism" && (glass !== undefined || apexDeg !== undefined);
-  let baseline: FitCalibrationResult = edited ? autoFit() : pairingFit;
-  if (!wanted && physical && baseline.model.kind === "prism") {
-    baseline = fitCalibration(pairs, { model: "prism", domain, glass, apexDeg });
-  }
-  let chosen = baseline;
+  // The model asked for first: that it needs more pairs than remain is what the chemist must hear, even
+  // when the automatic model cannot be refitted to what remains either (a cubic through five pairs at
+  // one end of the array can turn over before the other).
+  let requestedResult: FitCalibrationResult | undefined;
   if (wanted) {
     try {
-      chosen = fitCalibration(pairs, {
+      requestedResult = fitCalibration(pairs, {
         model: wanted.kind,
         degree: wanted.degree,
         domain,
@@ -520,6 +519,18 @@ export function editLampCalibration(
       throw error;
     }
   }
+  let baseline: FitCalibrationResult;
+  try {
+    baseline = edited ? autoFit() : pairingFit;
+  } catch (error) {
+    // The comparison then starts from the requested fit's clean pairs.
+    if (!requestedResult) throw error;
+    baseline = requestedResult;
+  }
+  if (!wanted && physical && baseline.model.kind === "prism") {
+    baseline = fitCalibration(pairs, { model: "prism", domain, glass, apexDeg });
+  }
+  const chosen = requestedResult ?? baseline;
 
   // Every model compared on the same clean pairs: those the baseline fit kept.
   const comparison = comparisonRows(

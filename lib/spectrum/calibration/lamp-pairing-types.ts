@@ -12,6 +12,8 @@ export interface LampPeak {
   fwhm?: number;
   /** True when the peak finder found the peak overlapping a neighbour (its centre is partly the neighbour's). */
   blended?: boolean;
+  /** Height over the noise, when the peak finder measured it: how far the width can be trusted. */
+  snr?: number;
 }
 
 /** A known lamp line. */
