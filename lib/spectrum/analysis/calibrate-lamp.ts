@@ -36,6 +36,9 @@ export interface CalibrateLampOptions {
   /** Seed of the pairing's random draws.
    * @default 1 */
   seed?: number;
+  /** The blind search (see AutoPairLampPeaksOptions.search).
+   * @default "grow" for a grating; for a prism "ransac", with growth as a second opinion */
+  search?: "grow" | "ransac";
 }
 
 export interface LampCalibration {
@@ -151,6 +154,7 @@ function calibrateCheckedLamp(
     domain,
     seed,
     ...(options.previous ? { previous: options.previous } : {}),
+    ...(options.search ? { search: options.search } : {}),
   });
   if (pairing.status !== "paired") return { peaks, pairing, fit: null };
   const fit =

@@ -36,6 +36,7 @@ export interface PairingCheck {
     | "fit-miss"
     | "end-pairs"
     | "rival-pairing"
+    | "second-search"
     | "drift-precision"
     | "previous-fit";
   passed: boolean;

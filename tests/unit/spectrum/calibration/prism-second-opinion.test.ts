@@ -1,0 +1,51 @@
+// A prism whose whole-array draws trust nothing gets growth from short-baseline anchors as a second
+// opinion: trusted where the draws' own candidate covers and agrees with it, offered to check where the
+// draws found nothing. Instruments from the realistic-lamp generator (tests/support/realistic-lamp.ts),
+// judged against its true axis.
+import { describe, expect, it } from "vitest";
+import { calibrateLamp, type CalibrateLampOptions } from "@/lib/spectrum/analysis/calibrate-lamp";
+import { probeErrorRatio } from "../../../support/calibration-sweep";
+import { realisticLamp, type RealisticLamp } from "../../../support/realistic-lamp";
+
+function calibrate(lamp: RealisticLamp, extra: Partial<CalibrateLampOptions> = {}) {
+  expect(lamp.dispersion).toBe("prism");
+  return calibrateLamp(lamp.x, lamp.y, lamp.lines, {
+    nominalRangeNm: lamp.statedRangeNm,
+    dispersion: "prism",
+    resolutionNm: lamp.resolutionNm,
+    ...extra,
+  });
+}
+
+describe("a prism's second opinion", () => {
+  it("trusts growth where the draws' untrusted candidate agrees with it", () => {
+    // Seed found on the blind sweep: the draws' candidate failed a check, growth found the same axis.
+    const lamp = realisticLamp(9600069);
+    const drawsOnly = calibrate(lamp, { search: "ransac" });
+    expect(drawsOnly.pairing.status).not.toBe("paired");
+    expect(drawsOnly.pairing.candidate).toBeTruthy();
+
+    const result = calibrate(lamp);
+    expect(result.pairing.status).toBe("paired");
+    expect(probeErrorRatio(lamp, result.fit!.model).ratio).toBeLessThanOrEqual(1);
+  });
+
+  it("offers growth's pairing to check, with the reason, when the draws found nothing", () => {
+    const lamp = realisticLamp(9500069);
+    const result = calibrate(lamp);
+    expect(result.pairing.status).toBe("check");
+    expect(result.pairing.reasons?.join(" ")).toMatch(/only the search that grows pairs outward/);
+    expect(result.pairing.pairs).toEqual([]);
+    expect(result.fit).toBeNull();
+    // The candidate a person is asked to confirm is the right axis here.
+    const candidate = result.pairing.candidate!;
+    expect(result.pairing.suggestion.length).toBeGreaterThanOrEqual(6);
+    expect(probeErrorRatio(lamp, candidate.model).ratio).toBeLessThanOrEqual(1);
+  });
+
+  it("leaves an explicitly chosen search alone", () => {
+    const lamp = realisticLamp(9500069);
+    const drawsOnly = calibrate(lamp, { search: "ransac" });
+    expect(drawsOnly.pairing.reasons?.join(" ") ?? "").not.toMatch(/grows pairs outward/);
+  });
+});
