@@ -40,6 +40,7 @@ import {
 } from "./search-lamp-pairing";
 import { fitStraightenedPolynomial } from "./straightened-polynomial";
 import { seededRandom } from "./seeded-random";
+import { percentileRanks } from "./percentile-ranks";
 
 export interface AutoPairLampPeaksOptions extends LampPairingOptions {
   /**
@@ -291,16 +292,6 @@ function withRival(
   };
 }
 
-/** Percentile ranks (0 weakest … 1 strongest) of values. */
-function ranks(values: number[]): number[] {
-  const order = values.map((_, i) => i).sort((a, b) => values[a] - values[b]);
-  const result = new Array<number>(values.length);
-  order.forEach((index, position) => {
-    result[index] = values.length > 1 ? position / (values.length - 1) : 1;
-  });
-  return result;
-}
-
 /** Draws an index from `pool` with weight 1/(rank + 3): strong items more often, weak ones still possible. */
 function weightedPick(pool: number[], random: () => number): number {
   const weights = pool.map((_, rank) => 1 / (rank + 3));
@@ -469,9 +460,9 @@ function blindLampPairing(
   if (peaks.length < 4 || candidates.length < 4) {
     return refineLampPairing(context, []);
   }
-  const peakRank = ranks(peaks.map((p) => p.height));
+  const peakRank = percentileRanks(peaks.map((p) => p.height));
   const lineRank = new Map<number, number>();
-  const candidateRanks = ranks(candidates.map((l) => lines[l].intensity));
+  const candidateRanks = percentileRanks(candidates.map((l) => lines[l].intensity));
   candidates.forEach((l, k) => lineRank.set(l, candidateRanks[k]));
   const strongPeaks = peaks
     .map((_, i) => i)
@@ -662,17 +653,16 @@ function secondOpinion(
   const grownModel = grown.model ?? grown.candidate ?? null;
   if (!grownModel) return drawn;
   const drawnModel = drawn.candidate ?? null;
-  if (
-    grown.status === "paired" &&
-    drawnModel &&
-    coversEnds(drawnModel.model, grownModel.model, context.toleranceX) &&
-    modelsAgree(grownModel.model, drawnModel.model, context)
-  )
-    return grown;
   if (drawnModel) {
+    const agree = modelsAgree(grownModel.model, drawnModel.model, context);
+    if (
+      agree &&
+      grown.status === "paired" &&
+      coversEnds(drawnModel.model, grownModel.model, context.toleranceX)
+    )
+      return grown;
     // Two different axes: the draws' stays the one to check, growth's is its rival.
-    if (modelsAgree(grownModel.model, drawnModel.model, context) || drawn.rivalSuggestion)
-      return drawn;
+    if (agree || drawn.rivalSuggestion) return drawn;
     const grownPairs = grown.status === "paired" ? grown.pairs : grown.suggestion;
     return { ...drawn, rivalSuggestion: grownPairs };
   }

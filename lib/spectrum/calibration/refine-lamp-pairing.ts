@@ -455,9 +455,10 @@ export function refineLampPairing(
 
 /**
  * Rounds of setting pairs beyond a gap aside: against the rest's shorter span the next pair in can
- * stand beyond a gap of its own (a gap is measured as a share of the span). On the blind sweep (1500 instruments, seeds 1000 and 9500000–9900000) three
- * rounds instead of one turned 21 right pairings from "check" into "paired" with the same 10 silent
- * wrongs (fresh seed 10200000, n 300: +3, the same 3).
+ * stand beyond a gap of its own (a gap is measured as a share of the span). On the blind sweep (1500
+ * instruments, seeds 1000 and 9500000–9900000) three rounds instead of one turned 21 right pairings
+ * from "check" into "paired" with the same 10 silent wrongs (fresh seed 10200000, n 300: +3, the
+ * same 3).
  */
 const MAX_GAP_ROUNDS = 3;
 

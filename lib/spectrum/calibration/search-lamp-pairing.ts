@@ -15,6 +15,7 @@ import { firstAtOrAbove } from "../signal/first-at-or-above";
 import { toLampPair } from "./to-lamp-pair";
 import { typicalPeakFwhm } from "./typical-peak-fwhm";
 import { fitStraightenedPolynomial } from "./straightened-polynomial";
+import { percentileRanks } from "./percentile-ranks";
 
 export interface SearchLampPairingInput {
   peaks: readonly LampPeak[];
@@ -92,16 +93,6 @@ const ANCHOR_SEPARATION: [number, number] = [0.03, 0.14];
 /** A pair this many matching tolerances off the pairing's model counts about half (exp(−½)). */
 const CLOSE_TOLERANCES = 0.25;
 
-/** Percentile ranks (0 weakest … 1 strongest). */
-function ranks(values: readonly number[]): number[] {
-  const order = values.map((_, i) => i).sort((a, b) => values[a] - values[b]);
-  const result = new Array<number>(values.length);
-  order.forEach((index, position) => {
-    result[index] = values.length > 1 ? position / (values.length - 1) : 1;
-  });
-  return result;
-}
-
 /** Peaks narrower than this share of the typical peak are hot pixels or spikes, not lines. */
 const MIN_WIDTH_SHARE = 0.45;
 
@@ -156,9 +147,11 @@ export function searchLampPairing(
   };
   // Percentile ranks of the usable peaks' heights and the candidate lines' intensities, by index.
   const peakRankOf = new Float64Array(peaks.length);
-  ranks(usable.map((p) => peaks[p].height)).forEach((r, k) => (peakRankOf[usable[k]] = r));
+  percentileRanks(usable.map((p) => peaks[p].height)).forEach(
+    (r, k) => (peakRankOf[usable[k]] = r),
+  );
   const lineRankOf = new Float64Array(lines.length);
-  ranks(candidateLines.map((l) => lines[l].intensity)).forEach(
+  percentileRanks(candidateLines.map((l) => lines[l].intensity)).forEach(
     (r, k) => (lineRankOf[candidateLines[k]] = r),
   );
   const strongPeaks = usable
