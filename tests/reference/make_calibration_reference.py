@@ -49,6 +49,18 @@ def hartmann(t, lambda0, c, t0, alpha):
 y_prism = hartmann(t_prism, *true) + 0.02 * np.cos(5.1 * np.arange(len(x_prism)) + 1.0)
 parameters, covariance = curve_fit(hartmann, t_prism, y_prism, p0=(200.0, 380.0, 1.3, 1.0), maxfev=20000)
 
+# A steep Hartmann curve (α = 2.5, pole just beyond the array's red end): the four parameters are
+# strongly correlated here, the case in which a plain four-parameter Levenberg–Marquardt stalls.
+# Tight tolerances so SciPy's answer is the least-squares minimum, not its stopping point.
+steep_count = 12
+t_steep = np.linspace(0.3, 0.98, steep_count) + 0.004 * np.sin(2.3 * np.arange(steep_count))
+x_steep = centre + half * t_steep
+y_steep = hartmann(t_steep, 400.0, 50.0, 1.05, 2.5) + 0.01 * np.cos(4.1 * np.arange(steep_count) + 0.7)
+steep_parameters, steep_covariance = curve_fit(
+    hartmann, t_steep, y_steep, p0=(350.0, 80.0, 1.155, 1.0), maxfev=100000, ftol=1e-15, xtol=1e-15, gtol=1e-15
+)
+steep_chi_square = float(np.sum((y_steep - hartmann(t_steep, *steep_parameters)) ** 2))
+
 result = {
     "generator": "tests/reference/make_calibration_reference.py",
     "numpyVersion": np.__version__,
@@ -60,6 +72,14 @@ result = {
         "wavelengthNm": y_prism.tolist(),
         "parameters": parameters.tolist(),
         "covariance": covariance.tolist(),
+        "parameterNames": ["lambda0Nm", "cNm", "t0", "alpha"],
+    },
+    "hartmannSteep": {
+        "x": x_steep.tolist(),
+        "wavelengthNm": y_steep.tolist(),
+        "parameters": steep_parameters.tolist(),
+        "covariance": steep_covariance.tolist(),
+        "chiSquare": steep_chi_square,
         "parameterNames": ["lambda0Nm", "cNm", "t0", "alpha"],
     },
 }
