@@ -118,9 +118,12 @@ export function fitForwardPrism(
       suu = 0,
       sux = 0;
     const u: number[] = [];
-    const reference = prismDeviationRad(nReference, incidence, apexRad);
+    const sinIncidence = Math.sin(incidence);
+    const reference = prismDeviationRad(nReference, incidence, apexRad, sinIncidence);
     for (let i = 0; i < x.length; i++) {
-      const value = Math.tan(angleOf(nOfPair[i], incidence, reference));
+      const value = Math.tan(
+        reference - prismDeviationRad(nOfPair[i], incidence, apexRad, sinIncidence),
+      );
       if (!Number.isFinite(value)) return { chiSquare: Infinity, a: 0, b: 0 };
       const w = 1 / sigma[i] ** 2;
       u.push(value);

@@ -7,7 +7,7 @@ import { glassesValidOver } from "./glasses-valid-over";
 import type { LampLine, LampPairingOptions, LampPeak } from "./lamp-pairing-types";
 import type { PairingContext } from "./refine-lamp-pairing";
 import { refractiveIndex } from "./refractive-index";
-import { prismForwardX } from "./prism-forward";
+import { prismForward } from "./prism-forward";
 
 /** Lines this far outside the nominal range (as a fraction of its span) are still considered. */
 const RANGE_MARGIN = 0.1;
@@ -42,6 +42,9 @@ export function hartmannPoleOfGlass(glass: GlassName, rangeNm: [number, number])
   return best.pole;
 }
 
+/** Wavelengths a straightened axis remembers at most (the lamp lines of a range number a few hundred). */
+const MAX_REMEMBERED = 20_000;
+
 /**
  * x(λ) of a prism of `glass` in the usual arrangement (an equilateral prism at minimum deviation for
  * the middle of the range, a camera whose image is tan of the deviation): the axis in which a prism of
@@ -64,7 +67,17 @@ export function nominalPrismShape(
     direction: 1 as const,
     referenceWavelengthNm: middle,
   };
-  return (lambda) => prismForwardX(geometry, lambda);
+  const forward = prismForward(geometry);
+  // The searches ask the same line wavelengths again for every hypothesis: each is worked out once.
+  const known = new Map<number, number>();
+  return (lambda) => {
+    let x = known.get(lambda);
+    if (x === undefined) {
+      x = forward(lambda);
+      if (known.size < MAX_REMEMBERED) known.set(lambda, x);
+    }
+    return x;
+  };
 }
 
 /** The straightening axes g(λ) to try for a dispersion kind (or a forced straight line). */

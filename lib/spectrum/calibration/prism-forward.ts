@@ -39,30 +39,49 @@ export function cameraTangent(angleFromReferenceRad: number, axisAngleRad = 0): 
     : Math.tan(angleFromReferenceRad + axisAngleRad) - Math.tan(axisAngleRad);
 }
 
-/** Deviation angle (rad) of a ray through a prism of index n; NaN when the ray is totally reflected. */
-export function prismDeviationRad(n: number, incidenceRad: number, apexRad: number): number {
-  const insideFirst = Math.asin(Math.sin(incidenceRad) / n);
+/**
+ * Deviation angle (rad) of a ray through a prism of index n; NaN when the ray is totally reflected.
+ * `sinIncidence` may be passed by a caller that asks about many indices at one incidence.
+ */
+export function prismDeviationRad(
+  n: number,
+  incidenceRad: number,
+  apexRad: number,
+  sinIncidence = Math.sin(incidenceRad),
+): number {
+  const insideFirst = Math.asin(sinIncidence / n);
   const sinExit = n * Math.sin(apexRad - insideFirst);
   if (!(Math.abs(sinExit) < 1)) return Number.NaN;
   return incidenceRad + Math.asin(sinExit) - apexRad;
 }
 
+/**
+ * x(λ) of one geometry, with the glass's coefficients and the reference ray worked out once: the inverse
+ * and the pairing's straightened axes ask it about thousands of wavelengths.
+ */
+export function prismForward(geometry: PrismGeometry): (wavelengthNm: number) => number {
+  const coefficients = GLASS_CATALOGUE[geometry.glass];
+  if (!coefficients) return () => Number.NaN;
+  const nRef = refractiveIndexOrNaN(coefficients, geometry.referenceWavelengthNm);
+  if (Number.isNaN(nRef)) return () => Number.NaN;
+  const deviationRef = prismDeviationRad(nRef, geometry.incidenceRad, geometry.apexRad);
+  return (wavelengthNm) => {
+    const n = refractiveIndexOrNaN(coefficients, wavelengthNm);
+    if (Number.isNaN(n)) return Number.NaN;
+    const deviation = prismDeviationRad(n, geometry.incidenceRad, geometry.apexRad);
+    // Red light is deviated less, so δref − δ grows with λ and `direction` says which way x runs.
+    return (
+      geometry.axisX +
+      geometry.direction *
+        geometry.focalX *
+        cameraTangent(deviationRef - deviation, geometry.axisAngleRad)
+    );
+  };
+}
+
 /** x at which a wavelength lands; NaN where the ray cannot leave the prism or the glass has no index. */
 export function prismForwardX(geometry: PrismGeometry, wavelengthNm: number): number {
-  const coefficients = GLASS_CATALOGUE[geometry.glass];
-  if (!coefficients) return Number.NaN;
-  const n = refractiveIndexOrNaN(coefficients, wavelengthNm);
-  const nRef = refractiveIndexOrNaN(coefficients, geometry.referenceWavelengthNm);
-  if (Number.isNaN(n) || Number.isNaN(nRef)) return Number.NaN;
-  const deviation = prismDeviationRad(n, geometry.incidenceRad, geometry.apexRad);
-  const deviationRef = prismDeviationRad(nRef, geometry.incidenceRad, geometry.apexRad);
-  // Red light is deviated less, so δref − δ grows with λ and `direction` says which way x runs.
-  return (
-    geometry.axisX +
-    geometry.direction *
-      geometry.focalX *
-      cameraTangent(deviationRef - deviation, geometry.axisAngleRad)
-  );
+  return prismForward(geometry)(wavelengthNm);
 }
 
 /** The wavelength span over which the inverse is searched, nm. */
@@ -78,13 +97,14 @@ export function prismInverseWavelengths(
   x: ArrayLike<number>,
 ): Float64Array {
   // Tabulate x(λ) on a grid even in 1/λ (where prism dispersion is roughly uniform) to bracket each root.
+  const forward = prismForward(geometry);
   const gridNm: number[] = [];
   const gridX: number[] = [];
   const [lo, hi] = SEARCH_RANGE_NM;
   for (let i = 0; i < GRID_POINTS; i++) {
     const inverse = 1 / lo + ((1 / hi - 1 / lo) * i) / (GRID_POINTS - 1);
     const wavelengthNm = 1 / inverse;
-    const xAt = prismForwardX(geometry, wavelengthNm);
+    const xAt = forward(wavelengthNm);
     if (Number.isFinite(xAt)) {
       gridNm.push(wavelengthNm);
       gridX.push(xAt);
@@ -109,15 +129,15 @@ export function prismInverseWavelengths(
     let a = gridNm[low];
     let b = gridNm[high];
     let lambda = a + ((b - a) * (goal - value(low))) / (value(high) - value(low) || 1);
+    let fA = forward(a) - target;
     for (let iteration = 0; iteration < 40; iteration++) {
-      const f = prismForwardX(geometry, lambda) - target;
+      const f = forward(lambda) - target;
       const step = 1e-4 * lambda;
-      const slope =
-        (prismForwardX(geometry, lambda + step) - prismForwardX(geometry, lambda - step)) /
-        (2 * step);
-      const fA = prismForwardX(geometry, a) - target;
-      if (Math.sign(f) === Math.sign(fA)) a = lambda;
-      else b = lambda;
+      const slope = (forward(lambda + step) - forward(lambda - step)) / (2 * step);
+      if (Math.sign(f) === Math.sign(fA)) {
+        a = lambda;
+        fA = f;
+      } else b = lambda;
       let next = lambda - f / slope;
       if (!(next > Math.min(a, b) && next < Math.max(a, b))) next = (a + b) / 2;
       if (Math.abs(next - lambda) < 1e-10 * lambda) {
