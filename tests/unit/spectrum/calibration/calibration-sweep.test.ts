@@ -19,9 +19,11 @@ import {
 const SEED = 1000;
 const COUNT = 300;
 /**
- * Measured on these seeds when the floors were last set (a prism's whole-array draws weigh every
- * centre with the 3 % FWHM floor, `withCentreFloor`): silent wrong 1.0 % (3 of 300; target ≤ 0.5 %),
- * success 60.9 % of the 281 eligible instruments (target ≥ 95 %), 0 exceptions. This seed is the
+ * Measured on these seeds when the floors were last set (a prism's growth trusted on its own, when
+ * the draws found nothing, from nine pairs): silent wrong 1.0 % (3 of 300; target ≤ 0.5 %), success
+ * 61.6 % of the 281 eligible instruments (target ≥ 95 %), 0 exceptions; on 2,200 instruments of eight
+ * seeds 27 more successes and no more silent wrongs. Before: 60.9 % here (a prism's whole-array draws
+ * weigh every centre with the 3 % FWHM floor, `withCentreFloor`). This seed is the
  * one that lost: over 2,200 blind instruments of eight seeds (this one, 2000 at 2048 pixels,
  * 9500000, 9600000, 9800000, 9900000, 10600000 of the CLI's mix and prisms, 10700000 prisms) the
  * floor took successes up by 45 with the same 11 silent wrongs; here 174 → 171 and 1 → 3 (an SF10
@@ -51,7 +53,7 @@ const COUNT = 300;
  * %.
  */
 const SILENT_WRONG_FLOOR = 0.01;
-const SUCCESS_FLOOR = 0.608;
+const SUCCESS_FLOOR = 0.615;
 /**
  * Recalibration from the previous calibration, 100 instruments: success 78.5 % of 93 eligible and no
  * silent wrong with centres weighed as the blind fit weighs them and a prism's second opinion (the

@@ -1,6 +1,6 @@
 // A prism whose whole-array draws trust nothing gets growth from short-baseline anchors as a second
-// opinion: trusted where the draws' own candidate covers and agrees with it, offered to check where the
-// draws found nothing. Instruments from the realistic-lamp generator (tests/support/realistic-lamp.ts),
+// opinion: trusted where the draws' own candidate covers and agrees with it, or where the draws found
+// nothing and growth stands on at least nine pairs; else offered to check. Instruments from the realistic-lamp generator (tests/support/realistic-lamp.ts),
 // judged against its true axis.
 import { describe, expect, it } from "vitest";
 import { calibrateLamp, type CalibrateLampOptions } from "@/lib/spectrum/analysis/calibrate-lamp";
@@ -41,6 +41,26 @@ describe("a prism's second opinion", () => {
     const candidate = result.pairing.candidate!;
     expect(result.pairing.suggestion.length).toBeGreaterThanOrEqual(6);
     expect(probeErrorRatio(lamp, candidate.model).ratio).toBeLessThanOrEqual(1);
+  });
+
+  it("trusts growth standing alone on nine pairs or more when the draws found nothing", () => {
+    // Seed found on the prism sweep (an N-SF11 prism): the draws have no candidate at all.
+    const lamp = realisticLamp(9600010, { dispersion: "prism" });
+    const drawsOnly = calibrate(lamp, { search: "ransac" });
+    expect(drawsOnly.pairing.status).not.toBe("paired");
+    expect(drawsOnly.pairing.candidate ?? null).toBeNull();
+
+    const result = calibrate(lamp);
+    expect(result.pairing.status).toBe("paired");
+    expect(result.pairing.pairs.length).toBeGreaterThanOrEqual(9);
+    expect(probeErrorRatio(lamp, result.fit!.model).ratio).toBeLessThanOrEqual(1);
+  });
+
+  it("keeps a lone growth pairing of fewer than nine pairs to check", () => {
+    const lamp = realisticLamp(9500069);
+    const result = calibrate(lamp);
+    expect(result.pairing.status).toBe("check");
+    expect(result.pairing.suggestion.length).toBeLessThan(9);
   });
 
   it("leaves an explicitly chosen search alone", () => {
