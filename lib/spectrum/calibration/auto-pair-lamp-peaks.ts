@@ -311,9 +311,17 @@ function withRival(
 }
 
 /** Draws an index from `pool` with weight 1/(rank + 3): strong items more often, weak ones still possible. */
+/** weightedPick's weights and their sum for a pool of each length (the draws ask 80,000 times). */
+const pickWeights = new Map<number, { weights: number[]; total: number }>();
+
 function weightedPick(pool: number[], random: () => number): number {
-  const weights = pool.map((_, rank) => 1 / (rank + 3));
-  const total = weights.reduce((s, w) => s + w, 0);
+  let known = pickWeights.get(pool.length);
+  if (!known) {
+    const weights = pool.map((_, rank) => 1 / (rank + 3));
+    known = { weights, total: weights.reduce((s, w) => s + w, 0) };
+    pickWeights.set(pool.length, known);
+  }
+  const { weights, total } = known;
   let u = random() * total;
   for (let k = 0; k < pool.length; k++) {
     u -= weights[k];
@@ -495,6 +503,9 @@ function blindLampPairing(
   const peaksByX = peaks.map((_, i) => i).sort((a, b) => peaks[a].x - peaks[b].x);
   const sortedX = peaksByX.map((i) => peaks[i].x);
   const gValues = shapes.map((g) => new Map(candidates.map((l) => [l, g(lines[l].wavelengthNm)])));
+  // The same, aligned with `candidates`, for the scoring loop that visits every candidate per draw.
+  const gByCandidate = gValues.map((values) => candidates.map((l) => values.get(l)!));
+  const rankByCandidate = candidates.map((l) => lineRank.get(l)!);
   const gEnds = shapes.map((g) => [g(nominalLow), g(nominalHigh)]);
 
   const nearestPeak = (x: number): number => {
@@ -517,11 +528,13 @@ function blindLampPairing(
     let score = 0;
     const matched: LampPair[] = [];
     const used = new Set<number>();
-    for (const l of candidates) {
-      const x = a + b * gValues[shape].get(l)!;
+    const g = gByCandidate[shape];
+    for (let c = 0; c < candidates.length; c++) {
+      const l = candidates[c];
+      const x = a + b * g[c];
       if (x < xMin || x > xMax) continue;
       const p = nearestPeak(x);
-      const quality = lineRank.get(l)!;
+      const quality = rankByCandidate[c];
       if (Math.abs(peaks[p].x - x) <= guessTolerance && !used.has(p)) {
         used.add(p);
         score += 1 + (1 - Math.abs(quality - peakRank[p]));
