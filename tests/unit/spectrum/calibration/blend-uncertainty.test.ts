@@ -2,7 +2,10 @@
 // towards the neighbour, and the centre uncertainty pairing gives the peak must cover that pull, while
 // clean lines keep a small one.
 import { describe, expect, it } from "vitest";
-import { withBlendUncertainty } from "@/lib/spectrum/calibration/auto-pair-lamp-peaks";
+import {
+  withBlendUncertainty,
+  withCentreFloor,
+} from "@/lib/spectrum/calibration/auto-pair-lamp-peaks";
 import { findPeaks } from "@/lib/spectrum/peaks/find-peaks";
 import { seededRandom } from "@/lib/spectrum/calibration/seeded-random";
 import { gaussian } from "./synthetic-lamp";
@@ -70,5 +73,30 @@ describe("centre uncertainty of a lamp peak pulled by an unresolved neighbour", 
         4 * (p.xUncertainty ?? Number.NaN),
       );
     }
+  });
+
+  it("gives every centre the floor alone where the draws weigh them (no allowance for a blend)", () => {
+    const { x, y } = lamp(0.25, 2.5, 5);
+    const found = findPeaks(x, y, { source: "lamp", minSnr: 8 });
+    const floored = withCentreFloor(found);
+    const blendAware = withBlendUncertainty(found);
+    const widths = found.map((p) => p.fwhm!).sort((a, b) => a - b);
+    found.forEach((peak, i) => {
+      const sigma = floored[i].xUncertainty!;
+      // Never below 3 % of the neighbours' typical width, whatever the finder's noise σ says …
+      expect(sigma).toBeGreaterThanOrEqual(0.03 * widths[0] * 0.999);
+      expect(sigma).toBeGreaterThanOrEqual(peak.xUncertainty ?? 0);
+      // … and never more than the finder's σ and that floor together.
+      expect(sigma).toBeLessThanOrEqual(
+        Math.hypot(peak.xUncertainty ?? 0, 0.03 * widths[widths.length - 1]) * 1.001,
+      );
+      expect(sigma).toBeLessThanOrEqual(blendAware[i].xUncertainty! * 1.000001);
+    });
+    // The blended peak keeps the floor's small σ here, where the blend-aware weighting widens it.
+    const k = found.reduce(
+      (best, p, i) => (Math.abs(p.x - LISTED_X) < Math.abs(found[best].x - LISTED_X) ? i : best),
+      0,
+    );
+    expect(blendAware[k].xUncertainty!).toBeGreaterThan(2 * floored[k].xUncertainty!);
   });
 });
