@@ -310,10 +310,10 @@ function withRival(
   };
 }
 
-/** Draws an index from `pool` with weight 1/(rank + 3): strong items more often, weak ones still possible. */
 /** weightedPick's weights and their sum for a pool of each length (the draws ask 80,000 times). */
 const pickWeights = new Map<number, { weights: number[]; total: number }>();
 
+/** Draws an index from `pool` with weight 1/(rank + 3): strong items more often, weak ones still possible. */
 function weightedPick(pool: number[], random: () => number): number {
   let known = pickWeights.get(pool.length);
   if (!known) {
@@ -673,21 +673,22 @@ function coversEnds(other: CalibrationModel, model: CalibrationModel, toleranceX
 }
 
 /**
+ * Pairs a prism's growth needs to be trusted when the draws found no candidate to compare it with:
+ * half again the minimum, since one route stands alone. Measured over 2,200 blind instruments of eight
+ * seeds (1000, 2000, 9500000, 9600000, 9800000, 9900000, 10600000, 10700000): growth-only pairings
+ * with at least nine pairs were right 27 of 27 times (with fewer, 8 of 9: the one wrong, an N-SF6
+ * prism of 8 pairs, missed by 1.5 tolerances); on fresh prism seeds 10800000 and 10900000 (n 300
+ * each) 12 of 12.
+ */
+const SINGLE_ROUTE_PAIRS = Math.ceil(1.5 * MIN_TRUSTED_PAIRS);
+
+/**
  * A prism's draws trusted nothing; growth is the second opinion. Growth alone is not trusted on a
  * prism (blends crowd its red end, and growth was silently wrong more often than the draws): its
  * pairing is "paired" where the draws' own untrusted candidate agrees with it, two independent routes
  * to one axis, or, when the draws found no candidate at all, where growth stands on at least
  * SINGLE_ROUTE_PAIRS pairs; otherwise it is offered for a person to check, beside the draws' candidate.
  */
-/**
- * Pairs a prism's growth needs to be trusted when the draws found no candidate to compare it with:
- * half again the minimum, since one route stands alone. Measured over 2,200 blind instruments of eight
- * seeds (1000, 2000, 9500000–9900000, 10600000, 10700000): growth-only pairings with at least nine
- * pairs were right 27 of 27 times (with fewer, 8 of 9: the one wrong, an N-SF6 prism of 8 pairs, missed
- * by 1.5 tolerances); on fresh prism seeds 10800000 and 10900000 (n 300 each) 12 of 12.
- */
-const SINGLE_ROUTE_PAIRS = Math.ceil(1.5 * MIN_TRUSTED_PAIRS);
-
 function secondOpinion(
   drawn: LampPairingResult,
   grown: LampPairingResult,

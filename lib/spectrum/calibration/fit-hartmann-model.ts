@@ -2,10 +2,10 @@
 // calibration without a glass. The formula is linear in (λ₀, c) for a fixed pole t₀ and exponent α, so
 // those two are solved in closed form at every step and only (t₀, α) are searched (variable
 // projection): a scan of t₀ with α = 1 on both sides of the array gives the start, then damped
-// Gauss–Newton steps on the projected problem. A four-parameter Levenberg–Marquardt (ml-levenberg-marquardt,
-// used before) crawled along the valley the correlated parameters make: it ran its 400 iterations on every
-// fit and still ended above the projected fit's χ² in 96 of 170 fits taken from prism calibrations,
-// twice not moving from its start at all.
+// Gauss–Newton steps on the projected problem. A four-parameter Levenberg–Marquardt
+// (ml-levenberg-marquardt, used before) crawled along the valley the correlated parameters make: it ran
+// its 400 iterations on every fit and still ended above the projected fit's χ² in 96 of 170 fits taken
+// from prism calibrations, twice not moving from its start at all.
 import { CalibrationError } from "./calibration-error";
 import { jacobianCovariance } from "./jacobian-covariance";
 import type { HartmannCalibrationModel } from "./calibration-model";
