@@ -5,6 +5,17 @@ import { evaluateCalibration, fitCalibration } from "@/lib/spectrum/calibration"
 
 const domain = reference.domain as [number, number];
 
+/** The Hartmann fit of a reference's pairs, equally weighted as curve_fit weighs them without sigma. */
+function uniformHartmann(h: { x: number[]; wavelengthNm: number[] }) {
+  const pairs = h.x.map((x, i) => ({ x, wavelengthNm: h.wavelengthNm[i] }));
+  return fitCalibration(pairs, {
+    model: "hartmann",
+    domain,
+    weighting: "uniform",
+    rejectOutliers: false,
+  }).model;
+}
+
 describe("fits against NumPy/SciPy reference values", () => {
   for (const expected of reference.polynomial.fits) {
     it(`degree-${expected.degree} polynomial matches numpy.polyfit(cov=True)`, () => {
@@ -40,13 +51,7 @@ describe("fits against NumPy/SciPy reference values", () => {
 
   it("Hartmann fit matches scipy.optimize.curve_fit parameters and covariance", () => {
     const h = reference.hartmann;
-    const pairs = h.x.map((x, i) => ({ x, wavelengthNm: h.wavelengthNm[i] }));
-    const { model } = fitCalibration(pairs, {
-      model: "hartmann",
-      domain,
-      weighting: "uniform",
-      rejectOutliers: false,
-    });
+    const model = uniformHartmann(h);
     expect(model.kind).toBe("hartmann");
     h.parameters.forEach((value, k) => {
       // SciPy 1.10.1 curve_fit parameters: within 1e-5 relative (both stop at their own tolerances)
@@ -60,15 +65,10 @@ describe("fits against NumPy/SciPy reference values", () => {
       }),
     );
   });
+
   it("Hartmann fit reaches SciPy's least-squares minimum on a steep curve with correlated parameters", () => {
     const h = reference.hartmannSteep;
-    const pairs = h.x.map((x, i) => ({ x, wavelengthNm: h.wavelengthNm[i] }));
-    const { model } = fitCalibration(pairs, {
-      model: "hartmann",
-      domain,
-      weighting: "uniform",
-      rejectOutliers: false,
-    });
+    const model = uniformHartmann(h);
     const fitted = evaluateCalibration(model, new Float64Array(h.x));
     const chiSquare = h.wavelengthNm.reduce((sum, y, i) => sum + (y - fitted[i]) ** 2, 0);
     // SciPy 1.10.1 curve_fit (ftol = xtol = gtol = 1e-15) χ²: ours within 1e-8 relative (a four-parameter
