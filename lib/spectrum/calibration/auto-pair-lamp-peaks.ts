@@ -186,7 +186,8 @@ export function withBlendUncertainty(peaks: LampPeak[]): LampPeak[] {
  * so a fit followed them; with the floor, over 1,100 blind instruments (seeds 9500000, 9600000,
  * 9800000, 9900000 and 1000) success rose by 21 with the same 8 silent wrongs, and by 18 with the
  * same 2 on fresh seeds (10600000 n 300, prisms of 10700000 n 200). Growth's blend allowance there
- * instead cost 8 and 2 successes for 3 fewer and 3 more silent wrongs.
+ * instead cost 8 successes for 3 fewer silent wrongs on the first seeds, and gained 1 for 3 more on
+ * the fresh ones.
  */
 export function withCentreFloor(peaks: LampPeak[]): LampPeak[] {
   return withCentreUncertainty(peaks, false);
