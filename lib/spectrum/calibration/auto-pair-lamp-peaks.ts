@@ -311,24 +311,21 @@ function withRival(
   };
 }
 
-/** weightedPick's weights and their sum for a pool of each length (the draws ask 80,000 times). */
-const pickWeights = new Map<number, { weights: number[]; total: number }>();
-
-/** Draws an index from `pool` with weight 1/(rank + 3): strong items more often, weak ones still possible. */
-function weightedPick(pool: number[], random: () => number): number {
-  let known = pickWeights.get(pool.length);
-  if (!known) {
-    const weights = pool.map((_, rank) => 1 / (rank + 3));
-    known = { weights, total: weights.reduce((s, w) => s + w, 0) };
-    pickWeights.set(pool.length, known);
-  }
-  const { weights, total } = known;
-  let u = random() * total;
-  for (let k = 0; k < pool.length; k++) {
-    u -= weights[k];
-    if (u <= 0) return pool[k];
-  }
-  return pool[pool.length - 1];
+/**
+ * Draws from `pool` with weight 1/(rank + 3): strong items more often, weak ones still possible. The
+ * weights are worked out once per pool, not on each of the draws' 80,000 picks.
+ */
+function weightedPicker(pool: readonly number[], random: () => number): () => number {
+  const weights = pool.map((_, rank) => 1 / (rank + 3));
+  const total = weights.reduce((s, w) => s + w, 0);
+  return () => {
+    let u = random() * total;
+    for (let k = 0; k < pool.length; k++) {
+      u -= weights[k];
+      if (u <= 0) return pool[k];
+    }
+    return pool[pool.length - 1];
+  };
 }
 
 interface Hypothesis {
@@ -490,23 +487,21 @@ function blindLampPairing(
     return refineLampPairing(context, []);
   }
   const peakRank = percentileRanks(peaks.map((p) => p.height));
-  const lineRank = new Map<number, number>();
-  const candidateRanks = percentileRanks(candidates.map((l) => lines[l].intensity));
-  candidates.forEach((l, k) => lineRank.set(l, candidateRanks[k]));
+  // Lines are handled by their position in `candidates`: the scoring loop visits every candidate per draw.
+  const rankByCandidate = percentileRanks(candidates.map((l) => lines[l].intensity));
   const strongPeaks = peaks
     .map((_, i) => i)
     .sort((a, b) => peaks[b].height - peaks[a].height)
     .slice(0, 20);
   const strongLines = candidates
-    .slice()
-    .sort((a, b) => lines[b].intensity - lines[a].intensity)
+    .map((_, c) => c)
+    .sort((a, b) => lines[candidates[b]].intensity - lines[candidates[a]].intensity)
     .slice(0, 30);
+  const pickPeak = weightedPicker(strongPeaks, random);
+  const pickLine = weightedPicker(strongLines, random);
   const peaksByX = peaks.map((_, i) => i).sort((a, b) => peaks[a].x - peaks[b].x);
   const sortedX = peaksByX.map((i) => peaks[i].x);
-  const gValues = shapes.map((g) => new Map(candidates.map((l) => [l, g(lines[l].wavelengthNm)])));
-  // The same, aligned with `candidates`, for the scoring loop that visits every candidate per draw.
-  const gByCandidate = gValues.map((values) => candidates.map((l) => values.get(l)!));
-  const rankByCandidate = candidates.map((l) => lineRank.get(l)!);
+  const gByCandidate = shapes.map((g) => candidates.map((l) => g(lines[l].wavelengthNm)));
   const gEnds = shapes.map((g) => [g(nominalLow), g(nominalHigh)]);
 
   const nearestPeak = (x: number): number => {
@@ -560,13 +555,13 @@ function blindLampPairing(
   const best: Hypothesis[] = [];
   for (let iteration = 0; iteration < iterations; iteration++) {
     const shape = iteration % shapes.length;
-    const p1 = weightedPick(strongPeaks, random);
-    const p2 = weightedPick(strongPeaks, random);
-    const l1 = weightedPick(strongLines, random);
-    const l2 = weightedPick(strongLines, random);
-    if (p1 === p2 || l1 === l2) continue;
-    const g1 = gValues[shape].get(l1)!;
-    const g2 = gValues[shape].get(l2)!;
+    const p1 = pickPeak();
+    const p2 = pickPeak();
+    const c1 = pickLine();
+    const c2 = pickLine();
+    if (p1 === p2 || c1 === c2) continue;
+    const g1 = gByCandidate[shape][c1];
+    const g2 = gByCandidate[shape][c2];
     const b = (peaks[p2].x - peaks[p1].x) / (g2 - g1);
     const a = peaks[p1].x - b * g1;
     if (!Number.isFinite(b) || b === 0) continue;

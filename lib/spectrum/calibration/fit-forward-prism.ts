@@ -103,11 +103,13 @@ export function fitForwardPrism(
       `${glass}: a pair's wavelength lies beyond the glass's Sellmeier range`,
     );
   }
+  /** δref − δ(n) at one incidence; `sinIncidence` and `reference` may be passed by a caller asking about many n. */
   const angleOf = (
     n: number,
     incidence: number,
-    reference = prismDeviationRad(nReference, incidence, apexRad),
-  ) => reference - prismDeviationRad(n, incidence, apexRad);
+    sinIncidence = Math.sin(incidence),
+    reference = prismDeviationRad(nReference, incidence, apexRad, sinIncidence),
+  ) => reference - prismDeviationRad(n, incidence, apexRad, sinIncidence);
   const tangentOf = (n: number, incidence: number, axisAngle = 0) =>
     cameraTangent(angleOf(n, incidence), axisAngle);
   /** The weighted straight line of x in u = tan(…) at one incidence: the profile of χ² over the incidence. */
@@ -121,9 +123,7 @@ export function fitForwardPrism(
     const sinIncidence = Math.sin(incidence);
     const reference = prismDeviationRad(nReference, incidence, apexRad, sinIncidence);
     for (let i = 0; i < x.length; i++) {
-      const value = Math.tan(
-        reference - prismDeviationRad(nOfPair[i], incidence, apexRad, sinIncidence),
-      );
+      const value = Math.tan(angleOf(nOfPair[i], incidence, sinIncidence, reference));
       if (!Number.isFinite(value)) return { chiSquare: Infinity, a: 0, b: 0 };
       const w = 1 / sigma[i] ** 2;
       u.push(value);
