@@ -14,7 +14,7 @@ import { calibrationUncertainty } from "../calibration/calibration-uncertainty";
 import { compareCalibrationModels } from "../calibration/compare-calibration-models";
 import { dispersionAt } from "../calibration/dispersion-at";
 import { evaluateCalibration } from "../calibration/evaluate-calibration";
-import { withBlendUncertainty } from "../calibration/auto-pair-lamp-peaks";
+import { withBlendUncertainty } from "../calibration/centre-uncertainty";
 import { fitCalibration, type FitCalibrationResult } from "../calibration/fit-calibration";
 import type { GlassName } from "../calibration/glass-catalogue";
 import type { LampLine, LampPair, LampPairingResult } from "../calibration/lamp-pairing-types";

@@ -5,7 +5,7 @@ import { describe, expect, it } from "vitest";
 import {
   withBlendUncertainty,
   withCentreFloor,
-} from "@/lib/spectrum/calibration/auto-pair-lamp-peaks";
+} from "@/lib/spectrum/calibration/centre-uncertainty";
 import { findPeaks } from "@/lib/spectrum/peaks/find-peaks";
 import { seededRandom } from "@/lib/spectrum/calibration/seeded-random";
 import { gaussian } from "./synthetic-lamp";
