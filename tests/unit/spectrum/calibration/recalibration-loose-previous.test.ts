@@ -9,12 +9,9 @@ describe("recalibration from a loose previous calibration", () => {
   // with a day's shift and stretch. Their glasses are not in the catalogue, so yesterday's best model of
   // the true axis misses it by more than the recalibration trusts; before this fallback each ended in
   // "check this recalibration: the previous calibration fitted its own lamp lines to an RMS of …".
-  // A dense flint (N-LASF9) whose fresh fit in yesterday's family fails too: a fit free to choose its
-  // model pairs it.
   it.each([
     [8_600_161, "sapphire"],
     [8_600_298, "sapphire"],
-    [8_700_150, "N-LASF9"],
   ])("pairs instrument %i (%s) afresh, right to its tolerance", (seed, glass) => {
     const [record] = runSweep({ seed, n: 1, withPrevious: true });
     expect(record.glass).toBe(glass);
@@ -23,5 +20,19 @@ describe("recalibration from a loose previous calibration", () => {
     // Right at every probe of its covered range (error over tolerance ≤ 1; see probeErrorRatio).
     expect(record.worstErrorRatio).toBeLessThanOrEqual(1);
     expect(record.outcome).toBe("success");
+  });
+
+  // A dense flint (N-LASF9) whose fresh fit in yesterday's family fails, and whose fit free to choose
+  // its model (a catalogue glass) misses its own pairs by more than their centres' σ allow (the
+  // lack-of-fit check): it stays a recalibration to check, for the reason the drift gave. Before that
+  // check the free fit was paired, and right (0.14 of the sweep's accuracy): the check's price here.
+  it("leaves instrument 8700150 (N-LASF9) to check", () => {
+    const [record] = runSweep({ seed: 8_700_150, n: 1, withPrevious: true });
+    expect(record.glass).toBe("N-LASF9");
+    expect(record.status).toBe("check");
+    expect(record.message).toMatch(/^check this recalibration/);
+    expect(record.message).toMatch(/the previous calibration fitted its own lamp lines/);
+    // The candidate shown is yesterday's model moved, as loose as the check said.
+    expect(record.candidateRight).toBe(false);
   });
 });

@@ -1,0 +1,74 @@
+// Two checks of a prism's final model, on instruments of the realistic-lamp generator
+// (tests/support/realistic-lamp.ts) judged against its true axis:
+// - model agreement holds the physical prism against a smooth curve free of any glass, not against
+//   Hartmann's formula, which cannot follow a prism over a wide range and flagged right pairings;
+// - lack of fit sends to a person a prism model that misses its own pairs by more than their centres
+//   are uncertain: a glass that is not the instrument's, bent to fit, is wrong at an end however small
+//   its RMS.
+import { describe, expect, it } from "vitest";
+import { calibrateLamp } from "@/lib/spectrum/analysis/calibrate-lamp";
+import { fitCalibration } from "@/lib/spectrum/calibration";
+import { probeErrorRatio } from "../../../support/calibration-sweep";
+import { realisticLamp, type RealisticLamp } from "../../../support/realistic-lamp";
+
+function calibrate(lamp: RealisticLamp) {
+  expect(lamp.dispersion).toBe("prism");
+  return calibrateLamp(lamp.x, lamp.y, lamp.lines, {
+    nominalRangeNm: lamp.statedRangeNm,
+    dispersion: "prism",
+    resolutionNm: lamp.resolutionNm,
+  });
+}
+
+const checkValue = (result: ReturnType<typeof calibrate>, name: string) =>
+  result.pairing.checks?.find((c) => c.name === name);
+
+describe("a prism's model agreement", () => {
+  // Seeds found on the prism sweep (12100000, 300 prisms): right pairings that Hartmann disagreed with by
+  // 5.0 and 2.4 tolerances.
+  it.each([
+    [12_100_095, "N-BK7"],
+    [12_100_043, "fused-silica"],
+  ])("trusts the right pairing of instrument %i (%s)", (seed, glass) => {
+    const lamp = realisticLamp(seed, { dispersion: "prism" });
+    expect(lamp.glass).toBe(glass);
+    const result = calibrate(lamp);
+    expect(result.pairing.status).toBe("paired");
+    expect(probeErrorRatio(lamp, result.fit!.model).ratio).toBeLessThanOrEqual(1);
+    expect(checkValue(result, "model-agreement")!.value).toBeLessThan(0.5);
+
+    // Hartmann's formula fitted to the very axis misses it by more than the sweep's accuracy.
+    const last = lamp.x.length - 1;
+    const truth = Array.from({ length: 41 }, (_, i) => ({
+      x: (last * i) / 40,
+      wavelengthNm: lamp.wavelengthAt((last * i) / 40),
+    }));
+    const hartmann = fitCalibration(truth, {
+      model: "hartmann",
+      domain: [0, last],
+      rejectOutliers: false,
+    });
+    expect(probeErrorRatio(lamp, hartmann.model).ratio).toBeGreaterThan(1);
+  });
+});
+
+describe("a prism's lack of fit", () => {
+  // Seeds found on the prism sweep: pairings that are "paired" without this check, 1.97 and 25.9 times
+  // the sweep's accuracy off at the worst probe.
+  it.each([
+    [12_100_185, "sapphire"],
+    [12_200_094, "fused-silica"],
+  ])("leaves instrument %i (%s) to a person, saying why", (seed, glass) => {
+    const lamp = realisticLamp(seed, { dispersion: "prism" });
+    expect(lamp.glass).toBe(glass);
+    const result = calibrate(lamp);
+    expect(result.pairing.status).not.toBe("paired");
+    expect(result.fit).toBeNull();
+    const lackOfFit = checkValue(result, "lack-of-fit")!;
+    expect(lackOfFit.passed).toBe(false);
+    expect(lackOfFit.value).toBeGreaterThan(1);
+    expect(result.pairing.message).toMatch(/misses its own pairs by more than/);
+    // The candidate shown for checking is indeed wrong somewhere in its covered range.
+    expect(probeErrorRatio(lamp, result.pairing.candidate!.model).ratio).toBeGreaterThan(1);
+  });
+});
