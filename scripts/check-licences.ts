@@ -4,14 +4,13 @@
 // the licence table the README lists; `--json` the whole report.
 import fs from "node:fs";
 import path from "node:path";
+import { installedLicence } from "./licences/installed-licence";
 import {
   assertAllowList,
   checkLicences,
-  licenceOfManifest,
   licenceSummary,
   productionPackages,
   type Lockfile,
-  type ProductionPackage,
 } from "./licences/licence-policy";
 
 const root = path.resolve(__dirname, "..");
@@ -25,15 +24,7 @@ const lock = readJson(path.join(root, "package-lock.json")) as Lockfile;
 const allowList = assertAllowList(readJson(path.join(root, "licence-allow-list.json")));
 const packages = productionPackages(lock);
 
-/** The installed package.json's licence; a package of another platform is not installed, so the lockfile's copy of it. */
-function licenceOf(pkg: ProductionPackage): string | null {
-  const manifestPath = path.join(root, pkg.path, "package.json");
-  if (fs.existsSync(manifestPath))
-    return licenceOfManifest(readJson(manifestPath) as Record<string, unknown>);
-  return licenceOfManifest({ license: lock.packages?.[pkg.path]?.license });
-}
-
-const report = checkLicences(packages, licenceOf, allowList);
+const report = checkLicences(packages, installedLicence(root, lock), allowList);
 
 if (args.includes("--json")) {
   process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
