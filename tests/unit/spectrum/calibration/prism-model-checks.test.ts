@@ -9,19 +9,20 @@ import { describe, expect, it } from "vitest";
 import { calibrateLamp } from "@/lib/spectrum/analysis/calibrate-lamp";
 import { fitCalibration } from "@/lib/spectrum/calibration";
 import { probeErrorRatio } from "../../../support/calibration-sweep";
-import { realisticLamp, type RealisticLamp } from "../../../support/realistic-lamp";
+import { realisticLamp } from "../../../support/realistic-lamp";
 
-function calibrate(lamp: RealisticLamp) {
-  expect(lamp.dispersion).toBe("prism");
-  return calibrateLamp(lamp.x, lamp.y, lamp.lines, {
+/** The prism instrument of `seed` (whose glass must be `glass`), calibrated automatically. */
+function calibratedPrism(seed: number, glass: string) {
+  const lamp = realisticLamp(seed, { dispersion: "prism" });
+  expect(lamp.glass).toBe(glass);
+  const result = calibrateLamp(lamp.x, lamp.y, lamp.lines, {
     nominalRangeNm: lamp.statedRangeNm,
     dispersion: "prism",
     resolutionNm: lamp.resolutionNm,
   });
+  const check = (name: string) => result.pairing.checks?.find((c) => c.name === name);
+  return { lamp, result, check };
 }
-
-const checkValue = (result: ReturnType<typeof calibrate>, name: string) =>
-  result.pairing.checks?.find((c) => c.name === name);
 
 describe("a prism's model agreement", () => {
   // Seeds found on the prism sweep (12100000, 300 prisms): right pairings that Hartmann disagreed with by
@@ -30,12 +31,10 @@ describe("a prism's model agreement", () => {
     [12_100_095, "N-BK7"],
     [12_100_043, "fused-silica"],
   ])("trusts the right pairing of instrument %i (%s)", (seed, glass) => {
-    const lamp = realisticLamp(seed, { dispersion: "prism" });
-    expect(lamp.glass).toBe(glass);
-    const result = calibrate(lamp);
+    const { lamp, result, check } = calibratedPrism(seed, glass);
     expect(result.pairing.status).toBe("paired");
     expect(probeErrorRatio(lamp, result.fit!.model).ratio).toBeLessThanOrEqual(1);
-    expect(checkValue(result, "model-agreement")!.value).toBeLessThan(0.5);
+    expect(check("model-agreement")!.value).toBeLessThan(0.5);
 
     // Hartmann's formula fitted to the very axis misses it by more than the sweep's accuracy.
     const last = lamp.x.length - 1;
@@ -59,12 +58,10 @@ describe("a prism's lack of fit", () => {
     [12_100_185, "sapphire"],
     [12_200_094, "fused-silica"],
   ])("leaves instrument %i (%s) to a person, saying why", (seed, glass) => {
-    const lamp = realisticLamp(seed, { dispersion: "prism" });
-    expect(lamp.glass).toBe(glass);
-    const result = calibrate(lamp);
+    const { lamp, result, check } = calibratedPrism(seed, glass);
     expect(result.pairing.status).not.toBe("paired");
     expect(result.fit).toBeNull();
-    const lackOfFit = checkValue(result, "lack-of-fit")!;
+    const lackOfFit = check("lack-of-fit")!;
     expect(lackOfFit.passed).toBe(false);
     expect(lackOfFit.value).toBeGreaterThan(1);
     expect(result.pairing.message).toMatch(/misses its own pairs by more than/);
