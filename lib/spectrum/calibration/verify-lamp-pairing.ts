@@ -425,9 +425,9 @@ export function verifyLampPairing(
 
   // Lack of fit: the calibration must follow its own pairs as closely as their centres are known. A
   // weighted χ² beyond what chance allows says the model's shape is not the instrument's (a prism of a
-  // glass outside the catalogue, bent towards the nearest one inside it), however small its RMS. Each
-  // centre counts with at least the floor every pairing gives it (a route that left a finder's σ of
-  // 0.001 px would otherwise fail every fit).
+  // glass outside the catalogue, bent towards the nearest one inside it), however small its RMS. No
+  // centre counts as better known than the 3 % floor of the typical line width (a route that kept a
+  // finder's σ of 0.001 px would otherwise fail every fit).
   const centreFloor = CENTRE_FLOOR_FWHM * (typicalPeakFwhm(context.peaks) ?? 2 * tol);
   const chiSquare = used.reduce(
     (sum, p, i) =>
