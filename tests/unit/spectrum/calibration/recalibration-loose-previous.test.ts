@@ -25,7 +25,7 @@ describe("recalibration from a loose previous calibration", () => {
   // A dense flint (N-LASF9) whose fresh fit in yesterday's family fails, and whose fit free to choose
   // its model (a catalogue glass) misses its own pairs by more than their centres' σ allow (the
   // lack-of-fit check): it stays a recalibration to check, for the reason the drift gave. Before that
-  // check the free fit was paired, and right (0.14 of the sweep's accuracy): the check's price here.
+  // check the free fit was paired, and right (0.14 nm off at its worst probe): the check's price here.
   it("leaves instrument 8700150 (N-LASF9) to check", () => {
     const [record] = runSweep({ seed: 8_700_150, n: 1, withPrevious: true });
     expect(record.glass).toBe("N-LASF9");
