@@ -96,12 +96,12 @@ export const PAIRING_CHECK_LIMITS = {
   maxModelDisagreement: 0.25,
   /**
    * The same for a prism, whose physical model is held against a forward polynomial in the straightened
-   * axis (Hartmann, the counterpart before, cannot follow a prism over a wide range: fitted to the true
-   * axes of 120 prisms it missed them by 2–16 times the sweep's accuracy, and it disagreed with right
-   * pairings by up to 5 tolerances). On 900 prisms (seeds 12100000–12300000) right pairings reached
-   * 1–1.5 tolerances against the polynomial in a handful of cases and most wrong candidates stood above
-   * 0.5 but also failed the residuals check; every silent wrong stood below 0.4. The limit stays one
-   * tolerance.
+   * axis. Hartmann, the counterpart before, cannot follow a prism over a wide range: fitted to the true
+   * axes of 120 prisms it missed 116 by more than the sweep's accuracy (the median per glass 2–16 times
+   * it), and it disagreed with right pairings by up to 5 tolerances. Against the polynomial, on 900
+   * prisms (seeds 12100000–12300000), 11 right candidates stood above one tolerance (6 above 1.5); the
+   * 16 wrong ones between 0.5 and 1 all failed the residuals check as well, and every silent wrong
+   * stood at 0.4 or below. The limit stays one tolerance.
    */
   maxModelDisagreementPrism: 1,
   /** Smallest share of the strong, unblended lamp lines on the array that must show a peak. */
