@@ -116,8 +116,8 @@ export const PAIRING_CHECK_LIMITS = {
    * The final model's weighted χ² over its pairs may reach this quantile of the χ² distribution of its
    * degrees of freedom; beyond it the model does not follow its pairs within their centres' σ. On 900
    * prisms (seeds 12100000–12300000) it turned 4 of 15 silent wrongs into "check" (one 26 times the
-   * sweep's accuracy off, three bent to a glass not their own, 0.2–0.4 nm off at an end) at the cost of
-   * 4 right ones (error ratios 0.57–1.0). The 134 right gratings of seed 12400000 reached 0.26 of it.
+   * sweep's accuracy off, three bent to a glass not their own, 0.18–0.38 nm off at an end) at the cost
+   * of 4 right ones (error ratios 0.57–1.0). The 134 right gratings of seed 12400000 reached 0.26 of it.
    */
   lackOfFitQuantile: 0.999,
 } as const;
