@@ -4,6 +4,7 @@
 import { Matrix, solve } from "ml-matrix";
 import { CalibrationError } from "./calibration-error";
 import { jacobianCovariance } from "./jacobian-covariance";
+import { weightedLine } from "./weighted-line";
 
 /** One pair as the forward fit needs it. */
 export interface ForwardHartmannPoint {
@@ -90,22 +91,9 @@ export function fitForwardHartmann(
 
   // With λ₀ and α fixed the model is a straight line in u, so a scan of λ₀ at α = 1 gives a start.
   const lineFit = (lambda0: number, alpha: number): number[] => {
-    let sw = 0,
-      su = 0,
-      sx = 0,
-      suu = 0,
-      sux = 0;
-    for (let i = 0; i < x.length; i++) {
-      const w = 1 / sigma[i] ** 2;
-      const u = ((lambda[i] - lambda0) / SCALE_NM) ** -alpha;
-      sw += w;
-      su += w * u;
-      sx += w * x[i];
-      suu += w * u * u;
-      sux += w * u * x[i];
-    }
-    const b = (sw * sux - su * sx) / (sw * suu - su * su);
-    return [(sx - b * su) / sw, b, lambda0, alpha];
+    const u = lambda.map((value) => ((value - lambda0) / SCALE_NM) ** -alpha);
+    const line = weightedLine(u, x, sigma);
+    return [line.intercept, line.slope, lambda0, alpha];
   };
   const starts: number[][] = [];
   let scanned: { parameters: number[]; chiSquare: number } | undefined;

@@ -10,6 +10,7 @@ import { jacobianCovariance } from "./jacobian-covariance";
 import type { ForwardHartmannPoint } from "./fit-forward-hartmann";
 import { cameraTangent, prismDeviationRad } from "./prism-forward";
 import { refractiveIndex } from "./refractive-index";
+import { dampedStep, lineProjection, weightedLine } from "./weighted-line";
 
 const DEG = Math.PI / 180;
 
@@ -114,32 +115,17 @@ export function fitForwardPrism(
     cameraTangent(angleOf(n, incidence), axisAngle);
   /** The weighted straight line of x in u = tan(…) at one incidence: the profile of χ² over the incidence. */
   const profile = (incidence: number) => {
-    let sw = 0,
-      su = 0,
-      sx = 0,
-      suu = 0,
-      sux = 0;
     const u: number[] = [];
     const sinIncidence = Math.sin(incidence);
     const reference = prismDeviationRad(nReference, incidence, apexRad, sinIncidence);
     for (let i = 0; i < x.length; i++) {
       const value = Math.tan(angleOf(nOfPair[i], incidence, sinIncidence, reference));
       if (!Number.isFinite(value)) return { chiSquare: Infinity, a: 0, b: 0 };
-      const w = 1 / sigma[i] ** 2;
       u.push(value);
-      sw += w;
-      su += w * value;
-      sx += w * x[i];
-      suu += w * value * value;
-      sux += w * value * x[i];
     }
-    const determinant = sw * suu - su * su;
-    if (!(determinant > 0)) return { chiSquare: Infinity, a: 0, b: 0 };
-    const b = (sw * sux - su * sx) / determinant;
-    const a = (sx - b * su) / sw;
-    let chiSquare = 0;
-    for (let i = 0; i < x.length; i++) chiSquare += ((x[i] - a - b * u[i]) / sigma[i]) ** 2;
-    return { chiSquare, a, b };
+    const line = weightedLine(u, x, sigma);
+    if (!Number.isFinite(line.chiSquare)) return { chiSquare: Infinity, a: 0, b: 0 };
+    return { chiSquare: line.chiSquare, a: line.intercept, b: line.slope };
   };
 
   // The profile is smooth but not convex over the whole scan (rays graze the faces at its ends), so a
@@ -237,30 +223,14 @@ export function fitForwardPrism(
         (2 * h);
       du[1][i] = 1 / Math.cos(angle + axisAngle) ** 2 - 1 / Math.cos(axisAngle) ** 2;
     }
-    // Whitened columns of the line, c₁ = w and c₂ = w·u, and the projection onto their span.
-    let s11 = 0,
-      s12 = 0,
-      s22 = 0;
-    for (let i = 0; i < count; i++) {
-      s11 += w[i] * w[i];
-      s12 += w[i] * w[i] * u[i];
-      s22 += w[i] * w[i] * u[i] * u[i];
-    }
-    const determinant = s11 * s22 - s12 * s12;
-    const residualOfProjection = (y: number[]) => {
-      let t1 = 0,
-        t2 = 0;
-      for (let i = 0; i < count; i++) {
-        t1 += w[i] * y[i];
-        t2 += w[i] * u[i] * y[i];
-      }
-      const alpha = (s22 * t1 - s12 * t2) / determinant;
-      const beta = (s11 * t2 - s12 * t1) / determinant;
-      return { alpha, beta, rest: y.map((value, i) => value - alpha * w[i] - beta * w[i] * u[i]) };
-    };
-    const line = residualOfProjection(x.map((value, i) => value * w[i]));
+    // The whitened line (columns w and w·u) and the angles' derivatives with its span projected out.
+    const { determinant, project } = lineProjection(w, u);
+    const line = project(x.map((value, i) => value * w[i]));
     const b = line.beta;
-    const columns = du.map((d) => residualOfProjection(d.map((value, i) => b * value * w[i])).rest);
+    const columns = du.map((d) => project(d.map((value, i) => b * value * w[i])).rest) as [
+      number[],
+      number[],
+    ];
     const chi = line.rest.reduce((sum, r) => sum + r * r, 0);
     return {
       a: line.alpha,
@@ -280,28 +250,12 @@ export function fitForwardPrism(
       iteration < 60 && Number.isFinite(current.chiSquare) && damping < 1e10;
       iteration++
     ) {
-      const [j0, j1] = current.columns;
-      let a00 = 0,
-        a01 = 0,
-        a11 = 0,
-        g0 = 0,
-        g1 = 0;
-      for (let i = 0; i < x.length; i++) {
-        a00 += j0[i] * j0[i];
-        a01 += j0[i] * j1[i];
-        a11 += j1[i] * j1[i];
-        g0 += j0[i] * current.residual[i];
-        g1 += j1[i] * current.residual[i];
-      }
-      const d00 = a00 * (1 + damping);
-      const d11 = a11 * (1 + damping);
-      const determinant = d00 * d11 - a01 * a01;
-      if (!(determinant > 0)) {
+      const step = dampedStep(current.columns, current.residual, damping);
+      if (!step) {
         damping *= 10;
         continue;
       }
-      const step0 = (d11 * g0 - a01 * g1) / determinant;
-      const step1 = (d00 * g1 - a01 * g0) / determinant;
+      const [step0, step1] = step;
       const nextIncidence = incidence + step0;
       const nextAxisAngle = axisAngle + step1;
       const inside =

@@ -15,6 +15,7 @@ import {
   type CovarianceScaling,
   type ModelFitInput,
 } from "./model-fit-input";
+import { dampedStep, lineProjection, weightedLine } from "./weighted-line";
 
 /** Closest the pole may come to the array's edge, in normalised units (keeps λ finite on the array). */
 const POLE_MARGIN = 1e-3;
@@ -32,32 +33,6 @@ function hartmannGradient(parameters: number[], side: 1 | -1, t: number): number
   return [1, powered, (-side * alpha * c * powered) / base, -c * powered * Math.log(base)];
 }
 
-/** The weighted straight line y ≈ λ₀ + c·u: the Hartmann formula at one pole and exponent. */
-function lineInU(u: readonly number[], y: readonly number[], sigma: readonly number[]) {
-  let s11 = 0,
-    s12 = 0,
-    s22 = 0,
-    r1 = 0,
-    r2 = 0;
-  for (let i = 0; i < u.length; i++) {
-    const w = 1 / (sigma[i] * sigma[i]);
-    s11 += w;
-    s12 += w * u[i];
-    s22 += w * u[i] * u[i];
-    r1 += w * y[i];
-    r2 += w * u[i] * y[i];
-  }
-  const determinant = s11 * s22 - s12 * s12;
-  const lambda0 = (s22 * r1 - s12 * r2) / determinant;
-  const c = (s11 * r2 - s12 * r1) / determinant;
-  let chiSquare = 0;
-  for (let i = 0; i < u.length; i++) chiSquare += ((y[i] - lambda0 - c * u[i]) / sigma[i]) ** 2;
-  // A degenerate u (every pair at one distance from the pole) leaves the line undetermined.
-  if (!(determinant > 0) || !Number.isFinite(chiSquare))
-    return { lambda0: Number.NaN, c: Number.NaN, chiSquare: Infinity, s11, s12, s22, determinant };
-  return { lambda0, c, chiSquare, s11, s12, s22, determinant };
-}
-
 /** The best α = 1 start over a scan of the pole position on one side of the array. */
 function scanPole(t: number[], y: number[], sigma: number[], side: 1 | -1) {
   let best: { parameters: number[]; chiSquare: number } | undefined;
@@ -65,14 +40,14 @@ function scanPole(t: number[], y: number[], sigma: number[], side: 1 | -1) {
     // Distances from 1e-3 to 1e3 half-ranges beyond the edge, evenly in log.
     const distance = 10 ** (-3 + (6 * i) / 120);
     const t0 = side * (1 + distance);
-    const solution = lineInU(
+    const solution = weightedLine(
       t.map((value) => 1 / (side * (t0 - value))),
       y,
       sigma,
     );
     if (!best || solution.chiSquare < best.chiSquare) {
       best = {
-        parameters: [solution.lambda0, solution.c, t0, 1],
+        parameters: [solution.intercept, solution.slope, t0, 1],
         chiSquare: solution.chiSquare,
       };
     }
@@ -95,7 +70,6 @@ function refine(
   side: 1 | -1,
   start: number[],
 ): number[] {
-  const count = t.length;
   const w = sigma.map((s) => 1 / s);
   const poleBound = side * (1 + POLE_MARGIN);
   const clampPole = (t0: number) =>
@@ -104,53 +78,37 @@ function refine(
   const at = (t0: number, alpha: number) => {
     const base = t.map((value) => side * (t0 - value));
     const u = base.map((b) => b ** -alpha);
-    return { t0, alpha, base, u, ...lineInU(u, y, sigma) };
+    const line = weightedLine(u, y, sigma);
+    return {
+      t0,
+      alpha,
+      base,
+      u,
+      lambda0: line.intercept,
+      c: line.slope,
+      chiSquare: line.chiSquare,
+    };
   };
   let current = at(clampPole(start[2]), clampAlpha(start[3]));
   if (!Number.isFinite(current.chiSquare)) return start;
   let damping = 1e-3;
   for (let step = 0; step < MAX_STEPS; step++) {
-    const { base, u, c, alpha, s11, s12, s22, determinant } = current;
+    const { base, u, c, alpha } = current;
     const residual = u.map((value, i) => (y[i] - current.lambda0 - c * value) * w[i]);
-    /** v with its projection on the whitened line's columns (w, w·u) removed. */
-    const projectedOut = (v: number[]) => {
-      let p1 = 0,
-        p2 = 0;
-      for (let i = 0; i < count; i++) {
-        p1 += w[i] * v[i];
-        p2 += w[i] * u[i] * v[i];
-      }
-      const a = (s22 * p1 - s12 * p2) / determinant;
-      const b = (s11 * p2 - s12 * p1) / determinant;
-      return v.map((value, i) => value - a * w[i] - b * w[i] * u[i]);
-    };
-    // ∂u/∂t₀ = −α·side·u/base, ∂u/∂α = −u·ln(base).
-    const columns = [
-      projectedOut(u.map((value, i) => (w[i] * c * -alpha * side * value) / base[i])),
-      projectedOut(u.map((value, i) => w[i] * c * -value * Math.log(base[i]))),
+    // ∂u/∂t₀ = −α·side·u/base, ∂u/∂α = −u·ln(base), whitened, with the line's span projected out.
+    const { project } = lineProjection(w, u);
+    const columns: [number[], number[]] = [
+      project(u.map((value, i) => (w[i] * c * -alpha * side * value) / base[i])).rest,
+      project(u.map((value, i) => w[i] * c * -value * Math.log(base[i]))).rest,
     ];
-    let a00 = 0,
-      a01 = 0,
-      a11 = 0,
-      g0 = 0,
-      g1 = 0;
-    for (let i = 0; i < count; i++) {
-      a00 += columns[0][i] ** 2;
-      a01 += columns[0][i] * columns[1][i];
-      a11 += columns[1][i] ** 2;
-      g0 += columns[0][i] * residual[i];
-      g1 += columns[1][i] * residual[i];
-    }
     let next: typeof current | undefined;
     for (let attempt = 0; attempt < 30 && !next; attempt++) {
-      const d00 = a00 * (1 + damping);
-      const d11 = a11 * (1 + damping);
-      const det = d00 * d11 - a01 * a01;
-      const trial = at(
-        clampPole(current.t0 + (d11 * g0 - a01 * g1) / det),
-        clampAlpha(alpha + (d00 * g1 - a01 * g0) / det),
-      );
-      if (Number.isFinite(trial.chiSquare) && trial.chiSquare <= current.chiSquare) next = trial;
+      const stepped = dampedStep(columns, residual, damping);
+      const trial = stepped
+        ? at(clampPole(current.t0 + stepped[0]), clampAlpha(alpha + stepped[1]))
+        : undefined;
+      if (trial && Number.isFinite(trial.chiSquare) && trial.chiSquare <= current.chiSquare)
+        next = trial;
       else damping *= 11;
     }
     if (!next) break;

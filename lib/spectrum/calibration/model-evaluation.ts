@@ -2,7 +2,12 @@
 // Jacobian ∂λ/∂parameters that the uncertainty and the fits need. Shared by the public evaluators.
 import { CalibrationError } from "./calibration-error";
 import type { CalibrationModel, PrismCalibrationModel } from "./calibration-model";
-import { prismForwardX, prismInverseWavelengths, type PrismGeometry } from "./prism-forward";
+import {
+  prismForward,
+  prismForwardX,
+  prismInverseWavelengths,
+  type PrismGeometry,
+} from "./prism-forward";
 
 /** Wavelengths, dispersion and (optionally) the parameter Jacobian at each x. */
 export interface ModelEvaluation {
@@ -95,6 +100,7 @@ export function modelEvaluation(
     }
     case "prism": {
       const geometry = prismGeometryOf(model);
+      const forward = prismForward(geometry);
       wavelengthNm.set(prismInverseWavelengths(geometry, x));
       for (let i = 0; i < count; i++) {
         const lambda = wavelengthNm[i];
@@ -104,9 +110,7 @@ export function modelEvaluation(
           continue;
         }
         const step = 1e-4 * lambda;
-        const dxdLambda =
-          (prismForwardX(geometry, lambda + step) - prismForwardX(geometry, lambda - step)) /
-          (2 * step);
+        const dxdLambda = (forward(lambda + step) - forward(lambda - step)) / (2 * step);
         dispersion[i] = 1 / dxdLambda;
         if (jacobian) {
           // Implicit function: x(λ(p), p) = x fixed ⇒ ∂λ/∂p = −(∂x/∂p)/(∂x/∂λ).
