@@ -81,24 +81,33 @@ export function withCentreFloor(peaks: LampPeak[]): LampPeak[] {
   return withCentreUncertainty(peaks, false);
 }
 
+/**
+ * How far each peak's centre may be pulled by a neighbour it blends with (see PULL_PER_EXTRA_SIGMA and
+ * SPLIT_BLEND_SHARE), in x; 0 for a clean peak, and for one without the width or neighbours to judge.
+ */
+export function blendPulls(peaks: readonly LampPeak[]): number[] {
+  const neighbours = neighbourWidths(peaks);
+  return peaks.map((peak, i) => blendPull(peak, neighbours[i]));
+}
+
+/** The pull of `peak`'s centre (see blendPulls), given its neighbours' widths ascending. */
+function blendPull(peak: LampPeak, widths: number[] | null): number {
+  if (!(peak.fwhm !== undefined && peak.fwhm > 0) || !widths) return 0;
+  const clean = widths[Math.floor(0.25 * (widths.length - 1))];
+  // A width measured with noise scatters by about 1/SNR of itself: within two of those a peak is clean.
+  const noiseShare = peak.snr !== undefined && peak.snr > 0 ? 2 / peak.snr : 0;
+  const cleanWithNoise = clean * (1 + noiseShare);
+  const extraSigma = Math.sqrt(Math.max(0, peak.fwhm ** 2 - cleanWithNoise ** 2)) / FWHM_PER_SIGMA;
+  return Math.max(PULL_PER_EXTRA_SIGMA * extraSigma, peak.blended ? SPLIT_BLEND_SHARE * clean : 0);
+}
+
 function withCentreUncertainty(peaks: LampPeak[], blends: boolean): LampPeak[] {
   const neighbours = neighbourWidths(peaks);
   return peaks.map((peak, i) => {
     const widths = neighbours[i];
     if (!(peak.fwhm !== undefined && peak.fwhm > 0) || !widths) return peak;
-    const typical = widths[widths.length >> 1];
-    const floor = CENTRE_FLOOR_FWHM * typical;
-    if (!blends) return { ...peak, xUncertainty: Math.hypot(peak.xUncertainty ?? 0, floor) };
-    const clean = widths[Math.floor(0.25 * (widths.length - 1))];
-    // A width measured with noise scatters by about 1/SNR of itself: within two of those a peak is clean.
-    const noiseShare = peak.snr !== undefined && peak.snr > 0 ? 2 / peak.snr : 0;
-    const cleanWithNoise = clean * (1 + noiseShare);
-    const extraSigma =
-      Math.sqrt(Math.max(0, peak.fwhm ** 2 - cleanWithNoise ** 2)) / FWHM_PER_SIGMA;
-    const pull = Math.max(
-      PULL_PER_EXTRA_SIGMA * extraSigma,
-      peak.blended ? SPLIT_BLEND_SHARE * clean : 0,
-    );
+    const floor = CENTRE_FLOOR_FWHM * widths[widths.length >> 1];
+    const pull = blends ? blendPull(peak, widths) : 0;
     return { ...peak, xUncertainty: Math.hypot(peak.xUncertainty ?? 0, pull, floor) };
   });
 }

@@ -9,10 +9,10 @@ import { realisticLamp } from "../../../support/realistic-lamp";
 
 describe("pairs beyond gaps, one after another", () => {
   it("are set aside in turn, and what is left is trusted over the range it covers", () => {
-    // Seed found on the blind sweep: a He lamp on a straight grating whose red lines stand apart from
-    // the rest, He I 706.5 and 728.1 nm beyond one gap and 587.6 nm beyond another (one round of
-    // setting aside left it "check").
-    const lamp = realisticLamp(9600101);
+    // Seed found on the unit sweep (2048-pixel arrays): a He lamp on a curved grating whose red lines
+    // stand apart from the rest, He I 706.5 and 728.1 nm beyond one gap and 587.6 nm beyond another,
+    // which the other pairs do not foretell uniquely (one round of setting aside would leave it "check").
+    const lamp = realisticLamp(1296, { pixels: 2048 });
     const result = calibrateLamp(lamp.x, lamp.y, lamp.lines, {
       nominalRangeNm: lamp.statedRangeNm,
       dispersion: "grating",
@@ -30,5 +30,25 @@ describe("pairs beyond gaps, one after another", () => {
     expect(result.pairing.message).toMatch(/beyond a wide gap set aside/);
     expect(aside).toHaveLength(3);
     for (const nm of aside) expect(nm < low || nm > high, `${nm} nm`).toBe(true);
+  });
+
+  it("are kept when the other pairs foretold them, each on the one peak its line could take", () => {
+    // Seed found on the blind sweep: the same shape of He lamp on a straight grating. The pairs at
+    // 389–588 nm put He I 706.5 and 728.1 nm, beyond a gap of 35 % of the span, each on one clean peak
+    // with no other peak or lamp line within reach, so they were not chosen by themselves; the
+    // calibration covers them and is right there.
+    const lamp = realisticLamp(9600101);
+    const result = calibrateLamp(lamp.x, lamp.y, lamp.lines, {
+      nominalRangeNm: lamp.statedRangeNm,
+      dispersion: "grating",
+      resolutionNm: lamp.resolutionNm,
+    });
+    expect(result.pairing.status).toBe("paired");
+    expect(result.pairing.message).not.toMatch(/set aside/);
+    const paired = result.pairing.pairs.map((p) => p.wavelengthNm);
+    for (const nm of [587.562, 706.519, 728.135]) expect(paired).toContain(nm);
+    const model = result.fit!.model;
+    expect(model.coveredNm[1]).toBeCloseTo(728.135, 3);
+    expect(probeErrorRatio(lamp, model).ratio).toBeLessThanOrEqual(1);
   });
 });

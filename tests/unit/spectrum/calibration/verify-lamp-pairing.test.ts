@@ -13,15 +13,31 @@ import { realisticLamp } from "../../../support/realistic-lamp";
 
 const xOf = (nm: number) => 5 * (nm - 400);
 
-/** Equal Ne I lines at these wavelengths, a peak exactly on each, and the pairing context of the array. */
-function lampAt(wavelengthsNm: number[]) {
-  const lines: LampLine[] = wavelengthsNm.map((nm, i) => ({
+/** What else the array shows: peaks of unlisted lines, lamp lines without a peak, a widened peak. */
+interface LampExtras {
+  unlistedPeaksNm?: number[];
+  linesWithoutPeakNm?: number[];
+  /** FWHM of the peak of the line at this wavelength (the others are 5 px). */
+  widened?: { nm: number; fwhm: number };
+}
+
+/**
+ * Equal Ne I lines at these wavelengths, a peak exactly on each (then `extras`), and the pairing
+ * context of the array.
+ */
+function lampAt(wavelengthsNm: number[], extras: LampExtras = {}) {
+  const { unlistedPeaksNm = [], linesWithoutPeakNm = [], widened } = extras;
+  const lines: LampLine[] = [...wavelengthsNm, ...linesWithoutPeakNm].map((nm, i) => ({
     wavelengthNm: nm,
     intensity: 100,
     species: "Ne I",
     id: `l${i}`,
   }));
-  const peaks: LampPeak[] = wavelengthsNm.map((nm) => ({ x: xOf(nm), height: 1000, fwhm: 5 }));
+  const peaks: LampPeak[] = [...wavelengthsNm, ...unlistedPeaksNm].map((nm) => ({
+    x: xOf(nm),
+    height: 1000,
+    fwhm: nm === widened?.nm ? widened.fwhm : 5,
+  }));
   const context = pairingContext(peaks, lines, {
     nominalRangeNm: [400, 710],
     dispersion: "grating",
@@ -40,8 +56,8 @@ function lampAt(wavelengthsNm: number[]) {
   return { context, pairOf };
 }
 
-function verdictFor(wavelengthsNm: number[], degree = 3, lastShiftX = 0) {
-  const { context, pairOf } = lampAt(wavelengthsNm);
+function verdictFor(wavelengthsNm: number[], degree = 3, lastShiftX = 0, extras: LampExtras = {}) {
+  const { context, pairOf } = lampAt(wavelengthsNm, extras);
   const last = wavelengthsNm.length - 1;
   const pairs = wavelengthsNm.map((_, i) => pairOf(i, i, i === last ? lastShiftX : 0));
   const fit = fitCalibration(pairs, { model: "polynomial", degree, domain: [0, 1550] });
@@ -51,14 +67,40 @@ function verdictFor(wavelengthsNm: number[], degree = 3, lastShiftX = 0) {
 const core = [550, 565, 580, 595, 610, 625, 640, 655, 670, 700];
 
 describe("verifyLampPairing: lopsided support", () => {
+  const cluster = [400, 401.5, 403];
+  const lopsided = (extras: LampExtras) =>
+    verdictFor([...cluster, ...core], 3, 0, extras).checks.find(
+      (c) => c.name === "lopsided-support",
+    )!;
+
   it("flags a tight cluster of three pairs beyond a wide gap and names them", () => {
-    // 400–403 nm, then nothing until 550 nm: a gap of 147 nm in a span of 300 (49 %).
-    const verdict = verdictFor([400, 401.5, 403, ...core]);
+    // 400–403 nm, then nothing until 550 nm: a gap of 147 nm in a span of 300 (49 %). An unlisted
+    // line's peak 0.4 nm (2 px) from 401.5 nm's stands where the rest puts that line, so the rest
+    // cannot tell which of the two peaks is its.
+    const verdict = verdictFor([...cluster, ...core], 3, 0, { unlistedPeaksNm: [401.9] });
     const check = verdict.checks.find((c) => c.name === "lopsided-support")!;
     expect(check.passed).toBe(false);
     expect(check.value).toBeCloseTo(147 / 300, 6);
     expect(check.reason).toContain("3 pairs");
     expect(verdict.beyondGap?.map((p) => p.wavelengthNm)).toEqual([400, 401.5, 403]);
+  });
+
+  it("lets the cluster stand when the rest foretold each of its pairs on the one peak its line could take", () => {
+    // The same pairs with nothing else near them: the cubic of the ten pairs at 550–700 nm puts each
+    // of 400, 401.5 and 403 nm on its own peak, so the rest chose them.
+    expect(lopsided({}).passed).toBe(true);
+  });
+
+  it("does not when another lamp line could have made one of the peaks", () => {
+    // A lamp line at 401.9 nm with no peak of its own: the rest puts it 2 px from 401.5 nm's peak.
+    const check = lopsided({ linesWithoutPeakNm: [401.9] });
+    expect(check.passed).toBe(false);
+    expect(check.value).toBeCloseTo(147 / 300, 6);
+  });
+
+  it("does not when one of the peaks is widened by a neighbour, which pulls its centre", () => {
+    const check = lopsided({ widened: { nm: 401.5, fwhm: 8 } });
+    expect(check.passed).toBe(false);
   });
 
   it("does not flag three pairs that spread over much of what lies beyond the gap", () => {
@@ -131,6 +173,15 @@ describe("realistic lamps seen in the blind sweep", () => {
     const record = sweepOne(realisticLamp(1_300_171));
     expect(record.status).toBe("paired");
     expect(record.outcome).toBe("success");
+  }, 60_000);
+  it("does not trust three blue pairs one line off beyond a gap from four red ones (seven pairs)", () => {
+    // Instrument 13500001 of the prism sweep, an N-SF11 prism of a Xe lamp: Xe I 462.4, 473.4 and
+    // 491.7 nm each on the next line's peak, 220 nm from four right red pairs. Hartmann's four
+    // parameters bent onto all seven; it was "paired", 6.7 nm wrong at the blue end.
+    const lamp = realisticLamp(13_500_001, { dispersion: "prism", glass: "N-SF11" });
+    const record = sweepOne(lamp);
+    expect(record.status).not.toBe("paired");
+    expect(record.message).toMatch(/3 pairs at an end of the covered range stand beyond a gap/);
   }, 60_000);
   it("does not trust three red pairs 4 nm off beyond a gap once two blue end pairs are trimmed", () => {
     // Instrument 1500141: before, the end trimming left a quintic following Ne I 837.76–849.54 nm.

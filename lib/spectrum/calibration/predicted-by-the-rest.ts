@@ -1,0 +1,83 @@
+// Whether a few pairs at an end of a pairing, beyond a wide gap, were foretold by the other pairs:
+// a model of the rest puts each of their lines inside a window (a tolerance, three statistical σ and
+// the model-form part, as the end-pairs check measures it), on the very peak the pair took, with no
+// other peak inside that window and no other lamp line whose own window holds that peak. Such pairs do
+// not decide the calibration at their end alone — the rest of the pairs chose them, uniquely — as long
+// as their centres are sound: a peak widened or split by a neighbour, or cut by the array's edge, is
+// off by a pull that would be the calibration's error there. Pairs that only fit themselves (a cluster shifted by one lamp line, which a flexible model bends onto) are
+// not foretold: the rest cannot put their lines within one peak of where they are.
+import { blendPulls } from "./centre-uncertainty";
+import { elementOfSpecies } from "./element-of-species";
+import { growthDegree } from "./growth-degree";
+import type { LampPair } from "./lamp-pairing-types";
+import type { PairingContext } from "./refine-lamp-pairing";
+import { fitStraightenedPolynomial } from "./straightened-polynomial";
+import { usableLampPeaks } from "./search-lamp-pairing";
+
+/**
+ * A line this much weaker than the pair's line, of the same element, is no rival for its peak (as
+ * growth rules, lamp tables being rough by a factor of a few).
+ */
+const WEAK_RIVAL_RATIO = 0.05;
+
+/**
+ * A centre more uncertain than this many times the rest's median is not sound: the peak finder's σ of a
+ * peak cut by the array's edge is its whole width.
+ */
+const EDGE_SIGMA_RATIO = 2;
+
+/** True when a model of `pairs` without `group` foretells every pair of `group` uniquely. */
+export function predictedByTheRest(
+  context: PairingContext,
+  pairs: readonly LampPair[],
+  group: readonly LampPair[],
+): boolean {
+  const inGroup = new Set(group);
+  const rest = pairs.filter((p) => !inGroup.has(p));
+  if (group.length === 0 || rest.length < 3) return false;
+  const g = context.straighten;
+  const gRange: [number, number] = [g(context.nominalRangeNm[0]), g(context.nominalRangeNm[1])];
+  const spanX = context.domain[1] - context.domain[0];
+  const restXs = rest.map((p) => p.x);
+  const covered = (Math.max(...restXs) - Math.min(...restXs)) / spanX;
+  const degree = Math.max(1, growthDegree(rest.length, covered, context.dispersion));
+  const model = fitStraightenedPolynomial(rest, g, gRange, degree);
+  // Without a lower degree to measure the model's form by, its window would claim a certainty the
+  // rest does not have.
+  const lower = degree > 1 ? fitStraightenedPolynomial(rest, g, gRange, degree - 1) : null;
+  if (!model || !lower) return false;
+  const windowAt = (lambda: number) =>
+    context.toleranceX +
+    3 * model.sigmaX(lambda) +
+    Math.abs(lower.predictX(lambda) - model.predictX(lambda));
+  // Whichever route paired them: a peak wider than its clean neighbours, or split from one, has a
+  // centre pulled by a neighbour, and a pair beyond a gap carries its pull into the calibration there.
+  const pulls = blendPulls(context.peaks);
+  const sigmaOf = (pair: LampPair) => context.peaks[pair.peakIndex].xUncertainty ?? 0;
+  const sigmas = rest.map(sigmaOf).sort((a, b) => a - b);
+  const soundCentre = (pair: LampPair) =>
+    pulls[pair.peakIndex] === 0 && sigmaOf(pair) <= EDGE_SIGMA_RATIO * sigmas[sigmas.length >> 1];
+  const usable = usableLampPeaks(context.peaks);
+  const pairedLines = new Set(pairs.map((p) => p.lineIndex));
+  return group.every((pair) => {
+    if (!soundCentre(pair)) return false;
+    const line = context.lines[pair.lineIndex];
+    const predicted = model.predictX(line.wavelengthNm);
+    const window = windowAt(line.wavelengthNm);
+    if (!(Math.abs(pair.x - predicted) <= window)) return false;
+    const otherPeak = usable.some(
+      (p) => p !== pair.peakIndex && Math.abs(context.peaks[p].x - predicted) <= window,
+    );
+    if (otherPeak) return false;
+    return !context.candidateLines.some((l) => {
+      if (l === pair.lineIndex || pairedLines.has(l)) return false;
+      const rival = context.lines[l];
+      if (
+        elementOfSpecies(rival.species) === elementOfSpecies(line.species) &&
+        rival.intensity < WEAK_RIVAL_RATIO * line.intensity
+      )
+        return false;
+      return Math.abs(model.predictX(rival.wavelengthNm) - pair.x) <= windowAt(rival.wavelengthNm);
+    });
+  });
+}
