@@ -37,7 +37,7 @@ export interface CalibrateLampOptions {
    * @default 1 */
   seed?: number;
   /** The blind search (see AutoPairLampPeaksOptions.search).
-   * @default "grow" for a grating; for a prism "ransac", with growth as a second opinion */
+   * @default "grow" for a grating, with the draws as a second opinion; for a prism "ransac", with growth as a second opinion */
   search?: "grow" | "ransac";
 }
 

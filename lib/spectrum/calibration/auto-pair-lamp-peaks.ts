@@ -86,12 +86,16 @@ export interface AutoPairLampPeaksOptions extends LampPairingOptions {
    * (whole-array draws in the straightened axis, refined and, for a prism, grown with the glass
    * ensemble). Measured on the realistic-lamp sweep, growth pairs gratings twice as often at the same
    * or a lower rate of silent errors; on prisms it succeeds more often but was silently wrong more
-   * often too (blends crowd a prism's red end), so prisms start with the draws. When the draws trust
-   * nothing and no search was asked for, growth gives a prism a second opinion (`secondOpinion`):
-   * trusted only where the draws' candidate covers and agrees with it, else offered to check. On the
-   * blind sweep (1500 instruments, seeds 1000 and 9500000–9900000) prisms went from 150 to 176
-   * successes with the same 10 silent wrongs overall; their CPU median from 133 to 214 ms, p99 from
-   * 0.9 to 1.1 s.
+   * often too (blends crowd a prism's red end), so prisms start with the draws. When the first search
+   * trusts nothing and no search was asked for, the other gives a second opinion (`secondOpinion`):
+   * trusted only where the first's candidate covers and agrees with it, or, when the first found
+   * nothing, where it stands on nine pairs; else offered to check. Growth for a prism: on the blind
+   * sweep (1500 instruments, seeds 1000 and 9500000–9900000) prisms went from 150 to 176 successes
+   * with the same 10 silent wrongs overall; their CPU median from 133 to 214 ms, p99 from 0.9 to
+   * 1.1 s. The draws for a grating: over 1,500 blind instruments (prisms of seeds 12100000 and
+   * 12200000, the CLI's mix of 12400000 and 1000, 2048-pixel arrays of 1000) successes 912 → 924
+   * with the same 16 silent wrongs and prisms unchanged; the gratings' CPU median and p99 within
+   * the noise (62 and 375 ms against 67 and 350).
    * @default "grow" for a grating, "ransac" for a prism
    */
   search?: "grow" | "ransac";
@@ -364,23 +368,48 @@ function blindLampPairing(
 ): LampPairingResult {
   const search = options.search ?? (options.dispersion === "prism" ? "ransac" : "grow");
   const setup = pairingContext(peaks, lines, options);
-  const {
-    seed = 1,
-    iterations = 20000,
-    rangeTolerance = 0.25,
-    firstGuess = "dispersion",
-    refineCount = 4,
-  } = options;
+  const shapes = hypothesisShapes(
+    options.firstGuess === "linear" ? "linear" : setup.dispersion,
+    options.nominalRangeNm,
+  );
+  if (search === "grow") {
+    const grown = grownLampPairing(peaks, lines, setup, shapes);
+    if (grown.status === "paired" || options.search !== undefined) return grown;
+    return secondOpinion(
+      grown,
+      drawnLampPairing(peaks, lines, setup, shapes, options),
+      setup,
+      ONLY_THE_DRAWS,
+    );
+  }
+  const drawn = drawnLampPairing(peaks, lines, setup, shapes, options);
+  if (drawn.status === "paired" || options.search !== undefined || setup.dispersion !== "prism")
+    return drawn;
+  const floored: PairingContext = { ...setup, peaks: withCentreFloor(setup.peaks) };
+  return secondOpinion(
+    drawn,
+    grownLampPairing(peaks, lines, floored, prismGrowthShapes(shapes), PRISM_SECOND_SEARCH),
+    floored,
+    ONLY_GROWTH,
+  );
+}
+
+/**
+ * The whole-array draws: (peak, peak) × (line, line) first guesses straight in each shape's axis,
+ * scored by the lines they land on a peak, the best few refined and the most confident finished.
+ */
+function drawnLampPairing(
+  peaks: LampPeak[],
+  lines: LampLine[],
+  setup: PairingContext,
+  shapes: ((lambda: number) => number)[],
+  options: AutoPairLampPeaksOptions,
+): LampPairingResult {
+  const { seed = 1, iterations = 20000, rangeTolerance = 0.25, refineCount = 4 } = options;
   const random = seededRandom(seed);
   const [nominalLow, nominalHigh] = options.nominalRangeNm;
   const [xMin, xMax] = setup.domain;
   const domainSpan = xMax - xMin;
-  const shapes = hypothesisShapes(
-    firstGuess === "linear" ? "linear" : setup.dispersion,
-    options.nominalRangeNm,
-  );
-
-  if (search === "grow") return grownLampPairing(peaks, lines, setup, shapes);
   // The draws weigh centres by the floor alone (see withCentreFloor).
   const context: PairingContext = { ...setup, peaks: withCentreFloor(setup.peaks) };
   const candidates = context.candidateLines;
@@ -496,16 +525,9 @@ function blindLampPairing(
     const refined = refineLampPairs(shaped, matched);
     if (!chosen || refined.score > chosen.refined.score) chosen = { context: shaped, refined };
   }
-  const drawn = chosen
+  return chosen
     ? finishLampPairing(chosen.context, chosen.refined)
     : refineLampPairing(context, []);
-  if (drawn.status === "paired" || options.search !== undefined || context.dispersion !== "prism")
-    return drawn;
-  return secondOpinion(
-    drawn,
-    grownLampPairing(peaks, lines, context, prismGrowthShapes(shapes), PRISM_SECOND_SEARCH),
-    context,
-  );
 }
 
 /**
@@ -570,8 +592,10 @@ function coversEnds(other: CalibrationModel, model: CalibrationModel, toleranceX
 }
 
 /**
- * Pairs a prism's growth needs to be trusted when the draws found no candidate to compare it with:
- * half again the minimum, since one route stands alone. Measured over 2,200 blind instruments of eight
+ * Pairs a second opinion needs to be trusted when the first search found no candidate to compare it
+ * with (a prism's growth, a grating's draws): half again the minimum, since one route stands alone. A
+ * grating's draws standing alone on nine pairs or more were right 5 of 5 times over 1,500 blind
+ * instruments (seeds 12100000, 12200000, 12400000, 1000 and 1000 at 2048 pixels). For a prism's growth: Measured over 2,200 blind instruments of eight
  * seeds (1000, 2000, 9500000, 9600000, 9800000, 9900000, 10600000, 10700000): growth-only pairings
  * with at least nine pairs were right 27 of 27 times (with fewer, 8 of 9: the one wrong, an N-SF6
  * prism of 8 pairs, missed by 1.5 tolerances); on fresh prism seeds 10800000 and 10900000 (n 300
@@ -579,49 +603,58 @@ function coversEnds(other: CalibrationModel, model: CalibrationModel, toleranceX
  */
 const SINGLE_ROUTE_PAIRS = Math.ceil(1.5 * MIN_TRUSTED_PAIRS);
 
+/** Why a second opinion found alone is offered to check, by which route found it. */
+const ONLY_GROWTH =
+  "only the search that grows pairs outward found this pairing (the whole-array draws found none to confirm it)";
+const ONLY_THE_DRAWS =
+  "only the whole-array draws found this pairing (the search that grows pairs outward found none to confirm it)";
+
 /**
- * A prism's draws trusted nothing; growth is the second opinion. Growth alone is not trusted on a
- * prism (blends crowd its red end, and growth was silently wrong more often than the draws): its
- * pairing is "paired" where the draws' own untrusted candidate agrees with it, two independent routes
- * to one axis, or, when the draws found no candidate at all, where growth stands on at least
- * SINGLE_ROUTE_PAIRS pairs; otherwise it is offered for a person to check, beside the draws' candidate.
+ * The first search trusted nothing; the other route is the second opinion (a prism's draws, then
+ * growth; a grating's growth, then the draws). The second route's pairing is "paired" where the first
+ * route's own untrusted candidate agrees with it and covers its range, two independent routes to one
+ * axis, or, when the first found no candidate at all, where the second stands on at least
+ * SINGLE_ROUTE_PAIRS pairs; otherwise it is offered for a person to check (`aloneReason` says why),
+ * beside the first route's candidate.
  */
 function secondOpinion(
-  drawn: LampPairingResult,
-  grown: LampPairingResult,
+  first: LampPairingResult,
+  second: LampPairingResult,
   context: PairingContext,
+  aloneReason: string,
 ): LampPairingResult {
-  const grownModel = grown.model ?? grown.candidate ?? null;
-  if (!grownModel) return drawn;
-  const drawnModel = drawn.candidate ?? null;
-  if (drawnModel) {
-    const agree = modelsAgree(grownModel.model, drawnModel.model, context);
+  const secondModel = second.model ?? second.candidate ?? null;
+  if (!secondModel) return first;
+  const firstModel = first.candidate ?? null;
+  if (firstModel) {
+    const agree = modelsAgree(secondModel.model, firstModel.model, context);
     if (
       agree &&
-      grown.status === "paired" &&
-      coversEnds(drawnModel.model, grownModel.model, context.toleranceX)
+      second.status === "paired" &&
+      coversEnds(firstModel.model, secondModel.model, context.toleranceX)
     )
-      return grown;
-    // Two different axes: the draws' stays the one to check, growth's is its rival.
-    if (agree || drawn.rivalSuggestion) return drawn;
-    const grownPairs = grown.status === "paired" ? grown.pairs : grown.suggestion;
-    return { ...drawn, rivalSuggestion: grownPairs };
+      return second;
+    // Two different axes: the first route's stays the one to check, the second's is its rival.
+    if (agree || first.rivalSuggestion) return first;
+    const secondPairs = second.status === "paired" ? second.pairs : second.suggestion;
+    return { ...first, rivalSuggestion: secondPairs };
   }
-  // The draws found nothing: growth's pairing stands on its own pairs when they are many, else it is
-  // offered to be checked.
-  if (grown.status !== "paired" || grown.pairs.length >= SINGLE_ROUTE_PAIRS) return grown;
-  const reason =
-    "only the search that grows pairs outward found this pairing (the whole-array draws found none to confirm it)";
+  // The first route found nothing: the second's pairing stands on its own pairs when they are many,
+  // else it is offered to be checked.
+  if (second.status !== "paired" || second.pairs.length >= SINGLE_ROUTE_PAIRS) return second;
   return {
-    ...grown,
+    ...second,
     status: "check",
-    checks: [...(grown.checks ?? []), { name: "second-search", passed: false, value: 0, reason }],
-    reasons: [reason],
-    candidate: grown.model,
-    confidence: Math.min(grown.confidence, 0.49),
+    checks: [
+      ...(second.checks ?? []),
+      { name: "second-search", passed: false, value: 0, reason: aloneReason },
+    ],
+    reasons: [aloneReason],
+    candidate: second.model,
+    confidence: Math.min(second.confidence, 0.49),
     pairs: [],
     model: null,
-    suggestion: grown.pairs,
-    message: `check this pairing: ${reason}`,
+    suggestion: second.pairs,
+    message: `check this pairing: ${aloneReason}`,
   };
 }
