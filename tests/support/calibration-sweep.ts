@@ -80,6 +80,19 @@ function cpuMs(start: NodeJS.CpuUsage): number {
   return (used.user + used.system) / 1000;
 }
 
+/** Calibrates a realistic instrument automatically, as the app would from its stated settings. */
+export function calibrateRealisticLamp(
+  lamp: RealisticLamp,
+  extra: Partial<CalibrateLampOptions> = {},
+): ReturnType<typeof calibrateLamp> {
+  return calibrateLamp(lamp.x, lamp.y, lamp.lines, {
+    nominalRangeNm: lamp.statedRangeNm,
+    dispersion: lamp.dispersion === "prism" ? "prism" : "grating",
+    resolutionNm: lamp.resolutionNm,
+    ...extra,
+  });
+}
+
 /** Calibrates one instrument and scores it. */
 export function sweepOne(
   lamp: RealisticLamp,
@@ -95,12 +108,7 @@ export function sweepOne(
   };
   const start = process.cpuUsage();
   try {
-    const result = calibrateLamp(lamp.x, lamp.y, lamp.lines, {
-      nominalRangeNm: lamp.statedRangeNm,
-      dispersion: lamp.dispersion === "prism" ? "prism" : "grating",
-      resolutionNm: lamp.resolutionNm,
-      ...extra,
-    });
+    const result = calibrateRealisticLamp(lamp, extra);
     const cpu = cpuMs(start);
     const status = result.pairing.status as string;
     const model = result.fit?.model ?? result.pairing.candidate?.model ?? null;

@@ -4,18 +4,13 @@
 // else offered to check, saying so. Instruments from the realistic-lamp generator
 // (tests/support/realistic-lamp.ts), judged against its true axis.
 import { describe, expect, it } from "vitest";
-import { calibrateLamp, type CalibrateLampOptions } from "@/lib/spectrum/analysis/calibrate-lamp";
-import { probeErrorRatio } from "../../../support/calibration-sweep";
+import type { CalibrateLampOptions } from "@/lib/spectrum/analysis/calibrate-lamp";
+import { calibrateRealisticLamp, probeErrorRatio } from "../../../support/calibration-sweep";
 import { realisticLamp, type RealisticLamp } from "../../../support/realistic-lamp";
 
 function calibrate(lamp: RealisticLamp, extra: Partial<CalibrateLampOptions> = {}) {
   expect(lamp.dispersion).not.toBe("prism");
-  return calibrateLamp(lamp.x, lamp.y, lamp.lines, {
-    nominalRangeNm: lamp.statedRangeNm,
-    dispersion: "grating",
-    resolutionNm: lamp.resolutionNm,
-    ...extra,
-  });
+  return calibrateRealisticLamp(lamp, extra);
 }
 
 describe("a grating's second opinion", () => {

@@ -2,9 +2,8 @@
 // shorter span that is left, the next pair can stand beyond a gap of its own, and is set aside in turn. An instrument
 // of the realistic-lamp generator (tests/support/realistic-lamp.ts), judged against its true axis.
 import { describe, expect, it } from "vitest";
-import { calibrateLamp } from "@/lib/spectrum/analysis/calibrate-lamp";
 import { evaluateCalibration } from "@/lib/spectrum/calibration";
-import { probeErrorRatio } from "../../../support/calibration-sweep";
+import { calibrateRealisticLamp, probeErrorRatio } from "../../../support/calibration-sweep";
 import { realisticLamp } from "../../../support/realistic-lamp";
 
 describe("pairs beyond gaps, one after another", () => {
@@ -13,11 +12,7 @@ describe("pairs beyond gaps, one after another", () => {
     // stand apart from the rest, He I 706.5 and 728.1 nm beyond one gap and 587.6 nm beyond another,
     // which the other pairs do not foretell uniquely (one round of setting aside would leave it "check").
     const lamp = realisticLamp(1296, { pixels: 2048 });
-    const result = calibrateLamp(lamp.x, lamp.y, lamp.lines, {
-      nominalRangeNm: lamp.statedRangeNm,
-      dispersion: "grating",
-      resolutionNm: lamp.resolutionNm,
-    });
+    const result = calibrateRealisticLamp(lamp);
     expect(result.pairing.status).toBe("paired");
     const model = result.fit!.model;
     expect(probeErrorRatio(lamp, model).ratio).toBeLessThanOrEqual(1);
@@ -38,11 +33,7 @@ describe("pairs beyond gaps, one after another", () => {
     // with no other peak or lamp line within reach, so they were not chosen by themselves; the
     // calibration covers them and is right there.
     const lamp = realisticLamp(9600101);
-    const result = calibrateLamp(lamp.x, lamp.y, lamp.lines, {
-      nominalRangeNm: lamp.statedRangeNm,
-      dispersion: "grating",
-      resolutionNm: lamp.resolutionNm,
-    });
+    const result = calibrateRealisticLamp(lamp);
     expect(result.pairing.status).toBe("paired");
     expect(result.pairing.message).not.toMatch(/set aside/);
     const paired = result.pairing.pairs.map((p) => p.wavelengthNm);
