@@ -595,11 +595,11 @@ function coversEnds(other: CalibrationModel, model: CalibrationModel, toleranceX
  * Pairs a second opinion needs to be trusted when the first search found no candidate to compare it
  * with (a prism's growth, a grating's draws): half again the minimum, since one route stands alone. A
  * grating's draws standing alone on nine pairs or more were right 5 of 5 times over 1,500 blind
- * instruments (seeds 12100000, 12200000, 12400000, 1000 and 1000 at 2048 pixels). For a prism's growth: Measured over 2,200 blind instruments of eight
- * seeds (1000, 2000, 9500000, 9600000, 9800000, 9900000, 10600000, 10700000): growth-only pairings
- * with at least nine pairs were right 27 of 27 times (with fewer, 8 of 9: the one wrong, an N-SF6
- * prism of 8 pairs, missed by 1.5 tolerances); on fresh prism seeds 10800000 and 10900000 (n 300
- * each) 12 of 12.
+ * instruments (seeds 12100000, 12200000, 12400000, 1000 and 1000 at 2048 pixels). A prism's growth,
+ * over 2,200 blind instruments of eight seeds (1000, 2000, 9500000, 9600000, 9800000, 9900000,
+ * 10600000, 10700000): growth-only pairings with at least nine pairs were right 27 of 27 times (with
+ * fewer, 8 of 9: the one wrong, an N-SF6 prism of 8 pairs, missed by 1.5 tolerances); on fresh prism
+ * seeds 10800000 and 10900000 (n 300 each) 12 of 12.
  */
 const SINGLE_ROUTE_PAIRS = Math.ceil(1.5 * MIN_TRUSTED_PAIRS);
 

@@ -4,8 +4,9 @@
 // other peak inside that window and no other lamp line whose own window holds that peak. Such pairs do
 // not decide the calibration at their end alone — the rest of the pairs chose them, uniquely — as long
 // as their centres are sound: a peak widened or split by a neighbour, or cut by the array's edge, is
-// off by a pull that would be the calibration's error there. Pairs that only fit themselves (a cluster shifted by one lamp line, which a flexible model bends onto) are
-// not foretold: the rest cannot put their lines within one peak of where they are.
+// off by a pull that would be the calibration's error there. Pairs that only fit themselves (a
+// cluster shifted by one lamp line, which a flexible model bends onto) are not foretold: the rest
+// cannot put their lines within one peak of where they are.
 import { blendPulls } from "./centre-uncertainty";
 import { elementOfSpecies } from "./element-of-species";
 import { growthDegree } from "./growth-degree";
@@ -26,6 +27,41 @@ const WEAK_RIVAL_RATIO = 0.05;
  */
 const EDGE_SIGMA_RATIO = 2;
 
+/** Where a model of some pairs puts a line, and how far from there it may land. */
+export interface PairsPrediction {
+  predictX: (wavelengthNm: number) => number;
+  /** A tolerance, three statistical σ and the next lower degree's disagreement (the model-form part). */
+  windowX: (wavelengthNm: number) => number;
+  /** Whether a lower degree measured the model-form part (a straight line has none to compare with). */
+  formMeasured: boolean;
+}
+
+/**
+ * A polynomial of `pairs` in the straightened axis, of the degree growth gives their support, with
+ * its prediction window; null when the pairs do not determine it.
+ */
+export function predictionOfPairs(
+  context: PairingContext,
+  pairs: readonly LampPair[],
+): PairsPrediction | null {
+  const g = context.straighten;
+  const gRange: [number, number] = [g(context.nominalRangeNm[0]), g(context.nominalRangeNm[1])];
+  const xs = pairs.map((p) => p.x);
+  const covered = (Math.max(...xs) - Math.min(...xs)) / (context.domain[1] - context.domain[0]);
+  const degree = Math.max(1, growthDegree(pairs.length, covered, context.dispersion));
+  const model = fitStraightenedPolynomial(pairs, g, gRange, degree);
+  if (!model) return null;
+  const lower = degree > 1 ? fitStraightenedPolynomial(pairs, g, gRange, degree - 1) : null;
+  return {
+    predictX: model.predictX,
+    windowX: (lambda) => {
+      const form = lower ? Math.abs(lower.predictX(lambda) - model.predictX(lambda)) : 0;
+      return context.toleranceX + 3 * model.sigmaX(lambda) + form;
+    },
+    formMeasured: lower !== null,
+  };
+}
+
 /** True when a model of `pairs` without `group` foretells every pair of `group` uniquely. */
 export function predictedByTheRest(
   context: PairingContext,
@@ -35,21 +71,11 @@ export function predictedByTheRest(
   const inGroup = new Set(group);
   const rest = pairs.filter((p) => !inGroup.has(p));
   if (group.length === 0 || rest.length < 3) return false;
-  const g = context.straighten;
-  const gRange: [number, number] = [g(context.nominalRangeNm[0]), g(context.nominalRangeNm[1])];
-  const spanX = context.domain[1] - context.domain[0];
-  const restXs = rest.map((p) => p.x);
-  const covered = (Math.max(...restXs) - Math.min(...restXs)) / spanX;
-  const degree = Math.max(1, growthDegree(rest.length, covered, context.dispersion));
-  const model = fitStraightenedPolynomial(rest, g, gRange, degree);
+  const prediction = predictionOfPairs(context, rest);
   // Without a lower degree to measure the model's form by, its window would claim a certainty the
   // rest does not have.
-  const lower = degree > 1 ? fitStraightenedPolynomial(rest, g, gRange, degree - 1) : null;
-  if (!model || !lower) return false;
-  const windowAt = (lambda: number) =>
-    context.toleranceX +
-    3 * model.sigmaX(lambda) +
-    Math.abs(lower.predictX(lambda) - model.predictX(lambda));
+  if (!prediction?.formMeasured) return false;
+  const { predictX, windowX } = prediction;
   // Whichever route paired them: a peak wider than its clean neighbours, or split from one, has a
   // centre pulled by a neighbour, and a pair beyond a gap carries its pull into the calibration there.
   const pulls = blendPulls(context.peaks);
@@ -62,8 +88,8 @@ export function predictedByTheRest(
   return group.every((pair) => {
     if (!soundCentre(pair)) return false;
     const line = context.lines[pair.lineIndex];
-    const predicted = model.predictX(line.wavelengthNm);
-    const window = windowAt(line.wavelengthNm);
+    const predicted = predictX(line.wavelengthNm);
+    const window = windowX(line.wavelengthNm);
     if (!(Math.abs(pair.x - predicted) <= window)) return false;
     const otherPeak = usable.some(
       (p) => p !== pair.peakIndex && Math.abs(context.peaks[p].x - predicted) <= window,
@@ -77,7 +103,7 @@ export function predictedByTheRest(
         rival.intensity < WEAK_RIVAL_RATIO * line.intensity
       )
         return false;
-      return Math.abs(model.predictX(rival.wavelengthNm) - pair.x) <= windowAt(rival.wavelengthNm);
+      return Math.abs(predictX(rival.wavelengthNm) - pair.x) <= windowX(rival.wavelengthNm);
     });
   });
 }

@@ -21,12 +21,10 @@ import { MIN_TRUSTED_PAIRS } from "./min-trusted-pairs";
 import { modelEvaluation } from "./model-evaluation";
 import type { PairingContext } from "./refine-lamp-pairing";
 import { elementOfSpecies } from "./element-of-species";
-import { growthDegree } from "./growth-degree";
 import { typicalPeakFwhm } from "./typical-peak-fwhm";
 import { jStat } from "jstat";
 import { CENTRE_FLOOR_FWHM } from "./centre-uncertainty";
-import { fitStraightenedPolynomial } from "./straightened-polynomial";
-import { predictedByTheRest } from "./predicted-by-the-rest";
+import { predictedByTheRest, predictionOfPairs } from "./predicted-by-the-rest";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
 /** One check of a pairing, with its measure and, when it fails, why in words. */
@@ -253,22 +251,15 @@ export function verifyLampPairing(
   let worstEnd = 0;
   let worstEndPair: LampPair | undefined;
   if (n >= 8) {
-    const g = context.straighten;
-    const gRange: [number, number] = [g(context.nominalRangeNm[0]), g(context.nominalRangeNm[1])];
-    const spanX = context.domain[1] - context.domain[0];
     for (const i of [0, 1, n - 2, n - 1]) {
-      const rest = sorted.filter((_, k) => k !== i);
-      const restXs = rest.map((p) => p.x);
-      const covered = (Math.max(...restXs) - Math.min(...restXs)) / spanX;
-      const restDegree = Math.max(1, growthDegree(rest.length, covered, context.dispersion));
-      const model = fitStraightenedPolynomial(rest, g, gRange, restDegree);
-      const lower =
-        restDegree > 1 ? fitStraightenedPolynomial(rest, g, gRange, restDegree - 1) : null;
-      if (!model) continue;
+      const prediction = predictionOfPairs(
+        context,
+        sorted.filter((_, k) => k !== i),
+      );
+      if (!prediction) continue;
       const lambda = sorted[i].wavelengthNm;
-      const form = lower ? Math.abs(lower.predictX(lambda) - model.predictX(lambda)) : 0;
-      const allowed = tol + 3 * model.sigmaX(lambda) + form;
-      const ratio = Math.abs(model.predictX(lambda) - sorted[i].x) / allowed;
+      const ratio =
+        Math.abs(prediction.predictX(lambda) - sorted[i].x) / prediction.windowX(lambda);
       if (ratio > worstEnd) {
         worstEnd = ratio;
         worstEndPair = sorted[i];
