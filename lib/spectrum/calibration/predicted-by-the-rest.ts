@@ -7,7 +7,7 @@
 // off by a pull that would be the calibration's error there. Pairs that only fit themselves (a
 // cluster shifted by one lamp line, which a flexible model bends onto) are not foretold: the rest
 // cannot put their lines within one peak of where they are.
-import { blendPulls } from "./centre-uncertainty";
+import { soundCentres } from "./centre-uncertainty";
 import { elementOfSpecies } from "./element-of-species";
 import { growthDegree } from "./growth-degree";
 import type { LampPair } from "./lamp-pairing-types";
@@ -20,12 +20,6 @@ import { usableLampPeaks } from "./search-lamp-pairing";
  * growth rules, lamp tables being rough by a factor of a few).
  */
 const WEAK_RIVAL_RATIO = 0.05;
-
-/**
- * A centre more uncertain than this many times the rest's median is not sound: the peak finder's σ of a
- * peak cut by the array's edge is its whole width.
- */
-const EDGE_SIGMA_RATIO = 2;
 
 /** Where a model of some pairs puts a line, and how far from there it may land. */
 export interface PairsPrediction {
@@ -76,13 +70,9 @@ export function predictedByTheRest(
   // rest does not have.
   if (!prediction?.formMeasured) return false;
   const { predictX, windowX } = prediction;
-  // Whichever route paired them: a peak wider than its clean neighbours, or split from one, has a
-  // centre pulled by a neighbour, and a pair beyond a gap carries its pull into the calibration there.
-  const pulls = blendPulls(context.peaks);
-  const sigmaOf = (pair: LampPair) => context.peaks[pair.peakIndex].xUncertainty ?? 0;
-  const sigmas = rest.map(sigmaOf).sort((a, b) => a - b);
-  const soundCentre = (pair: LampPair) =>
-    pulls[pair.peakIndex] === 0 && sigmaOf(pair) <= EDGE_SIGMA_RATIO * sigmas[sigmas.length >> 1];
+  // Whichever route paired them: a peak wider than its clean neighbours, split from one or cut by the
+  // array's edge has a pulled centre, and a pair beyond a gap carries its pull into the calibration there.
+  const soundCentre = soundCentres(context.peaks, rest);
   const usable = usableLampPeaks(context.peaks);
   const pairedLines = new Set(pairs.map((p) => p.lineIndex));
   return group.every((pair) => {

@@ -18,6 +18,7 @@ import { typicalPeakFwhm } from "./typical-peak-fwhm";
 import { fitForwardHartmann } from "./fit-forward-hartmann";
 import { verifyLampPairing, type PairingVerdict } from "./verify-lamp-pairing";
 import { trimPulledEnds } from "./trim-pulled-ends";
+import { claimSoundEnds } from "./claim-sound-ends";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
 /** `place` remembered per wavelength: the blend test asks again for every candidate line's place. */
@@ -256,7 +257,7 @@ export function finishLampPairing(
           (usedPairs.length - 4),
       )
     : refined.rmsX;
-  return withCheckedEnds(context, judge(context, usedPairs, fit, rmsX));
+  return claimSoundEnds(context, withCheckedEnds(context, judge(context, usedPairs, fit, rmsX)));
 }
 
 /**
@@ -400,7 +401,7 @@ function judgeFitted(
     usedFitted.reduce((s, p, i) => s + (p.residualNm / dispersion[i]) ** 2, 0) /
       Math.max(usedFitted.length - fit.model.parameters.length, 1),
   );
-  return withCheckedEnds(context, judge(context, usedPairs, fit, rmsX));
+  return claimSoundEnds(context, withCheckedEnds(context, judge(context, usedPairs, fit, rmsX)));
 }
 
 /**

@@ -8,7 +8,11 @@ import { finishGrownPairing } from "@/lib/spectrum/calibration/refine-lamp-pairi
 import { pairingContext } from "@/lib/spectrum/calibration/lamp-pairing-setup";
 import type { LampLine, LampPair, LampPeak } from "@/lib/spectrum/calibration/lamp-pairing-types";
 import { verifyLampPairing } from "@/lib/spectrum/calibration/verify-lamp-pairing";
-import { sweepOne } from "../../../support/calibration-sweep";
+import {
+  calibrateRealisticLamp,
+  probeErrorRatio,
+  sweepOne,
+} from "../../../support/calibration-sweep";
 import { realisticLamp } from "../../../support/realistic-lamp";
 
 const xOf = (nm: number) => 5 * (nm - 400);
@@ -168,6 +172,41 @@ describe("finishGrownPairing: pairs beyond a gap", () => {
   });
 });
 
+describe("finishGrownPairing: the covered range ends at sound pairs", () => {
+  const right = [550, 565, 580, 595, 610, 625, 640, 655, 670, 685, 700];
+  const finished = (widened?: { nm: number; fwhm: number }) => {
+    const { context, pairOf } = lampAt(right, widened ? { widened } : {});
+    return finishGrownPairing(
+      context,
+      right.map((_, k) => pairOf(k, k)),
+    );
+  };
+
+  it("claims up to the last pair whose peak stands clear, and fits the pulled end pair still", () => {
+    // 700 nm's peak is 8 px wide where its neighbours are 5 px: a pull of about 1.3 px, more than a
+    // tenth of its width, which the fit would follow at that end.
+    const result = finished({ nm: 700, fwhm: 8 });
+    expect(result.status).toBe("paired");
+    const model = result.model!.model;
+    expect(model.coveredX[1]).toBeCloseTo(xOf(685), 6);
+    expect(model.coveredNm).toEqual([550, 685]);
+    expect(result.pairs.map((p) => p.wavelengthNm)).toContain(700);
+    expect(result.message).toContain("Ne I 700.000 nm is fitted but not claimed");
+  });
+
+  it("claims every pair's range when the widened peak stands inside it, or is widened by little", () => {
+    for (const widened of [
+      { nm: 625, fwhm: 8 },
+      { nm: 700, fwhm: 5.2 },
+    ]) {
+      const result = finished(widened);
+      expect(result.status).toBe("paired");
+      expect(result.model!.model.coveredNm).toEqual([550, 700]);
+      expect(result.message).not.toContain("not claimed");
+    }
+  });
+});
+
 describe("realistic lamps seen in the blind sweep", () => {
   it("calibrates instrument 1300171 (a prism whose blue Ar I lines were once paired one line off)", () => {
     const record = sweepOne(realisticLamp(1_300_171));
@@ -182,6 +221,24 @@ describe("realistic lamps seen in the blind sweep", () => {
     const record = sweepOne(lamp);
     expect(record.status).not.toBe("paired");
     expect(record.message).toMatch(/3 pairs at an end of the covered range stand beyond a gap/);
+  }, 60_000);
+  it("claims instrument 13700072 only up to its last sound pair, where it is right", () => {
+    // Found on a fresh seed of the blind sweep (an Hg+Ne lamp on a straight grating): Ne I 540.056 nm,
+    // the blue end pair, is pulled 0.5 px by an unlisted neighbour; the cubic followed it, 0.073 nm
+    // wrong there, and it was "paired". It is still fitted, no longer claimed.
+    const lamp = realisticLamp(13_700_072);
+    const result = calibrateRealisticLamp(lamp);
+    expect(result.pairing.status).toBe("paired");
+    expect(result.pairing.message).toContain("Ne I 540.056 nm is fitted but not claimed");
+    const model = result.fit!.model;
+    expect(probeErrorRatio(lamp, model).ratio).toBeLessThanOrEqual(1);
+    // Claimed out to that pair, the same calibration is wrong at its end.
+    const pulled = result.pairing.pairs.find((p) => p.wavelengthNm === 540.056)!;
+    const claimedToIt: typeof model = {
+      ...model,
+      coveredX: [Math.min(model.coveredX[0], pulled.x), Math.max(model.coveredX[1], pulled.x)],
+    };
+    expect(probeErrorRatio(lamp, claimedToIt).ratio).toBeGreaterThan(1);
   }, 60_000);
   it("does not trust three red pairs 4 nm off beyond a gap once two blue end pairs are trimmed", () => {
     // Instrument 1500141: before, the end trimming left a quintic following Ne I 837.76–849.54 nm.
