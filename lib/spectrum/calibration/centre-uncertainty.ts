@@ -85,7 +85,7 @@ export function withCentreFloor(peaks: LampPeak[]): LampPeak[] {
  * How far each peak's centre may be pulled by a neighbour it blends with (see PULL_PER_EXTRA_SIGMA and
  * SPLIT_BLEND_SHARE), in x; 0 for a clean peak, and for one without the width or neighbours to judge.
  */
-export function blendPulls(peaks: readonly LampPeak[]): number[] {
+function blendPulls(peaks: readonly LampPeak[]): number[] {
   const neighbours = neighbourWidths(peaks);
   return peaks.map((peak, i) => blendPull(peak, neighbours[i]));
 }

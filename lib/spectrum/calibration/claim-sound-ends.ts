@@ -5,6 +5,7 @@
 // as that pull. The pulled pairs stay in the fit, where the pairs around them outvote them; only the
 // claim ends sooner.
 import { soundCentres } from "./centre-uncertainty";
+import { describePairs } from "./describe-pairs";
 import type { LampPairingResult } from "./lamp-pairing-types";
 import type { PairingContext } from "./refine-lamp-pairing";
 
@@ -23,9 +24,6 @@ export function claimSoundEnds(
   if (low <= model.coveredX[0] && high >= model.coveredX[1]) return result;
   const outside = result.pairs.filter((p) => p.x < low || p.x > high);
   const wavelengths = sound.map((p) => p.wavelengthNm);
-  const names = outside
-    .map((p) => `${p.species ?? ""} ${p.wavelengthNm.toFixed(3)} nm`.trim())
-    .join(", ");
   return {
     ...result,
     model: {
@@ -38,6 +36,6 @@ export function claimSoundEnds(
     },
     message:
       `${result.message}; the covered range ends at the outermost pairs whose peaks stand clear ` +
-      `(${names} ${outside.length > 1 ? "are" : "is"} fitted but not claimed: a neighbour or the array's edge pulls ${outside.length > 1 ? "their peaks" : "its peak"})`,
+      `(${describePairs(outside)} ${outside.length > 1 ? "are" : "is"} fitted but not claimed: a neighbour or the array's edge pulls ${outside.length > 1 ? "their peaks" : "its peak"})`,
   };
 }

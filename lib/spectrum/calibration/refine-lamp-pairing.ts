@@ -19,6 +19,7 @@ import { fitForwardHartmann } from "./fit-forward-hartmann";
 import { verifyLampPairing, type PairingVerdict } from "./verify-lamp-pairing";
 import { trimPulledEnds } from "./trim-pulled-ends";
 import { claimSoundEnds } from "./claim-sound-ends";
+import { describePairs } from "./describe-pairs";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
 /** `place` remembered per wavelength: the blend test asks again for every candidate line's place. */
@@ -378,11 +379,6 @@ function withCheckedEnds(context: PairingContext, result: LampPairingResult): La
         ? `; then ${counted(kept.aside.length, "pair")} beyond a wide gap (${describePairs(kept.aside)})`
         : ""),
   };
-}
-
-/** "Ar I 416.418 nm, Ar I 418.188 nm" */
-function describePairs(pairs: readonly LampPair[]): string {
-  return pairs.map((p) => `${p.species ?? ""} ${p.wavelengthNm.toFixed(3)} nm`.trim()).join(", ");
 }
 
 /** Judges a final fit of `pairs`: its used pairs, and its precision in x (residuals through the local dispersion). */
