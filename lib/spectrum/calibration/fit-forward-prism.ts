@@ -10,7 +10,7 @@ import { jacobianCovariance } from "./jacobian-covariance";
 import type { ForwardHartmannPoint } from "./fit-forward-hartmann";
 import { cameraTangent, prismDeviationRad } from "./prism-forward";
 import { refractiveIndex } from "./refractive-index";
-import { dampedStep, lineProjection, weightedLine } from "./weighted-line";
+import { dampedStep, lineProjection, twoParameterNormal, weightedLine } from "./weighted-line";
 
 const DEG = Math.PI / 180;
 
@@ -244,13 +244,14 @@ export function fitForwardPrism(
     let incidence = startIncidence;
     let axisAngle = 0;
     let current = projected(incidence, axisAngle);
+    let normal = twoParameterNormal(current.columns, current.residual);
     let damping = 1e-6;
     for (
       let iteration = 0;
       iteration < 60 && Number.isFinite(current.chiSquare) && damping < 1e10;
       iteration++
     ) {
-      const step = dampedStep(current.columns, current.residual, damping);
+      const step = dampedStep(normal, damping);
       if (!step) {
         damping *= 10;
         continue;
@@ -268,6 +269,7 @@ export function fitForwardPrism(
         incidence = nextIncidence;
         axisAngle = nextAxisAngle;
         current = trial;
+        normal = twoParameterNormal(current.columns, current.residual);
         damping = Math.max(damping / 10, 1e-12);
         if (converged) break;
       } else {

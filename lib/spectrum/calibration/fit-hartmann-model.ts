@@ -15,7 +15,7 @@ import {
   type CovarianceScaling,
   type ModelFitInput,
 } from "./model-fit-input";
-import { dampedStep, lineProjection, weightedLine } from "./weighted-line";
+import { dampedStep, lineProjection, twoParameterNormal, weightedLine } from "./weighted-line";
 
 /** Closest the pole may come to the array's edge, in normalised units (keeps λ finite on the array). */
 const POLE_MARGIN = 1e-3;
@@ -101,9 +101,10 @@ function refine(
       project(u.map((value, i) => (w[i] * c * -alpha * side * value) / base[i])).rest,
       project(u.map((value, i) => w[i] * c * -value * Math.log(base[i]))).rest,
     ];
+    const normal = twoParameterNormal(columns, residual);
     let next: typeof current | undefined;
     for (let attempt = 0; attempt < 30 && !next; attempt++) {
-      const stepped = dampedStep(columns, residual, damping);
+      const stepped = dampedStep(normal, damping);
       const trial = stepped
         ? at(clampPole(current.t0 + stepped[0]), clampAlpha(alpha + stepped[1]))
         : undefined;

@@ -184,6 +184,8 @@ export function verifyLampPairing(
 ): PairingVerdict {
   const limits = PAIRING_CHECK_LIMITS;
   const tol = context.toleranceX;
+  // The lines' typical width in x (two tolerances when the peaks do not tell).
+  const fwhmX = typicalPeakFwhm(context.peaks) ?? 2 * tol;
   const checks: PairingCheck[] = [];
   const n = pairs.length;
   checks.push({
@@ -379,7 +381,6 @@ export function verifyLampPairing(
   let seen = 0;
   let expected = 0;
   if (predict) {
-    const fwhmX = typicalPeakFwhm(context.peaks) ?? 2 * tol;
     const peakX = context.peaks.map((p) => p.x).sort((a, b) => a - b);
     const byElement = new Map<string, number[]>();
     for (const l of context.candidateLines) {
@@ -440,7 +441,7 @@ export function verifyLampPairing(
   // glass outside the catalogue, bent towards the nearest one inside it), however small its RMS. No
   // centre counts as better known than the 3 % floor of the typical line width (a route that kept a
   // finder's σ of 0.001 px would otherwise fail every fit).
-  const centreFloor = CENTRE_FLOOR_FWHM * (typicalPeakFwhm(context.peaks) ?? 2 * tol);
+  const centreFloor = CENTRE_FLOOR_FWHM * fwhmX;
   const chiSquare = used.reduce(
     (sum, p, i) =>
       sum + (p.residualNm / slopes[i] / Math.max(p.xUncertainty ?? 0, centreFloor)) ** 2,

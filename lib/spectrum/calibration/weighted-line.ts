@@ -10,29 +10,44 @@ export interface WeightedLine {
   chiSquare: number;
 }
 
+/**
+ * Σw, Σw·u, Σw·u² with `weightAt(i)` as w, and with `y`, Σw·y and Σw·u·y: the normal equations of a
+ * weighted straight line in u.
+ */
+function lineSums(
+  u: ArrayLike<number>,
+  weightAt: (i: number) => number,
+  y?: ArrayLike<number>,
+): { s0: number; s1: number; s2: number; sy: number; suy: number } {
+  let s0 = 0,
+    s1 = 0,
+    s2 = 0,
+    sy = 0,
+    suy = 0;
+  for (let i = 0; i < u.length; i++) {
+    const w = weightAt(i);
+    s0 += w;
+    s1 += w * u[i];
+    s2 += w * u[i] * u[i];
+    if (y) {
+      sy += w * y[i];
+      suy += w * u[i] * y[i];
+    }
+  }
+  return { s0, s1, s2, sy, suy };
+}
+
 /** The weighted least-squares line y ≈ intercept + slope·u (weights 1/σ²); NaN parameters when u does not vary. */
 export function weightedLine(
   u: ArrayLike<number>,
   y: ArrayLike<number>,
   sigma: ArrayLike<number>,
 ): WeightedLine {
-  let sw = 0,
-    su = 0,
-    sy = 0,
-    suu = 0,
-    suy = 0;
-  for (let i = 0; i < u.length; i++) {
-    const w = 1 / sigma[i] ** 2;
-    sw += w;
-    su += w * u[i];
-    sy += w * y[i];
-    suu += w * u[i] * u[i];
-    suy += w * u[i] * y[i];
-  }
-  const determinant = sw * suu - su * su;
+  const { s0, s1, s2, sy, suy } = lineSums(u, (i) => 1 / sigma[i] ** 2, y);
+  const determinant = s0 * s2 - s1 * s1;
   if (!(determinant > 0)) return { intercept: Number.NaN, slope: Number.NaN, chiSquare: Infinity };
-  const slope = (sw * suy - su * sy) / determinant;
-  const intercept = (sy - slope * su) / sw;
+  const slope = (s0 * suy - s1 * sy) / determinant;
+  const intercept = (sy - slope * s1) / s0;
   let chiSquare = 0;
   for (let i = 0; i < u.length; i++)
     chiSquare += ((y[i] - intercept - slope * u[i]) / sigma[i]) ** 2;
@@ -51,14 +66,7 @@ export function lineProjection(
   determinant: number;
   project: (v: readonly number[]) => { alpha: number; beta: number; rest: number[] };
 } {
-  let s11 = 0,
-    s12 = 0,
-    s22 = 0;
-  for (let i = 0; i < w.length; i++) {
-    s11 += w[i] * w[i];
-    s12 += w[i] * w[i] * u[i];
-    s22 += w[i] * w[i] * u[i] * u[i];
-  }
+  const { s0: s11, s1: s12, s2: s22 } = lineSums(u, (i) => w[i] * w[i]);
   const determinant = s11 * s22 - s12 * s12;
   const project = (v: readonly number[]) => {
     let t1 = 0,
@@ -74,15 +82,20 @@ export function lineProjection(
   return { determinant, project };
 }
 
-/**
- * The Levenberg-damped Gauss–Newton step over two parameters from their projected Jacobian columns and
- * the whitened residuals; null when the damped normal matrix is singular.
- */
-export function dampedStep(
+/** The Gauss–Newton normal equations over two parameters: JᵀJ (a00, a01, a11) and Jᵀr (g0, g1). */
+export interface TwoParameterNormal {
+  a00: number;
+  a01: number;
+  a11: number;
+  g0: number;
+  g1: number;
+}
+
+/** The normal equations from two projected Jacobian columns and the whitened residuals. */
+export function twoParameterNormal(
   [j0, j1]: readonly [readonly number[], readonly number[]],
   residual: readonly number[],
-  damping: number,
-): [number, number] | null {
+): TwoParameterNormal {
   let a00 = 0,
     a01 = 0,
     a11 = 0,
@@ -95,6 +108,17 @@ export function dampedStep(
     g0 += j0[i] * residual[i];
     g1 += j1[i] * residual[i];
   }
+  return { a00, a01, a11, g0, g1 };
+}
+
+/**
+ * The Levenberg-damped Gauss–Newton step over two parameters from their normal equations (worked out
+ * once per point, whatever the damping tried there); null when the damped matrix is singular.
+ */
+export function dampedStep(
+  { a00, a01, a11, g0, g1 }: TwoParameterNormal,
+  damping: number,
+): [number, number] | null {
   const d00 = a00 * (1 + damping);
   const d11 = a11 * (1 + damping);
   const determinant = d00 * d11 - a01 * a01;

@@ -6,20 +6,15 @@
 //   are uncertain: a glass that is not the instrument's, bent to fit, is wrong at an end however small
 //   its RMS.
 import { describe, expect, it } from "vitest";
-import { calibrateLamp } from "@/lib/spectrum/analysis/calibrate-lamp";
 import { fitCalibration } from "@/lib/spectrum/calibration";
-import { probeErrorRatio } from "../../../support/calibration-sweep";
+import { calibrateRealisticLamp, probeErrorRatio } from "../../../support/calibration-sweep";
 import { realisticLamp } from "../../../support/realistic-lamp";
 
 /** The prism instrument of `seed` (whose glass must be `glass`), calibrated automatically. */
 function calibratedPrism(seed: number, glass: string) {
   const lamp = realisticLamp(seed, { dispersion: "prism" });
   expect(lamp.glass).toBe(glass);
-  const result = calibrateLamp(lamp.x, lamp.y, lamp.lines, {
-    nominalRangeNm: lamp.statedRangeNm,
-    dispersion: "prism",
-    resolutionNm: lamp.resolutionNm,
-  });
+  const result = calibrateRealisticLamp(lamp);
   const check = (name: string) => result.pairing.checks?.find((c) => c.name === name);
   return { lamp, result, check };
 }
