@@ -2,7 +2,9 @@
 // the smallest height its principal line could have had and still been found as a peak at the
 // noise where it falls: an upper limit, in counts and against the strongest peak seen.
 import type { ElementCall } from "../matching/score-elements";
+import { firstAbove, lowerBound } from "../matching/lower-bound";
 import type { LineIndex } from "../matching/prepare-line-index";
+import { walkStrongestFirst } from "../matching/walk-strongest-first";
 import type { SourceKind } from "../types";
 
 /** The detection limit of an absent species' principal line. */
@@ -49,12 +51,21 @@ export function detectionLimits(
     if (call.verdict !== "absent") continue;
     const lines = bySpecies.get(call.species);
     if (!lines) continue;
-    const { relative } = lines.bySource[source];
+    const { relative, maxTree } = lines.bySource[source];
+    // The atomic lines and the band heads are each sorted by wavelength; each run's strongest rated
+    // line in range comes off the range-maximum tree without visiting the others, the earlier
+    // position winning a tie (a band head only when strictly stronger).
     let best = -1;
-    for (let p = 0; p < lines.nm.length; p++) {
-      const nm = lines.nm[p];
-      if (!(nm >= rangeNm[0] && nm <= rangeNm[1]) || !(relative[p] > 0)) continue;
-      if (best < 0 || relative[p] > relative[best]) best = p;
+    for (const [first, end] of [
+      [0, lines.atomicCount],
+      [lines.atomicCount, lines.nm.length],
+    ]) {
+      const from = lowerBound(lines.nm, rangeNm[0], first, end);
+      const to = firstAbove(lines.nm, rangeNm[1], from, end);
+      walkStrongestFirst(maxTree, from, to, Number.MIN_VALUE, (p) => {
+        if (best < 0 || relative[p] > relative[best]) best = p;
+        return false;
+      });
     }
     if (best < 0) continue;
     const noiseCounts = noiseAtNm(lines.nm[best]);

@@ -1,4 +1,5 @@
-// Binary search on an ascending typed array: the first position whose value is not below a target.
+// Binary search on an ascending typed array: the first position whose value is not below a target,
+// or above it.
 
 /** Index of the first element ≥ target in ascending `values[from … to)` (`to` when none is). */
 export function lowerBound(
@@ -12,6 +13,23 @@ export function lowerBound(
   while (lo < hi) {
     const mid = (lo + hi) >>> 1;
     if (values[mid] < target) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+/** Index of the first element > target in ascending `values[from … to)` (`to` when none is). */
+export function firstAbove(
+  values: Float64Array,
+  target: number,
+  from = 0,
+  to = values.length,
+): number {
+  let lo = from;
+  let hi = to;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (values[mid] <= target) lo = mid + 1;
     else hi = mid;
   }
   return lo;

@@ -4,7 +4,7 @@ import type { CalibratedPeak, ReferenceLine, SourceKind } from "../types";
 import type { LineCandidate, PeakMatch } from "./match-peaks-to-lines";
 import { countAtLeast } from "./count-at-least";
 import { depthIntoBandNm } from "./depth-into-band";
-import { lowerBound } from "./lower-bound";
+import { firstAbove, lowerBound } from "./lower-bound";
 import { twoLineDip } from "./two-line-dip";
 import { sumAtLeast } from "./sum-at-least";
 import { walkStrongestFirst } from "./walk-strongest-first";
@@ -1406,17 +1406,6 @@ function borrowed(info: SpeciesInfo, source: SourceKind): boolean {
 }
 
 /** Index of the first element > target in ascending `values[from … to)` (`to` when none is). */
-function firstAbove(values: Float64Array, target: number, from: number, to: number): number {
-  let lo = from;
-  let hi = to;
-  while (lo < hi) {
-    const mid = (lo + hi) >>> 1;
-    if (values[mid] <= target) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo;
-}
-
 function peakSpan(matches: readonly PeakMatch[]): [number, number] {
   if (matches.length === 0) return [0, 0];
   let low = Infinity;

@@ -1,8 +1,13 @@
 // An absent call carries a detection limit: the least height its strongest line in range needed to be
 // found, checked against a hand calculation from the noise the spectrum was made with.
+import fc from "fast-check";
 import { describe, it, expect } from "vitest";
 import { analyzeSample } from "../../../../lib/spectrum/analysis";
+import { detectionLimits } from "../../../../lib/spectrum/analysis/detection-limits";
+import type { ElementCall } from "../../../../lib/spectrum/matching/score-elements";
+import { prepareLineIndex } from "../../../../lib/spectrum/matching/prepare-line-index";
 import { makeRandom } from "../../../../lib/spectrum/synthetic/make-random";
+import "../../../support/fast-check-seed";
 import { inventedLine } from "../../../support/invented-line";
 
 // An invented table: Xa is in the sample; Yb (principal 600 nm) and Zc (principal 800 nm, outside
@@ -60,5 +65,72 @@ describe("detection limits of absent calls", () => {
 
   it("gives none for a species that is not absent", () => {
     expect(analysis.detectionLimits["Xa I"]).toBeUndefined();
+  });
+});
+
+describe("the line a detection limit is given for", () => {
+  // The rule read straight off the rows: the strongest rated line of the species in range, an atomic
+  // line before a band head of the same strength, then the shorter wavelength.
+  const byScan = (rows: ReturnType<typeof inventedLine>[], range: [number, number]) => {
+    const strongest = Math.max(...rows.map((l) => l.intensities.flame ?? 0));
+    const rated = rows
+      .filter((l) => l.airNm >= range[0] && l.airNm <= range[1] && (l.intensities.flame ?? 0) > 0)
+      .sort(
+        (a, b) =>
+          b.intensities.flame! - a.intensities.flame! ||
+          Number(Boolean(a.flags.bandHead)) - Number(Boolean(b.flags.bandHead)) ||
+          a.airNm - b.airNm,
+      );
+    return rated.length === 0
+      ? undefined
+      : { lineNm: rated[0].airNm, principal: rated[0].intensities.flame === strongest };
+  };
+  const row = fc.record({
+    species: fc.constantFrom("Xa I", "Yb I", "Zc I"),
+    // Few distinct places and strengths, so ties of both are common.
+    airNm: fc.integer({ min: 0, max: 40 }).map((i) => 400 + 5 * i),
+    flame: fc.option(
+      fc.integer({ min: 1, max: 4 }).map((i) => 250 * i),
+      { nil: undefined },
+    ),
+    band: fc.boolean(),
+  });
+
+  it("is the one a scan of the rows picks, found without visiting every line", () => {
+    fc.assert(
+      fc.property(
+        fc.array(row, { minLength: 1, maxLength: 40 }),
+        fc.tuple(fc.integer({ min: 380, max: 620 }), fc.integer({ min: 0, max: 250 })),
+        (rows, [low, span]) => {
+          const lines = rows.map((r, i) =>
+            inventedLine(r.species, r.airNm, r.flame === undefined ? {} : { flame: r.flame }, {
+              id: `row-${i}`,
+              ...(r.band
+                ? { band: { extentNm: 2, degradesTo: "red" as const }, flags: { bandHead: true } }
+                : {}),
+            }),
+          );
+          const range: [number, number] = [low, low + span];
+          const species = [...new Set(lines.map((l) => l.species))];
+          const calls = species.map((name) => ({ species: name, verdict: "absent" }));
+          const limits = detectionLimits(calls as ElementCall[], {
+            index: prepareLineIndex(lines),
+            source: "flame",
+            rangeNm: range,
+            noiseAtNm: () => 2,
+            minSnr: 5,
+            tallestHeight: 100,
+          });
+          for (const name of species) {
+            const expected = byScan(
+              lines.filter((l) => l.species === name),
+              range,
+            );
+            const limit = limits.get(name);
+            expect(limit && { lineNm: limit.lineNm, principal: limit.principal }).toEqual(expected);
+          }
+        },
+      ),
+    );
   });
 });
