@@ -72,7 +72,8 @@ const lampLines: LampLine[] = starterLines
     id: l.id,
   }));
 
-/** A large table: the starter lines plus invented filler lines, for timing only. */
+/** A large table: the starter lines plus invented filler lines, for timing only; in wavelength order,
+ * as the app loads a release (lineIndexOf in lib/services/runs.ts). */
 function syntheticTable(size: number): ReferenceLine[] {
   const random = makeRandom(size);
   const table = starterLines.slice();
@@ -92,7 +93,7 @@ function syntheticTable(size: number): ReferenceLine[] {
       flags: {},
     });
   }
-  return table;
+  return table.sort((a, b) => a.airNm - b.airNm);
 }
 
 // Resolution of the benchmark's samples: lines about 6 pixels wide at every array length, as a

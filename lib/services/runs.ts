@@ -56,13 +56,21 @@ import {
 } from "./workflow-types";
 
 // Published releases never change, so an index prepared once per release serves every later run.
+// Its lines are loaded in wavelength order: the order is then the same on every load (ties between
+// lines follow it), and lines near one another in wavelength sit near one another in the index's
+// arrays, which the matching reads by table position.
 const indexCache = new Map<string, Promise<LineIndex>>();
 const MAX_CACHED_RELEASES = 16;
 
 function lineIndexOf(releaseId: string): Promise<LineIndex> {
   let index = indexCache.get(releaseId);
   if (!index) {
-    index = selectLines("l.release_id = $1", [releaseId]).then((rows) =>
+    index = selectLines(
+      "l.release_id = $1",
+      [releaseId],
+      undefined,
+      "ORDER BY coalesce(l.air_nm, l.vacuum_nm), l.id",
+    ).then((rows) =>
       prepareLineIndex(rows.map((row) => toReferenceLine(toLineTableRow(row), row.id))),
     );
     index.catch(() => indexCache.delete(releaseId));

@@ -141,21 +141,21 @@ export function matchPeaksToLines(
     const from = peak.broad
       ? index.lineWavelengthNm.length
       : lowerBound(index.lineWavelengthNm, peak.wavelengthNm - lineReachNm);
-    for (let i = from; i < index.lineWavelengthNm.length; i++) {
-      const referenceNm = index.lineWavelengthNm[i];
+    const { lineWavelengthNm, lineUncertaintyNm, lineOrder } = index;
+    for (let i = from; i < lineWavelengthNm.length; i++) {
+      const referenceNm = lineWavelengthNm[i];
       if (referenceNm > peak.wavelengthNm + lineReachNm) break;
-      const lineIndex = index.lineOrder[i];
-      const line = index.lines[lineIndex];
       const sigmaNm = Math.max(
         MINIMUM_SIGMA_NM,
-        Math.sqrt(baseVarianceNm2 + line.uncertaintyNm ** 2),
+        Math.sqrt(baseVarianceNm2 + lineUncertaintyNm[i] ** 2),
       );
       const deltaNm = peak.wavelengthNm - referenceNm;
       const deltaSigma = deltaNm / sigmaNm;
       if (Math.abs(deltaSigma) <= k) {
+        const lineIndex = lineOrder[i];
         candidates.push({
           lineIndex,
-          line,
+          line: index.lines[lineIndex],
           kind: "line",
           referenceNm,
           deltaNm,

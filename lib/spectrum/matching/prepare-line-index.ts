@@ -53,6 +53,9 @@ export interface LineIndex {
   lineWavelengthNm: Float64Array;
   /** lines[lineOrder[i]] has wavelength lineWavelengthNm[i]. */
   lineOrder: Uint32Array;
+  /** Tabulated uncertainty in nm of lines[lineOrder[i]], beside its wavelength so the search reads
+   * neither the line's row nor its place in the table. */
+  lineUncertaintyNm: Float64Array;
   /** Largest tabulated uncertainty among the atomic lines, in nm; bounds the search window. */
   maxLineUncertaintyNm: number;
   /** Band-head wavelengths in nm, ascending. */
@@ -127,6 +130,7 @@ export function prepareLineIndex(
     medium,
     lineWavelengthNm: Float64Array.from(atomic, (i) => wavelengthNm[i]),
     lineOrder,
+    lineUncertaintyNm: Float64Array.from(atomic, (i) => lines[i].uncertaintyNm),
     maxLineUncertaintyNm,
     bandHeadNm: Float64Array.from(bands, (i) => wavelengthNm[i]),
     bandOrder,

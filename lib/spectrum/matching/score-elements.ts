@@ -208,6 +208,8 @@ interface SpeciesWork {
   score: number;
   /** Peaks of which the species could have made a fair share (EXPLAINING_SHARE or more). */
   heldPeaks: number[];
+  /** Its faintest rated line in the judged range (Infinity: none), once unseenLinesAllow needs it. */
+  faintestJudged?: number;
 }
 
 const VERDICT_RANK: Record<Verdict, number> = { present: 0, possible: 1, absent: 2 };
@@ -294,13 +296,16 @@ export function scoreElements(
   let flat = 0;
   for (let m = 0; m < matches.length; m++) {
     const match = matches[m];
+    // One line of each peak tells a table other than the one scored (a check of every candidate
+    // would read the table's rows at random, one cache miss per line).
+    const first = match.candidates[0];
+    if (first && index.lines[first.lineIndex] !== first.line) {
+      throw new RangeError(
+        `peak ${match.peakIndex} was matched against a different line table than the one scored`,
+      );
+    }
     for (let c = 0; c < match.candidates.length; c++, flat++) {
       const candidate = match.candidates[c];
-      if (index.lines[candidate.lineIndex] !== candidate.line) {
-        throw new RangeError(
-          `peak ${match.peakIndex} was matched against a different line table than the one scored`,
-        );
-      }
       candidateMatch[flat] = m;
       candidateAt[flat] = c;
       if (stamp[candidate.lineIndex] !== generation) {
@@ -684,10 +689,14 @@ function unseenLinesAllow(
   const ranges = [rival.info.atomicJudged, rival.info.bandsJudged];
   let here = relative[context.index.positionInSpecies[lineIndex]];
   if (Number.isNaN(here)) {
-    here = Infinity;
-    for (const [from, to] of ranges) {
-      for (let p = from; p < to; p++) if (relative[p] < here) here = relative[p];
+    if (rival.faintestJudged === undefined) {
+      let faintest = Infinity;
+      for (const [from, to] of ranges) {
+        for (let p = from; p < to; p++) if (relative[p] < faintest) faintest = relative[p];
+      }
+      rival.faintestJudged = faintest;
     }
+    here = rival.faintestJudged;
     if (here === Infinity) return true;
   }
   if (!(peakSnr > 0)) return true;

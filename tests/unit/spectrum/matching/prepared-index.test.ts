@@ -4,6 +4,8 @@ import { describe, it, expect } from "vitest";
 import { identifyElements, prepareLineIndex } from "../../../../lib/spectrum/matching";
 import { buildMaxTree } from "../../../../lib/spectrum/matching/build-max-tree";
 import { collectAtLeast } from "../../../../lib/spectrum/matching/collect-at-least";
+import { matchPeaksToLines } from "../../../../lib/spectrum/matching/match-peaks-to-lines";
+import { scoreElements } from "../../../../lib/spectrum/matching/score-elements";
 import type { ReferenceLine } from "../../../../lib/spectrum/types";
 import { makeRandom } from "../../../../lib/spectrum/synthetic";
 import { flameRun, FLAME_RANGE_NM, FLAME_RESOLUTION_NM } from "./flame-fixture";
@@ -20,6 +22,17 @@ describe("a prepared line index", () => {
     const raw = identifyElements(run.peaks, run.table, OPTIONS);
     const prepared = identifyElements(run.peaks, prepareLineIndex(run.table), OPTIONS);
     expect(JSON.stringify(prepared)).toBe(JSON.stringify(raw));
+  });
+
+  it("refuses to score matches made against another table", () => {
+    const index = prepareLineIndex(run.table);
+    const matches = matchPeaksToLines(run.peaks, index, OPTIONS);
+    // The same lines in reverse order: every candidate's table position now names another line.
+    const reversed = prepareLineIndex(run.table.slice().reverse());
+    expect(() => scoreElements(matches, reversed, OPTIONS)).toThrow(
+      /was matched against a different line table than the one scored/,
+    );
+    expect(() => scoreElements(matches, index, OPTIONS)).not.toThrow();
   });
 
   it("leaves the calls unchanged when 100,000 lines of an unrelated species lie far from every peak", () => {
