@@ -16,12 +16,17 @@ from scipy.signal import find_peaks, peak_widths, savgol_filter
 from scipy.linalg import solveh_banded
 
 
+# The same warm-up rule as bench/spectrum-bench.ts: at least this many runs, and for at least this long.
 WARM_UP_RUNS = 5
+WARM_UP_SECONDS = 0.3
 
 
 def median_ms(fn, reps):
-    for _ in range(min(WARM_UP_RUNS, reps)):
+    warm_until = time.perf_counter() + WARM_UP_SECONDS
+    runs = 0
+    while runs < min(WARM_UP_RUNS, reps) or time.perf_counter() < warm_until:
         fn()
+        runs += 1
     samples = []
     for _ in range(reps):
         start = time.perf_counter()
