@@ -8,14 +8,7 @@ export function lowerBound(
   from = 0,
   to = values.length,
 ): number {
-  let lo = from;
-  let hi = to;
-  while (lo < hi) {
-    const mid = (lo + hi) >>> 1;
-    if (values[mid] < target) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo;
+  return firstPast(values, target, from, to, false);
 }
 
 /** Index of the first element > target in ascending `values[from … to)` (`to` when none is). */
@@ -25,11 +18,22 @@ export function firstAbove(
   from = 0,
   to = values.length,
 ): number {
+  return firstPast(values, target, from, to, true);
+}
+
+/** The first position whose value is not below target, or, with `pastEqual`, above it. */
+function firstPast(
+  values: Float64Array,
+  target: number,
+  from: number,
+  to: number,
+  pastEqual: boolean,
+): number {
   let lo = from;
   let hi = to;
   while (lo < hi) {
     const mid = (lo + hi) >>> 1;
-    if (values[mid] <= target) lo = mid + 1;
+    if (values[mid] < target || (pastEqual && values[mid] === target)) lo = mid + 1;
     else hi = mid;
   }
   return lo;

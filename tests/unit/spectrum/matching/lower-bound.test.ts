@@ -1,0 +1,39 @@
+// The two binary searches every range look-up of the line index rests on, against a linear scan.
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { firstAbove, lowerBound } from "@/lib/spectrum/matching/lower-bound";
+import "../../../support/fast-check-seed";
+
+describe("lowerBound and firstAbove", () => {
+  it("find the first position at or above, and above, the target, inside the given bounds", () => {
+    fc.assert(
+      fc.property(
+        // Few distinct values, so that runs of equal values are common.
+        fc.array(fc.integer({ min: 0, max: 8 }), { maxLength: 30 }),
+        fc.integer({ min: -1, max: 9 }),
+        fc.nat(),
+        fc.nat(),
+        (raw, target, a, b) => {
+          const values = Float64Array.from(raw.sort((x, y) => x - y));
+          const from = values.length === 0 ? 0 : a % (values.length + 1);
+          const to = from + (values.length === 0 ? 0 : b % (values.length - from + 1));
+          const scan = (past: (v: number) => boolean) => {
+            let i = from;
+            while (i < to && past(values[i])) i++;
+            return i;
+          };
+          expect(lowerBound(values, target, from, to)).toBe(scan((v) => v < target));
+          expect(firstAbove(values, target, from, to)).toBe(scan((v) => v <= target));
+        },
+      ),
+    );
+  });
+
+  it("search the whole array by default", () => {
+    const values = Float64Array.of(1, 2, 2, 2, 3);
+    expect(lowerBound(values, 2)).toBe(1);
+    expect(firstAbove(values, 2)).toBe(4);
+    expect(lowerBound(values, 9)).toBe(5);
+    expect(firstAbove(values, 0)).toBe(0);
+  });
+});
