@@ -19,11 +19,13 @@ import {
 const SEED = 1000;
 const COUNT = 300;
 /**
- * Measured on these seeds when the floors were last set (the covered range ends at the outermost
- * pairs whose centres are sound, and a sound centre allows a pull of a tenth of its width): silent
- * wrong 0.67 % (2 of 300; target ≤ 0.5 %), success 65.8 % of the 281 eligible instruments (target
- * ≥ 95 %), 0 exceptions; over 1,500 blind instruments of five seeds successes 924 → 952 and silent
- * wrongs 16 → 11. Before: 0.67 % and 64.8 % (a grating whose growth trusts nothing gets the
+ * Measured on these seeds when the floors were last set (a grating paired at twelve lines or more
+ * may scatter by a quarter of a tolerance): silent wrong 0.67 % (2 of 300; target ≤ 0.5 %), success
+ * 66.9 % of the 281 eligible instruments (target ≥ 95 %), 0 exceptions; over 1,500 blind instruments
+ * of five seeds successes 952 → 959 with 11 silent wrongs before and after. Before: 0.67 % and 65.8 %
+ * (the covered range ends at the outermost pairs whose centres are sound, and a sound centre allows a
+ * pull of a tenth of its width; on the same 1,500, successes 924 → 952 and silent wrongs 16 → 11).
+ * Before: 0.67 % and 64.8 % (a grating whose growth trusts nothing gets the
  * whole-array draws as a second opinion; on the same 1,500, 912 → 924 successes with 16 silent
  * wrongs before and after). Before: 0.67 % and 64.1 % (pairs beyond a gap that the rest foretold, each on the one clean peak its line
  * could take, no longer flagged for their gap; three beyond a gap looked for from seven pairs on; on
@@ -62,7 +64,7 @@ const COUNT = 300;
  * %.
  */
 const SILENT_WRONG_FLOOR = 0.007;
-const SUCCESS_FLOOR = 0.655;
+const SUCCESS_FLOOR = 0.665;
 /**
  * Recalibration from the previous calibration, 100 instruments: success 78.5 % of 93 eligible and no
  * silent wrong with centres weighed as the blind fit weighs them and a prism's second opinion (the

@@ -7,7 +7,10 @@ import { evaluateCalibration, fitCalibration } from "@/lib/spectrum/calibration"
 import { finishGrownPairing } from "@/lib/spectrum/calibration/refine-lamp-pairing";
 import { pairingContext } from "@/lib/spectrum/calibration/lamp-pairing-setup";
 import type { LampLine, LampPair, LampPeak } from "@/lib/spectrum/calibration/lamp-pairing-types";
-import { verifyLampPairing } from "@/lib/spectrum/calibration/verify-lamp-pairing";
+import {
+  PAIRING_CHECK_LIMITS,
+  verifyLampPairing,
+} from "@/lib/spectrum/calibration/verify-lamp-pairing";
 import {
   calibrateRealisticLamp,
   probeErrorRatio,
@@ -122,6 +125,39 @@ describe("verifyLampPairing: lopsided support", () => {
     const check = verdict.checks.find((c) => c.name === "lopsided-support")!;
     expect(check.passed).toBe(false);
     expect(verdict.beyondGap?.map((p) => p.wavelengthNm)).toEqual([700]);
+  });
+});
+
+describe("verifyLampPairing: residual scatter", () => {
+  /** The residuals check of `count` pairs 20 nm apart, each 0.4 px off its peak, alternately. */
+  const residuals = (count: number) => {
+    const nm = Array.from({ length: count }, (_, i) => 420 + 20 * i);
+    const { context, pairOf } = lampAt(nm);
+    const pairs = nm.map((_, i) => pairOf(i, i, i % 2 === 0 ? 0.4 : -0.4));
+    const fit = fitCalibration(pairs, { model: "polynomial", degree: 3, domain: [0, 1550] });
+    return verifyLampPairing(context, pairs, fit).checks.find((c) => c.name === "residuals")!;
+  };
+
+  it("lets a grating's pairs scatter by a fifth of a tolerance when they are twelve or more", () => {
+    // 0.4 px against a tolerance of 2.5 px, about a cubic: an RMS near 0.19 of it.
+    const many = residuals(14);
+    expect(many.value).toBeGreaterThan(PAIRING_CHECK_LIMITS.maxResiduals);
+    expect(many.value).toBeLessThan(PAIRING_CHECK_LIMITS.maxResidualsManyPairs);
+    expect(many.passed).toBe(true);
+  });
+
+  it("trusts instrument 1035, a Ne+Ar grating whose 58 right pairs scatter by 0.13 of a tolerance", () => {
+    // Of the blind sweep's CLI mix: before, the one limit of 0.12 left it to "check".
+    const record = sweepOne(realisticLamp(1035));
+    expect(record.status).toBe("paired");
+    expect(record.outcome).toBe("success");
+  }, 60_000);
+
+  it("does not when they are fewer, where a few chance coincidences could scatter so little", () => {
+    const few = residuals(9);
+    expect(few.value).toBeGreaterThan(PAIRING_CHECK_LIMITS.maxResiduals);
+    expect(few.passed).toBe(false);
+    expect(few.reason).toMatch(/the pairs scatter by 0\.\d\d px about a smooth dispersion/);
   });
 });
 
