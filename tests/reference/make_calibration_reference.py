@@ -61,6 +61,24 @@ steep_parameters, steep_covariance = curve_fit(
 )
 steep_chi_square = float(np.sum((y_steep - hartmann(t_steep, *steep_parameters)) ** 2))
 
+# The forward Hartmann form the prism pairing fits, x = a + b·((λ − λ0)/100 nm)^(−α), weighted by each
+# pair's σ in x: a prism-like axis (x falling towards the red) with a fixed residual pattern.
+forward_nm = np.array([404.66, 435.83, 467.8, 501.6, 546.07, 576.96, 611.4, 640.2, 667.73, 703.0, 738.4,
+                       772.4, 811.53, 852.14])
+forward_sigma = 0.05 + 0.02 * (np.arange(len(forward_nm)) % 3)
+
+
+def forward_hartmann(nm, a, b, lambda0, alpha):
+    return a + b * ((nm - lambda0) / 100.0) ** (-alpha)
+
+
+forward_x = forward_hartmann(forward_nm, -900.0, 4200.0, 180.0, 0.8) + 0.3 * np.sin(3.7 * np.arange(len(forward_nm)) + 0.2)
+forward_parameters, forward_covariance = curve_fit(
+    forward_hartmann, forward_nm, forward_x, p0=(-800.0, 4000.0, 150.0, 1.0), sigma=forward_sigma,
+    absolute_sigma=True, maxfev=100000, ftol=1e-15, xtol=1e-15, gtol=1e-15
+)
+forward_chi_square = float(np.sum(((forward_x - forward_hartmann(forward_nm, *forward_parameters)) / forward_sigma) ** 2))
+
 result = {
     "generator": "tests/reference/make_calibration_reference.py",
     "numpyVersion": np.__version__,
@@ -81,6 +99,15 @@ result = {
         "covariance": steep_covariance.tolist(),
         "chiSquare": steep_chi_square,
         "parameterNames": ["lambda0Nm", "cNm", "t0", "alpha"],
+    },
+    "forwardHartmann": {
+        "wavelengthNm": forward_nm.tolist(),
+        "x": forward_x.tolist(),
+        "xUncertainty": forward_sigma.tolist(),
+        "parameters": forward_parameters.tolist(),
+        "covariance": forward_covariance.tolist(),
+        "chiSquare": forward_chi_square,
+        "parameterNames": ["a", "b", "lambda0Nm", "alpha"],
     },
 }
 with open(os.path.join(HERE, "calibration-reference.json"), "w") as handle:

@@ -62,6 +62,29 @@ function valueAt(parameters: readonly number[], lambda: number): number {
   return a + b * ((lambda - lambda0) / SCALE_NM) ** -alpha;
 }
 
+/** JᵀWJ and JᵀWr of the weighted residuals at `parameters` (undamped). */
+function normalEquations(
+  parameters: readonly number[],
+  x: readonly number[],
+  lambda: readonly number[],
+  sigma: readonly number[],
+): { normal: number[][]; gradient: number[] } {
+  const normal = [0, 1, 2, 3].map(() => [0, 0, 0, 0]);
+  const gradient = [0, 0, 0, 0];
+  const a = parameters[0];
+  const b = parameters[1];
+  for (let i = 0; i < x.length; i++) {
+    const g = row(parameters, lambda[i]);
+    // g[1] is the power itself, so the value needs no second power (valueAt gives the same bits).
+    const r = (x[i] - (a + b * g[1])) / sigma[i];
+    for (let j = 0; j < 4; j++) {
+      gradient[j] += (g[j] / sigma[i]) * r;
+      for (let k = 0; k < 4; k++) normal[j][k] += (g[j] * g[k]) / sigma[i] ** 2;
+    }
+  }
+  return { normal, gradient };
+}
+
 /** Fits x = a + b·((λ − λ₀)/100)^(−α) by Levenberg–Marquardt; throws CalibrationError when it cannot. */
 export function fitForwardHartmann(
   points: readonly ForwardHartmannPoint[],
@@ -111,22 +134,14 @@ export function fitForwardHartmann(
     let parameters = start;
     let chiSquare = chiSquareOf(parameters);
     let damping = 1e-3;
+    // The normal equations at the current parameters, built once for every damping tried there.
+    let equations = normalEquations(parameters, x, lambda, sigma);
     for (let iteration = 0; iteration < 100 && damping < 1e12; iteration++) {
-      const normal = new Matrix(4, 4);
-      const gradient = new Matrix(4, 1);
-      for (let i = 0; i < x.length; i++) {
-        const g = row(parameters, lambda[i]);
-        const r = (x[i] - valueAt(parameters, lambda[i])) / sigma[i];
-        for (let j = 0; j < 4; j++) {
-          gradient.set(j, 0, gradient.get(j, 0) + (g[j] / sigma[i]) * r);
-          for (let k = 0; k < 4; k++)
-            normal.set(j, k, normal.get(j, k) + (g[j] * g[k]) / sigma[i] ** 2);
-        }
-      }
+      const normal = new Matrix(equations.normal);
       for (let j = 0; j < 4; j++) normal.set(j, j, normal.get(j, j) * (1 + damping) + 1e-300);
       let step: number[];
       try {
-        step = solve(normal, gradient).getColumn(0);
+        step = solve(normal, Matrix.columnVector(equations.gradient)).getColumn(0);
       } catch {
         damping *= 10;
         continue;
@@ -139,6 +154,7 @@ export function fitForwardHartmann(
         chiSquare = trialChiSquare;
         damping = Math.max(damping / 3, 1e-9);
         if (converged) break;
+        equations = normalEquations(parameters, x, lambda, sigma);
       } else {
         damping *= 4;
       }

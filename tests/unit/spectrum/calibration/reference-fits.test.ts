@@ -2,6 +2,7 @@
 import { describe, it, expect } from "vitest";
 import reference from "../../../reference/calibration-reference.json";
 import { evaluateCalibration, fitCalibration } from "@/lib/spectrum/calibration";
+import { fitForwardHartmann } from "@/lib/spectrum/calibration/fit-forward-hartmann";
 
 const domain = reference.domain as [number, number];
 
@@ -78,5 +79,31 @@ describe("fits against NumPy/SciPy reference values", () => {
       // SciPy 1.10.1 curve_fit parameters: within 1e-5 relative
       expect(Math.abs(model.parameters[k] - value)).toBeLessThan(1e-5 * Math.abs(value));
     });
+  });
+
+  it("the prism pairing's forward Hartmann fit reaches SciPy's weighted minimum, with its covariance", () => {
+    const h = reference.forwardHartmann;
+    const fit = fitForwardHartmann(
+      h.x.map((x, i) => ({ x, wavelengthNm: h.wavelengthNm[i], xUncertainty: h.xUncertainty[i] })),
+    );
+    // SciPy 1.10.1 curve_fit (sigma, absolute_sigma=True, ftol = xtol = gtol = 1e-15) χ²: within 1e-8
+    expect(Math.abs(fit.chiSquare - h.chiSquare)).toBeLessThan(1e-8 * h.chiSquare);
+    h.parameters.forEach((value, k) => {
+      // SciPy 1.10.1 curve_fit parameters: within 1e-5 relative
+      expect(Math.abs(fit.parameters[k] - value)).toBeLessThan(1e-5 * Math.abs(value));
+    });
+    // The prediction's σ from SciPy's covariance, scaled as the fit documents (s² = max(1, χ²/dof)).
+    const [, b, lambda0, alpha] = h.parameters;
+    const s2 = Math.max(1, h.chiSquare / (h.x.length - 4));
+    for (const nm of [420, 560, 700, 840]) {
+      const base = (nm - lambda0) / 100;
+      const u = base ** -alpha;
+      const g = [1, u, (b * alpha * u) / base / 100, -b * u * Math.log(base)];
+      let variance = 0;
+      for (let j = 0; j < 4; j++)
+        for (let k = 0; k < 4; k++) variance += g[j] * h.covariance[j][k] * g[k];
+      // SciPy 1.10.1 curve_fit covariance carried to x: within 1 %
+      expect(fit.predictionSigmaX(nm, 0) / Math.sqrt(s2 * variance)).toBeCloseTo(1, 2);
+    }
   });
 });
