@@ -2,7 +2,10 @@
 // dispersion. Short-baseline hypotheses first: two strong peaks a few per cent of the array apart,
 // paired with two lamp lines that the nominal range puts near them at a plausible local dispersion,
 // are a straight line that holds over that short stretch even on a curved grating (in the straightened
-// axis of a prism); each is scored by the lines it lands on a peak nearby. The best few are then grown
+// axis of a prism); each is scored by the lines it lands on a peak nearby, each landing by how close it
+// falls (between the anchors a right hypothesis lands its lines within a fraction of a tolerance, chance
+// ones anywhere in the window: where a gas is dense in lines and the array in unlisted peaks, counting
+// every landing in the window alike ranked chance hypotheses first). The best few are then grown
 // outward over the whole array (growPairsOutward), and the grown pairings are compared: the best is
 // kept, and the best one that disagrees with it is reported as its rival, so that two pairings that
 // explain the spectrum about equally well are shown to a person rather than decided by chance.
@@ -90,7 +93,8 @@ const SLOPE_RATIO: Record<DispersionKind, [number, number]> = {
 /** Anchor peaks lie this share of the array apart: far enough to fix a dispersion, close enough for a straight line to hold. */
 const ANCHOR_SEPARATION: [number, number] = [0.03, 0.14];
 
-/** A pair this many matching tolerances off the pairing's model counts about half (exp(−½)). */
+/** A pair (or a hypothesis's landing) this many matching tolerances off the model counts about half
+ * (exp(−½)). */
 const CLOSE_TOLERANCES = 0.25;
 
 /** Peaks narrower than this share of the typical peak are hot pixels or spikes, not lines. */
@@ -232,8 +236,10 @@ export function searchLampPairing(
   });
 
   /**
-   * Lines a straight line through the anchors lands on a peak, near the anchors only: the score and
-   * the number of pairs, and the pairs themselves into `pairs` when given.
+   * Lines a straight line through the anchors lands on a peak, near the anchors only: the score (each
+   * landing weighed by its closeness, exp(−½(d / CLOSE_TOLERANCES tolerances)²), and by how well the
+   * line's strength rank matches the peak's) and the number of pairs, and the pairs themselves into
+   * `pairs` when given.
    */
   function scoreLocal(
     shape: number,
@@ -272,7 +278,10 @@ export function searchLampPairing(
       const quality = lineRankOf[l];
       if (Math.abs(usableX[k] - x) <= scoreTolerance && takenStamp[p] !== stamp) {
         takenStamp[p] = stamp;
-        score += 1 + (1 - Math.abs(quality - peakRankOf[p]));
+        const closeness = Math.exp(
+          -0.5 * ((usableX[k] - x) / (CLOSE_TOLERANCES * toleranceX)) ** 2,
+        );
+        score += closeness * (1 + (1 - Math.abs(quality - peakRankOf[p])));
         count++;
         pairs?.push(toLampPair(input, p, l));
       } else if (quality >= 0.6) {
