@@ -2,7 +2,7 @@
 // the smallest height its principal line could have had and still been found as a peak at the
 // noise where it falls: an upper limit, in counts and against the strongest peak seen.
 import type { ElementCall } from "../matching/score-elements";
-import { firstAbove, lowerBound } from "../matching/lower-bound";
+import { positionsWithin } from "../matching/lower-bound";
 import type { LineIndex } from "../matching/prepare-line-index";
 import { walkStrongestFirst } from "../matching/walk-strongest-first";
 import type { SourceKind } from "../types";
@@ -60,8 +60,7 @@ export function detectionLimits(
       [0, lines.atomicCount],
       [lines.atomicCount, lines.nm.length],
     ]) {
-      const from = lowerBound(lines.nm, rangeNm[0], first, end);
-      const to = firstAbove(lines.nm, rangeNm[1], from, end);
+      const [from, to] = positionsWithin(lines.nm, rangeNm[0], rangeNm[1], first, end);
       walkStrongestFirst(maxTree, from, to, Number.MIN_VALUE, (p) => {
         if (best < 0 || relative[p] > relative[best]) best = p;
         return false;

@@ -377,15 +377,16 @@ function blindLampPairing(
     if (grown.status === "paired" || options.search !== undefined) return grown;
     return secondOpinion(
       grown,
-      drawnLampPairing(peaks, lines, setup, shapes, options),
+      drawnLampPairing(peaks, lines, flooredCentres(setup), shapes, options),
       setup,
       ONLY_THE_DRAWS,
     );
   }
-  const drawn = drawnLampPairing(peaks, lines, setup, shapes, options);
+  // The draws, and growth as a prism's second opinion to them, weigh centres by the floor alone.
+  const floored = flooredCentres(setup);
+  const drawn = drawnLampPairing(peaks, lines, floored, shapes, options);
   if (drawn.status === "paired" || options.search !== undefined || setup.dispersion !== "prism")
     return drawn;
-  const floored: PairingContext = { ...setup, peaks: withCentreFloor(setup.peaks) };
   return secondOpinion(
     drawn,
     grownLampPairing(peaks, lines, floored, prismGrowthShapes(shapes), PRISM_SECOND_SEARCH),
@@ -394,24 +395,28 @@ function blindLampPairing(
   );
 }
 
+/** `setup` with each peak's centre weighed by the floor alone (see withCentreFloor). */
+function flooredCentres(setup: PairingContext): PairingContext {
+  return { ...setup, peaks: withCentreFloor(setup.peaks) };
+}
+
 /**
  * The whole-array draws: (peak, peak) × (line, line) first guesses straight in each shape's axis,
  * scored by the lines they land on a peak, the best few refined and the most confident finished.
+ * `context`'s peaks carry the centre floor alone (flooredCentres).
  */
 function drawnLampPairing(
   peaks: LampPeak[],
   lines: LampLine[],
-  setup: PairingContext,
+  context: PairingContext,
   shapes: ((lambda: number) => number)[],
   options: AutoPairLampPeaksOptions,
 ): LampPairingResult {
   const { seed = 1, iterations = 20000, rangeTolerance = 0.25, refineCount = 4 } = options;
   const random = seededRandom(seed);
   const [nominalLow, nominalHigh] = options.nominalRangeNm;
-  const [xMin, xMax] = setup.domain;
+  const [xMin, xMax] = context.domain;
   const domainSpan = xMax - xMin;
-  // The draws weigh centres by the floor alone (see withCentreFloor).
-  const context: PairingContext = { ...setup, peaks: withCentreFloor(setup.peaks) };
   const candidates = context.candidateLines;
   if (peaks.length < 4 || candidates.length < 4) {
     return refineLampPairing(context, []);

@@ -12,6 +12,7 @@ import { elementOfSpecies } from "./element-of-species";
 import { heightInBand, lampHeightBand } from "./lamp-height-band";
 import { growthDegree } from "./growth-degree";
 import { worstOffCurve } from "./prune-pulled-pairs";
+import { landingCloseness } from "./landing-closeness";
 import { toLampPair } from "./to-lamp-pair";
 import { fitStraightenedPolynomial, type StraightenedPolynomial } from "./straightened-polynomial";
 
@@ -243,7 +244,7 @@ export function growPairsOutward(
         if (crowded) continue;
         used.add(near[0]);
         found.push(pairOf(near[0], other.line));
-        support += Math.exp(-0.5 * ((peaks[near[0]].x - x) / (0.25 * toleranceX)) ** 2);
+        support += landingCloseness(peaks[near[0]].x - x, toleranceX);
       }
       // A long leap's trial model is rough where it lands: right lines land a good part of a tolerance
       // off it. Refitted with what landed, right lines sit on the curve and chance ones do not; each
@@ -260,9 +261,7 @@ export function growPairsOutward(
         if (refit) {
           let refitSupport = 0;
           for (const p of found.slice(taken.length)) {
-            refitSupport += Math.exp(
-              -0.5 * ((p.x - refit.predictX(p.wavelengthNm)) / (0.25 * toleranceX)) ** 2,
-            );
+            refitSupport += landingCloseness(p.x - refit.predictX(p.wavelengthNm), toleranceX);
           }
           support = Math.max(support, refitSupport);
         }

@@ -15,6 +15,7 @@ import { elementOfSpecies } from "./element-of-species";
 import { growthDegree } from "./growth-degree";
 import type { LampLine, LampPair, LampPeak } from "./lamp-pairing-types";
 import { firstAtOrAbove } from "../signal/first-at-or-above";
+import { landingCloseness } from "./landing-closeness";
 import { toLampPair } from "./to-lamp-pair";
 import { typicalPeakFwhm } from "./typical-peak-fwhm";
 import { fitStraightenedPolynomial } from "./straightened-polynomial";
@@ -92,10 +93,6 @@ const SLOPE_RATIO: Record<DispersionKind, [number, number]> = {
 };
 /** Anchor peaks lie this share of the array apart: far enough to fix a dispersion, close enough for a straight line to hold. */
 const ANCHOR_SEPARATION: [number, number] = [0.03, 0.14];
-
-/** A pair (or a hypothesis's landing) this many matching tolerances off the model counts about half
- * (exp(−½)). */
-const CLOSE_TOLERANCES = 0.25;
 
 /** Peaks narrower than this share of the typical peak are hot pixels or spikes, not lines. */
 const MIN_WIDTH_SHARE = 0.45;
@@ -237,7 +234,7 @@ export function searchLampPairing(
 
   /**
    * Lines a straight line through the anchors lands on a peak, near the anchors only: the score (each
-   * landing weighed by its closeness, exp(−½(d / CLOSE_TOLERANCES tolerances)²), and by how well the
+   * landing weighed by its closeness, `landingCloseness`, and by how well the
    * line's strength rank matches the peak's) and the number of pairs, and the pairs themselves into
    * `pairs` when given.
    */
@@ -278,10 +275,9 @@ export function searchLampPairing(
       const quality = lineRankOf[l];
       if (Math.abs(usableX[k] - x) <= scoreTolerance && takenStamp[p] !== stamp) {
         takenStamp[p] = stamp;
-        const closeness = Math.exp(
-          -0.5 * ((usableX[k] - x) / (CLOSE_TOLERANCES * toleranceX)) ** 2,
-        );
-        score += closeness * (1 + (1 - Math.abs(quality - peakRankOf[p])));
+        score +=
+          landingCloseness(usableX[k] - x, toleranceX) *
+          (1 + (1 - Math.abs(quality - peakRankOf[p])));
         count++;
         pairs?.push(toLampPair(input, p, l));
       } else if (quality >= 0.6) {
@@ -379,11 +375,7 @@ export function searchLampPairing(
     // Right pairs sit within a tenth of a pixel or so of a smooth curve; chance coincidences, which a
     // bending model can collect too, scatter over the whole window. Each pair counts by how close it sits.
     const closeness = pairs.reduce(
-      (sum, p) =>
-        sum +
-        Math.exp(
-          -0.5 * ((p.x - model.predictX(p.wavelengthNm)) / (CLOSE_TOLERANCES * toleranceX)) ** 2,
-        ),
+      (sum, p) => sum + landingCloseness(p.x - model.predictX(p.wavelengthNm), toleranceX),
       0,
     );
     return { pairs, shape, score: closeness - 0.5 * missingStrong, missingStrong, coveredFraction };

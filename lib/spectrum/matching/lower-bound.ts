@@ -1,5 +1,5 @@
 // Binary search on an ascending typed array: the first position whose value is not below a target,
-// or above it.
+// or above it, and the positions of the values inside a range.
 
 /** Index of the first element ≥ target in ascending `values[from … to)` (`to` when none is). */
 export function lowerBound(
@@ -19,6 +19,18 @@ export function firstAbove(
   to = values.length,
 ): number {
   return firstPast(values, target, from, to, true);
+}
+
+/** Positions [start, end) of the values inside [low, high] in ascending `values[from … to)`. */
+export function positionsWithin(
+  values: Float64Array,
+  low: number,
+  high: number,
+  from = 0,
+  to = values.length,
+): [number, number] {
+  const start = lowerBound(values, low, from, to);
+  return [start, firstAbove(values, high, start, to)];
 }
 
 /** The first position whose value is not below target, or, with `pastEqual`, above it. */

@@ -4,7 +4,7 @@ import type { CalibratedPeak, ReferenceLine, SourceKind } from "../types";
 import type { LineCandidate, PeakMatch } from "./match-peaks-to-lines";
 import { countAtLeast } from "./count-at-least";
 import { depthIntoBandNm } from "./depth-into-band";
-import { firstAbove, lowerBound } from "./lower-bound";
+import { lowerBound, positionsWithin } from "./lower-bound";
 import { twoLineDip } from "./two-line-dip";
 import { sumAtLeast } from "./sum-at-least";
 import { walkStrongestFirst } from "./walk-strongest-first";
@@ -327,14 +327,8 @@ export function scoreElements(
   // worked on; each is located in the table by binary search, never by scanning the range.
   const work = new Map<string, SpeciesWork>();
   const newWork = (lines: SpeciesLines): SpeciesWork => {
-    const positions = (
-      [from, to]: [number, number],
-      first: number,
-      end: number,
-    ): [number, number] => {
-      const start = lowerBound(lines.nm, from, first, end);
-      return [start, Math.max(start, firstAbove(lines.nm, to, start, end))];
-    };
+    const positions = ([from, to]: [number, number], first: number, end: number) =>
+      positionsWithin(lines.nm, from, to, first, end);
     const info: SpeciesInfo = {
       lines,
       scale: lines.bySource[source],
@@ -963,8 +957,13 @@ function predictMissing(
       const mostHideable = prune ? (snr[i] / scale) * (1 + 1e-9) : Infinity;
       const slackNm = 1e-9 * (reachNm[i] + 1);
       for (const [from, to] of ranges) {
-        const first = lowerBound(nm, wavelengthNm[i] - reachNm[i] - slackNm, from, to);
-        const last = firstAbove(nm, wavelengthNm[i] + reachNm[i] + slackNm, first, to);
+        const [first, last] = positionsWithin(
+          nm,
+          wavelengthNm[i] - reachNm[i] - slackNm,
+          wavelengthNm[i] + reachNm[i] + slackNm,
+          from,
+          to,
+        );
         for (let p = first; p < last; p++) {
           if (!(relative[p] >= least) || relative[p] > mostHideable || examined.has(p)) continue;
           examined.add(p);

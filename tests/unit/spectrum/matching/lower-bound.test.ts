@@ -1,10 +1,10 @@
 // The two binary searches every range look-up of the line index rests on, against a linear scan.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { firstAbove, lowerBound } from "@/lib/spectrum/matching/lower-bound";
+import { firstAbove, lowerBound, positionsWithin } from "@/lib/spectrum/matching/lower-bound";
 import "../../../support/fast-check-seed";
 
-describe("lowerBound and firstAbove", () => {
+describe("lowerBound, firstAbove and positionsWithin", () => {
   it("find the first position at or above, and above, the target, inside the given bounds", () => {
     fc.assert(
       fc.property(
@@ -24,6 +24,12 @@ describe("lowerBound and firstAbove", () => {
           };
           expect(lowerBound(values, target, from, to)).toBe(scan((v) => v < target));
           expect(firstAbove(values, target, from, to)).toBe(scan((v) => v <= target));
+          // The values inside [target, target + 2], as a filter of the bounded slice finds them.
+          const [start, end] = positionsWithin(values, target, target + 2, from, to);
+          const inside = Array.from(values.subarray(from, to)).filter(
+            (v) => v >= target && v <= target + 2,
+          );
+          expect(Array.from(values.subarray(start, end))).toEqual(inside);
         },
       ),
     );
