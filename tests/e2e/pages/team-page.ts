@@ -57,8 +57,13 @@ export class TeamPage {
     return this.page.evaluate(() => document.activeElement?.textContent?.trim() ?? "");
   }
 
-  /** Moves the keyboard focus onto `target` and presses Enter, as a keyboard user would. */
+  /**
+   * Moves the keyboard focus onto `target` and presses Enter, as a keyboard user would. Waits first
+   * until `target` is enabled: the list's buttons stay disabled until the previous action's refresh
+   * has finished, which can be after its message shows, and Enter on a disabled button does nothing.
+   */
   async pressEnterOn(target: Locator): Promise<void> {
+    await target.click({ trial: true });
     await target.focus();
     await this.page.keyboard.press("Enter");
   }
