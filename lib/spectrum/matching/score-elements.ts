@@ -5,7 +5,7 @@ import type { LineCandidate, PeakMatch } from "./match-peaks-to-lines";
 import { countAtLeast } from "./count-at-least";
 import { depthIntoBandNm } from "./depth-into-band";
 import { lowerBound, positionsWithin } from "./lower-bound";
-import { twoLineDip } from "./two-line-dip";
+import { dipIsShallow } from "./two-line-dip";
 import { sumAtLeast } from "./sum-at-least";
 import { walkStrongestFirst } from "./walk-strongest-first";
 import {
@@ -1130,13 +1130,13 @@ function hidingPeaks(
       const hides =
         snr[i] >= snrRatio * predictedSnr ||
         (predictedSnr <= snr[i] &&
-          snr[i] *
-            twoLineDip(
-              Math.abs(wavelengthNm[i] - nm) / instrumentNm[i],
-              predictedSnr / snr[i],
-              Number.isNaN(instrumentSamples[i]) ? undefined : instrumentSamples[i],
-            ) <
-            RESOLVING_DIP_SNR);
+          dipIsShallow(
+            Math.abs(wavelengthNm[i] - nm) / instrumentNm[i],
+            predictedSnr / snr[i],
+            Number.isNaN(instrumentSamples[i]) ? undefined : instrumentSamples[i],
+            snr[i],
+            RESOLVING_DIP_SNR,
+          ));
       if (!hides) continue;
       if (!best || snr[i] > bestSnr) {
         best = byWavelength[i];

@@ -1,7 +1,8 @@
 // The dip between two lines of one Gaussian instrument profile, which decides whether a fainter
 // companion could have shown as a peak of its own or hides in the stronger line.
 import { describe, expect, it } from "vitest";
-import { twoLineDip } from "@/lib/spectrum/matching/two-line-dip";
+import { dipIsShallow, twoLineDip } from "@/lib/spectrum/matching/two-line-dip";
+import { makeRandom } from "@/lib/spectrum/synthetic/make-random";
 
 const FOUR_LN2 = 4 * Math.LN2;
 const gaussian = (x: number) => Math.exp(-FOUR_LN2 * x * x);
@@ -66,5 +67,42 @@ describe("twoLineDip", () => {
     expect(twoLineDip(1.35, 0.37, 2.5)).toBe(0);
     // Sampled five times per FWHM the dip shows at every placing.
     expect(twoLineDip(1.35, 0.37, 5)).toBeGreaterThan(0.03);
+  });
+
+  it("sees a companion far off as its own line: the dip is its whole height, as sampled", () => {
+    // Lines a hundred FWHM apart do not touch: the valley between them is empty, and the companion's
+    // top shows as its highest sample, at worst half a step off its centre (the continuous profile is
+    // walked in 400 steps over 1.5 separations).
+    for (const [separation, ratio] of [
+      [100, 0.5],
+      [12, 0.2],
+    ]) {
+      for (const samples of [undefined, 2.5, 7.4]) {
+        const step = samples === undefined ? (1.5 * separation) / 400 : 1 / samples;
+        const dip = twoLineDip(separation, ratio, samples);
+        expect(dip).toBeLessThanOrEqual(ratio);
+        expect(dip).toBeGreaterThanOrEqual(ratio * gaussian(step / 2) - 1e-12);
+      }
+    }
+  });
+});
+
+describe("dipIsShallow", () => {
+  it("answers as height × twoLineDip < depth does, near and far, sampled or not", () => {
+    const random = makeRandom(41);
+    let shallow = 0;
+    for (let i = 0; i < 3000; i++) {
+      const separation =
+        random.uniform() < 0.2 ? 3 + 200 * random.uniform() : 0.3 + 3 * random.uniform();
+      const ratio = random.uniform();
+      const samples = random.uniform() < 0.2 ? undefined : 1.5 + 25 * random.uniform();
+      const height = 5 + 300 * random.uniform();
+      const expected = height * twoLineDip(separation, ratio, samples) < 6;
+      expect(dipIsShallow(separation, ratio, samples, height, 6)).toBe(expected);
+      if (expected) shallow++;
+    }
+    // Both answers occur often enough for the comparison to mean something.
+    expect(shallow).toBeGreaterThan(500);
+    expect(shallow).toBeLessThan(2500);
   });
 });
