@@ -104,22 +104,21 @@ export function fitForwardPrism(
       `${glass}: a pair's wavelength lies beyond the glass's Sellmeier range`,
     );
   }
-  /** δref − δ(n) at one incidence; `sinIncidence` and `reference` may be passed by a caller asking about many n. */
-  const angleOf = (
-    n: number,
-    incidence: number,
-    sinIncidence = Math.sin(incidence),
-    reference = prismDeviationRad(nReference, incidence, apexRad, sinIncidence),
-  ) => reference - prismDeviationRad(n, incidence, apexRad, sinIncidence);
-  const tangentOf = (n: number, incidence: number, axisAngle = 0) =>
-    cameraTangent(angleOf(n, incidence), axisAngle);
+  /**
+   * δref − δ(n) as a function of n at one incidence, the incidence's own terms (its sine, the reference
+   * ray's deviation) worked out once: the fit and its predictions ask about many n at each incidence.
+   */
+  const anglesAt = (incidence: number) => {
+    const sinIncidence = Math.sin(incidence);
+    const reference = prismDeviationRad(nReference, incidence, apexRad, sinIncidence);
+    return (n: number) => reference - prismDeviationRad(n, incidence, apexRad, sinIncidence);
+  };
   /** The weighted straight line of x in u = tan(…) at one incidence: the profile of χ² over the incidence. */
   const profile = (incidence: number) => {
     const u: number[] = [];
-    const sinIncidence = Math.sin(incidence);
-    const reference = prismDeviationRad(nReference, incidence, apexRad, sinIncidence);
+    const angleOf = anglesAt(incidence);
     for (let i = 0; i < x.length; i++) {
-      const value = Math.tan(angleOf(nOfPair[i], incidence, sinIncidence, reference));
+      const value = Math.tan(angleOf(nOfPair[i]));
       if (!Number.isFinite(value)) return { chiSquare: Infinity, a: 0, b: 0 };
       u.push(value);
     }
@@ -187,20 +186,29 @@ export function fitForwardPrism(
   }
 
   const h = 1e-7;
-  /** Gradient of x(λ) in the parameters [incidence, b, a, (φ)] for a glass index n. */
-  const gradient = (parameters: readonly number[], n: number) => {
-    const [incidence, b, , axisAngle = 0] = parameters;
-    const angle = angleOf(n, incidence);
-    const slope =
-      (tangentOf(n, incidence + h, axisAngle) - tangentOf(n, incidence - h, axisAngle)) / (2 * h);
-    const row = [b * slope, cameraTangent(angle, axisAngle), 1];
-    // d/dφ of tan(v + φ) − tan φ: the curvature the camera's tangent law adds away from its axis.
-    if (fitAxisAngle)
-      row.push(b * (1 / Math.cos(angle + axisAngle) ** 2 - 1 / Math.cos(axisAngle) ** 2));
-    return row;
+  /** x(n) and its gradient in the parameters [incidence, b, a, (φ)] at given parameters, as functions of
+   * a glass index n (the angles at the incidence and at incidence ± h worked out for all n at once). */
+  const modelAt = (parameters: readonly number[]) => {
+    const [incidence, b, a, axisAngle = 0] = parameters;
+    const angleOf = anglesAt(incidence);
+    const above = anglesAt(incidence + h);
+    const below = anglesAt(incidence - h);
+    const slopeOf = (n: number) =>
+      (cameraTangent(above(n), axisAngle) - cameraTangent(below(n), axisAngle)) / (2 * h);
+    return {
+      slopeOf,
+      angleOf,
+      valueOf: (n: number) => a + b * cameraTangent(angleOf(n), axisAngle),
+      gradientOf: (n: number) => {
+        const angle = angleOf(n);
+        const row = [b * slopeOf(n), cameraTangent(angle, axisAngle), 1];
+        // d/dφ of tan(v + φ) − tan φ: the curvature the camera's tangent law adds away from its axis.
+        if (fitAxisAngle)
+          row.push(b * (1 / Math.cos(angle + axisAngle) ** 2 - 1 / Math.cos(axisAngle) ** 2));
+        return row;
+      },
+    };
   };
-  const valueAt = (parameters: readonly number[], n: number) =>
-    parameters[2] + parameters[1] * tangentOf(n, parameters[0], parameters[3] ?? 0);
 
   /**
    * The weighted straight line of x in the camera tangent at (incidence, φ), with what a Gauss–Newton
@@ -214,13 +222,12 @@ export function fitForwardPrism(
     const w = sigma.map((s) => 1 / s);
     const u = new Array<number>(count);
     const du = [new Array<number>(count), new Array<number>(count)];
+    // Only the angles matter here: b and a are placeholders.
+    const { angleOf, slopeOf } = modelAt([incidence, 1, 0, axisAngle]);
     for (let i = 0; i < count; i++) {
-      const angle = angleOf(nOfPair[i], incidence);
+      const angle = angleOf(nOfPair[i]);
       u[i] = cameraTangent(angle, axisAngle);
-      du[0][i] =
-        (tangentOf(nOfPair[i], incidence + h, axisAngle) -
-          tangentOf(nOfPair[i], incidence - h, axisAngle)) /
-        (2 * h);
+      du[0][i] = slopeOf(nOfPair[i]);
       du[1][i] = 1 / Math.cos(angle + axisAngle) ** 2 - 1 / Math.cos(axisAngle) ** 2;
     }
     // The whitened line (columns w and w·u) and the angles' derivatives with its span projected out.
@@ -288,12 +295,13 @@ export function fitForwardPrism(
     const polished = polishAxisAngle(scannedIncidence);
     if (polished.chiSquare < chiSquare) ({ parameters, chiSquare } = polished);
   }
+  const fitted = modelAt(parameters);
   const covariance = jacobianCovariance(
-    nOfPair.map((n, i) => gradient(parameters, n).map((g) => g / sigma[i])),
+    nOfPair.map((n, i) => fitted.gradientOf(n).map((g) => g / sigma[i])),
   );
   const dof = x.length - parameterCount;
   const varianceFactor = dof > 0 ? Math.max(1, chiSquare / dof) : 1;
-  const predictX = (wavelengthNm: number) => valueAt(parameters, indexOrNaN(glass, wavelengthNm));
+  const predictX = (wavelengthNm: number) => fitted.valueOf(indexOrNaN(glass, wavelengthNm));
   return {
     glass,
     parameters,
@@ -301,7 +309,7 @@ export function fitForwardPrism(
     dof,
     predictX,
     predictionSigmaX: (wavelengthNm, peakSigmaX = 1) => {
-      const g = gradient(parameters, indexOrNaN(glass, wavelengthNm));
+      const g = fitted.gradientOf(indexOrNaN(glass, wavelengthNm));
       if (!g.every(Number.isFinite)) return Number.NaN;
       let variance = 0;
       for (let j = 0; j < parameterCount; j++)
