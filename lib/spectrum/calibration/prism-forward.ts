@@ -56,19 +56,25 @@ export function prismDeviationRad(
 }
 
 /**
- * x(λ) of one geometry, with the glass's coefficients and the reference ray worked out once: the inverse
- * and the pairing's straightened axes ask it about thousands of wavelengths.
+ * x(λ) of one geometry, with the glass's coefficients, the incidence's sine and the reference ray worked
+ * out once: the inverse and the pairing's straightened axes ask it about thousands of wavelengths.
  */
 export function prismForward(geometry: PrismGeometry): (wavelengthNm: number) => number {
   const coefficients = GLASS_CATALOGUE[geometry.glass];
   if (!coefficients) return () => Number.NaN;
   const nRef = refractiveIndexOrNaN(coefficients, geometry.referenceWavelengthNm);
   if (Number.isNaN(nRef)) return () => Number.NaN;
-  const deviationRef = prismDeviationRad(nRef, geometry.incidenceRad, geometry.apexRad);
+  const sinIncidence = Math.sin(geometry.incidenceRad);
+  const deviationRef = prismDeviationRad(
+    nRef,
+    geometry.incidenceRad,
+    geometry.apexRad,
+    sinIncidence,
+  );
   return (wavelengthNm) => {
     const n = refractiveIndexOrNaN(coefficients, wavelengthNm);
     if (Number.isNaN(n)) return Number.NaN;
-    const deviation = prismDeviationRad(n, geometry.incidenceRad, geometry.apexRad);
+    const deviation = prismDeviationRad(n, geometry.incidenceRad, geometry.apexRad, sinIncidence);
     // Red light is deviated less, so δref − δ grows with λ and `direction` says which way x runs.
     return (
       geometry.axisX +
