@@ -1,12 +1,14 @@
 # Makes calibration-reference.json: NumPy polyfit (with cov=True) and SciPy curve_fit of the Hartmann
-# formula on deterministic pairs, so the TypeScript fits can be checked against an outside library.
+# formula on deterministic pairs, so the TypeScript fits can be checked against an outside library; and
+# SciPy's bounded scalar minimiser on the summed Gaussian profile of blended lamp lines (where the one
+# peak they make has its top).
 # Run with Debian's interpreter: /usr/bin/python3 tests/reference/make_calibration_reference.py
 import json
 import os
 
 import numpy as np
 import scipy
-from scipy.optimize import curve_fit
+from scipy.optimize import curve_fit, minimize_scalar
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 
@@ -79,6 +81,26 @@ forward_parameters, forward_covariance = curve_fit(
 )
 forward_chi_square = float(np.sum(((forward_x - forward_hartmann(forward_nm, *forward_parameters)) / forward_sigma) ** 2))
 
+# Blends: Gaussian lines of one FWHM summed; the top is the maximum of the sum, searched between the
+# outermost members. Mercury's 365 nm group (Hg I 365.015 and 365.483 nm, NIST ASD air wavelengths, from
+# memory; the starter table's lamp intensities 400 and 80) at several resolutions, and a three-line case.
+FOUR_LN2 = 4 * np.log(2)
+blend_cases = [
+    ([365.015, 365.483], [400.0, 80.0], 1.0),
+    ([365.015, 365.483], [400.0, 80.0], 0.6),
+    ([365.015, 365.483], [400.0, 80.0], 3.0),
+    ([500.0, 500.05], [100.0, 100.0], 1.0),
+    ([600.0, 600.3, 600.7], [50.0, 100.0, 30.0], 1.2),
+]
+blends = []
+for wavelengths, intensities, fwhm in blend_cases:
+    def negative_profile(nm, wavelengths=wavelengths, intensities=intensities, fwhm=fwhm):
+        return -sum(i * np.exp(-FOUR_LN2 * ((nm - w) / fwhm) ** 2) for w, i in zip(wavelengths, intensities))
+    found = minimize_scalar(negative_profile, bounds=(min(wavelengths), max(wavelengths)),
+                            method="bounded", options={"xatol": 1e-10})
+    blends.append({"wavelengthsNm": wavelengths, "intensities": intensities, "fwhmNm": fwhm,
+                   "topNm": float(found.x)})
+
 result = {
     "generator": "tests/reference/make_calibration_reference.py",
     "numpyVersion": np.__version__,
@@ -109,6 +131,7 @@ result = {
         "chiSquare": forward_chi_square,
         "parameterNames": ["a", "b", "lambda0Nm", "alpha"],
     },
+    "blendTops": blends,
 }
 with open(os.path.join(HERE, "calibration-reference.json"), "w") as handle:
     json.dump(result, handle, indent=2)

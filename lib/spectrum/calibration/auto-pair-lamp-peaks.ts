@@ -121,10 +121,10 @@ function fwhmNmOfNominalAxis(
 }
 
 /**
- * A blend's pair carries its centroid's uncertainty (table intensities are rough) on top of the peak's
+ * A blend's pair carries its top's uncertainty (table intensities are rough) on top of the peak's
  * own, through the local dispersion, so the fit weighs it for what it is.
  */
-function withCentroidUncertainty(
+function withBlendTopUncertainty(
   pairs: LampPair[],
   groups: LampLineGroup[],
   context: PairingContext,
@@ -316,7 +316,7 @@ function modelsAgree(a: CalibrationModel, b: CalibrationModel, context: PairingC
 
 /**
  * The recalibration from `previous`, with lines that blend at today's resolution paired as one line at
- * their centroid (as the blind search does), reported in the caller's lines.
+ * the top of their peak (as the blind search does), reported in the caller's lines.
  */
 function recalibration(
   context: PairingContext,
@@ -537,7 +537,7 @@ function drawnLampPairing(
 
 /**
  * Growth from short-baseline anchors (`searchLampPairing`), fitted and checked. Pairing sees the lamp
- * as the spectrometer does: lines that blend are one line at their centroid.
+ * as the spectrometer does: lines that blend are one line at the top of their peak.
  */
 function grownLampPairing(
   peaks: LampPeak[],
@@ -569,7 +569,7 @@ function grownLampPairing(
     context.dispersion,
     context.domain,
   );
-  const result = finishGrownPairing(shaped, withCentroidUncertainty(centred, groups, shaped));
+  const result = finishGrownPairing(shaped, withBlendTopUncertainty(centred, groups, shaped));
   return inCallerLines(
     withRival(result, search.best, search.rival),
     groups,

@@ -1,11 +1,18 @@
 // Lamp lines as the spectrometer sees them: lines closer than about one resolution element make one
-// peak, whose centre is their intensity-weighted centroid. Pairing such a peak with either line puts
-// a biased pair into the calibration, and dropping it loses the lamp's strongest feature (mercury's
-// 365.0 nm group), so lines of one gas that blend are merged into one line at their centroid, with the
-// centroid's uncertainty; a blend whose centroid cannot be placed well (lines of two gases, whose
-// shares depend on the lamp; members too far apart to trust their intensity ratio) is left out.
+// peak, whose top lies where their summed profile peaks (their intensity-weighted centroid when they are
+// far closer than the resolution, nearer the strongest line when they are most of a FWHM apart).
+// Pairing such a peak with either line puts a biased pair into the calibration, and dropping it loses
+// the lamp's strongest feature (mercury's 365.0 nm group), so lines of one gas that blend are merged
+// into one line at that top, with its uncertainty; a blend whose top cannot be placed well (lines of
+// two gases, whose shares depend on the lamp; members too far apart to trust their intensity ratio) is
+// left out.
 import { elementOfSpecies } from "./element-of-species";
 import type { LampLine } from "./lamp-pairing-types";
+
+const FOUR_LN2 = 4 * Math.LN2;
+/** How far the FWHM a blend is judged with may be off, as a factor either way: it comes from the stated
+ * resolution and range, or from a straightened axis whose glass may not be the instrument's. */
+const FWHM_FACTOR = 1.5;
 
 export interface GroupBlendedLampLinesOptions {
   /**
@@ -21,8 +28,8 @@ export interface GroupBlendedLampLinesOptions {
    */
   reachFwhm?: number;
   /**
-   * Largest uncertainty of a merged centroid, in FWHM: table intensities are rough (a factor of two
-   * either way, common practice), which moves the centroid of lines d apart by about d/4.
+   * Largest uncertainty of a merged blend's top, in FWHM: table intensities are rough (a factor of two
+   * either way, common practice), which moves the top of lines d apart by up to about d/4.
    * @default 0.08
    */
   maxCentroidSigmaFwhm?: number;
@@ -37,7 +44,7 @@ export interface GroupBlendedLampLinesOptions {
 export interface LampLineGroup extends LampLine {
   /** Indices (into the given lines) of the lines it stands for. */
   members: number[];
-  /** 1σ uncertainty of the centroid in nm (0 for a single line). */
+  /** 1σ uncertainty of the blend's top in nm (0 for a single line). */
   wavelengthSigmaNm: number;
 }
 
@@ -98,25 +105,28 @@ export function groupBlendedLampLines(
     }
     const total = members.reduce((s, i) => s + Math.max(lines[i].intensity, 0), 0);
     if (!(total > 0)) continue;
-    const centroid =
-      members.reduce((s, i) => s + Math.max(lines[i].intensity, 0) * lines[i].wavelengthNm, 0) /
-      total;
-    // A factor of two in any member's intensity moves the centroid by about a quarter of its distance from the rest.
-    const sigma = Math.sqrt(
-      members.reduce(
-        (s, i) =>
-          s +
-          (0.25 *
-            (Math.max(lines[i].intensity, 0) / total) *
-            Math.abs(lines[i].wavelengthNm - centroid) *
-            2) **
-            2,
-        0,
-      ),
-    );
+    const wavelengths = members.map((i) => lines[i].wavelengthNm);
+    const intensities = members.map((i) => Math.max(lines[i].intensity, 0));
+    const top = blendTop(wavelengths, intensities, fwhm);
+    // A factor of two in any member's intensity moves the top, and so does a factor of FWHM_FACTOR in
+    // the FWHM; a third of the shift between the two ends of each factor is its share of the σ (in the
+    // centroid limit: half a member's share of the intensity times its distance from the rest, and
+    // nothing for the FWHM).
+    const withIntensity = (k: number, factor: number) =>
+      blendTop(
+        wavelengths,
+        intensities.map((value, j) => (j === k ? value * factor : value)),
+        fwhm,
+      );
+    const shifts = [
+      ...members.map((_, k) => withIntensity(k, 2) - withIntensity(k, 0.5)),
+      blendTop(wavelengths, intensities, fwhm * FWHM_FACTOR) -
+        blendTop(wavelengths, intensities, fwhm / FWHM_FACTOR),
+    ];
+    const sigma = Math.sqrt(shifts.reduce((sum, shift) => sum + (shift / 3) ** 2, 0));
     if (sigma > maxCentroidSigmaFwhm * fwhm) continue;
     groups.push({
-      wavelengthNm: centroid,
+      wavelengthNm: top,
       intensity: total,
       species: lines[strongest].species,
       id: lines[strongest].id,
@@ -134,4 +144,46 @@ export function groupBlendedLampLines(
       return !(sameElement && lines[i].intensity < minIntensityRatio * group.intensity);
     });
   });
+}
+
+/** Steps per FWHM of the scan for the blend's top, and the width of the final search, in FWHM. */
+const TOP_SCAN_STEPS_PER_FWHM = 100;
+const TOP_TOLERANCE_FWHM = 1e-9;
+
+/**
+ * Where the summed profile of lines at `wavelengths` with `intensities` (Gaussians of FWHM `fwhm`)
+ * peaks: where a peak finder puts the top of the one peak they make. Lines far closer than the
+ * resolution peak at their intensity-weighted centroid; lines most of a FWHM apart peak nearer the
+ * strongest, whose own profile makes the top (mercury's 365.015 nm with 365.483 nm at a fifth of its
+ * intensity, 0.78 FWHM apart, peaks 0.02 nm from 365.015 nm, not at the centroid 0.08 nm away). A
+ * scan finds the highest point, a golden-section search refines it.
+ */
+export function blendTop(wavelengths: number[], intensities: number[], fwhm: number): number {
+  const profile = (nm: number) =>
+    wavelengths.reduce((sum, centre, k) => {
+      const u = (nm - centre) / fwhm;
+      return sum + intensities[k] * Math.exp(-FOUR_LN2 * u * u);
+    }, 0);
+  const step = fwhm / TOP_SCAN_STEPS_PER_FWHM;
+  const from = Math.min(...wavelengths) - fwhm / 2;
+  const to = Math.max(...wavelengths) + fwhm / 2;
+  let best = from;
+  let bestValue = -Infinity;
+  for (let nm = from; nm <= to; nm += step) {
+    const value = profile(nm);
+    if (value > bestValue) {
+      best = nm;
+      bestValue = value;
+    }
+  }
+  const ratio = (Math.sqrt(5) - 1) / 2;
+  let low = best - step;
+  let high = best + step;
+  while (high - low > TOP_TOLERANCE_FWHM * fwhm) {
+    const left = high - ratio * (high - low);
+    const right = low + ratio * (high - low);
+    if (profile(left) > profile(right)) high = right;
+    else low = left;
+  }
+  return (low + high) / 2;
 }

@@ -84,7 +84,7 @@ interface Predicted {
   /** Yesterday's pixel of the line. */
   u: number;
   weight: number;
-  /** 1σ of a blend group's centroid, in x units (0 for a single line). */
+  /** 1σ of a blend group's top, in x units (0 for a single line). */
   sigmaX: number;
 }
 
@@ -562,7 +562,7 @@ function onDrift(
   return [...byPeak.values()].map((e) => e.candidate).sort((a, b) => a.u - b.u);
 }
 
-/** The pair of one peak and one predicted line, with a blend group's centroid σ in its x σ. */
+/** The pair of one peak and one predicted line, with a blend group's top's σ in its x σ. */
 function pairOf(context: PairingContext, peak: number, line: Predicted): LampPair {
   const pair = toLampPair(context, peak, line.line);
   return line.sigmaX > 0

@@ -1,8 +1,10 @@
-// Checks our polynomial and Hartmann fits against NumPy polyfit and SciPy curve_fit (see tests/reference).
+// Checks our polynomial and Hartmann fits against NumPy polyfit and SciPy curve_fit, and the top of a
+// blend of lamp lines against SciPy's bounded scalar minimiser (see tests/reference).
 import { describe, it, expect } from "vitest";
 import reference from "../../../reference/calibration-reference.json";
 import { evaluateCalibration, fitCalibration } from "@/lib/spectrum/calibration";
 import { fitForwardHartmann } from "@/lib/spectrum/calibration/fit-forward-hartmann";
+import { blendTop } from "@/lib/spectrum/calibration/group-blended-lamp-lines";
 
 const domain = reference.domain as [number, number];
 
@@ -106,4 +108,13 @@ describe("fits against NumPy/SciPy reference values", () => {
       expect(fit.predictionSigmaX(nm, 0) / Math.sqrt(s2 * variance)).toBeCloseTo(1, 2);
     }
   });
+
+  for (const blend of reference.blendTops) {
+    it(`puts the top of lines at ${blend.wavelengthsNm.join(", ")} nm (FWHM ${blend.fwhmNm} nm) where SciPy finds the summed profile's maximum`, () => {
+      // SciPy 1.10.1 optimize.minimize_scalar (bounded, xatol 1e-10) on the negated sum of Gaussians.
+      expect(
+        Math.abs(blendTop(blend.wavelengthsNm, blend.intensities, blend.fwhmNm) - blend.topNm),
+      ).toBeLessThan(1e-6);
+    });
+  }
 });
