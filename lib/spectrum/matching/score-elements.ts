@@ -1413,7 +1413,7 @@ function borrowed(info: SpeciesInfo, source: SourceKind): boolean {
   return info.basis !== "none" && info.basis !== source;
 }
 
-/** Index of the first element > target in ascending `values[from … to)` (`to` when none is). */
+/** The shortest and longest peak wavelength, nm: the range judged when the caller gives none. */
 function peakSpan(matches: readonly PeakMatch[]): [number, number] {
   if (matches.length === 0) return [0, 0];
   let low = Infinity;
