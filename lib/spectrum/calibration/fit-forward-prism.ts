@@ -186,18 +186,24 @@ export function fitForwardPrism(
   }
 
   const h = 1e-7;
-  /** x(n) and its gradient in the parameters [incidence, b, a, (φ)] at given parameters, as functions of
-   * a glass index n (the angles at the incidence and at incidence ± h worked out for all n at once). */
-  const modelAt = (parameters: readonly number[]) => {
-    const [incidence, b, a, axisAngle = 0] = parameters;
+  /** At one incidence and camera axis angle, as functions of a glass index n: the angle δref − δ(n), and
+   * the camera tangent's slope in the incidence (a central difference over ± h). */
+  const tangentsAt = (incidence: number, axisAngle: number) => {
     const angleOf = anglesAt(incidence);
     const above = anglesAt(incidence + h);
     const below = anglesAt(incidence - h);
-    const slopeOf = (n: number) =>
-      (cameraTangent(above(n), axisAngle) - cameraTangent(below(n), axisAngle)) / (2 * h);
     return {
-      slopeOf,
       angleOf,
+      slopeOf: (n: number) =>
+        (cameraTangent(above(n), axisAngle) - cameraTangent(below(n), axisAngle)) / (2 * h),
+    };
+  };
+  /** x(n) and its gradient in the parameters [incidence, b, a, (φ)] at given parameters, as functions of
+   * a glass index n. */
+  const modelAt = (parameters: readonly number[]) => {
+    const [incidence, b, a, axisAngle = 0] = parameters;
+    const { angleOf, slopeOf } = tangentsAt(incidence, axisAngle);
+    return {
       valueOf: (n: number) => a + b * cameraTangent(angleOf(n), axisAngle),
       gradientOf: (n: number) => {
         const angle = angleOf(n);
@@ -222,8 +228,7 @@ export function fitForwardPrism(
     const w = sigma.map((s) => 1 / s);
     const u = new Array<number>(count);
     const du = [new Array<number>(count), new Array<number>(count)];
-    // Only the angles matter here: b and a are placeholders.
-    const { angleOf, slopeOf } = modelAt([incidence, 1, 0, axisAngle]);
+    const { angleOf, slopeOf } = tangentsAt(incidence, axisAngle);
     for (let i = 0; i < count; i++) {
       const angle = angleOf(nOfPair[i]);
       u[i] = cameraTangent(angle, axisAngle);
