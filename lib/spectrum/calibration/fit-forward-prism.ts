@@ -8,6 +8,7 @@ import { CalibrationError } from "./calibration-error";
 import type { GlassName } from "./glass-catalogue";
 import { jacobianCovariance } from "./jacobian-covariance";
 import type { ForwardHartmannPoint } from "./fit-forward-hartmann";
+import { goldenSectionMinimum } from "./golden-section-minimum";
 import { cameraTangent, prismDeviationRad } from "./prism-forward";
 import { refractiveIndex } from "./refractive-index";
 import { dampedStep, lineProjection, twoParameterNormal, weightedLine } from "./weighted-line";
@@ -157,29 +158,12 @@ export function fitForwardPrism(
       `${glass}: no prism geometry passes all the pairs' wavelengths`,
     );
   }
-  const ratio = (Math.sqrt(5) - 1) / 2;
-  let low = Math.max(bestIncidence - stepRad, 1e-3);
-  let high = Math.min(bestIncidence + stepRad, Math.PI / 2 - 1e-3);
-  let left = high - ratio * (high - low);
-  let right = low + ratio * (high - low);
-  let chiLeft = profile(left).chiSquare;
-  let chiRight = profile(right).chiSquare;
-  while (high - low > 1e-10) {
-    if (chiLeft < chiRight) {
-      high = right;
-      right = left;
-      chiRight = chiLeft;
-      left = high - ratio * (high - low);
-      chiLeft = profile(left).chiSquare;
-    } else {
-      low = left;
-      left = right;
-      chiLeft = chiRight;
-      right = low + ratio * (high - low);
-      chiRight = profile(right).chiSquare;
-    }
-  }
-  const scannedIncidence = (low + high) / 2;
+  const scannedIncidence = goldenSectionMinimum(
+    (incidence) => profile(incidence).chiSquare,
+    Math.max(bestIncidence - stepRad, 1e-3),
+    Math.min(bestIncidence + stepRad, Math.PI / 2 - 1e-3),
+    1e-10,
+  );
   const scanned = profile(scannedIncidence);
   if (!Number.isFinite(scanned.chiSquare) || scanned.b === 0) {
     throw new CalibrationError("fit-failed", `${glass}: the prism fit did not converge`);

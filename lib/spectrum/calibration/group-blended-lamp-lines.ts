@@ -7,6 +7,7 @@
 // two gases, whose shares depend on the lamp; members too far apart to trust their intensity ratio) is
 // left out.
 import { elementOfSpecies } from "./element-of-species";
+import { goldenSectionMinimum } from "./golden-section-minimum";
 import type { LampLine } from "./lamp-pairing-types";
 
 const FOUR_LN2 = 4 * Math.LN2;
@@ -146,7 +147,8 @@ export function groupBlendedLampLines(
   });
 }
 
-/** Steps per FWHM of the scan for the blend's top, and the width of the final search, in FWHM. */
+/** Steps per FWHM of the scan for the blend's top, and the bracket the search then narrows it to, in
+ * FWHM. */
 const TOP_SCAN_STEPS_PER_FWHM = 100;
 const TOP_TOLERANCE_FWHM = 1e-9;
 
@@ -176,14 +178,10 @@ export function blendTop(wavelengths: number[], intensities: number[], fwhm: num
       bestValue = value;
     }
   }
-  const ratio = (Math.sqrt(5) - 1) / 2;
-  let low = best - step;
-  let high = best + step;
-  while (high - low > TOP_TOLERANCE_FWHM * fwhm) {
-    const left = high - ratio * (high - low);
-    const right = low + ratio * (high - low);
-    if (profile(left) > profile(right)) high = right;
-    else low = left;
-  }
-  return (low + high) / 2;
+  return goldenSectionMinimum(
+    (nm) => -profile(nm),
+    best - step,
+    best + step,
+    TOP_TOLERANCE_FWHM * fwhm,
+  );
 }
