@@ -33,7 +33,7 @@ export interface GroupBlendedLampLinesOptions {
    * either way, common practice), which moves the top of lines d apart by up to about d/4.
    * @default 0.08
    */
-  maxCentroidSigmaFwhm?: number;
+  maxTopSigmaFwhm?: number;
   /**
    * Neighbours of the same gas weaker than this fraction neither merge nor pull.
    * @default 0.05
@@ -63,7 +63,7 @@ export function groupBlendedLampLines(
   const {
     mergeFwhm = 0.8,
     reachFwhm = 1.6,
-    maxCentroidSigmaFwhm = 0.08,
+    maxTopSigmaFwhm = 0.08,
     minIntensityRatio = 0.05,
   } = options;
   const sorted = candidates.slice().sort((a, b) => lines[a].wavelengthNm - lines[b].wavelengthNm);
@@ -102,7 +102,7 @@ export function groupBlendedLampLines(
       // resolution has a centre that does not depend on them.
       const spread =
         lines[members[members.length - 1]].wavelengthNm - lines[members[0]].wavelengthNm;
-      if (spread > 2 * maxCentroidSigmaFwhm * fwhm) continue;
+      if (spread > 2 * maxTopSigmaFwhm * fwhm) continue;
     }
     const total = members.reduce((s, i) => s + Math.max(lines[i].intensity, 0), 0);
     if (!(total > 0)) continue;
@@ -125,7 +125,7 @@ export function groupBlendedLampLines(
         blendTop(wavelengths, intensities, fwhm / FWHM_FACTOR),
     ];
     const sigma = Math.sqrt(shifts.reduce((sum, shift) => sum + (shift / 3) ** 2, 0));
-    if (sigma > maxCentroidSigmaFwhm * fwhm) continue;
+    if (sigma > maxTopSigmaFwhm * fwhm) continue;
     groups.push({
       wavelengthNm: top,
       intensity: total,
