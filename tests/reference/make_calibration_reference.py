@@ -1,7 +1,7 @@
 # Makes calibration-reference.json: NumPy polyfit (with cov=True) and SciPy curve_fit of the Hartmann
 # formula on deterministic pairs, so the TypeScript fits can be checked against an outside library; and
 # SciPy's bounded scalar minimiser on the summed Gaussian profile of blended lamp lines (where the one
-# peak they make has its top).
+# peak they make has its top); and each pair's miss by a weighted polyfit of the others (held out).
 # Run with Debian's interpreter: /usr/bin/python3 tests/reference/make_calibration_reference.py
 import json
 import os
@@ -101,6 +101,25 @@ for wavelengths, intensities, fwhm in blend_cases:
     blends.append({"wavelengthsNm": wavelengths, "intensities": intensities, "fwhmNm": fwhm,
                    "topNm": float(found.x)})
 
+# Held-out misses: each pair of a weighted cubic against NumPy polyfit of the other pairs (weights
+# 1/σλ, covariance scaled by their χ² per degree of freedom), in σ of that prediction and of the pair's
+# centre. One pair is pulled by 0.3 nm, about a pixel here.
+held_sigma_x = 0.15 + 0.1 * np.abs(np.sin(3.1 * np.arange(len(x_grating))))
+held_slope = (276.0 - 3.6 * t_grating + 2.7 * t_grating**2) / half  # dλ/dx of the cubic above
+held_y = y_grating.copy()
+HELD_PULLED = 8
+held_y[HELD_PULLED] += 0.3
+HELD_FLOOR_X = 0.12
+held_sigmas = []
+for i in range(len(x_grating)):
+    rest = np.arange(len(x_grating)) != i
+    held_coefficients, held_covariance = np.polyfit(t_grating[rest], held_y[rest], 3,
+                                          w=1 / (held_sigma_x[rest] * held_slope[rest]), cov=True)
+    powers = t_grating[i] ** np.arange(3, -1, -1)
+    miss = held_y[i] - np.polyval(held_coefficients, t_grating[i])
+    centre_nm = max(held_sigma_x[i], HELD_FLOOR_X) * held_slope[i]
+    held_sigmas.append(float(abs(miss) / np.sqrt(powers @ held_covariance @ powers + centre_nm**2)))
+
 result = {
     "generator": "tests/reference/make_calibration_reference.py",
     "numpyVersion": np.__version__,
@@ -132,6 +151,14 @@ result = {
         "parameterNames": ["a", "b", "lambda0Nm", "alpha"],
     },
     "blendTops": blends,
+    "heldOut": {
+        "x": x_grating.tolist(),
+        "wavelengthNm": held_y.tolist(),
+        "xUncertainty": held_sigma_x.tolist(),
+        "centreFloorX": HELD_FLOOR_X,
+        "pulledIndex": HELD_PULLED,
+        "sigmas": held_sigmas,
+    },
 }
 with open(os.path.join(HERE, "calibration-reference.json"), "w") as handle:
     json.dump(result, handle, indent=2)

@@ -47,12 +47,13 @@ describe("a prism's model agreement", () => {
 });
 
 describe("a prism's lack of fit", () => {
-  // Seeds found on the prism sweep: wrong candidates, 1.97 and 1.32 times the sweep's accuracy off at
-  // the worst probe; the second is "paired" without this check. (Instrument 12200094, once here, is now
-  // paired over the range its sound pairs cover, and right there: claim-sound-ends.ts.)
+  // Seeds found on the prism sweep: wrong candidates, 1.97 and 2.18 times the sweep's accuracy off at
+  // the worst probe. (Instrument 12200094, once here, is now paired over the range its sound pairs
+  // cover, and right there: claim-sound-ends.ts; 12100037 is now paired right, its pair off the
+  // others' curve set aside first: held-out-miss.ts.)
   it.each([
     [12_100_185, "sapphire"],
-    [12_100_037, "N-SF11"],
+    [12_100_015, "sapphire"],
   ])("leaves instrument %i (%s) to a person, saying why", (seed, glass) => {
     const { lamp, result, check } = calibratedPrism(seed, glass);
     expect(result.pairing.status).not.toBe("paired");

@@ -9,9 +9,11 @@ describe("recalibration from a loose previous calibration", () => {
   // with a day's shift and stretch. Their glasses are not in the catalogue, so yesterday's best model of
   // the true axis misses it by more than the recalibration trusts; before this fallback each ended in
   // "check this recalibration: the previous calibration fitted its own lamp lines to an RMS of …".
+  // (Instrument 8600298, once here, is now left to check: one pair of its fresh fit lies 3.9 σ from
+  // where the others put it, held-out-miss.ts.)
   it.each([
     [8_600_161, "sapphire"],
-    [8_600_298, "sapphire"],
+    [8_600_050, "sapphire"],
   ])("pairs instrument %i (%s) afresh, right to its tolerance", (seed, glass) => {
     const [record] = runSweep({ seed, n: 1, withPrevious: true });
     expect(record.glass).toBe(glass);

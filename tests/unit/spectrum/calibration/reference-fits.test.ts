@@ -1,10 +1,13 @@
 // Checks our polynomial and Hartmann fits against NumPy polyfit and SciPy curve_fit, and the top of a
-// blend of lamp lines against SciPy's bounded scalar minimiser (see tests/reference).
+// blend of lamp lines against SciPy's bounded scalar minimiser, and each pair's held-out miss against
+// NumPy polyfit of the other pairs (see tests/reference).
 import { describe, it, expect } from "vitest";
 import reference from "../../../reference/calibration-reference.json";
 import { evaluateCalibration, fitCalibration } from "@/lib/spectrum/calibration";
 import { fitForwardHartmann } from "@/lib/spectrum/calibration/fit-forward-hartmann";
 import { blendTop } from "@/lib/spectrum/calibration/group-blended-lamp-lines";
+import { worstHeldOutMiss } from "@/lib/spectrum/calibration/held-out-miss";
+import { PAIRING_CHECK_LIMITS } from "@/lib/spectrum/calibration/verify-lamp-pairing";
 
 const domain = reference.domain as [number, number];
 
@@ -117,4 +120,36 @@ describe("fits against NumPy/SciPy reference values", () => {
       ).toBeLessThan(1e-6);
     });
   }
+
+  it("holds each pair of a weighted cubic to where NumPy's polyfit of the others puts it", () => {
+    const h = reference.heldOut;
+    const pairs = h.x.map((x, i) => ({
+      x,
+      wavelengthNm: h.wavelengthNm[i],
+      xUncertainty: h.xUncertainty[i],
+      peakIndex: i,
+      lineIndex: i,
+    }));
+    const { model } = fitCalibration(pairs, {
+      model: "polynomial",
+      degree: 3,
+      domain,
+      rejectOutliers: false,
+    });
+    const worstExpected = Math.max(...h.sigmas);
+    expect(h.sigmas.indexOf(worstExpected)).toBe(h.pulledIndex);
+    // The linearisation alone (no pair screened for a refit) and exact refits of every pair agree for
+    // a polynomial.
+    for (const screen of [Infinity, -Infinity]) {
+      const worst = worstHeldOutMiss(pairs, model, domain, h.centreFloorX, screen);
+      expect(worst?.pair.peakIndex).toBe(h.pulledIndex);
+      // NumPy 1.24.2 polyfit (weights 1/σλ, cov=True) of the other pairs: within 1 % (NumPy weighs by
+      // the generating cubic's slope, the fit by its own).
+      expect(worst!.sigmas / worstExpected).toBeCloseTo(1, 2);
+    }
+    // The pulled pair (0.3 nm, about a pixel) fails the check; every other pair passes it.
+    expect(worstExpected).toBeGreaterThan(PAIRING_CHECK_LIMITS.maxHeldOutMiss);
+    const others = h.sigmas.filter((_, i) => i !== h.pulledIndex);
+    expect(Math.max(...others)).toBeLessThan(PAIRING_CHECK_LIMITS.maxHeldOutMiss);
+  });
 });

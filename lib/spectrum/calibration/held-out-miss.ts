@@ -1,0 +1,148 @@
+// How far each pair falls from the calibration refitted without it, in units of what that prediction
+// and the pair's own centre allow: |λ − λ̂₋ᵢ(x)| / √(σλ̂₋ᵢ(x)² + (σx·dλ/dx)²). The model is the final
+// one (its kind, degree, glass and fitted angles), so the miss is judged with the shape that will be
+// used; the prediction's σ (from the covariance of the fit without the pair, scaled by its residuals)
+// is small between close neighbours and large in a gap or beyond the ends. A wrong pair that the
+// model bent onto in a gap between lamp lines (an unlisted line taken for a listed one 0.3 FWHM away,
+// which a Hartmann curve of nine pairs follows) falls many σ from the others' curve; a right one
+// within a few. The deleted residual is the regression diagnostic of Belsley, Kuh & Welsch,
+// Regression Diagnostics (1980; cited from memory). Unlike their externally studentised residual, the pair's own σ is
+// its centre's, not rescaled by the others' scatter: rescaled, right pairs pulled by unlisted lines
+// stood out as much as wrong ones (on the development sweep's 985 paired instruments, 52 right ones
+// ranked above the first wrong one, against none this way).
+import { calibrationUncertainty } from "./calibration-uncertainty";
+import type { CalibrationModel } from "./calibration-model";
+import { fitCalibration, type FitCalibrationOptions } from "./fit-calibration";
+import type { LampPair } from "./lamp-pairing-types";
+import { modelEvaluation } from "./model-evaluation";
+import { jacobianCovariance } from "./jacobian-covariance";
+
+/** The options that refit `model`'s own shape: the same kind and degree, a prism's glass and angles. */
+function sameShape(model: CalibrationModel): FitCalibrationOptions {
+  if (model.kind === "polynomial") return { model: "polynomial", degree: model.degree };
+  if (model.kind === "hartmann") return { model: "hartmann" };
+  return {
+    model: "prism",
+    glass: model.glass,
+    apexDeg: model.apexDeg,
+    fitApex: model.apexFitted,
+    fitAxisAngle: model.axisAngleFitted ?? false,
+  };
+}
+
+/** What each pair's miss is divided by: the σ of the others' prediction and of its own centre, nm. */
+function missInSigmas(
+  missNm: number,
+  predictionVarianceNm2: number,
+  centreSigmaNm: number,
+): number {
+  const sigmas = Math.abs(missNm) / Math.sqrt(predictionVarianceNm2 + centreSigmaNm ** 2);
+  // NaN (no wavelength there) counts as the worst.
+  return Number.isNaN(sigmas) ? Infinity : sigmas;
+}
+
+/**
+ * Every pair's held-out miss from one linearisation of `model` at its fit (no refits): the deleted
+ * residual rᵢ/(1 − hᵢ) with the leverage hᵢ of the weighted Jacobian, and the others' prediction
+ * variance s₍ᵢ₎²·σᵢ²·hᵢ/(1 − hᵢ), s₍ᵢ₎² being their χ² per degree of freedom. Exact for a polynomial;
+ * for a prism or Hartmann curve an estimate. Null when the Jacobian is singular.
+ */
+function linearisedMisses(
+  pairs: readonly LampPair[],
+  model: CalibrationModel,
+  centreFloorX: number,
+): number[] | null {
+  const n = pairs.length;
+  const p = model.parameters.length;
+  const { wavelengthNm, dispersion, jacobian } = modelEvaluation(
+    model,
+    pairs.map((q) => q.x),
+    true,
+  );
+  // The fit's own weights: σx (the median of the given ones where missing) through the dispersion.
+  const given = pairs
+    .map((q) => q.xUncertainty)
+    .filter((s): s is number => s !== undefined)
+    .sort((a, b) => a - b);
+  const fallback = given.length > 0 ? given[given.length >> 1] : 1;
+  const slope = (i: number) => Math.max(Math.abs(dispersion[i]), 1e-12);
+  const sigmaNm = pairs.map((q, i) => (q.xUncertainty ?? fallback) * slope(i));
+  const rows = pairs.map((_, i) =>
+    Array.from({ length: p }, (_, k) => jacobian![i * p + k] / sigmaNm[i]),
+  );
+  const u = pairs.map((q, i) => (q.wavelengthNm - wavelengthNm[i]) / sigmaNm[i]);
+  let covariance: number[][];
+  try {
+    covariance = jacobianCovariance(rows);
+  } catch {
+    return null;
+  }
+  const chiSquare = u.reduce((sum, v) => sum + v * v, 0);
+  return pairs.map((pair, i) => {
+    let h = 0;
+    for (let a = 0; a < p; a++)
+      for (let b = 0; b < p; b++) h += rows[i][a] * covariance[a][b] * rows[i][b];
+    h = Math.min(h, 1 - 1e-12);
+    const restScale = Math.max(chiSquare - (u[i] * u[i]) / (1 - h), 0) / (n - 1 - p);
+    return missInSigmas(
+      (u[i] * sigmaNm[i]) / (1 - h),
+      restScale * sigmaNm[i] ** 2 * (h / (1 - h)),
+      Math.max(pair.xUncertainty ?? fallback, centreFloorX) * slope(i),
+    );
+  });
+}
+
+/** `pair`'s held-out miss with `model`'s shape refitted exactly to the other pairs. */
+function refittedMiss(
+  pair: LampPair,
+  pairs: readonly LampPair[],
+  model: CalibrationModel,
+  domain: [number, number],
+  centreFloorX: number,
+): number {
+  const rest = pairs.filter((p) => p !== pair);
+  try {
+    const refit = fitCalibration(rest, {
+      ...sameShape(model),
+      domain,
+      rejectOutliers: false,
+    }).model;
+    const at = Float64Array.of(pair.x);
+    const { wavelengthNm, dispersion } = modelEvaluation(refit, at);
+    return missInSigmas(
+      pair.wavelengthNm - wavelengthNm[0],
+      calibrationUncertainty(refit, at)[0] ** 2,
+      Math.max(pair.xUncertainty ?? 0, centreFloorX) * Math.abs(dispersion[0]),
+    );
+  } catch {
+    // The rest do not determine the shape: nothing to hold this pair to.
+    return 0;
+  }
+}
+
+/**
+ * The pair that falls farthest from `model`'s shape refitted without it, and by how many σ; null when
+ * too few pairs leave a refit with residuals to scale by. Every pair is first judged by the
+ * linearisation, which overstates a prism's misses where its parameters are strongly correlated; the
+ * pairs it puts beyond `screenSigmas` are refitted exactly, and their exact miss counts.
+ * `centreFloorX` is the least σ of a centre (x units): no peak is known better than a small share of
+ * its width.
+ */
+export function worstHeldOutMiss(
+  pairs: readonly LampPair[],
+  model: CalibrationModel,
+  domain: [number, number],
+  centreFloorX: number,
+  screenSigmas: number,
+): { pair: LampPair; sigmas: number } | null {
+  if (pairs.length - 1 < model.parameters.length + 1) return null;
+  const linearised = linearisedMisses(pairs, model, centreFloorX);
+  let worst: { pair: LampPair; sigmas: number } | null = null;
+  pairs.forEach((pair, i) => {
+    const screened = linearised ? linearised[i] : Infinity;
+    const sigmas =
+      screened > screenSigmas ? refittedMiss(pair, pairs, model, domain, centreFloorX) : screened;
+    if (!worst || sigmas > worst.sigmas) worst = { pair, sigmas };
+  });
+  return worst;
+}
