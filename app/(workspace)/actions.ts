@@ -99,5 +99,9 @@ export async function inviteAction(_state: FormState, formData: FormData): Promi
     return formError(error);
   }
   revalidatePath("/team");
-  return { ok: true, message: `An invitation is on its way to ${data.email}.` };
+  return {
+    ok: true,
+    message: `An invitation is on its way to ${data.email}.`,
+    values: { email: data.email },
+  };
 }

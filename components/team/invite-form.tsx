@@ -9,12 +9,18 @@ import { initialFormState, type FormState } from "@/lib/validation/form-state";
 
 export function InviteForm({
   teamId,
+  pendingEmails,
   action,
 }: {
   teamId: string;
+  /** The addresses with an open invitation: a success message about one revoked since is dropped. */
+  pendingEmails: readonly string[];
   action: (state: FormState, formData: FormData) => Promise<FormState>;
 }) {
   const [state, formAction, pending] = useActionState(action, initialFormState);
+  const invited = state.ok ? state.values?.email?.toLowerCase() : undefined;
+  const stale =
+    invited !== undefined && !pendingEmails.some((email) => email.toLowerCase() === invited);
   return (
     <form action={formAction} className="flex flex-col gap-3" noValidate>
       <input type="hidden" name="teamId" value={teamId} />
@@ -40,7 +46,7 @@ export function InviteForm({
           {state.fieldErrors?.role?.join(" ")}
         </div>
       </div>
-      <FormMessage message={state.message} tone={state.ok ? "ok" : "error"} />
+      <FormMessage message={stale ? null : state.message} tone={state.ok ? "ok" : "error"} />
       <Button type="submit" pending={pending}>
         Send invitation
       </Button>

@@ -7,7 +7,7 @@ export interface FormState {
   ok?: boolean;
   message?: string | null;
   fieldErrors?: FieldErrors;
-  /** Values to show again after a failed submit (never passwords). */
+  /** Values to show again after a failed submit, or that a success message is about (never passwords). */
   values?: Record<string, string>;
 }
 

@@ -220,6 +220,8 @@ describe("roles and invitations on the team page", () => {
     await page.keyboard.press("Enter");
     await team.invitationMessage.getByText(`The invitation to ${email} was revoked`).waitFor();
     await team.invitationRow(email).waitFor({ state: "detached" });
+    // The form no longer says an invitation is on its way to the revoked address.
+    await page.getByText(`An invitation is on its way to ${email}`).waitFor({ state: "detached" });
     await screenshot(page, "team-management-5-invitation-revoked");
     expect(leadBrowser.problems, leadBrowser.problems.join("\n")).toEqual([]);
 

@@ -98,7 +98,11 @@ export default async function TeamPage() {
             <h2 id="invite-heading" className="mb-3 font-semibold">
               Invite a person
             </h2>
-            <InviteForm teamId={team.teamId} action={inviteAction} />
+            <InviteForm
+              teamId={team.teamId}
+              pendingEmails={pending.map((invitation) => invitation.email)}
+              action={inviteAction}
+            />
           </section>
         ) : null}
       </div>
