@@ -1,5 +1,6 @@
 // Fits a wavelength calibration to lamp pairs with iterative outlier rejection: the calibration step
 // a chemist runs once per instrument and date.
+import { median } from "./median";
 import type { CalibrationPair } from "../types";
 import { assertDomain, assertPairs } from "./assertions";
 import { assertMonotonicCalibration } from "./assert-monotonic-calibration";
@@ -117,12 +118,6 @@ export function parameterCount(
   if (kind === "polynomial") return degree + 1;
   if (kind === "hartmann") return 4;
   return 3 + (fitApex ? 1 : 0) + (fitAxisAngle ? 1 : 0);
-}
-
-function median(values: number[]): number {
-  const sorted = values.slice().sort((a, b) => a - b);
-  const middle = sorted.length >> 1;
-  return sorted.length % 2 ? sorted[middle] : (sorted[middle - 1] + sorted[middle]) / 2;
 }
 
 /** Fits one model kind to the given subset; the glass search lives here. */

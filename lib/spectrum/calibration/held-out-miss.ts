@@ -6,16 +6,17 @@
 // model bent onto in a gap between lamp lines (an unlisted line taken for a listed one 0.3 FWHM away,
 // which a Hartmann curve of nine pairs follows) falls many σ from the others' curve; a right one
 // within a few. The deleted residual is the regression diagnostic of Belsley, Kuh & Welsch,
-// Regression Diagnostics (1980; cited from memory). Unlike their externally studentised residual, the pair's own σ is
-// its centre's, not rescaled by the others' scatter: rescaled, right pairs pulled by unlisted lines
-// stood out as much as wrong ones (on the development sweep's 985 paired instruments, 52 right ones
-// ranked above the first wrong one, against none this way).
+// Regression Diagnostics (1980; cited from memory). Unlike their externally studentised residual,
+// the pair's own σ is its centre's, not rescaled by the others' scatter: rescaled, right pairs
+// pulled by unlisted lines stood out as much as wrong ones (on the development sweep's 985 paired
+// instruments, 52 right ones ranked above the first wrong one, against none this way).
 import { calibrationUncertainty } from "./calibration-uncertainty";
 import type { CalibrationModel } from "./calibration-model";
 import { fitCalibration, type FitCalibrationOptions } from "./fit-calibration";
 import type { LampPair } from "./lamp-pairing-types";
 import { modelEvaluation } from "./model-evaluation";
 import { jacobianCovariance } from "./jacobian-covariance";
+import { median } from "./median";
 
 /** The options that refit `model`'s own shape: the same kind and degree, a prism's glass and angles. */
 function sameShape(model: CalibrationModel): FitCalibrationOptions {
@@ -49,6 +50,7 @@ function missInSigmas(
  */
 function linearisedMisses(
   pairs: readonly LampPair[],
+  sigmaX: readonly number[],
   model: CalibrationModel,
   centreFloorX: number,
 ): number[] | null {
@@ -59,14 +61,9 @@ function linearisedMisses(
     pairs.map((q) => q.x),
     true,
   );
-  // The fit's own weights: σx (the median of the given ones where missing) through the dispersion.
-  const given = pairs
-    .map((q) => q.xUncertainty)
-    .filter((s): s is number => s !== undefined)
-    .sort((a, b) => a - b);
-  const fallback = given.length > 0 ? given[given.length >> 1] : 1;
+  // The fit's own weights: σx through the dispersion.
   const slope = (i: number) => Math.max(Math.abs(dispersion[i]), 1e-12);
-  const sigmaNm = pairs.map((q, i) => (q.xUncertainty ?? fallback) * slope(i));
+  const sigmaNm = sigmaX.map((s, i) => s * slope(i));
   const rows = pairs.map((_, i) =>
     Array.from({ length: p }, (_, k) => jacobian![i * p + k] / sigmaNm[i]),
   );
@@ -87,19 +84,21 @@ function linearisedMisses(
     return missInSigmas(
       (u[i] * sigmaNm[i]) / (1 - h),
       restScale * sigmaNm[i] ** 2 * (h / (1 - h)),
-      Math.max(pair.xUncertainty ?? fallback, centreFloorX) * slope(i),
+      Math.max(sigmaX[i], centreFloorX) * slope(i),
     );
   });
 }
 
 /** `pair`'s held-out miss with `model`'s shape refitted exactly to the other pairs. */
 function refittedMiss(
-  pair: LampPair,
+  index: number,
   pairs: readonly LampPair[],
+  sigmaX: readonly number[],
   model: CalibrationModel,
   domain: [number, number],
   centreFloorX: number,
 ): number {
+  const pair = pairs[index];
   const rest = pairs.filter((p) => p !== pair);
   try {
     const refit = fitCalibration(rest, {
@@ -112,7 +111,7 @@ function refittedMiss(
     return missInSigmas(
       pair.wavelengthNm - wavelengthNm[0],
       calibrationUncertainty(refit, at)[0] ** 2,
-      Math.max(pair.xUncertainty ?? 0, centreFloorX) * Math.abs(dispersion[0]),
+      Math.max(sigmaX[index], centreFloorX) * Math.abs(dispersion[0]),
     );
   } catch {
     // The rest do not determine the shape: nothing to hold this pair to.
@@ -136,12 +135,18 @@ export function worstHeldOutMiss(
   screenSigmas: number,
 ): { pair: LampPair; sigmas: number } | null {
   if (pairs.length - 1 < model.parameters.length + 1) return null;
-  const linearised = linearisedMisses(pairs, model, centreFloorX);
+  // σx as the fit weighs it: the median of the given ones where a pair has none.
+  const given = pairs.flatMap((p) => (p.xUncertainty === undefined ? [] : [p.xUncertainty]));
+  const fallback = given.length > 0 ? median(given) : 1;
+  const sigmaX = pairs.map((p) => p.xUncertainty ?? fallback);
+  const linearised = linearisedMisses(pairs, sigmaX, model, centreFloorX);
   let worst: { pair: LampPair; sigmas: number } | null = null;
   pairs.forEach((pair, i) => {
     const screened = linearised ? linearised[i] : Infinity;
     const sigmas =
-      screened > screenSigmas ? refittedMiss(pair, pairs, model, domain, centreFloorX) : screened;
+      screened > screenSigmas
+        ? refittedMiss(i, pairs, sigmaX, model, domain, centreFloorX)
+        : screened;
     if (!worst || sigmas > worst.sigmas) worst = { pair, sigmas };
   });
   return worst;

@@ -552,8 +552,9 @@ export function verifyLampPairing(
   // A pair held out of the others' curve is set aside only when the doubts are about how the
   // calibration follows its pairs; where model shapes disagree, expected lines are missing or an end
   // hangs beyond a gap, one pair fewer does not answer the doubt. Setting it aside there too made 14
-  // more right pairings and one more silent wrong on the development sweep (a prism of a glass outside
-  // the catalogue that two pairs fewer let pass as CaF₂), 8 and none on the fresh one.
+  // more right pairings and one more silent wrong on the development sweep (a grating's quadratic
+  // whose two model shapes disagreed; one pair fewer, they agreed, and it was 1.1 tolerances off), 8
+  // and none on the fresh one.
   const fitOwnDoubts = checks.every((c) => c.passed || FIT_OWN_CHECKS.has(c.name));
   const outlier = looFailed ? worstPair : heldOutFailed && fitOwnDoubts ? heldOut?.pair : undefined;
   return {
