@@ -567,6 +567,7 @@ export function scoreElements(
     missingSnr,
     source,
   });
+  capBorrowedCalls(calls, source);
   calls.sort(byStanding);
 
   const overlaps: PeakOverlap[] = [];
@@ -869,6 +870,24 @@ function firstElementOf(formula: string): string | undefined {
 function assertRangeNm(name: string, range: [number, number]): void {
   if (!(range[0] <= range[1]) || !range.every(Number.isFinite)) {
     throw new RangeError(`${name} must be [min, max] with min ≤ max, got [${range.join(", ")}]`);
+  }
+}
+
+/**
+ * A species the table rates only for other kinds of source is "possible" at most: the curated table
+ * does not list it as seen in this one, so a peak of it here is more likely another species' line or a
+ * contaminant's than a line the source excites (nitrogen, oxygen and the noble gases, weighed on arc
+ * intensities, were called present in flames on the sample sweep; docs/identification-scoring.md §7).
+ */
+function capBorrowedCalls(calls: ElementCall[], source: SourceKind): void {
+  for (const call of calls) {
+    const basis = call.intensityBasis;
+    if (call.verdict !== "present" || basis === "none" || basis === source) continue;
+    demoteToPossible(
+      call,
+      `The table lists none of its lines for a ${source}: called possible, not present.`,
+      `The table does not list it for a ${source}.`,
+    );
   }
 }
 

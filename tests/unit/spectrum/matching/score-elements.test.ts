@@ -217,5 +217,16 @@ describe("speciesRelativeIntensities", () => {
     const potassium = result.calls.find((call) => call.species === "K I")!;
     expect(potassium.intensityBasis).toBe("arc");
     expect(potassium.notes.join(" ")).toMatch(/used arc intensities/);
+    // Strong and clean as its lines are, a species the table lists for arcs only is not called
+    // present in a flame; with the table's flame intensities it is.
+    expect(potassium.verdict).toBe("possible");
+    expect(potassium.notes.join(" ")).toMatch(/lists none of its lines for a flame/);
+    const flameTable = flameLineTable();
+    const withFlame = scoreElements(
+      matchPeaksToLines(peaks, flameTable, { resolutionNm: FLAME_RESOLUTION_NM }),
+      flameTable,
+      { source: "flame", rangeNm: FLAME_RANGE_NM },
+    ).calls.find((call) => call.species === "K I")!;
+    expect(withFlame.verdict).toBe("present");
   });
 });
