@@ -119,6 +119,20 @@ describe("verifyLampPairing: lopsided support", () => {
     expect(verdict.beyondGap).toBeUndefined();
   });
 
+  it("takes three pairs huddled on the array beyond their gap as tight, however spread in wavelength", () => {
+    // Found on a fresh sweep: a Xe lamp on an F2 prism. Xe I 711.96, 764.20 and 788.74 nm span 77 nm
+    // beyond a gap of 220 nm (more than a quarter of it) but 74 px beyond one of 446 px, where the
+    // prism compresses the red; its model bent onto two of them paired one line off and was 1.4 nm
+    // wrong there, "paired".
+    const lamp = realisticLamp(15_000_148);
+    const result = calibrateRealisticLamp(lamp);
+    expect(result.pairing.status).toBe("paired");
+    expect(result.pairing.message).toContain(
+      "3 pairs beyond a wide gap set aside (Xe I 711.960 nm, Xe I 764.202 nm, Xe I 788.740 nm)",
+    );
+    expect(probeErrorRatio(lamp, result.fit!.model).ratio).toBeLessThanOrEqual(1);
+  }, 60_000);
+
   it("flags one pair beyond a wide gap at the red end", () => {
     // Eight pairs at 550–564 nm and one at 700 nm: a gap of 136 nm in a span of 150.
     const verdict = verdictFor([550, 552, 554, 556, 558, 560, 562, 564, 700]);
