@@ -169,6 +169,13 @@ function fitOnce(
   return best.model;
 }
 
+/** Each pair's σx as the fit weighs it: pairs without one take the median of the given ones (1 when none is). */
+export function fittedXUncertainties(pairs: readonly CalibrationPair[]): number[] {
+  const given = pairs.flatMap((p) => (p.xUncertainty === undefined ? [] : [p.xUncertainty]));
+  const fallback = given.length > 0 ? median(given) : 1;
+  return pairs.map((p) => p.xUncertainty ?? fallback);
+}
+
 /** Fits `pairs` with the chosen model, rejecting outliers one at a time. */
 export function fitCalibration(
   pairs: CalibrationPair[],
@@ -207,9 +214,7 @@ export function fitCalibration(
   const xs = pairs.map((p) => p.x);
   const domain = options.domain ?? [Math.min(...xs), Math.max(...xs)];
   assertDomain(domain);
-  // Pairs without an uncertainty take the median of the given ones (or 1 when none is given).
-  const given = pairs.map((p) => p.xUncertainty).filter((s): s is number => s !== undefined);
-  const fallbackSigma = given.length > 0 ? median(given) : 1;
+  const sigmaX = fittedXUncertainties(pairs);
   const settings = {
     model: kind,
     degree,
@@ -232,7 +237,7 @@ export function fitCalibration(
     const input: ModelFitInput = {
       x: indices.map((i) => pairs[i].x),
       wavelengthNm: indices.map((i) => pairs[i].wavelengthNm),
-      xUncertainty: indices.map((i) => pairs[i].xUncertainty ?? fallbackSigma),
+      xUncertainty: indices.map((i) => sigmaX[i]),
       domain: [domain[0], domain[1]],
     };
     return fitOnce(input, settings);
@@ -247,9 +252,7 @@ export function fitCalibration(
   // strongly varying dispersion 1 nm is a small error in the red and a gross one in the blue.
   const sigmaNmOf = (m: CalibrationModel) => {
     const dispersion = modelEvaluation(m, xs).dispersion;
-    return pairs.map(
-      (p, i) => (p.xUncertainty ?? fallbackSigma) * Math.max(Math.abs(dispersion[i]), 1e-12),
-    );
+    return pairs.map((_, i) => sigmaX[i] * Math.max(Math.abs(dispersion[i]), 1e-12));
   };
   while (
     rejectOutliers &&

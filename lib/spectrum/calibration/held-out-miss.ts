@@ -12,11 +12,14 @@
 // instruments, 52 right ones ranked above the first wrong one, against none this way).
 import { calibrationUncertainty } from "./calibration-uncertainty";
 import type { CalibrationModel } from "./calibration-model";
-import { fitCalibration, type FitCalibrationOptions } from "./fit-calibration";
+import {
+  fitCalibration,
+  fittedXUncertainties,
+  type FitCalibrationOptions,
+} from "./fit-calibration";
 import type { LampPair } from "./lamp-pairing-types";
 import { modelEvaluation } from "./model-evaluation";
 import { jacobianCovariance } from "./jacobian-covariance";
-import { median } from "./median";
 
 /** The options that refit `model`'s own shape: the same kind and degree, a prism's glass and angles. */
 function sameShape(model: CalibrationModel): FitCalibrationOptions {
@@ -135,10 +138,7 @@ export function worstHeldOutMiss(
   screenSigmas: number,
 ): { pair: LampPair; sigmas: number } | null {
   if (pairs.length - 1 < model.parameters.length + 1) return null;
-  // σx as the fit weighs it: the median of the given ones where a pair has none.
-  const given = pairs.flatMap((p) => (p.xUncertainty === undefined ? [] : [p.xUncertainty]));
-  const fallback = given.length > 0 ? median(given) : 1;
-  const sigmaX = pairs.map((p) => p.xUncertainty ?? fallback);
+  const sigmaX = fittedXUncertainties(pairs);
   const linearised = linearisedMisses(pairs, sigmaX, model, centreFloorX);
   let worst: { pair: LampPair; sigmas: number } | null = null;
   pairs.forEach((pair, i) => {

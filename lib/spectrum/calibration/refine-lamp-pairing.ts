@@ -566,15 +566,16 @@ function judge(
     fit && context.forced.size === 0 && pairs.length >= 3
       ? verifyLampPairing(context, pairs, fit)
       : null;
-  // A pair that the others put elsewhere (a stray peak next to a missing line) is dropped and the rest
-  // refitted and checked again, a few times at most; a pairing that needs more is not trusted.
+  // A pair that the others put elsewhere (a stray peak next to a missing line; the verdict's outlier) is
+  // dropped and the rest refitted and checked again, a few times at most; a pairing that needs more is
+  // not trusted.
   let trial = { pairs, fit, verdict };
   for (
     let round = 0;
-    round < MAX_LOO_DROPS && trial.verdict && !trial.verdict.passed && trial.verdict.looOutlier;
+    round < MAX_LOO_DROPS && trial.verdict && !trial.verdict.passed && trial.verdict.outlier;
     round++
   ) {
-    const outlier = trial.verdict.looOutlier;
+    const outlier = trial.verdict.outlier;
     const rest = refitAndVerify(
       context,
       trial.pairs.filter((p) => p !== outlier),

@@ -61,8 +61,11 @@ export interface PairingVerdict {
   passed: boolean;
   /** 0..1: how far inside its limits the weakest check stands (0 at or beyond a limit). */
   margin: number;
-  /** The pair the leave-one-out check (or else the held-out check) found worst, when that check failed. */
-  looOutlier?: LampPair;
+  /**
+   * The pair to set aside before judging the rest again: the leave-one-out check's worst when that
+   * check failed, else the held-out check's when only the fit's own checks failed.
+   */
+  outlier?: LampPair;
   /** The pairs beyond the gap, when the lopsided-support check failed. */
   beyondGap?: LampPair[];
 }
@@ -561,7 +564,7 @@ export function verifyLampPairing(
     checks,
     passed: checks.every((c) => c.passed),
     margin: Math.min(...margins),
-    ...(outlier ? { looOutlier: outlier } : {}),
+    ...(outlier ? { outlier } : {}),
     ...(lopsided ? { beyondGap } : {}),
   };
 }

@@ -881,8 +881,7 @@ function assertRangeNm(name: string, range: [number, number]): void {
  */
 function capBorrowedCalls(calls: ElementCall[], source: SourceKind): void {
   for (const call of calls) {
-    const basis = call.intensityBasis;
-    if (call.verdict !== "present" || basis === "none" || basis === source) continue;
+    if (call.verdict !== "present" || !borrowed(call.intensityBasis, source)) continue;
     demoteToPossible(
       call,
       `The table lists none of its lines for a ${source}: called possible, not present.`,
@@ -923,7 +922,8 @@ function predictMissing(
   const { order, nm } = info.lines;
   const strong = limits.strongLineFraction;
   const scale = anchor ? anchor.snr / anchor.ratedWeight : null;
-  const weight = info.basis === "none" ? 0 : borrowed(info, source) ? BORROWED_MISSING_WEIGHT : 1;
+  const weight =
+    info.basis === "none" ? 0 : borrowed(info.basis, source) ? BORROWED_MISSING_WEIGHT : 1;
   // The rated lines that are missing unless matched are exactly those with relative ≥ least.
   // Without an anchor every rated line is listed when something of the species was seen, but
   // only the strong ones are ever reported when nothing was.
@@ -1258,7 +1258,7 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
     verdict = "absent";
   }
 
-  if (borrowed(info, context.source)) {
+  if (borrowed(info.basis, context.source)) {
     notes.push(
       `No ${context.source} intensities in the table; used ${info.basis} intensities instead.`,
     );
@@ -1428,8 +1428,9 @@ function tallySeen(
   return { count, strongCount, worstSigma, listed };
 }
 
-function borrowed(info: SpeciesInfo, source: SourceKind): boolean {
-  return info.basis !== "none" && info.basis !== source;
+/** Whether a species' intensities come from another kind of source than the one judged. */
+function borrowed(basis: SpeciesInfo["basis"], source: SourceKind): boolean {
+  return basis !== "none" && basis !== source;
 }
 
 /** The shortest and longest peak wavelength, nm: the range judged when the caller gives none. */
