@@ -1,7 +1,8 @@
 # Makes calibration-reference.json: NumPy polyfit (with cov=True) and SciPy curve_fit of the Hartmann
 # formula on deterministic pairs, so the TypeScript fits can be checked against an outside library; and
 # SciPy's bounded scalar minimiser on the summed Gaussian profile of blended lamp lines (where the one
-# peak they make has its top); and each pair's miss by a weighted polyfit of the others (held out).
+# peak they make has its top); each pair's miss by a weighted polyfit of the others (held out); and how
+# far a weighted polyfit moves when one pair is left out (pair influence).
 # Run with Debian's interpreter: /usr/bin/python3 tests/reference/make_calibration_reference.py
 import json
 import os
@@ -120,6 +121,31 @@ for i in range(len(x_grating)):
     centre_nm = max(held_sigma_x[i], HELD_FLOOR_X) * held_slope[i]
     held_sigmas.append(float(abs(miss) / np.sqrt(powers @ held_covariance @ powers + centre_nm**2)))
 
+# Pair influence: how far a weighted cubic moves, inside the span of the other pairs, when one pair is
+# left out (NumPy polyfit with and without it; the shift in x through the full fit's slope, on 41 points
+# evenly over the pairs' span). One pair stands alone in a wide gap and is pulled by 0.15 nm.
+lone_x = np.array([30.5, 88.1, 151.7, 226.3, 302.9, 1104.2, 1702.6, 1788.4, 1861.0, 1937.3, 2015.8])
+lone_t = (lone_x - centre) / half
+lone_y = (625.0 + 276.0 * lone_t - 1.8 * lone_t**2 + 0.9 * lone_t**3
+          + 0.01 * np.sin(5.1 * np.arange(len(lone_x)) + 0.2))
+LONE_PULLED = 5
+lone_y[LONE_PULLED] += 0.15
+lone_sigma_x = np.full(len(lone_x), 0.15)
+lone_slope = (276.0 - 3.6 * lone_t + 2.7 * lone_t**2) / half
+lone_weights = 1 / (lone_sigma_x * lone_slope)
+lone_full = np.polyfit(lone_t, lone_y, 3, w=lone_weights)
+lone_grid = np.linspace(lone_x.min(), lone_x.max(), 41)
+lone_grid_t = (lone_grid - centre) / half
+lone_grid_slope = np.polyval(np.polyder(lone_full), lone_grid_t) / half
+lone_shifts = []
+for i in range(len(lone_x)):
+    rest = np.arange(len(lone_x)) != i
+    without = np.polyfit(lone_t[rest], lone_y[rest], 3, w=lone_weights[rest])
+    inside = (lone_grid >= lone_x[rest].min()) & (lone_grid <= lone_x[rest].max())
+    shift = np.abs(np.polyval(lone_full, lone_grid_t) - np.polyval(without, lone_grid_t)) / np.abs(
+        lone_grid_slope)
+    lone_shifts.append(float(shift[inside].max()))
+
 result = {
     "generator": "tests/reference/make_calibration_reference.py",
     "numpyVersion": np.__version__,
@@ -158,6 +184,13 @@ result = {
         "centreFloorX": HELD_FLOOR_X,
         "pulledIndex": HELD_PULLED,
         "sigmas": held_sigmas,
+    },
+    "pairInfluence": {
+        "x": lone_x.tolist(),
+        "wavelengthNm": lone_y.tolist(),
+        "xUncertainty": lone_sigma_x.tolist(),
+        "pulledIndex": LONE_PULLED,
+        "shiftsX": lone_shifts,
     },
 }
 with open(os.path.join(HERE, "calibration-reference.json"), "w") as handle:

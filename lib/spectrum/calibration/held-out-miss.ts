@@ -19,7 +19,7 @@ import {
 } from "./fit-calibration";
 import type { LampPair } from "./lamp-pairing-types";
 import { modelEvaluation } from "./model-evaluation";
-import { jacobianCovariance } from "./jacobian-covariance";
+import { linearisedFit } from "./linearised-fit";
 
 /** The options that refit `model`'s own shape: the same kind and degree, a prism's glass and angles. */
 function sameShape(model: CalibrationModel): FitCalibrationOptions {
@@ -57,37 +57,19 @@ function linearisedMisses(
   model: CalibrationModel,
   centreFloorX: number,
 ): number[] | null {
+  const fit = linearisedFit(pairs, sigmaX, model);
+  if (!fit) return null;
+  const { weightedResiduals: u, sigmaNm, slope, leverage } = fit;
   const n = pairs.length;
   const p = model.parameters.length;
-  const { wavelengthNm, dispersion, jacobian } = modelEvaluation(
-    model,
-    pairs.map((q) => q.x),
-    true,
-  );
-  // The fit's own weights: σx through the dispersion.
-  const slope = (i: number) => Math.max(Math.abs(dispersion[i]), 1e-12);
-  const sigmaNm = sigmaX.map((s, i) => s * slope(i));
-  const rows = pairs.map((_, i) =>
-    Array.from({ length: p }, (_, k) => jacobian![i * p + k] / sigmaNm[i]),
-  );
-  const u = pairs.map((q, i) => (q.wavelengthNm - wavelengthNm[i]) / sigmaNm[i]);
-  let covariance: number[][];
-  try {
-    covariance = jacobianCovariance(rows);
-  } catch {
-    return null;
-  }
   const chiSquare = u.reduce((sum, v) => sum + v * v, 0);
-  return pairs.map((pair, i) => {
-    let h = 0;
-    for (let a = 0; a < p; a++)
-      for (let b = 0; b < p; b++) h += rows[i][a] * covariance[a][b] * rows[i][b];
-    h = Math.min(h, 1 - 1e-12);
+  return pairs.map((_, i) => {
+    const h = leverage[i];
     const restScale = Math.max(chiSquare - (u[i] * u[i]) / (1 - h), 0) / (n - 1 - p);
     return missInSigmas(
       (u[i] * sigmaNm[i]) / (1 - h),
       restScale * sigmaNm[i] ** 2 * (h / (1 - h)),
-      Math.max(sigmaX[i], centreFloorX) * slope(i),
+      Math.max(sigmaX[i], centreFloorX) * slope[i],
     );
   });
 }
