@@ -292,6 +292,12 @@ export function recalibrateFromPrevious(
   const previousFit = previous.rmsNm / toleranceNm;
   const rivalShare = rival.score / chosenScore;
   const limits = RECALIBRATION_LIMITS;
+  const moved = `moved by ${signed(todayX(middle) - middle, 2)} x units at the middle`;
+  const stretchWords = `stretched by ${signed(100 * (drift.stretch - 1), 3)} %`;
+  // A drift beyond a day's is a realignment, whose aliases (the lamp's lines moved onto other lines)
+  // a few lines can agree with: on the re-recorded sweep (200 instruments of 15400000) the one such
+  // recalibration "paired" was 17 nm off, its 8 lines each on another line's peak.
+  const dailyShare = dailyDriftShare(drift, context.domain);
   const checks: PairingCheck[] = [
     check(
       "pairs",
@@ -324,6 +330,12 @@ export function recalibrateFromPrevious(
       `the previous calibration fitted its own lamp lines to an RMS of ${previous.rmsNm.toFixed(3)} nm, too loosely to carry today's`,
     ),
     check(
+      "daily-drift",
+      dailyShare,
+      dailyShare <= 1,
+      `the array ${moved} and was ${stretchWords} since the previous calibration, more than a day's drift: a realigned instrument is trusted when a blind search finds the same axis, or when you confirm it`,
+    ),
+    check(
       "expected-lines",
       expectedShare,
       expectedShare >= limits.minExpectedShare,
@@ -341,8 +353,6 @@ export function recalibrateFromPrevious(
   const margin = Math.min(1, Math.max(0, Math.min(...margins)));
   const passed = checks.every((c) => c.passed);
   const reasons = checks.filter((c) => !c.passed).map((c) => c.reason);
-  const moved = `moved by ${signed(todayX(middle) - middle, 2)} x units at the middle`;
-  const stretchWords = `stretched by ${signed(100 * (drift.stretch - 1), 3)} %`;
   const rivalPairs =
     rivalShare > limits.maxRivalShare ? rival.pairs.sort((a, b) => a.x - b.x) : undefined;
   return {
@@ -658,6 +668,21 @@ function bendOf(pairs: Candidate[], straight: StraightFit, [xMin, xMax]: [number
 }
 
 /**
+ * How large `drift` is against a day's (RECALIBRATION_LIMITS.maxDailyStretch and maxDailyShiftShare):
+ * the larger of its stretch and its shift at the array's middle, each over its daily bound (≤ 1 is a
+ * day's drift).
+ */
+function dailyDriftShare(drift: LinearDrift, [xMin, xMax]: [number, number]): number {
+  const limits = RECALIBRATION_LIMITS;
+  const middle = 0.5 * (xMin + xMax);
+  const shift = drift.stretch * middle + drift.offset - middle;
+  return Math.max(
+    Math.abs(drift.stretch - 1) / limits.maxDailyStretch,
+    Math.abs(shift) / (limits.maxDailyShiftShare * (xMax - xMin)),
+  );
+}
+
+/**
  * Where today's calibration is known: yesterday's covered range moved by the drift, narrowed to where the
  * drift's own 1σ stays within maxDriftSigma tolerances (it grows away from the lines' weighted middle)
  * and to maxExtrapolationShare of the array beyond the outermost lines. Empty ([c, c]) when the lines
@@ -673,13 +698,10 @@ function coveredByDrift(
   const limits = RECALIBRATION_LIMITS;
   const xs = pairs.map((p) => p.x).sort((a, b) => a - b);
   const span = xMax - xMin;
-  const middle = 0.5 * (xMin + xMax);
   // A day's drift keeps yesterday's shape, so it holds a little beyond today's lines. A large one is a
   // realigned instrument whose shape may have bent: it is trusted only between the lines, the outermost
   // at each end left out (one chance coincidence far from the rest would otherwise stretch it).
-  const small =
-    Math.abs(drift.stretch - 1) <= limits.maxDailyStretch &&
-    Math.abs(drift.stretch * middle + drift.offset - middle) <= limits.maxDailyShiftShare * span;
+  const small = dailyDriftShare(drift, [xMin, xMax]) <= 1;
   const inner = xs.length >= 4 && !small ? xs.slice(1, -1) : xs;
   const reach = small ? limits.maxExtrapolationShare * span : 0;
   let low = Math.max(xMin, drift.stretch * previous.coveredX[0] + drift.offset, inner[0] - reach);

@@ -51,6 +51,7 @@ export interface PairingCheck {
     | "rival-pairing"
     | "second-search"
     | "drift-precision"
+    | "daily-drift"
     | "previous-fit";
   passed: boolean;
   /** The check's measure (see each check); larger is worse except for "expected-lines" and "pairs". */

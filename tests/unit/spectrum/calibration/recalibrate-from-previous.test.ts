@@ -148,6 +148,32 @@ describe("recalibration from the previous calibration", () => {
     expect(result!.rivalSuggestion?.length ?? 0).toBeGreaterThan(10);
   });
 
+  it("leaves a drift beyond a day's to check, and trusts it when a blind search finds the same axis", () => {
+    const previous = previousOf(yesterdayNm);
+    // Realigned: x = 1.009·u − 30, 0.9 % of stretch and 21 px at the middle (a day's is up to 0.5 %
+    // and 1 % of the array).
+    const todayPx = (nm: number) => 1.009 * yesterdayPx(nm) - 30;
+    const peaks = lampPeaks(HG_NE_AR_LINES, todayPx, 5);
+    const recalibrated = recalibrateFromPrevious(
+      pairingContext(peaks, HG_NE_AR_LINES, options),
+      previous,
+    )!;
+    expect(recalibrated.status).toBe("check");
+    const daily = recalibrated.checks!.find((c) => c.name === "daily-drift")!;
+    expect(daily.passed).toBe(false);
+    expect(daily.reason).toMatch(/more than a day's drift/);
+    // Every other check passes: the drift alone is the doubt.
+    expect(recalibrated.checks!.filter((c) => !c.passed)).toHaveLength(1);
+    const result = autoPairLampPeaks(peaks, HG_NE_AR_LINES, { ...options, previous });
+    expect(result.status).toBe("paired");
+    expect(result.message).not.toMatch(/^recalibrated/);
+    const xs = Float64Array.from([300, 1000, 1700]);
+    const calibrated = evaluateCalibration(result.model!.model, xs);
+    xs.forEach((x, i) =>
+      expect(Math.abs(calibrated[i] - yesterdayNm((x + 30) / 1.009))).toBeLessThan(0.05),
+    );
+  });
+
   it("does not take a bent axis (a realigned instrument) for a drift", () => {
     const previous = previousOf(yesterdayNm);
     // Several tolerances of bend across the array: no straight drift holds it.
