@@ -398,7 +398,7 @@ export function verifyLampPairing(
     passed: !lopsided,
     value: endGap,
     reason: lopsided
-      ? `${beyondGap.length === 1 ? "one pair" : `${beyondGap.length} pairs`} at an end of the covered range stand beyond a gap of ${(100 * endGap).toFixed(0)} % of it, so ${beyondGap.length === 1 ? "it alone decides" : "they alone decide"} the calibration there`
+      ? `${beyondGap.length === 1 ? "one pair" : `${beyondGap.length} pairs`} at an end of the covered range ${beyondGap.length === 1 ? "stands" : "stand"} beyond a gap of ${(100 * endGap).toFixed(0)} % of it, so ${beyondGap.length === 1 ? "it alone decides" : "they alone decide"} the calibration there`
       : "",
   });
 
