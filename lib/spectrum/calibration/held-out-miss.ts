@@ -19,7 +19,7 @@ import {
 } from "./fit-calibration";
 import type { LampPair } from "./lamp-pairing-types";
 import { modelEvaluation } from "./model-evaluation";
-import { linearisedFit } from "./linearised-fit";
+import { linearisedFit, type LinearisedFit } from "./linearised-fit";
 
 /** The options that refit `model`'s own shape: the same kind and degree, a prism's glass and angles. */
 function sameShape(model: CalibrationModel): FitCalibrationOptions {
@@ -46,24 +46,21 @@ function missInSigmas(
 }
 
 /**
- * Every pair's held-out miss from one linearisation of `model` at its fit (no refits): the deleted
- * residual rᵢ/(1 − hᵢ) with the leverage hᵢ of the weighted Jacobian, and the others' prediction
- * variance s₍ᵢ₎²·σᵢ²·hᵢ/(1 − hᵢ), s₍ᵢ₎² being their χ² per degree of freedom. Exact for a polynomial;
- * for a prism or Hartmann curve an estimate. Null when the Jacobian is singular.
+ * Every pair's held-out miss from `fit`, the linearisation of `model` at its fit (no refits): the
+ * deleted residual rᵢ/(1 − hᵢ) with the leverage hᵢ of the weighted Jacobian, and the others'
+ * prediction variance s₍ᵢ₎²·σᵢ²·hᵢ/(1 − hᵢ), s₍ᵢ₎² being their χ² per degree of freedom. Exact for a
+ * polynomial; for a prism or Hartmann curve an estimate.
  */
 function linearisedMisses(
-  pairs: readonly LampPair[],
-  sigmaX: readonly number[],
+  fit: LinearisedFit,
   model: CalibrationModel,
   centreFloorX: number,
-): number[] | null {
-  const fit = linearisedFit(pairs, sigmaX, model);
-  if (!fit) return null;
-  const { weightedResiduals: u, sigmaNm, slope, leverage } = fit;
-  const n = pairs.length;
+): number[] {
+  const { sigmaX, weightedResiduals: u, sigmaNm, slope, leverage } = fit;
+  const n = u.length;
   const p = model.parameters.length;
   const chiSquare = u.reduce((sum, v) => sum + v * v, 0);
-  return pairs.map((_, i) => {
+  return u.map((_, i) => {
     const h = leverage[i];
     const restScale = Math.max(chiSquare - (u[i] * u[i]) / (1 - h), 0) / (n - 1 - p);
     return missInSigmas(
@@ -110,7 +107,7 @@ function refittedMiss(
  * linearisation, which overstates a prism's misses where its parameters are strongly correlated; the
  * pairs it puts beyond `screenSigmas` are refitted exactly, and their exact miss counts.
  * `centreFloorX` is the least σ of a centre (x units): no peak is known better than a small share of
- * its width.
+ * its width. `fit` is `model` linearised at `pairs`, when the caller has it already.
  */
 export function worstHeldOutMiss(
   pairs: readonly LampPair[],
@@ -118,10 +115,11 @@ export function worstHeldOutMiss(
   domain: [number, number],
   centreFloorX: number,
   screenSigmas: number,
+  fit: LinearisedFit | null = linearisedFit(pairs, model),
 ): { pair: LampPair; sigmas: number } | null {
   if (pairs.length - 1 < model.parameters.length + 1) return null;
-  const sigmaX = fittedXUncertainties(pairs);
-  const linearised = linearisedMisses(pairs, sigmaX, model, centreFloorX);
+  const sigmaX = fit?.sigmaX ?? fittedXUncertainties(pairs);
+  const linearised = fit && linearisedMisses(fit, model, centreFloorX);
   let worst: { pair: LampPair; sigmas: number } | null = null;
   pairs.forEach((pair, i) => {
     const screened = linearised ? linearised[i] : Infinity;

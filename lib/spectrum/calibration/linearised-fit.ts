@@ -3,11 +3,14 @@
 // polynomial (a linear model); for a prism or Hartmann curve the first-order picture. The regression
 // diagnostics that ask what one pair does to the fit (held-out-miss.ts, pair-influence.ts) share it.
 import type { CalibrationModel } from "./calibration-model";
+import { fittedXUncertainties } from "./fit-calibration";
 import { jacobianCovariance } from "./jacobian-covariance";
 import type { LampPair } from "./lamp-pairing-types";
 import { modelEvaluation } from "./model-evaluation";
 
 export interface LinearisedFit {
+  /** Each pair's σx as the fit weighs it (fittedXUncertainties). */
+  sigmaX: number[];
   /** Each pair's Jacobian row ∂λ/∂p divided by its σ in nm. */
   rows: number[][];
   /** (JᵀWJ)⁻¹ of those rows. */
@@ -22,12 +25,12 @@ export interface LinearisedFit {
   leverage: number[];
 }
 
-/** `model` linearised at `pairs` with the fit's σx (`sigmaX`); null when the Jacobian is singular. */
+/** `model` linearised at `pairs`, weighed as the fit weighs them; null when the Jacobian is singular. */
 export function linearisedFit(
   pairs: readonly LampPair[],
-  sigmaX: readonly number[],
   model: CalibrationModel,
 ): LinearisedFit | null {
+  const sigmaX = fittedXUncertainties(pairs);
   const p = model.parameters.length;
   const { wavelengthNm, dispersion, jacobian } = modelEvaluation(
     model,
@@ -51,5 +54,5 @@ export function linearisedFit(
     for (let a = 0; a < p; a++) for (let b = 0; b < p; b++) h += row[a] * covariance[a][b] * row[b];
     return Math.min(h, 1 - 1e-12);
   });
-  return { rows, covariance, weightedResiduals, sigmaNm, slope, leverage };
+  return { sigmaX, rows, covariance, weightedResiduals, sigmaNm, slope, leverage };
 }

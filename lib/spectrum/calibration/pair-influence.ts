@@ -8,9 +8,8 @@
 // the parameters is the linearised DFBETA of Belsley, Kuh & Welsch, Regression Diagnostics (1980;
 // cited from memory), C·Jᵢᵀ·rᵢ/(1 − hᵢ) in the weighted fit, exact for a polynomial.
 import type { CalibrationModel } from "./calibration-model";
-import { fittedXUncertainties } from "./fit-calibration";
 import type { LampPair } from "./lamp-pairing-types";
-import { linearisedFit } from "./linearised-fit";
+import { linearisedFit, type LinearisedFit } from "./linearised-fit";
 import { modelEvaluation } from "./model-evaluation";
 
 /** Points at which the shift is looked for, evenly over the pairs' span. */
@@ -18,17 +17,17 @@ const GRID_POINTS = 41;
 
 /**
  * The pair whose absence moves `model` farthest inside the others' span, and by how much (x units);
- * null with too few pairs to leave one out, or when the fit cannot be linearised.
+ * null with too few pairs to leave one out, or when the fit cannot be linearised. `fit` is `model`
+ * linearised at `pairs`, when the caller has it already.
  */
 export function largestPairInfluence(
   pairs: readonly LampPair[],
   model: CalibrationModel,
+  fit: LinearisedFit | null = linearisedFit(pairs, model),
 ): { pair: LampPair; shiftX: number } | null {
   const n = pairs.length;
   const p = model.parameters.length;
-  if (n - 1 < p + 1) return null;
-  const fit = linearisedFit(pairs, fittedXUncertainties(pairs), model);
-  if (!fit) return null;
+  if (n - 1 < p + 1 || !fit) return null;
   const xs = pairs.map((q) => q.x);
   const [low, high] = [Math.min(...xs), Math.max(...xs)];
   const grid = Array.from(

@@ -32,6 +32,7 @@ import { predictedByTheRest, predictionOfPairs } from "./predicted-by-the-rest";
 import { weightedLeastSquares } from "./weighted-least-squares";
 import { worstHeldOutMiss } from "./held-out-miss";
 import { largestPairInfluence } from "./pair-influence";
+import { linearisedFit } from "./linearised-fit";
 import { describePairs } from "./describe-pairs";
 
 /** One check of a pairing, with its measure and, when it fails, why in words. */
@@ -543,12 +544,15 @@ export function verifyLampPairing(
   // Held out: each pair against the final model's shape refitted without it, in σ. The leave-one-out
   // check above judges in tolerances with a polynomial; this one in the calibration's own shape and
   // precision, where a wrong pair in a gap that the shape bent onto stands out.
+  // One linearisation of the final fit serves the held-out and pair-influence checks.
+  const linearised = linearisedFit(pairs, fit.model);
   const heldOut = worstHeldOutMiss(
     pairs,
     fit.model,
     context.domain,
     centreFloor,
     HELD_OUT_SCREEN * limits.maxHeldOutMiss,
+    linearised,
   );
   const heldOutMiss = heldOut?.sigmas ?? 0;
   const heldOutFailed = heldOutMiss > limits.maxHeldOutMiss;
@@ -564,7 +568,7 @@ export function verifyLampPairing(
   // Pair influence: a grating's polynomial must not hang on any one pair inside the others' span.
   const influence =
     context.dispersion === "grating" && fit.model.kind === "polynomial"
-      ? largestPairInfluence(pairs, fit.model)
+      ? largestPairInfluence(pairs, fit.model, linearised)
       : null;
   const influenceShare = influence ? influence.shiftX / fwhmX : 0;
   const influenceFailed = !(influenceShare <= limits.maxPairInfluence);
