@@ -2,6 +2,14 @@
 // a peak flagged broad (too wide for one atomic line) is offered band heads only.
 
 import type { CalibratedPeak, ReferenceLine, WavelengthMedium } from "../types";
+import {
+  candidatesFromColumns,
+  finishCandidates,
+  pushCandidate,
+  startCandidates,
+  type CandidateColumns,
+  type LineCandidate,
+} from "./candidate-columns";
 import { depthIntoBandNm } from "./depth-into-band";
 import { leansLikeBand } from "./leans-like-band";
 import { lowerBound } from "./lower-bound";
@@ -37,29 +45,18 @@ export interface MatchPeaksToLinesOptions {
   bandHeadZoneFraction?: number;
 }
 
-/** One reference line (or band) that could explain a peak. */
-export interface LineCandidate {
-  /** Position of the line in the table given to prepareLineIndex. */
-  lineIndex: number;
-  line: ReferenceLine;
-  kind: "line" | "band";
-  /** Tabulated wavelength used for the comparison (the band head for bands), in nm. */
-  referenceNm: number;
-  /** Observed minus tabulated wavelength, in nm. */
-  deltaNm: number;
-  /** Combined one-sigma tolerance for this pair, in nm. */
-  sigmaNm: number;
-  /** For lines deltaNm/sigmaNm; for bands the distance outside the head zone over sigmaNm
-   * (0 inside it, negative on the head's open side). |deltaSigma| ≤ k always holds. */
-  deltaSigma: number;
-}
+export type { LineCandidate } from "./candidate-columns";
 
-/** The candidates of one peak, closest (smallest |deltaSigma|) first. */
+/** The candidates of one peak. */
 export interface PeakMatch {
   /** Position of the peak in the input array. */
   peakIndex: number;
   peak: CalibratedPeak;
-  candidates: LineCandidate[];
+  /** The candidates as objects, closest (smallest |deltaSigma|) first; built from `columns` when
+   * first read. */
+  readonly candidates: LineCandidate[];
+  /** The same candidates as columns, in the order the search met them: what reads them all. */
+  columns: CandidateColumns;
 }
 
 /** A band at least this many instrument FWHM long is resolved (common practice, no source)… */
@@ -104,7 +101,9 @@ export function matchPeaksToLines(
     throw new RangeError(`medium "${medium}" disagrees with the line index's "${index.medium}"`);
   }
 
-  return peaks.map((peak, peakIndex) => {
+  const found = startCandidates();
+  const ends: number[] = [];
+  peaks.forEach((peak, peakIndex) => {
     assertPeak(peak, peakIndex);
     const instrumentNm = peak.resolutionNm ?? resolutionNm;
     // The instrument's FWHM at the peak, or a blended peak's own when wider (its components can lie
@@ -133,7 +132,6 @@ export function matchPeaksToLines(
           );
     const baseVarianceNm2 = peak.wavelengthUncertaintyNm ** 2 + sigmaResNm ** 2;
     const bandVarianceNm2 = peak.wavelengthUncertaintyNm ** 2 + bandSigmaResNm ** 2;
-    const candidates: LineCandidate[] = [];
 
     const lineReachNm = k * Math.sqrt(baseVarianceNm2 + index.maxLineUncertaintyNm ** 2);
     // Several instrument widths wide is a band, a blend of many lines or continuum structure:
@@ -152,16 +150,7 @@ export function matchPeaksToLines(
       const deltaNm = peak.wavelengthNm - referenceNm;
       const deltaSigma = deltaNm / sigmaNm;
       if (Math.abs(deltaSigma) <= k) {
-        const lineIndex = lineOrder[i];
-        candidates.push({
-          lineIndex,
-          line: index.lines[lineIndex],
-          kind: "line",
-          referenceNm,
-          deltaNm,
-          sigmaNm,
-          deltaSigma,
-        });
+        pushCandidate(found, lineOrder[i], false, referenceNm, deltaNm, sigmaNm, deltaSigma);
       }
     }
 
@@ -198,23 +187,23 @@ export function matchPeaksToLines(
           // A resolved band's peak leans away from its head.
           (!resolved || leansLikeBand(peak, band, instrumentNm))
         ) {
-          candidates.push({
-            lineIndex,
-            line,
-            kind: "band",
-            referenceNm,
-            deltaNm,
-            sigmaNm,
-            deltaSigma,
-          });
+          pushCandidate(found, lineIndex, true, referenceNm, deltaNm, sigmaNm, deltaSigma);
         }
       }
     }
 
-    candidates.sort(
-      (a, b) => Math.abs(a.deltaSigma) - Math.abs(b.deltaSigma) || a.lineIndex - b.lineIndex,
-    );
-    return { peakIndex, peak, candidates };
+    ends.push(found.count);
+  });
+  return finishCandidates(found, index.lines, ends).map((columns, peakIndex) => {
+    let candidates: LineCandidate[] | undefined;
+    return {
+      peakIndex,
+      peak: peaks[peakIndex],
+      get candidates() {
+        return (candidates ??= candidatesFromColumns(columns));
+      },
+      columns,
+    };
   });
 }
 

@@ -1,7 +1,8 @@
 // Weighs the matched lines per species into a present / possible / absent call with its evidence.
 
 import type { CalibratedPeak, ReferenceLine, SourceKind } from "../types";
-import type { LineCandidate, PeakMatch } from "./match-peaks-to-lines";
+import { closestFirstOrder, type CandidateColumns } from "./candidate-columns";
+import type { PeakMatch } from "./match-peaks-to-lines";
 import { countAtLeast } from "./count-at-least";
 import { depthIntoBandNm } from "./depth-into-band";
 import { lowerBound, positionsWithin } from "./lower-bound";
@@ -169,10 +170,23 @@ export interface ElementScoring {
   unexplainedPeaks: UnexplainedPeak[];
 }
 
+/** Every candidate of every peak in one numbering (see flattenCandidates). */
+interface FlatCandidates {
+  /** Each candidate's peak (its position in the matches) and its position in that peak's columns. */
+  matchOf: Uint32Array;
+  at: Uint32Array;
+  lineIndex: Uint32Array;
+  /** |Δλ/σ|. */
+  absSigma: Float64Array;
+  /** The columns of each peak, by position in the matches. */
+  columns: CandidateColumns[];
+}
+
 interface SeenGroup {
   peakIndex: number;
   peak: CalibratedPeak;
-  candidates: LineCandidate[];
+  /** Its lines' candidates (numbers in FlatCandidates), in table order. */
+  members: number[];
   weight: number;
   ratedWeight: number;
   quality: number;
@@ -197,8 +211,13 @@ interface SpeciesWork {
   groups: SeenGroup[];
   /** Lines in range whose relative intensity is at least strongLineFraction. */
   strongInRange: number;
-  /** Hidden missing lines and the strongest others; see ElementCall.missing. */
-  missing: MissingLineEvidence[];
+  /** Positions (in info.lines) of the hidden missing lines and of the strongest others, strongest
+   * first; see ElementCall.missing. Evidence is built only for those a call lists. */
+  missing: number[];
+  /** The peak that may hide each hidden missing line, by position. */
+  hiddenBy: Map<number, number>;
+  /** SNR per unit of relative intensity, from the anchor; null without one. */
+  snrPerRelative: number | null;
   missingCount: number;
   missingStrongCount: number;
   missingWeight: number;
@@ -288,38 +307,26 @@ export function scoreElements(
 
   // Each line is credited to the one peak it matches best, so no line is seen twice. The winner
   // of each line is kept in scratch arrays over the table, valid for this call's generation only.
-  const candidateCount = matches.reduce((n, match) => n + match.candidates.length, 0);
-  const candidateMatch = new Uint32Array(candidateCount);
-  const candidateAt = new Uint32Array(candidateCount);
+  const candidates = flattenCandidates(matches, index);
   const { owner: bestCandidateOfLine, stamp, generation } = nextScratch(index);
   const isMatched = (lineIndex: number) => stamp[lineIndex] === generation;
-  let flat = 0;
-  for (let m = 0; m < matches.length; m++) {
-    const match = matches[m];
-    // One line of each peak tells a table other than the one scored (a check of every candidate
-    // would read the table's rows at random, one cache miss per line).
-    const first = match.candidates[0];
-    if (first && index.lines[first.lineIndex] !== first.line) {
-      throw new RangeError(
-        `peak ${match.peakIndex} was matched against a different line table than the one scored`,
-      );
+  for (let flat = 0; flat < candidates.lineIndex.length; flat++) {
+    const lineIndex = candidates.lineIndex[flat];
+    if (stamp[lineIndex] !== generation) {
+      stamp[lineIndex] = generation;
+      bestCandidateOfLine[lineIndex] = flat;
+      continue;
     }
-    for (let c = 0; c < match.candidates.length; c++, flat++) {
-      const candidate = match.candidates[c];
-      candidateMatch[flat] = m;
-      candidateAt[flat] = c;
-      if (stamp[candidate.lineIndex] !== generation) {
-        stamp[candidate.lineIndex] = generation;
-        bestCandidateOfLine[candidate.lineIndex] = flat;
-        continue;
-      }
-      const heldFlat = bestCandidateOfLine[candidate.lineIndex];
-      const heldMatch = matches[candidateMatch[heldFlat]];
-      const heldSigma = Math.abs(heldMatch.candidates[candidateAt[heldFlat]].deltaSigma);
-      const sigma = Math.abs(candidate.deltaSigma);
-      if (sigma < heldSigma || (sigma === heldSigma && match.peakIndex < heldMatch.peakIndex)) {
-        bestCandidateOfLine[candidate.lineIndex] = flat;
-      }
+    const heldFlat = bestCandidateOfLine[lineIndex];
+    const heldSigma = candidates.absSigma[heldFlat];
+    const sigma = candidates.absSigma[flat];
+    if (
+      sigma < heldSigma ||
+      (sigma === heldSigma &&
+        matches[candidates.matchOf[flat]].peakIndex <
+          matches[candidates.matchOf[heldFlat]].peakIndex)
+    ) {
+      bestCandidateOfLine[lineIndex] = flat;
     }
   }
 
@@ -352,6 +359,8 @@ export function scoreElements(
       groups: [],
       strongInRange,
       missing: [],
+      hiddenBy: new Map(),
+      snrPerRelative: null,
       missingCount: 0,
       missingStrongCount: 0,
       missingWeight: 0,
@@ -377,25 +386,26 @@ export function scoreElements(
   const speciesAtPeak = new Map<number, string[]>();
   const speciesStamp = new Int32Array(index.species.length).fill(-1);
   const groupOfSpecies: (SeenGroup | undefined)[] = new Array(index.species.length);
-  flat = 0;
+  let flat = 0;
   for (let m = 0; m < matches.length; m++) {
     const match = matches[m];
     const names: string[] = [];
     const here: SeenGroup[] = [];
-    for (const candidate of match.candidates) {
-      const id = index.speciesOfLine[candidate.lineIndex];
+    for (let c = 0; c < match.columns.count; c++, flat++) {
+      const lineIndex = candidates.lineIndex[flat];
+      const id = index.speciesOfLine[lineIndex];
       if (speciesStamp[id] !== m) {
         speciesStamp[id] = m;
         names.push(index.species[id].species);
         groupOfSpecies[id] = undefined;
       }
-      if (bestCandidateOfLine[candidate.lineIndex] !== flat++) continue;
+      if (bestCandidateOfLine[lineIndex] !== flat) continue;
       let group = groupOfSpecies[id];
       if (!group) {
         group = {
           peakIndex: match.peakIndex,
           peak: match.peak,
-          candidates: [],
+          members: [],
           weight: 0,
           ratedWeight: 0,
           quality: 0,
@@ -404,17 +414,26 @@ export function scoreElements(
         groupOfSpecies[id] = group;
         here.push(group);
       }
-      group.candidates.push(candidate);
+      group.members.push(flat);
     }
     speciesAtPeak.set(match.peakIndex, names.sort());
     if (here.length === 0) continue;
+    // The columns hold a table's lines in wavelength order, then its bands: a group is in table
+    // order already unless the table was not given in wavelength order or mixes in a band.
+    const lineOf = candidates.lineIndex;
     for (const group of here) {
-      if (group.candidates.length > 1) group.candidates.sort((x, y) => x.lineIndex - y.lineIndex);
+      const { members } = group;
+      for (let i = 1; i < members.length; i++) {
+        if (lineOf[members[i]] < lineOf[members[i - 1]]) {
+          members.sort((x, y) => lineOf[x] - lineOf[y]);
+          break;
+        }
+      }
     }
-    here.sort((x, y) => x.candidates[0].lineIndex - y.candidates[0].lineIndex);
+    here.sort((x, y) => lineOf[x.members[0]] - lineOf[y.members[0]]);
     const atPeak = new Map<string, SeenGroup>();
     for (const group of here) {
-      const lineIndex = group.candidates[0].lineIndex;
+      const lineIndex = lineOf[group.members[0]];
       atPeak.set(index.species[index.speciesOfLine[lineIndex]].species, group);
       workOf(lineIndex).groups.push(group);
     }
@@ -433,11 +452,11 @@ export function scoreElements(
       let rated = 0;
       let unrated = 0;
       let closest = Infinity;
-      for (const candidate of group.candidates) {
-        const relative = relativeInSpecies[positionInSpecies[candidate.lineIndex]];
+      for (const member of group.members) {
+        const relative = relativeInSpecies[positionInSpecies[candidates.lineIndex[member]]];
         if (Number.isNaN(relative)) unrated += unratedLineWeight;
         else rated += relative;
-        closest = Math.min(closest, Math.abs(candidate.deltaSigma));
+        closest = Math.min(closest, candidates.absSigma[member]);
       }
       group.ratedWeight = Math.min(1, rated);
       group.weight = Math.min(1, rated + unrated);
@@ -455,7 +474,7 @@ export function scoreElements(
         null,
       );
     entry.anchor = strongest(entry.groups.filter(ownPeak)) ?? strongest(entry.groups);
-    predictMissing(entry, isMatched, index, source, {
+    predictMissing(entry, candidates, isMatched, index, source, {
       missingSnr: detectionLimitSnr * missingSnrFactor,
       strongLineFraction,
       maxListed: maxMissingListed,
@@ -536,6 +555,9 @@ export function scoreElements(
       relativeOf,
       positionInSpecies,
       maxSeenListed,
+      maxListedWhenAbsent,
+      candidates,
+      lines: index.lines,
     });
     if (call) calls.push(call);
   }
@@ -581,7 +603,7 @@ export function scoreElements(
         species: credibleHere,
       });
     }
-    if (match.candidates.length === 0) {
+    if (match.columns.count === 0) {
       unexplainedPeaks.push({
         peakIndex: match.peakIndex,
         peak: match.peak,
@@ -775,7 +797,9 @@ function demoteSinglePeakCalls(calls: ElementCall[], context: SinglePeakContext)
     ) {
       within.push(index.lineOrder[i]);
     }
-    for (const lineIndex of [...match.candidates.map((c) => c.lineIndex), ...within]) {
+    const { columns } = match;
+    const closest = Array.from(closestFirstOrder(columns), (i) => columns.lineIndex[i]);
+    for (const lineIndex of [...closest, ...within]) {
       const lines = index.species[index.speciesOfLine[lineIndex]];
       const rival = context.work.get(lines.species);
       if (lines.element === call.element || !rival) continue;
@@ -906,6 +930,7 @@ function demoteToPossible(call: ElementCall, note: string, reason: string): void
  */
 function predictMissing(
   entry: SpeciesWork,
+  candidates: FlatCandidates,
   isMatched: (lineIndex: number) => boolean,
   index: LineIndex,
   source: SourceKind,
@@ -937,21 +962,13 @@ function predictMissing(
   const ranges = [info.atomicJudged, info.bandsJudged];
   const [[atomicFrom, atomicTo], [bandFrom, bandTo]] = ranges;
   const inRange = (p: number) => (p >= atomicFrom && p < atomicTo) || (p >= bandFrom && p < bandTo);
-  const evidenceAt = (position: number, hiddenByPeakIndex: number | null): MissingLineEvidence => ({
-    lineIndex: order[position],
-    line: index.lines[order[position]],
-    referenceNm: nm[position],
-    relativeIntensity: relative[position],
-    predictedSnr: scale === null ? null : scale * relative[position],
-    hiddenByPeakIndex,
-  });
 
   let matchedCount = 0;
   let matchedStrongCount = 0;
   let matchedSum = 0;
   for (const group of entry.groups) {
-    for (const candidate of group.candidates) {
-      const p = index.positionInSpecies[candidate.lineIndex];
+    for (const member of group.members) {
+      const p = index.positionInSpecies[candidates.lineIndex[member]];
       if (!inRange(p) || !(relative[p] >= least)) continue;
       matchedCount++;
       matchedSum += relative[p];
@@ -1037,9 +1054,28 @@ function predictMissing(
       entry.missingWeight = weight * Math.max(0, total - matchedSum);
     }
   }
-  entry.missing = [...hidden, ...listed]
-    .sort(strongestFirst)
-    .map((p) => evidenceAt(p, hiddenBy.get(p) ?? null));
+  entry.missing = [...hidden, ...listed].sort(strongestFirst);
+  entry.hiddenBy = hiddenBy;
+  entry.snrPerRelative = scale;
+}
+
+/** The evidence of the missing lines at `positions` of `entry`'s species (see predictMissing). */
+function missingEvidence(
+  entry: SpeciesWork,
+  positions: readonly number[],
+  lines: readonly ReferenceLine[],
+): MissingLineEvidence[] {
+  const { relative } = entry.info.scale;
+  const { order, nm } = entry.info.lines;
+  const scale = entry.snrPerRelative;
+  return positions.map((position) => ({
+    lineIndex: order[position],
+    line: lines[order[position]],
+    referenceNm: nm[position],
+    relativeIntensity: relative[position],
+    predictedSnr: scale === null ? null : scale * relative[position],
+    hiddenByPeakIndex: entry.hiddenBy.get(position) ?? null,
+  }));
 }
 
 /** Per line of a table: the winning candidate, and the call (generation) that wrote it. */
@@ -1181,13 +1217,19 @@ interface CallContext {
   relativeOf: (lineIndex: number) => number | undefined;
   positionInSpecies: Uint32Array;
   maxSeenListed: number;
+  maxListedWhenAbsent: number;
+  candidates: FlatCandidates;
+  /** The scored table's lines. */
+  lines: readonly ReferenceLine[];
 }
 
 function buildCall(species: string, entry: SpeciesWork, context: CallContext): ElementCall | null {
   const { info } = entry;
+  const { relative } = info.scale;
   const strong = context.strongLineFraction;
   const tally = tallySeen(
     entry.groups,
+    context.candidates,
     info.scale.relative,
     context.positionInSpecies,
     strong,
@@ -1198,7 +1240,11 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
   if (tally.count === 0) {
     // Report an unseen species only where it had strong lines to show; keeps the output small.
     if (strongInRange === 0) return null;
-    const missing = entry.missing.filter((m) => m.relativeIntensity >= strong);
+    const missing = missingEvidence(
+      entry,
+      entry.missing.filter((p) => relative[p] >= strong),
+      context.lines,
+    );
     const count = entry.missingStrongCount;
     // Its strong lines all lie at the array's ends, where no peak could show them: nothing to say.
     if (count === 0 && missing.length === 0) return null;
@@ -1235,14 +1281,18 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
     }
   }
 
-  const strongMissing = entry.missing.filter(
-    (m) => m.relativeIntensity >= strong && m.hiddenByPeakIndex === null,
+  const strongMissing = missingEvidence(
+    entry,
+    entry.missing.filter((p) => relative[p] >= strong && !entry.hiddenBy.has(p)),
+    context.lines,
   );
   const notes: string[] = [];
-  for (const hidden of entry.missing.filter((m) => m.hiddenByPeakIndex !== null)) {
-    const hider = context.matchByPeak.get(hidden.hiddenByPeakIndex!)!;
+  for (const p of entry.missing) {
+    const hiddenBy = entry.hiddenBy.get(p);
+    if (hiddenBy === undefined) continue;
+    const hider = context.matchByPeak.get(hiddenBy)!;
     notes.push(
-      `${hidden.referenceNm.toFixed(2)} nm may be hidden in the wing of the stronger peak at ${hider.peak.wavelengthNm.toFixed(2)} nm.`,
+      `${info.lines.nm[p].toFixed(2)} nm may be hidden in the wing of the stronger peak at ${hider.peak.wavelengthNm.toFixed(2)} nm.`,
     );
   }
   let verdict: Verdict;
@@ -1292,7 +1342,12 @@ function buildCall(species: string, entry: SpeciesWork, context: CallContext): E
     seen,
     seenCount: tally.count,
     seenPeaks: entry.groups.length,
-    missing: entry.missing,
+    // An absent call lists only its first few (see trimAbsentEvidence); its verdict stands from here.
+    missing: missingEvidence(
+      entry,
+      verdict === "absent" ? entry.missing.slice(0, context.maxListedWhenAbsent) : entry.missing,
+      context.lines,
+    ),
     missingCount: entry.missingCount,
     missingStrongCount: entry.missingStrongCount,
     overlaps,
@@ -1340,7 +1395,7 @@ function rationaleOf(
     );
   }
   // Every hidden line is listed; the rest of the missing lines are strong or weaker.
-  const hiddenCount = entry.missing.filter((m) => m.hiddenByPeakIndex !== null).length;
+  const hiddenCount = entry.missing.filter((p) => entry.hiddenBy.has(p)).length;
   const weakMissing = entry.missingCount - hiddenCount - strongCount;
   if (weakMissing > 0)
     parts.push(`${weakMissing} weaker expected line${plural(weakMissing)} missing`);
@@ -1382,6 +1437,7 @@ interface SeenTally {
  */
 function tallySeen(
   groups: readonly SeenGroup[],
+  candidates: FlatCandidates,
   relativeInSpecies: Float64Array,
   positionInSpecies: Uint32Array,
   strong: number,
@@ -1391,14 +1447,14 @@ function tallySeen(
   let strongCount = 0;
   let worstSigma = -Infinity;
   // Chosen lines as [key, ordinal, group, candidate], the weakest (then the latest) first.
-  const chosen: [number, number, SeenGroup, LineCandidate][] = [];
+  const chosen: [number, number, SeenGroup, number][] = [];
   for (const group of groups) {
-    for (const candidate of group.candidates) {
+    for (const member of group.members) {
       const ordinal = count++;
       // NaN marks an unrated line: it counts as intensity 0 and is listed after every rated one.
-      const relative = relativeInSpecies[positionInSpecies[candidate.lineIndex]];
+      const relative = relativeInSpecies[positionInSpecies[candidates.lineIndex[member]]];
       if ((Number.isNaN(relative) ? 0 : relative) >= strong) strongCount++;
-      worstSigma = Math.max(worstSigma, Math.abs(candidate.deltaSigma));
+      worstSigma = Math.max(worstSigma, candidates.absSigma[member]);
       if (maxListed === 0) continue;
       const key = Number.isNaN(relative) ? -1 : relative;
       // A later line displaces a chosen one only when strictly stronger.
@@ -1410,22 +1466,61 @@ function tallySeen(
         (chosen[at][0] < key || (chosen[at][0] === key && chosen[at][1] > ordinal))
       )
         at++;
-      chosen.splice(at, 0, [key, ordinal, group, candidate]);
+      chosen.splice(at, 0, [key, ordinal, group, member]);
     }
   }
   chosen.sort((a, b) => a[1] - b[1]);
-  const listed = chosen.map(([key, , group, candidate]): SeenLineEvidence => ({
-    lineIndex: candidate.lineIndex,
-    line: candidate.line,
-    peakIndex: group.peakIndex,
-    peakWavelengthNm: group.peak.wavelengthNm,
-    referenceNm: candidate.referenceNm,
-    deltaNm: candidate.deltaNm,
-    deltaSigma: candidate.deltaSigma,
-    relativeIntensity: key < 0 ? null : key,
-    snr: group.snr,
-  }));
+  const listed = chosen.map(([key, , group, member]): SeenLineEvidence => {
+    const columns = candidates.columns[candidates.matchOf[member]];
+    const at = candidates.at[member];
+    const lineIndex = columns.lineIndex[at];
+    return {
+      lineIndex,
+      line: columns.lines[lineIndex],
+      peakIndex: group.peakIndex,
+      peakWavelengthNm: group.peak.wavelengthNm,
+      referenceNm: columns.referenceNm[at],
+      deltaNm: columns.deltaNm[at],
+      deltaSigma: columns.deltaSigma[at],
+      relativeIntensity: key < 0 ? null : key,
+      snr: group.snr,
+    };
+  });
   return { count, strongCount, worstSigma, listed };
+}
+
+/**
+ * Every candidate of `matches` numbered in one sequence, peak after peak in the columns' order, with
+ * the fields every candidate is read for. Throws when a peak was matched against another table than
+ * `index`: one line of each peak tells (a check of every candidate would read the table's rows at
+ * random, one cache miss per line).
+ */
+function flattenCandidates(matches: readonly PeakMatch[], index: LineIndex): FlatCandidates {
+  const count = matches.reduce((n, match) => n + match.columns.count, 0);
+  const candidates: FlatCandidates = {
+    matchOf: new Uint32Array(count),
+    at: new Uint32Array(count),
+    lineIndex: new Uint32Array(count),
+    absSigma: new Float64Array(count),
+    columns: matches.map((match) => match.columns),
+  };
+  let flat = 0;
+  for (let m = 0; m < matches.length; m++) {
+    const columns = matches[m].columns;
+    const first = columns.lineIndex[0];
+    if (columns.count > 0 && index.lines[first] !== columns.lines[first]) {
+      throw new RangeError(
+        `peak ${matches[m].peakIndex} was matched against a different line table than the one scored`,
+      );
+    }
+    candidates.lineIndex.set(columns.lineIndex, flat);
+    for (let c = 0; c < columns.count; c++, flat++) {
+      candidates.matchOf[flat] = m;
+      candidates.at[flat] = c;
+      candidates.absSigma[flat] = Math.abs(columns.deltaSigma[c]);
+    }
+  }
+  return candidates;
 }
 
 /** Whether a species' intensities come from another kind of source than the one judged. */

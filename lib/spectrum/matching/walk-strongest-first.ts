@@ -31,7 +31,9 @@ export function walkStrongestFirst(
     while (i > 0) {
       const parent = (i - 1) >> 1;
       if (!before(heap[i], heap[parent])) break;
-      [heap[i], heap[parent]] = [heap[parent], heap[i]];
+      const held = heap[i];
+      heap[i] = heap[parent];
+      heap[parent] = held;
       i = parent;
     }
   };
@@ -48,7 +50,9 @@ export function walkStrongestFirst(
         if (left < heap.length && before(heap[left], heap[best])) best = left;
         if (right < heap.length && before(heap[right], heap[best])) best = right;
         if (best === i) break;
-        [heap[i], heap[best]] = [heap[best], heap[i]];
+        const held = heap[i];
+        heap[i] = heap[best];
+        heap[best] = held;
         i = best;
       }
     }
@@ -63,7 +67,7 @@ export function walkStrongestFirst(
     // A child straddling the range's ends keeps its maximum as the key: an upper bound of what it
     // holds inside the range, which keeps the order right (it is only split sooner).
     const width = size >>> (31 - Math.clz32(node) + 1);
-    for (const child of [2 * node, 2 * node + 1]) {
+    for (let child = 2 * node; child <= 2 * node + 1; child++) {
       const childFrom = startOf(child);
       if (childFrom >= to || childFrom + width <= from || !(maxTree[child] >= threshold)) continue;
       push(child);

@@ -285,3 +285,60 @@ describe("matchPeaksToLines", () => {
     );
   });
 });
+
+describe("matchPeaksToLines: candidates as columns", () => {
+  // A dense table (2,000 lines over 20 nm) gives each wide peak hundreds of candidates: more than the
+  // columns first hold, so they grow.
+  const dense = Array.from({ length: 2000 }, (_, i) =>
+    line(`d${i}`, i % 2 ? "Fe I" : "Ti I", 580 + (i * 20) / 2000 + 0.0001 * (i % 7)),
+  );
+  const bands = [
+    line("b", "CaOH", 590.2, {
+      ionStage: null,
+      flags: { bandHead: true },
+      band: { extentNm: 2, degradesTo: "red" },
+    }),
+  ];
+  const peaks = Array.from({ length: 19 }, (_, i) => peak(581 + i, 0.3, 2));
+
+  it("holds the same candidates as the objects, which come closest first", () => {
+    const matches = matchPeaksToLines(peaks, [...dense, ...bands], { resolutionNm: 2 });
+    let total = 0;
+    for (const match of matches) {
+      const { columns, candidates } = match;
+      total += columns.count;
+      expect(candidates).toHaveLength(columns.count);
+      const fromColumns = Array.from({ length: columns.count }, (_, i) => ({
+        lineIndex: columns.lineIndex[i],
+        kind: columns.band[i] ? "band" : "line",
+        deltaSigma: columns.deltaSigma[i],
+        sigmaNm: columns.sigmaNm[i],
+      }));
+      const fromObjects = candidates.map((c) => ({
+        lineIndex: c.lineIndex,
+        kind: c.kind,
+        deltaSigma: c.deltaSigma,
+        sigmaNm: c.sigmaNm,
+      }));
+      const byLine = (a: { lineIndex: number }, b: { lineIndex: number }) =>
+        a.lineIndex - b.lineIndex;
+      expect([...fromObjects].sort(byLine)).toEqual([...fromColumns].sort(byLine));
+      for (let i = 1; i < candidates.length; i++) {
+        expect(Math.abs(candidates[i].deltaSigma)).toBeGreaterThanOrEqual(
+          Math.abs(candidates[i - 1].deltaSigma),
+        );
+      }
+      // Read once, kept.
+      expect(match.candidates).toBe(candidates);
+    }
+    expect(total).toBeGreaterThan(2048);
+    expect(matches[9].candidates.some((c) => c.kind === "band")).toBe(true);
+  });
+
+  it("leaves an earlier result alone when it searches again", () => {
+    const first = matchPeaksToLines(peaks, dense, { resolutionNm: 2 });
+    const kept = first.map((m) => Array.from(m.columns.lineIndex));
+    matchPeaksToLines([peak(592.5, 0.3, 2)], dense, { resolutionNm: 2 });
+    expect(first.map((m) => Array.from(m.columns.lineIndex))).toEqual(kept);
+  });
+});
