@@ -184,7 +184,10 @@ export async function seedRealisticLab(url, log = () => {}) {
       );
     }
     await client.query("COMMIT");
-    await client.query("ANALYZE");
+    // The steady state of a lab, whose autovacuum has long passed over its tables: without the
+    // visibility map a count over a release reads every heap page it touches (the line range's count,
+    // 9,382 of 300,000 lines, took 85 ms instead of 1.7 ms by the index alone).
+    await client.query("VACUUM (ANALYZE)");
     log(
       `Realistic lab: ${LAB.instruments} instruments, ${LAB.spectra} spectra, ${LAB.runs} runs, ` +
         `${LAB.lines} lines, ${LAB.auditEvents} audit events in the busiest team (${((Date.now() - started) / 1000).toFixed(0)} s to top up).`,
