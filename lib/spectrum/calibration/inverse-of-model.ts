@@ -11,7 +11,7 @@ export function inverseOfModel(
   model: CalibrationModel,
   [xMin, xMax]: [number, number],
 ): (lambda: number) => number {
-  const grid = Array.from(
+  const grid = Float64Array.from(
     { length: GRID_POINTS },
     (_, i) => xMin + ((xMax - xMin) * i) / (GRID_POINTS - 1),
   );

@@ -31,9 +31,14 @@ export interface SavitzkyGolayCoefficientsOptions {
   spacing?: number;
 }
 
+/** Weights already worked out, by shape (a few shapes serve every spectrum; bounded all the same). */
+const computed = new Map<string, Float64Array>();
+const MAX_COMPUTED = 512;
+
 /**
  * Weights w such that Σ w[j]·y[j] over the window is the fitted polynomial's `derivative`-th
- * derivative at `position` ("dot" order: w[0] multiplies the first sample of the window).
+ * derivative at `position` ("dot" order: w[0] multiplies the first sample of the window). Each shape's
+ * weights are worked out once (a least-squares projector per window position) and copied out after.
  */
 export function savitzkyGolayCoefficients(
   options: SavitzkyGolayCoefficientsOptions = {},
@@ -48,6 +53,24 @@ export function savitzkyGolayCoefficients(
   if (!Number.isFinite(spacing) || spacing <= 0) {
     throw new RangeError(`spacing must be a positive finite number (got ${spacing})`);
   }
+  const key = `${windowSize} ${polynomial} ${derivative} ${position} ${spacing}`;
+  let weights = computed.get(key);
+  if (!weights) {
+    weights = projectorWeights(windowSize, polynomial, derivative, position, spacing);
+    if (computed.size >= MAX_COMPUTED) computed.clear();
+    computed.set(key, weights);
+  }
+  return weights.slice();
+}
+
+function projectorWeights(
+  windowSize: number,
+  polynomial: number,
+  derivative: number,
+  position: number,
+  spacing: number,
+): Float64Array {
+  const half = (windowSize - 1) / 2;
   const design = new Matrix(windowSize, polynomial + 1);
   for (let j = 0; j < windowSize; j++) {
     for (let k = 0; k <= polynomial; k++) design.set(j, k, (j - half) ** k);

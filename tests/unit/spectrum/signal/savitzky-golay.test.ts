@@ -31,6 +31,20 @@ describe("savitzkyGolayCoefficients", () => {
   });
 });
 
+describe("savitzkyGolayCoefficients, worked out once per shape", () => {
+  it("hands out its own copy each time: changing one leaves the next answer alone", () => {
+    const shape = { windowSize: 9, polynomial: 4, derivative: 1, position: 2, spacing: 0.5 };
+    const first = savitzkyGolayCoefficients(shape);
+    const expected = Array.from(first);
+    first.fill(123);
+    expect(Array.from(savitzkyGolayCoefficients(shape))).toEqual(expected);
+    // A neighbouring shape is not mistaken for it.
+    expect(Array.from(savitzkyGolayCoefficients({ ...shape, spacing: 0.25 }))).not.toEqual(
+      expected,
+    );
+  });
+});
+
 describe("savitzkyGolay", () => {
   const signal = Float64Array.from(reference.savgolFilter.signal);
 
