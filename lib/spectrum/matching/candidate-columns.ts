@@ -21,11 +21,8 @@ export interface LineCandidate {
   deltaSigma: number;
 }
 
-/** A peak's candidates, field by field (entry i of each array is candidate i), in the order the
- * search met them: lines in table wavelength order, then bands. */
-export interface CandidateColumns {
-  /** The table the line indices point into (the prepared index's lines). */
-  lines: readonly ReferenceLine[];
+/** Candidates field by field: entry i of each array is candidate i (see LineCandidate). */
+interface CandidateFields {
   count: number;
   lineIndex: Uint32Array;
   /** 1 for a band, 0 for a line. */
@@ -34,6 +31,13 @@ export interface CandidateColumns {
   deltaNm: Float64Array;
   sigmaNm: Float64Array;
   deltaSigma: Float64Array;
+}
+
+/** A peak's candidates, in the order the search met them: lines in table wavelength order, then
+ * bands. */
+export interface CandidateColumns extends CandidateFields {
+  /** The table the line indices point into (the prepared index's lines). */
+  lines: readonly ReferenceLine[];
 }
 
 /** The positions of `columns`' candidates closest first (smallest |deltaSigma|), ties by line index:
@@ -68,29 +72,24 @@ export function candidatesFromColumns(columns: CandidateColumns): LineCandidate[
  * reused from search to search (a search runs to its end before another starts; nothing in it
  * waits), so a search allocates only its result.
  */
-export interface CandidateScratch {
-  count: number;
-  lineIndex: Uint32Array;
-  band: Uint8Array;
-  referenceNm: Float64Array;
-  deltaNm: Float64Array;
-  sigmaNm: Float64Array;
-  deltaSigma: Float64Array;
-}
+export type CandidateScratch = CandidateFields;
 
-function scratchOf(capacity: number): CandidateScratch {
-  return {
-    count: 0,
-    lineIndex: new Uint32Array(capacity),
-    band: new Uint8Array(capacity),
-    referenceNm: new Float64Array(capacity),
-    deltaNm: new Float64Array(capacity),
-    sigmaNm: new Float64Array(capacity),
-    deltaSigma: new Float64Array(capacity),
-  };
-}
+const shared: CandidateScratch = {
+  count: 0,
+  lineIndex: new Uint32Array(1024),
+  band: new Uint8Array(1024),
+  referenceNm: new Float64Array(1024),
+  deltaNm: new Float64Array(1024),
+  sigmaNm: new Float64Array(1024),
+  deltaSigma: new Float64Array(1024),
+};
 
-const shared = scratchOf(1024);
+/** `array` copied into one twice as long. */
+function doubled<T extends Uint32Array | Uint8Array | Float64Array>(array: T): T {
+  const longer = new (array.constructor as new (length: number) => T)(2 * array.length);
+  longer.set(array);
+  return longer;
+}
 
 /** The shared columns, emptied. */
 export function startCandidates(): CandidateScratch {
@@ -109,14 +108,12 @@ export function pushCandidate(
   deltaSigma: number,
 ): void {
   if (scratch.count === scratch.lineIndex.length) {
-    const grown = scratchOf(2 * scratch.count);
-    grown.lineIndex.set(scratch.lineIndex);
-    grown.band.set(scratch.band);
-    grown.referenceNm.set(scratch.referenceNm);
-    grown.deltaNm.set(scratch.deltaNm);
-    grown.sigmaNm.set(scratch.sigmaNm);
-    grown.deltaSigma.set(scratch.deltaSigma);
-    Object.assign(scratch, { ...grown, count: scratch.count });
+    scratch.lineIndex = doubled(scratch.lineIndex);
+    scratch.band = doubled(scratch.band);
+    scratch.referenceNm = doubled(scratch.referenceNm);
+    scratch.deltaNm = doubled(scratch.deltaNm);
+    scratch.sigmaNm = doubled(scratch.sigmaNm);
+    scratch.deltaSigma = doubled(scratch.deltaSigma);
   }
   const at = scratch.count++;
   scratch.lineIndex[at] = lineIndex;
