@@ -74,15 +74,24 @@ export function candidatesFromColumns(columns: CandidateColumns): LineCandidate[
  */
 export type CandidateScratch = CandidateFields;
 
-const shared: CandidateScratch = {
-  count: 0,
-  lineIndex: new Uint32Array(1024),
-  band: new Uint8Array(1024),
-  referenceNm: new Float64Array(1024),
-  deltaNm: new Float64Array(1024),
-  sigmaNm: new Float64Array(1024),
-  deltaSigma: new Float64Array(1024),
-};
+/** Columns up to this long are kept from search to search; longer ones (a huge spectrum against a
+ * dense table grew them) are swapped for short ones when the next search starts, so the process does
+ * not keep that memory for good. */
+const KEPT_CAPACITY = 65_536;
+
+function emptyScratch(capacity: number): CandidateScratch {
+  return {
+    count: 0,
+    lineIndex: new Uint32Array(capacity),
+    band: new Uint8Array(capacity),
+    referenceNm: new Float64Array(capacity),
+    deltaNm: new Float64Array(capacity),
+    sigmaNm: new Float64Array(capacity),
+    deltaSigma: new Float64Array(capacity),
+  };
+}
+
+let shared = emptyScratch(1024);
 
 /** `array` copied into one twice as long. */
 function doubled<T extends Uint32Array | Uint8Array | Float64Array>(array: T): T {
@@ -93,6 +102,7 @@ function doubled<T extends Uint32Array | Uint8Array | Float64Array>(array: T): T
 
 /** The shared columns, emptied. */
 export function startCandidates(): CandidateScratch {
+  if (shared.lineIndex.length > KEPT_CAPACITY) shared = emptyScratch(1024);
   shared.count = 0;
   return shared;
 }
