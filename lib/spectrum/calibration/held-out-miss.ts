@@ -107,7 +107,7 @@ function refittedMiss(
  * linearisation, which overstates a prism's misses where its parameters are strongly correlated; the
  * pairs it puts beyond `screenSigmas` are refitted exactly, and their exact miss counts.
  * `centreFloorX` is the least σ of a centre (x units): no peak is known better than a small share of
- * its width. `fit` is `model` linearised at `pairs`, when the caller has it already.
+ * its width. `given` is `model` linearised at `pairs` when the caller has it already (null: it cannot be).
  */
 export function worstHeldOutMiss(
   pairs: readonly LampPair[],
@@ -115,9 +115,10 @@ export function worstHeldOutMiss(
   domain: [number, number],
   centreFloorX: number,
   screenSigmas: number,
-  fit: LinearisedFit | null = linearisedFit(pairs, model),
+  given?: LinearisedFit | null,
 ): { pair: LampPair; sigmas: number } | null {
   if (pairs.length - 1 < model.parameters.length + 1) return null;
+  const fit = given === undefined ? linearisedFit(pairs, model) : given;
   const sigmaX = fit?.sigmaX ?? fittedXUncertainties(pairs);
   const linearised = fit && linearisedMisses(fit, model, centreFloorX);
   let worst: { pair: LampPair; sigmas: number } | null = null;

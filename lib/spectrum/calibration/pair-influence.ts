@@ -17,17 +17,19 @@ const GRID_POINTS = 41;
 
 /**
  * The pair whose absence moves `model` farthest inside the others' span, and by how much (x units);
- * null with too few pairs to leave one out, or when the fit cannot be linearised. `fit` is `model`
- * linearised at `pairs`, when the caller has it already.
+ * null with too few pairs to leave one out, or when the fit cannot be linearised. `given` is `model`
+ * linearised at `pairs` when the caller has it already (null: it cannot be).
  */
 export function largestPairInfluence(
   pairs: readonly LampPair[],
   model: CalibrationModel,
-  fit: LinearisedFit | null = linearisedFit(pairs, model),
+  given?: LinearisedFit | null,
 ): { pair: LampPair; shiftX: number } | null {
   const n = pairs.length;
   const p = model.parameters.length;
-  if (n - 1 < p + 1 || !fit) return null;
+  if (n - 1 < p + 1) return null;
+  const fit = given === undefined ? linearisedFit(pairs, model) : given;
+  if (!fit) return null;
   const xs = pairs.map((q) => q.x);
   const [low, high] = [Math.min(...xs), Math.max(...xs)];
   const grid = Array.from(

@@ -199,6 +199,15 @@ export const PAIRING_CHECK_LIMITS = {
   maxPairInfluence: 0.1,
 } as const;
 
+/** Why `count` end pairs beyond a gap of `gapShare` of the covered range fail the lopsided check. */
+function lopsidedReason(count: number, gapShare: number): string {
+  const [who, stand, decide] =
+    count === 1
+      ? ["one pair", "stands", "it alone decides"]
+      : [`${count} pairs`, "stand", "they alone decide"];
+  return `${who} at an end of the covered range ${stand} beyond a gap of ${(100 * gapShare).toFixed(0)} % of it, so ${decide} the calibration there`;
+}
+
 /** x as a polynomial of `degree` in the straightened axis, fitted to `pairs`; null when singular. */
 function forwardPolynomial(
   context: PairingContext,
@@ -399,9 +408,7 @@ export function verifyLampPairing(
     name: "lopsided-support",
     passed: !lopsided,
     value: endGap,
-    reason: lopsided
-      ? `${beyondGap.length === 1 ? "one pair" : `${beyondGap.length} pairs`} at an end of the covered range ${beyondGap.length === 1 ? "stands" : "stand"} beyond a gap of ${(100 * endGap).toFixed(0)} % of it, so ${beyondGap.length === 1 ? "it alone decides" : "they alone decide"} the calibration there`
-      : "",
+    reason: lopsided ? lopsidedReason(beyondGap.length, endGap) : "",
   });
 
   // Model agreement: the final model against a model of another shape fitted to the same pairs (a

@@ -1395,7 +1395,7 @@ function rationaleOf(
     );
   }
   // Every hidden line is listed; the rest of the missing lines are strong or weaker.
-  const hiddenCount = entry.missing.filter((p) => entry.hiddenBy.has(p)).length;
+  const hiddenCount = entry.hiddenBy.size;
   const weakMissing = entry.missingCount - hiddenCount - strongCount;
   if (weakMissing > 0)
     parts.push(`${weakMissing} weaker expected line${plural(weakMissing)} missing`);
