@@ -1,7 +1,7 @@
 // What an absent call can say: not "none", but "less than this". For each species called absent,
 // the smallest height its principal line could have had and still been found as a peak at the
 // noise where it falls: an upper limit, in counts and against the strongest peak seen.
-import type { ElementCall } from "../matching/score-elements";
+import type { ElementCall } from "../matching/score-elements-types";
 import { positionsWithin } from "../matching/lower-bound";
 import type { LineIndex } from "../matching/prepare-line-index";
 import { walkStrongestFirst } from "../matching/walk-strongest-first";

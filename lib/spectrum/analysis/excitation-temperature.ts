@@ -1,6 +1,6 @@
 // The excitation temperature of a sample from a Boltzmann plot of one species' identified lines:
 // the species called present with the most lines that carry g, A and an upper-level energy.
-import type { ElementCall } from "../matching/score-elements";
+import type { ElementCall } from "../matching/score-elements-types";
 import { boltzmannPlot, type BoltzmannLine } from "../temperature/boltzmann-plot";
 import type { CalibratedPeak } from "../types";
 

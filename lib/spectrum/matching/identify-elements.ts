@@ -7,7 +7,8 @@ import {
   type PeakMatch,
 } from "./match-peaks-to-lines";
 import { prepareLineIndex, type LineIndex } from "./prepare-line-index";
-import { scoreElements, type ElementScoring, type ScoreElementsOptions } from "./score-elements";
+import { scoreElements } from "./score-elements";
+import type { ElementScoring, ScoreElementsOptions } from "./score-elements-types";
 
 export type IdentifyElementsOptions = MatchPeaksToLinesOptions & ScoreElementsOptions;
 

@@ -16,7 +16,7 @@ export type {
   SeenLineEvidence,
   UnexplainedPeak,
   Verdict,
-} from "./score-elements";
+} from "./score-elements-types";
 export {
   INTENSITY_FALLBACK_ORDER,
   speciesRelativeIntensities,

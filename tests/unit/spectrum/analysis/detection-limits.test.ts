@@ -4,7 +4,7 @@ import fc from "fast-check";
 import { describe, it, expect } from "vitest";
 import { analyzeSample } from "../../../../lib/spectrum/analysis";
 import { detectionLimits } from "../../../../lib/spectrum/analysis/detection-limits";
-import type { ElementCall } from "../../../../lib/spectrum/matching/score-elements";
+import type { ElementCall } from "../../../../lib/spectrum/matching/score-elements-types";
 import { prepareLineIndex } from "../../../../lib/spectrum/matching/prepare-line-index";
 import { makeRandom } from "../../../../lib/spectrum/synthetic/make-random";
 import "../../../support/fast-check-seed";
