@@ -8,7 +8,6 @@ import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
 import { sendMail } from "@/lib/mail/send-mail";
 import { releasePublishedMail } from "@/lib/mail/templates";
-import Papa from "papaparse";
 import { Membership, User, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import { TABULATED_NM, differingFields, toLineRecord, toLineTableRow } from "./line-library-rows";
@@ -156,29 +155,12 @@ export async function exportReleaseCsv(
   );
   const label = release.number === null ? "draft" : `release ${release.number}`;
   const csv = formatLineTableCsv(rows.map(toLineTableRow), {
+    lineKeys: rows.map((r) => r.line_key),
     comments: [
       `Emberline line table, ${label}${release.published_at ? `, published ${new Date(release.published_at).toISOString()}` : ""}.`,
       "line_key identifies each line across releases; keep it when editing this file for re-import.",
       "A value whose source says it was typed from memory stays unverified (verified=false) until a lab lead checks it against the source.",
     ],
   });
-  return {
-    filename: `line-table-${release.number ?? "draft"}.csv`,
-    csv: withLineKeyColumn(
-      csv,
-      rows.map((r) => r.line_key),
-    ),
-  };
-}
-
-/** Prefixes the header and every data row of a formatted table with the line_key column. */
-function withLineKeyColumn(csv: string, keys: string[]): string {
-  const comments = csv.split("\n").filter((line) => line.startsWith("#"));
-  const records = Papa.parse<string[]>(csv, { comments: "#", skipEmptyLines: true }).data;
-  const [header, ...body] = records;
-  const table = Papa.unparse(
-    { fields: ["line_key", ...header], data: body.map((cells, i) => [keys[i], ...cells]) },
-    { newline: "\n", quotes: false },
-  );
-  return [...comments, table.replace(/\n$/, "")].join("\n") + "\n";
+  return { filename: `line-table-${release.number ?? "draft"}.csv`, csv };
 }
