@@ -322,7 +322,7 @@ async function seedDemoWorkflow(): Promise<void> {
   const { createCalibration } = await import("../lib/services/calibrations");
   const { createNotebook } = await import("../lib/services/notebooks");
   const { createRun } = await import("../lib/services/runs");
-  const { reviewRun, submitRun } = await import("../lib/services/run-review");
+  const { reviewRun, submitRun } = await import("../lib/services/run-review-decisions");
 
   for (const bench of DEMO_BENCHES) {
     const team = await Team.findOne({ where: { name: bench.team } });

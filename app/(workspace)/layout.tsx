@@ -6,7 +6,7 @@ import { TeamSwitcher } from "@/components/shell/team-switcher";
 import { ThemeToggle } from "@/components/shell/theme-toggle";
 import { WorkspaceFrame } from "@/components/shell/workspace-frame";
 import { ROLE_LABELS } from "@/lib/auth/roles";
-import { countRunsWaitingFor } from "@/lib/services/run-review";
+import { countRunsWaitingFor } from "@/lib/services/review-queue";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { signOutAction, switchTeamAction } from "./actions";
 

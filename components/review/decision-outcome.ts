@@ -1,6 +1,6 @@
 // What the review page says in place of the Decide forms once a run is no longer waiting for review:
 // what was decided, by whom and when, and what happens next — never only "you cannot decide".
-import type { RunHistory } from "@/lib/services/run-review";
+import type { RunHistory } from "@/lib/services/run-review-types";
 import { formatTime } from "./format";
 
 export interface DecisionOutcome {

@@ -1,7 +1,7 @@
 // A run's review so far: each round with who submitted it, to whom, the decision and its comment and the
 // reviewer's marks, then the signature (meaning, signer, time, content hash) and the run's versions.
 import Link from "next/link";
-import type { RunHistory, SignatureRecord } from "@/lib/services/run-review";
+import type { RunHistory, SignatureRecord } from "@/lib/services/run-review-types";
 import { formatTime } from "./format";
 
 const DECISION = { returned: "Returned for revision", signed: "Signed" } as const;

@@ -2,7 +2,7 @@
 // submit form with an optional reviewer, the rounds' comments, the signature, and Amend for a signed run.
 import Link from "next/link";
 import { amendRunAction, submitRunAction } from "@/app/(workspace)/review/actions";
-import { fetchRunReviewState } from "@/lib/services/run-review";
+import { fetchRunReviewState } from "@/lib/services/run-review-history";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { ReviewHistory } from "./review-history";
 import { AmendForm, SubmitForm } from "./review-forms";

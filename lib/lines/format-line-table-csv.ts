@@ -3,7 +3,7 @@
 import Papa from "papaparse";
 
 import { guardFormulaCell } from "../reports/formula-guard";
-import { LINE_TABLE_COLUMNS, LINE_TABLE_COLUMN_NAMES } from "./line-table-columns";
+import { LINE_KEY_COLUMN, LINE_TABLE_COLUMNS, LINE_TABLE_COLUMN_NAMES } from "./line-table-columns";
 import type { LineTableRow } from "./types";
 
 export interface FormatLineTableCsvOptions {
@@ -17,6 +17,12 @@ export interface FormatLineTableCsvOptions {
    * @default true
    */
   describeColumns?: boolean;
+  /**
+   * Each row's line key, in the order of the rows: given, a line_key column is written first, so the
+   * file can be re-imported onto the same lines.
+   * @default undefined (no line_key column)
+   */
+  lineKeys?: readonly string[];
 }
 
 /** Shortest text that reads back as the same number; blank for null. */
@@ -60,8 +66,13 @@ export function formatLineTableCsv(
   rows: readonly LineTableRow[],
   options: FormatLineTableCsvOptions = {},
 ): string {
-  const { comments = [], describeColumns = true } = options;
+  const { comments = [], describeColumns = true, lineKeys } = options;
   if (!Array.isArray(rows)) throw new RangeError("rows must be an array");
+  if (lineKeys !== undefined && lineKeys.length !== rows.length) {
+    throw new RangeError(
+      `lineKeys must hold one key per row (${rows.length}), got ${lineKeys.length}`,
+    );
+  }
   const header: string[] = [];
   for (const comment of comments) {
     for (const line of comment.split(/\r?\n/)) header.push(line === "" ? "#" : `# ${line}`);
@@ -75,7 +86,12 @@ export function formatLineTableCsv(
     }
   }
   const body = Papa.unparse(
-    { fields: [...LINE_TABLE_COLUMN_NAMES], data: rows.map(rowCells) },
+    lineKeys
+      ? {
+          fields: [LINE_KEY_COLUMN, ...LINE_TABLE_COLUMN_NAMES],
+          data: rows.map((row, i) => [lineKeys[i], ...rowCells(row)]),
+        }
+      : { fields: [...LINE_TABLE_COLUMN_NAMES], data: rows.map(rowCells) },
     { newline: "\n", quotes: false },
   );
   // Papa.unparse ends a data-less table with a line break and a full one without; end both with one.

@@ -110,3 +110,10 @@ export const LINE_TABLE_COLUMNS: readonly LineTableColumn[] = [
 
 /** Column names in output order. */
 export const LINE_TABLE_COLUMN_NAMES: readonly string[] = LINE_TABLE_COLUMNS.map((c) => c.name);
+
+/**
+ * The column that carries a line's identity across releases (a UUID). It is not one of
+ * LINE_TABLE_COLUMNS: an export writes it first (formatLineTableCsv's `lineKeys`) and an import
+ * reads it (parseLineTableCsv's `readLineKeys`); the starter table and a typed line have no key.
+ */
+export const LINE_KEY_COLUMN = "line_key";

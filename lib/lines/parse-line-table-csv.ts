@@ -11,7 +11,7 @@ import {
   HC_EV_NM,
   vacuumToAirNm,
 } from "../spectrum/units";
-import { LINE_TABLE_COLUMN_NAMES } from "./line-table-columns";
+import { LINE_KEY_COLUMN, LINE_TABLE_COLUMN_NAMES } from "./line-table-columns";
 import { formatSpecies } from "./format-species";
 import { parseSpecies } from "./parse-species";
 import { LINE_FLAGS } from "./types";
@@ -41,7 +41,16 @@ export interface ParseLineTableCsvOptions {
    * @default 0.01
    */
   energyToleranceEv?: number;
+  /**
+   * Accept a line_key column (exports write one) and return each row's key in `lineKeys`; the key's
+   * meaning (a line of which draft) is the caller's to check. Without it, line_key is an unknown column.
+   * @default false
+   */
+  readLineKeys?: boolean;
 }
+
+/** The checks' limits with their defaults filled in. */
+type ResolvedLimits = Required<Omit<ParseLineTableCsvOptions, "readLineKeys">>;
 
 /**
  * Air wavelengths are tabulated only from 200 nm (vacuum) up, as NIST ASD and others do, and the
@@ -66,9 +75,15 @@ function assertPositiveFinite(value: number, name: string): void {
 }
 
 /** Checks the header row; returns column indexes by name, or null after reporting errors. */
-function readHeader(record: RawRecord, errors: LineTableError[]): Map<string, number> | null {
+function readHeader(
+  record: RawRecord,
+  readLineKeys: boolean,
+  errors: LineTableError[],
+): Map<string, number> | null {
   const columns = new Map<string, number>();
-  const known = new Set(LINE_TABLE_COLUMN_NAMES);
+  const known = new Set(
+    readLineKeys ? [LINE_KEY_COLUMN, ...LINE_TABLE_COLUMN_NAMES] : LINE_TABLE_COLUMN_NAMES,
+  );
   let ok = true;
   record.cells.forEach((cell, index) => {
     const name = cell.trim();
@@ -117,7 +132,7 @@ function readHeader(record: RawRecord, errors: LineTableError[]): Map<string, nu
 function readRow(
   record: RawRecord,
   columns: Map<string, number>,
-  options: Required<ParseLineTableCsvOptions>,
+  options: ResolvedLimits,
   errors: LineTableError[],
 ): LineTableRow | null {
   const { line, cells } = record;
@@ -310,7 +325,8 @@ function readRow(
 
 /**
  * Parses a line-table CSV: "#" lines are comments, the first other line is the header
- * (column names from LINE_TABLE_COLUMNS, any order, optional columns may be left out).
+ * (column names from LINE_TABLE_COLUMNS, any order, optional columns may be left out; line_key too
+ * with `readLineKeys`).
  * Rows that fail any check are left out of `rows` and every failure is listed in `errors`.
  */
 export function parseLineTableCsv(
@@ -318,7 +334,7 @@ export function parseLineTableCsv(
   options: ParseLineTableCsvOptions = {},
 ): LineTableParseResult {
   if (typeof text !== "string") throw new RangeError("text must be a string");
-  const resolved: Required<ParseLineTableCsvOptions> = {
+  const resolved: ResolvedLimits = {
     minWavelengthNm: options.minWavelengthNm ?? 100,
     maxWavelengthNm: options.maxWavelengthNm ?? 20000,
     airVacuumToleranceNm: options.airVacuumToleranceNm ?? 0.002,
@@ -334,19 +350,29 @@ export function parseLineTableCsv(
 
   const records = readCsvRecords(text.startsWith("\uFEFF") ? text.slice(1) : text);
   const errors: LineTableError[] = [];
-  const result: LineTableParseResult = { rows: [], rowLines: [], errors };
+  const result: LineTableParseResult = {
+    rows: [],
+    rowLines: [],
+    lineKeys: [],
+    lineKeyColumn: null,
+    errors,
+  };
   if (records.length === 0) {
     errors.push({ line: 1, field: "header", message: "the file has no header row" });
     return result;
   }
   const [headerRecord, ...dataRecords] = records;
-  const columns = readHeader(headerRecord, errors);
+  const columns = readHeader(headerRecord, options.readLineKeys ?? false, errors);
   if (!columns) return result;
+  const keyIndex = columns.get(LINE_KEY_COLUMN);
+  if (keyIndex !== undefined) result.lineKeyColumn = keyIndex + 1;
   for (const record of dataRecords) {
     const row = readRow(record, columns, resolved, errors);
     if (row) {
+      const key = keyIndex === undefined ? "" : record.cells[keyIndex].trim();
       result.rows.push(row);
       result.rowLines.push(record.line);
+      result.lineKeys.push(key === "" ? null : key);
     }
   }
   return result;

@@ -77,6 +77,13 @@ export interface LineTableParseResult {
   rows: LineTableRow[];
   /** 1-based file line of each row in `rows` (same order), for previews that point back into the file. */
   rowLines: number[];
+  /**
+   * Each row's line_key (same order as `rows`); null where the cell is blank, the file has no
+   * line_key column or keys were not asked for (`readLineKeys`).
+   */
+  lineKeys: (string | null)[];
+  /** 1-based CSV column of line_key in the file, or null when it has none (or keys were not asked for). */
+  lineKeyColumn: number | null;
   /** Every problem found, in file order. */
   errors: LineTableError[];
 }

@@ -157,6 +157,27 @@ export async function checkPasswordThrottled(input: {
   }
 }
 
+/**
+ * The signed-in person's own password, re-entered to change it or to sign a run, checked under the
+ * throttle exactly as at sign-in (a wrong one counts as a failed sign-in). Throws 401 when the person
+ * no longer exists; answers the person and whether the password is right.
+ */
+export async function checkOwnPassword(
+  actor: Actor,
+  password: string,
+  address: string,
+): Promise<{ user: User; valid: boolean }> {
+  const user = await User.findByPk(actor.id);
+  if (!user) throw new AppError("unauthenticated", "Sign in first.");
+  const valid = await checkPasswordThrottled({
+    email: user.email,
+    password,
+    address,
+    passwordHash: user.passwordHash,
+  });
+  return { user, valid };
+}
+
 function findUserByEmail(email: string) {
   return User.findOne({
     where: sequelize.where(sequelize.fn("lower", sequelize.col("email")), normaliseEmail(email)),
@@ -336,14 +357,7 @@ export async function changePassword(
   options: { keepSessionId?: string; address: string },
 ): Promise<CredentialsRevoked> {
   authorize(actor, "self.changePassword", { userId: actor.id });
-  const user = await User.findByPk(actor.id);
-  if (!user) throw new AppError("unauthenticated", "Sign in first.");
-  const valid = await checkPasswordThrottled({
-    email: user.email,
-    password: input.currentPassword,
-    address: options.address,
-    passwordHash: user.passwordHash,
-  });
+  const { user, valid } = await checkOwnPassword(actor, input.currentPassword, options.address);
   if (!valid) {
     throw new AppError("validation", "The current password is not right.", {
       fieldErrors: { currentPassword: ["The current password is not right."] },

@@ -14,7 +14,7 @@ import {
   type ChainBreak,
   type ChainHead,
 } from "@/lib/audit/audit-chain";
-import { recomputeRunContentHash } from "./run-review";
+import { recomputeRunContentHash } from "./run-signed-content";
 
 /** What the verification found for one team's chain (teamId null: events that belong to no team). */
 export interface AuditChainReport {

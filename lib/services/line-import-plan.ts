@@ -1,13 +1,7 @@
 // Matching a line-table CSV against a draft's rows: pure (no database, no server-only), so it runs in
 // the worker pool (lib/workers) with the rows the service loaded, and the preview and the apply plan alike.
 import { createHash } from "node:crypto";
-import Papa from "papaparse";
-import {
-  lineLocator,
-  parseLineTableCsv,
-  type LineTableError,
-  type LineTableRow,
-} from "@/lib/lines";
+import { parseLineTableCsv, type LineTableError, type LineTableRow } from "@/lib/lines";
 import { differingFields, toLineTableRow, type LineDbRow } from "./line-library-rows";
 import type { ImportChange, ImportPreview } from "./line-library-types";
 
@@ -56,65 +50,6 @@ class WavelengthGrid<T> {
   }
 }
 
-interface LineKeyColumn {
-  /** The text without the line_key column, line numbers unchanged. */
-  text: string;
-  /** line_key by the file line where its record starts. */
-  keys: Map<number, string>;
-  /** 1-based CSV column of line_key in the original file. */
-  column: number | null;
-}
-
-/**
- * parseLineTableCsv knows only the table's own columns, so the line_key column that exports carry
- * is cut out first. Each record is written back at the line where it started (comment lines become
- * blank), so every error the parser reports still points at the right line of the original file.
- */
-function splitLineKeyColumn(original: string): LineKeyColumn {
-  const text = original.startsWith("\uFEFF") ? original.slice(1) : original;
-  const none: LineKeyColumn = { text, keys: new Map(), column: null };
-  const lineOf = lineLocator(text);
-  const out: string[] = new Array(lineOf(text.length)).fill("");
-  const keys = new Map<number, string>();
-  let keyIndex: number | null = null;
-  let sawHeader = false;
-  Papa.parse<string[]>(text, {
-    delimiter: ",",
-    comments: "#",
-    skipEmptyLines: false,
-    step: (result, parser) => {
-      const cells = result.data;
-      if (cells.every((cell) => cell.trim() === "")) return;
-      let end = result.meta.cursor;
-      if (text[end - 1] === "\n") end -= 1;
-      if (text[end - 1] === "\r") end -= 1;
-      const innerBreaks = cells.reduce((sum, cell) => sum + (cell.match(/\n/g)?.length ?? 0), 0);
-      const line = lineOf(Math.max(end - 1, 0)) - innerBreaks;
-      if (!sawHeader) {
-        sawHeader = true;
-        const index = cells.findIndex((cell) => cell.trim() === "line_key");
-        if (index === -1) {
-          parser.abort();
-          return;
-        }
-        keyIndex = index;
-      } else if (
-        keyIndex !== null &&
-        cells[keyIndex] !== undefined &&
-        cells[keyIndex].trim() !== ""
-      ) {
-        keys.set(line, cells[keyIndex].trim());
-      }
-      const kept = cells.filter((_, i) => i !== keyIndex);
-      const written = Papa.unparse([kept], { newline: "\n" }).split("\n");
-      written.forEach((part, i) => {
-        if (line - 1 + i < out.length) out[line - 1 + i] = part;
-      });
-    },
-  });
-  return keyIndex === null ? none : { text: out.join("\n"), keys, column: keyIndex + 1 };
-}
-
 /** The draft's state in one hash: any edit (a new row, a bumped version) changes it. */
 function draftStateHash(rows: readonly LineDbRow[]): string {
   const hash = createHash("sha256");
@@ -137,17 +72,13 @@ export function planImport(
 ): PlannedImport {
   // One line-break convention: a file re-sent by a form (CRLF) keeps its preview's fingerprint.
   csvText = csvText.replace(/\r\n?/g, "\n");
-  const split = splitLineKeyColumn(csvText);
-  const parsed = parseLineTableCsv(split.text);
-  const errors: LineTableError[] = parsed.errors.map((error) =>
-    split.column !== null && error.column !== undefined && error.column >= split.column
-      ? { ...error, column: error.column + 1 }
-      : error,
-  );
+  const parsed = parseLineTableCsv(csvText, { readLineKeys: true });
+  const errors: LineTableError[] = [...parsed.errors];
+  const keyColumn = parsed.lineKeyColumn;
   const reject = (line: number, field: string, message: string) =>
     errors.push(
-      field === "line_key" && split.column !== null
-        ? { line, column: split.column, field, message }
+      field === "line_key" && keyColumn !== null
+        ? { line, column: keyColumn, field, message }
         : { line, field, message },
     );
 
@@ -165,9 +96,9 @@ export function planImport(
 
   parsed.rows.forEach((row, index) => {
     const csvLine = parsed.rowLines[index];
-    const key = split.keys.get(csvLine);
+    const key = parsed.lineKeys[index];
     let match: LineDbRow | undefined;
-    if (key !== undefined) {
+    if (key !== null) {
       if (!UUID_PATTERN.test(key)) return reject(csvLine, "line_key", `"${key}" is not a line key`);
       match = byKey.get(key.toLowerCase());
       if (!match) {

@@ -18,7 +18,7 @@ import { sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import { lockDraft, selectLines } from "./line-library-access";
 import { countDataLines } from "./line-library-import";
-import { validateLineInput } from "./line-library";
+import { validateLineInput } from "./line-library-draft";
 import {
   BULK_UPDATE_LINES_SQL,
   recordToInput,

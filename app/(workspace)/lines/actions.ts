@@ -9,15 +9,14 @@ import { currentActor } from "@/lib/auth/session";
 import { AppError, unauthenticated } from "@/lib/errors";
 import {
   addLine,
-  applyImport,
   openDraft,
-  previewImport,
-  publishDraft,
   restoreLine,
   retireLine,
   updateLine,
   verifyLine,
-} from "@/lib/services/line-library";
+} from "@/lib/services/line-library-draft";
+import { applyImport, previewImport } from "@/lib/services/line-library-import";
+import { publishDraft } from "@/lib/services/line-library-releases";
 import { applyReferenceCheck, previewReferenceCheck } from "@/lib/services/line-reference-check";
 import { formError, parseForm } from "@/lib/validation/form-state";
 import {

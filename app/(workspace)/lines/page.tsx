@@ -8,7 +8,7 @@ import { releaseLabel } from "@/components/lines/line-values";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
 import { can } from "@/lib/auth/policy";
-import { fetchLines, fetchReleases } from "@/lib/services/line-library";
+import { fetchLines, fetchReleases } from "@/lib/services/line-library-reads";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { lineSearchHref, parseLineSearch, toLineQuery } from "@/lib/validation/line-forms";
 import { openDraftAction } from "./actions";

@@ -7,7 +7,8 @@ import { redirect } from "next/navigation";
 import { currentActor } from "@/lib/auth/session";
 import { clientAddress } from "@/lib/http/client-address";
 import { unauthenticated } from "@/lib/errors";
-import { addReviewMark, amendRun, reviewRun, submitRun } from "@/lib/services/run-review";
+import { amendRun } from "@/lib/services/run-amendments";
+import { addReviewMark, reviewRun, submitRun } from "@/lib/services/run-review-decisions";
 import { formError, type FormState } from "@/lib/validation/form-state";
 import { zodFieldErrors } from "@/lib/validation/field-errors";
 import {

@@ -7,7 +7,7 @@ import { FilterSelect } from "@/components/ui/filter-select";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
 import { can } from "@/lib/auth/policy";
-import { fetchReviewQueue } from "@/lib/services/run-review";
+import { fetchReviewQueue } from "@/lib/services/review-queue";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { reviewQueueQueryFrom } from "@/lib/validation/review-schemas";
 import { TableScroll } from "@/components/ui/table-scroll";

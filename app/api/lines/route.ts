@@ -1,7 +1,7 @@
 // GET lines of a release, filtered, sorted and paginated (default: the team's newest published release).
 import { apiRoute, requireActor } from "@/lib/http/api-handler";
 import { AppError } from "@/lib/errors";
-import { fetchLines, fetchReleases } from "@/lib/services/line-library";
+import { fetchLines, fetchReleases } from "@/lib/services/line-library-reads";
 import { lineQuerySchema } from "@/lib/validation/line-schemas";
 import { zodFieldErrors } from "@/lib/validation/field-errors";
 

@@ -1,7 +1,7 @@
 // GET the team's line-table releases, the draft first, then the newest published.
 import { apiRoute, requireActor } from "@/lib/http/api-handler";
 import { AppError } from "@/lib/errors";
-import { fetchReleases } from "@/lib/services/line-library";
+import { fetchReleases } from "@/lib/services/line-library-reads";
 import { z } from "zod";
 
 export const GET = apiRoute(async (request) => {

@@ -345,6 +345,47 @@ describe("formatLineTableCsv", () => {
   });
 });
 
+describe("the line_key column", () => {
+  const KEYS = ["2b7e1516-28ae-4d2a-a6f7-15883c4f3c01", "2b7e1516-28ae-4d2a-a6f7-15883c4f3c02"];
+  const rows = parseLineTableCsv(SAMPLE).rows.slice(0, 2);
+
+  it("is written first when the rows' keys are given, and read back with them", () => {
+    const text = formatLineTableCsv(rows, { lineKeys: KEYS, describeColumns: false });
+    expect(text.split("\n")[0]).toBe(["line_key", ...LINE_TABLE_COLUMN_NAMES].join(","));
+    const parsed = parseLineTableCsv(text, { readLineKeys: true });
+    expect(parsed.errors).toEqual([]);
+    expect(parsed.rows).toEqual(rows);
+    expect(parsed.lineKeys).toEqual(KEYS);
+    expect(parsed.lineKeyColumn).toBe(1);
+  });
+
+  it("is an unknown column unless keys are asked for", () => {
+    const text = formatLineTableCsv(rows, { lineKeys: KEYS, describeColumns: false });
+    expect(parseLineTableCsv(text).errors).toEqual([
+      expect.objectContaining({ line: 1, column: 1, field: "header" }),
+    ]);
+  });
+
+  it("may stand anywhere; a blank key is null, and errors keep the file's own columns", () => {
+    const text = [
+      "species,air_nm,line_key,source",
+      `Na I,588.995,${KEYS[0]},s`,
+      "K I,766.490,,s",
+      `Li I,67x.8,${KEYS[1]},s`,
+    ].join("\n");
+    const parsed = parseLineTableCsv(text, { readLineKeys: true });
+    expect(parsed.lineKeyColumn).toBe(3);
+    expect(parsed.lineKeys).toEqual([KEYS[0], null]);
+    expect(parsed.errors).toEqual([
+      expect.objectContaining({ line: 4, column: 2, field: "air_nm" }),
+    ]);
+  });
+
+  it("needs one key per row", () => {
+    expect(() => formatLineTableCsv(rows, { lineKeys: KEYS.slice(1) })).toThrow(RangeError);
+  });
+});
+
 describe("toReferenceLine", () => {
   const [naD2, hg185, bo2] = parseLineTableCsv(SAMPLE).rows;
 

@@ -114,3 +114,25 @@ describe("planImport's grid", () => {
     });
   }
 });
+
+describe("planImport's line keys", () => {
+  it("matches a keyed row by its key, not its wavelength, and locates a bad key in its column", () => {
+    const draft = [draftRow(1, "Fe I", 180.1), draftRow(2, "Fe I", 180.5)];
+    const csv = [
+      "# an export, edited",
+      "species,vacuum_nm,line_key,source,note",
+      // Line 3 sits at the first line's wavelength but names the second line: the key wins.
+      `Fe I,180.1,${draft[1].line_key},test source,moved`,
+      "Fe I,180.3,not-a-key,test source,",
+      "Fe I,180.7,10000000-0000-4000-8000-999999999999,test source,",
+    ].join("\n");
+    const { preview } = planImport("r", csv, draft);
+    expect(preview.changes.map((c) => [c.csvLine, c.lineKey, c.fields])).toEqual([
+      [3, draft[1].line_key, ["vacuumNm", "note"]],
+    ]);
+    expect(preview.errors.map((e) => [e.line, e.column, e.field])).toEqual([
+      [4, 3, "line_key"],
+      [5, 3, "line_key"],
+    ]);
+  });
+});

@@ -6,7 +6,7 @@ import { LineHistory } from "@/components/lines/line-history";
 import { releaseLabel } from "@/components/lines/line-values";
 import { PageHeader } from "@/components/ui/page-header";
 import { AppError } from "@/lib/errors";
-import { fetchLine, fetchLineHistory, fetchRelease } from "@/lib/services/line-library";
+import { fetchLine, fetchLineHistory, fetchRelease } from "@/lib/services/line-library-reads";
 import { requireWorkspace } from "@/lib/services/workspace";
 
 export const metadata = { title: "Line" };

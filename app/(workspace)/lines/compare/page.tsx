@@ -5,7 +5,8 @@ import { releaseLabel } from "@/components/lines/line-values";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
 import { can } from "@/lib/auth/policy";
-import { diffReleases, fetchReleases } from "@/lib/services/line-library";
+import { fetchReleases } from "@/lib/services/line-library-reads";
+import { diffReleases } from "@/lib/services/line-library-releases";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { compareSearchSchema } from "@/lib/validation/line-forms";
 

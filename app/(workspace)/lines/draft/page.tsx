@@ -13,7 +13,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
 import { NoDraftOpen } from "../no-draft-open";
 import { can } from "@/lib/auth/policy";
-import { fetchLine, fetchLines, fetchReleases } from "@/lib/services/line-library";
+import { fetchLine, fetchLines, fetchReleases } from "@/lib/services/line-library-reads";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { lineSearchHref, parseLineSearch, toLineQuery } from "@/lib/validation/line-forms";
 import {

@@ -6,7 +6,7 @@ import { ReferenceCheckPanel } from "@/components/lines/reference-check-panel";
 import { PageHeader } from "@/components/ui/page-header";
 import { NoDraftOpen } from "../no-draft-open";
 import { can } from "@/lib/auth/policy";
-import { fetchReleases } from "@/lib/services/line-library";
+import { fetchReleases } from "@/lib/services/line-library-reads";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { referenceCheckAction } from "../actions";
 

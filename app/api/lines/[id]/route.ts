@@ -1,6 +1,7 @@
 // GET one line row; PATCH corrects it in the draft (with the version it was read at and a reason).
 import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
-import { fetchLine, updateLine } from "@/lib/services/line-library";
+import { updateLine } from "@/lib/services/line-library-draft";
+import { fetchLine } from "@/lib/services/line-library-reads";
 import { idParam, toLineChanges, updateLineSchema } from "@/lib/validation/line-schemas";
 
 export const GET = apiRoute(async (_request, { params }) => {

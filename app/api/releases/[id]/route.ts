@@ -1,6 +1,6 @@
 // GET one release's summary.
 import { apiRoute, requireActor } from "@/lib/http/api-handler";
-import { fetchRelease } from "@/lib/services/line-library";
+import { fetchRelease } from "@/lib/services/line-library-reads";
 import { idParam } from "@/lib/validation/line-schemas";
 
 export const GET = apiRoute(async (_request, { params }) => {

@@ -1,7 +1,8 @@
 // GET compares two releases of one team by line key: added, removed, changed (with the fields).
 import { apiRoute, requireActor } from "@/lib/http/api-handler";
 import { AppError } from "@/lib/errors";
-import { diffReleases, fetchRelease } from "@/lib/services/line-library";
+import { fetchRelease } from "@/lib/services/line-library-reads";
+import { diffReleases } from "@/lib/services/line-library-releases";
 import { diffQuerySchema } from "@/lib/validation/line-schemas";
 import { zodFieldErrors } from "@/lib/validation/field-errors";
 

@@ -1,6 +1,6 @@
 // POST returns the team's draft, opening one from the newest published release when there is none.
 import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
-import { openDraft } from "@/lib/services/line-library";
+import { openDraft } from "@/lib/services/line-library-draft";
 import { openDraftSchema } from "@/lib/validation/line-schemas";
 
 export const POST = apiRoute(async (request) => {

@@ -1,6 +1,6 @@
 // POST restores a retired draft line (version and reason in the body).
 import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
-import { restoreLine } from "@/lib/services/line-library";
+import { restoreLine } from "@/lib/services/line-library-draft";
 import { idParam, lineStateSchema } from "@/lib/validation/line-schemas";
 
 export const POST = apiRoute(async (request, { params }) => {

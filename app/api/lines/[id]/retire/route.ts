@@ -1,6 +1,6 @@
 // POST retires a draft line: it stays in the draft and is left out when publishing (version and reason in the body).
 import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
-import { retireLine } from "@/lib/services/line-library";
+import { retireLine } from "@/lib/services/line-library-draft";
 import { idParam, lineStateSchema } from "@/lib/validation/line-schemas";
 
 export const POST = apiRoute(async (request, { params }) => {

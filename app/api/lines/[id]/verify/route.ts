@@ -1,6 +1,6 @@
 // POST marks a draft line verified against its source (version and reason in the body).
 import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
-import { verifyLine } from "@/lib/services/line-library";
+import { verifyLine } from "@/lib/services/line-library-draft";
 import { idParam, lineStateSchema } from "@/lib/validation/line-schemas";
 
 export const POST = apiRoute(async (request, { params }) => {

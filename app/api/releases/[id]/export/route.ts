@@ -1,6 +1,6 @@
 // GET the release as Emberline's line-table CSV (with line_key), as a download.
 import { apiRoute, requireActor } from "@/lib/http/api-handler";
-import { exportReleaseCsv } from "@/lib/services/line-library";
+import { exportReleaseCsv } from "@/lib/services/line-library-releases";
 import { idParam } from "@/lib/validation/line-schemas";
 
 export const GET = apiRoute(async (_request, { params }) => {

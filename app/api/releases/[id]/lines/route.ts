@@ -1,6 +1,6 @@
 // POST adds a line to the draft (with a reason).
 import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
-import { addLine } from "@/lib/services/line-library";
+import { addLine } from "@/lib/services/line-library-draft";
 import { addLineSchema, idParam, toLineInput } from "@/lib/validation/line-schemas";
 
 export const POST = apiRoute(async (request, { params }) => {

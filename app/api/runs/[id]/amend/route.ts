@@ -1,6 +1,6 @@
 // POST amends a signed run: a new draft version linked to it, with the same analysis, notes and standing overrides.
 import { apiRoute, requireActor } from "@/lib/http/api-handler";
-import { amendRun } from "@/lib/services/run-review";
+import { amendRun } from "@/lib/services/run-amendments";
 import { idParam } from "@/lib/validation/line-schemas";
 
 export const POST = apiRoute(async (_request, { params }) => {

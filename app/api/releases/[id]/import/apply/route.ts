@@ -1,6 +1,6 @@
 // POST applies a previewed import ({csv, fingerprint, skipRejected?, reason?}) in one transaction.
 import { apiRoute, requireActor } from "@/lib/http/api-handler";
-import { applyImport } from "@/lib/services/line-library";
+import { applyImport } from "@/lib/services/line-library-import";
 import {
   idParam,
   IMPORT_ROUTE_OPTIONS,

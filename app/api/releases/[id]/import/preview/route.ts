@@ -1,6 +1,6 @@
 // POST previews a CSV import into the draft (body: {csv} as JSON, or the file as text/csv). Writes nothing.
 import { apiRoute, requireActor } from "@/lib/http/api-handler";
-import { previewImport } from "@/lib/services/line-library";
+import { previewImport } from "@/lib/services/line-library-import";
 import { idParam, IMPORT_ROUTE_OPTIONS, readImportBody } from "@/lib/validation/line-schemas";
 
 export const POST = apiRoute(async (request, { params }) => {

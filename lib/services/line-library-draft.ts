@@ -1,0 +1,332 @@
+// Editing the team's one draft of the line table: open it, add, correct, retire, restore and verify
+// lines. Every write runs in one transaction with its audit event, carries a reason, and (for an
+// existing line) the version the editor saw. CSV import into the draft is line-library-import.ts.
+import "server-only";
+import { QueryTypes, type Transaction } from "sequelize";
+import { formatLineTableCsv, parseLineTableCsv, type LineTableRow } from "@/lib/lines";
+import { AppError, notFound } from "@/lib/errors";
+import type { Actor } from "@/lib/auth/actor";
+import { authorize } from "@/lib/auth/policy";
+import { sequelize } from "@/models";
+import { recordAudit } from "./audit";
+import {
+  VALUE_COLUMNS,
+  differingFields,
+  recordToInput,
+  toLineRecord,
+  toLineTableRow,
+  toReleaseSummary,
+  valuesOf,
+  type LineDbRow,
+} from "./line-library-rows";
+import { lockDraft, selectLines, selectRelease } from "./line-library-access";
+import type { LineInput, LineRecord, ReleaseSummary } from "./line-library-types";
+
+export const CONFLICT_MESSAGE =
+  "Someone else changed this line first. Reload it to see their change, then make yours again.";
+
+/** Returns the team's draft, or starts one from the newest published release (rows copied, keys kept). */
+export async function openDraft(actor: Actor, teamId: string): Promise<ReleaseSummary> {
+  authorize(actor, "lines.edit", { teamId });
+  const existing = await selectRelease("r.team_id = $1 AND r.status = 'draft'", [teamId]);
+  if (existing) return toReleaseSummary(existing);
+  try {
+    const id = await sequelize.transaction(async (transaction) => {
+      const [base] = await sequelize.query<{ id: string; number: number }>(
+        `SELECT id, number FROM line_releases WHERE team_id = $1 AND status = 'published' ORDER BY number DESC LIMIT 1`,
+        { bind: [teamId], type: QueryTypes.SELECT, transaction },
+      );
+      const [created] = await sequelize.query<{ id: string }>(
+        `INSERT INTO line_releases (team_id, based_on_release_id, created_by_id) VALUES ($1, $2, $3) RETURNING id`,
+        { bind: [teamId, base?.id ?? null, actor.id], type: QueryTypes.SELECT, transaction },
+      );
+      if (base) {
+        const columns = [
+          "line_key",
+          ...VALUE_COLUMNS,
+          "verified_by_id",
+          "verified_at",
+          "verified_citation",
+        ].join(", ");
+        await sequelize.query(
+          `INSERT INTO lines (release_id, ${columns}) SELECT $1, ${columns} FROM lines WHERE release_id = $2`,
+          { bind: [created.id, base.id], transaction },
+        );
+      }
+      await recordAudit(
+        {
+          actorId: actor.id,
+          teamId,
+          action: "line_release.open_draft",
+          entity: "line_release",
+          entityId: created.id,
+          after: { basedOnReleaseId: base?.id ?? null, basedOnNumber: base?.number ?? null },
+        },
+        transaction,
+      );
+      return created.id;
+    });
+    return toReleaseSummary((await selectRelease("r.id = $1", [id]))!);
+  } catch (error) {
+    // Two leads opening the draft at once: the one-draft index refuses the second; both get the first.
+    if (error instanceof Error && error.name === "SequelizeUniqueConstraintError") {
+      const draft = await selectRelease("r.team_id = $1 AND r.status = 'draft'", [teamId]);
+      if (draft) return toReleaseSummary(draft);
+    }
+    throw error;
+  }
+}
+
+const FIELD_OF_COLUMN: Record<string, string> = {
+  species: "species",
+  air_nm: "airNm",
+  vacuum_nm: "vacuumNm",
+  uncertainty_nm: "uncertaintyNm",
+  intensity_flame: "intensities.flame",
+  intensity_arc: "intensities.arc",
+  intensity_spark: "intensities.spark",
+  intensity_plasma: "intensities.plasma",
+  intensity_lamp: "intensities.lamp",
+  lower_ev: "lowerEv",
+  upper_ev: "upperEv",
+  g_upper: "gUpper",
+  a_per_s: "aPerS",
+  flags: "flags",
+  band_extent_nm: "band.extentNm",
+  band_degrades_to: "band.degradesTo",
+  source: "source",
+  note: "note",
+};
+
+/**
+ * Checks a typed line exactly as an imported CSV row is checked (one rule set), by writing it as a
+ * one-row CSV and reading it back. Throws a validation error with field errors in LineInput's names.
+ */
+export function validateLineInput(input: LineInput): LineTableRow {
+  const csv = formatLineTableCsv([{ ...input, element: "", ionStage: null, verified: false }], {
+    describeColumns: false,
+  });
+  const parsed = parseLineTableCsv(csv);
+  if (parsed.rows.length === 1 && parsed.errors.length === 0) return parsed.rows[0];
+  const fieldErrors: Record<string, string[]> = {};
+  for (const error of parsed.errors)
+    (fieldErrors[FIELD_OF_COLUMN[error.field] ?? "_"] ??= []).push(error.message);
+  throw new AppError("validation", "Some values of the line are not right.", { fieldErrors });
+}
+
+function requireReason(reason: string): string {
+  const trimmed = typeof reason === "string" ? reason.trim() : "";
+  if (!trimmed)
+    throw new AppError("validation", "Say why.", {
+      fieldErrors: { reason: ["Say why you make this change."] },
+    });
+  return trimmed;
+}
+
+/** Another live line of the same species within 0.002 nm (vacuum) in the draft, if any. */
+async function twinInDraft(
+  releaseId: string,
+  row: LineTableRow,
+  exceptId: string | null,
+  transaction: Transaction,
+): Promise<LineDbRow | null> {
+  const [twin] = await selectLines(
+    `l.release_id = $1 AND l.species = $2 AND l.vacuum_nm BETWEEN $3 - 0.002 AND $3 + 0.002
+       AND NOT l.retired AND ($4::uuid IS NULL OR l.id <> $4)`,
+    [releaseId, row.species, row.vacuumNm, exceptId],
+    transaction,
+  );
+  return twin ?? null;
+}
+
+function duplicateError(twin: LineDbRow): AppError {
+  return new AppError("validation", "The draft already has this line.", {
+    fieldErrors: {
+      vacuumNm: [
+        `${twin.species} ${twin.air_nm ?? twin.vacuum_nm} nm is already in the draft (within 0.002 nm).`,
+      ],
+    },
+  });
+}
+
+export async function addLine(
+  actor: Actor,
+  input: { releaseId: string; line: LineInput; reason: string },
+): Promise<LineRecord> {
+  const reason = requireReason(input.reason);
+  const id = await sequelize.transaction(async (transaction) => {
+    const draft = await lockDraft(actor, input.releaseId, "lines.edit", transaction);
+    const row = validateLineInput(input.line);
+    const twin = await twinInDraft(draft.id, row, null, transaction);
+    if (twin) throw duplicateError(twin);
+    const values = valuesOf(row);
+    const [created] = await sequelize.query<{ id: string; line_key: string }>(
+      `INSERT INTO lines (release_id, ${VALUE_COLUMNS.join(", ")})
+       VALUES ($1, ${VALUE_COLUMNS.map((_, i) => `$${i + 2}`).join(", ")}) RETURNING id, line_key`,
+      {
+        bind: [draft.id, ...VALUE_COLUMNS.map((c) => values[c])],
+        type: QueryTypes.SELECT,
+        transaction,
+      },
+    );
+    await recordAudit(
+      {
+        actorId: actor.id,
+        teamId: draft.teamId,
+        action: "line.add",
+        entity: "line",
+        entityId: created.line_key,
+        after: { releaseId: draft.id, ...row },
+        reason,
+      },
+      transaction,
+    );
+    return created.id;
+  });
+  return toLineRecord((await selectLines("l.id = $1", [id]))[0]);
+}
+
+/** Locks a draft line for an edit, checking team, role, draft status and the caller's version. */
+async function lockLineForEdit(
+  actor: Actor,
+  lineId: string,
+  version: number,
+  transaction: Transaction,
+): Promise<{ row: LineDbRow; teamId: string }> {
+  const [located] = await sequelize.query<{ release_id: string }>(
+    `SELECT release_id FROM lines WHERE id = $1`,
+    {
+      bind: [lineId],
+      type: QueryTypes.SELECT,
+      transaction,
+    },
+  );
+  if (!located) throw notFound("No such line.");
+  const draft = await lockDraft(actor, located.release_id, "lines.edit", transaction);
+  const [row] = await selectLines("l.id = $1", [lineId], transaction, "FOR UPDATE OF l");
+  if (!row) throw notFound("No such line.");
+  if (row.version !== version) throw new AppError("conflict", CONFLICT_MESSAGE);
+  return { row, teamId: draft.teamId };
+}
+
+async function reloadLine(lineId: string): Promise<LineRecord> {
+  return toLineRecord((await selectLines("l.id = $1", [lineId]))[0]);
+}
+
+/**
+ * Corrects a draft line. `line` holds the fields to change; a changed air wavelength without a
+ * vacuum one (or the reverse) recomputes the other. Values changed → the line is unverified again.
+ */
+export async function updateLine(
+  actor: Actor,
+  input: { lineId: string; version: number; line: Partial<LineInput>; reason: string },
+): Promise<LineRecord> {
+  const reason = requireReason(input.reason);
+  await sequelize.transaction(async (transaction) => {
+    const { row, teamId } = await lockLineForEdit(actor, input.lineId, input.version, transaction);
+    const current = toLineRecord(row);
+    const merged: LineInput = { ...recordToInput(current), ...input.line };
+    if ("airNm" in input.line && !("vacuumNm" in input.line))
+      merged.vacuumNm = null as unknown as number;
+    if ("vacuumNm" in input.line && !("airNm" in input.line)) merged.airNm = null;
+    const next = validateLineInput(merged);
+    const before = toLineTableRow(row);
+    const fields = differingFields(before, next);
+    if (fields.length === 0) return;
+    const twin = await twinInDraft(row.release_id, next, row.id, transaction);
+    if (twin) throw duplicateError(twin);
+    const values = valuesOf(next);
+    await sequelize.query(
+      `UPDATE lines SET ${VALUE_COLUMNS.map((c, i) => `${c} = $${i + 2}`).join(", ")},
+         verified_by_id = NULL, verified_at = NULL, verified_citation = NULL, version = version + 1,
+         updated_at = now()
+       WHERE id = $1`,
+      { bind: [row.id, ...VALUE_COLUMNS.map((c) => values[c])], transaction },
+    );
+    await recordAudit(
+      {
+        actorId: actor.id,
+        teamId,
+        action: "line.update",
+        entity: "line",
+        entityId: row.line_key,
+        before: { releaseId: row.release_id, ...before },
+        after: { releaseId: row.release_id, ...next, verified: false, fields },
+        reason,
+      },
+      transaction,
+    );
+  });
+  return reloadLine(input.lineId);
+}
+
+async function setLineState(
+  actor: Actor,
+  input: { lineId: string; version: number; reason: string },
+  action: "line.retire" | "line.restore" | "line.verify",
+): Promise<LineRecord> {
+  const reason = requireReason(input.reason);
+  await sequelize.transaction(async (transaction) => {
+    const { row, teamId } = await lockLineForEdit(actor, input.lineId, input.version, transaction);
+    const set =
+      action === "line.verify"
+        ? "verified_by_id = $2, verified_at = now(), verified_citation = NULL"
+        : `retired = ${action === "line.retire" ? "true" : "false"}`;
+    if (action === "line.restore") {
+      const twin = await twinInDraft(row.release_id, toLineTableRow(row), row.id, transaction);
+      if (twin) throw duplicateError(twin);
+    }
+    await sequelize.query(
+      `UPDATE lines SET ${set}, version = version + 1, updated_at = now() WHERE id = $1`,
+      {
+        bind: action === "line.verify" ? [row.id, actor.id] : [row.id],
+        transaction,
+      },
+    );
+    await recordAudit(
+      {
+        actorId: actor.id,
+        teamId,
+        action,
+        entity: "line",
+        entityId: row.line_key,
+        before: {
+          releaseId: row.release_id,
+          retired: row.retired,
+          verified: row.verified_at !== null,
+        },
+        after: {
+          releaseId: row.release_id,
+          retired: action === "line.verify" ? row.retired : action === "line.retire",
+          verified: action === "line.verify" ? true : row.verified_at !== null,
+        },
+        reason,
+      },
+      transaction,
+    );
+  });
+  return reloadLine(input.lineId);
+}
+
+/** Marks a draft line retired: it stays visible in the draft and is left out when publishing. */
+export function retireLine(
+  actor: Actor,
+  input: { lineId: string; version: number; reason: string },
+) {
+  return setLineState(actor, input, "line.retire");
+}
+
+export function restoreLine(
+  actor: Actor,
+  input: { lineId: string; version: number; reason: string },
+) {
+  return setLineState(actor, input, "line.restore");
+}
+
+/** Records that a lab lead checked the line against its source (who and when). */
+export function verifyLine(
+  actor: Actor,
+  input: { lineId: string; version: number; reason: string },
+) {
+  return setLineState(actor, input, "line.verify");
+}
