@@ -24,7 +24,7 @@ import {
   type LampLine,
 } from "@/lib/spectrum/calibration";
 import { runHeavyTask } from "@/lib/workers/heavy-pool";
-import type { CalibrationCreateInput } from "@/lib/validation/workflow-schemas";
+import type { CalibrationCreateInput } from "@/lib/validation/calibration-schemas";
 import { Calibration, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import { latestCalibrationOf, loadInstrument } from "./instruments";

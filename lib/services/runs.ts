@@ -19,8 +19,7 @@ import {
   type LineIndex,
   type Verdict,
 } from "@/lib/spectrum/matching";
-import type { RunNotesInput, RunOverrideInput } from "@/lib/validation/run-schemas";
-import type { RunCreateInput } from "@/lib/validation/workflow-schemas";
+import type { RunCreateInput, RunNotesInput, RunOverrideInput } from "@/lib/validation/run-schemas";
 import { pixelNumberingDiffers } from "@/lib/spectrum/io/stored-pixel-numbering";
 import { runHeavyTask } from "@/lib/workers/heavy-pool";
 import type { Transaction } from "sequelize";

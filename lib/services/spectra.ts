@@ -30,7 +30,7 @@ import {
   MAX_UPLOAD_BYTES,
   MAX_UPLOAD_POINTS,
   UPLOAD_X_UNITS,
-} from "@/lib/validation/workflow-schemas";
+} from "@/lib/validation/upload-schemas";
 import { Instrument, SpectrumFile, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import { exportProfileOf, loadInstrument } from "./instruments";

@@ -11,7 +11,7 @@ import { fetchCalibration } from "@/lib/services/calibrations";
 import { fetchInstrument } from "@/lib/services/instruments";
 import { fetchSpectrum } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
-import { LAMP_GASES, MODEL_CHOICES } from "@/lib/validation/workflow-forms";
+import { LAMP_GASES, MODEL_CHOICES } from "@/lib/validation/calibration-schemas";
 import { saveCalibrationAction } from "./actions";
 
 export const metadata = { title: "Calibrate" };

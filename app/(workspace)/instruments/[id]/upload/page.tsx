@@ -14,7 +14,7 @@ import { fetchInstrument } from "@/lib/services/instruments";
 import { fetchNotebooks } from "@/lib/services/notebooks";
 import { fetchSpectrum } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
-import { MAX_UPLOAD_BYTES, MAX_UPLOAD_POINTS } from "@/lib/validation/workflow-schemas";
+import { MAX_UPLOAD_BYTES, MAX_UPLOAD_POINTS } from "@/lib/validation/upload-schemas";
 
 export const metadata = { title: "Upload a spectrum" };
 
