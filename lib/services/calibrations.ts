@@ -30,11 +30,8 @@ import { recordAudit } from "./audit";
 import { latestCalibrationOf, loadInstrument } from "./instruments";
 import { selectLines } from "./line-library-access";
 import { loadSpectrum, spectrumPoints } from "./spectra";
-import {
-  SOFTWARE_VERSION,
-  type CalibrationPairRecord,
-  type CalibrationRecord,
-} from "./workflow-types";
+import { SOFTWARE_VERSION } from "./software-version";
+import type { CalibrationPairRecord, CalibrationRecord } from "./calibration-types";
 
 /** The team's newest published line-table release; calibrations and runs are tied to it. */
 export async function newestPublishedRelease(

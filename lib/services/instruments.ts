@@ -14,7 +14,7 @@ import type {
 } from "@/lib/validation/instrument-schemas";
 import { Calibration, Instrument, sequelize } from "@/models";
 import { recordAudit } from "./audit";
-import type { InstrumentRecord } from "./workflow-types";
+import type { InstrumentRecord } from "./instrument-types";
 
 export function toInstrumentRecord(
   row: Instrument,

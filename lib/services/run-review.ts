@@ -37,7 +37,7 @@ import { recordAudit } from "./audit";
 import { buildRunContent, calibrationModelLabel, runContentHash } from "./run-content";
 import { STATUS_LABEL, assertAuthorMayEdit, loadRun, lockReason } from "./run-lifecycle";
 import { overridesByRun, standingVerdicts } from "./runs";
-import type { RunCall } from "./workflow-types";
+import type { RunCall } from "./run-types";
 
 /** What a signature says, recorded with it and shown beside it. */
 export const SIGNATURE_MEANING = "Reviewed and approved";

@@ -35,7 +35,7 @@ import { Instrument, SpectrumFile, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import { exportProfileOf, loadInstrument } from "./instruments";
 import type { SpectraQuery } from "@/lib/validation/notebook-schemas";
-import type { SpectrumRecord } from "./workflow-types";
+import type { SpectrumRecord } from "./spectrum-types";
 
 /** A spectrum as lists show it: the record without the duplicate check (no bytes or points either). */
 export type SpectrumSummary = Omit<SpectrumRecord, "duplicateOf">;

@@ -15,7 +15,7 @@ import { fetchCalibrations } from "@/lib/services/calibrations";
 import { fetchInstruments } from "@/lib/services/instruments";
 import { fetchNotebook, fetchNotebookRuns } from "@/lib/services/notebooks";
 import { fetchSpectra, fetchSpectrum } from "@/lib/services/spectra";
-import type { RunSummary } from "@/lib/services/workflow-types";
+import type { RunSummary } from "@/lib/services/notebook-types";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { notebookRunsQuerySchema } from "@/lib/validation/notebook-schemas";
 import { renameNotebookAction, startRunAction } from "../actions";
