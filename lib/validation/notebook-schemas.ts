@@ -24,10 +24,7 @@ export type NotebookRenameInput = z.infer<typeof notebookRenameSchema>;
 
 export const notebookCreateSchema = z.object({
   teamId: z.uuid("Choose a team."),
-  title: text({ error: "Give the notebook a title." })
-    .trim()
-    .min(1, "Give the notebook a title.")
-    .max(200),
+  title: notebookTitle,
 });
 
 export function notebookInputFromForm(formData: FormData) {
