@@ -11,7 +11,7 @@ import { parseLineTableCsv } from "../lib/lines";
 import { BULK_INSERT_LINES_SQL, bulkInsertPayload } from "../lib/services/line-library-rows";
 import type { Actor } from "../lib/auth/actor";
 import type { TeamRole } from "../lib/auth/roles";
-import type { InstrumentCreateInput } from "../lib/validation/workflow-schemas";
+import type { InstrumentCreateInput } from "../lib/validation/instrument-schemas";
 import {
   AuditEvent,
   Calibration,

@@ -10,7 +10,7 @@ import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/form-message";
 import type { CalibrationPreview, CalibrationPreviewPair } from "@/lib/services/calibrations";
 import type { FormState } from "@/lib/validation/form-state";
-import type { CalibrationModelChoice } from "@/lib/validation/workflow-schemas";
+import type { CalibrationModelChoice } from "@/lib/spectrum/calibration";
 import { CompetingPairing } from "./competing-pairing";
 import { ModelComparison } from "./model-comparison";
 import { PairChooser } from "./pair-chooser";

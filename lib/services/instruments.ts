@@ -11,10 +11,10 @@ import { authorize, type TeamAction } from "@/lib/auth/policy";
 import type {
   InstrumentCreateInput,
   InstrumentUpdateInput,
-} from "@/lib/validation/workflow-schemas";
+} from "@/lib/validation/instrument-schemas";
 import { Calibration, Instrument, sequelize } from "@/models";
 import { recordAudit } from "./audit";
-import type { InstrumentRecord } from "./workflow-types";
+import type { InstrumentRecord } from "./instrument-types";
 
 export function toInstrumentRecord(
   row: Instrument,

@@ -9,7 +9,7 @@ import type { ReviewQueueQuery } from "@/lib/validation/review-schemas";
 import { sequelize } from "@/models";
 import type { ReviewQueue, ReviewQueueItem } from "./run-review-types";
 import { overridesByRun, standingVerdicts } from "./runs";
-import type { RunCall } from "./workflow-types";
+import type { RunCall } from "./run-types";
 
 interface QueueRow {
   id: string;

@@ -19,8 +19,7 @@ import {
   type LineIndex,
   type Verdict,
 } from "@/lib/spectrum/matching";
-import type { RunNotesInput, RunOverrideInput } from "@/lib/validation/run-schemas";
-import type { RunCreateInput } from "@/lib/validation/workflow-schemas";
+import type { RunCreateInput, RunNotesInput, RunOverrideInput } from "@/lib/validation/run-schemas";
 import { pixelNumberingDiffers } from "@/lib/spectrum/io/stored-pixel-numbering";
 import { runHeavyTask } from "@/lib/workers/heavy-pool";
 import type { Transaction } from "sequelize";
@@ -44,16 +43,16 @@ import { loadNotebook } from "./notebooks";
 import { assertAuthorMayEdit, loadRun } from "./run-lifecycle";
 import { fileAxisInNm } from "./run-spectrum";
 import { loadSpectrum, spectrumPoints, storedAxisFacts } from "./spectra";
-import {
-  SOFTWARE_VERSION,
-  type RunCall,
-  type RunChanges,
-  type RunOverrideRecord,
-  type RunPeak,
-  type RunRecord,
-  type RunTemperature,
-  type StoredRunCall,
-} from "./workflow-types";
+import { SOFTWARE_VERSION } from "./software-version";
+import type {
+  RunCall,
+  RunChanges,
+  RunOverrideRecord,
+  RunPeak,
+  RunRecord,
+  RunTemperature,
+  StoredRunCall,
+} from "./run-types";
 
 // Published releases never change, so an index prepared once per release serves every later run.
 // Its lines are loaded in wavelength order: the order is then the same on every load (ties between

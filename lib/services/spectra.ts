@@ -30,12 +30,12 @@ import {
   MAX_UPLOAD_BYTES,
   MAX_UPLOAD_POINTS,
   UPLOAD_X_UNITS,
-} from "@/lib/validation/workflow-schemas";
+} from "@/lib/validation/upload-schemas";
 import { Instrument, SpectrumFile, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import { exportProfileOf, loadInstrument } from "./instruments";
 import type { SpectraQuery } from "@/lib/validation/notebook-schemas";
-import type { SpectrumRecord } from "./workflow-types";
+import type { SpectrumRecord } from "./spectrum-types";
 
 /** A spectrum as lists show it: the record without the duplicate check (no bytes or points either). */
 export type SpectrumSummary = Omit<SpectrumRecord, "duplicateOf">;

@@ -20,9 +20,12 @@ export function parseForm<T extends z.ZodType>(
 ): { data: z.infer<T>; state?: undefined } | { data?: undefined; state: FormState } {
   const parsed = schema.safeParse(Object.fromEntries(formData));
   if (parsed.success) return { data: parsed.data };
-  return {
-    state: { message: "Some fields need another look.", fieldErrors: zodFieldErrors(parsed.error) },
-  };
+  return { state: invalidFormState(parsed.error) };
+}
+
+/** Field errors of a failed parse, with the one message every form shows above them. */
+export function invalidFormState(error: z.ZodError, values?: Record<string, string>): FormState {
+  return { message: "Some fields need another look.", fieldErrors: zodFieldErrors(error), values };
 }
 
 /** Maps an expected error to FormState; anything else is re-thrown to the error boundary. */

@@ -1,10 +1,12 @@
-// Schemas of the notebooks and spectra lists and of renaming a notebook: the rename body (title and the
-// version it was edited from) and the query strings of the lists, which reject unknown values with 400.
+// Schemas of the notebooks and spectra lists and of opening and renaming a notebook: the new notebook's
+// team and title, the rename body (title and the version it was edited from) and the query strings of
+// the lists, which reject unknown values with 400.
 import { z } from "zod";
 import { text } from "./text";
 import { AppError } from "@/lib/errors";
 import { RUN_STATUSES, type RunStatus } from "@/models/run";
 import { zodFieldErrors } from "./field-errors";
+import { blank } from "./form-data";
 
 export const notebookTitle = text({ error: "Give the notebook a title." })
   .trim()
@@ -19,6 +21,18 @@ export const notebookRenameSchema = z.object({
     .min(0),
 });
 export type NotebookRenameInput = z.infer<typeof notebookRenameSchema>;
+
+export const notebookCreateSchema = z.object({
+  teamId: z.uuid("Choose a team."),
+  title: notebookTitle,
+});
+
+export function notebookInputFromForm(formData: FormData) {
+  return notebookCreateSchema.safeParse({
+    teamId: blank(formData.get("teamId")),
+    title: blank(formData.get("title")),
+  });
+}
 
 /** Blank query values mean "no filter". */
 const optionalText = (max: number, what: string) =>

@@ -1,9 +1,8 @@
 // Schemas of submission, review marks, review decisions and the review queue's filters, shared by
 // the route handlers and the review pages' server actions. The services check what depends on data.
 import { z } from "zod";
+import { blank } from "./form-data";
 import { text } from "./text";
-
-const blank = (value: FormDataEntryValue | null) => (typeof value === "string" ? value.trim() : "");
 
 export const MAX_REVIEW_COMMENT = 4000;
 

@@ -6,14 +6,13 @@ import { redirect } from "next/navigation";
 import { currentActor } from "@/lib/auth/session";
 import { unauthenticated } from "@/lib/errors";
 import { createInstrument, updateInstrument } from "@/lib/services/instruments";
-import { formError, type FormState } from "@/lib/validation/form-state";
+import { formError, invalidFormState, type FormState } from "@/lib/validation/form-state";
 import { idParam } from "@/lib/validation/line-schemas";
+import { formValues } from "@/lib/validation/form-data";
 import {
-  formValues,
   instrumentInputFromForm,
   instrumentUpdateFromForm,
-  invalidFormState,
-} from "@/lib/validation/workflow-forms";
+} from "@/lib/validation/instrument-schemas";
 
 async function actorOrThrow() {
   const actor = await currentActor();

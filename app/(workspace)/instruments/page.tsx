@@ -1,6 +1,6 @@
 // Instruments: the team's spectrometers with their newest calibration; lab leads add new ones here.
 import Link from "next/link";
-import { InstrumentForm } from "@/components/workflow/instrument-form";
+import { InstrumentForm } from "@/components/instruments/instrument-form";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
 import { can } from "@/lib/auth/policy";

@@ -7,15 +7,11 @@ import { currentActor } from "@/lib/auth/session";
 import { unauthenticated } from "@/lib/errors";
 import { createNotebook, renameNotebook } from "@/lib/services/notebooks";
 import { createRun } from "@/lib/services/runs";
-import { formError, type FormState } from "@/lib/validation/form-state";
+import { formError, invalidFormState, type FormState } from "@/lib/validation/form-state";
 import { idParam } from "@/lib/validation/line-schemas";
-import { notebookRenameSchema } from "@/lib/validation/notebook-schemas";
-import {
-  formValues,
-  invalidFormState,
-  notebookInputFromForm,
-  runInputFromForm,
-} from "@/lib/validation/workflow-forms";
+import { notebookInputFromForm, notebookRenameSchema } from "@/lib/validation/notebook-schemas";
+import { formValues } from "@/lib/validation/form-data";
+import { runInputFromForm } from "@/lib/validation/run-schemas";
 
 async function actorOrThrow() {
   const actor = await currentActor();

@@ -4,7 +4,7 @@ import { AppError } from "@/lib/errors";
 import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
 import { createCalibration, fetchCalibrations } from "@/lib/services/calibrations";
 import { idParam } from "@/lib/validation/line-schemas";
-import { calibrationCreateSchema } from "@/lib/validation/workflow-schemas";
+import { calibrationCreateSchema } from "@/lib/validation/calibration-schemas";
 
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();

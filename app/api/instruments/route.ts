@@ -1,7 +1,8 @@
 // GET the team's instruments; POST creates one (lab leads).
 import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
 import { createInstrument, fetchInstruments } from "@/lib/services/instruments";
-import { instrumentCreateSchema, teamIdQuery } from "@/lib/validation/workflow-schemas";
+import { instrumentCreateSchema } from "@/lib/validation/instrument-schemas";
+import { teamIdQuery } from "@/lib/validation/team-id-query";
 
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();

@@ -1,8 +1,12 @@
 // GET the team's notebooks (?teamId=&q=: title search, run counts, newest activity first); POST creates one.
 import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
 import { createNotebook, fetchNotebooks } from "@/lib/services/notebooks";
-import { notebookListQuerySchema, parseQuery } from "@/lib/validation/notebook-schemas";
-import { notebookCreateSchema, teamIdQuery } from "@/lib/validation/workflow-schemas";
+import {
+  notebookCreateSchema,
+  notebookListQuerySchema,
+  parseQuery,
+} from "@/lib/validation/notebook-schemas";
+import { teamIdQuery } from "@/lib/validation/team-id-query";
 
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();

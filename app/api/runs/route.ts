@@ -1,7 +1,7 @@
 // POST analyses a sample spectrum into a new run of a notebook (peaks, matches, calls, all stored).
 import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
 import { createRun } from "@/lib/services/runs";
-import { runCreateSchema } from "@/lib/validation/workflow-schemas";
+import { runCreateSchema } from "@/lib/validation/run-schemas";
 
 export const POST = apiRoute(async (request) => {
   const actor = await requireActor();

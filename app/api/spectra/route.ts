@@ -5,7 +5,7 @@
 import { apiRoute, requireActor } from "@/lib/http/api-handler";
 import { fetchSpectra, uploadSpectrum } from "@/lib/services/spectra";
 import { parseQuery, spectraQuerySchema } from "@/lib/validation/notebook-schemas";
-import { teamIdQuery } from "@/lib/validation/workflow-schemas";
+import { teamIdQuery } from "@/lib/validation/team-id-query";
 import { readUploadForm, UPLOAD_ROUTE_OPTIONS } from "./upload-form";
 
 export const GET = apiRoute(async (request) => {

@@ -6,7 +6,7 @@ import { bodyBytes } from "@/lib/http/read-body";
 import type { SpectrumUpload } from "@/lib/services/spectra";
 import { zodFieldErrors } from "@/lib/validation/field-errors";
 import { cleanText } from "@/lib/validation/text";
-import { MAX_UPLOAD_BYTES, spectrumUploadFieldsSchema } from "@/lib/validation/workflow-schemas";
+import { MAX_UPLOAD_BYTES, spectrumUploadFieldsSchema } from "@/lib/validation/upload-schemas";
 
 /** Room for the multipart boundaries and the other fields around the file. */
 const FORM_OVERHEAD_BYTES = 64 * 1024;

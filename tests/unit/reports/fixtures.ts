@@ -1,6 +1,7 @@
 // Plain records for the report tests: a small flame run with a sodium doublet, a potassium line and
 // an unexplained peak, its calibration, and the stored candidate matches.
-import type { CalibrationRecord, RunCall, RunRecord } from "@/lib/services/workflow-types";
+import type { CalibrationRecord } from "@/lib/services/calibration-types";
+import type { RunCall, RunRecord } from "@/lib/services/run-types";
 import type { RunReportInput } from "@/lib/reports/report-model";
 import type { StoredPeakMatch } from "@/lib/reports/peaks-csv";
 

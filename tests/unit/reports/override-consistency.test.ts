@@ -2,7 +2,7 @@
 // labels drawn from it) and the notebook CSV all show the standing verdict, with the computed one
 // beside it where the output has room.
 import { describe, expect, it } from "vitest";
-import { runChartLabels } from "@/components/workflow/run-labels";
+import { runChartLabels } from "@/components/runs/run-labels";
 import { chartLabelsFromCalls } from "@/lib/reports/chart-geometry";
 import { formatNotebookCallsCsv } from "@/lib/reports/notebook-calls-csv";
 import { buildRunReport } from "@/lib/reports/report-model";

@@ -1,7 +1,7 @@
 // The standing-verdict rule of lib/services/runs.ts (newest override wins, a withdrawn one falls back
 // to the computed verdict), restated for fixtures: the service module itself is server-only.
 import type { Verdict } from "@/lib/spectrum/matching";
-import type { RunRecord } from "@/lib/services/workflow-types";
+import type { RunRecord } from "@/lib/services/run-types";
 
 export function standingVerdictsForTest(run: RunRecord): Record<string, Verdict> {
   const verdicts: Record<string, Verdict> = {};

@@ -4,10 +4,8 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { auditQuerySchema } from "@/lib/validation/audit-schemas";
-import {
-  spectrumUploadFieldsSchema,
-  notebookCreateSchema,
-} from "@/lib/validation/workflow-schemas";
+import { spectrumUploadFieldsSchema } from "@/lib/validation/upload-schemas";
+import { notebookCreateSchema } from "@/lib/validation/notebook-schemas";
 import { tokenCreateSchema } from "@/lib/validation/account-schemas";
 import { cleanText, isCleanText, text } from "@/lib/validation/text";
 

@@ -3,7 +3,9 @@
 import Link from "next/link";
 import { LampChart, ResidualChart, type PairMark } from "@/components/charts/spectrum-charts";
 import { PageHeader } from "@/components/ui/page-header";
-import { X_TITLES, idOrNotFound, orNotFound, rawSeries } from "@/components/workflow/server-data";
+import { idOrNotFound, orNotFound } from "@/lib/http/page-not-found";
+import { rawSeries } from "@/components/uploads/spectrum-series";
+import { X_TITLES } from "@/components/uploads/first-column-labels";
 import { fetchCalibrationView } from "@/lib/services/calibrations";
 import { fetchInstrument } from "@/lib/services/instruments";
 import { fetchSpectrum } from "@/lib/services/spectra";

@@ -5,8 +5,8 @@
 import Link from "next/link";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
-import { describeFirstColumn } from "@/components/workflow/first-column-labels";
-import { X_TITLES, idOrNotFound, orNotFound } from "@/components/workflow/server-data";
+import { X_TITLES, describeFirstColumn } from "@/components/uploads/first-column-labels";
+import { idOrNotFound, orNotFound } from "@/lib/http/page-not-found";
 import { can } from "@/lib/auth/policy";
 import { fetchCalibrations } from "@/lib/services/calibrations";
 import { fetchInstrument } from "@/lib/services/instruments";

@@ -8,14 +8,14 @@ import { RenameNotebookForm } from "@/components/notebooks/rename-notebook-form"
 import { RunList } from "@/components/notebooks/run-list";
 import { RUN_FILTER_KEYS, oneParam, runsKey, spectraKey } from "@/components/notebooks/list-keys";
 import { PageHeader } from "@/components/ui/page-header";
-import { RunForm } from "@/components/workflow/run-form";
-import { ScreeningNotice } from "@/components/workflow/run-notices";
-import { idOrNotFound, orNotFound } from "@/components/workflow/server-data";
+import { RunForm } from "@/components/runs/run-form";
+import { ScreeningNotice } from "@/components/runs/run-notices";
+import { idOrNotFound, orNotFound } from "@/lib/http/page-not-found";
 import { fetchCalibrations } from "@/lib/services/calibrations";
 import { fetchInstruments } from "@/lib/services/instruments";
 import { fetchNotebook, fetchNotebookRuns } from "@/lib/services/notebooks";
 import { fetchSpectra, fetchSpectrum } from "@/lib/services/spectra";
-import type { RunSummary } from "@/lib/services/workflow-types";
+import type { RunSummary } from "@/lib/services/notebook-types";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { notebookRunsQuerySchema } from "@/lib/validation/notebook-schemas";
 import { renameNotebookAction, startRunAction } from "../actions";

@@ -6,9 +6,12 @@ import { redirect } from "next/navigation";
 import { currentActor } from "@/lib/auth/session";
 import { AppError, unauthenticated } from "@/lib/errors";
 import { fetchRun, overrideCall, rerunRun, updateRunNotes } from "@/lib/services/runs";
-import { invalidFormState } from "@/lib/validation/workflow-forms";
-import { formError, type FormState } from "@/lib/validation/form-state";
-import { runNotesFromForm, runOverrideFromForm } from "@/lib/validation/run-schemas";
+import { formError, invalidFormState, type FormState } from "@/lib/validation/form-state";
+import {
+  runNotesFromForm,
+  runOverrideFromForm,
+  type RunNotesState,
+} from "@/lib/validation/run-schemas";
 
 async function actorOrThrow() {
   const actor = await currentActor();
@@ -37,11 +40,6 @@ export async function overrideCallAction(
     ok: true,
     message: parsed.data.verdict === null ? "Override withdrawn." : "Override saved.",
   };
-}
-
-/** The notes form's state; `newer` carries the notes someone saved since the form was opened. */
-export interface RunNotesState extends FormState {
-  newer?: { notes: string; lockVersion: number };
 }
 
 export async function saveRunNotesAction(

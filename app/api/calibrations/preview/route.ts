@@ -2,7 +2,7 @@
 // the model comparison, the lamp peaks and lines. Writes nothing.
 import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
 import { previewCalibration } from "@/lib/services/calibrations";
-import { calibrationCreateSchema } from "@/lib/validation/workflow-schemas";
+import { calibrationCreateSchema } from "@/lib/validation/calibration-schemas";
 
 export const POST = apiRoute(async (request) => {
   const actor = await requireActor();

@@ -4,7 +4,7 @@ import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
 import { fetchCalibrations } from "@/lib/services/calibrations";
 import { fetchInstrument, updateInstrument } from "@/lib/services/instruments";
 import { idParam } from "@/lib/validation/line-schemas";
-import { instrumentUpdateSchema } from "@/lib/validation/workflow-schemas";
+import { instrumentUpdateSchema } from "@/lib/validation/instrument-schemas";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

@@ -6,9 +6,8 @@ import { redirect } from "next/navigation";
 import { currentActor } from "@/lib/auth/session";
 import { unauthenticated } from "@/lib/errors";
 import { createCalibration } from "@/lib/services/calibrations";
-import { formError, type FormState } from "@/lib/validation/form-state";
-import { calibrationCreateSchema } from "@/lib/validation/workflow-schemas";
-import { invalidFormState } from "@/lib/validation/workflow-forms";
+import { formError, invalidFormState, type FormState } from "@/lib/validation/form-state";
+import { calibrationCreateSchema } from "@/lib/validation/calibration-schemas";
 
 export async function saveCalibrationAction(input: unknown): Promise<FormState> {
   const parsed = calibrationCreateSchema.safeParse(input);

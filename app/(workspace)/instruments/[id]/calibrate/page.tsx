@@ -4,12 +4,14 @@ import Link from "next/link";
 import { CalibrationWorkbench } from "@/components/calibration/calibration-workbench";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
-import { X_TITLES, idOrNotFound, orNotFound, rawSeries } from "@/components/workflow/server-data";
+import { idOrNotFound, orNotFound } from "@/lib/http/page-not-found";
+import { rawSeries } from "@/components/uploads/spectrum-series";
+import { X_TITLES } from "@/components/uploads/first-column-labels";
 import { fetchCalibration } from "@/lib/services/calibrations";
 import { fetchInstrument } from "@/lib/services/instruments";
 import { fetchSpectrum } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
-import { LAMP_GASES, MODEL_CHOICES } from "@/lib/validation/workflow-forms";
+import { LAMP_GASES, MODEL_CHOICES } from "@/lib/validation/calibration-schemas";
 import { saveCalibrationAction } from "./actions";
 
 export const metadata = { title: "Calibrate" };

@@ -4,8 +4,8 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { PageHeader } from "@/components/ui/page-header";
-import { InstrumentForm } from "@/components/workflow/instrument-form";
-import { idOrNotFound, orNotFound } from "@/components/workflow/server-data";
+import { InstrumentForm } from "@/components/instruments/instrument-form";
+import { idOrNotFound, orNotFound } from "@/lib/http/page-not-found";
 import { can } from "@/lib/auth/policy";
 import { fetchInstrument } from "@/lib/services/instruments";
 import { requireWorkspace } from "@/lib/services/workspace";

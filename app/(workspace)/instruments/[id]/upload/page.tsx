@@ -6,14 +6,15 @@
 import Link from "next/link";
 import { PreviewChart } from "@/components/charts/spectrum-charts";
 import { PageHeader } from "@/components/ui/page-header";
-import { describeFirstColumn } from "@/components/workflow/first-column-labels";
-import { SpectrumUpload } from "@/components/workflow/spectrum-upload";
-import { X_TITLES, idOrNotFound, orNotFound, rawSeries } from "@/components/workflow/server-data";
+import { X_TITLES, describeFirstColumn } from "@/components/uploads/first-column-labels";
+import { SpectrumUpload } from "@/components/uploads/spectrum-upload";
+import { idOrNotFound, orNotFound } from "@/lib/http/page-not-found";
+import { rawSeries } from "@/components/uploads/spectrum-series";
 import { fetchInstrument } from "@/lib/services/instruments";
 import { fetchNotebooks } from "@/lib/services/notebooks";
 import { fetchSpectrum } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
-import { MAX_UPLOAD_BYTES, MAX_UPLOAD_POINTS } from "@/lib/validation/workflow-schemas";
+import { MAX_UPLOAD_BYTES, MAX_UPLOAD_POINTS } from "@/lib/validation/upload-schemas";
 
 export const metadata = { title: "Upload a spectrum" };
 

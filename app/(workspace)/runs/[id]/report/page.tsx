@@ -8,7 +8,7 @@ import {
   RunReportView,
   reportPrintCss,
 } from "@/components/reports/run-report-view";
-import { idOrNotFound, orNotFound } from "@/components/workflow/server-data";
+import { idOrNotFound, orNotFound } from "@/lib/http/page-not-found";
 import { chartGeometry, chartLabelsFromCalls } from "@/lib/reports/chart-geometry";
 import { fetchRunReport } from "@/lib/services/run-reports";
 import { requireWorkspace } from "@/lib/services/workspace";

@@ -2,7 +2,7 @@
 import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
 import { evaluateStoredCalibration } from "@/lib/services/calibrations";
 import { idParam } from "@/lib/validation/line-schemas";
-import { evaluateSchema } from "@/lib/validation/workflow-schemas";
+import { evaluateSchema } from "@/lib/validation/calibration-schemas";
 
 export const POST = apiRoute(
   async (request, { params }) => {

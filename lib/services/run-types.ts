@@ -1,141 +1,12 @@
-// Plain shapes the workflow services return (instruments, spectra, calibrations, notebooks, runs):
-// what pages and the API see; no Sequelize instance or column name gets past the services.
-import type { AxisUnit, FirstColumnKind, SourceKind, WavelengthMedium } from "@/lib/spectrum/types";
+// The plain shapes of a run as the runs service returns it (its peaks, calls, overrides, temperature,
+// and what a re-run changed): what pages and the API see; no Sequelize instance or column name gets past
+// the services.
 import type { Verdict } from "@/lib/spectrum/matching";
 import type { DetectionLimit } from "@/lib/spectrum/analysis/detection-limits";
-import packageJson from "@/package.json";
+import type { SourceKind } from "@/lib/spectrum/types";
 import type { RunStatus } from "@/models/run";
 
 export type { RunStatus };
-
-export interface InstrumentRecord {
-  id: string;
-  teamId: string;
-  name: string;
-  dispersion: "prism" | "grating";
-  pixels: number;
-  nominalMinNm: number;
-  nominalMaxNm: number;
-  resolutionNm: number;
-  detectorMax: number | null;
-  glass: string | null;
-  apexDeg: number | null;
-  /** Export profile: what the first column of its files holds, for files that do not say; null: not set. */
-  exportXUnit: FirstColumnKind | null;
-  /** Air or vacuum, for a wavelength profile; null when not known or not a wavelength. */
-  exportMedium: WavelengthMedium | null;
-  /** Optimistic-locking version: send it back with an edit. */
-  version: number;
-  createdAt: string;
-  /** The newest calibration, the default for new runs; null when the instrument has none yet. */
-  latestCalibrationId: string | null;
-}
-
-export interface SpectrumRecord {
-  id: string;
-  teamId: string;
-  instrumentId: string;
-  kind: "lamp" | "sample";
-  label: string;
-  fileName: string;
-  byteSize: number;
-  sha256: string;
-  points: number;
-  xUnit: AxisUnit;
-  medium: WavelengthMedium | null;
-  xRange: [number, number];
-  uploadedAt: string;
-  uploadedById: string | null;
-  /** An earlier upload of the same bytes in the team (the oldest), when there is one. */
-  duplicateOf: { id: string; fileName: string; uploadedAt: string } | null;
-}
-
-export interface CalibrationPairRecord {
-  pixel: number;
-  wavelengthNm: number;
-  residualNm: number;
-  species: string | null;
-  lineId: string | null;
-}
-
-export interface CalibrationRecord {
-  id: string;
-  /** Tells calibrations apart: "Ne+Ar · 14:05 · polynomial-3 · RMS 0.012 nm · 402–918 nm" (time in UTC). */
-  label: string;
-  instrumentId: string;
-  spectrumId: string;
-  lineReleaseId: string;
-  lamps: string[];
-  requestedModel: string;
-  /** "polynomial-3", "hartmann" or "prism". */
-  model: string;
-  rmsNm: number;
-  dof: number;
-  pairs: CalibrationPairRecord[];
-  rejected: CalibrationPairRecord[];
-  coveredRangeNm: [number, number];
-  uncertainty: { medianNm: number; maxNm: number };
-  /** Calibrated wavelength now minus under the previous calibration, at a few pixels. */
-  drift: {
-    previousCalibrationId: string;
-    pixels: number[];
-    deltaNm: number[];
-    maxAbsNm: number;
-  } | null;
-  /** How the pairs were found; excludedByHand/addedByHand count the workbench's edits (absent on older rows). */
-  pairing: {
-    status: string;
-    confidence: number;
-    message: string;
-    manualSeeds: number;
-    excludedByHand?: number;
-    addedByHand?: number;
-    handPairs?: {
-      change: "excluded" | "added";
-      pixel: number;
-      wavelengthNm: number;
-      species: string;
-    }[];
-    /** A doubtful calibration saved as the default anyway: who said why, and the doubts they answered. */
-    confirmation?: { reason: string; doubts: string[]; by: string };
-  };
-  warnings: { code: string; message: string }[];
-  softwareVersion: string;
-  calibratedOn: string;
-  createdAt: string;
-}
-
-export interface NotebookRecord {
-  id: string;
-  teamId: string;
-  title: string;
-  /** Optimistic lock: a rename sends the version it was made from. */
-  version: number;
-  createdAt: string;
-  /** The newest of the notebook's own change and its runs' creation or change. */
-  lastActivityAt: string;
-  runCount: number;
-  statusCounts: Record<RunStatus, number>;
-}
-
-/** One run as a notebook lists it. */
-export interface RunSummary {
-  id: string;
-  status: RunStatus;
-  /** 1 for the first version; amendments count up. */
-  versionNumber: number;
-  spectrumId: string;
-  spectrumLabel: string;
-  spectrumFileName: string;
-  instrumentId: string;
-  instrumentName: string;
-  source: SourceKind;
-  /** Species whose standing verdict (after overrides) is present. */
-  present: string[];
-  authorId: string | null;
-  authorName: string | null;
-  createdAt: string;
-}
 
 export interface RunPeak {
   x: number;
@@ -280,6 +151,3 @@ export interface RunChanges {
   /** Peaks (nm) that had a candidate line before and are unexplained now. */
   newlyUnexplainedNm: number[];
 }
-
-/** The software version stored with every calibration and run (package.json's version). */
-export const SOFTWARE_VERSION: string = packageJson.version;

@@ -1,6 +1,6 @@
 // A run's settings are shown with their values, and a blank one with the default the core used.
 import { describe, expect, it } from "vitest";
-import { analysisSettingRows, SETTING_PLACEHOLDERS } from "@/components/workflow/analysis-settings";
+import { analysisSettingRows, SETTING_PLACEHOLDERS } from "@/components/runs/analysis-settings";
 import { analyzeSample, makeRandom } from "@/lib/spectrum";
 import { SAMPLE_ANALYSIS_DEFAULTS } from "@/lib/spectrum/analysis/sample-analysis-defaults";
 

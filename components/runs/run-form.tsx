@@ -12,10 +12,10 @@ import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
 import type { SpectrumSummary } from "@/lib/services/spectra";
-import type { CalibrationRecord } from "@/lib/services/workflow-types";
+import type { CalibrationRecord } from "@/lib/services/calibration-types";
 import { initialFormState, type FormState } from "@/lib/validation/form-state";
 import { FlameCautions } from "./run-notices";
-import { SETTING_PLACEHOLDERS } from "@/components/workflow/analysis-settings";
+import { SETTING_PLACEHOLDERS } from "@/components/runs/analysis-settings";
 import { PendingStatus } from "@/components/ui/pending-status";
 import { SAMPLE_ANALYSIS_DEFAULTS } from "@/lib/spectrum/analysis/sample-analysis-defaults";
 

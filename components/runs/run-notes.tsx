@@ -6,7 +6,7 @@ import { useActionState, useRef, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/form-message";
 import { initialFormState } from "@/lib/validation/form-state";
-import type { RunNotesState } from "@/app/(workspace)/runs/[id]/actions";
+import type { RunNotesState } from "@/lib/validation/run-schemas";
 
 export function RunNotes({
   notes,

@@ -9,7 +9,8 @@ import { fetchJson } from "@/components/notebooks/fetch-json";
 import { notebooksKey } from "@/components/notebooks/list-keys";
 import { RUN_STATUS_LABELS } from "@/components/notebooks/run-status";
 import { useUrlFilters } from "@/components/notebooks/url-filters";
-import type { NotebookRecord, RunStatus } from "@/lib/services/workflow-types";
+import type { NotebookRecord } from "@/lib/services/notebook-types";
+import type { RunStatus } from "@/lib/services/run-types";
 
 const FILTER_KEYS = ["q"] as const;
 

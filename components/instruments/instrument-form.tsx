@@ -9,7 +9,7 @@ import { Field } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
 import type { FirstColumnKind, WavelengthMedium } from "@/lib/spectrum/types";
 import { initialFormState, type FormState } from "@/lib/validation/form-state";
-import { FirstColumnFields } from "./first-column-fields";
+import { FirstColumnFields } from "@/components/uploads/first-column-fields";
 
 /** The stored instrument an edit starts from. */
 export interface InstrumentFormInitial {

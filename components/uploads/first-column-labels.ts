@@ -1,6 +1,7 @@
-// The words the pages use for what a file's first column holds and for an instrument's export profile:
-// one place, so the instrument page, its form and the upload page say the same thing.
-import type { FirstColumnKind, WavelengthMedium } from "@/lib/spectrum/types";
+// The words the pages use for what a file's first column holds, for an instrument's export profile and
+// for a stored spectrum's x axis: one place, so the instrument page, its form and the upload page say
+// the same thing.
+import type { AxisUnit, FirstColumnKind, WavelengthMedium } from "@/lib/spectrum/types";
 import type { FirstColumnFrom } from "@/lib/services/spectra";
 
 export const FIRST_COLUMN_LABELS: Record<FirstColumnKind, string> = {
@@ -35,3 +36,10 @@ export function describeFirstColumn(
   const label = FIRST_COLUMN_LABELS[unit];
   return isWavelengthColumn(unit) && medium ? `${label}, ${MEDIUM_LABELS[medium]}` : label;
 }
+
+export const X_TITLES: Record<AxisUnit, string> = {
+  pixel: "Pixel",
+  nm: "Wavelength (nm)",
+  angstrom: "Wavelength (Å)",
+  wavenumber: "Wavenumber (cm⁻¹)",
+};

@@ -1,5 +1,5 @@
 // Notices every identification shows: what the tool's calls are worth, and for a flame the cautions.
-import type { RunRecord } from "@/lib/services/workflow-types";
+import type { RunRecord } from "@/lib/services/run-types";
 
 export function ScreeningNotice() {
   return (
