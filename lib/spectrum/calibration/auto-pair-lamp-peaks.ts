@@ -28,9 +28,9 @@ import {
   finishLampPairing,
   refineLampPairing,
   refineLampPairs,
-  type PairingContext,
   type RefinedPairing,
 } from "./refine-lamp-pairing";
+import type { PairingContext } from "./pairing-context";
 import { groupBlendedLampLines, type LampLineGroup } from "./group-blended-lamp-lines";
 import { growthDegree } from "./growth-degree";
 import { prunePulledPairs } from "./prune-pulled-pairs";

@@ -4,7 +4,7 @@
 import type { CalibrationModel } from "./calibration-model";
 import type { LampPair } from "./lamp-pairing-types";
 import { inverseOfModel } from "./inverse-of-model";
-import type { PairingContext } from "./refine-lamp-pairing";
+import type { PairingContext } from "./pairing-context";
 import { lampLineBlended } from "./lamp-line-blended";
 import { toLampPair } from "./to-lamp-pair";
 import { typicalPeakFwhm } from "./typical-peak-fwhm";

@@ -14,10 +14,10 @@ import { firstAtOrAbove } from "../signal/first-at-or-above";
 import { inverseOfModel } from "./inverse-of-model";
 import type { LampPair, LampPairingResult } from "./lamp-pairing-types";
 import { modelEvaluation } from "./model-evaluation";
-import type { PairingContext } from "./refine-lamp-pairing";
+import type { PairingContext } from "./pairing-context";
 import { toLampPair } from "./to-lamp-pair";
 import { typicalPeakFwhm } from "./typical-peak-fwhm";
-import type { PairingCheck } from "./verify-lamp-pairing";
+import type { PairingCheck } from "./lamp-pairing-types";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
 export interface RecalibrateFromPreviousOptions {

@@ -7,7 +7,8 @@ import {
   type FitCalibrationResult,
 } from "./fit-calibration";
 import { informationCriteria } from "./information-criteria";
-import type { LampLine, LampPair, LampPairingResult, LampPeak } from "./lamp-pairing-types";
+import type { LampPair, LampPairingResult } from "./lamp-pairing-types";
+import type { PairingContext } from "./pairing-context";
 import type { CalibrationModel } from "./calibration-model";
 import { modelEvaluation } from "./model-evaluation";
 import { inverseOfModel } from "./inverse-of-model";
@@ -30,29 +31,6 @@ function placedOnce(place: (wavelengthNm: number) => number): (wavelengthNm: num
     if (x === undefined) placed.set(wavelengthNm, (x = place(wavelengthNm)));
     return x;
   };
-}
-
-/** Everything the refinement needs, prepared by the caller. */
-export interface PairingContext {
-  peaks: LampPeak[];
-  lines: LampLine[];
-  /** Indices of the lines inside the nominal range (plus margin). */
-  candidateLines: number[];
-  dispersion: DispersionKind;
-  domain: [number, number];
-  /** Matching half-width in x units at the end of refinement. */
-  toleranceX: number;
-  minConfidence: number;
-  /** Pairs that must stay (manual seeds), as peak index → line index. */
-  forced: Map<number, number>;
-  nominalRangeNm: [number, number];
-  /** The axis g(λ) in which the expected dispersion is nearly a straight line. */
-  straighten: (lambda: number) => number;
-  /**
-   * The instrument's previous calibration, when the pairs were predicted from it: the final fit keeps
-   * its model family (and glass) instead of the dispersion's usual choice of models.
-   */
-  previousModel?: CalibrationModel;
 }
 
 /**
