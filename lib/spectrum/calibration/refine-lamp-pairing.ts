@@ -22,6 +22,7 @@ import { trimPulledEnds } from "./trim-pulled-ends";
 import { claimSoundEnds } from "./claim-sound-ends";
 import { describePairs } from "./describe-pairs";
 import { weightedLeastSquares } from "./weighted-least-squares";
+import { lowerBound } from "../matching/lower-bound";
 
 /** `place` remembered per wavelength: the blend test asks again for every candidate line's place. */
 function placedOnce(place: (wavelengthNm: number) => number): (wavelengthNm: number) => number {
@@ -53,13 +54,7 @@ function matchByPrediction(
     if (forcedLines.has(l)) continue;
     const x = placedX(lines[l].wavelengthNm);
     if (!(x >= context.domain[0] - toleranceX && x <= context.domain[1] + toleranceX)) continue;
-    let low = 0;
-    let high = sortedX.length;
-    while (low < high) {
-      const mid = (low + high) >> 1;
-      if (sortedX[mid] < x) low = mid + 1;
-      else high = mid;
-    }
+    const low = lowerBound(sortedX, x);
     for (const k of [low - 1, low]) {
       if (k < 0 || k >= sortedX.length) continue;
       const p = order[k];
