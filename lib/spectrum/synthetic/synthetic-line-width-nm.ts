@@ -12,10 +12,11 @@ const SLIT_IMAGE_PX = 2.5;
 
 /** FWHM in nm of a line at `wavelengthNm` on the instrument. */
 export function syntheticLineWidthNm(
-  instrument: SyntheticInstrument,
+  instrument: Pick<SyntheticInstrument, "dispersion" | "wavelengthOfPixel">,
   wavelengthNm: number,
 ): number {
   if (instrument.dispersion === "grating") return SYNTHETIC_RESOLUTION_NM;
+  // Find the pixel of the line by bisection on the monotonic dispersion relation.
   const { wavelengthOfPixel } = instrument;
   let [lo, hi] = [0, SYNTHETIC_PIXELS - 1];
   const rising = wavelengthOfPixel(hi) > wavelengthOfPixel(lo);
