@@ -9,7 +9,7 @@
 import mlSavitzkyGolay from "ml-savitzky-golay";
 import { PolynomialRegression } from "ml-regression-polynomial";
 import { TheilSenRegression } from "ml-regression-theil-sen";
-import { makeRandom } from "../lib/spectrum/synthetic/make-random";
+import { makeRandom } from "../lib/spectrum/statistics/make-random";
 import { modifiedPolynomialBaseline } from "../lib/spectrum/signal/modified-polynomial-baseline";
 import { savitzkyGolay } from "../lib/spectrum/signal/savitzky-golay";
 import { theilSenLine } from "../lib/spectrum/signal/theil-sen-line";

@@ -12,7 +12,7 @@ import { parseSpectrumText } from "../lib/spectrum/io/parse-spectrum-text";
 import { prepareLineIndex } from "../lib/spectrum/matching/prepare-line-index";
 import { findPeaks } from "../lib/spectrum/peaks/find-peaks";
 import { savitzkyGolay } from "../lib/spectrum/signal/savitzky-golay";
-import { makeRandom } from "../lib/spectrum/synthetic/make-random";
+import { makeRandom } from "../lib/spectrum/statistics/make-random";
 import { synthesizeSpectrum } from "../lib/spectrum/synthetic/synthesize-spectrum";
 import type { ReferenceLine } from "../lib/spectrum/types";
 

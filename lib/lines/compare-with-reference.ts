@@ -1,6 +1,7 @@
 // Compares a draft's lines with a reference file's: pairs each reference line with one draft row of the
 // same species, in the reference's own medium, and says whether they agree within the combined uncertainty.
 import { vacuumToAirNm } from "../spectrum/units";
+import { assertPositiveFinite } from "../spectrum/units/assert-positive-finite";
 import type { ReferenceFileLine, WavelengthMedium } from "./parse-reference-csv";
 
 /** What the comparison needs of a draft row. */
@@ -72,12 +73,6 @@ export interface ReferenceComparison {
   retiredCount: number;
 }
 
-function assertPositive(value: number, name: string): void {
-  if (typeof value !== "number" || !Number.isFinite(value) || value <= 0) {
-    throw new RangeError(`${name} must be a positive finite number, got ${value}`);
-  }
-}
-
 /** The draft row's wavelength in the given medium (below 200 nm vacuum, air equals vacuum, as tables give it). */
 function draftWavelengthIn(row: DraftLineForCheck, medium: WavelengthMedium): number {
   if (medium === "vacuum") return row.vacuumNm;
@@ -95,9 +90,9 @@ export function compareWithReference(
   options: CompareWithReferenceOptions = {},
 ): ReferenceComparison {
   const { coverageFactor = 1, minToleranceNm = 0.002, pairingWindowNm = 0.1 } = options;
-  assertPositive(coverageFactor, "coverageFactor");
-  assertPositive(minToleranceNm, "minToleranceNm");
-  assertPositive(pairingWindowNm, "pairingWindowNm");
+  assertPositiveFinite(coverageFactor, "coverageFactor");
+  assertPositiveFinite(minToleranceNm, "minToleranceNm");
+  assertPositiveFinite(pairingWindowNm, "pairingWindowNm");
 
   const live = draftRows.filter((row) => !row.retired);
   const bySpecies = new Map<string, DraftLineForCheck[]>();

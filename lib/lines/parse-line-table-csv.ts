@@ -4,6 +4,7 @@
 import { unguardFormulaCell } from "../reports/formula-guard";
 
 import type { SourceKind } from "../spectrum/types";
+import { assertPositiveFinite } from "../spectrum/units/assert-positive-finite";
 import {
   AIR_FORMULA_MIN_AIR_NM,
   AIR_FORMULA_MIN_VACUUM_NM,
@@ -67,12 +68,6 @@ const INTENSITY_COLUMNS: ReadonlyArray<[string, SourceKind]> = [
 ];
 
 const NUMBER_PATTERN = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
-
-function assertPositiveFinite(value: number, name: string): void {
-  if (typeof value !== "number" || !Number.isFinite(value) || value <= 0) {
-    throw new RangeError(`${name} must be a positive finite number, got ${value}`);
-  }
-}
 
 /** Checks the header row; returns column indexes by name, or null after reporting errors. */
 function readHeader(

@@ -2,6 +2,7 @@
 // the same number of decimals (a column that changes its decimals from row to row misreads as a change
 // of precision), taken from the column's median uncertainty at two significant digits (the GUM's
 // rounding, see round-to-uncertainty.ts). The uncertainties are written to the same place.
+import { median } from "@/lib/spectrum/statistics/median";
 import { decimalsForUncertainty } from "./round-to-uncertainty";
 
 /** Decimals when no row has a usable uncertainty: a thousandth of a nm, the table's habit. */
@@ -9,12 +10,6 @@ export const FALLBACK_WAVELENGTH_DECIMALS = 3;
 /** Bounds: never coarser than 0.1 nm nor finer than 0.00001 nm, whatever an uncertainty claims. */
 const MIN_DECIMALS = 1;
 const MAX_DECIMALS = 5;
-
-function median(values: number[]): number {
-  const sorted = [...values].sort((a, b) => a - b);
-  const middle = sorted.length >> 1;
-  return sorted.length % 2 ? sorted[middle] : (sorted[middle - 1] + sorted[middle]) / 2;
-}
 
 /** The decimals of a wavelength column whose rows carry these uncertainties (in nm). */
 export function wavelengthColumnDecimals(uncertaintiesNm: readonly number[]): number {

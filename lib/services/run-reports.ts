@@ -15,7 +15,7 @@ import {
 } from "@/lib/reports/report-model";
 import type { ReportFile } from "@/lib/reports/report-response";
 import { formatRunSpectrumJdx } from "@/lib/reports/spectrum-jdx";
-import { thinSpectrum } from "@/lib/reports/thin-spectrum";
+import { thinSeries } from "@/lib/charts/thin-series";
 import type { WavelengthMedium } from "@/lib/spectrum/types";
 import { runHeavyTask } from "@/lib/workers/heavy-pool";
 import {
@@ -142,8 +142,11 @@ async function reportOf(row: Run): Promise<ReportAndChart> {
     })),
     generatedAt: new Date().toISOString(),
   });
-  const thin = thinSpectrum(points.wavelengthNm, points.counts, { maxPoints: CHART_POINTS });
-  return { report, chart: { wavelengthNm: thin.x, counts: thin.y } };
+  const thin = thinSeries(points.wavelengthNm, points.counts, {}, CHART_POINTS);
+  return {
+    report,
+    chart: { wavelengthNm: Float64Array.from(thin.x), counts: Float64Array.from(thin.y) },
+  };
 }
 
 /** Renders in the worker pool (seconds of CPU; 503 with Retry-After when its queue is full). */

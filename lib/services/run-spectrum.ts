@@ -7,6 +7,7 @@ import type { Actor } from "@/lib/auth/actor";
 import { evaluateCalibration } from "@/lib/spectrum/calibration";
 import { spectrumToNanometres } from "@/lib/spectrum/units";
 import { Calibration, type Run, type SpectrumFile } from "@/models";
+import { bytesToFloat64 } from "./float64-bytes";
 import { loadRun } from "./run-lifecycle";
 import { loadSpectrum, spectrumPoints } from "./spectra";
 
@@ -42,9 +43,7 @@ export interface RunSpectrum {
 /** The stored continuum (little-endian float64, one per analysed point); null when absent or of another length. */
 function storedContinuum(bytes: Buffer | null, points: number): Float64Array | null {
   if (!bytes || bytes.length !== points * 8) return null;
-  const out = new Float64Array(points);
-  for (let i = 0; i < points; i++) out[i] = bytes.readDoubleLE(i * 8);
-  return out;
+  return bytesToFloat64(bytes);
 }
 
 export async function fetchRunSpectrum(actor: Actor, runId: string): Promise<RunSpectrum> {

@@ -35,6 +35,7 @@ import {
   sequelize,
 } from "@/models";
 import { recordAudit } from "./audit";
+import { float64ToBytes } from "./float64-bytes";
 import { newestPublishedRelease } from "./calibrations";
 import { latestCalibrationOf } from "./instruments";
 import { selectLines } from "./line-library-access";
@@ -416,13 +417,6 @@ function instrumentResolution(
     : {};
 }
 
-/** The continuum as little-endian float64, one value per analysed point. */
-function continuumBytes(continuum: Float64Array): Buffer {
-  const bytes = Buffer.alloc(continuum.length * 8);
-  for (let i = 0; i < continuum.length; i++) bytes.writeDoubleLE(continuum[i], i * 8);
-  return bytes;
-}
-
 function toRunTemperature(temperature: SampleAnalysis["temperature"]): RunTemperature {
   return temperature.ok
     ? {
@@ -532,7 +526,7 @@ async function analyseAndStore(actor: Actor, plan: RunPlan): Promise<RunRecord> 
         unexplained,
         warnings: analysis.warnings,
         temperature,
-        continuum: continuumBytes(analysis.continuum),
+        continuum: float64ToBytes(analysis.continuum),
         rerunOfId: rerunOf?.id ?? null,
         createdById: actor.id,
       },

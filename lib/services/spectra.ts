@@ -33,25 +33,13 @@ import {
 } from "@/lib/validation/upload-schemas";
 import { Instrument, SpectrumFile, sequelize } from "@/models";
 import { recordAudit } from "./audit";
+import { bytesToFloat64, float64ToBytes } from "./float64-bytes";
 import { exportProfileOf, loadInstrument } from "./instruments";
 import type { SpectraQuery } from "@/lib/validation/notebook-schemas";
 import type { SpectrumRecord } from "./spectrum-types";
 
 /** A spectrum as lists show it: the record without the duplicate check (no bytes or points either). */
 export type SpectrumSummary = Omit<SpectrumRecord, "duplicateOf">;
-
-/** Points as little-endian float64 bytes, whatever the machine's byte order. */
-export function float64ToBytes(values: Float64Array): Buffer {
-  const buffer = Buffer.allocUnsafe(values.length * 8);
-  for (let i = 0; i < values.length; i++) buffer.writeDoubleLE(values[i], i * 8);
-  return buffer;
-}
-
-export function bytesToFloat64(bytes: Buffer): Float64Array {
-  const values = new Float64Array(bytes.length / 8);
-  for (let i = 0; i < values.length; i++) values[i] = bytes.readDoubleLE(i * 8);
-  return values;
-}
 
 function toSpectrumRecord(
   row: SpectrumFile,

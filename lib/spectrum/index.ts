@@ -8,5 +8,6 @@ export * from "./peaks";
 export * from "./calibration";
 export * from "./matching";
 export * from "./temperature";
+export * from "./statistics";
 export * from "./synthetic";
 export * from "./analysis";

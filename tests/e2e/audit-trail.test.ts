@@ -12,13 +12,12 @@ import { openBrowser, screenshot, type Session } from "./support/browser";
 import { AuditTrailPage } from "./pages/audit-page";
 import { SignInPage } from "./pages/sign-in-page";
 import { WorkspaceShell } from "./pages/workspace-shell";
+import { syntheticGrating } from "@/lib/spectrum/synthetic/synthetic-grating";
 import {
-  PIXELS,
-  RESOLUTION_NM,
-  flameFile,
-  lampFile,
-  syntheticGrating,
-} from "../integration/support/synthetic-files";
+  SYNTHETIC_PIXELS,
+  SYNTHETIC_RESOLUTION_NM,
+} from "@/lib/spectrum/synthetic/synthetic-instrument";
+import { flameFile, lampFile } from "../integration/support/synthetic-files";
 
 const DEMO_PASSWORD = "emberline-demo";
 const LEAD = "lead@demo.emberline.example";
@@ -199,10 +198,10 @@ describe("the audit trail", () => {
       teamId,
       name: `Audit grating ${suffix}`,
       dispersion: "grating",
-      pixels: PIXELS,
+      pixels: SYNTHETIC_PIXELS,
       nominalMinNm: grating.nominalRangeNm[0],
       nominalMaxNm: grating.nominalRangeNm[1],
-      resolutionNm: RESOLUTION_NM,
+      resolutionNm: SYNTHETIC_RESOLUTION_NM,
     });
     const lampId = await upload(instrument.id, "lamp", `lamp-${suffix}.csv`, lampFile(grating));
     const calibration = await post("/api/calibrations", {

@@ -11,7 +11,8 @@ import { openBrowser, screenshot, type Session } from "./support/browser";
 import { SignInPage } from "./pages/sign-in-page";
 import { chartsDrawn } from "./pages/workflow-pages";
 import { FLAME_SCREENING, signInDemo, teamIdOf } from "../integration/support/accounts";
-import { lampFile, syntheticGrating } from "../integration/support/synthetic-files";
+import { syntheticGrating } from "@/lib/spectrum/synthetic/synthetic-grating";
+import { lampFile } from "../integration/support/synthetic-files";
 import { createSyntheticInstrument, uploadSpectrumFile } from "../integration/support/bench";
 
 const DEMO_PASSWORD = "emberline-demo";

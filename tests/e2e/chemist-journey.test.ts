@@ -9,13 +9,12 @@ import type { Route } from "playwright-core";
 import { SCREENSHOT_DIR, openBrowser, screenshot, type Session } from "./support/browser";
 import { signInAs as signInWithPassword } from "./pages/sign-in-page";
 import { InstrumentsPage, RunPage, UploadZone, chartsDrawn } from "./pages/workflow-pages";
+import { syntheticGrating } from "@/lib/spectrum/synthetic/synthetic-grating";
 import {
-  PIXELS,
-  RESOLUTION_NM,
-  flameFile,
-  lampFile,
-  syntheticGrating,
-} from "../integration/support/synthetic-files";
+  SYNTHETIC_PIXELS,
+  SYNTHETIC_RESOLUTION_NM,
+} from "@/lib/spectrum/synthetic/synthetic-instrument";
+import { flameFile, lampFile } from "../integration/support/synthetic-files";
 import { LTE_FLAME_TEMPERATURE_K, lteCalciumFlame } from "../integration/support/lte-flame";
 
 const DEMO_PASSWORD = "emberline-demo";
@@ -47,10 +46,10 @@ describe("the chemist's journey", () => {
     await instruments.goto();
     const instrumentId = await instruments.create({
       name: `E2E grating ${suffix}`,
-      pixels: PIXELS,
+      pixels: SYNTHETIC_PIXELS,
       fromNm: grating.nominalRangeNm[0],
       toNm: grating.nominalRangeNm[1],
-      resolutionNm: RESOLUTION_NM,
+      resolutionNm: SYNTHETIC_RESOLUTION_NM,
     });
 
     await signInAs(CHEMIST);

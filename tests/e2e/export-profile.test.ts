@@ -8,7 +8,11 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { openBrowser, screenshot, type Session } from "./support/browser";
 import { signInAs as signInWithPassword } from "./pages/sign-in-page";
 import { InstrumentsPage, UploadZone, chartsDrawn } from "./pages/workflow-pages";
-import { PIXELS, RESOLUTION_NM, syntheticGrating } from "../integration/support/synthetic-files";
+import { syntheticGrating } from "@/lib/spectrum/synthetic/synthetic-grating";
+import {
+  SYNTHETIC_PIXELS,
+  SYNTHETIC_RESOLUTION_NM,
+} from "@/lib/spectrum/synthetic/synthetic-instrument";
 
 const DEMO_PASSWORD = "emberline-demo";
 const LEAD = "lead@demo.emberline.example";
@@ -52,10 +56,10 @@ async function newInstrument(name: string, profile: { firstColumn?: string; medi
   await instruments.goto();
   return instruments.create({
     name,
-    pixels: PIXELS,
+    pixels: SYNTHETIC_PIXELS,
     fromNm: grating.nominalRangeNm[0],
     toNm: grating.nominalRangeNm[1],
-    resolutionNm: RESOLUTION_NM,
+    resolutionNm: SYNTHETIC_RESOLUTION_NM,
     ...profile,
   });
 }

@@ -6,12 +6,12 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { openBrowser, screenshot, type Session } from "./support/browser";
 import { signInAs as signInWithPassword } from "./pages/sign-in-page";
 import { InstrumentsPage } from "./pages/workflow-pages";
+import { syntheticGrating } from "@/lib/spectrum/synthetic/synthetic-grating";
 import {
-  PIXELS,
-  RESOLUTION_NM,
-  lampFile,
-  syntheticGrating,
-} from "../integration/support/synthetic-files";
+  SYNTHETIC_PIXELS,
+  SYNTHETIC_RESOLUTION_NM,
+} from "@/lib/spectrum/synthetic/synthetic-instrument";
+import { lampFile } from "../integration/support/synthetic-files";
 
 const DEMO_PASSWORD = "emberline-demo";
 const LEAD = "lead@demo.emberline.example";
@@ -43,12 +43,12 @@ describe("editing an instrument", () => {
     await instruments.goto();
     instrumentId = await instruments.create({
       name,
-      pixels: PIXELS,
+      pixels: SYNTHETIC_PIXELS,
       fromNm: grating.nominalRangeNm[0],
       toNm: grating.nominalRangeNm[1],
-      resolutionNm: RESOLUTION_NM,
+      resolutionNm: SYNTHETIC_RESOLUTION_NM,
     });
-    await page.getByText(`resolution ${RESOLUTION_NM} nm FWHM`).waitFor();
+    await page.getByText(`resolution ${SYNTHETIC_RESOLUTION_NM} nm FWHM`).waitFor();
     await page.getByRole("heading", { name: "Calibration history" }).waitFor();
     await page.getByText("Not calibrated yet").waitFor();
     await page.getByText("No spectra yet").waitFor();
@@ -58,10 +58,10 @@ describe("editing an instrument", () => {
     await page.getByRole("heading", { level: 1, name: `Edit ${name}` }).waitFor();
     // The form starts from the stored values; an uncalibrated instrument's geometry may still change.
     expect(await page.getByLabel("Name").inputValue()).toBe(name);
-    expect(await page.getByLabel("Pixels").inputValue()).toBe(String(PIXELS));
+    expect(await page.getByLabel("Pixels").inputValue()).toBe(String(SYNTHETIC_PIXELS));
     expect(await page.getByLabel("Dispersion").isEnabled()).toBe(true);
     const resolution = page.getByLabel("Resolution, FWHM (nm)");
-    expect(await resolution.inputValue()).toBe(String(RESOLUTION_NM));
+    expect(await resolution.inputValue()).toBe(String(SYNTHETIC_RESOLUTION_NM));
 
     await resolution.fill("0.75");
     await screenshot(page, "instrument-edit-1-form");

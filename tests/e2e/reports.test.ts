@@ -11,13 +11,12 @@ import { SignInPage } from "./pages/sign-in-page";
 import { PrintableReportPage, RunDownloadsBlock } from "./pages/report-pages";
 import { FLAME_SCREENING, signInDemo, teamIdOf } from "../integration/support/accounts";
 import { APP_URL } from "../integration/support/http-client";
+import { syntheticGrating } from "@/lib/spectrum/synthetic/synthetic-grating";
 import {
-  PIXELS,
-  RESOLUTION_NM,
-  flameFile,
-  lampFile,
-  syntheticGrating,
-} from "../integration/support/synthetic-files";
+  SYNTHETIC_PIXELS,
+  SYNTHETIC_RESOLUTION_NM,
+} from "@/lib/spectrum/synthetic/synthetic-instrument";
+import { flameFile, lampFile } from "../integration/support/synthetic-files";
 
 const CHEMIST = "chem@demo.emberline.example";
 const DEMO_PASSWORD = "emberline-demo";
@@ -37,10 +36,10 @@ beforeAll(async () => {
     teamId,
     name: `E2E report bench ${suffix}`,
     dispersion: "grating",
-    pixels: PIXELS,
+    pixels: SYNTHETIC_PIXELS,
     nominalMinNm: grating.nominalRangeNm[0],
     nominalMaxNm: grating.nominalRangeNm[1],
-    resolutionNm: RESOLUTION_NM,
+    resolutionNm: SYNTHETIC_RESOLUTION_NM,
   });
   expect(instrument.status).toBe(201);
   const upload = async (kind: string, text: string, fileName: string) => {

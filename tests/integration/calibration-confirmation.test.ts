@@ -15,7 +15,8 @@ import {
   userIdByEmail,
   calibrationCountOf,
 } from "./support/database";
-import { lampFile, syntheticGrating } from "./support/synthetic-files";
+import { syntheticGrating } from "@/lib/spectrum/synthetic/synthetic-grating";
+import { lampFile } from "./support/synthetic-files";
 import { createSyntheticInstrument, uploadSpectrumFile } from "./support/bench";
 
 interface Preview {

@@ -8,7 +8,9 @@ import type { ApiClient, ErrorBody } from "./support/http-client";
 import { FLAME_SCREENING, signInDemo, signedIn, teamIdOf } from "./support/accounts";
 import { OUTSIDER, ensureOutsider } from "./support/outsider";
 import { auditEventsSince, auditMark, closeDb, db } from "./support/database";
-import { PIXELS, lampFile, syntheticGrating } from "./support/synthetic-files";
+import { syntheticGrating } from "@/lib/spectrum/synthetic/synthetic-grating";
+import { SYNTHETIC_PIXELS } from "@/lib/spectrum/synthetic/synthetic-instrument";
+import { lampFile } from "./support/synthetic-files";
 import { createSyntheticInstrument, uploadSpectrumFile } from "./support/bench";
 
 interface PreviewPair {
@@ -313,7 +315,7 @@ describe("the calibration preview", () => {
     expect(line.bic!).toBeGreaterThan(chosen.bic!);
     expect(line.ends).toHaveLength(2);
     expect(line.ends![0].pixel).toBe(0);
-    expect(line.ends![1].pixel).toBe(PIXELS - 1);
+    expect(line.ends![1].pixel).toBe(SYNTHETIC_PIXELS - 1);
     // The auto choice extrapolates to the ends within 0.1 nm of the truth; the straight line does not.
     for (const end of chosen.ends!)
       expect(Math.abs(end.wavelengthNm - grating.wavelengthOfPixel(end.pixel))).toBeLessThan(0.1);

@@ -9,7 +9,11 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { FLAME_SCREENING, signInDemo, teamIdOf } from "./support/accounts";
 import { auditEventsSince, auditMark, closeDb, db, userIdByEmail } from "./support/database";
 import type { ApiClient, ApiReply, ErrorBody } from "./support/http-client";
-import { PIXELS, RESOLUTION_NM, syntheticGrating } from "./support/synthetic-files";
+import { syntheticGrating } from "@/lib/spectrum/synthetic/synthetic-grating";
+import {
+  SYNTHETIC_PIXELS,
+  SYNTHETIC_RESOLUTION_NM,
+} from "@/lib/spectrum/synthetic/synthetic-instrument";
 import { DEMO } from "./support/accounts";
 
 interface Instrument {
@@ -52,10 +56,10 @@ async function createInstrument(profile: Record<string, unknown> = {}): Promise<
     teamId,
     name: `Profile bench ${suffix} ${++serial}`,
     dispersion: "grating",
-    pixels: PIXELS,
+    pixels: SYNTHETIC_PIXELS,
     nominalMinNm: grating.nominalRangeNm[0],
     nominalMaxNm: grating.nominalRangeNm[1],
-    resolutionNm: RESOLUTION_NM,
+    resolutionNm: SYNTHETIC_RESOLUTION_NM,
     ...profile,
   });
   expect(reply.status, JSON.stringify(reply.body)).toBe(201);
@@ -171,12 +175,12 @@ describe("a file without a header", () => {
     const bench = await createInstrument();
     expect(bench).toMatchObject({ exportXUnit: null, exportMedium: null });
     const mark = await auditMark();
-    const reply = await send("/api/spectra", bench.id, rows(range(1, PIXELS), " "));
+    const reply = await send("/api/spectra", bench.id, rows(range(1, SYNTHETIC_PIXELS), " "));
     expect(reply.status, JSON.stringify(reply.body)).toBe(201);
     expect(reply.body).toMatchObject({
-      points: PIXELS,
+      points: SYNTHETIC_PIXELS,
       xUnit: "pixel",
-      xRange: [0, PIXELS - 1],
+      xRange: [0, SYNTHETIC_PIXELS - 1],
       firstColumn: "pixel-from-1",
       firstColumnFrom: "pixelCount",
       exportProfileSet: null,
@@ -200,10 +204,14 @@ describe("a file without a header", () => {
       });
     }
     // One row short of the detector is not its pixel index: refused too, with what the values look like.
-    const short = await send("/api/spectra/preview", bench.id, rows(range(0, PIXELS - 1), ","));
+    const short = await send(
+      "/api/spectra/preview",
+      bench.id,
+      rows(range(0, SYNTHETIC_PIXELS - 1), ","),
+    );
     expect(short.status).toBe(400);
     expect(short.body.error.fieldErrors?.xUnit?.[0]).toBe(
-      `The file does not say what its first column holds; the values are the integers 0 to ${PIXELS - 2} in steps of 1, as pixel indices would be.`,
+      `The file does not say what its first column holds; the values are the integers 0 to ${SYNTHETIC_PIXELS - 2} in steps of 1, as pixel indices would be.`,
     );
     // No message names an option of the code rather than a field of the API.
     expect(short.body.error.message).not.toMatch(/options\.|suggestXUnit|fallback/);
@@ -279,7 +287,7 @@ describe("the profile from an upload", () => {
     const reply = await send(
       "/api/spectra",
       bench.id,
-      `pixel;counts\n${rows(range(0, PIXELS), ";")}`,
+      `pixel;counts\n${rows(range(0, SYNTHETIC_PIXELS), ";")}`,
     );
     expect(reply.status, JSON.stringify(reply.body)).toBe(201);
     expect(reply.body).toMatchObject({
@@ -294,7 +302,7 @@ describe("the profile from an upload", () => {
     const bench = await createInstrument();
     const mark = await auditMark();
     // Stated to count from 1, but the values are 0 to 2047: they fit only counted from 0.
-    const counted = await send("/api/spectra", bench.id, rows(range(0, PIXELS), ","), {
+    const counted = await send("/api/spectra", bench.id, rows(range(0, SYNTHETIC_PIXELS), ","), {
       xUnit: "pixel-from-1",
     });
     expect(counted.status).toBe(400);
@@ -336,7 +344,7 @@ describe("the profile on the instrument", () => {
     const base = {
       teamId,
       dispersion: "grating",
-      pixels: PIXELS,
+      pixels: SYNTHETIC_PIXELS,
       nominalMinNm: 400,
       nominalMaxNm: 800,
       resolutionNm: 1,

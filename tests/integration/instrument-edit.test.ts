@@ -8,7 +8,12 @@ import { APP_URL, type ApiClient, type ApiReply, type ErrorBody } from "./suppor
 import { FLAME_SCREENING, signInDemo, signedIn, teamIdOf } from "./support/accounts";
 import { OUTSIDER, ensureOutsider } from "./support/outsider";
 import { auditEventsSince, auditMark, closeDb, db } from "./support/database";
-import { PIXELS, RESOLUTION_NM, lampFile, syntheticGrating } from "./support/synthetic-files";
+import { syntheticGrating } from "@/lib/spectrum/synthetic/synthetic-grating";
+import {
+  SYNTHETIC_PIXELS,
+  SYNTHETIC_RESOLUTION_NM,
+} from "@/lib/spectrum/synthetic/synthetic-instrument";
+import { lampFile } from "./support/synthetic-files";
 
 interface Instrument {
   id: string;
@@ -69,10 +74,10 @@ async function create(name: string): Promise<Instrument> {
     teamId,
     name,
     dispersion: "grating",
-    pixels: PIXELS,
+    pixels: SYNTHETIC_PIXELS,
     nominalMinNm: grating.nominalRangeNm[0],
     nominalMaxNm: grating.nominalRangeNm[1],
-    resolutionNm: RESOLUTION_NM,
+    resolutionNm: SYNTHETIC_RESOLUTION_NM,
     detectorMax: 60000,
   });
   expect(reply.status, JSON.stringify(reply.body)).toBe(201);
@@ -123,7 +128,11 @@ describe("editing an instrument", () => {
       version: 1,
     });
     // Fields the edit did not touch keep their values.
-    expect(reply.body).toMatchObject({ dispersion: "grating", pixels: PIXELS, detectorMax: 60000 });
+    expect(reply.body).toMatchObject({
+      dispersion: "grating",
+      pixels: SYNTHETIC_PIXELS,
+      detectorMax: 60000,
+    });
 
     const events = await auditEventsSince(mark, { action: "instrument.update" });
     expect(events).toHaveLength(1);
@@ -131,7 +140,7 @@ describe("editing an instrument", () => {
       entity: "instrument",
       entity_id: bench.id,
       team_id: teamId,
-      before: { name: `edit bench ${suffix}`, resolutionNm: RESOLUTION_NM },
+      before: { name: `edit bench ${suffix}`, resolutionNm: SYNTHETIC_RESOLUTION_NM },
       after: { name: `edit bench renamed ${suffix}`, resolutionNm: 0.5 },
     });
     expect(Object.keys(events[0].before as object).sort()).toEqual(["name", "resolutionNm"]);

@@ -16,14 +16,12 @@ import {
 } from "./support/accounts";
 import { OUTSIDER, ensureOutsider } from "./support/outsider";
 import { auditEventsSince, auditMark, closeDb, db } from "./support/database";
+import { syntheticGrating } from "@/lib/spectrum/synthetic/synthetic-grating";
 import {
-  PIXELS,
-  RESOLUTION_NM,
-  flameFile,
-  flameFileOnWavelengthAxis,
-  lampFile,
-  syntheticGrating,
-} from "./support/synthetic-files";
+  SYNTHETIC_PIXELS,
+  SYNTHETIC_RESOLUTION_NM,
+} from "@/lib/spectrum/synthetic/synthetic-instrument";
+import { flameFile, flameFileOnWavelengthAxis, lampFile } from "./support/synthetic-files";
 
 interface Instrument {
   id: string;
@@ -155,10 +153,10 @@ beforeAll(async () => {
     teamId,
     name: `Own-axis grating ${suffix}`,
     dispersion: "grating",
-    pixels: PIXELS,
+    pixels: SYNTHETIC_PIXELS,
     nominalMinNm: grating.nominalRangeNm[0],
     nominalMaxNm: grating.nominalRangeNm[1],
-    resolutionNm: RESOLUTION_NM,
+    resolutionNm: SYNTHETIC_RESOLUTION_NM,
   });
   expect(created.status, JSON.stringify(created.body)).toBe(201);
   ownAxisInstrument = created.body;
@@ -403,8 +401,8 @@ describe("the spectra list", () => {
     expect(times).toEqual([...times].sort().reverse());
     for (const key of ["rawBytes", "xValues", "yValues", "x", "y"])
       expect(list[0]).not.toHaveProperty(key);
-    expect(list[0].points).toBe(PIXELS);
-    expect(list[0].xRange).toEqual([0, PIXELS - 1]);
+    expect(list[0].points).toBe(SYNTHETIC_PIXELS);
+    expect(list[0].xRange).toEqual([0, SYNTHETIC_PIXELS - 1]);
 
     const lamps = await chemist.get<SpectrumSummary[]>(`/api/spectra?teamId=${teamId}&kind=lamp`);
     expect(lamps.body.length).toBeGreaterThan(0);

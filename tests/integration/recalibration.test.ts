@@ -7,7 +7,9 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { ApiClient, ErrorBody } from "./support/http-client";
 import { FLAME_SCREENING, signInDemo, teamIdOf } from "./support/accounts";
 import { auditEventsSince, auditMark, calibrationCountOf, closeDb } from "./support/database";
-import { lampFile, syntheticGrating, PIXELS } from "./support/synthetic-files";
+import { syntheticGrating } from "@/lib/spectrum/synthetic/synthetic-grating";
+import { SYNTHETIC_PIXELS } from "@/lib/spectrum/synthetic/synthetic-instrument";
+import { lampFile } from "./support/synthetic-files";
 import { UNPAIRED_REACH_FWHM } from "@/lib/spectrum/calibration";
 import { createSyntheticInstrument, uploadSpectrumFile } from "./support/bench";
 
@@ -23,7 +25,7 @@ interface Preview {
 
 const suffix = Date.now().toString(36);
 const grating = syntheticGrating();
-const middle = (PIXELS - 1) / 2;
+const middle = (SYNTHETIC_PIXELS - 1) / 2;
 /** The same grating a day later: today's pixel x saw what yesterday's pixel middle + (x − middle)·0.996 − 8 saw. */
 const moved = {
   ...grating,

@@ -18,12 +18,8 @@ import { createSyntheticInstrument, uploadSpectrumFile } from "./support/bench";
 import { DEMO, FLAME_SCREENING, signInDemo, signedIn, teamIdOf } from "./support/accounts";
 import { OUTSIDER, ensureOutsider } from "./support/outsider";
 import { closeDb, db, userIdByEmail } from "./support/database";
-import {
-  flameFile,
-  flameFileOnWavelengthAxis,
-  lampFile,
-  syntheticGrating,
-} from "./support/synthetic-files";
+import { syntheticGrating } from "@/lib/spectrum/synthetic/synthetic-grating";
+import { flameFile, flameFileOnWavelengthAxis, lampFile } from "./support/synthetic-files";
 
 interface Call {
   species: string;

@@ -10,7 +10,9 @@ import { DEMO, FLAME_SCREENING, signInDemo, signedIn, teamIdOf } from "./support
 import { OUTSIDER, ensureOutsider } from "./support/outsider";
 import { auditEventsSince, auditMark, closeDb, db } from "./support/database";
 import { LTE_FLAME_TEMPERATURE_K as TRUE_T, lteCalciumFlame } from "./support/lte-flame";
-import { PIXELS, lampFile, syntheticGrating } from "./support/synthetic-files";
+import { syntheticGrating } from "@/lib/spectrum/synthetic/synthetic-grating";
+import { SYNTHETIC_PIXELS } from "@/lib/spectrum/synthetic/synthetic-instrument";
+import { lampFile } from "./support/synthetic-files";
 
 type Verdict = "present" | "possible" | "absent";
 interface Override {
@@ -153,7 +155,7 @@ describe("what the analysis stores", () => {
       "SELECT octet_length(continuum) AS bytes FROM runs WHERE id = $1",
       [first.id],
     );
-    expect(rows[0].bytes).toBe(8 * PIXELS);
+    expect(rows[0].bytes).toBe(8 * SYNTHETIC_PIXELS);
     const calcium = first.calls.find((c) => c.species === "Ca I")!;
     expect(calcium).toMatchObject({
       verdict: "present",

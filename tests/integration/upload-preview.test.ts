@@ -10,7 +10,9 @@ import { createSyntheticInstrument, uploadSpectrumFile } from "./support/bench";
 import { auditEventsSince, auditMark, closeDb, db, userIdByEmail } from "./support/database";
 import type { ApiClient, ErrorBody } from "./support/http-client";
 import { OUTSIDER, ensureOutsider } from "./support/outsider";
-import { PIXELS, lampFile, syntheticGrating } from "./support/synthetic-files";
+import { syntheticGrating } from "@/lib/spectrum/synthetic/synthetic-grating";
+import { SYNTHETIC_PIXELS } from "@/lib/spectrum/synthetic/synthetic-instrument";
+import { lampFile } from "./support/synthetic-files";
 
 interface Preview {
   instrumentId: string;
@@ -100,9 +102,9 @@ describe("the upload preview", () => {
       fileName: "lamp-preview.csv",
       byteSize: Buffer.byteLength(content),
       sha256: createHash("sha256").update(content).digest("hex"),
-      points: PIXELS,
+      points: SYNTHETIC_PIXELS,
       xUnit: "pixel",
-      xRange: [0, PIXELS - 1],
+      xRange: [0, SYNTHETIC_PIXELS - 1],
       yRange: [Math.min(...y), Math.max(...y)],
       duplicateOf: null,
       warnings: [],
@@ -137,13 +139,13 @@ describe("the upload preview", () => {
   it("refuses a pixel file longer than the instrument's detector, for the preview and for storing, writing nothing", async () => {
     const before = await storedRows();
     const mark = await auditMark();
-    const rows = Array.from({ length: 2 * PIXELS }, (_, i) => `${i},${200 + (i % 13)}`);
+    const rows = Array.from({ length: 2 * SYNTHETIC_PIXELS }, (_, i) => `${i},${200 + (i % 13)}`);
     const content = `pixel,counts\n${rows.join("\n")}\n`;
     const refused = await preview(chemist, content, "other-detector.csv");
     expect(refused.status).toBe(400);
     expect(refused.body.error.message).toBe(
-      `This file's first column runs over pixels 0 to ${2 * PIXELS - 1}, but Preview bench ${suffix} has ` +
-        `${PIXELS.toLocaleString("en")} pixels (0 to ${PIXELS - 1}): it was recorded on another detector or with ` +
+      `This file's first column runs over pixels 0 to ${2 * SYNTHETIC_PIXELS - 1}, but Preview bench ${suffix} has ` +
+        `${SYNTHETIC_PIXELS.toLocaleString("en")} pixels (0 to ${SYNTHETIC_PIXELS - 1}): it was recorded on another detector or with ` +
         "other binning. Upload it to the instrument it was recorded on.",
     );
     expect(refused.body.error.fieldErrors?.file?.[0]).toBe(refused.body.error.message);
@@ -154,7 +156,10 @@ describe("the upload preview", () => {
     const stored = await chemist.request<ErrorBody>("POST", "/api/spectra", { form });
     expect(stored.status).toBe(400);
     // Pixels counted from 1 up to the detector's size are its own.
-    const fromOne = Array.from({ length: PIXELS }, (_, i) => `${i + 1},${200 + (i % 13)}`);
+    const fromOne = Array.from(
+      { length: SYNTHETIC_PIXELS },
+      (_, i) => `${i + 1},${200 + (i % 13)}`,
+    );
     expect(
       (await preview(chemist, `pixel,counts\n${fromOne.join("\n")}\n`, "from-one.csv")).status,
     ).toBe(200);

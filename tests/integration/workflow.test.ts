@@ -10,17 +10,15 @@ import { APP_URL, ApiClient, type ErrorBody } from "./support/http-client";
 import { FLAME_SCREENING, signInDemo, signedIn, teamIdOf } from "./support/accounts";
 import { OUTSIDER, ensureOutsider } from "./support/outsider";
 import { auditEventsSince, auditMark, closeDb, db } from "./support/database";
+import { syntheticDarkFile } from "@/lib/spectrum/synthetic/synthetic-dark-file";
+import { syntheticGrating } from "@/lib/spectrum/synthetic/synthetic-grating";
 import {
-  PIXELS,
-  RESOLUTION_NM,
-  darkFile,
-  flameFile,
-  flameFileOnWavelengthAxis,
-  lampFile,
-  syntheticGrating,
-  syntheticPrism,
+  SYNTHETIC_PIXELS,
+  SYNTHETIC_RESOLUTION_NM,
   type SyntheticInstrument,
-} from "./support/synthetic-files";
+} from "@/lib/spectrum/synthetic/synthetic-instrument";
+import { syntheticPrism } from "@/lib/spectrum/synthetic/synthetic-prism";
+import { flameFile, flameFileOnWavelengthAxis, lampFile } from "./support/synthetic-files";
 
 interface Instrument {
   id: string;
@@ -126,10 +124,10 @@ async function createInstrument(
     teamId,
     name: `${dispersion} bench ${suffix}`,
     dispersion,
-    pixels: PIXELS,
+    pixels: SYNTHETIC_PIXELS,
     nominalMinNm: synthetic.nominalRangeNm[0],
     nominalMaxNm: synthetic.nominalRangeNm[1],
-    resolutionNm: RESOLUTION_NM,
+    resolutionNm: SYNTHETIC_RESOLUTION_NM,
   });
   expect(reply.status, JSON.stringify(reply.body)).toBe(201);
   return reply.body;
@@ -163,7 +161,7 @@ async function calibrate(
 
 /** Calibrated minus true wavelength at 41 pixels across the array, for those inside the covered range. */
 async function errorsInsideCoveredRange(calibration: Calibration, synthetic: SyntheticInstrument) {
-  const pixels = Array.from({ length: 41 }, (_, i) => i * ((PIXELS - 1) / 40));
+  const pixels = Array.from({ length: 41 }, (_, i) => i * ((SYNTHETIC_PIXELS - 1) / 40));
   const reply = await chemist.post<{ wavelengthsNm: number[]; uncertaintiesNm: number[] }>(
     `/api/calibrations/${calibration.id}/evaluate`,
     { pixels },
@@ -236,7 +234,7 @@ describe("instruments", () => {
       teamId,
       name: `chemist's bench ${suffix}`,
       dispersion: "grating",
-      pixels: PIXELS,
+      pixels: SYNTHETIC_PIXELS,
       nominalMinNm: 350,
       nominalMaxNm: 900,
       resolutionNm: 1,
@@ -301,7 +299,7 @@ describe("uploads", () => {
     lampSpectrum = await uploadOk(gratingInstrument.id, "lamp", content, "hg-ar-lamp.csv");
     const sha256 = createHash("sha256").update(content).digest("hex");
     expect(lampSpectrum).toMatchObject({
-      points: PIXELS,
+      points: SYNTHETIC_PIXELS,
       sha256,
       xUnit: "pixel",
       duplicateOf: null,
@@ -314,7 +312,7 @@ describe("uploads", () => {
       lampSpectrum.id,
     ]);
     expect(rows[0].raw_bytes.equals(Buffer.from(content))).toBe(true);
-    expect(rows[0]).toMatchObject({ file_name: "hg-ar-lamp.csv", point_count: PIXELS });
+    expect(rows[0]).toMatchObject({ file_name: "hg-ar-lamp.csv", point_count: SYNTHETIC_PIXELS });
     const events = await auditEventsSince(mark, { action: "spectrum.upload" });
     expect(events.map((e) => e.entity_id)).toEqual([lampSpectrum.id]);
 
@@ -363,7 +361,7 @@ describe("the grating chain: lamp → calibration → flame run", () => {
       lamps: ["Hg"],
     });
     expect(sample.status).toBe(400);
-    const dark = await uploadOk(gratingInstrument.id, "lamp", darkFile(), "dark.csv");
+    const dark = await uploadOk(gratingInstrument.id, "lamp", syntheticDarkFile(), "dark.csv");
     const before = await rowCounts();
     const failed = await chemist.post<ErrorBody>("/api/calibrations", {
       instrumentId: gratingInstrument.id,

@@ -16,6 +16,7 @@ import fs from "node:fs";
 import path from "node:path";
 import { parseLineTableCsv, toReferenceLine } from "@/lib/lines";
 import type { LampLine } from "@/lib/spectrum/calibration";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 import type { ReferenceLine } from "@/lib/spectrum/types";
 
 /** Sellmeier coefficients n² − 1 = Σ Bᵢλ²/(λ² − Cᵢ), λ in µm, Cᵢ in µm². */
@@ -95,18 +96,6 @@ function sellmeierIndex(glass: GeneratorGlass, wavelengthNm: number): number {
   let sum = 0;
   for (let i = 0; i < 3; i++) sum += (glass.b[i] * l2) / (l2 - glass.cUm2[i]);
   return Math.sqrt(1 + sum);
-}
-
-/** Mulberry32: a small seeded generator, so an instrument is reproducible from its seed. */
-export function seededUniform(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }
 
 function gaussian(random: () => number): number {
@@ -339,7 +328,7 @@ function render(
   design: Design,
   noiseSeed: number,
 ): { x: Float64Array; y: Float64Array; hot: number } {
-  const random = seededUniform(noiseSeed);
+  const random = makeRandom(noiseSeed).uniform;
   const { pixels, axis } = design;
   const clean = new Float64Array(pixels);
   for (const line of design.emitted) {
@@ -403,7 +392,7 @@ function toLamp(design: Design, noiseSeed: number): RealisticLamp {
     saturatedLines: design.saturatedLines,
     hotPixels: hot,
     rerecord: (seed: number) => {
-      const random = seededUniform(seed ^ 0x5bd1e995);
+      const random = makeRandom(seed ^ 0x5bd1e995).uniform;
       // Another day: the axis moves by up to ±3 px and stretches by up to ±0.3 % (temperature, a knock).
       const axis = design.remake(between(random, -3, 3), 1 + between(random, -0.003, 0.003));
       const lo = axis.at(0);
@@ -415,7 +404,7 @@ function toLamp(design: Design, noiseSeed: number): RealisticLamp {
 
 /** The instrument and lamp of `seed`, recorded once. */
 export function realisticLamp(seed: number, options: RealisticLampOptions = {}): RealisticLamp {
-  const random = seededUniform(seed * 7919 + 17);
+  const random = makeRandom(seed * 7919 + 17).uniform;
   const clean = options.clean ?? false;
   const pixels = options.pixels ?? (random() < 0.7 ? 2048 : 3648);
   const dispersion: RealisticDispersion =

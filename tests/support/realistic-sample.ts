@@ -14,7 +14,7 @@
 // - in about a third of the samples one of the known interference cases of issue 12.
 import type { CalibrationModel } from "@/lib/spectrum/calibration";
 import { compareCalibrationModels, fitCalibration } from "@/lib/spectrum/calibration";
-import { makeRandom, type SeededRandom } from "@/lib/spectrum/synthetic/make-random";
+import { makeRandom, type SeededRandom } from "@/lib/spectrum/statistics/make-random";
 import type { ReferenceLine } from "@/lib/spectrum/types";
 import { GENERATOR_GLASSES, STARTER_TABLE } from "./realistic-lamp";
 

@@ -6,6 +6,7 @@ import { calibrationUncertainty } from "../calibration/calibration-uncertainty";
 import { dispersionAt } from "../calibration/dispersion-at";
 import { evaluateCalibration } from "../calibration/evaluate-calibration";
 import type { CalibratedPeak, Peak } from "../types";
+import { assertPositiveFinite } from "../units/assert-positive-finite";
 
 export interface CalibratePeaksOptions {
   /**
@@ -43,13 +44,13 @@ export function calibratePeaks(
   options: CalibratePeaksOptions = {},
 ): CalibratedPeak[] {
   const { calibration = null, instrumentFwhm, broadFactor = 3 } = options;
-  if (typeof instrumentFwhm === "number") assertPositiveFinite("instrumentFwhm", instrumentFwhm);
-  assertPositiveFinite("broadFactor", broadFactor);
+  if (typeof instrumentFwhm === "number") assertPositiveFinite(instrumentFwhm, "instrumentFwhm");
+  assertPositiveFinite(broadFactor, "broadFactor");
   if (peaks.length === 0) return [];
   const withResolution = (peak: Peak, slope: number) => {
     if (instrumentFwhm === undefined) return {};
     const width = typeof instrumentFwhm === "number" ? instrumentFwhm : instrumentFwhm(peak.x);
-    assertPositiveFinite("instrumentFwhm at a peak", width);
+    assertPositiveFinite(width, "instrumentFwhm at a peak");
     return {
       resolutionNm: width * slope,
       broad: !peak.saturated && peak.fwhm > broadFactor * width,
@@ -83,10 +84,4 @@ export function calibratePeaks(
         : {}),
     };
   });
-}
-
-function assertPositiveFinite(name: string, value: number): void {
-  if (!(value > 0) || !Number.isFinite(value)) {
-    throw new RangeError(`${name} must be a positive finite number, got ${value}`);
-  }
 }

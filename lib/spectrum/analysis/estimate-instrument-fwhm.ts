@@ -1,5 +1,6 @@
 // Estimates the instrument's line-profile width from the sample's own clearest peaks, for when the
 // chemist gave no resolution: what the strongest clean lines measure is what one line looks like.
+import { median } from "../statistics/median";
 import type { Peak } from "../types";
 
 export interface EstimateInstrumentFwhmOptions {
@@ -40,11 +41,9 @@ export function estimateInstrumentFwhm(
     )
     .sort((a, b) => b.snr - a.snr || a.x - b.x)
     .slice(0, maxPeaks)
-    .map((peak) => peak.fwhm)
-    .sort((a, b) => a - b);
+    .map((peak) => peak.fwhm);
   if (widths.length < minPeaks) return null;
-  const middle = widths.length >> 1;
-  return widths.length % 2 === 1 ? widths[middle] : 0.5 * (widths[middle - 1] + widths[middle]);
+  return median(widths);
 }
 
 function assertNonNegativeFinite(name: string, value: number): void {

@@ -28,9 +28,9 @@ import {
   finishLampPairing,
   refineLampPairing,
   refineLampPairs,
-  type PairingContext,
   type RefinedPairing,
 } from "./refine-lamp-pairing";
+import type { PairingContext } from "./pairing-context";
 import { groupBlendedLampLines, type LampLineGroup } from "./group-blended-lamp-lines";
 import { growthDegree } from "./growth-degree";
 import { prunePulledPairs } from "./prune-pulled-pairs";
@@ -40,9 +40,10 @@ import {
   type SearchLampPairingOptions,
 } from "./search-lamp-pairing";
 import { fitStraightenedPolynomial } from "./straightened-polynomial";
-import { seededRandom } from "./seeded-random";
+import { makeRandom } from "../statistics/make-random";
 import { MIN_TRUSTED_PAIRS } from "./min-trusted-pairs";
 import { percentileRanks } from "./percentile-ranks";
+import { lowerBound } from "../matching/lower-bound";
 
 export interface AutoPairLampPeaksOptions extends LampPairingOptions {
   /**
@@ -413,7 +414,9 @@ function drawnLampPairing(
   options: AutoPairLampPeaksOptions,
 ): LampPairingResult {
   const { seed = 1, iterations = 20000, rangeTolerance = 0.25, refineCount = 4 } = options;
-  const random = seededRandom(seed);
+  // Uniform draws from the seed, so automatic pairing gives the same answer for the same seed; a seed
+  // whose low 32 bits are zero stands for 0x9e3779b9.
+  const random = makeRandom(seed >>> 0 || 0x9e3779b9).uniform;
   const [nominalLow, nominalHigh] = options.nominalRangeNm;
   const [xMin, xMax] = context.domain;
   const domainSpan = xMax - xMin;
@@ -440,13 +443,7 @@ function drawnLampPairing(
   const gEnds = shapes.map((g) => [g(nominalLow), g(nominalHigh)]);
 
   const nearestPeak = (x: number): number => {
-    let low = 0;
-    let high = sortedX.length;
-    while (low < high) {
-      const mid = (low + high) >> 1;
-      if (sortedX[mid] < x) low = mid + 1;
-      else high = mid;
-    }
+    const low = lowerBound(sortedX, x);
     if (low === 0) return peaksByX[0];
     if (low === sortedX.length) return peaksByX[sortedX.length - 1];
     return x - sortedX[low - 1] < sortedX[low] - x ? peaksByX[low - 1] : peaksByX[low];

@@ -7,7 +7,7 @@
 import { soundCentres } from "./centre-uncertainty";
 import { describePairs } from "./describe-pairs";
 import type { LampPairingResult } from "./lamp-pairing-types";
-import type { PairingContext } from "./refine-lamp-pairing";
+import type { PairingContext } from "./pairing-context";
 
 /** `result` with its model's covered range ending at the outermost sound pairs, saying which pairs it leaves outside. */
 export function claimSoundEnds(

@@ -1,6 +1,6 @@
 // Fits a wavelength calibration to lamp pairs with iterative outlier rejection: the calibration step
 // a chemist runs once per instrument and date.
-import { median } from "./median";
+import { median } from "../statistics/median";
 import type { CalibrationPair } from "../types";
 import { assertDomain, assertPairs } from "./assertions";
 import { assertMonotonicCalibration } from "./assert-monotonic-calibration";

@@ -14,7 +14,7 @@ import { heightInBand, lampHeightBand } from "./lamp-height-band";
 import { lampLineBlended } from "./lamp-line-blended";
 import { toLampPair } from "./to-lamp-pair";
 import type { LampPair } from "./lamp-pairing-types";
-import type { PairingContext } from "./refine-lamp-pairing";
+import type { PairingContext } from "./pairing-context";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
 export interface GrowLampPairsOptions {

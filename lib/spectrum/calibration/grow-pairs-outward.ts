@@ -7,7 +7,7 @@
 // each step extrapolates only a little beyond what is already pinned.
 import type { DispersionKind } from "../types";
 import type { LampLine, LampPair, LampPeak } from "./lamp-pairing-types";
-import { firstAtOrAbove } from "../signal/first-at-or-above";
+import { lowerBound } from "../matching/lower-bound";
 import { elementOfSpecies } from "./element-of-species";
 import { heightInBand, lampHeightBand } from "./lamp-height-band";
 import { growthDegree } from "./growth-degree";
@@ -126,7 +126,7 @@ export function growPairsOutward(
   const usableX = usableByX.map((p) => peaks[p].x);
   const freePeaksWithin = (from: number, to: number): number[] => {
     const found: number[] = [];
-    for (let k = firstAtOrAbove(usableX, from); k < usableX.length && usableX[k] <= to; k++) {
+    for (let k = lowerBound(usableX, from); k < usableX.length && usableX[k] <= to; k++) {
       if (!pairedPeaks.has(usableByX[k])) found.push(usableByX[k]);
     }
     return found;

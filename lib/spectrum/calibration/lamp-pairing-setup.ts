@@ -5,7 +5,7 @@ import { assertDomain, assertFiniteArray } from "./assertions";
 import { GLASS_CATALOGUE, GLASS_NAMES, type GlassName } from "./glass-catalogue";
 import { glassesValidOver } from "./glasses-valid-over";
 import type { LampLine, LampPairingOptions, LampPeak } from "./lamp-pairing-types";
-import type { PairingContext } from "./refine-lamp-pairing";
+import type { PairingContext } from "./pairing-context";
 import { refractiveIndex } from "./refractive-index";
 import { prismForward } from "./prism-forward";
 

@@ -1,7 +1,6 @@
 // Shapes shared by automatic and manual pairing of lamp peaks with known lamp lines.
 import type { CalibrationPair, DispersionKind } from "../types";
 import type { FitCalibrationResult } from "./fit-calibration";
-import type { PairingCheck } from "./verify-lamp-pairing";
 
 /** A peak found in the lamp spectrum, on the input axis. */
 export interface LampPeak {
@@ -29,6 +28,32 @@ export interface LampLine {
 export interface LampPair extends CalibrationPair {
   peakIndex: number;
   lineIndex: number;
+}
+
+/** One check of a pairing, with its measure and, when it fails, why in words. */
+export interface PairingCheck {
+  name:
+    | "pairs"
+    | "residuals"
+    | "leave-one-out"
+    | "lopsided-support"
+    | "model-agreement"
+    | "expected-lines"
+    | "fit-miss"
+    | "lack-of-fit"
+    | "held-out"
+    | "pair-influence"
+    | "end-pairs"
+    | "rival-pairing"
+    | "second-search"
+    | "drift-precision"
+    | "daily-drift"
+    | "previous-fit";
+  passed: boolean;
+  /** The check's measure (see each check); larger is worse except for "expected-lines" and "pairs". */
+  value: number;
+  /** Why it failed, in words a chemist understands; empty when it passed. */
+  reason: string;
 }
 
 /** Settings both pairing entry points share. */

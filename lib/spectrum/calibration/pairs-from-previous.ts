@@ -4,11 +4,12 @@
 import type { CalibrationModel } from "./calibration-model";
 import type { LampPair } from "./lamp-pairing-types";
 import { inverseOfModel } from "./inverse-of-model";
-import type { PairingContext } from "./refine-lamp-pairing";
+import type { PairingContext } from "./pairing-context";
 import { lampLineBlended } from "./lamp-line-blended";
 import { toLampPair } from "./to-lamp-pair";
 import { typicalPeakFwhm } from "./typical-peak-fwhm";
 import { weightedLeastSquares } from "./weighted-least-squares";
+import { lowerBound } from "../matching/lower-bound";
 
 export interface PairsFromPreviousOptions {
   /** Largest shift searched, as a fraction of the array. @default 0.03 */
@@ -39,13 +40,7 @@ export function pairsFromPrevious(
   const order = peaks.map((_, i) => i).sort((a, b) => peaks[a].x - peaks[b].x);
   const sortedX = order.map((i) => peaks[i].x);
   const nearest = (x: number): number => {
-    let low = 0;
-    let high = sortedX.length;
-    while (low < high) {
-      const mid = (low + high) >> 1;
-      if (sortedX[mid] < x) low = mid + 1;
-      else high = mid;
-    }
+    const low = lowerBound(sortedX, x);
     const candidates = [low - 1, low].filter((k) => k >= 0 && k < sortedX.length);
     return candidates.reduce(
       (best, k) => (Math.abs(sortedX[k] - x) < Math.abs(sortedX[best] - x) ? k : best),

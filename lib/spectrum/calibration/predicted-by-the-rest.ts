@@ -11,7 +11,7 @@ import { soundCentres } from "./centre-uncertainty";
 import { elementOfSpecies } from "./element-of-species";
 import { growthDegree } from "./growth-degree";
 import type { LampPair } from "./lamp-pairing-types";
-import type { PairingContext } from "./refine-lamp-pairing";
+import type { PairingContext } from "./pairing-context";
 import { fitStraightenedPolynomial } from "./straightened-polynomial";
 import { usableLampPeaks } from "./search-lamp-pairing";
 

@@ -10,14 +10,14 @@
 import type { CalibrationModel } from "./calibration-model";
 import { driftedModel, type LinearDrift } from "./drifted-model";
 import type { FitCalibrationResult } from "./fit-calibration";
-import { firstAtOrAbove } from "../signal/first-at-or-above";
+import { lowerBound } from "../matching/lower-bound";
 import { inverseOfModel } from "./inverse-of-model";
 import type { LampPair, LampPairingResult } from "./lamp-pairing-types";
 import { modelEvaluation } from "./model-evaluation";
-import type { PairingContext } from "./refine-lamp-pairing";
+import type { PairingContext } from "./pairing-context";
 import { toLampPair } from "./to-lamp-pair";
 import { typicalPeakFwhm } from "./typical-peak-fwhm";
-import type { PairingCheck } from "./verify-lamp-pairing";
+import type { PairingCheck } from "./lamp-pairing-types";
 import { weightedLeastSquares } from "./weighted-least-squares";
 
 export interface RecalibrateFromPreviousOptions {
@@ -108,7 +108,7 @@ function median(values: number[]): number | undefined {
 
 /** Index into sorted `xs` of the value nearest `x` (xs non-empty). */
 function nearestIndex(xs: number[], x: number): number {
-  const low = firstAtOrAbove(xs, x);
+  const low = lowerBound(xs, x);
   if (low === 0) return 0;
   if (low === xs.length) return xs.length - 1;
   return x - xs[low - 1] <= xs[low] - x ? low - 1 : low;
@@ -479,7 +479,7 @@ function candidatesNear(
   for (const line of predicted) {
     const x = start(line.u);
     for (
-      let k = firstAtOrAbove(sortedX, x - tolerance);
+      let k = lowerBound(sortedX, x - tolerance);
       k < sortedX.length && sortedX[k] <= x + tolerance;
       k++
     ) {

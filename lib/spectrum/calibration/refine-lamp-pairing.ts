@@ -7,7 +7,8 @@ import {
   type FitCalibrationResult,
 } from "./fit-calibration";
 import { informationCriteria } from "./information-criteria";
-import type { LampLine, LampPair, LampPairingResult, LampPeak } from "./lamp-pairing-types";
+import type { LampPair, LampPairingResult } from "./lamp-pairing-types";
+import type { PairingContext } from "./pairing-context";
 import type { CalibrationModel } from "./calibration-model";
 import { modelEvaluation } from "./model-evaluation";
 import { inverseOfModel } from "./inverse-of-model";
@@ -21,6 +22,7 @@ import { trimPulledEnds } from "./trim-pulled-ends";
 import { claimSoundEnds } from "./claim-sound-ends";
 import { describePairs } from "./describe-pairs";
 import { weightedLeastSquares } from "./weighted-least-squares";
+import { lowerBound } from "../matching/lower-bound";
 
 /** `place` remembered per wavelength: the blend test asks again for every candidate line's place. */
 function placedOnce(place: (wavelengthNm: number) => number): (wavelengthNm: number) => number {
@@ -30,29 +32,6 @@ function placedOnce(place: (wavelengthNm: number) => number): (wavelengthNm: num
     if (x === undefined) placed.set(wavelengthNm, (x = place(wavelengthNm)));
     return x;
   };
-}
-
-/** Everything the refinement needs, prepared by the caller. */
-export interface PairingContext {
-  peaks: LampPeak[];
-  lines: LampLine[];
-  /** Indices of the lines inside the nominal range (plus margin). */
-  candidateLines: number[];
-  dispersion: DispersionKind;
-  domain: [number, number];
-  /** Matching half-width in x units at the end of refinement. */
-  toleranceX: number;
-  minConfidence: number;
-  /** Pairs that must stay (manual seeds), as peak index → line index. */
-  forced: Map<number, number>;
-  nominalRangeNm: [number, number];
-  /** The axis g(λ) in which the expected dispersion is nearly a straight line. */
-  straighten: (lambda: number) => number;
-  /**
-   * The instrument's previous calibration, when the pairs were predicted from it: the final fit keeps
-   * its model family (and glass) instead of the dispersion's usual choice of models.
-   */
-  previousModel?: CalibrationModel;
 }
 
 /**
@@ -75,13 +54,7 @@ function matchByPrediction(
     if (forcedLines.has(l)) continue;
     const x = placedX(lines[l].wavelengthNm);
     if (!(x >= context.domain[0] - toleranceX && x <= context.domain[1] + toleranceX)) continue;
-    let low = 0;
-    let high = sortedX.length;
-    while (low < high) {
-      const mid = (low + high) >> 1;
-      if (sortedX[mid] < x) low = mid + 1;
-      else high = mid;
-    }
+    const low = lowerBound(sortedX, x);
     for (const k of [low - 1, low]) {
       if (k < 0 || k >= sortedX.length) continue;
       const p = order[k];

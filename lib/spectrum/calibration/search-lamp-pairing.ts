@@ -14,7 +14,7 @@ import { growPairsOutward, type GrowPairsOutwardInput } from "./grow-pairs-outwa
 import { elementOfSpecies } from "./element-of-species";
 import { growthDegree } from "./growth-degree";
 import type { LampLine, LampPair, LampPeak } from "./lamp-pairing-types";
-import { firstAtOrAbove } from "../signal/first-at-or-above";
+import { lowerBound } from "../matching/lower-bound";
 import { landingCloseness } from "./landing-closeness";
 import { toLampPair } from "./to-lamp-pair";
 import { typicalPeakFwhm } from "./typical-peak-fwhm";
@@ -141,7 +141,7 @@ export function searchLampPairing(
   const usableByX = usable.slice().sort((a, b) => peaks[a].x - peaks[b].x);
   const usableX = usableByX.map((p) => peaks[p].x);
   const nearestUsable = (x: number): number => {
-    const low = firstAtOrAbove(usableX, x);
+    const low = lowerBound(usableX, x);
     if (low === 0) return 0;
     if (low === usableX.length) return low - 1;
     return x - usableX[low - 1] < usableX[low] - x ? low - 1 : low;
@@ -263,8 +263,8 @@ export function searchLampPairing(
       const end0 = window.sign * (g0 + (from - x0) / slope);
       const end1 = window.sign * (g0 + (to - x0) / slope);
       const margin = 1e-9 * (Math.abs(end0) + Math.abs(end1) + 1);
-      first = firstAtOrAbove(window.ascending, Math.min(end0, end1) - margin);
-      last = firstAtOrAbove(window.ascending, Math.max(end0, end1) + margin);
+      first = lowerBound(window.ascending, Math.min(end0, end1) - margin);
+      last = lowerBound(window.ascending, Math.max(end0, end1) + margin);
     }
     for (let position = first; position < last; position++) {
       const l = candidateLines[position];

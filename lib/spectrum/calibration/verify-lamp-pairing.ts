@@ -19,11 +19,11 @@ import {
 } from "./fit-calibration";
 import type { CalibrationModel } from "./calibration-model";
 import type { DispersionKind } from "../types";
-import type { LampPair } from "./lamp-pairing-types";
+import type { LampPair, PairingCheck } from "./lamp-pairing-types";
 import { lampLineBlended } from "./lamp-line-blended";
 import { MIN_TRUSTED_PAIRS } from "./min-trusted-pairs";
 import { modelEvaluation } from "./model-evaluation";
-import type { PairingContext } from "./refine-lamp-pairing";
+import type { PairingContext } from "./pairing-context";
 import { elementOfSpecies } from "./element-of-species";
 import { typicalPeakFwhm } from "./typical-peak-fwhm";
 import { jStat } from "jstat";
@@ -34,32 +34,6 @@ import { worstHeldOutMiss } from "./held-out-miss";
 import { largestPairInfluence } from "./pair-influence";
 import { linearisedFit } from "./linearised-fit";
 import { describePairs } from "./describe-pairs";
-
-/** One check of a pairing, with its measure and, when it fails, why in words. */
-export interface PairingCheck {
-  name:
-    | "pairs"
-    | "residuals"
-    | "leave-one-out"
-    | "lopsided-support"
-    | "model-agreement"
-    | "expected-lines"
-    | "fit-miss"
-    | "lack-of-fit"
-    | "held-out"
-    | "pair-influence"
-    | "end-pairs"
-    | "rival-pairing"
-    | "second-search"
-    | "drift-precision"
-    | "daily-drift"
-    | "previous-fit";
-  passed: boolean;
-  /** The check's measure (see each check); larger is worse except for "expected-lines" and "pairs". */
-  value: number;
-  /** Why it failed, in words a chemist understands; empty when it passed. */
-  reason: string;
-}
 
 export interface PairingVerdict {
   checks: PairingCheck[];

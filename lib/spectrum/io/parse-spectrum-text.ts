@@ -11,15 +11,13 @@ import { readAxisLabel, type AxisLabelReading } from "./read-axis-label";
 import { resolveXUnit } from "./resolve-x-unit";
 import { scanDataRows } from "./scan-data-rows";
 import { SpectrumParseError } from "./spectrum-parse-error";
+import type { TextDelimiter } from "./text-delimiter";
 import {
   DEFAULT_MAX_BYTES,
   DEFAULT_MAX_POINTS,
   DEFAULT_MIN_POINTS,
   type SpectrumReadOptions,
 } from "./spectrum-read-options";
-
-/** Column separator of a text spectrum; "whitespace" is any run of spaces and tabs. */
-export type TextDelimiter = "tab" | "semicolon" | "comma" | "whitespace";
 
 export interface ParseSpectrumTextOptions extends SpectrumReadOptions {
   /**

@@ -4,7 +4,7 @@
 import { parseNumberCell } from "./parse-number-cell";
 import { assertNonNegativeIntegers } from "./assert-decode-options";
 import { growFloat64, growInt32 } from "./grow-typed-array";
-import type { TextDelimiter } from "./parse-spectrum-text";
+import type { TextDelimiter } from "./text-delimiter";
 import { DEFAULT_MAX_POINTS } from "./spectrum-read-options";
 
 export interface ScanDataRowsOptions {

@@ -1,9 +1,9 @@
-// Binary search on an ascending typed array: the first position whose value is not below a target,
+// Binary search on an ascending array (typed or plain): the first position whose value is not below a target,
 // or above it, and the positions of the values inside a range.
 
 /** Index of the first element ≥ target in ascending `values[from … to)` (`to` when none is). */
 export function lowerBound(
-  values: Float64Array,
+  values: ArrayLike<number>,
   target: number,
   from = 0,
   to = values.length,
@@ -13,7 +13,7 @@ export function lowerBound(
 
 /** Index of the first element > target in ascending `values[from … to)` (`to` when none is). */
 export function firstAbove(
-  values: Float64Array,
+  values: ArrayLike<number>,
   target: number,
   from = 0,
   to = values.length,
@@ -23,7 +23,7 @@ export function firstAbove(
 
 /** Positions [start, end) of the values inside [low, high] in ascending `values[from … to)`. */
 export function positionsWithin(
-  values: Float64Array,
+  values: ArrayLike<number>,
   low: number,
   high: number,
   from = 0,
@@ -35,7 +35,7 @@ export function positionsWithin(
 
 /** The first position whose value is not below target, or, with `pastEqual`, above it. */
 function firstPast(
-  values: Float64Array,
+  values: ArrayLike<number>,
   target: number,
   from: number,
   to: number,

@@ -13,6 +13,7 @@ import {
 import { depthIntoBandNm } from "./depth-into-band";
 import { leansLikeBand } from "./leans-like-band";
 import { lowerBound } from "./lower-bound";
+import { assertPositiveFinite } from "../units/assert-positive-finite";
 import { prepareLineIndex, type LineIndex } from "./prepare-line-index";
 
 export interface MatchPeaksToLinesOptions {
@@ -89,8 +90,8 @@ export function matchPeaksToLines(
     medium,
     bandHeadZoneFraction = 0.3,
   } = options;
-  assertPositiveFinite("k", k);
-  if (resolutionNm !== undefined) assertPositiveFinite("resolutionNm", resolutionNm);
+  assertPositiveFinite(k, "k");
+  if (resolutionNm !== undefined) assertPositiveFinite(resolutionNm, "resolutionNm");
   assertNonNegativeFinite("resolutionSigmaFraction", resolutionSigmaFraction);
   assertNonNegativeFinite("cleanResolutionSigmaFraction", cleanResolutionSigmaFraction);
   if (!(bandHeadZoneFraction >= 0 && bandHeadZoneFraction <= 1)) {
@@ -228,12 +229,6 @@ function assertPeak(peak: CalibratedPeak, position: number): void {
     (!(peak.resolutionNm > 0) || !Number.isFinite(peak.resolutionNm))
   ) {
     throw new RangeError(`peak ${position} has an invalid resolutionNm: ${peak.resolutionNm}`);
-  }
-}
-
-function assertPositiveFinite(name: string, value: number): void {
-  if (!(value > 0) || !Number.isFinite(value)) {
-    throw new RangeError(`${name} must be a positive finite number, got ${value}`);
   }
 }
 

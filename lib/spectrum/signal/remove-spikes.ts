@@ -5,6 +5,7 @@
 // "line" three samples wide: the spikes must go before it runs.
 import { assertFiniteArray } from "./assert-finite-array";
 import { estimateNoise } from "./estimate-noise";
+import { median } from "../statistics/median";
 
 export interface RemoveSpikesOptions {
   /**
@@ -30,12 +31,6 @@ export interface RemovedSpikes {
   y: Float64Array;
   /** Indices of the replaced samples, increasing. */
   spikes: number[];
-}
-
-function median(values: number[]): number {
-  const sorted = values.slice().sort((a, b) => a - b);
-  const mid = sorted.length >> 1;
-  return sorted.length % 2 ? sorted[mid] : 0.5 * (sorted[mid - 1] + sorted[mid]);
 }
 
 /** Replaces one-sample spikes of `y` (interior samples only) by the mean of their neighbours. */

@@ -1,7 +1,8 @@
 // Builds a synthetic emission spectrum with a known truth (lines, bands, continuum, noise, clipping)
 // for tests, demo data and benchmarks across the project.
 
-import { makeRandom } from "./make-random";
+import { makeRandom } from "../statistics/make-random";
+import { assertPositiveFinite } from "../units/assert-positive-finite";
 import { scaledErfc } from "./scaled-erfc";
 
 /** One emission line to draw. */
@@ -152,7 +153,7 @@ export function synthesizeSpectrum(options: SynthesizeSpectrumOptions = {}): Syn
     seed = 1,
   } = options;
   assertIntegerAtLeast("pixelCount", pixelCount, 3);
-  assertPositive("resolutionNm", resolutionNm);
+  assertPositiveFinite(resolutionNm, "resolutionNm");
   assertFraction("lorentzFraction", lorentzFraction);
   assertNonNegative("readNoiseCounts", readNoiseCounts);
   assertFinite("darkCounts", darkCounts);
@@ -169,10 +170,10 @@ export function synthesizeSpectrum(options: SynthesizeSpectrumOptions = {}): Syn
   const signal = new Float64Array(pixelCount);
   const lineTruth: SyntheticLineTruth[] = [];
   for (const line of lines) {
-    assertPositive("line.wavelengthNm", line.wavelengthNm);
+    assertPositiveFinite(line.wavelengthNm, "line.wavelengthNm");
     assertNonNegative("line.amplitude", line.amplitude);
     const fwhmNm = line.fwhmNm ?? resolutionNm;
-    assertPositive("line.fwhmNm", fwhmNm);
+    assertPositiveFinite(fwhmNm, "line.fwhmNm");
     const pixel = pixelOfWavelength(wavelengthNmAtPixel, line.wavelengthNm);
     if (pixel === null) continue;
     const fwhmPx = fwhmNm / Math.abs(dispersionNmPerPx(wavelengthNmAtPixel, pixel));
@@ -194,8 +195,8 @@ export function synthesizeSpectrum(options: SynthesizeSpectrumOptions = {}): Syn
 
   const bandTruth: SyntheticBandTruth[] = [];
   for (const band of bands) {
-    assertPositive("band.headNm", band.headNm);
-    assertPositive("band.extentNm", band.extentNm);
+    assertPositiveFinite(band.headNm, "band.headNm");
+    assertPositiveFinite(band.extentNm, "band.extentNm");
     assertNonNegative("band.amplitude", band.amplitude);
     const pixel = pixelOfWavelength(wavelengthNmAtPixel, band.headNm);
     if (pixel === null) continue;
@@ -312,7 +313,7 @@ function addContinuum(
 ): void {
   const shape = new Float64Array(grid.length);
   if (continuum.shape === "planck") {
-    assertPositive("continuum.temperatureK", continuum.temperatureK);
+    assertPositiveFinite(continuum.temperatureK, "continuum.temperatureK");
     assertNonNegative("continuum.peakCounts", continuum.peakCounts);
     let highest = 0;
     for (let px = 0; px < grid.length; px++) {
@@ -356,12 +357,6 @@ function assertStrictlyMonotonic(grid: Float64Array): void {
 function assertIntegerAtLeast(name: string, value: number, minimum: number): void {
   if (!Number.isInteger(value) || value < minimum) {
     throw new RangeError(`${name} must be an integer ≥ ${minimum}, got ${value}`);
-  }
-}
-
-function assertPositive(name: string, value: number): void {
-  if (!(value > 0) || !Number.isFinite(value)) {
-    throw new RangeError(`${name} must be a positive finite number, got ${value}`);
   }
 }
 

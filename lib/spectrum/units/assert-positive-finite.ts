@@ -1,4 +1,4 @@
-// Entry check shared by the unit conversions: a spectral quantity must be a positive finite number.
+// Entry check shared across the core and the line table: a quantity must be a positive finite number.
 
 /** Throws a RangeError naming `name` unless `value` is finite and > 0. */
 export function assertPositiveFinite(value: number, name: string): void {

@@ -2,12 +2,12 @@
 // database is shared by every test file) and spectrum uploads as multipart forms.
 import { expect } from "vitest";
 import type { ApiClient } from "./http-client";
+import { syntheticGrating } from "@/lib/spectrum/synthetic/synthetic-grating";
 import {
-  PIXELS,
-  RESOLUTION_NM,
-  syntheticGrating,
+  SYNTHETIC_PIXELS,
+  SYNTHETIC_RESOLUTION_NM,
   type SyntheticInstrument,
-} from "./synthetic-files";
+} from "@/lib/spectrum/synthetic/synthetic-instrument";
 
 /** A lab lead adds an instrument matching the synthetic one; returns its id. */
 export async function createSyntheticInstrument(
@@ -20,10 +20,10 @@ export async function createSyntheticInstrument(
     teamId,
     name,
     dispersion: instrument.dispersion,
-    pixels: PIXELS,
+    pixels: SYNTHETIC_PIXELS,
     nominalMinNm: instrument.nominalRangeNm[0],
     nominalMaxNm: instrument.nominalRangeNm[1],
-    resolutionNm: RESOLUTION_NM,
+    resolutionNm: SYNTHETIC_RESOLUTION_NM,
   });
   expect(created.status, JSON.stringify(created.body)).toBe(201);
   return created.body.id;

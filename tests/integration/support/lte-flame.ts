@@ -5,7 +5,11 @@ import path from "node:path";
 import { parseLineTableCsv, toReferenceLine } from "@/lib/lines";
 import { synthesizeSpectrum } from "@/lib/spectrum/synthetic";
 import type { ReferenceLine } from "@/lib/spectrum/types";
-import { PIXELS, RESOLUTION_NM, type SyntheticInstrument } from "./synthetic-files";
+import {
+  SYNTHETIC_PIXELS,
+  SYNTHETIC_RESOLUTION_NM,
+  type SyntheticInstrument,
+} from "@/lib/spectrum/synthetic/synthetic-instrument";
 
 // CODATA 2018 value of the Boltzmann constant in eV/K.
 const K_EV = 8.617333262e-5;
@@ -22,7 +26,7 @@ const table: ReferenceLine[] = parseLineTableCsv(starterCsv).rows.map((row, i) =
 );
 
 function pixelOf(grating: SyntheticInstrument, nm: number): number {
-  let [lo, hi] = [0, PIXELS - 1];
+  let [lo, hi] = [0, SYNTHETIC_PIXELS - 1];
   for (let k = 0; k < 50; k++) {
     const mid = (lo + hi) / 2;
     if (grating.wavelengthOfPixel(mid) < nm) lo = mid;
@@ -35,10 +39,13 @@ function pixelOf(grating: SyntheticInstrument, nm: number): number {
  * A flame of calcium in LTE at TRUE_T: every Ca I line of the starter table with g, A and an upper
  * energy, each emitting a power ∝ g·A/λ·exp(−E/kT) (Boltzmann population of the upper level, photon
  * energy ∝ 1/λ), drawn so that its total counts follow that power (the height scales with the local
- * nm per pixel, the line being RESOLUTION_NM wide), on a 2200 K continuum with read and shot noise.
+ * nm per pixel, the line being SYNTHETIC_RESOLUTION_NM wide), on a 2200 K continuum with read and shot noise.
  */
 export function lteCalciumFlame(grating: SyntheticInstrument): string {
-  const [lowNm, highNm] = [grating.wavelengthOfPixel(5), grating.wavelengthOfPixel(PIXELS - 6)];
+  const [lowNm, highNm] = [
+    grating.wavelengthOfPixel(5),
+    grating.wavelengthOfPixel(SYNTHETIC_PIXELS - 6),
+  ];
   const lines = table.filter(
     (l) =>
       l.species === "Ca I" &&
@@ -53,9 +60,9 @@ export function lteCalciumFlame(grating: SyntheticInstrument): string {
   );
   const strongest = Math.max(...power);
   const spectrum = synthesizeSpectrum({
-    pixelCount: PIXELS,
+    pixelCount: SYNTHETIC_PIXELS,
     wavelengthOfPixel: grating.wavelengthOfPixel,
-    resolutionNm: RESOLUTION_NM,
+    resolutionNm: SYNTHETIC_RESOLUTION_NM,
     lines: lines.map((l, i) => {
       const px = pixelOf(grating, l.airNm);
       const nmPerPx = grating.wavelengthOfPixel(px + 0.5) - grating.wavelengthOfPixel(px - 0.5);

@@ -6,7 +6,8 @@ import { expect } from "vitest";
 import type { ApiClient } from "./http-client";
 import { createSyntheticInstrument, uploadSpectrumFile } from "./bench";
 import { FLAME_SCREENING, teamIdOf } from "./accounts";
-import { flameFile, lampFile, syntheticGrating } from "./synthetic-files";
+import { syntheticGrating } from "@/lib/spectrum/synthetic/synthetic-grating";
+import { flameFile, lampFile } from "./synthetic-files";
 
 const REVIEW_LAMP_SEED = 31;
 const REVIEW_FLAME_SEED = 37;

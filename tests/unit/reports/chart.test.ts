@@ -2,7 +2,7 @@
 // when thinning, labels placed above their peaks without overlapping.
 import { describe, expect, it } from "vitest";
 import { chartGeometry, chartLabelsFromCalls, niceTicks } from "@/lib/reports/chart-geometry";
-import { thinSpectrum } from "@/lib/reports/thin-spectrum";
+import { thinSeries } from "@/lib/charts/thin-series";
 import { sampleRun } from "./fixtures";
 
 describe("niceTicks", () => {
@@ -13,14 +13,14 @@ describe("niceTicks", () => {
   });
 });
 
-describe("thinSpectrum", () => {
+describe("thinSeries for the report chart", () => {
   it("keeps every narrow maximum and the order of x", () => {
     const n = 100_000;
     const x = Float64Array.from({ length: n }, (_, i) => 300 + i * 0.006);
     const y = new Float64Array(n).fill(10);
     const lines = [1234, 50_001, 99_998];
     for (const i of lines) y[i] = 9000 + i;
-    const thin = thinSpectrum(x, y, { maxPoints: 3000 });
+    const thin = thinSeries(x, y, {}, 3000);
     expect(thin.x.length).toBeLessThanOrEqual(3000);
     for (const i of lines) expect(Array.from(thin.y)).toContain(9000 + i);
     for (let i = 1; i < thin.x.length; i++) expect(thin.x[i]).toBeGreaterThan(thin.x[i - 1]);
@@ -28,7 +28,7 @@ describe("thinSpectrum", () => {
 
   it("returns a copy when there is nothing to thin", () => {
     const x = Float64Array.of(1, 2, 3);
-    const thin = thinSpectrum(x, Float64Array.of(4, 5, 6));
+    const thin = thinSeries(x, Float64Array.of(4, 5, 6));
     expect(Array.from(thin.x)).toEqual([1, 2, 3]);
     expect(thin.x).not.toBe(x);
   });

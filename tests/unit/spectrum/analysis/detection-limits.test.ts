@@ -6,7 +6,7 @@ import { analyzeSample } from "../../../../lib/spectrum/analysis";
 import { detectionLimits } from "../../../../lib/spectrum/analysis/detection-limits";
 import type { ElementCall } from "../../../../lib/spectrum/matching/score-elements-types";
 import { prepareLineIndex } from "../../../../lib/spectrum/matching/prepare-line-index";
-import { makeRandom } from "../../../../lib/spectrum/synthetic/make-random";
+import { makeRandom } from "../../../../lib/spectrum/statistics/make-random";
 import "../../../support/fast-check-seed";
 import { inventedLine } from "../../../support/invented-line";
 

@@ -19,6 +19,7 @@ import {
 } from "@/lib/spectrum/calibration/prism-forward";
 import { prepareLineIndex } from "@/lib/spectrum/matching";
 import { synthesizeSpectrum, type SyntheticLine } from "@/lib/spectrum/synthetic";
+import { syntheticLineWidthNm } from "@/lib/spectrum/synthetic/synthetic-line-width-nm";
 import type { DispersionKind, ReferenceLine } from "@/lib/spectrum/types";
 
 const PIXELS = 2048;
@@ -27,26 +28,6 @@ const RESOLUTION_NM = 1;
 /** A slit image is a few pixels wide whatever the dispersion (common practice): on a prism the
  * resolution in nm therefore follows the local dispersion. */
 const SLIT_IMAGE_PX = 2.5;
-
-/** FWHM in nm of a line at `wavelengthNm`: the grating's resolution, or the slit image through a prism. */
-function lineWidthNm(
-  wavelengthOfPixel: (px: number) => number,
-  dispersion: DispersionKind,
-  wavelengthNm: number,
-): number {
-  if (dispersion === "grating") return RESOLUTION_NM;
-  // Find the pixel of the line by bisection on the monotonic dispersion relation.
-  let [lo, hi] = [0, PIXELS - 1];
-  const rising = wavelengthOfPixel(hi) > wavelengthOfPixel(lo);
-  for (let k = 0; k < 40; k++) {
-    const mid = (lo + hi) / 2;
-    if (wavelengthOfPixel(mid) < wavelengthNm === rising) lo = mid;
-    else hi = mid;
-  }
-  const px = Math.min(PIXELS - 2, Math.max(1, lo));
-  return SLIT_IMAGE_PX * Math.abs(wavelengthOfPixel(px + 0.5) - wavelengthOfPixel(px - 0.5));
-}
-
 const starterCsv = fs.readFileSync(
   path.resolve(__dirname, "../../../../db/lines/starter-lines.csv"),
   "utf8",
@@ -84,7 +65,7 @@ function lampSpectrum(
     lines: lampLines.map((l) => ({
       wavelengthNm: l.wavelengthNm,
       amplitude: 150 + 40 * Math.sqrt(l.intensity),
-      fwhmNm: lineWidthNm(wavelengthOfPixel, dispersion, l.wavelengthNm),
+      fwhmNm: syntheticLineWidthNm({ wavelengthOfPixel, dispersion }, l.wavelengthNm),
     })),
     readNoiseCounts: 5,
     shotNoise: true,
@@ -107,7 +88,7 @@ function flameSpectrum(
   const lines: SyntheticLine[] = flameLines.map((l) => ({
     wavelengthNm: l.airNm,
     amplitude: 3 * (l.intensities.flame ?? 0),
-    fwhmNm: lineWidthNm(wavelengthOfPixel, dispersion, l.airNm),
+    fwhmNm: syntheticLineWidthNm({ wavelengthOfPixel, dispersion }, l.airNm),
   }));
   return synthesizeSpectrum({
     pixelCount: PIXELS,
@@ -241,7 +222,7 @@ describe.each(CASES)(
       // Every pair points at a lamp line within a resolution element of where the truth puts it.
       for (const pair of calibration.pairing.pairs) {
         expect(Math.abs(wavelengthOfPixel(pair.x) - pair.wavelengthNm)).toBeLessThan(
-          lineWidthNm(wavelengthOfPixel, dispersion, pair.wavelengthNm),
+          syntheticLineWidthNm({ wavelengthOfPixel, dispersion }, pair.wavelengthNm),
         );
       }
     });
@@ -307,7 +288,7 @@ describe.each(CASES)(
       // Every strong flame line has a peak within two line widths (a doublet's second line sits on the merged
       // peak's centroid, up to one width away), and none of those peaks is taken for a broad feature.
       for (const line of flameLines.filter((l) => (l.intensities.flame ?? 0) >= 100)) {
-        const widthNm = lineWidthNm(wavelengthOfPixel, dispersion, line.airNm);
+        const widthNm = syntheticLineWidthNm({ wavelengthOfPixel, dispersion }, line.airNm);
         const peak = peaks.find((p) => Math.abs(p.wavelengthNm - line.airNm) < 2 * widthNm);
         expect(peak, `${line.species} ${line.airNm} nm`).toBeDefined();
         expect(peak!.broad, `${line.species} ${line.airNm} nm`).toBe(false);

@@ -8,7 +8,7 @@ import {
   type LampPairingResult,
 } from "@/lib/spectrum/calibration";
 import { prismForwardX } from "@/lib/spectrum/calibration/prism-forward";
-import { seededRandom } from "@/lib/spectrum/calibration/seeded-random";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 import { HG_NE_AR_LINES as LINES } from "./lamp-lines";
 import { syntheticLamp, type SyntheticLamp } from "./synthetic-lamp";
 
@@ -226,7 +226,7 @@ describe("autoPairLampPeaks", () => {
   });
 
   it("sends peaks unrelated to the lamp to manual pairing instead of handing on wrong pairs", () => {
-    const random = seededRandom(5);
+    const random = makeRandom(5).uniform;
     const peaks = Array.from({ length: 35 }, () => ({
       x: random() * 2047,
       height: random() * 1000,

@@ -7,7 +7,7 @@ import {
   withCentreFloor,
 } from "@/lib/spectrum/calibration/centre-uncertainty";
 import { findPeaks } from "@/lib/spectrum/peaks/find-peaks";
-import { seededRandom } from "@/lib/spectrum/calibration/seeded-random";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 import { gaussian } from "./synthetic-lamp";
 
 const PIXELS = 1024;
@@ -19,7 +19,7 @@ const LISTED_X = 510.3;
 
 /** A noisy lamp: clean lines of height 2000 and, at LISTED_X, one with a neighbour of `share` of its light `separation` px to the red. */
 function lamp(share: number, separation: number, seed: number) {
-  const random = seededRandom(seed);
+  const random = makeRandom(seed).uniform;
   const x = Float64Array.from({ length: PIXELS }, (_, i) => i);
   const y = new Float64Array(PIXELS);
   const profile = (centre: number, height: number) => {

@@ -12,7 +12,7 @@ import {
   type CalibrationModel,
 } from "@/lib/spectrum/calibration";
 import { prismForwardX } from "@/lib/spectrum/calibration/prism-forward";
-import { seededRandom } from "@/lib/spectrum/calibration/seeded-random";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 import { HG_NE_AR_LINES, NEON_LINES } from "./lamp-lines";
 import { gaussian } from "./synthetic-lamp";
 
@@ -43,7 +43,7 @@ function prismTruth(direction: 1 | -1 = 1) {
 }
 
 function pairsFrom(lines: number[], xOf: (l: number) => number, noiseX: number, seed: number) {
-  const random = seededRandom(seed);
+  const random = makeRandom(seed).uniform;
   return lines.map((wavelengthNm) => ({
     x: xOf(wavelengthNm) + noiseX * gaussian(random),
     xUncertainty: noiseX,

@@ -5,7 +5,7 @@ import { describe, it, expect } from "vitest";
 import { fitForwardPrism } from "@/lib/spectrum/calibration/fit-forward-prism";
 import { fitGlassEnsemble } from "@/lib/spectrum/calibration/fit-glass-ensemble";
 import { prismForwardX } from "@/lib/spectrum/calibration/prism-forward";
-import { seededRandom } from "@/lib/spectrum/calibration/seeded-random";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 import { HG_NE_AR_LINES as LINES } from "./lamp-lines";
 import { gaussian } from "./synthetic-lamp";
 
@@ -23,7 +23,7 @@ const NOISE_X = 0.05;
 
 /** Pairs of the lines inside [lowNm, highNm] with the true x plus 0.05 px noise (none when noise is 0). */
 function pairs(lowNm: number, highNm: number, noiseX = NOISE_X) {
-  const random = seededRandom(1);
+  const random = makeRandom(1).uniform;
   return LINES.filter((l) => l.wavelengthNm >= lowNm && l.wavelengthNm <= highNm).map((l) => ({
     x: prismX(l.wavelengthNm) + noiseX * gaussian(random),
     xUncertainty: NOISE_X,

@@ -10,7 +10,7 @@ import {
   type GrowPairsOutwardInput,
 } from "@/lib/spectrum/calibration/grow-pairs-outward";
 import type { LampLine, LampPair, LampPeak } from "@/lib/spectrum/calibration";
-import { seededRandom } from "@/lib/spectrum/calibration/seeded-random";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 
 const PIXELS = 2048;
 /** A curved grating: λ(t) = 400 + 400·(t + 0.12(t² − t) + 0.05(t³ − t)), t = px/2047 — dispersion ±20 % across the array. */
@@ -47,7 +47,7 @@ function gratingInput(peaks: LampPeak[], lines: LampLine[]): GrowPairsOutwardInp
 
 describe("growPairsOutward", () => {
   it("crosses a curved grating from a 6 % stretch without a wrong pair", () => {
-    const random = seededRandom(11);
+    const random = makeRandom(11).uniform;
     // 40 lines 9–11 nm apart (well resolved at a 4-px FWHM, ~0.8 nm), a fifth of them missing, 30 stray peaks.
     const lines: LampLine[] = Array.from({ length: 40 }, (_, i) => ({
       wavelengthNm: 402 + i * 9.9 + 1.5 * random(),
@@ -97,7 +97,7 @@ describe("growPairsOutward with a sparse lamp", () => {
     // A helium-like lamp: six lines in the blue, then nothing for half the array, then four strong
     // lines in the red. A leap's first model lands the red lines up to a tolerance off; they must
     // still be recognised (they sit on one curve once refitted), and chance peaks must not be.
-    const random = seededRandom(23);
+    const random = makeRandom(23).uniform;
     const wavelengths = [404.7, 419.3, 433.4, 447.1, 463.2, 480.6, 587.6, 667.8, 706.5, 728.1];
     const lines: LampLine[] = wavelengths.map((wavelengthNm, i) => ({
       wavelengthNm,

@@ -3,10 +3,10 @@
 import { describe, expect, it } from "vitest";
 import { prunePulledPairs } from "@/lib/spectrum/calibration/prune-pulled-pairs";
 import type { LampPair } from "@/lib/spectrum/calibration";
-import { seededRandom } from "@/lib/spectrum/calibration/seeded-random";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 
 const pairsOnCurve = (n: number, noiseX: number, seed: number): LampPair[] => {
-  const random = seededRandom(seed);
+  const random = makeRandom(seed).uniform;
   return Array.from({ length: n }, (_, i) => {
     const wavelengthNm = 400 + (400 * (i + 0.5)) / n;
     // x(λ) of a mildly curved grating over a 2048-pixel array.

@@ -13,7 +13,7 @@ import {
 } from "@/lib/spectrum/calibration";
 import { pairingContext } from "@/lib/spectrum/calibration/lamp-pairing-setup";
 import { recalibrateFromPrevious } from "@/lib/spectrum/calibration/recalibrate-from-previous";
-import { seededRandom } from "@/lib/spectrum/calibration/seeded-random";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 import { HG_NE_AR_LINES } from "./lamp-lines";
 import { gaussian } from "./synthetic-lamp";
 
@@ -39,7 +39,7 @@ function lampPeaks(
   seed: number,
   unlisted = 60,
 ): LampPeak[] {
-  const random = seededRandom(seed);
+  const random = makeRandom(seed).uniform;
   const peaks: LampPeak[] = [];
   for (const line of lines) {
     const x = todayPx(line.wavelengthNm);

@@ -1,7 +1,7 @@
 // Synthetic lamp spectra for the calibration tests: peaks placed by a known dispersion relation, with
 // position noise, missing lines and spurious peaks, so pairing and fitting can be checked against truth.
 import type { LampLine, LampPeak } from "@/lib/spectrum/calibration";
-import { seededRandom } from "@/lib/spectrum/calibration/seeded-random";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 
 export interface SyntheticLamp {
   peaks: LampPeak[];
@@ -29,7 +29,7 @@ export function syntheticLamp(
     blendX?: number;
   },
 ): SyntheticLamp {
-  const random = seededRandom(settings.seed);
+  const random = makeRandom(settings.seed).uniform;
   const peaks: LampPeak[] = [];
   const truthLine: number[] = [];
   const onArray = lines

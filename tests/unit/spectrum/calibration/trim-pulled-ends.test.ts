@@ -4,7 +4,7 @@
 import { describe, expect, it } from "vitest";
 import { fitCalibration, type LampPair } from "@/lib/spectrum/calibration";
 import { trimPulledEnds } from "@/lib/spectrum/calibration/trim-pulled-ends";
-import { seededRandom } from "@/lib/spectrum/calibration/seeded-random";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 
 /** Lines FWHM_X wide on a 2048-pixel array whose axis is a gently curved cubic (as the fit's own family). */
 const FWHM_X = 5;
@@ -21,7 +21,7 @@ const xOf = (nm: number) => {
 };
 
 function pairsAt(wavelengths: number[], seed: number): LampPair[] {
-  const random = seededRandom(seed);
+  const random = makeRandom(seed).uniform;
   return wavelengths.map((wavelengthNm, i) => ({
     // Centres good to about a hundredth of the line width.
     x: xOf(wavelengthNm) + 0.05 * (random() - 0.5),

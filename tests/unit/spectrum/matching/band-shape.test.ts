@@ -7,7 +7,7 @@ import { describe, expect, it } from "vitest";
 import { calibratePeaks } from "@/lib/spectrum/analysis";
 import { identifyElements, matchPeaksToLines } from "@/lib/spectrum/matching";
 import { findPeaks } from "@/lib/spectrum/peaks";
-import { makeRandom } from "@/lib/spectrum/synthetic/make-random";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 import type { CalibratedPeak, ReferenceLine } from "@/lib/spectrum/types";
 import { calibratedPeak } from "../../../support/calibrated-peak";
 import { inventedLine } from "../../../support/invented-line";

@@ -1,6 +1,6 @@
 // A deliberately simple peak detector for the matching tests only (the real one lives elsewhere).
 import type { CalibratedPeak } from "../../../../lib/spectrum/types";
-import { makeRandom } from "../../../../lib/spectrum/synthetic";
+import { makeRandom } from "../../../../lib/spectrum/statistics";
 
 export interface DetectTestPeaksOptions {
   /** Wavelength of each pixel (the true axis). */

@@ -43,3 +43,20 @@ describe("lowerBound, firstAbove and positionsWithin", () => {
     expect(firstAbove(values, 0)).toBe(0);
   });
 });
+
+describe("lowerBound where pairing finds peaks near a predicted position", () => {
+  const sorted = Float64Array.from([1, 2, 2, 5, 9]);
+  it.each([
+    [0, 0],
+    [1, 0],
+    [2, 1],
+    [3, 3],
+    [9, 4],
+    [10, 5],
+  ])("finds the first value ≥ %d at index %d", (value, index) => {
+    expect(lowerBound(sorted, value)).toBe(index);
+  });
+  it("answers 0 for an empty array", () => {
+    expect(lowerBound([], 3)).toBe(0);
+  });
+});

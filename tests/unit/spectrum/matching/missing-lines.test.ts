@@ -8,7 +8,7 @@ import {
 } from "../../../../lib/spectrum/matching";
 import type { PeakMatch } from "../../../../lib/spectrum/matching";
 import type { CalibratedPeak, ReferenceLine } from "../../../../lib/spectrum/types";
-import { makeRandom } from "../../../../lib/spectrum/synthetic";
+import { makeRandom } from "../../../../lib/spectrum/statistics";
 import { twoLineDip } from "../../../../lib/spectrum/matching/two-line-dip";
 
 const RANGE_NM: [number, number] = [400, 700];

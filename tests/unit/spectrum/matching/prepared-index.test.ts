@@ -7,7 +7,7 @@ import { collectAtLeast } from "../../../../lib/spectrum/matching/collect-at-lea
 import { matchPeaksToLines } from "../../../../lib/spectrum/matching/match-peaks-to-lines";
 import { scoreElements } from "../../../../lib/spectrum/matching/score-elements";
 import type { ReferenceLine } from "../../../../lib/spectrum/types";
-import { makeRandom } from "../../../../lib/spectrum/synthetic";
+import { makeRandom } from "../../../../lib/spectrum/statistics";
 import { flameRun, FLAME_RANGE_NM, FLAME_RESOLUTION_NM } from "./flame-fixture";
 
 const OPTIONS = {

@@ -7,7 +7,7 @@ import {
   scoreElements,
 } from "../../../../lib/spectrum/matching";
 import type { CalibratedPeak, ReferenceLine } from "../../../../lib/spectrum/types";
-import { makeRandom } from "../../../../lib/spectrum/synthetic";
+import { makeRandom } from "../../../../lib/spectrum/statistics";
 
 const RANGE_NM: [number, number] = [400, 700];
 

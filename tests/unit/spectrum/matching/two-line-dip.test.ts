@@ -2,7 +2,7 @@
 // companion could have shown as a peak of its own or hides in the stronger line.
 import { describe, expect, it } from "vitest";
 import { dipIsShallow, twoLineDip } from "@/lib/spectrum/matching/two-line-dip";
-import { makeRandom } from "@/lib/spectrum/synthetic/make-random";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 
 const FOUR_LN2 = 4 * Math.LN2;
 const gaussian = (x: number) => Math.exp(-FOUR_LN2 * x * x);

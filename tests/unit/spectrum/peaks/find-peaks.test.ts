@@ -2,7 +2,7 @@
 import { describe, it, expect } from "vitest";
 import { findPeaks, pickPeaks } from "@/lib/spectrum/peaks";
 import { prepareSignal } from "@/lib/spectrum/signal";
-import { seededRandom } from "../signal/seeded-random";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 
 const GAUSS_SIGMA_PER_FWHM = 1 / (2 * Math.sqrt(2 * Math.LN2));
 const gaussian = (x: number, centre: number, fwhm: number, height: number) =>
@@ -16,7 +16,7 @@ const nearest = <T extends { x: number }>(peaks: T[], x: number) =>
 describe("findPeaks on a flame-like spectrum (curved continuum, seeded noise σ = 2)", () => {
   const n = 2048;
   const x = pixels(n);
-  const { normal } = seededRandom(2024);
+  const { normal } = makeRandom(2024);
   const truth = [
     { centre: 310.37, fwhm: 6, height: 400, shape: gaussian },
     { centre: 905.81, fwhm: 8, height: 120, shape: gaussian },
@@ -68,7 +68,7 @@ describe("centre uncertainty", () => {
       [4, 15, gaussian],
       [6, 30, lorentzian],
     ] as const) {
-      const { uniform, normal } = seededRandom(100 + fwhm);
+      const { uniform, normal } = makeRandom(100 + fwhm);
       let inside = 0;
       for (let trial = 0; trial < 400; trial++) {
         const centre = 120 + 10 * uniform();
@@ -88,7 +88,7 @@ describe("centre uncertainty", () => {
     const n = 512;
     const x = pixels(n);
     const measure = (fwhm: number, sigma: number) => {
-      const { normal } = seededRandom(77);
+      const { normal } = makeRandom(77);
       const y = Float64Array.from(
         { length: n },
         (_, i) => gaussian(i, 250.3, fwhm, 200) + sigma * normal(),
@@ -105,7 +105,7 @@ describe("flags", () => {
   const x = pixels(n);
 
   it("flags a doublet 0.85 FWHM apart (2 : 1) as blended, and an isolated line as not", () => {
-    const { normal } = seededRandom(8);
+    const { normal } = makeRandom(8);
     const y = Float64Array.from(
       { length: n },
       (_, i) =>
@@ -121,7 +121,7 @@ describe("flags", () => {
   });
 
   it("flags a clipped top as saturated, keeps it in the list and centres it within 0.3 px", () => {
-    const { normal } = seededRandom(9);
+    const { normal } = makeRandom(9);
     const y = Float64Array.from({ length: n }, (_, i) =>
       Math.min(4095, 100 + gaussian(i, 250.4, 8, 12000) + 3 * normal()),
     );
@@ -137,7 +137,7 @@ describe("flags", () => {
   it("finds a narrow line clipped over several samples once, with no smoothing lobes beside it", () => {
     // A lamp's strongest line: 4.5 px wide, 6× over full scale, so 7 samples sit at the clip level.
     // The smoothing used to ring at the plateau's corners (two tops at one centre) and beside it.
-    const { normal } = seededRandom(11);
+    const { normal } = makeRandom(11);
     const y = Float64Array.from({ length: n }, (_, i) =>
       Math.min(9603, 230 + gaussian(i, 302.3, 4.5, 60000) + 5 * normal()),
     );
@@ -158,7 +158,7 @@ describe("non-uniform wavelength axis", () => {
   it("reports centre and FWHM in nm on a prism-like axis (dispersion varying 3× across the array)", () => {
     const n = 1024;
     const x = Float64Array.from({ length: n }, (_, i) => 400 + 0.1 * i + 1e-4 * i * i);
-    const { normal } = seededRandom(12);
+    const { normal } = makeRandom(12);
     const lines = [
       { nm: 450.5, fwhmNm: 1.2 },
       { nm: 560.3, fwhmNm: 2.0 },

@@ -3,7 +3,7 @@
 // And the smoothing's ringing beside a strong narrow line is no second peak.
 import { describe, it, expect } from "vitest";
 import { findPeaks } from "@/lib/spectrum/peaks";
-import { makeRandom } from "@/lib/spectrum/synthetic/make-random";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 
 const SIGMA_PER_FWHM = 1 / (2 * Math.sqrt(2 * Math.LN2));
 const gaussian = (x: number, centre: number, fwhm: number, height: number) =>

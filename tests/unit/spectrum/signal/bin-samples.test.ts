@@ -3,7 +3,7 @@ import { describe, expect, it } from "vitest";
 import { binSamples } from "@/lib/spectrum/signal/bin-samples";
 import { binningFactorFor } from "@/lib/spectrum/signal/binning-factor-for";
 import { estimateNoise } from "@/lib/spectrum/signal/estimate-noise";
-import { makeRandom } from "@/lib/spectrum/synthetic/make-random";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 
 describe("binSamples", () => {
   it("averages x and y per bin, the last bin holding the remainder", () => {

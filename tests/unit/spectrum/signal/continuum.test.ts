@@ -9,7 +9,7 @@ import {
   solveSymmetricPentadiagonal,
 } from "@/lib/spectrum/signal";
 import { SOURCE_KINDS } from "@/lib/spectrum/types";
-import { seededRandom } from "./seeded-random";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 
 function lines(i: number): number {
   return (
@@ -21,7 +21,7 @@ function lines(i: number): number {
 
 describe("solveSymmetricPentadiagonal", () => {
   it("agrees with a dense solve on a random diagonally dominant system", () => {
-    const { uniform } = seededRandom(5);
+    const { uniform } = makeRandom(5);
     const n = 30;
     const diagonal = Float64Array.from({ length: n }, () => 10 + uniform());
     const upper1 = Float64Array.from({ length: n - 1 }, () => uniform() * 2 - 1);
@@ -56,7 +56,7 @@ describe("solveSymmetricPentadiagonal", () => {
 describe("asymmetricLeastSquares", () => {
   it("recovers a curved flame-like continuum under lines within 2 % of the line heights", () => {
     const n = 2048;
-    const { normal } = seededRandom(9);
+    const { normal } = makeRandom(9);
     const continuum = (i: number) => 300 + 0.15 * i + 120 * Math.sin(i / 500);
     const y = Float64Array.from({ length: n }, (_, i) => continuum(i) + lines(i) + 2 * normal());
     const baseline = asymmetricLeastSquares(y);
@@ -85,7 +85,7 @@ describe("asymmetricLeastSquares", () => {
 describe("modifiedPolynomialBaseline", () => {
   it("recovers a cubic continuum on a wavelength axis under lines within 1 % of the line heights", () => {
     const n = 1500;
-    const { normal } = seededRandom(3);
+    const { normal } = makeRandom(3);
     const x = Float64Array.from({ length: n }, (_, i) => 400 + i * 0.2 + 1e-5 * i * i);
     const continuum = (w: number) =>
       50 + 0.8 * (w - 400) - 0.002 * (w - 400) ** 2 + 4e-6 * (w - 400) ** 3;

@@ -3,7 +3,7 @@
 import { describe, it, expect } from "vitest";
 import { pickPeaks } from "@/lib/spectrum/peaks/pick-peaks";
 import { estimateNoise, estimateNoiseProfile, prepareSignal } from "@/lib/spectrum/signal";
-import { makeRandom } from "@/lib/spectrum/synthetic/make-random";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 
 const N = 2048;
 const READ_NOISE = 5;

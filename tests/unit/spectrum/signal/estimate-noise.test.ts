@@ -1,7 +1,7 @@
 // Robust noise: white Gaussian noise of σ returns σ, with or without peaks and a sloping continuum.
 import { describe, it, expect } from "vitest";
 import { estimateNoise, xMedian } from "@/lib/spectrum/signal";
-import { seededRandom } from "./seeded-random";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 
 function noisy(
   n: number,
@@ -9,7 +9,7 @@ function noisy(
   seed: number,
   shape: (i: number) => number = () => 0,
 ): Float64Array {
-  const { normal } = seededRandom(seed);
+  const { normal } = makeRandom(seed);
   return Float64Array.from({ length: n }, (_, i) => shape(i) + sigma * normal());
 }
 
@@ -48,7 +48,7 @@ describe("estimateNoise", () => {
 
 describe("xMedian", () => {
   it("agrees with sorting on odd, even and repeated values", () => {
-    const { uniform } = seededRandom(11);
+    const { uniform } = makeRandom(11);
     for (const n of [1, 2, 3, 10, 101, 1000]) {
       const v = Float64Array.from({ length: n }, () => Math.round(uniform() * 20));
       const sorted = Array.from(v).sort((a, b) => a - b);

@@ -2,11 +2,11 @@
 // a spectrometer images over two samples or more, are left exactly as they were, however strong.
 import { describe, expect, it } from "vitest";
 import { removeSpikes } from "@/lib/spectrum/signal/remove-spikes";
-import { seededRandom } from "@/lib/spectrum/calibration/seeded-random";
+import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 
 /** A continuum of 1000 counts with Gaussian lines (FWHM in samples) and read noise of σ 5 counts. */
 function spectrum(lines: { at: number; height: number; fwhm: number }[], seed = 1): Float64Array {
-  const random = seededRandom(seed);
+  const random = makeRandom(seed).uniform;
   return Float64Array.from({ length: 400 }, (_, i) => {
     let value = 1000;
     for (const line of lines) {

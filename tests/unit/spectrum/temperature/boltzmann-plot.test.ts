@@ -6,7 +6,7 @@ import {
   predictLteIntensities,
   type BoltzmannLine,
 } from "../../../../lib/spectrum/temperature";
-import { makeRandom } from "../../../../lib/spectrum/synthetic";
+import { makeRandom } from "../../../../lib/spectrum/statistics";
 
 // Fe I lines with air wavelength (nm), upper-level g, A (s⁻¹) and upper-level energy (eV), from the
 // NIST Atomic Spectra Database (from memory, rounded); the test only needs them to be realistic,

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { median } from "@/lib/spectrum/calibration/median";
+import { median } from "@/lib/spectrum/statistics/median";
 
 describe("median", () => {
   it("takes the middle value of an odd count and the mean of the middle two of an even one", () => {
