@@ -12,7 +12,6 @@ import {
   type DetectionLimit,
   type SampleAnalysis,
 } from "@/lib/spectrum/analysis";
-import { dispersionAt, type CalibrationModel } from "@/lib/spectrum/calibration";
 import {
   prepareLineIndex,
   type ElementCall,
@@ -42,8 +41,8 @@ import { selectLines } from "./line-library-access";
 import { toLineTableRow } from "./line-library-rows";
 import { loadNotebook } from "./notebooks";
 import { assertAuthorMayEdit, loadRun } from "./run-lifecycle";
-import { fileAxisInNm } from "./run-spectrum";
-import { loadSpectrum, spectrumPoints, storedAxisFacts } from "./spectra";
+import { analysedPoints } from "./run-spectrum";
+import { loadSpectrum, storedAxisFacts } from "./spectra";
 import {
   SOFTWARE_VERSION,
   type RunCall,
@@ -395,28 +394,6 @@ export async function newerReleaseFor(
   return newest.id !== run.lineReleaseId && newest.number > (used?.number ?? 0) ? newest : null;
 }
 
-/**
- * The instrument's resolution for the analysis. A grating's is about constant in nm. A prism's slit
- * image is about constant in pixels while its dispersion changes several-fold across the array, so
- * the instrument's one number (its FWHM near the middle) becomes pixels through the calibration's
- * local dispersion there; each peak then gets its own width in nm from the dispersion at its pixel.
- * A prism on the file's own axis has no known pixel layout: the core then uses each peak's width.
- */
-function instrumentResolution(
-  instrument: Instrument,
-  calibration: CalibrationModel | null,
-  x: Float64Array,
-): { resolutionNm?: number; resolutionPx?: number } {
-  if (instrument.dispersion === "grating") return { resolutionNm: instrument.resolutionNm };
-  if (!calibration || x.length < 2) return {};
-  const slope = Math.abs(
-    dispersionAt(calibration, Float64Array.of(0.5 * (x[0] + x[x.length - 1])))[0],
-  );
-  return slope > 0 && Number.isFinite(slope)
-    ? { resolutionPx: instrument.resolutionNm / slope }
-    : {};
-}
-
 /** The continuum as little-endian float64, one value per analysed point. */
 function continuumBytes(continuum: Float64Array): Buffer {
   const bytes = Buffer.alloc(continuum.length * 8);
@@ -453,13 +430,14 @@ async function analyseAndStore(actor: Actor, plan: RunPlan): Promise<RunRecord> 
   const { notebook, spectrum, instrument, calibration, release, source, settings, rerunOf } = plan;
   const index = await lineIndexOf(release.id);
   // Without a calibration the file's own wavelength axis is used, in nm and (when known) in air.
-  const { x, y } = calibration ? spectrumPoints(spectrum) : fileAxisInNm(spectrum);
+  const { x, y } = analysedPoints(spectrum, calibration !== null);
   let analysis: SampleAnalysis;
   try {
     analysis = await analyzeOffThreadWhenLarge(x, y, release.id, index, {
       calibration: calibration?.model ?? null,
       source,
-      ...instrumentResolution(instrument, calibration?.model ?? null, x),
+      resolutionNm: instrument.resolutionNm,
+      dispersion: instrument.dispersion,
       detectorMax: instrument.detectorMax ?? undefined,
       minSnr: settings.minSnr,
       k: settings.k,
