@@ -9,10 +9,8 @@ import {
   type InferCreationAttributes,
 } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import type { RunStatus } from "../lib/runs/types";
 import type { SourceKind } from "../lib/spectrum/types";
-
-export const RUN_STATUSES = ["draft", "submitted", "returned", "signed"] as const;
-export type RunStatus = (typeof RUN_STATUSES)[number];
 
 export class Run extends Model<InferAttributes<Run>, InferCreationAttributes<Run>> {
   declare id: CreationOptional<string>;

@@ -24,17 +24,14 @@ import {
   type LampLine,
 } from "@/lib/spectrum/calibration";
 import { runHeavyTask } from "@/lib/workers/heavy-pool";
+import type { CalibrationPairRecord, CalibrationRecord } from "@/lib/calibrations/types";
 import type { CalibrationCreateInput } from "@/lib/validation/workflow-schemas";
 import { Calibration, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import { latestCalibrationOf, loadInstrument } from "./instruments";
 import { selectLines } from "./line-library-access";
 import { loadSpectrum, spectrumPoints } from "./spectra";
-import {
-  SOFTWARE_VERSION,
-  type CalibrationPairRecord,
-  type CalibrationRecord,
-} from "./workflow-types";
+import { SOFTWARE_VERSION } from "./workflow-types";
 
 /** The team's newest published line-table release; calibrations and runs are tied to it. */
 export async function newestPublishedRelease(

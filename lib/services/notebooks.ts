@@ -13,7 +13,8 @@ import type {
 import { Notebook, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import { overridesByRun, standingVerdicts } from "./runs";
-import type { NotebookRecord, RunCall, RunStatus, RunSummary } from "./workflow-types";
+import type { RunCall, RunStatus } from "@/lib/runs/types";
+import type { NotebookRecord, RunSummary } from "./workflow-types";
 
 /** A notebook the actor may act on; another team's is not found. */
 export async function loadNotebook(

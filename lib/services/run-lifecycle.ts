@@ -8,7 +8,7 @@ import { AppError, forbidden, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize, type TeamAction } from "@/lib/auth/policy";
 import { Run } from "@/models";
-import type { RunStatus } from "@/models/run";
+import type { RunStatus } from "@/lib/runs/types";
 
 export const STATUS_LABEL: Record<RunStatus, string> = {
   draft: "Draft",

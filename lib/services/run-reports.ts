@@ -6,7 +6,8 @@ import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
 import { notFound } from "@/lib/errors";
 import { formatNotebookCallsCsv, type NotebookCallsRun } from "@/lib/reports/notebook-calls-csv";
-import { formatPeaksCsv, type StoredPeakMatch } from "@/lib/reports/peaks-csv";
+import { formatPeaksCsv } from "@/lib/reports/peaks-csv";
+import type { StoredPeakMatch } from "@/lib/runs/types";
 import {
   buildRunReport,
   shortRunId,

@@ -31,7 +31,7 @@ import {
   User,
   sequelize,
 } from "@/models";
-import type { RunStatus } from "@/models/run";
+import type { RunStatus } from "@/lib/runs/types";
 import { checkPasswordThrottled } from "./accounts";
 import { recordAudit } from "./audit";
 import { buildRunContent, calibrationModelLabel, runContentHash } from "./run-content";

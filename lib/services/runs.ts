@@ -43,16 +43,15 @@ import { loadNotebook } from "./notebooks";
 import { assertAuthorMayEdit, loadRun } from "./run-lifecycle";
 import { analysedPoints } from "./run-spectrum";
 import { loadSpectrum, storedAxisFacts } from "./spectra";
-import {
-  SOFTWARE_VERSION,
-  type RunCall,
-  type RunChanges,
-  type RunOverrideRecord,
-  type RunPeak,
-  type RunRecord,
-  type RunTemperature,
-  type StoredRunCall,
-} from "./workflow-types";
+import type {
+  RunCall,
+  RunOverrideRecord,
+  RunPeak,
+  RunRecord,
+  RunTemperature,
+  StoredRunCall,
+} from "@/lib/runs/types";
+import { SOFTWARE_VERSION, type RunChanges } from "./workflow-types";
 
 // Published releases never change, so an index prepared once per release serves every later run.
 // Its lines are loaded in wavelength order: the order is then the same on every load (ties between

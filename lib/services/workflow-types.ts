@@ -1,12 +1,15 @@
 // Plain shapes the workflow services return (instruments, spectra, calibrations, notebooks, runs):
 // what pages and the API see; no Sequelize instance or column name gets past the services.
+import type { RunStatus } from "@/lib/runs/types";
 import type { AxisUnit, FirstColumnKind, SourceKind, WavelengthMedium } from "@/lib/spectrum/types";
 import type { Verdict } from "@/lib/spectrum/matching";
-import type { DetectionLimit } from "@/lib/spectrum/analysis/detection-limits";
 import packageJson from "@/package.json";
-import type { RunStatus } from "@/models/run";
 
-export type { RunStatus };
+// The run and calibration records live with their rules, outside the services, so lib/reports can
+// read them; components/workflow still imports them from here until it moves (then it imports them
+// from lib/runs/types and lib/calibrations/types, and this line goes).
+export type { RunCall, RunPeak, RunRecord, RunStatus, RunTemperature } from "@/lib/runs/types";
+export type { CalibrationRecord } from "@/lib/calibrations/types";
 
 export interface InstrumentRecord {
   id: string;
@@ -50,61 +53,6 @@ export interface SpectrumRecord {
   duplicateOf: { id: string; fileName: string; uploadedAt: string } | null;
 }
 
-export interface CalibrationPairRecord {
-  pixel: number;
-  wavelengthNm: number;
-  residualNm: number;
-  species: string | null;
-  lineId: string | null;
-}
-
-export interface CalibrationRecord {
-  id: string;
-  /** Tells calibrations apart: "Ne+Ar · 14:05 · polynomial-3 · RMS 0.012 nm · 402–918 nm" (time in UTC). */
-  label: string;
-  instrumentId: string;
-  spectrumId: string;
-  lineReleaseId: string;
-  lamps: string[];
-  requestedModel: string;
-  /** "polynomial-3", "hartmann" or "prism". */
-  model: string;
-  rmsNm: number;
-  dof: number;
-  pairs: CalibrationPairRecord[];
-  rejected: CalibrationPairRecord[];
-  coveredRangeNm: [number, number];
-  uncertainty: { medianNm: number; maxNm: number };
-  /** Calibrated wavelength now minus under the previous calibration, at a few pixels. */
-  drift: {
-    previousCalibrationId: string;
-    pixels: number[];
-    deltaNm: number[];
-    maxAbsNm: number;
-  } | null;
-  /** How the pairs were found; excludedByHand/addedByHand count the workbench's edits (absent on older rows). */
-  pairing: {
-    status: string;
-    confidence: number;
-    message: string;
-    manualSeeds: number;
-    excludedByHand?: number;
-    addedByHand?: number;
-    handPairs?: {
-      change: "excluded" | "added";
-      pixel: number;
-      wavelengthNm: number;
-      species: string;
-    }[];
-    /** A doubtful calibration saved as the default anyway: who said why, and the doubts they answered. */
-    confirmation?: { reason: string; doubts: string[]; by: string };
-  };
-  warnings: { code: string; message: string }[];
-  softwareVersion: string;
-  calibratedOn: string;
-  createdAt: string;
-}
-
 export interface NotebookRecord {
   id: string;
   teamId: string;
@@ -134,129 +82,6 @@ export interface RunSummary {
   present: string[];
   authorId: string | null;
   authorName: string | null;
-  createdAt: string;
-}
-
-export interface RunPeak {
-  x: number;
-  wavelengthNm: number;
-  uncertaintyNm: number;
-  fwhmNm: number;
-  height: number;
-  snr: number;
-  saturated: boolean;
-  blended: boolean;
-}
-
-/** One call as the analysis stored it (`verdict` is the computed one). */
-export interface StoredRunCall {
-  species: string;
-  element: string;
-  verdict: Verdict;
-  score: number;
-  lines: {
-    lineId: string;
-    lineNm: number;
-    peakNm: number;
-    deltaNm: number;
-    relativeIntensity: number | null;
-  }[];
-  missing: {
-    lineId: string;
-    lineNm: number;
-    relativeIntensity: number;
-    predictedSnr: number | null;
-    hidden: boolean;
-  }[];
-  seenCount: number;
-  /** Peaks the seen lines stand on (lines blended into one peak are one piece of evidence); absent
-   * on runs stored before it was kept. */
-  seenPeaks?: number;
-  missingCount: number;
-  missingStrongCount: number;
-  overlaps: { peakNm: number; otherSpecies: string[] }[];
-  intensityBasis: string;
-  notes: string[];
-  rationale: string;
-  /** For an absent call: the least height its strongest line in range needed to be found (an upper
-   * limit on the line); absent on runs stored before limits were computed. */
-  detectionLimit?: StoredDetectionLimit | null;
-}
-
-/** Stored as the analysis gives it. */
-export type StoredDetectionLimit = DetectionLimit;
-
-/** One call as pages and the API see it: `verdict` is the standing verdict (the newest override's
- * when one applies), `computedVerdict` what the analysis found, `override` the override that
- * stands (null when there is none or the newest one was withdrawn). */
-export interface RunCall extends StoredRunCall {
-  computedVerdict: Verdict;
-  override: RunOverrideRecord | null;
-}
-
-/** The newest override of one call: the verdict the chemist chose (null: withdrawn) and why. */
-export interface RunOverrideRecord {
-  id: string;
-  species: string;
-  computedVerdict: Verdict;
-  verdict: Verdict | null;
-  reason: string;
-  byName: string | null;
-  at: string;
-}
-
-/** A Boltzmann excitation temperature from one species' lines, or why none could be found. */
-export type RunTemperature =
-  | {
-      ok: true;
-      species: string;
-      temperatureK: number;
-      temperatureUncertaintyK: number;
-      lineCount: number;
-      rSquared: number;
-      points: { upperEv: number; y: number; wavelengthNm: number }[];
-    }
-  | { ok: false; message: string };
-
-export interface RunRecord {
-  id: string;
-  notebookId: string;
-  spectrumId: string;
-  calibrationId: string | null;
-  lineReleaseId: string;
-  source: SourceKind;
-  status: RunStatus;
-  /** 1 for the first version; an amendment of a signed run is the next version, linked by amendsRunId. */
-  versionNumber: number;
-  amendsRunId: string | null;
-  /** The run this one repeats against a newer line-table release, when it is a re-run. */
-  rerunOfId: string | null;
-  createdById: string | null;
-  notes: string;
-  reviewRound: number;
-  requestedReviewerId: string | null;
-  submittedAt: string | null;
-  signedAt: string | null;
-  /** Optimistic lock for notes: PATCH sends the value it read; a stale one is refused (409). */
-  lockVersion: number;
-  /** The number of the line-table release the run used. */
-  lineReleaseNumber: number | null;
-  settings: { minSnr?: number; k?: number; temperatureK?: number };
-  lampChecked: boolean;
-  softwareVersion: string;
-  rangeNm: [number, number];
-  noiseCounts: number;
-  warnings: { code: string; message: string }[];
-  peaks: RunPeak[];
-  /** The calls: `verdict` is the standing verdict, `computedVerdict` the analysis's, `override`
-   * the override that stands (null when none). */
-  calls: RunCall[];
-  /** Per species, the verdict that stands: the newest override's when there is one, else the computed one. */
-  verdicts: Record<string, Verdict>;
-  /** The override history, oldest first (the newest per species applies). */
-  overrides: RunOverrideRecord[];
-  temperature: RunTemperature | null;
-  unexplained: { wavelengthNm: number; height: number; snr: number; reason: string }[];
   createdAt: string;
 }
 

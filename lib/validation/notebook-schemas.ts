@@ -3,7 +3,7 @@
 import { z } from "zod";
 import { text } from "./text";
 import { AppError } from "@/lib/errors";
-import { RUN_STATUSES, type RunStatus } from "@/models/run";
+import { RUN_STATUSES, type RunStatus } from "@/lib/runs/types";
 import { zodFieldErrors } from "./field-errors";
 
 export const notebookTitle = text({ error: "Give the notebook a title." })
