@@ -12,7 +12,8 @@ import type {
 } from "@/lib/validation/notebook-schemas";
 import { Notebook, sequelize } from "@/models";
 import { recordAudit } from "./audit";
-import { overridesByRun, standingVerdicts } from "./runs";
+import { overridesByRun } from "./run-records";
+import { standingVerdicts } from "@/lib/runs/standing-verdicts";
 import type { RunCall, RunStatus } from "@/lib/runs/types";
 import type { NotebookRecord, RunSummary } from "./workflow-types";
 

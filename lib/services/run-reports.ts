@@ -36,7 +36,7 @@ import { loadNotebook } from "./notebooks";
 import { keepReportPdf, keptReportPdf } from "./report-cache";
 import { loadRun } from "./run-lifecycle";
 import { fetchRunSpectrum, runSpectrumOf } from "./run-spectrum";
-import { toRunRecord, toRunRecords } from "./runs";
+import { toRunRecord, toRunRecords } from "./run-records";
 
 /** Points drawn in the report's chart; each bucket keeps its extremes, so no line is lost. */
 const CHART_POINTS = 3000;

@@ -31,12 +31,13 @@ import {
   User,
   sequelize,
 } from "@/models";
+import { standingVerdicts } from "@/lib/runs/standing-verdicts";
 import type { RunStatus } from "@/lib/runs/types";
 import { checkPasswordThrottled } from "./accounts";
 import { recordAudit } from "./audit";
 import { buildRunContent, calibrationModelLabel, runContentHash } from "./run-content";
 import { STATUS_LABEL, assertAuthorMayEdit, loadRun, lockReason } from "./run-lifecycle";
-import { overridesByRun, standingVerdicts } from "./runs";
+import { overridesByRun } from "./run-records";
 import type { RunCall } from "./workflow-types";
 
 /** What a signature says, recorded with it and shown beside it. */

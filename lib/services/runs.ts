@@ -6,23 +6,19 @@ import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
 import { toReferenceLine } from "@/lib/lines";
+import { standingOverride, standingVerdicts } from "@/lib/runs/standing-verdicts";
+import type { RunPeak, RunRecord, RunTemperature, StoredRunCall } from "@/lib/runs/types";
 import {
   analyzeSample,
   type AnalyzeSampleOptions,
   type DetectionLimit,
   type SampleAnalysis,
 } from "@/lib/spectrum/analysis";
-import {
-  prepareLineIndex,
-  type ElementCall,
-  type LineIndex,
-  type Verdict,
-} from "@/lib/spectrum/matching";
+import { prepareLineIndex, type ElementCall, type LineIndex } from "@/lib/spectrum/matching";
 import type { RunNotesInput, RunOverrideInput } from "@/lib/validation/run-schemas";
 import type { RunCreateInput } from "@/lib/validation/workflow-schemas";
 import { pixelNumberingDiffers } from "@/lib/spectrum/io/stored-pixel-numbering";
 import { runHeavyTask } from "@/lib/workers/heavy-pool";
-import type { Transaction } from "sequelize";
 import {
   Calibration,
   Instrument,
@@ -31,7 +27,6 @@ import {
   Run,
   RunOverride,
   SpectrumFile,
-  User,
   sequelize,
 } from "@/models";
 import { recordAudit } from "./audit";
@@ -40,17 +35,10 @@ import { latestCalibrationOf } from "./instruments";
 import { selectLines } from "./line-library-access";
 import { toLineTableRow } from "./line-library-rows";
 import { loadNotebook } from "./notebooks";
+import { overridesByRun, toRunRecord } from "./run-records";
 import { assertAuthorMayEdit, loadRun } from "./run-lifecycle";
 import { analysedPoints } from "./run-spectrum";
 import { loadSpectrum, storedAxisFacts } from "./spectra";
-import type {
-  RunCall,
-  RunOverrideRecord,
-  RunPeak,
-  RunRecord,
-  RunTemperature,
-  StoredRunCall,
-} from "@/lib/runs/types";
 import { SOFTWARE_VERSION, type RunChanges } from "./workflow-types";
 
 // Published releases never change, so an index prepared once per release serves every later run.
@@ -135,137 +123,6 @@ function toRunCall(call: ElementCall, limit: DetectionLimit | undefined): Stored
     notes: call.notes,
     rationale: call.rationale,
     detectionLimit: limit ?? null,
-  };
-}
-
-/** The override history of several runs at once (one query), oldest first per run, as standingVerdicts expects. */
-export async function overridesByRun(
-  runIds: readonly string[],
-  transaction?: Transaction,
-): Promise<Map<string, RunOverrideRecord[]>> {
-  const byRun = new Map<string, RunOverrideRecord[]>();
-  if (runIds.length === 0) return byRun;
-  const rows = await RunOverride.findAll({
-    where: { runId: [...runIds] },
-    include: [{ model: User, as: "createdBy", attributes: ["name"] }],
-    order: [
-      ["createdAt", "ASC"],
-      ["id", "ASC"],
-    ],
-    transaction,
-  });
-  for (const o of rows) {
-    const list = byRun.get(o.runId) ?? [];
-    list.push({
-      id: o.id,
-      species: o.species,
-      computedVerdict: o.computedVerdict,
-      verdict: o.verdict,
-      reason: o.reason,
-      byName: (o as RunOverride & { createdBy?: User }).createdBy?.name ?? null,
-      at: o.createdAt.toISOString(),
-    });
-    byRun.set(o.runId, list);
-  }
-  return byRun;
-}
-
-async function overridesOf(runId: string, transaction?: Transaction): Promise<RunOverrideRecord[]> {
-  return (await overridesByRun([runId], transaction)).get(runId) ?? [];
-}
-
-/** The verdict that stands per species: the newest override, else the computed verdict. */
-export function standingVerdicts(
-  calls: readonly StoredRunCall[],
-  overrides: readonly RunOverrideRecord[],
-): Record<string, Verdict> {
-  const verdicts: Record<string, Verdict> = {};
-  for (const call of calls) verdicts[call.species] = call.verdict;
-  for (const o of overrides) {
-    const computed = calls.find((c) => c.species === o.species)?.verdict ?? o.computedVerdict;
-    verdicts[o.species] = o.verdict ?? computed;
-  }
-  return verdicts;
-}
-
-/**
- * Run records of several runs with two queries in all (their overrides, their releases' numbers),
- * whatever their number: a notebook's calls CSV reads every run of it.
- */
-export async function toRunRecords(
-  rows: readonly Run[],
-  transaction?: Transaction,
-): Promise<RunRecord[]> {
-  if (rows.length === 0) return [];
-  const [overrides, releases] = await Promise.all([
-    overridesByRun(
-      rows.map((r) => r.id),
-      transaction,
-    ),
-    LineRelease.findAll({
-      where: { id: [...new Set(rows.map((r) => r.lineReleaseId))] },
-      attributes: ["id", "number"],
-      transaction,
-    }),
-  ]);
-  const numberOf = new Map(releases.map((r) => [r.id, r.number]));
-  return rows.map((row) =>
-    runRecordOf(row, overrides.get(row.id) ?? [], numberOf.get(row.lineReleaseId) ?? null),
-  );
-}
-
-export async function toRunRecord(row: Run, transaction?: Transaction): Promise<RunRecord> {
-  return (await toRunRecords([row], transaction))[0];
-}
-
-function runRecordOf(
-  row: Run,
-  overrides: RunOverrideRecord[],
-  releaseNumber: number | null,
-): RunRecord {
-  const stored = row.calls as StoredRunCall[];
-  const verdicts = standingVerdicts(stored, overrides);
-  const calls: RunCall[] = stored.map((c) => {
-    const newest = overrides.findLast((o) => o.species === c.species) ?? null;
-    return {
-      ...c,
-      verdict: verdicts[c.species] ?? c.verdict,
-      computedVerdict: c.verdict,
-      override: newest && newest.verdict !== null ? newest : null,
-    };
-  });
-  return {
-    id: row.id,
-    notebookId: row.notebookId,
-    spectrumId: row.spectrumId,
-    calibrationId: row.calibrationId,
-    lineReleaseId: row.lineReleaseId,
-    lineReleaseNumber: releaseNumber,
-    source: row.source,
-    status: row.status,
-    versionNumber: row.versionNumber,
-    amendsRunId: row.amendsRunId,
-    rerunOfId: row.rerunOfId,
-    createdById: row.createdById,
-    notes: row.notes,
-    lockVersion: row.lockVersion,
-    reviewRound: row.reviewRound,
-    requestedReviewerId: row.requestedReviewerId,
-    submittedAt: row.submittedAt?.toISOString() ?? null,
-    signedAt: row.signedAt?.toISOString() ?? null,
-    settings: row.settings as RunRecord["settings"],
-    lampChecked: row.lampChecked,
-    softwareVersion: row.softwareVersion,
-    rangeNm: [row.rangeMinNm, row.rangeMaxNm],
-    noiseCounts: row.noiseCounts,
-    warnings: row.warnings as RunRecord["warnings"],
-    peaks: row.peaks as RunPeak[],
-    calls,
-    verdicts,
-    overrides,
-    temperature: (row.temperature as RunTemperature | null) ?? null,
-    unexplained: row.unexplained as RunRecord["unexplained"],
-    createdAt: row.createdAt.toISOString(),
   };
 }
 
@@ -563,10 +420,9 @@ export async function overrideCall(
         fieldErrors: { species: [`Choose one of the run's species (${calls.length} weighed).`] },
       });
     }
-    const overrides = await overridesOf(run.id, transaction);
+    const overrides = (await overridesByRun([run.id], transaction)).get(run.id) ?? [];
     const before = standingVerdicts(calls, overrides)[call.species];
-    const newest = overrides.findLast((o) => o.species === call.species);
-    if (input.verdict === null && (!newest || newest.verdict === null)) {
+    if (input.verdict === null && standingOverride(overrides, call.species) === null) {
       throw new AppError(
         "validation",
         `The call for ${call.species} has no override to withdraw.`,
