@@ -14,7 +14,7 @@ import { Notebook, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import { overridesByRun } from "./run-records";
 import { standingVerdicts } from "@/lib/runs/standing-verdicts";
-import type { RunCall, RunStatus } from "@/lib/runs/types";
+import type { RunStatus, StoredRunCall } from "@/lib/runs/types";
 import type { NotebookRecord, RunSummary } from "./workflow-types";
 
 /** A notebook the actor may act on; another team's is not found. */
@@ -199,7 +199,7 @@ interface RunRow {
   version_number: number;
   spectrum_id: string;
   source: RunSummary["source"];
-  calls: RunCall[];
+  calls: StoredRunCall[];
   created_at: Date;
   created_by_id: string | null;
   author_name: string | null;

@@ -1,16 +1,10 @@
-// A run as pages, the API and reports see it: its row mapped to a RunRecord, with the override
-// history and the release number the record shows loaded for several runs at once.
+// A run as pages, the API and reports see it: the one mapper of its row to a RunRecord (the only
+// place that lists its columns), and what the record needs besides the row, the override history and
+// the release's number, loaded for any number of runs with one query per kind.
 import "server-only";
 import type { Transaction } from "sequelize";
 import { overridesByRunOf, standingOverride, standingVerdicts } from "@/lib/runs/standing-verdicts";
-import type {
-  RunCall,
-  RunOverrideRecord,
-  RunPeak,
-  RunRecord,
-  RunTemperature,
-  StoredRunCall,
-} from "@/lib/runs/types";
+import type { RunCall, RunOverrideRecord, RunRecord } from "@/lib/runs/types";
 import { LineRelease, Run, RunOverride, User } from "@/models";
 
 /** The override history of several runs at once (one query), oldest first per run, as standingVerdicts expects. */
@@ -37,7 +31,7 @@ export async function overridesByRun(
         computedVerdict: o.computedVerdict,
         verdict: o.verdict,
         reason: o.reason,
-        byName: (o as RunOverride & { createdBy?: User }).createdBy?.name ?? null,
+        byName: o.createdBy?.name ?? null,
         at: o.createdAt.toISOString(),
       },
     })),
@@ -45,14 +39,28 @@ export async function overridesByRun(
 }
 
 /**
- * Run records of several runs with two queries in all (their overrides, their releases' numbers),
- * whatever their number: a notebook's calls CSV reads every run of it.
+ * A run's columns as its record and the pages read them: all but the stored candidate lines
+ * (`matches`, megabytes against a large table), which only the peaks CSV and an amendment's copy read.
  */
-export async function toRunRecords(
-  rows: readonly Run[],
+export const RUN_RECORD_ATTRIBUTES = { exclude: ["matches"] };
+
+/** What a run's record shows besides its row: the override history and the release's number. */
+export interface RunRecordContext {
+  /** Per run, oldest first. */
+  overrides: ReadonlyMap<string, RunOverrideRecord[]>;
+  /** Per line-table release. */
+  releaseNumbers: ReadonlyMap<string, number | null>;
+}
+
+/**
+ * The context of several runs' records in two queries in all (their overrides, their releases'
+ * numbers), whatever their number: a notebook's calls CSV reads every run of it.
+ */
+export async function loadRunRecordContext(
+  rows: readonly Pick<Run, "id" | "lineReleaseId">[],
   transaction?: Transaction,
-): Promise<RunRecord[]> {
-  if (rows.length === 0) return [];
+): Promise<RunRecordContext> {
+  if (rows.length === 0) return { overrides: new Map(), releaseNumbers: new Map() };
   const [overrides, releases] = await Promise.all([
     overridesByRun(
       rows.map((r) => r.id),
@@ -64,38 +72,26 @@ export async function toRunRecords(
       transaction,
     }),
   ]);
-  const numberOf = new Map(releases.map((r) => [r.id, r.number]));
-  return rows.map((row) =>
-    runRecordOf(row, overrides.get(row.id) ?? [], numberOf.get(row.lineReleaseId) ?? null),
-  );
+  return { overrides, releaseNumbers: new Map(releases.map((r) => [r.id, r.number])) };
 }
 
-export async function toRunRecord(row: Run, transaction?: Transaction): Promise<RunRecord> {
-  return (await toRunRecords([row], transaction))[0];
-}
-
-function runRecordOf(
-  row: Run,
-  overrides: RunOverrideRecord[],
-  releaseNumber: number | null,
-): RunRecord {
-  const stored = row.calls as StoredRunCall[];
-  const verdicts = standingVerdicts(stored, overrides);
-  const calls: RunCall[] = stored.map((c) => {
-    return {
-      ...c,
-      verdict: verdicts[c.species] ?? c.verdict,
-      computedVerdict: c.verdict,
-      override: standingOverride(overrides, c.species),
-    };
-  });
+/** The one mapping of a run's row to its record; it queries nothing (see loadRunRecordContext). */
+export function toRunRecord(row: Run, context: RunRecordContext): RunRecord {
+  const overrides = context.overrides.get(row.id) ?? [];
+  const verdicts = standingVerdicts(row.calls, overrides);
+  const calls: RunCall[] = row.calls.map((c) => ({
+    ...c,
+    verdict: verdicts[c.species] ?? c.verdict,
+    computedVerdict: c.verdict,
+    override: standingOverride(overrides, c.species),
+  }));
   return {
     id: row.id,
     notebookId: row.notebookId,
     spectrumId: row.spectrumId,
     calibrationId: row.calibrationId,
     lineReleaseId: row.lineReleaseId,
-    lineReleaseNumber: releaseNumber,
+    lineReleaseNumber: context.releaseNumbers.get(row.lineReleaseId) ?? null,
     source: row.source,
     status: row.status,
     versionNumber: row.versionNumber,
@@ -108,18 +104,18 @@ function runRecordOf(
     requestedReviewerId: row.requestedReviewerId,
     submittedAt: row.submittedAt?.toISOString() ?? null,
     signedAt: row.signedAt?.toISOString() ?? null,
-    settings: row.settings as RunRecord["settings"],
+    settings: row.settings,
     lampChecked: row.lampChecked,
     softwareVersion: row.softwareVersion,
     rangeNm: [row.rangeMinNm, row.rangeMaxNm],
     noiseCounts: row.noiseCounts,
-    warnings: row.warnings as RunRecord["warnings"],
-    peaks: row.peaks as RunPeak[],
+    warnings: row.warnings,
+    peaks: row.peaks,
     calls,
     verdicts,
     overrides,
-    temperature: (row.temperature as RunTemperature | null) ?? null,
-    unexplained: row.unexplained as RunRecord["unexplained"],
+    temperature: row.temperature ?? null,
+    unexplained: row.unexplained,
     createdAt: row.createdAt.toISOString(),
   };
 }

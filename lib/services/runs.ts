@@ -35,7 +35,12 @@ import { latestCalibrationOf } from "./instruments";
 import { selectLines } from "./line-library-access";
 import { toLineTableRow } from "./line-library-rows";
 import { loadNotebook } from "./notebooks";
-import { overridesByRun, toRunRecord } from "./run-records";
+import {
+  RUN_RECORD_ATTRIBUTES,
+  loadRunRecordContext,
+  overridesByRun,
+  toRunRecord,
+} from "./run-records";
 import { assertAuthorMayEdit, loadRun } from "./run-lifecycle";
 import { analysedPoints } from "./run-spectrum";
 import { loadSpectrum, storedAxisFacts } from "./spectra";
@@ -127,11 +132,10 @@ function toRunCall(call: ElementCall, limit: DetectionLimit | undefined): Stored
 }
 
 export async function fetchRun(actor: Actor, runId: string): Promise<RunRecord> {
-  // A run's record does not carry the stored candidate lines (megabytes against a large table).
-  const row = await Run.findByPk(runId, { attributes: { exclude: ["matches"] } });
+  const row = await Run.findByPk(runId, { attributes: RUN_RECORD_ATTRIBUTES });
   if (!row) throw notFound("No such run.");
   authorize(actor, "team.view", { teamId: row.teamId });
-  return await toRunRecord(row);
+  return toRunRecord(row, await loadRunRecordContext([row]));
 }
 
 export async function createRun(actor: Actor, input: RunCreateInput): Promise<RunRecord> {
@@ -232,7 +236,7 @@ export async function rerunRun(actor: Actor, runId: string): Promise<RunRecord> 
     calibration,
     release,
     source: earlier.source,
-    settings: earlier.settings as RunRecord["settings"],
+    settings: earlier.settings,
     rerunOf: earlier,
   });
 }
@@ -396,7 +400,7 @@ async function analyseAndStore(actor: Actor, plan: RunPlan): Promise<RunRecord> 
       },
       transaction,
     );
-    return await toRunRecord(row, transaction);
+    return toRunRecord(row, await loadRunRecordContext([row], transaction));
   });
 }
 
@@ -413,7 +417,7 @@ export async function overrideCall(
   return sequelize.transaction(async (transaction) => {
     const run = await loadRun(actor, runId, "run.edit", transaction);
     assertAuthorMayEdit(actor, run);
-    const calls = run.calls as StoredRunCall[];
+    const calls = run.calls;
     const call = calls.find((c) => c.species === input.species);
     if (!call) {
       throw new AppError("validation", `This run has no call for ${input.species}.`, {
@@ -460,7 +464,7 @@ export async function overrideCall(
       },
       transaction,
     );
-    return await toRunRecord(run, transaction);
+    return toRunRecord(run, await loadRunRecordContext([run], transaction));
   });
 }
 
@@ -479,7 +483,8 @@ export async function updateRunNotes(
         "The notes were changed since you opened them: reload the run, then write your change again.",
       );
     }
-    if (run.notes === input.notes) return await toRunRecord(run, transaction);
+    if (run.notes === input.notes)
+      return toRunRecord(run, await loadRunRecordContext([run], transaction));
     const before = run.notes;
     await run.update({ notes: input.notes, lockVersion: run.lockVersion + 1 }, { transaction });
     await recordAudit(
@@ -494,7 +499,7 @@ export async function updateRunNotes(
       },
       transaction,
     );
-    return await toRunRecord(run, transaction);
+    return toRunRecord(run, await loadRunRecordContext([run], transaction));
   });
 }
 
