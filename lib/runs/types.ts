@@ -1,6 +1,7 @@
 // An identification run as the services store it (its JSON columns) and hand it to pages and reports:
 // plain shapes with no Sequelize instance or column name, imported by services, reports and pages alike.
 import type { DetectionLimit } from "@/lib/spectrum/analysis/detection-limits";
+import type { ExcitationTemperature } from "@/lib/spectrum/analysis/excitation-temperature";
 import type { Verdict } from "@/lib/spectrum/matching";
 import type { SourceKind } from "@/lib/spectrum/types";
 
@@ -116,18 +117,8 @@ export interface RunOverrideRecord {
   at: string;
 }
 
-/** A Boltzmann excitation temperature from one species' lines, or why none could be found. */
-export type RunTemperature =
-  | {
-      ok: true;
-      species: string;
-      temperatureK: number;
-      temperatureUncertaintyK: number;
-      lineCount: number;
-      rSquared: number;
-      points: { upperEv: number; y: number; wavelengthNm: number }[];
-    }
-  | { ok: false; message: string };
+/** A Boltzmann excitation temperature from one species' lines, or why none could be found; stored as the analysis gives it. */
+export type RunTemperature = ExcitationTemperature;
 
 export interface RunRecord {
   id: string;
