@@ -8,6 +8,13 @@ import {
   type InferCreationAttributes,
 } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import type {
+  CalibrationDrift,
+  CalibrationPairing,
+  CalibrationPairRecord,
+  CalibrationUncertainty,
+  CalibrationWarningRecord,
+} from "../lib/calibrations/types";
 import type { CalibrationModel } from "../lib/spectrum/calibration";
 import type { AxisUnit } from "../lib/spectrum/types";
 
@@ -26,16 +33,16 @@ export class Calibration extends Model<
   declare modelKind: "polynomial" | "hartmann" | "prism";
   declare model: CalibrationModel;
   declare xUnit: AxisUnit;
-  declare pairs: unknown;
-  declare rejected: unknown;
+  declare pairs: CalibrationPairRecord[];
+  declare rejected: CalibrationPairRecord[];
   declare rmsNm: number;
   declare dof: number;
   declare coveredMinNm: number;
   declare coveredMaxNm: number;
-  declare uncertainty: unknown;
-  declare drift: unknown;
-  declare pairing: unknown;
-  declare warnings: unknown;
+  declare uncertainty: CalibrationUncertainty;
+  declare drift: CalibrationDrift | null;
+  declare pairing: CalibrationPairing;
+  declare warnings: CalibrationWarningRecord[];
   declare softwareVersion: string;
   /** The calibration's date (YYYY-MM-DD): one calibration per instrument and date is the practice. */
   declare calibratedOn: string;

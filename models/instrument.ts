@@ -7,6 +7,7 @@ import {
   type InferAttributes,
   type InferCreationAttributes,
 } from "sequelize";
+import type { GlassName } from "../lib/spectrum/calibration";
 import type { FirstColumnKind, WavelengthMedium } from "../lib/spectrum/types";
 import { sequelize } from "../db/sequelize";
 
@@ -23,7 +24,7 @@ export class Instrument extends Model<
   declare nominalMaxNm: number;
   declare resolutionNm: number;
   declare detectorMax: number | null;
-  declare glass: string | null;
+  declare glass: GlassName | null;
   declare apexDeg: number | null;
   /** What the first column of its exported files holds; null while no profile is set. */
   declare exportXUnit: FirstColumnKind | null;

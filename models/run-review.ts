@@ -6,9 +6,11 @@ import {
   type CreationOptional,
   type InferAttributes,
   type InferCreationAttributes,
+  type NonAttribute,
 } from "sequelize";
 import { sequelize } from "../db/sequelize";
 import type { Verdict } from "../lib/spectrum/matching";
+import type { User } from "./user";
 
 /** A chemist's change of one call's verdict, with the reason; verdict null withdraws an earlier override. */
 export class RunOverride extends Model<
@@ -23,6 +25,8 @@ export class RunOverride extends Model<
   declare reason: string;
   declare createdById: string | null;
   declare createdAt: CreationOptional<Date>;
+  /** Its author, when loaded with the override (`include` as "createdBy"). */
+  declare createdBy?: NonAttribute<User>;
 }
 
 RunOverride.init(

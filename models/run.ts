@@ -9,10 +9,18 @@ import {
   type InferCreationAttributes,
 } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import type {
+  RunPeak,
+  RunSettings,
+  RunStatus,
+  RunTemperature,
+  RunUnexplainedPeak,
+  RunWarning,
+  StoredPeakMatch,
+  StoredPeakOverlap,
+  StoredRunCall,
+} from "../lib/runs/types";
 import type { SourceKind } from "../lib/spectrum/types";
-
-export const RUN_STATUSES = ["draft", "submitted", "returned", "signed"] as const;
-export type RunStatus = (typeof RUN_STATUSES)[number];
 
 export class Run extends Model<InferAttributes<Run>, InferCreationAttributes<Run>> {
   declare id: CreationOptional<string>;
@@ -23,19 +31,19 @@ export class Run extends Model<InferAttributes<Run>, InferCreationAttributes<Run
   declare lineReleaseId: string;
   declare source: SourceKind;
   declare status: CreationOptional<RunStatus>;
-  declare settings: unknown;
+  declare settings: RunSettings;
   declare lampChecked: boolean;
   declare softwareVersion: string;
   declare rangeMinNm: number;
   declare rangeMaxNm: number;
   declare noiseCounts: number;
-  declare peaks: unknown;
-  declare matches: unknown;
-  declare calls: unknown;
-  declare peakOverlaps: unknown;
-  declare unexplained: unknown;
-  declare warnings: unknown;
-  declare temperature: unknown;
+  declare peaks: RunPeak[];
+  declare matches: StoredPeakMatch[];
+  declare calls: StoredRunCall[];
+  declare peakOverlaps: StoredPeakOverlap[];
+  declare unexplained: RunUnexplainedPeak[];
+  declare warnings: RunWarning[];
+  declare temperature: RunTemperature | null;
   declare continuum: Buffer | null;
   declare versionNumber: CreationOptional<number>;
   declare amendsRunId: CreationOptional<string | null>;

@@ -10,7 +10,7 @@ import { notebooksKey } from "@/components/notebooks/list-keys";
 import { RUN_STATUS_LABELS } from "@/components/notebooks/run-status";
 import { useUrlFilters } from "@/components/notebooks/url-filters";
 import type { NotebookRecord } from "@/lib/services/notebook-types";
-import type { RunStatus } from "@/lib/services/run-types";
+import type { RunStatus } from "@/lib/runs/types";
 
 const FILTER_KEYS = ["q"] as const;
 

@@ -6,7 +6,7 @@ import { FilterSelect } from "@/components/ui/filter-select";
 import Link from "next/link";
 import { useEffect, useState } from "react";
 import useSWR, { SWRConfig } from "swr";
-import type { RunStatus } from "@/lib/services/run-types";
+import type { RunStatus } from "@/lib/runs/types";
 import type { RunSummary } from "@/lib/services/notebook-types";
 import { fetchJson } from "./fetch-json";
 import { RUN_STATUS_LABELS, RunStatusBadge } from "./run-status";

@@ -1,5 +1,5 @@
 // A run's status as a word with a shape beside it, so the state is never told by colour alone.
-import type { RunStatus } from "@/lib/services/run-types";
+import type { RunStatus } from "@/lib/runs/types";
 
 export const RUN_STATUS_LABELS: Record<RunStatus, string> = {
   draft: "Draft",

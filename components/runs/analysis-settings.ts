@@ -1,7 +1,7 @@
 // A run's analysis settings as a reader sees them: each with the value used, and "(default)" when
 // the chemist left it blank, so a page never says only "defaults" without saying what they were.
 import { SAMPLE_ANALYSIS_DEFAULTS } from "@/lib/spectrum/analysis/sample-analysis-defaults";
-import type { RunRecord } from "@/lib/services/run-types";
+import type { RunRecord } from "@/lib/runs/types";
 
 export interface SettingRow {
   /** The setting's name in the run form's words, with its API field. */

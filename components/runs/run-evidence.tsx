@@ -5,7 +5,7 @@ import type { ReactNode } from "react";
 import { TableScroll } from "@/components/ui/table-scroll";
 import { detectionLimitText } from "@/lib/reports/detection-limit-text";
 import { formatWavelengthColumn, wavelengthColumnDecimals } from "@/lib/reports/wavelength-column";
-import type { RunCall, RunPeak } from "@/lib/services/run-types";
+import type { RunCall, RunPeak } from "@/lib/runs/types";
 
 const VERDICT = {
   present: { mark: "●", label: "present", tone: "border-verdict-present text-verdict-present" },

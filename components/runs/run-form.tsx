@@ -12,7 +12,7 @@ import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
 import type { SpectrumSummary } from "@/lib/services/spectra";
-import type { CalibrationRecord } from "@/lib/services/calibration-types";
+import type { CalibrationRecord } from "@/lib/calibrations/types";
 import { initialFormState, type FormState } from "@/lib/validation/form-state";
 import { FlameCautions } from "./run-notices";
 import { SETTING_PLACEHOLDERS } from "@/components/runs/analysis-settings";

@@ -1,7 +1,7 @@
 // The run chart's line labels: one per identified peak, species sharing a peak stacked in one label
 // so their names do not print over each other. Shared by the run page and the review page.
 import type { LineLabel } from "@/components/charts/spectrum-charts";
-import type { RunCall } from "@/lib/services/run-types";
+import type { RunCall } from "@/lib/runs/types";
 
 export function runChartLabels(calls: readonly RunCall[]): LineLabel[] {
   const byPeak = new Map<string, LineLabel>();

@@ -1,5 +1,5 @@
 // Notices every identification shows: what the tool's calls are worth, and for a flame the cautions.
-import type { RunRecord } from "@/lib/services/run-types";
+import type { RunRecord } from "@/lib/runs/types";
 
 export function ScreeningNotice() {
   return (

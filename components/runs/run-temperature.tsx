@@ -1,7 +1,7 @@
 // The run's Boltzmann excitation temperature (T ± σ, the species and lines it came from, R²) with a
 // small plot, or why none could be found.
 import { BoltzmannChart } from "@/components/charts/spectrum-charts";
-import type { RunTemperature } from "@/lib/services/run-types";
+import type { RunTemperature } from "@/lib/runs/types";
 import { countOf } from "@/lib/text/count-of";
 
 export function RunTemperaturePanel({

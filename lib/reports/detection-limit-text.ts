@@ -1,6 +1,6 @@
 // One wording of an absent call's detection limit for the page, the printable report, the PDF and
 // the CSV, so they cannot drift apart.
-import type { StoredDetectionLimit } from "@/lib/services/run-types";
+import type { StoredDetectionLimit } from "@/lib/runs/types";
 
 /** "< 52 counts (0.41 % of the strongest peak) at 422.67 nm", or "—" when there is none. */
 export function detectionLimitText(limit: StoredDetectionLimit | null | undefined): string {

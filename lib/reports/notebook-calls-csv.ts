@@ -2,7 +2,7 @@
 // with the call cells empty, so every run is listed), with the standing and the computed verdict, and
 // an absent call's detection limit (the least height its strongest line in range needed to be found).
 // Comment lines name the notebook, the runs' line-table releases and the caveat.
-import type { RunRecord } from "@/lib/services/run-types";
+import type { RunRecord } from "@/lib/runs/types";
 import { formatCsv, type CsvCell } from "./csv-table";
 import { SCREENING_CAVEAT } from "./report-text";
 import { roundSignificant } from "./round-to-uncertainty";

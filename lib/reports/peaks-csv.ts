@@ -1,7 +1,7 @@
 // A run's peaks with their candidate lines as CSV: one row per peak and candidate (a peak with no
 // candidate has one row with the candidate cells empty), and which calls took the peak as evidence.
 // Numbers carry the digits their uncertainty supports; comment lines name the run, release and caveat.
-import type { RunCall, RunRecord } from "@/lib/services/run-types";
+import type { RunCall, RunRecord, StoredPeakMatch } from "@/lib/runs/types";
 import { formatCsv, type CsvCell } from "./csv-table";
 import { SCREENING_CAVEAT } from "./report-text";
 import {
@@ -10,20 +10,6 @@ import {
   roundToDecimals,
   roundToUncertainty,
 } from "./round-to-uncertainty";
-
-/** One peak's candidates as stored with the run. */
-export interface StoredPeakMatch {
-  peakIndex: number;
-  candidates: {
-    lineId: string;
-    species: string;
-    kind: string;
-    referenceNm: number;
-    deltaNm: number;
-    sigmaNm: number;
-    deltaSigma: number;
-  }[];
-}
 
 export const PEAKS_CSV_COLUMNS = [
   "peak_nm",

@@ -2,8 +2,8 @@
 // printable page and the tests read the same model, so the two renderings cannot drift apart.
 import type { Verdict } from "@/lib/spectrum/matching";
 import type { SourceKind } from "@/lib/spectrum/types";
-import type { CalibrationRecord } from "@/lib/services/calibration-types";
-import type { RunCall, RunRecord, RunStatus, RunTemperature } from "@/lib/services/run-types";
+import type { CalibrationRecord } from "@/lib/calibrations/types";
+import type { RunCall, RunRecord, RunStatus, RunTemperature } from "@/lib/runs/types";
 import { detectionLimitText } from "./detection-limit-text";
 import { FLAME_CAUTIONS, SCREENING_CAVEAT } from "./report-text";
 

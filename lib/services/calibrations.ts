@@ -20,10 +20,10 @@ import {
   evaluateCalibration,
   type CalibrationModelChoice,
   type FitCalibrationResult,
-  type GlassName,
   type LampLine,
 } from "@/lib/spectrum/calibration";
 import { runHeavyTask } from "@/lib/workers/heavy-pool";
+import type { CalibrationRecord } from "@/lib/calibrations/types";
 import type { CalibrationCreateInput } from "@/lib/validation/calibration-schemas";
 import { Calibration, sequelize } from "@/models";
 import { recordAudit } from "./audit";
@@ -31,7 +31,6 @@ import { latestCalibrationOf, loadInstrument } from "./instruments";
 import { selectLines } from "./line-library-access";
 import { loadSpectrum, spectrumPoints } from "./spectra";
 import { SOFTWARE_VERSION } from "./software-version";
-import type { CalibrationPairRecord, CalibrationRecord } from "./calibration-types";
 
 /** The team's newest published line-table release; calibrations and runs are tied to it. */
 export async function newestPublishedRelease(
@@ -114,13 +113,13 @@ export function toCalibrationRecord(row: Calibration): CalibrationRecord {
     model,
     rmsNm: row.rmsNm,
     dof: row.dof,
-    pairs: row.pairs as CalibrationPairRecord[],
-    rejected: row.rejected as CalibrationPairRecord[],
+    pairs: row.pairs,
+    rejected: row.rejected,
     coveredRangeNm,
-    uncertainty: row.uncertainty as CalibrationRecord["uncertainty"],
-    drift: row.drift as CalibrationRecord["drift"],
-    pairing: row.pairing as CalibrationRecord["pairing"],
-    warnings: row.warnings as CalibrationRecord["warnings"],
+    uncertainty: row.uncertainty,
+    drift: row.drift,
+    pairing: row.pairing,
+    warnings: row.warnings,
     softwareVersion: row.softwareVersion,
     calibratedOn: String(row.calibratedOn),
     createdAt: row.createdAt.toISOString(),
@@ -278,7 +277,7 @@ async function computeCalibration(
         dispersion: instrument.dispersion,
         resolutionNm: instrument.resolutionNm,
         domain,
-        glass: (instrument.glass as GlassName | null) ?? undefined,
+        glass: instrument.glass ?? undefined,
         apexDeg: instrument.apexDeg ?? undefined,
         model: "auto",
         ...previous,

@@ -1,7 +1,7 @@
 // The plain shapes of a notebook and of a run as a notebook lists it, as the notebooks service returns
 // them: what pages and the API see; no Sequelize instance or column name gets past the service.
 import type { SourceKind } from "@/lib/spectrum/types";
-import type { RunStatus } from "./run-types";
+import type { RunStatus } from "@/lib/runs/types";
 
 export interface NotebookRecord {
   id: string;

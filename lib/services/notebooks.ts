@@ -12,9 +12,10 @@ import type {
 } from "@/lib/validation/notebook-schemas";
 import { Notebook, sequelize } from "@/models";
 import { recordAudit } from "./audit";
-import { overridesByRun, standingVerdicts } from "./runs";
+import { overridesByRun } from "./run-records";
+import { standingVerdicts } from "@/lib/runs/standing-verdicts";
+import type { RunStatus, StoredRunCall } from "@/lib/runs/types";
 import type { NotebookRecord, RunSummary } from "./notebook-types";
-import type { RunCall, RunStatus } from "./run-types";
 
 /** A notebook the actor may act on; another team's is not found. */
 export async function loadNotebook(
@@ -198,7 +199,7 @@ interface RunRow {
   version_number: number;
   spectrum_id: string;
   source: RunSummary["source"];
-  calls: RunCall[];
+  calls: StoredRunCall[];
   created_at: Date;
   created_by_id: string | null;
   author_name: string | null;

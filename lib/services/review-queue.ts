@@ -8,8 +8,9 @@ import type { Verdict } from "@/lib/spectrum/matching";
 import type { ReviewQueueQuery } from "@/lib/validation/review-schemas";
 import { sequelize } from "@/models";
 import type { ReviewQueue, ReviewQueueItem } from "./run-review-types";
-import { overridesByRun, standingVerdicts } from "./runs";
-import type { RunCall } from "./run-types";
+import { overridesByRun } from "./run-records";
+import { standingVerdicts } from "@/lib/runs/standing-verdicts";
+import type { RunCall } from "@/lib/runs/types";
 
 interface QueueRow {
   id: string;

@@ -3,6 +3,15 @@
 // It leaves out the review state (status, round, times), so the hash of a signed run recomputed later
 // equals the one signed. Pure and free of the database, so tests and reports recompute it from rows.
 import { createHash } from "node:crypto";
+import { standingVerdicts } from "@/lib/runs/standing-verdicts";
+import type {
+  RunPeak,
+  RunSettings,
+  RunUnexplainedPeak,
+  RunWarning,
+  StoredRunCall,
+} from "@/lib/runs/types";
+import type { Verdict } from "@/lib/spectrum/matching";
 
 /** The plain facts a run's content is built from; the service (or a test) reads them from the tables. */
 export interface RunContentSource {
@@ -14,16 +23,16 @@ export interface RunContentSource {
     calibrationId: string | null;
     lineReleaseId: string;
     source: string;
-    settings: unknown;
+    settings: RunSettings;
     lampChecked: boolean;
     softwareVersion: string;
     rangeMinNm: number;
     rangeMaxNm: number;
     noiseCounts: number;
-    peaks: unknown;
-    calls: unknown;
-    unexplained: unknown;
-    warnings: unknown;
+    peaks: RunPeak[];
+    calls: StoredRunCall[];
+    unexplained: RunUnexplainedPeak[];
+    warnings: RunWarning[];
     notes: string;
     versionNumber: number;
     amendsRunId: string | null;
@@ -37,8 +46,8 @@ export interface RunContentSource {
   overrides: {
     id: string;
     species: string;
-    computedVerdict: string;
-    verdict: string | null;
+    computedVerdict: Verdict;
+    verdict: Verdict | null;
     reason: string;
     createdById: string | null;
     createdAt: string;
@@ -50,12 +59,12 @@ export const RUN_CONTENT_FORMAT = "emberline-run-content/1";
 /** The record a signature covers. Calls carry the verdict that stands after the overrides. */
 export function buildRunContent(source: RunContentSource): Record<string, unknown> {
   const { run } = source;
-  const standing = new Map<string, string | null>();
-  for (const o of source.overrides) standing.set(o.species, o.verdict);
-  const calls = (run.calls as { species: string; verdict: string }[]).map((call) => {
-    const overridden = standing.has(call.species) ? standing.get(call.species) : undefined;
-    return { ...call, computedVerdict: call.verdict, standingVerdict: overridden ?? call.verdict };
-  });
+  const standing = standingVerdicts(run.calls, source.overrides);
+  const calls = run.calls.map((call) => ({
+    ...call,
+    computedVerdict: call.verdict,
+    standingVerdict: standing[call.species],
+  }));
   return {
     format: RUN_CONTENT_FORMAT,
     runId: run.id,

@@ -8,7 +8,8 @@ import { AppError, forbidden, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize, type TeamAction } from "@/lib/auth/policy";
 import { Run } from "@/models";
-import type { RunStatus } from "@/models/run";
+import { RUN_RECORD_ATTRIBUTES } from "./run-records";
+import type { RunStatus } from "@/lib/runs/types";
 
 export const STATUS_LABEL: Record<RunStatus, string> = {
   draft: "Draft",
@@ -28,7 +29,7 @@ export async function loadRun(
   // Every candidate line of every peak is kept with the run (megabytes against a large table); only
   // the peaks CSV and an amendment's copy read them, so the rest never load them.
   const row = await Run.findByPk(runId, {
-    attributes: withMatches ? undefined : { exclude: ["matches"] },
+    attributes: withMatches ? undefined : RUN_RECORD_ATTRIBUTES,
     transaction,
     lock: transaction ? transaction.LOCK.UPDATE : undefined,
   });

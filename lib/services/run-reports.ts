@@ -6,7 +6,7 @@ import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
 import { notFound } from "@/lib/errors";
 import { formatNotebookCallsCsv, type NotebookCallsRun } from "@/lib/reports/notebook-calls-csv";
-import { formatPeaksCsv, type StoredPeakMatch } from "@/lib/reports/peaks-csv";
+import { formatPeaksCsv } from "@/lib/reports/peaks-csv";
 import {
   buildRunReport,
   shortRunId,
@@ -35,7 +35,7 @@ import { loadNotebook } from "./notebooks";
 import { keepReportPdf, keptReportPdf } from "./report-cache";
 import { loadRun } from "./run-lifecycle";
 import { fetchRunSpectrum, runSpectrumOf } from "./run-spectrum";
-import { toRunRecord, toRunRecords } from "./runs";
+import { RUN_RECORD_ATTRIBUTES, loadRunRecordContext, toRunRecord } from "./run-records";
 
 /** Points drawn in the report's chart; each bucket keeps its extremes, so no line is lost. */
 const CHART_POINTS = 3000;
@@ -53,7 +53,7 @@ function baseName(run: { id: string; versionNumber: number }): string {
 
 /** The run a report is made from, without its candidate matches (no report shows them; 3 MB on a large table). */
 async function loadReportRun(actor: Actor, runId: string): Promise<Run> {
-  const row = await Run.findByPk(runId, { attributes: { exclude: ["matches"] } });
+  const row = await Run.findByPk(runId, { attributes: RUN_RECORD_ATTRIBUTES });
   if (!row) throw notFound("No such run.");
   authorize(actor, "team.view", { teamId: row.teamId });
   return row;
@@ -74,9 +74,9 @@ export async function fetchRunReport(actor: Actor, runId: string): Promise<Repor
  * and the chart are made from these rows rather than fetched again by the services that serve pages.
  */
 async function reportOf(row: Run): Promise<ReportAndChart> {
-  const [run, spectrumRow, calibrationRow, release, notebook, signature, rounds] =
+  const [context, spectrumRow, calibrationRow, release, notebook, signature, rounds] =
     await Promise.all([
-      toRunRecord(row),
+      loadRunRecordContext([row]),
       SpectrumFile.findByPk(row.spectrumId, { attributes: { exclude: ["rawBytes"] } }),
       row.calibrationId ? Calibration.findByPk(row.calibrationId) : Promise.resolve(null),
       LineRelease.findByPk(row.lineReleaseId, { attributes: ["id", "number", "publishedAt"] }),
@@ -85,6 +85,7 @@ async function reportOf(row: Run): Promise<ReportAndChart> {
       RunRound.findAll({ where: { runId: row.id }, order: [["round", "ASC"]] }),
     ]);
   if (!spectrumRow || !notebook) throw notFound("No such run.");
+  const run = toRunRecord(row, context);
   const instrument = await Instrument.findByPk(spectrumRow.instrumentId, {
     attributes: ["id", "name", "dispersion"],
   });
@@ -187,8 +188,8 @@ export async function runReportPdf(actor: Actor, runId: string): Promise<ReportF
 
 export async function runPeaksCsv(actor: Actor, runId: string): Promise<ReportFile> {
   const row = await loadRun(actor, runId, "team.view", undefined, { withMatches: true });
-  const run = await toRunRecord(row);
-  const body = formatPeaksCsv(run, row.matches as StoredPeakMatch[]);
+  const run = toRunRecord(row, await loadRunRecordContext([row]));
+  const body = formatPeaksCsv(run, row.matches);
   return {
     fileName: `${baseName(run)}-peaks.csv`,
     contentType: "text/csv; charset=utf-8; header=present",
@@ -250,14 +251,14 @@ export async function notebookCallsCsv(actor: Actor, notebookId: string): Promis
   const notebook = await loadNotebook(actor, notebookId);
   const rows = await Run.findAll({
     where: { notebookId: notebook.id },
-    // Every candidate line of every peak is stored with a run; the calls CSV reads none of it.
-    attributes: { exclude: ["matches"] },
+    attributes: RUN_RECORD_ATTRIBUTES,
     order: [
       ["createdAt", "ASC"],
       ["id", "ASC"],
     ],
   });
-  const runs = await toRunRecords(rows);
+  const context = await loadRunRecordContext(rows);
+  const runs = rows.map((row) => toRunRecord(row, context));
   const spectra = await SpectrumFile.findAll({
     where: { id: [...new Set(runs.map((r) => r.spectrumId))] },
     attributes: ["id", "instrumentId"],

@@ -33,7 +33,7 @@ import { fetchRunHistory } from "./run-review-history";
 import { assertMayDecide, supervisorsOf } from "./run-review-shared";
 import type { ReviewMarkRecord, RunHistory } from "./run-review-types";
 import { runContentOf } from "./run-signed-content";
-import type { RunCall } from "./run-types";
+import type { RunCall } from "@/lib/runs/types";
 
 /** What a signature says, recorded with it and shown beside it. */
 export const SIGNATURE_MEANING = "Reviewed and approved";

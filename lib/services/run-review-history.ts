@@ -4,7 +4,7 @@ import "server-only";
 import type { Actor } from "@/lib/auth/actor";
 import { can } from "@/lib/auth/policy";
 import { Run, RunReviewMark, RunRound, RunSignature, User } from "@/models";
-import type { RunStatus } from "@/models/run";
+import type { RunStatus } from "@/lib/runs/types";
 import { STATUS_LABEL, loadRun, lockReason } from "./run-lifecycle";
 import { decideRefusal, person, supervisorsOf } from "./run-review-shared";
 import type {

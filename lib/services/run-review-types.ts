@@ -1,6 +1,6 @@
 // The shapes of a run's review as pages and the API see them: rounds, marks, the signature, the
 // versions, what the signed-in person may do now, and the queue of runs waiting for a supervisor.
-import type { RunStatus } from "@/models/run";
+import type { RunStatus } from "@/lib/runs/types";
 
 export interface PersonRef {
   id: string;

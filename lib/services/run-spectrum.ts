@@ -12,7 +12,7 @@ import { loadRun } from "./run-lifecycle";
 import { loadSpectrum, spectrumPoints } from "./spectra";
 
 /** The file's own axis in nm: in air when its medium is known (tables give lines in air above 200 nm). */
-export function fileAxisInNm(spectrum: SpectrumFile): { x: Float64Array; y: Float64Array } {
+function fileAxisInNm(spectrum: SpectrumFile): { x: Float64Array; y: Float64Array } {
   const { x, y } = spectrumPoints(spectrum);
   if (spectrum.xUnit === "nm" || spectrum.xUnit === "pixel") return { x, y };
   const known = spectrum.xUnit === "wavenumber" || spectrum.medium !== null;
@@ -21,6 +21,17 @@ export function fileAxisInNm(spectrum: SpectrumFile): { x: Float64Array; y: Floa
     known ? { medium: "air", belowRange: "unchanged" } : {},
   );
   return { x: inNm.x, y: inNm.y };
+}
+
+/**
+ * The points a run's analysis reads: the sample on its own axis when a calibration maps it (the
+ * analysis puts them on the calibrated axis), else the file's own axis in nm.
+ */
+export function analysedPoints(
+  spectrum: SpectrumFile,
+  calibrated: boolean,
+): { x: Float64Array; y: Float64Array } {
+  return calibrated ? spectrumPoints(spectrum) : fileAxisInNm(spectrum);
 }
 
 /** A stored spectrum's points on its own axis, as plain arrays (for previews of uploads and lamps). */
@@ -59,21 +70,17 @@ export function runSpectrumOf(
   spectrum: SpectrumFile,
   calibration: Pick<Calibration, "model"> | null,
 ): RunSpectrum {
-  let x: Float64Array;
-  let y: Float64Array;
-  let continuum: Float64Array | null;
+  const points = analysedPoints(spectrum, calibration !== null);
+  let { x, y } = points;
+  let continuum = storedContinuum(run.continuum, points.x.length);
   if (calibration) {
-    const points = spectrumPoints(spectrum);
     const nm = evaluateCalibration(calibration.model, points.x);
     const keep: number[] = [];
     for (let i = 0; i < nm.length; i++) if (Number.isFinite(nm[i])) keep.push(i);
-    const analysed = storedContinuum(run.continuum, points.x.length);
+    const analysed = continuum;
     x = Float64Array.from(keep, (i) => nm[i]);
     y = Float64Array.from(keep, (i) => points.y[i]);
     continuum = analysed ? Float64Array.from(keep, (i) => analysed[i]) : null;
-  } else {
-    ({ x, y } = fileAxisInNm(spectrum));
-    continuum = storedContinuum(run.continuum, x.length);
   }
   if (x.length > 1 && x[0] > x[x.length - 1]) {
     x = x.slice().reverse();

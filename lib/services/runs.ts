@@ -6,23 +6,18 @@ import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
 import { toReferenceLine } from "@/lib/lines";
+import { standingOverride, standingVerdicts } from "@/lib/runs/standing-verdicts";
+import type { RunPeak, RunRecord, RunTemperature, StoredRunCall } from "@/lib/runs/types";
 import {
   analyzeSample,
   type AnalyzeSampleOptions,
   type DetectionLimit,
   type SampleAnalysis,
 } from "@/lib/spectrum/analysis";
-import { dispersionAt, type CalibrationModel } from "@/lib/spectrum/calibration";
-import {
-  prepareLineIndex,
-  type ElementCall,
-  type LineIndex,
-  type Verdict,
-} from "@/lib/spectrum/matching";
+import { prepareLineIndex, type ElementCall, type LineIndex } from "@/lib/spectrum/matching";
 import type { RunCreateInput, RunNotesInput, RunOverrideInput } from "@/lib/validation/run-schemas";
 import { pixelNumberingDiffers } from "@/lib/spectrum/io/stored-pixel-numbering";
 import { runHeavyTask } from "@/lib/workers/heavy-pool";
-import type { Transaction } from "sequelize";
 import {
   Calibration,
   Instrument,
@@ -31,7 +26,6 @@ import {
   Run,
   RunOverride,
   SpectrumFile,
-  User,
   sequelize,
 } from "@/models";
 import { recordAudit } from "./audit";
@@ -41,19 +35,17 @@ import { latestCalibrationOf } from "./instruments";
 import { selectLines } from "./line-library-access";
 import { toLineTableRow } from "./line-library-rows";
 import { loadNotebook } from "./notebooks";
+import {
+  RUN_RECORD_ATTRIBUTES,
+  loadRunRecordContext,
+  overridesByRun,
+  toRunRecord,
+} from "./run-records";
 import { assertAuthorMayEdit, loadRun } from "./run-lifecycle";
-import { fileAxisInNm } from "./run-spectrum";
-import { loadSpectrum, spectrumPoints, storedAxisFacts } from "./spectra";
+import { analysedPoints } from "./run-spectrum";
+import { loadSpectrum, storedAxisFacts } from "./spectra";
+import type { RunChanges } from "./run-types";
 import { SOFTWARE_VERSION } from "./software-version";
-import type {
-  RunCall,
-  RunChanges,
-  RunOverrideRecord,
-  RunPeak,
-  RunRecord,
-  RunTemperature,
-  StoredRunCall,
-} from "./run-types";
 
 // Published releases never change, so an index prepared once per release serves every later run.
 // Its lines are loaded in wavelength order: the order is then the same on every load (ties between
@@ -140,143 +132,11 @@ function toRunCall(call: ElementCall, limit: DetectionLimit | undefined): Stored
   };
 }
 
-/** The override history of several runs at once (one query), oldest first per run, as standingVerdicts expects. */
-export async function overridesByRun(
-  runIds: readonly string[],
-  transaction?: Transaction,
-): Promise<Map<string, RunOverrideRecord[]>> {
-  const byRun = new Map<string, RunOverrideRecord[]>();
-  if (runIds.length === 0) return byRun;
-  const rows = await RunOverride.findAll({
-    where: { runId: [...runIds] },
-    include: [{ model: User, as: "createdBy", attributes: ["name"] }],
-    order: [
-      ["createdAt", "ASC"],
-      ["id", "ASC"],
-    ],
-    transaction,
-  });
-  for (const o of rows) {
-    const list = byRun.get(o.runId) ?? [];
-    list.push({
-      id: o.id,
-      species: o.species,
-      computedVerdict: o.computedVerdict,
-      verdict: o.verdict,
-      reason: o.reason,
-      byName: (o as RunOverride & { createdBy?: User }).createdBy?.name ?? null,
-      at: o.createdAt.toISOString(),
-    });
-    byRun.set(o.runId, list);
-  }
-  return byRun;
-}
-
-async function overridesOf(runId: string, transaction?: Transaction): Promise<RunOverrideRecord[]> {
-  return (await overridesByRun([runId], transaction)).get(runId) ?? [];
-}
-
-/** The verdict that stands per species: the newest override, else the computed verdict. */
-export function standingVerdicts(
-  calls: readonly StoredRunCall[],
-  overrides: readonly RunOverrideRecord[],
-): Record<string, Verdict> {
-  const verdicts: Record<string, Verdict> = {};
-  for (const call of calls) verdicts[call.species] = call.verdict;
-  for (const o of overrides) {
-    const computed = calls.find((c) => c.species === o.species)?.verdict ?? o.computedVerdict;
-    verdicts[o.species] = o.verdict ?? computed;
-  }
-  return verdicts;
-}
-
-/**
- * Run records of several runs with two queries in all (their overrides, their releases' numbers),
- * whatever their number: a notebook's calls CSV reads every run of it.
- */
-export async function toRunRecords(
-  rows: readonly Run[],
-  transaction?: Transaction,
-): Promise<RunRecord[]> {
-  if (rows.length === 0) return [];
-  const [overrides, releases] = await Promise.all([
-    overridesByRun(
-      rows.map((r) => r.id),
-      transaction,
-    ),
-    LineRelease.findAll({
-      where: { id: [...new Set(rows.map((r) => r.lineReleaseId))] },
-      attributes: ["id", "number"],
-      transaction,
-    }),
-  ]);
-  const numberOf = new Map(releases.map((r) => [r.id, r.number]));
-  return rows.map((row) =>
-    runRecordOf(row, overrides.get(row.id) ?? [], numberOf.get(row.lineReleaseId) ?? null),
-  );
-}
-
-export async function toRunRecord(row: Run, transaction?: Transaction): Promise<RunRecord> {
-  return (await toRunRecords([row], transaction))[0];
-}
-
-function runRecordOf(
-  row: Run,
-  overrides: RunOverrideRecord[],
-  releaseNumber: number | null,
-): RunRecord {
-  const stored = row.calls as StoredRunCall[];
-  const verdicts = standingVerdicts(stored, overrides);
-  const calls: RunCall[] = stored.map((c) => {
-    const newest = overrides.findLast((o) => o.species === c.species) ?? null;
-    return {
-      ...c,
-      verdict: verdicts[c.species] ?? c.verdict,
-      computedVerdict: c.verdict,
-      override: newest && newest.verdict !== null ? newest : null,
-    };
-  });
-  return {
-    id: row.id,
-    notebookId: row.notebookId,
-    spectrumId: row.spectrumId,
-    calibrationId: row.calibrationId,
-    lineReleaseId: row.lineReleaseId,
-    lineReleaseNumber: releaseNumber,
-    source: row.source,
-    status: row.status,
-    versionNumber: row.versionNumber,
-    amendsRunId: row.amendsRunId,
-    rerunOfId: row.rerunOfId,
-    createdById: row.createdById,
-    notes: row.notes,
-    lockVersion: row.lockVersion,
-    reviewRound: row.reviewRound,
-    requestedReviewerId: row.requestedReviewerId,
-    submittedAt: row.submittedAt?.toISOString() ?? null,
-    signedAt: row.signedAt?.toISOString() ?? null,
-    settings: row.settings as RunRecord["settings"],
-    lampChecked: row.lampChecked,
-    softwareVersion: row.softwareVersion,
-    rangeNm: [row.rangeMinNm, row.rangeMaxNm],
-    noiseCounts: row.noiseCounts,
-    warnings: row.warnings as RunRecord["warnings"],
-    peaks: row.peaks as RunPeak[],
-    calls,
-    verdicts,
-    overrides,
-    temperature: (row.temperature as RunTemperature | null) ?? null,
-    unexplained: row.unexplained as RunRecord["unexplained"],
-    createdAt: row.createdAt.toISOString(),
-  };
-}
-
 export async function fetchRun(actor: Actor, runId: string): Promise<RunRecord> {
-  // A run's record does not carry the stored candidate lines (megabytes against a large table).
-  const row = await Run.findByPk(runId, { attributes: { exclude: ["matches"] } });
+  const row = await Run.findByPk(runId, { attributes: RUN_RECORD_ATTRIBUTES });
   if (!row) throw notFound("No such run.");
   authorize(actor, "team.view", { teamId: row.teamId });
-  return await toRunRecord(row);
+  return toRunRecord(row, await loadRunRecordContext([row]));
 }
 
 export async function createRun(actor: Actor, input: RunCreateInput): Promise<RunRecord> {
@@ -377,7 +237,7 @@ export async function rerunRun(actor: Actor, runId: string): Promise<RunRecord> 
     calibration,
     release,
     source: earlier.source,
-    settings: earlier.settings as RunRecord["settings"],
+    settings: earlier.settings,
     rerunOf: earlier,
   });
 }
@@ -393,28 +253,6 @@ export async function newerReleaseFor(
     LineRelease.findByPk(run.lineReleaseId, { attributes: ["number"] }),
   ]);
   return newest.id !== run.lineReleaseId && newest.number > (used?.number ?? 0) ? newest : null;
-}
-
-/**
- * The instrument's resolution for the analysis. A grating's is about constant in nm. A prism's slit
- * image is about constant in pixels while its dispersion changes several-fold across the array, so
- * the instrument's one number (its FWHM near the middle) becomes pixels through the calibration's
- * local dispersion there; each peak then gets its own width in nm from the dispersion at its pixel.
- * A prism on the file's own axis has no known pixel layout: the core then uses each peak's width.
- */
-function instrumentResolution(
-  instrument: Instrument,
-  calibration: CalibrationModel | null,
-  x: Float64Array,
-): { resolutionNm?: number; resolutionPx?: number } {
-  if (instrument.dispersion === "grating") return { resolutionNm: instrument.resolutionNm };
-  if (!calibration || x.length < 2) return {};
-  const slope = Math.abs(
-    dispersionAt(calibration, Float64Array.of(0.5 * (x[0] + x[x.length - 1])))[0],
-  );
-  return slope > 0 && Number.isFinite(slope)
-    ? { resolutionPx: instrument.resolutionNm / slope }
-    : {};
 }
 
 function toRunTemperature(temperature: SampleAnalysis["temperature"]): RunTemperature {
@@ -446,13 +284,14 @@ async function analyseAndStore(actor: Actor, plan: RunPlan): Promise<RunRecord> 
   const { notebook, spectrum, instrument, calibration, release, source, settings, rerunOf } = plan;
   const index = await lineIndexOf(release.id);
   // Without a calibration the file's own wavelength axis is used, in nm and (when known) in air.
-  const { x, y } = calibration ? spectrumPoints(spectrum) : fileAxisInNm(spectrum);
+  const { x, y } = analysedPoints(spectrum, calibration !== null);
   let analysis: SampleAnalysis;
   try {
     analysis = await analyzeOffThreadWhenLarge(x, y, release.id, index, {
       calibration: calibration?.model ?? null,
       source,
-      ...instrumentResolution(instrument, calibration?.model ?? null, x),
+      resolutionNm: instrument.resolutionNm,
+      dispersion: instrument.dispersion,
       detectorMax: instrument.detectorMax ?? undefined,
       minSnr: settings.minSnr,
       k: settings.k,
@@ -555,7 +394,7 @@ async function analyseAndStore(actor: Actor, plan: RunPlan): Promise<RunRecord> 
       },
       transaction,
     );
-    return await toRunRecord(row, transaction);
+    return toRunRecord(row, await loadRunRecordContext([row], transaction));
   });
 }
 
@@ -572,17 +411,16 @@ export async function overrideCall(
   return sequelize.transaction(async (transaction) => {
     const run = await loadRun(actor, runId, "run.edit", transaction);
     assertAuthorMayEdit(actor, run);
-    const calls = run.calls as StoredRunCall[];
+    const calls = run.calls;
     const call = calls.find((c) => c.species === input.species);
     if (!call) {
       throw new AppError("validation", `This run has no call for ${input.species}.`, {
         fieldErrors: { species: [`Choose one of the run's species (${calls.length} weighed).`] },
       });
     }
-    const overrides = await overridesOf(run.id, transaction);
+    const overrides = (await overridesByRun([run.id], transaction)).get(run.id) ?? [];
     const before = standingVerdicts(calls, overrides)[call.species];
-    const newest = overrides.findLast((o) => o.species === call.species);
-    if (input.verdict === null && (!newest || newest.verdict === null)) {
+    if (input.verdict === null && standingOverride(overrides, call.species) === null) {
       throw new AppError(
         "validation",
         `The call for ${call.species} has no override to withdraw.`,
@@ -620,7 +458,7 @@ export async function overrideCall(
       },
       transaction,
     );
-    return await toRunRecord(run, transaction);
+    return toRunRecord(run, await loadRunRecordContext([run], transaction));
   });
 }
 
@@ -639,7 +477,8 @@ export async function updateRunNotes(
         "The notes were changed since you opened them: reload the run, then write your change again.",
       );
     }
-    if (run.notes === input.notes) return await toRunRecord(run, transaction);
+    if (run.notes === input.notes)
+      return toRunRecord(run, await loadRunRecordContext([run], transaction));
     const before = run.notes;
     await run.update({ notes: input.notes, lockVersion: run.lockVersion + 1 }, { transaction });
     await recordAudit(
@@ -654,7 +493,7 @@ export async function updateRunNotes(
       },
       transaction,
     );
-    return await toRunRecord(run, transaction);
+    return toRunRecord(run, await loadRunRecordContext([run], transaction));
   });
 }
 

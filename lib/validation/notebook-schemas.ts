@@ -4,7 +4,7 @@
 import { z } from "zod";
 import { text } from "./text";
 import { AppError } from "@/lib/errors";
-import { RUN_STATUSES, type RunStatus } from "@/models/run";
+import { RUN_STATUSES, type RunStatus } from "@/lib/runs/types";
 import { zodFieldErrors } from "./field-errors";
 import { blank } from "./form-data";
 

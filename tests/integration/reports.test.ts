@@ -10,7 +10,7 @@ import path from "node:path";
 import Papa from "papaparse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { detectionLimitText } from "@/lib/reports/detection-limit-text";
-import type { StoredDetectionLimit } from "@/lib/services/run-types";
+import type { StoredDetectionLimit } from "@/lib/runs/types";
 import { parseSpectrumFile, resampleEvenly } from "@/lib/spectrum/io";
 import { validateStrictJcamp } from "../support/jcamp-strict-validator";
 import { APP_URL, ApiClient } from "./support/http-client";

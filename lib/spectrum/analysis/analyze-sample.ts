@@ -40,6 +40,14 @@ export interface AnalyzeSampleOptions {
    * at the middle of the array and turned into resolutionPx there (see resolutionPx).
    * @default estimated (see resolutionPx) */
   resolutionNm?: number;
+  /** The instrument's disperser. A grating's resolution is about constant in nm. A prism's slit
+   * image is about constant in pixels while its dispersion changes several-fold across the array,
+   * so its one resolutionNm (its FWHM near the middle) serves only a calibrated pixel axis, through
+   * the dispersion there; on an axis used as it is (no pixel layout known) a prism's resolutionNm
+   * is not used, nor is it when the calibration's dispersion at the middle is not usable: the width
+   * is then read from the peaks (see resolutionPx).
+   * @default "grating" */
+  dispersion?: "grating" | "prism";
   /** Instrument line-profile FWHM in pixels (the slit image, about constant across the array),
    * for a calibrated pixel axis only. Each peak then gets the resolution in nm at its own
    * wavelength (this × |dλ/dx| there) for the matching tolerance, and peaks wider than
@@ -192,7 +200,8 @@ export function analyzeSample(
   // A heavily oversampled array (a line thousands of samples wide) is averaged down to a few samples
   // per line first, as calibrateLamp does: the smoothing window and the peak finder expect lines a
   // few samples wide. Peak centres and widths stay on the input axis (binSamples keeps mean x).
-  const lineSamples = x.length > 1 ? lineWidthInSamples(x, calibration, options) : Number.NaN;
+  const stated = statedInstrumentWidth(x, calibration, options);
+  const lineSamples = x.length > 1 ? lineWidthInSamples(x, stated) : Number.NaN;
   const binningFactor = x.length > 1 ? binningFactorFor(lineSamples) : 1;
   const binned = binningFactor > 1 ? binSamples(x, y, { factor: binningFactor }) : { x, y };
   const signal = prepareSignal(binned.x, binned.y, {
@@ -201,7 +210,7 @@ export function analyzeSample(
     smoothing: { windowSize: smoothingWindowFor(lineSamples / binningFactor), polynomial: 4 },
   });
   const picked = pickPeaks(binned.x, signal, { ...options.peakOptions, minSnr });
-  const instrumentWidth = resolveInstrumentWidth(binned.x, picked, calibration, options);
+  const instrumentWidth = stated ?? estimatedInstrumentWidth(picked, calibration, options);
   const peaks = calibratePeaks(picked, {
     calibration,
     instrumentFwhm: instrumentWidth?.trend
@@ -224,7 +233,7 @@ export function analyzeSample(
   }
   const identification = identifyElements(peaks, index, {
     k,
-    resolutionNm,
+    resolutionNm: stated?.basis === "resolutionNm" ? resolutionNm : undefined,
     source,
     rangeNm,
     judgedRangeNm,
@@ -276,26 +285,13 @@ function nearestSample(axis: Float64Array, at: number): number {
 }
 
 /**
- * How many input samples one instrument line spans: from resolutionPx or resolutionNm when given,
- * else (like calibrateLamp) a line a 500th of the array wide, the order of a small spectrometer's
+ * How many input samples one instrument line spans: from the stated width when there is one, else
+ * (like calibrateLamp) a line a 500th of the array wide, the order of a small spectrometer's
  * resolving power over its range (common practice).
  */
-function lineWidthInSamples(
-  x: Float64Array,
-  calibration: CalibrationModel | null,
-  options: AnalyzeSampleOptions,
-): number {
+function lineWidthInSamples(x: Float64Array, stated: InstrumentWidth | null): number {
   const step = Math.abs(x[x.length - 1] - x[0]) / (x.length - 1);
-  const { resolutionNm, resolutionPx } = options;
-  if (calibration && resolutionPx !== undefined) return resolutionPx / step;
-  if (resolutionNm !== undefined) {
-    if (!calibration) return resolutionNm / step;
-    const slope = Math.abs(
-      dispersionAt(calibration, Float64Array.of(0.5 * (x[0] + x[x.length - 1])))[0],
-    );
-    if (slope > 0 && Number.isFinite(slope)) return resolutionNm / slope / step;
-  }
-  return (x.length - 1) / 500;
+  return stated ? stated.fwhm / step : (x.length - 1) / 500;
 }
 
 /** Linear interpolation of (fromX, fromY), fromX ascending, at each of `at` (held flat past the ends). */
@@ -320,22 +316,48 @@ function interpolateOnto(fromX: Float64Array, fromY: Float64Array, at: Float64Ar
 }
 
 /**
- * resolutionPx as given; else resolutionNm over the dispersion at the array's middle (a grating's
- * is nearly constant; for a prism the chemist's one number is best read as its middle); else the
- * median width of the clearest peaks. Without a calibration, a given resolutionNm, else the
- * power law the clean peaks' widths follow along the axis (estimateInstrumentFwhmTrend): a prism's
- * width in nm grows several-fold to the red, so no one number serves it.
+ * The instrument's width from what the caller states, the one place it is worked out: resolutionPx
+ * as given; else resolutionNm over the dispersion at the array's middle (a grating's is nearly
+ * constant; for a prism the chemist's one number is best read as its middle); without a
+ * calibration, a grating's resolutionNm as it is. Null when nothing usable is stated (a prism's
+ * resolutionNm on an axis used as it is, or where its calibration's dispersion at the middle is
+ * not usable): the width is then estimated from the peaks.
  */
-function resolveInstrumentWidth(
+function statedInstrumentWidth(
   x: Float64Array,
+  calibration: CalibrationModel | null,
+  options: AnalyzeSampleOptions,
+): InstrumentWidth | null {
+  const { resolutionNm, resolutionPx, dispersion = "grating" } = options;
+  if (calibration && resolutionPx !== undefined)
+    return { fwhm: resolutionPx, unit: "px", basis: "resolutionPx" };
+  if (resolutionNm === undefined) return null;
+  if (!calibration) {
+    return dispersion === "prism"
+      ? null
+      : { fwhm: resolutionNm, unit: "nm", basis: "resolutionNm" };
+  }
+  const middle = Float64Array.of(0.5 * (x[0] + x[x.length - 1]));
+  const slope = Math.abs(dispersionAt(calibration, middle)[0]);
+  if (slope > 0 && Number.isFinite(slope))
+    return { fwhm: resolutionNm / slope, unit: "px", basis: "resolutionNm" };
+  if (dispersion === "prism") return null;
+  throw new RangeError(
+    `the calibration's dispersion at the array's middle is not usable (${slope} nm per pixel)`,
+  );
+}
+
+/**
+ * Without a stated width: the median width of the clearest peaks on a calibrated axis; on an axis
+ * in nm, the power law the clean peaks' widths follow along it (estimateInstrumentFwhmTrend): a
+ * prism's width in nm grows several-fold to the red, so no one number serves it.
+ */
+function estimatedInstrumentWidth(
   peaks: Peak[],
   calibration: CalibrationModel | null,
   options: AnalyzeSampleOptions,
 ): InstrumentWidth | null {
-  const { resolutionNm, resolutionPx } = options;
   if (!calibration) {
-    if (resolutionNm !== undefined)
-      return { fwhm: resolutionNm, unit: "nm", basis: "resolutionNm" };
     const trend = estimateInstrumentFwhmTrend(peaks, options.resolutionTrend);
     return trend === null
       ? null
@@ -345,17 +367,6 @@ function resolveInstrumentWidth(
           basis: "estimated",
           trend: { referenceX: trend.referenceX, exponent: trend.exponent },
         };
-  }
-  if (resolutionPx !== undefined) return { fwhm: resolutionPx, unit: "px", basis: "resolutionPx" };
-  if (resolutionNm !== undefined) {
-    const middle = Float64Array.of(0.5 * (x[0] + x[x.length - 1]));
-    const slope = Math.abs(dispersionAt(calibration, middle)[0]);
-    if (!(slope > 0) || !Number.isFinite(slope)) {
-      throw new RangeError(
-        `the calibration's dispersion at the array's middle is not usable (${slope} nm per pixel)`,
-      );
-    }
-    return { fwhm: resolutionNm / slope, unit: "px", basis: "resolutionNm" };
   }
   const estimated = estimateInstrumentFwhm(peaks, options.resolutionEstimate);
   return estimated === null ? null : { fwhm: estimated, unit: "px", basis: "estimated" };

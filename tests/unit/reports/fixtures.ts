@@ -1,9 +1,8 @@
 // Plain records for the report tests: a small flame run with a sodium doublet, a potassium line and
 // an unexplained peak, its calibration, and the stored candidate matches.
-import type { CalibrationRecord } from "@/lib/services/calibration-types";
-import type { RunCall, RunRecord } from "@/lib/services/run-types";
+import type { CalibrationRecord } from "@/lib/calibrations/types";
+import type { RunCall, RunRecord, StoredPeakMatch } from "@/lib/runs/types";
 import type { RunReportInput } from "@/lib/reports/report-model";
-import type { StoredPeakMatch } from "@/lib/reports/peaks-csv";
 
 // Na I 588.995 / 589.592 nm and K I 766.490 nm in air (from memory).
 export const NA_D2 = 588.995;

@@ -7,7 +7,7 @@ import { chartLabelsFromCalls } from "@/lib/reports/chart-geometry";
 import { formatNotebookCallsCsv } from "@/lib/reports/notebook-calls-csv";
 import { buildRunReport } from "@/lib/reports/report-model";
 import Papa from "papaparse";
-import { standingVerdictsForTest } from "./standing";
+import { standingVerdicts } from "@/lib/runs/standing-verdicts";
 import { NA_D2, sampleInput, sampleRun } from "./fixtures";
 
 describe("an overridden call reads the same everywhere", () => {
@@ -24,7 +24,7 @@ describe("an overridden call reads the same everywhere", () => {
       at: "2026-03-01T11:00:00.000Z",
     },
   ];
-  run.verdicts = standingVerdictsForTest(run);
+  run.verdicts = standingVerdicts(run.calls, run.overrides);
   // As the service hands calls to pages: `verdict` is the standing one.
   run.calls = run.calls.map((c) =>
     c.species === "Na I"

@@ -3,7 +3,7 @@
 import { describe, expect, it } from "vitest";
 import { buildRunReport, shortRunId } from "@/lib/reports/report-model";
 import { SCREENING_CAVEAT } from "@/lib/reports/report-text";
-import { standingVerdictsForTest } from "./standing";
+import { standingVerdicts } from "@/lib/runs/standing-verdicts";
 import { sampleCalibration, sampleInput, sampleRun } from "./fixtures";
 
 describe("buildRunReport", () => {
@@ -43,7 +43,7 @@ describe("buildRunReport", () => {
         at: "2026-03-01T11:05:00.000Z",
       },
     ];
-    run.verdicts = standingVerdictsForTest(run);
+    run.verdicts = standingVerdicts(run.calls, run.overrides);
     const report = buildRunReport(sampleInput(run));
     const ba = report.calls.find((c) => c.species === "Ba I")!;
     expect(ba.verdict).toBe("possible");

@@ -173,4 +173,22 @@ describe("analyzeSample on features much wider than the instrument's line", () =
       analyzeSample(sample.x, sample.y, table, { calibration, resolutionPx: 0 }),
     ).toThrow(/resolutionPx/);
   });
+
+  it("turns a prism's resolutionNm into pixels at the middle of a calibrated axis, and reads the width from the peaks on an axis in nm", () => {
+    const onPixels = analyzeSample(sample.x, sample.y, table, {
+      calibration,
+      resolutionNm: RESOLUTION_NM,
+      dispersion: "prism",
+    });
+    expect(onPixels.instrumentWidth?.basis).toBe("resolutionNm");
+    expect(onPixels.instrumentWidth?.unit).toBe("px");
+    expect(onPixels.instrumentWidth!.fwhm / (RESOLUTION_NM / NM_PER_PX) - 1).toBeCloseTo(0, 9);
+    const x = Float64Array.from(sample.x, wavelengthOfPixel);
+    const onNm = analyzeSample(x, sample.y, table, {
+      resolutionNm: RESOLUTION_NM,
+      dispersion: "prism",
+    });
+    expect(onNm.instrumentWidth).toEqual(analyzeSample(x, sample.y, table, {}).instrumentWidth);
+    expect(onNm.instrumentWidth?.basis).toBe("estimated");
+  });
 });
