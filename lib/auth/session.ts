@@ -3,6 +3,7 @@ import "server-only";
 import { getIronSession, unsealData, type SessionOptions } from "iron-session";
 import { cookies, headers } from "next/headers";
 import { env, sessionSecret } from "@/lib/env";
+import { unauthenticated } from "@/lib/errors";
 import { actorFromAccessToken, loadSessionActor } from "@/lib/services/accounts";
 import { openSession, revokeSession, SESSION_HOURS } from "@/lib/services/sessions";
 import type { Actor } from "./actor";
@@ -72,6 +73,13 @@ export async function currentActor(): Promise<Actor | null> {
   }
   const { sessionId } = await readSessionData();
   return sessionId ? loadSessionActor(sessionId) : null;
+}
+
+/** The person behind this request, or 401 ("Sign in first."): for route handlers and server actions. */
+export async function requireActor(): Promise<Actor> {
+  const actor = await currentActor();
+  if (!actor) throw unauthenticated();
+  return actor;
 }
 
 /** True when the request authenticates with a Bearer token (no cookie, so no CSRF risk). */

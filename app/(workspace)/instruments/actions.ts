@@ -3,8 +3,7 @@
 // calls one service and maps the result; the service authorises. (Calibrating is saved from the workbench's own action.)
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
-import { currentActor } from "@/lib/auth/session";
-import { unauthenticated } from "@/lib/errors";
+import { requireActor } from "@/lib/auth/session";
 import { createInstrument, updateInstrument } from "@/lib/services/instruments";
 import { formError, type FormState } from "@/lib/validation/form-state";
 import { idParam } from "@/lib/validation/line-schemas";
@@ -15,12 +14,6 @@ import {
   invalidFormState,
 } from "@/lib/validation/workflow-forms";
 
-async function actorOrThrow() {
-  const actor = await currentActor();
-  if (!actor) throw unauthenticated();
-  return actor;
-}
-
 export async function createInstrumentAction(
   _state: FormState,
   formData: FormData,
@@ -29,7 +22,7 @@ export async function createInstrumentAction(
   if (!parsed.success) return invalidFormState(parsed.error, formValues(formData));
   let id: string;
   try {
-    id = (await createInstrument(await actorOrThrow(), parsed.data)).id;
+    id = (await createInstrument(await requireActor(), parsed.data)).id;
   } catch (error) {
     return { ...formError(error), values: formValues(formData) };
   }
@@ -47,7 +40,7 @@ export async function updateInstrumentAction(
   let id: string;
   try {
     id = idParam(String(formData.get("instrumentId") ?? ""), "No such instrument.");
-    await updateInstrument(await actorOrThrow(), id, parsed.data);
+    await updateInstrument(await requireActor(), id, parsed.data);
   } catch (error) {
     return { ...formError(error), values: formValues(formData) };
   }

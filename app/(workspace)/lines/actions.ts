@@ -5,8 +5,8 @@
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { z } from "zod";
-import { currentActor } from "@/lib/auth/session";
-import { AppError, unauthenticated } from "@/lib/errors";
+import { requireActor } from "@/lib/auth/session";
+import { AppError } from "@/lib/errors";
 import {
   addLine,
   applyImport,
@@ -43,12 +43,6 @@ import {
 
 const CONFLICT_MESSAGE = "Someone else changed this line first. Reload to see their change.";
 
-async function actorOrThrow() {
-  const actor = await currentActor();
-  if (!actor) throw unauthenticated();
-  return actor;
-}
-
 /** Like formError, with the optimistic-locking answer (409) worded for the line library. */
 function lineFormError(error: unknown): LineFormState {
   if (
@@ -67,7 +61,7 @@ function revalidateLines() {
 
 export async function openDraftAction(formData: FormData): Promise<void> {
   const teamId = z.uuid().parse(formData.get("teamId"));
-  await openDraft(await actorOrThrow(), teamId);
+  await openDraft(await requireActor(), teamId);
   revalidateLines();
   redirect("/lines/draft");
 }
@@ -85,7 +79,7 @@ export async function addLineAction(
     };
   }
   try {
-    await addLine(await actorOrThrow(), {
+    await addLine(await requireActor(), {
       releaseId: data.releaseId,
       line: values.input,
       reason: data.reason,
@@ -114,7 +108,7 @@ export async function correctLineAction(
     };
   }
   try {
-    await updateLine(await actorOrThrow(), {
+    await updateLine(await requireActor(), {
       lineId: data.lineId,
       version: data.version,
       line: values.input,
@@ -141,7 +135,7 @@ export async function changeLineAction(
   if (state) return state;
   const change = { retire: retireLine, restore: restoreLine, verify: verifyLine }[data.change];
   try {
-    await change(await actorOrThrow(), {
+    await change(await requireActor(), {
       lineId: data.lineId,
       version: data.version,
       reason: data.reason,
@@ -180,7 +174,7 @@ async function previewImportStep(formData: FormData): Promise<ImportFormState> {
   );
   if (state) return state;
   try {
-    const preview = await previewImport(await actorOrThrow(), {
+    const preview = await previewImport(await requireActor(), {
       releaseId: data.releaseId,
       csvText: data.csv,
     });
@@ -201,7 +195,7 @@ async function applyImportStep(
   let result: { added: number; changed: number };
   try {
     // The lead has seen the rejected rows in the preview: applying means "without them".
-    result = await applyImport(await actorOrThrow(), {
+    result = await applyImport(await requireActor(), {
       releaseId: data.releaseId,
       csvText: data.csv,
       fingerprint: data.fingerprint,
@@ -251,7 +245,7 @@ async function previewReferenceStep(formData: FormData): Promise<ReferenceCheckF
   );
   if (state) return state;
   try {
-    const preview = await previewReferenceCheck(await actorOrThrow(), {
+    const preview = await previewReferenceCheck(await requireActor(), {
       releaseId: data.releaseId,
       csvText: data.csv,
       medium: data.medium,
@@ -271,7 +265,7 @@ async function applyReferenceStep(
   if (parsed.state) return { ...state, ...parsed.state, ok: false };
   const { data } = parsed;
   try {
-    const applied = await applyReferenceCheck(await actorOrThrow(), {
+    const applied = await applyReferenceCheck(await requireActor(), {
       releaseId: data.releaseId,
       csvText: data.csv,
       medium: data.medium,
@@ -320,7 +314,7 @@ export async function publishAction(
   if (state) return state;
   let number: number | null;
   try {
-    const release = await publishDraft(await actorOrThrow(), {
+    const release = await publishDraft(await requireActor(), {
       releaseId: data.releaseId,
       notes: data.notes,
     });

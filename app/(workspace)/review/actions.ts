@@ -4,9 +4,8 @@
 import { revalidatePath } from "next/cache";
 import { headers } from "next/headers";
 import { redirect } from "next/navigation";
-import { currentActor } from "@/lib/auth/session";
+import { requireActor } from "@/lib/auth/session";
 import { clientAddress } from "@/lib/http/client-address";
-import { unauthenticated } from "@/lib/errors";
 import { addReviewMark, amendRun, reviewRun, submitRun } from "@/lib/services/run-review";
 import { formError, type FormState } from "@/lib/validation/form-state";
 import { zodFieldErrors } from "@/lib/validation/field-errors";
@@ -15,12 +14,6 @@ import {
   markInputFromForm,
   submitInputFromForm,
 } from "@/lib/validation/review-schemas";
-
-async function actorOrThrow() {
-  const actor = await currentActor();
-  if (!actor) throw unauthenticated();
-  return actor;
-}
 
 const runIdOf = (formData: FormData) => String(formData.get("runId") ?? "");
 
@@ -42,7 +35,7 @@ export async function submitRunAction(_state: FormState, formData: FormData): Pr
   if (!parsed.success) return invalid(parsed.error);
   const runId = runIdOf(formData);
   try {
-    await submitRun(await actorOrThrow(), runId, parsed.data);
+    await submitRun(await requireActor(), runId, parsed.data);
   } catch (error) {
     return formError(error);
   }
@@ -54,7 +47,7 @@ export async function amendRunAction(_state: FormState, formData: FormData): Pro
   const runId = runIdOf(formData);
   let amendmentId: string;
   try {
-    amendmentId = (await amendRun(await actorOrThrow(), runId)).id;
+    amendmentId = (await amendRun(await requireActor(), runId)).id;
   } catch (error) {
     return formError(error);
   }
@@ -68,7 +61,7 @@ export async function addMarkAction(_state: FormState, formData: FormData): Prom
   if (!parsed.success) return invalid(parsed.error, values);
   const runId = runIdOf(formData);
   try {
-    await addReviewMark(await actorOrThrow(), runId, parsed.data);
+    await addReviewMark(await requireActor(), runId, parsed.data);
   } catch (error) {
     return { ...formError(error), values };
   }
@@ -83,7 +76,7 @@ export async function decideRunAction(_state: FormState, formData: FormData): Pr
   const runId = runIdOf(formData);
   const address = clientAddress(await headers());
   try {
-    await reviewRun(await actorOrThrow(), runId, parsed.data, { address });
+    await reviewRun(await requireActor(), runId, parsed.data, { address });
   } catch (error) {
     return { ...formError(error), values };
   }

@@ -2,7 +2,8 @@
 // format=csv every matching event as a CSV download. Filters: teamId, actorId, entity, entityId,
 // action (exact, or a prefix ending in "."), from/to (whole days in UTC, inclusive), cursor, limit.
 import { AppError } from "@/lib/errors";
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { exportAuditCsv, fetchAuditPage } from "@/lib/services/audit";
 import { auditQuerySchema } from "@/lib/validation/audit-schemas";
 import { zodFieldErrors } from "@/lib/validation/field-errors";

@@ -1,5 +1,6 @@
 // GET the team's instruments; POST creates one (lab leads).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { createInstrument, fetchInstruments } from "@/lib/services/instruments";
 import { instrumentCreateSchema, teamIdQuery } from "@/lib/validation/workflow-schemas";
 

@@ -1,5 +1,6 @@
 // GET lines of a release, filtered, sorted and paginated (default: the team's newest published release).
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { AppError } from "@/lib/errors";
 import { fetchLines, fetchReleases } from "@/lib/services/line-library";
 import { lineQuerySchema } from "@/lib/validation/line-schemas";

@@ -1,5 +1,6 @@
 // GET the team's notebooks (?teamId=&q=: title search, run counts, newest activity first); POST creates one.
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { createNotebook, fetchNotebooks } from "@/lib/services/notebooks";
 import { notebookListQuerySchema, parseQuery } from "@/lib/validation/notebook-schemas";
 import { notebookCreateSchema, teamIdQuery } from "@/lib/validation/workflow-schemas";

@@ -1,5 +1,6 @@
 // GET the team's line-table releases, the draft first, then the newest published.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { AppError } from "@/lib/errors";
 import { fetchReleases } from "@/lib/services/line-library";
 import { z } from "zod";

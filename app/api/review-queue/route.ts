@@ -1,6 +1,7 @@
 // GET the runs of a team waiting for the signed-in supervisor's review, oldest first, with filters.
 import { AppError } from "@/lib/errors";
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { fetchReviewQueue } from "@/lib/services/run-review";
 import { zodFieldErrors } from "@/lib/validation/field-errors";
 import { reviewQueueQueryFrom } from "@/lib/validation/review-schemas";

@@ -2,7 +2,8 @@
 // POST uploads a spectrum file (multipart: file, instrumentId, kind, label, optional xUnit and medium) and stores it;
 // POST /api/spectra/preview checks the same form without storing. Route handlers, not server actions,
 // and outside the proxy's matcher, so no body cap applies but ours (UPLOAD_ROUTE_OPTIONS, read before sign-in is checked).
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { fetchSpectra, uploadSpectrum } from "@/lib/services/spectra";
 import { parseQuery, spectraQuerySchema } from "@/lib/validation/notebook-schemas";
 import { teamIdQuery } from "@/lib/validation/workflow-schemas";

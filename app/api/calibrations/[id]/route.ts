@@ -1,5 +1,6 @@
 // GET one calibration: model, pairs, residuals, covered range, drift, release and software version.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { fetchCalibration } from "@/lib/services/calibrations";
 import { idParam } from "@/lib/validation/line-schemas";
 

@@ -1,5 +1,6 @@
 // GET one line row; PATCH corrects it in the draft (with the version it was read at and a reason).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { fetchLine, updateLine } from "@/lib/services/line-library";
 import { idParam, toLineChanges, updateLineSchema } from "@/lib/validation/line-schemas";
 

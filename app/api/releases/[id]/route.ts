@@ -1,5 +1,6 @@
 // GET one release's summary.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { fetchRelease } from "@/lib/services/line-library";
 import { idParam } from "@/lib/validation/line-schemas";
 

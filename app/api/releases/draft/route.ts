@@ -1,5 +1,6 @@
 // POST returns the team's draft, opening one from the newest published release when there is none.
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { openDraft } from "@/lib/services/line-library";
 import { openDraftSchema } from "@/lib/validation/line-schemas";
 

@@ -1,5 +1,6 @@
 // DELETE revokes one of the person's access tokens.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { revokeAccessToken } from "@/lib/services/access-tokens";
 import { idParam } from "@/lib/validation/line-schemas";
 

@@ -1,5 +1,6 @@
 // POST {pixels} returns the calibrated wavelengths and their one-sigma uncertainties (nothing is written).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { evaluateStoredCalibration } from "@/lib/services/calibrations";
 import { idParam } from "@/lib/validation/line-schemas";
 import { evaluateSchema } from "@/lib/validation/workflow-schemas";

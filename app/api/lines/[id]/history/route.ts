@@ -1,5 +1,6 @@
 // GET the audit history of a line across the team's releases (by the line key of this row).
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { fetchLine, fetchLineHistory } from "@/lib/services/line-library";
 import { idParam } from "@/lib/validation/line-schemas";
 

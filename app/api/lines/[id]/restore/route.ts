@@ -1,5 +1,6 @@
 // POST restores a retired draft line (version and reason in the body).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { restoreLine } from "@/lib/services/line-library";
 import { idParam, lineStateSchema } from "@/lib/validation/line-schemas";
 

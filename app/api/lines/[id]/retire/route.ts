@@ -1,5 +1,6 @@
 // POST retires a draft line: it stays in the draft and is left out when publishing (version and reason in the body).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { retireLine } from "@/lib/services/line-library";
 import { idParam, lineStateSchema } from "@/lib/validation/line-schemas";
 

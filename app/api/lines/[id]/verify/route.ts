@@ -1,5 +1,6 @@
 // POST marks a draft line verified against its source (version and reason in the body).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { verifyLine } from "@/lib/services/line-library";
 import { idParam, lineStateSchema } from "@/lib/validation/line-schemas";
 

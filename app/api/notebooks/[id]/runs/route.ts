@@ -1,5 +1,6 @@
 // GET a notebook's run summaries, newest first, filtered by ?status=&species=&instrumentId=&q=.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { fetchNotebookRuns } from "@/lib/services/notebooks";
 import { idParam } from "@/lib/validation/line-schemas";
 import { notebookRunsQuerySchema, parseQuery } from "@/lib/validation/notebook-schemas";

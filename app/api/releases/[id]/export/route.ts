@@ -1,5 +1,6 @@
 // GET the release as Emberline's line-table CSV (with line_key), as a download.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { exportReleaseCsv } from "@/lib/services/line-library";
 import { idParam } from "@/lib/validation/line-schemas";
 

@@ -1,5 +1,6 @@
 // POST adds a line to the draft (with a reason).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { addLine } from "@/lib/services/line-library";
 import { addLineSchema, idParam, toLineInput } from "@/lib/validation/line-schemas";
 

@@ -1,5 +1,6 @@
 // POST publishes the draft as the next release (frozen from then on); the team is e-mailed.
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { publishDraft } from "@/lib/services/line-library";
 import { idParam, publishSchema } from "@/lib/validation/line-schemas";
 

@@ -1,5 +1,6 @@
 // POST amends a signed run: a new draft version linked to it, with the same analysis, notes and standing overrides.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { amendRun } from "@/lib/services/run-review";
 import { idParam } from "@/lib/validation/line-schemas";
 

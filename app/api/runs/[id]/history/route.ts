@@ -1,5 +1,6 @@
 // GET a run's review history: rounds with submitter, reviewer, decision, comments and marks, the signature, and its versions.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { fetchRunHistory } from "@/lib/services/run-review";
 import { idParam } from "@/lib/validation/line-schemas";
 

@@ -1,5 +1,6 @@
 // POST records a supervisor's mark on a submitted run: agree or disagree with a call, or a comment on a call or one of its lines.
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { addReviewMark } from "@/lib/services/run-review";
 import { idParam } from "@/lib/validation/line-schemas";
 import { reviewMarkSchema } from "@/lib/validation/review-schemas";

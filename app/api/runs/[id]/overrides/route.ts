@@ -1,5 +1,6 @@
 // POST overrides one call of a run with a reason ({species, verdict, reason}; verdict null withdraws).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { overrideCall } from "@/lib/services/runs";
 import { idParam } from "@/lib/validation/line-schemas";
 import { runOverrideSchema } from "@/lib/validation/run-schemas";

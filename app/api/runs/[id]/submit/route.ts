@@ -1,5 +1,6 @@
 // POST submits a draft or returned run for review, optionally naming the supervisor who should review it.
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { submitRun } from "@/lib/services/run-review";
 import { idParam } from "@/lib/validation/line-schemas";
 import { submitRunSchema } from "@/lib/validation/review-schemas";

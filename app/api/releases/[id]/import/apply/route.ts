@@ -1,5 +1,6 @@
 // POST applies a previewed import ({csv, fingerprint, skipRejected?, reason?}) in one transaction.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { applyImport } from "@/lib/services/line-library";
 import {
   idParam,

@@ -1,5 +1,6 @@
 // POST previews a CSV import into the draft (body: {csv} as JSON, or the file as text/csv). Writes nothing.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { previewImport } from "@/lib/services/line-library";
 import { idParam, IMPORT_ROUTE_OPTIONS, readImportBody } from "@/lib/validation/line-schemas";
 

@@ -1,6 +1,7 @@
 // POST marks the previewed agreeing rows verified with their citations and applies the decisions on
 // disagreements ({csv, medium?, fingerprint, decisions?, reason?}), in one transaction with one audit event.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { applyReferenceCheck } from "@/lib/services/line-reference-check";
 import {
   idParam,
