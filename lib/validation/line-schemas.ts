@@ -5,7 +5,6 @@ import { text } from "./text";
 import { LINE_FLAGS, type LineFlag } from "@/lib/lines";
 import { AppError } from "@/lib/errors";
 import { bodyText } from "@/lib/http/read-body";
-import { isRecordId } from "./record-id";
 import { zodFieldErrors } from "./field-errors";
 
 const SOURCE_KINDS = ["flame", "arc", "spark", "plasma", "lamp"] as const;
@@ -151,12 +150,6 @@ export function toLineChanges(line: Partial<ParsedLine>) {
     changes[key] = value;
   }
   return changes as Partial<ReturnType<typeof toLineInput>>;
-}
-
-/** A route's id segment (every API [id] route): anything but a UUID is "not found", never a database error. */
-export function idParam(value: string | undefined, what = "No such record."): string {
-  if (!isRecordId(value)) throw new AppError("not_found", what);
-  return value;
 }
 
 /** The cap of an import body (a 5 MB file, with room for JSON's escapes when sent as {csv}). */

@@ -6,13 +6,13 @@ import { redirect } from "next/navigation";
 import { requireActor } from "@/lib/auth/session";
 import { createInstrument, updateInstrument } from "@/lib/services/instruments";
 import { formError, type FormState } from "@/lib/validation/form-state";
-import { idParam } from "@/lib/validation/line-schemas";
 import {
   formValues,
   instrumentInputFromForm,
   instrumentUpdateFromForm,
   invalidFormState,
 } from "@/lib/validation/workflow-forms";
+import { idParam } from "@/lib/validation/request-params";
 
 export async function createInstrumentAction(
   _state: FormState,

@@ -7,7 +7,6 @@ import { requireActor } from "@/lib/auth/session";
 import { createNotebook, renameNotebook } from "@/lib/services/notebooks";
 import { createRun } from "@/lib/services/runs";
 import { formError, type FormState } from "@/lib/validation/form-state";
-import { idParam } from "@/lib/validation/line-schemas";
 import { notebookRenameSchema } from "@/lib/validation/notebook-schemas";
 import {
   formValues,
@@ -15,6 +14,7 @@ import {
   notebookInputFromForm,
   runInputFromForm,
 } from "@/lib/validation/workflow-forms";
+import { idParam } from "@/lib/validation/request-params";
 
 export async function createNotebookAction(
   _state: FormState,

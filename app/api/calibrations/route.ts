@@ -4,8 +4,8 @@ import { AppError } from "@/lib/errors";
 import { requireActor } from "@/lib/auth/session";
 import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { createCalibration, fetchCalibrations } from "@/lib/services/calibrations";
-import { idParam } from "@/lib/validation/line-schemas";
 import { calibrationCreateSchema } from "@/lib/validation/workflow-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();

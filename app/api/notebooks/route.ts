@@ -2,8 +2,9 @@
 import { requireActor } from "@/lib/auth/session";
 import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { createNotebook, fetchNotebooks } from "@/lib/services/notebooks";
-import { notebookListQuerySchema, parseQuery } from "@/lib/validation/notebook-schemas";
+import { notebookListQuerySchema } from "@/lib/validation/notebook-schemas";
 import { notebookCreateSchema, teamIdQuery } from "@/lib/validation/workflow-schemas";
+import { parseQuery } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();

@@ -5,9 +5,10 @@
 import { requireActor } from "@/lib/auth/session";
 import { apiRoute } from "@/lib/http/api-handler";
 import { fetchSpectra, uploadSpectrum } from "@/lib/services/spectra";
-import { parseQuery, spectraQuerySchema } from "@/lib/validation/notebook-schemas";
+import { spectraQuerySchema } from "@/lib/validation/notebook-schemas";
 import { teamIdQuery } from "@/lib/validation/workflow-schemas";
 import { readUploadForm, UPLOAD_ROUTE_OPTIONS } from "./upload-form";
+import { parseQuery } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();

@@ -4,8 +4,8 @@ import { requireActor } from "@/lib/auth/session";
 import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { fetchCalibrations } from "@/lib/services/calibrations";
 import { fetchInstrument, updateInstrument } from "@/lib/services/instruments";
-import { idParam } from "@/lib/validation/line-schemas";
 import { instrumentUpdateSchema } from "@/lib/validation/workflow-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

@@ -2,7 +2,8 @@
 import { requireActor } from "@/lib/auth/session";
 import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { fetchLine, updateLine } from "@/lib/services/line-library";
-import { idParam, toLineChanges, updateLineSchema } from "@/lib/validation/line-schemas";
+import { toLineChanges, updateLineSchema } from "@/lib/validation/line-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

@@ -2,8 +2,8 @@
 import { requireActor } from "@/lib/auth/session";
 import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { fetchNotebook, fetchNotebookRuns, renameNotebook } from "@/lib/services/notebooks";
-import { idParam } from "@/lib/validation/line-schemas";
 import { notebookRenameSchema } from "@/lib/validation/notebook-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

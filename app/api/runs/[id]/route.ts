@@ -3,8 +3,8 @@
 import { requireActor } from "@/lib/auth/session";
 import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { fetchRun, updateRunNotes } from "@/lib/services/runs";
-import { idParam } from "@/lib/validation/line-schemas";
 import { runNotesSchema } from "@/lib/validation/run-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

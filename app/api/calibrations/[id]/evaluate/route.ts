@@ -2,8 +2,8 @@
 import { requireActor } from "@/lib/auth/session";
 import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { evaluateStoredCalibration } from "@/lib/services/calibrations";
-import { idParam } from "@/lib/validation/line-schemas";
 import { evaluateSchema } from "@/lib/validation/workflow-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const POST = apiRoute(
   async (request, { params }) => {

@@ -2,7 +2,7 @@
 import { requireActor } from "@/lib/auth/session";
 import { apiRoute } from "@/lib/http/api-handler";
 import { resendInvitation } from "@/lib/services/teams";
-import { idParam } from "@/lib/validation/line-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const POST = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

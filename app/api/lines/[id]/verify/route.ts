@@ -2,7 +2,8 @@
 import { requireActor } from "@/lib/auth/session";
 import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { verifyLine } from "@/lib/services/line-library";
-import { idParam, lineStateSchema } from "@/lib/validation/line-schemas";
+import { lineStateSchema } from "@/lib/validation/line-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const POST = apiRoute(async (request, { params }) => {
   const actor = await requireActor();

@@ -2,7 +2,8 @@
 import { requireActor } from "@/lib/auth/session";
 import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { publishDraft } from "@/lib/services/line-library";
-import { idParam, publishSchema } from "@/lib/validation/line-schemas";
+import { publishSchema } from "@/lib/validation/line-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const POST = apiRoute(async (request, { params }) => {
   const actor = await requireActor();

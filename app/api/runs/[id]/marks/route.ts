@@ -2,8 +2,8 @@
 import { requireActor } from "@/lib/auth/session";
 import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { addReviewMark } from "@/lib/services/run-review";
-import { idParam } from "@/lib/validation/line-schemas";
 import { reviewMarkSchema } from "@/lib/validation/review-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const POST = apiRoute(async (request, { params }) => {
   const actor = await requireActor();

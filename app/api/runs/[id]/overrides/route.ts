@@ -2,8 +2,8 @@
 import { requireActor } from "@/lib/auth/session";
 import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { overrideCall } from "@/lib/services/runs";
-import { idParam } from "@/lib/validation/line-schemas";
 import { runOverrideSchema } from "@/lib/validation/run-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const POST = apiRoute(async (request, { params }) => {
   const actor = await requireActor();

@@ -3,8 +3,8 @@ import { clientAddress } from "@/lib/http/client-address";
 import { requireActor } from "@/lib/auth/session";
 import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { reviewRun } from "@/lib/services/run-review";
-import { idParam } from "@/lib/validation/line-schemas";
 import { reviewDecisionSchema } from "@/lib/validation/review-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const POST = apiRoute(async (request, { params }) => {
   const actor = await requireActor();

@@ -4,7 +4,7 @@ import { requireActor } from "@/lib/auth/session";
 import { apiRoute } from "@/lib/http/api-handler";
 import { reportResponse } from "@/lib/reports/report-response";
 import { runSpectrumEvenJdx } from "@/lib/services/run-reports";
-import { idParam } from "@/lib/validation/line-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

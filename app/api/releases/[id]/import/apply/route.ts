@@ -3,11 +3,11 @@ import { requireActor } from "@/lib/auth/session";
 import { apiRoute } from "@/lib/http/api-handler";
 import { applyImport } from "@/lib/services/line-library";
 import {
-  idParam,
   IMPORT_ROUTE_OPTIONS,
   importApplySchema,
   readImportBody,
 } from "@/lib/validation/line-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const POST = apiRoute(async (request, { params }) => {
   const actor = await requireActor();

@@ -2,7 +2,8 @@
 import { requireActor } from "@/lib/auth/session";
 import { apiRoute } from "@/lib/http/api-handler";
 import { previewImport } from "@/lib/services/line-library";
-import { idParam, IMPORT_ROUTE_OPTIONS, readImportBody } from "@/lib/validation/line-schemas";
+import { IMPORT_ROUTE_OPTIONS, readImportBody } from "@/lib/validation/line-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const POST = apiRoute(async (request, { params }) => {
   const actor = await requireActor();

@@ -5,7 +5,7 @@ import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { ACCOUNT_BODY_BYTES } from "@/lib/http/read-body";
 import { changeMemberRole, removeMember } from "@/lib/services/team-members";
 import { memberRoleSchema } from "@/lib/validation/account-schemas";
-import { idParam } from "@/lib/validation/line-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 async function ids(params: Promise<Record<string, string>>) {
   const { id, userId } = await params;
