@@ -1,5 +1,5 @@
 // The state every form's server action returns: field errors plus one message.
-import { AppError, type FieldErrors } from "@/lib/errors";
+import { expectedError, type FieldErrors } from "@/lib/errors";
 import type { z } from "zod";
 import { zodFieldErrors } from "./field-errors";
 
@@ -27,6 +27,7 @@ export function parseForm<T extends z.ZodType>(
 
 /** Maps an expected error to FormState; anything else is re-thrown to the error boundary. */
 export function formError(error: unknown): FormState {
-  if (error instanceof AppError) return { message: error.message, fieldErrors: error.fieldErrors };
+  const expected = expectedError(error);
+  if (expected) return { message: expected.message, fieldErrors: expected.fieldErrors };
   throw error;
 }

@@ -6,7 +6,7 @@ import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { z } from "zod";
 import { requireActor } from "@/lib/auth/session";
-import { AppError } from "@/lib/errors";
+import { expectedError } from "@/lib/errors";
 import {
   addLine,
   applyImport,
@@ -45,12 +45,8 @@ const CONFLICT_MESSAGE = "Someone else changed this line first. Reload to see th
 
 /** Like formError, with the optimistic-locking answer (409) worded for the line library. */
 function lineFormError(error: unknown): LineFormState {
-  if (
-    (error instanceof AppError && error.code === "conflict") ||
-    (error instanceof Error && error.name === "SequelizeOptimisticLockError")
-  ) {
+  if (expectedError(error)?.code === "conflict")
     return { message: CONFLICT_MESSAGE, conflict: true };
-  }
   const state = formError(error);
   return { ...state, fieldErrors: toLineFormFieldErrors(state.fieldErrors) };
 }
