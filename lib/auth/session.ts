@@ -7,6 +7,7 @@ import { unauthenticated } from "@/lib/errors";
 import { actorFromAccessToken, loadSessionActor } from "@/lib/services/accounts";
 import { openSession, revokeSession, SESSION_HOURS } from "@/lib/services/sessions";
 import type { Actor } from "./actor";
+import { defaultTeamId } from "./default-team";
 import { SESSION_COOKIE } from "./session-cookie";
 
 export { SESSION_COOKIE };
@@ -87,11 +88,11 @@ export async function usesBearerToken(): Promise<boolean> {
   return Boolean((await headers()).get("authorization")?.toLowerCase().startsWith("bearer "));
 }
 
-/** The team the person works in now: the one chosen in the switcher, else their first. */
+/** The team the person works in now: the one chosen in the switcher, else their default team. */
 export async function currentTeamId(actor: Actor): Promise<string | undefined> {
   const { teamId } = await readSessionData();
   const chosen = actor.memberships.find((m) => m.teamId === teamId);
-  return chosen?.teamId ?? preferredTeamId(actor);
+  return chosen?.teamId ?? defaultTeamId(actor);
 }
 
 /** Signs the person in on this browser: a new server-side session and its cookie. */
@@ -99,7 +100,7 @@ export async function startSession(actor: Actor): Promise<void> {
   const session = await getSession();
   session.sessionId = await openSession(actor.id);
   session.userId = actor.id;
-  session.teamId = preferredTeamId(actor);
+  session.teamId = defaultTeamId(actor);
   session.signedInAt = Date.now();
   await session.save();
 }
@@ -115,11 +116,4 @@ export async function endSession(): Promise<string | undefined> {
 
 export async function currentSessionId(): Promise<string | undefined> {
   return (await readSessionData()).sessionId;
-}
-
-const ROLE_RANK = { lab_lead: 3, supervisor: 2, chemist: 1 } as const;
-
-/** The team a person opens in: the one where they hold the widest role, then by name. */
-function preferredTeamId(actor: Actor): string | undefined {
-  return actor.memberships.slice().sort((a, b) => ROLE_RANK[b.role] - ROLE_RANK[a.role])[0]?.teamId;
 }

@@ -1,14 +1,13 @@
 // GET the team's instruments; POST creates one (lab leads).
 import { requireActor } from "@/lib/auth/session";
+import { defaultTeamId } from "@/lib/auth/default-team";
 import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { createInstrument, fetchInstruments } from "@/lib/services/instruments";
 import { instrumentCreateSchema, teamIdQuery } from "@/lib/validation/workflow-schemas";
 
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();
-  return Response.json(
-    await fetchInstruments(actor, teamIdQuery(request, actor.memberships[0]?.teamId)),
-  );
+  return Response.json(await fetchInstruments(actor, teamIdQuery(request, defaultTeamId(actor))));
 });
 
 export const POST = apiRoute(async (request) => {

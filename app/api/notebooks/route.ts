@@ -1,5 +1,6 @@
 // GET the team's notebooks (?teamId=&q=: title search, run counts, newest activity first); POST creates one.
 import { requireActor } from "@/lib/auth/session";
+import { defaultTeamId } from "@/lib/auth/default-team";
 import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { createNotebook, fetchNotebooks } from "@/lib/services/notebooks";
 import { notebookListQuerySchema } from "@/lib/validation/notebook-schemas";
@@ -8,7 +9,7 @@ import { parseQuery } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();
-  const teamId = teamIdQuery(request, actor.memberships[0]?.teamId);
+  const teamId = teamIdQuery(request, defaultTeamId(actor));
   return Response.json(
     await fetchNotebooks(actor, teamId, parseQuery(request, notebookListQuerySchema)),
   );

@@ -1,4 +1,6 @@
 // GET the runs of a team waiting for the signed-in supervisor's review, oldest first, with filters.
+import { defaultTeamId } from "@/lib/auth/default-team";
+import { can } from "@/lib/auth/policy";
 import { AppError } from "@/lib/errors";
 import { requireActor } from "@/lib/auth/session";
 import { apiRoute } from "@/lib/http/api-handler";
@@ -9,10 +11,13 @@ import { reviewQueueQueryFrom } from "@/lib/validation/review-schemas";
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();
   const search = new URL(request.url).searchParams;
-  // Without ?teamId= the queue is that of the first team where the person reviews (else their first team).
-  const reviewing = actor.memberships.find((m) => m.role === "supervisor") ?? actor.memberships[0];
+  // Without ?teamId= the queue is that of the first team where the person reviews (else their default
+  // team, which answers 403 when they review in none).
+  const reviewing =
+    actor.memberships.find((m) => can(actor, "run.review", { teamId: m.teamId }))?.teamId ??
+    defaultTeamId(actor);
   const parsed = reviewQueueQueryFrom(
-    (name) => search.get(name) ?? (name === "teamId" ? (reviewing?.teamId ?? null) : null),
+    (name) => search.get(name) ?? (name === "teamId" ? (reviewing ?? null) : null),
   );
   if (!parsed.success)
     throw new AppError("validation", "Some filters are not right.", {

@@ -3,6 +3,7 @@
 // POST /api/spectra/preview checks the same form without storing. Route handlers, not server actions,
 // and outside the proxy's matcher, so no body cap applies but ours (UPLOAD_ROUTE_OPTIONS, read before sign-in is checked).
 import { requireActor } from "@/lib/auth/session";
+import { defaultTeamId } from "@/lib/auth/default-team";
 import { apiRoute } from "@/lib/http/api-handler";
 import { fetchSpectra, uploadSpectrum } from "@/lib/services/spectra";
 import { spectraQuerySchema } from "@/lib/validation/notebook-schemas";
@@ -12,7 +13,7 @@ import { parseQuery } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();
-  const teamId = teamIdQuery(request, actor.memberships[0]?.teamId);
+  const teamId = teamIdQuery(request, defaultTeamId(actor));
   return Response.json(await fetchSpectra(actor, teamId, parseQuery(request, spectraQuerySchema)));
 });
 
