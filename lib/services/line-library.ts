@@ -11,6 +11,7 @@ import { sendMail } from "@/lib/mail/send-mail";
 import { releasePublishedMail } from "@/lib/mail/templates";
 import Papa from "papaparse";
 import { Membership, User, sequelize } from "@/models";
+import { checkedLineReason, checkedReleaseNotes } from "@/lib/validation/line-schemas";
 import { recordAudit } from "./audit";
 import {
   RELEASE_FROM,
@@ -260,15 +261,6 @@ export function validateLineInput(input: LineInput): LineTableRow {
   throw new AppError("validation", "Some values of the line are not right.", { fieldErrors });
 }
 
-function requireReason(reason: string): string {
-  const trimmed = typeof reason === "string" ? reason.trim() : "";
-  if (!trimmed)
-    throw new AppError("validation", "Say why.", {
-      fieldErrors: { reason: ["Say why you make this change."] },
-    });
-  return trimmed;
-}
-
 /** Another live line of the same species within 0.002 nm (vacuum) in the draft, if any. */
 async function twinInDraft(
   releaseId: string,
@@ -299,7 +291,7 @@ export async function addLine(
   actor: Actor,
   input: { releaseId: string; line: LineInput; reason: string },
 ): Promise<LineRecord> {
-  const reason = requireReason(input.reason);
+  const reason = checkedLineReason(input.reason);
   const id = await sequelize.transaction(async (transaction) => {
     const draft = await lockDraft(actor, input.releaseId, "lines.edit", transaction);
     const row = validateLineInput(input.line);
@@ -367,7 +359,7 @@ export async function updateLine(
   actor: Actor,
   input: { lineId: string; version: number; line: Partial<LineInput>; reason: string },
 ): Promise<LineRecord> {
-  const reason = requireReason(input.reason);
+  const reason = checkedLineReason(input.reason);
   await sequelize.transaction(async (transaction) => {
     const { row, teamId } = await lockLineForEdit(actor, input.lineId, input.version, transaction);
     const current = toLineRecord(row);
@@ -411,7 +403,7 @@ async function setLineState(
   input: { lineId: string; version: number; reason: string },
   action: "line.retire" | "line.restore" | "line.verify",
 ): Promise<LineRecord> {
-  const reason = requireReason(input.reason);
+  const reason = checkedLineReason(input.reason);
   await sequelize.transaction(async (transaction) => {
     const { row, teamId } = await lockLineForEdit(actor, input.lineId, input.version, transaction);
     const set =
@@ -485,12 +477,7 @@ export async function publishDraft(
   actor: Actor,
   input: { releaseId: string; notes: string },
 ): Promise<ReleaseSummary> {
-  const notes = (input.notes ?? "").trim();
-  if (!notes) {
-    throw new AppError("validation", "Say what changed.", {
-      fieldErrors: { notes: ["Describe this release."] },
-    });
-  }
+  const notes = checkedReleaseNotes(input.notes);
   const published = await sequelize.transaction(async (transaction) => {
     const draft = await lockDraft(actor, input.releaseId, "lines.publish", transaction, "UPDATE");
     const [{ next }] = await sequelize.query<{ next: number }>(

@@ -21,16 +21,14 @@ import {
 import { applyReferenceCheck, previewReferenceCheck } from "@/lib/services/line-reference-check";
 import { formError, parseForm } from "@/lib/validation/form-state";
 import {
-  IMPORT_MAX_BYTES,
-  IMPORT_MAX_LABEL,
-  importApplySchema,
-  importPreviewSchema,
+  importApplyFormSchema,
+  importPreviewFormSchema,
   keepEditedWavelength,
   lineAddSchema,
   lineChangeSchema,
   lineCorrectionSchema,
   parseLineInputForm,
-  publishSchema,
+  publishFormSchema,
   referenceApplyFormSchema,
   referenceCheckFormSchema,
   referenceDecisionsOf,
@@ -40,6 +38,12 @@ import {
   type LineFormState,
   type ReferenceCheckFormState,
 } from "@/lib/validation/line-forms";
+import {
+  IMPORT_TOO_LARGE_MESSAGE,
+  MAX_IMPORT_BYTES,
+  MAX_REFERENCE_BYTES,
+  REFERENCE_TOO_LARGE_MESSAGE,
+} from "@/lib/validation/line-schemas";
 
 const CONFLICT_MESSAGE = "Someone else changed this line first. Reload to see their change.";
 
@@ -149,23 +153,26 @@ export async function changeLineAction(
  */
 const oneLineBreak = (text: string) => text.replace(/\r\n?/g, "\n");
 
-/** The CSV text of the import form: the chosen file, or else the pasted text. */
-async function importText(formData: FormData): Promise<string | { tooLarge: true }> {
+/** The CSV text of the import or reference form: the chosen file (up to maxBytes), or else the pasted text. */
+async function importText(
+  formData: FormData,
+  maxBytes: number,
+): Promise<string | { tooLarge: true }> {
   const file = formData.get("file");
   if (file instanceof File && file.size > 0) {
-    if (file.size > IMPORT_MAX_BYTES) return { tooLarge: true };
+    if (file.size > maxBytes) return { tooLarge: true };
     return oneLineBreak(await file.text());
   }
   return oneLineBreak(String(formData.get("csv") ?? ""));
 }
 
 async function previewImportStep(formData: FormData): Promise<ImportFormState> {
-  const text = await importText(formData);
+  const text = await importText(formData, MAX_IMPORT_BYTES);
   if (typeof text !== "string") {
-    return { message: `The file is larger than ${IMPORT_MAX_LABEL}; split it into smaller files.` };
+    return { message: IMPORT_TOO_LARGE_MESSAGE };
   }
   const { data, state } = parseForm(
-    importPreviewSchema,
+    importPreviewFormSchema,
     toFormData({ releaseId: formData.get("releaseId"), csv: text }),
   );
   if (state) return state;
@@ -185,7 +192,7 @@ async function applyImportStep(
   formData: FormData,
 ): Promise<ImportFormState> {
   formData.set("csv", oneLineBreak(String(formData.get("csv") ?? "")));
-  const parsed = parseForm(importApplySchema, formData);
+  const parsed = parseForm(importApplyFormSchema, formData);
   if (parsed.state) return { ...state, ...parsed.state, ok: false };
   const { data } = parsed;
   let result: { added: number; changed: number };
@@ -227,9 +234,9 @@ export async function importAction(
 }
 
 async function previewReferenceStep(formData: FormData): Promise<ReferenceCheckFormState> {
-  const text = await importText(formData);
+  const text = await importText(formData, MAX_REFERENCE_BYTES);
   if (typeof text !== "string") {
-    return { message: `The file is larger than ${IMPORT_MAX_LABEL}; split it by element.` };
+    return { message: REFERENCE_TOO_LARGE_MESSAGE };
   }
   const { data, state } = parseForm(
     referenceCheckFormSchema,
@@ -306,7 +313,7 @@ export async function publishAction(
   _state: LineFormState,
   formData: FormData,
 ): Promise<LineFormState> {
-  const { data, state } = parseForm(publishSchema, formData);
+  const { data, state } = parseForm(publishFormSchema, formData);
   if (state) return state;
   let number: number | null;
   try {
