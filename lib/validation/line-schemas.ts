@@ -11,6 +11,7 @@ import { zodFieldErrors } from "./field-errors";
 
 const SOURCE_KINDS = ["flame", "arc", "spark", "plasma", "lamp"] as const;
 const optionalNumber = z.number().finite().nullable().optional();
+
 /** Why a draft line is added, corrected, retired, restored or verified: 3–500 characters. */
 export const lineReasonSchema = text({ error: "Say why." })
   .trim()
