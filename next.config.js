@@ -42,9 +42,11 @@ const nextConfig = {
     ];
   },
   experimental: {
-    // The largest server-action body is the line import form: a CSV of up to 2 MB (IMPORT_MAX_BYTES)
-    // plus its other fields. Everything bigger goes through the API routes and their own caps.
-    serverActions: { bodySizeLimit: "3mb" },
+    // The largest server-action body is the line import form: a CSV of up to 5 MB (MAX_IMPORT_BYTES in
+    // lib/validation/line-schemas.ts, the API's limit too) plus its other fields, and the CR a browser
+    // adds before every LF when it sends the previewed text back. Everything bigger goes through the
+    // API routes and their own caps.
+    serverActions: { bodySizeLimit: "6mb" },
   },
 };
 

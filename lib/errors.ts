@@ -76,25 +76,32 @@ function isUnstorableValue(error: unknown): boolean {
   return typeof code === "string" && UNSTORABLE_VALUE_CODES.has(code);
 }
 
+/**
+ * The expected errors as AppErrors: an AppError itself, and Sequelize's optimistic-lock error (an
+ * instance saved from a stale read of a versioned model) as a conflict. Anything else is undefined:
+ * the caller treats it as unexpected. The one place that maps a version conflict to its answer, for
+ * route replies (`toResponse`) and server actions' form states (`formError`) alike.
+ */
+export function expectedError(error: unknown): AppError | undefined {
+  if (error instanceof AppError) return error;
+  if (error instanceof Error && error.name === "SequelizeOptimisticLockError") {
+    return new AppError(
+      "conflict",
+      "Someone else changed this record first. Reload and try again.",
+    );
+  }
+  return undefined;
+}
+
 /** Maps any thrown value to a JSON reply; unknown errors are logged and answered generically. */
-export function toResponse(error: unknown): Response {
+export function toResponse(thrown: unknown): Response {
+  const error = expectedError(thrown) ?? thrown;
   if (error instanceof AppError) {
     const headers: Record<string, string> = {};
     if (error.retryAfterSeconds) headers["Retry-After"] = String(error.retryAfterSeconds);
     return Response.json(
       { error: { code: error.code, message: error.message, fieldErrors: error.fieldErrors } },
       { status: error.status, headers },
-    );
-  }
-  if (error instanceof Error && error.name === "SequelizeOptimisticLockError") {
-    return Response.json(
-      {
-        error: {
-          code: "conflict",
-          message: "Someone else changed this record first. Reload and try again.",
-        },
-      },
-      { status: 409 },
     );
   }
   if (isUnstorableValue(error)) {

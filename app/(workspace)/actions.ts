@@ -4,8 +4,7 @@ import { revalidatePath } from "next/cache";
 import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { z } from "zod";
-import { currentActor, currentSessionId, endSession, getSession } from "@/lib/auth/session";
-import { unauthenticated } from "@/lib/errors";
+import { currentSessionId, endSession, getSession, requireActor } from "@/lib/auth/session";
 import { clientAddress } from "@/lib/http/client-address";
 import { changePassword, describeRevoked } from "@/lib/services/accounts";
 import { createAccessToken, revokeAccessToken } from "@/lib/services/access-tokens";
@@ -17,12 +16,6 @@ import {
   tokenCreateSchema,
 } from "@/lib/validation/account-schemas";
 import { formError, parseForm, type FormState } from "@/lib/validation/form-state";
-
-async function actorOrThrow() {
-  const actor = await currentActor();
-  if (!actor) throw unauthenticated();
-  return actor;
-}
 
 export async function signOutAction(): Promise<void> {
   const userId = await endSession();
@@ -37,7 +30,7 @@ export async function signOutAction(): Promise<void> {
 }
 
 export async function switchTeamAction(formData: FormData): Promise<void> {
-  const actor = await actorOrThrow();
+  const actor = await requireActor();
   const teamId = String(formData.get("teamId") ?? "");
   if (actor.memberships.some((m) => m.teamId === teamId)) {
     const session = await getSession();
@@ -54,7 +47,7 @@ export async function changePasswordAction(
   const { data, state } = parseForm(passwordChangeSchema, formData);
   if (state) return state;
   try {
-    const revoked = await changePassword(await actorOrThrow(), data, {
+    const revoked = await changePassword(await requireActor(), data, {
       keepSessionId: await currentSessionId(),
       address: clientAddress(await headers()),
     });
@@ -72,7 +65,7 @@ export async function createTokenAction(
   const { data, state } = parseForm(tokenCreateSchema, formData);
   if (state) return state;
   try {
-    const created = await createAccessToken(await actorOrThrow(), data);
+    const created = await createAccessToken(await requireActor(), data);
     revalidatePath("/account");
     return {
       ok: true,
@@ -86,7 +79,7 @@ export async function createTokenAction(
 
 export async function revokeTokenAction(formData: FormData): Promise<void> {
   const id = z.uuid().parse(formData.get("tokenId"));
-  await revokeAccessToken(await actorOrThrow(), id);
+  await revokeAccessToken(await requireActor(), id);
   revalidatePath("/account");
 }
 
@@ -94,7 +87,7 @@ export async function inviteAction(_state: FormState, formData: FormData): Promi
   const { data, state } = parseForm(invitationSchema, formData);
   if (state) return state;
   try {
-    await inviteMember(await actorOrThrow(), data);
+    await inviteMember(await requireActor(), data);
   } catch (error) {
     return formError(error);
   }

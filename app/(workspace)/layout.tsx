@@ -5,6 +5,7 @@ import { MainNav, type NavItem } from "@/components/shell/main-nav";
 import { TeamSwitcher } from "@/components/shell/team-switcher";
 import { ThemeToggle } from "@/components/shell/theme-toggle";
 import { WorkspaceFrame } from "@/components/shell/workspace-frame";
+import { can } from "@/lib/auth/policy";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import { countRunsWaitingFor } from "@/lib/services/review-queue";
 import { requireWorkspace } from "@/lib/services/workspace";
@@ -12,13 +13,15 @@ import { signOutAction, switchTeamAction } from "./actions";
 
 export default async function WorkspaceLayout({ children }: { children: ReactNode }) {
   const { actor, team, canReadMail } = await requireWorkspace();
-  const waiting = team?.role === "supervisor" ? await countRunsWaitingFor(actor, team.teamId) : 0;
+  // The policy decides who reviews: the Review area and its count follow `run.review`.
+  const reviews = team !== undefined && can(actor, "run.review", { teamId: team.teamId });
+  const waiting = reviews ? await countRunsWaitingFor(actor, team.teamId) : 0;
   const items: NavItem[] = [
     { href: "/", label: "Home" },
     { href: "/notebooks", label: "Notebooks" },
     { href: "/instruments", label: "Instruments" },
     { href: "/lines", label: "Line library" },
-    ...(team?.role === "supervisor"
+    ...(reviews
       ? [{ href: "/review", label: "Review", count: waiting, countLabel: "waiting for you" }]
       : []),
     { href: "/audit", label: "Audit trail" },

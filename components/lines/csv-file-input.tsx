@@ -1,15 +1,17 @@
 "use client";
 // The file field of the line table's CSV forms (import, reference check): CSV only, described by its
-// hint and error regions, and a file over the server's form limit cleared at once with the caller told.
-import { IMPORT_MAX_BYTES } from "@/lib/validation/line-forms";
+// hint and error regions, and a file over the form's limit cleared at once with the caller told.
 
 export function CsvFileInput({
   id,
+  maxBytes,
   onTooLarge,
 }: {
   /** The input's id; its hint and error regions are `${id}-hint` and `${id}-error`. */
   id: string;
-  /** Called on every choice with whether the file exceeds the server's form limit. */
+  /** The largest file the form's use case takes (MAX_IMPORT_BYTES, MAX_REFERENCE_BYTES). */
+  maxBytes: number;
+  /** Called on every choice with whether the file exceeds maxBytes. */
   onTooLarge: (tooLarge: boolean) => void;
 }) {
   return (
@@ -22,7 +24,7 @@ export function CsvFileInput({
       className="text-sm file:mr-3 file:rounded file:border file:border-[var(--line)] file:bg-[var(--panel)] file:px-2 file:py-1"
       onChange={(event) => {
         const file = event.currentTarget.files?.[0];
-        const large = Boolean(file && file.size > IMPORT_MAX_BYTES);
+        const large = Boolean(file && file.size > maxBytes);
         onTooLarge(large);
         if (large) event.currentTarget.value = "";
       }}

@@ -7,7 +7,12 @@ import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
 import { CsvFileInput } from "./csv-file-input";
-import { IMPORT_MAX_LABEL, type ImportFormState } from "@/lib/validation/line-forms";
+import type { ImportFormState } from "@/lib/validation/line-forms";
+import {
+  IMPORT_TOO_LARGE_MESSAGE,
+  MAX_IMPORT_BYTES,
+  MAX_IMPORT_LABEL,
+} from "@/lib/validation/line-schemas";
 import { ImportPreview } from "./import-preview";
 
 export function ImportPanel({
@@ -71,9 +76,9 @@ export function ImportPanel({
             <label htmlFor="import-file" className="text-sm font-medium">
               CSV file
             </label>
-            <CsvFileInput id="import-file" onTooLarge={setTooLarge} />
+            <CsvFileInput id="import-file" maxBytes={MAX_IMPORT_BYTES} onTooLarge={setTooLarge} />
             <p id="import-file-hint" className="muted text-xs">
-              Up to {IMPORT_MAX_LABEL} (the largest form this server accepts), in the columns of an
+              Up to {MAX_IMPORT_LABEL} (the largest file one import takes), in the columns of an
               exported release: a file downloaded from any release imports as it is. Larger tables
               go in several files.
             </p>
@@ -82,9 +87,7 @@ export function ImportPanel({
               aria-live="polite"
               className="text-xs text-red-700 dark:text-red-300"
             >
-              {tooLarge
-                ? `That file is larger than ${IMPORT_MAX_LABEL}; split it into smaller files.`
-                : null}
+              {tooLarge ? IMPORT_TOO_LARGE_MESSAGE : null}
             </div>
           </div>
           <div className="flex flex-col gap-1">

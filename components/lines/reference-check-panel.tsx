@@ -8,7 +8,12 @@ import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
 import { CsvFileInput } from "./csv-file-input";
-import { IMPORT_MAX_LABEL, type ReferenceCheckFormState } from "@/lib/validation/line-forms";
+import type { ReferenceCheckFormState } from "@/lib/validation/line-forms";
+import {
+  MAX_REFERENCE_BYTES,
+  MAX_REFERENCE_LABEL,
+  REFERENCE_TOO_LARGE_MESSAGE,
+} from "@/lib/validation/line-schemas";
 import type { ReferenceCheckPair } from "@/lib/services/line-library-types";
 
 type Decision = "leave" | "keep" | "take";
@@ -325,9 +330,9 @@ export function ReferenceCheckPanel({
         <label htmlFor="reference-file" className="text-sm font-medium">
           Reference CSV file
         </label>
-        <CsvFileInput id="reference-file" onTooLarge={setTooLarge} />
+        <CsvFileInput id="reference-file" maxBytes={MAX_REFERENCE_BYTES} onTooLarge={setTooLarge} />
         <p id="reference-file-hint" className="muted text-xs">
-          Up to {IMPORT_MAX_LABEL}: a header row with the columns <code>species</code>,{" "}
+          Up to {MAX_REFERENCE_LABEL}: a header row with the columns <code>species</code>,{" "}
           <code>wavelength_nm</code>, <code>uncertainty_nm</code> (one sigma, nm),{" "}
           <code>citation</code> and optionally <code>medium</code> (<code>air</code> or{" "}
           <code>vacuum</code>), then one reference line per row; other columns are ignored and lines
@@ -338,9 +343,7 @@ export function ReferenceCheckPanel({
           aria-live="polite"
           className="text-xs text-red-700 dark:text-red-300"
         >
-          {tooLarge
-            ? `That file is larger than ${IMPORT_MAX_LABEL}; split it by element.`
-            : errors.csv?.join(" ")}
+          {tooLarge ? REFERENCE_TOO_LARGE_MESSAGE : errors.csv?.join(" ")}
         </div>
       </div>
       <div className="flex flex-col gap-1">

@@ -3,9 +3,11 @@ import "server-only";
 import { getIronSession, unsealData, type SessionOptions } from "iron-session";
 import { cookies, headers } from "next/headers";
 import { env, sessionSecret } from "@/lib/env";
+import { unauthenticated } from "@/lib/errors";
 import { actorFromAccessToken, loadSessionActor } from "@/lib/services/accounts";
 import { openSession, revokeSession, SESSION_HOURS } from "@/lib/services/sessions";
 import type { Actor } from "./actor";
+import { defaultTeamId } from "./default-team";
 import { SESSION_COOKIE } from "./session-cookie";
 
 export { SESSION_COOKIE };
@@ -74,16 +76,23 @@ export async function currentActor(): Promise<Actor | null> {
   return sessionId ? loadSessionActor(sessionId) : null;
 }
 
+/** The person behind this request, or 401 ("Sign in first."): for route handlers and server actions. */
+export async function requireActor(): Promise<Actor> {
+  const actor = await currentActor();
+  if (!actor) throw unauthenticated();
+  return actor;
+}
+
 /** True when the request authenticates with a Bearer token (no cookie, so no CSRF risk). */
 export async function usesBearerToken(): Promise<boolean> {
   return Boolean((await headers()).get("authorization")?.toLowerCase().startsWith("bearer "));
 }
 
-/** The team the person works in now: the one chosen in the switcher, else their first. */
+/** The team the person works in now: the one chosen in the switcher, else their default team. */
 export async function currentTeamId(actor: Actor): Promise<string | undefined> {
   const { teamId } = await readSessionData();
   const chosen = actor.memberships.find((m) => m.teamId === teamId);
-  return chosen?.teamId ?? preferredTeamId(actor);
+  return chosen?.teamId ?? defaultTeamId(actor);
 }
 
 /** Signs the person in on this browser: a new server-side session and its cookie. */
@@ -91,7 +100,7 @@ export async function startSession(actor: Actor): Promise<void> {
   const session = await getSession();
   session.sessionId = await openSession(actor.id);
   session.userId = actor.id;
-  session.teamId = preferredTeamId(actor);
+  session.teamId = defaultTeamId(actor);
   session.signedInAt = Date.now();
   await session.save();
 }
@@ -107,11 +116,4 @@ export async function endSession(): Promise<string | undefined> {
 
 export async function currentSessionId(): Promise<string | undefined> {
   return (await readSessionData()).sessionId;
-}
-
-const ROLE_RANK = { lab_lead: 3, supervisor: 2, chemist: 1 } as const;
-
-/** The team a person opens in: the one where they hold the widest role, then by name. */
-function preferredTeamId(actor: Actor): string | undefined {
-  return actor.memberships.slice().sort((a, b) => ROLE_RANK[b.role] - ROLE_RANK[a.role])[0]?.teamId;
 }

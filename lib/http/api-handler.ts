@@ -4,9 +4,8 @@
 import "server-only";
 import { headers } from "next/headers";
 import type { z } from "zod";
-import { AppError, toResponse, unauthenticated } from "@/lib/errors";
-import type { Actor } from "@/lib/auth/actor";
-import { currentActor, usesBearerToken } from "@/lib/auth/session";
+import { AppError, toResponse } from "@/lib/errors";
+import { usesBearerToken } from "@/lib/auth/session";
 import { zodFieldErrors } from "@/lib/validation/field-errors";
 import { bodyText, JSON_BODY_BYTES, readBody } from "./read-body";
 import { API_CACHE_CONTROL } from "./security-headers";
@@ -74,12 +73,6 @@ async function assertSameOrigin(request: Request): Promise<void> {
     throw new AppError("forbidden", "The request's Origin header is not valid.");
   }
   if (originHost !== host) throw new AppError("forbidden", "Cross-site requests are not accepted.");
-}
-
-export async function requireActor(): Promise<Actor> {
-  const actor = await currentActor();
-  if (!actor) throw unauthenticated();
-  return actor;
 }
 
 export async function parseJson<T extends z.ZodType>(

@@ -8,6 +8,7 @@ import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
 import { sequelize } from "@/models";
+import { checkedLineReason } from "@/lib/validation/line-schemas";
 import { recordAudit } from "./audit";
 import {
   VALUE_COLUMNS,
@@ -114,15 +115,6 @@ export function validateLineInput(input: LineInput): LineTableRow {
   throw new AppError("validation", "Some values of the line are not right.", { fieldErrors });
 }
 
-function requireReason(reason: string): string {
-  const trimmed = typeof reason === "string" ? reason.trim() : "";
-  if (!trimmed)
-    throw new AppError("validation", "Say why.", {
-      fieldErrors: { reason: ["Say why you make this change."] },
-    });
-  return trimmed;
-}
-
 /** Another live line of the same species within 0.002 nm (vacuum) in the draft, if any. */
 async function twinInDraft(
   releaseId: string,
@@ -153,7 +145,7 @@ export async function addLine(
   actor: Actor,
   input: { releaseId: string; line: LineInput; reason: string },
 ): Promise<LineRecord> {
-  const reason = requireReason(input.reason);
+  const reason = checkedLineReason(input.reason);
   const id = await sequelize.transaction(async (transaction) => {
     const draft = await lockDraft(actor, input.releaseId, "lines.edit", transaction);
     const row = validateLineInput(input.line);
@@ -221,7 +213,7 @@ export async function updateLine(
   actor: Actor,
   input: { lineId: string; version: number; line: Partial<LineInput>; reason: string },
 ): Promise<LineRecord> {
-  const reason = requireReason(input.reason);
+  const reason = checkedLineReason(input.reason);
   await sequelize.transaction(async (transaction) => {
     const { row, teamId } = await lockLineForEdit(actor, input.lineId, input.version, transaction);
     const current = toLineRecord(row);
@@ -265,7 +257,7 @@ async function setLineState(
   input: { lineId: string; version: number; reason: string },
   action: "line.retire" | "line.restore" | "line.verify",
 ): Promise<LineRecord> {
-  const reason = requireReason(input.reason);
+  const reason = checkedLineReason(input.reason);
   await sequelize.transaction(async (transaction) => {
     const { row, teamId } = await lockLineForEdit(actor, input.lineId, input.version, transaction);
     const set =

@@ -19,9 +19,9 @@ import {
 } from "./line-library-rows";
 import type { ImportPreview } from "./line-library-types";
 import { countOf } from "@/lib/text/count-of";
+import { MAX_IMPORT_BYTES, MAX_IMPORT_LABEL } from "@/lib/validation/line-schemas";
 
 export { MATCH_TOLERANCE_NM } from "./line-import-plan";
-export const MAX_IMPORT_BYTES = 5 * 1024 * 1024;
 /**
  * Rows one import takes. A 100,000-row file held the draft's lock for minutes; a bounded file keeps the
  * preview and the apply to seconds, and a larger table goes in as several files one after the other.
@@ -44,10 +44,7 @@ function assertSize(csvText: string): void {
     });
   }
   if (Buffer.byteLength(csvText, "utf8") > MAX_IMPORT_BYTES) {
-    throw new AppError(
-      "too_large",
-      `The file is larger than ${MAX_IMPORT_BYTES / 1024 / 1024} MB.`,
-    );
+    throw new AppError("too_large", `The file is larger than ${MAX_IMPORT_LABEL}.`);
   }
   // Counted before any lock or parse: a record takes at least one line, so this never undercounts.
   const rows = countDataLines(csvText);

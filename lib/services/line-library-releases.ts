@@ -3,12 +3,13 @@
 import "server-only";
 import { QueryTypes } from "sequelize";
 import { formatLineTableCsv } from "@/lib/lines";
-import { AppError, notFound } from "@/lib/errors";
+import { notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
 import { sendMail } from "@/lib/mail/send-mail";
 import { releasePublishedMail } from "@/lib/mail/templates";
 import { Membership, User, sequelize } from "@/models";
+import { checkedReleaseNotes } from "@/lib/validation/line-schemas";
 import { recordAudit } from "./audit";
 import { TABULATED_NM, differingFields, toLineRecord, toLineTableRow } from "./line-library-rows";
 import { lockDraft, selectLines, visibleRelease } from "./line-library-access";
@@ -20,12 +21,7 @@ export async function publishDraft(
   actor: Actor,
   input: { releaseId: string; notes: string },
 ): Promise<ReleaseSummary> {
-  const notes = (input.notes ?? "").trim();
-  if (!notes) {
-    throw new AppError("validation", "Say what changed.", {
-      fieldErrors: { notes: ["Describe this release."] },
-    });
-  }
+  const notes = checkedReleaseNotes(input.notes);
   const published = await sequelize.transaction(async (transaction) => {
     const draft = await lockDraft(actor, input.releaseId, "lines.publish", transaction, "UPDATE");
     const [{ next }] = await sequelize.query<{ next: number }>(

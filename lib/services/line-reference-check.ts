@@ -15,6 +15,7 @@ import {
 import { AppError } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { sequelize } from "@/models";
+import { MAX_REFERENCE_BYTES, MAX_REFERENCE_LABEL } from "@/lib/validation/line-schemas";
 import { recordAudit } from "./audit";
 import { lockDraft, selectLines } from "./line-library-access";
 import { countDataLines } from "./line-library-import";
@@ -33,8 +34,6 @@ import type {
   ReferenceDecision,
 } from "./line-library-types";
 
-/** A reference file's largest size: a whole-table export of a few thousand lines is well under it. */
-export const MAX_REFERENCE_BYTES = 2 * 1024 * 1024;
 /** Reference lines one check takes (counted before parsing), as many as one import. */
 export const MAX_REFERENCE_ROWS = 20_000;
 /** Agreement is |Δ| ≤ k·u_c; k = 1 is "within the combined uncertainty" as the check promises. */
@@ -60,8 +59,8 @@ function assertBounded(csvText: string): void {
   if (Buffer.byteLength(csvText, "utf8") > MAX_REFERENCE_BYTES) {
     throw new AppError(
       "too_large",
-      `The reference file is larger than ${MAX_REFERENCE_BYTES / 1024 / 1024} MB; nothing was compared. Split it by element and check the parts one after the other.`,
-      { fieldErrors: { csv: [`At most ${MAX_REFERENCE_BYTES / 1024 / 1024} MB per file.`] } },
+      `The reference file is larger than ${MAX_REFERENCE_LABEL}; nothing was compared. Split it by element and check the parts one after the other.`,
+      { fieldErrors: { csv: [`At most ${MAX_REFERENCE_LABEL} per file.`] } },
     );
   }
   const rows = countDataLines(csvText);

@@ -1,5 +1,5 @@
 // The state every form's server action returns: field errors plus one message.
-import { AppError, type FieldErrors } from "@/lib/errors";
+import { expectedError, type FieldErrors } from "@/lib/errors";
 import type { z } from "zod";
 import { zodFieldErrors } from "./field-errors";
 
@@ -23,13 +23,17 @@ export function parseForm<T extends z.ZodType>(
   return { state: invalidFormState(parsed.error) };
 }
 
+/** What a form says above its fields when some of them are refused. */
+export const FIELDS_NEED_ANOTHER_LOOK = "Some fields need another look.";
+
 /** Field errors of a failed parse, with the one message every form shows above them. */
 export function invalidFormState(error: z.ZodError, values?: Record<string, string>): FormState {
-  return { message: "Some fields need another look.", fieldErrors: zodFieldErrors(error), values };
+  return { message: FIELDS_NEED_ANOTHER_LOOK, fieldErrors: zodFieldErrors(error), values };
 }
 
 /** Maps an expected error to FormState; anything else is re-thrown to the error boundary. */
 export function formError(error: unknown): FormState {
-  if (error instanceof AppError) return { message: error.message, fieldErrors: error.fieldErrors };
+  const expected = expectedError(error);
+  if (expected) return { message: expected.message, fieldErrors: expected.fieldErrors };
   throw error;
 }

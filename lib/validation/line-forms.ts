@@ -1,5 +1,6 @@
 // Schemas of the line library's pages: the browse and compare search parameters, and the lab lead's
-// draft forms (a line's values, a change with its reason, an import, a publish).
+// draft forms (a line's values, a change with its reason, an import, a publish), each derived from the
+// API's schema of the same use case (line-schemas.ts) with the form's own fields added.
 import Papa from "papaparse";
 import { z } from "zod";
 import { text } from "./text";
@@ -15,13 +16,17 @@ import type {
 import type { FormState } from "./form-state";
 import { SOURCE_KINDS, type SourceKind } from "@/lib/spectrum/types";
 import type { FieldErrors } from "@/lib/errors";
+import {
+  importApplySchema,
+  importPreviewSchema,
+  lineStateSchema,
+  publishSchema,
+  referenceCheckApplySchema,
+  referenceCheckPreviewSchema,
+} from "./line-schemas";
 
 /** Rows per page of the browse and draft tables. */
 export const LINE_PAGE_SIZE = 100;
-
-/** The largest CSV the import accepts: next.config.js lets server actions take 2 MB bodies. */
-export const IMPORT_MAX_BYTES = 2 * 1024 * 1024;
-export const IMPORT_MAX_LABEL = "2 MB";
 
 const SORT_KEYS = ["wavelength", "species", "intensity"] as const satisfies readonly LineSortKey[];
 
@@ -143,54 +148,30 @@ export const compareSearchSchema = z.object({
   to: z.preprocess(first, z.uuid().optional().catch(undefined)),
 });
 
-const reason = text({ error: "Say why." })
-  .trim()
-  .min(3, "Say why, in a few words.")
-  .max(500, "Use at most 500 characters.");
-
-/** Retire, restore or mark verified: which row, its version, and why. */
-export const lineChangeSchema = z.object({
-  lineId: z.uuid(),
-  version: z.coerce.number().int().min(0),
-  change: z.enum(["retire", "restore", "verify"]),
-  reason,
-});
+/** A form's version field: the number it was read at, sent back as text. */
+const formVersion = z.coerce.number().int().min(0);
 
 /** The reason and lock of a correction; the values come from parseLineInputForm. */
-export const lineCorrectionSchema = z.object({
+export const lineCorrectionSchema = lineStateSchema.extend({
   lineId: z.uuid(),
-  version: z.coerce.number().int().min(0),
-  reason,
+  version: formVersion,
 });
 
-export const lineAddSchema = z.object({ releaseId: z.uuid(), reason });
-
-export const importPreviewSchema = z.object({
-  releaseId: z.uuid(),
-  csv: text({ error: "Choose a CSV file or paste its text." })
-    .max(
-      IMPORT_MAX_BYTES,
-      `The file is larger than ${IMPORT_MAX_LABEL}; split it into smaller files.`,
-    )
-    .refine((text) => text.trim().length > 0, "Choose a CSV file or paste its text."),
+/** Retire, restore or mark verified: which row, its version, and why. */
+export const lineChangeSchema = lineCorrectionSchema.extend({
+  change: z.enum(["retire", "restore", "verify"]),
 });
 
-export const importApplySchema = importPreviewSchema.extend({
-  fingerprint: text().min(8).max(200),
-  reason: text()
-    .trim()
-    .max(500, "Use at most 500 characters.")
-    .optional()
-    .transform((s) => s || undefined),
-});
+export const lineAddSchema = lineStateSchema.pick({ reason: true }).extend({ releaseId: z.uuid() });
 
-export const publishSchema = z.object({
-  releaseId: z.uuid(),
-  notes: text({ error: "Write what changed in this release." })
-    .trim()
-    .min(3, "Write what changed in this release.")
-    .max(4000, "Use at most 4,000 characters."),
-});
+export const importPreviewFormSchema = importPreviewSchema.extend({ releaseId: z.uuid() });
+
+/** The lead has seen the rejected rows in the preview, so the form never asks about them. */
+export const importApplyFormSchema = importApplySchema
+  .omit({ skipRejected: true })
+  .extend({ releaseId: z.uuid() });
+
+export const publishFormSchema = publishSchema.extend({ releaseId: z.uuid() });
 
 /**
  * A correction form shows both wavelengths. When the lead edits one of them, the other is left blank
@@ -270,25 +251,18 @@ export function toImportPreviewView(preview: ImportPreview): ImportPreviewView {
 }
 
 /** The reference check's file form: the draft, the file's text and the medium of rows without a medium cell. */
-export const referenceCheckFormSchema = z.object({
+export const referenceCheckFormSchema = referenceCheckPreviewSchema.extend({
   releaseId: z.uuid(),
-  csv: text({ error: "Choose a reference CSV file." })
-    .max(IMPORT_MAX_BYTES, `The file is larger than ${IMPORT_MAX_LABEL}; split it by element.`)
-    .refine((text) => text.trim().length > 0, "Choose a reference CSV file."),
   medium: z
     .enum(["", "air", "vacuum"], { error: "Choose air, vacuum or the file's medium column." })
     .optional()
     .transform((m) => (m ? m : undefined)),
 });
 
-export const referenceApplyFormSchema = referenceCheckFormSchema.extend({
-  fingerprint: text().min(8).max(200),
-  reason: text()
-    .trim()
-    .max(500, "Use at most 500 characters.")
-    .optional()
-    .transform((s) => s || undefined),
-});
+/** The decisions come from the form's decision:<line id> fields (referenceDecisionsOf). */
+export const referenceApplyFormSchema = referenceCheckApplySchema
+  .omit({ decisions: true })
+  .extend(referenceCheckFormSchema.pick({ releaseId: true, medium: true }).shape);
 
 /** The decisions of the confirm form: fields named decision:<line id> holding take, keep or leave. */
 export function referenceDecisionsOf(

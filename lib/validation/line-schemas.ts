@@ -1,19 +1,51 @@
-// Schemas of the line library's API: the line query, a typed line, edits with version and reason,
-// imports, publishing and release comparison. Values are checked in full by the service (the CSV rules).
+// Schemas of the line library's use cases: the line query, a typed line, edits with version and reason,
+// imports, publishing and release comparison. The API routes parse with them, the pages' forms
+// (line-forms.ts) derive theirs from them, and the services check a reason and release notes with the
+// same rules; the values are checked in full by the service (the CSV rules).
 import { z } from "zod";
 import { text } from "./text";
 import { LINE_FLAGS, type LineFlag } from "@/lib/lines";
 import { AppError } from "@/lib/errors";
 import { bodyText } from "@/lib/http/read-body";
-import { isRecordId } from "./record-id";
 import { zodFieldErrors } from "./field-errors";
 
 const SOURCE_KINDS = ["flame", "arc", "spark", "plasma", "lamp"] as const;
 const optionalNumber = z.number().finite().nullable().optional();
-const reason = text({ error: "Say why you make this change." })
+
+/** Why a draft line is added, corrected, retired, restored or verified: 3–500 characters. */
+export const lineReasonSchema = text({ error: "Say why." })
   .trim()
-  .min(1, "Say why you make this change.")
-  .max(1000, "Use at most 1000 characters.");
+  .min(3, "Say why, in a few words.")
+  .max(500, "Use at most 500 characters.");
+
+/** The reason of an import or a reference check: blank for the default one, else a line reason. */
+const optionalReason = z.preprocess(
+  (value) =>
+    value === null || (typeof value === "string" && value.trim() === "") ? undefined : value,
+  lineReasonSchema.optional(),
+);
+
+/** The notes of a published release: what changed, 3–4,000 characters (its mail and audit reason). */
+export const releaseNotesSchema = text({ error: "Write what changed in this release." })
+  .trim()
+  .min(3, "Write what changed in this release.")
+  .max(4000, "Use at most 4,000 characters.");
+
+const MiB = 1024 * 1024;
+
+/** The largest line-table CSV one import takes, from the page or the API: 20,000 exported rows fit. */
+export const MAX_IMPORT_BYTES = 5 * MiB;
+export const MAX_IMPORT_LABEL = `${MAX_IMPORT_BYTES / MiB} MB`;
+export const IMPORT_TOO_LARGE_MESSAGE = `The file is larger than ${MAX_IMPORT_LABEL}; split it into smaller files.`;
+
+/**
+ * A reference file's largest size, from the page or the API: a whole-table export of a few thousand
+ * lines is well under it.
+ */
+export const MAX_REFERENCE_BYTES = 2 * MiB;
+export const MAX_REFERENCE_LABEL = `${MAX_REFERENCE_BYTES / MiB} MB`;
+export const REFERENCE_TOO_LARGE_MESSAGE = `The file is larger than ${MAX_REFERENCE_LABEL}; split it by element.`;
+
 const version = z.number({ error: "Send the version you edited." }).int().min(0);
 
 /** Query-string numbers: blank means absent. */
@@ -72,26 +104,36 @@ export const lineInputSchema = z.object({
   note: text().max(2000).optional(),
 });
 
-export const addLineSchema = z.object({ line: lineInputSchema, reason });
-export const updateLineSchema = z.object({ version, line: lineInputSchema.partial(), reason });
-export const lineStateSchema = z.object({ version, reason });
+export const addLineSchema = z.object({ line: lineInputSchema, reason: lineReasonSchema });
+export const updateLineSchema = z.object({
+  version,
+  line: lineInputSchema.partial(),
+  reason: lineReasonSchema,
+});
+export const lineStateSchema = z.object({ version, reason: lineReasonSchema });
 export const openDraftSchema = z.object({ teamId: z.uuid("Choose a team.") });
-export const importPreviewSchema = z.object({ csv: text().min(1, "The file is empty.") });
+export const importPreviewSchema = z.object({
+  csv: text({ error: "Choose a CSV file or paste its text." })
+    .max(MAX_IMPORT_BYTES, IMPORT_TOO_LARGE_MESSAGE)
+    .refine((csv) => csv.trim().length > 0, "Choose a CSV file or paste its text."),
+});
 export const importApplySchema = importPreviewSchema.extend({
-  fingerprint: text().min(16, "Preview the file first."),
+  fingerprint: text().min(16, "Preview the file first.").max(200),
   skipRejected: z.boolean().optional(),
-  reason: text().trim().max(1000).optional(),
+  reason: optionalReason,
 });
 const medium = z.enum(["air", "vacuum"], {
   error: 'Say whether the reference wavelengths are in "air" or in "vacuum".',
 });
 /** A reference check's preview: the reference CSV and, for rows without a medium column, their medium. */
 export const referenceCheckPreviewSchema = z.object({
-  csv: text().min(1, "The reference file is empty."),
+  csv: text({ error: "Choose a reference CSV file." })
+    .max(MAX_REFERENCE_BYTES, REFERENCE_TOO_LARGE_MESSAGE)
+    .refine((csv) => csv.trim().length > 0, "Choose a reference CSV file."),
   medium: medium.optional(),
 });
 export const referenceCheckApplySchema = referenceCheckPreviewSchema.extend({
-  fingerprint: text().min(16, "Check the file first: apply what a preview showed."),
+  fingerprint: text().min(16, "Check the file first: apply what a preview showed.").max(200),
   decisions: z
     .array(
       z.object({
@@ -103,19 +145,14 @@ export const referenceCheckApplySchema = referenceCheckPreviewSchema.extend({
     )
     .max(20_000)
     .optional(),
-  reason: text().trim().max(1000).optional(),
+  reason: optionalReason,
 });
-/** The cap of a reference check's body (a 2 MB file, with room for JSON's escapes and the decisions). */
+/** The cap of a reference check's body (the file, with room for JSON's escapes and the decisions). */
 export const REFERENCE_CHECK_ROUTE_OPTIONS = {
-  maxBodyBytes: 4 * 1024 * 1024,
-  tooLargeMessage: "The reference file is larger than the 2 MB a reference check accepts.",
+  maxBodyBytes: MAX_REFERENCE_BYTES + 2 * MiB,
+  tooLargeMessage: `The reference file is larger than the ${MAX_REFERENCE_LABEL} a reference check accepts.`,
 };
-export const publishSchema = z.object({
-  notes: text({ error: "Describe this release." })
-    .trim()
-    .min(1, "Describe this release.")
-    .max(5000),
-});
+export const publishSchema = z.object({ notes: releaseNotesSchema });
 export const diffQuerySchema = z.object({
   teamId: z.uuid().optional(),
   from: z.uuid(),
@@ -153,18 +190,33 @@ export function toLineChanges(line: Partial<ParsedLine>) {
   return changes as Partial<ReturnType<typeof toLineInput>>;
 }
 
-/** A route's id segment (every API [id] route): anything but a UUID is "not found", never a database error. */
-export function idParam(value: string | undefined, what = "No such record."): string {
-  if (!isRecordId(value)) throw new AppError("not_found", what);
-  return value;
+/** The cap of an import body (the file, with room for JSON's escapes when sent as {csv}). */
+export const IMPORT_ROUTE_OPTIONS = {
+  maxBodyBytes: MAX_IMPORT_BYTES + MiB,
+  tooLargeMessage: `The line-table file is larger than the ${MAX_IMPORT_LABEL} an import accepts.`,
+};
+
+/** A service's own check of a value with a use case's schema: its value, or 400 naming the field. */
+function checked<T extends z.ZodType>(
+  schema: T,
+  field: string,
+  value: unknown,
+  message: string,
+): z.infer<T> {
+  const parsed = schema.safeParse(value);
+  if (parsed.success) return parsed.data;
+  throw new AppError("validation", message, {
+    fieldErrors: { [field]: parsed.error.issues.map((issue) => issue.message) },
+  });
 }
 
-/** The cap of an import body (a 5 MB file, with room for JSON's escapes when sent as {csv}). */
-export const MAX_IMPORT_BODY_BYTES = 6 * 1024 * 1024;
-export const IMPORT_ROUTE_OPTIONS = {
-  maxBodyBytes: MAX_IMPORT_BODY_BYTES,
-  tooLargeMessage: "The line-table file is larger than the 5 MB an import accepts.",
-};
+/** A draft edit's reason as the services take it (trimmed), by the rule the forms and the API use. */
+export const checkedLineReason = (reason: unknown): string =>
+  checked(lineReasonSchema, "reason", reason, "Say why.");
+
+/** A release's notes as publishing takes them (trimmed), by the rule the form and the API use. */
+export const checkedReleaseNotes = (notes: unknown): string =>
+  checked(releaseNotesSchema, "notes", notes, "Say what changed.");
 
 /**
  * An import body: JSON checked by `schema`, or the file itself as text/csv (then fingerprint,

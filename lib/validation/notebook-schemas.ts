@@ -3,9 +3,7 @@
 // the lists, which reject unknown values with 400.
 import { z } from "zod";
 import { text } from "./text";
-import { AppError } from "@/lib/errors";
 import { RUN_STATUSES, type RunStatus } from "@/lib/runs/types";
-import { zodFieldErrors } from "./field-errors";
 import { blank } from "./form-data";
 
 export const notebookTitle = text({ error: "Give the notebook a title." })
@@ -71,17 +69,3 @@ export const spectraQuerySchema = z.object({
   ),
 });
 export type SpectraQuery = z.infer<typeof spectraQuerySchema>;
-
-/** Parses a request's query string (teamId aside, which `teamIdQuery` reads) or answers 400 with field messages. */
-export function parseQuery<T extends z.ZodType>(request: Request, schema: T): z.infer<T> {
-  const params = new URL(request.url).searchParams;
-  const values: Record<string, string> = {};
-  for (const [key, value] of params) if (key !== "teamId") values[key] = value;
-  const parsed = schema.safeParse(values);
-  if (!parsed.success) {
-    throw new AppError("validation", "Some filters are not right.", {
-      fieldErrors: zodFieldErrors(parsed.error),
-    });
-  }
-  return parsed.data;
-}

@@ -175,7 +175,7 @@ describe("who may change what", () => {
         await patch(outsider, `/api/lines/${line.id}`, {
           version: line.version,
           line: { note: "x" },
-          reason: "x",
+          reason: "a test edit",
         })
       ).status,
     ).toBe(404);
@@ -190,12 +190,12 @@ describe("who may change what", () => {
     const edit = await patch(chemist, `/api/lines/${line.id}`, {
       version: line.version,
       line: { note: "x" },
-      reason: "x",
+      reason: "a test edit",
     });
     expect(edit.status).toBe(403);
-    expect((await chemist.post(`/api/releases/${draft.id}/publish`, { notes: "x" })).status).toBe(
-      403,
-    );
+    expect(
+      (await chemist.post(`/api/releases/${draft.id}/publish`, { notes: "a test release" })).status,
+    ).toBe(403);
   });
 
   it("refuses every route that would change published release 1 (409)", async () => {
@@ -524,7 +524,7 @@ describe("publishing and comparing", () => {
     const frozen = await patch(lead, `/api/lines/${line.id}`, {
       version: retired.version,
       line: { note: "x" },
-      reason: "x",
+      reason: "a test edit",
     });
     expect(frozen.status).toBe(404); // the retired row is gone from release 2
     const [kept] = (
@@ -533,7 +533,7 @@ describe("publishing and comparing", () => {
     const refused = await patch(lead, `/api/lines/${kept.id}`, {
       version: kept.version,
       line: { note: "x" },
-      reason: "x",
+      reason: "a test edit",
     });
     expect(refused.status).toBe(409);
     const page = await chemist.get<LinePage>(`/api/lines?teamId=${teamId}`);

@@ -3,22 +3,15 @@
 // calls one service and maps the result; the service authorises. (Calibrating is saved from the workbench's own action.)
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
-import { currentActor } from "@/lib/auth/session";
-import { unauthenticated } from "@/lib/errors";
+import { requireActor } from "@/lib/auth/session";
 import { createInstrument, updateInstrument } from "@/lib/services/instruments";
 import { formError, invalidFormState, type FormState } from "@/lib/validation/form-state";
-import { idParam } from "@/lib/validation/line-schemas";
 import { formValues } from "@/lib/validation/form-data";
 import {
   instrumentInputFromForm,
   instrumentUpdateFromForm,
 } from "@/lib/validation/instrument-schemas";
-
-async function actorOrThrow() {
-  const actor = await currentActor();
-  if (!actor) throw unauthenticated();
-  return actor;
-}
+import { idParam } from "@/lib/validation/request-params";
 
 export async function createInstrumentAction(
   _state: FormState,
@@ -28,7 +21,7 @@ export async function createInstrumentAction(
   if (!parsed.success) return invalidFormState(parsed.error, formValues(formData));
   let id: string;
   try {
-    id = (await createInstrument(await actorOrThrow(), parsed.data)).id;
+    id = (await createInstrument(await requireActor(), parsed.data)).id;
   } catch (error) {
     return { ...formError(error), values: formValues(formData) };
   }
@@ -46,7 +39,7 @@ export async function updateInstrumentAction(
   let id: string;
   try {
     id = idParam(String(formData.get("instrumentId") ?? ""), "No such instrument.");
-    await updateInstrument(await actorOrThrow(), id, parsed.data);
+    await updateInstrument(await requireActor(), id, parsed.data);
   } catch (error) {
     return { ...formError(error), values: formValues(formData) };
   }

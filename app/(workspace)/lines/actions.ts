@@ -5,8 +5,8 @@
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
 import { z } from "zod";
-import { currentActor } from "@/lib/auth/session";
-import { AppError, unauthenticated } from "@/lib/errors";
+import { requireActor } from "@/lib/auth/session";
+import { expectedError } from "@/lib/errors";
 import {
   addLine,
   openDraft,
@@ -18,18 +18,16 @@ import {
 import { applyImport, previewImport } from "@/lib/services/line-library-import";
 import { publishDraft } from "@/lib/services/line-library-releases";
 import { applyReferenceCheck, previewReferenceCheck } from "@/lib/services/line-reference-check";
-import { formError, parseForm } from "@/lib/validation/form-state";
+import { FIELDS_NEED_ANOTHER_LOOK, formError, parseForm } from "@/lib/validation/form-state";
 import {
-  IMPORT_MAX_BYTES,
-  IMPORT_MAX_LABEL,
-  importApplySchema,
-  importPreviewSchema,
+  importApplyFormSchema,
+  importPreviewFormSchema,
   keepEditedWavelength,
   lineAddSchema,
   lineChangeSchema,
   lineCorrectionSchema,
   parseLineInputForm,
-  publishSchema,
+  publishFormSchema,
   referenceApplyFormSchema,
   referenceCheckFormSchema,
   referenceDecisionsOf,
@@ -39,23 +37,19 @@ import {
   type LineFormState,
   type ReferenceCheckFormState,
 } from "@/lib/validation/line-forms";
+import {
+  IMPORT_TOO_LARGE_MESSAGE,
+  MAX_IMPORT_BYTES,
+  MAX_REFERENCE_BYTES,
+  REFERENCE_TOO_LARGE_MESSAGE,
+} from "@/lib/validation/line-schemas";
 
 const CONFLICT_MESSAGE = "Someone else changed this line first. Reload to see their change.";
 
-async function actorOrThrow() {
-  const actor = await currentActor();
-  if (!actor) throw unauthenticated();
-  return actor;
-}
-
 /** Like formError, with the optimistic-locking answer (409) worded for the line library. */
 function lineFormError(error: unknown): LineFormState {
-  if (
-    (error instanceof AppError && error.code === "conflict") ||
-    (error instanceof Error && error.name === "SequelizeOptimisticLockError")
-  ) {
+  if (expectedError(error)?.code === "conflict")
     return { message: CONFLICT_MESSAGE, conflict: true };
-  }
   const state = formError(error);
   return { ...state, fieldErrors: toLineFormFieldErrors(state.fieldErrors) };
 }
@@ -66,7 +60,7 @@ function revalidateLines() {
 
 export async function openDraftAction(formData: FormData): Promise<void> {
   const teamId = z.uuid().parse(formData.get("teamId"));
-  await openDraft(await actorOrThrow(), teamId);
+  await openDraft(await requireActor(), teamId);
   revalidateLines();
   redirect("/lines/draft");
 }
@@ -79,12 +73,12 @@ export async function addLineAction(
   const values = parseLineInputForm(formData);
   if (state || values.fieldErrors) {
     return {
-      message: "Some fields need another look.",
+      message: FIELDS_NEED_ANOTHER_LOOK,
       fieldErrors: { ...state?.fieldErrors, ...values.fieldErrors },
     };
   }
   try {
-    await addLine(await actorOrThrow(), {
+    await addLine(await requireActor(), {
       releaseId: data.releaseId,
       line: values.input,
       reason: data.reason,
@@ -108,12 +102,12 @@ export async function correctLineAction(
   const values = parseLineInputForm(formData);
   if (state || values.fieldErrors) {
     return {
-      message: "Some fields need another look.",
+      message: FIELDS_NEED_ANOTHER_LOOK,
       fieldErrors: { ...state?.fieldErrors, ...values.fieldErrors },
     };
   }
   try {
-    await updateLine(await actorOrThrow(), {
+    await updateLine(await requireActor(), {
       lineId: data.lineId,
       version: data.version,
       line: values.input,
@@ -140,7 +134,7 @@ export async function changeLineAction(
   if (state) return state;
   const change = { retire: retireLine, restore: restoreLine, verify: verifyLine }[data.change];
   try {
-    await change(await actorOrThrow(), {
+    await change(await requireActor(), {
       lineId: data.lineId,
       version: data.version,
       reason: data.reason,
@@ -158,28 +152,31 @@ export async function changeLineAction(
  */
 const oneLineBreak = (text: string) => text.replace(/\r\n?/g, "\n");
 
-/** The CSV text of the import form: the chosen file, or else the pasted text. */
-async function importText(formData: FormData): Promise<string | { tooLarge: true }> {
+/** The CSV text of the import or reference form: the chosen file (up to maxBytes), or else the pasted text. */
+async function importText(
+  formData: FormData,
+  maxBytes: number,
+): Promise<string | { tooLarge: true }> {
   const file = formData.get("file");
   if (file instanceof File && file.size > 0) {
-    if (file.size > IMPORT_MAX_BYTES) return { tooLarge: true };
+    if (file.size > maxBytes) return { tooLarge: true };
     return oneLineBreak(await file.text());
   }
   return oneLineBreak(String(formData.get("csv") ?? ""));
 }
 
 async function previewImportStep(formData: FormData): Promise<ImportFormState> {
-  const text = await importText(formData);
+  const text = await importText(formData, MAX_IMPORT_BYTES);
   if (typeof text !== "string") {
-    return { message: `The file is larger than ${IMPORT_MAX_LABEL}; split it into smaller files.` };
+    return { message: IMPORT_TOO_LARGE_MESSAGE };
   }
   const { data, state } = parseForm(
-    importPreviewSchema,
+    importPreviewFormSchema,
     toFormData({ releaseId: formData.get("releaseId"), csv: text }),
   );
   if (state) return state;
   try {
-    const preview = await previewImport(await actorOrThrow(), {
+    const preview = await previewImport(await requireActor(), {
       releaseId: data.releaseId,
       csvText: data.csv,
     });
@@ -194,13 +191,13 @@ async function applyImportStep(
   formData: FormData,
 ): Promise<ImportFormState> {
   formData.set("csv", oneLineBreak(String(formData.get("csv") ?? "")));
-  const parsed = parseForm(importApplySchema, formData);
+  const parsed = parseForm(importApplyFormSchema, formData);
   if (parsed.state) return { ...state, ...parsed.state, ok: false };
   const { data } = parsed;
   let result: { added: number; changed: number };
   try {
     // The lead has seen the rejected rows in the preview: applying means "without them".
-    result = await applyImport(await actorOrThrow(), {
+    result = await applyImport(await requireActor(), {
       releaseId: data.releaseId,
       csvText: data.csv,
       fingerprint: data.fingerprint,
@@ -236,9 +233,9 @@ export async function importAction(
 }
 
 async function previewReferenceStep(formData: FormData): Promise<ReferenceCheckFormState> {
-  const text = await importText(formData);
+  const text = await importText(formData, MAX_REFERENCE_BYTES);
   if (typeof text !== "string") {
-    return { message: `The file is larger than ${IMPORT_MAX_LABEL}; split it by element.` };
+    return { message: REFERENCE_TOO_LARGE_MESSAGE };
   }
   const { data, state } = parseForm(
     referenceCheckFormSchema,
@@ -250,7 +247,7 @@ async function previewReferenceStep(formData: FormData): Promise<ReferenceCheckF
   );
   if (state) return state;
   try {
-    const preview = await previewReferenceCheck(await actorOrThrow(), {
+    const preview = await previewReferenceCheck(await requireActor(), {
       releaseId: data.releaseId,
       csvText: data.csv,
       medium: data.medium,
@@ -270,7 +267,7 @@ async function applyReferenceStep(
   if (parsed.state) return { ...state, ...parsed.state, ok: false };
   const { data } = parsed;
   try {
-    const applied = await applyReferenceCheck(await actorOrThrow(), {
+    const applied = await applyReferenceCheck(await requireActor(), {
       releaseId: data.releaseId,
       csvText: data.csv,
       medium: data.medium,
@@ -315,11 +312,11 @@ export async function publishAction(
   _state: LineFormState,
   formData: FormData,
 ): Promise<LineFormState> {
-  const { data, state } = parseForm(publishSchema, formData);
+  const { data, state } = parseForm(publishFormSchema, formData);
   if (state) return state;
   let number: number | null;
   try {
-    const release = await publishDraft(await actorOrThrow(), {
+    const release = await publishDraft(await requireActor(), {
       releaseId: data.releaseId,
       notes: data.notes,
     });

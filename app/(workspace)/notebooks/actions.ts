@@ -3,21 +3,14 @@
 // calls one service and maps the result; the services authorise.
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
-import { currentActor } from "@/lib/auth/session";
-import { unauthenticated } from "@/lib/errors";
+import { requireActor } from "@/lib/auth/session";
 import { createNotebook, renameNotebook } from "@/lib/services/notebooks";
 import { createRun } from "@/lib/services/runs";
 import { formError, invalidFormState, type FormState } from "@/lib/validation/form-state";
-import { idParam } from "@/lib/validation/line-schemas";
 import { notebookInputFromForm, notebookRenameSchema } from "@/lib/validation/notebook-schemas";
 import { formValues } from "@/lib/validation/form-data";
 import { runInputFromForm } from "@/lib/validation/run-schemas";
-
-async function actorOrThrow() {
-  const actor = await currentActor();
-  if (!actor) throw unauthenticated();
-  return actor;
-}
+import { idParam } from "@/lib/validation/request-params";
 
 export async function createNotebookAction(
   _state: FormState,
@@ -27,7 +20,7 @@ export async function createNotebookAction(
   if (!parsed.success) return invalidFormState(parsed.error, formValues(formData));
   let id: string;
   try {
-    id = (await createNotebook(await actorOrThrow(), parsed.data)).id;
+    id = (await createNotebook(await requireActor(), parsed.data)).id;
   } catch (error) {
     return { ...formError(error), values: formValues(formData) };
   }
@@ -48,7 +41,7 @@ export async function renameNotebookAction(
   if (!parsed.success) return invalidFormState(parsed.error, formValues(formData));
   try {
     const renamed = await renameNotebook(
-      await actorOrThrow(),
+      await requireActor(),
       idParam(notebookId, "No such notebook."),
       parsed.data,
     );
@@ -65,7 +58,7 @@ export async function startRunAction(_state: FormState, formData: FormData): Pro
   if (!parsed.success) return invalidFormState(parsed.error, formValues(formData));
   let id: string;
   try {
-    id = (await createRun(await actorOrThrow(), parsed.data)).id;
+    id = (await createRun(await requireActor(), parsed.data)).id;
   } catch (error) {
     return { ...formError(error), values: formValues(formData) };
   }

@@ -4,33 +4,18 @@
 import { revalidatePath } from "next/cache";
 import { headers } from "next/headers";
 import { redirect } from "next/navigation";
-import { currentActor } from "@/lib/auth/session";
+import { requireActor } from "@/lib/auth/session";
 import { clientAddress } from "@/lib/http/client-address";
-import { unauthenticated } from "@/lib/errors";
 import { amendRun } from "@/lib/services/run-amendments";
 import { addReviewMark, reviewRun, submitRun } from "@/lib/services/run-review-decisions";
-import { formError, type FormState } from "@/lib/validation/form-state";
-import { zodFieldErrors } from "@/lib/validation/field-errors";
+import { formError, invalidFormState, type FormState } from "@/lib/validation/form-state";
 import {
   decisionInputFromForm,
   markInputFromForm,
   submitInputFromForm,
 } from "@/lib/validation/review-schemas";
 
-async function actorOrThrow() {
-  const actor = await currentActor();
-  if (!actor) throw unauthenticated();
-  return actor;
-}
-
 const runIdOf = (formData: FormData) => String(formData.get("runId") ?? "");
-
-function invalid(
-  error: Parameters<typeof zodFieldErrors>[0],
-  values?: Record<string, string>,
-): FormState {
-  return { message: "Some fields need another look.", fieldErrors: zodFieldErrors(error), values };
-}
 
 function refreshRun(runId: string) {
   revalidatePath(`/runs/${runId}`);
@@ -40,10 +25,10 @@ function refreshRun(runId: string) {
 
 export async function submitRunAction(_state: FormState, formData: FormData): Promise<FormState> {
   const parsed = submitInputFromForm(formData);
-  if (!parsed.success) return invalid(parsed.error);
+  if (!parsed.success) return invalidFormState(parsed.error);
   const runId = runIdOf(formData);
   try {
-    await submitRun(await actorOrThrow(), runId, parsed.data);
+    await submitRun(await requireActor(), runId, parsed.data);
   } catch (error) {
     return formError(error);
   }
@@ -55,7 +40,7 @@ export async function amendRunAction(_state: FormState, formData: FormData): Pro
   const runId = runIdOf(formData);
   let amendmentId: string;
   try {
-    amendmentId = (await amendRun(await actorOrThrow(), runId)).id;
+    amendmentId = (await amendRun(await requireActor(), runId)).id;
   } catch (error) {
     return formError(error);
   }
@@ -66,10 +51,10 @@ export async function amendRunAction(_state: FormState, formData: FormData): Pro
 export async function addMarkAction(_state: FormState, formData: FormData): Promise<FormState> {
   const values = { comment: String(formData.get("comment") ?? "") };
   const parsed = markInputFromForm(formData);
-  if (!parsed.success) return invalid(parsed.error, values);
+  if (!parsed.success) return invalidFormState(parsed.error, values);
   const runId = runIdOf(formData);
   try {
-    await addReviewMark(await actorOrThrow(), runId, parsed.data);
+    await addReviewMark(await requireActor(), runId, parsed.data);
   } catch (error) {
     return { ...formError(error), values };
   }
@@ -80,11 +65,11 @@ export async function addMarkAction(_state: FormState, formData: FormData): Prom
 export async function decideRunAction(_state: FormState, formData: FormData): Promise<FormState> {
   const values = { comment: String(formData.get("comment") ?? "") };
   const parsed = decisionInputFromForm(formData);
-  if (!parsed.success) return invalid(parsed.error, values);
+  if (!parsed.success) return invalidFormState(parsed.error, values);
   const runId = runIdOf(formData);
   const address = clientAddress(await headers());
   try {
-    await reviewRun(await actorOrThrow(), runId, parsed.data, { address });
+    await reviewRun(await requireActor(), runId, parsed.data, { address });
   } catch (error) {
     return { ...formError(error), values };
   }

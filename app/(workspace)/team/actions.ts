@@ -2,9 +2,8 @@
 // Server actions of the team page: a lab lead changes a member's role, removes a member, and resends
 // or revokes an invitation. Each answers one sentence for the page's live region.
 import { revalidatePath } from "next/cache";
-import { currentActor } from "@/lib/auth/session";
+import { requireActor } from "@/lib/auth/session";
 import { ROLE_LABELS } from "@/lib/auth/roles";
-import { unauthenticated } from "@/lib/errors";
 import { changeMemberRole, removeMember } from "@/lib/services/team-members";
 import { resendInvitation, revokeInvitation } from "@/lib/services/teams";
 import {
@@ -14,12 +13,6 @@ import {
 } from "@/lib/validation/account-schemas";
 import { formError, parseForm, type FormState } from "@/lib/validation/form-state";
 
-async function actorOrThrow() {
-  const actor = await currentActor();
-  if (!actor) throw unauthenticated();
-  return actor;
-}
-
 export async function changeMemberRoleAction(
   _state: FormState,
   formData: FormData,
@@ -27,7 +20,7 @@ export async function changeMemberRoleAction(
   const { data, state } = parseForm(memberRoleFormSchema, formData);
   if (state) return state;
   try {
-    const member = await changeMemberRole(await actorOrThrow(), data);
+    const member = await changeMemberRole(await requireActor(), data);
     revalidatePath("/team");
     return {
       ok: true,
@@ -45,7 +38,7 @@ export async function removeMemberAction(
   const { data, state } = parseForm(memberFormSchema, formData);
   if (state) return state;
   try {
-    const removed = await removeMember(await actorOrThrow(), data);
+    const removed = await removeMember(await requireActor(), data);
     revalidatePath("/team");
     return {
       ok: true,
@@ -63,7 +56,7 @@ export async function resendInvitationAction(
   const { data, state } = parseForm(invitationFormSchema, formData);
   if (state) return state;
   try {
-    const invitation = await resendInvitation(await actorOrThrow(), data.invitationId);
+    const invitation = await resendInvitation(await requireActor(), data.invitationId);
     revalidatePath("/team");
     return {
       ok: true,
@@ -81,7 +74,7 @@ export async function revokeInvitationAction(
   const { data, state } = parseForm(invitationFormSchema, formData);
   if (state) return state;
   try {
-    const { email } = await revokeInvitation(await actorOrThrow(), data.invitationId);
+    const { email } = await revokeInvitation(await requireActor(), data.invitationId);
     revalidatePath("/team");
     return {
       ok: true,

@@ -2,7 +2,9 @@
 // format=csv every matching event as a CSV download. Filters: teamId, actorId, entity, entityId,
 // action (exact, or a prefix ending in "."), from/to (whole days in UTC, inclusive), cursor, limit.
 import { AppError } from "@/lib/errors";
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { defaultTeamId } from "@/lib/auth/default-team";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { exportAuditCsv, fetchAuditPage } from "@/lib/services/audit";
 import { auditQuerySchema } from "@/lib/validation/audit-schemas";
 import { zodFieldErrors } from "@/lib/validation/field-errors";
@@ -16,7 +18,7 @@ export const GET = apiRoute(async (request) => {
     });
   }
   const { format, cursor, limit, ...filter } = parsed.data;
-  const teamId = filter.teamId ?? actor.memberships[0]?.teamId;
+  const teamId = filter.teamId ?? defaultTeamId(actor);
   if (!teamId) throw new AppError("not_found", "You are not in a team yet.");
   if (format === "csv") {
     const { filename, stream } = await exportAuditCsv(actor, { ...filter, teamId });

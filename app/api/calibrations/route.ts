@@ -1,10 +1,11 @@
 // GET an instrument's calibrations (?instrumentId=), newest first; POST calibrates from a lamp spectrum
 // (with the workbench's excluded/added pairs: it saves exactly what POST /api/calibrations/preview shows).
 import { AppError } from "@/lib/errors";
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { createCalibration, fetchCalibrations } from "@/lib/services/calibrations";
-import { idParam } from "@/lib/validation/line-schemas";
 import { calibrationCreateSchema } from "@/lib/validation/calibration-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();

@@ -1,14 +1,14 @@
 // GET the team's instruments; POST creates one (lab leads).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { defaultTeamId } from "@/lib/auth/default-team";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { createInstrument, fetchInstruments } from "@/lib/services/instruments";
 import { instrumentCreateSchema } from "@/lib/validation/instrument-schemas";
-import { teamIdQuery } from "@/lib/validation/team-id-query";
+import { teamIdQuery } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();
-  return Response.json(
-    await fetchInstruments(actor, teamIdQuery(request, actor.memberships[0]?.teamId)),
-  );
+  return Response.json(await fetchInstruments(actor, teamIdQuery(request, defaultTeamId(actor))));
 });
 
 export const POST = apiRoute(async (request) => {

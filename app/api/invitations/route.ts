@@ -1,5 +1,6 @@
 // POST invites a person by e-mail into a team with a role (lab leads only).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { ACCOUNT_BODY_BYTES } from "@/lib/http/read-body";
 import { inviteMember } from "@/lib/services/teams";
 import { invitationSchema } from "@/lib/validation/account-schemas";

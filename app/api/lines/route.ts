@@ -1,5 +1,7 @@
 // GET lines of a release, filtered, sorted and paginated (default: the team's newest published release).
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { defaultTeamId } from "@/lib/auth/default-team";
+import { apiRoute } from "@/lib/http/api-handler";
 import { AppError } from "@/lib/errors";
 import { fetchLines, fetchReleases } from "@/lib/services/line-library-reads";
 import { lineQuerySchema } from "@/lib/validation/line-schemas";
@@ -14,7 +16,7 @@ export const GET = apiRoute(async (request) => {
     });
   }
   const { teamId: givenTeam, release, ...filters } = parsed.data;
-  const teamId = givenTeam ?? actor.memberships[0]?.teamId;
+  const teamId = givenTeam ?? defaultTeamId(actor);
   if (!teamId) throw new AppError("not_found", "You are not in a team yet.");
   let releaseId: string | undefined;
   let releaseNumber: number | undefined;

@@ -1,9 +1,9 @@
 // POST changes the signed-in person's password (the current one is asked again, under the password
 // throttle); answers what it ended: the other sessions and every access token.
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { clientAddress } from "@/lib/http/client-address";
 import { ACCOUNT_BODY_BYTES } from "@/lib/http/read-body";
-import { currentSessionId, usesBearerToken } from "@/lib/auth/session";
+import { currentSessionId, requireActor, usesBearerToken } from "@/lib/auth/session";
 import { changePassword, describeRevoked } from "@/lib/services/accounts";
 import { passwordChangeSchema } from "@/lib/validation/account-schemas";
 

@@ -1,5 +1,6 @@
 // POST analyses a sample spectrum into a new run of a notebook (peaks, matches, calls, all stored).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { createRun } from "@/lib/services/runs";
 import { runCreateSchema } from "@/lib/validation/run-schemas";
 

@@ -2,15 +2,17 @@
 // POST uploads a spectrum file (multipart: file, instrumentId, kind, label, optional xUnit and medium) and stores it;
 // POST /api/spectra/preview checks the same form without storing. Route handlers, not server actions,
 // and outside the proxy's matcher, so no body cap applies but ours (UPLOAD_ROUTE_OPTIONS, read before sign-in is checked).
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { defaultTeamId } from "@/lib/auth/default-team";
+import { apiRoute } from "@/lib/http/api-handler";
 import { fetchSpectra, uploadSpectrum } from "@/lib/services/spectra";
-import { parseQuery, spectraQuerySchema } from "@/lib/validation/notebook-schemas";
-import { teamIdQuery } from "@/lib/validation/team-id-query";
+import { spectraQuerySchema } from "@/lib/validation/notebook-schemas";
 import { readUploadForm, UPLOAD_ROUTE_OPTIONS } from "./upload-form";
+import { parseQuery, teamIdQuery } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();
-  const teamId = teamIdQuery(request, actor.memberships[0]?.teamId);
+  const teamId = teamIdQuery(request, defaultTeamId(actor));
   return Response.json(await fetchSpectra(actor, teamId, parseQuery(request, spectraQuerySchema)));
 });
 

@@ -1,5 +1,6 @@
 // GET the teams of the signed-in person with their role in each.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 
 export const GET = apiRoute(async () => {
   const actor = await requireActor();

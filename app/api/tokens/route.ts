@@ -1,5 +1,6 @@
 // GET the person's active access tokens; POST creates one and returns its secret once.
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { ACCOUNT_BODY_BYTES } from "@/lib/http/read-body";
 import { createAccessToken, fetchAccessTokens } from "@/lib/services/access-tokens";
 import { tokenCreateSchema } from "@/lib/validation/account-schemas";

@@ -1,8 +1,10 @@
 // toResponse: a lost or refused database connection answers 503 with Retry-After and a sentence (not
-// a 500); a value PostgreSQL cannot store answers 400; anything else unexpected stays a generic 500.
+// a 500); a value PostgreSQL cannot store answers 400; a version conflict answers 409, and a form gets
+// the same sentence; anything else unexpected stays a generic 500.
 import { describe, expect, it, vi } from "vitest";
 import { isDatabaseUnavailable } from "@/lib/database-unavailable";
 import { toResponse } from "@/lib/errors";
+import { formError } from "@/lib/validation/form-state";
 
 function named(name: string, message = "x", extra: Record<string, unknown> = {}): Error {
   const error = new Error(message);
@@ -65,5 +67,26 @@ describe("database outages", () => {
       parent: Object.assign(new Error("x"), { code: "22021" }),
     });
     expect(toResponse(error).status).toBe(400);
+  });
+});
+
+describe("version conflicts", () => {
+  it("Sequelize's optimistic-lock error is a 409 conflict, and the same sentence in a form", async () => {
+    const stale = named(
+      "SequelizeOptimisticLockError",
+      "Attempting to update a stale model instance",
+    );
+    const response = toResponse(stale);
+    expect(response.status).toBe(409);
+    const body = (await response.json()) as { error: { code: string; message: string } };
+    expect(body.error.code).toBe("conflict");
+    expect(body.error.message).toMatch(/^Someone else changed this record first/);
+    expect(body.error.message).not.toMatch(/stale model/);
+    expect(formError(stale)).toEqual({ message: body.error.message, fieldErrors: undefined });
+  });
+
+  it("a form re-throws what is not expected, to the error boundary", () => {
+    const bug = new TypeError("boom");
+    expect(() => formError(bug)).toThrow(bug);
   });
 });

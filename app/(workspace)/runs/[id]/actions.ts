@@ -3,8 +3,8 @@
 // parses its form, calls the same service as the API and maps the result; the services authorise.
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
-import { currentActor } from "@/lib/auth/session";
-import { AppError, unauthenticated } from "@/lib/errors";
+import { requireActor } from "@/lib/auth/session";
+import { AppError } from "@/lib/errors";
 import { fetchRun, overrideCall, rerunRun, updateRunNotes } from "@/lib/services/runs";
 import { formError, invalidFormState, type FormState } from "@/lib/validation/form-state";
 import {
@@ -12,12 +12,6 @@ import {
   runOverrideFromForm,
   type RunNotesState,
 } from "@/lib/validation/run-schemas";
-
-async function actorOrThrow() {
-  const actor = await currentActor();
-  if (!actor) throw unauthenticated();
-  return actor;
-}
 
 export async function overrideCallAction(
   runId: string,
@@ -31,7 +25,7 @@ export async function overrideCallAction(
   };
   if (!parsed.success) return invalidFormState(parsed.error, values);
   try {
-    await overrideCall(await actorOrThrow(), runId, parsed.data);
+    await overrideCall(await requireActor(), runId, parsed.data);
   } catch (error) {
     return { ...formError(error), values };
   }
@@ -53,7 +47,7 @@ export async function saveRunNotesAction(
     lockVersion: String(formData.get("lockVersion") ?? ""),
   };
   if (!parsed.success) return invalidFormState(parsed.error, values);
-  const actor = await actorOrThrow();
+  const actor = await requireActor();
   try {
     const run = await updateRunNotes(actor, runId, parsed.data);
     revalidatePath(`/runs/${runId}`);
@@ -89,7 +83,7 @@ export async function rerunAction(
   void _formData;
   let id: string;
   try {
-    id = (await rerunRun(await actorOrThrow(), runId)).id;
+    id = (await rerunRun(await requireActor(), runId)).id;
   } catch (error) {
     return formError(error);
   }

@@ -1,7 +1,8 @@
 // GET /api/audit/verify?teamId= — lab leads: recompute the team's audit hash chain and report ok, or
 // the first broken link (sequence, event id, what differs), with the head to keep outside the database.
 import { AppError } from "@/lib/errors";
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { verifyAuditTrail } from "@/lib/services/audit-chain";
 import { zodFieldErrors } from "@/lib/validation/field-errors";
 import { auditVerifyQuerySchema } from "./schema";

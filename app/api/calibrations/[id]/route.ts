@@ -1,7 +1,8 @@
 // GET one calibration: model, pairs, residuals, covered range, drift, release and software version.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { fetchCalibration } from "@/lib/services/calibrations";
-import { idParam } from "@/lib/validation/line-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

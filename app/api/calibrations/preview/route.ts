@@ -1,6 +1,7 @@
 // POST previews a calibration (same body as POST /api/calibrations, with excluded/added pairs): the fit,
 // the model comparison, the lamp peaks and lines. Writes nothing.
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { previewCalibration } from "@/lib/services/calibrations";
 import { calibrationCreateSchema } from "@/lib/validation/calibration-schemas";
 

@@ -1,10 +1,11 @@
 // GET one instrument with its calibration history, newest first; PATCH edits it (lab leads; send every
 // field and the version you saw: 409 when stale, or when the geometry of a calibrated instrument changes).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { fetchCalibrations } from "@/lib/services/calibrations";
 import { fetchInstrument, updateInstrument } from "@/lib/services/instruments";
-import { idParam } from "@/lib/validation/line-schemas";
 import { instrumentUpdateSchema } from "@/lib/validation/instrument-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

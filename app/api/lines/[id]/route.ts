@@ -1,8 +1,10 @@
 // GET one line row; PATCH corrects it in the draft (with the version it was read at and a reason).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { updateLine } from "@/lib/services/line-library-draft";
 import { fetchLine } from "@/lib/services/line-library-reads";
-import { idParam, toLineChanges, updateLineSchema } from "@/lib/validation/line-schemas";
+import { toLineChanges, updateLineSchema } from "@/lib/validation/line-schemas";
+import { requireActor } from "@/lib/auth/session";
+import { idParam } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

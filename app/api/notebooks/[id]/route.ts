@@ -1,8 +1,9 @@
 // GET one notebook with its runs, newest first; PATCH renames it ({title, version}: 409 when stale).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { fetchNotebook, fetchNotebookRuns, renameNotebook } from "@/lib/services/notebooks";
-import { idParam } from "@/lib/validation/line-schemas";
 import { notebookRenameSchema } from "@/lib/validation/notebook-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

@@ -1,7 +1,8 @@
 // GET one release's summary.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { apiRoute } from "@/lib/http/api-handler";
 import { fetchRelease } from "@/lib/services/line-library-reads";
-import { idParam } from "@/lib/validation/line-schemas";
+import { requireActor } from "@/lib/auth/session";
+import { idParam } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

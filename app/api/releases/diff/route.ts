@@ -1,5 +1,6 @@
 // GET compares two releases of one team by line key: added, removed, changed (with the fields).
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { AppError } from "@/lib/errors";
 import { fetchRelease } from "@/lib/services/line-library-reads";
 import { diffReleases } from "@/lib/services/line-library-releases";

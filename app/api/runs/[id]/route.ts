@@ -1,9 +1,10 @@
 // GET one run exactly as it was stored: settings, calibration, release, peaks, calls (with the standing
 // verdict, the computed one and the override) and evidence. PATCH saves its notes ({notes, lockVersion}).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { fetchRun, updateRunNotes } from "@/lib/services/runs";
-import { idParam } from "@/lib/validation/line-schemas";
 import { runNotesSchema } from "@/lib/validation/run-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

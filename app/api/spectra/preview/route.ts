@@ -1,7 +1,8 @@
 // POST checks an upload without storing it (multipart, the same fields as POST /api/spectra): 200 with
 // the parsed facts, the duplicate warning and a thinned series for the preview chart; 413 when too
 // big, 400 with the core's located message when the file cannot be read. Writes nothing.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { previewSpectrumUpload } from "@/lib/services/spectra";
 import { readUploadForm, UPLOAD_ROUTE_OPTIONS } from "../upload-form";
 

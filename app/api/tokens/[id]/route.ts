@@ -1,7 +1,8 @@
 // DELETE revokes one of the person's access tokens.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { revokeAccessToken } from "@/lib/services/access-tokens";
-import { idParam } from "@/lib/validation/line-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const DELETE = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

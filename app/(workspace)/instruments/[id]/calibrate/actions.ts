@@ -3,8 +3,7 @@
 // handed to the same service, so the saved calibration is the one the chemist looked at.
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
-import { currentActor } from "@/lib/auth/session";
-import { unauthenticated } from "@/lib/errors";
+import { requireActor } from "@/lib/auth/session";
 import { createCalibration } from "@/lib/services/calibrations";
 import { formError, invalidFormState, type FormState } from "@/lib/validation/form-state";
 import { calibrationCreateSchema } from "@/lib/validation/calibration-schemas";
@@ -12,8 +11,7 @@ import { calibrationCreateSchema } from "@/lib/validation/calibration-schemas";
 export async function saveCalibrationAction(input: unknown): Promise<FormState> {
   const parsed = calibrationCreateSchema.safeParse(input);
   if (!parsed.success) return invalidFormState(parsed.error);
-  const actor = await currentActor();
-  if (!actor) throw unauthenticated();
+  const actor = await requireActor();
   let id: string;
   try {
     id = (await createCalibration(actor, parsed.data)).id;

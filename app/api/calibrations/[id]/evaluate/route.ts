@@ -1,8 +1,9 @@
 // POST {pixels} returns the calibrated wavelengths and their one-sigma uncertainties (nothing is written).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { evaluateStoredCalibration } from "@/lib/services/calibrations";
-import { idParam } from "@/lib/validation/line-schemas";
 import { evaluateSchema } from "@/lib/validation/calibration-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const POST = apiRoute(
   async (request, { params }) => {

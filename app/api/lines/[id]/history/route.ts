@@ -1,7 +1,8 @@
 // GET the audit history of a line across the team's releases (by the line key of this row).
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { apiRoute } from "@/lib/http/api-handler";
 import { fetchLine, fetchLineHistory } from "@/lib/services/line-library-reads";
-import { idParam } from "@/lib/validation/line-schemas";
+import { requireActor } from "@/lib/auth/session";
+import { idParam } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

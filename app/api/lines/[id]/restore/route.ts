@@ -1,7 +1,9 @@
 // POST restores a retired draft line (version and reason in the body).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { restoreLine } from "@/lib/services/line-library-draft";
-import { idParam, lineStateSchema } from "@/lib/validation/line-schemas";
+import { lineStateSchema } from "@/lib/validation/line-schemas";
+import { requireActor } from "@/lib/auth/session";
+import { idParam } from "@/lib/validation/request-params";
 
 export const POST = apiRoute(async (request, { params }) => {
   const actor = await requireActor();

@@ -1,7 +1,9 @@
 // POST retires a draft line: it stays in the draft and is left out when publishing (version and reason in the body).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { retireLine } from "@/lib/services/line-library-draft";
-import { idParam, lineStateSchema } from "@/lib/validation/line-schemas";
+import { lineStateSchema } from "@/lib/validation/line-schemas";
+import { requireActor } from "@/lib/auth/session";
+import { idParam } from "@/lib/validation/request-params";
 
 export const POST = apiRoute(async (request, { params }) => {
   const actor = await requireActor();

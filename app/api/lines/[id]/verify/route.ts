@@ -1,7 +1,9 @@
 // POST marks a draft line verified against its source (version and reason in the body).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { verifyLine } from "@/lib/services/line-library-draft";
-import { idParam, lineStateSchema } from "@/lib/validation/line-schemas";
+import { lineStateSchema } from "@/lib/validation/line-schemas";
+import { requireActor } from "@/lib/auth/session";
+import { idParam } from "@/lib/validation/request-params";
 
 export const POST = apiRoute(async (request, { params }) => {
   const actor = await requireActor();

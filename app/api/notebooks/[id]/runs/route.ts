@@ -1,8 +1,9 @@
 // GET a notebook's run summaries, newest first, filtered by ?status=&species=&instrumentId=&q=.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { fetchNotebookRuns } from "@/lib/services/notebooks";
-import { idParam } from "@/lib/validation/line-schemas";
-import { notebookRunsQuerySchema, parseQuery } from "@/lib/validation/notebook-schemas";
+import { notebookRunsQuerySchema } from "@/lib/validation/notebook-schemas";
+import { idParam, parseQuery } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (request, { params }) => {
   const actor = await requireActor();

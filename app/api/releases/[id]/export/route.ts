@@ -1,7 +1,8 @@
 // GET the release as Emberline's line-table CSV (with line_key), as a download.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { apiRoute } from "@/lib/http/api-handler";
 import { exportReleaseCsv } from "@/lib/services/line-library-releases";
-import { idParam } from "@/lib/validation/line-schemas";
+import { requireActor } from "@/lib/auth/session";
+import { idParam } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

@@ -1,7 +1,9 @@
 // POST adds a line to the draft (with a reason).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { addLine } from "@/lib/services/line-library-draft";
-import { addLineSchema, idParam, toLineInput } from "@/lib/validation/line-schemas";
+import { addLineSchema, toLineInput } from "@/lib/validation/line-schemas";
+import { requireActor } from "@/lib/auth/session";
+import { idParam } from "@/lib/validation/request-params";
 
 export const POST = apiRoute(async (request, { params }) => {
   const actor = await requireActor();

@@ -1,7 +1,8 @@
 // GET a run's review history: rounds with submitter, reviewer, decision, comments and marks, the signature, and its versions.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { apiRoute } from "@/lib/http/api-handler";
 import { fetchRunHistory } from "@/lib/services/run-review-history";
-import { idParam } from "@/lib/validation/line-schemas";
+import { requireActor } from "@/lib/auth/session";
+import { idParam } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

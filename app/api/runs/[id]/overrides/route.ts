@@ -1,8 +1,9 @@
 // POST overrides one call of a run with a reason ({species, verdict, reason}; verdict null withdraws).
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { overrideCall } from "@/lib/services/runs";
-import { idParam } from "@/lib/validation/line-schemas";
 import { runOverrideSchema } from "@/lib/validation/run-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const POST = apiRoute(async (request, { params }) => {
   const actor = await requireActor();

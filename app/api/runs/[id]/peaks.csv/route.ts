@@ -1,8 +1,9 @@
 // GET one run's peaks with their candidate lines as CSV (a download; another team's run is not found).
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { reportResponse } from "@/lib/reports/report-response";
 import { runPeaksCsv } from "@/lib/services/run-reports";
-import { idParam } from "@/lib/validation/line-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const GET = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

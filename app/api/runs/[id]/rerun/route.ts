@@ -1,7 +1,8 @@
 // POST re-runs a run's sample against the team's newest published line-table release: a new run.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { rerunRun } from "@/lib/services/runs";
-import { idParam } from "@/lib/validation/line-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const POST = apiRoute(async (_request, { params }) => {
   const actor = await requireActor();

@@ -1,12 +1,13 @@
 // POST applies a previewed import ({csv, fingerprint, skipRejected?, reason?}) in one transaction.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { apiRoute } from "@/lib/http/api-handler";
 import { applyImport } from "@/lib/services/line-library-import";
 import {
-  idParam,
   IMPORT_ROUTE_OPTIONS,
   importApplySchema,
   readImportBody,
 } from "@/lib/validation/line-schemas";
+import { idParam } from "@/lib/validation/request-params";
+import { requireActor } from "@/lib/auth/session";
 
 export const POST = apiRoute(async (request, { params }) => {
   const actor = await requireActor();

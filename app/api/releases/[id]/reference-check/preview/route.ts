@@ -1,13 +1,14 @@
 // POST compares the draft with a reference file ({csv, medium?} as JSON, or the file as text/csv with
 // ?medium=air|vacuum) and answers what agrees, what disagrees and what is on one side only. Writes nothing.
-import { apiRoute, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute } from "@/lib/http/api-handler";
 import { previewReferenceCheck } from "@/lib/services/line-reference-check";
 import {
-  idParam,
   readImportBody,
   REFERENCE_CHECK_ROUTE_OPTIONS,
   referenceCheckPreviewSchema,
 } from "@/lib/validation/line-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 export const POST = apiRoute(async (request, { params }) => {
   const actor = await requireActor();

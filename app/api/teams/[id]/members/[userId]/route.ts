@@ -1,10 +1,11 @@
 // PATCH {role} gives a member another role; DELETE removes them from the team (lab leads only; the
 // team's last lab lead can neither be demoted nor removed: 409). Both apply from the member's next request.
-import { apiRoute, parseJson, requireActor } from "@/lib/http/api-handler";
+import { requireActor } from "@/lib/auth/session";
+import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { ACCOUNT_BODY_BYTES } from "@/lib/http/read-body";
 import { changeMemberRole, removeMember } from "@/lib/services/team-members";
 import { memberRoleSchema } from "@/lib/validation/account-schemas";
-import { idParam } from "@/lib/validation/line-schemas";
+import { idParam } from "@/lib/validation/request-params";
 
 async function ids(params: Promise<Record<string, string>>) {
   const { id, userId } = await params;
