@@ -1,7 +1,7 @@
 // What a re-run changed against the run it repeats: calls whose standing verdict or score moved,
 // species new or gone with the newer release, and peaks newly explained or unexplained.
 import Link from "next/link";
-import type { RunChanges } from "@/lib/services/run-types";
+import type { RunChanges } from "@/lib/runs/run-changes";
 import { VerdictBadge } from "./run-evidence";
 import { TableScroll } from "@/components/ui/table-scroll";
 

@@ -4,7 +4,7 @@
 // analysis saw.
 import "server-only";
 import type { Actor } from "@/lib/auth/actor";
-import { evaluateCalibration } from "@/lib/spectrum/calibration";
+import { sampleOnWavelengthAxis } from "@/lib/spectrum/analysis/sample-on-wavelength-axis";
 import { spectrumToNanometres } from "@/lib/spectrum/units";
 import { Calibration, type Run, type SpectrumFile } from "@/models";
 import { bytesToFloat64 } from "./float64-bytes";
@@ -71,21 +71,14 @@ export function runSpectrumOf(
   calibration: Pick<Calibration, "model"> | null,
 ): RunSpectrum {
   const points = analysedPoints(spectrum, calibration !== null);
-  let { x, y } = points;
-  let continuum = storedContinuum(run.continuum, points.x.length);
-  if (calibration) {
-    const nm = evaluateCalibration(calibration.model, points.x);
-    const keep: number[] = [];
-    for (let i = 0; i < nm.length; i++) if (Number.isFinite(nm[i])) keep.push(i);
-    const analysed = continuum;
-    x = Float64Array.from(keep, (i) => nm[i]);
-    y = Float64Array.from(keep, (i) => points.y[i]);
-    continuum = analysed ? Float64Array.from(keep, (i) => analysed[i]) : null;
-  }
-  if (x.length > 1 && x[0] > x[x.length - 1]) {
-    x = x.slice().reverse();
-    y = y.slice().reverse();
-    continuum = continuum ? continuum.slice().reverse() : null;
-  }
-  return { wavelengthNm: x, counts: y, continuum, lampChecked: run.lampChecked };
+  const onAxis = sampleOnWavelengthAxis(
+    { ...points, companion: storedContinuum(run.continuum, points.x.length) },
+    calibration?.model ?? null,
+  );
+  return {
+    wavelengthNm: onAxis.wavelengthNm,
+    counts: onAxis.counts,
+    continuum: onAxis.companion,
+    lampChecked: run.lampChecked,
+  };
 }

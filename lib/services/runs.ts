@@ -44,7 +44,7 @@ import {
 import { assertAuthorMayEdit, loadRun } from "./run-lifecycle";
 import { analysedPoints } from "./run-spectrum";
 import { loadSpectrum, storedAxisFacts } from "./spectra";
-import type { RunChanges } from "./run-types";
+import { runChanges, type RunChanges } from "@/lib/runs/run-changes";
 import { SOFTWARE_VERSION } from "./software-version";
 
 // Published releases never change, so an index prepared once per release serves every later run.
@@ -497,42 +497,8 @@ export async function updateRunNotes(
   });
 }
 
-/** Same peak on the same axis: the runs share the spectrum and calibration, so centres agree to rounding. */
-const samePeak = (a: number, b: number) => Math.abs(a - b) < 1e-6;
-
 /** What changed from the run a re-run repeats to the re-run; null when the run is no re-run. */
 export async function fetchRunChanges(actor: Actor, run: RunRecord): Promise<RunChanges | null> {
   if (!run.rerunOfId) return null;
-  const earlier = await fetchRun(actor, run.rerunOfId);
-  const before = new Map(earlier.calls.map((c) => [c.species, c]));
-  const after = new Map(run.calls.map((c) => [c.species, c]));
-  const changedCalls: RunChanges["changedCalls"] = [];
-  for (const [species, now] of after) {
-    const then = before.get(species);
-    if (then && (then.verdict !== now.verdict || Math.abs(then.score - now.score) >= 0.005)) {
-      changedCalls.push({
-        species,
-        before: { verdict: then.verdict, score: then.score },
-        after: { verdict: now.verdict, score: now.score },
-      });
-    }
-  }
-  const unexplainedThen = earlier.unexplained.map((u) => u.wavelengthNm);
-  const unexplainedNow = run.unexplained.map((u) => u.wavelengthNm);
-  return {
-    earlierRunId: earlier.id,
-    earlierReleaseNumber: earlier.lineReleaseNumber,
-    releaseNumber: run.lineReleaseNumber,
-    changedCalls,
-    newSpecies: run.calls
-      .filter((c) => !before.has(c.species))
-      .map((c) => ({ species: c.species, verdict: c.verdict })),
-    goneSpecies: earlier.calls
-      .filter((c) => !after.has(c.species))
-      .map((c) => ({ species: c.species, verdict: c.verdict })),
-    newlyExplainedNm: unexplainedThen.filter((nm) => !unexplainedNow.some((n) => samePeak(n, nm))),
-    newlyUnexplainedNm: unexplainedNow.filter(
-      (nm) => !unexplainedThen.some((n) => samePeak(n, nm)),
-    ),
-  };
+  return runChanges(await fetchRun(actor, run.rerunOfId), run);
 }

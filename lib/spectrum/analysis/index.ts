@@ -1,6 +1,7 @@
 // Public API of the composed analyses: lamp calibration and its workbench edits, calibrated peaks and the identification of a sample.
 export { calibratePeaks, type CalibratePeaksOptions } from "./calibrate-peaks";
 export { SAMPLE_ANALYSIS_DEFAULTS } from "./sample-analysis-defaults";
+export { sampleOnWavelengthAxis, type SampleOnWavelengthAxis } from "./sample-on-wavelength-axis";
 export {
   analyzeSample,
   type AnalyzeSampleOptions,
