@@ -1,6 +1,7 @@
 // Relative line intensities expected in local thermodynamic equilibrium at a given temperature.
 
 import { BOLTZMANN_CONSTANT_EV_PER_K } from "./boltzmann-constant";
+import { assertPositiveFinite } from "../units/assert-positive-finite";
 
 /** A line of one species with the atomic data the prediction needs. */
 export interface LteLine {
@@ -29,9 +30,7 @@ export function predictLteIntensities(
   options: PredictLteIntensitiesOptions = {},
 ): Float64Array {
   const { temperatureK = 2500 } = options;
-  if (!(temperatureK > 0) || !Number.isFinite(temperatureK)) {
-    throw new RangeError(`temperatureK must be a positive finite number, got ${temperatureK}`);
-  }
+  assertPositiveFinite(temperatureK, "temperatureK");
   const kT = BOLTZMANN_CONSTANT_EV_PER_K * temperatureK;
   const logs = new Float64Array(lines.length);
   lines.forEach((line, i) => {
