@@ -2,6 +2,7 @@
 
 import { BOLTZMANN_CONSTANT_EV_PER_K } from "./boltzmann-constant";
 import { assertPositiveFinite } from "../units/assert-positive-finite";
+import { assertNonNegativeFinite } from "../units/assert-non-negative-finite";
 
 /** A line of one species with the atomic data the prediction needs. */
 export interface LteLine {
@@ -35,15 +36,9 @@ export function predictLteIntensities(
   const logs = new Float64Array(lines.length);
   lines.forEach((line, i) => {
     for (const key of ["wavelengthNm", "g", "a"] as const) {
-      if (!(line[key] > 0) || !Number.isFinite(line[key])) {
-        throw new RangeError(
-          `line ${i}: ${key} must be a positive finite number, got ${line[key]}`,
-        );
-      }
+      assertPositiveFinite(line[key], `line ${i}: ${key}`);
     }
-    if (!(line.upperEv >= 0) || !Number.isFinite(line.upperEv)) {
-      throw new RangeError(`line ${i}: upperEv must be a finite number ≥ 0, got ${line.upperEv}`);
-    }
+    assertNonNegativeFinite(line.upperEv, `line ${i}: upperEv`);
     // Work in logarithms so cold temperatures and high energies cannot underflow to 0/0.
     logs[i] = Math.log((line.g * line.a) / line.wavelengthNm) - line.upperEv / kT;
   });
