@@ -85,6 +85,16 @@ class Writer {
     if (this.doc.y + height > this.bottom) this.doc.addPage();
   }
 
+  /** A rule across the content width at `y`, `width` points thick. */
+  private rule(y: number, width: number): void {
+    this.doc
+      .moveTo(MARGIN.left, y)
+      .lineTo(MARGIN.left + CONTENT_WIDTH, y)
+      .lineWidth(width)
+      .strokeColor(RULE)
+      .stroke();
+  }
+
   private heading(text: string): void {
     this.room(60);
     this.doc.moveDown(0.8);
@@ -94,12 +104,7 @@ class Writer {
       .fillColor(INK)
       .text(text, MARGIN.left, this.doc.y, { width: CONTENT_WIDTH });
     const y = this.doc.y + 1;
-    this.doc
-      .moveTo(MARGIN.left, y)
-      .lineTo(MARGIN.left + CONTENT_WIDTH, y)
-      .lineWidth(0.5)
-      .strokeColor(RULE)
-      .stroke();
+    this.rule(y, 0.5);
     this.doc.y = y + 4;
   }
 
@@ -170,12 +175,7 @@ class Writer {
         "bold",
       );
       const y = this.doc.y - 1;
-      this.doc
-        .moveTo(MARGIN.left, y)
-        .lineTo(MARGIN.left + CONTENT_WIDTH, y)
-        .lineWidth(0.4)
-        .strokeColor(RULE)
-        .stroke();
+      this.rule(y, 0.4);
       this.doc.y = y + 2;
     };
     header();
@@ -564,17 +564,9 @@ class Writer {
         align: "right",
         lineBreak: false,
       });
-      d.moveTo(MARGIN.left, 40)
-        .lineTo(MARGIN.left + CONTENT_WIDTH, 40)
-        .lineWidth(0.4)
-        .strokeColor(RULE)
-        .stroke();
+      this.rule(40, 0.4);
       const footY = PAGE.height - 44;
-      d.moveTo(MARGIN.left, footY - 4)
-        .lineTo(MARGIN.left + CONTENT_WIDTH, footY - 4)
-        .lineWidth(0.4)
-        .strokeColor(RULE)
-        .stroke();
+      this.rule(footY - 4, 0.4);
       d.text(report.caveat, MARGIN.left, footY, { width: CONTENT_WIDTH - 70 });
       d.text(
         `Page ${i - range.start + 1} of ${range.count}`,
