@@ -2,21 +2,15 @@
 // lands in the URL, so a filtered trail can be shared as a link; errors sit beside their field.
 import Link from "next/link";
 import type { FieldErrors } from "@/lib/errors";
+import type { AuditFilter } from "@/lib/services/audit";
 import type { TeamMember } from "@/lib/services/team-members";
 import { entityLabel, shortId } from "./audit-labels";
 
 const inputClass =
   "rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1 text-sm aria-[invalid=true]:border-red-600";
 
-export interface AuditFilterValues {
-  teamId: string;
-  actorId?: string;
-  entity?: string;
-  entityId?: string;
-  action?: string;
-  from?: string;
-  to?: string;
-}
+/** The filters as the form shows them: the audit service's filter. */
+export type AuditFilterValues = AuditFilter;
 
 function Labelled({
   id,

@@ -7,25 +7,28 @@ import { useActionState, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
 import { FormMessage } from "@/components/ui/form-message";
+import type { InstrumentRecord } from "@/lib/services/instrument-types";
 import type { FirstColumnKind, WavelengthMedium } from "@/lib/spectrum/types";
 import { initialFormState, type FormState } from "@/lib/validation/form-state";
 import { FirstColumnFields } from "@/components/uploads/first-column-fields";
 
 /** The stored instrument an edit starts from. */
-export interface InstrumentFormInitial {
-  id: string;
-  version: number;
-  name: string;
-  dispersion: "prism" | "grating";
-  pixels: number;
-  nominalMinNm: number;
-  nominalMaxNm: number;
-  resolutionNm: number;
-  detectorMax: number | null;
-  glass: string | null;
-  apexDeg: number | null;
-  exportXUnit: FirstColumnKind | null;
-  exportMedium: WavelengthMedium | null;
+export interface InstrumentFormInitial extends Pick<
+  InstrumentRecord,
+  | "id"
+  | "version"
+  | "name"
+  | "dispersion"
+  | "pixels"
+  | "nominalMinNm"
+  | "nominalMaxNm"
+  | "resolutionNm"
+  | "detectorMax"
+  | "glass"
+  | "apexDeg"
+  | "exportXUnit"
+  | "exportMedium"
+> {
   /** Whether calibrations were made on it: then the dispersion and pixel count are fixed. */
   calibrated: boolean;
 }

@@ -3,6 +3,7 @@
 import type { ReactNode } from "react";
 import type { ChartGeometry } from "@/lib/reports/chart-geometry";
 import { detectionLimitsSentence } from "@/lib/reports/detection-limit-text";
+import { calibrationFields, releaseFields, signatureFields } from "@/lib/reports/report-fields";
 import {
   formatUtc,
   type ReportCall,
@@ -273,28 +274,7 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
 
       <Section title="Calibration" testId="report-calibration">
         {c ? (
-          <Fields
-            fields={[
-              { label: "Model", value: c.model },
-              { label: "RMS", value: `${c.rmsNm.toFixed(4)} nm` },
-              {
-                label: "Covered range",
-                value: `${c.coveredRangeNm[0].toFixed(2)}–${c.coveredRangeNm[1].toFixed(2)} nm`,
-              },
-              {
-                label: "Sample range",
-                value: `${report.rangeNm[0].toFixed(2)}–${report.rangeNm[1].toFixed(2)} nm${report.outsideCoveredRange ? " (extends past the covered range)" : ""}`,
-              },
-              {
-                label: "Lamp lines used",
-                value: `${c.pairCount} (${c.rejectedCount} rejected as outliers)`,
-              },
-              { label: "Lamps", value: c.lamps.join(", ") || "–" },
-              { label: "Median uncertainty", value: `${c.medianUncertaintyNm.toFixed(4)} nm` },
-              { label: "Calibrated on", value: c.calibratedOn },
-              { label: "Calibration id", value: c.id },
-            ]}
-          />
+          <Fields fields={calibrationFields(c, report)} />
         ) : (
           <p className="text-sm">
             None: the run used the file&apos;s own wavelength axis (not lamp-checked).
@@ -303,20 +283,7 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
       </Section>
 
       <Section title="Line-table release">
-        <Fields
-          fields={[
-            {
-              label: "Release",
-              value:
-                report.release.number === null ? "unnumbered" : `release ${report.release.number}`,
-            },
-            {
-              label: "Published",
-              value: report.release.publishedAt ? formatUtc(report.release.publishedAt) : "–",
-            },
-            { label: "Release id", value: report.release.id },
-          ]}
-        />
+        <Fields fields={releaseFields(report.release)} />
       </Section>
 
       {report.temperature ? (
@@ -380,14 +347,7 @@ export function RunReportView({ report, chart }: { report: RunReport; chart: Cha
         )}
         {report.signature ? (
           <div className="mt-2">
-            <Fields
-              fields={[
-                { label: "Signed by", value: report.signature.signerName },
-                { label: "Meaning", value: report.signature.meaning },
-                { label: "Signed at", value: formatUtc(report.signature.signedAt) },
-                { label: "Review round", value: String(report.signature.round) },
-              ]}
-            />
+            <Fields fields={signatureFields(report.signature)} />
             <Fields
               fields={[{ label: "Content hash (SHA-256)", value: report.signature.contentHash }]}
               mono

@@ -1,6 +1,7 @@
 // Finds rows that describe the same line twice (same species, wavelength within a tolerance), for import previews.
 
 import type { LineTableRow } from "./types";
+import { assertNonNegativeFinite } from "../spectrum/units/assert-non-negative-finite";
 
 export interface FindDuplicateLinesOptions {
   /**
@@ -16,9 +17,7 @@ export function findDuplicateLines(
   options: FindDuplicateLinesOptions = {},
 ): Array<[number, number]> {
   const { toleranceNm = 0.001 } = options;
-  if (!Number.isFinite(toleranceNm) || toleranceNm < 0) {
-    throw new RangeError(`toleranceNm must be a finite number ≥ 0, got ${toleranceNm}`);
-  }
+  assertNonNegativeFinite(toleranceNm, "toleranceNm");
   // Sorting by species then wavelength makes each row's possible twins its next neighbours.
   const order = rows
     .map((_, index) => index)

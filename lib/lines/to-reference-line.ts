@@ -1,6 +1,7 @@
 // Maps a line-table row onto the core's ReferenceLine, the only shape lib/spectrum matches against.
 
 import type { ReferenceLine } from "../spectrum/types";
+import { assertPositiveFinite } from "../spectrum/units/assert-positive-finite";
 import type { LineTableRow } from "./types";
 
 export interface ToReferenceLineOptions {
@@ -23,11 +24,7 @@ export function toReferenceLine(
 ): ReferenceLine {
   const { defaultUncertaintyNm = 0.002 } = options;
   if (typeof id !== "string" || id === "") throw new RangeError("id must be a non-empty string");
-  if (!Number.isFinite(defaultUncertaintyNm) || defaultUncertaintyNm <= 0) {
-    throw new RangeError(
-      `defaultUncertaintyNm must be a positive finite number, got ${defaultUncertaintyNm}`,
-    );
-  }
+  assertPositiveFinite(defaultUncertaintyNm, "defaultUncertaintyNm");
   if (!Number.isFinite(row.vacuumNm) || row.vacuumNm <= 0) {
     throw new RangeError(`row ${row.species} has no valid vacuum wavelength`);
   }

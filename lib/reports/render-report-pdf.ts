@@ -4,6 +4,7 @@
 import PDFDocument from "pdfkit";
 import { chartGeometry, chartLabelsFromCalls } from "./chart-geometry";
 import { detectionLimitsSentence } from "./detection-limit-text";
+import { calibrationFields, releaseFields, signatureFields } from "./report-fields";
 import { formatUtc, type ReportCall, type RunReport } from "./report-model";
 
 export interface ReportFonts {
@@ -85,6 +86,16 @@ class Writer {
     if (this.doc.y + height > this.bottom) this.doc.addPage();
   }
 
+  /** A rule across the content width at `y`, `width` points thick. */
+  private rule(y: number, width: number): void {
+    this.doc
+      .moveTo(MARGIN.left, y)
+      .lineTo(MARGIN.left + CONTENT_WIDTH, y)
+      .lineWidth(width)
+      .strokeColor(RULE)
+      .stroke();
+  }
+
   private heading(text: string): void {
     this.room(60);
     this.doc.moveDown(0.8);
@@ -94,12 +105,7 @@ class Writer {
       .fillColor(INK)
       .text(text, MARGIN.left, this.doc.y, { width: CONTENT_WIDTH });
     const y = this.doc.y + 1;
-    this.doc
-      .moveTo(MARGIN.left, y)
-      .lineTo(MARGIN.left + CONTENT_WIDTH, y)
-      .lineWidth(0.5)
-      .strokeColor(RULE)
-      .stroke();
+    this.rule(y, 0.5);
     this.doc.y = y + 4;
   }
 
@@ -170,12 +176,7 @@ class Writer {
         "bold",
       );
       const y = this.doc.y - 1;
-      this.doc
-        .moveTo(MARGIN.left, y)
-        .lineTo(MARGIN.left + CONTENT_WIDTH, y)
-        .lineWidth(0.4)
-        .strokeColor(RULE)
-        .stroke();
+      this.rule(y, 0.4);
       this.doc.y = y + 2;
     };
     header();
@@ -451,39 +452,10 @@ class Writer {
     if (!c) {
       this.paragraph("None: the run used the file's own wavelength axis (not lamp-checked).");
     } else {
-      this.fields([
-        { label: "Model", value: c.model },
-        { label: "RMS", value: `${c.rmsNm.toFixed(4)} nm` },
-        {
-          label: "Covered range",
-          value: `${c.coveredRangeNm[0].toFixed(2)}–${c.coveredRangeNm[1].toFixed(2)} nm`,
-        },
-        {
-          label: "Sample range",
-          value: `${report.rangeNm[0].toFixed(2)}–${report.rangeNm[1].toFixed(2)} nm${report.outsideCoveredRange ? " (extends past the covered range)" : ""}`,
-        },
-        {
-          label: "Lamp lines used",
-          value: `${c.pairCount} (${c.rejectedCount} rejected as outliers)`,
-        },
-        { label: "Lamps", value: c.lamps.join(", ") || "–" },
-        { label: "Median uncertainty", value: `${c.medianUncertaintyNm.toFixed(4)} nm` },
-        { label: "Calibrated on", value: c.calibratedOn },
-        { label: "Calibration id", value: c.id },
-      ]);
+      this.fields(calibrationFields(c, report));
     }
     this.heading("Line-table release");
-    this.fields([
-      {
-        label: "Release",
-        value: report.release.number === null ? "unnumbered" : `release ${report.release.number}`,
-      },
-      {
-        label: "Published",
-        value: report.release.publishedAt ? formatUtc(report.release.publishedAt) : "–",
-      },
-      { label: "Release id", value: report.release.id },
-    ]);
+    this.fields(releaseFields(report.release));
     if (report.temperature) {
       this.heading("Excitation temperature");
       const t = report.temperature;
@@ -529,12 +501,7 @@ class Writer {
     } else this.paragraph("Not submitted for review.", { color: MUTED });
     const s = report.signature;
     if (s) {
-      this.fields([
-        { label: "Signed by", value: s.signerName },
-        { label: "Meaning", value: s.meaning },
-        { label: "Signed at", value: formatUtc(s.signedAt) },
-        { label: "Review round", value: String(s.round) },
-      ]);
+      this.fields(signatureFields(s));
       this.fields([{ label: "Content hash (SHA-256)", value: s.contentHash }], true);
     } else {
       this.paragraph("Not signed.", { color: MUTED });
@@ -564,17 +531,9 @@ class Writer {
         align: "right",
         lineBreak: false,
       });
-      d.moveTo(MARGIN.left, 40)
-        .lineTo(MARGIN.left + CONTENT_WIDTH, 40)
-        .lineWidth(0.4)
-        .strokeColor(RULE)
-        .stroke();
+      this.rule(40, 0.4);
       const footY = PAGE.height - 44;
-      d.moveTo(MARGIN.left, footY - 4)
-        .lineTo(MARGIN.left + CONTENT_WIDTH, footY - 4)
-        .lineWidth(0.4)
-        .strokeColor(RULE)
-        .stroke();
+      this.rule(footY - 4, 0.4);
       d.text(report.caveat, MARGIN.left, footY, { width: CONTENT_WIDTH - 70 });
       d.text(
         `Page ${i - range.start + 1} of ${range.count}`,

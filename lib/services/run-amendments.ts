@@ -5,6 +5,7 @@ import { UniqueConstraintError } from "sequelize";
 import { AppError, forbidden } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { can } from "@/lib/auth/policy";
+import { standingOverride } from "@/lib/runs/standing-verdicts";
 import { Run, RunOverride, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import { loadRun } from "./run-lifecycle";
@@ -76,9 +77,9 @@ export async function amendRun(
         ],
         transaction,
       });
-      const newest = new Map<string, RunOverride>();
-      for (const o of overrides) newest.set(o.species, o);
-      const carried = [...newest.values()].filter((o) => o.verdict !== null);
+      const carried = [...new Set(overrides.map((o) => o.species))]
+        .map((species) => standingOverride(overrides, species))
+        .filter((o) => o !== null);
       for (const o of carried) {
         await RunOverride.create(
           {

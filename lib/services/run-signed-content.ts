@@ -3,10 +3,8 @@
 // verifier all read it here, so they hash the same thing.
 import "server-only";
 import type { Transaction } from "sequelize";
-import type { Actor } from "@/lib/auth/actor";
 import { Calibration, LineRelease, Run, RunOverride, SpectrumFile } from "@/models";
 import { buildRunContent, calibrationModelLabel, runContentHash } from "./run-content";
-import { loadRun } from "./run-lifecycle";
 
 /** A run's canonical content as it stands in the tables, read in the caller's transaction when given. */
 export async function runContentOf(run: Run, transaction?: Transaction) {
@@ -84,14 +82,4 @@ export async function recomputeRunContentHash(
 ): Promise<string | null> {
   const run = await Run.findByPk(runId, { transaction });
   return run ? runContentHash(await runContentOf(run, transaction)) : null;
-}
-
-/** A run's canonical content and its SHA-256, as a signature would cover it now (for reports and checks). */
-export async function fetchRunContent(
-  actor: Actor,
-  runId: string,
-): Promise<{ content: Record<string, unknown>; contentHash: string }> {
-  const run = await loadRun(actor, runId);
-  const content = await runContentOf(run);
-  return { content, contentHash: runContentHash(content) };
 }

@@ -20,12 +20,7 @@ import {
   type FirstColumnSource,
   type InstrumentFileReading,
 } from "@/lib/spectrum/io";
-import type {
-  AxisUnit,
-  ExportProfile,
-  FirstColumnKind,
-  WavelengthMedium,
-} from "@/lib/spectrum/types";
+import type { ExportProfile, FirstColumnKind, WavelengthMedium } from "@/lib/spectrum/types";
 import {
   MAX_UPLOAD_BYTES,
   MAX_UPLOAD_POINTS,
@@ -224,22 +219,25 @@ export interface StoredUpload extends SpectrumRecord, FirstColumnReading {
 }
 
 /** What the chemist sees before committing an upload: the parsed facts and the points thinned for a chart. */
-export interface SpectrumPreview extends FirstColumnReading {
-  instrumentId: string;
-  kind: "lamp" | "sample";
-  label: string;
-  fileName: string;
-  byteSize: number;
-  sha256: string;
-  points: number;
-  xUnit: AxisUnit;
-  medium: SpectrumRecord["medium"];
-  /** First and last x value, in the file's order. */
-  xRange: [number, number];
+export interface SpectrumPreview
+  extends
+    FirstColumnReading,
+    Pick<
+      SpectrumRecord,
+      | "instrumentId"
+      | "kind"
+      | "label"
+      | "fileName"
+      | "byteSize"
+      | "sha256"
+      | "points"
+      | "xUnit"
+      | "medium"
+      | "xRange"
+      | "duplicateOf"
+    > {
   /** Lowest and highest y value. */
   yRange: [number, number];
-  /** An earlier upload of the same bytes in the team (the oldest), when there is one. */
-  duplicateOf: SpectrumRecord["duplicateOf"];
   /** What to check before storing, in sentences (a range mostly outside the instrument's). */
   warnings: string[];
   /** The export profile storing this file would give the instrument (it has none yet), or null. */
@@ -339,6 +337,27 @@ async function checkUpload(actor: Actor, upload: SpectrumUpload) {
   return { instrument, reading, spectrum: reading.spectrum, raw, sha256, firstColumn };
 }
 
+/** The facts of a checked upload that its preview shows and its audit entry records, in that order. */
+function uploadFacts(
+  upload: SpectrumUpload,
+  checked: Pick<
+    Awaited<ReturnType<typeof checkUpload>>,
+    "instrument" | "spectrum" | "raw" | "sha256"
+  >,
+) {
+  const { instrument, spectrum, raw, sha256 } = checked;
+  return {
+    instrumentId: instrument.id,
+    kind: upload.kind,
+    label: upload.label,
+    fileName: upload.fileName,
+    byteSize: raw.length,
+    sha256,
+    points: spectrum.x.length,
+    xUnit: spectrum.xUnit,
+  };
+}
+
 /** Parses and checks an upload exactly as uploadSpectrum does, and returns what it would store; stores nothing. */
 export async function previewSpectrumUpload(
   actor: Actor,
@@ -356,14 +375,7 @@ export async function previewSpectrumUpload(
   }
   const thin = thinSeries(spectrum.x, spectrum.y);
   return {
-    instrumentId: instrument.id,
-    kind: upload.kind,
-    label: upload.label,
-    fileName: upload.fileName,
-    byteSize: raw.length,
-    sha256,
-    points: spectrum.x.length,
-    xUnit: spectrum.xUnit,
+    ...uploadFacts(upload, { instrument, spectrum, raw, sha256 }),
     medium: spectrum.medium ?? null,
     xRange: [spectrum.x[0], spectrum.x[spectrum.x.length - 1]],
     yRange: [yMin, yMax],
@@ -466,14 +478,7 @@ export async function uploadSpectrum(actor: Actor, upload: SpectrumUpload): Prom
         entity: "spectrum_file",
         entityId: row.id,
         after: {
-          instrumentId: instrument.id,
-          kind: upload.kind,
-          label: upload.label,
-          fileName: upload.fileName,
-          byteSize: raw.length,
-          sha256,
-          points: spectrum.x.length,
-          xUnit: spectrum.xUnit,
+          ...uploadFacts(upload, { instrument, spectrum, raw, sha256 }),
           ...firstColumn,
           duplicateOf: duplicateOf?.id ?? null,
         },

@@ -14,6 +14,7 @@ export interface SpectrumRecord {
   points: number;
   xUnit: AxisUnit;
   medium: WavelengthMedium | null;
+  /** First and last x value, in the file's order. */
   xRange: [number, number];
   uploadedAt: string;
   uploadedById: string | null;

@@ -28,6 +28,7 @@ import { detectionLimits, type DetectionLimit } from "./detection-limits";
 import { excitationTemperature, type ExcitationTemperature } from "./excitation-temperature";
 import { lteLineIndex } from "./lte-line-index";
 import { SAMPLE_ANALYSIS_DEFAULTS } from "./sample-analysis-defaults";
+import { assertPositiveFinite } from "../units/assert-positive-finite";
 
 export interface AnalyzeSampleOptions {
   /** The dispersion relation for the input axis; null when x already is a wavelength axis in nm.
@@ -177,9 +178,7 @@ export function analyzeSample(
     k = SAMPLE_ANALYSIS_DEFAULTS.k,
   } = options;
   for (const [name, value] of Object.entries({ resolutionNm, resolutionPx })) {
-    if (value !== undefined && (!(value > 0) || !Number.isFinite(value))) {
-      throw new RangeError(`${name} must be a positive finite number, got ${value}`);
-    }
+    if (value !== undefined) assertPositiveFinite(value, name);
   }
   if (resolutionPx !== undefined && !calibration) {
     throw new RangeError(
@@ -187,14 +186,7 @@ export function analyzeSample(
     );
   }
   const { lteTemperatureK } = options;
-  if (
-    lteTemperatureK !== undefined &&
-    (!(lteTemperatureK > 0) || !Number.isFinite(lteTemperatureK))
-  ) {
-    throw new RangeError(
-      `lteTemperatureK must be a positive finite number, got ${lteTemperatureK}`,
-    );
-  }
+  if (lteTemperatureK !== undefined) assertPositiveFinite(lteTemperatureK, "lteTemperatureK");
   if (x.length !== y.length)
     throw new RangeError(`x and y differ in length (${x.length} vs ${y.length})`);
   // A heavily oversampled array (a line thousands of samples wide) is averaged down to a few samples

@@ -26,6 +26,7 @@ import {
 } from "../calibration/unpaired-lamp-peaks";
 import type { CalibrationPair, DispersionKind, Peak } from "../types";
 import type { LampCalibration } from "./calibrate-lamp";
+import { upperMedian } from "../statistics/upper-median";
 
 /** A line given by hand must sit this close to a lamp line of the table. */
 export const HAND_LINE_MATCH_NM = 0.05;
@@ -330,7 +331,10 @@ function coveredUncertainty(model: CalibrationModel): { medianNm: number; maxNm:
   const sigma = Array.from(calibrationUncertainty(model, covered))
     .filter(Number.isFinite)
     .sort((a, b) => a - b);
-  return { medianNm: sigma[sigma.length >> 1] ?? 0, maxNm: sigma[sigma.length - 1] ?? 0 };
+  return {
+    medianNm: sigma.length > 0 ? upperMedian(sigma) : 0,
+    maxNm: sigma[sigma.length - 1] ?? 0,
+  };
 }
 
 /**

@@ -5,6 +5,7 @@
 import { TheilSenRegression } from "ml-regression-theil-sen";
 import { assertIntegerInRange } from "../signal/assert-integer-in-range";
 import type { Peak } from "../types";
+import { assertNonNegativeFinite } from "../units/assert-non-negative-finite";
 
 export interface EstimateInstrumentFwhmTrendOptions {
   /** Only peaks at least this far above the noise take part.
@@ -50,17 +51,13 @@ export function estimateInstrumentFwhmTrend(
     minSpanRatio = 1.15,
     maxExponent = 5,
   } = options;
-  if (!(minSnr >= 0) || !Number.isFinite(minSnr)) {
-    throw new RangeError(`minSnr must be a finite number ≥ 0, got ${minSnr}`);
-  }
+  assertNonNegativeFinite(minSnr, "minSnr");
   assertIntegerInRange(maxPeaks, "maxPeaks", 2);
   assertIntegerInRange(minPeaks, "minPeaks", 2);
   if (!(minSpanRatio >= 1) || !Number.isFinite(minSpanRatio)) {
     throw new RangeError(`minSpanRatio must be a finite number ≥ 1, got ${minSpanRatio}`);
   }
-  if (!(maxExponent >= 0) || !Number.isFinite(maxExponent)) {
-    throw new RangeError(`maxExponent must be a finite number ≥ 0, got ${maxExponent}`);
-  }
+  assertNonNegativeFinite(maxExponent, "maxExponent");
   const clean = peaks
     .filter(
       (peak) =>

@@ -2,6 +2,7 @@
 // chemist gave no resolution: what the strongest clean lines measure is what one line looks like.
 import { median } from "../statistics/median";
 import type { Peak } from "../types";
+import { assertNonNegativeFinite } from "../units/assert-non-negative-finite";
 
 export interface EstimateInstrumentFwhmOptions {
   /** Only peaks at least this far above the noise take part: their FWHM is measured to a few per
@@ -27,7 +28,7 @@ export function estimateInstrumentFwhm(
   options: EstimateInstrumentFwhmOptions = {},
 ): number | null {
   const { minSnr = 20, maxPeaks = 10, minPeaks = 3 } = options;
-  assertNonNegativeFinite("minSnr", minSnr);
+  assertNonNegativeFinite(minSnr, "minSnr");
   assertPositiveInteger("maxPeaks", maxPeaks);
   assertPositiveInteger("minPeaks", minPeaks);
   const widths = peaks
@@ -44,12 +45,6 @@ export function estimateInstrumentFwhm(
     .map((peak) => peak.fwhm);
   if (widths.length < minPeaks) return null;
   return median(widths);
-}
-
-function assertNonNegativeFinite(name: string, value: number): void {
-  if (!(value >= 0) || !Number.isFinite(value)) {
-    throw new RangeError(`${name} must be a finite number ≥ 0, got ${value}`);
-  }
 }
 
 function assertPositiveInteger(name: string, value: number): void {

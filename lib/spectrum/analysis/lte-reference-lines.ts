@@ -2,6 +2,7 @@
 // assumed excitation temperature, for the species whose lines carry the atomic data for it.
 import { predictLteIntensities } from "../temperature/predict-lte-intensities";
 import type { ReferenceLine, SourceKind } from "../types";
+import { assertPositiveFinite } from "../units/assert-positive-finite";
 
 /** Scale of the predicted intensities (the strongest predicted line of a species gets this). */
 const LTE_SCALE = 1000;
@@ -29,9 +30,7 @@ export function lteReferenceLines(
   temperatureK: number,
   minLines = 2,
 ): ReferenceLine[] {
-  if (!(temperatureK > 0) || !Number.isFinite(temperatureK)) {
-    throw new RangeError(`temperatureK must be a positive finite number, got ${temperatureK}`);
-  }
+  assertPositiveFinite(temperatureK, "temperatureK");
   const bySpecies = new Map<string, number[]>();
   lines.forEach((l, i) => {
     if (!hasAtomicData(l)) return;

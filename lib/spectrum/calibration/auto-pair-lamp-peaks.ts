@@ -44,6 +44,7 @@ import { makeRandom } from "../statistics/make-random";
 import { MIN_TRUSTED_PAIRS } from "./min-trusted-pairs";
 import { percentileRanks } from "./percentile-ranks";
 import { lowerBound } from "../matching/lower-bound";
+import { toLampPair } from "./to-lamp-pair";
 
 export interface AutoPairLampPeaksOptions extends LampPairingOptions {
   /**
@@ -466,17 +467,7 @@ function drawnLampPairing(
       if (Math.abs(peaks[p].x - x) <= guessTolerance && !used.has(p)) {
         used.add(p);
         score += 1 + (1 - Math.abs(quality - peakRank[p]));
-        if (keep) {
-          matched.push({
-            x: peaks[p].x,
-            wavelengthNm: lines[l].wavelengthNm,
-            species: lines[l].species,
-            lineId: lines[l].id,
-            peakIndex: p,
-            lineIndex: l,
-            ...(peaks[p].xUncertainty !== undefined ? { xUncertainty: peaks[p].xUncertainty } : {}),
-          });
-        }
+        if (keep) matched.push(toLampPair({ peaks, lines }, p, l));
       } else if (quality >= 0.75) {
         score -= 0.5;
       }

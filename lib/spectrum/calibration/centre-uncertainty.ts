@@ -2,6 +2,7 @@
 // centre, and an allowance for a peak that is probably two lines (wider than its clean neighbours, or
 // split from one), whose centre an unlisted neighbour pulls.
 import type { LampPeak } from "./lamp-pairing-types";
+import { upperMedian } from "../statistics/upper-median";
 
 /** Peaks compared for width with this many neighbours on either side. */
 const WIDTH_NEIGHBOURS = 8;
@@ -106,7 +107,7 @@ function withCentreUncertainty(peaks: LampPeak[], blends: boolean): LampPeak[] {
   return peaks.map((peak, i) => {
     const widths = neighbours[i];
     if (!(peak.fwhm !== undefined && peak.fwhm > 0) || !widths) return peak;
-    const floor = CENTRE_FLOOR_FWHM * widths[widths.length >> 1];
+    const floor = CENTRE_FLOOR_FWHM * upperMedian(widths);
     const pull = blends ? blendPull(peak, widths) : 0;
     return { ...peak, xUncertainty: Math.hypot(peak.xUncertainty ?? 0, pull, floor) };
   });
@@ -141,8 +142,7 @@ export function soundCentres(
 ): (pair: { peakIndex: number }) => boolean {
   const pulls = blendPulls(peaks);
   const sigmaOf = (pair: { peakIndex: number }) => peaks[pair.peakIndex].xUncertainty ?? 0;
-  const sigmas = reference.map(sigmaOf).sort((a, b) => a - b);
-  const limit = EDGE_SIGMA_RATIO * sigmas[sigmas.length >> 1];
+  const limit = EDGE_SIGMA_RATIO * upperMedian(reference.map(sigmaOf));
   return (pair) =>
     pulls[pair.peakIndex] <= SOUND_PULL_FWHM * (peaks[pair.peakIndex].fwhm ?? 0) &&
     sigmaOf(pair) <= limit;

@@ -3,6 +3,7 @@
 // a strong line from taking a faint stray peak, and a faint line from taking a strong peak that other
 // light (an unlisted line, a blend) must have made.
 import type { LampLine, LampPair, LampPeak } from "./lamp-pairing-types";
+import { upperMedian } from "../statistics/upper-median";
 
 /** Pairs below which the band is open (the pairs are too few to say). */
 const MIN_PAIRS = 6;
@@ -19,14 +20,12 @@ export function lampHeightBand(
 ): [number, number] {
   const ratios = pairs
     .filter((p) => peaks[p.peakIndex].height > 0 && lines[p.lineIndex].intensity > 0)
-    .map((p) => Math.log(peaks[p.peakIndex].height / lines[p.lineIndex].intensity))
-    .sort((a, b) => a - b);
+    .map((p) => Math.log(peaks[p.peakIndex].height / lines[p.lineIndex].intensity));
   if (ratios.length < MIN_PAIRS) return [-Infinity, Infinity];
-  const median = ratios[ratios.length >> 1];
-  const deviations = ratios.map((r) => Math.abs(r - median)).sort((a, b) => a - b);
+  const median = upperMedian(ratios);
   const halfWidth = Math.max(
     Math.log(heightTolerance),
-    3 * 1.4826 * deviations[deviations.length >> 1],
+    3 * 1.4826 * upperMedian(ratios.map((r) => Math.abs(r - median))),
   );
   return [median - halfWidth, median + halfWidth];
 }

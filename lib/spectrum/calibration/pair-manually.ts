@@ -80,6 +80,15 @@ export function pairManually(
     lambda: lines[s.lineIndex].wavelengthNm,
   }));
 
+  // The first pairs carry no centre σ (unlike toLampPair's): the first fit weighs them all alike.
+  const unweightedPair = (p: number, l: number): LampPair => ({
+    x: peaks[p].x,
+    wavelengthNm: lines[l].wavelengthNm,
+    species: lines[l].species,
+    lineId: lines[l].id,
+    peakIndex: p,
+    lineIndex: l,
+  });
   let result: LampPairingResult | undefined;
   for (const predict of seedPrediction(seeds, options)) {
     const initial: LampPair[] = [];
@@ -95,26 +104,10 @@ export function pairManually(
       });
       if (nearest >= 0 && Math.abs(peaks[nearest].x - x) <= 6 * context.toleranceX) {
         taken.add(nearest);
-        initial.push({
-          x: peaks[nearest].x,
-          wavelengthNm: lines[l].wavelengthNm,
-          species: lines[l].species,
-          lineId: lines[l].id,
-          peakIndex: nearest,
-          lineIndex: l,
-        });
+        initial.push(unweightedPair(nearest, l));
       }
     }
-    for (const [p, l] of forced) {
-      initial.push({
-        x: peaks[p].x,
-        wavelengthNm: lines[l].wavelengthNm,
-        species: lines[l].species,
-        lineId: lines[l].id,
-        peakIndex: p,
-        lineIndex: l,
-      });
-    }
+    for (const [p, l] of forced) initial.push(unweightedPair(p, l));
     const attempt = refineLampPairing(context, initial);
     if (!result || attempt.confidence > result.confidence) result = attempt;
   }

@@ -10,6 +10,7 @@ import { toLampPair } from "./to-lamp-pair";
 import { typicalPeakFwhm } from "./typical-peak-fwhm";
 import { weightedLeastSquares } from "./weighted-least-squares";
 import { lowerBound } from "../matching/lower-bound";
+import { upperMedian } from "../statistics/upper-median";
 
 export interface PairsFromPreviousOptions {
   /** Largest shift searched, as a fraction of the array. @default 0.03 */
@@ -93,7 +94,7 @@ export function pairsFromPrevious(
     if (pairs.length < 6) break;
     // Pairs far off the current map (a stray peak next to a missing line) do not steer the next one.
     const offsets = pairs.map((p) => Math.abs(p.x - predictX(p.wavelengthNm)));
-    const spread = 1.4826 * offsets.slice().sort((a, b) => a - b)[offsets.length >> 1];
+    const spread = 1.4826 * upperMedian(offsets);
     const steering = pairs.filter((_, i) => offsets[i] <= Math.max(3 * spread, 0.25 * toleranceX));
     if (steering.length < 6) break;
     const us = steering.map((p) => xOf(lines[p.lineIndex].wavelengthNm));

@@ -19,6 +19,7 @@ import { toLampPair } from "./to-lamp-pair";
 import { typicalPeakFwhm } from "./typical-peak-fwhm";
 import type { PairingCheck } from "./lamp-pairing-types";
 import { weightedLeastSquares } from "./weighted-least-squares";
+import { upperMedian } from "../statistics/upper-median";
 
 export interface RecalibrateFromPreviousOptions {
   /** Largest shift searched, as a fraction of the array. @default 0.03 */
@@ -98,12 +99,6 @@ interface DriftFit {
   scatterX: number;
   /** Largest departure of a significant quadratic drift from the straight one, x units (0 when none). */
   bendX: number;
-}
-
-function median(values: number[]): number | undefined {
-  if (values.length === 0) return undefined;
-  const sorted = values.slice().sort((a, b) => a - b);
-  return sorted[sorted.length >> 1];
 }
 
 /** Index into sorted `xs` of the value nearest `x` (xs non-empty). */
@@ -288,7 +283,7 @@ export function recalibrateFromPrevious(
     model,
     pairs.map((p) => p.x),
   ).dispersion.map(Math.abs);
-  const toleranceNm = tolerance * (median(Array.from(todayNmPerX)) ?? Number.NaN);
+  const toleranceNm = tolerance * upperMedian(Array.from(todayNmPerX));
   const previousFit = previous.rmsNm / toleranceNm;
   const rivalShare = rival.score / chosenScore;
   const limits = RECALIBRATION_LIMITS;

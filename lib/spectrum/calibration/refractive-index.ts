@@ -2,6 +2,7 @@
 import { CalibrationError } from "./calibration-error";
 import { GLASS_CATALOGUE, type GlassName, type SellmeierGlass } from "./glass-catalogue";
 import { refractiveIndexOrNaN } from "./refractive-index-or-nan";
+import { assertPositiveFinite } from "../units/assert-positive-finite";
 
 /**
  * n(λ) = sqrt(1 + Σ Bᵢλ²/(λ² − Cᵢ)) with λ in µm.
@@ -14,9 +15,7 @@ export function refractiveIndex(glass: GlassName | SellmeierGlass, wavelengthNm:
   if (!coefficients) {
     throw new RangeError(`unknown glass "${String(glass)}"`);
   }
-  if (!Number.isFinite(wavelengthNm) || wavelengthNm <= 0) {
-    throw new RangeError(`wavelengthNm must be a positive finite number, got ${wavelengthNm}`);
-  }
+  assertPositiveFinite(wavelengthNm, "wavelengthNm");
   const n = refractiveIndexOrNaN(coefficients, wavelengthNm);
   if (Number.isNaN(n)) {
     throw new CalibrationError(

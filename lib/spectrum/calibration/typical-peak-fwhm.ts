@@ -3,6 +3,7 @@
 // than lines (a mercury lamp's 27 peaks once gave a "typical" width eight times its lines'). Pairing
 // sizes its windows and its blend tests by it.
 import type { LampPeak } from "./lamp-pairing-types";
+import { upperMedian } from "../statistics/upper-median";
 
 /** Fewer measured peaks than this are all taken. */
 const STRONG_HALF_FROM = 6;
@@ -21,6 +22,5 @@ export function typicalPeakFwhm(peaks: readonly LampPeak[], minCount = 1): numbe
           .sort((a, b) => b.height - a.height)
           .slice(0, Math.ceil(measured.length / 2))
       : measured;
-  const widths = taken.map((p) => p.fwhm as number).sort((a, b) => a - b);
-  return widths[widths.length >> 1];
+  return upperMedian(taken.map((p) => p.fwhm as number));
 }

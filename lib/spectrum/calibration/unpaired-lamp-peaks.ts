@@ -2,6 +2,8 @@
 // to show for them, so the workbench can say "blend" or "not in the table" instead of a bare list.
 // Everything is judged in calibrated wavelength, within a multiple of the local FWHM.
 
+import { upperMedian } from "../statistics/upper-median";
+
 /** A lamp peak at its calibrated wavelength. */
 export interface UnpairedLampPeakInput {
   /** Where the calibration puts the peak's centre, nm (NaN when the model gives none there). */
@@ -108,9 +110,8 @@ export function unpairedLampPeaks(
         (a, b) => Math.abs(a.wavelengthNm - wavelengthNm) - Math.abs(b.wavelengthNm - wavelengthNm),
       )
       .slice(0, WIDTH_NEIGHBOURS)
-      .map((p) => p.fwhmNm)
-      .sort((a, b) => a - b);
-    return widths.length > 0 ? widths[widths.length >> 1] : Number.NaN;
+      .map((p) => p.fwhmNm);
+    return upperMedian(widths);
   };
   const broad = peaks.map(
     (p) =>

@@ -223,15 +223,7 @@ export function decodeJcampXyData(
                 q,
               );
             if (count >= limit) throw located(limitCode, limitProblem, lineNumber, lineStart, q);
-            const sum = y[count - 1] + value;
-            if (!Number.isFinite(sum))
-              throw located(
-                "not-finite",
-                "the differences add up past the largest number",
-                lineNumber,
-                lineStart,
-                q,
-              );
+            const sum = differenceSum(y[count - 1], value, lineNumber, lineStart, q);
             if (count === y.length) y = grown(y, count, count + 1, limit);
             y[count++] = sum;
             previousKind = DIFFERENCE;
@@ -276,16 +268,8 @@ export function decodeJcampXyData(
               count += extra;
             } else {
               for (let k = 0; k < extra; k++) {
-                const sum = y[count - 1] + previousValue;
-                if (!Number.isFinite(sum))
-                  throw located(
-                    "not-finite",
-                    "the differences add up past the largest number",
-                    lineNumber,
-                    lineStart,
-                    q,
-                  );
-                y[count++] = sum;
+                y[count] = differenceSum(y[count - 1], previousValue, lineNumber, lineStart, q);
+                count++;
               }
             }
             previousKind = DUPLICATE;
@@ -425,6 +409,27 @@ function located(
   at: number,
 ): SpectrumParseError {
   return new SpectrumParseError(code, problem, lineNumber, at - lineStart + 1);
+}
+
+/** `previous + difference`, the next Y of a DIF run; a located error when it is no longer finite. */
+function differenceSum(
+  previous: number,
+  difference: number,
+  lineNumber: number,
+  lineStart: number,
+  at: number,
+): number {
+  const sum = previous + difference;
+  if (!Number.isFinite(sum)) {
+    throw located(
+      "not-finite",
+      "the differences add up past the largest number",
+      lineNumber,
+      lineStart,
+      at,
+    );
+  }
+  return sum;
 }
 
 /** A copy of the first `count` values of `y` in an array with room for `needed`, doubling up to `limit`. */

@@ -14,6 +14,8 @@ import { depthIntoBandNm } from "./depth-into-band";
 import { leansLikeBand } from "./leans-like-band";
 import { lowerBound } from "./lower-bound";
 import { assertPositiveFinite } from "../units/assert-positive-finite";
+import { assertFraction } from "../units/assert-fraction";
+import { assertNonNegativeFinite } from "../units/assert-non-negative-finite";
 import { prepareLineIndex, type LineIndex } from "./prepare-line-index";
 
 export interface MatchPeaksToLinesOptions {
@@ -92,11 +94,9 @@ export function matchPeaksToLines(
   } = options;
   assertPositiveFinite(k, "k");
   if (resolutionNm !== undefined) assertPositiveFinite(resolutionNm, "resolutionNm");
-  assertNonNegativeFinite("resolutionSigmaFraction", resolutionSigmaFraction);
-  assertNonNegativeFinite("cleanResolutionSigmaFraction", cleanResolutionSigmaFraction);
-  if (!(bandHeadZoneFraction >= 0 && bandHeadZoneFraction <= 1)) {
-    throw new RangeError(`bandHeadZoneFraction must lie in [0, 1], got ${bandHeadZoneFraction}`);
-  }
+  assertNonNegativeFinite(resolutionSigmaFraction, "resolutionSigmaFraction");
+  assertNonNegativeFinite(cleanResolutionSigmaFraction, "cleanResolutionSigmaFraction");
+  assertFraction(bandHeadZoneFraction, "bandHeadZoneFraction");
   const index = isLineIndex(lines) ? lines : prepareLineIndex(lines, { medium: medium ?? "air" });
   if (medium !== undefined && medium !== index.medium) {
     throw new RangeError(`medium "${medium}" disagrees with the line index's "${index.medium}"`);
@@ -229,11 +229,5 @@ function assertPeak(peak: CalibratedPeak, position: number): void {
     (!(peak.resolutionNm > 0) || !Number.isFinite(peak.resolutionNm))
   ) {
     throw new RangeError(`peak ${position} has an invalid resolutionNm: ${peak.resolutionNm}`);
-  }
-}
-
-function assertNonNegativeFinite(name: string, value: number): void {
-  if (!(value >= 0) || !Number.isFinite(value)) {
-    throw new RangeError(`${name} must be a finite number ≥ 0, got ${value}`);
   }
 }

@@ -2,6 +2,8 @@
 
 import type { ScoreElementsOptions } from "./score-elements-types";
 import type { ScoreSettings } from "./score-elements-stage-types";
+import { assertFraction } from "../units/assert-fraction";
+import { assertPositiveFinite } from "../units/assert-positive-finite";
 
 /** The options with their defaults filled in; throws on one out of its range (the ranges in nm are
  * resolved and checked by scoredRangesNm). */
@@ -23,16 +25,16 @@ export function resolveScoreElementsOptions(options: ScoreElementsOptions): Scor
     maxSeenListed = 25,
     maxListedWhenAbsent = 5,
   } = options;
-  assertPositive("detectionLimitSnr", detectionLimitSnr);
-  if (noiseCounts !== undefined) assertPositive("noiseCounts", noiseCounts);
-  assertPositive("missingSnrFactor", missingSnrFactor);
-  assertFraction("strongLineFraction", strongLineFraction);
-  assertFraction("presentScore", presentScore);
-  assertFraction("possibleScore", possibleScore);
-  assertFraction("unratedLineWeight", unratedLineWeight);
-  assertFraction("traceFraction", traceFraction);
-  assertPositive("hidingFwhmFactor", hidingFwhmFactor);
-  assertPositive("hidingSnrRatio", hidingSnrRatio);
+  assertPositiveFinite(detectionLimitSnr, "detectionLimitSnr");
+  if (noiseCounts !== undefined) assertPositiveFinite(noiseCounts, "noiseCounts");
+  assertPositiveFinite(missingSnrFactor, "missingSnrFactor");
+  assertFraction(strongLineFraction, "strongLineFraction");
+  assertFraction(presentScore, "presentScore");
+  assertFraction(possibleScore, "possibleScore");
+  assertFraction(unratedLineWeight, "unratedLineWeight");
+  assertFraction(traceFraction, "traceFraction");
+  assertPositiveFinite(hidingFwhmFactor, "hidingFwhmFactor");
+  assertPositiveFinite(hidingSnrRatio, "hidingSnrRatio");
   if (!Number.isInteger(maxMissingListed) || maxMissingListed < 0) {
     throw new RangeError(`maxMissingListed must be an integer ≥ 0, got ${maxMissingListed}`);
   }
@@ -64,16 +66,4 @@ export function resolveScoreElementsOptions(options: ScoreElementsOptions): Scor
     maxSeenListed,
     maxListedWhenAbsent,
   };
-}
-
-function assertPositive(name: string, value: number): void {
-  if (!(value > 0) || !Number.isFinite(value)) {
-    throw new RangeError(`${name} must be a positive finite number, got ${value}`);
-  }
-}
-
-function assertFraction(name: string, value: number): void {
-  if (!(value >= 0 && value <= 1)) {
-    throw new RangeError(`${name} must lie in [0, 1], got ${value}`);
-  }
 }

@@ -3,6 +3,8 @@
 
 import { makeRandom } from "../statistics/make-random";
 import { assertPositiveFinite } from "../units/assert-positive-finite";
+import { assertFraction } from "../units/assert-fraction";
+import { assertNonNegativeFinite } from "../units/assert-non-negative-finite";
 import { scaledErfc } from "./scaled-erfc";
 
 /** One emission line to draw. */
@@ -154,8 +156,8 @@ export function synthesizeSpectrum(options: SynthesizeSpectrumOptions = {}): Syn
   } = options;
   assertIntegerAtLeast("pixelCount", pixelCount, 3);
   assertPositiveFinite(resolutionNm, "resolutionNm");
-  assertFraction("lorentzFraction", lorentzFraction);
-  assertNonNegative("readNoiseCounts", readNoiseCounts);
+  assertFraction(lorentzFraction, "lorentzFraction");
+  assertNonNegativeFinite(readNoiseCounts, "readNoiseCounts");
   assertFinite("darkCounts", darkCounts);
   if (!(saturationCounts > 0)) {
     throw new RangeError(`saturationCounts must be > 0, got ${saturationCounts}`);
@@ -171,7 +173,7 @@ export function synthesizeSpectrum(options: SynthesizeSpectrumOptions = {}): Syn
   const lineTruth: SyntheticLineTruth[] = [];
   for (const line of lines) {
     assertPositiveFinite(line.wavelengthNm, "line.wavelengthNm");
-    assertNonNegative("line.amplitude", line.amplitude);
+    assertNonNegativeFinite(line.amplitude, "line.amplitude");
     const fwhmNm = line.fwhmNm ?? resolutionNm;
     assertPositiveFinite(fwhmNm, "line.fwhmNm");
     const pixel = pixelOfWavelength(wavelengthNmAtPixel, line.wavelengthNm);
@@ -197,7 +199,7 @@ export function synthesizeSpectrum(options: SynthesizeSpectrumOptions = {}): Syn
   for (const band of bands) {
     assertPositiveFinite(band.headNm, "band.headNm");
     assertPositiveFinite(band.extentNm, "band.extentNm");
-    assertNonNegative("band.amplitude", band.amplitude);
+    assertNonNegativeFinite(band.amplitude, "band.amplitude");
     const pixel = pixelOfWavelength(wavelengthNmAtPixel, band.headNm);
     if (pixel === null) continue;
     addBand(signal, wavelengthNmAtPixel, pixel, band, resolutionNm);
@@ -314,7 +316,7 @@ function addContinuum(
   const shape = new Float64Array(grid.length);
   if (continuum.shape === "planck") {
     assertPositiveFinite(continuum.temperatureK, "continuum.temperatureK");
-    assertNonNegative("continuum.peakCounts", continuum.peakCounts);
+    assertNonNegativeFinite(continuum.peakCounts, "continuum.peakCounts");
     let highest = 0;
     for (let px = 0; px < grid.length; px++) {
       const nm = grid[px];
@@ -360,20 +362,8 @@ function assertIntegerAtLeast(name: string, value: number, minimum: number): voi
   }
 }
 
-function assertNonNegative(name: string, value: number): void {
-  if (!(value >= 0) || !Number.isFinite(value)) {
-    throw new RangeError(`${name} must be a finite number ≥ 0, got ${value}`);
-  }
-}
-
 function assertFinite(name: string, value: number): void {
   if (!Number.isFinite(value)) {
     throw new RangeError(`${name} must be finite, got ${value}`);
-  }
-}
-
-function assertFraction(name: string, value: number): void {
-  if (!(value >= 0 && value <= 1)) {
-    throw new RangeError(`${name} must lie in [0, 1], got ${value}`);
   }
 }

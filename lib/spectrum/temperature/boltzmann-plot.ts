@@ -1,6 +1,8 @@
 // Excitation temperature from a Boltzmann plot of lines of one species with known g, A and upper energy.
 
 import { BOLTZMANN_CONSTANT_EV_PER_K } from "./boltzmann-constant";
+import { assertNonNegativeFinite } from "../units/assert-non-negative-finite";
+import { assertPositiveFinite } from "../units/assert-positive-finite";
 
 /** One observed line with the atomic data a Boltzmann plot needs. */
 export interface BoltzmannLine {
@@ -141,15 +143,7 @@ export function boltzmannPlot(
 
 function assertLine(line: BoltzmannLine, position: number): void {
   for (const key of ["wavelengthNm", "intensity", "g", "a"] as const) {
-    if (!(line[key] > 0) || !Number.isFinite(line[key])) {
-      throw new RangeError(
-        `line ${position}: ${key} must be a positive finite number, got ${line[key]}`,
-      );
-    }
+    assertPositiveFinite(line[key], `line ${position}: ${key}`);
   }
-  if (!(line.upperEv >= 0) || !Number.isFinite(line.upperEv)) {
-    throw new RangeError(
-      `line ${position}: upperEv must be a finite number ≥ 0, got ${line.upperEv}`,
-    );
-  }
+  assertNonNegativeFinite(line.upperEv, `line ${position}: upperEv`);
 }

@@ -1,6 +1,8 @@
 // Relative line intensities expected in local thermodynamic equilibrium at a given temperature.
 
 import { BOLTZMANN_CONSTANT_EV_PER_K } from "./boltzmann-constant";
+import { assertPositiveFinite } from "../units/assert-positive-finite";
+import { assertNonNegativeFinite } from "../units/assert-non-negative-finite";
 
 /** A line of one species with the atomic data the prediction needs. */
 export interface LteLine {
@@ -29,22 +31,14 @@ export function predictLteIntensities(
   options: PredictLteIntensitiesOptions = {},
 ): Float64Array {
   const { temperatureK = 2500 } = options;
-  if (!(temperatureK > 0) || !Number.isFinite(temperatureK)) {
-    throw new RangeError(`temperatureK must be a positive finite number, got ${temperatureK}`);
-  }
+  assertPositiveFinite(temperatureK, "temperatureK");
   const kT = BOLTZMANN_CONSTANT_EV_PER_K * temperatureK;
   const logs = new Float64Array(lines.length);
   lines.forEach((line, i) => {
     for (const key of ["wavelengthNm", "g", "a"] as const) {
-      if (!(line[key] > 0) || !Number.isFinite(line[key])) {
-        throw new RangeError(
-          `line ${i}: ${key} must be a positive finite number, got ${line[key]}`,
-        );
-      }
+      assertPositiveFinite(line[key], `line ${i}: ${key}`);
     }
-    if (!(line.upperEv >= 0) || !Number.isFinite(line.upperEv)) {
-      throw new RangeError(`line ${i}: upperEv must be a finite number ≥ 0, got ${line.upperEv}`);
-    }
+    assertNonNegativeFinite(line.upperEv, `line ${i}: upperEv`);
     // Work in logarithms so cold temperatures and high energies cannot underflow to 0/0.
     logs[i] = Math.log((line.g * line.a) / line.wavelengthNm) - line.upperEv / kT;
   });

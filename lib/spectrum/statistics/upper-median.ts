@@ -1,0 +1,8 @@
+// The upper median of some numbers: the middle one, and the upper of the middle two for an even count
+// (no averaging, so the result is always one of the values); NaN for none. Robust spreads and typical
+// widths in calibration take it where `median` would average two neighbours.
+export function upperMedian(values: readonly number[]): number {
+  if (values.length === 0) return Number.NaN;
+  const sorted = values.slice().sort((a, b) => a - b);
+  return sorted[sorted.length >> 1];
+}
