@@ -1,14 +1,12 @@
 // One species' call: its verdict from the score and the strong lines, its evidence and its notes.
 
-import { andMore } from "./and-more";
 import { borrowed } from "./borrowed";
-import { formatNm } from "./format-nm";
 import { missingEvidence } from "./missing-evidence";
-import { plural } from "./plural";
 import { rationaleOf } from "./rationale-of";
 import type { CallContext, SpeciesWork } from "./score-elements-stage-types";
 import type { ElementCall, OverlapEvidence, Verdict } from "./score-elements-types";
 import { tallySeen } from "./tally-seen";
+import { andMore, formatNm, plural } from "./rationale-words";
 
 const UBIQUITOUS_NOTE = "Ubiquitous in flames: trace contamination likely; judge by intensity.";
 

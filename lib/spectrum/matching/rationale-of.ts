@@ -1,10 +1,8 @@
 // The sentence that sums up a call: lines seen, strong lines missing, peaks shared, and the score.
 
-import { andMore } from "./and-more";
-import { formatNm } from "./format-nm";
-import { plural } from "./plural";
 import type { SeenTally, SpeciesWork } from "./score-elements-stage-types";
 import type { MissingLineEvidence, OverlapEvidence, Verdict } from "./score-elements-types";
+import { andMore, formatNm, plural } from "./rationale-words";
 
 /** How many shared peaks, and species at each, a call's rationale names (its overlaps keep the credible ones). */
 const SHARED_PEAKS_LISTED = 4;
