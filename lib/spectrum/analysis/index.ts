@@ -19,20 +19,20 @@ export {
   type InstrumentFwhmTrend,
 } from "./estimate-instrument-fwhm-trend";
 export { calibrateLamp, type CalibrateLampOptions, type LampCalibration } from "./calibrate-lamp";
-export {
-  editLampCalibration,
-  HAND_LINE_MATCH_NM,
-  lampPairRecord,
-  type EditedLampCalibration,
-  type EditLampCalibrationOptions,
-  type HandPair,
-  type LampCalibrationEdits,
-  type LampPairRecord,
-  type UnpairedPeakExplanation,
-  type WorkbenchModelRow,
-  type WorkbenchPair,
-  type WorkbenchPairingRecord,
-} from "./edit-lamp-calibration";
+export { editLampCalibration } from "./edit-lamp-calibration";
+export type {
+  EditedLampCalibration,
+  EditLampCalibrationOptions,
+  HandPair,
+  LampCalibrationEdits,
+  LampPairRecord,
+  UnpairedPeakExplanation,
+  WorkbenchModelRow,
+  WorkbenchPair,
+  WorkbenchPairingRecord,
+} from "./edit-lamp-calibration-types";
+export { HAND_LINE_MATCH_NM } from "./hand-line-match-nm";
+export { lampPairRecord } from "./lamp-pair-record";
 export {
   excitationTemperature,
   usableBoltzmannLines,

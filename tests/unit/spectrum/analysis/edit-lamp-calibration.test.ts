@@ -4,12 +4,12 @@
 // the field; and the drift between two calibrations is what was put in.
 import { describe, expect, it } from "vitest";
 import { calibrateLamp, type LampCalibration } from "@/lib/spectrum/analysis/calibrate-lamp";
-import {
-  editLampCalibration,
-  HAND_LINE_MATCH_NM,
-  type EditLampCalibrationOptions,
-  type LampCalibrationEdits,
-} from "@/lib/spectrum/analysis/edit-lamp-calibration";
+import { editLampCalibration } from "@/lib/spectrum/analysis/edit-lamp-calibration";
+import type {
+  EditLampCalibrationOptions,
+  LampCalibrationEdits,
+} from "@/lib/spectrum/analysis/edit-lamp-calibration-types";
+import { HAND_LINE_MATCH_NM } from "@/lib/spectrum/analysis/hand-line-match-nm";
 import {
   CALIBRATION_MODELS,
   CalibrationError,

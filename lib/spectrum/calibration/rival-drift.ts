@@ -1,0 +1,52 @@
+// The strongest rival of a recalibration's drift: another drift of the previous calibration on which
+// lamp lines agree as tightly, each on another peak than the chosen drift gives it.
+import { candidatesNear } from "./candidates-near";
+import { driftConsensus } from "./drift-consensus";
+import type { LampPair } from "./lamp-pairing-types";
+import { onDrift } from "./on-drift";
+import type { PairingContext } from "./pairing-context";
+import { CONSENSUS_REACH } from "./recalibration-limits";
+import type { DriftFit, GridDrift, Predicted } from "./recalibration-types";
+
+/**
+ * The best tight consensus near any of `coarseRivals` that moves some end of the array by more than two
+ * tolerances against `fitted`'s drift, counting only pairs `fitted` does not hold: its score and pairs
+ * (score 0 and no pairs when there is none).
+ */
+export function rivalDrift(
+  context: PairingContext,
+  predicted: Predicted[],
+  sortedX: number[],
+  order: number[],
+  tolerance: number,
+  coarseRivals: readonly GridDrift[],
+  fitted: DriftFit,
+  maxStretch: number,
+): { score: number; pairs: LampPair[] } {
+  const [xMin, xMax] = context.domain;
+  const middle = 0.5 * (xMin + xMax);
+  const { drift, pairs } = fitted;
+  // A rival counts only the lines it puts tightly on other peaks, as the chosen drift's do.
+  const chosen = new Set(pairs.map((p) => `${p.lineIndex}:${p.peakIndex}`));
+  const departs = (at: (u: number) => number) =>
+    [xMin, xMax].some((x) => Math.abs(at((x - drift.offset) / drift.stretch) - x) > 2 * tolerance);
+  let rival: { score: number; pairs: LampPair[] } = { score: 0, pairs: [] };
+  for (const h of coarseRivals) {
+    const near = candidatesNear(
+      context,
+      predicted,
+      sortedX,
+      order,
+      tolerance,
+      (u) => middle + (u - middle) * h.stretch + h.shift,
+    ).filter((c) => !chosen.has(`${c.pair.lineIndex}:${c.pair.peakIndex}`));
+    const found = driftConsensus(near, tolerance, maxStretch, departs);
+    if (found && found.score > rival.score) {
+      rival = {
+        score: found.score,
+        pairs: onDrift(near, found.at, CONSENSUS_REACH * tolerance).map((c) => c.pair),
+      };
+    }
+  }
+  return rival;
+}
