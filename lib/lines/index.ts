@@ -28,8 +28,8 @@ export type {
   ParseReferenceCsvOptions,
   ReferenceCsvParseResult,
   ReferenceFileLine,
-  WavelengthMedium,
 } from "./parse-reference-csv";
+export type { WavelengthMedium } from "../spectrum/types";
 export { compareWithReference } from "./compare-with-reference";
 export type {
   CompareWithReferenceOptions,

@@ -1,7 +1,7 @@
 // The shapes the line-library services return to pages and route handlers: releases, lines,
 // import previews and release comparisons. Plain objects, no Sequelize instances.
 import type { LineFlag, LineTableError, LineTableRow } from "@/lib/lines";
-import type { SourceKind } from "@/lib/spectrum/types";
+import type { SourceKind, WavelengthMedium } from "@/lib/spectrum/types";
 
 export type ReleaseStatus = "draft" | "published";
 
@@ -139,7 +139,7 @@ export interface ReferenceCheckPair {
   lineKey: string;
   species: string;
   /** The medium of the comparison: the reference line's. */
-  medium: "air" | "vacuum";
+  medium: WavelengthMedium;
   /** The draft row's wavelength in that medium, nm. */
   draftNm: number;
   referenceNm: number;
@@ -176,7 +176,7 @@ export interface ReferenceCheckPreview {
   referenceOnly: {
     csvLine: number;
     species: string;
-    medium: "air" | "vacuum";
+    medium: WavelengthMedium;
     wavelengthNm: number;
     uncertaintyNm: number;
     citation: string;

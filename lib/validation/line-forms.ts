@@ -14,7 +14,12 @@ import type {
   ReferenceCheckResult,
 } from "@/lib/services/line-library-types";
 import type { FormState } from "./form-state";
-import { SOURCE_KINDS, type SourceKind } from "@/lib/spectrum/types";
+import {
+  SOURCE_KINDS,
+  WAVELENGTH_MEDIA,
+  type SourceKind,
+  type WavelengthMedium,
+} from "@/lib/spectrum/types";
 import type { FieldErrors } from "@/lib/errors";
 import {
   importApplySchema,
@@ -254,7 +259,7 @@ export function toImportPreviewView(preview: ImportPreview): ImportPreviewView {
 export const referenceCheckFormSchema = referenceCheckPreviewSchema.extend({
   releaseId: z.uuid(),
   medium: z
-    .enum(["", "air", "vacuum"], { error: "Choose air, vacuum or the file's medium column." })
+    .enum(["", ...WAVELENGTH_MEDIA], { error: "Choose air, vacuum or the file's medium column." })
     .optional()
     .transform((m) => (m ? m : undefined)),
 });
@@ -283,6 +288,6 @@ export interface ReferenceCheckFormState extends FormState {
   preview?: ReferenceCheckPreview;
   /** The reference CSV the preview was made from, kept in a hidden field until the lead confirms. */
   csv?: string;
-  medium?: "air" | "vacuum";
+  medium?: WavelengthMedium;
   applied?: ReferenceCheckResult;
 }

@@ -8,8 +8,9 @@ import { LINE_FLAGS, type LineFlag } from "@/lib/lines";
 import { AppError } from "@/lib/errors";
 import { bodyText } from "@/lib/http/read-body";
 import { zodFieldErrors } from "./field-errors";
+import { SOURCE_KINDS, WAVELENGTH_MEDIA, type SourceKind } from "@/lib/spectrum/types";
 
-const SOURCE_KINDS = ["flame", "arc", "spark", "plasma", "lamp"] as const;
+const SOURCE_KIND_ENUM = z.enum(SOURCE_KINDS as [SourceKind, ...SourceKind[]]);
 const optionalNumber = z.number().finite().nullable().optional();
 
 /** Why a draft line is added, corrected, retired, restored or verified: 3–500 characters. */
@@ -66,7 +67,7 @@ export const lineQuerySchema = z
       .optional(),
     species: text().trim().min(1).max(40).optional(),
     element: text().trim().min(1).max(20).optional(),
-    source: z.enum(SOURCE_KINDS).optional(),
+    source: SOURCE_KIND_ENUM.optional(),
     flag: z.enum(LINE_FLAGS as unknown as [LineFlag, ...LineFlag[]]).optional(),
     verified: z
       .enum(["true", "false"])
@@ -87,7 +88,7 @@ export const lineInputSchema = z.object({
   airNm: optionalNumber,
   vacuumNm: optionalNumber,
   uncertaintyNm: optionalNumber,
-  intensities: z.partialRecord(z.enum(SOURCE_KINDS), z.number().finite()).optional(),
+  intensities: z.partialRecord(SOURCE_KIND_ENUM, z.number().finite()).optional(),
   lowerEv: optionalNumber,
   upperEv: optionalNumber,
   gUpper: optionalNumber,
@@ -122,7 +123,7 @@ export const importApplySchema = importPreviewSchema.extend({
   skipRejected: z.boolean().optional(),
   reason: optionalReason,
 });
-const medium = z.enum(["air", "vacuum"], {
+const medium = z.enum(WAVELENGTH_MEDIA, {
   error: 'Say whether the reference wavelengths are in "air" or in "vacuum".',
 });
 /** A reference check's preview: the reference CSV and, for rows without a medium column, their medium. */
