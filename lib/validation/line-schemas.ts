@@ -7,7 +7,7 @@ import { text } from "./text";
 import { LINE_FLAGS, type LineFlag } from "@/lib/lines";
 import { AppError } from "@/lib/errors";
 import { bodyText } from "@/lib/http/read-body";
-import { zodFieldErrors } from "./field-errors";
+import { parseFields } from "./field-errors";
 import { SOURCE_KINDS, WAVELENGTH_MEDIA, type SourceKind } from "@/lib/spectrum/types";
 
 const SOURCE_KIND_ENUM = z.enum(SOURCE_KINDS as [SourceKind, ...SourceKind[]]);
@@ -246,11 +246,5 @@ export async function readImportBody<T extends z.ZodType<{ csv: string }>>(
       throw new AppError("validation", "Send the file as text/csv, or JSON {csv}.");
     }
   }
-  const parsed = schema.safeParse(body);
-  if (!parsed.success) {
-    throw new AppError("validation", "Some fields are not right.", {
-      fieldErrors: zodFieldErrors(parsed.error),
-    });
-  }
-  return parsed.data;
+  return parseFields(schema, body);
 }
