@@ -3,7 +3,12 @@
 // existing line) the version the editor saw. CSV import into the draft is line-library-import.ts.
 import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
-import { formatLineTableCsv, parseLineTableCsv, type LineTableRow } from "@/lib/lines";
+import {
+  LINE_TABLE_COLUMNS,
+  lineTableCells,
+  readLineTableRow,
+  type LineTableRow,
+} from "@/lib/lines";
 import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
@@ -78,40 +83,22 @@ export async function openDraft(actor: Actor, teamId: string): Promise<ReleaseSu
   }
 }
 
-const FIELD_OF_COLUMN: Record<string, string> = {
-  species: "species",
-  air_nm: "airNm",
-  vacuum_nm: "vacuumNm",
-  uncertainty_nm: "uncertaintyNm",
-  intensity_flame: "intensities.flame",
-  intensity_arc: "intensities.arc",
-  intensity_spark: "intensities.spark",
-  intensity_plasma: "intensities.plasma",
-  intensity_lamp: "intensities.lamp",
-  lower_ev: "lowerEv",
-  upper_ev: "upperEv",
-  g_upper: "gUpper",
-  a_per_s: "aPerS",
-  flags: "flags",
-  band_extent_nm: "band.extentNm",
-  band_degrades_to: "band.degradesTo",
-  source: "source",
-  note: "note",
-};
+/** A column's field errors go under the typed line's field ("air_nm" → "airNm"). */
+const FIELD_OF_COLUMN = new Map(LINE_TABLE_COLUMNS.map((column) => [column.name, column.field]));
 
 /**
- * Checks a typed line exactly as an imported CSV row is checked (one rule set), by writing it as a
- * one-row CSV and reading it back. Throws a validation error with field errors in LineInput's names.
+ * Checks a typed line exactly as an imported CSV row is checked (one rule set, readLineTableRow, on
+ * the cells an export would write for it). Throws a validation error with field errors in LineInput's
+ * names.
  */
 export function validateLineInput(input: LineInput): LineTableRow {
-  const csv = formatLineTableCsv([{ ...input, element: "", ionStage: null, verified: false }], {
-    describeColumns: false,
-  });
-  const parsed = parseLineTableCsv(csv);
-  if (parsed.rows.length === 1 && parsed.errors.length === 0) return parsed.rows[0];
+  const { row, errors } = readLineTableRow(
+    lineTableCells({ ...input, element: "", ionStage: null, verified: false }),
+  );
+  if (row) return row;
   const fieldErrors: Record<string, string[]> = {};
-  for (const error of parsed.errors)
-    (fieldErrors[FIELD_OF_COLUMN[error.field] ?? "_"] ??= []).push(error.message);
+  for (const error of errors)
+    (fieldErrors[FIELD_OF_COLUMN.get(error.field) ?? "_"] ??= []).push(error.message);
   throw new AppError("validation", "Some values of the line are not right.", { fieldErrors });
 }
 
