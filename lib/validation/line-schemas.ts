@@ -197,18 +197,19 @@ export const IMPORT_ROUTE_OPTIONS = {
   tooLargeMessage: `The line-table file is larger than the ${MAX_IMPORT_LABEL} an import accepts.`,
 };
 
-/** A service's own check of a value with a use case's schema: its value, or 400 naming the field. */
+/**
+ * A service's own check of a value with a use case's schema: its value, or 400 naming the field (the
+ * value is checked as that field of an object, so its messages sit under the field's name).
+ */
 function checked<T extends z.ZodType>(
   schema: T,
   field: string,
   value: unknown,
   message: string,
 ): z.infer<T> {
-  const parsed = schema.safeParse(value);
-  if (parsed.success) return parsed.data;
-  throw new AppError("validation", message, {
-    fieldErrors: { [field]: parsed.error.issues.map((issue) => issue.message) },
-  });
+  return parseFields(z.object({ [field]: schema }), { [field]: value }, message)[
+    field
+  ] as z.infer<T>;
 }
 
 /** A draft edit's reason as the services take it (trimmed), by the rule the forms and the API use. */
