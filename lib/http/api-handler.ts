@@ -6,7 +6,7 @@ import { headers } from "next/headers";
 import type { z } from "zod";
 import { AppError, toResponse } from "@/lib/errors";
 import { usesBearerToken } from "@/lib/auth/session";
-import { zodFieldErrors } from "@/lib/validation/field-errors";
+import { parseFields } from "@/lib/validation/field-errors";
 import { bodyText, JSON_BODY_BYTES, readBody } from "./read-body";
 import { API_CACHE_CONTROL } from "./security-headers";
 
@@ -86,11 +86,5 @@ export async function parseJson<T extends z.ZodType>(
   } catch {
     throw new AppError("validation", "The request body must be JSON.");
   }
-  const parsed = schema.safeParse(body);
-  if (!parsed.success) {
-    throw new AppError("validation", "Some fields are not right.", {
-      fieldErrors: zodFieldErrors(parsed.error),
-    });
-  }
-  return parsed.data;
+  return parseFields(schema, body);
 }

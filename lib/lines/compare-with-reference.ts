@@ -2,7 +2,8 @@
 // same species, in the reference's own medium, and says whether they agree within the combined uncertainty.
 import { vacuumToAirNm } from "../spectrum/units";
 import { assertPositiveFinite } from "../spectrum/units/assert-positive-finite";
-import type { ReferenceFileLine, WavelengthMedium } from "./parse-reference-csv";
+import type { WavelengthMedium } from "../spectrum/types";
+import type { ReferenceFileLine } from "./parse-reference-csv";
 
 /** What the comparison needs of a draft row. */
 export interface DraftLineForCheck {

@@ -2,7 +2,7 @@
 
 import Papa from "papaparse";
 
-import { guardFormulaCell } from "../reports/formula-guard";
+import { lineTableCells } from "./line-table-cells";
 import { LINE_KEY_COLUMN, LINE_TABLE_COLUMNS, LINE_TABLE_COLUMN_NAMES } from "./line-table-columns";
 import type { LineTableRow } from "./types";
 
@@ -23,42 +23,6 @@ export interface FormatLineTableCsvOptions {
    * @default undefined (no line_key column)
    */
   lineKeys?: readonly string[];
-}
-
-/** Shortest text that reads back as the same number; blank for null. */
-function numberCell(value: number | null | undefined): string {
-  return value === null || value === undefined ? "" : String(value);
-}
-
-/** Transition probabilities read best in exponent form ("6.16e+7"), which still reads back exactly. */
-function exponentCell(value: number | null): string {
-  return value === null ? "" : value.toExponential();
-}
-
-function rowCells(row: LineTableRow): string[] {
-  const cells: Record<string, string> = {
-    // Text cells are guarded against formula injection; parseLineTableCsv drops the guard again.
-    species: guardFormulaCell(row.species),
-    air_nm: numberCell(row.airNm),
-    vacuum_nm: numberCell(row.vacuumNm),
-    uncertainty_nm: numberCell(row.uncertaintyNm),
-    intensity_flame: numberCell(row.intensities.flame),
-    intensity_arc: numberCell(row.intensities.arc),
-    intensity_spark: numberCell(row.intensities.spark),
-    intensity_plasma: numberCell(row.intensities.plasma),
-    intensity_lamp: numberCell(row.intensities.lamp),
-    lower_ev: numberCell(row.lowerEv),
-    upper_ev: numberCell(row.upperEv),
-    g_upper: numberCell(row.gUpper),
-    a_per_s: exponentCell(row.aPerS),
-    flags: guardFormulaCell(row.flags.join(";")),
-    band_extent_nm: numberCell(row.band?.extentNm),
-    band_degrades_to: guardFormulaCell(row.band?.degradesTo ?? ""),
-    source: guardFormulaCell(row.source),
-    verified: row.verified ? "true" : "false",
-    note: guardFormulaCell(row.note),
-  };
-  return LINE_TABLE_COLUMN_NAMES.map((name) => cells[name]);
 }
 
 /** Formats rows as CSV text: comment header, header row, one line per row, "\n" line ends. */
@@ -89,9 +53,12 @@ export function formatLineTableCsv(
     lineKeys
       ? {
           fields: [LINE_KEY_COLUMN, ...LINE_TABLE_COLUMN_NAMES],
-          data: rows.map((row, i) => [lineKeys[i], ...rowCells(row)]),
+          data: rows.map((row, i) => [lineKeys[i], ...lineTableCells(row).values()]),
         }
-      : { fields: [...LINE_TABLE_COLUMN_NAMES], data: rows.map(rowCells) },
+      : {
+          fields: [...LINE_TABLE_COLUMN_NAMES],
+          data: rows.map((row) => [...lineTableCells(row).values()]),
+        },
     { newline: "\n", quotes: false },
   );
   // Papa.unparse ends a data-less table with a line break and a full one without; end both with one.

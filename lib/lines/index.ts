@@ -7,6 +7,9 @@ export { formatSpecies } from "./format-species";
 export { LINE_TABLE_COLUMNS, LINE_TABLE_COLUMN_NAMES } from "./line-table-columns";
 export type { LineTableColumn } from "./line-table-columns";
 export { parseLineTableCsv } from "./parse-line-table-csv";
+export { readLineTableRow } from "./read-line-table-row";
+export type { LineTableRowResult, ReadLineTableRowOptions } from "./read-line-table-row";
+export { lineTableCells } from "./line-table-cells";
 export { lineLocator } from "./line-locator";
 export type { ParseLineTableCsvOptions } from "./parse-line-table-csv";
 export { formatLineTableCsv } from "./format-line-table-csv";
@@ -28,8 +31,8 @@ export type {
   ParseReferenceCsvOptions,
   ReferenceCsvParseResult,
   ReferenceFileLine,
-  WavelengthMedium,
 } from "./parse-reference-csv";
+export type { WavelengthMedium } from "../spectrum/types";
 export { compareWithReference } from "./compare-with-reference";
 export type {
   CompareWithReferenceOptions,

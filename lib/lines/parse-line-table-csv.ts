@@ -1,47 +1,17 @@
 // Reads a line-table CSV (starter table, draft import) into validated rows and located errors.
 // Every row is checked in full so a preview can show all of a file's problems at once.
 
-import { unguardFormulaCell } from "../reports/formula-guard";
-
-import type { SourceKind } from "../spectrum/types";
-import { assertPositiveFinite } from "../spectrum/units/assert-positive-finite";
-import {
-  AIR_FORMULA_MIN_AIR_NM,
-  AIR_FORMULA_MIN_VACUUM_NM,
-  airToVacuumNm,
-  HC_EV_NM,
-  vacuumToAirNm,
-} from "../spectrum/units";
 import { LINE_KEY_COLUMN, LINE_TABLE_COLUMN_NAMES } from "./line-table-columns";
-import { formatSpecies } from "./format-species";
-import { parseSpecies } from "./parse-species";
-import { LINE_FLAGS } from "./types";
-import type { LineFlag, LineTableError, LineTableParseResult, LineTableRow } from "./types";
+import {
+  readLineTableRow,
+  resolveLineTableRowOptions,
+  type ReadLineTableRowOptions,
+} from "./read-line-table-row";
+import type { LineTableError, LineTableParseResult, LineTableRow } from "./types";
 import { readCsvRecords, type CsvRecord as RawRecord } from "./read-csv-records";
 
-export interface ParseLineTableCsvOptions {
-  /**
-   * Shortest wavelength (air or vacuum) a row may have, in nm.
-   * @default 100
-   */
-  minWavelengthNm?: number;
-  /**
-   * Longest wavelength (air or vacuum) a row may have, in nm.
-   * @default 20000
-   */
-  maxWavelengthNm?: number;
-  /**
-   * Largest allowed difference, in nm, between a row's air_nm and its vacuum_nm converted to air.
-   * A row's own uncertainty_nm widens it when larger. Published tables round to 0.001 nm and
-   * differ by up to 0.002 nm between conventions (common practice).
-   * @default 0.002
-   */
-  airVacuumToleranceNm?: number;
-  /**
-   * Largest allowed difference, in eV, between upper_ev − lower_ev and the photon energy hc/λ_vac.
-   * @default 0.01
-   */
-  energyToleranceEv?: number;
+/** The row checks' limits (readLineTableRow), and whether the file may carry line keys. */
+export interface ParseLineTableCsvOptions extends ReadLineTableRowOptions {
   /**
    * Accept a line_key column (exports write one) and return each row's key in `lineKeys`; the key's
    * meaning (a line of which draft) is the caller's to check. Without it, line_key is an unknown column.
@@ -49,25 +19,6 @@ export interface ParseLineTableCsvOptions {
    */
   readLineKeys?: boolean;
 }
-
-/** The checks' limits with their defaults filled in. */
-type ResolvedLimits = Required<Omit<ParseLineTableCsvOptions, "readLineKeys">>;
-
-/**
- * Air wavelengths are tabulated only from 200 nm (vacuum) up, as NIST ASD and others do, and the
- * Morton (2000) formula is meant for that range; 199.936 nm is the air wavelength of 200 nm vacuum.
- */
-const AIR_MIN_NM = AIR_FORMULA_MIN_AIR_NM;
-
-const INTENSITY_COLUMNS: ReadonlyArray<[string, SourceKind]> = [
-  ["intensity_flame", "flame"],
-  ["intensity_arc", "arc"],
-  ["intensity_spark", "spark"],
-  ["intensity_plasma", "plasma"],
-  ["intensity_lamp", "lamp"],
-];
-
-const NUMBER_PATTERN = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
 /** Checks the header row; returns column indexes by name, or null after reporting errors. */
 function readHeader(
@@ -123,46 +74,14 @@ function readHeader(
   return ok ? columns : null;
 }
 
-/** Validates one data record; returns the row, or null after reporting its errors. */
+/** Validates one data record; returns the row, or null after reporting its errors located in the file. */
 function readRow(
   record: RawRecord,
   columns: Map<string, number>,
-  options: ResolvedLimits,
+  options: ReadLineTableRowOptions,
   errors: LineTableError[],
 ): LineTableRow | null {
   const { line, cells } = record;
-  const before = errors.length;
-  const fail = (field: string, message: string) => {
-    const index = columns.get(field);
-    errors.push(
-      index === undefined ? { line, field, message } : { line, column: index + 1, field, message },
-    );
-  };
-  const cell = (field: string): string => {
-    const index = columns.get(field);
-    // Exports guard formula-like text with a leading apostrophe (formatLineTableCsv): drop it again.
-    return index === undefined ? "" : unguardFormulaCell((cells[index] ?? "").trim());
-  };
-  /** A number cell: null when blank, undefined (after reporting) when invalid. */
-  const number = (
-    field: string,
-    check?: (value: number) => string | null,
-  ): number | null | undefined => {
-    const text = cell(field);
-    if (text === "") return null;
-    if (!NUMBER_PATTERN.test(text) || !Number.isFinite(Number(text))) {
-      fail(field, `"${text}" is not a number (use a point for decimals)`);
-      return undefined;
-    }
-    const value = Number(text);
-    const problem = check?.(value) ?? null;
-    if (problem) {
-      fail(field, problem);
-      return undefined;
-    }
-    return value;
-  };
-
   for (const message of record.parseErrors) errors.push({ line, field: "row", message });
   if (cells.length !== columns.size) {
     errors.push({
@@ -172,150 +91,16 @@ function readRow(
     });
     return null;
   }
-
-  let species: ReturnType<typeof parseSpecies> | null = null;
-  try {
-    species = parseSpecies(cell("species"));
-  } catch (error) {
-    fail("species", (error as RangeError).message);
+  const byName = new Map<string, string>();
+  for (const [name, index] of columns) byName.set(name, cells[index]);
+  const checked = readLineTableRow(byName, options);
+  for (const { field, message } of checked.errors) {
+    const index = columns.get(field);
+    errors.push(
+      index === undefined ? { line, field, message } : { line, column: index + 1, field, message },
+    );
   }
-
-  const { minWavelengthNm: minNm, maxWavelengthNm: maxNm } = options;
-  const inRange = (value: number) =>
-    value >= minNm && value <= maxNm
-      ? null
-      : `${value} nm is outside the accepted range ${minNm}–${maxNm} nm`;
-  const givenAir = number(
-    "air_nm",
-    (value) =>
-      inRange(value) ??
-      (value < AIR_MIN_NM
-        ? `air wavelengths are tabulated only above ${AIR_MIN_NM.toFixed(3)} nm (200 nm in vacuum); give vacuum_nm instead`
-        : null),
-  );
-  const givenVacuum = number("vacuum_nm", inRange);
-  const positive = (value: number) => (value > 0 ? null : `must be greater than 0, got ${value}`);
-  const nonNegative = (value: number) => (value >= 0 ? null : `must not be negative, got ${value}`);
-  const uncertaintyNm = number("uncertainty_nm", positive);
-
-  let airNm: number | null = null;
-  let vacuumNm: number | null = null;
-  if (givenAir === null && givenVacuum === null) {
-    fail(columns.has("air_nm") ? "air_nm" : "vacuum_nm", "air_nm or vacuum_nm is required");
-  } else if (givenAir !== undefined && givenVacuum !== undefined) {
-    if (givenAir !== null && givenVacuum !== null) {
-      // Below 200 nm vacuum the air formula does not apply; "unchanged" makes such a pair disagree.
-      const expectedAir = vacuumToAirNm(givenVacuum, { belowRange: "unchanged" });
-      const tolerance = Math.max(options.airVacuumToleranceNm, uncertaintyNm ?? 0);
-      if (Math.abs(expectedAir - givenAir) > tolerance) {
-        fail(
-          "air_nm",
-          `air ${givenAir} nm and vacuum ${givenVacuum} nm disagree: vacuum ${givenVacuum} nm is ${expectedAir.toFixed(4)} nm in air (Morton 2000), ${Math.abs(expectedAir - givenAir).toFixed(4)} nm apart, more than ${tolerance} nm`,
-        );
-      } else {
-        airNm = givenAir;
-        vacuumNm = givenVacuum;
-      }
-    } else if (givenAir !== null) {
-      airNm = givenAir;
-      vacuumNm = airToVacuumNm(givenAir);
-    } else if (givenVacuum !== null) {
-      vacuumNm = givenVacuum;
-      airNm = givenVacuum >= AIR_FORMULA_MIN_VACUUM_NM ? vacuumToAirNm(givenVacuum) : null;
-    }
-  }
-
-  const intensities: LineTableRow["intensities"] = {};
-  for (const [field, kind] of INTENSITY_COLUMNS) {
-    const value = number(field, nonNegative);
-    if (typeof value === "number") intensities[kind] = value;
-  }
-
-  const lowerEv = number("lower_ev", nonNegative);
-  const upperEv = number("upper_ev", nonNegative);
-  if (typeof lowerEv === "number" && typeof upperEv === "number") {
-    if (upperEv <= lowerEv) {
-      fail("upper_ev", `upper level ${upperEv} eV must lie above lower level ${lowerEv} eV`);
-    } else if (vacuumNm !== null) {
-      const photonEv = HC_EV_NM / vacuumNm;
-      if (Math.abs(upperEv - lowerEv - photonEv) > options.energyToleranceEv) {
-        fail(
-          "upper_ev",
-          `upper − lower = ${(upperEv - lowerEv).toFixed(4)} eV but the line's photon energy is ${photonEv.toFixed(4)} eV`,
-        );
-      }
-    }
-  }
-  const gUpper = number("g_upper", (value) =>
-    Number.isInteger(value) && value > 0 ? null : `must be a positive integer, got ${value}`,
-  );
-  const aPerS = number("a_per_s", positive);
-
-  const flags: LineFlag[] = [];
-  const flagText = cell("flags");
-  if (flagText !== "") {
-    const given = flagText
-      .split(";")
-      .map((flag) => flag.trim())
-      .filter((flag) => flag !== "");
-    for (const flag of given) {
-      if (!(LINE_FLAGS as readonly string[]).includes(flag)) {
-        fail("flags", `unknown flag "${flag}"; known flags: ${LINE_FLAGS.join(", ")}`);
-      }
-    }
-    for (const flag of LINE_FLAGS) if (given.includes(flag)) flags.push(flag);
-  }
-
-  const extentNm = number("band_extent_nm", positive);
-  const degradesText = cell("band_degrades_to");
-  let band: LineTableRow["band"] = null;
-  if (flags.includes("band-head")) {
-    if (species && species.ionStage !== null)
-      fail("flags", "band-head is for molecules, not atoms or ions");
-    if (extentNm === null) fail("band_extent_nm", "a band head needs band_extent_nm");
-    if (degradesText === "")
-      fail("band_degrades_to", 'a band head needs band_degrades_to ("red" or "violet")');
-    else if (degradesText !== "red" && degradesText !== "violet") {
-      fail("band_degrades_to", `"${degradesText}" is neither "red" nor "violet"`);
-    }
-    if (typeof extentNm === "number" && (degradesText === "red" || degradesText === "violet")) {
-      band = { extentNm, degradesTo: degradesText };
-    }
-  } else {
-    if (extentNm !== null)
-      fail("band_extent_nm", 'band fields are only for rows flagged "band-head"');
-    if (degradesText !== "")
-      fail("band_degrades_to", 'band fields are only for rows flagged "band-head"');
-  }
-
-  const source = cell("source");
-  if (source === "")
-    fail("source", 'every row needs a source (write "from memory" if that is what it is)');
-
-  const verifiedText = cell("verified").toLowerCase();
-  if (verifiedText !== "" && verifiedText !== "true" && verifiedText !== "false") {
-    fail("verified", `"${cell("verified")}" is neither "true" nor "false"`);
-  }
-
-  if (errors.length > before || species === null || vacuumNm === null) return null;
-  return {
-    species: formatSpecies(species),
-    element: species.element,
-    ionStage: species.ionStage,
-    airNm,
-    vacuumNm,
-    uncertaintyNm: uncertaintyNm ?? null,
-    intensities,
-    lowerEv: lowerEv ?? null,
-    upperEv: upperEv ?? null,
-    gUpper: gUpper ?? null,
-    aPerS: aPerS ?? null,
-    flags,
-    band,
-    source,
-    verified: verifiedText === "true",
-    note: cell("note"),
-  };
+  return record.parseErrors.length > 0 ? null : checked.row;
 }
 
 /**
@@ -329,20 +114,7 @@ export function parseLineTableCsv(
   options: ParseLineTableCsvOptions = {},
 ): LineTableParseResult {
   if (typeof text !== "string") throw new RangeError("text must be a string");
-  const resolved: ResolvedLimits = {
-    minWavelengthNm: options.minWavelengthNm ?? 100,
-    maxWavelengthNm: options.maxWavelengthNm ?? 20000,
-    airVacuumToleranceNm: options.airVacuumToleranceNm ?? 0.002,
-    energyToleranceEv: options.energyToleranceEv ?? 0.01,
-  };
-  assertPositiveFinite(resolved.minWavelengthNm, "minWavelengthNm");
-  assertPositiveFinite(resolved.maxWavelengthNm, "maxWavelengthNm");
-  assertPositiveFinite(resolved.airVacuumToleranceNm, "airVacuumToleranceNm");
-  assertPositiveFinite(resolved.energyToleranceEv, "energyToleranceEv");
-  if (resolved.maxWavelengthNm <= resolved.minWavelengthNm) {
-    throw new RangeError("maxWavelengthNm must be greater than minWavelengthNm");
-  }
-
+  const resolved = resolveLineTableRowOptions(options);
   const records = readCsvRecords(text.startsWith("\uFEFF") ? text.slice(1) : text);
   const errors: LineTableError[] = [];
   const result: LineTableParseResult = {

@@ -1,14 +1,12 @@
 // Reads a reference file — wavelengths exported from an authoritative line database — into located
 // lines (species, wavelength in a stated medium, its uncertainty, the citation) for checking a draft.
 import { unguardFormulaCell } from "../reports/formula-guard";
+import type { WavelengthMedium } from "../spectrum/types";
 import { AIR_FORMULA_MIN_AIR_NM } from "../spectrum/units";
 import { formatSpecies } from "./format-species";
 import { parseSpecies } from "./parse-species";
 import { readCsvRecords } from "./read-csv-records";
 import type { LineTableError } from "./types";
-
-/** Standard air or vacuum: the medium a wavelength is stated in. */
-export type WavelengthMedium = "air" | "vacuum";
 
 /** One line of a reference file. */
 export interface ReferenceFileLine {

@@ -3,7 +3,12 @@
 // existing line) the version the editor saw. CSV import into the draft is line-library-import.ts.
 import "server-only";
 import { QueryTypes, type Transaction } from "sequelize";
-import { formatLineTableCsv, parseLineTableCsv, type LineTableRow } from "@/lib/lines";
+import {
+  LINE_TABLE_COLUMNS,
+  lineTableCells,
+  readLineTableRow,
+  type LineTableRow,
+} from "@/lib/lines";
 import { AppError, notFound } from "@/lib/errors";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
@@ -78,40 +83,22 @@ export async function openDraft(actor: Actor, teamId: string): Promise<ReleaseSu
   }
 }
 
-const FIELD_OF_COLUMN: Record<string, string> = {
-  species: "species",
-  air_nm: "airNm",
-  vacuum_nm: "vacuumNm",
-  uncertainty_nm: "uncertaintyNm",
-  intensity_flame: "intensities.flame",
-  intensity_arc: "intensities.arc",
-  intensity_spark: "intensities.spark",
-  intensity_plasma: "intensities.plasma",
-  intensity_lamp: "intensities.lamp",
-  lower_ev: "lowerEv",
-  upper_ev: "upperEv",
-  g_upper: "gUpper",
-  a_per_s: "aPerS",
-  flags: "flags",
-  band_extent_nm: "band.extentNm",
-  band_degrades_to: "band.degradesTo",
-  source: "source",
-  note: "note",
-};
+/** A column's field errors go under the typed line's field ("air_nm" → "airNm"). */
+const FIELD_OF_COLUMN = new Map(LINE_TABLE_COLUMNS.map((column) => [column.name, column.field]));
 
 /**
- * Checks a typed line exactly as an imported CSV row is checked (one rule set), by writing it as a
- * one-row CSV and reading it back. Throws a validation error with field errors in LineInput's names.
+ * Checks a typed line exactly as an imported CSV row is checked (one rule set, readLineTableRow, on
+ * the cells an export would write for it). Throws a validation error with field errors in LineInput's
+ * names.
  */
 export function validateLineInput(input: LineInput): LineTableRow {
-  const csv = formatLineTableCsv([{ ...input, element: "", ionStage: null, verified: false }], {
-    describeColumns: false,
-  });
-  const parsed = parseLineTableCsv(csv);
-  if (parsed.rows.length === 1 && parsed.errors.length === 0) return parsed.rows[0];
+  const { row, errors } = readLineTableRow(
+    lineTableCells({ ...input, element: "", ionStage: null, verified: false }),
+  );
+  if (row) return row;
   const fieldErrors: Record<string, string[]> = {};
-  for (const error of parsed.errors)
-    (fieldErrors[FIELD_OF_COLUMN[error.field] ?? "_"] ??= []).push(error.message);
+  for (const error of errors)
+    (fieldErrors[FIELD_OF_COLUMN.get(error.field) ?? "_"] ??= []).push(error.message);
   throw new AppError("validation", "Some values of the line are not right.", { fieldErrors });
 }
 
@@ -205,17 +192,54 @@ async function reloadLine(lineId: string): Promise<LineRecord> {
   return toLineRecord((await selectLines("l.id = $1", [lineId]))[0]);
 }
 
+/** Which draft line, the version the editor saw, and why. */
+type LineEditInput = { lineId: string; version: number; reason: string };
+
+/**
+ * One edit of a draft line: the reason checked, the line locked at the editor's version, the change
+ * and its audit event in one transaction, then the line as it now stands. `change` writes and returns
+ * the event's before and after, or null when there is nothing to record.
+ */
+async function editDraftLine(
+  actor: Actor,
+  input: LineEditInput,
+  action: "line.update" | "line.retire" | "line.restore" | "line.verify",
+  change: (
+    row: LineDbRow,
+    transaction: Transaction,
+  ) => Promise<{ before: Record<string, unknown>; after: Record<string, unknown> } | null>,
+): Promise<LineRecord> {
+  const reason = checkedLineReason(input.reason);
+  await sequelize.transaction(async (transaction) => {
+    const { row, teamId } = await lockLineForEdit(actor, input.lineId, input.version, transaction);
+    const event = await change(row, transaction);
+    if (!event) return;
+    await recordAudit(
+      {
+        actorId: actor.id,
+        teamId,
+        action,
+        entity: "line",
+        entityId: row.line_key,
+        before: event.before,
+        after: event.after,
+        reason,
+      },
+      transaction,
+    );
+  });
+  return reloadLine(input.lineId);
+}
+
 /**
  * Corrects a draft line. `line` holds the fields to change; a changed air wavelength without a
  * vacuum one (or the reverse) recomputes the other. Values changed → the line is unverified again.
  */
 export async function updateLine(
   actor: Actor,
-  input: { lineId: string; version: number; line: Partial<LineInput>; reason: string },
+  input: LineEditInput & { line: Partial<LineInput> },
 ): Promise<LineRecord> {
-  const reason = checkedLineReason(input.reason);
-  await sequelize.transaction(async (transaction) => {
-    const { row, teamId } = await lockLineForEdit(actor, input.lineId, input.version, transaction);
+  return editDraftLine(actor, input, "line.update", async (row, transaction) => {
     const current = toLineRecord(row);
     const merged: LineInput = { ...recordToInput(current), ...input.line };
     if ("airNm" in input.line && !("vacuumNm" in input.line))
@@ -224,7 +248,7 @@ export async function updateLine(
     const next = validateLineInput(merged);
     const before = toLineTableRow(row);
     const fields = differingFields(before, next);
-    if (fields.length === 0) return;
+    if (fields.length === 0) return null;
     const twin = await twinInDraft(row.release_id, next, row.id, transaction);
     if (twin) throw duplicateError(twin);
     const values = valuesOf(next);
@@ -235,31 +259,19 @@ export async function updateLine(
        WHERE id = $1`,
       { bind: [row.id, ...VALUE_COLUMNS.map((c) => values[c])], transaction },
     );
-    await recordAudit(
-      {
-        actorId: actor.id,
-        teamId,
-        action: "line.update",
-        entity: "line",
-        entityId: row.line_key,
-        before: { releaseId: row.release_id, ...before },
-        after: { releaseId: row.release_id, ...next, verified: false, fields },
-        reason,
-      },
-      transaction,
-    );
+    return {
+      before: { releaseId: row.release_id, ...before },
+      after: { releaseId: row.release_id, ...next, verified: false, fields },
+    };
   });
-  return reloadLine(input.lineId);
 }
 
-async function setLineState(
+function setLineState(
   actor: Actor,
-  input: { lineId: string; version: number; reason: string },
+  input: LineEditInput,
   action: "line.retire" | "line.restore" | "line.verify",
 ): Promise<LineRecord> {
-  const reason = checkedLineReason(input.reason);
-  await sequelize.transaction(async (transaction) => {
-    const { row, teamId } = await lockLineForEdit(actor, input.lineId, input.version, transaction);
+  return editDraftLine(actor, input, action, async (row, transaction) => {
     const set =
       action === "line.verify"
         ? "verified_by_id = $2, verified_at = now(), verified_citation = NULL"
@@ -275,50 +287,31 @@ async function setLineState(
         transaction,
       },
     );
-    await recordAudit(
-      {
-        actorId: actor.id,
-        teamId,
-        action,
-        entity: "line",
-        entityId: row.line_key,
-        before: {
-          releaseId: row.release_id,
-          retired: row.retired,
-          verified: row.verified_at !== null,
-        },
-        after: {
-          releaseId: row.release_id,
-          retired: action === "line.verify" ? row.retired : action === "line.retire",
-          verified: action === "line.verify" ? true : row.verified_at !== null,
-        },
-        reason,
+    return {
+      before: {
+        releaseId: row.release_id,
+        retired: row.retired,
+        verified: row.verified_at !== null,
       },
-      transaction,
-    );
+      after: {
+        releaseId: row.release_id,
+        retired: action === "line.verify" ? row.retired : action === "line.retire",
+        verified: action === "line.verify" ? true : row.verified_at !== null,
+      },
+    };
   });
-  return reloadLine(input.lineId);
 }
 
 /** Marks a draft line retired: it stays visible in the draft and is left out when publishing. */
-export function retireLine(
-  actor: Actor,
-  input: { lineId: string; version: number; reason: string },
-) {
+export function retireLine(actor: Actor, input: LineEditInput) {
   return setLineState(actor, input, "line.retire");
 }
 
-export function restoreLine(
-  actor: Actor,
-  input: { lineId: string; version: number; reason: string },
-) {
+export function restoreLine(actor: Actor, input: LineEditInput) {
   return setLineState(actor, input, "line.restore");
 }
 
 /** Records that a lab lead checked the line against its source (who and when). */
-export function verifyLine(
-  actor: Actor,
-  input: { lineId: string; version: number; reason: string },
-) {
+export function verifyLine(actor: Actor, input: LineEditInput) {
   return setLineState(actor, input, "line.verify");
 }

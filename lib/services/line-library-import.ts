@@ -9,6 +9,7 @@ import { runHeavyTask } from "@/lib/workers/heavy-pool";
 import type { Actor } from "@/lib/auth/actor";
 import { AuditEvent, sequelize } from "@/models";
 import { recordAudit } from "./audit";
+import { assertCsvWithinLimits, type CsvLimits } from "./line-csv-limits";
 import { lockDraft, selectLines } from "./line-library-access";
 import {
   BULK_INSERT_LINES_SQL,
@@ -37,45 +38,22 @@ export interface ImportApplyResult {
   rejected: LineTableError[];
 }
 
-function assertSize(csvText: string): void {
-  if (typeof csvText !== "string" || csvText.trim() === "") {
-    throw new AppError("validation", "The file is empty.", {
+const IMPORT_LIMITS: CsvLimits = {
+  maxBytes: MAX_IMPORT_BYTES,
+  maxRows: MAX_IMPORT_ROWS,
+  empty: () =>
+    new AppError("validation", "The file is empty.", {
       fieldErrors: { csv: ["Choose a CSV file."] },
-    });
-  }
-  if (Buffer.byteLength(csvText, "utf8") > MAX_IMPORT_BYTES) {
-    throw new AppError("too_large", `The file is larger than ${MAX_IMPORT_LABEL}.`);
-  }
-  // Counted before any lock or parse: a record takes at least one line, so this never undercounts.
-  const rows = countDataLines(csvText);
-  if (rows > MAX_IMPORT_ROWS) {
-    throw new AppError(
+    }),
+  tooLarge: () => new AppError("too_large", `The file is larger than ${MAX_IMPORT_LABEL}.`),
+  tooManyRows: (rows, limit) =>
+    new AppError(
       "too_large",
-      `The file has ${rows.toLocaleString("en")} rows; one import takes at most ${MAX_IMPORT_ROWS.toLocaleString("en")}. ` +
-        `Split it into files of at most ${MAX_IMPORT_ROWS.toLocaleString("en")} rows and import them one after the other.`,
-      { fieldErrors: { csv: [`At most ${MAX_IMPORT_ROWS.toLocaleString("en")} rows per file.`] } },
-    );
-  }
-}
-
-/** Lines that are neither blank nor # comments, less the header: an upper bound of the file's records. */
-export function countDataLines(csvText: string): number {
-  let count = 0;
-  let start = 0;
-  while (start <= csvText.length) {
-    let end = csvText.indexOf("\n", start);
-    if (end < 0) end = csvText.length;
-    let i = start;
-    while (
-      i < end &&
-      (csvText[i] === " " || csvText[i] === "\t" || csvText[i] === "\r" || csvText[i] === "\uFEFF")
-    )
-      i++;
-    if (i < end && csvText[i] !== "#") count++;
-    start = end + 1;
-  }
-  return Math.max(0, count - 1);
-}
+      `The file has ${rows} rows; one import takes at most ${limit}. ` +
+        `Split it into files of at most ${limit} rows and import them one after the other.`,
+      { fieldErrors: { csv: [`At most ${limit} rows per file.`] } },
+    ),
+};
 
 async function plan(
   actor: Actor,
@@ -101,7 +79,7 @@ export async function previewImport(
   actor: Actor,
   input: { releaseId: string; csvText: string },
 ): Promise<ImportPreview> {
-  assertSize(input.csvText);
+  assertCsvWithinLimits(input.csvText, IMPORT_LIMITS);
   return sequelize.transaction(async (transaction) => {
     const { planned } = await plan(actor, input.releaseId, input.csvText, transaction, "SHARE");
     return planned.preview;
@@ -122,7 +100,7 @@ export async function applyImport(
     reason?: string;
   },
 ): Promise<ImportApplyResult> {
-  assertSize(input.csvText);
+  assertCsvWithinLimits(input.csvText, IMPORT_LIMITS);
   const reason = input.reason?.trim() || "CSV import";
   try {
     return await sequelize.transaction(async (transaction) => {

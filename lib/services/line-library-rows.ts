@@ -185,26 +185,23 @@ function bandOf(row: LineDbRow): LineRecord["band"] {
 }
 
 export function toLineRecord(row: LineDbRow): LineRecord {
+  // Taken apart only to keep the API's order of keys (g and a sit after the energies).
+  const { lowerEv, upperEv, gUpper, aPerS, flags, band, source, verified, note, ...identity } =
+    toLineTableRow(row);
   return {
     id: row.id,
     lineKey: row.line_key,
     releaseId: row.release_id,
-    species: row.species,
-    element: row.element,
-    ionStage: row.ion_stage,
-    airNm: row.air_nm,
-    vacuumNm: row.vacuum_nm,
-    uncertaintyNm: row.uncertainty_nm,
-    intensities: intensitiesOf(row),
-    upperEv: row.upper_ev,
-    lowerEv: row.lower_ev,
-    g: row.g_upper,
-    a: row.a_per_s,
-    flags: row.flags ?? [],
-    band: bandOf(row),
-    source: row.source,
-    note: row.note,
-    verified: row.verified_at !== null,
+    ...identity,
+    upperEv,
+    lowerEv,
+    g: gUpper,
+    a: aPerS,
+    flags,
+    band,
+    source,
+    note,
+    verified,
     verifiedByName: row.verified_by_name,
     verifiedAt: row.verified_at ? new Date(row.verified_at).toISOString() : null,
     verifiedCitation: row.verified_citation,

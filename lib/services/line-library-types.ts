@@ -1,7 +1,7 @@
 // The shapes the line-library services return to pages and route handlers: releases, lines,
 // import previews and release comparisons. Plain objects, no Sequelize instances.
-import type { LineFlag, LineTableError, LineTableRow } from "@/lib/lines";
-import type { SourceKind } from "@/lib/spectrum/types";
+import type { LineFlag, LineTableError, LineTableRow, ReferencePairing } from "@/lib/lines";
+import type { SourceKind, WavelengthMedium } from "@/lib/spectrum/types";
 
 export type ReleaseStatus = "draft" | "published";
 
@@ -21,29 +21,20 @@ export interface ReleaseSummary {
   createdAt: string;
 }
 
-/** One line as the API and the pages see it (the public shape of GET /api/lines). */
-export interface LineRecord {
+/**
+ * One line as the API and the pages see it (the public shape of GET /api/lines): the table's row
+ * (g and a under their API names) with its identity, verification and draft state.
+ */
+export interface LineRecord extends Omit<LineTableRow, "gUpper" | "aPerS"> {
   /** This row's id (one row per release). */
   id: string;
   /** The line's identity across releases: the same physical line keeps its key when corrected. */
   lineKey: string;
   releaseId: string;
-  species: string;
-  element: string;
-  ionStage: number | null;
-  airNm: number | null;
-  vacuumNm: number;
-  uncertaintyNm: number | null;
-  intensities: Partial<Record<SourceKind, number>>;
-  upperEv: number | null;
-  lowerEv: number | null;
-  g: number | null;
-  a: number | null;
-  flags: LineFlag[];
-  band: { extentNm: number; degradesTo: "red" | "violet" } | null;
-  source: string;
-  note: string;
-  verified: boolean;
+  /** LineTableRow's gUpper. */
+  g: LineTableRow["gUpper"];
+  /** LineTableRow's aPerS. */
+  a: LineTableRow["aPerS"];
   verifiedByName: string | null;
   verifiedAt: string | null;
   /** The reference citation a reference check verified the line against; null otherwise. */
@@ -133,22 +124,16 @@ export interface LineHistoryEntry {
   after: unknown;
 }
 
-/** One reference line paired with one draft row, as a reference check's preview shows it. */
-export interface ReferenceCheckPair {
-  lineId: string;
+/**
+ * One reference line paired with one draft row, as a reference check's preview shows it: the
+ * comparison's pairing (its medium is the reference line's) with the row and the reference named.
+ */
+export interface ReferenceCheckPair extends Omit<
+  ReferencePairing,
+  "referenceIndex" | "draftUncertaintyStated"
+> {
   lineKey: string;
   species: string;
-  /** The medium of the comparison: the reference line's. */
-  medium: "air" | "vacuum";
-  /** The draft row's wavelength in that medium, nm. */
-  draftNm: number;
-  referenceNm: number;
-  /** draftNm − referenceNm, nm. */
-  differenceNm: number;
-  /** √(u_draft² + u_reference²), nm. */
-  combinedUncertaintyNm: number;
-  /** The largest difference that counts as agreement, nm. */
-  toleranceNm: number;
   draftUncertaintyNm: number | null;
   referenceUncertaintyNm: number;
   citation: string;
@@ -176,7 +161,7 @@ export interface ReferenceCheckPreview {
   referenceOnly: {
     csvLine: number;
     species: string;
-    medium: "air" | "vacuum";
+    medium: WavelengthMedium;
     wavelengthNm: number;
     uncertaintyNm: number;
     citation: string;

@@ -18,7 +18,7 @@ import { sequelize } from "@/models";
 import { MAX_REFERENCE_BYTES, MAX_REFERENCE_LABEL } from "@/lib/validation/line-schemas";
 import { recordAudit } from "./audit";
 import { lockDraft, selectLines } from "./line-library-access";
-import { countDataLines } from "./line-library-import";
+import { assertCsvWithinLimits, type CsvLimits } from "./line-csv-limits";
 import { validateLineInput } from "./line-library-draft";
 import {
   BULK_UPDATE_LINES_SQL,
@@ -50,29 +50,26 @@ export interface ReferenceCheckInput {
   medium?: WavelengthMedium;
 }
 
-function assertBounded(csvText: string): void {
-  if (typeof csvText !== "string" || csvText.trim() === "") {
-    throw new AppError("validation", "The reference file is empty.", {
+const REFERENCE_LIMITS: CsvLimits = {
+  maxBytes: MAX_REFERENCE_BYTES,
+  maxRows: MAX_REFERENCE_ROWS,
+  empty: () =>
+    new AppError("validation", "The reference file is empty.", {
       fieldErrors: { csv: ["Choose a reference CSV file."] },
-    });
-  }
-  if (Buffer.byteLength(csvText, "utf8") > MAX_REFERENCE_BYTES) {
-    throw new AppError(
+    }),
+  tooLarge: () =>
+    new AppError(
       "too_large",
       `The reference file is larger than ${MAX_REFERENCE_LABEL}; nothing was compared. Split it by element and check the parts one after the other.`,
       { fieldErrors: { csv: [`At most ${MAX_REFERENCE_LABEL} per file.`] } },
-    );
-  }
-  const rows = countDataLines(csvText);
-  if (rows > MAX_REFERENCE_ROWS) {
-    const limit = MAX_REFERENCE_ROWS.toLocaleString("en");
-    throw new AppError(
+    ),
+  tooManyRows: (rows, limit) =>
+    new AppError(
       "too_large",
-      `The reference file has ${rows.toLocaleString("en")} rows; one check takes at most ${limit}. Split it by element and check the parts one after the other.`,
+      `The reference file has ${rows} rows; one check takes at most ${limit}. Split it by element and check the parts one after the other.`,
       { fieldErrors: { csv: [`At most ${limit} rows per file.`] } },
-    );
-  }
-}
+    ),
+};
 
 /** Parses the file; any problem refuses the whole file, with every located problem in fieldErrors.csv. */
 function readReference(csvText: string, medium?: WavelengthMedium): ReferenceFileLine[] {
@@ -206,7 +203,7 @@ export async function previewReferenceCheck(
   actor: Actor,
   input: ReferenceCheckInput,
 ): Promise<ReferenceCheckPreview> {
-  assertBounded(input.csvText);
+  assertCsvWithinLimits(input.csvText, REFERENCE_LIMITS);
   return sequelize.transaction(async (transaction) => {
     return (await plan(actor, input, transaction, "SHARE")).preview;
   });
@@ -250,7 +247,7 @@ export async function applyReferenceCheck(
     reason?: string;
   },
 ): Promise<ReferenceCheckResult> {
-  assertBounded(input.csvText);
+  assertCsvWithinLimits(input.csvText, REFERENCE_LIMITS);
   const reason = input.reason?.trim() || "Checked against a reference";
   return sequelize.transaction(async (transaction) => {
     // UPDATE mode: no edit of the draft can slip in between the comparison and the writes.

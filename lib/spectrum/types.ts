@@ -7,6 +7,8 @@ export type AxisUnit = "pixel" | "nm" | "angstrom" | "wavenumber";
 /** Whether a wavelength is measured in air or in vacuum. */
 export type WavelengthMedium = "air" | "vacuum";
 
+export const WAVELENGTH_MEDIA = ["air", "vacuum"] as const satisfies readonly WavelengthMedium[];
+
 /**
  * What the first column of an instrument's exported files holds: pixel indices counted from 0 or
  * from 1 (the calibration maps the index, so the counting matters), or a spectral unit.

@@ -4,9 +4,9 @@
 import { z } from "zod";
 import { text } from "./text";
 import { blank, numberOrUndefined } from "./form-data";
-import { MAX_UPLOAD_POINTS, MEDIA } from "./upload-schemas";
+import { MAX_UPLOAD_POINTS } from "./upload-schemas";
 import { GLASS_NAMES, type GlassName } from "@/lib/spectrum/calibration";
-import { FIRST_COLUMN_KINDS, type FirstColumnKind } from "@/lib/spectrum/types";
+import { FIRST_COLUMN_KINDS, WAVELENGTH_MEDIA, type FirstColumnKind } from "@/lib/spectrum/types";
 
 const positive = (what: string) =>
   z
@@ -48,7 +48,7 @@ const instrumentFields = {
     .optional(),
   /** Air or vacuum, for a wavelength profile (nm or angstrom). */
   exportMedium: z
-    .enum(MEDIA, { error: "The exportMedium is air or vacuum, or null when not known." })
+    .enum(WAVELENGTH_MEDIA, { error: "The exportMedium is air or vacuum, or null when not known." })
     .nullable()
     .optional(),
 };

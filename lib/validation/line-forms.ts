@@ -1,10 +1,15 @@
 // Schemas of the line library's pages: the browse and compare search parameters, and the lab lead's
 // draft forms (a line's values, a change with its reason, an import, a publish), each derived from the
 // API's schema of the same use case (line-schemas.ts) with the form's own fields added.
-import Papa from "papaparse";
 import { z } from "zod";
 import { text } from "./text";
-import { LINE_FLAGS, LINE_TABLE_COLUMN_NAMES, parseLineTableCsv, type LineFlag } from "@/lib/lines";
+import {
+  LINE_FLAGS,
+  LINE_TABLE_COLUMNS,
+  LINE_TABLE_COLUMN_NAMES,
+  readLineTableRow,
+  type LineFlag,
+} from "@/lib/lines";
 import type {
   ImportPreview,
   LineInput,
@@ -14,7 +19,12 @@ import type {
   ReferenceCheckResult,
 } from "@/lib/services/line-library-types";
 import type { FormState } from "./form-state";
-import { SOURCE_KINDS, type SourceKind } from "@/lib/spectrum/types";
+import {
+  SOURCE_KINDS,
+  WAVELENGTH_MEDIA,
+  type SourceKind,
+  type WavelengthMedium,
+} from "@/lib/spectrum/types";
 import type { FieldErrors } from "@/lib/errors";
 import {
   importApplySchema,
@@ -77,17 +87,7 @@ export function parseLineSearch(params: Record<string, string | string[] | undef
 }
 
 /** Service field names (LineInput's) → the form's input names (the CSV columns). */
-const INPUT_OF_FIELD: Record<string, string> = {
-  airNm: "air_nm",
-  vacuumNm: "vacuum_nm",
-  uncertaintyNm: "uncertainty_nm",
-  lowerEv: "lower_ev",
-  upperEv: "upper_ev",
-  gUpper: "g_upper",
-  aPerS: "a_per_s",
-  "band.extentNm": "band_extent_nm",
-  "band.degradesTo": "band_degrades_to",
-};
+const INPUT_OF_FIELD = new Map(LINE_TABLE_COLUMNS.map((column) => [column.field, column.name]));
 
 /** Field errors from the service, renamed to the inputs of the line form. */
 export function toLineFormFieldErrors(
@@ -96,10 +96,7 @@ export function toLineFormFieldErrors(
   if (!fieldErrors) return undefined;
   const renamed: FieldErrors = {};
   for (const [field, messages] of Object.entries(fieldErrors)) {
-    const input =
-      INPUT_OF_FIELD[field] ??
-      (field.startsWith("intensities.") ? `intensity_${field.slice(12)}` : field);
-    (renamed[input] ??= []).push(...messages);
+    (renamed[INPUT_OF_FIELD.get(field) ?? field] ??= []).push(...messages);
   }
   return renamed;
 }
@@ -187,27 +184,27 @@ export function keepEditedWavelength(formData: FormData): void {
 }
 
 /**
- * Reads a line's values from a form whose inputs are named after the CSV columns, by writing them as
- * a one-row CSV and reading it back: the form then gets exactly the checks an imported row gets
- * (species notation, air/vacuum agreement, energies, band fields, a required source).
+ * Reads a line's values from a form whose inputs are named after the CSV columns, with the checks an
+ * imported row gets (readLineTableRow: species notation, air/vacuum agreement, energies, band fields,
+ * a required source); field errors are keyed by the inputs' names.
  */
 export function parseLineInputForm(
   formData: FormData,
 ): { input: LineInput; fieldErrors?: undefined } | { input?: undefined; fieldErrors: FieldErrors } {
-  const cells = LINE_TABLE_COLUMN_NAMES.map((name) => {
-    if (name === "flags") return formData.getAll("flags").map(String).join(";");
-    if (name === "verified") return "false";
-    return String(formData.get(name) ?? "").trim();
-  });
-  const csv = Papa.unparse({ fields: [...LINE_TABLE_COLUMN_NAMES], data: [cells] });
-  const { rows, errors } = parseLineTableCsv(csv);
-  if (errors.length > 0 || rows.length !== 1) {
+  const cells = new Map(
+    LINE_TABLE_COLUMN_NAMES.map((name) => {
+      if (name === "flags") return [name, formData.getAll("flags").map(String).join(";")];
+      if (name === "verified") return [name, "false"];
+      return [name, String(formData.get(name) ?? "").trim()];
+    }),
+  );
+  const { row, errors } = readLineTableRow(cells);
+  if (!row) {
     const fieldErrors: FieldErrors = {};
-    for (const error of errors)
-      (fieldErrors[error.field === "row" ? "_" : error.field] ??= []).push(error.message);
+    for (const error of errors) (fieldErrors[error.field] ??= []).push(error.message);
     return { fieldErrors };
   }
-  const { element: _element, ionStage: _ionStage, verified: _verified, ...input } = rows[0];
+  const { element: _element, ionStage: _ionStage, verified: _verified, ...input } = row;
   return { input };
 }
 
@@ -254,7 +251,7 @@ export function toImportPreviewView(preview: ImportPreview): ImportPreviewView {
 export const referenceCheckFormSchema = referenceCheckPreviewSchema.extend({
   releaseId: z.uuid(),
   medium: z
-    .enum(["", "air", "vacuum"], { error: "Choose air, vacuum or the file's medium column." })
+    .enum(["", ...WAVELENGTH_MEDIA], { error: "Choose air, vacuum or the file's medium column." })
     .optional()
     .transform((m) => (m ? m : undefined)),
 });
@@ -283,6 +280,6 @@ export interface ReferenceCheckFormState extends FormState {
   preview?: ReferenceCheckPreview;
   /** The reference CSV the preview was made from, kept in a hidden field until the lead confirms. */
   csv?: string;
-  medium?: "air" | "vacuum";
+  medium?: WavelengthMedium;
   applied?: ReferenceCheckResult;
 }

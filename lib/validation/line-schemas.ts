@@ -7,9 +7,10 @@ import { text } from "./text";
 import { LINE_FLAGS, type LineFlag } from "@/lib/lines";
 import { AppError } from "@/lib/errors";
 import { bodyText } from "@/lib/http/read-body";
-import { zodFieldErrors } from "./field-errors";
+import { parseFields } from "./field-errors";
+import { SOURCE_KINDS, WAVELENGTH_MEDIA, type SourceKind } from "@/lib/spectrum/types";
 
-const SOURCE_KINDS = ["flame", "arc", "spark", "plasma", "lamp"] as const;
+const SOURCE_KIND_ENUM = z.enum(SOURCE_KINDS as [SourceKind, ...SourceKind[]]);
 const optionalNumber = z.number().finite().nullable().optional();
 
 /** Why a draft line is added, corrected, retired, restored or verified: 3–500 characters. */
@@ -66,7 +67,7 @@ export const lineQuerySchema = z
       .optional(),
     species: text().trim().min(1).max(40).optional(),
     element: text().trim().min(1).max(20).optional(),
-    source: z.enum(SOURCE_KINDS).optional(),
+    source: SOURCE_KIND_ENUM.optional(),
     flag: z.enum(LINE_FLAGS as unknown as [LineFlag, ...LineFlag[]]).optional(),
     verified: z
       .enum(["true", "false"])
@@ -87,7 +88,7 @@ export const lineInputSchema = z.object({
   airNm: optionalNumber,
   vacuumNm: optionalNumber,
   uncertaintyNm: optionalNumber,
-  intensities: z.partialRecord(z.enum(SOURCE_KINDS), z.number().finite()).optional(),
+  intensities: z.partialRecord(SOURCE_KIND_ENUM, z.number().finite()).optional(),
   lowerEv: optionalNumber,
   upperEv: optionalNumber,
   gUpper: optionalNumber,
@@ -122,7 +123,7 @@ export const importApplySchema = importPreviewSchema.extend({
   skipRejected: z.boolean().optional(),
   reason: optionalReason,
 });
-const medium = z.enum(["air", "vacuum"], {
+const medium = z.enum(WAVELENGTH_MEDIA, {
   error: 'Say whether the reference wavelengths are in "air" or in "vacuum".',
 });
 /** A reference check's preview: the reference CSV and, for rows without a medium column, their medium. */
@@ -196,18 +197,19 @@ export const IMPORT_ROUTE_OPTIONS = {
   tooLargeMessage: `The line-table file is larger than the ${MAX_IMPORT_LABEL} an import accepts.`,
 };
 
-/** A service's own check of a value with a use case's schema: its value, or 400 naming the field. */
+/**
+ * A service's own check of a value with a use case's schema: its value, or 400 naming the field (the
+ * value is checked as that field of an object, so its messages sit under the field's name).
+ */
 function checked<T extends z.ZodType>(
   schema: T,
   field: string,
   value: unknown,
   message: string,
 ): z.infer<T> {
-  const parsed = schema.safeParse(value);
-  if (parsed.success) return parsed.data;
-  throw new AppError("validation", message, {
-    fieldErrors: { [field]: parsed.error.issues.map((issue) => issue.message) },
-  });
+  return parseFields(z.object({ [field]: schema }), { [field]: value }, message)[
+    field
+  ] as z.infer<T>;
 }
 
 /** A draft edit's reason as the services take it (trimmed), by the rule the forms and the API use. */
@@ -245,11 +247,5 @@ export async function readImportBody<T extends z.ZodType<{ csv: string }>>(
       throw new AppError("validation", "Send the file as text/csv, or JSON {csv}.");
     }
   }
-  const parsed = schema.safeParse(body);
-  if (!parsed.success) {
-    throw new AppError("validation", "Some fields are not right.", {
-      fieldErrors: zodFieldErrors(parsed.error),
-    });
-  }
-  return parsed.data;
+  return parseFields(schema, body);
 }

@@ -3,7 +3,7 @@
 // bad filter).
 import { z } from "zod";
 import { AppError } from "@/lib/errors";
-import { zodFieldErrors } from "./field-errors";
+import { parseFields } from "./field-errors";
 import { isRecordId } from "./record-id";
 
 /** A route's id segment (every API [id] route): anything but a UUID is "not found", never a database error. */
@@ -17,13 +17,7 @@ export function parseQuery<T extends z.ZodType>(request: Request, schema: T): z.
   const params = new URL(request.url).searchParams;
   const values: Record<string, string> = {};
   for (const [key, value] of params) if (key !== "teamId") values[key] = value;
-  const parsed = schema.safeParse(values);
-  if (!parsed.success) {
-    throw new AppError("validation", "Some filters are not right.", {
-      fieldErrors: zodFieldErrors(parsed.error),
-    });
-  }
-  return parsed.data;
+  return parseFields(schema, values, "Some filters are not right.");
 }
 
 /** A team id from the query string: absent means `fallback` (the actor's default team,

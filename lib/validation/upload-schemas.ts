@@ -2,15 +2,12 @@
 // store routes parse with these; the services check what depends on stored data.
 import { z } from "zod";
 import { text } from "./text";
-import { FIRST_COLUMN_KINDS, type FirstColumnKind } from "@/lib/spectrum/types";
+import { FIRST_COLUMN_KINDS, WAVELENGTH_MEDIA, type FirstColumnKind } from "@/lib/spectrum/types";
 
 /** Largest upload, in bytes (16 MiB). Bigger files get 413 before they are parsed. */
 export const MAX_UPLOAD_BYTES = 16 * 1024 * 1024;
 /** Largest number of points in an uploaded spectrum. */
 export const MAX_UPLOAD_POINTS = 2_000_000;
-
-/** Air or vacuum: the media of a wavelength column, in an upload and in an instrument's export profile. */
-export const MEDIA = ["air", "vacuum"] as const;
 
 /**
  * What an upload may say its first column holds: the export profile's kinds, and plain "pixel" (pixel
@@ -28,6 +25,6 @@ export const spectrumUploadFieldsSchema = z.object({
     })
     .optional(),
   medium: z
-    .enum(MEDIA, { error: "The medium, of a wavelength column, is air or vacuum." })
+    .enum(WAVELENGTH_MEDIA, { error: "The medium, of a wavelength column, is air or vacuum." })
     .optional(),
 });

@@ -7,17 +7,16 @@ import { requireActor } from "@/lib/auth/session";
 import { apiRoute } from "@/lib/http/api-handler";
 import { exportAuditCsv, fetchAuditPage } from "@/lib/services/audit";
 import { auditQuerySchema } from "@/lib/validation/audit-schemas";
-import { zodFieldErrors } from "@/lib/validation/field-errors";
+import { parseFields } from "@/lib/validation/field-errors";
 
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();
-  const parsed = auditQuerySchema.safeParse(Object.fromEntries(new URL(request.url).searchParams));
-  if (!parsed.success) {
-    throw new AppError("validation", "Some filters are not right.", {
-      fieldErrors: zodFieldErrors(parsed.error),
-    });
-  }
-  const { format, cursor, limit, ...filter } = parsed.data;
+  const query = parseFields(
+    auditQuerySchema,
+    Object.fromEntries(new URL(request.url).searchParams),
+    "Some filters are not right.",
+  );
+  const { format, cursor, limit, ...filter } = query;
   const teamId = filter.teamId ?? defaultTeamId(actor);
   if (!teamId) throw new AppError("not_found", "You are not in a team yet.");
   if (format === "csv") {

@@ -5,17 +5,16 @@ import { apiRoute } from "@/lib/http/api-handler";
 import { AppError } from "@/lib/errors";
 import { fetchLines, fetchReleases } from "@/lib/services/line-library-reads";
 import { lineQuerySchema } from "@/lib/validation/line-schemas";
-import { zodFieldErrors } from "@/lib/validation/field-errors";
+import { parseFields } from "@/lib/validation/field-errors";
 
 export const GET = apiRoute(async (request) => {
   const actor = await requireActor();
-  const parsed = lineQuerySchema.safeParse(Object.fromEntries(new URL(request.url).searchParams));
-  if (!parsed.success) {
-    throw new AppError("validation", "Some filters are not right.", {
-      fieldErrors: zodFieldErrors(parsed.error),
-    });
-  }
-  const { teamId: givenTeam, release, ...filters } = parsed.data;
+  const query = parseFields(
+    lineQuerySchema,
+    Object.fromEntries(new URL(request.url).searchParams),
+    "Some filters are not right.",
+  );
+  const { teamId: givenTeam, release, ...filters } = query;
   const teamId = givenTeam ?? defaultTeamId(actor);
   if (!teamId) throw new AppError("not_found", "You are not in a team yet.");
   let releaseId: string | undefined;

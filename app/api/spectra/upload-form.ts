@@ -4,7 +4,7 @@ import { AppError } from "@/lib/errors";
 import type { ApiRouteOptions } from "@/lib/http/api-handler";
 import { bodyBytes } from "@/lib/http/read-body";
 import type { SpectrumUpload } from "@/lib/services/spectra";
-import { zodFieldErrors } from "@/lib/validation/field-errors";
+import { parseFields } from "@/lib/validation/field-errors";
 import { cleanText } from "@/lib/validation/text";
 import { MAX_UPLOAD_BYTES, spectrumUploadFieldsSchema } from "@/lib/validation/upload-schemas";
 
@@ -44,20 +44,15 @@ export async function readUploadForm(request: Request): Promise<SpectrumUpload> 
     const value = form.get(name);
     return typeof value === "string" && value !== "" ? value : undefined;
   };
-  const fields = spectrumUploadFieldsSchema.safeParse({
+  const fields = parseFields(spectrumUploadFieldsSchema, {
     instrumentId: text("instrumentId"),
     kind: text("kind"),
     label: text("label"),
     xUnit: text("xUnit"),
     medium: text("medium"),
   });
-  if (!fields.success) {
-    throw new AppError("validation", "Some fields are not right.", {
-      fieldErrors: zodFieldErrors(fields.error),
-    });
-  }
   return {
-    ...fields.data,
+    ...fields,
     fileName: cleanText(file.name).slice(0, 255) || "upload",
     bytes: new Uint8Array(await file.arrayBuffer()),
   };

@@ -1,8 +1,9 @@
 // Entry checks for the readers' options: a caller's mistake is a RangeError, not a file error.
+import { WAVELENGTH_MEDIA } from "../types";
 import type { SpectrumReadOptions } from "./spectrum-read-options";
 
 const AXIS_UNITS = new Set(["pixel", "nm", "angstrom", "wavenumber"]);
-const MEDIA = new Set(["air", "vacuum"]);
+const MEDIA: ReadonlySet<string> = new Set(WAVELENGTH_MEDIA);
 
 /** Throws a RangeError for an unknown unit or medium, or limits and counts that are not positive integers. */
 export function assertReadOptions(options: SpectrumReadOptions): void {
