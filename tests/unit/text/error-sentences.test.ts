@@ -1,7 +1,8 @@
 // Every message a user can read from a service or a route is a sentence: it starts with a capital
 // letter (or a number, a quoted name or a unit symbol) and ends with a full stop, a question mark or an
 // exclamation mark. Read from the source with the TypeScript parser: the message of every
-// `new AppError(code, message)`, `notFound(message)`, `forbidden(message)` and `unprocessable(…)`, and
+// `new AppError(code, message)`, `notFound(message)`, `forbidden(message)`, `unprocessable(…)` and
+// `parseFields(schema, value, message)` (and its default), and
 // every zod message (`message:`, `error:`, a string passed to `.min`/`.max`/`.refine`…) in
 // `lib/validation/`, `lib/services/`, `lib/http/`, `lib/auth/`, `lib/errors.ts` and `app/`.
 import fs from "node:fs";
@@ -97,6 +98,7 @@ function messagesOf(file: string): Message[] {
       const name = calleeName(node.expression);
       const args = node.arguments ?? ts.factory.createNodeArray();
       if (name === "AppError" && args.length >= 2) add(args[1]);
+      else if (name === "parseFields" && args.length >= 3) add(args[2]);
       else if (name && MESSAGE_CALLS.has(name) && args.length >= 1) add(args[0]);
       else if (
         name &&
@@ -117,6 +119,17 @@ function messagesOf(file: string): Message[] {
       ts.isVariableDeclaration(node.parent.parent) &&
       ts.isIdentifier(node.parent.parent.name) &&
       MESSAGE_CALLS.has(node.parent.parent.name.text)
+    ) {
+      add(node.initializer);
+    }
+    // `function parseFields(schema, value, message = "…")`: the 400's default sentence.
+    if (
+      ts.isParameter(node) &&
+      node.initializer &&
+      ts.isFunctionDeclaration(node.parent) &&
+      node.parent.name?.text === "parseFields" &&
+      ts.isIdentifier(node.name) &&
+      node.name.text === "message"
     ) {
       add(node.initializer);
     }
