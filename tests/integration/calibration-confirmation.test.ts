@@ -3,7 +3,7 @@
 // error on confirmReason that lists its doubts, writing nothing; with a reason it is saved, the reason and
 // the doubts are in the stored row and in the audit event; every calibration carries its label. The preview
 // shows the same doubts and says why the lamp peaks it left unpaired are unpaired. The lamp is the
-// synthetic Hg–Ar file of a curved grating (tests/integration/support/synthetic-files.ts).
+// synthetic Hg–Ar file of a curved grating (lib/spectrum/synthetic/synthetic-grating.ts).
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { ApiClient, ErrorBody } from "./support/http-client";
 import { DEMO, FLAME_SCREENING, signInDemo, teamIdOf } from "./support/accounts";

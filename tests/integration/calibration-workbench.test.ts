@@ -2,7 +2,7 @@
 // excluded or added by hand change the fit and are saved exactly as previewed; bad pairs and models that
 // need more pairs get clear 400/422 replies; the model comparison ranks a straight line below the auto
 // choice on a curved grating; another team's instrument answers 404. The lamp is the synthetic Hg–Ar
-// file of a grating with a cubic dispersion (tests/integration/support/synthetic-files.ts).
+// file of a grating with a cubic dispersion (lib/spectrum/synthetic/synthetic-grating.ts).
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { ApiClient, ErrorBody } from "./support/http-client";
 import { FLAME_SCREENING, signInDemo, signedIn, teamIdOf } from "./support/accounts";

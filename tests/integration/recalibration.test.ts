@@ -1,7 +1,7 @@
 // Recalibration through HTTP against the real PostgreSQL: once an instrument has a calibration, the next
 // lamp's automatic pairing starts from it (the message says so), and an automatic pairing that is not
 // trusted is shown on the workbench with its reasons and the competing pairing, and is saved only with a
-// reason. The instrument is the synthetic curved grating (tests/integration/support/synthetic-files.ts);
+// reason. The instrument is the synthetic curved grating (lib/spectrum/synthetic/synthetic-grating.ts);
 // the second lamp is recorded after the array moved by 8 px and its image shrank by 0.4 %.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { ApiClient, ErrorBody } from "./support/http-client";
