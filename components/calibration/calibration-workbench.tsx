@@ -16,6 +16,7 @@ import { ModelComparison } from "./model-comparison";
 import { PairChooser } from "./pair-chooser";
 import { WorkbenchLampChart, WorkbenchResidualChart } from "./workbench-charts";
 import { WorkbenchPairsTable } from "./workbench-pairs-table";
+import { WarningList } from "@/components/ui/warning-list";
 
 interface PairRef {
   pixel: number;
@@ -338,16 +339,7 @@ export function CalibrationWorkbench({
           <p className="muted text-sm" data-testid="pairing-message">
             How it was paired: {preview.result.pairing.message}
           </p>
-          {preview.result.warnings.length > 0 ? (
-            <ul className="flex flex-col gap-1 text-sm">
-              {preview.result.warnings.map((w) => (
-                <li key={w.code + w.message} className="rounded border border-ember-600 p-2">
-                  <span aria-hidden>⚠ </span>
-                  {w.message}
-                </li>
-              ))}
-            </ul>
-          ) : null}
+          <WarningList warnings={preview.result.warnings} />
 
           {preview.result.rival.length > 0 ? (
             <CompetingPairing

@@ -1,5 +1,6 @@
 // Notices every identification shows: what the tool's calls are worth, and for a flame the cautions.
 import type { RunRecord } from "@/lib/runs/types";
+import { WarningList } from "@/components/ui/warning-list";
 
 export function ScreeningNotice() {
   return (
@@ -78,16 +79,7 @@ export function RunNotices({
           {coveredRangeNm[1].toFixed(1)} nm: wavelengths outside it are extrapolated.
         </p>
       ) : null}
-      {warnings.length > 0 ? (
-        <ul className="flex flex-col gap-1 text-sm">
-          {warnings.map((w) => (
-            <li key={w.code + w.message} className="rounded border border-ember-600 p-2">
-              <span aria-hidden>⚠ </span>
-              {w.message}
-            </li>
-          ))}
-        </ul>
-      ) : null}
+      <WarningList warnings={warnings} />
       {run.source === "flame" ? <FlameCautions /> : null}
       {children}
     </div>

@@ -12,6 +12,7 @@ import { fetchSpectrum } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { EntityTrail } from "@/components/audit/entity-trail";
 import { TableScroll } from "@/components/ui/table-scroll";
+import { WarningList } from "@/components/ui/warning-list";
 
 export const metadata = { title: "Calibration" };
 
@@ -122,16 +123,7 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
       <p className="muted mb-4 px-1 text-sm" data-testid="pairing-message">
         How it was paired: {calibration.pairing.message}
       </p>
-      {calibration.warnings.length > 0 ? (
-        <ul role="alert" className="mb-4 flex flex-col gap-1 text-sm">
-          {calibration.warnings.map((w) => (
-            <li key={w.code + w.message} className="rounded border border-ember-600 p-2">
-              <span aria-hidden>⚠ </span>
-              {w.message}
-            </li>
-          ))}
-        </ul>
-      ) : null}
+      <WarningList warnings={calibration.warnings} alert className="mb-4" />
       {calibration.pairing.confirmation ? (
         <section
           aria-labelledby="confirmation-heading"
