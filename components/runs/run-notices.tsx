@@ -1,6 +1,7 @@
 // Notices every identification shows: what the tool's calls are worth, and for a flame the cautions.
 import type { RunRecord } from "@/lib/runs/types";
 import { WarningList } from "@/components/ui/warning-list";
+import { FLAME_CAUTIONS } from "@/lib/reports/report-text";
 
 export function ScreeningNotice() {
   return (
@@ -21,19 +22,9 @@ export function FlameCautions() {
         <span aria-hidden>⚠ </span>Flame test cautions
       </p>
       <ul className="mt-1 list-disc pl-5">
-        <li>
-          An open flame: keep flammable solvents (ethanol, methanol, acetone) capped and away from
-          it.
-        </li>
-        <li>
-          Many test salts are toxic: barium, thallium, copper and strontium compounds among them.
-          Wear gloves and eye protection, work in a fume hood, and dispose of residues as your lab
-          requires.
-        </li>
-        <li>
-          Follow your lab&apos;s own safety rules and local regulations; they take precedence over
-          this note.
-        </li>
+        {FLAME_CAUTIONS.map((caution) => (
+          <li key={caution}>{caution}</li>
+        ))}
       </ul>
     </aside>
   );

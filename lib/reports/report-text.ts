@@ -1,4 +1,5 @@
-// The fixed wording every report carries: what a call is worth, and the cautions of a flame test.
+// The fixed wording every report carries, which the run pages show too: what a call is worth, and the
+// cautions of a flame test.
 
 /** On every page of a report: a call is a screening aid, never a certified analysis. */
 export const SCREENING_CAVEAT =
