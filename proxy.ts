@@ -6,6 +6,7 @@
 // and every action and handler checks authorisation again: the redirect is a convenience, not the guard.
 import { NextResponse, type NextRequest } from "next/server";
 import { SESSION_COOKIE } from "@/lib/auth/session-cookie";
+import { originVerdict } from "@/lib/http/request-origin";
 import {
   newNonce,
   pageContentSecurityPolicy,
@@ -29,7 +30,8 @@ export function proxy(request: NextRequest) {
     );
   }
   // Next.js refuses a server action from a foreign Origin by throwing, which answers 500: say 403 instead.
-  if (request.method === "POST" && request.headers.has("next-action") && isForeignOrigin(request)) {
+  const crossSite = ["foreign", "malformed"].includes(originVerdict(request.headers));
+  if (request.method === "POST" && request.headers.has("next-action") && crossSite) {
     return new Response("Cross-site form posts are not accepted.", {
       status: 403,
       headers: { "content-type": "text/plain; charset=utf-8" },
@@ -59,19 +61,6 @@ export function proxy(request: NextRequest) {
   const hsts = strictTransportSecurity(appUrl);
   if (hsts) response.headers.set("Strict-Transport-Security", hsts);
   return response;
-}
-
-/** The same comparison Next.js makes for server actions: the Origin's host against the (forwarded) Host. */
-function isForeignOrigin(request: NextRequest): boolean {
-  const origin = request.headers.get("origin");
-  if (!origin) return false;
-  const host =
-    request.headers.get("x-forwarded-host")?.split(",")[0]?.trim() || request.headers.get("host");
-  try {
-    return new URL(origin).host !== host;
-  } catch {
-    return true;
-  }
 }
 
 function isDecodablePath(pathname: string): boolean {

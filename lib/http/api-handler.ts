@@ -2,12 +2,12 @@
 // cookie mutations, authenticate, parse the body with its zod schema, call a service, and map
 // errors in one place.
 import "server-only";
-import { headers } from "next/headers";
 import type { z } from "zod";
 import { AppError, toResponse } from "@/lib/errors";
 import { usesBearerToken } from "@/lib/auth/session";
 import { parseFields } from "@/lib/validation/field-errors";
 import { bodyText, JSON_BODY_BYTES, readBody } from "./read-body";
+import { originVerdict } from "./request-origin";
 import { API_CACHE_CONTROL } from "./security-headers";
 
 type RouteContext = { params: Promise<Record<string, string>> };
@@ -63,16 +63,11 @@ function withoutCaching(response: Response): Response {
 /** Cookie-authenticated mutations must come from our own pages; tokens need no such check. */
 async function assertSameOrigin(request: Request): Promise<void> {
   if (await usesBearerToken()) return;
-  const origin = request.headers.get("origin");
-  if (!origin) return;
-  const host = (await headers()).get("host");
-  let originHost: string;
-  try {
-    originHost = new URL(origin).host;
-  } catch {
+  const verdict = originVerdict(request.headers);
+  if (verdict === "malformed")
     throw new AppError("forbidden", "The request's Origin header is not valid.");
-  }
-  if (originHost !== host) throw new AppError("forbidden", "Cross-site requests are not accepted.");
+  if (verdict === "foreign")
+    throw new AppError("forbidden", "Cross-site requests are not accepted.");
 }
 
 export async function parseJson<T extends z.ZodType>(
