@@ -30,8 +30,11 @@ export function proxy(request: NextRequest) {
     );
   }
   // Next.js refuses a server action from a foreign Origin by throwing, which answers 500: say 403 instead.
-  const crossSite = ["foreign", "malformed"].includes(originVerdict(request.headers));
-  if (request.method === "POST" && request.headers.has("next-action") && crossSite) {
+  if (
+    request.method === "POST" &&
+    request.headers.has("next-action") &&
+    ["foreign", "malformed"].includes(originVerdict(request.headers))
+  ) {
     return new Response("Cross-site form posts are not accepted.", {
       status: 403,
       headers: { "content-type": "text/plain; charset=utf-8" },

@@ -9,9 +9,6 @@ import { entityLabel, shortId } from "./audit-labels";
 const inputClass =
   "rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1 text-sm aria-[invalid=true]:border-red-600";
 
-/** The filters as the form shows them: the audit service's filter. */
-export type AuditFilterValues = AuditFilter;
-
 function Labelled({
   id,
   label,
@@ -57,7 +54,7 @@ export function AuditFilters({
   actions,
   errors = {},
 }: {
-  values: AuditFilterValues;
+  values: AuditFilter;
   members: TeamMember[];
   entities: string[];
   actions: string[];

@@ -66,6 +66,13 @@ function failure(status: number, body: ErrorReply | null): { message: string; de
 /** A message as a sentence, so "Nothing was stored." can follow it. */
 const sentence = (message: string) => (/[.!?]$/.test(message) ? message : `${message}.`);
 
+/** A check or store that failed: the server's reason (or the lost connection's), and that nothing was stored. */
+function failedPhase(file: File, status: number, body: unknown, connectionLost: string): Phase {
+  const { message, detail } =
+    status === 0 ? { message: connectionLost, detail: [] } : failure(status, body as ErrorReply);
+  return { step: "failed", file, message: `${sentence(message)} Nothing was stored.`, detail };
+}
+
 const number = (value: number) => value.toLocaleString("en", { maximumSignificantDigits: 8 });
 
 /** The field message that says why the first column needs saying, when the refusal is about it. */
@@ -167,16 +174,9 @@ export function SpectrumUpload({
             setPhase({ step: "asking", file, reason });
             return;
           }
-          const { message, detail } =
-            status === 0
-              ? { message: "The connection failed while the file was checked.", detail: [] }
-              : failure(status, body as ErrorReply);
-          setPhase({
-            step: "failed",
-            file,
-            message: `${sentence(message)} Nothing was stored.`,
-            detail,
-          });
+          setPhase(
+            failedPhase(file, status, body, "The connection failed while the file was checked."),
+          );
         },
       );
     },
@@ -199,16 +199,7 @@ export function SpectrumUpload({
           router.push(stored.exportProfileSet ? `${href}&profileSet=1` : href);
           return;
         }
-        const { message, detail } =
-          status === 0
-            ? { message: "The connection failed during the upload.", detail: [] }
-            : failure(status, body as ErrorReply);
-        setPhase({
-          step: "failed",
-          file,
-          message: `${sentence(message)} Nothing was stored.`,
-          detail,
-        });
+        setPhase(failedPhase(file, status, body, "The connection failed during the upload."));
       },
     );
   }

@@ -1,7 +1,7 @@
 // Reads a line-table CSV (starter table, draft import) into validated rows and located errors.
 // Every row is checked in full so a preview can show all of a file's problems at once.
 
-import { LINE_KEY_COLUMN, LINE_TABLE_COLUMN_NAMES } from "./line-table-columns";
+import { LINE_KEY_COLUMN, LINE_TABLE_COLUMNS, LINE_TABLE_COLUMN_NAMES } from "./line-table-columns";
 import {
   readLineTableRow,
   resolveLineTableRowOptions,
@@ -53,8 +53,8 @@ function readHeader(
       columns.set(name, index);
     }
   });
-  for (const required of ["species", "source"]) {
-    if (!columns.has(required) && known.has(required)) {
+  for (const { name: required } of LINE_TABLE_COLUMNS.filter((column) => column.required)) {
+    if (!columns.has(required)) {
       errors.push({
         line: record.line,
         field: "header",

@@ -33,6 +33,13 @@ export function standingVerdicts<V extends string = Verdict>(
   return verdicts;
 }
 
+/** The species whose standing verdict is "present", in the order the verdicts list them. */
+export function presentSpecies(verdicts: Record<string, string>): string[] {
+  return Object.entries(verdicts)
+    .filter(([, verdict]) => verdict === "present")
+    .map(([species]) => species);
+}
+
 /**
  * The override that stands for one species: the newest of an oldest-first history, unless that one
  * withdrew the override before it; null when none stands.

@@ -13,7 +13,7 @@ import type {
 import { Notebook, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import { overridesByRun } from "./run-records";
-import { standingVerdicts } from "@/lib/runs/standing-verdicts";
+import { presentSpecies, standingVerdicts } from "@/lib/runs/standing-verdicts";
 import type { RunStatus, StoredRunCall } from "@/lib/runs/types";
 import type { NotebookRecord, RunSummary } from "./notebook-types";
 
@@ -266,9 +266,7 @@ export async function fetchNotebookRuns(
         instrumentId: r.instrument_id,
         instrumentName: r.instrument_name,
         source: r.source,
-        present: Object.entries(verdicts)
-          .filter(([, verdict]) => verdict === "present")
-          .map(([species]) => species),
+        present: presentSpecies(verdicts),
         authorId: r.created_by_id,
         authorName: r.author_name,
         createdAt: new Date(r.created_at).toISOString(),

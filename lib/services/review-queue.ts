@@ -4,13 +4,12 @@ import "server-only";
 import { QueryTypes } from "sequelize";
 import type { Actor } from "@/lib/auth/actor";
 import { authorize, can } from "@/lib/auth/policy";
-import type { Verdict } from "@/lib/spectrum/matching";
 import type { ReviewQueueQuery } from "@/lib/validation/review-schemas";
 import { sequelize } from "@/models";
 import type { ReviewQueue, ReviewQueueItem } from "./run-review-types";
 import { overridesByRun } from "./run-records";
-import { standingVerdicts } from "@/lib/runs/standing-verdicts";
-import type { RunCall } from "@/lib/runs/types";
+import { presentSpecies, standingVerdicts } from "@/lib/runs/standing-verdicts";
+import type { StoredRunCall } from "@/lib/runs/types";
 
 interface QueueRow {
   id: string;
@@ -18,7 +17,7 @@ interface QueueRow {
   review_round: number;
   version_number: number;
   requested_reviewer_id: string | null;
-  calls: RunCall[];
+  calls: StoredRunCall[];
   created_by_id: string | null;
   author_name: string | null;
   label: string;
@@ -54,7 +53,7 @@ export async function fetchReviewQueue(
   const now = Date.now();
   const all: ReviewQueueItem[] = rows.map((row) => {
     const own = overrides.get(row.id) ?? [];
-    const verdicts: Record<string, Verdict> = standingVerdicts(row.calls, own);
+    const verdicts = standingVerdicts(row.calls, own);
     const submittedAt = new Date(row.submitted_at);
     return {
       runId: row.id,
@@ -67,10 +66,7 @@ export async function fetchReviewQueue(
       namedToMe: row.requested_reviewer_id === actor.id,
       submittedAt: submittedAt.toISOString(),
       waitingSeconds: Math.max(0, Math.round((now - submittedAt.getTime()) / 1000)),
-      present: Object.entries(verdicts)
-        .filter(([, verdict]) => verdict === "present")
-        .map(([species]) => species)
-        .sort(),
+      present: presentSpecies(verdicts).sort(),
     };
   });
   const unique = <T extends { id: string; name: string }>(list: T[]) =>

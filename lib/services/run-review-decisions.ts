@@ -33,7 +33,6 @@ import { fetchRunHistory } from "./run-review-history";
 import { assertMayDecide, supervisorsOf } from "./run-review-shared";
 import type { ReviewMarkRecord, RunHistory } from "./run-review-types";
 import { runContentOf } from "./run-signed-content";
-import type { RunCall } from "@/lib/runs/types";
 
 /** What a signature says, recorded with it and shown beside it. */
 export const SIGNATURE_MEANING = "Reviewed and approved";
@@ -190,7 +189,7 @@ export async function addReviewMark(
   return sequelize.transaction(async (transaction) => {
     const run = await loadRun(actor, runId, "run.review", transaction);
     assertMayDecide(actor, run);
-    const call = (run.calls as RunCall[]).find((c) => c.species === input.species);
+    const call = run.calls.find((c) => c.species === input.species);
     if (!call) {
       throw new AppError("validation", "This run has no call of that species.", {
         fieldErrors: { species: ["Choose one of the run's calls."] },

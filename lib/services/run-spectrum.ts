@@ -60,7 +60,10 @@ function storedContinuum(bytes: Buffer | null, points: number): Float64Array | n
 export async function fetchRunSpectrum(actor: Actor, runId: string): Promise<RunSpectrum> {
   const run = await loadRun(actor, runId);
   const spectrum = await loadSpectrum(actor, run.spectrumId);
-  const calibration = run.calibrationId ? (await Calibration.findByPk(run.calibrationId))! : null;
+  // The chart needs only the calibration's model.
+  const calibration = run.calibrationId
+    ? (await Calibration.findByPk(run.calibrationId, { attributes: ["model"] }))!
+    : null;
   return runSpectrumOf(run, spectrum, calibration);
 }
 

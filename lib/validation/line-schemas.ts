@@ -14,7 +14,7 @@ const SOURCE_KIND_ENUM = z.enum(SOURCE_KINDS as [SourceKind, ...SourceKind[]]);
 const optionalNumber = z.number().finite().nullable().optional();
 
 /** Why a draft line is added, corrected, retired, restored or verified: 3–500 characters. */
-export const lineReasonSchema = text({ error: "Say why." })
+const lineReasonSchema = text({ error: "Say why." })
   .trim()
   .min(3, "Say why, in a few words.")
   .max(500, "Use at most 500 characters.");
@@ -27,7 +27,7 @@ const optionalReason = z.preprocess(
 );
 
 /** The notes of a published release: what changed, 3–4,000 characters (its mail and audit reason). */
-export const releaseNotesSchema = text({ error: "Write what changed in this release." })
+const releaseNotesSchema = text({ error: "Write what changed in this release." })
   .trim()
   .min(3, "Write what changed in this release.")
   .max(4000, "Use at most 4,000 characters.");

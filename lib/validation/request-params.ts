@@ -1,7 +1,7 @@
 // The readers of a request's URL that every route shares: its [id] segment, its team and its query
 // string, each refused with the answer a client can act on (404 for a malformed id or team, 400 for a
 // bad filter).
-import { z } from "zod";
+import type { z } from "zod";
 import { AppError } from "@/lib/errors";
 import { parseFields } from "./field-errors";
 import { isRecordId } from "./record-id";
@@ -24,7 +24,7 @@ export function parseQuery<T extends z.ZodType>(request: Request, schema: T): z.
  * `defaultTeamId`); malformed means not found. */
 export function teamIdQuery(request: Request, fallback: string | undefined): string {
   const given = new URL(request.url).searchParams.get("teamId");
-  if (given !== null && !z.uuid().safeParse(given).success)
+  if (given !== null && !isRecordId(given))
     throw new AppError("not_found", "No such team.");
   const teamId = given ?? fallback;
   if (!teamId) throw new AppError("not_found", "You are not in a team yet.");

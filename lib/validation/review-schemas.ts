@@ -1,7 +1,7 @@
 // Schemas of submission, review marks, review decisions and the review queue's filters, shared by
 // the route handlers and the review pages' server actions. The services check what depends on data.
 import { z } from "zod";
-import { blank } from "./form-data";
+import { blank, numberOrUndefined } from "./form-data";
 import { text } from "./text";
 
 export const MAX_REVIEW_COMMENT = 4000;
@@ -94,10 +94,9 @@ export function submitInputFromForm(formData: FormData) {
 }
 
 export function markInputFromForm(formData: FormData) {
-  const line = blank(formData.get("lineNm")).replace(",", ".");
   return reviewMarkSchema.safeParse({
     species: blank(formData.get("species")),
-    lineNm: line === "" ? null : Number(line),
+    lineNm: numberOrUndefined(formData.get("lineNm")) ?? null,
     agreement: blank(formData.get("agreement")) || null,
     comment: blank(formData.get("comment")),
   });

@@ -1,12 +1,12 @@
 // The team's audit trail: who changed what, when and why, filtered through the URL, each event with
 // its before and after, older events a page at a time, and the filtered trail as a CSV download.
 import { DownloadButton } from "@/components/ui/download-button";
-import { AuditFilters, type AuditFilterValues } from "@/components/audit/audit-filters";
+import { AuditFilters } from "@/components/audit/audit-filters";
 import { AuditTable } from "@/components/audit/audit-table";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
 import { zodFieldErrors } from "@/lib/validation/field-errors";
-import { fetchAuditFacets, fetchAuditPage } from "@/lib/services/audit";
+import { fetchAuditFacets, fetchAuditPage, type AuditFilter } from "@/lib/services/audit";
 import { fetchTeamMembers } from "@/lib/services/team-members";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { auditQuerySchema, auditSearchParams } from "@/lib/validation/audit-schemas";
@@ -36,7 +36,7 @@ export default async function AuditPage({
   });
   const errors = parsed.success ? {} : zodFieldErrors(parsed.error);
   const filters = parsed.success ? parsed.data : {};
-  const values: AuditFilterValues = {
+  const values: AuditFilter = {
     teamId: chosen.teamId,
     ...(parsed.success
       ? filters
