@@ -34,8 +34,13 @@ import { toCalibrationRecord } from "./calibrations";
 import { loadNotebook } from "./notebooks";
 import { keepReportPdf, keptReportPdf } from "./report-cache";
 import { loadRun } from "./run-lifecycle";
-import { fetchRunSpectrum, runSpectrumOf } from "./run-spectrum";
-import { RUN_RECORD_ATTRIBUTES, loadRunRecordContext, toRunRecord } from "./run-records";
+import { runSpectrumOf } from "./run-spectrum";
+import {
+  RUN_RECORD_ATTRIBUTES,
+  loadRunRecordContext,
+  overridesByRun,
+  toRunRecord,
+} from "./run-records";
 
 /** Points drawn in the report's chart; each bucket keeps its extremes, so no line is lost. */
 const CHART_POINTS = 3000;
@@ -74,9 +79,9 @@ export async function fetchRunReport(actor: Actor, runId: string): Promise<Repor
  * and the chart are made from these rows rather than fetched again by the services that serve pages.
  */
 async function reportOf(row: Run): Promise<ReportAndChart> {
-  const [context, spectrumRow, calibrationRow, release, notebook, signature, rounds] =
+  const [overrides, spectrumRow, calibrationRow, release, notebook, signature, rounds] =
     await Promise.all([
-      loadRunRecordContext([row]),
+      overridesByRun([row.id]),
       SpectrumFile.findByPk(row.spectrumId, { attributes: { exclude: ["rawBytes"] } }),
       row.calibrationId ? Calibration.findByPk(row.calibrationId) : Promise.resolve(null),
       LineRelease.findByPk(row.lineReleaseId, { attributes: ["id", "number", "publishedAt"] }),
@@ -85,7 +90,11 @@ async function reportOf(row: Run): Promise<ReportAndChart> {
       RunRound.findAll({ where: { runId: row.id }, order: [["round", "ASC"]] }),
     ]);
   if (!spectrumRow || !notebook) throw notFound("No such run.");
-  const run = toRunRecord(row, context);
+  // The record's context from the rows at hand: its release is loaded here anyway.
+  const run = toRunRecord(row, {
+    overrides,
+    releaseNumbers: new Map(release ? [[release.id, release.number]] : []),
+  });
   const instrument = await Instrument.findByPk(spectrumRow.instrumentId, {
     attributes: ["id", "name", "dispersion"],
   });
@@ -209,19 +218,20 @@ export function runSpectrumEvenJdx(actor: Actor, runId: string): Promise<ReportF
 
 async function spectrumJdx(actor: Actor, runId: string, even: boolean): Promise<ReportFile> {
   const row = await loadRun(actor, runId);
-  const [points, spectrum, release, team] = await Promise.all([
-    fetchRunSpectrum(actor, row.id),
-    SpectrumFile.findByPk(row.spectrumId, {
-      attributes: ["id", "fileName", "sha256", "xUnit", "medium"],
-    }),
+  // Each row once: the spectrum's points and facts (not its raw upload) and the calibration's model.
+  const [spectrum, calibration, release, team] = await Promise.all([
+    SpectrumFile.findByPk(row.spectrumId, { attributes: { exclude: ["rawBytes"] } }),
+    row.calibrationId
+      ? Calibration.findByPk(row.calibrationId, { attributes: ["model"] })
+      : Promise.resolve(null),
     LineRelease.findByPk(row.lineReleaseId, { attributes: ["id", "number"] }),
     Team.findByPk(row.teamId, { attributes: ["id", "name"] }),
   ]);
+  if (!spectrum) throw notFound("No such run.");
+  const points = runSpectrumOf(row, spectrum, calibration);
   // A lamp calibration maps onto the table's air wavelengths; a file's own axis is in air when its medium is known.
   const medium: WavelengthMedium | null =
-    row.calibrationId || spectrum!.xUnit === "wavenumber" || spectrum!.medium !== null
-      ? "air"
-      : null;
+    row.calibrationId || spectrum.xUnit === "wavenumber" || spectrum.medium !== null ? "air" : null;
   const body = formatRunSpectrumJdx(
     {
       wavelengthNm: points.wavelengthNm,
@@ -232,8 +242,8 @@ async function spectrumJdx(actor: Actor, runId: string, even: boolean): Promise<
       calibrationId: row.calibrationId,
       releaseId: row.lineReleaseId,
       releaseNumber: release?.number ?? null,
-      sampleSha256: spectrum!.sha256,
-      sampleFileName: spectrum!.fileName,
+      sampleSha256: spectrum.sha256,
+      sampleFileName: spectrum.fileName,
       softwareVersion: row.softwareVersion,
       origin: `Emberline, team ${team?.name ?? row.teamId}`,
       analysedAt: row.createdAt.toISOString(),
