@@ -4,6 +4,7 @@
 // analysis saw.
 import "server-only";
 import type { Actor } from "@/lib/auth/actor";
+import { thinSeries } from "@/lib/charts/thin-series";
 import { sampleOnWavelengthAxis } from "@/lib/spectrum/analysis/sample-on-wavelength-axis";
 import { spectrumToNanometres } from "@/lib/spectrum/units";
 import { Calibration, type Run, type SpectrumFile } from "@/models";
@@ -34,12 +35,19 @@ export function analysedPoints(
   return calibrated ? spectrumPoints(spectrum) : fileAxisInNm(spectrum);
 }
 
-/** A stored spectrum's points on its own axis, as plain arrays (for previews of uploads and lamps). */
-export async function fetchSpectrumPoints(
-  actor: Actor,
-  spectrumId: string,
-): Promise<{ x: Float64Array; y: Float64Array }> {
-  return spectrumPoints(await loadSpectrum(actor, spectrumId));
+/** A chart's series: at most MAX_CHART_POINTS points (lib/charts/thin-series.ts), and how many the
+ * stored series had. */
+export interface ChartSeries {
+  x: number[];
+  y: number[];
+  sourcePoints: number;
+}
+
+/** A stored spectrum's points on its own axis (previews of uploads and lamps), thinned for the chart. */
+export async function fetchSpectrumSeries(actor: Actor, spectrumId: string): Promise<ChartSeries> {
+  const { x, y } = spectrumPoints(await loadSpectrum(actor, spectrumId));
+  const thin = thinSeries(x, y);
+  return { x: thin.x, y: thin.y, sourcePoints: thin.sourcePoints };
 }
 
 export interface RunSpectrum {
@@ -57,7 +65,20 @@ function storedContinuum(bytes: Buffer | null, points: number): Float64Array | n
   return bytesToFloat64(bytes);
 }
 
-export async function fetchRunSpectrum(actor: Actor, runId: string): Promise<RunSpectrum> {
+/** A run's sample on the axis the run used, with the continuum it removed, thinned for the chart. */
+export async function fetchRunSeries(
+  actor: Actor,
+  runId: string,
+): Promise<{ spectrum: ChartSeries; continuum: number[] | null }> {
+  const { wavelengthNm, counts, continuum } = await fetchRunSpectrum(actor, runId);
+  const thin = thinSeries(wavelengthNm, counts, continuum ? { continuum } : {});
+  return {
+    spectrum: { x: thin.x, y: thin.y, sourcePoints: thin.sourcePoints },
+    continuum: thin.companions.continuum ?? null,
+  };
+}
+
+async function fetchRunSpectrum(actor: Actor, runId: string): Promise<RunSpectrum> {
   const run = await loadRun(actor, runId);
   const spectrum = await loadSpectrum(actor, run.spectrumId);
   // The chart needs only the calibration's model.

@@ -4,7 +4,7 @@ import Link from "next/link";
 import { LampChart, ResidualChart, type PairMark } from "@/components/charts/spectrum-charts";
 import { PageHeader } from "@/components/ui/page-header";
 import { idOrNotFound, orNotFound } from "@/lib/http/page-not-found";
-import { rawSeries } from "@/components/uploads/spectrum-series";
+import { fetchSpectrumSeries } from "@/lib/services/run-spectrum";
 import { X_TITLES } from "@/components/uploads/first-column-labels";
 import { fetchCalibrationView } from "@/lib/services/calibrations";
 import { fetchInstrument } from "@/lib/services/instruments";
@@ -24,7 +24,7 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
   const [instrument, spectrum, series] = await Promise.all([
     fetchInstrument(actor, calibration.instrumentId),
     fetchSpectrum(actor, calibration.spectrumId),
-    rawSeries(actor, calibration.spectrumId),
+    orNotFound(fetchSpectrumSeries(actor, calibration.spectrumId)),
   ]);
   const pairs: PairMark[] = [
     ...calibration.pairs.map((p) => ({ ...p, used: true })),

@@ -17,7 +17,7 @@ import { CallEvidence, PeakTable, VerdictBadge } from "@/components/runs/run-evi
 import { runChartLabels } from "@/components/runs/run-labels";
 import { RunNotices } from "@/components/runs/run-notices";
 import { idOrNotFound, orNotFound } from "@/lib/http/page-not-found";
-import { runSeries } from "@/components/runs/run-series";
+import { fetchRunSeries } from "@/lib/services/run-spectrum";
 import { X_TITLES } from "@/components/uploads/first-column-labels";
 import { fetchCalibration } from "@/lib/services/calibrations";
 import { fetchInstrument } from "@/lib/services/instruments";
@@ -45,7 +45,7 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
   const [instrument, calibration, series] = await Promise.all([
     fetchInstrument(actor, spectrum.instrumentId),
     run.calibrationId ? fetchCalibration(actor, run.calibrationId) : Promise.resolve(null),
-    runSeries(actor, run.id),
+    orNotFound(fetchRunSeries(actor, run.id)),
   ]);
   const labels = runChartLabels(run.calls);
   const present = Object.entries(run.verdicts)

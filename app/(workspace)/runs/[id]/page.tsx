@@ -17,7 +17,7 @@ import { RunOverrideForm } from "@/components/runs/run-override-form";
 import { RunRerunButton } from "@/components/runs/run-rerun";
 import { RunTemperaturePanel } from "@/components/runs/run-temperature";
 import { idOrNotFound, orNotFound } from "@/lib/http/page-not-found";
-import { runSeries } from "@/components/runs/run-series";
+import { fetchRunSeries } from "@/lib/services/run-spectrum";
 import { fetchCalibration } from "@/lib/services/calibrations";
 import { fetchInstrument } from "@/lib/services/instruments";
 import { authorMayEdit } from "@/lib/services/run-lifecycle";
@@ -39,7 +39,7 @@ export default async function RunPage({ params }: { params: Promise<{ id: string
   const [instrument, calibration, series, changes, newer] = await Promise.all([
     fetchInstrument(actor, spectrum.instrumentId),
     run.calibrationId ? fetchCalibration(actor, run.calibrationId) : Promise.resolve(null),
-    runSeries(actor, run.id),
+    orNotFound(fetchRunSeries(actor, run.id)),
     fetchRunChanges(actor, run),
     newerReleaseFor(actor, run.id).catch(() => null),
   ]);

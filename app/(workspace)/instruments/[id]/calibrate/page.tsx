@@ -5,7 +5,7 @@ import { CalibrationWorkbench } from "@/components/calibration/calibration-workb
 import { EmptyState } from "@/components/ui/empty-state";
 import { PageHeader } from "@/components/ui/page-header";
 import { idOrNotFound, orNotFound } from "@/lib/http/page-not-found";
-import { rawSeries } from "@/components/uploads/spectrum-series";
+import { fetchSpectrumSeries } from "@/lib/services/run-spectrum";
 import { X_TITLES } from "@/components/uploads/first-column-labels";
 import { fetchCalibration } from "@/lib/services/calibrations";
 import { fetchInstrument } from "@/lib/services/instruments";
@@ -86,7 +86,7 @@ export default async function CalibratePage({
       <CalibrationWorkbench
         instrumentId={id}
         spectrumId={spectrum.id}
-        spectrum={await rawSeries(actor, spectrum.id)}
+        spectrum={await orNotFound(fetchSpectrumSeries(actor, spectrum.id))}
         xTitle={X_TITLES[spectrum.xUnit]}
         lampGases={LAMP_GASES}
         models={MODEL_CHOICES}

@@ -9,7 +9,7 @@ import { PageHeader } from "@/components/ui/page-header";
 import { X_TITLES, describeFirstColumn } from "@/components/uploads/first-column-labels";
 import { SpectrumUpload } from "@/components/uploads/spectrum-upload";
 import { idOrNotFound, orNotFound } from "@/lib/http/page-not-found";
-import { rawSeries } from "@/components/uploads/spectrum-series";
+import { fetchSpectrumSeries } from "@/lib/services/run-spectrum";
 import { fetchInstrument } from "@/lib/services/instruments";
 import { fetchNotebooks } from "@/lib/services/notebooks";
 import { fetchSpectrum } from "@/lib/services/spectra";
@@ -46,7 +46,7 @@ export default async function UploadPage({
     : null;
 
   if (uploaded) {
-    const series = await rawSeries(actor, uploaded.id);
+    const series = await orNotFound(fetchSpectrumSeries(actor, uploaded.id));
     const notebooks =
       uploaded.kind === "sample" ? await fetchNotebooks(actor, instrument.teamId) : [];
     return (
