@@ -3,7 +3,8 @@
 // instrument form's export profile and the upload page's question use the same pair. The medium select
 // appears only for a wavelength column. Each select points at its error region, which is aria-live.
 import type { FirstColumnKind, WavelengthMedium } from "@/lib/spectrum/types";
-import { FIRST_COLUMN_LABELS, MEDIUM_LABELS, isWavelengthColumn } from "./first-column-labels";
+import { FIRST_COLUMN_LABELS, MEDIUM_LABELS } from "./first-column-labels";
+import { isWavelengthUnit } from "@/lib/spectrum/types";
 
 const SELECT = "rounded border border-[var(--line)] bg-[var(--panel)] px-2 py-1.5";
 const ERROR = "text-xs text-red-700 dark:text-red-300";
@@ -68,7 +69,7 @@ export function FirstColumnFields({
           {unitErrors?.join(" ")}
         </div>
       </div>
-      {isWavelengthColumn(unit) ? (
+      {isWavelengthUnit(unit) ? (
         <div className="flex flex-col gap-1">
           <label htmlFor={mediumId} className="text-sm font-medium">
             Wavelengths measured

@@ -3,6 +3,7 @@
 // the same thing.
 import type { AxisUnit, FirstColumnKind, WavelengthMedium } from "@/lib/spectrum/types";
 import type { FirstColumnFrom } from "@/lib/services/spectra";
+import { isWavelengthUnit } from "@/lib/spectrum/types";
 
 export const FIRST_COLUMN_LABELS: Record<FirstColumnKind, string> = {
   "pixel-from-0": "Pixel index, counted from 0",
@@ -25,16 +26,13 @@ export const FIRST_COLUMN_FROM_LABELS: Record<FirstColumnFrom, string> = {
   pixelCount: "because its values are the detector's pixel indices, one per pixel",
 };
 
-export const isWavelengthColumn = (unit: FirstColumnKind | "" | null | undefined) =>
-  unit === "nm" || unit === "angstrom";
-
 /** "Wavelength in nm, in air"; the medium only for a wavelength column, and only when known. */
 export function describeFirstColumn(
   unit: FirstColumnKind,
   medium: WavelengthMedium | null | undefined,
 ): string {
   const label = FIRST_COLUMN_LABELS[unit];
-  return isWavelengthColumn(unit) && medium ? `${label}, ${MEDIUM_LABELS[medium]}` : label;
+  return isWavelengthUnit(unit) && medium ? `${label}, ${MEDIUM_LABELS[medium]}` : label;
 }
 
 export const X_TITLES: Record<AxisUnit, string> = {

@@ -19,11 +19,8 @@ import { FormMessage } from "@/components/ui/form-message";
 import type { ExportProfileFields, SpectrumPreview, StoredUpload } from "@/lib/services/spectra";
 import type { AxisUnit, FirstColumnKind, WavelengthMedium } from "@/lib/spectrum/types";
 import { FirstColumnFields } from "./first-column-fields";
-import {
-  FIRST_COLUMN_FROM_LABELS,
-  describeFirstColumn,
-  isWavelengthColumn,
-} from "./first-column-labels";
+import { FIRST_COLUMN_FROM_LABELS, describeFirstColumn } from "./first-column-labels";
+import { isWavelengthUnit } from "@/lib/spectrum/types";
 
 /** What the chemist said the first column holds (sent as xUnit and medium), or null: not said. */
 type Statement = { xUnit: FirstColumnKind; medium: WavelengthMedium | null } | null;
@@ -231,7 +228,7 @@ export function SpectrumUpload({
     setAnswerError(null);
     check(phase.file, {
       xUnit: answerUnit,
-      medium: isWavelengthColumn(answerUnit) && answerMedium !== "" ? answerMedium : null,
+      medium: isWavelengthUnit(answerUnit) && answerMedium !== "" ? answerMedium : null,
     });
   }
 

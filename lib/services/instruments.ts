@@ -15,6 +15,7 @@ import type {
 import { Calibration, Instrument, sequelize } from "@/models";
 import { recordAudit } from "./audit";
 import type { InstrumentRecord } from "./instrument-types";
+import { isWavelengthUnit } from "@/lib/spectrum/types";
 
 export function toInstrumentRecord(
   row: Instrument,
@@ -48,9 +49,6 @@ export function exportProfileOf(
 }
 
 /** A wavelength column is the only one measured in air or vacuum. */
-const isWavelengthColumn = (unit: Instrument["exportXUnit"]) =>
-  unit === "nm" || unit === "angstrom";
-
 /** An instrument the actor may act on; another team's (or a malformed id's) is not found. */
 export async function loadInstrument(
   actor: Actor,
@@ -213,7 +211,7 @@ export async function updateInstrument(
         exportMedium: null,
       };
       const keptMedium = input.exportMedium === undefined ? row.exportMedium : input.exportMedium;
-      if (isWavelengthColumn(next.exportXUnit)) next.exportMedium = keptMedium;
+      if (isWavelengthUnit(next.exportXUnit)) next.exportMedium = keptMedium;
       else if (input.exportMedium != null) {
         // The schema checks this when both come together; here the unit is the stored one.
         const message =

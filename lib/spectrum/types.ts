@@ -1,5 +1,5 @@
 // Shared shapes of the numerical core: spectra, peaks, reference lines and calibrations.
-// Every stage of lib/spectrum speaks these types; nothing here does any work.
+// Every stage of lib/spectrum speaks these types; nothing here does any work beyond naming a unit's kind.
 
 /** What the first column of a spectrum measures. */
 export type AxisUnit = "pixel" | "nm" | "angstrom" | "wavenumber";
@@ -8,6 +8,10 @@ export type AxisUnit = "pixel" | "nm" | "angstrom" | "wavenumber";
 export type WavelengthMedium = "air" | "vacuum";
 
 export const WAVELENGTH_MEDIA = ["air", "vacuum"] as const satisfies readonly WavelengthMedium[];
+
+/** Whether a first column in this unit holds wavelengths (which have a medium), not pixels or wavenumbers. */
+export const isWavelengthUnit = (unit: string | null | undefined): boolean =>
+  unit === "nm" || unit === "angstrom";
 
 /**
  * What the first column of an instrument's exported files holds: pixel indices counted from 0 or

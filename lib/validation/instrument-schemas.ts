@@ -7,6 +7,7 @@ import { blank, numberOrUndefined } from "./form-data";
 import { MAX_UPLOAD_POINTS } from "./upload-schemas";
 import { GLASS_NAMES, type GlassName } from "@/lib/spectrum/calibration";
 import { FIRST_COLUMN_KINDS, WAVELENGTH_MEDIA, type FirstColumnKind } from "@/lib/spectrum/types";
+import { isWavelengthUnit } from "@/lib/spectrum/types";
 
 const positive = (what: string) =>
   z
@@ -68,10 +69,7 @@ function withInstrumentChecks<T extends z.ZodType<InstrumentFields>>(schema: T) 
     })
     .refine(
       (i) =>
-        i.exportMedium == null ||
-        i.exportXUnit === undefined ||
-        i.exportXUnit === "nm" ||
-        i.exportXUnit === "angstrom",
+        i.exportMedium == null || i.exportXUnit === undefined || isWavelengthUnit(i.exportXUnit),
       {
         path: ["exportMedium"],
         message: "Only wavelengths (nm or angstrom) are in air or vacuum: leave exportMedium out.",
@@ -115,7 +113,7 @@ function instrumentFieldsFromForm(formData: FormData) {
     apexDeg: numberOrUndefined(formData.get("apexDeg")) ?? null,
     exportXUnit: blank(formData.get("exportXUnit")) || null,
     // The medium belongs to wavelengths only; the form keeps its select hidden for other columns.
-    exportMedium: ["nm", "angstrom"].includes(blank(formData.get("exportXUnit")))
+    exportMedium: isWavelengthUnit(blank(formData.get("exportXUnit")))
       ? blank(formData.get("exportMedium")) || null
       : null,
   };

@@ -24,8 +24,7 @@ export function parseQuery<T extends z.ZodType>(request: Request, schema: T): z.
  * `defaultTeamId`); malformed means not found. */
 export function teamIdQuery(request: Request, fallback: string | undefined): string {
   const given = new URL(request.url).searchParams.get("teamId");
-  if (given !== null && !isRecordId(given))
-    throw new AppError("not_found", "No such team.");
+  if (given !== null && !isRecordId(given)) throw new AppError("not_found", "No such team.");
   const teamId = given ?? fallback;
   if (!teamId) throw new AppError("not_found", "You are not in a team yet.");
   return teamId;

@@ -2,6 +2,7 @@
 // longer than a metre, wavenumbers that are not positive, negative pixels.
 import type { AxisUnit } from "../types";
 import { SpectrumParseError } from "./spectrum-parse-error";
+import { isWavelengthUnit } from "../types";
 
 export interface AssertPhysicalAxisOptions {
   /** 1-based file line of point i, for the error; null where unknown. @default () => null */
@@ -41,7 +42,7 @@ export function assertPhysicalAxis(
   if (!(unit in LARGEST)) throw new RangeError(`unknown unit ${JSON.stringify(unit)}`);
   const largest = LARGEST[unit];
   const smallest = SMALLEST[unit];
-  const wavelength = unit === "nm" || unit === "angstrom";
+  const wavelength = isWavelengthUnit(unit);
   for (let i = 0; i < x.length; i++) {
     const value = x[i];
     if (!Number.isFinite(value)) {

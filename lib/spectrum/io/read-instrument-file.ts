@@ -15,6 +15,7 @@ import type {
 import { detectorPixelOrigin } from "./detector-pixel-origin";
 import { parseSpectrumFile } from "./parse-spectrum-file";
 import { spectrumFitToInstrument, type InstrumentFrame } from "./spectrum-fit-to-instrument";
+import { isWavelengthUnit } from "../types";
 
 export interface InstrumentExportFrame extends InstrumentFrame {
   /** How the instrument's files are read when they do not say; null while it has no profile. */
@@ -170,8 +171,7 @@ export function readInstrumentFile(
     parsed.meta.xUnitInFile === undefined
       ? {
           firstColumn,
-          medium:
-            parsed.xUnit === "nm" || parsed.xUnit === "angstrom" ? (parsed.medium ?? null) : null,
+          medium: isWavelengthUnit(parsed.xUnit) ? (parsed.medium ?? null) : null,
         }
       : null;
 

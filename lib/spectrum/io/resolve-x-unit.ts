@@ -7,6 +7,7 @@ import { detectorPixelOrigin } from "./detector-pixel-origin";
 import type { LabelUnit } from "./read-axis-label";
 import { SpectrumParseError } from "./spectrum-parse-error";
 import { suggestXUnit } from "./suggest-x-unit";
+import { isWavelengthUnit } from "../types";
 
 export interface XUnitEvidence {
   /** The unit the file names, if exactly one. */
@@ -55,8 +56,6 @@ const UNIT_NAMES: Record<LabelUnit, string> = {
   wavenumber: "cm⁻¹",
   micrometre: "µm",
 };
-
-const isWavelength = (unit: AxisUnit) => unit === "nm" || unit === "angstrom";
 
 /**
  * The unit, scale and medium to use, or a SpectrumParseError ("unit-unknown" / "unit-conflict"). The
@@ -118,7 +117,7 @@ export function resolveXUnit(evidence: XUnitEvidence): ResolvedXUnit {
     source = "caller";
   } else if (
     evidence.fallbackUnit !== undefined &&
-    !(evidence.wavelengthWithoutUnit && !isWavelength(evidence.fallbackUnit))
+    !(evidence.wavelengthWithoutUnit && !isWavelengthUnit(evidence.fallbackUnit))
   ) {
     // A header that says "wavelength" but no unit leaves the unit to the fallback only when the
     // fallback is a wavelength unit; a pixel or wavenumber fallback would contradict it.
@@ -141,7 +140,7 @@ export function resolveXUnit(evidence: XUnitEvidence): ResolvedXUnit {
     throw new SpectrumParseError("unit-unknown", `${what}${hint}`, line, column);
   }
   let medium: WavelengthMedium | undefined;
-  if (xUnit === "nm" || xUnit === "angstrom") {
+  if (isWavelengthUnit(xUnit)) {
     if (fileMedium !== undefined && statedMedium !== undefined && fileMedium !== statedMedium) {
       throw new SpectrumParseError(
         "unit-conflict",

@@ -13,6 +13,7 @@ import { fetchInstrument } from "@/lib/services/instruments";
 import { fetchSpectra } from "@/lib/services/spectra";
 import { requireWorkspace } from "@/lib/services/workspace";
 import { TableScroll } from "@/components/ui/table-scroll";
+import { isWavelengthUnit } from "@/lib/spectrum/types";
 
 export const metadata = { title: "Instrument" };
 
@@ -64,8 +65,7 @@ export default async function InstrumentPage({ params }: { params: Promise<{ id:
           <p>
             Files without a header are read with their first column as{" "}
             <strong>{describeFirstColumn(instrument.exportXUnit, instrument.exportMedium)}</strong>
-            {instrument.exportMedium === null &&
-            (instrument.exportXUnit === "nm" || instrument.exportXUnit === "angstrom")
+            {instrument.exportMedium === null && isWavelengthUnit(instrument.exportXUnit)
               ? " (air or vacuum not known)"
               : ""}
             .{" "}
