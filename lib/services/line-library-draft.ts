@@ -27,8 +27,9 @@ import {
 } from "./line-library-rows";
 import { lockDraft, selectLines, selectRelease } from "./line-library-access";
 import type { LineInput, LineRecord, ReleaseSummary } from "./line-library-types";
+import { MATCH_TOLERANCE_NM } from "./line-import-plan";
 
-export const CONFLICT_MESSAGE =
+const CONFLICT_MESSAGE =
   "Someone else changed this line first. Reload it to see their change, then make yours again.";
 
 /** Returns the team's draft, or starts one from the newest published release (rows copied, keys kept). */
@@ -102,7 +103,7 @@ export function validateLineInput(input: LineInput): LineTableRow {
   throw new AppError("validation", "Some values of the line are not right.", { fieldErrors });
 }
 
-/** Another live line of the same species within 0.002 nm (vacuum) in the draft, if any. */
+/** Another live line of the same species within MATCH_TOLERANCE_NM (vacuum) in the draft, if any. */
 async function twinInDraft(
   releaseId: string,
   row: LineTableRow,
@@ -110,7 +111,7 @@ async function twinInDraft(
   transaction: Transaction,
 ): Promise<LineDbRow | null> {
   const [twin] = await selectLines(
-    `l.release_id = $1 AND l.species = $2 AND l.vacuum_nm BETWEEN $3 - 0.002 AND $3 + 0.002
+    `l.release_id = $1 AND l.species = $2 AND l.vacuum_nm BETWEEN $3 - ${MATCH_TOLERANCE_NM} AND $3 + ${MATCH_TOLERANCE_NM}
        AND NOT l.retired AND ($4::uuid IS NULL OR l.id <> $4)`,
     [releaseId, row.species, row.vacuumNm, exceptId],
     transaction,
@@ -122,7 +123,7 @@ function duplicateError(twin: LineDbRow): AppError {
   return new AppError("validation", "The draft already has this line.", {
     fieldErrors: {
       vacuumNm: [
-        `${twin.species} ${twin.air_nm ?? twin.vacuum_nm} nm is already in the draft (within 0.002 nm).`,
+        `${twin.species} ${twin.air_nm ?? twin.vacuum_nm} nm is already in the draft (within ${MATCH_TOLERANCE_NM} nm).`,
       ],
     },
   });

@@ -22,7 +22,6 @@ import type { ImportPreview } from "./line-library-types";
 import { countOf } from "@/lib/text/count-of";
 import { MAX_IMPORT_BYTES, MAX_IMPORT_LABEL } from "@/lib/validation/line-schemas";
 
-export { MATCH_TOLERANCE_NM } from "./line-import-plan";
 /**
  * Rows one import takes. A 100,000-row file held the draft's lock for minutes; a bounded file keeps the
  * preview and the apply to seconds, and a larger table goes in as several files one after the other.

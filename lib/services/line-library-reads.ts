@@ -24,7 +24,7 @@ import type {
   ReleaseSummary,
 } from "./line-library-types";
 
-export const MAX_PAGE_SIZE = 500;
+const MAX_PAGE_SIZE = 500;
 const DEFAULT_PAGE_SIZE = 100;
 
 export async function fetchReleases(actor: Actor, teamId: string): Promise<ReleaseSummary[]> {

@@ -35,7 +35,7 @@ import type {
 } from "./line-library-types";
 
 /** Reference lines one check takes (counted before parsing), as many as one import. */
-export const MAX_REFERENCE_ROWS = 20_000;
+const MAX_REFERENCE_ROWS = 20_000;
 /** Agreement is |Δ| ≤ k·u_c; k = 1 is "within the combined uncertainty" as the check promises. */
 const COVERAGE_FACTOR = 1;
 /** Published lamp wavelengths differ by 0.001–0.002 nm between conventions (common practice). */
