@@ -102,7 +102,7 @@ export function recalibrateFromPrevious(
   const { drift, pairs } = fitted;
   const model = driftedModel(previous, drift, context.domain);
   const covered = coveredByDrift(drift, previous, pairs, context.domain, tolerance);
-  const fit = driftFitResult(model, drift, fitted, covered);
+  const fit = driftFitResult(model, fitted, covered);
   const rival = rivalDrift(
     context,
     predicted,
