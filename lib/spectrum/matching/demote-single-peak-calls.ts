@@ -5,7 +5,7 @@ import { couldMake } from "./could-make";
 import { decidingLineNm } from "./deciding-line-nm";
 import { demoteToPossible } from "./demote-to-possible";
 import { EXPLAINING_SHARE } from "./explaining-share";
-import { lowerBound } from "./lower-bound";
+import { positionsWithin } from "./lower-bound";
 import type { ElementCall } from "./score-elements-types";
 import type { SinglePeakContext } from "./score-elements-stage-types";
 import { seenBandsCovering } from "./seen-bands-covering";
@@ -74,14 +74,12 @@ export function demoteSinglePeakCalls(calls: ElementCall[], context: SinglePeakC
     const rivalLine = new Map<string, { lineIndex: number; relative: number }>();
     const halfWidthNm = 0.5 * (match.peak.resolutionNm ?? match.peak.fwhmNm);
     const within: number[] = [];
-    for (
-      let i = lowerBound(index.lineWavelengthNm, match.peak.wavelengthNm - halfWidthNm);
-      i < index.lineWavelengthNm.length &&
-      index.lineWavelengthNm[i] <= match.peak.wavelengthNm + halfWidthNm;
-      i++
-    ) {
-      within.push(index.lineOrder[i]);
-    }
+    const [first, end] = positionsWithin(
+      index.lineWavelengthNm,
+      match.peak.wavelengthNm - halfWidthNm,
+      match.peak.wavelengthNm + halfWidthNm,
+    );
+    for (let i = first; i < end; i++) within.push(index.lineOrder[i]);
     const { columns } = match;
     const closest = Array.from(closestFirstOrder(columns), (i) => columns.lineIndex[i]);
     for (const lineIndex of [...closest, ...within]) {
