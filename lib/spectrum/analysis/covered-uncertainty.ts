@@ -1,7 +1,6 @@
 // How well a calibration knows λ over its covered range, in two numbers the workbench shows.
 import type { CalibrationModel } from "../calibration/calibration-model";
 import { calibrationUncertainty } from "../calibration/calibration-uncertainty";
-import { upperMedian } from "../statistics/upper-median";
 
 /** Median and largest 1σ over the covered range (41 points). */
 export function coveredUncertainty(model: CalibrationModel): { medianNm: number; maxNm: number } {
@@ -13,7 +12,7 @@ export function coveredUncertainty(model: CalibrationModel): { medianNm: number;
     .filter(Number.isFinite)
     .sort((a, b) => a - b);
   return {
-    medianNm: sigma.length > 0 ? upperMedian(sigma) : 0,
+    medianNm: sigma.length > 0 ? sigma[sigma.length >> 1] : 0,
     maxNm: sigma[sigma.length - 1] ?? 0,
   };
 }

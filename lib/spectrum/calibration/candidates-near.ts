@@ -1,6 +1,6 @@
 // The candidate pairs of a drift: every peak near where the drift puts each lamp line.
 import type { LampPair } from "./lamp-pairing-types";
-import { lowerBound } from "../matching/lower-bound";
+import { positionsWithin } from "../matching/lower-bound";
 import type { PairingContext } from "./pairing-context";
 import { ON_DRIFT_MAX, ON_DRIFT_MIN } from "./recalibration-limits";
 import type { Candidate, Predicted } from "./recalibration-types";
@@ -18,11 +18,8 @@ export function candidatesNear(
   const candidates: Candidate[] = [];
   for (const line of predicted) {
     const x = start(line.u);
-    for (
-      let k = lowerBound(sortedX, x - tolerance);
-      k < sortedX.length && sortedX[k] <= x + tolerance;
-      k++
-    ) {
+    const [first, end] = positionsWithin(sortedX, x - tolerance, x + tolerance);
+    for (let k = first; k < end; k++) {
       const pair = pairOf(context, order[k], line);
       const sigma = pair.xUncertainty ?? 0;
       const reach = Math.min(

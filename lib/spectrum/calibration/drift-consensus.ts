@@ -20,6 +20,7 @@ export function driftConsensus(
     .slice()
     .sort((a, b) => b.weight - a.weight)
     .slice(0, MAX_CANDIDATES);
+  const reach = CONSENSUS_REACH * tolerance;
   let best: { score: number; at: (u: number) => number } | null = null;
   for (let i = 0; i < drawn.length; i++) {
     for (let j = i + 1; j < drawn.length; j++) {
@@ -32,11 +33,13 @@ export function driftConsensus(
       // differ in how close their lines land, not in how many they gather (measured on the re-recorded
       // sweep, seeds 50000, 90000, 100000: 4 silent wrongs of 600 became 2, success +0.5–1.7 points).
       let at = (u: number) => p.pair.x + stretch * (u - p.u);
-      const reach = CONSENSUS_REACH * tolerance;
-      const gathered = onDrift(candidates, at, reach);
-      const refitted = gathered.length >= 3 ? plainLine(gathered) : null;
-      if (refitted && Math.abs(refitted.stretch - 1) <= 1.5 * maxStretch) at = refitted.at;
-      const score = onDrift(candidates, at, reach).reduce(
+      let kept = onDrift(candidates, at, reach);
+      const refitted = kept.length >= 3 ? plainLine(kept) : null;
+      if (refitted && Math.abs(refitted.stretch - 1) <= 1.5 * maxStretch) {
+        at = refitted.at;
+        kept = onDrift(candidates, at, reach);
+      }
+      const score = kept.reduce(
         (sum, c) => sum + c.weight * (1 - ((c.pair.x - at(c.u)) / reach) ** 2),
         0,
       );

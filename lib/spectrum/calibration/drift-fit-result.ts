@@ -1,6 +1,5 @@
 // A recalibration's drifted model as a fit: its pairs' residuals, RMS, χ² and covered range.
 import type { CalibrationModel } from "./calibration-model";
-import type { LinearDrift } from "./drifted-model";
 import type { FitCalibrationResult } from "./fit-calibration";
 import { modelEvaluation } from "./model-evaluation";
 import type { DriftFit } from "./recalibration-types";
@@ -8,7 +7,6 @@ import type { DriftFit } from "./recalibration-types";
 /** The drifted model with today's pairs' residuals, in the shape every fit returns. */
 export function driftFitResult(
   model: CalibrationModel,
-  drift: LinearDrift,
   fitted: DriftFit,
   [low, high]: [number, number],
 ): FitCalibrationResult {

@@ -31,16 +31,17 @@ export function fitDrift(
   if (!best) return null;
   let kept = onDrift(candidates, best.at);
   let line: StraightFit | null = null;
-  for (let round = 0; round < 4; round++) {
+  let settled = false;
+  for (let round = 0; round < 4 && !settled; round++) {
     line = straightFit(kept, tolerance);
     if (!line) return null;
     const next = onDrift(candidates, line.at);
     if (next.length < 2) return null;
-    const same = next.length === kept.length && next.every((c, i) => c === kept[i]);
+    settled = next.length === kept.length && next.every((c, i) => c === kept[i]);
     kept = next;
-    if (same) break;
   }
-  line = straightFit(kept, tolerance);
+  // Pairs that settled were just fitted (the same pairs, in the same order); the last round's were not.
+  if (!settled) line = straightFit(kept, tolerance);
   if (!line) return null;
   const keptLines = new Set(kept.map((c) => c.pair.lineIndex));
   // The lines that found no pair on the drift, with the peak nearest their place: set aside, shown.

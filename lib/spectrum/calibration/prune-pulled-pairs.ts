@@ -7,7 +7,6 @@ import type { DispersionKind } from "../types";
 import { growthDegree } from "./growth-degree";
 import type { LampPair } from "./lamp-pairing-types";
 import { fitStraightenedPolynomial } from "./straightened-polynomial";
-import { upperMedian } from "../statistics/upper-median";
 
 export interface PrunePulledPairsOptions {
   /**
@@ -45,11 +44,13 @@ export function worstOffCurve(
   );
   if (!model) return null;
   const residuals = pairs.map((p) => Math.abs(p.x - model.predictX(p.wavelengthNm)));
-  const residualX = residuals.slice().sort((a, b) => a - b)[residuals.length - 1];
+  const sorted = residuals.slice().sort((a, b) => a - b);
+  const residualX = sorted[sorted.length - 1];
   return {
     index: residuals.indexOf(residualX),
     residualX,
-    robustSigmaX: 1.4826 * upperMedian(residuals),
+    // The upper median of the residuals.
+    robustSigmaX: 1.4826 * sorted[sorted.length >> 1],
   };
 }
 

@@ -11,8 +11,7 @@ import type { CalibrationModel } from "./calibration-model";
 import { coveredByDrift } from "./covered-by-drift";
 import { driftFitResult } from "./drift-fit-result";
 import { driftGridSearch } from "./drift-grid-search";
-import { driftWords } from "./drift-words";
-import { driftedModel } from "./drifted-model";
+import { driftedModel, type LinearDrift } from "./drifted-model";
 import { fitDrift } from "./fit-drift";
 import { inverseOfModel } from "./inverse-of-model";
 import type { LampPairingResult } from "./lamp-pairing-types";
@@ -102,7 +101,7 @@ export function recalibrateFromPrevious(
   const { drift, pairs } = fitted;
   const model = driftedModel(previous, drift, context.domain);
   const covered = coveredByDrift(drift, previous, pairs, context.domain, tolerance);
-  const fit = driftFitResult(model, drift, fitted, covered);
+  const fit = driftFitResult(model, fitted, covered);
   const rival = rivalDrift(
     context,
     predicted,
@@ -126,4 +125,21 @@ export function recalibrateFromPrevious(
     words,
   );
   return recalibrationResult(context, verdict, fit, pairs, rival, words);
+}
+
+function signed(value: number, digits: number): string {
+  return `${value >= 0 ? "+" : "−"}${Math.abs(value).toFixed(digits)}`;
+}
+
+/** How far `drift` moved the middle of the array `domain` and how much it stretched it, in words. */
+function driftWords(
+  drift: LinearDrift,
+  [xMin, xMax]: [number, number],
+): { moved: string; stretched: string } {
+  const middle = 0.5 * (xMin + xMax);
+  const todayX = (u: number) => drift.stretch * u + drift.offset;
+  return {
+    moved: `moved by ${signed(todayX(middle) - middle, 2)} x units at the middle`,
+    stretched: `stretched by ${signed(100 * (drift.stretch - 1), 3)} %`,
+  };
 }

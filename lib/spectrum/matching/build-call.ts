@@ -1,10 +1,15 @@
 // One species' call: its verdict from the score and the strong lines, its evidence and its notes.
 
+import type { ReferenceLine } from "../types";
 import { borrowed } from "./borrowed";
-import { missingEvidence } from "./missing-evidence";
 import { rationaleOf } from "./rationale-of";
 import type { CallContext, SpeciesWork } from "./score-elements-stage-types";
-import type { ElementCall, OverlapEvidence, Verdict } from "./score-elements-types";
+import type {
+  ElementCall,
+  MissingLineEvidence,
+  OverlapEvidence,
+  Verdict,
+} from "./score-elements-types";
 import { tallySeen } from "./tally-seen";
 import { andMore, formatNm, plural } from "./rationale-words";
 
@@ -148,4 +153,23 @@ export function buildCall(
     notes,
     rationale: rationaleOf(verdict, tally, strongMissing, strongInRange, entry, overlaps),
   };
+}
+
+/** The evidence of the missing lines at `positions` of `entry`'s species (see predictMissing). */
+function missingEvidence(
+  entry: SpeciesWork,
+  positions: readonly number[],
+  lines: readonly ReferenceLine[],
+): MissingLineEvidence[] {
+  const { relative } = entry.info.scale;
+  const { order, nm } = entry.info.lines;
+  const scale = entry.snrPerRelative;
+  return positions.map((position) => ({
+    lineIndex: order[position],
+    line: lines[order[position]],
+    referenceNm: nm[position],
+    relativeIntensity: relative[position],
+    predictedSnr: scale === null ? null : scale * relative[position],
+    hiddenByPeakIndex: entry.hiddenBy.get(position) ?? null,
+  }));
 }

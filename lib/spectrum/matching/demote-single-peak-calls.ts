@@ -1,15 +1,15 @@
 // Calls present on one peak alone stay possible unless that peak is unambiguous proof.
 
+import type { CalibratedPeak } from "../types";
 import { closestFirstOrder } from "./candidate-columns";
-import { couldMake } from "./could-make";
-import { decidingLineNm } from "./deciding-line-nm";
 import { demoteToPossible } from "./demote-to-possible";
 import { EXPLAINING_SHARE } from "./explaining-share";
-import { lowerBound } from "./lower-bound";
+import { positionsWithin } from "./lower-bound";
 import type { ElementCall } from "./score-elements-types";
-import type { SinglePeakContext } from "./score-elements-stage-types";
+import type { SinglePeakContext, SpeciesWork } from "./score-elements-stage-types";
 import { seenBandsCovering } from "./seen-bands-covering";
 import { unseenLinesAllow } from "./unseen-lines-allow";
+import { walkStrongestFirst } from "./walk-strongest-first";
 
 /** A call resting on one peak needs it this far above the noise, above the peak finder's default
  * threshold of 5: bumps of continuum noise at SNR 5–6 made a band present on the sample sweep
@@ -74,14 +74,12 @@ export function demoteSinglePeakCalls(calls: ElementCall[], context: SinglePeakC
     const rivalLine = new Map<string, { lineIndex: number; relative: number }>();
     const halfWidthNm = 0.5 * (match.peak.resolutionNm ?? match.peak.fwhmNm);
     const within: number[] = [];
-    for (
-      let i = lowerBound(index.lineWavelengthNm, match.peak.wavelengthNm - halfWidthNm);
-      i < index.lineWavelengthNm.length &&
-      index.lineWavelengthNm[i] <= match.peak.wavelengthNm + halfWidthNm;
-      i++
-    ) {
-      within.push(index.lineOrder[i]);
-    }
+    const [first, end] = positionsWithin(
+      index.lineWavelengthNm,
+      match.peak.wavelengthNm - halfWidthNm,
+      match.peak.wavelengthNm + halfWidthNm,
+    );
+    for (let i = first; i < end; i++) within.push(index.lineOrder[i]);
     const { columns } = match;
     const closest = Array.from(closestFirstOrder(columns), (i) => columns.lineIndex[i]);
     for (const lineIndex of [...closest, ...within]) {
@@ -132,4 +130,50 @@ export function demoteSinglePeakCalls(calls: ElementCall[], context: SinglePeakC
       `Only one peak is ${alone ? "seen" : "its own"}, and ${names} ${explainers.length === 1 ? "has" : "have"} a line there too.`,
     );
   }
+}
+
+/**
+ * Whether `rival`'s line at `peakIndex` could have made that peak: judged from the rival's strongest
+ * line seen at another peak, scaled by the two lines' relative intensities (a faint line of a species
+ * seen strongly elsewhere cannot make a strong peak). A line the table gives no intensity is taken as
+ * no stronger than the rival's faintest rated line seen (the table rates a species' strong lines).
+ * Null without a rated line seen elsewhere: nothing there to judge from.
+ */
+function couldMake(
+  rival: ElementCall,
+  peakIndex: number,
+  relativeHere: number,
+  peakSnr: number,
+): boolean | null {
+  const elsewhere = rival.seen.filter(
+    (s) => s.peakIndex !== peakIndex && s.relativeIntensity !== null && s.relativeIntensity > 0,
+  );
+  if (elsewhere.length === 0) return null;
+  if (!(peakSnr > 0)) return true;
+  const anchor = elsewhere.reduce((a, b) => (b.relativeIntensity! > a.relativeIntensity! ? b : a));
+  const relative = Number.isNaN(relativeHere)
+    ? Math.min(...elsewhere.map((s) => s.relativeIntensity!))
+    : relativeHere;
+  const expectedSnr = (anchor.snr * relative) / anchor.relativeIntensity!;
+  return expectedSnr >= EXPLAINING_SHARE * peakSnr;
+}
+
+/**
+ * The species' strongest line in range (by relative intensity for the source) farther than the
+ * peak's FWHM from it: where a peak would tell this species from its rivals. Null when none.
+ */
+function decidingLineNm(entry: SpeciesWork | undefined, peak: CalibratedPeak): number | null {
+  if (!entry) return null;
+  const { maxTree } = entry.info.scale;
+  const { nm } = entry.info.lines;
+  let found: number | null = null;
+  for (const [from, to] of [entry.info.atomicInRange, entry.info.bandsInRange]) {
+    walkStrongestFirst(maxTree, from, to, 0, (p) => {
+      if (Math.abs(nm[p] - peak.wavelengthNm) <= peak.fwhmNm) return true;
+      found = nm[p];
+      return false;
+    });
+    if (found !== null) break;
+  }
+  return found;
 }

@@ -1,7 +1,7 @@
 // The peaks that may hide a missing line in their wing, searched by wavelength.
 
 import type { CalibratedPeak } from "../types";
-import { lowerBound } from "./lower-bound";
+import { positionsWithin } from "./lower-bound";
 import type { PeakMatch } from "./match-peaks-to-lines";
 import type { HidingPeaks } from "./score-elements-stage-types";
 import { dipIsShallow } from "./two-line-dip";
@@ -44,12 +44,12 @@ export function hidingPeaks(
   const hiderOf = (nm: number, predictedSnr: number) => {
     let best: PeakMatch | null = null;
     let bestSnr = -Infinity;
-    const from = lowerBound(wavelengthNm, nm - maxReachNm - slackNm);
-    for (
-      let i = from;
-      i < byWavelength.length && wavelengthNm[i] <= nm + maxReachNm + slackNm;
-      i++
-    ) {
+    const [first, end] = positionsWithin(
+      wavelengthNm,
+      nm - maxReachNm - slackNm,
+      nm + maxReachNm + slackNm,
+    );
+    for (let i = first; i < end; i++) {
       if (Math.abs(wavelengthNm[i] - nm) > reachNm[i]) continue;
       // Far fainter than the peak, or a companion so close that the dip between them would not clear
       // the peak finder's test: in either case no peak of its own could show.

@@ -3,7 +3,7 @@
 import type { CalibratedPeak } from "../types";
 import { depthIntoBandNm } from "./depth-into-band";
 import { EXPLAINING_SHARE } from "./explaining-share";
-import { lowerBound } from "./lower-bound";
+import { positionsWithin } from "./lower-bound";
 import type { LineIndex } from "./prepare-line-index";
 import type { ElementCall } from "./score-elements-types";
 
@@ -20,11 +20,12 @@ export function seenBandsCovering(
 ): string[] {
   const nm = peak.wavelengthNm;
   const out: string[] = [];
-  for (
-    let i = lowerBound(index.bandHeadNm, nm - index.maxBandExtentNm);
-    i < index.bandHeadNm.length && index.bandHeadNm[i] <= nm + index.maxBandExtentNm;
-    i++
-  ) {
+  const [first, end] = positionsWithin(
+    index.bandHeadNm,
+    nm - index.maxBandExtentNm,
+    nm + index.maxBandExtentNm,
+  );
+  for (let i = first; i < end; i++) {
     const line = index.lines[index.bandOrder[i]];
     const band = line.band!;
     const depthNm = depthIntoBandNm(band, index.bandHeadNm[i], nm);
