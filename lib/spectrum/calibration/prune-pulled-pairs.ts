@@ -11,12 +11,12 @@ import { fitStraightenedPolynomial } from "./straightened-polynomial";
 export interface PrunePulledPairsOptions {
   /**
    * A pair is set aside beyond this many robust σ of the residuals…
-   * @default 3.5
+   * @default 3
    */
   sigmaLimit?: number;
   /**
    * …and beyond this floor, x units (centring noise alone never reaches it).
-   * @default 0.3
+   * @default 0.15
    */
   floorX?: number;
   /**
