@@ -129,6 +129,39 @@ describe("recalibration from the previous calibration", () => {
     );
   });
 
+  it("counts a strong line as seen where its top stands off the drift, but not where it has no peak", () => {
+    const previous = previousOf(yesterdayNm);
+    const todayPx = (nm: number) => 1.0017 * yesterdayPx(nm) - 11.3;
+    const onArray = HG_NE_AR_LINES.filter((l) => {
+      const x = todayPx(l.wavelengthNm);
+      return x >= 0 && x <= 2047;
+    });
+    const strongest = new Set(
+      onArray
+        .slice()
+        .sort((a, b) => b.intensity - a.intensity)
+        .slice(0, 10)
+        .map((l) => l.wavelengthNm),
+    );
+    const peaks = lampPeaks(HG_NE_AR_LINES, todayPx, 3);
+    const isStrong = (p: LampPeak) =>
+      [...strongest].some((nm) => Math.abs(p.x - todayPx(nm)) < 0.5);
+    // Saturated tops 1 px off their lines (a pair must sit within 0.15 tolerance, 0.4 px here; a
+    // line counts as seen within 1.5 tolerances): still the lamp's strongest lines.
+    const offTops = peaks.map((p) => (isStrong(p) ? { ...p, x: p.x + 1 } : p));
+    const judged = (lampPeaksToday: LampPeak[]) =>
+      recalibrateFromPrevious(pairingContext(lampPeaksToday, HG_NE_AR_LINES, options), previous)!;
+    const seen = judged(offTops);
+    expect(seen.checks!.find((c) => c.name === "expected-lines")!.passed).toBe(true);
+    expect(seen.status).toBe("paired");
+    for (const pair of seen.pairs) expect(strongest.has(pair.wavelengthNm)).toBe(false);
+    // Without their peaks the lamp does not show what the calibration puts on the array.
+    const unseen = judged(peaks.filter((p) => !isStrong(p)));
+    const expected = unseen.checks!.find((c) => c.name === "expected-lines")!;
+    expect(expected.passed).toBe(false);
+    expect(expected.reason).toMatch(/^only 0 of the 10 strongest lamp lines found a peak/);
+  });
+
   it("does not trust a lamp whose lines repeat so evenly that another drift fits as well", () => {
     // A comb: a line every 5 nm (50 px, inside the searched shift of ±61 px), all equally strong.
     const comb: LampLine[] = Array.from({ length: 40 }, (_, i) => ({

@@ -1,0 +1,5 @@
+// How near its predicted place a strong lamp line's peak must stand for the line to count as seen,
+// in matching tolerances (half a resolution element): the expected-lines checks of a blind pairing
+// and of a recalibration ask the same question, whether the lamp shows the lines the calibration puts
+// on the array, not how precisely their centres fall (the other checks judge that).
+export const EXPECTED_PEAK_REACH = 1.5;
