@@ -104,6 +104,13 @@ describe("the chemist's journey", () => {
     expect(
       await page.getByTestId("pairs-table").locator("tbody tr").count(),
     ).toBeGreaterThanOrEqual(5);
+    // The claim starts one pair in from each end: the two outermost pairs are fitted, not claimed.
+    expect(
+      await page
+        .getByTestId("pairs-table")
+        .locator("tbody tr", { hasText: "outside the covered range" })
+        .count(),
+    ).toBe(2);
     await screenshot(page, "chemist-3-calibration");
 
     await page.goto("/notebooks");

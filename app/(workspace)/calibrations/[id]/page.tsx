@@ -31,6 +31,9 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
     ...calibration.rejected.map((p) => ({ ...p, used: false })),
   ].sort((a, b) => a.pixel - b.pixel);
   const xTitle = X_TITLES[spectrum.xUnit];
+  // The claimed covered range ends at pairs' own wavelengths; a used pair beyond it is fitted, not claimed.
+  const [claimedFromNm, claimedToNm] = calibration.coveredRangeNm;
+  const claimed = (nm: number) => nm >= claimedFromNm && nm <= claimedToNm;
   return (
     <>
       <PageHeader
@@ -267,6 +270,9 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
                         ▼{" "}
                       </span>
                       used
+                      {claimed(p.wavelengthNm) ? null : (
+                        <span className="muted"> · outside the covered range</span>
+                      )}
                     </span>
                   ) : (
                     <span>
