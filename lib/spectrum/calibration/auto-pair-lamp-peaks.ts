@@ -15,6 +15,7 @@ import { modelEvaluation } from "./model-evaluation";
 import { recalibrateFromPrevious } from "./recalibrate-from-previous";
 import { typicalPeakFwhm } from "./typical-peak-fwhm";
 import { CalibrationError } from "./calibration-error";
+import { claimFromSecondPairs } from "./claim-from-second-pairs";
 import { withBlendUncertainty, withCentreFloor } from "./centre-uncertainty";
 import type {
   LampLine,
@@ -253,7 +254,7 @@ export function autoPairLampPeaks(
   lines: LampLine[],
   options: AutoPairLampPeaksOptions,
 ): LampPairingResult {
-  if (!options.previous) return blindLampPairing(peaks, lines, options);
+  if (!options.previous) return claimFromSecondPairs(blindLampPairing(peaks, lines, options));
   const context = pairingContext(peaks, lines, options);
   let recalibrated: LampPairingResult | null = null;
   try {
@@ -270,14 +271,15 @@ export function autoPairLampPeaks(
   const onlyShapeDoubted = failed.length > 0 && failed.every((c) => c.name === "previous-fit");
   if (!recalibrated || onlyShapeDoubted) {
     const refitted = refitFromPrevious(context, options.previous, onlyShapeDoubted);
-    if (refitted) return refitted;
-    if (!recalibrated) return blindLampPairing(peaks, lines, options);
+    if (refitted) return claimFromSecondPairs(refitted);
+    if (!recalibrated) return claimFromSecondPairs(blindLampPairing(peaks, lines, options));
   }
   // A recalibration to check stands unless a blind search, which knows nothing of yesterday, finds the
   // same axis: two independent routes to one answer are trusted, a disagreement is the person's call.
   const blind = blindLampPairing(peaks, lines, options);
   if (blind.status === "paired" && blind.model && recalibrated.candidate) {
-    if (modelsAgree(blind.model.model, recalibrated.candidate.model, context)) return blind;
+    if (modelsAgree(blind.model.model, recalibrated.candidate.model, context))
+      return claimFromSecondPairs(blind);
   }
   return recalibrated;
 }

@@ -20,9 +20,12 @@ export interface CalibrationModelBase {
   domain: [number, number];
   /** How x is normalised before the parameters apply (polynomial and Hartmann use t). */
   xNormalisation: XNormalisation;
-  /** Extent of the used pairs on the input axis. */
+  /**
+   * The covered range on the input axis: the extent of the used pairs, or less where a trusted
+   * automatic pairing claims less (claim-sound-ends.ts, then claim-from-second-pairs.ts: from its second sound pair at each end).
+   */
   coveredX: [number, number];
-  /** Extent of the used pairs in wavelength, nm. */
+  /** The same covered range in wavelength, nm. */
   coveredNm: [number, number];
   /** Fitted parameter values; their meaning is given per kind and by `parameterNames`. */
   parameters: number[];

@@ -123,7 +123,7 @@ const EDGE_SIGMA_RATIO = 2;
 /**
  * A pull up to this share of the peak's FWHM leaves its centre sound: the sweep's accuracy is a tenth
  * of the FWHM. Over 1,500 blind instruments (prisms of seeds 12100000 and 12200000, the CLI's mix of
- * 12400000 and 1000, 2048-pixel arrays of 1000), with the sound-end claim (`claimCoveredRange`) and `predictedByTheRest`, this
+ * 12400000 and 1000, 2048-pixel arrays of 1000), with `claimSoundEnds` and `predictedByTheRest`, this
  * share gave 952 successes and 11 silent wrongs where neither rule stood at 924 and 16; the claim
  * narrowed the covered range of 286 of the 924 calibrations right before, by 5 % of the array on
  * average (32 % at most). Allowing no pull at all gave 944 and 10, but narrowed 575 of them, by 8 %

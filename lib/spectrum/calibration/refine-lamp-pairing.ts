@@ -19,7 +19,7 @@ import { typicalPeakFwhm } from "./typical-peak-fwhm";
 import { fitForwardHartmann } from "./fit-forward-hartmann";
 import { verifyLampPairing, type PairingVerdict } from "./verify-lamp-pairing";
 import { trimPulledEnds } from "./trim-pulled-ends";
-import { claimCoveredRange } from "./claim-covered-range";
+import { claimSoundEnds } from "./claim-sound-ends";
 import { describePairs } from "./describe-pairs";
 import { weightedLeastSquares } from "./weighted-least-squares";
 import { lowerBound } from "../matching/lower-bound";
@@ -231,7 +231,7 @@ export function finishLampPairing(
           (usedPairs.length - 4),
       )
     : refined.rmsX;
-  return claimCoveredRange(context, withCheckedEnds(context, judge(context, usedPairs, fit, rmsX)));
+  return claimSoundEnds(context, withCheckedEnds(context, judge(context, usedPairs, fit, rmsX)));
 }
 
 /**
@@ -370,7 +370,7 @@ function judgeFitted(
     usedFitted.reduce((s, p, i) => s + (p.residualNm / dispersion[i]) ** 2, 0) /
       Math.max(usedFitted.length - fit.model.parameters.length, 1),
   );
-  return claimCoveredRange(context, withCheckedEnds(context, judge(context, usedPairs, fit, rmsX)));
+  return claimSoundEnds(context, withCheckedEnds(context, judge(context, usedPairs, fit, rmsX)));
 }
 
 /**

@@ -157,7 +157,7 @@ describe("the demo bench's grating lamp", () => {
     });
     expect(result.pairing.status).toBe("paired");
     // The pairs reach across the array; the claim starts one pair in from each end
-    // (claim-covered-range.ts), still three quarters of it.
+    // (claim-from-second-pairs.ts), still three quarters of it.
     const xs = result.pairing.pairs.map((p) => p.x);
     expect((Math.max(...xs) - Math.min(...xs)) / (x.length - 1)).toBeGreaterThan(0.8);
     const [c0, c1] = result.fit!.model.coveredX;

@@ -30,7 +30,7 @@ describe("pairs beyond gaps, one after another", () => {
     // Seed found on the blind sweep: the same shape of He lamp on a straight grating. The pairs at
     // 389–588 nm put He I 706.5 and 728.1 nm, beyond a gap of 35 % of the span, each on one clean peak
     // with no other peak or lamp line within reach, so they were not chosen by themselves: the
-    // calibration claims up to 706.5 nm (one pair in from the end, claim-covered-range.ts) and is right
+    // calibration claims up to 706.5 nm (one pair in from the end, claim-from-second-pairs.ts) and is right
     // there.
     const lamp = realisticLamp(9600101);
     const result = calibrateRealisticLamp(lamp);

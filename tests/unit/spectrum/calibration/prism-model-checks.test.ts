@@ -49,7 +49,7 @@ describe("a prism's model agreement", () => {
 describe("a prism's lack of fit", () => {
   // Seeds found on the prism sweep: wrong candidates, 1.97 and 2.18 times the sweep's accuracy off at
   // the worst probe. (Instrument 12200094, once here, is now paired over the range its sound pairs
-  // cover, and right there: claim-covered-range.ts; 12100037 is now paired right, its pair off the
+  // cover, and right there: claim-sound-ends.ts; 12100037 is now paired right, its pair off the
   // others' curve set aside first: held-out-miss.ts.)
   it.each([
     [12_100_185, "sapphire"],

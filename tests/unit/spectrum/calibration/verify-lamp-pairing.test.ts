@@ -5,6 +5,7 @@
 import { describe, expect, it } from "vitest";
 import { evaluateCalibration, fitCalibration } from "@/lib/spectrum/calibration";
 import { finishGrownPairing } from "@/lib/spectrum/calibration/refine-lamp-pairing";
+import { claimFromSecondPairs } from "@/lib/spectrum/calibration/claim-from-second-pairs";
 import { pairingContext } from "@/lib/spectrum/calibration/lamp-pairing-setup";
 import type { LampLine, LampPair, LampPeak } from "@/lib/spectrum/calibration/lamp-pairing-types";
 import {
@@ -26,8 +27,6 @@ interface LampExtras {
   linesWithoutPeakNm?: number[];
   /** FWHM of the peak of the line at this wavelength (the others are 5 px). */
   widened?: { nm: number; fwhm: number };
-  /** Further widened peaks. */
-  alsoWidened?: { nm: number; fwhm: number }[];
 }
 
 /**
@@ -35,8 +34,7 @@ interface LampExtras {
  * context of the array.
  */
 function lampAt(wavelengthsNm: number[], extras: LampExtras = {}) {
-  const { unlistedPeaksNm = [], linesWithoutPeakNm = [], widened, alsoWidened = [] } = extras;
-  const wide = [...(widened ? [widened] : []), ...alsoWidened];
+  const { unlistedPeaksNm = [], linesWithoutPeakNm = [], widened } = extras;
   const lines: LampLine[] = [...wavelengthsNm, ...linesWithoutPeakNm].map((nm, i) => ({
     wavelengthNm: nm,
     intensity: 100,
@@ -46,7 +44,7 @@ function lampAt(wavelengthsNm: number[], extras: LampExtras = {}) {
   const peaks: LampPeak[] = [...wavelengthsNm, ...unlistedPeaksNm].map((nm) => ({
     x: xOf(nm),
     height: 1000,
-    fwhm: wide.find((w) => w.nm === nm)?.fwhm ?? 5,
+    fwhm: nm === widened?.nm ? widened.fwhm : 5,
   }));
   const context = pairingContext(peaks, lines, {
     nominalRangeNm: [400, 710],
@@ -215,70 +213,103 @@ describe("finishGrownPairing: pairs beyond a gap", () => {
       "3 pairs beyond a wide gap set aside (Ne I 400.000 nm, Ne I 401.500 nm, Ne I 403.000 nm)",
     );
     expect(result.pairs.map((p) => p.wavelengthNm).sort((a, b) => a - b)).toEqual(right);
-    // The calibration claims only what the right pairs cover, one pair in from each end, and is
-    // right there.
+    // The calibration claims only what the right pairs cover, and is right there.
     const [low, high] = result.model!.model.coveredX;
-    expect(low).toBeCloseTo(xOf(565), 6);
-    expect(high).toBeCloseTo(xOf(685), 6);
+    expect(low).toBeCloseTo(xOf(550), 6);
+    expect(high).toBeCloseTo(xOf(700), 6);
     const probes = Float64Array.from([xOf(560), xOf(630), xOf(690)]);
     const calibrated = evaluateCalibration(result.model!.model, probes);
     [560, 630, 690].forEach((nm, i) => expect(Math.abs(calibrated[i] - nm)).toBeLessThan(0.01));
   });
 });
 
-describe("finishGrownPairing: the claimed covered range", () => {
+describe("finishGrownPairing: the covered range ends at sound pairs", () => {
   const right = [550, 565, 580, 595, 610, 625, 640, 655, 670, 685, 700];
-  const finished = (
-    widened?: { nm: number; fwhm: number },
-    lines = right,
-    alsoWidened: { nm: number; fwhm: number }[] = [],
-  ) => {
-    const { context, pairOf } = lampAt(lines, { ...(widened ? { widened } : {}), alsoWidened });
+  const finished = (widened?: { nm: number; fwhm: number }) => {
+    const { context, pairOf } = lampAt(right, widened ? { widened } : {});
+    return finishGrownPairing(
+      context,
+      right.map((_, k) => pairOf(k, k)),
+    );
+  };
+
+  it("claims up to the last pair whose peak stands clear, and fits the pulled end pair still", () => {
+    // 700 nm's peak is 8 px wide where its neighbours are 5 px: a pull of about 1.3 px, more than a
+    // tenth of its width, which the fit would follow at that end.
+    const result = finished({ nm: 700, fwhm: 8 });
+    expect(result.status).toBe("paired");
+    const model = result.model!.model;
+    expect(model.coveredX[1]).toBeCloseTo(xOf(685), 6);
+    expect(model.coveredNm).toEqual([550, 685]);
+    expect(result.pairs.map((p) => p.wavelengthNm)).toContain(700);
+    expect(result.message).toContain("Ne I 700.000 nm is fitted but not claimed");
+  });
+
+  it("claims every pair's range when the widened peak stands inside it, or is widened by little", () => {
+    for (const widened of [
+      { nm: 625, fwhm: 8 },
+      { nm: 700, fwhm: 5.2 },
+    ]) {
+      const result = finished(widened);
+      expect(result.status).toBe("paired");
+      expect(result.model!.model.coveredNm).toEqual([550, 700]);
+      expect(result.message).not.toContain("not claimed");
+    }
+  });
+});
+
+describe("claimFromSecondPairs: the claim steps one pair in at each end", () => {
+  const right = [550, 565, 580, 595, 610, 625, 640, 655, 670, 685, 700];
+  const paired = (lines: number[], widened?: { nm: number; fwhm: number }) => {
+    const { context, pairOf } = lampAt(lines, widened ? { widened } : {});
     return finishGrownPairing(
       context,
       lines.map((_, k) => pairOf(k, k)),
     );
   };
 
-  it("ends at the last pair whose peak stands clear, then steps one pair in, and fits every pair still", () => {
-    // 700 nm's peak is 8 px wide where its neighbours are 5 px: a pull of about 1.3 px, more than a
-    // tenth of its width, which the fit would follow at that end. Of the sound pairs, 550 and 685 nm
-    // would each decide the calibration alone beyond their neighbours.
-    const result = finished({ nm: 700, fwhm: 8 });
+  it("claims from the second pair at each end, names the two it steps over and fits them still", () => {
+    const before = paired(right);
+    const result = claimFromSecondPairs(before);
     expect(result.status).toBe("paired");
-    const model = result.model!.model;
-    expect(model.coveredX[0]).toBeCloseTo(xOf(565), 6);
-    expect(model.coveredX[1]).toBeCloseTo(xOf(670), 6);
-    expect(model.coveredNm).toEqual([565, 670]);
-    expect(result.pairs.map((p) => p.wavelengthNm)).toEqual(
-      expect.arrayContaining([550, 685, 700]),
-    );
-    expect(result.message).toContain("Ne I 700.000 nm is fitted but not claimed");
+    expect(result.model!.model.coveredNm).toEqual([565, 685]);
+    expect(result.model!.model.coveredX[0]).toBeCloseTo(xOf(565), 6);
+    expect(result.model!.model.coveredX[1]).toBeCloseTo(xOf(685), 6);
     expect(result.message).toContain(
-      "Ne I 550.000 nm, Ne I 685.000 nm are fitted but not claimed: beyond its neighbour",
+      "Ne I 550.000 nm, Ne I 700.000 nm are fitted but not claimed: beyond its neighbour",
     );
+    // The fit is the same: only the claim ends sooner.
+    expect(result.pairs).toEqual(before.pairs);
+    expect(result.model!.model.parameters).toEqual(before.model!.model.parameters);
   });
 
-  it("steps one pair in from every end when no peak is pulled, or one is pulled inside or by little", () => {
-    for (const widened of [undefined, { nm: 625, fwhm: 8 }, { nm: 700, fwhm: 5.2 }]) {
-      const result = finished(widened);
-      expect(result.status).toBe("paired");
-      expect(result.model!.model.coveredNm).toEqual([565, 685]);
-      expect(result.message).not.toContain("stand clear");
-      expect(result.message).toContain(
-        "Ne I 550.000 nm, Ne I 700.000 nm are fitted but not claimed",
-      );
-    }
+  it("steps in from the sound ends when an end peak is pulled", () => {
+    // 700 nm's peak is widened: the sound-end claim already ends at 685 nm, and the step goes to 670.
+    const result = claimFromSecondPairs(paired(right, { nm: 700, fwhm: 8 }));
+    expect(result.model!.model.coveredNm).toEqual([565, 670]);
+    expect(result.message).toContain("Ne I 700.000 nm is fitted but not claimed");
+    expect(result.message).toContain("Ne I 550.000 nm, Ne I 685.000 nm are fitted but not claimed");
   });
 
-  it("claims from end to end when fewer than five pairs lie between the sound ends", () => {
-    // Six pairs, the two reddest peaks widened: four sound ones are left, all claimed.
+  it("leaves a claim of fewer than five pairs, and an untrusted result, as they are", () => {
+    // Six pairs, 700 nm pulled: five sound ones would leave three; with 670 nm pulled too, four are left.
     const six = [550, 580, 610, 640, 670, 700];
-    const result = finished({ nm: 700, fwhm: 8 }, six, [{ nm: 670, fwhm: 8 }]);
-    expect(result.status).toBe("paired");
-    expect(result.model!.model.coveredNm).toEqual([550, 640]);
-    expect(result.message).toContain("Ne I 670.000 nm, Ne I 700.000 nm are fitted but not claimed");
-    expect(result.message).not.toContain("beyond its neighbour");
+    const { context, pairOf } = lampAt(six, { widened: { nm: 700, fwhm: 8 } });
+    const five = finishGrownPairing(
+      context,
+      six.map((_, k) => pairOf(k, k)),
+    );
+    expect(claimFromSecondPairs(five).model!.model.coveredNm).toEqual([580, 640]);
+    const fourInside = {
+      ...five,
+      model: {
+        ...five.model!,
+        model: { ...five.model!.model, coveredX: [xOf(550), xOf(640)] as [number, number] },
+      },
+    };
+    expect(claimFromSecondPairs(fourInside)).toBe(fourInside);
+    const untrusted = { ...five, status: "check" as const };
+    expect(claimFromSecondPairs(untrusted)).toBe(untrusted);
   });
 });
 
