@@ -22,7 +22,8 @@ export interface CalibrationModelBase {
   xNormalisation: XNormalisation;
   /**
    * The covered range on the input axis: the extent of the used pairs, or less where a trusted
-   * automatic pairing claims less (claim-sound-ends.ts, then claim-from-second-pairs.ts: from its second sound pair at each end).
+   * automatic pairing claims less (claim-sound-ends.ts, then claim-from-second-pairs.ts: from its
+   * second sound pair at each end), or where a recalibration's drift is known.
    */
   coveredX: [number, number];
   /** The same covered range in wavelength, nm. */
