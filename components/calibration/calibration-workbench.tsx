@@ -436,6 +436,7 @@ export function CalibrationWorkbench({
           <WorkbenchResidualChart preview={preview} xTitle={xTitle} />
           <WorkbenchPairsTable
             pairs={preview.result.pairs}
+            coveredRangeNm={preview.result.coveredRangeNm}
             xTitle={xTitle}
             disabled={busy}
             onExclude={(p) => change({ excluded: [...input.excluded, ref(p)] })}

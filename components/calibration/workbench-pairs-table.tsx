@@ -2,6 +2,7 @@
 // it came from, whether the fit used it, and the one action that changes it (exclude, include, remove).
 import type { CalibrationPreview, CalibrationPreviewPair } from "@/lib/services/calibrations";
 import { TableScroll } from "@/components/ui/table-scroll";
+import { withinCoveredRange } from "@/lib/calibrations/covered-range";
 
 const STATE_TEXT: Record<
   CalibrationPreviewPair["state"],
@@ -18,6 +19,7 @@ const STATE_TEXT: Record<
 
 export function WorkbenchPairsTable({
   pairs,
+  coveredRangeNm,
   xTitle,
   disabled,
   onExclude,
@@ -25,6 +27,8 @@ export function WorkbenchPairsTable({
   onRemove,
 }: {
   pairs: CalibrationPreview["result"]["pairs"];
+  /** The covered range the calibration claims: a used pair outside it is marked. */
+  coveredRangeNm: readonly [number, number];
   xTitle: string;
   disabled: boolean;
   onExclude: (pair: CalibrationPreviewPair) => void;
@@ -84,6 +88,9 @@ export function WorkbenchPairsTable({
                     {state.mark}{" "}
                   </span>
                   {state.text}
+                  {p.state === "used" && !withinCoveredRange(p.wavelengthNm, coveredRangeNm) ? (
+                    <span className="muted"> · outside the covered range</span>
+                  ) : null}
                 </td>
                 <td className="px-3 py-1.5 text-right">
                   {p.origin === "added" ? (

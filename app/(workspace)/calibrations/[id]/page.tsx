@@ -13,6 +13,7 @@ import { requireWorkspace } from "@/lib/services/workspace";
 import { EntityTrail } from "@/components/audit/entity-trail";
 import { TableScroll } from "@/components/ui/table-scroll";
 import { WarningList } from "@/components/ui/warning-list";
+import { withinCoveredRange } from "@/lib/calibrations/covered-range";
 
 export const metadata = { title: "Calibration" };
 
@@ -31,9 +32,6 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
     ...calibration.rejected.map((p) => ({ ...p, used: false })),
   ].sort((a, b) => a.pixel - b.pixel);
   const xTitle = X_TITLES[spectrum.xUnit];
-  // The claimed covered range ends at pairs' own wavelengths; a used pair beyond it is fitted, not claimed.
-  const [claimedFromNm, claimedToNm] = calibration.coveredRangeNm;
-  const claimed = (nm: number) => nm >= claimedFromNm && nm <= claimedToNm;
   return (
     <>
       <PageHeader
@@ -270,7 +268,7 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
                         ▼{" "}
                       </span>
                       used
-                      {claimed(p.wavelengthNm) ? null : (
+                      {withinCoveredRange(p.wavelengthNm, calibration.coveredRangeNm) ? null : (
                         <span className="muted"> · outside the covered range</span>
                       )}
                     </span>
