@@ -10,6 +10,7 @@
 // them (judged over the narrower claim, one fresh grating was "paired" 1.9 times the sweep's accuracy
 // off, its blue end pair moving the axis by 0.29 of a line width between the others).
 import { describePairs } from "./describe-pairs";
+import { withClaimedRange } from "./with-claimed-range";
 import type { LampPairingResult } from "./lamp-pairing-types";
 
 /**
@@ -36,19 +37,12 @@ export function claimFromSecondPairs(result: LampPairingResult): LampPairingResu
   if (inside.length < MIN_PAIRS_TO_STEP_IN) return result;
   const steppedOver = [inside[0], inside[inside.length - 1]];
   const claimed = inside.slice(1, -1);
-  const wavelengths = claimed.map((p) => p.wavelengthNm);
-  return {
-    ...result,
-    model: {
-      ...result.model,
-      model: {
-        ...model,
-        coveredX: [claimed[0].x, claimed[claimed.length - 1].x],
-        coveredNm: [Math.min(...wavelengths), Math.max(...wavelengths)],
-      },
-    },
-    message:
-      `${result.message}; it is claimed from the second pair at each end on ` +
+  return withClaimedRange(
+    result,
+    result.model,
+    [claimed[0].x, claimed[claimed.length - 1].x],
+    claimed.map((p) => p.wavelengthNm),
+    `it is claimed from the second pair at each end on ` +
       `(${describePairs(steppedOver)} are fitted but not claimed: beyond its neighbour each would rest on its own peak's centre alone)`,
-  };
+  );
 }

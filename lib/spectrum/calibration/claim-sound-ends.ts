@@ -6,6 +6,7 @@
 // claim ends sooner.
 import { soundCentres } from "./centre-uncertainty";
 import { describePairs } from "./describe-pairs";
+import { withClaimedRange } from "./with-claimed-range";
 import type { LampPairingResult } from "./lamp-pairing-types";
 import type { PairingContext } from "./pairing-context";
 
@@ -23,19 +24,12 @@ export function claimSoundEnds(
   const model = result.model.model;
   if (low <= model.coveredX[0] && high >= model.coveredX[1]) return result;
   const outside = result.pairs.filter((p) => p.x < low || p.x > high);
-  const wavelengths = sound.map((p) => p.wavelengthNm);
-  return {
-    ...result,
-    model: {
-      ...result.model,
-      model: {
-        ...model,
-        coveredX: [Math.max(model.coveredX[0], low), Math.min(model.coveredX[1], high)],
-        coveredNm: [Math.min(...wavelengths), Math.max(...wavelengths)],
-      },
-    },
-    message:
-      `${result.message}; the covered range ends at the outermost pairs whose peaks stand clear ` +
+  return withClaimedRange(
+    result,
+    result.model,
+    [Math.max(model.coveredX[0], low), Math.min(model.coveredX[1], high)],
+    sound.map((p) => p.wavelengthNm),
+    `the covered range ends at the outermost pairs whose peaks stand clear ` +
       `(${describePairs(outside)} ${outside.length > 1 ? "are" : "is"} fitted but not claimed: a neighbour or the array's edge pulls ${outside.length > 1 ? "their peaks" : "its peak"})`,
-  };
+  );
 }
