@@ -88,7 +88,7 @@ export function WorkbenchPairsTable({
                     {state.mark}{" "}
                   </span>
                   {state.text}
-                  {p.state === "used" && !withinCoveredRange(p.wavelengthNm, coveredRangeNm) ? (
+                  {p.state === "used" && !withinCoveredRange(p, coveredRangeNm) ? (
                     <span className="muted"> · outside the covered range</span>
                   ) : null}
                 </td>

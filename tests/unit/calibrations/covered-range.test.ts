@@ -1,21 +1,26 @@
-// A used pair's line inside or outside the covered range a calibration claims.
+// A used pair inside or outside the covered range a calibration claims.
 import { describe, expect, it } from "vitest";
 import { withinCoveredRange } from "@/lib/calibrations/covered-range";
 
 describe("withinCoveredRange", () => {
-  const covered: [number, number] = [407.783, 852.144];
+  const claimed: [number, number] = [407.783, 852.144];
+  const pair = (wavelengthNm: number, residualNm = 0.01) => ({ wavelengthNm, residualNm });
 
-  it("holds the range's own end lines, which are claimed pairs' wavelengths", () => {
-    expect(withinCoveredRange(407.783, covered)).toBe(true);
-    expect(withinCoveredRange(852.144, covered)).toBe(true);
-    expect(withinCoveredRange(546.074, covered)).toBe(true);
-    // A recalibration's end, worked out through the model, a residual short of its end pair's line.
-    expect(withinCoveredRange(852.144, [407.77, 852.1439])).toBe(true);
+  it("holds the pairs whose lines end a claimed range, whatever their residuals", () => {
+    expect(withinCoveredRange(pair(407.783, 0.0148), claimed)).toBe(true);
+    expect(withinCoveredRange(pair(852.144, -0.0098), claimed)).toBe(true);
+    expect(withinCoveredRange(pair(546.074), claimed)).toBe(true);
   });
 
-  it("leaves out the lines beyond either end (pairs fitted but not claimed)", () => {
-    expect(withinCoveredRange(394.898, covered)).toBe(false);
-    expect(withinCoveredRange(866.794, covered)).toBe(false);
-    expect(withinCoveredRange(852.146, covered)).toBe(false);
+  it("holds an end pair a drift's range ends a residual short of, on the calibrated axis", () => {
+    // The recalibrated lamp of the e2e workbench: its range shown as ending at 852.14 nm, its end
+    // pair Ar I 852.144 nm with a residual of 0.0098 nm.
+    expect(withinCoveredRange(pair(852.144, 0.0098), [407.77, 852.135])).toBe(true);
+  });
+
+  it("leaves out the pairs beyond either end (fitted but not claimed)", () => {
+    expect(withinCoveredRange(pair(394.898, -0.0262), claimed)).toBe(false);
+    expect(withinCoveredRange(pair(866.794, -0.0098), claimed)).toBe(false);
+    expect(withinCoveredRange(pair(852.2, 0.01), claimed)).toBe(false);
   });
 });

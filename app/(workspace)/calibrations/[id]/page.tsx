@@ -268,7 +268,7 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
                         ▼{" "}
                       </span>
                       used
-                      {withinCoveredRange(p.wavelengthNm, calibration.coveredRangeNm) ? null : (
+                      {withinCoveredRange(p, calibration.coveredRangeNm) ? null : (
                         <span className="muted"> · outside the covered range</span>
                       )}
                     </span>
