@@ -292,7 +292,8 @@ describe("claimFromSecondPairs: the claim steps one pair in at each end", () => 
   });
 
   it("leaves a claim of fewer than five pairs, and an untrusted result, as they are", () => {
-    // Six pairs, 700 nm pulled: five sound ones would leave three; with 670 nm pulled too, four are left.
+    // Six pairs, 700 nm pulled: the five sound ones step in to three. A claim over four pairs
+    // (550–640 nm) is left as it is.
     const six = [550, 580, 610, 640, 670, 700];
     const { context, pairOf } = lampAt(six, { widened: { nm: 700, fwhm: 8 } });
     const five = finishGrownPairing(
