@@ -8,7 +8,6 @@ export { LINE_TABLE_COLUMNS, LINE_TABLE_COLUMN_NAMES } from "./line-table-column
 export type { LineTableColumn } from "./line-table-columns";
 export { parseLineTableCsv } from "./parse-line-table-csv";
 export { readLineTableRow } from "./read-line-table-row";
-export type { LineTableRowResult, ReadLineTableRowOptions } from "./read-line-table-row";
 export { lineTableCells } from "./line-table-cells";
 export { lineLocator } from "./line-locator";
 export type { ParseLineTableCsvOptions } from "./parse-line-table-csv";

@@ -48,7 +48,6 @@ export function exportProfileOf(
   return row.exportXUnit ? { firstColumn: row.exportXUnit, medium: row.exportMedium } : null;
 }
 
-/** A wavelength column is the only one measured in air or vacuum. */
 /** An instrument the actor may act on; another team's (or a malformed id's) is not found. */
 export async function loadInstrument(
   actor: Actor,

@@ -1,4 +1,5 @@
 // How well a calibration knows λ over its covered range, in two numbers the workbench shows.
+import { upperMedianOfSorted } from "../statistics/upper-median";
 import type { CalibrationModel } from "../calibration/calibration-model";
 import { calibrationUncertainty } from "../calibration/calibration-uncertainty";
 
@@ -12,7 +13,7 @@ export function coveredUncertainty(model: CalibrationModel): { medianNm: number;
     .filter(Number.isFinite)
     .sort((a, b) => a - b);
   return {
-    medianNm: sigma.length > 0 ? sigma[sigma.length >> 1] : 0,
+    medianNm: sigma.length > 0 ? upperMedianOfSorted(sigma) : 0,
     maxNm: sigma[sigma.length - 1] ?? 0,
   };
 }

@@ -2,7 +2,7 @@
 // centre, and an allowance for a peak that is probably two lines (wider than its clean neighbours, or
 // split from one), whose centre an unlisted neighbour pulls.
 import type { LampPeak } from "./lamp-pairing-types";
-import { upperMedian } from "../statistics/upper-median";
+import { upperMedian, upperMedianOfSorted } from "../statistics/upper-median";
 
 /** Peaks compared for width with this many neighbours on either side. */
 const WIDTH_NEIGHBOURS = 8;
@@ -108,7 +108,7 @@ function withCentreUncertainty(peaks: LampPeak[], blends: boolean): LampPeak[] {
     const widths = neighbours[i];
     if (!(peak.fwhm !== undefined && peak.fwhm > 0) || !widths) return peak;
     // The widths are ascending, so their upper median is the middle one.
-    const floor = CENTRE_FLOOR_FWHM * widths[widths.length >> 1];
+    const floor = CENTRE_FLOOR_FWHM * upperMedianOfSorted(widths);
     const pull = blends ? blendPull(peak, widths) : 0;
     return { ...peak, xUncertainty: Math.hypot(peak.xUncertainty ?? 0, pull, floor) };
   });

@@ -38,8 +38,7 @@ export function claimFromSecondPairs(result: LampPairingResult): LampPairingResu
   const steppedOver = [inside[0], inside[inside.length - 1]];
   const claimed = inside.slice(1, -1);
   return withClaimedRange(
-    result,
-    result.model,
+    { ...result, model: result.model },
     [claimed[0].x, claimed[claimed.length - 1].x],
     claimed.map((p) => p.wavelengthNm),
     `it is claimed from the second pair at each end on ` +

@@ -25,8 +25,7 @@ export function claimSoundEnds(
   if (low <= model.coveredX[0] && high >= model.coveredX[1]) return result;
   const outside = result.pairs.filter((p) => p.x < low || p.x > high);
   return withClaimedRange(
-    result,
-    result.model,
+    { ...result, model: result.model },
     [Math.max(model.coveredX[0], low), Math.min(model.coveredX[1], high)],
     sound.map((p) => p.wavelengthNm),
     `the covered range ends at the outermost pairs whose peaks stand clear ` +

@@ -8,7 +8,7 @@ const MAX_HYPOTHESES = 40_000;
 /** Coarse rival drifts that are searched for a tight consensus of their own. */
 const COARSE_RIVALS = 4;
 
-export interface DriftGridSearchResult {
+interface DriftGridSearchResult {
   /** The best-scoring drift of the grid, with its score. */
   best: GridDrift & { score: number };
   /** The strongest few distinct drifts against the best, scored only by the lines they pair differently. */

@@ -1,5 +1,6 @@
 // How near its predicted place a strong lamp line's peak must stand for the line to count as seen,
-// in matching tolerances (half a resolution element): the expected-lines checks of a blind pairing
-// and of a recalibration ask the same question, whether the lamp shows the lines the calibration puts
-// on the array, not how precisely their centres fall (the other checks judge that).
+// in matching tolerances (half a resolution element). The expected-lines checks of a blind pairing
+// and of a recalibration, and the blind search's count of the strong lines it misses, ask the same
+// question: whether the lamp shows the lines the calibration puts on the array, not how precisely
+// their centres fall (the other checks judge that).
 export const EXPECTED_PEAK_REACH = 1.5;

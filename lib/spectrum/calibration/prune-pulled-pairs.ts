@@ -3,6 +3,7 @@
 // list (a real lamp shows many), its centre pulled by a fraction of a line width; a handful of them
 // bias a cubic by more than a tenth of the resolution at the ends of the covered range, with a small
 // RMS, while the well-centred lines follow the curve to a few hundredths of a pixel.
+import { upperMedianOfSorted } from "../statistics/upper-median";
 import type { DispersionKind } from "../types";
 import { growthDegree } from "./growth-degree";
 import type { LampPair } from "./lamp-pairing-types";
@@ -50,7 +51,7 @@ export function worstOffCurve(
     index: residuals.indexOf(residualX),
     residualX,
     // The upper median of the residuals.
-    robustSigmaX: 1.4826 * sorted[sorted.length >> 1],
+    robustSigmaX: 1.4826 * upperMedianOfSorted(sorted),
   };
 }
 

@@ -9,6 +9,7 @@
 // outward over the whole array (growPairsOutward), and the grown pairings are compared: the best is
 // kept, and the best one that disagrees with it is reported as its rival, so that two pairings that
 // explain the spectrum about equally well are shown to a person rather than decided by chance.
+import { EXPECTED_PEAK_REACH } from "./expected-peak-reach";
 import type { DispersionKind } from "../types";
 import { growPairsOutward, type GrowPairsOutwardInput } from "./grow-pairs-outward";
 import { elementOfSpecies } from "./element-of-species";
@@ -369,7 +370,8 @@ export function searchLampPairing(
       for (const l of strong) {
         if (paired.has(l)) continue;
         const x = model.predictX(lines[l].wavelengthNm);
-        if (Math.abs(usableX[nearestUsable(x)] - x) > 1.5 * toleranceX) missingStrong++;
+        if (Math.abs(usableX[nearestUsable(x)] - x) > EXPECTED_PEAK_REACH * toleranceX)
+          missingStrong++;
       }
     }
     // Right pairs sit within a tenth of a pixel or so of a smooth curve; chance coincidences, which a

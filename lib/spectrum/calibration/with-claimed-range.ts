@@ -1,15 +1,13 @@
 // A trusted pairing whose model claims a narrower covered range than its pairs span, saying why: the
 // claim's steps (claim-sound-ends.ts, claim-from-second-pairs.ts) share it.
-import type { FitCalibrationResult } from "./fit-calibration";
 import type { LampPairingResult } from "./lamp-pairing-types";
 
 /**
- * `result` with `fit`'s model claiming `coveredX`, in wavelength the extent of the claimed pairs'
- * `wavelengths`, and `note` added to its message.
+ * `result` (a trusted one, with its model) claiming `coveredX`, in wavelength the extent of the
+ * claimed pairs' `wavelengths`, and `note` added to its message.
  */
 export function withClaimedRange(
-  result: LampPairingResult,
-  fit: FitCalibrationResult,
+  result: LampPairingResult & { model: NonNullable<LampPairingResult["model"]> },
   coveredX: [number, number],
   wavelengths: readonly number[],
   note: string,
@@ -17,9 +15,9 @@ export function withClaimedRange(
   return {
     ...result,
     model: {
-      ...fit,
+      ...result.model,
       model: {
-        ...fit.model,
+        ...result.model.model,
         coveredX,
         coveredNm: [Math.min(...wavelengths), Math.max(...wavelengths)],
       },

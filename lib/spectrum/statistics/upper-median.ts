@@ -6,3 +6,8 @@ export function upperMedian(values: readonly number[]): number {
   const sorted = values.slice().sort((a, b) => a - b);
   return sorted[sorted.length >> 1];
 }
+
+/** The upper median of values already sorted ascending (no copy, no sort); NaN for none. */
+export function upperMedianOfSorted(sorted: readonly number[]): number {
+  return sorted.length === 0 ? Number.NaN : sorted[sorted.length >> 1];
+}

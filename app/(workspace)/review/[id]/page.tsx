@@ -31,6 +31,7 @@ import { countOf } from "@/lib/text/count-of";
 import { analysisSettingRows } from "@/components/runs/analysis-settings";
 import { Fragment } from "react";
 import { TableScroll } from "@/components/ui/table-scroll";
+import { presentSpecies } from "@/lib/runs/standing-verdicts";
 
 export const metadata = { title: "Review a run" };
 
@@ -48,9 +49,7 @@ export default async function ReviewRunPage({ params }: { params: Promise<{ id: 
     orNotFound(fetchRunSeries(actor, run.id)),
   ]);
   const labels = runChartLabels(run.calls);
-  const present = Object.entries(run.verdicts)
-    .filter(([, v]) => v === "present")
-    .map(([s]) => s);
+  const present = presentSpecies(run.verdicts);
   const pairs: PairMark[] = calibration
     ? [
         ...calibration.pairs.map((p) => ({ ...p, used: true })),
