@@ -212,7 +212,8 @@ export function CalibrationWorkbench({
             </select>
             <p id="workbench-model-hint" className="muted text-xs">
               A grating is close to linear in pixel; a prism is better described by the Hartmann
-              formula or its glass.
+              formula or its glass (from the catalogue, or fitted from the pairs when the instrument
+              names none).
             </p>
             <div
               id="workbench-model-error"

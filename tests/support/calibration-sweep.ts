@@ -156,44 +156,58 @@ export function sweepOne(
   }
 }
 
+/**
+ * Yesterday's calibration of `lamp`, as checked then: of the model families, the one closest to the
+ * first recording's true axis (a quintic misses a prism's blue end by many resolutions; the physical
+ * prism model does not). `fitGlass: false` keeps a prism to the catalogue's glasses (a calibration
+ * made without fitting the glass's terms, loose when the instrument's glass is not in the catalogue).
+ */
+export function previousCalibrationOf(
+  lamp: RealisticLamp,
+  { fitGlass }: { fitGlass?: boolean } = {},
+): CalibrationModel {
+  const last = lamp.x.length - 1;
+  const truthPairs = Array.from({ length: 41 }, (_, i) => ({
+    x: (last * i) / 40,
+    wavelengthNm: lamp.wavelengthAt((last * i) / 40),
+  }));
+  const families: FitCalibrationOptions[] =
+    lamp.dispersion === "prism"
+      ? [
+          { model: "prism", fitGlass: false },
+          ...(fitGlass === false ? [] : [{ model: "prism", fitGlass: true } as const]),
+          { model: "hartmann" },
+          { model: "polynomial", degree: 5 },
+        ]
+      : [{ model: "polynomial", degree: 5 }];
+  const grid = Float64Array.from({ length: 401 }, (_, i) => (last * i) / 400);
+  let previous: CalibrationModel | undefined;
+  let previousError = Infinity;
+  for (const family of families) {
+    try {
+      const model = fitCalibration(truthPairs, {
+        ...family,
+        domain: [0, last],
+        rejectOutliers: false,
+      }).model;
+      const calibrated = evaluateCalibration(model, grid);
+      const error = Math.max(...grid.map((x, i) => Math.abs(calibrated[i] - lamp.wavelengthAt(x))));
+      if (error < previousError) [previous, previousError] = [model, error];
+    } catch {
+      // A family that cannot fit this axis is simply not yesterday's calibration.
+    }
+  }
+  if (!previous) throw new Error(`no model fits the true axis of instrument ${lamp.seed}`);
+  return previous;
+}
+
 /** Instruments seed, seed+1, …, seed+n−1. */
 export function runSweep(options: SweepOptions): SweepRecord[] {
   const records: SweepRecord[] = [];
   for (let k = 0; k < options.n; k++) {
     const lamp = realisticLamp(options.seed + k, options.lamp);
     if (options.withPrevious) {
-      // Yesterday's calibration, as checked then: of the model families, the one closest to the first
-      // recording's true axis (a quintic misses a prism's blue end by many resolutions; the physical
-      // prism model does not).
-      const last = lamp.x.length - 1;
-      const truthPairs = Array.from({ length: 41 }, (_, i) => ({
-        x: (last * i) / 40,
-        wavelengthNm: lamp.wavelengthAt((last * i) / 40),
-      }));
-      const families: FitCalibrationOptions[] =
-        lamp.dispersion === "prism"
-          ? [{ model: "prism" }, { model: "hartmann" }, { model: "polynomial", degree: 5 }]
-          : [{ model: "polynomial", degree: 5 }];
-      const grid = Float64Array.from({ length: 401 }, (_, i) => (last * i) / 400);
-      let previous: CalibrationModel | undefined;
-      let previousError = Infinity;
-      for (const family of families) {
-        try {
-          const model = fitCalibration(truthPairs, {
-            ...family,
-            domain: [0, last],
-            rejectOutliers: false,
-          }).model;
-          const calibrated = evaluateCalibration(model, grid);
-          const error = Math.max(
-            ...grid.map((x, i) => Math.abs(calibrated[i] - lamp.wavelengthAt(x))),
-          );
-          if (error < previousError) [previous, previousError] = [model, error];
-        } catch {
-          // A family that cannot fit this axis is simply not yesterday's calibration.
-        }
-      }
-      if (!previous) throw new Error(`no model fits the true axis of instrument ${lamp.seed}`);
+      const previous = previousCalibrationOf(lamp);
       const again = lamp.rerecord(options.seed + k + 100_000);
       records.push(sweepOne(again, { ...options.calibrate, previous }));
     } else {

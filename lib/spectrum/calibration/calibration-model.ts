@@ -66,7 +66,8 @@ export interface HartmannCalibrationModel extends CalibrationModelBase {
  * x = axisX + direction·f·(tan(δ(λref) − δ(λ) + φ) − tan φ), so axisX is where the ray of
  * `referenceWavelengthNm` lands.
  * parameters = [θ₁ (rad), f (x units), axisX (x units)], then the apex angle (rad) when `apexFitted`,
- * then φ (rad) when `axisAngleFitted`; without φ the camera is centred on the reference ray (φ = 0).
+ * then φ (rad) when `axisAngleFitted`; without φ the camera is centred on the reference ray (φ = 0);
+ * then, when `glassFitted`, the glass's Sellmeier terms B₁, C₁ (µm²) and B₃ (fitted-glass.ts).
  */
 export interface PrismCalibrationModel extends CalibrationModelBase {
   kind: "prism";
@@ -80,6 +81,12 @@ export interface PrismCalibrationModel extends CalibrationModelBase {
    * calibration by tenths of a nm at the ends of a wide range. Absent (models stored before it): φ = 0.
    */
   axisAngleFitted?: boolean;
+  /**
+   * True when the glass's index comes from Sellmeier terms fitted with the geometry (the last three
+   * parameters) rather than from the catalogue: a glass the catalogue does not hold. `glass` then names
+   * the catalogue glass the fit started from. Absent: the catalogue glass `glass`.
+   */
+  glassFitted?: boolean;
   /** +1 when wavelength grows with x, −1 when it falls. */
   direction: 1 | -1;
   /**

@@ -2,7 +2,11 @@
 // it extrapolates before choosing; recommends a default per kind of dispersion.
 import type { CalibrationPair, DispersionKind } from "../types";
 import { CalibrationError } from "./calibration-error";
-import type { CalibrationModel, CalibrationModelKind } from "./calibration-model";
+import type {
+  CalibrationModel,
+  CalibrationModelKind,
+  PrismCalibrationModel,
+} from "./calibration-model";
 import { calibrationUncertainty } from "./calibration-uncertainty";
 import { fitCalibration, parameterCount, type FitCalibrationOptions } from "./fit-calibration";
 import { informationCriteria } from "./information-criteria";
@@ -33,7 +37,7 @@ export interface CalibrationCandidate {
   kind: CalibrationModelKind;
   /** Polynomial degree, for polynomials. */
   degree?: number;
-  /** Catalogue glass, for the prism model. */
+  /** Catalogue glass, or the fitted glass and the catalogue glass it started from, for the prism model. */
   glass?: string;
   parameterCount: number;
   /** Present when the fit succeeded. */
@@ -99,13 +103,16 @@ export function compareCalibrationModels(
         model: plan.kind,
         degree: plan.degree,
       });
-      const criteria = informationCriteria(fit.model.chiSquare, fit.model.pairCount, k);
+      // A prism fitted with its own glass terms has more parameters than the plan's catalogue glass.
+      const fittedK = fit.model.parameters.length;
+      const criteria = informationCriteria(fit.model.chiSquare, fit.model.pairCount, fittedK);
       const endX = new Float64Array(domain);
       const wavelengths = modelEvaluation(fit.model, endX).wavelengthNm;
       const uncertainties = calibrationUncertainty(fit.model, endX);
       Object.assign(candidate, {
         model: fit.model,
-        glass: fit.model.kind === "prism" ? fit.model.glass : undefined,
+        parameterCount: fittedK,
+        glass: fit.model.kind === "prism" ? glassLabel(fit.model) : undefined,
         rmsNm: fit.rmsNm,
         dof: fit.dof,
         aicc: criteria.aicc,
@@ -151,4 +158,9 @@ export function compareCalibrationModels(
         : "prism-shaped model (prism: Hartmann or the physical prism)") +
       (pool.length === 0 ? "; no model of the preferred kind fitted, so all were considered" : ""),
   };
+}
+
+/** A prism model's glass in words: the catalogue's name, or its fitted terms and where they started. */
+function glassLabel(model: PrismCalibrationModel): string {
+  return model.glassFitted ? `fitted from the pairs (started from ${model.glass})` : model.glass;
 }

@@ -11,6 +11,9 @@ import { fitForwardPrism } from "./fit-forward-prism";
 import { modelBase, type CovarianceScaling, type ModelFitInput } from "./model-fit-input";
 import { cameraTangent, prismDeviationRad } from "./prism-forward";
 import { refractiveIndex } from "./refractive-index";
+import { refractiveIndexOrNaN } from "./refractive-index-or-nan";
+import { fitGlassTerms } from "./fit-glass-terms";
+import { FITTED_GLASS_PARAMETERS, fittedGlassCoefficients, fittedGlassStart } from "./fitted-glass";
 
 const DEG = Math.PI / 180;
 
@@ -20,6 +23,8 @@ export interface PrismFitSettings {
   fitApex: boolean;
   /** Fit the camera axis angle φ (see PrismCalibrationModel). */
   fitAxisAngle: boolean;
+  /** Fit the glass's Sellmeier terms too, starting from `glass` (fitted-glass.ts). @default false */
+  fitGlass?: boolean;
   scaling: CovarianceScaling;
 }
 
@@ -34,6 +39,8 @@ export function fitPrismModel(
   const referenceNm = (low + high) / 2;
   const apexRad = settings.apexDeg * DEG;
   const { fitApex, fitAxisAngle } = settings;
+  const fitGlass = settings.fitGlass ?? false;
+  if (fitApex && fitGlass) throw new RangeError("fitApex and fitGlass are exclusive");
   const apexIndex = 3;
   const axisAngleIndex = fitApex ? 4 : 3;
 
@@ -55,20 +62,64 @@ export function fitPrismModel(
       `${settings.glass}: no prism geometry passes all the pairs' wavelengths`,
     );
   }
-  const direction: 1 | -1 = startSlope > 0 ? 1 : -1;
-  const initial = [startIncidence, Math.abs(startSlope), startAxis];
+  let direction: 1 | -1 = startSlope > 0 ? 1 : -1;
+  let initial = [startIncidence, Math.abs(startSlope), startAxis];
   if (fitApex) initial.push(apexRad);
   if (fitAxisAngle) initial.push(startAxisAngle);
+  const glassIndex = initial.length;
+  if (fitGlass) {
+    // The glass's terms start at the catalogue glass's likeness and are fitted with the angles; the
+    // camera's scale and position follow them.
+    const glassFit = fitGlassTerms(
+      x,
+      wavelengthNm,
+      xUncertainty,
+      { apexRad, referenceNm, fitAxisAngle },
+      {
+        incidenceRad: startIncidence,
+        axisAngleRad: startAxisAngle ?? 0,
+        terms: fittedGlassStart(settings.glass, [low, high]),
+      },
+    );
+    if (!glassFit) {
+      throw new CalibrationError(
+        "fit-failed",
+        `a glass fitted from ${settings.glass}: no prism geometry passes all the pairs' wavelengths`,
+      );
+    }
+    const [incidence, slope, axis, ...rest] = glassFit.parameters;
+    direction = slope > 0 ? 1 : -1;
+    initial = [incidence, Math.abs(slope), axis, ...rest];
+  }
 
-  const nReference = refractiveIndex(settings.glass, referenceNm);
-  // n(λ) of every pair is fixed during the fit: computing the Sellmeier sums once leaves only Snell's
-  // law per evaluation, and focalX and axisX enter linearly (analytic derivatives).
-  const nOfPair = wavelengthNm.map((lambda) => refractiveIndex(settings.glass, lambda));
+  // n(λ) of every pair is fixed during the fit of a catalogue glass: computing the Sellmeier sums once
+  // leaves only Snell's law per evaluation, and focalX and axisX enter linearly (analytic derivatives).
+  // A fitted glass's indices are worked out once per trial parameter vector.
+  const catalogueIndices = {
+    terms: [] as number[],
+    reference: refractiveIndex(settings.glass, referenceNm),
+    ofPair: wavelengthNm.map((lambda) => refractiveIndex(settings.glass, lambda)),
+  };
+  let fittedIndices = catalogueIndices;
+  const indicesAt = (parameters: number[]) => {
+    if (!fitGlass) return catalogueIndices;
+    const terms = parameters.slice(glassIndex, glassIndex + 3);
+    if (terms.some((value, k) => value !== fittedIndices.terms[k])) {
+      const glass = fittedGlassCoefficients(terms);
+      fittedIndices = {
+        terms,
+        reference: refractiveIndexOrNaN(glass, referenceNm),
+        ofPair: wavelengthNm.map((lambda) => refractiveIndexOrNaN(glass, lambda)),
+      };
+    }
+    return fittedIndices;
+  };
   const tangentAt = (parameters: number[], i: number) => {
     const apex = fitApex ? parameters[apexIndex] : apexRad;
+    const indices = indicesAt(parameters);
     const angle =
-      prismDeviationRad(nReference, parameters[0], apex) -
-      prismDeviationRad(nOfPair[i], parameters[0], apex);
+      prismDeviationRad(indices.reference, parameters[0], apex) -
+      prismDeviationRad(indices.ofPair[i], parameters[0], apex);
     return cameraTangent(angle, fitAxisAngle ? parameters[axisAngleIndex] : 0);
   };
   const forward = (parameters: number[], i: number) =>
@@ -136,12 +187,14 @@ export function fitPrismModel(
   const parameterNames = ["incidenceRad", "focalX", "axisX"];
   if (fitApex) parameterNames.push("apexRad");
   if (fitAxisAngle) parameterNames.push("axisAngleRad");
+  if (fitGlass) parameterNames.push(...FITTED_GLASS_PARAMETERS);
   const model: PrismCalibrationModel = {
     kind: "prism",
     glass: settings.glass,
     apexDeg: fitApex ? parameters[apexIndex] / DEG : settings.apexDeg,
     apexFitted: fitApex,
     ...(fitAxisAngle ? { axisAngleFitted: true } : {}),
+    ...(fitGlass ? { glassFitted: true } : {}),
     direction,
     referenceWavelengthNm: referenceNm,
     ...modelBase(

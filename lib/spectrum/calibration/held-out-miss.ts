@@ -28,6 +28,7 @@ function sameShape(model: CalibrationModel): FitCalibrationOptions {
   return {
     model: "prism",
     glass: model.glass,
+    fitGlass: model.glassFitted ?? false,
     apexDeg: model.apexDeg,
     fitApex: model.apexFitted,
     fitAxisAngle: model.axisAngleFitted ?? false,

@@ -2,6 +2,7 @@
 // Jacobian ∂λ/∂parameters that the uncertainty and the fits need. Shared by the public evaluators.
 import { CalibrationError } from "./calibration-error";
 import type { CalibrationModel, PrismCalibrationModel } from "./calibration-model";
+import { fittedGlassCoefficients } from "./fitted-glass";
 import {
   prismForward,
   prismForwardX,
@@ -32,6 +33,9 @@ export function prismGeometryOf(
     direction: model.direction,
     referenceWavelengthNm: model.referenceWavelengthNm,
     axisAngleRad: model.axisAngleFitted ? parameters[model.apexFitted ? 4 : 3] : 0,
+    ...(model.glassFitted
+      ? { sellmeier: fittedGlassCoefficients(parameters.slice(parameters.length - 3)) }
+      : {}),
   };
 }
 

@@ -4,11 +4,13 @@
 // found on a bracket by Newton steps safeguarded with bisection, which always converges because x(λ)
 // is monotonic wherever the fit is accepted.
 import { refractiveIndexOrNaN } from "./refractive-index-or-nan";
-import { GLASS_CATALOGUE, type GlassName } from "./glass-catalogue";
+import { GLASS_CATALOGUE, type GlassName, type SellmeierGlass } from "./glass-catalogue";
 
 /** Geometry of a prism spectrometer in the units the calibration fits it in. */
 export interface PrismGeometry {
   glass: GlassName;
+  /** The glass's index from these coefficients instead of the catalogue's (a glass fitted from the pairs). */
+  sellmeier?: SellmeierGlass;
   /** Angle of incidence on the first face, rad. */
   incidenceRad: number;
   /** Apex (refracting) angle, rad. */
@@ -60,7 +62,7 @@ export function prismDeviationRad(
  * out once: the inverse and the pairing's straightened axes ask it about thousands of wavelengths.
  */
 export function prismForward(geometry: PrismGeometry): (wavelengthNm: number) => number {
-  const coefficients = GLASS_CATALOGUE[geometry.glass];
+  const coefficients = geometry.sellmeier ?? GLASS_CATALOGUE[geometry.glass];
   if (!coefficients) return () => Number.NaN;
   const nRef = refractiveIndexOrNaN(coefficients, geometry.referenceWavelengthNm);
   if (Number.isNaN(nRef)) return () => Number.NaN;

@@ -120,7 +120,11 @@ function previousFamily(
     model: "polynomial",
     degree: previous.kind === "polynomial" ? Math.min(previous.degree, highest) : highest,
   };
-  if (previous.kind === "prism") return [{ model: "prism", glass: previous.glass }, polynomial];
+  if (previous.kind === "prism")
+    return [
+      { model: "prism", glass: previous.glass, fitGlass: previous.glassFitted ?? false },
+      polynomial,
+    ];
   if (previous.kind === "hartmann") return [{ model: "hartmann" }, polynomial];
   return [polynomial];
 }
@@ -271,6 +275,7 @@ function finishPrismPairing(context: PairingContext, refined: RefinedPairing): L
         ? fitCalibration(pairs, {
             model: "prism",
             glass: prism.model.glass,
+            fitGlass: prism.model.glassFitted ?? false,
             domain: context.domain,
             rejectOutliers,
           })

@@ -47,7 +47,8 @@ export interface TrimmedEnds {
 /** The fit options that refit `model`'s own family to fewer pairs. */
 function familyOf(model: CalibrationModel): FitCalibrationOptions {
   if (model.kind === "polynomial") return { model: "polynomial", degree: model.degree };
-  if (model.kind === "prism") return { model: "prism", glass: model.glass };
+  if (model.kind === "prism")
+    return { model: "prism", glass: model.glass, fitGlass: model.glassFitted ?? false };
   return { model: model.kind };
 }
 

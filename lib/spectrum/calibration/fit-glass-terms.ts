@@ -1,0 +1,158 @@
+// The prism model with the glass's Sellmeier terms fitted (fitted-glass.ts): x = a + b·(tan(δref − δ(λ)
+// + φ) − tan φ) with n(λ) from [B₁, C₁, B₃]. The camera's scale b and position a enter linearly and
+// are projected out (variable projection, Golub & Pereyra 1973, cited from memory), which leaves the
+// incidence, the axis angle and the three glass terms to a Levenberg–Marquardt search with Marquardt's
+// diagonal scaling; its Jacobian is a central difference of the projected residuals. A search over
+// all seven parameters crawls along the valley that the index level, the incidence and the scale make
+// together, and a general-purpose solver did not leave its start on the sweep's prisms.
+import { Matrix, solve } from "ml-matrix";
+import { fittedGlassCoefficients } from "./fitted-glass";
+import { cameraTangent, prismDeviationRad } from "./prism-forward";
+import { refractiveIndexOrNaN } from "./refractive-index-or-nan";
+import { lineProjection } from "./weighted-line";
+
+export interface GlassTermsStart {
+  incidenceRad: number;
+  axisAngleRad: number;
+  /** [B₁, C₁ (µm²), B₃]. */
+  terms: readonly number[];
+}
+
+export interface GlassTermsFit {
+  /** [incidence, b, a, (φ,) B₁, C₁, B₃], b signed by the axis direction. */
+  parameters: number[];
+  chiSquare: number;
+}
+
+/** The camera line's coefficients (x ≈ alpha + beta·u), the residuals with its span removed, and χ². */
+interface Projected {
+  alpha: number;
+  beta: number;
+  rest: number[];
+  chiSquare: number;
+}
+
+/** Bounds of the glass terms: the ultraviolet resonance below the bluest pair, strengths physical. */
+function termsInside([b1, c1, b3]: readonly number[], bluestNm: number): boolean {
+  return (
+    b1 > 1e-3 && b1 < 10 && c1 > 1e-5 && c1 < 0.9 * (bluestNm / 1000) ** 2 && b3 >= 0 && b3 < 30
+  );
+}
+
+/**
+ * Fits the geometry and glass terms from `start` to the pairs (x, λ, σx) with the apex fixed; null
+ * when no step from the start passes every ray.
+ */
+export function fitGlassTerms(
+  x: readonly number[],
+  wavelengthNm: readonly number[],
+  sigmaX: readonly number[],
+  settings: { apexRad: number; referenceNm: number; fitAxisAngle: boolean },
+  start: GlassTermsStart,
+): GlassTermsFit | null {
+  const { apexRad, referenceNm, fitAxisAngle } = settings;
+  const bluestNm = Math.min(...wavelengthNm);
+  const w = sigmaX.map((s) => 1 / s);
+  const whitenedX = x.map((value, i) => value * w[i]);
+  // q = [incidence, (φ,) B₁, C₁, B₃]
+  const unpack = (q: readonly number[]) => ({
+    incidence: q[0],
+    axisAngle: fitAxisAngle ? q[1] : 0,
+    terms: q.slice(fitAxisAngle ? 2 : 1),
+  });
+  const inside = (q: readonly number[]) => {
+    const { incidence, axisAngle, terms } = unpack(q);
+    return (
+      incidence > 1e-3 &&
+      incidence < Math.PI / 2 - 1e-3 &&
+      Math.abs(axisAngle) < 0.5 &&
+      termsInside(terms, bluestNm)
+    );
+  };
+  /** The projected residuals at q, the line's coefficients and χ²; null where a ray is lost. */
+  const projected = (q: readonly number[]): Projected | null => {
+    const { incidence, axisAngle, terms } = unpack(q);
+    const glass = fittedGlassCoefficients(terms);
+    const sinIncidence = Math.sin(incidence);
+    const reference = prismDeviationRad(
+      refractiveIndexOrNaN(glass, referenceNm),
+      incidence,
+      apexRad,
+      sinIncidence,
+    );
+    const u = wavelengthNm.map((lambda) =>
+      cameraTangent(
+        reference -
+          prismDeviationRad(refractiveIndexOrNaN(glass, lambda), incidence, apexRad, sinIncidence),
+        axisAngle,
+      ),
+    );
+    if (!u.every(Number.isFinite)) return null;
+    const { determinant, project } = lineProjection(w, u);
+    if (!(determinant > 0)) return null;
+    const line = project(whitenedX);
+    const chiSquare = line.rest.reduce((sum, r) => sum + r * r, 0);
+    return Number.isFinite(chiSquare) ? { ...line, chiSquare } : null;
+  };
+  let q = [
+    start.incidenceRad,
+    ...(fitAxisAngle ? [start.axisAngleRad] : []),
+    ...start.terms.slice(0, 3),
+  ];
+  const first = inside(q) ? projected(q) : null;
+  if (!first) return null;
+  let current: Projected = first;
+  let damping = 1e-3;
+  let converged = false;
+  for (let iteration = 0; iteration < 200 && !converged && damping < 1e12; iteration++) {
+    const point = current;
+    // Jacobian of the projected residuals, by central differences (a lost ray: no slope there).
+    const columns = q.map((value, k) => {
+      const h = 1e-6 * Math.max(Math.abs(value), 1e-3);
+      const above = projected(q.map((v, j) => (j === k ? v + h : v)));
+      const below = projected(q.map((v, j) => (j === k ? v - h : v)));
+      return above && below
+        ? above.rest.map((r, i) => (r - below.rest[i]) / (2 * h))
+        : point.rest.map(() => 0);
+    });
+    const dot = (a: number[], b: readonly number[]) => a.reduce((s, v, i) => s + v * b[i], 0);
+    const normal = columns.map((a) => columns.map((b) => dot(a, b)));
+    const gradient = columns.map((a) => dot(a, point.rest));
+    // Marquardt's scaling: each parameter damped by its own curvature (floored where a term has none).
+    const floor = 1e-12 * Math.max(...normal.map((row, j) => row[j]));
+    let accepted = false;
+    while (!accepted && damping < 1e12) {
+      const damped = normal.map((row, j) =>
+        row.map((value, k) => (j === k ? value + damping * Math.max(value, floor) : value)),
+      );
+      let step: number[] | null = null;
+      try {
+        step = solve(new Matrix(damped), Matrix.columnVector(gradient)).to1DArray();
+      } catch {
+        // A singular damped system: more damping.
+      }
+      const trialQ = step ? q.map((value, k) => value - step[k]) : null;
+      const trial = trialQ && inside(trialQ) ? projected(trialQ) : null;
+      if (trialQ && trial && trial.chiSquare < point.chiSquare) {
+        converged = point.chiSquare - trial.chiSquare <= 1e-12 * point.chiSquare + 1e-14;
+        q = trialQ;
+        current = trial;
+        damping = Math.max(damping / 10, 1e-12);
+        accepted = true;
+      } else {
+        damping *= 10;
+      }
+    }
+  }
+  const { incidence, axisAngle, terms } = unpack(q);
+  return {
+    parameters: [
+      incidence,
+      current.beta,
+      current.alpha,
+      ...(fitAxisAngle ? [axisAngle] : []),
+      ...terms,
+    ],
+    chiSquare: current.chiSquare,
+  };
+}
