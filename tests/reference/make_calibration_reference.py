@@ -146,6 +146,70 @@ for i in range(len(lone_x)):
         lone_grid_slope)
     lone_shifts.append(float(shift[inside].max()))
 
+# A prism of a glass outside the catalogue (N-LASF9: SCHOTT's published Sellmeier coefficients, from
+# memory), 60° apex at minimum deviation for 600 nm, a camera on the tangent law with its axis 0.05 rad
+# off the reference ray; pairs at lamp-like wavelengths with a fixed residual pattern. SciPy's
+# least_squares fits the prism model whose glass is one ultraviolet resonance and an infrared strength
+# at a fixed 100 µm² (fitted-glass.ts), from several starts, to the least-squares minimum.
+from scipy.optimize import brentq, least_squares
+
+APEX = np.pi / 3
+LASF9_B = [2.00029547, 0.298926886, 1.80691843]
+LASF9_C = [0.0121426017, 0.0538736236, 156.530829]
+
+
+def sellmeier(nm, b, c):
+    l2 = (nm / 1000.0) ** 2
+    return np.sqrt(1 + sum(bi * l2 / (l2 - ci) for bi, ci in zip(b, c)))
+
+
+def deviation(n, incidence):
+    inside = np.arcsin(np.sin(incidence) / n)
+    return incidence + np.arcsin(n * np.sin(APEX - inside)) - APEX
+
+
+glass_nm = np.array([404.656, 435.833, 467.123, 501.568, 546.074, 587.562, 640.225, 667.728,
+                     706.722, 750.387, 794.818, 842.465, 871.6, 912.297])
+glass_reference_nm = (glass_nm.min() + glass_nm.max()) / 2
+true_incidence = np.arcsin(sellmeier(600.0, LASF9_B, LASF9_C) * np.sin(APEX / 2))
+true_n_ref = sellmeier(glass_reference_nm, LASF9_B, LASF9_C)
+
+
+def camera(nm, incidence, b, a, phi, n_of, n_ref):
+    angle = deviation(n_ref, incidence) - deviation(n_of(nm), incidence)
+    return a + b * (np.tan(angle + phi) - np.tan(phi))
+
+
+glass_x = camera(glass_nm, true_incidence, 9000.0, 1700.0, 0.05,
+                 lambda nm: sellmeier(nm, LASF9_B, LASF9_C), true_n_ref)
+glass_x = glass_x + 0.02 * np.sin(5.1 * np.arange(len(glass_nm)) + 0.7)
+glass_sigma = np.full(len(glass_nm), 0.03)
+
+
+def fitted_glass_x(p, nm):
+    incidence, b, a, phi, b1, c1, b3 = p
+    terms = ([b1, b3], [c1, 100.0])
+    return camera(nm, incidence, b, a, phi, lambda w: sellmeier(w, *terms),
+                  sellmeier(glass_reference_nm, *terms))
+
+
+best_glass = None
+for b1, c1, b3 in [(2.05, 0.0207, 1.22), (2.3, 0.02, 1.4), (1.9, 0.025, 1.0)]:
+    for incidence in (true_incidence - 0.05, true_incidence, true_incidence + 0.05):
+        for phi in (0.0, 0.1):
+            start = [incidence, 9000.0, 1700.0, phi, b1, c1, b3]
+            try:
+                fit = least_squares(lambda p: (fitted_glass_x(p, glass_nm) - glass_x) / glass_sigma,
+                                    start, x_scale="jac", xtol=1e-15, ftol=1e-15, gtol=1e-15,
+                                    max_nfev=20000)
+            except ValueError:
+                continue
+            if np.all(np.isfinite(fit.fun)) and (best_glass is None or fit.cost < best_glass.cost):
+                best_glass = fit
+glass_eval_x = np.linspace(glass_x.min(), glass_x.max(), 9)
+glass_eval_nm = [brentq(lambda nm: fitted_glass_x(best_glass.x, np.array([nm]))[0] - x,
+                        glass_nm.min() - 1, glass_nm.max() + 1, xtol=1e-12) for x in glass_eval_x]
+
 result = {
     "generator": "tests/reference/make_calibration_reference.py",
     "numpyVersion": np.__version__,
@@ -184,6 +248,15 @@ result = {
         "centreFloorX": HELD_FLOOR_X,
         "pulledIndex": HELD_PULLED,
         "sigmas": held_sigmas,
+    },
+    "fittedGlassPrism": {
+        "apexDeg": 60,
+        "x": glass_x.tolist(),
+        "wavelengthNm": glass_nm.tolist(),
+        "xUncertainty": glass_sigma.tolist(),
+        "chiSquare": float(2 * best_glass.cost),
+        "evalX": glass_eval_x.tolist(),
+        "evalNm": glass_eval_nm,
     },
     "pairInfluence": {
         "x": lone_x.tolist(),
