@@ -165,13 +165,14 @@ function fitOnce(
     Math.max(...input.wavelengthNm),
   ];
   if (options.glass) assertGlassValidOver(options.glass, pairRange);
-  const glasses =
-    options.glass && options.fitGlass === true
-      ? []
-      : options.glass
-        ? [options.glass]
-        : glassesValidOver(pairRange, GLASS_NAMES);
-  if (glasses.length === 0 && !(options.glass && options.fitGlass === true)) {
+  // A named glass whose terms are to be fitted is only the fit's start: no catalogue fit is needed.
+  const onlyFitted = options.glass !== undefined && options.fitGlass === true;
+  const glasses = onlyFitted
+    ? []
+    : options.glass
+      ? [options.glass]
+      : glassesValidOver(pairRange, GLASS_NAMES);
+  if (glasses.length === 0 && !onlyFitted) {
     throw new CalibrationError(
       "fit-failed",
       `no catalogue glass is described over ${pairRange[0].toFixed(1)}–${pairRange[1].toFixed(1)} nm; the glass-free Hartmann model can be fitted instead`,

@@ -1,8 +1,10 @@
 // A prism of a glass the catalogue does not hold: the prism model with the glass's Sellmeier terms
 // fitted from the pairs (fitted-glass.ts, fit-glass-terms.ts) follows it where the best catalogue
 // glass cannot, and stays out of the way of a catalogue glass.
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import {
+  CalibrationError,
   calibrationUncertainty,
   evaluateCalibration,
   fitCalibration,
@@ -101,5 +103,29 @@ describe("a prism glass fitted from the pairs", () => {
     expect(() =>
       fitCalibration(pairs, { model: "prism", domain: [0, last], fitGlass: true, fitApex: true }),
     ).toThrow(/cannot both be fitted/);
+  });
+
+  it("meets any pairs with a model of finite parameters or a typed error", () => {
+    const pair = fc.record({
+      x: fc.double({ min: 0, max: 2047, noNaN: true }),
+      wavelengthNm: fc.double({ min: 300, max: 1000, noNaN: true }),
+      xUncertainty: fc.double({ min: 0.01, max: 3, noNaN: true }),
+    });
+    fc.assert(
+      fc.property(fc.array(pair, { minLength: 9, maxLength: 18 }), (pairs) => {
+        try {
+          const { model } = fitCalibration(pairs, {
+            model: "prism",
+            domain: [0, 2047],
+            fitGlass: true,
+            rejectOutliers: false,
+          });
+          expect(model.parameters.every(Number.isFinite)).toBe(true);
+        } catch (error) {
+          expect(error instanceof CalibrationError || error instanceof RangeError).toBe(true);
+        }
+      }),
+      { numRuns: 60, seed: 20261205 },
+    );
   });
 });
