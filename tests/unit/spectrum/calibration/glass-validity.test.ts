@@ -72,12 +72,11 @@ describe("prisms outside the usual range and glass", () => {
     expect(probeErrorRatio(lamp, result.fit!.model).ratio).toBeLessThanOrEqual(1);
   }, 60_000);
 
-  it("calibrates a prism of a glass not in the catalogue (N-LASF9), at worst asking for a check, never silently wrong", () => {
+  it("calibrates a prism of a glass not in the catalogue (N-LASF9)", () => {
     const { lamp, result } = calibratedPrism(2, "N-LASF9", [400, 850], ["Ne", "Ar"]);
-    // The issue's target is "paired" here; today the model-agreement check still asks for a check (0.5 px apart).
-    expect(["paired", "check"]).toContain(result.pairing.status);
-    const model = result.fit?.model ?? result.pairing.candidate?.model;
-    expect(model).toBeDefined();
-    expect(probeErrorRatio(lamp, model!).ratio).toBeLessThanOrEqual(1);
+    // Its 36 pairs are within their σ of the nearest catalogue glass (N-SF11) here, so that glass is
+    // kept; a glass the catalogue misses beyond the pairs' σ gets its terms fitted (fitted-glass.test.ts).
+    expect(result.pairing.status).toBe("paired");
+    expect(probeErrorRatio(lamp, result.fit!.model).ratio).toBeLessThanOrEqual(1);
   }, 60_000);
 });
