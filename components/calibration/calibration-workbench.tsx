@@ -212,8 +212,8 @@ export function CalibrationWorkbench({
             </select>
             <p id="workbench-model-hint" className="muted text-xs">
               A grating is close to linear in pixel; a prism is better described by the Hartmann
-              formula or its glass (from the catalogue, or fitted from the pairs when the instrument
-              names none).
+              formula or its glass (from the catalogue; when the instrument names none and no
+              catalogue glass fits the pairs, fitted from them).
             </p>
             <div
               id="workbench-model-error"

@@ -58,7 +58,11 @@ export function ModelComparison({
             const notes = [
               c.model === comparison.recommended ? "recommended" : null,
               c.model === chosenModel ? "in use" : null,
-              c.glass ? `glass ${c.glass}` : null,
+              c.glass
+                ? c.glassFitted
+                  ? `glass fitted from the pairs (started from ${c.glass})`
+                  : `glass ${c.glass}`
+                : null,
               c.failure,
             ].filter(Boolean);
             return (

@@ -68,6 +68,8 @@ export interface WorkbenchModelRow {
   /** λ ± 1σ at the array's first and last pixel: how the model extrapolates. */
   ends: { pixel: number; wavelengthNm: number; uncertaintyNm: number }[] | null;
   glass: string | null;
+  /** True when the prism's glass terms were fitted from the pairs, starting from `glass`. */
+  glassFitted: boolean;
   /** Why it could not be fitted. */
   failure: string | null;
 }

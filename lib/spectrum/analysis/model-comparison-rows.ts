@@ -32,6 +32,7 @@ export function modelComparisonRows(
         bic: null,
         ends: null,
         glass: null,
+        glassFitted: false,
         failure: `needs more than the ${pairs.length} pairs in the fit`,
       };
     }
@@ -49,6 +50,7 @@ export function modelComparisonRows(
           }))
         : null,
       glass: c.glass ?? null,
+      glassFitted: c.glassFitted ?? false,
       failure: c.failure ? c.failure.message : null,
     };
   });

@@ -2,11 +2,7 @@
 // it extrapolates before choosing; recommends a default per kind of dispersion.
 import type { CalibrationPair, DispersionKind } from "../types";
 import { CalibrationError } from "./calibration-error";
-import type {
-  CalibrationModel,
-  CalibrationModelKind,
-  PrismCalibrationModel,
-} from "./calibration-model";
+import type { CalibrationModel, CalibrationModelKind } from "./calibration-model";
 import { calibrationUncertainty } from "./calibration-uncertainty";
 import { fitCalibration, parameterCount, type FitCalibrationOptions } from "./fit-calibration";
 import { informationCriteria } from "./information-criteria";
@@ -37,8 +33,10 @@ export interface CalibrationCandidate {
   kind: CalibrationModelKind;
   /** Polynomial degree, for polynomials. */
   degree?: number;
-  /** Catalogue glass, or the fitted glass and the catalogue glass it started from, for the prism model. */
+  /** Catalogue glass, for the prism model (with `glassFitted`, the one its fitted glass started from). */
   glass?: string;
+  /** True when the prism model's glass terms were fitted from the pairs (fitted-glass.ts). */
+  glassFitted?: boolean;
   parameterCount: number;
   /** Present when the fit succeeded. */
   model?: CalibrationModel;
@@ -87,6 +85,7 @@ export function compareCalibrationModels(
       plan.degree,
       options.fitApex ?? false,
       options.fitAxisAngle ?? true,
+      options.fitGlass === true,
     );
     // Candidates the pairs cannot support (n < k + 1) are left out rather than listed as failures.
     if (pairs.length < k + 1) continue;
@@ -112,7 +111,8 @@ export function compareCalibrationModels(
       Object.assign(candidate, {
         model: fit.model,
         parameterCount: fittedK,
-        glass: fit.model.kind === "prism" ? glassLabel(fit.model) : undefined,
+        glass: fit.model.kind === "prism" ? fit.model.glass : undefined,
+        ...(fit.model.kind === "prism" && fit.model.glassFitted ? { glassFitted: true } : {}),
         rmsNm: fit.rmsNm,
         dof: fit.dof,
         aicc: criteria.aicc,
@@ -158,9 +158,4 @@ export function compareCalibrationModels(
         : "prism-shaped model (prism: Hartmann or the physical prism)") +
       (pool.length === 0 ? "; no model of the preferred kind fitted, so all were considered" : ""),
   };
-}
-
-/** A prism model's glass in words: the catalogue's name, or its fitted terms and where they started. */
-function glassLabel(model: PrismCalibrationModel): string {
-  return model.glassFitted ? `fitted from the pairs (started from ${model.glass})` : model.glass;
 }

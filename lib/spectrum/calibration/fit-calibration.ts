@@ -15,6 +15,7 @@ import type {
 } from "./calibration-model";
 import { fitHartmannModel } from "./fit-hartmann-model";
 import { fitPolynomialModel } from "./fit-polynomial-model";
+import type { GlassTermsStart } from "./fit-glass-terms";
 import { fitPrismModel, type PrismFitSettings } from "./fit-prism-model";
 import { FITTED_GLASS_PARAMETERS } from "./fitted-glass";
 import { assertGlassValidOver } from "./assert-glass-valid-over";
@@ -42,8 +43,9 @@ export interface FitCalibrationOptions {
   domain?: [number, number];
   /**
    * Glass of the prism (prism model). When omitted every catalogue glass is tried and the one with the
-   * lowest AICc is kept; all glasses have the same parameter count, so AICc and BIC rank them alike
-   * (by χ²) and the choice of criterion only matters across models.
+   * lowest AICc is kept; all catalogue glasses have the same parameter count, so AICc and BIC rank them
+   * alike (by χ²) and the choice of criterion only matters across models (and against a fitted glass,
+   * see `fitGlass`).
    * @default undefined (try the catalogue)
    */
   glass?: GlassName;
@@ -73,6 +75,12 @@ export interface FitCalibrationOptions {
    * @default undefined (compete when the glass is not given)
    */
   fitGlass?: boolean;
+  /**
+   * A stored prism model whose fitted glass a refit with `fitGlass` starts from (its angles and terms),
+   * so that refitting it to other pairs searches near it rather than from a catalogue glass's likeness.
+   * @default undefined
+   */
+  fittedGlassFrom?: PrismCalibrationModel;
   /**
    * Reject outliers one at a time while the worst residual, in units of the pair's σ (σx·|dλ/dx|),
    * exceeds clipSigma robust standard deviations.
@@ -139,40 +147,59 @@ export function parameterCount(
 const FITTED_GLASS_SPARE_PAIRS = 3;
 /**
  * A fitted glass competes only when the best catalogue glass misses the pairs by more than their σ
- * allow (χ² beyond this quantile for its degrees of freedom, as the pairing's lack-of-fit check asks):
+ * allow (χ² beyond this quantile for its degrees of freedom, on the pairs' own σ; the pairing's
+ * lack-of-fit check uses the same quantile on σ floored at 3 % of a line width):
  * its three terms more can also bend onto pulled end pairs that a catalogue glass would not follow. On
  * fresh prisms (seed 17200000, 300) without this gate an SF10 prism's fitted glass followed two red
  * pairs 0.4 and 0.6 nm off and was "paired" 1.4 times the accuracy wrong.
  */
 const FITTED_GLASS_WHEN_CHI2_BEYOND = 0.999;
 
-/** Fits one model kind to the given subset; the glass search lives here. */
-function fitOnce(
-  input: ModelFitInput,
-  options: Required<Omit<FitCalibrationOptions, "glass" | "domain" | "fitGlass">> & {
-    glass?: GlassName;
-    fitGlass?: boolean;
-  },
-): CalibrationModel {
+/** The settings fitOnce reads: every option but the domain, with the prism's glass options optional. */
+type FitOnceOptions = Required<
+  Omit<FitCalibrationOptions, "glass" | "domain" | "fitGlass" | "fittedGlassFrom">
+> &
+  Pick<FitCalibrationOptions, "glass" | "fitGlass" | "fittedGlassFrom">;
+
+/** Fits one model kind to the given subset. */
+function fitOnce(input: ModelFitInput, options: FitOnceOptions): CalibrationModel {
   const uniform = options.weighting === "uniform";
   if (options.model === "polynomial")
     return fitPolynomialModel(input, options.degree, options.covarianceScaling, uniform);
   if (options.model === "hartmann")
     return fitHartmannModel(input, options.covarianceScaling, uniform);
+  return fitPrism(input, options);
+}
+
+/**
+ * The prism model: the named glass, or the catalogue's best by AICc, against which a glass with its
+ * terms fitted competes (fitted-glass.ts) when none is named; with `fitGlass`, the fitted glass alone.
+ */
+function fitPrism(input: ModelFitInput, options: FitOnceOptions): PrismCalibrationModel {
+  const settings = {
+    apexDeg: options.apexDeg,
+    fitApex: options.fitApex,
+    fitAxisAngle: options.fitAxisAngle,
+    scaling: options.covarianceScaling,
+  };
+  // A stored model's fitted glass is refitted from its own angles and terms.
+  const from = options.fittedGlassFrom;
+  if (options.fitGlass === true && from?.glassFitted) {
+    return fitPrismModel(input, {
+      ...settings,
+      glass: from.glass,
+      fitGlass: true,
+      start: fittedGlassStartOf(from),
+    });
+  }
   // A glass is tried only where its formula holds; a named one that does not is refused in words.
   const pairRange: [number, number] = [
     Math.min(...input.wavelengthNm),
     Math.max(...input.wavelengthNm),
   ];
   if (options.glass) assertGlassValidOver(options.glass, pairRange);
-  // A named glass whose terms are to be fitted is only the fit's start: no catalogue fit is needed.
-  const onlyFitted = options.glass !== undefined && options.fitGlass === true;
-  const glasses = onlyFitted
-    ? []
-    : options.glass
-      ? [options.glass]
-      : glassesValidOver(pairRange, GLASS_NAMES);
-  if (glasses.length === 0 && !onlyFitted) {
+  const glasses = options.glass ? [options.glass] : glassesValidOver(pairRange, GLASS_NAMES);
+  if (glasses.length === 0) {
     throw new CalibrationError(
       "fit-failed",
       `no catalogue glass is described over ${pairRange[0].toFixed(1)}–${pairRange[1].toFixed(1)} nm; the glass-free Hartmann model can be fitted instead`,
@@ -182,13 +209,7 @@ function fitOnce(
   let lastError: unknown;
   for (const glass of glasses) {
     try {
-      const model = fitPrismModel(input, {
-        glass,
-        apexDeg: options.apexDeg,
-        fitApex: options.fitApex,
-        fitAxisAngle: options.fitAxisAngle,
-        scaling: options.covarianceScaling,
-      });
+      const model = fitPrismModel(input, { ...settings, glass });
       const { aicc } = informationCriteria(
         model.chiSquare,
         model.pairCount,
@@ -200,35 +221,30 @@ function fitOnce(
     }
   }
   scored.sort((a, b) => a.aicc - b.aicc);
-  const best = scored[0];
-  const fitted = (starts: readonly GlassName[]) =>
-    fittedGlassPrism(input, starts, {
-      apexDeg: options.apexDeg,
-      fitApex: options.fitApex,
-      fitAxisAngle: options.fitAxisAngle,
-      scaling: options.covarianceScaling,
-    });
+  const starts = scored.slice(0, FITTED_GLASS_STARTS).map((s) => s.model.glass);
   if (options.fitGlass === true) {
-    const starts = options.glass
-      ? [options.glass]
-      : scored.slice(0, FITTED_GLASS_STARTS).map((s) => s.model.glass);
-    const model = starts.length > 0 ? fitted(starts) : null;
-    if (!model)
+    const fitted = fittedGlassPrism(input, starts, settings);
+    if (!fitted.model) {
       throw (
-        lastError ?? new CalibrationError("fit-failed", "no glass fitted from the pairs fits them")
+        fitted.error ??
+        lastError ??
+        new CalibrationError("fit-failed", "no catalogue glass fits the pairs")
       );
-    return model;
+    }
+    return fitted.model;
   }
+  const best = scored[0];
   if (!best)
     throw lastError ?? new CalibrationError("fit-failed", "no catalogue glass fits the pairs");
   const fittedCount = best.model.parameters.length + FITTED_GLASS_PARAMETERS.length;
   if (
     options.fitGlass === undefined &&
     !options.glass &&
+    !options.fitApex &&
     input.x.length >= fittedCount + FITTED_GLASS_SPARE_PAIRS &&
     best.model.chiSquare > jStat.chisquare.inv(FITTED_GLASS_WHEN_CHI2_BEYOND, best.model.dof)
   ) {
-    const model = fitted(scored.slice(0, FITTED_GLASS_STARTS).map((s) => s.model.glass));
+    const { model } = fittedGlassPrism(input, starts, settings);
     if (
       model &&
       informationCriteria(model.chiSquare, model.pairCount, fittedCount).aicc < best.aicc
@@ -243,24 +259,37 @@ const FITTED_GLASS_STARTS = 3;
 
 /**
  * The prism with its glass's terms fitted, from each of `starts` (a start whose geometry sits at a
- * bound of the catalogue fit can stall short of the fit another start reaches): the lowest χ², or null
- * when none converges.
+ * bound of the catalogue fit can stall short of the fit another start reaches): the lowest χ², or
+ * none and the last start's error.
  */
 function fittedGlassPrism(
   input: ModelFitInput,
   starts: readonly GlassName[],
   settings: Omit<PrismFitSettings, "glass" | "fitGlass">,
-): PrismCalibrationModel | null {
-  let best: PrismCalibrationModel | null = null;
+): { model: PrismCalibrationModel | null; error?: CalibrationError } {
+  let model: PrismCalibrationModel | null = null;
+  let error: CalibrationError | undefined;
   for (const glass of starts) {
     try {
-      const model = fitPrismModel(input, { ...settings, glass, fitGlass: true });
-      if (!best || model.chiSquare < best.chiSquare) best = model;
-    } catch {
+      const fitted = fitPrismModel(input, { ...settings, glass, fitGlass: true });
+      if (!model || fitted.chiSquare < model.chiSquare) model = fitted;
+    } catch (caught) {
       // A start that does not converge leaves the others.
+      if (!(caught instanceof CalibrationError)) throw caught;
+      error = caught;
     }
   }
-  return best;
+  return { model, error };
+}
+
+/** A stored fitted-glass model's incidence, camera axis angle and glass terms, to refit it from. */
+function fittedGlassStartOf(model: PrismCalibrationModel): GlassTermsStart {
+  const p = model.parameters;
+  return {
+    incidenceRad: p[0],
+    axisAngleRad: model.axisAngleFitted ? p[model.apexFitted ? 4 : 3] : 0,
+    terms: p.slice(p.length - FITTED_GLASS_PARAMETERS.length),
+  };
 }
 
 /** Each pair's σx as the fit weighs it: pairs without one take the median of the given ones (1 when none is). */
@@ -314,7 +343,7 @@ export function fitCalibration(
   const domain = options.domain ?? [Math.min(...xs), Math.max(...xs)];
   assertDomain(domain);
   const sigmaX = fittedXUncertainties(pairs);
-  const settings = {
+  const settings: FitOnceOptions = {
     model: kind,
     degree,
     apexDeg,
@@ -328,6 +357,7 @@ export function fitCalibration(
     weighting,
     glass,
     fitGlass,
+    fittedGlassFrom: options.fittedGlassFrom,
   };
 
   const used = pairs.map(() => true);
@@ -343,6 +373,12 @@ export function fitCalibration(
     return fitOnce(input, settings);
   };
   let model = fitUsed();
+  // The first fit settles whether the glass is fitted: outliers are then judged, and refits made, in
+  // one family (the fitted glass refitted from its own terms).
+  if (model.kind === "prism" && settings.fitGlass === undefined) {
+    settings.fitGlass = model.glassFitted ?? false;
+    if (model.glassFitted) settings.fittedGlassFrom = model;
+  }
   const residualsOf = (m: CalibrationModel) => {
     const fitted = modelEvaluation(m, xs).wavelengthNm;
     return pairs.map((p, i) => p.wavelengthNm - fitted[i]);

@@ -9,6 +9,7 @@ import { Matrix, solve } from "ml-matrix";
 import { fittedGlassCoefficients } from "./fitted-glass";
 import { cameraTangent, prismDeviationRad } from "./prism-forward";
 import { refractiveIndexOrNaN } from "./refractive-index-or-nan";
+import { dot } from "../statistics/dot";
 import { lineProjection } from "./weighted-line";
 
 export interface GlassTermsStart {
@@ -24,6 +25,12 @@ export interface GlassTermsFit {
   chiSquare: number;
 }
 
+/**
+ * Steps the search may take: along the valley it crawls (the incidence, B₁ and the scale trade off),
+ * and on SciPy's reference case (tests/reference) it needed about 500 to reach least_squares's minimum.
+ */
+const MAX_ITERATIONS = 1000;
+
 /** The camera line's coefficients (x ≈ alpha + beta·u), the residuals with its span removed, and χ². */
 interface Projected {
   alpha: number;
@@ -32,10 +39,14 @@ interface Projected {
   chiSquare: number;
 }
 
-/** Bounds of the glass terms: the ultraviolet resonance below the bluest pair, strengths physical. */
+/**
+ * Bounds of the glass terms: the ultraviolet resonance below the bluest pair, its strength positive;
+ * B₃ of either sign (one ultraviolet term standing in for a glass's two leaves a curvature that a
+ * negative B₃ takes up), each below tenfold any known glass's.
+ */
 function termsInside([b1, c1, b3]: readonly number[], bluestNm: number): boolean {
   return (
-    b1 > 1e-3 && b1 < 10 && c1 > 1e-5 && c1 < 0.9 * (bluestNm / 1000) ** 2 && b3 >= 0 && b3 < 30
+    b1 > 1e-3 && b1 < 10 && c1 > 1e-5 && c1 < 0.9 * (bluestNm / 1000) ** 2 && Math.abs(b3) < 30
   );
 }
 
@@ -104,7 +115,7 @@ export function fitGlassTerms(
   let current: Projected = first;
   let damping = 1e-3;
   let converged = false;
-  for (let iteration = 0; iteration < 200 && !converged && damping < 1e12; iteration++) {
+  for (let iteration = 0; iteration < MAX_ITERATIONS && !converged && damping < 1e12; iteration++) {
     const point = current;
     // Jacobian of the projected residuals, by central differences (a lost ray: no slope there).
     const columns = q.map((value, k) => {
@@ -115,7 +126,6 @@ export function fitGlassTerms(
         ? above.rest.map((r, i) => (r - below.rest[i]) / (2 * h))
         : point.rest.map(() => 0);
     });
-    const dot = (a: number[], b: readonly number[]) => a.reduce((s, v, i) => s + v * b[i], 0);
     const normal = columns.map((a) => columns.map((b) => dot(a, b)));
     const gradient = columns.map((a) => dot(a, point.rest));
     // Marquardt's scaling: each parameter damped by its own curvature (floored where a term has none).

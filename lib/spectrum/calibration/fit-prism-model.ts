@@ -12,7 +12,7 @@ import { modelBase, type CovarianceScaling, type ModelFitInput } from "./model-f
 import { cameraTangent, prismDeviationRad } from "./prism-forward";
 import { refractiveIndex } from "./refractive-index";
 import { refractiveIndexOrNaN } from "./refractive-index-or-nan";
-import { fitGlassTerms } from "./fit-glass-terms";
+import { fitGlassTerms, type GlassTermsStart } from "./fit-glass-terms";
 import { FITTED_GLASS_PARAMETERS, fittedGlassCoefficients, fittedGlassStart } from "./fitted-glass";
 
 const DEG = Math.PI / 180;
@@ -25,10 +25,15 @@ export interface PrismFitSettings {
   fitAxisAngle: boolean;
   /** Fit the glass's Sellmeier terms too, starting from `glass` (fitted-glass.ts). @default false */
   fitGlass?: boolean;
+  /** Where a fitted glass's search starts (a stored model's own angles and terms). @default from `glass` */
+  start?: GlassTermsStart;
   scaling: CovarianceScaling;
 }
 
-/** Fits the prism model of one glass; throws CalibrationError("fit-failed") when no geometry passes light. */
+/**
+ * Fits the prism model of one glass, or with the glass's terms fitted (`fitGlass`); throws
+ * CalibrationError("fit-failed") when no geometry passes light, RangeError for `fitApex` with `fitGlass`.
+ */
 export function fitPrismModel(
   input: ModelFitInput,
   settings: PrismFitSettings,
@@ -44,42 +49,18 @@ export function fitPrismModel(
   const apexIndex = 3;
   const axisAngleIndex = fitApex ? 4 : 3;
 
-  // The forward fit with the apex as given is the start, and with the apex fixed it is already the
-  // solution (same model, same χ² in x); only a fitted apex needs the full Levenberg–Marquardt below.
-  const start = fitForwardPrism(
-    x.map((value, i) => ({
-      x: value,
-      wavelengthNm: wavelengthNm[i],
-      xUncertainty: xUncertainty[i],
-    })),
-    settings.glass,
-    { apexDeg: settings.apexDeg, referenceWavelengthNm: referenceNm, fitAxisAngle },
-  );
-  const [startIncidence, startSlope, startAxis, startAxisAngle] = start.parameters;
-  if (startSlope === 0) {
-    throw new CalibrationError(
-      "fit-failed",
-      `${settings.glass}: no prism geometry passes all the pairs' wavelengths`,
-    );
-  }
-  let direction: 1 | -1 = startSlope > 0 ? 1 : -1;
-  let initial = [startIncidence, Math.abs(startSlope), startAxis];
-  if (fitApex) initial.push(apexRad);
-  if (fitAxisAngle) initial.push(startAxisAngle);
-  const glassIndex = initial.length;
+  let direction: 1 | -1;
+  let initial: number[];
   if (fitGlass) {
-    // The glass's terms start at the catalogue glass's likeness and are fitted with the angles; the
-    // camera's scale and position follow them.
+    // The glass's terms and the angles are fitted together from the given start, or from the catalogue
+    // glass's likeness and its own geometry; the camera's scale and position follow them.
+    const start = settings.start ?? catalogueStart(input, settings, referenceNm, [low, high]);
     const glassFit = fitGlassTerms(
       x,
       wavelengthNm,
       xUncertainty,
       { apexRad, referenceNm, fitAxisAngle },
-      {
-        incidenceRad: startIncidence,
-        axisAngleRad: startAxisAngle ?? 0,
-        terms: fittedGlassStart(settings.glass, [low, high]),
-      },
+      start,
     );
     if (!glassFit) {
       throw new CalibrationError(
@@ -90,36 +71,40 @@ export function fitPrismModel(
     const [incidence, slope, axis, ...rest] = glassFit.parameters;
     direction = slope > 0 ? 1 : -1;
     initial = [incidence, Math.abs(slope), axis, ...rest];
+  } else {
+    // The forward fit with the apex as given is the start, and with the apex fixed it is already the
+    // solution (same model, same χ² in x); only a fitted apex needs the full Levenberg–Marquardt below.
+    const start = forwardStart(input, settings, referenceNm);
+    direction = start.direction;
+    initial = [start.incidenceRad, start.slope, start.axisX];
+    if (fitApex) initial.push(apexRad);
+    if (fitAxisAngle) initial.push(start.axisAngleRad);
   }
+  const glassIndex = initial.length - FITTED_GLASS_PARAMETERS.length;
 
   // n(λ) of every pair is fixed during the fit of a catalogue glass: computing the Sellmeier sums once
   // leaves only Snell's law per evaluation, and focalX and axisX enter linearly (analytic derivatives).
-  // A fitted glass's indices are worked out once per trial parameter vector.
-  const catalogueIndices = {
-    terms: [] as number[],
-    reference: refractiveIndex(settings.glass, referenceNm),
-    ofPair: wavelengthNm.map((lambda) => refractiveIndex(settings.glass, lambda)),
-  };
-  let fittedIndices = catalogueIndices;
-  const indicesAt = (parameters: number[]) => {
-    if (!fitGlass) return catalogueIndices;
-    const terms = parameters.slice(glassIndex, glassIndex + 3);
-    if (terms.some((value, k) => value !== fittedIndices.terms[k])) {
-      const glass = fittedGlassCoefficients(terms);
-      fittedIndices = {
-        terms,
-        reference: refractiveIndexOrNaN(glass, referenceNm),
-        ofPair: wavelengthNm.map((lambda) => refractiveIndexOrNaN(glass, lambda)),
+  // A fitted glass's indices follow its terms (only the final Jacobian asks for them).
+  const catalogue = fitGlass
+    ? null
+    : {
+        reference: refractiveIndex(settings.glass, referenceNm),
+        ofPair: wavelengthNm.map((lambda) => refractiveIndex(settings.glass, lambda)),
       };
-    }
-    return fittedIndices;
+  const indicesAt = (parameters: number[], i: number) => {
+    if (catalogue) return { reference: catalogue.reference, ofPair: catalogue.ofPair[i] };
+    const glass = fittedGlassCoefficients(parameters.slice(glassIndex));
+    return {
+      reference: refractiveIndexOrNaN(glass, referenceNm),
+      ofPair: refractiveIndexOrNaN(glass, wavelengthNm[i]),
+    };
   };
   const tangentAt = (parameters: number[], i: number) => {
     const apex = fitApex ? parameters[apexIndex] : apexRad;
-    const indices = indicesAt(parameters);
+    const indices = indicesAt(parameters, i);
     const angle =
       prismDeviationRad(indices.reference, parameters[0], apex) -
-      prismDeviationRad(indices.ofPair[i], parameters[0], apex);
+      prismDeviationRad(indices.ofPair, parameters[0], apex);
     return cameraTangent(angle, fitAxisAngle ? parameters[axisAngleIndex] : 0);
   };
   const forward = (parameters: number[], i: number) =>
@@ -218,4 +203,50 @@ export function fitPrismModel(
     settings.scaling,
   );
   return { ...model, rmsNm: rebuilt.rmsNm };
+}
+
+/** The catalogue glass's forward fit as the start of its prism fit: [incidence, |slope|, axis, φ], direction. */
+function forwardStart(input: ModelFitInput, settings: PrismFitSettings, referenceNm: number) {
+  const fit = fitForwardPrism(
+    input.x.map((value, i) => ({
+      x: value,
+      wavelengthNm: input.wavelengthNm[i],
+      xUncertainty: input.xUncertainty[i],
+    })),
+    settings.glass,
+    {
+      apexDeg: settings.apexDeg,
+      referenceWavelengthNm: referenceNm,
+      fitAxisAngle: settings.fitAxisAngle,
+    },
+  );
+  const [incidenceRad, slope, axisX, axisAngleRad = 0] = fit.parameters;
+  if (slope === 0) {
+    throw new CalibrationError(
+      "fit-failed",
+      `${settings.glass}: no prism geometry passes all the pairs' wavelengths`,
+    );
+  }
+  return {
+    incidenceRad,
+    slope: Math.abs(slope),
+    axisX,
+    axisAngleRad,
+    direction: (slope > 0 ? 1 : -1) as 1 | -1,
+  };
+}
+
+/** A fitted glass's start from a catalogue glass: its geometry, and terms in its likeness over `rangeNm`. */
+function catalogueStart(
+  input: ModelFitInput,
+  settings: PrismFitSettings,
+  referenceNm: number,
+  rangeNm: [number, number],
+): GlassTermsStart {
+  const start = forwardStart(input, settings, referenceNm);
+  return {
+    incidenceRad: start.incidenceRad,
+    axisAngleRad: start.axisAngleRad,
+    terms: fittedGlassStart(settings.glass, rangeNm),
+  };
 }

@@ -19,6 +19,7 @@ import {
 } from "./fit-calibration";
 import type { LampPair } from "./lamp-pairing-types";
 import { modelEvaluation } from "./model-evaluation";
+import { prismRefitOptions } from "./prism-refit-options";
 import { linearisedFit, type LinearisedFit } from "./linearised-fit";
 
 /** The options that refit `model`'s own shape: the same kind and degree, a prism's glass and angles. */
@@ -26,9 +27,7 @@ function sameShape(model: CalibrationModel): FitCalibrationOptions {
   if (model.kind === "polynomial") return { model: "polynomial", degree: model.degree };
   if (model.kind === "hartmann") return { model: "hartmann" };
   return {
-    model: "prism",
-    glass: model.glass,
-    fitGlass: model.glassFitted ?? false,
+    ...prismRefitOptions(model),
     apexDeg: model.apexDeg,
     fitApex: model.apexFitted,
     fitAxisAngle: model.axisAngleFitted ?? false,

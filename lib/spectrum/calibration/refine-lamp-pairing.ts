@@ -1,5 +1,6 @@
 // The refinement both pairing entry points share: from a first guess of where each line falls, match
 // lines with peaks, fit, match again with the fit at a tighter tolerance, and judge the result.
+import { prismRefitOptions } from "./prism-refit-options";
 import type { DispersionKind } from "../types";
 import {
   fitCalibration,
@@ -120,11 +121,7 @@ function previousFamily(
     model: "polynomial",
     degree: previous.kind === "polynomial" ? Math.min(previous.degree, highest) : highest,
   };
-  if (previous.kind === "prism")
-    return [
-      { model: "prism", glass: previous.glass, fitGlass: previous.glassFitted ?? false },
-      polynomial,
-    ];
+  if (previous.kind === "prism") return [prismRefitOptions(previous), polynomial];
   if (previous.kind === "hartmann") return [{ model: "hartmann" }, polynomial];
   return [polynomial];
 }
@@ -240,7 +237,8 @@ export function finishLampPairing(
 
 /**
  * A prism's pairs are grown from the refinement's pairs by growLampPairs; only then is the physical
- * model fitted (every catalogue glass, best by AICc). A glass can fit a wrong pairing well, and the
+ * model fitted (every catalogue glass, best by AICc, or a glass fitted from the pairs when none fits
+ * them: fit-calibration.ts). A glass can fit a wrong pairing well, and the
  * catalogue may not hold the instrument's glass, so the physical model must also beat the glass-free
  * Hartmann form on the same pairs by AICc (both χ² are in x against the peaks' σ); else Hartmann stays.
  */
@@ -273,9 +271,7 @@ function finishPrismPairing(context: PairingContext, refined: RefinedPairing): L
     if (prismAicc <= hartmannAicc && prism.model.kind === "prism") {
       fit = rejectOutliers
         ? fitCalibration(pairs, {
-            model: "prism",
-            glass: prism.model.glass,
-            fitGlass: prism.model.glassFitted ?? false,
+            ...prismRefitOptions(prism.model),
             domain: context.domain,
             rejectOutliers,
           })

@@ -7,6 +7,7 @@
 // when it then rests on a pair that passes: setting aside right pairs beyond a gap to end on a pulled
 // one made two right calibrations wrong (seed 623456). Measured on the blind sweep (seeds 123456,
 // 223456, 623456; n 150 each, with the hot-pixel removal): silent wrong 0.7, 1.3 and 0.7 %.
+import { prismRefitOptions } from "./prism-refit-options";
 import { calibrationUncertainty } from "./calibration-uncertainty";
 import {
   fitCalibration,
@@ -47,8 +48,7 @@ export interface TrimmedEnds {
 /** The fit options that refit `model`'s own family to fewer pairs. */
 function familyOf(model: CalibrationModel): FitCalibrationOptions {
   if (model.kind === "polynomial") return { model: "polynomial", degree: model.degree };
-  if (model.kind === "prism")
-    return { model: "prism", glass: model.glass, fitGlass: model.glassFitted ?? false };
+  if (model.kind === "prism") return prismRefitOptions(model);
   return { model: model.kind };
 }
 
