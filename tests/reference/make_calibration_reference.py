@@ -1,5 +1,6 @@
 # Makes calibration-reference.json: NumPy polyfit (with cov=True) and SciPy curve_fit of the Hartmann
-# formula on deterministic pairs, so the TypeScript fits can be checked against an outside library; and
+# formula on deterministic pairs, so the TypeScript fits can be checked against an outside library;
+# SciPy's least_squares on the prism model with a glass fitted from the pairs (fitted-glass.ts); and
 # SciPy's bounded scalar minimiser on the summed Gaussian profile of blended lamp lines (where the one
 # peak they make has its top); each pair's miss by a weighted polyfit of the others (held out); and how
 # far a weighted polyfit moves when one pair is left out (pair influence).
@@ -9,7 +10,7 @@ import os
 
 import numpy as np
 import scipy
-from scipy.optimize import curve_fit, minimize_scalar
+from scipy.optimize import brentq, curve_fit, least_squares, minimize_scalar
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 
@@ -151,8 +152,6 @@ for i in range(len(lone_x)):
 # off the reference ray; pairs at lamp-like wavelengths with a fixed residual pattern. SciPy's
 # least_squares fits the prism model whose glass is one ultraviolet resonance and an infrared strength
 # at a fixed 100 µm² (fitted-glass.ts), from several starts, to the least-squares minimum.
-from scipy.optimize import brentq, least_squares
-
 APEX = np.pi / 3
 LASF9_B = [2.00029547, 0.298926886, 1.80691843]
 LASF9_C = [0.0121426017, 0.0538736236, 156.530829]
@@ -193,6 +192,10 @@ def fitted_glass_x(p, nm):
                   sellmeier(glass_reference_nm, *terms))
 
 
+# The bounds fit-glass-terms.ts holds its search to: incidence inside (1e-3, π/2 − 1e-3) rad, camera
+# axis angle within ±0.5 rad, B1 in (1e-3, 10), C1 in (1e-5, 0.9·λmin²) µm², |B3| < 30.
+GLASS_BOUNDS = ([1e-3, -np.inf, -np.inf, -0.5, 1e-3, 1e-5, -30.0],
+                [np.pi / 2 - 1e-3, np.inf, np.inf, 0.5, 10.0, 0.9 * (glass_nm.min() / 1000) ** 2, 30.0])
 best_glass = None
 for b1, c1, b3 in [(2.05, 0.0207, 1.22), (2.3, 0.02, 1.4), (1.9, 0.025, 1.0)]:
     for incidence in (true_incidence - 0.05, true_incidence, true_incidence + 0.05):
@@ -200,8 +203,8 @@ for b1, c1, b3 in [(2.05, 0.0207, 1.22), (2.3, 0.02, 1.4), (1.9, 0.025, 1.0)]:
             start = [incidence, 9000.0, 1700.0, phi, b1, c1, b3]
             try:
                 fit = least_squares(lambda p: (fitted_glass_x(p, glass_nm) - glass_x) / glass_sigma,
-                                    start, x_scale="jac", xtol=1e-15, ftol=1e-15, gtol=1e-15,
-                                    max_nfev=20000)
+                                    start, bounds=GLASS_BOUNDS, x_scale="jac", xtol=1e-15,
+                                    ftol=1e-15, gtol=1e-15, max_nfev=20000)
             except ValueError:
                 continue
             if np.all(np.isfinite(fit.fun)) and (best_glass is None or fit.cost < best_glass.cost):
@@ -255,6 +258,10 @@ result = {
         "wavelengthNm": glass_nm.tolist(),
         "xUncertainty": glass_sigma.tolist(),
         "chiSquare": float(2 * best_glass.cost),
+        "parameters": best_glass.x.tolist(),
+        "parameterNames": ["incidenceRad", "b", "a", "axisAngleRad", "B1", "C1Um2", "B3"],
+        "status": int(best_glass.status),
+        "nfev": int(best_glass.nfev),
         "evalX": glass_eval_x.tolist(),
         "evalNm": glass_eval_nm,
     },

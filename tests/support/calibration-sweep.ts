@@ -156,11 +156,15 @@ export function sweepOne(
   }
 }
 
+/** σ of yesterday's pair centres, px: a lamp's strong lines (common practice). */
+const PREVIOUS_CENTRE_SIGMA_X = 0.03;
+
 /**
  * Yesterday's calibration of `lamp`, as checked then: of the model families, the one closest to the
  * first recording's true axis (a quintic misses a prism's blue end by many resolutions; the physical
- * prism model does not). `fitGlass: false` keeps a prism to the catalogue's glasses (a calibration
- * made without fitting the glass's terms, loose when the instrument's glass is not in the catalogue).
+ * prism model does not), each fitted as the product fits it: a prism's glass from the catalogue, or
+ * fitted from the pairs where none fits them within their σ. `fitGlass: false` keeps a prism to the
+ * catalogue's glasses (loose when the instrument's glass is not in the catalogue).
  */
 export function previousCalibrationOf(
   lamp: RealisticLamp,
@@ -170,15 +174,11 @@ export function previousCalibrationOf(
   const truthPairs = Array.from({ length: 41 }, (_, i) => ({
     x: (last * i) / 40,
     wavelengthNm: lamp.wavelengthAt((last * i) / 40),
+    xUncertainty: PREVIOUS_CENTRE_SIGMA_X,
   }));
   const families: FitCalibrationOptions[] =
     lamp.dispersion === "prism"
-      ? [
-          { model: "prism", fitGlass: false },
-          ...(fitGlass === false ? [] : [{ model: "prism", fitGlass: true } as const]),
-          { model: "hartmann" },
-          { model: "polynomial", degree: 5 },
-        ]
+      ? [{ model: "prism", fitGlass }, { model: "hartmann" }, { model: "polynomial", degree: 5 }]
       : [{ model: "polynomial", degree: 5 }];
   const grid = Float64Array.from({ length: 401 }, (_, i) => (last * i) / 400);
   let previous: CalibrationModel | undefined;

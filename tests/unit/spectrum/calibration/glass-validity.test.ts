@@ -69,7 +69,10 @@ describe("prisms outside the usual range and glass", () => {
   it("calibrates a fused-silica prism whose range starts at 230 nm (Hg + Ar lamp)", () => {
     const { lamp, result } = calibratedPrism(3, "fused-silica", [230, 600], ["Hg", "Ar"]);
     expect(result.pairing.status).toBe("paired");
-    expect(probeErrorRatio(lamp, result.fit!.model).ratio).toBeLessThanOrEqual(1);
+    const model = result.fit!.model;
+    expect(model.kind === "prism" && model.glass).toBe("fused-silica");
+    expect(model.kind === "prism" && model.glassFitted).toBeFalsy();
+    expect(probeErrorRatio(lamp, model).ratio).toBeLessThanOrEqual(1);
   }, 60_000);
 
   it("calibrates a prism of a glass not in the catalogue (N-LASF9)", () => {
@@ -77,6 +80,9 @@ describe("prisms outside the usual range and glass", () => {
     // Its 36 pairs are within their σ of the nearest catalogue glass (N-SF11) here, so that glass is
     // kept; a glass the catalogue misses beyond the pairs' σ gets its terms fitted (fitted-glass.test.ts).
     expect(result.pairing.status).toBe("paired");
-    expect(probeErrorRatio(lamp, result.fit!.model).ratio).toBeLessThanOrEqual(1);
+    const model = result.fit!.model;
+    expect(model.kind === "prism" && model.glass).toBe("N-SF11");
+    expect(model.kind === "prism" && model.glassFitted).toBeFalsy();
+    expect(probeErrorRatio(lamp, model).ratio).toBeLessThanOrEqual(1);
   }, 60_000);
 });

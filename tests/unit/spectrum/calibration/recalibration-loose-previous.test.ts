@@ -2,7 +2,7 @@
 // still finds today's lines (every other check of it passes), so today's pairs get a fit of their own,
 // checked as a blind pairing is, instead of ending in "check this recalibration".
 import { describe, expect, it } from "vitest";
-import { previousCalibrationOf, runSweep, sweepOne } from "../../../support/calibration-sweep";
+import { previousCalibrationOf, sweepOne } from "../../../support/calibration-sweep";
 import { realisticLamp } from "../../../support/realistic-lamp";
 
 /**
@@ -53,7 +53,11 @@ describe("recalibration from a loose previous calibration", () => {
   // The same instrument from a previous calibration that fitted its glass's terms (fitted-glass.ts):
   // yesterday's shape is now tight, and the day's drift of it is trusted, and right.
   it("recalibrates instrument 8700150 (N-LASF9) from a previous calibration with its glass fitted", () => {
-    const [record] = runSweep({ seed: 8_700_150, n: 1, withPrevious: true });
+    const lamp = realisticLamp(8_700_150);
+    expect(lamp.glass).toBe("N-LASF9");
+    const previous = previousCalibrationOf(lamp);
+    expect(previous.kind === "prism" && previous.glassFitted).toBe(true);
+    const record = sweepOne(lamp.rerecord(8_700_150 + 100_000), { previous });
     expect(record.message).toMatch(/^recalibrated from the previous calibration/);
     expect(record.status).toBe("paired");
     expect(record.outcome).toBe("success");

@@ -157,7 +157,7 @@ describe("fits against NumPy/SciPy reference values", () => {
   // SciPy's least_squares on the prism model with its glass's terms fitted (one ultraviolet resonance
   // and an infrared strength at 100 µm²), the pairs made from SCHOTT's N-LASF9 (from memory), a glass
   // outside the catalogue: our fit, started from N-SF11, reaches the same minimum and the same axis.
-  it("prism with a fitted glass comes within 1 % of SciPy's least-squares minimum, on its axis", () => {
+  it("prism with a fitted glass reaches SciPy's least-squares minimum, on its axis", () => {
     const g = reference.fittedGlassPrism;
     const pairs = g.x.map((x, i) => ({
       x,
@@ -173,11 +173,13 @@ describe("fits against NumPy/SciPy reference values", () => {
       rejectOutliers: false,
     }).model;
     expect(model.kind === "prism" && model.glassFitted).toBe(true);
-    // The incidence and the glass's strength trade off along a flat valley (SciPy's minimum lies at
-    // a grazing incidence, 89.8°): our search stops within 1 % of its χ², on the same axis to within
-    // 0.002 nm, a seventy-fifth of a prism calibration's accuracy (0.15 nm).
-    expect(Math.abs(model.chiSquare / g.chiSquare - 1)).toBeLessThan(0.01);
+    // SciPy converged (status > 0) inside the bounds our search keeps to, and our search reaches its
+    // χ² to 0.1 %. The incidence and the glass's strength trade off along a flat valley (SciPy's
+    // minimum lies at a grazing incidence, 89.9°), so two points of equal χ² may still part slightly
+    // between the pairs: the axes agree to 0.003 nm, a fiftieth of a prism calibration's accuracy.
+    expect(g.status).toBeGreaterThan(0);
+    expect(Math.abs(model.chiSquare / g.chiSquare - 1)).toBeLessThan(0.001);
     const ours = evaluateCalibration(model, Float64Array.from(g.evalX));
-    g.evalNm.forEach((nm, i) => expect(Math.abs(ours[i] - nm)).toBeLessThan(0.002));
+    g.evalNm.forEach((nm, i) => expect(Math.abs(ours[i] - nm)).toBeLessThan(0.003));
   });
 });

@@ -366,8 +366,12 @@ describe("realistic lamps seen in the blind sweep", () => {
     // Instrument 1500141 (a sapphire prism): the end trimming once left a quintic following Ne I
     // 837.76–849.54 nm beyond a gap; then it was left to check. With the glass's terms fitted from the
     // pairs (fitted-glass.ts) the physical model follows every pair and the pairing is right.
-    const record = sweepOne(realisticLamp(1_500_141));
+    const lamp = realisticLamp(1_500_141);
+    expect(lamp.glass).toBe("sapphire");
+    const record = sweepOne(lamp);
     expect(record.status).toBe("paired");
     expect(record.outcome).toBe("success");
+    const model = calibrateRealisticLamp(lamp).fit!.model;
+    expect(model.kind === "prism" && model.glassFitted).toBe(true);
   }, 60_000);
 });
