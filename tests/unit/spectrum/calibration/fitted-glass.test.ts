@@ -10,6 +10,7 @@ import {
   fitCalibration,
   refractiveIndex,
   type CalibrationModel,
+  type FitCalibrationOptions,
 } from "@/lib/spectrum/calibration";
 import { fittedGlassStart } from "@/lib/spectrum/calibration/fitted-glass";
 import { GLASS_NAMES } from "@/lib/spectrum/calibration/glass-catalogue";
@@ -51,6 +52,20 @@ function prism(seed: number, glass: string, rangeNm: [number, number]) {
   return { last, pairs, worstRatio };
 }
 
+/** The prism model of `pairs` on an array of `last + 1` pixels, no outliers rejected. */
+function fitPrism(
+  pairs: { x: number; wavelengthNm: number; xUncertainty: number }[],
+  last: number,
+  extra: Partial<FitCalibrationOptions> = {},
+) {
+  return fitCalibration(pairs, {
+    model: "prism",
+    domain: [0, last],
+    rejectOutliers: false,
+    ...extra,
+  }).model;
+}
+
 describe("a prism glass fitted from the pairs", () => {
   // SCHOTT's published Sellmeier coefficients of N-LASF9 and N-SF6, and Malitson & Dodge's of
   // sapphire (ordinary ray), none of them in the catalogue, drive the generated prisms (from memory;
@@ -61,17 +76,8 @@ describe("a prism glass fitted from the pairs", () => {
     ["sapphire", 13, [320, 840]],
   ] as const)("follows %s, which no catalogue glass does", (glass, seed, range) => {
     const { last, pairs, worstRatio } = prism(seed, glass, [range[0], range[1]]);
-    const catalogueOnly = fitCalibration(pairs, {
-      model: "prism",
-      domain: [0, last],
-      fitGlass: false,
-      rejectOutliers: false,
-    }).model;
-    const chosen = fitCalibration(pairs, {
-      model: "prism",
-      domain: [0, last],
-      rejectOutliers: false,
-    }).model;
+    const catalogueOnly = fitPrism(pairs, last, { fitGlass: false });
+    const chosen = fitPrism(pairs, last);
     expect(chosen.kind === "prism" && chosen.glassFitted).toBe(true);
     expect(worstRatio(catalogueOnly)).toBeGreaterThan(0.3);
     expect(worstRatio(chosen)).toBeLessThan(0.2);
@@ -89,11 +95,7 @@ describe("a prism glass fitted from the pairs", () => {
 
   it("leaves a catalogue glass's prism to the catalogue", () => {
     const { last, pairs } = prism(14, "SF10", [420, 900]);
-    const chosen = fitCalibration(pairs, {
-      model: "prism",
-      domain: [0, last],
-      rejectOutliers: false,
-    }).model;
+    const chosen = fitPrism(pairs, last);
     expect(chosen.kind === "prism" && chosen.glass).toBe("SF10");
     expect(chosen.kind === "prism" && chosen.glassFitted).toBeFalsy();
   });
@@ -113,21 +115,14 @@ describe("a prism glass fitted from the pairs", () => {
 
   it("refits a stored fitted glass from its own terms to the same minimum", () => {
     const { last, pairs } = prism(16, "N-LASF9", [380, 950]);
-    const first = fitCalibration(pairs, {
-      model: "prism",
-      domain: [0, last],
-      rejectOutliers: false,
-    }).model;
+    const first = fitPrism(pairs, last);
     expect(first.kind === "prism" && first.glassFitted).toBe(true);
     if (first.kind !== "prism") return;
-    const again = fitCalibration(pairs, {
-      model: "prism",
+    const again = fitPrism(pairs, last, {
       glass: first.glass,
       fitGlass: true,
       fittedGlassFrom: first,
-      domain: [0, last],
-      rejectOutliers: false,
-    }).model;
+    });
     expect(again.chiSquare).toBeLessThanOrEqual(first.chiSquare * 1.001);
   });
 
