@@ -58,11 +58,7 @@ export function ModelComparison({
             const notes = [
               c.model === comparison.recommended ? "recommended" : null,
               c.model === chosenModel ? "in use" : null,
-              c.glass
-                ? c.glassFitted
-                  ? `glass fitted from the pairs (started from ${c.glass})`
-                  : `glass ${c.glass}`
-                : null,
+              glassNote(c),
               c.failure,
             ].filter(Boolean);
             return (
@@ -92,4 +88,12 @@ export function ModelComparison({
       </table>
     </TableScroll>
   );
+}
+
+/** The prism's glass in words: the catalogue's, or fitted from the pairs and where it started. */
+function glassNote(row: { glass: string | null; glassFitted: boolean }): string | null {
+  if (!row.glass) return null;
+  return row.glassFitted
+    ? `glass fitted from the pairs (started from ${row.glass})`
+    : `glass ${row.glass}`;
 }

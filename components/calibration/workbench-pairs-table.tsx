@@ -2,7 +2,7 @@
 // it came from, whether the fit used it, and the one action that changes it (exclude, include, remove).
 import type { CalibrationPreview, CalibrationPreviewPair } from "@/lib/services/calibrations";
 import { TableScroll } from "@/components/ui/table-scroll";
-import { withinCoveredRange } from "@/lib/calibrations/covered-range";
+import { OutsideCoveredNote } from "./outside-covered-note";
 
 const STATE_TEXT: Record<
   CalibrationPreviewPair["state"],
@@ -88,8 +88,8 @@ export function WorkbenchPairsTable({
                     {state.mark}{" "}
                   </span>
                   {state.text}
-                  {p.state === "used" && !withinCoveredRange(p, coveredRangeNm) ? (
-                    <span className="muted"> · outside the covered range</span>
+                  {p.state === "used" ? (
+                    <OutsideCoveredNote pair={p} coveredRangeNm={coveredRangeNm} />
                   ) : null}
                 </td>
                 <td className="px-3 py-1.5 text-right">

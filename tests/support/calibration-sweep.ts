@@ -171,16 +171,16 @@ export function previousCalibrationOf(
   { fitGlass }: { fitGlass?: boolean } = {},
 ): CalibrationModel {
   const last = lamp.x.length - 1;
-  const truthPairs = Array.from({ length: 41 }, (_, i) => ({
-    x: (last * i) / 40,
-    wavelengthNm: lamp.wavelengthAt((last * i) / 40),
-    xUncertainty: PREVIOUS_CENTRE_SIGMA_X,
-  }));
+  const truthPairs = Array.from({ length: 41 }, (_, i) => {
+    const x = (last * i) / 40;
+    return { x, wavelengthNm: lamp.wavelengthAt(x), xUncertainty: PREVIOUS_CENTRE_SIGMA_X };
+  });
   const families: FitCalibrationOptions[] =
     lamp.dispersion === "prism"
       ? [{ model: "prism", fitGlass }, { model: "hartmann" }, { model: "polynomial", degree: 5 }]
       : [{ model: "polynomial", degree: 5 }];
   const grid = Float64Array.from({ length: 401 }, (_, i) => (last * i) / 400);
+  const truth = grid.map(lamp.wavelengthAt);
   let previous: CalibrationModel | undefined;
   let previousError = Infinity;
   for (const family of families) {
@@ -191,7 +191,7 @@ export function previousCalibrationOf(
         rejectOutliers: false,
       }).model;
       const calibrated = evaluateCalibration(model, grid);
-      const error = Math.max(...grid.map((x, i) => Math.abs(calibrated[i] - lamp.wavelengthAt(x))));
+      const error = Math.max(...truth.map((nm, i) => Math.abs(calibrated[i] - nm)));
       if (error < previousError) [previous, previousError] = [model, error];
     } catch {
       // A family that cannot fit this axis is simply not yesterday's calibration.

@@ -50,7 +50,7 @@ export function modelComparisonRows(
           }))
         : null,
       glass: c.glass ?? null,
-      glassFitted: c.glassFitted ?? false,
+      glassFitted: c.glassFitted === true,
       failure: c.failure ? c.failure.message : null,
     };
   });

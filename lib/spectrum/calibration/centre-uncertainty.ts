@@ -107,7 +107,6 @@ function withCentreUncertainty(peaks: LampPeak[], blends: boolean): LampPeak[] {
   return peaks.map((peak, i) => {
     const widths = neighbours[i];
     if (!(peak.fwhm !== undefined && peak.fwhm > 0) || !widths) return peak;
-    // The widths are ascending, so their upper median is the middle one.
     const floor = CENTRE_FLOOR_FWHM * upperMedianOfSorted(widths);
     const pull = blends ? blendPull(peak, widths) : 0;
     return { ...peak, xUncertainty: Math.hypot(peak.xUncertainty ?? 0, pull, floor) };

@@ -112,7 +112,7 @@ export function compareCalibrationModels(
         model: fit.model,
         parameterCount: fittedK,
         glass: fit.model.kind === "prism" ? fit.model.glass : undefined,
-        ...(fit.model.kind === "prism" && fit.model.glassFitted ? { glassFitted: true } : {}),
+        glassFitted: fit.model.kind === "prism" && fit.model.glassFitted === true,
         rmsNm: fit.rmsNm,
         dof: fit.dof,
         aicc: criteria.aicc,

@@ -17,12 +17,12 @@ import { fitHartmannModel } from "./fit-hartmann-model";
 import { fitPolynomialModel } from "./fit-polynomial-model";
 import type { GlassTermsStart } from "./fit-glass-terms";
 import { fitPrismModel, type PrismFitSettings } from "./fit-prism-model";
-import { FITTED_GLASS_PARAMETERS } from "./fitted-glass";
+import { FITTED_GLASS_PARAMETERS, fittedGlassStart, fittedGlassTermsOf } from "./fitted-glass";
 import { assertGlassValidOver } from "./assert-glass-valid-over";
 import { GLASS_NAMES, type GlassName } from "./glass-catalogue";
 import { glassesValidOver } from "./glasses-valid-over";
 import { informationCriteria } from "./information-criteria";
-import { modelEvaluation } from "./model-evaluation";
+import { modelEvaluation, prismGeometryOf } from "./model-evaluation";
 import type { CovarianceScaling, ModelFitInput } from "./model-fit-input";
 
 export interface FitCalibrationOptions {
@@ -189,7 +189,7 @@ function fitPrism(input: ModelFitInput, options: FitOnceOptions): PrismCalibrati
       ...settings,
       glass: from.glass,
       fitGlass: true,
-      start: fittedGlassStartOf(from),
+      start: fittedGlassStartOf(from, fittedGlassTermsOf(from.parameters)),
     });
   }
   // A glass is tried only where its formula holds; a named one that does not is refused in words.
@@ -221,7 +221,7 @@ function fitPrism(input: ModelFitInput, options: FitOnceOptions): PrismCalibrati
     }
   }
   scored.sort((a, b) => a.aicc - b.aicc);
-  const starts = scored.slice(0, FITTED_GLASS_STARTS).map((s) => s.model.glass);
+  const starts = scored.slice(0, FITTED_GLASS_STARTS).map((s) => s.model);
   if (options.fitGlass === true) {
     const fitted = fittedGlassPrism(input, starts, settings);
     if (!fitted.model) {
@@ -236,18 +236,19 @@ function fitPrism(input: ModelFitInput, options: FitOnceOptions): PrismCalibrati
   const best = scored[0];
   if (!best)
     throw lastError ?? new CalibrationError("fit-failed", "no catalogue glass fits the pairs");
-  const fittedCount = best.model.parameters.length + FITTED_GLASS_PARAMETERS.length;
   if (
     options.fitGlass === undefined &&
     !options.glass &&
     !options.fitApex &&
-    input.x.length >= fittedCount + FITTED_GLASS_SPARE_PAIRS &&
+    input.x.length >=
+      best.model.parameters.length + FITTED_GLASS_PARAMETERS.length + FITTED_GLASS_SPARE_PAIRS &&
     best.model.chiSquare > jStat.chisquare.inv(FITTED_GLASS_WHEN_CHI2_BEYOND, best.model.dof)
   ) {
     const { model } = fittedGlassPrism(input, starts, settings);
     if (
       model &&
-      informationCriteria(model.chiSquare, model.pairCount, fittedCount).aicc < best.aicc
+      informationCriteria(model.chiSquare, model.pairCount, model.parameters.length).aicc <
+        best.aicc
     )
       return model;
   }
@@ -258,20 +259,29 @@ function fitPrism(input: ModelFitInput, options: FitOnceOptions): PrismCalibrati
 const FITTED_GLASS_STARTS = 3;
 
 /**
- * The prism with its glass's terms fitted, from each of `starts` (a start whose geometry sits at a
- * bound of the catalogue fit can stall short of the fit another start reaches): the lowest χ², or
- * none and the last start's error.
+ * The prism with its glass's terms fitted, from each catalogue fit of `starts` (its angles, and terms
+ * in its glass's likeness; a start whose geometry sits at a bound of the catalogue fit can stall short
+ * of the fit another start reaches): the lowest χ², or none and the last start's error.
  */
 function fittedGlassPrism(
   input: ModelFitInput,
-  starts: readonly GlassName[],
-  settings: Omit<PrismFitSettings, "glass" | "fitGlass">,
+  starts: readonly PrismCalibrationModel[],
+  settings: Omit<PrismFitSettings, "glass" | "fitGlass" | "start">,
 ): { model: PrismCalibrationModel | null; error?: CalibrationError } {
+  const rangeNm: [number, number] = [
+    Math.min(...input.wavelengthNm),
+    Math.max(...input.wavelengthNm),
+  ];
   let model: PrismCalibrationModel | null = null;
   let error: CalibrationError | undefined;
-  for (const glass of starts) {
+  for (const catalogue of starts) {
     try {
-      const fitted = fitPrismModel(input, { ...settings, glass, fitGlass: true });
+      const fitted = fitPrismModel(input, {
+        ...settings,
+        glass: catalogue.glass,
+        fitGlass: true,
+        start: fittedGlassStartOf(catalogue, fittedGlassStart(catalogue.glass, rangeNm)),
+      });
       if (!model || fitted.chiSquare < model.chiSquare) model = fitted;
     } catch (caught) {
       // A start that does not converge leaves the others.
@@ -282,14 +292,13 @@ function fittedGlassPrism(
   return { model, error };
 }
 
-/** A stored fitted-glass model's incidence, camera axis angle and glass terms, to refit it from. */
-function fittedGlassStartOf(model: PrismCalibrationModel): GlassTermsStart {
-  const p = model.parameters;
-  return {
-    incidenceRad: p[0],
-    axisAngleRad: model.axisAngleFitted ? p[model.apexFitted ? 4 : 3] : 0,
-    terms: p.slice(p.length - FITTED_GLASS_PARAMETERS.length),
-  };
+/** A fitted glass's start: `model`'s incidence and camera axis angle, and the glass terms `terms`. */
+function fittedGlassStartOf(
+  model: PrismCalibrationModel,
+  terms: readonly number[],
+): GlassTermsStart {
+  const geometry = prismGeometryOf(model);
+  return { incidenceRad: geometry.incidenceRad, axisAngleRad: geometry.axisAngleRad ?? 0, terms };
 }
 
 /** Each pair's σx as the fit weighs it: pairs without one take the median of the given ones (1 when none is). */

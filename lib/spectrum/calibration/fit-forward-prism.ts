@@ -70,7 +70,7 @@ function indexOrNaN(glass: GlassName, wavelengthNm: number): number {
 }
 
 /** Largest camera axis angle searched, rad: far beyond any camera that still sees the spectrum. */
-const MAX_AXIS_ANGLE_RAD = 0.5;
+export const MAX_AXIS_ANGLE_RAD = 0.5;
 
 /**
  * Fits x = a + b·(tan(δ(n_ref) − δ(n(λ)) + φ) − tan φ) for one glass (φ = 0 unless fitted); throws

@@ -6,7 +6,8 @@
 // all seven parameters crawls along the valley that the index level, the incidence and the scale make
 // together, and a general-purpose solver did not leave its start on the sweep's prisms.
 import { Matrix, solve } from "ml-matrix";
-import { fittedGlassCoefficients } from "./fitted-glass";
+import { MAX_AXIS_ANGLE_RAD } from "./fit-forward-prism";
+import { fittedGlassCoefficients, maxUltravioletResonanceUm2 } from "./fitted-glass";
 import { cameraTangent, prismDeviationRad } from "./prism-forward";
 import { refractiveIndexOrNaN } from "./refractive-index-or-nan";
 import { dot } from "../statistics/dot";
@@ -22,7 +23,6 @@ export interface GlassTermsStart {
 export interface GlassTermsFit {
   /** [incidence, b, a, (φ,) B₁, C₁, B₃], b signed by the axis direction. */
   parameters: number[];
-  chiSquare: number;
 }
 
 /**
@@ -46,7 +46,11 @@ interface Projected {
  */
 function termsInside([b1, c1, b3]: readonly number[], bluestNm: number): boolean {
   return (
-    b1 > 1e-3 && b1 < 10 && c1 > 1e-5 && c1 < 0.9 * (bluestNm / 1000) ** 2 && Math.abs(b3) < 30
+    b1 > 1e-3 &&
+    b1 < 10 &&
+    c1 > 1e-5 &&
+    c1 < maxUltravioletResonanceUm2(bluestNm) &&
+    Math.abs(b3) < 30
   );
 }
 
@@ -76,7 +80,7 @@ export function fitGlassTerms(
     return (
       incidence > 1e-3 &&
       incidence < Math.PI / 2 - 1e-3 &&
-      Math.abs(axisAngle) < 0.5 &&
+      Math.abs(axisAngle) < MAX_AXIS_ANGLE_RAD &&
       termsInside(terms, bluestNm)
     );
   };
@@ -105,11 +109,7 @@ export function fitGlassTerms(
     const chiSquare = line.rest.reduce((sum, r) => sum + r * r, 0);
     return Number.isFinite(chiSquare) ? { ...line, chiSquare } : null;
   };
-  let q = [
-    start.incidenceRad,
-    ...(fitAxisAngle ? [start.axisAngleRad] : []),
-    ...start.terms.slice(0, 3),
-  ];
+  let q = [start.incidenceRad, ...(fitAxisAngle ? [start.axisAngleRad] : []), ...start.terms];
   const first = inside(q) ? projected(q) : null;
   if (!first) return null;
   let current: Projected = first;
@@ -163,6 +163,5 @@ export function fitGlassTerms(
       ...(fitAxisAngle ? [axisAngle] : []),
       ...terms,
     ],
-    chiSquare: current.chiSquare,
   };
 }

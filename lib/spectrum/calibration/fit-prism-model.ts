@@ -7,13 +7,17 @@ import { jacobianCovariance } from "./jacobian-covariance";
 import type { PrismCalibrationModel } from "./calibration-model";
 import type { GlassName } from "./glass-catalogue";
 import { modelEvaluation } from "./model-evaluation";
-import { fitForwardPrism } from "./fit-forward-prism";
+import { fitForwardPrism, MAX_AXIS_ANGLE_RAD } from "./fit-forward-prism";
 import { modelBase, type CovarianceScaling, type ModelFitInput } from "./model-fit-input";
 import { cameraTangent, prismDeviationRad } from "./prism-forward";
 import { refractiveIndex } from "./refractive-index";
 import { refractiveIndexOrNaN } from "./refractive-index-or-nan";
 import { fitGlassTerms, type GlassTermsStart } from "./fit-glass-terms";
-import { FITTED_GLASS_PARAMETERS, fittedGlassCoefficients, fittedGlassStart } from "./fitted-glass";
+import {
+  FITTED_GLASS_PARAMETERS,
+  fittedGlassCoefficients,
+  fittedGlassTermsOf,
+} from "./fitted-glass";
 
 const DEG = Math.PI / 180;
 
@@ -25,7 +29,7 @@ export interface PrismFitSettings {
   fitAxisAngle: boolean;
   /** Fit the glass's Sellmeier terms too, starting from `glass` (fitted-glass.ts). @default false */
   fitGlass?: boolean;
-  /** Where a fitted glass's search starts (a stored model's own angles and terms). @default from `glass` */
+  /** Where a fitted glass's search starts (fittedGlassStartOf); needed with `fitGlass`. */
   start?: GlassTermsStart;
   scaling: CovarianceScaling;
 }
@@ -52,9 +56,10 @@ export function fitPrismModel(
   let direction: 1 | -1;
   let initial: number[];
   if (fitGlass) {
-    // The glass's terms and the angles are fitted together from the given start, or from the catalogue
-    // glass's likeness and its own geometry; the camera's scale and position follow them.
-    const start = settings.start ?? catalogueStart(input, settings, referenceNm, [low, high]);
+    // The glass's terms and the angles are fitted together from the given start; the camera's scale
+    // and position follow them.
+    const { start } = settings;
+    if (!start) throw new RangeError("fitGlass needs a start");
     const glassFit = fitGlassTerms(
       x,
       wavelengthNm,
@@ -80,7 +85,6 @@ export function fitPrismModel(
     if (fitApex) initial.push(apexRad);
     if (fitAxisAngle) initial.push(start.axisAngleRad);
   }
-  const glassIndex = initial.length - FITTED_GLASS_PARAMETERS.length;
 
   // n(λ) of every pair is fixed during the fit of a catalogue glass: computing the Sellmeier sums once
   // leaves only Snell's law per evaluation, and focalX and axisX enter linearly (analytic derivatives).
@@ -93,7 +97,7 @@ export function fitPrismModel(
       };
   const indicesAt = (parameters: number[], i: number) => {
     if (catalogue) return { reference: catalogue.reference, ofPair: catalogue.ofPair[i] };
-    const glass = fittedGlassCoefficients(parameters.slice(glassIndex));
+    const glass = fittedGlassCoefficients(fittedGlassTermsOf(parameters));
     return {
       reference: refractiveIndexOrNaN(glass, referenceNm),
       ofPair: refractiveIndexOrNaN(glass, wavelengthNm[i]),
@@ -130,8 +134,8 @@ export function fitPrismModel(
     const minValues = [1e-3, 1e-9, -1e12, 5 * DEG];
     const maxValues = [Math.PI / 2 - 1e-3, 1e15, 1e12, 85 * DEG];
     if (fitAxisAngle) {
-      minValues.push(-0.5);
-      maxValues.push(0.5);
+      minValues.push(-MAX_AXIS_ANGLE_RAD);
+      maxValues.push(MAX_AXIS_ANGLE_RAD);
     }
     // ml-levenberg-marquardt stops only on an absolute error or the iteration cap, so it runs in short
     // rounds until χ² stops falling; from the forward fit's start a few rounds suffice.
@@ -233,20 +237,5 @@ function forwardStart(input: ModelFitInput, settings: PrismFitSettings, referenc
     axisX,
     axisAngleRad,
     direction: (slope > 0 ? 1 : -1) as 1 | -1,
-  };
-}
-
-/** A fitted glass's start from a catalogue glass: its geometry, and terms in its likeness over `rangeNm`. */
-function catalogueStart(
-  input: ModelFitInput,
-  settings: PrismFitSettings,
-  referenceNm: number,
-  rangeNm: [number, number],
-): GlassTermsStart {
-  const start = forwardStart(input, settings, referenceNm);
-  return {
-    incidenceRad: start.incidenceRad,
-    axisAngleRad: start.axisAngleRad,
-    terms: fittedGlassStart(settings.glass, rangeNm),
   };
 }

@@ -17,10 +17,20 @@ import { refractiveIndexOrNaN } from "./refractive-index-or-nan";
 import { dot } from "../statistics/dot";
 
 /** Place of the fitted glass's infrared resonance, µm². */
-export const FITTED_GLASS_INFRARED_UM2 = 100;
+const FITTED_GLASS_INFRARED_UM2 = 100;
 
 /** Names of the fitted glass's parameters, in the order the prism model appends them. */
 export const FITTED_GLASS_PARAMETERS = ["sellmeierB1", "sellmeierC1Um2", "sellmeierB3"] as const;
+
+/** A fitted-glass prism model's terms [B₁, C₁, B₃]: its last parameters. */
+export function fittedGlassTermsOf(parameters: readonly number[]): number[] {
+  return parameters.slice(parameters.length - FITTED_GLASS_PARAMETERS.length);
+}
+
+/** Largest place C₁ of the ultraviolet resonance, µm²: a tenth of the bluest pair's λ² below it. */
+export function maxUltravioletResonanceUm2(bluestNm: number): number {
+  return 0.9 * (bluestNm / 1000) ** 2;
+}
 
 /**
  * The fitted glass [B₁, C₁ (µm²), B₃] as Sellmeier coefficients the index formula reads; its stated
@@ -72,7 +82,7 @@ export function fittedGlassStart(
   const c1 = goldenSectionMinimum(
     (c) => strengthsAt(c).misfit,
     1e-4,
-    0.9 * (lowNm / 1000) ** 2,
+    maxUltravioletResonanceUm2(lowNm),
     1e-7,
   );
   const { b1, b3 } = strengthsAt(c1);

@@ -2,7 +2,7 @@
 // Jacobian ∂λ/∂parameters that the uncertainty and the fits need. Shared by the public evaluators.
 import { CalibrationError } from "./calibration-error";
 import type { CalibrationModel, PrismCalibrationModel } from "./calibration-model";
-import { fittedGlassCoefficients } from "./fitted-glass";
+import { fittedGlassCoefficients, fittedGlassTermsOf } from "./fitted-glass";
 import {
   prismForward,
   prismForwardX,
@@ -34,7 +34,7 @@ export function prismGeometryOf(
     referenceWavelengthNm: model.referenceWavelengthNm,
     axisAngleRad: model.axisAngleFitted ? parameters[model.apexFitted ? 4 : 3] : 0,
     ...(model.glassFitted
-      ? { sellmeier: fittedGlassCoefficients(parameters.slice(parameters.length - 3)) }
+      ? { sellmeier: fittedGlassCoefficients(fittedGlassTermsOf(parameters)) }
       : {}),
   };
 }

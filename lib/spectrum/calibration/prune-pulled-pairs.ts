@@ -50,7 +50,6 @@ export function worstOffCurve(
   return {
     index: residuals.indexOf(residualX),
     residualX,
-    // The upper median of the residuals.
     robustSigmaX: 1.4826 * upperMedianOfSorted(sorted),
   };
 }

@@ -2,7 +2,7 @@
 // which it passes them (the result's confidence).
 import type { CalibrationModel } from "./calibration-model";
 import { dailyDriftShare } from "./daily-drift-share";
-import { EXPECTED_PEAK_REACH } from "./expected-peak-reach";
+import { EXPECTED_PEAK_REACH, peakWithinReach } from "./expected-peak-reach";
 import type { PairingCheck } from "./lamp-pairing-types";
 import { modelEvaluation } from "./model-evaluation";
 import type { PairingContext } from "./pairing-context";
@@ -56,11 +56,11 @@ export function recalibrationChecks(
   // saturated or pulled top off the drift by more than a pair may be is still the line. On the
   // re-recorded sweep (200 instruments each of 15400000, 16300000 and the fresh 16800000) this made
   // 4 more recalibrations right and "paired", with no silent wrong before or after.
-  const peakXs = context.peaks.map((p) => p.x);
+  const peakXs = context.peaks.map((p) => p.x).sort((a, b) => a - b);
   const seen = onArray.filter(
     (p) =>
       pairedLines.has(p.line) ||
-      peakXs.some((x) => Math.abs(x - todayX(p.u)) <= EXPECTED_PEAK_REACH * tolerance),
+      peakWithinReach(peakXs, todayX(p.u), EXPECTED_PEAK_REACH * tolerance),
   ).length;
   const expectedShare = onArray.length > 0 ? seen / onArray.length : 0;
   const scatter = fitted.scatterX / tolerance;

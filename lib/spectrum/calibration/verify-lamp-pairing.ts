@@ -32,7 +32,7 @@ import { predictedByTheRest, predictionOfPairs } from "./predicted-by-the-rest";
 import { weightedLeastSquares } from "./weighted-least-squares";
 import { worstHeldOutMiss } from "./held-out-miss";
 import { largestPairInfluence } from "./pair-influence";
-import { EXPECTED_PEAK_REACH } from "./expected-peak-reach";
+import { EXPECTED_PEAK_REACH, peakWithinReach } from "./expected-peak-reach";
 import { linearisedFit } from "./linearised-fit";
 import { describePairs } from "./describe-pairs";
 
@@ -461,7 +461,7 @@ export function verifyLampPairing(
         if (lampLineBlended(context.lines, context.candidateLines, l, predict, fwhmX)) continue;
         expected++;
         const x = predict(context.lines[l].wavelengthNm);
-        if (peakX.some((p) => Math.abs(p - x) <= EXPECTED_PEAK_REACH * tol)) seen++;
+        if (peakWithinReach(peakX, x, EXPECTED_PEAK_REACH * tol)) seen++;
       }
     }
   }

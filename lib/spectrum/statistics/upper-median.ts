@@ -2,9 +2,7 @@
 // (no averaging, so the result is always one of the values); NaN for none. Robust spreads and typical
 // widths in calibration take it where `median` would average two neighbours.
 export function upperMedian(values: readonly number[]): number {
-  if (values.length === 0) return Number.NaN;
-  const sorted = values.slice().sort((a, b) => a - b);
-  return sorted[sorted.length >> 1];
+  return upperMedianOfSorted(values.slice().sort((a, b) => a - b));
 }
 
 /** The upper median of values already sorted ascending (no copy, no sort); NaN for none. */

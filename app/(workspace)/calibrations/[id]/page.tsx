@@ -13,7 +13,7 @@ import { requireWorkspace } from "@/lib/services/workspace";
 import { EntityTrail } from "@/components/audit/entity-trail";
 import { TableScroll } from "@/components/ui/table-scroll";
 import { WarningList } from "@/components/ui/warning-list";
-import { withinCoveredRange } from "@/lib/calibrations/covered-range";
+import { OutsideCoveredNote } from "@/components/calibration/outside-covered-note";
 
 export const metadata = { title: "Calibration" };
 
@@ -268,9 +268,7 @@ export default async function CalibrationPage({ params }: { params: Promise<{ id
                         ▼{" "}
                       </span>
                       used
-                      {withinCoveredRange(p, calibration.coveredRangeNm) ? null : (
-                        <span className="muted"> · outside the covered range</span>
-                      )}
+                      <OutsideCoveredNote pair={p} coveredRangeNm={calibration.coveredRangeNm} />
                     </span>
                   ) : (
                     <span>
