@@ -1,14 +1,14 @@
 // Fast fit of the physical prism model of one catalogue glass run forwards, x(λ), used while pairing a
 // prism and as the start of fitPrismModel: with the incidence and the camera axis angle fixed, x is a
 // straight line in the camera tangent of δref − δ(λ), so the camera scale and axis are solved in closed
-// form; the incidence is searched (a scan, then golden-section search) with the camera on the reference
+// form; the incidence is searched (a scan, then Brent's method) with the camera on the reference
 // ray, then the incidence and the axis angle are polished together by Gauss–Newton steps.
 // Far cheaper than fitPrismModel, which also inverts the model for residuals in nm.
 import { CalibrationError } from "./calibration-error";
 import type { GlassName } from "./glass-catalogue";
 import { jacobianCovariance } from "./jacobian-covariance";
 import type { ForwardHartmannPoint } from "./fit-forward-hartmann";
-import { goldenSectionMinimum } from "./golden-section-minimum";
+import { brentMinimum } from "./brent-minimum";
 import { cameraTangent, prismDeviationRad } from "./prism-forward";
 import { refractiveIndex } from "./refractive-index";
 import { dampedStep, lineProjection, twoParameterNormal, weightedLine } from "./weighted-line";
@@ -55,7 +55,8 @@ export interface ForwardPrismFit {
   predictX: (wavelengthNm: number) => number;
   /**
    * 1σ of a new observation at λ: sqrt(s²·(g·C·gᵀ + σpeak²)) with s² = max(1, χ²/dof), as the forward
-   * Hartmann fit gives it.
+   * Hartmann fit gives it; NaN where the glass has no index, or when the pairs do not determine the
+   * parameters (a singular Jacobian).
    */
   predictionSigmaX: (wavelengthNm: number, peakSigmaX?: number) => number;
 }
@@ -129,7 +130,7 @@ export function fitForwardPrism(
   };
 
   // The profile is smooth but not convex over the whole scan (rays graze the faces at its ends), so a
-  // scan around minimum deviation brackets the minimum before the golden-section search.
+  // scan around minimum deviation brackets the minimum before Brent's search.
   const minimumDeviation = Math.asin(Math.min(nReference * Math.sin(apexRad / 2), 1));
   const stepRad = 0.5 * DEG;
   /** The best incidence on a 0.5° grid of offsets (degrees) from `centre`, and whether it lies inside. */
@@ -158,7 +159,7 @@ export function fitForwardPrism(
       `${glass}: no prism geometry passes all the pairs' wavelengths`,
     );
   }
-  const scannedIncidence = goldenSectionMinimum(
+  const scannedIncidence = brentMinimum(
     (incidence) => profile(incidence).chiSquare,
     Math.max(bestIncidence - stepRad, 1e-3),
     Math.min(bestIncidence + stepRad, Math.PI / 2 - 1e-3),
@@ -285,9 +286,22 @@ export function fitForwardPrism(
     if (polished.chiSquare < chiSquare) ({ parameters, chiSquare } = polished);
   }
   const fitted = modelAt(parameters);
-  const covariance = jacobianCovariance(
-    nOfPair.map((n, i) => fitted.gradientOf(n).map((g) => g / sigma[i])),
-  );
+  // Worked out on the first prediction interval asked for (most fits are only ranked by χ²); null when
+  // the pairs do not determine the parameters.
+  let covariance: number[][] | null | undefined;
+  const covarianceOnce = () => {
+    if (covariance === undefined) {
+      try {
+        covariance = jacobianCovariance(
+          nOfPair.map((n, i) => fitted.gradientOf(n).map((g) => g / sigma[i])),
+        );
+      } catch (error) {
+        if (!(error instanceof CalibrationError)) throw error;
+        covariance = null;
+      }
+    }
+    return covariance;
+  };
   const dof = x.length - parameterCount;
   const varianceFactor = dof > 0 ? Math.max(1, chiSquare / dof) : 1;
   const predictX = (wavelengthNm: number) => fitted.valueOf(indexOrNaN(glass, wavelengthNm));
@@ -300,6 +314,8 @@ export function fitForwardPrism(
     predictionSigmaX: (wavelengthNm, peakSigmaX = 1) => {
       const g = fitted.gradientOf(indexOrNaN(glass, wavelengthNm));
       if (!g.every(Number.isFinite)) return Number.NaN;
+      const covariance = covarianceOnce();
+      if (!covariance) return Number.NaN;
       let variance = 0;
       for (let j = 0; j < parameterCount; j++)
         for (let k = 0; k < parameterCount; k++) variance += g[j] * covariance[j][k] * g[k];
