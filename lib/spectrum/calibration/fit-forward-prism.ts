@@ -146,9 +146,11 @@ export function fitForwardPrism(
     }
     return best;
   };
-  // Growth refits nearly the same pairs many times: around the last incidence a few degrees suffice.
+  // Growth refits nearly the same pairs many times: the last incidence, lower than its neighbours half
+  // a degree away, brackets the minimum at once; otherwise a few degrees around it are scanned.
   const start = options.startIncidenceRad;
-  let found = start !== undefined && Number.isFinite(start) ? scan(start, -3, 3) : null;
+  let found = start !== undefined && Number.isFinite(start) ? scan(start, -0.5, 0.5) : null;
+  if (found && !found.inside) found = scan(start!, -3, 3);
   if (!found || !found.inside || !Number.isFinite(found.chiSquare))
     found = scan(minimumDeviation, -25, 35);
   const bestIncidence = found.incidence;
