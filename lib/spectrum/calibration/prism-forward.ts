@@ -121,40 +121,75 @@ export function prismInverseWavelengths(
   const result = new Float64Array(x.length).fill(Number.NaN);
   if (gridNm.length < 2) return result;
   // gridNm runs from blue to red; orient the search so x increases along the arrays.
-  const increasing = gridX[gridX.length - 1] > gridX[0];
+  const sense = gridX[gridX.length - 1] > gridX[0] ? 1 : -1;
+  const last = gridX.length - 1;
   for (let k = 0; k < x.length; k++) {
     const target = x[k];
+    const goal = sense * target;
+    if (goal < sense * gridX[0] || goal > sense * gridX[last]) continue;
     let low = 0;
-    let high = gridX.length - 1;
-    const value = (i: number) => (increasing ? gridX[i] : -gridX[i]);
-    const goal = increasing ? target : -target;
-    if (goal < value(low) || goal > value(high)) continue;
+    let high = last;
     while (high - low > 1) {
       const mid = (low + high) >> 1;
-      if (value(mid) <= goal) low = mid;
+      if (sense * gridX[mid] <= goal) low = mid;
       else high = mid;
     }
-    let a = gridNm[low];
-    let b = gridNm[high];
-    let lambda = a + ((b - a) * (goal - value(low))) / (value(high) - value(low) || 1);
-    let fA = forward(a) - target;
-    for (let iteration = 0; iteration < 40; iteration++) {
-      const f = forward(lambda) - target;
-      const step = 1e-4 * lambda;
-      const slope = (forward(lambda + step) - forward(lambda - step)) / (2 * step);
-      if (Math.sign(f) === Math.sign(fA)) {
-        a = lambda;
-        fA = f;
-      } else b = lambda;
-      let next = lambda - f / slope;
-      if (!(next > Math.min(a, b) && next < Math.max(a, b))) next = (a + b) / 2;
-      if (Math.abs(next - lambda) < 1e-10 * lambda) {
-        lambda = next;
-        break;
-      }
-      lambda = next;
-    }
-    result[k] = lambda;
+    result[k] = rootOnBracket(
+      forward,
+      target,
+      gridNm[low],
+      gridX[low] - target,
+      gridNm[high],
+      gridX[high] - target,
+    );
   }
   return result;
+}
+
+/**
+ * The wavelength in [a, b] at which `forward` reaches `target`, given the misses fA and fB at the ends
+ * (of opposite signs): regula falsi with the Illinois modification (an end kept twice has its miss
+ * halved, so the bracket closes from both sides), one evaluation per step. From the grid's bracket a
+ * few steps reach double precision, where Newton's steps with a numerical slope took three evaluations
+ * each. A step that lands where the ray is lost bisects instead.
+ */
+function rootOnBracket(
+  forward: (wavelengthNm: number) => number,
+  target: number,
+  a: number,
+  fA: number,
+  b: number,
+  fB: number,
+): number {
+  if (fA === 0) return a;
+  if (fB === 0) return b;
+  let kept = 0;
+  let lambda = a - (fA * (b - a)) / (fB - fA);
+  for (let iteration = 0; iteration < 100; iteration++) {
+    const f = forward(lambda) - target;
+    if (f === 0) return lambda;
+    if (!Number.isFinite(f)) {
+      lambda = (a + b) / 2;
+      continue;
+    }
+    if (Math.sign(f) === Math.sign(fA)) {
+      a = lambda;
+      fA = f;
+      if (kept === -1) fB /= 2;
+      kept = -1;
+    } else {
+      b = lambda;
+      fB = f;
+      if (kept === 1) fA /= 2;
+      kept = 1;
+    }
+    const next = a - (fA * (b - a)) / (fB - fA);
+    const settled = !(Math.abs(next - lambda) >= 1e-12 * lambda);
+    lambda =
+      Number.isFinite(next) && next >= Math.min(a, b) && next <= Math.max(a, b)
+        ? next
+        : (a + b) / 2;
+    if (settled) break;
+  }
+  return lambda;
 }
