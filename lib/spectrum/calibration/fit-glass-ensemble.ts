@@ -37,6 +37,14 @@ export interface FitGlassEnsembleOptions {
    * @default undefined (every glass searched from scratch)
    */
   incidenceStarts?: Map<GlassName, number>;
+  /**
+   * Each glass's χ² over a subset of the points (an earlier fit of fewer pairs): adding pairs never
+   * lowers a least-squares minimum, so a glass whose floor already lies beyond maxDeltaAicc of the best
+   * glass fitted is left out without a fit. Every glass has the same parameters and points, so its
+   * AICc grows with its χ².
+   * @default undefined (every glass fitted)
+   */
+  chiSquareFloors?: ReadonlyMap<GlassName, number>;
 }
 
 /** The kept glasses and what they say together. */
@@ -51,6 +59,11 @@ export interface GlassEnsemble {
   spreadX: (wavelengthNm: number) => number;
   /** The best glass's prediction σ combined in quadrature with the spread. */
   predictionSigmaX: (wavelengthNm: number, peakSigmaX?: number) => number;
+  /**
+   * Each glass's χ² over these points, or for a glass left out, the floor it was left out at: floors
+   * for any fit of more pairs (see chiSquareFloors).
+   */
+  chiSquares: Map<GlassName, number>;
 }
 
 /** Fits every glass to `points` and keeps the well-supported ones; null when no glass fits at all. */
@@ -60,13 +73,26 @@ export function fitGlassEnsemble(
 ): GlassEnsemble | null {
   const { maxDeltaAicc = 4, apexDeg = 60, fitAxisAngle = true, glasses = GLASS_NAMES } = options;
   if (!(maxDeltaAicc >= 0)) throw new RangeError(`maxDeltaAicc must be ≥ 0, got ${maxDeltaAicc}`);
-  const scored: { fit: ForwardPrismFit; aicc: number }[] = [];
+  const scored: { fit: ForwardPrismFit; aicc: number; order: number }[] = [];
   const wavelengths = points.map((p) => p.wavelengthNm);
   const starts = options.incidenceStarts;
-  for (const glass of glassesValidOver(
-    [Math.min(...wavelengths), Math.max(...wavelengths)],
-    glasses,
-  )) {
+  const floors = options.chiSquareFloors;
+  const chiSquares = new Map<GlassName, number>();
+  const floorOf = (glass: GlassName) => floors?.get(glass) ?? 0;
+  const parameterCount = fitAxisAngle ? 4 : 3;
+  // The most promising first, so that the best is known before a glass's floor is weighed against it.
+  const candidates = glassesValidOver([Math.min(...wavelengths), Math.max(...wavelengths)], glasses)
+    .map((glass, order) => ({ glass, order, floor: floorOf(glass) }))
+    .sort((a, b) => a.floor - b.floor || a.order - b.order);
+  let bestSoFar = Infinity;
+  for (const { glass, order, floor } of candidates) {
+    if (
+      floor > 0 &&
+      informationCriteria(floor, points.length, parameterCount).aicc - bestSoFar > maxDeltaAicc
+    ) {
+      chiSquares.set(glass, floor);
+      continue;
+    }
     try {
       const fit = fitForwardPrism(points, glass, {
         apexDeg,
@@ -74,14 +100,19 @@ export function fitGlassEnsemble(
         ...(starts?.has(glass) ? { startIncidenceRad: starts.get(glass) } : {}),
       });
       starts?.set(glass, fit.parameters[0]);
+      chiSquares.set(glass, fit.chiSquare);
       const { aicc } = informationCriteria(fit.chiSquare, points.length, fit.parameters.length);
-      if (Number.isFinite(aicc)) scored.push({ fit, aicc });
+      if (Number.isFinite(aicc)) {
+        scored.push({ fit, aicc, order });
+        bestSoFar = Math.min(bestSoFar, aicc);
+      }
     } catch {
       // A glass whose formula does not reach a pair's wavelength, or passes no ray, is simply not a candidate.
     }
   }
   if (scored.length === 0) return null;
-  scored.sort((a, b) => a.aicc - b.aicc);
+  // Equals keep the catalogue's order, whichever was fitted first.
+  scored.sort((a, b) => a.aicc - b.aicc || a.order - b.order);
   const bestAicc = scored[0].aicc;
   const kept = scored.filter((s) => s.aicc - bestAicc <= maxDeltaAicc);
   const weights = kept.map((s) => Math.exp(-(s.aicc - bestAicc) / 2));
@@ -99,5 +130,6 @@ export function fitGlassEnsemble(
     spreadX,
     predictionSigmaX: (wavelengthNm, peakSigmaX) =>
       Math.hypot(kept[0].fit.predictionSigmaX(wavelengthNm, peakSigmaX), spreadX(wavelengthNm)),
+    chiSquares,
   };
 }

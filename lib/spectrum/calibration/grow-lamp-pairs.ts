@@ -61,6 +61,9 @@ const WORST_SUSPECTS = 3;
 /** Fewest pairs the growth starts from: the 4 parameters plus two degrees of freedom. */
 const MIN_CORE = 6;
 
+/** A pair's identity within one pairing: its peak and its line. */
+const pairKey = (p: LampPair) => `${p.peakIndex}:${p.lineIndex}`;
+
 /** One pair per peak and per line: a repeated peak or line keeps its first pair (forced pairs come first). */
 function oneToOne(pairs: LampPair[]): LampPair[] {
   const peaks = new Set<number>();
@@ -133,6 +136,18 @@ export function growLampPairs(
   };
 
   let start: number[] | undefined;
+  // Each glass's χ² over each pair set fitted so far: floors of its χ² over any set that holds one.
+  const glassChiSquares: { keys: Set<string>; chiSquares: Map<GlassName, number> }[] = [];
+  const chiSquareFloors = (subset: LampPair[]): Map<GlassName, number> => {
+    const keys = new Set(subset.map(pairKey));
+    const floors = new Map<GlassName, number>();
+    for (const earlier of glassChiSquares) {
+      if (earlier.keys.size > keys.size || ![...earlier.keys].every((k) => keys.has(k))) continue;
+      for (const [glass, chiSquare] of earlier.chiSquares)
+        floors.set(glass, Math.max(floors.get(glass) ?? 0, chiSquare));
+    }
+    return floors;
+  };
   // Each glass's last incidence: growth refits nearly the same pairs, and its search starts there.
   const incidenceStarts = new Map<GlassName, number>();
   const glassFree = (
@@ -175,8 +190,10 @@ export function growLampPairs(
       maxDeltaAicc,
       fitAxisAngle: false,
       incidenceStarts,
+      chiSquareFloors: chiSquareFloors(subset),
     });
     if (!ensemble) return hartmann?.predictor ?? null;
+    glassChiSquares.push({ keys: new Set(subset.map(pairKey)), chiSquares: ensemble.chiSquares });
     // The centred physical model has one parameter fewer; when no glass fits the pairs as well as the
     // glass-free form does, the instrument's glass is not among them and Hartmann predicts instead.
     const hartmannAicc = hartmann
@@ -198,10 +215,7 @@ export function growLampPairs(
   // Prune and grow ask about the same pair sets again and again (a pair left out, a round repeated).
   const fits = new Map<string, Predictor | null>();
   const fit = (subset: LampPair[]): Predictor | null => {
-    const key = subset
-      .map((p) => `${p.peakIndex}:${p.lineIndex}`)
-      .sort()
-      .join();
+    const key = subset.map(pairKey).sort().join();
     if (!fits.has(key)) fits.set(key, computeFit(subset));
     return fits.get(key)!;
   };
@@ -334,19 +348,10 @@ export function growLampPairs(
   };
 
   for (let round = 0; round < maxRounds; round++) {
-    const before = pairs
-      .map((p) => `${p.peakIndex}:${p.lineIndex}`)
-      .sort()
-      .join();
+    const before = pairs.map(pairKey).sort().join();
     prune();
     grow();
-    if (
-      pairs
-        .map((p) => `${p.peakIndex}:${p.lineIndex}`)
-        .sort()
-        .join() === before
-    )
-      break;
+    if (pairs.map(pairKey).sort().join() === before) break;
   }
   return pairs.sort((a, b) => a.x - b.x);
 }

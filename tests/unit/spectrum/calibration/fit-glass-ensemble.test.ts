@@ -107,6 +107,34 @@ describe("fitGlassEnsemble", () => {
     expect(Math.abs(wide.predictX(365.015) - prismX(365.015))).toBeLessThan(1);
   });
 
+  it("leaves out, without a fit, the glasses whose χ² over fewer of the pairs already rules them out", () => {
+    const fewer = pairs(540, 760);
+    const all = pairs(540, 900);
+    const first = fitGlassEnsemble(fewer, { fitAxisAngle: false })!;
+    // Adding pairs never lowers a least-squares minimum: each glass's χ² over the fewer pairs is a floor.
+    const whole = fitGlassEnsemble(all, { fitAxisAngle: false })!;
+    for (const [glass, chiSquare] of first.chiSquares) {
+      if (whole.chiSquares.has(glass))
+        expect(whole.chiSquares.get(glass)!).toBeGreaterThanOrEqual(chiSquare * (1 - 1e-9));
+    }
+    const leftOut: string[] = [];
+    const floored = fitGlassEnsemble(all, {
+      fitAxisAngle: false,
+      chiSquareFloors: first.chiSquares,
+      incidenceStarts: new Map(),
+    })!;
+    // The same kept glasses and predictions, with fewer glasses fitted.
+    expect(floored.fits.map((f) => f.glass)).toEqual(whole.fits.map((f) => f.glass));
+    expect(floored.predictX(365.015)).toBeCloseTo(whole.predictX(365.015), 6);
+    expect(floored.bestAicc).toBeCloseTo(whole.bestAicc, 9);
+    for (const [glass, chiSquare] of floored.chiSquares) {
+      if (chiSquare === first.chiSquares.get(glass)) leftOut.push(glass);
+    }
+    // Glasses left out keep their floor; at 540–760 nm the crowns already miss F2's pairs by far.
+    expect(leftOut.length).toBeGreaterThan(0);
+    expect(leftOut).not.toContain("F2");
+  });
+
   it("refuses a negative ΔAICc", () => {
     expect(() => fitGlassEnsemble(pairs(540, 900), { maxDeltaAicc: -1 })).toThrow(RangeError);
   });
