@@ -117,14 +117,11 @@ export function fitGlassTerms(
   let converged = false;
   for (let iteration = 0; iteration < MAX_ITERATIONS && !converged && damping < 1e12; iteration++) {
     const point = current;
-    // Jacobian of the projected residuals, by central differences (a lost ray: no slope there).
+    // Jacobian of the projected residuals, by forward differences (a lost ray: no slope there).
     const columns = q.map((value, k) => {
-      const h = 1e-6 * Math.max(Math.abs(value), 1e-3);
+      const h = 1e-7 * Math.max(Math.abs(value), 1e-3);
       const above = projected(q.map((v, j) => (j === k ? v + h : v)));
-      const below = projected(q.map((v, j) => (j === k ? v - h : v)));
-      return above && below
-        ? above.rest.map((r, i) => (r - below.rest[i]) / (2 * h))
-        : point.rest.map(() => 0);
+      return above ? above.rest.map((r, i) => (r - point.rest[i]) / h) : point.rest.map(() => 0);
     });
     const normal = columns.map((a) => columns.map((b) => dot(a, b)));
     const gradient = columns.map((a) => dot(a, point.rest));
