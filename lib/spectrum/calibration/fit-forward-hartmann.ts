@@ -1,10 +1,10 @@
 // Fast fit of the Hartmann form run forwards, x = a + b·((λ − λ₀)/100 nm)^(−α), used while pairing a
 // prism: four parameters and no glass, fitted in x (the measured quantity) with a prediction interval,
 // so pairing can ask both where a line should fall and how sure that place is.
-import { Matrix, solve } from "ml-matrix";
 import { CalibrationError } from "./calibration-error";
 import { jacobianCovariance } from "./jacobian-covariance";
 import { weightedLine } from "./weighted-line";
+import { solveSymmetric } from "../statistics/solve-symmetric";
 
 /** One pair as the forward fit needs it. */
 export interface ForwardHartmannPoint {
@@ -137,12 +137,11 @@ export function fitForwardHartmann(
     // The normal equations at the current parameters, built once for every damping tried there.
     let equations = normalEquations(parameters, x, lambda, sigma);
     for (let iteration = 0; iteration < 100 && damping < 1e12; iteration++) {
-      const normal = new Matrix(equations.normal);
-      for (let j = 0; j < 4; j++) normal.set(j, j, normal.get(j, j) * (1 + damping) + 1e-300);
-      let step: number[];
-      try {
-        step = solve(normal, Matrix.columnVector(equations.gradient)).getColumn(0);
-      } catch {
+      const normal = equations.normal.map((row, j) =>
+        row.map((value, k) => (j === k ? value * (1 + damping) + 1e-300 : value)),
+      );
+      const step = solveSymmetric(normal, equations.gradient);
+      if (!step) {
         damping *= 10;
         continue;
       }

@@ -5,12 +5,12 @@
 // diagonal scaling; its Jacobian is a central difference of the projected residuals. A search over
 // all seven parameters crawls along the valley that the index level, the incidence and the scale make
 // together, and a general-purpose solver did not leave its start on the sweep's prisms.
-import { Matrix, solve } from "ml-matrix";
 import { MAX_AXIS_ANGLE_RAD } from "./fit-forward-prism";
 import { fittedGlassCoefficients, maxUltravioletResonanceUm2 } from "./fitted-glass";
 import { cameraTangent, prismDeviationRad } from "./prism-forward";
 import { refractiveIndexOrNaN } from "./refractive-index-or-nan";
 import { dot } from "../statistics/dot";
+import { solveSymmetric } from "../statistics/solve-symmetric";
 import { lineProjection } from "./weighted-line";
 
 export interface GlassTermsStart {
@@ -132,12 +132,8 @@ export function fitGlassTerms(
       const damped = normal.map((row, j) =>
         row.map((value, k) => (j === k ? value + damping * Math.max(value, floor) : value)),
       );
-      let step: number[] | null = null;
-      try {
-        step = solve(new Matrix(damped), Matrix.columnVector(gradient)).to1DArray();
-      } catch {
-        // A singular damped system: more damping.
-      }
+      // A singular damped system (null): more damping.
+      const step = solveSymmetric(damped, gradient);
       const trialQ = step ? q.map((value, k) => value - step[k]) : null;
       const trial = trialQ && inside(trialQ) ? projected(trialQ) : null;
       if (trialQ && trial && trial.chiSquare < point.chiSquare) {
