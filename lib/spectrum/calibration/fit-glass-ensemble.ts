@@ -40,8 +40,9 @@ export interface FitGlassEnsembleOptions {
   /**
    * Each glass's χ² over a subset of the points (an earlier fit of fewer pairs): adding pairs never
    * lowers a least-squares minimum, so a glass whose floor already lies beyond maxDeltaAicc of the best
-   * glass fitted is left out without a fit. Every glass has the same parameters and points, so its
-   * AICc grows with its χ².
+   * glass fitted is left out without a fit (as far as each fit finds its glass's least χ², which a
+   * search from the glass's last incidence does on nearly the same pairs). Every glass has the same
+   * parameters and points, so its AICc grows with its χ².
    * @default undefined (every glass fitted)
    */
   chiSquareFloors?: ReadonlyMap<GlassName, number>;

@@ -2,7 +2,7 @@
 // + φ) − tan φ) with n(λ) from [B₁, C₁, B₃]. The camera's scale b and position a enter linearly and
 // are projected out (variable projection, Golub & Pereyra 1973, cited from memory), which leaves the
 // incidence, the axis angle and the three glass terms to a Levenberg–Marquardt search with Marquardt's
-// diagonal scaling; its Jacobian is a central difference of the projected residuals. A search over
+// diagonal scaling; its Jacobian is a forward difference of the projected residuals. A search over
 // all seven parameters crawls along the valley that the index level, the incidence and the scale make
 // together, and a general-purpose solver did not leave its start on the sweep's prisms.
 import { MAX_AXIS_ANGLE_RAD } from "./fit-forward-prism";

@@ -1,8 +1,8 @@
 // Forward model of a prism spectrometer, x(λ), and its numerical inverse λ(x) for the prism calibration.
 //
 // The forward direction is closed-form (Snell's law at both faces); the inverse has none, so λ(x) is
-// found on a bracket by Newton steps safeguarded with bisection, which always converges because x(λ)
-// is monotonic wherever the fit is accepted.
+// found on a bracket by regula falsi (Illinois) safeguarded with bisection, which always converges
+// because x(λ) is monotonic wherever the fit is accepted.
 import { refractiveIndexOrNaN } from "./refractive-index-or-nan";
 import { GLASS_CATALOGUE, type GlassName, type SellmeierGlass } from "./glass-catalogue";
 
@@ -169,6 +169,8 @@ function rootOnBracket(
     const f = forward(lambda) - target;
     if (f === 0) return lambda;
     if (!Number.isFinite(f)) {
+      // The ray is lost here: the root lies between a and this point, where the grid's a was finite.
+      b = lambda;
       lambda = (a + b) / 2;
       continue;
     }
