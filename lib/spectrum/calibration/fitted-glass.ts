@@ -12,7 +12,7 @@
 // missed by the best catalogue glass by a median 0.63, 0.83 and 1.8 times the calibration's accuracy
 // (at worst 2.8); with these terms fitted, by 0.09, 0.06 and 0.01 (at worst 0.25).
 import { GLASS_CATALOGUE, type GlassName, type SellmeierGlass } from "./glass-catalogue";
-import { goldenSectionMinimum } from "./golden-section-minimum";
+import { brentMinimum } from "./brent-minimum";
 import { refractiveIndexOrNaN } from "./refractive-index-or-nan";
 import { dot } from "../statistics/dot";
 
@@ -50,7 +50,7 @@ export function fittedGlassCoefficients(terms: readonly number[]): SellmeierGlas
 /**
  * [B₁, C₁, B₃] whose index matches a catalogue glass's over `rangeNm`, where a fit starts: for each
  * place C₁ the strengths are a linear least-squares fit of n² − 1, and C₁ is searched between the
- * deep ultraviolet and the bluest wavelength (golden section on the squared misfit).
+ * deep ultraviolet and the bluest wavelength (Brent's method on the squared misfit).
  */
 export function fittedGlassStart(
   glass: GlassName,
@@ -79,7 +79,7 @@ export function fittedGlassStart(
     );
     return { b1, b3, misfit };
   };
-  const c1 = goldenSectionMinimum(
+  const c1 = brentMinimum(
     (c) => strengthsAt(c).misfit,
     1e-4,
     maxUltravioletResonanceUm2(lowNm),

@@ -7,7 +7,7 @@
 // two gases, whose shares depend on the lamp; members too far apart to trust their intensity ratio) is
 // left out.
 import { elementOfSpecies } from "./element-of-species";
-import { goldenSectionMinimum } from "./golden-section-minimum";
+import { brentMinimum } from "./brent-minimum";
 import type { LampLine } from "./lamp-pairing-types";
 
 const FOUR_LN2 = 4 * Math.LN2;
@@ -158,7 +158,7 @@ const TOP_TOLERANCE_FWHM = 1e-9;
  * resolution peak at their intensity-weighted centroid; lines most of a FWHM apart peak nearer the
  * strongest, whose own profile makes the top (mercury's 365.015 nm with 365.483 nm at a fifth of its
  * intensity, 0.78 FWHM apart, peaks 0.02 nm from 365.015 nm, not at the centroid 0.08 nm away). A
- * scan finds the highest point, a golden-section search refines it.
+ * scan finds the highest point, Brent's method refines it.
  */
 export function blendTop(wavelengths: number[], intensities: number[], fwhm: number): number {
   const profile = (nm: number) =>
@@ -178,10 +178,9 @@ export function blendTop(wavelengths: number[], intensities: number[], fwhm: num
       bestValue = value;
     }
   }
-  return goldenSectionMinimum(
-    (nm) => -profile(nm),
-    best - step,
-    best + step,
-    TOP_TOLERANCE_FWHM * fwhm,
+  // Searched as an offset from the best scanned point: Brent's method stops at √ε relative to the
+  // answer, which at hundreds of nm would be 10⁻⁶ nm, where the profile's width sets the scale.
+  return (
+    best + brentMinimum((offset) => -profile(best + offset), -step, step, TOP_TOLERANCE_FWHM * fwhm)
   );
 }
