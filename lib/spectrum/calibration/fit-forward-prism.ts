@@ -34,8 +34,9 @@ export interface FitForwardPrismOptions {
    */
   fitAxisAngle?: boolean;
   /**
-   * Incidence (rad) of an earlier fit of nearly the same pairs: the scan for the χ² minimum starts
-   * around it and widens to the whole range only when the minimum lies at the edge of that window.
+   * Incidence (rad) of an earlier fit of nearly the same pairs: the search brackets the χ² minimum
+   * there when it is lower than its neighbours half a degree away, else scans 3° either side, and
+   * scans the whole range only when the minimum lies at the edge of that window.
    * @default undefined (the whole range is scanned)
    */
   startIncidenceRad?: number;
@@ -56,9 +57,14 @@ export interface ForwardPrismFit {
   /**
    * 1σ of a new observation at λ: sqrt(s²·(g·C·gᵀ + σpeak²)) with s² = max(1, χ²/dof), as the forward
    * Hartmann fit gives it; NaN where the glass has no index, or when the pairs do not determine the
-   * parameters (a singular Jacobian).
+   * parameters.
    */
   predictionSigmaX: (wavelengthNm: number, peakSigmaX?: number) => number;
+  /**
+   * Whether the pairs determine the parameters (the Jacobian is not singular). Worked out, with the
+   * covariance, on first asking: most fits are only ranked by χ².
+   */
+  determined: () => boolean;
 }
 
 /** n(λ) of a glass, NaN beyond its Sellmeier resonances. */
@@ -323,5 +329,6 @@ export function fitForwardPrism(
         for (let k = 0; k < parameterCount; k++) variance += g[j] * covariance[j][k] * g[k];
       return Math.sqrt(varianceFactor * (variance + peakSigmaX ** 2));
     },
+    determined: () => covarianceOnce() !== null,
   };
 }

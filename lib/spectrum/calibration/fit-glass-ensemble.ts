@@ -38,11 +38,13 @@ export interface FitGlassEnsembleOptions {
    */
   incidenceStarts?: Map<GlassName, number>;
   /**
-   * Each glass's χ² over a subset of the points (an earlier fit of fewer pairs): adding pairs never
-   * lowers a least-squares minimum, so a glass whose floor already lies beyond maxDeltaAicc of the best
-   * glass fitted is left out without a fit (as far as each fit finds its glass's least χ², which a
-   * search from the glass's last incidence does on nearly the same pairs). Every glass has the same
-   * parameters and points, so its AICc grows with its χ².
+   * Each glass's χ² over a subset of the points, fitted with the same settings and the same reference
+   * wavelength (the middle of the points' range: with the camera axis pinned to the reference ray, a
+   * fit of another range is another model). Adding pairs to one model never lowers its least-squares
+   * minimum, so a glass whose floor already lies beyond maxDeltaAicc of the best glass fitted is left
+   * out without a fit (as far as each fit finds its glass's least χ², which a search from the glass's
+   * last incidence does on nearly the same pairs). The floor's AICc is taken with the fewest
+   * parameters a fit can have, which keeps it below the fit's own.
    * @default undefined (every glass fitted)
    */
   chiSquareFloors?: ReadonlyMap<GlassName, number>;
@@ -80,7 +82,8 @@ export function fitGlassEnsemble(
   const floors = options.chiSquareFloors;
   const chiSquares = new Map<GlassName, number>();
   const floorOf = (glass: GlassName) => floors?.get(glass) ?? 0;
-  const parameterCount = fitAxisAngle ? 4 : 3;
+  // A fit without the axis angle, or whose axis angle did not lower χ², has three parameters.
+  const fewestParameters = 3;
   // The most promising first, so that the best is known before a glass's floor is weighed against it.
   const candidates = glassesValidOver([Math.min(...wavelengths), Math.max(...wavelengths)], glasses)
     .map((glass, order) => ({ glass, order, floor: floorOf(glass) }))
@@ -89,7 +92,7 @@ export function fitGlassEnsemble(
   for (const { glass, order, floor } of candidates) {
     if (
       floor > 0 &&
-      informationCriteria(floor, points.length, parameterCount).aicc - bestSoFar > maxDeltaAicc
+      informationCriteria(floor, points.length, fewestParameters).aicc - bestSoFar > maxDeltaAicc
     ) {
       chiSquares.set(glass, floor);
       continue;
@@ -111,11 +114,17 @@ export function fitGlassEnsemble(
       // A glass whose formula does not reach a pair's wavelength, or passes no ray, is simply not a candidate.
     }
   }
-  if (scored.length === 0) return null;
   // Equals keep the catalogue's order, whichever was fitted first.
   scored.sort((a, b) => a.aicc - b.aicc || a.order - b.order);
-  const bestAicc = scored[0].aicc;
-  const kept = scored.filter((s) => s.aicc - bestAicc <= maxDeltaAicc);
+  // A glass whose pairs do not determine its parameters is no candidate; only the best and those
+  // within reach of it are asked (each asking works out a covariance).
+  const kept: typeof scored = [];
+  for (const s of scored) {
+    if (kept.length > 0 && s.aicc - kept[0].aicc > maxDeltaAicc) break;
+    if (s.fit.determined()) kept.push(s);
+  }
+  if (kept.length === 0) return null;
+  const bestAicc = kept[0].aicc;
   const weights = kept.map((s) => Math.exp(-(s.aicc - bestAicc) / 2));
   const totalWeight = weights.reduce((sum, w) => sum + w, 0);
   const predictions = (wavelengthNm: number) => kept.map((s) => s.fit.predictX(wavelengthNm));

@@ -136,13 +136,29 @@ export function growLampPairs(
   };
 
   let start: number[] | undefined;
-  // Each glass's χ² over each pair set fitted so far: floors of its χ² over any set that holds one.
-  const glassChiSquares: { keys: Set<string>; chiSquares: Map<GlassName, number> }[] = [];
+  // Each glass's χ² over each pair set fitted so far: floors of its χ² over any set that holds one and
+  // spans the same wavelengths (the ensemble's camera looks along the ray of the range's middle, so a
+  // set that reaches further is fitted by another model; see chiSquareFloors).
+  const glassChiSquares: {
+    keys: Set<string>;
+    referenceNm: number;
+    chiSquares: Map<GlassName, number>;
+  }[] = [];
+  const referenceOf = (subset: LampPair[]) => {
+    const wavelengths = subset.map((p) => p.wavelengthNm);
+    return (Math.min(...wavelengths) + Math.max(...wavelengths)) / 2;
+  };
   const chiSquareFloors = (subset: LampPair[]): Map<GlassName, number> => {
     const keys = new Set(subset.map(pairKey));
+    const referenceNm = referenceOf(subset);
     const floors = new Map<GlassName, number>();
     for (const earlier of glassChiSquares) {
-      if (earlier.keys.size > keys.size || ![...earlier.keys].every((k) => keys.has(k))) continue;
+      if (
+        earlier.referenceNm !== referenceNm ||
+        earlier.keys.size > keys.size ||
+        ![...earlier.keys].every((k) => keys.has(k))
+      )
+        continue;
       for (const [glass, chiSquare] of earlier.chiSquares)
         floors.set(glass, Math.max(floors.get(glass) ?? 0, chiSquare));
     }
@@ -193,7 +209,11 @@ export function growLampPairs(
       chiSquareFloors: chiSquareFloors(subset),
     });
     if (!ensemble) return hartmann?.predictor ?? null;
-    glassChiSquares.push({ keys: new Set(subset.map(pairKey)), chiSquares: ensemble.chiSquares });
+    glassChiSquares.push({
+      keys: new Set(subset.map(pairKey)),
+      referenceNm: referenceOf(subset),
+      chiSquares: ensemble.chiSquares,
+    });
     // The centred physical model has one parameter fewer; when no glass fits the pairs as well as the
     // glass-free form does, the instrument's glass is not among them and Hartmann predicts instead.
     const hartmannAicc = hartmann

@@ -126,7 +126,7 @@ export function prismInverseWavelengths(
   for (let k = 0; k < x.length; k++) {
     const target = x[k];
     const goal = sense * target;
-    if (goal < sense * gridX[0] || goal > sense * gridX[last]) continue;
+    if (!(goal >= sense * gridX[0] && goal <= sense * gridX[last])) continue;
     let low = 0;
     let high = last;
     while (high - low > 1) {
@@ -151,7 +151,7 @@ export function prismInverseWavelengths(
  * (of opposite signs): regula falsi with the Illinois modification (an end kept twice has its miss
  * halved, so the bracket closes from both sides), one evaluation per step. From the grid's bracket a
  * few steps reach double precision, where Newton's steps with a numerical slope took three evaluations
- * each. A step that lands where the ray is lost bisects instead.
+ * each. A step outside the bracket bisects instead; NaN where the ray is lost inside the bracket.
  */
 function rootOnBracket(
   forward: (wavelengthNm: number) => number,
@@ -168,12 +168,8 @@ function rootOnBracket(
   for (let iteration = 0; iteration < 100; iteration++) {
     const f = forward(lambda) - target;
     if (f === 0) return lambda;
-    if (!Number.isFinite(f)) {
-      // The ray is lost here: the root lies between a and this point, where the grid's a was finite.
-      b = lambda;
-      lambda = (a + b) / 2;
-      continue;
-    }
+    // A ray lost inside the grid's bracket (not seen for any catalogue glass): no answer here.
+    if (!Number.isFinite(f)) return Number.NaN;
     if (Math.sign(f) === Math.sign(fA)) {
       a = lambda;
       fA = f;
@@ -186,11 +182,9 @@ function rootOnBracket(
       kept = 1;
     }
     const next = a - (fA * (b - a)) / (fB - fA);
-    const settled = !(Math.abs(next - lambda) >= 1e-12 * lambda);
-    lambda =
-      Number.isFinite(next) && next >= Math.min(a, b) && next <= Math.max(a, b)
-        ? next
-        : (a + b) / 2;
+    const inside = Number.isFinite(next) && next >= Math.min(a, b) && next <= Math.max(a, b);
+    const settled = inside && Math.abs(next - lambda) < 1e-12 * lambda;
+    lambda = inside ? next : (a + b) / 2;
     if (settled) break;
   }
   return lambda;

@@ -60,5 +60,15 @@ describe("solveSymmetric", () => {
         [2, 1],
       ),
     ).toEqual([0.5, 0]);
+    // Only the lower triangle is read.
+    expect(
+      solveSymmetric(
+        [
+          [4, 99],
+          [2, 3],
+        ],
+        [2, 1],
+      ),
+    ).toEqual([0.5, 0]);
   });
 });
