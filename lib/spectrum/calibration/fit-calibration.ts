@@ -223,7 +223,7 @@ function fitPrism(input: ModelFitInput, options: FitOnceOptions): PrismCalibrati
   scored.sort((a, b) => a.aicc - b.aicc);
   const starts = scored.slice(0, FITTED_GLASS_STARTS).map((s) => s.model);
   if (options.fitGlass === true) {
-    const fitted = fittedGlassPrism(input, starts, settings);
+    const fitted = fittedGlassPrism(input, pairRange, starts, settings);
     if (!fitted.model) {
       throw (
         fitted.error ??
@@ -244,7 +244,7 @@ function fitPrism(input: ModelFitInput, options: FitOnceOptions): PrismCalibrati
       best.model.parameters.length + FITTED_GLASS_PARAMETERS.length + FITTED_GLASS_SPARE_PAIRS &&
     best.model.chiSquare > jStat.chisquare.inv(FITTED_GLASS_WHEN_CHI2_BEYOND, best.model.dof)
   ) {
-    const { model } = fittedGlassPrism(input, starts, settings);
+    const { model } = fittedGlassPrism(input, pairRange, starts, settings);
     if (
       model &&
       informationCriteria(model.chiSquare, model.pairCount, model.parameters.length).aicc <
@@ -260,18 +260,16 @@ const FITTED_GLASS_STARTS = 3;
 
 /**
  * The prism with its glass's terms fitted, from each catalogue fit of `starts` (its angles, and terms
- * in its glass's likeness; a start whose geometry sits at a bound of the catalogue fit can stall short
- * of the fit another start reaches): the lowest χ², or none and the last start's error.
+ * in its glass's likeness over the pairs' range `rangeNm`; a start whose geometry sits at a bound of
+ * the catalogue fit can stall short of the fit another start reaches): the lowest χ², or none and the
+ * last start's error.
  */
 function fittedGlassPrism(
   input: ModelFitInput,
+  rangeNm: readonly [number, number],
   starts: readonly PrismCalibrationModel[],
   settings: Omit<PrismFitSettings, "glass" | "fitGlass" | "start">,
 ): { model: PrismCalibrationModel | null; error?: CalibrationError } {
-  const rangeNm: [number, number] = [
-    Math.min(...input.wavelengthNm),
-    Math.max(...input.wavelengthNm),
-  ];
   let model: PrismCalibrationModel | null = null;
   let error: CalibrationError | undefined;
   for (const catalogue of starts) {

@@ -139,18 +139,16 @@ export function growLampPairs(
   // Each glass's χ² over each pair set fitted so far: floors of its χ² over any set that holds one and
   // spans the same wavelengths (the ensemble's camera looks along the ray of the range's middle, so a
   // set that reaches further is fitted by another model; see chiSquareFloors).
-  const glassChiSquares: {
-    keys: Set<string>;
-    referenceNm: number;
-    chiSquares: Map<GlassName, number>;
-  }[] = [];
-  const referenceOf = (subset: LampPair[]) => {
+  type PairSet = { keys: Set<string>; referenceNm: number };
+  const glassChiSquares: (PairSet & { chiSquares: Map<GlassName, number> })[] = [];
+  const pairSetOf = (subset: LampPair[]): PairSet => {
     const wavelengths = subset.map((p) => p.wavelengthNm);
-    return (Math.min(...wavelengths) + Math.max(...wavelengths)) / 2;
+    return {
+      keys: new Set(subset.map(pairKey)),
+      referenceNm: (Math.min(...wavelengths) + Math.max(...wavelengths)) / 2,
+    };
   };
-  const chiSquareFloors = (subset: LampPair[]): Map<GlassName, number> => {
-    const keys = new Set(subset.map(pairKey));
-    const referenceNm = referenceOf(subset);
+  const chiSquareFloors = ({ keys, referenceNm }: PairSet): Map<GlassName, number> => {
     const floors = new Map<GlassName, number>();
     for (const earlier of glassChiSquares) {
       if (
@@ -202,18 +200,15 @@ export function growLampPairs(
     // strays slip into. The centred form is stiffer, and its bias (about a pixel at the far ends) stays
     // inside windows that the glass spread and the glass-free σ widen anyway; the final calibration
     // fits the axis angle.
+    const pairSet = pairSetOf(subset);
     const ensemble = fitGlassEnsemble(subset, {
       maxDeltaAicc,
       fitAxisAngle: false,
       incidenceStarts,
-      chiSquareFloors: chiSquareFloors(subset),
+      chiSquareFloors: chiSquareFloors(pairSet),
     });
     if (!ensemble) return hartmann?.predictor ?? null;
-    glassChiSquares.push({
-      keys: new Set(subset.map(pairKey)),
-      referenceNm: referenceOf(subset),
-      chiSquares: ensemble.chiSquares,
-    });
+    glassChiSquares.push({ ...pairSet, chiSquares: ensemble.chiSquares });
     // The centred physical model has one parameter fewer; when no glass fits the pairs as well as the
     // glass-free form does, the instrument's glass is not among them and Hartmann predicts instead.
     const hartmannAicc = hartmann
