@@ -120,6 +120,14 @@ export interface RunOverrideRecord {
 /** A Boltzmann excitation temperature from one species' lines, or why none could be found; stored as the analysis gives it. */
 export type RunTemperature = ExcitationTemperature;
 
+/** What a notes save answers: the notes as saved and the version the next save must name. */
+export interface RunNotesRecord {
+  id: string;
+  notes: string;
+  lockVersion: number;
+  updatedAt: string;
+}
+
 export interface RunRecord {
   id: string;
   notebookId: string;

@@ -10,9 +10,11 @@ import {
   LINE_FROM,
   LINE_SELECT,
   RELEASE_FROM,
+  RELEASE_LINE_COUNT,
   RELEASE_SELECT,
   type LineDbRow,
   type ReleaseDbRow,
+  type ReleaseSummaryDbRow,
 } from "./line-library-rows";
 
 export async function selectRelease(
@@ -27,6 +29,18 @@ export async function selectRelease(
       type: QueryTypes.SELECT,
       transaction,
     },
+  );
+  return rows[0] ?? null;
+}
+
+/** The first release matching `where`, with its number of lines (see `RELEASE_LINE_COUNT`). */
+export async function selectReleaseSummary(
+  where: string,
+  bind: unknown[],
+): Promise<ReleaseSummaryDbRow | null> {
+  const rows = await sequelize.query<ReleaseSummaryDbRow>(
+    `SELECT ${RELEASE_SELECT}, ${RELEASE_LINE_COUNT} FROM ${RELEASE_FROM} WHERE ${where}`,
+    { bind, type: QueryTypes.SELECT },
   );
   return rows[0] ?? null;
 }

@@ -25,7 +25,7 @@ import {
   valuesOf,
   type LineDbRow,
 } from "./line-library-rows";
-import { lockDraft, selectLines, selectRelease } from "./line-library-access";
+import { lockDraft, selectLines, selectReleaseSummary } from "./line-library-access";
 import type { LineInput, LineRecord, ReleaseSummary } from "./line-library-types";
 import { MATCH_TOLERANCE_NM } from "./line-import-plan";
 
@@ -35,7 +35,7 @@ const CONFLICT_MESSAGE =
 /** Returns the team's draft, or starts one from the newest published release (rows copied, keys kept). */
 export async function openDraft(actor: Actor, teamId: string): Promise<ReleaseSummary> {
   authorize(actor, "lines.edit", { teamId });
-  const existing = await selectRelease("r.team_id = $1 AND r.status = 'draft'", [teamId]);
+  const existing = await selectReleaseSummary("r.team_id = $1 AND r.status = 'draft'", [teamId]);
   if (existing) return toReleaseSummary(existing);
   try {
     const id = await sequelize.transaction(async (transaction) => {
@@ -73,11 +73,11 @@ export async function openDraft(actor: Actor, teamId: string): Promise<ReleaseSu
       );
       return created.id;
     });
-    return toReleaseSummary((await selectRelease("r.id = $1", [id]))!);
+    return toReleaseSummary((await selectReleaseSummary("r.id = $1", [id]))!);
   } catch (error) {
     // Two leads opening the draft at once: the one-draft index refuses the second; both get the first.
     if (error instanceof Error && error.name === "SequelizeUniqueConstraintError") {
-      const draft = await selectRelease("r.team_id = $1 AND r.status = 'draft'", [teamId]);
+      const draft = await selectReleaseSummary("r.team_id = $1 AND r.status = 'draft'", [teamId]);
       if (draft) return toReleaseSummary(draft);
     }
     throw error;

@@ -8,14 +8,21 @@ import { authorize } from "@/lib/auth/policy";
 import { sequelize } from "@/models";
 import {
   RELEASE_FROM,
+  RELEASE_LINE_COUNT,
   RELEASE_SELECT,
   lineQuerySql,
   toLineRecord,
   toReleaseSummary,
   type LineDbRow,
   type ReleaseDbRow,
+  type ReleaseSummaryDbRow,
 } from "./line-library-rows";
-import { selectLines, selectRelease, visibleRelease } from "./line-library-access";
+import {
+  selectLines,
+  selectRelease,
+  selectReleaseSummary,
+  visibleRelease,
+} from "./line-library-access";
 import type {
   LineHistoryEntry,
   LinePage,
@@ -29,8 +36,8 @@ const DEFAULT_PAGE_SIZE = 100;
 
 export async function fetchReleases(actor: Actor, teamId: string): Promise<ReleaseSummary[]> {
   authorize(actor, "lines.view", { teamId });
-  const rows = await sequelize.query<ReleaseDbRow>(
-    `SELECT ${RELEASE_SELECT} FROM ${RELEASE_FROM} WHERE r.team_id = $1
+  const rows = await sequelize.query<ReleaseSummaryDbRow>(
+    `SELECT ${RELEASE_SELECT}, ${RELEASE_LINE_COUNT} FROM ${RELEASE_FROM} WHERE r.team_id = $1
       ORDER BY (r.status = 'draft') DESC, r.number DESC`,
     { bind: [teamId], type: QueryTypes.SELECT },
   );
@@ -38,7 +45,8 @@ export async function fetchReleases(actor: Actor, teamId: string): Promise<Relea
 }
 
 export async function fetchRelease(actor: Actor, releaseId: string): Promise<ReleaseSummary> {
-  return toReleaseSummary(await visibleRelease(actor, releaseId));
+  const release = await visibleRelease(actor, releaseId);
+  return toReleaseSummary((await selectReleaseSummary("r.id = $1", [release.id]))!);
 }
 
 /** The release a query names, or the team's newest published one (the draft when none is published). */

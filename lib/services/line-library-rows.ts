@@ -47,12 +47,16 @@ export interface ReleaseDbRow {
   status: "draft" | "published";
   notes: string;
   based_on_release_id: string | null;
-  line_count: string | number;
   created_by_name: string | null;
   published_by_name: string | null;
   published_at: Date | null;
   created_at: Date;
   version: number;
+}
+
+/** A release row with its number of lines, for the summaries the line library shows. */
+export interface ReleaseSummaryDbRow extends ReleaseDbRow {
+  line_count: string | number;
 }
 
 export const INTENSITY_COLUMNS: ReadonlyArray<[SourceKind, string]> = [
@@ -147,13 +151,17 @@ export function bulkInsertPayload(
 }
 
 export const RELEASE_SELECT = `r.id, r.team_id, r.number, r.status, r.notes, r.based_on_release_id, r.version,
-  r.published_at, r.created_at, cu.name AS created_by_name, pu.name AS published_by_name,
-  (SELECT count(*) FROM lines c WHERE c.release_id = r.id) AS line_count`;
+  r.published_at, r.created_at, cu.name AS created_by_name, pu.name AS published_by_name`;
+/**
+ * The release's number of lines: a count over the whole release (300,000 index entries in a large
+ * table, ~20 ms), so only summaries ask for it, never a read that only resolves or checks a release.
+ */
+export const RELEASE_LINE_COUNT = `(SELECT count(*) FROM lines c WHERE c.release_id = r.id) AS line_count`;
 export const RELEASE_FROM = `line_releases r
   LEFT JOIN users cu ON cu.id = r.created_by_id
   LEFT JOIN users pu ON pu.id = r.published_by_id`;
 
-export function toReleaseSummary(row: ReleaseDbRow): ReleaseSummary {
+export function toReleaseSummary(row: ReleaseSummaryDbRow): ReleaseSummary {
   return {
     id: row.id,
     teamId: row.team_id,

@@ -24,12 +24,19 @@ export async function loadRun(
   runId: string,
   action: TeamAction = "team.view",
   transaction?: Transaction,
-  { withMatches = false }: { withMatches?: boolean } = {},
+  {
+    withMatches = false,
+    attributes,
+  }: {
+    withMatches?: boolean;
+    /** Only these columns (a change of the workflow's columns needs none of the analysis). */
+    attributes?: readonly (keyof Run & string)[];
+  } = {},
 ): Promise<Run> {
   // Every candidate line of every peak is kept with the run (megabytes against a large table); only
   // the peaks CSV and an amendment's copy read them, so the rest never load them.
   const row = await Run.findByPk(runId, {
-    attributes: withMatches ? undefined : RUN_RECORD_ATTRIBUTES,
+    attributes: attributes ? [...attributes] : withMatches ? undefined : RUN_RECORD_ATTRIBUTES,
     transaction,
     lock: transaction ? transaction.LOCK.UPDATE : undefined,
   });

@@ -7,7 +7,13 @@ import type { Actor } from "@/lib/auth/actor";
 import { authorize } from "@/lib/auth/policy";
 import { toReferenceLine } from "@/lib/lines";
 import { standingOverride, standingVerdicts } from "@/lib/runs/standing-verdicts";
-import type { RunPeak, RunRecord, RunTemperature, StoredRunCall } from "@/lib/runs/types";
+import type {
+  RunNotesRecord,
+  RunPeak,
+  RunRecord,
+  RunTemperature,
+  StoredRunCall,
+} from "@/lib/runs/types";
 import {
   analyzeSample,
   type AnalyzeSampleOptions,
@@ -463,13 +469,20 @@ export async function overrideCall(
 }
 
 /** Saves the run's notes when `lockVersion` is the one stored (else 409); author only, while editable. */
+/**
+ * Saves a run's notes with optimistic locking and answers the notes' own record: the row is read
+ * without its analysis (the calls alone are hundreds of kilobytes against a large table), which a
+ * notes save neither changes nor needs to send back.
+ */
 export async function updateRunNotes(
   actor: Actor,
   runId: string,
   input: RunNotesInput,
-): Promise<RunRecord> {
+): Promise<RunNotesRecord> {
   return sequelize.transaction(async (transaction) => {
-    const run = await loadRun(actor, runId, "run.edit", transaction);
+    const run = await loadRun(actor, runId, "run.edit", transaction, {
+      attributes: ["id", "teamId", "status", "createdById", "notes", "lockVersion", "updatedAt"],
+    });
     assertAuthorMayEdit(actor, run);
     if (run.lockVersion !== input.lockVersion) {
       throw new AppError(
@@ -477,23 +490,28 @@ export async function updateRunNotes(
         "The notes were changed since you opened them: reload the run, then write your change again.",
       );
     }
-    if (run.notes === input.notes)
-      return toRunRecord(run, await loadRunRecordContext([run], transaction));
-    const before = run.notes;
-    await run.update({ notes: input.notes, lockVersion: run.lockVersion + 1 }, { transaction });
-    await recordAudit(
-      {
-        actorId: actor.id,
-        teamId: run.teamId,
-        action: "run.notes",
-        entity: "run",
-        entityId: run.id,
-        before: { notes: before, lockVersion: input.lockVersion },
-        after: { notes: input.notes, lockVersion: run.lockVersion },
-      },
-      transaction,
-    );
-    return toRunRecord(run, await loadRunRecordContext([run], transaction));
+    if (run.notes !== input.notes) {
+      const before = run.notes;
+      await run.update({ notes: input.notes, lockVersion: run.lockVersion + 1 }, { transaction });
+      await recordAudit(
+        {
+          actorId: actor.id,
+          teamId: run.teamId,
+          action: "run.notes",
+          entity: "run",
+          entityId: run.id,
+          before: { notes: before, lockVersion: input.lockVersion },
+          after: { notes: input.notes, lockVersion: run.lockVersion },
+        },
+        transaction,
+      );
+    }
+    return {
+      id: run.id,
+      notes: run.notes,
+      lockVersion: run.lockVersion,
+      updatedAt: run.updatedAt.toISOString(),
+    };
   });
 }
 

@@ -1,6 +1,8 @@
 // The hot reads issue a fixed number of statements whatever the number of runs they cover: a run's
-// record, a notebook's run list and a notebook's calls CSV. Counted in-process through Sequelize's
-// beforeQuery hook on the app's own services, against the seeded demo lab (no timing is asserted).
+// record, a notebook's run list and a notebook's calls CSV; and the hot routes send no statement that
+// reads more than their answer needs (a notes save reads no analysis, a page of lines counts no whole
+// release). Counted and read in-process through Sequelize's query hooks on the app's own services,
+// against the seeded demo lab (no timing is asserted).
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Actor } from "@/lib/auth/actor";
 import { closeDb, db, userIdByEmail } from "./support/database";
@@ -11,6 +13,8 @@ type Services = {
   fetchRun: typeof import("@/lib/services/runs").fetchRun;
   fetchNotebookRuns: typeof import("@/lib/services/notebooks").fetchNotebookRuns;
   notebookCallsCsv: typeof import("@/lib/services/run-reports").notebookCallsCsv;
+  updateRunNotes: typeof import("@/lib/services/runs").updateRunNotes;
+  fetchLines: typeof import("@/lib/services/line-library-reads").fetchLines;
 };
 
 let services: Services;
@@ -33,6 +37,20 @@ async function statementsOf(work: () => Promise<unknown>): Promise<number> {
   return count;
 }
 
+/** The SQL text of every statement the work sends, in order. */
+async function sqlOf(work: () => Promise<unknown>): Promise<string[]> {
+  const sql: string[] = [];
+  sequelize.addHook("afterQuery", "read-statements", (_options, query) => {
+    sql.push(String((query as { sql?: unknown }).sql));
+  });
+  try {
+    await work();
+  } finally {
+    sequelize.removeHook("afterQuery", "read-statements");
+  }
+  return sql;
+}
+
 beforeAll(async () => {
   const models = await import("@/models");
   sequelize = models.sequelize;
@@ -41,6 +59,8 @@ beforeAll(async () => {
     fetchRun: (await import("@/lib/services/runs")).fetchRun,
     fetchNotebookRuns: (await import("@/lib/services/notebooks")).fetchNotebookRuns,
     notebookCallsCsv: (await import("@/lib/services/run-reports")).notebookCallsCsv,
+    updateRunNotes: (await import("@/lib/services/runs")).updateRunNotes,
+    fetchLines: (await import("@/lib/services/line-library-reads")).fetchLines,
   };
   const actor = await services.loadActor(await userIdByEmail(DEMO.chemist.email));
   if (!actor)
@@ -101,5 +121,43 @@ describe("statements per hot read", () => {
     expect(await csv(most.id)).toBe(await csv(fewest.id));
     // The notebook, its runs, their overrides and releases, spectra, instruments and authors.
     expect(await csv(most.id)).toBeLessThanOrEqual(7);
+  });
+
+  it("saves a run's notes reading only the workflow's columns, and answers the notes' record alone", async () => {
+    const runId = notebooks[0].runIds[0];
+    const { rows } = await db().query<{ lock_version: number; created_by_id: string }>(
+      "SELECT lock_version, created_by_id FROM runs WHERE id = $1",
+      [runId],
+    );
+    expect(rows[0].created_by_id).toBe(chemist.id);
+    let saved: Awaited<ReturnType<Services["updateRunNotes"]>> | undefined;
+    const sql = await sqlOf(async () => {
+      saved = await services.updateRunNotes(chemist, runId, {
+        notes: `Statement read ${Date.now().toString(36)}`,
+        lockVersion: rows[0].lock_version,
+      });
+    });
+    const reads = sql.filter((text) => /^SELECT .* FROM "runs"/s.test(text));
+    expect(reads).toHaveLength(1);
+    // The analysis (calls, peaks, candidate matches) is hundreds of kilobytes against a large table.
+    for (const column of ["calls", "peaks", "matches", "unexplained", "continuum"])
+      expect(reads[0]).not.toContain(`"${column}"`);
+    expect(Object.keys(saved!).sort()).toEqual(["id", "lockVersion", "notes", "updatedAt"]);
+    expect(saved!.lockVersion).toBe(rows[0].lock_version + 1);
+  });
+
+  it("reads a page of lines without counting the whole release", async () => {
+    const { RELEASE_LINE_COUNT } = await import("@/lib/services/line-library-rows");
+    const teamId = chemist.memberships[0].teamId;
+    let total = 0;
+    const sql = await sqlOf(async () => {
+      total = (await services.fetchLines(chemist, { teamId, minNm: 580, maxNm: 600 })).total;
+    });
+    expect(total).toBeGreaterThan(0);
+    expect(sql.some((text) => text.includes(RELEASE_LINE_COUNT))).toBe(false);
+    // The summaries that show the count still carry it.
+    const { fetchReleases } = await import("@/lib/services/line-library-reads");
+    const counted = await sqlOf(() => fetchReleases(chemist, teamId));
+    expect(counted.some((text) => text.includes(RELEASE_LINE_COUNT))).toBe(true);
   });
 });

@@ -1,5 +1,6 @@
 // GET one run exactly as it was stored: settings, calibration, release, peaks, calls (with the standing
-// verdict, the computed one and the override) and evidence. PATCH saves its notes ({notes, lockVersion}).
+// verdict, the computed one and the override) and evidence. PATCH saves its notes ({notes, lockVersion}) and
+// answers the notes' record ({id, notes, lockVersion, updatedAt}), not the whole run.
 import { requireActor } from "@/lib/auth/session";
 import { apiRoute, parseJson } from "@/lib/http/api-handler";
 import { fetchRun, updateRunNotes } from "@/lib/services/runs";
