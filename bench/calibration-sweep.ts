@@ -1,6 +1,7 @@
-// `npm run sweep -- --seed N --n M [--previous] [--clean] [--dispersion prism|grating-curved|grating-straight]`:
+// `npm run sweep -- --seed N --n M [--previous [--realigned]] [--clean] [--dispersion prism|grating-curved|grating-straight]`:
 // automatic lamp calibration over M realistic instruments from seed N (tests/support/realistic-lamp.ts),
 // scored against the generator's truth. Prints success, silent wrong, exceptions, CPU and breakdowns.
+// `--realigned` re-records each instrument after a realignment (tens of pixels) instead of a day's drift.
 import { formatSweep, runSweep } from "../tests/support/calibration-sweep";
 import type { RealisticDispersion } from "../tests/support/realistic-lamp";
 
@@ -22,21 +23,25 @@ function runCalibrationSweep() {
   const n = Number(value("n", "100"));
   if (!Number.isInteger(seed) || !Number.isInteger(n) || n < 1) {
     console.error(
-      "usage: npm run sweep -- --seed N --n M [--previous] [--clean] [--dispersion KIND]",
+      "usage: npm run sweep -- --seed N --n M [--previous [--realigned]] [--clean] [--dispersion KIND]",
     );
     process.exit(2);
   }
-  const withPrevious = args.includes("--previous");
+  const realigned = args.includes("--realigned");
+  const withPrevious = realigned || args.includes("--previous");
   const clean = args.includes("--clean");
   const dispersion = value("dispersion", "") as RealisticDispersion | "";
   const records = runSweep({
     seed,
     n,
     withPrevious,
+    change: realigned ? "realignment" : "day",
     lamp: { clean, ...(dispersion ? { dispersion } : {}) },
   });
   const mode = [
-    withPrevious ? "re-recorded, starting from the previous calibration" : "blind",
+    withPrevious
+      ? `re-recorded ${realigned ? "after a realignment" : "a day later"}, starting from the previous calibration`
+      : "blind",
     clean ? "clean lamps" : "realistic lamps",
   ].join(", ");
   console.log(formatSweep(records, `calibration sweep: seed ${seed}, n ${n} (${mode})`));

@@ -71,6 +71,8 @@ export interface SweepOptions {
   lamp?: RealisticLampOptions;
   /** Calibrate the re-recorded instrument starting from the first recording's calibration. */
   withPrevious?: boolean;
+  /** What happened to the instrument between the two recordings. @default "day" */
+  change?: "day" | "realignment";
   /** Extra calibration options. */
   calibrate?: Partial<CalibrateLampOptions>;
 }
@@ -208,7 +210,7 @@ export function runSweep(options: SweepOptions): SweepRecord[] {
     const lamp = realisticLamp(options.seed + k, options.lamp);
     if (options.withPrevious) {
       const previous = previousCalibrationOf(lamp);
-      const again = lamp.rerecord(options.seed + k + 100_000);
+      const again = lamp.rerecord(options.seed + k + 100_000, options.change);
       records.push(sweepOne(again, { ...options.calibrate, previous }));
     } else {
       records.push(sweepOne(lamp, options.calibrate));

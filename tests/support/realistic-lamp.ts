@@ -200,8 +200,11 @@ export interface RealisticLamp {
   missingFraction: number;
   saturatedLines: number;
   hotPixels: number;
-  /** The same instrument recorded again (another day): a small shift and stretch of the axis, fresh noise. */
-  rerecord: (seed: number) => RealisticLamp;
+  /**
+   * The same instrument recorded again, fresh noise: another day (a shift of up to ±3 px and a stretch
+   * of up to ±0.3 %), or after a realignment (a shift of 10–60 px either way and a stretch of up to ±1 %).
+   */
+  rerecord: (seed: number, change?: "day" | "realignment") => RealisticLamp;
 }
 
 interface Axis {
@@ -391,10 +394,17 @@ function toLamp(design: Design, noiseSeed: number): RealisticLamp {
     missingFraction: design.missingFraction,
     saturatedLines: design.saturatedLines,
     hotPixels: hot,
-    rerecord: (seed: number) => {
+    rerecord: (seed: number, change: "day" | "realignment" = "day") => {
       const random = makeRandom(seed ^ 0x5bd1e995).uniform;
-      // Another day: the axis moves by up to ±3 px and stretches by up to ±0.3 % (temperature, a knock).
-      const axis = design.remake(between(random, -3, 3), 1 + between(random, -0.003, 0.003));
+      // Another day: the axis moves by up to ±3 px and stretches by up to ±0.3 % (temperature). A
+      // realignment (a knock, a serviced mount) moves it by tens of pixels and up to ±1 %.
+      const axis =
+        change === "day"
+          ? design.remake(between(random, -3, 3), 1 + between(random, -0.003, 0.003))
+          : design.remake(
+              (random() < 0.5 ? -1 : 1) * between(random, 10, 60),
+              1 + between(random, -0.01, 0.01),
+            );
       const lo = axis.at(0);
       const hi = axis.at(design.pixels - 1);
       return toLamp({ ...design, axis, trueRangeNm: [Math.min(lo, hi), Math.max(lo, hi)] }, seed);

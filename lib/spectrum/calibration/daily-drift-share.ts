@@ -7,7 +7,10 @@ import { RECALIBRATION_LIMITS } from "./recalibration-limits";
  * the larger of its stretch and its shift at the array's middle, each over its daily bound (≤ 1 is a
  * day's drift).
  */
-export function dailyDriftShare(drift: LinearDrift, [xMin, xMax]: [number, number]): number {
+export function dailyDriftShare(
+  drift: Pick<LinearDrift, "stretch" | "offset">,
+  [xMin, xMax]: [number, number],
+): number {
   const limits = RECALIBRATION_LIMITS;
   const middle = 0.5 * (xMin + xMax);
   const shift = drift.stretch * middle + drift.offset - middle;

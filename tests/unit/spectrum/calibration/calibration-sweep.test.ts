@@ -72,7 +72,10 @@ const COUNT = 300;
 const SILENT_WRONG_FLOOR = 0.005;
 const SUCCESS_FLOOR = 0.68;
 /**
- * Recalibration from the previous calibration, 100 instruments: success 78.5 % of 93 eligible and no
+ * Recalibration from the previous calibration, 100 instruments: success 90.3 % of 93 eligible and no
+ * silent wrong, measured when a day's drift stopped being held back by rivals that take a realignment
+ * (the same here before and after; over the 600 re-recorded instruments of seeds 15400000, 16300000
+ * and 17700000, 530 → 533 successes, no silent wrong before or after). Earlier: 78.5 % of 93 eligible and no
  * silent wrong with centres weighed as the blind fit weighs them and a prism's second opinion (the
  * fallback when the previous calibration does not serve). Before: 76.3 % of 93 eligible (75.3 %
  * before clipped tops stopped splitting and leaps were judged by a refit; 72.0 % before pairs beyond
@@ -83,7 +86,7 @@ const SUCCESS_FLOOR = 0.68;
  * both array lengths): 81.0, 85.7 and 83.2 %, no silent wrong in 600.
  */
 const PREVIOUS_COUNT = 100;
-const PREVIOUS_SUCCESS_FLOOR = 0.78;
+const PREVIOUS_SUCCESS_FLOOR = 0.9;
 const PREVIOUS_SILENT_WRONG_FLOOR = 0.005;
 
 describe("automatic calibration over 300 realistic instruments", () => {
@@ -149,5 +152,42 @@ describe("recalibration from the previous calibration over 100 realistic instrum
   it("succeeds at least as often as it did when this floor was set", () => {
     // Target ≥ 99 % (the daily case); a regression floor at what was measured.
     expect(summary.successRateEligible).toBeGreaterThanOrEqual(PREVIOUS_SUCCESS_FLOOR);
+  });
+});
+
+/** Instruments realigned between the two recordings (a shift of 10–60 px, a stretch of up to ±1 %). */
+const REALIGNED_COUNT = 60;
+
+describe("recalibration after a realignment over 60 realistic instruments", () => {
+  let records: SweepRecord[] = [];
+  beforeAll(() => {
+    records = runSweep({
+      seed: SEED,
+      n: REALIGNED_COUNT,
+      withPrevious: true,
+      change: "realignment",
+      lamp: { pixels: 2048 },
+    });
+    console.log(
+      formatSweep(records, `unit sweep, realigned since the previous calibration: seed ${SEED}`)
+        .split("\n")
+        .slice(0, 4)
+        .join("\n"),
+    );
+  }, 900_000);
+
+  it("never throws", () => {
+    expect(records).toHaveLength(REALIGNED_COUNT);
+    expect(records.filter((r) => r.outcome === "exception")).toEqual([]);
+  });
+
+  it("never trusts a drift of the previous calibration that is not today's axis", () => {
+    // A day's drift is preferred to a realignment's (rival-drift.ts): this holds it to the case where
+    // the instrument was realigned after all. A drift beyond a day's is checked by a blind search.
+    const recalibrated = records.filter((r) => r.message.startsWith("recalibrated"));
+    expect(recalibrated.filter((r) => r.outcome === "silent-wrong")).toEqual([]);
+    expect(records.filter((r) => r.outcome === "silent-wrong").length).toBeLessThanOrEqual(
+      Math.floor(SILENT_WRONG_FLOOR * REALIGNED_COUNT),
+    );
   });
 });

@@ -162,23 +162,41 @@ describe("recalibration from the previous calibration", () => {
     expect(expected.reason).toMatch(/^only 0 of the 10 strongest lamp lines found a peak/);
   });
 
-  it("does not trust a lamp whose lines repeat so evenly that another drift fits as well", () => {
-    // A comb: a line every 5 nm (50 px, inside the searched shift of ±61 px), all equally strong.
-    const comb: LampLine[] = Array.from({ length: 40 }, (_, i) => ({
-      wavelengthNm: 405 + 5 * i,
+  /** A comb: a line every `stepNm` from 405 nm, all equally strong. */
+  const comb = (stepNm: number, count: number): LampLine[] =>
+    Array.from({ length: count }, (_, i) => ({
+      wavelengthNm: 405 + stepNm * i,
       intensity: 100,
       species: "Ne I",
       id: `comb-${i}`,
     }));
-    const straight = (u: number) => 400 + 0.1 * u;
-    const previous = previousOf(straight);
-    const peaks = lampPeaks(comb, (nm) => 10 * (nm - 400) + 1.5, 5, 0);
-    const context = pairingContext(peaks, comb, { ...options, nominalRangeNm: [400, 605] });
-    const result = recalibrateFromPrevious(context, previous);
+  const straight = (u: number) => 400 + 0.1 * u;
+
+  it("does not trust a lamp whose lines repeat so evenly that another day's drift fits as well", () => {
+    // A line every 1.2 nm (12 px): the drift one period away is as small as a day's (up to 1 % of the
+    // array, 20 px), so nothing tells the two apart.
+    const lines = comb(1.2, 100);
+    const peaks = lampPeaks(lines, (nm) => 10 * (nm - 400) + 1.5, 5, 0);
+    const context = pairingContext(peaks, lines, { ...options, nominalRangeNm: [400, 600] });
+    const result = recalibrateFromPrevious(context, previousOf(straight));
     expect(result).not.toBeNull();
     expect(result!.status).toBe("check");
     expect(result!.checks?.find((c) => c.name === "rival-pairing")?.passed).toBe(false);
     expect(result!.rivalSuggestion?.length ?? 0).toBeGreaterThan(10);
+  });
+
+  it("trusts a day's drift over one that would take a realignment and puts no more lines on peaks", () => {
+    // A line every 5 nm (50 px, inside the searched shift of ±61 px but beyond a day's 20 px): the
+    // drift one period away would mean the instrument was realigned since yesterday.
+    const lines = comb(5, 40);
+    const todayPx = (nm: number) => 10 * (nm - 400) + 1.5;
+    const peaks = lampPeaks(lines, todayPx, 5, 0);
+    const context = pairingContext(peaks, lines, { ...options, nominalRangeNm: [400, 605] });
+    const result = recalibrateFromPrevious(context, previousOf(straight))!;
+    expect(result.checks?.find((c) => c.name === "rival-pairing")?.passed).toBe(true);
+    expect(result.status).toBe("paired");
+    for (const pair of result.pairs)
+      expect(Math.abs(pair.x - todayPx(pair.wavelengthNm))).toBeLessThan(0.2);
   });
 
   it("leaves a drift beyond a day's to check, and trusts it when a blind search finds the same axis", () => {
