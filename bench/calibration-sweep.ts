@@ -1,7 +1,7 @@
 // `npm run sweep -- --seed N --n M [--previous [--realigned]] [--clean] [--dispersion prism|grating-curved|grating-straight]`:
 // automatic lamp calibration over M realistic instruments from seed N (tests/support/realistic-lamp.ts),
 // scored against the generator's truth. Prints success, silent wrong, exceptions, CPU and breakdowns.
-// `--realigned` re-records each instrument after a realignment (tens of pixels) instead of a day's drift.
+// `--realigned` re-records each instrument after a realignment (beyond a day's drift) instead of a day later.
 import { formatSweep, runSweep } from "../tests/support/calibration-sweep";
 import type { RealisticDispersion } from "../tests/support/realistic-lamp";
 

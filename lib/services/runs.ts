@@ -468,9 +468,9 @@ export async function overrideCall(
   });
 }
 
-/** Saves the run's notes when `lockVersion` is the one stored (else 409); author only, while editable. */
 /**
- * Saves a run's notes with optimistic locking and answers the notes' own record: the row is read
+ * Saves the run's notes when `lockVersion` is the one stored (else 409); author only, while editable.
+ * Answers the notes' own record: the row is read
  * without its analysis (the calls alone are hundreds of kilobytes against a large table), which a
  * notes save neither changes nor needs to send back.
  */

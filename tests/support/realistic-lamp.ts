@@ -202,7 +202,8 @@ export interface RealisticLamp {
   hotPixels: number;
   /**
    * The same instrument recorded again, fresh noise: another day (a shift of up to ±3 px and a stretch
-   * of up to ±0.3 %), or after a realignment (a shift of 10–60 px either way and a stretch of up to ±1 %).
+   * of up to ±0.3 %), or after a realignment (a shift of 1.2–3 % of the array either way and a stretch of
+   * up to ±1 %).
    */
   rerecord: (seed: number, change?: "day" | "realignment") => RealisticLamp;
 }
@@ -397,12 +398,13 @@ function toLamp(design: Design, noiseSeed: number): RealisticLamp {
     rerecord: (seed: number, change: "day" | "realignment" = "day") => {
       const random = makeRandom(seed ^ 0x5bd1e995).uniform;
       // Another day: the axis moves by up to ±3 px and stretches by up to ±0.3 % (temperature). A
-      // realignment (a knock, a serviced mount) moves it by tens of pixels and up to ±1 %.
+      // realignment (a knock, a serviced mount) moves it by 1.2–3 % of the array, beyond a day's 1 %
+      // (recalibration-limits.ts), and stretches it by up to ±1 %.
       const axis =
         change === "day"
           ? design.remake(between(random, -3, 3), 1 + between(random, -0.003, 0.003))
           : design.remake(
-              (random() < 0.5 ? -1 : 1) * between(random, 10, 60),
+              (random() < 0.5 ? -1 : 1) * between(random, 0.012, 0.03) * design.pixels,
               1 + between(random, -0.01, 0.01),
             );
       const lo = axis.at(0);

@@ -33,13 +33,21 @@ export function rivalDrift(
   const departs = (at: (u: number) => number) =>
     [xMin, xMax].some((x) => Math.abs(at((x - drift.offset) / drift.stretch) - x) > 2 * tolerance);
   // Against a day's drift, a drift beyond a day's (a realignment since the previous calibration, the
-  // rarer event) is a rival only when it puts more lamp lines on peaks than the chosen drift; another
-  // day's drift is one as before. On the re-recorded sweep (seeds 15400000, 16300000 and 17700000, n
-  // 200 each) the rivals that held right daily recalibrations back moved the array by 12–60 px against
-  // 1–3 px, and after realignments of 10–60 px (seed 17800000) nothing changed.
+  // rarer event) is a rival only when its lines outscore the chosen drift's, each scored as the
+  // consensus scores them (by weight and how tightly it sits); another day's drift is one as before.
+  // On the re-recorded sweep (seeds 15400000, 16300000 and 17700000, n 200 each) the rivals that held
+  // right daily recalibrations back moved the array by 12–60 px against 1–3 px.
   const isDaily = (at: (u: number) => number) =>
     dailyDriftShare({ stretch: at(1) - at(0), offset: at(0) }, context.domain) <= 1;
   const chosenIsDaily = dailyDriftShare(drift, context.domain) <= 1;
+  const reach = CONSENSUS_REACH * tolerance;
+  const predictedOf = new Map(predicted.map((p) => [p.line, p]));
+  const chosenScore = pairs.reduce((sum, pair) => {
+    const line = predictedOf.get(pair.lineIndex);
+    if (!line) return sum;
+    const miss = (pair.x - (drift.stretch * line.u + drift.offset)) / reach;
+    return sum + line.weight * Math.max(0, 1 - miss ** 2);
+  }, 0);
   let rival: { score: number; pairs: LampPair[] } = { score: 0, pairs: [] };
   for (const h of coarseRivals) {
     const near = candidatesNear(
@@ -51,12 +59,12 @@ export function rivalDrift(
       (u) => middle + (u - middle) * h.stretch + h.shift,
     ).filter((c) => !chosen.has(`${c.pair.lineIndex}:${c.pair.peakIndex}`));
     let found = driftConsensus(near, tolerance, maxStretch, departs);
-    if (found && chosenIsDaily && !isDaily(found.at) && found.score <= fitted.score)
+    if (found && chosenIsDaily && !isDaily(found.at) && found.score <= chosenScore)
       found = driftConsensus(near, tolerance, maxStretch, (at) => departs(at) && isDaily(at));
     if (found && found.score > rival.score) {
       rival = {
         score: found.score,
-        pairs: onDrift(near, found.at, CONSENSUS_REACH * tolerance).map((c) => c.pair),
+        pairs: onDrift(near, found.at, reach).map((c) => c.pair),
       };
     }
   }
