@@ -70,6 +70,11 @@ const COUNT = 300;
  * %.
  */
 const SILENT_WRONG_FLOOR = 0.005;
+
+/** The sweep's headline figures, for the floors below and for whoever raises them. */
+function printHead(records: SweepRecord[], title: string): void {
+  console.log(formatSweep(records, title).split("\n").slice(0, 4).join("\n"));
+}
 const SUCCESS_FLOOR = 0.68;
 /**
  * Recalibration from the previous calibration, 100 instruments: success 90.3 % of 93 eligible and no
@@ -95,13 +100,7 @@ describe("automatic calibration over 300 realistic instruments", () => {
   beforeAll(() => {
     records = runSweep({ seed: SEED, n: COUNT, lamp: { pixels: 2048 } });
     summary = summarise(records);
-    // The figures, for the floors below and for whoever raises them.
-    console.log(
-      formatSweep(records, `unit sweep: seed ${SEED}, n ${COUNT}, 2048-pixel arrays`)
-        .split("\n")
-        .slice(0, 4)
-        .join("\n"),
-    );
+    printHead(records, `unit sweep: seed ${SEED}, n ${COUNT}, 2048-pixel arrays`);
   }, 900_000);
 
   it("never throws", () => {
@@ -131,12 +130,7 @@ describe("recalibration from the previous calibration over 100 realistic instrum
       lamp: { pixels: 2048 },
     });
     summary = summarise(records);
-    console.log(
-      formatSweep(records, `unit sweep, previous calibration: seed ${SEED}, n ${PREVIOUS_COUNT}`)
-        .split("\n")
-        .slice(0, 4)
-        .join("\n"),
-    );
+    printHead(records, `unit sweep, previous calibration: seed ${SEED}, n ${PREVIOUS_COUNT}`);
   }, 900_000);
 
   it("never throws", () => {
@@ -168,12 +162,7 @@ describe("recalibration after a realignment over 60 realistic instruments", () =
       change: "realignment",
       lamp: { pixels: 2048 },
     });
-    console.log(
-      formatSweep(records, `unit sweep, realigned since the previous calibration: seed ${SEED}`)
-        .split("\n")
-        .slice(0, 4)
-        .join("\n"),
-    );
+    printHead(records, `unit sweep, realigned since the previous calibration: seed ${SEED}`);
   }, 900_000);
 
   it("never throws", () => {
