@@ -10,7 +10,9 @@
 // PDF report of a draft run, rendered every time), --instances K (1: K app instances on one database,
 // clients spread over them in turn, as behind a round-robin balancer), --demo-only (skip the realistic
 // lab's volume), --build (run `next build` first; otherwise the existing .next is used when there is
-// one), --json. Ports: EMBERLINE_LOAD_PORT (3900) and the ones after it.
+// one), --keep-lab (reuse the last run's database: faster, but its notebooks and runs grow with every
+// run's writes, so its figures do not compare with a fresh lab's), --json. Ports: EMBERLINE_LOAD_PORT
+// (3900) and the ones after it.
 import fs from "node:fs";
 import path from "node:path";
 import { spawnSync } from "node:child_process";
@@ -371,6 +373,8 @@ async function main() {
   const database = process.env.EMBERLINE_LOAD_DB_NAME ?? "emberline_load";
   const { env, stopCluster } = await bootstrap({
     database,
+    // Each run starts from the same lab, so runs before and after a change measure the same data.
+    freshDatabase: !args.includes("--keep-lab"),
     mailPort: Number(process.env.EMBERLINE_SMTP_PORT ?? 2525),
     mailDir: "mail-load",
   });
