@@ -11,7 +11,8 @@
 // clients spread over them in turn, as behind a round-robin balancer), --demo-only (skip the realistic
 // lab's volume), --build (run `next build` first; otherwise the existing .next is used when there is
 // one), --keep-lab (reuse the last run's database: faster, but its notebooks and runs grow with every
-// run's writes, so its figures do not compare with a fresh lab's), --json. Ports: EMBERLINE_LOAD_PORT
+// run's writes, so its figures do not compare with a fresh lab's; a database whose name does not end
+// in "_load" is always kept), --json. Ports: EMBERLINE_LOAD_PORT
 // (3900) and the ones after it.
 import fs from "node:fs";
 import path from "node:path";
@@ -373,8 +374,10 @@ async function main() {
   const database = process.env.EMBERLINE_LOAD_DB_NAME ?? "emberline_load";
   const { env, stopCluster } = await bootstrap({
     database,
-    // Each run starts from the same lab, so runs before and after a change measure the same data.
-    freshDatabase: !args.includes("--keep-lab"),
+    // Each run starts from the same lab, so runs before and after a change measure the same data. Only
+    // a bench database (its name ends in "_load") is ever dropped: EMBERLINE_LOAD_DB_NAME naming the
+    // app's own database keeps it, as --keep-lab does.
+    freshDatabase: !args.includes("--keep-lab") && database.endsWith("_load"),
     mailPort: Number(process.env.EMBERLINE_SMTP_PORT ?? 2525),
     mailDir: "mail-load",
   });
