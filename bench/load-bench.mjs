@@ -12,8 +12,7 @@
 // lab's volume), --build (run `next build` first; otherwise the existing .next is used when there is
 // one), --keep-lab (reuse the last run's database: faster, but its notebooks and runs grow with every
 // run's writes, so its figures do not compare with a fresh lab's; a database whose name does not end
-// in "_load" is always kept), --json. Ports: EMBERLINE_LOAD_PORT
-// (3900) and the ones after it.
+// in "_load" is always kept), --json. Ports: EMBERLINE_LOAD_PORT (3900) and the ones after it.
 import fs from "node:fs";
 import path from "node:path";
 import { spawnSync } from "node:child_process";

@@ -17,20 +17,27 @@ import {
   type ReleaseSummaryDbRow,
 } from "./line-library-rows";
 
+/** The first release matching `where`, with the given columns. */
+async function firstRelease<Row extends object>(
+  columns: string,
+  where: string,
+  bind: unknown[],
+  transaction?: Transaction,
+): Promise<Row | null> {
+  const rows = await sequelize.query<Row>(`SELECT ${columns} FROM ${RELEASE_FROM} WHERE ${where}`, {
+    bind,
+    type: QueryTypes.SELECT,
+    transaction,
+  });
+  return rows[0] ?? null;
+}
+
 export async function selectRelease(
   where: string,
   bind: unknown[],
   transaction?: Transaction,
 ): Promise<ReleaseDbRow | null> {
-  const rows = await sequelize.query<ReleaseDbRow>(
-    `SELECT ${RELEASE_SELECT} FROM ${RELEASE_FROM} WHERE ${where}`,
-    {
-      bind,
-      type: QueryTypes.SELECT,
-      transaction,
-    },
-  );
-  return rows[0] ?? null;
+  return firstRelease<ReleaseDbRow>(RELEASE_SELECT, where, bind, transaction);
 }
 
 /** The first release matching `where`, with its number of lines (see `RELEASE_LINE_COUNT`). */
@@ -38,11 +45,14 @@ export async function selectReleaseSummary(
   where: string,
   bind: unknown[],
 ): Promise<ReleaseSummaryDbRow | null> {
-  const rows = await sequelize.query<ReleaseSummaryDbRow>(
-    `SELECT ${RELEASE_SELECT}, ${RELEASE_LINE_COUNT} FROM ${RELEASE_FROM} WHERE ${where}`,
-    { bind, type: QueryTypes.SELECT },
-  );
-  return rows[0] ?? null;
+  return firstRelease<ReleaseSummaryDbRow>(`${RELEASE_SELECT}, ${RELEASE_LINE_COUNT}`, where, bind);
+}
+
+/** `release` when the actor may see it (404 when there is none or it is another team's). */
+export function seenBy<Row extends ReleaseDbRow>(actor: Actor, release: Row | null): Row {
+  if (!release) throw notFound("No such release.");
+  authorize(actor, "lines.view", { teamId: release.team_id });
+  return release;
 }
 
 /** A release the actor may see (404 for another team's, whatever the reason). */
@@ -51,10 +61,7 @@ export async function visibleRelease(
   releaseId: string,
   transaction?: Transaction,
 ): Promise<ReleaseDbRow> {
-  const release = await selectRelease("r.id = $1", [releaseId], transaction);
-  if (!release) throw notFound("No such release.");
-  authorize(actor, "lines.view", { teamId: release.team_id });
-  return release;
+  return seenBy(actor, await selectRelease("r.id = $1", [releaseId], transaction));
 }
 
 /**

@@ -17,12 +17,7 @@ import {
   type ReleaseDbRow,
   type ReleaseSummaryDbRow,
 } from "./line-library-rows";
-import {
-  selectLines,
-  selectRelease,
-  selectReleaseSummary,
-  visibleRelease,
-} from "./line-library-access";
+import { seenBy, selectLines, selectRelease, selectReleaseSummary } from "./line-library-access";
 import type {
   LineHistoryEntry,
   LinePage,
@@ -45,8 +40,7 @@ export async function fetchReleases(actor: Actor, teamId: string): Promise<Relea
 }
 
 export async function fetchRelease(actor: Actor, releaseId: string): Promise<ReleaseSummary> {
-  const release = await visibleRelease(actor, releaseId);
-  return toReleaseSummary((await selectReleaseSummary("r.id = $1", [release.id]))!);
+  return toReleaseSummary(seenBy(actor, await selectReleaseSummary("r.id = $1", [releaseId])));
 }
 
 /** The release a query names, or the team's newest published one (the draft when none is published). */

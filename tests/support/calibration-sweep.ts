@@ -3,7 +3,12 @@
 import { calibrateLamp, type CalibrateLampOptions } from "@/lib/spectrum/analysis/calibrate-lamp";
 import { evaluateCalibration, fitCalibration } from "@/lib/spectrum/calibration";
 import type { CalibrationModel, FitCalibrationOptions } from "@/lib/spectrum/calibration";
-import { realisticLamp, type RealisticLamp, type RealisticLampOptions } from "./realistic-lamp";
+import {
+  realisticLamp,
+  type RealisticLamp,
+  type RealisticLampOptions,
+  type RecordingChange,
+} from "./realistic-lamp";
 
 /** Probe pixels per calibration, evenly spread over its covered range (ends included). */
 const PROBES = 5;
@@ -72,7 +77,7 @@ export interface SweepOptions {
   /** Calibrate the re-recorded instrument starting from the first recording's calibration. */
   withPrevious?: boolean;
   /** What happened to the instrument between the two recordings. @default "day" */
-  change?: "day" | "realignment";
+  change?: RecordingChange;
   /** Extra calibration options. */
   calibrate?: Partial<CalibrateLampOptions>;
 }

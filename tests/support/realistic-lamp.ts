@@ -174,6 +174,9 @@ export interface RealisticLampOptions {
   direction?: 1 | -1;
 }
 
+/** What happened to an instrument between two recordings: a day's drift, or a realignment. */
+export type RecordingChange = "day" | "realignment";
+
 export interface RealisticLamp {
   seed: number;
   x: Float64Array;
@@ -205,7 +208,7 @@ export interface RealisticLamp {
    * of up to ±0.3 %), or after a realignment (a shift of 1.2–3 % of the array either way and a stretch of
    * up to ±1 %).
    */
-  rerecord: (seed: number, change?: "day" | "realignment") => RealisticLamp;
+  rerecord: (seed: number, change?: RecordingChange) => RealisticLamp;
 }
 
 interface Axis {
@@ -395,7 +398,7 @@ function toLamp(design: Design, noiseSeed: number): RealisticLamp {
     missingFraction: design.missingFraction,
     saturatedLines: design.saturatedLines,
     hotPixels: hot,
-    rerecord: (seed: number, change: "day" | "realignment" = "day") => {
+    rerecord: (seed: number, change: RecordingChange = "day") => {
       const random = makeRandom(seed ^ 0x5bd1e995).uniform;
       // Another day: the axis moves by up to ±3 px and stretches by up to ±0.3 % (temperature). A
       // realignment (a knock, a serviced mount) moves it by 1.2–3 % of the array, beyond a day's 1 %

@@ -39,14 +39,26 @@ export function driftConsensus(
         at = refitted.at;
         kept = onDrift(candidates, at, reach);
       }
-      const score = kept.reduce(
-        (sum, c) => sum + c.weight * (1 - ((c.pair.x - at(c.u)) / reach) ** 2),
-        0,
-      );
+      const score = tightScore(kept, at, reach);
       if ((!best || score > best.score) && accept(at)) best = { score, at };
     }
   }
   return best;
+}
+
+/**
+ * The consensus's score of the candidates a drift keeps: each line's weight, less the more it misses
+ * the drift `at`, nothing from `reach` on.
+ */
+export function tightScore(
+  kept: readonly Candidate[],
+  at: (u: number) => number,
+  reach: number,
+): number {
+  return kept.reduce(
+    (sum, c) => sum + c.weight * Math.max(0, 1 - ((c.pair.x - at(c.u)) / reach) ** 2),
+    0,
+  );
 }
 
 /** x = x̄ + stretch·(u − ū) by ordinary least squares (the consensus's quick refit); null when u does not vary. */

@@ -2,7 +2,7 @@
 // lamp lines agree as tightly, each on another peak than the chosen drift gives it.
 import { candidatesNear } from "./candidates-near";
 import { dailyDriftShare } from "./daily-drift-share";
-import { driftConsensus } from "./drift-consensus";
+import { driftConsensus, tightScore } from "./drift-consensus";
 import type { LampPair } from "./lamp-pairing-types";
 import { onDrift } from "./on-drift";
 import type { PairingContext } from "./pairing-context";
@@ -41,13 +41,15 @@ export function rivalDrift(
     dailyDriftShare({ stretch: at(1) - at(0), offset: at(0) }, context.domain) <= 1;
   const chosenIsDaily = dailyDriftShare(drift, context.domain) <= 1;
   const reach = CONSENSUS_REACH * tolerance;
-  const predictedOf = new Map(predicted.map((p) => [p.line, p]));
-  const chosenScore = pairs.reduce((sum, pair) => {
-    const line = predictedOf.get(pair.lineIndex);
-    if (!line) return sum;
-    const miss = (pair.x - (drift.stretch * line.u + drift.offset)) / reach;
-    return sum + line.weight * Math.max(0, 1 - miss ** 2);
-  }, 0);
+  let chosenScore = Infinity;
+  if (chosenIsDaily) {
+    const predictedOf = new Map(predicted.map((p) => [p.line, p]));
+    const chosenCandidates = pairs.flatMap((pair) => {
+      const line = predictedOf.get(pair.lineIndex);
+      return line ? [{ pair, u: line.u, weight: line.weight, reach }] : [];
+    });
+    chosenScore = tightScore(chosenCandidates, (u) => drift.stretch * u + drift.offset, reach);
+  }
   let rival: { score: number; pairs: LampPair[] } = { score: 0, pairs: [] };
   for (const h of coarseRivals) {
     const near = candidatesNear(
