@@ -2,7 +2,10 @@
 // lower envelope of a spectrum, suited to a flame's broad, curved continuum.
 import { assertFiniteArray } from "./assert-finite-array";
 import { assertIntegerInRange } from "./assert-integer-in-range";
-import { solveSymmetricPentadiagonal } from "./solve-symmetric-pentadiagonal";
+import {
+  pentadiagonalWorkspace,
+  solveSymmetricPentadiagonal,
+} from "./solve-symmetric-pentadiagonal";
 
 export interface AsymmetricLeastSquaresOptions {
   /**
@@ -58,13 +61,14 @@ export function asymmetricLeastSquares(
   const diagonal = new Float64Array(n);
   const rhs = new Float64Array(n);
   const weights = new Float64Array(n).fill(1);
-  let baseline: Float64Array = new Float64Array(n);
+  const baseline = new Float64Array(n);
+  const workspace = pentadiagonalWorkspace(n);
   for (let iteration = 0; iteration < maxIterations; iteration++) {
     for (let i = 0; i < n; i++) {
       diagonal[i] = weights[i] + lambda * penaltyDiagonal[i];
       rhs[i] = weights[i] * y[i];
     }
-    baseline = solveSymmetricPentadiagonal({ diagonal, upper1, upper2 }, rhs);
+    solveSymmetricPentadiagonal({ diagonal, upper1, upper2 }, rhs, baseline, workspace);
     let changed = false;
     for (let i = 0; i < n; i++) {
       const weight = y[i] > baseline[i] ? asymmetry : 1 - asymmetry;

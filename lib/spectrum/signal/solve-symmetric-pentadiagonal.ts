@@ -10,50 +10,88 @@ export interface SymmetricPentadiagonal {
   upper2: Float64Array;
 }
 
+/** Scratch arrays of length n for repeated solves of one size (the baseline solves ten in a row). */
+export interface PentadiagonalWorkspace {
+  pivots: Float64Array;
+  lower1: Float64Array;
+  lower2: Float64Array;
+}
+
+export function pentadiagonalWorkspace(n: number): PentadiagonalWorkspace {
+  return {
+    pivots: new Float64Array(n),
+    lower1: new Float64Array(n),
+    lower2: new Float64Array(n),
+  };
+}
+
 /**
  * Solves A·x = rhs by an LDLᵀ factorisation that keeps only the two sub-diagonals of L,
  * so time and memory stay linear (a dense solve at a million points is out of the question).
- * A must be symmetric positive definite; a non-positive pivot throws a RangeError.
+ * A must be symmetric positive definite; a non-positive pivot throws a RangeError. `out` receives
+ * x (a new array when omitted) and `workspace` holds the factors (fresh ones when omitted).
  */
 export function solveSymmetricPentadiagonal(
   matrix: SymmetricPentadiagonal,
   rhs: Float64Array,
+  out: Float64Array = new Float64Array(matrix.diagonal.length),
+  workspace: PentadiagonalWorkspace = pentadiagonalWorkspace(matrix.diagonal.length),
 ): Float64Array {
   const { diagonal, upper1, upper2 } = matrix;
   const n = diagonal.length;
-  if (rhs.length !== n || (n > 1 && upper1.length < n - 1) || (n > 2 && upper2.length < n - 2)) {
+  const { pivots: d, lower1: l1, lower2: l2 } = workspace;
+  if (
+    rhs.length !== n ||
+    out.length !== n ||
+    d.length < n ||
+    l1.length < n ||
+    l2.length < n ||
+    (n > 1 && upper1.length < n - 1) ||
+    (n > 2 && upper2.length < n - 2)
+  ) {
     throw new RangeError(
       `band lengths do not match: n = ${n}, rhs ${rhs.length}, bands ${upper1.length}/${upper2.length}`,
     );
   }
-  const d = new Float64Array(n);
-  const l1 = new Float64Array(Math.max(n - 1, 0));
-  const l2 = new Float64Array(Math.max(n - 2, 0));
+  // Rows before the first and past the last count as zero (their factors and unknowns), so one
+  // branch-free loop body serves every row: the two leading rows go through the same body with
+  // their missing neighbours read as 0 from the locals below.
+  const x = out;
+  let d2 = 0,
+    d1 = 0,
+    a2 = 0,
+    a1 = 0,
+    b1 = 0,
+    x2 = 0,
+    x1 = 0;
   for (let i = 0; i < n; i++) {
-    let pivot = diagonal[i];
-    if (i >= 1) pivot -= l1[i - 1] * l1[i - 1] * d[i - 1];
-    if (i >= 2) pivot -= l2[i - 2] * l2[i - 2] * d[i - 2];
+    const pivot = diagonal[i] - a1 * a1 * d1 - a2 * a2 * d2;
     if (!(pivot > 0))
       throw new RangeError(`matrix is not positive definite (pivot ${pivot} at row ${i})`);
     d[i] = pivot;
-    if (i < n - 1) {
-      let coupling = upper1[i];
-      if (i >= 1) coupling -= l1[i - 1] * l2[i - 1] * d[i - 1];
-      l1[i] = coupling / pivot;
-    }
-    if (i < n - 2) l2[i] = upper2[i] / pivot;
-  }
-  const x = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    let value = rhs[i];
-    if (i >= 1) value -= l1[i - 1] * x[i - 1];
-    if (i >= 2) value -= l2[i - 2] * x[i - 2];
+    const coupling = i < n - 1 ? (upper1[i] - a1 * b1 * d1) / pivot : 0;
+    const skip = i < n - 2 ? upper2[i] / pivot : 0;
+    l1[i] = coupling;
+    l2[i] = skip;
+    // Forward substitution with L, in the same pass.
+    const value = rhs[i] - a1 * x1 - a2 * x2;
     x[i] = value;
+    d2 = d1;
+    d1 = pivot;
+    a2 = b1;
+    a1 = coupling;
+    b1 = skip;
+    x2 = x1;
+    x1 = value;
   }
-  for (let i = 0; i < n; i++) x[i] /= d[i];
+  // Division by D, then back substitution with Lᵀ.
+  let y1 = 0,
+    y2 = 0;
   for (let i = n - 1; i >= 0; i--) {
-    if (i < n - 1) x[i] -= l1[i] * x[i + 1];
-    if (i < n - 2) x[i] -= l2[i] * x[i + 2];
+    const value = x[i] / d[i] - l1[i] * y1 - l2[i] * y2;
+    x[i] = value;
+    y2 = y1;
+    y1 = value;
   }
   return x;
 }

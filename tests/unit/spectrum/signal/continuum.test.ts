@@ -8,6 +8,7 @@ import {
   modifiedPolynomialBaseline,
   solveSymmetricPentadiagonal,
 } from "@/lib/spectrum/signal";
+import { pentadiagonalWorkspace } from "@/lib/spectrum/signal/solve-symmetric-pentadiagonal";
 import { SOURCE_KINDS } from "@/lib/spectrum/types";
 import { makeRandom } from "@/lib/spectrum/statistics/make-random";
 
@@ -20,23 +21,33 @@ function lines(i: number): number {
 }
 
 describe("solveSymmetricPentadiagonal", () => {
-  it("agrees with a dense solve on a random diagonally dominant system", () => {
+  it("agrees with a dense solve on random diagonally dominant systems, the edge sizes too", () => {
     const { uniform } = makeRandom(5);
-    const n = 30;
-    const diagonal = Float64Array.from({ length: n }, () => 10 + uniform());
-    const upper1 = Float64Array.from({ length: n - 1 }, () => uniform() * 2 - 1);
-    const upper2 = Float64Array.from({ length: n - 2 }, () => uniform() * 2 - 1);
-    const rhs = Float64Array.from({ length: n }, () => uniform() * 10);
-    const dense = Matrix.zeros(n, n);
-    for (let i = 0; i < n; i++) {
-      dense.set(i, i, diagonal[i]);
-      if (i < n - 1) dense.set(i, i + 1, upper1[i]).set(i + 1, i, upper1[i]);
-      if (i < n - 2) dense.set(i, i + 2, upper2[i]).set(i + 2, i, upper2[i]);
+    // One workspace and one output for every size: a reused factorisation must not leak into the
+    // next solve (the baseline reuses them for its ten passes).
+    const workspace = pentadiagonalWorkspace(30);
+    for (const n of [1, 2, 3, 4, 30, 17]) {
+      const diagonal = Float64Array.from({ length: n }, () => 10 + uniform());
+      const upper1 = Float64Array.from({ length: Math.max(n - 1, 0) }, () => uniform() * 2 - 1);
+      const upper2 = Float64Array.from({ length: Math.max(n - 2, 0) }, () => uniform() * 2 - 1);
+      const rhs = Float64Array.from({ length: n }, () => uniform() * 10);
+      const dense = Matrix.zeros(n, n);
+      for (let i = 0; i < n; i++) {
+        dense.set(i, i, diagonal[i]);
+        if (i < n - 1) dense.set(i, i + 1, upper1[i]).set(i + 1, i, upper1[i]);
+        if (i < n - 2) dense.set(i, i + 2, upper2[i]).set(i + 2, i, upper2[i]);
+      }
+      const expected = solve(dense, Matrix.columnVector(Array.from(rhs))).getColumn(0);
+      const fresh = solveSymmetricPentadiagonal({ diagonal, upper1, upper2 }, rhs);
+      fresh.forEach((v, i) => expect(v).toBeCloseTo(expected[i], 10));
+      const reused = solveSymmetricPentadiagonal(
+        { diagonal, upper1, upper2 },
+        rhs,
+        new Float64Array(n),
+        workspace,
+      );
+      expect(Array.from(reused)).toEqual(Array.from(fresh));
     }
-    const expected = solve(dense, Matrix.columnVector(Array.from(rhs))).getColumn(0);
-    solveSymmetricPentadiagonal({ diagonal, upper1, upper2 }, rhs).forEach((v, i) =>
-      expect(v).toBeCloseTo(expected[i], 10),
-    );
   });
 
   it("refuses a matrix that is not positive definite", () => {
