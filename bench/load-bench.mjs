@@ -1,8 +1,10 @@
 // `npm run bench -- --load`: the production build under load on loopback. Starts its own database
 // (emberline_load: the demo lab topped up to a busy lab's volume by bench/load-lab.mjs), the built
-// app on its own port (or several instances on one database), signs in the demo people, measures
-// each route's CPU per request (app and PostgreSQL) with one client, then runs clients for a fixed
-// time with mixed reads and writes — once without PDF reports and once with them in the mix — and
+// app on its own port (or several instances on one database), signs in the demo people, has each writing
+// client analyse the same flame sample against the lab's release (the first flame run of the notebooks in
+// title order, so every run of the bench reads records of one size), measures each route's CPU per
+// request (app and PostgreSQL) with one client, then runs clients for a fixed time with mixed reads
+// and writes — once without PDF reports and once with them in the mix — and
 // prints per-route p50/p95/p99, throughput, errors, CPU per request, and reads' p95 with PDFs against
 // without. Bounded in clients, time and requests; loopback only; stops by itself.
 //
