@@ -50,7 +50,8 @@ export function solveSymmetricPentadiagonal(
     (n > 2 && upper2.length < n - 2)
   ) {
     throw new RangeError(
-      `band lengths do not match: n = ${n}, rhs ${rhs.length}, bands ${upper1.length}/${upper2.length}`,
+      `band lengths do not match: n = ${n}, rhs ${rhs.length}, bands ${upper1.length}/${upper2.length}, ` +
+        `out ${out.length}, workspace ${Math.min(d.length, l1.length, l2.length)}`,
     );
   }
   // Rows before the first and past the last count as zero (their factors and unknowns), so one

@@ -50,6 +50,19 @@ describe("solveSymmetricPentadiagonal", () => {
     }
   });
 
+  it("refuses an output or a workspace shorter than the system", () => {
+    const system = {
+      diagonal: Float64Array.of(4, 4, 4),
+      upper1: Float64Array.of(1, 1),
+      upper2: Float64Array.of(0.5),
+    };
+    const rhs = Float64Array.of(1, 2, 3);
+    expect(() => solveSymmetricPentadiagonal(system, rhs, new Float64Array(2))).toThrow(/out 2/);
+    expect(() =>
+      solveSymmetricPentadiagonal(system, rhs, new Float64Array(3), pentadiagonalWorkspace(2)),
+    ).toThrow(/workspace 2/);
+  });
+
   it("refuses a matrix that is not positive definite", () => {
     expect(() =>
       solveSymmetricPentadiagonal(
