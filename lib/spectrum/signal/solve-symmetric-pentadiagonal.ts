@@ -10,13 +10,15 @@ export interface SymmetricPentadiagonal {
   upper2: Float64Array;
 }
 
-/** Scratch arrays of length n for repeated solves of one size (the baseline solves ten in a row). */
+/** Scratch arrays for repeated solves (the baseline solves ten in a row): each at least as long as
+ * the system; every entry a solve reads it has written first, so one workspace serves any smaller size. */
 export interface PentadiagonalWorkspace {
   pivots: Float64Array;
   lower1: Float64Array;
   lower2: Float64Array;
 }
 
+/** A workspace for systems of up to n unknowns. */
 export function pentadiagonalWorkspace(n: number): PentadiagonalWorkspace {
   return {
     pivots: new Float64Array(n),
@@ -28,8 +30,9 @@ export function pentadiagonalWorkspace(n: number): PentadiagonalWorkspace {
 /**
  * Solves A·x = rhs by an LDLᵀ factorisation that keeps only the two sub-diagonals of L,
  * so time and memory stay linear (a dense solve at a million points is out of the question).
- * A must be symmetric positive definite; a non-positive pivot throws a RangeError. `out` receives
- * x (a new array when omitted) and `workspace` holds the factors (fresh ones when omitted).
+ * A must be symmetric positive definite; a non-positive pivot throws a RangeError. `out` (of length n)
+ * receives x, a new array when omitted; `workspace` holds the factors, fresh ones when omitted. After
+ * a RangeError for a pivot, `out` holds a partly done forward pass.
  */
 export function solveSymmetricPentadiagonal(
   matrix: SymmetricPentadiagonal,
@@ -50,13 +53,13 @@ export function solveSymmetricPentadiagonal(
     (n > 2 && upper2.length < n - 2)
   ) {
     throw new RangeError(
-      `band lengths do not match: n = ${n}, rhs ${rhs.length}, bands ${upper1.length}/${upper2.length}, ` +
+      `lengths do not match: n = ${n}, rhs ${rhs.length}, bands ${upper1.length}/${upper2.length}, ` +
         `out ${out.length}, workspace ${Math.min(d.length, l1.length, l2.length)}`,
     );
   }
-  // Rows before the first and past the last count as zero (their factors and unknowns), so one
-  // branch-free loop body serves every row: the two leading rows go through the same body with
-  // their missing neighbours read as 0 from the locals below.
+  // One loop factorises and substitutes forwards. The previous rows' factors and unknowns are carried
+  // in the locals below, which start at 0, so the first two rows need no case of their own; the last
+  // two set their couplings past the matrix's edge to 0, which the backward pass then multiplies.
   const x = out;
   let d2 = 0,
     d1 = 0,
