@@ -4,9 +4,8 @@
 // client analyse the same flame sample against the lab's release (the first flame run of the notebooks in
 // title order, so every run of the bench reads records of one size), measures each route's CPU per
 // request (app and PostgreSQL) with one client, then runs clients for a fixed time with mixed reads
-// and writes — once without PDF reports and once with them in the mix — and
-// prints per-route p50/p95/p99, throughput, errors, CPU per request, and reads' p95 with PDFs against
-// without. Bounded in clients, time and requests; loopback only; stops by itself.
+// and writes — once without PDF reports and once with them in the mix — and prints per-route
+// p50/p95/p99, throughput, errors, CPU per request, and reads' p95 with PDFs against without. Bounded in clients, time and requests; loopback only; stops by itself.
 //
 // Options: --clients N (50), --seconds S (30), --pdf-share F (0.05: share of requests that download a
 // PDF report of a draft run, rendered every time), --instances K (1: K app instances on one database,

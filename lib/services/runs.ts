@@ -470,9 +470,8 @@ export async function overrideCall(
 
 /**
  * Saves the run's notes when `lockVersion` is the one stored (else 409); author only, while editable.
- * Answers the notes' own record: the row is read
- * without its analysis (the calls alone are hundreds of kilobytes against a large table), which a
- * notes save neither changes nor needs to send back.
+ * Answers the notes' own record: the row is read without its analysis (the calls alone are hundreds
+ * of kilobytes against a large table), which a notes save neither changes nor needs to send back.
  */
 export async function updateRunNotes(
   actor: Actor,

@@ -2,10 +2,11 @@
 // refitted by weighted least squares until its pairs settle.
 import { candidatesNear } from "./candidates-near";
 import { driftBend } from "./drift-bend";
-import { driftConsensus } from "./drift-consensus";
+import { driftConsensus, tightScore } from "./drift-consensus";
 import type { LampPair } from "./lamp-pairing-types";
 import { onDrift } from "./on-drift";
 import type { PairingContext } from "./pairing-context";
+import { CONSENSUS_REACH } from "./recalibration-limits";
 import type { DriftFit, Predicted, StraightFit } from "./recalibration-types";
 import { straightFit } from "./straight-fit";
 
@@ -54,11 +55,18 @@ export function fitDrift(
     );
     rejected.push(nearest.pair);
   }
+  const byX = kept.slice().sort((a, b) => a.pair.x - b.pair.x);
+  const { drift } = line;
   return {
-    pairs: kept.map((c) => c.pair).sort((a, b) => a.x - b.x),
+    pairs: byX.map((c) => c.pair),
     score: kept.reduce((sum, c) => sum + c.weight, 0),
+    tightScore: tightScore(
+      byX,
+      (u) => drift.stretch * u + drift.offset,
+      CONSENSUS_REACH * tolerance,
+    ),
     rejected,
-    drift: line.drift,
+    drift,
     scatterX: line.scatter,
     bendX: driftBend(kept, line, context.domain),
   };

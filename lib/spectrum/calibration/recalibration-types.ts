@@ -24,6 +24,9 @@ export interface DriftFit {
   pairs: LampPair[];
   /** Summed weight of the lines on the drift. */
   score: number;
+  /** The pairs' score as the consensus scores lines (by weight and how tightly each sits on the fitted
+   * drift, within CONSENSUS_REACH tolerances): what a rival drift is held against (rival-drift.ts). */
+  tightScore: number;
   rejected: LampPair[];
   drift: LinearDrift;
   /** RMS of the kept pairs about the drift, x units (dof-corrected). */

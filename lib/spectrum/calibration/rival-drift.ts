@@ -2,7 +2,7 @@
 // lamp lines agree as tightly, each on another peak than the chosen drift gives it.
 import { candidatesNear } from "./candidates-near";
 import { dailyDriftShare } from "./daily-drift-share";
-import { driftConsensus, tightScore } from "./drift-consensus";
+import { driftConsensus } from "./drift-consensus";
 import type { LampPair } from "./lamp-pairing-types";
 import { onDrift } from "./on-drift";
 import type { PairingContext } from "./pairing-context";
@@ -40,16 +40,7 @@ export function rivalDrift(
   const isDaily = (at: (u: number) => number) =>
     dailyDriftShare({ stretch: at(1) - at(0), offset: at(0) }, context.domain) <= 1;
   const chosenIsDaily = dailyDriftShare(drift, context.domain) <= 1;
-  const reach = CONSENSUS_REACH * tolerance;
-  let chosenScore = Infinity;
-  if (chosenIsDaily) {
-    const predictedOf = new Map(predicted.map((p) => [p.line, p]));
-    const chosenCandidates = pairs.flatMap((pair) => {
-      const line = predictedOf.get(pair.lineIndex);
-      return line ? [{ pair, u: line.u, weight: line.weight, reach }] : [];
-    });
-    chosenScore = tightScore(chosenCandidates, (u) => drift.stretch * u + drift.offset, reach);
-  }
+  const chosenScore = chosenIsDaily ? fitted.tightScore : Infinity;
   let rival: { score: number; pairs: LampPair[] } = { score: 0, pairs: [] };
   for (const h of coarseRivals) {
     const near = candidatesNear(
@@ -66,7 +57,7 @@ export function rivalDrift(
     if (found && found.score > rival.score) {
       rival = {
         score: found.score,
-        pairs: onDrift(near, found.at, reach).map((c) => c.pair),
+        pairs: onDrift(near, found.at, CONSENSUS_REACH * tolerance).map((c) => c.pair),
       };
     }
   }

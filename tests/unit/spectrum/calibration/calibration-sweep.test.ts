@@ -70,11 +70,6 @@ const COUNT = 300;
  * %.
  */
 const SILENT_WRONG_FLOOR = 0.005;
-
-/** The sweep's headline figures, for the floors below and for whoever raises them. */
-function printHead(records: SweepRecord[], title: string): void {
-  console.log(formatSweep(records, title).split("\n").slice(0, 4).join("\n"));
-}
 const SUCCESS_FLOOR = 0.68;
 /**
  * Recalibration from the previous calibration, 100 instruments: success 90.3 % of 93 eligible and no
@@ -93,6 +88,11 @@ const SUCCESS_FLOOR = 0.68;
 const PREVIOUS_COUNT = 100;
 const PREVIOUS_SUCCESS_FLOOR = 0.88;
 const PREVIOUS_SILENT_WRONG_FLOOR = 0.005;
+
+/** The sweep's headline figures, for the floors here and for whoever raises them. */
+function printHead(records: SweepRecord[], title: string): void {
+  console.log(formatSweep(records, title).split("\n").slice(0, 4).join("\n"));
+}
 
 describe("automatic calibration over 300 realistic instruments", () => {
   let records: SweepRecord[] = [];
